@@ -1,0 +1,41 @@
+import { type DynamicModule, Module } from '@nestjs/common';
+import { APP_FILTER, APP_GUARD } from '@nestjs/core';
+import { AuthModule } from './auth/auth.module.js';
+import { JwtAuthGuard } from './auth/jwt-auth.guard.js';
+import { AbilityGuard } from './authz/ability.guard.js';
+import { HttpExceptionFilter } from './common/http-exception.filter.js';
+import { ConfigModule } from './config/config.module.js';
+import type { Env } from './config/env.js';
+import { DatabaseModule } from './db/database.module.js';
+import { HealthModule } from './health/health.module.js';
+import { MailModule } from './mail/mail.module.js';
+import { OpenApiModule } from './openapi/openapi.module.js';
+import { PatientsModule } from './patients/patients.module.js';
+import { SitesModule } from './sites/sites.module.js';
+import { StorageModule } from './storage/storage.module.js';
+
+@Module({})
+export class AppModule {
+  static forRoot(env: Env): DynamicModule {
+    return {
+      module: AppModule,
+      imports: [
+        ConfigModule.forRoot(env),
+        DatabaseModule,
+        StorageModule,
+        MailModule,
+        AuthModule,
+        HealthModule,
+        PatientsModule,
+        SitesModule,
+        ...(env.NODE_ENV === 'production' ? [] : [OpenApiModule]),
+      ],
+      providers: [
+        // Order matters: who you are (JWT), then what you may do (CASL).
+        { provide: APP_GUARD, useClass: JwtAuthGuard },
+        { provide: APP_GUARD, useClass: AbilityGuard },
+        { provide: APP_FILTER, useClass: HttpExceptionFilter },
+      ],
+    };
+  }
+}

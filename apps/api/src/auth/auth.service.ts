@@ -1,0 +1,29 @@
+import { Inject, Injectable, UnauthorizedException } from '@nestjs/common';
+import { JwtService } from '@nestjs/jwt';
+import { DB, type Database } from '../db/database.js';
+import { DUMMY_HASH_PROMISE, verifyPassword } from './password.js';
+import type { SessionToken, SessionUser } from './session-user.js';
+import { findSessionUser, findUserForSignIn } from './users.repository.js';
+
+@Injectable()
+export class AuthService {
+  constructor(
+    @Inject(DB) private readonly db: Database,
+    private readonly jwt: JwtService,
+  ) {}
+
+  /** Checks the password and returns the session user with a signed token; 401 with one plain message otherwise. */
+  async signIn(email: string, password: string): Promise<{ user: SessionUser; token: string }> {
+    const found = await findUserForSignIn(this.db, email);
+    // Hash even when the e-mail is unknown, so the answer time does not tell which e-mails exist.
+    const ok = await verifyPassword(password, found?.passwordHash ?? (await DUMMY_HASH_PROMISE));
+    const user = found && ok && found.active ? await findSessionUser(this.db, found.id) : null;
+    if (!user) throw new UnauthorizedException('The e-mail or password is not right');
+    const payload: SessionToken = { sub: user.id };
+    return { user, token: await this.jwt.signAsync(payload) };
+  }
+
+  loadSessionUser(userId: string): Promise<SessionUser | null> {
+    return findSessionUser(this.db, userId);
+  }
+}

@@ -1,0 +1,19 @@
+import type { Role } from '@torquetrail/authz';
+
+/** The signed-in user, loaded fresh from the database on every request. */
+export interface SessionUser {
+  id: string;
+  email: string;
+  displayName: string;
+  role: Role;
+  practiceId: string;
+  practiceName: string;
+  sharedPatientIds: string[];
+}
+
+/** What the session cookie's JWT carries. */
+export interface SessionToken {
+  sub: string;
+}
+
+export const SESSION_COOKIE = 'tt_session';

@@ -1,0 +1,32 @@
+import { ForbiddenException, NotFoundException } from '@nestjs/common';
+import { type Action, type AppAbility, type Subject, subject } from '@torquetrail/authz';
+import type { SessionUser } from '../auth/session-user.js';
+
+/** What a repository needs to scope a query in SQL: the user's practice and their shares. */
+export interface Scope {
+  practiceId: string;
+  sharedPatientIds: readonly string[];
+}
+
+export const scopeOf = (user: SessionUser): Scope => ({ practiceId: user.practiceId, sharedPatientIds: user.sharedPatientIds });
+
+/**
+ * Row-level check of a loaded row. A row the user may not see answers 404, exactly like a row
+ * that does not exist, so existence does not leak across practices; a row they may see but not
+ * change answers 403.
+ */
+export function assertCan<T extends { practiceId: string; patientId?: string; id?: string }>(
+  ability: AppAbility,
+  action: Action,
+  type: Exclude<Subject, 'all'>,
+  row: T | null | undefined,
+  what = 'record',
+): T {
+  if (!row || !ability.can('read', subject(type, { ...row }))) {
+    throw new NotFoundException(`No such ${what}`);
+  }
+  if (action !== 'read' && !ability.can(action, subject(type, { ...row }))) {
+    throw new ForbiddenException(`Your role may not ${action} this ${what}`);
+  }
+  return row;
+}

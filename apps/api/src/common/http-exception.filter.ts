@@ -1,0 +1,41 @@
+import { type ArgumentsHost, Catch, type ExceptionFilter, HttpException, HttpStatus, Logger } from '@nestjs/common';
+import type { Response } from 'express';
+import type { ErrorReply } from '@torquetrail/contracts';
+
+const STATUS_TEXT: Record<number, string> = {
+  400: 'Bad Request',
+  401: 'Unauthorized',
+  403: 'Forbidden',
+  404: 'Not Found',
+  409: 'Conflict',
+  429: 'Too Many Requests',
+  500: 'Internal Server Error',
+};
+
+/** Maps every error to the one ErrorReply shape; unexpected errors are logged, never leaked. */
+@Catch()
+export class HttpExceptionFilter implements ExceptionFilter {
+  private readonly logger = new Logger('HttpExceptionFilter');
+
+  catch(exception: unknown, host: ArgumentsHost): void {
+    const res = host.switchToHttp().getResponse<Response>();
+    let reply: ErrorReply;
+    if (exception instanceof HttpException) {
+      const status = exception.getStatus();
+      const body = exception.getResponse();
+      const obj = typeof body === 'object' && body !== null ? (body as Record<string, unknown>) : {};
+      const raw = typeof body === 'string' ? body : obj.message;
+      const message = Array.isArray(raw) ? raw.join('; ') : typeof raw === 'string' ? raw : exception.message;
+      reply = {
+        statusCode: status,
+        error: STATUS_TEXT[status] ?? 'Error',
+        message,
+        ...(obj.fields ? { fields: obj.fields as Record<string, string> } : {}),
+      };
+    } else {
+      this.logger.error(exception instanceof Error ? exception.stack : String(exception));
+      reply = { statusCode: HttpStatus.INTERNAL_SERVER_ERROR, error: STATUS_TEXT[500]!, message: 'Something went wrong on the server' };
+    }
+    res.status(reply.statusCode).json(reply);
+  }
+}

@@ -1,0 +1,46 @@
+import { z } from 'zod';
+
+/**
+ * The API's configuration, parsed from the environment once at start. The defaults point at
+ * the loopback services that `npm start` runs; a missing or malformed key stops the start
+ * with a message naming it.
+ */
+const EnvSchema = z.object({
+  NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
+  HOST: z.string().default('127.0.0.1'),
+  PORT: z.coerce.number().int().min(0).max(65535).default(3000),
+  DATABASE_URL: z.url(),
+  S3_ENDPOINT: z.url(),
+  S3_REGION: z.string().default('us-east-1'),
+  S3_ACCESS_KEY_ID: z.string().min(1),
+  S3_SECRET_ACCESS_KEY: z.string().min(1),
+  S3_BUCKET: z.string().min(3),
+  SMTP_HOST: z.string().default('127.0.0.1'),
+  SMTP_PORT: z.coerce.number().int().min(1).max(65535),
+  MAIL_FROM: z.string().default('Torquetrail <no-reply@torquetrail.local>'),
+  JWT_SECRET: z.string().min(32, { error: 'JWT_SECRET must be at least 32 characters' }),
+  /** Session length in seconds. */
+  SESSION_TTL_S: z.coerce.number().int().positive().default(8 * 3600),
+  /** Set when served over HTTPS so the session cookie is only sent there. */
+  COOKIE_SECURE: z.enum(['true', 'false']).default('false').transform((v) => v === 'true'),
+  /** Sign-in attempts allowed per e-mail and address per minute. */
+  SIGN_IN_LIMIT_PER_MINUTE: z.coerce.number().int().positive().default(10),
+  /** The built web app to serve from the same origin; unset in API-only tests. */
+  WEB_DIST: z.string().optional(),
+});
+
+export type Env = z.infer<typeof EnvSchema>;
+
+export class ConfigError extends Error {}
+
+export function parseEnv(source: NodeJS.ProcessEnv = process.env): Env {
+  const result = EnvSchema.safeParse(source);
+  if (!result.success) {
+    const problems = result.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`).join('\n');
+    throw new ConfigError(`The API's environment is incomplete:\n${problems}`);
+  }
+  return result.data;
+}
+
+/** Nest injection token for the parsed environment. */
+export const ENV = Symbol('ENV');

@@ -1,0 +1,20 @@
+import { Global, Inject, Module, type OnApplicationShutdown } from '@nestjs/common';
+import type pg from 'pg';
+import { ENV, type Env } from '../config/env.js';
+import { createDatabase, createPool, DB, PG_POOL } from './database.js';
+
+@Global()
+@Module({
+  providers: [
+    { provide: PG_POOL, inject: [ENV], useFactory: (env: Env) => createPool(env.DATABASE_URL) },
+    { provide: DB, inject: [PG_POOL], useFactory: (pool: pg.Pool) => createDatabase(pool) },
+  ],
+  exports: [DB, PG_POOL],
+})
+export class DatabaseModule implements OnApplicationShutdown {
+  constructor(@Inject(PG_POOL) private readonly pool: pg.Pool) {}
+
+  async onApplicationShutdown(): Promise<void> {
+    await this.pool.end();
+  }
+}

@@ -1,0 +1,33 @@
+// Applies the drizzle-kit migrations in ./drizzle to DATABASE_URL. Exits non-zero on failure.
+// The same function migrates the test database, so tests run on what production runs.
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { migrate } from 'drizzle-orm/node-postgres/migrator';
+import { createDatabase, createPool } from './database.js';
+
+export const migrationsFolder = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../../../drizzle');
+
+export async function runMigrations(databaseUrl: string): Promise<void> {
+  const pool = createPool(databaseUrl);
+  try {
+    await migrate(createDatabase(pool), { migrationsFolder });
+  } finally {
+    await pool.end();
+  }
+}
+
+const isMain = process.argv[1] && path.resolve(process.argv[1]) === fileURLToPath(import.meta.url);
+if (isMain) {
+  const url = process.env.DATABASE_URL;
+  if (!url) {
+    console.error('DATABASE_URL is not set');
+    process.exit(2);
+  }
+  runMigrations(url).then(
+    () => console.log('[migrate] database is up to date'),
+    (error: unknown) => {
+      console.error(`[migrate] failed: ${error instanceof Error ? error.message : String(error)}`);
+      process.exit(1);
+    },
+  );
+}

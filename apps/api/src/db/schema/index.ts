@@ -1,0 +1,7 @@
+// The whole schema, one file per area. drizzle-kit reads this file (drizzle.config.ts).
+export * from './enums.js';
+export * from './practices.js';
+export * from './patients.js';
+export * from './catalogue.js';
+export * from './sites.js';
+export * from './restorations.js';

@@ -1,0 +1,84 @@
+import { and, asc, eq, ilike, inArray, or, sql, type SQL } from 'drizzle-orm';
+import type { Db } from '../db/database.js';
+import { implantSites, implantSystems, patients, placements, platforms, practices } from '../db/schema/index.js';
+import type { Scope } from '../authz/scope.js';
+
+/** Patients of the user's practice, plus patients of other practices shared with them. */
+export function visiblePatients(scope: Scope): SQL {
+  const own = eq(patients.practiceId, scope.practiceId);
+  return scope.sharedPatientIds.length > 0 ? or(own, inArray(patients.id, [...scope.sharedPatientIds]))! : own;
+}
+
+const escapeLike = (text: string) => text.replace(/[\\%_]/g, (c) => `\\${c}`);
+
+export async function listPatients(db: Db, scope: Scope, search?: string) {
+  const filters: SQL[] = [visiblePatients(scope)];
+  if (search) {
+    const words = search.split(/\s+/).filter(Boolean).slice(0, 5);
+    for (const word of words) {
+      const pattern = `%${escapeLike(word)}%`;
+      filters.push(or(ilike(patients.givenName, pattern), ilike(patients.familyName, pattern), ilike(patients.chartNumber, pattern))!);
+    }
+  }
+  return db
+    .select({
+      id: patients.id,
+      chartNumber: patients.chartNumber,
+      givenName: patients.givenName,
+      familyName: patients.familyName,
+      birthDate: patients.birthDate,
+      practiceName: practices.name,
+      implantSiteCount: sql<number>`(select count(*)::int from ${implantSites} where ${implantSites.patientId} = ${patients.id})`,
+    })
+    .from(patients)
+    .innerJoin(practices, eq(practices.id, patients.practiceId))
+    .where(and(...filters))
+    .orderBy(asc(patients.familyName), asc(patients.givenName))
+    .limit(200);
+}
+
+export async function findVisiblePatient(db: Db, scope: Scope, id: string) {
+  const [row] = await db
+    .select({
+      id: patients.id,
+      practiceId: patients.practiceId,
+      chartNumber: patients.chartNumber,
+      givenName: patients.givenName,
+      familyName: patients.familyName,
+      birthDate: patients.birthDate,
+      practiceName: practices.name,
+      smoker: patients.smoker,
+      diabetesPoorlyControlled: patients.diabetesPoorlyControlled,
+      periodontitisHistory: patients.periodontitisHistory,
+      missingTeeth: patients.missingTeeth,
+    })
+    .from(patients)
+    .innerJoin(practices, eq(practices.id, patients.practiceId))
+    .where(and(eq(patients.id, id), visiblePatients(scope)));
+  return row ?? null;
+}
+
+/** The sites of one patient with the system of their current placement, for the Arch. */
+export async function listSitesOfPatient(db: Db, patientId: string) {
+  return db
+    .select({
+      id: implantSites.id,
+      practiceId: implantSites.practiceId,
+      patientId: implantSites.patientId,
+      fdi: implantSites.fdi,
+      status: implantSites.status,
+      systemName: implantSystems.name,
+    })
+    .from(implantSites)
+    .leftJoin(
+      placements,
+      and(
+        eq(placements.siteId, implantSites.id),
+        sql`not exists (select 1 from ${placements} p2 where p2.supersedes_id = ${placements.id})`,
+      ),
+    )
+    .leftJoin(platforms, eq(platforms.id, placements.platformId))
+    .leftJoin(implantSystems, eq(implantSystems.id, platforms.systemId))
+    .where(eq(implantSites.patientId, patientId))
+    .orderBy(asc(implantSites.fdi));
+}

@@ -1,0 +1,46 @@
+import { Inject, Injectable } from '@nestjs/common';
+import { type AppAbility, subject } from '@torquetrail/authz';
+import type { PatientDetail, PatientListReply } from '@torquetrail/contracts';
+import { assertCan, type Scope } from '../authz/scope.js';
+import { DB, type Database } from '../db/database.js';
+import { findVisiblePatient, listPatients, listSitesOfPatient } from './patients.repository.js';
+
+@Injectable()
+export class PatientsService {
+  constructor(@Inject(DB) private readonly db: Database) {}
+
+  async list(scope: Scope, search?: string): Promise<PatientListReply> {
+    return { items: await listPatients(this.db, scope, search) };
+  }
+
+  async detail(ability: AppAbility, scope: Scope, id: string): Promise<PatientDetail> {
+    const patient = assertCan(ability, 'read', 'Patient', await findVisiblePatient(this.db, scope, id), 'patient');
+    const sites = (await listSitesOfPatient(this.db, patient.id)).filter((site) => ability.can('read', subjectOf(site)));
+    return {
+      id: patient.id,
+      chartNumber: patient.chartNumber,
+      givenName: patient.givenName,
+      familyName: patient.familyName,
+      birthDate: patient.birthDate,
+      practiceName: patient.practiceName,
+      implantSiteCount: sites.length,
+      riskFactors: {
+        smoker: patient.smoker,
+        diabetesPoorlyControlled: patient.diabetesPoorlyControlled,
+        periodontitisHistory: patient.periodontitisHistory,
+      },
+      missingTeeth: patient.missingTeeth,
+      sites: sites.map((site) => ({
+        id: site.id,
+        fdi: site.fdi,
+        status: site.status,
+        // Recall exams arrive with the maintenance issue; until then nothing is examined.
+        maintenanceStatus: 'not-examined' as const,
+        lastExamDate: null,
+        systemName: site.systemName,
+      })),
+    };
+  }
+}
+
+const subjectOf = (site: { practiceId: string; patientId: string; id: string }) => subject('ImplantSite', { ...site });

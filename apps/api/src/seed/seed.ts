@@ -1,0 +1,33 @@
+// Seeds the demo practice when the database has no practice yet (npm start runs this).
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { sql } from 'drizzle-orm';
+import { createDatabase, createPool, type Database } from '../db/database.js';
+import { practices } from '../db/schema/index.js';
+import { seedDemoScenario, type SeedSummary } from './demo-scenario.js';
+
+export const todayIso = () => new Date().toISOString().slice(0, 10);
+
+/** Seeds in one transaction; returns null when the database already holds a practice. */
+export async function seedIfEmpty(db: Database, today = todayIso()): Promise<SeedSummary | null> {
+  const [{ count }] = (await db.select({ count: sql<number>`count(*)::int` }).from(practices)) as [{ count: number }];
+  if (count > 0) return null;
+  return db.transaction((tx) => seedDemoScenario(tx, today));
+}
+
+const isMain = process.argv[1] && path.resolve(process.argv[1]) === fileURLToPath(import.meta.url);
+if (isMain) {
+  const url = process.env.DATABASE_URL;
+  if (!url) {
+    console.error('DATABASE_URL is not set');
+    process.exit(2);
+  }
+  const pool = createPool(url);
+  seedIfEmpty(createDatabase(pool))
+    .then((summary) => console.log(summary ? `[seed] demo practice seeded: ${summary.patients} patients, ${summary.sites} implant sites` : '[seed] database already has data; not seeding'))
+    .catch((error: unknown) => {
+      console.error(`[seed] failed: ${error instanceof Error ? error.message : String(error)}`);
+      process.exitCode = 1;
+    })
+    .finally(() => pool.end());
+}

@@ -1,0 +1,23 @@
+import { Controller, Get, Param, ParseUUIDPipe } from '@nestjs/common';
+import type { AppAbility } from '@torquetrail/authz';
+import type { SiteFile } from '@torquetrail/contracts';
+import type { SessionUser } from '../auth/session-user.js';
+import { Allow } from '../authz/check-ability.decorator.js';
+import { scopeOf } from '../authz/scope.js';
+import { CurrentAbility, CurrentUser } from '../common/current-user.decorator.js';
+import { SitesService } from './sites.service.js';
+
+@Controller('sites')
+export class SitesController {
+  constructor(private readonly sites: SitesService) {}
+
+  @Get(':id')
+  @Allow('read', 'ImplantSite')
+  siteFile(
+    @CurrentUser() user: SessionUser,
+    @CurrentAbility() ability: AppAbility,
+    @Param('id', new ParseUUIDPipe({ errorHttpStatusCode: 404 })) id: string,
+  ): Promise<SiteFile> {
+    return this.sites.siteFile(ability, scopeOf(user), id);
+  }
+}

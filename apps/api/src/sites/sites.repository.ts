@@ -1,0 +1,141 @@
+import { and, asc, desc, eq, inArray, isNull, ne, sql } from 'drizzle-orm';
+import type { Db } from '../db/database.js';
+import {
+  componentInstances,
+  components,
+  implantSites,
+  implantSystems,
+  patients,
+  placements,
+  platforms,
+  restorationSites,
+  restorations,
+  torqueEvents,
+} from '../db/schema/index.js';
+import type { Scope } from '../authz/scope.js';
+import { visiblePatients } from '../patients/patients.repository.js';
+
+export async function findVisibleSite(db: Db, scope: Scope, siteId: string) {
+  const [row] = await db
+    .select({
+      id: implantSites.id,
+      practiceId: implantSites.practiceId,
+      patientId: implantSites.patientId,
+      fdi: implantSites.fdi,
+      status: implantSites.status,
+      patientName: sql<string>`${patients.givenName} || ' ' || ${patients.familyName}`,
+    })
+    .from(implantSites)
+    .innerJoin(patients, eq(patients.id, implantSites.patientId))
+    .where(and(eq(implantSites.id, siteId), visiblePatients(scope)));
+  return row ?? null;
+}
+
+/** The current placement: the one no later amendment supersedes. */
+export async function findCurrentPlacement(db: Db, siteId: string) {
+  const [row] = await db
+    .select({
+      placedOn: placements.placedOn,
+      surgeonName: placements.surgeonName,
+      systemName: implantSystems.name,
+      manufacturer: implantSystems.manufacturer,
+      platformName: platforms.name,
+      diameterMm: platforms.diameterMm,
+      lengthMm: placements.lengthMm,
+      connection: platforms.connection,
+      platformShift: platforms.platformShift,
+      lot: placements.lot,
+      insertionTorqueNcm: placements.insertionTorqueNcm,
+      stabilityIsq: placements.stabilityIsq,
+      loadingProtocol: placements.loadingProtocol,
+    })
+    .from(placements)
+    .innerJoin(platforms, eq(platforms.id, placements.platformId))
+    .innerJoin(implantSystems, eq(implantSystems.id, platforms.systemId))
+    .where(and(eq(placements.siteId, siteId), sql`not exists (select 1 from ${placements} p2 where p2.supersedes_id = ${placements.id})`))
+    .orderBy(desc(placements.recordedAt))
+    .limit(1);
+  return row ?? null;
+}
+
+/** Parts in the mouth now (not removed), from the implant outward. */
+export async function listCurrentParts(db: Db, siteId: string) {
+  return db
+    .select({
+      instanceId: componentInstances.id,
+      kind: components.kind,
+      name: components.name,
+      referenceCode: components.referenceCode,
+      engaging: components.engaging,
+      angleDeg: components.angleDeg,
+      torqueSpecNcm: components.torqueSpecNcm,
+      tolerancePct: components.tolerancePct,
+      lot: componentInstances.lot,
+      installedOn: componentInstances.installedOn,
+    })
+    .from(componentInstances)
+    .innerJoin(components, eq(components.id, componentInstances.componentId))
+    .where(and(eq(componentInstances.siteId, siteId), isNull(componentInstances.removedOn)))
+    .orderBy(asc(componentInstances.installedOn), asc(componentInstances.recordedAt));
+}
+
+/** The latest torque event per part (amended entries are replaced by their amendment). */
+export async function latestTorqueByInstance(db: Db, instanceIds: string[]) {
+  if (instanceIds.length === 0) return new Map<string, LatestTorque>();
+  const rows = await db
+    .selectDistinctOn([torqueEvents.componentInstanceId], {
+      instanceId: torqueEvents.componentInstanceId,
+      id: torqueEvents.id,
+      appliedNcm: torqueEvents.appliedNcm,
+      specNcm: torqueEvents.specNcm,
+      tolerancePct: torqueEvents.tolerancePct,
+      verdict: torqueEvents.verdict,
+      reason: torqueEvents.reason,
+      performedAt: torqueEvents.performedAt,
+    })
+    .from(torqueEvents)
+    .where(
+      and(
+        inArray(torqueEvents.componentInstanceId, instanceIds),
+        sql`not exists (select 1 from ${torqueEvents} t2 where t2.supersedes_id = ${torqueEvents.id})`,
+      ),
+    )
+    .orderBy(torqueEvents.componentInstanceId, desc(torqueEvents.performedAt));
+  return new Map(rows.map((r) => [r.instanceId, r]));
+}
+export type LatestTorque = {
+  instanceId: string;
+  id: string;
+  appliedNcm: number;
+  specNcm: number;
+  tolerancePct: number;
+  verdict: 'within' | 'under' | 'over';
+  reason: string;
+  performedAt: Date;
+};
+
+/** The restoration on this site now (delivered or planned, not removed). */
+export async function findCurrentRestoration(db: Db, siteId: string) {
+  const [row] = await db
+    .select({
+      id: restorations.id,
+      kind: restorations.kind,
+      retention: restorations.retention,
+      material: restorations.material,
+      deliveredOn: restorations.deliveredOn,
+      interface: restorationSites.interface,
+    })
+    .from(restorationSites)
+    .innerJoin(restorations, eq(restorations.id, restorationSites.restorationId))
+    .where(and(eq(restorationSites.siteId, siteId), ne(restorations.status, 'removed')))
+    .orderBy(desc(restorations.createdAt))
+    .limit(1);
+  if (!row) return null;
+  const spans = await db
+    .select({ fdi: implantSites.fdi })
+    .from(restorationSites)
+    .innerJoin(implantSites, eq(implantSites.id, restorationSites.siteId))
+    .where(eq(restorationSites.restorationId, row.id))
+    .orderBy(asc(implantSites.fdi));
+  return { ...row, spansFdi: spans.map((s) => s.fdi) };
+}

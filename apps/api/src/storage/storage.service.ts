@@ -1,0 +1,50 @@
+import { Inject, Injectable, type OnModuleDestroy } from '@nestjs/common';
+import { GetObjectCommand, HeadBucketCommand, PutObjectCommand, S3Client } from '@aws-sdk/client-s3';
+import { ENV, type Env } from '../config/env.js';
+
+/**
+ * Files (lab prescriptions, radiographs) go to S3 through the AWS SDK. Locally the endpoint is the
+ * s3rver fake in minio-local/; path-style addressing, and checksums only where required, because
+ * the fake does not understand the SDK's default chunked checksum framing.
+ */
+@Injectable()
+export class StorageService implements OnModuleDestroy {
+  readonly client: S3Client;
+  readonly bucket: string;
+
+  constructor(@Inject(ENV) env: Env) {
+    this.bucket = env.S3_BUCKET;
+    this.client = new S3Client({
+      endpoint: env.S3_ENDPOINT,
+      region: env.S3_REGION,
+      credentials: { accessKeyId: env.S3_ACCESS_KEY_ID, secretAccessKey: env.S3_SECRET_ACCESS_KEY },
+      forcePathStyle: true,
+      requestChecksumCalculation: 'WHEN_REQUIRED',
+      responseChecksumValidation: 'WHEN_REQUIRED',
+      maxAttempts: 2,
+    });
+  }
+
+  async isUp(): Promise<boolean> {
+    try {
+      await this.client.send(new HeadBucketCommand({ Bucket: this.bucket }), { abortSignal: AbortSignal.timeout(2000) });
+      return true;
+    } catch {
+      return false;
+    }
+  }
+
+  async put(key: string, body: Buffer, contentType: string): Promise<void> {
+    await this.client.send(new PutObjectCommand({ Bucket: this.bucket, Key: key, Body: body, ContentType: contentType }));
+  }
+
+  async get(key: string): Promise<Buffer> {
+    const out = await this.client.send(new GetObjectCommand({ Bucket: this.bucket, Key: key }));
+    if (!out.Body) throw new Error(`object ${key} has no body`);
+    return Buffer.from(await out.Body.transformToByteArray());
+  }
+
+  onModuleDestroy(): void {
+    this.client.destroy();
+  }
+}

@@ -1,0 +1,83 @@
+// Shared set-up for the API tests: the real app on the real (test) PostgreSQL, reset to the
+// freshly seeded demo scenario, driven over real HTTP with Supertest.
+import type { INestApplication } from '@nestjs/common';
+import { and, eq, sql } from 'drizzle-orm';
+import request from 'supertest';
+import { createApp } from '../../src/app.js';
+import { parseEnv } from '../../src/config/env.js';
+import { createDatabase, createPool, type Database } from '../../src/db/database.js';
+import { implantSites, patients } from '../../src/db/schema/index.js';
+import { DEMO_PASSWORD } from '../../src/seed/demo-scenario.js';
+import { seedDemoScenario } from '../../src/seed/demo-scenario.js';
+import { todayIso } from '../../src/seed/seed.js';
+
+export const testEnv = () => parseEnv({ ...process.env, NODE_ENV: 'test', WEB_DIST: '' });
+
+export interface TestContext {
+  app: INestApplication;
+  http: ReturnType<typeof request>;
+  db: Database;
+  close: () => Promise<void>;
+}
+
+/** Empties every table of the test database and seeds the demo scenario again. */
+export async function resetDatabase(db: Database): Promise<void> {
+  const tables = await db.execute<{ tablename: string }>(sql`select tablename from pg_tables where schemaname = 'public'`);
+  const names = tables.rows.map((t) => `"${t.tablename}"`).join(', ');
+  if (names) await db.execute(sql.raw(`TRUNCATE ${names} RESTART IDENTITY CASCADE`));
+  await db.transaction((tx) => seedDemoScenario(tx, todayIso()));
+}
+
+export async function startTestApp(): Promise<TestContext> {
+  const env = testEnv();
+  const pool = createPool(env.DATABASE_URL);
+  const db = createDatabase(pool);
+  await resetDatabase(db);
+  const app = await createApp(env, { logger: false });
+  return {
+    app,
+    http: request(app.getHttpServer()),
+    db,
+    close: async () => {
+      await app.close();
+      await pool.end();
+    },
+  };
+}
+
+/** The demo accounts by the role they play in the tests. */
+export const ACCOUNTS = {
+  dentist: 'ines.calloway@larkspur.example',
+  hygienist: 'maren.holt@larkspur.example',
+  surgeon: 'rafael.imbert@northgate.example',
+  practice_admin: 'odile.park@larkspur.example',
+  otherPracticeDentist: 'nell.ashdown@quarryhill.example',
+} as const;
+export type AccountKey = keyof typeof ACCOUNTS;
+
+/** Signs in through the real route and returns the session cookie to send with requests. */
+export async function signIn(ctx: TestContext, who: AccountKey): Promise<string> {
+  const res = await ctx.http.post('/api/auth/sign-in').send({ email: ACCOUNTS[who], password: DEMO_PASSWORD });
+  if (res.status !== 200) throw new Error(`sign-in of ${who} failed: ${res.status} ${JSON.stringify(res.body)}`);
+  const cookie = ([] as string[]).concat(res.headers['set-cookie'] ?? []).find((c) => c.startsWith('tt_session='));
+  if (!cookie) throw new Error('no session cookie set');
+  return cookie.split(';')[0]!;
+}
+
+export async function signInAll(ctx: TestContext): Promise<Record<AccountKey, string>> {
+  const entries = await Promise.all((Object.keys(ACCOUNTS) as AccountKey[]).map(async (k) => [k, await signIn(ctx, k)] as const));
+  return Object.fromEntries(entries) as Record<AccountKey, string>;
+}
+
+export async function patientId(db: Database, chartNumber: string): Promise<string> {
+  const [row] = await db.select({ id: patients.id }).from(patients).where(eq(patients.chartNumber, chartNumber));
+  if (!row) throw new Error(`no patient ${chartNumber}`);
+  return row.id;
+}
+
+export async function siteId(db: Database, chartNumber: string, fdi: number): Promise<string> {
+  const pid = await patientId(db, chartNumber);
+  const [row] = await db.select({ id: implantSites.id }).from(implantSites).where(and(eq(implantSites.patientId, pid), eq(implantSites.fdi, fdi)));
+  if (!row) throw new Error(`no site ${fdi} for ${chartNumber}`);
+  return row.id;
+}

@@ -1,0 +1,115 @@
+import {
+  AbilityBuilder,
+  createMongoAbility,
+  type MongoAbility,
+  type MongoQuery,
+} from '@casl/ability';
+
+export type Role = 'practice_admin' | 'dentist' | 'hygienist' | 'surgeon';
+
+export type Action = 'manage' | 'read' | 'create' | 'update' | 'amend';
+
+/**
+ * Subjects of the ledger. Each row carries `practiceId`; rows that belong to a patient also
+ * carry `patientId`, which is how a share opens another practice's patient to a surgeon.
+ */
+export type Subject =
+  | 'Practice'
+  | 'User'
+  | 'Patient'
+  | 'ImplantSite'
+  | 'Placement'
+  | 'Catalogue'
+  | 'Wrench'
+  | 'Restoration'
+  | 'ComponentInstance'
+  | 'TorqueEvent'
+  | 'Complication'
+  | 'RecallExam'
+  | 'RecallPolicy'
+  | 'Radiograph'
+  | 'Share'
+  | 'AuditEntry'
+  | 'all';
+
+/** A loaded row checked with `subject(type, row)`; only these fields take part in conditions. */
+export interface ScopedRow {
+  id?: string;
+  practiceId?: string;
+  patientId?: string;
+}
+
+export type AppAbility = MongoAbility<[Action, Subject | (ScopedRow & { __caslSubjectType__?: string })], MongoQuery>;
+
+/** What the ability needs to know about the signed-in user. */
+export interface AbilityUser {
+  id: string;
+  role: Role;
+  practiceId: string;
+  /** Patients of other practices shared with this user (surgeons). */
+  sharedPatientIds: readonly string[];
+}
+
+/** Clinical record subjects that hang off a patient. */
+const PATIENT_RECORD: Subject[] = [
+  'ImplantSite',
+  'Placement',
+  'Restoration',
+  'ComponentInstance',
+  'TorqueEvent',
+  'Complication',
+  'RecallExam',
+  'Radiograph',
+];
+
+/**
+ * The role table of the product brief, as CASL rules. `manage` is never granted on 'all':
+ * every permission names its subject, and every condition pins the practice (or the share).
+ */
+export function defineAbilityFor(user: AbilityUser): AppAbility {
+  const { can, build } = new AbilityBuilder<AppAbility>(createMongoAbility);
+  const own = { practiceId: user.practiceId };
+
+  switch (user.role) {
+    case 'dentist':
+      can('read', 'Practice', { id: user.practiceId });
+      can(['read', 'create', 'update'], 'Patient', own);
+      can(['read', 'create', 'amend'], ['ImplantSite', 'Restoration', 'ComponentInstance', 'TorqueEvent', 'Complication'], own);
+      can(['read', 'create', 'amend'], 'Placement', own);
+      can('read', ['RecallExam', 'Radiograph', 'Catalogue', 'Wrench', 'RecallPolicy'], own);
+      can(['read', 'create', 'update'], 'Share', own);
+      break;
+    case 'hygienist':
+      can('read', 'Practice', { id: user.practiceId });
+      can('read', 'Patient', own);
+      can('read', ['ImplantSite', 'Placement', 'Restoration', 'ComponentInstance', 'TorqueEvent', 'Complication'], own);
+      can(['read', 'create', 'amend'], ['RecallExam', 'Radiograph'], own);
+      can('read', ['Catalogue', 'Wrench', 'RecallPolicy'], own);
+      break;
+    case 'surgeon': {
+      can('read', 'Practice', { id: user.practiceId });
+      // Own practice: a surgeon keeps the records of their own surgical practice.
+      can('read', 'Patient', own);
+      can('read', PATIENT_RECORD, own);
+      can(['create', 'amend'], ['ImplantSite', 'Placement'], own);
+      can('read', 'Catalogue', own);
+      // Another practice's patient only through a share, and never the rest of the chart.
+      const shared = [...user.sharedPatientIds];
+      if (shared.length > 0) {
+        can('read', 'Patient', { id: { $in: shared } });
+        can('read', PATIENT_RECORD, { patientId: { $in: shared } });
+        can(['create', 'amend'], 'Placement', { patientId: { $in: shared } });
+      }
+      break;
+    }
+    case 'practice_admin':
+      can(['read', 'update'], 'Practice', { id: user.practiceId });
+      can(['read', 'create', 'update'], 'User', own);
+      can(['read', 'create', 'update'], 'Patient', own);
+      can('read', PATIENT_RECORD, own);
+      can(['read', 'create', 'update'], ['Catalogue', 'Wrench', 'RecallPolicy'], own);
+      can('read', ['AuditEntry', 'Share'], own);
+      break;
+  }
+  return build();
+}

@@ -1,0 +1,7 @@
+/**
+ * Roles, actions and subjects of Torquetrail and the CASL ability per role.
+ * The API's guard and services and the web's <Can> use this one definition.
+ */
+export { subject } from '@casl/ability';
+export { defineAbilityFor } from './ability.js';
+export type { AbilityUser, Action, AppAbility, Role, ScopedRow, Subject } from './ability.js';

@@ -1,0 +1,12 @@
+import { z } from 'zod';
+
+export const ServiceState = z.enum(['up', 'down']);
+export const HealthReply = z.object({
+  status: ServiceState,
+  services: z.object({
+    database: ServiceState,
+    objectStorage: ServiceState,
+    mail: ServiceState,
+  }),
+});
+export type HealthReply = z.infer<typeof HealthReply>;

@@ -1,0 +1,10 @@
+/**
+ * The one contract between API and web: zod schemas for every request body and reply,
+ * with their inferred TypeScript types under the same names.
+ */
+export * from './common.js';
+export * from './auth.js';
+export * from './health.js';
+export * from './patients.js';
+export * from './sites.js';
+export * from './routes.js';

@@ -1,0 +1,50 @@
+import { z } from 'zod';
+import { FdiPosition, Id, IsoDate } from './common.js';
+
+export const SiteStatus = z.enum(['planned', 'placed', 'restored', 'failed', 'removed']);
+export type SiteStatus = z.infer<typeof SiteStatus>;
+
+/** Latest computed maintenance status of a site; 'not-examined' until a recall exam exists. */
+export const MaintenanceStatus = z.enum(['health', 'mucositis', 'peri-implantitis', 'not-examined']);
+export type MaintenanceStatus = z.infer<typeof MaintenanceStatus>;
+
+export const PatientListQuery = z.object({
+  search: z.string().trim().max(100).optional(),
+});
+export type PatientListQuery = z.infer<typeof PatientListQuery>;
+
+export const PatientListItem = z.object({
+  id: Id,
+  chartNumber: z.string(),
+  givenName: z.string(),
+  familyName: z.string(),
+  birthDate: IsoDate,
+  implantSiteCount: z.number().int(),
+  practiceName: z.string(),
+});
+export type PatientListItem = z.infer<typeof PatientListItem>;
+export const PatientListReply = z.object({ items: z.array(PatientListItem) });
+export type PatientListReply = z.infer<typeof PatientListReply>;
+
+/** One implant site as drawn on the Arch. */
+export const ArchSite = z.object({
+  id: Id,
+  fdi: FdiPosition,
+  status: SiteStatus,
+  maintenanceStatus: MaintenanceStatus,
+  lastExamDate: IsoDate.nullable(),
+  systemName: z.string().nullable(),
+});
+export type ArchSite = z.infer<typeof ArchSite>;
+
+export const PatientDetail = PatientListItem.extend({
+  riskFactors: z.object({
+    smoker: z.boolean(),
+    diabetesPoorlyControlled: z.boolean(),
+    periodontitisHistory: z.boolean(),
+  }),
+  /** Teeth recorded as missing (not implant sites), drawn as faint outlines. */
+  missingTeeth: z.array(FdiPosition),
+  sites: z.array(ArchSite),
+});
+export type PatientDetail = z.infer<typeof PatientDetail>;

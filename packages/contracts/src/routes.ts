@@ -1,0 +1,33 @@
+import type { z } from 'zod';
+import { Me, SignInBody } from './auth.js';
+import { ErrorReply } from './common.js';
+import { HealthReply } from './health.js';
+import { PatientDetail, PatientListQuery, PatientListReply } from './patients.js';
+import { SiteFile } from './sites.js';
+
+export interface RouteContract {
+  method: 'get' | 'post' | 'put' | 'patch' | 'delete';
+  /** Path under /api, with :params. */
+  path: string;
+  summary: string;
+  /** false for the few public routes. */
+  signedIn: boolean;
+  body?: z.ZodType;
+  query?: z.ZodType;
+  reply?: z.ZodType;
+  /** Status of a success without a body. */
+  noContent?: boolean;
+}
+
+/** Every API route, for the OpenAPI document and the test that checks nothing is left out. */
+export const apiRoutes: RouteContract[] = [
+  { method: 'get', path: '/health', summary: 'Database, object storage and mail: up or down', signedIn: false, reply: HealthReply },
+  { method: 'post', path: '/auth/sign-in', summary: 'Sign in with e-mail and password; sets the HttpOnly session cookie', signedIn: false, body: SignInBody, reply: Me },
+  { method: 'post', path: '/auth/sign-out', summary: 'Sign out: clears the session cookie', signedIn: false, noContent: true },
+  { method: 'get', path: '/auth/me', summary: 'The signed-in user, their role, practice and shares', signedIn: true, reply: Me },
+  { method: 'get', path: '/patients', summary: "Patients of the user's practice and those shared with them", signedIn: true, query: PatientListQuery, reply: PatientListReply },
+  { method: 'get', path: '/patients/:id', summary: 'One patient with the implant sites for the Arch', signedIn: true, reply: PatientDetail },
+  { method: 'get', path: '/sites/:id', summary: 'The Site file: header, placement and the Stack', signedIn: true, reply: SiteFile },
+];
+
+export { ErrorReply as ApiErrorReply };

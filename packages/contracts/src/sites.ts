@@ -1,0 +1,105 @@
+import { z } from 'zod';
+import { FdiPosition, Id, IsoDate, IsoDateTime } from './common.js';
+import { MaintenanceStatus, SiteStatus } from './patients.js';
+
+export const Connection = z.enum(['internal-conical', 'internal-hex', 'external-hex']);
+export type Connection = z.infer<typeof Connection>;
+
+export const ComponentKind = z.enum([
+  'abutment-stock',
+  'abutment-custom',
+  'abutment-angled',
+  'multi-unit-abutment',
+  'abutment-screw',
+  'prosthetic-screw',
+  'set-screw',
+  'impression-coping',
+  'healing-abutment',
+  'cover-screw',
+]);
+export type ComponentKind = z.infer<typeof ComponentKind>;
+
+export const TorqueVerdict = z.enum(['within', 'under', 'over']);
+export type TorqueVerdict = z.infer<typeof TorqueVerdict>;
+
+export const Retention = z.enum(['screw-to-implant', 'screw-to-multi-unit', 'cement-on-abutment', 'lingual-set-screw']);
+export type Retention = z.infer<typeof Retention>;
+export const RestorationKind = z.enum(['single-crown', 'splinted-bridge', 'full-arch']);
+export type RestorationKind = z.infer<typeof RestorationKind>;
+export const Material = z.enum(['zirconia', 'titanium-porcelain', 'titanium-composite', 'full-gold', 'porcelain-fused-to-metal', 'other']);
+export type Material = z.infer<typeof Material>;
+export const InterfaceKind = z.enum(['engaging', 'non-engaging']);
+export type InterfaceKind = z.infer<typeof InterfaceKind>;
+
+export const Placement = z.object({
+  placedOn: IsoDate,
+  surgeonName: z.string(),
+  systemName: z.string(),
+  manufacturer: z.string(),
+  platformName: z.string(),
+  diameterMm: z.number(),
+  lengthMm: z.number(),
+  connection: Connection,
+  platformShift: z.boolean(),
+  lot: z.string().nullable(),
+  insertionTorqueNcm: z.number().nullable(),
+  stabilityIsq: z.number().nullable(),
+  loadingProtocol: z.enum(['immediate', 'early', 'conventional']).nullable(),
+});
+export type Placement = z.infer<typeof Placement>;
+
+export const TorqueEventSummary = z.object({
+  id: Id,
+  appliedNcm: z.number(),
+  specNcm: z.number(),
+  tolerancePct: z.number(),
+  verdict: TorqueVerdict,
+  reason: z.string(),
+  performedAt: IsoDateTime,
+});
+export type TorqueEventSummary = z.infer<typeof TorqueEventSummary>;
+
+/** One physical part in the Stack, with its specification and its latest torque. */
+export const StackPart = z.object({
+  instanceId: Id,
+  kind: ComponentKind,
+  name: z.string(),
+  referenceCode: z.string(),
+  engaging: z.boolean().nullable(),
+  angleDeg: z.number().nullable(),
+  /** null = hand-tight (no torque specification). */
+  torqueSpecNcm: z.number().nullable(),
+  tolerancePct: z.number(),
+  lot: z.string().nullable(),
+  installedOn: IsoDate,
+  lastTorque: TorqueEventSummary.nullable(),
+});
+export type StackPart = z.infer<typeof StackPart>;
+
+export const StackRestoration = z.object({
+  id: Id,
+  kind: RestorationKind,
+  retention: Retention,
+  material: Material,
+  interface: InterfaceKind,
+  deliveredOn: IsoDate.nullable(),
+  /** Cement-retained restorations are not retrievable without cutting. */
+  retrievable: z.boolean(),
+  /** FDI positions of all sites this restoration spans. */
+  spansFdi: z.array(FdiPosition),
+});
+export type StackRestoration = z.infer<typeof StackRestoration>;
+
+export const SiteFile = z.object({
+  id: Id,
+  patientId: Id,
+  patientName: z.string(),
+  fdi: FdiPosition,
+  status: SiteStatus,
+  maintenanceStatus: MaintenanceStatus,
+  placement: Placement.nullable(),
+  /** Parts from the implant outward: abutment or multi-unit, then screws. */
+  parts: z.array(StackPart),
+  restoration: StackRestoration.nullable(),
+});
+export type SiteFile = z.infer<typeof SiteFile>;

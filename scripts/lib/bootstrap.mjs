@@ -1,0 +1,54 @@
+// Set-up steps shared by `npm start` and `npm test`. Uses only Node's built-ins, because it
+// runs before the dependencies are installed on a fresh clone.
+import { createHash, randomBytes } from 'node:crypto';
+import fs from 'node:fs';
+import path from 'node:path';
+import { capture, isRoot, run } from './proc.mjs';
+import { localDir, repoRoot } from './config.mjs';
+
+const npm = process.platform === 'win32' ? 'npm.cmd' : 'npm';
+
+/** `npm ci` when node_modules is missing or older than package-lock.json's content. */
+export async function ensureDependencies() {
+  const lock = path.join(repoRoot, 'package-lock.json');
+  const stamp = path.join(repoRoot, 'node_modules', '.torquetrail-lock-hash');
+  const hash = createHash('sha256').update(fs.readFileSync(lock)).digest('hex');
+  if (fs.existsSync(stamp) && fs.readFileSync(stamp, 'utf8') === hash) return;
+  console.log('[setup] installing dependencies (npm ci) …');
+  await run(npm, ['ci', '--no-audit', '--no-fund'], { cwd: repoRoot });
+  fs.writeFileSync(stamp, hash);
+}
+
+/** Debian's chromium for the browser tests, installed with apt-get when missing. */
+export async function ensureChromium() {
+  const binary = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
+  if (fs.existsSync(binary)) return binary;
+  if (!isRoot()) throw new Error(`${binary} is missing: install Debian's chromium (sudo apt-get install -y chromium)`);
+  console.log('[setup] installing Debian package chromium for the browser tests …');
+  const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
+  await run('apt-get', ['update', '-qq'], { env });
+  await run('apt-get', ['install', '-y', '-qq', 'chromium'], { env });
+  return binary;
+}
+
+/** Builds the packages, the API and the web app (tsc type-checks on the way). */
+export async function buildAll() {
+  console.log('[setup] building packages, API and web app …');
+  await run(npm, ['run', 'build', '--silent'], { cwd: repoRoot });
+}
+
+/** The session-signing secret of this checkout's local app, made once and kept in .local/. */
+export function localJwtSecret() {
+  const file = path.join(localDir, 'jwt-secret');
+  if (!fs.existsSync(file)) {
+    fs.mkdirSync(localDir, { recursive: true });
+    fs.writeFileSync(file, randomBytes(48).toString('base64url'), { mode: 0o600 });
+  }
+  return fs.readFileSync(file, 'utf8').trim();
+}
+
+export function nodeScript(script, env) {
+  return run(process.execPath, [path.join(repoRoot, script)], { cwd: repoRoot, env: { ...process.env, ...env } });
+}
+
+export { capture };

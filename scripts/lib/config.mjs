@@ -1,0 +1,70 @@
+// Where the local services listen and keep their data. Everything binds to loopback only.
+// Ports can be moved with environment variables when a default one is taken.
+import { createHash } from 'node:crypto';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+
+export const repoRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..');
+export const localDir = path.join(repoRoot, '.local');
+export const runDir = path.join(localDir, 'run');
+
+const port = (name, fallback) => {
+  const value = process.env[name];
+  if (value === undefined || value === '') return fallback;
+  const n = Number(value);
+  if (!Number.isInteger(n) || n < 1 || n > 65535) throw new Error(`${name} must be a port number, got "${value}"`);
+  return n;
+};
+
+export const host = '127.0.0.1';
+
+export const pg = {
+  port: port('TT_PG_PORT', 54329),
+  user: 'torquetrail',
+  // A local, loopback-only development cluster; the password only keeps other local users out.
+  password: process.env.TT_PG_PASSWORD ?? 'torquetrail-local',
+  database: 'torquetrail',
+  testDatabase: 'torquetrail_test',
+};
+
+export const s3 = {
+  port: port('TT_S3_PORT', 9390),
+  accessKeyId: 'S3RVER',
+  secretAccessKey: 'S3RVER',
+  bucket: 'torquetrail-files',
+  testBucket: 'torquetrail-files-test',
+  dataDir: path.join(localDir, 's3'),
+};
+
+export const mail = {
+  smtpPort: port('TT_SMTP_PORT', 2525),
+  httpPort: port('TT_MAIL_HTTP_PORT', 2580),
+  dataDir: path.join(localDir, 'mail'),
+};
+
+export const app = { port: port('PORT', 3000) };
+
+export function databaseUrl(database) {
+  return `postgres://${pg.user}:${encodeURIComponent(pg.password)}@${host}:${pg.port}/${database}`;
+}
+
+/** Environment for the API process, pointing at the loopback services. */
+export function apiEnvironment({ database, bucket, jwtSecret, port: appPort }) {
+  return {
+    DATABASE_URL: databaseUrl(database),
+    S3_ENDPOINT: `http://${host}:${s3.port}`,
+    S3_REGION: 'us-east-1',
+    S3_ACCESS_KEY_ID: s3.accessKeyId,
+    S3_SECRET_ACCESS_KEY: s3.secretAccessKey,
+    S3_BUCKET: bucket,
+    SMTP_HOST: host,
+    SMTP_PORT: String(mail.smtpPort),
+    MAIL_FROM: 'Torquetrail <no-reply@torquetrail.local>',
+    JWT_SECRET: jwtSecret,
+    HOST: host,
+    PORT: String(appPort),
+    WEB_DIST: path.join(repoRoot, 'apps', 'web', 'dist'),
+  };
+}
+
+export const repoHash = createHash('sha256').update(repoRoot).digest('hex').slice(0, 10);

@@ -1,0 +1,73 @@
+// Starts and stops the three local services: PostgreSQL, the S3 fake and the mail catcher.
+// `node scripts/services.mjs start|stop|status`. Starting twice finds them running; stopping
+// uses the pid files in .local/run/ (and pg_ctl for PostgreSQL), never process names.
+import fs from 'node:fs';
+import path from 'node:path';
+import { spawn } from 'node:child_process';
+import { mail, repoRoot, runDir, s3 } from './lib/config.mjs';
+import { isAlive, portOpen, readPid, waitForPort } from './lib/proc.mjs';
+import { ServiceError, startPostgres, stopPostgres } from './lib/postgres.mjs';
+
+const background = [
+  { name: 's3', script: path.join(repoRoot, 'minio-local', 'start.mjs'), ports: [s3.port] },
+  { name: 'mail', script: path.join(repoRoot, 'scripts', 'mail-catcher.mjs'), ports: [mail.smtpPort, mail.httpPort] },
+];
+
+async function startBackground({ name, script, ports }) {
+  fs.mkdirSync(runDir, { recursive: true });
+  const pidFile = path.join(runDir, `${name}.pid`);
+  const pid = readPid(pidFile);
+  if (isAlive(pid)) {
+    console.log(`[${name}] already running (pid ${pid})`);
+    return;
+  }
+  for (const port of ports) {
+    if (await portOpen(port)) {
+      throw new ServiceError(`port ${port} on 127.0.0.1 is taken by another program, so the ${name} service cannot start`);
+    }
+  }
+  const log = fs.openSync(path.join(runDir, `${name}.log`), 'a');
+  const child = spawn(process.execPath, [script], { detached: true, stdio: ['ignore', log, log], cwd: repoRoot });
+  child.unref();
+  fs.writeFileSync(pidFile, String(child.pid));
+  for (const port of ports) await waitForPort(port, { label: `the ${name} service (port ${port})` });
+  console.log(`[${name}] started (pid ${child.pid}, log .local/run/${name}.log)`);
+}
+
+function stopBackground({ name }) {
+  const pidFile = path.join(runDir, `${name}.pid`);
+  const pid = readPid(pidFile);
+  if (isAlive(pid)) {
+    process.kill(pid, 'SIGTERM');
+    console.log(`[${name}] stopped (pid ${pid})`);
+  } else {
+    console.log(`[${name}] not running`);
+  }
+  fs.rmSync(pidFile, { force: true });
+}
+
+export async function startServices() {
+  await startPostgres();
+  for (const service of background) await startBackground(service);
+}
+
+export function stopServices() {
+  for (const service of background) stopBackground(service);
+  stopPostgres();
+}
+
+const isMain = process.argv[1] && path.resolve(process.argv[1]) === path.resolve(new URL(import.meta.url).pathname);
+if (isMain) {
+  const command = process.argv[2];
+  try {
+    if (command === 'start') await startServices();
+    else if (command === 'stop') stopServices();
+    else {
+      console.error('usage: node scripts/services.mjs start|stop');
+      process.exit(2);
+    }
+  } catch (error) {
+    console.error(`\nCould not ${command} the local services: ${error.message}`);
+    process.exit(1);
+  }
+}

@@ -1,0 +1,71 @@
+// `npm test`: the same set-up as `npm start` with a separate test database, then the three
+// tiers (unit, API through Supertest on the real PostgreSQL, browser with Debian's chromium
+// against the built app), and one closing line counting all of them: "N passed, N failed".
+import fs from 'node:fs';
+import path from 'node:path';
+import { randomBytes } from 'node:crypto';
+import { spawn } from 'node:child_process';
+import { apiEnvironment, localDir, pg, repoRoot, s3 } from './lib/config.mjs';
+import { buildAll, ensureChromium, ensureDependencies, nodeScript } from './lib/bootstrap.mjs';
+
+const tiers = ['unit', 'api', 'browser'];
+const resultsDir = path.join(localDir, 'test-results');
+
+function runTier(name, env) {
+  const outputFile = path.join(resultsDir, `${name}.json`);
+  fs.rmSync(outputFile, { force: true });
+  return new Promise((resolve) => {
+    const child = spawn(
+      process.execPath,
+      [path.join(repoRoot, 'node_modules/vitest/vitest.mjs'), 'run', '--project', name, '--reporter=default', '--reporter=json', `--outputFile.json=${outputFile}`],
+      { cwd: repoRoot, env: { ...process.env, ...env }, stdio: 'inherit' },
+    );
+    child.on('exit', (code) => {
+      let passed = 0;
+      let failed = 0;
+      try {
+        const report = JSON.parse(fs.readFileSync(outputFile, 'utf8'));
+        passed = report.numPassedTests;
+        failed = report.numFailedTests + (report.numFailedTestSuites ?? 0);
+      } catch {
+        failed = 1; // the runner died before writing its report
+      }
+      if (code !== 0 && failed === 0) failed = 1;
+      resolve({ name, passed, failed });
+    });
+  });
+}
+
+async function main() {
+  await ensureDependencies();
+  const chromium = await ensureChromium();
+  const { startServices } = await import('./services.mjs');
+  const { ensureDatabase } = await import('./lib/postgres.mjs');
+  await startServices();
+  await ensureDatabase(pg.testDatabase, { fresh: true });
+  await buildAll();
+  const env = {
+    ...apiEnvironment({ database: pg.testDatabase, bucket: s3.testBucket, jwtSecret: randomBytes(48).toString('base64url'), port: 0 }),
+    NODE_ENV: 'test',
+    CHROMIUM_PATH: chromium,
+  };
+  // The test database is migrated by the same command production uses.
+  await nodeScript('apps/api/dist/db/migrate.js', env);
+
+  fs.mkdirSync(resultsDir, { recursive: true });
+  const results = [];
+  for (const tier of tiers) results.push(await runTier(tier, env));
+
+  console.log('\nTest tiers:');
+  for (const r of results) console.log(`  ${r.name.padEnd(8)} ${r.passed} passed, ${r.failed} failed`);
+  const passed = results.reduce((n, r) => n + r.passed, 0);
+  const failed = results.reduce((n, r) => n + r.failed, 0);
+  console.log(`${passed} passed, ${failed} failed`);
+  process.exit(failed > 0 || passed === 0 ? 1 : 0);
+}
+
+main().catch((error) => {
+  console.error(`\nnpm test could not run: ${error.message}`);
+  console.log('0 passed, 1 failed');
+  process.exit(1);
+});

@@ -1,0 +1,50 @@
+import { fileURLToPath } from 'node:url';
+import { defineConfig } from 'vitest/config';
+
+// The workspace packages are used from source in every tier, so tests need no prior build.
+const alias = {
+  '@torquetrail/domain': fileURLToPath(new URL('./packages/domain/src/index.ts', import.meta.url)),
+  '@torquetrail/contracts': fileURLToPath(new URL('./packages/contracts/src/index.ts', import.meta.url)),
+  '@torquetrail/authz': fileURLToPath(new URL('./packages/authz/src/index.ts', import.meta.url)),
+};
+
+/** Three tiers, run one after another by scripts/test.mjs (`vitest run --project <name>`). */
+export default defineConfig({
+  resolve: { alias },
+  test: {
+    projects: [
+      {
+        resolve: { alias },
+        test: {
+          name: 'unit',
+          include: ['packages/*/src/**/*.test.ts', 'apps/web/src/**/*.test.{ts,tsx}', 'apps/api/src/**/*.spec.ts'],
+          environment: 'node',
+          maxWorkers: 2,
+        },
+      },
+      {
+        resolve: { alias },
+        test: {
+          name: 'api',
+          include: ['apps/api/test/**/*.e2e-spec.ts'],
+          environment: 'node',
+          // One shared test database: files run one at a time, each from a freshly seeded state.
+          fileParallelism: false,
+          testTimeout: 20_000,
+          hookTimeout: 30_000,
+        },
+      },
+      {
+        resolve: { alias },
+        test: {
+          name: 'browser',
+          include: ['apps/web/e2e/**/*.e2e.ts'],
+          environment: 'node',
+          fileParallelism: false,
+          testTimeout: 60_000,
+          hookTimeout: 60_000,
+        },
+      },
+    ],
+  },
+});
