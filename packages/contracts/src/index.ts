@@ -7,4 +7,6 @@ export * from './auth.js';
 export * from './health.js';
 export * from './patients.js';
 export * from './sites.js';
+export * from './ledger.js';
+export * from './recalls.js';
 export * from './routes.js';

@@ -1,23 +1,11 @@
-import type { z } from 'zod';
+import type { RouteContract } from './route-contract.js';
+import { ledgerRoutes } from './ledger.js';
+import { recallRoutes } from './recalls.js';
 import { Me, SignInBody } from './auth.js';
 import { ErrorReply } from './common.js';
 import { HealthReply } from './health.js';
 import { PatientDetail, PatientListQuery, PatientListReply } from './patients.js';
 import { SiteFile } from './sites.js';
-
-export interface RouteContract {
-  method: 'get' | 'post' | 'put' | 'patch' | 'delete';
-  /** Path under /api, with :params. */
-  path: string;
-  summary: string;
-  /** false for the few public routes. */
-  signedIn: boolean;
-  body?: z.ZodType;
-  query?: z.ZodType;
-  reply?: z.ZodType;
-  /** Status of a success without a body. */
-  noContent?: boolean;
-}
 
 /** Every API route, for the OpenAPI document and the test that checks nothing is left out. */
 export const apiRoutes: RouteContract[] = [
@@ -28,6 +16,8 @@ export const apiRoutes: RouteContract[] = [
   { method: 'get', path: '/patients', summary: "Patients of the user's practice and those shared with them", signedIn: true, query: PatientListQuery, reply: PatientListReply },
   { method: 'get', path: '/patients/:id', summary: 'One patient with the implant sites for the Arch', signedIn: true, reply: PatientDetail },
   { method: 'get', path: '/sites/:id', summary: 'The Site file: header, placement and the Stack', signedIn: true, reply: SiteFile },
+  ...ledgerRoutes,
+  ...recallRoutes,
 ];
 
-export { ErrorReply as ApiErrorReply };
+export type { RouteContract };

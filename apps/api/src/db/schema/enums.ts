@@ -39,3 +39,17 @@ export const torqueReasonEnum = pgEnum('torque_reason', [
 ]);
 export const torqueVerdictEnum = pgEnum('torque_verdict', ['within', 'under', 'over']);
 export const wrenchTypeEnum = pgEnum('wrench_type', ['spring', 'friction']);
+
+export const complicationKindEnum = pgEnum('complication_kind', [
+  'screw-loosening',
+  'screw-fracture',
+  'abutment-fracture',
+  'veneer-chipping',
+  'framework-fracture',
+  'other',
+]);
+export const periImplantStatusEnum = pgEnum('peri_implant_status', ['health', 'mucositis', 'peri-implantitis']);
+export const probingSiteEnum = pgEnum('probing_site', ['mesiobuccal', 'buccal', 'distobuccal', 'mesiolingual', 'lingual', 'distolingual']);
+export const recallStatusEnum = pgEnum('recall_status', ['scheduled', 'done', 'cancelled']);
+export const reminderKindEnum = pgEnum('reminder_kind', ['upcoming', 'overdue']);
+export const reminderStatusEnum = pgEnum('reminder_status', ['pending', 'sent', 'failed']);

@@ -5,3 +5,4 @@ export * from './patients.js';
 export * from './catalogue.js';
 export * from './sites.js';
 export * from './restorations.js';
+export * from './recalls.js';

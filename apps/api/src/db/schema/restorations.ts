@@ -1,6 +1,7 @@
-import { boolean, date, index, numeric, pgTable, smallint, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { boolean, date, index, integer, jsonb, numeric, pgTable, smallint, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core';
 import { components, torqueWrenches } from './catalogue.js';
 import {
+  complicationKindEnum,
   impressionCopingEnum,
   interfaceEnum,
   materialEnum,
@@ -29,6 +30,16 @@ export const restorations = pgTable(
     impressionTakenOn: date('impression_taken_on', { mode: 'string' }),
     deliveredOn: date('delivered_on', { mode: 'string' }),
     plannedBy: uuid('planned_by').references(() => users.id),
+    /** Plan Findings as computed when saved (validateRestorationPlan), with the rules version. */
+    findings: jsonb('findings').$type<unknown[]>().notNull().default([]),
+    rulesVersion: text('rules_version'),
+    labName: text('lab_name'),
+    labEmail: text('lab_email'),
+    dueOn: date('due_on', { mode: 'string' }),
+    notes: text('notes'),
+    /** An amendment is a new row superseding the old one, with its reason. */
+    supersedesId: uuid('supersedes_id'),
+    amendmentReason: text('amendment_reason'),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [index('restorations_patient_idx').on(t.patientId)],
@@ -46,6 +57,10 @@ export const restorationSites = pgTable(
     impressionCoping: impressionCopingEnum('impression_coping').notNull(),
     multiUnitAngleDeg: smallint('multi_unit_angle_deg'),
     restorativeSpaceMm: numeric('restorative_space_mm', { precision: 4, scale: 1, mode: 'number' }),
+    /** Implant axis entered in the planner (direction vector), when not taken from the placement. */
+    axisX: numeric('axis_x', { mode: 'number' }),
+    axisY: numeric('axis_y', { mode: 'number' }),
+    axisZ: numeric('axis_z', { mode: 'number' }),
   },
   (t) => [index('restoration_sites_site_idx').on(t.siteId), index('restoration_sites_restoration_idx').on(t.restorationId)],
 );
@@ -95,4 +110,69 @@ export const torqueEvents = pgTable(
     recordedAt: timestamp('recorded_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [index('torque_events_instance_idx').on(t.componentInstanceId, t.performedAt)],
+);
+
+/** The catalogue parts chosen in the plan for one site (abutment, multi-unit, screws, coping). */
+export const restorationSiteComponents = pgTable(
+  'restoration_site_components',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    practiceId: uuid('practice_id').notNull().references(() => practices.id),
+    restorationSiteId: uuid('restoration_site_id').notNull().references(() => restorationSites.id),
+    componentId: uuid('component_id').notNull().references(() => components.id),
+  },
+  (t) => [index('restoration_site_components_site_idx').on(t.restorationSiteId)],
+);
+
+/** A warning Finding acknowledged by a clinician before saving the plan. */
+export const findingAcknowledgements = pgTable(
+  'finding_acknowledgements',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    practiceId: uuid('practice_id').notNull().references(() => practices.id),
+    restorationId: uuid('restoration_id').notNull().references(() => restorations.id),
+    code: text('code').notNull(),
+    fdi: smallint('fdi'),
+    acknowledgedBy: uuid('acknowledged_by').notNull().references(() => users.id),
+    acknowledgedAt: timestamp('acknowledged_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('finding_acknowledgements_restoration_idx').on(t.restorationId)],
+);
+
+/** A generated lab prescription PDF, kept in object storage. */
+export const labPrescriptions = pgTable(
+  'lab_prescriptions',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    practiceId: uuid('practice_id').notNull().references(() => practices.id),
+    patientId: uuid('patient_id').notNull().references(() => patients.id),
+    restorationId: uuid('restoration_id').notNull().references(() => restorations.id),
+    objectKey: text('object_key').notNull(),
+    sizeBytes: integer('size_bytes').notNull(),
+    emailedTo: text('emailed_to'),
+    emailedAt: timestamp('emailed_at', { withTimezone: true }),
+    createdBy: uuid('created_by').notNull().references(() => users.id),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('lab_prescriptions_restoration_idx').on(t.restorationId), unique('lab_prescriptions_object_key_unique').on(t.objectKey)],
+);
+
+/** Complications, linked to the site and, where known, the part. */
+export const complications = pgTable(
+  'complications',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    practiceId: uuid('practice_id').notNull().references(() => practices.id),
+    patientId: uuid('patient_id').notNull().references(() => patients.id),
+    siteId: uuid('site_id').notNull().references(() => implantSites.id),
+    componentInstanceId: uuid('component_instance_id').references(() => componentInstances.id),
+    kind: complicationKindEnum('kind').notNull(),
+    occurredOn: date('occurred_on', { mode: 'string' }).notNull(),
+    notes: text('notes'),
+    supersedesId: uuid('supersedes_id'),
+    amendmentReason: text('amendment_reason'),
+    recordedBy: uuid('recorded_by').references(() => users.id),
+    recordedAt: timestamp('recorded_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('complications_site_idx').on(t.siteId)],
 );

@@ -1,0 +1,102 @@
+import { boolean, date, index, integer, jsonb, numeric, pgTable, smallint, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core';
+import { periImplantStatusEnum, probingSiteEnum, recallStatusEnum, reminderKindEnum, reminderStatusEnum } from './enums.js';
+import { patients } from './patients.js';
+import { practices, users } from './practices.js';
+import { implantSites } from './sites.js';
+
+/**
+ * One maintenance exam of one implant site. Several sites examined in one visit share a visitId.
+ * The computed status is stored with the rule version and options used (classifyPeriImplant).
+ */
+export const recallExams = pgTable(
+  'recall_exams',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    practiceId: uuid('practice_id').notNull().references(() => practices.id),
+    patientId: uuid('patient_id').notNull().references(() => patients.id),
+    siteId: uuid('site_id').notNull().references(() => implantSites.id),
+    visitId: uuid('visit_id').notNull(),
+    examinedOn: date('examined_on', { mode: 'string' }).notNull(),
+    examinerId: uuid('examiner_id').notNull().references(() => users.id),
+    mobility: boolean('mobility').notNull(),
+    /** Modified plaque index and modified bleeding index, 0–3. */
+    plaqueIndex: smallint('plaque_index'),
+    bleedingIndex: smallint('bleeding_index'),
+    keratinizedMucosaMm: numeric('keratinized_mucosa_mm', { precision: 3, scale: 1, mode: 'number' }),
+    residualCement: boolean('residual_cement').notNull().default(false),
+    /** Radiographic bone level, mm apical to the most coronal intra-osseous part, when known. */
+    boneLevelMm: numeric('bone_level_mm', { precision: 4, scale: 1, mode: 'number' }),
+    isBaseline: boolean('is_baseline').notNull().default(false),
+    notes: text('notes'),
+    status: periImplantStatusEnum('status').notNull(),
+    reasons: jsonb('reasons').$type<string[]>().notNull(),
+    flags: jsonb('flags').$type<string[]>().notNull(),
+    rulesVersion: text('rules_version').notNull(),
+    ruleOptions: jsonb('rule_options').$type<Record<string, number>>().notNull(),
+    supersedesId: uuid('supersedes_id'),
+    amendmentReason: text('amendment_reason'),
+    recordedAt: timestamp('recorded_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('recall_exams_site_idx').on(t.siteId, t.examinedOn), index('recall_exams_patient_idx').on(t.patientId, t.examinedOn)],
+);
+
+/** Probing at one of the six sites around the implant. */
+export const recallExamSites = pgTable(
+  'recall_exam_sites',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    practiceId: uuid('practice_id').notNull().references(() => practices.id),
+    examId: uuid('exam_id').notNull().references(() => recallExams.id),
+    position: probingSiteEnum('position').notNull(),
+    probingDepthMm: numeric('probing_depth_mm', { precision: 3, scale: 1, mode: 'number' }).notNull(),
+    bleeding: boolean('bleeding').notNull(),
+    suppuration: boolean('suppuration').notNull(),
+  },
+  (t) => [unique('recall_exam_sites_exam_position_unique').on(t.examId, t.position)],
+);
+
+/** The next maintenance visit of a patient, scheduled from the last exam and the practice policy. */
+export const recalls = pgTable(
+  'recalls',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    practiceId: uuid('practice_id').notNull().references(() => practices.id),
+    patientId: uuid('patient_id').notNull().references(() => patients.id),
+    dueOn: date('due_on', { mode: 'string' }).notNull(),
+    status: recallStatusEnum('status').notNull().default('scheduled'),
+    scheduledFromVisitId: uuid('scheduled_from_visit_id'),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('recalls_practice_due_idx').on(t.practiceId, t.status, t.dueOn), index('recalls_patient_idx').on(t.patientId)],
+);
+
+/** Practice policy for recall intervals and reminders (edited by the practice admin). */
+export const recallPolicies = pgTable('recall_policies', {
+  practiceId: uuid('practice_id').primaryKey().references(() => practices.id),
+  baseMonths: smallint('base_months').notNull().default(6),
+  riskMonths: smallint('risk_months').notNull().default(3),
+  reminderDaysBefore: smallint('reminder_days_before').notNull().default(14),
+  overdueReminderDaysAfter: smallint('overdue_reminder_days_after').notNull().default(7),
+  updatedBy: uuid('updated_by').references(() => users.id),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+});
+
+/** Every reminder e-mail: one row per patient, recall date and kind (the idempotency key). */
+export const reminderLog = pgTable(
+  'reminder_log',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    practiceId: uuid('practice_id').notNull().references(() => practices.id),
+    patientId: uuid('patient_id').notNull().references(() => patients.id),
+    recallDueOn: date('recall_due_on', { mode: 'string' }).notNull(),
+    kind: reminderKindEnum('kind').notNull(),
+    idempotencyKey: text('idempotency_key').notNull(),
+    status: reminderStatusEnum('status').notNull().default('pending'),
+    attempts: integer('attempts').notNull().default(0),
+    lastError: text('last_error'),
+    messageId: text('message_id'),
+    sentAt: timestamp('sent_at', { withTimezone: true }),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [unique('reminder_log_idempotency_unique').on(t.idempotencyKey), index('reminder_log_practice_idx').on(t.practiceId, t.createdAt)],
+);
