@@ -134,8 +134,20 @@ export interface SeedSummary {
   sites: number;
 }
 
+/** Ids of the seeded scenario, for the seeds that add history on top (see demo.ts). */
+export interface DemoRefs {
+  today: string;
+  practiceIds: { larkspur: string; northgate: string; quarry: string };
+  /** By e-mail. */
+  userIds: Map<string, string>;
+  /** By chart number, e.g. 'LL-1001'. */
+  patientIds: Map<string, string>;
+  /** By `${chartNumber}:${fdi}`, e.g. 'LL-1001:35'. */
+  siteIds: Map<string, string>;
+}
+
 /** Seeds the whole demo scenario in the caller's transaction. */
-export async function seedDemoScenario(tx: Tx, today: string): Promise<SeedSummary> {
+export async function seedDemoScenario(tx: Tx, today: string): Promise<{ summary: SeedSummary; refs: DemoRefs }> {
   const [larkspur, northgate, quarry] = await tx
     .insert(practices)
     .values([{ name: 'Larkspur Lane Dental' }, { name: 'Northgate Oral Surgery' }, { name: 'Quarry Hill Dental' }])
@@ -245,5 +257,15 @@ export async function seedDemoScenario(tx: Tx, today: string): Promise<SeedSumma
     sites += 1;
   }
 
-  return { practices: 3, patients: 7, sites };
+  const patientRows = await tx.select({ id: patients.id, chartNumber: patients.chartNumber }).from(patients);
+  const siteRows = await tx.select({ id: implantSites.id, patientId: implantSites.patientId, fdi: implantSites.fdi }).from(implantSites);
+  const chartById = new Map(patientRows.map((p) => [p.id, p.chartNumber]));
+  const refs: DemoRefs = {
+    today,
+    practiceIds: { larkspur: larkspur!.id, northgate: northgate!.id, quarry: quarry!.id },
+    userIds,
+    patientIds: new Map(patientRows.map((p) => [p.chartNumber, p.id])),
+    siteIds: new Map(siteRows.map((s) => [`${chartById.get(s.patientId)}:${s.fdi}`, s.id])),
+  };
+  return { summary: { practices: 3, patients: 7, sites }, refs };
 }

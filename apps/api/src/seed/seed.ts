@@ -4,7 +4,8 @@ import { fileURLToPath } from 'node:url';
 import { sql } from 'drizzle-orm';
 import { createDatabase, createPool, type Database } from '../db/database.js';
 import { practices } from '../db/schema/index.js';
-import { seedDemoScenario, type SeedSummary } from './demo-scenario.js';
+import { seedDemo } from './demo.js';
+import type { SeedSummary } from './demo-scenario.js';
 
 export const todayIso = () => new Date().toISOString().slice(0, 10);
 
@@ -12,7 +13,7 @@ export const todayIso = () => new Date().toISOString().slice(0, 10);
 export async function seedIfEmpty(db: Database, today = todayIso()): Promise<SeedSummary | null> {
   const [{ count }] = (await db.select({ count: sql<number>`count(*)::int` }).from(practices)) as [{ count: number }];
   if (count > 0) return null;
-  return db.transaction((tx) => seedDemoScenario(tx, today));
+  return db.transaction((tx) => seedDemo(tx, today));
 }
 
 const isMain = process.argv[1] && path.resolve(process.argv[1]) === fileURLToPath(import.meta.url);

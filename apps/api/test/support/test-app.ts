@@ -8,7 +8,7 @@ import { parseEnv } from '../../src/config/env.js';
 import { createDatabase, createPool, type Database } from '../../src/db/database.js';
 import { implantSites, patients } from '../../src/db/schema/index.js';
 import { DEMO_PASSWORD } from '../../src/seed/demo-scenario.js';
-import { seedDemoScenario } from '../../src/seed/demo-scenario.js';
+import { seedDemo } from '../../src/seed/demo.js';
 import { todayIso } from '../../src/seed/seed.js';
 
 export const testEnv = () => parseEnv({ ...process.env, NODE_ENV: 'test', WEB_DIST: '' });
@@ -25,7 +25,7 @@ export async function resetDatabase(db: Database): Promise<void> {
   const tables = await db.execute<{ tablename: string }>(sql`select tablename from pg_tables where schemaname = 'public'`);
   const names = tables.rows.map((t) => `"${t.tablename}"`).join(', ');
   if (names) await db.execute(sql.raw(`TRUNCATE ${names} RESTART IDENTITY CASCADE`));
-  await db.transaction((tx) => seedDemoScenario(tx, todayIso()));
+  await db.transaction((tx) => seedDemo(tx, todayIso()));
 }
 
 export async function startTestApp(): Promise<TestContext> {

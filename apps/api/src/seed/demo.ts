@@ -1,0 +1,10 @@
+// The whole demo seed: the scenario (practices, people, catalogue, implants, restorations,
+// torque) and the history each feature adds on top of it, in one transaction of the caller.
+import type { Tx } from '../db/database.js';
+import { seedDemoScenario, type SeedSummary } from './demo-scenario.js';
+
+export async function seedDemo(tx: Tx, today: string): Promise<SeedSummary> {
+  const { summary } = await seedDemoScenario(tx, today);
+  // Feature seeds (ledger history, recall history) are added here, each in a file of its own.
+  return summary;
+}

@@ -1,0 +1,163 @@
+/**
+ * @torquetrail/domain — the clinical computation core of Torquetrail.
+ *
+ * Pure functions, no I/O. Computed results support, never replace, the clinician's judgement.
+ * Every rule, its source and the decisions taken where the sources are silent are listed in
+ * docs/clinical-rules.md. Invalid input throws a typed error ({@link DomainError} subclasses, or
+ * `RangeError` for tooth positions), never a silent wrong answer.
+ */
+
+// ---- version -------------------------------------------------------------------------------
+/** Version of the rule set; store it beside every computed verdict. */
+export { RULES_VERSION } from './version.js';
+
+// ---- errors --------------------------------------------------------------------------------
+/** Base class of all domain errors; branch on its stable `code`. */
+export { DomainError } from './errors.js';
+/** Invalid input (NaN, negative depth, empty list, impossible date, unknown choice). */
+export { ValidationError } from './errors.js';
+/** Unreadable GS1 UDI or GTIN; `code` tells why (e.g. `bad-check-digit`). */
+export { UdiError } from './errors.js';
+/** Non-existent tooth position; a `RangeError` with `code` 'invalid-position'. */
+export { ToothPositionError } from './errors.js';
+/** Error-code unions. */
+export type { ValidationErrorCode, UdiErrorCode } from './errors.js';
+
+// ---- calendar ------------------------------------------------------------------------------
+/** Adds calendar months to a YYYY-MM-DD date, clamping to the month's last day. */
+export { addCalendarMonths } from './calendar.js';
+/** True for a real calendar date written YYYY-MM-DD. */
+export { isValidIsoDate } from './calendar.js';
+/** Whole days between two YYYY-MM-DD dates. */
+export { daysBetween } from './calendar.js';
+
+// ---- tooth numbering (ISO 3950 / Universal) ------------------------------------------------
+/** FDI → Universal ('1'–'32', 'A'–'T'); `RangeError` for a non-existent position. */
+export { fdiToUniversal } from './tooth-numbering.js';
+/** Universal → FDI; `RangeError` for a non-existent designation. */
+export { universalToFdi } from './tooth-numbering.js';
+/** Writes a tooth in FDI or Universal notation. */
+export { formatTooth } from './tooth-numbering.js';
+/** 'molar' | 'premolar' | 'canine' | 'incisor' for an FDI position. */
+export { toothKind } from './tooth-numbering.js';
+/** Upper or lower arch of an FDI position. */
+export { toothArch } from './tooth-numbering.js';
+/** True for an existing FDI position (permanent or primary). */
+export { isValidFdi } from './tooth-numbering.js';
+/** True for a primary-dentition FDI position. */
+export { isPrimaryTooth } from './tooth-numbering.js';
+/** The 32 permanent FDI positions in drawing order (18…11, 21…28, 38…31, 41…48). */
+export { TOOTH_POSITIONS_PERMANENT } from './tooth-numbering.js';
+/** The 20 primary FDI positions in drawing order (55…51, 61…65, 75…71, 81…85). */
+export { TOOTH_POSITIONS_PRIMARY } from './tooth-numbering.js';
+/** Tooth-numbering types. */
+export type { ToothKind, ToothNumberingSystem, ToothArch } from './tooth-numbering.js';
+
+// ---- peri-implant status (2017 World Workshop) ---------------------------------------------
+/** Health / mucositis / peri-implantitis from the worst site, with reasons and flags. */
+export { classifyPeriImplant } from './peri-implant-status.js';
+/** Stable flag strings of {@link classifyPeriImplant}. */
+export { PERI_IMPLANT_FLAGS } from './peri-implant-status.js';
+/** Default and published thresholds of the peri-implant case definitions. */
+export { DEFAULT_PD_INCREASE_MM, DEFAULT_BONE_LOSS_MM, NO_BASELINE_PD_MM, NO_BASELINE_BONE_LEVEL_MM } from './peri-implant-status.js';
+/** Peri-implant types. */
+export type {
+  PeriImplantStatus,
+  PeriImplantSite,
+  PeriImplantExam,
+  PeriImplantBaseline,
+  PeriImplantOptions,
+  PeriImplantResult,
+  PeriImplantFlag,
+} from './peri-implant-status.js';
+
+// ---- UDI (GS1) -----------------------------------------------------------------------------
+/** GS1 check digit of the data digits. */
+export { gtinCheckDigit } from './udi.js';
+/** True for a GTIN-8/12/13/14 with a correct check digit. */
+export { isValidGtin } from './udi.js';
+/** Parses a GS1 UDI element string (human-readable or raw with GS). */
+export { parseUdi } from './udi.js';
+/** The GS (0x1D) separator and accepted symbology identifiers. */
+export { GS, SYMBOLOGY_IDENTIFIERS } from './udi.js';
+/** Parsed UDI type. */
+export type { ParsedUdi } from './udi.js';
+
+// ---- geometry ------------------------------------------------------------------------------
+/** Angle between two implant axes, degrees, in [0, 180]. */
+export { divergenceDeg } from './geometry.js';
+/** 15°, the divergence limit for accurate impressions (Jang 2011). */
+export { DIVERGENCE_LIMIT_DEG } from './geometry.js';
+/** 3-D vector type. */
+export type { Vec3 } from './geometry.js';
+
+// ---- radiograph measurement ----------------------------------------------------------------
+/** Distance between two image points using DICOM Pixel Spacing (row spacing first). */
+export { pixelDistanceMm } from './radiograph-measure.js';
+/** Magnification correction by an implant of known length. */
+export { correctByKnownLength } from './radiograph-measure.js';
+/** Radiograph measurement types. */
+export type { PixelPoint, PixelSpacing, KnownLengthCalibration } from './radiograph-measure.js';
+
+// ---- torque --------------------------------------------------------------------------------
+/** 'within' | 'under' | 'over' against an inclusive percentage window. */
+export { torqueVerdict } from './torque.js';
+/** Signed deviation from the specification, %. */
+export { torqueDeviationPct } from './torque.js';
+/** Published tolerances, re-tightening delay and demo-catalogue torques (manufacturer-specific). */
+export { ISO_6789_TOLERANCE_PCT, FRICTION_DEVICE_TOLERANCE_PCT, RETIGHTEN_AFTER_MINUTES, DEMO_TORQUE_DEFAULTS_NCM } from './torque.js';
+/** Torque types. */
+export type { TorqueVerdict, TorqueCheck } from './torque.js';
+
+// ---- bone level ----------------------------------------------------------------------------
+/** Cumulative Albrektsson allowance after n years: 1.5 + 0.2 × (n − 1) mm. */
+export { albrektssonAllowanceMm } from './bone-level.js';
+/** Judges a bone-level series against Albrektsson 1986. */
+export { meetsAlbrektsson } from './bone-level.js';
+/** ICOI Pisa health-scale group I–IV (Misch 2008). */
+export { icoiGrade } from './bone-level.js';
+/** Albrektsson limits. */
+export { ALBREKTSSON_FIRST_YEAR_MM, ALBREKTSSON_ANNUAL_MM } from './bone-level.js';
+/** Bone-level types. */
+export type { BoneLevelReading, AlbrektssonOptions, AlbrektssonResult, IcoiGrade, IcoiInput } from './bone-level.js';
+
+// ---- restorative space ---------------------------------------------------------------------
+/** Minimum vertical restorative space for a design (Carpentieri 2019, strictest end). */
+export { minRestorativeSpaceMm } from './restorative-space.js';
+/** Minimum gap for a single implant between teeth: diameter + 3 mm. */
+export { minSingleToothGapMm } from './restorative-space.js';
+/** Minimum centre distance of two implants: radii + 3 mm (Tarnow 2000). */
+export { minImplantCentreDistanceMm } from './restorative-space.js';
+/** Designs, labels and spacing constants. */
+export { RESTORATIVE_DESIGNS, RESTORATIVE_DESIGN_LABELS, MIN_IMPLANT_TO_TOOTH_MM, MIN_IMPLANT_TO_IMPLANT_MM } from './restorative-space.js';
+/** Restorative design type. */
+export type { RestorativeDesign } from './restorative-space.js';
+
+// ---- restoration plan ----------------------------------------------------------------------
+/** Validates a restoration plan; `[]` when valid. */
+export { validateRestorationPlan } from './restoration-plan.js';
+/** The restorative design a plan implies. */
+export { restorativeDesignForPlan } from './restoration-plan.js';
+/** Stable finding codes and source strings. */
+export { PLAN_FINDING_CODES, PLAN_SOURCES } from './restoration-plan.js';
+/** Restoration-plan types. */
+export type {
+  Finding,
+  FindingSeverity,
+  RestorationPlan,
+  RestorationPlanSite,
+  RestorationKind,
+  Retention,
+  ImplantInterface,
+  ImpressionCoping,
+} from './restoration-plan.js';
+
+// ---- recall --------------------------------------------------------------------------------
+/** Next recall date: 6 months, or 3 with any risk factor (practice policy). */
+export { nextRecallDate } from './recall-interval.js';
+/** True when any recall risk factor is present. */
+export { hasRecallRisk } from './recall-interval.js';
+/** Default recall intervals. */
+export { DEFAULT_RECALL_MONTHS, DEFAULT_RISK_RECALL_MONTHS } from './recall-interval.js';
+/** Recall types. */
+export type { RecallRisk, RecallPolicy } from './recall-interval.js';

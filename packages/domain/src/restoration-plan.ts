@@ -1,0 +1,357 @@
+/**
+ * Validation of an implant restoration plan: connection (engaging / non-engaging), impression copings,
+ * divergence between splinted implants, restorative space and site list.
+ *
+ * Sources: Jang HK et al. 2011, Int J Oral Maxillofac Implants 26:1011–1015 [pub] (impressions accurate
+ * below about 15° of divergence); Carpentieri J, Greenstein G, Cavallaro J 2019, JADA 150(8):695–706 [pub]
+ * (restorative space); ISO 3950 [memory] (tooth positions); prosthetic connection rules [common practice].
+ *
+ * Decisions where the sources are silent (also in docs/clinical-rules.md):
+ * - Angled multi-unit abutments: with screw-to-multi-unit retention the divergence of a pair is reduced by
+ *   the sum of both sites' multiUnitAngleDeg (best case: abutments oriented towards each other), floored at 0°;
+ *   the warning fires when the residual is more than 15°. Other retentions get no correction.
+ * - Full arch: fewer than 2 sites is an error (`site-count`); 2–3 sites is a warning
+ *   (`few-implants-full-arch`, common practice is 4 or more; some 3-implant mandibular systems exist).
+ * - The restorative-space check uses the smallest restorativeSpaceMm given; equal to the minimum passes.
+ * - Primary-dentition positions are valid FDI numbers but implants are numbered at permanent positions:
+ *   a warning (`primary-tooth-position`).
+ * - For screw-to-multi-unit retention the `interface` field is not judged (only single crowns need it engaging).
+ */
+import { DIVERGENCE_LIMIT_DEG, divergenceDeg, type Vec3 } from './geometry.js';
+import { ValidationError } from './errors.js';
+import { RESTORATIVE_DESIGN_LABELS, minRestorativeSpaceMm, type RestorativeDesign } from './restorative-space.js';
+import { isPrimaryTooth, isValidFdi, toothArch } from './tooth-numbering.js';
+import { EPS, fmt, optionalBoolean, requireArray, requireFinite, requireNonNegative, requireOneOf } from './validate.js';
+
+/** Kind of restoration. `splinted-bridge` and `full-arch` are splinted. */
+export type RestorationKind = 'single-crown' | 'splinted-bridge' | 'full-arch';
+/** How the restoration is retained. */
+export type Retention = 'screw-to-implant' | 'screw-to-multi-unit' | 'cement-on-abutment' | 'lingual-set-screw';
+/** Connection of the restoration (or abutment) to the implant: indexed to the hex or not. */
+export type ImplantInterface = 'engaging' | 'non-engaging';
+/** Impression coping used at a site. */
+export type ImpressionCoping = 'engaging' | 'non-engaging' | 'multi-unit';
+
+/** One implant site of a plan. */
+export interface RestorationPlanSite {
+  /** FDI position of the implant. */
+  fdi: number;
+  interface: ImplantInterface;
+  impressionCoping: ImpressionCoping;
+  /** Implant axis direction (any units), for the divergence check. */
+  axis?: Vec3;
+  /** Angle of the multi-unit abutment, degrees. */
+  multiUnitAngleDeg?: 0 | 17 | 30;
+  /** Vertical restorative space at this site, mm. */
+  restorativeSpaceMm?: number;
+}
+
+/** A restoration plan to validate. */
+export interface RestorationPlan {
+  kind: RestorationKind;
+  retention: Retention;
+  /** Impression copings splinted together (e.g. with resin) before the impression is taken. */
+  copingsSplinted?: boolean;
+  sites: RestorationPlanSite[];
+}
+
+/** Severity of a {@link Finding}: an error blocks the plan, a warning needs the clinician's attention. */
+export type FindingSeverity = 'error' | 'warning';
+
+/** One problem found in a plan. */
+export interface Finding {
+  severity: FindingSeverity;
+  /** Stable code, see {@link PLAN_FINDING_CODES}. */
+  code: string;
+  /** Plain clinical English. */
+  message: string;
+  /** FDI position concerned, when the finding concerns one site. */
+  fdi?: number;
+  /** Source of the rule (author year, journal) or 'common practice'. */
+  source?: string;
+}
+
+/** Stable codes of the findings of {@link validateRestorationPlan}. */
+export const PLAN_FINDING_CODES = Object.freeze({
+  SITE_COUNT: 'site-count',
+  FEW_IMPLANTS_FULL_ARCH: 'few-implants-full-arch',
+  INVALID_POSITION: 'invalid-position',
+  PRIMARY_TOOTH_POSITION: 'primary-tooth-position',
+  DUPLICATE_SITE: 'duplicate-site',
+  SITES_IN_BOTH_ARCHES: 'sites-in-both-arches',
+  ENGAGING_INTERFACE_ON_SPLINTED: 'engaging-interface-on-splinted',
+  ENGAGING_IMPRESSION_FOR_PLATFORM_BRIDGE: 'engaging-impression-for-platform-bridge',
+  NON_ENGAGING_IMPRESSION_FOR_INDEXED: 'non-engaging-impression-for-indexed',
+  NON_ENGAGING_SINGLE_CROWN: 'non-engaging-single-crown',
+  MULTI_UNIT_IMPRESSION_REQUIRED: 'multi-unit-impression-required',
+  MULTI_UNIT_IMPRESSION_WITHOUT_ABUTMENT: 'multi-unit-impression-without-abutment',
+  MULTI_UNIT_ANGLE_WITHOUT_ABUTMENT: 'multi-unit-angle-without-abutment',
+  SPLINTED_ENGAGING_COPINGS: 'splinted-engaging-copings',
+  DIVERGENCE_OVER_LIMIT: 'divergence-over-limit',
+  INSUFFICIENT_RESTORATIVE_SPACE: 'insufficient-restorative-space',
+} as const);
+
+/** Source strings used in findings. */
+export const PLAN_SOURCES = Object.freeze({
+  JANG_2011: 'Jang HK et al. 2011, Int J Oral Maxillofac Implants 26:1011–1015',
+  CARPENTIERI_2019: 'Carpentieri J, Greenstein G, Cavallaro J 2019, JADA 150(8):695–706',
+  ISO_3950: 'ISO 3950 (FDI two-digit notation) [memory]',
+  COMMON_PRACTICE: 'common practice',
+} as const);
+
+const KINDS: readonly RestorationKind[] = ['single-crown', 'splinted-bridge', 'full-arch'];
+const RETENTIONS: readonly Retention[] = ['screw-to-implant', 'screw-to-multi-unit', 'cement-on-abutment', 'lingual-set-screw'];
+const INTERFACES: readonly ImplantInterface[] = ['engaging', 'non-engaging'];
+const COPINGS: readonly ImpressionCoping[] = ['engaging', 'non-engaging', 'multi-unit'];
+const MUA_ANGLES: readonly number[] = [0, 17, 30];
+
+const RETENTION_LABELS: Record<Retention, string> = {
+  'screw-to-implant': 'screw-retained on the implant',
+  'screw-to-multi-unit': 'screw-retained on multi-unit abutments',
+  'cement-on-abutment': 'cemented on an abutment',
+  'lingual-set-screw': 'retained with a lingual set screw',
+};
+
+/**
+ * Restorative design implied by a plan, for the space check: full-arch screw-retained → full-arch-hybrid;
+ * other screw-to-implant → screw-implant-level; other screw-to-multi-unit → screw-abutment-level;
+ * cement-on-abutment and lingual-set-screw → cement.
+ */
+export function restorativeDesignForPlan(plan: Pick<RestorationPlan, 'kind' | 'retention'>): RestorativeDesign {
+  const kind = requireOneOf(plan.kind, KINDS, 'plan.kind');
+  const retention = requireOneOf(plan.retention, RETENTIONS, 'plan.retention');
+  if (kind === 'full-arch' && (retention === 'screw-to-implant' || retention === 'screw-to-multi-unit')) return 'full-arch-hybrid';
+  if (retention === 'screw-to-implant') return 'screw-implant-level';
+  if (retention === 'screw-to-multi-unit') return 'screw-abutment-level';
+  return 'cement';
+}
+
+function validateShape(plan: RestorationPlan): void {
+  if (plan === null || typeof plan !== 'object') throw new ValidationError('bad-value', 'plan must be an object', 'plan');
+  requireOneOf(plan.kind, KINDS, 'plan.kind');
+  requireOneOf(plan.retention, RETENTIONS, 'plan.retention');
+  optionalBoolean(plan.copingsSplinted, 'plan.copingsSplinted');
+  requireArray(plan.sites, 'plan.sites').forEach((s, i) => {
+    const f = `plan.sites[${i}]`;
+    if (s === null || typeof s !== 'object') throw new ValidationError('bad-value', `${f} must be an object`, f);
+    const site = s as RestorationPlanSite;
+    requireFinite(site.fdi, `${f}.fdi`);
+    requireOneOf(site.interface, INTERFACES, `${f}.interface`);
+    requireOneOf(site.impressionCoping, COPINGS, `${f}.impressionCoping`);
+    if (site.multiUnitAngleDeg !== undefined) requireOneOf(site.multiUnitAngleDeg, MUA_ANGLES, `${f}.multiUnitAngleDeg`);
+    if (site.restorativeSpaceMm !== undefined) requireNonNegative(site.restorativeSpaceMm, `${f}.restorativeSpaceMm`);
+    if (site.axis !== undefined) divergenceDeg(site.axis, site.axis); // validates: 3 finite components, not zero
+  });
+}
+
+/**
+ * Validates a restoration plan. Returns `[]` for a valid plan, otherwise the findings (errors first in the
+ * order of the checks: site list, connections and impressions per site, divergence, restorative space).
+ * @throws ValidationError for a malformed plan (unknown kind/retention/interface/coping, non-finite numbers,
+ *   a negative restorative space, a zero or non-finite axis, a multi-unit angle other than 0, 17 or 30)
+ */
+export function validateRestorationPlan(plan: RestorationPlan): Finding[] {
+  validateShape(plan);
+  const findings: Finding[] = [];
+  const { kind, retention, sites } = plan;
+  const splinted = kind !== 'single-crown';
+  const n = sites.length;
+
+  // --- site list ---------------------------------------------------------------------------
+  if (kind === 'single-crown' && n !== 1) {
+    findings.push({
+      severity: 'error',
+      code: PLAN_FINDING_CODES.SITE_COUNT,
+      message: `A single crown is placed on exactly one implant; this plan lists ${n} sites.`,
+      source: PLAN_SOURCES.COMMON_PRACTICE,
+    });
+  } else if (splinted && n < 2) {
+    findings.push({
+      severity: 'error',
+      code: PLAN_FINDING_CODES.SITE_COUNT,
+      message: `A ${kind === 'full-arch' ? 'full-arch restoration' : 'splinted bridge'} needs at least two implants; this plan lists ${n}.`,
+      source: PLAN_SOURCES.COMMON_PRACTICE,
+    });
+  } else if (kind === 'full-arch' && n < 4) {
+    findings.push({
+      severity: 'warning',
+      code: PLAN_FINDING_CODES.FEW_IMPLANTS_FULL_ARCH,
+      message: `A fixed full-arch restoration is usually supported by at least four implants; this plan lists ${n}. Check that the implant system supports this design.`,
+      source: PLAN_SOURCES.COMMON_PRACTICE,
+    });
+  }
+
+  const seen = new Set<number>();
+  const arches = new Map<'upper' | 'lower', number[]>();
+  for (const site of sites) {
+    if (!isValidFdi(site.fdi)) {
+      findings.push({
+        severity: 'error',
+        code: PLAN_FINDING_CODES.INVALID_POSITION,
+        message: `${site.fdi} is not an FDI tooth position (11–18, 21–28, 31–38, 41–48).`,
+        fdi: site.fdi,
+        source: PLAN_SOURCES.ISO_3950,
+      });
+      continue;
+    }
+    if (seen.has(site.fdi)) {
+      findings.push({
+        severity: 'error',
+        code: PLAN_FINDING_CODES.DUPLICATE_SITE,
+        message: `Tooth ${site.fdi} is listed more than once; each implant site can appear only once in a plan.`,
+        fdi: site.fdi,
+        source: PLAN_SOURCES.COMMON_PRACTICE,
+      });
+      continue;
+    }
+    seen.add(site.fdi);
+    if (isPrimaryTooth(site.fdi)) {
+      findings.push({
+        severity: 'warning',
+        code: PLAN_FINDING_CODES.PRIMARY_TOOTH_POSITION,
+        message: `Tooth ${site.fdi} is a primary-tooth position; implants are numbered at the permanent position they replace.`,
+        fdi: site.fdi,
+        source: PLAN_SOURCES.ISO_3950,
+      });
+    }
+    const arch = toothArch(site.fdi);
+    arches.set(arch, [...(arches.get(arch) ?? []), site.fdi]);
+  }
+  if (splinted && arches.size === 2) {
+    findings.push({
+      severity: 'error',
+      code: PLAN_FINDING_CODES.SITES_IN_BOTH_ARCHES,
+      message: `One splinted restoration cannot join upper (${arches.get('upper')!.join(', ')}) and lower (${arches.get('lower')!.join(', ')}) implants; plan one restoration per arch.`,
+      source: PLAN_SOURCES.COMMON_PRACTICE,
+    });
+  }
+
+  // --- connection and impression, per site ----------------------------------------------------
+  for (const site of sites) {
+    const fdi = site.fdi;
+    const at = `Tooth ${fdi}`;
+    if (!splinted && site.interface === 'non-engaging') {
+      findings.push({
+        severity: 'error',
+        code: PLAN_FINDING_CODES.NON_ENGAGING_SINGLE_CROWN,
+        message: `${at}: a single crown needs an engaging (anti-rotational) connection; a non-engaging crown can turn on the implant and its screw will loosen.`,
+        fdi,
+        source: PLAN_SOURCES.COMMON_PRACTICE,
+      });
+    }
+    if (splinted && retention === 'screw-to-implant' && site.interface === 'engaging') {
+      findings.push({
+        severity: 'error',
+        code: PLAN_FINDING_CODES.ENGAGING_INTERFACE_ON_SPLINTED,
+        message: `${at}: a splinted restoration screwed directly to the implants cannot seat on several hexes at once; use a non-engaging connection at every implant.`,
+        fdi,
+        source: PLAN_SOURCES.COMMON_PRACTICE,
+      });
+    }
+    if (retention === 'screw-to-multi-unit') {
+      if (site.impressionCoping !== 'multi-unit') {
+        findings.push({
+          severity: 'error',
+          code: PLAN_FINDING_CODES.MULTI_UNIT_IMPRESSION_REQUIRED,
+          message: `${at}: a restoration screwed to multi-unit abutments is recorded with multi-unit impression copings, not ${site.impressionCoping} implant-level copings.`,
+          fdi,
+          source: PLAN_SOURCES.COMMON_PRACTICE,
+        });
+      }
+    } else {
+      if (site.impressionCoping === 'multi-unit') {
+        findings.push({
+          severity: 'error',
+          code: PLAN_FINDING_CODES.MULTI_UNIT_IMPRESSION_WITHOUT_ABUTMENT,
+          message: `${at}: a multi-unit impression coping was chosen, but the restoration is ${RETENTION_LABELS[retention]}, without multi-unit abutments.`,
+          fdi,
+          source: PLAN_SOURCES.COMMON_PRACTICE,
+        });
+      }
+      if (site.multiUnitAngleDeg !== undefined && site.multiUnitAngleDeg !== 0) {
+        findings.push({
+          severity: 'warning',
+          code: PLAN_FINDING_CODES.MULTI_UNIT_ANGLE_WITHOUT_ABUTMENT,
+          message: `${at}: a ${site.multiUnitAngleDeg}° multi-unit abutment is noted, but the restoration is ${RETENTION_LABELS[retention]}; the angle is ignored.`,
+          fdi,
+          source: PLAN_SOURCES.COMMON_PRACTICE,
+        });
+      }
+      if (retention === 'screw-to-implant' && splinted && site.impressionCoping === 'engaging') {
+        findings.push({
+          severity: 'error',
+          code: PLAN_FINDING_CODES.ENGAGING_IMPRESSION_FOR_PLATFORM_BRIDGE,
+          message: `${at}: a splinted restoration screwed directly to the implants is made from non-engaging impression copings; an engaging coping records the inside of the connection, which the framework will not use.`,
+          fdi,
+          source: PLAN_SOURCES.COMMON_PRACTICE,
+        });
+      }
+      const indexed = retention === 'cement-on-abutment' || retention === 'lingual-set-screw' || (retention === 'screw-to-implant' && !splinted);
+      if (indexed && site.impressionCoping === 'non-engaging') {
+        findings.push({
+          severity: 'error',
+          code: PLAN_FINDING_CODES.NON_ENGAGING_IMPRESSION_FOR_INDEXED,
+          message: `${at}: a restoration ${RETENTION_LABELS[retention]} needs an engaging impression coping to transfer the position of the implant's hex.`,
+          fdi,
+          source: PLAN_SOURCES.COMMON_PRACTICE,
+        });
+      }
+    }
+  }
+
+  if (plan.copingsSplinted === true && n >= 2) {
+    const engaging = sites.filter((s) => s.impressionCoping === 'engaging').map((s) => s.fdi);
+    if (engaging.length > 0) {
+      findings.push({
+        severity: 'warning',
+        code: PLAN_FINDING_CODES.SPLINTED_ENGAGING_COPINGS,
+        message: `Engaging impression copings (at ${engaging.join(', ')}) are splinted together; engaging copings on implants that are not parallel may not share a path of draw, so the splinted impression may not come out or may distort. Use non-engaging copings or leave them unsplinted.`,
+        source: PLAN_SOURCES.COMMON_PRACTICE,
+      });
+    }
+  }
+
+  // --- divergence between the implants of one splinted restoration ----------------------------
+  if (splinted) {
+    const withAxis = sites.filter((s) => s.axis !== undefined);
+    for (let i = 0; i < withAxis.length; i++) {
+      for (let j = i + 1; j < withAxis.length; j++) {
+        const a = withAxis[i];
+        const b = withAxis[j];
+        const theta = divergenceDeg(a.axis!, b.axis!);
+        const correction = retention === 'screw-to-multi-unit' ? (a.multiUnitAngleDeg ?? 0) + (b.multiUnitAngleDeg ?? 0) : 0;
+        const residual = Math.max(0, theta - correction);
+        if (residual > DIVERGENCE_LIMIT_DEG + EPS) {
+          const corrected =
+            correction > 0
+              ? ` Even with the angled multi-unit abutments (${a.multiUnitAngleDeg ?? 0}° + ${b.multiUnitAngleDeg ?? 0}°), ${fmt(residual)}° remain.`
+              : '';
+          findings.push({
+            severity: 'warning',
+            code: PLAN_FINDING_CODES.DIVERGENCE_OVER_LIMIT,
+            message: `The implants at ${a.fdi} and ${b.fdi} diverge by ${fmt(theta)}°, more than ${DIVERGENCE_LIMIT_DEG}°.${corrected} Impressions lose accuracy beyond about 15° (framework gaps were found at 20°); consider angled multi-unit abutments and verify the framework fit.`,
+            source: PLAN_SOURCES.JANG_2011,
+          });
+        }
+      }
+    }
+  }
+
+  // --- restorative space ---------------------------------------------------------------------
+  const spaced = sites.filter((s) => s.restorativeSpaceMm !== undefined);
+  if (spaced.length > 0) {
+    const tightest = spaced.reduce((m, s) => (s.restorativeSpaceMm! < m.restorativeSpaceMm! ? s : m));
+    const design = restorativeDesignForPlan(plan);
+    const min = minRestorativeSpaceMm(design);
+    if (tightest.restorativeSpaceMm! < min - EPS) {
+      findings.push({
+        severity: 'error',
+        code: PLAN_FINDING_CODES.INSUFFICIENT_RESTORATIVE_SPACE,
+        message: `Tooth ${tightest.fdi}: ${fmt(tightest.restorativeSpaceMm!)} mm of vertical restorative space is less than the ${fmt(min)} mm needed for a ${RESTORATIVE_DESIGN_LABELS[design]}.`,
+        fdi: tightest.fdi,
+        source: PLAN_SOURCES.CARPENTIERI_2019,
+      });
+    }
+  }
+  return findings;
+}
