@@ -1,0 +1,70 @@
+import { Alignment, Button, Classes, Navbar, NavbarDivider, NavbarGroup, NavbarHeading, Tag } from '@blueprintjs/core';
+import type { Me } from '@torquetrail/contracts';
+import type React from 'react';
+import { Link, NavLink, Outlet, useMatch } from 'react-router-dom';
+import { ROLE_LABEL } from '../lib/labels';
+
+interface AppShellProps {
+  me: Me;
+  onSignOut: () => void;
+  signingOut: boolean;
+  signOutError: Error | null;
+}
+
+/** Moves focus to the page without putting a fragment into the router's URL. */
+function skipToContent(event: React.MouseEvent<HTMLAnchorElement>) {
+  event.preventDefault();
+  document.getElementById('main')?.focus();
+}
+
+/** The top bar (product, Patients, who is signed in, Sign out) and the page below it. */
+export function AppShell({ me, onSignOut, signingOut, signOutError }: AppShellProps) {
+  const onPatientList = useMatch('/patients') !== null;
+  return (
+    <>
+      <a className="skip-link" href="#main" onClick={skipToContent}>
+        Skip to content
+      </a>
+      <header>
+        <Navbar className="app-navbar">
+          <NavbarGroup align={Alignment.START}>
+            <NavbarHeading>
+              <Link to="/patients" className="app-navbar__product">
+                Torquetrail
+              </Link>
+            </NavbarHeading>
+            <NavbarDivider />
+            <nav aria-label="Main">
+              <NavLink
+                to="/patients"
+                // Highlighted on every patient page; aria-current="page" only on the list itself.
+                aria-current={onPatientList ? 'page' : 'true'}
+                className={({ isActive }) => `${Classes.BUTTON} ${Classes.MINIMAL}${isActive ? ` ${Classes.ACTIVE}` : ''}`}
+              >
+                Patients
+              </NavLink>
+            </nav>
+          </NavbarGroup>
+          <NavbarGroup align={Alignment.END}>
+            <span className="app-navbar__user">
+              <span className="app-navbar__name">{me.displayName}</span>
+              <span className="app-navbar__meta">
+                {ROLE_LABEL[me.role]} · {me.practiceName}
+              </span>
+            </span>
+            <NavbarDivider />
+            {signOutError && (
+              <Tag intent="danger" minimal role="alert" className="app-navbar__error">
+                Sign-out failed: {signOutError.message}
+              </Tag>
+            )}
+            <Button variant="minimal" icon="log-out" text="Sign out" onClick={onSignOut} loading={signingOut} />
+          </NavbarGroup>
+        </Navbar>
+      </header>
+      <main className="page" id="main" tabIndex={-1}>
+        <Outlet />
+      </main>
+    </>
+  );
+}

@@ -1,0 +1,43 @@
+import { createBrowserRouter, Navigate, Outlet } from 'react-router-dom';
+import { SignInRoute } from '../features/auth/routes/sign-in-route';
+import { LoadingState } from '../lib/components/loading-state';
+import { NotFoundRoute } from './not-found-route';
+import { RequireAuth } from './require-auth';
+import { RouteError } from './route-error';
+
+/**
+ * The app's pages. The signed-in pages are split into their own chunks (React Router `lazy`),
+ * so the sign-in page and the first paint load only what they need.
+ */
+export const router = createBrowserRouter([
+  {
+    element: <Outlet />,
+    errorElement: <RouteError />,
+    hydrateFallbackElement: <LoadingState label="Loading Torquetrail" />,
+    children: [
+      { path: '/sign-in', element: <SignInRoute /> },
+      {
+        path: '/',
+        element: <RequireAuth />,
+        children: [
+          { index: true, element: <Navigate to="/patients" replace /> },
+          {
+            path: 'patients',
+            lazy: async () => ({ Component: (await import('../features/patients/routes/patients-route')).PatientsRoute }),
+          },
+          {
+            path: 'patients/:patientId',
+            lazy: async () => ({ Component: (await import('../features/arch/routes/arch-route')).ArchRoute }),
+          },
+          {
+            path: 'patients/:patientId/sites/:siteId',
+            lazy: async () => ({
+              Component: (await import('../features/site-file/routes/site-file-route')).SiteFileRoute,
+            }),
+          },
+          { path: '*', element: <NotFoundRoute /> },
+        ],
+      },
+    ],
+  },
+]);

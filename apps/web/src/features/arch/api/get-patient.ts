@@ -1,0 +1,19 @@
+import { PatientDetail } from '@torquetrail/contracts';
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import { apiRequest } from '../../../lib/api-client';
+
+export const patientQueryKey = (patientId: string) => ['patients', 'detail', patientId] as const;
+
+export function fetchPatient(patientId: string, signal?: AbortSignal): Promise<PatientDetail> {
+  return apiRequest(`/api/patients/${encodeURIComponent(patientId)}`, { schema: PatientDetail, signal });
+}
+
+export const patientQueryOptions = (patientId: string) =>
+  queryOptions({
+    queryKey: patientQueryKey(patientId),
+    queryFn: ({ signal }) => fetchPatient(patientId, signal),
+  });
+
+export function usePatient(patientId: string) {
+  return useQuery(patientQueryOptions(patientId));
+}

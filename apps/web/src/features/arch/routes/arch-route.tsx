@@ -1,0 +1,104 @@
+import '../components/arch.css';
+import { NonIdealState } from '@blueprintjs/core';
+import { isPrimaryTooth, TOOTH_POSITIONS_PERMANENT, TOOTH_POSITIONS_PRIMARY } from '@torquetrail/domain';
+import { Link, useNavigate, useParams } from 'react-router-dom';
+import { isApiError } from '../../../lib/api-client';
+import { BreadcrumbTrail } from '../../../lib/components/breadcrumb-trail';
+import { ErrorState } from '../../../lib/components/error-state';
+import { LoadingState } from '../../../lib/components/loading-state';
+import { MAINTENANCE_NOTE } from '../../../lib/labels';
+import { useToothSystem } from '../../../lib/tooth-system';
+import { usePatient } from '../api/get-patient';
+import { ArchDrawing } from '../components/arch-drawing';
+import { ArchLegend } from '../components/arch-legend';
+import { NumberingSwitch } from '../components/numbering-switch';
+import { PatientHeader } from '../components/patient-header';
+import { SitesTable } from '../components/sites-table';
+
+/** /patients/:patientId: the patient's mouth as two arches, and the list of implant sites. */
+export function ArchRoute() {
+  const { patientId = '' } = useParams();
+  const patient = usePatient(patientId);
+  const [system] = useToothSystem();
+  const navigate = useNavigate();
+
+  if (patient.isPending) return <LoadingState label="Loading the patient" />;
+  if (patient.isError) {
+    return (
+      <>
+        <title>Patient · Torquetrail</title>
+        <BreadcrumbTrail items={[{ text: 'Patients', to: '/patients' }, { text: 'Patient' }]} />
+        <ErrorState
+          title={isApiError(patient.error, 404) ? 'Patient not found' : 'Could not load the patient'}
+          error={patient.error}
+          onRetry={() => void patient.refetch()}
+        >
+          <Link to="/patients">Back to Patients</Link>
+        </ErrorState>
+      </>
+    );
+  }
+
+  const data = patient.data;
+  const name = `${data.givenName} ${data.familyName}`;
+  const openSite = (siteId: string) => navigate(`/patients/${data.id}/sites/${siteId}`);
+  const hasPrimary = [...data.sites.map((s) => s.fdi), ...data.missingTeeth].some(isPrimaryTooth);
+
+  return (
+    <div className="arch-page">
+      <title>{`${name} · Arch · Torquetrail`}</title>
+      <BreadcrumbTrail items={[{ text: 'Patients', to: '/patients' }, { text: name }]} />
+      <PatientHeader patient={data} />
+
+      <section className="arch-section" aria-labelledby="arch-heading">
+        <div className="section-heading">
+          <h2 id="arch-heading">Arch</h2>
+          <NumberingSwitch />
+        </div>
+        <div className="arch-layout">
+          <div className="arch-figure">
+            <ArchDrawing
+              positions={TOOTH_POSITIONS_PERMANENT}
+              sites={data.sites}
+              missingTeeth={data.missingTeeth}
+              system={system}
+              onOpenSite={openSite}
+              label="Dental arches"
+              testId="arch-svg"
+            />
+            {hasPrimary && (
+              <>
+                <h3>Primary teeth</h3>
+                <ArchDrawing
+                  positions={TOOTH_POSITIONS_PRIMARY}
+                  sites={data.sites}
+                  missingTeeth={data.missingTeeth}
+                  system={system}
+                  onOpenSite={openSite}
+                  label="Primary dental arches"
+                  testId="arch-svg-primary"
+                />
+              </>
+            )}
+            <p className="arch-hint muted">
+              Arrow keys move between positions; Enter opens an implant site's Site file.
+            </p>
+          </div>
+          <ArchLegend />
+        </div>
+      </section>
+
+      <section className="sites-section" aria-labelledby="sites-heading">
+        <h2 id="sites-heading">Implant sites</h2>
+        {data.sites.length === 0 ? (
+          <NonIdealState icon="inbox" title="No implant sites recorded" description="Sites appear here once planned or placed." />
+        ) : (
+          <>
+            <SitesTable patientId={data.id} sites={data.sites} system={system} />
+            <p className="maintenance-note">{MAINTENANCE_NOTE}</p>
+          </>
+        )}
+      </section>
+    </div>
+  );
+}

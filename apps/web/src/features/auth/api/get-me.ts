@@ -1,0 +1,33 @@
+import { Me } from '@torquetrail/contracts';
+import { type QueryClient, queryOptions, useQuery } from '@tanstack/react-query';
+import { apiRequest, isApiError } from '../../../lib/api-client';
+
+export const meQueryKey = ['auth', 'me'] as const;
+
+/** The signed-in user, or `null` when nobody is signed in (401 is an answer here, not a failure). */
+export async function fetchMe(signal?: AbortSignal): Promise<Me | null> {
+  try {
+    return await apiRequest('/api/auth/me', { schema: Me, signal });
+  } catch (error) {
+    if (isApiError(error, 401)) return null;
+    throw error;
+  }
+}
+
+export const meQueryOptions = () =>
+  queryOptions({
+    queryKey: meQueryKey,
+    queryFn: ({ signal }) => fetchMe(signal),
+    staleTime: 5 * 60_000,
+  });
+
+export function useMe() {
+  return useQuery(meQueryOptions());
+}
+
+/** Drops every cached reply except `me`, so no data of one session outlives it. */
+export function removeAllButMe(queryClient: QueryClient): void {
+  queryClient.removeQueries({
+    predicate: (query) => !(query.queryKey[0] === meQueryKey[0] && query.queryKey[1] === meQueryKey[1]),
+  });
+}

@@ -1,0 +1,43 @@
+import { HTMLTable } from '@blueprintjs/core';
+import type { PatientListItem } from '@torquetrail/contracts';
+import { Link } from 'react-router-dom';
+import { ageInYears, formatDate } from '../../../lib/dates';
+
+/** Patients, one row each; the name is the row's link (mouse and keyboard). */
+export function PatientsTable({ patients }: { patients: readonly PatientListItem[] }) {
+  return (
+    <div className="table-scroll">
+      <HTMLTable striped compact interactive className="patients-table" data-testid="patients-table">
+        <caption className="visually-hidden">Patients</caption>
+        <thead>
+          <tr>
+            <th scope="col">Chart no.</th>
+            <th scope="col">Name</th>
+            <th scope="col">Birth date (age)</th>
+            <th scope="col" className="numeric">
+              Implant sites
+            </th>
+            <th scope="col">Practice</th>
+          </tr>
+        </thead>
+        <tbody>
+          {patients.map((patient) => (
+            <tr key={patient.id}>
+              <td className="mono">{patient.chartNumber}</td>
+              <th scope="row">
+                <Link to={`/patients/${patient.id}`} className="row-link">
+                  {patient.familyName}, {patient.givenName}
+                </Link>
+              </th>
+              <td>
+                {formatDate(patient.birthDate)} ({ageInYears(patient.birthDate)})
+              </td>
+              <td className="numeric">{patient.implantSiteCount}</td>
+              <td>{patient.practiceName}</td>
+            </tr>
+          ))}
+        </tbody>
+      </HTMLTable>
+    </div>
+  );
+}

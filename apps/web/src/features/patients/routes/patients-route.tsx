@@ -1,0 +1,55 @@
+import '../components/patients.css';
+import { NonIdealState } from '@blueprintjs/core';
+import { useCallback } from 'react';
+import { useSearchParams } from 'react-router-dom';
+import { ErrorState } from '../../../lib/components/error-state';
+import { LoadingState } from '../../../lib/components/loading-state';
+import { usePatientList } from '../api/list-patients';
+import { PatientSearch } from '../components/patient-search';
+import { PatientsTable } from '../components/patients-table';
+
+/** /patients?search=…: the search lives in the URL, so it survives reload and Back. */
+export function PatientsRoute() {
+  const [params, setParams] = useSearchParams();
+  const search = params.get('search')?.trim() ?? '';
+  const patients = usePatientList(search);
+
+  const onSearch = useCallback(
+    (next: string) => {
+      if (next === search) return;
+      setParams(next ? { search: next } : {}, { replace: true });
+    },
+    [search, setParams],
+  );
+
+  return (
+    <div className="patients-page">
+      <title>Patients · Torquetrail</title>
+      <h1 className="page-title">Patients</h1>
+      <PatientSearch value={search} onSearch={onSearch} busy={patients.isFetching && !patients.isPending} />
+      {patients.isPending ? (
+        <LoadingState label="Loading patients" />
+      ) : patients.isError ? (
+        <ErrorState title="Could not load patients" error={patients.error} onRetry={() => void patients.refetch()} />
+      ) : patients.data.items.length === 0 ? (
+        <NonIdealState
+          icon="search"
+          title={search ? `No patients match “${search}”` : 'No patients yet'}
+          description={
+            search
+              ? 'Check the spelling, or search by chart number.'
+              : 'Patients of your practice, and patients shared with you, appear here.'
+          }
+        />
+      ) : (
+        <div aria-busy={patients.isFetching}>
+          <p className="result-count" aria-live="polite">
+            {patients.data.items.length} {patients.data.items.length === 1 ? 'patient' : 'patients'}
+            {search ? ` matching “${search}”` : ''}
+          </p>
+          <PatientsTable patients={patients.data.items} />
+        </div>
+      )}
+    </div>
+  );
+}

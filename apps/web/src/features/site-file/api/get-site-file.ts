@@ -1,0 +1,19 @@
+import { SiteFile } from '@torquetrail/contracts';
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import { apiRequest } from '../../../lib/api-client';
+
+export const siteFileQueryKey = (siteId: string) => ['sites', 'detail', siteId] as const;
+
+export function fetchSiteFile(siteId: string, signal?: AbortSignal): Promise<SiteFile> {
+  return apiRequest(`/api/sites/${encodeURIComponent(siteId)}`, { schema: SiteFile, signal });
+}
+
+export const siteFileQueryOptions = (siteId: string) =>
+  queryOptions({
+    queryKey: siteFileQueryKey(siteId),
+    queryFn: ({ signal }) => fetchSiteFile(siteId, signal),
+  });
+
+export function useSiteFile(siteId: string) {
+  return useQuery(siteFileQueryOptions(siteId));
+}

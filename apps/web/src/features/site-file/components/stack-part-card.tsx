@@ -1,0 +1,45 @@
+import { Card } from '@blueprintjs/core';
+import type { StackPart } from '@torquetrail/contracts';
+import type { ReactNode } from 'react';
+import { formatDate, formatDateTime } from '../../../lib/dates';
+import { FactList } from './fact-list';
+import { ANGLED_KINDS, COMPONENT_KIND_LABEL, formatNumber, formatReason, formatTorqueSpec } from './labels';
+import { TorqueVerdictTag } from './torque-verdict-tag';
+
+/** One part of the Stack: what it is, its specification, and the last torque applied to it. */
+export function StackPartCard({ part }: { part: StackPart }) {
+  const facts: [string, ReactNode][] = [['Reference', <span className="mono">{part.referenceCode}</span>]];
+  if (part.engaging !== null) facts.push(['Interface', part.engaging ? 'Engaging' : 'Non-engaging']);
+  if (part.angleDeg !== null) facts.push(['Angle', `${formatNumber(part.angleDeg)}°`]);
+  else if (ANGLED_KINDS.includes(part.kind)) facts.push(['Angle', 'Straight']);
+  facts.push(['Torque specification', formatTorqueSpec(part.torqueSpecNcm, part.tolerancePct)]);
+  facts.push(['Lot', part.lot ? <span className="mono">{part.lot}</span> : 'Not recorded']);
+  facts.push(['Installed', formatDate(part.installedOn)]);
+
+  const last = part.lastTorque;
+  return (
+    <Card className="stack-card" data-testid="stack-part" compact>
+      <h3 className="stack-card__title">
+        <span className="stack-card__kind">{COMPONENT_KIND_LABEL[part.kind]}</span>
+        <span>{part.name}</span>
+      </h3>
+      <FactList facts={facts} />
+      <div className="stack-card__torque">
+        <span className="stack-card__torque-label">Last applied torque</span>
+        {last ? (
+          <>
+            <span>
+              {formatNumber(last.appliedNcm)} Ncm on {formatDateTime(last.performedAt)} · {formatReason(last.reason)}
+              {last.specNcm !== part.torqueSpecNcm && (
+                <span className="muted"> (against {formatTorqueSpec(last.specNcm, last.tolerancePct)})</span>
+              )}
+            </span>
+            <TorqueVerdictTag verdict={last.verdict} />
+          </>
+        ) : (
+          <span className="muted">None recorded</span>
+        )}
+      </div>
+    </Card>
+  );
+}

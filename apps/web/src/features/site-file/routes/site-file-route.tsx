@@ -1,0 +1,57 @@
+import '../components/site-file.css';
+import { formatTooth } from '@torquetrail/domain';
+import { Link, Navigate, useParams } from 'react-router-dom';
+import { isApiError } from '../../../lib/api-client';
+import { BreadcrumbTrail } from '../../../lib/components/breadcrumb-trail';
+import { ErrorState } from '../../../lib/components/error-state';
+import { LoadingState } from '../../../lib/components/loading-state';
+import { useToothSystem } from '../../../lib/tooth-system';
+import { useSiteFile } from '../api/get-site-file';
+import { SiteFileHeader } from '../components/site-file-header';
+import { Stack } from '../components/stack';
+
+/** /patients/:patientId/sites/:siteId: one implant, its header and its Stack. */
+export function SiteFileRoute() {
+  const { patientId = '', siteId = '' } = useParams();
+  const site = useSiteFile(siteId);
+  const [system] = useToothSystem();
+
+  if (site.isPending) return <LoadingState label="Loading the Site file" />;
+  if (site.isError) {
+    return (
+      <>
+        <title>Site file · Torquetrail</title>
+        <BreadcrumbTrail
+          items={[{ text: 'Patients', to: '/patients' }, { text: 'Patient', to: `/patients/${patientId}` }, { text: 'Site file' }]}
+        />
+        <ErrorState
+          title={isApiError(site.error, 404) ? 'Site file not found' : 'Could not load the Site file'}
+          error={site.error}
+          onRetry={() => void site.refetch()}
+        >
+          <Link to={`/patients/${patientId}`}>Back to the Arch</Link>
+        </ErrorState>
+      </>
+    );
+  }
+
+  const data = site.data;
+  // A site reached under another patient's address is shown under its own patient.
+  if (data.patientId !== patientId) return <Navigate to={`/patients/${data.patientId}/sites/${data.id}`} replace />;
+
+  const siteLabel = `Site ${formatTooth(data.fdi, system)}`;
+  return (
+    <div className="site-file-page">
+      <title>{`${siteLabel} · ${data.patientName} · Torquetrail`}</title>
+      <BreadcrumbTrail
+        items={[
+          { text: 'Patients', to: '/patients' },
+          { text: data.patientName, to: `/patients/${data.patientId}` },
+          { text: siteLabel },
+        ]}
+      />
+      <SiteFileHeader site={data} system={system} />
+      <Stack site={data} system={system} />
+    </div>
+  );
+}

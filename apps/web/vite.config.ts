@@ -1,0 +1,39 @@
+import { fileURLToPath } from 'node:url';
+import react from '@vitejs/plugin-react';
+import { defineConfig } from 'vite';
+
+/** The shared packages are consumed from source, so the web needs no prior package build. */
+const packageSource = (name: string): string =>
+  fileURLToPath(new URL(`../../packages/${name}/src/index.ts`, import.meta.url));
+
+const apiPort = process.env.API_PORT ?? process.env.PORT ?? '3000';
+const apiProxy = { '/api': { target: `http://127.0.0.1:${apiPort}` } };
+
+export default defineConfig({
+  plugins: [react()],
+  resolve: {
+    alias: {
+      '@torquetrail/contracts': packageSource('contracts'),
+      '@torquetrail/authz': packageSource('authz'),
+      '@torquetrail/domain': packageSource('domain'),
+    },
+  },
+  server: { host: '127.0.0.1', proxy: apiProxy },
+  preview: { host: '127.0.0.1', proxy: apiProxy },
+  build: {
+    outDir: 'dist',
+    emptyOutDir: true,
+    rolldownOptions: {
+      output: {
+        // Long-lived vendor chunks, cached across releases of the app's own code. Blueprint's
+        // icon paths are not grouped: they stay in their own chunks, loaded on first use.
+        codeSplitting: {
+          groups: [
+            { name: 'vendor-react', test: /node_modules[\\/](react|react-dom|scheduler)[\\/]/ },
+            { name: 'vendor-blueprint', test: /node_modules[\\/]@blueprintjs[\\/]core[\\/]/ },
+          ],
+        },
+      },
+    },
+  },
+});

@@ -1,0 +1,90 @@
+// The role table of the product brief (shared/design/product.md, "Who uses it, and for what"),
+// checked rule by rule against defineAbilityFor.
+import { describe, expect, it } from 'vitest';
+import { defineAbilityFor, subject, type Action, type Role, type Subject } from './index.js';
+
+const PRACTICE = '11111111-1111-4111-8111-111111111111';
+const OTHER = '22222222-2222-4222-8222-222222222222';
+const SHARED_PATIENT = '33333333-3333-4333-8333-333333333333';
+const UNSHARED_PATIENT = '44444444-4444-4444-8444-444444444444';
+
+const user = (role: Role, shared: string[] = []) => defineAbilityFor({ id: 'u', role, practiceId: role === 'surgeon' ? OTHER : PRACTICE, sharedPatientIds: shared });
+const row = (type: Exclude<Subject, 'all'>, fields: Record<string, string>) => subject(type, { ...fields });
+const inPractice = { practiceId: PRACTICE, patientId: UNSHARED_PATIENT };
+
+describe('restorative dentist', () => {
+  const a = user('dentist');
+  it.each<[Action, Exclude<Subject, 'all'>]>([
+    ['create', 'Restoration'], ['amend', 'Restoration'], ['create', 'TorqueEvent'], ['amend', 'TorqueEvent'],
+    ['create', 'ComponentInstance'], ['create', 'Share'], ['read', 'RecallExam'], ['read', 'Catalogue'], ['create', 'Complication'],
+  ])('may %s %s in their practice', (action, type) => {
+    expect(a.can(action, row(type, inPractice))).toBe(true);
+  });
+  it('may not manage user accounts, edit the catalogue or write recall exams', () => {
+    expect(a.can('create', 'User')).toBe(false);
+    expect(a.can('update', row('Catalogue', inPractice))).toBe(false);
+    expect(a.can('create', row('RecallExam', inPractice))).toBe(false);
+  });
+  it('sees nothing of another practice', () => {
+    expect(a.can('read', row('Patient', { id: UNSHARED_PATIENT, practiceId: OTHER }))).toBe(false);
+    expect(a.can('read', row('TorqueEvent', { practiceId: OTHER, patientId: UNSHARED_PATIENT }))).toBe(false);
+  });
+});
+
+describe('dental hygienist', () => {
+  const a = user('hygienist');
+  it('runs recalls and files radiographs', () => {
+    expect(a.can('create', row('RecallExam', inPractice))).toBe(true);
+    expect(a.can('create', row('Radiograph', inPractice))).toBe(true);
+  });
+  it('reads but may not change restorations, components or torque records', () => {
+    for (const type of ['Restoration', 'ComponentInstance', 'TorqueEvent'] as const) {
+      expect(a.can('read', row(type, inPractice))).toBe(true);
+      expect(a.can('create', row(type, inPractice))).toBe(false);
+      expect(a.can('amend', row(type, inPractice))).toBe(false);
+    }
+    expect(a.can('update', row('Catalogue', inPractice))).toBe(false);
+  });
+});
+
+describe('referring surgeon (another practice)', () => {
+  const a = user('surgeon', [SHARED_PATIENT]);
+  const shared = { practiceId: PRACTICE, patientId: SHARED_PATIENT };
+  it('reads the shared patient and their implant record, and records placements', () => {
+    expect(a.can('read', row('Patient', { id: SHARED_PATIENT, practiceId: PRACTICE }))).toBe(true);
+    expect(a.can('read', row('RecallExam', shared))).toBe(true);
+    expect(a.can('read', row('Radiograph', shared))).toBe(true);
+    expect(a.can('create', row('Placement', shared))).toBe(true);
+  });
+  it('sees no patient that is not shared, nor the rest of the chart', () => {
+    expect(a.can('read', row('Patient', { id: UNSHARED_PATIENT, practiceId: PRACTICE }))).toBe(false);
+    expect(a.can('read', row('ImplantSite', { practiceId: PRACTICE, patientId: UNSHARED_PATIENT }))).toBe(false);
+    expect(a.can('read', row('Share', shared))).toBe(false);
+  });
+  it('may not write restorations or torque entries even on a shared patient', () => {
+    expect(a.can('create', row('Restoration', shared))).toBe(false);
+    expect(a.can('create', row('TorqueEvent', shared))).toBe(false);
+  });
+  it('with no shares sees no other practice at all', () => {
+    const none = user('surgeon');
+    expect(none.can('read', row('Patient', { id: SHARED_PATIENT, practiceId: PRACTICE }))).toBe(false);
+  });
+});
+
+describe('practice administrator', () => {
+  const a = user('practice_admin');
+  it('manages users, the catalogue and reads the audit trail', () => {
+    expect(a.can('create', row('User', { practiceId: PRACTICE }))).toBe(true);
+    expect(a.can('update', row('Catalogue', { practiceId: PRACTICE }))).toBe(true);
+    expect(a.can('read', row('AuditEntry', { practiceId: PRACTICE }))).toBe(true);
+  });
+  it('may not edit clinical entries', () => {
+    for (const type of ['ImplantSite', 'Placement', 'Restoration', 'ComponentInstance', 'TorqueEvent', 'RecallExam', 'Radiograph', 'Complication'] as const) {
+      expect(a.can('create', row(type, inPractice))).toBe(false);
+      expect(a.can('amend', row(type, inPractice))).toBe(false);
+    }
+  });
+  it('administers only their own practice', () => {
+    expect(a.can('create', row('User', { practiceId: OTHER }))).toBe(false);
+  });
+});
