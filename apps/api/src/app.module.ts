@@ -12,6 +12,11 @@ import { MailModule } from './mail/mail.module.js';
 import { OpenApiModule } from './openapi/openapi.module.js';
 import { PatientsModule } from './patients/patients.module.js';
 import { SitesModule } from './sites/sites.module.js';
+import { CatalogueModule } from './catalogue/catalogue.module.js';
+import { ComplicationsModule } from './complications/complications.module.js';
+import { LabPrescriptionsModule } from './lab-prescriptions/lab-prescriptions.module.js';
+import { RestorationsModule } from './restorations/restorations.module.js';
+import { TorqueModule } from './torque/torque.module.js';
 import { StorageModule } from './storage/storage.module.js';
 
 @Module({})
@@ -28,6 +33,11 @@ export class AppModule {
         HealthModule,
         PatientsModule,
         SitesModule,
+        CatalogueModule,
+        RestorationsModule,
+        LabPrescriptionsModule,
+        TorqueModule,
+        ComplicationsModule,
         ...(env.NODE_ENV === 'production' ? [] : [OpenApiModule]),
       ],
       providers: [

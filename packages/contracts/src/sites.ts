@@ -73,6 +73,14 @@ export const StackPart = z.object({
   lot: z.string().nullable(),
   installedOn: IsoDate,
   lastTorque: TorqueEventSummary.nullable(),
+  /** The catalogue part, and whether its lot must be recorded (e.g. when a screw is replaced). */
+  componentId: Id.optional(),
+  requiresLot: z.boolean().optional(),
+  /**
+   * Set after an initial seating until a re-torque is logged for this part: when the re-torque
+   * is due (RETIGHTEN_AFTER_MINUTES after the seating).
+   */
+  retorqueDueAt: IsoDateTime.nullable().optional(),
 });
 export type StackPart = z.infer<typeof StackPart>;
 

@@ -63,6 +63,8 @@ export async function listCurrentParts(db: Db, siteId: string) {
   return db
     .select({
       instanceId: componentInstances.id,
+      componentId: components.id,
+      requiresLot: components.requiresLot,
       kind: components.kind,
       name: components.name,
       referenceCode: components.referenceCode,
@@ -138,4 +140,19 @@ export async function findCurrentRestoration(db: Db, siteId: string) {
     .where(eq(restorationSites.restorationId, row.id))
     .orderBy(asc(implantSites.fdi));
   return { ...row, spansFdi: spans.map((s) => s.fdi) };
+}
+
+/** Current (not amended) torque entries of the parts, oldest first: for the re-torque reminder. */
+export async function torqueReasonsByInstance(db: Db, instanceIds: string[]) {
+  if (instanceIds.length === 0) return [];
+  return db
+    .select({ instanceId: torqueEvents.componentInstanceId, reason: torqueEvents.reason, performedAt: torqueEvents.performedAt })
+    .from(torqueEvents)
+    .where(
+      and(
+        inArray(torqueEvents.componentInstanceId, instanceIds),
+        sql`not exists (select 1 from ${torqueEvents} t2 where t2.supersedes_id = ${torqueEvents.id})`,
+      ),
+    )
+    .orderBy(asc(torqueEvents.performedAt));
 }

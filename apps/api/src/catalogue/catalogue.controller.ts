@@ -1,0 +1,92 @@
+import { Body, Controller, Get, Param, ParseUUIDPipe, Patch, Post } from '@nestjs/common';
+import type { AppAbility } from '@torquetrail/authz';
+import {
+  type CatalogueComponent,
+  type CataloguePlatform,
+  type CatalogueReply,
+  type CatalogueSystem,
+  ComponentBody,
+  ComponentPatch,
+  PlatformBody,
+  PlatformPatch,
+  SystemBody,
+  SystemPatch,
+  type Wrench,
+  WrenchBody,
+  type WrenchListReply,
+  WrenchPatch,
+} from '@torquetrail/contracts';
+import type { z } from 'zod';
+import type { SessionUser } from '../auth/session-user.js';
+import { Allow } from '../authz/check-ability.decorator.js';
+import { scopeOf } from '../authz/scope.js';
+import { CurrentAbility, CurrentUser } from '../common/current-user.decorator.js';
+import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
+import { CatalogueService } from './catalogue.service.js';
+
+const uuid = () => new ParseUUIDPipe({ errorHttpStatusCode: 404 });
+
+@Controller()
+export class CatalogueController {
+  constructor(private readonly catalogue: CatalogueService) {}
+
+  @Get('catalogue')
+  @Allow('read', 'Catalogue')
+  list(@CurrentUser() user: SessionUser): Promise<CatalogueReply> {
+    return this.catalogue.catalogue(scopeOf(user));
+  }
+
+  @Post('catalogue/systems')
+  @Allow('create', 'Catalogue')
+  createSystem(@CurrentUser() user: SessionUser, @CurrentAbility() ability: AppAbility, @Body(new ZodValidationPipe(SystemBody)) body: SystemBody): Promise<CatalogueSystem> {
+    return this.catalogue.createSystem(ability, scopeOf(user), body);
+  }
+
+  @Patch('catalogue/systems/:id')
+  @Allow('update', 'Catalogue')
+  updateSystem(@CurrentUser() user: SessionUser, @CurrentAbility() ability: AppAbility, @Param('id', uuid()) id: string, @Body(new ZodValidationPipe(SystemPatch)) body: SystemPatch): Promise<CatalogueSystem> {
+    return this.catalogue.updateSystem(ability, scopeOf(user), id, body);
+  }
+
+  @Post('catalogue/platforms')
+  @Allow('create', 'Catalogue')
+  createPlatform(@CurrentUser() user: SessionUser, @CurrentAbility() ability: AppAbility, @Body(new ZodValidationPipe(PlatformBody)) body: PlatformBody): Promise<CataloguePlatform> {
+    return this.catalogue.createPlatform(ability, scopeOf(user), body);
+  }
+
+  @Patch('catalogue/platforms/:id')
+  @Allow('update', 'Catalogue')
+  updatePlatform(@CurrentUser() user: SessionUser, @CurrentAbility() ability: AppAbility, @Param('id', uuid()) id: string, @Body(new ZodValidationPipe(PlatformPatch)) body: PlatformPatch): Promise<CataloguePlatform> {
+    return this.catalogue.updatePlatform(ability, scopeOf(user), id, body);
+  }
+
+  @Post('catalogue/components')
+  @Allow('create', 'Catalogue')
+  createComponent(@CurrentUser() user: SessionUser, @CurrentAbility() ability: AppAbility, @Body(new ZodValidationPipe(ComponentBody)) body: z.output<typeof ComponentBody>): Promise<CatalogueComponent> {
+    return this.catalogue.createComponent(ability, scopeOf(user), body);
+  }
+
+  @Patch('catalogue/components/:id')
+  @Allow('update', 'Catalogue')
+  updateComponent(@CurrentUser() user: SessionUser, @CurrentAbility() ability: AppAbility, @Param('id', uuid()) id: string, @Body(new ZodValidationPipe(ComponentPatch)) body: ComponentPatch): Promise<CatalogueComponent> {
+    return this.catalogue.updateComponent(ability, scopeOf(user), id, body);
+  }
+
+  @Get('wrenches')
+  @Allow('read', 'Wrench')
+  wrenches(@CurrentUser() user: SessionUser): Promise<WrenchListReply> {
+    return this.catalogue.wrenches(scopeOf(user));
+  }
+
+  @Post('wrenches')
+  @Allow('create', 'Wrench')
+  createWrench(@CurrentUser() user: SessionUser, @CurrentAbility() ability: AppAbility, @Body(new ZodValidationPipe(WrenchBody)) body: z.output<typeof WrenchBody>): Promise<Wrench> {
+    return this.catalogue.createWrench(ability, scopeOf(user), body);
+  }
+
+  @Patch('wrenches/:id')
+  @Allow('update', 'Wrench')
+  updateWrench(@CurrentUser() user: SessionUser, @CurrentAbility() ability: AppAbility, @Param('id', uuid()) id: string, @Body(new ZodValidationPipe(WrenchPatch)) body: WrenchPatch): Promise<Wrench> {
+    return this.catalogue.updateWrench(ability, scopeOf(user), id, body);
+  }
+}

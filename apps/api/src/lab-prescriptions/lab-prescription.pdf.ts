@@ -1,0 +1,121 @@
+// The lab prescription as a PDF (pdfkit). The patient appears only by chart number and initials:
+// the lab needs no more identifying data than that.
+import PDFDocument from 'pdfkit';
+import { MANUFACTURER_CAUTION } from '@torquetrail/contracts';
+import { fdiToUniversal } from '@torquetrail/domain';
+
+export interface PrescriptionPart {
+  kind: string;
+  name: string;
+  referenceCode: string;
+  torqueSpecNcm: number | null;
+  tolerancePct: number;
+  engaging: boolean | null;
+  angleDeg: number | null;
+  tray: string | null;
+}
+
+export interface PrescriptionSite {
+  fdi: number;
+  systemName: string | null;
+  manufacturer: string | null;
+  platformName: string | null;
+  connection: string | null;
+  diameterMm: number | null;
+  interface: string;
+  impressionCoping: string;
+  multiUnitAngleDeg: number | null;
+  restorativeSpaceMm: number | null;
+  parts: PrescriptionPart[];
+}
+
+export interface PrescriptionInput {
+  practiceName: string;
+  chartNumber: string;
+  initials: string;
+  dentistName: string;
+  kind: string;
+  retention: string;
+  material: string;
+  shade: string | null;
+  copingsSplinted: boolean;
+  impressionTakenOn: string | null;
+  dueOn: string | null;
+  labName: string | null;
+  notes: string | null;
+  issuedOn: string;
+  sites: PrescriptionSite[];
+}
+
+const LABELS: Record<string, string> = {
+  'single-crown': 'Single crown',
+  'splinted-bridge': 'Splinted bridge',
+  'full-arch': 'Full-arch prosthesis',
+  'screw-to-implant': 'Screw-retained directly on the implant',
+  'screw-to-multi-unit': 'Screw-retained on multi-unit abutments',
+  'cement-on-abutment': 'Cement-retained on abutments (not retrievable without cutting)',
+  'lingual-set-screw': 'Lingual set-screw retained',
+  zirconia: 'Zirconia',
+  'titanium-porcelain': 'Titanium framework with porcelain',
+  'titanium-composite': 'Titanium framework with composite',
+  'full-gold': 'Full gold',
+  'porcelain-fused-to-metal': 'Porcelain fused to metal',
+  other: 'Other (see notes)',
+  'internal-conical': 'internal conical',
+  'internal-hex': 'internal hex',
+  'external-hex': 'external hex',
+};
+const label = (v: string) => LABELS[v] ?? v;
+
+const ORDER = ['multi-unit-abutment', 'abutment-stock', 'abutment-custom', 'abutment-angled', 'abutment-screw', 'prosthetic-screw', 'set-screw'];
+const torque = (p: PrescriptionPart) => (p.torqueSpecNcm === null ? 'hand-tight' : `${p.torqueSpecNcm} N·cm ±${p.tolerancePct} %`);
+
+export function renderLabPrescription(input: PrescriptionInput): Promise<Buffer> {
+  const doc = new PDFDocument({ size: 'A4', margin: 50, info: { Title: `Lab prescription ${input.chartNumber}`, Author: input.practiceName } });
+  const chunks: Buffer[] = [];
+  const done = new Promise<Buffer>((resolve, reject) => {
+    doc.on('data', (c: Buffer) => chunks.push(c));
+    doc.on('end', () => resolve(Buffer.concat(chunks)));
+    doc.on('error', reject);
+  });
+
+  doc.font('Helvetica-Bold').fontSize(16).text('Implant restoration: lab prescription');
+  doc.font('Helvetica').fontSize(10).text(input.practiceName);
+  doc.moveDown(0.5);
+  doc.text(`Patient: ${input.chartNumber} (${input.initials})`);
+  doc.text(`Issued: ${input.issuedOn}${input.dueOn ? `    Due: ${input.dueOn}` : ''}${input.labName ? `    Laboratory: ${input.labName}` : ''}`);
+  doc.moveDown(0.5);
+  doc.font('Helvetica-Bold').text(`${label(input.kind)}: ${label(input.retention)}`);
+  doc.font('Helvetica').text(`Material: ${label(input.material)}${input.shade ? `    Shade: ${input.shade}` : ''}`);
+  doc.text(`Impression: ${input.impressionTakenOn ? `taken ${input.impressionTakenOn}, ` : ''}copings ${input.copingsSplinted ? 'splinted together before the impression' : 'not splinted'}`);
+  doc.moveDown();
+
+  for (const site of input.sites) {
+    doc.font('Helvetica-Bold').fontSize(11).text(`Site ${site.fdi} (FDI) / ${fdiToUniversal(site.fdi)} (Universal)`);
+    doc.font('Helvetica').fontSize(10);
+    const implant = site.systemName
+      ? `${site.systemName} (${site.manufacturer}), platform ${site.platformName}, ${site.diameterMm} mm, ${label(site.connection ?? '')} connection`
+      : 'no placement recorded';
+    doc.text(`Implant: ${implant}`, { indent: 12 });
+    doc.text(`Interface: ${site.interface}${site.multiUnitAngleDeg !== null ? `; multi-unit angle ${site.multiUnitAngleDeg}°` : ''}${site.restorativeSpaceMm !== null ? `; restorative space ${site.restorativeSpaceMm} mm` : ''}`, { indent: 12 });
+    const chain = site.parts.filter((p) => p.kind !== 'impression-coping').sort((a, b) => ORDER.indexOf(a.kind) - ORDER.indexOf(b.kind));
+    for (const p of chain) doc.text(`> ${p.name} [${p.referenceCode}]: ${torque(p)}`, { indent: 24 });
+    if (chain.length === 0) doc.text('> no parts chosen', { indent: 24 });
+    const copings = site.parts.filter((p) => p.kind === 'impression-coping');
+    const copingText = copings.length > 0 ? copings.map((c) => `${c.name} [${c.referenceCode}]`).join(', ') : 'none chosen from the catalogue';
+    doc.text(`Impression technique: ${site.impressionCoping} coping; ${copingText}`, { indent: 12 });
+    doc.moveDown(0.6);
+  }
+
+  if (input.notes) {
+    doc.font('Helvetica-Bold').text('Notes');
+    doc.font('Helvetica').text(input.notes);
+    doc.moveDown();
+  }
+  doc.fontSize(8).fillColor('#444444').text(MANUFACTURER_CAUTION);
+  doc.fillColor('#000000').fontSize(10).moveDown(2);
+  doc.text('Signature: ________________________________');
+  doc.text(input.dentistName);
+  doc.end();
+  return done;
+}

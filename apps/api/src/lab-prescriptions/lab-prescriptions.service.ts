@@ -1,0 +1,88 @@
+import { randomUUID } from 'node:crypto';
+import { Inject, Injectable, ServiceUnavailableException } from '@nestjs/common';
+import type { AppAbility } from '@torquetrail/authz';
+import type { LabPrescriptionSummary } from '@torquetrail/contracts';
+import { and, eq } from 'drizzle-orm';
+import type { SessionUser } from '../auth/session-user.js';
+import { assertCan, type Scope } from '../authz/scope.js';
+import { DB, type Database } from '../db/database.js';
+import { labPrescriptions, patients } from '../db/schema/index.js';
+import { MailService } from '../mail/mail.service.js';
+import { visiblePatients } from '../patients/patients.repository.js';
+import { fieldError } from '../restorations/plan-check.js';
+import { findVisiblePatientBrief, findVisibleRestoration, loadRestorationSites } from '../restorations/restorations.repository.js';
+import { StorageService } from '../storage/storage.service.js';
+import { renderLabPrescription } from './lab-prescription.pdf.js';
+
+const initials = (given: string, family: string) => `${given.trim()[0] ?? ''}. ${family.trim()[0] ?? ''}.`.toUpperCase();
+
+@Injectable()
+export class LabPrescriptionsService {
+  constructor(
+    @Inject(DB) private readonly db: Database,
+    private readonly storage: StorageService,
+    private readonly mail: MailService,
+  ) {}
+
+  /**
+   * Renders the PDF, stores it in S3, then records it; the e-mail goes out afterwards. No
+   * transaction is open while S3 or SMTP is called: the row is written only once the object exists.
+   */
+  async generate(ability: AppAbility, user: SessionUser, scope: Scope, restorationId: string, emailToLab: boolean): Promise<LabPrescriptionSummary> {
+    const r = assertCan(ability, 'create', 'Restoration', await findVisibleRestoration(this.db, scope, restorationId), 'restoration');
+    if (emailToLab && !r.labEmail) throw fieldError({ emailToLab: 'The plan has no lab e-mail address' });
+    const patient = (await findVisiblePatientBrief(this.db, scope, r.patientId))!;
+    const { sites, parts } = await loadRestorationSites(this.db, [r.id]);
+    const id = randomUUID();
+    const pdf = await renderLabPrescription({
+      practiceName: patient.practiceName,
+      chartNumber: patient.chartNumber,
+      initials: initials(patient.givenName, patient.familyName),
+      dentistName: r.plannedByName ?? user.displayName,
+      kind: r.kind,
+      retention: r.retention,
+      material: r.material,
+      shade: r.shade,
+      copingsSplinted: r.copingsSplinted,
+      impressionTakenOn: r.impressionTakenOn,
+      dueOn: r.dueOn,
+      labName: r.labName,
+      notes: r.notes,
+      issuedOn: new Date().toISOString().slice(0, 10),
+      sites: sites.map((s) => ({ ...s, parts: parts.filter((p) => p.restorationSiteId === s.id) })),
+    });
+    const objectKey = `practices/${r.practiceId}/lab-prescriptions/${id}.pdf`;
+    await this.storage.put(objectKey, pdf, 'application/pdf');
+    const [row] = await this.db
+      .insert(labPrescriptions)
+      .values({ id, practiceId: r.practiceId, patientId: r.patientId, restorationId: r.id, objectKey, sizeBytes: pdf.length, createdBy: user.id })
+      .returning();
+    let emailedAt: Date | null = null;
+    if (emailToLab && r.labEmail) {
+      try {
+        await this.mail.send({
+          to: r.labEmail,
+          subject: `Lab prescription ${patient.chartNumber} from ${patient.practiceName}`,
+          text: `Please find the lab prescription for ${patient.chartNumber} attached.${r.dueOn ? ` Due ${r.dueOn}.` : ''}\n\n${patient.practiceName}`,
+          attachments: [{ filename: `lab-prescription-${patient.chartNumber}.pdf`, content: pdf, contentType: 'application/pdf' }],
+          headers: { 'X-Torquetrail-Lab-Prescription': id },
+        });
+      } catch {
+        throw new ServiceUnavailableException('The lab prescription was saved, but the e-mail to the lab could not be sent; try again later');
+      }
+      emailedAt = new Date();
+      await this.db.update(labPrescriptions).set({ emailedTo: r.labEmail, emailedAt }).where(eq(labPrescriptions.id, id));
+    }
+    return { id, sizeBytes: pdf.length, emailedTo: emailedAt ? r.labEmail : null, emailedAt: emailedAt?.toISOString() ?? null, createdAt: row!.createdAt.toISOString() };
+  }
+
+  async download(ability: AppAbility, scope: Scope, id: string): Promise<{ pdf: Buffer; filename: string }> {
+    const [row] = await this.db
+      .select({ id: labPrescriptions.id, practiceId: labPrescriptions.practiceId, patientId: labPrescriptions.patientId, objectKey: labPrescriptions.objectKey, chartNumber: patients.chartNumber })
+      .from(labPrescriptions)
+      .innerJoin(patients, eq(patients.id, labPrescriptions.patientId))
+      .where(and(eq(labPrescriptions.id, id), visiblePatients(scope)));
+    const found = assertCan(ability, 'read', 'Restoration', row, 'lab prescription');
+    return { pdf: await this.storage.get(found.objectKey), filename: `lab-prescription-${found.chartNumber}.pdf` };
+  }
+}

@@ -1,0 +1,131 @@
+// Server-side check of a plan: the parts must exist in the practice's catalogue, be of the right
+// kind and fit the site's platform; then the same `validateRestorationPlan` the web runs live.
+import { BadRequestException } from '@nestjs/common';
+import { type PlanBodyParsed, findingField } from '@torquetrail/contracts';
+import { type Finding, type RestorationPlan, ValidationError, type Vec3, validateRestorationPlan } from '@torquetrail/domain';
+import type { RestorableSiteRow } from './restorations.repository.js';
+
+export interface CatalogueRow {
+  id: string;
+  platformId: string;
+  kind: string;
+  name: string;
+  engaging: boolean | null;
+  angleDeg: number | null;
+}
+
+export interface CheckedSite {
+  siteId: string;
+  fdi: number;
+  interface: 'engaging' | 'non-engaging';
+  impressionCoping: 'engaging' | 'non-engaging' | 'multi-unit';
+  multiUnitAngleDeg: 0 | 17 | 30 | null;
+  restorativeSpaceMm: number | null;
+  /** The axis entered in the planner (stored), or null when the placement's axis was used. */
+  enteredAxis: Vec3 | null;
+  componentIds: string[];
+}
+
+export interface CheckedPlan {
+  findings: Finding[];
+  sites: CheckedSite[];
+}
+
+export const fieldError = (fields: Record<string, string>, message?: string) =>
+  new BadRequestException({ message: message ?? Object.entries(fields).map(([k, v]) => `${k}: ${v}`).join('; '), fields });
+
+const SLOT_KINDS: Record<'abutmentComponentId' | 'multiUnitComponentId' | 'screwComponentIds' | 'impressionCopingComponentId', string[]> = {
+  abutmentComponentId: ['abutment-stock', 'abutment-custom', 'abutment-angled'],
+  multiUnitComponentId: ['multi-unit-abutment'],
+  screwComponentIds: ['abutment-screw', 'prosthetic-screw', 'set-screw'],
+  impressionCopingComponentId: ['impression-coping'],
+};
+
+const axisOf = (s: RestorableSiteRow): Vec3 | null =>
+  s.axisX !== null && s.axisY !== null && s.axisZ !== null ? [s.axisX, s.axisY, s.axisZ] : null;
+
+/** Throws 400 with `fields` for every problem; returns the findings (warnings only) and the resolved sites. */
+export function checkPlan(body: PlanBodyParsed, patientSites: RestorableSiteRow[], catalogue: Map<string, CatalogueRow>): CheckedPlan {
+  const fields: Record<string, string> = {};
+  const sites: CheckedSite[] = [];
+  const planSites: RestorationPlan['sites'] = [];
+
+  body.sites.forEach((s, i) => {
+    const site = patientSites.find((p) => p.siteId === s.siteId);
+    if (!site) {
+      fields[`sites.${i}.siteId`] = 'Not an implant site of this patient';
+      return;
+    }
+    if (!site.platformId) {
+      fields[`sites.${i}.siteId`] = `No placement is recorded at ${site.fdi}: the implant's platform is unknown`;
+      return;
+    }
+    const componentIds: string[] = [];
+    const chosen: Partial<Record<keyof typeof SLOT_KINDS, CatalogueRow>> = {};
+    for (const slot of Object.keys(SLOT_KINDS) as (keyof typeof SLOT_KINDS)[]) {
+      const value = s[slot];
+      const ids = Array.isArray(value) ? value : value ? [value] : [];
+      ids.forEach((id, j) => {
+        const key = Array.isArray(value) ? `sites.${i}.${slot}.${j}` : `sites.${i}.${slot}`;
+        const part = catalogue.get(id);
+        if (!part) fields[key] = 'No such part in the practice catalogue';
+        else if (part.platformId !== site.platformId) fields[key] = `${part.name} does not fit the platform at ${site.fdi} (${site.platformName})`;
+        else if (!SLOT_KINDS[slot].includes(part.kind)) fields[key] = `${part.name} is not a part of this kind (${SLOT_KINDS[slot].join(', ')})`;
+        else {
+          componentIds.push(id);
+          if (!Array.isArray(value)) chosen[slot] = part;
+        }
+      });
+    }
+    const coping = chosen.impressionCopingComponentId;
+    if (coping && coping.engaging !== null && (coping.engaging ? s.impressionCoping !== 'engaging' : s.impressionCoping === 'engaging')) {
+      fields[`sites.${i}.impressionCopingComponentId`] = `${coping.name} is ${coping.engaging ? 'engaging' : 'non-engaging'}, but the impression technique says ${s.impressionCoping}`;
+    }
+    let angle = s.multiUnitAngleDeg;
+    const mua = chosen.multiUnitComponentId;
+    if (mua) {
+      const muaAngle = mua.angleDeg === 0 || mua.angleDeg === 17 || mua.angleDeg === 30 ? mua.angleDeg : null;
+      if (angle === null) angle = muaAngle;
+      else if (muaAngle !== null && muaAngle !== angle) fields[`sites.${i}.multiUnitAngleDeg`] = `${mua.name} is ${muaAngle}°, not ${angle}°`;
+    }
+    const axis = s.axis ?? axisOf(site);
+    sites.push({ siteId: site.siteId, fdi: site.fdi, interface: s.interface, impressionCoping: s.impressionCoping, multiUnitAngleDeg: angle, restorativeSpaceMm: s.restorativeSpaceMm, enteredAxis: s.axis, componentIds });
+    planSites.push({
+      fdi: site.fdi,
+      interface: s.interface,
+      impressionCoping: s.impressionCoping,
+      ...(axis ? { axis } : {}),
+      ...(angle !== null ? { multiUnitAngleDeg: angle } : {}),
+      ...(s.restorativeSpaceMm !== null ? { restorativeSpaceMm: s.restorativeSpaceMm } : {}),
+    });
+  });
+  if (Object.keys(fields).length > 0) throw fieldError(fields);
+
+  let findings: Finding[];
+  try {
+    findings = validateRestorationPlan({ kind: body.kind, retention: body.retention, copingsSplinted: body.copingsSplinted, sites: planSites });
+  } catch (error) {
+    if (error instanceof ValidationError) {
+      const field = (error.field ?? 'sites').replace(/^plan\./, '').replace(/\[(\d+)\]/g, '.$1');
+      throw fieldError({ [field]: error.message });
+    }
+    throw error;
+  }
+
+  const fdis = sites.map((s) => s.fdi);
+  const errors = findings.filter((f) => f.severity === 'error');
+  if (errors.length > 0) {
+    const out: Record<string, string> = {};
+    for (const f of errors) out[findingField(f, fdis)] ??= f.message;
+    throw fieldError(out, `The plan has ${errors.length === 1 ? 'an error' : `${errors.length} errors`}: ${errors.map((f) => f.message).join(' ')}`);
+  }
+  const unacknowledged = findings.filter(
+    (f) => f.severity === 'warning' && !body.acknowledgements.some((a) => a.code === f.code && (a.fdi ?? undefined) === f.fdi),
+  );
+  if (unacknowledged.length > 0) {
+    const out: Record<string, string> = {};
+    for (const f of unacknowledged) out[findingField(f, fdis)] ??= `Acknowledge this warning to save: ${f.message}`;
+    throw fieldError(out, `Acknowledge the warnings to save the plan: ${unacknowledged.map((f) => f.message).join(' ')}`);
+  }
+  return { findings, sites };
+}

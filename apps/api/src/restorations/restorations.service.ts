@@ -1,0 +1,240 @@
+import { ConflictException, Inject, Injectable } from '@nestjs/common';
+import { type AppAbility, subject } from '@torquetrail/authz';
+import type { DeliveryBody, PlanAmendmentBody, PlanBody, RestorableSitesReply, RestorationDetail, RestorationListReply } from '@torquetrail/contracts';
+import { RULES_VERSION, fdiToUniversal } from '@torquetrail/domain';
+import { and, eq, inArray, isNull } from 'drizzle-orm';
+import type { z } from 'zod';
+import type { SessionUser } from '../auth/session-user.js';
+import { assertCan, type Scope } from '../authz/scope.js';
+import { DB, type Database, type Tx } from '../db/database.js';
+import { componentInstances, components, findingAcknowledgements, implantSites, restorationSiteComponents, restorationSites, restorations } from '../db/schema/index.js';
+import { findComponents } from '../catalogue/catalogue.repository.js';
+import { checkPlan, fieldError } from './plan-check.js';
+import * as repo from './restorations.repository.js';
+
+type PlanInput = z.output<typeof PlanBody>;
+type AmendInput = z.output<typeof PlanAmendmentBody>;
+type DeliveryInput = z.output<typeof DeliveryBody>;
+
+/** Parts the delivery replaces: what sat on the implant while it healed. */
+const HEALING_KINDS = ['healing-abutment', 'cover-screw'] as const;
+
+@Injectable()
+export class RestorationsService {
+  constructor(@Inject(DB) private readonly db: Database) {}
+
+  private async visiblePatient(ability: AppAbility, scope: Scope, patientId: string) {
+    return assertCan(ability, 'read', 'Patient', await repo.findVisiblePatientBrief(this.db, scope, patientId), 'patient');
+  }
+
+  async restorableSites(ability: AppAbility, scope: Scope, patientId: string): Promise<RestorableSitesReply> {
+    const patient = await this.visiblePatient(ability, scope, patientId);
+    assertCan(ability, 'read', 'ImplantSite', { practiceId: patient.practiceId, patientId: patient.id }, 'patient');
+    const rows = await repo.listRestorableSites(this.db, patient.id);
+    return {
+      items: rows.map((s) => ({
+        siteId: s.siteId,
+        fdi: s.fdi,
+        universal: fdiToUniversal(s.fdi),
+        status: s.status,
+        platformId: s.platformId,
+        systemName: s.systemName,
+        platformName: s.platformName,
+        connection: s.connection,
+        diameterMm: s.diameterMm,
+        axis: s.axisX !== null && s.axisY !== null && s.axisZ !== null ? [s.axisX, s.axisY, s.axisZ] : null,
+      })),
+    };
+  }
+
+  async list(ability: AppAbility, scope: Scope, patientId: string): Promise<RestorationListReply> {
+    const patient = await this.visiblePatient(ability, scope, patientId);
+    if (!ability.can('read', subject('Restoration', { practiceId: patient.practiceId, patientId: patient.id }))) return { items: [] };
+    return { items: await this.details(await repo.listRestorationsOfPatient(this.db, patient.id)) };
+  }
+
+  async detail(ability: AppAbility, scope: Scope, id: string): Promise<RestorationDetail> {
+    const row = assertCan(ability, 'read', 'Restoration', await repo.findVisibleRestoration(this.db, scope, id), 'restoration');
+    return (await this.details([row]))[0]!;
+  }
+
+  /** Saves a plan as 'planned': errors block it, warnings must be acknowledged (stored with user and time). */
+  async create(ability: AppAbility, user: SessionUser, scope: Scope, body: PlanInput): Promise<RestorationDetail> {
+    const patient = await this.visiblePatient(ability, scope, body.patientId);
+    assertCan(ability, 'create', 'Restoration', { practiceId: patient.practiceId, patientId: patient.id }, 'patient');
+    const id = await this.db.transaction((tx) => this.insertPlan(tx, user, patient, body, null));
+    return this.detail(ability, scope, id);
+  }
+
+  /** An amendment is a new version superseding the old one; only a plan not yet delivered can be amended. */
+  async amend(ability: AppAbility, user: SessionUser, scope: Scope, id: string, body: AmendInput): Promise<RestorationDetail> {
+    const old = assertCan(ability, 'amend', 'Restoration', await repo.findVisibleRestoration(this.db, scope, id), 'restoration');
+    if (old.supersededById) throw new ConflictException('This version was already amended; amend the current version');
+    if (old.status !== 'planned') throw new ConflictException('A delivered restoration is not re-planned; record a complication or a new restoration');
+    const patient = (await repo.findVisiblePatientBrief(this.db, scope, old.patientId))!;
+    const newId = await this.db.transaction((tx) =>
+      this.insertPlan(tx, user, patient, { ...body, patientId: old.patientId }, { supersedesId: old.id, amendmentReason: body.amendmentReason }),
+    );
+    return this.detail(ability, scope, newId);
+  }
+
+  private async insertPlan(tx: Tx, user: SessionUser, patient: { id: string; practiceId: string }, body: PlanInput, amendment: { supersedesId: string; amendmentReason: string } | null) {
+    const patientSites = await repo.listRestorableSites(tx, patient.id);
+    const ids = body.sites.flatMap((s) => [s.abutmentComponentId, s.multiUnitComponentId, s.impressionCopingComponentId, ...s.screwComponentIds]).filter((x): x is string => !!x);
+    const catalogue = new Map((await findComponents(tx, patient.practiceId, ids)).map((c) => [c.id, c]));
+    const checked = checkPlan(body, patientSites, catalogue);
+
+    const [row] = await tx
+      .insert(restorations)
+      .values({
+        practiceId: patient.practiceId,
+        patientId: patient.id,
+        kind: body.kind,
+        retention: body.retention,
+        material: body.material,
+        shade: body.shade,
+        status: 'planned',
+        copingsSplinted: body.copingsSplinted,
+        plannedBy: user.id,
+        findings: checked.findings,
+        rulesVersion: RULES_VERSION,
+        labName: body.labName,
+        labEmail: body.labEmail,
+        dueOn: body.dueOn,
+        notes: body.notes,
+        supersedesId: amendment?.supersedesId ?? null,
+        amendmentReason: amendment?.amendmentReason ?? null,
+      })
+      .returning({ id: restorations.id });
+    for (const s of checked.sites) {
+      const [rs] = await tx
+        .insert(restorationSites)
+        .values({
+          practiceId: patient.practiceId,
+          restorationId: row!.id,
+          siteId: s.siteId,
+          interface: s.interface,
+          impressionCoping: s.impressionCoping,
+          multiUnitAngleDeg: s.multiUnitAngleDeg,
+          restorativeSpaceMm: s.restorativeSpaceMm,
+          axisX: s.enteredAxis?.[0] ?? null,
+          axisY: s.enteredAxis?.[1] ?? null,
+          axisZ: s.enteredAxis?.[2] ?? null,
+        })
+        .returning({ id: restorationSites.id });
+      if (s.componentIds.length > 0) {
+        await tx.insert(restorationSiteComponents).values(s.componentIds.map((componentId) => ({ practiceId: patient.practiceId, restorationSiteId: rs!.id, componentId })));
+      }
+    }
+    const acknowledged = checked.findings.filter((f) => f.severity === 'warning');
+    if (acknowledged.length > 0) {
+      await tx.insert(findingAcknowledgements).values(acknowledged.map((f) => ({ practiceId: patient.practiceId, restorationId: row!.id, code: f.code, fdi: f.fdi ?? null, acknowledgedBy: user.id })));
+    }
+    return row!.id;
+  }
+
+  /**
+   * Delivery, in one transaction: each part becomes a component instance (lot required where the
+   * catalogue says so, and the part must fit the site's platform), healing abutments and cover
+   * screws come out, the sites become 'restored'. Nothing is saved when any part is refused.
+   */
+  async deliver(ability: AppAbility, user: SessionUser, scope: Scope, id: string, body: DeliveryInput): Promise<RestorationDetail> {
+    const row = assertCan(ability, 'create', 'ComponentInstance', await repo.findVisibleRestoration(this.db, scope, id), 'restoration');
+    assertCan(ability, 'amend', 'Restoration', row, 'restoration');
+    if (row.supersededById) throw new ConflictException('This version was amended; deliver the current version');
+    if (row.status !== 'planned') throw new ConflictException('This restoration is already delivered');
+    await this.db.transaction(async (tx) => {
+      const { sites } = await repo.loadRestorationSites(tx, [row.id]);
+      const catalogue = new Map((await findComponents(tx, row.practiceId, body.parts.map((p) => p.componentId))).map((c) => [c.id, c]));
+      const fields: Record<string, string> = {};
+      body.parts.forEach((p, i) => {
+        const site = sites.find((s) => s.siteId === p.siteId);
+        const part = catalogue.get(p.componentId);
+        if (!site) fields[`parts.${i}.siteId`] = 'This site is not part of the restoration';
+        else if (!part) fields[`parts.${i}.componentId`] = 'No such part in the practice catalogue';
+        else if (part.platformId !== site.platformId) fields[`parts.${i}.componentId`] = `${part.name} does not fit the platform at ${site.fdi} (${site.platformName})`;
+        else if (part.kind === 'impression-coping') fields[`parts.${i}.componentId`] = 'Impression copings do not stay in the mouth';
+        else if (part.requiresLot && !p.lot) fields[`parts.${i}.lot`] = `The lot number of ${part.name} is required`;
+      });
+      if (Object.keys(fields).length > 0) throw fieldError(fields);
+
+      const siteIds = sites.map((s) => s.siteId);
+      const healing = await tx
+        .select({ id: componentInstances.id })
+        .from(componentInstances)
+        .innerJoin(components, eq(components.id, componentInstances.componentId))
+        .where(and(inArray(componentInstances.siteId, siteIds), isNull(componentInstances.removedOn), inArray(components.kind, [...HEALING_KINDS])));
+      if (healing.length > 0) {
+        await tx.update(componentInstances).set({ removedOn: body.deliveredOn }).where(inArray(componentInstances.id, healing.map((h) => h.id)));
+      }
+      await tx.insert(componentInstances).values(
+        body.parts.map((p) => ({
+          practiceId: row.practiceId,
+          patientId: row.patientId,
+          siteId: p.siteId,
+          restorationId: row.id,
+          componentId: p.componentId,
+          lot: p.lot,
+          installedOn: body.deliveredOn,
+          recordedBy: user.id,
+        })),
+      );
+      await tx
+        .update(restorations)
+        .set({ status: 'delivered', deliveredOn: body.deliveredOn, impressionTakenOn: body.impressionTakenOn ?? row.impressionTakenOn })
+        .where(eq(restorations.id, row.id));
+      await tx.update(implantSites).set({ status: 'restored' }).where(inArray(implantSites.id, siteIds));
+    });
+    return this.detail(ability, scope, row.id);
+  }
+
+  /** Builds the replies for several restorations with a fixed number of queries. */
+  async details(rows: repo.RestorationRow[]): Promise<RestorationDetail[]> {
+    const ids = rows.map((r) => r.id);
+    const [{ sites, parts }, acks, labs] = await Promise.all([repo.loadRestorationSites(this.db, ids), repo.loadAcknowledgements(this.db, ids), repo.loadLabPrescriptions(this.db, ids)]);
+    return rows.map((r) => ({
+      id: r.id,
+      patientId: r.patientId,
+      kind: r.kind,
+      retention: r.retention,
+      material: r.material,
+      shade: r.shade,
+      status: r.status,
+      copingsSplinted: r.copingsSplinted,
+      impressionTakenOn: r.impressionTakenOn,
+      deliveredOn: r.deliveredOn,
+      labName: r.labName,
+      labEmail: r.labEmail,
+      dueOn: r.dueOn,
+      notes: r.notes,
+      findings: r.findings as RestorationDetail['findings'],
+      rulesVersion: r.rulesVersion,
+      plannedByName: r.plannedByName,
+      createdAt: r.createdAt.toISOString(),
+      supersedesId: r.supersedesId,
+      amendmentReason: r.amendmentReason,
+      supersededById: r.supersededById,
+      retrievable: r.retention !== 'cement-on-abutment',
+      acknowledgements: acks.filter((a) => a.restorationId === r.id).map((a) => ({ code: a.code, fdi: a.fdi, byName: a.byName, at: a.at.toISOString() })),
+      labPrescriptions: labs
+        .filter((l) => l.restorationId === r.id)
+        .map((l) => ({ id: l.id, sizeBytes: l.sizeBytes, emailedTo: l.emailedTo, emailedAt: l.emailedAt?.toISOString() ?? null, createdAt: l.createdAt.toISOString() })),
+      sites: sites
+        .filter((s) => s.restorationId === r.id)
+        .map((s) => ({
+          siteId: s.siteId,
+          fdi: s.fdi,
+          universal: fdiToUniversal(s.fdi),
+          interface: s.interface,
+          impressionCoping: s.impressionCoping,
+          multiUnitAngleDeg: s.multiUnitAngleDeg,
+          restorativeSpaceMm: s.restorativeSpaceMm,
+          axis: s.axisX !== null && s.axisY !== null && s.axisZ !== null ? [s.axisX, s.axisY, s.axisZ] : null,
+          systemName: s.systemName,
+          platformName: s.platformName,
+          connection: s.connection,
+          components: parts.filter((p) => p.restorationSiteId === s.id).map(({ restorationSiteId: _r, ...p }) => p),
+        })),
+    }));
+  }
+}

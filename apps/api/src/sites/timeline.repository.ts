@@ -1,0 +1,176 @@
+// Everything that happened at one site, for the Timeline. Each query is pinned to the site,
+// which the caller has already checked the user may see.
+import { asc, eq, inArray, sql } from 'drizzle-orm';
+import type { Db } from '../db/database.js';
+import {
+  complications,
+  componentInstances,
+  components,
+  implantSites,
+  implantSystems,
+  labPrescriptions,
+  placements,
+  platforms,
+  recallExams,
+  restorationSites,
+  restorations,
+  torqueEvents,
+  torqueWrenches,
+  users,
+} from '../db/schema/index.js';
+
+export async function placementsOfSite(db: Db, siteId: string) {
+  return db
+    .select({
+      id: placements.id,
+      placedOn: placements.placedOn,
+      systemName: implantSystems.name,
+      platformName: platforms.name,
+      lengthMm: placements.lengthMm,
+      insertionTorqueNcm: placements.insertionTorqueNcm,
+      stabilityIsq: placements.stabilityIsq,
+      surgeonName: placements.surgeonName,
+      lot: placements.lot,
+      supersedesId: placements.supersedesId,
+      amendmentReason: placements.amendmentReason,
+      amended: sql<boolean>`exists (select 1 from ${placements} p2 where p2.supersedes_id = ${placements.id})`,
+    })
+    .from(placements)
+    .innerJoin(platforms, eq(platforms.id, placements.platformId))
+    .innerJoin(implantSystems, eq(implantSystems.id, platforms.systemId))
+    .where(eq(placements.siteId, siteId));
+}
+
+export async function restorationsOfSite(db: Db, siteId: string) {
+  const rows = await db
+    .select({
+      id: restorations.id,
+      kind: restorations.kind,
+      retention: restorations.retention,
+      material: restorations.material,
+      shade: restorations.shade,
+      status: restorations.status,
+      copingsSplinted: restorations.copingsSplinted,
+      impressionTakenOn: restorations.impressionTakenOn,
+      deliveredOn: restorations.deliveredOn,
+      createdAt: restorations.createdAt,
+      plannedByName: users.displayName,
+      findings: restorations.findings,
+      supersedesId: restorations.supersedesId,
+      amendmentReason: restorations.amendmentReason,
+      amended: sql<boolean>`exists (select 1 from ${restorations} r2 where r2.supersedes_id = ${restorations.id})`,
+      impressionCoping: restorationSites.impressionCoping,
+      interface: restorationSites.interface,
+    })
+    .from(restorationSites)
+    .innerJoin(restorations, eq(restorations.id, restorationSites.restorationId))
+    .leftJoin(users, eq(users.id, restorations.plannedBy))
+    .where(eq(restorationSites.siteId, siteId));
+  const ids = rows.map((r) => r.id);
+  const spans =
+    ids.length === 0
+      ? []
+      : await db
+          .select({ restorationId: restorationSites.restorationId, fdi: implantSites.fdi })
+          .from(restorationSites)
+          .innerJoin(implantSites, eq(implantSites.id, restorationSites.siteId))
+          .where(inArray(restorationSites.restorationId, ids))
+          .orderBy(asc(implantSites.fdi));
+  const labs =
+    ids.length === 0
+      ? []
+      : await db
+          .select({ id: labPrescriptions.id, restorationId: labPrescriptions.restorationId, createdAt: labPrescriptions.createdAt, emailedTo: labPrescriptions.emailedTo, byName: users.displayName })
+          .from(labPrescriptions)
+          .leftJoin(users, eq(users.id, labPrescriptions.createdBy))
+          .where(inArray(labPrescriptions.restorationId, ids));
+  return rows.map((r) => ({ ...r, spansFdi: spans.filter((s) => s.restorationId === r.id).map((s) => s.fdi), labs: labs.filter((l) => l.restorationId === r.id) }));
+}
+
+export async function partsOfSite(db: Db, siteId: string) {
+  return db
+    .select({
+      id: componentInstances.id,
+      kind: components.kind,
+      name: components.name,
+      referenceCode: components.referenceCode,
+      torqueSpecNcm: components.torqueSpecNcm,
+      tolerancePct: components.tolerancePct,
+      lot: componentInstances.lot,
+      installedOn: componentInstances.installedOn,
+      removedOn: componentInstances.removedOn,
+      replacesId: componentInstances.replacesId,
+      byName: users.displayName,
+    })
+    .from(componentInstances)
+    .innerJoin(components, eq(components.id, componentInstances.componentId))
+    .leftJoin(users, eq(users.id, componentInstances.recordedBy))
+    .where(eq(componentInstances.siteId, siteId))
+    .orderBy(asc(componentInstances.installedOn), asc(componentInstances.recordedAt));
+}
+
+export async function torqueEventsOfSite(db: Db, siteId: string) {
+  return db
+    .select({
+      id: torqueEvents.id,
+      componentInstanceId: torqueEvents.componentInstanceId,
+      partName: components.name,
+      appliedNcm: torqueEvents.appliedNcm,
+      specNcm: torqueEvents.specNcm,
+      tolerancePct: torqueEvents.tolerancePct,
+      verdict: torqueEvents.verdict,
+      reason: torqueEvents.reason,
+      wrenchLabel: torqueWrenches.label,
+      performedAt: torqueEvents.performedAt,
+      byName: users.displayName,
+      supersedesId: torqueEvents.supersedesId,
+      amendmentReason: torqueEvents.amendmentReason,
+      amended: sql<boolean>`exists (select 1 from ${torqueEvents} t2 where t2.supersedes_id = ${torqueEvents.id})`,
+    })
+    .from(torqueEvents)
+    .innerJoin(componentInstances, eq(componentInstances.id, torqueEvents.componentInstanceId))
+    .innerJoin(components, eq(components.id, componentInstances.componentId))
+    .leftJoin(torqueWrenches, eq(torqueWrenches.id, torqueEvents.wrenchId))
+    .leftJoin(users, eq(users.id, torqueEvents.recordedBy))
+    .where(eq(componentInstances.siteId, siteId))
+    .orderBy(asc(torqueEvents.performedAt));
+}
+
+export async function complicationsOfSite(db: Db, siteId: string) {
+  return db
+    .select({
+      id: complications.id,
+      kind: complications.kind,
+      occurredOn: complications.occurredOn,
+      notes: complications.notes,
+      componentInstanceId: complications.componentInstanceId,
+      partName: components.name,
+      byName: users.displayName,
+      supersedesId: complications.supersedesId,
+      amendmentReason: complications.amendmentReason,
+      amended: sql<boolean>`exists (select 1 from ${complications} c2 where c2.supersedes_id = ${complications.id})`,
+    })
+    .from(complications)
+    .leftJoin(componentInstances, eq(componentInstances.id, complications.componentInstanceId))
+    .leftJoin(components, eq(components.id, componentInstances.componentId))
+    .leftJoin(users, eq(users.id, complications.recordedBy))
+    .where(eq(complications.siteId, siteId));
+}
+
+/** Recall exams are written by the recall feature; the Timeline only reads them. */
+export async function recallExamsOfSite(db: Db, siteId: string) {
+  return db
+    .select({
+      id: recallExams.id,
+      examinedOn: recallExams.examinedOn,
+      status: recallExams.status,
+      boneLevelMm: recallExams.boneLevelMm,
+      byName: users.displayName,
+      supersedesId: recallExams.supersedesId,
+      amendmentReason: recallExams.amendmentReason,
+      amended: sql<boolean>`exists (select 1 from ${recallExams} e2 where e2.supersedes_id = ${recallExams.id})`,
+    })
+    .from(recallExams)
+    .leftJoin(users, eq(users.id, recallExams.examinerId))
+    .where(eq(recallExams.siteId, siteId));
+}

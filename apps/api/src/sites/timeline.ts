@@ -1,0 +1,141 @@
+// Builds the Timeline of a site from its rows: every event in time order, amended entries kept
+// and marked, with one torque series per part for the chart.
+import type { TimelineEvent, TimelineKind, TimelineReply, TorqueSeries } from '@torquetrail/contracts';
+import type * as repo from './timeline.repository.js';
+
+type Rows<K extends keyof typeof repo> = Awaited<ReturnType<(typeof repo)[K]>>;
+
+export interface TimelineRows {
+  placements: Rows<'placementsOfSite'>;
+  restorations: Rows<'restorationsOfSite'>;
+  parts: Rows<'partsOfSite'>;
+  torque: Rows<'torqueEventsOfSite'>;
+  complications: Rows<'complicationsOfSite'>;
+  recallExams: Rows<'recallExamsOfSite'>;
+}
+
+const day = (date: string) => `${date}T00:00:00.000Z`;
+const text = (v: string) => v.replace(/-/g, ' ');
+const span = (fdis: number[]) => (fdis.length > 1 ? `sites ${fdis.join(', ')}` : `site ${fdis[0]}`);
+
+function base(kind: TimelineKind, id: string, at: string, dateOnly: boolean, title: string, { keySuffix = '', ...rest }: Partial<TimelineEvent> & { keySuffix?: string } = {}): TimelineEvent {
+  return {
+    key: `${kind}:${id}${keySuffix}`,
+    id,
+    kind,
+    at,
+    dateOnly,
+    title,
+    detail: null,
+    amended: false,
+    supersedesId: null,
+    amendmentReason: null,
+    componentInstanceId: null,
+    verdict: null,
+    byName: null,
+    ...rest,
+  };
+}
+
+export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: TimelineKind[]): TimelineReply {
+  const events: TimelineEvent[] = [];
+  for (const p of rows.placements) {
+    events.push(
+      base('placement', p.id, day(p.placedOn), true, `${p.supersedesId ? 'Placement (amended record)' : 'Implant placed'}: ${p.systemName}, ${p.platformName} × ${p.lengthMm} mm`, {
+        detail: [p.insertionTorqueNcm !== null ? `insertion torque ${p.insertionTorqueNcm} N·cm` : null, p.stabilityIsq !== null ? `ISQ ${p.stabilityIsq}` : null, p.lot ? `lot ${p.lot}` : null].filter(Boolean).join(', ') || null,
+        byName: p.surgeonName,
+        amended: p.amended,
+        supersedesId: p.supersedesId,
+        amendmentReason: p.amendmentReason,
+      }),
+    );
+  }
+  for (const r of rows.restorations) {
+    const what = `${text(r.kind)}, ${text(r.retention)}, ${text(r.material)}${r.shade ? ` ${r.shade}` : ''} (${span(r.spansFdi)})`;
+    const warnings = (r.findings as { severity: string }[]).filter((f) => f.severity === 'warning').length;
+    events.push(
+      base('plan', r.id, r.createdAt.toISOString(), false, `${r.supersedesId ? 'Plan amended' : 'Restoration planned'}: ${what}`, {
+        detail: `${r.interface} interface, ${r.impressionCoping} impression coping${r.copingsSplinted ? 's splinted' : ''}${warnings ? `; ${warnings} warning Finding(s) acknowledged` : ''}`,
+        byName: r.plannedByName,
+        amended: r.amended,
+        supersedesId: r.supersedesId,
+        amendmentReason: r.amendmentReason,
+      }),
+    );
+    if (r.impressionTakenOn) events.push(base('impression', r.id, day(r.impressionTakenOn), true, `Impression taken: ${r.impressionCoping} coping${r.copingsSplinted ? 's, splinted' : ''}`, { amended: r.amended }));
+    if (r.deliveredOn) {
+      events.push(
+        base('delivery', r.id, day(r.deliveredOn), true, `Restoration delivered: ${what}`, {
+          detail: r.retention === 'cement-on-abutment' ? 'Cement-retained: not retrievable without cutting' : 'Retrievable',
+          amended: r.amended,
+        }),
+      );
+    }
+    for (const l of r.labs) events.push(base('lab-prescription', l.id, l.createdAt.toISOString(), false, 'Lab prescription issued', { detail: l.emailedTo ? `e-mailed to ${l.emailedTo}` : null, byName: l.byName }));
+  }
+  for (const p of rows.parts) {
+    events.push(
+      base('part', p.id, day(p.installedOn), true, `${p.replacesId ? 'Replacement installed' : 'Installed'}: ${p.name}`, {
+        keySuffix: ':in',
+        detail: [p.referenceCode, p.lot ? `lot ${p.lot}` : null].filter(Boolean).join(', '),
+        componentInstanceId: p.id,
+        byName: p.byName,
+      }),
+    );
+    if (p.removedOn) events.push(base('part', p.id, day(p.removedOn), true, `Removed: ${p.name}`, { keySuffix: ':out', componentInstanceId: p.id }));
+  }
+  for (const t of rows.torque) {
+    events.push(
+      base('torque', t.id, t.performedAt.toISOString(), false, `${t.appliedNcm} N·cm on ${t.partName} (${text(t.reason)}): ${t.verdict}`, {
+        detail: `spec ${t.specNcm} N·cm ±${t.tolerancePct} %${t.wrenchLabel ? `, ${t.wrenchLabel}` : ''}`,
+        componentInstanceId: t.componentInstanceId,
+        verdict: t.verdict,
+        byName: t.byName,
+        amended: t.amended,
+        supersedesId: t.supersedesId,
+        amendmentReason: t.amendmentReason,
+      }),
+    );
+  }
+  for (const c of rows.complications) {
+    events.push(
+      base('complication', c.id, day(c.occurredOn), true, `Complication: ${text(c.kind)}${c.partName ? ` (${c.partName})` : ''}`, {
+        detail: c.notes,
+        componentInstanceId: c.componentInstanceId,
+        byName: c.byName,
+        amended: c.amended,
+        supersedesId: c.supersedesId,
+        amendmentReason: c.amendmentReason,
+      }),
+    );
+  }
+  for (const e of rows.recallExams) {
+    events.push(
+      base('recall-exam', e.id, day(e.examinedOn), true, `Recall exam: ${text(e.status)}`, {
+        detail: e.boneLevelMm !== null ? `bone level ${e.boneLevelMm} mm` : null,
+        byName: e.byName,
+        amended: e.amended,
+        supersedesId: e.supersedesId,
+        amendmentReason: e.amendmentReason,
+      }),
+    );
+  }
+  const kept = kinds ? events.filter((e) => kinds.includes(e.kind)) : events;
+  // Time order; on one day, the order things happen in a sitting.
+  const order: TimelineKind[] = ['placement', 'plan', 'impression', 'lab-prescription', 'part', 'delivery', 'complication', 'torque', 'recall-exam'];
+  kept.sort((a, b) => a.at.localeCompare(b.at) || order.indexOf(a.kind) - order.indexOf(b.kind));
+
+  const torqueSeries: TorqueSeries[] = rows.parts
+    .filter((p) => rows.torque.some((t) => t.componentInstanceId === p.id))
+    .map((p) => ({
+      componentInstanceId: p.id,
+      label: `${p.name} (installed ${p.installedOn}${p.removedOn ? `, removed ${p.removedOn}` : ''})`,
+      specNcm: p.torqueSpecNcm,
+      tolerancePct: p.tolerancePct,
+      removedOn: p.removedOn,
+      points: rows.torque
+        .filter((t) => t.componentInstanceId === p.id && !t.amended)
+        .map((t) => ({ id: t.id, at: t.performedAt.toISOString(), appliedNcm: t.appliedNcm, verdict: t.verdict, reason: t.reason })),
+    }));
+  return { siteId, events: kept, torqueSeries };
+}

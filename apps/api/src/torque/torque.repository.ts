@@ -1,0 +1,76 @@
+import { and, eq, sql } from 'drizzle-orm';
+import type { Db } from '../db/database.js';
+import { componentInstances, components, patients, torqueEvents, torqueWrenches, users } from '../db/schema/index.js';
+import type { Scope } from '../authz/scope.js';
+import { visiblePatients } from '../patients/patients.repository.js';
+
+/** A part instance whose patient the user may see, with its catalogue specification. */
+export async function findVisibleInstance(db: Db, scope: Scope, id: string) {
+  const [row] = await db
+    .select({
+      id: componentInstances.id,
+      practiceId: componentInstances.practiceId,
+      patientId: componentInstances.patientId,
+      siteId: componentInstances.siteId,
+      restorationId: componentInstances.restorationId,
+      componentId: componentInstances.componentId,
+      removedOn: componentInstances.removedOn,
+      name: components.name,
+      torqueSpecNcm: components.torqueSpecNcm,
+      tolerancePct: components.tolerancePct,
+      requiresLot: components.requiresLot,
+    })
+    .from(componentInstances)
+    .innerJoin(components, eq(components.id, componentInstances.componentId))
+    .innerJoin(patients, eq(patients.id, componentInstances.patientId))
+    .where(and(eq(componentInstances.id, id), visiblePatients(scope)));
+  return row ?? null;
+}
+
+export async function findVisibleTorqueEvent(db: Db, scope: Scope, id: string) {
+  const [row] = await db
+    .select({
+      id: torqueEvents.id,
+      practiceId: torqueEvents.practiceId,
+      patientId: torqueEvents.patientId,
+      componentInstanceId: torqueEvents.componentInstanceId,
+      specNcm: torqueEvents.specNcm,
+      tolerancePct: torqueEvents.tolerancePct,
+      reason: torqueEvents.reason,
+      supersededById: sql<string | null>`(select t2.id from ${torqueEvents} t2 where t2.supersedes_id = ${torqueEvents.id} limit 1)`,
+    })
+    .from(torqueEvents)
+    .innerJoin(patients, eq(patients.id, torqueEvents.patientId))
+    .where(and(eq(torqueEvents.id, id), visiblePatients(scope)));
+  return row ?? null;
+}
+
+export async function loadTorqueEvent(db: Db, id: string) {
+  const [row] = await db
+    .select({
+      id: torqueEvents.id,
+      componentInstanceId: torqueEvents.componentInstanceId,
+      appliedNcm: torqueEvents.appliedNcm,
+      specNcm: torqueEvents.specNcm,
+      tolerancePct: torqueEvents.tolerancePct,
+      verdict: torqueEvents.verdict,
+      rulesVersion: torqueEvents.rulesVersion,
+      reason: torqueEvents.reason,
+      wrenchId: torqueEvents.wrenchId,
+      wrenchLabel: torqueWrenches.label,
+      performedAt: torqueEvents.performedAt,
+      recordedByName: users.displayName,
+      supersedesId: torqueEvents.supersedesId,
+      amendmentReason: torqueEvents.amendmentReason,
+    })
+    .from(torqueEvents)
+    .leftJoin(torqueWrenches, eq(torqueWrenches.id, torqueEvents.wrenchId))
+    .leftJoin(users, eq(users.id, torqueEvents.recordedBy))
+    .where(eq(torqueEvents.id, id));
+  return row!;
+}
+
+export async function findWrenchOfPractice(db: Db, practiceId: string, id: string) {
+  const [row] = await db.select({ id: torqueWrenches.id }).from(torqueWrenches).where(and(eq(torqueWrenches.id, id), eq(torqueWrenches.practiceId, practiceId)));
+  return row ?? null;
+}

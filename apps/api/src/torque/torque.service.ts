@@ -1,0 +1,87 @@
+import { ConflictException, Inject, Injectable } from '@nestjs/common';
+import type { AppAbility } from '@torquetrail/authz';
+import type { TorqueAmendmentBody, TorqueBody, TorqueEvent } from '@torquetrail/contracts';
+import { RULES_VERSION, torqueVerdict } from '@torquetrail/domain';
+import { eq } from 'drizzle-orm';
+import type { z } from 'zod';
+import type { SessionUser } from '../auth/session-user.js';
+import { assertCan, type Scope } from '../authz/scope.js';
+import { DB, type Database, type Tx } from '../db/database.js';
+import { componentInstances, torqueEvents } from '../db/schema/index.js';
+import { fieldError } from '../restorations/plan-check.js';
+import * as repo from './torque.repository.js';
+
+/** An entry may be a few minutes ahead of the server clock, never later. */
+const FUTURE_SLACK_MS = 5 * 60_000;
+
+@Injectable()
+export class TorqueService {
+  constructor(@Inject(DB) private readonly db: Database) {}
+
+  private async checkWrench(db: Tx | Database, practiceId: string, wrenchId: string | null) {
+    if (wrenchId && !(await repo.findWrenchOfPractice(db, practiceId, wrenchId))) throw fieldError({ wrenchId: 'Not a torque wrench of this practice' });
+  }
+
+  private checkWhen(performedAt: Date, field: string) {
+    if (performedAt.getTime() > Date.now() + FUTURE_SLACK_MS) throw fieldError({ [field]: 'Cannot be in the future' });
+  }
+
+  /**
+   * Logs a torque. The verdict comes from `torqueVerdict` with the part's catalogue spec and
+   * tolerance and is stored with RULES_VERSION. 'screw-replaced' retires the old instance
+   * (removedOn) and applies the torque to a new one that replaces it, in one transaction.
+   */
+  async log(ability: AppAbility, user: SessionUser, scope: Scope, body: z.output<typeof TorqueBody>): Promise<TorqueEvent> {
+    const part = assertCan(ability, 'create', 'TorqueEvent', await repo.findVisibleInstance(this.db, scope, body.componentInstanceId), 'part');
+    if (part.removedOn) throw new ConflictException(`This part was removed on ${part.removedOn}; log the torque on the part in place`);
+    if (part.torqueSpecNcm === null) throw fieldError({ componentInstanceId: `${part.name} is hand-tight: it has no torque specification in the catalogue` });
+    const performedAt = body.performedAt ? new Date(body.performedAt) : new Date();
+    this.checkWhen(performedAt, 'performedAt');
+    await this.checkWrench(this.db, part.practiceId, body.wrenchId);
+    const replacing = body.reason === 'screw-replaced';
+    if (replacing) {
+      assertCan(ability, 'create', 'ComponentInstance', part, 'part');
+      if (part.requiresLot && !body.replacementLot) throw fieldError({ replacementLot: `The lot number of the new ${part.name} is required` });
+    }
+    const specNcm = part.torqueSpecNcm;
+    const verdict = torqueVerdict({ appliedNcm: body.appliedNcm, specNcm, tolerancePct: part.tolerancePct });
+    const id = await this.db.transaction(async (tx) => {
+      let instanceId = part.id;
+      if (replacing) {
+        const day = performedAt.toISOString().slice(0, 10);
+        await tx.update(componentInstances).set({ removedOn: day }).where(eq(componentInstances.id, part.id));
+        const [fresh] = await tx
+          .insert(componentInstances)
+          .values({ practiceId: part.practiceId, patientId: part.patientId, siteId: part.siteId, restorationId: part.restorationId, componentId: part.componentId, lot: body.replacementLot, installedOn: day, replacesId: part.id, recordedBy: user.id })
+          .returning({ id: componentInstances.id });
+        instanceId = fresh!.id;
+      }
+      const [row] = await tx
+        .insert(torqueEvents)
+        .values({ practiceId: part.practiceId, patientId: part.patientId, componentInstanceId: instanceId, appliedNcm: body.appliedNcm, specNcm, tolerancePct: part.tolerancePct, verdict, rulesVersion: RULES_VERSION, reason: body.reason, wrenchId: body.wrenchId, performedAt, recordedBy: user.id })
+        .returning({ id: torqueEvents.id });
+      return row!.id;
+    });
+    return this.reply(id, replacing);
+  }
+
+  /** An amendment is a new row superseding the old one (spec and reason kept; the verdict recomputed). */
+  async amend(ability: AppAbility, user: SessionUser, scope: Scope, id: string, body: z.output<typeof TorqueAmendmentBody>): Promise<TorqueEvent> {
+    const old = assertCan(ability, 'amend', 'TorqueEvent', await repo.findVisibleTorqueEvent(this.db, scope, id), 'torque entry');
+    if (old.supersededById) throw new ConflictException('This entry was already amended; amend the current version');
+    const performedAt = new Date(body.performedAt);
+    this.checkWhen(performedAt, 'performedAt');
+    await this.checkWrench(this.db, old.practiceId, body.wrenchId);
+    const verdict = torqueVerdict({ appliedNcm: body.appliedNcm, specNcm: old.specNcm, tolerancePct: old.tolerancePct });
+    const [row] = await this.db
+      .insert(torqueEvents)
+      .values({ practiceId: old.practiceId, patientId: old.patientId, componentInstanceId: old.componentInstanceId, appliedNcm: body.appliedNcm, specNcm: old.specNcm, tolerancePct: old.tolerancePct, verdict, rulesVersion: RULES_VERSION, reason: old.reason, wrenchId: body.wrenchId, performedAt, supersedesId: old.id, amendmentReason: body.amendmentReason, recordedBy: user.id })
+      .returning({ id: torqueEvents.id });
+    return this.reply(row!.id, false);
+  }
+
+  private async reply(id: string, replacing: boolean): Promise<TorqueEvent> {
+    const e = await repo.loadTorqueEvent(this.db, id);
+    return { ...e, performedAt: e.performedAt.toISOString(), replacementInstanceId: replacing ? e.componentInstanceId : null };
+  }
+}

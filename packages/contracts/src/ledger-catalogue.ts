@@ -1,0 +1,110 @@
+// Component catalogue and torque wrenches: the practice admin edits, everyone in the practice reads.
+import { z } from 'zod';
+import { Id, IsoDate } from './common.js';
+import { ComponentKind, Connection } from './sites.js';
+
+/** Shown on the catalogue and every torque form. */
+export const MANUFACTURER_CAUTION =
+  "Torque values and compatibility are manufacturer-specific: the manufacturer's instructions, the clinician's judgement and local regulations rule.";
+
+export const Tray = z.enum(['open', 'closed']);
+export type Tray = z.infer<typeof Tray>;
+
+export const CatalogueComponent = z.object({
+  id: Id,
+  platformId: Id,
+  kind: ComponentKind,
+  name: z.string(),
+  referenceCode: z.string(),
+  engaging: z.boolean().nullable(),
+  angleDeg: z.number().nullable(),
+  collarHeightMm: z.number().nullable(),
+  tray: Tray.nullable(),
+  /** null = hand-tight. */
+  torqueSpecNcm: z.number().nullable(),
+  tolerancePct: z.number(),
+  requiresLot: z.boolean(),
+  /** Recorded in a patient (a component instance exists): it can be corrected but never deleted. */
+  inUse: z.boolean(),
+});
+export type CatalogueComponent = z.infer<typeof CatalogueComponent>;
+
+export const CataloguePlatform = z.object({
+  id: Id,
+  systemId: Id,
+  name: z.string(),
+  diameterMm: z.number(),
+  connection: Connection,
+  platformShift: z.boolean(),
+  components: z.array(CatalogueComponent),
+});
+export type CataloguePlatform = z.infer<typeof CataloguePlatform>;
+
+export const CatalogueSystem = z.object({
+  id: Id,
+  name: z.string(),
+  manufacturer: z.string(),
+  platforms: z.array(CataloguePlatform),
+});
+export type CatalogueSystem = z.infer<typeof CatalogueSystem>;
+
+export const CatalogueReply = z.object({ caution: z.string(), systems: z.array(CatalogueSystem) });
+export type CatalogueReply = z.infer<typeof CatalogueReply>;
+
+const name = z.string().trim().min(1, 'Required').max(120);
+
+export const SystemBody = z.object({ name, manufacturer: name });
+export type SystemBody = z.infer<typeof SystemBody>;
+export const SystemPatch = SystemBody.partial();
+export type SystemPatch = z.infer<typeof SystemPatch>;
+
+export const PlatformBody = z.object({
+  systemId: Id,
+  name,
+  diameterMm: z.number().min(2, 'At least 2 mm').max(10, 'At most 10 mm'),
+  connection: Connection,
+  platformShift: z.boolean(),
+});
+export type PlatformBody = z.infer<typeof PlatformBody>;
+export const PlatformPatch = PlatformBody.omit({ systemId: true }).partial();
+export type PlatformPatch = z.infer<typeof PlatformPatch>;
+
+export const ComponentBody = z.object({
+  platformId: Id,
+  kind: ComponentKind,
+  name,
+  referenceCode: z.string().trim().min(1, 'Required').max(60),
+  engaging: z.boolean().nullable().default(null),
+  angleDeg: z.number().min(0).max(45).nullable().default(null),
+  collarHeightMm: z.number().min(0).max(10).nullable().default(null),
+  tray: Tray.nullable().default(null),
+  /** N·cm; null = hand-tight. */
+  torqueSpecNcm: z.number().min(1, 'At least 1 N·cm').max(100, 'At most 100 N·cm').nullable().default(null),
+  tolerancePct: z.number().min(0).max(50).default(10),
+  requiresLot: z.boolean().default(true),
+});
+export type ComponentBody = z.input<typeof ComponentBody>;
+/** The platform and kind of a part stay fixed once created (records point at it). */
+export const ComponentPatch = z.object({
+  name: name.optional(),
+  referenceCode: z.string().trim().min(1, 'Required').max(60).optional(),
+  engaging: z.boolean().nullable().optional(),
+  angleDeg: z.number().min(0).max(45).nullable().optional(),
+  collarHeightMm: z.number().min(0).max(10).nullable().optional(),
+  tray: Tray.nullable().optional(),
+  torqueSpecNcm: z.number().min(1, 'At least 1 N·cm').max(100, 'At most 100 N·cm').nullable().optional(),
+  tolerancePct: z.number().min(0).max(50).optional(),
+  requiresLot: z.boolean().optional(),
+});
+export type ComponentPatch = z.infer<typeof ComponentPatch>;
+
+export const WrenchType = z.enum(['spring', 'friction']);
+export type WrenchType = z.infer<typeof WrenchType>;
+export const Wrench = z.object({ id: Id, label: z.string(), type: WrenchType, lastCalibratedOn: IsoDate.nullable() });
+export type Wrench = z.infer<typeof Wrench>;
+export const WrenchListReply = z.object({ items: z.array(Wrench) });
+export type WrenchListReply = z.infer<typeof WrenchListReply>;
+export const WrenchBody = z.object({ label: name, type: WrenchType, lastCalibratedOn: IsoDate.nullable().default(null) });
+export type WrenchBody = z.input<typeof WrenchBody>;
+export const WrenchPatch = z.object({ label: name.optional(), type: WrenchType.optional(), lastCalibratedOn: IsoDate.nullable().optional() });
+export type WrenchPatch = z.infer<typeof WrenchPatch>;

@@ -1,0 +1,186 @@
+// Restoration planner, delivery and lab prescriptions.
+import { z } from 'zod';
+import { FdiPosition, Id, IsoDate, IsoDateTime } from './common.js';
+import { CatalogueComponent } from './ledger-catalogue.js';
+import { Connection, InterfaceKind, Material, RestorationKind, Retention } from './sites.js';
+
+export const ImpressionCopingKind = z.enum(['engaging', 'non-engaging', 'multi-unit']);
+export type ImpressionCopingKind = z.infer<typeof ImpressionCopingKind>;
+export const RestorationStatus = z.enum(['planned', 'delivered', 'removed']);
+export type RestorationStatus = z.infer<typeof RestorationStatus>;
+
+/** A plan Finding as returned by `validateRestorationPlan` (@torquetrail/domain). */
+export const Finding = z.object({
+  severity: z.enum(['error', 'warning']),
+  code: z.string(),
+  message: z.string(),
+  fdi: z.number().optional(),
+  source: z.string().optional(),
+});
+export type Finding = z.infer<typeof Finding>;
+
+export const Vec3 = z.tuple([z.number(), z.number(), z.number()]);
+
+export const PlanSiteBody = z.object({
+  siteId: Id,
+  interface: InterfaceKind,
+  impressionCoping: ImpressionCopingKind,
+  /** 0, 17 or 30 degrees; taken from the multi-unit abutment chosen when omitted. */
+  multiUnitAngleDeg: z.union([z.literal(0), z.literal(17), z.literal(30)]).nullable().default(null),
+  restorativeSpaceMm: z.number().min(0, 'Cannot be negative').max(40, 'At most 40 mm').nullable().default(null),
+  /** Implant axis (direction vector); the placement record's axis is used when omitted. */
+  axis: Vec3.nullable().default(null),
+  abutmentComponentId: Id.nullable().default(null),
+  multiUnitComponentId: Id.nullable().default(null),
+  screwComponentIds: z.array(Id).max(4).default([]),
+  impressionCopingComponentId: Id.nullable().default(null),
+});
+export type PlanSiteBody = z.input<typeof PlanSiteBody>;
+
+const optionalText = (max: number) => z.string().trim().max(max).nullable().default(null);
+
+export const PlanBody = z.object({
+  patientId: Id,
+  kind: RestorationKind,
+  retention: Retention,
+  material: Material,
+  shade: optionalText(20),
+  copingsSplinted: z.boolean().default(false),
+  labName: optionalText(120),
+  labEmail: z.email('Not an e-mail address').nullable().default(null),
+  dueOn: IsoDate.nullable().default(null),
+  notes: optionalText(2000),
+  sites: z.array(PlanSiteBody).min(1, 'Choose at least one site').max(16),
+  /** Warning Findings the clinician has read and accepts (code and site). */
+  acknowledgements: z.array(z.object({ code: z.string().max(80), fdi: FdiPosition.nullable().default(null) })).max(50).default([]),
+});
+export type PlanBody = z.input<typeof PlanBody>;
+export type PlanBodyParsed = z.output<typeof PlanBody>;
+
+export const PlanAmendmentBody = PlanBody.omit({ patientId: true }).extend({
+  amendmentReason: z.string().trim().min(3, 'Say why the plan is amended').max(500),
+});
+export type PlanAmendmentBody = z.input<typeof PlanAmendmentBody>;
+
+/** Where the planner shows a Finding: the field path of the form (and of the 400 `fields`). */
+export function findingField(finding: Pick<Finding, 'code' | 'fdi'>, siteFdis: readonly number[]): string {
+  const i = finding.fdi === undefined ? -1 : siteFdis.indexOf(finding.fdi);
+  const at = (field: string) => (i >= 0 ? `sites.${i}.${field}` : 'sites');
+  switch (finding.code) {
+    case 'non-engaging-single-crown':
+    case 'engaging-interface-on-splinted':
+      return at('interface');
+    case 'engaging-impression-for-platform-bridge':
+    case 'non-engaging-impression-for-indexed':
+    case 'multi-unit-impression-required':
+    case 'multi-unit-impression-without-abutment':
+      return at('impressionCoping');
+    case 'multi-unit-angle-without-abutment':
+      return at('multiUnitAngleDeg');
+    case 'splinted-engaging-copings':
+      return 'copingsSplinted';
+    case 'divergence-over-limit':
+      return at('axis');
+    case 'insufficient-restorative-space':
+      return at('restorativeSpaceMm');
+    case 'invalid-position':
+    case 'duplicate-site':
+    case 'primary-tooth-position':
+      return at('siteId');
+    default:
+      return 'sites';
+  }
+}
+
+/** A site of the patient the planner can restore: its implant, platform and axis from the placement. */
+export const RestorableSite = z.object({
+  siteId: Id,
+  fdi: FdiPosition,
+  universal: z.string(),
+  status: z.enum(['planned', 'placed', 'restored', 'failed', 'removed']),
+  platformId: Id.nullable(),
+  systemName: z.string().nullable(),
+  platformName: z.string().nullable(),
+  connection: Connection.nullable(),
+  diameterMm: z.number().nullable(),
+  axis: Vec3.nullable(),
+});
+export type RestorableSite = z.infer<typeof RestorableSite>;
+export const RestorableSitesReply = z.object({ items: z.array(RestorableSite) });
+export type RestorableSitesReply = z.infer<typeof RestorableSitesReply>;
+
+export const PlannedComponent = CatalogueComponent.omit({ inUse: true });
+export type PlannedComponent = z.infer<typeof PlannedComponent>;
+
+export const RestorationSiteDetail = z.object({
+  siteId: Id,
+  fdi: FdiPosition,
+  universal: z.string(),
+  interface: InterfaceKind,
+  impressionCoping: ImpressionCopingKind,
+  multiUnitAngleDeg: z.number().nullable(),
+  restorativeSpaceMm: z.number().nullable(),
+  axis: Vec3.nullable(),
+  systemName: z.string().nullable(),
+  platformName: z.string().nullable(),
+  connection: Connection.nullable(),
+  components: z.array(PlannedComponent),
+});
+export type RestorationSiteDetail = z.infer<typeof RestorationSiteDetail>;
+
+export const LabPrescriptionSummary = z.object({
+  id: Id,
+  sizeBytes: z.number().int(),
+  emailedTo: z.string().nullable(),
+  emailedAt: IsoDateTime.nullable(),
+  createdAt: IsoDateTime,
+});
+export type LabPrescriptionSummary = z.infer<typeof LabPrescriptionSummary>;
+
+export const RestorationDetail = z.object({
+  id: Id,
+  patientId: Id,
+  kind: RestorationKind,
+  retention: Retention,
+  material: Material,
+  shade: z.string().nullable(),
+  status: RestorationStatus,
+  copingsSplinted: z.boolean(),
+  impressionTakenOn: IsoDate.nullable(),
+  deliveredOn: IsoDate.nullable(),
+  labName: z.string().nullable(),
+  labEmail: z.string().nullable(),
+  dueOn: IsoDate.nullable(),
+  notes: z.string().nullable(),
+  findings: z.array(Finding),
+  rulesVersion: z.string().nullable(),
+  plannedByName: z.string().nullable(),
+  createdAt: IsoDateTime,
+  supersedesId: Id.nullable(),
+  amendmentReason: z.string().nullable(),
+  /** Set when a later amendment replaced this version (it stays visible, marked as amended). */
+  supersededById: Id.nullable(),
+  acknowledgements: z.array(z.object({ code: z.string(), fdi: z.number().nullable(), byName: z.string(), at: IsoDateTime })),
+  sites: z.array(RestorationSiteDetail),
+  labPrescriptions: z.array(LabPrescriptionSummary),
+  /** Retrievable without cutting: false for cement-retained restorations. */
+  retrievable: z.boolean(),
+});
+export type RestorationDetail = z.infer<typeof RestorationDetail>;
+export const RestorationListReply = z.object({ items: z.array(RestorationDetail) });
+export type RestorationListReply = z.infer<typeof RestorationListReply>;
+
+export const DeliveryPart = z.object({
+  siteId: Id,
+  componentId: Id,
+  lot: z.string().trim().max(40).nullable().default(null),
+});
+export const DeliveryBody = z.object({
+  deliveredOn: IsoDate,
+  impressionTakenOn: IsoDate.nullable().default(null),
+  parts: z.array(DeliveryPart).min(1, 'Record at least one part').max(64),
+});
+export type DeliveryBody = z.input<typeof DeliveryBody>;
+
+export const LabPrescriptionBody = z.object({ emailToLab: z.boolean().default(false) });
+export type LabPrescriptionBody = z.input<typeof LabPrescriptionBody>;

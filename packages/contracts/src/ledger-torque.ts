@@ -1,0 +1,137 @@
+// Torque entries, complications and the Site file's Timeline.
+import { z } from 'zod';
+import { Id, IsoDate, IsoDateTime } from './common.js';
+import { TorqueVerdict } from './sites.js';
+
+export const TorqueReason = z.enum(['initial-seating', 're-torque-after-settling', 're-torque-at-recall', 'loosening-found', 'screw-replaced']);
+export type TorqueReason = z.infer<typeof TorqueReason>;
+
+const appliedNcm = z
+  .number({ error: 'Enter the applied torque in N·cm' })
+  .min(1, 'Torque must be between 1 and 100 N·cm')
+  .max(100, 'Torque must be between 1 and 100 N·cm');
+
+export const TorqueBody = z.object({
+  componentInstanceId: Id,
+  appliedNcm,
+  wrenchId: Id.nullable().default(null),
+  reason: TorqueReason,
+  /** Defaults to now. */
+  performedAt: IsoDateTime.nullable().default(null),
+  /** For 'screw-replaced': the lot of the new screw (required when the part requires lots). */
+  replacementLot: z.string().trim().max(40).nullable().default(null),
+});
+export type TorqueBody = z.input<typeof TorqueBody>;
+
+export const TorqueAmendmentBody = z.object({
+  appliedNcm,
+  wrenchId: Id.nullable().default(null),
+  performedAt: IsoDateTime,
+  amendmentReason: z.string().trim().min(3, 'Say why the entry is amended').max(500),
+});
+export type TorqueAmendmentBody = z.input<typeof TorqueAmendmentBody>;
+
+export const TorqueEvent = z.object({
+  id: Id,
+  componentInstanceId: Id,
+  appliedNcm: z.number(),
+  specNcm: z.number(),
+  tolerancePct: z.number(),
+  verdict: TorqueVerdict,
+  rulesVersion: z.string(),
+  reason: TorqueReason,
+  wrenchId: Id.nullable(),
+  wrenchLabel: z.string().nullable(),
+  performedAt: IsoDateTime,
+  recordedByName: z.string().nullable(),
+  supersedesId: Id.nullable(),
+  amendmentReason: z.string().nullable(),
+  /** For 'screw-replaced': the new part instance the torque was applied to. */
+  replacementInstanceId: Id.nullable(),
+});
+export type TorqueEvent = z.infer<typeof TorqueEvent>;
+
+export const ComplicationKind = z.enum(['screw-loosening', 'screw-fracture', 'abutment-fracture', 'veneer-chipping', 'framework-fracture', 'other']);
+export type ComplicationKind = z.infer<typeof ComplicationKind>;
+
+export const ComplicationBody = z.object({
+  siteId: Id,
+  componentInstanceId: Id.nullable().default(null),
+  kind: ComplicationKind,
+  occurredOn: IsoDate,
+  notes: z.string().trim().max(2000).nullable().default(null),
+});
+export type ComplicationBody = z.input<typeof ComplicationBody>;
+export const ComplicationAmendmentBody = ComplicationBody.omit({ siteId: true }).extend({
+  amendmentReason: z.string().trim().min(3, 'Say why the entry is amended').max(500),
+});
+export type ComplicationAmendmentBody = z.input<typeof ComplicationAmendmentBody>;
+
+export const Complication = z.object({
+  id: Id,
+  siteId: Id,
+  componentInstanceId: Id.nullable(),
+  kind: ComplicationKind,
+  occurredOn: IsoDate,
+  notes: z.string().nullable(),
+  supersedesId: Id.nullable(),
+  amendmentReason: z.string().nullable(),
+  recordedByName: z.string().nullable(),
+});
+export type Complication = z.infer<typeof Complication>;
+
+export const TimelineKind = z.enum(['placement', 'impression', 'plan', 'delivery', 'part', 'torque', 'complication', 'lab-prescription', 'recall-exam']);
+export type TimelineKind = z.infer<typeof TimelineKind>;
+
+export const TimelineEvent = z.object({
+  /** `${kind}:${row id}` (a part can appear twice: installed and removed). */
+  key: z.string(),
+  id: Id,
+  kind: TimelineKind,
+  /** Instant of the event; date-only events are at 00:00 UTC with `dateOnly`. */
+  at: IsoDateTime,
+  dateOnly: z.boolean(),
+  title: z.string(),
+  detail: z.string().nullable(),
+  /** A newer version replaced this entry; it stays visible, marked as amended. */
+  amended: z.boolean(),
+  supersedesId: Id.nullable(),
+  amendmentReason: z.string().nullable(),
+  componentInstanceId: Id.nullable(),
+  verdict: TorqueVerdict.nullable(),
+  byName: z.string().nullable(),
+});
+export type TimelineEvent = z.infer<typeof TimelineEvent>;
+
+export const TorqueSeries = z.object({
+  componentInstanceId: Id,
+  label: z.string(),
+  specNcm: z.number().nullable(),
+  tolerancePct: z.number(),
+  removedOn: IsoDate.nullable(),
+  points: z.array(z.object({ id: Id, at: IsoDateTime, appliedNcm: z.number(), verdict: TorqueVerdict, reason: TorqueReason })),
+});
+export type TorqueSeries = z.infer<typeof TorqueSeries>;
+
+export const TimelineQuery = z.object({
+  /** Comma-separated kinds to keep; all when omitted. */
+  kinds: z
+    .string()
+    .max(200)
+    .optional()
+    .transform((s, ctx) => {
+      if (!s) return undefined;
+      const parts = s.split(',').map((p) => p.trim()).filter(Boolean);
+      for (const p of parts) {
+        if (!TimelineKind.safeParse(p).success) {
+          ctx.addIssue({ code: 'custom', message: `Unknown kind "${p}"` });
+          return z.NEVER;
+        }
+      }
+      return parts as TimelineKind[];
+    }),
+});
+export type TimelineQuery = z.output<typeof TimelineQuery>;
+
+export const TimelineReply = z.object({ siteId: Id, events: z.array(TimelineEvent), torqueSeries: z.array(TorqueSeries) });
+export type TimelineReply = z.infer<typeof TimelineReply>;
