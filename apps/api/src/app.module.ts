@@ -11,6 +11,7 @@ import { HealthModule } from './health/health.module.js';
 import { MailModule } from './mail/mail.module.js';
 import { OpenApiModule } from './openapi/openapi.module.js';
 import { PatientsModule } from './patients/patients.module.js';
+import { RecallsModule } from './recalls/recalls.module.js';
 import { SitesModule } from './sites/sites.module.js';
 import { CatalogueModule } from './catalogue/catalogue.module.js';
 import { ComplicationsModule } from './complications/complications.module.js';
@@ -38,6 +39,7 @@ export class AppModule {
         LabPrescriptionsModule,
         TorqueModule,
         ComplicationsModule,
+        RecallsModule,
         ...(env.NODE_ENV === 'production' ? [] : [OpenApiModule]),
       ],
       providers: [

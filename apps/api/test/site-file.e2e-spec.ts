@@ -17,7 +17,11 @@ describe('the Arch data of a patient', () => {
       [14, 'restored', 'Solvra CN'],
       [24, 'planned', null],
     ]);
-    expect(res.body.sites.every((s: { maintenanceStatus: string }) => s.maintenanceStatus === 'not-examined')).toBe(true);
+    // 14 has the seeded recall history (healthy); the planned 24 has never been examined.
+    expect(res.body.sites.map((s: { fdi: number; maintenanceStatus: string }) => [s.fdi, s.maintenanceStatus])).toEqual([
+      [14, 'health'],
+      [24, 'not-examined'],
+    ]);
   });
 });
 

@@ -25,6 +25,11 @@ const EnvSchema = z.object({
   COOKIE_SECURE: z.enum(['true', 'false']).default('false').transform((v) => v === 'true'),
   /** Sign-in attempts allowed per e-mail and address per minute. */
   SIGN_IN_LIMIT_PER_MINUTE: z.coerce.number().int().positive().default(10),
+  /** Reminder e-mails: first retry delay (seconds, doubled each retry) and how many retries. */
+  REMINDER_RETRY_DELAY_S: z.coerce.number().int().min(1).default(60),
+  REMINDER_RETRY_LIMIT: z.coerce.number().int().min(0).max(20).default(8),
+  /** When the daily reminder scan runs (cron, UTC). */
+  REMINDER_SCAN_CRON: z.string().default('0 6 * * *'),
   /** The built web app to serve from the same origin; unset in API-only tests. */
   WEB_DIST: z.string().optional(),
 });

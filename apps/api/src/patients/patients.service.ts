@@ -3,6 +3,7 @@ import { type AppAbility, subject } from '@torquetrail/authz';
 import type { PatientDetail, PatientListReply } from '@torquetrail/contracts';
 import { assertCan, type Scope } from '../authz/scope.js';
 import { DB, type Database } from '../db/database.js';
+import { latestExamBySite } from '../recalls/exams.repository.js';
 import { findVisiblePatient, listPatients, listSitesOfPatient } from './patients.repository.js';
 
 @Injectable()
@@ -16,6 +17,7 @@ export class PatientsService {
   async detail(ability: AppAbility, scope: Scope, id: string): Promise<PatientDetail> {
     const patient = assertCan(ability, 'read', 'Patient', await findVisiblePatient(this.db, scope, id), 'patient');
     const sites = (await listSitesOfPatient(this.db, patient.id)).filter((site) => ability.can('read', subjectOf(site)));
+    const exams = ability.can('read', subject('RecallExam', { practiceId: patient.practiceId, patientId: patient.id })) ? await latestExamBySite(this.db, sites.map((s) => s.id)) : new Map();
     return {
       id: patient.id,
       chartNumber: patient.chartNumber,
@@ -34,9 +36,8 @@ export class PatientsService {
         id: site.id,
         fdi: site.fdi,
         status: site.status,
-        // Recall exams arrive with the maintenance issue; until then nothing is examined.
-        maintenanceStatus: 'not-examined' as const,
-        lastExamDate: null,
+        maintenanceStatus: exams.get(site.id)?.status ?? ('not-examined' as const),
+        lastExamDate: exams.get(site.id)?.examinedOn ?? null,
         systemName: site.systemName,
       })),
     };

@@ -36,8 +36,15 @@ export const recallExams = pgTable(
     supersedesId: uuid('supersedes_id'),
     amendmentReason: text('amendment_reason'),
     recordedAt: timestamp('recorded_at', { withTimezone: true }).notNull().defaultNow(),
+    /** The exam this one was compared with (null: the no-baseline definition was used). */
+    baselineExamId: uuid('baseline_exam_id'),
   },
-  (t) => [index('recall_exams_site_idx').on(t.siteId, t.examinedOn), index('recall_exams_patient_idx').on(t.patientId, t.examinedOn)],
+  (t) => [
+    index('recall_exams_site_idx').on(t.siteId, t.examinedOn),
+    index('recall_exams_patient_idx').on(t.patientId, t.examinedOn),
+    // "Current" = not superseded: the not-exists probe needs this index on large desks.
+    index('recall_exams_supersedes_idx').on(t.supersedesId),
+  ],
 );
 
 /** Probing at one of the six sites around the implant. */

@@ -1,0 +1,106 @@
+// The Recall desk in one SQL statement: filtered, sorted and paged in PostgreSQL, scoped to the
+// practice (and the user's shares) in the where clause. Indexes used: recalls_patient_idx,
+// recall_exams_site_idx (latest exam per site), recall_exams_patient_idx, recall_exams_supersedes_idx,
+// implant_sites_practice_idx / the patient FK look-ups. See scripts/bench-recall-desk.mjs for timings.
+import { sql, type SQL } from 'drizzle-orm';
+import type { RecallDeskCsvQuery, RecallDeskRow } from '@torquetrail/contracts';
+import type { Db } from '../db/database.js';
+import type { Scope } from '../authz/scope.js';
+
+const escapeLike = (text: string) => text.replace(/[\\%_]/g, (c) => `\\${c}`);
+
+const SORTS: Record<RecallDeskCsvQuery['sort'], string> = {
+  dueOn: 'next_due',
+  // Overdue days grow as the due date recedes: the same order as the due date, reversed.
+  overdueDays: 'overdue_days',
+  name: 'family_name',
+  lastExamOn: 'last_exam_on',
+};
+
+export interface DeskPage {
+  rows: RecallDeskRow[];
+  total: number;
+}
+
+export async function queryDesk(db: Db, scope: Scope, today: string, q: RecallDeskCsvQuery, page: { limit: number; offset: number }): Promise<DeskPage> {
+  const visible: SQL =
+    scope.sharedPatientIds.length > 0
+      ? sql`(pa.practice_id = ${scope.practiceId} or pa.id in (${sql.join(scope.sharedPatientIds.map((id) => sql`${id}::uuid`), sql`, `)}))`
+      : sql`pa.practice_id = ${scope.practiceId}`;
+  const filters: SQL[] = [visible];
+  if (q.search) {
+    for (const word of q.search.split(/\s+/).filter(Boolean).slice(0, 5)) {
+      const pattern = `%${escapeLike(word)}%`;
+      filters.push(sql`(pa.given_name ilike ${pattern} or pa.family_name ilike ${pattern} or pa.chart_number ilike ${pattern})`);
+    }
+  }
+  const outer: SQL[] = [sql`true`];
+  if (q.filter === 'due-this-week') outer.push(sql`next_due between ${today}::date and (${today}::date + 7)`);
+  if (q.filter === 'overdue') outer.push(sql`next_due < ${today}::date`);
+  if (q.filter === 'peri-implantitis-last') outer.push(sql`last_pi`);
+
+  const dir = q.dir === 'desc' ? sql.raw('desc') : sql.raw('asc');
+  const nulls = sql.raw(q.dir === 'desc' ? 'nulls last' : 'nulls last');
+  const sortCol = sql.raw(SORTS[q.sort]);
+
+  const result = await db.execute<{
+    id: string;
+    chart_number: string;
+    given_name: string;
+    family_name: string;
+    smoker: boolean;
+    diabetes_poorly_controlled: boolean;
+    periodontitis_history: boolean;
+    prior_pi: boolean;
+    next_due_on: string | null;
+    overdue_days: number;
+    last_exam_on: string | null;
+    sites: { siteId: string; fdi: number; status: string | null; examinedOn: string | null }[];
+    total: number;
+  }>(sql`
+    with desk as (
+      select pa.id, pa.chart_number, pa.given_name, pa.family_name, pa.smoker, pa.diabetes_poorly_controlled, pa.periodontitis_history,
+             nr.due_on as next_due, nr.due_on::text as next_due_on,
+             greatest(0, coalesce(${today}::date - nr.due_on, 0))::int as overdue_days,
+             le.last_exam_on::text as last_exam_on, le.sites, coalesce(le.last_pi, false) as last_pi,
+             exists (select 1 from recall_exams pe where pe.patient_id = pa.id and pe.status = 'peri-implantitis'
+                      and not exists (select 1 from recall_exams s2 where s2.supersedes_id = pe.id)) as prior_pi
+      from patients pa
+      join lateral (
+        select json_agg(json_build_object('siteId', s.id, 'fdi', s.fdi, 'status', e.status, 'examinedOn', e.examined_on) order by s.fdi) as sites,
+               max(e.examined_on) as last_exam_on,
+               bool_or(e.status = 'peri-implantitis') as last_pi
+        from implant_sites s
+        left join lateral (
+          select x.status, x.examined_on from recall_exams x
+          where x.site_id = s.id and not exists (select 1 from recall_exams x2 where x2.supersedes_id = x.id)
+          order by x.examined_on desc, x.recorded_at desc limit 1
+        ) e on true
+        where s.patient_id = pa.id and s.status in ('placed', 'restored')
+      ) le on le.sites is not null
+      left join lateral (select min(r.due_on) as due_on from recalls r where r.patient_id = pa.id and r.status = 'scheduled') nr on true
+      where ${sql.join(filters, sql` and `)}
+    )
+    select desk.*, count(*) over ()::int as total from desk
+    where ${sql.join(outer, sql` and `)}
+    order by ${sortCol} ${dir} ${nulls}, family_name asc, given_name asc, id asc
+    limit ${page.limit} offset ${page.offset}
+  `);
+  const rows = result.rows.map((r) => ({
+    patientId: r.id,
+    chartNumber: r.chart_number,
+    name: `${r.given_name} ${r.family_name}`,
+    nextDueOn: r.next_due_on,
+    overdueDays: r.overdue_days,
+    lastExamOn: r.last_exam_on,
+    sites: r.sites.map((s) => ({ siteId: s.siteId, fdi: s.fdi, status: (s.status ?? 'not-examined') as RecallDeskRow['sites'][number]['status'], lastExamOn: s.examinedOn })),
+    riskFactors: { smoker: r.smoker, diabetesPoorlyControlled: r.diabetes_poorly_controlled, periodontitisHistory: r.periodontitis_history, priorPeriImplantitis: r.prior_pi },
+  }));
+  return { rows, total: result.rows[0]?.total ?? (page.offset > 0 ? await countOnly() : 0) };
+
+  // A page past the end has no rows to carry the window count; count separately then.
+  async function countOnly(): Promise<number> {
+    const again = await queryDesk(db, scope, today, q, { limit: 1, offset: 0 });
+    return again.total;
+  }
+}

@@ -1,0 +1,216 @@
+// SQL for recall exams. Scope is applied by the callers' patient/site look-ups (visiblePatients).
+import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm';
+import type { RecallExam } from '@torquetrail/contracts';
+import type { Db } from '../db/database.js';
+import { implantSites, patients, recallExams, recallExamSites, recallPolicies, recalls, users } from '../db/schema/index.js';
+import type { Scope } from '../authz/scope.js';
+import { visiblePatients } from '../patients/patients.repository.js';
+import { inChartOrder, type ProbedSite } from './exam-rules.js';
+
+/** Not superseded by an amendment. */
+// Qualified by hand: drizzle leaves columns unqualified in single-table selects, and an unqualified
+// "id" inside the subquery would bind to e2.
+const isCurrent = sql`not exists (select 1 from recall_exams as e2 where e2.supersedes_id = "recall_exams"."id")`;
+
+export type ExamRow = RecallExam & { practiceId: string; recordedAtDate: Date };
+
+const examColumns = {
+  id: recallExams.id,
+  practiceId: recallExams.practiceId,
+  patientId: recallExams.patientId,
+  siteId: recallExams.siteId,
+  fdi: implantSites.fdi,
+  visitId: recallExams.visitId,
+  examinedOn: recallExams.examinedOn,
+  examinerName: users.displayName,
+  mobility: recallExams.mobility,
+  plaqueIndex: recallExams.plaqueIndex,
+  bleedingIndex: recallExams.bleedingIndex,
+  keratinizedMucosaMm: recallExams.keratinizedMucosaMm,
+  residualCement: recallExams.residualCement,
+  boneLevelMm: recallExams.boneLevelMm,
+  isBaseline: recallExams.isBaseline,
+  notes: recallExams.notes,
+  status: recallExams.status,
+  reasons: recallExams.reasons,
+  flags: recallExams.flags,
+  rulesVersion: recallExams.rulesVersion,
+  ruleOptions: recallExams.ruleOptions,
+  baselineExamId: recallExams.baselineExamId,
+  supersedesId: recallExams.supersedesId,
+  amendmentReason: recallExams.amendmentReason,
+  recordedAt: recallExams.recordedAt,
+};
+
+/** Current exams of the given sites, oldest first, with their six probing sites. */
+export async function listExamsOfSites(db: Db, siteIds: string[]): Promise<ExamRow[]> {
+  if (siteIds.length === 0) return [];
+  const rows = await db
+    .select(examColumns)
+    .from(recallExams)
+    .innerJoin(implantSites, eq(implantSites.id, recallExams.siteId))
+    .innerJoin(users, eq(users.id, recallExams.examinerId))
+    .where(and(inArray(recallExams.siteId, siteIds), isCurrent))
+    .orderBy(asc(recallExams.examinedOn), asc(recallExams.recordedAt));
+  return attachSites(db, rows);
+}
+
+async function attachSites(db: Db, rows: (Omit<ExamRow, 'sites' | 'recordedAt' | 'recordedAtDate'> & { recordedAt: Date })[]): Promise<ExamRow[]> {
+  if (rows.length === 0) return [];
+  const probes = await db
+    .select({ examId: recallExamSites.examId, position: recallExamSites.position, probingDepthMm: recallExamSites.probingDepthMm, bleeding: recallExamSites.bleeding, suppuration: recallExamSites.suppuration })
+    .from(recallExamSites)
+    .where(inArray(recallExamSites.examId, rows.map((r) => r.id)));
+  const byExam = new Map<string, ProbedSite[]>();
+  for (const p of probes) {
+    const list = byExam.get(p.examId) ?? [];
+    list.push({ position: p.position, probingDepthMm: p.probingDepthMm, bleeding: p.bleeding, suppuration: p.suppuration });
+    byExam.set(p.examId, list);
+  }
+  return rows.map((r) => ({ ...r, sites: inChartOrder(byExam.get(r.id) ?? []), recordedAt: r.recordedAt.toISOString(), recordedAtDate: r.recordedAt }));
+}
+
+export function toContract(row: ExamRow): RecallExam {
+  const { practiceId: _p, recordedAtDate: _r, ...rest } = row;
+  return rest;
+}
+
+/**
+ * Latest current exam per site: the status and date for the Arch ring and the Site file
+ * (used by patients.service and sites.service).
+ */
+export async function latestExamBySite(db: Db, siteIds: string[]): Promise<Map<string, { status: 'health' | 'mucositis' | 'peri-implantitis'; examinedOn: string }>> {
+  if (siteIds.length === 0) return new Map();
+  const rows = await db
+    .selectDistinctOn([recallExams.siteId], { siteId: recallExams.siteId, status: recallExams.status, examinedOn: recallExams.examinedOn })
+    .from(recallExams)
+    .where(and(inArray(recallExams.siteId, siteIds), isCurrent))
+    .orderBy(recallExams.siteId, desc(recallExams.examinedOn), desc(recallExams.recordedAt));
+  return new Map(rows.map((r) => [r.siteId, { status: r.status, examinedOn: r.examinedOn }]));
+}
+
+export async function findVisiblePatientForRecall(db: Db, scope: Scope, patientId: string) {
+  const [row] = await db
+    .select({
+      id: patients.id,
+      practiceId: patients.practiceId,
+      chartNumber: patients.chartNumber,
+      name: sql<string>`${patients.givenName} || ' ' || ${patients.familyName}`,
+      smoker: patients.smoker,
+      diabetesPoorlyControlled: patients.diabetesPoorlyControlled,
+      periodontitisHistory: patients.periodontitisHistory,
+    })
+    .from(patients)
+    .where(and(eq(patients.id, patientId), visiblePatients(scope)));
+  return row ?? null;
+}
+
+/** The patient's implant sites with the delivery date of their current restoration, if any. */
+export async function listSitesForExam(db: Db, patientId: string) {
+  return db
+    .select({
+      siteId: implantSites.id,
+      practiceId: implantSites.practiceId,
+      patientId: implantSites.patientId,
+      fdi: implantSites.fdi,
+      status: implantSites.status,
+      // Raw SQL: drizzle leaves columns unqualified in single-table selects, and "id" would be ambiguous here.
+      deliveredOn: sql<string | null>`(select min(rr.delivered_on)::text from restoration_sites rs join restorations rr on rr.id = rs.restoration_id where rs.site_id = "implant_sites"."id" and rr.delivered_on is not null and rr.status <> 'removed')`,
+    })
+    .from(implantSites)
+    .where(eq(implantSites.patientId, patientId))
+    .orderBy(asc(implantSites.fdi));
+}
+
+export async function findVisibleSiteForRecall(db: Db, scope: Scope, siteId: string) {
+  const [row] = await db
+    .select({ id: implantSites.id, practiceId: implantSites.practiceId, patientId: implantSites.patientId, fdi: implantSites.fdi })
+    .from(implantSites)
+    .innerJoin(patients, eq(patients.id, implantSites.patientId))
+    .where(and(eq(implantSites.id, siteId), visiblePatients(scope)));
+  return row ?? null;
+}
+
+/** Any current exam of the patient computed as peri-implantitis (a recall risk factor). */
+export async function hadPeriImplantitis(db: Db, patientId: string): Promise<boolean> {
+  const [row] = await db
+    .select({ found: sql<boolean>`true` })
+    .from(recallExams)
+    .where(and(eq(recallExams.patientId, patientId), eq(recallExams.status, 'peri-implantitis'), isCurrent))
+    .limit(1);
+  return Boolean(row);
+}
+
+export interface NewExam {
+  practiceId: string;
+  patientId: string;
+  siteId: string;
+  visitId: string;
+  examinedOn: string;
+  examinerId: string;
+  mobility: boolean;
+  plaqueIndex: number | null;
+  bleedingIndex: number | null;
+  keratinizedMucosaMm: number | null;
+  residualCement: boolean;
+  boneLevelMm: number | null;
+  isBaseline: boolean;
+  notes: string | null;
+  status: 'health' | 'mucositis' | 'peri-implantitis';
+  reasons: string[];
+  flags: string[];
+  rulesVersion: string;
+  ruleOptions: Record<string, number>;
+  baselineExamId: string | null;
+  sites: ProbedSite[];
+}
+
+export async function insertExam(db: Db, exam: NewExam): Promise<string> {
+  const { sites, ...row } = exam;
+  const [inserted] = await db.insert(recallExams).values(row).returning({ id: recallExams.id });
+  await db.insert(recallExamSites).values(sites.map((s) => ({ practiceId: exam.practiceId, examId: inserted!.id, ...s })));
+  return inserted!.id;
+}
+
+export async function findExamsByIds(db: Db, ids: string[]): Promise<ExamRow[]> {
+  if (ids.length === 0) return [];
+  const rows = await db
+    .select(examColumns)
+    .from(recallExams)
+    .innerJoin(implantSites, eq(implantSites.id, recallExams.siteId))
+    .innerJoin(users, eq(users.id, recallExams.examinerId))
+    .where(inArray(recallExams.id, ids))
+    .orderBy(asc(implantSites.fdi));
+  return attachSites(db, rows);
+}
+
+/** Latest current exam date of a patient (any site). */
+export async function latestExamDateOfPatient(db: Db, patientId: string): Promise<string | null> {
+  const [row] = await db
+    .select({ on: sql<string | null>`max(${recallExams.examinedOn})` })
+    .from(recallExams)
+    .where(and(eq(recallExams.patientId, patientId), isCurrent));
+  return row?.on ?? null;
+}
+
+/** Replaces the patient's scheduled recall: earlier ones are done, one new recall is scheduled. */
+export async function rescheduleRecall(db: Db, r: { practiceId: string; patientId: string; dueOn: string; visitId: string }): Promise<void> {
+  await db.update(recalls).set({ status: 'done' }).where(and(eq(recalls.patientId, r.patientId), eq(recalls.status, 'scheduled')));
+  await db.insert(recalls).values({ practiceId: r.practiceId, patientId: r.patientId, dueOn: r.dueOn, status: 'scheduled', scheduledFromVisitId: r.visitId });
+}
+
+export const DEFAULT_POLICY = { baseMonths: 6, riskMonths: 3, reminderDaysBefore: 14, overdueReminderDaysAfter: 7 } as const;
+
+export async function findPolicy(db: Db, practiceId: string) {
+  const [row] = await db.select().from(recallPolicies).where(eq(recallPolicies.practiceId, practiceId));
+  return row
+    ? { baseMonths: row.baseMonths, riskMonths: row.riskMonths, reminderDaysBefore: row.reminderDaysBefore, overdueReminderDaysAfter: row.overdueReminderDaysAfter, isDefault: false, updatedAt: row.updatedAt.toISOString() }
+    : { ...DEFAULT_POLICY, isDefault: true, updatedAt: null };
+}
+
+export async function upsertPolicy(db: Db, practiceId: string, userId: string, p: { baseMonths: number; riskMonths: number; reminderDaysBefore: number; overdueReminderDaysAfter: number }) {
+  await db
+    .insert(recallPolicies)
+    .values({ practiceId, ...p, updatedBy: userId, updatedAt: new Date() })
+    .onConflictDoUpdate({ target: recallPolicies.practiceId, set: { ...p, updatedBy: userId, updatedAt: new Date() } });
+}

@@ -1,0 +1,159 @@
+import { randomUUID } from 'node:crypto';
+import { BadRequestException, Inject, Injectable } from '@nestjs/common';
+import { sql } from 'drizzle-orm';
+import type { AppAbility } from '@torquetrail/authz';
+import { CreateVisitBody as CreateVisitSchema, type CreateVisitReply, type ExamContext, type SiteExamHistory } from '@torquetrail/contracts';
+import { classifyPeriImplant, DEFAULT_BONE_LOSS_MM, DEFAULT_PD_INCREASE_MM, DomainError, nextRecallDate, RULES_VERSION } from '@torquetrail/domain';
+import type { z } from 'zod';
+import { assertCan, type Scope } from '../authz/scope.js';
+import { DB, type Database } from '../db/database.js';
+import { chooseBaseline, inChartOrder, latestOf, toDomainBaseline, toDomainExam } from './exam-rules.js';
+import {
+  findExamsByIds,
+  findPolicy,
+  findVisiblePatientForRecall,
+  findVisibleSiteForRecall,
+  hadPeriImplantitis,
+  insertExam,
+  latestExamDateOfPatient,
+  listExamsOfSites,
+  listSitesForExam,
+  rescheduleRecall,
+  toContract,
+} from './exams.repository.js';
+import { RecallClock } from './recall-clock.js';
+
+const EXAMINABLE = new Set(['placed', 'restored']);
+/** The thresholds handed to classifyPeriImplant, stored beside each verdict. */
+const RULE_OPTIONS = { pdIncreaseMm: DEFAULT_PD_INCREASE_MM, boneLossMm: DEFAULT_BONE_LOSS_MM };
+
+const badField = (field: string, message: string) => new BadRequestException({ message: `${field}: ${message}`, fields: { [field]: message } });
+
+@Injectable()
+export class ExamsService {
+  constructor(
+    @Inject(DB) private readonly db: Database,
+    private readonly clock: RecallClock,
+  ) {}
+
+  async context(ability: AppAbility, scope: Scope, patientId: string): Promise<ExamContext> {
+    const patient = assertCan(ability, 'read', 'RecallExam', await findVisiblePatientForRecall(this.db, scope, patientId).then((p) => (p ? { ...p, patientId: p.id } : null)), 'patient');
+    const [sites, policy, prior] = await Promise.all([listSitesForExam(this.db, patient.id), findPolicy(this.db, patient.practiceId), hadPeriImplantitis(this.db, patient.id)]);
+    const exams = await listExamsOfSites(this.db, sites.map((s) => s.siteId));
+    const today = this.clock.today();
+    return {
+      patient: {
+        id: patient.id,
+        chartNumber: patient.chartNumber,
+        name: patient.name,
+        riskFactors: { smoker: patient.smoker, diabetesPoorlyControlled: patient.diabetesPoorlyControlled, periodontitisHistory: patient.periodontitisHistory, priorPeriImplantitis: prior },
+      },
+      today,
+      policy,
+      sites: sites.map((s) => {
+        const mine = exams.filter((e) => e.siteId === s.siteId);
+        const baseline = chooseBaseline(mine, today, s.deliveredOn);
+        const previous = latestOf(mine);
+        return {
+          siteId: s.siteId,
+          fdi: s.fdi,
+          status: s.status,
+          examinable: EXAMINABLE.has(s.status),
+          deliveredOn: s.deliveredOn,
+          baseline: baseline ? toContract(baseline) : null,
+          previous: previous ? toContract(previous) : null,
+        };
+      }),
+    };
+  }
+
+  async history(ability: AppAbility, scope: Scope, siteId: string): Promise<SiteExamHistory> {
+    const site = assertCan(ability, 'read', 'RecallExam', await findVisibleSiteForRecall(this.db, scope, siteId), 'implant site');
+    const exams = await listExamsOfSites(this.db, [site.id]);
+    return { siteId: site.id, fdi: site.fdi, patientId: site.patientId, exams: exams.map(toContract) };
+  }
+
+  /**
+   * One visit, in one transaction: every exam is classified on the server with
+   * classifyPeriImplant (the client's status is never trusted), stored with RULES_VERSION and the
+   * options used, and the patient's next recall is scheduled with nextRecallDate.
+   */
+  async createVisit(ability: AppAbility, scope: Scope, examinerId: string, body: z.infer<typeof CreateVisitSchema>): Promise<CreateVisitReply> {
+    const patient = assertCan(ability, 'create', 'RecallExam', await findVisiblePatientForRecall(this.db, scope, body.patientId).then((p) => (p ? { ...p, patientId: p.id } : null)), 'patient');
+    if (body.examinedOn > this.clock.today()) throw badField('examinedOn', 'an exam cannot be dated in the future');
+
+    return this.db.transaction(async (tx) => {
+      const sites = new Map((await listSitesForExam(tx, patient.id)).map((s) => [s.siteId, s]));
+      body.exams.forEach((exam, i) => {
+        const site = sites.get(exam.siteId);
+        if (!site) throw badField(`exams.${i}.siteId`, 'not an implant site of this patient');
+        if (!EXAMINABLE.has(site.status)) throw badField(`exams.${i}.siteId`, `the implant at ${site.fdi} is ${site.status}: only placed or restored implants are examined`);
+      });
+      const earlier = await listExamsOfSites(tx, body.exams.map((e) => e.siteId));
+      // Serialise visits of one patient so two saves cannot both schedule a recall.
+      await tx.execute(sqlLock(patient.id));
+
+      const visitId = randomUUID();
+      const ids: string[] = [];
+      let anyPeriImplantitis = false;
+      for (const [i, exam] of body.exams.entries()) {
+        const site = sites.get(exam.siteId)!;
+        const probes = inChartOrder(exam.sites);
+        const baseline = exam.isBaseline ? null : chooseBaseline(earlier.filter((e) => e.siteId === site.siteId), body.examinedOn, site.deliveredOn);
+        let verdict;
+        try {
+          verdict = classifyPeriImplant(toDomainExam({ sites: probes, boneLevelMm: exam.boneLevelMm }), toDomainBaseline(baseline), RULE_OPTIONS);
+        } catch (error) {
+          if (error instanceof DomainError) throw badField(`exams.${i}`, error.message);
+          throw error;
+        }
+        anyPeriImplantitis ||= verdict.status === 'peri-implantitis';
+        ids.push(
+          await insertExam(tx, {
+            practiceId: patient.practiceId,
+            patientId: patient.id,
+            siteId: site.siteId,
+            visitId,
+            examinedOn: body.examinedOn,
+            examinerId,
+            mobility: exam.mobility,
+            plaqueIndex: exam.plaqueIndex,
+            bleedingIndex: exam.bleedingIndex,
+            keratinizedMucosaMm: exam.keratinizedMucosaMm,
+            residualCement: exam.residualCement,
+            boneLevelMm: exam.boneLevelMm,
+            isBaseline: exam.isBaseline,
+            notes: exam.notes || null,
+            status: verdict.status,
+            reasons: verdict.reasons,
+            flags: verdict.flags,
+            rulesVersion: RULES_VERSION,
+            ruleOptions: RULE_OPTIONS,
+            baselineExamId: baseline?.id ?? null,
+            sites: probes,
+          }),
+        );
+      }
+
+      // Decision: peri-implantitis found today counts as "prior" for the interval that starts today.
+      const riskFactors = {
+        smoker: patient.smoker,
+        diabetesPoorlyControlled: patient.diabetesPoorlyControlled,
+        periodontitisHistory: patient.periodontitisHistory,
+        priorPeriImplantitis: anyPeriImplantitis || (await hadPeriImplantitis(tx, patient.id)),
+      };
+      const policy = await findPolicy(tx, patient.practiceId);
+      const lastExam = (await latestExamDateOfPatient(tx, patient.id)) ?? body.examinedOn;
+      const dueOn = nextRecallDate(lastExam, riskFactors, { baseMonths: policy.baseMonths, riskMonths: policy.riskMonths });
+      await rescheduleRecall(tx, { practiceId: patient.practiceId, patientId: patient.id, dueOn, visitId });
+      const hasRisk = Object.values(riskFactors).some(Boolean);
+      return {
+        visitId,
+        exams: (await findExamsByIds(tx, ids)).map(toContract),
+        nextRecall: { dueOn, intervalMonths: hasRisk ? policy.riskMonths : policy.baseMonths, riskFactors },
+      };
+    });
+  }
+}
+
+const sqlLock = (patientId: string) => sql`select pg_advisory_xact_lock(hashtext(${`recall-visit:${patientId}`}))`;

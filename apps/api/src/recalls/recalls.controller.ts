@@ -1,0 +1,65 @@
+import { Body, Controller, Get, Header, Param, ParseUUIDPipe, Post, Query } from '@nestjs/common';
+import type { AppAbility } from '@torquetrail/authz';
+import {
+  CreateVisitBody,
+  type CreateVisitReply,
+  type ExamContext,
+  RecallDeskCsvQuery,
+  RecallDeskQuery,
+  type RecallDeskReply,
+  type SiteExamHistory,
+} from '@torquetrail/contracts';
+import type { z } from 'zod';
+import type { SessionUser } from '../auth/session-user.js';
+import { Allow } from '../authz/check-ability.decorator.js';
+import { scopeOf } from '../authz/scope.js';
+import { CurrentAbility, CurrentUser } from '../common/current-user.decorator.js';
+import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
+import { DeskService } from './desk.service.js';
+import { ExamsService } from './exams.service.js';
+
+const uuid = new ParseUUIDPipe({ errorHttpStatusCode: 404 });
+
+@Controller('recalls')
+export class RecallsController {
+  constructor(
+    private readonly desk: DeskService,
+    private readonly exams: ExamsService,
+  ) {}
+
+  @Get('desk')
+  @Allow('read', 'RecallExam')
+  deskPage(@CurrentUser() user: SessionUser, @Query(new ZodValidationPipe(RecallDeskQuery)) query: RecallDeskQuery): Promise<RecallDeskReply> {
+    return this.desk.page(scopeOf(user), query);
+  }
+
+  @Get('desk/csv')
+  @Allow('read', 'RecallExam')
+  @Header('Content-Type', 'text/csv; charset=utf-8')
+  @Header('Content-Disposition', 'attachment; filename="recall-desk.csv"')
+  deskCsv(@CurrentUser() user: SessionUser, @Query(new ZodValidationPipe(RecallDeskCsvQuery)) query: RecallDeskCsvQuery): Promise<string> {
+    return this.desk.csv(scopeOf(user), query);
+  }
+
+  @Get('patients/:id/exam-context')
+  @Allow('read', 'RecallExam')
+  context(@CurrentUser() user: SessionUser, @CurrentAbility() ability: AppAbility, @Param('id', uuid) id: string): Promise<ExamContext> {
+    return this.exams.context(ability, scopeOf(user), id);
+  }
+
+  @Post('visits')
+  @Allow('create', 'RecallExam')
+  createVisit(
+    @CurrentUser() user: SessionUser,
+    @CurrentAbility() ability: AppAbility,
+    @Body(new ZodValidationPipe(CreateVisitBody)) body: z.infer<typeof CreateVisitBody>,
+  ): Promise<CreateVisitReply> {
+    return this.exams.createVisit(ability, scopeOf(user), user.id, body);
+  }
+
+  @Get('sites/:id/exams')
+  @Allow('read', 'RecallExam')
+  history(@CurrentUser() user: SessionUser, @CurrentAbility() ability: AppAbility, @Param('id', uuid) id: string): Promise<SiteExamHistory> {
+    return this.exams.history(ability, scopeOf(user), id);
+  }
+}

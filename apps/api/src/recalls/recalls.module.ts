@@ -1,0 +1,14 @@
+import { Module } from '@nestjs/common';
+import { DeskService } from './desk.service.js';
+import { ExamsService } from './exams.service.js';
+import { RecallAdminController } from './recall-admin.controller.js';
+import { RecallClock } from './recall-clock.js';
+import { RecallsController } from './recalls.controller.js';
+import { RemindersService } from './reminders.service.js';
+
+@Module({
+  controllers: [RecallsController, RecallAdminController],
+  providers: [RecallClock, DeskService, ExamsService, RemindersService],
+  exports: [RecallClock, RemindersService],
+})
+export class RecallsModule {}

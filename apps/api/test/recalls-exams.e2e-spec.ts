@@ -1,0 +1,244 @@
+// Recall exams over HTTP: who may do what (role matrix), the server-side classification
+// (classifyPeriImplant, 2017 World Workshop case definitions — Berglundh et al. 2018 consensus
+// report), the scheduling of the next recall (nextRecallDate; Herrera et al. 2023 EFP S3
+// guideline for risk-based intervals), bad input, and the seeded history on the Arch and Site file.
+import { eq, sql } from 'drizzle-orm';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { nextRecallDate } from '@torquetrail/domain';
+import { recallExams, recalls } from '../src/db/schema/index.js';
+import { RecallClock } from '../src/recalls/recall-clock.js';
+import { type AccountKey, patientId, signInAll, siteId, startTestApp, type TestContext } from './support/test-app.js';
+
+let ctx: TestContext;
+let cookies: Record<AccountKey, string>;
+const ids: Record<string, string> = {};
+let today: string;
+
+const POSITIONS = ['mesiobuccal', 'buccal', 'distobuccal', 'mesiolingual', 'lingual', 'distolingual'] as const;
+const sites = (depths: number[], bop: number[] = []) => POSITIONS.map((position, i) => ({ position, probingDepthMm: depths[i]!, bleeding: bop.includes(i), suppuration: false }));
+const healthyExam = (site: string) => ({ siteId: site, sites: sites([3, 3, 3, 3, 3, 3]), mobility: false, plaqueIndex: 0, bleedingIndex: 0 });
+
+beforeAll(async () => {
+  ctx = await startTestApp();
+  cookies = await signInAll(ctx);
+  today = ctx.app.get(RecallClock).today();
+  ids.whitcombe = await patientId(ctx.db, 'LL-1001');
+  ids.okafor = await patientId(ctx.db, 'LL-1003');
+  ids.ferraz = await patientId(ctx.db, 'LL-1004');
+  ids.wendell = await patientId(ctx.db, 'LL-1005');
+  ids.quarry = await patientId(ctx.db, 'QH-2001');
+  ids.whitcombe35 = await siteId(ctx.db, 'LL-1001', 35);
+  ids.whitcombe37 = await siteId(ctx.db, 'LL-1001', 37);
+  ids.okafor46 = await siteId(ctx.db, 'LL-1003', 46);
+  ids.ferraz14 = await siteId(ctx.db, 'LL-1004', 14);
+  ids.ferraz24 = await siteId(ctx.db, 'LL-1004', 24);
+  ids.wendell15 = await siteId(ctx.db, 'LL-1005', 15);
+  ids.wendell16 = await siteId(ctx.db, 'LL-1005', 16);
+  ids.quarry36 = await siteId(ctx.db, 'QH-2001', 36);
+});
+afterAll(() => ctx.close());
+
+type Who = AccountKey | 'anonymous';
+const WHO: Who[] = ['dentist', 'hygienist', 'surgeon', 'practice_admin', 'otherPracticeDentist', 'anonymous'];
+
+describe('role matrix of the recall routes', () => {
+  const reads: { route: string; path: () => string; expect: Record<Who, number> }[] = [
+    { route: 'GET /api/recalls/desk', path: () => '/api/recalls/desk', expect: { dentist: 200, hygienist: 200, surgeon: 200, practice_admin: 200, otherPracticeDentist: 200, anonymous: 401 } },
+    { route: 'GET /api/recalls/desk/csv', path: () => '/api/recalls/desk/csv', expect: { dentist: 200, hygienist: 200, surgeon: 200, practice_admin: 200, otherPracticeDentist: 200, anonymous: 401 } },
+    { route: 'GET exam-context (shared with the surgeon)', path: () => `/api/recalls/patients/${ids.whitcombe}/exam-context`, expect: { dentist: 200, hygienist: 200, surgeon: 200, practice_admin: 200, otherPracticeDentist: 404, anonymous: 401 } },
+    { route: 'GET exam-context (not shared)', path: () => `/api/recalls/patients/${ids.okafor}/exam-context`, expect: { dentist: 200, hygienist: 200, surgeon: 404, practice_admin: 200, otherPracticeDentist: 404, anonymous: 401 } },
+    { route: 'GET exam-context (another practice)', path: () => `/api/recalls/patients/${ids.quarry}/exam-context`, expect: { dentist: 404, hygienist: 404, surgeon: 404, practice_admin: 404, otherPracticeDentist: 200, anonymous: 401 } },
+    { route: 'GET site exams (shared)', path: () => `/api/recalls/sites/${ids.whitcombe35}/exams`, expect: { dentist: 200, hygienist: 200, surgeon: 200, practice_admin: 200, otherPracticeDentist: 404, anonymous: 401 } },
+    { route: 'GET site exams (not shared)', path: () => `/api/recalls/sites/${ids.okafor46}/exams`, expect: { dentist: 200, hygienist: 200, surgeon: 404, practice_admin: 200, otherPracticeDentist: 404, anonymous: 401 } },
+    { route: 'GET site exams (another practice)', path: () => `/api/recalls/sites/${ids.quarry36}/exams`, expect: { dentist: 404, hygienist: 404, surgeon: 404, practice_admin: 404, otherPracticeDentist: 200, anonymous: 401 } },
+    { route: 'GET site exams (not a uuid)', path: () => '/api/recalls/sites/46/exams', expect: { dentist: 404, hygienist: 404, surgeon: 404, practice_admin: 404, otherPracticeDentist: 404, anonymous: 401 } },
+    { route: 'GET /api/recalls/policy', path: () => '/api/recalls/policy', expect: { dentist: 200, hygienist: 200, surgeon: 403, practice_admin: 200, otherPracticeDentist: 200, anonymous: 401 } },
+    { route: 'GET /api/recalls/reminders', path: () => '/api/recalls/reminders', expect: { dentist: 403, hygienist: 403, surgeon: 403, practice_admin: 200, otherPracticeDentist: 403, anonymous: 401 } },
+  ];
+  describe.each(reads)('$route', ({ path, expect: expected }) => {
+    it.each(WHO)('as %s', async (who) => {
+      const req = ctx.http.get(path());
+      const res = who === 'anonymous' ? await req : await req.set('Cookie', cookies[who]);
+      expect(res.status).toBe(expected[who]);
+    });
+  });
+
+  it('POST /api/recalls/visits: only the hygienist records exams; another practice gets 404 for Larkspur records', async () => {
+    const body = () => ({ patientId: ids.ferraz, examinedOn: today, exams: [healthyExam(ids.ferraz14)] });
+    const expected: Record<Who, number> = { dentist: 403, hygienist: 201, surgeon: 403, practice_admin: 403, otherPracticeDentist: 403, anonymous: 401 };
+    for (const who of WHO) {
+      const req = ctx.http.post('/api/recalls/visits').send(body());
+      const res = who === 'anonymous' ? await req : await req.set('Cookie', cookies[who]);
+      expect(res.status, who).toBe(expected[who]);
+    }
+  });
+
+  it('PUT /api/recalls/policy and POST reminders/run: practice admin only', async () => {
+    const policy = { baseMonths: 6, riskMonths: 3, reminderDaysBefore: 14, overdueReminderDaysAfter: 7 };
+    for (const who of WHO) {
+      const put = ctx.http.put('/api/recalls/policy').send(policy);
+      const run = ctx.http.post('/api/recalls/reminders/run').send({ today: '2000-01-01' });
+      const [p, r] = who === 'anonymous' ? [await put, await run] : [await put.set('Cookie', cookies[who]), await run.set('Cookie', cookies[who])];
+      const ok = who === 'practice_admin';
+      expect(p.status, who).toBe(who === 'anonymous' ? 401 : ok ? 200 : 403);
+      expect(r.status, who).toBe(who === 'anonymous' ? 401 : ok ? 200 : 403);
+    }
+  });
+});
+
+describe('recording a visit', () => {
+  it('classifies each implant on the server, ignoring any status the client sends, and stores the rule version and options', async () => {
+    const res = await ctx.http
+      .post('/api/recalls/visits')
+      .set('Cookie', cookies.hygienist)
+      .send({
+        patientId: ids.wendell,
+        examinedOn: today,
+        exams: [
+          // No baseline (placed seven weeks ago, never examined): BOP with a 6 mm pocket and no radiograph.
+          { siteId: ids.wendell15, sites: sites([3, 6, 3, 3, 3, 3], [1]), mobility: false, status: 'health' },
+          { ...healthyExam(ids.wendell16), keratinizedMucosaMm: 1.5, notes: 'Healing abutment clean.' },
+        ],
+      });
+    expect(res.status).toBe(201);
+    const [e15, e16] = res.body.exams;
+    expect(e15).toMatchObject({ fdi: 15, status: 'mucositis', baselineExamId: null, rulesVersion: expect.any(String), ruleOptions: { pdIncreaseMm: 1, boneLossMm: 0.5 }, examinerName: 'Maren Holt' });
+    expect(e15.flags).toEqual(expect.arrayContaining(['no-baseline', 'bone-level-missing', 'peri-implantitis-not-excluded-without-baseline']));
+    expect(e15.sites.map((s: { probingDepthMm: number }) => s.probingDepthMm)).toEqual([3, 6, 3, 3, 3, 3]);
+    expect(e16).toMatchObject({ fdi: 16, status: 'health', keratinizedMucosaMm: 1.5, notes: 'Healing abutment clean.' });
+    expect(e15.visitId).toBe(e16.visitId);
+    // Wendell has no risk factor: the practice's base interval (6 months).
+    expect(res.body.nextRecall).toMatchObject({ dueOn: nextRecallDate(today, {}), intervalMonths: 6 });
+    const scheduled = await ctx.db.select().from(recalls).where(eq(recalls.patientId, ids.wendell));
+    expect(scheduled.filter((r) => r.status === 'scheduled').map((r) => r.dueOn)).toEqual([nextRecallDate(today, {})]);
+  });
+
+  it('compares with the baseline: Desmond 46 with BOP, deeper pocket and bone loss is peri-implantitis; 3-month recall (risk factors)', async () => {
+    const res = await ctx.http
+      .post('/api/recalls/visits')
+      .set('Cookie', cookies.hygienist)
+      .send({ patientId: ids.okafor, examinedOn: today, exams: [{ siteId: ids.okafor46, sites: sites([6, 4, 5, 4, 3, 4], [0]), mobility: false, boneLevelMm: 3.5 }] });
+    expect(res.status).toBe(201);
+    expect(res.body.exams[0]).toMatchObject({ status: 'peri-implantitis', baselineExamId: expect.any(String) });
+    expect(res.body.exams[0].flags).not.toContain('no-baseline');
+    expect(res.body.nextRecall).toMatchObject({ intervalMonths: 3, riskFactors: { periodontitisHistory: true, priorPeriImplantitis: true } });
+    expect(res.body.nextRecall.dueOn).toBe(nextRecallDate(today, { periodontitisHistory: true }));
+  });
+
+  it('shows the new status on the Arch and in the Site file, and the exam in the site history', async () => {
+    const arch = await ctx.http.get(`/api/patients/${ids.okafor}`).set('Cookie', cookies.dentist);
+    expect(arch.body.sites[0]).toMatchObject({ fdi: 46, maintenanceStatus: 'peri-implantitis', lastExamDate: today });
+    const file = await ctx.http.get(`/api/sites/${ids.okafor46}`).set('Cookie', cookies.dentist);
+    expect(file.body.maintenanceStatus).toBe('peri-implantitis');
+    const history = await ctx.http.get(`/api/recalls/sites/${ids.okafor46}/exams`).set('Cookie', cookies.dentist);
+    expect(history.status).toBe(200);
+    expect(history.body.exams.at(-1)).toMatchObject({ examinedOn: today, status: 'peri-implantitis' });
+    expect(history.body.exams.length).toBeGreaterThan(10);
+  });
+
+  const bad: { name: string; body: () => object; field: string }[] = [
+    { name: 'a depth over 15 mm', body: () => ({ patientId: ids.ferraz, examinedOn: today, exams: [{ ...healthyExam(ids.ferraz14), sites: sites([3, 3, 3, 16, 3, 3]) }] }), field: 'exams.0.sites.3.probingDepthMm' },
+    { name: 'a negative depth', body: () => ({ patientId: ids.ferraz, examinedOn: today, exams: [{ ...healthyExam(ids.ferraz14), sites: sites([3, -1, 3, 3, 3, 3]) }] }), field: 'exams.0.sites.1.probingDepthMm' },
+    { name: 'a depth not in 0.5 mm steps', body: () => ({ patientId: ids.ferraz, examinedOn: today, exams: [{ ...healthyExam(ids.ferraz14), sites: sites([3, 3, 3, 3.3, 3, 3]) }] }), field: 'exams.0.sites.3.probingDepthMm' },
+    { name: 'five sites only', body: () => ({ patientId: ids.ferraz, examinedOn: today, exams: [{ ...healthyExam(ids.ferraz14), sites: sites([3, 3, 3, 3, 3, 3]).slice(0, 5) }] }), field: 'exams.0.sites' },
+    { name: 'a site given twice', body: () => ({ patientId: ids.ferraz, examinedOn: today, exams: [{ ...healthyExam(ids.ferraz14), sites: sites([3, 3, 3, 3, 3, 3]).map((s, i) => (i === 5 ? { ...s, position: 'buccal' } : s)) }] }), field: 'exams.0.sites.5.position' },
+    { name: 'a plaque index of 4', body: () => ({ patientId: ids.ferraz, examinedOn: today, exams: [{ ...healthyExam(ids.ferraz14), plaqueIndex: 4 }] }), field: 'exams.0.plaqueIndex' },
+    { name: 'a planned site', body: () => ({ patientId: ids.ferraz, examinedOn: today, exams: [healthyExam(ids.ferraz14), healthyExam(ids.ferraz24)] }), field: 'exams.1.siteId' },
+    { name: "another patient's site", body: () => ({ patientId: ids.ferraz, examinedOn: today, exams: [healthyExam(ids.whitcombe35)] }), field: 'exams.0.siteId' },
+    { name: 'an exam dated in the future', body: () => ({ patientId: ids.ferraz, examinedOn: '2999-01-01', exams: [healthyExam(ids.ferraz14)] }), field: 'examinedOn' },
+  ];
+  it.each(bad)('refuses $name with 400 naming the field, and saves nothing', async ({ body, field }) => {
+    const count = async () => (await ctx.db.select({ n: sql<number>`count(*)::int` }).from(recallExams))[0]!.n;
+    const before = await count();
+    const res = await ctx.http.post('/api/recalls/visits').set('Cookie', cookies.hygienist).send(body());
+    expect(res.status).toBe(400);
+    expect(res.body.fields).toHaveProperty([field]);
+    expect(await count()).toBe(before);
+  });
+});
+
+describe('the Recall desk', () => {
+  const desk = async (query: Record<string, string | number> = {}, who: AccountKey = 'hygienist') => {
+    const res = await ctx.http.get('/api/recalls/desk').query(query).set('Cookie', cookies[who]);
+    expect(res.status).toBe(200);
+    return res.body as { items: { chartNumber: string; nextDueOn: string | null; overdueDays: number; sites: { fdi: number; status: string }[]; riskFactors: Record<string, boolean> }[]; total: number };
+  };
+
+  it('lists the practice patients with implants, with last status per implant and risk factors, sorted by due date', async () => {
+    const body = await desk();
+    expect(body.items.map((r) => r.chartNumber)).not.toContain('QH-2001');
+    expect(body.total).toBe(5);
+    const dues = body.items.map((r) => r.nextDueOn).filter(Boolean) as string[];
+    expect(dues).toEqual([...dues].sort());
+    const farrow = body.items.find((r) => r.chartNumber === 'LL-1002')!;
+    expect(farrow.overdueDays).toBeGreaterThan(0);
+    expect(farrow.riskFactors.smoker).toBe(true);
+    expect(farrow.sites.map((s) => s.fdi)).toEqual([32, 35, 42, 45]);
+    const ferraz = body.items.find((r) => r.chartNumber === 'LL-1004')!;
+    expect(ferraz.sites).toEqual([expect.objectContaining({ fdi: 14, status: 'health' })]);
+  });
+
+  it('filters overdue, due this week and peri-implantitis last time; pages', async () => {
+    expect((await desk({ filter: 'overdue' })).items.map((r) => r.chartNumber)).toEqual(['LL-1002']);
+    expect((await desk({ filter: 'peri-implantitis-last' })).items.map((r) => r.chartNumber)).toEqual(['LL-1003']);
+    for (const r of (await desk({ filter: 'due-this-week' })).items) expect(r.overdueDays).toBe(0);
+    const page = await desk({ pageSize: 2, page: 2, sort: 'name' });
+    expect(page.items).toHaveLength(2);
+    expect(page.total).toBe(5);
+  });
+
+  it('exports the same rows as CSV', async () => {
+    const res = await ctx.http.get('/api/recalls/desk/csv').query({ filter: 'overdue' }).set('Cookie', cookies.hygienist);
+    expect(res.status).toBe(200);
+    expect(res.headers['content-type']).toMatch(/^text\/csv/);
+    const lines = res.text.trim().split('\r\n');
+    expect(lines[0]).toBe('chart number,patient,next recall,overdue days,last exam,last status per implant,risk factors');
+    expect(lines).toHaveLength(2);
+    expect(lines[1]).toMatch(/^LL-1002,Imogen Farrow,/);
+  });
+
+  it('refuses an unknown filter with 400 naming it', async () => {
+    const res = await ctx.http.get('/api/recalls/desk').query({ filter: 'everything' }).set('Cookie', cookies.hygienist);
+    expect(res.status).toBe(400);
+    expect(res.body.fields).toHaveProperty('filter');
+  });
+
+  it('the surgeon sees only the patients shared with him', async () => {
+    const body = await desk({}, 'surgeon');
+    expect(body.items.map((r) => r.chartNumber).sort()).toEqual(['LL-1001', 'LL-1002', 'LL-1004', 'LL-1005']);
+  });
+});
+
+describe('the recall policy', () => {
+  it('starts at the defaults, is changed by the practice admin and then used for the next recall', async () => {
+    const before = await ctx.http.get('/api/recalls/policy').set('Cookie', cookies.hygienist);
+    expect(before.body).toMatchObject({ baseMonths: 6, riskMonths: 3 });
+    const put = await ctx.http.put('/api/recalls/policy').set('Cookie', cookies.practice_admin).send({ baseMonths: 12, riskMonths: 4, reminderDaysBefore: 10, overdueReminderDaysAfter: 5 });
+    expect(put.status).toBe(200);
+    expect(put.body).toMatchObject({ baseMonths: 12, riskMonths: 4, isDefault: false });
+    const visit = await ctx.http.post('/api/recalls/visits').set('Cookie', cookies.hygienist).send({ patientId: ids.ferraz, examinedOn: today, exams: [healthyExam(ids.ferraz14)] });
+    expect(visit.body.nextRecall).toMatchObject({ intervalMonths: 12, dueOn: nextRecallDate(today, {}, { baseMonths: 12, riskMonths: 4 }) });
+  });
+
+  it('refuses a risk interval longer than the base interval', async () => {
+    const res = await ctx.http.put('/api/recalls/policy').set('Cookie', cookies.practice_admin).send({ baseMonths: 3, riskMonths: 6, reminderDaysBefore: 10, overdueReminderDaysAfter: 5 });
+    expect(res.status).toBe(400);
+    expect(res.body.fields).toHaveProperty('riskMonths');
+  });
+});
+
+describe('the seeded recall history', () => {
+  it('matches the demo scenario: Harold due in about three weeks, Imogen overdue, Desmond peri-implantitis, Wendell not examined', async () => {
+    // Fresh state of this file: the seed before the visits above is read through the exams' dates.
+    const harold = await ctx.http.get(`/api/recalls/patients/${ids.whitcombe}/exam-context`).set('Cookie', cookies.hygienist);
+    expect(harold.body.sites.map((s: { fdi: number; baseline: unknown; previous: { status: string } | null }) => [s.fdi, s.baseline !== null, s.previous?.status])).toEqual([
+      [35, true, 'health'],
+      [37, true, 'health'],
+    ]);
+    const file = await ctx.http.get(`/api/recalls/sites/${ids.whitcombe35}/exams`).set('Cookie', cookies.surgeon);
+    expect(file.body.exams[0].examinedOn.startsWith('2013')).toBe(true);
+    expect(file.body.exams.length).toBeGreaterThan(20);
+    const ctxWendell = await ctx.http.get(`/api/recalls/patients/${ids.wendell}/exam-context`).set('Cookie', cookies.hygienist);
+    expect(ctxWendell.body.sites.every((s: { baseline: unknown }) => s.baseline === null)).toBe(true);
+  });
+});
