@@ -19,7 +19,7 @@ async function startBackground({ name, script, ports }) {
   const pid = readPid(pidFile);
   if (isAlive(pid)) {
     console.log(`[${name}] already running (pid ${pid})`);
-    return;
+    return false;
   }
   for (const port of ports) {
     if (await portOpen(port)) {
@@ -32,6 +32,7 @@ async function startBackground({ name, script, ports }) {
   fs.writeFileSync(pidFile, String(child.pid));
   for (const port of ports) await waitForPort(port, { label: `the ${name} service (port ${port})` });
   console.log(`[${name}] started (pid ${child.pid}, log .local/run/${name}.log)`);
+  return true;
 }
 
 function stopBackground({ name }) {
@@ -46,14 +47,18 @@ function stopBackground({ name }) {
   fs.rmSync(pidFile, { force: true });
 }
 
+/** Starts what is not running; returns the names of the services this call started. */
 export async function startServices() {
-  await startPostgres();
-  for (const service of background) await startBackground(service);
+  const started = [];
+  if (await startPostgres()) started.push('postgres');
+  for (const service of background) if (await startBackground(service)) started.push(service.name);
+  return started;
 }
 
-export function stopServices() {
-  for (const service of background) stopBackground(service);
-  stopPostgres();
+/** Stops the named services (all by default). */
+export function stopServices(names = ['postgres', ...background.map((s) => s.name)]) {
+  for (const service of background) if (names.includes(service.name)) stopBackground(service);
+  if (names.includes('postgres')) stopPostgres();
 }
 
 const isMain = process.argv[1] && path.resolve(process.argv[1]) === path.resolve(new URL(import.meta.url).pathname);

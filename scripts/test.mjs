@@ -39,9 +39,13 @@ function runTier(name, env) {
 async function main() {
   await ensureDependencies();
   const chromium = await ensureChromium();
-  const { startServices } = await import('./services.mjs');
+  const { startServices, stopServices } = await import('./services.mjs');
   const { ensureDatabase } = await import('./lib/postgres.mjs');
-  await startServices();
+  // Services this run starts are stopped at the end; ones already running (npm start) stay up.
+  const started = await startServices();
+  process.on('exit', () => {
+    if (started.length > 0) stopServices(started);
+  });
   await ensureDatabase(pg.testDatabase, { fresh: true });
   await buildAll();
   const env = {

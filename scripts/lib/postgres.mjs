@@ -59,6 +59,7 @@ function clusterDir() {
   return fallback;
 }
 
+/** Starts the cluster; true when this call started it, false when it was already running. */
 export async function startPostgres() {
   let bin = findBinDir();
   if (!bin) {
@@ -91,7 +92,7 @@ export async function startPostgres() {
   const status = asServerUser(path.join(bin, 'pg_ctl'), ['status', '-D', data]);
   if (status.status === 0) {
     console.log(`[postgres] already running on ${host}:${pg.port}`);
-    return;
+    return false;
   }
   if (await portOpen(pg.port)) {
     throw new ServiceError(
@@ -106,6 +107,7 @@ export async function startPostgres() {
     throw new ServiceError(`PostgreSQL did not start (pg_ctl: ${start.stderr.trim() || start.stdout.trim()})\n${tail}`);
   }
   console.log(`[postgres] started on ${host}:${pg.port} (data ${data})`);
+  return true;
 }
 
 export function stopPostgres() {

@@ -1,7 +1,7 @@
 import 'reflect-metadata';
 import fs from 'node:fs';
 import path from 'node:path';
-import type { INestApplication } from '@nestjs/common';
+import type { INestApplication, LogLevel } from '@nestjs/common';
 import { NestFactory } from '@nestjs/core';
 import type { NestExpressApplication } from '@nestjs/platform-express';
 import cookieParser from 'cookie-parser';
@@ -14,9 +14,9 @@ import type { Env } from './config/env.js';
  * Builds the whole app (used by main.ts and by the API and browser tests alike): every route
  * under /api, JSON 404 for unknown /api paths, and the built web app from the same origin.
  */
-export async function createApp(env: Env, options: { logger?: false } = {}): Promise<INestApplication> {
+export async function createApp(env: Env, options: { logger?: false | LogLevel[] } = {}): Promise<INestApplication> {
   const app = await NestFactory.create<NestExpressApplication>(AppModule.forRoot(env), {
-    logger: options.logger ?? ['error', 'warn', 'log'],
+    logger: options.logger ?? ['error', 'warn'],
     bodyParser: true,
   });
   app.setGlobalPrefix('api');
