@@ -146,6 +146,7 @@ export async function complicationsOfSite(db: Db, siteId: string) {
       componentInstanceId: complications.componentInstanceId,
       partName: components.name,
       byName: users.displayName,
+      recordedAt: complications.recordedAt,
       supersedesId: complications.supersedesId,
       amendmentReason: complications.amendmentReason,
       amended: sql<boolean>`exists (select 1 from ${complications} c2 where c2.supersedes_id = ${complications.id})`,

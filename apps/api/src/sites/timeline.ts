@@ -39,6 +39,8 @@ function base(kind: TimelineKind, id: string, at: string, dateOnly: boolean, tit
 
 export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: TimelineKind[]): TimelineReply {
   const events: TimelineEvent[] = [];
+  /** Tie-break for entries of one kind on one day: when they were recorded (an amendment after its original). */
+  const recorded = new Map<TimelineEvent, string>();
   for (const p of rows.placements) {
     events.push(
       base('placement', p.id, day(p.placedOn), true, `${p.supersedesId ? 'Placement (amended record)' : 'Implant placed'}: ${p.systemName}, ${p.platformName} × ${p.lengthMm} mm`, {
@@ -98,16 +100,16 @@ export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: Timeli
     );
   }
   for (const c of rows.complications) {
-    events.push(
-      base('complication', c.id, day(c.occurredOn), true, `Complication: ${text(c.kind)}${c.partName ? ` (${c.partName})` : ''}`, {
+    const event = base('complication', c.id, day(c.occurredOn), true, `Complication: ${text(c.kind)}${c.partName ? ` (${c.partName})` : ''}`, {
         detail: c.notes,
         componentInstanceId: c.componentInstanceId,
         byName: c.byName,
         amended: c.amended,
         supersedesId: c.supersedesId,
         amendmentReason: c.amendmentReason,
-      }),
-    );
+      });
+    events.push(event);
+    recorded.set(event, c.recordedAt.toISOString());
   }
   for (const e of rows.recallExams) {
     events.push(
@@ -123,7 +125,7 @@ export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: Timeli
   const kept = kinds ? events.filter((e) => kinds.includes(e.kind)) : events;
   // Time order; on one day, the order things happen in a sitting.
   const order: TimelineKind[] = ['placement', 'plan', 'impression', 'lab-prescription', 'part', 'delivery', 'complication', 'torque', 'recall-exam'];
-  kept.sort((a, b) => a.at.localeCompare(b.at) || order.indexOf(a.kind) - order.indexOf(b.kind));
+  kept.sort((a, b) => a.at.localeCompare(b.at) || order.indexOf(a.kind) - order.indexOf(b.kind) || (recorded.get(a) ?? '').localeCompare(recorded.get(b) ?? ''));
 
   const torqueSeries: TorqueSeries[] = rows.parts
     .filter((p) => rows.torque.some((t) => t.componentInstanceId === p.id))

@@ -1,0 +1,106 @@
+// The lab prescription PDF: generated with pdfkit, stored in S3, parsed back with pdf-parse to
+// check it holds the component chain, and e-mailed to the lab through the SMTP catcher.
+import { PDFParse } from 'pdf-parse';
+import { eq } from 'drizzle-orm';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { labPrescriptions } from '../src/db/schema/index.js';
+import { larkspurId, parts } from './support/ledger-fixtures.js';
+import { patientId, signIn, siteId, startTestApp, type TestContext } from './support/test-app.js';
+
+const mailHttp = `http://127.0.0.1:${process.env.TT_MAIL_HTTP_PORT ?? 2580}/messages`;
+
+let ctx: TestContext;
+let dentist: string;
+let planId: string;
+beforeAll(async () => {
+  ctx = await startTestApp();
+  dentist = await signIn(ctx, 'dentist');
+  const part = await parts(ctx.db, await larkspurId(ctx.db), 'Tessely EX 4.1');
+  const sites = [await siteId(ctx.db, 'LL-1005', 15), await siteId(ctx.db, 'LL-1005', 16)];
+  const ok = await ctx.http
+    .post('/api/restorations')
+    .set('Cookie', dentist)
+    .send({
+      patientId: await patientId(ctx.db, 'LL-1005'),
+      kind: 'splinted-bridge',
+      retention: 'screw-to-implant',
+      material: 'zirconia',
+      shade: 'A3',
+      copingsSplinted: true,
+      labName: 'Ferncliff Dental Lab',
+      labEmail: `orders+${Date.now()}@ferncliff-lab.example`,
+      dueOn: '2026-12-18',
+      sites: sites.map((s) => ({ siteId: s, interface: 'non-engaging', impressionCoping: 'non-engaging', screwComponentIds: [part('PSI')], impressionCopingComponentId: part('ICN-O') })),
+    });
+  expect(ok.status).toBe(201);
+  planId = ok.body.id;
+});
+afterAll(() => ctx.close());
+
+const text = async (pdf: Buffer) => {
+  const parser = new PDFParse({ data: pdf });
+  try {
+    return (await parser.getText()).text.replace(/\s+/g, ' ');
+  } finally {
+    await parser.destroy();
+  }
+};
+
+describe('lab prescription', () => {
+  it('holds the practice, the patient by chart number and initials only, both numberings and the full component chain', async () => {
+    const made = await ctx.http.post(`/api/restorations/${planId}/lab-prescriptions`).set('Cookie', dentist).send({});
+    expect(made.status).toBe(201);
+    const [row] = await ctx.db.select().from(labPrescriptions).where(eq(labPrescriptions.id, made.body.id));
+    expect(row!.objectKey).toMatch(new RegExp(`^practices/[0-9a-f-]{36}/lab-prescriptions/${made.body.id}\\.pdf$`));
+    expect(row!.sizeBytes).toBe(made.body.sizeBytes);
+
+    const res = await ctx.http.get(`/api/lab-prescriptions/${made.body.id}/pdf`).set('Cookie', dentist).buffer(true).parse((r, cb) => {
+      const chunks: Buffer[] = [];
+      r.on('data', (c: Buffer) => chunks.push(c));
+      r.on('end', () => cb(null, Buffer.concat(chunks)));
+    });
+    expect(res.status).toBe(200);
+    expect(res.headers['content-type']).toBe('application/pdf');
+    const body = await text(res.body as Buffer);
+    expect(body).toContain('Larkspur Lane Dental');
+    expect(body).toContain('LL-1005 (W. A.)');
+    expect(body).not.toContain('Achterberg');
+    expect(body).not.toContain('Wendell');
+    // FDI 15 → Universal 4, FDI 16 → Universal 3 (HL7 ADA Universal table).
+    expect(body).toContain('Site 15 (FDI) / 4 (Universal)');
+    expect(body).toContain('Site 16 (FDI) / 3 (Universal)');
+    expect(body).toContain('Tessely EX (Tessely Medical), platform Tessely EX 4.1, 4.1 mm, external hex connection');
+    expect(body).toContain('Prosthetic screw, implant level [TEX-41-PSI]: 32 N·cm ±10 %');
+    expect(body).toContain('Impression technique: non-engaging coping; Impression coping, non-engaging, open tray [TEX-41-ICN-O]');
+    expect(body).toContain('copings splinted together before the impression');
+    expect(body).toContain('Material: Zirconia Shade: A3');
+    expect(body).toContain('Due: 2026-12-18');
+    expect(body).toContain('Signature');
+    expect(body).toContain('Dr Ines Calloway');
+    expect(body).toMatch(/manufacturer's instructions/);
+  });
+
+  it('e-mails it to the lab with the PDF attached, and records when', async () => {
+    const made = await ctx.http.post(`/api/restorations/${planId}/lab-prescriptions`).set('Cookie', dentist).send({ emailToLab: true });
+    expect(made.status).toBe(201);
+    expect(made.body.emailedTo).toMatch(/@ferncliff-lab\.example$/);
+    expect(made.body.emailedAt).not.toBeNull();
+    let found: { envelopeTo: string[]; attachments: { filename: string; contentType: string }[] } | undefined;
+    for (let i = 0; i < 20 && !found; i++) {
+      const messages = (await (await fetch(mailHttp)).json()) as { headers: Record<string, string>; envelopeTo: string[]; attachments: { filename: string; contentType: string }[] }[];
+      found = messages.find((m) => m.headers['x-torquetrail-lab-prescription'] === made.body.id);
+      if (!found) await new Promise((r) => setTimeout(r, 100));
+    }
+    expect(found?.envelopeTo).toEqual([made.body.emailedTo]);
+    expect(found?.attachments).toEqual([expect.objectContaining({ filename: 'lab-prescription-LL-1005.pdf', contentType: 'application/pdf' })]);
+    const detail = await ctx.http.get(`/api/restorations/${planId}`).set('Cookie', dentist);
+    expect(detail.body.labPrescriptions).toHaveLength(2);
+  });
+
+  it('refuses to e-mail a plan without a lab address (400 on emailToLab)', async () => {
+    const bridge = (await ctx.http.get(`/api/patients/${await patientId(ctx.db, 'LL-1001')}/restorations`).set('Cookie', dentist)).body.items[0];
+    const res = await ctx.http.post(`/api/restorations/${bridge.id}/lab-prescriptions`).set('Cookie', dentist).send({ emailToLab: true });
+    expect(res.status).toBe(400);
+    expect(res.body.fields).toHaveProperty('emailToLab');
+  });
+});
