@@ -14,7 +14,7 @@ const SORTS: Record<RecallDeskCsvQuery['sort'], string> = {
   // Overdue days grow as the due date recedes: the same order as the due date, reversed.
   overdueDays: 'overdue_days',
   name: 'family_name',
-  lastExamOn: 'last_exam_on',
+  lastExamOn: 'last_exam',
 };
 
 export interface DeskPage {
@@ -37,12 +37,28 @@ export async function queryDesk(db: Db, scope: Scope, today: string, q: RecallDe
   const outer: SQL[] = [sql`true`];
   if (q.filter === 'due-this-week') outer.push(sql`next_due between ${today}::date and (${today}::date + 7)`);
   if (q.filter === 'overdue') outer.push(sql`next_due < ${today}::date`);
-  if (q.filter === 'peri-implantitis-last') outer.push(sql`last_pi`);
+  if (q.filter === 'peri-implantitis-last') outer.push(sql`coalesce(last_pi, false)`);
 
   const dir = q.dir === 'desc' ? sql.raw('desc') : sql.raw('asc');
-  const nulls = sql.raw(q.dir === 'desc' ? 'nulls last' : 'nulls last');
+  // Patients never scheduled or never examined go last whichever the direction.
+  const nulls = sql.raw('nulls last');
   const sortCol = sql.raw(SORTS[q.sort]);
 
+  // Two phases: the sort and filter keys for every patient (cheap index look-ups), then the page;
+  // the per-implant statuses and the derived risk factor only for the rows of the page.
+  // "Peri-implantitis last time": the latest current exam of every examinable site, in one
+  // set-based pass (DISTINCT ON) over the scope's exams rather than one look-up per site.
+  const visibleExam: SQL =
+    scope.sharedPatientIds.length > 0
+      ? sql`(x.practice_id = ${scope.practiceId} or x.patient_id in (${sql.join(scope.sharedPatientIds.map((id) => sql`${id}::uuid`), sql`, `)}))`
+      : sql`x.practice_id = ${scope.practiceId}`;
+  const lastPi = sql`(pa.id in (
+      select l.patient_id from (
+        select distinct on (x.site_id) x.patient_id, x.status
+        from recall_exams x join implant_sites s on s.id = x.site_id and s.status in ('placed', 'restored')
+        where ${visibleExam} and not exists (select 1 from recall_exams x2 where x2.supersedes_id = x.id)
+        order by x.site_id, x.examined_on desc, x.recorded_at desc
+      ) l where l.status = 'peri-implantitis'))`;
   const result = await db.execute<{
     id: string;
     chart_number: string;
@@ -58,33 +74,42 @@ export async function queryDesk(db: Db, scope: Scope, today: string, q: RecallDe
     sites: { siteId: string; fdi: number; status: string | null; examinedOn: string | null }[];
     total: number;
   }>(sql`
-    with desk as (
-      select pa.id, pa.chart_number, pa.given_name, pa.family_name, pa.smoker, pa.diabetes_poorly_controlled, pa.periodontitis_history,
-             nr.due_on as next_due, nr.due_on::text as next_due_on,
-             greatest(0, coalesce(${today}::date - nr.due_on, 0))::int as overdue_days,
-             le.last_exam_on::text as last_exam_on, le.sites, coalesce(le.last_pi, false) as last_pi,
-             exists (select 1 from recall_exams pe where pe.patient_id = pa.id and pe.status = 'peri-implantitis'
-                      and not exists (select 1 from recall_exams s2 where s2.supersedes_id = pe.id)) as prior_pi
+    with keys as (
+      select pa.id, pa.family_name, pa.given_name,
+             (select min(r.due_on) from recalls r where r.patient_id = pa.id and r.status = 'scheduled') as next_due,
+             (select x.examined_on from recall_exams x
+               where x.patient_id = pa.id and not exists (select 1 from recall_exams x2 where x2.supersedes_id = x.id)
+               order by x.examined_on desc limit 1) as last_exam,
+             ${q.filter === 'peri-implantitis-last' ? lastPi : sql`null::boolean`} as last_pi
       from patients pa
-      join lateral (
-        select json_agg(json_build_object('siteId', s.id, 'fdi', s.fdi, 'status', e.status, 'examinedOn', e.examined_on) order by s.fdi) as sites,
-               max(e.examined_on) as last_exam_on,
-               bool_or(e.status = 'peri-implantitis') as last_pi
-        from implant_sites s
-        left join lateral (
-          select x.status, x.examined_on from recall_exams x
-          where x.site_id = s.id and not exists (select 1 from recall_exams x2 where x2.supersedes_id = x.id)
-          order by x.examined_on desc, x.recorded_at desc limit 1
-        ) e on true
-        where s.patient_id = pa.id and s.status in ('placed', 'restored')
-      ) le on le.sites is not null
-      left join lateral (select min(r.due_on) as due_on from recalls r where r.patient_id = pa.id and r.status = 'scheduled') nr on true
       where ${sql.join(filters, sql` and `)}
+        and exists (select 1 from implant_sites s where s.patient_id = pa.id and s.status in ('placed', 'restored'))
+    ),
+    filtered as (
+      select keys.*, greatest(0, coalesce(${today}::date - next_due, 0))::int as overdue_days from keys
+      where ${sql.join(outer, sql` and `)}
+    ),
+    page as (
+      select filtered.*, count(*) over ()::int as total from filtered
+      order by ${sortCol} ${dir} ${nulls}, family_name asc, given_name asc, id asc
+      limit ${page.limit} offset ${page.offset}
     )
-    select desk.*, count(*) over ()::int as total from desk
-    where ${sql.join(outer, sql` and `)}
-    order by ${sortCol} ${dir} ${nulls}, family_name asc, given_name asc, id asc
-    limit ${page.limit} offset ${page.offset}
+    select page.id, page.total, page.overdue_days, page.next_due::text as next_due_on, page.last_exam::text as last_exam_on,
+           pa.chart_number, pa.given_name, pa.family_name, pa.smoker, pa.diabetes_poorly_controlled, pa.periodontitis_history,
+           exists (select 1 from recall_exams pe where pe.patient_id = pa.id and pe.status = 'peri-implantitis'
+                    and not exists (select 1 from recall_exams s2 where s2.supersedes_id = pe.id)) as prior_pi,
+           coalesce((
+             select json_agg(json_build_object('siteId', s.id, 'fdi', s.fdi, 'status', e.status, 'examinedOn', e.examined_on) order by s.fdi)
+             from implant_sites s
+             left join lateral (
+               select x.status, x.examined_on from recall_exams x
+               where x.site_id = s.id and not exists (select 1 from recall_exams x2 where x2.supersedes_id = x.id)
+               order by x.examined_on desc, x.recorded_at desc limit 1
+             ) e on true
+             where s.patient_id = pa.id and s.status in ('placed', 'restored')
+           ), '[]'::json) as sites
+    from page join patients pa on pa.id = page.id
+    order by ${sql.raw(`page.${SORTS[q.sort]}`)} ${dir} ${nulls}, page.family_name asc, page.given_name asc, page.id asc
   `);
   const rows = result.rows.map((r) => ({
     patientId: r.id,
