@@ -35,6 +35,22 @@ export const router = createBrowserRouter([
               Component: (await import('../features/site-file/routes/site-file-route')).SiteFileRoute,
             }),
           },
+          {
+            path: 'recalls',
+            lazy: async () => ({ Component: (await import('../features/recalls/routes/recall-desk-route')).RecallDeskRoute }),
+          },
+          {
+            path: 'recalls/patients/:patientId/exam',
+            lazy: async () => ({ Component: (await import('../features/recalls/routes/exam-route')).ExamRoute }),
+          },
+          {
+            path: 'recalls/policy',
+            lazy: async () => ({ Component: (await import('../features/recalls/routes/policy-route')).PolicyRoute }),
+          },
+          {
+            path: 'recalls/reminders',
+            lazy: async () => ({ Component: (await import('../features/recalls/routes/reminder-log-route')).ReminderLogRoute }),
+          },
           { path: '*', element: <NotFoundRoute /> },
         ],
       },

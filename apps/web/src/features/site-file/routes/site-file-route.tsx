@@ -9,6 +9,7 @@ import { useToothSystem } from '../../../lib/tooth-system';
 import { useSiteFile } from '../api/get-site-file';
 import { SiteFileHeader } from '../components/site-file-header';
 import { Stack } from '../components/stack';
+import { ProbingDepthChart } from '../../recalls';
 
 /** /patients/:patientId/sites/:siteId: one implant, its header and its Stack. */
 export function SiteFileRoute() {
@@ -52,6 +53,7 @@ export function SiteFileRoute() {
       />
       <SiteFileHeader site={data} system={system} />
       <Stack site={data} system={system} />
+      <ProbingDepthChart siteId={data.id} />
     </div>
   );
 }

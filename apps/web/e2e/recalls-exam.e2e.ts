@@ -1,0 +1,92 @@
+// The hygienist's Recall desk and exam form in a real browser: typing a six-site exam with BOP
+// and a 6 mm depth on Wendell's 15 (no baseline: placed seven weeks ago, never examined), the
+// computed status and its flag change as the values are typed (classifyPeriImplant, 2017 World
+// Workshop case definitions — Berglundh et al. 2018), then the server's verdict on save.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { screenshot, signInAs, startHarness, type Harness } from './support/harness.js';
+
+let h: Harness;
+beforeAll(async () => {
+  h = await startHarness();
+});
+afterAll(() => h.close());
+
+const unexpectedProblems = () => h.problems.filter((p) => !/Failed to load resource: the server responded with a status of (401|404)/.test(p));
+
+describe('hygienist', () => {
+  it('works the Recall desk: overdue filter, sort, and opens the exam form', async () => {
+    const page = await h.newPage();
+    await signInAs(page, 'maren.holt@larkspur.example');
+    await page.getByRole('link', { name: 'Recall desk' }).click();
+    const table = page.getByTestId('recall-desk-table');
+    await expect.poll(() => table.locator('tbody tr').count()).toBe(5);
+    await page.getByTestId('desk-filter').selectOption('overdue');
+    await expect.poll(() => table.locator('tbody tr').count()).toBe(1);
+    expect(await table.locator('tbody tr').first().textContent()).toContain('Imogen Farrow');
+    await screenshot(page, 'recall-desk-overdue');
+    await page.getByTestId('desk-filter').selectOption('all');
+    await expect.poll(() => table.locator('tbody tr').count()).toBe(5);
+    await table.locator('tr', { hasText: 'Wendell Achterberg' }).getByRole('link', { name: 'Record exam' }).click();
+    await page.waitForURL('**/recalls/patients/*/exam');
+    await expect.poll(() => page.getByTestId('exam-site-15').isVisible()).toBe(true);
+  });
+
+  it('types a six-site exam with the keyboard; the status and its flag change live; the server agrees on save', async () => {
+    const page = await h.newPage();
+    await signInAs(page, 'maren.holt@larkspur.example');
+    await page.goto('/recalls');
+    await page.getByTestId('recall-desk-table').locator('tr', { hasText: 'Wendell Achterberg' }).getByRole('link', { name: 'Record exam' }).click();
+    const status15 = page.getByTestId('live-status-15');
+    await expect.poll(() => status15.textContent()).toContain('Enter the six probing depths');
+
+    // Keyboard-first: focus the first depth and tab through the six, as on a periodontal chart.
+    await page.getByLabel('15 mesiobuccal probing depth').focus();
+    for (const depth of ['3', '3', '3', '3', '3']) {
+      await page.keyboard.type(depth);
+      await page.keyboard.press('Tab');
+    }
+    await expect.poll(() => status15.textContent()).toContain('Enter 1 more probing depth');
+    await page.keyboard.type('3');
+    expect(await page.evaluate(() => document.activeElement?.getAttribute('aria-label'))).toBe('15 distolingual probing depth');
+    await expect.poll(() => status15.textContent()).toContain('peri-implant health');
+    const flags = page.getByTestId('live-flags-15');
+    expect(await flags.textContent()).toContain('No baseline');
+    expect(await flags.textContent()).not.toContain('Peri-implantitis not excluded');
+
+    // Bleeding at the buccal site: mucositis.
+    await page.getByLabel('15 buccal bleeding on probing').check();
+    await expect.poll(() => status15.textContent()).toContain('peri-implant mucositis');
+    expect(await flags.textContent()).not.toContain('Peri-implantitis not excluded');
+
+    // A 6 mm pocket at the bleeding site, no radiograph: still mucositis, but the flag says peri-implantitis is not excluded.
+    const buccal = page.getByLabel('15 buccal probing depth');
+    await buccal.fill('6');
+    await expect.poll(() => flags.textContent()).toContain('Peri-implantitis not excluded without a baseline');
+    expect(await status15.textContent()).toContain('peri-implant mucositis');
+    expect(await status15.textContent()).toContain('site 2: BOP, PD 6 mm');
+
+    // An invalid depth is named beside the grid and the status waits.
+    await buccal.fill('6.3');
+    await expect.poll(() => status15.textContent()).toContain('Correct the probing depths');
+    await buccal.fill('6');
+
+    // The case definitions on demand.
+    await page.getByRole('button', { name: 'Case definitions' }).click();
+    await expect.poll(() => page.getByTestId('case-definitions').textContent()).toContain('Without a baseline');
+    await page.keyboard.press('Escape');
+
+    // 16 is left out of this visit; save 15 alone.
+    await page.getByText('Examine 16 in this visit').click();
+    expect(await page.getByLabel('Examine 16 in this visit').isChecked()).toBe(false);
+    await screenshot(page, 'recall-exam-form');
+    await page.getByRole('button', { name: 'Save exam' }).click();
+    const saved = page.getByTestId('exam-saved');
+    await expect.poll(() => saved.isVisible()).toBe(true);
+    expect(await saved.textContent()).toMatch(/15: .*peri-implant mucositis/);
+
+    // The Arch ring now carries the status and the exam date.
+    await page.getByRole('link', { name: /Arch of Wendell/ }).click();
+    await expect.poll(() => page.getByTestId('arch-cell-15').getAttribute('aria-label')).toMatch(/^15, implant placed, peri-implant mucositis, last exam /);
+    expect(unexpectedProblems()).toEqual([]);
+  });
+});

@@ -1,0 +1,89 @@
+// Fetchers, query options and hooks of the recall routes (one contract each, from @torquetrail/contracts).
+import {
+  CreateVisitReply,
+  ExamContext,
+  RecallDeskReply,
+  RecallPolicyReply,
+  ReminderLogReply,
+  RunRemindersReply,
+  SiteExamHistory,
+  type CreateVisitBody,
+  type RecallDeskQuery,
+  type RecallPolicyBody,
+} from '@torquetrail/contracts';
+import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { apiRequest } from '../../../lib/api-client';
+
+export type DeskParams = Partial<Pick<RecallDeskQuery, 'filter' | 'sort' | 'dir' | 'search' | 'page' | 'pageSize'>>;
+
+export function deskSearch(params: DeskParams, withPaging = true): string {
+  const q = new URLSearchParams();
+  for (const [k, v] of Object.entries(params)) {
+    if (v === undefined || v === '' || (!withPaging && (k === 'page' || k === 'pageSize'))) continue;
+    q.set(k, String(v));
+  }
+  const text = q.toString();
+  return text ? `?${text}` : '';
+}
+
+export const deskQueryOptions = (params: DeskParams) =>
+  queryOptions({
+    queryKey: ['recalls', 'desk', params] as const,
+    queryFn: ({ signal }) => apiRequest(`/api/recalls/desk${deskSearch(params)}`, { schema: RecallDeskReply, signal }),
+    placeholderData: keepPreviousData,
+  });
+export const useRecallDesk = (params: DeskParams) => useQuery(deskQueryOptions(params));
+
+export const examContextQueryOptions = (patientId: string) =>
+  queryOptions({
+    queryKey: ['recalls', 'exam-context', patientId] as const,
+    queryFn: ({ signal }) => apiRequest(`/api/recalls/patients/${encodeURIComponent(patientId)}/exam-context`, { schema: ExamContext, signal }),
+  });
+export const useExamContext = (patientId: string) => useQuery(examContextQueryOptions(patientId));
+
+export const siteExamsQueryOptions = (siteId: string) =>
+  queryOptions({
+    queryKey: ['recalls', 'site-exams', siteId] as const,
+    queryFn: ({ signal }) => apiRequest(`/api/recalls/sites/${encodeURIComponent(siteId)}/exams`, { schema: SiteExamHistory, signal }),
+  });
+export const useSiteExams = (siteId: string) => useQuery(siteExamsQueryOptions(siteId));
+
+export function useCreateVisit() {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: (body: CreateVisitBody) => apiRequest('/api/recalls/visits', { method: 'POST', body, schema: CreateVisitReply }),
+    onSuccess: () => {
+      void client.invalidateQueries({ queryKey: ['recalls'] });
+      void client.invalidateQueries({ queryKey: ['patients'] });
+      void client.invalidateQueries({ queryKey: ['sites'] });
+    },
+  });
+}
+
+export const policyQueryOptions = () =>
+  queryOptions({ queryKey: ['recalls', 'policy'] as const, queryFn: ({ signal }) => apiRequest('/api/recalls/policy', { schema: RecallPolicyReply, signal }) });
+export const useRecallPolicy = () => useQuery(policyQueryOptions());
+
+export function useUpdatePolicy() {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: (body: RecallPolicyBody) => apiRequest('/api/recalls/policy', { method: 'PUT', body, schema: RecallPolicyReply }),
+    onSuccess: (data) => client.setQueryData(['recalls', 'policy'], data),
+  });
+}
+
+export const reminderLogQueryOptions = () =>
+  queryOptions({ queryKey: ['recalls', 'reminders'] as const, queryFn: ({ signal }) => apiRequest('/api/recalls/reminders', { schema: ReminderLogReply, signal }) });
+export const useReminderLog = () => useQuery(reminderLogQueryOptions());
+
+export function useRunReminders() {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: () => apiRequest('/api/recalls/reminders/run', { method: 'POST', body: {}, schema: RunRemindersReply }),
+    // The queue sends within seconds; refresh the log a little later as well.
+    onSuccess: () => {
+      void client.invalidateQueries({ queryKey: ['recalls', 'reminders'] });
+      setTimeout(() => void client.invalidateQueries({ queryKey: ['recalls', 'reminders'] }), 3000);
+    },
+  });
+}

@@ -1,0 +1,157 @@
+import '../components/recalls.css';
+import { AnchorButton, Button, FormGroup, HTMLSelect, HTMLTable, InputGroup, NonIdealState, Tag } from '@blueprintjs/core';
+import { DESK_FILTERS, type RecallDeskQuery, type RecallDeskRow } from '@torquetrail/contracts';
+import { Link, useSearchParams } from 'react-router-dom';
+import { Can } from '../../../lib/ability';
+import { ErrorState } from '../../../lib/components/error-state';
+import { LoadingState } from '../../../lib/components/loading-state';
+import { formatDate } from '../../../lib/dates';
+import { MaintenanceStatusLabel } from '../../../lib/maintenance-status';
+import { deskSearch, useRecallDesk, type DeskParams } from '../api/recalls-api';
+
+const FILTER_LABEL: Record<(typeof DESK_FILTERS)[number], string> = {
+  all: 'All patients with implants',
+  'due-this-week': 'Due in the next 7 days',
+  overdue: 'Overdue',
+  'peri-implantitis-last': 'Peri-implantitis last time',
+};
+type Sort = RecallDeskQuery['sort'];
+const PAGE_SIZE = 50;
+
+const riskText = (r: RecallDeskRow['riskFactors']) =>
+  [r.smoker && 'Smoker', r.diabetesPoorlyControlled && 'Diabetes (poorly controlled)', r.periodontitisHistory && 'Periodontitis history', r.priorPeriImplantitis && 'Prior peri-implantitis'].filter(Boolean) as string[];
+
+/** /recalls: the hygienist's work list — next recall, overdue days, last status per implant, risk factors. */
+export function RecallDeskRoute() {
+  const [url, setUrl] = useSearchParams();
+  const params: DeskParams = {
+    filter: (DESK_FILTERS as readonly string[]).includes(url.get('filter') ?? '') ? (url.get('filter') as DeskParams['filter']) : 'all',
+    sort: (url.get('sort') as Sort | null) ?? 'dueOn',
+    dir: url.get('dir') === 'desc' ? 'desc' : 'asc',
+    search: url.get('search') ?? undefined,
+    page: Math.max(1, Number(url.get('page') ?? 1) || 1),
+    pageSize: PAGE_SIZE,
+  };
+  const desk = useRecallDesk(params);
+  const set = (patch: Partial<Record<string, string | undefined>>) => {
+    const next = new URLSearchParams(url);
+    for (const [k, v] of Object.entries(patch)) {
+      if (v === undefined || v === '') next.delete(k);
+      else next.set(k, v);
+    }
+    if (!('page' in patch)) next.delete('page');
+    setUrl(next, { replace: true });
+  };
+  const sortBy = (sort: Sort) => set({ sort, dir: params.sort === sort && params.dir === 'asc' ? 'desc' : 'asc' });
+  const header = (label: string, sort: Sort) => (
+    <th aria-sort={params.sort === sort ? (params.dir === 'asc' ? 'ascending' : 'descending') : 'none'}>
+      <Button variant="minimal" size="small" onClick={() => sortBy(sort)} endIcon={params.sort === sort ? (params.dir === 'asc' ? 'caret-up' : 'caret-down') : 'double-caret-vertical'}>
+        {label}
+      </Button>
+    </th>
+  );
+
+  return (
+    <div className="recall-desk">
+      <title>Recall desk · Torquetrail</title>
+      <h1 className="page-title">Recall desk</h1>
+      <div className="recall-desk__controls">
+        <FormGroup label="Show" labelFor="desk-filter">
+          <HTMLSelect id="desk-filter" data-testid="desk-filter" value={params.filter} onChange={(e) => set({ filter: e.currentTarget.value })}>
+            {DESK_FILTERS.map((f) => (
+              <option key={f} value={f}>
+                {FILTER_LABEL[f]}
+              </option>
+            ))}
+          </HTMLSelect>
+        </FormGroup>
+        <FormGroup label="Search" labelFor="desk-search">
+          <InputGroup id="desk-search" leftIcon="search" placeholder="Name or chart number" defaultValue={params.search ?? ''} onKeyDown={(e) => e.key === 'Enter' && set({ search: e.currentTarget.value.trim() })} onBlur={(e) => set({ search: e.currentTarget.value.trim() })} />
+        </FormGroup>
+        <AnchorButton icon="download" href={`/api/recalls/desk/csv${deskSearch(params, false)}`} download="recall-desk.csv">
+          Export CSV
+        </AnchorButton>
+        <Can I="update" a="RecallPolicy">
+          <Link to="/recalls/policy">Recall policy</Link>
+        </Can>
+        <Can I="read" a="AuditEntry">
+          <Link to="/recalls/reminders">Reminder log</Link>
+        </Can>
+      </div>
+      {desk.isPending ? (
+        <LoadingState label="Loading the Recall desk" />
+      ) : desk.isError ? (
+        <ErrorState title="Could not load the Recall desk" error={desk.error} onRetry={() => void desk.refetch()} />
+      ) : desk.data.items.length === 0 ? (
+        <NonIdealState icon="calendar" title="Nobody here" description="No patient with implants matches this view." />
+      ) : (
+        <div aria-busy={desk.isFetching}>
+          <p className="result-count" aria-live="polite">
+            {desk.data.total} {desk.data.total === 1 ? 'patient' : 'patients'} · today {formatDate(desk.data.today)}
+          </p>
+          <HTMLTable className="recall-desk__table" striped compact data-testid="recall-desk-table">
+            <thead>
+              <tr>
+                {header('Patient', 'name')}
+                <th>Chart</th>
+                {header('Next recall', 'dueOn')}
+                {header('Overdue', 'overdueDays')}
+                {header('Last exam', 'lastExamOn')}
+                <th>Last status per implant</th>
+                <th>Risk factors</th>
+                <th>
+                  <span className="visually-hidden">Exam</span>
+                </th>
+              </tr>
+            </thead>
+            <tbody>
+              {desk.data.items.map((r) => (
+                <tr key={r.patientId}>
+                  <td>
+                    <Link to={`/patients/${r.patientId}`}>{r.name}</Link>
+                  </td>
+                  <td>{r.chartNumber}</td>
+                  <td>{r.nextDueOn ? formatDate(r.nextDueOn) : '—'}</td>
+                  <td className={r.overdueDays > 0 ? 'recall-overdue' : undefined}>{r.overdueDays > 0 ? `${r.overdueDays} days` : '—'}</td>
+                  <td>{r.lastExamOn ? formatDate(r.lastExamOn) : 'never'}</td>
+                  <td>
+                    <span className="recall-desk__sites">
+                      {r.sites.map((s) => (
+                        <span key={s.siteId}>
+                          <strong>{s.fdi}</strong> <MaintenanceStatusLabel status={s.status} />
+                        </span>
+                      ))}
+                    </span>
+                  </td>
+                  <td>
+                    {riskText(r.riskFactors).map((t) => (
+                      <Tag key={t} minimal style={{ marginRight: 4 }}>
+                        {t}
+                      </Tag>
+                    ))}
+                  </td>
+                  <td>
+                    <Can I="create" a="RecallExam">
+                      <Link to={`/recalls/patients/${r.patientId}/exam`}>Record exam</Link>
+                    </Can>
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </HTMLTable>
+          <div className="recall-desk__pager">
+            <Button icon="chevron-left" disabled={params.page === 1} onClick={() => set({ page: String((params.page ?? 1) - 1) })}>
+              Previous
+            </Button>
+            <span>
+              Page {params.page} of {Math.max(1, Math.ceil(desk.data.total / PAGE_SIZE))}
+            </span>
+            <Button endIcon="chevron-right" disabled={(params.page ?? 1) * PAGE_SIZE >= desk.data.total} onClick={() => set({ page: String((params.page ?? 1) + 1) })}>
+              Next
+            </Button>
+          </div>
+        </div>
+      )}
+    </div>
+  );
+}
