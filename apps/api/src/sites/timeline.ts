@@ -123,9 +123,16 @@ export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: Timeli
     );
   }
   const kept = kinds ? events.filter((e) => kinds.includes(e.kind)) : events;
-  // Time order; on one day, the order things happen in a sitting.
   const order: TimelineKind[] = ['placement', 'plan', 'impression', 'lab-prescription', 'part', 'delivery', 'complication', 'torque', 'recall-exam'];
-  kept.sort((a, b) => a.at.localeCompare(b.at) || order.indexOf(a.kind) - order.indexOf(b.kind) || (recorded.get(a) ?? '').localeCompare(recorded.get(b) ?? ''));
+  // Day first; within a day, the order of a sitting (date-only entries have no time of their own),
+  // then the time, then when the entry was recorded.
+  kept.sort(
+    (a, b) =>
+      a.at.slice(0, 10).localeCompare(b.at.slice(0, 10)) ||
+      order.indexOf(a.kind) - order.indexOf(b.kind) ||
+      a.at.localeCompare(b.at) ||
+      (recorded.get(a) ?? '').localeCompare(recorded.get(b) ?? ''),
+  );
 
   const torqueSeries: TorqueSeries[] = rows.parts
     .filter((p) => rows.torque.some((t) => t.componentInstanceId === p.id))

@@ -51,6 +51,18 @@ export const router = createBrowserRouter([
             path: 'recalls/reminders',
             lazy: async () => ({ Component: (await import('../features/recalls/routes/reminder-log-route')).ReminderLogRoute }),
           },
+          {
+            path: 'patients/:patientId/restorations',
+            lazy: async () => ({ Component: (await import('../features/planner/routes/restorations-route')).RestorationsRoute }),
+          },
+          {
+            path: 'patients/:patientId/restorations/new',
+            lazy: async () => ({ Component: (await import('../features/planner/routes/planner-route')).PlannerRoute }),
+          },
+          {
+            path: 'catalogue',
+            lazy: async () => ({ Component: (await import('../features/catalogue/routes/catalogue-route')).CatalogueRoute }),
+          },
           { path: '*', element: <NotFoundRoute /> },
         ],
       },

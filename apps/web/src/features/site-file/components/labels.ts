@@ -80,6 +80,8 @@ export function formatTorqueSpec(specNcm: number | null, tolerancePct: number): 
 
 const REASON_LABEL: Record<string, string> = {
   'initial-seating': 'Initial seating',
+  're-torque-after-settling': 'Re-torque after settling',
+  're-torque-at-recall': 'Re-torque at recall',
   're-torque': 'Re-torque',
   retorque: 'Re-torque',
   'loosening-found': 'Loosening found',

@@ -1,4 +1,4 @@
-import { Card } from '@blueprintjs/core';
+import { Callout, Card } from '@blueprintjs/core';
 import type { StackPart } from '@torquetrail/contracts';
 import type { ReactNode } from 'react';
 import { formatDate, formatDateTime } from '../../../lib/dates';
@@ -24,6 +24,12 @@ export function StackPartCard({ part }: { part: StackPart }) {
         <span>{part.name}</span>
       </h3>
       <FactList facts={facts} />
+      {part.retorqueDueAt && (
+        <Callout intent="warning" icon="time" compact className="stack-card__retorque" data-testid="retorque-due">
+          Re-torque due {new Date(part.retorqueDueAt).getTime() <= Date.now() ? 'now' : 'at'} {formatDateTime(part.retorqueDueAt)}: about 10 minutes after the initial
+          seating, to offset settling (Siamos et al. 2002). Log a re-torque to clear this reminder.
+        </Callout>
+      )}
       <div className="stack-card__torque">
         <span className="stack-card__torque-label">Last applied torque</span>
         {last ? (

@@ -3,7 +3,7 @@ import type { SiteFile } from '@torquetrail/contracts';
 import type { ToothSystem } from '../../../lib/tooth-system';
 import { FactList } from './fact-list';
 import { CONNECTION_LABEL, formatNumber } from './labels';
-import { LogTorqueAction } from './log-torque-action';
+import { LogTorquePanel } from '../../torque';
 import { RestorationCard } from './restoration-card';
 import { StackPartCard } from './stack-part-card';
 
@@ -14,7 +14,7 @@ export function Stack({ site, system }: { site: SiteFile; system: ToothSystem })
     <section className="stack" aria-labelledby="stack-heading">
       <div className="section-heading">
         <h2 id="stack-heading">Stack</h2>
-        <LogTorqueAction />
+        <LogTorquePanel siteId={site.id} parts={site.parts} />
       </div>
       <Callout intent="warning" icon="info-sign" className="stack__caution" compact>
         Torque values and compatibility are manufacturer-specific: the catalogue holds what the practice entered; the

@@ -9,6 +9,7 @@ import { useToothSystem } from '../../../lib/tooth-system';
 import { useSiteFile } from '../api/get-site-file';
 import { SiteFileHeader } from '../components/site-file-header';
 import { Stack } from '../components/stack';
+import { Timeline } from '../../timeline';
 import { ProbingDepthChart } from '../../recalls';
 
 /** /patients/:patientId/sites/:siteId: one implant, its header and its Stack. */
@@ -53,6 +54,10 @@ export function SiteFileRoute() {
       />
       <SiteFileHeader site={data} system={system} />
       <Stack site={data} system={system} />
+      <p className="site-file__links">
+        <Link to={`/patients/${data.patientId}/restorations`}>Restorations and planner of {data.patientName}</Link>
+      </p>
+      <Timeline siteId={data.id} parts={data.parts} />
       <ProbingDepthChart siteId={data.id} />
     </div>
   );

@@ -1,0 +1,50 @@
+// Pure parts of the Site file: the re-torque reminder and the Timeline order.
+import { RETIGHTEN_AFTER_MINUTES } from '@torquetrail/domain';
+import { describe, expect, it } from 'vitest';
+import { retorqueDueAt } from './sites.service.js';
+import { buildTimeline, type TimelineRows } from './timeline.js';
+
+const at = (iso: string) => new Date(iso);
+
+describe('retorqueDueAt (re-tighten about 10 min after the first tightening, Siamos et al. 2002)', () => {
+  it('is due RETIGHTEN_AFTER_MINUTES after the initial seating until a re-torque follows it', () => {
+    const seated = [{ reason: 'initial-seating', performedAt: at('2026-12-01T10:00:00Z') }];
+    expect(retorqueDueAt(seated)).toBe(new Date(Date.parse('2026-12-01T10:00:00Z') + RETIGHTEN_AFTER_MINUTES * 60_000).toISOString());
+    expect(retorqueDueAt([...seated, { reason: 're-torque-after-settling', performedAt: at('2026-12-01T10:11:00Z') }])).toBeNull();
+  });
+  it('ignores a re-torque logged before the seating, and treats a replaced screw as a new seating', () => {
+    expect(retorqueDueAt([{ reason: 're-torque-at-recall', performedAt: at('2026-01-01T10:00:00Z') }, { reason: 'initial-seating', performedAt: at('2026-12-01T10:00:00Z') }])).not.toBeNull();
+    expect(retorqueDueAt([{ reason: 'screw-replaced', performedAt: at('2026-12-01T10:00:00Z') }])).not.toBeNull();
+    expect(retorqueDueAt([])).toBeNull();
+    expect(retorqueDueAt([{ reason: 'loosening-found', performedAt: at('2026-12-01T10:00:00Z') }])).toBeNull();
+  });
+});
+
+const empty: TimelineRows = { placements: [], restorations: [], parts: [], torque: [], complications: [], recallExams: [] };
+const torque = (id: string, performedAt: string, amended = false) => ({
+  id, componentInstanceId: 'p1', partName: 'Screw', appliedNcm: 25, specNcm: 25, tolerancePct: 10, verdict: 'within' as const, reason: 're-torque-at-recall' as const,
+  wrenchLabel: null, performedAt: at(performedAt), byName: null, supersedesId: null, amendmentReason: null, amended,
+});
+
+describe('buildTimeline', () => {
+  it('orders by day, then the order of a sitting (complication before its torque), then time', () => {
+    const rows: TimelineRows = {
+      ...empty,
+      torque: [torque('t2', '2016-05-10T09:41:00Z'), torque('t1', '2016-05-10T09:30:00Z')],
+      complications: [{ id: 'c1', kind: 'screw-loosening', occurredOn: '2016-05-10', notes: null, componentInstanceId: null, partName: null, byName: null, recordedAt: at('2016-05-10T10:00:00Z'), supersedesId: null, amendmentReason: null, amended: false }],
+      recallExams: [{ id: 'e1', examinedOn: '2015-01-01', status: 'health', boneLevelMm: null, byName: null, supersedesId: null, amendmentReason: null, amended: false }],
+    };
+    expect(buildTimeline('s', rows).events.map((e) => e.id)).toEqual(['e1', 'c1', 't1', 't2']);
+    expect(buildTimeline('s', rows, ['torque']).events.map((e) => e.id)).toEqual(['t1', 't2']);
+  });
+  it('keeps amended torque entries in the events but not in the chart series', () => {
+    const rows: TimelineRows = {
+      ...empty,
+      parts: [{ id: 'p1', kind: 'prosthetic-screw', name: 'Screw', referenceCode: 'X', torqueSpecNcm: 25, tolerancePct: 10, lot: null, installedOn: '2016-01-01', removedOn: null, replacesId: null, byName: null }],
+      torque: [torque('old', '2016-05-10T09:30:00Z', true), torque('new', '2016-05-10T09:30:00Z')],
+    };
+    const t = buildTimeline('s', rows);
+    expect(t.events.filter((e) => e.kind === 'torque').map((e) => [e.id, e.amended])).toEqual([['old', true], ['new', false]]);
+    expect(t.torqueSeries[0]!.points.map((p) => p.id)).toEqual(['new']);
+  });
+});

@@ -1,0 +1,19 @@
+import { CatalogueComponent, CatalogueReply, type ComponentBody, type ComponentPatch } from '@torquetrail/contracts';
+import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { apiRequest } from '../../../lib/api-client';
+
+export const catalogueQueryKey = ['catalogue'] as const;
+
+export const catalogueQueryOptions = () =>
+  queryOptions({ queryKey: catalogueQueryKey, queryFn: ({ signal }) => apiRequest('/api/catalogue', { schema: CatalogueReply, signal }) });
+export const useCatalogue = () => useQuery(catalogueQueryOptions());
+
+/** Admin: add a part or correct one; only the catalogue changes. */
+export function useSaveComponent() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: ({ id, body }: { id?: string; body: ComponentBody | ComponentPatch }) =>
+      apiRequest(id ? `/api/catalogue/components/${id}` : '/api/catalogue/components', { method: id ? 'PATCH' : 'POST', body, schema: CatalogueComponent }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: catalogueQueryKey }),
+  });
+}

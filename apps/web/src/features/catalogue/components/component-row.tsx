@@ -1,0 +1,49 @@
+import { Button, NumericInput } from '@blueprintjs/core';
+import type { CatalogueComponent } from '@torquetrail/contracts';
+import { useState } from 'react';
+import { Can } from '../../../lib/ability';
+import { isApiError } from '../../../lib/api-client';
+import { useSaveComponent } from '../api/catalogue-api';
+
+/** One part: its torque specification and tolerance, editable by the practice admin. */
+export function ComponentRow({ part }: { part: CatalogueComponent }) {
+  const [editing, setEditing] = useState(false);
+  const [spec, setSpec] = useState<number | null>(part.torqueSpecNcm);
+  const [tol, setTol] = useState(part.tolerancePct);
+  const save = useSaveComponent();
+  const fields = isApiError(save.error) ? save.error.fields : {};
+  return (
+    <tr data-testid="catalogue-part">
+      <td>{part.name}</td>
+      <td className="mono">{part.referenceCode}</td>
+      <td>{part.kind}</td>
+      <td>{part.engaging === null ? '—' : part.engaging ? 'engaging' : 'non-engaging'}{part.tray ? `, ${part.tray} tray` : ''}{part.angleDeg ? `, ${part.angleDeg}°` : ''}{part.collarHeightMm ? `, collar ${part.collarHeightMm} mm` : ''}</td>
+      <td>
+        {editing ? (
+          <>
+            <NumericInput aria-label={`Torque of ${part.referenceCode} (N·cm, empty = hand-tight)`} min={1} max={100} value={spec ?? ''} onValueChange={(v) => setSpec(Number.isFinite(v) ? v : null)} intent={fields.torqueSpecNcm ? 'danger' : 'none'} />
+            {fields.torqueSpecNcm && <span className="planner-error">{fields.torqueSpecNcm}</span>}
+          </>
+        ) : part.torqueSpecNcm === null ? (
+          'hand-tight'
+        ) : (
+          `${part.torqueSpecNcm} N·cm`
+        )}
+      </td>
+      <td>{editing ? <NumericInput aria-label={`Tolerance of ${part.referenceCode} (%)`} min={0} max={50} value={tol} onValueChange={setTol} /> : `±${part.tolerancePct} %`}</td>
+      <td>{part.requiresLot ? 'lot required' : ''}{part.inUse ? (part.requiresLot ? ', in use' : 'in use') : ''}</td>
+      <Can I="update" a="Catalogue">
+        <td>
+          {editing ? (
+            <>
+              <Button small intent="primary" text="Save" loading={save.isPending} onClick={() => save.mutate({ id: part.id, body: { torqueSpecNcm: spec, tolerancePct: tol } }, { onSuccess: () => setEditing(false) })} />
+              <Button small variant="minimal" text="Cancel" onClick={() => setEditing(false)} />
+            </>
+          ) : (
+            <Button small variant="minimal" icon="edit" text="Edit" onClick={() => setEditing(true)} />
+          )}
+        </td>
+      </Can>
+    </tr>
+  );
+}

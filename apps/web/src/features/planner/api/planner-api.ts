@@ -1,0 +1,62 @@
+// Planner endpoints: one fetcher + queryOptions + hook each. Mutations invalidate exactly the
+// queries whose data they change.
+import {
+  CatalogueReply,
+  LabPrescriptionSummary,
+  type DeliveryBody,
+  type PlanBody,
+  RestorableSitesReply,
+  RestorationDetail,
+  RestorationListReply,
+} from '@torquetrail/contracts';
+import { queryOptions, useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
+import { apiRequest } from '../../../lib/api-client';
+
+export const catalogueQueryKey = ['catalogue'] as const;
+export const restorableSitesKey = (patientId: string) => ['patients', 'restorable-sites', patientId] as const;
+export const restorationsKey = (patientId: string) => ['patients', 'restorations', patientId] as const;
+
+export const catalogueQueryOptions = () =>
+  queryOptions({ queryKey: catalogueQueryKey, queryFn: ({ signal }) => apiRequest('/api/catalogue', { schema: CatalogueReply, signal }) });
+export const useCatalogue = () => useQuery(catalogueQueryOptions());
+
+export const useRestorableSites = (patientId: string) =>
+  useQuery({ queryKey: restorableSitesKey(patientId), queryFn: ({ signal }) => apiRequest(`/api/patients/${patientId}/restorable-sites`, { schema: RestorableSitesReply, signal }) });
+
+export const useRestorations = (patientId: string) =>
+  useQuery({ queryKey: restorationsKey(patientId), queryFn: ({ signal }) => apiRequest(`/api/patients/${patientId}/restorations`, { schema: RestorationListReply, signal }) });
+
+/** What a restoration's change touches: the patient's list, and the Stack, Timeline and Arch of its sites. */
+function invalidateRestoration(queryClient: QueryClient, r: RestorationDetail, { sites }: { sites: boolean }) {
+  const keys: (readonly unknown[])[] = [restorationsKey(r.patientId)];
+  for (const s of r.sites) {
+    keys.push(['sites', 'timeline', s.siteId]);
+    if (sites) keys.push(['sites', 'detail', s.siteId]);
+  }
+  if (sites) keys.push(['patients', 'detail', r.patientId], restorableSitesKey(r.patientId));
+  return Promise.all(keys.map((queryKey) => queryClient.invalidateQueries({ queryKey })));
+}
+
+export function useSavePlan() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (body: PlanBody) => apiRequest('/api/restorations', { method: 'POST', body, schema: RestorationDetail }),
+    onSuccess: (r) => invalidateRestoration(queryClient, r, { sites: true }),
+  });
+}
+
+export function useDeliver() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: ({ id, body }: { id: string; body: DeliveryBody }) => apiRequest(`/api/restorations/${id}/delivery`, { method: 'POST', body, schema: RestorationDetail }),
+    onSuccess: (r) => invalidateRestoration(queryClient, r, { sites: true }),
+  });
+}
+
+export function useLabPrescription(restoration: RestorationDetail) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (emailToLab: boolean) => apiRequest(`/api/restorations/${restoration.id}/lab-prescriptions`, { method: 'POST', body: { emailToLab }, schema: LabPrescriptionSummary }),
+    onSuccess: () => invalidateRestoration(queryClient, restoration, { sites: false }),
+  });
+}

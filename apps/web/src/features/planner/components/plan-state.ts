@@ -1,0 +1,131 @@
+// The planner's form state and its translation into the API body and the domain plan.
+import type { CatalogueComponent, Finding, ImpressionCopingKind, InterfaceKind, Material, PlanBody, RestorableSite, RestorationKind, Retention } from '@torquetrail/contracts';
+import { type RestorationPlan, ValidationError, validateRestorationPlan } from '@torquetrail/domain';
+
+export interface SitePlan {
+  siteId: string;
+  interface: InterfaceKind;
+  impressionCoping: ImpressionCopingKind;
+  impressionCopingComponentId: string;
+  multiUnitComponentId: string;
+  abutmentComponentId: string;
+  screwComponentIds: string[];
+  restorativeSpaceMm: string;
+  /** Entered axis (x, y, z as typed); empty = the placement's axis. */
+  axis: [string, string, string];
+}
+
+export interface PlanState {
+  kind: RestorationKind;
+  retention: Retention;
+  material: Material;
+  shade: string;
+  copingsSplinted: boolean;
+  labName: string;
+  labEmail: string;
+  dueOn: string;
+  notes: string;
+  sites: SitePlan[];
+  acknowledged: string[];
+}
+
+export const emptySitePlan = (siteId: string): SitePlan => ({
+  siteId,
+  interface: 'non-engaging',
+  impressionCoping: 'non-engaging',
+  impressionCopingComponentId: '',
+  multiUnitComponentId: '',
+  abutmentComponentId: '',
+  screwComponentIds: [],
+  restorativeSpaceMm: '',
+  axis: ['', '', ''],
+});
+
+export const initialPlan: PlanState = {
+  kind: 'splinted-bridge',
+  retention: 'screw-to-implant',
+  material: 'zirconia',
+  shade: '',
+  copingsSplinted: false,
+  labName: '',
+  labEmail: '',
+  dueOn: '',
+  notes: '',
+  sites: [],
+  acknowledged: [],
+};
+
+export const ackKey = (f: Pick<Finding, 'code' | 'fdi'>) => `${f.code}:${f.fdi ?? ''}`;
+
+const num = (s: string) => (s.trim() === '' ? null : Number(s));
+const enteredAxis = (a: SitePlan['axis']): [number, number, number] | null => (a.every((v) => v.trim() !== '') ? [Number(a[0]), Number(a[1]), Number(a[2])] : null);
+
+export function toBody(patientId: string, state: PlanState, catalogue: Map<string, CatalogueComponent>): PlanBody {
+  return {
+    patientId,
+    kind: state.kind,
+    retention: state.retention,
+    material: state.material,
+    shade: state.shade || null,
+    copingsSplinted: state.copingsSplinted,
+    labName: state.labName || null,
+    labEmail: state.labEmail || null,
+    dueOn: state.dueOn || null,
+    notes: state.notes || null,
+    sites: state.sites.map((s) => {
+      const mua = catalogue.get(s.multiUnitComponentId);
+      const angle = mua?.angleDeg;
+      return {
+        siteId: s.siteId,
+        interface: s.interface,
+        impressionCoping: s.impressionCoping,
+        multiUnitAngleDeg: angle === 0 || angle === 17 || angle === 30 ? angle : null,
+        restorativeSpaceMm: num(s.restorativeSpaceMm),
+        axis: enteredAxis(s.axis),
+        abutmentComponentId: s.abutmentComponentId || null,
+        multiUnitComponentId: s.multiUnitComponentId || null,
+        screwComponentIds: s.screwComponentIds,
+        impressionCopingComponentId: s.impressionCopingComponentId || null,
+      };
+    }),
+    acknowledgements: state.acknowledged.map((k) => {
+      const [code, fdi] = k.split(':');
+      return { code: code!, fdi: fdi ? Number(fdi) : null };
+    }),
+  };
+}
+
+/**
+ * The live Findings: the same validateRestorationPlan the server runs, on the sites chosen,
+ * with each site's axis entered or taken from its placement. A malformed value (e.g. a zero
+ * axis) is returned as a field message instead.
+ */
+export function liveFindings(state: PlanState, sites: RestorableSite[], catalogue: Map<string, CatalogueComponent>): { findings: Finding[]; invalid: Record<string, string> } {
+  const body = toBody('', state, catalogue);
+  const plan: RestorationPlan = {
+    kind: state.kind,
+    retention: state.retention,
+    copingsSplinted: state.copingsSplinted,
+    sites: body.sites.map((s) => {
+      const site = sites.find((x) => x.siteId === s.siteId)!;
+      const axis = s.axis ?? site.axis;
+      return {
+        fdi: site.fdi,
+        interface: s.interface,
+        impressionCoping: s.impressionCoping,
+        ...(axis ? { axis } : {}),
+        ...(s.multiUnitAngleDeg !== null && s.multiUnitAngleDeg !== undefined ? { multiUnitAngleDeg: s.multiUnitAngleDeg } : {}),
+        ...(s.restorativeSpaceMm !== null && s.restorativeSpaceMm !== undefined ? { restorativeSpaceMm: s.restorativeSpaceMm } : {}),
+      };
+    }),
+  };
+  try {
+    return { findings: validateRestorationPlan(plan), invalid: {} };
+  } catch (error) {
+    if (error instanceof ValidationError) {
+      const field = (error.field ?? 'sites').replace(/^plan\./, '').replace(/\[(\d+)\]/g, '.$1');
+      return { findings: [], invalid: { [field]: error.message } };
+    }
+    throw error;
+  }
+}

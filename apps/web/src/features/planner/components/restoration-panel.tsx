@@ -1,0 +1,82 @@
+import { AnchorButton, Button, Callout, Card, Tag } from '@blueprintjs/core';
+import type { RestorationDetail } from '@torquetrail/contracts';
+import { formatTooth } from '@torquetrail/domain';
+import { useState } from 'react';
+import { Link } from 'react-router-dom';
+import { Can } from '../../../lib/ability';
+import { formatDate, formatDateTime } from '../../../lib/dates';
+import type { ToothSystem } from '../../../lib/tooth-system';
+import { useLabPrescription } from '../api/planner-api';
+import { DeliveryForm } from './delivery-form';
+import { KIND_LABEL, MATERIAL_LABEL, RETENTION_LABEL } from './planner-labels';
+
+/** One restoration: what was planned, its Findings, delivery and lab prescriptions. */
+export function RestorationPanel({ restoration: r, system, patientId }: { restoration: RestorationDetail; system: ToothSystem; patientId: string }) {
+  const [delivering, setDelivering] = useState(false);
+  const lab = useLabPrescription(r);
+  const current = !r.supersededById;
+  return (
+    <Card className={`restoration-card${current ? '' : ' restoration-card--amended'}`} data-testid="restoration-card" data-status={r.status}>
+      <h2>
+        {KIND_LABEL[r.kind]} · {r.sites.map((s) => formatTooth(s.fdi, system)).join(', ')}{' '}
+        <Tag intent={r.status === 'delivered' ? 'success' : 'primary'} minimal>
+          {r.status}
+        </Tag>{' '}
+        {!current && <Tag minimal icon="history">amended</Tag>}
+      </h2>
+      <p>
+        {RETENTION_LABEL[r.retention]} · {MATERIAL_LABEL[r.material]}
+        {r.shade ? ` · shade ${r.shade}` : ''}
+        {r.deliveredOn ? ` · delivered ${formatDate(r.deliveredOn)}` : ''} · planned by {r.plannedByName ?? 'unknown'} on {formatDateTime(r.createdAt)}
+      </p>
+      {!r.retrievable && <Callout intent="warning" icon="warning-sign" compact>Cement-retained: not retrievable without cutting.</Callout>}
+      {r.amendmentReason && <p>Amendment: {r.amendmentReason}</p>}
+      <ul>
+        {r.sites.map((s) => (
+          <li key={s.siteId}>
+            <Link to={`/patients/${patientId}/sites/${s.siteId}`}>Site {formatTooth(s.fdi, system)}</Link>: {s.interface} interface, {s.impressionCoping} coping
+            {s.components.length > 0 && ` — ${s.components.map((c) => c.name).join(', ')}`}
+          </li>
+        ))}
+      </ul>
+      {r.findings.length > 0 && (
+        <div>
+          <strong>Findings when saved (rules {r.rulesVersion}):</strong>
+          <ul>
+            {r.findings.map((f) => (
+              <li key={`${f.code}:${f.fdi ?? ''}`}>
+                {f.severity}: {f.message} {r.acknowledgements.find((a) => a.code === f.code) && <em>(acknowledged by {r.acknowledgements.find((a) => a.code === f.code)!.byName})</em>}
+              </li>
+            ))}
+          </ul>
+        </div>
+      )}
+      {r.labPrescriptions.length > 0 && (
+        <ul aria-label="Lab prescriptions">
+          {r.labPrescriptions.map((l) => (
+            <li key={l.id}>
+              <a href={`/api/lab-prescriptions/${l.id}/pdf`} data-testid="lab-pdf-link">
+                Lab prescription of {formatDateTime(l.createdAt)}
+              </a>
+              {l.emailedTo && ` · e-mailed to ${l.emailedTo}`}
+            </li>
+          ))}
+        </ul>
+      )}
+      {current && (
+        <Can I="create" a="Restoration">
+          <div className="planner__actions">
+            <Button icon="document" text="Lab prescription (PDF)" onClick={() => lab.mutate(false)} loading={lab.isPending && lab.variables === false} data-testid="make-lab-pdf" />
+            {r.labEmail && <Button icon="envelope" text={`E-mail to ${r.labEmail}`} onClick={() => lab.mutate(true)} loading={lab.isPending && lab.variables === true} />}
+            {r.status === 'planned' && <Button intent="primary" icon="endorsed" text="Deliver" onClick={() => setDelivering((v) => !v)} data-testid="deliver-button" />}
+          </div>
+          {lab.isError && <Callout intent="danger" role="alert" compact>{lab.error.message}</Callout>}
+          {delivering && r.status === 'planned' && <DeliveryForm restoration={r} onDone={() => setDelivering(false)} />}
+        </Can>
+      )}
+      {r.status === 'delivered' && r.sites[0] && (
+        <AnchorButton minimal icon="layers" href={`/patients/${patientId}/sites/${r.sites[0].siteId}`} text="Open the Site file" />
+      )}
+    </Card>
+  );
+}

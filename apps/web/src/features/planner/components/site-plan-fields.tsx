@@ -1,0 +1,115 @@
+import { Checkbox, FormGroup, HTMLSelect, InputGroup } from '@blueprintjs/core';
+import type { CatalogueComponent, ComponentKind, ImpressionCopingKind, InterfaceKind, RestorableSite, Retention } from '@torquetrail/contracts';
+import { formatTooth } from '@torquetrail/domain';
+import type { ToothSystem } from '../../../lib/tooth-system';
+import type { SitePlan } from './plan-state';
+
+const spec = (c: CatalogueComponent) => (c.torqueSpecNcm === null ? 'hand-tight' : `${c.torqueSpecNcm} N·cm ±${c.tolerancePct} %`);
+
+interface Props {
+  index: number;
+  site: RestorableSite;
+  plan: SitePlan;
+  retention: Retention;
+  parts: CatalogueComponent[];
+  system: ToothSystem;
+  errors: Record<string, string>;
+  onChange: (next: SitePlan) => void;
+}
+
+/** One site of the plan: interface, impression technique and coping, parts from this platform only. */
+export function SitePlanFields({ index, site, plan, retention, parts, system, errors, onChange }: Props) {
+  const key = (f: string) => `sites.${index}.${f}`;
+  const err = (...fields: string[]) => {
+    const message = fields.map((f) => errors[key(f)]).find(Boolean);
+    return message ? { intent: 'danger' as const, helperText: <span data-testid={`error-${key(fields[0]!)}`}>{message}</span> } : {};
+  };
+  const of = (...kinds: ComponentKind[]) => parts.filter((p) => kinds.includes(p.kind));
+  const copings = of('impression-coping').filter((c) => (plan.impressionCoping === 'engaging' ? c.engaging === true : c.engaging !== true));
+  const set = (patch: Partial<SitePlan>) => onChange({ ...plan, ...patch });
+  const id = (f: string) => `plan-${site.fdi}-${f}`;
+  const label = formatTooth(site.fdi, system);
+
+  return (
+    <fieldset className="planner-site" data-testid={`planner-site-${site.fdi}`}>
+      <legend>
+        Site {label} · {site.systemName} · {site.platformName} ({site.connection})
+      </legend>
+      <div className="planner-grid">
+        <FormGroup label="Interface to the implant" labelFor={id('interface')} {...err('interface')}>
+          <HTMLSelect id={id('interface')} value={plan.interface} onChange={(e) => set({ interface: e.currentTarget.value as InterfaceKind })}>
+            <option value="non-engaging">Non-engaging</option>
+            <option value="engaging">Engaging</option>
+          </HTMLSelect>
+        </FormGroup>
+        <FormGroup label="Impression technique" labelFor={id('coping')} {...err('impressionCoping', 'impressionCopingComponentId')}>
+          <HTMLSelect id={id('coping')} value={plan.impressionCoping} onChange={(e) => set({ impressionCoping: e.currentTarget.value as ImpressionCopingKind, impressionCopingComponentId: '' })}>
+            <option value="non-engaging">Non-engaging coping</option>
+            <option value="engaging">Engaging coping</option>
+            <option value="multi-unit">Multi-unit coping</option>
+          </HTMLSelect>
+        </FormGroup>
+        <FormGroup label="Impression coping (catalogue)" labelFor={id('coping-part')}>
+          <HTMLSelect id={id('coping-part')} value={plan.impressionCopingComponentId} onChange={(e) => set({ impressionCopingComponentId: e.currentTarget.value })}>
+            <option value="">Not chosen</option>
+            {copings.map((c) => (
+              <option key={c.id} value={c.id}>
+                {c.name} [{c.referenceCode}]
+              </option>
+            ))}
+          </HTMLSelect>
+        </FormGroup>
+        {retention === 'screw-to-multi-unit' ? (
+          <FormGroup label="Multi-unit abutment" labelFor={id('mua')} {...err('multiUnitComponentId', 'multiUnitAngleDeg')}>
+            <HTMLSelect id={id('mua')} value={plan.multiUnitComponentId} onChange={(e) => set({ multiUnitComponentId: e.currentTarget.value })}>
+              <option value="">Not chosen</option>
+              {of('multi-unit-abutment').map((c) => (
+                <option key={c.id} value={c.id}>
+                  {c.name} [{c.referenceCode}], {spec(c)}
+                </option>
+              ))}
+            </HTMLSelect>
+          </FormGroup>
+        ) : retention !== 'screw-to-implant' ? (
+          <FormGroup label="Abutment" labelFor={id('abutment')} {...err('abutmentComponentId')}>
+            <HTMLSelect id={id('abutment')} value={plan.abutmentComponentId} onChange={(e) => set({ abutmentComponentId: e.currentTarget.value })}>
+              <option value="">Not chosen</option>
+              {of('abutment-stock', 'abutment-custom', 'abutment-angled').map((c) => (
+                <option key={c.id} value={c.id}>
+                  {c.name} [{c.referenceCode}]
+                </option>
+              ))}
+            </HTMLSelect>
+          </FormGroup>
+        ) : null}
+        <FormGroup label="Restorative space (mm)" labelFor={id('space')} {...err('restorativeSpaceMm')}>
+          <InputGroup id={id('space')} inputMode="decimal" value={plan.restorativeSpaceMm} onValueChange={(v) => set({ restorativeSpaceMm: v })} />
+        </FormGroup>
+        <FormGroup label="Implant axis (x, y, z)" helperText={errors[key('axis')] ?? (site.axis ? `From the placement: ${site.axis.join(', ')}; type to override` : 'Not in the placement record: enter a direction vector')} intent={errors[key('axis')] ? 'danger' : 'none'}>
+          <div className="planner-axis">
+            {(['x', 'y', 'z'] as const).map((c, i) => (
+              <InputGroup
+                key={c}
+                aria-label={`Axis ${c} at ${label}`}
+                inputMode="decimal"
+                placeholder={site.axis ? String(site.axis[i]) : c}
+                value={plan.axis[i]}
+                onValueChange={(v) => set({ axis: plan.axis.map((a, j) => (j === i ? v : a)) as SitePlan['axis'] })}
+              />
+            ))}
+          </div>
+        </FormGroup>
+      </div>
+      <FormGroup label="Screws" {...err('screwComponentIds')}>
+        {of('abutment-screw', 'prosthetic-screw', 'set-screw').map((c) => (
+          <Checkbox
+            key={c.id}
+            label={`${c.name} [${c.referenceCode}], ${spec(c)}`}
+            checked={plan.screwComponentIds.includes(c.id)}
+            onChange={(e) => set({ screwComponentIds: e.currentTarget.checked ? [...plan.screwComponentIds, c.id] : plan.screwComponentIds.filter((x) => x !== c.id) })}
+          />
+        ))}
+      </FormGroup>
+    </fieldset>
+  );
+}

@@ -1,0 +1,16 @@
+import { TimelineReply } from '@torquetrail/contracts';
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import { apiRequest } from '../../../lib/api-client';
+
+export const timelineQueryKey = (siteId: string) => ['sites', 'timeline', siteId] as const;
+
+/** The whole Timeline is fetched once; filtering by kind happens on the page (years of a site fit easily). */
+export const timelineQueryOptions = (siteId: string) =>
+  queryOptions({
+    queryKey: timelineQueryKey(siteId),
+    queryFn: ({ signal }) => apiRequest(`/api/sites/${encodeURIComponent(siteId)}/timeline`, { schema: TimelineReply, signal }),
+  });
+
+export function useTimeline(siteId: string) {
+  return useQuery(timelineQueryOptions(siteId));
+}

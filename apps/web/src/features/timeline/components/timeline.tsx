@@ -1,0 +1,94 @@
+import { Callout, Checkbox, Icon, type IconName, NonIdealState, Tag } from '@blueprintjs/core';
+import type { StackPart, TimelineEvent, TimelineKind } from '@torquetrail/contracts';
+import { ComplicationPanel } from './complication-form';
+import { useState } from 'react';
+import { formatDate, formatDateTime } from '../../../lib/dates';
+import { ErrorState } from '../../../lib/components/error-state';
+import { LoadingState } from '../../../lib/components/loading-state';
+import { useTimeline } from '../api/get-timeline';
+import { TorqueChart } from './torque-chart';
+
+const KIND: Record<TimelineKind, { label: string; icon: IconName }> = {
+  placement: { label: 'Placement', icon: 'pin' },
+  plan: { label: 'Plan', icon: 'clipboard' },
+  impression: { label: 'Impression', icon: 'duplicate' },
+  'lab-prescription': { label: 'Lab prescription', icon: 'document' },
+  part: { label: 'Parts', icon: 'cube' },
+  delivery: { label: 'Delivery', icon: 'endorsed' },
+  torque: { label: 'Torque', icon: 'wrench' },
+  complication: { label: 'Complication', icon: 'warning-sign' },
+  'recall-exam': { label: 'Recall exam', icon: 'pulse' },
+};
+const VERDICT = { within: 'within specification', under: 'under specification', over: 'over specification' } as const;
+
+function EventRow({ event }: { event: TimelineEvent }) {
+  return (
+    <li className={`timeline__event${event.amended ? ' timeline__event--amended' : ''}`} data-testid="timeline-event" data-kind={event.kind}>
+      <time dateTime={event.at}>{event.dateOnly ? formatDate(event.at) : formatDateTime(event.at)}</time>
+      <span className="timeline__kind">
+        <Icon icon={KIND[event.kind].icon} size={12} /> {KIND[event.kind].label}
+      </span>
+      <span className="timeline__title">
+        {event.title}
+        {event.verdict && (
+          <Tag minimal intent={event.verdict === 'within' ? 'success' : event.verdict === 'under' ? 'warning' : 'danger'} className="timeline__verdict">
+            {VERDICT[event.verdict]}
+          </Tag>
+        )}
+        {event.amended && (
+          <Tag minimal intent="none" icon="history" className="timeline__amended">
+            amended (superseded by a later version)
+          </Tag>
+        )}
+        {event.detail && <span className="timeline__detail">{event.detail}</span>}
+        {event.amendmentReason && <span className="timeline__detail">Amendment: {event.amendmentReason}</span>}
+        {event.byName && <span className="timeline__by">{event.byName}</span>}
+      </span>
+    </li>
+  );
+}
+
+/** The Timeline: every event of the site in time order, filterable by kind, with torque charts per part. */
+export function Timeline({ siteId, parts }: { siteId: string; parts: StackPart[] }) {
+  const timeline = useTimeline(siteId);
+  const [hidden, setHidden] = useState<Set<TimelineKind>>(new Set());
+  if (timeline.isPending) return <LoadingState label="Loading the Timeline" />;
+  if (timeline.isError) return <ErrorState title="Could not load the Timeline" error={timeline.error} onRetry={() => void timeline.refetch()} />;
+  const present = (Object.keys(KIND) as TimelineKind[]).filter((k) => timeline.data.events.some((e) => e.kind === k));
+  const events = timeline.data.events.filter((e) => !hidden.has(e.kind));
+  const toggle = (k: TimelineKind) => setHidden((h) => {
+    const next = new Set(h);
+    if (next.has(k)) next.delete(k);
+    else next.add(k);
+    return next;
+  });
+
+  return (
+    <section className="timeline" aria-labelledby="timeline-heading" data-testid="timeline">
+      <div className="section-heading">
+        <h2 id="timeline-heading">Timeline</h2>
+        <ComplicationPanel siteId={siteId} parts={parts} />
+      </div>
+      <fieldset className="timeline__filters">
+        <legend>Show</legend>
+        {present.map((k) => (
+          <Checkbox key={k} inline label={KIND[k].label} checked={!hidden.has(k)} onChange={() => toggle(k)} />
+        ))}
+      </fieldset>
+      {events.length === 0 ? (
+        <NonIdealState icon="timeline-events" title="Nothing to show" description="No events of the chosen kinds." />
+      ) : (
+        <ol className="timeline__list">{events.map((e) => <EventRow key={e.key} event={e} />)}</ol>
+      )}
+      {timeline.data.torqueSeries.length > 0 && (
+        <div className="timeline__charts">
+          <h3>Torque history per part</h3>
+          <Callout compact icon="info-sign">Shaded band: the part's specification ± its tolerance, as entered in the catalogue.</Callout>
+          {timeline.data.torqueSeries.map((s) => (
+            <TorqueChart key={s.componentInstanceId} series={s} />
+          ))}
+        </div>
+      )}
+    </section>
+  );
+}

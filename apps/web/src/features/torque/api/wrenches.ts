@@ -1,0 +1,25 @@
+import { Wrench, type WrenchBody, WrenchListReply, type WrenchPatch } from '@torquetrail/contracts';
+import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { apiRequest } from '../../../lib/api-client';
+
+export const wrenchesQueryKey = ['wrenches'] as const;
+
+export const wrenchesQueryOptions = () =>
+  queryOptions({
+    queryKey: wrenchesQueryKey,
+    queryFn: ({ signal }) => apiRequest('/api/wrenches', { schema: WrenchListReply, signal }),
+  });
+
+export function useWrenches(enabled = true) {
+  return useQuery({ ...wrenchesQueryOptions(), enabled });
+}
+
+/** Admin: add a wrench or update it (e.g. its calibration date); refreshes the wrench list only. */
+export function useSaveWrench() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: ({ id, body }: { id?: string; body: WrenchBody | WrenchPatch }) =>
+      apiRequest(id ? `/api/wrenches/${id}` : '/api/wrenches', { method: id ? 'PATCH' : 'POST', body, schema: Wrench }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: wrenchesQueryKey }),
+  });
+}
