@@ -86,6 +86,31 @@ describe('role matrix of the recall routes', () => {
   });
 });
 
+// Runs before the visits below change the seeded state.
+describe('the seeded recall history', () => {
+  it('matches the demo scenario: Harold due in about three weeks, Imogen overdue, Desmond peri-implantitis, Wendell not examined', async () => {
+    const desk = await ctx.http.get('/api/recalls/desk').set('Cookie', cookies.hygienist);
+    const row = (chart: string) => desk.body.items.find((r: { chartNumber: string }) => r.chartNumber === chart);
+    const daysUntil = (iso: string) => Math.round((Date.parse(iso) - Date.parse(today)) / 86_400_000);
+    expect(daysUntil(row('LL-1001').nextDueOn)).toBeGreaterThanOrEqual(19);
+    expect(daysUntil(row('LL-1001').nextDueOn)).toBeLessThanOrEqual(23);
+    expect(row('LL-1002').overdueDays).toBeGreaterThan(0);
+    expect(row('LL-1003').sites).toEqual([expect.objectContaining({ fdi: 46, status: 'peri-implantitis' })]);
+    expect(row('LL-1005').sites.map((x: { status: string }) => x.status)).toEqual(['not-examined', 'not-examined']);
+    expect(row('LL-1005').nextDueOn).toBeNull();
+    const harold = await ctx.http.get(`/api/recalls/patients/${ids.whitcombe}/exam-context`).set('Cookie', cookies.hygienist);
+    expect(harold.body.sites.map((s: { fdi: number; baseline: unknown; previous: { status: string } | null }) => [s.fdi, s.baseline !== null, s.previous?.status])).toEqual([
+      [35, true, 'health'],
+      [37, true, 'health'],
+    ]);
+    const file = await ctx.http.get(`/api/recalls/sites/${ids.whitcombe35}/exams`).set('Cookie', cookies.surgeon);
+    expect(file.body.exams[0].examinedOn.startsWith('2013')).toBe(true);
+    expect(file.body.exams.length).toBeGreaterThan(20);
+    const ctxWendell = await ctx.http.get(`/api/recalls/patients/${ids.wendell}/exam-context`).set('Cookie', cookies.hygienist);
+    expect(ctxWendell.body.sites.every((s: { baseline: unknown }) => s.baseline === null)).toBe(true);
+  });
+});
+
 describe('recording a visit', () => {
   it('classifies each implant on the server, ignoring any status the client sends, and stores the rule version and options', async () => {
     const res = await ctx.http
@@ -157,6 +182,36 @@ describe('recording a visit', () => {
   });
 });
 
+describe('amending an exam', () => {
+  it('adds a superseding exam with the reason, recomputes the status, and the old one leaves the history; a second amendment of the old one is 409', async () => {
+    const visit = await ctx.http.post('/api/recalls/visits').set('Cookie', cookies.hygienist).send({ patientId: ids.whitcombe, examinedOn: today, exams: [healthyExam(ids.whitcombe37)] });
+    expect(visit.status).toBe(201);
+    const old = visit.body.exams[0];
+    expect(old.status).toBe('health');
+    const body = { sites: sites([3, 4, 3, 3, 3, 3], [1]), mobility: false, amendmentReason: 'Bleeding at the buccal site was missed.' };
+    for (const who of ['dentist', 'surgeon', 'practice_admin'] as const) {
+      expect((await ctx.http.post(`/api/recalls/exams/${old.id}/amend`).set('Cookie', cookies[who]).send(body)).status, who).toBe(403);
+    }
+    expect((await ctx.http.post(`/api/recalls/exams/${old.id}/amend`).set('Cookie', cookies.otherPracticeDentist).send(body)).status).toBe(403);
+    const noReason = await ctx.http.post(`/api/recalls/exams/${old.id}/amend`).set('Cookie', cookies.hygienist).send({ ...body, amendmentReason: '' });
+    expect(noReason.status).toBe(400);
+    expect(noReason.body.fields).toHaveProperty('amendmentReason');
+
+    const res = await ctx.http.post(`/api/recalls/exams/${old.id}/amend`).set('Cookie', cookies.hygienist).send(body);
+    expect(res.status).toBe(201);
+    expect(res.body).toMatchObject({ supersedesId: old.id, amendmentReason: 'Bleeding at the buccal site was missed.', status: 'mucositis', visitId: old.visitId, examinedOn: today });
+    const history = await ctx.http.get(`/api/recalls/sites/${ids.whitcombe37}/exams`).set('Cookie', cookies.dentist);
+    const mine = history.body.exams.filter((e: { examinedOn: string }) => e.examinedOn === today);
+    expect(mine.map((e: { id: string }) => e.id)).toEqual([res.body.id]);
+    const arch = await ctx.http.get(`/api/patients/${ids.whitcombe}`).set('Cookie', cookies.dentist);
+    expect(arch.body.sites.find((s: { fdi: number }) => s.fdi === 37).maintenanceStatus).toBe('mucositis');
+    const again = await ctx.http.post(`/api/recalls/exams/${old.id}/amend`).set('Cookie', cookies.hygienist).send(body);
+    expect(again.status).toBe(409);
+    // Still stored: amendments never overwrite.
+    expect((await ctx.db.select().from(recallExams).where(eq(recallExams.id, old.id))).length).toBe(1);
+  });
+});
+
 describe('the Recall desk', () => {
   const desk = async (query: Record<string, string | number> = {}, who: AccountKey = 'hygienist') => {
     const res = await ctx.http.get('/api/recalls/desk').query(query).set('Cookie', cookies[who]);
@@ -209,6 +264,20 @@ describe('the Recall desk', () => {
   });
 });
 
+describe('"today" is injectable', () => {
+  it('a pinned day moves the desk: Harold, due in about three weeks, is overdue a year later', async () => {
+    const clock = ctx.app.get(RecallClock);
+    clock.pin('2099-01-01');
+    try {
+      const res = await ctx.http.get('/api/recalls/desk').query({ filter: 'overdue' }).set('Cookie', cookies.hygienist);
+      expect(res.body.today).toBe('2099-01-01');
+      expect(res.body.items.map((r: { chartNumber: string }) => r.chartNumber)).toContain('LL-1001');
+    } finally {
+      clock.pin(null);
+    }
+  });
+});
+
 describe('the recall policy', () => {
   it('starts at the defaults, is changed by the practice admin and then used for the next recall', async () => {
     const before = await ctx.http.get('/api/recalls/policy').set('Cookie', cookies.hygienist);
@@ -224,21 +293,5 @@ describe('the recall policy', () => {
     const res = await ctx.http.put('/api/recalls/policy').set('Cookie', cookies.practice_admin).send({ baseMonths: 3, riskMonths: 6, reminderDaysBefore: 10, overdueReminderDaysAfter: 5 });
     expect(res.status).toBe(400);
     expect(res.body.fields).toHaveProperty('riskMonths');
-  });
-});
-
-describe('the seeded recall history', () => {
-  it('matches the demo scenario: Harold due in about three weeks, Imogen overdue, Desmond peri-implantitis, Wendell not examined', async () => {
-    // Fresh state of this file: the seed before the visits above is read through the exams' dates.
-    const harold = await ctx.http.get(`/api/recalls/patients/${ids.whitcombe}/exam-context`).set('Cookie', cookies.hygienist);
-    expect(harold.body.sites.map((s: { fdi: number; baseline: unknown; previous: { status: string } | null }) => [s.fdi, s.baseline !== null, s.previous?.status])).toEqual([
-      [35, true, 'health'],
-      [37, true, 'health'],
-    ]);
-    const file = await ctx.http.get(`/api/recalls/sites/${ids.whitcombe35}/exams`).set('Cookie', cookies.surgeon);
-    expect(file.body.exams[0].examinedOn.startsWith('2013')).toBe(true);
-    expect(file.body.exams.length).toBeGreaterThan(20);
-    const ctxWendell = await ctx.http.get(`/api/recalls/patients/${ids.wendell}/exam-context`).set('Cookie', cookies.hygienist);
-    expect(ctxWendell.body.sites.every((s: { baseline: unknown }) => s.baseline === null)).toBe(true);
   });
 });

@@ -74,6 +74,12 @@ export const CreateVisitBody = z
   });
 export type CreateVisitBody = z.input<typeof CreateVisitBody>;
 
+/** An amendment replaces one exam (a new row that supersedes it, with the reason); never an overwrite. */
+export const AmendExamBody = SiteExamInput.omit({ siteId: true }).extend({
+  amendmentReason: z.string().trim().min(3, { error: 'say why the exam is amended' }).max(500),
+});
+export type AmendExamBody = z.input<typeof AmendExamBody>;
+
 export const ExamSite = ExamSiteInput;
 export const RecallExam = z.object({
   id: Id,
@@ -231,6 +237,7 @@ export const recallRoutes: RouteContract[] = [
   { method: 'get', path: '/recalls/desk/csv', summary: 'The Recall desk as CSV, with the same filters and sort', signedIn: true, query: RecallDeskCsvQuery, produces: 'text/csv' },
   { method: 'get', path: '/recalls/patients/:id/exam-context', summary: "A patient's implants with their baseline and previous exam, risk factors and the practice policy, for the exam form", signedIn: true, reply: ExamContext },
   { method: 'post', path: '/recalls/visits', summary: 'Record a maintenance visit: one exam per implant; the status is computed on the server and the next recall scheduled', signedIn: true, body: CreateVisitBody, reply: CreateVisitReply },
+  { method: 'post', path: '/recalls/exams/:id/amend', summary: 'Amend one exam: a new exam superseding it, with the reason; status recomputed on the server, next recall rescheduled', signedIn: true, body: AmendExamBody, reply: RecallExam },
   { method: 'get', path: '/recalls/sites/:id/exams', summary: "A site's exam history (probing depths and computed status over the years)", signedIn: true, reply: SiteExamHistory },
   { method: 'get', path: '/recalls/policy', summary: "The practice's recall and reminder policy", signedIn: true, reply: RecallPolicyReply },
   { method: 'put', path: '/recalls/policy', summary: "Change the practice's recall and reminder policy (practice admin)", signedIn: true, body: RecallPolicyBody, reply: RecallPolicyReply },

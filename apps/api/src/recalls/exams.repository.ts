@@ -165,7 +165,7 @@ export interface NewExam {
   sites: ProbedSite[];
 }
 
-export async function insertExam(db: Db, exam: NewExam): Promise<string> {
+export async function insertExam(db: Db, exam: NewExam & { supersedesId?: string; amendmentReason?: string }): Promise<string> {
   const { sites, ...row } = exam;
   const [inserted] = await db.insert(recallExams).values(row).returning({ id: recallExams.id });
   await db.insert(recallExamSites).values(sites.map((s) => ({ practiceId: exam.practiceId, examId: inserted!.id, ...s })));
@@ -213,4 +213,22 @@ export async function upsertPolicy(db: Db, practiceId: string, userId: string, p
     .insert(recallPolicies)
     .values({ practiceId, ...p, updatedBy: userId, updatedAt: new Date() })
     .onConflictDoUpdate({ target: recallPolicies.practiceId, set: { ...p, updatedBy: userId, updatedAt: new Date() } });
+}
+
+/** One exam with its scope, if the user may see its patient; `superseded` when already amended. */
+export async function findVisibleExam(db: Db, scope: Scope, examId: string) {
+  const [row] = await db
+    .select({
+      id: recallExams.id,
+      practiceId: recallExams.practiceId,
+      patientId: recallExams.patientId,
+      siteId: recallExams.siteId,
+      visitId: recallExams.visitId,
+      examinedOn: recallExams.examinedOn,
+      superseded: sql<boolean>`exists (select 1 from recall_exams e2 where e2.supersedes_id = ${recallExams.id})`,
+    })
+    .from(recallExams)
+    .innerJoin(patients, eq(patients.id, recallExams.patientId))
+    .where(and(eq(recallExams.id, examId), visiblePatients(scope)));
+  return row ?? null;
 }

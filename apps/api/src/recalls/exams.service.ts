@@ -1,16 +1,17 @@
 import { randomUUID } from 'node:crypto';
-import { BadRequestException, Inject, Injectable } from '@nestjs/common';
+import { BadRequestException, ConflictException, Inject, Injectable } from '@nestjs/common';
 import { sql } from 'drizzle-orm';
 import type { AppAbility } from '@torquetrail/authz';
-import { CreateVisitBody as CreateVisitSchema, type CreateVisitReply, type ExamContext, type SiteExamHistory } from '@torquetrail/contracts';
+import { AmendExamBody as AmendExamSchema, CreateVisitBody as CreateVisitSchema, type CreateVisitReply, type RecallExam, type ExamContext, type SiteExamHistory } from '@torquetrail/contracts';
 import { classifyPeriImplant, DEFAULT_BONE_LOSS_MM, DEFAULT_PD_INCREASE_MM, DomainError, nextRecallDate, RULES_VERSION } from '@torquetrail/domain';
 import type { z } from 'zod';
 import { assertCan, type Scope } from '../authz/scope.js';
-import { DB, type Database } from '../db/database.js';
+import { DB, type Database, type Tx } from '../db/database.js';
 import { chooseBaseline, inChartOrder, latestOf, toDomainBaseline, toDomainExam } from './exam-rules.js';
 import {
   findExamsByIds,
   findPolicy,
+  findVisibleExam,
   findVisiblePatientForRecall,
   findVisibleSiteForRecall,
   hadPeriImplantitis,
@@ -135,25 +136,84 @@ export class ExamsService {
         );
       }
 
-      // Decision: peri-implantitis found today counts as "prior" for the interval that starts today.
-      const riskFactors = {
-        smoker: patient.smoker,
-        diabetesPoorlyControlled: patient.diabetesPoorlyControlled,
-        periodontitisHistory: patient.periodontitisHistory,
-        priorPeriImplantitis: anyPeriImplantitis || (await hadPeriImplantitis(tx, patient.id)),
-      };
-      const policy = await findPolicy(tx, patient.practiceId);
-      const lastExam = (await latestExamDateOfPatient(tx, patient.id)) ?? body.examinedOn;
-      const dueOn = nextRecallDate(lastExam, riskFactors, { baseMonths: policy.baseMonths, riskMonths: policy.riskMonths });
-      await rescheduleRecall(tx, { practiceId: patient.practiceId, patientId: patient.id, dueOn, visitId });
-      const hasRisk = Object.values(riskFactors).some(Boolean);
+      const nextRecall = await this.reschedule(tx, patient, visitId, anyPeriImplantitis);
       return {
         visitId,
         exams: (await findExamsByIds(tx, ids)).map(toContract),
-        nextRecall: { dueOn, intervalMonths: hasRisk ? policy.riskMonths : policy.baseMonths, riskFactors },
+        nextRecall,
       };
     });
   }
+
+  /**
+   * The patient's next recall from their latest exam: nextRecallDate with the patient's risk
+   * factors and the practice policy. Decision: peri-implantitis found in this visit counts as
+   * "prior" for the interval that starts today.
+   */
+  private async reschedule(tx: Tx, patient: RecallPatient, visitId: string, periImplantitisNow: boolean) {
+    const riskFactors = {
+      smoker: patient.smoker,
+      diabetesPoorlyControlled: patient.diabetesPoorlyControlled,
+      periodontitisHistory: patient.periodontitisHistory,
+      priorPeriImplantitis: periImplantitisNow || (await hadPeriImplantitis(tx, patient.id)),
+    };
+    const policy = await findPolicy(tx, patient.practiceId);
+    const lastExam = (await latestExamDateOfPatient(tx, patient.id)) ?? this.clock.today();
+    const dueOn = nextRecallDate(lastExam, riskFactors, { baseMonths: policy.baseMonths, riskMonths: policy.riskMonths });
+    await rescheduleRecall(tx, { practiceId: patient.practiceId, patientId: patient.id, dueOn, visitId });
+    const hasRisk = Object.values(riskFactors).some(Boolean);
+    return { dueOn, intervalMonths: hasRisk ? policy.riskMonths : policy.baseMonths, riskFactors };
+  }
+
+  /** An amendment: a new exam superseding the old one, with the reason; recomputed and rescheduled in one transaction. */
+  async amend(ability: AppAbility, scope: Scope, examinerId: string, examId: string, body: z.infer<typeof AmendExamSchema>): Promise<RecallExam> {
+    const old = assertCan(ability, 'amend', 'RecallExam', await findVisibleExam(this.db, scope, examId), 'exam');
+    if (old.superseded) throw new ConflictException('This exam has already been amended; amend its latest version');
+    const patient = (await findVisiblePatientForRecall(this.db, scope, old.patientId))!;
+    return this.db.transaction(async (tx) => {
+      await tx.execute(sqlLock(patient.id));
+      const site = (await listSitesForExam(tx, patient.id)).find((s) => s.siteId === old.siteId)!;
+      const earlier = (await listExamsOfSites(tx, [site.siteId])).filter((e) => e.id !== old.id);
+      const probes = inChartOrder(body.sites);
+      const baseline = body.isBaseline ? null : chooseBaseline(earlier, old.examinedOn, site.deliveredOn);
+      let verdict;
+      try {
+        verdict = classifyPeriImplant(toDomainExam({ sites: probes, boneLevelMm: body.boneLevelMm }), toDomainBaseline(baseline), RULE_OPTIONS);
+      } catch (error) {
+        if (error instanceof DomainError) throw badField('sites', error.message);
+        throw error;
+      }
+      const id = await insertExam(tx, {
+        practiceId: old.practiceId,
+        patientId: old.patientId,
+        siteId: old.siteId,
+        visitId: old.visitId,
+        examinedOn: old.examinedOn,
+        examinerId,
+        mobility: body.mobility,
+        plaqueIndex: body.plaqueIndex,
+        bleedingIndex: body.bleedingIndex,
+        keratinizedMucosaMm: body.keratinizedMucosaMm,
+        residualCement: body.residualCement,
+        boneLevelMm: body.boneLevelMm,
+        isBaseline: body.isBaseline,
+        notes: body.notes || null,
+        status: verdict.status,
+        reasons: verdict.reasons,
+        flags: verdict.flags,
+        rulesVersion: RULES_VERSION,
+        ruleOptions: RULE_OPTIONS,
+        baselineExamId: baseline?.id ?? null,
+        sites: probes,
+        supersedesId: old.id,
+        amendmentReason: body.amendmentReason,
+      });
+      await this.reschedule(tx, patient, old.visitId, false);
+      return toContract((await findExamsByIds(tx, [id]))[0]!);
+    });
+  }
 }
+
+type RecallPatient = NonNullable<Awaited<ReturnType<typeof findVisiblePatientForRecall>>>;
 
 const sqlLock = (patientId: string) => sql`select pg_advisory_xact_lock(hashtext(${`recall-visit:${patientId}`}))`;

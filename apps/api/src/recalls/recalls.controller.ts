@@ -1,9 +1,11 @@
 import { Body, Controller, Get, Header, Param, ParseUUIDPipe, Post, Query } from '@nestjs/common';
 import type { AppAbility } from '@torquetrail/authz';
 import {
+  AmendExamBody,
   CreateVisitBody,
   type CreateVisitReply,
   type ExamContext,
+  type RecallExam,
   RecallDeskCsvQuery,
   RecallDeskQuery,
   type RecallDeskReply,
@@ -55,6 +57,17 @@ export class RecallsController {
     @Body(new ZodValidationPipe(CreateVisitBody)) body: z.infer<typeof CreateVisitBody>,
   ): Promise<CreateVisitReply> {
     return this.exams.createVisit(ability, scopeOf(user), user.id, body);
+  }
+
+  @Post('exams/:id/amend')
+  @Allow('amend', 'RecallExam')
+  amend(
+    @CurrentUser() user: SessionUser,
+    @CurrentAbility() ability: AppAbility,
+    @Param('id', uuid) id: string,
+    @Body(new ZodValidationPipe(AmendExamBody)) body: z.infer<typeof AmendExamBody>,
+  ): Promise<RecallExam> {
+    return this.exams.amend(ability, scopeOf(user), user.id, id, body);
   }
 
   @Get('sites/:id/exams')
