@@ -90,3 +90,39 @@ describe('hygienist', () => {
     expect(unexpectedProblems()).toEqual([]);
   });
 });
+
+describe('practice admin and dentist', () => {
+  it('the admin edits the recall policy and reads the reminder log', async () => {
+    const page = await h.newPage();
+    await signInAs(page, 'odile.park@larkspur.example');
+    await page.goto('/recalls');
+    await page.getByRole('link', { name: 'Recall policy' }).click();
+    const base = page.getByLabel('Recall interval (months)');
+    await expect.poll(() => base.inputValue()).toBe('6');
+    await base.fill('12');
+    await page.getByRole('button', { name: 'Save policy' }).click();
+    await expect.poll(() => page.getByText('Saved. New exams are scheduled with this policy.').isVisible()).toBe(true);
+    await page.goto('/recalls/reminders');
+    const log = page.getByTestId('reminder-log-table');
+    await expect.poll(() => log.locator('tbody tr').count()).toBeGreaterThan(0);
+    expect(await log.textContent()).toContain('Imogen Farrow (LL-1002)');
+    await screenshot(page, 'reminder-log');
+  });
+
+  it("the dentist sees the probing depth over the years in Harold's Site file, and no exam form", async () => {
+    const page = await h.newPage();
+    await signInAs(page, 'ines.calloway@larkspur.example');
+    await page.goto('/recalls');
+    const table = page.getByTestId('recall-desk-table');
+    await expect.poll(() => table.locator('tbody tr').count()).toBe(5);
+    expect(await page.getByRole('link', { name: 'Record exam' }).count()).toBe(0);
+    await table.getByRole('link', { name: 'Harold Whitcombe' }).click();
+    await page.getByTestId('arch-cell-35').click();
+    const chart = page.getByTestId('probing-depth-chart');
+    await expect.poll(() => chart.isVisible()).toBe(true);
+    await chart.getByText('The exams as a table').click();
+    await expect.poll(() => chart.locator('tbody tr').count()).toBeGreaterThan(20);
+    await screenshot(page, 'site-file-probing-chart');
+    expect(unexpectedProblems()).toEqual([]);
+  });
+});
