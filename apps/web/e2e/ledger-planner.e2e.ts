@@ -55,7 +55,17 @@ describe('restorative dentist', () => {
     await page.getByTestId('save-plan').click();
     await page.waitForURL(/\/restorations$/);
 
+    // Amend before delivery: a new version; the first stays, marked as amended.
+    await page.getByRole('link', { name: 'Amend plan' }).click();
+    await page.getByLabel('Shade').fill('A2');
+    await page.getByLabel('Reason for the amendment').fill('Shade chosen at try-in');
+    await page.getByTestId('save-plan').click();
+    await page.waitForURL(/\/restorations$/);
+    await expect.poll(() => page.getByTestId('restoration-card').count()).toBe(2);
     const card = page.getByTestId('restoration-card').first();
+    expect(await card.textContent()).toMatch(/shade A2/);
+    expect(await card.textContent()).toMatch(/Amendment: Shade chosen at try-in/);
+    expect(await page.getByTestId('restoration-card').nth(1).textContent()).toMatch(/amended/);
     await expect.poll(() => card.getAttribute('data-status')).toBe('planned');
     await card.getByTestId('deliver-button').click();
     // The lot is required by the catalogue: leaving one empty is refused beside the field, nothing saved.
@@ -89,6 +99,16 @@ describe('restorative dentist', () => {
     expect(await torqueEvents.first().textContent()).toMatch(/32 N·cm .*within specification/);
     await expect.poll(() => page.getByTestId('torque-chart').count()).toBe(1);
     await screenshot(page, 'site-file-after-torque');
+
+    // Amend the torque entry: the old one stays in the Timeline, marked as amended.
+    await torqueEvents.first().getByRole('button', { name: 'Amend' }).click();
+    await torqueEvents.first().getByLabel('Corrected torque (N·cm)').fill('31');
+    await torqueEvents.first().getByLabel('Reason for the amendment').fill('Misread the wrench');
+    await torqueEvents.first().getByRole('button', { name: 'Save amendment' }).click();
+    await expect.poll(() => torqueEvents.count()).toBe(2);
+    expect(await torqueEvents.nth(0).textContent()).toMatch(/32 N·cm.*amended/);
+    expect(await torqueEvents.nth(1).textContent()).toMatch(/31 N·cm.*Amendment: Misread the wrench/);
+    await expect.poll(() => part.textContent()).toMatch(/31 Ncm/);
     // The one 400 is the delivery refused for the missing lot, above.
     expect(h.problems.filter((p) => /status of 400/.test(p))).toHaveLength(1);
     expect(unexpectedProblems(0, '400|401|404')).toEqual([]);

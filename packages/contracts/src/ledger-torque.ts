@@ -99,6 +99,10 @@ export const TimelineEvent = z.object({
   amendmentReason: z.string().nullable(),
   componentInstanceId: Id.nullable(),
   verdict: TorqueVerdict.nullable(),
+  /** The entry's own code: a complication's kind, a torque entry's reason; null otherwise. */
+  code: z.string().nullable(),
+  /** Torque entries: the applied value, N·cm. */
+  appliedNcm: z.number().nullable(),
   byName: z.string().nullable(),
 });
 export type TimelineEvent = z.infer<typeof TimelineEvent>;

@@ -122,6 +122,7 @@ export async function torqueEventsOfSite(db: Db, siteId: string) {
       reason: torqueEvents.reason,
       wrenchLabel: torqueWrenches.label,
       performedAt: torqueEvents.performedAt,
+      recordedAt: torqueEvents.recordedAt,
       byName: users.displayName,
       supersedesId: torqueEvents.supersedesId,
       amendmentReason: torqueEvents.amendmentReason,

@@ -23,7 +23,7 @@ describe('retorqueDueAt (re-tighten about 10 min after the first tightening, Sia
 const empty: TimelineRows = { placements: [], restorations: [], parts: [], torque: [], complications: [], recallExams: [] };
 const torque = (id: string, performedAt: string, amended = false) => ({
   id, componentInstanceId: 'p1', partName: 'Screw', appliedNcm: 25, specNcm: 25, tolerancePct: 10, verdict: 'within' as const, reason: 're-torque-at-recall' as const,
-  wrenchLabel: null, performedAt: at(performedAt), byName: null, supersedesId: null, amendmentReason: null, amended,
+  wrenchLabel: null, performedAt: at(performedAt), recordedAt: at(amended ? '2020-01-01T00:00:00Z' : '2020-01-02T00:00:00Z'), byName: null, supersedesId: null, amendmentReason: null, amended,
 });
 
 describe('buildTimeline', () => {
@@ -41,7 +41,7 @@ describe('buildTimeline', () => {
     const rows: TimelineRows = {
       ...empty,
       parts: [{ id: 'p1', kind: 'prosthetic-screw', name: 'Screw', referenceCode: 'X', torqueSpecNcm: 25, tolerancePct: 10, lot: null, installedOn: '2016-01-01', removedOn: null, replacesId: null, byName: null }],
-      torque: [torque('old', '2016-05-10T09:30:00Z', true), torque('new', '2016-05-10T09:30:00Z')],
+      torque: [torque('new', '2016-05-10T09:30:00Z'), torque('old', '2016-05-10T09:30:00Z', true)],
     };
     const t = buildTimeline('s', rows);
     expect(t.events.filter((e) => e.kind === 'torque').map((e) => [e.id, e.amended])).toEqual([['old', true], ['new', false]]);

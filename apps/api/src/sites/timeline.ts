@@ -32,6 +32,8 @@ function base(kind: TimelineKind, id: string, at: string, dateOnly: boolean, tit
     amendmentReason: null,
     componentInstanceId: null,
     verdict: null,
+    code: null,
+    appliedNcm: null,
     byName: null,
     ...rest,
   };
@@ -87,21 +89,24 @@ export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: Timeli
     if (p.removedOn) events.push(base('part', p.id, day(p.removedOn), true, `Removed: ${p.name}`, { keySuffix: ':out', componentInstanceId: p.id }));
   }
   for (const t of rows.torque) {
-    events.push(
-      base('torque', t.id, t.performedAt.toISOString(), false, `${t.appliedNcm} N·cm on ${t.partName} (${text(t.reason)}): ${t.verdict}`, {
+    const event = base('torque', t.id, t.performedAt.toISOString(), false, `${t.appliedNcm} N·cm on ${t.partName} (${text(t.reason)}): ${t.verdict}`, {
         detail: `spec ${t.specNcm} N·cm ±${t.tolerancePct} %${t.wrenchLabel ? `, ${t.wrenchLabel}` : ''}`,
         componentInstanceId: t.componentInstanceId,
         verdict: t.verdict,
+        code: t.reason,
+        appliedNcm: t.appliedNcm,
         byName: t.byName,
         amended: t.amended,
         supersedesId: t.supersedesId,
         amendmentReason: t.amendmentReason,
-      }),
-    );
+      });
+    events.push(event);
+    recorded.set(event, t.recordedAt.toISOString());
   }
   for (const c of rows.complications) {
     const event = base('complication', c.id, day(c.occurredOn), true, `Complication: ${text(c.kind)}${c.partName ? ` (${c.partName})` : ''}`, {
         detail: c.notes,
+        code: c.kind,
         componentInstanceId: c.componentInstanceId,
         byName: c.byName,
         amended: c.amended,

@@ -4,6 +4,7 @@ import {
   CatalogueReply,
   LabPrescriptionSummary,
   type DeliveryBody,
+  type PlanAmendmentBody,
   type PlanBody,
   RestorableSitesReply,
   RestorationDetail,
@@ -58,5 +59,14 @@ export function useLabPrescription(restoration: RestorationDetail) {
   return useMutation({
     mutationFn: (emailToLab: boolean) => apiRequest(`/api/restorations/${restoration.id}/lab-prescriptions`, { method: 'POST', body: { emailToLab }, schema: LabPrescriptionSummary }),
     onSuccess: () => invalidateRestoration(queryClient, restoration, { sites: false }),
+  });
+}
+
+/** A new version of a planned restoration; the old one stays, marked as amended. */
+export function useAmendPlan() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: ({ id, body }: { id: string; body: PlanAmendmentBody }) => apiRequest(`/api/restorations/${id}/amendments`, { method: 'POST', body, schema: RestorationDetail }),
+    onSuccess: (r) => invalidateRestoration(queryClient, r, { sites: true }),
   });
 }

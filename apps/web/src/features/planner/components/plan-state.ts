@@ -1,5 +1,5 @@
 // The planner's form state and its translation into the API body and the domain plan.
-import type { CatalogueComponent, Finding, ImpressionCopingKind, InterfaceKind, Material, PlanBody, RestorableSite, RestorationKind, Retention } from '@torquetrail/contracts';
+import type { CatalogueComponent, Finding, ImpressionCopingKind, InterfaceKind, Material, PlanBody, RestorableSite, RestorationDetail, RestorationKind, Retention } from '@torquetrail/contracts';
 import { type RestorationPlan, ValidationError, validateRestorationPlan } from '@torquetrail/domain';
 
 export interface SitePlan {
@@ -128,4 +128,35 @@ export function liveFindings(state: PlanState, sites: RestorableSite[], catalogu
     }
     throw error;
   }
+}
+
+/** The planner's state from a saved restoration, to amend it. */
+export function stateFromRestoration(r: RestorationDetail): PlanState {
+  const str = (n: number | null) => (n === null ? '' : String(n));
+  return {
+    kind: r.kind,
+    retention: r.retention,
+    material: r.material,
+    shade: r.shade ?? '',
+    copingsSplinted: r.copingsSplinted,
+    labName: r.labName ?? '',
+    labEmail: r.labEmail ?? '',
+    dueOn: r.dueOn ?? '',
+    notes: r.notes ?? '',
+    acknowledged: r.acknowledgements.map((a) => `${a.code}:${a.fdi ?? ''}`),
+    sites: r.sites.map((s) => {
+      const first = (...kinds: string[]) => s.components.find((c) => kinds.includes(c.kind))?.id ?? '';
+      return {
+        siteId: s.siteId,
+        interface: s.interface,
+        impressionCoping: s.impressionCoping,
+        impressionCopingComponentId: first('impression-coping'),
+        multiUnitComponentId: first('multi-unit-abutment'),
+        abutmentComponentId: first('abutment-stock', 'abutment-custom', 'abutment-angled'),
+        screwComponentIds: s.components.filter((c) => ['abutment-screw', 'prosthetic-screw', 'set-screw'].includes(c.kind)).map((c) => c.id),
+        restorativeSpaceMm: str(s.restorativeSpaceMm),
+        axis: s.axis ? [String(s.axis[0]), String(s.axis[1]), String(s.axis[2])] : ['', '', ''],
+      };
+    }),
+  };
 }

@@ -1,43 +1,63 @@
 import '../components/planner.css';
 import { Button, Callout, Checkbox, FormGroup, HTMLSelect, InputGroup, TextArea } from '@blueprintjs/core';
-import { type CatalogueComponent, type Material, PlanBody, type RestorationKind, type Retention, findingField } from '@torquetrail/contracts';
+import { type CatalogueComponent, type CatalogueReply, type Material, PlanBody, type RestorableSite, type RestorationDetail, type RestorationKind, type Retention, findingField } from '@torquetrail/contracts';
 import { formatTooth } from '@torquetrail/domain';
 import { type FormEvent, useMemo, useState } from 'react';
-import { Link, useNavigate, useParams } from 'react-router-dom';
+import { Link, useNavigate, useParams, useSearchParams } from 'react-router-dom';
 import { isApiError } from '../../../lib/api-client';
 import { BreadcrumbTrail } from '../../../lib/components/breadcrumb-trail';
 import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
 import { fieldsFromIssues } from '../../../lib/form-errors';
 import { useToothSystem } from '../../../lib/tooth-system';
-import { useCatalogue, useRestorableSites, useSavePlan } from '../api/planner-api';
+import { useAmendPlan, useCatalogue, useRestorableSites, useRestorations, useSavePlan } from '../api/planner-api';
 import { FindingsPanel } from '../components/findings-panel';
-import { emptySitePlan, initialPlan, liveFindings, type PlanState, toBody } from '../components/plan-state';
+import { emptySitePlan, initialPlan, liveFindings, type PlanState, stateFromRestoration, toBody } from '../components/plan-state';
 import { SitePlanFields } from '../components/site-plan-fields';
 import { KIND_LABEL, MATERIAL_LABEL, RETENTION_LABEL } from '../components/planner-labels';
 
-/** /patients/:patientId/restorations/new: the restoration planner with live Findings. */
+/**
+ * /patients/:patientId/restorations/new: the restoration planner with live Findings.
+ * With `?amend=<id>` it starts from that planned restoration and saves an amendment.
+ */
 export function PlannerRoute() {
   const { patientId = '' } = useParams();
-  const navigate = useNavigate();
-  const [system] = useToothSystem();
+  const [search] = useSearchParams();
+  const amendId = search.get('amend');
   const sites = useRestorableSites(patientId);
   const catalogue = useCatalogue();
+  const restorations = useRestorations(patientId);
+
+  if (sites.isPending || catalogue.isPending || (amendId && restorations.isPending)) return <LoadingState label="Loading the planner" />;
+  if (sites.isError || catalogue.isError) return <ErrorState title="Could not load the planner" error={sites.error ?? catalogue.error} onRetry={() => { void sites.refetch(); void catalogue.refetch(); }} />;
+  const amending = amendId ? restorations.data?.items.find((r) => r.id === amendId && r.status === 'planned' && !r.supersededById) : undefined;
+  if (amendId && !amending) {
+    return (
+      <Callout intent="warning" title="This plan cannot be amended">
+        It was delivered or amended already: amend its current version. <Link to={`/patients/${patientId}/restorations`}>Back to the restorations</Link>
+      </Callout>
+    );
+  }
+  return <PlannerForm key={amendId ?? 'new'} patientId={patientId} restorable={sites.data.items} catalogue={catalogue.data} amending={amending} />;
+}
+
+function PlannerForm({ patientId, restorable: all, catalogue, amending }: { patientId: string; restorable: RestorableSite[]; catalogue: CatalogueReply; amending?: RestorationDetail }) {
+  const navigate = useNavigate();
+  const [system] = useToothSystem();
   const save = useSavePlan();
-  const [state, setState] = useState<PlanState>(initialPlan);
+  const amend = useAmendPlan();
+  const [state, setState] = useState<PlanState>(() => (amending ? stateFromRestoration(amending) : initialPlan));
+  const [amendmentReason, setAmendmentReason] = useState('');
   const [serverFields, setServerFields] = useState<Record<string, string>>({});
   const [formError, setFormError] = useState<string | null>(null);
 
   const parts = useMemo(() => {
     const map = new Map<string, CatalogueComponent>();
-    for (const s of catalogue.data?.systems ?? []) for (const p of s.platforms) for (const c of p.components) map.set(c.id, c);
+    for (const s of catalogue.systems) for (const p of s.platforms) for (const c of p.components) map.set(c.id, c);
     return map;
-  }, [catalogue.data]);
+  }, [catalogue]);
 
-  if (sites.isPending || catalogue.isPending) return <LoadingState label="Loading the planner" />;
-  if (sites.isError || catalogue.isError) return <ErrorState title="Could not load the planner" error={sites.error ?? catalogue.error} onRetry={() => { void sites.refetch(); void catalogue.refetch(); }} />;
-
-  const restorable = sites.data.items.filter((s) => s.platformId && s.status !== 'failed' && s.status !== 'removed');
+  const restorable = all.filter((s) => s.platformId && s.status !== 'failed' && s.status !== 'removed');
   const chosen = state.sites.map((p) => restorable.find((s) => s.siteId === p.siteId)!);
   const { findings, invalid } = chosen.length > 0 ? liveFindings(state, restorable, parts) : { findings: [], invalid: {} };
   const fdis = chosen.map((s) => s.fdi);
@@ -61,7 +81,10 @@ export function PlannerRoute() {
     const parsed = PlanBody.safeParse(body);
     if (!parsed.success) return setServerFields(fieldsFromIssues(parsed.error.issues));
     try {
-      await save.mutateAsync(body);
+      if (amending) {
+        const { patientId: _p, ...rest } = body;
+        await amend.mutateAsync({ id: amending.id, body: { ...rest, amendmentReason } });
+      } else await save.mutateAsync(body);
       navigate(`/patients/${patientId}/restorations`);
     } catch (error) {
       if (isApiError(error)) {
@@ -76,7 +99,8 @@ export function PlannerRoute() {
     <div className="planner-page">
       <title>Restoration planner · Torquetrail</title>
       <BreadcrumbTrail items={[{ text: 'Patients', to: '/patients' }, { text: 'Patient', to: `/patients/${patientId}` }, { text: 'Restorations', to: `/patients/${patientId}/restorations` }, { text: 'New plan' }]} />
-      <h1>Restoration planner</h1>
+      <h1>{amending ? 'Amend the plan' : 'Restoration planner'}</h1>
+      {amending && <Callout intent="primary" compact>The saved plan stays in the record, marked as amended; this saves a new version.</Callout>}
       <form onSubmit={submit} className="planner" noValidate aria-label="Restoration plan">
         <div className="planner__main">
           <fieldset className="planner-sites" data-testid="planner-sites">
@@ -140,10 +164,15 @@ export function PlannerRoute() {
         </div>
         <aside className="planner__side">
           <FindingsPanel findings={findings} acknowledged={state.acknowledged} onAcknowledge={(k, on) => update({ acknowledged: on ? [...state.acknowledged, k] : state.acknowledged.filter((x) => x !== k) })} />
-          <Callout intent="warning" icon="info-sign" compact className="planner-caution">{catalogue.data.caution}</Callout>
+          <Callout intent="warning" icon="info-sign" compact className="planner-caution">{catalogue.caution}</Callout>
           {formError && <Callout intent="danger" role="alert" compact data-testid="plan-error">{formError}</Callout>}
+          {amending && (
+            <FormGroup label="Reason for the amendment" labelFor="plan-amend-reason" {...err('amendmentReason')}>
+              <InputGroup id="plan-amend-reason" value={amendmentReason} onValueChange={setAmendmentReason} />
+            </FormGroup>
+          )}
           <div className="planner__actions">
-            <Button type="submit" intent="primary" text="Save plan" loading={save.isPending} disabled={hasErrors || state.sites.length === 0 || unacknowledged.length > 0} data-testid="save-plan" />
+            <Button type="submit" intent="primary" text={amending ? 'Save amendment' : 'Save plan'} loading={save.isPending || amend.isPending} disabled={hasErrors || state.sites.length === 0 || unacknowledged.length > 0} data-testid="save-plan" />
             <Link to={`/patients/${patientId}/restorations`}>Cancel</Link>
           </div>
           {hasErrors && <p className="muted">Errors block saving: fix them first.</p>}

@@ -1,6 +1,8 @@
-import { Callout, Checkbox, Icon, type IconName, NonIdealState, Tag } from '@blueprintjs/core';
+import { Button, Callout, Checkbox, Icon, type IconName, NonIdealState, Tag } from '@blueprintjs/core';
 import type { StackPart, TimelineEvent, TimelineKind } from '@torquetrail/contracts';
 import { ComplicationPanel } from './complication-form';
+import { AmendForm } from './amend-form';
+import { Can } from '../../../lib/ability';
 import { useState } from 'react';
 import { formatDate, formatDateTime } from '../../../lib/dates';
 import { ErrorState } from '../../../lib/components/error-state';
@@ -21,7 +23,9 @@ const KIND: Record<TimelineKind, { label: string; icon: IconName }> = {
 };
 const VERDICT = { within: 'within specification', under: 'under specification', over: 'over specification' } as const;
 
-function EventRow({ event }: { event: TimelineEvent }) {
+function EventRow({ event, siteId }: { event: TimelineEvent; siteId: string }) {
+  const [amending, setAmending] = useState(false);
+  const amendable = !event.amended && (event.kind === 'torque' || event.kind === 'complication');
   return (
     <li className={`timeline__event${event.amended ? ' timeline__event--amended' : ''}`} data-testid="timeline-event" data-kind={event.kind}>
       <time dateTime={event.at}>{event.dateOnly ? formatDate(event.at) : formatDateTime(event.at)}</time>
@@ -43,6 +47,11 @@ function EventRow({ event }: { event: TimelineEvent }) {
         {event.detail && <span className="timeline__detail">{event.detail}</span>}
         {event.amendmentReason && <span className="timeline__detail">Amendment: {event.amendmentReason}</span>}
         {event.byName && <span className="timeline__by">{event.byName}</span>}
+        {amendable && (
+          <Can I="amend" a={event.kind === 'torque' ? 'TorqueEvent' : 'Complication'}>
+            {amending ? <AmendForm siteId={siteId} event={event} onDone={() => setAmending(false)} /> : <Button small variant="minimal" icon="edit" text="Amend" onClick={() => setAmending(true)} />}
+          </Can>
+        )}
       </span>
     </li>
   );
@@ -78,7 +87,7 @@ export function Timeline({ siteId, parts }: { siteId: string; parts: StackPart[]
       {events.length === 0 ? (
         <NonIdealState icon="timeline-events" title="Nothing to show" description="No events of the chosen kinds." />
       ) : (
-        <ol className="timeline__list">{events.map((e) => <EventRow key={e.key} event={e} />)}</ol>
+        <ol className="timeline__list">{events.map((e) => <EventRow key={e.key} event={e} siteId={siteId} />)}</ol>
       )}
       {timeline.data.torqueSeries.length > 0 && (
         <div className="timeline__charts">
