@@ -112,7 +112,7 @@ describe('the seeded recall history', () => {
 });
 
 describe('recording a visit', () => {
-  it('classifies each implant on the server, ignoring any status the client sends, and stores the rule version and options', async () => {
+  it('classifies each implant on the server, ignoring any status the client sends, and stores the rule version and options (no-baseline definition, Berglundh et al. 2018)', async () => {
     const res = await ctx.http
       .post('/api/recalls/visits')
       .set('Cookie', cookies.hygienist)
@@ -138,7 +138,7 @@ describe('recording a visit', () => {
     expect(scheduled.filter((r) => r.status === 'scheduled').map((r) => r.dueOn)).toEqual([nextRecallDate(today, {})]);
   });
 
-  it('compares with the baseline: Desmond 46 with BOP, deeper pocket and bone loss is peri-implantitis; 3-month recall (risk factors)', async () => {
+  it('compares with the baseline: Desmond 46 with BOP, deeper pocket and bone loss is peri-implantitis (Berglundh et al. 2018); 3-month recall with risk factors (Herrera et al. 2023 EFP S3)', async () => {
     const res = await ctx.http
       .post('/api/recalls/visits')
       .set('Cookie', cookies.hygienist)
@@ -279,7 +279,7 @@ describe('"today" is injectable', () => {
 });
 
 describe('the recall policy', () => {
-  it('starts at the defaults, is changed by the practice admin and then used for the next recall', async () => {
+  it('starts at the defaults (6 and 3 months [common practice]), is changed by the practice admin and then used for the next recall', async () => {
     const before = await ctx.http.get('/api/recalls/policy').set('Cookie', cookies.hygienist);
     expect(before.body).toMatchObject({ baseMonths: 6, riskMonths: 3 });
     const put = await ctx.http.put('/api/recalls/policy').set('Cookie', cookies.practice_admin).send({ baseMonths: 12, riskMonths: 4, reminderDaysBefore: 10, overdueReminderDaysAfter: 5 });
