@@ -26,7 +26,9 @@ function runTier(name, env) {
       try {
         const report = JSON.parse(fs.readFileSync(outputFile, 'utf8'));
         passed = report.numPassedTests;
-        failed = report.numFailedTests + (report.numFailedTestSuites ?? 0);
+        // Failed tests, plus files that failed without a failing test (e.g. an import error).
+        const brokenFiles = report.testResults.filter((file) => file.status === 'failed' && !file.assertionResults.some((a) => a.status === 'failed'));
+        failed = report.numFailedTests + brokenFiles.length;
       } catch {
         failed = 1; // the runner died before writing its report
       }

@@ -24,16 +24,17 @@ describe('restorative dentist', () => {
     expect(page.url()).toContain('search=whit');
     await table.getByRole('link', { name: /Whitcombe/ }).click();
 
-    // The Arch: implant sites 35 and 37 with their accessible names (numbering via packages/domain).
+    // The Arch: implant sites 35 and 37 with their accessible names (numbering via packages/domain);
+    // the seeded recall history makes the latest status of 35 'peri-implant health'.
     const cell35 = page.getByTestId('arch-cell-35');
-    await expect.poll(() => cell35.getAttribute('aria-label')).toBe('35, implant, not yet examined');
+    await expect.poll(() => cell35.getAttribute('aria-label')).toMatch(/^35, implant, peri-implant health, last exam \d{1,2} \w+ \d{4}$/);
     expect(await page.getByTestId('arch-cell-36').getAttribute('aria-label')).toBe('36, missing tooth');
     expect(await page.getByTestId('arch-cell-11').getAttribute('aria-label')).toBe('11, natural tooth');
     await screenshot(page, 'arch-dentist');
 
     // Universal numbering: FDI 35 is Universal 20, FDI 11 is 8 (HL7 Universal tooth code system).
     await page.getByRole('radio', { name: 'Universal' }).click();
-    await expect.poll(() => cell35.getAttribute('aria-label')).toBe('20, implant, not yet examined');
+    await expect.poll(() => cell35.getAttribute('aria-label')).toMatch(/^20, implant, peri-implant health, /);
     expect(await page.getByTestId('arch-cell-11').getAttribute('aria-label')).toBe('8, natural tooth');
     await page.getByRole('radio', { name: 'FDI' }).click();
 
