@@ -1,4 +1,4 @@
-import { CatalogueComponent, CatalogueReply, type ComponentBody, type ComponentPatch } from '@torquetrail/contracts';
+import { CatalogueComponent, CataloguePlatform, CatalogueReply, CatalogueSystem, type ComponentBody, type ComponentPatch, type PlatformBody, type SystemBody } from '@torquetrail/contracts';
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { apiRequest } from '../../../lib/api-client';
 
@@ -14,6 +14,22 @@ export function useSaveComponent() {
   return useMutation({
     mutationFn: ({ id, body }: { id?: string; body: ComponentBody | ComponentPatch }) =>
       apiRequest(id ? `/api/catalogue/components/${id}` : '/api/catalogue/components', { method: id ? 'PATCH' : 'POST', body, schema: CatalogueComponent }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: catalogueQueryKey }),
+  });
+}
+
+/** Admin: add an implant system or a platform to one; only the catalogue changes. */
+export function useAddSystem() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (body: SystemBody) => apiRequest('/api/catalogue/systems', { method: 'POST', body, schema: CatalogueSystem }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: catalogueQueryKey }),
+  });
+}
+export function useAddPlatform() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (body: PlatformBody) => apiRequest('/api/catalogue/platforms', { method: 'POST', body, schema: CataloguePlatform }),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: catalogueQueryKey }),
   });
 }

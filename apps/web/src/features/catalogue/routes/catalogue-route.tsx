@@ -1,3 +1,4 @@
+import '../components/catalogue.css';
 import { Button, Callout, HTMLTable, InputGroup } from '@blueprintjs/core';
 import { useState } from 'react';
 import { Can, useAppAbility } from '../../../lib/ability';
@@ -6,6 +7,7 @@ import { LoadingState } from '../../../lib/components/loading-state';
 import { useSaveWrench, useWrenches } from '../../torque';
 import { useCatalogue } from '../api/catalogue-api';
 import { ComponentRow } from '../components/component-row';
+import { AddComponentForm, AddPlatformForm, AddSystemForm, AddWrenchForm } from '../components/add-forms';
 
 function Wrenches() {
   const wrenches = useWrenches(useAppAbility().can('read', 'Wrench'));
@@ -37,6 +39,7 @@ function Wrenches() {
           ))}
         </tbody>
       </HTMLTable>
+      <Can I="create" a="Wrench"><AddWrenchForm /></Can>
     </section>
   );
 }
@@ -54,6 +57,7 @@ export function CatalogueRoute() {
         {catalogue.data.caution} The values here are what the practice entered.
       </Callout>
       {catalogue.data.systems.length === 0 && <p>This practice has no catalogue yet.</p>}
+      <Can I="create" a="Catalogue"><AddSystemForm /></Can>
       {catalogue.data.systems.map((s) => (
         <section key={s.id} aria-label={s.name}>
           <h2>
@@ -75,8 +79,10 @@ export function CatalogueRoute() {
                   {p.components.map((c) => <ComponentRow key={c.id} part={c} />)}
                 </tbody>
               </HTMLTable>
+              <Can I="create" a="Catalogue"><AddComponentForm platformId={p.id} /></Can>
             </div>
           ))}
+          <Can I="create" a="Catalogue"><AddPlatformForm systemId={s.id} /></Can>
         </section>
       ))}
       <Wrenches />
