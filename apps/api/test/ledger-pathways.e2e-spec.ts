@@ -184,3 +184,13 @@ describe('planning on the demo patient Wendell Achterberg (Tessely EX 4.1, heali
     expect((await stack(sites[0].siteId)).parts.map((p: { kind: string }) => p.kind)).toEqual(['prosthetic-screw']);
   });
 });
+
+describe('the Stack after a new plan on a restored site', () => {
+  it('keeps showing the delivered restoration, not the plan', async () => {
+    const harold35 = (await ctx.http.get('/api/patients').query({ search: 'LL-1001' }).set('Cookie', dentist)).body.items[0].id;
+    const sites = (await ctx.http.get(`/api/patients/${harold35}/restorable-sites`).set('Cookie', dentist)).body.items;
+    const res = await plan({ patientId: harold35, kind: 'single-crown', retention: 'cement-on-abutment', material: 'zirconia', sites: [{ siteId: sites[0].siteId, interface: 'engaging', impressionCoping: 'engaging' }] });
+    expect(res.status).toBe(201);
+    expect((await stack(sites[0].siteId)).restoration).toMatchObject({ kind: 'splinted-bridge', deliveredOn: '2012-09-20' });
+  });
+});

@@ -40,6 +40,8 @@ describe('torque entry', () => {
     expect((await logTorque({ componentInstanceId: screw, appliedNcm: 25, reason: 're-torque-at-recall', performedAt: '2099-01-01T00:00:00Z' })).body.fields).toHaveProperty('performedAt');
   });
 
+  // The demo catalogue's prosthetic screw: 25 N·cm ± 10 % [common practice, manufacturer-specific];
+  // torqueVerdict's window is inclusive at both ends [decision, docs/clinical-rules.md §6].
   it('stores the verdict against the part spec and tolerance with the rules version (25 N·cm ±10 %: 22.5–27.5 within)', async () => {
     const under = await logTorque({ componentInstanceId: screw, appliedNcm: 22, reason: 're-torque-at-recall' });
     expect(under.status).toBe(201);

@@ -31,6 +31,8 @@ describe('restorative dentist', () => {
     await page.getByLabel('Restoration', { exact: true }).selectOption('splinted-bridge');
     await page.getByLabel('Retention').selectOption('screw-to-implant');
     await page.getByLabel('Impression copings splinted together before the impression').check({ force: true }); // Blueprint draws its own indicator over the input
+    // Placement axes (0.05, 0, 1) and (−0.1, 0.02, 1): θ = arccos(u·v / |u||v|) = 8.65° [derived, clinical-checks §9].
+    await expect.poll(() => page.getByTestId('divergence').textContent()).toMatch(/15–16\s*8\.6°/);
     const site15 = page.getByTestId('planner-site-15');
     const site16 = page.getByTestId('planner-site-16');
 

@@ -116,7 +116,7 @@ export type LatestTorque = {
   performedAt: Date;
 };
 
-/** The restoration on this site now (delivered or planned, not removed). */
+/** The restoration on this site now: the delivered one, else the current plan (not amended, not removed). */
 export async function findCurrentRestoration(db: Db, siteId: string) {
   const [row] = await db
     .select({
@@ -129,8 +129,16 @@ export async function findCurrentRestoration(db: Db, siteId: string) {
     })
     .from(restorationSites)
     .innerJoin(restorations, eq(restorations.id, restorationSites.restorationId))
-    .where(and(eq(restorationSites.siteId, siteId), ne(restorations.status, 'removed')))
-    .orderBy(desc(restorations.createdAt))
+    .where(
+      and(
+        eq(restorationSites.siteId, siteId),
+        ne(restorations.status, 'removed'),
+        // An amended plan is replaced by its amendment.
+        sql`not exists (select 1 from ${restorations} r2 where r2.supersedes_id = ${restorations.id})`,
+      ),
+    )
+    // What is in the mouth comes before what is only planned; then the newest.
+    .orderBy(sql`(${restorations.status} = 'delivered') desc`, desc(restorations.deliveredOn), desc(restorations.createdAt))
     .limit(1);
   if (!row) return null;
   const spans = await db

@@ -14,6 +14,7 @@ import { useAmendPlan, useCatalogue, useRestorableSites, useRestorations, useSav
 import { FindingsPanel } from '../components/findings-panel';
 import { emptySitePlan, initialPlan, liveFindings, type PlanState, stateFromRestoration, toBody } from '../components/plan-state';
 import { SitePlanFields } from '../components/site-plan-fields';
+import { DivergenceTable } from '../components/divergence-table';
 import { KIND_LABEL, MATERIAL_LABEL, RETENTION_LABEL } from '../components/planner-labels';
 
 /**
@@ -164,6 +165,13 @@ function PlannerForm({ patientId, restorable: all, catalogue, amending }: { pati
         </div>
         <aside className="planner__side">
           <FindingsPanel findings={findings} acknowledged={state.acknowledged} onAcknowledge={(k, on) => update({ acknowledged: on ? [...state.acknowledged, k] : state.acknowledged.filter((x) => x !== k) })} />
+          <DivergenceTable
+            system={system}
+            axes={state.sites.map((p, i) => {
+              const typed = p.axis.every((v) => v.trim() !== '') ? (p.axis.map(Number) as [number, number, number]) : null;
+              return { fdi: chosen[i]!.fdi, axis: typed ?? chosen[i]!.axis };
+            })}
+          />
           <Callout intent="warning" icon="info-sign" compact className="planner-caution">{catalogue.caution}</Callout>
           {formError && <Callout intent="danger" role="alert" compact data-testid="plan-error">{formError}</Callout>}
           {amending && (
