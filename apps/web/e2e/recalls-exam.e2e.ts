@@ -11,7 +11,8 @@ beforeAll(async () => {
 });
 afterAll(() => h.close());
 
-const unexpectedProblems = () => h.problems.filter((p) => !/Failed to load resource: the server responded with a status of (401|404)/.test(p));
+// 401 (signed out), 404, and the 400 the amendment test provokes on purpose (a missing reason) are expected replies.
+const unexpectedProblems = () => h.problems.filter((p) => !/Failed to load resource: the server responded with a status of (400|401|404)/.test(p));
 
 describe('hygienist', () => {
   it('works the Recall desk: overdue filter, sort, and opens the exam form', async () => {
@@ -87,6 +88,30 @@ describe('hygienist', () => {
     // The Arch ring now carries the status and the exam date.
     await page.getByRole('link', { name: /Arch of Wendell/ }).click();
     await expect.poll(() => page.getByTestId('arch-cell-15').getAttribute('aria-label')).toMatch(/^15, implant placed, peri-implant mucositis, last exam /);
+    expect(unexpectedProblems()).toEqual([]);
+  });
+});
+
+describe('hygienist amending', () => {
+  it("amends Harold's last exam at 37: the values load, the status is recomputed, the reason is required", async () => {
+    const page = await h.newPage();
+    await signInAs(page, 'priya.sandhu@larkspur.example');
+    await page.goto('/recalls');
+    await page.getByTestId('recall-desk-table').locator('tr', { hasText: 'Harold Whitcombe' }).getByRole('link', { name: 'Record exam' }).click();
+    await page.getByTestId('exam-site-37').getByRole('button', { name: /^Amend the exam of/ }).click();
+    const form = page.getByTestId('amend-form');
+    await expect.poll(() => form.isVisible()).toBe(true);
+    expect(await page.getByLabel('37 mesiobuccal probing depth').inputValue()).toBe('3');
+    await expect.poll(() => page.getByTestId('live-status-37').textContent()).toContain('peri-implant health');
+    await page.getByLabel('37 lingual bleeding on probing').check();
+    await expect.poll(() => page.getByTestId('live-status-37').textContent()).toContain('peri-implant mucositis');
+    await page.getByRole('button', { name: 'Save amendment' }).click();
+    await expect.poll(() => form.textContent()).toContain('say why the exam is amended');
+    await page.getByLabel('Why is it amended?').fill('Bleeding at the lingual site was not entered.');
+    await page.getByRole('button', { name: 'Save amendment' }).click();
+    const done = page.getByTestId('exam-amended');
+    await expect.poll(() => done.isVisible()).toBe(true);
+    expect(await done.textContent()).toContain('peri-implant mucositis');
     expect(unexpectedProblems()).toEqual([]);
   });
 });

@@ -1,12 +1,14 @@
 // Fetchers, query options and hooks of the recall routes (one contract each, from @torquetrail/contracts).
 import {
   CreateVisitReply,
+  RecallExam,
   ExamContext,
   RecallDeskReply,
   RecallPolicyReply,
   ReminderLogReply,
   RunRemindersReply,
   SiteExamHistory,
+  type AmendExamBody,
   type CreateVisitBody,
   type RecallDeskQuery,
   type RecallPolicyBody,
@@ -84,6 +86,19 @@ export function useRunReminders() {
     onSuccess: () => {
       void client.invalidateQueries({ queryKey: ['recalls', 'reminders'] });
       setTimeout(() => void client.invalidateQueries({ queryKey: ['recalls', 'reminders'] }), 3000);
+    },
+  });
+}
+
+export function useAmendExam() {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: ({ examId, body }: { examId: string; body: AmendExamBody }) =>
+      apiRequest(`/api/recalls/exams/${encodeURIComponent(examId)}/amend`, { method: 'POST', body, schema: RecallExam }),
+    onSuccess: () => {
+      void client.invalidateQueries({ queryKey: ['recalls'] });
+      void client.invalidateQueries({ queryKey: ['patients'] });
+      void client.invalidateQueries({ queryKey: ['sites'] });
     },
   });
 }

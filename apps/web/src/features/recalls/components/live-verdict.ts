@@ -75,3 +75,24 @@ export const FLAG_TEXT: Record<string, string> = {
   [PERI_IMPLANT_FLAGS.BONE_LEVEL_MISSING]: 'No bone level: bone loss cannot be judged',
   [PERI_IMPLANT_FLAGS.BONE_LOSS_WITHOUT_INFLAMMATION]: 'Bone loss without inflammation: review the radiograph',
 };
+
+/** A draft filled from a saved exam, for an amendment. */
+export function draftFromExam(exam: RecallExam): SiteDraft {
+  const byPosition = new Map(exam.sites.map((s) => [s.position, s]));
+  const at = (i: number) => byPosition.get(PROBING_POSITIONS[i]!)!;
+  const text = (n: number | null) => (n === null ? '' : String(n));
+  return {
+    include: true,
+    depths: PROBING_POSITIONS.map((_, i) => String(at(i).probingDepthMm)),
+    bop: PROBING_POSITIONS.map((_, i) => at(i).bleeding),
+    sup: PROBING_POSITIONS.map((_, i) => at(i).suppuration),
+    mobility: exam.mobility,
+    plaqueIndex: text(exam.plaqueIndex),
+    bleedingIndex: text(exam.bleedingIndex),
+    keratinizedMucosaMm: text(exam.keratinizedMucosaMm),
+    residualCement: exam.residualCement,
+    boneLevelMm: text(exam.boneLevelMm),
+    isBaseline: exam.isBaseline,
+    notes: exam.notes ?? '',
+  };
+}

@@ -1,4 +1,4 @@
-import { Card, Checkbox, Classes, FormGroup, HTMLSelect, InputGroup, Tag, TextArea } from '@blueprintjs/core';
+import { Button, Card, Checkbox, Classes, FormGroup, HTMLSelect, InputGroup, Tag, TextArea } from '@blueprintjs/core';
 import { PROBING_POSITIONS, type ExamContext, type RecallExam } from '@torquetrail/contracts';
 import { formatDate } from '../../../lib/dates';
 import { MaintenanceStatusLabel } from '../../../lib/maintenance-status';
@@ -36,7 +36,23 @@ function ExamSummary({ label, exam }: { label: string; exam: RecallExam | null }
 }
 
 /** One implant's exam: the six-site probing grid (depths first, in chart order), indices, and the live status. */
-export function SiteExamCard({ site, draft, onChange, errors }: { site: Site; draft: SiteDraft; onChange: (next: SiteDraft) => void; errors: Record<string, string> }) {
+export function SiteExamCard({
+  site,
+  draft,
+  onChange,
+  errors,
+  onAmendPrevious,
+  amending = false,
+}: {
+  site: Site;
+  draft: SiteDraft;
+  onChange: (next: SiteDraft) => void;
+  errors: Record<string, string>;
+  /** Offered when the previous exam may be amended (hygienist). */
+  onAmendPrevious?: () => void;
+  /** The card edits an amendment of the previous exam rather than a new exam. */
+  amending?: boolean;
+}) {
   const fdi = site.fdi;
   const verdict = draft.include ? liveVerdict(draft, site.baseline) : null;
   const set = <K extends keyof SiteDraft>(key: K, value: SiteDraft[K]) => onChange({ ...draft, [key]: value });
@@ -48,7 +64,7 @@ export function SiteExamCard({ site, draft, onChange, errors }: { site: Site; dr
       <h3>
         Implant {fdi} <Tag minimal>{site.status}</Tag>
       </h3>
-      <Checkbox checked={draft.include} onChange={(e) => set('include', e.currentTarget.checked)} label={`Examine ${fdi} in this visit`} />
+      {!amending && <Checkbox checked={draft.include} onChange={(e) => set('include', e.currentTarget.checked)} label={`Examine ${fdi} in this visit`} />}
       {draft.include && (
         <div className="exam-site__layout">
           <div>
@@ -162,6 +178,11 @@ export function SiteExamCard({ site, draft, onChange, errors }: { site: Site; dr
               <ExamSummary label="Baseline" exam={site.baseline} />
               <ExamSummary label="Previous exam" exam={site.previous} />
             </dl>
+            {onAmendPrevious && site.previous && !amending && (
+              <Button size="small" icon="edit" onClick={onAmendPrevious}>
+                Amend the exam of {formatDate(site.previous.examinedOn)}
+              </Button>
+            )}
           </div>
         </div>
       )}
