@@ -1,7 +1,7 @@
 // The exam form's live status uses the domain's classifyPeriImplant (Berglundh et al. 2018
 // consensus report); these check the form's wiring: parsing, completeness, the baseline used.
 import { describe, expect, it } from 'vitest';
-import { depthProblem, emptyDraft, liveVerdict, parseMm } from './live-verdict';
+import { depthProblem, draftFromExam, emptyDraft, liveVerdict, parseMm } from './live-verdict';
 
 const filled = (depths: string[], bop: number[] = []) => ({ ...emptyDraft(), depths, bop: depths.map((_, i) => bop.includes(i)) });
 
@@ -29,5 +29,20 @@ describe('live verdict of the exam form', () => {
     expect(v.state === 'ready' && [v.result.status, v.usedBaseline]).toEqual(['peri-implantitis', true]);
     const asBaseline = liveVerdict({ ...draft, isBaseline: true }, baseline);
     expect(asBaseline.state === 'ready' && asBaseline.usedBaseline).toBe(false);
+  });
+});
+
+describe('an amendment starts from the saved exam', () => {
+  it('loads depths in chart order whatever order the sites came in, and the other fields as text', () => {
+    const positions = ['lingual', 'mesiobuccal', 'distolingual', 'buccal', 'mesiolingual', 'distobuccal'] as const;
+    const depth = { mesiobuccal: 1, buccal: 2, distobuccal: 3, mesiolingual: 4, lingual: 5, distolingual: 6 };
+    const exam = {
+      sites: positions.map((position) => ({ position, probingDepthMm: depth[position], bleeding: position === 'buccal', suppuration: false })),
+      mobility: false, plaqueIndex: 1, bleedingIndex: null, keratinizedMucosaMm: 2.5, residualCement: true, boneLevelMm: null, isBaseline: false, notes: null,
+    } as never;
+    const draft = draftFromExam(exam);
+    expect(draft.depths).toEqual(['1', '2', '3', '4', '5', '6']);
+    expect(draft.bop).toEqual([false, true, false, false, false, false]);
+    expect([draft.plaqueIndex, draft.bleedingIndex, draft.keratinizedMucosaMm, draft.boneLevelMm, draft.notes, draft.residualCement]).toEqual(['1', '', '2.5', '', '', true]);
   });
 });
