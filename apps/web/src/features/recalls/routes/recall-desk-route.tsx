@@ -6,6 +6,7 @@ import { Can } from '../../../lib/ability';
 import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
 import { formatDate } from '../../../lib/dates';
+import { MAINTENANCE_NOTE } from '../../../lib/labels';
 import { MaintenanceStatusLabel } from '../../../lib/maintenance-status';
 import { deskSearch, useRecallDesk, type DeskParams } from '../api/recalls-api';
 
@@ -55,6 +56,7 @@ export function RecallDeskRoute() {
     <div className="recall-desk">
       <title>Recall desk · Torquetrail</title>
       <h1 className="page-title">Recall desk</h1>
+      <p className="recall-desk__note">Last status per implant: {MAINTENANCE_NOTE}</p>
       <div className="recall-desk__controls">
         <FormGroup label="Show" labelFor="desk-filter">
           <HTMLSelect id="desk-filter" data-testid="desk-filter" value={params.filter} onChange={(e) => set({ filter: e.currentTarget.value })}>
