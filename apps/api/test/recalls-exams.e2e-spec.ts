@@ -242,6 +242,18 @@ describe('the Recall desk', () => {
     expect(page.total).toBe(5);
   });
 
+  it('sorts by name, by overdue days (most overdue first) and by last exam, in SQL', async () => {
+    const names = (await desk({ sort: 'name' })).items.map((r) => r.chartNumber);
+    expect(names).toEqual(['LL-1005', 'LL-1002', 'LL-1004', 'LL-1003', 'LL-1001']); // Achterberg, Farrow, Ferraz, Okafor, Whitcombe
+    const byName = (await desk({ sort: 'name', dir: 'desc' })).items.map((r) => r.chartNumber);
+    expect(byName).toEqual([...names].reverse());
+    const overdue = (await desk({ sort: 'overdueDays', dir: 'desc' })).items;
+    expect(overdue[0]!.chartNumber).toBe('LL-1002');
+    const lastExam = (await desk({ sort: 'lastExamOn', dir: 'desc' })).items as unknown as { lastExamOn: string | null }[];
+    const dates = lastExam.map((r) => r.lastExamOn).filter(Boolean) as string[];
+    expect(dates).toEqual([...dates].sort().reverse());
+  });
+
   it('exports the same rows as CSV', async () => {
     const res = await ctx.http.get('/api/recalls/desk/csv').query({ filter: 'overdue' }).set('Cookie', cookies.hygienist);
     expect(res.status).toBe(200);
