@@ -26,6 +26,9 @@ export function AddComponentForm({ platformId }: { platformId: string }) {
   const [torque, setTorque] = useState<number | null>(null);
   const [tol, setTol] = useState(10);
   const [lot, setLot] = useState(true);
+  const [angle, setAngle] = useState<number | null>(null);
+  const [collar, setCollar] = useState<number | null>(null);
+  const [tray, setTray] = useState<'' | 'open' | 'closed'>('');
   const f = fieldsOf(save.error);
   return (
     <Toggle label="Add part">
@@ -34,7 +37,7 @@ export function AddComponentForm({ platformId }: { platformId: string }) {
           aria-label="Add part"
           onSubmit={(e: FormEvent) => {
             e.preventDefault();
-            save.mutate({ body: { platformId, kind, name, referenceCode: ref, engaging: engaging === '' ? null : engaging === 'yes', torqueSpecNcm: torque, tolerancePct: tol, requiresLot: lot } }, { onSuccess: close });
+            save.mutate({ body: { platformId, kind, name, referenceCode: ref, engaging: engaging === '' ? null : engaging === 'yes', torqueSpecNcm: torque, tolerancePct: tol, requiresLot: lot, angleDeg: angle, collarHeightMm: collar, tray: tray || null } }, { onSuccess: close });
           }}
         >
           <FormGroup label="Kind" labelFor={`${uid}-kind`} inline><HTMLSelect id={`${uid}-kind`} value={kind} onChange={(e) => setKind(e.currentTarget.value as ComponentKind)}>{KINDS.map((k) => <option key={k}>{k}</option>)}</HTMLSelect></FormGroup>
@@ -43,6 +46,9 @@ export function AddComponentForm({ platformId }: { platformId: string }) {
           <FormGroup label="Engaging" labelFor={`${uid}-engaging`} inline><HTMLSelect id={`${uid}-engaging`} value={engaging} onChange={(e) => setEngaging(e.currentTarget.value as '' | 'yes' | 'no')}><option value="">does not apply</option><option value="yes">engaging</option><option value="no">non-engaging</option></HTMLSelect></FormGroup>
           <FormGroup label="Torque (N·cm, empty = hand-tight)" labelFor={`${uid}-torque-n-cm-empty-hand-tight`} inline {...helper(f, 'torqueSpecNcm')}><NumericInput id={`${uid}-torque-n-cm-empty-hand-tight`} min={1} max={100} value={torque ?? ''} onValueChange={(v) => setTorque(Number.isFinite(v) ? v : null)} /></FormGroup>
           <FormGroup label="Tolerance (%)" labelFor={`${uid}-tolerance`} inline {...helper(f, 'tolerancePct')}><NumericInput id={`${uid}-tolerance`} min={0} max={50} value={tol} onValueChange={setTol} /></FormGroup>
+          <FormGroup label="Angle (°)" labelFor={`${uid}-angle`} inline {...helper(f, 'angleDeg')}><NumericInput id={`${uid}-angle`} min={0} max={45} value={angle ?? ''} onValueChange={(v) => setAngle(Number.isFinite(v) ? v : null)} /></FormGroup>
+          <FormGroup label="Collar height (mm)" labelFor={`${uid}-collar`} inline {...helper(f, 'collarHeightMm')}><NumericInput id={`${uid}-collar`} min={0} max={10} stepSize={0.5} value={collar ?? ''} onValueChange={(v) => setCollar(Number.isFinite(v) ? v : null)} /></FormGroup>
+          <FormGroup label="Impression tray" labelFor={`${uid}-tray`} inline><HTMLSelect id={`${uid}-tray`} value={tray} onChange={(e) => setTray(e.currentTarget.value as '' | 'open' | 'closed')}><option value="">does not apply</option><option value="open">open tray</option><option value="closed">closed tray</option></HTMLSelect></FormGroup>
           <Checkbox label="Lot number required when delivered" checked={lot} onChange={(e) => setLot(e.currentTarget.checked)} />
           <Button type="submit" intent="primary" small text="Add part" loading={save.isPending} /> <Button small variant="minimal" text="Cancel" onClick={close} />
         </form>
