@@ -193,4 +193,25 @@ describe('the Stack after a new plan on a restored site', () => {
     expect(res.status).toBe(201);
     expect((await stack(sites[0].siteId)).restoration).toMatchObject({ kind: 'splinted-bridge', deliveredOn: '2012-09-20' });
   });
+
+  it('delivering a new crown on 35 retires the 35–37 bridge: it is removed, its screws come out, its history stays', async () => {
+    const pid = (await ctx.http.get('/api/patients').query({ search: 'LL-1001' }).set('Cookie', dentist)).body.items[0].id;
+    const [s35, s37] = (await ctx.http.get(`/api/patients/${pid}/restorable-sites`).set('Cookie', dentist)).body.items;
+    const part = await parts(ctx.db, practiceId, 'Solvra CN 4.3');
+    const crown = await plan({ patientId: pid, kind: 'single-crown', retention: 'cement-on-abutment', material: 'zirconia', sites: [{ siteId: s35.siteId, interface: 'engaging', impressionCoping: 'engaging', abutmentComponentId: part('CA'), screwComponentIds: [part('AS')] }] });
+    expect(crown.status).toBe(201);
+    const delivered = await deliver(crown.body.id, { deliveredOn: '2026-11-25', parts: [{ siteId: s35.siteId, componentId: part('CA'), lot: 'CA-9' }, { siteId: s35.siteId, componentId: part('AS'), lot: 'AS-9' }] });
+    expect(delivered.status).toBe(200);
+    const at35 = await stack(s35.siteId);
+    expect(at35.restoration).toMatchObject({ kind: 'single-crown', retention: 'cement-on-abutment' });
+    expect(at35.parts.map((p: { kind: string }) => p.kind)).toEqual(['abutment-custom', 'abutment-screw']);
+    const at37 = await stack(s37.siteId);
+    expect(at37.restoration).toBeNull();
+    expect(at37.parts).toEqual([]);
+    const list = (await ctx.http.get(`/api/patients/${pid}/restorations`).set('Cookie', dentist)).body.items;
+    expect(list.find((r: { kind: string }) => r.kind === 'splinted-bridge').status).toBe('removed');
+    const timeline = (await ctx.http.get(`/api/sites/${s37.siteId}/timeline?kinds=part,torque`).set('Cookie', dentist)).body;
+    expect(timeline.events.filter((e: { title: string }) => e.title.startsWith('Removed: Prosthetic screw'))).toHaveLength(1);
+    expect(timeline.events.filter((e: { kind: string }) => e.kind === 'torque').length).toBeGreaterThan(3);
+  });
 });

@@ -2,7 +2,7 @@ import { ConflictException, Inject, Injectable } from '@nestjs/common';
 import { type AppAbility, subject } from '@torquetrail/authz';
 import type { DeliveryBody, PlanAmendmentBody, PlanBody, RestorableSitesReply, RestorationDetail, RestorationListReply } from '@torquetrail/contracts';
 import { RULES_VERSION, fdiToUniversal } from '@torquetrail/domain';
-import { and, eq, inArray, isNull } from 'drizzle-orm';
+import { and, eq, inArray, isNull, ne, or } from 'drizzle-orm';
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
@@ -18,6 +18,36 @@ type DeliveryInput = z.output<typeof DeliveryBody>;
 
 /** Parts the delivery replaces: what sat on the implant while it healed. */
 const HEALING_KINDS = ['healing-abutment', 'cover-screw'] as const;
+/** Parts that hold a restoration itself; they come out with it at every site it spans. */
+const RETAINING_KINDS = ['prosthetic-screw', 'set-screw'] as const;
+
+/**
+ * A new restoration delivered on a site replaces the one delivered there before [decision: a
+ * splinted restoration comes out as a whole]. The old one becomes 'removed' (its row and history
+ * stay); its parts at the re-restored sites, and its retaining screws at its other sites, get
+ * removedOn. Abutments and multi-units at its other sites stay in place.
+ */
+async function retirePreviousRestorations(tx: Tx, restorationId: string, siteIds: string[], on: string) {
+  const previous = await tx
+    .selectDistinct({ id: restorations.id })
+    .from(restorations)
+    .innerJoin(restorationSites, eq(restorationSites.restorationId, restorations.id))
+    .where(and(inArray(restorationSites.siteId, siteIds), eq(restorations.status, 'delivered'), ne(restorations.id, restorationId)));
+  if (previous.length === 0) return;
+  const ids = previous.map((p) => p.id);
+  await tx.update(restorations).set({ status: 'removed' }).where(inArray(restorations.id, ids));
+  const retaining = tx.select({ id: components.id }).from(components).where(inArray(components.kind, [...RETAINING_KINDS]));
+  await tx
+    .update(componentInstances)
+    .set({ removedOn: on })
+    .where(
+      and(
+        inArray(componentInstances.restorationId, ids),
+        isNull(componentInstances.removedOn),
+        or(inArray(componentInstances.siteId, siteIds), inArray(componentInstances.componentId, retaining)),
+      ),
+    );
+}
 
 @Injectable()
 export class RestorationsService {
@@ -167,6 +197,7 @@ export class RestorationsService {
       if (healing.length > 0) {
         await tx.update(componentInstances).set({ removedOn: body.deliveredOn }).where(inArray(componentInstances.id, healing.map((h) => h.id)));
       }
+      await retirePreviousRestorations(tx, row.id, siteIds, body.deliveredOn);
       await tx.insert(componentInstances).values(
         body.parts.map((p) => ({
           practiceId: row.practiceId,
