@@ -69,6 +69,17 @@ describe('restorative dentist', () => {
     expect(await card.textContent()).toMatch(/Amendment: Shade chosen at try-in/);
     expect(await page.getByTestId('restoration-card').nth(1).textContent()).toMatch(/amended/);
     await expect.poll(() => card.getAttribute('data-status')).toBe('planned');
+
+    // The lab prescription: generated on the server, listed with a download link serving the PDF.
+    await card.getByTestId('make-lab-pdf').click();
+    await expect.poll(() => card.getByTestId('lab-pdf-link').count()).toBe(1);
+    const href = await card.getByTestId('lab-pdf-link').getAttribute('href');
+    const pdf = await page.evaluate(async (url) => {
+      const r = await fetch(url!);
+      return { type: r.headers.get('content-type'), head: new TextDecoder().decode((await r.arrayBuffer()).slice(0, 5)) };
+    }, href);
+    expect(pdf).toEqual({ type: 'application/pdf', head: '%PDF-' });
+
     await card.getByTestId('deliver-button').click();
     // The lot is required by the catalogue: leaving one empty is refused beside the field, nothing saved.
     await card.getByLabel('Lot of Prosthetic screw, implant level at 15').fill('TEX-PSI-2612');
