@@ -73,7 +73,10 @@ export function toBody(patientId: string, state: PlanState, catalogue: Map<strin
     dueOn: state.dueOn || null,
     notes: state.notes || null,
     sites: state.sites.map((s) => {
-      const mua = catalogue.get(s.multiUnitComponentId);
+      // Only the slots the retention uses are sent (a part chosen under another retention is dropped).
+      const onMua = state.retention === 'screw-to-multi-unit';
+      const onAbutment = state.retention === 'cement-on-abutment' || state.retention === 'lingual-set-screw';
+      const mua = onMua ? catalogue.get(s.multiUnitComponentId) : undefined;
       const angle = mua?.angleDeg;
       return {
         siteId: s.siteId,
@@ -82,8 +85,8 @@ export function toBody(patientId: string, state: PlanState, catalogue: Map<strin
         multiUnitAngleDeg: angle === 0 || angle === 17 || angle === 30 ? angle : null,
         restorativeSpaceMm: num(s.restorativeSpaceMm),
         axis: enteredAxis(s.axis),
-        abutmentComponentId: s.abutmentComponentId || null,
-        multiUnitComponentId: s.multiUnitComponentId || null,
+        abutmentComponentId: (onAbutment && s.abutmentComponentId) || null,
+        multiUnitComponentId: (onMua && s.multiUnitComponentId) || null,
         screwComponentIds: s.screwComponentIds,
         impressionCopingComponentId: s.impressionCopingComponentId || null,
       };
