@@ -43,11 +43,11 @@ export function AppShell({ me, onSignOut, signingOut, signOutError }: AppShellPr
               >
                 Patients
               </NavLink>
-              <NavLink to="/catalogue" className={({ isActive }) => `${Classes.BUTTON} ${Classes.MINIMAL}${isActive ? ` ${Classes.ACTIVE}` : ''}`}>
-                Catalogue
-              </NavLink>
               <NavLink to="/recalls" className={({ isActive }) => `${Classes.BUTTON} ${Classes.MINIMAL}${isActive ? ` ${Classes.ACTIVE}` : ''}`}>
                 Recall desk
+              </NavLink>
+              <NavLink to="/catalogue" className={({ isActive }) => `${Classes.BUTTON} ${Classes.MINIMAL}${isActive ? ` ${Classes.ACTIVE}` : ''}`}>
+                Catalogue
               </NavLink>
             </nav>
           </NavbarGroup>

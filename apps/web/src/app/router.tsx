@@ -36,6 +36,18 @@ export const router = createBrowserRouter([
             }),
           },
           {
+            path: 'patients/:patientId/restorations',
+            lazy: async () => ({ Component: (await import('../features/planner/routes/restorations-route')).RestorationsRoute }),
+          },
+          {
+            path: 'patients/:patientId/restorations/new',
+            lazy: async () => ({ Component: (await import('../features/planner/routes/planner-route')).PlannerRoute }),
+          },
+          {
+            path: 'catalogue',
+            lazy: async () => ({ Component: (await import('../features/catalogue/routes/catalogue-route')).CatalogueRoute }),
+          },
+          {
             path: 'recalls',
             lazy: async () => ({ Component: (await import('../features/recalls/routes/recall-desk-route')).RecallDeskRoute }),
           },
@@ -50,18 +62,6 @@ export const router = createBrowserRouter([
           {
             path: 'recalls/reminders',
             lazy: async () => ({ Component: (await import('../features/recalls/routes/reminder-log-route')).ReminderLogRoute }),
-          },
-          {
-            path: 'patients/:patientId/restorations',
-            lazy: async () => ({ Component: (await import('../features/planner/routes/restorations-route')).RestorationsRoute }),
-          },
-          {
-            path: 'patients/:patientId/restorations/new',
-            lazy: async () => ({ Component: (await import('../features/planner/routes/planner-route')).PlannerRoute }),
-          },
-          {
-            path: 'catalogue',
-            lazy: async () => ({ Component: (await import('../features/catalogue/routes/catalogue-route')).CatalogueRoute }),
           },
           { path: '*', element: <NotFoundRoute /> },
         ],
