@@ -59,7 +59,7 @@ export const ledgerRoutes: RouteContract[] = [
   r('post', '/restorations', 'Save a restoration plan; error Findings block it, warnings need acknowledgement', { body: PlanBody, reply: RestorationDetail }),
   r('get', '/restorations/:id', 'One restoration with its sites, parts, Findings and lab prescriptions', { reply: RestorationDetail }),
   r('post', '/restorations/:id/amendments', 'Amend a planned restoration: a new version superseding this one', { body: PlanAmendmentBody, reply: RestorationDetail }),
-  r('post', '/restorations/:id/delivery', 'Deliver: record each part with its lot, in one transaction; sites become restored', { body: DeliveryBody, reply: RestorationDetail }),
+  r('post', '/restorations/:id/delivery', 'Deliver: record each part with its lot, in one transaction; sites become restored', { body: DeliveryBody, reply: RestorationDetail, status: 200 }),
   r('post', '/restorations/:id/lab-prescriptions', 'Generate the lab prescription PDF, store it and optionally e-mail it to the lab', { body: LabPrescriptionBody, reply: LabPrescriptionSummary }),
   r('get', '/lab-prescriptions/:id/pdf', 'Download a lab prescription', { produces: 'application/pdf' }),
   r('post', '/torque-events', 'Log a torque on a part; the verdict is computed and stored with the rules version', { body: TorqueBody, reply: TorqueEvent }),

@@ -241,6 +241,6 @@ export const recallRoutes: RouteContract[] = [
   { method: 'get', path: '/recalls/sites/:id/exams', summary: "A site's exam history (probing depths and computed status over the years)", signedIn: true, reply: SiteExamHistory },
   { method: 'get', path: '/recalls/policy', summary: "The practice's recall and reminder policy", signedIn: true, reply: RecallPolicyReply },
   { method: 'put', path: '/recalls/policy', summary: "Change the practice's recall and reminder policy (practice admin)", signedIn: true, body: RecallPolicyBody, reply: RecallPolicyReply },
-  { method: 'post', path: '/recalls/reminders/run', summary: 'Run the daily reminder scan now (practice admin): logs and queues the reminders that are due', signedIn: true, body: RunRemindersBody, reply: RunRemindersReply },
+  { method: 'post', path: '/recalls/reminders/run', status: 200, summary: 'Run the daily reminder scan now (practice admin): logs and queues the reminders that are due', signedIn: true, body: RunRemindersBody, reply: RunRemindersReply },
   { method: 'get', path: '/recalls/reminders', summary: 'The reminder log of the practice (practice admin)', signedIn: true, reply: ReminderLogReply },
 ];

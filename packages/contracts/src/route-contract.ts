@@ -12,6 +12,8 @@ export interface RouteContract {
   reply?: z.ZodType;
   /** Status of a success without a body. */
   noContent?: boolean;
+  /** Success status when it is not the usual one (201 for POST, 200 otherwise). */
+  status?: 200 | 201;
   /** A reply that is not JSON (e.g. application/pdf, text/csv). */
   produces?: string;
 }

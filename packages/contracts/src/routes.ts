@@ -10,7 +10,7 @@ import { SiteFile } from './sites.js';
 /** Every API route, for the OpenAPI document and the test that checks nothing is left out. */
 export const apiRoutes: RouteContract[] = [
   { method: 'get', path: '/health', summary: 'Database, object storage and mail: up or down', signedIn: false, reply: HealthReply },
-  { method: 'post', path: '/auth/sign-in', summary: 'Sign in with e-mail and password; sets the HttpOnly session cookie', signedIn: false, body: SignInBody, reply: Me },
+  { method: 'post', path: '/auth/sign-in', summary: 'Sign in with e-mail and password; sets the HttpOnly session cookie', signedIn: false, status: 200, body: SignInBody, reply: Me },
   { method: 'post', path: '/auth/sign-out', summary: 'Sign out: clears the session cookie', signedIn: false, noContent: true },
   { method: 'get', path: '/auth/me', summary: 'The signed-in user, their role, practice and shares', signedIn: true, reply: Me },
   { method: 'get', path: '/patients', summary: "Patients of the user's practice and those shared with them", signedIn: true, query: PatientListQuery, reply: PatientListReply },

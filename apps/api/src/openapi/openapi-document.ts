@@ -13,6 +13,7 @@ export function buildOpenApiDocument() {
       ? Object.entries((jsonSchema(route.query) as { properties?: Record<string, unknown> }).properties ?? {}).map(([name, schema]) => ({ name, in: 'query', required: false, schema }))
       : [];
     const error = { description: 'Error', content: { 'application/json': { schema: jsonSchema(ErrorReply) } } };
+    const success = route.status ?? (route.method === 'post' ? 201 : 200);
     paths[openApiPath] ??= {};
     paths[openApiPath][route.method] = {
       summary: route.summary,
@@ -22,7 +23,9 @@ export function buildOpenApiDocument() {
       responses: {
         ...(route.noContent
           ? { 204: { description: 'Done' } }
-          : { 200: { description: 'OK', content: route.reply ? { 'application/json': { schema: jsonSchema(route.reply) } } : {} } }),
+          : route.produces
+            ? { [success]: { description: 'OK', content: { [route.produces]: { schema: { type: 'string', format: 'binary' } } } } }
+            : { [success]: { description: 'OK', content: route.reply ? { 'application/json': { schema: jsonSchema(route.reply) } } : {} } }),
         ...(route.body || route.query ? { 400: error } : {}),
         ...(route.signedIn ? { 401: error, 403: error, 404: error } : {}),
       },

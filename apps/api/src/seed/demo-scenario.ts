@@ -231,7 +231,7 @@ export async function seedDemoScenario(tx: Tx, today: string): Promise<{ summary
   const lcrown = await restoration(ctx, { patientId: lucia, kind: 'single-crown', retention: 'lingual-set-screw', material: 'zirconia', shade: 'B1', impressionOn: '2020-02-10', deliveredOn: '2020-03-09', sites: [{ siteId: l14, interface: 'engaging', coping: 'engaging', spaceMm: 8 }] });
   await install(ctx, { patientId: lucia, siteId: l14, restorationId: lcrown, platform: 'SCN-3.5', part: 'stock-abutment', lot: 'SA-2002-310', installedOn: '2020-03-09' });
   await install(ctx, { patientId: lucia, siteId: l14, restorationId: lcrown, platform: 'SCN-3.5', part: 'abutment-screw', lot: 'AS-2001-77', installedOn: '2020-03-09', torque: seated('2020-03-09', 25) });
-  await install(ctx, { patientId: lucia, siteId: l14, restorationId: lcrown, platform: 'SCN-3.5', part: 'set-screw', lot: 'LSS-2001-05', installedOn: '2020-03-09', torque: [['2020-03-09', '10:30', 10, 'initial-seating']] });
+  await install(ctx, { patientId: lucia, siteId: l14, restorationId: lcrown, platform: 'SCN-3.5', part: 'set-screw', lot: 'LSS-2001-05', installedOn: '2020-03-09', torque: [['2020-03-09', '10:30', 10, 'initial-seating'], ['2020-03-09', '10:41', 10, 're-torque-after-settling']] });
 
   // 5. Wendell Achterberg: 15 and 16 placed seven weeks ago, healing abutments on.
   const wendell = await addPatient(tx, ctx.practiceId, { chartNumber: 'LL-1005', givenName: 'Wendell', familyName: 'Achterberg', birthDate: birthDate(today, 63, '11-11'), email: 'wendell.achterberg@mail.example', missingTeeth: [17, 18] });

@@ -1,7 +1,8 @@
 import '../components/arch.css';
-import { NonIdealState } from '@blueprintjs/core';
+import { Classes, NonIdealState } from '@blueprintjs/core';
 import { isPrimaryTooth, TOOTH_POSITIONS_PERMANENT, TOOTH_POSITIONS_PRIMARY } from '@torquetrail/domain';
 import { Link, useNavigate, useParams } from 'react-router-dom';
+import { Can } from '../../../lib/ability';
 import { isApiError } from '../../../lib/api-client';
 import { BreadcrumbTrail } from '../../../lib/components/breadcrumb-trail';
 import { ErrorState } from '../../../lib/components/error-state';
@@ -49,6 +50,18 @@ export function ArchRoute() {
       <title>{`${name} · Arch · Torquetrail`}</title>
       <BreadcrumbTrail items={[{ text: 'Patients', to: '/patients' }, { text: name }]} />
       <PatientHeader patient={data} />
+      <nav className="arch-actions" aria-label="Patient actions">
+        <Can I="read" a="Restoration">
+          <Link className={`${Classes.BUTTON}`} to={`/patients/${data.id}/restorations`} data-testid="open-restorations">
+            Restorations and planner
+          </Link>
+        </Can>
+        <Can I="create" a="RecallExam">
+          <Link className={`${Classes.BUTTON} ${Classes.INTENT_PRIMARY}`} to={`/recalls/patients/${data.id}/exam`} data-testid="open-exam-form">
+            Record a recall exam
+          </Link>
+        </Can>
+      </nav>
 
       <section className="arch-section" aria-labelledby="arch-heading">
         <div className="section-heading">
