@@ -104,7 +104,7 @@ describe('restorative dentist', () => {
     await expect.poll(() => form.getByTestId('torque-live-verdict').textContent()).toBe('Within specification');
     await form.getByLabel('Wrench').selectOption({ index: 1 });
     await form.getByRole('button', { name: 'Save torque' }).click();
-    await expect.poll(() => part.textContent()).toMatch(/32 Ncm .*Within specification/);
+    await expect.poll(() => part.textContent()).toMatch(/32 N·cm .*Within specification/);
     // Re-torque reminder after the initial seating (about 10 min, Siamos et al. 2002).
     await expect.poll(() => page.getByTestId('retorque-due').count()).toBe(1);
     const torqueEvents = page.locator('[data-testid="timeline-event"][data-kind="torque"]');
@@ -121,7 +121,7 @@ describe('restorative dentist', () => {
     await expect.poll(() => torqueEvents.count()).toBe(2);
     expect(await torqueEvents.nth(0).textContent()).toMatch(/32 N·cm.*amended/);
     expect(await torqueEvents.nth(1).textContent()).toMatch(/31 N·cm.*Amendment: Misread the wrench/);
-    await expect.poll(() => part.textContent()).toMatch(/31 Ncm/);
+    await expect.poll(() => part.textContent()).toMatch(/31 N·cm/);
     // The one 400 is the delivery refused for the missing lot, above.
     expect(h.problems.filter((p) => /status of 400/.test(p))).toHaveLength(1);
     expect(unexpectedProblems(0, '400|401|404')).toEqual([]);

@@ -9,7 +9,7 @@ import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
 import { MAINTENANCE_NOTE } from '../../../lib/labels';
 import { useToothSystem } from '../../../lib/tooth-system';
-import { usePatient } from '../api/get-patient';
+import { usePatient } from '../../../lib/api/get-patient';
 import { ArchDrawing } from '../components/arch-drawing';
 import { ArchLegend } from '../components/arch-legend';
 import { NumberingSwitch } from '../components/numbering-switch';

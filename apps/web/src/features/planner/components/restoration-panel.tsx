@@ -8,7 +8,7 @@ import { formatDate, formatDateTime } from '../../../lib/dates';
 import type { ToothSystem } from '../../../lib/tooth-system';
 import { useLabPrescription } from '../api/planner-api';
 import { DeliveryForm } from './delivery-form';
-import { KIND_LABEL, MATERIAL_LABEL, RETENTION_LABEL } from './planner-labels';
+import { MATERIAL_LABEL, RESTORATION_KIND_LABEL as KIND_LABEL, RETENTION_LABEL } from '../../../lib/clinical-labels';
 
 /** One restoration: what was planned, its Findings, delivery and lab prescriptions. */
 export function RestorationPanel({ restoration: r, system, patientId }: { restoration: RestorationDetail; system: ToothSystem; patientId: string }) {

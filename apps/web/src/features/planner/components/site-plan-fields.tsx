@@ -3,6 +3,7 @@ import type { CatalogueComponent, ComponentKind, ImpressionCopingKind, Interface
 import { formatTooth } from '@torquetrail/domain';
 import type { ToothSystem } from '../../../lib/tooth-system';
 import type { SitePlan } from './plan-state';
+import { CONNECTION_LABEL } from '../../../lib/clinical-labels';
 
 const spec = (c: CatalogueComponent) => (c.torqueSpecNcm === null ? 'hand-tight' : `${c.torqueSpecNcm} N·cm ±${c.tolerancePct} %`);
 
@@ -33,7 +34,7 @@ export function SitePlanFields({ index, site, plan, retention, parts, system, er
   return (
     <fieldset className="planner-site" data-testid={`planner-site-${site.fdi}`}>
       <legend>
-        Site {label} · {site.systemName} · {site.platformName} ({site.connection})
+        Site {label} · {site.systemName} · {site.platformName} {site.connection ? ` (${CONNECTION_LABEL[site.connection]})` : ''}
       </legend>
       <div className="planner-grid">
         <FormGroup label="Interface to the implant" labelFor={id('interface')} {...err('interface')}>

@@ -15,7 +15,8 @@ import { FindingsPanel } from '../components/findings-panel';
 import { emptySitePlan, initialPlan, liveFindings, type PlanState, stateFromRestoration, toBody } from '../components/plan-state';
 import { SitePlanFields } from '../components/site-plan-fields';
 import { DivergenceTable } from '../components/divergence-table';
-import { KIND_LABEL, MATERIAL_LABEL, RETENTION_LABEL } from '../components/planner-labels';
+import { MATERIAL_LABEL, RESTORATION_KIND_LABEL as KIND_LABEL, RETENTION_LABEL } from '../../../lib/clinical-labels';
+import { usePatient } from '../../../lib/api/get-patient';
 
 /**
  * /patients/:patientId/restorations/new: the restoration planner with live Findings.
@@ -23,6 +24,8 @@ import { KIND_LABEL, MATERIAL_LABEL, RETENTION_LABEL } from '../components/plann
  */
 export function PlannerRoute() {
   const { patientId = '' } = useParams();
+  const patient = usePatient(patientId);
+  const patientName = patient.data ? `${patient.data.givenName} ${patient.data.familyName}` : 'Patient';
   const [search] = useSearchParams();
   const amendId = search.get('amend');
   const sites = useRestorableSites(patientId);
@@ -39,10 +42,10 @@ export function PlannerRoute() {
       </Callout>
     );
   }
-  return <PlannerForm key={amendId ?? 'new'} patientId={patientId} restorable={sites.data.items} catalogue={catalogue.data} amending={amending} />;
+  return <PlannerForm key={amendId ?? 'new'} patientId={patientId} patientName={patientName} restorable={sites.data.items} catalogue={catalogue.data} amending={amending} />;
 }
 
-function PlannerForm({ patientId, restorable: all, catalogue, amending }: { patientId: string; restorable: RestorableSite[]; catalogue: CatalogueReply; amending?: RestorationDetail }) {
+function PlannerForm({ patientId, patientName, restorable: all, catalogue, amending }: { patientId: string; patientName: string; restorable: RestorableSite[]; catalogue: CatalogueReply; amending?: RestorationDetail }) {
   const navigate = useNavigate();
   const [system] = useToothSystem();
   const save = useSavePlan();
@@ -99,7 +102,7 @@ function PlannerForm({ patientId, restorable: all, catalogue, amending }: { pati
   return (
     <div className="planner-page">
       <title>Restoration planner · Torquetrail</title>
-      <BreadcrumbTrail items={[{ text: 'Patients', to: '/patients' }, { text: 'Patient', to: `/patients/${patientId}` }, { text: 'Restorations', to: `/patients/${patientId}/restorations` }, { text: 'New plan' }]} />
+      <BreadcrumbTrail items={[{ text: 'Patients', to: '/patients' }, { text: patientName, to: `/patients/${patientId}` }, { text: 'Restorations', to: `/patients/${patientId}/restorations` }, { text: 'New plan' }]} />
       <h1>{amending ? 'Amend the plan' : 'Restoration planner'}</h1>
       {amending && <Callout intent="primary" compact>The saved plan stays in the record, marked as amended; this saves a new version.</Callout>}
       <form onSubmit={submit} className="planner" noValidate aria-label="Restoration plan">

@@ -8,10 +8,13 @@ import { LoadingState } from '../../../lib/components/loading-state';
 import { useToothSystem } from '../../../lib/tooth-system';
 import { useRestorations } from '../api/planner-api';
 import { RestorationPanel } from '../components/restoration-panel';
+import { usePatient } from '../../../lib/api/get-patient';
 
 /** /patients/:patientId/restorations: every restoration of the patient, amended versions included. */
 export function RestorationsRoute() {
   const { patientId = '' } = useParams();
+  const patient = usePatient(patientId);
+  const patientName = patient.data ? `${patient.data.givenName} ${patient.data.familyName}` : 'Patient';
   const [system] = useToothSystem();
   const list = useRestorations(patientId);
   if (list.isPending) return <LoadingState label="Loading restorations" />;
@@ -19,7 +22,7 @@ export function RestorationsRoute() {
   return (
     <div className="restorations-page">
       <title>Restorations · Torquetrail</title>
-      <BreadcrumbTrail items={[{ text: 'Patients', to: '/patients' }, { text: 'Patient', to: `/patients/${patientId}` }, { text: 'Restorations' }]} />
+      <BreadcrumbTrail items={[{ text: 'Patients', to: '/patients' }, { text: patientName, to: `/patients/${patientId}` }, { text: 'Restorations' }]} />
       <div className="section-heading">
         <h1>Restorations</h1>
         <Can I="create" a="Restoration">

@@ -4,7 +4,7 @@ import { formatTooth } from '@torquetrail/domain';
 import { formatDate } from '../../../lib/dates';
 import type { ToothSystem } from '../../../lib/tooth-system';
 import { FactList } from './fact-list';
-import { INTERFACE_LABEL, MATERIAL_LABEL, RESTORATION_KIND_LABEL, RETENTION_LABEL } from './labels';
+import { INTERFACE_LABEL, MATERIAL_LABEL, RESTORATION_KIND_LABEL, RETENTION_LABEL } from '../../../lib/clinical-labels';
 
 /** The outermost layer of the Stack: the restoration and how it is held. */
 export function RestorationCard({ restoration, system }: { restoration: StackRestoration; system: ToothSystem }) {

@@ -6,7 +6,7 @@ import { MAINTENANCE_NOTE, SITE_STATUS_LABEL } from '../../../lib/labels';
 import { MaintenanceStatusLabel } from '../../../lib/maintenance-status';
 import type { ToothSystem } from '../../../lib/tooth-system';
 import { FactList } from './fact-list';
-import { CONNECTION_LABEL, formatNumber, LOADING_PROTOCOL_LABEL } from './labels';
+import { CONNECTION_LABEL, formatNumber, LOADING_PROTOCOL_LABEL } from '../../../lib/clinical-labels';
 
 /** Which implant this is: position, status, and the implant body as placed. */
 export function SiteFileHeader({ site, system }: { site: SiteFile; system: ToothSystem }) {
@@ -41,7 +41,7 @@ export function SiteFileHeader({ site, system }: { site: SiteFile; system: Tooth
             ['Placed', `${formatDate(placement.placedOn)} by ${placement.surgeonName}`],
             [
               'Insertion torque',
-              placement.insertionTorqueNcm === null ? 'Not recorded' : `${formatNumber(placement.insertionTorqueNcm)} Ncm`,
+              placement.insertionTorqueNcm === null ? 'Not recorded' : `${formatNumber(placement.insertionTorqueNcm)} N·cm`,
             ],
             ['Stability', placement.stabilityIsq === null ? 'Not recorded' : `ISQ ${formatNumber(placement.stabilityIsq)}`],
             ['Loading', placement.loadingProtocol ? LOADING_PROTOCOL_LABEL[placement.loadingProtocol] : 'Not recorded'],

@@ -3,7 +3,7 @@ import type { StackPart } from '@torquetrail/contracts';
 import type { ReactNode } from 'react';
 import { formatDate, formatDateTime } from '../../../lib/dates';
 import { FactList } from './fact-list';
-import { ANGLED_KINDS, COMPONENT_KIND_LABEL, formatNumber, formatReason, formatTorqueSpec } from './labels';
+import { ANGLED_KINDS, COMPONENT_KIND_LABEL, formatNumber, formatReason, formatTorqueSpec } from '../../../lib/clinical-labels';
 import { TorqueVerdictTag } from './torque-verdict-tag';
 
 /** One part of the Stack: what it is, its specification, and the last torque applied to it. */
@@ -35,7 +35,7 @@ export function StackPartCard({ part }: { part: StackPart }) {
         {last ? (
           <>
             <span>
-              {formatNumber(last.appliedNcm)} Ncm on {formatDateTime(last.performedAt)} · {formatReason(last.reason)}
+              {formatNumber(last.appliedNcm)} N·cm on {formatDateTime(last.performedAt)} · {formatReason(last.reason)}
               {last.specNcm !== part.torqueSpecNcm && (
                 <span className="muted"> (against {formatTorqueSpec(last.specNcm, last.tolerancePct)})</span>
               )}

@@ -2,7 +2,7 @@ import { Callout, Card, NonIdealState } from '@blueprintjs/core';
 import type { SiteFile } from '@torquetrail/contracts';
 import type { ToothSystem } from '../../../lib/tooth-system';
 import { FactList } from './fact-list';
-import { CONNECTION_LABEL, formatNumber } from './labels';
+import { CONNECTION_LABEL, formatNumber } from '../../../lib/clinical-labels';
 import { LogTorquePanel } from '../../torque';
 import { RestorationCard } from './restoration-card';
 import { StackPartCard } from './stack-part-card';

@@ -1,6 +1,7 @@
+// The patient (name, sites) is read by several features (Arch, planner breadcrumbs), so its query lives here.
 import { PatientDetail } from '@torquetrail/contracts';
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { apiRequest } from '../../../lib/api-client';
+import { apiRequest } from '../api-client';
 
 export const patientQueryKey = (patientId: string) => ['patients', 'detail', patientId] as const;
 

@@ -72,10 +72,10 @@ const number = new Intl.NumberFormat('en-GB', { maximumFractionDigits: 1 });
 
 export const formatNumber = (value: number): string => number.format(value);
 
-/** "35 Ncm ± 10 %", or "hand-tight" when there is no torque specification. */
+/** "35 N·cm ± 10 %", or "hand-tight" when there is no torque specification. */
 export function formatTorqueSpec(specNcm: number | null, tolerancePct: number): string {
   if (specNcm === null) return 'hand-tight';
-  return `${formatNumber(specNcm)} Ncm ± ${formatNumber(tolerancePct)} %`;
+  return `${formatNumber(specNcm)} N·cm ± ${formatNumber(tolerancePct)} %`;
 }
 
 const REASON_LABEL: Record<string, string> = {
