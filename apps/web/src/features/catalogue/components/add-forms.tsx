@@ -4,6 +4,7 @@ import { type FormEvent, type ReactNode, useId, useState } from 'react';
 import { isApiError } from '../../../lib/api-client';
 import { useSaveWrench } from '../../torque';
 import { useAddPlatform, useAddSystem, useSaveComponent } from '../api/catalogue-api';
+import { COMPONENT_KIND_LABEL, CONNECTION_LABEL } from '../../../lib/clinical-labels';
 
 const KINDS: ComponentKind[] = ['abutment-stock', 'abutment-custom', 'abutment-angled', 'multi-unit-abutment', 'abutment-screw', 'prosthetic-screw', 'set-screw', 'impression-coping', 'healing-abutment', 'cover-screw'];
 
@@ -40,7 +41,7 @@ export function AddComponentForm({ platformId }: { platformId: string }) {
             save.mutate({ body: { platformId, kind, name, referenceCode: ref, engaging: engaging === '' ? null : engaging === 'yes', torqueSpecNcm: torque, tolerancePct: tol, requiresLot: lot, angleDeg: angle, collarHeightMm: collar, tray: tray || null } }, { onSuccess: close });
           }}
         >
-          <FormGroup label="Kind" labelFor={`${uid}-kind`} inline><HTMLSelect id={`${uid}-kind`} value={kind} onChange={(e) => setKind(e.currentTarget.value as ComponentKind)}>{KINDS.map((k) => <option key={k}>{k}</option>)}</HTMLSelect></FormGroup>
+          <FormGroup label="Kind" labelFor={`${uid}-kind`} inline><HTMLSelect id={`${uid}-kind`} value={kind} onChange={(e) => setKind(e.currentTarget.value as ComponentKind)}>{KINDS.map((k) => <option key={k} value={k}>{COMPONENT_KIND_LABEL[k]}</option>)}</HTMLSelect></FormGroup>
           <FormGroup label="Name" labelFor={`${uid}-name`} inline {...helper(f, 'name')}><InputGroup id={`${uid}-name`} value={name} onValueChange={setName} /></FormGroup>
           <FormGroup label="Reference" labelFor={`${uid}-reference`} inline {...helper(f, 'referenceCode')}><InputGroup id={`${uid}-reference`} value={ref} onValueChange={setRef} /></FormGroup>
           <FormGroup label="Engaging" labelFor={`${uid}-engaging`} inline><HTMLSelect id={`${uid}-engaging`} value={engaging} onChange={(e) => setEngaging(e.currentTarget.value as '' | 'yes' | 'no')}><option value="">does not apply</option><option value="yes">engaging</option><option value="no">non-engaging</option></HTMLSelect></FormGroup>
@@ -71,7 +72,7 @@ export function AddPlatformForm({ systemId }: { systemId: string }) {
         <form aria-label="Add platform" onSubmit={(e) => { e.preventDefault(); add.mutate({ systemId, name, diameterMm: diameter ?? Number.NaN, connection, platformShift: shift }, { onSuccess: close }); }}>
           <FormGroup label="Name" labelFor={`${uid}-name`} inline {...helper(f, 'name')}><InputGroup id={`${uid}-name`} value={name} onValueChange={setName} /></FormGroup>
           <FormGroup label="Diameter (mm)" labelFor={`${uid}-diameter-mm`} inline {...helper(f, 'diameterMm')}><NumericInput id={`${uid}-diameter-mm`} min={2} max={10} stepSize={0.1} value={diameter ?? ''} onValueChange={(v) => setDiameter(Number.isFinite(v) ? v : null)} /></FormGroup>
-          <FormGroup label="Connection" labelFor={`${uid}-connection`} inline><HTMLSelect id={`${uid}-connection`} value={connection} onChange={(e) => setConnection(e.currentTarget.value as Connection)}><option value="internal-conical">internal conical</option><option value="internal-hex">internal hex</option><option value="external-hex">external hex</option></HTMLSelect></FormGroup>
+          <FormGroup label="Connection" labelFor={`${uid}-connection`} inline><HTMLSelect id={`${uid}-connection`} value={connection} onChange={(e) => setConnection(e.currentTarget.value as Connection)}>{(Object.keys(CONNECTION_LABEL) as Connection[]).map((c) => <option key={c} value={c}>{CONNECTION_LABEL[c]}</option>)}</HTMLSelect></FormGroup>
           <Checkbox label="Platform shift" checked={shift} onChange={(e) => setShift(e.currentTarget.checked)} />
           <Button type="submit" intent="primary" small text="Add platform" loading={add.isPending} /> <Button small variant="minimal" text="Cancel" onClick={close} />
         </form>

@@ -4,6 +4,7 @@ import { useState } from 'react';
 import { Can } from '../../../lib/ability';
 import { isApiError } from '../../../lib/api-client';
 import { useSaveComponent } from '../api/catalogue-api';
+import { COMPONENT_KIND_LABEL } from '../../../lib/clinical-labels';
 
 /** One part: its torque specification and tolerance, editable by the practice admin. */
 export function ComponentRow({ part }: { part: CatalogueComponent }) {
@@ -16,7 +17,7 @@ export function ComponentRow({ part }: { part: CatalogueComponent }) {
     <tr data-testid="catalogue-part">
       <td>{part.name}</td>
       <td className="mono">{part.referenceCode}</td>
-      <td>{part.kind}</td>
+      <td>{COMPONENT_KIND_LABEL[part.kind]}</td>
       <td>{part.engaging === null ? '—' : part.engaging ? 'engaging' : 'non-engaging'}{part.tray ? `, ${part.tray} tray` : ''}{part.angleDeg ? `, ${part.angleDeg}°` : ''}{part.collarHeightMm ? `, collar ${part.collarHeightMm} mm` : ''}</td>
       <td>
         {editing ? (

@@ -8,6 +8,7 @@ import { useSaveWrench, useWrenches } from '../../torque';
 import { useCatalogue } from '../api/catalogue-api';
 import { ComponentRow } from '../components/component-row';
 import { AddComponentForm, AddPlatformForm, AddSystemForm, AddWrenchForm } from '../components/add-forms';
+import { CONNECTION_LABEL } from '../../../lib/clinical-labels';
 
 function Wrenches() {
   const wrenches = useWrenches(useAppAbility().can('read', 'Wrench'));
@@ -66,7 +67,7 @@ export function CatalogueRoute() {
           {s.platforms.map((p) => (
             <div key={p.id}>
               <h3>
-                {p.name}: {p.diameterMm} mm, {p.connection}, platform shift {p.platformShift ? 'yes' : 'no'}
+                {p.name}: {p.diameterMm} mm, {CONNECTION_LABEL[p.connection].toLowerCase()}, platform shift {p.platformShift ? 'yes' : 'no'}
               </h3>
               <HTMLTable compact striped className="catalogue-table">
                 <thead>
