@@ -76,6 +76,16 @@ describe('session', () => {
   });
 });
 
+describe('security headers', () => {
+  it('sends a Content-Security-Policy that allows scripts only from our origin, and nosniff', async () => {
+    const res = await ctx.http.get('/api/health');
+    expect(res.headers['content-security-policy']).toContain("script-src 'self'");
+    expect(res.headers['content-security-policy']).toContain("frame-ancestors 'none'");
+    expect(res.headers['x-content-type-options']).toBe('nosniff');
+    expect(res.headers['x-powered-by']).toBeUndefined();
+  });
+});
+
 describe('closed by default', () => {
   it('answers JSON 404 for an unknown route under /api', async () => {
     const res = await ctx.http.get('/api/no-such-route');

@@ -59,6 +59,9 @@ export async function startHarness(): Promise<Harness> {
       await browser.close();
       await app.close();
       await pool.end();
+      // A Content-Security-Policy violation is a bug in every test, whatever the test checks.
+      const csp = problems.filter((p) => /Content Security Policy/i.test(p));
+      if (csp.length > 0) throw new Error(`Content-Security-Policy violations:\n${csp.join('\n')}`);
     },
   };
 }
