@@ -107,3 +107,12 @@ describe('sign-in page', () => {
     expect(new URL(page.url()).pathname).toBe('/sign-in');
   });
 });
+
+describe('API documentation (development only)', () => {
+  it('renders the OpenAPI document in Swagger UI under the same Content-Security-Policy', async () => {
+    const page = await h.newPage();
+    await page.goto('/api/docs');
+    await expect.poll(() => page.locator('.swagger-ui .title').first().textContent(), { timeout: 15_000 }).toMatch(/Torquetrail API/);
+    expect(await page.getByText('/api/patients/{id}').count()).toBeGreaterThan(0);
+  });
+});
