@@ -11,7 +11,7 @@ import { addDaysIso } from '../src/recalls/exam-rules.js';
 import { RemindersService } from '../src/recalls/reminders.service.js';
 import { createDatabase, createPool, type Database } from '../src/db/database.js';
 import { patientId, resetDatabase, testEnv } from './support/test-app.js';
-import { caughtFor, until } from './recalls-support.js';
+import { caughtFor, until } from './support/recalls.js';
 
 process.env.REMINDER_RETRY_DELAY_S = '1';
 

@@ -6,7 +6,7 @@ import { recalls, reminderLog } from '../src/db/schema/index.js';
 import { addDaysIso } from '../src/recalls/exam-rules.js';
 import { RemindersService } from '../src/recalls/reminders.service.js';
 import { patientId, signIn, startTestApp, type TestContext } from './support/test-app.js';
-import { caughtFor, until } from './recalls-support.js';
+import { caughtFor, until } from './support/recalls.js';
 
 process.env.REMINDER_RETRY_DELAY_S = '1';
 let ctx: TestContext;
