@@ -47,7 +47,8 @@ export const PlanBody = z.object({
   shade: optionalText(20),
   copingsSplinted: z.boolean().default(false),
   labName: optionalText(120),
-  labEmail: z.email('Not an e-mail address').nullable().default(null),
+  // 254: the longest address SMTP carries (RFC 5321); the address goes into the e-mail's To header.
+  labEmail: z.email('Not an e-mail address').max(254).nullable().default(null),
   dueOn: IsoDate.nullable().default(null),
   notes: optionalText(2000),
   sites: z.array(PlanSiteBody).min(1, 'Choose at least one site').max(16),
