@@ -4,9 +4,9 @@
 // LL-1001, LL-1002, LL-1004 and LL-1005 but not LL-1003.
 import { and, eq, isNull } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { componentInstances, components, implantSites, patientShares, patients, placements, practices, torqueWrenches } from '../src/db/schema/index.js';
+import { componentInstances, components, implantSites, patientShares, patients, placements, practices, torqueWrenches, users } from '../src/db/schema/index.js';
 import { larkspurId, parts, platformId } from './support/ledger-fixtures.js';
-import { type AccountKey, patientId, signIn, signInAll, siteId, startTestApp, type TestContext } from './support/test-app.js';
+import { ACCOUNTS, type AccountKey, patientId, signIn, signInAll, siteId, startTestApp, type TestContext } from './support/test-app.js';
 
 let ctx: TestContext;
 let cookies: Record<AccountKey, string>;
@@ -304,6 +304,29 @@ describe('share scope of the Northgate surgeon', () => {
       expect(csv.text).not.toContain('LL-1004');
     } finally {
       await ctx.db.update(patientShares).set({ revokedAt: null }).where(eq(patientShares.patientId, ids.ferraz!));
+    }
+  });
+
+  it('a share row naming a user who is not a surgeon opens nothing: lists, desk and CSV stay within the practice', async () => {
+    const [nell] = await ctx.db.select({ id: users.id }).from(users).where(eq(users.email, ACCOUNTS.otherPracticeDentist));
+    const [ines] = await ctx.db.select({ id: users.id }).from(users).where(eq(users.email, ACCOUNTS.dentist));
+    const [share] = await ctx.db
+      .insert(patientShares)
+      .values({ practiceId: ids.larkspur!, patientId: ids.okafor!, sharedWithUserId: nell!.id, sharedByUserId: ines!.id })
+      .returning({ id: patientShares.id });
+    try {
+      const qh = await signIn(ctx, 'otherPracticeDentist');
+      const list = await ctx.http.get('/api/patients').set('Cookie', qh);
+      expect(list.body.items.map((p: { chartNumber: string }) => p.chartNumber).sort()).toEqual(['QH-2001', 'QH-2002']);
+      const desk = await ctx.http.get('/api/recalls/desk?pageSize=200').set('Cookie', qh);
+      expect(desk.body.items.map((r: { chartNumber: string }) => r.chartNumber)).not.toContain('LL-1003');
+      expect(desk.body.total).toBe(2);
+      const csv = await ctx.http.get('/api/recalls/desk/csv').set('Cookie', qh);
+      expect(csv.text).not.toContain('Okafor');
+      expect((await ctx.http.get(`/api/patients/${ids.okafor}`).set('Cookie', qh)).status).toBe(404);
+      expect((await ctx.http.get(`/api/sites/${ids.okafor46}/timeline`).set('Cookie', qh)).status).toBe(404);
+    } finally {
+      await ctx.db.update(patientShares).set({ revokedAt: new Date() }).where(eq(patientShares.id, share!.id));
     }
   });
 

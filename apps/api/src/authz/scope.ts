@@ -8,7 +8,15 @@ export interface Scope {
   sharedPatientIds: readonly string[];
 }
 
-export const scopeOf = (user: SessionUser): Scope => ({ practiceId: user.practiceId, sharedPatientIds: user.sharedPatientIds });
+/**
+ * The SQL mirror of `defineAbilityFor`, which opens shared patients to surgeons only: a share row
+ * naming any other role must not put another practice's patient into a list (patients, Recall
+ * desk, CSV) that the row-level checks would then refuse.
+ */
+export const scopeOf = (user: SessionUser): Scope => ({
+  practiceId: user.practiceId,
+  sharedPatientIds: user.role === 'surgeon' ? user.sharedPatientIds : [],
+});
 
 /**
  * Row-level check of a loaded row. A row the user may not see answers 404, exactly like a row
