@@ -4,7 +4,7 @@
 // LL-1001, LL-1002, LL-1004 and LL-1005 but not LL-1003.
 import { and, eq, isNull } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { componentInstances, components, implantSites, patientShares, patients, placements, practices, torqueWrenches, users } from '../src/db/schema/index.js';
+import { complications, componentInstances, components, implantSites, patientShares, patients, placements, practices, recallExams, restorations, torqueEvents, torqueWrenches, users } from '../src/db/schema/index.js';
 import { larkspurId, parts, platformId } from './support/ledger-fixtures.js';
 import { ACCOUNTS, type AccountKey, patientId, signIn, signInAll, siteId, startTestApp, type TestContext } from './support/test-app.js';
 
@@ -360,6 +360,66 @@ describe('role rules', () => {
       expect((await ctx.http.put('/api/recalls/policy').set('Cookie', cookies[who]).send({ baseMonths: 6, riskMonths: 3, reminderDaysBefore: 14, overdueReminderDaysAfter: 7 })).status, who).toBe(403);
       expect((await ctx.http.post('/api/wrenches').set('Cookie', cookies[who]).send({ label: 'W', type: 'spring' })).status, who).toBe(403);
     }
+  });
+});
+
+describe('history is never forked or doubled by concurrent saves', () => {
+  const statuses = (replies: { status: number }[]) => replies.map((r) => r.status).sort();
+
+  it('POST /restorations/:id/delivery: of concurrent deliveries of one plan only one goes through (409 for the rest)', async () => {
+    const id = await freshPlan();
+    const body = { deliveredOn: '2026-11-30', parts: [{ siteId: ids.wendell15, componentId: tex('PSI'), lot: 'PSI-1' }] };
+    const replies = await Promise.all([1, 2, 3, 4].map(() => ctx.http.post(`/api/restorations/${id}/delivery`).set('Cookie', cookies.dentist).send(body)));
+    expect(statuses(replies)).toEqual([200, 409, 409, 409]);
+    const installed = await ctx.db.select({ id: componentInstances.id }).from(componentInstances).where(eq(componentInstances.restorationId, id));
+    expect(installed).toHaveLength(1);
+  });
+
+  it('POST /restorations/:id/amendments: concurrent amendments of one version leave one current version', async () => {
+    const id = await freshPlan();
+    const { patientId: _p, ...rest } = wendellPlan();
+    const replies = await Promise.all([1, 2, 3, 4].map((i) => ctx.http.post(`/api/restorations/${id}/amendments`).set('Cookie', cookies.dentist).send({ ...rest, amendmentReason: `Amendment ${i}` })));
+    expect(statuses(replies)).toEqual([201, 409, 409, 409]);
+    const amendments = await ctx.db.select({ id: restorations.id }).from(restorations).where(eq(restorations.supersedesId, id));
+    expect(amendments).toHaveLength(1);
+  });
+
+  it('a plan amended and delivered at the same time: not both', async () => {
+    const id = await freshPlan();
+    const { patientId: _p, ...rest } = wendellPlan();
+    const [amend, deliver] = await Promise.all([
+      ctx.http.post(`/api/restorations/${id}/amendments`).set('Cookie', cookies.dentist).send({ ...rest, amendmentReason: 'Shade' }),
+      ctx.http.post(`/api/restorations/${id}/delivery`).set('Cookie', cookies.dentist).send({ deliveredOn: '2026-11-30', parts: [{ siteId: ids.wendell15, componentId: tex('PSI'), lot: 'PSI-2' }] }),
+    ]);
+    expect([amend!.status, deliver!.status].filter((s) => s === 409)).toHaveLength(1);
+  });
+
+  it('POST /torque-events/:id/amendments and POST /complications/:id/amendments: one amendment per version under concurrency', async () => {
+    const torque = await ctx.http.post('/api/torque-events').set('Cookie', cookies.dentist).send({ componentInstanceId: ids.ferrazScrew, appliedNcm: 25, reason: 're-torque-at-recall', performedAt: '2025-06-06T10:00:00Z' });
+    const t = await Promise.all([1, 2, 3, 4].map(() => ctx.http.post(`/api/torque-events/${torque.body.id}/amendments`).set('Cookie', cookies.dentist).send({ appliedNcm: 24, performedAt: '2025-06-06T10:00:00Z', amendmentReason: 'Typed 25, read 24' })));
+    expect(statuses(t)).toEqual([201, 409, 409, 409]);
+    expect(await ctx.db.select({ id: torqueEvents.id }).from(torqueEvents).where(eq(torqueEvents.supersedesId, torque.body.id))).toHaveLength(1);
+    const complication = await ctx.http.post('/api/complications').set('Cookie', cookies.dentist).send({ siteId: ids.ferraz14, kind: 'other', occurredOn: '2025-01-01' });
+    const c = await Promise.all([1, 2, 3, 4].map(() => ctx.http.post(`/api/complications/${complication.body.id}/amendments`).set('Cookie', cookies.dentist).send({ kind: 'screw-loosening', occurredOn: '2025-01-01', amendmentReason: 'Wrong kind' })));
+    expect(statuses(c)).toEqual([201, 409, 409, 409]);
+    expect(await ctx.db.select({ id: complications.id }).from(complications).where(eq(complications.supersedesId, complication.body.id))).toHaveLength(1);
+  });
+
+  it('POST /torque-events (screw-replaced): one replacement of a part under concurrency', async () => {
+    const body = { componentInstanceId: ids.ferrazScrew, appliedNcm: 25, reason: 'screw-replaced', replacementLot: 'AS-NEW-1', performedAt: '2025-07-07T10:00:00Z' };
+    const replies = await Promise.all([1, 2, 3].map(() => ctx.http.post('/api/torque-events').set('Cookie', cookies.dentist).send(body)));
+    expect(statuses(replies)).toEqual([201, 409, 409]);
+    expect(await ctx.db.select({ id: componentInstances.id }).from(componentInstances).where(eq(componentInstances.replacesId, ids.ferrazScrew!))).toHaveLength(1);
+  });
+
+  it('POST /recalls/exams/:id/amend: one amendment per exam under concurrency', async () => {
+    const visit = await ctx.http.post('/api/recalls/visits').set('Cookie', cookies.hygienist).send({ patientId: ids.ferraz, examinedOn: '2025-01-02', exams: [healthyExam(ids.ferraz14!)] });
+    expect(visit.status).toBe(201);
+    const examId = visit.body.exams[0].id as string;
+    const { siteId: _s, ...exam } = healthyExam(ids.ferraz14!);
+    const replies = await Promise.all([1, 2, 3, 4].map(() => ctx.http.post(`/api/recalls/exams/${examId}/amend`).set('Cookie', cookies.hygienist).send({ ...exam, amendmentReason: 'Probe misread' })));
+    expect(statuses(replies)).toEqual([201, 409, 409, 409]);
+    expect(await ctx.db.select({ id: recallExams.id }).from(recallExams).where(eq(recallExams.supersedesId, examId))).toHaveLength(1);
   });
 });
 

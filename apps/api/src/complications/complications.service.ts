@@ -5,11 +5,15 @@ import { and, eq, sql } from 'drizzle-orm';
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
-import { DB, type Database } from '../db/database.js';
+import { DB, type Database, type Db } from '../db/database.js';
 import { complications, componentInstances, patients, users } from '../db/schema/index.js';
 import { visiblePatients } from '../patients/patients.repository.js';
 import { fieldError } from '../restorations/plan-check.js';
 import { findVisibleSite } from '../sites/sites.repository.js';
+
+function assertCurrent(entry: { supersededById: string | null }) {
+  if (entry.supersededById) throw new ConflictException('This entry was already amended; amend the current version');
+}
 
 @Injectable()
 export class ComplicationsService {
@@ -37,9 +41,9 @@ export class ComplicationsService {
     return this.reply(row!.id);
   }
 
-  /** A new version superseding the old entry; the old one stays, marked as amended. */
-  async amend(ability: AppAbility, user: SessionUser, scope: Scope, id: string, body: z.output<typeof ComplicationAmendmentBody>): Promise<Complication> {
-    const [old] = await this.db
+  /** The entry with its scope, if the user may see its patient; `supersededById` when already amended. */
+  private async findVisible(db: Db, scope: Scope, id: string) {
+    const [row] = await db
       .select({
         id: complications.id,
         practiceId: complications.practiceId,
@@ -50,15 +54,26 @@ export class ComplicationsService {
       .from(complications)
       .innerJoin(patients, eq(patients.id, complications.patientId))
       .where(and(eq(complications.id, id), visiblePatients(scope)));
-    const found = assertCan(ability, 'amend', 'Complication', old, 'complication');
-    if (found.supersededById) throw new ConflictException('This entry was already amended; amend the current version');
+    return row ?? null;
+  }
+
+  /** A new version superseding the old entry; the old one stays, marked as amended. */
+  async amend(ability: AppAbility, user: SessionUser, scope: Scope, id: string, body: z.output<typeof ComplicationAmendmentBody>): Promise<Complication> {
+    const found = assertCan(ability, 'amend', 'Complication', await this.findVisible(this.db, scope, id), 'complication');
+    assertCurrent(found);
     this.checkDate(body.occurredOn);
     await this.checkPart(found.siteId, body.componentInstanceId);
-    const [row] = await this.db
-      .insert(complications)
-      .values({ practiceId: found.practiceId, patientId: found.patientId, siteId: found.siteId, componentInstanceId: body.componentInstanceId, kind: body.kind, occurredOn: body.occurredOn, notes: body.notes, supersedesId: found.id, amendmentReason: body.amendmentReason, recordedBy: user.id })
-      .returning({ id: complications.id });
-    return this.reply(row!.id);
+    const newId = await this.db.transaction(async (tx) => {
+      // Lock the entry and re-read it: of two concurrent amendments of one entry only the first is saved.
+      await tx.select({ id: complications.id }).from(complications).where(eq(complications.id, found.id)).for('update');
+      assertCurrent((await this.findVisible(tx, scope, found.id))!);
+      const [row] = await tx
+        .insert(complications)
+        .values({ practiceId: found.practiceId, patientId: found.patientId, siteId: found.siteId, componentInstanceId: body.componentInstanceId, kind: body.kind, occurredOn: body.occurredOn, notes: body.notes, supersedesId: found.id, amendmentReason: body.amendmentReason, recordedBy: user.id })
+        .returning({ id: complications.id });
+      return row!.id;
+    });
+    return this.reply(newId);
   }
 
   private async reply(id: string): Promise<Complication> {

@@ -172,6 +172,8 @@ export class ExamsService {
     const patient = (await findVisiblePatientForRecall(this.db, scope, old.patientId))!;
     return this.db.transaction(async (tx) => {
       await tx.execute(sqlLock(patient.id));
+      // Checked again under the patient's lock: of two concurrent amendments of one exam only the first is saved.
+      if ((await findVisibleExam(tx, scope, examId))!.superseded) throw new ConflictException('This exam has already been amended; amend its latest version');
       const site = (await listSitesForExam(tx, patient.id)).find((s) => s.siteId === old.siteId)!;
       const earlier = (await listExamsOfSites(tx, [site.siteId])).filter((e) => e.id !== old.id);
       const probes = inChartOrder(body.sites);

@@ -1,5 +1,5 @@
 import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm';
-import type { Db } from '../db/database.js';
+import type { Db, Tx } from '../db/database.js';
 import {
   components,
   findingAcknowledgements,
@@ -103,6 +103,14 @@ export async function findVisibleRestoration(db: Db, scope: Scope, id: string) {
   return row ?? null;
 }
 export type RestorationRow = NonNullable<Awaited<ReturnType<typeof findVisibleRestoration>>>;
+
+/**
+ * Locks one restoration version until the transaction ends: amendments and the delivery of one
+ * version then run one after the other, and each re-reads the version after taking the lock.
+ */
+export async function lockRestoration(tx: Tx, id: string) {
+  await tx.select({ id: restorations.id }).from(restorations).where(eq(restorations.id, id)).for('update');
+}
 
 export async function listRestorationsOfPatient(db: Db, patientId: string) {
   return db

@@ -49,9 +49,27 @@ async function retirePreviousRestorations(tx: Tx, restorationId: string, siteIds
     );
 }
 
+/** Only the current version of a plan not yet delivered is amended. */
+function assertAmendable(row: repo.RestorationRow) {
+  if (row.supersededById) throw new ConflictException('This version was already amended; amend the current version');
+  if (row.status !== 'planned') throw new ConflictException('A delivered restoration is not re-planned; record a complication or a new restoration');
+}
+
+/** Only the current version of a plan is delivered, and only once. */
+function assertDeliverable(row: repo.RestorationRow) {
+  if (row.supersededById) throw new ConflictException('This version was amended; deliver the current version');
+  if (row.status !== 'planned') throw new ConflictException('This restoration is already delivered');
+}
+
 @Injectable()
 export class RestorationsService {
   constructor(@Inject(DB) private readonly db: Database) {}
+
+  /** Locks the version, then reads it again: a concurrent amendment or delivery committed meanwhile is seen. */
+  private async lockVersion(tx: Tx, scope: Scope, id: string): Promise<repo.RestorationRow> {
+    await repo.lockRestoration(tx, id);
+    return (await repo.findVisibleRestoration(tx, scope, id))!;
+  }
 
   private async visiblePatient(ability: AppAbility, scope: Scope, patientId: string) {
     return assertCan(ability, 'read', 'Patient', await repo.findVisiblePatientBrief(this.db, scope, patientId), 'patient');
@@ -99,12 +117,12 @@ export class RestorationsService {
   /** An amendment is a new version superseding the old one; only a plan not yet delivered can be amended. */
   async amend(ability: AppAbility, user: SessionUser, scope: Scope, id: string, body: AmendInput): Promise<RestorationDetail> {
     const old = assertCan(ability, 'amend', 'Restoration', await repo.findVisibleRestoration(this.db, scope, id), 'restoration');
-    if (old.supersededById) throw new ConflictException('This version was already amended; amend the current version');
-    if (old.status !== 'planned') throw new ConflictException('A delivered restoration is not re-planned; record a complication or a new restoration');
+    assertAmendable(old);
     const patient = (await repo.findVisiblePatientBrief(this.db, scope, old.patientId))!;
-    const newId = await this.db.transaction((tx) =>
-      this.insertPlan(tx, user, patient, { ...body, patientId: old.patientId }, { supersedesId: old.id, amendmentReason: body.amendmentReason }),
-    );
+    const newId = await this.db.transaction(async (tx) => {
+      assertAmendable(await this.lockVersion(tx, scope, old.id));
+      return this.insertPlan(tx, user, patient, { ...body, patientId: old.patientId }, { supersedesId: old.id, amendmentReason: body.amendmentReason });
+    });
     return this.detail(ability, scope, newId);
   }
 
@@ -171,9 +189,9 @@ export class RestorationsService {
   async deliver(ability: AppAbility, user: SessionUser, scope: Scope, id: string, body: DeliveryInput): Promise<RestorationDetail> {
     const row = assertCan(ability, 'create', 'ComponentInstance', await repo.findVisibleRestoration(this.db, scope, id), 'restoration');
     assertCan(ability, 'amend', 'Restoration', row, 'restoration');
-    if (row.supersededById) throw new ConflictException('This version was amended; deliver the current version');
-    if (row.status !== 'planned') throw new ConflictException('This restoration is already delivered');
+    assertDeliverable(row);
     await this.db.transaction(async (tx) => {
+      assertDeliverable(await this.lockVersion(tx, scope, row.id));
       const { sites } = await repo.loadRestorationSites(tx, [row.id]);
       const catalogue = new Map((await findComponents(tx, row.practiceId, body.parts.map((p) => p.componentId))).map((c) => [c.id, c]));
       const fields: Record<string, string> = {};

@@ -1,5 +1,5 @@
 import { and, eq, sql } from 'drizzle-orm';
-import type { Db } from '../db/database.js';
+import type { Db, Tx } from '../db/database.js';
 import { componentInstances, components, patients, torqueEvents, torqueWrenches, users } from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
 import { visiblePatients } from '../patients/patients.repository.js';
@@ -73,4 +73,14 @@ export async function loadTorqueEvent(db: Db, id: string) {
 export async function findWrenchOfPractice(db: Db, practiceId: string, id: string) {
   const [row] = await db.select({ id: torqueWrenches.id }).from(torqueWrenches).where(and(eq(torqueWrenches.id, id), eq(torqueWrenches.practiceId, practiceId)));
   return row ?? null;
+}
+
+/** Locks a part instance until the transaction ends: two entries that retire it run one after the other. */
+export async function lockInstance(tx: Tx, id: string) {
+  await tx.select({ id: componentInstances.id }).from(componentInstances).where(eq(componentInstances.id, id)).for('update');
+}
+
+/** Locks a torque entry until the transaction ends: two amendments of it run one after the other. */
+export async function lockTorqueEvent(tx: Tx, id: string) {
+  await tx.select({ id: torqueEvents.id }).from(torqueEvents).where(eq(torqueEvents.id, id)).for('update');
 }

@@ -14,6 +14,14 @@ import * as repo from './torque.repository.js';
 /** An entry may be a few minutes ahead of the server clock, never later. */
 const FUTURE_SLACK_MS = 5 * 60_000;
 
+function assertInPlace(part: { removedOn: string | null }) {
+  if (part.removedOn) throw new ConflictException(`This part was removed on ${part.removedOn}; log the torque on the part in place`);
+}
+
+function assertCurrent(entry: { supersededById: string | null }) {
+  if (entry.supersededById) throw new ConflictException('This entry was already amended; amend the current version');
+}
+
 @Injectable()
 export class TorqueService {
   constructor(@Inject(DB) private readonly db: Database) {}
@@ -33,7 +41,7 @@ export class TorqueService {
    */
   async log(ability: AppAbility, user: SessionUser, scope: Scope, body: z.output<typeof TorqueBody>): Promise<TorqueEvent> {
     const part = assertCan(ability, 'create', 'TorqueEvent', await repo.findVisibleInstance(this.db, scope, body.componentInstanceId), 'part');
-    if (part.removedOn) throw new ConflictException(`This part was removed on ${part.removedOn}; log the torque on the part in place`);
+    assertInPlace(part);
     if (part.torqueSpecNcm === null) throw fieldError({ componentInstanceId: `${part.name} is hand-tight: it has no torque specification in the catalogue` });
     const performedAt = body.performedAt ? new Date(body.performedAt) : new Date();
     this.checkWhen(performedAt, 'performedAt');
@@ -46,6 +54,9 @@ export class TorqueService {
     const specNcm = part.torqueSpecNcm;
     const verdict = torqueVerdict({ appliedNcm: body.appliedNcm, specNcm, tolerancePct: part.tolerancePct });
     const id = await this.db.transaction(async (tx) => {
+      // Re-read under the lock: a concurrent 'screw-replaced' may have retired the part meanwhile.
+      await repo.lockInstance(tx, part.id);
+      assertInPlace((await repo.findVisibleInstance(tx, scope, part.id))!);
       let instanceId = part.id;
       if (replacing) {
         const day = performedAt.toISOString().slice(0, 10);
@@ -68,16 +79,22 @@ export class TorqueService {
   /** An amendment is a new row superseding the old one (spec and reason kept; the verdict recomputed). */
   async amend(ability: AppAbility, user: SessionUser, scope: Scope, id: string, body: z.output<typeof TorqueAmendmentBody>): Promise<TorqueEvent> {
     const old = assertCan(ability, 'amend', 'TorqueEvent', await repo.findVisibleTorqueEvent(this.db, scope, id), 'torque entry');
-    if (old.supersededById) throw new ConflictException('This entry was already amended; amend the current version');
+    assertCurrent(old);
     const performedAt = new Date(body.performedAt);
     this.checkWhen(performedAt, 'performedAt');
     await this.checkWrench(this.db, old.practiceId, body.wrenchId);
     const verdict = torqueVerdict({ appliedNcm: body.appliedNcm, specNcm: old.specNcm, tolerancePct: old.tolerancePct });
-    const [row] = await this.db
-      .insert(torqueEvents)
-      .values({ practiceId: old.practiceId, patientId: old.patientId, componentInstanceId: old.componentInstanceId, appliedNcm: body.appliedNcm, specNcm: old.specNcm, tolerancePct: old.tolerancePct, verdict, rulesVersion: RULES_VERSION, reason: old.reason, wrenchId: body.wrenchId, performedAt, supersedesId: old.id, amendmentReason: body.amendmentReason, recordedBy: user.id })
-      .returning({ id: torqueEvents.id });
-    return this.reply(row!.id, false);
+    const newId = await this.db.transaction(async (tx) => {
+      // Re-read under the lock: of two concurrent amendments of one entry only the first is saved.
+      await repo.lockTorqueEvent(tx, old.id);
+      assertCurrent((await repo.findVisibleTorqueEvent(tx, scope, old.id))!);
+      const [row] = await tx
+        .insert(torqueEvents)
+        .values({ practiceId: old.practiceId, patientId: old.patientId, componentInstanceId: old.componentInstanceId, appliedNcm: body.appliedNcm, specNcm: old.specNcm, tolerancePct: old.tolerancePct, verdict, rulesVersion: RULES_VERSION, reason: old.reason, wrenchId: body.wrenchId, performedAt, supersedesId: old.id, amendmentReason: body.amendmentReason, recordedBy: user.id })
+        .returning({ id: torqueEvents.id });
+      return row!.id;
+    });
+    return this.reply(newId, false);
   }
 
   private async reply(id: string, replacing: boolean): Promise<TorqueEvent> {
