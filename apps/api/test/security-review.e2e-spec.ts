@@ -206,8 +206,8 @@ describe('practice isolation through ids in request bodies', () => {
   });
 
   it('catalogue: a platform under another practice’s system, or a part under its platform, answers 404', async () => {
-    const [qhSystem] = await ctx.db.select({ systemId: placements.platformId }).from(placements).where(eq(placements.siteId, ids.qh36));
-    const qhPlatform = qhSystem!.systemId;
+    const [qhPlacement] = await ctx.db.select({ platformId: placements.platformId }).from(placements).where(eq(placements.siteId, ids.qh36!));
+    const qhPlatform = qhPlacement!.platformId;
     const qhSystemId = (await ctx.http.get('/api/catalogue').set('Cookie', cookies.otherPracticeDentist)).body.systems[0].id as string;
     const platform = await ctx.http
       .post('/api/catalogue/platforms')
