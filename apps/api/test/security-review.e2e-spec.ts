@@ -133,6 +133,18 @@ describe('practice isolation through ids in request bodies', () => {
     expect(res.body.fields['sites.0.impressionCopingComponentId']).toMatch(/practice catalogue/);
   });
 
+  it('POST /restorations/:id/delivery: a delivery dated in the future, or before its impression, is refused and nothing is delivered', async () => {
+    const id = await freshPlan();
+    const part = { siteId: ids.wendell15, componentId: tex('PSI'), lot: 'X-1' };
+    const future = await ctx.http.post(`/api/restorations/${id}/delivery`).set('Cookie', cookies.dentist).send({ deliveredOn: '2099-01-01', parts: [part] });
+    expect(future.status).toBe(400);
+    expect(future.body.fields.deliveredOn).toBe('Cannot be in the future');
+    const backwards = await ctx.http.post(`/api/restorations/${id}/delivery`).set('Cookie', cookies.dentist).send({ deliveredOn: '2026-11-20', impressionTakenOn: '2026-11-25', parts: [part] });
+    expect(backwards.status).toBe(400);
+    expect(backwards.body.fields).toHaveProperty('impressionTakenOn');
+    expect((await ctx.http.get(`/api/restorations/${id}`).set('Cookie', cookies.dentist)).body.status).toBe('planned');
+  });
+
   it('POST /restorations/:id/delivery: a foreign part or a site outside the restoration is refused and nothing is delivered', async () => {
     const id = await freshPlan();
     const foreignPart = await ctx.http

@@ -21,8 +21,8 @@ const EnvSchema = z.object({
   JWT_SECRET: z.string().min(32, { error: 'JWT_SECRET must be at least 32 characters' }),
   /** Session length in seconds. */
   SESSION_TTL_S: z.coerce.number().int().positive().default(8 * 3600),
-  /** Set when served over HTTPS so the session cookie is only sent there. */
-  COOKIE_SECURE: z.enum(['true', 'false']).default('false').transform((v) => v === 'true'),
+  /** Send the session cookie over HTTPS only; defaults to on in production, off on loopback development. */
+  COOKIE_SECURE: z.enum(['true', 'false']).optional(),
   /** Sign-in attempts allowed per e-mail and address per minute. */
   SIGN_IN_LIMIT_PER_MINUTE: z.coerce.number().int().positive().default(10),
   /** Reminder e-mails: first retry delay (seconds, doubled each retry) and how many retries. */
@@ -34,7 +34,7 @@ const EnvSchema = z.object({
   WEB_DIST: z.string().optional(),
 });
 
-export type Env = z.infer<typeof EnvSchema>;
+export type Env = Omit<z.infer<typeof EnvSchema>, 'COOKIE_SECURE'> & { COOKIE_SECURE: boolean };
 
 export class ConfigError extends Error {}
 
@@ -44,7 +44,8 @@ export function parseEnv(source: NodeJS.ProcessEnv = process.env): Env {
     const problems = result.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`).join('\n');
     throw new ConfigError(`The API's environment is incomplete:\n${problems}`);
   }
-  return result.data;
+  const { COOKIE_SECURE, ...rest } = result.data;
+  return { ...rest, COOKIE_SECURE: COOKIE_SECURE === undefined ? rest.NODE_ENV === 'production' : COOKIE_SECURE === 'true' };
 }
 
 /** Nest injection token for the parsed environment. */

@@ -190,6 +190,9 @@ export class RestorationsService {
     const row = assertCan(ability, 'create', 'ComponentInstance', await repo.findVisibleRestoration(this.db, scope, id), 'restoration');
     assertCan(ability, 'amend', 'Restoration', row, 'restoration');
     assertDeliverable(row);
+    const today = new Date().toISOString().slice(0, 10);
+    if (body.deliveredOn > today) throw fieldError({ deliveredOn: 'Cannot be in the future' });
+    if (body.impressionTakenOn && body.impressionTakenOn > body.deliveredOn) throw fieldError({ impressionTakenOn: 'The impression cannot be taken after the delivery' });
     await this.db.transaction(async (tx) => {
       assertDeliverable(await this.lockVersion(tx, scope, row.id));
       const { sites } = await repo.loadRestorationSites(tx, [row.id]);
