@@ -68,6 +68,19 @@ describe('session', () => {
     expect((await ctx.http.get('/api/auth/me').set('Cookie', forged)).status).toBe(401);
   });
 
+  it('sign-out ends the session on the server: the old cookie no longer works, a new sign-in does', async () => {
+    const cookie = await signIn(ctx, 'hygienist');
+    expect((await ctx.http.get('/api/auth/me').set('Cookie', cookie)).status).toBe(200);
+    // JWTs carry whole seconds; wait past the second of issue so the sign-out covers this token.
+    await new Promise((r) => setTimeout(r, 1100));
+    expect((await ctx.http.post('/api/auth/sign-out').set('Cookie', cookie)).status).toBe(204);
+    const replay = await ctx.http.get('/api/auth/me').set('Cookie', cookie);
+    expect(replay.status).toBe(401);
+    await new Promise((r) => setTimeout(r, 1100));
+    const fresh = await signIn(ctx, 'hygienist');
+    expect((await ctx.http.get('/api/auth/me').set('Cookie', fresh)).status).toBe(200);
+  });
+
   it('sign-out clears the cookie', async () => {
     const res = await ctx.http.post('/api/auth/sign-out');
     expect(res.status).toBe(204);
@@ -92,5 +105,18 @@ describe('closed by default', () => {
     expect(res.status).toBe(404);
     expect(res.headers['content-type']).toMatch(/json/);
     expect(res.body).toMatchObject({ statusCode: 404, error: 'Not Found' });
+  });
+});
+
+describe('sign-in throttle per address', () => {
+  it('limits one address trying many e-mails (429), whatever the e-mail', async () => {
+    const statuses: number[] = [];
+    for (let i = 0; i < 70 && !statuses.includes(429); i++) {
+      statuses.push((await ctx.http.post('/api/auth/sign-in').send({ email: `guess-${i}@larkspur.example`, password: 'x' })).status);
+    }
+    expect(statuses[0]).toBe(401);
+    expect(statuses.at(-1)).toBe(429);
+    // Default 60 per minute per address: earlier tests of this file used part of it.
+    expect(statuses.length).toBeLessThanOrEqual(61);
   });
 });

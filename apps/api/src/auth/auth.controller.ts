@@ -1,6 +1,6 @@
-import { Body, Controller, Get, HttpCode, Post, Res, UseGuards } from '@nestjs/common';
+import { Body, Controller, Get, HttpCode, Post, Req, Res, UseGuards } from '@nestjs/common';
 import { Inject } from '@nestjs/common';
-import type { Response } from 'express';
+import type { Request, Response } from 'express';
 import { type Me, SignInBody } from '@torquetrail/contracts';
 import { ENV, type Env } from '../config/env.js';
 import { CurrentUser } from '../common/current-user.decorator.js';
@@ -11,7 +11,15 @@ import { AuthService } from './auth.service.js';
 import { SESSION_COOKIE, type SessionUser } from './session-user.js';
 import { SignInThrottlerGuard } from './sign-in-throttler.guard.js';
 
-const toMe = (user: SessionUser): Me => ({ ...user });
+const toMe = (user: SessionUser): Me => ({
+  id: user.id,
+  email: user.email,
+  displayName: user.displayName,
+  role: user.role,
+  practiceId: user.practiceId,
+  practiceName: user.practiceName,
+  sharedPatientIds: user.sharedPatientIds,
+});
 
 @Controller('auth')
 export class AuthController {
@@ -39,7 +47,8 @@ export class AuthController {
   @Public()
   @Post('sign-out')
   @HttpCode(204)
-  signOut(@Res({ passthrough: true }) res: Response): void {
+  async signOut(@Req() req: Request, @Res({ passthrough: true }) res: Response): Promise<void> {
+    await this.auth.signOut((req.cookies as Record<string, string> | undefined)?.[SESSION_COOKIE]);
     res.clearCookie(SESSION_COOKIE, { httpOnly: true, sameSite: 'strict', secure: this.env.COOKIE_SECURE, path: '/' });
   }
 

@@ -6,7 +6,7 @@ import { ENV, type Env } from '../config/env.js';
 import { AuthController } from './auth.controller.js';
 import { AuthService } from './auth.service.js';
 import { JwtStrategy } from './jwt.strategy.js';
-import { SignInThrottlerGuard } from './sign-in-throttler.guard.js';
+import { SignInThrottlerGuard, signInThrottlers } from './sign-in-throttler.guard.js';
 
 @Module({
   imports: [
@@ -18,7 +18,7 @@ import { SignInThrottlerGuard } from './sign-in-throttler.guard.js';
     // Only the sign-in route uses the throttler guard (see SignInThrottlerGuard).
     ThrottlerModule.forRootAsync({
       inject: [ENV],
-      useFactory: (env: Env) => [{ name: 'default', ttl: 60_000, limit: env.SIGN_IN_LIMIT_PER_MINUTE }],
+      useFactory: (env: Env) => signInThrottlers(env.SIGN_IN_LIMIT_PER_MINUTE, env.SIGN_IN_ADDRESS_LIMIT_PER_MINUTE),
     }),
   ],
   controllers: [AuthController],

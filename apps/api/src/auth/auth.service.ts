@@ -3,7 +3,7 @@ import { JwtService } from '@nestjs/jwt';
 import { DB, type Database } from '../db/database.js';
 import { DUMMY_HASH_PROMISE, verifyPassword } from './password.js';
 import type { SessionToken, SessionUser } from './session-user.js';
-import { findSessionUser, findUserForSignIn } from './users.repository.js';
+import { endSessions, findSessionUser, findUserForSignIn } from './users.repository.js';
 
 @Injectable()
 export class AuthService {
@@ -23,7 +23,14 @@ export class AuthService {
     return { user, token: await this.jwt.signAsync(payload) };
   }
 
-  loadSessionUser(userId: string): Promise<SessionUser | null> {
-    return findSessionUser(this.db, userId);
+  loadSessionUser(userId: string, issuedAtS?: number): Promise<SessionUser | null> {
+    return findSessionUser(this.db, userId, issuedAtS);
+  }
+
+  /** Sign-out ends the user's sessions on the server too, so a copied cookie stops working. */
+  async signOut(token: string | undefined): Promise<void> {
+    if (!token) return;
+    const payload = await this.jwt.verifyAsync<SessionToken>(token).catch(() => null);
+    if (payload?.sub) await endSessions(this.db, payload.sub);
   }
 }

@@ -21,8 +21,8 @@ export class JwtStrategy extends PassportStrategy(Strategy) {
     super({ jwtFromRequest: ExtractJwt.fromExtractors([fromSessionCookie]), secretOrKey: env.JWT_SECRET, ignoreExpiration: false });
   }
 
-  /** Returning null makes passport answer 401: a deactivated user's token stops working at once. */
+  /** Returning null makes passport answer 401: a deactivated or signed-out user's token stops working at once. */
   async validate(payload: SessionToken): Promise<SessionUser | null> {
-    return this.auth.loadSessionUser(payload.sub);
+    return this.auth.loadSessionUser(payload.sub, payload.iat ?? 0);
   }
 }

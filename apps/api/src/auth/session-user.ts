@@ -14,6 +14,8 @@ export interface SessionUser {
 /** What the session cookie's JWT carries. */
 export interface SessionToken {
   sub: string;
+  /** Issued at, seconds since the epoch (set by the signer). */
+  iat?: number;
 }
 
 export const SESSION_COOKIE = 'tt_session';

@@ -25,6 +25,8 @@ const EnvSchema = z.object({
   COOKIE_SECURE: z.enum(['true', 'false']).optional(),
   /** Sign-in attempts allowed per e-mail and address per minute. */
   SIGN_IN_LIMIT_PER_MINUTE: z.coerce.number().int().positive().default(10),
+  /** Sign-in attempts allowed per address (whatever the e-mail) per minute. */
+  SIGN_IN_ADDRESS_LIMIT_PER_MINUTE: z.coerce.number().int().positive().default(60),
   /** Reminder e-mails: first retry delay (seconds, doubled each retry) and how many retries. */
   REMINDER_RETRY_DELAY_S: z.coerce.number().int().min(1).default(60),
   REMINDER_RETRY_LIMIT: z.coerce.number().int().min(0).max(20).default(8),

@@ -18,6 +18,8 @@ export const users = pgTable(
     /** scrypt hash in the form scrypt$N$r$p$salt$hash (see auth/password.ts). */
     passwordHash: text('password_hash').notNull(),
     active: boolean('active').notNull().default(true),
+    /** Sessions (JWTs) issued before this instant are refused: set by sign-out. */
+    sessionsValidAfter: timestamp('sessions_valid_after', { withTimezone: true }),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [index('users_practice_idx').on(t.practiceId)],
