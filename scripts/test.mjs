@@ -6,7 +6,7 @@ import path from 'node:path';
 import { randomBytes } from 'node:crypto';
 import { spawn } from 'node:child_process';
 import { apiEnvironment, localDir, pg, repoRoot, s3 } from './lib/config.mjs';
-import { buildAll, ensureChromium, ensureDependencies, nodeScript } from './lib/bootstrap.mjs';
+import { buildAll, ensureChromium, ensureDependencies, nodeScript, typecheckAll } from './lib/bootstrap.mjs';
 
 const tiers = ['unit', 'api', 'browser'];
 const resultsDir = path.join(localDir, 'test-results');
@@ -50,6 +50,7 @@ async function main() {
   });
   await ensureDatabase(pg.testDatabase, { fresh: true });
   await buildAll();
+  await typecheckAll();
   const env = {
     ...apiEnvironment({ database: pg.testDatabase, bucket: s3.testBucket, jwtSecret: randomBytes(48).toString('base64url'), port: 0 }),
     NODE_ENV: 'test',

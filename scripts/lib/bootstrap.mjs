@@ -37,6 +37,12 @@ export async function buildAll() {
   await run(npm, ['run', 'build', '--silent'], { cwd: repoRoot });
 }
 
+/** Type-checks every workspace, tests included (the builds leave test files out). */
+export async function typecheckAll() {
+  console.log('[setup] type-checking every workspace, tests included …');
+  await run(npm, ['run', 'typecheck', '--silent'], { cwd: repoRoot });
+}
+
 /** The session-signing secret of this checkout's local app, made once and kept in .local/. */
 export function localJwtSecret() {
   const file = path.join(localDir, 'jwt-secret');
