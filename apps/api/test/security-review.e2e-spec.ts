@@ -353,6 +353,18 @@ describe('share scope of the Northgate surgeon', () => {
   });
 });
 
+describe('what the exam form context tells each role', () => {
+  it('gives the practice policy to the hygienist, and not to the surgeon of a shared patient', async () => {
+    const hygienist = await ctx.http.get(`/api/recalls/patients/${ids.harold}/exam-context`).set('Cookie', cookies.hygienist);
+    expect(hygienist.status).toBe(200);
+    expect(hygienist.body.policy).toMatchObject({ baseMonths: 6, riskMonths: 3 });
+    const surgeon = await ctx.http.get(`/api/recalls/patients/${ids.harold}/exam-context`).set('Cookie', cookies.surgeon);
+    expect(surgeon.status).toBe(200);
+    expect(surgeon.body.policy).toBeNull();
+    expect(surgeon.body.sites.length).toBeGreaterThan(0);
+  });
+});
+
 describe('role rules', () => {
   it('only the dentist writes restorations, parts and torque; only the hygienist records exams', async () => {
     for (const who of ['hygienist', 'surgeon', 'practice_admin'] as const) {

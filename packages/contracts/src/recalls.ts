@@ -147,7 +147,8 @@ export type CreateVisitReply = z.infer<typeof CreateVisitReply>;
 export const ExamContext = z.object({
   patient: z.object({ id: Id, chartNumber: z.string(), name: z.string(), riskFactors: RiskFactors }),
   today: IsoDate,
-  policy: RecallPolicyReply,
+  /** null for a user whose role may not read the practice's policy (a referring surgeon). */
+  policy: RecallPolicyReply.nullable(),
   sites: z.array(
     z.object({
       siteId: Id,

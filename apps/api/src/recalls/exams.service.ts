@@ -1,7 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import { BadRequestException, ConflictException, Inject, Injectable } from '@nestjs/common';
 import { sql } from 'drizzle-orm';
-import type { AppAbility } from '@torquetrail/authz';
+import { type AppAbility, subject } from '@torquetrail/authz';
 import { AmendExamBody as AmendExamSchema, CreateVisitBody as CreateVisitSchema, type CreateVisitReply, type RecallExam, type ExamContext, type SiteExamHistory } from '@torquetrail/contracts';
 import { classifyPeriImplant, DEFAULT_BONE_LOSS_MM, DEFAULT_PD_INCREASE_MM, DomainError, nextRecallDate, RULES_VERSION } from '@torquetrail/domain';
 import type { z } from 'zod';
@@ -50,7 +50,7 @@ export class ExamsService {
         riskFactors: { smoker: patient.smoker, diabetesPoorlyControlled: patient.diabetesPoorlyControlled, periodontitisHistory: patient.periodontitisHistory, priorPeriImplantitis: prior },
       },
       today,
-      policy,
+      policy: ability.can('read', subject('RecallPolicy', { practiceId: patient.practiceId })) ? policy : null,
       sites: sites.map((s) => {
         const mine = exams.filter((e) => e.siteId === s.siteId);
         const baseline = chooseBaseline(mine, today, s.deliveredOn);
