@@ -14,6 +14,9 @@ import { findVisiblePatientBrief, findVisibleRestoration, loadRestorationSites }
 import { StorageService } from '../storage/storage.service.js';
 import { renderLabPrescription } from './lab-prescription.pdf.js';
 
+/** A file name safe in a Content-Disposition header and a mail attachment, whatever the chart number holds. */
+export const pdfFilename = (chartNumber: string) => `lab-prescription-${chartNumber.replace(/[^A-Za-z0-9_-]+/g, '_').slice(0, 40)}.pdf`;
+
 const initials = (given: string, family: string) => `${given.trim()[0] ?? ''}. ${family.trim()[0] ?? ''}.`.toUpperCase();
 
 @Injectable()
@@ -64,7 +67,7 @@ export class LabPrescriptionsService {
           to: r.labEmail,
           subject: `Lab prescription ${patient.chartNumber} from ${patient.practiceName}`,
           text: `Please find the lab prescription for ${patient.chartNumber} attached.${r.dueOn ? ` Due ${r.dueOn}.` : ''}\n\n${patient.practiceName}`,
-          attachments: [{ filename: `lab-prescription-${patient.chartNumber}.pdf`, content: pdf, contentType: 'application/pdf' }],
+          attachments: [{ filename: pdfFilename(patient.chartNumber), content: pdf, contentType: 'application/pdf' }],
           headers: { 'X-Torquetrail-Lab-Prescription': id },
         });
       } catch {
@@ -83,6 +86,6 @@ export class LabPrescriptionsService {
       .innerJoin(patients, eq(patients.id, labPrescriptions.patientId))
       .where(and(eq(labPrescriptions.id, id), visiblePatients(scope)));
     const found = assertCan(ability, 'read', 'Restoration', row, 'lab prescription');
-    return { pdf: await this.storage.get(found.objectKey), filename: `lab-prescription-${found.chartNumber}.pdf` };
+    return { pdf: await this.storage.get(found.objectKey), filename: pdfFilename(found.chartNumber) };
   }
 }
