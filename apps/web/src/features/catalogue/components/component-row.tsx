@@ -22,7 +22,7 @@ export function ComponentRow({ part }: { part: CatalogueComponent }) {
       <td>
         {editing ? (
           <>
-            <NumericInput aria-label={`Torque of ${part.referenceCode} (N·cm, empty = hand-tight)`} min={1} max={100} value={spec ?? ''} onValueChange={(v) => setSpec(Number.isFinite(v) ? v : null)} intent={fields.torqueSpecNcm ? 'danger' : 'none'} />
+            <NumericInput buttonPosition="none" aria-label={`Torque of ${part.referenceCode} (N·cm, empty = hand-tight)`} min={1} max={100} value={spec ?? ''} onValueChange={(v) => setSpec(Number.isFinite(v) ? v : null)} intent={fields.torqueSpecNcm ? 'danger' : 'none'} />
             {fields.torqueSpecNcm && <span className="planner-error">{fields.torqueSpecNcm}</span>}
           </>
         ) : part.torqueSpecNcm === null ? (
@@ -31,7 +31,7 @@ export function ComponentRow({ part }: { part: CatalogueComponent }) {
           `${part.torqueSpecNcm} N·cm`
         )}
       </td>
-      <td>{editing ? <NumericInput aria-label={`Tolerance of ${part.referenceCode} (%)`} min={0} max={50} value={tol} onValueChange={setTol} /> : `±${part.tolerancePct} %`}</td>
+      <td>{editing ? <NumericInput buttonPosition="none" aria-label={`Tolerance of ${part.referenceCode} (%)`} min={0} max={50} value={tol} onValueChange={setTol} /> : `±${part.tolerancePct} %`}</td>
       <td>{part.requiresLot ? 'lot required' : ''}{part.inUse ? (part.requiresLot ? ', in use' : 'in use') : ''}</td>
       <Can I="update" a="Catalogue">
         <td>

@@ -30,7 +30,7 @@ export function ProbingDepthChart({ siteId }: { siteId: string }) {
         <>
           <div style={{ width: '100%', height: 240 }} aria-hidden="true">
             <ResponsiveContainer>
-              <LineChart data={points} margin={{ top: 8, right: 16, bottom: 8, left: 0 }}>
+              <LineChart data={points} margin={{ top: 8, right: 16, bottom: 8, left: 0 }} accessibilityLayer={false}>
                 <CartesianGrid strokeDasharray="3 3" />
                 <XAxis dataKey="label" minTickGap={24} />
                 <YAxis unit=" mm" domain={[0, 'dataMax + 1']} allowDecimals={false} />

@@ -43,7 +43,7 @@ export function PolicyRoute() {
       >
         {FIELDS.map((f) => (
           <FormGroup key={f.key} label={f.label} labelFor={`policy-${f.key}`} helperText={fields[f.key] ?? f.help} intent={fields[f.key] ? 'danger' : 'none'}>
-            <NumericInput id={`policy-${f.key}`} min={0} max={180} value={form[f.key]} onValueChange={(v) => setForm({ ...form, [f.key]: Number.isFinite(v) ? v : 0 })} />
+            <NumericInput buttonPosition="none" id={`policy-${f.key}`} min={0} max={180} value={form[f.key]} onValueChange={(v) => setForm({ ...form, [f.key]: Number.isFinite(v) ? v : 0 })} />
           </FormGroup>
         ))}
         <Can I="update" a="RecallPolicy">

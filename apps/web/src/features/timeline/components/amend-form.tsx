@@ -37,7 +37,7 @@ export function AmendForm({ siteId, event, onDone }: { siteId: string; event: Ti
     <form className="amend-form" onSubmit={submit} aria-label="Amend this entry" noValidate>
       {event.kind === 'torque' ? (
         <FormGroup label="Corrected torque (N·cm)" labelFor={`amend-${event.id}`} intent={fields.appliedNcm ? 'danger' : 'none'} helperText={fields.appliedNcm}>
-          <NumericInput id={`amend-${event.id}`} min={1} max={100} value={applied ?? ''} onValueChange={(v) => setApplied(Number.isFinite(v) ? v : null)} />
+          <NumericInput buttonPosition="none" id={`amend-${event.id}`} min={1} max={100} value={applied ?? ''} onValueChange={(v) => setApplied(Number.isFinite(v) ? v : null)} />
         </FormGroup>
       ) : (
         <FormGroup label="Corrected notes" labelFor={`amend-${event.id}`}>

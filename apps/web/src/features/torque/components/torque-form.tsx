@@ -82,7 +82,7 @@ export function TorqueForm({ siteId, parts, onDone }: { siteId: string; parts: S
         </HTMLSelect>
       </FormGroup>
       <FormGroup label="Applied torque (N·cm)" labelFor="torque-applied" {...err('appliedNcm')}>
-        <NumericInput id="torque-applied" min={1} max={100} stepSize={0.5} minorStepSize={0.1} value={applied ?? ''} onValueChange={(v) => setApplied(Number.isFinite(v) ? v : null)} fill allowNumericCharactersOnly />
+        <NumericInput buttonPosition="none" id="torque-applied" min={1} max={100} stepSize={0.5} minorStepSize={0.1} value={applied ?? ''} onValueChange={(v) => setApplied(Number.isFinite(v) ? v : null)} fill allowNumericCharactersOnly />
       </FormGroup>
       {part && (
         <p className="torque-form__spec" data-testid="torque-spec">
