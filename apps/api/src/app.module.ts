@@ -18,6 +18,7 @@ import { ComplicationsModule } from './complications/complications.module.js';
 import { LabPrescriptionsModule } from './lab-prescriptions/lab-prescriptions.module.js';
 import { RestorationsModule } from './restorations/restorations.module.js';
 import { TorqueModule } from './torque/torque.module.js';
+import { PlacementsModule } from './placements/placements.module.js';
 import { StorageModule } from './storage/storage.module.js';
 
 @Module({})
@@ -38,6 +39,7 @@ export class AppModule {
         RestorationsModule,
         LabPrescriptionsModule,
         TorqueModule,
+        PlacementsModule,
         ComplicationsModule,
         RecallsModule,
         ...(env.NODE_ENV === 'production' ? [] : [OpenApiModule]),

@@ -9,4 +9,5 @@ export * from './patients.js';
 export * from './sites.js';
 export * from './ledger.js';
 export * from './recalls.js';
+export * from './placements.js';
 export * from './routes.js';

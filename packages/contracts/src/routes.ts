@@ -1,6 +1,7 @@
 import type { RouteContract } from './route-contract.js';
 import { ledgerRoutes } from './ledger.js';
 import { recallRoutes } from './recalls.js';
+import { placementRoutes } from './placements.js';
 import { Me, SignInBody } from './auth.js';
 import { ErrorReply } from './common.js';
 import { HealthReply } from './health.js';
@@ -18,6 +19,7 @@ export const apiRoutes: RouteContract[] = [
   { method: 'get', path: '/sites/:id', summary: 'The Site file: header, placement and the Stack', signedIn: true, reply: SiteFile },
   ...ledgerRoutes,
   ...recallRoutes,
+  ...placementRoutes,
 ];
 
 export type { RouteContract };

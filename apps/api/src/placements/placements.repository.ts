@@ -1,0 +1,142 @@
+import { and, asc, eq, inArray, sql } from 'drizzle-orm';
+import type { Db, Tx } from '../db/database.js';
+import { componentInstances, components, implantSites, implantSystems, patients, placements, platforms, users } from '../db/schema/index.js';
+import type { Scope } from '../authz/scope.js';
+import { visiblePatients } from '../patients/patients.repository.js';
+
+/** Sites of one patient at one FDI position (there is at most one by the unique constraint). */
+export async function findSiteAt(db: Db, practiceId: string, patientId: string, fdi: number) {
+  const [row] = await db
+    .select({ id: implantSites.id, status: implantSites.status })
+    .from(implantSites)
+    .where(and(eq(implantSites.practiceId, practiceId), eq(implantSites.patientId, patientId), eq(implantSites.fdi, fdi)));
+  return row ?? null;
+}
+
+export async function insertPlannedSite(tx: Tx, v: { practiceId: string; patientId: string; fdi: number }) {
+  const [row] = await tx.insert(implantSites).values({ ...v, status: 'planned' }).returning({ id: implantSites.id, fdi: implantSites.fdi, status: implantSites.status });
+  return row!;
+}
+
+/** Locks a site until the transaction ends: two placements of one planned site run one after the other. */
+export async function lockSite(tx: Tx, siteId: string) {
+  const [row] = await tx.select({ status: implantSites.status }).from(implantSites).where(eq(implantSites.id, siteId)).for('update');
+  return row ?? null;
+}
+
+export async function setSiteStatus(tx: Tx, siteId: string, status: 'placed') {
+  await tx.update(implantSites).set({ status }).where(eq(implantSites.id, siteId));
+}
+
+/** Platforms of one practice with their systems and closure parts (healing abutments, cover screws). */
+export async function listPlacementOptions(db: Db, practiceId: string) {
+  const rows = await db
+    .select({
+      systemId: implantSystems.id,
+      systemName: implantSystems.name,
+      manufacturer: implantSystems.manufacturer,
+      platformId: platforms.id,
+      platformName: platforms.name,
+      diameterMm: platforms.diameterMm,
+      connection: platforms.connection,
+      platformShift: platforms.platformShift,
+    })
+    .from(platforms)
+    .innerJoin(implantSystems, eq(implantSystems.id, platforms.systemId))
+    .where(eq(platforms.practiceId, practiceId))
+    .orderBy(asc(implantSystems.name), asc(platforms.diameterMm), asc(platforms.name));
+  const parts = await db
+    .select({ id: components.id, platformId: components.platformId, kind: components.kind, name: components.name, referenceCode: components.referenceCode, requiresLot: components.requiresLot })
+    .from(components)
+    .where(and(eq(components.practiceId, practiceId), inArray(components.kind, ['healing-abutment', 'cover-screw'])))
+    .orderBy(asc(components.kind), asc(components.name));
+  return { rows, parts };
+}
+
+/** A platform of the given practice (another practice's platform is simply not found). */
+export async function findPlatformOfPractice(db: Db, practiceId: string, platformId: string) {
+  const [row] = await db.select({ id: platforms.id }).from(platforms).where(and(eq(platforms.id, platformId), eq(platforms.practiceId, practiceId)));
+  return row ?? null;
+}
+
+/** A part of the given platform within the practice. */
+export async function findComponentOfPlatform(db: Db, practiceId: string, platformId: string, componentId: string) {
+  const [row] = await db
+    .select({ id: components.id, kind: components.kind, name: components.name, requiresLot: components.requiresLot })
+    .from(components)
+    .where(and(eq(components.id, componentId), eq(components.practiceId, practiceId), eq(components.platformId, platformId)));
+  return row ?? null;
+}
+
+type PlacementValues = typeof placements.$inferInsert;
+export async function insertPlacement(tx: Tx, v: PlacementValues) {
+  const [row] = await tx.insert(placements).values(v).returning({ id: placements.id });
+  return row!.id;
+}
+
+export async function insertClosurePart(tx: Tx, v: typeof componentInstances.$inferInsert) {
+  const [row] = await tx.insert(componentInstances).values(v).returning({ id: componentInstances.id });
+  return row!.id;
+}
+
+/** A placement whose patient the user may see, with the id of the version that supersedes it, if any. */
+export async function findVisiblePlacement(db: Db, scope: Scope, id: string) {
+  const [row] = await db
+    .select({
+      id: placements.id,
+      practiceId: placements.practiceId,
+      patientId: placements.patientId,
+      siteId: placements.siteId,
+      surgeonUserId: placements.surgeonUserId,
+      surgeonName: placements.surgeonName,
+      supersededById: sql<string | null>`(select p2.id from ${placements} p2 where p2.supersedes_id = ${placements.id} limit 1)`,
+    })
+    .from(placements)
+    .innerJoin(patients, eq(patients.id, placements.patientId))
+    .where(and(eq(placements.id, id), visiblePatients(scope)));
+  return row ?? null;
+}
+
+/** Locks a placement until the transaction ends: of two amendments of it only the first is saved. */
+export async function lockPlacement(tx: Tx, id: string) {
+  await tx.select({ id: placements.id }).from(placements).where(eq(placements.id, id)).for('update');
+}
+
+export async function isSuperseded(db: Db, id: string) {
+  const [row] = await db.select({ id: placements.id }).from(placements).where(eq(placements.supersedesId, id)).limit(1);
+  return Boolean(row);
+}
+
+export async function loadPlacement(db: Db, id: string) {
+  const [row] = await db
+    .select({
+      id: placements.id,
+      siteId: placements.siteId,
+      platformId: placements.platformId,
+      platformName: platforms.name,
+      systemName: implantSystems.name,
+      placedOn: placements.placedOn,
+      surgeonName: placements.surgeonName,
+      lengthMm: placements.lengthMm,
+      lot: placements.lot,
+      udi: placements.udi,
+      insertionTorqueNcm: placements.insertionTorqueNcm,
+      stabilityIsq: placements.stabilityIsq,
+      grafting: placements.grafting,
+      loadingProtocol: placements.loadingProtocol,
+      axisX: placements.axisX,
+      axisY: placements.axisY,
+      axisZ: placements.axisZ,
+      notes: placements.notes,
+      supersedesId: placements.supersedesId,
+      amendmentReason: placements.amendmentReason,
+      recordedAt: placements.recordedAt,
+      recordedByName: users.displayName,
+    })
+    .from(placements)
+    .innerJoin(platforms, eq(platforms.id, placements.platformId))
+    .innerJoin(implantSystems, eq(implantSystems.id, platforms.systemId))
+    .leftJoin(users, eq(users.id, placements.recordedBy))
+    .where(eq(placements.id, id));
+  return row!;
+}

@@ -1,0 +1,144 @@
+// Planned implant sites and placements: what the surgeon (or the dentist) placed, with the UDI.
+import { z } from 'zod';
+import { Id, IsoDate, IsoDateTime } from './common.js';
+import type { RouteContract } from './route-contract.js';
+import { ArchSite } from './patients.js';
+import { ComponentKind, Connection } from './sites.js';
+
+export const AddSiteBody = z.object({
+  /** FDI (ISO 3950) position; checked with the domain's `isValidFdi` on the server. */
+  fdi: z.number({ error: 'Choose a tooth position' }).int('Choose a tooth position'),
+});
+export type AddSiteBody = z.input<typeof AddSiteBody>;
+
+export const LoadingProtocol = z.enum(['immediate', 'early', 'conventional']);
+export type LoadingProtocol = z.infer<typeof LoadingProtocol>;
+
+/** Parts that close the implant at surgery: hand-tight, no torque is logged. */
+export const CLOSURE_KINDS = ['healing-abutment', 'cover-screw'] as const satisfies readonly ComponentKind[];
+
+export const PlacementOptionComponent = z.object({
+  id: Id,
+  kind: z.enum(CLOSURE_KINDS),
+  name: z.string(),
+  referenceCode: z.string(),
+  requiresLot: z.boolean(),
+});
+export type PlacementOptionComponent = z.infer<typeof PlacementOptionComponent>;
+
+export const PlacementOptionPlatform = z.object({
+  id: Id,
+  name: z.string(),
+  diameterMm: z.number(),
+  connection: Connection,
+  platformShift: z.boolean(),
+  components: z.array(PlacementOptionComponent),
+});
+export const PlacementOptionSystem = z.object({ id: Id, name: z.string(), manufacturer: z.string(), platforms: z.array(PlacementOptionPlatform) });
+
+/** The implant systems of the SITE's practice (the surgeon of another practice may place from them). */
+export const PlacementOptionsReply = z.object({
+  siteId: Id,
+  fdi: z.number().int(),
+  caution: z.string(),
+  systems: z.array(PlacementOptionSystem),
+});
+export type PlacementOptionsReply = z.infer<typeof PlacementOptionsReply>;
+
+const optionalText = (max: number) =>
+  z
+    .string()
+    .trim()
+    .max(max, `At most ${max} characters`)
+    .nullable()
+    .default(null)
+    .transform((s) => (s ? s : null));
+
+export const Axis = z
+  .object({ x: z.number(), y: z.number(), z: z.number() })
+  .refine((a) => Math.hypot(a.x, a.y, a.z) > 1e-9, 'The axis cannot be a zero vector');
+
+const placementFields = {
+  platformId: z.uuid({ error: 'Choose the platform' }),
+  placedOn: IsoDate,
+  lengthMm: z.number({ error: 'Enter the implant length in mm' }).min(4, 'Length must be between 4 and 20 mm').max(20, 'Length must be between 4 and 20 mm'),
+  lot: optionalText(40),
+  /** The UDI as scanned (raw, with GS separators) or typed (human-readable); parsed on the server. */
+  udi: z
+    .string()
+    .max(200, 'At most 200 characters')
+    .nullable()
+    .default(null)
+    .transform((s) => (s && s.trim() ? s : null)),
+  insertionTorqueNcm: z.number().min(5, 'Insertion torque must be between 5 and 100 N·cm').max(100, 'Insertion torque must be between 5 and 100 N·cm').nullable().default(null),
+  stabilityIsq: z.number().int('ISQ is a whole number').min(1, 'ISQ must be between 1 and 99').max(99, 'ISQ must be between 1 and 99').nullable().default(null),
+  grafting: optionalText(500),
+  loadingProtocol: LoadingProtocol.nullable().default(null),
+  axis: Axis.nullable().default(null),
+  notes: optionalText(2000),
+};
+
+export const PlacementBody = z.object({
+  ...placementFields,
+  /** A healing abutment or cover screw of the chosen platform, installed at surgery (hand-tight). */
+  closureComponentId: Id.nullable().default(null),
+  closureLot: optionalText(40),
+});
+export type PlacementBody = z.input<typeof PlacementBody>;
+
+export const PlacementAmendmentBody = z.object({
+  ...placementFields,
+  amendmentReason: z.string().trim().min(3, 'Say why the entry is amended').max(500),
+});
+export type PlacementAmendmentBody = z.input<typeof PlacementAmendmentBody>;
+
+export const PlacementRecord = z.object({
+  id: Id,
+  siteId: Id,
+  platformId: Id,
+  platformName: z.string(),
+  systemName: z.string(),
+  placedOn: IsoDate,
+  surgeonName: z.string(),
+  lengthMm: z.number(),
+  lot: z.string().nullable(),
+  udi: z.string().nullable(),
+  insertionTorqueNcm: z.number().nullable(),
+  stabilityIsq: z.number().nullable(),
+  grafting: z.string().nullable(),
+  loadingProtocol: LoadingProtocol.nullable(),
+  axis: z.object({ x: z.number(), y: z.number(), z: z.number() }).nullable(),
+  notes: z.string().nullable(),
+  supersedesId: Id.nullable(),
+  amendmentReason: z.string().nullable(),
+  recordedAt: IsoDateTime,
+  /** The healing abutment or cover screw installed with the placement, if any. */
+  closureInstanceId: Id.nullable(),
+});
+export type PlacementRecord = z.infer<typeof PlacementRecord>;
+
+/** Readable explanation of a UDI parse error code (the domain's `UdiError.code`), for API and web. */
+const UDI_ERROR_HINTS: Record<string, string> = {
+  empty: 'The UDI is empty',
+  'bad-check-digit': 'The GTIN check digit is wrong: rescan or retype the UDI',
+  'bad-date': 'A date in the UDI does not exist',
+  'unknown-ai': 'The UDI contains an element that is not supported',
+  truncated: 'The UDI is incomplete',
+  'missing-gtin': 'The UDI has no (01) GTIN',
+  'too-long': 'An element of the UDI is too long',
+  'bad-format': 'The UDI is not a GS1 element string',
+  'bad-character': 'The UDI contains a character GS1 does not allow',
+  'duplicate-ai': 'An element appears twice in the UDI',
+};
+export function describeUdiError(code: string, detail: string): string {
+  return `${UDI_ERROR_HINTS[code] ?? 'The UDI cannot be read'} (${detail})`;
+}
+
+const r = (method: RouteContract['method'], path: string, summary: string, extra: Partial<RouteContract> = {}): RouteContract => ({ method, path, summary, signedIn: true, ...extra });
+
+export const placementRoutes: RouteContract[] = [
+  r('post', '/patients/:id/sites', 'Add a planned implant site at an FDI position (dentist)', { body: AddSiteBody, reply: ArchSite }),
+  r('get', '/sites/:id/placement-options', "Implant systems, platforms and closure parts of the site's practice, for recording a placement", { reply: PlacementOptionsReply }),
+  r('post', '/sites/:id/placements', 'Record the placement of a planned site; a UDI is parsed on the server', { body: PlacementBody, reply: PlacementRecord }),
+  r('post', '/placements/:id/amendments', 'Amend a placement: a new version superseding the old one, with its reason', { body: PlacementAmendmentBody, reply: PlacementRecord }),
+];
