@@ -36,6 +36,10 @@ export const router = createBrowserRouter([
             }),
           },
           {
+            path: 'patients/:patientId/sites/:siteId/placement',
+            lazy: async () => ({ Component: (await import('../features/placement/routes/record-placement-route')).RecordPlacementRoute }),
+          },
+          {
             path: 'patients/:patientId/restorations',
             lazy: async () => ({ Component: (await import('../features/planner/routes/restorations-route')).RestorationsRoute }),
           },

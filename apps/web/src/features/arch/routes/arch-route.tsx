@@ -10,6 +10,7 @@ import { LoadingState } from '../../../lib/components/loading-state';
 import { MAINTENANCE_NOTE } from '../../../lib/labels';
 import { useToothSystem } from '../../../lib/tooth-system';
 import { usePatient } from '../../../lib/api/get-patient';
+import { AddSiteControl } from '../components/add-site-control';
 import { ArchDrawing } from '../components/arch-drawing';
 import { ArchLegend } from '../components/arch-legend';
 import { NumberingSwitch } from '../components/numbering-switch';
@@ -103,6 +104,9 @@ export function ArchRoute() {
 
       <section className="sites-section" aria-labelledby="sites-heading">
         <h2 id="sites-heading">Implant sites</h2>
+        <Can I="create" a="ImplantSite">
+          <AddSiteControl patientId={data.id} sites={data.sites} system={system} />
+        </Can>
         {data.sites.length === 0 ? (
           <NonIdealState icon="inbox" title="No implant sites recorded" description="Sites appear here once planned or placed." />
         ) : (

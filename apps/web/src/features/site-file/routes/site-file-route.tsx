@@ -1,6 +1,8 @@
 import '../components/site-file.css';
 import { formatTooth } from '@torquetrail/domain';
+import { Classes } from '@blueprintjs/core';
 import { Link, Navigate, useParams } from 'react-router-dom';
+import { Can } from '../../../lib/ability';
 import { isApiError } from '../../../lib/api-client';
 import { BreadcrumbTrail } from '../../../lib/components/breadcrumb-trail';
 import { ErrorState } from '../../../lib/components/error-state';
@@ -53,6 +55,15 @@ export function SiteFileRoute() {
         ]}
       />
       <SiteFileHeader site={data} system={system} />
+      {data.status === 'planned' && (
+        <Can I="create" a="Placement">
+          <p className="site-file__links">
+            <Link className={`${Classes.BUTTON} ${Classes.INTENT_PRIMARY}`} to={`/patients/${data.patientId}/sites/${data.id}/placement`} data-testid="record-placement">
+              Record placement
+            </Link>
+          </p>
+        </Can>
+      )}
       <Stack site={data} system={system} />
       <p className="site-file__links">
         <Link to={`/patients/${data.patientId}/restorations`}>Restorations and planner of {data.patientName}</Link>

@@ -1,0 +1,50 @@
+import { FormGroup, InputGroup } from '@blueprintjs/core';
+import { describeUdiError } from '@torquetrail/contracts';
+import { type ParsedUdi, parseUdi, UdiError } from '@torquetrail/domain';
+import { formatDate } from '../../../lib/dates';
+
+export type UdiReading = { ok: true; udi: ParsedUdi } | { ok: false; message: string } | null;
+
+/** The same `parseUdi` the server runs, on what was scanned or typed; null when the field is empty. */
+export function readUdi(text: string): UdiReading {
+  if (!text.trim()) return null;
+  try {
+    return { ok: true, udi: parseUdi(text) };
+  } catch (error) {
+    if (error instanceof UdiError) return { ok: false, message: describeUdiError(error.code, error.message) };
+    throw error;
+  }
+}
+
+/**
+ * UDI as scanned (raw, with GS separators) or typed (human-readable "(01)…(17)…(10)…"). It is read
+ * live: GTIN, lot and expiry — or the reason it cannot be read — beside the field.
+ */
+export function UdiField({ value, onChange, placedOn, serverError }: { value: string; onChange: (text: string, reading: UdiReading) => void; placedOn: string; serverError?: string }) {
+  const reading = readUdi(value);
+  const expired = reading?.ok && reading.udi.expiry !== undefined && placedOn && reading.udi.expiry < placedOn;
+  const error = reading && !reading.ok ? reading.message : expired ? `The implant's expiry date ${reading.udi.expiry} is before the placement date ${placedOn}` : serverError;
+  return (
+    <FormGroup label="UDI (scan or type)" labelFor="placement-udi" helperText={error && <span data-testid="error-udi">{error}</span>} intent={error ? 'danger' : 'none'} subLabel="Optional. GS1 element string, e.g. (01)…(17)…(10)…">
+      <InputGroup id="placement-udi" value={value} onValueChange={(text) => onChange(text, readUdi(text))} className="mono" autoComplete="off" spellCheck={false} aria-describedby="placement-udi-reading" />
+      <div id="placement-udi-reading" aria-live="polite" data-testid="udi-reading">
+        {reading?.ok && (
+          <dl className="placement-udi__reading">
+            <dt>GTIN</dt>
+            <dd className="mono" data-testid="udi-gtin">{reading.udi.gtin}</dd>
+            <dt>Lot</dt>
+            <dd className="mono" data-testid="udi-lot">{reading.udi.lot ?? 'not in the UDI'}</dd>
+            <dt>Expiry</dt>
+            <dd data-testid="udi-expiry">{reading.udi.expiry ? <time dateTime={reading.udi.expiry}>{reading.udi.expiry} ({formatDate(reading.udi.expiry)})</time> : "not in the UDI"}</dd>
+            {reading.udi.serial && (
+              <>
+                <dt>Serial</dt>
+                <dd className="mono">{reading.udi.serial}</dd>
+              </>
+            )}
+          </dl>
+        )}
+      </div>
+    </FormGroup>
+  );
+}
