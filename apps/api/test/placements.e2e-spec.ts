@@ -42,10 +42,12 @@ const placementBody = (over: Record<string, unknown> = {}) => ({
   ...over,
 });
 
+/** Positions the scenario tests below use on Lucía Ferraz; the matrix leaves them free. */
+const SCENARIO_POSITIONS = [36, 46, 47];
 /** Free permanent positions of a patient, handed out one per call. */
 async function freePositions(pid: string) {
   const taken = new Set((await ctx.db.select({ fdi: implantSites.fdi }).from(implantSites).where(eq(implantSites.patientId, pid))).map((s) => s.fdi));
-  const free = [1, 2, 3, 4].flatMap((q) => [1, 2, 3, 4, 5, 6, 7, 8].map((t) => q * 10 + t)).filter((f) => !taken.has(f));
+  const free = [1, 2, 3, 4].flatMap((q) => [1, 2, 3, 4, 5, 6, 7, 8].map((t) => q * 10 + t)).filter((f) => !taken.has(f) && !SCENARIO_POSITIONS.includes(f));
   return () => {
     const next = free.shift();
     if (next === undefined) throw new Error('no free position left');
@@ -148,6 +150,25 @@ describe('adding a planned site', () => {
       const res = await ctx.http.post(`/api/patients/${ids.lucia}/sites`).set('Cookie', cookies.dentist).send({ fdi });
       expect(res.status).toBe(409);
     }
+  });
+});
+
+describe('planning again where a site failed', () => {
+  it('adds a planned site at a position whose earlier site failed; both stay in the record', async () => {
+    const larkspur = await larkspurId(ctx.db);
+    await ctx.db.insert(implantSites).values({ practiceId: larkspur, patientId: ids.lucia!, fdi: 46, status: 'failed' });
+    const res = await ctx.http.post(`/api/patients/${ids.lucia}/sites`).set('Cookie', cookies.dentist).send({ fdi: 46 });
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    const arch = await ctx.http.get(`/api/patients/${ids.lucia}`).set('Cookie', cookies.dentist);
+    expect(arch.body.sites.filter((s: { fdi: number }) => s.fdi === 46).map((s: { status: string }) => s.status).sort()).toEqual(['failed', 'planned']);
+    const again = await ctx.http.post(`/api/patients/${ids.lucia}/sites`).set('Cookie', cookies.dentist).send({ fdi: 46 });
+    expect(again.status).toBe(409);
+  });
+
+  it('saves one of two simultaneous requests for the same position (the unique index), the other is 409', async () => {
+    const send = () => ctx.http.post(`/api/patients/${ids.lucia}/sites`).set('Cookie', cookies.dentist).send({ fdi: 47 });
+    const statuses = (await Promise.all([send(), send()])).map((r) => r.status).sort();
+    expect(statuses).toEqual([201, 409]);
   });
 });
 

@@ -24,6 +24,9 @@ describe('referring surgeon', () => {
     await page.getByTestId('patient-search').fill('Ferraz');
     await page.getByTestId('patients-table').getByRole('link', { name: /Ferraz/ }).click();
     await page.waitForURL(/\/patients\/[0-9a-f-]{36}$/);
+    // Sites of a shared patient are planned by its practice: no control for the surgeon.
+    await page.getByRole('link', { name: 'Site 24', exact: true }).waitFor();
+    expect(await page.getByTestId('add-site').count()).toBe(0);
     await page.getByRole('link', { name: 'Site 24', exact: true }).click();
     await page.waitForURL(/\/sites\/[0-9a-f-]{36}$/);
     await page.getByTestId('record-placement').click();

@@ -38,6 +38,8 @@ export const ArchSite = z.object({
 export type ArchSite = z.infer<typeof ArchSite>;
 
 export const PatientDetail = PatientListItem.extend({
+  /** The patient's practice: row-level checks in the web (e.g. a shared surgeon may not plan sites). */
+  practiceId: Id,
   riskFactors: z.object({
     smoker: z.boolean(),
     diabetesPoorlyControlled: z.boolean(),

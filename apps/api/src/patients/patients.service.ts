@@ -20,6 +20,7 @@ export class PatientsService {
     const exams = ability.can('read', subject('RecallExam', { practiceId: patient.practiceId, patientId: patient.id })) ? await latestExamBySite(this.db, sites.map((s) => s.id)) : new Map();
     return {
       id: patient.id,
+      practiceId: patient.practiceId,
       chartNumber: patient.chartNumber,
       givenName: patient.givenName,
       familyName: patient.familyName,

@@ -1,15 +1,15 @@
-import { and, asc, eq, inArray, sql } from 'drizzle-orm';
+import { and, asc, eq, inArray, notInArray, sql } from 'drizzle-orm';
 import type { Db, Tx } from '../db/database.js';
 import { componentInstances, components, implantSites, implantSystems, patients, placements, platforms, users } from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
 import { visiblePatients } from '../patients/patients.repository.js';
 
-/** Sites of one patient at one FDI position (there is at most one by the unique constraint). */
-export async function findSiteAt(db: Db, practiceId: string, patientId: string, fdi: number) {
+/** The live site (not failed, not removed) of a patient at an FDI position; a unique index keeps it to one. */
+export async function findLiveSiteAt(db: Db, practiceId: string, patientId: string, fdi: number) {
   const [row] = await db
     .select({ id: implantSites.id, status: implantSites.status })
     .from(implantSites)
-    .where(and(eq(implantSites.practiceId, practiceId), eq(implantSites.patientId, patientId), eq(implantSites.fdi, fdi)));
+    .where(and(eq(implantSites.practiceId, practiceId), eq(implantSites.patientId, patientId), eq(implantSites.fdi, fdi), notInArray(implantSites.status, ['failed', 'removed'])));
   return row ?? null;
 }
 

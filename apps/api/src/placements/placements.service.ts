@@ -38,7 +38,7 @@ function assertSiteCurrent(status: string | undefined) {
 export class PlacementsService {
   constructor(@Inject(DB) private readonly db: Database) {}
 
-  /** A planned site at a permanent FDI position where the patient has no live site yet. */
+  /** A planned site at a permanent FDI position where the patient has no live site (a failed or removed one may be there). */
   async addSite(ability: AppAbility, scope: Scope, patientId: string, body: z.output<typeof AddSiteBody>): Promise<ArchSite> {
     const patient = assertCan(ability, 'read', 'Patient', await findVisiblePatient(this.db, scope, patientId), 'patient');
     const row = { practiceId: patient.practiceId, patientId: patient.id };
@@ -47,14 +47,9 @@ export class PlacementsService {
     // Implants replace permanent teeth; fdiToUniversal also throws for a position that does not exist.
     if (isPrimaryTooth(body.fdi)) throw fieldError({ fdi: `${body.fdi} is a primary tooth: an implant site is a permanent position (11–48)` });
     fdiToUniversal(body.fdi);
-    const existing = await repo.findSiteAt(this.db, patient.practiceId, patient.id, body.fdi);
-    if (existing && existing.status !== 'failed' && existing.status !== 'removed') {
-      throw new ConflictException(`This patient already has a ${existing.status} site at ${body.fdi}`);
-    }
-    if (existing) {
-      // The failed or removed site stays in the record; the schema keeps one site per position.
-      throw new ConflictException(`The site at ${body.fdi} is recorded as ${existing.status}; a new site cannot be planned at the same position yet`);
-    }
+    const existing = await repo.findLiveSiteAt(this.db, patient.practiceId, patient.id, body.fdi);
+    // A failed or removed site stays in the record; a new site may be planned at its position.
+    if (existing) throw new ConflictException(`This patient already has a ${existing.status} site at ${body.fdi}`);
     try {
       const site = await this.db.transaction((tx) => repo.insertPlannedSite(tx, { ...row, fdi: body.fdi }));
       return { id: site.id, fdi: site.fdi, status: site.status, maintenanceStatus: 'not-examined', lastExamDate: null, systemName: null };

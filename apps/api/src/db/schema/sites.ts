@@ -1,4 +1,5 @@
-import { date, index, numeric, pgTable, smallint, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core';
+import { sql } from 'drizzle-orm';
+import { date, index, numeric, pgTable, smallint, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
 import { platforms } from './catalogue.js';
 import { loadingProtocolEnum, siteStatusEnum } from './enums.js';
 import { patients } from './patients.js';
@@ -15,7 +16,11 @@ export const implantSites = pgTable(
     status: siteStatusEnum('status').notNull(),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [unique('implant_sites_patient_fdi_unique').on(t.patientId, t.fdi), index('implant_sites_practice_idx').on(t.practiceId)],
+  (t) => [
+    // One live site per position; a failed or removed site stays in the record and a new one may be planned there.
+    uniqueIndex('implant_sites_patient_fdi_live_unique').on(t.patientId, t.fdi).where(sql`${t.status} not in ('failed', 'removed')`),
+    index('implant_sites_practice_idx').on(t.practiceId),
+  ],
 );
 
 /**

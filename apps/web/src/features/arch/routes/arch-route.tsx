@@ -1,6 +1,7 @@
 import '../components/arch.css';
 import { Classes, NonIdealState } from '@blueprintjs/core';
 import { isPrimaryTooth, TOOTH_POSITIONS_PERMANENT, TOOTH_POSITIONS_PRIMARY } from '@torquetrail/domain';
+import { subject } from '@torquetrail/authz';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { Can } from '../../../lib/ability';
 import { isApiError } from '../../../lib/api-client';
@@ -104,7 +105,7 @@ export function ArchRoute() {
 
       <section className="sites-section" aria-labelledby="sites-heading">
         <h2 id="sites-heading">Implant sites</h2>
-        <Can I="create" a="ImplantSite">
+        <Can I="create" this={subject('ImplantSite', { practiceId: data.practiceId, patientId: data.id })}>
           <AddSiteControl patientId={data.id} sites={data.sites} system={system} />
         </Can>
         {data.sites.length === 0 ? (

@@ -1,0 +1,2 @@
+ALTER TABLE "implant_sites" DROP CONSTRAINT "implant_sites_patient_fdi_unique";--> statement-breakpoint
+CREATE UNIQUE INDEX "implant_sites_patient_fdi_live_unique" ON "implant_sites" USING btree ("patient_id","fdi") WHERE "implant_sites"."status" not in ('failed', 'removed');
