@@ -44,6 +44,11 @@ describe('referring surgeon', () => {
     expect(await page.getByTestId('udi-lot').textContent()).toBe('SCN3511-26X');
     expect(await page.getByTestId('udi-expiry').textContent()).toContain('2028-12-31');
     expect(await page.getByLabel('Lot', { exact: true }).inputValue()).toBe('SCN3511-26X');
+    // A typed lot that differs from the scanned one is flagged beside the lot (checkUdiForPlacement).
+    await page.getByLabel('Lot', { exact: true }).fill('SCN3511-26Y');
+    await expect.poll(() => page.getByTestId('error-lot').textContent()).toMatch(/differs from the lot in the UDI/);
+    await page.getByLabel('Lot', { exact: true }).fill('SCN3511-26X');
+    await expect.poll(() => page.getByTestId('error-lot').count()).toBe(0);
 
     // A mistyped check digit: the error beside the field, at once.
     await udi.fill(`(01)${BAD_GTIN}(17)281231(10)SCN3511-26X`);

@@ -4,7 +4,7 @@ import * as domain from './index.js';
 describe('package root exports the public API', () => {
   it.each([
     'fdiToUniversal', 'universalToFdi', 'formatTooth', 'toothKind', 'toothArch', 'isPrimaryTooth', 'isValidFdi',
-    'classifyPeriImplant', 'gtinCheckDigit', 'isValidGtin', 'parseUdi', 'divergenceDeg', 'pixelDistanceMm',
+    'classifyPeriImplant', 'gtinCheckDigit', 'isValidGtin', 'parseUdi', 'checkUdiForPlacement', 'divergenceDeg', 'pixelDistanceMm',
     'correctByKnownLength', 'torqueVerdict', 'albrektssonAllowanceMm', 'meetsAlbrektsson', 'icoiGrade',
     'minRestorativeSpaceMm', 'validateRestorationPlan', 'nextRecallDate',
   ])('%s is a function', (name) => {

@@ -82,6 +82,9 @@ export { parseUdi } from './udi.js';
 export { GS, SYMBOLOGY_IDENTIFIERS } from './udi.js';
 /** Parsed UDI type. */
 export type { ParsedUdi } from './udi.js';
+/** A parsed UDI against its placement: typed lot vs scanned lot, expiry before the placement date. */
+export { checkUdiForPlacement } from './udi-placement.js';
+export type { UdiPlacementFinding, UdiPlacementCode } from './udi-placement.js';
 
 // ---- geometry ------------------------------------------------------------------------------
 /** Angle between two implant axes, degrees, in [0, 180]. */

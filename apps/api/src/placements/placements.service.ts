@@ -10,7 +10,7 @@ import {
   type PlacementRecord,
   describeUdiError,
 } from '@torquetrail/contracts';
-import { UdiError, fdiToUniversal, isPrimaryTooth, isValidFdi, parseUdi } from '@torquetrail/domain';
+import { UdiError, checkUdiForPlacement, fdiToUniversal, isPrimaryTooth, isValidFdi, parseUdi } from '@torquetrail/domain';
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
@@ -96,11 +96,12 @@ export class PlacementsService {
     if (body.udi) {
       try {
         const udi = parseUdi(body.udi);
-        if (udi.lot !== undefined && lot !== null && udi.lot !== lot) fields.lot = `The typed lot ${lot} differs from the lot in the UDI (${udi.lot})`;
-        lot ??= udi.lot ?? null;
-        if (udi.expiry !== undefined && !fields.placedOn && udi.expiry < body.placedOn) {
-          fields.udi = `The implant's expiry date ${udi.expiry} (UDI element 17) is before the placement date ${body.placedOn}`;
+        // The lot and expiry checks are the domain's, as in the web form.
+        for (const finding of checkUdiForPlacement(udi, { placedOn: body.placedOn, lot })) {
+          if (finding.code === 'expired-before-placement' && fields.placedOn) continue;
+          fields[finding.field] ??= finding.message;
         }
+        lot ??= udi.lot ?? null;
       } catch (e) {
         if (!(e instanceof UdiError)) throw e;
         fields.udi = describeUdiError(e.code, e.message);

@@ -5,7 +5,8 @@ import { isApiError } from '../../../lib/api-client';
 import { LOADING_PROTOCOL_LABEL } from '../../../lib/clinical-labels';
 import { fieldsFromIssues } from '../../../lib/form-errors';
 import { useRecordPlacement } from '../api/record-placement';
-import { UdiField } from './udi-field';
+import { checkUdiForPlacement } from '@torquetrail/domain';
+import { readUdi, UdiField } from './udi-field';
 
 const localToday = () => {
   const d = new Date();
@@ -40,6 +41,9 @@ export function PlacementForm({ patientId, siteId, options, onDone }: { patientI
   const platforms = options.systems.flatMap((s) => s.platforms.map((p) => ({ ...p, system: s })));
   const platform = platforms.find((p) => p.id === platformId);
   const closures = platform?.components ?? [];
+  // The same check as the server's: a typed lot that differs from the scanned one, shown live.
+  const reading = readUdi(udi);
+  const lotFinding = reading?.ok ? checkUdiForPlacement(reading.udi, { placedOn, lot }).find((f) => f.field === 'lot') : undefined;
 
   const submit = async (event: FormEvent) => {
     event.preventDefault();
@@ -121,7 +125,7 @@ export function PlacementForm({ patientId, siteId, options, onDone }: { patientI
           if (reading?.ok && reading.udi.lot) setLot(reading.udi.lot);
         }}
       />
-      <FormGroup label="Lot" labelFor="placement-lot" subLabel="Filled from the UDI when it has one" {...err('lot')}>
+      <FormGroup label="Lot" labelFor="placement-lot" subLabel="Filled from the UDI when it has one" {...(fields.lot ? err('lot') : lotFinding ? { intent: 'danger' as const, helperText: <span data-testid="error-lot">{lotFinding.message}</span> } : {})}>
         <InputGroup id="placement-lot" value={lot} onValueChange={setLot} className="mono" autoComplete="off" />
       </FormGroup>
       <div className="placement-form__row">

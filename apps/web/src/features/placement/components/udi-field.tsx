@@ -1,6 +1,6 @@
 import { FormGroup, InputGroup } from '@blueprintjs/core';
 import { describeUdiError } from '@torquetrail/contracts';
-import { type ParsedUdi, parseUdi, UdiError } from '@torquetrail/domain';
+import { checkUdiForPlacement, type ParsedUdi, parseUdi, UdiError } from '@torquetrail/domain';
 import { formatDate } from '../../../lib/dates';
 
 export type UdiReading = { ok: true; udi: ParsedUdi } | { ok: false; message: string } | null;
@@ -22,8 +22,9 @@ export function readUdi(text: string): UdiReading {
  */
 export function UdiField({ value, onChange, placedOn, serverError }: { value: string; onChange: (text: string, reading: UdiReading) => void; placedOn: string; serverError?: string }) {
   const reading = readUdi(value);
-  const expired = reading?.ok && reading.udi.expiry !== undefined && placedOn && reading.udi.expiry < placedOn;
-  const error = reading && !reading.ok ? reading.message : expired ? `The implant's expiry date ${reading.udi.expiry} is before the placement date ${placedOn}` : serverError;
+  // Only the UDI's own findings here; a lot mismatch shows beside the lot field.
+  const expired = reading?.ok && placedOn ? checkUdiForPlacement(reading.udi, { placedOn }).find((f) => f.field === 'udi') : undefined;
+  const error = reading && !reading.ok ? reading.message : (expired?.message ?? serverError);
   return (
     <FormGroup label="UDI (scan or type)" labelFor="placement-udi" helperText={error && <span data-testid="error-udi">{error}</span>} intent={error ? 'danger' : 'none'} subLabel="Optional. GS1 element string, e.g. (01)…(17)…(10)…">
       <InputGroup id="placement-udi" value={value} onValueChange={(text) => onChange(text, readUdi(text))} className="mono" autoComplete="off" spellCheck={false} aria-describedby="placement-udi-reading" />
