@@ -5,6 +5,7 @@
 // YYMMDD, (10) lot in the human-readable form.
 import { gtinCheckDigit } from '@torquetrail/domain';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { seriousA11yViolations } from './support/axe.js';
 import { screenshot, signInAs, startHarness, type Harness } from './support/harness.js';
 
 let h: Harness;
@@ -55,6 +56,8 @@ describe('referring surgeon', () => {
     await expect.poll(() => page.getByTestId('error-udi').textContent()).toMatch(/check digit/);
     expect(await page.getByTestId('udi-gtin').count()).toBe(0);
     await screenshot(page, 'placement-udi-error');
+    // No serious or critical WCAG 2.1 A/AA violation (axe-core) on the form, errors shown.
+    expect(await seriousA11yViolations(page)).toEqual([]);
 
     // Fixed, with the healing abutment of that platform, then saved.
     await udi.fill(`(01)${GTIN}(17)281231(10)SCN3511-26X`);
@@ -67,7 +70,8 @@ describe('referring surgeon', () => {
     await closure.selectOption(healing!);
     await page.getByLabel('Lot of that part').fill('HA4-2611-03');
     await screenshot(page, 'placement-form');
-    await page.getByTestId('save-placement').click();
+    // Keyboard: Enter in a field submits the form (implicit submission through the Save button).
+    await page.getByLabel('Lot of that part').press('Enter');
     await page.waitForURL(/\/sites\/[0-9a-f-]{36}$/);
 
     const header = page.getByTestId('site-file-header');
@@ -93,6 +97,7 @@ describe('restorative dentist', () => {
     const position = page.getByLabel('Add planned site');
     expect(await position.locator('option', { hasText: /^19$/ }).getAttribute('value')).toBe('36');
     await position.selectOption('36');
+    expect(await seriousA11yViolations(page)).toEqual([]);
     await page.getByTestId('add-site').getByRole('button', { name: 'Add' }).click();
     await expect.poll(() => page.getByTestId('add-site').textContent()).toContain('Planned site 19 added');
     await expect.poll(() => page.getByRole('link', { name: 'Site 19', exact: true }).count()).toBe(1);
