@@ -447,6 +447,16 @@ describe('history is never forked or doubled by concurrent saves', () => {
   });
 });
 
+describe('implant axes are bounded', () => {
+  it('refuses an axis component beyond ±1000 in a plan, naming the field', async () => {
+    const plan = wendellPlan();
+    plan.sites[0] = { ...plan.sites[0]!, axis: [1e308, 0, 1] } as (typeof plan.sites)[number];
+    const res = await ctx.http.post('/api/restorations').set('Cookie', cookies.dentist).send(plan);
+    expect(res.status).toBe(400);
+    expect(res.body.fields['sites.0.axis.0']).toMatch(/between −1000 and 1000/);
+  });
+});
+
 describe('CSV and input hygiene', () => {
   it('Recall desk CSV neutralises cells that a spreadsheet would run as a formula', async () => {
     const [p] = await ctx.db

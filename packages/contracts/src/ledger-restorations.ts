@@ -1,6 +1,6 @@
 // Restoration planner, delivery and lab prescriptions.
 import { z } from 'zod';
-import { FdiPosition, Id, IsoDate, IsoDateTime } from './common.js';
+import { AxisComponent, FdiPosition, Id, IsoDate, IsoDateTime } from './common.js';
 import { CatalogueComponent } from './ledger-catalogue.js';
 import { Connection, InterfaceKind, Material, RestorationKind, Retention } from './sites.js';
 
@@ -19,7 +19,7 @@ export const Finding = z.object({
 });
 export type Finding = z.infer<typeof Finding>;
 
-export const Vec3 = z.tuple([z.number(), z.number(), z.number()]);
+export const Vec3 = z.tuple([AxisComponent, AxisComponent, AxisComponent]);
 
 export const PlanSiteBody = z.object({
   siteId: Id,

@@ -1,6 +1,6 @@
 // Planned implant sites and placements: what the surgeon (or the dentist) placed, with the UDI.
 import { z } from 'zod';
-import { Id, IsoDate, IsoDateTime } from './common.js';
+import { AxisComponent, Id, IsoDate, IsoDateTime } from './common.js';
 import type { RouteContract } from './route-contract.js';
 import { ArchSite } from './patients.js';
 import { ComponentKind, Connection } from './sites.js';
@@ -55,7 +55,7 @@ const optionalText = (max: number) =>
     .transform((s) => (s ? s : null));
 
 export const Axis = z
-  .object({ x: z.number(), y: z.number(), z: z.number() })
+  .object({ x: AxisComponent, y: AxisComponent, z: AxisComponent })
   .refine((a) => Math.hypot(a.x, a.y, a.z) > 1e-9, 'The axis cannot be a zero vector');
 
 const placementFields = {
