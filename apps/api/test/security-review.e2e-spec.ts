@@ -145,6 +145,15 @@ describe('practice isolation through ids in request bodies', () => {
     expect((await ctx.http.get(`/api/restorations/${id}`).set('Cookie', cookies.dentist)).body.status).toBe('planned');
   });
 
+  it('POST /restorations/:id/delivery: the same part listed twice for one site is refused and nothing is delivered', async () => {
+    const id = await freshPlan();
+    const part = { siteId: ids.wendell15, componentId: tex('PSI'), lot: 'X-1' };
+    const res = await ctx.http.post(`/api/restorations/${id}/delivery`).set('Cookie', cookies.dentist).send({ deliveredOn: '2026-11-30', parts: [part, part] });
+    expect(res.status).toBe(400);
+    expect(res.body.fields['parts.1.componentId']).toMatch(/listed twice for 15/);
+    expect((await ctx.http.get(`/api/restorations/${id}`).set('Cookie', cookies.dentist)).body.status).toBe('planned');
+  });
+
   it('POST /restorations/:id/delivery: a foreign part or a site outside the restoration is refused and nothing is delivered', async () => {
     const id = await freshPlan();
     const foreignPart = await ctx.http

@@ -198,10 +198,15 @@ export class RestorationsService {
       const { sites } = await repo.loadRestorationSites(tx, [row.id]);
       const catalogue = new Map((await findComponents(tx, row.practiceId, body.parts.map((p) => p.componentId))).map((c) => [c.id, c]));
       const fields: Record<string, string> = {};
+      const seen = new Set<string>();
       body.parts.forEach((p, i) => {
         const site = sites.find((s) => s.siteId === p.siteId);
         const part = catalogue.get(p.componentId);
+        const key = `${p.siteId}|${p.componentId}`;
+        const repeated = seen.has(key);
+        seen.add(key);
         if (!site) fields[`parts.${i}.siteId`] = 'This site is not part of the restoration';
+        else if (repeated) fields[`parts.${i}.componentId`] = `This part is listed twice for ${site.fdi}: record each part once`;
         else if (!part) fields[`parts.${i}.componentId`] = 'No such part in the practice catalogue';
         else if (part.platformId !== site.platformId) fields[`parts.${i}.componentId`] = `${part.name} does not fit the platform at ${site.fdi} (${site.platformName})`;
         else if (part.kind === 'impression-coping') fields[`parts.${i}.componentId`] = 'Impression copings do not stay in the mouth';
