@@ -2,9 +2,9 @@ import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import type { Db } from '../db/database.js';
 import { componentInstances, components, implantSystems, platforms, torqueWrenches } from '../db/schema/index.js';
 
-const componentColumns = {
+/** What a catalogue part is, as every feature that shows or checks parts selects it. */
+export const componentSpecColumns = {
   id: components.id,
-  practiceId: components.practiceId,
   platformId: components.platformId,
   kind: components.kind,
   name: components.name,
@@ -16,6 +16,11 @@ const componentColumns = {
   torqueSpecNcm: components.torqueSpecNcm,
   tolerancePct: components.tolerancePct,
   requiresLot: components.requiresLot,
+};
+
+const componentColumns = {
+  ...componentSpecColumns,
+  practiceId: components.practiceId,
   inUse: sql<boolean>`exists (select 1 from ${componentInstances} ci where ci.component_id = ${components.id})`,
 };
 

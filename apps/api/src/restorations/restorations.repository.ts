@@ -17,6 +17,7 @@ import {
 } from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
 import { visiblePatients } from '../patients/patients.repository.js';
+import { componentSpecColumns } from '../catalogue/catalogue.repository.js';
 
 const notSuperseded = sql`not exists (select 1 from ${placements} p2 where p2.supersedes_id = ${placements.id})`;
 
@@ -156,21 +157,7 @@ export async function loadRestorationSites(db: Db, restorationIds: string[]) {
     sites.length === 0
       ? []
       : await db
-          .select({
-            restorationSiteId: restorationSiteComponents.restorationSiteId,
-            id: components.id,
-            platformId: components.platformId,
-            kind: components.kind,
-            name: components.name,
-            referenceCode: components.referenceCode,
-            engaging: components.engaging,
-            angleDeg: components.angleDeg,
-            collarHeightMm: components.collarHeightMm,
-            tray: components.tray,
-            torqueSpecNcm: components.torqueSpecNcm,
-            tolerancePct: components.tolerancePct,
-            requiresLot: components.requiresLot,
-          })
+          .select({ restorationSiteId: restorationSiteComponents.restorationSiteId, ...componentSpecColumns })
           .from(restorationSiteComponents)
           .innerJoin(components, eq(components.id, restorationSiteComponents.componentId))
           .where(inArray(restorationSiteComponents.restorationSiteId, sites.map((s) => s.id)))
