@@ -10,6 +10,7 @@ import { complications, componentInstances, patients, users } from '../db/schema
 import { visiblePatients } from '../patients/patients.repository.js';
 import { fieldError } from '../restorations/plan-check.js';
 import { findVisibleSite } from '../sites/sites.repository.js';
+import { supersededById } from '../db/amendments.js';
 
 function assertCurrent(entry: { supersededById: string | null }) {
   if (entry.supersededById) throw new ConflictException('This entry was already amended; amend the current version');
@@ -49,7 +50,7 @@ export class ComplicationsService {
         practiceId: complications.practiceId,
         patientId: complications.patientId,
         siteId: complications.siteId,
-        supersededById: sql<string | null>`(select c2.id from ${complications} c2 where c2.supersedes_id = ${complications.id} limit 1)`,
+        supersededById: supersededById(complications),
       })
       .from(complications)
       .innerJoin(patients, eq(patients.id, complications.patientId))

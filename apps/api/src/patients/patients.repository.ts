@@ -2,6 +2,7 @@ import { and, asc, eq, ilike, inArray, or, sql, type SQL } from 'drizzle-orm';
 import type { Db } from '../db/database.js';
 import { implantSites, implantSystems, patients, placements, platforms, practices } from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
+import { isCurrentVersion } from '../db/amendments.js';
 
 /** Patients of the user's practice, plus patients of other practices shared with them. */
 export function visiblePatients(scope: Scope): SQL {
@@ -74,7 +75,7 @@ export async function listSitesOfPatient(db: Db, patientId: string) {
       placements,
       and(
         eq(placements.siteId, implantSites.id),
-        sql`not exists (select 1 from ${placements} p2 where p2.supersedes_id = ${placements.id})`,
+        isCurrentVersion(placements),
       ),
     )
     .leftJoin(platforms, eq(platforms.id, placements.platformId))

@@ -3,6 +3,7 @@ import type { Db, Tx } from '../db/database.js';
 import { componentInstances, components, implantSites, implantSystems, patients, placements, platforms, users } from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
 import { visiblePatients } from '../patients/patients.repository.js';
+import { supersededById } from '../db/amendments.js';
 
 /** The live site (not failed, not removed) of a patient at an FDI position; a unique index keeps it to one. */
 export async function findLiveSiteAt(db: Db, practiceId: string, patientId: string, fdi: number) {
@@ -89,7 +90,7 @@ export async function findVisiblePlacement(db: Db, scope: Scope, id: string) {
       siteId: placements.siteId,
       surgeonUserId: placements.surgeonUserId,
       surgeonName: placements.surgeonName,
-      supersededById: sql<string | null>`(select p2.id from ${placements} p2 where p2.supersedes_id = ${placements.id} limit 1)`,
+      supersededById: supersededById(placements),
     })
     .from(placements)
     .innerJoin(patients, eq(patients.id, placements.patientId))

@@ -6,11 +6,12 @@ import { implantSites, patients, recallExams, recallExamSites, recallPolicies, r
 import type { Scope } from '../authz/scope.js';
 import { visiblePatients } from '../patients/patients.repository.js';
 import { inChartOrder, type ProbedSite } from './exam-rules.js';
+import { isAmended, isCurrentVersion } from '../db/amendments.js';
 
 /** Not superseded by an amendment. */
 // Qualified by hand: drizzle leaves columns unqualified in single-table selects, and an unqualified
 // "id" inside the subquery would bind to e2.
-const isCurrent = sql`not exists (select 1 from recall_exams as e2 where e2.supersedes_id = "recall_exams"."id")`;
+const isCurrent = isCurrentVersion(recallExams);
 
 export type ExamRow = RecallExam & { practiceId: string; recordedAtDate: Date };
 
@@ -225,7 +226,7 @@ export async function findVisibleExam(db: Db, scope: Scope, examId: string) {
       siteId: recallExams.siteId,
       visitId: recallExams.visitId,
       examinedOn: recallExams.examinedOn,
-      superseded: sql<boolean>`exists (select 1 from recall_exams e2 where e2.supersedes_id = ${recallExams.id})`,
+      superseded: isAmended(recallExams),
     })
     .from(recallExams)
     .innerJoin(patients, eq(patients.id, recallExams.patientId))

@@ -18,8 +18,9 @@ import {
 import type { Scope } from '../authz/scope.js';
 import { visiblePatients } from '../patients/patients.repository.js';
 import { componentSpecColumns } from '../catalogue/catalogue.repository.js';
+import { isCurrentVersion, supersededById } from '../db/amendments.js';
 
-const notSuperseded = sql`not exists (select 1 from ${placements} p2 where p2.supersedes_id = ${placements.id})`;
+const notSuperseded = isCurrentVersion(placements);
 
 /** The patient's implant sites with the platform and axis of the current placement. */
 export async function listRestorableSites(db: Db, patientId: string, siteIds?: string[]) {
@@ -90,7 +91,7 @@ const restorationColumns = {
   createdAt: restorations.createdAt,
   supersedesId: restorations.supersedesId,
   amendmentReason: restorations.amendmentReason,
-  supersededById: sql<string | null>`(select r2.id from ${restorations} r2 where r2.supersedes_id = ${restorations.id} limit 1)`,
+  supersededById: supersededById(restorations),
 };
 
 /** A restoration whose patient the user may see (scoped in SQL). */

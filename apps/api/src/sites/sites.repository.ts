@@ -14,6 +14,7 @@ import {
 } from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
 import { visiblePatients } from '../patients/patients.repository.js';
+import { isCurrentVersion } from '../db/amendments.js';
 
 export async function findVisibleSite(db: Db, scope: Scope, siteId: string) {
   const [row] = await db
@@ -52,7 +53,7 @@ export async function findCurrentPlacement(db: Db, siteId: string) {
     .from(placements)
     .innerJoin(platforms, eq(platforms.id, placements.platformId))
     .innerJoin(implantSystems, eq(implantSystems.id, platforms.systemId))
-    .where(and(eq(placements.siteId, siteId), sql`not exists (select 1 from ${placements} p2 where p2.supersedes_id = ${placements.id})`))
+    .where(and(eq(placements.siteId, siteId), isCurrentVersion(placements)))
     .orderBy(desc(placements.recordedAt))
     .limit(1);
   return row ?? null;
@@ -99,7 +100,7 @@ export async function latestTorqueByInstance(db: Db, instanceIds: string[]) {
     .where(
       and(
         inArray(torqueEvents.componentInstanceId, instanceIds),
-        sql`not exists (select 1 from ${torqueEvents} t2 where t2.supersedes_id = ${torqueEvents.id})`,
+        isCurrentVersion(torqueEvents),
       ),
     )
     .orderBy(torqueEvents.componentInstanceId, desc(torqueEvents.performedAt));
@@ -134,7 +135,7 @@ export async function findCurrentRestoration(db: Db, siteId: string) {
         eq(restorationSites.siteId, siteId),
         ne(restorations.status, 'removed'),
         // An amended plan is replaced by its amendment.
-        sql`not exists (select 1 from ${restorations} r2 where r2.supersedes_id = ${restorations.id})`,
+        isCurrentVersion(restorations),
       ),
     )
     // What is in the mouth comes before what is only planned; then the newest.
@@ -159,7 +160,7 @@ export async function torqueReasonsByInstance(db: Db, instanceIds: string[]) {
     .where(
       and(
         inArray(torqueEvents.componentInstanceId, instanceIds),
-        sql`not exists (select 1 from ${torqueEvents} t2 where t2.supersedes_id = ${torqueEvents.id})`,
+        isCurrentVersion(torqueEvents),
       ),
     )
     .orderBy(asc(torqueEvents.performedAt));

@@ -18,6 +18,7 @@ import {
   torqueWrenches,
   users,
 } from '../db/schema/index.js';
+import { isAmended } from '../db/amendments.js';
 
 export async function placementsOfSite(db: Db, siteId: string) {
   return db
@@ -33,7 +34,7 @@ export async function placementsOfSite(db: Db, siteId: string) {
       lot: placements.lot,
       supersedesId: placements.supersedesId,
       amendmentReason: placements.amendmentReason,
-      amended: sql<boolean>`exists (select 1 from ${placements} p2 where p2.supersedes_id = ${placements.id})`,
+      amended: isAmended(placements),
     })
     .from(placements)
     .innerJoin(platforms, eq(platforms.id, placements.platformId))
@@ -58,7 +59,7 @@ export async function restorationsOfSite(db: Db, siteId: string) {
       findings: restorations.findings,
       supersedesId: restorations.supersedesId,
       amendmentReason: restorations.amendmentReason,
-      amended: sql<boolean>`exists (select 1 from ${restorations} r2 where r2.supersedes_id = ${restorations.id})`,
+      amended: isAmended(restorations),
       impressionCoping: restorationSites.impressionCoping,
       interface: restorationSites.interface,
     })
@@ -126,7 +127,7 @@ export async function torqueEventsOfSite(db: Db, siteId: string) {
       byName: users.displayName,
       supersedesId: torqueEvents.supersedesId,
       amendmentReason: torqueEvents.amendmentReason,
-      amended: sql<boolean>`exists (select 1 from ${torqueEvents} t2 where t2.supersedes_id = ${torqueEvents.id})`,
+      amended: isAmended(torqueEvents),
     })
     .from(torqueEvents)
     .innerJoin(componentInstances, eq(componentInstances.id, torqueEvents.componentInstanceId))
@@ -150,7 +151,7 @@ export async function complicationsOfSite(db: Db, siteId: string) {
       recordedAt: complications.recordedAt,
       supersedesId: complications.supersedesId,
       amendmentReason: complications.amendmentReason,
-      amended: sql<boolean>`exists (select 1 from ${complications} c2 where c2.supersedes_id = ${complications.id})`,
+      amended: isAmended(complications),
     })
     .from(complications)
     .leftJoin(componentInstances, eq(componentInstances.id, complications.componentInstanceId))
@@ -170,7 +171,7 @@ export async function recallExamsOfSite(db: Db, siteId: string) {
       byName: users.displayName,
       supersedesId: recallExams.supersedesId,
       amendmentReason: recallExams.amendmentReason,
-      amended: sql<boolean>`exists (select 1 from ${recallExams} e2 where e2.supersedes_id = ${recallExams.id})`,
+      amended: isAmended(recallExams),
     })
     .from(recallExams)
     .leftJoin(users, eq(users.id, recallExams.examinerId))

@@ -3,6 +3,7 @@ import type { Db, Tx } from '../db/database.js';
 import { componentInstances, components, patients, torqueEvents, torqueWrenches, users } from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
 import { visiblePatients } from '../patients/patients.repository.js';
+import { supersededById } from '../db/amendments.js';
 
 /** A part instance whose patient the user may see, with its catalogue specification. */
 export async function findVisibleInstance(db: Db, scope: Scope, id: string) {
@@ -37,7 +38,7 @@ export async function findVisibleTorqueEvent(db: Db, scope: Scope, id: string) {
       specNcm: torqueEvents.specNcm,
       tolerancePct: torqueEvents.tolerancePct,
       reason: torqueEvents.reason,
-      supersededById: sql<string | null>`(select t2.id from ${torqueEvents} t2 where t2.supersedes_id = ${torqueEvents.id} limit 1)`,
+      supersededById: supersededById(torqueEvents),
     })
     .from(torqueEvents)
     .innerJoin(patients, eq(patients.id, torqueEvents.patientId))
