@@ -1,7 +1,8 @@
 import 'reflect-metadata';
 import fs from 'node:fs';
 import path from 'node:path';
-import type { INestApplication, LogLevel } from '@nestjs/common';
+import type { INestApplication } from '@nestjs/common';
+import type { DestinationStream } from 'pino';
 import { NestFactory } from '@nestjs/core';
 import type { NestExpressApplication } from '@nestjs/platform-express';
 import cookieParser from 'cookie-parser';
@@ -11,16 +12,20 @@ import { AppModule } from './app.module.js';
 import type { Env } from './config/env.js';
 import { sameOriginWrites } from './http-security/same-origin-writes.js';
 import { securityHeaders } from './http-security/security-headers.js';
+import { createLogger, httpLogger, PinoNestLogger } from './logging/logger.js';
 
 /**
  * Builds the whole app (used by main.ts and by the API and browser tests alike): every route
  * under /api, JSON 404 for unknown /api paths, and the built web app from the same origin.
  */
-export async function createApp(env: Env, options: { logger?: false | LogLevel[] } = {}): Promise<INestApplication> {
+export async function createApp(env: Env, options: { logger?: false; logStream?: DestinationStream } = {}): Promise<INestApplication> {
+  const logger = createLogger(options.logger === false ? 'silent' : env.LOG_LEVEL, options.logStream);
   const app = await NestFactory.create<NestExpressApplication>(AppModule.forRoot(env), {
-    logger: options.logger ?? ['error', 'warn'],
+    logger: new PinoNestLogger(logger),
     bodyParser: true,
   });
+  // First, so every later line and every error reply carries the request id.
+  app.use(httpLogger(logger));
   app.setGlobalPrefix('api');
   app.use(cookieParser());
   app.disable('x-powered-by');

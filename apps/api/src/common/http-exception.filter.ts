@@ -1,5 +1,6 @@
-import { type ArgumentsHost, Catch, type ExceptionFilter, HttpException, HttpStatus, Logger } from '@nestjs/common';
-import type { Response } from 'express';
+import { type ArgumentsHost, Catch, type ExceptionFilter, HttpException, HttpStatus } from '@nestjs/common';
+import type { Request, Response } from 'express';
+import { errorForLog } from '../logging/logger.js';
 import type { ErrorReply } from '@torquetrail/contracts';
 
 const STATUS_TEXT: Record<number, string> = {
@@ -12,12 +13,14 @@ const STATUS_TEXT: Record<number, string> = {
   500: 'Internal Server Error',
 };
 
-/** Maps every error to the one ErrorReply shape; unexpected errors are logged, never leaked. */
+/**
+ * Maps every error to the one ErrorReply shape, with the request id; unexpected errors are logged
+ * (without query parameters or bodies: see errorForLog), never leaked.
+ */
 @Catch()
 export class HttpExceptionFilter implements ExceptionFilter {
-  private readonly logger = new Logger('HttpExceptionFilter');
-
   catch(exception: unknown, host: ArgumentsHost): void {
+    const req = host.switchToHttp().getRequest<Request>();
     const res = host.switchToHttp().getResponse<Response>();
     let reply: ErrorReply;
     if (exception instanceof HttpException) {
@@ -33,9 +36,9 @@ export class HttpExceptionFilter implements ExceptionFilter {
         ...(obj.fields ? { fields: obj.fields as Record<string, string> } : {}),
       };
     } else {
-      this.logger.error(exception instanceof Error ? exception.stack : String(exception));
+      req.log?.error({ err: errorForLog(exception) }, 'unexpected error');
       reply = { statusCode: HttpStatus.INTERNAL_SERVER_ERROR, error: STATUS_TEXT[500]!, message: 'Something went wrong on the server' };
     }
-    res.status(reply.statusCode).json(reply);
+    res.status(reply.statusCode).json({ ...reply, requestId: String(req.id) });
   }
 }

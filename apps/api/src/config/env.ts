@@ -46,6 +46,8 @@ const EnvSchema = z.object({
     .string()
     .default('')
     .transform((v) => v.split(',').map((o) => o.trim()).filter(Boolean)),
+  /** pino log level; `info` logs start-up and refused requests, `debug` every request. */
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   /** The built web app to serve from the same origin; unset in API-only tests. */
   WEB_DIST: z.string().optional(),
 });
