@@ -10,13 +10,14 @@ import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
 import { fieldsFromIssues } from '../../../lib/form-errors';
 import { useToothSystem } from '../../../lib/tooth-system';
-import { useAmendPlan, useCatalogue, useRestorableSites, useRestorations, useSavePlan } from '../api/planner-api';
+import { useCatalogue } from '../../catalogue';
+import { useAmendPlan, useRestorableSites, useRestorations, useSavePlan } from '../api/planner-api';
 import { FindingsPanel } from '../components/findings-panel';
 import { emptySitePlan, initialPlan, liveFindings, type PlanState, stateFromRestoration, toBody } from '../components/plan-state';
 import { SitePlanFields } from '../components/site-plan-fields';
 import { DivergenceTable } from '../components/divergence-table';
 import { MATERIAL_LABEL, RESTORATION_KIND_LABEL as KIND_LABEL, RETENTION_LABEL } from '../../../lib/clinical-labels';
-import { usePatient } from '../../../lib/api/get-patient';
+import { usePatient } from '../../patients';
 
 /**
  * /patients/:patientId/restorations/new: the restoration planner with live Findings.
