@@ -100,7 +100,8 @@ function PlannerForm({ patientId, patientName, restorable: all, catalogue, amend
 
   const update = (patch: Partial<PlanState>) => {
     for (const key of Object.keys(patch) as (keyof PlanState)[]) form.setValue(key, patch[key]!);
-    form.clearErrors((Object.keys(form.formState.errors) as (keyof PlannerDraft)[]).filter((name) => name !== ('root' as string)));
+    const fieldErrors = Object.keys(form.formState.errors).filter((name) => name !== 'root') as (keyof PlannerDraft)[];
+    form.clearErrors(fieldErrors);
   };
   const toggleSite = (siteId: string, on: boolean) =>
     update({ sites: on ? [...state.sites, emptySitePlan(siteId)].sort((a, b) => restorable.findIndex((s) => s.siteId === a.siteId) - restorable.findIndex((s) => s.siteId === b.siteId)) : state.sites.filter((s) => s.siteId !== siteId) });
