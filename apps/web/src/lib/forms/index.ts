@@ -3,4 +3,4 @@
 export { NumberInput, withInputRef } from './blueprint-inputs';
 export { draftSchema, useContractForm } from './contract-form';
 export { errorAt, type FieldA11y, FieldError, FormField, useFieldError } from './form-field';
-export { applyServerErrors, FORM_ERROR, formErrorMessage } from './server-errors';
+export { applyServerErrors, formErrorMessage } from './server-errors';

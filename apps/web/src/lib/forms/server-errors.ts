@@ -2,7 +2,7 @@ import type { FieldErrors, FieldPath, FieldValues, UseFormSetError } from 'react
 import { isApiError } from '../api-client';
 
 /** Where a failed submit's message is kept (react-hook-form clears `root` errors on the next submit). */
-export const FORM_ERROR = 'root.server';
+const FORM_ERROR = 'root.server';
 
 /** The API names the body itself, not a field, with this path (apps/api common/zod-validation.pipe.ts). */
 const BODY_PATH = '(body)';
