@@ -1,8 +1,6 @@
 import { QueryCache, QueryClient } from '@tanstack/react-query';
-import { meQueryKey } from '../features/auth/api/get-me';
+import { authKeys, isMeQueryKey } from '../features/auth';
 import { isApiError } from '../lib/api-client';
-
-const isMeQuery = (key: readonly unknown[]) => key[0] === meQueryKey[0] && key[1] === meQueryKey[1];
 
 /**
  * The app's query cache. A 401 from any query means the session has ended: `me` becomes
@@ -13,7 +11,7 @@ export function createQueryClient(): QueryClient {
   const queryClient: QueryClient = new QueryClient({
     queryCache: new QueryCache({
       onError: (error, query) => {
-        if (isApiError(error, 401) && !isMeQuery(query.queryKey)) queryClient.setQueryData(meQueryKey, null);
+        if (isApiError(error, 401) && !isMeQueryKey(query.queryKey)) queryClient.setQueryData(authKeys.me, null);
       },
     }),
     defaultOptions: {

@@ -1,8 +1,7 @@
 import { defineAbilityFor } from '@torquetrail/authz';
 import { useMemo } from 'react';
 import { Navigate, useLocation } from 'react-router-dom';
-import { useMe } from '../features/auth/api/get-me';
-import { useSignOut } from '../features/auth/api/sign-out';
+import { useMe, useSignOut } from '../features/auth';
 import { AppAbilityProvider } from '../lib/ability';
 import { ErrorState } from '../lib/components/error-state';
 import { LoadingState } from '../lib/components/loading-state';

@@ -10,7 +10,7 @@ import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
 import { MAINTENANCE_NOTE } from '../../../lib/labels';
 import { useToothSystem } from '../../../lib/tooth-system';
-import { usePatient } from '../../../lib/api/get-patient';
+import { usePatient } from '../../patients';
 import { AddSiteControl } from '../components/add-site-control';
 import { ArchDrawing } from '../components/arch-drawing';
 import { ArchLegend } from '../components/arch-legend';

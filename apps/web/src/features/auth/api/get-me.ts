@@ -1,8 +1,7 @@
 import { Me } from '@torquetrail/contracts';
 import { type QueryClient, queryOptions, useQuery } from '@tanstack/react-query';
 import { apiRequest, isApiError } from '../../../lib/api-client';
-
-export const meQueryKey = ['auth', 'me'] as const;
+import { authKeys, isMeQueryKey } from './keys';
 
 /** The signed-in user, or `null` when nobody is signed in (401 is an answer here, not a failure). */
 export async function fetchMe(signal?: AbortSignal): Promise<Me | null> {
@@ -16,7 +15,7 @@ export async function fetchMe(signal?: AbortSignal): Promise<Me | null> {
 
 export const meQueryOptions = () =>
   queryOptions({
-    queryKey: meQueryKey,
+    queryKey: authKeys.me,
     queryFn: ({ signal }) => fetchMe(signal),
     staleTime: 5 * 60_000,
   });
@@ -28,6 +27,6 @@ export function useMe() {
 /** Drops every cached reply except `me`, so no data of one session outlives it. */
 export function removeAllButMe(queryClient: QueryClient): void {
   queryClient.removeQueries({
-    predicate: (query) => !(query.queryKey[0] === meQueryKey[0] && query.queryKey[1] === meQueryKey[1]),
+    predicate: (query) => !isMeQueryKey(query.queryKey),
   });
 }

@@ -1,7 +1,8 @@
 import { Me, type SignInBody } from '@torquetrail/contracts';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { apiRequest } from '../../../lib/api-client';
-import { meQueryKey, removeAllButMe } from './get-me';
+import { removeAllButMe } from './get-me';
+import { authKeys } from './keys';
 
 export function signIn(body: SignInBody): Promise<Me> {
   return apiRequest('/api/auth/sign-in', { method: 'POST', body, schema: Me });
@@ -11,11 +12,11 @@ export function signIn(body: SignInBody): Promise<Me> {
 export function useSignIn() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationKey: ['auth', 'sign-in'],
+    mutationKey: authKeys.signIn,
     mutationFn: signIn,
     onSuccess: (me) => {
       removeAllButMe(queryClient);
-      queryClient.setQueryData(meQueryKey, me);
+      queryClient.setQueryData(authKeys.me, me);
     },
   });
 }

@@ -1,6 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { apiRequest, isApiError } from '../../../lib/api-client';
-import { meQueryKey, removeAllButMe } from './get-me';
+import { removeAllButMe } from './get-me';
+import { authKeys } from './keys';
 
 /** Ends the session. A 401 means it had already ended, which is what we wanted. */
 export async function signOut(): Promise<void> {
@@ -15,11 +16,11 @@ export async function signOut(): Promise<void> {
 export function useSignOut() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationKey: ['auth', 'sign-out'],
+    mutationKey: authKeys.signOut,
     mutationFn: signOut,
     onSuccess: () => {
       removeAllButMe(queryClient);
-      queryClient.setQueryData(meQueryKey, null);
+      queryClient.setQueryData(authKeys.me, null);
     },
   });
 }

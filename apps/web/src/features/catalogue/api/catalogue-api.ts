@@ -1,11 +1,10 @@
 import { CatalogueComponent, CataloguePlatform, CatalogueReply, CatalogueSystem, type ComponentBody, type ComponentPatch, type PlatformBody, type SystemBody } from '@torquetrail/contracts';
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { apiRequest } from '../../../lib/api-client';
-
-export const catalogueQueryKey = ['catalogue'] as const;
+import { catalogueKeys } from './keys';
 
 export const catalogueQueryOptions = () =>
-  queryOptions({ queryKey: catalogueQueryKey, queryFn: ({ signal }) => apiRequest('/api/catalogue', { schema: CatalogueReply, signal }) });
+  queryOptions({ queryKey: catalogueKeys.all, queryFn: ({ signal }) => apiRequest('/api/catalogue', { schema: CatalogueReply, signal }) });
 export const useCatalogue = () => useQuery(catalogueQueryOptions());
 
 /** Admin: add a part or correct one; only the catalogue changes. */
@@ -14,7 +13,7 @@ export function useSaveComponent() {
   return useMutation({
     mutationFn: ({ id, body }: { id?: string; body: ComponentBody | ComponentPatch }) =>
       apiRequest(id ? `/api/catalogue/components/${id}` : '/api/catalogue/components', { method: id ? 'PATCH' : 'POST', body, schema: CatalogueComponent }),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: catalogueQueryKey }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: catalogueKeys.all }),
   });
 }
 
@@ -23,13 +22,13 @@ export function useAddSystem() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (body: SystemBody) => apiRequest('/api/catalogue/systems', { method: 'POST', body, schema: CatalogueSystem }),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: catalogueQueryKey }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: catalogueKeys.all }),
   });
 }
 export function useAddPlatform() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (body: PlatformBody) => apiRequest('/api/catalogue/platforms', { method: 'POST', body, schema: CataloguePlatform }),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: catalogueQueryKey }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: catalogueKeys.all }),
   });
 }

@@ -1,10 +1,11 @@
-import { Button, Checkbox, FormGroup, HTMLSelect, InputGroup, NumericInput } from '@blueprintjs/core';
-import { type ComponentKind, type Connection, type WrenchType } from '@torquetrail/contracts';
-import { type FormEvent, type ReactNode, useId, useState } from 'react';
-import { isApiError } from '../../../lib/api-client';
+import { Button, Checkbox, HTMLSelect, InputGroup } from '@blueprintjs/core';
+import { type ComponentKind, ComponentBody, type Connection, PlatformBody, SystemBody, type Tray, WrenchBody, type WrenchType } from '@torquetrail/contracts';
+import { type ReactNode, useId, useMemo, useState } from 'react';
+import { FormProvider } from 'react-hook-form';
+import { COMPONENT_KIND_LABEL, CONNECTION_LABEL } from '../../../lib/clinical-labels';
+import { applyServerErrors, draftSchema, FormField, NumberInput, useContractForm, withInputRef } from '../../../lib/forms';
 import { useSaveWrench } from '../../torque';
 import { useAddPlatform, useAddSystem, useSaveComponent } from '../api/catalogue-api';
-import { COMPONENT_KIND_LABEL, CONNECTION_LABEL } from '../../../lib/clinical-labels';
 
 const KINDS: ComponentKind[] = ['abutment-stock', 'abutment-custom', 'abutment-angled', 'multi-unit-abutment', 'abutment-screw', 'prosthetic-screw', 'set-screw', 'impression-coping', 'healing-abutment', 'cover-screw'];
 
@@ -13,110 +14,137 @@ function Toggle({ label, children }: { label: string; children: (close: () => vo
   return open ? <div className="catalogue-add">{children(() => setOpen(false))}</div> : <Button small icon="add" text={label} onClick={() => setOpen(true)} />;
 }
 
-const helper = (fields: Record<string, string>, key: string) => (fields[key] ? { intent: 'danger' as const, helperText: fields[key] } : {});
-const fieldsOf = (error: unknown) => (isApiError(error) ? error.fields : {});
+interface ComponentDraft {
+  kind: ComponentKind;
+  name: string;
+  referenceCode: string;
+  engaging: '' | 'yes' | 'no';
+  torqueSpecNcm: number | null;
+  tolerancePct: number | null;
+  requiresLot: boolean;
+  angleDeg: number | null;
+  collarHeightMm: number | null;
+  tray: '' | Tray;
+}
 
 /** Admin: a new part on one platform, with its torque specification and the tolerance the practice uses. */
 export function AddComponentForm({ platformId }: { platformId: string }) {
   const uid = useId();
   const save = useSaveComponent();
-  const [kind, setKind] = useState<ComponentKind>('abutment-screw');
-  const [name, setName] = useState('');
-  const [ref, setRef] = useState('');
-  const [engaging, setEngaging] = useState<'' | 'yes' | 'no'>('');
-  const [torque, setTorque] = useState<number | null>(null);
-  const [tol, setTol] = useState(10);
-  const [lot, setLot] = useState(true);
-  const [angle, setAngle] = useState<number | null>(null);
-  const [collar, setCollar] = useState<number | null>(null);
-  const [tray, setTray] = useState<'' | 'open' | 'closed'>('');
-  const f = fieldsOf(save.error);
-  return (
-    <Toggle label="Add part">
-      {(close) => (
-        <form
-          aria-label="Add part"
-          onSubmit={(e: FormEvent) => {
-            e.preventDefault();
-            save.mutate({ body: { platformId, kind, name, referenceCode: ref, engaging: engaging === '' ? null : engaging === 'yes', torqueSpecNcm: torque, tolerancePct: tol, requiresLot: lot, angleDeg: angle, collarHeightMm: collar, tray: tray || null } }, { onSuccess: close });
-          }}
-        >
-          <FormGroup label="Kind" labelFor={`${uid}-kind`} inline><HTMLSelect id={`${uid}-kind`} value={kind} onChange={(e) => setKind(e.currentTarget.value as ComponentKind)}>{KINDS.map((k) => <option key={k} value={k}>{COMPONENT_KIND_LABEL[k]}</option>)}</HTMLSelect></FormGroup>
-          <FormGroup label="Name" labelFor={`${uid}-name`} inline {...helper(f, 'name')}><InputGroup id={`${uid}-name`} value={name} onValueChange={setName} /></FormGroup>
-          <FormGroup label="Reference" labelFor={`${uid}-reference`} inline {...helper(f, 'referenceCode')}><InputGroup id={`${uid}-reference`} value={ref} onValueChange={setRef} /></FormGroup>
-          <FormGroup label="Engaging" labelFor={`${uid}-engaging`} inline><HTMLSelect id={`${uid}-engaging`} value={engaging} onChange={(e) => setEngaging(e.currentTarget.value as '' | 'yes' | 'no')}><option value="">does not apply</option><option value="yes">engaging</option><option value="no">non-engaging</option></HTMLSelect></FormGroup>
-          <FormGroup label="Torque (N·cm, empty = hand-tight)" labelFor={`${uid}-torque-n-cm-empty-hand-tight`} inline {...helper(f, 'torqueSpecNcm')}><NumericInput buttonPosition="none" id={`${uid}-torque-n-cm-empty-hand-tight`} min={1} max={100} value={torque ?? ''} onValueChange={(v) => setTorque(Number.isFinite(v) ? v : null)} /></FormGroup>
-          <FormGroup label="Tolerance (%)" labelFor={`${uid}-tolerance`} inline {...helper(f, 'tolerancePct')}><NumericInput buttonPosition="none" id={`${uid}-tolerance`} min={0} max={50} value={tol} onValueChange={setTol} /></FormGroup>
-          <FormGroup label="Angle (°)" labelFor={`${uid}-angle`} inline {...helper(f, 'angleDeg')}><NumericInput buttonPosition="none" id={`${uid}-angle`} min={0} max={45} value={angle ?? ''} onValueChange={(v) => setAngle(Number.isFinite(v) ? v : null)} /></FormGroup>
-          <FormGroup label="Collar height (mm)" labelFor={`${uid}-collar`} inline {...helper(f, 'collarHeightMm')}><NumericInput buttonPosition="none" id={`${uid}-collar`} min={0} max={10} stepSize={0.5} value={collar ?? ''} onValueChange={(v) => setCollar(Number.isFinite(v) ? v : null)} /></FormGroup>
-          <FormGroup label="Impression tray" labelFor={`${uid}-tray`} inline><HTMLSelect id={`${uid}-tray`} value={tray} onChange={(e) => setTray(e.currentTarget.value as '' | 'open' | 'closed')}><option value="">does not apply</option><option value="open">open tray</option><option value="closed">closed tray</option></HTMLSelect></FormGroup>
-          <Checkbox label="Lot number required when delivered" checked={lot} onChange={(e) => setLot(e.currentTarget.checked)} />
-          <Button type="submit" intent="primary" small text="Add part" loading={save.isPending} /> <Button small variant="minimal" text="Cancel" onClick={close} />
-        </form>
-      )}
-    </Toggle>
+  const schema = useMemo(
+    () =>
+      draftSchema(ComponentBody, (d: ComponentDraft) => ({
+        platformId,
+        kind: d.kind,
+        name: d.name,
+        referenceCode: d.referenceCode,
+        engaging: d.engaging === '' ? null : d.engaging === 'yes',
+        torqueSpecNcm: d.torqueSpecNcm,
+        // An emptied tolerance is no number: the contract says so beside the field.
+        tolerancePct: d.tolerancePct ?? Number.NaN,
+        requiresLot: d.requiresLot,
+        angleDeg: d.angleDeg,
+        collarHeightMm: d.collarHeightMm,
+        tray: d.tray || null,
+      })),
+    [platformId],
   );
+  const form = useContractForm(schema, { kind: 'abutment-screw', name: '', referenceCode: '', engaging: '', torqueSpecNcm: null, tolerancePct: 10, requiresLot: true, angleDeg: null, collarHeightMm: null, tray: '' });
+  return (
+    <FormProvider {...form}>
+      <Toggle label="Add part">
+        {(close) => (
+          <form aria-label="Add part" onSubmit={(event) => void form.handleSubmit((body) => save.mutate({ body }, { onSuccess: close, onError: (error) => applyServerErrors(form.setError, error) }))(event)}>
+            <FormField name="kind" label="Kind" labelFor={`${uid}-kind`} inline><HTMLSelect id={`${uid}-kind`} {...form.register('kind')}>{KINDS.map((k) => <option key={k} value={k}>{COMPONENT_KIND_LABEL[k]}</option>)}</HTMLSelect></FormField>
+            <FormField name="name" label="Name" labelFor={`${uid}-name`} inline><InputGroup id={`${uid}-name`} {...withInputRef(form.register('name'))} /></FormField>
+            <FormField name="referenceCode" label="Reference" labelFor={`${uid}-reference`} inline><InputGroup id={`${uid}-reference`} {...withInputRef(form.register('referenceCode'))} /></FormField>
+            <FormField name="engaging" label="Engaging" labelFor={`${uid}-engaging`} inline><HTMLSelect id={`${uid}-engaging`} {...form.register('engaging')}><option value="">does not apply</option><option value="yes">engaging</option><option value="no">non-engaging</option></HTMLSelect></FormField>
+            <FormField name="torqueSpecNcm" label="Torque (N·cm, empty = hand-tight)" labelFor={`${uid}-torque-n-cm-empty-hand-tight`} inline><NumberInput name="torqueSpecNcm" buttonPosition="none" id={`${uid}-torque-n-cm-empty-hand-tight`} min={1} max={100} /></FormField>
+            <FormField name="tolerancePct" label="Tolerance (%)" labelFor={`${uid}-tolerance`} inline><NumberInput name="tolerancePct" buttonPosition="none" id={`${uid}-tolerance`} min={0} max={50} /></FormField>
+            <FormField name="angleDeg" label="Angle (°)" labelFor={`${uid}-angle`} inline><NumberInput name="angleDeg" buttonPosition="none" id={`${uid}-angle`} min={0} max={45} /></FormField>
+            <FormField name="collarHeightMm" label="Collar height (mm)" labelFor={`${uid}-collar`} inline><NumberInput name="collarHeightMm" buttonPosition="none" id={`${uid}-collar`} min={0} max={10} stepSize={0.5} /></FormField>
+            <FormField name="tray" label="Impression tray" labelFor={`${uid}-tray`} inline><HTMLSelect id={`${uid}-tray`} {...form.register('tray')}><option value="">does not apply</option><option value="open">open tray</option><option value="closed">closed tray</option></HTMLSelect></FormField>
+            <Checkbox label="Lot number required when delivered" {...withInputRef(form.register('requiresLot'))} />
+            <Button type="submit" intent="primary" small text="Add part" loading={save.isPending} /> <Button small variant="minimal" text="Cancel" onClick={close} />
+          </form>
+        )}
+      </Toggle>
+    </FormProvider>
+  );
+}
+
+interface PlatformDraft {
+  name: string;
+  diameterMm: number | null;
+  connection: Connection;
+  platformShift: boolean;
 }
 
 export function AddPlatformForm({ systemId }: { systemId: string }) {
   const uid = useId();
   const add = useAddPlatform();
-  const [name, setName] = useState('');
-  const [diameter, setDiameter] = useState<number | null>(null);
-  const [connection, setConnection] = useState<Connection>('internal-conical');
-  const [shift, setShift] = useState(false);
-  const f = fieldsOf(add.error);
+  const schema = useMemo(() => draftSchema(PlatformBody, (d: PlatformDraft) => ({ systemId, name: d.name, diameterMm: d.diameterMm ?? Number.NaN, connection: d.connection, platformShift: d.platformShift })), [systemId]);
+  const form = useContractForm(schema, { name: '', diameterMm: null, connection: 'internal-conical', platformShift: false });
   return (
-    <Toggle label="Add platform">
-      {(close) => (
-        <form aria-label="Add platform" onSubmit={(e) => { e.preventDefault(); add.mutate({ systemId, name, diameterMm: diameter ?? Number.NaN, connection, platformShift: shift }, { onSuccess: close }); }}>
-          <FormGroup label="Name" labelFor={`${uid}-name`} inline {...helper(f, 'name')}><InputGroup id={`${uid}-name`} value={name} onValueChange={setName} /></FormGroup>
-          <FormGroup label="Diameter (mm)" labelFor={`${uid}-diameter-mm`} inline {...helper(f, 'diameterMm')}><NumericInput buttonPosition="none" id={`${uid}-diameter-mm`} min={2} max={10} stepSize={0.1} value={diameter ?? ''} onValueChange={(v) => setDiameter(Number.isFinite(v) ? v : null)} /></FormGroup>
-          <FormGroup label="Connection" labelFor={`${uid}-connection`} inline><HTMLSelect id={`${uid}-connection`} value={connection} onChange={(e) => setConnection(e.currentTarget.value as Connection)}>{(Object.keys(CONNECTION_LABEL) as Connection[]).map((c) => <option key={c} value={c}>{CONNECTION_LABEL[c]}</option>)}</HTMLSelect></FormGroup>
-          <Checkbox label="Platform shift" checked={shift} onChange={(e) => setShift(e.currentTarget.checked)} />
-          <Button type="submit" intent="primary" small text="Add platform" loading={add.isPending} /> <Button small variant="minimal" text="Cancel" onClick={close} />
-        </form>
-      )}
-    </Toggle>
+    <FormProvider {...form}>
+      <Toggle label="Add platform">
+        {(close) => (
+          <form aria-label="Add platform" onSubmit={(event) => void form.handleSubmit((body) => add.mutate(body, { onSuccess: close, onError: (error) => applyServerErrors(form.setError, error) }))(event)}>
+            <FormField name="name" label="Name" labelFor={`${uid}-name`} inline><InputGroup id={`${uid}-name`} {...withInputRef(form.register('name'))} /></FormField>
+            <FormField name="diameterMm" label="Diameter (mm)" labelFor={`${uid}-diameter-mm`} inline><NumberInput name="diameterMm" buttonPosition="none" id={`${uid}-diameter-mm`} min={2} max={10} stepSize={0.1} /></FormField>
+            <FormField name="connection" label="Connection" labelFor={`${uid}-connection`} inline><HTMLSelect id={`${uid}-connection`} {...form.register('connection')}>{(Object.keys(CONNECTION_LABEL) as Connection[]).map((c) => <option key={c} value={c}>{CONNECTION_LABEL[c]}</option>)}</HTMLSelect></FormField>
+            <Checkbox label="Platform shift" {...withInputRef(form.register('platformShift'))} />
+            <Button type="submit" intent="primary" small text="Add platform" loading={add.isPending} /> <Button small variant="minimal" text="Cancel" onClick={close} />
+          </form>
+        )}
+      </Toggle>
+    </FormProvider>
   );
 }
 
 export function AddSystemForm() {
   const uid = useId();
   const add = useAddSystem();
-  const [name, setName] = useState('');
-  const [manufacturer, setManufacturer] = useState('');
-  const f = fieldsOf(add.error);
+  const form = useContractForm(SystemBody, { name: '', manufacturer: '' });
   return (
-    <Toggle label="Add implant system">
-      {(close) => (
-        <form aria-label="Add implant system" onSubmit={(e) => { e.preventDefault(); add.mutate({ name, manufacturer }, { onSuccess: close }); }}>
-          <FormGroup label="Name" labelFor={`${uid}-name`} inline {...helper(f, 'name')}><InputGroup id={`${uid}-name`} value={name} onValueChange={setName} /></FormGroup>
-          <FormGroup label="Manufacturer" labelFor={`${uid}-manufacturer`} inline {...helper(f, 'manufacturer')}><InputGroup id={`${uid}-manufacturer`} value={manufacturer} onValueChange={setManufacturer} /></FormGroup>
-          <Button type="submit" intent="primary" small text="Add system" loading={add.isPending} /> <Button small variant="minimal" text="Cancel" onClick={close} />
-        </form>
-      )}
-    </Toggle>
+    <FormProvider {...form}>
+      <Toggle label="Add implant system">
+        {(close) => (
+          <form aria-label="Add implant system" onSubmit={(event) => void form.handleSubmit((body) => add.mutate(body, { onSuccess: close, onError: (error) => applyServerErrors(form.setError, error) }))(event)}>
+            <FormField name="name" label="Name" labelFor={`${uid}-name`} inline><InputGroup id={`${uid}-name`} {...withInputRef(form.register('name'))} /></FormField>
+            <FormField name="manufacturer" label="Manufacturer" labelFor={`${uid}-manufacturer`} inline><InputGroup id={`${uid}-manufacturer`} {...withInputRef(form.register('manufacturer'))} /></FormField>
+            <Button type="submit" intent="primary" small text="Add system" loading={add.isPending} /> <Button small variant="minimal" text="Cancel" onClick={close} />
+          </form>
+        )}
+      </Toggle>
+    </FormProvider>
   );
 }
+
+interface WrenchDraft {
+  label: string;
+  type: WrenchType;
+  lastCalibratedOn: string;
+}
+
+const wrenchSchema = draftSchema(WrenchBody, (d: WrenchDraft) => ({ label: d.label, type: d.type, lastCalibratedOn: d.lastCalibratedOn || null }));
 
 export function AddWrenchForm() {
   const uid = useId();
   const save = useSaveWrench();
-  const [label, setLabel] = useState('');
-  const [type, setType] = useState<WrenchType>('spring');
-  const [calibrated, setCalibrated] = useState('');
-  const f = fieldsOf(save.error);
+  const form = useContractForm(wrenchSchema, { label: '', type: 'spring', lastCalibratedOn: '' });
   return (
-    <Toggle label="Add wrench">
-      {(close) => (
-        <form aria-label="Add wrench" onSubmit={(e) => { e.preventDefault(); save.mutate({ body: { label, type, lastCalibratedOn: calibrated || null } }, { onSuccess: close }); }}>
-          <FormGroup label="Label" labelFor={`${uid}-label`} inline {...helper(f, 'label')}><InputGroup id={`${uid}-label`} value={label} onValueChange={setLabel} /></FormGroup>
-          <FormGroup label="Type" labelFor={`${uid}-type`} inline><HTMLSelect id={`${uid}-type`} value={type} onChange={(e) => setType(e.currentTarget.value as WrenchType)}><option value="spring">spring</option><option value="friction">friction</option></HTMLSelect></FormGroup>
-          <FormGroup label="Last calibration" labelFor={`${uid}-last-calibration`} inline {...helper(f, 'lastCalibratedOn')}><InputGroup id={`${uid}-last-calibration`} type="date" value={calibrated} onValueChange={setCalibrated} /></FormGroup>
-          <Button type="submit" intent="primary" small text="Add wrench" loading={save.isPending} /> <Button small variant="minimal" text="Cancel" onClick={close} />
-        </form>
-      )}
-    </Toggle>
+    <FormProvider {...form}>
+      <Toggle label="Add wrench">
+        {(close) => (
+          <form aria-label="Add wrench" onSubmit={(event) => void form.handleSubmit((body) => save.mutate({ body }, { onSuccess: close, onError: (error) => applyServerErrors(form.setError, error) }))(event)}>
+            <FormField name="label" label="Label" labelFor={`${uid}-label`} inline><InputGroup id={`${uid}-label`} {...withInputRef(form.register('label'))} /></FormField>
+            <FormField name="type" label="Type" labelFor={`${uid}-type`} inline><HTMLSelect id={`${uid}-type`} {...form.register('type')}><option value="spring">spring</option><option value="friction">friction</option></HTMLSelect></FormField>
+            <FormField name="lastCalibratedOn" label="Last calibration" labelFor={`${uid}-last-calibration`} inline><InputGroup id={`${uid}-last-calibration`} type="date" {...withInputRef(form.register('lastCalibratedOn'))} /></FormField>
+            <Button type="submit" intent="primary" small text="Add wrench" loading={save.isPending} /> <Button small variant="minimal" text="Cancel" onClick={close} />
+          </form>
+        )}
+      </Toggle>
+    </FormProvider>
   );
 }

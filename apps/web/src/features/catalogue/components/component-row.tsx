@@ -1,50 +1,72 @@
-import { Button, NumericInput } from '@blueprintjs/core';
-import type { CatalogueComponent } from '@torquetrail/contracts';
+import { Button } from '@blueprintjs/core';
+import { type CatalogueComponent, ComponentPatch } from '@torquetrail/contracts';
 import { useState } from 'react';
+import { FormProvider } from 'react-hook-form';
 import { Can } from '../../../lib/ability';
-import { isApiError } from '../../../lib/api-client';
-import { useSaveComponent } from '../api/catalogue-api';
 import { COMPONENT_KIND_LABEL } from '../../../lib/clinical-labels';
+import { applyServerErrors, draftSchema, errorAt, FieldError, NumberInput, useContractForm } from '../../../lib/forms';
+import { useSaveComponent } from '../api/catalogue-api';
 
-/** One part: its torque specification and tolerance, editable by the practice admin. */
+interface SpecDraft {
+  torqueSpecNcm: number | null;
+  tolerancePct: number | null;
+}
+
+// An emptied tolerance is no number: the contract says so beside the field.
+const schema = draftSchema(ComponentPatch, (d: SpecDraft) => ({ torqueSpecNcm: d.torqueSpecNcm, tolerancePct: d.tolerancePct ?? Number.NaN }));
+
+/**
+ * One part: its torque specification and tolerance, editable by the practice admin. The row is a
+ * form without a <form> element (a table row cannot hold one): Save submits it.
+ */
 export function ComponentRow({ part }: { part: CatalogueComponent }) {
   const [editing, setEditing] = useState(false);
-  const [spec, setSpec] = useState<number | null>(part.torqueSpecNcm);
-  const [tol, setTol] = useState(part.tolerancePct);
+  const form = useContractForm(schema, { torqueSpecNcm: part.torqueSpecNcm, tolerancePct: part.tolerancePct });
   const save = useSaveComponent();
-  const fields = isApiError(save.error) ? save.error.fields : {};
+  const submit = form.handleSubmit((body) => save.mutate({ id: part.id, body }, { onSuccess: () => setEditing(false), onError: (error) => applyServerErrors(form.setError, error) }));
   return (
-    <tr data-testid="catalogue-part">
-      <td>{part.name}</td>
-      <td className="mono">{part.referenceCode}</td>
-      <td>{COMPONENT_KIND_LABEL[part.kind]}</td>
-      <td>{part.engaging === null ? '—' : part.engaging ? 'engaging' : 'non-engaging'}{part.tray ? `, ${part.tray} tray` : ''}{part.angleDeg ? `, ${part.angleDeg}°` : ''}{part.collarHeightMm ? `, collar ${part.collarHeightMm} mm` : ''}</td>
-      <td>
-        {editing ? (
-          <>
-            <NumericInput buttonPosition="none" aria-label={`Torque of ${part.referenceCode} (N·cm, empty = hand-tight)`} min={1} max={100} value={spec ?? ''} onValueChange={(v) => setSpec(Number.isFinite(v) ? v : null)} intent={fields.torqueSpecNcm ? 'danger' : 'none'} />
-            {fields.torqueSpecNcm && <span className="planner-error">{fields.torqueSpecNcm}</span>}
-          </>
-        ) : part.torqueSpecNcm === null ? (
-          'hand-tight'
-        ) : (
-          `${part.torqueSpecNcm} N·cm`
-        )}
-      </td>
-      <td>{editing ? <NumericInput buttonPosition="none" aria-label={`Tolerance of ${part.referenceCode} (%)`} min={0} max={50} value={tol} onValueChange={setTol} /> : `±${part.tolerancePct} %`}</td>
-      <td>{part.requiresLot ? 'lot required' : ''}{part.inUse ? (part.requiresLot ? ', in use' : 'in use') : ''}</td>
-      <Can I="update" a="Catalogue">
+    <FormProvider {...form}>
+      <tr data-testid="catalogue-part">
+        <td>{part.name}</td>
+        <td className="mono">{part.referenceCode}</td>
+        <td>{COMPONENT_KIND_LABEL[part.kind]}</td>
+        <td>{part.engaging === null ? '—' : part.engaging ? 'engaging' : 'non-engaging'}{part.tray ? `, ${part.tray} tray` : ''}{part.angleDeg ? `, ${part.angleDeg}°` : ''}{part.collarHeightMm ? `, collar ${part.collarHeightMm} mm` : ''}</td>
         <td>
           {editing ? (
             <>
-              <Button small intent="primary" text="Save" loading={save.isPending} onClick={() => save.mutate({ id: part.id, body: { torqueSpecNcm: spec, tolerancePct: tol } }, { onSuccess: () => setEditing(false) })} />
-              <Button small variant="minimal" text="Cancel" onClick={() => setEditing(false)} />
+              <NumberInput name="torqueSpecNcm" buttonPosition="none" aria-label={`Torque of ${part.referenceCode} (N·cm, empty = hand-tight)`} min={1} max={100} intent={errorAt(form.formState.errors, 'torqueSpecNcm') ? 'danger' : 'none'} />
+              <FieldError name="torqueSpecNcm" className="planner-error" />
             </>
+          ) : part.torqueSpecNcm === null ? (
+            'hand-tight'
           ) : (
-            <Button small variant="minimal" icon="edit" text="Edit" onClick={() => setEditing(true)} />
+            `${part.torqueSpecNcm} N·cm`
           )}
         </td>
-      </Can>
-    </tr>
+        <td>
+          {editing ? (
+            <>
+              <NumberInput name="tolerancePct" buttonPosition="none" aria-label={`Tolerance of ${part.referenceCode} (%)`} min={0} max={50} />
+              <FieldError name="tolerancePct" className="planner-error" />
+            </>
+          ) : (
+            `±${part.tolerancePct} %`
+          )}
+        </td>
+        <td>{part.requiresLot ? 'lot required' : ''}{part.inUse ? (part.requiresLot ? ', in use' : 'in use') : ''}</td>
+        <Can I="update" a="Catalogue">
+          <td>
+            {editing ? (
+              <>
+                <Button small intent="primary" text="Save" loading={save.isPending} onClick={() => void submit()} />
+                <Button small variant="minimal" text="Cancel" onClick={() => setEditing(false)} />
+              </>
+            ) : (
+              <Button small variant="minimal" icon="edit" text="Edit" onClick={() => setEditing(true)} />
+            )}
+          </td>
+        </Can>
+      </tr>
+    </FormProvider>
   );
 }

@@ -1,8 +1,7 @@
 import { PatientListReply } from '@torquetrail/contracts';
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { apiRequest } from '../../../lib/api-client';
-
-export const patientListQueryKey = (search: string) => ['patients', 'list', { search }] as const;
+import { patientKeys } from './keys';
 
 export function fetchPatientList(search: string, signal?: AbortSignal): Promise<PatientListReply> {
   const query = search ? `?${new URLSearchParams({ search })}` : '';
@@ -11,7 +10,7 @@ export function fetchPatientList(search: string, signal?: AbortSignal): Promise<
 
 export const patientListQueryOptions = (search: string) =>
   queryOptions({
-    queryKey: patientListQueryKey(search),
+    queryKey: patientKeys.list(search),
     queryFn: ({ signal }) => fetchPatientList(search, signal),
     // Keep the previous rows on screen while the next search loads, instead of flashing a spinner.
     placeholderData: keepPreviousData,

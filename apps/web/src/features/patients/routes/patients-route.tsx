@@ -1,7 +1,7 @@
 import '../components/patients.css';
 import { NonIdealState } from '@blueprintjs/core';
 import { useCallback } from 'react';
-import { useSearchParams } from 'react-router-dom';
+import { useLocation, useNavigation, useSearchParams } from 'react-router-dom';
 import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
 import { usePatientList } from '../api/list-patients';
@@ -14,12 +14,18 @@ export function PatientsRoute() {
   const search = params.get('search')?.trim() ?? '';
   const patients = usePatientList(search);
 
+  // A search that settles (debounced) while a patient's page is loading must not replace that
+  // navigation and pull the user back to the list.
+  const { pathname } = useLocation();
+  const pending = useNavigation().location;
+  const leaving = pending !== undefined && pending.pathname !== pathname;
+
   const onSearch = useCallback(
     (next: string) => {
-      if (next === search) return;
+      if (next === search || leaving) return;
       setParams(next ? { search: next } : {}, { replace: true });
     },
-    [search, setParams],
+    [search, setParams, leaving],
   );
 
   return (

@@ -1,15 +1,14 @@
 import { PlacementOptionsReply } from '@torquetrail/contracts';
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { apiRequest } from '../../../lib/api-client';
-
-export const placementOptionsQueryKey = (siteId: string) => ['sites', 'placement-options', siteId] as const;
+import { siteKeys } from '../../site-file';
 
 export function fetchPlacementOptions(siteId: string, signal?: AbortSignal): Promise<PlacementOptionsReply> {
   return apiRequest(`/api/sites/${encodeURIComponent(siteId)}/placement-options`, { schema: PlacementOptionsReply, signal });
 }
 
 export const placementOptionsQueryOptions = (siteId: string) =>
-  queryOptions({ queryKey: placementOptionsQueryKey(siteId), queryFn: ({ signal }) => fetchPlacementOptions(siteId, signal) });
+  queryOptions({ queryKey: siteKeys.placementOptions(siteId), queryFn: ({ signal }) => fetchPlacementOptions(siteId, signal) });
 
 /** The systems of the site's practice (a shared surgeon may not read that practice's catalogue). */
 export function usePlacementOptions(siteId: string) {

@@ -1,7 +1,8 @@
 import { type PlacementBody, PlacementRecord } from '@torquetrail/contracts';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { apiRequest } from '../../../lib/api-client';
-import { patientQueryKey } from '../../../lib/api/get-patient';
+import { patientKeys } from '../../patients';
+import { siteKeys } from '../../site-file';
 
 /** A placement changes the Site file (header, Stack), its Timeline and the patient's Arch (status, system). */
 export function useRecordPlacement(patientId: string, siteId: string) {
@@ -10,9 +11,9 @@ export function useRecordPlacement(patientId: string, siteId: string) {
     mutationFn: (body: PlacementBody) => apiRequest(`/api/sites/${encodeURIComponent(siteId)}/placements`, { method: 'POST', body, schema: PlacementRecord }),
     onSuccess: () =>
       Promise.all([
-        queryClient.invalidateQueries({ queryKey: ['sites', 'detail', siteId] }),
-        queryClient.invalidateQueries({ queryKey: ['sites', 'timeline', siteId] }),
-        queryClient.invalidateQueries({ queryKey: patientQueryKey(patientId) }),
+        queryClient.invalidateQueries({ queryKey: siteKeys.detail(siteId) }),
+        queryClient.invalidateQueries({ queryKey: siteKeys.timeline(siteId) }),
+        queryClient.invalidateQueries({ queryKey: patientKeys.detail(patientId) }),
       ]),
   });
 }

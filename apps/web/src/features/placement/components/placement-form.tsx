@@ -1,11 +1,10 @@
-import { Button, Callout, FormGroup, HTMLSelect, InputGroup, NumericInput, TextArea } from '@blueprintjs/core';
+import { Button, Callout, HTMLSelect, InputGroup, TextArea } from '@blueprintjs/core';
 import { type LoadingProtocol, PlacementBody, type PlacementOptionsReply } from '@torquetrail/contracts';
-import { type FormEvent, useState } from 'react';
-import { isApiError } from '../../../lib/api-client';
-import { LOADING_PROTOCOL_LABEL } from '../../../lib/clinical-labels';
-import { fieldsFromIssues } from '../../../lib/form-errors';
-import { useRecordPlacement } from '../api/record-placement';
 import { checkUdiForPlacement } from '@torquetrail/domain';
+import { FormProvider, useWatch } from 'react-hook-form';
+import { LOADING_PROTOCOL_LABEL } from '../../../lib/clinical-labels';
+import { applyServerErrors, draftSchema, FormField, formErrorMessage, NumberInput, useContractForm, withInputRef } from '../../../lib/forms';
+import { useRecordPlacement } from '../api/record-placement';
 import { readUdi, UdiField } from './udi-field';
 
 const localToday = () => {
@@ -14,7 +13,37 @@ const localToday = () => {
   return d.toISOString().slice(0, 10);
 };
 
-const num = (v: number) => (Number.isFinite(v) ? v : null);
+interface PlacementDraft {
+  platformId: string;
+  placedOn: string;
+  lengthMm: number | null;
+  lot: string;
+  udi: string;
+  insertionTorqueNcm: number | null;
+  stabilityIsq: number | null;
+  grafting: string;
+  loadingProtocol: LoadingProtocol | '';
+  axis: [number | null, number | null, number | null];
+  closureComponentId: string;
+  closureLot: string;
+  notes: string;
+}
+
+const schema = draftSchema(PlacementBody, (d: PlacementDraft) => ({
+  platformId: d.platformId,
+  placedOn: d.placedOn,
+  lengthMm: d.lengthMm ?? Number.NaN,
+  lot: d.lot || null,
+  udi: d.udi || null,
+  insertionTorqueNcm: d.insertionTorqueNcm,
+  stabilityIsq: d.stabilityIsq,
+  grafting: d.grafting || null,
+  loadingProtocol: d.loadingProtocol || null,
+  axis: d.axis.some((a) => a !== null) ? { x: d.axis[0] ?? 0, y: d.axis[1] ?? 0, z: d.axis[2] ?? 0 } : null,
+  closureComponentId: d.closureComponentId || null,
+  closureLot: d.closureComponentId ? d.closureLot || null : null,
+  notes: d.notes || null,
+}));
 
 /**
  * What was placed: platform (from the site's practice catalogue), date, length, lot and UDI,
@@ -22,20 +51,22 @@ const num = (v: number) => (Number.isFinite(v) ? v : null);
  * The server checks everything again; its `fields` show beside each field.
  */
 export function PlacementForm({ patientId, siteId, options, onDone }: { patientId: string; siteId: string; options: PlacementOptionsReply; onDone: () => void }) {
-  const [platformId, setPlatformId] = useState('');
-  const [placedOn, setPlacedOn] = useState(localToday);
-  const [lengthMm, setLengthMm] = useState<number | null>(null);
-  const [lot, setLot] = useState('');
-  const [udi, setUdi] = useState('');
-  const [torque, setTorque] = useState<number | null>(null);
-  const [isq, setIsq] = useState<number | null>(null);
-  const [grafting, setGrafting] = useState('');
-  const [loading, setLoading] = useState<LoadingProtocol | ''>('');
-  const [axis, setAxis] = useState<[number | null, number | null, number | null]>([null, null, null]);
-  const [closureId, setClosureId] = useState('');
-  const [closureLot, setClosureLot] = useState('');
-  const [notes, setNotes] = useState('');
-  const [fields, setFields] = useState<Record<string, string>>({});
+  const form = useContractForm(schema, {
+    platformId: '',
+    placedOn: localToday(),
+    lengthMm: null,
+    lot: '',
+    udi: '',
+    insertionTorqueNcm: null,
+    stabilityIsq: null,
+    grafting: '',
+    loadingProtocol: '',
+    axis: [null, null, null],
+    closureComponentId: '',
+    closureLot: '',
+    notes: '',
+  });
+  const [platformId, placedOn, lot, udi, closureId] = useWatch({ control: form.control, name: ['platformId', 'placedOn', 'lot', 'udi', 'closureComponentId'] });
   const record = useRecordPlacement(patientId, siteId);
 
   const platforms = options.systems.flatMap((s) => s.platforms.map((p) => ({ ...p, system: s })));
@@ -45,146 +76,103 @@ export function PlacementForm({ patientId, siteId, options, onDone }: { patientI
   const reading = readUdi(udi);
   const lotFinding = reading?.ok ? checkUdiForPlacement(reading.udi, { placedOn, lot }).find((f) => f.field === 'lot') : undefined;
 
-  const submit = async (event: FormEvent) => {
-    event.preventDefault();
-    const axisGiven = axis.some((a) => a !== null);
-    const body: PlacementBody = {
-      platformId,
-      placedOn,
-      lengthMm: lengthMm ?? Number.NaN,
-      lot: lot || null,
-      udi: udi || null,
-      insertionTorqueNcm: torque,
-      stabilityIsq: isq,
-      grafting: grafting || null,
-      loadingProtocol: loading || null,
-      axis: axisGiven ? { x: axis[0] ?? 0, y: axis[1] ?? 0, z: axis[2] ?? 0 } : null,
-      closureComponentId: closureId || null,
-      closureLot: closureId ? closureLot || null : null,
-      notes: notes || null,
-    };
-    const parsed = PlacementBody.safeParse(body);
-    if (!parsed.success) return setFields(fieldsFromIssues(parsed.error.issues));
-    setFields({});
-    try {
-      await record.mutateAsync(body);
-      onDone();
-    } catch (error) {
-      if (isApiError(error)) setFields({ ...error.fields, ...(Object.keys(error.fields).length === 0 ? { '(form)': error.message } : {}) });
-    }
-  };
-
-  const err = (key: string) => (fields[key] ? { intent: 'danger' as const, helperText: <span data-testid={`error-${key}`}>{fields[key]}</span> } : {});
+  const submit = (body: PlacementBody) => record.mutate(body, { onSuccess: onDone, onError: (error) => applyServerErrors(form.setError, error) });
+  const formError = formErrorMessage(form.formState.errors, 'alone');
   const axisInput = (i: 0 | 1 | 2, label: string) => (
-    <NumericInput
-      buttonPosition="none"
-      id={`placement-axis-${label}`}
-      aria-label={`Axis ${label}`}
-      placeholder={label}
-      value={axis[i] ?? ''}
-      onValueChange={(v) => setAxis((a) => Object.assign([...a], { [i]: num(v) }) as typeof a)}
-      stepSize={0.1}
-      minorStepSize={0.01}
-      majorStepSize={1}
-    />
+    <NumberInput name={`axis.${i}`} buttonPosition="none" id={`placement-axis-${label}`} aria-label={`Axis ${label}`} placeholder={label} stepSize={0.1} minorStepSize={0.01} majorStepSize={1} />
   );
 
   return (
-    <form className="placement-form" onSubmit={submit} aria-label="Record placement" data-testid="placement-form" noValidate>
-      <Callout intent="warning" icon="info-sign" compact>
-        {options.caution}
-      </Callout>
-      <FormGroup label="Platform" labelFor="placement-platform" {...err('platformId')}>
-        <HTMLSelect id="placement-platform" value={platformId} onChange={(e) => (setPlatformId(e.currentTarget.value), setClosureId(''))} fill>
-          <option value="">Choose the platform…</option>
-          {options.systems.map((s) => (
-            <optgroup key={s.id} label={`${s.name} (${s.manufacturer})`}>
-              {s.platforms.map((p) => (
-                <option key={p.id} value={p.id}>
-                  {p.name}
+    <FormProvider {...form}>
+      <form className="placement-form" onSubmit={(event) => void form.handleSubmit(submit)(event)} aria-label="Record placement" data-testid="placement-form" noValidate>
+        <Callout intent="warning" icon="info-sign" compact>
+          {options.caution}
+        </Callout>
+        <FormField name="platformId" label="Platform" labelFor="placement-platform">
+          <HTMLSelect id="placement-platform" fill {...form.register('platformId', { onChange: () => form.setValue('closureComponentId', '') })}>
+            <option value="">Choose the platform…</option>
+            {options.systems.map((s) => (
+              <optgroup key={s.id} label={`${s.name} (${s.manufacturer})`}>
+                {s.platforms.map((p) => (
+                  <option key={p.id} value={p.id}>
+                    {p.name}
+                  </option>
+                ))}
+              </optgroup>
+            ))}
+          </HTMLSelect>
+        </FormField>
+        <div className="placement-form__row">
+          <FormField name="placedOn" label="Placed on" labelFor="placement-date">
+            <InputGroup id="placement-date" type="date" max={localToday()} {...withInputRef(form.register('placedOn'))} />
+          </FormField>
+          <FormField name="lengthMm" label="Implant length (mm)" labelFor="placement-length">
+            <NumberInput name="lengthMm" buttonPosition="none" id="placement-length" min={4} max={20} stepSize={0.5} allowNumericCharactersOnly />
+          </FormField>
+        </div>
+        <UdiField />
+        <FormField name="lot" live={lotFinding?.message} label="Lot" labelFor="placement-lot" subLabel="Filled from the UDI when it has one">
+          <InputGroup id="placement-lot" className="mono" autoComplete="off" {...withInputRef(form.register('lot'))} />
+        </FormField>
+        <div className="placement-form__row">
+          <FormField name="insertionTorqueNcm" label="Insertion torque (N·cm)" labelFor="placement-torque">
+            <NumberInput name="insertionTorqueNcm" buttonPosition="none" id="placement-torque" min={5} max={100} allowNumericCharactersOnly />
+          </FormField>
+          <FormField name="stabilityIsq" label="Stability (ISQ)" labelFor="placement-isq">
+            <NumberInput name="stabilityIsq" buttonPosition="none" id="placement-isq" min={1} max={99} allowNumericCharactersOnly />
+          </FormField>
+          <FormField name="loadingProtocol" label="Loading protocol" labelFor="placement-loading">
+            <HTMLSelect id="placement-loading" {...form.register('loadingProtocol')}>
+              <option value="">Not recorded</option>
+              {Object.entries(LOADING_PROTOCOL_LABEL).map(([value, text]) => (
+                <option key={value} value={value}>
+                  {text}
                 </option>
               ))}
-            </optgroup>
-          ))}
-        </HTMLSelect>
-      </FormGroup>
-      <div className="placement-form__row">
-        <FormGroup label="Placed on" labelFor="placement-date" {...err('placedOn')}>
-          <InputGroup id="placement-date" type="date" value={placedOn} max={localToday()} onValueChange={setPlacedOn} />
-        </FormGroup>
-        <FormGroup label="Implant length (mm)" labelFor="placement-length" {...err('lengthMm')}>
-          <NumericInput buttonPosition="none" id="placement-length" min={4} max={20} stepSize={0.5} value={lengthMm ?? ''} onValueChange={(v) => setLengthMm(num(v))} allowNumericCharactersOnly />
-        </FormGroup>
-      </div>
-      <UdiField
-        value={udi}
-        placedOn={placedOn}
-        serverError={fields.udi}
-        onChange={(text, reading) => {
-          setUdi(text);
-          if (reading?.ok && reading.udi.lot) setLot(reading.udi.lot);
-        }}
-      />
-      <FormGroup label="Lot" labelFor="placement-lot" subLabel="Filled from the UDI when it has one" {...(fields.lot ? err('lot') : lotFinding ? { intent: 'danger' as const, helperText: <span data-testid="error-lot">{lotFinding.message}</span> } : {})}>
-        <InputGroup id="placement-lot" value={lot} onValueChange={setLot} className="mono" autoComplete="off" />
-      </FormGroup>
-      <div className="placement-form__row">
-        <FormGroup label="Insertion torque (N·cm)" labelFor="placement-torque" {...err('insertionTorqueNcm')}>
-          <NumericInput buttonPosition="none" id="placement-torque" min={5} max={100} value={torque ?? ''} onValueChange={(v) => setTorque(num(v))} allowNumericCharactersOnly />
-        </FormGroup>
-        <FormGroup label="Stability (ISQ)" labelFor="placement-isq" {...err('stabilityIsq')}>
-          <NumericInput buttonPosition="none" id="placement-isq" min={1} max={99} value={isq ?? ''} onValueChange={(v) => setIsq(num(v))} allowNumericCharactersOnly />
-        </FormGroup>
-        <FormGroup label="Loading protocol" labelFor="placement-loading" {...err('loadingProtocol')}>
-          <HTMLSelect id="placement-loading" value={loading} onChange={(e) => setLoading(e.currentTarget.value as LoadingProtocol | '')}>
-            <option value="">Not recorded</option>
-            {Object.entries(LOADING_PROTOCOL_LABEL).map(([value, text]) => (
-              <option key={value} value={value}>
-                {text}
-              </option>
-            ))}
-          </HTMLSelect>
-        </FormGroup>
-      </div>
-      <FormGroup label="Grafting" labelFor="placement-grafting" {...err('grafting')}>
-        <InputGroup id="placement-grafting" value={grafting} onValueChange={setGrafting} placeholder="e.g. none, xenograft buccal contour, sinus lift" />
-      </FormGroup>
-      <FormGroup label="Implant axis (optional direction vector x, y, z)" labelFor="placement-axis-x" {...err('axis')}>
-        <div className="placement-form__axis">
-          {axisInput(0, 'x')}
-          {axisInput(1, 'y')}
-          {axisInput(2, 'z')}
+            </HTMLSelect>
+          </FormField>
         </div>
-      </FormGroup>
-      <div className="placement-form__row">
-        <FormGroup label="Healing abutment or cover screw" labelFor="placement-closure" subLabel="Hand-tight: no torque is logged" {...err('closureComponentId')}>
-          <HTMLSelect id="placement-closure" value={closureId} onChange={(e) => setClosureId(e.currentTarget.value)} disabled={!platform}>
-            <option value="">None</option>
-            {closures.map((c) => (
-              <option key={c.id} value={c.id}>
-                {c.name} [{c.referenceCode}]
-              </option>
-            ))}
-          </HTMLSelect>
-        </FormGroup>
-        {closureId && (
-          <FormGroup label="Lot of that part" labelFor="placement-closure-lot" {...err('closureLot')}>
-            <InputGroup id="placement-closure-lot" value={closureLot} onValueChange={setClosureLot} className="mono" autoComplete="off" />
-          </FormGroup>
+        <FormField name="grafting" label="Grafting" labelFor="placement-grafting">
+          <InputGroup id="placement-grafting" placeholder="e.g. none, xenograft buccal contour, sinus lift" {...withInputRef(form.register('grafting'))} />
+        </FormField>
+        {/* The contract checks the vector (not zero) and each component (±1000): both show here. */}
+        <FormField name={['axis', 'axis.x', 'axis.y', 'axis.z']} label="Implant axis (optional direction vector x, y, z)" labelFor="placement-axis-x">
+          <div className="placement-form__axis">
+            {axisInput(0, 'x')}
+            {axisInput(1, 'y')}
+            {axisInput(2, 'z')}
+          </div>
+        </FormField>
+        <div className="placement-form__row">
+          <FormField name="closureComponentId" label="Healing abutment or cover screw" labelFor="placement-closure" subLabel="Hand-tight: no torque is logged">
+            <HTMLSelect id="placement-closure" disabled={!platform} {...form.register('closureComponentId')}>
+              <option value="">None</option>
+              {closures.map((c) => (
+                <option key={c.id} value={c.id}>
+                  {c.name} [{c.referenceCode}]
+                </option>
+              ))}
+            </HTMLSelect>
+          </FormField>
+          {closureId && (
+            <FormField name="closureLot" label="Lot of that part" labelFor="placement-closure-lot">
+              <InputGroup id="placement-closure-lot" className="mono" autoComplete="off" {...withInputRef(form.register('closureLot'))} />
+            </FormField>
+          )}
+        </div>
+        <FormField name="notes" label="Notes" labelFor="placement-notes">
+          <TextArea id="placement-notes" fill {...withInputRef(form.register('notes'))} />
+        </FormField>
+        {formError && (
+          <Callout intent="danger" role="alert" compact>
+            {formError}
+          </Callout>
         )}
-      </div>
-      <FormGroup label="Notes" labelFor="placement-notes" {...err('notes')}>
-        <TextArea id="placement-notes" value={notes} onChange={(e) => setNotes(e.currentTarget.value)} fill />
-      </FormGroup>
-      {fields['(form)'] && (
-        <Callout intent="danger" role="alert" compact>
-          {fields['(form)']}
-        </Callout>
-      )}
-      <div className="placement-form__actions">
-        <Button type="submit" intent="primary" text="Save placement" loading={record.isPending} data-testid="save-placement" />
-        <Button variant="minimal" text="Cancel" onClick={onDone} />
-      </div>
-    </form>
+        <div className="placement-form__actions">
+          <Button type="submit" intent="primary" text="Save placement" loading={record.isPending} data-testid="save-placement" />
+          <Button variant="minimal" text="Cancel" onClick={onDone} />
+        </div>
+      </form>
+    </FormProvider>
   );
 }

@@ -1,7 +1,9 @@
-import { FormGroup, InputGroup } from '@blueprintjs/core';
+import { InputGroup } from '@blueprintjs/core';
 import { describeUdiError } from '@torquetrail/contracts';
 import { checkUdiForPlacement, type ParsedUdi, parseUdi, UdiError } from '@torquetrail/domain';
+import { useFormContext, useWatch } from 'react-hook-form';
 import { formatDate } from '../../../lib/dates';
+import { FormField, withInputRef } from '../../../lib/forms';
 
 export type UdiReading = { ok: true; udi: ParsedUdi } | { ok: false; message: string } | null;
 
@@ -16,18 +18,34 @@ export function readUdi(text: string): UdiReading {
   }
 }
 
+/** The placement form's values this field reads and fills. */
+interface UdiFieldValues {
+  udi: string;
+  placedOn: string;
+  lot: string;
+}
+
 /**
  * UDI as scanned (raw, with GS separators) or typed (human-readable "(01)…(17)…(10)…"). It is read
- * live: GTIN, lot and expiry — or the reason it cannot be read — beside the field.
+ * live: GTIN, lot and expiry — or the reason it cannot be read — beside the field; a lot in the
+ * UDI fills the form's lot.
  */
-export function UdiField({ value, onChange, placedOn, serverError }: { value: string; onChange: (text: string, reading: UdiReading) => void; placedOn: string; serverError?: string }) {
+export function UdiField() {
+  const { control, register, setValue } = useFormContext<UdiFieldValues>();
+  const [value, placedOn] = useWatch({ control, name: ['udi', 'placedOn'] });
   const reading = readUdi(value);
   // Only the UDI's own findings here; a lot mismatch shows beside the lot field.
   const expired = reading?.ok && placedOn ? checkUdiForPlacement(reading.udi, { placedOn }).find((f) => f.field === 'udi') : undefined;
-  const error = reading && !reading.ok ? reading.message : (expired?.message ?? serverError);
+  const live = reading && !reading.ok ? reading.message : expired?.message;
+  const field = register('udi', {
+    onChange: (event: { target: { value: string } }) => {
+      const scanned = readUdi(event.target.value);
+      if (scanned?.ok && scanned.udi.lot) setValue('lot', scanned.udi.lot);
+    },
+  });
   return (
-    <FormGroup label="UDI (scan or type)" labelFor="placement-udi" helperText={error && <span data-testid="error-udi">{error}</span>} intent={error ? 'danger' : 'none'} subLabel="Optional. GS1 element string, e.g. (01)…(17)…(10)…">
-      <InputGroup id="placement-udi" value={value} onValueChange={(text) => onChange(text, readUdi(text))} className="mono" autoComplete="off" spellCheck={false} aria-describedby="placement-udi-reading" />
+    <FormField name="udi" live={live} prefer="live" label="UDI (scan or type)" labelFor="placement-udi" subLabel="Optional. GS1 element string, e.g. (01)…(17)…(10)…">
+      <InputGroup id="placement-udi" className="mono" autoComplete="off" spellCheck={false} aria-describedby="placement-udi-reading" {...withInputRef(field)} />
       <div id="placement-udi-reading" aria-live="polite" data-testid="udi-reading">
         {reading?.ok && (
           <dl className="placement-udi__reading">
@@ -46,6 +64,6 @@ export function UdiField({ value, onChange, placedOn, serverError }: { value: st
           </dl>
         )}
       </div>
-    </FormGroup>
+    </FormField>
   );
 }

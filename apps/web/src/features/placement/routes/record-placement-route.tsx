@@ -6,7 +6,7 @@ import { BreadcrumbTrail } from '../../../lib/components/breadcrumb-trail';
 import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
 import { useToothSystem } from '../../../lib/tooth-system';
-import { usePatient } from '../../../lib/api/get-patient';
+import { usePatient } from '../../patients';
 import { usePlacementOptions } from '../api/get-placement-options';
 import { PlacementForm } from '../components/placement-form';
 

@@ -1,7 +1,6 @@
 // Planner endpoints: one fetcher + queryOptions + hook each. Mutations invalidate exactly the
 // queries whose data they change.
 import {
-  CatalogueReply,
   LabPrescriptionSummary,
   type DeliveryBody,
   type PlanAmendmentBody,
@@ -10,31 +9,26 @@ import {
   RestorationDetail,
   RestorationListReply,
 } from '@torquetrail/contracts';
-import { queryOptions, useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
+import { useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { apiRequest } from '../../../lib/api-client';
-
-export const catalogueQueryKey = ['catalogue'] as const;
-export const restorableSitesKey = (patientId: string) => ['patients', 'restorable-sites', patientId] as const;
-export const restorationsKey = (patientId: string) => ['patients', 'restorations', patientId] as const;
-
-export const catalogueQueryOptions = () =>
-  queryOptions({ queryKey: catalogueQueryKey, queryFn: ({ signal }) => apiRequest('/api/catalogue', { schema: CatalogueReply, signal }) });
-export const useCatalogue = () => useQuery(catalogueQueryOptions());
+import { patientKeys } from '../../patients';
+import { siteKeys } from '../../site-file';
+import { restorationKeys } from './keys';
 
 export const useRestorableSites = (patientId: string) =>
-  useQuery({ queryKey: restorableSitesKey(patientId), queryFn: ({ signal }) => apiRequest(`/api/patients/${patientId}/restorable-sites`, { schema: RestorableSitesReply, signal }) });
+  useQuery({ queryKey: restorationKeys.restorableSites(patientId), queryFn: ({ signal }) => apiRequest(`/api/patients/${patientId}/restorable-sites`, { schema: RestorableSitesReply, signal }) });
 
 export const useRestorations = (patientId: string) =>
-  useQuery({ queryKey: restorationsKey(patientId), queryFn: ({ signal }) => apiRequest(`/api/patients/${patientId}/restorations`, { schema: RestorationListReply, signal }) });
+  useQuery({ queryKey: restorationKeys.list(patientId), queryFn: ({ signal }) => apiRequest(`/api/patients/${patientId}/restorations`, { schema: RestorationListReply, signal }) });
 
 /** What a restoration's change touches: the patient's list, and the Stack, Timeline and Arch of its sites. */
 function invalidateRestoration(queryClient: QueryClient, r: RestorationDetail, { sites }: { sites: boolean }) {
-  const keys: (readonly unknown[])[] = [restorationsKey(r.patientId)];
+  const keys: (readonly unknown[])[] = [restorationKeys.list(r.patientId)];
   for (const s of r.sites) {
-    keys.push(['sites', 'timeline', s.siteId]);
-    if (sites) keys.push(['sites', 'detail', s.siteId]);
+    keys.push(siteKeys.timeline(s.siteId));
+    if (sites) keys.push(siteKeys.detail(s.siteId));
   }
-  if (sites) keys.push(['patients', 'detail', r.patientId], restorableSitesKey(r.patientId));
+  if (sites) keys.push(patientKeys.detail(r.patientId), restorationKeys.restorableSites(r.patientId));
   return Promise.all(keys.map((queryKey) => queryClient.invalidateQueries({ queryKey })));
 }
 

@@ -1,6 +1,7 @@
-import { Checkbox, FormGroup, HTMLSelect, InputGroup } from '@blueprintjs/core';
+import { Checkbox, HTMLSelect, InputGroup } from '@blueprintjs/core';
 import type { CatalogueComponent, ComponentKind, ImpressionCopingKind, InterfaceKind, RestorableSite, Retention } from '@torquetrail/contracts';
 import { formatTooth } from '@torquetrail/domain';
+import { FormField } from '../../../lib/forms';
 import type { ToothSystem } from '../../../lib/tooth-system';
 import type { SitePlan } from './plan-state';
 import { CONNECTION_LABEL } from '../../../lib/clinical-labels';
@@ -14,17 +15,16 @@ interface Props {
   retention: Retention;
   parts: CatalogueComponent[];
   system: ToothSystem;
-  errors: Record<string, string>;
+  /** Messages computed live from the draft (Findings, malformed values), by field path. */
+  live: Record<string, string>;
   onChange: (next: SitePlan) => void;
 }
 
 /** One site of the plan: interface, impression technique and coping, parts from this platform only. */
-export function SitePlanFields({ index, site, plan, retention, parts, system, errors, onChange }: Props) {
+export function SitePlanFields({ index, site, plan, retention, parts, system, live, onChange }: Props) {
   const key = (f: string) => `sites.${index}.${f}`;
-  const err = (...fields: string[]) => {
-    const message = fields.map((f) => errors[key(f)]).find(Boolean);
-    return message ? { intent: 'danger' as const, helperText: <span data-testid={`error-${key(fields[0]!)}`}>{message}</span> } : {};
-  };
+  /** A field's error paths (the first names it) and its live message. */
+  const err = (...fields: string[]) => ({ name: fields.map(key), live: fields.map((f) => live[key(f)]).find(Boolean) });
   const of = (...kinds: ComponentKind[]) => parts.filter((p) => kinds.includes(p.kind));
   const copings = of('impression-coping').filter((c) => (plan.impressionCoping === 'engaging' ? c.engaging === true : c.engaging !== true));
   const set = (patch: Partial<SitePlan>) => onChange({ ...plan, ...patch });
@@ -37,20 +37,20 @@ export function SitePlanFields({ index, site, plan, retention, parts, system, er
         Site {label} · {site.systemName} · {site.platformName} {site.connection ? ` (${CONNECTION_LABEL[site.connection]})` : ''}
       </legend>
       <div className="planner-grid">
-        <FormGroup label="Interface to the implant" labelFor={id('interface')} {...err('interface')}>
+        <FormField label="Interface to the implant" labelFor={id('interface')} {...err('interface')}>
           <HTMLSelect id={id('interface')} value={plan.interface} onChange={(e) => set({ interface: e.currentTarget.value as InterfaceKind })}>
             <option value="non-engaging">Non-engaging</option>
             <option value="engaging">Engaging</option>
           </HTMLSelect>
-        </FormGroup>
-        <FormGroup label="Impression technique" labelFor={id('coping')} {...err('impressionCoping', 'impressionCopingComponentId')}>
+        </FormField>
+        <FormField label="Impression technique" labelFor={id('coping')} {...err('impressionCoping', 'impressionCopingComponentId')}>
           <HTMLSelect id={id('coping')} value={plan.impressionCoping} onChange={(e) => set({ impressionCoping: e.currentTarget.value as ImpressionCopingKind, impressionCopingComponentId: '' })}>
             <option value="non-engaging">Non-engaging coping</option>
             <option value="engaging">Engaging coping</option>
             <option value="multi-unit">Multi-unit coping</option>
           </HTMLSelect>
-        </FormGroup>
-        <FormGroup label="Impression coping (catalogue)" labelFor={id('coping-part')}>
+        </FormField>
+        <FormField label="Impression coping (catalogue)" labelFor={id('coping-part')} name={[]}>
           <HTMLSelect id={id('coping-part')} value={plan.impressionCopingComponentId} onChange={(e) => set({ impressionCopingComponentId: e.currentTarget.value })}>
             <option value="">Not chosen</option>
             {copings.map((c) => (
@@ -59,9 +59,9 @@ export function SitePlanFields({ index, site, plan, retention, parts, system, er
               </option>
             ))}
           </HTMLSelect>
-        </FormGroup>
+        </FormField>
         {retention === 'screw-to-multi-unit' ? (
-          <FormGroup label="Multi-unit abutment" labelFor={id('mua')} {...err('multiUnitComponentId', 'multiUnitAngleDeg')}>
+          <FormField label="Multi-unit abutment" labelFor={id('mua')} {...err('multiUnitComponentId', 'multiUnitAngleDeg')}>
             <HTMLSelect id={id('mua')} value={plan.multiUnitComponentId} onChange={(e) => set({ multiUnitComponentId: e.currentTarget.value })}>
               <option value="">Not chosen</option>
               {of('multi-unit-abutment').map((c) => (
@@ -70,9 +70,9 @@ export function SitePlanFields({ index, site, plan, retention, parts, system, er
                 </option>
               ))}
             </HTMLSelect>
-          </FormGroup>
+          </FormField>
         ) : retention !== 'screw-to-implant' ? (
-          <FormGroup label="Abutment" labelFor={id('abutment')} {...err('abutmentComponentId')}>
+          <FormField label="Abutment" labelFor={id('abutment')} {...err('abutmentComponentId')}>
             <HTMLSelect id={id('abutment')} value={plan.abutmentComponentId} onChange={(e) => set({ abutmentComponentId: e.currentTarget.value })}>
               <option value="">Not chosen</option>
               {of('abutment-stock', 'abutment-custom', 'abutment-angled').map((c) => (
@@ -81,12 +81,12 @@ export function SitePlanFields({ index, site, plan, retention, parts, system, er
                 </option>
               ))}
             </HTMLSelect>
-          </FormGroup>
+          </FormField>
         ) : null}
-        <FormGroup label="Restorative space (mm)" labelFor={id('space')} {...err('restorativeSpaceMm')}>
+        <FormField label="Restorative space (mm)" labelFor={id('space')} {...err('restorativeSpaceMm')}>
           <InputGroup id={id('space')} inputMode="decimal" value={plan.restorativeSpaceMm} onValueChange={(v) => set({ restorativeSpaceMm: v })} />
-        </FormGroup>
-        <FormGroup label="Implant axis (x, y, z)" helperText={errors[key('axis')] ?? (site.axis ? `From the placement: ${site.axis.join(', ')}; type to override` : 'Not in the placement record: enter a direction vector')} intent={errors[key('axis')] ? 'danger' : 'none'}>
+        </FormField>
+        <FormField label="Implant axis (x, y, z)" {...err('axis', 'axis.0', 'axis.1', 'axis.2')} help={site.axis ? `From the placement: ${site.axis.join(', ')}; type to override` : 'Not in the placement record: enter a direction vector'}>
           <div className="planner-axis">
             {(['x', 'y', 'z'] as const).map((c, i) => (
               <InputGroup
@@ -99,9 +99,9 @@ export function SitePlanFields({ index, site, plan, retention, parts, system, er
               />
             ))}
           </div>
-        </FormGroup>
+        </FormField>
       </div>
-      <FormGroup label="Screws" {...err('screwComponentIds')}>
+      <FormField label="Screws" {...err('screwComponentIds')}>
         {of('abutment-screw', 'prosthetic-screw', 'set-screw').map((c) => (
           <Checkbox
             key={c.id}
@@ -110,7 +110,7 @@ export function SitePlanFields({ index, site, plan, retention, parts, system, er
             onChange={(e) => set({ screwComponentIds: e.currentTarget.checked ? [...plan.screwComponentIds, c.id] : plan.screwComponentIds.filter((x) => x !== c.id) })}
           />
         ))}
-      </FormGroup>
+      </FormField>
     </fieldset>
   );
 }

@@ -1,22 +1,24 @@
 import '../components/planner.css';
-import { Button, Callout, Checkbox, FormGroup, HTMLSelect, InputGroup, TextArea } from '@blueprintjs/core';
-import { type CatalogueComponent, type CatalogueReply, type Material, PlanBody, type RestorableSite, type RestorationDetail, type RestorationKind, type Retention, findingField } from '@torquetrail/contracts';
+import { Button, Callout, Checkbox, HTMLSelect, InputGroup, TextArea } from '@blueprintjs/core';
+import { type CatalogueComponent, type CatalogueReply, type Material, PlanAmendmentBody, PlanBody, type PlanBodyParsed, type RestorableSite, type RestorationDetail, type RestorationKind, type Retention, findingField } from '@torquetrail/contracts';
 import { formatTooth } from '@torquetrail/domain';
-import { type FormEvent, useMemo, useState } from 'react';
+import { useMemo } from 'react';
+import { FormProvider } from 'react-hook-form';
+import type { z } from 'zod';
 import { Link, useNavigate, useParams, useSearchParams } from 'react-router-dom';
-import { isApiError } from '../../../lib/api-client';
 import { BreadcrumbTrail } from '../../../lib/components/breadcrumb-trail';
 import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
-import { fieldsFromIssues } from '../../../lib/form-errors';
+import { applyServerErrors, draftSchema, FieldError, FormField, formErrorMessage, useContractForm, withInputRef } from '../../../lib/forms';
 import { useToothSystem } from '../../../lib/tooth-system';
-import { useAmendPlan, useCatalogue, useRestorableSites, useRestorations, useSavePlan } from '../api/planner-api';
+import { useCatalogue } from '../../catalogue';
+import { useAmendPlan, useRestorableSites, useRestorations, useSavePlan } from '../api/planner-api';
 import { FindingsPanel } from '../components/findings-panel';
-import { emptySitePlan, initialPlan, liveFindings, type PlanState, stateFromRestoration, toBody } from '../components/plan-state';
+import { ackKey, emptySitePlan, initialPlan, liveFindings, type PlanState, stateFromRestoration, toBody } from '../components/plan-state';
 import { SitePlanFields } from '../components/site-plan-fields';
 import { DivergenceTable } from '../components/divergence-table';
 import { MATERIAL_LABEL, RESTORATION_KIND_LABEL as KIND_LABEL, RETENTION_LABEL } from '../../../lib/clinical-labels';
-import { usePatient } from '../../../lib/api/get-patient';
+import { usePatient } from '../../patients';
 
 /**
  * /patients/:patientId/restorations/new: the restoration planner with live Findings.
@@ -45,59 +47,73 @@ export function PlannerRoute() {
   return <PlannerForm key={amendId ?? 'new'} patientId={patientId} patientName={patientName} restorable={sites.data.items} catalogue={catalogue.data} amending={amending} />;
 }
 
+type PlanAmendmentParsed = z.output<typeof PlanAmendmentBody>;
+
+/** The planner's form values: the plan as edited, and the reason when it amends a saved plan. */
+interface PlannerDraft extends PlanState {
+  amendmentReason: string;
+}
+
+/**
+ * The plan form. Its inputs are controlled from the watched draft (not registered): the live
+ * Findings read the whole draft on every change, choosing a site inserts it in arch order, and
+ * several choices reset others. Every edit retires the last submit's field messages, as the live
+ * Findings speak for the new draft; the form's message stays until the next submit.
+ */
 function PlannerForm({ patientId, patientName, restorable: all, catalogue, amending }: { patientId: string; patientName: string; restorable: RestorableSite[]; catalogue: CatalogueReply; amending?: RestorationDetail }) {
   const navigate = useNavigate();
   const [system] = useToothSystem();
   const save = useSavePlan();
   const amend = useAmendPlan();
-  const [state, setState] = useState<PlanState>(() => (amending ? stateFromRestoration(amending) : initialPlan));
-  const [amendmentReason, setAmendmentReason] = useState('');
-  const [serverFields, setServerFields] = useState<Record<string, string>>({});
-  const [formError, setFormError] = useState<string | null>(null);
 
   const parts = useMemo(() => {
     const map = new Map<string, CatalogueComponent>();
     for (const s of catalogue.systems) for (const p of s.platforms) for (const c of p.components) map.set(c.id, c);
     return map;
   }, [catalogue]);
+  const restorable = useMemo(() => all.filter((s) => s.platformId && s.status !== 'failed' && s.status !== 'removed'), [all]);
 
-  const restorable = all.filter((s) => s.platformId && s.status !== 'failed' && s.status !== 'removed');
+  const schema = useMemo((): z.ZodType<PlanBodyParsed | PlanAmendmentParsed, PlannerDraft> => {
+    // Only the warnings still raised are acknowledged (one acknowledged earlier may have gone).
+    const planBody = (d: PlannerDraft) => {
+      const { findings } = d.sites.length > 0 ? liveFindings(d, restorable, parts) : { findings: [] };
+      return toBody(patientId, { ...d, acknowledged: d.acknowledged.filter((k) => findings.some((f) => ackKey(f) === k)) }, parts);
+    };
+    return amending
+      ? draftSchema(PlanAmendmentBody, (d: PlannerDraft) => {
+          const { patientId: _patientId, ...rest } = planBody(d);
+          return { ...rest, amendmentReason: d.amendmentReason };
+        })
+      : draftSchema(PlanBody, planBody);
+  }, [amending, parts, patientId, restorable]);
+  const form = useContractForm(schema, { ...(amending ? stateFromRestoration(amending) : initialPlan), amendmentReason: '' });
+  const state = form.watch();
+
   const chosen = state.sites.map((p) => restorable.find((s) => s.siteId === p.siteId)!);
   const { findings, invalid } = chosen.length > 0 ? liveFindings(state, restorable, parts) : { findings: [], invalid: {} };
   const fdis = chosen.map((s) => s.fdi);
-  const findingFields: Record<string, string> = {};
-  for (const f of findings) if (f.severity === 'error') findingFields[findingField(f, fdis)] ??= f.message;
-  const errors = { ...serverFields, ...invalid, ...findingFields };
+  // Messages computed from the draft as it is now, shown beside their fields.
+  const live: Record<string, string> = { ...invalid };
+  for (const f of findings) if (f.severity === 'error') live[findingField(f, fdis)] ??= f.message;
   const hasErrors = findings.some((f) => f.severity === 'error') || Object.keys(invalid).length > 0;
-  const unacknowledged = findings.filter((f) => f.severity === 'warning' && !state.acknowledged.includes(`${f.code}:${f.fdi ?? ''}`));
+  const unacknowledged = findings.filter((f) => f.severity === 'warning' && !state.acknowledged.includes(ackKey(f)));
 
   const update = (patch: Partial<PlanState>) => {
-    setState((s) => ({ ...s, ...patch }));
-    setServerFields({});
+    for (const key of Object.keys(patch) as (keyof PlanState)[]) form.setValue(key, patch[key]!);
+    const fieldErrors = Object.keys(form.formState.errors).filter((name) => name !== 'root') as (keyof PlannerDraft)[];
+    form.clearErrors(fieldErrors);
   };
   const toggleSite = (siteId: string, on: boolean) =>
     update({ sites: on ? [...state.sites, emptySitePlan(siteId)].sort((a, b) => restorable.findIndex((s) => s.siteId === a.siteId) - restorable.findIndex((s) => s.siteId === b.siteId)) : state.sites.filter((s) => s.siteId !== siteId) });
 
-  const submit = async (event: FormEvent) => {
-    event.preventDefault();
-    setFormError(null);
-    const body = toBody(patientId, { ...state, acknowledged: state.acknowledged.filter((k) => findings.some((f) => `${f.code}:${f.fdi ?? ''}` === k)) }, parts);
-    const parsed = PlanBody.safeParse(body);
-    if (!parsed.success) return setServerFields(fieldsFromIssues(parsed.error.issues));
-    try {
-      if (amending) {
-        const { patientId: _p, ...rest } = body;
-        await amend.mutateAsync({ id: amending.id, body: { ...rest, amendmentReason } });
-      } else await save.mutateAsync(body);
-      navigate(`/patients/${patientId}/restorations`);
-    } catch (error) {
-      if (isApiError(error)) {
-        setServerFields(error.fields);
-        setFormError(error.message);
-      }
-    }
+  const submit = (body: PlanBodyParsed | PlanAmendmentParsed) => {
+    const saved = { onSuccess: () => navigate(`/patients/${patientId}/restorations`), onError: (error: Error) => applyServerErrors(form.setError, error) };
+    // The schema gives an amendment's body (with its reason) exactly when a saved plan is amended.
+    if (!('amendmentReason' in body)) save.mutate(body, saved);
+    else if (amending) amend.mutate({ id: amending.id, body }, saved);
   };
-  const err = (key: string) => (errors[key] ? { intent: 'danger' as const, helperText: errors[key] } : {});
+  const formError = formErrorMessage(form.formState.errors, 'always');
+  const field = (name: string) => ({ name, live: live[name] });
 
   return (
     <div className="planner-page">
@@ -105,91 +121,93 @@ function PlannerForm({ patientId, patientName, restorable: all, catalogue, amend
       <BreadcrumbTrail items={[{ text: 'Patients', to: '/patients' }, { text: patientName, to: `/patients/${patientId}` }, { text: 'Restorations', to: `/patients/${patientId}/restorations` }, { text: 'New plan' }]} />
       <h1>{amending ? 'Amend the plan' : 'Restoration planner'}</h1>
       {amending && <Callout intent="primary" compact>The saved plan stays in the record, marked as amended; this saves a new version.</Callout>}
-      <form onSubmit={submit} className="planner" noValidate aria-label="Restoration plan">
-        <div className="planner__main">
-          <fieldset className="planner-sites" data-testid="planner-sites">
-            <legend>Sites</legend>
-            {restorable.length === 0 && <Callout intent="primary">This patient has no placed implant to restore.</Callout>}
-            {restorable.map((s) => (
-              <Checkbox key={s.siteId} inline label={`${formatTooth(s.fdi, system)} (${s.platformName})`} checked={state.sites.some((p) => p.siteId === s.siteId)} onChange={(e) => toggleSite(s.siteId, e.currentTarget.checked)} />
+      <FormProvider {...form}>
+        <form onSubmit={(event) => void form.handleSubmit(submit)(event)} className="planner" noValidate aria-label="Restoration plan">
+          <div className="planner__main">
+            <fieldset className="planner-sites" data-testid="planner-sites">
+              <legend>Sites</legend>
+              {restorable.length === 0 && <Callout intent="primary">This patient has no placed implant to restore.</Callout>}
+              {restorable.map((s) => (
+                <Checkbox key={s.siteId} inline label={`${formatTooth(s.fdi, system)} (${s.platformName})`} checked={state.sites.some((p) => p.siteId === s.siteId)} onChange={(e) => toggleSite(s.siteId, e.currentTarget.checked)} />
+              ))}
+              <FieldError as="p" {...field('sites')} className="planner-error" role="alert" />
+            </fieldset>
+            <div className="planner-grid">
+              <FormField {...field('kind')} label="Restoration" labelFor="plan-kind">
+                <HTMLSelect id="plan-kind" value={state.kind} onChange={(e) => update({ kind: e.currentTarget.value as RestorationKind })}>
+                  {Object.entries(KIND_LABEL).map(([v, t]) => <option key={v} value={v}>{t}</option>)}
+                </HTMLSelect>
+              </FormField>
+              <FormField {...field('retention')} label="Retention" labelFor="plan-retention">
+                <HTMLSelect id="plan-retention" value={state.retention} onChange={(e) => update({ retention: e.currentTarget.value as Retention })}>
+                  {Object.entries(RETENTION_LABEL).map(([v, t]) => <option key={v} value={v}>{t}</option>)}
+                </HTMLSelect>
+              </FormField>
+              <FormField {...field('material')} label="Material" labelFor="plan-material">
+                <HTMLSelect id="plan-material" value={state.material} onChange={(e) => update({ material: e.currentTarget.value as Material })}>
+                  {Object.entries(MATERIAL_LABEL).map(([v, t]) => <option key={v} value={v}>{t}</option>)}
+                </HTMLSelect>
+              </FormField>
+              <FormField {...field('shade')} label="Shade" labelFor="plan-shade">
+                <InputGroup id="plan-shade" value={state.shade} onValueChange={(v) => update({ shade: v })} />
+              </FormField>
+            </div>
+            <FormField {...field('copingsSplinted')}>
+              <Checkbox label="Impression copings splinted together before the impression" checked={state.copingsSplinted} onChange={(e) => update({ copingsSplinted: e.currentTarget.checked })} />
+            </FormField>
+            {state.sites.map((p, i) => (
+              <SitePlanFields
+                key={p.siteId}
+                index={i}
+                site={chosen[i]!}
+                plan={p}
+                retention={state.retention}
+                parts={[...parts.values()].filter((c) => c.platformId === chosen[i]!.platformId)}
+                system={system}
+                live={live}
+                onChange={(next) => update({ sites: state.sites.map((x, j) => (j === i ? next : x)) })}
+              />
             ))}
-            {errors.sites && <p className="planner-error" role="alert" data-testid="error-sites">{errors.sites}</p>}
-          </fieldset>
-          <div className="planner-grid">
-            <FormGroup label="Restoration" labelFor="plan-kind">
-              <HTMLSelect id="plan-kind" value={state.kind} onChange={(e) => update({ kind: e.currentTarget.value as RestorationKind })}>
-                {Object.entries(KIND_LABEL).map(([v, t]) => <option key={v} value={v}>{t}</option>)}
-              </HTMLSelect>
-            </FormGroup>
-            <FormGroup label="Retention" labelFor="plan-retention">
-              <HTMLSelect id="plan-retention" value={state.retention} onChange={(e) => update({ retention: e.currentTarget.value as Retention })}>
-                {Object.entries(RETENTION_LABEL).map(([v, t]) => <option key={v} value={v}>{t}</option>)}
-              </HTMLSelect>
-            </FormGroup>
-            <FormGroup label="Material" labelFor="plan-material">
-              <HTMLSelect id="plan-material" value={state.material} onChange={(e) => update({ material: e.currentTarget.value as Material })}>
-                {Object.entries(MATERIAL_LABEL).map(([v, t]) => <option key={v} value={v}>{t}</option>)}
-              </HTMLSelect>
-            </FormGroup>
-            <FormGroup label="Shade" labelFor="plan-shade" {...err('shade')}>
-              <InputGroup id="plan-shade" value={state.shade} onValueChange={(v) => update({ shade: v })} />
-            </FormGroup>
+            <div className="planner-grid">
+              <FormField {...field('labName')} label="Laboratory" labelFor="plan-lab">
+                <InputGroup id="plan-lab" value={state.labName} onValueChange={(v) => update({ labName: v })} />
+              </FormField>
+              <FormField {...field('labEmail')} label="Laboratory e-mail" labelFor="plan-lab-email">
+                <InputGroup id="plan-lab-email" type="email" value={state.labEmail} onValueChange={(v) => update({ labEmail: v })} />
+              </FormField>
+              <FormField {...field('dueOn')} label="Due date" labelFor="plan-due">
+                <InputGroup id="plan-due" type="date" value={state.dueOn} onValueChange={(v) => update({ dueOn: v })} />
+              </FormField>
+            </div>
+            <FormField {...field('notes')} label="Notes for the laboratory" labelFor="plan-notes">
+              <TextArea id="plan-notes" value={state.notes} onChange={(e) => update({ notes: e.currentTarget.value })} fill />
+            </FormField>
           </div>
-          <FormGroup {...err('copingsSplinted')}>
-            <Checkbox label="Impression copings splinted together before the impression" checked={state.copingsSplinted} onChange={(e) => update({ copingsSplinted: e.currentTarget.checked })} />
-          </FormGroup>
-          {state.sites.map((p, i) => (
-            <SitePlanFields
-              key={p.siteId}
-              index={i}
-              site={chosen[i]!}
-              plan={p}
-              retention={state.retention}
-              parts={[...parts.values()].filter((c) => c.platformId === chosen[i]!.platformId)}
+          <aside className="planner__side">
+            <FindingsPanel findings={findings} acknowledged={state.acknowledged} onAcknowledge={(k, on) => update({ acknowledged: on ? [...state.acknowledged, k] : state.acknowledged.filter((x) => x !== k) })} />
+            <DivergenceTable
               system={system}
-              errors={errors}
-              onChange={(next) => update({ sites: state.sites.map((x, j) => (j === i ? next : x)) })}
+              axes={state.sites.map((p, i) => {
+                const typed = p.axis.every((v) => v.trim() !== '') ? (p.axis.map(Number) as [number, number, number]) : null;
+                return { fdi: chosen[i]!.fdi, axis: typed ?? chosen[i]!.axis };
+              })}
             />
-          ))}
-          <div className="planner-grid">
-            <FormGroup label="Laboratory" labelFor="plan-lab" {...err('labName')}>
-              <InputGroup id="plan-lab" value={state.labName} onValueChange={(v) => update({ labName: v })} />
-            </FormGroup>
-            <FormGroup label="Laboratory e-mail" labelFor="plan-lab-email" {...err('labEmail')}>
-              <InputGroup id="plan-lab-email" type="email" value={state.labEmail} onValueChange={(v) => update({ labEmail: v })} />
-            </FormGroup>
-            <FormGroup label="Due date" labelFor="plan-due" {...err('dueOn')}>
-              <InputGroup id="plan-due" type="date" value={state.dueOn} onValueChange={(v) => update({ dueOn: v })} />
-            </FormGroup>
-          </div>
-          <FormGroup label="Notes for the laboratory" labelFor="plan-notes" {...err('notes')}>
-            <TextArea id="plan-notes" value={state.notes} onChange={(e) => update({ notes: e.currentTarget.value })} fill />
-          </FormGroup>
-        </div>
-        <aside className="planner__side">
-          <FindingsPanel findings={findings} acknowledged={state.acknowledged} onAcknowledge={(k, on) => update({ acknowledged: on ? [...state.acknowledged, k] : state.acknowledged.filter((x) => x !== k) })} />
-          <DivergenceTable
-            system={system}
-            axes={state.sites.map((p, i) => {
-              const typed = p.axis.every((v) => v.trim() !== '') ? (p.axis.map(Number) as [number, number, number]) : null;
-              return { fdi: chosen[i]!.fdi, axis: typed ?? chosen[i]!.axis };
-            })}
-          />
-          <Callout intent="warning" icon="info-sign" compact className="planner-caution">{catalogue.caution}</Callout>
-          {formError && <Callout intent="danger" role="alert" compact data-testid="plan-error">{formError}</Callout>}
-          {amending && (
-            <FormGroup label="Reason for the amendment" labelFor="plan-amend-reason" {...err('amendmentReason')}>
-              <InputGroup id="plan-amend-reason" value={amendmentReason} onValueChange={setAmendmentReason} />
-            </FormGroup>
-          )}
-          <div className="planner__actions">
-            <Button type="submit" intent="primary" text={amending ? 'Save amendment' : 'Save plan'} loading={save.isPending || amend.isPending} disabled={hasErrors || state.sites.length === 0 || unacknowledged.length > 0} data-testid="save-plan" />
-            <Link to={`/patients/${patientId}/restorations`}>Cancel</Link>
-          </div>
-          {hasErrors && <p className="muted">Errors block saving: fix them first.</p>}
-          {!hasErrors && unacknowledged.length > 0 && <p className="muted">Acknowledge each warning to save.</p>}
-        </aside>
-      </form>
+            <Callout intent="warning" icon="info-sign" compact className="planner-caution">{catalogue.caution}</Callout>
+            {formError && <Callout intent="danger" role="alert" compact data-testid="plan-error">{formError}</Callout>}
+            {amending && (
+              <FormField {...field('amendmentReason')} label="Reason for the amendment" labelFor="plan-amend-reason">
+                <InputGroup id="plan-amend-reason" {...withInputRef(form.register('amendmentReason'))} />
+              </FormField>
+            )}
+            <div className="planner__actions">
+              <Button type="submit" intent="primary" text={amending ? 'Save amendment' : 'Save plan'} loading={save.isPending || amend.isPending} disabled={hasErrors || state.sites.length === 0 || unacknowledged.length > 0} data-testid="save-plan" />
+              <Link to={`/patients/${patientId}/restorations`}>Cancel</Link>
+            </div>
+            {hasErrors && <p className="muted">Errors block saving: fix them first.</p>}
+            {!hasErrors && unacknowledged.length > 0 && <p className="muted">Acknowledge each warning to save.</p>}
+          </aside>
+        </form>
+      </FormProvider>
     </div>
   );
 }

@@ -8,7 +8,7 @@ import { LoadingState } from '../../../lib/components/loading-state';
 import { useToothSystem } from '../../../lib/tooth-system';
 import { useRestorations } from '../api/planner-api';
 import { RestorationPanel } from '../components/restoration-panel';
-import { usePatient } from '../../../lib/api/get-patient';
+import { usePatient } from '../../patients';
 
 /** /patients/:patientId/restorations: every restoration of the patient, amended versions included. */
 export function RestorationsRoute() {

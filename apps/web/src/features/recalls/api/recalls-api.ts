@@ -10,13 +10,13 @@ import {
   SiteExamHistory,
   type AmendExamBody,
   type CreateVisitBody,
-  type RecallDeskQuery,
   type RecallPolicyBody,
 } from '@torquetrail/contracts';
 import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { apiRequest } from '../../../lib/api-client';
-
-export type DeskParams = Partial<Pick<RecallDeskQuery, 'filter' | 'sort' | 'dir' | 'search' | 'page' | 'pageSize'>>;
+import { patientKeys } from '../../patients';
+import { siteKeys } from '../../site-file';
+import { type DeskParams, recallKeys } from './keys';
 
 export function deskSearch(params: DeskParams, withPaging = true): string {
   const q = new URLSearchParams();
@@ -30,7 +30,7 @@ export function deskSearch(params: DeskParams, withPaging = true): string {
 
 export const deskQueryOptions = (params: DeskParams) =>
   queryOptions({
-    queryKey: ['recalls', 'desk', params] as const,
+    queryKey: recallKeys.desk(params),
     queryFn: ({ signal }) => apiRequest(`/api/recalls/desk${deskSearch(params)}`, { schema: RecallDeskReply, signal }),
     placeholderData: keepPreviousData,
   });
@@ -38,14 +38,14 @@ export const useRecallDesk = (params: DeskParams) => useQuery(deskQueryOptions(p
 
 export const examContextQueryOptions = (patientId: string) =>
   queryOptions({
-    queryKey: ['recalls', 'exam-context', patientId] as const,
+    queryKey: recallKeys.examContext(patientId),
     queryFn: ({ signal }) => apiRequest(`/api/recalls/patients/${encodeURIComponent(patientId)}/exam-context`, { schema: ExamContext, signal }),
   });
 export const useExamContext = (patientId: string) => useQuery(examContextQueryOptions(patientId));
 
 export const siteExamsQueryOptions = (siteId: string) =>
   queryOptions({
-    queryKey: ['recalls', 'site-exams', siteId] as const,
+    queryKey: recallKeys.siteExams(siteId),
     queryFn: ({ signal }) => apiRequest(`/api/recalls/sites/${encodeURIComponent(siteId)}/exams`, { schema: SiteExamHistory, signal }),
   });
 export const useSiteExams = (siteId: string) => useQuery(siteExamsQueryOptions(siteId));
@@ -55,27 +55,27 @@ export function useCreateVisit() {
   return useMutation({
     mutationFn: (body: CreateVisitBody) => apiRequest('/api/recalls/visits', { method: 'POST', body, schema: CreateVisitReply }),
     onSuccess: () => {
-      void client.invalidateQueries({ queryKey: ['recalls'] });
-      void client.invalidateQueries({ queryKey: ['patients'] });
-      void client.invalidateQueries({ queryKey: ['sites'] });
+      void client.invalidateQueries({ queryKey: recallKeys.all });
+      void client.invalidateQueries({ queryKey: patientKeys.all });
+      void client.invalidateQueries({ queryKey: siteKeys.all });
     },
   });
 }
 
 export const policyQueryOptions = () =>
-  queryOptions({ queryKey: ['recalls', 'policy'] as const, queryFn: ({ signal }) => apiRequest('/api/recalls/policy', { schema: RecallPolicyReply, signal }) });
+  queryOptions({ queryKey: recallKeys.policy(), queryFn: ({ signal }) => apiRequest('/api/recalls/policy', { schema: RecallPolicyReply, signal }) });
 export const useRecallPolicy = () => useQuery(policyQueryOptions());
 
 export function useUpdatePolicy() {
   const client = useQueryClient();
   return useMutation({
     mutationFn: (body: RecallPolicyBody) => apiRequest('/api/recalls/policy', { method: 'PUT', body, schema: RecallPolicyReply }),
-    onSuccess: (data) => client.setQueryData(['recalls', 'policy'], data),
+    onSuccess: (data) => client.setQueryData(recallKeys.policy(), data),
   });
 }
 
 export const reminderLogQueryOptions = () =>
-  queryOptions({ queryKey: ['recalls', 'reminders'] as const, queryFn: ({ signal }) => apiRequest('/api/recalls/reminders', { schema: ReminderLogReply, signal }) });
+  queryOptions({ queryKey: recallKeys.reminders(), queryFn: ({ signal }) => apiRequest('/api/recalls/reminders', { schema: ReminderLogReply, signal }) });
 export const useReminderLog = () => useQuery(reminderLogQueryOptions());
 
 export function useRunReminders() {
@@ -84,8 +84,8 @@ export function useRunReminders() {
     mutationFn: () => apiRequest('/api/recalls/reminders/run', { method: 'POST', body: {}, schema: RunRemindersReply }),
     // The queue sends within seconds; refresh the log a little later as well.
     onSuccess: () => {
-      void client.invalidateQueries({ queryKey: ['recalls', 'reminders'] });
-      setTimeout(() => void client.invalidateQueries({ queryKey: ['recalls', 'reminders'] }), 3000);
+      void client.invalidateQueries({ queryKey: recallKeys.reminders() });
+      setTimeout(() => void client.invalidateQueries({ queryKey: recallKeys.reminders() }), 3000);
     },
   });
 }
@@ -96,9 +96,9 @@ export function useAmendExam() {
     mutationFn: ({ examId, body }: { examId: string; body: AmendExamBody }) =>
       apiRequest(`/api/recalls/exams/${encodeURIComponent(examId)}/amend`, { method: 'POST', body, schema: RecallExam }),
     onSuccess: () => {
-      void client.invalidateQueries({ queryKey: ['recalls'] });
-      void client.invalidateQueries({ queryKey: ['patients'] });
-      void client.invalidateQueries({ queryKey: ['sites'] });
+      void client.invalidateQueries({ queryKey: recallKeys.all });
+      void client.invalidateQueries({ queryKey: patientKeys.all });
+      void client.invalidateQueries({ queryKey: siteKeys.all });
     },
   });
 }

@@ -1,6 +1,8 @@
 import { Button, Card, Checkbox, Classes, FormGroup, HTMLSelect, InputGroup, Tag, TextArea } from '@blueprintjs/core';
 import { PROBING_POSITIONS, type ExamContext, type RecallExam } from '@torquetrail/contracts';
+import { useFormContext, useWatch } from 'react-hook-form';
 import { formatDate } from '../../../lib/dates';
+import { FieldError, FormField, useFieldError, withInputRef } from '../../../lib/forms';
 import { MaintenanceStatusLabel } from '../../../lib/maintenance-status';
 import { depthProblem, FLAG_TEXT, liveVerdict, type SiteDraft } from './live-verdict';
 
@@ -35,36 +37,51 @@ function ExamSummary({ label, exam }: { label: string; exam: RecallExam | null }
   );
 }
 
-/** One implant's exam: the six-site probing grid (depths first, in chart order), indices, and the live status. */
+/**
+ * One probing site's problem: the depth as typed, checked live (a number of mm, 0.5 mm steps), or
+ * else what the contract said at the last submit (e.g. a depth left empty).
+ */
+function DepthError({ position, typed, path }: { position: string; typed: string; path: string }) {
+  const message = useFieldError(path, depthProblem(typed) ?? undefined, 'live');
+  return message ? (
+    <div className="field-error">
+      {position}: {message}
+    </div>
+  ) : null;
+}
+
+/**
+ * One implant's exam: the six-site probing grid (depths first, in chart order), indices, and the
+ * live status. Its inputs are the draft at `name` in the surrounding form; the contract's messages
+ * for it are under `errorPrefix` (a visit's `exams.<n>.`, or nothing for an amendment).
+ */
 export function SiteExamCard({
   site,
-  draft,
-  onChange,
-  errors,
+  name,
+  errorPrefix,
   onAmendPrevious,
   amending = false,
 }: {
   site: Site;
-  draft: SiteDraft;
-  onChange: (next: SiteDraft) => void;
-  errors: Record<string, string>;
+  name: string;
+  errorPrefix: string;
   /** Offered when the previous exam may be amended (hygienist). */
   onAmendPrevious?: () => void;
   /** The card edits an amendment of the previous exam rather than a new exam. */
   amending?: boolean;
 }) {
   const fdi = site.fdi;
+  const { control, register } = useFormContext();
+  const draft = useWatch({ control, name }) as SiteDraft;
   const verdict = draft.include ? liveVerdict(draft, site.baseline) : null;
-  const set = <K extends keyof SiteDraft>(key: K, value: SiteDraft[K]) => onChange({ ...draft, [key]: value });
-  const setAt = (key: 'depths' | 'bop' | 'sup', i: number, value: string | boolean) => onChange({ ...draft, [key]: draft[key].map((v, j) => (j === i ? value : v)) as never });
-  const error = (path: string) => errors[path] && <div className="field-error">{errors[path]}</div>;
+  const field = (key: string) => register(`${name}.${key}`);
 
   return (
     <Card className="exam-site" data-testid={`exam-site-${fdi}`}>
       <h3>
         Implant {fdi} <Tag minimal>{site.status}</Tag>
       </h3>
-      {!amending && <Checkbox checked={draft.include} onChange={(e) => set('include', e.currentTarget.checked)} label={`Examine ${fdi} in this visit`} />}
+      {!amending && <Checkbox label={`Examine ${fdi} in this visit`} {...withInputRef(field('include'))} />}
       {draft.include && (
         <div className="exam-site__layout">
           <div>
@@ -90,8 +107,7 @@ export function SiteExamCard({
                         className={Classes.INPUT}
                         aria-label={`${fdi} ${p} probing depth`}
                         aria-invalid={depthProblem(draft.depths[i]!) !== null}
-                        value={draft.depths[i]}
-                        onChange={(e) => setAt('depths', i, e.currentTarget.value)}
+                        {...field(`depths.${i}`)}
                       />
                     </td>
                   ))}
@@ -100,7 +116,7 @@ export function SiteExamCard({
                   <th scope="row">BOP</th>
                   {PROBING_POSITIONS.map((p, i) => (
                     <td key={p}>
-                      <input type="checkbox" aria-label={`${fdi} ${p} bleeding on probing`} checked={draft.bop[i]} onChange={(e) => setAt('bop', i, e.currentTarget.checked)} />
+                      <input type="checkbox" aria-label={`${fdi} ${p} bleeding on probing`} {...field(`bop.${i}`)} />
                     </td>
                   ))}
                 </tr>
@@ -108,48 +124,38 @@ export function SiteExamCard({
                   <th scope="row">SUP</th>
                   {PROBING_POSITIONS.map((p, i) => (
                     <td key={p}>
-                      <input type="checkbox" aria-label={`${fdi} ${p} suppuration`} checked={draft.sup[i]} onChange={(e) => setAt('sup', i, e.currentTarget.checked)} />
+                      <input type="checkbox" aria-label={`${fdi} ${p} suppuration`} {...field(`sup.${i}`)} />
                     </td>
                   ))}
                 </tr>
               </tbody>
             </table>
-            {draft.depths.map((d, i) => {
-              const problem = depthProblem(d);
-              return problem ? (
-                <div key={i} className="field-error">
-                  {PROBING_POSITIONS[i]}: {problem}
-                </div>
-              ) : null;
-            })}
-            {Object.entries(errors)
-              .filter(([k]) => k.includes('.sites'))
-              .map(([k, v]) => (
-                <div key={k} className="field-error">
-                  {k.replace(/^exams\.\d+\./, '')}: {v}
-                </div>
-              ))}
+            {PROBING_POSITIONS.map((p, i) => (
+              <DepthError key={p} position={p} typed={draft.depths[i]!} path={`${errorPrefix}sites.${i}.probingDepthMm`} />
+            ))}
             <div className="exam-site__fields">
-              <Checkbox checked={draft.mobility} onChange={(e) => set('mobility', e.currentTarget.checked)} label="Mobility" />
+              <Checkbox label="Mobility" {...withInputRef(field('mobility'))} />
+              {/* Their messages show below the row (a message inside it would push the fields out of line). */}
               <FormGroup label="Plaque index (mPlI)" labelFor={`pli-${fdi}`}>
-                <HTMLSelect id={`pli-${fdi}`} value={draft.plaqueIndex} onChange={(e) => set('plaqueIndex', e.currentTarget.value)} options={['', '0', '1', '2', '3']} />
+                <HTMLSelect id={`pli-${fdi}`} options={['', '0', '1', '2', '3']} {...field('plaqueIndex')} />
               </FormGroup>
               <FormGroup label="Bleeding index (mBI)" labelFor={`mbi-${fdi}`}>
-                <HTMLSelect id={`mbi-${fdi}`} value={draft.bleedingIndex} onChange={(e) => set('bleedingIndex', e.currentTarget.value)} options={['', '0', '1', '2', '3']} />
+                <HTMLSelect id={`mbi-${fdi}`} options={['', '0', '1', '2', '3']} {...field('bleedingIndex')} />
               </FormGroup>
               <FormGroup label="Keratinized mucosa (mm)" labelFor={`km-${fdi}`}>
-                <InputGroup id={`km-${fdi}`} value={draft.keratinizedMucosaMm} onChange={(e) => set('keratinizedMucosaMm', e.currentTarget.value)} style={{ width: 70 }} />
+                <InputGroup id={`km-${fdi}`} style={{ width: 70 }} {...withInputRef(field('keratinizedMucosaMm'))} />
               </FormGroup>
               <FormGroup label="Bone level (mm, when known)" labelFor={`bone-${fdi}`}>
-                <InputGroup id={`bone-${fdi}`} value={draft.boneLevelMm} onChange={(e) => set('boneLevelMm', e.currentTarget.value)} style={{ width: 70 }} />
+                <InputGroup id={`bone-${fdi}`} style={{ width: 70 }} {...withInputRef(field('boneLevelMm'))} />
               </FormGroup>
-              <Checkbox checked={draft.residualCement} onChange={(e) => set('residualCement', e.currentTarget.checked)} label="Residual cement seen" />
-              <Checkbox checked={draft.isBaseline} onChange={(e) => set('isBaseline', e.currentTarget.checked)} label="Mark as baseline" />
+              <Checkbox label="Residual cement seen" {...withInputRef(field('residualCement'))} />
+              <Checkbox label="Mark as baseline" {...withInputRef(field('isBaseline'))} />
             </div>
-            {error(`keratinizedMucosaMm`)}
-            <FormGroup label="Notes" labelFor={`notes-${fdi}`}>
-              <TextArea id={`notes-${fdi}`} fill value={draft.notes} onChange={(e) => set('notes', e.currentTarget.value)} />
-            </FormGroup>
+            <FieldError as="div" className="field-error" name={`${errorPrefix}keratinizedMucosaMm`} />
+            <FieldError as="div" className="field-error" name={`${errorPrefix}boneLevelMm`} />
+            <FormField name={`${errorPrefix}notes`} label="Notes" labelFor={`notes-${fdi}`}>
+              <TextArea id={`notes-${fdi}`} fill {...withInputRef(field('notes'))} />
+            </FormField>
           </div>
           <div>
             <div className="live-status" aria-live="polite" data-testid={`live-status-${fdi}`}>

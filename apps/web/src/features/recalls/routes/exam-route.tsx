@@ -1,7 +1,8 @@
 import '../components/recalls.css';
-import { Button, Callout, FormGroup, InputGroup, NonIdealState, TextArea } from '@blueprintjs/core';
-import { PROBING_POSITIONS, type CreateVisitBody, type CreateVisitReply, type ExamContext, type RecallExam } from '@torquetrail/contracts';
-import { useEffect, useState } from 'react';
+import { Button, Callout, InputGroup, NonIdealState, TextArea } from '@blueprintjs/core';
+import { AmendExamBody, CreateVisitBody, PROBING_POSITIONS, type CreateVisitReply, type ExamContext, type RecallExam } from '@torquetrail/contracts';
+import { useMemo, useState } from 'react';
+import { FormProvider, useWatch } from 'react-hook-form';
 import { Link, useParams } from 'react-router-dom';
 import { isApiError } from '../../../lib/api-client';
 import { useAppAbility } from '../../../lib/ability';
@@ -9,6 +10,7 @@ import { BreadcrumbTrail } from '../../../lib/components/breadcrumb-trail';
 import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
 import { formatLongDate } from '../../../lib/dates';
+import { applyServerErrors, draftSchema, FormField, formErrorMessage, useContractForm, withInputRef } from '../../../lib/forms';
 import { MAINTENANCE_NOTE } from '../../../lib/labels';
 import { MaintenanceStatusLabel } from '../../../lib/maintenance-status';
 import { useAmendExam, useCreateVisit, useExamContext } from '../api/recalls-api';
@@ -33,52 +35,49 @@ function toExamInput(d: SiteDraft) {
   };
 }
 
-interface Amending {
-  siteId: string;
-  exam: RecallExam;
-  draft: SiteDraft;
-  reason: string;
+type Site = ExamContext['sites'][number];
+
+interface VisitDraft {
+  examinedOn: string;
+  /** One draft per examinable implant, by site id. */
+  drafts: Record<string, SiteDraft>;
 }
 
 /** /recalls/patients/:patientId/exam: one visit, one card per examinable implant. */
 export function ExamRoute() {
   const { patientId = '' } = useParams();
   const context = useExamContext(patientId);
+  if (context.isPending) return <LoadingState label="Loading the exam form" />;
+  if (context.isError) return <ErrorState title={isApiError(context.error, 404) ? 'Patient not found' : 'Could not load the exam form'} error={context.error} onRetry={() => void context.refetch()} />;
+  return <ExamVisit data={context.data} />;
+}
+
+/** The visit form; it stays mounted while an earlier exam is amended, so the drafts are kept. */
+function ExamVisit({ data }: { data: ExamContext }) {
   const save = useCreateVisit();
-  const [examinedOn, setExaminedOn] = useState('');
-  const [drafts, setDrafts] = useState<Record<string, SiteDraft>>({});
   const [saved, setSaved] = useState<CreateVisitReply | null>(null);
-  const amendSave = useAmendExam();
-  const [amending, setAmending] = useState<Amending | null>(null);
+  const [amending, setAmending] = useState<{ siteId: string; exam: RecallExam } | null>(null);
   const [amended, setAmended] = useState<RecallExam | null>(null);
   const mayAmend = useAppAbility().can('amend', 'RecallExam');
 
-  useEffect(() => {
-    if (context.data && examinedOn === '') setExaminedOn(context.data.today);
-  }, [context.data, examinedOn]);
+  const sites = useMemo(() => data.sites.filter((s) => s.examinable), [data.sites]);
+  const schema = useMemo(
+    () =>
+      draftSchema(CreateVisitBody, (d: VisitDraft) => ({
+        patientId: data.patient.id,
+        examinedOn: d.examinedOn,
+        exams: sites.filter((s) => d.drafts[s.siteId]?.include).map((s) => ({ siteId: s.siteId, ...toExamInput(d.drafts[s.siteId]!) })),
+      })),
+    [data.patient.id, sites],
+  );
+  const form = useContractForm(schema, { examinedOn: data.today, drafts: Object.fromEntries(sites.map((s) => [s.siteId, emptyDraft()])) });
+  const drafts = useWatch({ control: form.control, name: 'drafts' });
+  const included = sites.filter((s) => drafts[s.siteId]?.include);
+  // The contract numbers the exams of the visit: the n-th implant included is `exams.<n>`.
+  const errorPrefix = (siteId: string) => `exams.${included.findIndex((s) => s.siteId === siteId)}.`;
 
-  if (context.isPending) return <LoadingState label="Loading the exam form" />;
-  if (context.isError) return <ErrorState title={isApiError(context.error, 404) ? 'Patient not found' : 'Could not load the exam form'} error={context.error} onRetry={() => void context.refetch()} />;
-
-  const data = context.data;
-  const sites = data.sites.filter((s) => s.examinable);
-  const draftOf = (siteId: string) => drafts[siteId] ?? emptyDraft();
-  const included = sites.filter((s) => draftOf(s.siteId).include);
-  const fields = isApiError(save.error) ? save.error.fields : {};
-  const errorsFor = (siteId: string) => {
-    const index = included.findIndex((s) => s.siteId === siteId);
-    const prefix = `exams.${index}.`;
-    return Object.fromEntries(Object.entries(fields).filter(([k]) => k.startsWith(prefix)).map(([k, v]) => [k.slice(prefix.length), v]));
-  };
-
-  const submit = () => {
-    const body: CreateVisitBody = {
-      patientId: data.patient.id,
-      examinedOn,
-      exams: included.map((s) => ({ siteId: s.siteId, ...toExamInput(draftOf(s.siteId)) })),
-    };
-    save.mutate(body, { onSuccess: (reply) => setSaved(reply) });
-  };
+  const submit = (body: CreateVisitBody) => save.mutate(body, { onSuccess: (reply) => setSaved(reply), onError: (error) => applyServerErrors(form.setError, error) });
+  const formError = formErrorMessage(form.formState.errors, 'always');
 
   return (
     <div className="exam-visit">
@@ -96,23 +95,13 @@ export function ExamRoute() {
       )}
       {amending ? (
         <AmendForm
-          amending={amending}
           site={sites.find((s) => s.siteId === amending.siteId)!}
-          onChange={setAmending}
+          exam={amending.exam}
           onCancel={() => setAmending(null)}
-          saving={amendSave.isPending}
-          error={amendSave.error}
-          onSave={() =>
-            amendSave.mutate(
-              { examId: amending.exam.id, body: { ...toExamInput(amending.draft), amendmentReason: amending.reason } },
-              {
-                onSuccess: (exam) => {
-                  setAmended(exam);
-                  setAmending(null);
-                },
-              },
-            )
-          }
+          onSaved={(exam) => {
+            setAmended(exam);
+            setAmending(null);
+          }}
         />
       ) : saved ? (
         <Callout intent="success" title="Exam saved" data-testid="exam-saved" style={{ marginTop: 12 }}>
@@ -131,57 +120,70 @@ export function ExamRoute() {
       ) : sites.length === 0 ? (
         <NonIdealState icon="disable" title="No implant to examine" description="Only placed or restored implants are examined." />
       ) : (
-        <>
+        <FormProvider {...form}>
           <div className="exam-visit__header">
-            <FormGroup label="Examined on" labelFor="examined-on" helperText={fields.examinedOn} intent={fields.examinedOn ? 'danger' : 'none'}>
-              <InputGroup id="examined-on" type="date" value={examinedOn} max={data.today} onChange={(e) => setExaminedOn(e.currentTarget.value)} />
-            </FormGroup>
+            <FormField name="examinedOn" label="Examined on" labelFor="examined-on">
+              <InputGroup id="examined-on" type="date" max={data.today} {...withInputRef(form.register('examinedOn'))} />
+            </FormField>
           </div>
           {sites.map((s) => (
             <SiteExamCard
               key={s.siteId}
               site={s}
-              draft={draftOf(s.siteId)}
-              onChange={(next) => setDrafts({ ...drafts, [s.siteId]: next })}
-              errors={errorsFor(s.siteId)}
-              onAmendPrevious={mayAmend && s.previous ? () => setAmending({ siteId: s.siteId, exam: s.previous!, draft: draftFromExam(s.previous!), reason: '' }) : undefined}
+              name={`drafts.${s.siteId}`}
+              errorPrefix={errorPrefix(s.siteId)}
+              onAmendPrevious={mayAmend && s.previous ? () => setAmending({ siteId: s.siteId, exam: s.previous! }) : undefined}
             />
           ))}
-          {save.isError && (
+          {formError && (
             <Callout intent="danger" title="Not saved" role="alert">
-              {save.error.message}
+              {formError}
             </Callout>
           )}
-          <Button intent="primary" icon="floppy-disk" loading={save.isPending} disabled={included.length === 0} onClick={submit} style={{ marginTop: 12 }}>
+          {/* Not a <form>: Enter in a probing cell must not save the visit half typed. */}
+          <Button intent="primary" icon="floppy-disk" loading={save.isPending} disabled={included.length === 0} onClick={() => void form.handleSubmit(submit)()} style={{ marginTop: 12 }}>
             Save exam
           </Button>
-        </>
+        </FormProvider>
       )}
     </div>
   );
 }
 
-function AmendForm({ amending, site, onChange, onCancel, onSave, saving, error }: { amending: Amending; site: ExamContext['sites'][number]; onChange: (next: Amending) => void; onCancel: () => void; onSave: () => void; saving: boolean; error: Error | null }) {
-  const fields = isApiError(error) ? error.fields : {};
+interface AmendDraft {
+  draft: SiteDraft;
+  amendmentReason: string;
+}
+
+const amendSchema = draftSchema(AmendExamBody, (d: AmendDraft) => ({ ...toExamInput(d.draft), amendmentReason: d.amendmentReason }));
+
+/** An amendment of one earlier exam: its values to correct, and why. */
+function AmendForm({ site, exam, onCancel, onSaved }: { site: Site; exam: RecallExam; onCancel: () => void; onSaved: (exam: RecallExam) => void }) {
+  const amendSave = useAmendExam();
+  const form = useContractForm(amendSchema, { draft: draftFromExam(exam), amendmentReason: '' });
+  const submit = (body: AmendExamBody) => amendSave.mutate({ examId: exam.id, body }, { onSuccess: onSaved, onError: (error) => applyServerErrors(form.setError, error) });
+  const formError = formErrorMessage(form.formState.errors, 'alone');
   return (
-    <div data-testid="amend-form" style={{ marginTop: 12 }}>
-      <h2>
-        Amend the exam of {formatLongDate(amending.exam.examinedOn)} at {site.fdi}
-      </h2>
-      {/* The exam being amended is never its own baseline (the server excludes it too). */}
-      <SiteExamCard site={site.baseline?.id === amending.exam.id ? { ...site, baseline: null } : site} draft={amending.draft} onChange={(draft) => onChange({ ...amending, draft })} errors={fields} amending />
-      <FormGroup label="Why is it amended?" labelFor="amend-reason" helperText={fields.amendmentReason} intent={fields.amendmentReason ? 'danger' : 'none'}>
-        <TextArea id="amend-reason" fill value={amending.reason} onChange={(e) => onChange({ ...amending, reason: e.currentTarget.value })} />
-      </FormGroup>
-      {error && !Object.keys(fields).length && (
-        <Callout intent="danger" role="alert">
-          {error.message}
-        </Callout>
-      )}
-      <Button intent="primary" icon="floppy-disk" loading={saving} onClick={onSave}>
-        Save amendment
-      </Button>{' '}
-      <Button onClick={onCancel}>Cancel</Button>
-    </div>
+    <FormProvider {...form}>
+      <div data-testid="amend-form" style={{ marginTop: 12 }}>
+        <h2>
+          Amend the exam of {formatLongDate(exam.examinedOn)} at {site.fdi}
+        </h2>
+        {/* The exam being amended is never its own baseline (the server excludes it too). */}
+        <SiteExamCard site={site.baseline?.id === exam.id ? { ...site, baseline: null } : site} name="draft" errorPrefix="" amending />
+        <FormField name="amendmentReason" label="Why is it amended?" labelFor="amend-reason">
+          <TextArea id="amend-reason" fill {...withInputRef(form.register('amendmentReason'))} />
+        </FormField>
+        {formError && (
+          <Callout intent="danger" role="alert">
+            {formError}
+          </Callout>
+        )}
+        <Button intent="primary" icon="floppy-disk" loading={amendSave.isPending} onClick={() => void form.handleSubmit(submit)()}>
+          Save amendment
+        </Button>{' '}
+        <Button onClick={onCancel}>Cancel</Button>
+      </div>
+    </FormProvider>
   );
 }

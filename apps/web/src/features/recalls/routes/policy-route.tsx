@@ -1,12 +1,12 @@
 import '../components/recalls.css';
-import { Button, Callout, FormGroup, NumericInput } from '@blueprintjs/core';
-import type { RecallPolicyBody } from '@torquetrail/contracts';
-import { useEffect, useState } from 'react';
-import { isApiError } from '../../../lib/api-client';
+import { Button, Callout } from '@blueprintjs/core';
+import { RecallPolicyBody, type RecallPolicyReply } from '@torquetrail/contracts';
+import { FormProvider } from 'react-hook-form';
 import { Can } from '../../../lib/ability';
 import { BreadcrumbTrail } from '../../../lib/components/breadcrumb-trail';
 import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
+import { applyServerErrors, FormField, formErrorMessage, NumberInput, useContractForm } from '../../../lib/forms';
 import { useRecallPolicy, useUpdatePolicy } from '../api/recalls-api';
 
 const FIELDS: { key: keyof RecallPolicyBody; label: string; help: string }[] = [
@@ -19,13 +19,8 @@ const FIELDS: { key: keyof RecallPolicyBody; label: string; help: string }[] = [
 /** /recalls/policy: the practice's recall intervals and reminder timing (practice admin edits). */
 export function PolicyRoute() {
   const policy = useRecallPolicy();
-  const update = useUpdatePolicy();
-  const [form, setForm] = useState<RecallPolicyBody | null>(null);
-  useEffect(() => {
-    if (policy.data && !form) setForm({ baseMonths: policy.data.baseMonths, riskMonths: policy.data.riskMonths, reminderDaysBefore: policy.data.reminderDaysBefore, overdueReminderDaysAfter: policy.data.overdueReminderDaysAfter });
-  }, [policy.data, form]);
-  if (policy.isPending || !form) return policy.isError ? <ErrorState title="Could not load the policy" error={policy.error} onRetry={() => void policy.refetch()} /> : <LoadingState label="Loading the recall policy" />;
-  const fields = isApiError(update.error) ? update.error.fields : {};
+  if (policy.isPending) return <LoadingState label="Loading the recall policy" />;
+  if (policy.isError) return <ErrorState title="Could not load the policy" error={policy.error} onRetry={() => void policy.refetch()} />;
   return (
     <div className="recall-policy">
       <title>Recall policy · Torquetrail</title>
@@ -33,18 +28,32 @@ export function PolicyRoute() {
       <h1 className="page-title">Recall policy</h1>
       <p>
         No published algorithm fixes the interval; this is the practice&apos;s policy (examine at least every 6 months, more often at higher
-        risk: Herrera et al. 2023, EFP S3 guideline). {policy.data?.isDefault ? 'The defaults are in use.' : ''}
+        risk: Herrera et al. 2023, EFP S3 guideline). {policy.data.isDefault ? 'The defaults are in use.' : ''}
       </p>
-      <form
-        onSubmit={(e) => {
-          e.preventDefault();
-          update.mutate(form);
-        }}
-      >
+      <PolicyForm policy={policy.data} />
+    </div>
+  );
+}
+
+/** The policy as loaded first; saving does not reset what is being edited. */
+function PolicyForm({ policy }: { policy: RecallPolicyReply }) {
+  const update = useUpdatePolicy();
+  const form = useContractForm(RecallPolicyBody, {
+    baseMonths: policy.baseMonths,
+    riskMonths: policy.riskMonths,
+    reminderDaysBefore: policy.reminderDaysBefore,
+    overdueReminderDaysAfter: policy.overdueReminderDaysAfter,
+  });
+  const submit = (body: RecallPolicyBody) => update.mutate(body, { onError: (error) => applyServerErrors(form.setError, error) });
+  const formError = formErrorMessage(form.formState.errors, 'alone');
+  return (
+    <FormProvider {...form}>
+      {/* A submit the contract refuses is no save: the last "Saved." goes with it. */}
+      <form onSubmit={(event) => void form.handleSubmit(submit, () => update.reset())(event)}>
         {FIELDS.map((f) => (
-          <FormGroup key={f.key} label={f.label} labelFor={`policy-${f.key}`} helperText={fields[f.key] ?? f.help} intent={fields[f.key] ? 'danger' : 'none'}>
-            <NumericInput buttonPosition="none" id={`policy-${f.key}`} min={0} max={180} value={form[f.key]} onValueChange={(v) => setForm({ ...form, [f.key]: Number.isFinite(v) ? v : 0 })} />
-          </FormGroup>
+          <FormField key={f.key} name={f.key} label={f.label} labelFor={`policy-${f.key}`} help={f.help}>
+            <NumberInput name={f.key} emptyValue={0} buttonPosition="none" id={`policy-${f.key}`} min={0} max={180} />
+          </FormField>
         ))}
         <Can I="update" a="RecallPolicy">
           <Button type="submit" intent="primary" loading={update.isPending}>
@@ -52,8 +61,8 @@ export function PolicyRoute() {
           </Button>
         </Can>
         {update.isSuccess && <Callout intent="success">Saved. New exams are scheduled with this policy.</Callout>}
-        {update.isError && !Object.keys(fields).length && <Callout intent="danger">{update.error.message}</Callout>}
+        {formError && <Callout intent="danger">{formError}</Callout>}
       </form>
-    </div>
+    </FormProvider>
   );
 }

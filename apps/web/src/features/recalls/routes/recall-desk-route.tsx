@@ -8,7 +8,8 @@ import { LoadingState } from '../../../lib/components/loading-state';
 import { formatDate } from '../../../lib/dates';
 import { MAINTENANCE_NOTE } from '../../../lib/labels';
 import { MaintenanceStatusLabel } from '../../../lib/maintenance-status';
-import { deskSearch, useRecallDesk, type DeskParams } from '../api/recalls-api';
+import type { DeskParams } from '../api/keys';
+import { deskSearch, useRecallDesk } from '../api/recalls-api';
 
 const FILTER_LABEL: Record<(typeof DESK_FILTERS)[number], string> = {
   all: 'All patients with implants',

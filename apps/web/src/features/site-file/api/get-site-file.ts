@@ -1,8 +1,7 @@
 import { SiteFile } from '@torquetrail/contracts';
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { apiRequest } from '../../../lib/api-client';
-
-export const siteFileQueryKey = (siteId: string) => ['sites', 'detail', siteId] as const;
+import { siteKeys } from './keys';
 
 export function fetchSiteFile(siteId: string, signal?: AbortSignal): Promise<SiteFile> {
   return apiRequest(`/api/sites/${encodeURIComponent(siteId)}`, { schema: SiteFile, signal });
@@ -10,7 +9,7 @@ export function fetchSiteFile(siteId: string, signal?: AbortSignal): Promise<Sit
 
 export const siteFileQueryOptions = (siteId: string) =>
   queryOptions({
-    queryKey: siteFileQueryKey(siteId),
+    queryKey: siteKeys.detail(siteId),
     queryFn: ({ signal }) => fetchSiteFile(siteId, signal),
   });
 

@@ -1,13 +1,12 @@
 import { TimelineReply } from '@torquetrail/contracts';
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { apiRequest } from '../../../lib/api-client';
-
-export const timelineQueryKey = (siteId: string) => ['sites', 'timeline', siteId] as const;
+import { siteKeys } from '../../site-file';
 
 /** The whole Timeline is fetched once; filtering by kind happens on the page (years of a site fit easily). */
 export const timelineQueryOptions = (siteId: string) =>
   queryOptions({
-    queryKey: timelineQueryKey(siteId),
+    queryKey: siteKeys.timeline(siteId),
     queryFn: ({ signal }) => apiRequest(`/api/sites/${encodeURIComponent(siteId)}/timeline`, { schema: TimelineReply, signal }),
   });
 

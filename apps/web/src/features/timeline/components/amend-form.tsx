@@ -1,8 +1,21 @@
-import { Button, FormGroup, InputGroup, NumericInput } from '@blueprintjs/core';
-import { ComplicationKind, type TimelineEvent } from '@torquetrail/contracts';
-import { type FormEvent, useState } from 'react';
-import { isApiError } from '../../../lib/api-client';
+import { Button, InputGroup } from '@blueprintjs/core';
+import { ComplicationAmendmentBody, type ComplicationKind, type TimelineEvent, TorqueAmendmentBody } from '@torquetrail/contracts';
+import { useMemo } from 'react';
+import { FormProvider } from 'react-hook-form';
+import type { z } from 'zod';
+import { applyServerErrors, draftSchema, FormField, formErrorMessage, NumberInput, useContractForm, withInputRef } from '../../../lib/forms';
 import { useAmendComplication, useAmendTorque } from '../api/amend-entry';
+
+type TorqueAmendment = z.output<typeof TorqueAmendmentBody>;
+type ComplicationAmendment = z.output<typeof ComplicationAmendmentBody>;
+
+interface AmendDraft {
+  /** Torque: the corrected value. */
+  appliedNcm: number | null;
+  /** Complication: the corrected notes. */
+  notes: string;
+  amendmentReason: string;
+}
 
 /**
  * Amending a torque entry or a complication: a new version with its reason; the old entry stays
@@ -11,45 +24,49 @@ import { useAmendComplication, useAmendTorque } from '../api/amend-entry';
 export function AmendForm({ siteId, event, onDone }: { siteId: string; event: TimelineEvent; onDone: () => void }) {
   const torque = useAmendTorque(siteId);
   const complication = useAmendComplication(siteId);
-  const [applied, setApplied] = useState<number | null>(event.appliedNcm);
-  const [notes, setNotes] = useState(event.detail ?? '');
-  const [reason, setReason] = useState('');
+  const schema = useMemo(
+    (): z.ZodType<TorqueAmendment | ComplicationAmendment, AmendDraft> =>
+      event.kind === 'torque'
+        ? draftSchema(TorqueAmendmentBody, (d: AmendDraft) => ({ appliedNcm: d.appliedNcm ?? Number.NaN, performedAt: event.at, amendmentReason: d.amendmentReason }))
+        : draftSchema(ComplicationAmendmentBody, (d: AmendDraft) => ({
+            // The entry's own kind, checked by the contract like every other value.
+            kind: event.code as ComplicationKind,
+            occurredOn: event.at.slice(0, 10),
+            componentInstanceId: event.componentInstanceId,
+            notes: d.notes || null,
+            amendmentReason: d.amendmentReason,
+          })),
+    [event],
+  );
+  const form = useContractForm(schema, { appliedNcm: event.appliedNcm, notes: event.detail ?? '', amendmentReason: '' });
   const pending = torque.isPending || complication.isPending;
-  const error = torque.error ?? complication.error;
-  const fields = isApiError(error) ? error.fields : {};
 
-  const submit = async (e: FormEvent) => {
-    e.preventDefault();
-    try {
-      if (event.kind === 'torque') {
-        await torque.mutateAsync({ id: event.id, body: { appliedNcm: applied ?? Number.NaN, performedAt: event.at, amendmentReason: reason } });
-      } else {
-        const kind = ComplicationKind.parse(event.code);
-        await complication.mutateAsync({ id: event.id, body: { kind, occurredOn: event.at.slice(0, 10), componentInstanceId: event.componentInstanceId, notes: notes || null, amendmentReason: reason } });
-      }
-      onDone();
-    } catch {
-      // shown beside the fields
-    }
+  const submit = (body: TorqueAmendment | ComplicationAmendment) => {
+    const saved = { onSuccess: onDone, onError: (error: Error) => applyServerErrors(form.setError, error) };
+    if ('appliedNcm' in body) torque.mutate({ id: event.id, body }, saved);
+    else complication.mutate({ id: event.id, body }, saved);
   };
+  const formError = formErrorMessage(form.formState.errors, 'alone');
 
   return (
-    <form className="amend-form" onSubmit={submit} aria-label="Amend this entry" noValidate>
-      {event.kind === 'torque' ? (
-        <FormGroup label="Corrected torque (N·cm)" labelFor={`amend-${event.id}`} intent={fields.appliedNcm ? 'danger' : 'none'} helperText={fields.appliedNcm}>
-          <NumericInput buttonPosition="none" id={`amend-${event.id}`} min={1} max={100} value={applied ?? ''} onValueChange={(v) => setApplied(Number.isFinite(v) ? v : null)} />
-        </FormGroup>
-      ) : (
-        <FormGroup label="Corrected notes" labelFor={`amend-${event.id}`}>
-          <InputGroup id={`amend-${event.id}`} value={notes} onValueChange={setNotes} />
-        </FormGroup>
-      )}
-      <FormGroup label="Reason for the amendment" labelFor={`amend-reason-${event.id}`} intent={fields.amendmentReason ? 'danger' : 'none'} helperText={fields.amendmentReason}>
-        <InputGroup id={`amend-reason-${event.id}`} value={reason} onValueChange={setReason} />
-      </FormGroup>
-      {error && Object.keys(fields).length === 0 && <p className="planner-error" role="alert">{error.message}</p>}
-      <Button type="submit" small intent="primary" text="Save amendment" loading={pending} />
-      <Button small variant="minimal" text="Cancel" onClick={onDone} />
-    </form>
+    <FormProvider {...form}>
+      <form className="amend-form" onSubmit={(e) => void form.handleSubmit(submit)(e)} aria-label="Amend this entry" noValidate>
+        {event.kind === 'torque' ? (
+          <FormField name="appliedNcm" label="Corrected torque (N·cm)" labelFor={`amend-${event.id}`}>
+            <NumberInput name="appliedNcm" buttonPosition="none" id={`amend-${event.id}`} min={1} max={100} />
+          </FormField>
+        ) : (
+          <FormField name="notes" label="Corrected notes" labelFor={`amend-${event.id}`}>
+            <InputGroup id={`amend-${event.id}`} {...withInputRef(form.register('notes'))} />
+          </FormField>
+        )}
+        <FormField name="amendmentReason" label="Reason for the amendment" labelFor={`amend-reason-${event.id}`}>
+          <InputGroup id={`amend-reason-${event.id}`} {...withInputRef(form.register('amendmentReason'))} />
+        </FormField>
+        {formError && <p className="planner-error" role="alert">{formError}</p>}
+        <Button type="submit" small intent="primary" text="Save amendment" loading={pending} />
+        <Button small variant="minimal" text="Cancel" onClick={onDone} />
+      </form>
+    </FormProvider>
   );
 }

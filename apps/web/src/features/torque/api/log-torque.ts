@@ -1,6 +1,7 @@
 import { TorqueEvent, type TorqueBody } from '@torquetrail/contracts';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { apiRequest } from '../../../lib/api-client';
+import { siteKeys } from '../../site-file';
 
 /** Logging torque changes the site's Stack (last torque, re-torque reminder) and its Timeline. */
 export function useLogTorque(siteId: string) {
@@ -9,8 +10,8 @@ export function useLogTorque(siteId: string) {
     mutationFn: (body: TorqueBody) => apiRequest('/api/torque-events', { method: 'POST', body, schema: TorqueEvent }),
     onSuccess: () =>
       Promise.all([
-        queryClient.invalidateQueries({ queryKey: ['sites', 'detail', siteId] }),
-        queryClient.invalidateQueries({ queryKey: ['sites', 'timeline', siteId] }),
+        queryClient.invalidateQueries({ queryKey: siteKeys.detail(siteId) }),
+        queryClient.invalidateQueries({ queryKey: siteKeys.timeline(siteId) }),
       ]),
   });
 }

@@ -1,12 +1,11 @@
 import { Wrench, type WrenchBody, WrenchListReply, type WrenchPatch } from '@torquetrail/contracts';
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { apiRequest } from '../../../lib/api-client';
-
-export const wrenchesQueryKey = ['wrenches'] as const;
+import { wrenchKeys } from './keys';
 
 export const wrenchesQueryOptions = () =>
   queryOptions({
-    queryKey: wrenchesQueryKey,
+    queryKey: wrenchKeys.all,
     queryFn: ({ signal }) => apiRequest('/api/wrenches', { schema: WrenchListReply, signal }),
   });
 
@@ -20,6 +19,6 @@ export function useSaveWrench() {
   return useMutation({
     mutationFn: ({ id, body }: { id?: string; body: WrenchBody | WrenchPatch }) =>
       apiRequest(id ? `/api/wrenches/${id}` : '/api/wrenches', { method: id ? 'PATCH' : 'POST', body, schema: Wrench }),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: wrenchesQueryKey }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: wrenchKeys.all }),
   });
 }

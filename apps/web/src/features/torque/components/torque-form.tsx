@@ -1,9 +1,8 @@
-import { Button, Callout, FormGroup, HTMLSelect, InputGroup, NumericInput } from '@blueprintjs/core';
+import { Button, Callout, HTMLSelect, InputGroup } from '@blueprintjs/core';
 import { MANUFACTURER_CAUTION, type StackPart, TorqueBody, type TorqueReason } from '@torquetrail/contracts';
 import { torqueVerdict } from '@torquetrail/domain';
-import { type FormEvent, useState } from 'react';
-import { isApiError } from '../../../lib/api-client';
-import { fieldsFromIssues } from '../../../lib/form-errors';
+import { FormProvider, useWatch } from 'react-hook-form';
+import { applyServerErrors, draftSchema, FormField, formErrorMessage, NumberInput, useContractForm, withInputRef } from '../../../lib/forms';
 import { useLogTorque } from '../api/log-torque';
 import { useWrenches } from '../api/wrenches';
 
@@ -23,19 +22,46 @@ const localNow = () => {
   return d.toISOString().slice(0, 16);
 };
 
+/** The entered local date and time as an instant; left as typed when it is no date, for the contract to refuse. */
+const instant = (local: string) => {
+  const d = new Date(local);
+  return Number.isNaN(d.getTime()) ? local : d.toISOString();
+};
+
+interface TorqueDraft {
+  componentInstanceId: string;
+  appliedNcm: number | null;
+  wrenchId: string;
+  reason: TorqueReason;
+  /** Local date and time as typed (datetime-local). */
+  performedAt: string;
+  replacementLot: string;
+}
+
+const schema = draftSchema(TorqueBody, (d: TorqueDraft) => ({
+  componentInstanceId: d.componentInstanceId,
+  appliedNcm: d.appliedNcm ?? Number.NaN,
+  wrenchId: d.wrenchId || null,
+  reason: d.reason,
+  performedAt: instant(d.performedAt),
+  replacementLot: d.reason === 'screw-replaced' ? d.replacementLot || null : null,
+}));
+
 /**
  * Torque entry: which part, the applied value, the wrench, the reason and when. The spec and the
  * verdict (torqueVerdict from @torquetrail/domain, as on the server) show beside the value.
  */
 export function TorqueForm({ siteId, parts, onDone }: { siteId: string; parts: StackPart[]; onDone: () => void }) {
   const torqueable = parts.filter((p) => p.torqueSpecNcm !== null);
-  const [instanceId, setInstanceId] = useState(torqueable[0]?.instanceId ?? '');
-  const [applied, setApplied] = useState<number | null>(null);
-  const [wrenchId, setWrenchId] = useState('');
-  const [reason, setReason] = useState<TorqueReason>('initial-seating');
-  const [when, setWhen] = useState(localNow);
-  const [lot, setLot] = useState('');
-  const [fields, setFields] = useState<Record<string, string>>({});
+  const form = useContractForm(schema, {
+    componentInstanceId: torqueable[0]?.instanceId ?? '',
+    appliedNcm: null,
+    wrenchId: '',
+    reason: 'initial-seating',
+    performedAt: localNow(),
+    replacementLot: '',
+  });
+  const [instanceId, applied, reason] = useWatch({ control: form.control, name: ['componentInstanceId', 'appliedNcm', 'reason'] });
   const wrenches = useWrenches();
   const log = useLogTorque(siteId);
   const part = torqueable.find((p) => p.instanceId === instanceId);
@@ -45,86 +71,69 @@ export function TorqueForm({ siteId, parts, onDone }: { siteId: string; parts: S
   const inRange = applied !== null && applied >= 1 && applied <= 100;
   const verdict = part && inRange ? torqueVerdict({ appliedNcm: applied, specNcm: part.torqueSpecNcm!, tolerancePct: part.tolerancePct }) : null;
 
-  const submit = async (event: FormEvent) => {
-    event.preventDefault();
-    const body = {
-      componentInstanceId: instanceId,
-      appliedNcm: applied ?? Number.NaN,
-      wrenchId: wrenchId || null,
-      reason,
-      performedAt: new Date(when).toISOString(),
-      replacementLot: reason === 'screw-replaced' ? lot || null : null,
-    };
-    const parsed = TorqueBody.safeParse(body);
-    if (!parsed.success) return setFields(fieldsFromIssues(parsed.error.issues));
-    setFields({});
-    try {
-      await log.mutateAsync(body);
-      onDone();
-    } catch (error) {
-      if (isApiError(error)) setFields({ ...error.fields, ...(Object.keys(error.fields).length === 0 ? { '(form)': error.message } : {}) });
-    }
-  };
+  const submit = (body: TorqueBody) => log.mutate(body, { onSuccess: onDone, onError: (error) => applyServerErrors(form.setError, error) });
+  const formError = formErrorMessage(form.formState.errors, 'alone');
 
-  const err = (key: string) => (fields[key] ? { intent: 'danger' as const, helperText: fields[key] } : {});
   return (
-    <form className="torque-form" onSubmit={submit} aria-label="Log torque" data-testid="torque-form" noValidate>
-      <Callout intent="warning" icon="info-sign" compact>
-        {MANUFACTURER_CAUTION}
-      </Callout>
-      <FormGroup label="Part" labelFor="torque-part" {...err('componentInstanceId')}>
-        <HTMLSelect id="torque-part" value={instanceId} onChange={(e) => setInstanceId(e.currentTarget.value)} fill>
-          {torqueable.map((p) => (
-            <option key={p.instanceId} value={p.instanceId}>
-              {p.name} ({p.referenceCode})
-            </option>
-          ))}
-        </HTMLSelect>
-      </FormGroup>
-      <FormGroup label="Applied torque (N·cm)" labelFor="torque-applied" {...err('appliedNcm')}>
-        <NumericInput buttonPosition="none" id="torque-applied" min={1} max={100} stepSize={0.5} minorStepSize={0.1} value={applied ?? ''} onValueChange={(v) => setApplied(Number.isFinite(v) ? v : null)} fill allowNumericCharactersOnly />
-      </FormGroup>
-      {part && (
-        <p className="torque-form__spec" data-testid="torque-spec">
-          Specification {part.torqueSpecNcm} N·cm ± {part.tolerancePct} %{verdict && <> · <strong data-testid="torque-live-verdict">{VERDICT_TEXT[verdict]}</strong></>}
-        </p>
-      )}
-      <FormGroup label="Wrench" labelFor="torque-wrench" {...err('wrenchId')}>
-        <HTMLSelect id="torque-wrench" value={wrenchId} onChange={(e) => setWrenchId(e.currentTarget.value)} fill>
-          <option value="">Not recorded</option>
-          {wrenches.data?.items.map((w) => (
-            <option key={w.id} value={w.id}>
-              {w.label} ({w.type}{w.lastCalibratedOn ? `, calibrated ${w.lastCalibratedOn}` : ', calibration not recorded'})
-            </option>
-          ))}
-        </HTMLSelect>
-      </FormGroup>
-      <FormGroup label="Reason" labelFor="torque-reason" {...err('reason')}>
-        <HTMLSelect id="torque-reason" value={reason} onChange={(e) => setReason(e.currentTarget.value as TorqueReason)} fill>
-          {Object.entries(TORQUE_REASON_LABEL).map(([value, text]) => (
-            <option key={value} value={value}>
-              {text}
-            </option>
-          ))}
-        </HTMLSelect>
-      </FormGroup>
-      {reason === 'screw-replaced' && (
-        <FormGroup label="Lot of the new part" labelFor="torque-lot" {...err('replacementLot')}>
-          <InputGroup id="torque-lot" value={lot} onValueChange={setLot} />
-        </FormGroup>
-      )}
-      <FormGroup label="Date and time" labelFor="torque-when" {...err('performedAt')}>
-        <InputGroup id="torque-when" type="datetime-local" value={when} onValueChange={setWhen} />
-      </FormGroup>
-      {fields['(form)'] && (
-        <Callout intent="danger" role="alert" compact>
-          {fields['(form)']}
+    <FormProvider {...form}>
+      <form className="torque-form" onSubmit={(event) => void form.handleSubmit(submit)(event)} aria-label="Log torque" data-testid="torque-form" noValidate>
+        <Callout intent="warning" icon="info-sign" compact>
+          {MANUFACTURER_CAUTION}
         </Callout>
-      )}
-      <div className="torque-form__actions">
-        <Button type="submit" intent="primary" text="Save torque" loading={log.isPending} />
-        <Button variant="minimal" text="Cancel" onClick={onDone} />
-      </div>
-    </form>
+        <FormField name="componentInstanceId" label="Part" labelFor="torque-part">
+          <HTMLSelect id="torque-part" fill {...form.register('componentInstanceId')}>
+            {torqueable.map((p) => (
+              <option key={p.instanceId} value={p.instanceId}>
+                {p.name} ({p.referenceCode})
+              </option>
+            ))}
+          </HTMLSelect>
+        </FormField>
+        <FormField name="appliedNcm" label="Applied torque (N·cm)" labelFor="torque-applied">
+          <NumberInput name="appliedNcm" buttonPosition="none" id="torque-applied" min={1} max={100} stepSize={0.5} minorStepSize={0.1} fill allowNumericCharactersOnly />
+        </FormField>
+        {part && (
+          <p className="torque-form__spec" data-testid="torque-spec">
+            Specification {part.torqueSpecNcm} N·cm ± {part.tolerancePct} %{verdict && <> · <strong data-testid="torque-live-verdict">{VERDICT_TEXT[verdict]}</strong></>}
+          </p>
+        )}
+        <FormField name="wrenchId" label="Wrench" labelFor="torque-wrench">
+          <HTMLSelect id="torque-wrench" fill {...form.register('wrenchId')}>
+            <option value="">Not recorded</option>
+            {wrenches.data?.items.map((w) => (
+              <option key={w.id} value={w.id}>
+                {w.label} ({w.type}{w.lastCalibratedOn ? `, calibrated ${w.lastCalibratedOn}` : ', calibration not recorded'})
+              </option>
+            ))}
+          </HTMLSelect>
+        </FormField>
+        <FormField name="reason" label="Reason" labelFor="torque-reason">
+          <HTMLSelect id="torque-reason" fill {...form.register('reason')}>
+            {Object.entries(TORQUE_REASON_LABEL).map(([value, text]) => (
+              <option key={value} value={value}>
+                {text}
+              </option>
+            ))}
+          </HTMLSelect>
+        </FormField>
+        {reason === 'screw-replaced' && (
+          <FormField name="replacementLot" label="Lot of the new part" labelFor="torque-lot">
+            <InputGroup id="torque-lot" {...withInputRef(form.register('replacementLot'))} />
+          </FormField>
+        )}
+        <FormField name="performedAt" label="Date and time" labelFor="torque-when">
+          <InputGroup id="torque-when" type="datetime-local" {...withInputRef(form.register('performedAt'))} />
+        </FormField>
+        {formError && (
+          <Callout intent="danger" role="alert" compact>
+            {formError}
+          </Callout>
+        )}
+        <div className="torque-form__actions">
+          <Button type="submit" intent="primary" text="Save torque" loading={log.isPending} />
+          <Button variant="minimal" text="Cancel" onClick={onDone} />
+        </div>
+      </form>
+    </FormProvider>
   );
 }

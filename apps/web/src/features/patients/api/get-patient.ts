@@ -1,9 +1,9 @@
-// The patient (name, sites) is read by several features (Arch, planner breadcrumbs), so its query lives here.
+// The patient (name, sites) is read by several features (Arch, planner breadcrumbs, placement);
+// they use it through this feature's index.ts.
 import { PatientDetail } from '@torquetrail/contracts';
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { apiRequest } from '../api-client';
-
-export const patientQueryKey = (patientId: string) => ['patients', 'detail', patientId] as const;
+import { apiRequest } from '../../../lib/api-client';
+import { patientKeys } from './keys';
 
 export function fetchPatient(patientId: string, signal?: AbortSignal): Promise<PatientDetail> {
   return apiRequest(`/api/patients/${encodeURIComponent(patientId)}`, { schema: PatientDetail, signal });
@@ -11,7 +11,7 @@ export function fetchPatient(patientId: string, signal?: AbortSignal): Promise<P
 
 export const patientQueryOptions = (patientId: string) =>
   queryOptions({
-    queryKey: patientQueryKey(patientId),
+    queryKey: patientKeys.detail(patientId),
     queryFn: ({ signal }) => fetchPatient(patientId, signal),
   });
 

@@ -1,0 +1,13 @@
+import type { RecallDeskQuery } from '@torquetrail/contracts';
+
+export type DeskParams = Partial<Pick<RecallDeskQuery, 'filter' | 'sort' | 'dir' | 'search' | 'page' | 'pageSize'>>;
+
+// Query keys of the recalls feature.
+export const recallKeys = {
+  all: ['recalls'] as const,
+  desk: (params: DeskParams) => [...recallKeys.all, 'desk', params] as const,
+  examContext: (patientId: string) => [...recallKeys.all, 'exam-context', patientId] as const,
+  siteExams: (siteId: string) => [...recallKeys.all, 'site-exams', siteId] as const,
+  policy: () => [...recallKeys.all, 'policy'] as const,
+  reminders: () => [...recallKeys.all, 'reminders'] as const,
+};

@@ -1,0 +1,29 @@
+import type { FieldErrors, FieldPath, FieldValues, UseFormSetError } from 'react-hook-form';
+import { isApiError } from '../api-client';
+
+/** Where a failed submit's message is kept (react-hook-form clears `root` errors on the next submit). */
+const FORM_ERROR = 'root.server';
+
+/** The API names the body itself, not a field, with this path (apps/api common/zod-validation.pipe.ts). */
+const BODY_PATH = '(body)';
+
+/**
+ * Puts a failed request's errors on the form: each of the API's 400 `fields` (path → message) on
+ * the field at that path, and the error's message on FORM_ERROR, marked with whether any field was
+ * named (see `formErrorMessage`). Any error is accepted; a network failure has only a message.
+ */
+export function applyServerErrors<Values extends FieldValues>(setError: UseFormSetError<Values>, error: Error, options: { message?: string } = {}): void {
+  const fields = isApiError(error) ? Object.entries(error.fields).filter(([path]) => path !== BODY_PATH) : [];
+  for (const [path, message] of fields) setError(path as FieldPath<Values>, { type: 'server', message });
+  setError(FORM_ERROR as FieldPath<Values>, { type: fields.length > 0 ? 'with-fields' : 'alone', message: options.message ?? error.message });
+}
+
+/**
+ * The message of the last failed submit: `'always'`, or only when no field was named (`'alone'`,
+ * the fields then speak for themselves).
+ */
+export function formErrorMessage(errors: FieldErrors, when: 'always' | 'alone'): string | undefined {
+  const error = errors.root?.server;
+  if (!error || (when === 'alone' && error.type !== 'alone')) return undefined;
+  return error.message;
+}
