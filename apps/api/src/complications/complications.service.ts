@@ -7,8 +7,8 @@ import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
 import { DB, type Database, type Db } from '../db/database.js';
 import { complications, componentInstances, patients, users } from '../db/schema/index.js';
-import { visiblePatients } from '../patients/patients.repository.js';
-import { fieldError } from '../restorations/plan-check.js';
+import { visiblePatients } from '../authz/visible-patients.js';
+import { fieldError } from '../common/field-error.js';
 import { findVisibleSite } from '../sites/sites.repository.js';
 import { supersededById } from '../db/amendments.js';
 

@@ -2,7 +2,7 @@ import { and, asc, eq, inArray, notInArray, sql } from 'drizzle-orm';
 import type { Db, Tx } from '../db/database.js';
 import { componentInstances, components, implantSites, implantSystems, patients, placements, platforms, users } from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
-import { visiblePatients } from '../patients/patients.repository.js';
+import { visiblePatients } from '../authz/visible-patients.js';
 import { supersededById } from '../db/amendments.js';
 
 /** The live site (not failed, not removed) of a patient at an FDI position; a unique index keeps it to one. */

@@ -16,7 +16,7 @@ import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
 import { DB, type Database, type Db } from '../db/database.js';
 import { findVisiblePatient } from '../patients/patients.repository.js';
-import { fieldError } from '../restorations/plan-check.js';
+import { fieldError } from '../common/field-error.js';
 import { findVisibleSite } from '../sites/sites.repository.js';
 import * as repo from './placements.repository.js';
 

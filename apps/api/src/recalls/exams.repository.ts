@@ -4,7 +4,7 @@ import type { RecallExam } from '@torquetrail/contracts';
 import type { Db } from '../db/database.js';
 import { implantSites, patients, recallExams, recallExamSites, recallPolicies, recalls, users } from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
-import { visiblePatients } from '../patients/patients.repository.js';
+import { visiblePatients } from '../authz/visible-patients.js';
 import { inChartOrder, type ProbedSite } from './exam-rules.js';
 import { isAmended, isCurrentVersion } from '../db/amendments.js';
 

@@ -1,11 +1,12 @@
 import { randomUUID } from 'node:crypto';
-import { BadRequestException, ConflictException, Inject, Injectable } from '@nestjs/common';
+import { ConflictException, Inject, Injectable } from '@nestjs/common';
 import { sql } from 'drizzle-orm';
 import { type AppAbility, subject } from '@torquetrail/authz';
 import { AmendExamBody as AmendExamSchema, CreateVisitBody as CreateVisitSchema, type CreateVisitReply, type RecallExam, type ExamContext, type SiteExamHistory } from '@torquetrail/contracts';
 import { classifyPeriImplant, DEFAULT_BONE_LOSS_MM, DEFAULT_PD_INCREASE_MM, DomainError, nextRecallDate, RULES_VERSION } from '@torquetrail/domain';
 import type { z } from 'zod';
 import { assertCan, type Scope } from '../authz/scope.js';
+import { fieldError } from '../common/field-error.js';
 import { DB, type Database, type Tx } from '../db/database.js';
 import { chooseBaseline, inChartOrder, latestOf, toDomainBaseline, toDomainExam } from './exam-rules.js';
 import {
@@ -27,8 +28,6 @@ import { RecallClock } from './recall-clock.js';
 const EXAMINABLE = new Set(['placed', 'restored']);
 /** The thresholds handed to classifyPeriImplant, stored beside each verdict. */
 const RULE_OPTIONS = { pdIncreaseMm: DEFAULT_PD_INCREASE_MM, boneLossMm: DEFAULT_BONE_LOSS_MM };
-
-const badField = (field: string, message: string) => new BadRequestException({ message: `${field}: ${message}`, fields: { [field]: message } });
 
 @Injectable()
 export class ExamsService {
@@ -81,14 +80,14 @@ export class ExamsService {
    */
   async createVisit(ability: AppAbility, scope: Scope, examinerId: string, body: z.infer<typeof CreateVisitSchema>): Promise<CreateVisitReply> {
     const patient = assertCan(ability, 'create', 'RecallExam', await findVisiblePatientForRecall(this.db, scope, body.patientId).then((p) => (p ? { ...p, patientId: p.id } : null)), 'patient');
-    if (body.examinedOn > this.clock.today()) throw badField('examinedOn', 'an exam cannot be dated in the future');
+    if (body.examinedOn > this.clock.today()) throw fieldError({ examinedOn: 'an exam cannot be dated in the future' });
 
     return this.db.transaction(async (tx) => {
       const sites = new Map((await listSitesForExam(tx, patient.id)).map((s) => [s.siteId, s]));
       body.exams.forEach((exam, i) => {
         const site = sites.get(exam.siteId);
-        if (!site) throw badField(`exams.${i}.siteId`, 'not an implant site of this patient');
-        if (!EXAMINABLE.has(site.status)) throw badField(`exams.${i}.siteId`, `the implant at ${site.fdi} is ${site.status}: only placed or restored implants are examined`);
+        if (!site) throw fieldError({ [`exams.${i}.siteId`]: 'not an implant site of this patient' });
+        if (!EXAMINABLE.has(site.status)) throw fieldError({ [`exams.${i}.siteId`]: `the implant at ${site.fdi} is ${site.status}: only placed or restored implants are examined` });
       });
       const earlier = await listExamsOfSites(tx, body.exams.map((e) => e.siteId));
       // Serialise visits of one patient so two saves cannot both schedule a recall.
@@ -105,7 +104,7 @@ export class ExamsService {
         try {
           verdict = classifyPeriImplant(toDomainExam({ sites: probes, boneLevelMm: exam.boneLevelMm }), toDomainBaseline(baseline), RULE_OPTIONS);
         } catch (error) {
-          if (error instanceof DomainError) throw badField(`exams.${i}`, error.message);
+          if (error instanceof DomainError) throw fieldError({ [`exams.${i}`]: error.message });
           throw error;
         }
         anyPeriImplantitis ||= verdict.status === 'peri-implantitis';
@@ -182,7 +181,7 @@ export class ExamsService {
       try {
         verdict = classifyPeriImplant(toDomainExam({ sites: probes, boneLevelMm: body.boneLevelMm }), toDomainBaseline(baseline), RULE_OPTIONS);
       } catch (error) {
-        if (error instanceof DomainError) throw badField('sites', error.message);
+        if (error instanceof DomainError) throw fieldError({ sites: error.message });
         throw error;
       }
       const id = await insertExam(tx, {

@@ -16,7 +16,7 @@ import {
   users,
 } from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
-import { visiblePatients } from '../patients/patients.repository.js';
+import { visiblePatients } from '../authz/visible-patients.js';
 import { componentSpecColumns } from '../catalogue/catalogue.repository.js';
 import { isCurrentVersion, supersededById } from '../db/amendments.js';
 

@@ -9,7 +9,8 @@ import { assertCan, type Scope } from '../authz/scope.js';
 import { DB, type Database, type Tx } from '../db/database.js';
 import { componentInstances, components, findingAcknowledgements, implantSites, restorationSiteComponents, restorationSites, restorations } from '../db/schema/index.js';
 import { findComponents } from '../catalogue/catalogue.repository.js';
-import { checkPlan, fieldError } from './plan-check.js';
+import { fieldError } from '../common/field-error.js';
+import { checkPlan } from './plan-check.js';
 import * as repo from './restorations.repository.js';
 
 type PlanInput = z.output<typeof PlanBody>;

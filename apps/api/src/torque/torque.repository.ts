@@ -2,7 +2,7 @@ import { and, eq, sql } from 'drizzle-orm';
 import type { Db, Tx } from '../db/database.js';
 import { componentInstances, components, patients, torqueEvents, torqueWrenches, users } from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
-import { visiblePatients } from '../patients/patients.repository.js';
+import { visiblePatients } from '../authz/visible-patients.js';
 import { supersededById } from '../db/amendments.js';
 
 /** A part instance whose patient the user may see, with its catalogue specification. */

@@ -8,7 +8,7 @@ import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
 import { DB, type Database, type Tx } from '../db/database.js';
 import { componentInstances, torqueEvents } from '../db/schema/index.js';
-import { fieldError } from '../restorations/plan-check.js';
+import { fieldError } from '../common/field-error.js';
 import * as repo from './torque.repository.js';
 
 /** An entry may be a few minutes ahead of the server clock, never later. */
