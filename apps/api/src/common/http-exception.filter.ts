@@ -1,6 +1,7 @@
 import { type ArgumentsHost, Catch, type ExceptionFilter, HttpException, HttpStatus, Logger } from '@nestjs/common';
 import type { Response } from 'express';
 import type { ErrorReply } from '@torquetrail/contracts';
+import { asAmendmentConflict } from './amendment-conflict.js';
 
 const STATUS_TEXT: Record<number, string> = {
   400: 'Bad Request',
@@ -12,13 +13,17 @@ const STATUS_TEXT: Record<number, string> = {
   500: 'Internal Server Error',
 };
 
-/** Maps every error to the one ErrorReply shape; unexpected errors are logged, never leaked. */
+/**
+ * Maps every error to the one ErrorReply shape; unexpected errors are logged, never leaked. A
+ * second amendment refused by the database's unique index is a 409 (see amendment-conflict.ts).
+ */
 @Catch()
 export class HttpExceptionFilter implements ExceptionFilter {
   private readonly logger = new Logger('HttpExceptionFilter');
 
-  catch(exception: unknown, host: ArgumentsHost): void {
+  catch(thrown: unknown, host: ArgumentsHost): void {
     const res = host.switchToHttp().getResponse<Response>();
+    const exception = asAmendmentConflict(thrown);
     let reply: ErrorReply;
     if (exception instanceof HttpException) {
       const status = exception.getStatus();

@@ -1,0 +1,42 @@
+import { ConflictException } from '@nestjs/common';
+import { AMENDABLE_TABLES, type AmendableTableName, supersedesUniqueName } from '../db/schema/amendment-chain.js';
+
+/** What a second amendment of one version is told, per table: the same words before and during a race. */
+const ALREADY_AMENDED: Record<AmendableTableName, string> = {
+  placements: 'This placement was already amended; amend the current version',
+  restorations: 'This version was already amended; amend the current version',
+  torque_events: 'This entry was already amended; amend the current version',
+  complications: 'This entry was already amended; amend the current version',
+  recall_exams: 'This exam has already been amended; amend its latest version',
+};
+
+/** 409 for an amendment of a version that a newer row already supersedes. */
+export const alreadyAmended = (table: AmendableTableName) => new ConflictException(ALREADY_AMENDED[table]);
+
+const TABLE_OF_INDEX = new Map<string, AmendableTableName>(AMENDABLE_TABLES.map((t) => [supersedesUniqueName(t), t]));
+
+/** The PostgreSQL error under drizzle's wrapper (`cause`), if the error is one. */
+function postgresError(error: unknown): { code?: string; constraint?: string } | null {
+  for (let e = error, depth = 0; typeof e === 'object' && e !== null && depth < 5; e = (e as { cause?: unknown }).cause, depth++) {
+    if (typeof (e as { code?: unknown }).code === 'string') return e as { code: string; constraint?: string };
+  }
+  return null;
+}
+
+/** The error is PostgreSQL's unique violation (23505), on any index or on the one named. */
+export function isUniqueViolation(error: unknown, constraint?: string): boolean {
+  const pg = postgresError(error);
+  return pg?.code === '23505' && (constraint === undefined || pg.constraint === constraint);
+}
+
+/**
+ * The one place where the database's answer to a second amendment becomes HTTP: a unique
+ * violation of a `<table>_supersedes_unique` index (two amendments of one version raced, and the
+ * other committed first) is the same 409 the services give when they see the amendment up front.
+ * Any other error is returned unchanged.
+ */
+export function asAmendmentConflict(error: unknown): unknown {
+  const pg = postgresError(error);
+  const table = pg?.code === '23505' && pg.constraint ? TABLE_OF_INDEX.get(pg.constraint) : undefined;
+  return table ? alreadyAmended(table) : error;
+}
