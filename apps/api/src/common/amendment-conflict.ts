@@ -1,5 +1,6 @@
 import { ConflictException } from '@nestjs/common';
 import { AMENDABLE_TABLES, type AmendableTableName, supersedesUniqueName } from '../db/schema/amendment-chain.js';
+import { postgresError } from './postgres-error.js';
 
 /** What a second amendment of one version is told, per table: the same words before and during a race. */
 const ALREADY_AMENDED: Record<AmendableTableName, string> = {
@@ -14,20 +15,6 @@ const ALREADY_AMENDED: Record<AmendableTableName, string> = {
 export const alreadyAmended = (table: AmendableTableName) => new ConflictException(ALREADY_AMENDED[table]);
 
 const TABLE_OF_INDEX = new Map<string, AmendableTableName>(AMENDABLE_TABLES.map((t) => [supersedesUniqueName(t), t]));
-
-/** The PostgreSQL error under drizzle's wrapper (`cause`), if the error is one. */
-function postgresError(error: unknown): { code?: string; constraint?: string } | null {
-  for (let e = error, depth = 0; typeof e === 'object' && e !== null && depth < 5; e = (e as { cause?: unknown }).cause, depth++) {
-    if (typeof (e as { code?: unknown }).code === 'string') return e as { code: string; constraint?: string };
-  }
-  return null;
-}
-
-/** The error is PostgreSQL's unique violation (23505), on any index or on the one named. */
-export function isUniqueViolation(error: unknown, constraint?: string): boolean {
-  const pg = postgresError(error);
-  return pg?.code === '23505' && (constraint === undefined || pg.constraint === constraint);
-}
 
 /**
  * The one place where the database's answer to a second amendment becomes HTTP: a unique
