@@ -1,10 +1,10 @@
 import { Controller, Get, Inject } from '@nestjs/common';
-import { sql } from 'drizzle-orm';
 import type { HealthReply } from '@torquetrail/contracts';
 import { Public } from '../common/public.decorator.js';
 import { DB, type Database } from '../db/database.js';
 import { MailService } from '../mail/mail.service.js';
 import { StorageService } from '../storage/storage.service.js';
+import { isDatabaseUp } from './health.repository.js';
 
 @Controller('health')
 export class HealthController {
@@ -19,7 +19,7 @@ export class HealthController {
   @Get()
   async check(): Promise<HealthReply> {
     const [database, objectStorage, mail] = await Promise.all([
-      this.db.execute(sql`select 1`).then(() => true, () => false),
+      isDatabaseUp(this.db),
       this.storage.isUp(),
       this.mail.isUp(),
     ]);
