@@ -8,15 +8,30 @@ import { localDir, repoRoot } from './config.mjs';
 
 const npm = process.platform === 'win32' ? 'npm.cmd' : 'npm';
 
-/** `npm ci` when node_modules is missing or older than package-lock.json's content. */
-export async function ensureDependencies() {
-  const lock = path.join(repoRoot, 'package-lock.json');
-  const stamp = path.join(repoRoot, 'node_modules', '.torquetrail-lock-hash');
+/** `npm ci` in `dir` when its node_modules is missing or older than its package-lock.json's content. */
+async function ensureInstalled(dir) {
+  const lock = path.join(dir, 'package-lock.json');
+  const stamp = path.join(dir, 'node_modules', '.torquetrail-lock-hash');
   const hash = createHash('sha256').update(fs.readFileSync(lock)).digest('hex');
   if (fs.existsSync(stamp) && fs.readFileSync(stamp, 'utf8') === hash) return;
-  console.log('[setup] installing dependencies (npm ci) …');
-  await run(npm, ['ci', '--no-audit', '--no-fund'], { cwd: repoRoot });
+  console.log(`[setup] installing dependencies (npm ci in ${path.relative(repoRoot, dir) || '.'}) …`);
+  await run(npm, ['ci', '--no-audit', '--no-fund'], { cwd: dir });
   fs.writeFileSync(stamp, hash);
+}
+
+/** The workspaces' dependencies. */
+export function ensureDependencies() {
+  return ensureInstalled(repoRoot);
+}
+
+/**
+ * dependency-cruiser parses TypeScript with the TypeScript 5 API, which the workspace's native
+ * TypeScript 7 no longer has, so it lives in its own small install (docs/adr/0005). Returns its binary.
+ */
+export async function ensureBoundaryTool() {
+  const dir = path.join(repoRoot, 'tools', 'boundaries');
+  await ensureInstalled(dir);
+  return path.join(dir, 'node_modules', '.bin', 'depcruise');
 }
 
 /** Debian's chromium for the browser tests, installed with apt-get when missing. */

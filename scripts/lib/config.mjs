@@ -64,6 +64,8 @@ export function apiEnvironment({ database, bucket, jwtSecret, port: appPort }) {
     HOST: host,
     PORT: String(appPort),
     WEB_DIST: path.join(repoRoot, 'apps', 'web', 'dist'),
+    // Local runs print warnings and errors only (JSON lines from pino); production defaults to info.
+    LOG_LEVEL: process.env.LOG_LEVEL ?? 'warn',
     // The SDK is pinned to the last line that supports Node 20 (see DEVELOPERS.md); its notice says so at every start.
     AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED: 'true',
   };

@@ -8,6 +8,13 @@ import { host, localDir, pg, repoHash } from './config.mjs';
 
 export class ServiceError extends Error {}
 
+/** Path of a PostgreSQL client or server program of the newest installed version (pg_dump, pg_restore …). */
+export function pgProgram(name) {
+  const bin = findBinDir();
+  if (!bin) throw new ServiceError('PostgreSQL binaries are missing: run npm start once, or apt-get install postgresql');
+  return path.join(bin, name);
+}
+
 function findBinDir() {
   const base = '/usr/lib/postgresql';
   if (!fs.existsSync(base)) return null;

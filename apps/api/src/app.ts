@@ -1,49 +1,40 @@
 import 'reflect-metadata';
 import fs from 'node:fs';
 import path from 'node:path';
-import type { INestApplication, LogLevel } from '@nestjs/common';
+import type { INestApplication } from '@nestjs/common';
+import type { DestinationStream } from 'pino';
 import { NestFactory } from '@nestjs/core';
 import type { NestExpressApplication } from '@nestjs/platform-express';
 import cookieParser from 'cookie-parser';
 import swaggerUi from 'swagger-ui-dist';
-import express, { type NextFunction, type Request, type Response } from 'express';
+import express, { type Request, type Response } from 'express';
 import { AppModule } from './app.module.js';
 import type { Env } from './config/env.js';
-
-const CONTENT_SECURITY_POLICY = [
-  "default-src 'self'",
-  "script-src 'self'",
-  "style-src 'self' 'unsafe-inline'",
-  "img-src 'self' data: blob:",
-  "font-src 'self' data:",
-  "connect-src 'self'",
-  "object-src 'none'",
-  "frame-src 'self' blob:",
-  "frame-ancestors 'none'",
-  "base-uri 'self'",
-  "form-action 'self'",
-].join('; ');
+import { sameOriginWrites } from './http-security/same-origin-writes.js';
+import { securityHeaders } from './http-security/security-headers.js';
+import { createLogger, httpLogger, PinoNestLogger } from './logging/logger.js';
 
 /**
  * Builds the whole app (used by main.ts and by the API and browser tests alike): every route
  * under /api, JSON 404 for unknown /api paths, and the built web app from the same origin.
  */
-export async function createApp(env: Env, options: { logger?: false | LogLevel[] } = {}): Promise<INestApplication> {
+export async function createApp(env: Env, options: { logger?: false; logStream?: DestinationStream } = {}): Promise<INestApplication> {
+  const logger = createLogger(options.logger === false ? 'silent' : env.LOG_LEVEL, options.logStream);
   const app = await NestFactory.create<NestExpressApplication>(AppModule.forRoot(env), {
-    logger: options.logger ?? ['error', 'warn'],
+    logger: new PinoNestLogger(logger),
     bodyParser: true,
   });
+  // First, so every later line and every error reply carries the request id.
+  app.use(httpLogger(logger));
   app.setGlobalPrefix('api');
   app.use(cookieParser());
   app.disable('x-powered-by');
-  app.set('trust proxy', 'loopback');
-  app.use((_req: Request, res: Response, next: NextFunction) => {
-    res.setHeader('X-Content-Type-Options', 'nosniff');
-    res.setHeader('Referrer-Policy', 'same-origin');
-    // Scripts only from our own origin; inline styles are allowed because Blueprint and the charts set them.
-    res.setHeader('Content-Security-Policy', CONTENT_SECURITY_POLICY);
-    next();
-  });
+  // Client addresses (sign-in throttling) and https (HSTS, Secure cookie) come from X-Forwarded-*
+  // only when a proxy in front is trusted explicitly; otherwise anyone could claim any address.
+  app.set('trust proxy', env.TRUST_PROXY);
+  app.set('etag', false);
+  app.use(...securityHeaders());
+  app.use(sameOriginWrites(env.EXTRA_ORIGINS));
   app.enableShutdownHooks();
 
   // Unknown routes under /api fall through to Nest's JSON 404 (via the exception filter), never the web app.

@@ -19,6 +19,8 @@ export const ErrorReply = z.object({
   message: z.string(),
   /** Field-level problems for 400 replies: path (dot-joined) → message. */
   fields: z.record(z.string(), z.string()).optional(),
+  /** The request's id, also in the X-Request-Id header and in every log line of the request. */
+  requestId: z.string().optional(),
 });
 export type ErrorReply = z.infer<typeof ErrorReply>;
 

@@ -10,3 +10,7 @@ export const HealthReply = z.object({
   }),
 });
 export type HealthReply = z.infer<typeof HealthReply>;
+
+/** Liveness: the process answers. Says nothing about the services behind it. */
+export const LivenessReply = z.object({ status: z.literal('up') });
+export type LivenessReply = z.infer<typeof LivenessReply>;

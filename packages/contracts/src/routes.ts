@@ -4,13 +4,15 @@ import { recallRoutes } from './recalls.js';
 import { placementRoutes } from './placements.js';
 import { Me, SignInBody } from './auth.js';
 import { ErrorReply } from './common.js';
-import { HealthReply } from './health.js';
+import { HealthReply, LivenessReply } from './health.js';
 import { PatientDetail, PatientListQuery, PatientListReply } from './patients.js';
 import { SiteFile } from './sites.js';
 
 /** Every API route, for the OpenAPI document and the test that checks nothing is left out. */
 export const apiRoutes: RouteContract[] = [
-  { method: 'get', path: '/health', summary: 'Database, object storage and mail: up or down', signedIn: false, reply: HealthReply },
+  { method: 'get', path: '/health', summary: 'Readiness (same as /health/ready): 200 when database and object storage are up, 503 when either is down; mail is reported', signedIn: false, reply: HealthReply },
+  { method: 'get', path: '/health/ready', summary: 'Readiness for a load balancer: 200 when database and object storage are up, 503 when either is down', signedIn: false, reply: HealthReply },
+  { method: 'get', path: '/health/live', summary: 'Liveness: the process answers (restart it when this fails)', signedIn: false, reply: LivenessReply },
   { method: 'post', path: '/auth/sign-in', summary: 'Sign in with e-mail and password; sets the HttpOnly session cookie', signedIn: false, status: 200, body: SignInBody, reply: Me },
   { method: 'post', path: '/auth/sign-out', summary: 'Sign out: clears the session cookie', signedIn: false, noContent: true },
   { method: 'get', path: '/auth/me', summary: 'The signed-in user, their role, practice and shares', signedIn: true, reply: Me },

@@ -6,6 +6,7 @@ import { ENV, type Env } from '../config/env.js';
 import { AuthController } from './auth.controller.js';
 import { AuthService } from './auth.service.js';
 import { JwtStrategy } from './jwt.strategy.js';
+import { SESSION_ALGORITHM } from './session-user.js';
 import { SignInThrottlerGuard, signInThrottlers } from './sign-in-throttler.guard.js';
 
 @Module({
@@ -13,7 +14,7 @@ import { SignInThrottlerGuard, signInThrottlers } from './sign-in-throttler.guar
     PassportModule,
     JwtModule.registerAsync({
       inject: [ENV],
-      useFactory: (env: Env) => ({ secret: env.JWT_SECRET, signOptions: { expiresIn: env.SESSION_TTL_S, algorithm: 'HS256' } }),
+      useFactory: (env: Env) => ({ secret: env.JWT_SECRET, signOptions: { expiresIn: env.SESSION_TTL_S, algorithm: SESSION_ALGORITHM } }),
     }),
     // Only the sign-in route uses the throttler guard (see SignInThrottlerGuard).
     ThrottlerModule.forRootAsync({

@@ -4,7 +4,7 @@ import type { Request } from 'express';
 import { ExtractJwt, Strategy } from 'passport-jwt';
 import { ENV, type Env } from '../config/env.js';
 import { AuthService } from './auth.service.js';
-import { SESSION_COOKIE, type SessionToken, type SessionUser } from './session-user.js';
+import { SESSION_ALGORITHM, SESSION_COOKIE, type SessionToken, type SessionUser } from './session-user.js';
 
 const fromSessionCookie = (req: Request): string | null => {
   const value = (req.cookies as Record<string, string> | undefined)?.[SESSION_COOKIE];
@@ -18,11 +18,21 @@ export class JwtStrategy extends PassportStrategy(Strategy) {
     @Inject(ENV) env: Env,
     private readonly auth: AuthService,
   ) {
-    super({ jwtFromRequest: ExtractJwt.fromExtractors([fromSessionCookie]), secretOrKey: env.JWT_SECRET, ignoreExpiration: false });
+    super({
+      jwtFromRequest: ExtractJwt.fromExtractors([fromSessionCookie]),
+      secretOrKey: env.JWT_SECRET,
+      // Pinned: the library would otherwise accept every HMAC variant signed with the secret.
+      algorithms: [SESSION_ALGORITHM],
+      ignoreExpiration: false,
+    });
   }
 
-  /** Returning null makes passport answer 401: a deactivated or signed-out user's token stops working at once. */
+  /**
+   * Returning null makes passport answer 401: a token without an expiry or issue time (which
+   * would never expire, or escape sign-out), and a deactivated or signed-out user's token.
+   */
   async validate(payload: SessionToken): Promise<SessionUser | null> {
-    return this.auth.loadSessionUser(payload.sub, payload.iat ?? 0);
+    if (typeof payload.exp !== 'number' || typeof payload.iat !== 'number' || typeof payload.sub !== 'string') return null;
+    return this.auth.loadSessionUser(payload.sub, payload.iat);
   }
 }

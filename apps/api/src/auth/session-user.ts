@@ -14,8 +14,12 @@ export interface SessionUser {
 /** What the session cookie's JWT carries. */
 export interface SessionToken {
   sub: string;
-  /** Issued at, seconds since the epoch (set by the signer). */
+  /** Issued at and expiry, seconds since the epoch (set by the signer; a token lacking either is refused). */
   iat?: number;
+  exp?: number;
 }
+
+/** The one algorithm sessions are signed and verified with; a token in any other is refused. */
+export const SESSION_ALGORITHM = 'HS256';
 
 export const SESSION_COOKIE = 'tt_session';

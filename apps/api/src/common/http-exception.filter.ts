@@ -1,5 +1,6 @@
-import { type ArgumentsHost, Catch, type ExceptionFilter, HttpException, HttpStatus, Logger } from '@nestjs/common';
-import type { Response } from 'express';
+import { type ArgumentsHost, Catch, type ExceptionFilter, HttpException, HttpStatus } from '@nestjs/common';
+import type { Request, Response } from 'express';
+import { errorForLog } from '../logging/logger.js';
 import type { ErrorReply } from '@torquetrail/contracts';
 import { asAmendmentConflict } from './amendment-conflict.js';
 
@@ -14,14 +15,14 @@ const STATUS_TEXT: Record<number, string> = {
 };
 
 /**
- * Maps every error to the one ErrorReply shape; unexpected errors are logged, never leaked. A
- * second amendment refused by the database's unique index is a 409 (see amendment-conflict.ts).
+ * Maps every error to the one ErrorReply shape, with the request id; unexpected errors are logged
+ * (without query parameters or bodies: see errorForLog), never leaked. A second amendment refused
+ * by the database's unique index is a 409 (see amendment-conflict.ts).
  */
 @Catch()
 export class HttpExceptionFilter implements ExceptionFilter {
-  private readonly logger = new Logger('HttpExceptionFilter');
-
   catch(thrown: unknown, host: ArgumentsHost): void {
+    const req = host.switchToHttp().getRequest<Request>();
     const res = host.switchToHttp().getResponse<Response>();
     const exception = asAmendmentConflict(thrown);
     let reply: ErrorReply;
@@ -38,9 +39,9 @@ export class HttpExceptionFilter implements ExceptionFilter {
         ...(obj.fields ? { fields: obj.fields as Record<string, string> } : {}),
       };
     } else {
-      this.logger.error(exception instanceof Error ? exception.stack : String(exception));
+      req.log?.error({ err: errorForLog(exception) }, 'unexpected error');
       reply = { statusCode: HttpStatus.INTERNAL_SERVER_ERROR, error: STATUS_TEXT[500]!, message: 'Something went wrong on the server' };
     }
-    res.status(reply.statusCode).json(reply);
+    res.status(reply.statusCode).json({ ...reply, requestId: String(req.id) });
   }
 }

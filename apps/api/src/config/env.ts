@@ -32,6 +32,22 @@ const EnvSchema = z.object({
   REMINDER_RETRY_LIMIT: z.coerce.number().int().min(0).max(20).default(8),
   /** When the daily reminder scan runs (cron, UTC). */
   REMINDER_SCAN_CRON: z.string().default('0 6 * * *'),
+  /**
+   * Which proxies in front of the API to believe about the client's address and protocol
+   * (X-Forwarded-For/-Proto): Express's "trust proxy" setting — off by default; e.g. `1` (one
+   * load balancer), `loopback`, or a list of addresses/CIDRs. See docs/security.md.
+   */
+  TRUST_PROXY: z
+    .string()
+    .default('false')
+    .transform((v): boolean | number | string => (v === 'true' ? true : v === 'false' || v === '' ? false : /^\d+$/.test(v) ? Number(v) : v)),
+  /** Origins besides the app's own allowed to send state-changing requests (comma-separated), e.g. a separate web host. */
+  EXTRA_ORIGINS: z
+    .string()
+    .default('')
+    .transform((v) => v.split(',').map((o) => o.trim()).filter(Boolean)),
+  /** pino log level; `info` logs start-up and refused requests, `debug` every request. */
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   /** The built web app to serve from the same origin; unset in API-only tests. */
   WEB_DIST: z.string().optional(),
 });

@@ -1,11 +1,17 @@
-import { Controller, Get, Inject } from '@nestjs/common';
-import type { HealthReply } from '@torquetrail/contracts';
+import { Controller, Get, Inject, Res } from '@nestjs/common';
+import type { Response } from 'express';
+import type { HealthReply, LivenessReply } from '@torquetrail/contracts';
 import { Public } from '../common/public.decorator.js';
 import { DB, type Database } from '../db/database.js';
 import { MailService } from '../mail/mail.service.js';
 import { StorageService } from '../storage/storage.service.js';
-import { isDatabaseUp } from './health.repository.js';
+import { databaseAnswers } from './health.repository.js';
 
+/**
+ * Liveness and readiness, the usual split for an orchestrator or load balancer. Readiness needs
+ * the database and object storage (no clinical work is possible without them); mail is reported
+ * but not required, because every mail waits in the job queue until SMTP answers.
+ */
 @Controller('health')
 export class HealthController {
   constructor(
@@ -14,18 +20,21 @@ export class HealthController {
     private readonly mail: MailService,
   ) {}
 
-  /** Reports each backing service as up or down; never throws, so it answers even when they are down. */
   @Public()
-  @Get()
-  async check(): Promise<HealthReply> {
-    const [database, objectStorage, mail] = await Promise.all([
-      isDatabaseUp(this.db),
-      this.storage.isUp(),
-      this.mail.isUp(),
-    ]);
+  @Get('live')
+  live(): LivenessReply {
+    return { status: 'up' };
+  }
+
+  @Public()
+  @Get(['', 'ready'])
+  async ready(@Res({ passthrough: true }) res: Response): Promise<HealthReply> {
+    const [database, objectStorage, mail] = await Promise.all([databaseAnswers(this.db), this.storage.isUp(), this.mail.isUp()]);
     const state = (up: boolean): 'up' | 'down' => (up ? 'up' : 'down');
+    const ready = database && objectStorage;
+    res.status(ready ? 200 : 503);
     return {
-      status: state(database && objectStorage && mail),
+      status: state(ready),
       services: { database: state(database), objectStorage: state(objectStorage), mail: state(mail) },
     };
   }
