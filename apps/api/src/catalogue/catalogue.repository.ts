@@ -1,22 +1,7 @@
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
+import { componentSpecColumns } from '../db/catalogue-parts.js';
 import type { Db } from '../db/database.js';
 import { componentInstances, components, implantSystems, platforms, torqueWrenches } from '../db/schema/index.js';
-
-/** What a catalogue part is, as every feature that shows or checks parts selects it. */
-export const componentSpecColumns = {
-  id: components.id,
-  platformId: components.platformId,
-  kind: components.kind,
-  name: components.name,
-  referenceCode: components.referenceCode,
-  engaging: components.engaging,
-  angleDeg: components.angleDeg,
-  collarHeightMm: components.collarHeightMm,
-  tray: components.tray,
-  torqueSpecNcm: components.torqueSpecNcm,
-  tolerancePct: components.tolerancePct,
-  requiresLot: components.requiresLot,
-};
 
 const componentColumns = {
   ...componentSpecColumns,

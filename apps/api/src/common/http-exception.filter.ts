@@ -2,6 +2,7 @@ import { type ArgumentsHost, Catch, type ExceptionFilter, HttpException, HttpSta
 import type { Request, Response } from 'express';
 import { errorForLog } from '../logging/logger.js';
 import type { ErrorReply } from '@torquetrail/contracts';
+import { asAmendmentConflict } from './amendment-conflict.js';
 
 const STATUS_TEXT: Record<number, string> = {
   400: 'Bad Request',
@@ -15,13 +16,15 @@ const STATUS_TEXT: Record<number, string> = {
 
 /**
  * Maps every error to the one ErrorReply shape, with the request id; unexpected errors are logged
- * (without query parameters or bodies: see errorForLog), never leaked.
+ * (without query parameters or bodies: see errorForLog), never leaked. A second amendment refused
+ * by the database's unique index is a 409 (see amendment-conflict.ts).
  */
 @Catch()
 export class HttpExceptionFilter implements ExceptionFilter {
-  catch(exception: unknown, host: ArgumentsHost): void {
+  catch(thrown: unknown, host: ArgumentsHost): void {
     const req = host.switchToHttp().getRequest<Request>();
     const res = host.switchToHttp().getResponse<Response>();
+    const exception = asAmendmentConflict(thrown);
     let reply: ErrorReply;
     if (exception instanceof HttpException) {
       const status = exception.getStatus();

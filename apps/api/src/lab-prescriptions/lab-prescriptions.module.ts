@@ -1,6 +1,8 @@
 import { Module } from '@nestjs/common';
+import { RestorationsModule } from '../restorations/restorations.module.js';
 import { LabPrescriptionsController } from './lab-prescriptions.controller.js';
 import { LabPrescriptionsService } from './lab-prescriptions.service.js';
 
-@Module({ controllers: [LabPrescriptionsController], providers: [LabPrescriptionsService] })
+// The restoration and its sites come from RestorationsService (exported by its module).
+@Module({ imports: [RestorationsModule], controllers: [LabPrescriptionsController], providers: [LabPrescriptionsService] })
 export class LabPrescriptionsModule {}

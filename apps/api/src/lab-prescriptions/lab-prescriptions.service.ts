@@ -2,17 +2,15 @@ import { randomUUID } from 'node:crypto';
 import { Inject, Injectable, ServiceUnavailableException } from '@nestjs/common';
 import type { AppAbility } from '@torquetrail/authz';
 import type { LabPrescriptionSummary } from '@torquetrail/contracts';
-import { and, eq } from 'drizzle-orm';
 import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
+import { fieldError } from '../common/field-error.js';
 import { DB, type Database } from '../db/database.js';
-import { labPrescriptions, patients } from '../db/schema/index.js';
 import { MailService } from '../mail/mail.service.js';
-import { visiblePatients } from '../patients/patients.repository.js';
-import { fieldError } from '../restorations/plan-check.js';
-import { findVisiblePatientBrief, findVisibleRestoration, loadRestorationSites } from '../restorations/restorations.repository.js';
+import { RestorationsService } from '../restorations/restorations.service.js';
 import { StorageService } from '../storage/storage.service.js';
 import { renderLabPrescription } from './lab-prescription.pdf.js';
+import * as repo from './lab-prescriptions.repository.js';
 
 /** A file name safe in a Content-Disposition header and a mail attachment, whatever the chart number holds. */
 export const pdfFilename = (chartNumber: string) => `lab-prescription-${chartNumber.replace(/[^A-Za-z0-9_-]+/g, '_').slice(0, 40)}.pdf`;
@@ -25,6 +23,7 @@ export class LabPrescriptionsService {
     @Inject(DB) private readonly db: Database,
     private readonly storage: StorageService,
     private readonly mail: MailService,
+    private readonly restorations: RestorationsService,
   ) {}
 
   /**
@@ -32,10 +31,9 @@ export class LabPrescriptionsService {
    * transaction is open while S3 or SMTP is called: the row is written only once the object exists.
    */
   async generate(ability: AppAbility, user: SessionUser, scope: Scope, restorationId: string, emailToLab: boolean): Promise<LabPrescriptionSummary> {
-    const r = assertCan(ability, 'create', 'Restoration', await findVisibleRestoration(this.db, scope, restorationId), 'restoration');
+    const r = assertCan(ability, 'create', 'Restoration', await this.restorations.findVisible(scope, restorationId), 'restoration');
     if (emailToLab && !r.labEmail) throw fieldError({ emailToLab: 'The plan has no lab e-mail address' });
-    const patient = (await findVisiblePatientBrief(this.db, scope, r.patientId))!;
-    const { sites, parts } = await loadRestorationSites(this.db, [r.id]);
+    const { patient, sites } = await this.restorations.labSheet(scope, r);
     const id = randomUUID();
     const pdf = await renderLabPrescription({
       practiceName: patient.practiceName,
@@ -52,14 +50,11 @@ export class LabPrescriptionsService {
       labName: r.labName,
       notes: r.notes,
       issuedOn: new Date().toISOString().slice(0, 10),
-      sites: sites.map((s) => ({ ...s, parts: parts.filter((p) => p.restorationSiteId === s.id) })),
+      sites,
     });
     const objectKey = `practices/${r.practiceId}/lab-prescriptions/${id}.pdf`;
     await this.storage.put(objectKey, pdf, 'application/pdf');
-    const [row] = await this.db
-      .insert(labPrescriptions)
-      .values({ id, practiceId: r.practiceId, patientId: r.patientId, restorationId: r.id, objectKey, sizeBytes: pdf.length, createdBy: user.id })
-      .returning();
+    const row = await repo.insertLabPrescription(this.db, { id, practiceId: r.practiceId, patientId: r.patientId, restorationId: r.id, objectKey, sizeBytes: pdf.length, createdBy: user.id });
     let emailedAt: Date | null = null;
     if (emailToLab && r.labEmail) {
       try {
@@ -74,18 +69,13 @@ export class LabPrescriptionsService {
         throw new ServiceUnavailableException('The lab prescription was saved, but the e-mail to the lab could not be sent; try again later');
       }
       emailedAt = new Date();
-      await this.db.update(labPrescriptions).set({ emailedTo: r.labEmail, emailedAt }).where(eq(labPrescriptions.id, id));
+      await repo.markEmailed(this.db, id, r.labEmail, emailedAt);
     }
-    return { id, sizeBytes: pdf.length, emailedTo: emailedAt ? r.labEmail : null, emailedAt: emailedAt?.toISOString() ?? null, createdAt: row!.createdAt.toISOString() };
+    return { id, sizeBytes: pdf.length, emailedTo: emailedAt ? r.labEmail : null, emailedAt: emailedAt?.toISOString() ?? null, createdAt: row.createdAt.toISOString() };
   }
 
   async download(ability: AppAbility, scope: Scope, id: string): Promise<{ pdf: Buffer; filename: string }> {
-    const [row] = await this.db
-      .select({ id: labPrescriptions.id, practiceId: labPrescriptions.practiceId, patientId: labPrescriptions.patientId, objectKey: labPrescriptions.objectKey, chartNumber: patients.chartNumber })
-      .from(labPrescriptions)
-      .innerJoin(patients, eq(patients.id, labPrescriptions.patientId))
-      .where(and(eq(labPrescriptions.id, id), visiblePatients(scope)));
-    const found = assertCan(ability, 'read', 'Restoration', row, 'lab prescription');
+    const found = assertCan(ability, 'read', 'Restoration', await repo.findVisibleLabPrescription(this.db, scope, id), 'lab prescription');
     return { pdf: await this.storage.get(found.objectKey), filename: pdfFilename(found.chartNumber) };
   }
 }

@@ -1,14 +1,9 @@
-import { and, asc, eq, ilike, inArray, or, sql, type SQL } from 'drizzle-orm';
+import { and, asc, eq, ilike, or, sql, type SQL } from 'drizzle-orm';
 import type { Db } from '../db/database.js';
 import { implantSites, implantSystems, patients, placements, platforms, practices } from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
+import { visiblePatients } from '../authz/visible-patients.js';
 import { isCurrentVersion } from '../db/amendments.js';
-
-/** Patients of the user's practice, plus patients of other practices shared with them. */
-export function visiblePatients(scope: Scope): SQL {
-  const own = eq(patients.practiceId, scope.practiceId);
-  return scope.sharedPatientIds.length > 0 ? or(own, inArray(patients.id, [...scope.sharedPatientIds]))! : own;
-}
 
 const escapeLike = (text: string) => text.replace(/[\\%_]/g, (c) => `\\${c}`);
 

@@ -3,12 +3,15 @@ import { type AppAbility, subject } from '@torquetrail/authz';
 import type { PatientDetail, PatientListReply } from '@torquetrail/contracts';
 import { assertCan, type Scope } from '../authz/scope.js';
 import { DB, type Database } from '../db/database.js';
-import { latestExamBySite } from '../recalls/exams.repository.js';
+import { MaintenanceStatusService } from '../recalls/maintenance-status.service.js';
 import { findVisiblePatient, listPatients, listSitesOfPatient } from './patients.repository.js';
 
 @Injectable()
 export class PatientsService {
-  constructor(@Inject(DB) private readonly db: Database) {}
+  constructor(
+    @Inject(DB) private readonly db: Database,
+    private readonly maintenance: MaintenanceStatusService,
+  ) {}
 
   async list(scope: Scope, search?: string): Promise<PatientListReply> {
     return { items: await listPatients(this.db, scope, search) };
@@ -17,7 +20,7 @@ export class PatientsService {
   async detail(ability: AppAbility, scope: Scope, id: string): Promise<PatientDetail> {
     const patient = assertCan(ability, 'read', 'Patient', await findVisiblePatient(this.db, scope, id), 'patient');
     const sites = (await listSitesOfPatient(this.db, patient.id)).filter((site) => ability.can('read', subjectOf(site)));
-    const exams = ability.can('read', subject('RecallExam', { practiceId: patient.practiceId, patientId: patient.id })) ? await latestExamBySite(this.db, sites.map((s) => s.id)) : new Map();
+    const exams = ability.can('read', subject('RecallExam', { practiceId: patient.practiceId, patientId: patient.id })) ? await this.maintenance.latestBySite(sites.map((s) => s.id)) : new Map();
     return {
       id: patient.id,
       practiceId: patient.practiceId,

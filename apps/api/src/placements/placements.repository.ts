@@ -1,9 +1,25 @@
-import { and, asc, eq, inArray, notInArray, sql } from 'drizzle-orm';
+import { and, asc, eq, inArray, notInArray } from 'drizzle-orm';
 import type { Db, Tx } from '../db/database.js';
 import { componentInstances, components, implantSites, implantSystems, patients, placements, platforms, users } from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
-import { visiblePatients } from '../patients/patients.repository.js';
-import { supersededById } from '../db/amendments.js';
+import { visiblePatients } from '../authz/visible-patients.js';
+import { insertAmendment, supersededById } from '../db/amendments.js';
+
+/** A patient the user may see (scoped in SQL), with the practice a new site belongs to. */
+export async function findVisiblePatient(db: Db, scope: Scope, patientId: string) {
+  const [row] = await db.select({ id: patients.id, practiceId: patients.practiceId }).from(patients).where(and(eq(patients.id, patientId), visiblePatients(scope)));
+  return row ?? null;
+}
+
+/** A site whose patient the user may see, with its position and status. */
+export async function findVisibleSite(db: Db, scope: Scope, siteId: string) {
+  const [row] = await db
+    .select({ id: implantSites.id, practiceId: implantSites.practiceId, patientId: implantSites.patientId, fdi: implantSites.fdi, status: implantSites.status })
+    .from(implantSites)
+    .innerJoin(patients, eq(patients.id, implantSites.patientId))
+    .where(and(eq(implantSites.id, siteId), visiblePatients(scope)));
+  return row ?? null;
+}
 
 /** The live site (not failed, not removed) of a patient at an FDI position; a unique index keeps it to one. */
 export async function findLiveSiteAt(db: Db, practiceId: string, patientId: string, fdi: number) {
@@ -75,6 +91,9 @@ export async function insertPlacement(tx: Tx, v: PlacementValues) {
   return row!.id;
 }
 
+/** A new version of a placement; a second amendment of one version is refused by the database. */
+export const insertPlacementAmendment = (db: Db, v: PlacementValues & { supersedesId: string; amendmentReason: string }) => insertAmendment(db, placements, v);
+
 export async function insertClosurePart(tx: Tx, v: typeof componentInstances.$inferInsert) {
   const [row] = await tx.insert(componentInstances).values(v).returning({ id: componentInstances.id });
   return row!.id;
@@ -96,16 +115,6 @@ export async function findVisiblePlacement(db: Db, scope: Scope, id: string) {
     .innerJoin(patients, eq(patients.id, placements.patientId))
     .where(and(eq(placements.id, id), visiblePatients(scope)));
   return row ?? null;
-}
-
-/** Locks a placement until the transaction ends: of two amendments of it only the first is saved. */
-export async function lockPlacement(tx: Tx, id: string) {
-  await tx.select({ id: placements.id }).from(placements).where(eq(placements.id, id)).for('update');
-}
-
-export async function isSuperseded(db: Db, id: string) {
-  const [row] = await db.select({ id: placements.id }).from(placements).where(eq(placements.supersedesId, id)).limit(1);
-  return Boolean(row);
 }
 
 export async function loadPlacement(db: Db, id: string) {

@@ -1,5 +1,5 @@
 import { ConflictException, Inject, Injectable } from '@nestjs/common';
-import { type AppAbility, subject } from '@torquetrail/authz';
+import type { AppAbility } from '@torquetrail/authz';
 import {
   type AddSiteBody,
   type ArchSite,
@@ -14,10 +14,10 @@ import { UdiError, checkUdiForPlacement, fdiToUniversal, isPrimaryTooth, isValid
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
+import { alreadyAmended } from '../common/amendment-conflict.js';
+import { fieldError } from '../common/field-error.js';
+import { isUniqueViolation } from '../common/postgres-error.js';
 import { DB, type Database, type Db } from '../db/database.js';
-import { findVisiblePatient } from '../patients/patients.repository.js';
-import { fieldError } from '../restorations/plan-check.js';
-import { findVisibleSite } from '../sites/sites.repository.js';
 import * as repo from './placements.repository.js';
 
 type PlacementFields = z.output<typeof PlacementBody> | z.output<typeof PlacementAmendmentBody>;
@@ -27,8 +27,6 @@ type PlacementFields = z.output<typeof PlacementBody> | z.output<typeof Placemen
  * placement of its own today, and no placement dated after that can have happened yet.
  */
 const latestPossibleToday = () => new Date(Date.now() + 14 * 3_600_000).toISOString().slice(0, 10);
-
-const isUniqueViolation = (e: unknown): boolean => typeof e === 'object' && e !== null && ((e as { code?: string }).code === '23505' || isUniqueViolation((e as { cause?: unknown }).cause));
 
 function assertSiteCurrent(status: string | undefined) {
   if (status !== 'planned') throw new ConflictException(`This site is ${status ?? 'gone'}, not planned: amend the recorded placement instead`);
@@ -40,7 +38,7 @@ export class PlacementsService {
 
   /** A planned site at a permanent FDI position where the patient has no live site (a failed or removed one may be there). */
   async addSite(ability: AppAbility, scope: Scope, patientId: string, body: z.output<typeof AddSiteBody>): Promise<ArchSite> {
-    const patient = assertCan(ability, 'read', 'Patient', await findVisiblePatient(this.db, scope, patientId), 'patient');
+    const patient = assertCan(ability, 'read', 'Patient', await repo.findVisiblePatient(this.db, scope, patientId), 'patient');
     const row = { practiceId: patient.practiceId, patientId: patient.id };
     assertCan(ability, 'create', 'ImplantSite', row, 'patient');
     if (!isValidFdi(body.fdi)) throw fieldError({ fdi: `${body.fdi} is not an FDI (ISO 3950) tooth position` });
@@ -60,8 +58,7 @@ export class PlacementsService {
   }
 
   private async placeableSite(ability: AppAbility, scope: Scope, siteId: string) {
-    const site = await findVisibleSite(this.db, scope, siteId);
-    return assertCan(ability, 'create', 'Placement', site && { id: site.id, practiceId: site.practiceId, patientId: site.patientId, fdi: site.fdi, status: site.status }, 'implant site');
+    return assertCan(ability, 'create', 'Placement', await repo.findVisibleSite(this.db, scope, siteId), 'implant site');
   }
 
   /** The catalogue of the site's practice, reduced to what a placement needs. */
@@ -147,26 +144,22 @@ export class PlacementsService {
   /** An amendment is a new row superseding the old one; the old row is never updated. */
   async amend(ability: AppAbility, user: SessionUser, scope: Scope, id: string, body: z.output<typeof PlacementAmendmentBody>): Promise<PlacementRecord> {
     const old = assertCan(ability, 'amend', 'Placement', await repo.findVisiblePlacement(this.db, scope, id), 'placement');
-    if (old.supersededById) throw new ConflictException('This placement was already amended; amend the current version');
+    if (old.supersededById) throw alreadyAmended('placements');
     const fields: Record<string, string> = {};
     const lot = await this.checkFields(this.db, old.practiceId, body, fields);
     if (Object.keys(fields).length > 0) throw fieldError(fields);
-    const newId = await this.db.transaction(async (tx) => {
-      // Re-read under the lock: of two concurrent amendments of one placement only the first is saved.
-      await repo.lockPlacement(tx, old.id);
-      if (await repo.isSuperseded(tx, old.id)) throw new ConflictException('This placement was already amended; amend the current version');
-      return repo.insertPlacement(tx, {
-        ...this.values(body, lot),
-        practiceId: old.practiceId,
-        patientId: old.patientId,
-        siteId: old.siteId,
-        // The surgeon who placed stays the surgeon; the amendment records who corrected it.
-        surgeonUserId: old.surgeonUserId,
-        surgeonName: old.surgeonName,
-        supersedesId: old.id,
-        amendmentReason: body.amendmentReason,
-        recordedBy: user.id,
-      });
+    // Of two concurrent amendments of one placement the database saves the first (insertAmendment).
+    const newId = await repo.insertPlacementAmendment(this.db, {
+      ...this.values(body, lot),
+      practiceId: old.practiceId,
+      patientId: old.patientId,
+      siteId: old.siteId,
+      // The surgeon who placed stays the surgeon; the amendment records who corrected it.
+      surgeonUserId: old.surgeonUserId,
+      surgeonName: old.surgeonName,
+      supersedesId: old.id,
+      amendmentReason: body.amendmentReason,
+      recordedBy: user.id,
     });
     return this.reply(newId, null);
   }

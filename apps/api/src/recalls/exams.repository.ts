@@ -1,12 +1,12 @@
 // SQL for recall exams. Scope is applied by the callers' patient/site look-ups (visiblePatients).
 import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm';
 import type { RecallExam } from '@torquetrail/contracts';
-import type { Db } from '../db/database.js';
+import type { Db, Tx } from '../db/database.js';
 import { implantSites, patients, recallExams, recallExamSites, recallPolicies, recalls, users } from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
-import { visiblePatients } from '../patients/patients.repository.js';
+import { visiblePatients } from '../authz/visible-patients.js';
 import { inChartOrder, type ProbedSite } from './exam-rules.js';
-import { isAmended, isCurrentVersion } from '../db/amendments.js';
+import { insertAmendment, isAmended, isCurrentVersion } from '../db/amendments.js';
 
 /** Not superseded by an amendment. */
 // Qualified by hand: drizzle leaves columns unqualified in single-table selects, and an unqualified
@@ -78,7 +78,7 @@ export function toContract(row: ExamRow): RecallExam {
 
 /**
  * Latest current exam per site: the status and date for the Arch ring and the Site file
- * (used by patients.service and sites.service).
+ * (served to the patients and sites features by MaintenanceStatusService).
  */
 export async function latestExamBySite(db: Db, siteIds: string[]): Promise<Map<string, { status: 'health' | 'mucositis' | 'peri-implantitis'; examinedOn: string }>> {
   if (siteIds.length === 0) return new Map();
@@ -166,11 +166,32 @@ export interface NewExam {
   sites: ProbedSite[];
 }
 
-export async function insertExam(db: Db, exam: NewExam & { supersedesId?: string; amendmentReason?: string }): Promise<string> {
+export async function insertExam(db: Db, exam: NewExam): Promise<string> {
   const { sites, ...row } = exam;
   const [inserted] = await db.insert(recallExams).values(row).returning({ id: recallExams.id });
-  await db.insert(recallExamSites).values(sites.map((s) => ({ practiceId: exam.practiceId, examId: inserted!.id, ...s })));
+  await insertProbedSites(db, exam.practiceId, inserted!.id, sites);
   return inserted!.id;
+}
+
+/** A new version of an exam; a second amendment of one version is refused by the database. */
+export async function insertExamAmendment(tx: Tx, exam: NewExam & { supersedesId: string; amendmentReason: string }): Promise<string> {
+  const { sites, ...row } = exam;
+  const id = await insertAmendment(tx, recallExams, row);
+  await insertProbedSites(tx, exam.practiceId, id, sites);
+  return id;
+}
+
+async function insertProbedSites(db: Db, practiceId: string, examId: string, sites: ProbedSite[]) {
+  await db.insert(recallExamSites).values(sites.map((s) => ({ practiceId, examId, ...s })));
+}
+
+/**
+ * Serialises the exam history of one patient until the transaction ends: visits and amendments
+ * read the earlier exams (baseline) and reschedule the one recall only after taking it, so two
+ * saves cannot both schedule a recall or both compare with a history the other is changing.
+ */
+export async function lockExamHistory(tx: Tx, patientId: string): Promise<void> {
+  await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${`recall-visit:${patientId}`}))`);
 }
 
 export async function findExamsByIds(db: Db, ids: string[]): Promise<ExamRow[]> {

@@ -1,11 +1,12 @@
 import { randomUUID } from 'node:crypto';
-import { BadRequestException, ConflictException, Inject, Injectable } from '@nestjs/common';
-import { sql } from 'drizzle-orm';
+import { Inject, Injectable } from '@nestjs/common';
 import { type AppAbility, subject } from '@torquetrail/authz';
 import { AmendExamBody as AmendExamSchema, CreateVisitBody as CreateVisitSchema, type CreateVisitReply, type RecallExam, type ExamContext, type SiteExamHistory } from '@torquetrail/contracts';
 import { classifyPeriImplant, DEFAULT_BONE_LOSS_MM, DEFAULT_PD_INCREASE_MM, DomainError, nextRecallDate, RULES_VERSION } from '@torquetrail/domain';
 import type { z } from 'zod';
 import { assertCan, type Scope } from '../authz/scope.js';
+import { alreadyAmended } from '../common/amendment-conflict.js';
+import { fieldError } from '../common/field-error.js';
 import { DB, type Database, type Tx } from '../db/database.js';
 import { chooseBaseline, inChartOrder, latestOf, toDomainBaseline, toDomainExam } from './exam-rules.js';
 import {
@@ -16,9 +17,11 @@ import {
   findVisibleSiteForRecall,
   hadPeriImplantitis,
   insertExam,
+  insertExamAmendment,
   latestExamDateOfPatient,
   listExamsOfSites,
   listSitesForExam,
+  lockExamHistory,
   rescheduleRecall,
   toContract,
 } from './exams.repository.js';
@@ -27,8 +30,6 @@ import { RecallClock } from './recall-clock.js';
 const EXAMINABLE = new Set(['placed', 'restored']);
 /** The thresholds handed to classifyPeriImplant, stored beside each verdict. */
 const RULE_OPTIONS = { pdIncreaseMm: DEFAULT_PD_INCREASE_MM, boneLossMm: DEFAULT_BONE_LOSS_MM };
-
-const badField = (field: string, message: string) => new BadRequestException({ message: `${field}: ${message}`, fields: { [field]: message } });
 
 @Injectable()
 export class ExamsService {
@@ -81,18 +82,19 @@ export class ExamsService {
    */
   async createVisit(ability: AppAbility, scope: Scope, examinerId: string, body: z.infer<typeof CreateVisitSchema>): Promise<CreateVisitReply> {
     const patient = assertCan(ability, 'create', 'RecallExam', await findVisiblePatientForRecall(this.db, scope, body.patientId).then((p) => (p ? { ...p, patientId: p.id } : null)), 'patient');
-    if (body.examinedOn > this.clock.today()) throw badField('examinedOn', 'an exam cannot be dated in the future');
+    if (body.examinedOn > this.clock.today()) throw fieldError({ examinedOn: 'an exam cannot be dated in the future' });
 
     return this.db.transaction(async (tx) => {
+      // Serialise visits of one patient before reading their history, so two saves cannot both
+      // schedule a recall or choose a baseline from exams the other is adding.
+      await lockExamHistory(tx, patient.id);
       const sites = new Map((await listSitesForExam(tx, patient.id)).map((s) => [s.siteId, s]));
       body.exams.forEach((exam, i) => {
         const site = sites.get(exam.siteId);
-        if (!site) throw badField(`exams.${i}.siteId`, 'not an implant site of this patient');
-        if (!EXAMINABLE.has(site.status)) throw badField(`exams.${i}.siteId`, `the implant at ${site.fdi} is ${site.status}: only placed or restored implants are examined`);
+        if (!site) throw fieldError({ [`exams.${i}.siteId`]: 'not an implant site of this patient' });
+        if (!EXAMINABLE.has(site.status)) throw fieldError({ [`exams.${i}.siteId`]: `the implant at ${site.fdi} is ${site.status}: only placed or restored implants are examined` });
       });
       const earlier = await listExamsOfSites(tx, body.exams.map((e) => e.siteId));
-      // Serialise visits of one patient so two saves cannot both schedule a recall.
-      await tx.execute(sqlLock(patient.id));
 
       const visitId = randomUUID();
       const ids: string[] = [];
@@ -105,7 +107,7 @@ export class ExamsService {
         try {
           verdict = classifyPeriImplant(toDomainExam({ sites: probes, boneLevelMm: exam.boneLevelMm }), toDomainBaseline(baseline), RULE_OPTIONS);
         } catch (error) {
-          if (error instanceof DomainError) throw badField(`exams.${i}`, error.message);
+          if (error instanceof DomainError) throw fieldError({ [`exams.${i}`]: error.message });
           throw error;
         }
         anyPeriImplantitis ||= verdict.status === 'peri-implantitis';
@@ -168,12 +170,12 @@ export class ExamsService {
   /** An amendment: a new exam superseding the old one, with the reason; recomputed and rescheduled in one transaction. */
   async amend(ability: AppAbility, scope: Scope, examinerId: string, examId: string, body: z.infer<typeof AmendExamSchema>): Promise<RecallExam> {
     const old = assertCan(ability, 'amend', 'RecallExam', await findVisibleExam(this.db, scope, examId), 'exam');
-    if (old.superseded) throw new ConflictException('This exam has already been amended; amend its latest version');
+    if (old.superseded) throw alreadyAmended('recall_exams');
     const patient = (await findVisiblePatientForRecall(this.db, scope, old.patientId))!;
     return this.db.transaction(async (tx) => {
-      await tx.execute(sqlLock(patient.id));
-      // Checked again under the patient's lock: of two concurrent amendments of one exam only the first is saved.
-      if ((await findVisibleExam(tx, scope, examId))!.superseded) throw new ConflictException('This exam has already been amended; amend its latest version');
+      // The history lock keeps the rescheduling to one at a time; of two amendments of one exam
+      // the unique index on supersedes_id saves the first (insertExamAmendment).
+      await lockExamHistory(tx, patient.id);
       const site = (await listSitesForExam(tx, patient.id)).find((s) => s.siteId === old.siteId)!;
       const earlier = (await listExamsOfSites(tx, [site.siteId])).filter((e) => e.id !== old.id);
       const probes = inChartOrder(body.sites);
@@ -182,10 +184,10 @@ export class ExamsService {
       try {
         verdict = classifyPeriImplant(toDomainExam({ sites: probes, boneLevelMm: body.boneLevelMm }), toDomainBaseline(baseline), RULE_OPTIONS);
       } catch (error) {
-        if (error instanceof DomainError) throw badField('sites', error.message);
+        if (error instanceof DomainError) throw fieldError({ sites: error.message });
         throw error;
       }
-      const id = await insertExam(tx, {
+      const id = await insertExamAmendment(tx, {
         practiceId: old.practiceId,
         patientId: old.patientId,
         siteId: old.siteId,
@@ -217,5 +219,3 @@ export class ExamsService {
 }
 
 type RecallPatient = NonNullable<Awaited<ReturnType<typeof findVisiblePatientForRecall>>>;
-
-const sqlLock = (patientId: string) => sql`select pg_advisory_xact_lock(hashtext(${`recall-visit:${patientId}`}))`;

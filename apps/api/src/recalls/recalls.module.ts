@@ -1,6 +1,7 @@
 import { Module } from '@nestjs/common';
 import { DeskService } from './desk.service.js';
 import { ExamsService } from './exams.service.js';
+import { MaintenanceStatusService } from './maintenance-status.service.js';
 import { RecallAdminController } from './recall-admin.controller.js';
 import { RecallClock } from './recall-clock.js';
 import { RecallsController } from './recalls.controller.js';
@@ -8,7 +9,7 @@ import { RemindersService } from './reminders.service.js';
 
 @Module({
   controllers: [RecallsController, RecallAdminController],
-  providers: [RecallClock, DeskService, ExamsService, RemindersService],
-  exports: [RecallClock, RemindersService],
+  providers: [RecallClock, DeskService, ExamsService, RemindersService, MaintenanceStatusService],
+  exports: [RecallClock, RemindersService, MaintenanceStatusService],
 })
 export class RecallsModule {}

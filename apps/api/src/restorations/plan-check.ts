@@ -1,8 +1,8 @@
 // Server-side check of a plan: the parts must exist in the practice's catalogue, be of the right
 // kind and fit the site's platform; then the same `validateRestorationPlan` the web runs live.
-import { BadRequestException } from '@nestjs/common';
 import { type PlanBodyParsed, findingField } from '@torquetrail/contracts';
 import { type Finding, type RestorationPlan, ValidationError, type Vec3, validateRestorationPlan } from '@torquetrail/domain';
+import { fieldError } from '../common/field-error.js';
 import type { RestorableSiteRow } from './restorations.repository.js';
 
 export interface CatalogueRow {
@@ -30,9 +30,6 @@ export interface CheckedPlan {
   findings: Finding[];
   sites: CheckedSite[];
 }
-
-export const fieldError = (fields: Record<string, string>, message?: string) =>
-  new BadRequestException({ message: message ?? Object.entries(fields).map(([k, v]) => `${k}: ${v}`).join('; '), fields });
 
 const SLOT_KINDS: Record<'abutmentComponentId' | 'multiUnitComponentId' | 'screwComponentIds' | 'impressionCopingComponentId', string[]> = {
   abutmentComponentId: ['abutment-stock', 'abutment-custom', 'abutment-angled'],

@@ -1,6 +1,7 @@
-import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, isNull, ne, or } from 'drizzle-orm';
 import type { Db, Tx } from '../db/database.js';
 import {
+  componentInstances,
   components,
   findingAcknowledgements,
   implantSites,
@@ -16,9 +17,9 @@ import {
   users,
 } from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
-import { visiblePatients } from '../patients/patients.repository.js';
-import { componentSpecColumns } from '../catalogue/catalogue.repository.js';
-import { isCurrentVersion, supersededById } from '../db/amendments.js';
+import { visiblePatients } from '../authz/visible-patients.js';
+import { componentSpecColumns } from '../db/catalogue-parts.js';
+import { insertAmendment, isCurrentVersion, supersededById } from '../db/amendments.js';
 
 const notSuperseded = isCurrentVersion(placements);
 
@@ -107,11 +108,20 @@ export async function findVisibleRestoration(db: Db, scope: Scope, id: string) {
 export type RestorationRow = NonNullable<Awaited<ReturnType<typeof findVisibleRestoration>>>;
 
 /**
- * Locks one restoration version until the transaction ends: amendments and the delivery of one
- * version then run one after the other, and each re-reads the version after taking the lock.
+ * Locks one restoration version for its delivery until the transaction ends: a concurrent
+ * delivery or amendment of the version waits, and the delivery re-reads it after the lock.
  */
 export async function lockRestoration(tx: Tx, id: string) {
   await tx.select({ id: restorations.id }).from(restorations).where(eq(restorations.id, id)).for('update');
+}
+
+/**
+ * Share-locks one version for an amendment: a delivery of it waits until the amendment ends (and
+ * the amendment, re-reading after the lock, sees a delivery committed before). Two amendments do
+ * not wait for each other here; the unique index on supersedes_id decides between them.
+ */
+export async function shareLockRestoration(tx: Tx, id: string) {
+  await tx.select({ id: restorations.id }).from(restorations).where(eq(restorations.id, id)).for('share');
 }
 
 export async function listRestorationsOfPatient(db: Db, patientId: string) {
@@ -183,4 +193,86 @@ export async function loadLabPrescriptions(db: Db, restorationIds: string[]) {
     .from(labPrescriptions)
     .where(inArray(labPrescriptions.restorationId, restorationIds))
     .orderBy(desc(labPrescriptions.createdAt));
+}
+
+/** Parts of the practice's catalogue by id (another practice's ids are simply not found). */
+export async function findCatalogueParts(db: Db, practiceId: string, ids: string[]) {
+  if (ids.length === 0) return [];
+  return db
+    .select(componentSpecColumns)
+    .from(components)
+    .where(and(eq(components.practiceId, practiceId), inArray(components.id, ids)));
+}
+
+type RestorationValues = typeof restorations.$inferInsert;
+type ComponentKind = (typeof components.$inferSelect)['kind'];
+
+export async function insertRestoration(tx: Tx, v: RestorationValues) {
+  const [row] = await tx.insert(restorations).values(v).returning({ id: restorations.id });
+  return row!.id;
+}
+
+/** A new version of a plan; a second amendment of one version is refused by the database. */
+export const insertRestorationAmendment = (tx: Tx, v: RestorationValues & { supersedesId: string; amendmentReason: string }) => insertAmendment(tx, restorations, v);
+
+export async function insertRestorationSite(tx: Tx, v: typeof restorationSites.$inferInsert) {
+  const [row] = await tx.insert(restorationSites).values(v).returning({ id: restorationSites.id });
+  return row!.id;
+}
+
+export async function insertSiteComponents(tx: Tx, rows: (typeof restorationSiteComponents.$inferInsert)[]) {
+  if (rows.length > 0) await tx.insert(restorationSiteComponents).values(rows);
+}
+
+export async function insertAcknowledgements(tx: Tx, rows: (typeof findingAcknowledgements.$inferInsert)[]) {
+  if (rows.length > 0) await tx.insert(findingAcknowledgements).values(rows);
+}
+
+/** Parts of the given kinds still in place at the sites get `removedOn`. */
+export async function removePartsOfKinds(tx: Tx, siteIds: string[], kinds: readonly ComponentKind[], on: string) {
+  const found = await tx
+    .select({ id: componentInstances.id })
+    .from(componentInstances)
+    .innerJoin(components, eq(components.id, componentInstances.componentId))
+    .where(and(inArray(componentInstances.siteId, siteIds), isNull(componentInstances.removedOn), inArray(components.kind, [...kinds])));
+  if (found.length > 0) await tx.update(componentInstances).set({ removedOn: on }).where(inArray(componentInstances.id, found.map((h) => h.id)));
+}
+
+/** Restorations delivered at any of the sites, other than the one given. */
+export async function findDeliveredAt(tx: Tx, siteIds: string[], exceptId: string) {
+  const rows = await tx
+    .selectDistinct({ id: restorations.id })
+    .from(restorations)
+    .innerJoin(restorationSites, eq(restorationSites.restorationId, restorations.id))
+    .where(and(inArray(restorationSites.siteId, siteIds), eq(restorations.status, 'delivered'), ne(restorations.id, exceptId)));
+  return rows.map((r) => r.id);
+}
+
+/**
+ * The restorations become 'removed'; their parts still in place come out (`removedOn`) at the
+ * given sites, and parts of the given kinds come out at every site they span.
+ */
+export async function removeRestorations(tx: Tx, ids: string[], siteIds: string[], everywhereKinds: readonly ComponentKind[], on: string) {
+  await tx.update(restorations).set({ status: 'removed' }).where(inArray(restorations.id, ids));
+  const everywhere = tx.select({ id: components.id }).from(components).where(inArray(components.kind, [...everywhereKinds]));
+  await tx
+    .update(componentInstances)
+    .set({ removedOn: on })
+    .where(
+      and(
+        inArray(componentInstances.restorationId, ids),
+        isNull(componentInstances.removedOn),
+        or(inArray(componentInstances.siteId, siteIds), inArray(componentInstances.componentId, everywhere)),
+      ),
+    );
+}
+
+export async function installParts(tx: Tx, rows: (typeof componentInstances.$inferInsert)[]) {
+  await tx.insert(componentInstances).values(rows);
+}
+
+/** The version is delivered; its sites are restored. */
+export async function markDelivered(tx: Tx, id: string, siteIds: string[], v: { deliveredOn: string; impressionTakenOn: string | null }) {
+  await tx.update(restorations).set({ status: 'delivered', deliveredOn: v.deliveredOn, impressionTakenOn: v.impressionTakenOn }).where(eq(restorations.id, id));
+  await tx.update(implantSites).set({ status: 'restored' }).where(inArray(implantSites.id, siteIds));
 }

@@ -2,14 +2,13 @@ import { ConflictException, Inject, Injectable } from '@nestjs/common';
 import { type AppAbility, subject } from '@torquetrail/authz';
 import type { DeliveryBody, PlanAmendmentBody, PlanBody, RestorableSitesReply, RestorationDetail, RestorationListReply } from '@torquetrail/contracts';
 import { RULES_VERSION, fdiToUniversal } from '@torquetrail/domain';
-import { and, eq, inArray, isNull, ne, or } from 'drizzle-orm';
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
+import { alreadyAmended } from '../common/amendment-conflict.js';
+import { fieldError } from '../common/field-error.js';
 import { DB, type Database, type Tx } from '../db/database.js';
-import { componentInstances, components, findingAcknowledgements, implantSites, restorationSiteComponents, restorationSites, restorations } from '../db/schema/index.js';
-import { findComponents } from '../catalogue/catalogue.repository.js';
-import { checkPlan, fieldError } from './plan-check.js';
+import { checkPlan } from './plan-check.js';
 import * as repo from './restorations.repository.js';
 
 type PlanInput = z.output<typeof PlanBody>;
@@ -28,31 +27,19 @@ const RETAINING_KINDS = ['prosthetic-screw', 'set-screw'] as const;
  * removedOn. Abutments and multi-units at its other sites stay in place.
  */
 async function retirePreviousRestorations(tx: Tx, restorationId: string, siteIds: string[], on: string) {
-  const previous = await tx
-    .selectDistinct({ id: restorations.id })
-    .from(restorations)
-    .innerJoin(restorationSites, eq(restorationSites.restorationId, restorations.id))
-    .where(and(inArray(restorationSites.siteId, siteIds), eq(restorations.status, 'delivered'), ne(restorations.id, restorationId)));
-  if (previous.length === 0) return;
-  const ids = previous.map((p) => p.id);
-  await tx.update(restorations).set({ status: 'removed' }).where(inArray(restorations.id, ids));
-  const retaining = tx.select({ id: components.id }).from(components).where(inArray(components.kind, [...RETAINING_KINDS]));
-  await tx
-    .update(componentInstances)
-    .set({ removedOn: on })
-    .where(
-      and(
-        inArray(componentInstances.restorationId, ids),
-        isNull(componentInstances.removedOn),
-        or(inArray(componentInstances.siteId, siteIds), inArray(componentInstances.componentId, retaining)),
-      ),
-    );
+  const previous = await repo.findDeliveredAt(tx, siteIds, restorationId);
+  if (previous.length > 0) await repo.removeRestorations(tx, previous, siteIds, RETAINING_KINDS, on);
+}
+
+/** Only a plan not yet delivered is re-planned. */
+function assertStillPlanned(row: repo.RestorationRow) {
+  if (row.status !== 'planned') throw new ConflictException('A delivered restoration is not re-planned; record a complication or a new restoration');
 }
 
 /** Only the current version of a plan not yet delivered is amended. */
 function assertAmendable(row: repo.RestorationRow) {
-  if (row.supersededById) throw new ConflictException('This version was already amended; amend the current version');
-  if (row.status !== 'planned') throw new ConflictException('A delivered restoration is not re-planned; record a complication or a new restoration');
+  if (row.supersededById) throw alreadyAmended('restorations');
+  assertStillPlanned(row);
 }
 
 /** Only the current version of a plan is delivered, and only once. */
@@ -64,12 +51,6 @@ function assertDeliverable(row: repo.RestorationRow) {
 @Injectable()
 export class RestorationsService {
   constructor(@Inject(DB) private readonly db: Database) {}
-
-  /** Locks the version, then reads it again: a concurrent amendment or delivery committed meanwhile is seen. */
-  private async lockVersion(tx: Tx, scope: Scope, id: string): Promise<repo.RestorationRow> {
-    await repo.lockRestoration(tx, id);
-    return (await repo.findVisibleRestoration(tx, scope, id))!;
-  }
 
   private async visiblePatient(ability: AppAbility, scope: Scope, patientId: string) {
     return assertCan(ability, 'read', 'Patient', await repo.findVisiblePatientBrief(this.db, scope, patientId), 'patient');
@@ -120,7 +101,10 @@ export class RestorationsService {
     assertAmendable(old);
     const patient = (await repo.findVisiblePatientBrief(this.db, scope, old.patientId))!;
     const newId = await this.db.transaction(async (tx) => {
-      assertAmendable(await this.lockVersion(tx, scope, old.id));
+      // The lock keeps a delivery out until this amendment ends; between two amendments the
+      // unique index on supersedes_id decides (insertAmendment), so only the status is re-read.
+      await repo.shareLockRestoration(tx, old.id);
+      assertStillPlanned((await repo.findVisibleRestoration(tx, scope, old.id))!);
       return this.insertPlan(tx, user, patient, { ...body, patientId: old.patientId }, { supersedesId: old.id, amendmentReason: body.amendmentReason });
     });
     return this.detail(ability, scope, newId);
@@ -129,56 +113,45 @@ export class RestorationsService {
   private async insertPlan(tx: Tx, user: SessionUser, patient: { id: string; practiceId: string }, body: PlanInput, amendment: { supersedesId: string; amendmentReason: string } | null) {
     const patientSites = await repo.listRestorableSites(tx, patient.id);
     const ids = body.sites.flatMap((s) => [s.abutmentComponentId, s.multiUnitComponentId, s.impressionCopingComponentId, ...s.screwComponentIds]).filter((x): x is string => !!x);
-    const catalogue = new Map((await findComponents(tx, patient.practiceId, ids)).map((c) => [c.id, c]));
+    const catalogue = new Map((await repo.findCatalogueParts(tx, patient.practiceId, ids)).map((c) => [c.id, c]));
     const checked = checkPlan(body, patientSites, catalogue);
 
-    const [row] = await tx
-      .insert(restorations)
-      .values({
-        practiceId: patient.practiceId,
-        patientId: patient.id,
-        kind: body.kind,
-        retention: body.retention,
-        material: body.material,
-        shade: body.shade,
-        status: 'planned',
-        copingsSplinted: body.copingsSplinted,
-        plannedBy: user.id,
-        findings: checked.findings,
-        rulesVersion: RULES_VERSION,
-        labName: body.labName,
-        labEmail: body.labEmail,
-        dueOn: body.dueOn,
-        notes: body.notes,
-        supersedesId: amendment?.supersedesId ?? null,
-        amendmentReason: amendment?.amendmentReason ?? null,
-      })
-      .returning({ id: restorations.id });
+    const values = {
+      practiceId: patient.practiceId,
+      patientId: patient.id,
+      kind: body.kind,
+      retention: body.retention,
+      material: body.material,
+      shade: body.shade,
+      status: 'planned' as const,
+      copingsSplinted: body.copingsSplinted,
+      plannedBy: user.id,
+      findings: checked.findings,
+      rulesVersion: RULES_VERSION,
+      labName: body.labName,
+      labEmail: body.labEmail,
+      dueOn: body.dueOn,
+      notes: body.notes,
+    };
+    const id = amendment ? await repo.insertRestorationAmendment(tx, { ...values, ...amendment }) : await repo.insertRestoration(tx, values);
     for (const s of checked.sites) {
-      const [rs] = await tx
-        .insert(restorationSites)
-        .values({
-          practiceId: patient.practiceId,
-          restorationId: row!.id,
-          siteId: s.siteId,
-          interface: s.interface,
-          impressionCoping: s.impressionCoping,
-          multiUnitAngleDeg: s.multiUnitAngleDeg,
-          restorativeSpaceMm: s.restorativeSpaceMm,
-          axisX: s.enteredAxis?.[0] ?? null,
-          axisY: s.enteredAxis?.[1] ?? null,
-          axisZ: s.enteredAxis?.[2] ?? null,
-        })
-        .returning({ id: restorationSites.id });
-      if (s.componentIds.length > 0) {
-        await tx.insert(restorationSiteComponents).values(s.componentIds.map((componentId) => ({ practiceId: patient.practiceId, restorationSiteId: rs!.id, componentId })));
-      }
+      const restorationSiteId = await repo.insertRestorationSite(tx, {
+        practiceId: patient.practiceId,
+        restorationId: id,
+        siteId: s.siteId,
+        interface: s.interface,
+        impressionCoping: s.impressionCoping,
+        multiUnitAngleDeg: s.multiUnitAngleDeg,
+        restorativeSpaceMm: s.restorativeSpaceMm,
+        axisX: s.enteredAxis?.[0] ?? null,
+        axisY: s.enteredAxis?.[1] ?? null,
+        axisZ: s.enteredAxis?.[2] ?? null,
+      });
+      await repo.insertSiteComponents(tx, s.componentIds.map((componentId) => ({ practiceId: patient.practiceId, restorationSiteId, componentId })));
     }
     const acknowledged = checked.findings.filter((f) => f.severity === 'warning');
-    if (acknowledged.length > 0) {
-      await tx.insert(findingAcknowledgements).values(acknowledged.map((f) => ({ practiceId: patient.practiceId, restorationId: row!.id, code: f.code, fdi: f.fdi ?? null, acknowledgedBy: user.id })));
-    }
-    return row!.id;
+    await repo.insertAcknowledgements(tx, acknowledged.map((f) => ({ practiceId: patient.practiceId, restorationId: id, code: f.code, fdi: f.fdi ?? null, acknowledgedBy: user.id })));
+    return id;
   }
 
   /**
@@ -194,9 +167,11 @@ export class RestorationsService {
     if (body.deliveredOn > today) throw fieldError({ deliveredOn: 'Cannot be in the future' });
     if (body.impressionTakenOn && body.impressionTakenOn > body.deliveredOn) throw fieldError({ impressionTakenOn: 'The impression cannot be taken after the delivery' });
     await this.db.transaction(async (tx) => {
-      assertDeliverable(await this.lockVersion(tx, scope, row.id));
+      // Re-read under the lock: a concurrent delivery or amendment committed meanwhile is seen.
+      await repo.lockRestoration(tx, row.id);
+      assertDeliverable((await repo.findVisibleRestoration(tx, scope, row.id))!);
       const { sites } = await repo.loadRestorationSites(tx, [row.id]);
-      const catalogue = new Map((await findComponents(tx, row.practiceId, body.parts.map((p) => p.componentId))).map((c) => [c.id, c]));
+      const catalogue = new Map((await repo.findCatalogueParts(tx, row.practiceId, body.parts.map((p) => p.componentId))).map((c) => [c.id, c]));
       const fields: Record<string, string> = {};
       const seen = new Set<string>();
       body.parts.forEach((p, i) => {
@@ -215,16 +190,10 @@ export class RestorationsService {
       if (Object.keys(fields).length > 0) throw fieldError(fields);
 
       const siteIds = sites.map((s) => s.siteId);
-      const healing = await tx
-        .select({ id: componentInstances.id })
-        .from(componentInstances)
-        .innerJoin(components, eq(components.id, componentInstances.componentId))
-        .where(and(inArray(componentInstances.siteId, siteIds), isNull(componentInstances.removedOn), inArray(components.kind, [...HEALING_KINDS])));
-      if (healing.length > 0) {
-        await tx.update(componentInstances).set({ removedOn: body.deliveredOn }).where(inArray(componentInstances.id, healing.map((h) => h.id)));
-      }
+      await repo.removePartsOfKinds(tx, siteIds, HEALING_KINDS, body.deliveredOn);
       await retirePreviousRestorations(tx, row.id, siteIds, body.deliveredOn);
-      await tx.insert(componentInstances).values(
+      await repo.installParts(
+        tx,
         body.parts.map((p) => ({
           practiceId: row.practiceId,
           patientId: row.patientId,
@@ -236,13 +205,21 @@ export class RestorationsService {
           recordedBy: user.id,
         })),
       );
-      await tx
-        .update(restorations)
-        .set({ status: 'delivered', deliveredOn: body.deliveredOn, impressionTakenOn: body.impressionTakenOn ?? row.impressionTakenOn })
-        .where(eq(restorations.id, row.id));
-      await tx.update(implantSites).set({ status: 'restored' }).where(inArray(implantSites.id, siteIds));
+      await repo.markDelivered(tx, row.id, siteIds, { deliveredOn: body.deliveredOn, impressionTakenOn: body.impressionTakenOn ?? row.impressionTakenOn });
     });
     return this.detail(ability, scope, row.id);
+  }
+
+  /** For the lab prescription (exported to LabPrescriptionsModule): the version, if the user may see its patient. */
+  findVisible(scope: Scope, id: string): Promise<repo.RestorationRow | null> {
+    return repo.findVisibleRestoration(this.db, scope, id);
+  }
+
+  /** What the lab prescription of a visible version lists: its patient, and its sites with the chosen parts. */
+  async labSheet(scope: Scope, r: { id: string; patientId: string }) {
+    const patient = (await repo.findVisiblePatientBrief(this.db, scope, r.patientId))!;
+    const { sites, parts } = await repo.loadRestorationSites(this.db, [r.id]);
+    return { patient, sites: sites.map((s) => ({ ...s, parts: parts.filter((p) => p.restorationSiteId === s.id) })) };
   }
 
   /** Builds the replies for several restorations with a fixed number of queries. */

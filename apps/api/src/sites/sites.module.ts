@@ -1,6 +1,8 @@
 import { Module } from '@nestjs/common';
+import { RecallsModule } from '../recalls/recalls.module.js';
 import { SitesController } from './sites.controller.js';
 import { SitesService } from './sites.service.js';
 
-@Module({ controllers: [SitesController], providers: [SitesService] })
+// The maintenance status of each site comes from RecallsModule (MaintenanceStatusService).
+@Module({ imports: [RecallsModule], controllers: [SitesController], providers: [SitesService] })
 export class SitesModule {}

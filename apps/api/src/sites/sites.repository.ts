@@ -13,7 +13,7 @@ import {
   torqueEvents,
 } from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
-import { visiblePatients } from '../patients/patients.repository.js';
+import { visiblePatients } from '../authz/visible-patients.js';
 import { isCurrentVersion } from '../db/amendments.js';
 
 export async function findVisibleSite(db: Db, scope: Scope, siteId: string) {

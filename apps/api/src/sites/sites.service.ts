@@ -4,7 +4,7 @@ import type { SiteFile, TimelineKind, TimelineReply } from '@torquetrail/contrac
 import { RETIGHTEN_AFTER_MINUTES } from '@torquetrail/domain';
 import { assertCan, type Scope } from '../authz/scope.js';
 import { DB, type Database } from '../db/database.js';
-import { latestExamBySite } from '../recalls/exams.repository.js';
+import { MaintenanceStatusService } from '../recalls/maintenance-status.service.js';
 import {
   findCurrentPlacement,
   findCurrentRestoration,
@@ -34,7 +34,10 @@ export function retorqueDueAt(entries: { reason: string; performedAt: Date }[]):
 
 @Injectable()
 export class SitesService {
-  constructor(@Inject(DB) private readonly db: Database) {}
+  constructor(
+    @Inject(DB) private readonly db: Database,
+    private readonly maintenance: MaintenanceStatusService,
+  ) {}
 
   private async visible(ability: AppAbility, scope: Scope, siteId: string) {
     const site = assertCan(ability, 'read', 'ImplantSite', await findVisibleSite(this.db, scope, siteId), 'implant site');
@@ -62,7 +65,7 @@ export class SitesService {
       patientName: site.patientName,
       fdi: site.fdi,
       status: site.status,
-      maintenanceStatus: (canRead('RecallExam') ? (await latestExamBySite(this.db, [site.id])).get(site.id)?.status : undefined) ?? 'not-examined',
+      maintenanceStatus: (canRead('RecallExam') ? (await this.maintenance.latestBySite([site.id])).get(site.id)?.status : undefined) ?? 'not-examined',
       placement,
       parts: parts.map((part) => {
         const last = torque.get(part.instanceId);

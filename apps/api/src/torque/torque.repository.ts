@@ -1,9 +1,9 @@
-import { and, eq, sql } from 'drizzle-orm';
+import { and, eq } from 'drizzle-orm';
 import type { Db, Tx } from '../db/database.js';
 import { componentInstances, components, patients, torqueEvents, torqueWrenches, users } from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
-import { visiblePatients } from '../patients/patients.repository.js';
-import { supersededById } from '../db/amendments.js';
+import { visiblePatients } from '../authz/visible-patients.js';
+import { insertAmendment, supersededById } from '../db/amendments.js';
 
 /** A part instance whose patient the user may see, with its catalogue specification. */
 export async function findVisibleInstance(db: Db, scope: Scope, id: string) {
@@ -81,7 +81,23 @@ export async function lockInstance(tx: Tx, id: string) {
   await tx.select({ id: componentInstances.id }).from(componentInstances).where(eq(componentInstances.id, id)).for('update');
 }
 
-/** Locks a torque entry until the transaction ends: two amendments of it run one after the other. */
-export async function lockTorqueEvent(tx: Tx, id: string) {
-  await tx.select({ id: torqueEvents.id }).from(torqueEvents).where(eq(torqueEvents.id, id)).for('update');
+/** Retires a part: it came out of the mouth on `day` (its row and history stay). */
+export async function retireInstance(tx: Tx, id: string, day: string) {
+  await tx.update(componentInstances).set({ removedOn: day }).where(eq(componentInstances.id, id));
 }
+
+/** A new instance of a part, installed on the day the one it replaces came out. */
+export async function insertInstance(tx: Tx, v: typeof componentInstances.$inferInsert) {
+  const [row] = await tx.insert(componentInstances).values(v).returning({ id: componentInstances.id });
+  return row!.id;
+}
+
+type TorqueValues = typeof torqueEvents.$inferInsert;
+
+export async function insertTorqueEvent(db: Db, v: TorqueValues) {
+  const [row] = await db.insert(torqueEvents).values(v).returning({ id: torqueEvents.id });
+  return row!.id;
+}
+
+/** A new version of a torque entry; a second amendment of one version is refused by the database. */
+export const insertTorqueAmendment = (db: Db, v: TorqueValues & { supersedesId: string; amendmentReason: string }) => insertAmendment(db, torqueEvents, v);

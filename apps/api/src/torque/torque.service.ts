@@ -2,13 +2,12 @@ import { ConflictException, Inject, Injectable } from '@nestjs/common';
 import type { AppAbility } from '@torquetrail/authz';
 import type { TorqueAmendmentBody, TorqueBody, TorqueEvent } from '@torquetrail/contracts';
 import { RULES_VERSION, torqueVerdict } from '@torquetrail/domain';
-import { eq } from 'drizzle-orm';
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
+import { alreadyAmended } from '../common/amendment-conflict.js';
 import { DB, type Database, type Tx } from '../db/database.js';
-import { componentInstances, torqueEvents } from '../db/schema/index.js';
-import { fieldError } from '../restorations/plan-check.js';
+import { fieldError } from '../common/field-error.js';
 import * as repo from './torque.repository.js';
 
 /** An entry may be a few minutes ahead of the server clock, never later. */
@@ -16,10 +15,6 @@ const FUTURE_SLACK_MS = 5 * 60_000;
 
 function assertInPlace(part: { removedOn: string | null }) {
   if (part.removedOn) throw new ConflictException(`This part was removed on ${part.removedOn}; log the torque on the part in place`);
-}
-
-function assertCurrent(entry: { supersededById: string | null }) {
-  if (entry.supersededById) throw new ConflictException('This entry was already amended; amend the current version');
 }
 
 @Injectable()
@@ -60,18 +55,10 @@ export class TorqueService {
       let instanceId = part.id;
       if (replacing) {
         const day = performedAt.toISOString().slice(0, 10);
-        await tx.update(componentInstances).set({ removedOn: day }).where(eq(componentInstances.id, part.id));
-        const [fresh] = await tx
-          .insert(componentInstances)
-          .values({ practiceId: part.practiceId, patientId: part.patientId, siteId: part.siteId, restorationId: part.restorationId, componentId: part.componentId, lot: body.replacementLot, installedOn: day, replacesId: part.id, recordedBy: user.id })
-          .returning({ id: componentInstances.id });
-        instanceId = fresh!.id;
+        await repo.retireInstance(tx, part.id, day);
+        instanceId = await repo.insertInstance(tx, { practiceId: part.practiceId, patientId: part.patientId, siteId: part.siteId, restorationId: part.restorationId, componentId: part.componentId, lot: body.replacementLot, installedOn: day, replacesId: part.id, recordedBy: user.id });
       }
-      const [row] = await tx
-        .insert(torqueEvents)
-        .values({ practiceId: part.practiceId, patientId: part.patientId, componentInstanceId: instanceId, appliedNcm: body.appliedNcm, specNcm, tolerancePct: part.tolerancePct, verdict, rulesVersion: RULES_VERSION, reason: body.reason, wrenchId: body.wrenchId, performedAt, recordedBy: user.id })
-        .returning({ id: torqueEvents.id });
-      return row!.id;
+      return repo.insertTorqueEvent(tx, { practiceId: part.practiceId, patientId: part.patientId, componentInstanceId: instanceId, appliedNcm: body.appliedNcm, specNcm, tolerancePct: part.tolerancePct, verdict, rulesVersion: RULES_VERSION, reason: body.reason, wrenchId: body.wrenchId, performedAt, recordedBy: user.id });
     });
     return this.reply(id, replacing);
   }
@@ -79,21 +66,13 @@ export class TorqueService {
   /** An amendment is a new row superseding the old one (spec and reason kept; the verdict recomputed). */
   async amend(ability: AppAbility, user: SessionUser, scope: Scope, id: string, body: z.output<typeof TorqueAmendmentBody>): Promise<TorqueEvent> {
     const old = assertCan(ability, 'amend', 'TorqueEvent', await repo.findVisibleTorqueEvent(this.db, scope, id), 'torque entry');
-    assertCurrent(old);
+    if (old.supersededById) throw alreadyAmended('torque_events');
     const performedAt = new Date(body.performedAt);
     this.checkWhen(performedAt, 'performedAt');
     await this.checkWrench(this.db, old.practiceId, body.wrenchId);
     const verdict = torqueVerdict({ appliedNcm: body.appliedNcm, specNcm: old.specNcm, tolerancePct: old.tolerancePct });
-    const newId = await this.db.transaction(async (tx) => {
-      // Re-read under the lock: of two concurrent amendments of one entry only the first is saved.
-      await repo.lockTorqueEvent(tx, old.id);
-      assertCurrent((await repo.findVisibleTorqueEvent(tx, scope, old.id))!);
-      const [row] = await tx
-        .insert(torqueEvents)
-        .values({ practiceId: old.practiceId, patientId: old.patientId, componentInstanceId: old.componentInstanceId, appliedNcm: body.appliedNcm, specNcm: old.specNcm, tolerancePct: old.tolerancePct, verdict, rulesVersion: RULES_VERSION, reason: old.reason, wrenchId: body.wrenchId, performedAt, supersedesId: old.id, amendmentReason: body.amendmentReason, recordedBy: user.id })
-        .returning({ id: torqueEvents.id });
-      return row!.id;
-    });
+    // Of two concurrent amendments of one entry the database saves the first (insertAmendment).
+    const newId = await repo.insertTorqueAmendment(this.db, { practiceId: old.practiceId, patientId: old.patientId, componentInstanceId: old.componentInstanceId, appliedNcm: body.appliedNcm, specNcm: old.specNcm, tolerancePct: old.tolerancePct, verdict, rulesVersion: RULES_VERSION, reason: old.reason, wrenchId: body.wrenchId, performedAt, supersedesId: old.id, amendmentReason: body.amendmentReason, recordedBy: user.id });
     return this.reply(newId, false);
   }
 

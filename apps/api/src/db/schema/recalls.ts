@@ -1,4 +1,5 @@
 import { boolean, date, index, integer, jsonb, numeric, pgTable, smallint, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core';
+import { amendmentChain } from './amendment-chain.js';
 import { periImplantStatusEnum, probingSiteEnum, recallStatusEnum, reminderKindEnum, reminderStatusEnum } from './enums.js';
 import { patients } from './patients.js';
 import { practices, users } from './practices.js';
@@ -42,8 +43,8 @@ export const recallExams = pgTable(
   (t) => [
     index('recall_exams_site_idx').on(t.siteId, t.examinedOn),
     index('recall_exams_patient_idx').on(t.patientId, t.examinedOn),
-    // "Current" = not superseded: the not-exists probe needs this index on large desks.
-    index('recall_exams_supersedes_idx').on(t.supersedesId),
+    // "Current" = not superseded: the not-exists probe on large desks uses the chain's unique index.
+    ...amendmentChain('recall_exams', t),
   ],
 );
 

@@ -1,4 +1,5 @@
 import { boolean, date, index, integer, jsonb, numeric, pgTable, smallint, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core';
+import { amendmentChain } from './amendment-chain.js';
 import { components, torqueWrenches } from './catalogue.js';
 import {
   complicationKindEnum,
@@ -42,7 +43,7 @@ export const restorations = pgTable(
     amendmentReason: text('amendment_reason'),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index('restorations_patient_idx').on(t.patientId)],
+  (t) => [index('restorations_patient_idx').on(t.patientId), ...amendmentChain('restorations', t)],
 );
 
 /** One implant site of a restoration, with the interface and impression technique used there. */
@@ -109,7 +110,7 @@ export const torqueEvents = pgTable(
     recordedBy: uuid('recorded_by').references(() => users.id),
     recordedAt: timestamp('recorded_at', { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index('torque_events_instance_idx').on(t.componentInstanceId, t.performedAt)],
+  (t) => [index('torque_events_instance_idx').on(t.componentInstanceId, t.performedAt), ...amendmentChain('torque_events', t)],
 );
 
 /** The catalogue parts chosen in the plan for one site (abutment, multi-unit, screws, coping). */
@@ -174,5 +175,5 @@ export const complications = pgTable(
     recordedBy: uuid('recorded_by').references(() => users.id),
     recordedAt: timestamp('recorded_at', { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index('complications_site_idx').on(t.siteId)],
+  (t) => [index('complications_site_idx').on(t.siteId), ...amendmentChain('complications', t)],
 );

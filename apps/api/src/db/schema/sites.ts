@@ -1,5 +1,6 @@
 import { sql } from 'drizzle-orm';
 import { date, index, numeric, pgTable, smallint, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import { amendmentChain } from './amendment-chain.js';
 import { platforms } from './catalogue.js';
 import { loadingProtocolEnum, siteStatusEnum } from './enums.js';
 import { patients } from './patients.js';
@@ -55,5 +56,5 @@ export const placements = pgTable(
     recordedBy: uuid('recorded_by').references(() => users.id),
     recordedAt: timestamp('recorded_at', { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index('placements_site_idx').on(t.siteId)],
+  (t) => [index('placements_site_idx').on(t.siteId), ...amendmentChain('placements', t)],
 );

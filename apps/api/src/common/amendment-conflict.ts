@@ -1,0 +1,29 @@
+import { ConflictException } from '@nestjs/common';
+import { AMENDABLE_TABLES, type AmendableTableName, supersedesUniqueName } from '../db/schema/amendment-chain.js';
+import { postgresError } from './postgres-error.js';
+
+/** What a second amendment of one version is told, per table: the same words before and during a race. */
+const ALREADY_AMENDED: Record<AmendableTableName, string> = {
+  placements: 'This placement was already amended; amend the current version',
+  restorations: 'This version was already amended; amend the current version',
+  torque_events: 'This entry was already amended; amend the current version',
+  complications: 'This entry was already amended; amend the current version',
+  recall_exams: 'This exam has already been amended; amend its latest version',
+};
+
+/** 409 for an amendment of a version that a newer row already supersedes. */
+export const alreadyAmended = (table: AmendableTableName) => new ConflictException(ALREADY_AMENDED[table]);
+
+const TABLE_OF_INDEX = new Map<string, AmendableTableName>(AMENDABLE_TABLES.map((t) => [supersedesUniqueName(t), t]));
+
+/**
+ * The one place where the database's answer to a second amendment becomes HTTP: a unique
+ * violation of a `<table>_supersedes_unique` index (two amendments of one version raced, and the
+ * other committed first) is the same 409 the services give when they see the amendment up front.
+ * Any other error is returned unchanged.
+ */
+export function asAmendmentConflict(error: unknown): unknown {
+  const pg = postgresError(error);
+  const table = pg?.code === '23505' && pg.constraint ? TABLE_OF_INDEX.get(pg.constraint) : undefined;
+  return table ? alreadyAmended(table) : error;
+}
