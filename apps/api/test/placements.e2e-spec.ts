@@ -9,15 +9,13 @@ import { and, eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { implantSites, placements, platforms, practices } from '../src/db/schema/index.js';
 import { larkspurId, parts, platformId } from './support/ledger-fixtures.js';
-import { type AccountKey, patientId, signInAll, siteId, startTestApp, type TestContext } from './support/test-app.js';
+import { actorCookies, all, describeRoleMatrix, type RoleCase } from './support/role-matrix.js';
+import { type AccountKey, patientId, siteId, startTestApp, type TestContext } from './support/test-app.js';
 
 let ctx: TestContext;
 let cookies: Record<AccountKey, string>;
 const ids: Record<string, string> = {};
 let scn35: (suffix: string) => string;
-
-type Who = AccountKey | 'anonymous';
-const WHO: Who[] = ['dentist', 'hygienist', 'surgeon', 'practice_admin', 'otherPracticeDentist', 'anonymous'];
 
 const GTIN_BASE = '0884521234567';
 const GTIN = GTIN_BASE + gtinCheckDigit(GTIN_BASE);
@@ -72,7 +70,7 @@ async function freshPlacement() {
 
 beforeAll(async () => {
   ctx = await startTestApp();
-  cookies = await signInAll(ctx);
+  cookies = await actorCookies(ctx);
   const larkspur = await larkspurId(ctx.db);
   ids.lucia = await patientId(ctx.db, 'LL-1004');
   ids.okafor = await patientId(ctx.db, 'LL-1003');
@@ -88,20 +86,11 @@ beforeAll(async () => {
 });
 afterAll(() => ctx.close());
 
-const all = (n: number, over: Partial<Record<Who, number>> = {}): Record<Who, number> => ({ dentist: n, hygienist: n, surgeon: n, practice_admin: n, otherPracticeDentist: n, anonymous: 401, ...over });
 /** Placements: the dentist of the practice and the surgeon through a share; Quarry Hill sees nothing. */
 const placementWrites = (ok: number) => all(403, { dentist: ok, surgeon: ok, otherPracticeDentist: 404 });
 const notShared = (ok: number) => all(403, { dentist: ok, surgeon: 404, otherPracticeDentist: 404 });
 
-interface Row {
-  route: string;
-  method: 'get' | 'post';
-  path: () => string | Promise<string>;
-  body?: () => object;
-  expect: Record<Who, number>;
-}
-
-const matrix: Row[] = [
+const matrix: RoleCase[] = [
   // The surgeon may create sites in their own practice only (the guard lets them through): Larkspur's unshared patient is 404, a shared one 403.
   { route: 'POST /api/patients/:id/sites (not shared)', method: 'post', path: () => `/api/patients/${ids.okafor}/sites`, body: () => ({ fdi: okaforFdi() }), expect: notShared(201) },
   { route: 'POST /api/patients/:id/sites (shared)', method: 'post', path: () => `/api/patients/${ids.harold}/sites`, body: () => ({ fdi: 31 }), expect: all(403, { dentist: 201, otherPracticeDentist: 404 }) },
@@ -113,16 +102,7 @@ const matrix: Row[] = [
   { route: 'POST /api/placements/:id/amendments (shared)', method: 'post', path: async () => `/api/placements/${await freshPlacement()}/amendments`, body: () => ({ ...placementBody({ lengthMm: 13 }), closureComponentId: undefined, closureLot: undefined, amendmentReason: 'Length misread from the box' }), expect: placementWrites(201) },
 ];
 
-describe.each(matrix)('$route', (row) => {
-  it.each(WHO)('as %s', async (who) => {
-    const path = await row.path();
-    let req = ctx.http[row.method](path);
-    if (who !== 'anonymous') req = req.set('Cookie', cookies[who]);
-    const res = row.body ? await req.send(row.body()) : await req;
-    expect(res.status, JSON.stringify(res.body)).toBe(row.expect[who]);
-    if (res.status === 404) expect(res.body.message).toMatch(/^No such/);
-  });
-});
+describeRoleMatrix(() => ctx, matrix, { notFoundMessage: /^No such/ });
 
 describe('adding a planned site', () => {
   it('adds a planned site at a free position, shown on the Arch', async () => {

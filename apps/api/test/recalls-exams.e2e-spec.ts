@@ -7,7 +7,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { nextRecallDate } from '@torquetrail/domain';
 import { recallExams, recalls } from '../src/db/schema/index.js';
 import { RecallClock } from '../src/recalls/recall-clock.js';
-import { type AccountKey, patientId, signInAll, siteId, startTestApp, type TestContext } from './support/test-app.js';
+import { actorCookies, all, describeRoleMatrix, otherPracticeRead, type RoleCase, sharedRead, unsharedRead } from './support/role-matrix.js';
+import { type AccountKey, patientId, siteId, startTestApp, type TestContext } from './support/test-app.js';
 
 let ctx: TestContext;
 let cookies: Record<AccountKey, string>;
@@ -20,7 +21,7 @@ const healthyExam = (site: string) => ({ siteId: site, sites: sites([3, 3, 3, 3,
 
 beforeAll(async () => {
   ctx = await startTestApp();
-  cookies = await signInAll(ctx);
+  cookies = await actorCookies(ctx);
   today = ctx.app.get(RecallClock).today();
   ids.whitcombe = await patientId(ctx.db, 'LL-1001');
   ids.okafor = await patientId(ctx.db, 'LL-1003');
@@ -38,52 +39,26 @@ beforeAll(async () => {
 });
 afterAll(() => ctx.close());
 
-type Who = AccountKey | 'anonymous';
-const WHO: Who[] = ['dentist', 'hygienist', 'surgeon', 'practice_admin', 'otherPracticeDentist', 'anonymous'];
-
 describe('role matrix of the recall routes', () => {
-  const reads: { route: string; path: () => string; expect: Record<Who, number> }[] = [
-    { route: 'GET /api/recalls/desk', path: () => '/api/recalls/desk', expect: { dentist: 200, hygienist: 200, surgeon: 200, practice_admin: 200, otherPracticeDentist: 200, anonymous: 401 } },
-    { route: 'GET /api/recalls/desk/csv', path: () => '/api/recalls/desk/csv', expect: { dentist: 200, hygienist: 200, surgeon: 200, practice_admin: 200, otherPracticeDentist: 200, anonymous: 401 } },
-    { route: 'GET exam-context (shared with the surgeon)', path: () => `/api/recalls/patients/${ids.whitcombe}/exam-context`, expect: { dentist: 200, hygienist: 200, surgeon: 200, practice_admin: 200, otherPracticeDentist: 404, anonymous: 401 } },
-    { route: 'GET exam-context (not shared)', path: () => `/api/recalls/patients/${ids.okafor}/exam-context`, expect: { dentist: 200, hygienist: 200, surgeon: 404, practice_admin: 200, otherPracticeDentist: 404, anonymous: 401 } },
-    { route: 'GET exam-context (another practice)', path: () => `/api/recalls/patients/${ids.quarry}/exam-context`, expect: { dentist: 404, hygienist: 404, surgeon: 404, practice_admin: 404, otherPracticeDentist: 200, anonymous: 401 } },
-    { route: 'GET site exams (shared)', path: () => `/api/recalls/sites/${ids.whitcombe35}/exams`, expect: { dentist: 200, hygienist: 200, surgeon: 200, practice_admin: 200, otherPracticeDentist: 404, anonymous: 401 } },
-    { route: 'GET site exams (not shared)', path: () => `/api/recalls/sites/${ids.okafor46}/exams`, expect: { dentist: 200, hygienist: 200, surgeon: 404, practice_admin: 200, otherPracticeDentist: 404, anonymous: 401 } },
-    { route: 'GET site exams (another practice)', path: () => `/api/recalls/sites/${ids.quarry36}/exams`, expect: { dentist: 404, hygienist: 404, surgeon: 404, practice_admin: 404, otherPracticeDentist: 200, anonymous: 401 } },
-    { route: 'GET site exams (not a uuid)', path: () => '/api/recalls/sites/46/exams', expect: { dentist: 404, hygienist: 404, surgeon: 404, practice_admin: 404, otherPracticeDentist: 404, anonymous: 401 } },
-    { route: 'GET /api/recalls/policy', path: () => '/api/recalls/policy', expect: { dentist: 200, hygienist: 200, surgeon: 403, practice_admin: 200, otherPracticeDentist: 200, anonymous: 401 } },
-    { route: 'GET /api/recalls/reminders', path: () => '/api/recalls/reminders', expect: { dentist: 403, hygienist: 403, surgeon: 403, practice_admin: 200, otherPracticeDentist: 403, anonymous: 401 } },
+  const matrix: RoleCase[] = [
+    { route: 'GET /api/recalls/desk', path: () => '/api/recalls/desk', expect: all(200) },
+    { route: 'GET /api/recalls/desk/csv', path: () => '/api/recalls/desk/csv', expect: all(200) },
+    { route: 'GET exam-context (shared with the surgeon)', path: () => `/api/recalls/patients/${ids.whitcombe}/exam-context`, expect: sharedRead() },
+    { route: 'GET exam-context (not shared)', path: () => `/api/recalls/patients/${ids.okafor}/exam-context`, expect: unsharedRead() },
+    { route: 'GET exam-context (another practice)', path: () => `/api/recalls/patients/${ids.quarry}/exam-context`, expect: otherPracticeRead() },
+    { route: 'GET site exams (shared)', path: () => `/api/recalls/sites/${ids.whitcombe35}/exams`, expect: sharedRead() },
+    { route: 'GET site exams (not shared)', path: () => `/api/recalls/sites/${ids.okafor46}/exams`, expect: unsharedRead() },
+    { route: 'GET site exams (another practice)', path: () => `/api/recalls/sites/${ids.quarry36}/exams`, expect: otherPracticeRead() },
+    { route: 'GET site exams (not a uuid)', path: () => '/api/recalls/sites/46/exams', expect: all(404) },
+    { route: 'GET /api/recalls/policy', path: () => '/api/recalls/policy', expect: all(200, { surgeon: 403 }) },
+    { route: 'GET /api/recalls/reminders', path: () => '/api/recalls/reminders', expect: all(403, { practice_admin: 200 }) },
+    // Only the hygienist records exams; the guard refuses every other role before the record is looked up.
+    { route: 'POST /api/recalls/visits', method: 'post', path: () => '/api/recalls/visits', body: () => ({ patientId: ids.ferraz, examinedOn: today, exams: [healthyExam(ids.ferraz14!)] }), expect: all(403, { hygienist: 201 }) },
+    // Practice admin only. The policy sent is the default one, so no other test sees a change.
+    { route: 'PUT /api/recalls/policy', method: 'put', path: () => '/api/recalls/policy', body: () => ({ baseMonths: 6, riskMonths: 3, reminderDaysBefore: 14, overdueReminderDaysAfter: 7 }), expect: all(403, { practice_admin: 200 }) },
+    { route: 'POST /api/recalls/reminders/run', method: 'post', path: () => '/api/recalls/reminders/run', body: () => ({ today: '2000-01-01' }), expect: all(403, { practice_admin: 200 }) },
   ];
-  describe.each(reads)('$route', ({ path, expect: expected }) => {
-    it.each(WHO)('as %s', async (who) => {
-      const req = ctx.http.get(path());
-      const res = who === 'anonymous' ? await req : await req.set('Cookie', cookies[who]);
-      expect(res.status).toBe(expected[who]);
-    });
-  });
-
-  it('POST /api/recalls/visits: only the hygienist records exams; another practice gets 404 for Larkspur records', async () => {
-    const body = () => ({ patientId: ids.ferraz, examinedOn: today, exams: [healthyExam(ids.ferraz14)] });
-    const expected: Record<Who, number> = { dentist: 403, hygienist: 201, surgeon: 403, practice_admin: 403, otherPracticeDentist: 403, anonymous: 401 };
-    for (const who of WHO) {
-      const req = ctx.http.post('/api/recalls/visits').send(body());
-      const res = who === 'anonymous' ? await req : await req.set('Cookie', cookies[who]);
-      expect(res.status, who).toBe(expected[who]);
-    }
-  });
-
-  it('PUT /api/recalls/policy and POST reminders/run: practice admin only', async () => {
-    const policy = { baseMonths: 6, riskMonths: 3, reminderDaysBefore: 14, overdueReminderDaysAfter: 7 };
-    for (const who of WHO) {
-      const put = ctx.http.put('/api/recalls/policy').send(policy);
-      const run = ctx.http.post('/api/recalls/reminders/run').send({ today: '2000-01-01' });
-      const [p, r] = who === 'anonymous' ? [await put, await run] : [await put.set('Cookie', cookies[who]), await run.set('Cookie', cookies[who])];
-      const ok = who === 'practice_admin';
-      expect(p.status, who).toBe(who === 'anonymous' ? 401 : ok ? 200 : 403);
-      expect(r.status, who).toBe(who === 'anonymous' ? 401 : ok ? 200 : 403);
-    }
-  });
+  describeRoleMatrix(() => ctx, matrix);
 });
 
 // Runs before the visits below change the seeded state.
