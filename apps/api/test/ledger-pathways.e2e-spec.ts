@@ -185,18 +185,16 @@ describe('planning on the demo patient Wendell Achterberg (Tessely EX 4.1, heali
   });
 });
 
+// One story on Harold Whitcombe's 35–37 bridge: the first step needs the bridge still in place,
+// the second retires it.
 describe('the Stack after a new plan on a restored site', () => {
-  it('keeps showing the delivered restoration, not the plan', async () => {
-    const harold35 = (await ctx.http.get('/api/patients').query({ search: 'LL-1001' }).set('Cookie', dentist)).body.items[0].id;
-    const sites = (await ctx.http.get(`/api/patients/${harold35}/restorable-sites`).set('Cookie', dentist)).body.items;
-    const res = await plan({ patientId: harold35, kind: 'single-crown', retention: 'cement-on-abutment', material: 'zirconia', sites: [{ siteId: sites[0].siteId, interface: 'engaging', impressionCoping: 'engaging' }] });
-    expect(res.status).toBe(201);
-    expect((await stack(sites[0].siteId)).restoration).toMatchObject({ kind: 'splinted-bridge', deliveredOn: '2012-09-20' });
-  });
-
-  it('delivering a new crown on 35 retires the 35–37 bridge: it is removed, its screws come out, its history stays', async () => {
+  it('keeps showing the delivered restoration, not the plan; delivering a new crown on 35 then retires the 35–37 bridge: it is removed, its screws come out, its history stays', async () => {
     const pid = (await ctx.http.get('/api/patients').query({ search: 'LL-1001' }).set('Cookie', dentist)).body.items[0].id;
     const [s35, s37] = (await ctx.http.get(`/api/patients/${pid}/restorable-sites`).set('Cookie', dentist)).body.items;
+    const res = await plan({ patientId: pid, kind: 'single-crown', retention: 'cement-on-abutment', material: 'zirconia', sites: [{ siteId: s35.siteId, interface: 'engaging', impressionCoping: 'engaging' }] });
+    expect(res.status).toBe(201);
+    expect((await stack(s35.siteId)).restoration).toMatchObject({ kind: 'splinted-bridge', deliveredOn: '2012-09-20' });
+
     const part = await parts(ctx.db, practiceId, 'Solvra CN 4.3');
     const crown = await plan({ patientId: pid, kind: 'single-crown', retention: 'cement-on-abutment', material: 'zirconia', sites: [{ siteId: s35.siteId, interface: 'engaging', impressionCoping: 'engaging', abutmentComponentId: part('CA'), screwComponentIds: [part('AS')] }] });
     expect(crown.status).toBe(201);

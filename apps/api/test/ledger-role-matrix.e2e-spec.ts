@@ -3,18 +3,17 @@
 // caller. Expectations follow docs/authorization.md. Routes that change data get a fresh target
 // for every call, so each expectation is independent of the order the roles run in.
 import { and, eq } from 'drizzle-orm';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Response } from 'supertest';
+import { afterAll, beforeAll, expect } from 'vitest';
 import { componentInstances, components, implantSystems, platforms, practices, torqueWrenches } from '../src/db/schema/index.js';
 import { larkspurId, parts } from './support/ledger-fixtures.js';
-import { type AccountKey, patientId, signInAll, siteId, startTestApp, type TestContext } from './support/test-app.js';
+import { actorCookies, all, describeRoleMatrix, otherPracticeRead, type RoleCase, sharedRead, unsharedRead } from './support/role-matrix.js';
+import { type AccountKey, patientId, siteId, startTestApp, type TestContext } from './support/test-app.js';
 
 let ctx: TestContext;
 let cookies: Record<AccountKey, string>;
 const ids: Record<string, string> = {};
 let tex: (suffix: string) => string;
-
-type Who = AccountKey | 'anonymous';
-const WHO: Who[] = ['dentist', 'hygienist', 'surgeon', 'practice_admin', 'otherPracticeDentist', 'anonymous'];
 
 const wendellPlan = () => ({
   patientId: ids.wendell,
@@ -46,7 +45,7 @@ async function freshComplication() {
 
 beforeAll(async () => {
   ctx = await startTestApp();
-  cookies = await signInAll(ctx);
+  cookies = await actorCookies(ctx);
   const larkspur = await larkspurId(ctx.db);
   const [quarry] = await ctx.db.select({ id: practices.id }).from(practices).where(eq(practices.name, 'Quarry Hill Dental'));
   tex = await parts(ctx.db, larkspur, 'Tessely EX 4.1');
@@ -83,24 +82,16 @@ beforeAll(async () => {
 });
 afterAll(() => ctx.close());
 
-const all = (n: number, over: Partial<Record<Who, number>> = {}): Record<Who, number> => ({ dentist: n, hygienist: n, surgeon: n, practice_admin: n, otherPracticeDentist: n, anonymous: 401, ...over });
 /** Clinical writes: the dentist only; another practice's record is 404 (the guard lets a dentist through). */
 const dentistWrites = (ok: number) => all(403, { dentist: ok, otherPracticeDentist: 404 });
 /** Catalogue and wrench writes: the practice admin only (the guard refuses every other role). */
 const adminWrites = (ok: number) => all(403, { practice_admin: ok });
-/** Reads of a patient shared with the surgeon / not shared. */
-const sharedRead = all(200, { otherPracticeDentist: 404 });
-const unsharedRead = all(200, { surgeon: 404, otherPracticeDentist: 404 });
+/** A lab prescription is served as a PDF. */
+const pdf = (res: Response) => {
+  if (res.status === 200) expect(res.headers['content-type']).toBe('application/pdf');
+};
 
-interface Row {
-  route: string;
-  method: 'get' | 'post' | 'patch';
-  path: () => string | Promise<string>;
-  body?: () => object | Promise<object>;
-  expect: Record<Who, number>;
-}
-
-const matrix: Row[] = [
+const matrix: RoleCase[] = [
   { route: 'GET /api/catalogue', method: 'get', path: () => '/api/catalogue', expect: all(200) },
   { route: 'POST /api/catalogue/systems', method: 'post', path: () => '/api/catalogue/systems', body: () => ({ name: 'Ostrava TX', manufacturer: 'Ostrava Implants' }), expect: adminWrites(201) },
   { route: 'PATCH /api/catalogue/systems/:id', method: 'patch', path: () => `/api/catalogue/systems/${ids.system}`, body: () => ({ manufacturer: 'Solvra Dental AG' }), expect: adminWrites(200) },
@@ -113,39 +104,29 @@ const matrix: Row[] = [
   { route: 'POST /api/wrenches', method: 'post', path: () => '/api/wrenches', body: () => ({ label: 'Spring wrench C', type: 'spring', lastCalibratedOn: '2026-11-01' }), expect: adminWrites(201) },
   { route: 'PATCH /api/wrenches/:id', method: 'patch', path: () => `/api/wrenches/${ids.wrench}`, body: () => ({ lastCalibratedOn: '2026-11-30' }), expect: adminWrites(200) },
   { route: 'PATCH /api/wrenches/:id (another practice)', method: 'patch', path: () => `/api/wrenches/${ids.quarryWrench}`, body: () => ({ lastCalibratedOn: '2026-11-30' }), expect: adminWrites(404) },
-  { route: 'GET /api/patients/:id/restorable-sites (shared)', method: 'get', path: () => `/api/patients/${ids.harold}/restorable-sites`, expect: sharedRead },
-  { route: 'GET /api/patients/:id/restorable-sites (not shared)', method: 'get', path: () => `/api/patients/${ids.okafor}/restorable-sites`, expect: unsharedRead },
-  { route: 'GET /api/patients/:id/restorations (shared)', method: 'get', path: () => `/api/patients/${ids.harold}/restorations`, expect: sharedRead },
-  { route: 'GET /api/patients/:id/restorations (another practice)', method: 'get', path: () => `/api/patients/${ids.quarryPatient}/restorations`, expect: all(404, { otherPracticeDentist: 200 }) },
+  { route: 'GET /api/patients/:id/restorable-sites (shared)', method: 'get', path: () => `/api/patients/${ids.harold}/restorable-sites`, expect: sharedRead() },
+  { route: 'GET /api/patients/:id/restorable-sites (not shared)', method: 'get', path: () => `/api/patients/${ids.okafor}/restorable-sites`, expect: unsharedRead() },
+  { route: 'GET /api/patients/:id/restorations (shared)', method: 'get', path: () => `/api/patients/${ids.harold}/restorations`, expect: sharedRead() },
+  { route: 'GET /api/patients/:id/restorations (another practice)', method: 'get', path: () => `/api/patients/${ids.quarryPatient}/restorations`, expect: otherPracticeRead() },
   { route: 'POST /api/restorations', method: 'post', path: () => '/api/restorations', body: wendellPlan, expect: dentistWrites(201) },
-  { route: 'GET /api/restorations/:id (shared)', method: 'get', path: () => `/api/restorations/${ids.haroldBridge}`, expect: sharedRead },
-  { route: 'GET /api/restorations/:id (not shared)', method: 'get', path: () => `/api/restorations/${ids.okaforCrown}`, expect: unsharedRead },
+  { route: 'GET /api/restorations/:id (shared)', method: 'get', path: () => `/api/restorations/${ids.haroldBridge}`, expect: sharedRead() },
+  { route: 'GET /api/restorations/:id (not shared)', method: 'get', path: () => `/api/restorations/${ids.okaforCrown}`, expect: unsharedRead() },
   { route: 'GET /api/restorations/:id (no such id)', method: 'get', path: () => '/api/restorations/00000000-0000-4000-8000-000000000000', expect: all(404) },
   { route: 'GET /api/restorations/:id (not a uuid)', method: 'get', path: () => '/api/restorations/36', expect: all(404) },
-  { route: 'GET /api/lab-prescriptions/:id/pdf (no such id)', method: 'get', path: () => '/api/lab-prescriptions/00000000-0000-4000-8000-000000000000/pdf', expect: all(404) },
+  { route: 'GET /api/lab-prescriptions/:id/pdf (no such id)', method: 'get', path: () => '/api/lab-prescriptions/00000000-0000-4000-8000-000000000000/pdf', expect: all(404), check: pdf },
   { route: 'POST /api/restorations/:id/amendments', method: 'post', path: async () => `/api/restorations/${await freshPlan()}/amendments`, body: () => ({ ...wendellPlan(), patientId: undefined, shade: 'A1', amendmentReason: 'Shade changed after try-in' }), expect: dentistWrites(201) },
   { route: 'POST /api/restorations/:id/delivery', method: 'post', path: async () => `/api/restorations/${await freshPlan()}/delivery`, body: () => ({ deliveredOn: '2026-11-30', parts: [{ siteId: ids.wendell15, componentId: tex('PSI'), lot: 'PSI-1' }] }), expect: dentistWrites(200) },
   { route: 'POST /api/restorations/:id/lab-prescriptions', method: 'post', path: () => `/api/restorations/${ids.haroldBridge}/lab-prescriptions`, body: () => ({}), expect: dentistWrites(201) },
-  { route: 'GET /api/lab-prescriptions/:id/pdf (shared)', method: 'get', path: () => `/api/lab-prescriptions/${ids.labPrescription}/pdf`, expect: sharedRead },
-  { route: 'GET /api/lab-prescriptions/:id/pdf (not shared)', method: 'get', path: () => `/api/lab-prescriptions/${ids.okaforLab}/pdf`, expect: unsharedRead },
+  { route: 'GET /api/lab-prescriptions/:id/pdf (shared)', method: 'get', path: () => `/api/lab-prescriptions/${ids.labPrescription}/pdf`, expect: sharedRead(), check: pdf },
+  { route: 'GET /api/lab-prescriptions/:id/pdf (not shared)', method: 'get', path: () => `/api/lab-prescriptions/${ids.okaforLab}/pdf`, expect: unsharedRead(), check: pdf },
   { route: 'POST /api/torque-events', method: 'post', path: () => '/api/torque-events', body: () => ({ componentInstanceId: ids.haroldScrew, appliedNcm: 25, reason: 're-torque-at-recall', wrenchId: ids.wrench }), expect: dentistWrites(201) },
   { route: 'POST /api/torque-events (not shared)', method: 'post', path: () => '/api/torque-events', body: () => ({ componentInstanceId: ids.okaforScrew, appliedNcm: 30, reason: 're-torque-at-recall' }), expect: dentistWrites(201) },
   { route: 'POST /api/torque-events/:id/amendments', method: 'post', path: async () => `/api/torque-events/${await freshTorque()}/amendments`, body: () => ({ appliedNcm: 24, performedAt: '2025-01-10T10:00:00Z', amendmentReason: 'Typed 25, the wrench read 24' }), expect: dentistWrites(201) },
   { route: 'POST /api/complications', method: 'post', path: () => '/api/complications', body: () => ({ siteId: ids.harold35, kind: 'veneer-chipping', occurredOn: '2025-03-03' }), expect: dentistWrites(201) },
   { route: 'POST /api/complications/:id/amendments', method: 'post', path: async () => `/api/complications/${await freshComplication()}/amendments`, body: () => ({ kind: 'screw-loosening', occurredOn: '2024-02-02', amendmentReason: 'Wrong kind chosen' }), expect: dentistWrites(201) },
-  { route: 'GET /api/sites/:id/timeline (shared)', method: 'get', path: () => `/api/sites/${ids.harold35}/timeline`, expect: sharedRead },
-  { route: 'GET /api/sites/:id/timeline (not shared)', method: 'get', path: () => `/api/sites/${ids.okafor46}/timeline`, expect: unsharedRead },
-  { route: 'GET /api/sites/:id/timeline (another practice)', method: 'get', path: () => `/api/sites/${ids.quarry36}/timeline`, expect: all(404, { otherPracticeDentist: 200 }) },
+  { route: 'GET /api/sites/:id/timeline (shared)', method: 'get', path: () => `/api/sites/${ids.harold35}/timeline`, expect: sharedRead() },
+  { route: 'GET /api/sites/:id/timeline (not shared)', method: 'get', path: () => `/api/sites/${ids.okafor46}/timeline`, expect: unsharedRead() },
+  { route: 'GET /api/sites/:id/timeline (another practice)', method: 'get', path: () => `/api/sites/${ids.quarry36}/timeline`, expect: otherPracticeRead() },
 ];
 
-describe.each(matrix)('$route', (row) => {
-  it.each(WHO)('as %s', async (who) => {
-    const path = await row.path();
-    let req = ctx.http[row.method](path);
-    if (who !== 'anonymous') req = req.set('Cookie', cookies[who]);
-    const res = row.body ? await req.send(await row.body()) : await req;
-    expect(res.status, JSON.stringify(res.body)).toBe(row.expect[who]);
-    if (res.status === 404) expect(res.body.message).toMatch(/^No such|Validation failed/);
-    if (res.status === 200 && path.endsWith('/pdf')) expect(res.headers['content-type']).toBe('application/pdf');
-  });
-});
+describeRoleMatrix(() => ctx, matrix);

@@ -5,7 +5,7 @@ import { RETIGHTEN_AFTER_MINUTES, RULES_VERSION } from '@torquetrail/domain';
 import { eq, ne } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { componentInstances, torqueEvents, torqueWrenches } from '../src/db/schema/index.js';
-import { larkspurId } from './support/ledger-fixtures.js';
+import { larkspurId, patientWithPart } from './support/ledger-fixtures.js';
 import { signIn, siteId, startTestApp, type TestContext } from './support/test-app.js';
 
 let ctx: TestContext;
@@ -23,7 +23,14 @@ afterAll(() => ctx.close());
 
 const logTorque = (body: object) => ctx.http.post('/api/torque-events').set('Cookie', dentist).send(body);
 const siteFile = async (id = harold35) => (await ctx.http.get(`/api/sites/${id}`).set('Cookie', dentist)).body;
-const timeline = async (query = '') => (await ctx.http.get(`/api/sites/${harold35}/timeline${query}`).set('Cookie', dentist)).body;
+const timeline = async (query = '', site = harold35) => (await ctx.http.get(`/api/sites/${site}/timeline${query}`).set('Cookie', dentist)).body;
+/**
+ * The same prosthetic screw as Harold's 35 (Solvra CN 4.3, 25 N·cm ±10 %) on a new patient, for
+ * the tests that read the last torque, the reminder or the Stack: entries of other tests on
+ * Harold's screw, and the order they run in, cannot change what these see.
+ */
+let freshScrews = 0;
+const freshScrew = async () => patientWithPart(ctx, `T-TQ${++freshScrews}`, 'Solvra CN 4.3', 'PSI');
 
 describe('torque entry', () => {
   it.each([0, 0.5, 100.5, 250, -3])('refuses %s N·cm (outside 1–100) with 400 on appliedNcm', async (appliedNcm) => {
@@ -43,6 +50,7 @@ describe('torque entry', () => {
   // The demo catalogue's prosthetic screw: 25 N·cm ± 10 % [common practice, manufacturer-specific];
   // torqueVerdict's window is inclusive at both ends [decision, docs/clinical-rules.md §6].
   it('stores the verdict against the part spec and tolerance with the rules version (25 N·cm ±10 %: 22.5–27.5 within)', async () => {
+    const { siteId: site, instanceId: screw } = await freshScrew();
     const under = await logTorque({ componentInstanceId: screw, appliedNcm: 22, reason: 're-torque-at-recall' });
     expect(under.status).toBe(201);
     expect(under.body).toMatchObject({ appliedNcm: 22, specNcm: 25, tolerancePct: 10, verdict: 'under', rulesVersion: RULES_VERSION });
@@ -50,20 +58,24 @@ describe('torque entry', () => {
     expect(edge.body.verdict).toBe('within');
     const over = await logTorque({ componentInstanceId: screw, appliedNcm: 28, reason: 're-torque-at-recall' });
     expect(over.body.verdict).toBe('over');
-    expect((await siteFile()).parts[0].lastTorque).toMatchObject({ appliedNcm: 28, verdict: 'over' });
+    expect((await siteFile(site)).parts[0].lastTorque).toMatchObject({ appliedNcm: 28, verdict: 'over' });
   });
 
   it('shows the re-torque reminder after an initial seating until a re-torque is logged', async () => {
-    // Later than every entry of the tests above (the server accepts a few minutes of clock skew).
+    const { siteId: site, instanceId: screw } = await freshScrew();
+    // A second ahead of now (the server accepts a few minutes of clock skew).
     const seatedAt = new Date(Date.now() + 1000);
     await logTorque({ componentInstanceId: screw, appliedNcm: 25, reason: 'initial-seating', performedAt: seatedAt.toISOString() });
-    const due = (await siteFile()).parts[0].retorqueDueAt;
+    const due = (await siteFile(site)).parts[0].retorqueDueAt;
     expect(new Date(due).getTime()).toBe(seatedAt.getTime() + RETIGHTEN_AFTER_MINUTES * 60_000);
     await logTorque({ componentInstanceId: screw, appliedNcm: 25, reason: 're-torque-after-settling', performedAt: new Date(seatedAt.getTime() + 60_000).toISOString() });
-    expect((await siteFile()).parts[0].retorqueDueAt).toBeNull();
+    expect((await siteFile(site)).parts[0].retorqueDueAt).toBeNull();
   });
 
   it('screw-replaced retires the old instance and starts a new one that replaces it (lot required)', async () => {
+    const { siteId: site, instanceId: screw } = await freshScrew();
+    // A history before the replacement, whose series must stay in the Timeline.
+    expect((await logTorque({ componentInstanceId: screw, appliedNcm: 25, reason: 're-torque-at-recall', performedAt: '2026-11-02T10:00:00Z' })).status).toBe(201);
     const noLot = await logTorque({ componentInstanceId: screw, appliedNcm: 25, reason: 'screw-replaced' });
     expect(noLot.status).toBe(400);
     expect(noLot.body.fields).toHaveProperty('replacementLot');
@@ -75,15 +87,14 @@ describe('torque entry', () => {
     const [replacement] = await ctx.db.select().from(componentInstances).where(eq(componentInstances.id, fresh));
     expect(old!.removedOn).not.toBeNull();
     expect(replacement).toMatchObject({ replacesId: screw, lot: 'PSI-2611-02', removedOn: null });
-    const file = await siteFile();
+    const file = await siteFile(site);
     expect(file.parts.map((p: { instanceId: string }) => p.instanceId)).toEqual([fresh]);
     expect(file.parts[0].retorqueDueAt).not.toBeNull();
     // The removed screw's history is kept: torque on it is refused, its series stays in the Timeline.
     expect((await logTorque({ componentInstanceId: screw, appliedNcm: 25, reason: 're-torque-at-recall' })).status).toBe(409);
-    const { torqueSeries } = await timeline();
+    const { torqueSeries } = await timeline('', site);
     expect(torqueSeries.map((s: { componentInstanceId: string }) => s.componentInstanceId)).toEqual([screw, fresh]);
     expect(torqueSeries[0].removedOn).not.toBeNull();
-    screw = fresh;
   });
 
   it('an amendment is a new version; the old entry stays in the Timeline marked as amended', async () => {

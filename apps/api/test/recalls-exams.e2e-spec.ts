@@ -7,7 +7,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { nextRecallDate } from '@torquetrail/domain';
 import { recallExams, recalls } from '../src/db/schema/index.js';
 import { RecallClock } from '../src/recalls/recall-clock.js';
-import { type AccountKey, patientId, signInAll, siteId, startTestApp, type TestContext } from './support/test-app.js';
+import { actorCookies, all, describeRoleMatrix, otherPracticeRead, type RoleCase, sharedRead, unsharedRead } from './support/role-matrix.js';
+import { type AccountKey, patientId, siteId, startTestApp, type TestContext } from './support/test-app.js';
 
 let ctx: TestContext;
 let cookies: Record<AccountKey, string>;
@@ -20,7 +21,7 @@ const healthyExam = (site: string) => ({ siteId: site, sites: sites([3, 3, 3, 3,
 
 beforeAll(async () => {
   ctx = await startTestApp();
-  cookies = await signInAll(ctx);
+  cookies = await actorCookies(ctx);
   today = ctx.app.get(RecallClock).today();
   ids.whitcombe = await patientId(ctx.db, 'LL-1001');
   ids.okafor = await patientId(ctx.db, 'LL-1003');
@@ -38,77 +39,26 @@ beforeAll(async () => {
 });
 afterAll(() => ctx.close());
 
-type Who = AccountKey | 'anonymous';
-const WHO: Who[] = ['dentist', 'hygienist', 'surgeon', 'practice_admin', 'otherPracticeDentist', 'anonymous'];
-
 describe('role matrix of the recall routes', () => {
-  const reads: { route: string; path: () => string; expect: Record<Who, number> }[] = [
-    { route: 'GET /api/recalls/desk', path: () => '/api/recalls/desk', expect: { dentist: 200, hygienist: 200, surgeon: 200, practice_admin: 200, otherPracticeDentist: 200, anonymous: 401 } },
-    { route: 'GET /api/recalls/desk/csv', path: () => '/api/recalls/desk/csv', expect: { dentist: 200, hygienist: 200, surgeon: 200, practice_admin: 200, otherPracticeDentist: 200, anonymous: 401 } },
-    { route: 'GET exam-context (shared with the surgeon)', path: () => `/api/recalls/patients/${ids.whitcombe}/exam-context`, expect: { dentist: 200, hygienist: 200, surgeon: 200, practice_admin: 200, otherPracticeDentist: 404, anonymous: 401 } },
-    { route: 'GET exam-context (not shared)', path: () => `/api/recalls/patients/${ids.okafor}/exam-context`, expect: { dentist: 200, hygienist: 200, surgeon: 404, practice_admin: 200, otherPracticeDentist: 404, anonymous: 401 } },
-    { route: 'GET exam-context (another practice)', path: () => `/api/recalls/patients/${ids.quarry}/exam-context`, expect: { dentist: 404, hygienist: 404, surgeon: 404, practice_admin: 404, otherPracticeDentist: 200, anonymous: 401 } },
-    { route: 'GET site exams (shared)', path: () => `/api/recalls/sites/${ids.whitcombe35}/exams`, expect: { dentist: 200, hygienist: 200, surgeon: 200, practice_admin: 200, otherPracticeDentist: 404, anonymous: 401 } },
-    { route: 'GET site exams (not shared)', path: () => `/api/recalls/sites/${ids.okafor46}/exams`, expect: { dentist: 200, hygienist: 200, surgeon: 404, practice_admin: 200, otherPracticeDentist: 404, anonymous: 401 } },
-    { route: 'GET site exams (another practice)', path: () => `/api/recalls/sites/${ids.quarry36}/exams`, expect: { dentist: 404, hygienist: 404, surgeon: 404, practice_admin: 404, otherPracticeDentist: 200, anonymous: 401 } },
-    { route: 'GET site exams (not a uuid)', path: () => '/api/recalls/sites/46/exams', expect: { dentist: 404, hygienist: 404, surgeon: 404, practice_admin: 404, otherPracticeDentist: 404, anonymous: 401 } },
-    { route: 'GET /api/recalls/policy', path: () => '/api/recalls/policy', expect: { dentist: 200, hygienist: 200, surgeon: 403, practice_admin: 200, otherPracticeDentist: 200, anonymous: 401 } },
-    { route: 'GET /api/recalls/reminders', path: () => '/api/recalls/reminders', expect: { dentist: 403, hygienist: 403, surgeon: 403, practice_admin: 200, otherPracticeDentist: 403, anonymous: 401 } },
+  const matrix: RoleCase[] = [
+    { route: 'GET /api/recalls/desk', path: () => '/api/recalls/desk', expect: all(200) },
+    { route: 'GET /api/recalls/desk/csv', path: () => '/api/recalls/desk/csv', expect: all(200) },
+    { route: 'GET exam-context (shared with the surgeon)', path: () => `/api/recalls/patients/${ids.whitcombe}/exam-context`, expect: sharedRead() },
+    { route: 'GET exam-context (not shared)', path: () => `/api/recalls/patients/${ids.okafor}/exam-context`, expect: unsharedRead() },
+    { route: 'GET exam-context (another practice)', path: () => `/api/recalls/patients/${ids.quarry}/exam-context`, expect: otherPracticeRead() },
+    { route: 'GET site exams (shared)', path: () => `/api/recalls/sites/${ids.whitcombe35}/exams`, expect: sharedRead() },
+    { route: 'GET site exams (not shared)', path: () => `/api/recalls/sites/${ids.okafor46}/exams`, expect: unsharedRead() },
+    { route: 'GET site exams (another practice)', path: () => `/api/recalls/sites/${ids.quarry36}/exams`, expect: otherPracticeRead() },
+    { route: 'GET site exams (not a uuid)', path: () => '/api/recalls/sites/46/exams', expect: all(404) },
+    { route: 'GET /api/recalls/policy', path: () => '/api/recalls/policy', expect: all(200, { surgeon: 403 }) },
+    { route: 'GET /api/recalls/reminders', path: () => '/api/recalls/reminders', expect: all(403, { practice_admin: 200 }) },
+    // Only the hygienist records exams; the guard refuses every other role before the record is looked up.
+    { route: 'POST /api/recalls/visits', method: 'post', path: () => '/api/recalls/visits', body: () => ({ patientId: ids.ferraz, examinedOn: today, exams: [healthyExam(ids.ferraz14!)] }), expect: all(403, { hygienist: 201 }) },
+    // Practice admin only. The policy sent is the default one, so no other test sees a change.
+    { route: 'PUT /api/recalls/policy', method: 'put', path: () => '/api/recalls/policy', body: () => ({ baseMonths: 6, riskMonths: 3, reminderDaysBefore: 14, overdueReminderDaysAfter: 7 }), expect: all(403, { practice_admin: 200 }) },
+    { route: 'POST /api/recalls/reminders/run', method: 'post', path: () => '/api/recalls/reminders/run', body: () => ({ today: '2000-01-01' }), expect: all(403, { practice_admin: 200 }) },
   ];
-  describe.each(reads)('$route', ({ path, expect: expected }) => {
-    it.each(WHO)('as %s', async (who) => {
-      const req = ctx.http.get(path());
-      const res = who === 'anonymous' ? await req : await req.set('Cookie', cookies[who]);
-      expect(res.status).toBe(expected[who]);
-    });
-  });
-
-  it('POST /api/recalls/visits: only the hygienist records exams; another practice gets 404 for Larkspur records', async () => {
-    const body = () => ({ patientId: ids.ferraz, examinedOn: today, exams: [healthyExam(ids.ferraz14)] });
-    const expected: Record<Who, number> = { dentist: 403, hygienist: 201, surgeon: 403, practice_admin: 403, otherPracticeDentist: 403, anonymous: 401 };
-    for (const who of WHO) {
-      const req = ctx.http.post('/api/recalls/visits').send(body());
-      const res = who === 'anonymous' ? await req : await req.set('Cookie', cookies[who]);
-      expect(res.status, who).toBe(expected[who]);
-    }
-  });
-
-  it('PUT /api/recalls/policy and POST reminders/run: practice admin only', async () => {
-    const policy = { baseMonths: 6, riskMonths: 3, reminderDaysBefore: 14, overdueReminderDaysAfter: 7 };
-    for (const who of WHO) {
-      const put = ctx.http.put('/api/recalls/policy').send(policy);
-      const run = ctx.http.post('/api/recalls/reminders/run').send({ today: '2000-01-01' });
-      const [p, r] = who === 'anonymous' ? [await put, await run] : [await put.set('Cookie', cookies[who]), await run.set('Cookie', cookies[who])];
-      const ok = who === 'practice_admin';
-      expect(p.status, who).toBe(who === 'anonymous' ? 401 : ok ? 200 : 403);
-      expect(r.status, who).toBe(who === 'anonymous' ? 401 : ok ? 200 : 403);
-    }
-  });
-});
-
-// Runs before the visits below change the seeded state.
-describe('the seeded recall history', () => {
-  it('matches the demo scenario: Harold due in about three weeks, Imogen overdue, Desmond peri-implantitis, Wendell not examined', async () => {
-    const desk = await ctx.http.get('/api/recalls/desk').set('Cookie', cookies.hygienist);
-    const row = (chart: string) => desk.body.items.find((r: { chartNumber: string }) => r.chartNumber === chart);
-    const daysUntil = (iso: string) => Math.round((Date.parse(iso) - Date.parse(today)) / 86_400_000);
-    expect(daysUntil(row('LL-1001').nextDueOn)).toBeGreaterThanOrEqual(19);
-    expect(daysUntil(row('LL-1001').nextDueOn)).toBeLessThanOrEqual(23);
-    expect(row('LL-1002').overdueDays).toBeGreaterThan(0);
-    expect(row('LL-1003').sites).toEqual([expect.objectContaining({ fdi: 46, status: 'peri-implantitis' })]);
-    expect(row('LL-1005').sites.map((x: { status: string }) => x.status)).toEqual(['not-examined', 'not-examined']);
-    expect(row('LL-1005').nextDueOn).toBeNull();
-    const harold = await ctx.http.get(`/api/recalls/patients/${ids.whitcombe}/exam-context`).set('Cookie', cookies.hygienist);
-    expect(harold.body.sites.map((s: { fdi: number; baseline: unknown; previous: { status: string } | null }) => [s.fdi, s.baseline !== null, s.previous?.status])).toEqual([
-      [35, true, 'health'],
-      [37, true, 'health'],
-    ]);
-    const file = await ctx.http.get(`/api/recalls/sites/${ids.whitcombe35}/exams`).set('Cookie', cookies.surgeon);
-    expect(file.body.exams[0].examinedOn.startsWith('2013')).toBe(true);
-    expect(file.body.exams.length).toBeGreaterThan(20);
-    const ctxWendell = await ctx.http.get(`/api/recalls/patients/${ids.wendell}/exam-context`).set('Cookie', cookies.hygienist);
-    expect(ctxWendell.body.sites.every((s: { baseline: unknown }) => s.baseline === null)).toBe(true);
-  });
+  describeRoleMatrix(() => ctx, matrix);
 });
 
 describe('recording a visit', () => {
@@ -138,11 +88,15 @@ describe('recording a visit', () => {
     expect(scheduled.filter((r) => r.status === 'scheduled').map((r) => r.dueOn)).toEqual([nextRecallDate(today, {})]);
   });
 
-  it('compares with the baseline: Desmond 46 with BOP, deeper pocket and bone loss is peri-implantitis (Berglundh et al. 2018); 3-month recall with risk factors (Herrera et al. 2023 EFP S3)', async () => {
-    const res = await ctx.http
+  /** Desmond Okafor's 46 today: BOP, a deeper pocket than at baseline and bone loss. */
+  const desmondVisit = () =>
+    ctx.http
       .post('/api/recalls/visits')
       .set('Cookie', cookies.hygienist)
       .send({ patientId: ids.okafor, examinedOn: today, exams: [{ siteId: ids.okafor46, sites: sites([6, 4, 5, 4, 3, 4], [0]), mobility: false, boneLevelMm: 3.5 }] });
+
+  it('compares with the baseline: Desmond 46 with BOP, deeper pocket and bone loss is peri-implantitis (Berglundh et al. 2018); 3-month recall with risk factors (Herrera et al. 2023 EFP S3)', async () => {
+    const res = await desmondVisit();
     expect(res.status).toBe(201);
     expect(res.body.exams[0]).toMatchObject({ status: 'peri-implantitis', baselineExamId: expect.any(String) });
     expect(res.body.exams[0].flags).not.toContain('no-baseline');
@@ -151,6 +105,7 @@ describe('recording a visit', () => {
   });
 
   it('shows the new status on the Arch and in the Site file, and the exam in the site history', async () => {
+    expect((await desmondVisit()).status).toBe(201);
     const arch = await ctx.http.get(`/api/patients/${ids.okafor}`).set('Cookie', cookies.dentist);
     expect(arch.body.sites[0]).toMatchObject({ fdi: 46, maintenanceStatus: 'peri-implantitis', lastExamDate: today });
     const file = await ctx.http.get(`/api/sites/${ids.okafor46}`).set('Cookie', cookies.dentist);
@@ -295,10 +250,16 @@ describe('the recall policy', () => {
     const before = await ctx.http.get('/api/recalls/policy').set('Cookie', cookies.hygienist);
     expect(before.body).toMatchObject({ baseMonths: 6, riskMonths: 3 });
     const put = await ctx.http.put('/api/recalls/policy').set('Cookie', cookies.practice_admin).send({ baseMonths: 12, riskMonths: 4, reminderDaysBefore: 10, overdueReminderDaysAfter: 5 });
-    expect(put.status).toBe(200);
-    expect(put.body).toMatchObject({ baseMonths: 12, riskMonths: 4, isDefault: false });
-    const visit = await ctx.http.post('/api/recalls/visits').set('Cookie', cookies.hygienist).send({ patientId: ids.ferraz, examinedOn: today, exams: [healthyExam(ids.ferraz14)] });
-    expect(visit.body.nextRecall).toMatchObject({ intervalMonths: 12, dueOn: nextRecallDate(today, {}, { baseMonths: 12, riskMonths: 4 }) });
+    try {
+      expect(put.status).toBe(200);
+      expect(put.body).toMatchObject({ baseMonths: 12, riskMonths: 4, isDefault: false });
+      const visit = await ctx.http.post('/api/recalls/visits').set('Cookie', cookies.hygienist).send({ patientId: ids.ferraz, examinedOn: today, exams: [healthyExam(ids.ferraz14)] });
+      expect(visit.body.nextRecall).toMatchObject({ intervalMonths: 12, dueOn: nextRecallDate(today, {}, { baseMonths: 12, riskMonths: 4 }) });
+    } finally {
+      // The other tests of this file expect the default intervals, whichever order they run in.
+      const { baseMonths, riskMonths, reminderDaysBefore, overdueReminderDaysAfter } = before.body;
+      await ctx.http.put('/api/recalls/policy').set('Cookie', cookies.practice_admin).send({ baseMonths, riskMonths, reminderDaysBefore, overdueReminderDaysAfter });
+    }
   });
 
   it('refuses a risk interval longer than the base interval', async () => {

@@ -2,7 +2,8 @@
 // is shared into four Larkspur patients) and a dentist of the unrelated Quarry Hill practice.
 // Expectations follow the product brief's role table (see docs/authorization.md).
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { type AccountKey, patientId, signInAll, siteId, startTestApp, type TestContext } from './support/test-app.js';
+import { actorCookies, all, describeRoleMatrix, otherPracticeRead, type RoleCase, sharedRead, unsharedRead } from './support/role-matrix.js';
+import { type AccountKey, patientId, siteId, startTestApp, type TestContext } from './support/test-app.js';
 
 let ctx: TestContext;
 let cookies: Record<AccountKey, string>;
@@ -10,7 +11,7 @@ const ids: Record<string, string> = {};
 
 beforeAll(async () => {
   ctx = await startTestApp();
-  cookies = await signInAll(ctx);
+  cookies = await actorCookies(ctx);
   ids.whitcombe = await patientId(ctx.db, 'LL-1001'); // shared with the surgeon
   ids.okafor = await patientId(ctx.db, 'LL-1003'); // not shared
   ids.quarry = await patientId(ctx.db, 'QH-2001'); // another practice
@@ -20,30 +21,20 @@ beforeAll(async () => {
 });
 afterAll(() => ctx.close());
 
-type Who = AccountKey | 'anonymous';
-const WHO: Who[] = ['dentist', 'hygienist', 'surgeon', 'practice_admin', 'otherPracticeDentist', 'anonymous'];
-
-const matrix: { route: string; path: () => string; expect: Record<Who, number> }[] = [
-  { route: 'GET /api/auth/me', path: () => '/api/auth/me', expect: { dentist: 200, hygienist: 200, surgeon: 200, practice_admin: 200, otherPracticeDentist: 200, anonymous: 401 } },
-  { route: 'GET /api/patients', path: () => '/api/patients', expect: { dentist: 200, hygienist: 200, surgeon: 200, practice_admin: 200, otherPracticeDentist: 200, anonymous: 401 } },
-  { route: 'GET /api/patients/:id (own practice, shared with the surgeon)', path: () => `/api/patients/${ids.whitcombe}`, expect: { dentist: 200, hygienist: 200, surgeon: 200, practice_admin: 200, otherPracticeDentist: 404, anonymous: 401 } },
-  { route: 'GET /api/patients/:id (own practice, not shared)', path: () => `/api/patients/${ids.okafor}`, expect: { dentist: 200, hygienist: 200, surgeon: 404, practice_admin: 200, otherPracticeDentist: 404, anonymous: 401 } },
-  { route: 'GET /api/patients/:id (another practice)', path: () => `/api/patients/${ids.quarry}`, expect: { dentist: 404, hygienist: 404, surgeon: 404, practice_admin: 404, otherPracticeDentist: 200, anonymous: 401 } },
-  { route: 'GET /api/patients/:id (no such id)', path: () => '/api/patients/00000000-0000-4000-8000-000000000000', expect: { dentist: 404, hygienist: 404, surgeon: 404, practice_admin: 404, otherPracticeDentist: 404, anonymous: 401 } },
-  { route: 'GET /api/sites/:id (shared)', path: () => `/api/sites/${ids.whitcombe35}`, expect: { dentist: 200, hygienist: 200, surgeon: 200, practice_admin: 200, otherPracticeDentist: 404, anonymous: 401 } },
-  { route: 'GET /api/sites/:id (not shared)', path: () => `/api/sites/${ids.okafor46}`, expect: { dentist: 200, hygienist: 200, surgeon: 404, practice_admin: 200, otherPracticeDentist: 404, anonymous: 401 } },
-  { route: 'GET /api/sites/:id (another practice)', path: () => `/api/sites/${ids.quarry36}`, expect: { dentist: 404, hygienist: 404, surgeon: 404, practice_admin: 404, otherPracticeDentist: 200, anonymous: 401 } },
-  { route: 'GET /api/sites/:id (not a uuid)', path: () => '/api/sites/36', expect: { dentist: 404, hygienist: 404, surgeon: 404, practice_admin: 404, otherPracticeDentist: 404, anonymous: 401 } },
+const matrix: RoleCase[] = [
+  { route: 'GET /api/auth/me', path: () => '/api/auth/me', expect: all(200) },
+  { route: 'GET /api/patients', path: () => '/api/patients', expect: all(200) },
+  { route: 'GET /api/patients/:id (own practice, shared with the surgeon)', path: () => `/api/patients/${ids.whitcombe}`, expect: sharedRead() },
+  { route: 'GET /api/patients/:id (own practice, not shared)', path: () => `/api/patients/${ids.okafor}`, expect: unsharedRead() },
+  { route: 'GET /api/patients/:id (another practice)', path: () => `/api/patients/${ids.quarry}`, expect: otherPracticeRead() },
+  { route: 'GET /api/patients/:id (no such id)', path: () => '/api/patients/00000000-0000-4000-8000-000000000000', expect: all(404) },
+  { route: 'GET /api/sites/:id (shared)', path: () => `/api/sites/${ids.whitcombe35}`, expect: sharedRead() },
+  { route: 'GET /api/sites/:id (not shared)', path: () => `/api/sites/${ids.okafor46}`, expect: unsharedRead() },
+  { route: 'GET /api/sites/:id (another practice)', path: () => `/api/sites/${ids.quarry36}`, expect: otherPracticeRead() },
+  { route: 'GET /api/sites/:id (not a uuid)', path: () => '/api/sites/36', expect: all(404) },
 ];
 
-describe.each(matrix)('$route', ({ path, expect: expected }) => {
-  it.each(WHO)('as %s', async (who) => {
-    const req = ctx.http.get(path());
-    const res = who === 'anonymous' ? await req : await req.set('Cookie', cookies[who]);
-    expect(res.status).toBe(expected[who]);
-    if (res.status === 404) expect(res.body.message).toMatch(/^No such|Validation failed/);
-  });
-});
+describeRoleMatrix(() => ctx, matrix);
 
 describe('what each list holds', () => {
   const chartNumbers = async (who: AccountKey, search?: string) => {

@@ -5,7 +5,7 @@
 import { and, eq, isNull } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { complications, componentInstances, components, implantSites, patientShares, patients, placements, practices, recallExams, restorations, torqueEvents, torqueWrenches, users } from '../src/db/schema/index.js';
-import { larkspurId, parts, platformId } from './support/ledger-fixtures.js';
+import { larkspurId, parts, patientWithPart, platformId } from './support/ledger-fixtures.js';
 import { ACCOUNTS, type AccountKey, patientId, signIn, signInAll, siteId, startTestApp, type TestContext } from './support/test-app.js';
 
 let ctx: TestContext;
@@ -92,11 +92,13 @@ afterAll(() => ctx.close());
 
 describe('practice isolation through ids in request bodies', () => {
   it('POST /restorations: a part of another practice’s catalogue is refused (400) and nothing is saved', async () => {
+    // Other tests of this file plan on Wendell too: count his plans before, whichever ran first.
+    const plans = async () => (await ctx.http.get(`/api/patients/${ids.wendell}/restorations`).set('Cookie', cookies.dentist)).body.items as unknown[];
+    const before = (await plans()).length;
     const res = await ctx.http.post('/api/restorations').set('Cookie', cookies.dentist).send(wendellPlan({ screw: ids.quarryScrewPart }));
     expect(res.status).toBe(400);
     expect(res.body.fields['sites.0.screwComponentIds.0']).toMatch(/practice catalogue/);
-    const list = await ctx.http.get(`/api/patients/${ids.wendell}/restorations`).set('Cookie', cookies.dentist);
-    expect(list.body.items).toHaveLength(0);
+    expect(await plans()).toHaveLength(before);
   });
 
   it('POST /restorations: Quarry Hill may not plan with Larkspur’s catalogue ids on its own patient', async () => {
@@ -439,10 +441,12 @@ describe('history is never forked or doubled by concurrent saves', () => {
   });
 
   it('POST /torque-events (screw-replaced): one replacement of a part under concurrency', async () => {
-    const body = { componentInstanceId: ids.ferrazScrew, appliedNcm: 25, reason: 'screw-replaced', replacementLot: 'AS-NEW-1', performedAt: '2025-07-07T10:00:00Z' };
+    // A screw of its own: retiring Lucía Ferraz's would refuse the torque entries of other tests.
+    const { instanceId: screw } = await patientWithPart(ctx, 'T-SR1', 'Solvra CN 4.3', 'PSI');
+    const body = { componentInstanceId: screw, appliedNcm: 25, reason: 'screw-replaced', replacementLot: 'AS-NEW-1', performedAt: '2026-11-07T10:00:00Z' };
     const replies = await Promise.all([1, 2, 3].map(() => ctx.http.post('/api/torque-events').set('Cookie', cookies.dentist).send(body)));
     expect(statuses(replies)).toEqual([201, 409, 409]);
-    expect(await ctx.db.select({ id: componentInstances.id }).from(componentInstances).where(eq(componentInstances.replacesId, ids.ferrazScrew!))).toHaveLength(1);
+    expect(await ctx.db.select({ id: componentInstances.id }).from(componentInstances).where(eq(componentInstances.replacesId, screw))).toHaveLength(1);
   });
 
   it('POST /recalls/exams/:id/amend: one amendment per exam under concurrency', async () => {

@@ -1,15 +1,49 @@
+// The package root is what the API and the web import. Each public function is called here
+// through the root with one check case taken from its own module's test (which names the
+// published source); a root that re-exported a stale or wrong implementation would fail here,
+// where a check of `typeof … === 'function'` could not.
 import { describe, it, expect } from 'vitest';
 import * as domain from './index.js';
 
-describe('package root exports the public API', () => {
-  it.each([
-    'fdiToUniversal', 'universalToFdi', 'formatTooth', 'toothKind', 'toothArch', 'isPrimaryTooth', 'isValidFdi',
-    'classifyPeriImplant', 'gtinCheckDigit', 'isValidGtin', 'parseUdi', 'checkUdiForPlacement', 'divergenceDeg', 'pixelDistanceMm',
-    'correctByKnownLength', 'torqueVerdict', 'albrektssonAllowanceMm', 'meetsAlbrektsson', 'icoiGrade',
-    'minRestorativeSpaceMm', 'validateRestorationPlan', 'nextRecallDate',
-  ])('%s is a function', (name) => {
-    expect(typeof (domain as Record<string, unknown>)[name]).toBe('function');
+describe('package root answers through the public API', () => {
+  it.each<[string, () => unknown, unknown]>([
+    // tooth-numbering.test.ts: HL7 ADA Universal table [pub], ISO 3950 [memory], anatomy [common practice]
+    ['fdiToUniversal', () => domain.fdiToUniversal(21), '9'],
+    ['universalToFdi', () => domain.universalToFdi('a'), 55],
+    ['formatTooth', () => domain.formatTooth(36, 'universal'), '19'],
+    ['toothKind', () => domain.toothKind(46), 'molar'],
+    ['toothArch', () => domain.toothArch(71), 'lower'],
+    ['isPrimaryTooth', () => domain.isPrimaryTooth(51), true],
+    ['isValidFdi', () => domain.isValidFdi(19), false],
+    // peri-implant-status.test.ts case 3 (Berglundh et al. 2018 [pub])
+    ['classifyPeriImplant', () => domain.classifyPeriImplant({ sites: [{ probingDepthMm: 3, bleeding: false, suppuration: false }, { probingDepthMm: 7, bleeding: true, suppuration: false }], boneLevelMm: 3.5 }, { sites: [{ probingDepthMm: 3 }, { probingDepthMm: 4 }], boneLevelMm: 1.0 }).status, 'peri-implantitis'],
+    // udi.test.ts: GS1 examples [pub]
+    ['gtinCheckDigit', () => domain.gtinCheckDigit('629104150021'), 3],
+    ['isValidGtin', () => domain.isValidGtin('6291041500213'), true],
+    ['parseUdi', () => domain.parseUdi('(01)05012345678900(17)270228(10)ABC123', new Date(Date.UTC(2026, 11, 1))), { gtin: '05012345678900', expiry: '2027-02-28', lot: 'ABC123' }],
+    // udi-placement.test.ts (GS1 AI 17 use-by date; lot check [common practice])
+    ['checkUdiForPlacement', () => domain.checkUdiForPlacement({ gtin: '08845212345677', lot: 'SCN3511-26X', expiry: '2028-12-31' }, { placedOn: '2030-01-01', lot: 'OTHER' }).map((f) => f.code), ['lot-mismatch', 'expired-before-placement']],
+    // geometry.test.ts (Jang 2011 [pub] uses the angle between axes)
+    ['divergenceDeg', () => Math.round(domain.divergenceDeg([0, 0, 1], [1, 0, 1]) * 1e9) / 1e9, 45],
+    // radiograph-measure.test.ts (DICOM Pixel Spacing, row spacing first [pub])
+    ['pixelDistanceMm', () => Math.round(domain.pixelDistanceMm({ row: 10, col: 20 }, { row: 40, col: 60 }, [0.1, 0.1]) * 1e9) / 1e9, 5],
+    ['correctByKnownLength', () => Math.round(domain.correctByKnownLength({ measuredMm: 2.12, implantMeasuredMm: 10.6, implantTrueMm: 10.0 }) * 1e9) / 1e9, 2],
+    // torque.test.ts (ISO 6789 ±6 % [pub])
+    ['torqueVerdict', () => domain.torqueVerdict({ appliedNcm: 32.89, specNcm: 35, tolerancePct: 6 }), 'under'],
+    // bone-level.test.ts (Albrektsson 1986 [pub], Misch 2008 ICOI scale [pub])
+    ['albrektssonAllowanceMm', () => domain.albrektssonAllowanceMm(0.5), 1.5],
+    ['meetsAlbrektsson', () => domain.meetsAlbrektsson([{ date: '2020-03-01', boneLevelMm: 0 }, { date: '2021-03-01', boneLevelMm: 1.6 }, { date: '2022-03-01', boneLevelMm: 1.6 }, { date: '2023-03-01', boneLevelMm: 1.6 }], '2020-03-01').meets, false],
+    ['icoiGrade', () => domain.icoiGrade({ boneLossMm: 0.5, implantLengthMm: 10, mobility: true, painOnFunction: false, exudate: 'none' }), 'IV'],
+    // restorative-space.test.ts (Carpentieri et al. 2019 [pub], strictest end)
+    ['minRestorativeSpaceMm', () => domain.minRestorativeSpaceMm('cement'), 8],
+    // restoration-plan.test.ts: a valid cemented single crown gives no finding
+    ['validateRestorationPlan', () => domain.validateRestorationPlan({ kind: 'single-crown', retention: 'cement-on-abutment', sites: [{ fdi: 11, interface: 'engaging', impressionCoping: 'engaging', restorativeSpaceMm: 8 }] }), []],
+    // recall-interval.test.ts (practice policy, 6 months without risk [common practice])
+    ['nextRecallDate', () => domain.nextRecallDate('2026-03-15', {}), '2026-09-15'],
+  ])('%s', (_name, call, expected) => {
+    expect(call()).toEqual(expected);
   });
+
   it('constants and error classes', () => {
     expect(domain.RULES_VERSION).toMatch(/^\d{4}\.\d{1,2}\.\d+$/);
     expect(domain.TOOTH_POSITIONS_PERMANENT).toHaveLength(32);
@@ -19,5 +53,11 @@ describe('package root exports the public API', () => {
     expect(new domain.ToothPositionError('x')).toBeInstanceOf(RangeError);
     expect(new domain.UdiError('bad-date', 'x').name).toBe('UdiError');
     expect(domain.PERI_IMPLANT_FLAGS.PERI_IMPLANTITIS_NOT_EXCLUDED_WITHOUT_BASELINE).toBe('peri-implantitis-not-excluded-without-baseline');
+  });
+
+  it('throws the typed errors of the package root for invalid input', () => {
+    expect(() => domain.fdiToUniversal(19)).toThrow(domain.ToothPositionError);
+    expect(() => domain.gtinCheckDigit('12a')).toThrow(domain.UdiError);
+    expect(() => domain.minRestorativeSpaceMm('denture' as domain.RestorativeDesign)).toThrow(domain.ValidationError);
   });
 });

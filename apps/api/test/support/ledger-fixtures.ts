@@ -1,8 +1,8 @@
 // Fixtures for the ledger tests: extra demo-practice patients with freshly placed implants (one
-// per restoration pathway), and the catalogue ids the planner needs.
+// per restoration pathway, or one with a part in place), and the catalogue ids the planner needs.
 import { and, eq } from 'drizzle-orm';
 import type { Database } from '../../src/db/database.js';
-import { components, implantSites, patients, placements, platforms, practices } from '../../src/db/schema/index.js';
+import { componentInstances, components, implantSites, patients, placements, platforms, practices } from '../../src/db/schema/index.js';
 import type { TestContext } from './test-app.js';
 
 export async function larkspurId(db: Database) {
@@ -54,4 +54,20 @@ export async function patientWithImplants(ctx: TestContext, chartNumber: string,
     });
   }
   return { patientId: patient!.id, siteIds };
+}
+
+/**
+ * A new Larkspur patient with one implant and one part of its platform in place (installed last
+ * month, no torque logged yet): a part of its own for a test that retires, replaces or re-torques
+ * one, so no other test sees the change.
+ */
+export async function patientWithPart(ctx: TestContext, chartNumber: string, platformName: string, partSuffix: string, fdi = 35) {
+  const { patientId, siteIds } = await patientWithImplants(ctx, chartNumber, platformName, [{ fdi }]);
+  const practiceId = await larkspurId(ctx.db);
+  const part = await parts(ctx.db, practiceId, platformName);
+  const [instance] = await ctx.db
+    .insert(componentInstances)
+    .values({ practiceId, patientId, siteId: siteIds[fdi]!, componentId: part(partSuffix), lot: `${partSuffix}-${chartNumber}`, installedOn: '2026-10-15' })
+    .returning({ id: componentInstances.id });
+  return { patientId, siteId: siteIds[fdi]!, instanceId: instance!.id };
 }
