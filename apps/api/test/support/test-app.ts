@@ -4,7 +4,7 @@ import type { INestApplication } from '@nestjs/common';
 import { and, eq, sql } from 'drizzle-orm';
 import request from 'supertest';
 import { createApp } from '../../src/app.js';
-import { parseEnv } from '../../src/config/env.js';
+import { type Env, parseEnv } from '../../src/config/env.js';
 import { createDatabase, createPool, type Database } from '../../src/db/database.js';
 import { implantSites, patients } from '../../src/db/schema/index.js';
 import { DEMO_PASSWORD } from '../../src/seed/demo-scenario.js';
@@ -28,8 +28,9 @@ export async function resetDatabase(db: Database): Promise<void> {
   await db.transaction((tx) => seedDemo(tx, todayIso()));
 }
 
-export async function startTestApp(): Promise<TestContext> {
-  const env = testEnv();
+/** The app on the test database; `overrides` change settings for one file (e.g. TRUST_PROXY). */
+export async function startTestApp(overrides: Partial<Env> = {}): Promise<TestContext> {
+  const env = { ...testEnv(), ...overrides };
   const pool = createPool(env.DATABASE_URL);
   const db = createDatabase(pool);
   await resetDatabase(db);
