@@ -7,6 +7,8 @@ describe('package root exports the public API', () => {
     'classifyPeriImplant', 'gtinCheckDigit', 'isValidGtin', 'parseUdi', 'checkUdiForPlacement', 'divergenceDeg', 'pixelDistanceMm',
     'correctByKnownLength', 'torqueVerdict', 'albrektssonAllowanceMm', 'meetsAlbrektsson', 'icoiGrade',
     'minRestorativeSpaceMm', 'validateRestorationPlan', 'nextRecallDate',
+    'torqueToleranceBand', 'retorqueDueAt', 'choosePeriImplantBaseline', 'toPeriImplantExam', 'toPeriImplantBaseline', 'remindersDue',
+    'addCalendarDays', 'isRetrievable',
   ])('%s is a function', (name) => {
     expect(typeof (domain as Record<string, unknown>)[name]).toBe('function');
   });
