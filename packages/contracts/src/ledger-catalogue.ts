@@ -1,14 +1,12 @@
 // Component catalogue and torque wrenches: the practice admin edits, everyone in the practice reads.
 import { z } from 'zod';
+import { TORQUE_NCM_RANGE } from '@torquetrail/domain';
 import { Id, IsoDate } from './common.js';
-import { ComponentKind, Connection } from './sites.js';
+import { ComponentKind, Connection, Tray, WrenchType } from './enums.js';
 
 /** Shown on the catalogue and every torque form. */
 export const MANUFACTURER_CAUTION =
   "Torque values and compatibility are manufacturer-specific: the manufacturer's instructions, the clinician's judgement and local regulations rule.";
-
-export const Tray = z.enum(['open', 'closed']);
-export type Tray = z.infer<typeof Tray>;
 
 export const CatalogueComponent = z.object({
   id: Id,
@@ -52,6 +50,8 @@ export const CatalogueReply = z.object({ caution: z.string(), systems: z.array(C
 export type CatalogueReply = z.infer<typeof CatalogueReply>;
 
 const name = z.string().trim().min(1, 'Required').max(120);
+/** N·cm, within the domain's accepted range. */
+const torqueSpecNcm = z.number().min(TORQUE_NCM_RANGE.min, `At least ${TORQUE_NCM_RANGE.min} N·cm`).max(TORQUE_NCM_RANGE.max, `At most ${TORQUE_NCM_RANGE.max} N·cm`);
 
 export const SystemBody = z.object({ name, manufacturer: name });
 export type SystemBody = z.infer<typeof SystemBody>;
@@ -79,7 +79,7 @@ export const ComponentBody = z.object({
   collarHeightMm: z.number().min(0).max(10).nullable().default(null),
   tray: Tray.nullable().default(null),
   /** N·cm; null = hand-tight. */
-  torqueSpecNcm: z.number().min(1, 'At least 1 N·cm').max(100, 'At most 100 N·cm').nullable().default(null),
+  torqueSpecNcm: torqueSpecNcm.nullable().default(null),
   tolerancePct: z.number().min(0).max(50).default(10),
   requiresLot: z.boolean().default(true),
 });
@@ -92,14 +92,12 @@ export const ComponentPatch = z.object({
   angleDeg: z.number().min(0).max(45).nullable().optional(),
   collarHeightMm: z.number().min(0).max(10).nullable().optional(),
   tray: Tray.nullable().optional(),
-  torqueSpecNcm: z.number().min(1, 'At least 1 N·cm').max(100, 'At most 100 N·cm').nullable().optional(),
+  torqueSpecNcm: torqueSpecNcm.nullable().optional(),
   tolerancePct: z.number().min(0).max(50).optional(),
   requiresLot: z.boolean().optional(),
 });
 export type ComponentPatch = z.infer<typeof ComponentPatch>;
 
-export const WrenchType = z.enum(['spring', 'friction']);
-export type WrenchType = z.infer<typeof WrenchType>;
 export const Wrench = z.object({ id: Id, label: z.string(), type: WrenchType, lastCalibratedOn: IsoDate.nullable() });
 export type Wrench = z.infer<typeof Wrench>;
 export const WrenchListReply = z.object({ items: z.array(Wrench) });

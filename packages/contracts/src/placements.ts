@@ -3,19 +3,13 @@ import { z } from 'zod';
 import { AxisComponent, Id, IsoDate, IsoDateTime } from './common.js';
 import type { RouteContract } from './route-contract.js';
 import { ArchSite } from './patients.js';
-import { ComponentKind, Connection } from './sites.js';
+import { CLOSURE_KINDS, Connection, LoadingProtocol } from './enums.js';
 
 export const AddSiteBody = z.object({
   /** FDI (ISO 3950) position; checked with the domain's `isValidFdi` on the server. */
   fdi: z.number({ error: 'Choose a tooth position' }).int('Choose a tooth position'),
 });
 export type AddSiteBody = z.input<typeof AddSiteBody>;
-
-export const LoadingProtocol = z.enum(['immediate', 'early', 'conventional']);
-export type LoadingProtocol = z.infer<typeof LoadingProtocol>;
-
-/** Parts that close the implant at surgery: hand-tight, no torque is logged. */
-export const CLOSURE_KINDS = ['healing-abutment', 'cover-screw'] as const satisfies readonly ComponentKind[];
 
 export const PlacementOptionComponent = z.object({
   id: Id,
