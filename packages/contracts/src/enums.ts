@@ -152,6 +152,8 @@ export const ReminderStatus = z.enum(REMINDER_STATUSES);
 export type ReminderStatus = z.infer<typeof ReminderStatus>;
 
 export const DESK_FILTERS = ['all', 'due-this-week', 'overdue', 'peri-implantitis-last'] as const;
+/** The 'due-this-week' filter: recalls due from today to this many days ahead, inclusive. */
+export const DESK_DUE_SOON_DAYS = 7;
 export const DeskFilter = z.enum(DESK_FILTERS);
 export type DeskFilter = z.infer<typeof DeskFilter>;
 export const DESK_SORTS = ['dueOn', 'overdueDays', 'name', 'lastExamOn'] as const;

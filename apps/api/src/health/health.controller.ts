@@ -1,6 +1,6 @@
 import { Controller, Get, Inject } from '@nestjs/common';
 import { sql } from 'drizzle-orm';
-import type { HealthReply } from '@torquetrail/contracts';
+import type { HealthReply, ServiceState } from '@torquetrail/contracts';
 import { Public } from '../common/public.decorator.js';
 import { DB, type Database } from '../db/database.js';
 import { MailService } from '../mail/mail.service.js';
@@ -23,7 +23,7 @@ export class HealthController {
       this.storage.isUp(),
       this.mail.isUp(),
     ]);
-    const state = (up: boolean): 'up' | 'down' => (up ? 'up' : 'down');
+    const state = (up: boolean): ServiceState => (up ? 'up' : 'down');
     return {
       status: state(database && objectStorage && mail),
       services: { database: state(database), objectStorage: state(objectStorage), mail: state(mail) },

@@ -3,11 +3,22 @@ import { BadRequestException, ConflictException, Inject, Injectable } from '@nes
 import { sql } from 'drizzle-orm';
 import { type AppAbility, subject } from '@torquetrail/authz';
 import { AmendExamBody as AmendExamSchema, CreateVisitBody as CreateVisitSchema, type CreateVisitReply, type RecallExam, type ExamContext, type SiteExamHistory } from '@torquetrail/contracts';
-import { classifyPeriImplant, DEFAULT_BONE_LOSS_MM, DEFAULT_PD_INCREASE_MM, DomainError, nextRecallDate, RULES_VERSION } from '@torquetrail/domain';
+import {
+  choosePeriImplantBaseline,
+  classifyPeriImplant,
+  DEFAULT_BONE_LOSS_MM,
+  DEFAULT_PD_INCREASE_MM,
+  DomainError,
+  inChartOrder,
+  latestExam,
+  nextRecallDate,
+  RULES_VERSION,
+  toPeriImplantBaseline,
+  toPeriImplantExam,
+} from '@torquetrail/domain';
 import type { z } from 'zod';
 import { assertCan, type Scope } from '../authz/scope.js';
 import { DB, type Database, type Tx } from '../db/database.js';
-import { chooseBaseline, inChartOrder, latestOf, toDomainBaseline, toDomainExam } from './exam-rules.js';
 import {
   findExamsByIds,
   findPolicy,
@@ -53,8 +64,8 @@ export class ExamsService {
       policy: ability.can('read', subject('RecallPolicy', { practiceId: patient.practiceId })) ? policy : null,
       sites: sites.map((s) => {
         const mine = exams.filter((e) => e.siteId === s.siteId);
-        const baseline = chooseBaseline(mine, today, s.deliveredOn);
-        const previous = latestOf(mine);
+        const baseline = choosePeriImplantBaseline(mine, { examinedOn: today, isBaseline: false }, s.deliveredOn);
+        const previous = latestExam(mine);
         return {
           siteId: s.siteId,
           fdi: s.fdi,
@@ -100,10 +111,10 @@ export class ExamsService {
       for (const [i, exam] of body.exams.entries()) {
         const site = sites.get(exam.siteId)!;
         const probes = inChartOrder(exam.sites);
-        const baseline = exam.isBaseline ? null : chooseBaseline(earlier.filter((e) => e.siteId === site.siteId), body.examinedOn, site.deliveredOn);
+        const baseline = choosePeriImplantBaseline(earlier.filter((e) => e.siteId === site.siteId), { examinedOn: body.examinedOn, isBaseline: exam.isBaseline }, site.deliveredOn);
         let verdict;
         try {
-          verdict = classifyPeriImplant(toDomainExam({ sites: probes, boneLevelMm: exam.boneLevelMm }), toDomainBaseline(baseline), RULE_OPTIONS);
+          verdict = classifyPeriImplant(toPeriImplantExam({ sites: probes, boneLevelMm: exam.boneLevelMm }), toPeriImplantBaseline(exam, baseline), RULE_OPTIONS);
         } catch (error) {
           if (error instanceof DomainError) throw badField(`exams.${i}`, error.message);
           throw error;
@@ -177,10 +188,10 @@ export class ExamsService {
       const site = (await listSitesForExam(tx, patient.id)).find((s) => s.siteId === old.siteId)!;
       const earlier = (await listExamsOfSites(tx, [site.siteId])).filter((e) => e.id !== old.id);
       const probes = inChartOrder(body.sites);
-      const baseline = body.isBaseline ? null : chooseBaseline(earlier, old.examinedOn, site.deliveredOn);
+      const baseline = choosePeriImplantBaseline(earlier, { examinedOn: old.examinedOn, isBaseline: body.isBaseline }, site.deliveredOn);
       let verdict;
       try {
-        verdict = classifyPeriImplant(toDomainExam({ sites: probes, boneLevelMm: body.boneLevelMm }), toDomainBaseline(baseline), RULE_OPTIONS);
+        verdict = classifyPeriImplant(toPeriImplantExam({ sites: probes, boneLevelMm: body.boneLevelMm }), toPeriImplantBaseline(body, baseline), RULE_OPTIONS);
       } catch (error) {
         if (error instanceof DomainError) throw badField('sites', error.message);
         throw error;

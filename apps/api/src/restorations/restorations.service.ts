@@ -1,7 +1,7 @@
 import { ConflictException, Inject, Injectable } from '@nestjs/common';
 import { type AppAbility, subject } from '@torquetrail/authz';
 import type { DeliveryBody, PlanAmendmentBody, PlanBody, RestorableSitesReply, RestorationDetail, RestorationListReply } from '@torquetrail/contracts';
-import { RULES_VERSION, fdiToUniversal } from '@torquetrail/domain';
+import { RULES_VERSION, fdiToUniversal, isRetrievable } from '@torquetrail/domain';
 import { and, eq, inArray, isNull, ne, or } from 'drizzle-orm';
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
@@ -271,7 +271,7 @@ export class RestorationsService {
       supersedesId: r.supersedesId,
       amendmentReason: r.amendmentReason,
       supersededById: r.supersededById,
-      retrievable: r.retention !== 'cement-on-abutment',
+      retrievable: isRetrievable(r.retention),
       acknowledgements: acks.filter((a) => a.restorationId === r.id).map((a) => ({ code: a.code, fdi: a.fdi, byName: a.byName, at: a.at.toISOString() })),
       labPrescriptions: labs
         .filter((l) => l.restorationId === r.id)

@@ -1,6 +1,7 @@
 // Builds the Timeline of a site from its rows: every event in time order, amended entries kept
 // and marked, with one torque series per part for the chart.
 import type { TimelineEvent, TimelineKind, TimelineReply, TorqueSeries } from '@torquetrail/contracts';
+import { isRetrievable } from '@torquetrail/domain';
 import type * as repo from './timeline.repository.js';
 
 type Rows<K extends keyof typeof repo> = Awaited<ReturnType<(typeof repo)[K]>>;
@@ -70,7 +71,7 @@ export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: Timeli
     if (r.deliveredOn) {
       events.push(
         base('delivery', r.id, day(r.deliveredOn), true, `Restoration delivered: ${what}`, {
-          detail: r.retention === 'cement-on-abutment' ? 'Cement-retained: not retrievable without cutting' : 'Retrievable',
+          detail: isRetrievable(r.retention) ? 'Retrievable' : 'Cement-retained: not retrievable without cutting',
           amended: r.amended,
         }),
       );
