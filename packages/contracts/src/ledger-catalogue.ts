@@ -50,6 +50,9 @@ export const CatalogueReply = z.object({ caution: z.string(), systems: z.array(C
 export type CatalogueReply = z.infer<typeof CatalogueReply>;
 
 const name = z.string().trim().min(1, 'Required').max(120);
+/** A part's torque tolerance in the catalogue, %, inclusive (the domain's verdict accepts up to 100). */
+export const TOLERANCE_PCT_RANGE = Object.freeze({ min: 0, max: 50 } as const);
+const tolerancePct = z.number().min(TOLERANCE_PCT_RANGE.min).max(TOLERANCE_PCT_RANGE.max);
 /** N·cm, within the domain's accepted range. */
 const torqueSpecNcm = z.number().min(TORQUE_NCM_RANGE.min, `At least ${TORQUE_NCM_RANGE.min} N·cm`).max(TORQUE_NCM_RANGE.max, `At most ${TORQUE_NCM_RANGE.max} N·cm`);
 
@@ -80,7 +83,7 @@ export const ComponentBody = z.object({
   tray: Tray.nullable().default(null),
   /** N·cm; null = hand-tight. */
   torqueSpecNcm: torqueSpecNcm.nullable().default(null),
-  tolerancePct: z.number().min(0).max(50).default(10),
+  tolerancePct: tolerancePct.default(10),
   requiresLot: z.boolean().default(true),
 });
 export type ComponentBody = z.input<typeof ComponentBody>;
@@ -93,7 +96,7 @@ export const ComponentPatch = z.object({
   collarHeightMm: z.number().min(0).max(10).nullable().optional(),
   tray: Tray.nullable().optional(),
   torqueSpecNcm: torqueSpecNcm.nullable().optional(),
-  tolerancePct: z.number().min(0).max(50).optional(),
+  tolerancePct: tolerancePct.optional(),
   requiresLot: z.boolean().optional(),
 });
 export type ComponentPatch = z.infer<typeof ComponentPatch>;

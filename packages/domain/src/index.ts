@@ -164,7 +164,7 @@ export { restorativeDesignForPlan } from './restoration-plan.js';
 /** Stable finding codes and source strings. */
 export { PLAN_FINDING_CODES, PLAN_SOURCES } from './restoration-plan.js';
 /** Kinds, retentions, interfaces, impression copings, multi-unit angles and finding severities. */
-export { RESTORATION_KINDS, RETENTIONS, IMPLANT_INTERFACES, IMPRESSION_COPINGS, MULTI_UNIT_ANGLES_DEG, FINDING_SEVERITIES } from './restoration-plan.js';
+export { RESTORATION_KINDS, RETENTIONS, ABUTMENT_LEVEL_RETENTIONS, IMPLANT_INTERFACES, IMPRESSION_COPINGS, MULTI_UNIT_ANGLES_DEG, FINDING_SEVERITIES } from './restoration-plan.js';
 /** False only for cement-retained restorations (cut off, not undone). */
 export { isRetrievable } from './restoration-plan.js';
 /** Restoration-plan types. */

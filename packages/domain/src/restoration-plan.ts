@@ -31,6 +31,8 @@ export type RestorationKind = (typeof RESTORATION_KINDS)[number];
 export const RETENTIONS = ['screw-to-implant', 'screw-to-multi-unit', 'cement-on-abutment', 'lingual-set-screw'] as const;
 /** How the restoration is retained. */
 export type Retention = (typeof RETENTIONS)[number];
+/** Retentions where the restoration sits on an abutment, indexed to the implant's hex [common practice]. */
+export const ABUTMENT_LEVEL_RETENTIONS: readonly Retention[] = Object.freeze(['cement-on-abutment', 'lingual-set-screw']);
 /** Connections of the restoration (or abutment) to the implant: indexed to the hex or not. */
 export const IMPLANT_INTERFACES = ['engaging', 'non-engaging'] as const;
 /** Connection of the restoration (or abutment) to the implant. */
@@ -303,7 +305,7 @@ export function validateRestorationPlan(plan: RestorationPlan): Finding[] {
           source: PLAN_SOURCES.COMMON_PRACTICE,
         });
       }
-      const indexed = retention === 'cement-on-abutment' || retention === 'lingual-set-screw' || (retention === 'screw-to-implant' && !splinted);
+      const indexed = ABUTMENT_LEVEL_RETENTIONS.includes(retention) || (retention === 'screw-to-implant' && !splinted);
       if (indexed && site.impressionCoping === 'non-engaging') {
         findings.push({
           severity: 'error',

@@ -1,5 +1,6 @@
 import { Button, FormGroup, InputGroup, NumericInput } from '@blueprintjs/core';
 import { ComplicationKind, type TimelineEvent } from '@torquetrail/contracts';
+import { TORQUE_NCM_RANGE } from '@torquetrail/domain';
 import { type FormEvent, useState } from 'react';
 import { isApiError } from '../../../lib/api-client';
 import { useAmendComplication, useAmendTorque } from '../api/amend-entry';
@@ -37,7 +38,7 @@ export function AmendForm({ siteId, event, onDone }: { siteId: string; event: Ti
     <form className="amend-form" onSubmit={submit} aria-label="Amend this entry" noValidate>
       {event.kind === 'torque' ? (
         <FormGroup label="Corrected torque (N·cm)" labelFor={`amend-${event.id}`} intent={fields.appliedNcm ? 'danger' : 'none'} helperText={fields.appliedNcm}>
-          <NumericInput buttonPosition="none" id={`amend-${event.id}`} min={1} max={100} value={applied ?? ''} onValueChange={(v) => setApplied(Number.isFinite(v) ? v : null)} />
+          <NumericInput buttonPosition="none" id={`amend-${event.id}`} min={TORQUE_NCM_RANGE.min} max={TORQUE_NCM_RANGE.max} value={applied ?? ''} onValueChange={(v) => setApplied(Number.isFinite(v) ? v : null)} />
         </FormGroup>
       ) : (
         <FormGroup label="Corrected notes" labelFor={`amend-${event.id}`}>

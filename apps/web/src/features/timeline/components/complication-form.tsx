@@ -3,16 +3,8 @@ import { type ComplicationKind, type StackPart } from '@torquetrail/contracts';
 import { type FormEvent, useState } from 'react';
 import { Can } from '../../../lib/ability';
 import { isApiError } from '../../../lib/api-client';
+import { COMPLICATION_KIND_LABEL } from '../../../lib/clinical-labels';
 import { useRecordComplication } from '../api/record-complication';
-
-const KIND_LABEL: Record<ComplicationKind, string> = {
-  'screw-loosening': 'Screw loosening',
-  'screw-fracture': 'Screw fracture',
-  'abutment-fracture': 'Abutment fracture',
-  'veneer-chipping': 'Veneer chipping',
-  'framework-fracture': 'Framework fracture',
-  other: 'Other',
-};
 
 /** "Record complication": linked to the site and, optionally, one of its parts. */
 export function ComplicationPanel({ siteId, parts }: { siteId: string; parts: StackPart[] }) {
@@ -34,7 +26,7 @@ export function ComplicationPanel({ siteId, parts }: { siteId: string; parts: St
         <form onSubmit={submit} className="torque-form complication-form" aria-label="Record complication" noValidate>
           <FormGroup label="Complication" labelFor="complication-kind">
             <HTMLSelect id="complication-kind" value={kind} onChange={(e) => setKind(e.currentTarget.value as ComplicationKind)}>
-              {Object.entries(KIND_LABEL).map(([v, t]) => <option key={v} value={v}>{t}</option>)}
+              {Object.entries(COMPLICATION_KIND_LABEL).map(([v, t]) => <option key={v} value={v}>{t}</option>)}
             </HTMLSelect>
           </FormGroup>
           <FormGroup label="Part (optional)" labelFor="complication-part" intent={fields.componentInstanceId ? 'danger' : 'none'} helperText={fields.componentInstanceId}>
