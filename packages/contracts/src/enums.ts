@@ -132,7 +132,8 @@ export const COMPLICATION_KINDS = ['screw-loosening', 'screw-fracture', 'abutmen
 export const ComplicationKind = z.enum(COMPLICATION_KINDS);
 export type ComplicationKind = z.infer<typeof ComplicationKind>;
 
-export const TIMELINE_KINDS = ['placement', 'impression', 'plan', 'delivery', 'part', 'torque', 'complication', 'lab-prescription', 'recall-exam'] as const;
+/** In the order of a sitting: the Timeline orders the entries of one day by it. */
+export const TIMELINE_KINDS = ['placement', 'plan', 'impression', 'lab-prescription', 'part', 'delivery', 'complication', 'torque', 'recall-exam'] as const;
 export const TimelineKind = z.enum(TIMELINE_KINDS);
 export type TimelineKind = z.infer<typeof TimelineKind>;
 

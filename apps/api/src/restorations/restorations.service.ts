@@ -1,6 +1,6 @@
 import { ConflictException, Inject, Injectable } from '@nestjs/common';
 import { type AppAbility, subject } from '@torquetrail/authz';
-import type { DeliveryBody, PlanAmendmentBody, PlanBody, RestorableSitesReply, RestorationDetail, RestorationListReply } from '@torquetrail/contracts';
+import { CLOSURE_KINDS, type DeliveryBody, type PlanAmendmentBody, type PlanBody, type RestorableSitesReply, type RestorationDetail, type RestorationListReply } from '@torquetrail/contracts';
 import { RULES_VERSION, fdiToUniversal, isRetrievable } from '@torquetrail/domain';
 import { and, eq, inArray, isNull, ne, or } from 'drizzle-orm';
 import type { z } from 'zod';
@@ -16,8 +16,8 @@ type PlanInput = z.output<typeof PlanBody>;
 type AmendInput = z.output<typeof PlanAmendmentBody>;
 type DeliveryInput = z.output<typeof DeliveryBody>;
 
-/** Parts the delivery replaces: what sat on the implant while it healed. */
-const HEALING_KINDS = ['healing-abutment', 'cover-screw'] as const;
+/** Parts the delivery replaces: what sat on the implant while it healed (the closure parts). */
+const HEALING_KINDS = CLOSURE_KINDS;
 /** Parts that hold a restoration itself; they come out with it at every site it spans. */
 const RETAINING_KINDS = ['prosthetic-screw', 'set-screw'] as const;
 
