@@ -50,6 +50,12 @@ export const CatalogueReply = z.object({ caution: z.string(), systems: z.array(C
 export type CatalogueReply = z.infer<typeof CatalogueReply>;
 
 const name = z.string().trim().min(1, 'Required').max(120);
+/** Accepted ranges of catalogue values, inclusive; the web's inputs use the same. */
+export const PLATFORM_DIAMETER_MM_RANGE = Object.freeze({ min: 2, max: 10 } as const);
+export const PART_ANGLE_DEG_RANGE = Object.freeze({ min: 0, max: 45 } as const);
+export const COLLAR_HEIGHT_MM_RANGE = Object.freeze({ min: 0, max: 10 } as const);
+const angleDeg = z.number().min(PART_ANGLE_DEG_RANGE.min).max(PART_ANGLE_DEG_RANGE.max);
+const collarHeightMm = z.number().min(COLLAR_HEIGHT_MM_RANGE.min).max(COLLAR_HEIGHT_MM_RANGE.max);
 /** A part's torque tolerance in the catalogue, %, inclusive (the domain's verdict accepts up to 100). */
 export const TOLERANCE_PCT_RANGE = Object.freeze({ min: 0, max: 50 } as const);
 const tolerancePct = z.number().min(TOLERANCE_PCT_RANGE.min).max(TOLERANCE_PCT_RANGE.max);
@@ -64,7 +70,7 @@ export type SystemPatch = z.infer<typeof SystemPatch>;
 export const PlatformBody = z.object({
   systemId: Id,
   name,
-  diameterMm: z.number().min(2, 'At least 2 mm').max(10, 'At most 10 mm'),
+  diameterMm: z.number().min(PLATFORM_DIAMETER_MM_RANGE.min, `At least ${PLATFORM_DIAMETER_MM_RANGE.min} mm`).max(PLATFORM_DIAMETER_MM_RANGE.max, `At most ${PLATFORM_DIAMETER_MM_RANGE.max} mm`),
   connection: Connection,
   platformShift: z.boolean(),
 });
@@ -78,8 +84,8 @@ export const ComponentBody = z.object({
   name,
   referenceCode: z.string().trim().min(1, 'Required').max(60),
   engaging: z.boolean().nullable().default(null),
-  angleDeg: z.number().min(0).max(45).nullable().default(null),
-  collarHeightMm: z.number().min(0).max(10).nullable().default(null),
+  angleDeg: angleDeg.nullable().default(null),
+  collarHeightMm: collarHeightMm.nullable().default(null),
   tray: Tray.nullable().default(null),
   /** N·cm; null = hand-tight. */
   torqueSpecNcm: torqueSpecNcm.nullable().default(null),
@@ -92,8 +98,8 @@ export const ComponentPatch = z.object({
   name: name.optional(),
   referenceCode: z.string().trim().min(1, 'Required').max(60).optional(),
   engaging: z.boolean().nullable().optional(),
-  angleDeg: z.number().min(0).max(45).nullable().optional(),
-  collarHeightMm: z.number().min(0).max(10).nullable().optional(),
+  angleDeg: angleDeg.nullable().optional(),
+  collarHeightMm: collarHeightMm.nullable().optional(),
   tray: Tray.nullable().optional(),
   torqueSpecNcm: torqueSpecNcm.nullable().optional(),
   tolerancePct: tolerancePct.optional(),

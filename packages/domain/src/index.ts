@@ -185,6 +185,8 @@ export type {
 export { nextRecallDate } from './recall-interval.js';
 /** True when any recall risk factor is present. */
 export { hasRecallRisk } from './recall-interval.js';
+/** The interval itself, months: the risk interval with any risk factor, else the base interval. */
+export { recallIntervalMonths } from './recall-interval.js';
 /** Default recall intervals, the range a policy may set, and the risk factors. */
 export { DEFAULT_RECALL_MONTHS, DEFAULT_RISK_RECALL_MONTHS, RECALL_MONTHS_RANGE, RECALL_RISK_FACTORS } from './recall-interval.js';
 /** Recall types. */

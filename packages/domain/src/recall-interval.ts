@@ -54,16 +54,24 @@ export function hasRecallRisk(risk: RecallRisk): boolean {
 }
 
 /**
- * Next recall date (YYYY-MM-DD): last exam + `baseMonths` (default 6), or + `riskMonths` (default 3) when
- * any risk factor is present. Pure calendar arithmetic; a day missing in the target month clamps to its
- * last day (31 Aug + 6 months → 28/29 Feb).
- * @throws ValidationError for an impossible date, a policy that is not 1–60 whole months, or riskMonths > baseMonths
+ * The recall interval, whole months: `riskMonths` (default 3) when any risk factor is present, else
+ * `baseMonths` (default 6).
+ * @throws ValidationError for a policy that is not 1–60 whole months, or riskMonths > baseMonths
  */
-export function nextRecallDate(lastExamDate: string, risk: RecallRisk, policy?: RecallPolicy): string {
+export function recallIntervalMonths(risk: RecallRisk, policy?: RecallPolicy): number {
   const base = months(policy?.baseMonths, DEFAULT_RECALL_MONTHS, 'policy.baseMonths');
   const riskM = months(policy?.riskMonths, DEFAULT_RISK_RECALL_MONTHS, 'policy.riskMonths');
   if (riskM > base) {
     throw new ValidationError('out-of-range', `policy.riskMonths (${riskM}) must not exceed policy.baseMonths (${base})`, 'policy.riskMonths');
   }
-  return addCalendarMonths(lastExamDate, hasRecallRisk(risk) ? riskM : base, 'lastExamDate');
+  return hasRecallRisk(risk) ? riskM : base;
+}
+
+/**
+ * Next recall date (YYYY-MM-DD): last exam + {@link recallIntervalMonths}. Pure calendar arithmetic; a day
+ * missing in the target month clamps to its last day (31 Aug + 6 months → 28/29 Feb).
+ * @throws ValidationError for an impossible date, a policy that is not 1–60 whole months, or riskMonths > baseMonths
+ */
+export function nextRecallDate(lastExamDate: string, risk: RecallRisk, policy?: RecallPolicy): string {
+  return addCalendarMonths(lastExamDate, recallIntervalMonths(risk, policy), 'lastExamDate');
 }

@@ -12,6 +12,7 @@ import {
   inChartOrder,
   latestExam,
   nextRecallDate,
+  recallIntervalMonths,
   RULES_VERSION,
   toPeriImplantBaseline,
   toPeriImplantExam,
@@ -170,10 +171,10 @@ export class ExamsService {
     };
     const policy = await findPolicy(tx, patient.practiceId);
     const lastExam = (await latestExamDateOfPatient(tx, patient.id)) ?? this.clock.today();
-    const dueOn = nextRecallDate(lastExam, riskFactors, { baseMonths: policy.baseMonths, riskMonths: policy.riskMonths });
+    const intervals = { baseMonths: policy.baseMonths, riskMonths: policy.riskMonths };
+    const dueOn = nextRecallDate(lastExam, riskFactors, intervals);
     await rescheduleRecall(tx, { practiceId: patient.practiceId, patientId: patient.id, dueOn, visitId });
-    const hasRisk = Object.values(riskFactors).some(Boolean);
-    return { dueOn, intervalMonths: hasRisk ? policy.riskMonths : policy.baseMonths, riskFactors };
+    return { dueOn, intervalMonths: recallIntervalMonths(riskFactors, intervals), riskFactors };
   }
 
   /** An amendment: a new exam superseding the old one, with the reason; recomputed and rescheduled in one transaction. */

@@ -1,5 +1,18 @@
 import { Button, Checkbox, FormGroup, HTMLSelect, InputGroup, NumericInput } from '@blueprintjs/core';
-import { COMPONENT_KINDS, type ComponentKind, type Connection, CONNECTIONS, TOLERANCE_PCT_RANGE, type Tray, TRAYS, type WrenchType, WRENCH_TYPES } from '@torquetrail/contracts';
+import {
+  COLLAR_HEIGHT_MM_RANGE,
+  COMPONENT_KINDS,
+  type ComponentKind,
+  type Connection,
+  CONNECTIONS,
+  PART_ANGLE_DEG_RANGE,
+  PLATFORM_DIAMETER_MM_RANGE,
+  TOLERANCE_PCT_RANGE,
+  type Tray,
+  TRAYS,
+  type WrenchType,
+  WRENCH_TYPES,
+} from '@torquetrail/contracts';
 import { TORQUE_NCM_RANGE } from '@torquetrail/domain';
 import { type FormEvent, type ReactNode, useId, useState } from 'react';
 import { isApiError } from '../../../lib/api-client';
@@ -46,8 +59,8 @@ export function AddComponentForm({ platformId }: { platformId: string }) {
           <FormGroup label="Engaging" labelFor={`${uid}-engaging`} inline><HTMLSelect id={`${uid}-engaging`} value={engaging} onChange={(e) => setEngaging(e.currentTarget.value as '' | 'yes' | 'no')}><option value="">does not apply</option><option value="yes">{INTERFACE_LABEL.engaging.toLowerCase()}</option><option value="no">{INTERFACE_LABEL['non-engaging'].toLowerCase()}</option></HTMLSelect></FormGroup>
           <FormGroup label="Torque (N·cm, empty = hand-tight)" labelFor={`${uid}-torque-n-cm-empty-hand-tight`} inline {...helper(f, 'torqueSpecNcm')}><NumericInput buttonPosition="none" id={`${uid}-torque-n-cm-empty-hand-tight`} min={TORQUE_NCM_RANGE.min} max={TORQUE_NCM_RANGE.max} value={torque ?? ''} onValueChange={(v) => setTorque(Number.isFinite(v) ? v : null)} /></FormGroup>
           <FormGroup label="Tolerance (%)" labelFor={`${uid}-tolerance`} inline {...helper(f, 'tolerancePct')}><NumericInput buttonPosition="none" id={`${uid}-tolerance`} min={TOLERANCE_PCT_RANGE.min} max={TOLERANCE_PCT_RANGE.max} value={tol} onValueChange={setTol} /></FormGroup>
-          <FormGroup label="Angle (°)" labelFor={`${uid}-angle`} inline {...helper(f, 'angleDeg')}><NumericInput buttonPosition="none" id={`${uid}-angle`} min={0} max={45} value={angle ?? ''} onValueChange={(v) => setAngle(Number.isFinite(v) ? v : null)} /></FormGroup>
-          <FormGroup label="Collar height (mm)" labelFor={`${uid}-collar`} inline {...helper(f, 'collarHeightMm')}><NumericInput buttonPosition="none" id={`${uid}-collar`} min={0} max={10} stepSize={0.5} value={collar ?? ''} onValueChange={(v) => setCollar(Number.isFinite(v) ? v : null)} /></FormGroup>
+          <FormGroup label="Angle (°)" labelFor={`${uid}-angle`} inline {...helper(f, 'angleDeg')}><NumericInput buttonPosition="none" id={`${uid}-angle`} min={PART_ANGLE_DEG_RANGE.min} max={PART_ANGLE_DEG_RANGE.max} value={angle ?? ''} onValueChange={(v) => setAngle(Number.isFinite(v) ? v : null)} /></FormGroup>
+          <FormGroup label="Collar height (mm)" labelFor={`${uid}-collar`} inline {...helper(f, 'collarHeightMm')}><NumericInput buttonPosition="none" id={`${uid}-collar`} min={COLLAR_HEIGHT_MM_RANGE.min} max={COLLAR_HEIGHT_MM_RANGE.max} stepSize={0.5} value={collar ?? ''} onValueChange={(v) => setCollar(Number.isFinite(v) ? v : null)} /></FormGroup>
           <FormGroup label="Impression tray" labelFor={`${uid}-tray`} inline><HTMLSelect id={`${uid}-tray`} value={tray} onChange={(e) => setTray(e.currentTarget.value as '' | Tray)}><option value="">does not apply</option>{TRAYS.map((t) => <option key={t} value={t}>{TRAY_LABEL[t].toLowerCase()}</option>)}</HTMLSelect></FormGroup>
           <Checkbox label="Lot number required when delivered" checked={lot} onChange={(e) => setLot(e.currentTarget.checked)} />
           <Button type="submit" intent="primary" small text="Add part" loading={save.isPending} /> <Button small variant="minimal" text="Cancel" onClick={close} />
@@ -70,7 +83,7 @@ export function AddPlatformForm({ systemId }: { systemId: string }) {
       {(close) => (
         <form aria-label="Add platform" onSubmit={(e) => { e.preventDefault(); add.mutate({ systemId, name, diameterMm: diameter ?? Number.NaN, connection, platformShift: shift }, { onSuccess: close }); }}>
           <FormGroup label="Name" labelFor={`${uid}-name`} inline {...helper(f, 'name')}><InputGroup id={`${uid}-name`} value={name} onValueChange={setName} /></FormGroup>
-          <FormGroup label="Diameter (mm)" labelFor={`${uid}-diameter-mm`} inline {...helper(f, 'diameterMm')}><NumericInput buttonPosition="none" id={`${uid}-diameter-mm`} min={2} max={10} stepSize={0.1} value={diameter ?? ''} onValueChange={(v) => setDiameter(Number.isFinite(v) ? v : null)} /></FormGroup>
+          <FormGroup label="Diameter (mm)" labelFor={`${uid}-diameter-mm`} inline {...helper(f, 'diameterMm')}><NumericInput buttonPosition="none" id={`${uid}-diameter-mm`} min={PLATFORM_DIAMETER_MM_RANGE.min} max={PLATFORM_DIAMETER_MM_RANGE.max} stepSize={0.1} value={diameter ?? ''} onValueChange={(v) => setDiameter(Number.isFinite(v) ? v : null)} /></FormGroup>
           <FormGroup label="Connection" labelFor={`${uid}-connection`} inline><HTMLSelect id={`${uid}-connection`} value={connection} onChange={(e) => setConnection(e.currentTarget.value as Connection)}>{CONNECTIONS.map((c) => <option key={c} value={c}>{CONNECTION_LABEL[c]}</option>)}</HTMLSelect></FormGroup>
           <Checkbox label="Platform shift" checked={shift} onChange={(e) => setShift(e.currentTarget.checked)} />
           <Button type="submit" intent="primary" small text="Add platform" loading={add.isPending} /> <Button small variant="minimal" text="Cancel" onClick={close} />

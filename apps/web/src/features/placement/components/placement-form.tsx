@@ -1,5 +1,5 @@
 import { Button, Callout, FormGroup, HTMLSelect, InputGroup, NumericInput, TextArea } from '@blueprintjs/core';
-import { type LoadingProtocol, PlacementBody, type PlacementOptionsReply } from '@torquetrail/contracts';
+import { IMPLANT_LENGTH_MM_RANGE, INSERTION_TORQUE_NCM_RANGE, ISQ_RANGE, type LoadingProtocol, PlacementBody, type PlacementOptionsReply } from '@torquetrail/contracts';
 import { type FormEvent, useState } from 'react';
 import { isApiError } from '../../../lib/api-client';
 import { LOADING_PROTOCOL_LABEL } from '../../../lib/clinical-labels';
@@ -113,7 +113,7 @@ export function PlacementForm({ patientId, siteId, options, onDone }: { patientI
           <InputGroup id="placement-date" type="date" value={placedOn} max={localToday()} onValueChange={setPlacedOn} />
         </FormGroup>
         <FormGroup label="Implant length (mm)" labelFor="placement-length" {...err('lengthMm')}>
-          <NumericInput buttonPosition="none" id="placement-length" min={4} max={20} stepSize={0.5} value={lengthMm ?? ''} onValueChange={(v) => setLengthMm(num(v))} allowNumericCharactersOnly />
+          <NumericInput buttonPosition="none" id="placement-length" min={IMPLANT_LENGTH_MM_RANGE.min} max={IMPLANT_LENGTH_MM_RANGE.max} stepSize={0.5} value={lengthMm ?? ''} onValueChange={(v) => setLengthMm(num(v))} allowNumericCharactersOnly />
         </FormGroup>
       </div>
       <UdiField
@@ -130,10 +130,10 @@ export function PlacementForm({ patientId, siteId, options, onDone }: { patientI
       </FormGroup>
       <div className="placement-form__row">
         <FormGroup label="Insertion torque (N·cm)" labelFor="placement-torque" {...err('insertionTorqueNcm')}>
-          <NumericInput buttonPosition="none" id="placement-torque" min={5} max={100} value={torque ?? ''} onValueChange={(v) => setTorque(num(v))} allowNumericCharactersOnly />
+          <NumericInput buttonPosition="none" id="placement-torque" min={INSERTION_TORQUE_NCM_RANGE.min} max={INSERTION_TORQUE_NCM_RANGE.max} value={torque ?? ''} onValueChange={(v) => setTorque(num(v))} allowNumericCharactersOnly />
         </FormGroup>
         <FormGroup label="Stability (ISQ)" labelFor="placement-isq" {...err('stabilityIsq')}>
-          <NumericInput buttonPosition="none" id="placement-isq" min={1} max={99} value={isq ?? ''} onValueChange={(v) => setIsq(num(v))} allowNumericCharactersOnly />
+          <NumericInput buttonPosition="none" id="placement-isq" min={ISQ_RANGE.min} max={ISQ_RANGE.max} value={isq ?? ''} onValueChange={(v) => setIsq(num(v))} allowNumericCharactersOnly />
         </FormGroup>
         <FormGroup label="Loading protocol" labelFor="placement-loading" {...err('loadingProtocol')}>
           <HTMLSelect id="placement-loading" value={loading} onChange={(e) => setLoading(e.currentTarget.value as LoadingProtocol | '')}>
