@@ -7,7 +7,7 @@ import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../src/app.js';
 import { recalls, reminderLog } from '../src/db/schema/index.js';
-import { addDaysIso } from '../src/recalls/exam-rules.js';
+import { addCalendarDays as addDaysIso } from '@torquetrail/domain';
 import { RemindersService } from '../src/recalls/reminders.service.js';
 import { createDatabase, createPool, type Database } from '../src/db/database.js';
 import { patientId, resetDatabase, testEnv } from './support/test-app.js';

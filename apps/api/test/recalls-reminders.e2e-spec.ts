@@ -3,7 +3,7 @@
 import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { recalls, reminderLog } from '../src/db/schema/index.js';
-import { addDaysIso } from '../src/recalls/exam-rules.js';
+import { addCalendarDays as addDaysIso } from '@torquetrail/domain';
 import { RemindersService } from '../src/recalls/reminders.service.js';
 import { patientId, signIn, startTestApp, type TestContext } from './support/test-app.js';
 import { caughtFor, until } from './support/recalls.js';

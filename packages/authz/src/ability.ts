@@ -5,7 +5,9 @@ import {
   type MongoQuery,
 } from '@casl/ability';
 
-export type Role = 'practice_admin' | 'dentist' | 'hygienist' | 'surgeon';
+/** The roles of Torquetrail, in the order of the database enum. */
+export const ROLES = ['practice_admin', 'dentist', 'hygienist', 'surgeon'] as const;
+export type Role = (typeof ROLES)[number];
 
 export type Action = 'manage' | 'read' | 'create' | 'update' | 'amend';
 

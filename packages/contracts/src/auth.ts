@@ -1,8 +1,6 @@
 import { z } from 'zod';
 import { Id } from './common.js';
-
-export const Role = z.enum(['practice_admin', 'dentist', 'hygienist', 'surgeon']);
-export type Role = z.infer<typeof Role>;
+import { Role } from './enums.js';
 
 export const SignInBody = z.object({
   email: z.email({ error: 'Enter a valid e-mail address' }).max(254),

@@ -1,6 +1,6 @@
 import { z } from 'zod';
+import { ServiceState } from './enums.js';
 
-export const ServiceState = z.enum(['up', 'down']);
 export const HealthReply = z.object({
   status: ServiceState,
   services: z.object({

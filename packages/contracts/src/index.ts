@@ -3,6 +3,7 @@
  * with their inferred TypeScript types under the same names.
  */
 export * from './common.js';
+export * from './enums.js';
 export * from './auth.js';
 export * from './health.js';
 export * from './patients.js';

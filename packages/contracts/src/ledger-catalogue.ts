@@ -1,14 +1,12 @@
 // Component catalogue and torque wrenches: the practice admin edits, everyone in the practice reads.
 import { z } from 'zod';
+import { TORQUE_NCM_RANGE } from '@torquetrail/domain';
 import { Id, IsoDate } from './common.js';
-import { ComponentKind, Connection } from './sites.js';
+import { ComponentKind, Connection, Tray, WrenchType } from './enums.js';
 
 /** Shown on the catalogue and every torque form. */
 export const MANUFACTURER_CAUTION =
   "Torque values and compatibility are manufacturer-specific: the manufacturer's instructions, the clinician's judgement and local regulations rule.";
-
-export const Tray = z.enum(['open', 'closed']);
-export type Tray = z.infer<typeof Tray>;
 
 export const CatalogueComponent = z.object({
   id: Id,
@@ -52,6 +50,17 @@ export const CatalogueReply = z.object({ caution: z.string(), systems: z.array(C
 export type CatalogueReply = z.infer<typeof CatalogueReply>;
 
 const name = z.string().trim().min(1, 'Required').max(120);
+/** Accepted ranges of catalogue values, inclusive; the web's inputs use the same. */
+export const PLATFORM_DIAMETER_MM_RANGE = Object.freeze({ min: 2, max: 10 } as const);
+export const PART_ANGLE_DEG_RANGE = Object.freeze({ min: 0, max: 45 } as const);
+export const COLLAR_HEIGHT_MM_RANGE = Object.freeze({ min: 0, max: 10 } as const);
+const angleDeg = z.number().min(PART_ANGLE_DEG_RANGE.min).max(PART_ANGLE_DEG_RANGE.max);
+const collarHeightMm = z.number().min(COLLAR_HEIGHT_MM_RANGE.min).max(COLLAR_HEIGHT_MM_RANGE.max);
+/** A part's torque tolerance in the catalogue, %, inclusive (the domain's verdict accepts up to 100). */
+export const TOLERANCE_PCT_RANGE = Object.freeze({ min: 0, max: 50 } as const);
+const tolerancePct = z.number().min(TOLERANCE_PCT_RANGE.min).max(TOLERANCE_PCT_RANGE.max);
+/** N·cm, within the domain's accepted range. */
+const torqueSpecNcm = z.number().min(TORQUE_NCM_RANGE.min, `At least ${TORQUE_NCM_RANGE.min} N·cm`).max(TORQUE_NCM_RANGE.max, `At most ${TORQUE_NCM_RANGE.max} N·cm`);
 
 export const SystemBody = z.object({ name, manufacturer: name });
 export type SystemBody = z.infer<typeof SystemBody>;
@@ -61,7 +70,7 @@ export type SystemPatch = z.infer<typeof SystemPatch>;
 export const PlatformBody = z.object({
   systemId: Id,
   name,
-  diameterMm: z.number().min(2, 'At least 2 mm').max(10, 'At most 10 mm'),
+  diameterMm: z.number().min(PLATFORM_DIAMETER_MM_RANGE.min, `At least ${PLATFORM_DIAMETER_MM_RANGE.min} mm`).max(PLATFORM_DIAMETER_MM_RANGE.max, `At most ${PLATFORM_DIAMETER_MM_RANGE.max} mm`),
   connection: Connection,
   platformShift: z.boolean(),
 });
@@ -75,12 +84,12 @@ export const ComponentBody = z.object({
   name,
   referenceCode: z.string().trim().min(1, 'Required').max(60),
   engaging: z.boolean().nullable().default(null),
-  angleDeg: z.number().min(0).max(45).nullable().default(null),
-  collarHeightMm: z.number().min(0).max(10).nullable().default(null),
+  angleDeg: angleDeg.nullable().default(null),
+  collarHeightMm: collarHeightMm.nullable().default(null),
   tray: Tray.nullable().default(null),
   /** N·cm; null = hand-tight. */
-  torqueSpecNcm: z.number().min(1, 'At least 1 N·cm').max(100, 'At most 100 N·cm').nullable().default(null),
-  tolerancePct: z.number().min(0).max(50).default(10),
+  torqueSpecNcm: torqueSpecNcm.nullable().default(null),
+  tolerancePct: tolerancePct.default(10),
   requiresLot: z.boolean().default(true),
 });
 export type ComponentBody = z.input<typeof ComponentBody>;
@@ -89,17 +98,15 @@ export const ComponentPatch = z.object({
   name: name.optional(),
   referenceCode: z.string().trim().min(1, 'Required').max(60).optional(),
   engaging: z.boolean().nullable().optional(),
-  angleDeg: z.number().min(0).max(45).nullable().optional(),
-  collarHeightMm: z.number().min(0).max(10).nullable().optional(),
+  angleDeg: angleDeg.nullable().optional(),
+  collarHeightMm: collarHeightMm.nullable().optional(),
   tray: Tray.nullable().optional(),
-  torqueSpecNcm: z.number().min(1, 'At least 1 N·cm').max(100, 'At most 100 N·cm').nullable().optional(),
-  tolerancePct: z.number().min(0).max(50).optional(),
+  torqueSpecNcm: torqueSpecNcm.nullable().optional(),
+  tolerancePct: tolerancePct.optional(),
   requiresLot: z.boolean().optional(),
 });
 export type ComponentPatch = z.infer<typeof ComponentPatch>;
 
-export const WrenchType = z.enum(['spring', 'friction']);
-export type WrenchType = z.infer<typeof WrenchType>;
 export const Wrench = z.object({ id: Id, label: z.string(), type: WrenchType, lastCalibratedOn: IsoDate.nullable() });
 export type Wrench = z.infer<typeof Wrench>;
 export const WrenchListReply = z.object({ items: z.array(Wrench) });

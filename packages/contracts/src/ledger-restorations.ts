@@ -2,16 +2,11 @@
 import { z } from 'zod';
 import { AxisComponent, FdiPosition, Id, IsoDate, IsoDateTime } from './common.js';
 import { CatalogueComponent } from './ledger-catalogue.js';
-import { Connection, InterfaceKind, Material, RestorationKind, Retention } from './sites.js';
-
-export const ImpressionCopingKind = z.enum(['engaging', 'non-engaging', 'multi-unit']);
-export type ImpressionCopingKind = z.infer<typeof ImpressionCopingKind>;
-export const RestorationStatus = z.enum(['planned', 'delivered', 'removed']);
-export type RestorationStatus = z.infer<typeof RestorationStatus>;
+import { Connection, FindingSeverity, ImpressionCopingKind, InterfaceKind, Material, MultiUnitAngleDeg, RestorationKind, RestorationStatus, Retention, SiteStatus } from './enums.js';
 
 /** A plan Finding as returned by `validateRestorationPlan` (@torquetrail/domain). */
 export const Finding = z.object({
-  severity: z.enum(['error', 'warning']),
+  severity: FindingSeverity,
   code: z.string(),
   message: z.string(),
   fdi: z.number().optional(),
@@ -26,7 +21,7 @@ export const PlanSiteBody = z.object({
   interface: InterfaceKind,
   impressionCoping: ImpressionCopingKind,
   /** 0, 17 or 30 degrees; taken from the multi-unit abutment chosen when omitted. */
-  multiUnitAngleDeg: z.union([z.literal(0), z.literal(17), z.literal(30)]).nullable().default(null),
+  multiUnitAngleDeg: MultiUnitAngleDeg.nullable().default(null),
   restorativeSpaceMm: z.number().min(0, 'Cannot be negative').max(40, 'At most 40 mm').nullable().default(null),
   /** Implant axis (direction vector); the placement record's axis is used when omitted. */
   axis: Vec3.nullable().default(null),
@@ -98,7 +93,7 @@ export const RestorableSite = z.object({
   siteId: Id,
   fdi: FdiPosition,
   universal: z.string(),
-  status: z.enum(['planned', 'placed', 'restored', 'failed', 'removed']),
+  status: SiteStatus,
   platformId: Id.nullable(),
   systemName: z.string().nullable(),
   platformName: z.string().nullable(),

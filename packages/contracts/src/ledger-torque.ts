@@ -1,15 +1,14 @@
 // Torque entries, complications and the Site file's Timeline.
 import { z } from 'zod';
 import { Id, IsoDate, IsoDateTime } from './common.js';
-import { TorqueVerdict } from './sites.js';
+import { TORQUE_NCM_RANGE } from '@torquetrail/domain';
+import { ComplicationKind, TimelineKind, TorqueReason, TorqueVerdict } from './enums.js';
 
-export const TorqueReason = z.enum(['initial-seating', 're-torque-after-settling', 're-torque-at-recall', 'loosening-found', 'screw-replaced']);
-export type TorqueReason = z.infer<typeof TorqueReason>;
-
+const torqueRangeMessage = `Torque must be between ${TORQUE_NCM_RANGE.min} and ${TORQUE_NCM_RANGE.max} N·cm`;
 const appliedNcm = z
   .number({ error: 'Enter the applied torque in N·cm' })
-  .min(1, 'Torque must be between 1 and 100 N·cm')
-  .max(100, 'Torque must be between 1 and 100 N·cm');
+  .min(TORQUE_NCM_RANGE.min, torqueRangeMessage)
+  .max(TORQUE_NCM_RANGE.max, torqueRangeMessage);
 
 export const TorqueBody = z.object({
   componentInstanceId: Id,
@@ -51,9 +50,6 @@ export const TorqueEvent = z.object({
 });
 export type TorqueEvent = z.infer<typeof TorqueEvent>;
 
-export const ComplicationKind = z.enum(['screw-loosening', 'screw-fracture', 'abutment-fracture', 'veneer-chipping', 'framework-fracture', 'other']);
-export type ComplicationKind = z.infer<typeof ComplicationKind>;
-
 export const ComplicationBody = z.object({
   siteId: Id,
   componentInstanceId: Id.nullable().default(null),
@@ -79,9 +75,6 @@ export const Complication = z.object({
   recordedByName: z.string().nullable(),
 });
 export type Complication = z.infer<typeof Complication>;
-
-export const TimelineKind = z.enum(['placement', 'impression', 'plan', 'delivery', 'part', 'torque', 'complication', 'lab-prescription', 'recall-exam']);
-export type TimelineKind = z.infer<typeof TimelineKind>;
 
 export const TimelineEvent = z.object({
   /** `${kind}:${row id}` (a part can appear twice: installed and removed). */

@@ -1,12 +1,6 @@
 import { z } from 'zod';
 import { FdiPosition, Id, IsoDate } from './common.js';
-
-export const SiteStatus = z.enum(['planned', 'placed', 'restored', 'failed', 'removed']);
-export type SiteStatus = z.infer<typeof SiteStatus>;
-
-/** Latest computed maintenance status of a site; 'not-examined' until a recall exam exists. */
-export const MaintenanceStatus = z.enum(['health', 'mucositis', 'peri-implantitis', 'not-examined']);
-export type MaintenanceStatus = z.infer<typeof MaintenanceStatus>;
+import { MaintenanceStatus, SiteStatus } from './enums.js';
 
 export const PatientListQuery = z.object({
   search: z.string().trim().max(100).optional(),

@@ -3,19 +3,13 @@ import { z } from 'zod';
 import { AxisComponent, Id, IsoDate, IsoDateTime } from './common.js';
 import type { RouteContract } from './route-contract.js';
 import { ArchSite } from './patients.js';
-import { ComponentKind, Connection } from './sites.js';
+import { CLOSURE_KINDS, Connection, LoadingProtocol } from './enums.js';
 
 export const AddSiteBody = z.object({
   /** FDI (ISO 3950) position; checked with the domain's `isValidFdi` on the server. */
   fdi: z.number({ error: 'Choose a tooth position' }).int('Choose a tooth position'),
 });
 export type AddSiteBody = z.input<typeof AddSiteBody>;
-
-export const LoadingProtocol = z.enum(['immediate', 'early', 'conventional']);
-export type LoadingProtocol = z.infer<typeof LoadingProtocol>;
-
-/** Parts that close the implant at surgery: hand-tight, no torque is logged. */
-export const CLOSURE_KINDS = ['healing-abutment', 'cover-screw'] as const satisfies readonly ComponentKind[];
 
 export const PlacementOptionComponent = z.object({
   id: Id,
@@ -58,10 +52,19 @@ export const Axis = z
   .object({ x: AxisComponent, y: AxisComponent, z: AxisComponent })
   .refine((a) => Math.hypot(a.x, a.y, a.z) > 1e-9, 'The axis cannot be a zero vector');
 
+/** Accepted ranges of placement values, inclusive; the web's inputs use the same. */
+export const IMPLANT_LENGTH_MM_RANGE = Object.freeze({ min: 4, max: 20 } as const);
+export const INSERTION_TORQUE_NCM_RANGE = Object.freeze({ min: 5, max: 100 } as const);
+export const ISQ_RANGE = Object.freeze({ min: 1, max: 99 } as const);
+const between = (what: string, { min, max }: { min: number; max: number }, unit = '') => `${what} must be between ${min} and ${max}${unit}`;
+
 const placementFields = {
   platformId: z.uuid({ error: 'Choose the platform' }),
   placedOn: IsoDate,
-  lengthMm: z.number({ error: 'Enter the implant length in mm' }).min(4, 'Length must be between 4 and 20 mm').max(20, 'Length must be between 4 and 20 mm'),
+  lengthMm: z
+    .number({ error: 'Enter the implant length in mm' })
+    .min(IMPLANT_LENGTH_MM_RANGE.min, between('Length', IMPLANT_LENGTH_MM_RANGE, ' mm'))
+    .max(IMPLANT_LENGTH_MM_RANGE.max, between('Length', IMPLANT_LENGTH_MM_RANGE, ' mm')),
   lot: optionalText(40),
   /** The UDI as scanned (raw, with GS separators) or typed (human-readable); parsed on the server. */
   udi: z
@@ -70,8 +73,13 @@ const placementFields = {
     .nullable()
     .default(null)
     .transform((s) => (s && s.trim() ? s : null)),
-  insertionTorqueNcm: z.number().min(5, 'Insertion torque must be between 5 and 100 N·cm').max(100, 'Insertion torque must be between 5 and 100 N·cm').nullable().default(null),
-  stabilityIsq: z.number().int('ISQ is a whole number').min(1, 'ISQ must be between 1 and 99').max(99, 'ISQ must be between 1 and 99').nullable().default(null),
+  insertionTorqueNcm: z
+    .number()
+    .min(INSERTION_TORQUE_NCM_RANGE.min, between('Insertion torque', INSERTION_TORQUE_NCM_RANGE, ' N·cm'))
+    .max(INSERTION_TORQUE_NCM_RANGE.max, between('Insertion torque', INSERTION_TORQUE_NCM_RANGE, ' N·cm'))
+    .nullable()
+    .default(null),
+  stabilityIsq: z.number().int('ISQ is a whole number').min(ISQ_RANGE.min, between('ISQ', ISQ_RANGE)).max(ISQ_RANGE.max, between('ISQ', ISQ_RANGE)).nullable().default(null),
   grafting: optionalText(500),
   loadingProtocol: LoadingProtocol.nullable().default(null),
   axis: Axis.nullable().default(null),

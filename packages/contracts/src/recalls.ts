@@ -1,15 +1,9 @@
 // Maintenance recall contracts (Recall desk, exams, policy, reminders).
 import { z } from 'zod';
 import { FdiPosition, Id, IsoDate, IsoDateTime } from './common.js';
+import { RECALL_MONTHS_RANGE } from '@torquetrail/domain';
 import type { RouteContract } from './route-contract.js';
-
-/** The six probing sites around an implant, in periodontal-chart order (buccal row, then lingual row). */
-export const PROBING_POSITIONS = ['mesiobuccal', 'buccal', 'distobuccal', 'mesiolingual', 'lingual', 'distolingual'] as const;
-export const ProbingPosition = z.enum(PROBING_POSITIONS);
-export type ProbingPosition = z.infer<typeof ProbingPosition>;
-
-export const PeriImplantStatus = z.enum(['health', 'mucositis', 'peri-implantitis']);
-export type PeriImplantStatus = z.infer<typeof PeriImplantStatus>;
+import { DeskFilter, DeskSort, MaintenanceStatus, PeriImplantStatus, ProbingPosition, ReminderKind, ReminderStatus, SiteStatus, SortDirection } from './enums.js';
 
 const halfMm = (max: number, what: string) =>
   z
@@ -121,9 +115,10 @@ export const RiskFactors = z.object({
 });
 export type RiskFactors = z.infer<typeof RiskFactors>;
 
+const policyMonths = z.number().int().min(RECALL_MONTHS_RANGE.min).max(RECALL_MONTHS_RANGE.max);
 export const RecallPolicy = z.object({
-  baseMonths: z.number().int().min(1).max(60),
-  riskMonths: z.number().int().min(1).max(60),
+  baseMonths: policyMonths,
+  riskMonths: policyMonths,
   reminderDaysBefore: z.number().int().min(0).max(90),
   overdueReminderDaysAfter: z.number().int().min(0).max(180),
 });
@@ -153,7 +148,7 @@ export const ExamContext = z.object({
     z.object({
       siteId: Id,
       fdi: FdiPosition,
-      status: z.enum(['planned', 'placed', 'restored', 'failed', 'removed']),
+      status: SiteStatus,
       /** Only placed or restored implants are examined. */
       examinable: z.boolean(),
       deliveredOn: IsoDate.nullable(),
@@ -167,12 +162,10 @@ export type ExamContext = z.infer<typeof ExamContext>;
 export const SiteExamHistory = z.object({ siteId: Id, fdi: FdiPosition, patientId: Id, exams: z.array(RecallExam) });
 export type SiteExamHistory = z.infer<typeof SiteExamHistory>;
 
-export const DESK_FILTERS = ['all', 'due-this-week', 'overdue', 'peri-implantitis-last'] as const;
-export const DESK_SORTS = ['dueOn', 'overdueDays', 'name', 'lastExamOn'] as const;
 export const RecallDeskQuery = z.object({
-  filter: z.enum(DESK_FILTERS).default('all'),
-  sort: z.enum(DESK_SORTS).default('dueOn'),
-  dir: z.enum(['asc', 'desc']).default('asc'),
+  filter: DeskFilter.default('all'),
+  sort: DeskSort.default('dueOn'),
+  dir: SortDirection.default('asc'),
   search: z.string().trim().max(100).optional(),
   page: z.coerce.number().int().min(1).max(100_000).default(1),
   pageSize: z.coerce.number().int().min(1).max(200).default(50),
@@ -184,7 +177,7 @@ export type RecallDeskCsvQuery = z.infer<typeof RecallDeskCsvQuery>;
 export const DeskSite = z.object({
   siteId: Id,
   fdi: FdiPosition,
-  status: z.enum(['health', 'mucositis', 'peri-implantitis', 'not-examined']),
+  status: MaintenanceStatus,
   lastExamOn: IsoDate.nullable(),
 });
 export const RecallDeskRow = z.object({
@@ -222,8 +215,8 @@ export const ReminderLogItem = z.object({
   patientName: z.string(),
   chartNumber: z.string(),
   recallDueOn: IsoDate,
-  kind: z.enum(['upcoming', 'overdue']),
-  status: z.enum(['pending', 'sent', 'failed']),
+  kind: ReminderKind,
+  status: ReminderStatus,
   attempts: z.number().int(),
   lastError: z.string().nullable(),
   sentAt: IsoDateTime.nullable(),

@@ -1,35 +1,6 @@
 import { z } from 'zod';
 import { FdiPosition, Id, IsoDate, IsoDateTime } from './common.js';
-import { MaintenanceStatus, SiteStatus } from './patients.js';
-
-export const Connection = z.enum(['internal-conical', 'internal-hex', 'external-hex']);
-export type Connection = z.infer<typeof Connection>;
-
-export const ComponentKind = z.enum([
-  'abutment-stock',
-  'abutment-custom',
-  'abutment-angled',
-  'multi-unit-abutment',
-  'abutment-screw',
-  'prosthetic-screw',
-  'set-screw',
-  'impression-coping',
-  'healing-abutment',
-  'cover-screw',
-]);
-export type ComponentKind = z.infer<typeof ComponentKind>;
-
-export const TorqueVerdict = z.enum(['within', 'under', 'over']);
-export type TorqueVerdict = z.infer<typeof TorqueVerdict>;
-
-export const Retention = z.enum(['screw-to-implant', 'screw-to-multi-unit', 'cement-on-abutment', 'lingual-set-screw']);
-export type Retention = z.infer<typeof Retention>;
-export const RestorationKind = z.enum(['single-crown', 'splinted-bridge', 'full-arch']);
-export type RestorationKind = z.infer<typeof RestorationKind>;
-export const Material = z.enum(['zirconia', 'titanium-porcelain', 'titanium-composite', 'full-gold', 'porcelain-fused-to-metal', 'other']);
-export type Material = z.infer<typeof Material>;
-export const InterfaceKind = z.enum(['engaging', 'non-engaging']);
-export type InterfaceKind = z.infer<typeof InterfaceKind>;
+import { ComponentKind, Connection, InterfaceKind, LoadingProtocol, MaintenanceStatus, Material, RestorationKind, Retention, SiteStatus, TorqueReason, TorqueVerdict } from './enums.js';
 
 export const Placement = z.object({
   placedOn: IsoDate,
@@ -44,7 +15,7 @@ export const Placement = z.object({
   lot: z.string().nullable(),
   insertionTorqueNcm: z.number().nullable(),
   stabilityIsq: z.number().nullable(),
-  loadingProtocol: z.enum(['immediate', 'early', 'conventional']).nullable(),
+  loadingProtocol: LoadingProtocol.nullable(),
 });
 export type Placement = z.infer<typeof Placement>;
 
@@ -54,7 +25,7 @@ export const TorqueEventSummary = z.object({
   specNcm: z.number(),
   tolerancePct: z.number(),
   verdict: TorqueVerdict,
-  reason: z.string(),
+  reason: TorqueReason,
   performedAt: IsoDateTime,
 });
 export type TorqueEventSummary = z.infer<typeof TorqueEventSummary>;

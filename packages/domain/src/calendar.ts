@@ -82,3 +82,28 @@ export function dayNumber(date: CalendarDate): number {
 export function daysBetween(from: string, to: string): number {
   return dayNumber(parseIsoDate(to, 'to')) - dayNumber(parseIsoDate(from, 'from'));
 }
+
+/** The calendar date of a day number (inverse of {@link dayNumber}), after H. Hinnant's civil_from_days. */
+export function fromDayNumber(days: number): CalendarDate {
+  const z = days + 719468;
+  const era = Math.floor(z / 146097);
+  const doe = z - era * 146097;
+  const yoe = Math.floor((doe - Math.floor(doe / 1460) + Math.floor(doe / 36524) - Math.floor(doe / 146096)) / 365);
+  const doy = doe - (365 * yoe + Math.floor(yoe / 4) - Math.floor(yoe / 100));
+  const mp = Math.floor((5 * doy + 2) / 153);
+  const month = mp < 10 ? mp + 3 : mp - 9;
+  return { year: yoe + era * 400 + (month <= 2 ? 1 : 0), month, day: doy - Math.floor((153 * mp + 2) / 5) + 1 };
+}
+
+/** Adds whole days to a `YYYY-MM-DD` date (negative `days` go back). */
+export function addCalendarDays(date: string, days: number, field = 'date'): string {
+  const d = parseIsoDate(date, field);
+  if (!Number.isInteger(days)) {
+    throw new ValidationError('not-a-number', `days must be a whole number (got ${String(days)})`, 'days');
+  }
+  const result = fromDayNumber(dayNumber(d) + days);
+  if (result.year < 1 || result.year > 9999) {
+    throw new ValidationError('out-of-range', `resulting year ${result.year} is outside 0001–9999`, 'days');
+  }
+  return formatIsoDate(result);
+}

@@ -40,6 +40,20 @@ describe('package root answers through the public API', () => {
     ['validateRestorationPlan', () => domain.validateRestorationPlan({ kind: 'single-crown', retention: 'cement-on-abutment', sites: [{ fdi: 11, interface: 'engaging', impressionCoping: 'engaging', restorativeSpaceMm: 8 }] }), []],
     // recall-interval.test.ts (practice policy, 6 months without risk [common practice])
     ['nextRecallDate', () => domain.nextRecallDate('2026-03-15', {}), '2026-09-15'],
+    // torque.test.ts: the band is the verdict's own limits (ISO 6789 ±6 % [pub])
+    ['torqueToleranceBand', () => domain.torqueToleranceBand(35, 6), { lowNcm: 32.9, highNcm: 37.1 }],
+    // retorque.test.ts (Siamos et al. 2002 [pub]: re-tighten about 10 min after the first tightening)
+    ['retorqueDueAt', () => domain.retorqueDueAt([{ reason: 'initial-seating', performedAt: new Date('2026-12-01T10:00:00Z') }]), new Date(Date.parse('2026-12-01T10:00:00Z') + domain.RETIGHTEN_AFTER_MINUTES * 60_000).toISOString()],
+    // peri-implant-baseline.test.ts (Berglundh et al. 2018 [pub]: baseline after the prosthesis is completed)
+    ['choosePeriImplantBaseline', () => domain.choosePeriImplantBaseline([{ examinedOn: '2013-01-10', recordedAt: '2013-01-10T10:00:00Z', isBaseline: false, boneLevelMm: 1, sites: [] }], { examinedOn: '2020-01-01', isBaseline: false }, '2012-09-20')?.examinedOn, '2013-01-10'],
+    ['toPeriImplantExam', () => domain.toPeriImplantExam({ sites: [{ position: 'buccal', probingDepthMm: 4, bleeding: true, suppuration: false }], boneLevelMm: null }), { sites: [{ probingDepthMm: 4, bleeding: true, suppuration: false }] }],
+    ['toPeriImplantBaseline', () => domain.toPeriImplantBaseline({ isBaseline: true }, { sites: [], boneLevelMm: 1 }), undefined],
+    // recall-reminders.test.ts (practice policy [common practice]: 14 days before, 7 after)
+    ['remindersDue', () => domain.remindersDue('2026-12-15', '2026-12-01', { reminderDaysBefore: 14, overdueReminderDaysAfter: 7 }), ['upcoming']],
+    // calendar.test.ts (proleptic Gregorian calendar)
+    ['addCalendarDays', () => domain.addCalendarDays('2028-02-28', 1), '2028-02-29'],
+    // restoration-plan.test.ts (a cemented crown is not retrievable by a screw [common practice])
+    ['isRetrievable', () => domain.isRetrievable('cement-on-abutment'), false],
   ])('%s', (_name, call, expected) => {
     expect(call()).toEqual(expected);
   });

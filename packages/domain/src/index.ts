@@ -30,6 +30,8 @@ export { addCalendarMonths } from './calendar.js';
 export { isValidIsoDate } from './calendar.js';
 /** Whole days between two YYYY-MM-DD dates. */
 export { daysBetween } from './calendar.js';
+/** Adds whole days to a YYYY-MM-DD date. */
+export { addCalendarDays } from './calendar.js';
 
 // ---- tooth numbering (ISO 3950 / Universal) ------------------------------------------------
 /** FDI → Universal ('1'–'32', 'A'–'T'); `RangeError` for a non-existent position. */
@@ -60,6 +62,8 @@ export { classifyPeriImplant } from './peri-implant-status.js';
 export { PERI_IMPLANT_FLAGS } from './peri-implant-status.js';
 /** Default and published thresholds of the peri-implant case definitions. */
 export { DEFAULT_PD_INCREASE_MM, DEFAULT_BONE_LOSS_MM, NO_BASELINE_PD_MM, NO_BASELINE_BONE_LEVEL_MM } from './peri-implant-status.js';
+/** The three statuses, best to worst. */
+export { PERI_IMPLANT_STATUSES } from './peri-implant-status.js';
 /** Peri-implant types. */
 export type {
   PeriImplantStatus,
@@ -70,6 +74,15 @@ export type {
   PeriImplantResult,
   PeriImplantFlag,
 } from './peri-implant-status.js';
+/** The baseline exam of an exam (latest marked, else first after delivery; needs a bone level). */
+export { choosePeriImplantBaseline } from './peri-implant-baseline.js';
+/** Exam and baseline as classifyPeriImplant takes them (chart order; no baseline for a baseline exam). */
+export { toPeriImplantExam, toPeriImplantBaseline } from './peri-implant-baseline.js';
+/** The latest exam, and probing sites in chart order. */
+export { latestExam, inChartOrder } from './peri-implant-baseline.js';
+/** The six probing sites, in chart order. */
+export { PROBING_POSITIONS } from './peri-implant-baseline.js';
+export type { ProbingPosition, ProbedSite, RecordedExam } from './peri-implant-baseline.js';
 
 // ---- UDI (GS1) -----------------------------------------------------------------------------
 /** GS1 check digit of the data digits. */
@@ -103,14 +116,21 @@ export { correctByKnownLength } from './radiograph-measure.js';
 export type { PixelPoint, PixelSpacing, KnownLengthCalibration } from './radiograph-measure.js';
 
 // ---- torque --------------------------------------------------------------------------------
-/** 'within' | 'under' | 'over' against an inclusive percentage window. */
+/** One of TORQUE_VERDICTS against an inclusive percentage window. */
 export { torqueVerdict } from './torque.js';
 /** Signed deviation from the specification, %. */
 export { torqueDeviationPct } from './torque.js';
+/** The window torqueVerdict judges against: spec ∓ spec × tolerance ÷ 100. */
+export { torqueToleranceBand } from './torque.js';
 /** Published tolerances, re-tightening delay and demo-catalogue torques (manufacturer-specific). */
 export { ISO_6789_TOLERANCE_PCT, FRICTION_DEVICE_TOLERANCE_PCT, RETIGHTEN_AFTER_MINUTES, DEMO_TORQUE_DEFAULTS_NCM } from './torque.js';
+/** Verdicts, reasons and the accepted torque range (1–100 N·cm). */
+export { TORQUE_VERDICTS, TORQUE_REASONS, TORQUE_NCM_RANGE } from './torque.js';
 /** Torque types. */
-export type { TorqueVerdict, TorqueCheck } from './torque.js';
+export type { TorqueVerdict, TorqueReason, TorqueCheck } from './torque.js';
+/** When the re-torque after a seating is due (Siamos 2002), and the reasons that seat and re-tighten. */
+export { retorqueDueAt, SEATING_REASONS, RETORQUE_REASONS } from './retorque.js';
+export type { TorqueLogEntry } from './retorque.js';
 
 // ---- bone level ----------------------------------------------------------------------------
 /** Cumulative Albrektsson allowance after n years: 1.5 + 0.2 × (n − 1) mm. */
@@ -143,6 +163,10 @@ export { validateRestorationPlan } from './restoration-plan.js';
 export { restorativeDesignForPlan } from './restoration-plan.js';
 /** Stable finding codes and source strings. */
 export { PLAN_FINDING_CODES, PLAN_SOURCES } from './restoration-plan.js';
+/** Kinds, retentions, interfaces, impression copings, multi-unit angles and finding severities. */
+export { RESTORATION_KINDS, RETENTIONS, ABUTMENT_LEVEL_RETENTIONS, IMPLANT_INTERFACES, IMPRESSION_COPINGS, MULTI_UNIT_ANGLES_DEG, FINDING_SEVERITIES } from './restoration-plan.js';
+/** False only for cement-retained restorations (cut off, not undone). */
+export { isRetrievable } from './restoration-plan.js';
 /** Restoration-plan types. */
 export type {
   Finding,
@@ -153,6 +177,7 @@ export type {
   Retention,
   ImplantInterface,
   ImpressionCoping,
+  MultiUnitAngleDeg,
 } from './restoration-plan.js';
 
 // ---- recall --------------------------------------------------------------------------------
@@ -160,7 +185,14 @@ export type {
 export { nextRecallDate } from './recall-interval.js';
 /** True when any recall risk factor is present. */
 export { hasRecallRisk } from './recall-interval.js';
-/** Default recall intervals. */
-export { DEFAULT_RECALL_MONTHS, DEFAULT_RISK_RECALL_MONTHS } from './recall-interval.js';
+/** The interval itself, months: the risk interval with any risk factor, else the base interval. */
+export { recallIntervalMonths } from './recall-interval.js';
+/** Default recall intervals, the range a policy may set, and the risk factors. */
+export { DEFAULT_RECALL_MONTHS, DEFAULT_RISK_RECALL_MONTHS, RECALL_MONTHS_RANGE, RECALL_RISK_FACTORS } from './recall-interval.js';
 /** Recall types. */
-export type { RecallRisk, RecallPolicy } from './recall-interval.js';
+export type { RecallRisk, RecallRiskFactor, RecallPolicy } from './recall-interval.js';
+/** Reminder kinds due on a day for a recall date, under the reminder policy. */
+export { remindersDue } from './recall-reminders.js';
+/** Reminder kinds and default reminder timing. */
+export { REMINDER_KINDS, DEFAULT_REMINDER_DAYS_BEFORE, DEFAULT_OVERDUE_REMINDER_DAYS_AFTER } from './recall-reminders.js';
+export type { ReminderKind, ReminderPolicy } from './recall-reminders.js';

@@ -29,8 +29,10 @@
 import { ValidationError } from './errors.js';
 import { EPS, fmt, requireArray, requireBoolean, requireNonNegative } from './validate.js';
 
+/** The three statuses of the 2017 case definitions, from best to worst (the database enum follows this order). */
+export const PERI_IMPLANT_STATUSES = ['health', 'mucositis', 'peri-implantitis'] as const;
 /** Peri-implant status of one implant. */
-export type PeriImplantStatus = 'health' | 'mucositis' | 'peri-implantitis';
+export type PeriImplantStatus = (typeof PERI_IMPLANT_STATUSES)[number];
 
 /** One probing site of the current exam. */
 export interface PeriImplantSite {

@@ -1,7 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import * as fc from 'fast-check';
 import { addMonths } from 'date-fns';
-import { nextRecallDate } from './recall-interval.js';
+import { nextRecallDate, recallIntervalMonths } from './recall-interval.js';
 import { ValidationError } from './errors.js';
 
 // Bidra AS et al. 2016, J Prosthodont 25(S1):S32–S40 (≥ every 6 months) [memory for the implant guideline];
@@ -36,6 +36,18 @@ describe('nextRecallDate — practice policy 6 months, 3 with any risk factor [c
     ['risk interval longer than base', () => nextRecallDate('2026-03-15', {}, { baseMonths: 3, riskMonths: 6 })],
     ['non-boolean risk', () => nextRecallDate('2026-03-15', { smoker: 'yes' as unknown as boolean })],
   ])('%s → ValidationError', (_n, fn) => expect(fn).toThrow(ValidationError));
+});
+
+describe('recallIntervalMonths — the interval nextRecallDate adds [common practice]', () => {
+  it('6 without risk, 3 with any risk factor, or the policy\'s own intervals', () => {
+    expect(recallIntervalMonths({})).toBe(6);
+    expect(recallIntervalMonths({ smoker: false, priorPeriImplantitis: true })).toBe(3);
+    expect(recallIntervalMonths({ smoker: true }, { baseMonths: 12, riskMonths: 4 })).toBe(4);
+    expect(recallIntervalMonths({}, { baseMonths: 12, riskMonths: 4 })).toBe(12);
+  });
+  it('refuses a risk interval longer than the base interval', () => {
+    expect(() => recallIntervalMonths({}, { baseMonths: 3, riskMonths: 6 })).toThrow(ValidationError);
+  });
 });
 
 describe('cross-check: calendar month arithmetic against date-fns addMonths (reference library)', () => {

@@ -12,15 +12,15 @@ import { addCalendarMonths } from './calendar.js';
 import { ValidationError } from './errors.js';
 import { optionalBoolean } from './validate.js';
 
-/** Risk factors that shorten the recall interval. Absent = false. */
-export interface RecallRisk {
-  smoker?: boolean;
-  diabetesPoorlyControlled?: boolean;
-  periodontitisHistory?: boolean;
-  priorPeriImplantitis?: boolean;
-}
+/** The risk factors that shorten the recall interval. */
+export const RECALL_RISK_FACTORS = ['smoker', 'diabetesPoorlyControlled', 'periodontitisHistory', 'priorPeriImplantitis'] as const;
+/** One of {@link RECALL_RISK_FACTORS}. */
+export type RecallRiskFactor = (typeof RECALL_RISK_FACTORS)[number];
 
-/** Practice recall policy, whole months (1–60). */
+/** Risk factors that shorten the recall interval. Absent = false. */
+export type RecallRisk = Partial<Record<RecallRiskFactor, boolean>>;
+
+/** Practice recall policy, whole months ({@link RECALL_MONTHS_RANGE}). */
 export interface RecallPolicy {
   /** Interval without risk factors. Default 6. */
   baseMonths?: number;
@@ -33,10 +33,14 @@ export const DEFAULT_RECALL_MONTHS = 6;
 /** Default recall interval with any risk factor, months [common practice]. */
 export const DEFAULT_RISK_RECALL_MONTHS = 3;
 
+/** A policy interval is a whole number of months in this range, inclusive [decision]. */
+export const RECALL_MONTHS_RANGE = Object.freeze({ min: 1, max: 60 } as const);
+
 function months(value: number | undefined, fallback: number, field: string): number {
   if (value === undefined) return fallback;
-  if (typeof value !== 'number' || !Number.isInteger(value) || value < 1 || value > 60) {
-    throw new ValidationError('out-of-range', `${field} must be a whole number of months from 1 to 60 (got ${String(value)})`, field);
+  const { min, max } = RECALL_MONTHS_RANGE;
+  if (typeof value !== 'number' || !Number.isInteger(value) || value < min || value > max) {
+    throw new ValidationError('out-of-range', `${field} must be a whole number of months from ${min} to ${max} (got ${String(value)})`, field);
   }
   return value;
 }
@@ -44,26 +48,30 @@ function months(value: number | undefined, fallback: number, field: string): num
 /** True when any risk factor is present. */
 export function hasRecallRisk(risk: RecallRisk): boolean {
   if (risk === null || typeof risk !== 'object') throw new ValidationError('bad-value', 'risk must be an object', 'risk');
-  const flags = [
-    optionalBoolean(risk.smoker, 'risk.smoker'),
-    optionalBoolean(risk.diabetesPoorlyControlled, 'risk.diabetesPoorlyControlled'),
-    optionalBoolean(risk.periodontitisHistory, 'risk.periodontitisHistory'),
-    optionalBoolean(risk.priorPeriImplantitis, 'risk.priorPeriImplantitis'),
-  ];
+  // Every factor is validated, not only up to the first true one.
+  const flags = RECALL_RISK_FACTORS.map((factor) => optionalBoolean(risk[factor], `risk.${factor}`));
   return flags.some(Boolean);
 }
 
 /**
- * Next recall date (YYYY-MM-DD): last exam + `baseMonths` (default 6), or + `riskMonths` (default 3) when
- * any risk factor is present. Pure calendar arithmetic; a day missing in the target month clamps to its
- * last day (31 Aug + 6 months → 28/29 Feb).
- * @throws ValidationError for an impossible date, a policy that is not 1–60 whole months, or riskMonths > baseMonths
+ * The recall interval, whole months: `riskMonths` (default 3) when any risk factor is present, else
+ * `baseMonths` (default 6).
+ * @throws ValidationError for a policy that is not 1–60 whole months, or riskMonths > baseMonths
  */
-export function nextRecallDate(lastExamDate: string, risk: RecallRisk, policy?: RecallPolicy): string {
+export function recallIntervalMonths(risk: RecallRisk, policy?: RecallPolicy): number {
   const base = months(policy?.baseMonths, DEFAULT_RECALL_MONTHS, 'policy.baseMonths');
   const riskM = months(policy?.riskMonths, DEFAULT_RISK_RECALL_MONTHS, 'policy.riskMonths');
   if (riskM > base) {
     throw new ValidationError('out-of-range', `policy.riskMonths (${riskM}) must not exceed policy.baseMonths (${base})`, 'policy.riskMonths');
   }
-  return addCalendarMonths(lastExamDate, hasRecallRisk(risk) ? riskM : base, 'lastExamDate');
+  return hasRecallRisk(risk) ? riskM : base;
+}
+
+/**
+ * Next recall date (YYYY-MM-DD): last exam + {@link recallIntervalMonths}. Pure calendar arithmetic; a day
+ * missing in the target month clamps to its last day (31 Aug + 6 months → 28/29 Feb).
+ * @throws ValidationError for an impossible date, a policy that is not 1–60 whole months, or riskMonths > baseMonths
+ */
+export function nextRecallDate(lastExamDate: string, risk: RecallRisk, policy?: RecallPolicy): string {
+  return addCalendarMonths(lastExamDate, recallIntervalMonths(risk, policy), 'lastExamDate');
 }

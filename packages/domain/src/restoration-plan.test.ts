@@ -2,6 +2,8 @@ import { describe, it, expect } from 'vitest';
 import {
   PLAN_FINDING_CODES as C,
   PLAN_SOURCES,
+  RETENTIONS,
+  isRetrievable,
   restorativeDesignForPlan,
   validateRestorationPlan,
   type RestorationPlan,
@@ -236,4 +238,13 @@ describe('malformed plans throw ValidationError', () => {
     ['multi-unit angle 25', { ...validFullArch, sites: [{ ...validFullArch.sites[0], multiUnitAngleDeg: 25 }, ...validFullArch.sites.slice(1)] }],
     ['copingsSplinted not boolean', { ...validBridge, copingsSplinted: 'yes' }],
   ])('%s', (_n, plan) => expect(() => validateRestorationPlan(plan as RestorationPlan)).toThrow(ValidationError));
+});
+
+describe('isRetrievable — a cemented restoration is cut off, screws are undone [common practice]', () => {
+  it('is false only for cement-on-abutment', () => {
+    expect(RETENTIONS.filter((r) => !isRetrievable(r))).toEqual(['cement-on-abutment']);
+  });
+  it('refuses an unknown retention', () => {
+    expect(() => isRetrievable('glued' as never)).toThrow(ValidationError);
+  });
 });

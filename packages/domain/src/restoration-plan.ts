@@ -20,17 +20,39 @@
 import { DIVERGENCE_LIMIT_DEG, divergenceDeg, type Vec3 } from './geometry.js';
 import { ValidationError } from './errors.js';
 import { RESTORATIVE_DESIGN_LABELS, minRestorativeSpaceMm, type RestorativeDesign } from './restorative-space.js';
-import { isPrimaryTooth, isValidFdi, toothArch } from './tooth-numbering.js';
+import { isPrimaryTooth, isValidFdi, toothArch, type ToothArch } from './tooth-numbering.js';
 import { EPS, fmt, optionalBoolean, requireArray, requireFinite, requireNonNegative, requireOneOf } from './validate.js';
 
-/** Kind of restoration. `splinted-bridge` and `full-arch` are splinted. */
-export type RestorationKind = 'single-crown' | 'splinted-bridge' | 'full-arch';
+/** Kinds of restoration. `splinted-bridge` and `full-arch` are splinted. */
+export const RESTORATION_KINDS = ['single-crown', 'splinted-bridge', 'full-arch'] as const;
+/** Kind of restoration. */
+export type RestorationKind = (typeof RESTORATION_KINDS)[number];
+/** How a restoration is retained. */
+export const RETENTIONS = ['screw-to-implant', 'screw-to-multi-unit', 'cement-on-abutment', 'lingual-set-screw'] as const;
 /** How the restoration is retained. */
-export type Retention = 'screw-to-implant' | 'screw-to-multi-unit' | 'cement-on-abutment' | 'lingual-set-screw';
-/** Connection of the restoration (or abutment) to the implant: indexed to the hex or not. */
-export type ImplantInterface = 'engaging' | 'non-engaging';
+export type Retention = (typeof RETENTIONS)[number];
+/** Retentions where the restoration sits on an abutment, indexed to the implant's hex [common practice]. */
+export const ABUTMENT_LEVEL_RETENTIONS: readonly Retention[] = Object.freeze(['cement-on-abutment', 'lingual-set-screw']);
+/** Connections of the restoration (or abutment) to the implant: indexed to the hex or not. */
+export const IMPLANT_INTERFACES = ['engaging', 'non-engaging'] as const;
+/** Connection of the restoration (or abutment) to the implant. */
+export type ImplantInterface = (typeof IMPLANT_INTERFACES)[number];
+/** Impression copings a site can be recorded with. */
+export const IMPRESSION_COPINGS = ['engaging', 'non-engaging', 'multi-unit'] as const;
 /** Impression coping used at a site. */
-export type ImpressionCoping = 'engaging' | 'non-engaging' | 'multi-unit';
+export type ImpressionCoping = (typeof IMPRESSION_COPINGS)[number];
+/** Angles multi-unit abutments come in, degrees [common practice]. */
+export const MULTI_UNIT_ANGLES_DEG = [0, 17, 30] as const;
+/** Angle of a multi-unit abutment, degrees. */
+export type MultiUnitAngleDeg = (typeof MULTI_UNIT_ANGLES_DEG)[number];
+
+/**
+ * True when the restoration can be taken off without cutting it: every retention but cement
+ * [common practice: a cemented crown is cut off; screws and a lingual set screw are undone].
+ */
+export function isRetrievable(retention: Retention): boolean {
+  return requireOneOf(retention, RETENTIONS, 'retention') !== 'cement-on-abutment';
+}
 
 /** One implant site of a plan. */
 export interface RestorationPlanSite {
@@ -41,7 +63,7 @@ export interface RestorationPlanSite {
   /** Implant axis direction (any units), for the divergence check. */
   axis?: Vec3;
   /** Angle of the multi-unit abutment, degrees. */
-  multiUnitAngleDeg?: 0 | 17 | 30;
+  multiUnitAngleDeg?: MultiUnitAngleDeg;
   /** Vertical restorative space at this site, mm. */
   restorativeSpaceMm?: number;
 }
@@ -55,8 +77,10 @@ export interface RestorationPlan {
   sites: RestorationPlanSite[];
 }
 
-/** Severity of a {@link Finding}: an error blocks the plan, a warning needs the clinician's attention. */
-export type FindingSeverity = 'error' | 'warning';
+/** Severities of a {@link Finding}: an error blocks the plan, a warning needs the clinician's attention. */
+export const FINDING_SEVERITIES = ['error', 'warning'] as const;
+/** Severity of a {@link Finding}. */
+export type FindingSeverity = (typeof FINDING_SEVERITIES)[number];
 
 /** One problem found in a plan. */
 export interface Finding {
@@ -99,11 +123,6 @@ export const PLAN_SOURCES = Object.freeze({
   COMMON_PRACTICE: 'common practice',
 } as const);
 
-const KINDS: readonly RestorationKind[] = ['single-crown', 'splinted-bridge', 'full-arch'];
-const RETENTIONS: readonly Retention[] = ['screw-to-implant', 'screw-to-multi-unit', 'cement-on-abutment', 'lingual-set-screw'];
-const INTERFACES: readonly ImplantInterface[] = ['engaging', 'non-engaging'];
-const COPINGS: readonly ImpressionCoping[] = ['engaging', 'non-engaging', 'multi-unit'];
-const MUA_ANGLES: readonly number[] = [0, 17, 30];
 
 const RETENTION_LABELS: Record<Retention, string> = {
   'screw-to-implant': 'screw-retained on the implant',
@@ -118,7 +137,7 @@ const RETENTION_LABELS: Record<Retention, string> = {
  * cement-on-abutment and lingual-set-screw → cement.
  */
 export function restorativeDesignForPlan(plan: Pick<RestorationPlan, 'kind' | 'retention'>): RestorativeDesign {
-  const kind = requireOneOf(plan.kind, KINDS, 'plan.kind');
+  const kind = requireOneOf(plan.kind, RESTORATION_KINDS, 'plan.kind');
   const retention = requireOneOf(plan.retention, RETENTIONS, 'plan.retention');
   if (kind === 'full-arch' && (retention === 'screw-to-implant' || retention === 'screw-to-multi-unit')) return 'full-arch-hybrid';
   if (retention === 'screw-to-implant') return 'screw-implant-level';
@@ -128,7 +147,7 @@ export function restorativeDesignForPlan(plan: Pick<RestorationPlan, 'kind' | 'r
 
 function validateShape(plan: RestorationPlan): void {
   if (plan === null || typeof plan !== 'object') throw new ValidationError('bad-value', 'plan must be an object', 'plan');
-  requireOneOf(plan.kind, KINDS, 'plan.kind');
+  requireOneOf(plan.kind, RESTORATION_KINDS, 'plan.kind');
   requireOneOf(plan.retention, RETENTIONS, 'plan.retention');
   optionalBoolean(plan.copingsSplinted, 'plan.copingsSplinted');
   requireArray(plan.sites, 'plan.sites').forEach((s, i) => {
@@ -136,9 +155,9 @@ function validateShape(plan: RestorationPlan): void {
     if (s === null || typeof s !== 'object') throw new ValidationError('bad-value', `${f} must be an object`, f);
     const site = s as RestorationPlanSite;
     requireFinite(site.fdi, `${f}.fdi`);
-    requireOneOf(site.interface, INTERFACES, `${f}.interface`);
-    requireOneOf(site.impressionCoping, COPINGS, `${f}.impressionCoping`);
-    if (site.multiUnitAngleDeg !== undefined) requireOneOf(site.multiUnitAngleDeg, MUA_ANGLES, `${f}.multiUnitAngleDeg`);
+    requireOneOf(site.interface, IMPLANT_INTERFACES, `${f}.interface`);
+    requireOneOf(site.impressionCoping, IMPRESSION_COPINGS, `${f}.impressionCoping`);
+    if (site.multiUnitAngleDeg !== undefined) requireOneOf(site.multiUnitAngleDeg, MULTI_UNIT_ANGLES_DEG, `${f}.multiUnitAngleDeg`);
     if (site.restorativeSpaceMm !== undefined) requireNonNegative(site.restorativeSpaceMm, `${f}.restorativeSpaceMm`);
     if (site.axis !== undefined) divergenceDeg(site.axis, site.axis); // validates: 3 finite components, not zero
   });
@@ -182,7 +201,7 @@ export function validateRestorationPlan(plan: RestorationPlan): Finding[] {
   }
 
   const seen = new Set<number>();
-  const arches = new Map<'upper' | 'lower', number[]>();
+  const arches = new Map<ToothArch, number[]>();
   for (const site of sites) {
     if (!isValidFdi(site.fdi)) {
       findings.push({
@@ -286,7 +305,7 @@ export function validateRestorationPlan(plan: RestorationPlan): Finding[] {
           source: PLAN_SOURCES.COMMON_PRACTICE,
         });
       }
-      const indexed = retention === 'cement-on-abutment' || retention === 'lingual-set-screw' || (retention === 'screw-to-implant' && !splinted);
+      const indexed = ABUTMENT_LEVEL_RETENTIONS.includes(retention) || (retention === 'screw-to-implant' && !splinted);
       if (indexed && site.impressionCoping === 'non-engaging') {
         findings.push({
           severity: 'error',

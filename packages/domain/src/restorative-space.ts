@@ -10,16 +10,9 @@
 import { requireOneOf, requirePositive } from './validate.js';
 
 /** Restoration designs with a published minimum restorative space. */
-export type RestorativeDesign = 'screw-implant-level' | 'screw-abutment-level' | 'cement' | 'bar-overdenture' | 'full-arch-hybrid';
-
-/** All {@link RestorativeDesign} values. */
-export const RESTORATIVE_DESIGNS: readonly RestorativeDesign[] = Object.freeze([
-  'screw-implant-level',
-  'screw-abutment-level',
-  'cement',
-  'bar-overdenture',
-  'full-arch-hybrid',
-]);
+export const RESTORATIVE_DESIGNS = Object.freeze(['screw-implant-level', 'screw-abutment-level', 'cement', 'bar-overdenture', 'full-arch-hybrid'] as const);
+/** One of {@link RESTORATIVE_DESIGNS}. */
+export type RestorativeDesign = (typeof RESTORATIVE_DESIGNS)[number];
 
 const MIN_SPACE_MM: Record<RestorativeDesign, number> = {
   'screw-implant-level': 5,

@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import * as fc from 'fast-check';
-import { ISO_6789_TOLERANCE_PCT, torqueDeviationPct, torqueVerdict } from './torque.js';
+import { ISO_6789_TOLERANCE_PCT, torqueDeviationPct, torqueToleranceBand, torqueVerdict } from './torque.js';
 import { ValidationError } from './errors.js';
 
 // ISO 6789-1:2017 Type II Class A ±6 % [pub], applied to dental drivers [derived];
@@ -44,6 +44,28 @@ describe('torqueVerdict — inclusive window, floating point at the exact bounda
   it('0 % tolerance: only the exact value is within', () => {
     expect(torqueVerdict({ appliedNcm: 35, specNcm: 35, tolerancePct: 0 })).toBe('within');
     expect(torqueVerdict({ appliedNcm: 35.01, specNcm: 35, tolerancePct: 0 })).toBe('over');
+  });
+});
+
+describe('torqueToleranceBand — the window torqueVerdict judges against (ISO 6789-1:2017 [pub], ±6 % [derived])', () => {
+  it('35 N·cm ± 6 % → 32.9 to 37.1 N·cm', () => {
+    const band = torqueToleranceBand(35, ISO_6789_TOLERANCE_PCT);
+    expect(band.lowNcm).toBeCloseTo(32.9, 10);
+    expect(band.highNcm).toBeCloseTo(37.1, 10);
+  });
+  it('its ends are within and 1e-6 N·cm beyond them is outside (property, same formula as the verdict)', () => {
+    fc.assert(
+      fc.property(fc.integer({ min: 1, max: 100 }), fc.integer({ min: 0, max: 50 }), (spec, tol) => {
+        const { lowNcm, highNcm } = torqueToleranceBand(spec, tol);
+        const verdict = (appliedNcm: number) => torqueVerdict({ appliedNcm, specNcm: spec, tolerancePct: tol });
+        return verdict(lowNcm) === 'within' && verdict(highNcm) === 'within' && verdict(highNcm + 1e-6) === 'over' && verdict(lowNcm - 1e-6) === 'under';
+      }),
+    );
+  });
+  it('refuses what the verdict refuses', () => {
+    expect(() => torqueToleranceBand(0, 6)).toThrow(ValidationError);
+    expect(() => torqueToleranceBand(35, 100)).toThrow(ValidationError);
+    expect(() => torqueToleranceBand(35, Number.NaN)).toThrow(ValidationError);
   });
 });
 

@@ -10,8 +10,25 @@
 import { ValidationError } from './errors.js';
 import { requireNonNegative, requirePositive } from './validate.js';
 
+/** Verdicts of {@link torqueVerdict}, in the order they are stored (the database enum follows it). */
+export const TORQUE_VERDICTS = ['within', 'under', 'over'] as const;
 /** Verdict of {@link torqueVerdict}. */
-export type TorqueVerdict = 'within' | 'under' | 'over';
+export type TorqueVerdict = (typeof TORQUE_VERDICTS)[number];
+
+/**
+ * Why a torque was applied. Seating and re-torque reasons drive the re-torque reminder
+ * ({@link retorqueDueAt} in retorque.ts).
+ */
+export const TORQUE_REASONS = ['initial-seating', 're-torque-after-settling', 're-torque-at-recall', 'loosening-found', 'screw-replaced'] as const;
+/** One of {@link TORQUE_REASONS}. */
+export type TorqueReason = (typeof TORQUE_REASONS)[number];
+
+/**
+ * Plausible range of a recorded prosthetic torque or torque specification, N·cm, inclusive
+ * [decision]: dental drivers work at 10–35 N·cm (ISO 6789 note above); 1–100 catches typing
+ * errors (a missing or extra digit) without refusing any system's specification.
+ */
+export const TORQUE_NCM_RANGE = Object.freeze({ min: 1, max: 100 } as const);
 
 /** Input of {@link torqueVerdict}. */
 export interface TorqueCheck {
@@ -52,6 +69,28 @@ export function torqueDeviationPct(appliedNcm: number, specNcm: number): number 
   return ((a - s) / s) * 100;
 }
 
+function requireTolerance(tolerancePct: number): number {
+  const tol = requireNonNegative(tolerancePct, 'tolerancePct');
+  if (tol >= 100) throw new ValidationError('out-of-range', `tolerancePct must be below 100 (got ${tol})`, 'tolerancePct');
+  return tol;
+}
+
+/** The allowed deviation either side of the specification, N·cm: spec × tol ÷ 100 (one formula for verdict and band). */
+function allowedDeviationNcm(spec: number, tol: number): number {
+  return (spec * tol) / 100;
+}
+
+/**
+ * The tolerance window of a specification, N·cm: specNcm ∓ specNcm × tolerancePct ÷ 100, the window
+ * {@link torqueVerdict} judges against (its boundaries count as within).
+ * @throws ValidationError for NaN, a non-positive specification, tolerance outside [0, 100)
+ */
+export function torqueToleranceBand(specNcm: number, tolerancePct: number): { lowNcm: number; highNcm: number } {
+  const spec = requirePositive(specNcm, 'specNcm');
+  const allowed = allowedDeviationNcm(spec, requireTolerance(tolerancePct));
+  return { lowNcm: spec - allowed, highNcm: spec + allowed };
+}
+
 /**
  * 'within' when specNcm × (1 − tol) ≤ appliedNcm ≤ specNcm × (1 + tol), both ends inclusive
  * (a relative epsilon of 1e-9 absorbs floating-point error at the exact boundary); otherwise 'under' or 'over'.
@@ -60,9 +99,7 @@ export function torqueDeviationPct(appliedNcm: number, specNcm: number): number 
 export function torqueVerdict({ appliedNcm, specNcm, tolerancePct }: TorqueCheck): TorqueVerdict {
   const applied = requireNonNegative(appliedNcm, 'appliedNcm');
   const spec = requirePositive(specNcm, 'specNcm');
-  const tol = requireNonNegative(tolerancePct, 'tolerancePct');
-  if (tol >= 100) throw new ValidationError('out-of-range', `tolerancePct must be below 100 (got ${tol})`, 'tolerancePct');
-  const allowed = (spec * tol) / 100;
+  const allowed = allowedDeviationNcm(spec, requireTolerance(tolerancePct));
   const deviation = applied - spec;
   const eps = REL_EPS * spec;
   if (deviation > allowed + eps) return 'over';

@@ -1,6 +1,6 @@
 import { Controller, Get, Inject, Res } from '@nestjs/common';
 import type { Response } from 'express';
-import type { HealthReply, LivenessReply } from '@torquetrail/contracts';
+import type { HealthReply, LivenessReply, ServiceState } from '@torquetrail/contracts';
 import { Public } from '../common/public.decorator.js';
 import { DB, type Database } from '../db/database.js';
 import { MailService } from '../mail/mail.service.js';
@@ -30,7 +30,7 @@ export class HealthController {
   @Get(['', 'ready'])
   async ready(@Res({ passthrough: true }) res: Response): Promise<HealthReply> {
     const [database, objectStorage, mail] = await Promise.all([databaseAnswers(this.db), this.storage.isUp(), this.mail.isUp()]);
-    const state = (up: boolean): 'up' | 'down' => (up ? 'up' : 'down');
+    const state = (up: boolean): ServiceState => (up ? 'up' : 'down');
     const ready = database && objectStorage;
     res.status(ready ? 200 : 503);
     return {

@@ -1,7 +1,7 @@
 // The lab prescription as a PDF (pdfkit). The patient appears only by chart number and initials:
 // the lab needs no more identifying data than that.
 import PDFDocument from 'pdfkit';
-import { MANUFACTURER_CAUTION } from '@torquetrail/contracts';
+import { type ComponentKind, MANUFACTURER_CAUTION, STACK_ORDER } from '@torquetrail/contracts';
 import { fdiToUniversal } from '@torquetrail/domain';
 
 export interface PrescriptionPart {
@@ -67,7 +67,6 @@ const LABELS: Record<string, string> = {
 };
 const label = (v: string) => LABELS[v] ?? v;
 
-const ORDER = ['multi-unit-abutment', 'abutment-stock', 'abutment-custom', 'abutment-angled', 'abutment-screw', 'prosthetic-screw', 'set-screw'];
 const torque = (p: PrescriptionPart) => (p.torqueSpecNcm === null ? 'hand-tight' : `${p.torqueSpecNcm} N·cm ±${p.tolerancePct} %`);
 
 export function renderLabPrescription(input: PrescriptionInput): Promise<Buffer> {
@@ -98,7 +97,7 @@ export function renderLabPrescription(input: PrescriptionInput): Promise<Buffer>
       : 'no placement recorded';
     doc.text(`Implant: ${implant}`, { indent: 12 });
     doc.text(`Interface: ${site.interface}${site.multiUnitAngleDeg !== null ? `; multi-unit angle ${site.multiUnitAngleDeg}°` : ''}${site.restorativeSpaceMm !== null ? `; restorative space ${site.restorativeSpaceMm} mm` : ''}`, { indent: 12 });
-    const chain = site.parts.filter((p) => p.kind !== 'impression-coping').sort((a, b) => ORDER.indexOf(a.kind) - ORDER.indexOf(b.kind));
+    const chain = site.parts.filter((p) => p.kind !== 'impression-coping').sort((a, b) => STACK_ORDER.indexOf(a.kind as ComponentKind) - STACK_ORDER.indexOf(b.kind as ComponentKind));
     for (const p of chain) doc.text(`> ${p.name} [${p.referenceCode}]: ${torque(p)}`, { indent: 24 });
     if (chain.length === 0) doc.text('> no parts chosen', { indent: 24 });
     const copings = site.parts.filter((p) => p.kind === 'impression-coping');

@@ -1,4 +1,5 @@
 import { and, asc, eq, inArray, notInArray } from 'drizzle-orm';
+import { CLOSURE_KINDS } from '@torquetrail/contracts';
 import type { Db, Tx } from '../db/database.js';
 import { componentInstances, components, implantSites, implantSystems, patients, placements, platforms, users } from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
@@ -65,7 +66,7 @@ export async function listPlacementOptions(db: Db, practiceId: string) {
   const parts = await db
     .select({ id: components.id, platformId: components.platformId, kind: components.kind, name: components.name, referenceCode: components.referenceCode, requiresLot: components.requiresLot })
     .from(components)
-    .where(and(eq(components.practiceId, practiceId), inArray(components.kind, ['healing-abutment', 'cover-screw'])))
+    .where(and(eq(components.practiceId, practiceId), inArray(components.kind, [...CLOSURE_KINDS])))
     .orderBy(asc(components.kind), asc(components.name));
   return { rows, parts };
 }

@@ -3,6 +3,7 @@ import type { AppAbility } from '@torquetrail/authz';
 import {
   type AddSiteBody,
   type ArchSite,
+  type ClosureKind,
   MANUFACTURER_CAUTION,
   type PlacementAmendmentBody,
   type PlacementBody,
@@ -75,7 +76,7 @@ export class PlacementsService {
         diameterMm: r.diameterMm,
         connection: r.connection,
         platformShift: r.platformShift,
-        components: parts.filter((p) => p.platformId === r.platformId).map((p) => ({ id: p.id, kind: p.kind as 'healing-abutment' | 'cover-screw', name: p.name, referenceCode: p.referenceCode, requiresLot: p.requiresLot })),
+        components: parts.filter((p) => p.platformId === r.platformId).map((p) => ({ id: p.id, kind: p.kind as ClosureKind, name: p.name, referenceCode: p.referenceCode, requiresLot: p.requiresLot })),
       });
     }
     return { siteId: site.id, fdi: site.fdi, caution: MANUFACTURER_CAUTION, systems: [...systems.values()] };

@@ -3,7 +3,7 @@
 // recall_exams_site_idx (latest exam per site), recall_exams_patient_idx, recall_exams_supersedes_idx,
 // implant_sites_practice_idx / the patient FK look-ups. See scripts/bench-recall-desk.mjs for timings.
 import { sql, type SQL } from 'drizzle-orm';
-import type { RecallDeskCsvQuery, RecallDeskRow } from '@torquetrail/contracts';
+import { DESK_DUE_SOON_DAYS, type RecallDeskCsvQuery, type RecallDeskRow } from '@torquetrail/contracts';
 import type { Db } from '../db/database.js';
 import type { Scope } from '../authz/scope.js';
 
@@ -35,7 +35,7 @@ export async function queryDesk(db: Db, scope: Scope, today: string, q: RecallDe
     }
   }
   const outer: SQL[] = [sql`true`];
-  if (q.filter === 'due-this-week') outer.push(sql`next_due between ${today}::date and (${today}::date + 7)`);
+  if (q.filter === 'due-this-week') outer.push(sql`next_due between ${today}::date and (${today}::date + ${DESK_DUE_SOON_DAYS}::int)`);
   if (q.filter === 'overdue') outer.push(sql`next_due < ${today}::date`);
   if (q.filter === 'peri-implantitis-last') outer.push(sql`coalesce(last_pi, false)`);
 

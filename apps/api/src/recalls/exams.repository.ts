@@ -1,11 +1,19 @@
 // SQL for recall exams. Scope is applied by the callers' patient/site look-ups (visiblePatients).
 import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm';
 import type { RecallExam } from '@torquetrail/contracts';
+import {
+  DEFAULT_OVERDUE_REMINDER_DAYS_AFTER,
+  DEFAULT_RECALL_MONTHS,
+  DEFAULT_REMINDER_DAYS_BEFORE,
+  DEFAULT_RISK_RECALL_MONTHS,
+  inChartOrder,
+  type PeriImplantStatus,
+  type ProbedSite,
+} from '@torquetrail/domain';
 import type { Db, Tx } from '../db/database.js';
 import { implantSites, patients, recallExams, recallExamSites, recallPolicies, recalls, users } from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
 import { visiblePatients } from '../authz/visible-patients.js';
-import { inChartOrder, type ProbedSite } from './exam-rules.js';
 import { insertAmendment, isAmended, isCurrentVersion } from '../db/amendments.js';
 
 /** Not superseded by an amendment. */
@@ -80,7 +88,7 @@ export function toContract(row: ExamRow): RecallExam {
  * Latest current exam per site: the status and date for the Arch ring and the Site file
  * (served to the patients and sites features by MaintenanceStatusService).
  */
-export async function latestExamBySite(db: Db, siteIds: string[]): Promise<Map<string, { status: 'health' | 'mucositis' | 'peri-implantitis'; examinedOn: string }>> {
+export async function latestExamBySite(db: Db, siteIds: string[]): Promise<Map<string, { status: PeriImplantStatus; examinedOn: string }>> {
   if (siteIds.length === 0) return new Map();
   const rows = await db
     .selectDistinctOn([recallExams.siteId], { siteId: recallExams.siteId, status: recallExams.status, examinedOn: recallExams.examinedOn })
@@ -157,7 +165,7 @@ export interface NewExam {
   boneLevelMm: number | null;
   isBaseline: boolean;
   notes: string | null;
-  status: 'health' | 'mucositis' | 'peri-implantitis';
+  status: PeriImplantStatus;
   reasons: string[];
   flags: string[];
   rulesVersion: string;
@@ -221,7 +229,12 @@ export async function rescheduleRecall(db: Db, r: { practiceId: string; patientI
   await db.insert(recalls).values({ practiceId: r.practiceId, patientId: r.patientId, dueOn: r.dueOn, status: 'scheduled', scheduledFromVisitId: r.visitId });
 }
 
-export const DEFAULT_POLICY = { baseMonths: 6, riskMonths: 3, reminderDaysBefore: 14, overdueReminderDaysAfter: 7 } as const;
+export const DEFAULT_POLICY = {
+  baseMonths: DEFAULT_RECALL_MONTHS,
+  riskMonths: DEFAULT_RISK_RECALL_MONTHS,
+  reminderDaysBefore: DEFAULT_REMINDER_DAYS_BEFORE,
+  overdueReminderDaysAfter: DEFAULT_OVERDUE_REMINDER_DAYS_AFTER,
+} as const;
 
 export async function findPolicy(db: Db, practiceId: string) {
   const [row] = await db.select().from(recallPolicies).where(eq(recallPolicies.practiceId, practiceId));

@@ -2,13 +2,25 @@ import { randomUUID } from 'node:crypto';
 import { Inject, Injectable } from '@nestjs/common';
 import { type AppAbility, subject } from '@torquetrail/authz';
 import { AmendExamBody as AmendExamSchema, CreateVisitBody as CreateVisitSchema, type CreateVisitReply, type RecallExam, type ExamContext, type SiteExamHistory } from '@torquetrail/contracts';
-import { classifyPeriImplant, DEFAULT_BONE_LOSS_MM, DEFAULT_PD_INCREASE_MM, DomainError, nextRecallDate, RULES_VERSION } from '@torquetrail/domain';
+import {
+  choosePeriImplantBaseline,
+  classifyPeriImplant,
+  DEFAULT_BONE_LOSS_MM,
+  DEFAULT_PD_INCREASE_MM,
+  DomainError,
+  inChartOrder,
+  latestExam,
+  nextRecallDate,
+  recallIntervalMonths,
+  RULES_VERSION,
+  toPeriImplantBaseline,
+  toPeriImplantExam,
+} from '@torquetrail/domain';
 import type { z } from 'zod';
 import { assertCan, type Scope } from '../authz/scope.js';
 import { alreadyAmended } from '../common/amendment-conflict.js';
 import { fieldError } from '../common/field-error.js';
 import { DB, type Database, type Tx } from '../db/database.js';
-import { chooseBaseline, inChartOrder, latestOf, toDomainBaseline, toDomainExam } from './exam-rules.js';
 import {
   findExamsByIds,
   findPolicy,
@@ -54,8 +66,8 @@ export class ExamsService {
       policy: ability.can('read', subject('RecallPolicy', { practiceId: patient.practiceId })) ? policy : null,
       sites: sites.map((s) => {
         const mine = exams.filter((e) => e.siteId === s.siteId);
-        const baseline = chooseBaseline(mine, today, s.deliveredOn);
-        const previous = latestOf(mine);
+        const baseline = choosePeriImplantBaseline(mine, { examinedOn: today, isBaseline: false }, s.deliveredOn);
+        const previous = latestExam(mine);
         return {
           siteId: s.siteId,
           fdi: s.fdi,
@@ -102,10 +114,10 @@ export class ExamsService {
       for (const [i, exam] of body.exams.entries()) {
         const site = sites.get(exam.siteId)!;
         const probes = inChartOrder(exam.sites);
-        const baseline = exam.isBaseline ? null : chooseBaseline(earlier.filter((e) => e.siteId === site.siteId), body.examinedOn, site.deliveredOn);
+        const baseline = choosePeriImplantBaseline(earlier.filter((e) => e.siteId === site.siteId), { examinedOn: body.examinedOn, isBaseline: exam.isBaseline }, site.deliveredOn);
         let verdict;
         try {
-          verdict = classifyPeriImplant(toDomainExam({ sites: probes, boneLevelMm: exam.boneLevelMm }), toDomainBaseline(baseline), RULE_OPTIONS);
+          verdict = classifyPeriImplant(toPeriImplantExam({ sites: probes, boneLevelMm: exam.boneLevelMm }), toPeriImplantBaseline(exam, baseline), RULE_OPTIONS);
         } catch (error) {
           if (error instanceof DomainError) throw fieldError({ [`exams.${i}`]: error.message });
           throw error;
@@ -161,10 +173,10 @@ export class ExamsService {
     };
     const policy = await findPolicy(tx, patient.practiceId);
     const lastExam = (await latestExamDateOfPatient(tx, patient.id)) ?? this.clock.today();
-    const dueOn = nextRecallDate(lastExam, riskFactors, { baseMonths: policy.baseMonths, riskMonths: policy.riskMonths });
+    const intervals = { baseMonths: policy.baseMonths, riskMonths: policy.riskMonths };
+    const dueOn = nextRecallDate(lastExam, riskFactors, intervals);
     await rescheduleRecall(tx, { practiceId: patient.practiceId, patientId: patient.id, dueOn, visitId });
-    const hasRisk = Object.values(riskFactors).some(Boolean);
-    return { dueOn, intervalMonths: hasRisk ? policy.riskMonths : policy.baseMonths, riskFactors };
+    return { dueOn, intervalMonths: recallIntervalMonths(riskFactors, intervals), riskFactors };
   }
 
   /** An amendment: a new exam superseding the old one, with the reason; recomputed and rescheduled in one transaction. */
@@ -179,10 +191,10 @@ export class ExamsService {
       const site = (await listSitesForExam(tx, patient.id)).find((s) => s.siteId === old.siteId)!;
       const earlier = (await listExamsOfSites(tx, [site.siteId])).filter((e) => e.id !== old.id);
       const probes = inChartOrder(body.sites);
-      const baseline = body.isBaseline ? null : chooseBaseline(earlier, old.examinedOn, site.deliveredOn);
+      const baseline = choosePeriImplantBaseline(earlier, { examinedOn: old.examinedOn, isBaseline: body.isBaseline }, site.deliveredOn);
       let verdict;
       try {
-        verdict = classifyPeriImplant(toDomainExam({ sites: probes, boneLevelMm: body.boneLevelMm }), toDomainBaseline(baseline), RULE_OPTIONS);
+        verdict = classifyPeriImplant(toPeriImplantExam({ sites: probes, boneLevelMm: body.boneLevelMm }), toPeriImplantBaseline(body, baseline), RULE_OPTIONS);
       } catch (error) {
         if (error instanceof DomainError) throw fieldError({ sites: error.message });
         throw error;

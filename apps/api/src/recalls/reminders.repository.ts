@@ -1,4 +1,5 @@
 import { and, desc, eq, inArray, ne, sql } from 'drizzle-orm';
+import type { ReminderKind, ReminderStatus } from '@torquetrail/contracts';
 import type { Db } from '../db/database.js';
 import { patients, recallPolicies, recalls, reminderLog } from '../db/schema/index.js';
 import { DEFAULT_POLICY } from './exams.repository.js';
@@ -20,7 +21,7 @@ export async function listScheduledRecalls(db: Db, practiceId?: string) {
 }
 
 /** Logs each reminder once: the idempotency key is unique, so a second scan inserts nothing. */
-export async function logReminders(db: Db, rows: { practiceId: string; patientId: string; recallDueOn: string; kind: 'upcoming' | 'overdue'; idempotencyKey: string }[]): Promise<number> {
+export async function logReminders(db: Db, rows: { practiceId: string; patientId: string; recallDueOn: string; kind: ReminderKind; idempotencyKey: string }[]): Promise<number> {
   if (rows.length === 0) return 0;
   const inserted = await db.insert(reminderLog).values(rows).onConflictDoNothing({ target: reminderLog.idempotencyKey }).returning({ id: reminderLog.id });
   return inserted.length;
@@ -39,8 +40,8 @@ export async function listUnsent(db: Db, keys: string[]) {
 export async function lockReminder(db: Db, id: string) {
   const result = await db.execute<{
     id: string;
-    status: 'pending' | 'sent' | 'failed';
-    kind: 'upcoming' | 'overdue';
+    status: ReminderStatus;
+    kind: ReminderKind;
     recall_due_on: string;
     idempotency_key: string;
     attempts: number;

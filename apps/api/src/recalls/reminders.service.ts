@@ -5,11 +5,12 @@
 // accepted the message. A failed send is recorded and retried with exponential back-off; a retry
 // or a second scan of a key already sent does nothing.
 import { Inject, Injectable, Logger, type OnApplicationShutdown, type OnModuleInit } from '@nestjs/common';
+import { remindersDue } from '@torquetrail/domain';
 import { PgBoss, type Job } from 'pg-boss';
 import { ENV, type Env } from '../config/env.js';
 import { DB, type Database } from '../db/database.js';
 import { MailService } from '../mail/mail.service.js';
-import { remindersDue, reminderKey } from './exam-rules.js';
+import { reminderKey } from './exam-rules.js';
 import { RecallClock } from './recall-clock.js';
 import { listScheduledRecalls, listUnsent, lockReminder, logReminders, markFailedAttempt, markSent } from './reminders.repository.js';
 

@@ -1,6 +1,6 @@
 // Server-side check of a plan: the parts must exist in the practice's catalogue, be of the right
 // kind and fit the site's platform; then the same `validateRestorationPlan` the web runs live.
-import { type PlanBodyParsed, findingField } from '@torquetrail/contracts';
+import { ABUTMENT_KINDS, type ComponentKind, type ImpressionCopingKind, type InterfaceKind, type MultiUnitAngleDeg, type PlanBodyParsed, SCREW_KINDS, findingField } from '@torquetrail/contracts';
 import { type Finding, type RestorationPlan, ValidationError, type Vec3, validateRestorationPlan } from '@torquetrail/domain';
 import { fieldError } from '../common/field-error.js';
 import type { RestorableSiteRow } from './restorations.repository.js';
@@ -8,7 +8,7 @@ import type { RestorableSiteRow } from './restorations.repository.js';
 export interface CatalogueRow {
   id: string;
   platformId: string;
-  kind: string;
+  kind: ComponentKind;
   name: string;
   engaging: boolean | null;
   angleDeg: number | null;
@@ -17,9 +17,9 @@ export interface CatalogueRow {
 export interface CheckedSite {
   siteId: string;
   fdi: number;
-  interface: 'engaging' | 'non-engaging';
-  impressionCoping: 'engaging' | 'non-engaging' | 'multi-unit';
-  multiUnitAngleDeg: 0 | 17 | 30 | null;
+  interface: InterfaceKind;
+  impressionCoping: ImpressionCopingKind;
+  multiUnitAngleDeg: MultiUnitAngleDeg | null;
   restorativeSpaceMm: number | null;
   /** The axis entered in the planner (stored), or null when the placement's axis was used. */
   enteredAxis: Vec3 | null;
@@ -31,10 +31,10 @@ export interface CheckedPlan {
   sites: CheckedSite[];
 }
 
-const SLOT_KINDS: Record<'abutmentComponentId' | 'multiUnitComponentId' | 'screwComponentIds' | 'impressionCopingComponentId', string[]> = {
-  abutmentComponentId: ['abutment-stock', 'abutment-custom', 'abutment-angled'],
+const SLOT_KINDS: Record<'abutmentComponentId' | 'multiUnitComponentId' | 'screwComponentIds' | 'impressionCopingComponentId', readonly ComponentKind[]> = {
+  abutmentComponentId: ABUTMENT_KINDS,
   multiUnitComponentId: ['multi-unit-abutment'],
-  screwComponentIds: ['abutment-screw', 'prosthetic-screw', 'set-screw'],
+  screwComponentIds: SCREW_KINDS,
   impressionCopingComponentId: ['impression-coping'],
 };
 

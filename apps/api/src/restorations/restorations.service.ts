@@ -1,7 +1,7 @@
 import { ConflictException, Inject, Injectable } from '@nestjs/common';
 import { type AppAbility, subject } from '@torquetrail/authz';
-import type { DeliveryBody, PlanAmendmentBody, PlanBody, RestorableSitesReply, RestorationDetail, RestorationListReply } from '@torquetrail/contracts';
-import { RULES_VERSION, fdiToUniversal } from '@torquetrail/domain';
+import { CLOSURE_KINDS, type DeliveryBody, type PlanAmendmentBody, type PlanBody, type RestorableSitesReply, type RestorationDetail, type RestorationListReply } from '@torquetrail/contracts';
+import { RULES_VERSION, fdiToUniversal, isRetrievable } from '@torquetrail/domain';
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
@@ -15,8 +15,8 @@ type PlanInput = z.output<typeof PlanBody>;
 type AmendInput = z.output<typeof PlanAmendmentBody>;
 type DeliveryInput = z.output<typeof DeliveryBody>;
 
-/** Parts the delivery replaces: what sat on the implant while it healed. */
-const HEALING_KINDS = ['healing-abutment', 'cover-screw'] as const;
+/** Parts the delivery replaces: what sat on the implant while it healed (the closure parts). */
+const HEALING_KINDS = CLOSURE_KINDS;
 /** Parts that hold a restoration itself; they come out with it at every site it spans. */
 const RETAINING_KINDS = ['prosthetic-screw', 'set-screw'] as const;
 
@@ -248,7 +248,7 @@ export class RestorationsService {
       supersedesId: r.supersedesId,
       amendmentReason: r.amendmentReason,
       supersededById: r.supersededById,
-      retrievable: r.retention !== 'cement-on-abutment',
+      retrievable: isRetrievable(r.retention),
       acknowledgements: acks.filter((a) => a.restorationId === r.id).map((a) => ({ code: a.code, fdi: a.fdi, byName: a.byName, at: a.at.toISOString() })),
       labPrescriptions: labs
         .filter((l) => l.restorationId === r.id)

@@ -1,6 +1,7 @@
 // The demo catalogue: invented implant systems and manufacturers. Torque values follow the
 // common-practice defaults of the clinical reference (§6); in a real practice they are what
 // the practice enters from each manufacturer's instructions for use, which always rule.
+import type { Connection } from '@torquetrail/contracts';
 import type { Tx } from '../db/database.js';
 import { components, implantSystems, platforms, torqueWrenches } from '../db/schema/index.js';
 
@@ -10,7 +11,7 @@ export interface SystemSpec {
   name: string;
   manufacturer: string;
   code: string;
-  connection: 'internal-conical' | 'internal-hex' | 'external-hex';
+  connection: Connection;
   platformShift: boolean;
   diameters: number[];
   /** Abutment screw torque, N·cm (common practice: 20–35, manufacturer-specific). */

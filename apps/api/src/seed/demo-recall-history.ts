@@ -5,12 +5,26 @@
 // 45 in 2021 then resolved, one recall overdue; Desmond ~3 mm bone loss with BOP and a 7 mm
 // pocket in 2023 (peri-implantitis), treated, monitored every 3 months; Lucía 14 healthy; Wendell none.
 import { randomUUID } from 'node:crypto';
-import { addCalendarMonths, classifyPeriImplant, DEFAULT_BONE_LOSS_MM, DEFAULT_PD_INCREASE_MM, nextRecallDate, RULES_VERSION } from '@torquetrail/domain';
-import { PROBING_POSITIONS } from '@torquetrail/contracts';
+import {
+  addCalendarDays,
+  addCalendarMonths,
+  choosePeriImplantBaseline,
+  classifyPeriImplant,
+  DEFAULT_BONE_LOSS_MM,
+  DEFAULT_OVERDUE_REMINDER_DAYS_AFTER,
+  DEFAULT_PD_INCREASE_MM,
+  DEFAULT_REMINDER_DAYS_BEFORE,
+  nextRecallDate,
+  PROBING_POSITIONS,
+  type RecordedExam,
+  RULES_VERSION,
+  toPeriImplantBaseline,
+  toPeriImplantExam,
+} from '@torquetrail/domain';
 import type { Tx } from '../db/database.js';
 import { recallExams, recallExamSites, recalls, reminderLog } from '../db/schema/index.js';
 import type { DemoRefs } from './demo-scenario.js';
-import { addDaysIso, chooseBaseline, type ExamLike, reminderKey, toDomainBaseline, toDomainExam } from '../recalls/exam-rules.js';
+import { reminderKey } from '../recalls/exam-rules.js';
 
 const RULE_OPTIONS = { pdIncreaseMm: DEFAULT_PD_INCREASE_MM, boneLossMm: DEFAULT_BONE_LOSS_MM };
 const HOLT = 'maren.holt@larkspur.example';
@@ -55,7 +69,7 @@ export async function seedDemoRecallHistory(tx: Tx, refs: DemoRefs): Promise<{ e
 
   async function seedPatient(chart: string, visits: Visit[], deliveredOn: Record<number, string | null>, risk: { smoker?: boolean; periodontitisHistory?: boolean }) {
     const patientId = refs.patientIds.get(chart)!;
-    const earlier = new Map<number, (ExamLike & { id: string })[]>();
+    const earlier = new Map<number, (RecordedExam & { id: string })[]>();
     let anyPi = false;
     for (const visit of visits) {
       const visitId = randomUUID();
@@ -67,9 +81,10 @@ export async function seedDemoRecallHistory(tx: Tx, refs: DemoRefs): Promise<{ e
         const sup = flags(f.sup);
         const sites = PROBING_POSITIONS.map((position, i) => ({ position, probingDepthMm: depths[i]!, bleeding: bop[i]!, suppuration: sup[i]! }));
         const history = earlier.get(fdi) ?? [];
-        const baseline = f.baseline ? null : chooseBaseline(history, visit.on, deliveredOn[fdi] ?? null);
+        const isBaseline = f.baseline ?? false;
+        const baseline = choosePeriImplantBaseline(history, { examinedOn: visit.on, isBaseline }, deliveredOn[fdi] ?? null);
         const boneLevelMm = f.bone ?? null;
-        const verdict = classifyPeriImplant(toDomainExam({ sites, boneLevelMm }), toDomainBaseline(baseline), RULE_OPTIONS);
+        const verdict = classifyPeriImplant(toPeriImplantExam({ sites, boneLevelMm }), toPeriImplantBaseline({ isBaseline }, baseline), RULE_OPTIONS);
         anyPi ||= verdict.status === 'peri-implantitis';
         const recordedAt = new Date(`${visit.on}T11:00:00Z`);
         const [row] = await tx
@@ -111,7 +126,7 @@ export async function seedDemoRecallHistory(tx: Tx, refs: DemoRefs): Promise<{ e
   }
 
   // 1. Harold Whitcombe: 35 and 37, bridge delivered 2012-09-20; 6-monthly since 2013, next due in three weeks.
-  const haroldDates = every(6, addCalendarMonths(addDaysIso(today, 21), -6), '2013-03-01');
+  const haroldDates = every(6, addCalendarMonths(addCalendarDays(today, 21), -6), '2013-03-01');
   const harold = await seedPatient(
     'LL-1001',
     haroldDates.map((on, i) => {
@@ -132,7 +147,7 @@ export async function seedDemoRecallHistory(tx: Tx, refs: DemoRefs): Promise<{ e
   );
 
   // 2. Imogen Farrow (smoker): full arch delivered 2018-04-11; mucositis at 45 in 2021, resolved; last recall overdue.
-  const imogenLast = addCalendarMonths(addDaysIso(today, -20), -3);
+  const imogenLast = addCalendarMonths(addCalendarDays(today, -20), -3);
   const calm = (bone?: number) => ({ 32: { pd: '3 3 3 3 3 3', bone }, 42: { pd: '3 3 3 3 3 3', bone }, 35: { pd: '3 3 4 3 3 3', bone }, 45: { pd: '3 3 4 3 3 3', bone } });
   const imogenVisits: Visit[] = [
     { on: '2018-05-09', examiner: examiner(0), sites: calm(1.0) },
@@ -145,7 +160,7 @@ export async function seedDemoRecallHistory(tx: Tx, refs: DemoRefs): Promise<{ e
   const imogen = await seedPatient('LL-1002', imogenVisits, { 32: '2018-04-11', 42: '2018-04-11', 35: '2018-04-11', 45: '2018-04-11' }, { smoker: true });
 
   // 3. Desmond Okafor (periodontitis history): crown 2015-02-18; ~3 mm bone loss, BOP and a 7 mm pocket in 2023 → treated; 3-monthly since.
-  const desmondLast = addDaysIso(today, -40);
+  const desmondLast = addCalendarDays(today, -40);
   const monitoring = every(3, desmondLast, '2023-09-01');
   const desmondVisits: Visit[] = [
     { on: '2015-03-24', examiner: examiner(0), sites: { 46: { pd: '3 3 3 3 2 3', bone: 0.5, baseline: true, notes: 'Baseline after crown delivery.' } } },
@@ -161,7 +176,7 @@ export async function seedDemoRecallHistory(tx: Tx, refs: DemoRefs): Promise<{ e
   const desmond = await seedPatient('LL-1003', desmondVisits, { 46: '2015-02-18' }, { periodontitisHistory: true });
 
   // 4. Lucía Ferraz: 14 healthy, 6-monthly since the crown (2020-03-09).
-  const luciaLast = addDaysIso(today, -60);
+  const luciaLast = addCalendarDays(today, -60);
   await seedPatient(
     'LL-1004',
     every(6, luciaLast, '2020-04-01').map((on, i) => ({ on, examiner: examiner(i), sites: { 14: { pd: '2 3 2 2 3 2', bone: i === 0 || i % 4 === 0 ? 0.4 : undefined } } })),
@@ -173,10 +188,10 @@ export async function seedDemoRecallHistory(tx: Tx, refs: DemoRefs): Promise<{ e
   const sentAt = (iso: string) => new Date(`${iso}T06:00:00Z`);
   const prevDue = (visits: string[]) => visits[visits.length - 1]!; // the last visit was the previous recall
   const log = [
-    { patientId: harold.patientId, recallDueOn: prevDue(haroldDates), kind: 'upcoming' as const, sentOn: addDaysIso(prevDue(haroldDates), -14), attempts: 1 },
-    { patientId: imogen.patientId, recallDueOn: imogen.dueOn, kind: 'upcoming' as const, sentOn: addDaysIso(imogen.dueOn, -14), attempts: 1 },
-    { patientId: imogen.patientId, recallDueOn: imogen.dueOn, kind: 'overdue' as const, sentOn: addDaysIso(imogen.dueOn, 7), attempts: 2 },
-    { patientId: desmond.patientId, recallDueOn: desmondLast, kind: 'upcoming' as const, sentOn: addDaysIso(desmondLast, -14), attempts: 1 },
+    { patientId: harold.patientId, recallDueOn: prevDue(haroldDates), kind: 'upcoming' as const, sentOn: addCalendarDays(prevDue(haroldDates), -DEFAULT_REMINDER_DAYS_BEFORE), attempts: 1 },
+    { patientId: imogen.patientId, recallDueOn: imogen.dueOn, kind: 'upcoming' as const, sentOn: addCalendarDays(imogen.dueOn, -DEFAULT_REMINDER_DAYS_BEFORE), attempts: 1 },
+    { patientId: imogen.patientId, recallDueOn: imogen.dueOn, kind: 'overdue' as const, sentOn: addCalendarDays(imogen.dueOn, DEFAULT_OVERDUE_REMINDER_DAYS_AFTER), attempts: 2 },
+    { patientId: desmond.patientId, recallDueOn: desmondLast, kind: 'upcoming' as const, sentOn: addCalendarDays(desmondLast, -DEFAULT_REMINDER_DAYS_BEFORE), attempts: 1 },
   ].filter((r) => r.sentOn <= today);
   if (log.length > 0) {
     await tx.insert(reminderLog).values(

@@ -1,6 +1,7 @@
 // The demo practice, from shared/design/demo-scenario.md: every clinic, person, system and
 // manufacturer is invented. Dates near today (recent placements) are computed from `today`.
-import { RULES_VERSION, torqueVerdict } from '@torquetrail/domain';
+import type { ImpressionCopingKind, InterfaceKind, LoadingProtocol, Material, RestorationKind, Retention, SiteStatus, TorqueReason } from '@torquetrail/contracts';
+import { addCalendarDays as addDays, RULES_VERSION, torqueVerdict } from '@torquetrail/domain';
 import type { Tx } from '../db/database.js';
 import { hashPassword } from '../auth/password.js';
 import {
@@ -32,11 +33,6 @@ export const DEMO_SIGN_INS = [
   { role: 'dentist', email: 'nell.ashdown@quarryhill.example', name: 'Dr Nell Ashdown', practice: 'Quarry Hill Dental' },
 ] as const;
 
-const addDays = (iso: string, days: number) => {
-  const d = new Date(`${iso}T00:00:00Z`);
-  d.setUTCDate(d.getUTCDate() + days);
-  return d.toISOString().slice(0, 10);
-};
 const at = (date: string, time = '10:00') => new Date(`${date}T${time}:00Z`);
 const birthDate = (today: string, age: number, monthDay: string) => `${Number(today.slice(0, 4)) - age - (today.slice(5) < monthDay ? 1 : 0)}-${monthDay}`;
 
@@ -48,12 +44,12 @@ interface Ctx {
   wrenchIds: string[];
 }
 
-async function addSite(ctx: Ctx, patientId: string, fdi: number, status: 'planned' | 'placed' | 'restored') {
+async function addSite(ctx: Ctx, patientId: string, fdi: number, status: SiteStatus) {
   const [site] = await ctx.tx.insert(implantSites).values({ practiceId: ctx.practiceId, patientId, fdi, status }).returning({ id: implantSites.id });
   return site!.id;
 }
 
-async function place(ctx: Ctx, p: { patientId: string; siteId: string; platform: string; placedOn: string; lengthMm: number; lot: string; insertionTorqueNcm: number; isq: number; surgeon?: 'imbert' | 'former'; axis?: [number, number, number]; loading?: 'immediate' | 'early' | 'conventional' }) {
+async function place(ctx: Ctx, p: { patientId: string; siteId: string; platform: string; placedOn: string; lengthMm: number; lot: string; insertionTorqueNcm: number; isq: number; surgeon?: 'imbert' | 'former'; axis?: [number, number, number]; loading?: LoadingProtocol }) {
   const imbert = p.surgeon !== 'former';
   await ctx.tx.insert(placements).values({
     practiceId: ctx.practiceId,
@@ -104,7 +100,6 @@ async function install(ctx: Ctx, p: { patientId: string; siteId: string; restora
   }
   return instance!.id;
 }
-type TorqueReason = 'initial-seating' | 're-torque-after-settling' | 're-torque-at-recall' | 'loosening-found' | 'screw-replaced';
 
 /** Seats a screw: initial tightening, then the re-torque about ten minutes later (Siamos et al. 2002). */
 const seated = (date: string, ncm: number): [string, string, number, TorqueReason][] => [
@@ -112,7 +107,7 @@ const seated = (date: string, ncm: number): [string, string, number, TorqueReaso
   [date, '10:11', ncm, 're-torque-after-settling'],
 ];
 
-async function restoration(ctx: Ctx, r: { patientId: string; kind: 'single-crown' | 'splinted-bridge' | 'full-arch'; retention: 'screw-to-implant' | 'screw-to-multi-unit' | 'cement-on-abutment' | 'lingual-set-screw'; material: 'zirconia' | 'titanium-composite' | 'porcelain-fused-to-metal'; shade: string; impressionOn: string; deliveredOn: string; copingsSplinted?: boolean; sites: { siteId: string; interface: 'engaging' | 'non-engaging'; coping: 'engaging' | 'non-engaging' | 'multi-unit'; muAngle?: number; spaceMm?: number }[] }) {
+async function restoration(ctx: Ctx, r: { patientId: string; kind: RestorationKind; retention: Retention; material: Material; shade: string; impressionOn: string; deliveredOn: string; copingsSplinted?: boolean; sites: { siteId: string; interface: InterfaceKind; coping: ImpressionCopingKind; muAngle?: number; spaceMm?: number }[] }) {
   const [row] = await ctx.tx
     .insert(restorations)
     .values({ practiceId: ctx.practiceId, patientId: r.patientId, kind: r.kind, retention: r.retention, material: r.material, shade: r.shade, status: 'delivered', copingsSplinted: r.copingsSplinted ?? false, impressionTakenOn: r.impressionOn, deliveredOn: r.deliveredOn, plannedBy: ctx.userIds.get('ines.calloway@larkspur.example')!, createdAt: at(r.impressionOn, '09:00') })

@@ -1,4 +1,5 @@
 import { and, asc, desc, eq, inArray, isNull, ne, sql } from 'drizzle-orm';
+import type { TorqueReason, TorqueVerdict } from '@torquetrail/contracts';
 import type { Db } from '../db/database.js';
 import {
   componentInstances,
@@ -112,8 +113,8 @@ export type LatestTorque = {
   appliedNcm: number;
   specNcm: number;
   tolerancePct: number;
-  verdict: 'within' | 'under' | 'over';
-  reason: string;
+  verdict: TorqueVerdict;
+  reason: TorqueReason;
   performedAt: Date;
 };
 

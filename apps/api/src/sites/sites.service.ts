@@ -1,7 +1,7 @@
 import { Inject, Injectable } from '@nestjs/common';
 import { type AppAbility, subject } from '@torquetrail/authz';
-import type { SiteFile, TimelineKind, TimelineReply } from '@torquetrail/contracts';
-import { RETIGHTEN_AFTER_MINUTES } from '@torquetrail/domain';
+import { STACK_ORDER, type SiteFile, type TimelineKind, type TimelineReply } from '@torquetrail/contracts';
+import { isRetrievable, retorqueDueAt } from '@torquetrail/domain';
 import { assertCan, type Scope } from '../authz/scope.js';
 import { DB, type Database } from '../db/database.js';
 import { MaintenanceStatusService } from '../recalls/maintenance-status.service.js';
@@ -16,21 +16,7 @@ import {
 import { buildTimeline } from './timeline.js';
 import * as timeline from './timeline.repository.js';
 
-/** The Stack from the implant outward: abutment or multi-unit, then its screws, then the rest. */
-const STACK_ORDER = ['multi-unit-abutment', 'abutment-stock', 'abutment-custom', 'abutment-angled', 'abutment-screw', 'prosthetic-screw', 'set-screw', 'healing-abutment', 'cover-screw', 'impression-coping'];
-
 type ReadableType = 'Placement' | 'ComponentInstance' | 'Restoration' | 'TorqueEvent' | 'Complication' | 'RecallExam';
-
-/**
- * When the re-torque after an initial seating is due, if it has not been logged: the latest
- * initial seating + RETIGHTEN_AFTER_MINUTES (Siamos et al. 2002), until a re-torque follows it.
- */
-export function retorqueDueAt(entries: { reason: string; performedAt: Date }[]): string | null {
-  const seating = entries.filter((e) => e.reason === 'initial-seating' || e.reason === 'screw-replaced').at(-1);
-  if (!seating) return null;
-  const retorqued = entries.some((e) => (e.reason === 're-torque-after-settling' || e.reason === 're-torque-at-recall') && e.performedAt >= seating.performedAt);
-  return retorqued ? null : new Date(seating.performedAt.getTime() + RETIGHTEN_AFTER_MINUTES * 60_000).toISOString();
-}
 
 @Injectable()
 export class SitesService {
@@ -85,7 +71,7 @@ export class SitesService {
             : null,
         };
       }),
-      restoration: restoration ? { ...restoration, retrievable: restoration.retention !== 'cement-on-abutment' } : null,
+      restoration: restoration ? { ...restoration, retrievable: isRetrievable(restoration.retention) } : null,
     };
   }
 

@@ -1,6 +1,7 @@
 // Builds the Timeline of a site from its rows: every event in time order, amended entries kept
 // and marked, with one torque series per part for the chart.
-import type { TimelineEvent, TimelineKind, TimelineReply, TorqueSeries } from '@torquetrail/contracts';
+import { TIMELINE_KINDS, type TimelineEvent, type TimelineKind, type TimelineReply, type TorqueSeries } from '@torquetrail/contracts';
+import { isRetrievable } from '@torquetrail/domain';
 import type * as repo from './timeline.repository.js';
 
 type Rows<K extends keyof typeof repo> = Awaited<ReturnType<(typeof repo)[K]>>;
@@ -70,7 +71,7 @@ export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: Timeli
     if (r.deliveredOn) {
       events.push(
         base('delivery', r.id, day(r.deliveredOn), true, `Restoration delivered: ${what}`, {
-          detail: r.retention === 'cement-on-abutment' ? 'Cement-retained: not retrievable without cutting' : 'Retrievable',
+          detail: isRetrievable(r.retention) ? 'Retrievable' : 'Cement-retained: not retrievable without cutting',
           amended: r.amended,
         }),
       );
@@ -128,13 +129,12 @@ export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: Timeli
     );
   }
   const kept = kinds ? events.filter((e) => kinds.includes(e.kind)) : events;
-  const order: TimelineKind[] = ['placement', 'plan', 'impression', 'lab-prescription', 'part', 'delivery', 'complication', 'torque', 'recall-exam'];
   // Day first; within a day, the order of a sitting (date-only entries have no time of their own),
   // then the time, then when the entry was recorded.
   kept.sort(
     (a, b) =>
       a.at.slice(0, 10).localeCompare(b.at.slice(0, 10)) ||
-      order.indexOf(a.kind) - order.indexOf(b.kind) ||
+      TIMELINE_KINDS.indexOf(a.kind) - TIMELINE_KINDS.indexOf(b.kind) ||
       a.at.localeCompare(b.at) ||
       (recorded.get(a) ?? '').localeCompare(recorded.get(b) ?? ''),
   );

@@ -1,12 +1,25 @@
-import type {
-  ComponentKind,
-  Connection,
-  InterfaceKind,
-  Material,
-  Placement,
-  RestorationKind,
-  Retention,
+// One label per value of every clinical enum (the unit test beside lib/labels.ts checks that no
+// enum and no value is missing). Where a label sits mid-sentence, callers lower-case it.
+import {
+  ABUTMENT_KINDS,
+  type ComplicationKind,
+  type ComponentKind,
+  type Connection,
+  type FindingSeverity,
+  type ImpressionCopingKind,
+  type InterfaceKind,
+  type LoadingProtocol,
+  type Material,
+  type ProbingPosition,
+  type RestorationKind,
+  type RestorationStatus,
+  type Retention,
+  type TorqueReason,
+  type TorqueVerdict,
+  type Tray,
+  type WrenchType,
 } from '@torquetrail/contracts';
+import { PERI_IMPLANT_FLAGS, type PeriImplantFlag, RETIGHTEN_AFTER_MINUTES, type RecallRiskFactor } from '@torquetrail/domain';
 
 export const CONNECTION_LABEL: Record<Connection, string> = {
   'internal-conical': 'Internal conical',
@@ -28,12 +41,7 @@ export const COMPONENT_KIND_LABEL: Record<ComponentKind, string> = {
 };
 
 /** Kinds that sit on the implant and have an axis, so "straight" is meaningful for them. */
-export const ANGLED_KINDS: readonly ComponentKind[] = [
-  'abutment-stock',
-  'abutment-custom',
-  'abutment-angled',
-  'multi-unit-abutment',
-];
+export const ANGLED_KINDS: readonly ComponentKind[] = [...ABUTMENT_KINDS, 'multi-unit-abutment'];
 
 export const RETENTION_LABEL: Record<Retention, string> = {
   'screw-to-implant': 'Screw-retained directly to the implant',
@@ -57,12 +65,41 @@ export const MATERIAL_LABEL: Record<Material, string> = {
   other: 'Other',
 };
 
+/** In the order the planner offers them: non-engaging first. */
 export const INTERFACE_LABEL: Record<InterfaceKind, string> = {
-  engaging: 'Engaging',
   'non-engaging': 'Non-engaging',
+  engaging: 'Engaging',
 };
 
-export const LOADING_PROTOCOL_LABEL: Record<NonNullable<Placement['loadingProtocol']>, string> = {
+/** In the order the planner offers them. */
+export const IMPRESSION_COPING_LABEL: Record<ImpressionCopingKind, string> = {
+  'non-engaging': 'Non-engaging coping',
+  engaging: 'Engaging coping',
+  'multi-unit': 'Multi-unit coping',
+};
+
+export const RESTORATION_STATUS_LABEL: Record<RestorationStatus, string> = {
+  planned: 'Planned',
+  delivered: 'Delivered',
+  removed: 'Removed',
+};
+
+export const FINDING_SEVERITY_LABEL: Record<FindingSeverity, string> = {
+  error: 'Error',
+  warning: 'Warning',
+};
+
+export const TRAY_LABEL: Record<Tray, string> = {
+  open: 'Open tray',
+  closed: 'Closed tray',
+};
+
+export const WRENCH_TYPE_LABEL: Record<WrenchType, string> = {
+  spring: 'Spring',
+  friction: 'Friction',
+};
+
+export const LOADING_PROTOCOL_LABEL: Record<LoadingProtocol, string> = {
   immediate: 'Immediate',
   early: 'Early',
   conventional: 'Conventional',
@@ -78,20 +115,51 @@ export function formatTorqueSpec(specNcm: number | null, tolerancePct: number): 
   return `${formatNumber(specNcm)} N·cm ± ${formatNumber(tolerancePct)} %`;
 }
 
-const REASON_LABEL: Record<string, string> = {
-  'initial-seating': 'Initial seating',
-  're-torque-after-settling': 'Re-torque after settling',
-  're-torque-at-recall': 'Re-torque at recall',
-  're-torque': 'Re-torque',
-  retorque: 'Re-torque',
-  'loosening-found': 'Loosening found',
-  'screw-replaced': 'Screw replaced',
+export const TORQUE_VERDICT_LABEL: Record<TorqueVerdict, string> = {
+  within: 'Within specification',
+  under: 'Under specification',
+  over: 'Over specification',
 };
 
-/** Torque-event reasons arrive as codes ("re-torque"); unknown codes are shown as words. */
-export function formatReason(reason: string): string {
-  const known = REASON_LABEL[reason];
-  if (known) return known;
-  const words = reason.replace(/[-_]+/g, ' ').trim();
-  return words.charAt(0).toUpperCase() + words.slice(1);
-}
+/** Why a torque was applied; the settling delay is the domain's RETIGHTEN_AFTER_MINUTES (Siamos 2002). */
+export const TORQUE_REASON_LABEL: Record<TorqueReason, string> = {
+  'initial-seating': 'Initial seating',
+  're-torque-after-settling': `Re-torque after settling (about ${RETIGHTEN_AFTER_MINUTES} min)`,
+  're-torque-at-recall': 'Re-torque at recall',
+  'loosening-found': 'Loosening found',
+  'screw-replaced': 'Screw replaced (new part)',
+};
+
+export const COMPLICATION_KIND_LABEL: Record<ComplicationKind, string> = {
+  'screw-loosening': 'Screw loosening',
+  'screw-fracture': 'Screw fracture',
+  'abutment-fracture': 'Abutment fracture',
+  'veneer-chipping': 'Veneer chipping',
+  'framework-fracture': 'Framework fracture',
+  other: 'Other',
+};
+
+/** Column heads of the probing grid (the full names are the values themselves, used in field names). */
+export const PROBING_POSITION_ABBREVIATION: Record<ProbingPosition, string> = {
+  mesiobuccal: 'MB',
+  buccal: 'B',
+  distobuccal: 'DB',
+  mesiolingual: 'ML',
+  lingual: 'L',
+  distolingual: 'DL',
+};
+
+/** The flags of classifyPeriImplant, in words beside the computed status. */
+export const PERI_IMPLANT_FLAG_LABEL: Record<PeriImplantFlag, string> = {
+  [PERI_IMPLANT_FLAGS.NO_BASELINE]: 'No baseline: the no-baseline definition was used',
+  [PERI_IMPLANT_FLAGS.PERI_IMPLANTITIS_NOT_EXCLUDED_WITHOUT_BASELINE]: 'Peri-implantitis not excluded without a baseline',
+  [PERI_IMPLANT_FLAGS.BONE_LEVEL_MISSING]: 'No bone level: bone loss cannot be judged',
+  [PERI_IMPLANT_FLAGS.BONE_LOSS_WITHOUT_INFLAMMATION]: 'Bone loss without inflammation: review the radiograph',
+};
+
+export const RISK_FACTOR_LABEL: Record<RecallRiskFactor, string> = {
+  smoker: 'Smoker',
+  diabetesPoorlyControlled: 'Poorly controlled diabetes',
+  periodontitisHistory: 'History of periodontitis',
+  priorPeriImplantitis: 'Prior peri-implantitis',
+};

@@ -1,7 +1,8 @@
+import type { ToothNumberingSystem } from '@torquetrail/domain';
 import { useSyncExternalStore } from 'react';
 
 /** Which numbering the user reads teeth in. A display preference only: data is always FDI. */
-export type ToothSystem = 'fdi' | 'universal';
+export type ToothSystem = ToothNumberingSystem;
 
 const STORAGE_KEY = 'torquetrail.toothSystem';
 const listeners = new Set<() => void>();

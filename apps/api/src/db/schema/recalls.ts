@@ -1,5 +1,6 @@
 import { boolean, date, index, integer, jsonb, numeric, pgTable, smallint, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core';
 import { amendmentChain } from './amendment-chain.js';
+import { DEFAULT_OVERDUE_REMINDER_DAYS_AFTER, DEFAULT_RECALL_MONTHS, DEFAULT_REMINDER_DAYS_BEFORE, DEFAULT_RISK_RECALL_MONTHS } from '@torquetrail/domain';
 import { periImplantStatusEnum, probingSiteEnum, recallStatusEnum, reminderKindEnum, reminderStatusEnum } from './enums.js';
 import { patients } from './patients.js';
 import { practices, users } from './practices.js';
@@ -81,10 +82,10 @@ export const recalls = pgTable(
 /** Practice policy for recall intervals and reminders (edited by the practice admin). */
 export const recallPolicies = pgTable('recall_policies', {
   practiceId: uuid('practice_id').primaryKey().references(() => practices.id),
-  baseMonths: smallint('base_months').notNull().default(6),
-  riskMonths: smallint('risk_months').notNull().default(3),
-  reminderDaysBefore: smallint('reminder_days_before').notNull().default(14),
-  overdueReminderDaysAfter: smallint('overdue_reminder_days_after').notNull().default(7),
+  baseMonths: smallint('base_months').notNull().default(DEFAULT_RECALL_MONTHS),
+  riskMonths: smallint('risk_months').notNull().default(DEFAULT_RISK_RECALL_MONTHS),
+  reminderDaysBefore: smallint('reminder_days_before').notNull().default(DEFAULT_REMINDER_DAYS_BEFORE),
+  overdueReminderDaysAfter: smallint('overdue_reminder_days_after').notNull().default(DEFAULT_OVERDUE_REMINDER_DAYS_AFTER),
   updatedBy: uuid('updated_by').references(() => users.id),
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
 });

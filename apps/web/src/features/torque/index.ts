@@ -1,5 +1,4 @@
 import './components/torque.css';
 // The torque feature's public surface, used by the Site file.
 export { LogTorquePanel } from './components/log-torque-panel';
-export { TORQUE_REASON_LABEL } from './components/torque-form';
 export { useWrenches, useSaveWrench } from './api/wrenches';

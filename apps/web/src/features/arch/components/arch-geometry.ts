@@ -1,9 +1,9 @@
-import { isPrimaryTooth, toothArch, toothKind, type ToothKind } from '@torquetrail/domain';
+import { isPrimaryTooth, toothArch, type ToothArch, toothKind, type ToothKind } from '@torquetrail/domain';
 
 /** One tooth position laid out on its arch, in SVG user units. */
 export interface ArchCell {
   fdi: number;
-  arch: 'upper' | 'lower';
+  arch: ToothArch;
   /** 0-based place from the viewer's left within its arch (drawing order). */
   column: number;
   kind: ToothKind;
@@ -64,7 +64,7 @@ interface Curve {
   xs: Float64Array;
 }
 
-function makeCurve(arch: 'upper' | 'lower'): Curve {
+function makeCurve(arch: ToothArch): Curve {
   const sign = arch === 'upper' ? 1 : -1;
   const apexY = arch === 'upper' ? UPPER_APEX_Y : LOWER_APEX_Y;
   const xs = new Float64Array(SAMPLES + 1);

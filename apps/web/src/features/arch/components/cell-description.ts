@@ -1,7 +1,7 @@
 import type { ArchSite, SiteStatus } from '@torquetrail/contracts';
 import { formatTooth } from '@torquetrail/domain';
 import { formatLongDate } from '../../../lib/dates';
-import { MAINTENANCE_STATUS_LABEL } from '../../../lib/labels';
+import { MAINTENANCE_STATUS_LABEL, SITE_STATUS_PHRASE } from '../../../lib/labels';
 import type { ToothSystem } from '../../../lib/tooth-system';
 
 /** What is at one tooth position, as the Arch draws it. */
@@ -9,14 +9,6 @@ export type CellContent =
   | { type: 'natural' }
   | { type: 'missing' }
   | { type: 'site'; site: ArchSite };
-
-const SITE_WORDS: Record<SiteStatus, string> = {
-  restored: 'implant',
-  placed: 'implant placed',
-  planned: 'implant planned',
-  failed: 'implant failed',
-  removed: 'implant removed',
-};
 
 /**
  * The accessible name of a cell, numbers in the chosen system, e.g.
@@ -28,7 +20,7 @@ export function describeCell(fdi: number, system: ToothSystem, content: CellCont
   if (content.type === 'natural') return `${number}, natural tooth`;
   if (content.type === 'missing') return `${number}, missing tooth`;
   const { site } = content;
-  const parts = [number, SITE_WORDS[site.status], MAINTENANCE_STATUS_LABEL[site.maintenanceStatus]];
+  const parts = [number, SITE_STATUS_PHRASE[site.status], MAINTENANCE_STATUS_LABEL[site.maintenanceStatus]];
   if (site.lastExamDate) parts.push(`last exam ${formatLongDate(site.lastExamDate)}`);
   return parts.join(', ');
 }

@@ -1,15 +1,15 @@
 import { Tag } from '@blueprintjs/core';
 import type { PatientDetail } from '@torquetrail/contracts';
+import { RECALL_RISK_FACTORS } from '@torquetrail/domain';
+import { RISK_FACTOR_LABEL } from '../../../lib/clinical-labels';
 import { ageInYears, formatDate } from '../../../lib/dates';
 
-const RISK_LABEL: Record<keyof PatientDetail['riskFactors'], string> = {
-  smoker: 'Smoker',
-  diabetesPoorlyControlled: 'Poorly controlled diabetes',
-  periodontitisHistory: 'History of periodontitis',
-};
+type PatientRisk = keyof PatientDetail['riskFactors'];
+const isPatientRisk = (factor: string): factor is PatientRisk => factor !== 'priorPeriImplantitis';
 
 export function PatientHeader({ patient }: { patient: PatientDetail }) {
-  const risks = (Object.keys(RISK_LABEL) as (keyof typeof RISK_LABEL)[]).filter((key) => patient.riskFactors[key]);
+  // The patient's own risk factors; prior peri-implantitis is derived from exams, shown on the Recall desk.
+  const risks = RECALL_RISK_FACTORS.filter(isPatientRisk).filter((key) => patient.riskFactors[key]);
   return (
     <header className="patient-header">
       <h1 className="page-title">
@@ -38,7 +38,7 @@ export function PatientHeader({ patient }: { patient: PatientDetail }) {
             ) : (
               risks.map((key) => (
                 <Tag key={key} intent="warning" minimal icon="warning-sign">
-                  {RISK_LABEL[key]}
+                  {RISK_FACTOR_LABEL[key]}
                 </Tag>
               ))
             )}

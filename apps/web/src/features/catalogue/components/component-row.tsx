@@ -1,9 +1,10 @@
 import { Button } from '@blueprintjs/core';
-import { type CatalogueComponent, ComponentPatch } from '@torquetrail/contracts';
+import { type CatalogueComponent, ComponentPatch, TOLERANCE_PCT_RANGE } from '@torquetrail/contracts';
+import { TORQUE_NCM_RANGE } from '@torquetrail/domain';
 import { useState } from 'react';
 import { FormProvider } from 'react-hook-form';
 import { Can } from '../../../lib/ability';
-import { COMPONENT_KIND_LABEL } from '../../../lib/clinical-labels';
+import { COMPONENT_KIND_LABEL, INTERFACE_LABEL, TRAY_LABEL } from '../../../lib/clinical-labels';
 import { applyServerErrors, draftSchema, errorAt, FieldError, NumberInput, useContractForm } from '../../../lib/forms';
 import { useSaveComponent } from '../api/catalogue-api';
 
@@ -30,11 +31,11 @@ export function ComponentRow({ part }: { part: CatalogueComponent }) {
         <td>{part.name}</td>
         <td className="mono">{part.referenceCode}</td>
         <td>{COMPONENT_KIND_LABEL[part.kind]}</td>
-        <td>{part.engaging === null ? '—' : part.engaging ? 'engaging' : 'non-engaging'}{part.tray ? `, ${part.tray} tray` : ''}{part.angleDeg ? `, ${part.angleDeg}°` : ''}{part.collarHeightMm ? `, collar ${part.collarHeightMm} mm` : ''}</td>
+        <td>{part.engaging === null ? '—' : INTERFACE_LABEL[part.engaging ? 'engaging' : 'non-engaging'].toLowerCase()}{part.tray ? `, ${TRAY_LABEL[part.tray].toLowerCase()}` : ''}{part.angleDeg ? `, ${part.angleDeg}°` : ''}{part.collarHeightMm ? `, collar ${part.collarHeightMm} mm` : ''}</td>
         <td>
           {editing ? (
             <>
-              <NumberInput name="torqueSpecNcm" buttonPosition="none" aria-label={`Torque of ${part.referenceCode} (N·cm, empty = hand-tight)`} min={1} max={100} intent={errorAt(form.formState.errors, 'torqueSpecNcm') ? 'danger' : 'none'} />
+              <NumberInput name="torqueSpecNcm" buttonPosition="none" aria-label={`Torque of ${part.referenceCode} (N·cm, empty = hand-tight)`} min={TORQUE_NCM_RANGE.min} max={TORQUE_NCM_RANGE.max} intent={errorAt(form.formState.errors, 'torqueSpecNcm') ? 'danger' : 'none'} />
               <FieldError name="torqueSpecNcm" className="planner-error" />
             </>
           ) : part.torqueSpecNcm === null ? (
@@ -46,7 +47,7 @@ export function ComponentRow({ part }: { part: CatalogueComponent }) {
         <td>
           {editing ? (
             <>
-              <NumberInput name="tolerancePct" buttonPosition="none" aria-label={`Tolerance of ${part.referenceCode} (%)`} min={0} max={50} />
+              <NumberInput name="tolerancePct" buttonPosition="none" aria-label={`Tolerance of ${part.referenceCode} (%)`} min={TOLERANCE_PCT_RANGE.min} max={TOLERANCE_PCT_RANGE.max} />
               <FieldError name="tolerancePct" className="planner-error" />
             </>
           ) : (

@@ -8,7 +8,7 @@ import { useSaveWrench, useWrenches } from '../../torque';
 import { useCatalogue } from '../api/catalogue-api';
 import { ComponentRow } from '../components/component-row';
 import { AddComponentForm, AddPlatformForm, AddSystemForm, AddWrenchForm } from '../components/add-forms';
-import { CONNECTION_LABEL } from '../../../lib/clinical-labels';
+import { CONNECTION_LABEL, WRENCH_TYPE_LABEL } from '../../../lib/clinical-labels';
 
 function Wrenches() {
   const wrenches = useWrenches(useAppAbility().can('read', 'Wrench'));
@@ -27,7 +27,7 @@ function Wrenches() {
           {wrenches.data.items.map((w) => (
             <tr key={w.id}>
               <td>{w.label}</td>
-              <td>{w.type}</td>
+              <td>{WRENCH_TYPE_LABEL[w.type].toLowerCase()}</td>
               <td>
                 {w.lastCalibratedOn ?? 'not recorded'}
                 <Can I="update" a="Wrench">

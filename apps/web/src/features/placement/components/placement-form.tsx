@@ -1,5 +1,5 @@
 import { Button, Callout, HTMLSelect, InputGroup, TextArea } from '@blueprintjs/core';
-import { type LoadingProtocol, PlacementBody, type PlacementOptionsReply } from '@torquetrail/contracts';
+import { IMPLANT_LENGTH_MM_RANGE, INSERTION_TORQUE_NCM_RANGE, ISQ_RANGE, type LoadingProtocol, PlacementBody, type PlacementOptionsReply } from '@torquetrail/contracts';
 import { checkUdiForPlacement } from '@torquetrail/domain';
 import { FormProvider, useWatch } from 'react-hook-form';
 import { LOADING_PROTOCOL_LABEL } from '../../../lib/clinical-labels';
@@ -107,7 +107,7 @@ export function PlacementForm({ patientId, siteId, options, onDone }: { patientI
             <InputGroup id="placement-date" type="date" max={localToday()} {...withInputRef(form.register('placedOn'))} />
           </FormField>
           <FormField name="lengthMm" label="Implant length (mm)" labelFor="placement-length">
-            <NumberInput name="lengthMm" buttonPosition="none" id="placement-length" min={4} max={20} stepSize={0.5} allowNumericCharactersOnly />
+            <NumberInput name="lengthMm" buttonPosition="none" id="placement-length" min={IMPLANT_LENGTH_MM_RANGE.min} max={IMPLANT_LENGTH_MM_RANGE.max} stepSize={0.5} allowNumericCharactersOnly />
           </FormField>
         </div>
         <UdiField />
@@ -116,10 +116,10 @@ export function PlacementForm({ patientId, siteId, options, onDone }: { patientI
         </FormField>
         <div className="placement-form__row">
           <FormField name="insertionTorqueNcm" label="Insertion torque (N·cm)" labelFor="placement-torque">
-            <NumberInput name="insertionTorqueNcm" buttonPosition="none" id="placement-torque" min={5} max={100} allowNumericCharactersOnly />
+            <NumberInput name="insertionTorqueNcm" buttonPosition="none" id="placement-torque" min={INSERTION_TORQUE_NCM_RANGE.min} max={INSERTION_TORQUE_NCM_RANGE.max} allowNumericCharactersOnly />
           </FormField>
           <FormField name="stabilityIsq" label="Stability (ISQ)" labelFor="placement-isq">
-            <NumberInput name="stabilityIsq" buttonPosition="none" id="placement-isq" min={1} max={99} allowNumericCharactersOnly />
+            <NumberInput name="stabilityIsq" buttonPosition="none" id="placement-isq" min={ISQ_RANGE.min} max={ISQ_RANGE.max} allowNumericCharactersOnly />
           </FormField>
           <FormField name="loadingProtocol" label="Loading protocol" labelFor="placement-loading">
             <HTMLSelect id="placement-loading" {...form.register('loadingProtocol')}>

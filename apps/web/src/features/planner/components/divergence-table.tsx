@@ -28,7 +28,7 @@ export function DivergenceTable({ axes, system }: { axes: { fdi: number; axis: V
           {rows.map((r) => (
             <tr key={r.pair}>
               <th scope="row">{r.pair}</th>
-              <td>{r.deg === null ? 'axis not valid' : `${r.deg.toFixed(1)}°${r.deg > DIVERGENCE_LIMIT_DEG ? ' (over 15° before any multi-unit correction)' : ''}`}</td>
+              <td>{r.deg === null ? 'axis not valid' : `${r.deg.toFixed(1)}°${r.deg > DIVERGENCE_LIMIT_DEG ? ` (over ${DIVERGENCE_LIMIT_DEG}° before any multi-unit correction)` : ''}`}</td>
             </tr>
           ))}
         </tbody>

@@ -1,5 +1,6 @@
 import { Callout, Checkbox } from '@blueprintjs/core';
 import type { Finding } from '@torquetrail/contracts';
+import { FINDING_SEVERITY_LABEL } from '../../../lib/clinical-labels';
 import { ackKey } from './plan-state';
 
 /** Findings as they arise: errors block saving, warnings need the clinician's acknowledgement. */
@@ -17,7 +18,7 @@ export function FindingsPanel({ findings, acknowledged, onAcknowledge }: { findi
           {findings.map((f) => (
             <li key={ackKey(f)} data-testid={`finding-${f.severity}`} data-code={f.code}>
               <Callout intent={f.severity === 'error' ? 'danger' : 'warning'} icon={f.severity === 'error' ? 'error' : 'warning-sign'} compact>
-                <strong>{f.severity === 'error' ? 'Error' : 'Warning'}{f.fdi ? ` at ${f.fdi}` : ''}:</strong> {f.message}
+                <strong>{FINDING_SEVERITY_LABEL[f.severity]}{f.fdi ? ` at ${f.fdi}` : ''}:</strong> {f.message}
                 {f.source && <span className="planner-findings__source"> Source: {f.source}.</span>}
                 {f.severity === 'warning' && (
                   <Checkbox label="I have read this warning and accept the plan" checked={acknowledged.includes(ackKey(f))} onChange={(e) => onAcknowledge(ackKey(f), e.currentTarget.checked)} />

@@ -1,6 +1,6 @@
 // The planner's form state and its translation into the API body and the domain plan.
-import type { CatalogueComponent, Finding, ImpressionCopingKind, InterfaceKind, Material, PlanBody, RestorableSite, RestorationDetail, RestorationKind, Retention } from '@torquetrail/contracts';
-import { type RestorationPlan, ValidationError, validateRestorationPlan } from '@torquetrail/domain';
+import { ABUTMENT_KINDS, type CatalogueComponent, type ComponentKind, type Finding, type ImpressionCopingKind, type InterfaceKind, type Material, type PlanBody, type RestorableSite, type RestorationDetail, type RestorationKind, type Retention, SCREW_KINDS } from '@torquetrail/contracts';
+import { ABUTMENT_LEVEL_RETENTIONS, type RestorationPlan, ValidationError, validateRestorationPlan } from '@torquetrail/domain';
 
 export interface SitePlan {
   siteId: string;
@@ -75,7 +75,7 @@ export function toBody(patientId: string, state: PlanState, catalogue: Map<strin
     sites: state.sites.map((s) => {
       // Only the slots the retention uses are sent (a part chosen under another retention is dropped).
       const onMua = state.retention === 'screw-to-multi-unit';
-      const onAbutment = state.retention === 'cement-on-abutment' || state.retention === 'lingual-set-screw';
+      const onAbutment = ABUTMENT_LEVEL_RETENTIONS.includes(state.retention);
       const mua = onMua ? catalogue.get(s.multiUnitComponentId) : undefined;
       const angle = mua?.angleDeg;
       return {
@@ -148,15 +148,15 @@ export function stateFromRestoration(r: RestorationDetail): PlanState {
     notes: r.notes ?? '',
     acknowledged: r.acknowledgements.map((a) => `${a.code}:${a.fdi ?? ''}`),
     sites: r.sites.map((s) => {
-      const first = (...kinds: string[]) => s.components.find((c) => kinds.includes(c.kind))?.id ?? '';
+      const first = (...kinds: ComponentKind[]) => s.components.find((c) => kinds.includes(c.kind))?.id ?? '';
       return {
         siteId: s.siteId,
         interface: s.interface,
         impressionCoping: s.impressionCoping,
         impressionCopingComponentId: first('impression-coping'),
         multiUnitComponentId: first('multi-unit-abutment'),
-        abutmentComponentId: first('abutment-stock', 'abutment-custom', 'abutment-angled'),
-        screwComponentIds: s.components.filter((c) => ['abutment-screw', 'prosthetic-screw', 'set-screw'].includes(c.kind)).map((c) => c.id),
+        abutmentComponentId: first(...ABUTMENT_KINDS),
+        screwComponentIds: s.components.filter((c) => (SCREW_KINDS as readonly ComponentKind[]).includes(c.kind)).map((c) => c.id),
         restorativeSpaceMm: str(s.restorativeSpaceMm),
         axis: s.axis ? [String(s.axis[0]), String(s.axis[1]), String(s.axis[2])] : ['', '', ''],
       };

@@ -8,7 +8,15 @@ import { formatDate, formatDateTime } from '../../../lib/dates';
 import type { ToothSystem } from '../../../lib/tooth-system';
 import { useLabPrescription } from '../api/planner-api';
 import { DeliveryForm } from './delivery-form';
-import { MATERIAL_LABEL, RESTORATION_KIND_LABEL as KIND_LABEL, RETENTION_LABEL } from '../../../lib/clinical-labels';
+import {
+  FINDING_SEVERITY_LABEL,
+  IMPRESSION_COPING_LABEL,
+  INTERFACE_LABEL,
+  MATERIAL_LABEL,
+  RESTORATION_KIND_LABEL as KIND_LABEL,
+  RESTORATION_STATUS_LABEL,
+  RETENTION_LABEL,
+} from '../../../lib/clinical-labels';
 
 /** One restoration: what was planned, its Findings, delivery and lab prescriptions. */
 export function RestorationPanel({ restoration: r, system, patientId }: { restoration: RestorationDetail; system: ToothSystem; patientId: string }) {
@@ -20,7 +28,7 @@ export function RestorationPanel({ restoration: r, system, patientId }: { restor
       <h2>
         {KIND_LABEL[r.kind]} · {r.sites.map((s) => formatTooth(s.fdi, system)).join(', ')}{' '}
         <Tag intent={r.status === 'delivered' ? 'success' : 'primary'} minimal>
-          {r.status}
+          {RESTORATION_STATUS_LABEL[r.status].toLowerCase()}
         </Tag>{' '}
         {!current && <Tag minimal icon="history">amended</Tag>}
       </h2>
@@ -34,7 +42,7 @@ export function RestorationPanel({ restoration: r, system, patientId }: { restor
       <ul>
         {r.sites.map((s) => (
           <li key={s.siteId}>
-            <Link to={`/patients/${patientId}/sites/${s.siteId}`}>Site {formatTooth(s.fdi, system)}</Link>: {s.interface} interface, {s.impressionCoping} coping
+            <Link to={`/patients/${patientId}/sites/${s.siteId}`}>Site {formatTooth(s.fdi, system)}</Link>: {INTERFACE_LABEL[s.interface].toLowerCase()} interface, {IMPRESSION_COPING_LABEL[s.impressionCoping].toLowerCase()}
             {s.components.length > 0 && ` — ${s.components.map((c) => c.name).join(', ')}`}
           </li>
         ))}
@@ -45,7 +53,7 @@ export function RestorationPanel({ restoration: r, system, patientId }: { restor
           <ul>
             {r.findings.map((f) => (
               <li key={`${f.code}:${f.fdi ?? ''}`}>
-                {f.severity}: {f.message} {r.acknowledgements.find((a) => a.code === f.code) && <em>(acknowledged by {r.acknowledgements.find((a) => a.code === f.code)!.byName})</em>}
+                {FINDING_SEVERITY_LABEL[f.severity].toLowerCase()}: {f.message} {r.acknowledgements.find((a) => a.code === f.code) && <em>(acknowledged by {r.acknowledgements.find((a) => a.code === f.code)!.byName})</em>}
               </li>
             ))}
           </ul>

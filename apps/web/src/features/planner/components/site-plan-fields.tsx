@@ -1,10 +1,10 @@
 import { Checkbox, HTMLSelect, InputGroup } from '@blueprintjs/core';
-import type { CatalogueComponent, ComponentKind, ImpressionCopingKind, InterfaceKind, RestorableSite, Retention } from '@torquetrail/contracts';
-import { formatTooth } from '@torquetrail/domain';
+import { ABUTMENT_KINDS, type CatalogueComponent, type ComponentKind, type ImpressionCopingKind, type InterfaceKind, type RestorableSite, type Retention, SCREW_KINDS } from '@torquetrail/contracts';
+import { ABUTMENT_LEVEL_RETENTIONS, formatTooth } from '@torquetrail/domain';
 import { FormField } from '../../../lib/forms';
 import type { ToothSystem } from '../../../lib/tooth-system';
 import type { SitePlan } from './plan-state';
-import { CONNECTION_LABEL } from '../../../lib/clinical-labels';
+import { CONNECTION_LABEL, IMPRESSION_COPING_LABEL, INTERFACE_LABEL } from '../../../lib/clinical-labels';
 
 const spec = (c: CatalogueComponent) => (c.torqueSpecNcm === null ? 'hand-tight' : `${c.torqueSpecNcm} N·cm ±${c.tolerancePct} %`);
 
@@ -39,15 +39,20 @@ export function SitePlanFields({ index, site, plan, retention, parts, system, li
       <div className="planner-grid">
         <FormField label="Interface to the implant" labelFor={id('interface')} {...err('interface')}>
           <HTMLSelect id={id('interface')} value={plan.interface} onChange={(e) => set({ interface: e.currentTarget.value as InterfaceKind })}>
-            <option value="non-engaging">Non-engaging</option>
-            <option value="engaging">Engaging</option>
+            {Object.entries(INTERFACE_LABEL).map(([value, text]) => (
+              <option key={value} value={value}>
+                {text}
+              </option>
+            ))}
           </HTMLSelect>
         </FormField>
         <FormField label="Impression technique" labelFor={id('coping')} {...err('impressionCoping', 'impressionCopingComponentId')}>
           <HTMLSelect id={id('coping')} value={plan.impressionCoping} onChange={(e) => set({ impressionCoping: e.currentTarget.value as ImpressionCopingKind, impressionCopingComponentId: '' })}>
-            <option value="non-engaging">Non-engaging coping</option>
-            <option value="engaging">Engaging coping</option>
-            <option value="multi-unit">Multi-unit coping</option>
+            {Object.entries(IMPRESSION_COPING_LABEL).map(([value, text]) => (
+              <option key={value} value={value}>
+                {text}
+              </option>
+            ))}
           </HTMLSelect>
         </FormField>
         <FormField label="Impression coping (catalogue)" labelFor={id('coping-part')} name={[]}>
@@ -71,11 +76,11 @@ export function SitePlanFields({ index, site, plan, retention, parts, system, li
               ))}
             </HTMLSelect>
           </FormField>
-        ) : retention !== 'screw-to-implant' ? (
+        ) : ABUTMENT_LEVEL_RETENTIONS.includes(retention) ? (
           <FormField label="Abutment" labelFor={id('abutment')} {...err('abutmentComponentId')}>
             <HTMLSelect id={id('abutment')} value={plan.abutmentComponentId} onChange={(e) => set({ abutmentComponentId: e.currentTarget.value })}>
               <option value="">Not chosen</option>
-              {of('abutment-stock', 'abutment-custom', 'abutment-angled').map((c) => (
+              {of(...ABUTMENT_KINDS).map((c) => (
                 <option key={c.id} value={c.id}>
                   {c.name} [{c.referenceCode}]
                 </option>
@@ -102,7 +107,7 @@ export function SitePlanFields({ index, site, plan, retention, parts, system, li
         </FormField>
       </div>
       <FormField label="Screws" {...err('screwComponentIds')}>
-        {of('abutment-screw', 'prosthetic-screw', 'set-screw').map((c) => (
+        {of(...SCREW_KINDS).map((c) => (
           <Checkbox
             key={c.id}
             label={`${c.name} [${c.referenceCode}], ${spec(c)}`}

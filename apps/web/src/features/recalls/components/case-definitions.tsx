@@ -1,4 +1,5 @@
 import { Button, Popover } from '@blueprintjs/core';
+import { DEFAULT_BONE_LOSS_MM, DEFAULT_PD_INCREASE_MM, NO_BASELINE_BONE_LEVEL_MM, NO_BASELINE_PD_MM } from '@torquetrail/domain';
 
 /** The three case definitions and the no-baseline rule, in our own words, on demand. */
 export function CaseDefinitions() {
@@ -17,12 +18,12 @@ export function CaseDefinitions() {
             <dd>Bleeding and/or suppuration on gentle probing, without bone loss beyond the initial remodelling.</dd>
             <dt>Peri-implantitis</dt>
             <dd>
-              Bleeding and/or suppuration, probing depths deeper than at the baseline (by 1 mm or more here), and bone loss since the
-              baseline beyond the initial remodelling (0.5 mm or more here).
+              Bleeding and/or suppuration, probing depths deeper than at the baseline (by {DEFAULT_PD_INCREASE_MM} mm or more here), and bone loss since the
+              baseline beyond the initial remodelling ({DEFAULT_BONE_LOSS_MM} mm or more here).
             </dd>
             <dt>Without a baseline</dt>
             <dd>
-              Peri-implantitis needs all three: bleeding and/or suppuration, a probing depth of 6 mm or more, and a bone level 3 mm or more
+              Peri-implantitis needs all three: bleeding and/or suppuration, a probing depth of {NO_BASELINE_PD_MM} mm or more, and a bone level {NO_BASELINE_BONE_LEVEL_MM} mm or more
               apical to the most coronal part of the implant inside bone. Without a radiographic bone level it cannot be confirmed or
               excluded.
             </dd>

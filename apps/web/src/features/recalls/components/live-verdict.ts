@@ -1,8 +1,8 @@
 // The live status beside the exam form: the same classifyPeriImplant the API runs on save
-// (2017 World Workshop case definitions, Berglundh et al. 2018 consensus report), fed the same
-// baseline the API would choose (sent by the API in the exam context). The server recomputes it.
+// (2017 World Workshop case definitions, Berglundh et al. 2018 consensus report), fed the baseline
+// the API chose (sent in the exam context) through the same domain hand-over. The server recomputes it.
 import { ProbingDepthMm, PROBING_POSITIONS, type RecallExam } from '@torquetrail/contracts';
-import { classifyPeriImplant, PERI_IMPLANT_FLAGS, type PeriImplantResult } from '@torquetrail/domain';
+import { classifyPeriImplant, type PeriImplantResult, toPeriImplantBaseline, toPeriImplantExam } from '@torquetrail/domain';
 
 export interface SiteDraft {
   include: boolean;
@@ -58,23 +58,16 @@ export function liveVerdict(draft: SiteDraft, baseline: RecallExam | null): Live
   if (missing > 0) return { state: 'incomplete', message: missing === 6 ? 'Enter the six probing depths' : `Enter ${missing} more probing ${missing === 1 ? 'depth' : 'depths'}` };
   if (draft.depths.some((d) => depthProblem(d) !== null)) return { state: 'incomplete', message: 'Correct the probing depths' };
   const bone = parseMm(draft.boneLevelMm);
-  const useBaseline = !draft.isBaseline && baseline !== null && baseline.boneLevelMm !== null;
+  const periImplantBaseline = toPeriImplantBaseline(draft, baseline);
   const result = classifyPeriImplant(
-    {
-      sites: PROBING_POSITIONS.map((_, i) => ({ probingDepthMm: depths[i]!, bleeding: draft.bop[i]!, suppuration: draft.sup[i]! })),
-      ...(bone === undefined ? {} : { boneLevelMm: bone }),
-    },
-    useBaseline ? { sites: baseline.sites.map((s) => ({ probingDepthMm: s.probingDepthMm })), boneLevelMm: baseline.boneLevelMm! } : undefined,
+    toPeriImplantExam({
+      sites: PROBING_POSITIONS.map((position, i) => ({ position, probingDepthMm: depths[i]!, bleeding: draft.bop[i]!, suppuration: draft.sup[i]! })),
+      boneLevelMm: bone ?? null,
+    }),
+    periImplantBaseline,
   );
-  return { state: 'ready', result, usedBaseline: useBaseline };
+  return { state: 'ready', result, usedBaseline: periImplantBaseline !== undefined };
 }
-
-export const FLAG_TEXT: Record<string, string> = {
-  [PERI_IMPLANT_FLAGS.NO_BASELINE]: 'No baseline: the no-baseline definition was used',
-  [PERI_IMPLANT_FLAGS.PERI_IMPLANTITIS_NOT_EXCLUDED_WITHOUT_BASELINE]: 'Peri-implantitis not excluded without a baseline',
-  [PERI_IMPLANT_FLAGS.BONE_LEVEL_MISSING]: 'No bone level: bone loss cannot be judged',
-  [PERI_IMPLANT_FLAGS.BONE_LOSS_WITHOUT_INFLAMMATION]: 'Bone loss without inflammation: review the radiograph',
-};
 
 /** A draft filled from a saved exam, for an amendment. */
 export function draftFromExam(exam: RecallExam): SiteDraft {

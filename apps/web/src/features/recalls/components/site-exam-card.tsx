@@ -1,19 +1,12 @@
 import { Button, Card, Checkbox, Classes, FormGroup, HTMLSelect, InputGroup, Tag, TextArea } from '@blueprintjs/core';
 import { PROBING_POSITIONS, type ExamContext, type RecallExam } from '@torquetrail/contracts';
 import { useFormContext, useWatch } from 'react-hook-form';
+import { PERI_IMPLANT_FLAG_LABEL, PROBING_POSITION_ABBREVIATION } from '../../../lib/clinical-labels';
 import { formatDate } from '../../../lib/dates';
+import { SITE_STATUS_LABEL } from '../../../lib/labels';
 import { FieldError, FormField, useFieldError, withInputRef } from '../../../lib/forms';
 import { MaintenanceStatusLabel } from '../../../lib/maintenance-status';
-import { depthProblem, FLAG_TEXT, liveVerdict, type SiteDraft } from './live-verdict';
-
-const SHORT: Record<(typeof PROBING_POSITIONS)[number], string> = {
-  mesiobuccal: 'MB',
-  buccal: 'B',
-  distobuccal: 'DB',
-  mesiolingual: 'ML',
-  lingual: 'L',
-  distolingual: 'DL',
-};
+import { depthProblem, liveVerdict, type SiteDraft } from './live-verdict';
 
 type Site = ExamContext['sites'][number];
 
@@ -79,7 +72,7 @@ export function SiteExamCard({
   return (
     <Card className="exam-site" data-testid={`exam-site-${fdi}`}>
       <h3>
-        Implant {fdi} <Tag minimal>{site.status}</Tag>
+        Implant {fdi} <Tag minimal>{SITE_STATUS_LABEL[site.status].toLowerCase()}</Tag>
       </h3>
       {!amending && <Checkbox label={`Examine ${fdi} in this visit`} {...withInputRef(field('include'))} />}
       {draft.include && (
@@ -91,7 +84,7 @@ export function SiteExamCard({
                   <th />
                   {PROBING_POSITIONS.map((p, i) => (
                     <th key={p} scope="col" title={p} className={i === 3 ? 'probing-grid__split' : undefined}>
-                      {SHORT[p]}
+                      {PROBING_POSITION_ABBREVIATION[p]}
                     </th>
                   ))}
                 </tr>
@@ -166,7 +159,7 @@ export function SiteExamCard({
                   <div className="live-status__flags" data-testid={`live-flags-${fdi}`}>
                     {verdict.result.flags.map((f) => (
                       <Tag key={f} intent="warning" minimal data-flag={f}>
-                        {FLAG_TEXT[f] ?? f}
+                        {PERI_IMPLANT_FLAG_LABEL[f]}
                       </Tag>
                     ))}
                   </div>

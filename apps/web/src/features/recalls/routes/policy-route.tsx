@@ -1,19 +1,23 @@
 import '../components/recalls.css';
 import { Button, Callout } from '@blueprintjs/core';
 import { RecallPolicyBody, type RecallPolicyReply } from '@torquetrail/contracts';
+import { DEFAULT_OVERDUE_REMINDER_DAYS_AFTER, DEFAULT_RECALL_MONTHS, DEFAULT_REMINDER_DAYS_BEFORE, DEFAULT_RISK_RECALL_MONTHS, RECALL_RISK_FACTORS } from '@torquetrail/domain';
 import { FormProvider } from 'react-hook-form';
 import { Can } from '../../../lib/ability';
 import { BreadcrumbTrail } from '../../../lib/components/breadcrumb-trail';
+import { RISK_FACTOR_LABEL } from '../../../lib/clinical-labels';
 import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
 import { applyServerErrors, FormField, formErrorMessage, NumberInput, useContractForm } from '../../../lib/forms';
 import { useRecallPolicy, useUpdatePolicy } from '../api/recalls-api';
 
+const riskFactors = RECALL_RISK_FACTORS.map((factor, i) => (i === 0 ? RISK_FACTOR_LABEL[factor] : RISK_FACTOR_LABEL[factor].toLowerCase())).join(', ');
+
 const FIELDS: { key: keyof RecallPolicyBody; label: string; help: string }[] = [
-  { key: 'baseMonths', label: 'Recall interval (months)', help: 'Without risk factors. Default 6.' },
-  { key: 'riskMonths', label: 'Interval with risk factors (months)', help: 'Smoker, poorly controlled diabetes, periodontitis history, prior peri-implantitis. Default 3.' },
-  { key: 'reminderDaysBefore', label: 'Reminder, days before the recall', help: 'Default 14.' },
-  { key: 'overdueReminderDaysAfter', label: 'Overdue reminder, days after', help: 'Default 7.' },
+  { key: 'baseMonths', label: 'Recall interval (months)', help: `Without risk factors. Default ${DEFAULT_RECALL_MONTHS}.` },
+  { key: 'riskMonths', label: 'Interval with risk factors (months)', help: `${riskFactors}. Default ${DEFAULT_RISK_RECALL_MONTHS}.` },
+  { key: 'reminderDaysBefore', label: 'Reminder, days before the recall', help: `Default ${DEFAULT_REMINDER_DAYS_BEFORE}.` },
+  { key: 'overdueReminderDaysAfter', label: 'Overdue reminder, days after', help: `Default ${DEFAULT_OVERDUE_REMINDER_DAYS_AFTER}.` },
 ];
 
 /** /recalls/policy: the practice's recall intervals and reminder timing (practice admin edits). */

@@ -1,27 +1,22 @@
 import '../components/recalls.css';
 import { AnchorButton, Button, FormGroup, HTMLSelect, HTMLTable, InputGroup, NonIdealState, Tag } from '@blueprintjs/core';
 import { DESK_FILTERS, type RecallDeskQuery, type RecallDeskRow } from '@torquetrail/contracts';
+import { RECALL_RISK_FACTORS } from '@torquetrail/domain';
 import { Link, useSearchParams } from 'react-router-dom';
 import { Can } from '../../../lib/ability';
 import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
 import { formatDate } from '../../../lib/dates';
-import { MAINTENANCE_NOTE } from '../../../lib/labels';
+import { RISK_FACTOR_LABEL } from '../../../lib/clinical-labels';
+import { DESK_FILTER_LABEL, DESK_SORT_LABEL, MAINTENANCE_NOTE } from '../../../lib/labels';
 import { MaintenanceStatusLabel } from '../../../lib/maintenance-status';
 import type { DeskParams } from '../api/keys';
 import { deskSearch, useRecallDesk } from '../api/recalls-api';
 
-const FILTER_LABEL: Record<(typeof DESK_FILTERS)[number], string> = {
-  all: 'All patients with implants',
-  'due-this-week': 'Due in the next 7 days',
-  overdue: 'Overdue',
-  'peri-implantitis-last': 'Peri-implantitis last time',
-};
 type Sort = RecallDeskQuery['sort'];
 const PAGE_SIZE = 50;
 
-const riskText = (r: RecallDeskRow['riskFactors']) =>
-  [r.smoker && 'Smoker', r.diabetesPoorlyControlled && 'Diabetes (poorly controlled)', r.periodontitisHistory && 'Periodontitis history', r.priorPeriImplantitis && 'Prior peri-implantitis'].filter(Boolean) as string[];
+const riskText = (r: RecallDeskRow['riskFactors']) => RECALL_RISK_FACTORS.filter((factor) => r[factor]).map((factor) => RISK_FACTOR_LABEL[factor]);
 
 /** /recalls: the hygienist's work list — next recall, overdue days, last status per implant, risk factors. */
 export function RecallDeskRoute() {
@@ -45,10 +40,10 @@ export function RecallDeskRoute() {
     setUrl(next, { replace: true });
   };
   const sortBy = (sort: Sort) => set({ sort, dir: params.sort === sort && params.dir === 'asc' ? 'desc' : 'asc' });
-  const header = (label: string, sort: Sort) => (
+  const header = (sort: Sort) => (
     <th aria-sort={params.sort === sort ? (params.dir === 'asc' ? 'ascending' : 'descending') : 'none'}>
       <Button variant="minimal" size="small" onClick={() => sortBy(sort)} endIcon={params.sort === sort ? (params.dir === 'asc' ? 'caret-up' : 'caret-down') : 'double-caret-vertical'}>
-        {label}
+        {DESK_SORT_LABEL[sort]}
       </Button>
     </th>
   );
@@ -63,7 +58,7 @@ export function RecallDeskRoute() {
           <HTMLSelect id="desk-filter" data-testid="desk-filter" value={params.filter} onChange={(e) => set({ filter: e.currentTarget.value })}>
             {DESK_FILTERS.map((f) => (
               <option key={f} value={f}>
-                {FILTER_LABEL[f]}
+                {DESK_FILTER_LABEL[f]}
               </option>
             ))}
           </HTMLSelect>
@@ -95,11 +90,11 @@ export function RecallDeskRoute() {
           <HTMLTable className="recall-desk__table" striped compact data-testid="recall-desk-table">
             <thead>
               <tr>
-                {header('Patient', 'name')}
+                {header('name')}
                 <th>Chart</th>
-                {header('Next recall', 'dueOn')}
-                {header('Overdue', 'overdueDays')}
-                {header('Last exam', 'lastExamOn')}
+                {header('dueOn')}
+                {header('overdueDays')}
+                {header('lastExamOn')}
                 <th>Last status per implant</th>
                 <th>Risk factors</th>
                 <th>

@@ -4,6 +4,7 @@ import { BreadcrumbTrail } from '../../../lib/components/breadcrumb-trail';
 import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
 import { formatDate, formatDateTime } from '../../../lib/dates';
+import { REMINDER_KIND_LABEL, REMINDER_STATUS_LABEL } from '../../../lib/labels';
 import { useReminderLog, useRunReminders } from '../api/recalls-api';
 
 /** /recalls/reminders: every reminder e-mail, once per patient, recall date and kind (practice admin). */
@@ -52,9 +53,9 @@ export function ReminderLogRoute() {
                   {r.patientName} ({r.chartNumber})
                 </td>
                 <td>{formatDate(r.recallDueOn)}</td>
-                <td>{r.kind === 'upcoming' ? 'Upcoming' : 'Overdue'}</td>
+                <td>{REMINDER_KIND_LABEL[r.kind]}</td>
                 <td>
-                  <Tag minimal intent={r.status === 'sent' ? 'success' : r.status === 'failed' ? 'danger' : 'warning'}>{r.status}</Tag>
+                  <Tag minimal intent={r.status === 'sent' ? 'success' : r.status === 'failed' ? 'danger' : 'warning'}>{REMINDER_STATUS_LABEL[r.status].toLowerCase()}</Tag>
                 </td>
                 <td>{r.attempts}</td>
                 <td>{r.sentAt ? formatDateTime(r.sentAt) : '—'}</td>

@@ -3,13 +3,14 @@ import type { StackPart } from '@torquetrail/contracts';
 import type { ReactNode } from 'react';
 import { formatDate, formatDateTime } from '../../../lib/dates';
 import { FactList } from './fact-list';
-import { ANGLED_KINDS, COMPONENT_KIND_LABEL, formatNumber, formatReason, formatTorqueSpec } from '../../../lib/clinical-labels';
+import { RETIGHTEN_AFTER_MINUTES } from '@torquetrail/domain';
+import { ANGLED_KINDS, COMPONENT_KIND_LABEL, formatNumber, formatTorqueSpec, INTERFACE_LABEL, TORQUE_REASON_LABEL } from '../../../lib/clinical-labels';
 import { TorqueVerdictTag } from './torque-verdict-tag';
 
 /** One part of the Stack: what it is, its specification, and the last torque applied to it. */
 export function StackPartCard({ part }: { part: StackPart }) {
   const facts: [string, ReactNode][] = [['Reference', <span className="mono">{part.referenceCode}</span>]];
-  if (part.engaging !== null) facts.push(['Interface', part.engaging ? 'Engaging' : 'Non-engaging']);
+  if (part.engaging !== null) facts.push(['Interface', INTERFACE_LABEL[part.engaging ? 'engaging' : 'non-engaging']]);
   if (part.angleDeg !== null) facts.push(['Angle', `${formatNumber(part.angleDeg)}°`]);
   else if (ANGLED_KINDS.includes(part.kind)) facts.push(['Angle', 'Straight']);
   facts.push(['Torque specification', formatTorqueSpec(part.torqueSpecNcm, part.tolerancePct)]);
@@ -26,7 +27,7 @@ export function StackPartCard({ part }: { part: StackPart }) {
       <FactList facts={facts} />
       {part.retorqueDueAt && (
         <Callout intent="warning" icon="time" compact className="stack-card__retorque" data-testid="retorque-due">
-          Re-torque due {new Date(part.retorqueDueAt).getTime() <= Date.now() ? 'now' : 'at'} {formatDateTime(part.retorqueDueAt)}: about 10 minutes after the initial
+          Re-torque due {new Date(part.retorqueDueAt).getTime() <= Date.now() ? 'now' : 'at'} {formatDateTime(part.retorqueDueAt)}: about {RETIGHTEN_AFTER_MINUTES} minutes after the initial
           seating, to offset settling (Siamos et al. 2002). Log a re-torque to clear this reminder.
         </Callout>
       )}
@@ -35,7 +36,7 @@ export function StackPartCard({ part }: { part: StackPart }) {
         {last ? (
           <>
             <span>
-              {formatNumber(last.appliedNcm)} N·cm on {formatDateTime(last.performedAt)} · {formatReason(last.reason)}
+              {formatNumber(last.appliedNcm)} N·cm on {formatDateTime(last.performedAt)} · {TORQUE_REASON_LABEL[last.reason]}
               {last.specNcm !== part.torqueSpecNcm && (
                 <span className="muted"> (against {formatTorqueSpec(last.specNcm, last.tolerancePct)})</span>
               )}

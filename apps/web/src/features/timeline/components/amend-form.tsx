@@ -1,5 +1,6 @@
 import { Button, InputGroup } from '@blueprintjs/core';
 import { ComplicationAmendmentBody, type ComplicationKind, type TimelineEvent, TorqueAmendmentBody } from '@torquetrail/contracts';
+import { TORQUE_NCM_RANGE } from '@torquetrail/domain';
 import { useMemo } from 'react';
 import { FormProvider } from 'react-hook-form';
 import type { z } from 'zod';
@@ -53,7 +54,7 @@ export function AmendForm({ siteId, event, onDone }: { siteId: string; event: Ti
       <form className="amend-form" onSubmit={(e) => void form.handleSubmit(submit)(e)} aria-label="Amend this entry" noValidate>
         {event.kind === 'torque' ? (
           <FormField name="appliedNcm" label="Corrected torque (N·cm)" labelFor={`amend-${event.id}`}>
-            <NumberInput name="appliedNcm" buttonPosition="none" id={`amend-${event.id}`} min={1} max={100} />
+            <NumberInput name="appliedNcm" buttonPosition="none" id={`amend-${event.id}`} min={TORQUE_NCM_RANGE.min} max={TORQUE_NCM_RANGE.max} />
           </FormField>
         ) : (
           <FormField name="notes" label="Corrected notes" labelFor={`amend-${event.id}`}>

@@ -3,17 +3,9 @@ import { ComplicationBody, type ComplicationKind, type StackPart } from '@torque
 import { useMemo, useState } from 'react';
 import { FormProvider } from 'react-hook-form';
 import { Can } from '../../../lib/ability';
+import { COMPLICATION_KIND_LABEL } from '../../../lib/clinical-labels';
 import { applyServerErrors, draftSchema, FormField, formErrorMessage, useContractForm, withInputRef } from '../../../lib/forms';
 import { useRecordComplication } from '../api/record-complication';
-
-const KIND_LABEL: Record<ComplicationKind, string> = {
-  'screw-loosening': 'Screw loosening',
-  'screw-fracture': 'Screw fracture',
-  'abutment-fracture': 'Abutment fracture',
-  'veneer-chipping': 'Veneer chipping',
-  'framework-fracture': 'Framework fracture',
-  other: 'Other',
-};
 
 interface ComplicationDraft {
   kind: ComplicationKind;
@@ -42,7 +34,7 @@ export function ComplicationPanel({ siteId, parts }: { siteId: string; parts: St
           <form onSubmit={(event) => void form.handleSubmit(submit)(event)} className="torque-form complication-form" aria-label="Record complication" noValidate>
             <FormField name="kind" label="Complication" labelFor="complication-kind">
               <HTMLSelect id="complication-kind" {...form.register('kind')}>
-                {Object.entries(KIND_LABEL).map(([v, t]) => <option key={v} value={v}>{t}</option>)}
+                {Object.entries(COMPLICATION_KIND_LABEL).map(([v, t]) => <option key={v} value={v}>{t}</option>)}
               </HTMLSelect>
             </FormField>
             <FormField name="componentInstanceId" label="Part (optional)" labelFor="complication-part">

@@ -9,19 +9,21 @@ import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
 import { useTimeline } from '../api/get-timeline';
 import { TorqueChart } from './torque-chart';
+import { TORQUE_VERDICT_LABEL } from '../../../lib/clinical-labels';
+import { TIMELINE_KIND_LABEL } from '../../../lib/labels';
 
-const KIND: Record<TimelineKind, { label: string; icon: IconName }> = {
-  placement: { label: 'Placement', icon: 'pin' },
-  plan: { label: 'Plan', icon: 'clipboard' },
-  impression: { label: 'Impression', icon: 'duplicate' },
-  'lab-prescription': { label: 'Lab prescription', icon: 'document' },
-  part: { label: 'Parts', icon: 'cube' },
-  delivery: { label: 'Delivery', icon: 'endorsed' },
-  torque: { label: 'Torque', icon: 'wrench' },
-  complication: { label: 'Complication', icon: 'warning-sign' },
-  'recall-exam': { label: 'Recall exam', icon: 'pulse' },
+/** Icon per kind, in the order of the filter checkboxes. */
+const KIND_ICON: Record<TimelineKind, IconName> = {
+  placement: 'pin',
+  plan: 'clipboard',
+  impression: 'duplicate',
+  'lab-prescription': 'document',
+  part: 'cube',
+  delivery: 'endorsed',
+  torque: 'wrench',
+  complication: 'warning-sign',
+  'recall-exam': 'pulse',
 };
-const VERDICT = { within: 'within specification', under: 'under specification', over: 'over specification' } as const;
 
 function EventRow({ event, siteId }: { event: TimelineEvent; siteId: string }) {
   const [amending, setAmending] = useState(false);
@@ -30,13 +32,13 @@ function EventRow({ event, siteId }: { event: TimelineEvent; siteId: string }) {
     <li className={`timeline__event${event.amended ? ' timeline__event--amended' : ''}`} data-testid="timeline-event" data-kind={event.kind}>
       <time dateTime={event.at}>{event.dateOnly ? formatDate(event.at) : formatDateTime(event.at)}</time>
       <span className="timeline__kind">
-        <Icon icon={KIND[event.kind].icon} size={12} /> {KIND[event.kind].label}
+        <Icon icon={KIND_ICON[event.kind]} size={12} /> {TIMELINE_KIND_LABEL[event.kind]}
       </span>
       <span className="timeline__title">
         {event.title}
         {event.verdict && (
           <Tag minimal intent={event.verdict === 'within' ? 'success' : event.verdict === 'under' ? 'warning' : 'danger'} className="timeline__verdict">
-            {VERDICT[event.verdict]}
+            {TORQUE_VERDICT_LABEL[event.verdict].toLowerCase()}
           </Tag>
         )}
         {event.amended && (
@@ -63,7 +65,7 @@ export function Timeline({ siteId, parts }: { siteId: string; parts: StackPart[]
   const [hidden, setHidden] = useState<Set<TimelineKind>>(new Set());
   if (timeline.isPending) return <LoadingState label="Loading the Timeline" />;
   if (timeline.isError) return <ErrorState title="Could not load the Timeline" error={timeline.error} onRetry={() => void timeline.refetch()} />;
-  const present = (Object.keys(KIND) as TimelineKind[]).filter((k) => timeline.data.events.some((e) => e.kind === k));
+  const present = (Object.keys(KIND_ICON) as TimelineKind[]).filter((k) => timeline.data.events.some((e) => e.kind === k));
   const events = timeline.data.events.filter((e) => !hidden.has(e.kind));
   const toggle = (k: TimelineKind) => setHidden((h) => {
     const next = new Set(h);
@@ -81,7 +83,7 @@ export function Timeline({ siteId, parts }: { siteId: string; parts: StackPart[]
       <fieldset className="timeline__filters">
         <legend>Show</legend>
         {present.map((k) => (
-          <Checkbox key={k} inline label={KIND[k].label} checked={!hidden.has(k)} onChange={() => toggle(k)} />
+          <Checkbox key={k} inline label={TIMELINE_KIND_LABEL[k]} checked={!hidden.has(k)} onChange={() => toggle(k)} />
         ))}
       </fieldset>
       {events.length === 0 ? (

@@ -1,4 +1,6 @@
 import type { TorqueSeries } from '@torquetrail/contracts';
+import { torqueToleranceBand } from '@torquetrail/domain';
+import { TORQUE_VERDICT_LABEL } from '../../../lib/clinical-labels';
 import { CartesianGrid, Line, LineChart, ReferenceArea, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
 
 const day = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', year: 'numeric' });
@@ -7,8 +9,10 @@ const day = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', y
 export function TorqueChart({ series }: { series: TorqueSeries }) {
   const data = series.points.map((p) => ({ t: new Date(p.at).getTime(), applied: p.appliedNcm, verdict: p.verdict, reason: p.reason }));
   const spec = series.specNcm;
-  const lo = spec !== null ? spec * (1 - series.tolerancePct / 100) : null;
-  const hi = spec !== null ? spec * (1 + series.tolerancePct / 100) : null;
+  // The band torqueVerdict judges against (one formula, in the domain).
+  const band = spec !== null ? torqueToleranceBand(spec, series.tolerancePct) : null;
+  const lo = band?.lowNcm ?? null;
+  const hi = band?.highNcm ?? null;
   const max = Math.max(...data.map((d) => d.applied), hi ?? 0) * 1.15;
   return (
     <figure className="torque-chart" data-testid="torque-chart">
@@ -33,7 +37,7 @@ export function TorqueChart({ series }: { series: TorqueSeries }) {
             <tr key={p.id}>
               <td>{day.format(new Date(p.at))}</td>
               <td>{p.appliedNcm} N·cm</td>
-              <td>{p.verdict}</td>
+              <td>{TORQUE_VERDICT_LABEL[p.verdict].toLowerCase()}</td>
             </tr>
           ))}
         </tbody>

@@ -1,20 +1,11 @@
 import { Button, Callout, HTMLSelect, InputGroup } from '@blueprintjs/core';
 import { MANUFACTURER_CAUTION, type StackPart, TorqueBody, type TorqueReason } from '@torquetrail/contracts';
-import { torqueVerdict } from '@torquetrail/domain';
+import { TORQUE_NCM_RANGE, torqueVerdict } from '@torquetrail/domain';
 import { FormProvider, useWatch } from 'react-hook-form';
+import { TORQUE_REASON_LABEL, TORQUE_VERDICT_LABEL, WRENCH_TYPE_LABEL } from '../../../lib/clinical-labels';
 import { applyServerErrors, draftSchema, FormField, formErrorMessage, NumberInput, useContractForm, withInputRef } from '../../../lib/forms';
 import { useLogTorque } from '../api/log-torque';
 import { useWrenches } from '../api/wrenches';
-
-export const TORQUE_REASON_LABEL: Record<TorqueReason, string> = {
-  'initial-seating': 'Initial seating',
-  're-torque-after-settling': 'Re-torque after settling (about 10 min)',
-  're-torque-at-recall': 'Re-torque at recall',
-  'loosening-found': 'Loosening found',
-  'screw-replaced': 'Screw replaced (new part)',
-};
-
-const VERDICT_TEXT = { within: 'Within specification', under: 'Under specification', over: 'Over specification' } as const;
 
 const localNow = () => {
   const d = new Date();
@@ -68,7 +59,7 @@ export function TorqueForm({ siteId, parts, onDone }: { siteId: string; parts: S
 
   if (torqueable.length === 0) return <Callout intent="primary">No part of this site has a torque specification (healing abutments and cover screws are hand-tight).</Callout>;
 
-  const inRange = applied !== null && applied >= 1 && applied <= 100;
+  const inRange = applied !== null && applied >= TORQUE_NCM_RANGE.min && applied <= TORQUE_NCM_RANGE.max;
   const verdict = part && inRange ? torqueVerdict({ appliedNcm: applied, specNcm: part.torqueSpecNcm!, tolerancePct: part.tolerancePct }) : null;
 
   const submit = (body: TorqueBody) => log.mutate(body, { onSuccess: onDone, onError: (error) => applyServerErrors(form.setError, error) });
@@ -90,11 +81,11 @@ export function TorqueForm({ siteId, parts, onDone }: { siteId: string; parts: S
           </HTMLSelect>
         </FormField>
         <FormField name="appliedNcm" label="Applied torque (N·cm)" labelFor="torque-applied">
-          <NumberInput name="appliedNcm" buttonPosition="none" id="torque-applied" min={1} max={100} stepSize={0.5} minorStepSize={0.1} fill allowNumericCharactersOnly />
+          <NumberInput name="appliedNcm" buttonPosition="none" id="torque-applied" min={TORQUE_NCM_RANGE.min} max={TORQUE_NCM_RANGE.max} stepSize={0.5} minorStepSize={0.1} fill allowNumericCharactersOnly />
         </FormField>
         {part && (
           <p className="torque-form__spec" data-testid="torque-spec">
-            Specification {part.torqueSpecNcm} N·cm ± {part.tolerancePct} %{verdict && <> · <strong data-testid="torque-live-verdict">{VERDICT_TEXT[verdict]}</strong></>}
+            Specification {part.torqueSpecNcm} N·cm ± {part.tolerancePct} %{verdict && <> · <strong data-testid="torque-live-verdict">{TORQUE_VERDICT_LABEL[verdict]}</strong></>}
           </p>
         )}
         <FormField name="wrenchId" label="Wrench" labelFor="torque-wrench">
@@ -102,7 +93,7 @@ export function TorqueForm({ siteId, parts, onDone }: { siteId: string; parts: S
             <option value="">Not recorded</option>
             {wrenches.data?.items.map((w) => (
               <option key={w.id} value={w.id}>
-                {w.label} ({w.type}{w.lastCalibratedOn ? `, calibrated ${w.lastCalibratedOn}` : ', calibration not recorded'})
+                {w.label} ({WRENCH_TYPE_LABEL[w.type].toLowerCase()}{w.lastCalibratedOn ? `, calibrated ${w.lastCalibratedOn}` : ', calibration not recorded'})
               </option>
             ))}
           </HTMLSelect>

@@ -1,0 +1,165 @@
+// Every enumeration of the API, defined once: an `as const` list, its zod schema and its type.
+// Clinical ones the domain computes with (verdicts, reasons, statuses, plan choices) are owned by
+// @torquetrail/domain and roles by @torquetrail/authz; they are wrapped here, never retyped. The
+// database enums (apps/api/src/db/schema/enums.ts) are built from the same lists, in the same order.
+import { ROLES } from '@torquetrail/authz';
+import {
+  FINDING_SEVERITIES,
+  IMPLANT_INTERFACES,
+  IMPRESSION_COPINGS,
+  MULTI_UNIT_ANGLES_DEG,
+  type MultiUnitAngleDeg as MultiUnitAngleDegValue,
+  PERI_IMPLANT_STATUSES,
+  PROBING_POSITIONS,
+  REMINDER_KINDS,
+  RESTORATION_KINDS,
+  RETENTIONS,
+  TORQUE_REASONS,
+  TORQUE_VERDICTS,
+} from '@torquetrail/domain';
+import { z } from 'zod';
+
+export {
+  ROLES,
+  FINDING_SEVERITIES,
+  IMPLANT_INTERFACES,
+  IMPRESSION_COPINGS,
+  MULTI_UNIT_ANGLES_DEG,
+  PERI_IMPLANT_STATUSES,
+  PROBING_POSITIONS,
+  REMINDER_KINDS,
+  RESTORATION_KINDS,
+  RETENTIONS,
+  TORQUE_REASONS,
+  TORQUE_VERDICTS,
+};
+
+// ---- people and services ---------------------------------------------------------------------
+export const Role = z.enum(ROLES);
+export type Role = z.infer<typeof Role>;
+
+export const SERVICE_STATES = ['up', 'down'] as const;
+export const ServiceState = z.enum(SERVICE_STATES);
+export type ServiceState = z.infer<typeof ServiceState>;
+
+// ---- sites and placements ----------------------------------------------------------------------
+export const SITE_STATUSES = ['planned', 'placed', 'restored', 'failed', 'removed'] as const;
+export const SiteStatus = z.enum(SITE_STATUSES);
+export type SiteStatus = z.infer<typeof SiteStatus>;
+
+export const PeriImplantStatus = z.enum(PERI_IMPLANT_STATUSES);
+export type PeriImplantStatus = z.infer<typeof PeriImplantStatus>;
+
+/** Latest computed maintenance status of a site; 'not-examined' until a recall exam exists. */
+export const MAINTENANCE_STATUSES = [...PERI_IMPLANT_STATUSES, 'not-examined'] as const;
+export const MaintenanceStatus = z.enum(MAINTENANCE_STATUSES);
+export type MaintenanceStatus = z.infer<typeof MaintenanceStatus>;
+
+export const CONNECTIONS = ['internal-conical', 'internal-hex', 'external-hex'] as const;
+export const Connection = z.enum(CONNECTIONS);
+export type Connection = z.infer<typeof Connection>;
+
+export const LOADING_PROTOCOLS = ['immediate', 'early', 'conventional'] as const;
+export const LoadingProtocol = z.enum(LOADING_PROTOCOLS);
+export type LoadingProtocol = z.infer<typeof LoadingProtocol>;
+
+// ---- catalogue ---------------------------------------------------------------------------------
+export const COMPONENT_KINDS = [
+  'abutment-stock',
+  'abutment-custom',
+  'abutment-angled',
+  'multi-unit-abutment',
+  'abutment-screw',
+  'prosthetic-screw',
+  'set-screw',
+  'impression-coping',
+  'healing-abutment',
+  'cover-screw',
+] as const;
+export const ComponentKind = z.enum(COMPONENT_KINDS);
+export type ComponentKind = z.infer<typeof ComponentKind>;
+
+/** Abutments a crown or bridge sits on (multi-unit abutments are their own slot). */
+export const ABUTMENT_KINDS = ['abutment-stock', 'abutment-custom', 'abutment-angled'] as const satisfies readonly ComponentKind[];
+/** Screws that hold an abutment or a restoration. */
+export const SCREW_KINDS = ['abutment-screw', 'prosthetic-screw', 'set-screw'] as const satisfies readonly ComponentKind[];
+/** Parts that close the implant at surgery: hand-tight, no torque is logged. */
+export const CLOSURE_KINDS = ['healing-abutment', 'cover-screw'] as const satisfies readonly ComponentKind[];
+export type ClosureKind = (typeof CLOSURE_KINDS)[number];
+/** The Stack from the implant outward: multi-unit or abutment, then its screws, then the rest. */
+export const STACK_ORDER: readonly ComponentKind[] = ['multi-unit-abutment', ...ABUTMENT_KINDS, ...SCREW_KINDS, ...CLOSURE_KINDS, 'impression-coping'];
+
+export const TRAYS = ['open', 'closed'] as const;
+export const Tray = z.enum(TRAYS);
+export type Tray = z.infer<typeof Tray>;
+
+export const WRENCH_TYPES = ['spring', 'friction'] as const;
+export const WrenchType = z.enum(WRENCH_TYPES);
+export type WrenchType = z.infer<typeof WrenchType>;
+
+// ---- restorations ------------------------------------------------------------------------------
+export const RestorationKind = z.enum(RESTORATION_KINDS);
+export type RestorationKind = z.infer<typeof RestorationKind>;
+export const Retention = z.enum(RETENTIONS);
+export type Retention = z.infer<typeof Retention>;
+export const InterfaceKind = z.enum(IMPLANT_INTERFACES);
+export type InterfaceKind = z.infer<typeof InterfaceKind>;
+export const ImpressionCopingKind = z.enum(IMPRESSION_COPINGS);
+export type ImpressionCopingKind = z.infer<typeof ImpressionCopingKind>;
+export const FindingSeverity = z.enum(FINDING_SEVERITIES);
+export type FindingSeverity = z.infer<typeof FindingSeverity>;
+/** 0, 17 or 30 degrees. */
+export const MultiUnitAngleDeg = z.union(
+  MULTI_UNIT_ANGLES_DEG.map((angle) => z.literal(angle)) as [z.ZodLiteral<MultiUnitAngleDegValue>, ...z.ZodLiteral<MultiUnitAngleDegValue>[]],
+);
+export type MultiUnitAngleDeg = z.infer<typeof MultiUnitAngleDeg>;
+
+export const MATERIALS = ['zirconia', 'titanium-porcelain', 'titanium-composite', 'full-gold', 'porcelain-fused-to-metal', 'other'] as const;
+export const Material = z.enum(MATERIALS);
+export type Material = z.infer<typeof Material>;
+
+export const RESTORATION_STATUSES = ['planned', 'delivered', 'removed'] as const;
+export const RestorationStatus = z.enum(RESTORATION_STATUSES);
+export type RestorationStatus = z.infer<typeof RestorationStatus>;
+
+// ---- torque, complications, Timeline -------------------------------------------------------------
+export const TorqueVerdict = z.enum(TORQUE_VERDICTS);
+export type TorqueVerdict = z.infer<typeof TorqueVerdict>;
+export const TorqueReason = z.enum(TORQUE_REASONS);
+export type TorqueReason = z.infer<typeof TorqueReason>;
+
+export const COMPLICATION_KINDS = ['screw-loosening', 'screw-fracture', 'abutment-fracture', 'veneer-chipping', 'framework-fracture', 'other'] as const;
+export const ComplicationKind = z.enum(COMPLICATION_KINDS);
+export type ComplicationKind = z.infer<typeof ComplicationKind>;
+
+/** In the order of a sitting: the Timeline orders the entries of one day by it. */
+export const TIMELINE_KINDS = ['placement', 'plan', 'impression', 'lab-prescription', 'part', 'delivery', 'complication', 'torque', 'recall-exam'] as const;
+export const TimelineKind = z.enum(TIMELINE_KINDS);
+export type TimelineKind = z.infer<typeof TimelineKind>;
+
+// ---- recalls -----------------------------------------------------------------------------------
+export const ProbingPosition = z.enum(PROBING_POSITIONS);
+export type ProbingPosition = z.infer<typeof ProbingPosition>;
+
+/** A scheduled recall; the Recall desk shows the next 'scheduled' one. */
+export const RECALL_STATUSES = ['scheduled', 'done', 'cancelled'] as const;
+export const RecallStatus = z.enum(RECALL_STATUSES);
+export type RecallStatus = z.infer<typeof RecallStatus>;
+
+export const ReminderKind = z.enum(REMINDER_KINDS);
+export type ReminderKind = z.infer<typeof ReminderKind>;
+export const REMINDER_STATUSES = ['pending', 'sent', 'failed'] as const;
+export const ReminderStatus = z.enum(REMINDER_STATUSES);
+export type ReminderStatus = z.infer<typeof ReminderStatus>;
+
+export const DESK_FILTERS = ['all', 'due-this-week', 'overdue', 'peri-implantitis-last'] as const;
+/** The 'due-this-week' filter: recalls due from today to this many days ahead, inclusive. */
+export const DESK_DUE_SOON_DAYS = 7;
+export const DeskFilter = z.enum(DESK_FILTERS);
+export type DeskFilter = z.infer<typeof DeskFilter>;
+export const DESK_SORTS = ['dueOn', 'overdueDays', 'name', 'lastExamOn'] as const;
+export const DeskSort = z.enum(DESK_SORTS);
+export type DeskSort = z.infer<typeof DeskSort>;
+export const SORT_DIRECTIONS = ['asc', 'desc'] as const;
+export const SortDirection = z.enum(SORT_DIRECTIONS);
+export type SortDirection = z.infer<typeof SortDirection>;
