@@ -17,7 +17,7 @@ const smtp = new SMTPServer({
   onData(stream, session, callback) {
     const chunks = [];
     stream.on('data', (chunk) => chunks.push(chunk));
-    stream.on('end', async () => {
+    const store = async () => {
       try {
         const raw = Buffer.concat(chunks);
         const parsed = await simpleParser(raw);
@@ -38,7 +38,8 @@ const smtp = new SMTPServer({
       } catch (error) {
         callback(error);
       }
-    });
+    };
+    stream.on('end', () => void store());
   },
 });
 

@@ -12,7 +12,7 @@ import pgModule from 'pg';
 import { capture } from './proc.mjs';
 import { pgProgram } from './postgres.mjs';
 
-export const MANIFEST = 'manifest.json';
+const MANIFEST = 'manifest.json';
 const DUMP = 'database.dump';
 /** Schemas whose rows the manifest counts: the product's tables and the migration journal. */
 const COUNTED_SCHEMAS = ['public', 'drizzle'];
@@ -65,7 +65,7 @@ async function withClient(databaseUrl, fn) {
 }
 
 /** Row count of every table in the counted schemas, as { "schema.table": n }. */
-export function countRows(databaseUrl) {
+function countRows(databaseUrl) {
   return withClient(databaseUrl, async (client) => {
     const tables = await client.query(
       `select schemaname, tablename from pg_tables where schemaname = any($1) order by schemaname, tablename`,
@@ -134,7 +134,7 @@ export async function backup({ databaseUrl, s3, bucket }, dir, log = () => {}) {
 }
 
 /** Reads the manifest and checks every file's hash before anything is restored. */
-export async function readVerifiedManifest(dir) {
+async function readVerifiedManifest(dir) {
   const file = path.join(dir, MANIFEST);
   if (!fs.existsSync(file)) throw new BackupError(`${file} is missing: not a backup folder`);
   const manifest = JSON.parse(fs.readFileSync(file, 'utf8'));

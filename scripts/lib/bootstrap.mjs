@@ -3,7 +3,7 @@
 import { createHash, randomBytes } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
-import { capture, isRoot, run } from './proc.mjs';
+import { isRoot, run } from './proc.mjs';
 import { localDir, repoRoot } from './config.mjs';
 
 const npm = process.platform === 'win32' ? 'npm.cmd' : 'npm';
@@ -72,4 +72,3 @@ export function nodeScript(script, env) {
   return run(process.execPath, [path.join(repoRoot, script)], { cwd: repoRoot, env: { ...process.env, ...env } });
 }
 
-export { capture };

@@ -44,7 +44,7 @@ export const mail = {
 
 export const app = { port: port('PORT', 3000) };
 
-export function databaseUrl(database) {
+function databaseUrl(database) {
   return `postgres://${pg.user}:${encodeURIComponent(pg.password)}@${host}:${pg.port}/${database}`;
 }
 

@@ -38,7 +38,7 @@ export async function createApp(env: Env, options: { logger?: false; logStream?:
   app.enableShutdownHooks();
 
   // Unknown routes under /api fall through to Nest's JSON 404 (via the exception filter), never the web app.
-  const expressApp = app.getHttpAdapter().getInstance() as express.Express;
+  const expressApp = app.getHttpAdapter().getInstance();
   if (env.NODE_ENV !== 'production') {
     expressApp.use('/api/docs/assets', express.static(swaggerUi.getAbsoluteFSPath(), { index: false }));
   }

@@ -39,10 +39,10 @@ const TABLES: { name: string; table: Amendable; version: () => Promise<string>; 
     name: 'placements',
     table: placements,
     // The current placement of Wendell's 15 (each test below leaves a newer version there).
-    version: async () => (await ctx.db.select({ id: placements.id }).from(placements).where(and(eq(placements.siteId, ids.wendell15!), sql`not exists (select 1 from placements newer where newer.supersedes_id = ${placements.id})`)))[0]!.id,
+    version: async () => (await ctx.db.select({ id: placements.id }).from(placements).where(and(eq(placements.siteId, ids.wendell15), sql`not exists (select 1 from placements newer where newer.supersedes_id = ${placements.id})`)))[0].id,
     amend: async (id) => {
       const [p] = await ctx.db.select().from(placements).where(eq(placements.id, id));
-      return ctx.http.post(`/api/placements/${id}/amendments`).set('Cookie', cookies.dentist).send({ platformId: p!.platformId, placedOn: p!.placedOn, lengthMm: p!.lengthMm, amendmentReason: 'Length re-read' });
+      return ctx.http.post(`/api/placements/${id}/amendments`).set('Cookie', cookies.dentist).send({ platformId: p.platformId, placedOn: p.placedOn, lengthMm: p.lengthMm, amendmentReason: 'Length re-read' });
     },
     message: 'This placement was already amended; amend the current version',
   },
@@ -80,7 +80,7 @@ const TABLES: { name: string; table: Amendable; version: () => Promise<string>; 
 /** Writes a copy of the version as its amendment, straight into the table (no service in between). */
 async function insertCopyAsAmendment(db: Db, table: Amendable, versionId: string, supersedesId = versionId) {
   const [row] = (await db.select().from(table as typeof placements).where(eq(table.id, versionId))) as Record<string, unknown>[];
-  const { id: _id, ...copy } = row!;
+  const { id: _id, ...copy } = row;
   await db.insert(table as typeof placements).values({ ...copy, supersedesId, amendmentReason: 'Written directly' } as typeof placements.$inferInsert);
 }
 
@@ -100,7 +100,7 @@ async function untilInsertWaits(table: string) {
     const { rows } = await ctx.db.execute<{ n: number }>(
       sql`select count(*)::int as n from pg_stat_activity where datname = current_database() and wait_event_type = 'Lock' and query ilike ${`insert into "${table}"%`}`,
     );
-    if (rows[0]!.n > 0) return true;
+    if (rows[0].n > 0) return true;
     await new Promise((resolve) => setTimeout(resolve, 50));
   }
   return false;
@@ -122,7 +122,7 @@ beforeAll(async () => {
     .from(componentInstances)
     .innerJoin(components, eq(components.id, componentInstances.componentId))
     .where(and(eq(componentInstances.siteId, ids.ferraz14), sql`${componentInstances.removedOn} is null`, eq(components.kind, 'abutment-screw')));
-  ids.ferrazScrew = screw!.id;
+  ids.ferrazScrew = screw.id;
 });
 afterAll(() => ctx.close());
 

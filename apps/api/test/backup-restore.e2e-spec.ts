@@ -60,7 +60,7 @@ async function rowCounts(url: string): Promise<Record<string, number>> {
     const counts: Record<string, number> = {};
     for (const { s, t } of tables.rows) {
       const result = await db.execute<{ n: number }>(sql.raw(`select count(*)::int as n from "${s}"."${t}"`));
-      counts[`${s}.${t}`] = result.rows[0]!.n;
+      counts[`${s}.${t}`] = result.rows[0].n;
     }
     return counts;
   } finally {
@@ -86,7 +86,7 @@ beforeAll(async () => {
   await storage.put(`tests/${randomUUID()}.bin`, Buffer.from(Array.from({ length: 50_000 }, (_, i) => (i * 31) % 256)), 'application/octet-stream');
   await storage.put(`practice/p1/${randomUUID()}.pdf`, Buffer.from('%PDF-1.4 test'), 'application/pdf');
   const backup = await run(process.execPath, [script('backup'), '--out', backupDir], { env: scriptEnv });
-  expect(backup.stdout).toContain('[backup] done');
+  if (!backup.stdout.includes('[backup] done')) throw new Error(`backup did not finish:\n${backup.stdout}`);
 }, 60_000);
 
 afterAll(async () => {

@@ -19,7 +19,7 @@ beforeAll(async () => {
 });
 afterAll(() => ctx.close());
 
-const complicationCount = async () => (await ctx.db.select({ n: count() }).from(complications))[0]!.n;
+const complicationCount = async () => (await ctx.db.select({ n: count() }).from(complications))[0].n;
 // Supertest listens on a new port for each request, so the tests name the host the browser used.
 const HOST = 'torquetrail.test';
 const OWN_ORIGIN = `http://${HOST}`;

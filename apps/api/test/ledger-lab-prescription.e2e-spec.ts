@@ -32,7 +32,7 @@ beforeAll(async () => {
       dueOn: '2026-12-18',
       sites: sites.map((s) => ({ siteId: s, interface: 'non-engaging', impressionCoping: 'non-engaging', screwComponentIds: [part('PSI')], impressionCopingComponentId: part('ICN-O') })),
     });
-  expect(ok.status).toBe(201);
+  if (ok.status !== 201) throw new Error(`the plan was not saved: ${JSON.stringify(ok.body)}`);
   planId = ok.body.id;
 });
 afterAll(() => ctx.close());
@@ -51,8 +51,8 @@ describe('lab prescription', () => {
     const made = await ctx.http.post(`/api/restorations/${planId}/lab-prescriptions`).set('Cookie', dentist).send({});
     expect(made.status).toBe(201);
     const [row] = await ctx.db.select().from(labPrescriptions).where(eq(labPrescriptions.id, made.body.id));
-    expect(row!.objectKey).toMatch(new RegExp(`^practices/[0-9a-f-]{36}/lab-prescriptions/${made.body.id}\\.pdf$`));
-    expect(row!.sizeBytes).toBe(made.body.sizeBytes);
+    expect(row.objectKey).toMatch(new RegExp(`^practices/[0-9a-f-]{36}/lab-prescriptions/${made.body.id}\\.pdf$`));
+    expect(row.sizeBytes).toBe(made.body.sizeBytes);
 
     const res = await ctx.http.get(`/api/lab-prescriptions/${made.body.id}/pdf`).set('Cookie', dentist).buffer(true).parse((r, cb) => {
       const chunks: Buffer[] = [];

@@ -47,7 +47,7 @@ describe('1. screw-retained directly on the implants (splinted bridge, non-engag
     const delivered = await deliver(ok.body.id, { deliveredOn: '2026-11-20', impressionTakenOn: '2026-11-01', parts: [44, 46].map((fdi) => ({ siteId: siteIds[fdi], componentId: part('PSI'), lot: `PSI-${fdi}` })) });
     expect(delivered.status).toBe(200);
     expect(delivered.body).toMatchObject({ status: 'delivered', deliveredOn: '2026-11-20', impressionTakenOn: '2026-11-01' });
-    const file = await stack(siteIds[44]!);
+    const file = await stack(siteIds[44]);
     expect(file.status).toBe('restored');
     expect(file.restoration).toMatchObject({ kind: 'splinted-bridge', retention: 'screw-to-implant', interface: 'non-engaging', retrievable: true, spansFdi: [44, 46] });
     expect(file.parts).toEqual([expect.objectContaining({ kind: 'prosthetic-screw', torqueSpecNcm: 25, lot: 'PSI-44', lastTorque: null, retorqueDueAt: null })]);
@@ -87,10 +87,10 @@ describe('2. screw-retained on multi-unit abutments (straight and 17°)', () => 
       ],
     });
     expect(delivered.status).toBe(200);
-    const file = await stack(siteIds[43]!);
+    const file = await stack(siteIds[43]);
     // Angled multi-unit about 15 N·cm, prosthetic screw on a multi-unit about 15 N·cm [common practice].
     expect(file.parts.map((p: { kind: string; torqueSpecNcm: number }) => [p.kind, p.torqueSpecNcm])).toEqual([['multi-unit-abutment', 15], ['prosthetic-screw', 15]]);
-    expect((await stack(siteIds[33]!)).parts[0]).toMatchObject({ kind: 'multi-unit-abutment', angleDeg: 0, torqueSpecNcm: 35 });
+    expect((await stack(siteIds[33])).parts[0]).toMatchObject({ kind: 'multi-unit-abutment', angleDeg: 0, torqueSpecNcm: 35 });
   });
 });
 
@@ -127,12 +127,12 @@ describe('3. cement-retained on an engaging abutment (single crown)', () => {
     const foreign = await deliver(ok.body.id, { deliveredOn: '2026-11-22', parts: [{ siteId: siteIds[36], componentId: other('CA'), lot: 'X' }] });
     expect(foreign.body.fields).toHaveProperty('parts.0.componentId');
     // Nothing half-saved: the failed deliveries left no parts and the plan still planned.
-    expect((await stack(siteIds[36]!)).parts).toEqual([]);
+    expect((await stack(siteIds[36])).parts).toEqual([]);
     expect((await ctx.http.get(`/api/restorations/${ok.body.id}`).set('Cookie', dentist)).body.status).toBe('planned');
 
     const delivered = await deliver(ok.body.id, { deliveredOn: '2026-11-22', parts: [{ siteId: siteIds[36], componentId: part('CA'), lot: 'CA-1' }, { siteId: siteIds[36], componentId: part('AS'), lot: 'AS-1' }] });
     expect(delivered.status).toBe(200);
-    const file = await stack(siteIds[36]!);
+    const file = await stack(siteIds[36]);
     expect(file.restoration).toMatchObject({ retention: 'cement-on-abutment', retrievable: false });
     expect(file.parts.map((p: { kind: string }) => p.kind)).toEqual(['abutment-custom', 'abutment-screw']);
     const again = await deliver(ok.body.id, { deliveredOn: '2026-11-22', parts: [{ siteId: siteIds[36], componentId: part('AS'), lot: 'AS-2' }] });
@@ -160,7 +160,7 @@ describe('4. lingual set-screw retained (single crown on an engaging abutment)',
     expect(coping.body.fields).toHaveProperty('parts.0.componentId');
     const delivered = await deliver(ok.body.id, { deliveredOn: '2026-11-23', parts: ['SA', 'AS', 'LSS'].map((s) => ({ siteId: siteIds[24], componentId: part(s), lot: `${s}-1` })) });
     expect(delivered.status).toBe(200);
-    const file = await stack(siteIds[24]!);
+    const file = await stack(siteIds[24]);
     expect(file.restoration).toMatchObject({ retention: 'lingual-set-screw', retrievable: true });
     expect(file.parts.map((p: { kind: string }) => p.kind)).toEqual(['abutment-stock', 'abutment-screw', 'set-screw']);
   });

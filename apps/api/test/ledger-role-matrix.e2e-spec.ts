@@ -23,7 +23,7 @@ const wendellPlan = () => ({
   copingsSplinted: true,
   labName: 'Ferncliff Dental Lab',
   labEmail: 'orders@ferncliff-lab.example',
-  sites: [ids.wendell15!, ids.wendell16!].map((s) => ({ siteId: s, interface: 'non-engaging', impressionCoping: 'non-engaging', screwComponentIds: [tex('PSI')], impressionCopingComponentId: tex('ICN-O') })),
+  sites: [ids.wendell15, ids.wendell16].map((s) => ({ siteId: s, interface: 'non-engaging', impressionCoping: 'non-engaging', screwComponentIds: [tex('PSI')], impressionCopingComponentId: tex('ICN-O') })),
 });
 
 /** A fresh planned restoration (made through the API as the dentist). */
@@ -59,20 +59,20 @@ beforeAll(async () => {
   ids.wendell15 = await siteId(ctx.db, 'LL-1005', 15);
   ids.wendell16 = await siteId(ctx.db, 'LL-1005', 16);
   const [screw] = await ctx.db.select({ id: componentInstances.id }).from(componentInstances).where(eq(componentInstances.siteId, ids.harold35));
-  ids.haroldScrew = screw!.id;
+  ids.haroldScrew = screw.id;
   const [okaforScrew] = await ctx.db
     .select({ id: componentInstances.id })
     .from(componentInstances)
     .innerJoin(components, eq(components.id, componentInstances.componentId))
     .where(and(eq(componentInstances.siteId, ids.okafor46), eq(components.kind, 'abutment-screw')));
-  ids.okaforScrew = okaforScrew!.id;
-  const sys = async (practiceId: string) => (await ctx.db.select({ id: implantSystems.id }).from(implantSystems).where(eq(implantSystems.practiceId, practiceId)))[0]!.id;
+  ids.okaforScrew = okaforScrew.id;
+  const sys = async (practiceId: string) => (await ctx.db.select({ id: implantSystems.id }).from(implantSystems).where(eq(implantSystems.practiceId, practiceId)))[0].id;
   ids.system = await sys(larkspur);
-  ids.quarrySystem = await sys(quarry!.id);
-  ids.platform = (await ctx.db.select({ id: platforms.id }).from(platforms).where(eq(platforms.systemId, ids.system)))[0]!.id;
-  ids.component = (await ctx.db.select({ id: components.id }).from(components).where(eq(components.platformId, ids.platform)))[0]!.id;
-  ids.wrench = (await ctx.db.select({ id: torqueWrenches.id }).from(torqueWrenches).where(eq(torqueWrenches.practiceId, larkspur)))[0]!.id;
-  ids.quarryWrench = (await ctx.db.select({ id: torqueWrenches.id }).from(torqueWrenches).where(eq(torqueWrenches.practiceId, quarry!.id)))[0]!.id;
+  ids.quarrySystem = await sys(quarry.id);
+  ids.platform = (await ctx.db.select({ id: platforms.id }).from(platforms).where(eq(platforms.systemId, ids.system)))[0].id;
+  ids.component = (await ctx.db.select({ id: components.id }).from(components).where(eq(components.platformId, ids.platform)))[0].id;
+  ids.wrench = (await ctx.db.select({ id: torqueWrenches.id }).from(torqueWrenches).where(eq(torqueWrenches.practiceId, larkspur)))[0].id;
+  ids.quarryWrench = (await ctx.db.select({ id: torqueWrenches.id }).from(torqueWrenches).where(eq(torqueWrenches.practiceId, quarry.id)))[0].id;
   ids.haroldBridge = (await ctx.http.get(`/api/patients/${ids.harold}/restorations`).set('Cookie', cookies.dentist)).body.items[0].id;
   ids.okaforCrown = (await ctx.http.get(`/api/patients/${ids.okafor}/restorations`).set('Cookie', cookies.dentist)).body.items[0].id;
   const lab = await ctx.http.post(`/api/restorations/${ids.haroldBridge}/lab-prescriptions`).set('Cookie', cookies.dentist).send({});

@@ -11,13 +11,13 @@ import { signIn, siteId, startTestApp, type TestContext } from './support/test-a
 let ctx: TestContext;
 let dentist: string;
 let harold35: string;
-let screw: string;
+let haroldScrew: string;
 beforeAll(async () => {
   ctx = await startTestApp();
   dentist = await signIn(ctx, 'dentist');
   harold35 = await siteId(ctx.db, 'LL-1001', 35);
   const [row] = await ctx.db.select({ id: componentInstances.id }).from(componentInstances).where(eq(componentInstances.siteId, harold35));
-  screw = row!.id;
+  haroldScrew = row.id;
 });
 afterAll(() => ctx.close());
 
@@ -34,7 +34,7 @@ const freshScrew = async () => patientWithPart(ctx, `T-TQ${++freshScrews}`, 'Sol
 
 describe('torque entry', () => {
   it.each([0, 0.5, 100.5, 250, -3])('refuses %s N·cm (outside 1–100) with 400 on appliedNcm', async (appliedNcm) => {
-    const res = await logTorque({ componentInstanceId: screw, appliedNcm, reason: 're-torque-at-recall' });
+    const res = await logTorque({ componentInstanceId: haroldScrew, appliedNcm, reason: 're-torque-at-recall' });
     expect(res.status).toBe(400);
     expect(res.body.fields.appliedNcm).toMatch(/between 1 and 100/);
   });
@@ -43,8 +43,8 @@ describe('torque entry', () => {
     const healing = (await siteFile(await siteId(ctx.db, 'LL-1005', 15))).parts[0];
     expect((await logTorque({ componentInstanceId: healing.instanceId, appliedNcm: 10, reason: 'initial-seating' })).body.fields).toHaveProperty('componentInstanceId');
     const [foreign] = await ctx.db.select({ id: torqueWrenches.id }).from(torqueWrenches).where(ne(torqueWrenches.practiceId, await larkspurId(ctx.db)));
-    expect((await logTorque({ componentInstanceId: screw, appliedNcm: 25, reason: 're-torque-at-recall', wrenchId: foreign!.id })).body.fields).toHaveProperty('wrenchId');
-    expect((await logTorque({ componentInstanceId: screw, appliedNcm: 25, reason: 're-torque-at-recall', performedAt: '2099-01-01T00:00:00Z' })).body.fields).toHaveProperty('performedAt');
+    expect((await logTorque({ componentInstanceId: haroldScrew, appliedNcm: 25, reason: 're-torque-at-recall', wrenchId: foreign.id })).body.fields).toHaveProperty('wrenchId');
+    expect((await logTorque({ componentInstanceId: haroldScrew, appliedNcm: 25, reason: 're-torque-at-recall', performedAt: '2099-01-01T00:00:00Z' })).body.fields).toHaveProperty('performedAt');
   });
 
   // The demo catalogue's prosthetic screw: 25 N·cm ± 10 % [common practice, manufacturer-specific];
@@ -85,7 +85,7 @@ describe('torque entry', () => {
     expect(fresh).not.toBe(screw);
     const [old] = await ctx.db.select().from(componentInstances).where(eq(componentInstances.id, screw));
     const [replacement] = await ctx.db.select().from(componentInstances).where(eq(componentInstances.id, fresh));
-    expect(old!.removedOn).not.toBeNull();
+    expect(old.removedOn).not.toBeNull();
     expect(replacement).toMatchObject({ replacesId: screw, lot: 'PSI-2611-02', removedOn: null });
     const file = await siteFile(site);
     expect(file.parts.map((p: { instanceId: string }) => p.instanceId)).toEqual([fresh]);
@@ -98,7 +98,7 @@ describe('torque entry', () => {
   });
 
   it('an amendment is a new version; the old entry stays in the Timeline marked as amended', async () => {
-    const first = await logTorque({ componentInstanceId: screw, appliedNcm: 20, reason: 're-torque-after-settling', performedAt: new Date().toISOString() });
+    const first = await logTorque({ componentInstanceId: haroldScrew, appliedNcm: 20, reason: 're-torque-after-settling', performedAt: new Date().toISOString() });
     const amended = await ctx.http.post(`/api/torque-events/${first.body.id}/amendments`).set('Cookie', dentist).send({ appliedNcm: 25, performedAt: first.body.performedAt, amendmentReason: 'Entered the wrong reading' });
     expect(amended.status).toBe(201);
     expect(amended.body).toMatchObject({ supersedesId: first.body.id, verdict: 'within', amendmentReason: 'Entered the wrong reading', reason: 're-torque-after-settling' });
@@ -117,7 +117,7 @@ describe('complications and the Timeline', () => {
     const kinds = events.map((e: { kind: string }) => e.kind);
     expect(kinds[0]).toBe('placement');
     const days = events.map((e: { at: string }) => e.at.slice(0, 10));
-    expect(days).toEqual([...days].sort());
+    expect(days).toEqual([...days].sort((a, b) => a.localeCompare(b)));
     for (const k of ['placement', 'plan', 'impression', 'delivery', 'part', 'torque', 'complication']) expect(kinds).toContain(k);
     const may2016 = events.filter((e: { at: string }) => e.at.startsWith('2016-05-10'));
     expect(may2016.map((e: { kind: string }) => e.kind)).toEqual(['complication', 'torque', 'torque']);
@@ -138,9 +138,9 @@ describe('complications and the Timeline', () => {
     const foreign = await ctx.http.post('/api/complications').set('Cookie', dentist).send({ siteId: harold35, componentInstanceId: other, kind: 'screw-fracture', occurredOn: '2026-11-01' });
     expect(foreign.status).toBe(400);
     expect(foreign.body.fields).toHaveProperty('componentInstanceId');
-    const created = await ctx.http.post('/api/complications').set('Cookie', dentist).send({ siteId: harold35, componentInstanceId: screw, kind: 'screw-fracture', occurredOn: '2026-11-01', notes: 'Head sheared' });
+    const created = await ctx.http.post('/api/complications').set('Cookie', dentist).send({ siteId: harold35, componentInstanceId: haroldScrew, kind: 'screw-fracture', occurredOn: '2026-11-01', notes: 'Head sheared' });
     expect(created.status).toBe(201);
-    const amended = await ctx.http.post(`/api/complications/${created.body.id}/amendments`).set('Cookie', dentist).send({ componentInstanceId: screw, kind: 'screw-loosening', occurredOn: '2026-11-01', amendmentReason: 'It was loose, not broken' });
+    const amended = await ctx.http.post(`/api/complications/${created.body.id}/amendments`).set('Cookie', dentist).send({ componentInstanceId: haroldScrew, kind: 'screw-loosening', occurredOn: '2026-11-01', amendmentReason: 'It was loose, not broken' });
     expect(amended.status).toBe(201);
     const { events } = await timeline('?kinds=complication');
     expect(events.filter((e: { at: string }) => e.at.startsWith('2026-11-01')).map((e: { amended: boolean; title: string }) => [e.amended, e.title])).toEqual([

@@ -41,11 +41,11 @@ const placementBody = (over: Record<string, unknown> = {}) => ({
 });
 
 /** Positions the scenario tests below use on Lucía Ferraz; the matrix leaves them free. */
-const SCENARIO_POSITIONS = [36, 46, 47];
+const SCENARIO_POSITIONS = new Set([36, 46, 47]);
 /** Free permanent positions of a patient, handed out one per call. */
 async function freePositions(pid: string) {
   const taken = new Set((await ctx.db.select({ fdi: implantSites.fdi }).from(implantSites).where(eq(implantSites.patientId, pid))).map((s) => s.fdi));
-  const free = [1, 2, 3, 4].flatMap((q) => [1, 2, 3, 4, 5, 6, 7, 8].map((t) => q * 10 + t)).filter((f) => !taken.has(f) && !SCENARIO_POSITIONS.includes(f));
+  const free = [1, 2, 3, 4].flatMap((q) => [1, 2, 3, 4, 5, 6, 7, 8].map((t) => q * 10 + t)).filter((f) => !taken.has(f) && !SCENARIO_POSITIONS.has(f));
   return () => {
     const next = free.shift();
     if (next === undefined) throw new Error('no free position left');
@@ -63,7 +63,7 @@ async function freshSite(pid: string, fdi: number) {
 }
 /** A fresh site of Lucía Ferraz (shared with the surgeon) with a placement recorded on it. */
 async function freshPlacement(by: AccountKey = 'dentist') {
-  const site = await freshSite(ids.lucia!, luciaFdi());
+  const site = await freshSite(ids.lucia, luciaFdi());
   const res = await ctx.http.post(`/api/sites/${site}/placements`).set('Cookie', cookies[by]).send(placementBody());
   if (res.status !== 201) throw new Error(`fixture placement failed: ${JSON.stringify(res.body)}`);
   return { siteId: site, id: res.body.id as string };
@@ -80,7 +80,7 @@ beforeAll(async () => {
   ids.scn35 = await platformId(ctx.db, larkspur, 'Solvra CN 3.5');
   scn35 = await parts(ctx.db, larkspur, 'Solvra CN 3.5');
   const [quarry] = await ctx.db.select({ id: practices.id }).from(practices).where(eq(practices.name, 'Quarry Hill Dental'));
-  ids.quarryPlatform = (await ctx.db.select({ id: platforms.id }).from(platforms).where(eq(platforms.practiceId, quarry!.id)))[0]!.id;
+  ids.quarryPlatform = (await ctx.db.select({ id: platforms.id }).from(platforms).where(eq(platforms.practiceId, quarry.id)))[0].id;
   luciaFdi = await freePositions(ids.lucia);
   okaforFdi = await freePositions(ids.okafor);
   ids.okaforPlanned = await freshSite(ids.okafor, okaforFdi());
@@ -100,8 +100,8 @@ const matrix: RoleCase[] = [
   { route: 'POST /api/patients/:id/sites (shared)', method: 'post', path: () => `/api/patients/${ids.harold}/sites`, body: () => ({ fdi: 31 }), expect: all(403, { dentist: 201, otherPracticeDentist: 404 }) },
   { route: 'GET /api/sites/:id/placement-options (shared)', method: 'get', path: () => `/api/sites/${ids.lucia24}/placement-options`, expect: placementWrites(200) },
   { route: 'GET /api/sites/:id/placement-options (not shared)', method: 'get', path: () => `/api/sites/${ids.okaforPlanned}/placement-options`, expect: notShared(200) },
-  { route: 'POST /api/sites/:id/placements (shared)', method: 'post', path: async () => `/api/sites/${await freshSite(ids.lucia!, luciaFdi())}/placements`, body: placementBody, expect: placementWrites(201) },
-  { route: 'POST /api/sites/:id/placements (not shared)', method: 'post', path: async () => `/api/sites/${await freshSite(ids.okafor!, okaforFdi())}/placements`, body: placementBody, expect: notShared(201) },
+  { route: 'POST /api/sites/:id/placements (shared)', method: 'post', path: async () => `/api/sites/${await freshSite(ids.lucia, luciaFdi())}/placements`, body: placementBody, expect: placementWrites(201) },
+  { route: 'POST /api/sites/:id/placements (not shared)', method: 'post', path: async () => `/api/sites/${await freshSite(ids.okafor, okaforFdi())}/placements`, body: placementBody, expect: notShared(201) },
   { route: 'POST /api/sites/:id/placements (no such site)', method: 'post', path: () => '/api/sites/00000000-0000-4000-8000-000000000000/placements', body: placementBody, expect: all(404, { hygienist: 403, practice_admin: 403 }) },
   { route: 'POST /api/placements/:id/amendments (shared)', method: 'post', path: async () => `/api/placements/${(await freshPlacement()).id}/amendments`, body: () => ({ ...placementBody({ lengthMm: 13 }), closureComponentId: undefined, closureLot: undefined, amendmentReason: 'Length misread from the box' }), expect: placementWrites(201) },
 ];
@@ -140,7 +140,7 @@ describe('adding a planned site', () => {
 describe('planning again where a site failed', () => {
   it('adds a planned site at a position whose earlier site failed; both stay in the record', async () => {
     const larkspur = await larkspurId(ctx.db);
-    await ctx.db.insert(implantSites).values({ practiceId: larkspur, patientId: ids.lucia!, fdi: 46, status: 'failed' });
+    await ctx.db.insert(implantSites).values({ practiceId: larkspur, patientId: ids.lucia, fdi: 46, status: 'failed' });
     const res = await ctx.http.post(`/api/patients/${ids.lucia}/sites`).set('Cookie', cookies.dentist).send({ fdi: 46 });
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     const arch = await ctx.http.get(`/api/patients/${ids.lucia}`).set('Cookie', cookies.dentist);
@@ -151,14 +151,14 @@ describe('planning again where a site failed', () => {
 
   it('saves one of two simultaneous requests for the same position (the unique index), the other is 409', async () => {
     const send = () => ctx.http.post(`/api/patients/${ids.lucia}/sites`).set('Cookie', cookies.dentist).send({ fdi: 47 });
-    const statuses = (await Promise.all([send(), send()])).map((r) => r.status).sort();
+    const statuses = (await Promise.all([send(), send()])).map((r) => r.status).sort((a, b) => a - b);
     expect(statuses).toEqual([201, 409]);
   });
 });
 
 async function expectNothingSaved(site: string) {
   const [row] = await ctx.db.select({ status: implantSites.status }).from(implantSites).where(eq(implantSites.id, site));
-  expect(row!.status).toBe('planned');
+  expect(row.status).toBe('planned');
   expect(await ctx.db.select({ id: placements.id }).from(placements).where(eq(placements.siteId, site))).toEqual([]);
 }
 
@@ -197,7 +197,7 @@ describe('recording a placement of a planned site', () => {
     const res = await ctx.http.post(`/api/sites/${ids.luciaPlanned}/placements`).set('Cookie', cookies.surgeon).send(body);
     expect(res.status, JSON.stringify(res.body)).toBe(400);
     expect(res.body.fields[field], JSON.stringify(res.body.fields)).toBeTruthy();
-    await expectNothingSaved(ids.luciaPlanned!);
+    await expectNothingSaved(ids.luciaPlanned);
   });
 
   it('names the check digit and the expiry in readable messages', async () => {
@@ -240,8 +240,9 @@ describe('recording a placement of a planned site', () => {
   });
 
   it('reads a raw scan (]d2, GS after the lot, serial last) and accepts the same typed lot', async () => {
-    const site = await freshSite(ids.lucia!, luciaFdi());
-    const raw = `]d201${GTIN}17281231` + `10SCN3511-26X${GS}21SN0042\r\n`;
+    const site = await freshSite(ids.lucia, luciaFdi());
+    // AI 01 GTIN, AI 17 expiry 281231, AI 10 lot (GS-terminated), AI 21 serial.
+    const raw = `]d201${GTIN}1728123110SCN3511-26X${GS}21SN0042\r\n`;
     const res = await ctx.http.post(`/api/sites/${site}/placements`).set('Cookie', cookies.surgeon).send(placementBody({ udi: raw, lot: 'SCN3511-26X', closureComponentId: scn35('CS'), closureLot: 'CS-2611-01' }));
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     expect(res.body).toMatchObject({ lot: 'SCN3511-26X', udi: raw });
@@ -250,7 +251,7 @@ describe('recording a placement of a planned site', () => {
   });
 
   it('refuses a raw scan with a wrong check digit as 400 on udi', async () => {
-    const site = await freshSite(ids.lucia!, luciaFdi());
+    const site = await freshSite(ids.lucia, luciaFdi());
     const res = await ctx.http.post(`/api/sites/${site}/placements`).set('Cookie', cookies.surgeon).send(placementBody({ udi: `]d201${BAD_GTIN}10LOT1${GS}21S1` }));
     expect(res.status).toBe(400);
     expect(res.body.fields.udi).toMatch(/check digit/);
@@ -285,7 +286,7 @@ describe('amending a placement', () => {
     const res = await ctx.http.post(`/api/placements/${placement}/amendments`).set('Cookie', cookies.surgeon).send(amendment());
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     expect(res.body).toMatchObject({ supersedesId: placement, amendmentReason: 'Length and lot misread from the box', lengthMm: 13, lot: 'SCN3513-26X' });
-    expect(res.body.surgeonName).toBe(before!.surgeonName);
+    expect(res.body.surgeonName).toBe(before.surgeonName);
     const [after] = await ctx.db.select().from(placements).where(eq(placements.id, placement));
     expect(after).toEqual(before);
 

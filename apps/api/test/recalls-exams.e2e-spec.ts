@@ -16,7 +16,7 @@ const ids: Record<string, string> = {};
 let today: string;
 
 const POSITIONS = ['mesiobuccal', 'buccal', 'distobuccal', 'mesiolingual', 'lingual', 'distolingual'] as const;
-const sites = (depths: number[], bop: number[] = []) => POSITIONS.map((position, i) => ({ position, probingDepthMm: depths[i]!, bleeding: bop.includes(i), suppuration: false }));
+const sites = (depths: number[], bop: number[] = []) => POSITIONS.map((position, i) => ({ position, probingDepthMm: depths[i], bleeding: bop.includes(i), suppuration: false }));
 const healthyExam = (site: string) => ({ siteId: site, sites: sites([3, 3, 3, 3, 3, 3]), mobility: false, plaqueIndex: 0, bleedingIndex: 0 });
 
 beforeAll(async () => {
@@ -53,7 +53,7 @@ describe('role matrix of the recall routes', () => {
     { route: 'GET /api/recalls/policy', path: () => '/api/recalls/policy', expect: all(200, { surgeon: 403 }) },
     { route: 'GET /api/recalls/reminders', path: () => '/api/recalls/reminders', expect: all(403, { practice_admin: 200 }) },
     // Only the hygienist records exams; the guard refuses every other role before the record is looked up.
-    { route: 'POST /api/recalls/visits', method: 'post', path: () => '/api/recalls/visits', body: () => ({ patientId: ids.ferraz, examinedOn: today, exams: [healthyExam(ids.ferraz14!)] }), expect: all(403, { hygienist: 201 }) },
+    { route: 'POST /api/recalls/visits', method: 'post', path: () => '/api/recalls/visits', body: () => ({ patientId: ids.ferraz, examinedOn: today, exams: [healthyExam(ids.ferraz14)] }), expect: all(403, { hygienist: 201 }) },
     // Practice admin only. The policy sent is the default one, so no other test sees a change.
     { route: 'PUT /api/recalls/policy', method: 'put', path: () => '/api/recalls/policy', body: () => ({ baseMonths: 6, riskMonths: 3, reminderDaysBefore: 14, overdueReminderDaysAfter: 7 }), expect: all(403, { practice_admin: 200 }) },
     { route: 'POST /api/recalls/reminders/run', method: 'post', path: () => '/api/recalls/reminders/run', body: () => ({ today: '2000-01-01' }), expect: all(403, { practice_admin: 200 }) },
@@ -128,7 +128,7 @@ describe('recording a visit', () => {
     { name: 'an exam dated in the future', body: () => ({ patientId: ids.ferraz, examinedOn: '2999-01-01', exams: [healthyExam(ids.ferraz14)] }), field: 'examinedOn' },
   ];
   it.each(bad)('refuses $name with 400 naming the field, and saves nothing', async ({ body, field }) => {
-    const count = async () => (await ctx.db.select({ n: sql<number>`count(*)::int` }).from(recallExams))[0]!.n;
+    const count = async () => (await ctx.db.select({ n: sql<number>`count(*)::int` }).from(recallExams))[0].n;
     const before = await count();
     const res = await ctx.http.post('/api/recalls/visits').set('Cookie', cookies.hygienist).send(body());
     expect(res.status).toBe(400);
@@ -203,7 +203,7 @@ describe('the Recall desk', () => {
     const byName = (await desk({ sort: 'name', dir: 'desc' })).items.map((r) => r.chartNumber);
     expect(byName).toEqual([...names].reverse());
     const overdue = (await desk({ sort: 'overdueDays', dir: 'desc' })).items;
-    expect(overdue[0]!.chartNumber).toBe('LL-1002');
+    expect(overdue[0].chartNumber).toBe('LL-1002');
     const lastExam = (await desk({ sort: 'lastExamOn', dir: 'desc' })).items as unknown as { lastExamOn: string | null }[];
     const dates = lastExam.map((r) => r.lastExamOn).filter(Boolean) as string[];
     expect(dates).toEqual([...dates].sort().reverse());

@@ -62,7 +62,7 @@ describe('a reminder while SMTP is down', () => {
       `select state, retry_count from pgboss.job where name = 'recall-reminder-send' and singleton_key = '${failed.idempotencyKey}'`,
     );
     expect(jobs.rows.length).toBe(1);
-    expect(jobs.rows[0]!.retry_count).toBeGreaterThanOrEqual(1);
+    expect(jobs.rows[0].retry_count).toBeGreaterThanOrEqual(1);
 
     // SMTP "comes back": this instance stops; another with the good SMTP port takes the queue over.
     await down.close();
@@ -75,7 +75,7 @@ describe('a reminder while SMTP is down', () => {
     expect(sent.attempts).toBeGreaterThanOrEqual(3);
     const mail = await until(async () => ((await caughtFor(sent.id)).length > 0 ? caughtFor(sent.id) : undefined), 10_000);
     expect(mail).toHaveLength(1);
-    expect(mail[0]!.text).toContain(dueOn);
+    expect(mail[0].text).toContain(dueOn);
     expect(await row()).toHaveLength(1);
 
     // Retrying the delivered key does nothing.

@@ -40,11 +40,11 @@ describe('the daily reminder scan', () => {
     const messages = await until(async () => ((await caughtFor(row.id)).length > 0 ? caughtFor(row.id) : undefined), 10_000);
     expect(messages).toHaveLength(1);
     const [mail] = messages;
-    expect(mail!.envelopeTo).toEqual(['harold.whitcombe@mail.example']);
+    expect(mail.envelopeTo).toEqual(['harold.whitcombe@mail.example']);
     const long = new Date(`${dueOn}T00:00:00Z`).toLocaleDateString('en-GB', { day: 'numeric', month: 'long', year: 'numeric', timeZone: 'UTC' });
-    expect(mail!.subject).toBe(`Your implant maintenance visit is due on ${long}`);
-    expect(mail!.text).toContain(dueOn);
-    expect(mail!.headers['x-torquetrail-reminder-key']).toBe(`recall-reminder:${harold}:${dueOn}:upcoming`);
+    expect(mail.subject).toBe(`Your implant maintenance visit is due on ${long}`);
+    expect(mail.text).toContain(dueOn);
+    expect(mail.headers['x-torquetrail-reminder-key']).toBe(`recall-reminder:${harold}:${dueOn}:upcoming`);
     const log = await ctx.http.get('/api/recalls/reminders').set('Cookie', admin);
     expect(log.body.items.some((i: { chartNumber: string; recallDueOn: string }) => i.chartNumber === 'LL-1001' && i.recallDueOn === dueOn)).toBe(true);
 

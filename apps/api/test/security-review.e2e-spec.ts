@@ -25,7 +25,7 @@ const wendellPlan = (over: { screw?: string; coping?: string; sites?: string[] }
   retention: 'screw-to-implant',
   material: 'zirconia',
   copingsSplinted: true,
-  sites: (over.sites ?? [ids.wendell15!, ids.wendell16!]).map((s) => ({
+  sites: (over.sites ?? [ids.wendell15, ids.wendell16]).map((s) => ({
     siteId: s,
     interface: 'non-engaging',
     impressionCoping: 'non-engaging',
@@ -42,7 +42,7 @@ async function freshPlan(): Promise<string> {
 
 async function componentOf(practiceId: string, kind: string): Promise<string> {
   const [row] = await ctx.db.select({ id: components.id }).from(components).where(and(eq(components.practiceId, practiceId), eq(components.kind, kind as never)));
-  return row!.id;
+  return row.id;
 }
 
 beforeAll(async () => {
@@ -51,9 +51,9 @@ beforeAll(async () => {
   const larkspur = await larkspurId(ctx.db);
   const [quarry] = await ctx.db.select({ id: practices.id }).from(practices).where(eq(practices.name, 'Quarry Hill Dental'));
   ids.larkspur = larkspur;
-  ids.quarry = quarry!.id;
+  ids.quarry = quarry.id;
   tex = await parts(ctx.db, larkspur, 'Tessely EX 4.1');
-  quarryMhx = await parts(ctx.db, quarry!.id, 'Miravik HX 4.1');
+  quarryMhx = await parts(ctx.db, quarry.id, 'Miravik HX 4.1');
   larkspurMhx = await parts(ctx.db, larkspur, 'Miravik HX 4.1');
   ids.harold = await patientId(ctx.db, 'LL-1001');
   ids.okafor = await patientId(ctx.db, 'LL-1003');
@@ -75,18 +75,18 @@ beforeAll(async () => {
         .from(componentInstances)
         .innerJoin(components, eq(components.id, componentInstances.componentId))
         .where(and(eq(componentInstances.siteId, site), isNull(componentInstances.removedOn), eq(components.kind, 'abutment-screw')))
-    )[0]!.id;
+    )[0].id;
   ids.okaforScrew = await screwAt(ids.okafor46);
   ids.ferrazScrew = await screwAt(ids.ferraz14);
-  ids.larkspurWrench = (await ctx.db.select({ id: torqueWrenches.id }).from(torqueWrenches).where(eq(torqueWrenches.practiceId, larkspur)))[0]!.id;
-  ids.quarryWrench = (await ctx.db.select({ id: torqueWrenches.id }).from(torqueWrenches).where(eq(torqueWrenches.practiceId, quarry!.id)))[0]!.id;
-  ids.quarryScrewPart = await componentOf(quarry!.id, 'abutment-screw');
+  ids.larkspurWrench = (await ctx.db.select({ id: torqueWrenches.id }).from(torqueWrenches).where(eq(torqueWrenches.practiceId, larkspur)))[0].id;
+  ids.quarryWrench = (await ctx.db.select({ id: torqueWrenches.id }).from(torqueWrenches).where(eq(torqueWrenches.practiceId, quarry.id)))[0].id;
+  ids.quarryScrewPart = await componentOf(quarry.id, 'abutment-screw');
   // A part in place at Quarry Hill's QH-2001 36 (the demo has placements there but no parts yet).
   const [qhPart] = await ctx.db
     .insert(componentInstances)
-    .values({ practiceId: quarry!.id, patientId: ids.qh1, siteId: ids.qh36, componentId: quarryMhx('AS'), lot: 'AS-QH-1', installedOn: '2022-08-01' })
+    .values({ practiceId: quarry.id, patientId: ids.qh1, siteId: ids.qh36, componentId: quarryMhx('AS'), lot: 'AS-QH-1', installedOn: '2022-08-01' })
     .returning({ id: componentInstances.id });
-  ids.qhInstance = qhPart!.id;
+  ids.qhInstance = qhPart.id;
 });
 afterAll(() => ctx.close());
 
@@ -116,7 +116,7 @@ describe('practice isolation through ids in request bodies', () => {
 
   it('POST /restorations: a site of another practice, or of another patient, is not a site of this patient (400)', async () => {
     for (const foreign of [ids.qh36, ids.harold35]) {
-      const res = await ctx.http.post('/api/restorations').set('Cookie', cookies.dentist).send(wendellPlan({ sites: [ids.wendell15!, foreign!] }));
+      const res = await ctx.http.post('/api/restorations').set('Cookie', cookies.dentist).send(wendellPlan({ sites: [ids.wendell15, foreign] }));
       expect(res.status).toBe(400);
       expect(res.body.fields['sites.1.siteId']).toMatch(/Not an implant site of this patient/);
     }
@@ -229,8 +229,8 @@ describe('practice isolation through ids in request bodies', () => {
   });
 
   it('catalogue: a platform under another practice’s system, or a part under its platform, answers 404', async () => {
-    const [qhPlacement] = await ctx.db.select({ platformId: placements.platformId }).from(placements).where(eq(placements.siteId, ids.qh36!));
-    const qhPlatform = qhPlacement!.platformId;
+    const [qhPlacement] = await ctx.db.select({ platformId: placements.platformId }).from(placements).where(eq(placements.siteId, ids.qh36));
+    const qhPlatform = qhPlacement.platformId;
     const qhSystemId = (await ctx.http.get('/api/catalogue').set('Cookie', cookies.otherPracticeDentist)).body.systems[0].id as string;
     const platform = await ctx.http
       .post('/api/catalogue/platforms')
@@ -247,19 +247,19 @@ describe('practice isolation through ids in request bodies', () => {
     const patchPlatform = await ctx.http.patch(`/api/catalogue/platforms/${qhPlatform}`).set('Cookie', cookies.practice_admin).send({ diameterMm: 9 });
     expect(patchPlatform.status).toBe(404);
     const [unchanged] = await ctx.db.select({ torqueSpecNcm: components.torqueSpecNcm }).from(components).where(eq(components.id, ids.quarryScrewPart));
-    expect(unchanged!.torqueSpecNcm).toBe(30);
+    expect(unchanged.torqueSpecNcm).toBe(30);
     // Each practice's catalogue lists only its own rows.
     const own = await ctx.http.get('/api/catalogue').set('Cookie', cookies.dentist);
     const platformIds = own.body.systems.flatMap((s: { platforms: { id: string }[] }) => s.platforms.map((p) => p.id));
     expect(platformIds).not.toContain(qhPlatform);
-    expect(platformIds).toContain(await platformId(ctx.db, ids.larkspur!, 'Miravik HX 4.1'));
+    expect(platformIds).toContain(await platformId(ctx.db, ids.larkspur, 'Miravik HX 4.1'));
   });
 
   it('POST /recalls/visits: another practice’s patient is 404; a foreign or other patient’s site in the body is 400', async () => {
-    const foreignPatient = await ctx.http.post('/api/recalls/visits').set('Cookie', cookies.hygienist).send({ patientId: ids.qh1, examinedOn: '2025-01-01', exams: [healthyExam(ids.qh36!)] });
+    const foreignPatient = await ctx.http.post('/api/recalls/visits').set('Cookie', cookies.hygienist).send({ patientId: ids.qh1, examinedOn: '2025-01-01', exams: [healthyExam(ids.qh36)] });
     expect(foreignPatient.status).toBe(404);
     for (const site of [ids.qh36, ids.harold35]) {
-      const res = await ctx.http.post('/api/recalls/visits').set('Cookie', cookies.hygienist).send({ patientId: ids.ferraz, examinedOn: '2025-01-01', exams: [healthyExam(ids.ferraz14!), healthyExam(site!)] });
+      const res = await ctx.http.post('/api/recalls/visits').set('Cookie', cookies.hygienist).send({ patientId: ids.ferraz, examinedOn: '2025-01-01', exams: [healthyExam(ids.ferraz14), healthyExam(site)] });
       expect(res.status).toBe(400);
       expect(res.body.fields['exams.1.siteId']).toMatch(/not an implant site of this patient/);
     }
@@ -318,7 +318,7 @@ describe('share scope of the Northgate surgeon', () => {
   it('a revoked share closes the patient at once, desk included', async () => {
     const surgeon = await signIn(ctx, 'surgeon');
     expect((await ctx.http.get(`/api/sites/${ids.ferraz14}/timeline`).set('Cookie', surgeon)).status).toBe(200);
-    await ctx.db.update(patientShares).set({ revokedAt: new Date() }).where(eq(patientShares.patientId, ids.ferraz!));
+    await ctx.db.update(patientShares).set({ revokedAt: new Date() }).where(eq(patientShares.patientId, ids.ferraz));
     try {
       expect((await ctx.http.get(`/api/patients/${ids.ferraz}`).set('Cookie', surgeon)).status).toBe(404);
       expect((await ctx.http.get(`/api/sites/${ids.ferraz14}/timeline`).set('Cookie', surgeon)).status).toBe(404);
@@ -326,7 +326,7 @@ describe('share scope of the Northgate surgeon', () => {
       const csv = await ctx.http.get('/api/recalls/desk/csv').set('Cookie', surgeon);
       expect(csv.text).not.toContain('LL-1004');
     } finally {
-      await ctx.db.update(patientShares).set({ revokedAt: null }).where(eq(patientShares.patientId, ids.ferraz!));
+      await ctx.db.update(patientShares).set({ revokedAt: null }).where(eq(patientShares.patientId, ids.ferraz));
     }
   });
 
@@ -335,7 +335,7 @@ describe('share scope of the Northgate surgeon', () => {
     const [ines] = await ctx.db.select({ id: users.id }).from(users).where(eq(users.email, ACCOUNTS.dentist));
     const [share] = await ctx.db
       .insert(patientShares)
-      .values({ practiceId: ids.larkspur!, patientId: ids.okafor!, sharedWithUserId: nell!.id, sharedByUserId: ines!.id })
+      .values({ practiceId: ids.larkspur, patientId: ids.okafor, sharedWithUserId: nell.id, sharedByUserId: ines.id })
       .returning({ id: patientShares.id });
     try {
       const qh = await signIn(ctx, 'otherPracticeDentist');
@@ -349,7 +349,7 @@ describe('share scope of the Northgate surgeon', () => {
       expect((await ctx.http.get(`/api/patients/${ids.okafor}`).set('Cookie', qh)).status).toBe(404);
       expect((await ctx.http.get(`/api/sites/${ids.okafor46}/timeline`).set('Cookie', qh)).status).toBe(404);
     } finally {
-      await ctx.db.update(patientShares).set({ revokedAt: new Date() }).where(eq(patientShares.id, share!.id));
+      await ctx.db.update(patientShares).set({ revokedAt: new Date() }).where(eq(patientShares.id, share.id));
     }
   });
 
@@ -359,7 +359,7 @@ describe('share scope of the Northgate surgeon', () => {
     expect(torque.status).toBe(403);
     const complication = await ctx.http.post('/api/complications').set('Cookie', cookies.surgeon).send({ siteId: ids.ferraz14, kind: 'other', occurredOn: '2025-01-01' });
     expect(complication.status).toBe(403);
-    const visit = await ctx.http.post('/api/recalls/visits').set('Cookie', cookies.surgeon).send({ patientId: ids.ferraz, examinedOn: '2025-01-01', exams: [healthyExam(ids.ferraz14!)] });
+    const visit = await ctx.http.post('/api/recalls/visits').set('Cookie', cookies.surgeon).send({ patientId: ids.ferraz, examinedOn: '2025-01-01', exams: [healthyExam(ids.ferraz14)] });
     expect(visit.status).toBe(403);
   });
 });
@@ -388,7 +388,7 @@ describe('role rules', () => {
       expect(res.status, who).toBe(403);
     }
     for (const who of ['dentist', 'surgeon', 'practice_admin'] as const) {
-      const res = await ctx.http.post('/api/recalls/visits').set('Cookie', cookies[who]).send({ patientId: ids.ferraz, examinedOn: '2025-01-01', exams: [healthyExam(ids.ferraz14!)] });
+      const res = await ctx.http.post('/api/recalls/visits').set('Cookie', cookies[who]).send({ patientId: ids.ferraz, examinedOn: '2025-01-01', exams: [healthyExam(ids.ferraz14)] });
       expect(res.status, who).toBe(403);
     }
     for (const who of ['dentist', 'hygienist', 'surgeon'] as const) {
@@ -399,7 +399,7 @@ describe('role rules', () => {
 });
 
 describe('history is never forked or doubled by concurrent saves', () => {
-  const statuses = (replies: { status: number }[]) => replies.map((r) => r.status).sort();
+  const statuses = (replies: { status: number }[]) => replies.map((r) => r.status).sort((a, b) => a - b);
 
   it('POST /restorations/:id/delivery: of concurrent deliveries of one plan only one goes through (409 for the rest)', async () => {
     const id = await freshPlan();
@@ -426,7 +426,7 @@ describe('history is never forked or doubled by concurrent saves', () => {
       ctx.http.post(`/api/restorations/${id}/amendments`).set('Cookie', cookies.dentist).send({ ...rest, amendmentReason: 'Shade' }),
       ctx.http.post(`/api/restorations/${id}/delivery`).set('Cookie', cookies.dentist).send({ deliveredOn: '2026-11-30', parts: [{ siteId: ids.wendell15, componentId: tex('PSI'), lot: 'PSI-2' }] }),
     ]);
-    expect([amend!.status, deliver!.status].filter((s) => s === 409)).toHaveLength(1);
+    expect([amend.status, deliver.status].filter((s) => s === 409)).toHaveLength(1);
   });
 
   it('POST /torque-events/:id/amendments and POST /complications/:id/amendments: one amendment per version under concurrency', async () => {
@@ -450,10 +450,10 @@ describe('history is never forked or doubled by concurrent saves', () => {
   });
 
   it('POST /recalls/exams/:id/amend: one amendment per exam under concurrency', async () => {
-    const visit = await ctx.http.post('/api/recalls/visits').set('Cookie', cookies.hygienist).send({ patientId: ids.ferraz, examinedOn: '2025-01-02', exams: [healthyExam(ids.ferraz14!)] });
+    const visit = await ctx.http.post('/api/recalls/visits').set('Cookie', cookies.hygienist).send({ patientId: ids.ferraz, examinedOn: '2025-01-02', exams: [healthyExam(ids.ferraz14)] });
     expect(visit.status).toBe(201);
     const examId = visit.body.exams[0].id as string;
-    const { siteId: _s, ...exam } = healthyExam(ids.ferraz14!);
+    const { siteId: _s, ...exam } = healthyExam(ids.ferraz14);
     const replies = await Promise.all([1, 2, 3, 4].map(() => ctx.http.post(`/api/recalls/exams/${examId}/amend`).set('Cookie', cookies.hygienist).send({ ...exam, amendmentReason: 'Probe misread' })));
     expect(statuses(replies)).toEqual([201, 409, 409, 409]);
     expect(await ctx.db.select({ id: recallExams.id }).from(recallExams).where(eq(recallExams.supersedesId, examId))).toHaveLength(1);
@@ -463,7 +463,7 @@ describe('history is never forked or doubled by concurrent saves', () => {
 describe('implant axes are bounded', () => {
   it('refuses an axis component beyond ±1000 in a plan, naming the field', async () => {
     const plan = wendellPlan();
-    plan.sites[0] = { ...plan.sites[0]!, axis: [1e308, 0, 1] } as (typeof plan.sites)[number];
+    plan.sites[0] = { ...plan.sites[0], axis: [1e308, 0, 1] } as (typeof plan.sites)[number];
     const res = await ctx.http.post('/api/restorations').set('Cookie', cookies.dentist).send(plan);
     expect(res.status).toBe(400);
     expect(res.body.fields['sites.0.axis.0']).toMatch(/between −1000 and 1000/);
@@ -474,11 +474,11 @@ describe('CSV and input hygiene', () => {
   it('Recall desk CSV neutralises cells that a spreadsheet would run as a formula', async () => {
     const [p] = await ctx.db
       .insert(patients)
-      .values({ practiceId: ids.larkspur!, chartNumber: '+LL-9001', givenName: '=HYPERLINK("http://evil.example","x")', familyName: 'Tester', birthDate: '1970-01-01' })
+      .values({ practiceId: ids.larkspur, chartNumber: '+LL-9001', givenName: '=HYPERLINK("http://evil.example","x")', familyName: 'Tester', birthDate: '1970-01-01' })
       .returning({ id: patients.id });
-    await ctx.db.insert(implantSites).values({ practiceId: ids.larkspur!, patientId: p!.id, fdi: 21, status: 'placed' });
-    const [q] = await ctx.db.insert(patients).values({ practiceId: ids.larkspur!, chartNumber: '@LL-9002', givenName: '-2+3', familyName: 'Minus', birthDate: '1970-01-01' }).returning({ id: patients.id });
-    await ctx.db.insert(implantSites).values({ practiceId: ids.larkspur!, patientId: q!.id, fdi: 22, status: 'placed' });
+    await ctx.db.insert(implantSites).values({ practiceId: ids.larkspur, patientId: p.id, fdi: 21, status: 'placed' });
+    const [q] = await ctx.db.insert(patients).values({ practiceId: ids.larkspur, chartNumber: '@LL-9002', givenName: '-2+3', familyName: 'Minus', birthDate: '1970-01-01' }).returning({ id: patients.id });
+    await ctx.db.insert(implantSites).values({ practiceId: ids.larkspur, patientId: q.id, fdi: 22, status: 'placed' });
     const csv = await ctx.http.get('/api/recalls/desk/csv').set('Cookie', cookies.dentist);
     expect(csv.status).toBe(200);
     const cells = csv.text.split('\r\n').flatMap((line) => line.split(','));

@@ -67,7 +67,7 @@ describe('referring surgeon', () => {
     await page.getByLabel('Loading protocol').selectOption('conventional');
     const closure = page.getByLabel('Healing abutment or cover screw');
     const healing = await closure.locator('option', { hasText: 'Healing abutment' }).getAttribute('value');
-    await closure.selectOption(healing!);
+    await closure.selectOption(healing);
     await page.getByLabel('Lot of that part').fill('HA4-2611-03');
     await screenshot(page, 'placement-form');
     // Keyboard: Enter in a field submits the form (implicit submission through the Save button).

@@ -2,7 +2,6 @@ import {
   AbilityBuilder,
   createMongoAbility,
   type MongoAbility,
-  type MongoQuery,
 } from '@casl/ability';
 
 /** The roles of Torquetrail, in the order of the database enum. */
@@ -41,7 +40,7 @@ export interface ScopedRow {
   patientId?: string;
 }
 
-export type AppAbility = MongoAbility<[Action, Subject | (ScopedRow & { __caslSubjectType__?: string })], MongoQuery>;
+export type AppAbility = MongoAbility<[Action, Subject | (ScopedRow & { __caslSubjectType__?: string })]>;
 
 /** What the ability needs to know about the signed-in user. */
 export interface AbilityUser {

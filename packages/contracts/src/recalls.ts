@@ -74,7 +74,6 @@ export const AmendExamBody = SiteExamInput.omit({ siteId: true }).extend({
 });
 export type AmendExamBody = z.input<typeof AmendExamBody>;
 
-export const ExamSite = ExamSiteInput;
 export const RecallExam = z.object({
   id: Id,
   patientId: Id,
@@ -83,7 +82,7 @@ export const RecallExam = z.object({
   visitId: Id,
   examinedOn: IsoDate,
   examinerName: z.string(),
-  sites: z.array(ExamSite),
+  sites: z.array(ExamSiteInput),
   mobility: z.boolean(),
   plaqueIndex: z.number().int().nullable(),
   bleedingIndex: z.number().int().nullable(),

@@ -3,7 +3,6 @@ import { ledgerRoutes } from './ledger.js';
 import { recallRoutes } from './recalls.js';
 import { placementRoutes } from './placements.js';
 import { Me, SignInBody } from './auth.js';
-import { ErrorReply } from './common.js';
 import { HealthReply, LivenessReply } from './health.js';
 import { PatientDetail, PatientListQuery, PatientListReply } from './patients.js';
 import { SiteFile } from './sites.js';

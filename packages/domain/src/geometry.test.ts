@@ -39,11 +39,7 @@ describe('divergenceDeg — edge cases', () => {
     ['not an array', 'up', [0, 0, 1], 'bad-value'],
   ])('%s → ValidationError %s', (_n, a, b, code) => {
     expect(() => divergenceDeg(a as Vec3, b as Vec3)).toThrow(ValidationError);
-    try {
-      divergenceDeg(a as Vec3, b as Vec3);
-    } catch (e) {
-      expect((e as ValidationError).code).toBe(code);
-    }
+    expect(() => divergenceDeg(a as Vec3, b as Vec3)).toThrow(expect.objectContaining({ code }));
   });
 });
 

@@ -60,7 +60,7 @@ export function choosePeriImplantBaseline<E extends RecordedExam>(
   if (exam.isBaseline) return null;
   const candidates = earlier.filter((e) => e.examinedOn <= exam.examinedOn).sort(byTime);
   const marked = candidates.filter((e) => e.isBaseline);
-  const pick = marked.length > 0 ? marked[marked.length - 1]! : deliveredOn ? (candidates.find((e) => e.examinedOn >= deliveredOn) ?? null) : null;
+  const pick = marked.length > 0 ? marked[marked.length - 1] : deliveredOn ? (candidates.find((e) => e.examinedOn >= deliveredOn) ?? null) : null;
   return pick && pick.boneLevelMm !== null ? pick : null;
 }
 

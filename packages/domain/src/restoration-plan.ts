@@ -207,7 +207,7 @@ export function validateRestorationPlan(plan: RestorationPlan): Finding[] {
       findings.push({
         severity: 'error',
         code: PLAN_FINDING_CODES.INVALID_POSITION,
-        message: `${site.fdi} is not an FDI tooth position (11–18, 21–28, 31–38, 41–48).`,
+        message: `${String(site.fdi)} is not an FDI tooth position (11–18, 21–28, 31–38, 41–48).`,
         fdi: site.fdi,
         source: PLAN_SOURCES.ISO_3950,
       });

@@ -28,7 +28,7 @@ export interface TorqueLogEntry {
  * at or after the seating is logged.
  */
 export function retorqueDueAt(entries: readonly TorqueLogEntry[]): string | null {
-  const seating = entries.filter((e) => SEATING_REASONS.includes(e.reason)).at(-1);
+  const seating = [...entries].reverse().find((e) => SEATING_REASONS.includes(e.reason));
   if (!seating) return null;
   const retorqued = entries.some((e) => RETORQUE_REASONS.includes(e.reason) && e.performedAt >= seating.performedAt);
   return retorqued ? null : new Date(seating.performedAt.getTime() + RETIGHTEN_AFTER_MINUTES * 60_000).toISOString();

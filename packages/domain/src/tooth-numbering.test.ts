@@ -40,11 +40,7 @@ describe('fdiToUniversal — reference §3 check cases (HL7 ADA Universal table 
     (fdi) => {
       expect(() => fdiToUniversal(fdi)).toThrow(RangeError);
       expect(() => fdiToUniversal(fdi)).toThrow(ToothPositionError);
-      try {
-        fdiToUniversal(fdi);
-      } catch (e) {
-        expect((e as ToothPositionError).code).toBe('invalid-position');
-      }
+      expect(() => fdiToUniversal(fdi)).toThrow(expect.objectContaining({ code: 'invalid-position' }));
     },
   );
 });

@@ -1,4 +1,4 @@
-import { Body, Controller, Get, Param, ParseUUIDPipe, Patch, Post } from '@nestjs/common';
+import { Body, Controller, Get, Param, ParseUUIDPipe, Patch, Post, HttpStatus } from '@nestjs/common';
 import type { AppAbility } from '@torquetrail/authz';
 import {
   type CatalogueComponent,
@@ -24,7 +24,7 @@ import { CurrentAbility, CurrentUser } from '../common/current-user.decorator.js
 import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
 import { CatalogueService } from './catalogue.service.js';
 
-const uuid = () => new ParseUUIDPipe({ errorHttpStatusCode: 404 });
+const uuid = () => new ParseUUIDPipe({ errorHttpStatusCode: HttpStatus.NOT_FOUND });
 
 @Controller()
 export class CatalogueController {

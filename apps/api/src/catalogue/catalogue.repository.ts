@@ -34,7 +34,7 @@ export async function listComponents(db: Db, practiceId: string, platformId?: st
 }
 
 export async function findSystem(db: Db, practiceId: string, id: string) {
-  const [row] = (await listSystems(db, practiceId)).filter((s) => s.id === id);
+  const row = (await listSystems(db, practiceId)).find((s) => s.id === id);
   return row ?? null;
 }
 
@@ -57,21 +57,21 @@ export async function findComponents(db: Db, practiceId: string, ids: string[]) 
 
 export async function insertSystem(db: Db, row: typeof implantSystems.$inferInsert) {
   const [out] = await db.insert(implantSystems).values(row).returning({ id: implantSystems.id });
-  return out!.id;
+  return out.id;
 }
 export async function updateSystem(db: Db, practiceId: string, id: string, patch: Partial<typeof implantSystems.$inferInsert>) {
   if (Object.keys(patch).length > 0) await db.update(implantSystems).set(patch).where(and(eq(implantSystems.id, id), eq(implantSystems.practiceId, practiceId)));
 }
 export async function insertPlatform(db: Db, row: typeof platforms.$inferInsert) {
   const [out] = await db.insert(platforms).values(row).returning({ id: platforms.id });
-  return out!.id;
+  return out.id;
 }
 export async function updatePlatform(db: Db, practiceId: string, id: string, patch: Partial<typeof platforms.$inferInsert>) {
   if (Object.keys(patch).length > 0) await db.update(platforms).set(patch).where(and(eq(platforms.id, id), eq(platforms.practiceId, practiceId)));
 }
 export async function insertComponent(db: Db, row: typeof components.$inferInsert) {
   const [out] = await db.insert(components).values(row).returning({ id: components.id });
-  return out!.id;
+  return out.id;
 }
 export async function updateComponent(db: Db, practiceId: string, id: string, patch: Partial<typeof components.$inferInsert>) {
   if (Object.keys(patch).length > 0) await db.update(components).set(patch).where(and(eq(components.id, id), eq(components.practiceId, practiceId)));
@@ -88,7 +88,7 @@ export async function findWrench(db: Db, practiceId: string, id: string) {
 }
 export async function insertWrench(db: Db, row: typeof torqueWrenches.$inferInsert) {
   const [out] = await db.insert(torqueWrenches).values(row).returning({ id: torqueWrenches.id });
-  return out!.id;
+  return out.id;
 }
 export async function updateWrench(db: Db, practiceId: string, id: string, patch: Partial<typeof torqueWrenches.$inferInsert>) {
   if (Object.keys(patch).length > 0) await db.update(torqueWrenches).set(patch).where(and(eq(torqueWrenches.id, id), eq(torqueWrenches.practiceId, practiceId)));

@@ -70,7 +70,7 @@ export class CatalogueService {
   }
 
   private async platform(scope: Scope, id: string): Promise<CataloguePlatform> {
-    const { practiceId: _p, ...p } = (await repo.findPlatform(this.db, scope.practiceId, id))!;
+    const { practiceId: _p, ...p } = (await repo.findPlatform(this.db, scope.practiceId, id));
     return { ...p, components: (await repo.listComponents(this.db, scope.practiceId, id)).map(toComponent) };
   }
 
@@ -89,7 +89,7 @@ export class CatalogueService {
   async createComponent(ability: AppAbility, scope: Scope, body: z.output<typeof ComponentBodySchema>): Promise<CatalogueComponent> {
     assertCan(ability, 'create', 'Catalogue', await repo.findPlatform(this.db, scope.practiceId, body.platformId), 'platform');
     const id = await repo.insertComponent(this.db, { ...body, practiceId: scope.practiceId });
-    return toComponent((await repo.findComponents(this.db, scope.practiceId, [id]))[0]!);
+    return toComponent((await repo.findComponents(this.db, scope.practiceId, [id]))[0]);
   }
 
   /** Create + update only: a part recorded in a patient is never deleted, so history keeps its meaning. */
@@ -97,7 +97,7 @@ export class CatalogueService {
     const [row] = await repo.findComponents(this.db, scope.practiceId, [id]);
     assertCan(ability, 'update', 'Catalogue', row, 'component');
     await repo.updateComponent(this.db, scope.practiceId, id, patch);
-    return toComponent((await repo.findComponents(this.db, scope.practiceId, [id]))[0]!);
+    return toComponent((await repo.findComponents(this.db, scope.practiceId, [id]))[0]);
   }
 
   async wrenches(scope: Scope): Promise<WrenchListReply> {
@@ -107,13 +107,13 @@ export class CatalogueService {
   async createWrench(ability: AppAbility, scope: Scope, body: z.output<typeof WrenchBody>): Promise<Wrench> {
     assertCan(ability, 'create', 'Wrench', { practiceId: scope.practiceId }, 'wrench');
     const id = await repo.insertWrench(this.db, { ...body, practiceId: scope.practiceId });
-    return toWrench((await repo.findWrench(this.db, scope.practiceId, id))!);
+    return toWrench((await repo.findWrench(this.db, scope.practiceId, id)));
   }
 
   async updateWrench(ability: AppAbility, scope: Scope, id: string, patch: WrenchPatch): Promise<Wrench> {
     assertCan(ability, 'update', 'Wrench', await repo.findWrench(this.db, scope.practiceId, id), 'wrench');
     await repo.updateWrench(this.db, scope.practiceId, id, patch);
-    return toWrench((await repo.findWrench(this.db, scope.practiceId, id))!);
+    return toWrench((await repo.findWrench(this.db, scope.practiceId, id)));
   }
 }
 

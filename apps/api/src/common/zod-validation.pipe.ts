@@ -2,7 +2,7 @@ import { BadRequestException, type PipeTransform } from '@nestjs/common';
 import type { z } from 'zod';
 
 /** Field path → message, for the web to show beside each field. */
-export function fieldErrors(error: z.ZodError): Record<string, string> {
+function fieldErrors(error: z.ZodError): Record<string, string> {
   const fields: Record<string, string> = {};
   for (const issue of error.issues) {
     const key = issue.path.length > 0 ? issue.path.join('.') : '(body)';

@@ -1,4 +1,4 @@
-import { Body, Controller, Param, ParseUUIDPipe, Post } from '@nestjs/common';
+import { Body, Controller, Param, ParseUUIDPipe, Post, HttpStatus } from '@nestjs/common';
 import type { AppAbility } from '@torquetrail/authz';
 import { type Complication, ComplicationAmendmentBody, ComplicationBody } from '@torquetrail/contracts';
 import type { z } from 'zod';
@@ -24,7 +24,7 @@ export class ComplicationsController {
   amend(
     @CurrentUser() user: SessionUser,
     @CurrentAbility() ability: AppAbility,
-    @Param('id', new ParseUUIDPipe({ errorHttpStatusCode: 404 })) id: string,
+    @Param('id', new ParseUUIDPipe({ errorHttpStatusCode: HttpStatus.NOT_FOUND })) id: string,
     @Body(new ZodValidationPipe(ComplicationAmendmentBody)) body: z.output<typeof ComplicationAmendmentBody>,
   ): Promise<Complication> {
     return this.complications.amend(ability, user, scopeOf(user), id, body);

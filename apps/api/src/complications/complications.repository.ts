@@ -25,7 +25,7 @@ type ComplicationValues = typeof complications.$inferInsert;
 
 export async function insertComplication(db: Db, v: ComplicationValues) {
   const [row] = await db.insert(complications).values(v).returning({ id: complications.id });
-  return row!.id;
+  return row.id;
 }
 
 /** A new version of a complication; a second amendment of one version is refused by the database. */
@@ -63,5 +63,5 @@ export async function loadComplication(db: Db, id: string) {
     .from(complications)
     .leftJoin(users, eq(users.id, complications.recordedBy))
     .where(eq(complications.id, id));
-  return row!;
+  return row;
 }

@@ -27,7 +27,7 @@ export class ComplicationsService {
     assertCan(ability, 'create', 'Complication', site ? { practiceId: site.practiceId, patientId: site.patientId } : null, 'implant site');
     this.checkDate(body.occurredOn);
     await this.checkPart(body.siteId, body.componentInstanceId);
-    const id = await repo.insertComplication(this.db, { practiceId: site!.practiceId, patientId: site!.patientId, siteId: site!.id, componentInstanceId: body.componentInstanceId, kind: body.kind, occurredOn: body.occurredOn, notes: body.notes, recordedBy: user.id });
+    const id = await repo.insertComplication(this.db, { practiceId: site.practiceId, patientId: site.patientId, siteId: site.id, componentInstanceId: body.componentInstanceId, kind: body.kind, occurredOn: body.occurredOn, notes: body.notes, recordedBy: user.id });
     return repo.loadComplication(this.db, id);
   }
 

@@ -32,5 +32,5 @@ type Superseding = PgTable & { id: AnyPgColumn; supersedesId: AnyPgColumn };
  */
 export async function insertAmendment<T extends Superseding>(db: Db, table: T, values: PgInsertValue<T> & { supersedesId: string; amendmentReason: string }): Promise<string> {
   const [row] = (await db.insert(table).values(values).returning({ id: table.id })) as { id: string }[];
-  return row!.id;
+  return row.id;
 }

@@ -33,7 +33,7 @@ const sameSet = (a: readonly string[], b: readonly string[]) => a.length === b.l
 // 'a' | 'b' | …, and ['a', 'b', …] (across lines).
 const literalUnion = /'[^'\n]+'(?:\s*\|\s*'[^'\n]+')+/g;
 const literalArray = /\[\s*'[^'\n]+'(?:\s*,\s*'[^'\n]+')+\s*,?\s*\]/g;
-const literals = (text: string) => [...text.matchAll(/'([^'\n]+)'/g)].map((m) => m[1]!);
+const literals = (text: string) => [...text.matchAll(/'([^'\n]+)'/g)].map((m) => m[1]);
 
 function copies(file: string): string[] {
   const text = fs.readFileSync(file, 'utf8');

@@ -4,7 +4,7 @@ import PDFDocument from 'pdfkit';
 import { type ComponentKind, MANUFACTURER_CAUTION, STACK_ORDER } from '@torquetrail/contracts';
 import { fdiToUniversal } from '@torquetrail/domain';
 
-export interface PrescriptionPart {
+interface PrescriptionPart {
   kind: string;
   name: string;
   referenceCode: string;
@@ -15,7 +15,7 @@ export interface PrescriptionPart {
   tray: string | null;
 }
 
-export interface PrescriptionSite {
+interface PrescriptionSite {
   fdi: number;
   systemName: string | null;
   manufacturer: string | null;

@@ -1,4 +1,4 @@
-import { Body, Controller, Get, Param, ParseUUIDPipe, Post, StreamableFile } from '@nestjs/common';
+import { Body, Controller, Get, Param, ParseUUIDPipe, Post, StreamableFile, HttpStatus } from '@nestjs/common';
 import type { AppAbility } from '@torquetrail/authz';
 import { LabPrescriptionBody, type LabPrescriptionSummary } from '@torquetrail/contracts';
 import type { z } from 'zod';
@@ -9,7 +9,7 @@ import { CurrentAbility, CurrentUser } from '../common/current-user.decorator.js
 import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
 import { LabPrescriptionsService } from './lab-prescriptions.service.js';
 
-const uuid = () => new ParseUUIDPipe({ errorHttpStatusCode: 404 });
+const uuid = () => new ParseUUIDPipe({ errorHttpStatusCode: HttpStatus.NOT_FOUND });
 
 @Controller()
 export class LabPrescriptionsController {

@@ -6,7 +6,7 @@ import { visiblePatients } from '../authz/visible-patients.js';
 
 export async function insertLabPrescription(db: Db, v: typeof labPrescriptions.$inferInsert) {
   const [row] = await db.insert(labPrescriptions).values(v).returning();
-  return row!;
+  return row;
 }
 
 export async function markEmailed(db: Db, id: string, emailedTo: string, emailedAt: Date) {

@@ -21,7 +21,7 @@ export function createLogger(level: string, destination?: DestinationStream): Lo
 /** A client's X-Request-Id is kept when it is a plain token, so a proxy's id threads through. */
 const REQUEST_ID = /^[A-Za-z0-9._-]{8,64}$/;
 
-export function requestId(req: IncomingMessage, res: ServerResponse): string {
+function requestId(req: IncomingMessage, res: ServerResponse): string {
   const given = req.headers['x-request-id'];
   const id = typeof given === 'string' && REQUEST_ID.test(given) ? given : randomUUID();
   res.setHeader('X-Request-Id', id);

@@ -39,7 +39,7 @@ export class MailService implements OnModuleDestroy {
 
   async send(mail: OutgoingMail): Promise<string> {
     const info = await this.transport.sendMail({ from: this.env.MAIL_FROM, ...mail });
-    return String(info.messageId);
+    return info.messageId;
   }
 
   onModuleDestroy(): void {

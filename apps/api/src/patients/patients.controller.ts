@@ -1,4 +1,4 @@
-import { Controller, Get, Param, ParseUUIDPipe, Query } from '@nestjs/common';
+import { Controller, Get, Param, ParseUUIDPipe, Query, HttpStatus } from '@nestjs/common';
 import type { AppAbility } from '@torquetrail/authz';
 import { type PatientDetail, PatientListQuery, type PatientListReply } from '@torquetrail/contracts';
 import type { SessionUser } from '../auth/session-user.js';
@@ -23,7 +23,7 @@ export class PatientsController {
   detail(
     @CurrentUser() user: SessionUser,
     @CurrentAbility() ability: AppAbility,
-    @Param('id', new ParseUUIDPipe({ errorHttpStatusCode: 404 })) id: string,
+    @Param('id', new ParseUUIDPipe({ errorHttpStatusCode: HttpStatus.NOT_FOUND })) id: string,
   ): Promise<PatientDetail> {
     return this.patients.detail(ability, scopeOf(user), id);
   }

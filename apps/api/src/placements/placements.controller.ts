@@ -1,4 +1,4 @@
-import { Body, Controller, Get, Param, ParseUUIDPipe, Post } from '@nestjs/common';
+import { Body, Controller, Get, Param, ParseUUIDPipe, Post, HttpStatus } from '@nestjs/common';
 import type { AppAbility } from '@torquetrail/authz';
 import { AddSiteBody, type ArchSite, PlacementAmendmentBody, PlacementBody, type PlacementOptionsReply, type PlacementRecord } from '@torquetrail/contracts';
 import type { z } from 'zod';
@@ -9,7 +9,7 @@ import { CurrentAbility, CurrentUser } from '../common/current-user.decorator.js
 import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
 import { PlacementsService } from './placements.service.js';
 
-const uuid = () => new ParseUUIDPipe({ errorHttpStatusCode: 404 });
+const uuid = () => new ParseUUIDPipe({ errorHttpStatusCode: HttpStatus.NOT_FOUND });
 
 @Controller()
 export class PlacementsController {

@@ -33,7 +33,7 @@ export async function findLiveSiteAt(db: Db, practiceId: string, patientId: stri
 
 export async function insertPlannedSite(tx: Tx, v: { practiceId: string; patientId: string; fdi: number }) {
   const [row] = await tx.insert(implantSites).values({ ...v, status: 'planned' }).returning({ id: implantSites.id, fdi: implantSites.fdi, status: implantSites.status });
-  return row!;
+  return row;
 }
 
 /** Locks a site until the transaction ends: two placements of one planned site run one after the other. */
@@ -89,7 +89,7 @@ export async function findComponentOfPlatform(db: Db, practiceId: string, platfo
 type PlacementValues = typeof placements.$inferInsert;
 export async function insertPlacement(tx: Tx, v: PlacementValues) {
   const [row] = await tx.insert(placements).values(v).returning({ id: placements.id });
-  return row!.id;
+  return row.id;
 }
 
 /** A new version of a placement; a second amendment of one version is refused by the database. */
@@ -97,7 +97,7 @@ export const insertPlacementAmendment = (db: Db, v: PlacementValues & { supersed
 
 export async function insertClosurePart(tx: Tx, v: typeof componentInstances.$inferInsert) {
   const [row] = await tx.insert(componentInstances).values(v).returning({ id: componentInstances.id });
-  return row!.id;
+  return row.id;
 }
 
 /** A placement whose patient the user may see, with the id of the version that supersedes it, if any. */
@@ -149,5 +149,5 @@ export async function loadPlacement(db: Db, id: string) {
     .innerJoin(implantSystems, eq(implantSystems.id, platforms.systemId))
     .leftJoin(users, eq(users.id, placements.recordedBy))
     .where(eq(placements.id, id));
-  return row!;
+  return row;
 }

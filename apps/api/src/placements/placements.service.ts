@@ -42,7 +42,7 @@ export class PlacementsService {
     const patient = assertCan(ability, 'read', 'Patient', await repo.findVisiblePatient(this.db, scope, patientId), 'patient');
     const row = { practiceId: patient.practiceId, patientId: patient.id };
     assertCan(ability, 'create', 'ImplantSite', row, 'patient');
-    if (!isValidFdi(body.fdi)) throw fieldError({ fdi: `${body.fdi} is not an FDI (ISO 3950) tooth position` });
+    if (!isValidFdi(body.fdi)) throw fieldError({ fdi: `${String(body.fdi)} is not an FDI (ISO 3950) tooth position` });
     // Implants replace permanent teeth; fdiToUniversal also throws for a position that does not exist.
     if (isPrimaryTooth(body.fdi)) throw fieldError({ fdi: `${body.fdi} is a primary tooth: an implant site is a permanent position (11–48)` });
     fdiToUniversal(body.fdi);

@@ -177,8 +177,8 @@ export interface NewExam {
 export async function insertExam(db: Db, exam: NewExam): Promise<string> {
   const { sites, ...row } = exam;
   const [inserted] = await db.insert(recallExams).values(row).returning({ id: recallExams.id });
-  await insertProbedSites(db, exam.practiceId, inserted!.id, sites);
-  return inserted!.id;
+  await insertProbedSites(db, exam.practiceId, inserted.id, sites);
+  return inserted.id;
 }
 
 /** A new version of an exam; a second amendment of one version is refused by the database. */

@@ -183,7 +183,7 @@ export class ExamsService {
   async amend(ability: AppAbility, scope: Scope, examinerId: string, examId: string, body: z.infer<typeof AmendExamSchema>): Promise<RecallExam> {
     const old = assertCan(ability, 'amend', 'RecallExam', await findVisibleExam(this.db, scope, examId), 'exam');
     if (old.superseded) throw alreadyAmended('recall_exams');
-    const patient = (await findVisiblePatientForRecall(this.db, scope, old.patientId))!;
+    const patient = (await findVisiblePatientForRecall(this.db, scope, old.patientId));
     return this.db.transaction(async (tx) => {
       // The history lock keeps the rescheduling to one at a time; of two amendments of one exam
       // the unique index on supersedes_id saves the first (insertExamAmendment).
@@ -225,7 +225,7 @@ export class ExamsService {
         amendmentReason: body.amendmentReason,
       });
       await this.reschedule(tx, patient, old.visitId, false);
-      return toContract((await findExamsByIds(tx, [id]))[0]!);
+      return toContract((await findExamsByIds(tx, [id]))[0]);
     });
   }
 }

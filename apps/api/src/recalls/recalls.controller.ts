@@ -1,4 +1,4 @@
-import { Body, Controller, Get, Header, Param, ParseUUIDPipe, Post, Query } from '@nestjs/common';
+import { Body, Controller, Get, Header, Param, ParseUUIDPipe, Post, Query, HttpStatus } from '@nestjs/common';
 import type { AppAbility } from '@torquetrail/authz';
 import {
   AmendExamBody,
@@ -20,7 +20,7 @@ import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
 import { DeskService } from './desk.service.js';
 import { ExamsService } from './exams.service.js';
 
-const uuid = new ParseUUIDPipe({ errorHttpStatusCode: 404 });
+const uuid = new ParseUUIDPipe({ errorHttpStatusCode: HttpStatus.NOT_FOUND });
 
 @Controller('recalls')
 export class RecallsController {

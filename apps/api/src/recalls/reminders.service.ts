@@ -14,8 +14,8 @@ import { reminderKey } from './exam-rules.js';
 import { RecallClock } from './recall-clock.js';
 import { listScheduledRecalls, listUnsent, lockReminder, logReminders, markFailedAttempt, markSent } from './reminders.repository.js';
 
-export const SEND_QUEUE = 'recall-reminder-send';
-export const SCAN_QUEUE = 'recall-reminder-scan';
+const SEND_QUEUE = 'recall-reminder-send';
+const SCAN_QUEUE = 'recall-reminder-scan';
 
 interface SendJob {
   reminderId: string;

@@ -14,7 +14,7 @@ export interface CatalogueRow {
   angleDeg: number | null;
 }
 
-export interface CheckedSite {
+interface CheckedSite {
   siteId: string;
   fdi: number;
   interface: InterfaceKind;

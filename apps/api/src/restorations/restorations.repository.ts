@@ -209,7 +209,7 @@ type ComponentKind = (typeof components.$inferSelect)['kind'];
 
 export async function insertRestoration(tx: Tx, v: RestorationValues) {
   const [row] = await tx.insert(restorations).values(v).returning({ id: restorations.id });
-  return row!.id;
+  return row.id;
 }
 
 /** A new version of a plan; a second amendment of one version is refused by the database. */
@@ -217,7 +217,7 @@ export const insertRestorationAmendment = (tx: Tx, v: RestorationValues & { supe
 
 export async function insertRestorationSite(tx: Tx, v: typeof restorationSites.$inferInsert) {
   const [row] = await tx.insert(restorationSites).values(v).returning({ id: restorationSites.id });
-  return row!.id;
+  return row.id;
 }
 
 export async function insertSiteComponents(tx: Tx, rows: (typeof restorationSiteComponents.$inferInsert)[]) {

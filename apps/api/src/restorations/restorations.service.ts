@@ -84,7 +84,7 @@ export class RestorationsService {
 
   async detail(ability: AppAbility, scope: Scope, id: string): Promise<RestorationDetail> {
     const row = assertCan(ability, 'read', 'Restoration', await repo.findVisibleRestoration(this.db, scope, id), 'restoration');
-    return (await this.details([row]))[0]!;
+    return (await this.details([row]))[0];
   }
 
   /** Saves a plan as 'planned': errors block it, warnings must be acknowledged (stored with user and time). */
@@ -99,12 +99,12 @@ export class RestorationsService {
   async amend(ability: AppAbility, user: SessionUser, scope: Scope, id: string, body: AmendInput): Promise<RestorationDetail> {
     const old = assertCan(ability, 'amend', 'Restoration', await repo.findVisibleRestoration(this.db, scope, id), 'restoration');
     assertAmendable(old);
-    const patient = (await repo.findVisiblePatientBrief(this.db, scope, old.patientId))!;
+    const patient = (await repo.findVisiblePatientBrief(this.db, scope, old.patientId));
     const newId = await this.db.transaction(async (tx) => {
       // The lock keeps a delivery out until this amendment ends; between two amendments the
       // unique index on supersedes_id decides (insertAmendment), so only the status is re-read.
       await repo.shareLockRestoration(tx, old.id);
-      assertStillPlanned((await repo.findVisibleRestoration(tx, scope, old.id))!);
+      assertStillPlanned((await repo.findVisibleRestoration(tx, scope, old.id)));
       return this.insertPlan(tx, user, patient, { ...body, patientId: old.patientId }, { supersedesId: old.id, amendmentReason: body.amendmentReason });
     });
     return this.detail(ability, scope, newId);
@@ -169,7 +169,7 @@ export class RestorationsService {
     await this.db.transaction(async (tx) => {
       // Re-read under the lock: a concurrent delivery or amendment committed meanwhile is seen.
       await repo.lockRestoration(tx, row.id);
-      assertDeliverable((await repo.findVisibleRestoration(tx, scope, row.id))!);
+      assertDeliverable((await repo.findVisibleRestoration(tx, scope, row.id)));
       const { sites } = await repo.loadRestorationSites(tx, [row.id]);
       const catalogue = new Map((await repo.findCatalogueParts(tx, row.practiceId, body.parts.map((p) => p.componentId))).map((c) => [c.id, c]));
       const fields: Record<string, string> = {};
@@ -217,7 +217,7 @@ export class RestorationsService {
 
   /** What the lab prescription of a visible version lists: its patient, and its sites with the chosen parts. */
   async labSheet(scope: Scope, r: { id: string; patientId: string }) {
-    const patient = (await repo.findVisiblePatientBrief(this.db, scope, r.patientId))!;
+    const patient = (await repo.findVisiblePatientBrief(this.db, scope, r.patientId));
     const { sites, parts } = await repo.loadRestorationSites(this.db, [r.id]);
     return { patient, sites: sites.map((s) => ({ ...s, parts: parts.filter((p) => p.restorationSiteId === s.id) })) };
   }

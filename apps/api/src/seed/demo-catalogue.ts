@@ -59,16 +59,16 @@ export async function seedCatalogue(tx: Tx, practiceId: string, systems: SystemS
     for (const diameter of system.diameters) {
       const [platform] = await tx
         .insert(platforms)
-        .values({ practiceId, systemId: sys!.id, name: `${system.name} ${diameter.toFixed(1)}`, diameterMm: diameter, connection: system.connection, platformShift: system.platformShift })
+        .values({ practiceId, systemId: sys.id, name: `${system.name} ${diameter.toFixed(1)}`, diameterMm: diameter, connection: system.connection, platformShift: system.platformShift })
         .returning({ id: platforms.id });
       const specs = partsFor(system, diameter);
       const inserted = await tx
         .insert(components)
-        .values(specs.map(({ key: _key, ...spec }) => ({ ...spec, practiceId, platformId: platform!.id })))
+        .values(specs.map(({ key: _key, ...spec }) => ({ ...spec, practiceId, platformId: platform.id })))
         .returning({ id: components.id, referenceCode: components.referenceCode });
       const byRef = new Map(inserted.map((c) => [c.referenceCode, c.id]));
       index.set(`${system.code}-${diameter.toFixed(1)}`, {
-        platformId: platform!.id,
+        platformId: platform.id,
         parts: new Map(specs.map((s) => [s.key, byRef.get(s.referenceCode)!])),
       });
     }

@@ -79,7 +79,7 @@ export async function seedDemoRecallHistory(tx: Tx, refs: DemoRefs): Promise<{ e
         const depths = f.pd.trim().split(/\s+/).map(Number);
         const bop = flags(f.bop);
         const sup = flags(f.sup);
-        const sites = PROBING_POSITIONS.map((position, i) => ({ position, probingDepthMm: depths[i]!, bleeding: bop[i]!, suppuration: sup[i]! }));
+        const sites = PROBING_POSITIONS.map((position, i) => ({ position, probingDepthMm: depths[i], bleeding: bop[i], suppuration: sup[i] }));
         const history = earlier.get(fdi) ?? [];
         const isBaseline = f.baseline ?? false;
         const baseline = choosePeriImplantBaseline(history, { examinedOn: visit.on, isBaseline }, deliveredOn[fdi] ?? null);
@@ -113,13 +113,13 @@ export async function seedDemoRecallHistory(tx: Tx, refs: DemoRefs): Promise<{ e
             recordedAt,
           })
           .returning({ id: recallExams.id });
-        await tx.insert(recallExamSites).values(sites.map((s) => ({ practiceId, examId: row!.id, ...s })));
-        history.push({ id: row!.id, examinedOn: visit.on, recordedAt, isBaseline: f.baseline ?? false, boneLevelMm, sites });
+        await tx.insert(recallExamSites).values(sites.map((s) => ({ practiceId, examId: row.id, ...s })));
+        history.push({ id: row.id, examinedOn: visit.on, recordedAt, isBaseline: f.baseline ?? false, boneLevelMm, sites });
         earlier.set(fdi, history);
         examCount += 1;
       }
     }
-    const last = visits[visits.length - 1]!.on;
+    const last = visits[visits.length - 1].on;
     const dueOn = nextRecallDate(last, { ...risk, priorPeriImplantitis: anyPi });
     await tx.insert(recalls).values({ practiceId, patientId, dueOn, status: 'scheduled' });
     return { patientId, dueOn, visits };
@@ -186,7 +186,7 @@ export async function seedDemoRecallHistory(tx: Tx, refs: DemoRefs): Promise<{ e
 
   // A few reminders already sent (and one that needed a retry); all with the idempotency key the job uses.
   const sentAt = (iso: string) => new Date(`${iso}T06:00:00Z`);
-  const prevDue = (visits: string[]) => visits[visits.length - 1]!; // the last visit was the previous recall
+  const prevDue = (visits: string[]) => visits[visits.length - 1]; // the last visit was the previous recall
   const log = [
     { patientId: harold.patientId, recallDueOn: prevDue(haroldDates), kind: 'upcoming' as const, sentOn: addCalendarDays(prevDue(haroldDates), -DEFAULT_REMINDER_DAYS_BEFORE), attempts: 1 },
     { patientId: imogen.patientId, recallDueOn: imogen.dueOn, kind: 'upcoming' as const, sentOn: addCalendarDays(imogen.dueOn, -DEFAULT_REMINDER_DAYS_BEFORE), attempts: 1 },

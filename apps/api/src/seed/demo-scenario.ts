@@ -23,6 +23,7 @@ import { DEMO_SYSTEMS, seedCatalogue, seedWrenches, type CatalogueIndex } from '
 /** Demo only: printed by `npm start` and listed in the README. */
 export const DEMO_PASSWORD = 'ledger-demo-2026';
 
+/** @public Printed by scripts/start.mjs (from the built file) beside the demo password. */
 export const DEMO_SIGN_INS = [
   { role: 'dentist', email: 'ines.calloway@larkspur.example', name: 'Dr Ines Calloway', practice: 'Larkspur Lane Dental' },
   { role: 'dentist', email: 'tomasz.brill@larkspur.example', name: 'Dr Tomasz Brill', practice: 'Larkspur Lane Dental' },
@@ -46,7 +47,7 @@ interface Ctx {
 
 async function addSite(ctx: Ctx, patientId: string, fdi: number, status: SiteStatus) {
   const [site] = await ctx.tx.insert(implantSites).values({ practiceId: ctx.practiceId, patientId, fdi, status }).returning({ id: implantSites.id });
-  return site!.id;
+  return site.id;
 }
 
 async function place(ctx: Ctx, p: { patientId: string; siteId: string; platform: string; placedOn: string; lengthMm: number; lot: string; insertionTorqueNcm: number; isq: number; surgeon?: 'imbert' | 'former'; axis?: [number, number, number]; loading?: LoadingProtocol }) {
@@ -81,15 +82,15 @@ async function install(ctx: Ctx, p: { patientId: string; siteId: string; restora
     .returning({ id: componentInstances.id });
   const [spec] = await ctx.tx.select({ torqueSpecNcm: components.torqueSpecNcm, tolerancePct: components.tolerancePct }).from(components).where(eq(components.id, componentId));
   for (const [date, time, appliedNcm, reason] of p.torque ?? []) {
-    const specNcm = spec!.torqueSpecNcm!;
+    const specNcm = spec.torqueSpecNcm!;
     await ctx.tx.insert(torqueEvents).values({
       practiceId: ctx.practiceId,
       patientId: p.patientId,
-      componentInstanceId: instance!.id,
+      componentInstanceId: instance.id,
       appliedNcm,
       specNcm,
-      tolerancePct: spec!.tolerancePct,
-      verdict: torqueVerdict({ appliedNcm, specNcm, tolerancePct: spec!.tolerancePct }),
+      tolerancePct: spec.tolerancePct,
+      verdict: torqueVerdict({ appliedNcm, specNcm, tolerancePct: spec.tolerancePct }),
       rulesVersion: RULES_VERSION,
       reason,
       wrenchId: ctx.wrenchIds[0],
@@ -98,7 +99,7 @@ async function install(ctx: Ctx, p: { patientId: string; siteId: string; restora
       recordedAt: at(date, time),
     });
   }
-  return instance!.id;
+  return instance.id;
 }
 
 /** Seats a screw: initial tightening, then the re-torque about ten minutes later (Siamos et al. 2002). */
@@ -113,14 +114,14 @@ async function restoration(ctx: Ctx, r: { patientId: string; kind: RestorationKi
     .values({ practiceId: ctx.practiceId, patientId: r.patientId, kind: r.kind, retention: r.retention, material: r.material, shade: r.shade, status: 'delivered', copingsSplinted: r.copingsSplinted ?? false, impressionTakenOn: r.impressionOn, deliveredOn: r.deliveredOn, plannedBy: ctx.userIds.get('ines.calloway@larkspur.example')!, createdAt: at(r.impressionOn, '09:00') })
     .returning({ id: restorations.id });
   await ctx.tx.insert(restorationSites).values(
-    r.sites.map((s) => ({ practiceId: ctx.practiceId, restorationId: row!.id, siteId: s.siteId, interface: s.interface, impressionCoping: s.coping, multiUnitAngleDeg: s.muAngle, restorativeSpaceMm: s.spaceMm })),
+    r.sites.map((s) => ({ practiceId: ctx.practiceId, restorationId: row.id, siteId: s.siteId, interface: s.interface, impressionCoping: s.coping, multiUnitAngleDeg: s.muAngle, restorativeSpaceMm: s.spaceMm })),
   );
-  return row!.id;
+  return row.id;
 }
 
 async function addPatient(tx: Tx, practiceId: string, p: typeof patients.$inferInsert extends infer T ? Omit<T, 'practiceId'> : never) {
   const [row] = await tx.insert(patients).values({ ...p, practiceId }).returning({ id: patients.id });
-  return row!.id;
+  return row.id;
 }
 
 export interface SeedSummary {
@@ -148,9 +149,9 @@ export async function seedDemoScenario(tx: Tx, today: string): Promise<{ summary
     .values([{ name: 'Larkspur Lane Dental' }, { name: 'Northgate Oral Surgery' }, { name: 'Quarry Hill Dental' }])
     .returning({ id: practices.id });
   const practiceIdByName = new Map([
-    ['Larkspur Lane Dental', larkspur!.id],
-    ['Northgate Oral Surgery', northgate!.id],
-    ['Quarry Hill Dental', quarry!.id],
+    ['Larkspur Lane Dental', larkspur.id],
+    ['Northgate Oral Surgery', northgate.id],
+    ['Quarry Hill Dental', quarry.id],
   ]);
   const userRows = await tx
     .insert(users)
@@ -164,10 +165,10 @@ export async function seedDemoScenario(tx: Tx, today: string): Promise<{ summary
 
   const ctx: Ctx = {
     tx,
-    practiceId: larkspur!.id,
-    catalogue: await seedCatalogue(tx, larkspur!.id, DEMO_SYSTEMS),
+    practiceId: larkspur.id,
+    catalogue: await seedCatalogue(tx, larkspur.id, DEMO_SYSTEMS),
     userIds,
-    wrenchIds: await seedWrenches(tx, larkspur!.id, addDays(today, -120)),
+    wrenchIds: await seedWrenches(tx, larkspur.id, addDays(today, -120)),
   };
   let sites = 0;
 
@@ -201,9 +202,9 @@ export async function seedDemoScenario(tx: Tx, today: string): Promise<{ summary
     await place(ctx, { patientId: imogen, siteId: id, platform: 'SCN-4.3', placedOn: '2017-11-21', lengthMm: s.angle ? 13 : 11.5, lot: 'SCN43-17K21', insertionTorqueNcm: 45, isq: 68, axis: s.axis, loading: 'immediate' });
   }
   sites += 4;
-  const arch = await restoration(ctx, { patientId: imogen, kind: 'full-arch', retention: 'screw-to-multi-unit', material: 'titanium-composite', shade: 'A2', impressionOn: '2018-02-26', deliveredOn: '2018-04-11', sites: farrowSites.map((s, i) => ({ siteId: imogenSiteIds[i]!, interface: 'non-engaging' as const, coping: 'multi-unit' as const, muAngle: s.angle, spaceMm: 16 })) });
+  const arch = await restoration(ctx, { patientId: imogen, kind: 'full-arch', retention: 'screw-to-multi-unit', material: 'titanium-composite', shade: 'A2', impressionOn: '2018-02-26', deliveredOn: '2018-04-11', sites: farrowSites.map((s, i) => ({ siteId: imogenSiteIds[i], interface: 'non-engaging' as const, coping: 'multi-unit' as const, muAngle: s.angle, spaceMm: 16 })) });
   for (const [i, s] of farrowSites.entries()) {
-    const siteId = imogenSiteIds[i]!;
+    const siteId = imogenSiteIds[i];
     await install(ctx, { patientId: imogen, siteId, restorationId: arch, platform: 'SCN-4.3', part: s.angle ? 'mua-30' : 'mua-0', lot: s.angle ? 'MU30-1711-04' : 'MU0-1711-12', installedOn: '2017-11-21', torque: seated('2017-11-21', s.angle ? 15 : 35) });
     await install(ctx, { patientId: imogen, siteId, restorationId: arch, platform: 'SCN-4.3', part: 'mua-screw', lot: 'PSM-1803-19', installedOn: '2018-04-11', torque: [...seated('2018-04-11', 15), ['2021-06-15', '10:00', 14, 're-torque-at-recall']] });
   }
@@ -244,7 +245,7 @@ export async function seedDemoScenario(tx: Tx, today: string): Promise<{ summary
   await tx.insert(patientShares).values([harold, imogen, lucia, wendell].map((patientId) => ({ practiceId: ctx.practiceId, patientId, sharedWithUserId: imbertId, sharedByUserId: sharedBy, since: at('2024-01-08') })));
 
   // 6. Quarry Hill Dental: an unrelated practice, never visible to Larkspur Lane.
-  const qctx: Ctx = { ...ctx, practiceId: quarry!.id, catalogue: await seedCatalogue(tx, quarry!.id, [DEMO_SYSTEMS[1]!]), wrenchIds: await seedWrenches(tx, quarry!.id, addDays(today, -200)) };
+  const qctx: Ctx = { ...ctx, practiceId: quarry.id, catalogue: await seedCatalogue(tx, quarry.id, [DEMO_SYSTEMS[1]]), wrenchIds: await seedWrenches(tx, quarry.id, addDays(today, -200)) };
   for (const [chart, given, family, age, fdi] of [['QH-2001', 'Ottilie', 'Marsh', 52, 36], ['QH-2002', 'Caspar', 'Lindqvist', 44, 11]] as const) {
     const pid = await addPatient(tx, qctx.practiceId, { chartNumber: chart, givenName: given, familyName: family, birthDate: birthDate(today, age, '03-03'), missingTeeth: [] });
     const siteId = await addSite(qctx, pid, fdi, 'placed');
@@ -257,7 +258,7 @@ export async function seedDemoScenario(tx: Tx, today: string): Promise<{ summary
   const chartById = new Map(patientRows.map((p) => [p.id, p.chartNumber]));
   const refs: DemoRefs = {
     today,
-    practiceIds: { larkspur: larkspur!.id, northgate: northgate!.id, quarry: quarry!.id },
+    practiceIds: { larkspur: larkspur.id, northgate: northgate.id, quarry: quarry.id },
     userIds,
     patientIds: new Map(patientRows.map((p) => [p.chartNumber, p.id])),
     siteIds: new Map(siteRows.map((s) => [`${chartById.get(s.patientId)}:${s.fdi}`, s.id])),

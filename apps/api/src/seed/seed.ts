@@ -30,5 +30,5 @@ if (isMain) {
       console.error(`[seed] failed: ${error instanceof Error ? error.message : String(error)}`);
       process.exitCode = 1;
     })
-    .finally(() => pool.end());
+    .finally(() => void pool.end());
 }

@@ -1,4 +1,4 @@
-import { Controller, Get, Param, ParseUUIDPipe, Query } from '@nestjs/common';
+import { Controller, Get, Param, ParseUUIDPipe, Query, HttpStatus } from '@nestjs/common';
 import type { AppAbility } from '@torquetrail/authz';
 import { type SiteFile, TimelineQuery, type TimelineReply } from '@torquetrail/contracts';
 import type { SessionUser } from '../auth/session-user.js';
@@ -17,7 +17,7 @@ export class SitesController {
   siteFile(
     @CurrentUser() user: SessionUser,
     @CurrentAbility() ability: AppAbility,
-    @Param('id', new ParseUUIDPipe({ errorHttpStatusCode: 404 })) id: string,
+    @Param('id', new ParseUUIDPipe({ errorHttpStatusCode: HttpStatus.NOT_FOUND })) id: string,
   ): Promise<SiteFile> {
     return this.sites.siteFile(ability, scopeOf(user), id);
   }
@@ -27,7 +27,7 @@ export class SitesController {
   timeline(
     @CurrentUser() user: SessionUser,
     @CurrentAbility() ability: AppAbility,
-    @Param('id', new ParseUUIDPipe({ errorHttpStatusCode: 404 })) id: string,
+    @Param('id', new ParseUUIDPipe({ errorHttpStatusCode: HttpStatus.NOT_FOUND })) id: string,
     @Query(new ZodValidationPipe(TimelineQuery)) query: TimelineQuery,
   ): Promise<TimelineReply> {
     return this.sites.timeline(ability, scopeOf(user), id, query.kinds);

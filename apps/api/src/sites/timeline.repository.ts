@@ -1,6 +1,6 @@
 // Everything that happened at one site, for the Timeline. Each query is pinned to the site,
 // which the caller has already checked the user may see.
-import { asc, eq, inArray, sql } from 'drizzle-orm';
+import { asc, eq, inArray } from 'drizzle-orm';
 import type { Db } from '../db/database.js';
 import {
   complications,

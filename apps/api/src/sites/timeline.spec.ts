@@ -30,6 +30,6 @@ describe('buildTimeline', () => {
     };
     const t = buildTimeline('s', rows);
     expect(t.events.filter((e) => e.kind === 'torque').map((e) => [e.id, e.amended])).toEqual([['old', true], ['new', false]]);
-    expect(t.torqueSeries[0]!.points.map((p) => p.id)).toEqual(['new']);
+    expect(t.torqueSeries[0].points.map((p) => p.id)).toEqual(['new']);
   });
 });

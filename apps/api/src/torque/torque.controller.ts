@@ -1,4 +1,4 @@
-import { Body, Controller, Param, ParseUUIDPipe, Post } from '@nestjs/common';
+import { Body, Controller, Param, ParseUUIDPipe, Post, HttpStatus } from '@nestjs/common';
 import type { AppAbility } from '@torquetrail/authz';
 import { TorqueAmendmentBody, TorqueBody, type TorqueEvent } from '@torquetrail/contracts';
 import type { z } from 'zod';
@@ -24,7 +24,7 @@ export class TorqueController {
   amend(
     @CurrentUser() user: SessionUser,
     @CurrentAbility() ability: AppAbility,
-    @Param('id', new ParseUUIDPipe({ errorHttpStatusCode: 404 })) id: string,
+    @Param('id', new ParseUUIDPipe({ errorHttpStatusCode: HttpStatus.NOT_FOUND })) id: string,
     @Body(new ZodValidationPipe(TorqueAmendmentBody)) body: z.output<typeof TorqueAmendmentBody>,
   ): Promise<TorqueEvent> {
     return this.torque.amend(ability, user, scopeOf(user), id, body);

@@ -68,7 +68,7 @@ export async function loadTorqueEvent(db: Db, id: string) {
     .leftJoin(torqueWrenches, eq(torqueWrenches.id, torqueEvents.wrenchId))
     .leftJoin(users, eq(users.id, torqueEvents.recordedBy))
     .where(eq(torqueEvents.id, id));
-  return row!;
+  return row;
 }
 
 export async function findWrenchOfPractice(db: Db, practiceId: string, id: string) {
@@ -89,14 +89,14 @@ export async function retireInstance(tx: Tx, id: string, day: string) {
 /** A new instance of a part, installed on the day the one it replaces came out. */
 export async function insertInstance(tx: Tx, v: typeof componentInstances.$inferInsert) {
   const [row] = await tx.insert(componentInstances).values(v).returning({ id: componentInstances.id });
-  return row!.id;
+  return row.id;
 }
 
 type TorqueValues = typeof torqueEvents.$inferInsert;
 
 export async function insertTorqueEvent(db: Db, v: TorqueValues) {
   const [row] = await db.insert(torqueEvents).values(v).returning({ id: torqueEvents.id });
-  return row!.id;
+  return row.id;
 }
 
 /** A new version of a torque entry; a second amendment of one version is refused by the database. */

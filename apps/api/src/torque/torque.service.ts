@@ -51,7 +51,7 @@ export class TorqueService {
     const id = await this.db.transaction(async (tx) => {
       // Re-read under the lock: a concurrent 'screw-replaced' may have retired the part meanwhile.
       await repo.lockInstance(tx, part.id);
-      assertInPlace((await repo.findVisibleInstance(tx, scope, part.id))!);
+      assertInPlace((await repo.findVisibleInstance(tx, scope, part.id)));
       let instanceId = part.id;
       if (replacing) {
         const day = performedAt.toISOString().slice(0, 10);

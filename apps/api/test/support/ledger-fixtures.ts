@@ -7,7 +7,7 @@ import type { TestContext } from './test-app.js';
 
 export async function larkspurId(db: Database) {
   const [row] = await db.select({ id: practices.id }).from(practices).where(eq(practices.name, 'Larkspur Lane Dental'));
-  return row!.id;
+  return row.id;
 }
 
 export async function platformId(db: Database, practiceId: string, name: string) {
@@ -38,12 +38,12 @@ export async function patientWithImplants(ctx: TestContext, chartNumber: string,
     .returning({ id: patients.id });
   const siteIds: Record<number, string> = {};
   for (const i of implants) {
-    const [site] = await ctx.db.insert(implantSites).values({ practiceId, patientId: patient!.id, fdi: i.fdi, status: 'placed' }).returning({ id: implantSites.id });
-    siteIds[i.fdi] = site!.id;
+    const [site] = await ctx.db.insert(implantSites).values({ practiceId, patientId: patient.id, fdi: i.fdi, status: 'placed' }).returning({ id: implantSites.id });
+    siteIds[i.fdi] = site.id;
     await ctx.db.insert(placements).values({
       practiceId,
-      patientId: patient!.id,
-      siteId: site!.id,
+      patientId: patient.id,
+      siteId: site.id,
       platformId: pid,
       placedOn: '2026-10-01',
       surgeonName: 'Dr Test',
@@ -53,7 +53,7 @@ export async function patientWithImplants(ctx: TestContext, chartNumber: string,
       axisZ: i.axis?.[2],
     });
   }
-  return { patientId: patient!.id, siteIds };
+  return { patientId: patient.id, siteIds };
 }
 
 /**
@@ -67,7 +67,7 @@ export async function patientWithPart(ctx: TestContext, chartNumber: string, pla
   const part = await parts(ctx.db, practiceId, platformName);
   const [instance] = await ctx.db
     .insert(componentInstances)
-    .values({ practiceId, patientId, siteId: siteIds[fdi]!, componentId: part(partSuffix), lot: `${partSuffix}-${chartNumber}`, installedOn: '2026-10-15' })
+    .values({ practiceId, patientId, siteId: siteIds[fdi], componentId: part(partSuffix), lot: `${partSuffix}-${chartNumber}`, installedOn: '2026-10-15' })
     .returning({ id: componentInstances.id });
-  return { patientId, siteId: siteIds[fdi]!, instanceId: instance!.id };
+  return { patientId, siteId: siteIds[fdi], instanceId: instance.id };
 }

@@ -62,7 +62,7 @@ export async function signIn(ctx: TestContext, who: AccountKey): Promise<string>
   if (res.status !== 200) throw new Error(`sign-in of ${who} failed: ${res.status} ${JSON.stringify(res.body)}`);
   const cookie = ([] as string[]).concat(res.headers['set-cookie'] ?? []).find((c) => c.startsWith('tt_session='));
   if (!cookie) throw new Error('no session cookie set');
-  return cookie.split(';')[0]!;
+  return cookie.split(';')[0];
 }
 
 export async function signInAll(ctx: TestContext): Promise<Record<AccountKey, string>> {

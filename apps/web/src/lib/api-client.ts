@@ -9,8 +9,8 @@ export class ApiError extends Error {
   readonly status: number;
   readonly fields: Readonly<Record<string, string>>;
 
-  constructor(status: number, message: string, fields: Record<string, string> = {}) {
-    super(message);
+  constructor(status: number, message: string, fields: Record<string, string> = {}, options?: ErrorOptions) {
+    super(message, options);
     this.name = 'ApiError';
     this.status = status;
     this.fields = fields;
@@ -67,9 +67,9 @@ export async function apiRequest<S extends z.ZodType | undefined = undefined>(
   if (!schema) return payload as Reply<S>;
   const parsed = schema.safeParse(payload);
   if (!parsed.success) {
-    // A contract mismatch is a bug between API and web, not something the user can fix.
-    console.error(`Reply of ${method} ${path} does not match its contract`, parsed.error.issues);
-    throw new ApiError(0, 'The server sent a reply this version of Torquetrail does not understand. Reload the page.');
+    // A contract mismatch is a bug between API and web, not something the user can fix; the
+    // issues travel as the error's cause for the developer tools.
+    throw new ApiError(0, 'The server sent a reply this version of Torquetrail does not understand. Reload the page.', {}, { cause: { method, path, issues: parsed.error.issues } });
   }
   return parsed.data as Reply<S>;
 }

@@ -33,3 +33,17 @@ export function ageInYears(birthIso: string, today: Date = new Date()): number {
   if (beforeBirthday) age -= 1;
   return age;
 }
+
+/** The viewer's local date and time as `<input type="datetime-local">` wants it: YYYY-MM-DDTHH:MM. */
+export function localNow(now: Date = new Date()): string {
+  const local = new Date(now.getTime() - now.getTimezoneOffset() * 60_000);
+  return local.toISOString().slice(0, 16);
+}
+
+/**
+ * Today's date on the viewer's calendar (YYYY-MM-DD), for date fields and their `max`. Not the
+ * UTC date: around midnight the two differ, and a form would default to yesterday or tomorrow.
+ */
+export function localToday(now: Date = new Date()): string {
+  return localNow(now).slice(0, 10);
+}

@@ -82,7 +82,7 @@ describe('one label map per enum', () => {
     if (name in NOT_SHOWN) return;
     const labels = LABELS[name];
     expect(labels, `no label map for ${name}: add one to lib/labels.ts or lib/clinical-labels.ts and register it here`).toBeDefined();
-    const missing = values.filter((value) => !labels![value]?.trim());
+    const missing = values.filter((value) => !labels[value]?.trim());
     expect(missing, `${name} values without a label`).toEqual([]);
   });
 

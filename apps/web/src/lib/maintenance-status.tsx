@@ -1,4 +1,5 @@
 import type { MaintenanceStatus } from '@torquetrail/contracts';
+import type { ReactElement } from 'react';
 import { MAINTENANCE_STATUS_LABEL } from './labels';
 
 /**
@@ -15,22 +16,21 @@ export const MAINTENANCE_STYLE: Record<
   'not-examined': { colour: '#738091', dash: '2 3', shape: 'hollow-circle' },
 };
 
-export const MAINTENANCE_STATUSES: readonly MaintenanceStatus[] = ['health', 'mucositis', 'peri-implantitis', 'not-examined'];
+type Shape = (typeof MAINTENANCE_STYLE)[MaintenanceStatus]['shape'];
+type ShapeProps = { x: number; y: number; r: number; colour: string };
+
+/** One drawing per marker shape (a map, so a new shape without a drawing does not compile). */
+const SHAPES: Record<Shape, (p: ShapeProps) => ReactElement> = {
+  circle: ({ x, y, r, colour }) => <circle cx={x} cy={y} r={r} fill={colour} />,
+  'hollow-circle': ({ x, y, r, colour }) => <circle cx={x} cy={y} r={r - 0.75} fill="#fff" stroke={colour} strokeWidth={1.5} />,
+  triangle: ({ x, y, r, colour }) => <polygon points={`${x},${y - r} ${x + r},${y + r * 0.8} ${x - r},${y + r * 0.8}`} fill={colour} />,
+  diamond: ({ x, y, r, colour }) => <polygon points={`${x},${y - r} ${x + r},${y} ${x},${y + r} ${x - r},${y}`} fill={colour} />,
+};
 
 /** The status marker as an SVG element centred on (x, y), `size` across. */
 export function StatusShape({ status, x, y, size }: { status: MaintenanceStatus; x: number; y: number; size: number }) {
   const { colour, shape } = MAINTENANCE_STYLE[status];
-  const r = size / 2;
-  switch (shape) {
-    case 'circle':
-      return <circle cx={x} cy={y} r={r} fill={colour} />;
-    case 'hollow-circle':
-      return <circle cx={x} cy={y} r={r - 0.75} fill="#fff" stroke={colour} strokeWidth={1.5} />;
-    case 'triangle':
-      return <polygon points={`${x},${y - r} ${x + r},${y + r * 0.8} ${x - r},${y + r * 0.8}`} fill={colour} />;
-    case 'diamond':
-      return <polygon points={`${x},${y - r} ${x + r},${y} ${x},${y + r} ${x - r},${y}`} fill={colour} />;
-  }
+  return SHAPES[shape]({ x, y, r: size / 2, colour });
 }
 
 /** Marker plus text label, for use in running text and tables. */

@@ -19,7 +19,7 @@ export function BreadcrumbTrail({ items }: { items: readonly Crumb[] }) {
         {items.map((item, index) => {
           const current = index === items.length - 1;
           return (
-            <li key={`${index}-${item.text}`}>
+            <li key={item.text}>
               {current ? (
                 <span className={`${Classes.BREADCRUMB} ${Classes.BREADCRUMB_CURRENT}`} aria-current="page">
                   {item.text}

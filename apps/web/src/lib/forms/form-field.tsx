@@ -3,7 +3,7 @@ import { type ReactNode, useId } from 'react';
 import { type FieldErrors, get, useFormContext, useFormState } from 'react-hook-form';
 
 /** The props a field's input takes so that its error is announced with it. */
-export interface FieldA11y {
+interface FieldA11y {
   intent: Intent;
   'aria-invalid': true | undefined;
   'aria-describedby': string | undefined;
@@ -11,7 +11,7 @@ export interface FieldA11y {
 
 /** The message at an error path: client validation and the API's `fields` both land there. */
 export function errorAt(errors: FieldErrors, path: string): string | undefined {
-  const error = get(errors, path) as { message?: string; root?: { message?: string } } | undefined;
+  const error: { message?: string; root?: { message?: string } } | undefined = get(errors, path);
   // An error on a list whose items are fields is kept under `root` by the resolver.
   return error?.message ?? error?.root?.message;
 }

@@ -2,5 +2,5 @@
 // errors (client or server) shown beside their fields through Blueprint's FormGroup.
 export { NumberInput, withInputRef } from './blueprint-inputs';
 export { draftSchema, useContractForm } from './contract-form';
-export { errorAt, type FieldA11y, FieldError, FormField, useFieldError } from './form-field';
+export { errorAt, FieldError, FormField, useFieldError } from './form-field';
 export { applyServerErrors, formErrorMessage } from './server-errors';

@@ -15,7 +15,7 @@ const BODY_PATH = '(body)';
 export function applyServerErrors<Values extends FieldValues>(setError: UseFormSetError<Values>, error: Error, options: { message?: string } = {}): void {
   const fields = isApiError(error) ? Object.entries(error.fields).filter(([path]) => path !== BODY_PATH) : [];
   for (const [path, message] of fields) setError(path as FieldPath<Values>, { type: 'server', message });
-  setError(FORM_ERROR as FieldPath<Values>, { type: fields.length > 0 ? 'with-fields' : 'alone', message: options.message ?? error.message });
+  setError(FORM_ERROR, { type: fields.length > 0 ? 'with-fields' : 'alone', message: options.message ?? error.message });
 }
 
 /**

@@ -28,7 +28,7 @@ export interface ArchLayout {
   cells: ArchCell[];
 }
 
-export const ARCH_VIEW = { width: 640, height: 600 } as const;
+const ARCH_VIEW = { width: 640, height: 600 } as const;
 
 const CENTRE_X = ARCH_VIEW.width / 2;
 /** Half the span of each arch's curve and its depth (apex to arm ends). */

@@ -1,5 +1,6 @@
 import { MAINTENANCE_STATUS_LABEL, MAINTENANCE_NOTE } from '../../../lib/labels';
-import { MAINTENANCE_STATUSES, MAINTENANCE_STYLE, StatusShape } from '../../../lib/maintenance-status';
+import { MAINTENANCE_STATUSES } from '@torquetrail/contracts';
+import { MAINTENANCE_STYLE, StatusShape } from '../../../lib/maintenance-status';
 import { ImplantGlyph } from './implant-glyph';
 
 /** Keys to the drawing, in words: every colour and pattern on the Arch is named here. */

@@ -25,7 +25,7 @@ export function describeCell(fdi: number, system: ToothSystem, content: CellCont
   return parts.join(', ');
 }
 
-const SUPERSEDED: readonly SiteStatus[] = ['failed', 'removed'];
+const SUPERSEDED: ReadonlySet<SiteStatus> = new Set<SiteStatus>(['failed', 'removed']);
 
 /**
  * What each position holds. Where a position has several sites (an implant removed and placed
@@ -39,7 +39,7 @@ export function cellContents(
   const contents = new Map<number, CellContent>();
   for (const fdi of positions) {
     const here = sites.filter((site) => site.fdi === fdi);
-    const current = here.find((site) => !SUPERSEDED.includes(site.status)) ?? here[0];
+    const current = here.find((site) => !SUPERSEDED.has(site.status)) ?? here[0];
     if (current) contents.set(fdi, { type: 'site', site: current });
     else contents.set(fdi, { type: missingTeeth.includes(fdi) ? 'missing' : 'natural' });
   }

@@ -44,7 +44,7 @@ export function ArchRoute() {
 
   const data = patient.data;
   const name = `${data.givenName} ${data.familyName}`;
-  const openSite = (siteId: string) => navigate(`/patients/${data.id}/sites/${siteId}`);
+  const openSite = (siteId: string) => void navigate(`/patients/${data.id}/sites/${siteId}`);
   const hasPrimary = [...data.sites.map((s) => s.fdi), ...data.missingTeeth].some(isPrimaryTooth);
 
   return (
@@ -54,7 +54,7 @@ export function ArchRoute() {
       <PatientHeader patient={data} />
       <nav className="arch-actions" aria-label="Patient actions">
         <Can I="read" a="Restoration">
-          <Link className={`${Classes.BUTTON}`} to={`/patients/${data.id}/restorations`} data-testid="open-restorations">
+          <Link className={Classes.BUTTON} to={`/patients/${data.id}/restorations`} data-testid="open-restorations">
             Restorations and planner
           </Link>
         </Can>

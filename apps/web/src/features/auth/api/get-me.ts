@@ -4,7 +4,7 @@ import { apiRequest, isApiError } from '../../../lib/api-client';
 import { authKeys, isMeQueryKey } from './keys';
 
 /** The signed-in user, or `null` when nobody is signed in (401 is an answer here, not a failure). */
-export async function fetchMe(signal?: AbortSignal): Promise<Me | null> {
+async function fetchMe(signal?: AbortSignal): Promise<Me | null> {
   try {
     return await apiRequest('/api/auth/me', { schema: Me, signal });
   } catch (error) {
@@ -13,7 +13,7 @@ export async function fetchMe(signal?: AbortSignal): Promise<Me | null> {
   }
 }
 
-export const meQueryOptions = () =>
+const meQueryOptions = () =>
   queryOptions({
     queryKey: authKeys.me,
     queryFn: ({ signal }) => fetchMe(signal),

@@ -4,7 +4,7 @@ import { apiRequest } from '../../../lib/api-client';
 import { removeAllButMe } from './get-me';
 import { authKeys } from './keys';
 
-export function signIn(body: SignInBody): Promise<Me> {
+function signIn(body: SignInBody): Promise<Me> {
   return apiRequest('/api/auth/sign-in', { method: 'POST', body, schema: Me });
 }
 

@@ -4,7 +4,7 @@ import { removeAllButMe } from './get-me';
 import { authKeys } from './keys';
 
 /** Ends the session. A 401 means it had already ended, which is what we wanted. */
-export async function signOut(): Promise<void> {
+async function signOut(): Promise<void> {
   try {
     await apiRequest('/api/auth/sign-out', { method: 'POST' });
   } catch (error) {

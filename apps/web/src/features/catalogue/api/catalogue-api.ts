@@ -3,7 +3,7 @@ import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/r
 import { apiRequest } from '../../../lib/api-client';
 import { catalogueKeys } from './keys';
 
-export const catalogueQueryOptions = () =>
+const catalogueQueryOptions = () =>
   queryOptions({ queryKey: catalogueKeys.all, queryFn: ({ signal }) => apiRequest('/api/catalogue', { schema: CatalogueReply, signal }) });
 export const useCatalogue = () => useQuery(catalogueQueryOptions());
 

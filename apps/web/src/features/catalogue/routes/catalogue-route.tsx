@@ -33,7 +33,7 @@ function Wrenches() {
                 <Can I="update" a="Wrench">
                   {' '}
                   <InputGroup type="date" aria-label={`New calibration date of ${w.label}`} value={dates[w.id] ?? ''} onValueChange={(v) => setDates({ ...dates, [w.id]: v })} style={{ width: '11em', display: 'inline-block' }} />
-                  <Button small text="Record calibration" disabled={!dates[w.id]} loading={save.isPending} onClick={() => save.mutate({ id: w.id, body: { lastCalibratedOn: dates[w.id]! } })} />
+                  <Button small text="Record calibration" disabled={!dates[w.id]} loading={save.isPending} onClick={() => save.mutate({ id: w.id, body: { lastCalibratedOn: dates[w.id] } })} />
                 </Can>
               </td>
             </tr>

@@ -5,11 +5,11 @@ import { queryOptions, useQuery } from '@tanstack/react-query';
 import { apiRequest } from '../../../lib/api-client';
 import { patientKeys } from './keys';
 
-export function fetchPatient(patientId: string, signal?: AbortSignal): Promise<PatientDetail> {
+function fetchPatient(patientId: string, signal?: AbortSignal): Promise<PatientDetail> {
   return apiRequest(`/api/patients/${encodeURIComponent(patientId)}`, { schema: PatientDetail, signal });
 }
 
-export const patientQueryOptions = (patientId: string) =>
+const patientQueryOptions = (patientId: string) =>
   queryOptions({
     queryKey: patientKeys.detail(patientId),
     queryFn: ({ signal }) => fetchPatient(patientId, signal),

@@ -3,12 +3,12 @@ import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query'
 import { apiRequest } from '../../../lib/api-client';
 import { patientKeys } from './keys';
 
-export function fetchPatientList(search: string, signal?: AbortSignal): Promise<PatientListReply> {
+function fetchPatientList(search: string, signal?: AbortSignal): Promise<PatientListReply> {
   const query = search ? `?${new URLSearchParams({ search })}` : '';
   return apiRequest(`/api/patients${query}`, { schema: PatientListReply, signal });
 }
 
-export const patientListQueryOptions = (search: string) =>
+const patientListQueryOptions = (search: string) =>
   queryOptions({
     queryKey: patientKeys.list(search),
     queryFn: ({ signal }) => fetchPatientList(search, signal),

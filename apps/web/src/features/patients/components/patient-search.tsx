@@ -14,10 +14,17 @@ export function PatientSearch({ value, onSearch, busy }: PatientSearchProps) {
   const [text, setText] = useState(value);
   const debounced = useDebouncedValue(text, 250);
   const latest = useRef(onSearch);
-  latest.current = onSearch;
+  useEffect(() => {
+    latest.current = onSearch;
+  });
 
-  // Follow the URL when it changes from outside (back/forward).
-  useEffect(() => setText((current) => (current.trim() === value ? current : value)), [value]);
+  // Follow the URL when it changes from outside (back/forward): adjusted while rendering, as
+  // React advises for state derived from a prop, rather than in an effect.
+  const [urlValue, setUrlValue] = useState(value);
+  if (value !== urlValue) {
+    setUrlValue(value);
+    if (text.trim() !== value) setText(value);
+  }
   useEffect(() => latest.current(debounced.trim()), [debounced]);
 
   const onSubmit = (event: FormEvent<HTMLFormElement>) => {

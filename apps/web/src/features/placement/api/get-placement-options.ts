@@ -3,11 +3,11 @@ import { queryOptions, useQuery } from '@tanstack/react-query';
 import { apiRequest } from '../../../lib/api-client';
 import { siteKeys } from '../../site-file';
 
-export function fetchPlacementOptions(siteId: string, signal?: AbortSignal): Promise<PlacementOptionsReply> {
+function fetchPlacementOptions(siteId: string, signal?: AbortSignal): Promise<PlacementOptionsReply> {
   return apiRequest(`/api/sites/${encodeURIComponent(siteId)}/placement-options`, { schema: PlacementOptionsReply, signal });
 }
 
-export const placementOptionsQueryOptions = (siteId: string) =>
+const placementOptionsQueryOptions = (siteId: string) =>
   queryOptions({ queryKey: siteKeys.placementOptions(siteId), queryFn: ({ signal }) => fetchPlacementOptions(siteId, signal) });
 
 /** The systems of the site's practice (a shared surgeon may not read that practice's catalogue). */

@@ -3,15 +3,11 @@ import { IMPLANT_LENGTH_MM_RANGE, INSERTION_TORQUE_NCM_RANGE, ISQ_RANGE, type Lo
 import { checkUdiForPlacement } from '@torquetrail/domain';
 import { FormProvider, useWatch } from 'react-hook-form';
 import { LOADING_PROTOCOL_LABEL } from '../../../lib/clinical-labels';
+import { localToday } from '../../../lib/dates';
 import { applyServerErrors, draftSchema, FormField, formErrorMessage, NumberInput, useContractForm, withInputRef } from '../../../lib/forms';
 import { useRecordPlacement } from '../api/record-placement';
 import { readUdi, UdiField } from './udi-field';
 
-const localToday = () => {
-  const d = new Date();
-  d.setMinutes(d.getMinutes() - d.getTimezoneOffset());
-  return d.toISOString().slice(0, 10);
-};
 
 interface PlacementDraft {
   platformId: string;

@@ -50,7 +50,7 @@ export function RecordPlacementRoute() {
         ]}
       />
       <h1 className="page-title">Record placement · {siteLabel}</h1>
-      <PlacementForm patientId={patientId} siteId={siteId} options={options.data} onDone={() => navigate(siteFile)} />
+      <PlacementForm patientId={patientId} siteId={siteId} options={options.data} onDone={() => void navigate(siteFile)} />
     </div>
   );
 }

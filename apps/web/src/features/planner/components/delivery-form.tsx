@@ -2,10 +2,10 @@ import { Button, Callout, InputGroup } from '@blueprintjs/core';
 import { DeliveryBody, type RestorationDetail } from '@torquetrail/contracts';
 import { useMemo } from 'react';
 import { FormProvider } from 'react-hook-form';
+import { localToday } from '../../../lib/dates';
 import { applyServerErrors, draftSchema, errorAt, FieldError, formErrorMessage, useContractForm, withInputRef } from '../../../lib/forms';
 import { useDeliver } from '../api/planner-api';
 
-const today = () => new Date().toISOString().slice(0, 10);
 
 interface DeliveryDraft {
   /** One lot per row, as typed. */
@@ -29,7 +29,7 @@ export function DeliveryForm({ restoration, onDone }: { restoration: Restoration
       })),
     [rows],
   );
-  const form = useContractForm(schema, { lots: rows.map(() => ''), deliveredOn: today(), impressionTakenOn: '' });
+  const form = useContractForm(schema, { lots: rows.map(() => ''), deliveredOn: localToday(), impressionTakenOn: '' });
   const deliver = useDeliver();
 
   const submit = (body: DeliveryBody) => deliver.mutate({ id: restoration.id, body }, { onSuccess: onDone, onError: (error) => applyServerErrors(form.setError, error) });

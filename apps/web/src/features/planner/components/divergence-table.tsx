@@ -12,11 +12,11 @@ export function DivergenceTable({ axes, system }: { axes: { fdi: number; axis: V
     for (let j = i + 1; j < known.length; j++) {
       let deg: number | null = null;
       try {
-        deg = divergenceDeg(known[i]!.axis, known[j]!.axis);
+        deg = divergenceDeg(known[i].axis, known[j].axis);
       } catch {
         deg = null; // a zero or non-numeric axis: the Findings name the field
       }
-      rows.push({ pair: `${formatTooth(known[i]!.fdi, system)}–${formatTooth(known[j]!.fdi, system)}`, deg });
+      rows.push({ pair: `${formatTooth(known[i].fdi, system)}–${formatTooth(known[j].fdi, system)}`, deg });
     }
   }
   if (rows.length === 0) return null;

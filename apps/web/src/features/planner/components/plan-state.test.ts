@@ -15,7 +15,7 @@ const bridge = (over: Partial<PlanState> = {}): PlanState => ({ ...initialPlan, 
 describe('planner state', () => {
   it('flags an engaging coping on a bridge screwed to the implants (common practice)', () => {
     const state = bridge();
-    state.sites[0] = { ...state.sites[0]!, impressionCoping: 'engaging' };
+    state.sites[0] = { ...state.sites[0], impressionCoping: 'engaging' };
     const parallel = [site('a', 15, [0, 0, 1]), site('b', 16, [0, 0, 1])];
     expect(liveFindings(state, parallel, catalogue).findings.map((f) => [f.severity, f.code, f.fdi])).toEqual([['error', 'engaging-impression-for-platform-bridge', 15]]);
   });
@@ -31,7 +31,7 @@ describe('planner state', () => {
 
   it('a typed zero axis is a field message, not a crash', () => {
     const state = bridge();
-    state.sites[1] = { ...state.sites[1]!, axis: ['0', '0', '0'] };
+    state.sites[1] = { ...state.sites[1], axis: ['0', '0', '0'] };
     const { findings, invalid } = liveFindings(state, sites, catalogue);
     expect(findings).toEqual([]);
     expect(Object.values(invalid)[0]).toMatch(/zero/i);

@@ -93,7 +93,7 @@ export function toBody(patientId: string, state: PlanState, catalogue: Map<strin
     }),
     acknowledgements: state.acknowledged.map((k) => {
       const [code, fdi] = k.split(':');
-      return { code: code!, fdi: fdi ? Number(fdi) : null };
+      return { code: code, fdi: fdi ? Number(fdi) : null };
     }),
   };
 }

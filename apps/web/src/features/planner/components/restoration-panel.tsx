@@ -74,9 +74,9 @@ export function RestorationPanel({ restoration: r, system, patientId }: { restor
       {current && (
         <Can I="create" a="Restoration">
           <div className="planner__actions">
-            <Button icon="document" text="Lab prescription (PDF)" onClick={() => lab.mutate(false)} loading={lab.isPending && lab.variables === false} data-testid="make-lab-pdf" />
-            {r.labEmail && <Button icon="envelope" text={`E-mail to ${r.labEmail}`} onClick={() => lab.mutate(true)} loading={lab.isPending && lab.variables === true} />}
-            {r.status === 'planned' && <Link className={`${Classes.BUTTON}`} to={`/patients/${patientId}/restorations/new?amend=${r.id}`}>Amend plan</Link>}
+            <Button icon="document" text="Lab prescription (PDF)" onClick={() => lab.mutate(false)} loading={lab.isPending && ! lab.variables} data-testid="make-lab-pdf" />
+            {r.labEmail && <Button icon="envelope" text={`E-mail to ${r.labEmail}`} onClick={() => lab.mutate(true)} loading={lab.isPending &&  lab.variables} />}
+            {r.status === 'planned' && <Link className={Classes.BUTTON} to={`/patients/${patientId}/restorations/new?amend=${r.id}`}>Amend plan</Link>}
             {r.status === 'planned' && <Button intent="primary" icon="endorsed" text="Deliver" onClick={() => setDelivering((v) => !v)} data-testid="deliver-button" />}
           </div>
           {lab.isError && <Callout intent="danger" role="alert" compact>{lab.error.message}</Callout>}

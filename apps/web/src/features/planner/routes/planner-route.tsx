@@ -159,10 +159,10 @@ function PlannerForm({ patientId, patientName, restorable: all, catalogue, amend
               <SitePlanFields
                 key={p.siteId}
                 index={i}
-                site={chosen[i]!}
+                site={chosen[i]}
                 plan={p}
                 retention={state.retention}
-                parts={[...parts.values()].filter((c) => c.platformId === chosen[i]!.platformId)}
+                parts={[...parts.values()].filter((c) => c.platformId === chosen[i].platformId)}
                 system={system}
                 live={live}
                 onChange={(next) => update({ sites: state.sites.map((x, j) => (j === i ? next : x)) })}
@@ -189,7 +189,7 @@ function PlannerForm({ patientId, patientName, restorable: all, catalogue, amend
               system={system}
               axes={state.sites.map((p, i) => {
                 const typed = p.axis.every((v) => v.trim() !== '') ? (p.axis.map(Number) as [number, number, number]) : null;
-                return { fdi: chosen[i]!.fdi, axis: typed ?? chosen[i]!.axis };
+                return { fdi: chosen[i].fdi, axis: typed ?? chosen[i].axis };
               })}
             />
             <Callout intent="warning" icon="info-sign" compact className="planner-caution">{catalogue.caution}</Callout>

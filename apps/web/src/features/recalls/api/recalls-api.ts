@@ -28,7 +28,7 @@ export function deskSearch(params: DeskParams, withPaging = true): string {
   return text ? `?${text}` : '';
 }
 
-export const deskQueryOptions = (params: DeskParams) =>
+const deskQueryOptions = (params: DeskParams) =>
   queryOptions({
     queryKey: recallKeys.desk(params),
     queryFn: ({ signal }) => apiRequest(`/api/recalls/desk${deskSearch(params)}`, { schema: RecallDeskReply, signal }),
@@ -36,14 +36,14 @@ export const deskQueryOptions = (params: DeskParams) =>
   });
 export const useRecallDesk = (params: DeskParams) => useQuery(deskQueryOptions(params));
 
-export const examContextQueryOptions = (patientId: string) =>
+const examContextQueryOptions = (patientId: string) =>
   queryOptions({
     queryKey: recallKeys.examContext(patientId),
     queryFn: ({ signal }) => apiRequest(`/api/recalls/patients/${encodeURIComponent(patientId)}/exam-context`, { schema: ExamContext, signal }),
   });
 export const useExamContext = (patientId: string) => useQuery(examContextQueryOptions(patientId));
 
-export const siteExamsQueryOptions = (siteId: string) =>
+const siteExamsQueryOptions = (siteId: string) =>
   queryOptions({
     queryKey: recallKeys.siteExams(siteId),
     queryFn: ({ signal }) => apiRequest(`/api/recalls/sites/${encodeURIComponent(siteId)}/exams`, { schema: SiteExamHistory, signal }),
@@ -62,7 +62,7 @@ export function useCreateVisit() {
   });
 }
 
-export const policyQueryOptions = () =>
+const policyQueryOptions = () =>
   queryOptions({ queryKey: recallKeys.policy(), queryFn: ({ signal }) => apiRequest('/api/recalls/policy', { schema: RecallPolicyReply, signal }) });
 export const useRecallPolicy = () => useQuery(policyQueryOptions());
 
@@ -74,7 +74,7 @@ export function useUpdatePolicy() {
   });
 }
 
-export const reminderLogQueryOptions = () =>
+const reminderLogQueryOptions = () =>
   queryOptions({ queryKey: recallKeys.reminders(), queryFn: ({ signal }) => apiRequest('/api/recalls/reminders', { schema: ReminderLogReply, signal }) });
 export const useReminderLog = () => useQuery(reminderLogQueryOptions());
 

@@ -61,7 +61,7 @@ export function liveVerdict(draft: SiteDraft, baseline: RecallExam | null): Live
   const periImplantBaseline = toPeriImplantBaseline(draft, baseline);
   const result = classifyPeriImplant(
     toPeriImplantExam({
-      sites: PROBING_POSITIONS.map((position, i) => ({ position, probingDepthMm: depths[i]!, bleeding: draft.bop[i]!, suppuration: draft.sup[i]! })),
+      sites: PROBING_POSITIONS.map((position, i) => ({ position, probingDepthMm: depths[i]!, bleeding: draft.bop[i], suppuration: draft.sup[i] })),
       boneLevelMm: bone ?? null,
     }),
     periImplantBaseline,
@@ -72,7 +72,7 @@ export function liveVerdict(draft: SiteDraft, baseline: RecallExam | null): Live
 /** A draft filled from a saved exam, for an amendment. */
 export function draftFromExam(exam: RecallExam): SiteDraft {
   const byPosition = new Map(exam.sites.map((s) => [s.position, s]));
-  const at = (i: number) => byPosition.get(PROBING_POSITIONS[i]!)!;
+  const at = (i: number) => byPosition.get(PROBING_POSITIONS[i])!;
   const text = (n: number | null) => (n === null ? '' : String(n));
   return {
     include: true,

@@ -1,10 +1,16 @@
 import './recalls.css';
 import { Classes } from '@blueprintjs/core';
+import type { MaintenanceStatus } from '@torquetrail/contracts';
 import { CartesianGrid, Legend, Line, LineChart, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
 import { formatDate } from '../../../lib/dates';
 import { MAINTENANCE_STATUS_LABEL } from '../../../lib/labels';
 import { MAINTENANCE_STYLE } from '../../../lib/maintenance-status';
 import { useSiteExams } from '../api/recalls-api';
+
+/** A point of the chart in the colour of that exam's status (recharts passes the data point as `payload`). */
+function StatusDot({ cx, cy, payload }: { cx?: number; cy?: number; payload?: { status: MaintenanceStatus } }) {
+  return payload ? <circle cx={cx} cy={cy} r={4} fill={MAINTENANCE_STYLE[payload.status].colour} /> : null;
+}
 
 /** Probing depth over the years for one implant: deepest and mean of the six sites, dots coloured (and labelled) by status. */
 export function ProbingDepthChart({ siteId }: { siteId: string }) {
@@ -34,7 +40,7 @@ export function ProbingDepthChart({ siteId }: { siteId: string }) {
                 <CartesianGrid strokeDasharray="3 3" />
                 <XAxis dataKey="label" minTickGap={24} />
                 <YAxis unit=" mm" domain={[0, 'dataMax + 1']} allowDecimals={false} />
-                <Tooltip formatter={(value, name) => [`${value} mm`, name]} />
+                <Tooltip formatter={(value, name) => [`${String(value)} mm`, name]} />
                 <Legend />
                 <Line
                   type="monotone"
@@ -42,9 +48,7 @@ export function ProbingDepthChart({ siteId }: { siteId: string }) {
                   name="Deepest site"
                   stroke="#0f5c5c"
                   isAnimationActive={false}
-                  dot={(props: { cx?: number; cy?: number; index?: number }) => (
-                    <circle key={props.index} cx={props.cx} cy={props.cy} r={4} fill={MAINTENANCE_STYLE[points[props.index ?? 0]!.status].colour} />
-                  )}
+                  dot={<StatusDot />}
                 />
                 <Line type="monotone" dataKey="mean" name="Mean of six sites" stroke="#8a9ba8" strokeDasharray="4 3" dot={false} isAnimationActive={false} />
               </LineChart>
@@ -63,8 +67,8 @@ export function ProbingDepthChart({ siteId }: { siteId: string }) {
                 </tr>
               </thead>
               <tbody>
-                {points.map((p, i) => (
-                  <tr key={i}>
+                {points.map((p) => (
+                  <tr key={p.label}>
                     <td>{p.label}</td>
                     <td>{p.deepest} mm</td>
                     <td>{p.mean} mm</td>

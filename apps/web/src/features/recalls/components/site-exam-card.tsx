@@ -99,7 +99,7 @@ export function SiteExamCard({
                         inputMode="decimal"
                         className={Classes.INPUT}
                         aria-label={`${fdi} ${p} probing depth`}
-                        aria-invalid={depthProblem(draft.depths[i]!) !== null}
+                        aria-invalid={depthProblem(draft.depths[i]) !== null}
                         {...field(`depths.${i}`)}
                       />
                     </td>
@@ -124,7 +124,7 @@ export function SiteExamCard({
               </tbody>
             </table>
             {PROBING_POSITIONS.map((p, i) => (
-              <DepthError key={p} position={p} typed={draft.depths[i]!} path={`${errorPrefix}sites.${i}.probingDepthMm`} />
+              <DepthError key={p} position={p} typed={draft.depths[i]} path={`${errorPrefix}sites.${i}.probingDepthMm`} />
             ))}
             <div className="exam-site__fields">
               <Checkbox label="Mobility" {...withInputRef(field('mobility'))} />

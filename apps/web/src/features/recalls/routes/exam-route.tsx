@@ -23,7 +23,7 @@ const num = (text: string) => (text.trim() === '' ? null : (parseMm(text) ?? Num
 /** The form's draft as the contract's exam input (the server validates and classifies). */
 function toExamInput(d: SiteDraft) {
   return {
-    sites: PROBING_POSITIONS.map((position, i) => ({ position, probingDepthMm: num(d.depths[i]!) ?? Number.NaN, bleeding: d.bop[i]!, suppuration: d.sup[i]! })),
+    sites: PROBING_POSITIONS.map((position, i) => ({ position, probingDepthMm: num(d.depths[i]) ?? Number.NaN, bleeding: d.bop[i], suppuration: d.sup[i] })),
     mobility: d.mobility,
     plaqueIndex: d.plaqueIndex === '' ? null : Number(d.plaqueIndex),
     bleedingIndex: d.bleedingIndex === '' ? null : Number(d.bleedingIndex),
@@ -66,7 +66,7 @@ function ExamVisit({ data }: { data: ExamContext }) {
       draftSchema(CreateVisitBody, (d: VisitDraft) => ({
         patientId: data.patient.id,
         examinedOn: d.examinedOn,
-        exams: sites.filter((s) => d.drafts[s.siteId]?.include).map((s) => ({ siteId: s.siteId, ...toExamInput(d.drafts[s.siteId]!) })),
+        exams: sites.filter((s) => d.drafts[s.siteId]?.include).map((s) => ({ siteId: s.siteId, ...toExamInput(d.drafts[s.siteId]) })),
       })),
     [data.patient.id, sites],
   );

@@ -3,11 +3,11 @@ import { queryOptions, useQuery } from '@tanstack/react-query';
 import { apiRequest } from '../../../lib/api-client';
 import { siteKeys } from './keys';
 
-export function fetchSiteFile(siteId: string, signal?: AbortSignal): Promise<SiteFile> {
+function fetchSiteFile(siteId: string, signal?: AbortSignal): Promise<SiteFile> {
   return apiRequest(`/api/sites/${encodeURIComponent(siteId)}`, { schema: SiteFile, signal });
 }
 
-export const siteFileQueryOptions = (siteId: string) =>
+const siteFileQueryOptions = (siteId: string) =>
   queryOptions({
     queryKey: siteKeys.detail(siteId),
     queryFn: ({ signal }) => fetchSiteFile(siteId, signal),

@@ -1,6 +1,6 @@
 import { Callout, Card } from '@blueprintjs/core';
 import type { StackPart } from '@torquetrail/contracts';
-import type { ReactNode } from 'react';
+import { type ReactNode, useState } from 'react';
 import { formatDate, formatDateTime } from '../../../lib/dates';
 import { FactList } from './fact-list';
 import { RETIGHTEN_AFTER_MINUTES } from '@torquetrail/domain';
@@ -9,15 +9,17 @@ import { TorqueVerdictTag } from './torque-verdict-tag';
 
 /** One part of the Stack: what it is, its specification, and the last torque applied to it. */
 export function StackPartCard({ part }: { part: StackPart }) {
-  const facts: [string, ReactNode][] = [['Reference', <span className="mono">{part.referenceCode}</span>]];
+  const facts: [string, ReactNode][] = [['Reference', <span key="reference" className="mono">{part.referenceCode}</span>]];
   if (part.engaging !== null) facts.push(['Interface', INTERFACE_LABEL[part.engaging ? 'engaging' : 'non-engaging']]);
   if (part.angleDeg !== null) facts.push(['Angle', `${formatNumber(part.angleDeg)}°`]);
   else if (ANGLED_KINDS.includes(part.kind)) facts.push(['Angle', 'Straight']);
   facts.push(['Torque specification', formatTorqueSpec(part.torqueSpecNcm, part.tolerancePct)]);
-  facts.push(['Lot', part.lot ? <span className="mono">{part.lot}</span> : 'Not recorded']);
+  facts.push(['Lot', part.lot ? <span key="lot" className="mono">{part.lot}</span> : 'Not recorded']);
   facts.push(['Installed', formatDate(part.installedOn)]);
 
   const last = part.lastTorque;
+  // The time the card was first shown: "due now" or "due at" (the Site file refetches after each entry).
+  const [shownAt] = useState(() => Date.now());
   return (
     <Card className="stack-card" data-testid="stack-part" compact>
       <h3 className="stack-card__title">
@@ -27,7 +29,7 @@ export function StackPartCard({ part }: { part: StackPart }) {
       <FactList facts={facts} />
       {part.retorqueDueAt && (
         <Callout intent="warning" icon="time" compact className="stack-card__retorque" data-testid="retorque-due">
-          Re-torque due {new Date(part.retorqueDueAt).getTime() <= Date.now() ? 'now' : 'at'} {formatDateTime(part.retorqueDueAt)}: about {RETIGHTEN_AFTER_MINUTES} minutes after the initial
+          Re-torque due {new Date(part.retorqueDueAt).getTime() <= shownAt ? 'now' : 'at'} {formatDateTime(part.retorqueDueAt)}: about {RETIGHTEN_AFTER_MINUTES} minutes after the initial
           seating, to offset settling (Siamos et al. 2002). Log a re-torque to clear this reminder.
         </Callout>
       )}

@@ -4,7 +4,7 @@ import { apiRequest } from '../../../lib/api-client';
 import { siteKeys } from '../../site-file';
 
 /** The whole Timeline is fetched once; filtering by kind happens on the page (years of a site fit easily). */
-export const timelineQueryOptions = (siteId: string) =>
+const timelineQueryOptions = (siteId: string) =>
   queryOptions({
     queryKey: siteKeys.timeline(siteId),
     queryFn: ({ signal }) => apiRequest(`/api/sites/${encodeURIComponent(siteId)}/timeline`, { schema: TimelineReply, signal }),

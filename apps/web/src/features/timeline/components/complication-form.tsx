@@ -4,6 +4,7 @@ import { useMemo, useState } from 'react';
 import { FormProvider } from 'react-hook-form';
 import { Can } from '../../../lib/ability';
 import { COMPLICATION_KIND_LABEL } from '../../../lib/clinical-labels';
+import { localToday } from '../../../lib/dates';
 import { applyServerErrors, draftSchema, FormField, formErrorMessage, useContractForm, withInputRef } from '../../../lib/forms';
 import { useRecordComplication } from '../api/record-complication';
 
@@ -22,7 +23,7 @@ export function ComplicationPanel({ siteId, parts }: { siteId: string; parts: St
     () => draftSchema(ComplicationBody, (d: ComplicationDraft) => ({ siteId, kind: d.kind, componentInstanceId: d.componentInstanceId || null, occurredOn: d.occurredOn, notes: d.notes || null })),
     [siteId],
   );
-  const form = useContractForm(schema, { kind: 'screw-loosening', componentInstanceId: '', occurredOn: new Date().toISOString().slice(0, 10), notes: '' });
+  const form = useContractForm(schema, { kind: 'screw-loosening', componentInstanceId: '', occurredOn: localToday(), notes: '' });
   const record = useRecordComplication(siteId);
   const submit = (body: ComplicationBody) => record.mutate(body, { onSuccess: () => setOpen(false), onError: (error) => applyServerErrors(form.setError, error) });
   const formError = formErrorMessage(form.formState.errors, 'alone');

@@ -25,7 +25,7 @@ export function TorqueChart({ series }: { series: TorqueSeries }) {
             <YAxis domain={[0, Math.ceil(max)]} unit=" N·cm" width={70} />
             {lo !== null && hi !== null && <ReferenceArea y1={lo} y2={hi} fill="#0f766e" fillOpacity={0.1} />}
             {spec !== null && <ReferenceLine y={spec} stroke="#0f766e" strokeDasharray="4 4" label={{ value: `spec ${spec}`, position: 'insideTopRight' }} />}
-            <Tooltip labelFormatter={(t) => day.format(new Date(Number(t)))} formatter={(v) => [`${v} N·cm`, 'Applied']} />
+            <Tooltip labelFormatter={(t) => day.format(new Date(Number(t)))} formatter={(v) => [`${String(v)} N·cm`, 'Applied']} />
             <Line type="monotone" dataKey="applied" stroke="#134e4a" dot={{ r: 4 }} isAnimationActive={false} />
           </LineChart>
         </ResponsiveContainer>

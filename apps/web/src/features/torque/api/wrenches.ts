@@ -3,7 +3,7 @@ import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/r
 import { apiRequest } from '../../../lib/api-client';
 import { wrenchKeys } from './keys';
 
-export const wrenchesQueryOptions = () =>
+const wrenchesQueryOptions = () =>
   queryOptions({
     queryKey: wrenchKeys.all,
     queryFn: ({ signal }) => apiRequest('/api/wrenches', { schema: WrenchListReply, signal }),

@@ -3,15 +3,11 @@ import { MANUFACTURER_CAUTION, type StackPart, TorqueBody, type TorqueReason } f
 import { TORQUE_NCM_RANGE, torqueVerdict } from '@torquetrail/domain';
 import { FormProvider, useWatch } from 'react-hook-form';
 import { TORQUE_REASON_LABEL, TORQUE_VERDICT_LABEL, WRENCH_TYPE_LABEL } from '../../../lib/clinical-labels';
+import { localNow } from '../../../lib/dates';
 import { applyServerErrors, draftSchema, FormField, formErrorMessage, NumberInput, useContractForm, withInputRef } from '../../../lib/forms';
 import { useLogTorque } from '../api/log-torque';
 import { useWrenches } from '../api/wrenches';
 
-const localNow = () => {
-  const d = new Date();
-  d.setMinutes(d.getMinutes() - d.getTimezoneOffset());
-  return d.toISOString().slice(0, 16);
-};
 
 /** The entered local date and time as an instant; left as typed when it is no date, for the contract to refuse. */
 const instant = (local: string) => {
