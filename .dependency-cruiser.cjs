@@ -28,7 +28,7 @@ module.exports = {
     {
       name: 'web-features-through-their-index',
       comment:
-        'A web feature uses another feature only through that feature\'s public index.ts (or is composed in app/); its insides can change freely.',
+        "A web feature uses another feature only through that feature's public index.ts (or is composed in app/); its insides can change freely.",
       severity: 'error',
       from: { path: '^apps/web/src/features/([^/]+)/' },
       to: {
@@ -53,7 +53,7 @@ module.exports = {
     {
       name: 'api-repository-private-to-its-feature',
       comment:
-        'A repository is its feature\'s SQL. Shared scoping lives in authz/, shared helpers in common/ or db/; another feature asks through a service.',
+        "A repository is its feature's SQL. Shared scoping lives in authz/, shared helpers in common/ or db/; another feature asks through a service.",
       severity: 'error',
       from: { path: '^apps/api/src/([^/]+)/' },
       to: { path: '^apps/api/src/([^/]+)/[^/]+\\.repository\\.ts$', pathNot: '^apps/api/src/$1/' },

@@ -13,7 +13,9 @@ const alias = {
 // `--sequence.seed=<seed>` replays an order. Vitest takes `sequence` from the root config only (a
 // project's own is not used for the order of tests), so the tiers named on the command line
 // decide. The browser tier keeps its written order: it has not been checked for independence.
-const projectsRun = process.argv.flatMap((arg, i, argv) => (arg === '--project' ? [argv[i + 1] ?? ''] : arg.startsWith('--project=') ? [arg.slice('--project='.length)] : []));
+const projectsRun = process.argv.flatMap((arg, i, argv) =>
+  arg === '--project' ? [argv[i + 1] ?? ''] : arg.startsWith('--project=') ? [arg.slice('--project='.length)] : [],
+);
 const shuffleTests = projectsRun.length > 0 && projectsRun.every((name) => name === 'unit' || name === 'api');
 
 /** Three tiers, run one after another by scripts/test.mjs (`vitest run --project <name>`). */

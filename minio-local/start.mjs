@@ -17,7 +17,9 @@ const server = new S3rver({
 });
 
 await server.run();
-console.log(`[s3] s3rver listening on http://${host}:${s3.port} (data ${s3.dataDir}); buckets ${s3.bucket}, ${s3.testBucket}`);
+console.log(
+  `[s3] s3rver listening on http://${host}:${s3.port} (data ${s3.dataDir}); buckets ${s3.bucket}, ${s3.testBucket}`,
+);
 
 const shutdown = async () => {
   await server.close();

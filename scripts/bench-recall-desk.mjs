@@ -17,7 +17,12 @@ const dist = (p) => pathToFileURL(path.join(repoRoot, 'apps/api/dist', p)).href;
 
 await startServices();
 await ensureDatabase(DATABASE, { fresh: true });
-const env = apiEnvironment({ database: DATABASE, bucket: s3.bucket, jwtSecret: 'bench-only-secret-bench-only-secret-0123', port: 0 });
+const env = apiEnvironment({
+  database: DATABASE,
+  bucket: s3.bucket,
+  jwtSecret: 'bench-only-secret-bench-only-secret-0123',
+  port: 0,
+});
 await nodeScript('apps/api/dist/db/migrate.js', env);
 
 const { createPool, createDatabase } = await import(dist('db/database.js'));
@@ -27,8 +32,14 @@ const db = createDatabase(pool);
 const today = new Date().toISOString().slice(0, 10);
 
 const t0 = performance.now();
-const [{ id: practiceId }] = (await pool.query(`insert into practices (name) values ('Bench practice') returning id`)).rows;
-const [{ id: userId }] = (await pool.query(`insert into users (practice_id, email, display_name, role, password_hash) values ($1, 'bench@bench.example', 'Bench Hygienist', 'hygienist', 'x') returning id`, [practiceId])).rows;
+const [{ id: practiceId }] = (await pool.query(`insert into practices (name) values ('Bench practice') returning id`))
+  .rows;
+const [{ id: userId }] = (
+  await pool.query(
+    `insert into users (practice_id, email, display_name, role, password_hash) values ($1, 'bench@bench.example', 'Bench Hygienist', 'hygienist', 'x') returning id`,
+    [practiceId],
+  )
+).rows;
 await pool.query(
   `insert into patients (practice_id, chart_number, given_name, family_name, birth_date, email, smoker, periodontitis_history)
    select $1, 'B-' || lpad(g::text, 6, '0'), 'Given' || (g % 997), 'Family' || lpad((g * 7919 % 100000)::text, 5, '0'),
@@ -63,8 +74,14 @@ await pool.query(
   [practiceId],
 );
 await pool.query('analyze');
-const counts = (await pool.query(`select (select count(*) from patients) p, (select count(*) from implant_sites) s, (select count(*) from recall_exams) e, (select count(*) from recalls) r`)).rows[0];
-console.log(`seeded ${counts.p} patients, ${counts.s} implant sites, ${counts.e} exams, ${counts.r} recalls in ${((performance.now() - t0) / 1000).toFixed(1)} s`);
+const counts = (
+  await pool.query(
+    `select (select count(*) from patients) p, (select count(*) from implant_sites) s, (select count(*) from recall_exams) e, (select count(*) from recalls) r`,
+  )
+).rows[0];
+console.log(
+  `seeded ${counts.p} patients, ${counts.s} implant sites, ${counts.e} exams, ${counts.r} recalls in ${((performance.now() - t0) / 1000).toFixed(1)} s`,
+);
 
 const scope = { practiceId, sharedPatientIds: [] };
 const cases = [
@@ -78,7 +95,9 @@ const cases = [
   ['search "family12"', { filter: 'all', sort: 'dueOn', dir: 'asc', search: 'family12' }, 50, 0],
   ['CSV export (all rows)', { filter: 'all', sort: 'dueOn', dir: 'asc' }, 50_000, 0],
 ];
-console.log(`\n${'query'.padEnd(34)} ${'rows'.padStart(6)} ${'total'.padStart(6)} ${'median ms'.padStart(10)} ${'max ms'.padStart(8)}`);
+console.log(
+  `\n${'query'.padEnd(34)} ${'rows'.padStart(6)} ${'total'.padStart(6)} ${'median ms'.padStart(10)} ${'max ms'.padStart(8)}`,
+);
 for (const [name, q, limit, offset] of cases) {
   const times = [];
   let last;
@@ -88,6 +107,8 @@ for (const [name, q, limit, offset] of cases) {
     times.push(performance.now() - start);
   }
   times.sort((a, b) => a - b);
-  console.log(`${name.padEnd(34)} ${String(last.rows.length).padStart(6)} ${String(last.total).padStart(6)} ${times[Math.floor(RUNS / 2)].toFixed(1).padStart(10)} ${times[RUNS - 1].toFixed(1).padStart(8)}`);
+  console.log(
+    `${name.padEnd(34)} ${String(last.rows.length).padStart(6)} ${String(last.total).padStart(6)} ${times[Math.floor(RUNS / 2)].toFixed(1).padStart(10)} ${times[RUNS - 1].toFixed(1).padStart(8)}`,
+  );
 }
 await pool.end();

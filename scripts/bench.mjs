@@ -7,5 +7,8 @@ import { run } from './lib/proc.mjs';
 const benches = ['scripts/bench-recall-desk.mjs'];
 for (const bench of benches) {
   console.log(`\n== ${bench}`);
-  await run(process.execPath, [path.join(repoRoot, bench), ...process.argv.slice(2)], { cwd: repoRoot, env: process.env });
+  await run(process.execPath, [path.join(repoRoot, bench), ...process.argv.slice(2)], {
+    cwd: repoRoot,
+    env: process.env,
+  });
 }

@@ -11,14 +11,37 @@ const { ensureDatabase } = await import('./lib/postgres.mjs');
 await startServices();
 await ensureDatabase(pg.database);
 await buildAll();
-const env = { ...process.env, ...apiEnvironment({ database: pg.database, bucket: s3.bucket, jwtSecret: localJwtSecret(), port: app.port }), NODE_ENV: 'development', WEB_DIST: '' };
+const env = {
+  ...process.env,
+  ...apiEnvironment({ database: pg.database, bucket: s3.bucket, jwtSecret: localJwtSecret(), port: app.port }),
+  NODE_ENV: 'development',
+  WEB_DIST: '',
+};
 await nodeScript('apps/api/dist/db/migrate.js', env);
 await nodeScript('apps/api/dist/seed/seed.js', env);
 
 const children = [
-  spawn(process.execPath, [path.join(repoRoot, 'node_modules/typescript/bin/tsc'), '-p', 'apps/api/tsconfig.build.json', '--watch', '--preserveWatchOutput'], { cwd: repoRoot, stdio: 'inherit' }),
-  spawn(process.execPath, ['--watch-path=apps/api/dist', 'apps/api/dist/main.js'], { cwd: repoRoot, env, stdio: 'inherit' }),
-  spawn('npm', ['run', 'dev', '-w', 'apps/web'], { cwd: repoRoot, env: { ...process.env, API_PORT: String(app.port) }, stdio: 'inherit' }),
+  spawn(
+    process.execPath,
+    [
+      path.join(repoRoot, 'node_modules/typescript/bin/tsc'),
+      '-p',
+      'apps/api/tsconfig.build.json',
+      '--watch',
+      '--preserveWatchOutput',
+    ],
+    { cwd: repoRoot, stdio: 'inherit' },
+  ),
+  spawn(process.execPath, ['--watch-path=apps/api/dist', 'apps/api/dist/main.js'], {
+    cwd: repoRoot,
+    env,
+    stdio: 'inherit',
+  }),
+  spawn('npm', ['run', 'dev', '-w', 'apps/web'], {
+    cwd: repoRoot,
+    env: { ...process.env, API_PORT: String(app.port) },
+    stdio: 'inherit',
+  }),
 ];
 const stop = () => children.forEach((c) => c.kill('SIGTERM'));
 process.on('SIGINT', stop);

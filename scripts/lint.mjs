@@ -18,7 +18,11 @@ export const lintChecks = {
   format: () => run(bin('oxfmt'), ['--check'], { cwd: repoRoot }),
   bounds: async () => {
     const depcruise = await ensureBoundaryTool();
-    await run(depcruise, ['--config', '.dependency-cruiser.cjs', '--output-type', 'err', 'apps', 'packages', 'scripts', 'minio-local'], { cwd: repoRoot });
+    await run(
+      depcruise,
+      ['--config', '.dependency-cruiser.cjs', '--output-type', 'err', 'apps', 'packages', 'scripts', 'minio-local'],
+      { cwd: repoRoot },
+    );
   },
   unused: () => run(bin('knip'), ['--no-progress'], { cwd: repoRoot }),
 };

@@ -30,7 +30,11 @@ const smtp = new SMTPServer({
           subject: parsed.subject ?? '',
           text: parsed.text ?? '',
           headers: Object.fromEntries([...parsed.headers].filter(([, v]) => typeof v === 'string')),
-          attachments: parsed.attachments.map((a) => ({ filename: a.filename, contentType: a.contentType, size: a.size })),
+          attachments: parsed.attachments.map((a) => ({
+            filename: a.filename,
+            contentType: a.contentType,
+            size: a.size,
+          })),
         };
         fs.writeFileSync(path.join(mail.dataDir, `${id}.eml`), raw);
         fs.writeFileSync(path.join(mail.dataDir, `${id}.json`), JSON.stringify(summary, null, 2));
@@ -51,7 +55,8 @@ function listMessages() {
     .map((f) => JSON.parse(fs.readFileSync(path.join(mail.dataDir, f), 'utf8')));
 }
 
-const escapeHtml = (s) => String(s).replace(/[&<>"]/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;' })[c]);
+const escapeHtml = (s) =>
+  String(s).replace(/[&<>"]/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;' })[c]);
 
 const web = http.createServer((req, res) => {
   const messages = listMessages();
@@ -62,15 +67,22 @@ const web = http.createServer((req, res) => {
   }
   const rows = messages
     .reverse()
-    .map((m) => `<tr><td>${escapeHtml(m.receivedAt)}</td><td>${escapeHtml(m.envelopeTo.join(', '))}</td><td>${escapeHtml(m.subject)}</td><td><pre>${escapeHtml(m.text)}</pre></td></tr>`)
+    .map(
+      (m) =>
+        `<tr><td>${escapeHtml(m.receivedAt)}</td><td>${escapeHtml(m.envelopeTo.join(', '))}</td><td>${escapeHtml(m.subject)}</td><td><pre>${escapeHtml(m.text)}</pre></td></tr>`,
+    )
     .join('');
   res.writeHead(200, { 'content-type': 'text/html; charset=utf-8' });
-  res.end(`<!doctype html><meta charset="utf-8"><title>Torquetrail mail catcher</title><h1>Caught mail (${messages.length})</h1><table border="1" cellpadding="4"><tr><th>Received</th><th>To</th><th>Subject</th><th>Text</th></tr>${rows}</table>`);
+  res.end(
+    `<!doctype html><meta charset="utf-8"><title>Torquetrail mail catcher</title><h1>Caught mail (${messages.length})</h1><table border="1" cellpadding="4"><tr><th>Received</th><th>To</th><th>Subject</th><th>Text</th></tr>${rows}</table>`,
+  );
 });
 
 smtp.listen(mail.smtpPort, host, () => {
   web.listen(mail.httpPort, host, () => {
-    console.log(`[mail] SMTP catcher on ${host}:${mail.smtpPort}; messages at http://${host}:${mail.httpPort}/ (data ${mail.dataDir})`);
+    console.log(
+      `[mail] SMTP catcher on ${host}:${mail.smtpPort}; messages at http://${host}:${mail.httpPort}/ (data ${mail.dataDir})`,
+    );
   });
 });
 

@@ -10,11 +10,15 @@ import { ensureDatabase } from './lib/postgres.mjs';
 async function confirmed() {
   if (process.argv.includes('--yes')) return true;
   if (!process.stdin.isTTY) {
-    console.error(`demo:reset drops the database "${pg.database}"; run it in a terminal to confirm, or pass --yes (npm run demo:reset -- --yes).`);
+    console.error(
+      `demo:reset drops the database "${pg.database}"; run it in a terminal to confirm, or pass --yes (npm run demo:reset -- --yes).`,
+    );
     return false;
   }
   const prompt = readline.createInterface({ input: process.stdin, output: process.stdout });
-  const answer = await prompt.question(`This drops the database "${pg.database}" and everything in it, then seeds the demo. Type "reset" to go on: `);
+  const answer = await prompt.question(
+    `This drops the database "${pg.database}" and everything in it, then seeds the demo. Type "reset" to go on: `,
+  );
   prompt.close();
   return answer.trim() === 'reset';
 }

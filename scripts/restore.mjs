@@ -24,7 +24,9 @@ try {
     log: (line) => console.log(`[restore] ${line}`),
   });
   if (result.differences.length > 0) {
-    console.log(`[restore] row counts differ from the manifest in: ${result.differences.join(', ')} (was the source busy during the backup?)`);
+    console.log(
+      `[restore] row counts differ from the manifest in: ${result.differences.join(', ')} (was the source busy during the backup?)`,
+    );
   }
   const rows = Object.values(result.rows).reduce((a, b) => a + b, 0);
   console.log(`[restore] done: ${rows} rows, ${result.manifest.bucket.objects.length} objects, every hash verified`);

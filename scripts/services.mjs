@@ -23,7 +23,9 @@ async function startBackground({ name, script, ports }) {
   }
   for (const port of ports) {
     if (await portOpen(port)) {
-      throw new ServiceError(`port ${port} on 127.0.0.1 is taken by another program, so the ${name} service cannot start`);
+      throw new ServiceError(
+        `port ${port} on 127.0.0.1 is taken by another program, so the ${name} service cannot start`,
+      );
     }
   }
   const log = fs.openSync(path.join(runDir, `${name}.log`), 'a');

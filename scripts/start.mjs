@@ -14,12 +14,19 @@ async function main() {
   await startServices();
   await ensureDatabase(pg.database);
   await buildAll();
-  const env = { ...apiEnvironment({ database: pg.database, bucket: s3.bucket, jwtSecret: localJwtSecret(), port: app.port }), NODE_ENV: 'development' };
+  const env = {
+    ...apiEnvironment({ database: pg.database, bucket: s3.bucket, jwtSecret: localJwtSecret(), port: app.port }),
+    NODE_ENV: 'development',
+  };
   await nodeScript('apps/api/dist/db/migrate.js', env);
   await nodeScript('apps/api/dist/seed/seed.js', env);
   if (await portOpen(app.port)) throw new Error(`port ${app.port} on 127.0.0.1 is taken; start with PORT=… npm start`);
 
-  const api = spawn(process.execPath, [path.join(repoRoot, 'apps/api/dist/main.js')], { cwd: repoRoot, env: { ...process.env, ...env }, stdio: 'inherit' });
+  const api = spawn(process.execPath, [path.join(repoRoot, 'apps/api/dist/main.js')], {
+    cwd: repoRoot,
+    env: { ...process.env, ...env },
+    stdio: 'inherit',
+  });
   const stop = () => api.kill('SIGTERM');
   process.on('SIGINT', stop);
   process.on('SIGTERM', stop);

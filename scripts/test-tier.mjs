@@ -33,7 +33,11 @@ try {
     await ensureDatabase(database, { fresh: true });
     await nodeScript('apps/api/dist/db/migrate.js', env);
   }
-  await run(process.execPath, [path.join(repoRoot, 'node_modules/vitest/vitest.mjs'), 'run', '--project', tier, ...filters], { cwd: repoRoot, env: { ...process.env, ...env } });
+  await run(
+    process.execPath,
+    [path.join(repoRoot, 'node_modules/vitest/vitest.mjs'), 'run', '--project', tier, ...filters],
+    { cwd: repoRoot, env: { ...process.env, ...env } },
+  );
 } catch (error) {
   console.error(error.message);
   process.exit(1);

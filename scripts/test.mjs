@@ -17,7 +17,15 @@ function runTier(name, env) {
   return new Promise((resolve) => {
     const child = spawn(
       process.execPath,
-      [path.join(repoRoot, 'node_modules/vitest/vitest.mjs'), 'run', '--project', name, '--reporter=default', '--reporter=json', `--outputFile.json=${outputFile}`],
+      [
+        path.join(repoRoot, 'node_modules/vitest/vitest.mjs'),
+        'run',
+        '--project',
+        name,
+        '--reporter=default',
+        '--reporter=json',
+        `--outputFile.json=${outputFile}`,
+      ],
       { cwd: repoRoot, env: { ...process.env, ...env }, stdio: 'inherit' },
     );
     child.on('exit', (code) => {
@@ -27,7 +35,9 @@ function runTier(name, env) {
         const report = JSON.parse(fs.readFileSync(outputFile, 'utf8'));
         passed = report.numPassedTests;
         // Failed tests, plus files that failed without a failing test (e.g. an import error).
-        const brokenFiles = report.testResults.filter((file) => file.status === 'failed' && !file.assertionResults.some((a) => a.status === 'failed'));
+        const brokenFiles = report.testResults.filter(
+          (file) => file.status === 'failed' && !file.assertionResults.some((a) => a.status === 'failed'),
+        );
         failed = report.numFailedTests + brokenFiles.length;
       } catch {
         failed = 1; // the runner died before writing its report
@@ -52,7 +62,12 @@ async function main() {
   await buildAll();
   await typecheckAll();
   const env = {
-    ...apiEnvironment({ database: pg.testDatabase, bucket: s3.testBucket, jwtSecret: randomBytes(48).toString('base64url'), port: 0 }),
+    ...apiEnvironment({
+      database: pg.testDatabase,
+      bucket: s3.testBucket,
+      jwtSecret: randomBytes(48).toString('base64url'),
+      port: 0,
+    }),
     NODE_ENV: 'test',
     CHROMIUM_PATH: chromium,
   };

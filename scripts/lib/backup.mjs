@@ -7,7 +7,14 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { pipeline } from 'node:stream/promises';
 import { Transform } from 'node:stream';
-import { CreateBucketCommand, GetObjectCommand, HeadBucketCommand, ListObjectsV2Command, PutObjectCommand, S3Client } from '@aws-sdk/client-s3';
+import {
+  CreateBucketCommand,
+  GetObjectCommand,
+  HeadBucketCommand,
+  ListObjectsV2Command,
+  PutObjectCommand,
+  S3Client,
+} from '@aws-sdk/client-s3';
 import pgModule from 'pg';
 import { capture } from './proc.mjs';
 import { pgProgram } from './postgres.mjs';
@@ -100,7 +107,11 @@ export async function backup({ databaseUrl, s3, bucket }, dir, log = () => {}) {
   const { dbname, env } = libpq(databaseUrl);
   const dumpFile = path.join(dir, DUMP);
   log(`dumping the database (${Object.keys(rows).length} tables) …`);
-  const dump = capture(pgProgram('pg_dump'), ['--format=custom', '--no-owner', '--no-acl', `--file=${dumpFile}`, `--dbname=${dbname}`], { env });
+  const dump = capture(
+    pgProgram('pg_dump'),
+    ['--format=custom', '--no-owner', '--no-acl', `--file=${dumpFile}`, `--dbname=${dbname}`],
+    { env },
+  );
   if (dump.status !== 0) throw new BackupError(`pg_dump failed: ${dump.stderr.trim()}`);
 
   const objects = [];
@@ -197,8 +208,12 @@ export async function restore({ databaseUrl, s3, bucket }, dir, { force = false,
   const dbEmpty = await databaseIsEmpty(databaseUrl);
   const objectsEmpty = await bucketIsEmpty(s3, bucket);
   if (!force && (!dbEmpty || !objectsEmpty)) {
-    const what = [!dbEmpty && 'the database has tables', !objectsEmpty && `bucket ${bucket} has objects`].filter(Boolean).join(' and ');
-    throw new BackupError(`refusing to restore: ${what}. Restore into an empty database and bucket, or pass --force to overwrite.`);
+    const what = [!dbEmpty && 'the database has tables', !objectsEmpty && `bucket ${bucket} has objects`]
+      .filter(Boolean)
+      .join(' and ');
+    throw new BackupError(
+      `refusing to restore: ${what}. Restore into an empty database and bucket, or pass --force to overwrite.`,
+    );
   }
   // pg_restore --clean cannot drop pg-boss's partitioned tables, so a forced restore empties the
   // database by dropping its schemas (the user owns them on any installation that runs migrations).
@@ -223,6 +238,8 @@ export async function restore({ databaseUrl, s3, bucket }, dir, { force = false,
   }
   log(`restored ${manifest.bucket.objects.length} objects into bucket ${bucket}`);
   const rows = await countRows(databaseUrl);
-  const differences = Object.keys({ ...rows, ...manifest.database.rows }).filter((t) => rows[t] !== manifest.database.rows[t]);
+  const differences = Object.keys({ ...rows, ...manifest.database.rows }).filter(
+    (t) => rows[t] !== manifest.database.rows[t],
+  );
   return { manifest, rows, differences };
 }

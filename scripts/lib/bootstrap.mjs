@@ -71,4 +71,3 @@ export function localJwtSecret() {
 export function nodeScript(script, env) {
   return run(process.execPath, [path.join(repoRoot, script)], { cwd: repoRoot, env: { ...process.env, ...env } });
 }
-

@@ -11,7 +11,8 @@ export class ServiceError extends Error {}
 /** Path of a PostgreSQL client or server program of the newest installed version (pg_dump, pg_restore …). */
 export function pgProgram(name) {
   const bin = findBinDir();
-  if (!bin) throw new ServiceError('PostgreSQL binaries are missing: run npm start once, or apt-get install postgresql');
+  if (!bin)
+    throw new ServiceError('PostgreSQL binaries are missing: run npm start once, or apt-get install postgresql');
   return path.join(bin, name);
 }
 
@@ -33,7 +34,9 @@ async function installServer() {
   console.log('[postgres] server binaries missing: installing Debian package postgresql …');
   try {
     await run('apt-get', ['update', '-qq'], { env: { ...process.env, DEBIAN_FRONTEND: 'noninteractive' } });
-    await run('apt-get', ['install', '-y', '-qq', 'postgresql'], { env: { ...process.env, DEBIAN_FRONTEND: 'noninteractive' } });
+    await run('apt-get', ['install', '-y', '-qq', 'postgresql'], {
+      env: { ...process.env, DEBIAN_FRONTEND: 'noninteractive' },
+    });
   } catch (error) {
     throw new ServiceError(`apt-get could not install postgresql: ${error.message}`);
   }
@@ -86,7 +89,15 @@ export async function startPostgres() {
     fs.writeFileSync(pwfile, pg.password + '\n', { mode: 0o600 });
     if (isRoot()) capture('chown', ['postgres:postgres', pwfile]);
     const init = asServerUser(path.join(bin, 'initdb'), [
-      '-D', data, '-U', pg.user, `--pwfile=${pwfile}`, '--auth=scram-sha-256', '-E', 'UTF8', '--locale=C.UTF-8',
+      '-D',
+      data,
+      '-U',
+      pg.user,
+      `--pwfile=${pwfile}`,
+      '--auth=scram-sha-256',
+      '-E',
+      'UTF8',
+      '--locale=C.UTF-8',
     ]);
     fs.rmSync(pwfile, { force: true });
     if (init.status !== 0) throw new ServiceError(`initdb failed:\n${init.stderr || init.stdout}`);
@@ -107,10 +118,25 @@ export async function startPostgres() {
         'Stop that program or choose another port with TT_PG_PORT=…',
     );
   }
-  const start = asServerUser(path.join(bin, 'pg_ctl'), ['start', '-D', data, '-l', log, '-w', '-t', '60', '-o', `-p ${pg.port}`]);
+  const start = asServerUser(path.join(bin, 'pg_ctl'), [
+    'start',
+    '-D',
+    data,
+    '-l',
+    log,
+    '-w',
+    '-t',
+    '60',
+    '-o',
+    `-p ${pg.port}`,
+  ]);
   if (start.status !== 0) {
     let tail = '';
-    try { tail = fs.readFileSync(log, 'utf8').split('\n').slice(-15).join('\n'); } catch { /* no log yet */ }
+    try {
+      tail = fs.readFileSync(log, 'utf8').split('\n').slice(-15).join('\n');
+    } catch {
+      /* no log yet */
+    }
     throw new ServiceError(`PostgreSQL did not start (pg_ctl: ${start.stderr.trim() || start.stdout.trim()})\n${tail}`);
   }
   console.log(`[postgres] started on ${host}:${pg.port} (data ${data})`);
@@ -133,7 +159,13 @@ export function stopPostgres() {
 /** Creates a database when missing (and drops it first when `fresh`). */
 export async function ensureDatabase(name, { fresh = false } = {}) {
   const { default: pgClient } = await import('pg');
-  const client = new pgClient.Client({ host, port: pg.port, user: pg.user, password: pg.password, database: 'postgres' });
+  const client = new pgClient.Client({
+    host,
+    port: pg.port,
+    user: pg.user,
+    password: pg.password,
+    database: 'postgres',
+  });
   await client.connect();
   try {
     if (fresh) await client.query(`DROP DATABASE IF EXISTS "${name}" WITH (FORCE)`);

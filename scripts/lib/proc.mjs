@@ -18,7 +18,11 @@ export function run(command, args, options = {}) {
 /** Runs a command and returns { status, stdout, stderr } without throwing. */
 export function capture(command, args, options = {}) {
   const result = spawnSync(command, args, { encoding: 'utf8', ...options });
-  return { status: result.status ?? 1, stdout: result.stdout ?? '', stderr: result.stderr ?? (result.error?.message ?? '') };
+  return {
+    status: result.status ?? 1,
+    stdout: result.stdout ?? '',
+    stderr: result.stderr ?? result.error?.message ?? '',
+  };
 }
 
 export function isAlive(pid) {
@@ -51,8 +55,14 @@ export function portOpen(port, host = '127.0.0.1') {
   return new Promise((resolve) => {
     const socket = net.connect({ port, host });
     socket.setTimeout(500);
-    socket.once('connect', () => { socket.destroy(); resolve(true); });
-    socket.once('timeout', () => { socket.destroy(); resolve(false); });
+    socket.once('connect', () => {
+      socket.destroy();
+      resolve(true);
+    });
+    socket.once('timeout', () => {
+      socket.destroy();
+      resolve(false);
+    });
     socket.once('error', () => resolve(false));
   });
 }

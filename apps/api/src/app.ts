@@ -18,7 +18,10 @@ import { createLogger, httpLogger, PinoNestLogger } from './logging/logger.js';
  * Builds the whole app (used by main.ts and by the API and browser tests alike): every route
  * under /api, JSON 404 for unknown /api paths, and the built web app from the same origin.
  */
-export async function createApp(env: Env, options: { logger?: false; logStream?: DestinationStream } = {}): Promise<INestApplication> {
+export async function createApp(
+  env: Env,
+  options: { logger?: false; logStream?: DestinationStream } = {},
+): Promise<INestApplication> {
   const logger = createLogger(options.logger === false ? 'silent' : env.LOG_LEVEL, options.logStream);
   const app = await NestFactory.create<NestExpressApplication>(AppModule.forRoot(env), {
     logger: new PinoNestLogger(logger),

@@ -6,7 +6,15 @@ import { and, eq, sql } from 'drizzle-orm';
 import type { AnyPgColumn, PgTable } from 'drizzle-orm/pg-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Db } from '../src/db/database.js';
-import { complications, componentInstances, components, placements, recallExams, restorations, torqueEvents } from '../src/db/schema/index.js';
+import {
+  complications,
+  componentInstances,
+  components,
+  placements,
+  recallExams,
+  restorations,
+  torqueEvents,
+} from '../src/db/schema/index.js';
 import { larkspurId, parts } from './support/ledger-fixtures.js';
 import { type AccountKey, patientId, signInAll, siteId, startTestApp, type TestContext } from './support/test-app.js';
 
@@ -16,13 +24,24 @@ const ids: Record<string, string> = {};
 let tex: (suffix: string) => string;
 
 const POSITIONS = ['mesiobuccal', 'buccal', 'distobuccal', 'mesiolingual', 'lingual', 'distolingual'] as const;
-const healthyExam = () => ({ sites: POSITIONS.map((position) => ({ position, probingDepthMm: 3, bleeding: false, suppuration: false })), mobility: false, plaqueIndex: 0, bleedingIndex: 0 });
+const healthyExam = () => ({
+  sites: POSITIONS.map((position) => ({ position, probingDepthMm: 3, bleeding: false, suppuration: false })),
+  mobility: false,
+  plaqueIndex: 0,
+  bleedingIndex: 0,
+});
 const wendellPlan = () => ({
   kind: 'splinted-bridge',
   retention: 'screw-to-implant',
   material: 'zirconia',
   copingsSplinted: true,
-  sites: [ids.wendell15, ids.wendell16].map((s) => ({ siteId: s, interface: 'non-engaging', impressionCoping: 'non-engaging', screwComponentIds: [tex('PSI')], impressionCopingComponentId: tex('ICN-O') })),
+  sites: [ids.wendell15, ids.wendell16].map((s) => ({
+    siteId: s,
+    interface: 'non-engaging',
+    impressionCoping: 'non-engaging',
+    screwComponentIds: [tex('PSI')],
+    impressionCopingComponentId: tex('ICN-O'),
+  })),
 });
 
 type Amendable = PgTable & { id: AnyPgColumn; supersedesId: AnyPgColumn };
@@ -34,54 +53,132 @@ async function created(res: { status: number; body: { id?: string; exams?: { id:
 
 let examDay = 0;
 /** Per table: how to get a current version, how to amend it over HTTP, and the 409 message a second amendment gets. */
-const TABLES: { name: string; table: Amendable; version: () => Promise<string>; amend: (id: string) => PromiseLike<{ status: number; body: { message?: string } }>; message: string }[] = [
+const TABLES: {
+  name: string;
+  table: Amendable;
+  version: () => Promise<string>;
+  amend: (id: string) => PromiseLike<{ status: number; body: { message?: string } }>;
+  message: string;
+}[] = [
   {
     name: 'placements',
     table: placements,
     // The current placement of Wendell's 15 (each test below leaves a newer version there).
-    version: async () => (await ctx.db.select({ id: placements.id }).from(placements).where(and(eq(placements.siteId, ids.wendell15), sql`not exists (select 1 from placements newer where newer.supersedes_id = ${placements.id})`)))[0].id,
+    version: async () =>
+      (
+        await ctx.db
+          .select({ id: placements.id })
+          .from(placements)
+          .where(
+            and(
+              eq(placements.siteId, ids.wendell15),
+              sql`not exists (select 1 from placements newer where newer.supersedes_id = ${placements.id})`,
+            ),
+          )
+      )[0].id,
     amend: async (id) => {
       const [p] = await ctx.db.select().from(placements).where(eq(placements.id, id));
-      return ctx.http.post(`/api/placements/${id}/amendments`).set('Cookie', cookies.dentist).send({ platformId: p.platformId, placedOn: p.placedOn, lengthMm: p.lengthMm, amendmentReason: 'Length re-read' });
+      return ctx.http
+        .post(`/api/placements/${id}/amendments`)
+        .set('Cookie', cookies.dentist)
+        .send({
+          platformId: p.platformId,
+          placedOn: p.placedOn,
+          lengthMm: p.lengthMm,
+          amendmentReason: 'Length re-read',
+        });
     },
     message: 'This placement was already amended; amend the current version',
   },
   {
     name: 'restorations',
     table: restorations,
-    version: async () => created(await ctx.http.post('/api/restorations').set('Cookie', cookies.dentist).send({ ...wendellPlan(), patientId: ids.wendell })),
-    amend: (id) => ctx.http.post(`/api/restorations/${id}/amendments`).set('Cookie', cookies.dentist).send({ ...wendellPlan(), amendmentReason: 'Shade at try-in' }),
+    version: async () =>
+      created(
+        await ctx.http
+          .post('/api/restorations')
+          .set('Cookie', cookies.dentist)
+          .send({ ...wendellPlan(), patientId: ids.wendell }),
+      ),
+    amend: (id) =>
+      ctx.http
+        .post(`/api/restorations/${id}/amendments`)
+        .set('Cookie', cookies.dentist)
+        .send({ ...wendellPlan(), amendmentReason: 'Shade at try-in' }),
     message: 'This version was already amended; amend the current version',
   },
   {
     name: 'torque_events',
     table: torqueEvents,
-    version: async () => created(await ctx.http.post('/api/torque-events').set('Cookie', cookies.dentist).send({ componentInstanceId: ids.ferrazScrew, appliedNcm: 25, reason: 're-torque-at-recall', performedAt: '2025-06-06T10:00:00Z' })),
-    amend: (id) => ctx.http.post(`/api/torque-events/${id}/amendments`).set('Cookie', cookies.dentist).send({ appliedNcm: 24, performedAt: '2025-06-06T10:00:00Z', amendmentReason: 'Typed 25, read 24' }),
+    version: async () =>
+      created(
+        await ctx.http
+          .post('/api/torque-events')
+          .set('Cookie', cookies.dentist)
+          .send({
+            componentInstanceId: ids.ferrazScrew,
+            appliedNcm: 25,
+            reason: 're-torque-at-recall',
+            performedAt: '2025-06-06T10:00:00Z',
+          }),
+      ),
+    amend: (id) =>
+      ctx.http
+        .post(`/api/torque-events/${id}/amendments`)
+        .set('Cookie', cookies.dentist)
+        .send({ appliedNcm: 24, performedAt: '2025-06-06T10:00:00Z', amendmentReason: 'Typed 25, read 24' }),
     message: 'This entry was already amended; amend the current version',
   },
   {
     name: 'complications',
     table: complications,
-    version: async () => created(await ctx.http.post('/api/complications').set('Cookie', cookies.dentist).send({ siteId: ids.ferraz14, kind: 'other', occurredOn: '2025-01-01' })),
-    amend: (id) => ctx.http.post(`/api/complications/${id}/amendments`).set('Cookie', cookies.dentist).send({ kind: 'screw-loosening', occurredOn: '2025-01-01', amendmentReason: 'Wrong kind' }),
+    version: async () =>
+      created(
+        await ctx.http
+          .post('/api/complications')
+          .set('Cookie', cookies.dentist)
+          .send({ siteId: ids.ferraz14, kind: 'other', occurredOn: '2025-01-01' }),
+      ),
+    amend: (id) =>
+      ctx.http
+        .post(`/api/complications/${id}/amendments`)
+        .set('Cookie', cookies.dentist)
+        .send({ kind: 'screw-loosening', occurredOn: '2025-01-01', amendmentReason: 'Wrong kind' }),
     message: 'This entry was already amended; amend the current version',
   },
   {
     name: 'recall_exams',
     table: recallExams,
     version: async () =>
-      created(await ctx.http.post('/api/recalls/visits').set('Cookie', cookies.hygienist).send({ patientId: ids.ferraz, examinedOn: `2025-02-${String(++examDay).padStart(2, '0')}`, exams: [{ siteId: ids.ferraz14, ...healthyExam() }] })),
-    amend: (id) => ctx.http.post(`/api/recalls/exams/${id}/amend`).set('Cookie', cookies.hygienist).send({ ...healthyExam(), amendmentReason: 'Probe misread' }),
+      created(
+        await ctx.http
+          .post('/api/recalls/visits')
+          .set('Cookie', cookies.hygienist)
+          .send({
+            patientId: ids.ferraz,
+            examinedOn: `2025-02-${String(++examDay).padStart(2, '0')}`,
+            exams: [{ siteId: ids.ferraz14, ...healthyExam() }],
+          }),
+      ),
+    amend: (id) =>
+      ctx.http
+        .post(`/api/recalls/exams/${id}/amend`)
+        .set('Cookie', cookies.hygienist)
+        .send({ ...healthyExam(), amendmentReason: 'Probe misread' }),
     message: 'This exam has already been amended; amend its latest version',
   },
 ];
 
 /** Writes a copy of the version as its amendment, straight into the table (no service in between). */
 async function insertCopyAsAmendment(db: Db, table: Amendable, versionId: string, supersedesId = versionId) {
-  const [row] = (await db.select().from(table as typeof placements).where(eq(table.id, versionId))) as Record<string, unknown>[];
+  const [row] = (await db
+    .select()
+    .from(table as typeof placements)
+    .where(eq(table.id, versionId))) as Record<string, unknown>[];
   const { id: _id, ...copy } = row;
-  await db.insert(table as typeof placements).values({ ...copy, supersedesId, amendmentReason: 'Written directly' } as typeof placements.$inferInsert);
+  await db
+    .insert(table as typeof placements)
+    .values({ ...copy, supersedesId, amendmentReason: 'Written directly' } as typeof placements.$inferInsert);
 }
 
 /** The error PostgreSQL raised (drizzle wraps it as `cause`). */
@@ -106,7 +203,13 @@ async function untilInsertWaits(table: string) {
   return false;
 }
 
-const amendmentsOf = async (table: Amendable, id: string) => (await ctx.db.select({ id: table.id }).from(table as typeof placements).where(eq(table.supersedesId, id))).length;
+const amendmentsOf = async (table: Amendable, id: string) =>
+  (
+    await ctx.db
+      .select({ id: table.id })
+      .from(table as typeof placements)
+      .where(eq(table.supersedesId, id))
+  ).length;
 
 beforeAll(async () => {
   ctx = await startTestApp();
@@ -121,41 +224,52 @@ beforeAll(async () => {
     .select({ id: componentInstances.id })
     .from(componentInstances)
     .innerJoin(components, eq(components.id, componentInstances.componentId))
-    .where(and(eq(componentInstances.siteId, ids.ferraz14), sql`${componentInstances.removedOn} is null`, eq(components.kind, 'abutment-screw')));
+    .where(
+      and(
+        eq(componentInstances.siteId, ids.ferraz14),
+        sql`${componentInstances.removedOn} is null`,
+        eq(components.kind, 'abutment-screw'),
+      ),
+    );
   ids.ferrazScrew = screw.id;
 });
 afterAll(() => ctx.close());
 
-describe.each(TABLES)('$name: one amendment per version, kept by the database', ({ name, table, version, amend, message }) => {
-  it('refuses a second amendment of one version written straight into the table (unique index on supersedes_id)', async () => {
-    const id = await version();
-    await insertCopyAsAmendment(ctx.db, table, id);
-    const error = await refusal(insertCopyAsAmendment(ctx.db, table, id));
-    expect(error).toMatchObject({ code: '23505', constraint: `${name}_supersedes_unique` });
-    expect(await amendmentsOf(table, id)).toBe(1);
-  });
-
-  it('refuses an amendment of a version that does not exist (foreign key supersedes_id → id)', async () => {
-    const error = await refusal(insertCopyAsAmendment(ctx.db, table, await version(), '00000000-0000-4000-8000-000000000000'));
-    expect(error).toMatchObject({ code: '23503', constraint: `${name}_supersedes_fk` });
-  });
-
-  it('answers 409 with the usual message when an amendment loses the race on the index, and the same message afterwards', async () => {
-    const id = await version();
-    let reply: Promise<{ status: number; body: { message?: string } }> | undefined;
-    // Another session's amendment is written but not yet committed: the request passes the
-    // service's up-front check, then its insert waits on the unique index until that commit.
-    await ctx.db.transaction(async (tx) => {
-      await insertCopyAsAmendment(tx, table, id);
-      reply = Promise.resolve(amend(id));
-      expect(await untilInsertWaits(name)).toBe(true);
+describe.each(TABLES)(
+  '$name: one amendment per version, kept by the database',
+  ({ name, table, version, amend, message }) => {
+    it('refuses a second amendment of one version written straight into the table (unique index on supersedes_id)', async () => {
+      const id = await version();
+      await insertCopyAsAmendment(ctx.db, table, id);
+      const error = await refusal(insertCopyAsAmendment(ctx.db, table, id));
+      expect(error).toMatchObject({ code: '23505', constraint: `${name}_supersedes_unique` });
+      expect(await amendmentsOf(table, id)).toBe(1);
     });
-    const raced = await reply!;
-    expect(raced.status).toBe(409);
-    expect(raced.body.message).toBe(message);
-    expect(await amendmentsOf(table, id)).toBe(1);
-    const later = await amend(id);
-    expect(later.status).toBe(409);
-    expect(later.body.message).toBe(message);
-  });
-});
+
+    it('refuses an amendment of a version that does not exist (foreign key supersedes_id → id)', async () => {
+      const error = await refusal(
+        insertCopyAsAmendment(ctx.db, table, await version(), '00000000-0000-4000-8000-000000000000'),
+      );
+      expect(error).toMatchObject({ code: '23503', constraint: `${name}_supersedes_fk` });
+    });
+
+    it('answers 409 with the usual message when an amendment loses the race on the index, and the same message afterwards', async () => {
+      const id = await version();
+      let reply: Promise<{ status: number; body: { message?: string } }> | undefined;
+      // Another session's amendment is written but not yet committed: the request passes the
+      // service's up-front check, then its insert waits on the unique index until that commit.
+      await ctx.db.transaction(async (tx) => {
+        await insertCopyAsAmendment(tx, table, id);
+        reply = Promise.resolve(amend(id));
+        expect(await untilInsertWaits(name)).toBe(true);
+      });
+      const raced = await reply!;
+      expect(raced.status).toBe(409);
+      expect(raced.body.message).toBe(message);
+      expect(await amendmentsOf(table, id)).toBe(1);
+      const later = await amend(id);
+      expect(later.status).toBe(409);
+      expect(later.body.message).toBe(message);
+    });
+  },
+);

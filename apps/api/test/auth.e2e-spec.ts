@@ -12,7 +12,12 @@ describe('sign-in', () => {
   it('sets an HttpOnly, SameSite=Strict session cookie and answers the user', async () => {
     const res = await ctx.http.post('/api/auth/sign-in').send({ email: ACCOUNTS.dentist, password: DEMO_PASSWORD });
     expect(res.status).toBe(200);
-    expect(res.body).toMatchObject({ email: ACCOUNTS.dentist, role: 'dentist', practiceName: 'Larkspur Lane Dental', sharedPatientIds: [] });
+    expect(res.body).toMatchObject({
+      email: ACCOUNTS.dentist,
+      role: 'dentist',
+      practiceName: 'Larkspur Lane Dental',
+      sharedPatientIds: [],
+    });
     const cookie = ([] as string[]).concat(res.headers['set-cookie'] ?? []).find((c) => c.startsWith('tt_session='))!;
     expect(cookie).toMatch(/HttpOnly/i);
     expect(cookie).toMatch(/SameSite=Strict/i);
@@ -21,13 +26,19 @@ describe('sign-in', () => {
   });
 
   it('accepts the e-mail in any letter case', async () => {
-    const res = await ctx.http.post('/api/auth/sign-in').send({ email: ACCOUNTS.hygienist.toUpperCase(), password: DEMO_PASSWORD });
+    const res = await ctx.http
+      .post('/api/auth/sign-in')
+      .send({ email: ACCOUNTS.hygienist.toUpperCase(), password: DEMO_PASSWORD });
     expect(res.status).toBe(200);
   });
 
   it('answers 401 with a plain message for a wrong password, the same as for an unknown e-mail', async () => {
-    const wrong = await ctx.http.post('/api/auth/sign-in').send({ email: ACCOUNTS.dentist, password: 'not-the-password' });
-    const unknown = await ctx.http.post('/api/auth/sign-in').send({ email: 'nobody@larkspur.example', password: 'whatever' });
+    const wrong = await ctx.http
+      .post('/api/auth/sign-in')
+      .send({ email: ACCOUNTS.dentist, password: 'not-the-password' });
+    const unknown = await ctx.http
+      .post('/api/auth/sign-in')
+      .send({ email: 'nobody@larkspur.example', password: 'whatever' });
     expect(wrong.status).toBe(401);
     expect(unknown.status).toBe(401);
     expect(wrong.body.message).toBe('The e-mail or password is not right');
@@ -51,7 +62,9 @@ describe('sign-in', () => {
     }
     expect(statuses.slice(0, 10).every((s) => s === 401)).toBe(true);
     expect(statuses.slice(10)).toEqual([429, 429]);
-    const other = await ctx.http.post('/api/auth/sign-in').send({ email: ACCOUNTS.practice_admin, password: DEMO_PASSWORD });
+    const other = await ctx.http
+      .post('/api/auth/sign-in')
+      .send({ email: ACCOUNTS.practice_admin, password: DEMO_PASSWORD });
     expect(other.status).toBe(200);
   });
 });

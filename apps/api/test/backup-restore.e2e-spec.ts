@@ -36,7 +36,11 @@ async function emptyTarget() {
   await admin(`create database "${target.database}"`);
   const url = new URL(sourceUrl);
   url.pathname = `/${target.database}`;
-  return { ...target, url: url.toString(), env: { ...scriptEnv, DATABASE_URL: url.toString(), S3_BUCKET: target.bucket } };
+  return {
+    ...target,
+    url: url.toString(),
+    env: { ...scriptEnv, DATABASE_URL: url.toString(), S3_BUCKET: target.bucket },
+  };
 }
 
 async function admin(statement: string) {
@@ -74,7 +78,9 @@ async function objectHashes(bucket: string): Promise<Record<string, string>> {
   const list = await storage.client.send(new ListObjectsV2Command({ Bucket: bucket }));
   for (const object of list.Contents ?? []) {
     const reply = await storage.client.send(new GetObjectCommand({ Bucket: bucket, Key: object.Key }));
-    hashes[object.Key!] = createHash('sha256').update(await reply.Body!.transformToByteArray()).digest('hex');
+    hashes[object.Key!] = createHash('sha256')
+      .update(await reply.Body!.transformToByteArray())
+      .digest('hex');
   }
   return hashes;
 }
@@ -83,7 +89,11 @@ beforeAll(async () => {
   ctx = await startTestApp();
   storage = ctx.app.get(StorageService);
   // Objects of every shape the product stores: binary bytes and a nested key.
-  await storage.put(`tests/${randomUUID()}.bin`, Buffer.from(Array.from({ length: 50_000 }, (_, i) => (i * 31) % 256)), 'application/octet-stream');
+  await storage.put(
+    `tests/${randomUUID()}.bin`,
+    Buffer.from(Array.from({ length: 50_000 }, (_, i) => (i * 31) % 256)),
+    'application/octet-stream',
+  );
   await storage.put(`practice/p1/${randomUUID()}.pdf`, Buffer.from('%PDF-1.4 test'), 'application/pdf');
   const backup = await run(process.execPath, [script('backup'), '--out', backupDir], { env: scriptEnv });
   if (!backup.stdout.includes('[backup] done')) throw new Error(`backup did not finish:\n${backup.stdout}`);
@@ -94,7 +104,8 @@ afterAll(async () => {
   for (const { database, bucket } of targets) {
     await admin(`drop database if exists "${database}" with (force)`);
     const list = await storage.client.send(new ListObjectsV2Command({ Bucket: bucket })).catch(() => null);
-    for (const object of list?.Contents ?? []) await storage.client.send(new DeleteObjectCommand({ Bucket: bucket, Key: object.Key }));
+    for (const object of list?.Contents ?? [])
+      await storage.client.send(new DeleteObjectCommand({ Bucket: bucket, Key: object.Key }));
     await storage.client.send(new DeleteBucketCommand({ Bucket: bucket })).catch(() => undefined);
   }
   fs.rmSync(workDir, { recursive: true, force: true });
@@ -125,7 +136,9 @@ describe('backup and restore (npm run backup / npm run restore)', () => {
   it('refuses to restore over a non-empty database and bucket unless told (--force)', async () => {
     const target = await emptyTarget();
     await run(process.execPath, [script('restore'), backupDir], { env: target.env });
-    const refused = await run(process.execPath, [script('restore'), backupDir], { env: target.env }).catch((error: { code: number; stderr: string }) => error);
+    const refused = await run(process.execPath, [script('restore'), backupDir], { env: target.env }).catch(
+      (error: { code: number; stderr: string }) => error,
+    );
     expect(refused).toMatchObject({ code: 1 });
     expect((refused as { stderr: string }).stderr).toContain('refusing to restore');
 
@@ -140,7 +153,9 @@ describe('backup and restore (npm run backup / npm run restore)', () => {
     const manifest = JSON.parse(fs.readFileSync(path.join(tampered, 'manifest.json'), 'utf8'));
     fs.appendFileSync(path.join(tampered, 'objects', manifest.bucket.objects[0].sha256), 'x');
     const target = await emptyTarget();
-    const refused = await run(process.execPath, [script('restore'), tampered], { env: target.env }).catch((error: { code: number; stderr: string }) => error);
+    const refused = await run(process.execPath, [script('restore'), tampered], { env: target.env }).catch(
+      (error: { code: number; stderr: string }) => error,
+    );
     expect(refused).toMatchObject({ code: 1 });
     expect((refused as { stderr: string }).stderr).toContain('does not match its hash');
     expect(await rowCounts(target.url)).toEqual({});

@@ -41,7 +41,9 @@ describe('session tokens signed with the app secret', () => {
   });
 
   it('refuses a token in another algorithm (HS512) though signed with the right secret', async () => {
-    const token = ctx.app.get(JwtService).sign({ sub: dentistId }, { secret: secret(), algorithm: 'HS512', expiresIn: 600 });
+    const token = ctx.app
+      .get(JwtService)
+      .sign({ sub: dentistId }, { secret: secret(), algorithm: 'HS512', expiresIn: 600 });
     expect((await call(token)).status).toBe(401);
   });
 
@@ -69,9 +71,17 @@ describe('cross-site writes', () => {
   });
 
   it('refuses a JSON POST whose Origin is another site, and one whose Referer is (when Origin is absent)', async () => {
-    const evilOrigin = await ctx.http.post('/api/auth/sign-out').set('Cookie', dentist).set('Origin', 'https://evil.example').send({});
+    const evilOrigin = await ctx.http
+      .post('/api/auth/sign-out')
+      .set('Cookie', dentist)
+      .set('Origin', 'https://evil.example')
+      .send({});
     expect(evilOrigin.status).toBe(403);
-    const evilReferer = await ctx.http.post('/api/recalls/reminders/run').set('Cookie', dentist).set('Referer', 'https://evil.example/page').send({});
+    const evilReferer = await ctx.http
+      .post('/api/recalls/reminders/run')
+      .set('Cookie', dentist)
+      .set('Referer', 'https://evil.example/page')
+      .send({});
     expect(evilReferer.status).toBe(403);
     const nullOrigin = await ctx.http.post('/api/auth/sign-out').set('Cookie', dentist).set('Origin', 'null').send({});
     expect(nullOrigin.status).toBe(403);
@@ -108,7 +118,10 @@ describe('proxy headers', () => {
     const email = 'throttle-probe@larkspur.example';
     const statuses: number[] = [];
     for (let i = 0; i < 12; i++) {
-      const res = await ctx.http.post('/api/auth/sign-in').set('X-Forwarded-For', `203.0.113.${i}`).send({ email, password: 'wrong' });
+      const res = await ctx.http
+        .post('/api/auth/sign-in')
+        .set('X-Forwarded-For', `203.0.113.${i}`)
+        .send({ email, password: 'wrong' });
       statuses.push(res.status);
     }
     expect(statuses.slice(0, 10).every((s) => s === 401)).toBe(true);

@@ -30,7 +30,13 @@ beforeAll(async () => {
       labName: 'Ferncliff Dental Lab',
       labEmail: `orders+${Date.now()}@ferncliff-lab.example`,
       dueOn: '2026-12-18',
-      sites: sites.map((s) => ({ siteId: s, interface: 'non-engaging', impressionCoping: 'non-engaging', screwComponentIds: [part('PSI')], impressionCopingComponentId: part('ICN-O') })),
+      sites: sites.map((s) => ({
+        siteId: s,
+        interface: 'non-engaging',
+        impressionCoping: 'non-engaging',
+        screwComponentIds: [part('PSI')],
+        impressionCopingComponentId: part('ICN-O'),
+      })),
     });
   if (ok.status !== 201) throw new Error(`the plan was not saved: ${JSON.stringify(ok.body)}`);
   planId = ok.body.id;
@@ -54,11 +60,15 @@ describe('lab prescription', () => {
     expect(row.objectKey).toMatch(new RegExp(`^practices/[0-9a-f-]{36}/lab-prescriptions/${made.body.id}\\.pdf$`));
     expect(row.sizeBytes).toBe(made.body.sizeBytes);
 
-    const res = await ctx.http.get(`/api/lab-prescriptions/${made.body.id}/pdf`).set('Cookie', dentist).buffer(true).parse((r, cb) => {
-      const chunks: Buffer[] = [];
-      r.on('data', (c: Buffer) => chunks.push(c));
-      r.on('end', () => cb(null, Buffer.concat(chunks)));
-    });
+    const res = await ctx.http
+      .get(`/api/lab-prescriptions/${made.body.id}/pdf`)
+      .set('Cookie', dentist)
+      .buffer(true)
+      .parse((r, cb) => {
+        const chunks: Buffer[] = [];
+        r.on('data', (c: Buffer) => chunks.push(c));
+        r.on('end', () => cb(null, Buffer.concat(chunks)));
+      });
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toBe('application/pdf');
     const body = await text(res.body as Buffer);
@@ -71,7 +81,9 @@ describe('lab prescription', () => {
     expect(body).toContain('Site 16 (FDI) / 3 (Universal)');
     expect(body).toContain('Tessely EX (Tessely Medical), platform Tessely EX 4.1, 4.1 mm, external hex connection');
     expect(body).toContain('Prosthetic screw, implant level [TEX-41-PSI]: 32 N·cm ±10 %');
-    expect(body).toContain('Impression technique: non-engaging coping; Impression coping, non-engaging, open tray [TEX-41-ICN-O]');
+    expect(body).toContain(
+      'Impression technique: non-engaging coping; Impression coping, non-engaging, open tray [TEX-41-ICN-O]',
+    );
     expect(body).toContain('copings splinted together before the impression');
     expect(body).toContain('Material: Zirconia Shade: A3');
     expect(body).toContain('Due: 2026-12-18');
@@ -81,20 +93,32 @@ describe('lab prescription', () => {
   });
 
   it('e-mails it to the lab with the PDF attached, and records when', async () => {
-    const listed = async () => (await ctx.http.get(`/api/restorations/${planId}`).set('Cookie', dentist)).body.labPrescriptions as { id: string }[];
+    const listed = async () =>
+      (await ctx.http.get(`/api/restorations/${planId}`).set('Cookie', dentist)).body.labPrescriptions as {
+        id: string;
+      }[];
     const before = await listed();
-    const made = await ctx.http.post(`/api/restorations/${planId}/lab-prescriptions`).set('Cookie', dentist).send({ emailToLab: true });
+    const made = await ctx.http
+      .post(`/api/restorations/${planId}/lab-prescriptions`)
+      .set('Cookie', dentist)
+      .send({ emailToLab: true });
     expect(made.status).toBe(201);
     expect(made.body.emailedTo).toMatch(/@ferncliff-lab\.example$/);
     expect(made.body.emailedAt).not.toBeNull();
     let found: { envelopeTo: string[]; attachments: { filename: string; contentType: string }[] } | undefined;
     for (let i = 0; i < 20 && !found; i++) {
-      const messages = (await (await fetch(mailHttp)).json()) as { headers: Record<string, string>; envelopeTo: string[]; attachments: { filename: string; contentType: string }[] }[];
+      const messages = (await (await fetch(mailHttp)).json()) as {
+        headers: Record<string, string>;
+        envelopeTo: string[];
+        attachments: { filename: string; contentType: string }[];
+      }[];
       found = messages.find((m) => m.headers['x-torquetrail-lab-prescription'] === made.body.id);
       if (!found) await new Promise((r) => setTimeout(r, 100));
     }
     expect(found?.envelopeTo).toEqual([made.body.emailedTo]);
-    expect(found?.attachments).toEqual([expect.objectContaining({ filename: 'lab-prescription-LL-1005.pdf', contentType: 'application/pdf' })]);
+    expect(found?.attachments).toEqual([
+      expect.objectContaining({ filename: 'lab-prescription-LL-1005.pdf', contentType: 'application/pdf' }),
+    ]);
     // One more prescription on the plan, whichever other test of this file made one before.
     const after = await listed();
     expect(after).toHaveLength(before.length + 1);
@@ -102,8 +126,13 @@ describe('lab prescription', () => {
   });
 
   it('refuses to e-mail a plan without a lab address (400 on emailToLab)', async () => {
-    const bridge = (await ctx.http.get(`/api/patients/${await patientId(ctx.db, 'LL-1001')}/restorations`).set('Cookie', dentist)).body.items[0];
-    const res = await ctx.http.post(`/api/restorations/${bridge.id}/lab-prescriptions`).set('Cookie', dentist).send({ emailToLab: true });
+    const bridge = (
+      await ctx.http.get(`/api/patients/${await patientId(ctx.db, 'LL-1001')}/restorations`).set('Cookie', dentist)
+    ).body.items[0];
+    const res = await ctx.http
+      .post(`/api/restorations/${bridge.id}/lab-prescriptions`)
+      .set('Cookie', dentist)
+      .send({ emailToLab: true });
     expect(res.status).toBe(400);
     expect(res.body.fields).toHaveProperty('emailToLab');
   });

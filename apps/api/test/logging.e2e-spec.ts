@@ -39,7 +39,13 @@ describe('request ids', () => {
     const id = res.headers['x-request-id'];
     expect(id).toMatch(/^[0-9a-f-]{36}$/);
     expect(res.body.requestId).toBe(id);
-    expect(lines.some((l) => (l.req as { id?: string } | undefined)?.id === id && (l.res as { statusCode?: number } | undefined)?.statusCode === 404)).toBe(true);
+    expect(
+      lines.some(
+        (l) =>
+          (l.req as { id?: string } | undefined)?.id === id &&
+          (l.res as { statusCode?: number } | undefined)?.statusCode === 404,
+      ),
+    ).toBe(true);
   });
 
   it('keeps a proxy’s plain X-Request-Id, and replaces one that is not a plain token', async () => {
@@ -54,7 +60,15 @@ describe('no patient data in the logs', () => {
   it('logs neither a search’s query string, a request body, nor the session cookie', async () => {
     lines.length = 0;
     await http.get('/api/patients?q=Achterberg').set('Cookie', cookie);
-    await http.post('/api/complications').set('Cookie', cookie).send({ siteId: 'not-a-uuid', kind: 'other', occurredOn: '2026-11-01', notes: 'Patient disclosed a private matter' });
+    await http
+      .post('/api/complications')
+      .set('Cookie', cookie)
+      .send({
+        siteId: 'not-a-uuid',
+        kind: 'other',
+        occurredOn: '2026-11-01',
+        notes: 'Patient disclosed a private matter',
+      });
     expect(lines.length).toBeGreaterThanOrEqual(2);
     expect(logged()).not.toContain('Achterberg');
     expect(logged()).not.toContain('private matter');
@@ -67,6 +81,10 @@ describe('no patient data in the logs', () => {
     expect((error as Error).message).toContain('Wendell Achterberg'); // the raw error does carry it
     const entry = errorForLog(error);
     expect(JSON.stringify(entry)).not.toContain('Wendell');
-    expect(entry).toMatchObject({ type: 'DrizzleQueryError', pgCode: '22P02', message: 'database query failed (query and parameters withheld)' });
+    expect(entry).toMatchObject({
+      type: 'DrizzleQueryError',
+      pgCode: '22P02',
+      message: 'database query failed (query and parameters withheld)',
+    });
   });
 });

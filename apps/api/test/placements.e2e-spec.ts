@@ -44,8 +44,14 @@ const placementBody = (over: Record<string, unknown> = {}) => ({
 const SCENARIO_POSITIONS = new Set([36, 46, 47]);
 /** Free permanent positions of a patient, handed out one per call. */
 async function freePositions(pid: string) {
-  const taken = new Set((await ctx.db.select({ fdi: implantSites.fdi }).from(implantSites).where(eq(implantSites.patientId, pid))).map((s) => s.fdi));
-  const free = [1, 2, 3, 4].flatMap((q) => [1, 2, 3, 4, 5, 6, 7, 8].map((t) => q * 10 + t)).filter((f) => !taken.has(f) && !SCENARIO_POSITIONS.has(f));
+  const taken = new Set(
+    (await ctx.db.select({ fdi: implantSites.fdi }).from(implantSites).where(eq(implantSites.patientId, pid))).map(
+      (s) => s.fdi,
+    ),
+  );
+  const free = [1, 2, 3, 4]
+    .flatMap((q) => [1, 2, 3, 4, 5, 6, 7, 8].map((t) => q * 10 + t))
+    .filter((f) => !taken.has(f) && !SCENARIO_POSITIONS.has(f));
   return () => {
     const next = free.shift();
     if (next === undefined) throw new Error('no free position left');
@@ -79,8 +85,13 @@ beforeAll(async () => {
   ids.lucia24 = await siteId(ctx.db, 'LL-1004', 24);
   ids.scn35 = await platformId(ctx.db, larkspur, 'Solvra CN 3.5');
   scn35 = await parts(ctx.db, larkspur, 'Solvra CN 3.5');
-  const [quarry] = await ctx.db.select({ id: practices.id }).from(practices).where(eq(practices.name, 'Quarry Hill Dental'));
-  ids.quarryPlatform = (await ctx.db.select({ id: platforms.id }).from(platforms).where(eq(platforms.practiceId, quarry.id)))[0].id;
+  const [quarry] = await ctx.db
+    .select({ id: practices.id })
+    .from(practices)
+    .where(eq(practices.name, 'Quarry Hill Dental'));
+  ids.quarryPlatform = (
+    await ctx.db.select({ id: platforms.id }).from(platforms).where(eq(platforms.practiceId, quarry.id))
+  )[0].id;
   luciaFdi = await freePositions(ids.lucia);
   okaforFdi = await freePositions(ids.okafor);
   ids.okaforPlanned = await freshSite(ids.okafor, okaforFdi());
@@ -96,35 +107,98 @@ const notShared = (ok: number) => all(403, { dentist: ok, surgeon: 404, otherPra
 
 const matrix: RoleCase[] = [
   // The surgeon may create sites in their own practice only (the guard lets them through): Larkspur's unshared patient is 404, a shared one 403.
-  { route: 'POST /api/patients/:id/sites (not shared)', method: 'post', path: () => `/api/patients/${ids.okafor}/sites`, body: () => ({ fdi: okaforFdi() }), expect: notShared(201) },
-  { route: 'POST /api/patients/:id/sites (shared)', method: 'post', path: () => `/api/patients/${ids.harold}/sites`, body: () => ({ fdi: 31 }), expect: all(403, { dentist: 201, otherPracticeDentist: 404 }) },
-  { route: 'GET /api/sites/:id/placement-options (shared)', method: 'get', path: () => `/api/sites/${ids.lucia24}/placement-options`, expect: placementWrites(200) },
-  { route: 'GET /api/sites/:id/placement-options (not shared)', method: 'get', path: () => `/api/sites/${ids.okaforPlanned}/placement-options`, expect: notShared(200) },
-  { route: 'POST /api/sites/:id/placements (shared)', method: 'post', path: async () => `/api/sites/${await freshSite(ids.lucia, luciaFdi())}/placements`, body: placementBody, expect: placementWrites(201) },
-  { route: 'POST /api/sites/:id/placements (not shared)', method: 'post', path: async () => `/api/sites/${await freshSite(ids.okafor, okaforFdi())}/placements`, body: placementBody, expect: notShared(201) },
-  { route: 'POST /api/sites/:id/placements (no such site)', method: 'post', path: () => '/api/sites/00000000-0000-4000-8000-000000000000/placements', body: placementBody, expect: all(404, { hygienist: 403, practice_admin: 403 }) },
-  { route: 'POST /api/placements/:id/amendments (shared)', method: 'post', path: async () => `/api/placements/${(await freshPlacement()).id}/amendments`, body: () => ({ ...placementBody({ lengthMm: 13 }), closureComponentId: undefined, closureLot: undefined, amendmentReason: 'Length misread from the box' }), expect: placementWrites(201) },
+  {
+    route: 'POST /api/patients/:id/sites (not shared)',
+    method: 'post',
+    path: () => `/api/patients/${ids.okafor}/sites`,
+    body: () => ({ fdi: okaforFdi() }),
+    expect: notShared(201),
+  },
+  {
+    route: 'POST /api/patients/:id/sites (shared)',
+    method: 'post',
+    path: () => `/api/patients/${ids.harold}/sites`,
+    body: () => ({ fdi: 31 }),
+    expect: all(403, { dentist: 201, otherPracticeDentist: 404 }),
+  },
+  {
+    route: 'GET /api/sites/:id/placement-options (shared)',
+    method: 'get',
+    path: () => `/api/sites/${ids.lucia24}/placement-options`,
+    expect: placementWrites(200),
+  },
+  {
+    route: 'GET /api/sites/:id/placement-options (not shared)',
+    method: 'get',
+    path: () => `/api/sites/${ids.okaforPlanned}/placement-options`,
+    expect: notShared(200),
+  },
+  {
+    route: 'POST /api/sites/:id/placements (shared)',
+    method: 'post',
+    path: async () => `/api/sites/${await freshSite(ids.lucia, luciaFdi())}/placements`,
+    body: placementBody,
+    expect: placementWrites(201),
+  },
+  {
+    route: 'POST /api/sites/:id/placements (not shared)',
+    method: 'post',
+    path: async () => `/api/sites/${await freshSite(ids.okafor, okaforFdi())}/placements`,
+    body: placementBody,
+    expect: notShared(201),
+  },
+  {
+    route: 'POST /api/sites/:id/placements (no such site)',
+    method: 'post',
+    path: () => '/api/sites/00000000-0000-4000-8000-000000000000/placements',
+    body: placementBody,
+    expect: all(404, { hygienist: 403, practice_admin: 403 }),
+  },
+  {
+    route: 'POST /api/placements/:id/amendments (shared)',
+    method: 'post',
+    path: async () => `/api/placements/${(await freshPlacement()).id}/amendments`,
+    body: () => ({
+      ...placementBody({ lengthMm: 13 }),
+      closureComponentId: undefined,
+      closureLot: undefined,
+      amendmentReason: 'Length misread from the box',
+    }),
+    expect: placementWrites(201),
+  },
 ];
 
 describeRoleMatrix(() => ctx, matrix, { notFoundMessage: /^No such/ });
 
 describe('adding a planned site', () => {
   it('adds a planned site at a free position, shown on the Arch', async () => {
-    const res = await ctx.http.post(`/api/patients/${ids.lucia}/sites`).set('Cookie', cookies.dentist).send({ fdi: 36 });
+    const res = await ctx.http
+      .post(`/api/patients/${ids.lucia}/sites`)
+      .set('Cookie', cookies.dentist)
+      .send({ fdi: 36 });
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     expect(res.body).toMatchObject({ fdi: 36, status: 'planned', maintenanceStatus: 'not-examined', systemName: null });
     const arch = await ctx.http.get(`/api/patients/${ids.lucia}`).set('Cookie', cookies.dentist);
-    expect(arch.body.sites.find((s: { fdi: number }) => s.fdi === 36)).toMatchObject({ id: res.body.id, status: 'planned' });
+    expect(arch.body.sites.find((s: { fdi: number }) => s.fdi === 36)).toMatchObject({
+      id: res.body.id,
+      status: 'planned',
+    });
   });
 
-  it.each([19, 9, 0, 91, 55])('refuses %s, which is not a permanent FDI position (ISO 3950), as 400 on fdi', async (fdi) => {
-    const res = await ctx.http.post(`/api/patients/${ids.lucia}/sites`).set('Cookie', cookies.dentist).send({ fdi });
-    expect(res.status).toBe(400);
-    expect(res.body.fields.fdi).toBeTruthy();
-  });
+  it.each([19, 9, 0, 91, 55])(
+    'refuses %s, which is not a permanent FDI position (ISO 3950), as 400 on fdi',
+    async (fdi) => {
+      const res = await ctx.http.post(`/api/patients/${ids.lucia}/sites`).set('Cookie', cookies.dentist).send({ fdi });
+      expect(res.status).toBe(400);
+      expect(res.body.fields.fdi).toBeTruthy();
+    },
+  );
 
   it('refuses a position that is not a number as 400 on fdi', async () => {
-    const res = await ctx.http.post(`/api/patients/${ids.lucia}/sites`).set('Cookie', cookies.dentist).send({ fdi: '24' });
+    const res = await ctx.http
+      .post(`/api/patients/${ids.lucia}/sites`)
+      .set('Cookie', cookies.dentist)
+      .send({ fdi: '24' });
     expect(res.status).toBe(400);
     expect(res.body.fields.fdi).toBeTruthy();
   });
@@ -141,37 +215,59 @@ describe('planning again where a site failed', () => {
   it('adds a planned site at a position whose earlier site failed; both stay in the record', async () => {
     const larkspur = await larkspurId(ctx.db);
     await ctx.db.insert(implantSites).values({ practiceId: larkspur, patientId: ids.lucia, fdi: 46, status: 'failed' });
-    const res = await ctx.http.post(`/api/patients/${ids.lucia}/sites`).set('Cookie', cookies.dentist).send({ fdi: 46 });
+    const res = await ctx.http
+      .post(`/api/patients/${ids.lucia}/sites`)
+      .set('Cookie', cookies.dentist)
+      .send({ fdi: 46 });
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     const arch = await ctx.http.get(`/api/patients/${ids.lucia}`).set('Cookie', cookies.dentist);
-    expect(arch.body.sites.filter((s: { fdi: number }) => s.fdi === 46).map((s: { status: string }) => s.status).sort()).toEqual(['failed', 'planned']);
-    const again = await ctx.http.post(`/api/patients/${ids.lucia}/sites`).set('Cookie', cookies.dentist).send({ fdi: 46 });
+    expect(
+      arch.body.sites
+        .filter((s: { fdi: number }) => s.fdi === 46)
+        .map((s: { status: string }) => s.status)
+        .sort(),
+    ).toEqual(['failed', 'planned']);
+    const again = await ctx.http
+      .post(`/api/patients/${ids.lucia}/sites`)
+      .set('Cookie', cookies.dentist)
+      .send({ fdi: 46 });
     expect(again.status).toBe(409);
   });
 
   it('saves one of two simultaneous requests for the same position (the unique index), the other is 409', async () => {
-    const send = () => ctx.http.post(`/api/patients/${ids.lucia}/sites`).set('Cookie', cookies.dentist).send({ fdi: 47 });
+    const send = () =>
+      ctx.http.post(`/api/patients/${ids.lucia}/sites`).set('Cookie', cookies.dentist).send({ fdi: 47 });
     const statuses = (await Promise.all([send(), send()])).map((r) => r.status).sort((a, b) => a - b);
     expect(statuses).toEqual([201, 409]);
   });
 });
 
 async function expectNothingSaved(site: string) {
-  const [row] = await ctx.db.select({ status: implantSites.status }).from(implantSites).where(eq(implantSites.id, site));
+  const [row] = await ctx.db
+    .select({ status: implantSites.status })
+    .from(implantSites)
+    .where(eq(implantSites.id, site));
   expect(row.status).toBe('planned');
   expect(await ctx.db.select({ id: placements.id }).from(placements).where(eq(placements.siteId, site))).toEqual([]);
 }
 
 describe('recording a placement of a planned site', () => {
-  it('gives the surgeon the systems of the site\'s practice (Larkspur), which the catalogue route does not', async () => {
+  it("gives the surgeon the systems of the site's practice (Larkspur), which the catalogue route does not", async () => {
     const res = await ctx.http.get(`/api/sites/${ids.lucia24}/placement-options`).set('Cookie', cookies.surgeon);
     expect(res.status).toBe(200);
     expect(res.body.fdi).toBe(24);
     expect(res.body.caution).toMatch(/manufacturer-specific/);
     expect(res.body.systems.map((s: { name: string }) => s.name)).toEqual(['Miravik HX', 'Solvra CN', 'Tessely EX']);
     const solvra = res.body.systems.find((s: { name: string }) => s.name === 'Solvra CN');
-    expect(solvra.platforms.map((p: { name: string }) => p.name)).toEqual(['Solvra CN 3.5', 'Solvra CN 4.3', 'Solvra CN 5.0']);
-    expect(solvra.platforms[0].components.map((c: { kind: string }) => c.kind).sort()).toEqual(['cover-screw', 'healing-abutment']);
+    expect(solvra.platforms.map((p: { name: string }) => p.name)).toEqual([
+      'Solvra CN 3.5',
+      'Solvra CN 4.3',
+      'Solvra CN 5.0',
+    ]);
+    expect(solvra.platforms[0].components.map((c: { kind: string }) => c.kind).sort()).toEqual([
+      'cover-screw',
+      'healing-abutment',
+    ]);
     const own = await ctx.http.get('/api/catalogue').set('Cookie', cookies.surgeon);
     const ownPlatforms = own.body.systems.flatMap((s: { platforms: { id: string }[] }) => s.platforms.map((p) => p.id));
     expect(ownPlatforms).not.toContain(ids.scn35);
@@ -180,8 +276,16 @@ describe('recording a placement of a planned site', () => {
   const bad: [string, () => Record<string, unknown>, string][] = [
     ['a GTIN with a wrong check digit', () => ({ udi: `(01)${BAD_GTIN}(17)281231(10)SCN3511-26X` }), 'udi'],
     ['a UDI that is not a GS1 element string', () => ({ udi: 'SCN3511-26X' }), 'udi'],
-    ['a typed lot different from the UDI lot', () => ({ udi: `(01)${GTIN}(17)281231(10)SCN3511-26X`, lot: 'SCN3511-26Y' }), 'lot'],
-    ['an expiry date before the placement date', () => ({ udi: `(01)${GTIN}(17)240131(10)SCN3511-22A`, placedOn: dayIso(-30) }), 'udi'],
+    [
+      'a typed lot different from the UDI lot',
+      () => ({ udi: `(01)${GTIN}(17)281231(10)SCN3511-26X`, lot: 'SCN3511-26Y' }),
+      'lot',
+    ],
+    [
+      'an expiry date before the placement date',
+      () => ({ udi: `(01)${GTIN}(17)240131(10)SCN3511-22A`, placedOn: dayIso(-30) }),
+      'udi',
+    ],
     ['a platform of another practice', () => ({ platformId: ids.quarryPlatform }), 'platformId'],
     ['a placement date in the future', () => ({ placedOn: dayIso(3) }), 'placedOn'],
     ['a length outside 4–20 mm', () => ({ lengthMm: 3 }), 'lengthMm'],
@@ -193,17 +297,29 @@ describe('recording a placement of a planned site', () => {
   ];
   it.each(bad)('refuses %s with 400 on the field, and saves nothing', async (_what, over, field) => {
     const body: Record<string, unknown> = placementBody(over());
-    if (body.closureComponentId === 'x') body.closureComponentId = (ids.otherHealing ??= (await parts(ctx.db, await larkspurId(ctx.db), 'Solvra CN 4.3'))('HA4'));
-    const res = await ctx.http.post(`/api/sites/${ids.luciaPlanned}/placements`).set('Cookie', cookies.surgeon).send(body);
+    if (body.closureComponentId === 'x')
+      body.closureComponentId = ids.otherHealing ??= (await parts(ctx.db, await larkspurId(ctx.db), 'Solvra CN 4.3'))(
+        'HA4',
+      );
+    const res = await ctx.http
+      .post(`/api/sites/${ids.luciaPlanned}/placements`)
+      .set('Cookie', cookies.surgeon)
+      .send(body);
     expect(res.status, JSON.stringify(res.body)).toBe(400);
     expect(res.body.fields[field], JSON.stringify(res.body.fields)).toBeTruthy();
     await expectNothingSaved(ids.luciaPlanned);
   });
 
   it('names the check digit and the expiry in readable messages', async () => {
-    const check = await ctx.http.post(`/api/sites/${ids.luciaPlanned}/placements`).set('Cookie', cookies.surgeon).send(placementBody({ udi: `(01)${BAD_GTIN}(10)A1` }));
+    const check = await ctx.http
+      .post(`/api/sites/${ids.luciaPlanned}/placements`)
+      .set('Cookie', cookies.surgeon)
+      .send(placementBody({ udi: `(01)${BAD_GTIN}(10)A1` }));
     expect(check.body.fields.udi).toMatch(/check digit/);
-    const expired = await ctx.http.post(`/api/sites/${ids.luciaPlanned}/placements`).set('Cookie', cookies.surgeon).send(placementBody({ udi: `(01)${GTIN}(17)240131(10)A1` }));
+    const expired = await ctx.http
+      .post(`/api/sites/${ids.luciaPlanned}/placements`)
+      .set('Cookie', cookies.surgeon)
+      .send(placementBody({ udi: `(01)${GTIN}(17)240131(10)A1` }));
     expect(expired.body.fields.udi).toMatch(/expiry date 2024-01-31 .*is before the placement date/);
   });
 
@@ -214,14 +330,40 @@ describe('recording a placement of a planned site', () => {
       .set('Cookie', cookies.surgeon)
       .send(placementBody({ udi, closureComponentId: scn35('HA4'), closureLot: 'HA4-2611-03' }));
     expect(res.status, JSON.stringify(res.body)).toBe(201);
-    expect(res.body).toMatchObject({ siteId: ids.lucia24, platformName: 'Solvra CN 3.5', systemName: 'Solvra CN', lot: 'SCN3511-26X', udi, lengthMm: 11.5, supersedesId: null, axis: { x: 0.05, y: 0, z: 1 } });
+    expect(res.body).toMatchObject({
+      siteId: ids.lucia24,
+      platformName: 'Solvra CN 3.5',
+      systemName: 'Solvra CN',
+      lot: 'SCN3511-26X',
+      udi,
+      lengthMm: 11.5,
+      supersedesId: null,
+      axis: { x: 0.05, y: 0, z: 1 },
+    });
     expect(res.body.surgeonName).toMatch(/Imbert.*Northgate/);
     expect(res.body.closureInstanceId).toBeTruthy();
 
     const file = await ctx.http.get(`/api/sites/${ids.lucia24}`).set('Cookie', cookies.surgeon);
     expect(file.body.status).toBe('placed');
-    expect(file.body.placement).toMatchObject({ platformName: 'Solvra CN 3.5', diameterMm: 3.5, lengthMm: 11.5, lot: 'SCN3511-26X', insertionTorqueNcm: 35, stabilityIsq: 72, loadingProtocol: 'conventional' });
-    expect(file.body.parts).toEqual([expect.objectContaining({ kind: 'healing-abutment', name: 'Healing abutment 4 mm', lot: 'HA4-2611-03', installedOn: YESTERDAY, torqueSpecNcm: null, lastTorque: null })]);
+    expect(file.body.placement).toMatchObject({
+      platformName: 'Solvra CN 3.5',
+      diameterMm: 3.5,
+      lengthMm: 11.5,
+      lot: 'SCN3511-26X',
+      insertionTorqueNcm: 35,
+      stabilityIsq: 72,
+      loadingProtocol: 'conventional',
+    });
+    expect(file.body.parts).toEqual([
+      expect.objectContaining({
+        kind: 'healing-abutment',
+        name: 'Healing abutment 4 mm',
+        lot: 'HA4-2611-03',
+        installedOn: YESTERDAY,
+        torqueSpecNcm: null,
+        lastTorque: null,
+      }),
+    ]);
 
     const timeline = await ctx.http.get(`/api/sites/${ids.lucia24}/timeline`).set('Cookie', cookies.dentist);
     const kinds = timeline.body.events.map((e: { kind: string; title: string }) => [e.kind, e.title]);
@@ -229,30 +371,47 @@ describe('recording a placement of a planned site', () => {
     expect(kinds).toContainEqual(['part', 'Installed: Healing abutment 4 mm']);
 
     const arch = await ctx.http.get(`/api/patients/${ids.lucia}`).set('Cookie', cookies.surgeon);
-    expect(arch.body.sites.find((s: { fdi: number }) => s.fdi === 24)).toMatchObject({ status: 'placed', systemName: 'Solvra CN' });
+    expect(arch.body.sites.find((s: { fdi: number }) => s.fdi === 24)).toMatchObject({
+      status: 'placed',
+      systemName: 'Solvra CN',
+    });
   });
 
   it('answers 409 for a second placement of a site that is no longer planned', async () => {
     const { siteId: placed } = await freshPlacement('surgeon');
-    const res = await ctx.http.post(`/api/sites/${placed}/placements`).set('Cookie', cookies.surgeon).send(placementBody());
+    const res = await ctx.http
+      .post(`/api/sites/${placed}/placements`)
+      .set('Cookie', cookies.surgeon)
+      .send(placementBody());
     expect(res.status).toBe(409);
-    expect(await ctx.db.select({ id: placements.id }).from(placements).where(eq(placements.siteId, placed))).toHaveLength(1);
+    expect(
+      await ctx.db.select({ id: placements.id }).from(placements).where(eq(placements.siteId, placed)),
+    ).toHaveLength(1);
   });
 
   it('reads a raw scan (]d2, GS after the lot, serial last) and accepts the same typed lot', async () => {
     const site = await freshSite(ids.lucia, luciaFdi());
     // AI 01 GTIN, AI 17 expiry 281231, AI 10 lot (GS-terminated), AI 21 serial.
     const raw = `]d201${GTIN}1728123110SCN3511-26X${GS}21SN0042\r\n`;
-    const res = await ctx.http.post(`/api/sites/${site}/placements`).set('Cookie', cookies.surgeon).send(placementBody({ udi: raw, lot: 'SCN3511-26X', closureComponentId: scn35('CS'), closureLot: 'CS-2611-01' }));
+    const res = await ctx.http
+      .post(`/api/sites/${site}/placements`)
+      .set('Cookie', cookies.surgeon)
+      .send(placementBody({ udi: raw, lot: 'SCN3511-26X', closureComponentId: scn35('CS'), closureLot: 'CS-2611-01' }));
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     expect(res.body).toMatchObject({ lot: 'SCN3511-26X', udi: raw });
-    const [row] = await ctx.db.select({ udi: placements.udi, lot: placements.lot }).from(placements).where(eq(placements.id, res.body.id));
+    const [row] = await ctx.db
+      .select({ udi: placements.udi, lot: placements.lot })
+      .from(placements)
+      .where(eq(placements.id, res.body.id));
     expect(row).toEqual({ udi: raw, lot: 'SCN3511-26X' });
   });
 
   it('refuses a raw scan with a wrong check digit as 400 on udi', async () => {
     const site = await freshSite(ids.lucia, luciaFdi());
-    const res = await ctx.http.post(`/api/sites/${site}/placements`).set('Cookie', cookies.surgeon).send(placementBody({ udi: `]d201${BAD_GTIN}10LOT1${GS}21S1` }));
+    const res = await ctx.http
+      .post(`/api/sites/${site}/placements`)
+      .set('Cookie', cookies.surgeon)
+      .send(placementBody({ udi: `]d201${BAD_GTIN}10LOT1${GS}21S1` }));
     expect(res.status).toBe(400);
     expect(res.body.fields.udi).toMatch(/check digit/);
     await expectNothingSaved(site);
@@ -268,14 +427,20 @@ describe('amending a placement', () => {
   // Each test amends a placement of its own, recorded by the surgeon on a fresh site.
   it('needs a reason', async () => {
     const { id } = await freshPlacement('surgeon');
-    const res = await ctx.http.post(`/api/placements/${id}/amendments`).set('Cookie', cookies.surgeon).send(amendment({ amendmentReason: '' }));
+    const res = await ctx.http
+      .post(`/api/placements/${id}/amendments`)
+      .set('Cookie', cookies.surgeon)
+      .send(amendment({ amendmentReason: '' }));
     expect(res.status).toBe(400);
     expect(res.body.fields.amendmentReason).toBeTruthy();
   });
 
   it('checks the UDI of an amendment like a placement', async () => {
     const { id } = await freshPlacement('surgeon');
-    const res = await ctx.http.post(`/api/placements/${id}/amendments`).set('Cookie', cookies.surgeon).send(amendment({ udi: `(01)${BAD_GTIN}(10)SCN3513-26X` }));
+    const res = await ctx.http
+      .post(`/api/placements/${id}/amendments`)
+      .set('Cookie', cookies.surgeon)
+      .send(amendment({ udi: `(01)${BAD_GTIN}(10)SCN3513-26X` }));
     expect(res.status).toBe(400);
     expect(res.body.fields.udi).toBeTruthy();
   });
@@ -283,9 +448,17 @@ describe('amending a placement', () => {
   it('adds a new version; the old row is unchanged and stays visible, marked amended, in the Timeline', async () => {
     const { siteId: site, id: placement } = await freshPlacement('surgeon');
     const [before] = await ctx.db.select().from(placements).where(eq(placements.id, placement));
-    const res = await ctx.http.post(`/api/placements/${placement}/amendments`).set('Cookie', cookies.surgeon).send(amendment());
+    const res = await ctx.http
+      .post(`/api/placements/${placement}/amendments`)
+      .set('Cookie', cookies.surgeon)
+      .send(amendment());
     expect(res.status, JSON.stringify(res.body)).toBe(201);
-    expect(res.body).toMatchObject({ supersedesId: placement, amendmentReason: 'Length and lot misread from the box', lengthMm: 13, lot: 'SCN3513-26X' });
+    expect(res.body).toMatchObject({
+      supersedesId: placement,
+      amendmentReason: 'Length and lot misread from the box',
+      lengthMm: 13,
+      lot: 'SCN3513-26X',
+    });
     expect(res.body.surgeonName).toBe(before.surgeonName);
     const [after] = await ctx.db.select().from(placements).where(eq(placements.id, placement));
     expect(after).toEqual(before);
@@ -294,17 +467,31 @@ describe('amending a placement', () => {
     expect(file.body.placement).toMatchObject({ lengthMm: 13, lot: 'SCN3513-26X' });
     const timeline = await ctx.http.get(`/api/sites/${site}/timeline`).set('Cookie', cookies.dentist);
     const versions = timeline.body.events.filter((e: { kind: string }) => e.kind === 'placement');
-    expect(versions.map((e: { id: string; amended: boolean }) => [e.id, e.amended])).toEqual(expect.arrayContaining([[placement, true], [res.body.id, false]]));
+    expect(versions.map((e: { id: string; amended: boolean }) => [e.id, e.amended])).toEqual(
+      expect.arrayContaining([
+        [placement, true],
+        [res.body.id, false],
+      ]),
+    );
     expect(versions).toHaveLength(2);
   });
 
   it('answers 409 for a second amendment of the same old row', async () => {
     const { siteId: site, id: placement } = await freshPlacement('surgeon');
-    const first = await ctx.http.post(`/api/placements/${placement}/amendments`).set('Cookie', cookies.surgeon).send(amendment());
+    const first = await ctx.http
+      .post(`/api/placements/${placement}/amendments`)
+      .set('Cookie', cookies.surgeon)
+      .send(amendment());
     expect(first.status, JSON.stringify(first.body)).toBe(201);
-    const res = await ctx.http.post(`/api/placements/${placement}/amendments`).set('Cookie', cookies.surgeon).send(amendment({ lengthMm: 12 }));
+    const res = await ctx.http
+      .post(`/api/placements/${placement}/amendments`)
+      .set('Cookie', cookies.surgeon)
+      .send(amendment({ lengthMm: 12 }));
     expect(res.status).toBe(409);
-    const rows = await ctx.db.select({ id: placements.id }).from(placements).where(and(eq(placements.siteId, site)));
+    const rows = await ctx.db
+      .select({ id: placements.id })
+      .from(placements)
+      .where(and(eq(placements.siteId, site)));
     expect(rows).toHaveLength(2);
   });
 });

@@ -37,7 +37,9 @@ beforeAll(async () => {
   await resetDatabase(db);
   down = await createApp({ ...testEnv(), SMTP_PORT: await closedPort() }, { logger: false });
   harold = await patientId(db, 'LL-1001');
-  [{ dueOn }] = (await db.select({ dueOn: recalls.dueOn }).from(recalls).where(eq(recalls.patientId, harold))) as [{ dueOn: string }];
+  [{ dueOn }] = (await db.select({ dueOn: recalls.dueOn }).from(recalls).where(eq(recalls.patientId, harold))) as [
+    { dueOn: string },
+  ];
 });
 afterAll(async () => {
   if (!downClosed) await down.close();
@@ -46,7 +48,10 @@ afterAll(async () => {
 });
 let downClosed = false;
 
-const row = async () => (await db.select().from(reminderLog).where(eq(reminderLog.patientId, harold))).filter((r) => r.recallDueOn === dueOn && r.kind === 'upcoming');
+const row = async () =>
+  (await db.select().from(reminderLog).where(eq(reminderLog.patientId, harold))).filter(
+    (r) => r.recallDueOn === dueOn && r.kind === 'upcoming',
+  );
 
 describe('a reminder while SMTP is down', () => {
   it('fails, is recorded and retried; delivered once when SMTP is back', { timeout: 90_000 }, async () => {
@@ -73,7 +78,10 @@ describe('a reminder while SMTP is down', () => {
 
     const sent = await until(async () => (await row()).find((r) => r.status === 'sent'), 60_000);
     expect(sent.attempts).toBeGreaterThanOrEqual(3);
-    const mail = await until(async () => ((await caughtFor(sent.id)).length > 0 ? caughtFor(sent.id) : undefined), 10_000);
+    const mail = await until(
+      async () => ((await caughtFor(sent.id)).length > 0 ? caughtFor(sent.id) : undefined),
+      10_000,
+    );
     expect(mail).toHaveLength(1);
     expect(mail[0].text).toContain(dueOn);
     expect(await row()).toHaveLength(1);

@@ -31,15 +31,25 @@ describe('the seeded recall history', () => {
     expect(row('LL-1003').sites).toEqual([expect.objectContaining({ fdi: 46, status: 'peri-implantitis' })]);
     expect(row('LL-1005').sites.map((x: { status: string }) => x.status)).toEqual(['not-examined', 'not-examined']);
     expect(row('LL-1005').nextDueOn).toBeNull();
-    const harold = await ctx.http.get(`/api/recalls/patients/${ids.whitcombe}/exam-context`).set('Cookie', cookies.hygienist);
-    expect(harold.body.sites.map((s: { fdi: number; baseline: unknown; previous: { status: string } | null }) => [s.fdi, s.baseline !== null, s.previous?.status])).toEqual([
+    const harold = await ctx.http
+      .get(`/api/recalls/patients/${ids.whitcombe}/exam-context`)
+      .set('Cookie', cookies.hygienist);
+    expect(
+      harold.body.sites.map((s: { fdi: number; baseline: unknown; previous: { status: string } | null }) => [
+        s.fdi,
+        s.baseline !== null,
+        s.previous?.status,
+      ]),
+    ).toEqual([
       [35, true, 'health'],
       [37, true, 'health'],
     ]);
     const file = await ctx.http.get(`/api/recalls/sites/${ids.whitcombe35}/exams`).set('Cookie', cookies.surgeon);
     expect(file.body.exams[0].examinedOn.startsWith('2013')).toBe(true);
     expect(file.body.exams.length).toBeGreaterThan(20);
-    const ctxWendell = await ctx.http.get(`/api/recalls/patients/${ids.wendell}/exam-context`).set('Cookie', cookies.hygienist);
+    const ctxWendell = await ctx.http
+      .get(`/api/recalls/patients/${ids.wendell}/exam-context`)
+      .set('Cookie', cookies.hygienist);
     expect(ctxWendell.body.sites.every((s: { baseline: unknown }) => s.baseline === null)).toBe(true);
   });
 });

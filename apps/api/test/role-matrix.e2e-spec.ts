@@ -2,7 +2,15 @@
 // is shared into four Larkspur patients) and a dentist of the unrelated Quarry Hill practice.
 // Expectations follow the product brief's role table (see docs/authorization.md).
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { actorCookies, all, describeRoleMatrix, otherPracticeRead, type RoleCase, sharedRead, unsharedRead } from './support/role-matrix.js';
+import {
+  actorCookies,
+  all,
+  describeRoleMatrix,
+  otherPracticeRead,
+  type RoleCase,
+  sharedRead,
+  unsharedRead,
+} from './support/role-matrix.js';
 import { type AccountKey, patientId, siteId, startTestApp, type TestContext } from './support/test-app.js';
 
 let ctx: TestContext;
@@ -24,13 +32,33 @@ afterAll(() => ctx.close());
 const matrix: RoleCase[] = [
   { route: 'GET /api/auth/me', path: () => '/api/auth/me', expect: all(200) },
   { route: 'GET /api/patients', path: () => '/api/patients', expect: all(200) },
-  { route: 'GET /api/patients/:id (own practice, shared with the surgeon)', path: () => `/api/patients/${ids.whitcombe}`, expect: sharedRead() },
-  { route: 'GET /api/patients/:id (own practice, not shared)', path: () => `/api/patients/${ids.okafor}`, expect: unsharedRead() },
-  { route: 'GET /api/patients/:id (another practice)', path: () => `/api/patients/${ids.quarry}`, expect: otherPracticeRead() },
-  { route: 'GET /api/patients/:id (no such id)', path: () => '/api/patients/00000000-0000-4000-8000-000000000000', expect: all(404) },
+  {
+    route: 'GET /api/patients/:id (own practice, shared with the surgeon)',
+    path: () => `/api/patients/${ids.whitcombe}`,
+    expect: sharedRead(),
+  },
+  {
+    route: 'GET /api/patients/:id (own practice, not shared)',
+    path: () => `/api/patients/${ids.okafor}`,
+    expect: unsharedRead(),
+  },
+  {
+    route: 'GET /api/patients/:id (another practice)',
+    path: () => `/api/patients/${ids.quarry}`,
+    expect: otherPracticeRead(),
+  },
+  {
+    route: 'GET /api/patients/:id (no such id)',
+    path: () => '/api/patients/00000000-0000-4000-8000-000000000000',
+    expect: all(404),
+  },
   { route: 'GET /api/sites/:id (shared)', path: () => `/api/sites/${ids.whitcombe35}`, expect: sharedRead() },
   { route: 'GET /api/sites/:id (not shared)', path: () => `/api/sites/${ids.okafor46}`, expect: unsharedRead() },
-  { route: 'GET /api/sites/:id (another practice)', path: () => `/api/sites/${ids.quarry36}`, expect: otherPracticeRead() },
+  {
+    route: 'GET /api/sites/:id (another practice)',
+    path: () => `/api/sites/${ids.quarry36}`,
+    expect: otherPracticeRead(),
+  },
   { route: 'GET /api/sites/:id (not a uuid)', path: () => '/api/sites/36', expect: all(404) },
 ];
 
@@ -38,7 +66,10 @@ describeRoleMatrix(() => ctx, matrix);
 
 describe('what each list holds', () => {
   const chartNumbers = async (who: AccountKey, search?: string) => {
-    const res = await ctx.http.get('/api/patients').query(search ? { search } : {}).set('Cookie', cookies[who]);
+    const res = await ctx.http
+      .get('/api/patients')
+      .query(search ? { search } : {})
+      .set('Cookie', cookies[who]);
     expect(res.status).toBe(200);
     return (res.body.items as { chartNumber: string }[]).map((p) => p.chartNumber).sort();
   };
@@ -66,7 +97,10 @@ describe('what each list holds', () => {
   });
 
   it('rejects an over-long search with 400 naming the field', async () => {
-    const res = await ctx.http.get('/api/patients').query({ search: 'x'.repeat(101) }).set('Cookie', cookies.dentist);
+    const res = await ctx.http
+      .get('/api/patients')
+      .query({ search: 'x'.repeat(101) })
+      .set('Cookie', cookies.dentist);
     expect(res.status).toBe(400);
     expect(res.body.fields).toHaveProperty('search');
   });

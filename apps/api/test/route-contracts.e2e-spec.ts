@@ -18,7 +18,13 @@ describe('route list', () => {
   it('matches the routes Nest registered under /api (docs routes aside)', () => {
     const express = ctx.app.getHttpAdapter().getInstance() as { router: { stack: Layer[] } };
     const served = express.router.stack
-      .filter((l) => l.route && typeof l.route.path === 'string' && l.route.path.startsWith('/api/') && !l.route.path.startsWith('/api/docs'))
+      .filter(
+        (l) =>
+          l.route &&
+          typeof l.route.path === 'string' &&
+          l.route.path.startsWith('/api/') &&
+          !l.route.path.startsWith('/api/docs'),
+      )
       .flatMap((l) => Object.keys(l.route!.methods).map((m) => `${m.toUpperCase()} ${l.route!.path.slice(4)}`))
       .sort();
     const listed = apiRoutes.map((r) => `${r.method.toUpperCase()} ${r.path}`).sort();

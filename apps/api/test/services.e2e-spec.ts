@@ -36,7 +36,11 @@ describe('mail over SMTP to the local catcher', () => {
     const mail = ctx.app.get(MailService);
     const subject = `Torquetrail test ${randomUUID()}`;
     await mail.send({ to: 'lab@dental-lab.example', subject, text: 'Hello from the tests' });
-    const messages = (await (await fetch(mailHttp)).json()) as { subject: string; envelopeTo: string[]; text: string }[];
+    const messages = (await (await fetch(mailHttp)).json()) as {
+      subject: string;
+      envelopeTo: string[];
+      text: string;
+    }[];
     const found = messages.find((m) => m.subject === subject);
     expect(found).toBeDefined();
     expect(found!.envelopeTo).toEqual(['lab@dental-lab.example']);
@@ -48,6 +52,8 @@ describe('OpenAPI document (development and test only)', () => {
   it('lists every documented route', async () => {
     const res = await ctx.http.get('/api/docs/openapi.json');
     expect(res.status).toBe(200);
-    expect(Object.keys(res.body.paths)).toEqual(expect.arrayContaining(['/api/patients', '/api/patients/{id}', '/api/sites/{id}', '/api/auth/sign-in']));
+    expect(Object.keys(res.body.paths)).toEqual(
+      expect.arrayContaining(['/api/patients', '/api/patients/{id}', '/api/sites/{id}', '/api/auth/sign-in']),
+    );
   });
 });

@@ -16,13 +16,23 @@ describe('sign-in throttle per address', () => {
     const address = '203.0.113.7';
     const statuses: number[] = [];
     for (let i = 0; i < 70 && !statuses.includes(429); i++) {
-      statuses.push((await ctx.http.post('/api/auth/sign-in').set('X-Forwarded-For', address).send({ email: `guess-${i}@larkspur.example`, password: 'x' })).status);
+      statuses.push(
+        (
+          await ctx.http
+            .post('/api/auth/sign-in')
+            .set('X-Forwarded-For', address)
+            .send({ email: `guess-${i}@larkspur.example`, password: 'x' })
+        ).status,
+      );
     }
     expect(statuses[0]).toBe(401);
     expect(statuses.at(-1)).toBe(429);
     // Default 60 per minute per address: the 61st attempt from this address is the first refused.
     expect(statuses.length).toBe(61);
     // The loopback address keeps its own allowance.
-    expect((await ctx.http.post('/api/auth/sign-in').send({ email: ACCOUNTS.practice_admin, password: DEMO_PASSWORD })).status).toBe(200);
+    expect(
+      (await ctx.http.post('/api/auth/sign-in').send({ email: ACCOUNTS.practice_admin, password: DEMO_PASSWORD }))
+        .status,
+    ).toBe(200);
   });
 });

@@ -13,15 +13,23 @@ describe('the Arch data of a patient', () => {
   it('lists the implant sites with their status and system, and the missing teeth', async () => {
     const res = await ctx.http.get(`/api/patients/${await patientId(ctx.db, 'LL-1004')}`).set('Cookie', dentist);
     expect(res.status).toBe(200);
-    expect(res.body.sites.map((s: { fdi: number; status: string; systemName: string | null }) => [s.fdi, s.status, s.systemName])).toEqual([
+    expect(
+      res.body.sites.map((s: { fdi: number; status: string; systemName: string | null }) => [
+        s.fdi,
+        s.status,
+        s.systemName,
+      ]),
+    ).toEqual([
       [14, 'restored', 'Solvra CN'],
       [24, 'planned', null],
     ]);
     // 14 has the seeded recall history (healthy); the planned 24 has never been examined.
-    expect(res.body.sites.map((s: { fdi: number; maintenanceStatus: string }) => [s.fdi, s.maintenanceStatus])).toEqual([
-      [14, 'health'],
-      [24, 'not-examined'],
-    ]);
+    expect(res.body.sites.map((s: { fdi: number; maintenanceStatus: string }) => [s.fdi, s.maintenanceStatus])).toEqual(
+      [
+        [14, 'health'],
+        [24, 'not-examined'],
+      ],
+    );
   });
 });
 
@@ -29,10 +37,26 @@ describe('the Site file', () => {
   it('shows the screw-retained bridge on non-engaging interfaces, with the last torque and its verdict', async () => {
     const res = await ctx.http.get(`/api/sites/${await siteId(ctx.db, 'LL-1001', 35)}`).set('Cookie', dentist);
     expect(res.status).toBe(200);
-    expect(res.body.placement).toMatchObject({ systemName: 'Solvra CN', diameterMm: 4.3, lengthMm: 10, connection: 'internal-conical', platformShift: true });
-    expect(res.body.restoration).toMatchObject({ kind: 'splinted-bridge', retention: 'screw-to-implant', interface: 'non-engaging', retrievable: true, spansFdi: [35, 37] });
+    expect(res.body.placement).toMatchObject({
+      systemName: 'Solvra CN',
+      diameterMm: 4.3,
+      lengthMm: 10,
+      connection: 'internal-conical',
+      platformShift: true,
+    });
+    expect(res.body.restoration).toMatchObject({
+      kind: 'splinted-bridge',
+      retention: 'screw-to-implant',
+      interface: 'non-engaging',
+      retrievable: true,
+      spansFdi: [35, 37],
+    });
     expect(res.body.parts).toHaveLength(1);
-    expect(res.body.parts[0]).toMatchObject({ kind: 'prosthetic-screw', torqueSpecNcm: 25, lastTorque: { appliedNcm: 25, verdict: 'within', reason: 're-torque-at-recall' } });
+    expect(res.body.parts[0]).toMatchObject({
+      kind: 'prosthetic-screw',
+      torqueSpecNcm: 25,
+      lastTorque: { appliedNcm: 25, verdict: 'within', reason: 're-torque-at-recall' },
+    });
   });
 
   it('flags a cement-retained crown as not retrievable', async () => {
@@ -46,7 +70,11 @@ describe('the Site file', () => {
     const [mua, screw] = res.body.parts;
     expect(mua).toMatchObject({ kind: 'multi-unit-abutment', angleDeg: 30, torqueSpecNcm: 15 });
     // 14 N·cm against 15 ± 10 %: within (window 13.5–16.5).
-    expect(screw).toMatchObject({ kind: 'prosthetic-screw', torqueSpecNcm: 15, lastTorque: { appliedNcm: 14, verdict: 'within' } });
+    expect(screw).toMatchObject({
+      kind: 'prosthetic-screw',
+      torqueSpecNcm: 15,
+      lastTorque: { appliedNcm: 14, verdict: 'within' },
+    });
   });
 
   it('shows a planned site with no placement and an empty Stack', async () => {

@@ -23,12 +23,15 @@ describe('accessibility (axe-core, WCAG 2.1 A/AA)', () => {
     expect(await seriousA11yViolations(page)).toEqual([]);
   });
 
-  it("dentist: Patients, Arch, Site file with Stack and Timeline, restorations and the planner", async () => {
+  it('dentist: Patients, Arch, Site file with Stack and Timeline, restorations and the planner', async () => {
     const page = await h.newPage();
     await signInAs(page, 'ines.calloway@larkspur.example');
     await settle(page, 'patients-table');
     expect(await seriousA11yViolations(page)).toEqual([]);
-    await page.getByTestId('patients-table').getByRole('link', { name: /Whitcombe/ }).click();
+    await page
+      .getByTestId('patients-table')
+      .getByRole('link', { name: /Whitcombe/ })
+      .click();
     await settle(page, 'arch-svg');
     expect(await seriousA11yViolations(page)).toEqual([]);
     await page.getByTestId('arch-cell-35').click();
@@ -48,7 +51,10 @@ describe('accessibility (axe-core, WCAG 2.1 A/AA)', () => {
     await page.goto('/recalls');
     await settle(page);
     expect(await seriousA11yViolations(page)).toEqual([]);
-    await page.getByRole('link', { name: /Record exam/ }).first().click();
+    await page
+      .getByRole('link', { name: /Record exam/ })
+      .first()
+      .click();
     await settle(page);
     expect(await seriousA11yViolations(page)).toEqual([]);
   });

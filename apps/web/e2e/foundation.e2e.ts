@@ -10,7 +10,8 @@ beforeAll(async () => {
 afterAll(() => h.close());
 
 /** Console errors other than the expected HTTP replies (the signed-out 401 of /api/auth/me). */
-const unexpectedProblems = () => h.problems.filter((p) => !/Failed to load resource: the server responded with a status of (401|404)/.test(p));
+const unexpectedProblems = () =>
+  h.problems.filter((p) => !/Failed to load resource: the server responded with a status of (401|404)/.test(p));
 
 describe('restorative dentist', () => {
   it('signs in, finds a patient, reads the Arch in FDI and Universal, and opens a Site file', async () => {
@@ -27,7 +28,9 @@ describe('restorative dentist', () => {
     // The Arch: implant sites 35 and 37 with their accessible names (numbering via packages/domain);
     // the seeded recall history makes the latest status of 35 'peri-implant health'.
     const cell35 = page.getByTestId('arch-cell-35');
-    await expect.poll(() => cell35.getAttribute('aria-label')).toMatch(/^35, implant, peri-implant health, last exam \d{1,2} \w+ \d{4}$/);
+    await expect
+      .poll(() => cell35.getAttribute('aria-label'))
+      .toMatch(/^35, implant, peri-implant health, last exam \d{1,2} \w+ \d{4}$/);
     expect(await page.getByTestId('arch-cell-36').getAttribute('aria-label')).toBe('36, missing tooth');
     expect(await page.getByTestId('arch-cell-11').getAttribute('aria-label')).toBe('11, natural tooth');
     await screenshot(page, 'arch-dentist');
@@ -61,7 +64,10 @@ describe('dental hygienist', () => {
   it('reads the Stack but sees no way to edit it', async () => {
     const page = await h.newPage();
     await signInAs(page, 'maren.holt@larkspur.example');
-    await page.getByTestId('patients-table').getByRole('link', { name: /Okafor/ }).click();
+    await page
+      .getByTestId('patients-table')
+      .getByRole('link', { name: /Okafor/ })
+      .click();
     await page.getByTestId('arch-cell-46').click();
     await page.waitForURL(/\/sites\//);
     await expect.poll(() => page.getByTestId('stack-part').count()).toBe(2);
@@ -84,7 +90,10 @@ describe('referring surgeon and another practice', () => {
   it("a dentist of another practice gets 'not found' for a Larkspur patient's address", async () => {
     const larkspur = await h.newPage();
     await signInAs(larkspur, 'ines.calloway@larkspur.example');
-    await larkspur.getByTestId('patients-table').getByRole('link', { name: /Whitcombe/ }).click();
+    await larkspur
+      .getByTestId('patients-table')
+      .getByRole('link', { name: /Whitcombe/ })
+      .click();
     await larkspur.waitForURL(/\/patients\/[0-9a-f-]{36}$/);
     const address = new URL(larkspur.url()).pathname;
 
@@ -112,7 +121,9 @@ describe('API documentation (development only)', () => {
   it('renders the OpenAPI document in Swagger UI under the same Content-Security-Policy', async () => {
     const page = await h.newPage();
     await page.goto('/api/docs');
-    await expect.poll(() => page.locator('.swagger-ui .title').first().textContent(), { timeout: 15_000 }).toMatch(/Torquetrail API/);
+    await expect
+      .poll(() => page.locator('.swagger-ui .title').first().textContent(), { timeout: 15_000 })
+      .toMatch(/Torquetrail API/);
     expect(await page.getByText('/api/patients/{id}').count()).toBeGreaterThan(0);
   });
 });

@@ -15,7 +15,9 @@ describe('practice administrator', () => {
     await signInAs(page, 'odile.park@larkspur.example');
     await page.getByRole('link', { name: 'Catalogue' }).click();
     await page.waitForURL(/\/catalogue$/);
-    expect(await page.getByTestId('catalogue-caution').textContent()).toMatch(/manufacturer's instructions, the clinician's judgement and local regulations rule/);
+    expect(await page.getByTestId('catalogue-caution').textContent()).toMatch(
+      /manufacturer's instructions, the clinician's judgement and local regulations rule/,
+    );
 
     const row = page.getByTestId('catalogue-part').filter({ hasText: 'TEX-41-PSI' });
     await row.getByRole('button', { name: 'Edit' }).click();

@@ -13,14 +13,19 @@ afterAll(() => h.close());
 
 /** Console errors other than the expected HTTP replies; `from` skips what earlier tests saw. */
 const unexpectedProblems = (from = 0, allowed = '401|404') =>
-  h.problems.slice(from).filter((p) => !new RegExp(`Failed to load resource: the server responded with a status of (${allowed})`).test(p));
+  h.problems
+    .slice(from)
+    .filter((p) => !new RegExp(`Failed to load resource: the server responded with a status of (${allowed})`).test(p));
 
 describe('restorative dentist', () => {
   it('plans, fixes an error Finding, delivers and logs a torque on a splinted bridge 15–16', async () => {
     const page = await h.newPage();
     await signInAs(page, 'ines.calloway@larkspur.example');
     await page.getByTestId('patient-search').fill('Achterberg');
-    await page.getByTestId('patients-table').getByRole('link', { name: /Achterberg/ }).click();
+    await page
+      .getByTestId('patients-table')
+      .getByRole('link', { name: /Achterberg/ })
+      .click();
     await page.waitForURL(/\/patients\/[0-9a-f-]{36}$/);
     await page.goto(`${new URL(page.url()).pathname}/restorations`);
     await page.getByTestId('new-plan').click();
@@ -48,7 +53,9 @@ describe('restorative dentist', () => {
     await site15.getByLabel('Impression technique').selectOption('non-engaging');
     await expect.poll(() => error.count()).toBe(0);
     for (const site of [site15, site16]) {
-      await site.getByLabel('Impression coping (catalogue)').selectOption({ label: 'Impression coping, non-engaging, open tray [TEX-41-ICN-O]' });
+      await site
+        .getByLabel('Impression coping (catalogue)')
+        .selectOption({ label: 'Impression coping, non-engaging, open tray [TEX-41-ICN-O]' });
       await site.getByLabel(/Prosthetic screw, implant level/).check({ force: true }); // Blueprint draws its own indicator over the input
       await site.getByLabel('Restorative space (mm)').fill('7');
     }
@@ -76,7 +83,10 @@ describe('restorative dentist', () => {
     const href = await card.getByTestId('lab-pdf-link').getAttribute('href');
     const pdf = await page.evaluate(async (url) => {
       const r = await fetch(url!);
-      return { type: r.headers.get('content-type'), head: new TextDecoder().decode((await r.arrayBuffer()).slice(0, 5)) };
+      return {
+        type: r.headers.get('content-type'),
+        head: new TextDecoder().decode((await r.arrayBuffer()).slice(0, 5)),
+      };
     }, href);
     expect(pdf).toEqual({ type: 'application/pdf', head: '%PDF-' });
 
@@ -98,7 +108,9 @@ describe('restorative dentist', () => {
 
     await page.getByTestId('log-torque-button').click();
     const form = page.getByTestId('torque-form');
-    expect(await form.textContent()).toMatch(/manufacturer's instructions, the clinician's judgement and local regulations rule/);
+    expect(await form.textContent()).toMatch(
+      /manufacturer's instructions, the clinician's judgement and local regulations rule/,
+    );
     await form.getByLabel('Applied torque (N·cm)').fill('32');
     // Spec 32 N·cm ±10 % (demo catalogue, common practice): 32 is within, shown live before saving.
     await expect.poll(() => form.getByTestId('torque-live-verdict').textContent()).toBe('Within specification');
@@ -134,7 +146,10 @@ describe('dental hygienist', () => {
     const page = await h.newPage();
     await signInAs(page, 'maren.holt@larkspur.example');
     await page.getByTestId('patient-search').fill('Whitcombe');
-    await page.getByTestId('patients-table').getByRole('link', { name: /Whitcombe/ }).click();
+    await page
+      .getByTestId('patients-table')
+      .getByRole('link', { name: /Whitcombe/ })
+      .click();
     await page.getByTestId('arch-cell-35').click();
     await page.waitForURL(/\/sites\//);
     const complication = page.locator('[data-testid="timeline-event"][data-kind="complication"]');

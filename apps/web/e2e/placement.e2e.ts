@@ -23,7 +23,10 @@ describe('referring surgeon', () => {
     const page = await h.newPage();
     await signInAs(page, 'rafael.imbert@northgate.example');
     await page.getByTestId('patient-search').fill('Ferraz');
-    await page.getByTestId('patients-table').getByRole('link', { name: /Ferraz/ }).click();
+    await page
+      .getByTestId('patients-table')
+      .getByRole('link', { name: /Ferraz/ })
+      .click();
     await page.waitForURL(/\/patients\/[0-9a-f-]{36}$/);
     // Sites of a shared patient are planned by its practice: no control for the surgeon.
     await page.getByRole('link', { name: 'Site 24', exact: true }).waitFor();
@@ -90,7 +93,10 @@ describe('restorative dentist', () => {
     const page = await h.newPage();
     await signInAs(page, 'ines.calloway@larkspur.example');
     await page.getByTestId('patient-search').fill('Ferraz');
-    await page.getByTestId('patients-table').getByRole('link', { name: /Ferraz/ }).click();
+    await page
+      .getByTestId('patients-table')
+      .getByRole('link', { name: /Ferraz/ })
+      .click();
     await page.waitForURL(/\/patients\/[0-9a-f-]{36}$/);
     await page.getByRole('radio', { name: 'Universal' }).click();
     // FDI 36 is Universal 19 (ISO 3950 ↔ ADA Universal, fdiToUniversal).

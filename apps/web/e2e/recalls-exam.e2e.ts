@@ -12,7 +12,8 @@ beforeAll(async () => {
 afterAll(() => h.close());
 
 // 401 (signed out), 404, and the 400 the amendment test provokes on purpose (a missing reason) are expected replies.
-const unexpectedProblems = () => h.problems.filter((p) => !/Failed to load resource: the server responded with a status of (400|401|404)/.test(p));
+const unexpectedProblems = () =>
+  h.problems.filter((p) => !/Failed to load resource: the server responded with a status of (400|401|404)/.test(p));
 
 describe('hygienist', () => {
   it('works the Recall desk: overdue filter, sort, and opens the exam form', async () => {
@@ -36,7 +37,11 @@ describe('hygienist', () => {
     const page = await h.newPage();
     await signInAs(page, 'maren.holt@larkspur.example');
     await page.goto('/recalls');
-    await page.getByTestId('recall-desk-table').locator('tr', { hasText: 'Wendell Achterberg' }).getByRole('link', { name: 'Record exam' }).click();
+    await page
+      .getByTestId('recall-desk-table')
+      .locator('tr', { hasText: 'Wendell Achterberg' })
+      .getByRole('link', { name: 'Record exam' })
+      .click();
     const status15 = page.getByTestId('live-status-15');
     await expect.poll(() => status15.textContent()).toContain('Enter the six probing depths');
 
@@ -48,7 +53,9 @@ describe('hygienist', () => {
     }
     await expect.poll(() => status15.textContent()).toContain('Enter 1 more probing depth');
     await page.keyboard.type('3');
-    expect(await page.evaluate(() => document.activeElement?.getAttribute('aria-label'))).toBe('15 distolingual probing depth');
+    expect(await page.evaluate(() => document.activeElement?.getAttribute('aria-label'))).toBe(
+      '15 distolingual probing depth',
+    );
     await expect.poll(() => status15.textContent()).toContain('peri-implant health');
     const flags = page.getByTestId('live-flags-15');
     expect(await flags.textContent()).toContain('No baseline');
@@ -87,7 +94,9 @@ describe('hygienist', () => {
 
     // The Arch ring now carries the status and the exam date.
     await page.getByRole('link', { name: /Arch of Wendell/ }).click();
-    await expect.poll(() => page.getByTestId('arch-cell-15').getAttribute('aria-label')).toMatch(/^15, implant placed, peri-implant mucositis, last exam /);
+    await expect
+      .poll(() => page.getByTestId('arch-cell-15').getAttribute('aria-label'))
+      .toMatch(/^15, implant placed, peri-implant mucositis, last exam /);
     expect(unexpectedProblems()).toEqual([]);
   });
 });
@@ -97,8 +106,15 @@ describe('hygienist amending', () => {
     const page = await h.newPage();
     await signInAs(page, 'priya.sandhu@larkspur.example');
     await page.goto('/recalls');
-    await page.getByTestId('recall-desk-table').locator('tr', { hasText: 'Harold Whitcombe' }).getByRole('link', { name: 'Record exam' }).click();
-    await page.getByTestId('exam-site-37').getByRole('button', { name: /^Amend the exam of/ }).click();
+    await page
+      .getByTestId('recall-desk-table')
+      .locator('tr', { hasText: 'Harold Whitcombe' })
+      .getByRole('link', { name: 'Record exam' })
+      .click();
+    await page
+      .getByTestId('exam-site-37')
+      .getByRole('button', { name: /^Amend the exam of/ })
+      .click();
     const form = page.getByTestId('amend-form');
     await expect.poll(() => form.isVisible()).toBe(true);
     expect(await page.getByLabel('37 mesiobuccal probing depth').inputValue()).toBe('3');

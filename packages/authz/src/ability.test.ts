@@ -8,15 +8,23 @@ const OTHER = '22222222-2222-4222-8222-222222222222';
 const SHARED_PATIENT = '33333333-3333-4333-8333-333333333333';
 const UNSHARED_PATIENT = '44444444-4444-4444-8444-444444444444';
 
-const user = (role: Role, shared: string[] = []) => defineAbilityFor({ id: 'u', role, practiceId: role === 'surgeon' ? OTHER : PRACTICE, sharedPatientIds: shared });
+const user = (role: Role, shared: string[] = []) =>
+  defineAbilityFor({ id: 'u', role, practiceId: role === 'surgeon' ? OTHER : PRACTICE, sharedPatientIds: shared });
 const row = (type: Exclude<Subject, 'all'>, fields: Record<string, string>) => subject(type, { ...fields });
 const inPractice = { practiceId: PRACTICE, patientId: UNSHARED_PATIENT };
 
 describe('restorative dentist', () => {
   const a = user('dentist');
   it.each<[Action, Exclude<Subject, 'all'>]>([
-    ['create', 'Restoration'], ['amend', 'Restoration'], ['create', 'TorqueEvent'], ['amend', 'TorqueEvent'],
-    ['create', 'ComponentInstance'], ['create', 'Share'], ['read', 'RecallExam'], ['read', 'Catalogue'], ['create', 'Complication'],
+    ['create', 'Restoration'],
+    ['amend', 'Restoration'],
+    ['create', 'TorqueEvent'],
+    ['amend', 'TorqueEvent'],
+    ['create', 'ComponentInstance'],
+    ['create', 'Share'],
+    ['read', 'RecallExam'],
+    ['read', 'Catalogue'],
+    ['create', 'Complication'],
   ])('may %s %s in their practice', (action, type) => {
     expect(a.can(action, row(type, inPractice))).toBe(true);
   });
@@ -79,7 +87,16 @@ describe('practice administrator', () => {
     expect(a.can('read', row('AuditEntry', { practiceId: PRACTICE }))).toBe(true);
   });
   it('may not edit clinical entries', () => {
-    for (const type of ['ImplantSite', 'Placement', 'Restoration', 'ComponentInstance', 'TorqueEvent', 'RecallExam', 'Radiograph', 'Complication'] as const) {
+    for (const type of [
+      'ImplantSite',
+      'Placement',
+      'Restoration',
+      'ComponentInstance',
+      'TorqueEvent',
+      'RecallExam',
+      'Radiograph',
+      'Complication',
+    ] as const) {
       expect(a.can('create', row(type, inPractice))).toBe(false);
       expect(a.can('amend', row(type, inPractice))).toBe(false);
     }

@@ -1,8 +1,4 @@
-import {
-  AbilityBuilder,
-  createMongoAbility,
-  type MongoAbility,
-} from '@casl/ability';
+import { AbilityBuilder, createMongoAbility, type MongoAbility } from '@casl/ability';
 
 /** The roles of Torquetrail, in the order of the database enum. */
 export const ROLES = ['practice_admin', 'dentist', 'hygienist', 'surgeon'] as const;
@@ -75,7 +71,11 @@ export function defineAbilityFor(user: AbilityUser): AppAbility {
     case 'dentist':
       can('read', 'Practice', { id: user.practiceId });
       can(['read', 'create', 'update'], 'Patient', own);
-      can(['read', 'create', 'amend'], ['ImplantSite', 'Restoration', 'ComponentInstance', 'TorqueEvent', 'Complication'], own);
+      can(
+        ['read', 'create', 'amend'],
+        ['ImplantSite', 'Restoration', 'ComponentInstance', 'TorqueEvent', 'Complication'],
+        own,
+      );
       can(['read', 'create', 'amend'], 'Placement', own);
       can('read', ['RecallExam', 'Radiograph', 'Catalogue', 'Wrench', 'RecallPolicy'], own);
       can(['read', 'create', 'update'], 'Share', own);

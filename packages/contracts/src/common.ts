@@ -25,4 +25,7 @@ export const ErrorReply = z.object({
 export type ErrorReply = z.infer<typeof ErrorReply>;
 
 /** A component of an implant axis (direction vector): any scale gives the same angle, so a sane bound keeps out overflow. */
-export const AxisComponent = z.number().min(-1000, { error: 'Axis components lie between −1000 and 1000' }).max(1000, { error: 'Axis components lie between −1000 and 1000' });
+export const AxisComponent = z
+  .number()
+  .min(-1000, { error: 'Axis components lie between −1000 and 1000' })
+  .max(1000, { error: 'Axis components lie between −1000 and 1000' });

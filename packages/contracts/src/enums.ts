@@ -80,14 +80,28 @@ export const ComponentKind = z.enum(COMPONENT_KINDS);
 export type ComponentKind = z.infer<typeof ComponentKind>;
 
 /** Abutments a crown or bridge sits on (multi-unit abutments are their own slot). */
-export const ABUTMENT_KINDS = ['abutment-stock', 'abutment-custom', 'abutment-angled'] as const satisfies readonly ComponentKind[];
+export const ABUTMENT_KINDS = [
+  'abutment-stock',
+  'abutment-custom',
+  'abutment-angled',
+] as const satisfies readonly ComponentKind[];
 /** Screws that hold an abutment or a restoration. */
-export const SCREW_KINDS = ['abutment-screw', 'prosthetic-screw', 'set-screw'] as const satisfies readonly ComponentKind[];
+export const SCREW_KINDS = [
+  'abutment-screw',
+  'prosthetic-screw',
+  'set-screw',
+] as const satisfies readonly ComponentKind[];
 /** Parts that close the implant at surgery: hand-tight, no torque is logged. */
 export const CLOSURE_KINDS = ['healing-abutment', 'cover-screw'] as const satisfies readonly ComponentKind[];
 export type ClosureKind = (typeof CLOSURE_KINDS)[number];
 /** The Stack from the implant outward: multi-unit or abutment, then its screws, then the rest. */
-export const STACK_ORDER: readonly ComponentKind[] = ['multi-unit-abutment', ...ABUTMENT_KINDS, ...SCREW_KINDS, ...CLOSURE_KINDS, 'impression-coping'];
+export const STACK_ORDER: readonly ComponentKind[] = [
+  'multi-unit-abutment',
+  ...ABUTMENT_KINDS,
+  ...SCREW_KINDS,
+  ...CLOSURE_KINDS,
+  'impression-coping',
+];
 
 export const TRAYS = ['open', 'closed'] as const;
 export const Tray = z.enum(TRAYS);
@@ -110,11 +124,21 @@ export const FindingSeverity = z.enum(FINDING_SEVERITIES);
 export type FindingSeverity = z.infer<typeof FindingSeverity>;
 /** 0, 17 or 30 degrees. */
 export const MultiUnitAngleDeg = z.union(
-  MULTI_UNIT_ANGLES_DEG.map((angle) => z.literal(angle)) as [z.ZodLiteral<MultiUnitAngleDegValue>, ...z.ZodLiteral<MultiUnitAngleDegValue>[]],
+  MULTI_UNIT_ANGLES_DEG.map((angle) => z.literal(angle)) as [
+    z.ZodLiteral<MultiUnitAngleDegValue>,
+    ...z.ZodLiteral<MultiUnitAngleDegValue>[],
+  ],
 );
 export type MultiUnitAngleDeg = z.infer<typeof MultiUnitAngleDeg>;
 
-export const MATERIALS = ['zirconia', 'titanium-porcelain', 'titanium-composite', 'full-gold', 'porcelain-fused-to-metal', 'other'] as const;
+export const MATERIALS = [
+  'zirconia',
+  'titanium-porcelain',
+  'titanium-composite',
+  'full-gold',
+  'porcelain-fused-to-metal',
+  'other',
+] as const;
 export const Material = z.enum(MATERIALS);
 export type Material = z.infer<typeof Material>;
 
@@ -128,12 +152,29 @@ export type TorqueVerdict = z.infer<typeof TorqueVerdict>;
 export const TorqueReason = z.enum(TORQUE_REASONS);
 export type TorqueReason = z.infer<typeof TorqueReason>;
 
-export const COMPLICATION_KINDS = ['screw-loosening', 'screw-fracture', 'abutment-fracture', 'veneer-chipping', 'framework-fracture', 'other'] as const;
+export const COMPLICATION_KINDS = [
+  'screw-loosening',
+  'screw-fracture',
+  'abutment-fracture',
+  'veneer-chipping',
+  'framework-fracture',
+  'other',
+] as const;
 export const ComplicationKind = z.enum(COMPLICATION_KINDS);
 export type ComplicationKind = z.infer<typeof ComplicationKind>;
 
 /** In the order of a sitting: the Timeline orders the entries of one day by it. */
-export const TIMELINE_KINDS = ['placement', 'plan', 'impression', 'lab-prescription', 'part', 'delivery', 'complication', 'torque', 'recall-exam'] as const;
+export const TIMELINE_KINDS = [
+  'placement',
+  'plan',
+  'impression',
+  'lab-prescription',
+  'part',
+  'delivery',
+  'complication',
+  'torque',
+  'recall-exam',
+] as const;
 export const TimelineKind = z.enum(TIMELINE_KINDS);
 export type TimelineKind = z.infer<typeof TimelineKind>;
 

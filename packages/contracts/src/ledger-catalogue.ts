@@ -60,7 +60,10 @@ const collarHeightMm = z.number().min(COLLAR_HEIGHT_MM_RANGE.min).max(COLLAR_HEI
 export const TOLERANCE_PCT_RANGE = Object.freeze({ min: 0, max: 50 } as const);
 const tolerancePct = z.number().min(TOLERANCE_PCT_RANGE.min).max(TOLERANCE_PCT_RANGE.max);
 /** N·cm, within the domain's accepted range. */
-const torqueSpecNcm = z.number().min(TORQUE_NCM_RANGE.min, `At least ${TORQUE_NCM_RANGE.min} N·cm`).max(TORQUE_NCM_RANGE.max, `At most ${TORQUE_NCM_RANGE.max} N·cm`);
+const torqueSpecNcm = z
+  .number()
+  .min(TORQUE_NCM_RANGE.min, `At least ${TORQUE_NCM_RANGE.min} N·cm`)
+  .max(TORQUE_NCM_RANGE.max, `At most ${TORQUE_NCM_RANGE.max} N·cm`);
 
 export const SystemBody = z.object({ name, manufacturer: name });
 export type SystemBody = z.infer<typeof SystemBody>;
@@ -70,7 +73,10 @@ export type SystemPatch = z.infer<typeof SystemPatch>;
 export const PlatformBody = z.object({
   systemId: Id,
   name,
-  diameterMm: z.number().min(PLATFORM_DIAMETER_MM_RANGE.min, `At least ${PLATFORM_DIAMETER_MM_RANGE.min} mm`).max(PLATFORM_DIAMETER_MM_RANGE.max, `At most ${PLATFORM_DIAMETER_MM_RANGE.max} mm`),
+  diameterMm: z
+    .number()
+    .min(PLATFORM_DIAMETER_MM_RANGE.min, `At least ${PLATFORM_DIAMETER_MM_RANGE.min} mm`)
+    .max(PLATFORM_DIAMETER_MM_RANGE.max, `At most ${PLATFORM_DIAMETER_MM_RANGE.max} mm`),
   connection: Connection,
   platformShift: z.boolean(),
 });
@@ -111,7 +117,15 @@ export const Wrench = z.object({ id: Id, label: z.string(), type: WrenchType, la
 export type Wrench = z.infer<typeof Wrench>;
 export const WrenchListReply = z.object({ items: z.array(Wrench) });
 export type WrenchListReply = z.infer<typeof WrenchListReply>;
-export const WrenchBody = z.object({ label: name, type: WrenchType, lastCalibratedOn: IsoDate.nullable().default(null) });
+export const WrenchBody = z.object({
+  label: name,
+  type: WrenchType,
+  lastCalibratedOn: IsoDate.nullable().default(null),
+});
 export type WrenchBody = z.input<typeof WrenchBody>;
-export const WrenchPatch = z.object({ label: name.optional(), type: WrenchType.optional(), lastCalibratedOn: IsoDate.nullable().optional() });
+export const WrenchPatch = z.object({
+  label: name.optional(),
+  type: WrenchType.optional(),
+  lastCalibratedOn: IsoDate.nullable().optional(),
+});
 export type WrenchPatch = z.infer<typeof WrenchPatch>;

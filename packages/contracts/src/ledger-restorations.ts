@@ -2,7 +2,18 @@
 import { z } from 'zod';
 import { AxisComponent, FdiPosition, Id, IsoDate, IsoDateTime } from './common.js';
 import { CatalogueComponent } from './ledger-catalogue.js';
-import { Connection, FindingSeverity, ImpressionCopingKind, InterfaceKind, Material, MultiUnitAngleDeg, RestorationKind, RestorationStatus, Retention, SiteStatus } from './enums.js';
+import {
+  Connection,
+  FindingSeverity,
+  ImpressionCopingKind,
+  InterfaceKind,
+  Material,
+  MultiUnitAngleDeg,
+  RestorationKind,
+  RestorationStatus,
+  Retention,
+  SiteStatus,
+} from './enums.js';
 
 /** A plan Finding as returned by `validateRestorationPlan` (@torquetrail/domain). */
 export const Finding = z.object({
@@ -48,7 +59,10 @@ export const PlanBody = z.object({
   notes: optionalText(2000),
   sites: z.array(PlanSiteBody).min(1, 'Choose at least one site').max(16),
   /** Warning Findings the clinician has read and accepts (code and site). */
-  acknowledgements: z.array(z.object({ code: z.string().max(80), fdi: FdiPosition.nullable().default(null) })).max(50).default([]),
+  acknowledgements: z
+    .array(z.object({ code: z.string().max(80), fdi: FdiPosition.nullable().default(null) }))
+    .max(50)
+    .default([]),
 });
 export type PlanBody = z.input<typeof PlanBody>;
 export type PlanBodyParsed = z.output<typeof PlanBody>;
@@ -156,7 +170,9 @@ export const RestorationDetail = z.object({
   amendmentReason: z.string().nullable(),
   /** Set when a later amendment replaced this version (it stays visible, marked as amended). */
   supersededById: Id.nullable(),
-  acknowledgements: z.array(z.object({ code: z.string(), fdi: z.number().nullable(), byName: z.string(), at: IsoDateTime })),
+  acknowledgements: z.array(
+    z.object({ code: z.string(), fdi: z.number().nullable(), byName: z.string(), at: IsoDateTime }),
+  ),
   sites: z.array(RestorationSiteDetail),
   labPrescriptions: z.array(LabPrescriptionSummary),
   /** Retrievable without cutting: false for cement-retained restorations. */

@@ -106,7 +106,9 @@ export const TorqueSeries = z.object({
   specNcm: z.number().nullable(),
   tolerancePct: z.number(),
   removedOn: IsoDate.nullable(),
-  points: z.array(z.object({ id: Id, at: IsoDateTime, appliedNcm: z.number(), verdict: TorqueVerdict, reason: TorqueReason })),
+  points: z.array(
+    z.object({ id: Id, at: IsoDateTime, appliedNcm: z.number(), verdict: TorqueVerdict, reason: TorqueReason }),
+  ),
 });
 export type TorqueSeries = z.infer<typeof TorqueSeries>;
 
@@ -118,7 +120,10 @@ export const TimelineQuery = z.object({
     .optional()
     .transform((s, ctx) => {
       if (!s) return undefined;
-      const parts = s.split(',').map((p) => p.trim()).filter(Boolean);
+      const parts = s
+        .split(',')
+        .map((p) => p.trim())
+        .filter(Boolean);
       for (const p of parts) {
         if (!TimelineKind.safeParse(p).success) {
           ctx.addIssue({ code: 'custom', message: `Unknown kind "${p}"` });
@@ -130,5 +135,9 @@ export const TimelineQuery = z.object({
 });
 export type TimelineQuery = z.output<typeof TimelineQuery>;
 
-export const TimelineReply = z.object({ siteId: Id, events: z.array(TimelineEvent), torqueSeries: z.array(TorqueSeries) });
+export const TimelineReply = z.object({
+  siteId: Id,
+  events: z.array(TimelineEvent),
+  torqueSeries: z.array(TorqueSeries),
+});
 export type TimelineReply = z.infer<typeof TimelineReply>;

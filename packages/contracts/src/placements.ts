@@ -28,7 +28,12 @@ export const PlacementOptionPlatform = z.object({
   platformShift: z.boolean(),
   components: z.array(PlacementOptionComponent),
 });
-export const PlacementOptionSystem = z.object({ id: Id, name: z.string(), manufacturer: z.string(), platforms: z.array(PlacementOptionPlatform) });
+export const PlacementOptionSystem = z.object({
+  id: Id,
+  name: z.string(),
+  manufacturer: z.string(),
+  platforms: z.array(PlacementOptionPlatform),
+});
 
 /** The implant systems of the SITE's practice (the surgeon of another practice may place from them). */
 export const PlacementOptionsReply = z.object({
@@ -56,7 +61,8 @@ export const Axis = z
 export const IMPLANT_LENGTH_MM_RANGE = Object.freeze({ min: 4, max: 20 } as const);
 export const INSERTION_TORQUE_NCM_RANGE = Object.freeze({ min: 5, max: 100 } as const);
 export const ISQ_RANGE = Object.freeze({ min: 1, max: 99 } as const);
-const between = (what: string, { min, max }: { min: number; max: number }, unit = '') => `${what} must be between ${min} and ${max}${unit}`;
+const between = (what: string, { min, max }: { min: number; max: number }, unit = '') =>
+  `${what} must be between ${min} and ${max}${unit}`;
 
 const placementFields = {
   platformId: z.uuid({ error: 'Choose the platform' }),
@@ -79,7 +85,13 @@ const placementFields = {
     .max(INSERTION_TORQUE_NCM_RANGE.max, between('Insertion torque', INSERTION_TORQUE_NCM_RANGE, ' N·cm'))
     .nullable()
     .default(null),
-  stabilityIsq: z.number().int('ISQ is a whole number').min(ISQ_RANGE.min, between('ISQ', ISQ_RANGE)).max(ISQ_RANGE.max, between('ISQ', ISQ_RANGE)).nullable().default(null),
+  stabilityIsq: z
+    .number()
+    .int('ISQ is a whole number')
+    .min(ISQ_RANGE.min, between('ISQ', ISQ_RANGE))
+    .max(ISQ_RANGE.max, between('ISQ', ISQ_RANGE))
+    .nullable()
+    .default(null),
   grafting: optionalText(500),
   loadingProtocol: LoadingProtocol.nullable().default(null),
   axis: Axis.nullable().default(null),
@@ -142,11 +154,30 @@ export function describeUdiError(code: string, detail: string): string {
   return `${UDI_ERROR_HINTS[code] ?? 'The UDI cannot be read'} (${detail})`;
 }
 
-const r = (method: RouteContract['method'], path: string, summary: string, extra: Partial<RouteContract> = {}): RouteContract => ({ method, path, summary, signedIn: true, ...extra });
+const r = (
+  method: RouteContract['method'],
+  path: string,
+  summary: string,
+  extra: Partial<RouteContract> = {},
+): RouteContract => ({ method, path, summary, signedIn: true, ...extra });
 
 export const placementRoutes: RouteContract[] = [
-  r('post', '/patients/:id/sites', 'Add a planned implant site at an FDI position (dentist)', { body: AddSiteBody, reply: ArchSite }),
-  r('get', '/sites/:id/placement-options', "Implant systems, platforms and closure parts of the site's practice, for recording a placement", { reply: PlacementOptionsReply }),
-  r('post', '/sites/:id/placements', 'Record the placement of a planned site; a UDI is parsed on the server', { body: PlacementBody, reply: PlacementRecord }),
-  r('post', '/placements/:id/amendments', 'Amend a placement: a new version superseding the old one, with its reason', { body: PlacementAmendmentBody, reply: PlacementRecord }),
+  r('post', '/patients/:id/sites', 'Add a planned implant site at an FDI position (dentist)', {
+    body: AddSiteBody,
+    reply: ArchSite,
+  }),
+  r(
+    'get',
+    '/sites/:id/placement-options',
+    "Implant systems, platforms and closure parts of the site's practice, for recording a placement",
+    { reply: PlacementOptionsReply },
+  ),
+  r('post', '/sites/:id/placements', 'Record the placement of a planned site; a UDI is parsed on the server', {
+    body: PlacementBody,
+    reply: PlacementRecord,
+  }),
+  r('post', '/placements/:id/amendments', 'Amend a placement: a new version superseding the old one, with its reason', {
+    body: PlacementAmendmentBody,
+    reply: PlacementRecord,
+  }),
 ];

@@ -3,7 +3,17 @@ import { z } from 'zod';
 import { FdiPosition, Id, IsoDate, IsoDateTime } from './common.js';
 import { RECALL_MONTHS_RANGE } from '@torquetrail/domain';
 import type { RouteContract } from './route-contract.js';
-import { DeskFilter, DeskSort, MaintenanceStatus, PeriImplantStatus, ProbingPosition, ReminderKind, ReminderStatus, SiteStatus, SortDirection } from './enums.js';
+import {
+  DeskFilter,
+  DeskSort,
+  MaintenanceStatus,
+  PeriImplantStatus,
+  ProbingPosition,
+  ReminderKind,
+  ReminderStatus,
+  SiteStatus,
+  SortDirection,
+} from './enums.js';
 
 const halfMm = (max: number, what: string) =>
   z
@@ -34,7 +44,8 @@ export const SiteExamInput = z.object({
     .superRefine((sites, ctx) => {
       const seen = new Set<string>();
       sites.forEach((s, i) => {
-        if (seen.has(s.position)) ctx.addIssue({ code: 'custom', message: `${s.position} is given twice`, path: [i, 'position'] });
+        if (seen.has(s.position))
+          ctx.addIssue({ code: 'custom', message: `${s.position} is given twice`, path: [i, 'position'] });
         seen.add(s.position);
       });
     }),
@@ -62,7 +73,12 @@ export const CreateVisitBody = z
   .superRefine((body, ctx) => {
     const seen = new Set<string>();
     body.exams.forEach((e, i) => {
-      if (seen.has(e.siteId)) ctx.addIssue({ code: 'custom', message: 'this implant is examined twice in one visit', path: ['exams', i, 'siteId'] });
+      if (seen.has(e.siteId))
+        ctx.addIssue({
+          code: 'custom',
+          message: 'this implant is examined twice in one visit',
+          path: ['exams', i, 'siteId'],
+        });
       seen.add(e.siteId);
     });
   });
@@ -226,14 +242,85 @@ export const ReminderLogReply = z.object({ items: z.array(ReminderLogItem) });
 export type ReminderLogReply = z.infer<typeof ReminderLogReply>;
 
 export const recallRoutes: RouteContract[] = [
-  { method: 'get', path: '/recalls/desk', summary: "Recall desk: the practice's patients with implants, next recall, overdue days, last status per implant, risk factors (paged and sorted in SQL)", signedIn: true, query: RecallDeskQuery, reply: RecallDeskReply },
-  { method: 'get', path: '/recalls/desk/csv', summary: 'The Recall desk as CSV, with the same filters and sort', signedIn: true, query: RecallDeskCsvQuery, produces: 'text/csv' },
-  { method: 'get', path: '/recalls/patients/:id/exam-context', summary: "A patient's implants with their baseline and previous exam, risk factors and the practice policy, for the exam form", signedIn: true, reply: ExamContext },
-  { method: 'post', path: '/recalls/visits', summary: 'Record a maintenance visit: one exam per implant; the status is computed on the server and the next recall scheduled', signedIn: true, body: CreateVisitBody, reply: CreateVisitReply },
-  { method: 'post', path: '/recalls/exams/:id/amend', summary: 'Amend one exam: a new exam superseding it, with the reason; status recomputed on the server, next recall rescheduled', signedIn: true, body: AmendExamBody, reply: RecallExam },
-  { method: 'get', path: '/recalls/sites/:id/exams', summary: "A site's exam history (probing depths and computed status over the years)", signedIn: true, reply: SiteExamHistory },
-  { method: 'get', path: '/recalls/policy', summary: "The practice's recall and reminder policy", signedIn: true, reply: RecallPolicyReply },
-  { method: 'put', path: '/recalls/policy', summary: "Change the practice's recall and reminder policy (practice admin)", signedIn: true, body: RecallPolicyBody, reply: RecallPolicyReply },
-  { method: 'post', path: '/recalls/reminders/run', status: 200, summary: 'Run the daily reminder scan now (practice admin): logs and queues the reminders that are due', signedIn: true, body: RunRemindersBody, reply: RunRemindersReply },
-  { method: 'get', path: '/recalls/reminders', summary: 'The reminder log of the practice (practice admin)', signedIn: true, reply: ReminderLogReply },
+  {
+    method: 'get',
+    path: '/recalls/desk',
+    summary:
+      "Recall desk: the practice's patients with implants, next recall, overdue days, last status per implant, risk factors (paged and sorted in SQL)",
+    signedIn: true,
+    query: RecallDeskQuery,
+    reply: RecallDeskReply,
+  },
+  {
+    method: 'get',
+    path: '/recalls/desk/csv',
+    summary: 'The Recall desk as CSV, with the same filters and sort',
+    signedIn: true,
+    query: RecallDeskCsvQuery,
+    produces: 'text/csv',
+  },
+  {
+    method: 'get',
+    path: '/recalls/patients/:id/exam-context',
+    summary:
+      "A patient's implants with their baseline and previous exam, risk factors and the practice policy, for the exam form",
+    signedIn: true,
+    reply: ExamContext,
+  },
+  {
+    method: 'post',
+    path: '/recalls/visits',
+    summary:
+      'Record a maintenance visit: one exam per implant; the status is computed on the server and the next recall scheduled',
+    signedIn: true,
+    body: CreateVisitBody,
+    reply: CreateVisitReply,
+  },
+  {
+    method: 'post',
+    path: '/recalls/exams/:id/amend',
+    summary:
+      'Amend one exam: a new exam superseding it, with the reason; status recomputed on the server, next recall rescheduled',
+    signedIn: true,
+    body: AmendExamBody,
+    reply: RecallExam,
+  },
+  {
+    method: 'get',
+    path: '/recalls/sites/:id/exams',
+    summary: "A site's exam history (probing depths and computed status over the years)",
+    signedIn: true,
+    reply: SiteExamHistory,
+  },
+  {
+    method: 'get',
+    path: '/recalls/policy',
+    summary: "The practice's recall and reminder policy",
+    signedIn: true,
+    reply: RecallPolicyReply,
+  },
+  {
+    method: 'put',
+    path: '/recalls/policy',
+    summary: "Change the practice's recall and reminder policy (practice admin)",
+    signedIn: true,
+    body: RecallPolicyBody,
+    reply: RecallPolicyReply,
+  },
+  {
+    method: 'post',
+    path: '/recalls/reminders/run',
+    status: 200,
+    summary: 'Run the daily reminder scan now (practice admin): logs and queues the reminders that are due',
+    signedIn: true,
+    body: RunRemindersBody,
+    reply: RunRemindersReply,
+  },
+  {
+    method: 'get',
+    path: '/recalls/reminders',
+    summary: 'The reminder log of the practice (practice admin)',
+    signedIn: true,
+    reply: ReminderLogReply,
+  },
 ];

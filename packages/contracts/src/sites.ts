@@ -1,6 +1,18 @@
 import { z } from 'zod';
 import { FdiPosition, Id, IsoDate, IsoDateTime } from './common.js';
-import { ComponentKind, Connection, InterfaceKind, LoadingProtocol, MaintenanceStatus, Material, RestorationKind, Retention, SiteStatus, TorqueReason, TorqueVerdict } from './enums.js';
+import {
+  ComponentKind,
+  Connection,
+  InterfaceKind,
+  LoadingProtocol,
+  MaintenanceStatus,
+  Material,
+  RestorationKind,
+  Retention,
+  SiteStatus,
+  TorqueReason,
+  TorqueVerdict,
+} from './enums.js';
 
 export const Placement = z.object({
   placedOn: IsoDate,

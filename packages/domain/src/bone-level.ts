@@ -82,7 +82,8 @@ function nearest(points: Point[], targetDay: number, windowDays: number): Point 
   for (const p of points) {
     const dist = Math.abs(p.t - targetDay);
     if (dist > windowDays) continue;
-    if (best === null || dist < Math.abs(best.t - targetDay) || (dist === Math.abs(best.t - targetDay) && p.t > best.t)) best = p;
+    if (best === null || dist < Math.abs(best.t - targetDay) || (dist === Math.abs(best.t - targetDay) && p.t > best.t))
+      best = p;
   }
   return best;
 }
@@ -107,20 +108,42 @@ function slope(points: Point[]): number {
  * how the reference, the first-year loss and the annual rate are chosen.
  * @throws ValidationError for malformed dates or non-finite bone levels
  */
-export function meetsAlbrektsson(series: BoneLevelReading[], loadingDate: string, options?: AlbrektssonOptions): AlbrektssonResult {
+export function meetsAlbrektsson(
+  series: BoneLevelReading[],
+  loadingDate: string,
+  options?: AlbrektssonOptions,
+): AlbrektssonResult {
   parseIsoDate(loadingDate, 'loadingDate');
   const list = requireArray(series, 'series') as BoneLevelReading[];
-  const refWindow = options?.referenceWindowDays === undefined ? 90 : requireNonNegative(options.referenceWindowDays, 'options.referenceWindowDays');
-  const y1Window = options?.yearOneWindowDays === undefined ? 90 : requireNonNegative(options.yearOneWindowDays, 'options.yearOneWindowDays');
-  const minSpan = options?.minRateSpanYears === undefined ? 1 : requireNonNegative(options.minRateSpanYears, 'options.minRateSpanYears');
+  const refWindow =
+    options?.referenceWindowDays === undefined
+      ? 90
+      : requireNonNegative(options.referenceWindowDays, 'options.referenceWindowDays');
+  const y1Window =
+    options?.yearOneWindowDays === undefined
+      ? 90
+      : requireNonNegative(options.yearOneWindowDays, 'options.yearOneWindowDays');
+  const minSpan =
+    options?.minRateSpanYears === undefined
+      ? 1
+      : requireNonNegative(options.minRateSpanYears, 'options.minRateSpanYears');
   if (y1Window >= 182) {
-    throw new ValidationError('out-of-range', 'options.yearOneWindowDays must be below 182 days', 'options.yearOneWindowDays');
+    throw new ValidationError(
+      'out-of-range',
+      'options.yearOneWindowDays must be below 182 days',
+      'options.yearOneWindowDays',
+    );
   }
 
   const points: Point[] = list.map((r, i) => {
-    if (r === null || typeof r !== 'object') throw new ValidationError('bad-value', `series[${i}] must be an object`, `series[${i}]`);
+    if (r === null || typeof r !== 'object')
+      throw new ValidationError('bad-value', `series[${i}] must be an object`, `series[${i}]`);
     parseIsoDate(r.date, `series[${i}].date`);
-    return { date: r.date, t: daysBetween(loadingDate, r.date), level: requireFinite(r.boneLevelMm, `series[${i}].boneLevelMm`) };
+    return {
+      date: r.date,
+      t: daysBetween(loadingDate, r.date),
+      level: requireFinite(r.boneLevelMm, `series[${i}].boneLevelMm`),
+    };
   });
   points.sort((a, b) => a.t - b.t);
 
@@ -134,12 +157,22 @@ export function meetsAlbrektsson(series: BoneLevelReading[], loadingDate: string
   if (points.length === 0) return fail('no bone-level readings: the criteria cannot be assessed');
 
   const ref = nearest(points, 0, refWindow);
-  if (!ref) return fail(`no reading within ${refWindow} days of loading (${loadingDate}) to serve as reference: the criteria cannot be assessed`);
+  if (!ref)
+    return fail(
+      `no reading within ${refWindow} days of loading (${loadingDate}) to serve as reference: the criteria cannot be assessed`,
+    );
   reasons.push(`reference: ${ref.date}, bone level ${fmt(ref.level)} mm`);
 
   const anniversary = daysBetween(loadingDate, addCalendarMonths(loadingDate, 12, 'loadingDate'));
-  const y1 = nearest(points.filter((p) => p.t > ref.t), anniversary, y1Window);
-  if (!y1) return fail(`no reading within ${y1Window} days of the first anniversary of loading: first-year loss cannot be assessed`);
+  const y1 = nearest(
+    points.filter((p) => p.t > ref.t),
+    anniversary,
+    y1Window,
+  );
+  if (!y1)
+    return fail(
+      `no reading within ${y1Window} days of the first anniversary of loading: first-year loss cannot be assessed`,
+    );
 
   const firstYearLossMm = round4(y1.level - ref.level);
   const firstOk = firstYearLossMm < ALBREKTSSON_FIRST_YEAR_MM;
@@ -205,18 +238,37 @@ export interface IcoiInput {
  * @throws ValidationError for NaN, non-positive length, negative PD, unknown exudate value
  */
 export function icoiGrade(input: IcoiInput): IcoiGrade {
-  if (input === null || typeof input !== 'object') throw new ValidationError('bad-value', 'input must be an object', 'input');
+  if (input === null || typeof input !== 'object')
+    throw new ValidationError('bad-value', 'input must be an object', 'input');
   const loss = requireFinite(input.boneLossMm, 'boneLossMm');
   const length = requireFinite(input.implantLengthMm, 'implantLengthMm');
-  if (length <= 0) throw new ValidationError('out-of-range', `implantLengthMm must be greater than 0 (got ${length})`, 'implantLengthMm');
-  if (typeof input.mobility !== 'boolean') throw new ValidationError('bad-value', 'mobility must be true or false', 'mobility');
-  if (typeof input.painOnFunction !== 'boolean') throw new ValidationError('bad-value', 'painOnFunction must be true or false', 'painOnFunction');
+  if (length <= 0)
+    throw new ValidationError(
+      'out-of-range',
+      `implantLengthMm must be greater than 0 (got ${length})`,
+      'implantLengthMm',
+    );
+  if (typeof input.mobility !== 'boolean')
+    throw new ValidationError('bad-value', 'mobility must be true or false', 'mobility');
+  if (typeof input.painOnFunction !== 'boolean')
+    throw new ValidationError('bad-value', 'painOnFunction must be true or false', 'painOnFunction');
   const exudate = requireOneOf(input.exudate, ['none', 'history', 'uncontrolled'] as const, 'exudate');
-  const pd = input.maxProbingDepthMm === undefined ? undefined : requireNonNegative(input.maxProbingDepthMm, 'maxProbingDepthMm');
-  if (input.inMouth !== undefined && typeof input.inMouth !== 'boolean') throw new ValidationError('bad-value', 'inMouth must be true or false', 'inMouth');
+  const pd =
+    input.maxProbingDepthMm === undefined
+      ? undefined
+      : requireNonNegative(input.maxProbingDepthMm, 'maxProbingDepthMm');
+  if (input.inMouth !== undefined && typeof input.inMouth !== 'boolean')
+    throw new ValidationError('bad-value', 'inMouth must be true or false', 'inMouth');
 
   const EPS = 1e-9;
-  if (input.inMouth === false || input.mobility || input.painOnFunction || exudate === 'uncontrolled' || loss > length / 2 + EPS) return 'IV';
+  if (
+    input.inMouth === false ||
+    input.mobility ||
+    input.painOnFunction ||
+    exudate === 'uncontrolled' ||
+    loss > length / 2 + EPS
+  )
+    return 'IV';
   if (loss > 4 + EPS || (pd !== undefined && pd > 7 + EPS) || exudate === 'history') return 'III';
   if (loss >= 2 - EPS) return 'II';
   return 'I';

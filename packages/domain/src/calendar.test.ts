@@ -1,6 +1,15 @@
 import { describe, it, expect } from 'vitest';
 import * as fc from 'fast-check';
-import { addCalendarDays, addCalendarMonths, dayNumber, daysBetween, fromDayNumber, isLeapYear, isValidIsoDate, parseIsoDate } from './calendar.js';
+import {
+  addCalendarDays,
+  addCalendarMonths,
+  dayNumber,
+  daysBetween,
+  fromDayNumber,
+  isLeapYear,
+  isValidIsoDate,
+  parseIsoDate,
+} from './calendar.js';
 import { ValidationError } from './errors.js';
 
 describe('calendar helpers (proleptic Gregorian, no time zones)', () => {
@@ -27,9 +36,14 @@ describe('calendar helpers (proleptic Gregorian, no time zones)', () => {
   });
   it('dayNumber agrees with Date.UTC (property, 1970–2199)', () => {
     fc.assert(
-      fc.property(fc.integer({ min: 1970, max: 2199 }), fc.integer({ min: 1, max: 12 }), fc.integer({ min: 1, max: 28 }), (year, month, day) => {
-        return dayNumber({ year, month, day }) === Date.UTC(year, month - 1, day) / 86_400_000;
-      }),
+      fc.property(
+        fc.integer({ min: 1970, max: 2199 }),
+        fc.integer({ min: 1, max: 12 }),
+        fc.integer({ min: 1, max: 28 }),
+        (year, month, day) => {
+          return dayNumber({ year, month, day }) === Date.UTC(year, month - 1, day) / 86_400_000;
+        },
+      ),
     );
   });
   it('daysBetween', () => {
@@ -48,12 +62,18 @@ describe('calendar helpers (proleptic Gregorian, no time zones)', () => {
   });
   it('addCalendarDays agrees with UTC Date arithmetic and inverts daysBetween (property)', () => {
     fc.assert(
-      fc.property(fc.integer({ min: 1600, max: 2400 }), fc.integer({ min: 1, max: 12 }), fc.integer({ min: 1, max: 28 }), fc.integer({ min: -100_000, max: 100_000 }), (year, month, day, days) => {
-        const from = `${year}-${String(month).padStart(2, '0')}-${String(day).padStart(2, '0')}`;
-        const viaDate = new Date(Date.UTC(year, month - 1, day) + days * 86_400_000).toISOString().slice(0, 10);
-        const to = addCalendarDays(from, days);
-        return to === viaDate && daysBetween(from, to) === days;
-      }),
+      fc.property(
+        fc.integer({ min: 1600, max: 2400 }),
+        fc.integer({ min: 1, max: 12 }),
+        fc.integer({ min: 1, max: 28 }),
+        fc.integer({ min: -100_000, max: 100_000 }),
+        (year, month, day, days) => {
+          const from = `${year}-${String(month).padStart(2, '0')}-${String(day).padStart(2, '0')}`;
+          const viaDate = new Date(Date.UTC(year, month - 1, day) + days * 86_400_000).toISOString().slice(0, 10);
+          const to = addCalendarDays(from, days);
+          return to === viaDate && daysBetween(from, to) === days;
+        },
+      ),
     );
   });
   it('fromDayNumber inverts dayNumber', () => {

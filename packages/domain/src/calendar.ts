@@ -38,7 +38,11 @@ export function isValidIsoDate(value: unknown): boolean {
 /** Parses a strict `YYYY-MM-DD` date; throws {@link ValidationError} `bad-date` otherwise. */
 export function parseIsoDate(value: unknown, field = 'date'): CalendarDate {
   if (!isValidIsoDate(value)) {
-    throw new ValidationError('bad-date', `${field} must be a real date written YYYY-MM-DD (got ${JSON.stringify(value)})`, field);
+    throw new ValidationError(
+      'bad-date',
+      `${field} must be a real date written YYYY-MM-DD (got ${JSON.stringify(value)})`,
+      field,
+    );
   }
   const [y, m, d] = (value as string).split('-').map(Number);
   return { year: y, month: m, day: d };

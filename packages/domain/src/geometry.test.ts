@@ -58,6 +58,8 @@ describe('property (fast-check): divergence is symmetric and in [0°, 180°]', (
     );
   });
   it('a vector with itself is ~0°, with its negation ~180°', () => {
-    fc.assert(fc.property(vec, (a) => divergenceDeg(a, a) < 1e-5 && divergenceDeg(a, [-a[0], -a[1], -a[2]]) > 180 - 1e-5));
+    fc.assert(
+      fc.property(vec, (a) => divergenceDeg(a, a) < 1e-5 && divergenceDeg(a, [-a[0], -a[1], -a[2]]) > 180 - 1e-5),
+    );
   });
 });

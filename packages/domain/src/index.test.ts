@@ -16,40 +16,149 @@ describe('package root answers through the public API', () => {
     ['isPrimaryTooth', () => domain.isPrimaryTooth(51), true],
     ['isValidFdi', () => domain.isValidFdi(19), false],
     // peri-implant-status.test.ts case 3 (Berglundh et al. 2018 [pub])
-    ['classifyPeriImplant', () => domain.classifyPeriImplant({ sites: [{ probingDepthMm: 3, bleeding: false, suppuration: false }, { probingDepthMm: 7, bleeding: true, suppuration: false }], boneLevelMm: 3.5 }, { sites: [{ probingDepthMm: 3 }, { probingDepthMm: 4 }], boneLevelMm: 1.0 }).status, 'peri-implantitis'],
+    [
+      'classifyPeriImplant',
+      () =>
+        domain.classifyPeriImplant(
+          {
+            sites: [
+              { probingDepthMm: 3, bleeding: false, suppuration: false },
+              { probingDepthMm: 7, bleeding: true, suppuration: false },
+            ],
+            boneLevelMm: 3.5,
+          },
+          { sites: [{ probingDepthMm: 3 }, { probingDepthMm: 4 }], boneLevelMm: 1.0 },
+        ).status,
+      'peri-implantitis',
+    ],
     // udi.test.ts: GS1 examples [pub]
     ['gtinCheckDigit', () => domain.gtinCheckDigit('629104150021'), 3],
     ['isValidGtin', () => domain.isValidGtin('6291041500213'), true],
-    ['parseUdi', () => domain.parseUdi('(01)05012345678900(17)270228(10)ABC123', new Date(Date.UTC(2026, 11, 1))), { gtin: '05012345678900', expiry: '2027-02-28', lot: 'ABC123' }],
+    [
+      'parseUdi',
+      () => domain.parseUdi('(01)05012345678900(17)270228(10)ABC123', new Date(Date.UTC(2026, 11, 1))),
+      { gtin: '05012345678900', expiry: '2027-02-28', lot: 'ABC123' },
+    ],
     // udi-placement.test.ts (GS1 AI 17 use-by date; lot check [common practice])
-    ['checkUdiForPlacement', () => domain.checkUdiForPlacement({ gtin: '08845212345677', lot: 'SCN3511-26X', expiry: '2028-12-31' }, { placedOn: '2030-01-01', lot: 'OTHER' }).map((f) => f.code), ['lot-mismatch', 'expired-before-placement']],
+    [
+      'checkUdiForPlacement',
+      () =>
+        domain
+          .checkUdiForPlacement(
+            { gtin: '08845212345677', lot: 'SCN3511-26X', expiry: '2028-12-31' },
+            { placedOn: '2030-01-01', lot: 'OTHER' },
+          )
+          .map((f) => f.code),
+      ['lot-mismatch', 'expired-before-placement'],
+    ],
     // geometry.test.ts (Jang 2011 [pub] uses the angle between axes)
     ['divergenceDeg', () => Math.round(domain.divergenceDeg([0, 0, 1], [1, 0, 1]) * 1e9) / 1e9, 45],
     // radiograph-measure.test.ts (DICOM Pixel Spacing, row spacing first [pub])
-    ['pixelDistanceMm', () => Math.round(domain.pixelDistanceMm({ row: 10, col: 20 }, { row: 40, col: 60 }, [0.1, 0.1]) * 1e9) / 1e9, 5],
-    ['correctByKnownLength', () => Math.round(domain.correctByKnownLength({ measuredMm: 2.12, implantMeasuredMm: 10.6, implantTrueMm: 10.0 }) * 1e9) / 1e9, 2],
+    [
+      'pixelDistanceMm',
+      () => Math.round(domain.pixelDistanceMm({ row: 10, col: 20 }, { row: 40, col: 60 }, [0.1, 0.1]) * 1e9) / 1e9,
+      5,
+    ],
+    [
+      'correctByKnownLength',
+      () =>
+        Math.round(
+          domain.correctByKnownLength({ measuredMm: 2.12, implantMeasuredMm: 10.6, implantTrueMm: 10.0 }) * 1e9,
+        ) / 1e9,
+      2,
+    ],
     // torque.test.ts (ISO 6789 ±6 % [pub])
     ['torqueVerdict', () => domain.torqueVerdict({ appliedNcm: 32.89, specNcm: 35, tolerancePct: 6 }), 'under'],
     // bone-level.test.ts (Albrektsson 1986 [pub], Misch 2008 ICOI scale [pub])
     ['albrektssonAllowanceMm', () => domain.albrektssonAllowanceMm(0.5), 1.5],
-    ['meetsAlbrektsson', () => domain.meetsAlbrektsson([{ date: '2020-03-01', boneLevelMm: 0 }, { date: '2021-03-01', boneLevelMm: 1.6 }, { date: '2022-03-01', boneLevelMm: 1.6 }, { date: '2023-03-01', boneLevelMm: 1.6 }], '2020-03-01').meets, false],
-    ['icoiGrade', () => domain.icoiGrade({ boneLossMm: 0.5, implantLengthMm: 10, mobility: true, painOnFunction: false, exudate: 'none' }), 'IV'],
+    [
+      'meetsAlbrektsson',
+      () =>
+        domain.meetsAlbrektsson(
+          [
+            { date: '2020-03-01', boneLevelMm: 0 },
+            { date: '2021-03-01', boneLevelMm: 1.6 },
+            { date: '2022-03-01', boneLevelMm: 1.6 },
+            { date: '2023-03-01', boneLevelMm: 1.6 },
+          ],
+          '2020-03-01',
+        ).meets,
+      false,
+    ],
+    [
+      'icoiGrade',
+      () =>
+        domain.icoiGrade({
+          boneLossMm: 0.5,
+          implantLengthMm: 10,
+          mobility: true,
+          painOnFunction: false,
+          exudate: 'none',
+        }),
+      'IV',
+    ],
     // restorative-space.test.ts (Carpentieri et al. 2019 [pub], strictest end)
     ['minRestorativeSpaceMm', () => domain.minRestorativeSpaceMm('cement'), 8],
     // restoration-plan.test.ts: a valid cemented single crown gives no finding
-    ['validateRestorationPlan', () => domain.validateRestorationPlan({ kind: 'single-crown', retention: 'cement-on-abutment', sites: [{ fdi: 11, interface: 'engaging', impressionCoping: 'engaging', restorativeSpaceMm: 8 }] }), []],
+    [
+      'validateRestorationPlan',
+      () =>
+        domain.validateRestorationPlan({
+          kind: 'single-crown',
+          retention: 'cement-on-abutment',
+          sites: [{ fdi: 11, interface: 'engaging', impressionCoping: 'engaging', restorativeSpaceMm: 8 }],
+        }),
+      [],
+    ],
     // recall-interval.test.ts (practice policy, 6 months without risk [common practice])
     ['nextRecallDate', () => domain.nextRecallDate('2026-03-15', {}), '2026-09-15'],
     // torque.test.ts: the band is the verdict's own limits (ISO 6789 ±6 % [pub])
     ['torqueToleranceBand', () => domain.torqueToleranceBand(35, 6), { lowNcm: 32.9, highNcm: 37.1 }],
     // retorque.test.ts (Siamos et al. 2002 [pub]: re-tighten about 10 min after the first tightening)
-    ['retorqueDueAt', () => domain.retorqueDueAt([{ reason: 'initial-seating', performedAt: new Date('2026-12-01T10:00:00Z') }]), new Date(Date.parse('2026-12-01T10:00:00Z') + domain.RETIGHTEN_AFTER_MINUTES * 60_000).toISOString()],
+    [
+      'retorqueDueAt',
+      () => domain.retorqueDueAt([{ reason: 'initial-seating', performedAt: new Date('2026-12-01T10:00:00Z') }]),
+      new Date(Date.parse('2026-12-01T10:00:00Z') + domain.RETIGHTEN_AFTER_MINUTES * 60_000).toISOString(),
+    ],
     // peri-implant-baseline.test.ts (Berglundh et al. 2018 [pub]: baseline after the prosthesis is completed)
-    ['choosePeriImplantBaseline', () => domain.choosePeriImplantBaseline([{ examinedOn: '2013-01-10', recordedAt: '2013-01-10T10:00:00Z', isBaseline: false, boneLevelMm: 1, sites: [] }], { examinedOn: '2020-01-01', isBaseline: false }, '2012-09-20')?.examinedOn, '2013-01-10'],
-    ['toPeriImplantExam', () => domain.toPeriImplantExam({ sites: [{ position: 'buccal', probingDepthMm: 4, bleeding: true, suppuration: false }], boneLevelMm: null }), { sites: [{ probingDepthMm: 4, bleeding: true, suppuration: false }] }],
-    ['toPeriImplantBaseline', () => domain.toPeriImplantBaseline({ isBaseline: true }, { sites: [], boneLevelMm: 1 }), undefined],
+    [
+      'choosePeriImplantBaseline',
+      () =>
+        domain.choosePeriImplantBaseline(
+          [
+            {
+              examinedOn: '2013-01-10',
+              recordedAt: '2013-01-10T10:00:00Z',
+              isBaseline: false,
+              boneLevelMm: 1,
+              sites: [],
+            },
+          ],
+          { examinedOn: '2020-01-01', isBaseline: false },
+          '2012-09-20',
+        )?.examinedOn,
+      '2013-01-10',
+    ],
+    [
+      'toPeriImplantExam',
+      () =>
+        domain.toPeriImplantExam({
+          sites: [{ position: 'buccal', probingDepthMm: 4, bleeding: true, suppuration: false }],
+          boneLevelMm: null,
+        }),
+      { sites: [{ probingDepthMm: 4, bleeding: true, suppuration: false }] },
+    ],
+    [
+      'toPeriImplantBaseline',
+      () => domain.toPeriImplantBaseline({ isBaseline: true }, { sites: [], boneLevelMm: 1 }),
+      undefined,
+    ],
     // recall-reminders.test.ts (practice policy [common practice]: 14 days before, 7 after)
-    ['remindersDue', () => domain.remindersDue('2026-12-15', '2026-12-01', { reminderDaysBefore: 14, overdueReminderDaysAfter: 7 }), ['upcoming']],
+    [
+      'remindersDue',
+      () => domain.remindersDue('2026-12-15', '2026-12-01', { reminderDaysBefore: 14, overdueReminderDaysAfter: 7 }),
+      ['upcoming'],
+    ],
     // calendar.test.ts (proleptic Gregorian calendar)
     ['addCalendarDays', () => domain.addCalendarDays('2028-02-28', 1), '2028-02-29'],
     // restoration-plan.test.ts (a cemented crown is not retrievable by a screw [common practice])
@@ -66,7 +175,9 @@ describe('package root answers through the public API', () => {
     expect(new domain.ValidationError('empty', 'x')).toBeInstanceOf(domain.DomainError);
     expect(new domain.ToothPositionError('x')).toBeInstanceOf(RangeError);
     expect(new domain.UdiError('bad-date', 'x').name).toBe('UdiError');
-    expect(domain.PERI_IMPLANT_FLAGS.PERI_IMPLANTITIS_NOT_EXCLUDED_WITHOUT_BASELINE).toBe('peri-implantitis-not-excluded-without-baseline');
+    expect(domain.PERI_IMPLANT_FLAGS.PERI_IMPLANTITIS_NOT_EXCLUDED_WITHOUT_BASELINE).toBe(
+      'peri-implantitis-not-excluded-without-baseline',
+    );
   });
 
   it('throws the typed errors of the package root for invalid input', () => {

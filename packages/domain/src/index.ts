@@ -61,7 +61,12 @@ export { classifyPeriImplant } from './peri-implant-status.js';
 /** Stable flag strings of {@link classifyPeriImplant}. */
 export { PERI_IMPLANT_FLAGS } from './peri-implant-status.js';
 /** Default and published thresholds of the peri-implant case definitions. */
-export { DEFAULT_PD_INCREASE_MM, DEFAULT_BONE_LOSS_MM, NO_BASELINE_PD_MM, NO_BASELINE_BONE_LEVEL_MM } from './peri-implant-status.js';
+export {
+  DEFAULT_PD_INCREASE_MM,
+  DEFAULT_BONE_LOSS_MM,
+  NO_BASELINE_PD_MM,
+  NO_BASELINE_BONE_LEVEL_MM,
+} from './peri-implant-status.js';
 /** The three statuses, best to worst. */
 export { PERI_IMPLANT_STATUSES } from './peri-implant-status.js';
 /** Peri-implant types. */
@@ -123,7 +128,12 @@ export { torqueDeviationPct } from './torque.js';
 /** The window torqueVerdict judges against: spec ∓ spec × tolerance ÷ 100. */
 export { torqueToleranceBand } from './torque.js';
 /** Published tolerances, re-tightening delay and demo-catalogue torques (manufacturer-specific). */
-export { ISO_6789_TOLERANCE_PCT, FRICTION_DEVICE_TOLERANCE_PCT, RETIGHTEN_AFTER_MINUTES, DEMO_TORQUE_DEFAULTS_NCM } from './torque.js';
+export {
+  ISO_6789_TOLERANCE_PCT,
+  FRICTION_DEVICE_TOLERANCE_PCT,
+  RETIGHTEN_AFTER_MINUTES,
+  DEMO_TORQUE_DEFAULTS_NCM,
+} from './torque.js';
 /** Verdicts, reasons and the accepted torque range (1–100 N·cm). */
 export { TORQUE_VERDICTS, TORQUE_REASONS, TORQUE_NCM_RANGE } from './torque.js';
 /** Torque types. */
@@ -152,7 +162,12 @@ export { minSingleToothGapMm } from './restorative-space.js';
 /** Minimum centre distance of two implants: radii + 3 mm (Tarnow 2000). */
 export { minImplantCentreDistanceMm } from './restorative-space.js';
 /** Designs, labels and spacing constants. */
-export { RESTORATIVE_DESIGNS, RESTORATIVE_DESIGN_LABELS, MIN_IMPLANT_TO_TOOTH_MM, MIN_IMPLANT_TO_IMPLANT_MM } from './restorative-space.js';
+export {
+  RESTORATIVE_DESIGNS,
+  RESTORATIVE_DESIGN_LABELS,
+  MIN_IMPLANT_TO_TOOTH_MM,
+  MIN_IMPLANT_TO_IMPLANT_MM,
+} from './restorative-space.js';
 /** Restorative design type. */
 export type { RestorativeDesign } from './restorative-space.js';
 
@@ -164,7 +179,15 @@ export { restorativeDesignForPlan } from './restoration-plan.js';
 /** Stable finding codes and source strings. */
 export { PLAN_FINDING_CODES, PLAN_SOURCES } from './restoration-plan.js';
 /** Kinds, retentions, interfaces, impression copings, multi-unit angles and finding severities. */
-export { RESTORATION_KINDS, RETENTIONS, ABUTMENT_LEVEL_RETENTIONS, IMPLANT_INTERFACES, IMPRESSION_COPINGS, MULTI_UNIT_ANGLES_DEG, FINDING_SEVERITIES } from './restoration-plan.js';
+export {
+  RESTORATION_KINDS,
+  RETENTIONS,
+  ABUTMENT_LEVEL_RETENTIONS,
+  IMPLANT_INTERFACES,
+  IMPRESSION_COPINGS,
+  MULTI_UNIT_ANGLES_DEG,
+  FINDING_SEVERITIES,
+} from './restoration-plan.js';
 /** False only for cement-retained restorations (cut off, not undone). */
 export { isRetrievable } from './restoration-plan.js';
 /** Restoration-plan types. */
@@ -188,11 +211,20 @@ export { hasRecallRisk } from './recall-interval.js';
 /** The interval itself, months: the risk interval with any risk factor, else the base interval. */
 export { recallIntervalMonths } from './recall-interval.js';
 /** Default recall intervals, the range a policy may set, and the risk factors. */
-export { DEFAULT_RECALL_MONTHS, DEFAULT_RISK_RECALL_MONTHS, RECALL_MONTHS_RANGE, RECALL_RISK_FACTORS } from './recall-interval.js';
+export {
+  DEFAULT_RECALL_MONTHS,
+  DEFAULT_RISK_RECALL_MONTHS,
+  RECALL_MONTHS_RANGE,
+  RECALL_RISK_FACTORS,
+} from './recall-interval.js';
 /** Recall types. */
 export type { RecallRisk, RecallRiskFactor, RecallPolicy } from './recall-interval.js';
 /** Reminder kinds due on a day for a recall date, under the reminder policy. */
 export { remindersDue } from './recall-reminders.js';
 /** Reminder kinds and default reminder timing. */
-export { REMINDER_KINDS, DEFAULT_REMINDER_DAYS_BEFORE, DEFAULT_OVERDUE_REMINDER_DAYS_AFTER } from './recall-reminders.js';
+export {
+  REMINDER_KINDS,
+  DEFAULT_REMINDER_DAYS_BEFORE,
+  DEFAULT_OVERDUE_REMINDER_DAYS_AFTER,
+} from './recall-reminders.js';
 export type { ReminderKind, ReminderPolicy } from './recall-reminders.js';

@@ -17,7 +17,14 @@
 import type { PeriImplantBaseline, PeriImplantExam } from './peri-implant-status.js';
 
 /** The six probing sites around an implant, in periodontal-chart order (buccal row, then lingual row). */
-export const PROBING_POSITIONS = ['mesiobuccal', 'buccal', 'distobuccal', 'mesiolingual', 'lingual', 'distolingual'] as const;
+export const PROBING_POSITIONS = [
+  'mesiobuccal',
+  'buccal',
+  'distobuccal',
+  'mesiolingual',
+  'lingual',
+  'distolingual',
+] as const;
 /** One of {@link PROBING_POSITIONS}. */
 export type ProbingPosition = (typeof PROBING_POSITIONS)[number];
 
@@ -45,7 +52,8 @@ export function inChartOrder<T extends { position: ProbingPosition }>(sites: rea
   return [...sites].sort((a, b) => PROBING_POSITIONS.indexOf(a.position) - PROBING_POSITIONS.indexOf(b.position));
 }
 
-const byTime = (a: RecordedExam, b: RecordedExam) => a.examinedOn.localeCompare(b.examinedOn) || new Date(a.recordedAt).getTime() - new Date(b.recordedAt).getTime();
+const byTime = (a: RecordedExam, b: RecordedExam) =>
+  a.examinedOn.localeCompare(b.examinedOn) || new Date(a.recordedAt).getTime() - new Date(b.recordedAt).getTime();
 
 /**
  * The baseline exam of an exam dated `exam.examinedOn`, among the site's earlier current exams:
@@ -60,7 +68,12 @@ export function choosePeriImplantBaseline<E extends RecordedExam>(
   if (exam.isBaseline) return null;
   const candidates = earlier.filter((e) => e.examinedOn <= exam.examinedOn).sort(byTime);
   const marked = candidates.filter((e) => e.isBaseline);
-  const pick = marked.length > 0 ? marked[marked.length - 1] : deliveredOn ? (candidates.find((e) => e.examinedOn >= deliveredOn) ?? null) : null;
+  const pick =
+    marked.length > 0
+      ? marked[marked.length - 1]
+      : deliveredOn
+        ? (candidates.find((e) => e.examinedOn >= deliveredOn) ?? null)
+        : null;
   return pick && pick.boneLevelMm !== null ? pick : null;
 }
 
@@ -73,7 +86,11 @@ export function latestExam<E extends RecordedExam>(exams: readonly E[]): E | nul
 /** A recorded (or typed) exam as {@link classifyPeriImplant} takes it: sites in chart order. */
 export function toPeriImplantExam(exam: { sites: readonly ProbedSite[]; boneLevelMm: number | null }): PeriImplantExam {
   return {
-    sites: inChartOrder(exam.sites).map((s) => ({ probingDepthMm: s.probingDepthMm, bleeding: s.bleeding, suppuration: s.suppuration })),
+    sites: inChartOrder(exam.sites).map((s) => ({
+      probingDepthMm: s.probingDepthMm,
+      bleeding: s.bleeding,
+      suppuration: s.suppuration,
+    })),
     ...(exam.boneLevelMm === null ? {} : { boneLevelMm: exam.boneLevelMm }),
   };
 }
@@ -88,5 +105,8 @@ export function toPeriImplantBaseline(
   baseline: { sites: readonly Pick<ProbedSite, 'position' | 'probingDepthMm'>[]; boneLevelMm: number | null } | null,
 ): PeriImplantBaseline | undefined {
   if (exam.isBaseline || !baseline || baseline.boneLevelMm === null) return undefined;
-  return { sites: inChartOrder(baseline.sites).map((s) => ({ probingDepthMm: s.probingDepthMm })), boneLevelMm: baseline.boneLevelMm };
+  return {
+    sites: inChartOrder(baseline.sites).map((s) => ({ probingDepthMm: s.probingDepthMm })),
+    boneLevelMm: baseline.boneLevelMm,
+  };
 }

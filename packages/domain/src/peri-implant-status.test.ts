@@ -6,12 +6,19 @@ import { ValidationError } from './errors.js';
 // J Periodontol 89(S1):S313–S318 [pub]; Renvert S et al. 2018, J Periodontol 89(S1):S304–S312 [pub].
 // Thresholds 1 mm PD increase and 0.5 mm bone loss: [common practice] defaults.
 
-const site = (pd: number, bleeding = false, suppuration = false): PeriImplantSite => ({ probingDepthMm: pd, bleeding, suppuration });
+const site = (pd: number, bleeding = false, suppuration = false): PeriImplantSite => ({
+  probingDepthMm: pd,
+  bleeding,
+  suppuration,
+});
 const base = (pds: number[], boneLevelMm: number) => ({ sites: pds.map((p) => ({ probingDepthMm: p })), boneLevelMm });
 
 describe('reference §1 check cases (Berglundh 2018 [pub], defaults [common practice])', () => {
   it('1. BOP−, SUP−, max PD 4 (baseline 4), bone loss 0.2 → health', () => {
-    const r = classifyPeriImplant({ sites: [site(3), site(4), site(3), site(2)], boneLevelMm: 1.2 }, base([3, 4, 3, 2], 1.0));
+    const r = classifyPeriImplant(
+      { sites: [site(3), site(4), site(3), site(2)], boneLevelMm: 1.2 },
+      base([3, 4, 3, 2], 1.0),
+    );
     expect(r.status).toBe('health');
     expect(r.flags).toEqual([]);
   });
@@ -74,7 +81,9 @@ describe('no baseline and no bone level [decision]: never peri-implantitis, alwa
   it('BOP+, PD 8 → mucositis, flags no-baseline, bone-level-missing, not-excluded', () => {
     const r = classifyPeriImplant({ sites: [site(8, true)] });
     expect(r.status).toBe('mucositis');
-    expect(r.flags).toEqual(expect.arrayContaining([F.NO_BASELINE, F.BONE_LEVEL_MISSING, F.PERI_IMPLANTITIS_NOT_EXCLUDED_WITHOUT_BASELINE]));
+    expect(r.flags).toEqual(
+      expect.arrayContaining([F.NO_BASELINE, F.BONE_LEVEL_MISSING, F.PERI_IMPLANTITIS_NOT_EXCLUDED_WITHOUT_BASELINE]),
+    );
   });
   it('BOP+, PD 4 → mucositis with bone-level-missing only', () => {
     const r = classifyPeriImplant({ sites: [site(4, true)] });
@@ -107,7 +116,10 @@ describe('with baseline (Berglundh 2018 [pub]; thresholds [common practice], inc
     expect(classifyPeriImplant(exam, base([4], 1), { boneLossMm: 0.3, pdIncreaseMm: 2 }).status).toBe('mucositis');
   });
   it('status from the worst site, per-site reasons kept', () => {
-    const r = classifyPeriImplant({ sites: [site(4, true), site(3), site(8, true, true), site(3)], boneLevelMm: 3 }, base([4, 3, 4, 3], 1));
+    const r = classifyPeriImplant(
+      { sites: [site(4, true), site(3), site(8, true, true), site(3)], boneLevelMm: 3 },
+      base([4, 3, 4, 3], 1),
+    );
     expect(r.status).toBe('peri-implantitis');
     expect(r.reasons).toContain('site 1: BOP, PD 4 mm (baseline 4 mm, +0 mm) → mucositis');
     expect(r.reasons).toContain('site 3: BOP, SUP, PD 8 mm (baseline 4 mm, +4 mm) → peri-implantitis');
@@ -147,11 +159,30 @@ describe('invalid input → ValidationError with a code', () => {
     ['NaN depth', () => classifyPeriImplant({ sites: [site(Number.NaN, true)] }), 'not-a-number'],
     ['negative depth', () => classifyPeriImplant({ sites: [site(-1)] }), 'out-of-range'],
     ['negative bone level', () => classifyPeriImplant({ sites: [site(3)], boneLevelMm: -0.5 }), 'out-of-range'],
-    ['Infinity bone level', () => classifyPeriImplant({ sites: [site(3)], boneLevelMm: Number.POSITIVE_INFINITY }), 'not-a-number'],
-    ['non-boolean bleeding', () => classifyPeriImplant({ sites: [{ probingDepthMm: 3, bleeding: 'yes', suppuration: false } as unknown as PeriImplantSite] }), 'bad-value'],
-    ['baseline site count differs', () => classifyPeriImplant({ sites: [site(3), site(3)] }, base([3], 1)), 'site-mismatch'],
+    [
+      'Infinity bone level',
+      () => classifyPeriImplant({ sites: [site(3)], boneLevelMm: Number.POSITIVE_INFINITY }),
+      'not-a-number',
+    ],
+    [
+      'non-boolean bleeding',
+      () =>
+        classifyPeriImplant({
+          sites: [{ probingDepthMm: 3, bleeding: 'yes', suppuration: false } as unknown as PeriImplantSite],
+        }),
+      'bad-value',
+    ],
+    [
+      'baseline site count differs',
+      () => classifyPeriImplant({ sites: [site(3), site(3)] }, base([3], 1)),
+      'site-mismatch',
+    ],
     ['baseline NaN bone level', () => classifyPeriImplant({ sites: [site(3)] }, base([3], Number.NaN)), 'not-a-number'],
-    ['negative option', () => classifyPeriImplant({ sites: [site(3)] }, undefined, { pdIncreaseMm: -1 }), 'out-of-range'],
+    [
+      'negative option',
+      () => classifyPeriImplant({ sites: [site(3)] }, undefined, { pdIncreaseMm: -1 }),
+      'out-of-range',
+    ],
   ];
   it.each(bad)('%s', (_name, fn, code) => {
     expect(fn).toThrow(ValidationError);

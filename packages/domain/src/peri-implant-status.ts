@@ -107,12 +107,15 @@ export const NO_BASELINE_BONE_LEVEL_MM = 3;
 const RANK: Record<PeriImplantStatus, number> = { health: 0, mucositis: 1, 'peri-implantitis': 2 };
 
 function validateExam(exam: PeriImplantExam): void {
-  if (exam === null || typeof exam !== 'object') throw new ValidationError('bad-value', 'exam must be an object', 'exam');
+  if (exam === null || typeof exam !== 'object')
+    throw new ValidationError('bad-value', 'exam must be an object', 'exam');
   const sites = requireArray(exam.sites, 'exam.sites');
-  if (sites.length === 0) throw new ValidationError('empty', 'exam.sites must list at least one probing site', 'exam.sites');
+  if (sites.length === 0)
+    throw new ValidationError('empty', 'exam.sites must list at least one probing site', 'exam.sites');
   sites.forEach((s, i) => {
     const site = s as PeriImplantSite;
-    if (site === null || typeof site !== 'object') throw new ValidationError('bad-value', `exam.sites[${i}] must be an object`, `exam.sites[${i}]`);
+    if (site === null || typeof site !== 'object')
+      throw new ValidationError('bad-value', `exam.sites[${i}] must be an object`, `exam.sites[${i}]`);
     requireNonNegative(site.probingDepthMm, `exam.sites[${i}].probingDepthMm`);
     requireBoolean(site.bleeding, `exam.sites[${i}].bleeding`);
     requireBoolean(site.suppuration, `exam.sites[${i}].suppuration`);
@@ -121,9 +124,11 @@ function validateExam(exam: PeriImplantExam): void {
 }
 
 function validateBaseline(baseline: PeriImplantBaseline, siteCount: number): void {
-  if (baseline === null || typeof baseline !== 'object') throw new ValidationError('bad-value', 'baseline must be an object', 'baseline');
+  if (baseline === null || typeof baseline !== 'object')
+    throw new ValidationError('bad-value', 'baseline must be an object', 'baseline');
   const sites = requireArray(baseline.sites, 'baseline.sites');
-  if (sites.length === 0) throw new ValidationError('empty', 'baseline.sites must list at least one probing site', 'baseline.sites');
+  if (sites.length === 0)
+    throw new ValidationError('empty', 'baseline.sites must list at least one probing site', 'baseline.sites');
   if (sites.length !== siteCount) {
     throw new ValidationError(
       'site-mismatch',
@@ -132,7 +137,8 @@ function validateBaseline(baseline: PeriImplantBaseline, siteCount: number): voi
     );
   }
   sites.forEach((s, i) => {
-    if (s === null || typeof s !== 'object') throw new ValidationError('bad-value', `baseline.sites[${i}] must be an object`, `baseline.sites[${i}]`);
+    if (s === null || typeof s !== 'object')
+      throw new ValidationError('bad-value', `baseline.sites[${i}] must be an object`, `baseline.sites[${i}]`);
     requireNonNegative((s as { probingDepthMm: unknown }).probingDepthMm, `baseline.sites[${i}].probingDepthMm`);
   });
   requireNonNegative(baseline.boneLevelMm, 'baseline.boneLevelMm');
@@ -153,8 +159,14 @@ export function classifyPeriImplant(
 ): PeriImplantResult {
   validateExam(exam);
   if (baseline !== undefined) validateBaseline(baseline, exam.sites.length);
-  const pdIncreaseMm = options?.pdIncreaseMm === undefined ? DEFAULT_PD_INCREASE_MM : requireNonNegative(options.pdIncreaseMm, 'options.pdIncreaseMm');
-  const boneLossLimitMm = options?.boneLossMm === undefined ? DEFAULT_BONE_LOSS_MM : requireNonNegative(options.boneLossMm, 'options.boneLossMm');
+  const pdIncreaseMm =
+    options?.pdIncreaseMm === undefined
+      ? DEFAULT_PD_INCREASE_MM
+      : requireNonNegative(options.pdIncreaseMm, 'options.pdIncreaseMm');
+  const boneLossLimitMm =
+    options?.boneLossMm === undefined
+      ? DEFAULT_BONE_LOSS_MM
+      : requireNonNegative(options.boneLossMm, 'options.boneLossMm');
 
   const flags = new Set<PeriImplantFlag>();
   const reasons: string[] = [];

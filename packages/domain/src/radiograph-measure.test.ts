@@ -20,13 +20,19 @@ describe('pixelDistanceMm — DICOM PS3.3 Pixel Spacing (0028,0030): row spacing
     ['zero spacing', () => pixelDistanceMm({ row: 0, col: 0 }, { row: 1, col: 1 }, [0, 0.1])],
     ['negative spacing', () => pixelDistanceMm({ row: 0, col: 0 }, { row: 1, col: 1 }, [0.1, -0.1])],
     ['NaN coordinate', () => pixelDistanceMm({ row: Number.NaN, col: 0 }, { row: 1, col: 1 }, [0.1, 0.1])],
-    ['one spacing value', () => pixelDistanceMm({ row: 0, col: 0 }, { row: 1, col: 1 }, [0.1] as unknown as [number, number])],
+    [
+      'one spacing value',
+      () => pixelDistanceMm({ row: 0, col: 0 }, { row: 1, col: 1 }, [0.1] as unknown as [number, number]),
+    ],
   ])('%s → ValidationError', (_n, fn) => expect(fn).toThrow(ValidationError));
 });
 
 describe('correctByKnownLength — Vazquez L et al. 2011, Clin Oral Implants Res, PMID 21435009 [pub]', () => {
   it('reference §5: a 10.0 mm implant measures 10.6 mm; a 2.12 mm reading → 2.00 mm', () => {
-    expect(correctByKnownLength({ measuredMm: 2.12, implantMeasuredMm: 10.6, implantTrueMm: 10.0 })).toBeCloseTo(2.0, 10);
+    expect(correctByKnownLength({ measuredMm: 2.12, implantMeasuredMm: 10.6, implantTrueMm: 10.0 })).toBeCloseTo(
+      2.0,
+      10,
+    );
   });
   it('panoramic magnification about 1.27 on 10 mm implants [pub]: 12.7 mm measured → 10 mm', () => {
     expect(correctByKnownLength({ measuredMm: 12.7, implantMeasuredMm: 12.7, implantTrueMm: 10 })).toBeCloseTo(10, 10);

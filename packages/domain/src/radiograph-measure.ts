@@ -33,7 +33,8 @@ export interface KnownLengthCalibration {
 }
 
 function checkPoint(p: PixelPoint, field: string): void {
-  if (p === null || typeof p !== 'object') throw new ValidationError('bad-value', `${field} must be a {row, col} point`, field);
+  if (p === null || typeof p !== 'object')
+    throw new ValidationError('bad-value', `${field} must be a {row, col} point`, field);
   requireFinite(p.row, `${field}.row`);
   requireFinite(p.col, `${field}.col`);
 }

@@ -10,9 +10,12 @@ import { ValidationError } from './errors.js';
 
 describe('nextRecallDate — practice policy 6 months, 3 with any risk factor [common practice]', () => {
   it('no risk → 6 months', () => expect(nextRecallDate('2026-03-15', {})).toBe('2026-09-15'));
-  it.each(['smoker', 'diabetesPoorlyControlled', 'periodontitisHistory', 'priorPeriImplantitis'])('%s → 3 months', (k) => {
-    expect(nextRecallDate('2026-03-15', { [k]: true })).toBe('2026-06-15');
-  });
+  it.each(['smoker', 'diabetesPoorlyControlled', 'periodontitisHistory', 'priorPeriImplantitis'])(
+    '%s → 3 months',
+    (k) => {
+      expect(nextRecallDate('2026-03-15', { [k]: true })).toBe('2026-06-15');
+    },
+  );
   it('false risk factors count as absent', () => {
     expect(nextRecallDate('2026-03-15', { smoker: false, priorPeriImplantitis: false })).toBe('2026-09-15');
   });
@@ -39,7 +42,7 @@ describe('nextRecallDate — practice policy 6 months, 3 with any risk factor [c
 });
 
 describe('recallIntervalMonths — the interval nextRecallDate adds [common practice]', () => {
-  it('6 without risk, 3 with any risk factor, or the policy\'s own intervals', () => {
+  it("6 without risk, 3 with any risk factor, or the policy's own intervals", () => {
     expect(recallIntervalMonths({})).toBe(6);
     expect(recallIntervalMonths({ smoker: false, priorPeriImplantitis: true })).toBe(3);
     expect(recallIntervalMonths({ smoker: true }, { baseMonths: 12, riskMonths: 4 })).toBe(4);

@@ -13,7 +13,12 @@ import { ValidationError } from './errors.js';
 import { optionalBoolean } from './validate.js';
 
 /** The risk factors that shorten the recall interval. */
-export const RECALL_RISK_FACTORS = ['smoker', 'diabetesPoorlyControlled', 'periodontitisHistory', 'priorPeriImplantitis'] as const;
+export const RECALL_RISK_FACTORS = [
+  'smoker',
+  'diabetesPoorlyControlled',
+  'periodontitisHistory',
+  'priorPeriImplantitis',
+] as const;
 /** One of {@link RECALL_RISK_FACTORS}. */
 export type RecallRiskFactor = (typeof RECALL_RISK_FACTORS)[number];
 
@@ -40,14 +45,19 @@ function months(value: number | undefined, fallback: number, field: string): num
   if (value === undefined) return fallback;
   const { min, max } = RECALL_MONTHS_RANGE;
   if (typeof value !== 'number' || !Number.isInteger(value) || value < min || value > max) {
-    throw new ValidationError('out-of-range', `${field} must be a whole number of months from ${min} to ${max} (got ${String(value)})`, field);
+    throw new ValidationError(
+      'out-of-range',
+      `${field} must be a whole number of months from ${min} to ${max} (got ${String(value)})`,
+      field,
+    );
   }
   return value;
 }
 
 /** True when any risk factor is present. */
 export function hasRecallRisk(risk: RecallRisk): boolean {
-  if (risk === null || typeof risk !== 'object') throw new ValidationError('bad-value', 'risk must be an object', 'risk');
+  if (risk === null || typeof risk !== 'object')
+    throw new ValidationError('bad-value', 'risk must be an object', 'risk');
   // Every factor is validated, not only up to the first true one.
   const flags = RECALL_RISK_FACTORS.map((factor) => optionalBoolean(risk[factor], `risk.${factor}`));
   return flags.some(Boolean);
@@ -62,7 +72,11 @@ export function recallIntervalMonths(risk: RecallRisk, policy?: RecallPolicy): n
   const base = months(policy?.baseMonths, DEFAULT_RECALL_MONTHS, 'policy.baseMonths');
   const riskM = months(policy?.riskMonths, DEFAULT_RISK_RECALL_MONTHS, 'policy.riskMonths');
   if (riskM > base) {
-    throw new ValidationError('out-of-range', `policy.riskMonths (${riskM}) must not exceed policy.baseMonths (${base})`, 'policy.riskMonths');
+    throw new ValidationError(
+      'out-of-range',
+      `policy.riskMonths (${riskM}) must not exceed policy.baseMonths (${base})`,
+      'policy.riskMonths',
+    );
   }
   return hasRecallRisk(risk) ? riskM : base;
 }

@@ -16,8 +16,12 @@ describe('reminder windows (practice policy)', () => {
     expect(remindersDue('2026-06-15', '2027-01-01', policy)).toEqual(['overdue']);
   });
   it('an overdue window of 0 days still starts the day after the recall, not on it', () => {
-    expect(remindersDue('2026-06-15', '2026-06-15', { reminderDaysBefore: 0, overdueReminderDaysAfter: 0 })).toEqual(['upcoming']);
-    expect(remindersDue('2026-06-15', '2026-06-16', { reminderDaysBefore: 0, overdueReminderDaysAfter: 0 })).toEqual(['overdue']);
+    expect(remindersDue('2026-06-15', '2026-06-15', { reminderDaysBefore: 0, overdueReminderDaysAfter: 0 })).toEqual([
+      'upcoming',
+    ]);
+    expect(remindersDue('2026-06-15', '2026-06-16', { reminderDaysBefore: 0, overdueReminderDaysAfter: 0 })).toEqual([
+      'overdue',
+    ]);
   });
   it('defaults are 14 days before and 7 days after [common practice]', () => {
     expect([DEFAULT_REMINDER_DAYS_BEFORE, DEFAULT_OVERDUE_REMINDER_DAYS_AFTER]).toEqual([14, 7]);

@@ -21,7 +21,11 @@ const s = (fdi: number, extra: Partial<RestorationPlanSite> = {}): RestorationPl
   ...extra,
 });
 const codes = (plan: RestorationPlan) => validateRestorationPlan(plan).map((f) => f.code);
-const tilt = (deg: number): [number, number, number] => [Math.sin((deg * Math.PI) / 180), 0, Math.cos((deg * Math.PI) / 180)];
+const tilt = (deg: number): [number, number, number] => [
+  Math.sin((deg * Math.PI) / 180),
+  0,
+  Math.cos((deg * Math.PI) / 180),
+];
 
 const validSingle: RestorationPlan = {
   kind: 'single-crown',
@@ -37,7 +41,12 @@ const validFullArch: RestorationPlan = {
   kind: 'full-arch',
   retention: 'screw-to-multi-unit',
   sites: [32, 34, 42, 44].map((fdi, i) =>
-    s(fdi, { impressionCoping: 'multi-unit', multiUnitAngleDeg: i % 2 === 0 ? 0 : 30, axis: i % 2 === 0 ? [0, 0, 1] : tilt(i === 1 ? -30 : 30), restorativeSpaceMm: 16 }),
+    s(fdi, {
+      impressionCoping: 'multi-unit',
+      multiUnitAngleDeg: i % 2 === 0 ? 0 : 30,
+      axis: i % 2 === 0 ? [0, 0, 1] : tilt(i === 1 ? -30 : 30),
+      restorativeSpaceMm: 16,
+    }),
   ),
 };
 
@@ -46,8 +55,25 @@ describe('valid plans return []', () => {
     ['single screw-retained crown', validSingle],
     ['two-implant platform-level bridge', validBridge],
     ['full arch on four multi-units with 30° distal abutments', validFullArch],
-    ['cemented single crown', { kind: 'single-crown', retention: 'cement-on-abutment', sites: [s(11, { interface: 'engaging', impressionCoping: 'engaging', restorativeSpaceMm: 8 })] }],
-    ['lingual-set-screw bridge', { kind: 'splinted-bridge', retention: 'lingual-set-screw', sites: [s(14, { interface: 'engaging', impressionCoping: 'engaging' }), s(16, { interface: 'engaging', impressionCoping: 'engaging' })] }],
+    [
+      'cemented single crown',
+      {
+        kind: 'single-crown',
+        retention: 'cement-on-abutment',
+        sites: [s(11, { interface: 'engaging', impressionCoping: 'engaging', restorativeSpaceMm: 8 })],
+      },
+    ],
+    [
+      'lingual-set-screw bridge',
+      {
+        kind: 'splinted-bridge',
+        retention: 'lingual-set-screw',
+        sites: [
+          s(14, { interface: 'engaging', impressionCoping: 'engaging' }),
+          s(16, { interface: 'engaging', impressionCoping: 'engaging' }),
+        ],
+      },
+    ],
   ] as [string, RestorationPlan][])('%s', (_n, plan) => expect(validateRestorationPlan(plan)).toEqual([]));
 });
 
@@ -55,15 +81,31 @@ describe('connection rules [common practice]', () => {
   it('engaging-interface-on-splinted: splinted screw-to-implant with an engaging interface (error, per site)', () => {
     const f = validateRestorationPlan({ ...validBridge, sites: [s(34, { interface: 'engaging' }), s(36)] });
     expect(f).toHaveLength(1);
-    expect(f[0]).toMatchObject({ severity: 'error', code: C.ENGAGING_INTERFACE_ON_SPLINTED, fdi: 34, source: PLAN_SOURCES.COMMON_PRACTICE });
+    expect(f[0]).toMatchObject({
+      severity: 'error',
+      code: C.ENGAGING_INTERFACE_ON_SPLINTED,
+      fdi: 34,
+      source: PLAN_SOURCES.COMMON_PRACTICE,
+    });
   });
   it('engaging interface is fine on a cemented bridge (abutments seat one by one)', () => {
-    const plan: RestorationPlan = { kind: 'splinted-bridge', retention: 'cement-on-abutment', sites: [s(14, { interface: 'engaging', impressionCoping: 'engaging' }), s(16, { interface: 'engaging', impressionCoping: 'engaging' })] };
+    const plan: RestorationPlan = {
+      kind: 'splinted-bridge',
+      retention: 'cement-on-abutment',
+      sites: [
+        s(14, { interface: 'engaging', impressionCoping: 'engaging' }),
+        s(16, { interface: 'engaging', impressionCoping: 'engaging' }),
+      ],
+    };
     expect(validateRestorationPlan(plan)).toEqual([]);
   });
   it('non-engaging-single-crown (error) — for every retention', () => {
     for (const retention of ['screw-to-implant', 'cement-on-abutment', 'lingual-set-screw'] as const) {
-      const f = validateRestorationPlan({ kind: 'single-crown', retention, sites: [s(21, { impressionCoping: 'engaging' })] });
+      const f = validateRestorationPlan({
+        kind: 'single-crown',
+        retention,
+        sites: [s(21, { impressionCoping: 'engaging' })],
+      });
       expect(f.map((x) => x.code)).toEqual([C.NON_ENGAGING_SINGLE_CROWN]);
       expect(f[0].fdi).toBe(21);
       expect(f[0].severity).toBe('error');
@@ -74,7 +116,9 @@ describe('connection rules [common practice]', () => {
 describe('impression rules [common practice]', () => {
   it('engaging-impression-for-platform-bridge (error)', () => {
     const f = validateRestorationPlan({ ...validBridge, sites: [s(34, { impressionCoping: 'engaging' }), s(36)] });
-    expect(f.map((x) => [x.code, x.fdi, x.severity])).toEqual([[C.ENGAGING_IMPRESSION_FOR_PLATFORM_BRIDGE, 34, 'error']]);
+    expect(f.map((x) => [x.code, x.fdi, x.severity])).toEqual([
+      [C.ENGAGING_IMPRESSION_FOR_PLATFORM_BRIDGE, 34, 'error'],
+    ]);
   });
   it('non-engaging-impression-for-indexed: cement-on-abutment and lingual-set-screw need an engaging impression (error)', () => {
     for (const retention of ['cement-on-abutment', 'lingual-set-screw'] as const) {
@@ -83,15 +127,23 @@ describe('impression rules [common practice]', () => {
     }
   });
   it('non-engaging-impression-for-indexed also for a single screw-retained crown (the hex must be transferred)', () => {
-    expect(codes({ ...validSingle, sites: [s(36, { interface: 'engaging' })] })).toEqual([C.NON_ENGAGING_IMPRESSION_FOR_INDEXED]);
+    expect(codes({ ...validSingle, sites: [s(36, { interface: 'engaging' })] })).toEqual([
+      C.NON_ENGAGING_IMPRESSION_FOR_INDEXED,
+    ]);
   });
   it('multi-unit-impression-required: screw-to-multi-unit takes multi-unit copings (error)', () => {
-    const plan: RestorationPlan = { ...validFullArch, sites: validFullArch.sites.map((x, i) => (i === 0 ? { ...x, impressionCoping: 'non-engaging' } : x)) };
+    const plan: RestorationPlan = {
+      ...validFullArch,
+      sites: validFullArch.sites.map((x, i) => (i === 0 ? { ...x, impressionCoping: 'non-engaging' } : x)),
+    };
     const f = validateRestorationPlan(plan);
     expect(f.map((x) => [x.code, x.fdi, x.severity])).toEqual([[C.MULTI_UNIT_IMPRESSION_REQUIRED, 32, 'error']]);
   });
   it('multi-unit coping without multi-unit abutments (error) and a multi-unit angle without them (warning)', () => {
-    const f = validateRestorationPlan({ ...validBridge, sites: [s(34, { impressionCoping: 'multi-unit', multiUnitAngleDeg: 17 }), s(36)] });
+    const f = validateRestorationPlan({
+      ...validBridge,
+      sites: [s(34, { impressionCoping: 'multi-unit', multiUnitAngleDeg: 17 }), s(36)],
+    });
     expect(f.map((x) => [x.code, x.severity])).toEqual([
       [C.MULTI_UNIT_IMPRESSION_WITHOUT_ABUTMENT, 'error'],
       [C.MULTI_UNIT_ANGLE_WITHOUT_ABUTMENT, 'warning'],
@@ -102,7 +154,10 @@ describe('impression rules [common practice]', () => {
       kind: 'splinted-bridge',
       retention: 'cement-on-abutment',
       copingsSplinted: true,
-      sites: [s(14, { interface: 'engaging', impressionCoping: 'engaging' }), s(16, { interface: 'engaging', impressionCoping: 'engaging' })],
+      sites: [
+        s(14, { interface: 'engaging', impressionCoping: 'engaging' }),
+        s(16, { interface: 'engaging', impressionCoping: 'engaging' }),
+      ],
     };
     const f = validateRestorationPlan(plan);
     expect(f).toHaveLength(1);
@@ -116,7 +171,10 @@ describe('impression rules [common practice]', () => {
 });
 
 describe('divergence-over-limit — Jang HK et al. 2011 [pub]: accurate below about 15°', () => {
-  const bridge = (deg: number): RestorationPlan => ({ ...validBridge, sites: [s(34, { axis: [0, 0, 1] }), s(36, { axis: tilt(deg) })] });
+  const bridge = (deg: number): RestorationPlan => ({
+    ...validBridge,
+    sites: [s(34, { axis: [0, 0, 1] }), s(36, { axis: tilt(deg) })],
+  });
   it('15° exactly → no warning ("more than 15°")', () => expect(codes(bridge(15))).toEqual([]));
   it('15.5° → warning naming both implants and the source', () => {
     const f = validateRestorationPlan(bridge(15.5));
@@ -125,7 +183,10 @@ describe('divergence-over-limit — Jang HK et al. 2011 [pub]: accurate below ab
     expect(f[0].message).toMatch(/34 and 36 diverge by 15\.5°/);
   });
   it('every pair is checked: 34 vs 45 can diverge while neighbours do not', () => {
-    const plan: RestorationPlan = { ...validBridge, sites: [s(34, { axis: tilt(-9) }), s(35, { axis: [0, 0, 1] }), s(36, { axis: tilt(9) })] };
+    const plan: RestorationPlan = {
+      ...validBridge,
+      sites: [s(34, { axis: tilt(-9) }), s(35, { axis: [0, 0, 1] }), s(36, { axis: tilt(9) })],
+    };
     const f = validateRestorationPlan(plan);
     expect(f).toHaveLength(1);
     expect(f[0].message).toMatch(/34 and 36/);
@@ -140,7 +201,10 @@ describe('divergence-over-limit — Jang HK et al. 2011 [pub]: accurate below ab
     const mua = (deg: number, a: 0 | 17 | 30, b: 0 | 17 | 30): RestorationPlan => ({
       kind: 'splinted-bridge',
       retention: 'screw-to-multi-unit',
-      sites: [s(34, { impressionCoping: 'multi-unit', axis: [0, 0, 1], multiUnitAngleDeg: a }), s(36, { impressionCoping: 'multi-unit', axis: tilt(deg), multiUnitAngleDeg: b })],
+      sites: [
+        s(34, { impressionCoping: 'multi-unit', axis: [0, 0, 1], multiUnitAngleDeg: a }),
+        s(36, { impressionCoping: 'multi-unit', axis: tilt(deg), multiUnitAngleDeg: b }),
+      ],
     });
     expect(codes(mua(40, 0, 30))).toEqual([]); // residual 10°
     expect(codes(mua(32, 0, 17))).toEqual([]); // residual 15°
@@ -172,16 +236,28 @@ describe('insufficient-restorative-space — Carpentieri 2019 [pub]; design foll
     expect(codes(plan(5, 9))).toEqual([]);
     const f = validateRestorationPlan(plan(9, 4.9));
     expect(f).toHaveLength(1);
-    expect(f[0]).toMatchObject({ severity: 'error', code: C.INSUFFICIENT_RESTORATIVE_SPACE, fdi: 36, source: PLAN_SOURCES.CARPENTIERI_2019 });
+    expect(f[0]).toMatchObject({
+      severity: 'error',
+      code: C.INSUFFICIENT_RESTORATIVE_SPACE,
+      fdi: 36,
+      source: PLAN_SOURCES.CARPENTIERI_2019,
+    });
     expect(f[0].message).toContain('4.9 mm');
     expect(f[0].message).toContain('5 mm');
   });
   it('full-arch hybrid needs 15 mm', () => {
-    const plan: RestorationPlan = { ...validFullArch, sites: validFullArch.sites.map((x) => ({ ...x, restorativeSpaceMm: 14.9 })) };
+    const plan: RestorationPlan = {
+      ...validFullArch,
+      sites: validFullArch.sites.map((x) => ({ ...x, restorativeSpaceMm: 14.9 })),
+    };
     expect(codes(plan)).toEqual([C.INSUFFICIENT_RESTORATIVE_SPACE]);
   });
   it('cemented crown needs 8 mm', () => {
-    const plan: RestorationPlan = { kind: 'single-crown', retention: 'cement-on-abutment', sites: [s(11, { interface: 'engaging', impressionCoping: 'engaging', restorativeSpaceMm: 7.5 })] };
+    const plan: RestorationPlan = {
+      kind: 'single-crown',
+      retention: 'cement-on-abutment',
+      sites: [s(11, { interface: 'engaging', impressionCoping: 'engaging', restorativeSpaceMm: 7.5 })],
+    };
     expect(codes(plan)).toEqual([C.INSUFFICIENT_RESTORATIVE_SPACE]);
   });
 });
@@ -189,7 +265,9 @@ describe('insufficient-restorative-space — Carpentieri 2019 [pub]; design foll
 describe('site list', () => {
   it('site-count: a single crown has exactly one site', () => {
     expect(codes({ ...validSingle, sites: [] })).toEqual([C.SITE_COUNT]);
-    expect(codes({ ...validSingle, sites: [validSingle.sites[0], { ...validSingle.sites[0], fdi: 37 }] })).toEqual([C.SITE_COUNT]);
+    expect(codes({ ...validSingle, sites: [validSingle.sites[0], { ...validSingle.sites[0], fdi: 37 }] })).toEqual([
+      C.SITE_COUNT,
+    ]);
   });
   it('site-count: a bridge needs at least two', () => {
     expect(codes({ ...validBridge, sites: [s(34)] })).toEqual([C.SITE_COUNT]);
@@ -197,7 +275,9 @@ describe('site list', () => {
   it('full arch: < 2 error; 2–3 warning [common practice: 4 or more]', () => {
     const fa = (n: number): RestorationPlan => ({ ...validFullArch, sites: validFullArch.sites.slice(0, n) });
     expect(validateRestorationPlan(fa(1)).map((f) => [f.code, f.severity])).toEqual([[C.SITE_COUNT, 'error']]);
-    expect(validateRestorationPlan(fa(3)).map((f) => [f.code, f.severity, f.source])).toEqual([[C.FEW_IMPLANTS_FULL_ARCH, 'warning', 'common practice']]);
+    expect(validateRestorationPlan(fa(3)).map((f) => [f.code, f.severity, f.source])).toEqual([
+      [C.FEW_IMPLANTS_FULL_ARCH, 'warning', 'common practice'],
+    ]);
     expect(codes(fa(4))).toEqual([]);
   });
   it('invalid-position and duplicate-site (errors with fdi)', () => {
@@ -215,7 +295,16 @@ describe('site list', () => {
     expect(codes({ ...validBridge, sites: [s(14), s(44)] })).toEqual([C.SITES_IN_BOTH_ARCHES]);
   });
   it('every finding has a source and plain-English message', () => {
-    const f = validateRestorationPlan({ kind: 'splinted-bridge', retention: 'screw-to-implant', copingsSplinted: true, sites: [s(19, { interface: 'engaging', impressionCoping: 'engaging' }), s(14, { impressionCoping: 'engaging', axis: [0, 0, 1] }), s(44, { axis: [1, 0, 0], restorativeSpaceMm: 1 })] });
+    const f = validateRestorationPlan({
+      kind: 'splinted-bridge',
+      retention: 'screw-to-implant',
+      copingsSplinted: true,
+      sites: [
+        s(19, { interface: 'engaging', impressionCoping: 'engaging' }),
+        s(14, { impressionCoping: 'engaging', axis: [0, 0, 1] }),
+        s(44, { axis: [1, 0, 0], restorativeSpaceMm: 1 }),
+      ],
+    });
     expect(f.length).toBeGreaterThan(5);
     for (const x of f) {
       expect(x.source).toBeTruthy();
@@ -235,7 +324,13 @@ describe('malformed plans throw ValidationError', () => {
     ['negative space', { ...validSingle, sites: [{ ...validSingle.sites[0], restorativeSpaceMm: -1 }] }],
     ['zero axis', { ...validBridge, sites: [s(34, { axis: [0, 0, 0] }), s(36)] }],
     ['NaN axis', { ...validBridge, sites: [s(34, { axis: [Number.NaN, 0, 1] }), s(36)] }],
-    ['multi-unit angle 25', { ...validFullArch, sites: [{ ...validFullArch.sites[0], multiUnitAngleDeg: 25 }, ...validFullArch.sites.slice(1)] }],
+    [
+      'multi-unit angle 25',
+      {
+        ...validFullArch,
+        sites: [{ ...validFullArch.sites[0], multiUnitAngleDeg: 25 }, ...validFullArch.sites.slice(1)],
+      },
+    ],
     ['copingsSplinted not boolean', { ...validBridge, copingsSplinted: 'yes' }],
   ])('%s', (_n, plan) => expect(() => validateRestorationPlan(plan as RestorationPlan)).toThrow(ValidationError));
 });

@@ -21,18 +21,34 @@ import { DIVERGENCE_LIMIT_DEG, divergenceDeg, type Vec3 } from './geometry.js';
 import { ValidationError } from './errors.js';
 import { RESTORATIVE_DESIGN_LABELS, minRestorativeSpaceMm, type RestorativeDesign } from './restorative-space.js';
 import { isPrimaryTooth, isValidFdi, toothArch, type ToothArch } from './tooth-numbering.js';
-import { EPS, fmt, optionalBoolean, requireArray, requireFinite, requireNonNegative, requireOneOf } from './validate.js';
+import {
+  EPS,
+  fmt,
+  optionalBoolean,
+  requireArray,
+  requireFinite,
+  requireNonNegative,
+  requireOneOf,
+} from './validate.js';
 
 /** Kinds of restoration. `splinted-bridge` and `full-arch` are splinted. */
 export const RESTORATION_KINDS = ['single-crown', 'splinted-bridge', 'full-arch'] as const;
 /** Kind of restoration. */
 export type RestorationKind = (typeof RESTORATION_KINDS)[number];
 /** How a restoration is retained. */
-export const RETENTIONS = ['screw-to-implant', 'screw-to-multi-unit', 'cement-on-abutment', 'lingual-set-screw'] as const;
+export const RETENTIONS = [
+  'screw-to-implant',
+  'screw-to-multi-unit',
+  'cement-on-abutment',
+  'lingual-set-screw',
+] as const;
 /** How the restoration is retained. */
 export type Retention = (typeof RETENTIONS)[number];
 /** Retentions where the restoration sits on an abutment, indexed to the implant's hex [common practice]. */
-export const ABUTMENT_LEVEL_RETENTIONS: readonly Retention[] = Object.freeze(['cement-on-abutment', 'lingual-set-screw']);
+export const ABUTMENT_LEVEL_RETENTIONS: readonly Retention[] = Object.freeze([
+  'cement-on-abutment',
+  'lingual-set-screw',
+]);
 /** Connections of the restoration (or abutment) to the implant: indexed to the hex or not. */
 export const IMPLANT_INTERFACES = ['engaging', 'non-engaging'] as const;
 /** Connection of the restoration (or abutment) to the implant. */
@@ -123,7 +139,6 @@ export const PLAN_SOURCES = Object.freeze({
   COMMON_PRACTICE: 'common practice',
 } as const);
 
-
 const RETENTION_LABELS: Record<Retention, string> = {
   'screw-to-implant': 'screw-retained on the implant',
   'screw-to-multi-unit': 'screw-retained on multi-unit abutments',
@@ -139,14 +154,16 @@ const RETENTION_LABELS: Record<Retention, string> = {
 export function restorativeDesignForPlan(plan: Pick<RestorationPlan, 'kind' | 'retention'>): RestorativeDesign {
   const kind = requireOneOf(plan.kind, RESTORATION_KINDS, 'plan.kind');
   const retention = requireOneOf(plan.retention, RETENTIONS, 'plan.retention');
-  if (kind === 'full-arch' && (retention === 'screw-to-implant' || retention === 'screw-to-multi-unit')) return 'full-arch-hybrid';
+  if (kind === 'full-arch' && (retention === 'screw-to-implant' || retention === 'screw-to-multi-unit'))
+    return 'full-arch-hybrid';
   if (retention === 'screw-to-implant') return 'screw-implant-level';
   if (retention === 'screw-to-multi-unit') return 'screw-abutment-level';
   return 'cement';
 }
 
 function validateShape(plan: RestorationPlan): void {
-  if (plan === null || typeof plan !== 'object') throw new ValidationError('bad-value', 'plan must be an object', 'plan');
+  if (plan === null || typeof plan !== 'object')
+    throw new ValidationError('bad-value', 'plan must be an object', 'plan');
   requireOneOf(plan.kind, RESTORATION_KINDS, 'plan.kind');
   requireOneOf(plan.retention, RETENTIONS, 'plan.retention');
   optionalBoolean(plan.copingsSplinted, 'plan.copingsSplinted');
@@ -157,7 +174,8 @@ function validateShape(plan: RestorationPlan): void {
     requireFinite(site.fdi, `${f}.fdi`);
     requireOneOf(site.interface, IMPLANT_INTERFACES, `${f}.interface`);
     requireOneOf(site.impressionCoping, IMPRESSION_COPINGS, `${f}.impressionCoping`);
-    if (site.multiUnitAngleDeg !== undefined) requireOneOf(site.multiUnitAngleDeg, MULTI_UNIT_ANGLES_DEG, `${f}.multiUnitAngleDeg`);
+    if (site.multiUnitAngleDeg !== undefined)
+      requireOneOf(site.multiUnitAngleDeg, MULTI_UNIT_ANGLES_DEG, `${f}.multiUnitAngleDeg`);
     if (site.restorativeSpaceMm !== undefined) requireNonNegative(site.restorativeSpaceMm, `${f}.restorativeSpaceMm`);
     if (site.axis !== undefined) divergenceDeg(site.axis, site.axis); // validates: 3 finite components, not zero
   });
@@ -338,7 +356,8 @@ export function validateRestorationPlan(plan: RestorationPlan): Finding[] {
         const a = withAxis[i];
         const b = withAxis[j];
         const theta = divergenceDeg(a.axis!, b.axis!);
-        const correction = retention === 'screw-to-multi-unit' ? (a.multiUnitAngleDeg ?? 0) + (b.multiUnitAngleDeg ?? 0) : 0;
+        const correction =
+          retention === 'screw-to-multi-unit' ? (a.multiUnitAngleDeg ?? 0) + (b.multiUnitAngleDeg ?? 0) : 0;
         const residual = Math.max(0, theta - correction);
         if (residual > DIVERGENCE_LIMIT_DEG + EPS) {
           const corrected =

@@ -1,5 +1,11 @@
 import { describe, it, expect } from 'vitest';
-import { RESTORATIVE_DESIGNS, minImplantCentreDistanceMm, minRestorativeSpaceMm, minSingleToothGapMm, type RestorativeDesign } from './restorative-space.js';
+import {
+  RESTORATIVE_DESIGNS,
+  minImplantCentreDistanceMm,
+  minRestorativeSpaceMm,
+  minSingleToothGapMm,
+  type RestorativeDesign,
+} from './restorative-space.js';
 import { ValidationError } from './errors.js';
 
 describe('minRestorativeSpaceMm — Carpentieri J, Greenstein G, Cavallaro J 2019, JADA 150(8):695–706 [pub], strictest end', () => {
@@ -11,7 +17,8 @@ describe('minRestorativeSpaceMm — Carpentieri J, Greenstein G, Cavallaro J 201
     ['full-arch-hybrid', 15],
   ])('%s → %s mm', (design, mm) => expect(minRestorativeSpaceMm(design)).toBe(mm));
   it('covers every design', () => expect(RESTORATIVE_DESIGNS).toHaveLength(5));
-  it('unknown design → ValidationError', () => expect(() => minRestorativeSpaceMm('denture' as RestorativeDesign)).toThrow(ValidationError));
+  it('unknown design → ValidationError', () =>
+    expect(() => minRestorativeSpaceMm('denture' as RestorativeDesign)).toThrow(ValidationError));
 });
 
 describe('spacing — implant to tooth ≥ 1.5 mm [common practice]; implant to implant ≥ 3 mm (Tarnow 2000, J Periodontol 71:546–549) [pub]', () => {

@@ -10,7 +10,13 @@
 import { requireOneOf, requirePositive } from './validate.js';
 
 /** Restoration designs with a published minimum restorative space. */
-export const RESTORATIVE_DESIGNS = Object.freeze(['screw-implant-level', 'screw-abutment-level', 'cement', 'bar-overdenture', 'full-arch-hybrid'] as const);
+export const RESTORATIVE_DESIGNS = Object.freeze([
+  'screw-implant-level',
+  'screw-abutment-level',
+  'cement',
+  'bar-overdenture',
+  'full-arch-hybrid',
+] as const);
 /** One of {@link RESTORATIVE_DESIGNS}. */
 export type RestorativeDesign = (typeof RESTORATIVE_DESIGNS)[number];
 
@@ -60,5 +66,9 @@ export function minSingleToothGapMm(implantDiameterMm: number): number {
  * @throws ValidationError for a diameter that is not > 0
  */
 export function minImplantCentreDistanceMm(diameterAMm: number, diameterBMm: number): number {
-  return requirePositive(diameterAMm, 'diameterAMm') / 2 + requirePositive(diameterBMm, 'diameterBMm') / 2 + MIN_IMPLANT_TO_IMPLANT_MM;
+  return (
+    requirePositive(diameterAMm, 'diameterAMm') / 2 +
+    requirePositive(diameterBMm, 'diameterBMm') / 2 +
+    MIN_IMPLANT_TO_IMPLANT_MM
+  );
 }

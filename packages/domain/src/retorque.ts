@@ -14,7 +14,10 @@ import { RETIGHTEN_AFTER_MINUTES, type TorqueReason } from './torque.js';
 /** Reasons that seat a screw (its preload will settle) [decision: a replaced screw is seated anew]. */
 export const SEATING_REASONS: readonly TorqueReason[] = Object.freeze(['initial-seating', 'screw-replaced']);
 /** Reasons that re-tighten a seated screw. */
-export const RETORQUE_REASONS: readonly TorqueReason[] = Object.freeze(['re-torque-after-settling', 're-torque-at-recall']);
+export const RETORQUE_REASONS: readonly TorqueReason[] = Object.freeze([
+  're-torque-after-settling',
+  're-torque-at-recall',
+]);
 
 /** One logged torque of a part, in the order logged. */
 export interface TorqueLogEntry {

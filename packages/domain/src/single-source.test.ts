@@ -16,14 +16,20 @@ function sourceFiles(dir: string): string[] {
 
 describe('single source of tooth numbering', () => {
   it('finds the conversion defined in packages/domain (the scan itself works)', () => {
-    const here = sourceFiles(path.join(repoRoot, 'packages/domain/src')).filter((f) => /function\s+fdiToUniversal\b/.test(fs.readFileSync(f, 'utf8')));
+    const here = sourceFiles(path.join(repoRoot, 'packages/domain/src')).filter((f) =>
+      /function\s+fdiToUniversal\b/.test(fs.readFileSync(f, 'utf8')),
+    );
     expect(here.map((f) => path.basename(f))).toEqual(['tooth-numbering.ts']);
   });
 
   it('has no second implementation of the FDI ↔ Universal conversion in the web or the API', () => {
     const offenders = ['apps/web/src', 'apps/api/src']
       .flatMap((dir) => sourceFiles(path.join(repoRoot, dir)))
-      .filter((file) => /function\s+(fdiToUniversal|universalToFdi)\b|(fdiToUniversal|universalToFdi)\s*=\s*\(/.test(fs.readFileSync(file, 'utf8')))
+      .filter((file) =>
+        /function\s+(fdiToUniversal|universalToFdi)\b|(fdiToUniversal|universalToFdi)\s*=\s*\(/.test(
+          fs.readFileSync(file, 'utf8'),
+        ),
+      )
       .map((file) => path.relative(repoRoot, file));
     expect(offenders).toEqual([]);
   });

@@ -63,11 +63,14 @@ describe('universalToFdi', () => {
 describe('position lists (drawing order upper right → upper left, lower left → lower right)', () => {
   it('permanent: 18..11, 21..28, 38..31, 41..48', () => {
     expect(TOOTH_POSITIONS_PERMANENT).toEqual([
-      18, 17, 16, 15, 14, 13, 12, 11, 21, 22, 23, 24, 25, 26, 27, 28, 38, 37, 36, 35, 34, 33, 32, 31, 41, 42, 43, 44, 45, 46, 47, 48,
+      18, 17, 16, 15, 14, 13, 12, 11, 21, 22, 23, 24, 25, 26, 27, 28, 38, 37, 36, 35, 34, 33, 32, 31, 41, 42, 43, 44,
+      45, 46, 47, 48,
     ]);
   });
   it('primary: 55..51, 61..65, 75..71, 81..85', () => {
-    expect(TOOTH_POSITIONS_PRIMARY).toEqual([55, 54, 53, 52, 51, 61, 62, 63, 64, 65, 75, 74, 73, 72, 71, 81, 82, 83, 84, 85]);
+    expect(TOOTH_POSITIONS_PRIMARY).toEqual([
+      55, 54, 53, 52, 51, 61, 62, 63, 64, 65, 75, 74, 73, 72, 71, 81, 82, 83, 84, 85,
+    ]);
   });
   it('Universal numbers run 1..32 and A..T along the drawing order (same path, reference §3)', () => {
     expect(TOOTH_POSITIONS_PERMANENT.map(fdiToUniversal)).toEqual(Array.from({ length: 32 }, (_, i) => String(i + 1)));
@@ -92,7 +95,17 @@ describe('property: FDI → Universal → FDI is the identity on all 52 position
     fc.assert(
       fc.property(fc.integer({ min: -20, max: 120 }), (n) => {
         if (all.includes(n)) return isValidFdi(n) && universalToFdi(fdiToUniversal(n)) === n;
-        return !isValidFdi(n) && (() => { try { fdiToUniversal(n); return false; } catch (e) { return e instanceof RangeError; } })();
+        return (
+          !isValidFdi(n) &&
+          (() => {
+            try {
+              fdiToUniversal(n);
+              return false;
+            } catch (e) {
+              return e instanceof RangeError;
+            }
+          })()
+        );
       }),
     );
   });
@@ -100,8 +113,19 @@ describe('property: FDI → Universal → FDI is the identity on all 52 position
 
 describe('toothKind, toothArch, isPrimaryTooth, formatTooth [common practice anatomy]', () => {
   it.each([
-    [11, 'incisor'], [12, 'incisor'], [13, 'canine'], [14, 'premolar'], [15, 'premolar'], [16, 'molar'], [18, 'molar'],
-    [33, 'canine'], [46, 'molar'], [51, 'incisor'], [53, 'canine'], [54, 'molar'], [85, 'molar'],
+    [11, 'incisor'],
+    [12, 'incisor'],
+    [13, 'canine'],
+    [14, 'premolar'],
+    [15, 'premolar'],
+    [16, 'molar'],
+    [18, 'molar'],
+    [33, 'canine'],
+    [46, 'molar'],
+    [51, 'incisor'],
+    [53, 'canine'],
+    [54, 'molar'],
+    [85, 'molar'],
   ] as const)('%i is a %s', (fdi, kind) => {
     expect(toothKind(fdi)).toBe(kind);
   });

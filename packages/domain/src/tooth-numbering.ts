@@ -63,7 +63,8 @@ function positions(quadrants: readonly number[], count: number): number[] {
   const out: number[] = [];
   quadrants.forEach((q, i) => {
     // Quadrants drawn right-to-left on the patient's right side (q1, q3 / q5, q7 start at the back).
-    const order = i % 2 === 0 ? Array.from({ length: count }, (_, k) => count - k) : Array.from({ length: count }, (_, k) => k + 1);
+    const order =
+      i % 2 === 0 ? Array.from({ length: count }, (_, k) => count - k) : Array.from({ length: count }, (_, k) => k + 1);
     for (const p of order) out.push(q * 10 + p);
   });
   return out;
@@ -114,7 +115,9 @@ export function universalToFdi(code: string): number {
     if (n <= 15) return 70 + (16 - n);
     return 80 + (n - 15);
   }
-  throw new ToothPositionError(`${JSON.stringify(code)} is not a Universal tooth designation (1–32 permanent, A–T primary)`);
+  throw new ToothPositionError(
+    `${JSON.stringify(code)} is not a Universal tooth designation (1–32 permanent, A–T primary)`,
+  );
 }
 
 /**
@@ -137,5 +140,9 @@ export function formatTooth(fdi: number, system: ToothNumberingSystem): string {
   requireFdi(fdi);
   if (system === 'fdi') return String(fdi);
   if (system === 'universal') return fdiToUniversal(fdi);
-  throw new ValidationError('bad-value', `system must be 'fdi' or 'universal' (got ${JSON.stringify(system)})`, 'system');
+  throw new ValidationError(
+    'bad-value',
+    `system must be 'fdi' or 'universal' (got ${JSON.stringify(system)})`,
+    'system',
+  );
 }

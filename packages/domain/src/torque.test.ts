@@ -58,7 +58,12 @@ describe('torqueToleranceBand — the window torqueVerdict judges against (ISO 6
       fc.property(fc.integer({ min: 1, max: 100 }), fc.integer({ min: 0, max: 50 }), (spec, tol) => {
         const { lowNcm, highNcm } = torqueToleranceBand(spec, tol);
         const verdict = (appliedNcm: number) => torqueVerdict({ appliedNcm, specNcm: spec, tolerancePct: tol });
-        return verdict(lowNcm) === 'within' && verdict(highNcm) === 'within' && verdict(highNcm + 1e-6) === 'over' && verdict(lowNcm - 1e-6) === 'under';
+        return (
+          verdict(lowNcm) === 'within' &&
+          verdict(highNcm) === 'within' &&
+          verdict(highNcm + 1e-6) === 'over' &&
+          verdict(lowNcm - 1e-6) === 'under'
+        );
       }),
     );
   });

@@ -19,7 +19,13 @@ export type TorqueVerdict = (typeof TORQUE_VERDICTS)[number];
  * Why a torque was applied. Seating and re-torque reasons drive the re-torque reminder
  * ({@link retorqueDueAt} in retorque.ts).
  */
-export const TORQUE_REASONS = ['initial-seating', 're-torque-after-settling', 're-torque-at-recall', 'loosening-found', 'screw-replaced'] as const;
+export const TORQUE_REASONS = [
+  'initial-seating',
+  're-torque-after-settling',
+  're-torque-at-recall',
+  'loosening-found',
+  'screw-replaced',
+] as const;
 /** One of {@link TORQUE_REASONS}. */
 export type TorqueReason = (typeof TORQUE_REASONS)[number];
 
@@ -71,7 +77,8 @@ export function torqueDeviationPct(appliedNcm: number, specNcm: number): number 
 
 function requireTolerance(tolerancePct: number): number {
   const tol = requireNonNegative(tolerancePct, 'tolerancePct');
-  if (tol >= 100) throw new ValidationError('out-of-range', `tolerancePct must be below 100 (got ${tol})`, 'tolerancePct');
+  if (tol >= 100)
+    throw new ValidationError('out-of-range', `tolerancePct must be below 100 (got ${tol})`, 'tolerancePct');
   return tol;
 }
 

@@ -14,11 +14,17 @@ describe('checkUdiForPlacement', () => {
   });
   it('flags a placement after the expiry date, beside the UDI', () => {
     expect(checkUdiForPlacement(udi, { placedOn: '2029-01-01' })).toEqual([
-      { code: 'expired-before-placement', field: 'udi', message: "The implant's expiry date 2028-12-31 (UDI element 17) is before the placement date 2029-01-01" },
+      {
+        code: 'expired-before-placement',
+        field: 'udi',
+        message: "The implant's expiry date 2028-12-31 (UDI element 17) is before the placement date 2029-01-01",
+      },
     ]);
   });
   it('flags a typed lot that differs from the scanned one (exact, case-sensitive), beside the lot', () => {
-    expect(checkUdiForPlacement(udi, { placedOn: '2026-11-30', lot: 'scn3511-26x' }).map((f) => [f.code, f.field])).toEqual([['lot-mismatch', 'lot']]);
+    expect(
+      checkUdiForPlacement(udi, { placedOn: '2026-11-30', lot: 'scn3511-26x' }).map((f) => [f.code, f.field]),
+    ).toEqual([['lot-mismatch', 'lot']]);
   });
   it('says nothing when the UDI has no lot or no expiry, or no lot is typed', () => {
     expect(checkUdiForPlacement({ gtin: udi.gtin }, { placedOn: '2030-01-01', lot: 'ANY' })).toEqual([]);
@@ -26,6 +32,9 @@ describe('checkUdiForPlacement', () => {
     expect(checkUdiForPlacement(udi, { placedOn: '2026-11-30', lot: '' })).toEqual([]);
   });
   it('reports both findings together', () => {
-    expect(checkUdiForPlacement(udi, { placedOn: '2030-01-01', lot: 'OTHER' }).map((f) => f.code)).toEqual(['lot-mismatch', 'expired-before-placement']);
+    expect(checkUdiForPlacement(udi, { placedOn: '2030-01-01', lot: 'OTHER' }).map((f) => f.code)).toEqual([
+      'lot-mismatch',
+      'expired-before-placement',
+    ]);
   });
 });

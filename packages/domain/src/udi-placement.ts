@@ -26,11 +26,18 @@ export interface UdiPlacementFinding {
  * @param placement the placement date (YYYY-MM-DD) and the typed lot, if any
  * @returns findings, empty when the UDI agrees with the placement
  */
-export function checkUdiForPlacement(udi: ParsedUdi, placement: { placedOn: string; lot?: string | null }): UdiPlacementFinding[] {
+export function checkUdiForPlacement(
+  udi: ParsedUdi,
+  placement: { placedOn: string; lot?: string | null },
+): UdiPlacementFinding[] {
   const findings: UdiPlacementFinding[] = [];
   const typed = placement.lot ?? null;
   if (udi.lot !== undefined && typed !== null && typed !== '' && typed !== udi.lot) {
-    findings.push({ code: 'lot-mismatch', field: 'lot', message: `The typed lot ${typed} differs from the lot in the UDI (${udi.lot})` });
+    findings.push({
+      code: 'lot-mismatch',
+      field: 'lot',
+      message: `The typed lot ${typed} differs from the lot in the UDI (${udi.lot})`,
+    });
   }
   if (udi.expiry !== undefined && udi.expiry < placement.placedOn) {
     findings.push({

@@ -41,9 +41,12 @@ describe('isValidGtin', () => {
   it('a GTIN-14 whose last digit is wrong is rejected (reference §4)', () => {
     expect(isValidGtin('05012345678901')).toBe(false);
   });
-  it.each(['', '1234567', '123456789', '123456789012345', 'abcdefghijklm', '0501234567890 '])('rejects malformed %j without throwing', (g) => {
-    expect(isValidGtin(g)).toBe(false);
-  });
+  it.each(['', '1234567', '123456789', '123456789012345', 'abcdefghijklm', '0501234567890 '])(
+    'rejects malformed %j without throwing',
+    (g) => {
+      expect(isValidGtin(g)).toBe(false);
+    },
+  );
 });
 
 describe('cross-check against the npm `gtin` package (reference implementation)', () => {
@@ -66,7 +69,10 @@ describe('cross-check against the npm `gtin` package (reference implementation)'
   });
   it('property: agrees with `gtin` on arbitrary 8/12/13/14-digit strings', () => {
     fc.assert(
-      fc.property(fc.oneof(fc.stringMatching(/^\d{8}$/), fc.stringMatching(/^\d{12,14}$/)), (s) => isValidGtin(s) === gtinLibIsValid(s)),
+      fc.property(
+        fc.oneof(fc.stringMatching(/^\d{8}$/), fc.stringMatching(/^\d{12,14}$/)),
+        (s) => isValidGtin(s) === gtinLibIsValid(s),
+      ),
     );
   });
 });

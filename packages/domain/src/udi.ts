@@ -72,7 +72,10 @@ const CSET82 = /^[!"%&'()*+,\-./0-9:;<=>?A-Z_a-z]+$/;
  */
 export function gtinCheckDigit(digits: string): number {
   if (typeof digits !== 'string' || !/^\d{1,17}$/.test(digits)) {
-    throw new UdiError('bad-format', `check digits are computed on 1–17 decimal digits (got ${JSON.stringify(digits)})`);
+    throw new UdiError(
+      'bad-format',
+      `check digits are computed on 1–17 decimal digits (got ${JSON.stringify(digits)})`,
+    );
   }
   let sum = 0;
   for (let i = 0; i < digits.length; i++) {
@@ -89,7 +92,8 @@ export function isValidGtin(gtin: string): boolean {
 }
 
 function parseYymmdd(value: string, ai: string, label: string, today: Date): string {
-  if (!/^\d{6}$/.test(value)) throw new UdiError('bad-date', `(${ai}) ${label} must be 6 digits YYMMDD (got ${JSON.stringify(value)})`, ai);
+  if (!/^\d{6}$/.test(value))
+    throw new UdiError('bad-date', `(${ai}) ${label} must be 6 digits YYMMDD (got ${JSON.stringify(value)})`, ai);
   const yy = Number(value.slice(0, 2));
   const month = Number(value.slice(2, 4));
   const dd = Number(value.slice(4, 6));
@@ -97,9 +101,15 @@ function parseYymmdd(value: string, ai: string, label: string, today: Date): str
   const century = Math.floor(currentYear / 100) * 100;
   const d = yy - (currentYear % 100);
   const year = d >= 51 ? century - 100 + yy : d > -50 ? century + yy : century + 100 + yy;
-  if (month < 1 || month > 12) throw new UdiError('bad-date', `(${ai}) ${label} ${value}: month ${value.slice(2, 4)} does not exist`, ai);
+  if (month < 1 || month > 12)
+    throw new UdiError('bad-date', `(${ai}) ${label} ${value}: month ${value.slice(2, 4)} does not exist`, ai);
   const last = daysInMonth(year, month);
-  if (dd > last) throw new UdiError('bad-date', `(${ai}) ${label} ${value}: day ${value.slice(4, 6)} does not exist in ${year}-${value.slice(2, 4)}`, ai);
+  if (dd > last)
+    throw new UdiError(
+      'bad-date',
+      `(${ai}) ${label} ${value}: day ${value.slice(4, 6)} does not exist in ${year}-${value.slice(2, 4)}`,
+      ai,
+    );
   return formatIsoDate({ year, month, day: dd === 0 ? last : dd });
 }
 
@@ -107,7 +117,10 @@ function stripPrefix(data: string): string {
   if (data.startsWith(']')) {
     const id = data.slice(0, 3);
     if (!SYMBOLOGY_IDENTIFIERS.includes(id)) {
-      throw new UdiError('bad-format', `symbology identifier ${JSON.stringify(id)} is not a GS1 Data Matrix (]d2), GS1-128 (]C1) or GS1 QR (]Q3) identifier`);
+      throw new UdiError(
+        'bad-format',
+        `symbology identifier ${JSON.stringify(id)} is not a GS1 Data Matrix (]d2), GS1-128 (]C1) or GS1 QR (]Q3) identifier`,
+      );
     }
     return data.slice(3);
   }
@@ -133,15 +146,28 @@ function splitRaw(s: string): Element[] {
     }
     const ai = s.slice(pos, pos + 2);
     if (ai.length < 2) throw new UdiError('truncated', `data ends inside an application identifier at position ${pos}`);
-    if (!/^\d\d$/.test(ai)) throw new UdiError('bad-format', `expected an application identifier (digits) at position ${pos}, found ${JSON.stringify(ai)}`);
+    if (!/^\d\d$/.test(ai))
+      throw new UdiError(
+        'bad-format',
+        `expected an application identifier (digits) at position ${pos}, found ${JSON.stringify(ai)}`,
+      );
     const def = AIS[ai];
-    if (!def) throw new UdiError('unknown-ai', `application identifier starting "${ai}" is not supported (only 01, 10, 11, 17, 21)`, ai);
+    if (!def)
+      throw new UdiError(
+        'unknown-ai',
+        `application identifier starting "${ai}" is not supported (only 01, 10, 11, 17, 21)`,
+        ai,
+      );
     pos += 2;
     if (def.fixed !== undefined) {
       const value = s.slice(pos, pos + def.fixed);
       const gsAt = value.indexOf(GS);
       if (value.length < def.fixed || gsAt >= 0) {
-        throw new UdiError('truncated', `(${ai}) ${def.label} needs ${def.fixed} characters, found ${gsAt >= 0 ? gsAt : value.length}`, ai);
+        throw new UdiError(
+          'truncated',
+          `(${ai}) ${def.label} needs ${def.fixed} characters, found ${gsAt >= 0 ? gsAt : value.length}`,
+          ai,
+        );
       }
       out.push({ ai, value });
       pos += def.fixed;
@@ -165,7 +191,8 @@ function splitHri(s: string): Element[] {
     const m = token.exec(s);
     if (!m) throw new UdiError('bad-format', `expected "(AI)" at position ${pos} of the human-readable text`);
     const ai = m[1];
-    if (!AIS[ai]) throw new UdiError('unknown-ai', `application identifier (${ai}) is not supported (only 01, 10, 11, 17, 21)`, ai);
+    if (!AIS[ai])
+      throw new UdiError('unknown-ai', `application identifier (${ai}) is not supported (only 01, 10, 11, 17, 21)`, ai);
     const start = token.lastIndex;
     anyToken.lastIndex = start;
     const next = anyToken.exec(s);
@@ -187,7 +214,8 @@ function splitHri(s: string): Element[] {
  */
 export function parseUdi(data: string, today: Date = new Date()): ParsedUdi {
   if (typeof data !== 'string') throw new UdiError('bad-format', 'UDI data must be a string');
-  if (!(today instanceof Date) || Number.isNaN(today.getTime())) throw new UdiError('bad-format', 'today must be a valid Date');
+  if (!(today instanceof Date) || Number.isNaN(today.getTime()))
+    throw new UdiError('bad-format', 'today must be a valid Date');
   // Scanners often append CR/LF; String.prototype.trim does not remove GS.
   const s = stripPrefix(data.trim());
   if (s.length === 0 || s === GS) throw new UdiError('empty', 'no UDI data');
@@ -215,9 +243,14 @@ export function parseUdi(data: string, today: Date = new Date()): ParsedUdi {
     }
     switch (def.key) {
       case 'gtin':
-        if (!/^\d{14}$/.test(value)) throw new UdiError('bad-format', `(01) GTIN must be 14 digits (got ${JSON.stringify(value)})`, ai);
+        if (!/^\d{14}$/.test(value))
+          throw new UdiError('bad-format', `(01) GTIN must be 14 digits (got ${JSON.stringify(value)})`, ai);
         if (!isValidGtin(value)) {
-          throw new UdiError('bad-check-digit', `(01) GTIN ${value}: check digit should be ${gtinCheckDigit(value.slice(0, 13))}, not ${value[13]}`, ai);
+          throw new UdiError(
+            'bad-check-digit',
+            `(01) GTIN ${value}: check digit should be ${gtinCheckDigit(value.slice(0, 13))}, not ${value[13]}`,
+            ai,
+          );
         }
         result.gtin = value;
         break;
@@ -227,7 +260,11 @@ export function parseUdi(data: string, today: Date = new Date()): ParsedUdi {
         break;
       default:
         if (!CSET82.test(value)) {
-          throw new UdiError('bad-character', `(${ai}) ${def.label} ${JSON.stringify(value)} contains a character outside GS1 character set 82`, ai);
+          throw new UdiError(
+            'bad-character',
+            `(${ai}) ${def.label} ${JSON.stringify(value)} contains a character outside GS1 character set 82`,
+            ai,
+          );
         }
         result[def.key] = value;
     }

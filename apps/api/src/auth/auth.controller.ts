@@ -32,7 +32,10 @@ export class AuthController {
   @Post('sign-in')
   @HttpCode(200)
   @UseGuards(SignInThrottlerGuard)
-  async signIn(@Body(new ZodValidationPipe(SignInBody)) body: SignInBody, @Res({ passthrough: true }) res: Response): Promise<Me> {
+  async signIn(
+    @Body(new ZodValidationPipe(SignInBody)) body: SignInBody,
+    @Res({ passthrough: true }) res: Response,
+  ): Promise<Me> {
     const { user, token } = await this.auth.signIn(body.email, body.password);
     res.cookie(SESSION_COOKIE, token, {
       httpOnly: true,

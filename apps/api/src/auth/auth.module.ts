@@ -14,7 +14,10 @@ import { SignInThrottlerGuard, signInThrottlers } from './sign-in-throttler.guar
     PassportModule,
     JwtModule.registerAsync({
       inject: [ENV],
-      useFactory: (env: Env) => ({ secret: env.JWT_SECRET, signOptions: { expiresIn: env.SESSION_TTL_S, algorithm: SESSION_ALGORITHM } }),
+      useFactory: (env: Env) => ({
+        secret: env.JWT_SECRET,
+        signOptions: { expiresIn: env.SESSION_TTL_S, algorithm: SESSION_ALGORITHM },
+      }),
     }),
     // Only the sign-in route uses the throttler guard (see SignInThrottlerGuard).
     ThrottlerModule.forRootAsync({

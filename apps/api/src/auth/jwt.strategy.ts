@@ -32,7 +32,8 @@ export class JwtStrategy extends PassportStrategy(Strategy) {
    * would never expire, or escape sign-out), and a deactivated or signed-out user's token.
    */
   async validate(payload: SessionToken): Promise<SessionUser | null> {
-    if (typeof payload.exp !== 'number' || typeof payload.iat !== 'number' || typeof payload.sub !== 'string') return null;
+    if (typeof payload.exp !== 'number' || typeof payload.iat !== 'number' || typeof payload.sub !== 'string')
+      return null;
     return this.auth.loadSessionUser(payload.sub, payload.iat);
   }
 }

@@ -13,7 +13,10 @@ export async function findUserForSignIn(db: Db, email: string) {
 
 /** Ends every session of the user issued up to now (whole seconds, as in a JWT's iat). */
 export async function endSessions(db: Db, userId: string): Promise<void> {
-  await db.update(users).set({ sessionsValidAfter: sql`date_trunc('second', now())` }).where(eq(users.id, userId));
+  await db
+    .update(users)
+    .set({ sessionsValidAfter: sql`date_trunc('second', now())` })
+    .where(eq(users.id, userId));
 }
 
 /**
@@ -36,7 +39,8 @@ export async function findSessionUser(db: Db, userId: string, issuedAtS?: number
     .innerJoin(practices, eq(practices.id, users.practiceId))
     .where(eq(users.id, userId));
   if (!row || !row.active) return null;
-  if (issuedAtS !== undefined && row.sessionsValidAfter && issuedAtS * 1000 < row.sessionsValidAfter.getTime()) return null;
+  if (issuedAtS !== undefined && row.sessionsValidAfter && issuedAtS * 1000 < row.sessionsValidAfter.getTime())
+    return null;
   const shares = await db
     .select({ patientId: patientShares.patientId })
     .from(patientShares)

@@ -38,37 +38,64 @@ export class CatalogueController {
 
   @Post('catalogue/systems')
   @Allow('create', 'Catalogue')
-  createSystem(@CurrentUser() user: SessionUser, @CurrentAbility() ability: AppAbility, @Body(new ZodValidationPipe(SystemBody)) body: SystemBody): Promise<CatalogueSystem> {
+  createSystem(
+    @CurrentUser() user: SessionUser,
+    @CurrentAbility() ability: AppAbility,
+    @Body(new ZodValidationPipe(SystemBody)) body: SystemBody,
+  ): Promise<CatalogueSystem> {
     return this.catalogue.createSystem(ability, scopeOf(user), body);
   }
 
   @Patch('catalogue/systems/:id')
   @Allow('update', 'Catalogue')
-  updateSystem(@CurrentUser() user: SessionUser, @CurrentAbility() ability: AppAbility, @Param('id', uuid()) id: string, @Body(new ZodValidationPipe(SystemPatch)) body: SystemPatch): Promise<CatalogueSystem> {
+  updateSystem(
+    @CurrentUser() user: SessionUser,
+    @CurrentAbility() ability: AppAbility,
+    @Param('id', uuid()) id: string,
+    @Body(new ZodValidationPipe(SystemPatch)) body: SystemPatch,
+  ): Promise<CatalogueSystem> {
     return this.catalogue.updateSystem(ability, scopeOf(user), id, body);
   }
 
   @Post('catalogue/platforms')
   @Allow('create', 'Catalogue')
-  createPlatform(@CurrentUser() user: SessionUser, @CurrentAbility() ability: AppAbility, @Body(new ZodValidationPipe(PlatformBody)) body: PlatformBody): Promise<CataloguePlatform> {
+  createPlatform(
+    @CurrentUser() user: SessionUser,
+    @CurrentAbility() ability: AppAbility,
+    @Body(new ZodValidationPipe(PlatformBody)) body: PlatformBody,
+  ): Promise<CataloguePlatform> {
     return this.catalogue.createPlatform(ability, scopeOf(user), body);
   }
 
   @Patch('catalogue/platforms/:id')
   @Allow('update', 'Catalogue')
-  updatePlatform(@CurrentUser() user: SessionUser, @CurrentAbility() ability: AppAbility, @Param('id', uuid()) id: string, @Body(new ZodValidationPipe(PlatformPatch)) body: PlatformPatch): Promise<CataloguePlatform> {
+  updatePlatform(
+    @CurrentUser() user: SessionUser,
+    @CurrentAbility() ability: AppAbility,
+    @Param('id', uuid()) id: string,
+    @Body(new ZodValidationPipe(PlatformPatch)) body: PlatformPatch,
+  ): Promise<CataloguePlatform> {
     return this.catalogue.updatePlatform(ability, scopeOf(user), id, body);
   }
 
   @Post('catalogue/components')
   @Allow('create', 'Catalogue')
-  createComponent(@CurrentUser() user: SessionUser, @CurrentAbility() ability: AppAbility, @Body(new ZodValidationPipe(ComponentBody)) body: z.output<typeof ComponentBody>): Promise<CatalogueComponent> {
+  createComponent(
+    @CurrentUser() user: SessionUser,
+    @CurrentAbility() ability: AppAbility,
+    @Body(new ZodValidationPipe(ComponentBody)) body: z.output<typeof ComponentBody>,
+  ): Promise<CatalogueComponent> {
     return this.catalogue.createComponent(ability, scopeOf(user), body);
   }
 
   @Patch('catalogue/components/:id')
   @Allow('update', 'Catalogue')
-  updateComponent(@CurrentUser() user: SessionUser, @CurrentAbility() ability: AppAbility, @Param('id', uuid()) id: string, @Body(new ZodValidationPipe(ComponentPatch)) body: ComponentPatch): Promise<CatalogueComponent> {
+  updateComponent(
+    @CurrentUser() user: SessionUser,
+    @CurrentAbility() ability: AppAbility,
+    @Param('id', uuid()) id: string,
+    @Body(new ZodValidationPipe(ComponentPatch)) body: ComponentPatch,
+  ): Promise<CatalogueComponent> {
     return this.catalogue.updateComponent(ability, scopeOf(user), id, body);
   }
 
@@ -80,13 +107,22 @@ export class CatalogueController {
 
   @Post('wrenches')
   @Allow('create', 'Wrench')
-  createWrench(@CurrentUser() user: SessionUser, @CurrentAbility() ability: AppAbility, @Body(new ZodValidationPipe(WrenchBody)) body: z.output<typeof WrenchBody>): Promise<Wrench> {
+  createWrench(
+    @CurrentUser() user: SessionUser,
+    @CurrentAbility() ability: AppAbility,
+    @Body(new ZodValidationPipe(WrenchBody)) body: z.output<typeof WrenchBody>,
+  ): Promise<Wrench> {
     return this.catalogue.createWrench(ability, scopeOf(user), body);
   }
 
   @Patch('wrenches/:id')
   @Allow('update', 'Wrench')
-  updateWrench(@CurrentUser() user: SessionUser, @CurrentAbility() ability: AppAbility, @Param('id', uuid()) id: string, @Body(new ZodValidationPipe(WrenchPatch)) body: WrenchPatch): Promise<Wrench> {
+  updateWrench(
+    @CurrentUser() user: SessionUser,
+    @CurrentAbility() ability: AppAbility,
+    @Param('id', uuid()) id: string,
+    @Body(new ZodValidationPipe(WrenchPatch)) body: WrenchPatch,
+  ): Promise<Wrench> {
     return this.catalogue.updateWrench(ability, scopeOf(user), id, body);
   }
 }

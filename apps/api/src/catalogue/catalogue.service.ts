@@ -6,7 +6,6 @@ import {
   type CatalogueReply,
   type CatalogueSystem,
   type ComponentPatch,
-
   MANUFACTURER_CAUTION,
   type PlatformBody,
   type PlatformPatch,
@@ -46,7 +45,10 @@ export class CatalogueService {
         manufacturer: s.manufacturer,
         platforms: platforms
           .filter((p) => p.systemId === s.id)
-          .map(({ practiceId: _p, ...p }) => ({ ...p, components: components.filter((c) => c.platformId === p.id).map(toComponent) })),
+          .map(({ practiceId: _p, ...p }) => ({
+            ...p,
+            components: components.filter((c) => c.platformId === p.id).map(toComponent),
+          })),
       })),
     };
   }
@@ -70,30 +72,56 @@ export class CatalogueService {
   }
 
   private async platform(scope: Scope, id: string): Promise<CataloguePlatform> {
-    const { practiceId: _p, ...p } = (await repo.findPlatform(this.db, scope.practiceId, id));
+    const { practiceId: _p, ...p } = await repo.findPlatform(this.db, scope.practiceId, id);
     return { ...p, components: (await repo.listComponents(this.db, scope.practiceId, id)).map(toComponent) };
   }
 
   async createPlatform(ability: AppAbility, scope: Scope, body: PlatformBody): Promise<CataloguePlatform> {
-    assertCan(ability, 'update', 'Catalogue', await repo.findSystem(this.db, scope.practiceId, body.systemId), 'implant system');
+    assertCan(
+      ability,
+      'update',
+      'Catalogue',
+      await repo.findSystem(this.db, scope.practiceId, body.systemId),
+      'implant system',
+    );
     const id = await repo.insertPlatform(this.db, { ...body, practiceId: scope.practiceId });
     return this.platform(scope, id);
   }
 
-  async updatePlatform(ability: AppAbility, scope: Scope, id: string, patch: PlatformPatch): Promise<CataloguePlatform> {
+  async updatePlatform(
+    ability: AppAbility,
+    scope: Scope,
+    id: string,
+    patch: PlatformPatch,
+  ): Promise<CataloguePlatform> {
     assertCan(ability, 'update', 'Catalogue', await repo.findPlatform(this.db, scope.practiceId, id), 'platform');
     await repo.updatePlatform(this.db, scope.practiceId, id, patch);
     return this.platform(scope, id);
   }
 
-  async createComponent(ability: AppAbility, scope: Scope, body: z.output<typeof ComponentBodySchema>): Promise<CatalogueComponent> {
-    assertCan(ability, 'create', 'Catalogue', await repo.findPlatform(this.db, scope.practiceId, body.platformId), 'platform');
+  async createComponent(
+    ability: AppAbility,
+    scope: Scope,
+    body: z.output<typeof ComponentBodySchema>,
+  ): Promise<CatalogueComponent> {
+    assertCan(
+      ability,
+      'create',
+      'Catalogue',
+      await repo.findPlatform(this.db, scope.practiceId, body.platformId),
+      'platform',
+    );
     const id = await repo.insertComponent(this.db, { ...body, practiceId: scope.practiceId });
     return toComponent((await repo.findComponents(this.db, scope.practiceId, [id]))[0]);
   }
 
   /** Create + update only: a part recorded in a patient is never deleted, so history keeps its meaning. */
-  async updateComponent(ability: AppAbility, scope: Scope, id: string, patch: ComponentPatch): Promise<CatalogueComponent> {
+  async updateComponent(
+    ability: AppAbility,
+    scope: Scope,
+    id: string,
+    patch: ComponentPatch,
+  ): Promise<CatalogueComponent> {
     const [row] = await repo.findComponents(this.db, scope.practiceId, [id]);
     assertCan(ability, 'update', 'Catalogue', row, 'component');
     await repo.updateComponent(this.db, scope.practiceId, id, patch);
@@ -107,13 +135,12 @@ export class CatalogueService {
   async createWrench(ability: AppAbility, scope: Scope, body: z.output<typeof WrenchBody>): Promise<Wrench> {
     assertCan(ability, 'create', 'Wrench', { practiceId: scope.practiceId }, 'wrench');
     const id = await repo.insertWrench(this.db, { ...body, practiceId: scope.practiceId });
-    return toWrench((await repo.findWrench(this.db, scope.practiceId, id)));
+    return toWrench(await repo.findWrench(this.db, scope.practiceId, id));
   }
 
   async updateWrench(ability: AppAbility, scope: Scope, id: string, patch: WrenchPatch): Promise<Wrench> {
     assertCan(ability, 'update', 'Wrench', await repo.findWrench(this.db, scope.practiceId, id), 'wrench');
     await repo.updateWrench(this.db, scope.practiceId, id, patch);
-    return toWrench((await repo.findWrench(this.db, scope.practiceId, id)));
+    return toWrench(await repo.findWrench(this.db, scope.practiceId, id));
   }
 }
-

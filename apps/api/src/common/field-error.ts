@@ -5,4 +5,11 @@ import { BadRequestException } from '@nestjs/common';
  * web shows it beside the inputs. The message defaults to every "path: problem" joined.
  */
 export const fieldError = (fields: Record<string, string>, message?: string) =>
-  new BadRequestException({ message: message ?? Object.entries(fields).map(([k, v]) => `${k}: ${v}`).join('; '), fields });
+  new BadRequestException({
+    message:
+      message ??
+      Object.entries(fields)
+        .map(([k, v]) => `${k}: ${v}`)
+        .join('; '),
+    fields,
+  });

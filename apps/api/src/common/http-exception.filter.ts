@@ -40,7 +40,11 @@ export class HttpExceptionFilter implements ExceptionFilter {
       };
     } else {
       req.log?.error({ err: errorForLog(exception) }, 'unexpected error');
-      reply = { statusCode: HttpStatus.INTERNAL_SERVER_ERROR, error: STATUS_TEXT[500], message: 'Something went wrong on the server' };
+      reply = {
+        statusCode: HttpStatus.INTERNAL_SERVER_ERROR,
+        error: STATUS_TEXT[500],
+        message: 'Something went wrong on the server',
+      };
     }
     res.status(reply.statusCode).json({ ...reply, requestId: typeof req.id === 'string' ? req.id : undefined });
   }

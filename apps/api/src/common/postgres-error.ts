@@ -6,7 +6,11 @@ export interface PostgresError {
 
 /** The PostgreSQL error itself, also when drizzle wraps it (DrizzleQueryError keeps it as `cause`). */
 export function postgresError(error: unknown): PostgresError | null {
-  for (let e = error, depth = 0; typeof e === 'object' && e !== null && depth < 5; e = (e as { cause?: unknown }).cause, depth++) {
+  for (
+    let e = error, depth = 0;
+    typeof e === 'object' && e !== null && depth < 5;
+    e = (e as { cause?: unknown }).cause, depth++
+  ) {
     if (typeof (e as { code?: unknown }).code === 'string') return e as PostgresError;
   }
   return null;

@@ -15,7 +15,11 @@ export class ComplicationsController {
 
   @Post()
   @Allow('create', 'Complication')
-  create(@CurrentUser() user: SessionUser, @CurrentAbility() ability: AppAbility, @Body(new ZodValidationPipe(ComplicationBody)) body: z.output<typeof ComplicationBody>): Promise<Complication> {
+  create(
+    @CurrentUser() user: SessionUser,
+    @CurrentAbility() ability: AppAbility,
+    @Body(new ZodValidationPipe(ComplicationBody)) body: z.output<typeof ComplicationBody>,
+  ): Promise<Complication> {
     return this.complications.create(ability, user, scopeOf(user), body);
   }
 

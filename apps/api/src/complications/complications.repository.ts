@@ -17,7 +17,10 @@ export async function findVisibleSite(db: Db, scope: Scope, siteId: string) {
 
 /** A part instance of the given site (current or removed). */
 export async function findPartAtSite(db: Db, siteId: string, componentInstanceId: string) {
-  const [row] = await db.select({ id: componentInstances.id }).from(componentInstances).where(and(eq(componentInstances.id, componentInstanceId), eq(componentInstances.siteId, siteId)));
+  const [row] = await db
+    .select({ id: componentInstances.id })
+    .from(componentInstances)
+    .where(and(eq(componentInstances.id, componentInstanceId), eq(componentInstances.siteId, siteId)));
   return row ?? null;
 }
 
@@ -29,7 +32,10 @@ export async function insertComplication(db: Db, v: ComplicationValues) {
 }
 
 /** A new version of a complication; a second amendment of one version is refused by the database. */
-export const insertComplicationAmendment = (db: Db, v: ComplicationValues & { supersedesId: string; amendmentReason: string }) => insertAmendment(db, complications, v);
+export const insertComplicationAmendment = (
+  db: Db,
+  v: ComplicationValues & { supersedesId: string; amendmentReason: string },
+) => insertAmendment(db, complications, v);
 
 /** The entry with its scope, if the user may see its patient; `supersededById` when already amended. */
 export async function findVisibleComplication(db: Db, scope: Scope, id: string) {

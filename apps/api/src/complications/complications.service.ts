@@ -15,30 +15,74 @@ export class ComplicationsService {
 
   private async checkPart(siteId: string, componentInstanceId: string | null) {
     if (!componentInstanceId) return;
-    if (!(await repo.findPartAtSite(this.db, siteId, componentInstanceId))) throw fieldError({ componentInstanceId: 'Not a part at this site' });
+    if (!(await repo.findPartAtSite(this.db, siteId, componentInstanceId)))
+      throw fieldError({ componentInstanceId: 'Not a part at this site' });
   }
 
   private checkDate(occurredOn: string) {
     if (occurredOn > new Date().toISOString().slice(0, 10)) throw fieldError({ occurredOn: 'Cannot be in the future' });
   }
 
-  async create(ability: AppAbility, user: SessionUser, scope: Scope, body: z.output<typeof ComplicationBody>): Promise<Complication> {
+  async create(
+    ability: AppAbility,
+    user: SessionUser,
+    scope: Scope,
+    body: z.output<typeof ComplicationBody>,
+  ): Promise<Complication> {
     const site = await repo.findVisibleSite(this.db, scope, body.siteId);
-    assertCan(ability, 'create', 'Complication', site ? { practiceId: site.practiceId, patientId: site.patientId } : null, 'implant site');
+    assertCan(
+      ability,
+      'create',
+      'Complication',
+      site ? { practiceId: site.practiceId, patientId: site.patientId } : null,
+      'implant site',
+    );
     this.checkDate(body.occurredOn);
     await this.checkPart(body.siteId, body.componentInstanceId);
-    const id = await repo.insertComplication(this.db, { practiceId: site.practiceId, patientId: site.patientId, siteId: site.id, componentInstanceId: body.componentInstanceId, kind: body.kind, occurredOn: body.occurredOn, notes: body.notes, recordedBy: user.id });
+    const id = await repo.insertComplication(this.db, {
+      practiceId: site.practiceId,
+      patientId: site.patientId,
+      siteId: site.id,
+      componentInstanceId: body.componentInstanceId,
+      kind: body.kind,
+      occurredOn: body.occurredOn,
+      notes: body.notes,
+      recordedBy: user.id,
+    });
     return repo.loadComplication(this.db, id);
   }
 
   /** A new version superseding the old entry; the old one stays, marked as amended. */
-  async amend(ability: AppAbility, user: SessionUser, scope: Scope, id: string, body: z.output<typeof ComplicationAmendmentBody>): Promise<Complication> {
-    const found = assertCan(ability, 'amend', 'Complication', await repo.findVisibleComplication(this.db, scope, id), 'complication');
+  async amend(
+    ability: AppAbility,
+    user: SessionUser,
+    scope: Scope,
+    id: string,
+    body: z.output<typeof ComplicationAmendmentBody>,
+  ): Promise<Complication> {
+    const found = assertCan(
+      ability,
+      'amend',
+      'Complication',
+      await repo.findVisibleComplication(this.db, scope, id),
+      'complication',
+    );
     if (found.supersededById) throw alreadyAmended('complications');
     this.checkDate(body.occurredOn);
     await this.checkPart(found.siteId, body.componentInstanceId);
     // Of two concurrent amendments of one entry the database saves the first (insertAmendment).
-    const newId = await repo.insertComplicationAmendment(this.db, { practiceId: found.practiceId, patientId: found.patientId, siteId: found.siteId, componentInstanceId: body.componentInstanceId, kind: body.kind, occurredOn: body.occurredOn, notes: body.notes, supersedesId: found.id, amendmentReason: body.amendmentReason, recordedBy: user.id });
+    const newId = await repo.insertComplicationAmendment(this.db, {
+      practiceId: found.practiceId,
+      patientId: found.patientId,
+      siteId: found.siteId,
+      componentInstanceId: body.componentInstanceId,
+      kind: body.kind,
+      occurredOn: body.occurredOn,
+      notes: body.notes,
+      supersedesId: found.id,
+      amendmentReason: body.amendmentReason,
+      recordedBy: user.id,
+    });
     return repo.loadComplication(this.db, newId);
   }
 }

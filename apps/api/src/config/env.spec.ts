@@ -15,7 +15,8 @@ describe('parseEnv', () => {
   it('names every missing or malformed key', () => {
     const attempt = () => parseEnv({ JWT_SECRET: 'short' });
     expect(attempt).toThrow(ConfigError);
-    for (const key of ['DATABASE_URL', 'S3_ENDPOINT', 'S3_BUCKET', 'SMTP_PORT', 'JWT_SECRET']) expect(attempt).toThrow(new RegExp(`\\b${key}: `));
+    for (const key of ['DATABASE_URL', 'S3_ENDPOINT', 'S3_BUCKET', 'SMTP_PORT', 'JWT_SECRET'])
+      expect(attempt).toThrow(new RegExp(`\\b${key}: `));
   });
 
   it('sends the session cookie over HTTPS only by default in production, not on loopback development', () => {

@@ -20,7 +20,11 @@ const EnvSchema = z.object({
   MAIL_FROM: z.string().default('Torquetrail <no-reply@torquetrail.local>'),
   JWT_SECRET: z.string().min(32, { error: 'JWT_SECRET must be at least 32 characters' }),
   /** Session length in seconds. */
-  SESSION_TTL_S: z.coerce.number().int().positive().default(8 * 3600),
+  SESSION_TTL_S: z.coerce
+    .number()
+    .int()
+    .positive()
+    .default(8 * 3600),
   /** Send the session cookie over HTTPS only; defaults to on in production, off on loopback development. */
   COOKIE_SECURE: z.enum(['true', 'false']).optional(),
   /** Sign-in attempts allowed per e-mail and address per minute. */
@@ -40,12 +44,19 @@ const EnvSchema = z.object({
   TRUST_PROXY: z
     .string()
     .default('false')
-    .transform((v): boolean | number | string => (v === 'true' ? true : v === 'false' || v === '' ? false : /^\d+$/.test(v) ? Number(v) : v)),
+    .transform((v): boolean | number | string =>
+      v === 'true' ? true : v === 'false' || v === '' ? false : /^\d+$/.test(v) ? Number(v) : v,
+    ),
   /** Origins besides the app's own allowed to send state-changing requests (comma-separated), e.g. a separate web host. */
   EXTRA_ORIGINS: z
     .string()
     .default('')
-    .transform((v) => v.split(',').map((o) => o.trim()).filter(Boolean)),
+    .transform((v) =>
+      v
+        .split(',')
+        .map((o) => o.trim())
+        .filter(Boolean),
+    ),
   /** pino log level; `info` logs start-up and refused requests, `debug` every request. */
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   /** The built web app to serve from the same origin; unset in API-only tests. */
@@ -63,7 +74,10 @@ export function parseEnv(source: NodeJS.ProcessEnv = process.env): Env {
     throw new ConfigError(`The API's environment is incomplete:\n${problems}`);
   }
   const { COOKIE_SECURE, ...rest } = result.data;
-  return { ...rest, COOKIE_SECURE: COOKIE_SECURE === undefined ? rest.NODE_ENV === 'production' : COOKIE_SECURE === 'true' };
+  return {
+    ...rest,
+    COOKIE_SECURE: COOKIE_SECURE === undefined ? rest.NODE_ENV === 'production' : COOKIE_SECURE === 'true',
+  };
 }
 
 /** Nest injection token for the parsed environment. */

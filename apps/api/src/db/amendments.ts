@@ -30,7 +30,11 @@ type Superseding = PgTable & { id: AnyPgColumn; supersedesId: AnyPgColumn };
  * a unique violation, which HttpExceptionFilter answers 409 (common/amendment-conflict.ts). No row
  * lock or re-check is needed for that; a caller locks only what else its amendment must exclude.
  */
-export async function insertAmendment<T extends Superseding>(db: Db, table: T, values: PgInsertValue<T> & { supersedesId: string; amendmentReason: string }): Promise<string> {
+export async function insertAmendment<T extends Superseding>(
+  db: Db,
+  table: T,
+  values: PgInsertValue<T> & { supersedesId: string; amendmentReason: string },
+): Promise<string> {
   const [row] = (await db.insert(table).values(values).returning({ id: table.id })) as { id: string }[];
   return row.id;
 }

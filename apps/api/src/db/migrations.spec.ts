@@ -16,7 +16,13 @@ describe('drizzle migrations', () => {
       const before = fs.readdirSync(path.join(root, scratch)).sort();
       const out = execFileSync(
         process.execPath,
-        [path.join(root, 'node_modules/drizzle-kit/bin.cjs'), 'generate', '--dialect=postgresql', '--schema=./apps/api/src/db/schema/index.ts', `--out=./${scratch}`],
+        [
+          path.join(root, 'node_modules/drizzle-kit/bin.cjs'),
+          'generate',
+          '--dialect=postgresql',
+          '--schema=./apps/api/src/db/schema/index.ts',
+          `--out=./${scratch}`,
+        ],
         { cwd: root, encoding: 'utf8', stdio: ['ignore', 'pipe', 'pipe'] },
       );
       expect(out).toContain('No schema changes');
@@ -27,8 +33,13 @@ describe('drizzle migrations', () => {
   }, 60_000);
 
   it('are numbered in sequence with a journal entry for each SQL file', () => {
-    const journal = JSON.parse(fs.readFileSync(path.join(root, 'drizzle/meta/_journal.json'), 'utf8')) as { entries: { idx: number; tag: string }[] };
-    const sqlFiles = fs.readdirSync(path.join(root, 'drizzle')).filter((f) => f.endsWith('.sql')).sort();
+    const journal = JSON.parse(fs.readFileSync(path.join(root, 'drizzle/meta/_journal.json'), 'utf8')) as {
+      entries: { idx: number; tag: string }[];
+    };
+    const sqlFiles = fs
+      .readdirSync(path.join(root, 'drizzle'))
+      .filter((f) => f.endsWith('.sql'))
+      .sort();
     expect(journal.entries.map((e) => `${e.tag}.sql`)).toEqual(sqlFiles);
     expect(journal.entries.map((e) => e.idx)).toEqual(sqlFiles.map((_, i) => i));
   });

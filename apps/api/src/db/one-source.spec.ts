@@ -50,7 +50,9 @@ function copies(file: string): string[] {
 
 describe('one source per enumeration', () => {
   it('finds the shared lists and their definitions (the scan itself works)', () => {
-    expect([...lists.keys()]).toEqual(expect.arrayContaining(['ROLES', 'TORQUE_VERDICTS', 'TORQUE_REASONS', 'CONNECTIONS', 'PROBING_POSITIONS']));
+    expect([...lists.keys()]).toEqual(
+      expect.arrayContaining(['ROLES', 'TORQUE_VERDICTS', 'TORQUE_REASONS', 'CONNECTIONS', 'PROBING_POSITIONS']),
+    );
     const domainTorque = path.join(root, 'packages/domain/src/torque.ts');
     expect(fs.readFileSync(domainTorque, 'utf8').match(literalArray)?.length).toBeGreaterThan(0);
     expect(copies(domainTorque)).toEqual([]);

@@ -29,7 +29,11 @@ export class HealthController {
   @Public()
   @Get(['', 'ready'])
   async ready(@Res({ passthrough: true }) res: Response): Promise<HealthReply> {
-    const [database, objectStorage, mail] = await Promise.all([databaseAnswers(this.db), this.storage.isUp(), this.mail.isUp()]);
+    const [database, objectStorage, mail] = await Promise.all([
+      databaseAnswers(this.db),
+      this.storage.isUp(),
+      this.mail.isUp(),
+    ]);
     const state = (up: boolean): ServiceState => (up ? 'up' : 'down');
     const ready = database && objectStorage;
     res.status(ready ? 200 : 503);

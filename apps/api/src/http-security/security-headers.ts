@@ -29,7 +29,11 @@ const hsts = helmet.strictTransportSecurity({ maxAge: 31_536_000, includeSubDoma
  */
 export function securityHeaders(): RequestHandler[] {
   return [
-    helmet({ contentSecurityPolicy: CONTENT_SECURITY_POLICY, strictTransportSecurity: false, referrerPolicy: { policy: 'same-origin' } }),
+    helmet({
+      contentSecurityPolicy: CONTENT_SECURITY_POLICY,
+      strictTransportSecurity: false,
+      referrerPolicy: { policy: 'same-origin' },
+    }),
     (req: Request, res: Response, next: NextFunction) => (req.secure ? hsts(req, res, next) : next()),
     (req: Request, res: Response, next: NextFunction) => {
       if (req.path === '/api' || req.path.startsWith('/api/')) res.setHeader('Cache-Control', 'no-store');

@@ -67,10 +67,15 @@ const LABELS: Record<string, string> = {
 };
 const label = (v: string) => LABELS[v] ?? v;
 
-const torque = (p: PrescriptionPart) => (p.torqueSpecNcm === null ? 'hand-tight' : `${p.torqueSpecNcm} N·cm ±${p.tolerancePct} %`);
+const torque = (p: PrescriptionPart) =>
+  p.torqueSpecNcm === null ? 'hand-tight' : `${p.torqueSpecNcm} N·cm ±${p.tolerancePct} %`;
 
 export function renderLabPrescription(input: PrescriptionInput): Promise<Buffer> {
-  const doc = new PDFDocument({ size: 'A4', margin: 50, info: { Title: `Lab prescription ${input.chartNumber}`, Author: input.practiceName } });
+  const doc = new PDFDocument({
+    size: 'A4',
+    margin: 50,
+    info: { Title: `Lab prescription ${input.chartNumber}`, Author: input.practiceName },
+  });
   const chunks: Buffer[] = [];
   const done = new Promise<Buffer>((resolve, reject) => {
     doc.on('data', (c: Buffer) => chunks.push(c));
@@ -82,26 +87,41 @@ export function renderLabPrescription(input: PrescriptionInput): Promise<Buffer>
   doc.font('Helvetica').fontSize(10).text(input.practiceName);
   doc.moveDown(0.5);
   doc.text(`Patient: ${input.chartNumber} (${input.initials})`);
-  doc.text(`Issued: ${input.issuedOn}${input.dueOn ? `    Due: ${input.dueOn}` : ''}${input.labName ? `    Laboratory: ${input.labName}` : ''}`);
+  doc.text(
+    `Issued: ${input.issuedOn}${input.dueOn ? `    Due: ${input.dueOn}` : ''}${input.labName ? `    Laboratory: ${input.labName}` : ''}`,
+  );
   doc.moveDown(0.5);
   doc.font('Helvetica-Bold').text(`${label(input.kind)}: ${label(input.retention)}`);
   doc.font('Helvetica').text(`Material: ${label(input.material)}${input.shade ? `    Shade: ${input.shade}` : ''}`);
-  doc.text(`Impression: ${input.impressionTakenOn ? `taken ${input.impressionTakenOn}, ` : ''}copings ${input.copingsSplinted ? 'splinted together before the impression' : 'not splinted'}`);
+  doc.text(
+    `Impression: ${input.impressionTakenOn ? `taken ${input.impressionTakenOn}, ` : ''}copings ${input.copingsSplinted ? 'splinted together before the impression' : 'not splinted'}`,
+  );
   doc.moveDown();
 
   for (const site of input.sites) {
-    doc.font('Helvetica-Bold').fontSize(11).text(`Site ${site.fdi} (FDI) / ${fdiToUniversal(site.fdi)} (Universal)`);
+    doc
+      .font('Helvetica-Bold')
+      .fontSize(11)
+      .text(`Site ${site.fdi} (FDI) / ${fdiToUniversal(site.fdi)} (Universal)`);
     doc.font('Helvetica').fontSize(10);
     const implant = site.systemName
       ? `${site.systemName} (${site.manufacturer}), platform ${site.platformName}, ${site.diameterMm} mm, ${label(site.connection ?? '')} connection`
       : 'no placement recorded';
     doc.text(`Implant: ${implant}`, { indent: 12 });
-    doc.text(`Interface: ${site.interface}${site.multiUnitAngleDeg !== null ? `; multi-unit angle ${site.multiUnitAngleDeg}°` : ''}${site.restorativeSpaceMm !== null ? `; restorative space ${site.restorativeSpaceMm} mm` : ''}`, { indent: 12 });
-    const chain = site.parts.filter((p) => p.kind !== 'impression-coping').sort((a, b) => STACK_ORDER.indexOf(a.kind as ComponentKind) - STACK_ORDER.indexOf(b.kind as ComponentKind));
+    doc.text(
+      `Interface: ${site.interface}${site.multiUnitAngleDeg !== null ? `; multi-unit angle ${site.multiUnitAngleDeg}°` : ''}${site.restorativeSpaceMm !== null ? `; restorative space ${site.restorativeSpaceMm} mm` : ''}`,
+      { indent: 12 },
+    );
+    const chain = site.parts
+      .filter((p) => p.kind !== 'impression-coping')
+      .sort((a, b) => STACK_ORDER.indexOf(a.kind as ComponentKind) - STACK_ORDER.indexOf(b.kind as ComponentKind));
     for (const p of chain) doc.text(`> ${p.name} [${p.referenceCode}]: ${torque(p)}`, { indent: 24 });
     if (chain.length === 0) doc.text('> no parts chosen', { indent: 24 });
     const copings = site.parts.filter((p) => p.kind === 'impression-coping');
-    const copingText = copings.length > 0 ? copings.map((c) => `${c.name} [${c.referenceCode}]`).join(', ') : 'none chosen from the catalogue';
+    const copingText =
+      copings.length > 0
+        ? copings.map((c) => `${c.name} [${c.referenceCode}]`).join(', ')
+        : 'none chosen from the catalogue';
     doc.text(`Impression technique: ${site.impressionCoping} coping; ${copingText}`, { indent: 12 });
     doc.moveDown(0.6);
   }

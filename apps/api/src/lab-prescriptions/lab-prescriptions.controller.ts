@@ -28,8 +28,16 @@ export class LabPrescriptionsController {
 
   @Get('lab-prescriptions/:id/pdf')
   @Allow('read', 'Restoration')
-  async download(@CurrentUser() user: SessionUser, @CurrentAbility() ability: AppAbility, @Param('id', uuid()) id: string): Promise<StreamableFile> {
+  async download(
+    @CurrentUser() user: SessionUser,
+    @CurrentAbility() ability: AppAbility,
+    @Param('id', uuid()) id: string,
+  ): Promise<StreamableFile> {
     const { pdf, filename } = await this.labs.download(ability, scopeOf(user), id);
-    return new StreamableFile(pdf, { type: 'application/pdf', disposition: `attachment; filename="${filename}"`, length: pdf.length });
+    return new StreamableFile(pdf, {
+      type: 'application/pdf',
+      disposition: `attachment; filename="${filename}"`,
+      length: pdf.length,
+    });
   }
 }

@@ -4,5 +4,9 @@ import { LabPrescriptionsController } from './lab-prescriptions.controller.js';
 import { LabPrescriptionsService } from './lab-prescriptions.service.js';
 
 // The restoration and its sites come from RestorationsService (exported by its module).
-@Module({ imports: [RestorationsModule], controllers: [LabPrescriptionsController], providers: [LabPrescriptionsService] })
+@Module({
+  imports: [RestorationsModule],
+  controllers: [LabPrescriptionsController],
+  providers: [LabPrescriptionsService],
+})
 export class LabPrescriptionsModule {}

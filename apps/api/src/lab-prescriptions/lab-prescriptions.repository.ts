@@ -16,7 +16,13 @@ export async function markEmailed(db: Db, id: string, emailedTo: string, emailed
 /** A stored lab prescription, if the user may see its patient, with the chart number for its file name. */
 export async function findVisibleLabPrescription(db: Db, scope: Scope, id: string) {
   const [row] = await db
-    .select({ id: labPrescriptions.id, practiceId: labPrescriptions.practiceId, patientId: labPrescriptions.patientId, objectKey: labPrescriptions.objectKey, chartNumber: patients.chartNumber })
+    .select({
+      id: labPrescriptions.id,
+      practiceId: labPrescriptions.practiceId,
+      patientId: labPrescriptions.patientId,
+      objectKey: labPrescriptions.objectKey,
+      chartNumber: patients.chartNumber,
+    })
     .from(labPrescriptions)
     .innerJoin(patients, eq(patients.id, labPrescriptions.patientId))
     .where(and(eq(labPrescriptions.id, id), visiblePatients(scope)));

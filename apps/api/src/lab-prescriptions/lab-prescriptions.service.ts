@@ -13,9 +13,11 @@ import { renderLabPrescription } from './lab-prescription.pdf.js';
 import * as repo from './lab-prescriptions.repository.js';
 
 /** A file name safe in a Content-Disposition header and a mail attachment, whatever the chart number holds. */
-export const pdfFilename = (chartNumber: string) => `lab-prescription-${chartNumber.replace(/[^A-Za-z0-9_-]+/g, '_').slice(0, 40)}.pdf`;
+export const pdfFilename = (chartNumber: string) =>
+  `lab-prescription-${chartNumber.replace(/[^A-Za-z0-9_-]+/g, '_').slice(0, 40)}.pdf`;
 
-const initials = (given: string, family: string) => `${given.trim()[0] ?? ''}. ${family.trim()[0] ?? ''}.`.toUpperCase();
+const initials = (given: string, family: string) =>
+  `${given.trim()[0] ?? ''}. ${family.trim()[0] ?? ''}.`.toUpperCase();
 
 @Injectable()
 export class LabPrescriptionsService {
@@ -30,8 +32,20 @@ export class LabPrescriptionsService {
    * Renders the PDF, stores it in S3, then records it; the e-mail goes out afterwards. No
    * transaction is open while S3 or SMTP is called: the row is written only once the object exists.
    */
-  async generate(ability: AppAbility, user: SessionUser, scope: Scope, restorationId: string, emailToLab: boolean): Promise<LabPrescriptionSummary> {
-    const r = assertCan(ability, 'create', 'Restoration', await this.restorations.findVisible(scope, restorationId), 'restoration');
+  async generate(
+    ability: AppAbility,
+    user: SessionUser,
+    scope: Scope,
+    restorationId: string,
+    emailToLab: boolean,
+  ): Promise<LabPrescriptionSummary> {
+    const r = assertCan(
+      ability,
+      'create',
+      'Restoration',
+      await this.restorations.findVisible(scope, restorationId),
+      'restoration',
+    );
     if (emailToLab && !r.labEmail) throw fieldError({ emailToLab: 'The plan has no lab e-mail address' });
     const { patient, sites } = await this.restorations.labSheet(scope, r);
     const id = randomUUID();
@@ -54,7 +68,15 @@ export class LabPrescriptionsService {
     });
     const objectKey = `practices/${r.practiceId}/lab-prescriptions/${id}.pdf`;
     await this.storage.put(objectKey, pdf, 'application/pdf');
-    const row = await repo.insertLabPrescription(this.db, { id, practiceId: r.practiceId, patientId: r.patientId, restorationId: r.id, objectKey, sizeBytes: pdf.length, createdBy: user.id });
+    const row = await repo.insertLabPrescription(this.db, {
+      id,
+      practiceId: r.practiceId,
+      patientId: r.patientId,
+      restorationId: r.id,
+      objectKey,
+      sizeBytes: pdf.length,
+      createdBy: user.id,
+    });
     let emailedAt: Date | null = null;
     if (emailToLab && r.labEmail) {
       try {
@@ -66,16 +88,30 @@ export class LabPrescriptionsService {
           headers: { 'X-Torquetrail-Lab-Prescription': id },
         });
       } catch {
-        throw new ServiceUnavailableException('The lab prescription was saved, but the e-mail to the lab could not be sent; try again later');
+        throw new ServiceUnavailableException(
+          'The lab prescription was saved, but the e-mail to the lab could not be sent; try again later',
+        );
       }
       emailedAt = new Date();
       await repo.markEmailed(this.db, id, r.labEmail, emailedAt);
     }
-    return { id, sizeBytes: pdf.length, emailedTo: emailedAt ? r.labEmail : null, emailedAt: emailedAt?.toISOString() ?? null, createdAt: row.createdAt.toISOString() };
+    return {
+      id,
+      sizeBytes: pdf.length,
+      emailedTo: emailedAt ? r.labEmail : null,
+      emailedAt: emailedAt?.toISOString() ?? null,
+      createdAt: row.createdAt.toISOString(),
+    };
   }
 
   async download(ability: AppAbility, scope: Scope, id: string): Promise<{ pdf: Buffer; filename: string }> {
-    const found = assertCan(ability, 'read', 'Restoration', await repo.findVisibleLabPrescription(this.db, scope, id), 'lab prescription');
+    const found = assertCan(
+      ability,
+      'read',
+      'Restoration',
+      await repo.findVisibleLabPrescription(this.db, scope, id),
+      'lab prescription',
+    );
     return { pdf: await this.storage.get(found.objectKey), filename: pdfFilename(found.chartNumber) };
   }
 }

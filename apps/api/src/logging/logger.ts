@@ -13,7 +13,10 @@ export function createLogger(level: string, destination?: DestinationStream): Lo
   const options = {
     level,
     base: { service: 'torquetrail-api' },
-    redact: { paths: ['req.headers.cookie', 'req.headers.authorization', 'res.headers["set-cookie"]'], censor: '[redacted]' },
+    redact: {
+      paths: ['req.headers.cookie', 'req.headers.authorization', 'res.headers["set-cookie"]'],
+      censor: '[redacted]',
+    },
   };
   return destination ? pino(options, destination) : pino(options);
 }
@@ -33,9 +36,14 @@ export function httpLogger(logger: Logger) {
   return pinoHttp({
     logger,
     genReqId: requestId,
-    customLogLevel: (_req, res, error) => (error || res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'info' : 'debug'),
+    customLogLevel: (_req, res, error) =>
+      error || res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'info' : 'debug',
     serializers: {
-      req: (req: { id: string; method: string; url: string }) => ({ id: req.id, method: req.method, path: req.url.split('?')[0] }),
+      req: (req: { id: string; method: string; url: string }) => ({
+        id: req.id,
+        method: req.method,
+        path: req.url.split('?')[0],
+      }),
       res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
     },
   });
@@ -54,7 +62,10 @@ export function errorForLog(error: unknown): Record<string, unknown> {
     ...(typeof cause?.code === 'string' ? { pgCode: cause.code } : {}),
     ...(typeof cause?.constraint === 'string' ? { constraint: cause.constraint } : {}),
     message: isQuery ? 'database query failed (query and parameters withheld)' : error.message,
-    stack: error.stack?.split('\n').filter((line) => line.trimStart().startsWith('at ')).join('\n'),
+    stack: error.stack
+      ?.split('\n')
+      .filter((line) => line.trimStart().startsWith('at '))
+      .join('\n'),
   };
 }
 

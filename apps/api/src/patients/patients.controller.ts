@@ -14,7 +14,10 @@ export class PatientsController {
 
   @Get()
   @Allow('read', 'Patient')
-  list(@CurrentUser() user: SessionUser, @Query(new ZodValidationPipe(PatientListQuery)) query: PatientListQuery): Promise<PatientListReply> {
+  list(
+    @CurrentUser() user: SessionUser,
+    @Query(new ZodValidationPipe(PatientListQuery)) query: PatientListQuery,
+  ): Promise<PatientListReply> {
     return this.patients.list(scopeOf(user), query.search);
   }
 

@@ -13,7 +13,13 @@ export async function listPatients(db: Db, scope: Scope, search?: string) {
     const words = search.split(/\s+/).filter(Boolean).slice(0, 5);
     for (const word of words) {
       const pattern = `%${escapeLike(word)}%`;
-      filters.push(or(ilike(patients.givenName, pattern), ilike(patients.familyName, pattern), ilike(patients.chartNumber, pattern))!);
+      filters.push(
+        or(
+          ilike(patients.givenName, pattern),
+          ilike(patients.familyName, pattern),
+          ilike(patients.chartNumber, pattern),
+        )!,
+      );
     }
   }
   return db
@@ -66,13 +72,7 @@ export async function listSitesOfPatient(db: Db, patientId: string) {
       systemName: implantSystems.name,
     })
     .from(implantSites)
-    .leftJoin(
-      placements,
-      and(
-        eq(placements.siteId, implantSites.id),
-        isCurrentVersion(placements),
-      ),
-    )
+    .leftJoin(placements, and(eq(placements.siteId, implantSites.id), isCurrentVersion(placements)))
     .leftJoin(platforms, eq(platforms.id, placements.platformId))
     .leftJoin(implantSystems, eq(implantSystems.id, platforms.systemId))
     .where(eq(implantSites.patientId, patientId))

@@ -19,8 +19,12 @@ export class PatientsService {
 
   async detail(ability: AppAbility, scope: Scope, id: string): Promise<PatientDetail> {
     const patient = assertCan(ability, 'read', 'Patient', await findVisiblePatient(this.db, scope, id), 'patient');
-    const sites = (await listSitesOfPatient(this.db, patient.id)).filter((site) => ability.can('read', subjectOf(site)));
-    const exams = ability.can('read', subject('RecallExam', { practiceId: patient.practiceId, patientId: patient.id })) ? await this.maintenance.latestBySite(sites.map((s) => s.id)) : new Map();
+    const sites = (await listSitesOfPatient(this.db, patient.id)).filter((site) =>
+      ability.can('read', subjectOf(site)),
+    );
+    const exams = ability.can('read', subject('RecallExam', { practiceId: patient.practiceId, patientId: patient.id }))
+      ? await this.maintenance.latestBySite(sites.map((s) => s.id))
+      : new Map();
     return {
       id: patient.id,
       practiceId: patient.practiceId,

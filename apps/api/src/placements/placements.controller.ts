@@ -1,6 +1,13 @@
 import { Body, Controller, Get, Param, ParseUUIDPipe, Post, HttpStatus } from '@nestjs/common';
 import type { AppAbility } from '@torquetrail/authz';
-import { AddSiteBody, type ArchSite, PlacementAmendmentBody, PlacementBody, type PlacementOptionsReply, type PlacementRecord } from '@torquetrail/contracts';
+import {
+  AddSiteBody,
+  type ArchSite,
+  PlacementAmendmentBody,
+  PlacementBody,
+  type PlacementOptionsReply,
+  type PlacementRecord,
+} from '@torquetrail/contracts';
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
 import { Allow } from '../authz/check-ability.decorator.js';
@@ -28,7 +35,11 @@ export class PlacementsController {
 
   @Get('sites/:id/placement-options')
   @Allow('create', 'Placement')
-  options(@CurrentUser() user: SessionUser, @CurrentAbility() ability: AppAbility, @Param('id', uuid()) id: string): Promise<PlacementOptionsReply> {
+  options(
+    @CurrentUser() user: SessionUser,
+    @CurrentAbility() ability: AppAbility,
+    @Param('id', uuid()) id: string,
+  ): Promise<PlacementOptionsReply> {
     return this.placements.placementOptions(ability, scopeOf(user), id);
   }
 

@@ -1,21 +1,39 @@
 import { and, asc, eq, inArray, notInArray } from 'drizzle-orm';
 import { CLOSURE_KINDS } from '@torquetrail/contracts';
 import type { Db, Tx } from '../db/database.js';
-import { componentInstances, components, implantSites, implantSystems, patients, placements, platforms, users } from '../db/schema/index.js';
+import {
+  componentInstances,
+  components,
+  implantSites,
+  implantSystems,
+  patients,
+  placements,
+  platforms,
+  users,
+} from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
 import { visiblePatients } from '../authz/visible-patients.js';
 import { insertAmendment, supersededById } from '../db/amendments.js';
 
 /** A patient the user may see (scoped in SQL), with the practice a new site belongs to. */
 export async function findVisiblePatient(db: Db, scope: Scope, patientId: string) {
-  const [row] = await db.select({ id: patients.id, practiceId: patients.practiceId }).from(patients).where(and(eq(patients.id, patientId), visiblePatients(scope)));
+  const [row] = await db
+    .select({ id: patients.id, practiceId: patients.practiceId })
+    .from(patients)
+    .where(and(eq(patients.id, patientId), visiblePatients(scope)));
   return row ?? null;
 }
 
 /** A site whose patient the user may see, with its position and status. */
 export async function findVisibleSite(db: Db, scope: Scope, siteId: string) {
   const [row] = await db
-    .select({ id: implantSites.id, practiceId: implantSites.practiceId, patientId: implantSites.patientId, fdi: implantSites.fdi, status: implantSites.status })
+    .select({
+      id: implantSites.id,
+      practiceId: implantSites.practiceId,
+      patientId: implantSites.patientId,
+      fdi: implantSites.fdi,
+      status: implantSites.status,
+    })
     .from(implantSites)
     .innerJoin(patients, eq(patients.id, implantSites.patientId))
     .where(and(eq(implantSites.id, siteId), visiblePatients(scope)));
@@ -27,18 +45,32 @@ export async function findLiveSiteAt(db: Db, practiceId: string, patientId: stri
   const [row] = await db
     .select({ id: implantSites.id, status: implantSites.status })
     .from(implantSites)
-    .where(and(eq(implantSites.practiceId, practiceId), eq(implantSites.patientId, patientId), eq(implantSites.fdi, fdi), notInArray(implantSites.status, ['failed', 'removed'])));
+    .where(
+      and(
+        eq(implantSites.practiceId, practiceId),
+        eq(implantSites.patientId, patientId),
+        eq(implantSites.fdi, fdi),
+        notInArray(implantSites.status, ['failed', 'removed']),
+      ),
+    );
   return row ?? null;
 }
 
 export async function insertPlannedSite(tx: Tx, v: { practiceId: string; patientId: string; fdi: number }) {
-  const [row] = await tx.insert(implantSites).values({ ...v, status: 'planned' }).returning({ id: implantSites.id, fdi: implantSites.fdi, status: implantSites.status });
+  const [row] = await tx
+    .insert(implantSites)
+    .values({ ...v, status: 'planned' })
+    .returning({ id: implantSites.id, fdi: implantSites.fdi, status: implantSites.status });
   return row;
 }
 
 /** Locks a site until the transaction ends: two placements of one planned site run one after the other. */
 export async function lockSite(tx: Tx, siteId: string) {
-  const [row] = await tx.select({ status: implantSites.status }).from(implantSites).where(eq(implantSites.id, siteId)).for('update');
+  const [row] = await tx
+    .select({ status: implantSites.status })
+    .from(implantSites)
+    .where(eq(implantSites.id, siteId))
+    .for('update');
   return row ?? null;
 }
 
@@ -64,7 +96,14 @@ export async function listPlacementOptions(db: Db, practiceId: string) {
     .where(eq(platforms.practiceId, practiceId))
     .orderBy(asc(implantSystems.name), asc(platforms.diameterMm), asc(platforms.name));
   const parts = await db
-    .select({ id: components.id, platformId: components.platformId, kind: components.kind, name: components.name, referenceCode: components.referenceCode, requiresLot: components.requiresLot })
+    .select({
+      id: components.id,
+      platformId: components.platformId,
+      kind: components.kind,
+      name: components.name,
+      referenceCode: components.referenceCode,
+      requiresLot: components.requiresLot,
+    })
     .from(components)
     .where(and(eq(components.practiceId, practiceId), inArray(components.kind, [...CLOSURE_KINDS])))
     .orderBy(asc(components.kind), asc(components.name));
@@ -73,7 +112,10 @@ export async function listPlacementOptions(db: Db, practiceId: string) {
 
 /** A platform of the given practice (another practice's platform is simply not found). */
 export async function findPlatformOfPractice(db: Db, practiceId: string, platformId: string) {
-  const [row] = await db.select({ id: platforms.id }).from(platforms).where(and(eq(platforms.id, platformId), eq(platforms.practiceId, practiceId)));
+  const [row] = await db
+    .select({ id: platforms.id })
+    .from(platforms)
+    .where(and(eq(platforms.id, platformId), eq(platforms.practiceId, practiceId)));
   return row ?? null;
 }
 
@@ -82,7 +124,9 @@ export async function findComponentOfPlatform(db: Db, practiceId: string, platfo
   const [row] = await db
     .select({ id: components.id, kind: components.kind, name: components.name, requiresLot: components.requiresLot })
     .from(components)
-    .where(and(eq(components.id, componentId), eq(components.practiceId, practiceId), eq(components.platformId, platformId)));
+    .where(
+      and(eq(components.id, componentId), eq(components.practiceId, practiceId), eq(components.platformId, platformId)),
+    );
   return row ?? null;
 }
 
@@ -93,7 +137,10 @@ export async function insertPlacement(tx: Tx, v: PlacementValues) {
 }
 
 /** A new version of a placement; a second amendment of one version is refused by the database. */
-export const insertPlacementAmendment = (db: Db, v: PlacementValues & { supersedesId: string; amendmentReason: string }) => insertAmendment(db, placements, v);
+export const insertPlacementAmendment = (
+  db: Db,
+  v: PlacementValues & { supersedesId: string; amendmentReason: string },
+) => insertAmendment(db, placements, v);
 
 export async function insertClosurePart(tx: Tx, v: typeof componentInstances.$inferInsert) {
   const [row] = await tx.insert(componentInstances).values(v).returning({ id: componentInstances.id });

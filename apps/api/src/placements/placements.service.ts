@@ -11,7 +11,14 @@ import {
   type PlacementRecord,
   describeUdiError,
 } from '@torquetrail/contracts';
-import { UdiError, checkUdiForPlacement, fdiToUniversal, isPrimaryTooth, isValidFdi, parseUdi } from '@torquetrail/domain';
+import {
+  UdiError,
+  checkUdiForPlacement,
+  fdiToUniversal,
+  isPrimaryTooth,
+  isValidFdi,
+  parseUdi,
+} from '@torquetrail/domain';
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
@@ -30,7 +37,8 @@ type PlacementFields = z.output<typeof PlacementBody> | z.output<typeof Placemen
 const latestPossibleToday = () => new Date(Date.now() + 14 * 3_600_000).toISOString().slice(0, 10);
 
 function assertSiteCurrent(status: string | undefined) {
-  if (status !== 'planned') throw new ConflictException(`This site is ${status ?? 'gone'}, not planned: amend the recorded placement instead`);
+  if (status !== 'planned')
+    throw new ConflictException(`This site is ${status ?? 'gone'}, not planned: amend the recorded placement instead`);
 }
 
 @Injectable()
@@ -38,20 +46,39 @@ export class PlacementsService {
   constructor(@Inject(DB) private readonly db: Database) {}
 
   /** A planned site at a permanent FDI position where the patient has no live site (a failed or removed one may be there). */
-  async addSite(ability: AppAbility, scope: Scope, patientId: string, body: z.output<typeof AddSiteBody>): Promise<ArchSite> {
-    const patient = assertCan(ability, 'read', 'Patient', await repo.findVisiblePatient(this.db, scope, patientId), 'patient');
+  async addSite(
+    ability: AppAbility,
+    scope: Scope,
+    patientId: string,
+    body: z.output<typeof AddSiteBody>,
+  ): Promise<ArchSite> {
+    const patient = assertCan(
+      ability,
+      'read',
+      'Patient',
+      await repo.findVisiblePatient(this.db, scope, patientId),
+      'patient',
+    );
     const row = { practiceId: patient.practiceId, patientId: patient.id };
     assertCan(ability, 'create', 'ImplantSite', row, 'patient');
     if (!isValidFdi(body.fdi)) throw fieldError({ fdi: `${String(body.fdi)} is not an FDI (ISO 3950) tooth position` });
     // Implants replace permanent teeth; fdiToUniversal also throws for a position that does not exist.
-    if (isPrimaryTooth(body.fdi)) throw fieldError({ fdi: `${body.fdi} is a primary tooth: an implant site is a permanent position (11–48)` });
+    if (isPrimaryTooth(body.fdi))
+      throw fieldError({ fdi: `${body.fdi} is a primary tooth: an implant site is a permanent position (11–48)` });
     fdiToUniversal(body.fdi);
     const existing = await repo.findLiveSiteAt(this.db, patient.practiceId, patient.id, body.fdi);
     // A failed or removed site stays in the record; a new site may be planned at its position.
     if (existing) throw new ConflictException(`This patient already has a ${existing.status} site at ${body.fdi}`);
     try {
       const site = await this.db.transaction((tx) => repo.insertPlannedSite(tx, { ...row, fdi: body.fdi }));
-      return { id: site.id, fdi: site.fdi, status: site.status, maintenanceStatus: 'not-examined', lastExamDate: null, systemName: null };
+      return {
+        id: site.id,
+        fdi: site.fdi,
+        status: site.status,
+        maintenanceStatus: 'not-examined',
+        lastExamDate: null,
+        systemName: null,
+      };
     } catch (e) {
       if (isUniqueViolation(e)) throw new ConflictException(`This patient already has a site at ${body.fdi}`);
       throw e;
@@ -59,7 +86,13 @@ export class PlacementsService {
   }
 
   private async placeableSite(ability: AppAbility, scope: Scope, siteId: string) {
-    return assertCan(ability, 'create', 'Placement', await repo.findVisibleSite(this.db, scope, siteId), 'implant site');
+    return assertCan(
+      ability,
+      'create',
+      'Placement',
+      await repo.findVisibleSite(this.db, scope, siteId),
+      'implant site',
+    );
   }
 
   /** The catalogue of the site's practice, reduced to what a placement needs. */
@@ -69,14 +102,26 @@ export class PlacementsService {
     const systems = new Map<string, PlacementOptionsReply['systems'][number]>();
     for (const r of rows) {
       let system = systems.get(r.systemId);
-      if (!system) systems.set(r.systemId, (system = { id: r.systemId, name: r.systemName, manufacturer: r.manufacturer, platforms: [] }));
+      if (!system)
+        systems.set(
+          r.systemId,
+          (system = { id: r.systemId, name: r.systemName, manufacturer: r.manufacturer, platforms: [] }),
+        );
       system.platforms.push({
         id: r.platformId,
         name: r.platformName,
         diameterMm: r.diameterMm,
         connection: r.connection,
         platformShift: r.platformShift,
-        components: parts.filter((p) => p.platformId === r.platformId).map((p) => ({ id: p.id, kind: p.kind as ClosureKind, name: p.name, referenceCode: p.referenceCode, requiresLot: p.requiresLot })),
+        components: parts
+          .filter((p) => p.platformId === r.platformId)
+          .map((p) => ({
+            id: p.id,
+            kind: p.kind as ClosureKind,
+            name: p.name,
+            referenceCode: p.referenceCode,
+            requiresLot: p.requiresLot,
+          })),
       });
     }
     return { siteId: site.id, fdi: site.fdi, caution: MANUFACTURER_CAUTION, systems: [...systems.values()] };
@@ -87,9 +132,15 @@ export class PlacementsService {
    * practice, the date is not in the future, and a UDI is parsed with the domain's `parseUdi`.
    * Returns the lot to store (typed, or read from the UDI).
    */
-  private async checkFields(db: Db, practiceId: string, body: PlacementFields, fields: Record<string, string>): Promise<string | null> {
+  private async checkFields(
+    db: Db,
+    practiceId: string,
+    body: PlacementFields,
+    fields: Record<string, string>,
+  ): Promise<string | null> {
     if (body.placedOn > latestPossibleToday()) fields.placedOn = 'The placement date cannot be in the future';
-    if (!(await repo.findPlatformOfPractice(db, practiceId, body.platformId))) fields.platformId = "Not a platform of this site's practice catalogue";
+    if (!(await repo.findPlatformOfPractice(db, practiceId, body.platformId)))
+      fields.platformId = "Not a platform of this site's practice catalogue";
     let lot = body.lot;
     if (body.udi) {
       try {
@@ -109,7 +160,13 @@ export class PlacementsService {
   }
 
   /** Records what was placed; the site becomes placed; a closure part is installed — one transaction. */
-  async record(ability: AppAbility, user: SessionUser, scope: Scope, siteId: string, body: z.output<typeof PlacementBody>): Promise<PlacementRecord> {
+  async record(
+    ability: AppAbility,
+    user: SessionUser,
+    scope: Scope,
+    siteId: string,
+    body: z.output<typeof PlacementBody>,
+  ): Promise<PlacementRecord> {
     const site = await this.placeableSite(ability, scope, siteId);
     assertSiteCurrent(site.status);
     const fields: Record<string, string> = {};
@@ -117,8 +174,10 @@ export class PlacementsService {
     let closure: Awaited<ReturnType<typeof repo.findComponentOfPlatform>> | null = null;
     if (body.closureComponentId && !fields.platformId) {
       closure = await repo.findComponentOfPlatform(this.db, site.practiceId, body.platformId, body.closureComponentId);
-      if (!closure || (closure.kind !== 'healing-abutment' && closure.kind !== 'cover-screw')) fields.closureComponentId = 'Choose a healing abutment or cover screw of the chosen platform';
-      else if (closure.requiresLot && !body.closureLot) fields.closureLot = `The lot number of the ${closure.name} is required`;
+      if (!closure || (closure.kind !== 'healing-abutment' && closure.kind !== 'cover-screw'))
+        fields.closureComponentId = 'Choose a healing abutment or cover screw of the chosen platform';
+      else if (closure.requiresLot && !body.closureLot)
+        fields.closureLot = `The lot number of the ${closure.name} is required`;
     }
     if (Object.keys(fields).length > 0) throw fieldError(fields);
     const ids = await this.db.transaction(async (tx) => {
@@ -134,7 +193,15 @@ export class PlacementsService {
         recordedBy: user.id,
       });
       const closureId = closure
-        ? await repo.insertClosurePart(tx, { practiceId: site.practiceId, patientId: site.patientId, siteId: site.id, componentId: closure.id, lot: body.closureLot, installedOn: body.placedOn, recordedBy: user.id })
+        ? await repo.insertClosurePart(tx, {
+            practiceId: site.practiceId,
+            patientId: site.patientId,
+            siteId: site.id,
+            componentId: closure.id,
+            lot: body.closureLot,
+            installedOn: body.placedOn,
+            recordedBy: user.id,
+          })
         : null;
       await repo.setSiteStatus(tx, site.id, 'placed');
       return { id, closureId };
@@ -143,8 +210,20 @@ export class PlacementsService {
   }
 
   /** An amendment is a new row superseding the old one; the old row is never updated. */
-  async amend(ability: AppAbility, user: SessionUser, scope: Scope, id: string, body: z.output<typeof PlacementAmendmentBody>): Promise<PlacementRecord> {
-    const old = assertCan(ability, 'amend', 'Placement', await repo.findVisiblePlacement(this.db, scope, id), 'placement');
+  async amend(
+    ability: AppAbility,
+    user: SessionUser,
+    scope: Scope,
+    id: string,
+    body: z.output<typeof PlacementAmendmentBody>,
+  ): Promise<PlacementRecord> {
+    const old = assertCan(
+      ability,
+      'amend',
+      'Placement',
+      await repo.findVisiblePlacement(this.db, scope, id),
+      'placement',
+    );
     if (old.supersededById) throw alreadyAmended('placements');
     const fields: Record<string, string> = {};
     const lot = await this.checkFields(this.db, old.practiceId, body, fields);

@@ -22,20 +22,32 @@ export interface DeskPage {
   total: number;
 }
 
-export async function queryDesk(db: Db, scope: Scope, today: string, q: RecallDeskCsvQuery, page: { limit: number; offset: number }): Promise<DeskPage> {
+export async function queryDesk(
+  db: Db,
+  scope: Scope,
+  today: string,
+  q: RecallDeskCsvQuery,
+  page: { limit: number; offset: number },
+): Promise<DeskPage> {
   const visible: SQL =
     scope.sharedPatientIds.length > 0
-      ? sql`(pa.practice_id = ${scope.practiceId} or pa.id in (${sql.join(scope.sharedPatientIds.map((id) => sql`${id}::uuid`), sql`, `)}))`
+      ? sql`(pa.practice_id = ${scope.practiceId} or pa.id in (${sql.join(
+          scope.sharedPatientIds.map((id) => sql`${id}::uuid`),
+          sql`, `,
+        )}))`
       : sql`pa.practice_id = ${scope.practiceId}`;
   const filters: SQL[] = [visible];
   if (q.search) {
     for (const word of q.search.split(/\s+/).filter(Boolean).slice(0, 5)) {
       const pattern = `%${escapeLike(word)}%`;
-      filters.push(sql`(pa.given_name ilike ${pattern} or pa.family_name ilike ${pattern} or pa.chart_number ilike ${pattern})`);
+      filters.push(
+        sql`(pa.given_name ilike ${pattern} or pa.family_name ilike ${pattern} or pa.chart_number ilike ${pattern})`,
+      );
     }
   }
   const outer: SQL[] = [sql`true`];
-  if (q.filter === 'due-this-week') outer.push(sql`next_due between ${today}::date and (${today}::date + ${DESK_DUE_SOON_DAYS}::int)`);
+  if (q.filter === 'due-this-week')
+    outer.push(sql`next_due between ${today}::date and (${today}::date + ${DESK_DUE_SOON_DAYS}::int)`);
   if (q.filter === 'overdue') outer.push(sql`next_due < ${today}::date`);
   if (q.filter === 'peri-implantitis-last') outer.push(sql`coalesce(last_pi, false)`);
 
@@ -50,7 +62,10 @@ export async function queryDesk(db: Db, scope: Scope, today: string, q: RecallDe
   // set-based pass (DISTINCT ON) over the scope's exams rather than one look-up per site.
   const visibleExam: SQL =
     scope.sharedPatientIds.length > 0
-      ? sql`(x.practice_id = ${scope.practiceId} or x.patient_id in (${sql.join(scope.sharedPatientIds.map((id) => sql`${id}::uuid`), sql`, `)}))`
+      ? sql`(x.practice_id = ${scope.practiceId} or x.patient_id in (${sql.join(
+          scope.sharedPatientIds.map((id) => sql`${id}::uuid`),
+          sql`, `,
+        )}))`
       : sql`x.practice_id = ${scope.practiceId}`;
   const lastPi = sql`(pa.id in (
       select l.patient_id from (
@@ -118,8 +133,18 @@ export async function queryDesk(db: Db, scope: Scope, today: string, q: RecallDe
     nextDueOn: r.next_due_on,
     overdueDays: r.overdue_days,
     lastExamOn: r.last_exam_on,
-    sites: r.sites.map((s) => ({ siteId: s.siteId, fdi: s.fdi, status: (s.status ?? 'not-examined') as RecallDeskRow['sites'][number]['status'], lastExamOn: s.examinedOn })),
-    riskFactors: { smoker: r.smoker, diabetesPoorlyControlled: r.diabetes_poorly_controlled, periodontitisHistory: r.periodontitis_history, priorPeriImplantitis: r.prior_pi },
+    sites: r.sites.map((s) => ({
+      siteId: s.siteId,
+      fdi: s.fdi,
+      status: (s.status ?? 'not-examined') as RecallDeskRow['sites'][number]['status'],
+      lastExamOn: s.examinedOn,
+    })),
+    riskFactors: {
+      smoker: r.smoker,
+      diabetesPoorlyControlled: r.diabetes_poorly_controlled,
+      periodontitisHistory: r.periodontitis_history,
+      priorPeriImplantitis: r.prior_pi,
+    },
   }));
   return { rows, total: result.rows[0]?.total ?? (page.offset > 0 ? await countOnly() : 0) };
 

@@ -18,7 +18,10 @@ export class DeskService {
 
   async page(scope: Scope, q: RecallDeskQuery): Promise<RecallDeskReply> {
     const today = this.clock.today();
-    const { rows, total } = await queryDesk(this.db, scope, today, q, { limit: q.pageSize, offset: (q.page - 1) * q.pageSize });
+    const { rows, total } = await queryDesk(this.db, scope, today, q, {
+      limit: q.pageSize,
+      offset: (q.page - 1) * q.pageSize,
+    });
     return { items: rows, total, page: q.page, pageSize: q.pageSize, today };
   }
 
@@ -26,10 +29,33 @@ export class DeskService {
     const today = this.clock.today();
     const { rows } = await queryDesk(this.db, scope, today, q, { limit: CSV_MAX_ROWS, offset: 0 });
     const risk = (r: (typeof rows)[number]['riskFactors']) =>
-      [r.smoker && 'smoker', r.diabetesPoorlyControlled && 'diabetes (poorly controlled)', r.periodontitisHistory && 'periodontitis history', r.priorPeriImplantitis && 'prior peri-implantitis'].filter(Boolean).join('; ');
-    let out = csvLine(['chart number', 'patient', 'next recall', 'overdue days', 'last exam', 'last status per implant', 'risk factors']);
+      [
+        r.smoker && 'smoker',
+        r.diabetesPoorlyControlled && 'diabetes (poorly controlled)',
+        r.periodontitisHistory && 'periodontitis history',
+        r.priorPeriImplantitis && 'prior peri-implantitis',
+      ]
+        .filter(Boolean)
+        .join('; ');
+    let out = csvLine([
+      'chart number',
+      'patient',
+      'next recall',
+      'overdue days',
+      'last exam',
+      'last status per implant',
+      'risk factors',
+    ]);
     for (const r of rows) {
-      out += csvLine([r.chartNumber, r.name, r.nextDueOn, r.overdueDays, r.lastExamOn, r.sites.map((s) => `${s.fdi}: ${s.status}`).join('; '), risk(r.riskFactors)]);
+      out += csvLine([
+        r.chartNumber,
+        r.name,
+        r.nextDueOn,
+        r.overdueDays,
+        r.lastExamOn,
+        r.sites.map((s) => `${s.fdi}: ${s.status}`).join('; '),
+        risk(r.riskFactors),
+      ]);
     }
     return out;
   }

@@ -15,4 +15,5 @@ export function csvLine(fields: (string | number | null | undefined)[]): string 
   return `${fields.map(csvField).join(',')}\r\n`;
 }
 
-export const reminderKey = (patientId: string, dueOn: string, kind: ReminderKind) => `recall-reminder:${patientId}:${dueOn}:${kind}`;
+export const reminderKey = (patientId: string, dueOn: string, kind: ReminderKind) =>
+  `recall-reminder:${patientId}:${dueOn}:${kind}`;

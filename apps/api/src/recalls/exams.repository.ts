@@ -11,7 +11,15 @@ import {
   type ProbedSite,
 } from '@torquetrail/domain';
 import type { Db, Tx } from '../db/database.js';
-import { implantSites, patients, recallExams, recallExamSites, recallPolicies, recalls, users } from '../db/schema/index.js';
+import {
+  implantSites,
+  patients,
+  recallExams,
+  recallExamSites,
+  recallPolicies,
+  recalls,
+  users,
+} from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
 import { visiblePatients } from '../authz/visible-patients.js';
 import { insertAmendment, isAmended, isCurrentVersion } from '../db/amendments.js';
@@ -64,19 +72,43 @@ export async function listExamsOfSites(db: Db, siteIds: string[]): Promise<ExamR
   return attachSites(db, rows);
 }
 
-async function attachSites(db: Db, rows: (Omit<ExamRow, 'sites' | 'recordedAt' | 'recordedAtDate'> & { recordedAt: Date })[]): Promise<ExamRow[]> {
+async function attachSites(
+  db: Db,
+  rows: (Omit<ExamRow, 'sites' | 'recordedAt' | 'recordedAtDate'> & { recordedAt: Date })[],
+): Promise<ExamRow[]> {
   if (rows.length === 0) return [];
   const probes = await db
-    .select({ examId: recallExamSites.examId, position: recallExamSites.position, probingDepthMm: recallExamSites.probingDepthMm, bleeding: recallExamSites.bleeding, suppuration: recallExamSites.suppuration })
+    .select({
+      examId: recallExamSites.examId,
+      position: recallExamSites.position,
+      probingDepthMm: recallExamSites.probingDepthMm,
+      bleeding: recallExamSites.bleeding,
+      suppuration: recallExamSites.suppuration,
+    })
     .from(recallExamSites)
-    .where(inArray(recallExamSites.examId, rows.map((r) => r.id)));
+    .where(
+      inArray(
+        recallExamSites.examId,
+        rows.map((r) => r.id),
+      ),
+    );
   const byExam = new Map<string, ProbedSite[]>();
   for (const p of probes) {
     const list = byExam.get(p.examId) ?? [];
-    list.push({ position: p.position, probingDepthMm: p.probingDepthMm, bleeding: p.bleeding, suppuration: p.suppuration });
+    list.push({
+      position: p.position,
+      probingDepthMm: p.probingDepthMm,
+      bleeding: p.bleeding,
+      suppuration: p.suppuration,
+    });
     byExam.set(p.examId, list);
   }
-  return rows.map((r) => ({ ...r, sites: inChartOrder(byExam.get(r.id) ?? []), recordedAt: r.recordedAt.toISOString(), recordedAtDate: r.recordedAt }));
+  return rows.map((r) => ({
+    ...r,
+    sites: inChartOrder(byExam.get(r.id) ?? []),
+    recordedAt: r.recordedAt.toISOString(),
+    recordedAtDate: r.recordedAt,
+  }));
 }
 
 export function toContract(row: ExamRow): RecallExam {
@@ -88,10 +120,17 @@ export function toContract(row: ExamRow): RecallExam {
  * Latest current exam per site: the status and date for the Arch ring and the Site file
  * (served to the patients and sites features by MaintenanceStatusService).
  */
-export async function latestExamBySite(db: Db, siteIds: string[]): Promise<Map<string, { status: PeriImplantStatus; examinedOn: string }>> {
+export async function latestExamBySite(
+  db: Db,
+  siteIds: string[],
+): Promise<Map<string, { status: PeriImplantStatus; examinedOn: string }>> {
   if (siteIds.length === 0) return new Map();
   const rows = await db
-    .selectDistinctOn([recallExams.siteId], { siteId: recallExams.siteId, status: recallExams.status, examinedOn: recallExams.examinedOn })
+    .selectDistinctOn([recallExams.siteId], {
+      siteId: recallExams.siteId,
+      status: recallExams.status,
+      examinedOn: recallExams.examinedOn,
+    })
     .from(recallExams)
     .where(and(inArray(recallExams.siteId, siteIds), isCurrent))
     .orderBy(recallExams.siteId, desc(recallExams.examinedOn), desc(recallExams.recordedAt));
@@ -124,7 +163,9 @@ export async function listSitesForExam(db: Db, patientId: string) {
       fdi: implantSites.fdi,
       status: implantSites.status,
       // Raw SQL: drizzle leaves columns unqualified in single-table selects, and "id" would be ambiguous here.
-      deliveredOn: sql<string | null>`(select min(rr.delivered_on)::text from restoration_sites rs join restorations rr on rr.id = rs.restoration_id where rs.site_id = "implant_sites"."id" and rr.delivered_on is not null and rr.status <> 'removed')`,
+      deliveredOn: sql<
+        string | null
+      >`(select min(rr.delivered_on)::text from restoration_sites rs join restorations rr on rr.id = rs.restoration_id where rs.site_id = "implant_sites"."id" and rr.delivered_on is not null and rr.status <> 'removed')`,
     })
     .from(implantSites)
     .where(eq(implantSites.patientId, patientId))
@@ -133,7 +174,12 @@ export async function listSitesForExam(db: Db, patientId: string) {
 
 export async function findVisibleSiteForRecall(db: Db, scope: Scope, siteId: string) {
   const [row] = await db
-    .select({ id: implantSites.id, practiceId: implantSites.practiceId, patientId: implantSites.patientId, fdi: implantSites.fdi })
+    .select({
+      id: implantSites.id,
+      practiceId: implantSites.practiceId,
+      patientId: implantSites.patientId,
+      fdi: implantSites.fdi,
+    })
     .from(implantSites)
     .innerJoin(patients, eq(patients.id, implantSites.patientId))
     .where(and(eq(implantSites.id, siteId), visiblePatients(scope)));
@@ -182,7 +228,10 @@ export async function insertExam(db: Db, exam: NewExam): Promise<string> {
 }
 
 /** A new version of an exam; a second amendment of one version is refused by the database. */
-export async function insertExamAmendment(tx: Tx, exam: NewExam & { supersedesId: string; amendmentReason: string }): Promise<string> {
+export async function insertExamAmendment(
+  tx: Tx,
+  exam: NewExam & { supersedesId: string; amendmentReason: string },
+): Promise<string> {
   const { sites, ...row } = exam;
   const id = await insertAmendment(tx, recallExams, row);
   await insertProbedSites(tx, exam.practiceId, id, sites);
@@ -224,9 +273,23 @@ export async function latestExamDateOfPatient(db: Db, patientId: string): Promis
 }
 
 /** Replaces the patient's scheduled recall: earlier ones are done, one new recall is scheduled. */
-export async function rescheduleRecall(db: Db, r: { practiceId: string; patientId: string; dueOn: string; visitId: string }): Promise<void> {
-  await db.update(recalls).set({ status: 'done' }).where(and(eq(recalls.patientId, r.patientId), eq(recalls.status, 'scheduled')));
-  await db.insert(recalls).values({ practiceId: r.practiceId, patientId: r.patientId, dueOn: r.dueOn, status: 'scheduled', scheduledFromVisitId: r.visitId });
+export async function rescheduleRecall(
+  db: Db,
+  r: { practiceId: string; patientId: string; dueOn: string; visitId: string },
+): Promise<void> {
+  await db
+    .update(recalls)
+    .set({ status: 'done' })
+    .where(and(eq(recalls.patientId, r.patientId), eq(recalls.status, 'scheduled')));
+  await db
+    .insert(recalls)
+    .values({
+      practiceId: r.practiceId,
+      patientId: r.patientId,
+      dueOn: r.dueOn,
+      status: 'scheduled',
+      scheduledFromVisitId: r.visitId,
+    });
 }
 
 export const DEFAULT_POLICY = {
@@ -239,11 +302,23 @@ export const DEFAULT_POLICY = {
 export async function findPolicy(db: Db, practiceId: string) {
   const [row] = await db.select().from(recallPolicies).where(eq(recallPolicies.practiceId, practiceId));
   return row
-    ? { baseMonths: row.baseMonths, riskMonths: row.riskMonths, reminderDaysBefore: row.reminderDaysBefore, overdueReminderDaysAfter: row.overdueReminderDaysAfter, isDefault: false, updatedAt: row.updatedAt.toISOString() }
+    ? {
+        baseMonths: row.baseMonths,
+        riskMonths: row.riskMonths,
+        reminderDaysBefore: row.reminderDaysBefore,
+        overdueReminderDaysAfter: row.overdueReminderDaysAfter,
+        isDefault: false,
+        updatedAt: row.updatedAt.toISOString(),
+      }
     : { ...DEFAULT_POLICY, isDefault: true, updatedAt: null };
 }
 
-export async function upsertPolicy(db: Db, practiceId: string, userId: string, p: { baseMonths: number; riskMonths: number; reminderDaysBefore: number; overdueReminderDaysAfter: number }) {
+export async function upsertPolicy(
+  db: Db,
+  practiceId: string,
+  userId: string,
+  p: { baseMonths: number; riskMonths: number; reminderDaysBefore: number; overdueReminderDaysAfter: number },
+) {
   await db
     .insert(recallPolicies)
     .values({ practiceId, ...p, updatedBy: userId, updatedAt: new Date() })

@@ -1,7 +1,14 @@
 import { randomUUID } from 'node:crypto';
 import { Inject, Injectable } from '@nestjs/common';
 import { type AppAbility, subject } from '@torquetrail/authz';
-import { AmendExamBody as AmendExamSchema, CreateVisitBody as CreateVisitSchema, type CreateVisitReply, type RecallExam, type ExamContext, type SiteExamHistory } from '@torquetrail/contracts';
+import {
+  AmendExamBody as AmendExamSchema,
+  CreateVisitBody as CreateVisitSchema,
+  type CreateVisitReply,
+  type RecallExam,
+  type ExamContext,
+  type SiteExamHistory,
+} from '@torquetrail/contracts';
 import {
   choosePeriImplantBaseline,
   classifyPeriImplant,
@@ -51,16 +58,34 @@ export class ExamsService {
   ) {}
 
   async context(ability: AppAbility, scope: Scope, patientId: string): Promise<ExamContext> {
-    const patient = assertCan(ability, 'read', 'RecallExam', await findVisiblePatientForRecall(this.db, scope, patientId).then((p) => (p ? { ...p, patientId: p.id } : null)), 'patient');
-    const [sites, policy, prior] = await Promise.all([listSitesForExam(this.db, patient.id), findPolicy(this.db, patient.practiceId), hadPeriImplantitis(this.db, patient.id)]);
-    const exams = await listExamsOfSites(this.db, sites.map((s) => s.siteId));
+    const patient = assertCan(
+      ability,
+      'read',
+      'RecallExam',
+      await findVisiblePatientForRecall(this.db, scope, patientId).then((p) => (p ? { ...p, patientId: p.id } : null)),
+      'patient',
+    );
+    const [sites, policy, prior] = await Promise.all([
+      listSitesForExam(this.db, patient.id),
+      findPolicy(this.db, patient.practiceId),
+      hadPeriImplantitis(this.db, patient.id),
+    ]);
+    const exams = await listExamsOfSites(
+      this.db,
+      sites.map((s) => s.siteId),
+    );
     const today = this.clock.today();
     return {
       patient: {
         id: patient.id,
         chartNumber: patient.chartNumber,
         name: patient.name,
-        riskFactors: { smoker: patient.smoker, diabetesPoorlyControlled: patient.diabetesPoorlyControlled, periodontitisHistory: patient.periodontitisHistory, priorPeriImplantitis: prior },
+        riskFactors: {
+          smoker: patient.smoker,
+          diabetesPoorlyControlled: patient.diabetesPoorlyControlled,
+          periodontitisHistory: patient.periodontitisHistory,
+          priorPeriImplantitis: prior,
+        },
       },
       today,
       policy: ability.can('read', subject('RecallPolicy', { practiceId: patient.practiceId })) ? policy : null,
@@ -82,7 +107,13 @@ export class ExamsService {
   }
 
   async history(ability: AppAbility, scope: Scope, siteId: string): Promise<SiteExamHistory> {
-    const site = assertCan(ability, 'read', 'RecallExam', await findVisibleSiteForRecall(this.db, scope, siteId), 'implant site');
+    const site = assertCan(
+      ability,
+      'read',
+      'RecallExam',
+      await findVisibleSiteForRecall(this.db, scope, siteId),
+      'implant site',
+    );
     const exams = await listExamsOfSites(this.db, [site.id]);
     return { siteId: site.id, fdi: site.fdi, patientId: site.patientId, exams: exams.map(toContract) };
   }
@@ -92,8 +123,21 @@ export class ExamsService {
    * classifyPeriImplant (the client's status is never trusted), stored with RULES_VERSION and the
    * options used, and the patient's next recall is scheduled with nextRecallDate.
    */
-  async createVisit(ability: AppAbility, scope: Scope, examinerId: string, body: z.infer<typeof CreateVisitSchema>): Promise<CreateVisitReply> {
-    const patient = assertCan(ability, 'create', 'RecallExam', await findVisiblePatientForRecall(this.db, scope, body.patientId).then((p) => (p ? { ...p, patientId: p.id } : null)), 'patient');
+  async createVisit(
+    ability: AppAbility,
+    scope: Scope,
+    examinerId: string,
+    body: z.infer<typeof CreateVisitSchema>,
+  ): Promise<CreateVisitReply> {
+    const patient = assertCan(
+      ability,
+      'create',
+      'RecallExam',
+      await findVisiblePatientForRecall(this.db, scope, body.patientId).then((p) =>
+        p ? { ...p, patientId: p.id } : null,
+      ),
+      'patient',
+    );
     if (body.examinedOn > this.clock.today()) throw fieldError({ examinedOn: 'an exam cannot be dated in the future' });
 
     return this.db.transaction(async (tx) => {
@@ -104,9 +148,15 @@ export class ExamsService {
       body.exams.forEach((exam, i) => {
         const site = sites.get(exam.siteId);
         if (!site) throw fieldError({ [`exams.${i}.siteId`]: 'not an implant site of this patient' });
-        if (!EXAMINABLE.has(site.status)) throw fieldError({ [`exams.${i}.siteId`]: `the implant at ${site.fdi} is ${site.status}: only placed or restored implants are examined` });
+        if (!EXAMINABLE.has(site.status))
+          throw fieldError({
+            [`exams.${i}.siteId`]: `the implant at ${site.fdi} is ${site.status}: only placed or restored implants are examined`,
+          });
       });
-      const earlier = await listExamsOfSites(tx, body.exams.map((e) => e.siteId));
+      const earlier = await listExamsOfSites(
+        tx,
+        body.exams.map((e) => e.siteId),
+      );
 
       const visitId = randomUUID();
       const ids: string[] = [];
@@ -114,10 +164,18 @@ export class ExamsService {
       for (const [i, exam] of body.exams.entries()) {
         const site = sites.get(exam.siteId)!;
         const probes = inChartOrder(exam.sites);
-        const baseline = choosePeriImplantBaseline(earlier.filter((e) => e.siteId === site.siteId), { examinedOn: body.examinedOn, isBaseline: exam.isBaseline }, site.deliveredOn);
+        const baseline = choosePeriImplantBaseline(
+          earlier.filter((e) => e.siteId === site.siteId),
+          { examinedOn: body.examinedOn, isBaseline: exam.isBaseline },
+          site.deliveredOn,
+        );
         let verdict;
         try {
-          verdict = classifyPeriImplant(toPeriImplantExam({ sites: probes, boneLevelMm: exam.boneLevelMm }), toPeriImplantBaseline(exam, baseline), RULE_OPTIONS);
+          verdict = classifyPeriImplant(
+            toPeriImplantExam({ sites: probes, boneLevelMm: exam.boneLevelMm }),
+            toPeriImplantBaseline(exam, baseline),
+            RULE_OPTIONS,
+          );
         } catch (error) {
           if (error instanceof DomainError) throw fieldError({ [`exams.${i}`]: error.message });
           throw error;
@@ -180,10 +238,16 @@ export class ExamsService {
   }
 
   /** An amendment: a new exam superseding the old one, with the reason; recomputed and rescheduled in one transaction. */
-  async amend(ability: AppAbility, scope: Scope, examinerId: string, examId: string, body: z.infer<typeof AmendExamSchema>): Promise<RecallExam> {
+  async amend(
+    ability: AppAbility,
+    scope: Scope,
+    examinerId: string,
+    examId: string,
+    body: z.infer<typeof AmendExamSchema>,
+  ): Promise<RecallExam> {
     const old = assertCan(ability, 'amend', 'RecallExam', await findVisibleExam(this.db, scope, examId), 'exam');
     if (old.superseded) throw alreadyAmended('recall_exams');
-    const patient = (await findVisiblePatientForRecall(this.db, scope, old.patientId));
+    const patient = await findVisiblePatientForRecall(this.db, scope, old.patientId);
     return this.db.transaction(async (tx) => {
       // The history lock keeps the rescheduling to one at a time; of two amendments of one exam
       // the unique index on supersedes_id saves the first (insertExamAmendment).
@@ -191,10 +255,18 @@ export class ExamsService {
       const site = (await listSitesForExam(tx, patient.id)).find((s) => s.siteId === old.siteId)!;
       const earlier = (await listExamsOfSites(tx, [site.siteId])).filter((e) => e.id !== old.id);
       const probes = inChartOrder(body.sites);
-      const baseline = choosePeriImplantBaseline(earlier, { examinedOn: old.examinedOn, isBaseline: body.isBaseline }, site.deliveredOn);
+      const baseline = choosePeriImplantBaseline(
+        earlier,
+        { examinedOn: old.examinedOn, isBaseline: body.isBaseline },
+        site.deliveredOn,
+      );
       let verdict;
       try {
-        verdict = classifyPeriImplant(toPeriImplantExam({ sites: probes, boneLevelMm: body.boneLevelMm }), toPeriImplantBaseline(body, baseline), RULE_OPTIONS);
+        verdict = classifyPeriImplant(
+          toPeriImplantExam({ sites: probes, boneLevelMm: body.boneLevelMm }),
+          toPeriImplantBaseline(body, baseline),
+          RULE_OPTIONS,
+        );
       } catch (error) {
         if (error instanceof DomainError) throw fieldError({ sites: error.message });
         throw error;

@@ -1,5 +1,11 @@
 import { BadRequestException, Body, Controller, Get, HttpCode, Inject, Post, Put } from '@nestjs/common';
-import { RecallPolicyBody, type RecallPolicyReply, type ReminderLogReply, RunRemindersBody, type RunRemindersReply } from '@torquetrail/contracts';
+import {
+  RecallPolicyBody,
+  type RecallPolicyReply,
+  type ReminderLogReply,
+  RunRemindersBody,
+  type RunRemindersReply,
+} from '@torquetrail/contracts';
 import type { SessionUser } from '../auth/session-user.js';
 import { Allow } from '../authz/check-ability.decorator.js';
 import { CurrentUser } from '../common/current-user.decorator.js';
@@ -29,7 +35,10 @@ export class RecallAdminController {
 
   @Put('policy')
   @Allow('update', 'RecallPolicy')
-  async updatePolicy(@CurrentUser() user: SessionUser, @Body(new ZodValidationPipe(RecallPolicyBody)) body: RecallPolicyBody): Promise<RecallPolicyReply> {
+  async updatePolicy(
+    @CurrentUser() user: SessionUser,
+    @Body(new ZodValidationPipe(RecallPolicyBody)) body: RecallPolicyBody,
+  ): Promise<RecallPolicyReply> {
     await upsertPolicy(this.db, user.practiceId, user.id, body);
     return findPolicy(this.db, user.practiceId);
   }
@@ -37,9 +46,15 @@ export class RecallAdminController {
   @Post('reminders/run')
   @HttpCode(200)
   @Allow('update', 'RecallPolicy')
-  run(@CurrentUser() user: SessionUser, @Body(new ZodValidationPipe(RunRemindersBody)) body: RunRemindersBody): Promise<RunRemindersReply> {
+  run(
+    @CurrentUser() user: SessionUser,
+    @Body(new ZodValidationPipe(RunRemindersBody)) body: RunRemindersBody,
+  ): Promise<RunRemindersReply> {
     if (body.today && this.env.NODE_ENV === 'production') {
-      throw new BadRequestException({ message: 'today: only the real date is scanned in production', fields: { today: 'only the real date is scanned in production' } });
+      throw new BadRequestException({
+        message: 'today: only the real date is scanned in production',
+        fields: { today: 'only the real date is scanned in production' },
+      });
     }
     return this.reminders.scan(body.today ?? this.clock.today(), user.practiceId);
   }
@@ -49,6 +64,8 @@ export class RecallAdminController {
   @Allow('read', 'AuditEntry')
   async log(@CurrentUser() user: SessionUser): Promise<ReminderLogReply> {
     const rows = await listReminderLog(this.db, user.practiceId);
-    return { items: rows.map((r) => ({ ...r, sentAt: r.sentAt?.toISOString() ?? null, createdAt: r.createdAt.toISOString() })) };
+    return {
+      items: rows.map((r) => ({ ...r, sentAt: r.sentAt?.toISOString() ?? null, createdAt: r.createdAt.toISOString() })),
+    };
   }
 }

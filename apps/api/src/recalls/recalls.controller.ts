@@ -31,7 +31,10 @@ export class RecallsController {
 
   @Get('desk')
   @Allow('read', 'RecallExam')
-  deskPage(@CurrentUser() user: SessionUser, @Query(new ZodValidationPipe(RecallDeskQuery)) query: RecallDeskQuery): Promise<RecallDeskReply> {
+  deskPage(
+    @CurrentUser() user: SessionUser,
+    @Query(new ZodValidationPipe(RecallDeskQuery)) query: RecallDeskQuery,
+  ): Promise<RecallDeskReply> {
     return this.desk.page(scopeOf(user), query);
   }
 
@@ -39,13 +42,20 @@ export class RecallsController {
   @Allow('read', 'RecallExam')
   @Header('Content-Type', 'text/csv; charset=utf-8')
   @Header('Content-Disposition', 'attachment; filename="recall-desk.csv"')
-  deskCsv(@CurrentUser() user: SessionUser, @Query(new ZodValidationPipe(RecallDeskCsvQuery)) query: RecallDeskCsvQuery): Promise<string> {
+  deskCsv(
+    @CurrentUser() user: SessionUser,
+    @Query(new ZodValidationPipe(RecallDeskCsvQuery)) query: RecallDeskCsvQuery,
+  ): Promise<string> {
     return this.desk.csv(scopeOf(user), query);
   }
 
   @Get('patients/:id/exam-context')
   @Allow('read', 'RecallExam')
-  context(@CurrentUser() user: SessionUser, @CurrentAbility() ability: AppAbility, @Param('id', uuid) id: string): Promise<ExamContext> {
+  context(
+    @CurrentUser() user: SessionUser,
+    @CurrentAbility() ability: AppAbility,
+    @Param('id', uuid) id: string,
+  ): Promise<ExamContext> {
     return this.exams.context(ability, scopeOf(user), id);
   }
 
@@ -72,7 +82,11 @@ export class RecallsController {
 
   @Get('sites/:id/exams')
   @Allow('read', 'RecallExam')
-  history(@CurrentUser() user: SessionUser, @CurrentAbility() ability: AppAbility, @Param('id', uuid) id: string): Promise<SiteExamHistory> {
+  history(
+    @CurrentUser() user: SessionUser,
+    @CurrentAbility() ability: AppAbility,
+    @Param('id', uuid) id: string,
+  ): Promise<SiteExamHistory> {
     return this.exams.history(ability, scopeOf(user), id);
   }
 }

@@ -17,13 +17,26 @@ export async function listScheduledRecalls(db: Db, practiceId?: string) {
     .from(recalls)
     .innerJoin(patients, eq(patients.id, recalls.patientId))
     .leftJoin(recallPolicies, eq(recallPolicies.practiceId, recalls.practiceId))
-    .where(and(eq(recalls.status, 'scheduled'), sql`${patients.email} is not null`, practiceId ? eq(recalls.practiceId, practiceId) : undefined));
+    .where(
+      and(
+        eq(recalls.status, 'scheduled'),
+        sql`${patients.email} is not null`,
+        practiceId ? eq(recalls.practiceId, practiceId) : undefined,
+      ),
+    );
 }
 
 /** Logs each reminder once: the idempotency key is unique, so a second scan inserts nothing. */
-export async function logReminders(db: Db, rows: { practiceId: string; patientId: string; recallDueOn: string; kind: ReminderKind; idempotencyKey: string }[]): Promise<number> {
+export async function logReminders(
+  db: Db,
+  rows: { practiceId: string; patientId: string; recallDueOn: string; kind: ReminderKind; idempotencyKey: string }[],
+): Promise<number> {
   if (rows.length === 0) return 0;
-  const inserted = await db.insert(reminderLog).values(rows).onConflictDoNothing({ target: reminderLog.idempotencyKey }).returning({ id: reminderLog.id });
+  const inserted = await db
+    .insert(reminderLog)
+    .values(rows)
+    .onConflictDoNothing({ target: reminderLog.idempotencyKey })
+    .returning({ id: reminderLog.id });
   return inserted.length;
 }
 
@@ -60,13 +73,20 @@ export async function lockReminder(db: Db, id: string) {
 }
 
 export async function markSent(db: Db, id: string, messageId: string) {
-  await db.update(reminderLog).set({ status: 'sent', messageId, sentAt: new Date(), attempts: sql`${reminderLog.attempts} + 1`, lastError: null }).where(eq(reminderLog.id, id));
+  await db
+    .update(reminderLog)
+    .set({ status: 'sent', messageId, sentAt: new Date(), attempts: sql`${reminderLog.attempts} + 1`, lastError: null })
+    .where(eq(reminderLog.id, id));
 }
 
 export async function markFailedAttempt(db: Db, id: string, error: string, final: boolean) {
   await db
     .update(reminderLog)
-    .set({ status: final ? 'failed' : 'pending', attempts: sql`${reminderLog.attempts} + 1`, lastError: error.slice(0, 500) })
+    .set({
+      status: final ? 'failed' : 'pending',
+      attempts: sql`${reminderLog.attempts} + 1`,
+      lastError: error.slice(0, 500),
+    })
     .where(and(eq(reminderLog.id, id), ne(reminderLog.status, 'sent')));
 }
 

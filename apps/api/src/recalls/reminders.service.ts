@@ -12,7 +12,14 @@ import { DB, type Database } from '../db/database.js';
 import { MailService } from '../mail/mail.service.js';
 import { reminderKey } from './exam-rules.js';
 import { RecallClock } from './recall-clock.js';
-import { listScheduledRecalls, listUnsent, lockReminder, logReminders, markFailedAttempt, markSent } from './reminders.repository.js';
+import {
+  listScheduledRecalls,
+  listUnsent,
+  lockReminder,
+  logReminders,
+  markFailedAttempt,
+  markSent,
+} from './reminders.repository.js';
 
 const SEND_QUEUE = 'recall-reminder-send';
 const SCAN_QUEUE = 'recall-reminder-scan';
@@ -26,7 +33,13 @@ interface ScanJob {
 
 export type DeliveryOutcome = 'sent' | 'already-sent' | 'gone' | 'no-address' | 'failed';
 
-const longDate = (iso: string) => new Date(`${iso}T00:00:00Z`).toLocaleDateString('en-GB', { day: 'numeric', month: 'long', year: 'numeric', timeZone: 'UTC' });
+const longDate = (iso: string) =>
+  new Date(`${iso}T00:00:00Z`).toLocaleDateString('en-GB', {
+    day: 'numeric',
+    month: 'long',
+    year: 'numeric',
+    timeZone: 'UTC',
+  });
 
 @Injectable()
 export class RemindersService implements OnModuleInit, OnApplicationShutdown {
@@ -42,10 +55,16 @@ export class RemindersService implements OnModuleInit, OnApplicationShutdown {
 
   async onModuleInit(): Promise<void> {
     const boss = new PgBoss({ connectionString: this.env.DATABASE_URL, schema: 'pgboss', max: 3 });
-    boss.on('error', (error: unknown) => this.logger.error(`pg-boss: ${error instanceof Error ? error.message : String(error)}`));
+    boss.on('error', (error: unknown) =>
+      this.logger.error(`pg-boss: ${error instanceof Error ? error.message : String(error)}`),
+    );
     await boss.start();
     this.boss = boss;
-    const retry = { retryLimit: this.env.REMINDER_RETRY_LIMIT, retryDelay: this.env.REMINDER_RETRY_DELAY_S, retryBackoff: true };
+    const retry = {
+      retryLimit: this.env.REMINDER_RETRY_LIMIT,
+      retryDelay: this.env.REMINDER_RETRY_DELAY_S,
+      retryBackoff: true,
+    };
     // exclusive: at most one queued-or-active send job per reminder key.
     await this.ensureQueue(SEND_QUEUE, { policy: 'exclusive', ...retry });
     await this.ensureQueue(SCAN_QUEUE, { policy: 'standard', retryLimit: 3, retryDelay: 60, retryBackoff: true });
@@ -56,7 +75,10 @@ export class RemindersService implements OnModuleInit, OnApplicationShutdown {
     await boss.schedule(SCAN_QUEUE, this.env.REMINDER_SCAN_CRON, {}, { tz: 'UTC' });
   }
 
-  private async ensureQueue(name: string, options: { policy: string; retryLimit: number; retryDelay: number; retryBackoff: boolean }) {
+  private async ensureQueue(
+    name: string,
+    options: { policy: string; retryLimit: number; retryDelay: number; retryBackoff: boolean },
+  ) {
     const boss = this.boss!;
     if (await boss.getQueue(name)) {
       const { policy: _policy, ...rest } = options;
@@ -78,13 +100,24 @@ export class RemindersService implements OnModuleInit, OnApplicationShutdown {
    */
   async scan(today: string, practiceId?: string): Promise<{ today: string; logged: number; queued: number }> {
     const candidates = (await listScheduledRecalls(this.db, practiceId)).flatMap((r) =>
-      remindersDue(r.dueOn, today, r).map((kind) => ({ practiceId: r.practiceId, patientId: r.patientId, recallDueOn: r.dueOn, kind, idempotencyKey: reminderKey(r.patientId, r.dueOn, kind) })),
+      remindersDue(r.dueOn, today, r).map((kind) => ({
+        practiceId: r.practiceId,
+        patientId: r.patientId,
+        recallDueOn: r.dueOn,
+        kind,
+        idempotencyKey: reminderKey(r.patientId, r.dueOn, kind),
+      })),
     );
     const logged = await logReminders(this.db, candidates);
-    const unsent = await listUnsent(this.db, candidates.map((c) => c.idempotencyKey));
+    const unsent = await listUnsent(
+      this.db,
+      candidates.map((c) => c.idempotencyKey),
+    );
     let queued = 0;
     for (const row of unsent) {
-      const id = await this.requireBoss().send(SEND_QUEUE, { reminderId: row.id } satisfies SendJob, { singletonKey: row.idempotencyKey });
+      const id = await this.requireBoss().send(SEND_QUEUE, { reminderId: row.id } satisfies SendJob, {
+        singletonKey: row.idempotencyKey,
+      });
       if (id) queued += 1;
     }
     return { today, logged, queued };
@@ -121,7 +154,9 @@ export class RemindersService implements OnModuleInit, OnApplicationShutdown {
       try {
         const messageId = await this.mail.send({
           to: row.email,
-          subject: overdue ? `Your implant maintenance visit was due on ${when}` : `Your implant maintenance visit is due on ${when}`,
+          subject: overdue
+            ? `Your implant maintenance visit was due on ${when}`
+            : `Your implant maintenance visit is due on ${when}`,
           text: [
             `Dear ${row.given_name} ${row.family_name},`,
             '',

@@ -1,7 +1,22 @@
 // Server-side check of a plan: the parts must exist in the practice's catalogue, be of the right
 // kind and fit the site's platform; then the same `validateRestorationPlan` the web runs live.
-import { ABUTMENT_KINDS, type ComponentKind, type ImpressionCopingKind, type InterfaceKind, type MultiUnitAngleDeg, type PlanBodyParsed, SCREW_KINDS, findingField } from '@torquetrail/contracts';
-import { type Finding, type RestorationPlan, ValidationError, type Vec3, validateRestorationPlan } from '@torquetrail/domain';
+import {
+  ABUTMENT_KINDS,
+  type ComponentKind,
+  type ImpressionCopingKind,
+  type InterfaceKind,
+  type MultiUnitAngleDeg,
+  type PlanBodyParsed,
+  SCREW_KINDS,
+  findingField,
+} from '@torquetrail/contracts';
+import {
+  type Finding,
+  type RestorationPlan,
+  ValidationError,
+  type Vec3,
+  validateRestorationPlan,
+} from '@torquetrail/domain';
 import { fieldError } from '../common/field-error.js';
 import type { RestorableSiteRow } from './restorations.repository.js';
 
@@ -31,7 +46,10 @@ export interface CheckedPlan {
   sites: CheckedSite[];
 }
 
-const SLOT_KINDS: Record<'abutmentComponentId' | 'multiUnitComponentId' | 'screwComponentIds' | 'impressionCopingComponentId', readonly ComponentKind[]> = {
+const SLOT_KINDS: Record<
+  'abutmentComponentId' | 'multiUnitComponentId' | 'screwComponentIds' | 'impressionCopingComponentId',
+  readonly ComponentKind[]
+> = {
   abutmentComponentId: ABUTMENT_KINDS,
   multiUnitComponentId: ['multi-unit-abutment'],
   screwComponentIds: SCREW_KINDS,
@@ -42,7 +60,11 @@ const axisOf = (s: RestorableSiteRow): Vec3 | null =>
   s.axisX !== null && s.axisY !== null && s.axisZ !== null ? [s.axisX, s.axisY, s.axisZ] : null;
 
 /** Throws 400 with `fields` for every problem; returns the findings (warnings only) and the resolved sites. */
-export function checkPlan(body: PlanBodyParsed, patientSites: RestorableSiteRow[], catalogue: Map<string, CatalogueRow>): CheckedPlan {
+export function checkPlan(
+  body: PlanBodyParsed,
+  patientSites: RestorableSiteRow[],
+  catalogue: Map<string, CatalogueRow>,
+): CheckedPlan {
   const fields: Record<string, string> = {};
   const sites: CheckedSite[] = [];
   const planSites: RestorationPlan['sites'] = [];
@@ -66,8 +88,10 @@ export function checkPlan(body: PlanBodyParsed, patientSites: RestorableSiteRow[
         const key = Array.isArray(value) ? `sites.${i}.${slot}.${j}` : `sites.${i}.${slot}`;
         const part = catalogue.get(id);
         if (!part) fields[key] = 'No such part in the practice catalogue';
-        else if (part.platformId !== site.platformId) fields[key] = `${part.name} does not fit the platform at ${site.fdi} (${site.platformName})`;
-        else if (!SLOT_KINDS[slot].includes(part.kind)) fields[key] = `${part.name} is not a part of this kind (${SLOT_KINDS[slot].join(', ')})`;
+        else if (part.platformId !== site.platformId)
+          fields[key] = `${part.name} does not fit the platform at ${site.fdi} (${site.platformName})`;
+        else if (!SLOT_KINDS[slot].includes(part.kind))
+          fields[key] = `${part.name} is not a part of this kind (${SLOT_KINDS[slot].join(', ')})`;
         else {
           componentIds.push(id);
           if (!Array.isArray(value)) chosen[slot] = part;
@@ -75,18 +99,33 @@ export function checkPlan(body: PlanBodyParsed, patientSites: RestorableSiteRow[
       });
     }
     const coping = chosen.impressionCopingComponentId;
-    if (coping && coping.engaging !== null && (coping.engaging ? s.impressionCoping !== 'engaging' : s.impressionCoping === 'engaging')) {
-      fields[`sites.${i}.impressionCopingComponentId`] = `${coping.name} is ${coping.engaging ? 'engaging' : 'non-engaging'}, but the impression technique says ${s.impressionCoping}`;
+    if (
+      coping &&
+      coping.engaging !== null &&
+      (coping.engaging ? s.impressionCoping !== 'engaging' : s.impressionCoping === 'engaging')
+    ) {
+      fields[`sites.${i}.impressionCopingComponentId`] =
+        `${coping.name} is ${coping.engaging ? 'engaging' : 'non-engaging'}, but the impression technique says ${s.impressionCoping}`;
     }
     let angle = s.multiUnitAngleDeg;
     const mua = chosen.multiUnitComponentId;
     if (mua) {
       const muaAngle = mua.angleDeg === 0 || mua.angleDeg === 17 || mua.angleDeg === 30 ? mua.angleDeg : null;
       if (angle === null) angle = muaAngle;
-      else if (muaAngle !== null && muaAngle !== angle) fields[`sites.${i}.multiUnitAngleDeg`] = `${mua.name} is ${muaAngle}°, not ${angle}°`;
+      else if (muaAngle !== null && muaAngle !== angle)
+        fields[`sites.${i}.multiUnitAngleDeg`] = `${mua.name} is ${muaAngle}°, not ${angle}°`;
     }
     const axis = s.axis ?? axisOf(site);
-    sites.push({ siteId: site.siteId, fdi: site.fdi, interface: s.interface, impressionCoping: s.impressionCoping, multiUnitAngleDeg: angle, restorativeSpaceMm: s.restorativeSpaceMm, enteredAxis: s.axis, componentIds });
+    sites.push({
+      siteId: site.siteId,
+      fdi: site.fdi,
+      interface: s.interface,
+      impressionCoping: s.impressionCoping,
+      multiUnitAngleDeg: angle,
+      restorativeSpaceMm: s.restorativeSpaceMm,
+      enteredAxis: s.axis,
+      componentIds,
+    });
     planSites.push({
       fdi: site.fdi,
       interface: s.interface,
@@ -100,7 +139,12 @@ export function checkPlan(body: PlanBodyParsed, patientSites: RestorableSiteRow[
 
   let findings: Finding[];
   try {
-    findings = validateRestorationPlan({ kind: body.kind, retention: body.retention, copingsSplinted: body.copingsSplinted, sites: planSites });
+    findings = validateRestorationPlan({
+      kind: body.kind,
+      retention: body.retention,
+      copingsSplinted: body.copingsSplinted,
+      sites: planSites,
+    });
   } catch (error) {
     if (error instanceof ValidationError) {
       const field = (error.field ?? 'sites').replace(/^plan\./, '').replace(/\[(\d+)\]/g, '.$1');
@@ -114,15 +158,23 @@ export function checkPlan(body: PlanBodyParsed, patientSites: RestorableSiteRow[
   if (errors.length > 0) {
     const out: Record<string, string> = {};
     for (const f of errors) out[findingField(f, fdis)] ??= f.message;
-    throw fieldError(out, `The plan has ${errors.length === 1 ? 'an error' : `${errors.length} errors`}: ${errors.map((f) => f.message).join(' ')}`);
+    throw fieldError(
+      out,
+      `The plan has ${errors.length === 1 ? 'an error' : `${errors.length} errors`}: ${errors.map((f) => f.message).join(' ')}`,
+    );
   }
   const unacknowledged = findings.filter(
-    (f) => f.severity === 'warning' && !body.acknowledgements.some((a) => a.code === f.code && (a.fdi ?? undefined) === f.fdi),
+    (f) =>
+      f.severity === 'warning' &&
+      !body.acknowledgements.some((a) => a.code === f.code && (a.fdi ?? undefined) === f.fdi),
   );
   if (unacknowledged.length > 0) {
     const out: Record<string, string> = {};
     for (const f of unacknowledged) out[findingField(f, fdis)] ??= `Acknowledge this warning to save: ${f.message}`;
-    throw fieldError(out, `Acknowledge the warnings to save the plan: ${unacknowledged.map((f) => f.message).join(' ')}`);
+    throw fieldError(
+      out,
+      `Acknowledge the warnings to save the plan: ${unacknowledged.map((f) => f.message).join(' ')}`,
+    );
   }
   return { findings, sites };
 }

@@ -1,6 +1,13 @@
 import { Body, Controller, Get, HttpCode, Param, ParseUUIDPipe, Post, HttpStatus } from '@nestjs/common';
 import type { AppAbility } from '@torquetrail/authz';
-import { DeliveryBody, PlanAmendmentBody, PlanBody, type RestorableSitesReply, type RestorationDetail, type RestorationListReply } from '@torquetrail/contracts';
+import {
+  DeliveryBody,
+  PlanAmendmentBody,
+  PlanBody,
+  type RestorableSitesReply,
+  type RestorationDetail,
+  type RestorationListReply,
+} from '@torquetrail/contracts';
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
 import { Allow } from '../authz/check-ability.decorator.js';
@@ -17,25 +24,41 @@ export class RestorationsController {
 
   @Get('patients/:id/restorable-sites')
   @Allow('read', 'ImplantSite')
-  restorableSites(@CurrentUser() user: SessionUser, @CurrentAbility() ability: AppAbility, @Param('id', uuid()) id: string): Promise<RestorableSitesReply> {
+  restorableSites(
+    @CurrentUser() user: SessionUser,
+    @CurrentAbility() ability: AppAbility,
+    @Param('id', uuid()) id: string,
+  ): Promise<RestorableSitesReply> {
     return this.restorations.restorableSites(ability, scopeOf(user), id);
   }
 
   @Get('patients/:id/restorations')
   @Allow('read', 'Restoration')
-  list(@CurrentUser() user: SessionUser, @CurrentAbility() ability: AppAbility, @Param('id', uuid()) id: string): Promise<RestorationListReply> {
+  list(
+    @CurrentUser() user: SessionUser,
+    @CurrentAbility() ability: AppAbility,
+    @Param('id', uuid()) id: string,
+  ): Promise<RestorationListReply> {
     return this.restorations.list(ability, scopeOf(user), id);
   }
 
   @Post('restorations')
   @Allow('create', 'Restoration')
-  create(@CurrentUser() user: SessionUser, @CurrentAbility() ability: AppAbility, @Body(new ZodValidationPipe(PlanBody)) body: z.output<typeof PlanBody>): Promise<RestorationDetail> {
+  create(
+    @CurrentUser() user: SessionUser,
+    @CurrentAbility() ability: AppAbility,
+    @Body(new ZodValidationPipe(PlanBody)) body: z.output<typeof PlanBody>,
+  ): Promise<RestorationDetail> {
     return this.restorations.create(ability, user, scopeOf(user), body);
   }
 
   @Get('restorations/:id')
   @Allow('read', 'Restoration')
-  detail(@CurrentUser() user: SessionUser, @CurrentAbility() ability: AppAbility, @Param('id', uuid()) id: string): Promise<RestorationDetail> {
+  detail(
+    @CurrentUser() user: SessionUser,
+    @CurrentAbility() ability: AppAbility,
+    @Param('id', uuid()) id: string,
+  ): Promise<RestorationDetail> {
     return this.restorations.detail(ability, scopeOf(user), id);
   }
 

@@ -171,7 +171,12 @@ export async function loadRestorationSites(db: Db, restorationIds: string[]) {
           .select({ restorationSiteId: restorationSiteComponents.restorationSiteId, ...componentSpecColumns })
           .from(restorationSiteComponents)
           .innerJoin(components, eq(components.id, restorationSiteComponents.componentId))
-          .where(inArray(restorationSiteComponents.restorationSiteId, sites.map((s) => s.id)))
+          .where(
+            inArray(
+              restorationSiteComponents.restorationSiteId,
+              sites.map((s) => s.id),
+            ),
+          )
           .orderBy(asc(restorationSiteComponents.id));
   return { sites, parts };
 }
@@ -179,7 +184,13 @@ export async function loadRestorationSites(db: Db, restorationIds: string[]) {
 export async function loadAcknowledgements(db: Db, restorationIds: string[]) {
   if (restorationIds.length === 0) return [];
   return db
-    .select({ restorationId: findingAcknowledgements.restorationId, code: findingAcknowledgements.code, fdi: findingAcknowledgements.fdi, byName: users.displayName, at: findingAcknowledgements.acknowledgedAt })
+    .select({
+      restorationId: findingAcknowledgements.restorationId,
+      code: findingAcknowledgements.code,
+      fdi: findingAcknowledgements.fdi,
+      byName: users.displayName,
+      at: findingAcknowledgements.acknowledgedAt,
+    })
     .from(findingAcknowledgements)
     .innerJoin(users, eq(users.id, findingAcknowledgements.acknowledgedBy))
     .where(inArray(findingAcknowledgements.restorationId, restorationIds))
@@ -189,7 +200,14 @@ export async function loadAcknowledgements(db: Db, restorationIds: string[]) {
 export async function loadLabPrescriptions(db: Db, restorationIds: string[]) {
   if (restorationIds.length === 0) return [];
   return db
-    .select({ id: labPrescriptions.id, restorationId: labPrescriptions.restorationId, sizeBytes: labPrescriptions.sizeBytes, emailedTo: labPrescriptions.emailedTo, emailedAt: labPrescriptions.emailedAt, createdAt: labPrescriptions.createdAt })
+    .select({
+      id: labPrescriptions.id,
+      restorationId: labPrescriptions.restorationId,
+      sizeBytes: labPrescriptions.sizeBytes,
+      emailedTo: labPrescriptions.emailedTo,
+      emailedAt: labPrescriptions.emailedAt,
+      createdAt: labPrescriptions.createdAt,
+    })
     .from(labPrescriptions)
     .where(inArray(labPrescriptions.restorationId, restorationIds))
     .orderBy(desc(labPrescriptions.createdAt));
@@ -213,7 +231,10 @@ export async function insertRestoration(tx: Tx, v: RestorationValues) {
 }
 
 /** A new version of a plan; a second amendment of one version is refused by the database. */
-export const insertRestorationAmendment = (tx: Tx, v: RestorationValues & { supersedesId: string; amendmentReason: string }) => insertAmendment(tx, restorations, v);
+export const insertRestorationAmendment = (
+  tx: Tx,
+  v: RestorationValues & { supersedesId: string; amendmentReason: string },
+) => insertAmendment(tx, restorations, v);
 
 export async function insertRestorationSite(tx: Tx, v: typeof restorationSites.$inferInsert) {
   const [row] = await tx.insert(restorationSites).values(v).returning({ id: restorationSites.id });
@@ -234,8 +255,23 @@ export async function removePartsOfKinds(tx: Tx, siteIds: string[], kinds: reado
     .select({ id: componentInstances.id })
     .from(componentInstances)
     .innerJoin(components, eq(components.id, componentInstances.componentId))
-    .where(and(inArray(componentInstances.siteId, siteIds), isNull(componentInstances.removedOn), inArray(components.kind, [...kinds])));
-  if (found.length > 0) await tx.update(componentInstances).set({ removedOn: on }).where(inArray(componentInstances.id, found.map((h) => h.id)));
+    .where(
+      and(
+        inArray(componentInstances.siteId, siteIds),
+        isNull(componentInstances.removedOn),
+        inArray(components.kind, [...kinds]),
+      ),
+    );
+  if (found.length > 0)
+    await tx
+      .update(componentInstances)
+      .set({ removedOn: on })
+      .where(
+        inArray(
+          componentInstances.id,
+          found.map((h) => h.id),
+        ),
+      );
 }
 
 /** Restorations delivered at any of the sites, other than the one given. */
@@ -244,7 +280,13 @@ export async function findDeliveredAt(tx: Tx, siteIds: string[], exceptId: strin
     .selectDistinct({ id: restorations.id })
     .from(restorations)
     .innerJoin(restorationSites, eq(restorationSites.restorationId, restorations.id))
-    .where(and(inArray(restorationSites.siteId, siteIds), eq(restorations.status, 'delivered'), ne(restorations.id, exceptId)));
+    .where(
+      and(
+        inArray(restorationSites.siteId, siteIds),
+        eq(restorations.status, 'delivered'),
+        ne(restorations.id, exceptId),
+      ),
+    );
   return rows.map((r) => r.id);
 }
 
@@ -252,9 +294,18 @@ export async function findDeliveredAt(tx: Tx, siteIds: string[], exceptId: strin
  * The restorations become 'removed'; their parts still in place come out (`removedOn`) at the
  * given sites, and parts of the given kinds come out at every site they span.
  */
-export async function removeRestorations(tx: Tx, ids: string[], siteIds: string[], everywhereKinds: readonly ComponentKind[], on: string) {
+export async function removeRestorations(
+  tx: Tx,
+  ids: string[],
+  siteIds: string[],
+  everywhereKinds: readonly ComponentKind[],
+  on: string,
+) {
   await tx.update(restorations).set({ status: 'removed' }).where(inArray(restorations.id, ids));
-  const everywhere = tx.select({ id: components.id }).from(components).where(inArray(components.kind, [...everywhereKinds]));
+  const everywhere = tx
+    .select({ id: components.id })
+    .from(components)
+    .where(inArray(components.kind, [...everywhereKinds]));
   await tx
     .update(componentInstances)
     .set({ removedOn: on })
@@ -272,7 +323,15 @@ export async function installParts(tx: Tx, rows: (typeof componentInstances.$inf
 }
 
 /** The version is delivered; its sites are restored. */
-export async function markDelivered(tx: Tx, id: string, siteIds: string[], v: { deliveredOn: string; impressionTakenOn: string | null }) {
-  await tx.update(restorations).set({ status: 'delivered', deliveredOn: v.deliveredOn, impressionTakenOn: v.impressionTakenOn }).where(eq(restorations.id, id));
+export async function markDelivered(
+  tx: Tx,
+  id: string,
+  siteIds: string[],
+  v: { deliveredOn: string; impressionTakenOn: string | null },
+) {
+  await tx
+    .update(restorations)
+    .set({ status: 'delivered', deliveredOn: v.deliveredOn, impressionTakenOn: v.impressionTakenOn })
+    .where(eq(restorations.id, id));
   await tx.update(implantSites).set({ status: 'restored' }).where(inArray(implantSites.id, siteIds));
 }

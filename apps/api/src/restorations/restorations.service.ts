@@ -1,6 +1,14 @@
 import { ConflictException, Inject, Injectable } from '@nestjs/common';
 import { type AppAbility, subject } from '@torquetrail/authz';
-import { CLOSURE_KINDS, type DeliveryBody, type PlanAmendmentBody, type PlanBody, type RestorableSitesReply, type RestorationDetail, type RestorationListReply } from '@torquetrail/contracts';
+import {
+  CLOSURE_KINDS,
+  type DeliveryBody,
+  type PlanAmendmentBody,
+  type PlanBody,
+  type RestorableSitesReply,
+  type RestorationDetail,
+  type RestorationListReply,
+} from '@torquetrail/contracts';
 import { RULES_VERSION, fdiToUniversal, isRetrievable } from '@torquetrail/domain';
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
@@ -33,7 +41,10 @@ async function retirePreviousRestorations(tx: Tx, restorationId: string, siteIds
 
 /** Only a plan not yet delivered is re-planned. */
 function assertStillPlanned(row: repo.RestorationRow) {
-  if (row.status !== 'planned') throw new ConflictException('A delivered restoration is not re-planned; record a complication or a new restoration');
+  if (row.status !== 'planned')
+    throw new ConflictException(
+      'A delivered restoration is not re-planned; record a complication or a new restoration',
+    );
 }
 
 /** Only the current version of a plan not yet delivered is amended. */
@@ -53,7 +64,13 @@ export class RestorationsService {
   constructor(@Inject(DB) private readonly db: Database) {}
 
   private async visiblePatient(ability: AppAbility, scope: Scope, patientId: string) {
-    return assertCan(ability, 'read', 'Patient', await repo.findVisiblePatientBrief(this.db, scope, patientId), 'patient');
+    return assertCan(
+      ability,
+      'read',
+      'Patient',
+      await repo.findVisiblePatientBrief(this.db, scope, patientId),
+      'patient',
+    );
   }
 
   async restorableSites(ability: AppAbility, scope: Scope, patientId: string): Promise<RestorableSitesReply> {
@@ -78,12 +95,19 @@ export class RestorationsService {
 
   async list(ability: AppAbility, scope: Scope, patientId: string): Promise<RestorationListReply> {
     const patient = await this.visiblePatient(ability, scope, patientId);
-    if (!ability.can('read', subject('Restoration', { practiceId: patient.practiceId, patientId: patient.id }))) return { items: [] };
+    if (!ability.can('read', subject('Restoration', { practiceId: patient.practiceId, patientId: patient.id })))
+      return { items: [] };
     return { items: await this.details(await repo.listRestorationsOfPatient(this.db, patient.id)) };
   }
 
   async detail(ability: AppAbility, scope: Scope, id: string): Promise<RestorationDetail> {
-    const row = assertCan(ability, 'read', 'Restoration', await repo.findVisibleRestoration(this.db, scope, id), 'restoration');
+    const row = assertCan(
+      ability,
+      'read',
+      'Restoration',
+      await repo.findVisibleRestoration(this.db, scope, id),
+      'restoration',
+    );
     return (await this.details([row]))[0];
   }
 
@@ -96,23 +120,54 @@ export class RestorationsService {
   }
 
   /** An amendment is a new version superseding the old one; only a plan not yet delivered can be amended. */
-  async amend(ability: AppAbility, user: SessionUser, scope: Scope, id: string, body: AmendInput): Promise<RestorationDetail> {
-    const old = assertCan(ability, 'amend', 'Restoration', await repo.findVisibleRestoration(this.db, scope, id), 'restoration');
+  async amend(
+    ability: AppAbility,
+    user: SessionUser,
+    scope: Scope,
+    id: string,
+    body: AmendInput,
+  ): Promise<RestorationDetail> {
+    const old = assertCan(
+      ability,
+      'amend',
+      'Restoration',
+      await repo.findVisibleRestoration(this.db, scope, id),
+      'restoration',
+    );
     assertAmendable(old);
-    const patient = (await repo.findVisiblePatientBrief(this.db, scope, old.patientId));
+    const patient = await repo.findVisiblePatientBrief(this.db, scope, old.patientId);
     const newId = await this.db.transaction(async (tx) => {
       // The lock keeps a delivery out until this amendment ends; between two amendments the
       // unique index on supersedes_id decides (insertAmendment), so only the status is re-read.
       await repo.shareLockRestoration(tx, old.id);
-      assertStillPlanned((await repo.findVisibleRestoration(tx, scope, old.id)));
-      return this.insertPlan(tx, user, patient, { ...body, patientId: old.patientId }, { supersedesId: old.id, amendmentReason: body.amendmentReason });
+      assertStillPlanned(await repo.findVisibleRestoration(tx, scope, old.id));
+      return this.insertPlan(
+        tx,
+        user,
+        patient,
+        { ...body, patientId: old.patientId },
+        { supersedesId: old.id, amendmentReason: body.amendmentReason },
+      );
     });
     return this.detail(ability, scope, newId);
   }
 
-  private async insertPlan(tx: Tx, user: SessionUser, patient: { id: string; practiceId: string }, body: PlanInput, amendment: { supersedesId: string; amendmentReason: string } | null) {
+  private async insertPlan(
+    tx: Tx,
+    user: SessionUser,
+    patient: { id: string; practiceId: string },
+    body: PlanInput,
+    amendment: { supersedesId: string; amendmentReason: string } | null,
+  ) {
     const patientSites = await repo.listRestorableSites(tx, patient.id);
-    const ids = body.sites.flatMap((s) => [s.abutmentComponentId, s.multiUnitComponentId, s.impressionCopingComponentId, ...s.screwComponentIds]).filter((x): x is string => !!x);
+    const ids = body.sites
+      .flatMap((s) => [
+        s.abutmentComponentId,
+        s.multiUnitComponentId,
+        s.impressionCopingComponentId,
+        ...s.screwComponentIds,
+      ])
+      .filter((x): x is string => !!x);
     const catalogue = new Map((await repo.findCatalogueParts(tx, patient.practiceId, ids)).map((c) => [c.id, c]));
     const checked = checkPlan(body, patientSites, catalogue);
 
@@ -133,7 +188,9 @@ export class RestorationsService {
       dueOn: body.dueOn,
       notes: body.notes,
     };
-    const id = amendment ? await repo.insertRestorationAmendment(tx, { ...values, ...amendment }) : await repo.insertRestoration(tx, values);
+    const id = amendment
+      ? await repo.insertRestorationAmendment(tx, { ...values, ...amendment })
+      : await repo.insertRestoration(tx, values);
     for (const s of checked.sites) {
       const restorationSiteId = await repo.insertRestorationSite(tx, {
         practiceId: patient.practiceId,
@@ -147,10 +204,22 @@ export class RestorationsService {
         axisY: s.enteredAxis?.[1] ?? null,
         axisZ: s.enteredAxis?.[2] ?? null,
       });
-      await repo.insertSiteComponents(tx, s.componentIds.map((componentId) => ({ practiceId: patient.practiceId, restorationSiteId, componentId })));
+      await repo.insertSiteComponents(
+        tx,
+        s.componentIds.map((componentId) => ({ practiceId: patient.practiceId, restorationSiteId, componentId })),
+      );
     }
     const acknowledged = checked.findings.filter((f) => f.severity === 'warning');
-    await repo.insertAcknowledgements(tx, acknowledged.map((f) => ({ practiceId: patient.practiceId, restorationId: id, code: f.code, fdi: f.fdi ?? null, acknowledgedBy: user.id })));
+    await repo.insertAcknowledgements(
+      tx,
+      acknowledged.map((f) => ({
+        practiceId: patient.practiceId,
+        restorationId: id,
+        code: f.code,
+        fdi: f.fdi ?? null,
+        acknowledgedBy: user.id,
+      })),
+    );
     return id;
   }
 
@@ -159,19 +228,40 @@ export class RestorationsService {
    * catalogue says so, and the part must fit the site's platform), healing abutments and cover
    * screws come out, the sites become 'restored'. Nothing is saved when any part is refused.
    */
-  async deliver(ability: AppAbility, user: SessionUser, scope: Scope, id: string, body: DeliveryInput): Promise<RestorationDetail> {
-    const row = assertCan(ability, 'create', 'ComponentInstance', await repo.findVisibleRestoration(this.db, scope, id), 'restoration');
+  async deliver(
+    ability: AppAbility,
+    user: SessionUser,
+    scope: Scope,
+    id: string,
+    body: DeliveryInput,
+  ): Promise<RestorationDetail> {
+    const row = assertCan(
+      ability,
+      'create',
+      'ComponentInstance',
+      await repo.findVisibleRestoration(this.db, scope, id),
+      'restoration',
+    );
     assertCan(ability, 'amend', 'Restoration', row, 'restoration');
     assertDeliverable(row);
     const today = new Date().toISOString().slice(0, 10);
     if (body.deliveredOn > today) throw fieldError({ deliveredOn: 'Cannot be in the future' });
-    if (body.impressionTakenOn && body.impressionTakenOn > body.deliveredOn) throw fieldError({ impressionTakenOn: 'The impression cannot be taken after the delivery' });
+    if (body.impressionTakenOn && body.impressionTakenOn > body.deliveredOn)
+      throw fieldError({ impressionTakenOn: 'The impression cannot be taken after the delivery' });
     await this.db.transaction(async (tx) => {
       // Re-read under the lock: a concurrent delivery or amendment committed meanwhile is seen.
       await repo.lockRestoration(tx, row.id);
-      assertDeliverable((await repo.findVisibleRestoration(tx, scope, row.id)));
+      assertDeliverable(await repo.findVisibleRestoration(tx, scope, row.id));
       const { sites } = await repo.loadRestorationSites(tx, [row.id]);
-      const catalogue = new Map((await repo.findCatalogueParts(tx, row.practiceId, body.parts.map((p) => p.componentId))).map((c) => [c.id, c]));
+      const catalogue = new Map(
+        (
+          await repo.findCatalogueParts(
+            tx,
+            row.practiceId,
+            body.parts.map((p) => p.componentId),
+          )
+        ).map((c) => [c.id, c]),
+      );
       const fields: Record<string, string> = {};
       const seen = new Set<string>();
       body.parts.forEach((p, i) => {
@@ -181,10 +271,14 @@ export class RestorationsService {
         const repeated = seen.has(key);
         seen.add(key);
         if (!site) fields[`parts.${i}.siteId`] = 'This site is not part of the restoration';
-        else if (repeated) fields[`parts.${i}.componentId`] = `This part is listed twice for ${site.fdi}: record each part once`;
+        else if (repeated)
+          fields[`parts.${i}.componentId`] = `This part is listed twice for ${site.fdi}: record each part once`;
         else if (!part) fields[`parts.${i}.componentId`] = 'No such part in the practice catalogue';
-        else if (part.platformId !== site.platformId) fields[`parts.${i}.componentId`] = `${part.name} does not fit the platform at ${site.fdi} (${site.platformName})`;
-        else if (part.kind === 'impression-coping') fields[`parts.${i}.componentId`] = 'Impression copings do not stay in the mouth';
+        else if (part.platformId !== site.platformId)
+          fields[`parts.${i}.componentId`] =
+            `${part.name} does not fit the platform at ${site.fdi} (${site.platformName})`;
+        else if (part.kind === 'impression-coping')
+          fields[`parts.${i}.componentId`] = 'Impression copings do not stay in the mouth';
         else if (part.requiresLot && !p.lot) fields[`parts.${i}.lot`] = `The lot number of ${part.name} is required`;
       });
       if (Object.keys(fields).length > 0) throw fieldError(fields);
@@ -205,7 +299,10 @@ export class RestorationsService {
           recordedBy: user.id,
         })),
       );
-      await repo.markDelivered(tx, row.id, siteIds, { deliveredOn: body.deliveredOn, impressionTakenOn: body.impressionTakenOn ?? row.impressionTakenOn });
+      await repo.markDelivered(tx, row.id, siteIds, {
+        deliveredOn: body.deliveredOn,
+        impressionTakenOn: body.impressionTakenOn ?? row.impressionTakenOn,
+      });
     });
     return this.detail(ability, scope, row.id);
   }
@@ -217,7 +314,7 @@ export class RestorationsService {
 
   /** What the lab prescription of a visible version lists: its patient, and its sites with the chosen parts. */
   async labSheet(scope: Scope, r: { id: string; patientId: string }) {
-    const patient = (await repo.findVisiblePatientBrief(this.db, scope, r.patientId));
+    const patient = await repo.findVisiblePatientBrief(this.db, scope, r.patientId);
     const { sites, parts } = await repo.loadRestorationSites(this.db, [r.id]);
     return { patient, sites: sites.map((s) => ({ ...s, parts: parts.filter((p) => p.restorationSiteId === s.id) })) };
   }
@@ -225,7 +322,11 @@ export class RestorationsService {
   /** Builds the replies for several restorations with a fixed number of queries. */
   async details(rows: repo.RestorationRow[]): Promise<RestorationDetail[]> {
     const ids = rows.map((r) => r.id);
-    const [{ sites, parts }, acks, labs] = await Promise.all([repo.loadRestorationSites(this.db, ids), repo.loadAcknowledgements(this.db, ids), repo.loadLabPrescriptions(this.db, ids)]);
+    const [{ sites, parts }, acks, labs] = await Promise.all([
+      repo.loadRestorationSites(this.db, ids),
+      repo.loadAcknowledgements(this.db, ids),
+      repo.loadLabPrescriptions(this.db, ids),
+    ]);
     return rows.map((r) => ({
       id: r.id,
       patientId: r.patientId,
@@ -249,10 +350,18 @@ export class RestorationsService {
       amendmentReason: r.amendmentReason,
       supersededById: r.supersededById,
       retrievable: isRetrievable(r.retention),
-      acknowledgements: acks.filter((a) => a.restorationId === r.id).map((a) => ({ code: a.code, fdi: a.fdi, byName: a.byName, at: a.at.toISOString() })),
+      acknowledgements: acks
+        .filter((a) => a.restorationId === r.id)
+        .map((a) => ({ code: a.code, fdi: a.fdi, byName: a.byName, at: a.at.toISOString() })),
       labPrescriptions: labs
         .filter((l) => l.restorationId === r.id)
-        .map((l) => ({ id: l.id, sizeBytes: l.sizeBytes, emailedTo: l.emailedTo, emailedAt: l.emailedAt?.toISOString() ?? null, createdAt: l.createdAt.toISOString() })),
+        .map((l) => ({
+          id: l.id,
+          sizeBytes: l.sizeBytes,
+          emailedTo: l.emailedTo,
+          emailedAt: l.emailedAt?.toISOString() ?? null,
+          createdAt: l.createdAt.toISOString(),
+        })),
       sites: sites
         .filter((s) => s.restorationId === r.id)
         .map((s) => ({

@@ -19,33 +19,197 @@ export interface SystemSpec {
 }
 
 export const DEMO_SYSTEMS: SystemSpec[] = [
-  { name: 'Solvra CN', manufacturer: 'Solvra Dental', code: 'SCN', connection: 'internal-conical', platformShift: true, diameters: [3.5, 4.3, 5.0], abutmentScrewNcm: 25 },
-  { name: 'Miravik HX', manufacturer: 'Miravik Implant Systems', code: 'MHX', connection: 'internal-hex', platformShift: false, diameters: [4.1, 4.8], abutmentScrewNcm: 30 },
-  { name: 'Tessely EX', manufacturer: 'Tessely Medical', code: 'TEX', connection: 'external-hex', platformShift: false, diameters: [4.1], abutmentScrewNcm: 32 },
+  {
+    name: 'Solvra CN',
+    manufacturer: 'Solvra Dental',
+    code: 'SCN',
+    connection: 'internal-conical',
+    platformShift: true,
+    diameters: [3.5, 4.3, 5.0],
+    abutmentScrewNcm: 25,
+  },
+  {
+    name: 'Miravik HX',
+    manufacturer: 'Miravik Implant Systems',
+    code: 'MHX',
+    connection: 'internal-hex',
+    platformShift: false,
+    diameters: [4.1, 4.8],
+    abutmentScrewNcm: 30,
+  },
+  {
+    name: 'Tessely EX',
+    manufacturer: 'Tessely Medical',
+    code: 'TEX',
+    connection: 'external-hex',
+    platformShift: false,
+    diameters: [4.1],
+    abutmentScrewNcm: 32,
+  },
 ];
 
 /** Parts offered on every platform; `key` names a part for the seeded records below. */
-function partsFor(system: SystemSpec, diameter: number): (Omit<ComponentRow, 'practiceId' | 'platformId'> & { key: string })[] {
+function partsFor(
+  system: SystemSpec,
+  diameter: number,
+): (Omit<ComponentRow, 'practiceId' | 'platformId'> & { key: string })[] {
   const d = diameter.toFixed(1).replace('.', '');
   const ref = (suffix: string) => `${system.code}-${d}-${suffix}`;
   const screw = system.abutmentScrewNcm;
   return [
-    { key: 'stock-abutment', kind: 'abutment-stock', name: 'Straight stock abutment, engaging', referenceCode: ref('SA'), engaging: true, angleDeg: 0, collarHeightMm: 2, torqueSpecNcm: null, tolerancePct: 10 },
-    { key: 'custom-abutment', kind: 'abutment-custom', name: 'Custom milled abutment, engaging', referenceCode: ref('CA'), engaging: true, angleDeg: null, torqueSpecNcm: null, tolerancePct: 10 },
-    { key: 'angled-abutment', kind: 'abutment-angled', name: 'Angled abutment 15°, engaging', referenceCode: ref('AA15'), engaging: true, angleDeg: 15, collarHeightMm: 2, torqueSpecNcm: null, tolerancePct: 10 },
-    { key: 'mua-0', kind: 'multi-unit-abutment', name: 'Multi-unit abutment 0°, 2 mm collar', referenceCode: ref('MU0-2'), engaging: false, angleDeg: 0, collarHeightMm: 2, torqueSpecNcm: 35, tolerancePct: 10 },
-    { key: 'mua-17', kind: 'multi-unit-abutment', name: 'Multi-unit abutment 17°, 2.5 mm collar', referenceCode: ref('MU17-25'), engaging: true, angleDeg: 17, collarHeightMm: 2.5, torqueSpecNcm: 15, tolerancePct: 10 },
-    { key: 'mua-30', kind: 'multi-unit-abutment', name: 'Multi-unit abutment 30°, 3.5 mm collar', referenceCode: ref('MU30-35'), engaging: true, angleDeg: 30, collarHeightMm: 3.5, torqueSpecNcm: 15, tolerancePct: 10 },
-    { key: 'abutment-screw', kind: 'abutment-screw', name: 'Abutment screw', referenceCode: ref('AS'), engaging: null, torqueSpecNcm: screw, tolerancePct: 10 },
-    { key: 'bridge-screw', kind: 'prosthetic-screw', name: 'Prosthetic screw, implant level', referenceCode: ref('PSI'), engaging: null, torqueSpecNcm: screw, tolerancePct: 10 },
-    { key: 'mua-screw', kind: 'prosthetic-screw', name: 'Prosthetic screw, multi-unit level', referenceCode: ref('PSM'), engaging: null, torqueSpecNcm: 15, tolerancePct: 10 },
+    {
+      key: 'stock-abutment',
+      kind: 'abutment-stock',
+      name: 'Straight stock abutment, engaging',
+      referenceCode: ref('SA'),
+      engaging: true,
+      angleDeg: 0,
+      collarHeightMm: 2,
+      torqueSpecNcm: null,
+      tolerancePct: 10,
+    },
+    {
+      key: 'custom-abutment',
+      kind: 'abutment-custom',
+      name: 'Custom milled abutment, engaging',
+      referenceCode: ref('CA'),
+      engaging: true,
+      angleDeg: null,
+      torqueSpecNcm: null,
+      tolerancePct: 10,
+    },
+    {
+      key: 'angled-abutment',
+      kind: 'abutment-angled',
+      name: 'Angled abutment 15°, engaging',
+      referenceCode: ref('AA15'),
+      engaging: true,
+      angleDeg: 15,
+      collarHeightMm: 2,
+      torqueSpecNcm: null,
+      tolerancePct: 10,
+    },
+    {
+      key: 'mua-0',
+      kind: 'multi-unit-abutment',
+      name: 'Multi-unit abutment 0°, 2 mm collar',
+      referenceCode: ref('MU0-2'),
+      engaging: false,
+      angleDeg: 0,
+      collarHeightMm: 2,
+      torqueSpecNcm: 35,
+      tolerancePct: 10,
+    },
+    {
+      key: 'mua-17',
+      kind: 'multi-unit-abutment',
+      name: 'Multi-unit abutment 17°, 2.5 mm collar',
+      referenceCode: ref('MU17-25'),
+      engaging: true,
+      angleDeg: 17,
+      collarHeightMm: 2.5,
+      torqueSpecNcm: 15,
+      tolerancePct: 10,
+    },
+    {
+      key: 'mua-30',
+      kind: 'multi-unit-abutment',
+      name: 'Multi-unit abutment 30°, 3.5 mm collar',
+      referenceCode: ref('MU30-35'),
+      engaging: true,
+      angleDeg: 30,
+      collarHeightMm: 3.5,
+      torqueSpecNcm: 15,
+      tolerancePct: 10,
+    },
+    {
+      key: 'abutment-screw',
+      kind: 'abutment-screw',
+      name: 'Abutment screw',
+      referenceCode: ref('AS'),
+      engaging: null,
+      torqueSpecNcm: screw,
+      tolerancePct: 10,
+    },
+    {
+      key: 'bridge-screw',
+      kind: 'prosthetic-screw',
+      name: 'Prosthetic screw, implant level',
+      referenceCode: ref('PSI'),
+      engaging: null,
+      torqueSpecNcm: screw,
+      tolerancePct: 10,
+    },
+    {
+      key: 'mua-screw',
+      kind: 'prosthetic-screw',
+      name: 'Prosthetic screw, multi-unit level',
+      referenceCode: ref('PSM'),
+      engaging: null,
+      torqueSpecNcm: 15,
+      tolerancePct: 10,
+    },
     // Demo value with no source: small lateral set-screws are tightened lightly.
-    { key: 'set-screw', kind: 'set-screw', name: 'Lingual set-screw', referenceCode: ref('LSS'), engaging: null, torqueSpecNcm: 10, tolerancePct: 10 },
-    { key: 'coping-engaging', kind: 'impression-coping', name: 'Impression coping, engaging, closed tray', referenceCode: ref('ICE-C'), engaging: true, tray: 'closed', torqueSpecNcm: null, tolerancePct: 10, requiresLot: false },
-    { key: 'coping-non-engaging', kind: 'impression-coping', name: 'Impression coping, non-engaging, open tray', referenceCode: ref('ICN-O'), engaging: false, tray: 'open', torqueSpecNcm: null, tolerancePct: 10, requiresLot: false },
-    { key: 'coping-mua', kind: 'impression-coping', name: 'Multi-unit impression coping, open tray', referenceCode: ref('ICM-O'), engaging: false, tray: 'open', torqueSpecNcm: null, tolerancePct: 10, requiresLot: false },
-    { key: 'healing', kind: 'healing-abutment', name: 'Healing abutment 4 mm', referenceCode: ref('HA4'), engaging: null, torqueSpecNcm: null, tolerancePct: 10 },
-    { key: 'cover', kind: 'cover-screw', name: 'Cover screw', referenceCode: ref('CS'), engaging: null, torqueSpecNcm: null, tolerancePct: 10 },
+    {
+      key: 'set-screw',
+      kind: 'set-screw',
+      name: 'Lingual set-screw',
+      referenceCode: ref('LSS'),
+      engaging: null,
+      torqueSpecNcm: 10,
+      tolerancePct: 10,
+    },
+    {
+      key: 'coping-engaging',
+      kind: 'impression-coping',
+      name: 'Impression coping, engaging, closed tray',
+      referenceCode: ref('ICE-C'),
+      engaging: true,
+      tray: 'closed',
+      torqueSpecNcm: null,
+      tolerancePct: 10,
+      requiresLot: false,
+    },
+    {
+      key: 'coping-non-engaging',
+      kind: 'impression-coping',
+      name: 'Impression coping, non-engaging, open tray',
+      referenceCode: ref('ICN-O'),
+      engaging: false,
+      tray: 'open',
+      torqueSpecNcm: null,
+      tolerancePct: 10,
+      requiresLot: false,
+    },
+    {
+      key: 'coping-mua',
+      kind: 'impression-coping',
+      name: 'Multi-unit impression coping, open tray',
+      referenceCode: ref('ICM-O'),
+      engaging: false,
+      tray: 'open',
+      torqueSpecNcm: null,
+      tolerancePct: 10,
+      requiresLot: false,
+    },
+    {
+      key: 'healing',
+      kind: 'healing-abutment',
+      name: 'Healing abutment 4 mm',
+      referenceCode: ref('HA4'),
+      engaging: null,
+      torqueSpecNcm: null,
+      tolerancePct: 10,
+    },
+    {
+      key: 'cover',
+      kind: 'cover-screw',
+      name: 'Cover screw',
+      referenceCode: ref('CS'),
+      engaging: null,
+      torqueSpecNcm: null,
+      tolerancePct: 10,
+    },
   ];
 }
 
@@ -55,11 +219,21 @@ export type CatalogueIndex = Map<string, { platformId: string; parts: Map<string
 export async function seedCatalogue(tx: Tx, practiceId: string, systems: SystemSpec[]): Promise<CatalogueIndex> {
   const index: CatalogueIndex = new Map();
   for (const system of systems) {
-    const [sys] = await tx.insert(implantSystems).values({ practiceId, name: system.name, manufacturer: system.manufacturer }).returning({ id: implantSystems.id });
+    const [sys] = await tx
+      .insert(implantSystems)
+      .values({ practiceId, name: system.name, manufacturer: system.manufacturer })
+      .returning({ id: implantSystems.id });
     for (const diameter of system.diameters) {
       const [platform] = await tx
         .insert(platforms)
-        .values({ practiceId, systemId: sys.id, name: `${system.name} ${diameter.toFixed(1)}`, diameterMm: diameter, connection: system.connection, platformShift: system.platformShift })
+        .values({
+          practiceId,
+          systemId: sys.id,
+          name: `${system.name} ${diameter.toFixed(1)}`,
+          diameterMm: diameter,
+          connection: system.connection,
+          platformShift: system.platformShift,
+        })
         .returning({ id: platforms.id });
       const specs = partsFor(system, diameter);
       const inserted = await tx

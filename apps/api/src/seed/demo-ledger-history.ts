@@ -14,7 +14,10 @@ export async function seedLedgerHistory(tx: Tx, refs: DemoRefs): Promise<void> {
   // re-torqued (the torque entries are in the scenario); the complication is recorded here.
   for (const fdi of [35, 37]) {
     const siteId = refs.siteIds.get(`LL-1001:${fdi}`)!;
-    const [screw] = await tx.select({ id: componentInstances.id }).from(componentInstances).where(and(eq(componentInstances.siteId, siteId), eq(componentInstances.installedOn, '2012-09-20')));
+    const [screw] = await tx
+      .select({ id: componentInstances.id })
+      .from(componentInstances)
+      .where(and(eq(componentInstances.siteId, siteId), eq(componentInstances.installedOn, '2012-09-20')));
     await tx.insert(complications).values({
       practiceId,
       patientId: harold,
@@ -22,7 +25,8 @@ export async function seedLedgerHistory(tx: Tx, refs: DemoRefs): Promise<void> {
       componentInstanceId: screw?.id ?? null,
       kind: 'screw-loosening',
       occurredOn: '2016-05-10',
-      notes: 'Bridge slightly mobile at recall; prosthetic screws found loose, occlusion adjusted, screws re-torqued to 25 N·cm.',
+      notes:
+        'Bridge slightly mobile at recall; prosthetic screws found loose, occlusion adjusted, screws re-torqued to 25 N·cm.',
       recordedBy: dentist,
       recordedAt: new Date('2016-05-10T10:00:00Z'),
     });

@@ -67,7 +67,12 @@ export async function seedDemoRecallHistory(tx: Tx, refs: DemoRefs): Promise<{ e
   const examiner = (i: number) => refs.userIds.get(i % 2 === 0 ? HOLT : SANDHU)!;
   let examCount = 0;
 
-  async function seedPatient(chart: string, visits: Visit[], deliveredOn: Record<number, string | null>, risk: { smoker?: boolean; periodontitisHistory?: boolean }) {
+  async function seedPatient(
+    chart: string,
+    visits: Visit[],
+    deliveredOn: Record<number, string | null>,
+    risk: { smoker?: boolean; periodontitisHistory?: boolean },
+  ) {
     const patientId = refs.patientIds.get(chart)!;
     const earlier = new Map<number, (RecordedExam & { id: string })[]>();
     let anyPi = false;
@@ -79,12 +84,25 @@ export async function seedDemoRecallHistory(tx: Tx, refs: DemoRefs): Promise<{ e
         const depths = f.pd.trim().split(/\s+/).map(Number);
         const bop = flags(f.bop);
         const sup = flags(f.sup);
-        const sites = PROBING_POSITIONS.map((position, i) => ({ position, probingDepthMm: depths[i], bleeding: bop[i], suppuration: sup[i] }));
+        const sites = PROBING_POSITIONS.map((position, i) => ({
+          position,
+          probingDepthMm: depths[i],
+          bleeding: bop[i],
+          suppuration: sup[i],
+        }));
         const history = earlier.get(fdi) ?? [];
         const isBaseline = f.baseline ?? false;
-        const baseline = choosePeriImplantBaseline(history, { examinedOn: visit.on, isBaseline }, deliveredOn[fdi] ?? null);
+        const baseline = choosePeriImplantBaseline(
+          history,
+          { examinedOn: visit.on, isBaseline },
+          deliveredOn[fdi] ?? null,
+        );
         const boneLevelMm = f.bone ?? null;
-        const verdict = classifyPeriImplant(toPeriImplantExam({ sites, boneLevelMm }), toPeriImplantBaseline({ isBaseline }, baseline), RULE_OPTIONS);
+        const verdict = classifyPeriImplant(
+          toPeriImplantExam({ sites, boneLevelMm }),
+          toPeriImplantBaseline({ isBaseline }, baseline),
+          RULE_OPTIONS,
+        );
         anyPi ||= verdict.status === 'peri-implantitis';
         const recordedAt = new Date(`${visit.on}T11:00:00Z`);
         const [row] = await tx
@@ -114,7 +132,14 @@ export async function seedDemoRecallHistory(tx: Tx, refs: DemoRefs): Promise<{ e
           })
           .returning({ id: recallExams.id });
         await tx.insert(recallExamSites).values(sites.map((s) => ({ practiceId, examId: row.id, ...s })));
-        history.push({ id: row.id, examinedOn: visit.on, recordedAt, isBaseline: f.baseline ?? false, boneLevelMm, sites });
+        history.push({
+          id: row.id,
+          examinedOn: visit.on,
+          recordedAt,
+          isBaseline: f.baseline ?? false,
+          boneLevelMm,
+          sites,
+        });
         earlier.set(fdi, history);
         examCount += 1;
       }
@@ -137,7 +162,13 @@ export async function seedDemoRecallHistory(tx: Tx, refs: DemoRefs): Promise<{ e
         on,
         examiner: examiner(i),
         sites: {
-          35: { pd: loosened ? '3 4 3 3 3 3' : '3 3 3 2 3 3', bop: loosened ? '010000' : undefined, bone: radiograph ? Math.round(bone * 10) / 10 : undefined, plaque: loosened ? 2 : 1, notes: loosened ? 'Bridge screws found loose; re-torqued (see torque record).' : undefined },
+          35: {
+            pd: loosened ? '3 4 3 3 3 3' : '3 3 3 2 3 3',
+            bop: loosened ? '010000' : undefined,
+            bone: radiograph ? Math.round(bone * 10) / 10 : undefined,
+            plaque: loosened ? 2 : 1,
+            notes: loosened ? 'Bridge screws found loose; re-torqued (see torque record).' : undefined,
+          },
           37: { pd: '3 3 3 3 3 2', bone: radiograph ? Math.round((bone + 0.1) * 10) / 10 : undefined, plaque: 1 },
         },
       };
@@ -148,29 +179,103 @@ export async function seedDemoRecallHistory(tx: Tx, refs: DemoRefs): Promise<{ e
 
   // 2. Imogen Farrow (smoker): full arch delivered 2018-04-11; mucositis at 45 in 2021, resolved; last recall overdue.
   const imogenLast = addCalendarMonths(addCalendarDays(today, -20), -3);
-  const calm = (bone?: number) => ({ 32: { pd: '3 3 3 3 3 3', bone }, 42: { pd: '3 3 3 3 3 3', bone }, 35: { pd: '3 3 4 3 3 3', bone }, 45: { pd: '3 3 4 3 3 3', bone } });
+  const calm = (bone?: number) => ({
+    32: { pd: '3 3 3 3 3 3', bone },
+    42: { pd: '3 3 3 3 3 3', bone },
+    35: { pd: '3 3 4 3 3 3', bone },
+    45: { pd: '3 3 4 3 3 3', bone },
+  });
   const imogenVisits: Visit[] = [
     { on: '2018-05-09', examiner: examiner(0), sites: calm(1.0) },
     { on: '2019-05-14', examiner: examiner(1), sites: calm(1.2) },
     { on: '2020-05-19', examiner: examiner(0), sites: calm() },
-    { on: '2021-03-16', examiner: examiner(1), sites: { ...calm(1.3), 45: { pd: '4 4 5 4 3 4', bop: '011100', bone: 1.3, plaque: 2, notes: 'Plaque under the distal cantilever; oral hygiene instruction, interdental brushes.' } } },
-    { on: '2021-06-15', examiner: examiner(0), sites: { ...calm(), 45: { pd: '3 3 4 3 3 3', notes: 'Bleeding resolved after home care.' } } },
-    ...every(3, imogenLast, addCalendarMonths(imogenLast, -12)).map((on, i) => ({ on, examiner: examiner(i), sites: calm(i === 0 ? 1.4 : undefined) })),
+    {
+      on: '2021-03-16',
+      examiner: examiner(1),
+      sites: {
+        ...calm(1.3),
+        45: {
+          pd: '4 4 5 4 3 4',
+          bop: '011100',
+          bone: 1.3,
+          plaque: 2,
+          notes: 'Plaque under the distal cantilever; oral hygiene instruction, interdental brushes.',
+        },
+      },
+    },
+    {
+      on: '2021-06-15',
+      examiner: examiner(0),
+      sites: { ...calm(), 45: { pd: '3 3 4 3 3 3', notes: 'Bleeding resolved after home care.' } },
+    },
+    ...every(3, imogenLast, addCalendarMonths(imogenLast, -12)).map((on, i) => ({
+      on,
+      examiner: examiner(i),
+      sites: calm(i === 0 ? 1.4 : undefined),
+    })),
   ];
-  const imogen = await seedPatient('LL-1002', imogenVisits, { 32: '2018-04-11', 42: '2018-04-11', 35: '2018-04-11', 45: '2018-04-11' }, { smoker: true });
+  const imogen = await seedPatient(
+    'LL-1002',
+    imogenVisits,
+    { 32: '2018-04-11', 42: '2018-04-11', 35: '2018-04-11', 45: '2018-04-11' },
+    { smoker: true },
+  );
 
   // 3. Desmond Okafor (periodontitis history): crown 2015-02-18; ~3 mm bone loss, BOP and a 7 mm pocket in 2023 → treated; 3-monthly since.
   const desmondLast = addCalendarDays(today, -40);
   const monitoring = every(3, desmondLast, '2023-09-01');
   const desmondVisits: Visit[] = [
-    { on: '2015-03-24', examiner: examiner(0), sites: { 46: { pd: '3 3 3 3 2 3', bone: 0.5, baseline: true, notes: 'Baseline after crown delivery.' } } },
-    ...['2016-03-15', '2017-03-21', '2018-03-20', '2019-03-19', '2020-09-22', '2021-09-21'].map((on, i) => ({ on, examiner: examiner(i + 1), sites: { 46: { pd: i < 4 ? '3 3 3 3 3 3' : '4 3 4 3 3 3', bop: i >= 4 ? '100000' : undefined, bone: i % 2 === 0 ? 0.6 + i * 0.2 : undefined } } })),
-    { on: '2022-09-20', examiner: examiner(1), sites: { 46: { pd: '5 4 5 4 3 4', bop: '101000', bone: 2.1, notes: 'Cement-retained crown; no residual cement seen.' } } },
-    { on: '2023-05-16', examiner: examiner(0), sites: { 46: { pd: '7 5 6 5 4 5', bop: '111100', sup: '100000', bone: 3.4, plaque: 2, notes: 'Referred to Dr Calloway: non-surgical debridement, then surgical treatment.' } } },
+    {
+      on: '2015-03-24',
+      examiner: examiner(0),
+      sites: { 46: { pd: '3 3 3 3 2 3', bone: 0.5, baseline: true, notes: 'Baseline after crown delivery.' } },
+    },
+    ...['2016-03-15', '2017-03-21', '2018-03-20', '2019-03-19', '2020-09-22', '2021-09-21'].map((on, i) => ({
+      on,
+      examiner: examiner(i + 1),
+      sites: {
+        46: {
+          pd: i < 4 ? '3 3 3 3 3 3' : '4 3 4 3 3 3',
+          bop: i >= 4 ? '100000' : undefined,
+          bone: i % 2 === 0 ? 0.6 + i * 0.2 : undefined,
+        },
+      },
+    })),
+    {
+      on: '2022-09-20',
+      examiner: examiner(1),
+      sites: {
+        46: { pd: '5 4 5 4 3 4', bop: '101000', bone: 2.1, notes: 'Cement-retained crown; no residual cement seen.' },
+      },
+    },
+    {
+      on: '2023-05-16',
+      examiner: examiner(0),
+      sites: {
+        46: {
+          pd: '7 5 6 5 4 5',
+          bop: '111100',
+          sup: '100000',
+          bone: 3.4,
+          plaque: 2,
+          notes: 'Referred to Dr Calloway: non-surgical debridement, then surgical treatment.',
+        },
+      },
+    },
     // Monitoring: pockets reduced, bone stable at its new level; bleeding at one site comes and goes.
     ...monitoring.map((on, i) => {
       const last = i === monitoring.length - 1;
-      return { on, examiner: examiner(i), sites: { 46: { pd: i < 2 || last ? '5 4 5 4 3 4' : '4 4 4 4 3 4', bop: i < 2 || last ? '100000' : undefined, bone: i % 4 === 0 || last ? 3.4 : undefined } } };
+      return {
+        on,
+        examiner: examiner(i),
+        sites: {
+          46: {
+            pd: i < 2 || last ? '5 4 5 4 3 4' : '4 4 4 4 3 4',
+            bop: i < 2 || last ? '100000' : undefined,
+            bone: i % 4 === 0 || last ? 3.4 : undefined,
+          },
+        },
+      };
     }),
   ];
   const desmond = await seedPatient('LL-1003', desmondVisits, { 46: '2015-02-18' }, { periodontitisHistory: true });
@@ -179,7 +284,11 @@ export async function seedDemoRecallHistory(tx: Tx, refs: DemoRefs): Promise<{ e
   const luciaLast = addCalendarDays(today, -60);
   await seedPatient(
     'LL-1004',
-    every(6, luciaLast, '2020-04-01').map((on, i) => ({ on, examiner: examiner(i), sites: { 14: { pd: '2 3 2 2 3 2', bone: i === 0 || i % 4 === 0 ? 0.4 : undefined } } })),
+    every(6, luciaLast, '2020-04-01').map((on, i) => ({
+      on,
+      examiner: examiner(i),
+      sites: { 14: { pd: '2 3 2 2 3 2', bone: i === 0 || i % 4 === 0 ? 0.4 : undefined } },
+    })),
     { 14: '2020-03-09' },
     {},
   );
@@ -188,10 +297,34 @@ export async function seedDemoRecallHistory(tx: Tx, refs: DemoRefs): Promise<{ e
   const sentAt = (iso: string) => new Date(`${iso}T06:00:00Z`);
   const prevDue = (visits: string[]) => visits[visits.length - 1]; // the last visit was the previous recall
   const log = [
-    { patientId: harold.patientId, recallDueOn: prevDue(haroldDates), kind: 'upcoming' as const, sentOn: addCalendarDays(prevDue(haroldDates), -DEFAULT_REMINDER_DAYS_BEFORE), attempts: 1 },
-    { patientId: imogen.patientId, recallDueOn: imogen.dueOn, kind: 'upcoming' as const, sentOn: addCalendarDays(imogen.dueOn, -DEFAULT_REMINDER_DAYS_BEFORE), attempts: 1 },
-    { patientId: imogen.patientId, recallDueOn: imogen.dueOn, kind: 'overdue' as const, sentOn: addCalendarDays(imogen.dueOn, DEFAULT_OVERDUE_REMINDER_DAYS_AFTER), attempts: 2 },
-    { patientId: desmond.patientId, recallDueOn: desmondLast, kind: 'upcoming' as const, sentOn: addCalendarDays(desmondLast, -DEFAULT_REMINDER_DAYS_BEFORE), attempts: 1 },
+    {
+      patientId: harold.patientId,
+      recallDueOn: prevDue(haroldDates),
+      kind: 'upcoming' as const,
+      sentOn: addCalendarDays(prevDue(haroldDates), -DEFAULT_REMINDER_DAYS_BEFORE),
+      attempts: 1,
+    },
+    {
+      patientId: imogen.patientId,
+      recallDueOn: imogen.dueOn,
+      kind: 'upcoming' as const,
+      sentOn: addCalendarDays(imogen.dueOn, -DEFAULT_REMINDER_DAYS_BEFORE),
+      attempts: 1,
+    },
+    {
+      patientId: imogen.patientId,
+      recallDueOn: imogen.dueOn,
+      kind: 'overdue' as const,
+      sentOn: addCalendarDays(imogen.dueOn, DEFAULT_OVERDUE_REMINDER_DAYS_AFTER),
+      attempts: 2,
+    },
+    {
+      patientId: desmond.patientId,
+      recallDueOn: desmondLast,
+      kind: 'upcoming' as const,
+      sentOn: addCalendarDays(desmondLast, -DEFAULT_REMINDER_DAYS_BEFORE),
+      attempts: 1,
+    },
   ].filter((r) => r.sentOn <= today);
   if (log.length > 0) {
     await tx.insert(reminderLog).values(

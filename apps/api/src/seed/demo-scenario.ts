@@ -1,6 +1,15 @@
 // The demo practice, from shared/design/demo-scenario.md: every clinic, person, system and
 // manufacturer is invented. Dates near today (recent placements) are computed from `today`.
-import type { ImpressionCopingKind, InterfaceKind, LoadingProtocol, Material, RestorationKind, Retention, SiteStatus, TorqueReason } from '@torquetrail/contracts';
+import type {
+  ImpressionCopingKind,
+  InterfaceKind,
+  LoadingProtocol,
+  Material,
+  RestorationKind,
+  Retention,
+  SiteStatus,
+  TorqueReason,
+} from '@torquetrail/contracts';
 import { addCalendarDays as addDays, RULES_VERSION, torqueVerdict } from '@torquetrail/domain';
 import type { Tx } from '../db/database.js';
 import { hashPassword } from '../auth/password.js';
@@ -25,17 +34,43 @@ export const DEMO_PASSWORD = 'ledger-demo-2026';
 
 /** @public Printed by scripts/start.mjs (from the built file) beside the demo password. */
 export const DEMO_SIGN_INS = [
-  { role: 'dentist', email: 'ines.calloway@larkspur.example', name: 'Dr Ines Calloway', practice: 'Larkspur Lane Dental' },
-  { role: 'dentist', email: 'tomasz.brill@larkspur.example', name: 'Dr Tomasz Brill', practice: 'Larkspur Lane Dental' },
+  {
+    role: 'dentist',
+    email: 'ines.calloway@larkspur.example',
+    name: 'Dr Ines Calloway',
+    practice: 'Larkspur Lane Dental',
+  },
+  {
+    role: 'dentist',
+    email: 'tomasz.brill@larkspur.example',
+    name: 'Dr Tomasz Brill',
+    practice: 'Larkspur Lane Dental',
+  },
   { role: 'hygienist', email: 'maren.holt@larkspur.example', name: 'Maren Holt', practice: 'Larkspur Lane Dental' },
   { role: 'hygienist', email: 'priya.sandhu@larkspur.example', name: 'Priya Sandhu', practice: 'Larkspur Lane Dental' },
-  { role: 'practice_admin', email: 'odile.park@larkspur.example', name: 'Odile Park', practice: 'Larkspur Lane Dental' },
-  { role: 'surgeon', email: 'rafael.imbert@northgate.example', name: 'Dr Rafael Imbert', practice: 'Northgate Oral Surgery' },
-  { role: 'dentist', email: 'nell.ashdown@quarryhill.example', name: 'Dr Nell Ashdown', practice: 'Quarry Hill Dental' },
+  {
+    role: 'practice_admin',
+    email: 'odile.park@larkspur.example',
+    name: 'Odile Park',
+    practice: 'Larkspur Lane Dental',
+  },
+  {
+    role: 'surgeon',
+    email: 'rafael.imbert@northgate.example',
+    name: 'Dr Rafael Imbert',
+    practice: 'Northgate Oral Surgery',
+  },
+  {
+    role: 'dentist',
+    email: 'nell.ashdown@quarryhill.example',
+    name: 'Dr Nell Ashdown',
+    practice: 'Quarry Hill Dental',
+  },
 ] as const;
 
 const at = (date: string, time = '10:00') => new Date(`${date}T${time}:00Z`);
-const birthDate = (today: string, age: number, monthDay: string) => `${Number(today.slice(0, 4)) - age - (today.slice(5) < monthDay ? 1 : 0)}-${monthDay}`;
+const birthDate = (today: string, age: number, monthDay: string) =>
+  `${Number(today.slice(0, 4)) - age - (today.slice(5) < monthDay ? 1 : 0)}-${monthDay}`;
 
 interface Ctx {
   tx: Tx;
@@ -46,11 +81,29 @@ interface Ctx {
 }
 
 async function addSite(ctx: Ctx, patientId: string, fdi: number, status: SiteStatus) {
-  const [site] = await ctx.tx.insert(implantSites).values({ practiceId: ctx.practiceId, patientId, fdi, status }).returning({ id: implantSites.id });
+  const [site] = await ctx.tx
+    .insert(implantSites)
+    .values({ practiceId: ctx.practiceId, patientId, fdi, status })
+    .returning({ id: implantSites.id });
   return site.id;
 }
 
-async function place(ctx: Ctx, p: { patientId: string; siteId: string; platform: string; placedOn: string; lengthMm: number; lot: string; insertionTorqueNcm: number; isq: number; surgeon?: 'imbert' | 'former'; axis?: [number, number, number]; loading?: LoadingProtocol }) {
+async function place(
+  ctx: Ctx,
+  p: {
+    patientId: string;
+    siteId: string;
+    platform: string;
+    placedOn: string;
+    lengthMm: number;
+    lot: string;
+    insertionTorqueNcm: number;
+    isq: number;
+    surgeon?: 'imbert' | 'former';
+    axis?: [number, number, number];
+    loading?: LoadingProtocol;
+  },
+) {
   const imbert = p.surgeon !== 'former';
   await ctx.tx.insert(placements).values({
     practiceId: ctx.practiceId,
@@ -68,19 +121,46 @@ async function place(ctx: Ctx, p: { patientId: string; siteId: string; platform:
     axisX: p.axis?.[0],
     axisY: p.axis?.[1],
     axisZ: p.axis?.[2],
-    recordedBy: imbert ? ctx.userIds.get('rafael.imbert@northgate.example')! : ctx.userIds.get('ines.calloway@larkspur.example')!,
+    recordedBy: imbert
+      ? ctx.userIds.get('rafael.imbert@northgate.example')!
+      : ctx.userIds.get('ines.calloway@larkspur.example')!,
     recordedAt: at(p.placedOn, '16:00'),
   });
 }
 
 /** Installs a part and logs its torque history: [date, time, applied N·cm, reason]. */
-async function install(ctx: Ctx, p: { patientId: string; siteId: string; restorationId?: string; platform: string; part: string; lot: string; installedOn: string; torque?: [string, string, number, TorqueReason][] }) {
+async function install(
+  ctx: Ctx,
+  p: {
+    patientId: string;
+    siteId: string;
+    restorationId?: string;
+    platform: string;
+    part: string;
+    lot: string;
+    installedOn: string;
+    torque?: [string, string, number, TorqueReason][];
+  },
+) {
   const componentId = ctx.catalogue.get(p.platform)!.parts.get(p.part)!;
   const [instance] = await ctx.tx
     .insert(componentInstances)
-    .values({ practiceId: ctx.practiceId, patientId: p.patientId, siteId: p.siteId, restorationId: p.restorationId, componentId, lot: p.lot, installedOn: p.installedOn, recordedBy: ctx.userIds.get('ines.calloway@larkspur.example')!, recordedAt: at(p.installedOn, '12:00') })
+    .values({
+      practiceId: ctx.practiceId,
+      patientId: p.patientId,
+      siteId: p.siteId,
+      restorationId: p.restorationId,
+      componentId,
+      lot: p.lot,
+      installedOn: p.installedOn,
+      recordedBy: ctx.userIds.get('ines.calloway@larkspur.example')!,
+      recordedAt: at(p.installedOn, '12:00'),
+    })
     .returning({ id: componentInstances.id });
-  const [spec] = await ctx.tx.select({ torqueSpecNcm: components.torqueSpecNcm, tolerancePct: components.tolerancePct }).from(components).where(eq(components.id, componentId));
+  const [spec] = await ctx.tx
+    .select({ torqueSpecNcm: components.torqueSpecNcm, tolerancePct: components.tolerancePct })
+    .from(components)
+    .where(eq(components.id, componentId));
   for (const [date, time, appliedNcm, reason] of p.torque ?? []) {
     const specNcm = spec.torqueSpecNcm!;
     await ctx.tx.insert(torqueEvents).values({
@@ -108,19 +188,68 @@ const seated = (date: string, ncm: number): [string, string, number, TorqueReaso
   [date, '10:11', ncm, 're-torque-after-settling'],
 ];
 
-async function restoration(ctx: Ctx, r: { patientId: string; kind: RestorationKind; retention: Retention; material: Material; shade: string; impressionOn: string; deliveredOn: string; copingsSplinted?: boolean; sites: { siteId: string; interface: InterfaceKind; coping: ImpressionCopingKind; muAngle?: number; spaceMm?: number }[] }) {
+async function restoration(
+  ctx: Ctx,
+  r: {
+    patientId: string;
+    kind: RestorationKind;
+    retention: Retention;
+    material: Material;
+    shade: string;
+    impressionOn: string;
+    deliveredOn: string;
+    copingsSplinted?: boolean;
+    sites: {
+      siteId: string;
+      interface: InterfaceKind;
+      coping: ImpressionCopingKind;
+      muAngle?: number;
+      spaceMm?: number;
+    }[];
+  },
+) {
   const [row] = await ctx.tx
     .insert(restorations)
-    .values({ practiceId: ctx.practiceId, patientId: r.patientId, kind: r.kind, retention: r.retention, material: r.material, shade: r.shade, status: 'delivered', copingsSplinted: r.copingsSplinted ?? false, impressionTakenOn: r.impressionOn, deliveredOn: r.deliveredOn, plannedBy: ctx.userIds.get('ines.calloway@larkspur.example')!, createdAt: at(r.impressionOn, '09:00') })
+    .values({
+      practiceId: ctx.practiceId,
+      patientId: r.patientId,
+      kind: r.kind,
+      retention: r.retention,
+      material: r.material,
+      shade: r.shade,
+      status: 'delivered',
+      copingsSplinted: r.copingsSplinted ?? false,
+      impressionTakenOn: r.impressionOn,
+      deliveredOn: r.deliveredOn,
+      plannedBy: ctx.userIds.get('ines.calloway@larkspur.example')!,
+      createdAt: at(r.impressionOn, '09:00'),
+    })
     .returning({ id: restorations.id });
-  await ctx.tx.insert(restorationSites).values(
-    r.sites.map((s) => ({ practiceId: ctx.practiceId, restorationId: row.id, siteId: s.siteId, interface: s.interface, impressionCoping: s.coping, multiUnitAngleDeg: s.muAngle, restorativeSpaceMm: s.spaceMm })),
-  );
+  await ctx.tx
+    .insert(restorationSites)
+    .values(
+      r.sites.map((s) => ({
+        practiceId: ctx.practiceId,
+        restorationId: row.id,
+        siteId: s.siteId,
+        interface: s.interface,
+        impressionCoping: s.coping,
+        multiUnitAngleDeg: s.muAngle,
+        restorativeSpaceMm: s.spaceMm,
+      })),
+    );
   return row.id;
 }
 
-async function addPatient(tx: Tx, practiceId: string, p: typeof patients.$inferInsert extends infer T ? Omit<T, 'practiceId'> : never) {
-  const [row] = await tx.insert(patients).values({ ...p, practiceId }).returning({ id: patients.id });
+async function addPatient(
+  tx: Tx,
+  practiceId: string,
+  p: typeof patients.$inferInsert extends infer T ? Omit<T, 'practiceId'> : never,
+) {
+  const [row] = await tx
+    .insert(patients)
+    .values({ ...p, practiceId })
+    .returning({ id: patients.id });
   return row.id;
 }
 
@@ -157,7 +286,13 @@ export async function seedDemoScenario(tx: Tx, today: string): Promise<{ summary
     .insert(users)
     .values(
       await Promise.all(
-        DEMO_SIGN_INS.map(async (u) => ({ practiceId: practiceIdByName.get(u.practice)!, email: u.email, displayName: u.name, role: u.role, passwordHash: await hashPassword(DEMO_PASSWORD) })),
+        DEMO_SIGN_INS.map(async (u) => ({
+          practiceId: practiceIdByName.get(u.practice)!,
+          email: u.email,
+          displayName: u.name,
+          role: u.role,
+          passwordHash: await hashPassword(DEMO_PASSWORD),
+        })),
       ),
     )
     .returning({ id: users.id, email: users.email });
@@ -173,22 +308,83 @@ export async function seedDemoScenario(tx: Tx, today: string): Promise<{ summary
   let sites = 0;
 
   // 1. Harold Whitcombe: three-unit zirconia bridge 35–37 screwed directly to the implants.
-  const harold = await addPatient(tx, ctx.practiceId, { chartNumber: 'LL-1001', givenName: 'Harold', familyName: 'Whitcombe', birthDate: birthDate(today, 71, '04-17'), email: 'harold.whitcombe@mail.example', missingTeeth: [18, 28, 36, 38, 48] });
+  const harold = await addPatient(tx, ctx.practiceId, {
+    chartNumber: 'LL-1001',
+    givenName: 'Harold',
+    familyName: 'Whitcombe',
+    birthDate: birthDate(today, 71, '04-17'),
+    email: 'harold.whitcombe@mail.example',
+    missingTeeth: [18, 28, 36, 38, 48],
+  });
   const h35 = await addSite(ctx, harold, 35, 'restored');
   const h37 = await addSite(ctx, harold, 37, 'restored');
   sites += 2;
-  await place(ctx, { patientId: harold, siteId: h35, platform: 'SCN-4.3', placedOn: '2012-03-14', lengthMm: 10, lot: 'SCN4310-12A07', insertionTorqueNcm: 40, isq: 72, axis: [0, 0.05, 1] });
-  await place(ctx, { patientId: harold, siteId: h37, platform: 'SCN-4.3', placedOn: '2012-03-14', lengthMm: 10, lot: 'SCN4310-12A07', insertionTorqueNcm: 35, isq: 70, axis: [0.1, -0.05, 1] });
-  const bridge = await restoration(ctx, { patientId: harold, kind: 'splinted-bridge', retention: 'screw-to-implant', material: 'zirconia', shade: 'A3', impressionOn: '2012-07-30', deliveredOn: '2012-09-20', copingsSplinted: true, sites: [h35, h37].map((siteId) => ({ siteId, interface: 'non-engaging' as const, coping: 'non-engaging' as const, spaceMm: 7 })) });
+  await place(ctx, {
+    patientId: harold,
+    siteId: h35,
+    platform: 'SCN-4.3',
+    placedOn: '2012-03-14',
+    lengthMm: 10,
+    lot: 'SCN4310-12A07',
+    insertionTorqueNcm: 40,
+    isq: 72,
+    axis: [0, 0.05, 1],
+  });
+  await place(ctx, {
+    patientId: harold,
+    siteId: h37,
+    platform: 'SCN-4.3',
+    placedOn: '2012-03-14',
+    lengthMm: 10,
+    lot: 'SCN4310-12A07',
+    insertionTorqueNcm: 35,
+    isq: 70,
+    axis: [0.1, -0.05, 1],
+  });
+  const bridge = await restoration(ctx, {
+    patientId: harold,
+    kind: 'splinted-bridge',
+    retention: 'screw-to-implant',
+    material: 'zirconia',
+    shade: 'A3',
+    impressionOn: '2012-07-30',
+    deliveredOn: '2012-09-20',
+    copingsSplinted: true,
+    sites: [h35, h37].map((siteId) => ({
+      siteId,
+      interface: 'non-engaging' as const,
+      coping: 'non-engaging' as const,
+      spaceMm: 7,
+    })),
+  });
   for (const siteId of [h35, h37]) {
     await install(ctx, {
-      patientId: harold, siteId, restorationId: bridge, platform: 'SCN-4.3', part: 'bridge-screw', lot: 'PSI-1209-33', installedOn: '2012-09-20',
-      torque: [...seated('2012-09-20', 25), ['2016-05-10', '09:30', 25, 'loosening-found'], ['2016-05-10', '09:41', 25, 're-torque-after-settling'], ['2020-11-02', '11:00', 25, 're-torque-at-recall']],
+      patientId: harold,
+      siteId,
+      restorationId: bridge,
+      platform: 'SCN-4.3',
+      part: 'bridge-screw',
+      lot: 'PSI-1209-33',
+      installedOn: '2012-09-20',
+      torque: [
+        ...seated('2012-09-20', 25),
+        ['2016-05-10', '09:30', 25, 'loosening-found'],
+        ['2016-05-10', '09:41', 25, 're-torque-after-settling'],
+        ['2020-11-02', '11:00', 25, 're-torque-at-recall'],
+      ],
     });
   }
 
   // 2. Imogen Farrow: lower full arch on four implants, straight and 30° multi-unit abutments.
-  const imogen = await addPatient(tx, ctx.practiceId, { chartNumber: 'LL-1002', givenName: 'Imogen', familyName: 'Farrow', birthDate: birthDate(today, 58, '09-02'), email: 'imogen.farrow@mail.example', smoker: true, missingTeeth: [31, 33, 34, 36, 37, 38, 41, 43, 44, 46, 47, 48] });
+  const imogen = await addPatient(tx, ctx.practiceId, {
+    chartNumber: 'LL-1002',
+    givenName: 'Imogen',
+    familyName: 'Farrow',
+    birthDate: birthDate(today, 58, '09-02'),
+    email: 'imogen.farrow@mail.example',
+    smoker: true,
+    missingTeeth: [31, 33, 34, 36, 37, 38, 41, 43, 44, 46, 47, 48],
+  });
   const farrowSites: { fdi: number; angle: 0 | 30; axis: [number, number, number] }[] = [
     { fdi: 32, angle: 0, axis: [0, 0, 1] },
     { fdi: 42, angle: 0, axis: [0, 0, 1] },
@@ -199,62 +395,267 @@ export async function seedDemoScenario(tx: Tx, today: string): Promise<{ summary
   for (const s of farrowSites) {
     const id = await addSite(ctx, imogen, s.fdi, 'restored');
     imogenSiteIds.push(id);
-    await place(ctx, { patientId: imogen, siteId: id, platform: 'SCN-4.3', placedOn: '2017-11-21', lengthMm: s.angle ? 13 : 11.5, lot: 'SCN43-17K21', insertionTorqueNcm: 45, isq: 68, axis: s.axis, loading: 'immediate' });
+    await place(ctx, {
+      patientId: imogen,
+      siteId: id,
+      platform: 'SCN-4.3',
+      placedOn: '2017-11-21',
+      lengthMm: s.angle ? 13 : 11.5,
+      lot: 'SCN43-17K21',
+      insertionTorqueNcm: 45,
+      isq: 68,
+      axis: s.axis,
+      loading: 'immediate',
+    });
   }
   sites += 4;
-  const arch = await restoration(ctx, { patientId: imogen, kind: 'full-arch', retention: 'screw-to-multi-unit', material: 'titanium-composite', shade: 'A2', impressionOn: '2018-02-26', deliveredOn: '2018-04-11', sites: farrowSites.map((s, i) => ({ siteId: imogenSiteIds[i], interface: 'non-engaging' as const, coping: 'multi-unit' as const, muAngle: s.angle, spaceMm: 16 })) });
+  const arch = await restoration(ctx, {
+    patientId: imogen,
+    kind: 'full-arch',
+    retention: 'screw-to-multi-unit',
+    material: 'titanium-composite',
+    shade: 'A2',
+    impressionOn: '2018-02-26',
+    deliveredOn: '2018-04-11',
+    sites: farrowSites.map((s, i) => ({
+      siteId: imogenSiteIds[i],
+      interface: 'non-engaging' as const,
+      coping: 'multi-unit' as const,
+      muAngle: s.angle,
+      spaceMm: 16,
+    })),
+  });
   for (const [i, s] of farrowSites.entries()) {
     const siteId = imogenSiteIds[i];
-    await install(ctx, { patientId: imogen, siteId, restorationId: arch, platform: 'SCN-4.3', part: s.angle ? 'mua-30' : 'mua-0', lot: s.angle ? 'MU30-1711-04' : 'MU0-1711-12', installedOn: '2017-11-21', torque: seated('2017-11-21', s.angle ? 15 : 35) });
-    await install(ctx, { patientId: imogen, siteId, restorationId: arch, platform: 'SCN-4.3', part: 'mua-screw', lot: 'PSM-1803-19', installedOn: '2018-04-11', torque: [...seated('2018-04-11', 15), ['2021-06-15', '10:00', 14, 're-torque-at-recall']] });
+    await install(ctx, {
+      patientId: imogen,
+      siteId,
+      restorationId: arch,
+      platform: 'SCN-4.3',
+      part: s.angle ? 'mua-30' : 'mua-0',
+      lot: s.angle ? 'MU30-1711-04' : 'MU0-1711-12',
+      installedOn: '2017-11-21',
+      torque: seated('2017-11-21', s.angle ? 15 : 35),
+    });
+    await install(ctx, {
+      patientId: imogen,
+      siteId,
+      restorationId: arch,
+      platform: 'SCN-4.3',
+      part: 'mua-screw',
+      lot: 'PSM-1803-19',
+      installedOn: '2018-04-11',
+      torque: [...seated('2018-04-11', 15), ['2021-06-15', '10:00', 14, 're-torque-at-recall']],
+    });
   }
 
   // 3. Desmond Okafor: cement-retained crown on a custom engaging abutment at 46.
-  const desmond = await addPatient(tx, ctx.practiceId, { chartNumber: 'LL-1003', givenName: 'Desmond', familyName: 'Okafor', birthDate: birthDate(today, 46, '01-23'), email: 'desmond.okafor@mail.example', periodontitisHistory: true, missingTeeth: [18, 28] });
+  const desmond = await addPatient(tx, ctx.practiceId, {
+    chartNumber: 'LL-1003',
+    givenName: 'Desmond',
+    familyName: 'Okafor',
+    birthDate: birthDate(today, 46, '01-23'),
+    email: 'desmond.okafor@mail.example',
+    periodontitisHistory: true,
+    missingTeeth: [18, 28],
+  });
   const d46 = await addSite(ctx, desmond, 46, 'restored');
   sites += 1;
-  await place(ctx, { patientId: desmond, siteId: d46, platform: 'MHX-4.8', placedOn: '2014-10-02', lengthMm: 8, lot: 'MHX488-1409', insertionTorqueNcm: 35, isq: 66, surgeon: 'former' });
-  const crown = await restoration(ctx, { patientId: desmond, kind: 'single-crown', retention: 'cement-on-abutment', material: 'porcelain-fused-to-metal', shade: 'A3.5', impressionOn: '2015-01-20', deliveredOn: '2015-02-18', sites: [{ siteId: d46, interface: 'engaging', coping: 'engaging', spaceMm: 8.5 }] });
-  await install(ctx, { patientId: desmond, siteId: d46, restorationId: crown, platform: 'MHX-4.8', part: 'custom-abutment', lot: 'CA-1502-0088', installedOn: '2015-02-18' });
-  await install(ctx, { patientId: desmond, siteId: d46, restorationId: crown, platform: 'MHX-4.8', part: 'abutment-screw', lot: 'AS-1501-41', installedOn: '2015-02-18', torque: seated('2015-02-18', 30) });
+  await place(ctx, {
+    patientId: desmond,
+    siteId: d46,
+    platform: 'MHX-4.8',
+    placedOn: '2014-10-02',
+    lengthMm: 8,
+    lot: 'MHX488-1409',
+    insertionTorqueNcm: 35,
+    isq: 66,
+    surgeon: 'former',
+  });
+  const crown = await restoration(ctx, {
+    patientId: desmond,
+    kind: 'single-crown',
+    retention: 'cement-on-abutment',
+    material: 'porcelain-fused-to-metal',
+    shade: 'A3.5',
+    impressionOn: '2015-01-20',
+    deliveredOn: '2015-02-18',
+    sites: [{ siteId: d46, interface: 'engaging', coping: 'engaging', spaceMm: 8.5 }],
+  });
+  await install(ctx, {
+    patientId: desmond,
+    siteId: d46,
+    restorationId: crown,
+    platform: 'MHX-4.8',
+    part: 'custom-abutment',
+    lot: 'CA-1502-0088',
+    installedOn: '2015-02-18',
+  });
+  await install(ctx, {
+    patientId: desmond,
+    siteId: d46,
+    restorationId: crown,
+    platform: 'MHX-4.8',
+    part: 'abutment-screw',
+    lot: 'AS-1501-41',
+    installedOn: '2015-02-18',
+    torque: seated('2015-02-18', 30),
+  });
 
   // 4. Lucía Ferraz: lingual set-screw zirconia crown at 14; 24 planned for placement.
-  const lucia = await addPatient(tx, ctx.practiceId, { chartNumber: 'LL-1004', givenName: 'Lucía', familyName: 'Ferraz', birthDate: birthDate(today, 39, '06-30'), email: 'lucia.ferraz@mail.example', missingTeeth: [] });
+  const lucia = await addPatient(tx, ctx.practiceId, {
+    chartNumber: 'LL-1004',
+    givenName: 'Lucía',
+    familyName: 'Ferraz',
+    birthDate: birthDate(today, 39, '06-30'),
+    email: 'lucia.ferraz@mail.example',
+    missingTeeth: [],
+  });
   const l14 = await addSite(ctx, lucia, 14, 'restored');
   await addSite(ctx, lucia, 24, 'planned');
   sites += 2;
-  await place(ctx, { patientId: lucia, siteId: l14, platform: 'SCN-3.5', placedOn: '2019-11-05', lengthMm: 11.5, lot: 'SCN3511-19J30', insertionTorqueNcm: 35, isq: 74 });
-  const lcrown = await restoration(ctx, { patientId: lucia, kind: 'single-crown', retention: 'lingual-set-screw', material: 'zirconia', shade: 'B1', impressionOn: '2020-02-10', deliveredOn: '2020-03-09', sites: [{ siteId: l14, interface: 'engaging', coping: 'engaging', spaceMm: 8 }] });
-  await install(ctx, { patientId: lucia, siteId: l14, restorationId: lcrown, platform: 'SCN-3.5', part: 'stock-abutment', lot: 'SA-2002-310', installedOn: '2020-03-09' });
-  await install(ctx, { patientId: lucia, siteId: l14, restorationId: lcrown, platform: 'SCN-3.5', part: 'abutment-screw', lot: 'AS-2001-77', installedOn: '2020-03-09', torque: seated('2020-03-09', 25) });
-  await install(ctx, { patientId: lucia, siteId: l14, restorationId: lcrown, platform: 'SCN-3.5', part: 'set-screw', lot: 'LSS-2001-05', installedOn: '2020-03-09', torque: [['2020-03-09', '10:30', 10, 'initial-seating'], ['2020-03-09', '10:41', 10, 're-torque-after-settling']] });
+  await place(ctx, {
+    patientId: lucia,
+    siteId: l14,
+    platform: 'SCN-3.5',
+    placedOn: '2019-11-05',
+    lengthMm: 11.5,
+    lot: 'SCN3511-19J30',
+    insertionTorqueNcm: 35,
+    isq: 74,
+  });
+  const lcrown = await restoration(ctx, {
+    patientId: lucia,
+    kind: 'single-crown',
+    retention: 'lingual-set-screw',
+    material: 'zirconia',
+    shade: 'B1',
+    impressionOn: '2020-02-10',
+    deliveredOn: '2020-03-09',
+    sites: [{ siteId: l14, interface: 'engaging', coping: 'engaging', spaceMm: 8 }],
+  });
+  await install(ctx, {
+    patientId: lucia,
+    siteId: l14,
+    restorationId: lcrown,
+    platform: 'SCN-3.5',
+    part: 'stock-abutment',
+    lot: 'SA-2002-310',
+    installedOn: '2020-03-09',
+  });
+  await install(ctx, {
+    patientId: lucia,
+    siteId: l14,
+    restorationId: lcrown,
+    platform: 'SCN-3.5',
+    part: 'abutment-screw',
+    lot: 'AS-2001-77',
+    installedOn: '2020-03-09',
+    torque: seated('2020-03-09', 25),
+  });
+  await install(ctx, {
+    patientId: lucia,
+    siteId: l14,
+    restorationId: lcrown,
+    platform: 'SCN-3.5',
+    part: 'set-screw',
+    lot: 'LSS-2001-05',
+    installedOn: '2020-03-09',
+    torque: [
+      ['2020-03-09', '10:30', 10, 'initial-seating'],
+      ['2020-03-09', '10:41', 10, 're-torque-after-settling'],
+    ],
+  });
 
   // 5. Wendell Achterberg: 15 and 16 placed seven weeks ago, healing abutments on.
-  const wendell = await addPatient(tx, ctx.practiceId, { chartNumber: 'LL-1005', givenName: 'Wendell', familyName: 'Achterberg', birthDate: birthDate(today, 63, '11-11'), email: 'wendell.achterberg@mail.example', missingTeeth: [17, 18] });
+  const wendell = await addPatient(tx, ctx.practiceId, {
+    chartNumber: 'LL-1005',
+    givenName: 'Wendell',
+    familyName: 'Achterberg',
+    birthDate: birthDate(today, 63, '11-11'),
+    email: 'wendell.achterberg@mail.example',
+    missingTeeth: [17, 18],
+  });
   const placedOn = addDays(today, -49);
-  for (const [fdi, axis] of [[15, [0.05, 0, 1]], [16, [-0.1, 0.02, 1]]] as const) {
+  for (const [fdi, axis] of [
+    [15, [0.05, 0, 1]],
+    [16, [-0.1, 0.02, 1]],
+  ] as const) {
     const siteId = await addSite(ctx, wendell, fdi, 'placed');
-    await place(ctx, { patientId: wendell, siteId, platform: 'TEX-4.1', placedOn, lengthMm: 10, lot: 'TEX4110-26B', insertionTorqueNcm: 35, isq: 69, axis: [...axis] });
-    await install(ctx, { patientId: wendell, siteId, platform: 'TEX-4.1', part: 'healing', lot: 'HA4-2609-14', installedOn: placedOn });
+    await place(ctx, {
+      patientId: wendell,
+      siteId,
+      platform: 'TEX-4.1',
+      placedOn,
+      lengthMm: 10,
+      lot: 'TEX4110-26B',
+      insertionTorqueNcm: 35,
+      isq: 69,
+      axis: [...axis],
+    });
+    await install(ctx, {
+      patientId: wendell,
+      siteId,
+      platform: 'TEX-4.1',
+      part: 'healing',
+      lot: 'HA4-2609-14',
+      installedOn: placedOn,
+    });
   }
   sites += 2;
 
   // Dr Imbert is shared into the patients he placed for.
   const imbertId = userIds.get('rafael.imbert@northgate.example')!;
   const sharedBy = userIds.get('ines.calloway@larkspur.example')!;
-  await tx.insert(patientShares).values([harold, imogen, lucia, wendell].map((patientId) => ({ practiceId: ctx.practiceId, patientId, sharedWithUserId: imbertId, sharedByUserId: sharedBy, since: at('2024-01-08') })));
+  await tx
+    .insert(patientShares)
+    .values(
+      [harold, imogen, lucia, wendell].map((patientId) => ({
+        practiceId: ctx.practiceId,
+        patientId,
+        sharedWithUserId: imbertId,
+        sharedByUserId: sharedBy,
+        since: at('2024-01-08'),
+      })),
+    );
 
   // 6. Quarry Hill Dental: an unrelated practice, never visible to Larkspur Lane.
-  const qctx: Ctx = { ...ctx, practiceId: quarry.id, catalogue: await seedCatalogue(tx, quarry.id, [DEMO_SYSTEMS[1]]), wrenchIds: await seedWrenches(tx, quarry.id, addDays(today, -200)) };
-  for (const [chart, given, family, age, fdi] of [['QH-2001', 'Ottilie', 'Marsh', 52, 36], ['QH-2002', 'Caspar', 'Lindqvist', 44, 11]] as const) {
-    const pid = await addPatient(tx, qctx.practiceId, { chartNumber: chart, givenName: given, familyName: family, birthDate: birthDate(today, age, '03-03'), missingTeeth: [] });
+  const qctx: Ctx = {
+    ...ctx,
+    practiceId: quarry.id,
+    catalogue: await seedCatalogue(tx, quarry.id, [DEMO_SYSTEMS[1]]),
+    wrenchIds: await seedWrenches(tx, quarry.id, addDays(today, -200)),
+  };
+  for (const [chart, given, family, age, fdi] of [
+    ['QH-2001', 'Ottilie', 'Marsh', 52, 36],
+    ['QH-2002', 'Caspar', 'Lindqvist', 44, 11],
+  ] as const) {
+    const pid = await addPatient(tx, qctx.practiceId, {
+      chartNumber: chart,
+      givenName: given,
+      familyName: family,
+      birthDate: birthDate(today, age, '03-03'),
+      missingTeeth: [],
+    });
     const siteId = await addSite(qctx, pid, fdi, 'placed');
-    await place(qctx, { patientId: pid, siteId, platform: 'MHX-4.1', placedOn: '2022-05-17', lengthMm: 10, lot: 'MHX41-2205', insertionTorqueNcm: 35, isq: 71, surgeon: 'former' });
+    await place(qctx, {
+      patientId: pid,
+      siteId,
+      platform: 'MHX-4.1',
+      placedOn: '2022-05-17',
+      lengthMm: 10,
+      lot: 'MHX41-2205',
+      insertionTorqueNcm: 35,
+      isq: 71,
+      surgeon: 'former',
+    });
     sites += 1;
   }
 
   const patientRows = await tx.select({ id: patients.id, chartNumber: patients.chartNumber }).from(patients);
-  const siteRows = await tx.select({ id: implantSites.id, patientId: implantSites.patientId, fdi: implantSites.fdi }).from(implantSites);
+  const siteRows = await tx
+    .select({ id: implantSites.id, patientId: implantSites.patientId, fdi: implantSites.fdi })
+    .from(implantSites);
   const chartById = new Map(patientRows.map((p) => [p.id, p.chartNumber]));
   const refs: DemoRefs = {
     today,

@@ -25,7 +25,13 @@ if (isMain) {
   }
   const pool = createPool(url);
   seedIfEmpty(createDatabase(pool))
-    .then((summary) => console.log(summary ? `[seed] demo practice seeded: ${summary.patients} patients, ${summary.sites} implant sites` : '[seed] database already has data; not seeding'))
+    .then((summary) =>
+      console.log(
+        summary
+          ? `[seed] demo practice seeded: ${summary.patients} patients, ${summary.sites} implant sites`
+          : '[seed] database already has data; not seeding',
+      ),
+    )
     .catch((error: unknown) => {
       console.error(`[seed] failed: ${error instanceof Error ? error.message : String(error)}`);
       process.exitCode = 1;

@@ -98,12 +98,7 @@ export async function latestTorqueByInstance(db: Db, instanceIds: string[]) {
       performedAt: torqueEvents.performedAt,
     })
     .from(torqueEvents)
-    .where(
-      and(
-        inArray(torqueEvents.componentInstanceId, instanceIds),
-        isCurrentVersion(torqueEvents),
-      ),
-    )
+    .where(and(inArray(torqueEvents.componentInstanceId, instanceIds), isCurrentVersion(torqueEvents)))
     .orderBy(torqueEvents.componentInstanceId, desc(torqueEvents.performedAt));
   return new Map(rows.map((r) => [r.instanceId, r]));
 }
@@ -140,7 +135,11 @@ export async function findCurrentRestoration(db: Db, siteId: string) {
       ),
     )
     // What is in the mouth comes before what is only planned; then the newest.
-    .orderBy(sql`(${restorations.status} = 'delivered') desc`, desc(restorations.deliveredOn), desc(restorations.createdAt))
+    .orderBy(
+      sql`(${restorations.status} = 'delivered') desc`,
+      desc(restorations.deliveredOn),
+      desc(restorations.createdAt),
+    )
     .limit(1);
   if (!row) return null;
   const spans = await db
@@ -156,13 +155,12 @@ export async function findCurrentRestoration(db: Db, siteId: string) {
 export async function torqueReasonsByInstance(db: Db, instanceIds: string[]) {
   if (instanceIds.length === 0) return [];
   return db
-    .select({ instanceId: torqueEvents.componentInstanceId, reason: torqueEvents.reason, performedAt: torqueEvents.performedAt })
+    .select({
+      instanceId: torqueEvents.componentInstanceId,
+      reason: torqueEvents.reason,
+      performedAt: torqueEvents.performedAt,
+    })
     .from(torqueEvents)
-    .where(
-      and(
-        inArray(torqueEvents.componentInstanceId, instanceIds),
-        isCurrentVersion(torqueEvents),
-      ),
-    )
+    .where(and(inArray(torqueEvents.componentInstanceId, instanceIds), isCurrentVersion(torqueEvents)))
     .orderBy(asc(torqueEvents.performedAt));
 }

@@ -26,7 +26,13 @@ export class SitesService {
   ) {}
 
   private async visible(ability: AppAbility, scope: Scope, siteId: string) {
-    const site = assertCan(ability, 'read', 'ImplantSite', await findVisibleSite(this.db, scope, siteId), 'implant site');
+    const site = assertCan(
+      ability,
+      'read',
+      'ImplantSite',
+      await findVisibleSite(this.db, scope, siteId),
+      'implant site',
+    );
     const rowScope = { practiceId: site.practiceId, patientId: site.patientId };
     const canRead = (type: ReadableType) => ability.can('read', subject(type, { ...rowScope }));
     return { site, canRead };
@@ -42,7 +48,9 @@ export class SitesService {
     ]);
     const ids = parts.map((p) => p.instanceId);
     const readTorque = canRead('TorqueEvent');
-    const [torque, history] = readTorque ? await Promise.all([latestTorqueByInstance(this.db, ids), torqueReasonsByInstance(this.db, ids)]) : [new Map(), []];
+    const [torque, history] = readTorque
+      ? await Promise.all([latestTorqueByInstance(this.db, ids), torqueReasonsByInstance(this.db, ids)])
+      : [new Map(), []];
     parts.sort((a, b) => STACK_ORDER.indexOf(a.kind) - STACK_ORDER.indexOf(b.kind));
 
     return {
@@ -51,13 +59,18 @@ export class SitesService {
       patientName: site.patientName,
       fdi: site.fdi,
       status: site.status,
-      maintenanceStatus: (canRead('RecallExam') ? (await this.maintenance.latestBySite([site.id])).get(site.id)?.status : undefined) ?? 'not-examined',
+      maintenanceStatus:
+        (canRead('RecallExam') ? (await this.maintenance.latestBySite([site.id])).get(site.id)?.status : undefined) ??
+        'not-examined',
       placement,
       parts: parts.map((part) => {
         const last = torque.get(part.instanceId);
         return {
           ...part,
-          retorqueDueAt: readTorque && part.torqueSpecNcm !== null ? retorqueDueAt(history.filter((h) => h.instanceId === part.instanceId)) : null,
+          retorqueDueAt:
+            readTorque && part.torqueSpecNcm !== null
+              ? retorqueDueAt(history.filter((h) => h.instanceId === part.instanceId))
+              : null,
           lastTorque: last
             ? {
                 id: last.id,

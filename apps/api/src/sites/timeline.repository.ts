@@ -81,11 +81,21 @@ export async function restorationsOfSite(db: Db, siteId: string) {
     ids.length === 0
       ? []
       : await db
-          .select({ id: labPrescriptions.id, restorationId: labPrescriptions.restorationId, createdAt: labPrescriptions.createdAt, emailedTo: labPrescriptions.emailedTo, byName: users.displayName })
+          .select({
+            id: labPrescriptions.id,
+            restorationId: labPrescriptions.restorationId,
+            createdAt: labPrescriptions.createdAt,
+            emailedTo: labPrescriptions.emailedTo,
+            byName: users.displayName,
+          })
           .from(labPrescriptions)
           .leftJoin(users, eq(users.id, labPrescriptions.createdBy))
           .where(inArray(labPrescriptions.restorationId, ids));
-  return rows.map((r) => ({ ...r, spansFdi: spans.filter((s) => s.restorationId === r.id).map((s) => s.fdi), labs: labs.filter((l) => l.restorationId === r.id) }));
+  return rows.map((r) => ({
+    ...r,
+    spansFdi: spans.filter((s) => s.restorationId === r.id).map((s) => s.fdi),
+    labs: labs.filter((l) => l.restorationId === r.id),
+  }));
 }
 
 export async function partsOfSite(db: Db, siteId: string) {

@@ -5,10 +5,30 @@ import { buildTimeline, type TimelineRows } from './timeline.js';
 
 const at = (iso: string) => new Date(iso);
 
-const empty: TimelineRows = { placements: [], restorations: [], parts: [], torque: [], complications: [], recallExams: [] };
+const empty: TimelineRows = {
+  placements: [],
+  restorations: [],
+  parts: [],
+  torque: [],
+  complications: [],
+  recallExams: [],
+};
 const torque = (id: string, performedAt: string, amended = false) => ({
-  id, componentInstanceId: 'p1', partName: 'Screw', appliedNcm: 25, specNcm: 25, tolerancePct: 10, verdict: 'within' as const, reason: 're-torque-at-recall' as const,
-  wrenchLabel: null, performedAt: at(performedAt), recordedAt: at(amended ? '2020-01-01T00:00:00Z' : '2020-01-02T00:00:00Z'), byName: null, supersedesId: null, amendmentReason: null, amended,
+  id,
+  componentInstanceId: 'p1',
+  partName: 'Screw',
+  appliedNcm: 25,
+  specNcm: 25,
+  tolerancePct: 10,
+  verdict: 'within' as const,
+  reason: 're-torque-at-recall' as const,
+  wrenchLabel: null,
+  performedAt: at(performedAt),
+  recordedAt: at(amended ? '2020-01-01T00:00:00Z' : '2020-01-02T00:00:00Z'),
+  byName: null,
+  supersedesId: null,
+  amendmentReason: null,
+  amended,
 });
 
 describe('buildTimeline', () => {
@@ -16,8 +36,33 @@ describe('buildTimeline', () => {
     const rows: TimelineRows = {
       ...empty,
       torque: [torque('t2', '2016-05-10T09:41:00Z'), torque('t1', '2016-05-10T09:30:00Z')],
-      complications: [{ id: 'c1', kind: 'screw-loosening', occurredOn: '2016-05-10', notes: null, componentInstanceId: null, partName: null, byName: null, recordedAt: at('2016-05-10T10:00:00Z'), supersedesId: null, amendmentReason: null, amended: false }],
-      recallExams: [{ id: 'e1', examinedOn: '2015-01-01', status: 'health', boneLevelMm: null, byName: null, supersedesId: null, amendmentReason: null, amended: false }],
+      complications: [
+        {
+          id: 'c1',
+          kind: 'screw-loosening',
+          occurredOn: '2016-05-10',
+          notes: null,
+          componentInstanceId: null,
+          partName: null,
+          byName: null,
+          recordedAt: at('2016-05-10T10:00:00Z'),
+          supersedesId: null,
+          amendmentReason: null,
+          amended: false,
+        },
+      ],
+      recallExams: [
+        {
+          id: 'e1',
+          examinedOn: '2015-01-01',
+          status: 'health',
+          boneLevelMm: null,
+          byName: null,
+          supersedesId: null,
+          amendmentReason: null,
+          amended: false,
+        },
+      ],
     };
     expect(buildTimeline('s', rows).events.map((e) => e.id)).toEqual(['e1', 'c1', 't1', 't2']);
     expect(buildTimeline('s', rows, ['torque']).events.map((e) => e.id)).toEqual(['t1', 't2']);
@@ -25,11 +70,28 @@ describe('buildTimeline', () => {
   it('keeps amended torque entries in the events but not in the chart series', () => {
     const rows: TimelineRows = {
       ...empty,
-      parts: [{ id: 'p1', kind: 'prosthetic-screw', name: 'Screw', referenceCode: 'X', torqueSpecNcm: 25, tolerancePct: 10, lot: null, installedOn: '2016-01-01', removedOn: null, replacesId: null, byName: null }],
+      parts: [
+        {
+          id: 'p1',
+          kind: 'prosthetic-screw',
+          name: 'Screw',
+          referenceCode: 'X',
+          torqueSpecNcm: 25,
+          tolerancePct: 10,
+          lot: null,
+          installedOn: '2016-01-01',
+          removedOn: null,
+          replacesId: null,
+          byName: null,
+        },
+      ],
       torque: [torque('new', '2016-05-10T09:30:00Z'), torque('old', '2016-05-10T09:30:00Z', true)],
     };
     const t = buildTimeline('s', rows);
-    expect(t.events.filter((e) => e.kind === 'torque').map((e) => [e.id, e.amended])).toEqual([['old', true], ['new', false]]);
+    expect(t.events.filter((e) => e.kind === 'torque').map((e) => [e.id, e.amended])).toEqual([
+      ['old', true],
+      ['new', false],
+    ]);
     expect(t.torqueSeries[0].points.map((p) => p.id)).toEqual(['new']);
   });
 });

@@ -1,6 +1,12 @@
 // Builds the Timeline of a site from its rows: every event in time order, amended entries kept
 // and marked, with one torque series per part for the chart.
-import { TIMELINE_KINDS, type TimelineEvent, type TimelineKind, type TimelineReply, type TorqueSeries } from '@torquetrail/contracts';
+import {
+  TIMELINE_KINDS,
+  type TimelineEvent,
+  type TimelineKind,
+  type TimelineReply,
+  type TorqueSeries,
+} from '@torquetrail/contracts';
 import { isRetrievable } from '@torquetrail/domain';
 import type * as repo from './timeline.repository.js';
 
@@ -19,7 +25,14 @@ const day = (date: string) => `${date}T00:00:00.000Z`;
 const text = (v: string) => v.replace(/-/g, ' ');
 const span = (fdis: number[]) => (fdis.length > 1 ? `sites ${fdis.join(', ')}` : `site ${fdis[0]}`);
 
-function base(kind: TimelineKind, id: string, at: string, dateOnly: boolean, title: string, { keySuffix = '', ...rest }: Partial<TimelineEvent> & { keySuffix?: string } = {}): TimelineEvent {
+function base(
+  kind: TimelineKind,
+  id: string,
+  at: string,
+  dateOnly: boolean,
+  title: string,
+  { keySuffix = '', ...rest }: Partial<TimelineEvent> & { keySuffix?: string } = {},
+): TimelineEvent {
   return {
     key: `${kind}:${id}${keySuffix}`,
     id,
@@ -46,28 +59,59 @@ export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: Timeli
   const recorded = new Map<TimelineEvent, string>();
   for (const p of rows.placements) {
     events.push(
-      base('placement', p.id, day(p.placedOn), true, `${p.supersedesId ? 'Placement (amended record)' : 'Implant placed'}: ${p.systemName}, ${p.platformName} × ${p.lengthMm} mm`, {
-        detail: [p.insertionTorqueNcm !== null ? `insertion torque ${p.insertionTorqueNcm} N·cm` : null, p.stabilityIsq !== null ? `ISQ ${p.stabilityIsq}` : null, p.lot ? `lot ${p.lot}` : null].filter(Boolean).join(', ') || null,
-        byName: p.surgeonName,
-        amended: p.amended,
-        supersedesId: p.supersedesId,
-        amendmentReason: p.amendmentReason,
-      }),
+      base(
+        'placement',
+        p.id,
+        day(p.placedOn),
+        true,
+        `${p.supersedesId ? 'Placement (amended record)' : 'Implant placed'}: ${p.systemName}, ${p.platformName} × ${p.lengthMm} mm`,
+        {
+          detail:
+            [
+              p.insertionTorqueNcm !== null ? `insertion torque ${p.insertionTorqueNcm} N·cm` : null,
+              p.stabilityIsq !== null ? `ISQ ${p.stabilityIsq}` : null,
+              p.lot ? `lot ${p.lot}` : null,
+            ]
+              .filter(Boolean)
+              .join(', ') || null,
+          byName: p.surgeonName,
+          amended: p.amended,
+          supersedesId: p.supersedesId,
+          amendmentReason: p.amendmentReason,
+        },
+      ),
     );
   }
   for (const r of rows.restorations) {
     const what = `${text(r.kind)}, ${text(r.retention)}, ${text(r.material)}${r.shade ? ` ${r.shade}` : ''} (${span(r.spansFdi)})`;
     const warnings = (r.findings as { severity: string }[]).filter((f) => f.severity === 'warning').length;
     events.push(
-      base('plan', r.id, r.createdAt.toISOString(), false, `${r.supersedesId ? 'Plan amended' : 'Restoration planned'}: ${what}`, {
-        detail: `${r.interface} interface, ${r.impressionCoping} impression coping${r.copingsSplinted ? 's splinted' : ''}${warnings ? `; ${warnings} warning Finding(s) acknowledged` : ''}`,
-        byName: r.plannedByName,
-        amended: r.amended,
-        supersedesId: r.supersedesId,
-        amendmentReason: r.amendmentReason,
-      }),
+      base(
+        'plan',
+        r.id,
+        r.createdAt.toISOString(),
+        false,
+        `${r.supersedesId ? 'Plan amended' : 'Restoration planned'}: ${what}`,
+        {
+          detail: `${r.interface} interface, ${r.impressionCoping} impression coping${r.copingsSplinted ? 's splinted' : ''}${warnings ? `; ${warnings} warning Finding(s) acknowledged` : ''}`,
+          byName: r.plannedByName,
+          amended: r.amended,
+          supersedesId: r.supersedesId,
+          amendmentReason: r.amendmentReason,
+        },
+      ),
     );
-    if (r.impressionTakenOn) events.push(base('impression', r.id, day(r.impressionTakenOn), true, `Impression taken: ${r.impressionCoping} coping${r.copingsSplinted ? 's, splinted' : ''}`, { amended: r.amended }));
+    if (r.impressionTakenOn)
+      events.push(
+        base(
+          'impression',
+          r.id,
+          day(r.impressionTakenOn),
+          true,
+          `Impression taken: ${r.impressionCoping} coping${r.copingsSplinted ? 's, splinted' : ''}`,
+          { amended: r.amended },
+        ),
+      );
     if (r.deliveredOn) {
       events.push(
         base('delivery', r.id, day(r.deliveredOn), true, `Restoration delivered: ${what}`, {
@@ -76,21 +120,46 @@ export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: Timeli
         }),
       );
     }
-    for (const l of r.labs) events.push(base('lab-prescription', l.id, l.createdAt.toISOString(), false, 'Lab prescription issued', { detail: l.emailedTo ? `e-mailed to ${l.emailedTo}` : null, byName: l.byName }));
+    for (const l of r.labs)
+      events.push(
+        base('lab-prescription', l.id, l.createdAt.toISOString(), false, 'Lab prescription issued', {
+          detail: l.emailedTo ? `e-mailed to ${l.emailedTo}` : null,
+          byName: l.byName,
+        }),
+      );
   }
   for (const p of rows.parts) {
     events.push(
-      base('part', p.id, day(p.installedOn), true, `${p.replacesId ? 'Replacement installed' : 'Installed'}: ${p.name}`, {
-        keySuffix: ':in',
-        detail: [p.referenceCode, p.lot ? `lot ${p.lot}` : null].filter(Boolean).join(', '),
-        componentInstanceId: p.id,
-        byName: p.byName,
-      }),
+      base(
+        'part',
+        p.id,
+        day(p.installedOn),
+        true,
+        `${p.replacesId ? 'Replacement installed' : 'Installed'}: ${p.name}`,
+        {
+          keySuffix: ':in',
+          detail: [p.referenceCode, p.lot ? `lot ${p.lot}` : null].filter(Boolean).join(', '),
+          componentInstanceId: p.id,
+          byName: p.byName,
+        },
+      ),
     );
-    if (p.removedOn) events.push(base('part', p.id, day(p.removedOn), true, `Removed: ${p.name}`, { keySuffix: ':out', componentInstanceId: p.id }));
+    if (p.removedOn)
+      events.push(
+        base('part', p.id, day(p.removedOn), true, `Removed: ${p.name}`, {
+          keySuffix: ':out',
+          componentInstanceId: p.id,
+        }),
+      );
   }
   for (const t of rows.torque) {
-    const event = base('torque', t.id, t.performedAt.toISOString(), false, `${t.appliedNcm} N·cm on ${t.partName} (${text(t.reason)}): ${t.verdict}`, {
+    const event = base(
+      'torque',
+      t.id,
+      t.performedAt.toISOString(),
+      false,
+      `${t.appliedNcm} N·cm on ${t.partName} (${text(t.reason)}): ${t.verdict}`,
+      {
         detail: `spec ${t.specNcm} N·cm ±${t.tolerancePct} %${t.wrenchLabel ? `, ${t.wrenchLabel}` : ''}`,
         componentInstanceId: t.componentInstanceId,
         verdict: t.verdict,
@@ -100,12 +169,19 @@ export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: Timeli
         amended: t.amended,
         supersedesId: t.supersedesId,
         amendmentReason: t.amendmentReason,
-      });
+      },
+    );
     events.push(event);
     recorded.set(event, t.recordedAt.toISOString());
   }
   for (const c of rows.complications) {
-    const event = base('complication', c.id, day(c.occurredOn), true, `Complication: ${text(c.kind)}${c.partName ? ` (${c.partName})` : ''}`, {
+    const event = base(
+      'complication',
+      c.id,
+      day(c.occurredOn),
+      true,
+      `Complication: ${text(c.kind)}${c.partName ? ` (${c.partName})` : ''}`,
+      {
         detail: c.notes,
         code: c.kind,
         componentInstanceId: c.componentInstanceId,
@@ -113,7 +189,8 @@ export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: Timeli
         amended: c.amended,
         supersedesId: c.supersedesId,
         amendmentReason: c.amendmentReason,
-      });
+      },
+    );
     events.push(event);
     recorded.set(event, c.recordedAt.toISOString());
   }
@@ -149,7 +226,13 @@ export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: Timeli
       removedOn: p.removedOn,
       points: rows.torque
         .filter((t) => t.componentInstanceId === p.id && !t.amended)
-        .map((t) => ({ id: t.id, at: t.performedAt.toISOString(), appliedNcm: t.appliedNcm, verdict: t.verdict, reason: t.reason })),
+        .map((t) => ({
+          id: t.id,
+          at: t.performedAt.toISOString(),
+          appliedNcm: t.appliedNcm,
+          verdict: t.verdict,
+          reason: t.reason,
+        })),
     }));
   return { siteId, events: kept, torqueSeries };
 }

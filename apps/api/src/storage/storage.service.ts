@@ -27,7 +27,9 @@ export class StorageService implements OnModuleDestroy {
 
   async isUp(): Promise<boolean> {
     try {
-      await this.client.send(new HeadBucketCommand({ Bucket: this.bucket }), { abortSignal: AbortSignal.timeout(2000) });
+      await this.client.send(new HeadBucketCommand({ Bucket: this.bucket }), {
+        abortSignal: AbortSignal.timeout(2000),
+      });
       return true;
     } catch {
       return false;
@@ -35,7 +37,9 @@ export class StorageService implements OnModuleDestroy {
   }
 
   async put(key: string, body: Buffer, contentType: string): Promise<void> {
-    await this.client.send(new PutObjectCommand({ Bucket: this.bucket, Key: key, Body: body, ContentType: contentType }));
+    await this.client.send(
+      new PutObjectCommand({ Bucket: this.bucket, Key: key, Body: body, ContentType: contentType }),
+    );
   }
 
   async get(key: string): Promise<Buffer> {

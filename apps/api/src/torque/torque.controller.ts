@@ -15,7 +15,11 @@ export class TorqueController {
 
   @Post()
   @Allow('create', 'TorqueEvent')
-  log(@CurrentUser() user: SessionUser, @CurrentAbility() ability: AppAbility, @Body(new ZodValidationPipe(TorqueBody)) body: z.output<typeof TorqueBody>): Promise<TorqueEvent> {
+  log(
+    @CurrentUser() user: SessionUser,
+    @CurrentAbility() ability: AppAbility,
+    @Body(new ZodValidationPipe(TorqueBody)) body: z.output<typeof TorqueBody>,
+  ): Promise<TorqueEvent> {
     return this.torque.log(ability, user, scopeOf(user), body);
   }
 

@@ -72,13 +72,20 @@ export async function loadTorqueEvent(db: Db, id: string) {
 }
 
 export async function findWrenchOfPractice(db: Db, practiceId: string, id: string) {
-  const [row] = await db.select({ id: torqueWrenches.id }).from(torqueWrenches).where(and(eq(torqueWrenches.id, id), eq(torqueWrenches.practiceId, practiceId)));
+  const [row] = await db
+    .select({ id: torqueWrenches.id })
+    .from(torqueWrenches)
+    .where(and(eq(torqueWrenches.id, id), eq(torqueWrenches.practiceId, practiceId)));
   return row ?? null;
 }
 
 /** Locks a part instance until the transaction ends: two entries that retire it run one after the other. */
 export async function lockInstance(tx: Tx, id: string) {
-  await tx.select({ id: componentInstances.id }).from(componentInstances).where(eq(componentInstances.id, id)).for('update');
+  await tx
+    .select({ id: componentInstances.id })
+    .from(componentInstances)
+    .where(eq(componentInstances.id, id))
+    .for('update');
 }
 
 /** Retires a part: it came out of the mouth on `day` (its row and history stay). */
@@ -100,4 +107,5 @@ export async function insertTorqueEvent(db: Db, v: TorqueValues) {
 }
 
 /** A new version of a torque entry; a second amendment of one version is refused by the database. */
-export const insertTorqueAmendment = (db: Db, v: TorqueValues & { supersedesId: string; amendmentReason: string }) => insertAmendment(db, torqueEvents, v);
+export const insertTorqueAmendment = (db: Db, v: TorqueValues & { supersedesId: string; amendmentReason: string }) =>
+  insertAmendment(db, torqueEvents, v);

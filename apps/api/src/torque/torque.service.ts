@@ -14,7 +14,8 @@ import * as repo from './torque.repository.js';
 const FUTURE_SLACK_MS = 5 * 60_000;
 
 function assertInPlace(part: { removedOn: string | null }) {
-  if (part.removedOn) throw new ConflictException(`This part was removed on ${part.removedOn}; log the torque on the part in place`);
+  if (part.removedOn)
+    throw new ConflictException(`This part was removed on ${part.removedOn}; log the torque on the part in place`);
 }
 
 @Injectable()
@@ -22,7 +23,8 @@ export class TorqueService {
   constructor(@Inject(DB) private readonly db: Database) {}
 
   private async checkWrench(db: Tx | Database, practiceId: string, wrenchId: string | null) {
-    if (wrenchId && !(await repo.findWrenchOfPractice(db, practiceId, wrenchId))) throw fieldError({ wrenchId: 'Not a torque wrench of this practice' });
+    if (wrenchId && !(await repo.findWrenchOfPractice(db, practiceId, wrenchId)))
+      throw fieldError({ wrenchId: 'Not a torque wrench of this practice' });
   }
 
   private checkWhen(performedAt: Date, field: string) {
@@ -34,50 +36,123 @@ export class TorqueService {
    * tolerance and is stored with RULES_VERSION. 'screw-replaced' retires the old instance
    * (removedOn) and applies the torque to a new one that replaces it, in one transaction.
    */
-  async log(ability: AppAbility, user: SessionUser, scope: Scope, body: z.output<typeof TorqueBody>): Promise<TorqueEvent> {
-    const part = assertCan(ability, 'create', 'TorqueEvent', await repo.findVisibleInstance(this.db, scope, body.componentInstanceId), 'part');
+  async log(
+    ability: AppAbility,
+    user: SessionUser,
+    scope: Scope,
+    body: z.output<typeof TorqueBody>,
+  ): Promise<TorqueEvent> {
+    const part = assertCan(
+      ability,
+      'create',
+      'TorqueEvent',
+      await repo.findVisibleInstance(this.db, scope, body.componentInstanceId),
+      'part',
+    );
     assertInPlace(part);
-    if (part.torqueSpecNcm === null) throw fieldError({ componentInstanceId: `${part.name} is hand-tight: it has no torque specification in the catalogue` });
+    if (part.torqueSpecNcm === null)
+      throw fieldError({
+        componentInstanceId: `${part.name} is hand-tight: it has no torque specification in the catalogue`,
+      });
     const performedAt = body.performedAt ? new Date(body.performedAt) : new Date();
     this.checkWhen(performedAt, 'performedAt');
     await this.checkWrench(this.db, part.practiceId, body.wrenchId);
     const replacing = body.reason === 'screw-replaced';
     if (replacing) {
       assertCan(ability, 'create', 'ComponentInstance', part, 'part');
-      if (part.requiresLot && !body.replacementLot) throw fieldError({ replacementLot: `The lot number of the new ${part.name} is required` });
+      if (part.requiresLot && !body.replacementLot)
+        throw fieldError({ replacementLot: `The lot number of the new ${part.name} is required` });
     }
     const specNcm = part.torqueSpecNcm;
     const verdict = torqueVerdict({ appliedNcm: body.appliedNcm, specNcm, tolerancePct: part.tolerancePct });
     const id = await this.db.transaction(async (tx) => {
       // Re-read under the lock: a concurrent 'screw-replaced' may have retired the part meanwhile.
       await repo.lockInstance(tx, part.id);
-      assertInPlace((await repo.findVisibleInstance(tx, scope, part.id)));
+      assertInPlace(await repo.findVisibleInstance(tx, scope, part.id));
       let instanceId = part.id;
       if (replacing) {
         const day = performedAt.toISOString().slice(0, 10);
         await repo.retireInstance(tx, part.id, day);
-        instanceId = await repo.insertInstance(tx, { practiceId: part.practiceId, patientId: part.patientId, siteId: part.siteId, restorationId: part.restorationId, componentId: part.componentId, lot: body.replacementLot, installedOn: day, replacesId: part.id, recordedBy: user.id });
+        instanceId = await repo.insertInstance(tx, {
+          practiceId: part.practiceId,
+          patientId: part.patientId,
+          siteId: part.siteId,
+          restorationId: part.restorationId,
+          componentId: part.componentId,
+          lot: body.replacementLot,
+          installedOn: day,
+          replacesId: part.id,
+          recordedBy: user.id,
+        });
       }
-      return repo.insertTorqueEvent(tx, { practiceId: part.practiceId, patientId: part.patientId, componentInstanceId: instanceId, appliedNcm: body.appliedNcm, specNcm, tolerancePct: part.tolerancePct, verdict, rulesVersion: RULES_VERSION, reason: body.reason, wrenchId: body.wrenchId, performedAt, recordedBy: user.id });
+      return repo.insertTorqueEvent(tx, {
+        practiceId: part.practiceId,
+        patientId: part.patientId,
+        componentInstanceId: instanceId,
+        appliedNcm: body.appliedNcm,
+        specNcm,
+        tolerancePct: part.tolerancePct,
+        verdict,
+        rulesVersion: RULES_VERSION,
+        reason: body.reason,
+        wrenchId: body.wrenchId,
+        performedAt,
+        recordedBy: user.id,
+      });
     });
     return this.reply(id, replacing);
   }
 
   /** An amendment is a new row superseding the old one (spec and reason kept; the verdict recomputed). */
-  async amend(ability: AppAbility, user: SessionUser, scope: Scope, id: string, body: z.output<typeof TorqueAmendmentBody>): Promise<TorqueEvent> {
-    const old = assertCan(ability, 'amend', 'TorqueEvent', await repo.findVisibleTorqueEvent(this.db, scope, id), 'torque entry');
+  async amend(
+    ability: AppAbility,
+    user: SessionUser,
+    scope: Scope,
+    id: string,
+    body: z.output<typeof TorqueAmendmentBody>,
+  ): Promise<TorqueEvent> {
+    const old = assertCan(
+      ability,
+      'amend',
+      'TorqueEvent',
+      await repo.findVisibleTorqueEvent(this.db, scope, id),
+      'torque entry',
+    );
     if (old.supersededById) throw alreadyAmended('torque_events');
     const performedAt = new Date(body.performedAt);
     this.checkWhen(performedAt, 'performedAt');
     await this.checkWrench(this.db, old.practiceId, body.wrenchId);
-    const verdict = torqueVerdict({ appliedNcm: body.appliedNcm, specNcm: old.specNcm, tolerancePct: old.tolerancePct });
+    const verdict = torqueVerdict({
+      appliedNcm: body.appliedNcm,
+      specNcm: old.specNcm,
+      tolerancePct: old.tolerancePct,
+    });
     // Of two concurrent amendments of one entry the database saves the first (insertAmendment).
-    const newId = await repo.insertTorqueAmendment(this.db, { practiceId: old.practiceId, patientId: old.patientId, componentInstanceId: old.componentInstanceId, appliedNcm: body.appliedNcm, specNcm: old.specNcm, tolerancePct: old.tolerancePct, verdict, rulesVersion: RULES_VERSION, reason: old.reason, wrenchId: body.wrenchId, performedAt, supersedesId: old.id, amendmentReason: body.amendmentReason, recordedBy: user.id });
+    const newId = await repo.insertTorqueAmendment(this.db, {
+      practiceId: old.practiceId,
+      patientId: old.patientId,
+      componentInstanceId: old.componentInstanceId,
+      appliedNcm: body.appliedNcm,
+      specNcm: old.specNcm,
+      tolerancePct: old.tolerancePct,
+      verdict,
+      rulesVersion: RULES_VERSION,
+      reason: old.reason,
+      wrenchId: body.wrenchId,
+      performedAt,
+      supersedesId: old.id,
+      amendmentReason: body.amendmentReason,
+      recordedBy: user.id,
+    });
     return this.reply(newId, false);
   }
 
   private async reply(id: string, replacing: boolean): Promise<TorqueEvent> {
     const e = await repo.loadTorqueEvent(this.db, id);
-    return { ...e, performedAt: e.performedAt.toISOString(), replacementInstanceId: replacing ? e.componentInstanceId : null };
+    return {
+      ...e,
+      performedAt: e.performedAt.toISOString(),
+      replacementInstanceId: replacing ? e.componentInstanceId : null,
+    };
   }
 }

@@ -2,7 +2,15 @@
 // per restoration pathway, or one with a part in place), and the catalogue ids the planner needs.
 import { and, eq } from 'drizzle-orm';
 import type { Database } from '../../src/db/database.js';
-import { componentInstances, components, implantSites, patients, placements, platforms, practices } from '../../src/db/schema/index.js';
+import {
+  componentInstances,
+  components,
+  implantSites,
+  patients,
+  placements,
+  platforms,
+  practices,
+} from '../../src/db/schema/index.js';
 import type { TestContext } from './test-app.js';
 
 export async function larkspurId(db: Database) {
@@ -11,7 +19,10 @@ export async function larkspurId(db: Database) {
 }
 
 export async function platformId(db: Database, practiceId: string, name: string) {
-  const [row] = await db.select({ id: platforms.id }).from(platforms).where(and(eq(platforms.practiceId, practiceId), eq(platforms.name, name)));
+  const [row] = await db
+    .select({ id: platforms.id })
+    .from(platforms)
+    .where(and(eq(platforms.practiceId, practiceId), eq(platforms.name, name)));
   if (!row) throw new Error(`no platform ${name}`);
   return row.id;
 }
@@ -19,7 +30,10 @@ export async function platformId(db: Database, practiceId: string, name: string)
 /** Part ids of a platform by reference-code suffix, e.g. 'PSI', 'MU17-25', 'ICN-O'. */
 export async function parts(db: Database, practiceId: string, platformName: string) {
   const pid = await platformId(db, practiceId, platformName);
-  const rows = await db.select({ id: components.id, referenceCode: components.referenceCode }).from(components).where(eq(components.platformId, pid));
+  const rows = await db
+    .select({ id: components.id, referenceCode: components.referenceCode })
+    .from(components)
+    .where(eq(components.platformId, pid));
   const bySuffix = new Map(rows.map((r) => [r.referenceCode.split('-').slice(2).join('-'), r.id]));
   return (suffix: string) => {
     const id = bySuffix.get(suffix);
@@ -29,7 +43,12 @@ export async function parts(db: Database, practiceId: string, platformName: stri
 }
 
 /** A new Larkspur patient with implants placed last month on the given platform. */
-export async function patientWithImplants(ctx: TestContext, chartNumber: string, platformName: string, implants: { fdi: number; axis?: [number, number, number] }[]) {
+export async function patientWithImplants(
+  ctx: TestContext,
+  chartNumber: string,
+  platformName: string,
+  implants: { fdi: number; axis?: [number, number, number] }[],
+) {
   const practiceId = await larkspurId(ctx.db);
   const pid = await platformId(ctx.db, practiceId, platformName);
   const [patient] = await ctx.db
@@ -38,7 +57,10 @@ export async function patientWithImplants(ctx: TestContext, chartNumber: string,
     .returning({ id: patients.id });
   const siteIds: Record<number, string> = {};
   for (const i of implants) {
-    const [site] = await ctx.db.insert(implantSites).values({ practiceId, patientId: patient.id, fdi: i.fdi, status: 'placed' }).returning({ id: implantSites.id });
+    const [site] = await ctx.db
+      .insert(implantSites)
+      .values({ practiceId, patientId: patient.id, fdi: i.fdi, status: 'placed' })
+      .returning({ id: implantSites.id });
     siteIds[i.fdi] = site.id;
     await ctx.db.insert(placements).values({
       practiceId,
@@ -61,13 +83,26 @@ export async function patientWithImplants(ctx: TestContext, chartNumber: string,
  * month, no torque logged yet): a part of its own for a test that retires, replaces or re-torques
  * one, so no other test sees the change.
  */
-export async function patientWithPart(ctx: TestContext, chartNumber: string, platformName: string, partSuffix: string, fdi = 35) {
+export async function patientWithPart(
+  ctx: TestContext,
+  chartNumber: string,
+  platformName: string,
+  partSuffix: string,
+  fdi = 35,
+) {
   const { patientId, siteIds } = await patientWithImplants(ctx, chartNumber, platformName, [{ fdi }]);
   const practiceId = await larkspurId(ctx.db);
   const part = await parts(ctx.db, practiceId, platformName);
   const [instance] = await ctx.db
     .insert(componentInstances)
-    .values({ practiceId, patientId, siteId: siteIds[fdi], componentId: part(partSuffix), lot: `${partSuffix}-${chartNumber}`, installedOn: '2026-10-15' })
+    .values({
+      practiceId,
+      patientId,
+      siteId: siteIds[fdi],
+      componentId: part(partSuffix),
+      lot: `${partSuffix}-${chartNumber}`,
+      installedOn: '2026-10-15',
+    })
     .returning({ id: componentInstances.id });
   return { patientId, siteId: siteIds[fdi], instanceId: instance.id };
 }

@@ -16,7 +16,11 @@ export async function caughtFor(reminderId: string): Promise<CaughtMail[]> {
 }
 
 /** Polls until `probe` returns a value (not undefined/null/false), or fails after `ms`. */
-export async function until<T>(probe: () => Promise<T | undefined | null | false>, ms: number, every = 250): Promise<T> {
+export async function until<T>(
+  probe: () => Promise<T | undefined | null | false>,
+  ms: number,
+  every = 250,
+): Promise<T> {
   const end = Date.now() + ms;
   for (;;) {
     const value = await probe();

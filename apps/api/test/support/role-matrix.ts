@@ -66,7 +66,11 @@ export interface RoleMatrixOptions {
 }
 
 /** One `describe` per case, one `it` per actor, each independent of the others' order. */
-export function describeRoleMatrix(app: () => TestContext, cases: readonly RoleCase[], options: RoleMatrixOptions = {}): void {
+export function describeRoleMatrix(
+  app: () => TestContext,
+  cases: readonly RoleCase[],
+  options: RoleMatrixOptions = {},
+): void {
   const notFound = options.notFoundMessage === undefined ? /^No such|Validation failed/ : options.notFoundMessage;
   describe.each(cases)('$route', (row) => {
     it.each(ACTORS)('as %s', async (actor) => {

@@ -22,7 +22,9 @@ export interface TestContext {
 
 /** Empties every table of the test database and seeds the demo scenario again. */
 export async function resetDatabase(db: Database): Promise<void> {
-  const tables = await db.execute<{ tablename: string }>(sql`select tablename from pg_tables where schemaname = 'public'`);
+  const tables = await db.execute<{ tablename: string }>(
+    sql`select tablename from pg_tables where schemaname = 'public'`,
+  );
   const names = tables.rows.map((t) => `"${t.tablename}"`).join(', ');
   if (names) await db.execute(sql.raw(`TRUNCATE ${names} RESTART IDENTITY CASCADE`));
   await db.transaction((tx) => seedDemo(tx, todayIso()));
@@ -66,7 +68,9 @@ export async function signIn(ctx: TestContext, who: AccountKey): Promise<string>
 }
 
 export async function signInAll(ctx: TestContext): Promise<Record<AccountKey, string>> {
-  const entries = await Promise.all((Object.keys(ACCOUNTS) as AccountKey[]).map(async (k) => [k, await signIn(ctx, k)] as const));
+  const entries = await Promise.all(
+    (Object.keys(ACCOUNTS) as AccountKey[]).map(async (k) => [k, await signIn(ctx, k)] as const),
+  );
   return Object.fromEntries(entries) as Record<AccountKey, string>;
 }
 
@@ -78,7 +82,10 @@ export async function patientId(db: Database, chartNumber: string): Promise<stri
 
 export async function siteId(db: Database, chartNumber: string, fdi: number): Promise<string> {
   const pid = await patientId(db, chartNumber);
-  const [row] = await db.select({ id: implantSites.id }).from(implantSites).where(and(eq(implantSites.patientId, pid), eq(implantSites.fdi, fdi)));
+  const [row] = await db
+    .select({ id: implantSites.id })
+    .from(implantSites)
+    .where(and(eq(implantSites.patientId, pid), eq(implantSites.fdi, fdi)));
   if (!row) throw new Error(`no site ${fdi} for ${chartNumber}`);
   return row.id;
 }

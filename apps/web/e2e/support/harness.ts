@@ -22,7 +22,8 @@ export interface Harness {
 }
 
 export async function startHarness(): Promise<Harness> {
-  if (!fs.existsSync(path.join(webDist, 'index.html'))) throw new Error(`the web app is not built (${webDist}); run npm test`);
+  if (!fs.existsSync(path.join(webDist, 'index.html')))
+    throw new Error(`the web app is not built (${webDist}); run npm test`);
   const env = parseEnv({ ...process.env, NODE_ENV: 'test', WEB_DIST: webDist });
   const pool = createPool(env.DATABASE_URL);
   await resetDatabase(createDatabase(pool));
@@ -34,7 +35,15 @@ export async function startHarness(): Promise<Harness> {
   // playwright-core gives each launch a fresh, empty profile folder of its own.
   const browser = await chromium.launch({
     executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
-    args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+    args: [
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-quic',
+      '--no-first-run',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+    ],
     headless: true,
   });
   const problems: string[] = [];

@@ -39,14 +39,26 @@ export function AppShell({ me, onSignOut, signingOut, signOutError }: AppShellPr
                 to="/patients"
                 // Highlighted on every patient page; aria-current="page" only on the list itself.
                 aria-current={onPatientList ? 'page' : 'true'}
-                className={({ isActive }) => `${Classes.BUTTON} ${Classes.MINIMAL}${isActive ? ` ${Classes.ACTIVE}` : ''}`}
+                className={({ isActive }) =>
+                  `${Classes.BUTTON} ${Classes.MINIMAL}${isActive ? ` ${Classes.ACTIVE}` : ''}`
+                }
               >
                 Patients
               </NavLink>
-              <NavLink to="/recalls" className={({ isActive }) => `${Classes.BUTTON} ${Classes.MINIMAL}${isActive ? ` ${Classes.ACTIVE}` : ''}`}>
+              <NavLink
+                to="/recalls"
+                className={({ isActive }) =>
+                  `${Classes.BUTTON} ${Classes.MINIMAL}${isActive ? ` ${Classes.ACTIVE}` : ''}`
+                }
+              >
                 Recall desk
               </NavLink>
-              <NavLink to="/catalogue" className={({ isActive }) => `${Classes.BUTTON} ${Classes.MINIMAL}${isActive ? ` ${Classes.ACTIVE}` : ''}`}>
+              <NavLink
+                to="/catalogue"
+                className={({ isActive }) =>
+                  `${Classes.BUTTON} ${Classes.MINIMAL}${isActive ? ` ${Classes.ACTIVE}` : ''}`
+                }
+              >
                 Catalogue
               </NavLink>
             </nav>

@@ -34,7 +34,12 @@ export function RequireAuth() {
   }
   return (
     <AppAbilityProvider ability={ability}>
-      <AppShell me={me.data} onSignOut={() => signOut.mutate()} signingOut={signOut.isPending} signOutError={signOut.error} />
+      <AppShell
+        me={me.data}
+        onSignOut={() => signOut.mutate()}
+        signingOut={signOut.isPending}
+        signOutError={signOut.error}
+      />
     </AppAbilityProvider>
   );
 }

@@ -23,7 +23,9 @@ export const router = createBrowserRouter([
           { index: true, element: <Navigate to="/patients" replace /> },
           {
             path: 'patients',
-            lazy: async () => ({ Component: (await import('../features/patients/routes/patients-route')).PatientsRoute }),
+            lazy: async () => ({
+              Component: (await import('../features/patients/routes/patients-route')).PatientsRoute,
+            }),
           },
           {
             path: 'patients/:patientId',
@@ -37,11 +39,15 @@ export const router = createBrowserRouter([
           },
           {
             path: 'patients/:patientId/sites/:siteId/placement',
-            lazy: async () => ({ Component: (await import('../features/placement/routes/record-placement-route')).RecordPlacementRoute }),
+            lazy: async () => ({
+              Component: (await import('../features/placement/routes/record-placement-route')).RecordPlacementRoute,
+            }),
           },
           {
             path: 'patients/:patientId/restorations',
-            lazy: async () => ({ Component: (await import('../features/planner/routes/restorations-route')).RestorationsRoute }),
+            lazy: async () => ({
+              Component: (await import('../features/planner/routes/restorations-route')).RestorationsRoute,
+            }),
           },
           {
             path: 'patients/:patientId/restorations/new',
@@ -49,11 +55,15 @@ export const router = createBrowserRouter([
           },
           {
             path: 'catalogue',
-            lazy: async () => ({ Component: (await import('../features/catalogue/routes/catalogue-route')).CatalogueRoute }),
+            lazy: async () => ({
+              Component: (await import('../features/catalogue/routes/catalogue-route')).CatalogueRoute,
+            }),
           },
           {
             path: 'recalls',
-            lazy: async () => ({ Component: (await import('../features/recalls/routes/recall-desk-route')).RecallDeskRoute }),
+            lazy: async () => ({
+              Component: (await import('../features/recalls/routes/recall-desk-route')).RecallDeskRoute,
+            }),
           },
           {
             path: 'recalls/patients/:patientId/exam',
@@ -65,7 +75,9 @@ export const router = createBrowserRouter([
           },
           {
             path: 'recalls/reminders',
-            lazy: async () => ({ Component: (await import('../features/recalls/routes/reminder-log-route')).ReminderLogRoute }),
+            lazy: async () => ({
+              Component: (await import('../features/recalls/routes/reminder-log-route')).ReminderLogRoute,
+            }),
           },
           { path: '*', element: <NotFoundRoute /> },
         ],

@@ -36,7 +36,16 @@ describe('apiRequest', () => {
   it('throws an ApiError with the reply message and fields', async () => {
     vi.stubGlobal(
       'fetch',
-      vi.fn().mockResolvedValue(reply(400, { statusCode: 400, error: 'Bad Request', message: 'Invalid', fields: { email: 'Enter a valid e-mail address' } })),
+      vi
+        .fn()
+        .mockResolvedValue(
+          reply(400, {
+            statusCode: 400,
+            error: 'Bad Request',
+            message: 'Invalid',
+            fields: { email: 'Enter a valid e-mail address' },
+          }),
+        ),
     );
     const error = await apiRequest('/api/x').catch((e: unknown) => e);
     expect(error).toBeInstanceOf(ApiError);
@@ -44,7 +53,10 @@ describe('apiRequest', () => {
   });
 
   it('copes with a non-JSON error body, a 204, an unreachable server and a contract mismatch', async () => {
-    vi.stubGlobal('fetch', vi.fn().mockResolvedValue(new Response('<html>', { status: 502, statusText: 'Bad Gateway' })));
+    vi.stubGlobal(
+      'fetch',
+      vi.fn().mockResolvedValue(new Response('<html>', { status: 502, statusText: 'Bad Gateway' })),
+    );
     await expect(apiRequest('/api/x')).rejects.toMatchObject({ status: 502 });
 
     vi.stubGlobal('fetch', vi.fn().mockResolvedValue(new Response(null, { status: 204 })));

@@ -69,7 +69,12 @@ export async function apiRequest<S extends z.ZodType | undefined = undefined>(
   if (!parsed.success) {
     // A contract mismatch is a bug between API and web, not something the user can fix; the
     // issues travel as the error's cause for the developer tools.
-    throw new ApiError(0, 'The server sent a reply this version of Torquetrail does not understand. Reload the page.', {}, { cause: { method, path, issues: parsed.error.issues } });
+    throw new ApiError(
+      0,
+      'The server sent a reply this version of Torquetrail does not understand. Reload the page.',
+      {},
+      { cause: { method, path, issues: parsed.error.issues } },
+    );
   }
   return parsed.data as Reply<S>;
 }

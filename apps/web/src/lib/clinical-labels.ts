@@ -19,7 +19,12 @@ import {
   type Tray,
   type WrenchType,
 } from '@torquetrail/contracts';
-import { PERI_IMPLANT_FLAGS, type PeriImplantFlag, RETIGHTEN_AFTER_MINUTES, type RecallRiskFactor } from '@torquetrail/domain';
+import {
+  PERI_IMPLANT_FLAGS,
+  type PeriImplantFlag,
+  RETIGHTEN_AFTER_MINUTES,
+  type RecallRiskFactor,
+} from '@torquetrail/domain';
 
 export const CONNECTION_LABEL: Record<Connection, string> = {
   'internal-conical': 'Internal conical',
@@ -152,7 +157,8 @@ export const PROBING_POSITION_ABBREVIATION: Record<ProbingPosition, string> = {
 /** The flags of classifyPeriImplant, in words beside the computed status. */
 export const PERI_IMPLANT_FLAG_LABEL: Record<PeriImplantFlag, string> = {
   [PERI_IMPLANT_FLAGS.NO_BASELINE]: 'No baseline: the no-baseline definition was used',
-  [PERI_IMPLANT_FLAGS.PERI_IMPLANTITIS_NOT_EXCLUDED_WITHOUT_BASELINE]: 'Peri-implantitis not excluded without a baseline',
+  [PERI_IMPLANT_FLAGS.PERI_IMPLANTITIS_NOT_EXCLUDED_WITHOUT_BASELINE]:
+    'Peri-implantitis not excluded without a baseline',
   [PERI_IMPLANT_FLAGS.BONE_LEVEL_MISSING]: 'No bone level: bone loss cannot be judged',
   [PERI_IMPLANT_FLAGS.BONE_LOSS_WITHOUT_INFLAMMATION]: 'Bone loss without inflammation: review the radiograph',
 };

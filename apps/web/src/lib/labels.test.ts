@@ -61,7 +61,10 @@ const packages = { authz, contracts, domain } as Record<string, Record<string, u
 /** Every exported non-empty list of strings, by export name (a name exported twice is checked twice). */
 const lists: [string, string, readonly string[]][] = Object.entries(packages).flatMap(([pkg, exports]) =>
   Object.entries(exports)
-    .filter((entry): entry is [string, readonly string[]] => Array.isArray(entry[1]) && entry[1].length > 0 && entry[1].every((v) => typeof v === 'string'))
+    .filter(
+      (entry): entry is [string, readonly string[]] =>
+        Array.isArray(entry[1]) && entry[1].length > 0 && entry[1].every((v) => typeof v === 'string'),
+    )
     .map(([name, values]) => [pkg, name, values] as [string, string, readonly string[]]),
 );
 
@@ -74,25 +77,37 @@ const zodEnums = Object.entries(contracts).flatMap(([name, value]) => {
 describe('one label map per enum', () => {
   it('finds the exported lists and zod enums (the scan itself works)', () => {
     const names = lists.map(([, name]) => name);
-    expect(names).toEqual(expect.arrayContaining(['ROLES', 'TORQUE_VERDICTS', 'TORQUE_REASONS', 'COMPONENT_KINDS', 'PROBING_POSITIONS']));
-    expect(zodEnums.map(([name]) => name)).toEqual(expect.arrayContaining(['Role', 'TorqueVerdict', 'TorqueReason', 'Connection']));
+    expect(names).toEqual(
+      expect.arrayContaining(['ROLES', 'TORQUE_VERDICTS', 'TORQUE_REASONS', 'COMPONENT_KINDS', 'PROBING_POSITIONS']),
+    );
+    expect(zodEnums.map(([name]) => name)).toEqual(
+      expect.arrayContaining(['Role', 'TorqueVerdict', 'TorqueReason', 'Connection']),
+    );
   });
 
   it.each(lists)('%s %s has a label for every value, or is listed as never shown', (_pkg, name, values) => {
     if (name in NOT_SHOWN) return;
     const labels = LABELS[name];
-    expect(labels, `no label map for ${name}: add one to lib/labels.ts or lib/clinical-labels.ts and register it here`).toBeDefined();
+    expect(
+      labels,
+      `no label map for ${name}: add one to lib/labels.ts or lib/clinical-labels.ts and register it here`,
+    ).toBeDefined();
     const missing = values.filter((value) => !labels[value]?.trim());
     expect(missing, `${name} values without a label`).toEqual([]);
   });
 
   it('every contracts zod enum is built from an exported list (so the check above covers it)', () => {
-    const unlisted = zodEnums.filter(([, options]) => !lists.some(([, , values]) => values.length === options.length && values.every((v, i) => v === options[i])));
+    const unlisted = zodEnums.filter(
+      ([, options]) =>
+        !lists.some(([, , values]) => values.length === options.length && values.every((v, i) => v === options[i])),
+    );
     expect(unlisted.map(([name]) => name)).toEqual([]);
   });
 
   it('the flags of classifyPeriImplant have words', () => {
-    const missing = Object.values(domain.PERI_IMPLANT_FLAGS).filter((flag) => !(clinical.PERI_IMPLANT_FLAG_LABEL as LabelMap)[flag]?.trim());
+    const missing = Object.values(domain.PERI_IMPLANT_FLAGS).filter(
+      (flag) => !(clinical.PERI_IMPLANT_FLAG_LABEL as LabelMap)[flag]?.trim(),
+    );
     expect(missing).toEqual([]);
   });
 
@@ -104,7 +119,10 @@ describe('one label map per enum', () => {
 
 describe('no per-feature label copies', () => {
   // Vite reads the feature sources as text (the web's type-check has no Node types).
-  const sources: Record<string, string> = import.meta.glob(['../features/**/*.{ts,tsx}', '!../features/**/*.test.{ts,tsx}'], { query: '?raw', import: 'default', eager: true });
+  const sources: Record<string, string> = import.meta.glob(
+    ['../features/**/*.{ts,tsx}', '!../features/**/*.test.{ts,tsx}'],
+    { query: '?raw', import: 'default', eager: true },
+  );
   const enumTypes = new Set([...zodEnums.map(([name]) => name), 'RecallRiskFactor', 'PeriImplantFlag']);
   const listNames = new Set(lists.map(([, name]) => name));
   // `Record<TorqueVerdict, string>` or `Record<(typeof DESK_FILTERS)[number], string>`.
@@ -118,7 +136,10 @@ describe('no per-feature label copies', () => {
   it('no feature declares its own string map keyed by an enum', () => {
     const offenders = Object.entries(sources).flatMap(([file, text]) =>
       [...text.matchAll(labelMap)]
-        .filter(([, list, type]) => (list !== undefined && listNames.has(list)) || (type !== undefined && enumTypes.has(type)))
+        .filter(
+          ([, list, type]) =>
+            (list !== undefined && listNames.has(list)) || (type !== undefined && enumTypes.has(type)),
+        )
         .map(([match]) => `${file}: ${match}`),
     );
     expect(offenders).toEqual([]);

@@ -22,9 +22,15 @@ type ShapeProps = { x: number; y: number; r: number; colour: string };
 /** One drawing per marker shape (a map, so a new shape without a drawing does not compile). */
 const SHAPES: Record<Shape, (p: ShapeProps) => ReactElement> = {
   circle: ({ x, y, r, colour }) => <circle cx={x} cy={y} r={r} fill={colour} />,
-  'hollow-circle': ({ x, y, r, colour }) => <circle cx={x} cy={y} r={r - 0.75} fill="#fff" stroke={colour} strokeWidth={1.5} />,
-  triangle: ({ x, y, r, colour }) => <polygon points={`${x},${y - r} ${x + r},${y + r * 0.8} ${x - r},${y + r * 0.8}`} fill={colour} />,
-  diamond: ({ x, y, r, colour }) => <polygon points={`${x},${y - r} ${x + r},${y} ${x},${y + r} ${x - r},${y}`} fill={colour} />,
+  'hollow-circle': ({ x, y, r, colour }) => (
+    <circle cx={x} cy={y} r={r - 0.75} fill="#fff" stroke={colour} strokeWidth={1.5} />
+  ),
+  triangle: ({ x, y, r, colour }) => (
+    <polygon points={`${x},${y - r} ${x + r},${y + r * 0.8} ${x - r},${y + r * 0.8}`} fill={colour} />
+  ),
+  diamond: ({ x, y, r, colour }) => (
+    <polygon points={`${x},${y - r} ${x + r},${y} ${x},${y + r} ${x - r},${y}`} fill={colour} />
+  ),
 };
 
 /** The status marker as an SVG element centred on (x, y), `size` across. */

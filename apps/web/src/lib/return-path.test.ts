@@ -14,7 +14,15 @@ describe('safeReturnPath', () => {
     expect(safeReturnPath('/patients/abc')).toBe('/patients/abc');
   });
   it('refuses other hosts, absolute URLs and loops back to sign-in', () => {
-    for (const raw of [null, '', 'https://evil.test', '//evil.test/x', '/\\evil.test', 'patients', '/sign-in?from=/x']) {
+    for (const raw of [
+      null,
+      '',
+      'https://evil.test',
+      '//evil.test/x',
+      '/\\evil.test',
+      'patients',
+      '/sign-in?from=/x',
+    ]) {
       expect(safeReturnPath(raw)).toBe('/patients');
     }
   });

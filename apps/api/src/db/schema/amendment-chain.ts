@@ -1,7 +1,13 @@
 import { type AnyPgColumn, foreignKey, uniqueIndex } from 'drizzle-orm/pg-core';
 
 /** The tables whose rows are amended by a superseding row, never overwritten. */
-export const AMENDABLE_TABLES = ['placements', 'restorations', 'torque_events', 'complications', 'recall_exams'] as const;
+export const AMENDABLE_TABLES = [
+  'placements',
+  'restorations',
+  'torque_events',
+  'complications',
+  'recall_exams',
+] as const;
 export type AmendableTableName = (typeof AMENDABLE_TABLES)[number];
 
 /** The unique index that keeps an amendable table to one amendment per version. */

@@ -9,7 +9,9 @@ export const implantSystems = pgTable(
   'implant_systems',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    practiceId: uuid('practice_id').notNull().references(() => practices.id),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
     name: text('name').notNull(),
     manufacturer: text('manufacturer').notNull(),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
@@ -21,8 +23,12 @@ export const platforms = pgTable(
   'platforms',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    practiceId: uuid('practice_id').notNull().references(() => practices.id),
-    systemId: uuid('system_id').notNull().references(() => implantSystems.id),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
+    systemId: uuid('system_id')
+      .notNull()
+      .references(() => implantSystems.id),
     name: text('name').notNull(),
     diameterMm: mm('diameter_mm').notNull(),
     connection: connectionEnum('connection').notNull(),
@@ -35,8 +41,12 @@ export const components = pgTable(
   'components',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    practiceId: uuid('practice_id').notNull().references(() => practices.id),
-    platformId: uuid('platform_id').notNull().references(() => platforms.id),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
+    platformId: uuid('platform_id')
+      .notNull()
+      .references(() => platforms.id),
     kind: componentKindEnum('kind').notNull(),
     name: text('name').notNull(),
     referenceCode: text('reference_code').notNull(),
@@ -56,7 +66,9 @@ export const components = pgTable(
 
 export const torqueWrenches = pgTable('torque_wrenches', {
   id: uuid('id').primaryKey().defaultRandom(),
-  practiceId: uuid('practice_id').notNull().references(() => practices.id),
+  practiceId: uuid('practice_id')
+    .notNull()
+    .references(() => practices.id),
   label: text('label').notNull(),
   type: wrenchTypeEnum('type').notNull(),
   lastCalibratedOn: date('last_calibrated_on', { mode: 'string' }),

@@ -5,7 +5,9 @@ export const patients = pgTable(
   'patients',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    practiceId: uuid('practice_id').notNull().references(() => practices.id),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
     chartNumber: text('chart_number').notNull(),
     givenName: text('given_name').notNull(),
     familyName: text('family_name').notNull(),
@@ -29,10 +31,18 @@ export const patientShares = pgTable(
   'patient_shares',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    practiceId: uuid('practice_id').notNull().references(() => practices.id),
-    patientId: uuid('patient_id').notNull().references(() => patients.id),
-    sharedWithUserId: uuid('shared_with_user_id').notNull().references(() => users.id),
-    sharedByUserId: uuid('shared_by_user_id').notNull().references(() => users.id),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
+    patientId: uuid('patient_id')
+      .notNull()
+      .references(() => patients.id),
+    sharedWithUserId: uuid('shared_with_user_id')
+      .notNull()
+      .references(() => users.id),
+    sharedByUserId: uuid('shared_by_user_id')
+      .notNull()
+      .references(() => users.id),
     scope: text('scope').notNull().default('implant-record'),
     since: timestamp('since', { withTimezone: true }).notNull().defaultNow(),
     revokedAt: timestamp('revoked_at', { withTimezone: true }),

@@ -11,7 +11,9 @@ export const users = pgTable(
   'users',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    practiceId: uuid('practice_id').notNull().references(() => practices.id),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
     email: text('email').notNull().unique(),
     displayName: text('display_name').notNull(),
     role: roleEnum('role').notNull(),

@@ -1,7 +1,31 @@
-import { boolean, date, index, integer, jsonb, numeric, pgTable, smallint, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core';
+import {
+  boolean,
+  date,
+  index,
+  integer,
+  jsonb,
+  numeric,
+  pgTable,
+  smallint,
+  text,
+  timestamp,
+  unique,
+  uuid,
+} from 'drizzle-orm/pg-core';
 import { amendmentChain } from './amendment-chain.js';
-import { DEFAULT_OVERDUE_REMINDER_DAYS_AFTER, DEFAULT_RECALL_MONTHS, DEFAULT_REMINDER_DAYS_BEFORE, DEFAULT_RISK_RECALL_MONTHS } from '@torquetrail/domain';
-import { periImplantStatusEnum, probingSiteEnum, recallStatusEnum, reminderKindEnum, reminderStatusEnum } from './enums.js';
+import {
+  DEFAULT_OVERDUE_REMINDER_DAYS_AFTER,
+  DEFAULT_RECALL_MONTHS,
+  DEFAULT_REMINDER_DAYS_BEFORE,
+  DEFAULT_RISK_RECALL_MONTHS,
+} from '@torquetrail/domain';
+import {
+  periImplantStatusEnum,
+  probingSiteEnum,
+  recallStatusEnum,
+  reminderKindEnum,
+  reminderStatusEnum,
+} from './enums.js';
 import { patients } from './patients.js';
 import { practices, users } from './practices.js';
 import { implantSites } from './sites.js';
@@ -14,12 +38,20 @@ export const recallExams = pgTable(
   'recall_exams',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    practiceId: uuid('practice_id').notNull().references(() => practices.id),
-    patientId: uuid('patient_id').notNull().references(() => patients.id),
-    siteId: uuid('site_id').notNull().references(() => implantSites.id),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
+    patientId: uuid('patient_id')
+      .notNull()
+      .references(() => patients.id),
+    siteId: uuid('site_id')
+      .notNull()
+      .references(() => implantSites.id),
     visitId: uuid('visit_id').notNull(),
     examinedOn: date('examined_on', { mode: 'string' }).notNull(),
-    examinerId: uuid('examiner_id').notNull().references(() => users.id),
+    examinerId: uuid('examiner_id')
+      .notNull()
+      .references(() => users.id),
     mobility: boolean('mobility').notNull(),
     /** Modified plaque index and modified bleeding index, 0–3. */
     plaqueIndex: smallint('plaque_index'),
@@ -54,8 +86,12 @@ export const recallExamSites = pgTable(
   'recall_exam_sites',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    practiceId: uuid('practice_id').notNull().references(() => practices.id),
-    examId: uuid('exam_id').notNull().references(() => recallExams.id),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
+    examId: uuid('exam_id')
+      .notNull()
+      .references(() => recallExams.id),
     position: probingSiteEnum('position').notNull(),
     probingDepthMm: numeric('probing_depth_mm', { precision: 3, scale: 1, mode: 'number' }).notNull(),
     bleeding: boolean('bleeding').notNull(),
@@ -69,23 +105,34 @@ export const recalls = pgTable(
   'recalls',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    practiceId: uuid('practice_id').notNull().references(() => practices.id),
-    patientId: uuid('patient_id').notNull().references(() => patients.id),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
+    patientId: uuid('patient_id')
+      .notNull()
+      .references(() => patients.id),
     dueOn: date('due_on', { mode: 'string' }).notNull(),
     status: recallStatusEnum('status').notNull().default('scheduled'),
     scheduledFromVisitId: uuid('scheduled_from_visit_id'),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index('recalls_practice_due_idx').on(t.practiceId, t.status, t.dueOn), index('recalls_patient_idx').on(t.patientId)],
+  (t) => [
+    index('recalls_practice_due_idx').on(t.practiceId, t.status, t.dueOn),
+    index('recalls_patient_idx').on(t.patientId),
+  ],
 );
 
 /** Practice policy for recall intervals and reminders (edited by the practice admin). */
 export const recallPolicies = pgTable('recall_policies', {
-  practiceId: uuid('practice_id').primaryKey().references(() => practices.id),
+  practiceId: uuid('practice_id')
+    .primaryKey()
+    .references(() => practices.id),
   baseMonths: smallint('base_months').notNull().default(DEFAULT_RECALL_MONTHS),
   riskMonths: smallint('risk_months').notNull().default(DEFAULT_RISK_RECALL_MONTHS),
   reminderDaysBefore: smallint('reminder_days_before').notNull().default(DEFAULT_REMINDER_DAYS_BEFORE),
-  overdueReminderDaysAfter: smallint('overdue_reminder_days_after').notNull().default(DEFAULT_OVERDUE_REMINDER_DAYS_AFTER),
+  overdueReminderDaysAfter: smallint('overdue_reminder_days_after')
+    .notNull()
+    .default(DEFAULT_OVERDUE_REMINDER_DAYS_AFTER),
   updatedBy: uuid('updated_by').references(() => users.id),
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
 });
@@ -95,8 +142,12 @@ export const reminderLog = pgTable(
   'reminder_log',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    practiceId: uuid('practice_id').notNull().references(() => practices.id),
-    patientId: uuid('patient_id').notNull().references(() => patients.id),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
+    patientId: uuid('patient_id')
+      .notNull()
+      .references(() => patients.id),
     recallDueOn: date('recall_due_on', { mode: 'string' }).notNull(),
     kind: reminderKindEnum('kind').notNull(),
     idempotencyKey: text('idempotency_key').notNull(),
@@ -107,5 +158,8 @@ export const reminderLog = pgTable(
     sentAt: timestamp('sent_at', { withTimezone: true }),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [unique('reminder_log_idempotency_unique').on(t.idempotencyKey), index('reminder_log_practice_idx').on(t.practiceId, t.createdAt)],
+  (t) => [
+    unique('reminder_log_idempotency_unique').on(t.idempotencyKey),
+    index('reminder_log_practice_idx').on(t.practiceId, t.createdAt),
+  ],
 );

@@ -1,4 +1,17 @@
-import { boolean, date, index, integer, jsonb, numeric, pgTable, smallint, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core';
+import {
+  boolean,
+  date,
+  index,
+  integer,
+  jsonb,
+  numeric,
+  pgTable,
+  smallint,
+  text,
+  timestamp,
+  unique,
+  uuid,
+} from 'drizzle-orm/pg-core';
 import { amendmentChain } from './amendment-chain.js';
 import { components, torqueWrenches } from './catalogue.js';
 import {
@@ -20,8 +33,12 @@ export const restorations = pgTable(
   'restorations',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    practiceId: uuid('practice_id').notNull().references(() => practices.id),
-    patientId: uuid('patient_id').notNull().references(() => patients.id),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
+    patientId: uuid('patient_id')
+      .notNull()
+      .references(() => patients.id),
     kind: restorationKindEnum('kind').notNull(),
     retention: retentionEnum('retention').notNull(),
     material: materialEnum('material').notNull(),
@@ -51,9 +68,15 @@ export const restorationSites = pgTable(
   'restoration_sites',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    practiceId: uuid('practice_id').notNull().references(() => practices.id),
-    restorationId: uuid('restoration_id').notNull().references(() => restorations.id),
-    siteId: uuid('site_id').notNull().references(() => implantSites.id),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
+    restorationId: uuid('restoration_id')
+      .notNull()
+      .references(() => restorations.id),
+    siteId: uuid('site_id')
+      .notNull()
+      .references(() => implantSites.id),
     interface: interfaceEnum('interface').notNull(),
     impressionCoping: impressionCopingEnum('impression_coping').notNull(),
     multiUnitAngleDeg: smallint('multi_unit_angle_deg'),
@@ -63,7 +86,10 @@ export const restorationSites = pgTable(
     axisY: numeric('axis_y', { mode: 'number' }),
     axisZ: numeric('axis_z', { mode: 'number' }),
   },
-  (t) => [index('restoration_sites_site_idx').on(t.siteId), index('restoration_sites_restoration_idx').on(t.restorationId)],
+  (t) => [
+    index('restoration_sites_site_idx').on(t.siteId),
+    index('restoration_sites_restoration_idx').on(t.restorationId),
+  ],
 );
 
 /**
@@ -74,11 +100,19 @@ export const componentInstances = pgTable(
   'component_instances',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    practiceId: uuid('practice_id').notNull().references(() => practices.id),
-    patientId: uuid('patient_id').notNull().references(() => patients.id),
-    siteId: uuid('site_id').notNull().references(() => implantSites.id),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
+    patientId: uuid('patient_id')
+      .notNull()
+      .references(() => patients.id),
+    siteId: uuid('site_id')
+      .notNull()
+      .references(() => implantSites.id),
     restorationId: uuid('restoration_id').references(() => restorations.id),
-    componentId: uuid('component_id').notNull().references(() => components.id),
+    componentId: uuid('component_id')
+      .notNull()
+      .references(() => components.id),
     lot: text('lot'),
     installedOn: date('installed_on', { mode: 'string' }).notNull(),
     removedOn: date('removed_on', { mode: 'string' }),
@@ -94,9 +128,15 @@ export const torqueEvents = pgTable(
   'torque_events',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    practiceId: uuid('practice_id').notNull().references(() => practices.id),
-    patientId: uuid('patient_id').notNull().references(() => patients.id),
-    componentInstanceId: uuid('component_instance_id').notNull().references(() => componentInstances.id),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
+    patientId: uuid('patient_id')
+      .notNull()
+      .references(() => patients.id),
+    componentInstanceId: uuid('component_instance_id')
+      .notNull()
+      .references(() => componentInstances.id),
     appliedNcm: numeric('applied_ncm', { precision: 5, scale: 1, mode: 'number' }).notNull(),
     specNcm: numeric('spec_ncm', { precision: 5, scale: 1, mode: 'number' }).notNull(),
     tolerancePct: numeric('tolerance_pct', { precision: 4, scale: 1, mode: 'number' }).notNull(),
@@ -110,7 +150,10 @@ export const torqueEvents = pgTable(
     recordedBy: uuid('recorded_by').references(() => users.id),
     recordedAt: timestamp('recorded_at', { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index('torque_events_instance_idx').on(t.componentInstanceId, t.performedAt), ...amendmentChain('torque_events', t)],
+  (t) => [
+    index('torque_events_instance_idx').on(t.componentInstanceId, t.performedAt),
+    ...amendmentChain('torque_events', t),
+  ],
 );
 
 /** The catalogue parts chosen in the plan for one site (abutment, multi-unit, screws, coping). */
@@ -118,9 +161,15 @@ export const restorationSiteComponents = pgTable(
   'restoration_site_components',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    practiceId: uuid('practice_id').notNull().references(() => practices.id),
-    restorationSiteId: uuid('restoration_site_id').notNull().references(() => restorationSites.id),
-    componentId: uuid('component_id').notNull().references(() => components.id),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
+    restorationSiteId: uuid('restoration_site_id')
+      .notNull()
+      .references(() => restorationSites.id),
+    componentId: uuid('component_id')
+      .notNull()
+      .references(() => components.id),
   },
   (t) => [index('restoration_site_components_site_idx').on(t.restorationSiteId)],
 );
@@ -130,11 +179,17 @@ export const findingAcknowledgements = pgTable(
   'finding_acknowledgements',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    practiceId: uuid('practice_id').notNull().references(() => practices.id),
-    restorationId: uuid('restoration_id').notNull().references(() => restorations.id),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
+    restorationId: uuid('restoration_id')
+      .notNull()
+      .references(() => restorations.id),
     code: text('code').notNull(),
     fdi: smallint('fdi'),
-    acknowledgedBy: uuid('acknowledged_by').notNull().references(() => users.id),
+    acknowledgedBy: uuid('acknowledged_by')
+      .notNull()
+      .references(() => users.id),
     acknowledgedAt: timestamp('acknowledged_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [index('finding_acknowledgements_restoration_idx').on(t.restorationId)],
@@ -145,17 +200,28 @@ export const labPrescriptions = pgTable(
   'lab_prescriptions',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    practiceId: uuid('practice_id').notNull().references(() => practices.id),
-    patientId: uuid('patient_id').notNull().references(() => patients.id),
-    restorationId: uuid('restoration_id').notNull().references(() => restorations.id),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
+    patientId: uuid('patient_id')
+      .notNull()
+      .references(() => patients.id),
+    restorationId: uuid('restoration_id')
+      .notNull()
+      .references(() => restorations.id),
     objectKey: text('object_key').notNull(),
     sizeBytes: integer('size_bytes').notNull(),
     emailedTo: text('emailed_to'),
     emailedAt: timestamp('emailed_at', { withTimezone: true }),
-    createdBy: uuid('created_by').notNull().references(() => users.id),
+    createdBy: uuid('created_by')
+      .notNull()
+      .references(() => users.id),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index('lab_prescriptions_restoration_idx').on(t.restorationId), unique('lab_prescriptions_object_key_unique').on(t.objectKey)],
+  (t) => [
+    index('lab_prescriptions_restoration_idx').on(t.restorationId),
+    unique('lab_prescriptions_object_key_unique').on(t.objectKey),
+  ],
 );
 
 /** Complications, linked to the site and, where known, the part. */
@@ -163,9 +229,15 @@ export const complications = pgTable(
   'complications',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    practiceId: uuid('practice_id').notNull().references(() => practices.id),
-    patientId: uuid('patient_id').notNull().references(() => patients.id),
-    siteId: uuid('site_id').notNull().references(() => implantSites.id),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
+    patientId: uuid('patient_id')
+      .notNull()
+      .references(() => patients.id),
+    siteId: uuid('site_id')
+      .notNull()
+      .references(() => implantSites.id),
     componentInstanceId: uuid('component_instance_id').references(() => componentInstances.id),
     kind: complicationKindEnum('kind').notNull(),
     occurredOn: date('occurred_on', { mode: 'string' }).notNull(),

@@ -10,8 +10,12 @@ export const implantSites = pgTable(
   'implant_sites',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    practiceId: uuid('practice_id').notNull().references(() => practices.id),
-    patientId: uuid('patient_id').notNull().references(() => patients.id),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
+    patientId: uuid('patient_id')
+      .notNull()
+      .references(() => patients.id),
     /** FDI (ISO 3950) two-digit position. */
     fdi: smallint('fdi').notNull(),
     status: siteStatusEnum('status').notNull(),
@@ -19,7 +23,9 @@ export const implantSites = pgTable(
   },
   (t) => [
     // One live site per position; a failed or removed site stays in the record and a new one may be planned there.
-    uniqueIndex('implant_sites_patient_fdi_live_unique').on(t.patientId, t.fdi).where(sql`${t.status} not in ('failed', 'removed')`),
+    uniqueIndex('implant_sites_patient_fdi_live_unique')
+      .on(t.patientId, t.fdi)
+      .where(sql`${t.status} not in ('failed', 'removed')`),
     index('implant_sites_practice_idx').on(t.practiceId),
   ],
 );
@@ -32,10 +38,18 @@ export const placements = pgTable(
   'placements',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    practiceId: uuid('practice_id').notNull().references(() => practices.id),
-    patientId: uuid('patient_id').notNull().references(() => patients.id),
-    siteId: uuid('site_id').notNull().references(() => implantSites.id),
-    platformId: uuid('platform_id').notNull().references(() => platforms.id),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
+    patientId: uuid('patient_id')
+      .notNull()
+      .references(() => patients.id),
+    siteId: uuid('site_id')
+      .notNull()
+      .references(() => implantSites.id),
+    platformId: uuid('platform_id')
+      .notNull()
+      .references(() => platforms.id),
     placedOn: date('placed_on', { mode: 'string' }).notNull(),
     surgeonUserId: uuid('surgeon_user_id').references(() => users.id),
     surgeonName: text('surgeon_name').notNull(),

@@ -2,11 +2,17 @@ import { type HTMLInputProps, NumericInput, type NumericInputProps } from '@blue
 import { type RefCallBack, useController } from 'react-hook-form';
 
 /** `register(name)` for Blueprint inputs (InputGroup, TextArea, Checkbox), which take the DOM ref as `inputRef`. */
-export function withInputRef<R extends { ref: RefCallBack }>({ ref, ...rest }: R): Omit<R, 'ref'> & { inputRef: RefCallBack } {
+export function withInputRef<R extends { ref: RefCallBack }>({
+  ref,
+  ...rest
+}: R): Omit<R, 'ref'> & { inputRef: RefCallBack } {
   return { ...rest, inputRef: ref };
 }
 
-type NumberInputProps = Omit<HTMLInputProps & NumericInputProps, 'value' | 'defaultValue' | 'onValueChange' | 'name' | 'inputRef' | 'onBlur'> & {
+type NumberInputProps = Omit<
+  HTMLInputProps & NumericInputProps,
+  'value' | 'defaultValue' | 'onValueChange' | 'name' | 'inputRef' | 'onBlur'
+> & {
   name: string;
   /** What an empty or unreadable input stands for in the form's values. */
   emptyValue?: number | null;

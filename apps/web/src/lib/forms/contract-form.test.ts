@@ -16,7 +16,12 @@ describe('a form validated with a contract (draftSchema + zodResolver)', () => {
   const signIn = () =>
     createFormControl({
       defaultValues: { email: '', password: '' },
-      resolver: zodResolver(draftSchema(SignInBody, (d: { email: string; password: string }) => ({ email: d.email.trim(), password: d.password }))),
+      resolver: zodResolver(
+        draftSchema(SignInBody, (d: { email: string; password: string }) => ({
+          email: d.email.trim(),
+          password: d.password,
+        })),
+      ),
     });
 
   it("shows the contract's messages at the contract's paths, and sends nothing", async () => {
@@ -43,16 +48,27 @@ describe('a form validated with a contract (draftSchema + zodResolver)', () => {
   });
 
   it('maps a draft with text inputs to the body before the contract checks it (paths are the body’s)', async () => {
-    const rows = [{ siteId: '00000000-0000-4000-8000-000000000001', componentId: '00000000-0000-4000-8000-000000000002' }];
+    const rows = [
+      { siteId: '00000000-0000-4000-8000-000000000001', componentId: '00000000-0000-4000-8000-000000000002' },
+    ];
     const form = createFormControl({
       defaultValues: { deliveredOn: 'yesterday', lots: [' L-1 '] },
-      resolver: zodResolver(draftSchema(DeliveryBody, (d: { deliveredOn: string; lots: string[] }) => ({ deliveredOn: d.deliveredOn, parts: rows.map((r, i) => ({ ...r, lot: d.lots[i] || null })) }))),
+      resolver: zodResolver(
+        draftSchema(DeliveryBody, (d: { deliveredOn: string; lots: string[] }) => ({
+          deliveredOn: d.deliveredOn,
+          parts: rows.map((r, i) => ({ ...r, lot: d.lots[i] || null })),
+        })),
+      ),
     });
     const send = vi.fn();
     await form.handleSubmit(send)();
     expect(errorAt(errorsOf(form), 'deliveredOn')).toMatch(/date/i);
     form.setValue('deliveredOn', '2026-03-12');
     await form.handleSubmit(send)();
-    expect(send.mock.calls[0]?.[0]).toEqual({ deliveredOn: '2026-03-12', impressionTakenOn: null, parts: [{ ...rows[0], lot: 'L-1' }] });
+    expect(send.mock.calls[0]?.[0]).toEqual({
+      deliveredOn: '2026-03-12',
+      impressionTakenOn: null,
+      parts: [{ ...rows[0], lot: 'L-1' }],
+    });
   });
 });

@@ -21,7 +21,11 @@ export function errorAt(errors: FieldErrors, path: string): string | undefined {
  * `live` is a message computed from the current values (a domain check run while typing):
  * by default it shows only when validation has none; `prefer: 'live'` puts it first.
  */
-export function useFieldError(names: string | readonly string[], live?: string, prefer: 'validation' | 'live' = 'validation'): string | undefined {
+export function useFieldError(
+  names: string | readonly string[],
+  live?: string,
+  prefer: 'validation' | 'live' = 'validation',
+): string | undefined {
   const { control } = useFormContext();
   const { errors } = useFormState({ control });
   const validation = (typeof names === 'string' ? [names] : names).map((name) => errorAt(errors, name)).find(Boolean);
@@ -45,7 +49,11 @@ export function FormField({ name, live, prefer, help, children, ...group }: Form
   const message = useFieldError(name, live, prefer);
   const errorId = `${useId()}-error`;
   const first = typeof name === 'string' ? name : name[0];
-  const a11y: FieldA11y = { intent: message ? 'danger' : 'none', 'aria-invalid': message ? true : undefined, 'aria-describedby': message ? errorId : undefined };
+  const a11y: FieldA11y = {
+    intent: message ? 'danger' : 'none',
+    'aria-invalid': message ? true : undefined,
+    'aria-describedby': message ? errorId : undefined,
+  };
   return (
     <FormGroup
       {...group}
@@ -66,7 +74,21 @@ export function FormField({ name, live, prefer, help, children, ...group }: Form
 }
 
 /** A field's error where there is no FormGroup to hold it (a table cell, a grid). */
-export function FieldError({ name, live, prefer, as: Tag = 'span', className, role }: { name: string | readonly string[]; live?: string; prefer?: 'validation' | 'live'; as?: 'span' | 'div' | 'p'; className?: string; role?: 'alert' }) {
+export function FieldError({
+  name,
+  live,
+  prefer,
+  as: Tag = 'span',
+  className,
+  role,
+}: {
+  name: string | readonly string[];
+  live?: string;
+  prefer?: 'validation' | 'live';
+  as?: 'span' | 'div' | 'p';
+  className?: string;
+  role?: 'alert';
+}) {
   const message = useFieldError(name, live, prefer);
   if (!message) return null;
   const first = typeof name === 'string' ? name : name[0];

@@ -12,7 +12,13 @@ const errorsOf = (form: { control: { _formState: { errors: object } } }) => form
 describe('applyServerErrors', () => {
   it("puts each of the API's fields on the field at its path, nested paths included", () => {
     const form = formOf({ deliveredOn: '', lots: ['', ''] });
-    applyServerErrors(form.setError, new ApiError(400, 'parts.1.lot: A lot number is required', { 'parts.1.lot': 'A lot number is required', deliveredOn: 'Invalid date' }));
+    applyServerErrors(
+      form.setError,
+      new ApiError(400, 'parts.1.lot: A lot number is required', {
+        'parts.1.lot': 'A lot number is required',
+        deliveredOn: 'Invalid date',
+      }),
+    );
     const errors = errorsOf(form);
     expect(errorAt(errors, 'parts.1.lot')).toBe('A lot number is required');
     expect(errorAt(errors, 'deliveredOn')).toBe('Invalid date');

@@ -12,10 +12,17 @@ const BODY_PATH = '(body)';
  * the field at that path, and the error's message on FORM_ERROR, marked with whether any field was
  * named (see `formErrorMessage`). Any error is accepted; a network failure has only a message.
  */
-export function applyServerErrors<Values extends FieldValues>(setError: UseFormSetError<Values>, error: Error, options: { message?: string } = {}): void {
+export function applyServerErrors<Values extends FieldValues>(
+  setError: UseFormSetError<Values>,
+  error: Error,
+  options: { message?: string } = {},
+): void {
   const fields = isApiError(error) ? Object.entries(error.fields).filter(([path]) => path !== BODY_PATH) : [];
   for (const [path, message] of fields) setError(path as FieldPath<Values>, { type: 'server', message });
-  setError(FORM_ERROR, { type: fields.length > 0 ? 'with-fields' : 'alone', message: options.message ?? error.message });
+  setError(FORM_ERROR, {
+    type: fields.length > 0 ? 'with-fields' : 'alone',
+    message: options.message ?? error.message,
+  });
 }
 
 /**

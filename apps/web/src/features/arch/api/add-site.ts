@@ -7,7 +7,8 @@ import { patientKeys } from '../../patients';
 export function useAddSite(patientId: string) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (body: AddSiteBody) => apiRequest(`/api/patients/${encodeURIComponent(patientId)}/sites`, { method: 'POST', body, schema: ArchSite }),
+    mutationFn: (body: AddSiteBody) =>
+      apiRequest(`/api/patients/${encodeURIComponent(patientId)}/sites`, { method: 'POST', body, schema: ArchSite }),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: patientKeys.detail(patientId) }),
   });
 }

@@ -11,7 +11,15 @@ import { useAddSite } from '../api/add-site';
 const schema = draftSchema(AddSiteBody, (d: { fdi: string }) => ({ fdi: d.fdi ? Number(d.fdi) : Number.NaN }));
 
 /** A small form to plan an implant site at a permanent position that has no live site. */
-export function AddSiteControl({ patientId, sites, system }: { patientId: string; sites: ArchSite[]; system: ToothSystem }) {
+export function AddSiteControl({
+  patientId,
+  sites,
+  system,
+}: {
+  patientId: string;
+  sites: ArchSite[];
+  system: ToothSystem;
+}) {
   const taken = new Set(sites.map((s) => s.fdi));
   const free = TOOTH_POSITIONS_PERMANENT.filter((fdi) => !taken.has(fdi));
   const form = useContractForm(schema, { fdi: '' });
@@ -39,7 +47,13 @@ export function AddSiteControl({ patientId, sites, system }: { patientId: string
         data-testid="add-site"
       >
         {/* One field: a refusal that names no field is shown beside it too. */}
-        <FormField name="fdi" live={formErrorMessage(form.formState.errors, 'always')} label="Add planned site" labelFor="add-site-position" inline>
+        <FormField
+          name="fdi"
+          live={formErrorMessage(form.formState.errors, 'always')}
+          label="Add planned site"
+          labelFor="add-site-position"
+          inline
+        >
           <HTMLSelect id="add-site-position" {...form.register('fdi')}>
             <option value="">Position…</option>
             {free.map((p) => (

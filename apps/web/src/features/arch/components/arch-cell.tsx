@@ -23,7 +23,16 @@ const FOCUS_INSET = 8;
  * dashed outline for a missing one, and for an implant site the threaded-post glyph, the status
  * ring (colour and dash pattern per maintenance status) and a shape marker.
  */
-export function ArchCellView({ cell, content, accessibleName, isTabStop, onKeyDown, onFocus, onOpen, registerRef }: ArchCellProps) {
+export function ArchCellView({
+  cell,
+  content,
+  accessibleName,
+  isTabStop,
+  onKeyDown,
+  onFocus,
+  onOpen,
+  registerRef,
+}: ArchCellProps) {
   const { width: w, height: h } = cell;
   const site = content.type === 'site' ? content.site : null;
   const planned = site?.status === 'planned';
@@ -75,7 +84,10 @@ export function ArchCellView({ cell, content, accessibleName, isTabStop, onKeyDo
       {struck && <line className="arch-cell__strike" x1={-w / 2 - 3} y1={h / 2 + 3} x2={w / 2 + 3} y2={-h / 2 - 3} />}
       {site && (
         // Counter-rotated, so a diamond never turns into a square on a tilted cell.
-        <g className="arch-cell__marker" transform={`translate(${w / 2 - 4} ${markerY}) rotate(${(-cell.rotation).toFixed(2)})`}>
+        <g
+          className="arch-cell__marker"
+          transform={`translate(${w / 2 - 4} ${markerY}) rotate(${(-cell.rotation).toFixed(2)})`}
+        >
           <circle r={5.5} fill="#fff" />
           <StatusShape status={site.maintenanceStatus} x={0} y={0} size={8} />
         </g>

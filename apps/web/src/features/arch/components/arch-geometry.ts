@@ -128,7 +128,8 @@ export function layoutArches(positions: readonly number[]): ArchLayout {
     const sideUnits = (side: number[]) => (side.length === 0 ? 0 : isPrimaryTooth(side[0]) ? 5 : 8);
     const naturalSpan = (side: number[]) => {
       let sum = 0;
-      for (let unit = 1; unit <= sideUnits(side); unit++) sum += CELL_SIZE[toothKind(side[0] - (side[0] % 10) + unit)].width;
+      for (let unit = 1; unit <= sideUnits(side); unit++)
+        sum += CELL_SIZE[toothKind(side[0] - (side[0] % 10) + unit)].width;
       return { sum, gaps: sideUnits(side) * GAP };
     };
     const spans = sides.map(naturalSpan);

@@ -36,13 +36,28 @@ export function ArchLegend() {
         <LegendCell className="arch-cell--missing" text="Missing tooth (faint dashed outline)" />
         <LegendCell className="arch-cell--site" text="Implant site (post glyph, status ring)" glyph />
         <LegendCell className="arch-cell--site arch-cell--planned" text="Planned site (dashed outline)" glyph />
-        <LegendCell className="arch-cell--site arch-cell--struck" text="Failed or removed (struck through)" glyph strike />
+        <LegendCell
+          className="arch-cell--site arch-cell--struck"
+          text="Failed or removed (struck through)"
+          glyph
+          strike
+        />
       </ul>
     </aside>
   );
 }
 
-function LegendCell({ className, text, glyph, strike }: { className: string; text: string; glyph?: boolean; strike?: boolean }) {
+function LegendCell({
+  className,
+  text,
+  glyph,
+  strike,
+}: {
+  className: string;
+  text: string;
+  glyph?: boolean;
+  strike?: boolean;
+}) {
   return (
     <li>
       <svg width="40" height="24" viewBox="0 0 40 24" aria-hidden="true" focusable="false">

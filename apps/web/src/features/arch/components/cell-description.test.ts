@@ -19,7 +19,10 @@ describe('describeCell', () => {
     );
     expect(describeCell(36, 'universal', { type: 'site', site: site({}) })).toMatch(/^19, implant/);
     expect(
-      describeCell(24, 'fdi', { type: 'site', site: site({ fdi: 24, status: 'planned', maintenanceStatus: 'not-examined', lastExamDate: null }) }),
+      describeCell(24, 'fdi', {
+        type: 'site',
+        site: site({ fdi: 24, status: 'planned', maintenanceStatus: 'not-examined', lastExamDate: null }),
+      }),
     ).toBe('24, implant planned, not yet examined');
     expect(describeCell(21, 'fdi', { type: 'natural' })).toBe('21, natural tooth');
     expect(describeCell(46, 'fdi', { type: 'missing' })).toBe('46, missing tooth');

@@ -5,10 +5,7 @@ import { MAINTENANCE_STATUS_LABEL, SITE_STATUS_PHRASE } from '../../../lib/label
 import type { ToothSystem } from '../../../lib/tooth-system';
 
 /** What is at one tooth position, as the Arch draws it. */
-export type CellContent =
-  | { type: 'natural' }
-  | { type: 'missing' }
-  | { type: 'site'; site: ArchSite };
+export type CellContent = { type: 'natural' } | { type: 'missing' } | { type: 'site'; site: ArchSite };
 
 /**
  * The accessible name of a cell, numbers in the chosen system, e.g.

@@ -59,7 +59,11 @@ export function ArchRoute() {
           </Link>
         </Can>
         <Can I="create" a="RecallExam">
-          <Link className={`${Classes.BUTTON} ${Classes.INTENT_PRIMARY}`} to={`/recalls/patients/${data.id}/exam`} data-testid="open-exam-form">
+          <Link
+            className={`${Classes.BUTTON} ${Classes.INTENT_PRIMARY}`}
+            to={`/recalls/patients/${data.id}/exam`}
+            data-testid="open-exam-form"
+          >
             Record a recall exam
           </Link>
         </Can>
@@ -109,7 +113,11 @@ export function ArchRoute() {
           <AddSiteControl patientId={data.id} sites={data.sites} system={system} />
         </Can>
         {data.sites.length === 0 ? (
-          <NonIdealState icon="inbox" title="No implant sites recorded" description="Sites appear here once planned or placed." />
+          <NonIdealState
+            icon="inbox"
+            title="No implant sites recorded"
+            description="Sites appear here once planned or placed."
+          />
         ) : (
           <>
             <SitesTable patientId={data.id} sites={data.sites} system={system} />

@@ -1,10 +1,22 @@
-import { CatalogueComponent, CataloguePlatform, CatalogueReply, CatalogueSystem, type ComponentBody, type ComponentPatch, type PlatformBody, type SystemBody } from '@torquetrail/contracts';
+import {
+  CatalogueComponent,
+  CataloguePlatform,
+  CatalogueReply,
+  CatalogueSystem,
+  type ComponentBody,
+  type ComponentPatch,
+  type PlatformBody,
+  type SystemBody,
+} from '@torquetrail/contracts';
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { apiRequest } from '../../../lib/api-client';
 import { catalogueKeys } from './keys';
 
 const catalogueQueryOptions = () =>
-  queryOptions({ queryKey: catalogueKeys.all, queryFn: ({ signal }) => apiRequest('/api/catalogue', { schema: CatalogueReply, signal }) });
+  queryOptions({
+    queryKey: catalogueKeys.all,
+    queryFn: ({ signal }) => apiRequest('/api/catalogue', { schema: CatalogueReply, signal }),
+  });
 export const useCatalogue = () => useQuery(catalogueQueryOptions());
 
 /** Admin: add a part or correct one; only the catalogue changes. */
@@ -12,7 +24,11 @@ export function useSaveComponent() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: ({ id, body }: { id?: string; body: ComponentBody | ComponentPatch }) =>
-      apiRequest(id ? `/api/catalogue/components/${id}` : '/api/catalogue/components', { method: id ? 'PATCH' : 'POST', body, schema: CatalogueComponent }),
+      apiRequest(id ? `/api/catalogue/components/${id}` : '/api/catalogue/components', {
+        method: id ? 'PATCH' : 'POST',
+        body,
+        schema: CatalogueComponent,
+      }),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: catalogueKeys.all }),
   });
 }
@@ -21,14 +37,16 @@ export function useSaveComponent() {
 export function useAddSystem() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (body: SystemBody) => apiRequest('/api/catalogue/systems', { method: 'POST', body, schema: CatalogueSystem }),
+    mutationFn: (body: SystemBody) =>
+      apiRequest('/api/catalogue/systems', { method: 'POST', body, schema: CatalogueSystem }),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: catalogueKeys.all }),
   });
 }
 export function useAddPlatform() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (body: PlatformBody) => apiRequest('/api/catalogue/platforms', { method: 'POST', body, schema: CataloguePlatform }),
+    mutationFn: (body: PlatformBody) =>
+      apiRequest('/api/catalogue/platforms', { method: 'POST', body, schema: CataloguePlatform }),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: catalogueKeys.all }),
   });
 }

@@ -14,7 +14,10 @@ interface SpecDraft {
 }
 
 // An emptied tolerance is no number: the contract says so beside the field.
-const schema = draftSchema(ComponentPatch, (d: SpecDraft) => ({ torqueSpecNcm: d.torqueSpecNcm, tolerancePct: d.tolerancePct ?? Number.NaN }));
+const schema = draftSchema(ComponentPatch, (d: SpecDraft) => ({
+  torqueSpecNcm: d.torqueSpecNcm,
+  tolerancePct: d.tolerancePct ?? Number.NaN,
+}));
 
 /**
  * One part: its torque specification and tolerance, editable by the practice admin. The row is a
@@ -24,18 +27,35 @@ export function ComponentRow({ part }: { part: CatalogueComponent }) {
   const [editing, setEditing] = useState(false);
   const form = useContractForm(schema, { torqueSpecNcm: part.torqueSpecNcm, tolerancePct: part.tolerancePct });
   const save = useSaveComponent();
-  const submit = form.handleSubmit((body) => save.mutate({ id: part.id, body }, { onSuccess: () => setEditing(false), onError: (error) => applyServerErrors(form.setError, error) }));
+  const submit = form.handleSubmit((body) =>
+    save.mutate(
+      { id: part.id, body },
+      { onSuccess: () => setEditing(false), onError: (error) => applyServerErrors(form.setError, error) },
+    ),
+  );
   return (
     <FormProvider {...form}>
       <tr data-testid="catalogue-part">
         <td>{part.name}</td>
         <td className="mono">{part.referenceCode}</td>
         <td>{COMPONENT_KIND_LABEL[part.kind]}</td>
-        <td>{part.engaging === null ? '—' : INTERFACE_LABEL[part.engaging ? 'engaging' : 'non-engaging'].toLowerCase()}{part.tray ? `, ${TRAY_LABEL[part.tray].toLowerCase()}` : ''}{part.angleDeg ? `, ${part.angleDeg}°` : ''}{part.collarHeightMm ? `, collar ${part.collarHeightMm} mm` : ''}</td>
+        <td>
+          {part.engaging === null ? '—' : INTERFACE_LABEL[part.engaging ? 'engaging' : 'non-engaging'].toLowerCase()}
+          {part.tray ? `, ${TRAY_LABEL[part.tray].toLowerCase()}` : ''}
+          {part.angleDeg ? `, ${part.angleDeg}°` : ''}
+          {part.collarHeightMm ? `, collar ${part.collarHeightMm} mm` : ''}
+        </td>
         <td>
           {editing ? (
             <>
-              <NumberInput name="torqueSpecNcm" buttonPosition="none" aria-label={`Torque of ${part.referenceCode} (N·cm, empty = hand-tight)`} min={TORQUE_NCM_RANGE.min} max={TORQUE_NCM_RANGE.max} intent={errorAt(form.formState.errors, 'torqueSpecNcm') ? 'danger' : 'none'} />
+              <NumberInput
+                name="torqueSpecNcm"
+                buttonPosition="none"
+                aria-label={`Torque of ${part.referenceCode} (N·cm, empty = hand-tight)`}
+                min={TORQUE_NCM_RANGE.min}
+                max={TORQUE_NCM_RANGE.max}
+                intent={errorAt(form.formState.errors, 'torqueSpecNcm') ? 'danger' : 'none'}
+              />
               <FieldError name="torqueSpecNcm" className="planner-error" />
             </>
           ) : part.torqueSpecNcm === null ? (
@@ -47,14 +67,23 @@ export function ComponentRow({ part }: { part: CatalogueComponent }) {
         <td>
           {editing ? (
             <>
-              <NumberInput name="tolerancePct" buttonPosition="none" aria-label={`Tolerance of ${part.referenceCode} (%)`} min={TOLERANCE_PCT_RANGE.min} max={TOLERANCE_PCT_RANGE.max} />
+              <NumberInput
+                name="tolerancePct"
+                buttonPosition="none"
+                aria-label={`Tolerance of ${part.referenceCode} (%)`}
+                min={TOLERANCE_PCT_RANGE.min}
+                max={TOLERANCE_PCT_RANGE.max}
+              />
               <FieldError name="tolerancePct" className="planner-error" />
             </>
           ) : (
             `±${part.tolerancePct} %`
           )}
         </td>
-        <td>{part.requiresLot ? 'lot required' : ''}{part.inUse ? (part.requiresLot ? ', in use' : 'in use') : ''}</td>
+        <td>
+          {part.requiresLot ? 'lot required' : ''}
+          {part.inUse ? (part.requiresLot ? ', in use' : 'in use') : ''}
+        </td>
         <Can I="update" a="Catalogue">
           <td>
             {editing ? (

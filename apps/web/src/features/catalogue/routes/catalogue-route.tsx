@@ -18,10 +18,17 @@ function Wrenches() {
   return (
     <section aria-labelledby="wrenches-heading">
       <h2 id="wrenches-heading">Torque wrenches</h2>
-      <p className="muted">Spring-style devices deviate far less than friction-style ones, which drift with age (Vallee et al. 2008): keep calibration dates current.</p>
+      <p className="muted">
+        Spring-style devices deviate far less than friction-style ones, which drift with age (Vallee et al. 2008): keep
+        calibration dates current.
+      </p>
       <HTMLTable compact striped>
         <thead>
-          <tr><th>Wrench</th><th>Type</th><th>Last calibration</th></tr>
+          <tr>
+            <th>Wrench</th>
+            <th>Type</th>
+            <th>Last calibration</th>
+          </tr>
         </thead>
         <tbody>
           {wrenches.data.items.map((w) => (
@@ -32,15 +39,29 @@ function Wrenches() {
                 {w.lastCalibratedOn ?? 'not recorded'}
                 <Can I="update" a="Wrench">
                   {' '}
-                  <InputGroup type="date" aria-label={`New calibration date of ${w.label}`} value={dates[w.id] ?? ''} onValueChange={(v) => setDates({ ...dates, [w.id]: v })} style={{ width: '11em', display: 'inline-block' }} />
-                  <Button small text="Record calibration" disabled={!dates[w.id]} loading={save.isPending} onClick={() => save.mutate({ id: w.id, body: { lastCalibratedOn: dates[w.id] } })} />
+                  <InputGroup
+                    type="date"
+                    aria-label={`New calibration date of ${w.label}`}
+                    value={dates[w.id] ?? ''}
+                    onValueChange={(v) => setDates({ ...dates, [w.id]: v })}
+                    style={{ width: '11em', display: 'inline-block' }}
+                  />
+                  <Button
+                    small
+                    text="Record calibration"
+                    disabled={!dates[w.id]}
+                    loading={save.isPending}
+                    onClick={() => save.mutate({ id: w.id, body: { lastCalibratedOn: dates[w.id] } })}
+                  />
                 </Can>
               </td>
             </tr>
           ))}
         </tbody>
       </HTMLTable>
-      <Can I="create" a="Wrench"><AddWrenchForm /></Can>
+      <Can I="create" a="Wrench">
+        <AddWrenchForm />
+      </Can>
     </section>
   );
 }
@@ -49,7 +70,14 @@ function Wrenches() {
 export function CatalogueRoute() {
   const catalogue = useCatalogue();
   if (catalogue.isPending) return <LoadingState label="Loading the catalogue" />;
-  if (catalogue.isError) return <ErrorState title="Could not load the catalogue" error={catalogue.error} onRetry={() => void catalogue.refetch()} />;
+  if (catalogue.isError)
+    return (
+      <ErrorState
+        title="Could not load the catalogue"
+        error={catalogue.error}
+        onRetry={() => void catalogue.refetch()}
+      />
+    );
   return (
     <div className="catalogue-page">
       <title>Component catalogue · Torquetrail</title>
@@ -58,7 +86,9 @@ export function CatalogueRoute() {
         {catalogue.data.caution} The values here are what the practice entered.
       </Callout>
       {catalogue.data.systems.length === 0 && <p>This practice has no catalogue yet.</p>}
-      <Can I="create" a="Catalogue"><AddSystemForm /></Can>
+      <Can I="create" a="Catalogue">
+        <AddSystemForm />
+      </Can>
       {catalogue.data.systems.map((s) => (
         <section key={s.id} aria-label={s.name}>
           <h2>
@@ -67,23 +97,38 @@ export function CatalogueRoute() {
           {s.platforms.map((p) => (
             <div key={p.id}>
               <h3>
-                {p.name}: {p.diameterMm} mm, {CONNECTION_LABEL[p.connection].toLowerCase()}, platform shift {p.platformShift ? 'yes' : 'no'}
+                {p.name}: {p.diameterMm} mm, {CONNECTION_LABEL[p.connection].toLowerCase()}, platform shift{' '}
+                {p.platformShift ? 'yes' : 'no'}
               </h3>
               <HTMLTable compact striped className="catalogue-table">
                 <thead>
                   <tr>
-                    <th>Part</th><th>Reference</th><th>Kind</th><th>Features</th><th>Torque</th><th>Tolerance</th><th>Records</th>
-                    <Can I="update" a="Catalogue"><th>Edit</th></Can>
+                    <th>Part</th>
+                    <th>Reference</th>
+                    <th>Kind</th>
+                    <th>Features</th>
+                    <th>Torque</th>
+                    <th>Tolerance</th>
+                    <th>Records</th>
+                    <Can I="update" a="Catalogue">
+                      <th>Edit</th>
+                    </Can>
                   </tr>
                 </thead>
                 <tbody>
-                  {p.components.map((c) => <ComponentRow key={c.id} part={c} />)}
+                  {p.components.map((c) => (
+                    <ComponentRow key={c.id} part={c} />
+                  ))}
                 </tbody>
               </HTMLTable>
-              <Can I="create" a="Catalogue"><AddComponentForm platformId={p.id} /></Can>
+              <Can I="create" a="Catalogue">
+                <AddComponentForm platformId={p.id} />
+              </Can>
             </div>
           ))}
-          <Can I="create" a="Catalogue"><AddPlatformForm systemId={s.id} /></Can>
+          <Can I="create" a="Catalogue">
+            <AddPlatformForm systemId={s.id} />
+          </Can>
         </section>
       ))}
       <Wrenches />

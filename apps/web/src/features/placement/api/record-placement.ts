@@ -8,7 +8,12 @@ import { siteKeys } from '../../site-file';
 export function useRecordPlacement(patientId: string, siteId: string) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (body: PlacementBody) => apiRequest(`/api/sites/${encodeURIComponent(siteId)}/placements`, { method: 'POST', body, schema: PlacementRecord }),
+    mutationFn: (body: PlacementBody) =>
+      apiRequest(`/api/sites/${encodeURIComponent(siteId)}/placements`, {
+        method: 'POST',
+        body,
+        schema: PlacementRecord,
+      }),
     onSuccess: () =>
       Promise.all([
         queryClient.invalidateQueries({ queryKey: siteKeys.detail(siteId) }),

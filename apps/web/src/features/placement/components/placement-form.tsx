@@ -1,13 +1,27 @@
 import { Button, Callout, HTMLSelect, InputGroup, TextArea } from '@blueprintjs/core';
-import { IMPLANT_LENGTH_MM_RANGE, INSERTION_TORQUE_NCM_RANGE, ISQ_RANGE, type LoadingProtocol, PlacementBody, type PlacementOptionsReply } from '@torquetrail/contracts';
+import {
+  IMPLANT_LENGTH_MM_RANGE,
+  INSERTION_TORQUE_NCM_RANGE,
+  ISQ_RANGE,
+  type LoadingProtocol,
+  PlacementBody,
+  type PlacementOptionsReply,
+} from '@torquetrail/contracts';
 import { checkUdiForPlacement } from '@torquetrail/domain';
 import { FormProvider, useWatch } from 'react-hook-form';
 import { LOADING_PROTOCOL_LABEL } from '../../../lib/clinical-labels';
 import { localToday } from '../../../lib/dates';
-import { applyServerErrors, draftSchema, FormField, formErrorMessage, NumberInput, useContractForm, withInputRef } from '../../../lib/forms';
+import {
+  applyServerErrors,
+  draftSchema,
+  FormField,
+  formErrorMessage,
+  NumberInput,
+  useContractForm,
+  withInputRef,
+} from '../../../lib/forms';
 import { useRecordPlacement } from '../api/record-placement';
 import { readUdi, UdiField } from './udi-field';
-
 
 interface PlacementDraft {
   platformId: string;
@@ -46,7 +60,17 @@ const schema = draftSchema(PlacementBody, (d: PlacementDraft) => ({
  * insertion torque, ISQ, grafting, loading, axis, the healing abutment or cover screw, notes.
  * The server checks everything again; its `fields` show beside each field.
  */
-export function PlacementForm({ patientId, siteId, options, onDone }: { patientId: string; siteId: string; options: PlacementOptionsReply; onDone: () => void }) {
+export function PlacementForm({
+  patientId,
+  siteId,
+  options,
+  onDone,
+}: {
+  patientId: string;
+  siteId: string;
+  options: PlacementOptionsReply;
+  onDone: () => void;
+}) {
   const form = useContractForm(schema, {
     platformId: '',
     placedOn: localToday(),
@@ -62,7 +86,10 @@ export function PlacementForm({ patientId, siteId, options, onDone }: { patientI
     closureLot: '',
     notes: '',
   });
-  const [platformId, placedOn, lot, udi, closureId] = useWatch({ control: form.control, name: ['platformId', 'placedOn', 'lot', 'udi', 'closureComponentId'] });
+  const [platformId, placedOn, lot, udi, closureId] = useWatch({
+    control: form.control,
+    name: ['platformId', 'placedOn', 'lot', 'udi', 'closureComponentId'],
+  });
   const record = useRecordPlacement(patientId, siteId);
 
   const platforms = options.systems.flatMap((s) => s.platforms.map((p) => ({ ...p, system: s })));
@@ -70,22 +97,44 @@ export function PlacementForm({ patientId, siteId, options, onDone }: { patientI
   const closures = platform?.components ?? [];
   // The same check as the server's: a typed lot that differs from the scanned one, shown live.
   const reading = readUdi(udi);
-  const lotFinding = reading?.ok ? checkUdiForPlacement(reading.udi, { placedOn, lot }).find((f) => f.field === 'lot') : undefined;
+  const lotFinding = reading?.ok
+    ? checkUdiForPlacement(reading.udi, { placedOn, lot }).find((f) => f.field === 'lot')
+    : undefined;
 
-  const submit = (body: PlacementBody) => record.mutate(body, { onSuccess: onDone, onError: (error) => applyServerErrors(form.setError, error) });
+  const submit = (body: PlacementBody) =>
+    record.mutate(body, { onSuccess: onDone, onError: (error) => applyServerErrors(form.setError, error) });
   const formError = formErrorMessage(form.formState.errors, 'alone');
   const axisInput = (i: 0 | 1 | 2, label: string) => (
-    <NumberInput name={`axis.${i}`} buttonPosition="none" id={`placement-axis-${label}`} aria-label={`Axis ${label}`} placeholder={label} stepSize={0.1} minorStepSize={0.01} majorStepSize={1} />
+    <NumberInput
+      name={`axis.${i}`}
+      buttonPosition="none"
+      id={`placement-axis-${label}`}
+      aria-label={`Axis ${label}`}
+      placeholder={label}
+      stepSize={0.1}
+      minorStepSize={0.01}
+      majorStepSize={1}
+    />
   );
 
   return (
     <FormProvider {...form}>
-      <form className="placement-form" onSubmit={(event) => void form.handleSubmit(submit)(event)} aria-label="Record placement" data-testid="placement-form" noValidate>
+      <form
+        className="placement-form"
+        onSubmit={(event) => void form.handleSubmit(submit)(event)}
+        aria-label="Record placement"
+        data-testid="placement-form"
+        noValidate
+      >
         <Callout intent="warning" icon="info-sign" compact>
           {options.caution}
         </Callout>
         <FormField name="platformId" label="Platform" labelFor="placement-platform">
-          <HTMLSelect id="placement-platform" fill {...form.register('platformId', { onChange: () => form.setValue('closureComponentId', '') })}>
+          <HTMLSelect
+            id="placement-platform"
+            fill
+            {...form.register('platformId', { onChange: () => form.setValue('closureComponentId', '') })}
+          >
             <option value="">Choose the platform…</option>
             {options.systems.map((s) => (
               <optgroup key={s.id} label={`${s.name} (${s.manufacturer})`}>
@@ -100,22 +149,55 @@ export function PlacementForm({ patientId, siteId, options, onDone }: { patientI
         </FormField>
         <div className="placement-form__row">
           <FormField name="placedOn" label="Placed on" labelFor="placement-date">
-            <InputGroup id="placement-date" type="date" max={localToday()} {...withInputRef(form.register('placedOn'))} />
+            <InputGroup
+              id="placement-date"
+              type="date"
+              max={localToday()}
+              {...withInputRef(form.register('placedOn'))}
+            />
           </FormField>
           <FormField name="lengthMm" label="Implant length (mm)" labelFor="placement-length">
-            <NumberInput name="lengthMm" buttonPosition="none" id="placement-length" min={IMPLANT_LENGTH_MM_RANGE.min} max={IMPLANT_LENGTH_MM_RANGE.max} stepSize={0.5} allowNumericCharactersOnly />
+            <NumberInput
+              name="lengthMm"
+              buttonPosition="none"
+              id="placement-length"
+              min={IMPLANT_LENGTH_MM_RANGE.min}
+              max={IMPLANT_LENGTH_MM_RANGE.max}
+              stepSize={0.5}
+              allowNumericCharactersOnly
+            />
           </FormField>
         </div>
         <UdiField />
-        <FormField name="lot" live={lotFinding?.message} label="Lot" labelFor="placement-lot" subLabel="Filled from the UDI when it has one">
+        <FormField
+          name="lot"
+          live={lotFinding?.message}
+          label="Lot"
+          labelFor="placement-lot"
+          subLabel="Filled from the UDI when it has one"
+        >
           <InputGroup id="placement-lot" className="mono" autoComplete="off" {...withInputRef(form.register('lot'))} />
         </FormField>
         <div className="placement-form__row">
           <FormField name="insertionTorqueNcm" label="Insertion torque (N·cm)" labelFor="placement-torque">
-            <NumberInput name="insertionTorqueNcm" buttonPosition="none" id="placement-torque" min={INSERTION_TORQUE_NCM_RANGE.min} max={INSERTION_TORQUE_NCM_RANGE.max} allowNumericCharactersOnly />
+            <NumberInput
+              name="insertionTorqueNcm"
+              buttonPosition="none"
+              id="placement-torque"
+              min={INSERTION_TORQUE_NCM_RANGE.min}
+              max={INSERTION_TORQUE_NCM_RANGE.max}
+              allowNumericCharactersOnly
+            />
           </FormField>
           <FormField name="stabilityIsq" label="Stability (ISQ)" labelFor="placement-isq">
-            <NumberInput name="stabilityIsq" buttonPosition="none" id="placement-isq" min={ISQ_RANGE.min} max={ISQ_RANGE.max} allowNumericCharactersOnly />
+            <NumberInput
+              name="stabilityIsq"
+              buttonPosition="none"
+              id="placement-isq"
+              min={ISQ_RANGE.min}
+              max={ISQ_RANGE.max}
+              allowNumericCharactersOnly
+            />
           </FormField>
           <FormField name="loadingProtocol" label="Loading protocol" labelFor="placement-loading">
             <HTMLSelect id="placement-loading" {...form.register('loadingProtocol')}>
@@ -129,10 +211,18 @@ export function PlacementForm({ patientId, siteId, options, onDone }: { patientI
           </FormField>
         </div>
         <FormField name="grafting" label="Grafting" labelFor="placement-grafting">
-          <InputGroup id="placement-grafting" placeholder="e.g. none, xenograft buccal contour, sinus lift" {...withInputRef(form.register('grafting'))} />
+          <InputGroup
+            id="placement-grafting"
+            placeholder="e.g. none, xenograft buccal contour, sinus lift"
+            {...withInputRef(form.register('grafting'))}
+          />
         </FormField>
         {/* The contract checks the vector (not zero) and each component (±1000): both show here. */}
-        <FormField name={['axis', 'axis.x', 'axis.y', 'axis.z']} label="Implant axis (optional direction vector x, y, z)" labelFor="placement-axis-x">
+        <FormField
+          name={['axis', 'axis.x', 'axis.y', 'axis.z']}
+          label="Implant axis (optional direction vector x, y, z)"
+          labelFor="placement-axis-x"
+        >
           <div className="placement-form__axis">
             {axisInput(0, 'x')}
             {axisInput(1, 'y')}
@@ -140,7 +230,12 @@ export function PlacementForm({ patientId, siteId, options, onDone }: { patientI
           </div>
         </FormField>
         <div className="placement-form__row">
-          <FormField name="closureComponentId" label="Healing abutment or cover screw" labelFor="placement-closure" subLabel="Hand-tight: no torque is logged">
+          <FormField
+            name="closureComponentId"
+            label="Healing abutment or cover screw"
+            labelFor="placement-closure"
+            subLabel="Hand-tight: no torque is logged"
+          >
             <HTMLSelect id="placement-closure" disabled={!platform} {...form.register('closureComponentId')}>
               <option value="">None</option>
               {closures.map((c) => (
@@ -152,7 +247,12 @@ export function PlacementForm({ patientId, siteId, options, onDone }: { patientI
           </FormField>
           {closureId && (
             <FormField name="closureLot" label="Lot of that part" labelFor="placement-closure-lot">
-              <InputGroup id="placement-closure-lot" className="mono" autoComplete="off" {...withInputRef(form.register('closureLot'))} />
+              <InputGroup
+                id="placement-closure-lot"
+                className="mono"
+                autoComplete="off"
+                {...withInputRef(form.register('closureLot'))}
+              />
             </FormField>
           )}
         </div>
@@ -165,7 +265,13 @@ export function PlacementForm({ patientId, siteId, options, onDone }: { patientI
           </Callout>
         )}
         <div className="placement-form__actions">
-          <Button type="submit" intent="primary" text="Save placement" loading={record.isPending} data-testid="save-placement" />
+          <Button
+            type="submit"
+            intent="primary"
+            text="Save placement"
+            loading={record.isPending}
+            data-testid="save-placement"
+          />
           <Button variant="minimal" text="Cancel" onClick={onDone} />
         </div>
       </form>

@@ -35,7 +35,10 @@ export function UdiField() {
   const [value, placedOn] = useWatch({ control, name: ['udi', 'placedOn'] });
   const reading = readUdi(value);
   // Only the UDI's own findings here; a lot mismatch shows beside the lot field.
-  const expired = reading?.ok && placedOn ? checkUdiForPlacement(reading.udi, { placedOn }).find((f) => f.field === 'udi') : undefined;
+  const expired =
+    reading?.ok && placedOn
+      ? checkUdiForPlacement(reading.udi, { placedOn }).find((f) => f.field === 'udi')
+      : undefined;
   const live = reading && !reading.ok ? reading.message : expired?.message;
   const field = register('udi', {
     onChange: (event: { target: { value: string } }) => {
@@ -44,17 +47,43 @@ export function UdiField() {
     },
   });
   return (
-    <FormField name="udi" live={live} prefer="live" label="UDI (scan or type)" labelFor="placement-udi" subLabel="Optional. GS1 element string, e.g. (01)…(17)…(10)…">
-      <InputGroup id="placement-udi" className="mono" autoComplete="off" spellCheck={false} aria-describedby="placement-udi-reading" {...withInputRef(field)} />
+    <FormField
+      name="udi"
+      live={live}
+      prefer="live"
+      label="UDI (scan or type)"
+      labelFor="placement-udi"
+      subLabel="Optional. GS1 element string, e.g. (01)…(17)…(10)…"
+    >
+      <InputGroup
+        id="placement-udi"
+        className="mono"
+        autoComplete="off"
+        spellCheck={false}
+        aria-describedby="placement-udi-reading"
+        {...withInputRef(field)}
+      />
       <div id="placement-udi-reading" aria-live="polite" data-testid="udi-reading">
         {reading?.ok && (
           <dl className="placement-udi__reading">
             <dt>GTIN</dt>
-            <dd className="mono" data-testid="udi-gtin">{reading.udi.gtin}</dd>
+            <dd className="mono" data-testid="udi-gtin">
+              {reading.udi.gtin}
+            </dd>
             <dt>Lot</dt>
-            <dd className="mono" data-testid="udi-lot">{reading.udi.lot ?? 'not in the UDI'}</dd>
+            <dd className="mono" data-testid="udi-lot">
+              {reading.udi.lot ?? 'not in the UDI'}
+            </dd>
             <dt>Expiry</dt>
-            <dd data-testid="udi-expiry">{reading.udi.expiry ? <time dateTime={reading.udi.expiry}>{reading.udi.expiry} ({formatDate(reading.udi.expiry)})</time> : "not in the UDI"}</dd>
+            <dd data-testid="udi-expiry">
+              {reading.udi.expiry ? (
+                <time dateTime={reading.udi.expiry}>
+                  {reading.udi.expiry} ({formatDate(reading.udi.expiry)})
+                </time>
+              ) : (
+                'not in the UDI'
+              )}
+            </dd>
             {reading.udi.serial && (
               <>
                 <dt>Serial</dt>

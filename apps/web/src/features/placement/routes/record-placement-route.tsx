@@ -25,9 +25,21 @@ export function RecordPlacementRoute() {
     return (
       <>
         <title>Record placement · Torquetrail</title>
-        <BreadcrumbTrail items={[{ text: 'Patients', to: '/patients' }, { text: name, to: `/patients/${patientId}` }, { text: 'Record placement' }]} />
+        <BreadcrumbTrail
+          items={[
+            { text: 'Patients', to: '/patients' },
+            { text: name, to: `/patients/${patientId}` },
+            { text: 'Record placement' },
+          ]}
+        />
         <ErrorState
-          title={isApiError(options.error, 404) ? 'Site not found' : isApiError(options.error, 403) ? 'Your role may not record a placement here' : 'Could not load the implant systems'}
+          title={
+            isApiError(options.error, 404)
+              ? 'Site not found'
+              : isApiError(options.error, 403)
+                ? 'Your role may not record a placement here'
+                : 'Could not load the implant systems'
+          }
           error={options.error}
           onRetry={() => void options.refetch()}
         >
@@ -50,7 +62,12 @@ export function RecordPlacementRoute() {
         ]}
       />
       <h1 className="page-title">Record placement · {siteLabel}</h1>
-      <PlacementForm patientId={patientId} siteId={siteId} options={options.data} onDone={() => void navigate(siteFile)} />
+      <PlacementForm
+        patientId={patientId}
+        siteId={siteId}
+        options={options.data}
+        onDone={() => void navigate(siteFile)}
+      />
     </div>
   );
 }

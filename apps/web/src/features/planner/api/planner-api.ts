@@ -16,10 +16,18 @@ import { siteKeys } from '../../site-file';
 import { restorationKeys } from './keys';
 
 export const useRestorableSites = (patientId: string) =>
-  useQuery({ queryKey: restorationKeys.restorableSites(patientId), queryFn: ({ signal }) => apiRequest(`/api/patients/${patientId}/restorable-sites`, { schema: RestorableSitesReply, signal }) });
+  useQuery({
+    queryKey: restorationKeys.restorableSites(patientId),
+    queryFn: ({ signal }) =>
+      apiRequest(`/api/patients/${patientId}/restorable-sites`, { schema: RestorableSitesReply, signal }),
+  });
 
 export const useRestorations = (patientId: string) =>
-  useQuery({ queryKey: restorationKeys.list(patientId), queryFn: ({ signal }) => apiRequest(`/api/patients/${patientId}/restorations`, { schema: RestorationListReply, signal }) });
+  useQuery({
+    queryKey: restorationKeys.list(patientId),
+    queryFn: ({ signal }) =>
+      apiRequest(`/api/patients/${patientId}/restorations`, { schema: RestorationListReply, signal }),
+  });
 
 /** What a restoration's change touches: the patient's list, and the Stack, Timeline and Arch of its sites. */
 function invalidateRestoration(queryClient: QueryClient, r: RestorationDetail, { sites }: { sites: boolean }) {
@@ -35,7 +43,8 @@ function invalidateRestoration(queryClient: QueryClient, r: RestorationDetail, {
 export function useSavePlan() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (body: PlanBody) => apiRequest('/api/restorations', { method: 'POST', body, schema: RestorationDetail }),
+    mutationFn: (body: PlanBody) =>
+      apiRequest('/api/restorations', { method: 'POST', body, schema: RestorationDetail }),
     onSuccess: (r) => invalidateRestoration(queryClient, r, { sites: true }),
   });
 }
@@ -43,7 +52,8 @@ export function useSavePlan() {
 export function useDeliver() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: ({ id, body }: { id: string; body: DeliveryBody }) => apiRequest(`/api/restorations/${id}/delivery`, { method: 'POST', body, schema: RestorationDetail }),
+    mutationFn: ({ id, body }: { id: string; body: DeliveryBody }) =>
+      apiRequest(`/api/restorations/${id}/delivery`, { method: 'POST', body, schema: RestorationDetail }),
     onSuccess: (r) => invalidateRestoration(queryClient, r, { sites: true }),
   });
 }
@@ -51,7 +61,12 @@ export function useDeliver() {
 export function useLabPrescription(restoration: RestorationDetail) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (emailToLab: boolean) => apiRequest(`/api/restorations/${restoration.id}/lab-prescriptions`, { method: 'POST', body: { emailToLab }, schema: LabPrescriptionSummary }),
+    mutationFn: (emailToLab: boolean) =>
+      apiRequest(`/api/restorations/${restoration.id}/lab-prescriptions`, {
+        method: 'POST',
+        body: { emailToLab },
+        schema: LabPrescriptionSummary,
+      }),
     onSuccess: () => invalidateRestoration(queryClient, restoration, { sites: false }),
   });
 }
@@ -60,7 +75,8 @@ export function useLabPrescription(restoration: RestorationDetail) {
 export function useAmendPlan() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: ({ id, body }: { id: string; body: PlanAmendmentBody }) => apiRequest(`/api/restorations/${id}/amendments`, { method: 'POST', body, schema: RestorationDetail }),
+    mutationFn: ({ id, body }: { id: string; body: PlanAmendmentBody }) =>
+      apiRequest(`/api/restorations/${id}/amendments`, { method: 'POST', body, schema: RestorationDetail }),
     onSuccess: (r) => invalidateRestoration(queryClient, r, { sites: true }),
   });
 }

@@ -3,9 +3,16 @@ import { DeliveryBody, type RestorationDetail } from '@torquetrail/contracts';
 import { useMemo } from 'react';
 import { FormProvider } from 'react-hook-form';
 import { localToday } from '../../../lib/dates';
-import { applyServerErrors, draftSchema, errorAt, FieldError, formErrorMessage, useContractForm, withInputRef } from '../../../lib/forms';
+import {
+  applyServerErrors,
+  draftSchema,
+  errorAt,
+  FieldError,
+  formErrorMessage,
+  useContractForm,
+  withInputRef,
+} from '../../../lib/forms';
 import { useDeliver } from '../api/planner-api';
-
 
 interface DeliveryDraft {
   /** One lot per row, as typed. */
@@ -19,7 +26,13 @@ interface DeliveryDraft {
  * its lot number (required where the catalogue says so). Saved in one transaction by the API.
  */
 export function DeliveryForm({ restoration, onDone }: { restoration: RestorationDetail; onDone: () => void }) {
-  const rows = useMemo(() => restoration.sites.flatMap((s) => s.components.filter((c) => c.kind !== 'impression-coping').map((c) => ({ site: s, part: c }))), [restoration]);
+  const rows = useMemo(
+    () =>
+      restoration.sites.flatMap((s) =>
+        s.components.filter((c) => c.kind !== 'impression-coping').map((c) => ({ site: s, part: c })),
+      ),
+    [restoration],
+  );
   const schema = useMemo(
     () =>
       draftSchema(DeliveryBody, (d: DeliveryDraft) => ({
@@ -32,14 +45,29 @@ export function DeliveryForm({ restoration, onDone }: { restoration: Restoration
   const form = useContractForm(schema, { lots: rows.map(() => ''), deliveredOn: localToday(), impressionTakenOn: '' });
   const deliver = useDeliver();
 
-  const submit = (body: DeliveryBody) => deliver.mutate({ id: restoration.id, body }, { onSuccess: onDone, onError: (error) => applyServerErrors(form.setError, error) });
+  const submit = (body: DeliveryBody) =>
+    deliver.mutate(
+      { id: restoration.id, body },
+      { onSuccess: onDone, onError: (error) => applyServerErrors(form.setError, error) },
+    );
   const { errors } = form.formState;
   const message = formErrorMessage(errors, 'always');
 
-  if (rows.length === 0) return <Callout intent="primary">The plan names no parts to deliver. Amend the plan to choose them from the catalogue.</Callout>;
+  if (rows.length === 0)
+    return (
+      <Callout intent="primary">
+        The plan names no parts to deliver. Amend the plan to choose them from the catalogue.
+      </Callout>
+    );
   return (
     <FormProvider {...form}>
-      <form className="delivery-form" onSubmit={(event) => void form.handleSubmit(submit)(event)} aria-label="Deliver the restoration" data-testid="delivery-form" noValidate>
+      <form
+        className="delivery-form"
+        onSubmit={(event) => void form.handleSubmit(submit)(event)}
+        aria-label="Deliver the restoration"
+        data-testid="delivery-form"
+        noValidate
+      >
         <table>
           <thead>
             <tr>
@@ -74,7 +102,12 @@ export function DeliveryForm({ restoration, onDone }: { restoration: Restoration
         </label>
         <FieldError name="impressionTakenOn" className="planner-error" />
         <label>
-          Delivered on <InputGroup type="date" intent={errorAt(errors, 'deliveredOn') ? 'danger' : 'none'} {...withInputRef(form.register('deliveredOn'))} />
+          Delivered on{' '}
+          <InputGroup
+            type="date"
+            intent={errorAt(errors, 'deliveredOn') ? 'danger' : 'none'}
+            {...withInputRef(form.register('deliveredOn'))}
+          />
         </label>
         <FieldError name="deliveredOn" className="planner-error" />
         {message && (
@@ -82,7 +115,13 @@ export function DeliveryForm({ restoration, onDone }: { restoration: Restoration
             {message}
           </Callout>
         )}
-        <Button type="submit" intent="primary" text="Record delivery" loading={deliver.isPending} data-testid="record-delivery" />
+        <Button
+          type="submit"
+          intent="primary"
+          text="Record delivery"
+          loading={deliver.isPending}
+          data-testid="record-delivery"
+        />
       </form>
     </FormProvider>
   );

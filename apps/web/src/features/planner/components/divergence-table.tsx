@@ -28,12 +28,18 @@ export function DivergenceTable({ axes, system }: { axes: { fdi: number; axis: V
           {rows.map((r) => (
             <tr key={r.pair}>
               <th scope="row">{r.pair}</th>
-              <td>{r.deg === null ? 'axis not valid' : `${r.deg.toFixed(1)}°${r.deg > DIVERGENCE_LIMIT_DEG ? ` (over ${DIVERGENCE_LIMIT_DEG}° before any multi-unit correction)` : ''}`}</td>
+              <td>
+                {r.deg === null
+                  ? 'axis not valid'
+                  : `${r.deg.toFixed(1)}°${r.deg > DIVERGENCE_LIMIT_DEG ? ` (over ${DIVERGENCE_LIMIT_DEG}° before any multi-unit correction)` : ''}`}
+              </td>
             </tr>
           ))}
         </tbody>
       </table>
-      {axes.length > known.length && <p className="muted">Sites without an axis are not compared: enter one to check.</p>}
+      {axes.length > known.length && (
+        <p className="muted">Sites without an axis are not compared: enter one to check.</p>
+      )}
     </section>
   );
 }

@@ -4,7 +4,15 @@ import { FINDING_SEVERITY_LABEL } from '../../../lib/clinical-labels';
 import { ackKey } from './plan-state';
 
 /** Findings as they arise: errors block saving, warnings need the clinician's acknowledgement. */
-export function FindingsPanel({ findings, acknowledged, onAcknowledge }: { findings: Finding[]; acknowledged: string[]; onAcknowledge: (key: string, on: boolean) => void }) {
+export function FindingsPanel({
+  findings,
+  acknowledged,
+  onAcknowledge,
+}: {
+  findings: Finding[];
+  acknowledged: string[];
+  onAcknowledge: (key: string, on: boolean) => void;
+}) {
   return (
     <section className="planner-findings" aria-labelledby="findings-heading" aria-live="polite" data-testid="findings">
       <h2 id="findings-heading">Findings</h2>
@@ -17,11 +25,23 @@ export function FindingsPanel({ findings, acknowledged, onAcknowledge }: { findi
         <ul className="planner-findings__list">
           {findings.map((f) => (
             <li key={ackKey(f)} data-testid={`finding-${f.severity}`} data-code={f.code}>
-              <Callout intent={f.severity === 'error' ? 'danger' : 'warning'} icon={f.severity === 'error' ? 'error' : 'warning-sign'} compact>
-                <strong>{FINDING_SEVERITY_LABEL[f.severity]}{f.fdi ? ` at ${f.fdi}` : ''}:</strong> {f.message}
+              <Callout
+                intent={f.severity === 'error' ? 'danger' : 'warning'}
+                icon={f.severity === 'error' ? 'error' : 'warning-sign'}
+                compact
+              >
+                <strong>
+                  {FINDING_SEVERITY_LABEL[f.severity]}
+                  {f.fdi ? ` at ${f.fdi}` : ''}:
+                </strong>{' '}
+                {f.message}
                 {f.source && <span className="planner-findings__source"> Source: {f.source}.</span>}
                 {f.severity === 'warning' && (
-                  <Checkbox label="I have read this warning and accept the plan" checked={acknowledged.includes(ackKey(f))} onChange={(e) => onAcknowledge(ackKey(f), e.currentTarget.checked)} />
+                  <Checkbox
+                    label="I have read this warning and accept the plan"
+                    checked={acknowledged.includes(ackKey(f))}
+                    onChange={(e) => onAcknowledge(ackKey(f), e.currentTarget.checked)}
+                  />
                 )}
               </Callout>
             </li>

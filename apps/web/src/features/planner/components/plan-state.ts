@@ -1,6 +1,25 @@
 // The planner's form state and its translation into the API body and the domain plan.
-import { ABUTMENT_KINDS, type CatalogueComponent, type ComponentKind, type Finding, type ImpressionCopingKind, type InterfaceKind, type Material, type PlanBody, type RestorableSite, type RestorationDetail, type RestorationKind, type Retention, SCREW_KINDS } from '@torquetrail/contracts';
-import { ABUTMENT_LEVEL_RETENTIONS, type RestorationPlan, ValidationError, validateRestorationPlan } from '@torquetrail/domain';
+import {
+  ABUTMENT_KINDS,
+  type CatalogueComponent,
+  type ComponentKind,
+  type Finding,
+  type ImpressionCopingKind,
+  type InterfaceKind,
+  type Material,
+  type PlanBody,
+  type RestorableSite,
+  type RestorationDetail,
+  type RestorationKind,
+  type Retention,
+  SCREW_KINDS,
+} from '@torquetrail/contracts';
+import {
+  ABUTMENT_LEVEL_RETENTIONS,
+  type RestorationPlan,
+  ValidationError,
+  validateRestorationPlan,
+} from '@torquetrail/domain';
 
 export interface SitePlan {
   siteId: string;
@@ -58,7 +77,8 @@ export const initialPlan: PlanState = {
 export const ackKey = (f: Pick<Finding, 'code' | 'fdi'>) => `${f.code}:${f.fdi ?? ''}`;
 
 const num = (s: string) => (s.trim() === '' ? null : Number(s));
-const enteredAxis = (a: SitePlan['axis']): [number, number, number] | null => (a.every((v) => v.trim() !== '') ? [Number(a[0]), Number(a[1]), Number(a[2])] : null);
+const enteredAxis = (a: SitePlan['axis']): [number, number, number] | null =>
+  a.every((v) => v.trim() !== '') ? [Number(a[0]), Number(a[1]), Number(a[2])] : null;
 
 export function toBody(patientId: string, state: PlanState, catalogue: Map<string, CatalogueComponent>): PlanBody {
   return {
@@ -103,7 +123,11 @@ export function toBody(patientId: string, state: PlanState, catalogue: Map<strin
  * with each site's axis entered or taken from its placement. A malformed value (e.g. a zero
  * axis) is returned as a field message instead.
  */
-export function liveFindings(state: PlanState, sites: RestorableSite[], catalogue: Map<string, CatalogueComponent>): { findings: Finding[]; invalid: Record<string, string> } {
+export function liveFindings(
+  state: PlanState,
+  sites: RestorableSite[],
+  catalogue: Map<string, CatalogueComponent>,
+): { findings: Finding[]; invalid: Record<string, string> } {
   const body = toBody('', state, catalogue);
   const plan: RestorationPlan = {
     kind: state.kind,
@@ -117,8 +141,12 @@ export function liveFindings(state: PlanState, sites: RestorableSite[], catalogu
         interface: s.interface,
         impressionCoping: s.impressionCoping,
         ...(axis ? { axis } : {}),
-        ...(s.multiUnitAngleDeg !== null && s.multiUnitAngleDeg !== undefined ? { multiUnitAngleDeg: s.multiUnitAngleDeg } : {}),
-        ...(s.restorativeSpaceMm !== null && s.restorativeSpaceMm !== undefined ? { restorativeSpaceMm: s.restorativeSpaceMm } : {}),
+        ...(s.multiUnitAngleDeg !== null && s.multiUnitAngleDeg !== undefined
+          ? { multiUnitAngleDeg: s.multiUnitAngleDeg }
+          : {}),
+        ...(s.restorativeSpaceMm !== null && s.restorativeSpaceMm !== undefined
+          ? { restorativeSpaceMm: s.restorativeSpaceMm }
+          : {}),
       };
     }),
   };
@@ -156,7 +184,9 @@ export function stateFromRestoration(r: RestorationDetail): PlanState {
         impressionCopingComponentId: first('impression-coping'),
         multiUnitComponentId: first('multi-unit-abutment'),
         abutmentComponentId: first(...ABUTMENT_KINDS),
-        screwComponentIds: s.components.filter((c) => (SCREW_KINDS as readonly ComponentKind[]).includes(c.kind)).map((c) => c.id),
+        screwComponentIds: s.components
+          .filter((c) => (SCREW_KINDS as readonly ComponentKind[]).includes(c.kind))
+          .map((c) => c.id),
         restorativeSpaceMm: str(s.restorativeSpaceMm),
         axis: s.axis ? [String(s.axis[0]), String(s.axis[1]), String(s.axis[2])] : ['', '', ''],
       };

@@ -19,30 +19,53 @@ import {
 } from '../../../lib/clinical-labels';
 
 /** One restoration: what was planned, its Findings, delivery and lab prescriptions. */
-export function RestorationPanel({ restoration: r, system, patientId }: { restoration: RestorationDetail; system: ToothSystem; patientId: string }) {
+export function RestorationPanel({
+  restoration: r,
+  system,
+  patientId,
+}: {
+  restoration: RestorationDetail;
+  system: ToothSystem;
+  patientId: string;
+}) {
   const [delivering, setDelivering] = useState(false);
   const lab = useLabPrescription(r);
   const current = !r.supersededById;
   return (
-    <Card className={`restoration-card${current ? '' : ' restoration-card--amended'}`} data-testid="restoration-card" data-status={r.status}>
+    <Card
+      className={`restoration-card${current ? '' : ' restoration-card--amended'}`}
+      data-testid="restoration-card"
+      data-status={r.status}
+    >
       <h2>
         {KIND_LABEL[r.kind]} · {r.sites.map((s) => formatTooth(s.fdi, system)).join(', ')}{' '}
         <Tag intent={r.status === 'delivered' ? 'success' : 'primary'} minimal>
           {RESTORATION_STATUS_LABEL[r.status].toLowerCase()}
         </Tag>{' '}
-        {!current && <Tag minimal icon="history">amended</Tag>}
+        {!current && (
+          <Tag minimal icon="history">
+            amended
+          </Tag>
+        )}
       </h2>
       <p>
         {RETENTION_LABEL[r.retention]} · {MATERIAL_LABEL[r.material]}
         {r.shade ? ` · shade ${r.shade}` : ''}
-        {r.deliveredOn ? ` · delivered ${formatDate(r.deliveredOn)}` : ''} · planned by {r.plannedByName ?? 'unknown'} on {formatDateTime(r.createdAt)}
+        {r.deliveredOn ? ` · delivered ${formatDate(r.deliveredOn)}` : ''} · planned by {r.plannedByName ?? 'unknown'}{' '}
+        on {formatDateTime(r.createdAt)}
       </p>
-      {!r.retrievable && <Callout intent="warning" icon="warning-sign" compact>Cement-retained: not retrievable without cutting.</Callout>}
+      {!r.retrievable && (
+        <Callout intent="warning" icon="warning-sign" compact>
+          Cement-retained: not retrievable without cutting.
+        </Callout>
+      )}
       {r.amendmentReason && <p>Amendment: {r.amendmentReason}</p>}
       <ul>
         {r.sites.map((s) => (
           <li key={s.siteId}>
-            <Link to={`/patients/${patientId}/sites/${s.siteId}`}>Site {formatTooth(s.fdi, system)}</Link>: {INTERFACE_LABEL[s.interface].toLowerCase()} interface, {IMPRESSION_COPING_LABEL[s.impressionCoping].toLowerCase()}
+            <Link to={`/patients/${patientId}/sites/${s.siteId}`}>Site {formatTooth(s.fdi, system)}</Link>:{' '}
+            {INTERFACE_LABEL[s.interface].toLowerCase()} interface,{' '}
+            {IMPRESSION_COPING_LABEL[s.impressionCoping].toLowerCase()}
             {s.components.length > 0 && ` — ${s.components.map((c) => c.name).join(', ')}`}
           </li>
         ))}
@@ -53,7 +76,10 @@ export function RestorationPanel({ restoration: r, system, patientId }: { restor
           <ul>
             {r.findings.map((f) => (
               <li key={`${f.code}:${f.fdi ?? ''}`}>
-                {FINDING_SEVERITY_LABEL[f.severity].toLowerCase()}: {f.message} {r.acknowledgements.find((a) => a.code === f.code) && <em>(acknowledged by {r.acknowledgements.find((a) => a.code === f.code)!.byName})</em>}
+                {FINDING_SEVERITY_LABEL[f.severity].toLowerCase()}: {f.message}{' '}
+                {r.acknowledgements.find((a) => a.code === f.code) && (
+                  <em>(acknowledged by {r.acknowledgements.find((a) => a.code === f.code)!.byName})</em>
+                )}
               </li>
             ))}
           </ul>
@@ -74,17 +100,51 @@ export function RestorationPanel({ restoration: r, system, patientId }: { restor
       {current && (
         <Can I="create" a="Restoration">
           <div className="planner__actions">
-            <Button icon="document" text="Lab prescription (PDF)" onClick={() => lab.mutate(false)} loading={lab.isPending && ! lab.variables} data-testid="make-lab-pdf" />
-            {r.labEmail && <Button icon="envelope" text={`E-mail to ${r.labEmail}`} onClick={() => lab.mutate(true)} loading={lab.isPending &&  lab.variables} />}
-            {r.status === 'planned' && <Link className={Classes.BUTTON} to={`/patients/${patientId}/restorations/new?amend=${r.id}`}>Amend plan</Link>}
-            {r.status === 'planned' && <Button intent="primary" icon="endorsed" text="Deliver" onClick={() => setDelivering((v) => !v)} data-testid="deliver-button" />}
+            <Button
+              icon="document"
+              text="Lab prescription (PDF)"
+              onClick={() => lab.mutate(false)}
+              loading={lab.isPending && !lab.variables}
+              data-testid="make-lab-pdf"
+            />
+            {r.labEmail && (
+              <Button
+                icon="envelope"
+                text={`E-mail to ${r.labEmail}`}
+                onClick={() => lab.mutate(true)}
+                loading={lab.isPending && lab.variables}
+              />
+            )}
+            {r.status === 'planned' && (
+              <Link className={Classes.BUTTON} to={`/patients/${patientId}/restorations/new?amend=${r.id}`}>
+                Amend plan
+              </Link>
+            )}
+            {r.status === 'planned' && (
+              <Button
+                intent="primary"
+                icon="endorsed"
+                text="Deliver"
+                onClick={() => setDelivering((v) => !v)}
+                data-testid="deliver-button"
+              />
+            )}
           </div>
-          {lab.isError && <Callout intent="danger" role="alert" compact>{lab.error.message}</Callout>}
+          {lab.isError && (
+            <Callout intent="danger" role="alert" compact>
+              {lab.error.message}
+            </Callout>
+          )}
           {delivering && r.status === 'planned' && <DeliveryForm restoration={r} onDone={() => setDelivering(false)} />}
         </Can>
       )}
       {r.status === 'delivered' && r.sites[0] && (
-        <AnchorButton minimal icon="layers" href={`/patients/${patientId}/sites/${r.sites[0].siteId}`} text="Open the Site file" />
+        <AnchorButton
+          minimal
+          icon="layers"
+          href={`/patients/${patientId}/sites/${r.sites[0].siteId}`}
+          text="Open the Site file"
+        />
       )}
     </Card>
   );

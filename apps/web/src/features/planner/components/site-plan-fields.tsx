@@ -1,12 +1,22 @@
 import { Checkbox, HTMLSelect, InputGroup } from '@blueprintjs/core';
-import { ABUTMENT_KINDS, type CatalogueComponent, type ComponentKind, type ImpressionCopingKind, type InterfaceKind, type RestorableSite, type Retention, SCREW_KINDS } from '@torquetrail/contracts';
+import {
+  ABUTMENT_KINDS,
+  type CatalogueComponent,
+  type ComponentKind,
+  type ImpressionCopingKind,
+  type InterfaceKind,
+  type RestorableSite,
+  type Retention,
+  SCREW_KINDS,
+} from '@torquetrail/contracts';
 import { ABUTMENT_LEVEL_RETENTIONS, formatTooth } from '@torquetrail/domain';
 import { FormField } from '../../../lib/forms';
 import type { ToothSystem } from '../../../lib/tooth-system';
 import type { SitePlan } from './plan-state';
 import { CONNECTION_LABEL, IMPRESSION_COPING_LABEL, INTERFACE_LABEL } from '../../../lib/clinical-labels';
 
-const spec = (c: CatalogueComponent) => (c.torqueSpecNcm === null ? 'hand-tight' : `${c.torqueSpecNcm} N·cm ±${c.tolerancePct} %`);
+const spec = (c: CatalogueComponent) =>
+  c.torqueSpecNcm === null ? 'hand-tight' : `${c.torqueSpecNcm} N·cm ±${c.tolerancePct} %`;
 
 interface Props {
   index: number;
@@ -26,7 +36,9 @@ export function SitePlanFields({ index, site, plan, retention, parts, system, li
   /** A field's error paths (the first names it) and its live message. */
   const err = (...fields: string[]) => ({ name: fields.map(key), live: fields.map((f) => live[key(f)]).find(Boolean) });
   const of = (...kinds: ComponentKind[]) => parts.filter((p) => kinds.includes(p.kind));
-  const copings = of('impression-coping').filter((c) => (plan.impressionCoping === 'engaging' ? c.engaging === true : c.engaging !== true));
+  const copings = of('impression-coping').filter((c) =>
+    plan.impressionCoping === 'engaging' ? c.engaging === true : c.engaging !== true,
+  );
   const set = (patch: Partial<SitePlan>) => onChange({ ...plan, ...patch });
   const id = (f: string) => `plan-${site.fdi}-${f}`;
   const label = formatTooth(site.fdi, system);
@@ -34,11 +46,16 @@ export function SitePlanFields({ index, site, plan, retention, parts, system, li
   return (
     <fieldset className="planner-site" data-testid={`planner-site-${site.fdi}`}>
       <legend>
-        Site {label} · {site.systemName} · {site.platformName} {site.connection ? ` (${CONNECTION_LABEL[site.connection]})` : ''}
+        Site {label} · {site.systemName} · {site.platformName}{' '}
+        {site.connection ? ` (${CONNECTION_LABEL[site.connection]})` : ''}
       </legend>
       <div className="planner-grid">
         <FormField label="Interface to the implant" labelFor={id('interface')} {...err('interface')}>
-          <HTMLSelect id={id('interface')} value={plan.interface} onChange={(e) => set({ interface: e.currentTarget.value as InterfaceKind })}>
+          <HTMLSelect
+            id={id('interface')}
+            value={plan.interface}
+            onChange={(e) => set({ interface: e.currentTarget.value as InterfaceKind })}
+          >
             {Object.entries(INTERFACE_LABEL).map(([value, text]) => (
               <option key={value} value={value}>
                 {text}
@@ -46,8 +63,18 @@ export function SitePlanFields({ index, site, plan, retention, parts, system, li
             ))}
           </HTMLSelect>
         </FormField>
-        <FormField label="Impression technique" labelFor={id('coping')} {...err('impressionCoping', 'impressionCopingComponentId')}>
-          <HTMLSelect id={id('coping')} value={plan.impressionCoping} onChange={(e) => set({ impressionCoping: e.currentTarget.value as ImpressionCopingKind, impressionCopingComponentId: '' })}>
+        <FormField
+          label="Impression technique"
+          labelFor={id('coping')}
+          {...err('impressionCoping', 'impressionCopingComponentId')}
+        >
+          <HTMLSelect
+            id={id('coping')}
+            value={plan.impressionCoping}
+            onChange={(e) =>
+              set({ impressionCoping: e.currentTarget.value as ImpressionCopingKind, impressionCopingComponentId: '' })
+            }
+          >
             {Object.entries(IMPRESSION_COPING_LABEL).map(([value, text]) => (
               <option key={value} value={value}>
                 {text}
@@ -56,7 +83,11 @@ export function SitePlanFields({ index, site, plan, retention, parts, system, li
           </HTMLSelect>
         </FormField>
         <FormField label="Impression coping (catalogue)" labelFor={id('coping-part')} name={[]}>
-          <HTMLSelect id={id('coping-part')} value={plan.impressionCopingComponentId} onChange={(e) => set({ impressionCopingComponentId: e.currentTarget.value })}>
+          <HTMLSelect
+            id={id('coping-part')}
+            value={plan.impressionCopingComponentId}
+            onChange={(e) => set({ impressionCopingComponentId: e.currentTarget.value })}
+          >
             <option value="">Not chosen</option>
             {copings.map((c) => (
               <option key={c.id} value={c.id}>
@@ -66,8 +97,16 @@ export function SitePlanFields({ index, site, plan, retention, parts, system, li
           </HTMLSelect>
         </FormField>
         {retention === 'screw-to-multi-unit' ? (
-          <FormField label="Multi-unit abutment" labelFor={id('mua')} {...err('multiUnitComponentId', 'multiUnitAngleDeg')}>
-            <HTMLSelect id={id('mua')} value={plan.multiUnitComponentId} onChange={(e) => set({ multiUnitComponentId: e.currentTarget.value })}>
+          <FormField
+            label="Multi-unit abutment"
+            labelFor={id('mua')}
+            {...err('multiUnitComponentId', 'multiUnitAngleDeg')}
+          >
+            <HTMLSelect
+              id={id('mua')}
+              value={plan.multiUnitComponentId}
+              onChange={(e) => set({ multiUnitComponentId: e.currentTarget.value })}
+            >
               <option value="">Not chosen</option>
               {of('multi-unit-abutment').map((c) => (
                 <option key={c.id} value={c.id}>
@@ -78,7 +117,11 @@ export function SitePlanFields({ index, site, plan, retention, parts, system, li
           </FormField>
         ) : ABUTMENT_LEVEL_RETENTIONS.includes(retention) ? (
           <FormField label="Abutment" labelFor={id('abutment')} {...err('abutmentComponentId')}>
-            <HTMLSelect id={id('abutment')} value={plan.abutmentComponentId} onChange={(e) => set({ abutmentComponentId: e.currentTarget.value })}>
+            <HTMLSelect
+              id={id('abutment')}
+              value={plan.abutmentComponentId}
+              onChange={(e) => set({ abutmentComponentId: e.currentTarget.value })}
+            >
               <option value="">Not chosen</option>
               {of(...ABUTMENT_KINDS).map((c) => (
                 <option key={c.id} value={c.id}>
@@ -89,9 +132,22 @@ export function SitePlanFields({ index, site, plan, retention, parts, system, li
           </FormField>
         ) : null}
         <FormField label="Restorative space (mm)" labelFor={id('space')} {...err('restorativeSpaceMm')}>
-          <InputGroup id={id('space')} inputMode="decimal" value={plan.restorativeSpaceMm} onValueChange={(v) => set({ restorativeSpaceMm: v })} />
+          <InputGroup
+            id={id('space')}
+            inputMode="decimal"
+            value={plan.restorativeSpaceMm}
+            onValueChange={(v) => set({ restorativeSpaceMm: v })}
+          />
         </FormField>
-        <FormField label="Implant axis (x, y, z)" {...err('axis', 'axis.0', 'axis.1', 'axis.2')} help={site.axis ? `From the placement: ${site.axis.join(', ')}; type to override` : 'Not in the placement record: enter a direction vector'}>
+        <FormField
+          label="Implant axis (x, y, z)"
+          {...err('axis', 'axis.0', 'axis.1', 'axis.2')}
+          help={
+            site.axis
+              ? `From the placement: ${site.axis.join(', ')}; type to override`
+              : 'Not in the placement record: enter a direction vector'
+          }
+        >
           <div className="planner-axis">
             {(['x', 'y', 'z'] as const).map((c, i) => (
               <InputGroup
@@ -112,7 +168,13 @@ export function SitePlanFields({ index, site, plan, retention, parts, system, li
             key={c.id}
             label={`${c.name} [${c.referenceCode}], ${spec(c)}`}
             checked={plan.screwComponentIds.includes(c.id)}
-            onChange={(e) => set({ screwComponentIds: e.currentTarget.checked ? [...plan.screwComponentIds, c.id] : plan.screwComponentIds.filter((x) => x !== c.id) })}
+            onChange={(e) =>
+              set({
+                screwComponentIds: e.currentTarget.checked
+                  ? [...plan.screwComponentIds, c.id]
+                  : plan.screwComponentIds.filter((x) => x !== c.id),
+              })
+            }
           />
         ))}
       </FormField>

@@ -1,6 +1,18 @@
 import '../components/planner.css';
 import { Button, Callout, Checkbox, HTMLSelect, InputGroup, TextArea } from '@blueprintjs/core';
-import { type CatalogueComponent, type CatalogueReply, type Material, PlanAmendmentBody, PlanBody, type PlanBodyParsed, type RestorableSite, type RestorationDetail, type RestorationKind, type Retention, findingField } from '@torquetrail/contracts';
+import {
+  type CatalogueComponent,
+  type CatalogueReply,
+  type Material,
+  PlanAmendmentBody,
+  PlanBody,
+  type PlanBodyParsed,
+  type RestorableSite,
+  type RestorationDetail,
+  type RestorationKind,
+  type Retention,
+  findingField,
+} from '@torquetrail/contracts';
 import { formatTooth } from '@torquetrail/domain';
 import { useMemo } from 'react';
 import { FormProvider } from 'react-hook-form';
@@ -9,12 +21,28 @@ import { Link, useNavigate, useParams, useSearchParams } from 'react-router-dom'
 import { BreadcrumbTrail } from '../../../lib/components/breadcrumb-trail';
 import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
-import { applyServerErrors, draftSchema, FieldError, FormField, formErrorMessage, useContractForm, withInputRef } from '../../../lib/forms';
+import {
+  applyServerErrors,
+  draftSchema,
+  FieldError,
+  FormField,
+  formErrorMessage,
+  useContractForm,
+  withInputRef,
+} from '../../../lib/forms';
 import { useToothSystem } from '../../../lib/tooth-system';
 import { useCatalogue } from '../../catalogue';
 import { useAmendPlan, useRestorableSites, useRestorations, useSavePlan } from '../api/planner-api';
 import { FindingsPanel } from '../components/findings-panel';
-import { ackKey, emptySitePlan, initialPlan, liveFindings, type PlanState, stateFromRestoration, toBody } from '../components/plan-state';
+import {
+  ackKey,
+  emptySitePlan,
+  initialPlan,
+  liveFindings,
+  type PlanState,
+  stateFromRestoration,
+  toBody,
+} from '../components/plan-state';
 import { SitePlanFields } from '../components/site-plan-fields';
 import { DivergenceTable } from '../components/divergence-table';
 import { MATERIAL_LABEL, RESTORATION_KIND_LABEL as KIND_LABEL, RETENTION_LABEL } from '../../../lib/clinical-labels';
@@ -34,17 +62,40 @@ export function PlannerRoute() {
   const catalogue = useCatalogue();
   const restorations = useRestorations(patientId);
 
-  if (sites.isPending || catalogue.isPending || (amendId && restorations.isPending)) return <LoadingState label="Loading the planner" />;
-  if (sites.isError || catalogue.isError) return <ErrorState title="Could not load the planner" error={sites.error ?? catalogue.error} onRetry={() => { void sites.refetch(); void catalogue.refetch(); }} />;
-  const amending = amendId ? restorations.data?.items.find((r) => r.id === amendId && r.status === 'planned' && !r.supersededById) : undefined;
+  if (sites.isPending || catalogue.isPending || (amendId && restorations.isPending))
+    return <LoadingState label="Loading the planner" />;
+  if (sites.isError || catalogue.isError)
+    return (
+      <ErrorState
+        title="Could not load the planner"
+        error={sites.error ?? catalogue.error}
+        onRetry={() => {
+          void sites.refetch();
+          void catalogue.refetch();
+        }}
+      />
+    );
+  const amending = amendId
+    ? restorations.data?.items.find((r) => r.id === amendId && r.status === 'planned' && !r.supersededById)
+    : undefined;
   if (amendId && !amending) {
     return (
       <Callout intent="warning" title="This plan cannot be amended">
-        It was delivered or amended already: amend its current version. <Link to={`/patients/${patientId}/restorations`}>Back to the restorations</Link>
+        It was delivered or amended already: amend its current version.{' '}
+        <Link to={`/patients/${patientId}/restorations`}>Back to the restorations</Link>
       </Callout>
     );
   }
-  return <PlannerForm key={amendId ?? 'new'} patientId={patientId} patientName={patientName} restorable={sites.data.items} catalogue={catalogue.data} amending={amending} />;
+  return (
+    <PlannerForm
+      key={amendId ?? 'new'}
+      patientId={patientId}
+      patientName={patientName}
+      restorable={sites.data.items}
+      catalogue={catalogue.data}
+      amending={amending}
+    />
+  );
 }
 
 type PlanAmendmentParsed = z.output<typeof PlanAmendmentBody>;
@@ -60,7 +111,19 @@ interface PlannerDraft extends PlanState {
  * several choices reset others. Every edit retires the last submit's field messages, as the live
  * Findings speak for the new draft; the form's message stays until the next submit.
  */
-function PlannerForm({ patientId, patientName, restorable: all, catalogue, amending }: { patientId: string; patientName: string; restorable: RestorableSite[]; catalogue: CatalogueReply; amending?: RestorationDetail }) {
+function PlannerForm({
+  patientId,
+  patientName,
+  restorable: all,
+  catalogue,
+  amending,
+}: {
+  patientId: string;
+  patientName: string;
+  restorable: RestorableSite[];
+  catalogue: CatalogueReply;
+  amending?: RestorationDetail;
+}) {
   const navigate = useNavigate();
   const [system] = useToothSystem();
   const save = useSavePlan();
@@ -71,13 +134,20 @@ function PlannerForm({ patientId, patientName, restorable: all, catalogue, amend
     for (const s of catalogue.systems) for (const p of s.platforms) for (const c of p.components) map.set(c.id, c);
     return map;
   }, [catalogue]);
-  const restorable = useMemo(() => all.filter((s) => s.platformId && s.status !== 'failed' && s.status !== 'removed'), [all]);
+  const restorable = useMemo(
+    () => all.filter((s) => s.platformId && s.status !== 'failed' && s.status !== 'removed'),
+    [all],
+  );
 
   const schema = useMemo((): z.ZodType<PlanBodyParsed | PlanAmendmentParsed, PlannerDraft> => {
     // Only the warnings still raised are acknowledged (one acknowledged earlier may have gone).
     const planBody = (d: PlannerDraft) => {
       const { findings } = d.sites.length > 0 ? liveFindings(d, restorable, parts) : { findings: [] };
-      return toBody(patientId, { ...d, acknowledged: d.acknowledged.filter((k) => findings.some((f) => ackKey(f) === k)) }, parts);
+      return toBody(
+        patientId,
+        { ...d, acknowledged: d.acknowledged.filter((k) => findings.some((f) => ackKey(f) === k)) },
+        parts,
+      );
     };
     return amending
       ? draftSchema(PlanAmendmentBody, (d: PlannerDraft) => {
@@ -86,11 +156,15 @@ function PlannerForm({ patientId, patientName, restorable: all, catalogue, amend
         })
       : draftSchema(PlanBody, planBody);
   }, [amending, parts, patientId, restorable]);
-  const form = useContractForm(schema, { ...(amending ? stateFromRestoration(amending) : initialPlan), amendmentReason: '' });
+  const form = useContractForm(schema, {
+    ...(amending ? stateFromRestoration(amending) : initialPlan),
+    amendmentReason: '',
+  });
   const state = form.watch();
 
   const chosen = state.sites.map((p) => restorable.find((s) => s.siteId === p.siteId)!);
-  const { findings, invalid } = chosen.length > 0 ? liveFindings(state, restorable, parts) : { findings: [], invalid: {} };
+  const { findings, invalid } =
+    chosen.length > 0 ? liveFindings(state, restorable, parts) : { findings: [], invalid: {} };
   const fdis = chosen.map((s) => s.fdi);
   // Messages computed from the draft as it is now, shown beside their fields.
   const live: Record<string, string> = { ...invalid };
@@ -104,10 +178,20 @@ function PlannerForm({ patientId, patientName, restorable: all, catalogue, amend
     form.clearErrors(fieldErrors);
   };
   const toggleSite = (siteId: string, on: boolean) =>
-    update({ sites: on ? [...state.sites, emptySitePlan(siteId)].sort((a, b) => restorable.findIndex((s) => s.siteId === a.siteId) - restorable.findIndex((s) => s.siteId === b.siteId)) : state.sites.filter((s) => s.siteId !== siteId) });
+    update({
+      sites: on
+        ? [...state.sites, emptySitePlan(siteId)].sort(
+            (a, b) =>
+              restorable.findIndex((s) => s.siteId === a.siteId) - restorable.findIndex((s) => s.siteId === b.siteId),
+          )
+        : state.sites.filter((s) => s.siteId !== siteId),
+    });
 
   const submit = (body: PlanBodyParsed | PlanAmendmentParsed) => {
-    const saved = { onSuccess: () => navigate(`/patients/${patientId}/restorations`), onError: (error: Error) => applyServerErrors(form.setError, error) };
+    const saved = {
+      onSuccess: () => navigate(`/patients/${patientId}/restorations`),
+      onError: (error: Error) => applyServerErrors(form.setError, error),
+    };
     // The schema gives an amendment's body (with its reason) exactly when a saved plan is amended.
     if (!('amendmentReason' in body)) save.mutate(body, saved);
     else if (amending) amend.mutate({ id: amending.id, body }, saved);
@@ -118,34 +202,82 @@ function PlannerForm({ patientId, patientName, restorable: all, catalogue, amend
   return (
     <div className="planner-page">
       <title>Restoration planner · Torquetrail</title>
-      <BreadcrumbTrail items={[{ text: 'Patients', to: '/patients' }, { text: patientName, to: `/patients/${patientId}` }, { text: 'Restorations', to: `/patients/${patientId}/restorations` }, { text: 'New plan' }]} />
+      <BreadcrumbTrail
+        items={[
+          { text: 'Patients', to: '/patients' },
+          { text: patientName, to: `/patients/${patientId}` },
+          { text: 'Restorations', to: `/patients/${patientId}/restorations` },
+          { text: 'New plan' },
+        ]}
+      />
       <h1>{amending ? 'Amend the plan' : 'Restoration planner'}</h1>
-      {amending && <Callout intent="primary" compact>The saved plan stays in the record, marked as amended; this saves a new version.</Callout>}
+      {amending && (
+        <Callout intent="primary" compact>
+          The saved plan stays in the record, marked as amended; this saves a new version.
+        </Callout>
+      )}
       <FormProvider {...form}>
-        <form onSubmit={(event) => void form.handleSubmit(submit)(event)} className="planner" noValidate aria-label="Restoration plan">
+        <form
+          onSubmit={(event) => void form.handleSubmit(submit)(event)}
+          className="planner"
+          noValidate
+          aria-label="Restoration plan"
+        >
           <div className="planner__main">
             <fieldset className="planner-sites" data-testid="planner-sites">
               <legend>Sites</legend>
-              {restorable.length === 0 && <Callout intent="primary">This patient has no placed implant to restore.</Callout>}
+              {restorable.length === 0 && (
+                <Callout intent="primary">This patient has no placed implant to restore.</Callout>
+              )}
               {restorable.map((s) => (
-                <Checkbox key={s.siteId} inline label={`${formatTooth(s.fdi, system)} (${s.platformName})`} checked={state.sites.some((p) => p.siteId === s.siteId)} onChange={(e) => toggleSite(s.siteId, e.currentTarget.checked)} />
+                <Checkbox
+                  key={s.siteId}
+                  inline
+                  label={`${formatTooth(s.fdi, system)} (${s.platformName})`}
+                  checked={state.sites.some((p) => p.siteId === s.siteId)}
+                  onChange={(e) => toggleSite(s.siteId, e.currentTarget.checked)}
+                />
               ))}
               <FieldError as="p" {...field('sites')} className="planner-error" role="alert" />
             </fieldset>
             <div className="planner-grid">
               <FormField {...field('kind')} label="Restoration" labelFor="plan-kind">
-                <HTMLSelect id="plan-kind" value={state.kind} onChange={(e) => update({ kind: e.currentTarget.value as RestorationKind })}>
-                  {Object.entries(KIND_LABEL).map(([v, t]) => <option key={v} value={v}>{t}</option>)}
+                <HTMLSelect
+                  id="plan-kind"
+                  value={state.kind}
+                  onChange={(e) => update({ kind: e.currentTarget.value as RestorationKind })}
+                >
+                  {Object.entries(KIND_LABEL).map(([v, t]) => (
+                    <option key={v} value={v}>
+                      {t}
+                    </option>
+                  ))}
                 </HTMLSelect>
               </FormField>
               <FormField {...field('retention')} label="Retention" labelFor="plan-retention">
-                <HTMLSelect id="plan-retention" value={state.retention} onChange={(e) => update({ retention: e.currentTarget.value as Retention })}>
-                  {Object.entries(RETENTION_LABEL).map(([v, t]) => <option key={v} value={v}>{t}</option>)}
+                <HTMLSelect
+                  id="plan-retention"
+                  value={state.retention}
+                  onChange={(e) => update({ retention: e.currentTarget.value as Retention })}
+                >
+                  {Object.entries(RETENTION_LABEL).map(([v, t]) => (
+                    <option key={v} value={v}>
+                      {t}
+                    </option>
+                  ))}
                 </HTMLSelect>
               </FormField>
               <FormField {...field('material')} label="Material" labelFor="plan-material">
-                <HTMLSelect id="plan-material" value={state.material} onChange={(e) => update({ material: e.currentTarget.value as Material })}>
-                  {Object.entries(MATERIAL_LABEL).map(([v, t]) => <option key={v} value={v}>{t}</option>)}
+                <HTMLSelect
+                  id="plan-material"
+                  value={state.material}
+                  onChange={(e) => update({ material: e.currentTarget.value as Material })}
+                >
+                  {Object.entries(MATERIAL_LABEL).map(([v, t]) => (
+                    <option key={v} value={v}>
+                      {t}
+                    </option>
+                  ))}
                 </HTMLSelect>
               </FormField>
               <FormField {...field('shade')} label="Shade" labelFor="plan-shade">
@@ -153,7 +285,11 @@ function PlannerForm({ patientId, patientName, restorable: all, catalogue, amend
               </FormField>
             </div>
             <FormField {...field('copingsSplinted')}>
-              <Checkbox label="Impression copings splinted together before the impression" checked={state.copingsSplinted} onChange={(e) => update({ copingsSplinted: e.currentTarget.checked })} />
+              <Checkbox
+                label="Impression copings splinted together before the impression"
+                checked={state.copingsSplinted}
+                onChange={(e) => update({ copingsSplinted: e.currentTarget.checked })}
+              />
             </FormField>
             {state.sites.map((p, i) => (
               <SitePlanFields
@@ -173,34 +309,65 @@ function PlannerForm({ patientId, patientName, restorable: all, catalogue, amend
                 <InputGroup id="plan-lab" value={state.labName} onValueChange={(v) => update({ labName: v })} />
               </FormField>
               <FormField {...field('labEmail')} label="Laboratory e-mail" labelFor="plan-lab-email">
-                <InputGroup id="plan-lab-email" type="email" value={state.labEmail} onValueChange={(v) => update({ labEmail: v })} />
+                <InputGroup
+                  id="plan-lab-email"
+                  type="email"
+                  value={state.labEmail}
+                  onValueChange={(v) => update({ labEmail: v })}
+                />
               </FormField>
               <FormField {...field('dueOn')} label="Due date" labelFor="plan-due">
                 <InputGroup id="plan-due" type="date" value={state.dueOn} onValueChange={(v) => update({ dueOn: v })} />
               </FormField>
             </div>
             <FormField {...field('notes')} label="Notes for the laboratory" labelFor="plan-notes">
-              <TextArea id="plan-notes" value={state.notes} onChange={(e) => update({ notes: e.currentTarget.value })} fill />
+              <TextArea
+                id="plan-notes"
+                value={state.notes}
+                onChange={(e) => update({ notes: e.currentTarget.value })}
+                fill
+              />
             </FormField>
           </div>
           <aside className="planner__side">
-            <FindingsPanel findings={findings} acknowledged={state.acknowledged} onAcknowledge={(k, on) => update({ acknowledged: on ? [...state.acknowledged, k] : state.acknowledged.filter((x) => x !== k) })} />
+            <FindingsPanel
+              findings={findings}
+              acknowledged={state.acknowledged}
+              onAcknowledge={(k, on) =>
+                update({ acknowledged: on ? [...state.acknowledged, k] : state.acknowledged.filter((x) => x !== k) })
+              }
+            />
             <DivergenceTable
               system={system}
               axes={state.sites.map((p, i) => {
-                const typed = p.axis.every((v) => v.trim() !== '') ? (p.axis.map(Number) as [number, number, number]) : null;
+                const typed = p.axis.every((v) => v.trim() !== '')
+                  ? (p.axis.map(Number) as [number, number, number])
+                  : null;
                 return { fdi: chosen[i].fdi, axis: typed ?? chosen[i].axis };
               })}
             />
-            <Callout intent="warning" icon="info-sign" compact className="planner-caution">{catalogue.caution}</Callout>
-            {formError && <Callout intent="danger" role="alert" compact data-testid="plan-error">{formError}</Callout>}
+            <Callout intent="warning" icon="info-sign" compact className="planner-caution">
+              {catalogue.caution}
+            </Callout>
+            {formError && (
+              <Callout intent="danger" role="alert" compact data-testid="plan-error">
+                {formError}
+              </Callout>
+            )}
             {amending && (
               <FormField {...field('amendmentReason')} label="Reason for the amendment" labelFor="plan-amend-reason">
                 <InputGroup id="plan-amend-reason" {...withInputRef(form.register('amendmentReason'))} />
               </FormField>
             )}
             <div className="planner__actions">
-              <Button type="submit" intent="primary" text={amending ? 'Save amendment' : 'Save plan'} loading={save.isPending || amend.isPending} disabled={hasErrors || state.sites.length === 0 || unacknowledged.length > 0} data-testid="save-plan" />
+              <Button
+                type="submit"
+                intent="primary"
+                text={amending ? 'Save amendment' : 'Save plan'}
+                loading={save.isPending || amend.isPending}
+                disabled={hasErrors || state.sites.length === 0 || unacknowledged.length > 0}
+                data-testid="save-plan"
+              />
               <Link to={`/patients/${patientId}/restorations`}>Cancel</Link>
             </div>
             {hasErrors && <p className="muted">Errors block saving: fix them first.</p>}

@@ -18,15 +18,28 @@ export function RestorationsRoute() {
   const [system] = useToothSystem();
   const list = useRestorations(patientId);
   if (list.isPending) return <LoadingState label="Loading restorations" />;
-  if (list.isError) return <ErrorState title="Could not load the restorations" error={list.error} onRetry={() => void list.refetch()} />;
+  if (list.isError)
+    return (
+      <ErrorState title="Could not load the restorations" error={list.error} onRetry={() => void list.refetch()} />
+    );
   return (
     <div className="restorations-page">
       <title>Restorations · Torquetrail</title>
-      <BreadcrumbTrail items={[{ text: 'Patients', to: '/patients' }, { text: patientName, to: `/patients/${patientId}` }, { text: 'Restorations' }]} />
+      <BreadcrumbTrail
+        items={[
+          { text: 'Patients', to: '/patients' },
+          { text: patientName, to: `/patients/${patientId}` },
+          { text: 'Restorations' },
+        ]}
+      />
       <div className="section-heading">
         <h1>Restorations</h1>
         <Can I="create" a="Restoration">
-          <Link className={`${Classes.BUTTON} ${Classes.INTENT_PRIMARY}`} to={`/patients/${patientId}/restorations/new`} data-testid="new-plan">
+          <Link
+            className={`${Classes.BUTTON} ${Classes.INTENT_PRIMARY}`}
+            to={`/patients/${patientId}/restorations/new`}
+            data-testid="new-plan"
+          >
             New plan
           </Link>
         </Can>
@@ -34,7 +47,9 @@ export function RestorationsRoute() {
       {list.data.items.length === 0 ? (
         <NonIdealState icon="clipboard" title="No restorations yet" />
       ) : (
-        list.data.items.map((r) => <RestorationPanel key={r.id} restoration={r} system={system} patientId={patientId} />)
+        list.data.items.map((r) => (
+          <RestorationPanel key={r.id} restoration={r} system={system} patientId={patientId} />
+        ))
       )}
     </div>
   );

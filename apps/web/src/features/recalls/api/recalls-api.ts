@@ -39,21 +39,27 @@ export const useRecallDesk = (params: DeskParams) => useQuery(deskQueryOptions(p
 const examContextQueryOptions = (patientId: string) =>
   queryOptions({
     queryKey: recallKeys.examContext(patientId),
-    queryFn: ({ signal }) => apiRequest(`/api/recalls/patients/${encodeURIComponent(patientId)}/exam-context`, { schema: ExamContext, signal }),
+    queryFn: ({ signal }) =>
+      apiRequest(`/api/recalls/patients/${encodeURIComponent(patientId)}/exam-context`, {
+        schema: ExamContext,
+        signal,
+      }),
   });
 export const useExamContext = (patientId: string) => useQuery(examContextQueryOptions(patientId));
 
 const siteExamsQueryOptions = (siteId: string) =>
   queryOptions({
     queryKey: recallKeys.siteExams(siteId),
-    queryFn: ({ signal }) => apiRequest(`/api/recalls/sites/${encodeURIComponent(siteId)}/exams`, { schema: SiteExamHistory, signal }),
+    queryFn: ({ signal }) =>
+      apiRequest(`/api/recalls/sites/${encodeURIComponent(siteId)}/exams`, { schema: SiteExamHistory, signal }),
   });
 export const useSiteExams = (siteId: string) => useQuery(siteExamsQueryOptions(siteId));
 
 export function useCreateVisit() {
   const client = useQueryClient();
   return useMutation({
-    mutationFn: (body: CreateVisitBody) => apiRequest('/api/recalls/visits', { method: 'POST', body, schema: CreateVisitReply }),
+    mutationFn: (body: CreateVisitBody) =>
+      apiRequest('/api/recalls/visits', { method: 'POST', body, schema: CreateVisitReply }),
     onSuccess: () => {
       void client.invalidateQueries({ queryKey: recallKeys.all });
       void client.invalidateQueries({ queryKey: patientKeys.all });
@@ -63,19 +69,26 @@ export function useCreateVisit() {
 }
 
 const policyQueryOptions = () =>
-  queryOptions({ queryKey: recallKeys.policy(), queryFn: ({ signal }) => apiRequest('/api/recalls/policy', { schema: RecallPolicyReply, signal }) });
+  queryOptions({
+    queryKey: recallKeys.policy(),
+    queryFn: ({ signal }) => apiRequest('/api/recalls/policy', { schema: RecallPolicyReply, signal }),
+  });
 export const useRecallPolicy = () => useQuery(policyQueryOptions());
 
 export function useUpdatePolicy() {
   const client = useQueryClient();
   return useMutation({
-    mutationFn: (body: RecallPolicyBody) => apiRequest('/api/recalls/policy', { method: 'PUT', body, schema: RecallPolicyReply }),
+    mutationFn: (body: RecallPolicyBody) =>
+      apiRequest('/api/recalls/policy', { method: 'PUT', body, schema: RecallPolicyReply }),
     onSuccess: (data) => client.setQueryData(recallKeys.policy(), data),
   });
 }
 
 const reminderLogQueryOptions = () =>
-  queryOptions({ queryKey: recallKeys.reminders(), queryFn: ({ signal }) => apiRequest('/api/recalls/reminders', { schema: ReminderLogReply, signal }) });
+  queryOptions({
+    queryKey: recallKeys.reminders(),
+    queryFn: ({ signal }) => apiRequest('/api/recalls/reminders', { schema: ReminderLogReply, signal }),
+  });
 export const useReminderLog = () => useQuery(reminderLogQueryOptions());
 
 export function useRunReminders() {
@@ -94,7 +107,11 @@ export function useAmendExam() {
   const client = useQueryClient();
   return useMutation({
     mutationFn: ({ examId, body }: { examId: string; body: AmendExamBody }) =>
-      apiRequest(`/api/recalls/exams/${encodeURIComponent(examId)}/amend`, { method: 'POST', body, schema: RecallExam }),
+      apiRequest(`/api/recalls/exams/${encodeURIComponent(examId)}/amend`, {
+        method: 'POST',
+        body,
+        schema: RecallExam,
+      }),
     onSuccess: () => {
       void client.invalidateQueries({ queryKey: recallKeys.all });
       void client.invalidateQueries({ queryKey: patientKeys.all });

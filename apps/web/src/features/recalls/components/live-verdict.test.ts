@@ -3,12 +3,18 @@
 import { describe, expect, it } from 'vitest';
 import { depthProblem, draftFromExam, emptyDraft, liveVerdict, parseMm } from './live-verdict';
 
-const filled = (depths: string[], bop: number[] = []) => ({ ...emptyDraft(), depths, bop: depths.map((_, i) => bop.includes(i)) });
+const filled = (depths: string[], bop: number[] = []) => ({
+  ...emptyDraft(),
+  depths,
+  bop: depths.map((_, i) => bop.includes(i)),
+});
 
 describe('live verdict of the exam form', () => {
   it('waits for all six depths', () => {
     expect(liveVerdict(emptyDraft(), null)).toEqual({ state: 'incomplete', message: 'Enter the six probing depths' });
-    expect(liveVerdict(filled(['3', '3', '3', '3', '3', '']), null)).toMatchObject({ message: 'Enter 1 more probing depth' });
+    expect(liveVerdict(filled(['3', '3', '3', '3', '3', '']), null)).toMatchObject({
+      message: 'Enter 1 more probing depth',
+    });
   });
   it('accepts 0.5 mm steps and a decimal comma; rejects 3.3 and 16 (contract: 0–15 mm, 0.5 mm steps)', () => {
     expect(parseMm('3,5')).toBe(3.5);
@@ -23,7 +29,15 @@ describe('live verdict of the exam form', () => {
     expect(v.state === 'ready' && v.result.flags).toContain('peri-implantitis-not-excluded-without-baseline');
   });
   it('uses a baseline with a bone level, unless the exam itself is marked as baseline', () => {
-    const baseline = { sites: [3, 3, 3, 3, 3, 3].map((pd) => ({ position: 'buccal' as const, probingDepthMm: pd, bleeding: false, suppuration: false })), boneLevelMm: 1 } as never;
+    const baseline = {
+      sites: [3, 3, 3, 3, 3, 3].map((pd) => ({
+        position: 'buccal' as const,
+        probingDepthMm: pd,
+        bleeding: false,
+        suppuration: false,
+      })),
+      boneLevelMm: 1,
+    } as never;
     const draft = { ...filled(['5', '3', '3', '3', '3', '3'], [0]), boneLevelMm: '2' };
     const v = liveVerdict(draft, baseline);
     expect(v.state === 'ready' && [v.result.status, v.usedBaseline]).toEqual(['peri-implantitis', true]);
@@ -37,12 +51,31 @@ describe('an amendment starts from the saved exam', () => {
     const positions = ['lingual', 'mesiobuccal', 'distolingual', 'buccal', 'mesiolingual', 'distobuccal'] as const;
     const depth = { mesiobuccal: 1, buccal: 2, distobuccal: 3, mesiolingual: 4, lingual: 5, distolingual: 6 };
     const exam = {
-      sites: positions.map((position) => ({ position, probingDepthMm: depth[position], bleeding: position === 'buccal', suppuration: false })),
-      mobility: false, plaqueIndex: 1, bleedingIndex: null, keratinizedMucosaMm: 2.5, residualCement: true, boneLevelMm: null, isBaseline: false, notes: null,
+      sites: positions.map((position) => ({
+        position,
+        probingDepthMm: depth[position],
+        bleeding: position === 'buccal',
+        suppuration: false,
+      })),
+      mobility: false,
+      plaqueIndex: 1,
+      bleedingIndex: null,
+      keratinizedMucosaMm: 2.5,
+      residualCement: true,
+      boneLevelMm: null,
+      isBaseline: false,
+      notes: null,
     } as never;
     const draft = draftFromExam(exam);
     expect(draft.depths).toEqual(['1', '2', '3', '4', '5', '6']);
     expect(draft.bop).toEqual([false, true, false, false, false, false]);
-    expect([draft.plaqueIndex, draft.bleedingIndex, draft.keratinizedMucosaMm, draft.boneLevelMm, draft.notes, draft.residualCement]).toEqual(['1', '', '2.5', '', '', true]);
+    expect([
+      draft.plaqueIndex,
+      draft.bleedingIndex,
+      draft.keratinizedMucosaMm,
+      draft.boneLevelMm,
+      draft.notes,
+      draft.residualCement,
+    ]).toEqual(['1', '', '2.5', '', '', true]);
   });
 });

@@ -2,7 +2,12 @@
 // (2017 World Workshop case definitions, Berglundh et al. 2018 consensus report), fed the baseline
 // the API chose (sent in the exam context) through the same domain hand-over. The server recomputes it.
 import { ProbingDepthMm, PROBING_POSITIONS, type RecallExam } from '@torquetrail/contracts';
-import { classifyPeriImplant, type PeriImplantResult, toPeriImplantBaseline, toPeriImplantExam } from '@torquetrail/domain';
+import {
+  classifyPeriImplant,
+  type PeriImplantResult,
+  toPeriImplantBaseline,
+  toPeriImplantExam,
+} from '@torquetrail/domain';
 
 export interface SiteDraft {
   include: boolean;
@@ -50,18 +55,33 @@ export function depthProblem(text: string): string | null {
   return parsed.success ? null : (parsed.error.issues[0]?.message ?? 'not valid');
 }
 
-export type LiveVerdict = { state: 'incomplete'; message: string } | { state: 'ready'; result: PeriImplantResult; usedBaseline: boolean };
+export type LiveVerdict =
+  | { state: 'incomplete'; message: string }
+  | { state: 'ready'; result: PeriImplantResult; usedBaseline: boolean };
 
 export function liveVerdict(draft: SiteDraft, baseline: RecallExam | null): LiveVerdict {
   const depths = draft.depths.map(parseMm);
   const missing = depths.filter((d) => d === undefined).length;
-  if (missing > 0) return { state: 'incomplete', message: missing === 6 ? 'Enter the six probing depths' : `Enter ${missing} more probing ${missing === 1 ? 'depth' : 'depths'}` };
-  if (draft.depths.some((d) => depthProblem(d) !== null)) return { state: 'incomplete', message: 'Correct the probing depths' };
+  if (missing > 0)
+    return {
+      state: 'incomplete',
+      message:
+        missing === 6
+          ? 'Enter the six probing depths'
+          : `Enter ${missing} more probing ${missing === 1 ? 'depth' : 'depths'}`,
+    };
+  if (draft.depths.some((d) => depthProblem(d) !== null))
+    return { state: 'incomplete', message: 'Correct the probing depths' };
   const bone = parseMm(draft.boneLevelMm);
   const periImplantBaseline = toPeriImplantBaseline(draft, baseline);
   const result = classifyPeriImplant(
     toPeriImplantExam({
-      sites: PROBING_POSITIONS.map((position, i) => ({ position, probingDepthMm: depths[i]!, bleeding: draft.bop[i], suppuration: draft.sup[i] })),
+      sites: PROBING_POSITIONS.map((position, i) => ({
+        position,
+        probingDepthMm: depths[i]!,
+        bleeding: draft.bop[i],
+        suppuration: draft.sup[i],
+      })),
       boneLevelMm: bone ?? null,
     }),
     periImplantBaseline,

@@ -50,7 +50,15 @@ export function ProbingDepthChart({ siteId }: { siteId: string }) {
                   isAnimationActive={false}
                   dot={<StatusDot />}
                 />
-                <Line type="monotone" dataKey="mean" name="Mean of six sites" stroke="#8a9ba8" strokeDasharray="4 3" dot={false} isAnimationActive={false} />
+                <Line
+                  type="monotone"
+                  dataKey="mean"
+                  name="Mean of six sites"
+                  stroke="#8a9ba8"
+                  strokeDasharray="4 3"
+                  dot={false}
+                  isAnimationActive={false}
+                />
               </LineChart>
             </ResponsiveContainer>
           </div>

@@ -124,7 +124,12 @@ export function SiteExamCard({
               </tbody>
             </table>
             {PROBING_POSITIONS.map((p, i) => (
-              <DepthError key={p} position={p} typed={draft.depths[i]} path={`${errorPrefix}sites.${i}.probingDepthMm`} />
+              <DepthError
+                key={p}
+                position={p}
+                typed={draft.depths[i]}
+                path={`${errorPrefix}sites.${i}.probingDepthMm`}
+              />
             ))}
             <div className="exam-site__fields">
               <Checkbox label="Mobility" {...withInputRef(field('mobility'))} />

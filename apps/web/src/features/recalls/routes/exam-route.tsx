@@ -1,6 +1,13 @@
 import '../components/recalls.css';
 import { Button, Callout, InputGroup, NonIdealState, TextArea } from '@blueprintjs/core';
-import { AmendExamBody, CreateVisitBody, PROBING_POSITIONS, type CreateVisitReply, type ExamContext, type RecallExam } from '@torquetrail/contracts';
+import {
+  AmendExamBody,
+  CreateVisitBody,
+  PROBING_POSITIONS,
+  type CreateVisitReply,
+  type ExamContext,
+  type RecallExam,
+} from '@torquetrail/contracts';
 import { useMemo, useState } from 'react';
 import { FormProvider, useWatch } from 'react-hook-form';
 import { Link, useParams } from 'react-router-dom';
@@ -10,7 +17,14 @@ import { BreadcrumbTrail } from '../../../lib/components/breadcrumb-trail';
 import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
 import { formatLongDate } from '../../../lib/dates';
-import { applyServerErrors, draftSchema, FormField, formErrorMessage, useContractForm, withInputRef } from '../../../lib/forms';
+import {
+  applyServerErrors,
+  draftSchema,
+  FormField,
+  formErrorMessage,
+  useContractForm,
+  withInputRef,
+} from '../../../lib/forms';
 import { MAINTENANCE_NOTE } from '../../../lib/labels';
 import { MaintenanceStatusLabel } from '../../../lib/maintenance-status';
 import { useAmendExam, useCreateVisit, useExamContext } from '../api/recalls-api';
@@ -23,7 +37,12 @@ const num = (text: string) => (text.trim() === '' ? null : (parseMm(text) ?? Num
 /** The form's draft as the contract's exam input (the server validates and classifies). */
 function toExamInput(d: SiteDraft) {
   return {
-    sites: PROBING_POSITIONS.map((position, i) => ({ position, probingDepthMm: num(d.depths[i]) ?? Number.NaN, bleeding: d.bop[i], suppuration: d.sup[i] })),
+    sites: PROBING_POSITIONS.map((position, i) => ({
+      position,
+      probingDepthMm: num(d.depths[i]) ?? Number.NaN,
+      bleeding: d.bop[i],
+      suppuration: d.sup[i],
+    })),
     mobility: d.mobility,
     plaqueIndex: d.plaqueIndex === '' ? null : Number(d.plaqueIndex),
     bleedingIndex: d.bleedingIndex === '' ? null : Number(d.bleedingIndex),
@@ -48,7 +67,14 @@ export function ExamRoute() {
   const { patientId = '' } = useParams();
   const context = useExamContext(patientId);
   if (context.isPending) return <LoadingState label="Loading the exam form" />;
-  if (context.isError) return <ErrorState title={isApiError(context.error, 404) ? 'Patient not found' : 'Could not load the exam form'} error={context.error} onRetry={() => void context.refetch()} />;
+  if (context.isError)
+    return (
+      <ErrorState
+        title={isApiError(context.error, 404) ? 'Patient not found' : 'Could not load the exam form'}
+        error={context.error}
+        onRetry={() => void context.refetch()}
+      />
+    );
   return <ExamVisit data={context.data} />;
 }
 
@@ -66,31 +92,47 @@ function ExamVisit({ data }: { data: ExamContext }) {
       draftSchema(CreateVisitBody, (d: VisitDraft) => ({
         patientId: data.patient.id,
         examinedOn: d.examinedOn,
-        exams: sites.filter((s) => d.drafts[s.siteId]?.include).map((s) => ({ siteId: s.siteId, ...toExamInput(d.drafts[s.siteId]) })),
+        exams: sites
+          .filter((s) => d.drafts[s.siteId]?.include)
+          .map((s) => ({ siteId: s.siteId, ...toExamInput(d.drafts[s.siteId]) })),
       })),
     [data.patient.id, sites],
   );
-  const form = useContractForm(schema, { examinedOn: data.today, drafts: Object.fromEntries(sites.map((s) => [s.siteId, emptyDraft()])) });
+  const form = useContractForm(schema, {
+    examinedOn: data.today,
+    drafts: Object.fromEntries(sites.map((s) => [s.siteId, emptyDraft()])),
+  });
   const drafts = useWatch({ control: form.control, name: 'drafts' });
   const included = sites.filter((s) => drafts[s.siteId]?.include);
   // The contract numbers the exams of the visit: the n-th implant included is `exams.<n>`.
   const errorPrefix = (siteId: string) => `exams.${included.findIndex((s) => s.siteId === siteId)}.`;
 
-  const submit = (body: CreateVisitBody) => save.mutate(body, { onSuccess: (reply) => setSaved(reply), onError: (error) => applyServerErrors(form.setError, error) });
+  const submit = (body: CreateVisitBody) =>
+    save.mutate(body, {
+      onSuccess: (reply) => setSaved(reply),
+      onError: (error) => applyServerErrors(form.setError, error),
+    });
   const formError = formErrorMessage(form.formState.errors, 'always');
 
   return (
     <div className="exam-visit">
       <title>{`Recall exam · ${data.patient.name} · Torquetrail`}</title>
-      <BreadcrumbTrail items={[{ text: 'Recall desk', to: '/recalls' }, { text: data.patient.name, to: `/patients/${data.patient.id}` }, { text: 'Recall exam' }]} />
+      <BreadcrumbTrail
+        items={[
+          { text: 'Recall desk', to: '/recalls' },
+          { text: data.patient.name, to: `/patients/${data.patient.id}` },
+          { text: 'Recall exam' },
+        ]}
+      />
       <h1 className="page-title">Recall exam · {data.patient.name}</h1>
       <Callout intent="primary" icon="info-sign" compact>
         {MAINTENANCE_NOTE} <CaseDefinitions />
       </Callout>
       {amended && (
         <Callout intent="success" title="Amendment saved" data-testid="exam-amended" style={{ marginTop: 12 }}>
-          {amended.fdi}, exam of {formatLongDate(amended.examinedOn)}: <MaintenanceStatusLabel status={amended.status} /> (recomputed on the server). The
-          earlier version stays in the record, marked as amended.
+          {amended.fdi}, exam of {formatLongDate(amended.examinedOn)}:{' '}
+          <MaintenanceStatusLabel status={amended.status} /> (recomputed on the server). The earlier version stays in
+          the record, marked as amended.
         </Callout>
       )}
       {amending ? (
@@ -113,17 +155,28 @@ function ExamVisit({ data }: { data: ExamContext }) {
             ))}
           </ul>
           <p>
-            Next recall: <strong>{formatLongDate(saved.nextRecall.dueOn)}</strong> ({saved.nextRecall.intervalMonths} months)
+            Next recall: <strong>{formatLongDate(saved.nextRecall.dueOn)}</strong> ({saved.nextRecall.intervalMonths}{' '}
+            months)
           </p>
-          <Link to="/recalls">Back to the Recall desk</Link> · <Link to={`/patients/${data.patient.id}`}>Arch of {data.patient.name}</Link>
+          <Link to="/recalls">Back to the Recall desk</Link> ·{' '}
+          <Link to={`/patients/${data.patient.id}`}>Arch of {data.patient.name}</Link>
         </Callout>
       ) : sites.length === 0 ? (
-        <NonIdealState icon="disable" title="No implant to examine" description="Only placed or restored implants are examined." />
+        <NonIdealState
+          icon="disable"
+          title="No implant to examine"
+          description="Only placed or restored implants are examined."
+        />
       ) : (
         <FormProvider {...form}>
           <div className="exam-visit__header">
             <FormField name="examinedOn" label="Examined on" labelFor="examined-on">
-              <InputGroup id="examined-on" type="date" max={data.today} {...withInputRef(form.register('examinedOn'))} />
+              <InputGroup
+                id="examined-on"
+                type="date"
+                max={data.today}
+                {...withInputRef(form.register('examinedOn'))}
+              />
             </FormField>
           </div>
           {sites.map((s) => (
@@ -132,7 +185,9 @@ function ExamVisit({ data }: { data: ExamContext }) {
               site={s}
               name={`drafts.${s.siteId}`}
               errorPrefix={errorPrefix(s.siteId)}
-              onAmendPrevious={mayAmend && s.previous ? () => setAmending({ siteId: s.siteId, exam: s.previous! }) : undefined}
+              onAmendPrevious={
+                mayAmend && s.previous ? () => setAmending({ siteId: s.siteId, exam: s.previous! }) : undefined
+              }
             />
           ))}
           {formError && (
@@ -141,7 +196,14 @@ function ExamVisit({ data }: { data: ExamContext }) {
             </Callout>
           )}
           {/* Not a <form>: Enter in a probing cell must not save the visit half typed. */}
-          <Button intent="primary" icon="floppy-disk" loading={save.isPending} disabled={included.length === 0} onClick={() => void form.handleSubmit(submit)()} style={{ marginTop: 12 }}>
+          <Button
+            intent="primary"
+            icon="floppy-disk"
+            loading={save.isPending}
+            disabled={included.length === 0}
+            onClick={() => void form.handleSubmit(submit)()}
+            style={{ marginTop: 12 }}
+          >
             Save exam
           </Button>
         </FormProvider>
@@ -155,13 +217,30 @@ interface AmendDraft {
   amendmentReason: string;
 }
 
-const amendSchema = draftSchema(AmendExamBody, (d: AmendDraft) => ({ ...toExamInput(d.draft), amendmentReason: d.amendmentReason }));
+const amendSchema = draftSchema(AmendExamBody, (d: AmendDraft) => ({
+  ...toExamInput(d.draft),
+  amendmentReason: d.amendmentReason,
+}));
 
 /** An amendment of one earlier exam: its values to correct, and why. */
-function AmendForm({ site, exam, onCancel, onSaved }: { site: Site; exam: RecallExam; onCancel: () => void; onSaved: (exam: RecallExam) => void }) {
+function AmendForm({
+  site,
+  exam,
+  onCancel,
+  onSaved,
+}: {
+  site: Site;
+  exam: RecallExam;
+  onCancel: () => void;
+  onSaved: (exam: RecallExam) => void;
+}) {
   const amendSave = useAmendExam();
   const form = useContractForm(amendSchema, { draft: draftFromExam(exam), amendmentReason: '' });
-  const submit = (body: AmendExamBody) => amendSave.mutate({ examId: exam.id, body }, { onSuccess: onSaved, onError: (error) => applyServerErrors(form.setError, error) });
+  const submit = (body: AmendExamBody) =>
+    amendSave.mutate(
+      { examId: exam.id, body },
+      { onSuccess: onSaved, onError: (error) => applyServerErrors(form.setError, error) },
+    );
   const formError = formErrorMessage(form.formState.errors, 'alone');
   return (
     <FormProvider {...form}>
@@ -170,7 +249,12 @@ function AmendForm({ site, exam, onCancel, onSaved }: { site: Site; exam: Recall
           Amend the exam of {formatLongDate(exam.examinedOn)} at {site.fdi}
         </h2>
         {/* The exam being amended is never its own baseline (the server excludes it too). */}
-        <SiteExamCard site={site.baseline?.id === exam.id ? { ...site, baseline: null } : site} name="draft" errorPrefix="" amending />
+        <SiteExamCard
+          site={site.baseline?.id === exam.id ? { ...site, baseline: null } : site}
+          name="draft"
+          errorPrefix=""
+          amending
+        />
         <FormField name="amendmentReason" label="Why is it amended?" labelFor="amend-reason">
           <TextArea id="amend-reason" fill {...withInputRef(form.register('amendmentReason'))} />
         </FormField>
@@ -179,7 +263,12 @@ function AmendForm({ site, exam, onCancel, onSaved }: { site: Site; exam: Recall
             {formError}
           </Callout>
         )}
-        <Button intent="primary" icon="floppy-disk" loading={amendSave.isPending} onClick={() => void form.handleSubmit(submit)()}>
+        <Button
+          intent="primary"
+          icon="floppy-disk"
+          loading={amendSave.isPending}
+          onClick={() => void form.handleSubmit(submit)()}
+        >
           Save amendment
         </Button>{' '}
         <Button onClick={onCancel}>Cancel</Button>

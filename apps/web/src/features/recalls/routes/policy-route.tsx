@@ -1,7 +1,13 @@
 import '../components/recalls.css';
 import { Button, Callout } from '@blueprintjs/core';
 import { RecallPolicyBody, type RecallPolicyReply } from '@torquetrail/contracts';
-import { DEFAULT_OVERDUE_REMINDER_DAYS_AFTER, DEFAULT_RECALL_MONTHS, DEFAULT_REMINDER_DAYS_BEFORE, DEFAULT_RISK_RECALL_MONTHS, RECALL_RISK_FACTORS } from '@torquetrail/domain';
+import {
+  DEFAULT_OVERDUE_REMINDER_DAYS_AFTER,
+  DEFAULT_RECALL_MONTHS,
+  DEFAULT_REMINDER_DAYS_BEFORE,
+  DEFAULT_RISK_RECALL_MONTHS,
+  RECALL_RISK_FACTORS,
+} from '@torquetrail/domain';
 import { FormProvider } from 'react-hook-form';
 import { Can } from '../../../lib/ability';
 import { BreadcrumbTrail } from '../../../lib/components/breadcrumb-trail';
@@ -11,28 +17,48 @@ import { LoadingState } from '../../../lib/components/loading-state';
 import { applyServerErrors, FormField, formErrorMessage, NumberInput, useContractForm } from '../../../lib/forms';
 import { useRecallPolicy, useUpdatePolicy } from '../api/recalls-api';
 
-const riskFactors = RECALL_RISK_FACTORS.map((factor, i) => (i === 0 ? RISK_FACTOR_LABEL[factor] : RISK_FACTOR_LABEL[factor].toLowerCase())).join(', ');
+const riskFactors = RECALL_RISK_FACTORS.map((factor, i) =>
+  i === 0 ? RISK_FACTOR_LABEL[factor] : RISK_FACTOR_LABEL[factor].toLowerCase(),
+).join(', ');
 
 const FIELDS: { key: keyof RecallPolicyBody; label: string; help: string }[] = [
-  { key: 'baseMonths', label: 'Recall interval (months)', help: `Without risk factors. Default ${DEFAULT_RECALL_MONTHS}.` },
-  { key: 'riskMonths', label: 'Interval with risk factors (months)', help: `${riskFactors}. Default ${DEFAULT_RISK_RECALL_MONTHS}.` },
-  { key: 'reminderDaysBefore', label: 'Reminder, days before the recall', help: `Default ${DEFAULT_REMINDER_DAYS_BEFORE}.` },
-  { key: 'overdueReminderDaysAfter', label: 'Overdue reminder, days after', help: `Default ${DEFAULT_OVERDUE_REMINDER_DAYS_AFTER}.` },
+  {
+    key: 'baseMonths',
+    label: 'Recall interval (months)',
+    help: `Without risk factors. Default ${DEFAULT_RECALL_MONTHS}.`,
+  },
+  {
+    key: 'riskMonths',
+    label: 'Interval with risk factors (months)',
+    help: `${riskFactors}. Default ${DEFAULT_RISK_RECALL_MONTHS}.`,
+  },
+  {
+    key: 'reminderDaysBefore',
+    label: 'Reminder, days before the recall',
+    help: `Default ${DEFAULT_REMINDER_DAYS_BEFORE}.`,
+  },
+  {
+    key: 'overdueReminderDaysAfter',
+    label: 'Overdue reminder, days after',
+    help: `Default ${DEFAULT_OVERDUE_REMINDER_DAYS_AFTER}.`,
+  },
 ];
 
 /** /recalls/policy: the practice's recall intervals and reminder timing (practice admin edits). */
 export function PolicyRoute() {
   const policy = useRecallPolicy();
   if (policy.isPending) return <LoadingState label="Loading the recall policy" />;
-  if (policy.isError) return <ErrorState title="Could not load the policy" error={policy.error} onRetry={() => void policy.refetch()} />;
+  if (policy.isError)
+    return <ErrorState title="Could not load the policy" error={policy.error} onRetry={() => void policy.refetch()} />;
   return (
     <div className="recall-policy">
       <title>Recall policy · Torquetrail</title>
       <BreadcrumbTrail items={[{ text: 'Recall desk', to: '/recalls' }, { text: 'Recall policy' }]} />
       <h1 className="page-title">Recall policy</h1>
       <p>
-        No published algorithm fixes the interval; this is the practice&apos;s policy (examine at least every 6 months, more often at higher
-        risk: Herrera et al. 2023, EFP S3 guideline). {policy.data.isDefault ? 'The defaults are in use.' : ''}
+        No published algorithm fixes the interval; this is the practice&apos;s policy (examine at least every 6 months,
+        more often at higher risk: Herrera et al. 2023, EFP S3 guideline).{' '}
+        {policy.data.isDefault ? 'The defaults are in use.' : ''}
       </p>
       <PolicyForm policy={policy.data} />
     </div>
@@ -48,7 +74,8 @@ function PolicyForm({ policy }: { policy: RecallPolicyReply }) {
     reminderDaysBefore: policy.reminderDaysBefore,
     overdueReminderDaysAfter: policy.overdueReminderDaysAfter,
   });
-  const submit = (body: RecallPolicyBody) => update.mutate(body, { onError: (error) => applyServerErrors(form.setError, error) });
+  const submit = (body: RecallPolicyBody) =>
+    update.mutate(body, { onError: (error) => applyServerErrors(form.setError, error) });
   const formError = formErrorMessage(form.formState.errors, 'alone');
   return (
     <FormProvider {...form}>

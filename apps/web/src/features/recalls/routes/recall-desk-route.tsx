@@ -1,5 +1,14 @@
 import '../components/recalls.css';
-import { AnchorButton, Button, FormGroup, HTMLSelect, HTMLTable, InputGroup, NonIdealState, Tag } from '@blueprintjs/core';
+import {
+  AnchorButton,
+  Button,
+  FormGroup,
+  HTMLSelect,
+  HTMLTable,
+  InputGroup,
+  NonIdealState,
+  Tag,
+} from '@blueprintjs/core';
 import { DESK_FILTERS, type RecallDeskQuery, type RecallDeskRow } from '@torquetrail/contracts';
 import { RECALL_RISK_FACTORS } from '@torquetrail/domain';
 import { Link, useSearchParams } from 'react-router-dom';
@@ -16,13 +25,16 @@ import { deskSearch, useRecallDesk } from '../api/recalls-api';
 type Sort = RecallDeskQuery['sort'];
 const PAGE_SIZE = 50;
 
-const riskText = (r: RecallDeskRow['riskFactors']) => RECALL_RISK_FACTORS.filter((factor) => r[factor]).map((factor) => RISK_FACTOR_LABEL[factor]);
+const riskText = (r: RecallDeskRow['riskFactors']) =>
+  RECALL_RISK_FACTORS.filter((factor) => r[factor]).map((factor) => RISK_FACTOR_LABEL[factor]);
 
 /** /recalls: the hygienist's work list — next recall, overdue days, last status per implant, risk factors. */
 export function RecallDeskRoute() {
   const [url, setUrl] = useSearchParams();
   const params: DeskParams = {
-    filter: (DESK_FILTERS as readonly string[]).includes(url.get('filter') ?? '') ? (url.get('filter') as DeskParams['filter']) : 'all',
+    filter: (DESK_FILTERS as readonly string[]).includes(url.get('filter') ?? '')
+      ? (url.get('filter') as DeskParams['filter'])
+      : 'all',
     sort: (url.get('sort') as Sort | null) ?? 'dueOn',
     dir: url.get('dir') === 'desc' ? 'desc' : 'asc',
     search: url.get('search') ?? undefined,
@@ -42,7 +54,12 @@ export function RecallDeskRoute() {
   const sortBy = (sort: Sort) => set({ sort, dir: params.sort === sort && params.dir === 'asc' ? 'desc' : 'asc' });
   const header = (sort: Sort) => (
     <th aria-sort={params.sort === sort ? (params.dir === 'asc' ? 'ascending' : 'descending') : 'none'}>
-      <Button variant="minimal" size="small" onClick={() => sortBy(sort)} endIcon={params.sort === sort ? (params.dir === 'asc' ? 'caret-up' : 'caret-down') : 'double-caret-vertical'}>
+      <Button
+        variant="minimal"
+        size="small"
+        onClick={() => sortBy(sort)}
+        endIcon={params.sort === sort ? (params.dir === 'asc' ? 'caret-up' : 'caret-down') : 'double-caret-vertical'}
+      >
         {DESK_SORT_LABEL[sort]}
       </Button>
     </th>
@@ -55,7 +72,12 @@ export function RecallDeskRoute() {
       <p className="recall-desk__note">Last status per implant: {MAINTENANCE_NOTE}</p>
       <div className="recall-desk__controls">
         <FormGroup label="Show" labelFor="desk-filter">
-          <HTMLSelect id="desk-filter" data-testid="desk-filter" value={params.filter} onChange={(e) => set({ filter: e.currentTarget.value })}>
+          <HTMLSelect
+            id="desk-filter"
+            data-testid="desk-filter"
+            value={params.filter}
+            onChange={(e) => set({ filter: e.currentTarget.value })}
+          >
             {DESK_FILTERS.map((f) => (
               <option key={f} value={f}>
                 {DESK_FILTER_LABEL[f]}
@@ -64,9 +86,20 @@ export function RecallDeskRoute() {
           </HTMLSelect>
         </FormGroup>
         <FormGroup label="Search" labelFor="desk-search">
-          <InputGroup id="desk-search" leftIcon="search" placeholder="Name or chart number" defaultValue={params.search ?? ''} onKeyDown={(e) => e.key === 'Enter' && set({ search: e.currentTarget.value.trim() })} onBlur={(e) => set({ search: e.currentTarget.value.trim() })} />
+          <InputGroup
+            id="desk-search"
+            leftIcon="search"
+            placeholder="Name or chart number"
+            defaultValue={params.search ?? ''}
+            onKeyDown={(e) => e.key === 'Enter' && set({ search: e.currentTarget.value.trim() })}
+            onBlur={(e) => set({ search: e.currentTarget.value.trim() })}
+          />
         </FormGroup>
-        <AnchorButton icon="download" href={`/api/recalls/desk/csv${deskSearch(params, false)}`} download="recall-desk.csv">
+        <AnchorButton
+          icon="download"
+          href={`/api/recalls/desk/csv${deskSearch(params, false)}`}
+          download="recall-desk.csv"
+        >
           Export CSV
         </AnchorButton>
         <Can I="update" a="RecallPolicy">
@@ -110,7 +143,9 @@ export function RecallDeskRoute() {
                   </td>
                   <td>{r.chartNumber}</td>
                   <td>{r.nextDueOn ? formatDate(r.nextDueOn) : '—'}</td>
-                  <td className={r.overdueDays > 0 ? 'recall-overdue' : undefined}>{r.overdueDays > 0 ? `${r.overdueDays} days` : '—'}</td>
+                  <td className={r.overdueDays > 0 ? 'recall-overdue' : undefined}>
+                    {r.overdueDays > 0 ? `${r.overdueDays} days` : '—'}
+                  </td>
                   <td>{r.lastExamOn ? formatDate(r.lastExamOn) : 'never'}</td>
                   <td>
                     <span className="recall-desk__sites">
@@ -138,13 +173,21 @@ export function RecallDeskRoute() {
             </tbody>
           </HTMLTable>
           <div className="recall-desk__pager">
-            <Button icon="chevron-left" disabled={params.page === 1} onClick={() => set({ page: String((params.page ?? 1) - 1) })}>
+            <Button
+              icon="chevron-left"
+              disabled={params.page === 1}
+              onClick={() => set({ page: String((params.page ?? 1) - 1) })}
+            >
               Previous
             </Button>
             <span>
               Page {params.page} of {Math.max(1, Math.ceil(desk.data.total / PAGE_SIZE))}
             </span>
-            <Button endIcon="chevron-right" disabled={(params.page ?? 1) * PAGE_SIZE >= desk.data.total} onClick={() => set({ page: String((params.page ?? 1) + 1) })}>
+            <Button
+              endIcon="chevron-right"
+              disabled={(params.page ?? 1) * PAGE_SIZE >= desk.data.total}
+              onClick={() => set({ page: String((params.page ?? 1) + 1) })}
+            >
               Next
             </Button>
           </div>

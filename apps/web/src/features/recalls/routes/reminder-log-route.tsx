@@ -17,7 +17,8 @@ export function ReminderLogRoute() {
       <BreadcrumbTrail items={[{ text: 'Recall desk', to: '/recalls' }, { text: 'Reminder log' }]} />
       <h1 className="page-title">Reminder log</h1>
       <p>
-        The daily scan runs every morning; each reminder is sent once, retried with back-off when the mail server is down.{' '}
+        The daily scan runs every morning; each reminder is sent once, retried with back-off when the mail server is
+        down.{' '}
         <Button icon="play" loading={run.isPending} onClick={() => run.mutate()}>
           Run the scan now
         </Button>
@@ -55,7 +56,9 @@ export function ReminderLogRoute() {
                 <td>{formatDate(r.recallDueOn)}</td>
                 <td>{REMINDER_KIND_LABEL[r.kind]}</td>
                 <td>
-                  <Tag minimal intent={r.status === 'sent' ? 'success' : r.status === 'failed' ? 'danger' : 'warning'}>{REMINDER_STATUS_LABEL[r.status].toLowerCase()}</Tag>
+                  <Tag minimal intent={r.status === 'sent' ? 'success' : r.status === 'failed' ? 'danger' : 'warning'}>
+                    {REMINDER_STATUS_LABEL[r.status].toLowerCase()}
+                  </Tag>
                 </td>
                 <td>{r.attempts}</td>
                 <td>{r.sentAt ? formatDateTime(r.sentAt) : '—'}</td>

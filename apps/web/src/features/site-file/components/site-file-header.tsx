@@ -41,9 +41,14 @@ export function SiteFileHeader({ site, system }: { site: SiteFile; system: Tooth
             ['Placed', `${formatDate(placement.placedOn)} by ${placement.surgeonName}`],
             [
               'Insertion torque',
-              placement.insertionTorqueNcm === null ? 'Not recorded' : `${formatNumber(placement.insertionTorqueNcm)} N·cm`,
+              placement.insertionTorqueNcm === null
+                ? 'Not recorded'
+                : `${formatNumber(placement.insertionTorqueNcm)} N·cm`,
             ],
-            ['Stability', placement.stabilityIsq === null ? 'Not recorded' : `ISQ ${formatNumber(placement.stabilityIsq)}`],
+            [
+              'Stability',
+              placement.stabilityIsq === null ? 'Not recorded' : `ISQ ${formatNumber(placement.stabilityIsq)}`,
+            ],
             ['Loading', placement.loadingProtocol ? LOADING_PROTOCOL_LABEL[placement.loadingProtocol] : 'Not recorded'],
             ['Lot', placement.lot ? <span className="mono">{placement.lot}</span> : 'Not recorded'],
           ]}

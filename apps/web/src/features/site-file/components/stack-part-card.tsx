@@ -4,17 +4,40 @@ import { type ReactNode, useState } from 'react';
 import { formatDate, formatDateTime } from '../../../lib/dates';
 import { FactList } from './fact-list';
 import { RETIGHTEN_AFTER_MINUTES } from '@torquetrail/domain';
-import { ANGLED_KINDS, COMPONENT_KIND_LABEL, formatNumber, formatTorqueSpec, INTERFACE_LABEL, TORQUE_REASON_LABEL } from '../../../lib/clinical-labels';
+import {
+  ANGLED_KINDS,
+  COMPONENT_KIND_LABEL,
+  formatNumber,
+  formatTorqueSpec,
+  INTERFACE_LABEL,
+  TORQUE_REASON_LABEL,
+} from '../../../lib/clinical-labels';
 import { TorqueVerdictTag } from './torque-verdict-tag';
 
 /** One part of the Stack: what it is, its specification, and the last torque applied to it. */
 export function StackPartCard({ part }: { part: StackPart }) {
-  const facts: [string, ReactNode][] = [['Reference', <span key="reference" className="mono">{part.referenceCode}</span>]];
+  const facts: [string, ReactNode][] = [
+    [
+      'Reference',
+      <span key="reference" className="mono">
+        {part.referenceCode}
+      </span>,
+    ],
+  ];
   if (part.engaging !== null) facts.push(['Interface', INTERFACE_LABEL[part.engaging ? 'engaging' : 'non-engaging']]);
   if (part.angleDeg !== null) facts.push(['Angle', `${formatNumber(part.angleDeg)}°`]);
   else if (ANGLED_KINDS.includes(part.kind)) facts.push(['Angle', 'Straight']);
   facts.push(['Torque specification', formatTorqueSpec(part.torqueSpecNcm, part.tolerancePct)]);
-  facts.push(['Lot', part.lot ? <span key="lot" className="mono">{part.lot}</span> : 'Not recorded']);
+  facts.push([
+    'Lot',
+    part.lot ? (
+      <span key="lot" className="mono">
+        {part.lot}
+      </span>
+    ) : (
+      'Not recorded'
+    ),
+  ]);
   facts.push(['Installed', formatDate(part.installedOn)]);
 
   const last = part.lastTorque;
@@ -29,8 +52,9 @@ export function StackPartCard({ part }: { part: StackPart }) {
       <FactList facts={facts} />
       {part.retorqueDueAt && (
         <Callout intent="warning" icon="time" compact className="stack-card__retorque" data-testid="retorque-due">
-          Re-torque due {new Date(part.retorqueDueAt).getTime() <= shownAt ? 'now' : 'at'} {formatDateTime(part.retorqueDueAt)}: about {RETIGHTEN_AFTER_MINUTES} minutes after the initial
-          seating, to offset settling (Siamos et al. 2002). Log a re-torque to clear this reminder.
+          Re-torque due {new Date(part.retorqueDueAt).getTime() <= shownAt ? 'now' : 'at'}{' '}
+          {formatDateTime(part.retorqueDueAt)}: about {RETIGHTEN_AFTER_MINUTES} minutes after the initial seating, to
+          offset settling (Siamos et al. 2002). Log a re-torque to clear this reminder.
         </Callout>
       )}
       <div className="stack-card__torque">
@@ -38,7 +62,8 @@ export function StackPartCard({ part }: { part: StackPart }) {
         {last ? (
           <>
             <span>
-              {formatNumber(last.appliedNcm)} N·cm on {formatDateTime(last.performedAt)} · {TORQUE_REASON_LABEL[last.reason]}
+              {formatNumber(last.appliedNcm)} N·cm on {formatDateTime(last.performedAt)} ·{' '}
+              {TORQUE_REASON_LABEL[last.reason]}
               {last.specNcm !== part.torqueSpecNcm && (
                 <span className="muted"> (against {formatTorqueSpec(last.specNcm, last.tolerancePct)})</span>
               )}

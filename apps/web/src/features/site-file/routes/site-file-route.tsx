@@ -26,7 +26,11 @@ export function SiteFileRoute() {
       <>
         <title>Site file · Torquetrail</title>
         <BreadcrumbTrail
-          items={[{ text: 'Patients', to: '/patients' }, { text: 'Patient', to: `/patients/${patientId}` }, { text: 'Site file' }]}
+          items={[
+            { text: 'Patients', to: '/patients' },
+            { text: 'Patient', to: `/patients/${patientId}` },
+            { text: 'Site file' },
+          ]}
         />
         <ErrorState
           title={isApiError(site.error, 404) ? 'Site file not found' : 'Could not load the Site file'}
@@ -58,7 +62,11 @@ export function SiteFileRoute() {
       {data.status === 'planned' && (
         <Can I="create" a="Placement">
           <p className="site-file__links">
-            <Link className={`${Classes.BUTTON} ${Classes.INTENT_PRIMARY}`} to={`/patients/${data.patientId}/sites/${data.id}/placement`} data-testid="record-placement">
+            <Link
+              className={`${Classes.BUTTON} ${Classes.INTENT_PRIMARY}`}
+              to={`/patients/${data.patientId}/sites/${data.id}/placement`}
+              data-testid="record-placement"
+            >
               Record placement
             </Link>
           </p>

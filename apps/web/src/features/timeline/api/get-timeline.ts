@@ -7,7 +7,8 @@ import { siteKeys } from '../../site-file';
 const timelineQueryOptions = (siteId: string) =>
   queryOptions({
     queryKey: siteKeys.timeline(siteId),
-    queryFn: ({ signal }) => apiRequest(`/api/sites/${encodeURIComponent(siteId)}/timeline`, { schema: TimelineReply, signal }),
+    queryFn: ({ signal }) =>
+      apiRequest(`/api/sites/${encodeURIComponent(siteId)}/timeline`, { schema: TimelineReply, signal }),
   });
 
 export function useTimeline(siteId: string) {

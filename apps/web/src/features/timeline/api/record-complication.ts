@@ -7,7 +7,8 @@ import { siteKeys } from '../../site-file';
 export function useRecordComplication(siteId: string) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (body: ComplicationBody) => apiRequest('/api/complications', { method: 'POST', body, schema: Complication }),
+    mutationFn: (body: ComplicationBody) =>
+      apiRequest('/api/complications', { method: 'POST', body, schema: Complication }),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: siteKeys.timeline(siteId) }),
   });
 }

@@ -1,10 +1,23 @@
 import { Button, InputGroup } from '@blueprintjs/core';
-import { ComplicationAmendmentBody, type ComplicationKind, type TimelineEvent, TorqueAmendmentBody } from '@torquetrail/contracts';
+import {
+  ComplicationAmendmentBody,
+  type ComplicationKind,
+  type TimelineEvent,
+  TorqueAmendmentBody,
+} from '@torquetrail/contracts';
 import { TORQUE_NCM_RANGE } from '@torquetrail/domain';
 import { useMemo } from 'react';
 import { FormProvider } from 'react-hook-form';
 import type { z } from 'zod';
-import { applyServerErrors, draftSchema, FormField, formErrorMessage, NumberInput, useContractForm, withInputRef } from '../../../lib/forms';
+import {
+  applyServerErrors,
+  draftSchema,
+  FormField,
+  formErrorMessage,
+  NumberInput,
+  useContractForm,
+  withInputRef,
+} from '../../../lib/forms';
 import { useAmendComplication, useAmendTorque } from '../api/amend-entry';
 
 type TorqueAmendment = z.output<typeof TorqueAmendmentBody>;
@@ -28,7 +41,11 @@ export function AmendForm({ siteId, event, onDone }: { siteId: string; event: Ti
   const schema = useMemo(
     (): z.ZodType<TorqueAmendment | ComplicationAmendment, AmendDraft> =>
       event.kind === 'torque'
-        ? draftSchema(TorqueAmendmentBody, (d: AmendDraft) => ({ appliedNcm: d.appliedNcm ?? Number.NaN, performedAt: event.at, amendmentReason: d.amendmentReason }))
+        ? draftSchema(TorqueAmendmentBody, (d: AmendDraft) => ({
+            appliedNcm: d.appliedNcm ?? Number.NaN,
+            performedAt: event.at,
+            amendmentReason: d.amendmentReason,
+          }))
         : draftSchema(ComplicationAmendmentBody, (d: AmendDraft) => ({
             // The entry's own kind, checked by the contract like every other value.
             kind: event.code as ComplicationKind,
@@ -39,7 +56,11 @@ export function AmendForm({ siteId, event, onDone }: { siteId: string; event: Ti
           })),
     [event],
   );
-  const form = useContractForm(schema, { appliedNcm: event.appliedNcm, notes: event.detail ?? '', amendmentReason: '' });
+  const form = useContractForm(schema, {
+    appliedNcm: event.appliedNcm,
+    notes: event.detail ?? '',
+    amendmentReason: '',
+  });
   const pending = torque.isPending || complication.isPending;
 
   const submit = (body: TorqueAmendment | ComplicationAmendment) => {
@@ -51,10 +72,21 @@ export function AmendForm({ siteId, event, onDone }: { siteId: string; event: Ti
 
   return (
     <FormProvider {...form}>
-      <form className="amend-form" onSubmit={(e) => void form.handleSubmit(submit)(e)} aria-label="Amend this entry" noValidate>
+      <form
+        className="amend-form"
+        onSubmit={(e) => void form.handleSubmit(submit)(e)}
+        aria-label="Amend this entry"
+        noValidate
+      >
         {event.kind === 'torque' ? (
           <FormField name="appliedNcm" label="Corrected torque (N·cm)" labelFor={`amend-${event.id}`}>
-            <NumberInput name="appliedNcm" buttonPosition="none" id={`amend-${event.id}`} min={TORQUE_NCM_RANGE.min} max={TORQUE_NCM_RANGE.max} />
+            <NumberInput
+              name="appliedNcm"
+              buttonPosition="none"
+              id={`amend-${event.id}`}
+              min={TORQUE_NCM_RANGE.min}
+              max={TORQUE_NCM_RANGE.max}
+            />
           </FormField>
         ) : (
           <FormField name="notes" label="Corrected notes" labelFor={`amend-${event.id}`}>
@@ -64,7 +96,11 @@ export function AmendForm({ siteId, event, onDone }: { siteId: string; event: Ti
         <FormField name="amendmentReason" label="Reason for the amendment" labelFor={`amend-reason-${event.id}`}>
           <InputGroup id={`amend-reason-${event.id}`} {...withInputRef(form.register('amendmentReason'))} />
         </FormField>
-        {formError && <p className="planner-error" role="alert">{formError}</p>}
+        {formError && (
+          <p className="planner-error" role="alert">
+            {formError}
+          </p>
+        )}
         <Button type="submit" small intent="primary" text="Save amendment" loading={pending} />
         <Button small variant="minimal" text="Cancel" onClick={onDone} />
       </form>

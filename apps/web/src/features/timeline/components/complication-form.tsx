@@ -5,7 +5,14 @@ import { FormProvider } from 'react-hook-form';
 import { Can } from '../../../lib/ability';
 import { COMPLICATION_KIND_LABEL } from '../../../lib/clinical-labels';
 import { localToday } from '../../../lib/dates';
-import { applyServerErrors, draftSchema, FormField, formErrorMessage, useContractForm, withInputRef } from '../../../lib/forms';
+import {
+  applyServerErrors,
+  draftSchema,
+  FormField,
+  formErrorMessage,
+  useContractForm,
+  withInputRef,
+} from '../../../lib/forms';
 import { useRecordComplication } from '../api/record-complication';
 
 interface ComplicationDraft {
@@ -20,28 +27,63 @@ interface ComplicationDraft {
 export function ComplicationPanel({ siteId, parts }: { siteId: string; parts: StackPart[] }) {
   const [open, setOpen] = useState(false);
   const schema = useMemo(
-    () => draftSchema(ComplicationBody, (d: ComplicationDraft) => ({ siteId, kind: d.kind, componentInstanceId: d.componentInstanceId || null, occurredOn: d.occurredOn, notes: d.notes || null })),
+    () =>
+      draftSchema(ComplicationBody, (d: ComplicationDraft) => ({
+        siteId,
+        kind: d.kind,
+        componentInstanceId: d.componentInstanceId || null,
+        occurredOn: d.occurredOn,
+        notes: d.notes || null,
+      })),
     [siteId],
   );
-  const form = useContractForm(schema, { kind: 'screw-loosening', componentInstanceId: '', occurredOn: localToday(), notes: '' });
+  const form = useContractForm(schema, {
+    kind: 'screw-loosening',
+    componentInstanceId: '',
+    occurredOn: localToday(),
+    notes: '',
+  });
   const record = useRecordComplication(siteId);
-  const submit = (body: ComplicationBody) => record.mutate(body, { onSuccess: () => setOpen(false), onError: (error) => applyServerErrors(form.setError, error) });
+  const submit = (body: ComplicationBody) =>
+    record.mutate(body, {
+      onSuccess: () => setOpen(false),
+      onError: (error) => applyServerErrors(form.setError, error),
+    });
   const formError = formErrorMessage(form.formState.errors, 'alone');
   return (
     <Can I="create" a="Complication">
-      <Button icon="warning-sign" text="Record complication" onClick={() => setOpen((v) => !v)} aria-expanded={open} data-testid="record-complication" />
+      <Button
+        icon="warning-sign"
+        text="Record complication"
+        onClick={() => setOpen((v) => !v)}
+        aria-expanded={open}
+        data-testid="record-complication"
+      />
       {open && (
         <FormProvider {...form}>
-          <form onSubmit={(event) => void form.handleSubmit(submit)(event)} className="torque-form complication-form" aria-label="Record complication" noValidate>
+          <form
+            onSubmit={(event) => void form.handleSubmit(submit)(event)}
+            className="torque-form complication-form"
+            aria-label="Record complication"
+            noValidate
+          >
             <FormField name="kind" label="Complication" labelFor="complication-kind">
               <HTMLSelect id="complication-kind" {...form.register('kind')}>
-                {Object.entries(COMPLICATION_KIND_LABEL).map(([v, t]) => <option key={v} value={v}>{t}</option>)}
+                {Object.entries(COMPLICATION_KIND_LABEL).map(([v, t]) => (
+                  <option key={v} value={v}>
+                    {t}
+                  </option>
+                ))}
               </HTMLSelect>
             </FormField>
             <FormField name="componentInstanceId" label="Part (optional)" labelFor="complication-part">
               <HTMLSelect id="complication-part" {...form.register('componentInstanceId')}>
                 <option value="">The site as a whole</option>
-                {parts.map((p) => <option key={p.instanceId} value={p.instanceId}>{p.name} ({p.referenceCode})</option>)}
+                {parts.map((p) => (
+                  <option key={p.instanceId} value={p.instanceId}>
+                    {p.name} ({p.referenceCode})
+                  </option>
+                ))}
               </HTMLSelect>
             </FormField>
             <FormField name="occurredOn" label="Date" labelFor="complication-date">
@@ -50,7 +92,11 @@ export function ComplicationPanel({ siteId, parts }: { siteId: string; parts: St
             <FormField name="notes" label="Notes" labelFor="complication-notes">
               <TextArea id="complication-notes" fill {...withInputRef(form.register('notes'))} />
             </FormField>
-            {formError && <Callout intent="danger" role="alert" compact>{formError}</Callout>}
+            {formError && (
+              <Callout intent="danger" role="alert" compact>
+                {formError}
+              </Callout>
+            )}
             <div className="torque-form__actions">
               <Button type="submit" intent="primary" text="Save complication" loading={record.isPending} />
               <Button variant="minimal" text="Cancel" onClick={() => setOpen(false)} />

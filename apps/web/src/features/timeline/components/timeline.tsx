@@ -29,7 +29,11 @@ function EventRow({ event, siteId }: { event: TimelineEvent; siteId: string }) {
   const [amending, setAmending] = useState(false);
   const amendable = !event.amended && (event.kind === 'torque' || event.kind === 'complication');
   return (
-    <li className={`timeline__event${event.amended ? ' timeline__event--amended' : ''}`} data-testid="timeline-event" data-kind={event.kind}>
+    <li
+      className={`timeline__event${event.amended ? ' timeline__event--amended' : ''}`}
+      data-testid="timeline-event"
+      data-kind={event.kind}
+    >
       <time dateTime={event.at}>{event.dateOnly ? formatDate(event.at) : formatDateTime(event.at)}</time>
       <span className="timeline__kind">
         <Icon icon={KIND_ICON[event.kind]} size={12} /> {TIMELINE_KIND_LABEL[event.kind]}
@@ -37,7 +41,11 @@ function EventRow({ event, siteId }: { event: TimelineEvent; siteId: string }) {
       <span className="timeline__title">
         {event.title}
         {event.verdict && (
-          <Tag minimal intent={event.verdict === 'within' ? 'success' : event.verdict === 'under' ? 'warning' : 'danger'} className="timeline__verdict">
+          <Tag
+            minimal
+            intent={event.verdict === 'within' ? 'success' : event.verdict === 'under' ? 'warning' : 'danger'}
+            className="timeline__verdict"
+          >
             {TORQUE_VERDICT_LABEL[event.verdict].toLowerCase()}
           </Tag>
         )}
@@ -51,7 +59,11 @@ function EventRow({ event, siteId }: { event: TimelineEvent; siteId: string }) {
         {event.byName && <span className="timeline__by">{event.byName}</span>}
         {amendable && (
           <Can I="amend" a={event.kind === 'torque' ? 'TorqueEvent' : 'Complication'}>
-            {amending ? <AmendForm siteId={siteId} event={event} onDone={() => setAmending(false)} /> : <Button small variant="minimal" icon="edit" text="Amend" onClick={() => setAmending(true)} />}
+            {amending ? (
+              <AmendForm siteId={siteId} event={event} onDone={() => setAmending(false)} />
+            ) : (
+              <Button small variant="minimal" icon="edit" text="Amend" onClick={() => setAmending(true)} />
+            )}
           </Can>
         )}
       </span>
@@ -64,15 +76,21 @@ export function Timeline({ siteId, parts }: { siteId: string; parts: StackPart[]
   const timeline = useTimeline(siteId);
   const [hidden, setHidden] = useState<Set<TimelineKind>>(new Set());
   if (timeline.isPending) return <LoadingState label="Loading the Timeline" />;
-  if (timeline.isError) return <ErrorState title="Could not load the Timeline" error={timeline.error} onRetry={() => void timeline.refetch()} />;
-  const present = (Object.keys(KIND_ICON) as TimelineKind[]).filter((k) => timeline.data.events.some((e) => e.kind === k));
+  if (timeline.isError)
+    return (
+      <ErrorState title="Could not load the Timeline" error={timeline.error} onRetry={() => void timeline.refetch()} />
+    );
+  const present = (Object.keys(KIND_ICON) as TimelineKind[]).filter((k) =>
+    timeline.data.events.some((e) => e.kind === k),
+  );
   const events = timeline.data.events.filter((e) => !hidden.has(e.kind));
-  const toggle = (k: TimelineKind) => setHidden((h) => {
-    const next = new Set(h);
-    if (next.has(k)) next.delete(k);
-    else next.add(k);
-    return next;
-  });
+  const toggle = (k: TimelineKind) =>
+    setHidden((h) => {
+      const next = new Set(h);
+      if (next.has(k)) next.delete(k);
+      else next.add(k);
+      return next;
+    });
 
   return (
     <section className="timeline" aria-labelledby="timeline-heading" data-testid="timeline">
@@ -89,12 +107,18 @@ export function Timeline({ siteId, parts }: { siteId: string; parts: StackPart[]
       {events.length === 0 ? (
         <NonIdealState icon="timeline-events" title="Nothing to show" description="No events of the chosen kinds." />
       ) : (
-        <ol className="timeline__list">{events.map((e) => <EventRow key={e.key} event={e} siteId={siteId} />)}</ol>
+        <ol className="timeline__list">
+          {events.map((e) => (
+            <EventRow key={e.key} event={e} siteId={siteId} />
+          ))}
+        </ol>
       )}
       {timeline.data.torqueSeries.length > 0 && (
         <div className="timeline__charts">
           <h3>Torque history per part</h3>
-          <Callout compact icon="info-sign">Shaded band: the part's specification ± its tolerance, as entered in the catalogue.</Callout>
+          <Callout compact icon="info-sign">
+            Shaded band: the part's specification ± its tolerance, as entered in the catalogue.
+          </Callout>
           {timeline.data.torqueSeries.map((s) => (
             <TorqueChart key={s.componentInstanceId} series={s} />
           ))}

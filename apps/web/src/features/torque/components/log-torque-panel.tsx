@@ -9,7 +9,15 @@ export function LogTorquePanel({ siteId, parts }: { siteId: string; parts: Stack
   const [open, setOpen] = useState(false);
   return (
     <Can I="create" a="TorqueEvent">
-      <Button className="log-torque" icon="wrench" text="Log torque" intent="primary" data-testid="log-torque-button" aria-expanded={open} onClick={() => setOpen((v) => !v)} />
+      <Button
+        className="log-torque"
+        icon="wrench"
+        text="Log torque"
+        intent="primary"
+        data-testid="log-torque-button"
+        aria-expanded={open}
+        onClick={() => setOpen((v) => !v)}
+      />
       {open && (
         <div className="log-torque__panel">
           <TorqueForm siteId={siteId} parts={parts} onDone={() => setOpen(false)} />

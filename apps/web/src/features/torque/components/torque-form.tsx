@@ -4,10 +4,17 @@ import { TORQUE_NCM_RANGE, torqueVerdict } from '@torquetrail/domain';
 import { FormProvider, useWatch } from 'react-hook-form';
 import { TORQUE_REASON_LABEL, TORQUE_VERDICT_LABEL, WRENCH_TYPE_LABEL } from '../../../lib/clinical-labels';
 import { localNow } from '../../../lib/dates';
-import { applyServerErrors, draftSchema, FormField, formErrorMessage, NumberInput, useContractForm, withInputRef } from '../../../lib/forms';
+import {
+  applyServerErrors,
+  draftSchema,
+  FormField,
+  formErrorMessage,
+  NumberInput,
+  useContractForm,
+  withInputRef,
+} from '../../../lib/forms';
 import { useLogTorque } from '../api/log-torque';
 import { useWrenches } from '../api/wrenches';
-
 
 /** The entered local date and time as an instant; left as typed when it is no date, for the contract to refuse. */
 const instant = (local: string) => {
@@ -48,22 +55,40 @@ export function TorqueForm({ siteId, parts, onDone }: { siteId: string; parts: S
     performedAt: localNow(),
     replacementLot: '',
   });
-  const [instanceId, applied, reason] = useWatch({ control: form.control, name: ['componentInstanceId', 'appliedNcm', 'reason'] });
+  const [instanceId, applied, reason] = useWatch({
+    control: form.control,
+    name: ['componentInstanceId', 'appliedNcm', 'reason'],
+  });
   const wrenches = useWrenches();
   const log = useLogTorque(siteId);
   const part = torqueable.find((p) => p.instanceId === instanceId);
 
-  if (torqueable.length === 0) return <Callout intent="primary">No part of this site has a torque specification (healing abutments and cover screws are hand-tight).</Callout>;
+  if (torqueable.length === 0)
+    return (
+      <Callout intent="primary">
+        No part of this site has a torque specification (healing abutments and cover screws are hand-tight).
+      </Callout>
+    );
 
   const inRange = applied !== null && applied >= TORQUE_NCM_RANGE.min && applied <= TORQUE_NCM_RANGE.max;
-  const verdict = part && inRange ? torqueVerdict({ appliedNcm: applied, specNcm: part.torqueSpecNcm!, tolerancePct: part.tolerancePct }) : null;
+  const verdict =
+    part && inRange
+      ? torqueVerdict({ appliedNcm: applied, specNcm: part.torqueSpecNcm!, tolerancePct: part.tolerancePct })
+      : null;
 
-  const submit = (body: TorqueBody) => log.mutate(body, { onSuccess: onDone, onError: (error) => applyServerErrors(form.setError, error) });
+  const submit = (body: TorqueBody) =>
+    log.mutate(body, { onSuccess: onDone, onError: (error) => applyServerErrors(form.setError, error) });
   const formError = formErrorMessage(form.formState.errors, 'alone');
 
   return (
     <FormProvider {...form}>
-      <form className="torque-form" onSubmit={(event) => void form.handleSubmit(submit)(event)} aria-label="Log torque" data-testid="torque-form" noValidate>
+      <form
+        className="torque-form"
+        onSubmit={(event) => void form.handleSubmit(submit)(event)}
+        aria-label="Log torque"
+        data-testid="torque-form"
+        noValidate
+      >
         <Callout intent="warning" icon="info-sign" compact>
           {MANUFACTURER_CAUTION}
         </Callout>
@@ -77,11 +102,27 @@ export function TorqueForm({ siteId, parts, onDone }: { siteId: string; parts: S
           </HTMLSelect>
         </FormField>
         <FormField name="appliedNcm" label="Applied torque (N·cm)" labelFor="torque-applied">
-          <NumberInput name="appliedNcm" buttonPosition="none" id="torque-applied" min={TORQUE_NCM_RANGE.min} max={TORQUE_NCM_RANGE.max} stepSize={0.5} minorStepSize={0.1} fill allowNumericCharactersOnly />
+          <NumberInput
+            name="appliedNcm"
+            buttonPosition="none"
+            id="torque-applied"
+            min={TORQUE_NCM_RANGE.min}
+            max={TORQUE_NCM_RANGE.max}
+            stepSize={0.5}
+            minorStepSize={0.1}
+            fill
+            allowNumericCharactersOnly
+          />
         </FormField>
         {part && (
           <p className="torque-form__spec" data-testid="torque-spec">
-            Specification {part.torqueSpecNcm} N·cm ± {part.tolerancePct} %{verdict && <> · <strong data-testid="torque-live-verdict">{TORQUE_VERDICT_LABEL[verdict]}</strong></>}
+            Specification {part.torqueSpecNcm} N·cm ± {part.tolerancePct} %
+            {verdict && (
+              <>
+                {' '}
+                · <strong data-testid="torque-live-verdict">{TORQUE_VERDICT_LABEL[verdict]}</strong>
+              </>
+            )}
           </p>
         )}
         <FormField name="wrenchId" label="Wrench" labelFor="torque-wrench">
@@ -89,7 +130,8 @@ export function TorqueForm({ siteId, parts, onDone }: { siteId: string; parts: S
             <option value="">Not recorded</option>
             {wrenches.data?.items.map((w) => (
               <option key={w.id} value={w.id}>
-                {w.label} ({WRENCH_TYPE_LABEL[w.type].toLowerCase()}{w.lastCalibratedOn ? `, calibrated ${w.lastCalibratedOn}` : ', calibration not recorded'})
+                {w.label} ({WRENCH_TYPE_LABEL[w.type].toLowerCase()}
+                {w.lastCalibratedOn ? `, calibrated ${w.lastCalibratedOn}` : ', calibration not recorded'})
               </option>
             ))}
           </HTMLSelect>
