@@ -1,4 +1,5 @@
-// `npm test`: the same set-up as `npm start` with a separate test database, then the three
+// `npm test`: the same set-up as `npm start` with a separate test database, the house rules
+// (`npm run lint`: code, format, bounds, unused — each counted as one result), then the three
 // tiers (unit, API through Supertest on the real PostgreSQL, browser with Debian's chromium
 // against the built app), and one closing line counting all of them: "N passed, N failed".
 import fs from 'node:fs';
@@ -7,6 +8,7 @@ import { randomBytes } from 'node:crypto';
 import { spawn } from 'node:child_process';
 import { apiEnvironment, localDir, pg, repoRoot, s3 } from './lib/config.mjs';
 import { buildAll, ensureChromium, ensureDependencies, nodeScript, typecheckAll } from './lib/bootstrap.mjs';
+import { runLint } from './lint.mjs';
 
 const tiers = ['unit', 'api', 'browser'];
 const resultsDir = path.join(localDir, 'test-results');
@@ -75,7 +77,9 @@ async function main() {
   await nodeScript('apps/api/dist/db/migrate.js', env);
 
   fs.mkdirSync(resultsDir, { recursive: true });
-  const results = [];
+  // A broken house rule fails the run, but the tiers still run so every failure is seen at once.
+  const lint = await runLint();
+  const results = [{ name: 'lint', passed: lint.filter((c) => c.ok).length, failed: lint.filter((c) => !c.ok).length }];
   for (const tier of tiers) results.push(await runTier(tier, env));
 
   console.log('\nTest tiers:');
