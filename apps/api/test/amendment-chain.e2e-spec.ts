@@ -78,15 +78,12 @@ const TABLES: {
       )[0].id,
     amend: async (id) => {
       const [p] = await ctx.db.select().from(placements).where(eq(placements.id, id));
-      return ctx.http
-        .post(`/api/placements/${id}/amendments`)
-        .set('Cookie', cookies.dentist)
-        .send({
-          platformId: p.platformId,
-          placedOn: p.placedOn,
-          lengthMm: p.lengthMm,
-          amendmentReason: 'Length re-read',
-        });
+      return ctx.http.post(`/api/placements/${id}/amendments`).set('Cookie', cookies.dentist).send({
+        platformId: p.platformId,
+        placedOn: p.placedOn,
+        lengthMm: p.lengthMm,
+        amendmentReason: 'Length re-read',
+      });
     },
     message: 'This placement was already amended; amend the current version',
   },
@@ -112,15 +109,12 @@ const TABLES: {
     table: torqueEvents,
     version: async () =>
       created(
-        await ctx.http
-          .post('/api/torque-events')
-          .set('Cookie', cookies.dentist)
-          .send({
-            componentInstanceId: ids.ferrazScrew,
-            appliedNcm: 25,
-            reason: 're-torque-at-recall',
-            performedAt: '2025-06-06T10:00:00Z',
-          }),
+        await ctx.http.post('/api/torque-events').set('Cookie', cookies.dentist).send({
+          componentInstanceId: ids.ferrazScrew,
+          appliedNcm: 25,
+          reason: 're-torque-at-recall',
+          performedAt: '2025-06-06T10:00:00Z',
+        }),
       ),
     amend: (id) =>
       ctx.http

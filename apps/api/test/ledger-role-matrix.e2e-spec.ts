@@ -54,15 +54,12 @@ async function freshPlan() {
   return res.body.id as string;
 }
 async function freshTorque() {
-  const res = await ctx.http
-    .post('/api/torque-events')
-    .set('Cookie', cookies.dentist)
-    .send({
-      componentInstanceId: ids.haroldScrew,
-      appliedNcm: 25,
-      reason: 're-torque-at-recall',
-      performedAt: '2025-01-10T10:00:00Z',
-    });
+  const res = await ctx.http.post('/api/torque-events').set('Cookie', cookies.dentist).send({
+    componentInstanceId: ids.haroldScrew,
+    appliedNcm: 25,
+    reason: 're-torque-at-recall',
+    performedAt: '2025-01-10T10:00:00Z',
+  });
   if (res.status !== 201) throw new Error(`fixture torque failed: ${JSON.stringify(res.body)}`);
   return res.body.id as string;
 }

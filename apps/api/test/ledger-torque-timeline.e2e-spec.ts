@@ -221,16 +221,13 @@ describe('complications and the Timeline', () => {
       .send({ siteId: harold35, componentInstanceId: other, kind: 'screw-fracture', occurredOn: '2026-11-01' });
     expect(foreign.status).toBe(400);
     expect(foreign.body.fields).toHaveProperty('componentInstanceId');
-    const created = await ctx.http
-      .post('/api/complications')
-      .set('Cookie', dentist)
-      .send({
-        siteId: harold35,
-        componentInstanceId: haroldScrew,
-        kind: 'screw-fracture',
-        occurredOn: '2026-11-01',
-        notes: 'Head sheared',
-      });
+    const created = await ctx.http.post('/api/complications').set('Cookie', dentist).send({
+      siteId: harold35,
+      componentInstanceId: haroldScrew,
+      kind: 'screw-fracture',
+      occurredOn: '2026-11-01',
+      notes: 'Head sheared',
+    });
     expect(created.status).toBe(201);
     const amended = await ctx.http
       .post(`/api/complications/${created.body.id}/amendments`)

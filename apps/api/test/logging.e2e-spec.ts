@@ -60,15 +60,12 @@ describe('no patient data in the logs', () => {
   it('logs neither a search’s query string, a request body, nor the session cookie', async () => {
     lines.length = 0;
     await http.get('/api/patients?q=Achterberg').set('Cookie', cookie);
-    await http
-      .post('/api/complications')
-      .set('Cookie', cookie)
-      .send({
-        siteId: 'not-a-uuid',
-        kind: 'other',
-        occurredOn: '2026-11-01',
-        notes: 'Patient disclosed a private matter',
-      });
+    await http.post('/api/complications').set('Cookie', cookie).send({
+      siteId: 'not-a-uuid',
+      kind: 'other',
+      occurredOn: '2026-11-01',
+      notes: 'Patient disclosed a private matter',
+    });
     expect(lines.length).toBeGreaterThanOrEqual(2);
     expect(logged()).not.toContain('Achterberg');
     expect(logged()).not.toContain('private matter');

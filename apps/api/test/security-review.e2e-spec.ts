@@ -278,27 +278,21 @@ describe('practice isolation through ids in request bodies', () => {
   });
 
   it('POST /torque-events and amendments: a wrench of another practice is refused (400)', async () => {
-    const log = await ctx.http
-      .post('/api/torque-events')
-      .set('Cookie', cookies.dentist)
-      .send({
-        componentInstanceId: ids.ferrazScrew,
-        appliedNcm: 25,
-        reason: 're-torque-at-recall',
-        wrenchId: ids.quarryWrench,
-      });
+    const log = await ctx.http.post('/api/torque-events').set('Cookie', cookies.dentist).send({
+      componentInstanceId: ids.ferrazScrew,
+      appliedNcm: 25,
+      reason: 're-torque-at-recall',
+      wrenchId: ids.quarryWrench,
+    });
     expect(log.status).toBe(400);
     expect(log.body.fields.wrenchId).toMatch(/Not a torque wrench of this practice/);
-    const ok = await ctx.http
-      .post('/api/torque-events')
-      .set('Cookie', cookies.dentist)
-      .send({
-        componentInstanceId: ids.ferrazScrew,
-        appliedNcm: 25,
-        reason: 're-torque-at-recall',
-        wrenchId: ids.larkspurWrench,
-        performedAt: '2025-05-05T10:00:00Z',
-      });
+    const ok = await ctx.http.post('/api/torque-events').set('Cookie', cookies.dentist).send({
+      componentInstanceId: ids.ferrazScrew,
+      appliedNcm: 25,
+      reason: 're-torque-at-recall',
+      wrenchId: ids.larkspurWrench,
+      performedAt: '2025-05-05T10:00:00Z',
+    });
     expect(ok.status).toBe(201);
     const amend = await ctx.http
       .post(`/api/torque-events/${ok.body.id}/amendments`)
@@ -333,15 +327,12 @@ describe('practice isolation through ids in request bodies', () => {
       expect(res.status).toBe(400);
       expect(res.body.fields.componentInstanceId).toMatch(/Not a part at this site/);
     }
-    const ok = await ctx.http
-      .post('/api/complications')
-      .set('Cookie', cookies.dentist)
-      .send({
-        siteId: ids.ferraz14,
-        componentInstanceId: ids.ferrazScrew,
-        kind: 'screw-loosening',
-        occurredOn: '2025-01-01',
-      });
+    const ok = await ctx.http.post('/api/complications').set('Cookie', cookies.dentist).send({
+      siteId: ids.ferraz14,
+      componentInstanceId: ids.ferrazScrew,
+      kind: 'screw-loosening',
+      occurredOn: '2025-01-01',
+    });
     expect(ok.status).toBe(201);
     const amend = await ctx.http
       .post(`/api/complications/${ok.body.id}/amendments`)
@@ -368,27 +359,21 @@ describe('practice isolation through ids in request bodies', () => {
     const qhPlatform = qhPlacement.platformId;
     const qhSystemId = (await ctx.http.get('/api/catalogue').set('Cookie', cookies.otherPracticeDentist)).body
       .systems[0].id as string;
-    const platform = await ctx.http
-      .post('/api/catalogue/platforms')
-      .set('Cookie', cookies.practice_admin)
-      .send({
-        systemId: qhSystemId,
-        name: 'Foreign 5.0',
-        diameterMm: 5,
-        connection: 'internal-hex',
-        platformShift: false,
-      });
+    const platform = await ctx.http.post('/api/catalogue/platforms').set('Cookie', cookies.practice_admin).send({
+      systemId: qhSystemId,
+      name: 'Foreign 5.0',
+      diameterMm: 5,
+      connection: 'internal-hex',
+      platformShift: false,
+    });
     expect(platform.status).toBe(404);
-    const part = await ctx.http
-      .post('/api/catalogue/components')
-      .set('Cookie', cookies.practice_admin)
-      .send({
-        platformId: qhPlatform,
-        kind: 'abutment-screw',
-        name: 'Foreign screw',
-        referenceCode: 'F-1',
-        torqueSpecNcm: 30,
-      });
+    const part = await ctx.http.post('/api/catalogue/components').set('Cookie', cookies.practice_admin).send({
+      platformId: qhPlatform,
+      kind: 'abutment-screw',
+      name: 'Foreign screw',
+      referenceCode: 'F-1',
+      torqueSpecNcm: 30,
+    });
     expect(part.status).toBe(404);
     const patch = await ctx.http
       .patch(`/api/catalogue/components/${ids.quarryScrewPart}`)
@@ -671,15 +656,12 @@ describe('history is never forked or doubled by concurrent saves', () => {
   });
 
   it('POST /torque-events/:id/amendments and POST /complications/:id/amendments: one amendment per version under concurrency', async () => {
-    const torque = await ctx.http
-      .post('/api/torque-events')
-      .set('Cookie', cookies.dentist)
-      .send({
-        componentInstanceId: ids.ferrazScrew,
-        appliedNcm: 25,
-        reason: 're-torque-at-recall',
-        performedAt: '2025-06-06T10:00:00Z',
-      });
+    const torque = await ctx.http.post('/api/torque-events').set('Cookie', cookies.dentist).send({
+      componentInstanceId: ids.ferrazScrew,
+      appliedNcm: 25,
+      reason: 're-torque-at-recall',
+      performedAt: '2025-06-06T10:00:00Z',
+    });
     const t = await Promise.all(
       [1, 2, 3, 4].map(() =>
         ctx.http

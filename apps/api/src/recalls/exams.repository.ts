@@ -281,15 +281,13 @@ export async function rescheduleRecall(
     .update(recalls)
     .set({ status: 'done' })
     .where(and(eq(recalls.patientId, r.patientId), eq(recalls.status, 'scheduled')));
-  await db
-    .insert(recalls)
-    .values({
-      practiceId: r.practiceId,
-      patientId: r.patientId,
-      dueOn: r.dueOn,
-      status: 'scheduled',
-      scheduledFromVisitId: r.visitId,
-    });
+  await db.insert(recalls).values({
+    practiceId: r.practiceId,
+    patientId: r.patientId,
+    dueOn: r.dueOn,
+    status: 'scheduled',
+    scheduledFromVisitId: r.visitId,
+  });
 }
 
 export const DEFAULT_POLICY = {

@@ -225,19 +225,17 @@ async function restoration(
       createdAt: at(r.impressionOn, '09:00'),
     })
     .returning({ id: restorations.id });
-  await ctx.tx
-    .insert(restorationSites)
-    .values(
-      r.sites.map((s) => ({
-        practiceId: ctx.practiceId,
-        restorationId: row.id,
-        siteId: s.siteId,
-        interface: s.interface,
-        impressionCoping: s.coping,
-        multiUnitAngleDeg: s.muAngle,
-        restorativeSpaceMm: s.spaceMm,
-      })),
-    );
+  await ctx.tx.insert(restorationSites).values(
+    r.sites.map((s) => ({
+      practiceId: ctx.practiceId,
+      restorationId: row.id,
+      siteId: s.siteId,
+      interface: s.interface,
+      impressionCoping: s.coping,
+      multiUnitAngleDeg: s.muAngle,
+      restorativeSpaceMm: s.spaceMm,
+    })),
+  );
   return row.id;
 }
 
@@ -607,17 +605,15 @@ export async function seedDemoScenario(tx: Tx, today: string): Promise<{ summary
   // Dr Imbert is shared into the patients he placed for.
   const imbertId = userIds.get('rafael.imbert@northgate.example')!;
   const sharedBy = userIds.get('ines.calloway@larkspur.example')!;
-  await tx
-    .insert(patientShares)
-    .values(
-      [harold, imogen, lucia, wendell].map((patientId) => ({
-        practiceId: ctx.practiceId,
-        patientId,
-        sharedWithUserId: imbertId,
-        sharedByUserId: sharedBy,
-        since: at('2024-01-08'),
-      })),
-    );
+  await tx.insert(patientShares).values(
+    [harold, imogen, lucia, wendell].map((patientId) => ({
+      practiceId: ctx.practiceId,
+      patientId,
+      sharedWithUserId: imbertId,
+      sharedByUserId: sharedBy,
+      since: at('2024-01-08'),
+    })),
+  );
 
   // 6. Quarry Hill Dental: an unrelated practice, never visible to Larkspur Lane.
   const qctx: Ctx = {

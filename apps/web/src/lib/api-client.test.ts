@@ -36,16 +36,14 @@ describe('apiRequest', () => {
   it('throws an ApiError with the reply message and fields', async () => {
     vi.stubGlobal(
       'fetch',
-      vi
-        .fn()
-        .mockResolvedValue(
-          reply(400, {
-            statusCode: 400,
-            error: 'Bad Request',
-            message: 'Invalid',
-            fields: { email: 'Enter a valid e-mail address' },
-          }),
-        ),
+      vi.fn().mockResolvedValue(
+        reply(400, {
+          statusCode: 400,
+          error: 'Bad Request',
+          message: 'Invalid',
+          fields: { email: 'Enter a valid e-mail address' },
+        }),
+      ),
     );
     const error = await apiRequest('/api/x').catch((e: unknown) => e);
     expect(error).toBeInstanceOf(ApiError);
