@@ -167,6 +167,44 @@ describe('fuzzing every write endpoint', () => {
   );
 });
 
+// Issue 9, item 5: each of these answered 500 before the contracts refused control characters
+// and out-of-range dates (PostgreSQL cannot store NUL in text, nor year 0).
+describe('control characters and out-of-range dates are a 400 naming the field', () => {
+  const complication = { siteId: t.ids.harold35, kind: 'other', occurredOn: '2024-02-02' };
+  it.each([
+    ['a NUL in notes', '/api/complications', { ...complication, notes: 'Chipped\u0000' }, 'notes'],
+    ['a year-0000 date', '/api/complications', { ...complication, occurredOn: '0000-01-01' }, 'occurredOn'],
+    [
+      'a year-0000 instant',
+      '/api/torque-events',
+      {
+        componentInstanceId: t.haroldScrew.id,
+        appliedNcm: 25,
+        reason: 're-torque-at-recall',
+        performedAt: '0000-01-01T00:00:00Z',
+      },
+      'performedAt',
+    ],
+    ['a NUL in a lot', `/api/sites/${t.ids.lucia14}/placements`, { ...t.placement(), lot: 'L\u0000' }, 'lot'],
+  ])('%s', async (_, path, body, field) => {
+    const before = await rowCounts();
+    const res = await ctx.http.post(path).set('Cookie', cookies.dentist).send(body);
+    expect(res.status).toBe(400);
+    expect(res.body.fields).toHaveProperty(field);
+    expect(await rowCounts()).toEqual(before);
+  });
+
+  it.each(['/api/patients', '/api/recalls/desk', '/api/recalls/desk/csv'])(
+    'a NUL in the search of %s',
+    async (path) => {
+      const res = await ctx.http.get(path).query({ search: 'Whit\u0000' }).set('Cookie', cookies.dentist);
+      expect(res.status).toBe(400);
+      // The CSV route's error reply keeps the route's text/csv header, so read the JSON from the text.
+      expect(JSON.parse(res.text).fields).toHaveProperty('search');
+    },
+  );
+});
+
 afterAll(() => {
   console.log(
     `[figures] fuzzing: ${figures.endpoints} write endpoints, ${figures.cases} cases, ${figures.serverErrors} answers of 500 or more`,
