@@ -41,9 +41,9 @@ describe('NoteText', () => {
 });
 
 describe('TextAllowing', () => {
-  it('keeps the one allowed control character and refuses every other', () => {
-    const udi = TextAllowing('\u001d', 100);
-    expect(udi.parse('0109506000134352\u001d10LOT')).toBe('0109506000134352\u001d10LOT');
+  it('keeps the allowed control characters and refuses every other', () => {
+    const udi = TextAllowing(['\u001d', '\r', '\n'], 100);
+    expect(udi.parse('0109506000134352\u001d10LOT\r\n')).toBe('0109506000134352\u001d10LOT\r\n');
     expect(udi.safeParse('0109506000134352\u000010LOT').success).toBe(false);
   });
 });

@@ -58,14 +58,16 @@ export const NoteText = (max: number) =>
     .refine((s) => !CONTROL_IN_NOTE.test(s), { error: noControlMessage });
 
 /**
- * Text in which one control character is data, e.g. GS (0x1D) between the elements of a scanned
- * UDI; every other control character is refused.
+ * Text in which some control characters are data, e.g. a scanned UDI: GS (0x1D) between its
+ * elements and the CR LF a scanner ends a scan with; every other control character is refused.
  */
-export const TextAllowing = (allowed: string, max: number) =>
+export const TextAllowing = (allowed: readonly string[], max: number) =>
   z
     .string({ error: 'Enter text' })
     .max(max, { error: atMost(max) })
-    .refine((s) => !CONTROL_IN_LINE.test(s.replaceAll(allowed, '')), { error: noControlMessage });
+    .refine((s) => !CONTROL_IN_LINE.test(allowed.reduce((rest, c) => rest.replaceAll(c, ''), s)), {
+      error: noControlMessage,
+    });
 
 /** FDI (ISO 3950) two-digit tooth position, permanent or primary. */
 export const FdiPosition = z.number().int().min(11).max(85);

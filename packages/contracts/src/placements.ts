@@ -72,7 +72,7 @@ const placementFields = {
     .max(IMPLANT_LENGTH_MM_RANGE.max, between('Length', IMPLANT_LENGTH_MM_RANGE, ' mm')),
   lot: optional(PlainText(40)),
   /** The UDI as scanned (raw, with GS separators) or typed (human-readable); parsed on the server. */
-  udi: TextAllowing(GS, 200)
+  udi: TextAllowing([GS, '\r', '\n'], 200)
     .nullable()
     .default(null)
     .transform((s) => (s && s.trim() ? s : null)),
