@@ -1,7 +1,7 @@
 // Component catalogue and torque wrenches: the practice admin edits, everyone in the practice reads.
 import { z } from 'zod';
 import { TORQUE_NCM_RANGE } from '@torquetrail/domain';
-import { Id, IsoDate } from './common.js';
+import { Id, IsoDate, PlainText } from './common.js';
 import { ComponentKind, Connection, Tray, WrenchType } from './enums.js';
 
 /** Shown on the catalogue and every torque form. */
@@ -49,7 +49,7 @@ export type CatalogueSystem = z.infer<typeof CatalogueSystem>;
 export const CatalogueReply = z.object({ caution: z.string(), systems: z.array(CatalogueSystem) });
 export type CatalogueReply = z.infer<typeof CatalogueReply>;
 
-const name = z.string().trim().min(1, 'Required').max(120);
+const name = PlainText(120).min(1, 'Required');
 /** Accepted ranges of catalogue values, inclusive; the web's inputs use the same. */
 export const PLATFORM_DIAMETER_MM_RANGE = Object.freeze({ min: 2, max: 10 } as const);
 export const PART_ANGLE_DEG_RANGE = Object.freeze({ min: 0, max: 45 } as const);
@@ -88,7 +88,7 @@ export const ComponentBody = z.object({
   platformId: Id,
   kind: ComponentKind,
   name,
-  referenceCode: z.string().trim().min(1, 'Required').max(60),
+  referenceCode: PlainText(60).min(1, 'Required'),
   engaging: z.boolean().nullable().default(null),
   angleDeg: angleDeg.nullable().default(null),
   collarHeightMm: collarHeightMm.nullable().default(null),
@@ -102,7 +102,7 @@ export type ComponentBody = z.input<typeof ComponentBody>;
 /** The platform and kind of a part stay fixed once created (records point at it). */
 export const ComponentPatch = z.object({
   name: name.optional(),
-  referenceCode: z.string().trim().min(1, 'Required').max(60).optional(),
+  referenceCode: PlainText(60).min(1, 'Required').optional(),
   engaging: z.boolean().nullable().optional(),
   angleDeg: angleDeg.nullable().optional(),
   collarHeightMm: collarHeightMm.nullable().optional(),

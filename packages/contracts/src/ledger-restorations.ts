@@ -1,6 +1,6 @@
 // Restoration planner, delivery and lab prescriptions.
 import { z } from 'zod';
-import { AxisComponent, FdiPosition, Id, IsoDate, IsoDateTime } from './common.js';
+import { AxisComponent, FdiPosition, Id, IsoDate, IsoDateTime, NoteText, PlainText } from './common.js';
 import { CatalogueComponent } from './ledger-catalogue.js';
 import {
   Connection,
@@ -43,24 +43,24 @@ export const PlanSiteBody = z.object({
 });
 export type PlanSiteBody = z.input<typeof PlanSiteBody>;
 
-const optionalText = (max: number) => z.string().trim().max(max).nullable().default(null);
+const optionalLine = (max: number) => PlainText(max).nullable().default(null);
 
 export const PlanBody = z.object({
   patientId: Id,
   kind: RestorationKind,
   retention: Retention,
   material: Material,
-  shade: optionalText(20),
+  shade: optionalLine(20),
   copingsSplinted: z.boolean().default(false),
-  labName: optionalText(120),
+  labName: optionalLine(120),
   // 254: the longest address SMTP carries (RFC 5321); the address goes into the e-mail's To header.
   labEmail: z.email('Not an e-mail address').max(254).nullable().default(null),
   dueOn: IsoDate.nullable().default(null),
-  notes: optionalText(2000),
+  notes: NoteText(2000).nullable().default(null),
   sites: z.array(PlanSiteBody).min(1, 'Choose at least one site').max(16),
   /** Warning Findings the clinician has read and accepts (code and site). */
   acknowledgements: z
-    .array(z.object({ code: z.string().max(80), fdi: FdiPosition.nullable().default(null) }))
+    .array(z.object({ code: PlainText(80), fdi: FdiPosition.nullable().default(null) }))
     .max(50)
     .default([]),
 });
@@ -68,7 +68,7 @@ export type PlanBody = z.input<typeof PlanBody>;
 export type PlanBodyParsed = z.output<typeof PlanBody>;
 
 export const PlanAmendmentBody = PlanBody.omit({ patientId: true }).extend({
-  amendmentReason: z.string().trim().min(3, 'Say why the plan is amended').max(500),
+  amendmentReason: NoteText(500).min(3, 'Say why the plan is amended'),
 });
 export type PlanAmendmentBody = z.input<typeof PlanAmendmentBody>;
 
@@ -185,7 +185,7 @@ export type RestorationListReply = z.infer<typeof RestorationListReply>;
 export const DeliveryPart = z.object({
   siteId: Id,
   componentId: Id,
-  lot: z.string().trim().max(40).nullable().default(null),
+  lot: PlainText(40).nullable().default(null),
 });
 export const DeliveryBody = z.object({
   deliveredOn: IsoDate,

@@ -1,6 +1,6 @@
 // Torque entries, complications and the Site file's Timeline.
 import { z } from 'zod';
-import { Id, IsoDate, IsoDateTime } from './common.js';
+import { Id, IsoDate, IsoDateTime, NoteText, PlainText } from './common.js';
 import { TORQUE_NCM_RANGE } from '@torquetrail/domain';
 import { ComplicationKind, TimelineKind, TorqueReason, TorqueVerdict } from './enums.js';
 
@@ -18,7 +18,7 @@ export const TorqueBody = z.object({
   /** Defaults to now. */
   performedAt: IsoDateTime.nullable().default(null),
   /** For 'screw-replaced': the lot of the new screw (required when the part requires lots). */
-  replacementLot: z.string().trim().max(40).nullable().default(null),
+  replacementLot: PlainText(40).nullable().default(null),
 });
 export type TorqueBody = z.input<typeof TorqueBody>;
 
@@ -26,7 +26,7 @@ export const TorqueAmendmentBody = z.object({
   appliedNcm,
   wrenchId: Id.nullable().default(null),
   performedAt: IsoDateTime,
-  amendmentReason: z.string().trim().min(3, 'Say why the entry is amended').max(500),
+  amendmentReason: NoteText(500).min(3, 'Say why the entry is amended'),
 });
 export type TorqueAmendmentBody = z.input<typeof TorqueAmendmentBody>;
 
@@ -55,11 +55,11 @@ export const ComplicationBody = z.object({
   componentInstanceId: Id.nullable().default(null),
   kind: ComplicationKind,
   occurredOn: IsoDate,
-  notes: z.string().trim().max(2000).nullable().default(null),
+  notes: NoteText(2000).nullable().default(null),
 });
 export type ComplicationBody = z.input<typeof ComplicationBody>;
 export const ComplicationAmendmentBody = ComplicationBody.omit({ siteId: true }).extend({
-  amendmentReason: z.string().trim().min(3, 'Say why the entry is amended').max(500),
+  amendmentReason: NoteText(500).min(3, 'Say why the entry is amended'),
 });
 export type ComplicationAmendmentBody = z.input<typeof ComplicationAmendmentBody>;
 
@@ -114,9 +114,7 @@ export type TorqueSeries = z.infer<typeof TorqueSeries>;
 
 export const TimelineQuery = z.object({
   /** Comma-separated kinds to keep; all when omitted. */
-  kinds: z
-    .string()
-    .max(200)
+  kinds: PlainText(200)
     .optional()
     .transform((s, ctx) => {
       if (!s) return undefined;

@@ -1,9 +1,9 @@
 import { z } from 'zod';
-import { FdiPosition, Id, IsoDate } from './common.js';
+import { FdiPosition, Id, IsoDate, PlainText } from './common.js';
 import { MaintenanceStatus, SiteStatus } from './enums.js';
 
 export const PatientListQuery = z.object({
-  search: z.string().trim().max(100).optional(),
+  search: PlainText(100).optional(),
 });
 export type PatientListQuery = z.infer<typeof PatientListQuery>;
 

@@ -1,6 +1,7 @@
 // Planned implant sites and placements: what the surgeon (or the dentist) placed, with the UDI.
 import { z } from 'zod';
-import { AxisComponent, Id, IsoDate, IsoDateTime } from './common.js';
+import { AxisComponent, Id, IsoDate, IsoDateTime, NoteText, PlainText, TextAllowing } from './common.js';
+import { GS } from '@torquetrail/domain';
 import type { RouteContract } from './route-contract.js';
 import { ArchSite } from './patients.js';
 import { CLOSURE_KINDS, Connection, LoadingProtocol } from './enums.js';
@@ -44,11 +45,9 @@ export const PlacementOptionsReply = z.object({
 });
 export type PlacementOptionsReply = z.infer<typeof PlacementOptionsReply>;
 
-const optionalText = (max: number) =>
-  z
-    .string()
-    .trim()
-    .max(max, `At most ${max} characters`)
+/** Empty text is no text: stored as null. */
+const optional = (text: ReturnType<typeof PlainText>) =>
+  text
     .nullable()
     .default(null)
     .transform((s) => (s ? s : null));
@@ -71,11 +70,9 @@ const placementFields = {
     .number({ error: 'Enter the implant length in mm' })
     .min(IMPLANT_LENGTH_MM_RANGE.min, between('Length', IMPLANT_LENGTH_MM_RANGE, ' mm'))
     .max(IMPLANT_LENGTH_MM_RANGE.max, between('Length', IMPLANT_LENGTH_MM_RANGE, ' mm')),
-  lot: optionalText(40),
+  lot: optional(PlainText(40)),
   /** The UDI as scanned (raw, with GS separators) or typed (human-readable); parsed on the server. */
-  udi: z
-    .string()
-    .max(200, 'At most 200 characters')
+  udi: TextAllowing([GS, '\r', '\n'], 200)
     .nullable()
     .default(null)
     .transform((s) => (s && s.trim() ? s : null)),
@@ -92,23 +89,23 @@ const placementFields = {
     .max(ISQ_RANGE.max, between('ISQ', ISQ_RANGE))
     .nullable()
     .default(null),
-  grafting: optionalText(500),
+  grafting: optional(NoteText(500)),
   loadingProtocol: LoadingProtocol.nullable().default(null),
   axis: Axis.nullable().default(null),
-  notes: optionalText(2000),
+  notes: optional(NoteText(2000)),
 };
 
 export const PlacementBody = z.object({
   ...placementFields,
   /** A healing abutment or cover screw of the chosen platform, installed at surgery (hand-tight). */
   closureComponentId: Id.nullable().default(null),
-  closureLot: optionalText(40),
+  closureLot: optional(PlainText(40)),
 });
 export type PlacementBody = z.input<typeof PlacementBody>;
 
 export const PlacementAmendmentBody = z.object({
   ...placementFields,
-  amendmentReason: z.string().trim().min(3, 'Say why the entry is amended').max(500),
+  amendmentReason: NoteText(500).min(3, 'Say why the entry is amended'),
 });
 export type PlacementAmendmentBody = z.input<typeof PlacementAmendmentBody>;
 

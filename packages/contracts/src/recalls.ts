@@ -1,6 +1,6 @@
 // Maintenance recall contracts (Recall desk, exams, policy, reminders).
 import { z } from 'zod';
-import { FdiPosition, Id, IsoDate, IsoDateTime } from './common.js';
+import { FdiPosition, Id, IsoDate, IsoDateTime, NoteText, PlainText } from './common.js';
 import { RECALL_MONTHS_RANGE } from '@torquetrail/domain';
 import type { RouteContract } from './route-contract.js';
 import {
@@ -59,7 +59,7 @@ export const SiteExamInput = z.object({
   /** Radiographic bone level when known: mm apical to the most coronal intra-osseous part, worse of mesial/distal. */
   boneLevelMm: z.number().min(0).max(20).nullable().default(null),
   isBaseline: z.boolean().default(false),
-  notes: z.string().trim().max(2000).nullable().default(null),
+  notes: NoteText(2000).nullable().default(null),
 });
 export type SiteExamInput = z.input<typeof SiteExamInput>;
 
@@ -86,7 +86,7 @@ export type CreateVisitBody = z.input<typeof CreateVisitBody>;
 
 /** An amendment replaces one exam (a new row that supersedes it, with the reason); never an overwrite. */
 export const AmendExamBody = SiteExamInput.omit({ siteId: true }).extend({
-  amendmentReason: z.string().trim().min(3, { error: 'say why the exam is amended' }).max(500),
+  amendmentReason: NoteText(500).min(3, { error: 'say why the exam is amended' }),
 });
 export type AmendExamBody = z.input<typeof AmendExamBody>;
 
@@ -181,7 +181,7 @@ export const RecallDeskQuery = z.object({
   filter: DeskFilter.default('all'),
   sort: DeskSort.default('dueOn'),
   dir: SortDirection.default('asc'),
-  search: z.string().trim().max(100).optional(),
+  search: PlainText(100).optional(),
   page: z.coerce.number().int().min(1).max(100_000).default(1),
   pageSize: z.coerce.number().int().min(1).max(200).default(50),
 });

@@ -1,0 +1,212 @@
+// Fuzzing every write endpoint from its zod contract: bodies drawn from the contract's JSON
+// Schema (real ids of the scenario mixed with random ones), with hostile strings, numbers, raw
+// number texts (1e999 …) and wrong shapes injected into one field, plus broken JSON. Each
+// endpoint gets a few hundred cases within a time budget. No reply may be a 5xx, and a refused
+// request may leave no row behind: the row count of every table is compared before and after.
+import { apiRoutes } from '@torquetrail/contracts';
+import { sql } from 'drizzle-orm';
+import fc from 'fast-check';
+import { afterAll, describe, expect, it } from 'vitest';
+import { z } from 'zod';
+import { components, implantSites, patients, platforms } from '../src/db/schema/index.js';
+import {
+  arbitraryFor,
+  hostileValue,
+  type JsonSchema,
+  leafPaths,
+  replaceAt,
+  toJsonText,
+} from './support/json-schema-arbitrary.js';
+import { actorCookies } from './support/role-matrix.js';
+import { scenarioTargets } from './support/scenario-targets.js';
+import { type AccountKey, startTestApp } from './support/test-app.js';
+
+const ctx = await startTestApp();
+afterAll(() => ctx.close());
+const cookies = await actorCookies(ctx);
+const t = await scenarioTargets(ctx, cookies);
+
+/** Every id of the scenario's patients, sites, platforms and parts, of both practices. */
+const uuids = [
+  ...(await ctx.db.select({ id: patients.id }).from(patients)),
+  ...(await ctx.db.select({ id: implantSites.id }).from(implantSites)),
+  ...(await ctx.db.select({ id: platforms.id }).from(platforms)),
+  ...(await ctx.db.select({ id: components.id }).from(components)),
+  { id: t.haroldScrew.id },
+  { id: t.wrench.id },
+].map((r) => r.id);
+
+/** Who calls each write endpoint (a role that may), and on which record. */
+const TARGETS: Record<string, { as: AccountKey | null; path: string }> = {
+  'POST /auth/sign-in': { as: null, path: '/api/auth/sign-in' },
+  'POST /auth/sign-out': { as: null, path: '/api/auth/sign-out' },
+  'POST /catalogue/systems': { as: 'practice_admin', path: '/api/catalogue/systems' },
+  'PATCH /catalogue/systems/:id': { as: 'practice_admin', path: `/api/catalogue/systems/${t.system.id}` },
+  'POST /catalogue/platforms': { as: 'practice_admin', path: '/api/catalogue/platforms' },
+  'PATCH /catalogue/platforms/:id': {
+    as: 'practice_admin',
+    path: `/api/catalogue/platforms/${t.system.platforms[0].id}`,
+  },
+  'POST /catalogue/components': { as: 'practice_admin', path: '/api/catalogue/components' },
+  'PATCH /catalogue/components/:id': {
+    as: 'practice_admin',
+    path: `/api/catalogue/components/${t.system.platforms[0].components[0].id}`,
+  },
+  'POST /wrenches': { as: 'practice_admin', path: '/api/wrenches' },
+  'PATCH /wrenches/:id': { as: 'practice_admin', path: `/api/wrenches/${t.wrench.id}` },
+  'POST /restorations': { as: 'dentist', path: '/api/restorations' },
+  'POST /restorations/:id/amendments': { as: 'dentist', path: `/api/restorations/${await t.fresh.plan()}/amendments` },
+  'POST /restorations/:id/delivery': { as: 'dentist', path: `/api/restorations/${await t.fresh.plan()}/delivery` },
+  'POST /restorations/:id/lab-prescriptions': {
+    as: 'dentist',
+    path: `/api/restorations/${t.haroldBridge}/lab-prescriptions`,
+  },
+  'POST /torque-events': { as: 'dentist', path: '/api/torque-events' },
+  'POST /torque-events/:id/amendments': {
+    as: 'dentist',
+    path: `/api/torque-events/${await t.fresh.torque()}/amendments`,
+  },
+  'POST /complications': { as: 'dentist', path: '/api/complications' },
+  'POST /complications/:id/amendments': {
+    as: 'dentist',
+    path: `/api/complications/${await t.fresh.complication()}/amendments`,
+  },
+  'POST /recalls/visits': { as: 'hygienist', path: '/api/recalls/visits' },
+  'POST /recalls/exams/:id/amend': { as: 'hygienist', path: `/api/recalls/exams/${await t.fresh.exam()}/amend` },
+  'PUT /recalls/policy': { as: 'practice_admin', path: '/api/recalls/policy' },
+  'POST /recalls/reminders/run': { as: 'practice_admin', path: '/api/recalls/reminders/run' },
+  'POST /patients/:id/sites': { as: 'dentist', path: `/api/patients/${t.ids.lucia}/sites` },
+  'POST /sites/:id/placements': { as: 'dentist', path: `/api/sites/${await t.fresh.site()}/placements` },
+  'POST /placements/:id/amendments': { as: 'dentist', path: `/api/placements/${await t.fresh.placement()}/amendments` },
+};
+
+/** Row counts of every table of the schema, in one round trip. */
+const tableNames = (
+  await ctx.db.execute<{ tablename: string }>(sql`select tablename from pg_tables where schemaname = 'public'`)
+).rows.map((r) => r.tablename);
+async function rowCounts(): Promise<Record<string, number>> {
+  const parts = tableNames.map((n) => `'${n}', (select count(*) from "${n}")`).join(', ');
+  const res = await ctx.db.execute<{ counts: Record<string, number> }>(
+    sql.raw(`select json_build_object(${parts}) as counts`),
+  );
+  return res.rows[0].counts;
+}
+
+/** Whole bodies that are not a JSON object, or not JSON. */
+const BROKEN_BODIES = [
+  '',
+  '{',
+  '[]',
+  'null',
+  '"text"',
+  '1e999',
+  '{"a":1e999}',
+  `${'['.repeat(5000)}${']'.repeat(5000)}`,
+  '{"__proto__":{"x":1}}',
+];
+
+const writes = apiRoutes.filter((r) => r.method !== 'get');
+const BUDGET_MS = 2_000;
+const RUNS = 300;
+const figures = { endpoints: 0, cases: 0, serverErrors: 0 };
+
+describe('fuzzing every write endpoint', () => {
+  it('has a target for every write route of the contracts', () => {
+    expect(writes.map((r) => `${r.method.toUpperCase()} ${r.path}`).filter((k) => !(k in TARGETS))).toEqual([]);
+  });
+
+  it.each(writes.map((r) => ({ key: `${r.method.toUpperCase()} ${r.path}`, route: r })))(
+    '$key answers no 5xx and leaves no row behind a refusal',
+    async ({ key, route }) => {
+      const target = TARGETS[key];
+      const schema = route.body
+        ? (z.toJSONSchema(route.body, { io: 'input', unrepresentable: 'any' }) as JsonSchema)
+        : { type: 'object' };
+      const valid = arbitraryFor(schema, uuids);
+      const body = fc.oneof(
+        { weight: 2, arbitrary: valid },
+        {
+          weight: 5,
+          arbitrary: valid.chain((v) => {
+            const paths = leafPaths(v);
+            return fc.tuple(fc.constantFrom(...paths), hostileValue).map(([p, h]) => replaceAt(v, p, h));
+          }),
+        },
+      );
+      const text = fc.oneof(
+        { weight: 12, arbitrary: body.map(toJsonText) },
+        { weight: 1, arbitrary: fc.constantFrom(...BROKEN_BODIES) },
+      );
+      let before = await rowCounts();
+      let cases = 0;
+      const send = async (raw: string) => {
+        let req = ctx.http[route.method](target.path).set('Content-Type', 'application/json');
+        if (target.as) req = req.set('Cookie', cookies[target.as]);
+        const res = await req.send(raw);
+        cases += 1;
+        return res;
+      };
+      await fc.assert(
+        fc.asyncProperty(text, async (raw) => {
+          const res = await send(raw);
+          if (res.status >= 500) figures.serverErrors += 1;
+          expect(res.status, `${raw.slice(0, 300)} → ${JSON.stringify(res.body)}`).toBeLessThan(500);
+          const after = await rowCounts();
+          // Only a refusal must leave the counts as they were; an accepted write moves the baseline.
+          const expected = res.status >= 400 ? before : after;
+          expect(after, `rows left behind by ${raw.slice(0, 300)} → ${res.status}`).toEqual(expected);
+          before = after;
+        }),
+        { numRuns: RUNS, interruptAfterTimeLimit: BUDGET_MS, markInterruptAsFailure: false, endOnFailure: true },
+      );
+      figures.endpoints += 1;
+      figures.cases += cases;
+      expect(cases).toBeGreaterThan(0);
+    },
+    30_000,
+  );
+});
+
+// Issue 9, item 5: each of these answered 500 before the contracts refused control characters
+// and out-of-range dates (PostgreSQL cannot store NUL in text, nor year 0).
+describe('control characters and out-of-range dates are a 400 naming the field', () => {
+  const complication = { siteId: t.ids.harold35, kind: 'other', occurredOn: '2024-02-02' };
+  it.each([
+    ['a NUL in notes', '/api/complications', { ...complication, notes: 'Chipped\u0000' }, 'notes'],
+    ['a year-0000 date', '/api/complications', { ...complication, occurredOn: '0000-01-01' }, 'occurredOn'],
+    [
+      'a year-0000 instant',
+      '/api/torque-events',
+      {
+        componentInstanceId: t.haroldScrew.id,
+        appliedNcm: 25,
+        reason: 're-torque-at-recall',
+        performedAt: '0000-01-01T00:00:00Z',
+      },
+      'performedAt',
+    ],
+    ['a NUL in a lot', `/api/sites/${t.ids.lucia14}/placements`, { ...t.placement(), lot: 'L\u0000' }, 'lot'],
+  ])('%s', async (_, path, body, field) => {
+    const before = await rowCounts();
+    const res = await ctx.http.post(path).set('Cookie', cookies.dentist).send(body);
+    expect(res.status).toBe(400);
+    expect(res.body.fields).toHaveProperty(field);
+    expect(await rowCounts()).toEqual(before);
+  });
+
+  it.each(['/api/patients', '/api/recalls/desk', '/api/recalls/desk/csv'])(
+    'a NUL in the search of %s',
+    async (path) => {
+      const res = await ctx.http.get(path).query({ search: 'Whit\u0000' }).set('Cookie', cookies.dentist);
+      expect(res.status).toBe(400);
+      // The CSV route's error reply keeps the route's text/csv header, so read the JSON from the text.
+      expect(JSON.parse(res.text).fields).toHaveProperty('search');
+    },
+  );
+});
+
+afterAll(() => {
+  console.log(
+    `[figures] fuzzing: ${figures.endpoints} write endpoints, ${figures.cases} cases, ${figures.serverErrors} answers of 500 or more`,
+  );
+});

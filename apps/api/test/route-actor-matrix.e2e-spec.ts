@@ -1,0 +1,363 @@
+// Route × actor matrix generated from the router: every route Express serves under /api is found
+// at run time and called by each actor — the three Larkspur Lane roles, the Northgate surgeon
+// (shared into LL-1001, LL-1002, LL-1004, LL-1005), a second Northgate surgeon with no share
+// (made here: the seed has none), the Quarry Hill dentist and no session. The expected statuses
+// live in ONE table keyed by "METHOD /path"; a served route without a row fails, so a new route
+// cannot be forgotten. Targets are Larkspur records shared with the surgeon unless a row says
+// otherwise; routes that change data get a fresh target per call, so the order does not matter.
+import { eq } from 'drizzle-orm';
+import { afterAll, describe, expect, it } from 'vitest';
+import { users } from '../src/db/schema/index.js';
+import { actorCookies, all, type Expected } from './support/role-matrix.js';
+import { ACCOUNTS, patientId, startTestApp } from './support/test-app.js';
+import { scenarioTargets } from './support/scenario-targets.js';
+import { servedRoutes } from './support/served-routes.js';
+
+type Actor = keyof Expected | 'surgeonNoShare';
+type Expect7 = Record<Actor, number>;
+const ACTORS: readonly Actor[] = [
+  'dentist',
+  'hygienist',
+  'practice_admin',
+  'surgeon',
+  'surgeonNoShare',
+  'otherPracticeDentist',
+  'anonymous',
+];
+
+interface Case {
+  /** Which record, when the route is called on more than one. */
+  target: string;
+  path: () => string | Promise<string>;
+  body?: () => object | Promise<object>;
+  expect: Expect7;
+  /** A session of its own per actor (sign-out would end the shared one). */
+  ownSession?: boolean;
+}
+
+const ctx = await startTestApp();
+afterAll(() => ctx.close());
+const cookies = await actorCookies(ctx);
+const [northgate] = await ctx.db.select().from(users).where(eq(users.email, ACCOUNTS.surgeon));
+/** A copy of an account (same practice, role and password), without its shares. */
+async function cloneAccount(email: string, as: string) {
+  const [u] = await ctx.db.select().from(users).where(eq(users.email, email));
+  await ctx.db.insert(users).values({
+    practiceId: u.practiceId,
+    email: as,
+    displayName: `${u.displayName} (copy)`,
+    role: u.role,
+    passwordHash: u.passwordHash,
+  });
+}
+await cloneAccount(northgate.email, 'surgeon.no-share@northgate.example');
+const noShareAccounts = { ...ACCOUNTS, surgeonNoShare: 'surgeon.no-share@northgate.example' } as const;
+const signInAs = async (email: string) => {
+  const res = await ctx.http.post('/api/auth/sign-in').send({ email, password: 'ledger-demo-2026' });
+  if (res.status !== 200) throw new Error(`sign-in of ${email} failed: ${res.status}`);
+  return ([] as string[])
+    .concat(res.headers['set-cookie'] ?? [])
+    .find((c) => c.startsWith('tt_session='))!
+    .split(';')[0];
+};
+/** Sign-out ends every session of its user: each actor signs out as a copy of their account. */
+const signOutAccount = (actor: Exclude<Actor, 'anonymous'>) => `sign-out.${actor.toLowerCase()}@copies.example`;
+for (const actor of ACTORS) {
+  if (actor !== 'anonymous') await cloneAccount(noShareAccounts[actor], signOutAccount(actor));
+}
+const cookieOf: Record<Actor, string | undefined> = {
+  ...cookies,
+  surgeonNoShare: await signInAs(noShareAccounts.surgeonNoShare),
+  anonymous: undefined,
+};
+
+const { ids, tex, haroldScrew, system, wrench, haroldBridge, labPrescription, nextFdi, plan, placement, exam, fresh } =
+  await scenarioTargets(ctx, cookies);
+
+// ---- the expectations -----------------------------------------------------------------------
+/** `status` for every signed-in actor and 401 without a session, with exceptions. */
+const every = (status: number, over: Partial<Expect7> = {}): Expect7 => ({
+  ...all(status),
+  surgeonNoShare: status,
+  ...over,
+});
+const publicRoute = (status: number): Expect7 => every(status, { anonymous: status });
+/** A read of a Larkspur record shared with the surgeon. */
+const sharedRead = every(200, { surgeonNoShare: 404, otherPracticeDentist: 404 });
+/** Catalogue, wrenches, policy: the practice admin only (the guard refuses every other role). */
+const adminOnly = (ok: number) => every(403, { practice_admin: ok });
+/** Clinical writes of the dentist; another practice's record is 404. */
+const dentistWrite = (ok: number) => every(403, { dentist: ok, otherPracticeDentist: 404 });
+/** Placements: the dentist and the surgeon through a share. */
+const placementWrite = (ok: number) =>
+  every(403, { dentist: ok, surgeon: ok, surgeonNoShare: 404, otherPracticeDentist: 404 });
+const one = (c: Omit<Case, 'target'>, target = 'shared Larkspur record'): Case[] => [{ target, ...c }];
+
+const TABLE: Record<string, Case[]> = {
+  'GET /api/health': one({ path: () => '/api/health', expect: publicRoute(200) }, 'public'),
+  'GET /api/health/ready': one({ path: () => '/api/health/ready', expect: publicRoute(200) }, 'public'),
+  'GET /api/health/live': one({ path: () => '/api/health/live', expect: publicRoute(200) }, 'public'),
+  // A second dentist signs in for every actor: the actors' own sessions stay untouched.
+  'POST /api/auth/sign-in': one(
+    {
+      path: () => '/api/auth/sign-in',
+      body: () => ({ email: 'tomasz.brill@larkspur.example', password: 'ledger-demo-2026' }),
+      expect: publicRoute(200),
+    },
+    'public',
+  ),
+  'POST /api/auth/sign-out': one(
+    { path: () => '/api/auth/sign-out', expect: publicRoute(204), ownSession: true },
+    'own session',
+  ),
+  'GET /api/auth/me': one({ path: () => '/api/auth/me', expect: every(200) }, 'own user'),
+  'GET /api/patients': one({ path: () => '/api/patients', expect: every(200) }, 'scoped list'),
+  'GET /api/patients/:id': [
+    { target: 'shared', path: () => `/api/patients/${ids.harold}`, expect: sharedRead },
+    {
+      target: 'another practice',
+      path: async () => `/api/patients/${await patientId(ctx.db, 'QH-2001')}`,
+      expect: every(404, { otherPracticeDentist: 200 }),
+    },
+  ],
+  'GET /api/sites/:id': one({ path: () => `/api/sites/${ids.harold35}`, expect: sharedRead }),
+  'GET /api/catalogue': one({ path: () => '/api/catalogue', expect: every(200) }, 'own practice'),
+  'POST /api/catalogue/systems': one(
+    {
+      path: () => '/api/catalogue/systems',
+      body: () => ({ name: 'Ostrava TX', manufacturer: 'Ostrava Implants' }),
+      expect: adminOnly(201),
+    },
+    'new',
+  ),
+  'PATCH /api/catalogue/systems/:id': one(
+    {
+      path: () => `/api/catalogue/systems/${system.id}`,
+      body: () => ({ manufacturer: 'Solvra Dental AG' }),
+      expect: adminOnly(200),
+    },
+    'own practice',
+  ),
+  'POST /api/catalogue/platforms': one(
+    {
+      path: () => '/api/catalogue/platforms',
+      body: () => ({
+        systemId: system.id,
+        name: 'CN 6.0',
+        diameterMm: 6,
+        connection: 'internal-conical',
+        platformShift: true,
+      }),
+      expect: adminOnly(201),
+    },
+    'new',
+  ),
+  'PATCH /api/catalogue/platforms/:id': one(
+    {
+      path: () => `/api/catalogue/platforms/${system.platforms[0].id}`,
+      body: () => ({ platformShift: true }),
+      expect: adminOnly(200),
+    },
+    'own practice',
+  ),
+  'POST /api/catalogue/components': one(
+    {
+      path: () => '/api/catalogue/components',
+      body: () => ({
+        platformId: system.platforms[0].id,
+        kind: 'abutment-screw',
+        name: 'Screw, gold',
+        referenceCode: 'ASG-1',
+        torqueSpecNcm: 25,
+        tolerancePct: 6,
+      }),
+      expect: adminOnly(201),
+    },
+    'new',
+  ),
+  'PATCH /api/catalogue/components/:id': one(
+    {
+      path: () => `/api/catalogue/components/${system.platforms[0].components[0].id}`,
+      body: () => ({ tolerancePct: 8 }),
+      expect: adminOnly(200),
+    },
+    'own practice',
+  ),
+  'GET /api/wrenches': one(
+    { path: () => '/api/wrenches', expect: every(200, { surgeon: 403, surgeonNoShare: 403 }) },
+    'own practice',
+  ),
+  'POST /api/wrenches': one(
+    { path: () => '/api/wrenches', body: () => ({ label: 'Spring wrench C', type: 'spring' }), expect: adminOnly(201) },
+    'new',
+  ),
+  'PATCH /api/wrenches/:id': one(
+    {
+      path: () => `/api/wrenches/${wrench.id}`,
+      body: () => ({ lastCalibratedOn: '2026-11-30' }),
+      expect: adminOnly(200),
+    },
+    'own practice',
+  ),
+  'GET /api/patients/:id/restorable-sites': one({
+    path: () => `/api/patients/${ids.harold}/restorable-sites`,
+    expect: sharedRead,
+  }),
+  'GET /api/patients/:id/restorations': one({
+    path: () => `/api/patients/${ids.harold}/restorations`,
+    expect: sharedRead,
+  }),
+  'POST /api/restorations': one({ path: () => '/api/restorations', body: plan, expect: dentistWrite(201) }),
+  'GET /api/restorations/:id': one({ path: () => `/api/restorations/${haroldBridge}`, expect: sharedRead }),
+  'POST /api/restorations/:id/amendments': one({
+    path: async () => `/api/restorations/${await fresh.plan()}/amendments`,
+    body: () => ({ ...plan(), patientId: undefined, shade: 'A1', amendmentReason: 'Shade changed after try-in' }),
+    expect: dentistWrite(201),
+  }),
+  'POST /api/restorations/:id/delivery': one({
+    path: async () => `/api/restorations/${await fresh.plan()}/delivery`,
+    body: () => ({
+      deliveredOn: '2026-11-30',
+      parts: [{ siteId: ids.wendell15, componentId: tex('PSI'), lot: 'PSI-1' }],
+    }),
+    expect: dentistWrite(200),
+  }),
+  'POST /api/restorations/:id/lab-prescriptions': one({
+    path: () => `/api/restorations/${haroldBridge}/lab-prescriptions`,
+    body: () => ({}),
+    expect: dentistWrite(201),
+  }),
+  'GET /api/lab-prescriptions/:id/pdf': one({
+    path: () => `/api/lab-prescriptions/${labPrescription}/pdf`,
+    expect: sharedRead,
+  }),
+  'POST /api/torque-events': one({
+    path: () => '/api/torque-events',
+    body: () => ({
+      componentInstanceId: haroldScrew.id,
+      appliedNcm: 25,
+      reason: 're-torque-at-recall',
+      wrenchId: wrench.id,
+    }),
+    expect: dentistWrite(201),
+  }),
+  'POST /api/torque-events/:id/amendments': one({
+    path: async () => `/api/torque-events/${await fresh.torque()}/amendments`,
+    body: () => ({
+      appliedNcm: 24,
+      performedAt: '2025-01-10T10:00:00Z',
+      amendmentReason: 'Typed 25, the wrench read 24',
+    }),
+    expect: dentistWrite(201),
+  }),
+  'POST /api/complications': one({
+    path: () => '/api/complications',
+    body: () => ({ siteId: ids.harold35, kind: 'veneer-chipping', occurredOn: '2025-03-03' }),
+    expect: dentistWrite(201),
+  }),
+  'POST /api/complications/:id/amendments': one({
+    path: async () => `/api/complications/${await fresh.complication()}/amendments`,
+    body: () => ({ kind: 'screw-loosening', occurredOn: '2024-02-02', amendmentReason: 'Wrong kind chosen' }),
+    expect: dentistWrite(201),
+  }),
+  'GET /api/sites/:id/timeline': one({ path: () => `/api/sites/${ids.harold35}/timeline`, expect: sharedRead }),
+  'GET /api/recalls/desk': one({ path: () => '/api/recalls/desk', expect: every(200) }, 'scoped list'),
+  'GET /api/recalls/desk/csv': one({ path: () => '/api/recalls/desk/csv', expect: every(200) }, 'scoped list'),
+  'GET /api/recalls/patients/:id/exam-context': one({
+    path: () => `/api/recalls/patients/${ids.harold}/exam-context`,
+    expect: sharedRead,
+  }),
+  'POST /api/recalls/visits': one({
+    path: () => '/api/recalls/visits',
+    body: () => ({ patientId: ids.lucia, examinedOn: '2026-01-05', exams: [exam(ids.lucia14)] }),
+    expect: every(403, { hygienist: 201 }),
+  }),
+  'POST /api/recalls/exams/:id/amend': one({
+    path: async () => `/api/recalls/exams/${await fresh.exam()}/amend`,
+    body: () => ({ ...exam(ids.lucia14), siteId: undefined, mobility: true, amendmentReason: 'Mobility missed' }),
+    expect: every(403, { hygienist: 201 }),
+  }),
+  'GET /api/recalls/sites/:id/exams': one({
+    path: () => `/api/recalls/sites/${ids.harold35}/exams`,
+    expect: sharedRead,
+  }),
+  'GET /api/recalls/policy': one(
+    { path: () => '/api/recalls/policy', expect: every(200, { surgeon: 403, surgeonNoShare: 403 }) },
+    'own practice',
+  ),
+  // The default policy: no other case sees a change.
+  'PUT /api/recalls/policy': one(
+    {
+      path: () => '/api/recalls/policy',
+      body: () => ({ baseMonths: 6, riskMonths: 3, reminderDaysBefore: 14, overdueReminderDaysAfter: 7 }),
+      expect: adminOnly(200),
+    },
+    'own practice',
+  ),
+  'POST /api/recalls/reminders/run': one(
+    { path: () => '/api/recalls/reminders/run', body: () => ({ today: '2000-01-01' }), expect: adminOnly(200) },
+    'own practice',
+  ),
+  'GET /api/recalls/reminders': one({ path: () => '/api/recalls/reminders', expect: adminOnly(200) }, 'own practice'),
+  // The surgeon adds sites only in their own practice: a shared patient of Larkspur is 403.
+  'POST /api/patients/:id/sites': one({
+    path: () => `/api/patients/${ids.lucia}/sites`,
+    body: () => ({ fdi: nextFdi() }),
+    expect: every(403, { dentist: 201, surgeonNoShare: 404, otherPracticeDentist: 404 }),
+  }),
+  'GET /api/sites/:id/placement-options': one({
+    path: () => `/api/sites/${ids.lucia14}/placement-options`,
+    expect: placementWrite(200),
+  }),
+  'POST /api/sites/:id/placements': one({
+    path: async () => `/api/sites/${await fresh.site()}/placements`,
+    body: placement,
+    expect: placementWrite(201),
+  }),
+  'POST /api/placements/:id/amendments': one({
+    path: async () => `/api/placements/${await fresh.placement()}/amendments`,
+    body: () => ({ ...placement(), lengthMm: 13, amendmentReason: 'Length misread from the box' }),
+    expect: placementWrite(201),
+  }),
+};
+
+// ---- the run --------------------------------------------------------------------------------
+const served = servedRoutes(ctx.app);
+let cases = 0;
+
+describe('route × actor matrix', () => {
+  it('has a row for every served route and no row for a route that is not served', () => {
+    expect(
+      served.filter((r) => !(r in TABLE)),
+      'served routes missing from the table',
+    ).toEqual([]);
+    expect(
+      Object.keys(TABLE).filter((r) => !served.includes(r)),
+      'rows without a route',
+    ).toEqual([]);
+  });
+
+  describe.each(served.flatMap((route) => (TABLE[route] ?? []).map((c) => ({ route, ...c }))))(
+    '$route ($target)',
+    (row) => {
+      it.each(ACTORS)('as %s', async (actor) => {
+        const [method] = row.route.split(' ');
+        const path = await row.path();
+        let req = ctx.http[method.toLowerCase() as 'get' | 'post' | 'put' | 'patch'](path);
+        const cookie =
+          row.ownSession && actor !== 'anonymous' ? await signInAs(signOutAccount(actor)) : cookieOf[actor];
+        if (cookie) req = req.set('Cookie', cookie);
+        const res = row.body ? await req.send(await row.body()) : await req;
+        cases += 1;
+        expect(res.status, JSON.stringify(res.body)).toBe(row.expect[actor]);
+        // A refusal of another practice's record reads like a missing record.
+        // oxlint-disable-next-line vitest/no-conditional-expect
+        if (res.status === 404) expect(res.body.message).toMatch(/^No such/);
+      });
+    },
+  );
+});
+
+afterAll(() => {
+  console.log(`[figures] route × actor matrix: ${served.length} routes × ${ACTORS.length} actors = ${cases} cases run`);
+});
