@@ -15,16 +15,18 @@ import {
 } from '../db/schema/index.js';
 
 /** 1 for a lineage's first version: versions are saved one at a time, so their order is their number. */
-const versionOf = (t: typeof components | typeof torqueWrenches) =>
-  sql<number>`(select count(*)::int from ${t} older where older.lineage_id = ${t.lineageId} and older.created_at <= ${t.createdAt})`;
+// Outer columns in these select-list subqueries are qualified by hand: drizzle leaves column names
+// bare in a select list, where the subquery's own table would capture them.
+const versionOf = (table: 'components' | 'torque_wrenches') =>
+  sql<number>`(select count(*)::int from ${sql.identifier(table)} older where older.lineage_id = ${sql.identifier(table)}.lineage_id and older.created_at <= ${sql.identifier(table)}.created_at)`;
 
 const componentColumns = {
   ...componentSpecColumns,
   practiceId: components.practiceId,
   lineageId: components.lineageId,
-  version: versionOf(components),
+  version: versionOf('components'),
   versionedAt: components.createdAt,
-  inUse: sql<boolean>`exists (select 1 from ${componentInstances} ci join ${components} v on v.id = ci.component_id where v.lineage_id = ${components.lineageId})`,
+  inUse: sql<boolean>`exists (select 1 from ${componentInstances} ci join ${components} v on v.id = ci.component_id where v.lineage_id = "components".lineage_id)`,
 };
 
 export async function listSystems(db: Db, practiceId: string) {
@@ -107,7 +109,7 @@ export async function listComponentVersions(db: Db, practiceId: string, lineageI
     .select({
       ...componentColumns,
       byName: users.displayName,
-      current: sql<boolean>`not exists (select 1 from ${components} newer where newer.supersedes_id = ${components.id})`,
+      current: sql<boolean>`not exists (select 1 from ${components} newer where newer.supersedes_id = "components".id)`,
     })
     .from(components)
     .leftJoin(users, eq(users.id, components.createdBy))
@@ -174,10 +176,10 @@ const wrenchColumns = {
   lineageId: torqueWrenches.lineageId,
   label: torqueWrenches.label,
   type: torqueWrenches.type,
-  version: versionOf(torqueWrenches),
+  version: versionOf('torque_wrenches'),
   lastCalibratedOn: sql<
     string | null
-  >`(select max(wc.calibrated_on)::text from ${wrenchCalibrations} wc where wc.wrench_lineage_id = ${torqueWrenches.lineageId})`,
+  >`(select max(wc.calibrated_on)::text from ${wrenchCalibrations} wc where wc.wrench_lineage_id = "torque_wrenches".lineage_id)`,
 };
 
 /** The current version of every wrench. */
