@@ -116,6 +116,9 @@ beforeAll(async () => {
   ids.component = (
     await ctx.db.select({ id: components.id }).from(components).where(eq(components.platformId, ids.platform))
   )[0].id;
+  ids.quarryComponent = (
+    await ctx.db.select({ id: components.id }).from(components).where(eq(components.practiceId, quarry.id))
+  )[0].id;
   ids.wrench = (
     await ctx.db.select({ id: torqueWrenches.id }).from(torqueWrenches).where(eq(torqueWrenches.practiceId, larkspur))
   )[0].id;
@@ -226,15 +229,54 @@ const matrix: RoleCase[] = [
     route: 'PATCH /api/wrenches/:id',
     method: 'patch',
     path: () => `/api/wrenches/${ids.wrench}`,
-    body: () => ({ lastCalibratedOn: '2026-11-30' }),
+    body: () => ({ label: 'Spring wrench A (surgery 1, serviced)' }),
     expect: adminWrites(200),
   },
   {
     route: 'PATCH /api/wrenches/:id (another practice)',
     method: 'patch',
     path: () => `/api/wrenches/${ids.quarryWrench}`,
-    body: () => ({ lastCalibratedOn: '2026-11-30' }),
+    body: () => ({ label: 'x' }),
     expect: adminWrites(404),
+  },
+  {
+    route: 'GET /api/wrenches/:id/calibrations',
+    method: 'get',
+    path: () => `/api/wrenches/${ids.wrench}/calibrations`,
+    expect: all(200, { surgeon: 403, otherPracticeDentist: 404 }),
+  },
+  {
+    route: 'GET /api/wrenches/:id/calibrations (another practice)',
+    method: 'get',
+    path: () => `/api/wrenches/${ids.quarryWrench}/calibrations`,
+    expect: all(404, { surgeon: 403, otherPracticeDentist: 200 }),
+  },
+  {
+    route: 'POST /api/wrenches/:id/calibrations',
+    method: 'post',
+    path: () => `/api/wrenches/${ids.wrench}/calibrations`,
+    body: () => ({ calibratedOn: '2026-11-30', note: 'Bench check' }),
+    expect: adminWrites(201),
+  },
+  {
+    route: 'POST /api/wrenches/:id/calibrations (another practice)',
+    method: 'post',
+    path: () => `/api/wrenches/${ids.quarryWrench}/calibrations`,
+    body: () => ({ calibratedOn: '2026-11-30' }),
+    expect: adminWrites(404),
+  },
+  {
+    route: 'GET /api/catalogue/components/:id/versions',
+    method: 'get',
+    path: () => `/api/catalogue/components/${ids.component}/versions`,
+    // The surgeon of the matrix works in another practice: its catalogue is not this one.
+    expect: all(200, { surgeon: 404, otherPracticeDentist: 404 }),
+  },
+  {
+    route: 'GET /api/catalogue/components/:id/versions (another practice)',
+    method: 'get',
+    path: () => `/api/catalogue/components/${ids.quarryComponent}/versions`,
+    expect: all(404, { otherPracticeDentist: 200 }),
   },
   {
     route: 'GET /api/patients/:id/restorable-sites (shared)',

@@ -1,7 +1,7 @@
 // Component catalogue and torque wrenches: the practice admin edits, everyone in the practice reads.
 import { z } from 'zod';
 import { TORQUE_NCM_RANGE } from '@torquetrail/domain';
-import { Id, IsoDate, PlainText } from './common.js';
+import { Id, IsoDate, IsoDateTime, NoteText, PlainText } from './common.js';
 import { ComponentKind, Connection, Tray, WrenchType } from './enums.js';
 
 /** Shown on the catalogue and every torque form. */
@@ -22,10 +22,26 @@ export const CatalogueComponent = z.object({
   torqueSpecNcm: z.number().nullable(),
   tolerancePct: z.number(),
   requiresLot: z.boolean(),
-  /** Recorded in a patient (a component instance exists): it can be corrected but never deleted. */
+  /** Recorded in a patient (an instance of any version exists): it can be corrected but never deleted. */
   inUse: z.boolean(),
+  /** Versions (ADR 0006): an edit saves a new version; records keep the version they used. 1 = first. */
+  version: z.number().int(),
+  /** When this version was saved. */
+  versionedAt: IsoDateTime,
 });
 export type CatalogueComponent = z.infer<typeof CatalogueComponent>;
+
+/** Every version of one part, oldest first. */
+export const ComponentVersionsReply = z.object({
+  items: z.array(
+    CatalogueComponent.omit({ inUse: true }).extend({
+      /** Who saved this version (null for versions saved by the seed or before versions were kept). */
+      byName: z.string().nullable(),
+      current: z.boolean(),
+    }),
+  ),
+});
+export type ComponentVersionsReply = z.infer<typeof ComponentVersionsReply>;
 
 export const CataloguePlatform = z.object({
   id: Id,
@@ -113,19 +129,46 @@ export const ComponentPatch = z.object({
 });
 export type ComponentPatch = z.infer<typeof ComponentPatch>;
 
-export const Wrench = z.object({ id: Id, label: z.string(), type: WrenchType, lastCalibratedOn: IsoDate.nullable() });
+export const Wrench = z.object({
+  id: Id,
+  label: z.string(),
+  type: WrenchType,
+  /** The latest calibration in the wrench's history, if any. */
+  lastCalibratedOn: IsoDate.nullable(),
+  /** Versions (ADR 0006): editing the label or type saves a new version. 1 = first. */
+  version: z.number().int(),
+});
 export type Wrench = z.infer<typeof Wrench>;
 export const WrenchListReply = z.object({ items: z.array(Wrench) });
 export type WrenchListReply = z.infer<typeof WrenchListReply>;
 export const WrenchBody = z.object({
   label: name,
   type: WrenchType,
+  /** The wrench's last calibration when it joins the catalogue: the first entry of its history. */
   lastCalibratedOn: IsoDate.nullable().default(null),
 });
 export type WrenchBody = z.input<typeof WrenchBody>;
+/** Label and type; calibrations are added to the history (CalibrationBody), never overwritten. */
 export const WrenchPatch = z.object({
   label: name.optional(),
   type: WrenchType.optional(),
-  lastCalibratedOn: IsoDate.nullable().optional(),
 });
 export type WrenchPatch = z.infer<typeof WrenchPatch>;
+
+/** One calibration of a wrench. The date cannot be in the future (checked against the server's day). */
+export const CalibrationBody = z.object({
+  calibratedOn: IsoDate,
+  note: NoteText(500).nullable().default(null),
+});
+export type CalibrationBody = z.input<typeof CalibrationBody>;
+export const Calibration = z.object({
+  id: Id,
+  calibratedOn: IsoDate,
+  note: z.string().nullable(),
+  byName: z.string().nullable(),
+  recordedAt: IsoDateTime,
+});
+export type Calibration = z.infer<typeof Calibration>;
+/** A wrench's calibrations, newest first. */
+export const CalibrationListReply = z.object({ items: z.array(Calibration) });
+export type CalibrationListReply = z.infer<typeof CalibrationListReply>;

@@ -119,7 +119,7 @@ export type RestorableSite = z.infer<typeof RestorableSite>;
 export const RestorableSitesReply = z.object({ items: z.array(RestorableSite) });
 export type RestorableSitesReply = z.infer<typeof RestorableSitesReply>;
 
-export const PlannedComponent = CatalogueComponent.omit({ inUse: true });
+export const PlannedComponent = CatalogueComponent.omit({ inUse: true, version: true, versionedAt: true });
 export type PlannedComponent = z.infer<typeof PlannedComponent>;
 
 export const RestorationSiteDetail = z.object({

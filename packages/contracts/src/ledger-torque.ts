@@ -107,7 +107,16 @@ export const TorqueSeries = z.object({
   tolerancePct: z.number(),
   removedOn: IsoDate.nullable(),
   points: z.array(
-    z.object({ id: Id, at: IsoDateTime, appliedNcm: z.number(), verdict: TorqueVerdict, reason: TorqueReason }),
+    z.object({
+      id: Id,
+      at: IsoDateTime,
+      appliedNcm: z.number(),
+      /** The spec and tolerance this entry was judged against, as stored with it (ADR 0006). */
+      specNcm: z.number(),
+      tolerancePct: z.number(),
+      verdict: TorqueVerdict,
+      reason: TorqueReason,
+    }),
   ),
 });
 export type TorqueSeries = z.infer<typeof TorqueSeries>;

@@ -11,6 +11,10 @@ import {
   PlatformPatch,
   SystemBody,
   SystemPatch,
+  Calibration,
+  CalibrationBody,
+  CalibrationListReply,
+  ComponentVersionsReply,
   Wrench,
   WrenchBody,
   WrenchListReply,
@@ -75,15 +79,27 @@ export const ledgerRoutes: RouteContract[] = [
     body: ComponentBody,
     reply: CatalogueComponent,
   }),
-  r('patch', '/catalogue/components/:id', 'Correct a part; platform and kind stay fixed (practice admin)', {
-    body: ComponentPatch,
-    reply: CatalogueComponent,
+  r(
+    'patch',
+    '/catalogue/components/:id',
+    'Edit a part: saves a new version; records keep the version they used; platform and kind stay fixed (practice admin)',
+    { body: ComponentPatch, reply: CatalogueComponent },
+  ),
+  r('get', '/catalogue/components/:id/versions', 'Every version of a part, oldest first', {
+    reply: ComponentVersionsReply,
   }),
   r('get', '/wrenches', "The practice's torque wrenches with their last calibration", { reply: WrenchListReply }),
   r('post', '/wrenches', 'Add a torque wrench (practice admin)', { body: WrenchBody, reply: Wrench }),
-  r('patch', '/wrenches/:id', 'Update a torque wrench, e.g. its calibration date (practice admin)', {
+  r('patch', '/wrenches/:id', "Edit a torque wrench's label or type: saves a new version (practice admin)", {
     body: WrenchPatch,
     reply: Wrench,
+  }),
+  r('get', '/wrenches/:id/calibrations', "A torque wrench's calibration history, newest first", {
+    reply: CalibrationListReply,
+  }),
+  r('post', '/wrenches/:id/calibrations', 'Record a calibration of a torque wrench (practice admin)', {
+    body: CalibrationBody,
+    reply: Calibration,
   }),
   r('get', '/patients/:id/restorable-sites', 'Implant sites of a patient with platform and axis, for the planner', {
     reply: RestorableSitesReply,

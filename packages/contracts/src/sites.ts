@@ -64,6 +64,20 @@ export const StackPart = z.object({
    * is due (RETIGHTEN_AFTER_MINUTES after the seating).
    */
   retorqueDueAt: IsoDateTime.nullable().optional(),
+  /**
+   * The part is shown as installed (name, spec and tolerance of that catalogue version, ADR 0006);
+   * when the catalogue has been edited since, its current version, which new torque entries use.
+   */
+  newerVersion: z
+    .object({
+      componentId: Id,
+      name: z.string(),
+      torqueSpecNcm: z.number().nullable(),
+      tolerancePct: z.number(),
+      versionedAt: IsoDateTime,
+    })
+    .nullable()
+    .optional(),
 });
 export type StackPart = z.infer<typeof StackPart>;
 

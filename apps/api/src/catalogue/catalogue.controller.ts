@@ -1,6 +1,10 @@
 import { Body, Controller, Get, Param, ParseUUIDPipe, Patch, Post, HttpStatus } from '@nestjs/common';
 import type { AppAbility } from '@torquetrail/authz';
 import {
+  type Calibration,
+  CalibrationBody,
+  type CalibrationListReply,
+  type ComponentVersionsReply,
   type CatalogueComponent,
   type CataloguePlatform,
   type CatalogueReply,
@@ -85,7 +89,7 @@ export class CatalogueController {
     @CurrentAbility() ability: AppAbility,
     @Body(new ZodValidationPipe(ComponentBody)) body: z.output<typeof ComponentBody>,
   ): Promise<CatalogueComponent> {
-    return this.catalogue.createComponent(ability, scopeOf(user), body);
+    return this.catalogue.createComponent(ability, user, scopeOf(user), body);
   }
 
   @Patch('catalogue/components/:id')
@@ -96,7 +100,17 @@ export class CatalogueController {
     @Param('id', uuid()) id: string,
     @Body(new ZodValidationPipe(ComponentPatch)) body: ComponentPatch,
   ): Promise<CatalogueComponent> {
-    return this.catalogue.updateComponent(ability, scopeOf(user), id, body);
+    return this.catalogue.updateComponent(ability, user, scopeOf(user), id, body);
+  }
+
+  @Get('catalogue/components/:id/versions')
+  @Allow('read', 'Catalogue')
+  componentVersions(
+    @CurrentUser() user: SessionUser,
+    @CurrentAbility() ability: AppAbility,
+    @Param('id', uuid()) id: string,
+  ): Promise<ComponentVersionsReply> {
+    return this.catalogue.componentVersions(ability, scopeOf(user), id);
   }
 
   @Get('wrenches')
@@ -112,7 +126,7 @@ export class CatalogueController {
     @CurrentAbility() ability: AppAbility,
     @Body(new ZodValidationPipe(WrenchBody)) body: z.output<typeof WrenchBody>,
   ): Promise<Wrench> {
-    return this.catalogue.createWrench(ability, scopeOf(user), body);
+    return this.catalogue.createWrench(ability, user, scopeOf(user), body);
   }
 
   @Patch('wrenches/:id')
@@ -123,6 +137,27 @@ export class CatalogueController {
     @Param('id', uuid()) id: string,
     @Body(new ZodValidationPipe(WrenchPatch)) body: WrenchPatch,
   ): Promise<Wrench> {
-    return this.catalogue.updateWrench(ability, scopeOf(user), id, body);
+    return this.catalogue.updateWrench(ability, user, scopeOf(user), id, body);
+  }
+
+  @Get('wrenches/:id/calibrations')
+  @Allow('read', 'Wrench')
+  calibrations(
+    @CurrentUser() user: SessionUser,
+    @CurrentAbility() ability: AppAbility,
+    @Param('id', uuid()) id: string,
+  ): Promise<CalibrationListReply> {
+    return this.catalogue.calibrations(ability, scopeOf(user), id);
+  }
+
+  @Post('wrenches/:id/calibrations')
+  @Allow('update', 'Wrench')
+  addCalibration(
+    @CurrentUser() user: SessionUser,
+    @CurrentAbility() ability: AppAbility,
+    @Param('id', uuid()) id: string,
+    @Body(new ZodValidationPipe(CalibrationBody)) body: z.output<typeof CalibrationBody>,
+  ): Promise<Calibration> {
+    return this.catalogue.addCalibration(ability, user, scopeOf(user), id, body);
   }
 }

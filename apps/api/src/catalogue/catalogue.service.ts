@@ -14,17 +14,29 @@ import {
   type Wrench,
   type WrenchListReply,
   type WrenchPatch,
+  type Calibration,
+  type CalibrationListReply,
+  type ComponentVersionsReply,
+  CalibrationBody,
   WrenchBody,
   ComponentBody as ComponentBodySchema,
 } from '@torquetrail/contracts';
 import type { z } from 'zod';
+import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
+import { alreadyAmended } from '../common/amendment-conflict.js';
+import { fieldError } from '../common/field-error.js';
 import { DB, type Database } from '../db/database.js';
 import * as repo from './catalogue.repository.js';
 
 type ComponentRow = Awaited<ReturnType<typeof repo.listComponents>>[number];
-const toComponent = ({ practiceId: _p, ...c }: ComponentRow): CatalogueComponent => c;
-const toWrench = ({ practiceId: _p, ...w }: NonNullable<Awaited<ReturnType<typeof repo.findWrench>>>): Wrench => w;
+const toComponent = ({ practiceId: _p, lineageId: _l, versionedAt, ...c }: ComponentRow): CatalogueComponent => ({
+  ...c,
+  versionedAt: versionedAt.toISOString(),
+});
+type WrenchRow = Awaited<ReturnType<typeof repo.listWrenches>>[number];
+const toWrench = ({ practiceId: _p, lineageId: _l, ...w }: WrenchRow): Wrench => w;
+const today = () => new Date().toISOString().slice(0, 10);
 
 @Injectable()
 export class CatalogueService {
@@ -101,6 +113,7 @@ export class CatalogueService {
 
   async createComponent(
     ability: AppAbility,
+    user: SessionUser,
     scope: Scope,
     body: z.output<typeof ComponentBodySchema>,
   ): Promise<CatalogueComponent> {
@@ -111,36 +124,161 @@ export class CatalogueService {
       await repo.findPlatform(this.db, scope.practiceId, body.platformId),
       'platform',
     );
-    const id = await repo.insertComponent(this.db, { ...body, practiceId: scope.practiceId });
-    return toComponent((await repo.findComponents(this.db, scope.practiceId, [id]))[0]);
+    const id = await repo.insertComponent(this.db, { ...body, practiceId: scope.practiceId, createdBy: user.id });
+    return this.component(scope, id);
   }
 
-  /** Create + update only: a part recorded in a patient is never deleted, so history keeps its meaning. */
+  private async component(scope: Scope, id: string): Promise<CatalogueComponent> {
+    const row = await repo.findComponent(this.db, scope.practiceId, id);
+    if (!row) throw new Error(`component ${id} vanished`);
+    const { supersededById: _s, ...c } = row;
+    return toComponent(c);
+  }
+
+  /**
+   * An edit saves a new version (ADR 0006): installs, torque entries and plans keep pointing at
+   * the version they used; new work uses the current one. Only the current version is edited.
+   */
   async updateComponent(
     ability: AppAbility,
+    user: SessionUser,
     scope: Scope,
     id: string,
     patch: ComponentPatch,
   ): Promise<CatalogueComponent> {
-    const [row] = await repo.findComponents(this.db, scope.practiceId, [id]);
-    assertCan(ability, 'update', 'Catalogue', row, 'component');
-    await repo.updateComponent(this.db, scope.practiceId, id, patch);
-    return toComponent((await repo.findComponents(this.db, scope.practiceId, [id]))[0]);
+    const row = assertCan(
+      ability,
+      'update',
+      'Catalogue',
+      await repo.findComponent(this.db, scope.practiceId, id),
+      'component',
+    );
+    if (row.supersededById) throw alreadyAmended('components');
+    const before = {
+      name: row.name,
+      referenceCode: row.referenceCode,
+      engaging: row.engaging,
+      angleDeg: row.angleDeg,
+      collarHeightMm: row.collarHeightMm,
+      tray: row.tray,
+      torqueSpecNcm: row.torqueSpecNcm,
+      tolerancePct: row.tolerancePct,
+      requiresLot: row.requiresLot,
+    };
+    const after = { ...before, ...patch };
+    // Saving what is already there makes no version.
+    if ((Object.keys(before) as (keyof typeof before)[]).every((k) => before[k] === after[k])) return toComponent(row);
+    const newId = await repo.insertComponentVersion(this.db, {
+      ...after,
+      practiceId: row.practiceId,
+      platformId: row.platformId,
+      kind: row.kind,
+      lineageId: row.lineageId,
+      supersedesId: row.id,
+      createdBy: user.id,
+    });
+    return this.component(scope, newId);
+  }
+
+  /** Every version of a part (by the id of any of them), oldest first. */
+  async componentVersions(ability: AppAbility, scope: Scope, id: string): Promise<ComponentVersionsReply> {
+    const row = assertCan(
+      ability,
+      'read',
+      'Catalogue',
+      await repo.findComponent(this.db, scope.practiceId, id),
+      'component',
+    );
+    const versions = await repo.listComponentVersions(this.db, scope.practiceId, row.lineageId);
+    return {
+      items: versions.map(({ practiceId: _p, lineageId: _l, inUse: _u, versionedAt, ...v }) => ({
+        ...v,
+        versionedAt: versionedAt.toISOString(),
+      })),
+    };
   }
 
   async wrenches(scope: Scope): Promise<WrenchListReply> {
     return { items: (await repo.listWrenches(this.db, scope.practiceId)).map(toWrench) };
   }
 
-  async createWrench(ability: AppAbility, scope: Scope, body: z.output<typeof WrenchBody>): Promise<Wrench> {
-    assertCan(ability, 'create', 'Wrench', { practiceId: scope.practiceId }, 'wrench');
-    const id = await repo.insertWrench(this.db, { ...body, practiceId: scope.practiceId });
-    return toWrench(await repo.findWrench(this.db, scope.practiceId, id));
+  private async wrench(scope: Scope, id: string): Promise<Wrench> {
+    const row = await repo.findWrench(this.db, scope.practiceId, id);
+    if (!row) throw new Error(`wrench ${id} vanished`);
+    const { supersededById: _s, ...w } = row;
+    return toWrench(w);
   }
 
-  async updateWrench(ability: AppAbility, scope: Scope, id: string, patch: WrenchPatch): Promise<Wrench> {
-    assertCan(ability, 'update', 'Wrench', await repo.findWrench(this.db, scope.practiceId, id), 'wrench');
-    await repo.updateWrench(this.db, scope.practiceId, id, patch);
-    return toWrench(await repo.findWrench(this.db, scope.practiceId, id));
+  async createWrench(
+    ability: AppAbility,
+    user: SessionUser,
+    scope: Scope,
+    body: z.output<typeof WrenchBody>,
+  ): Promise<Wrench> {
+    assertCan(ability, 'create', 'Wrench', { practiceId: scope.practiceId }, 'wrench');
+    if (body.lastCalibratedOn && body.lastCalibratedOn > today())
+      throw fieldError({ lastCalibratedOn: 'A calibration date cannot be in the future' });
+    const { lastCalibratedOn, ...wrench } = body;
+    const id = await this.db.transaction((tx) =>
+      repo.insertWrench(
+        tx,
+        { ...wrench, practiceId: scope.practiceId, createdBy: user.id },
+        lastCalibratedOn
+          ? { practiceId: scope.practiceId, calibratedOn: lastCalibratedOn, note: null, recordedBy: user.id }
+          : null,
+      ),
+    );
+    return this.wrench(scope, id);
+  }
+
+  /** Label or type: a new version (ADR 0006); torque entries keep the version they used. */
+  async updateWrench(
+    ability: AppAbility,
+    user: SessionUser,
+    scope: Scope,
+    id: string,
+    patch: WrenchPatch,
+  ): Promise<Wrench> {
+    const row = assertCan(ability, 'update', 'Wrench', await repo.findWrench(this.db, scope.practiceId, id), 'wrench');
+    if (row.supersededById) throw alreadyAmended('torque_wrenches');
+    const after = { label: patch.label ?? row.label, type: patch.type ?? row.type };
+    if (after.label === row.label && after.type === row.type) return this.wrench(scope, row.id);
+    const newId = await repo.insertWrenchVersion(this.db, {
+      ...after,
+      practiceId: row.practiceId,
+      lineageId: row.lineageId,
+      supersedesId: row.id,
+      createdBy: user.id,
+    });
+    return this.wrench(scope, newId);
+  }
+
+  /** A wrench's calibrations (any version's id names the instrument), newest first. */
+  async calibrations(ability: AppAbility, scope: Scope, id: string): Promise<CalibrationListReply> {
+    const row = assertCan(ability, 'read', 'Wrench', await repo.findWrench(this.db, scope.practiceId, id), 'wrench');
+    const items = await repo.listCalibrations(this.db, scope.practiceId, row.lineageId);
+    return { items: items.map((c) => ({ ...c, recordedAt: c.recordedAt.toISOString() })) };
+  }
+
+  /** A calibration is added to the history, never overwritten; a date in the future is refused. */
+  async addCalibration(
+    ability: AppAbility,
+    user: SessionUser,
+    scope: Scope,
+    id: string,
+    body: z.output<typeof CalibrationBody>,
+  ): Promise<Calibration> {
+    const row = assertCan(ability, 'update', 'Wrench', await repo.findWrench(this.db, scope.practiceId, id), 'wrench');
+    if (body.calibratedOn > today()) throw fieldError({ calibratedOn: 'A calibration date cannot be in the future' });
+    const newId = await repo.insertCalibration(this.db, {
+      practiceId: row.practiceId,
+      wrenchLineageId: row.lineageId,
+      calibratedOn: body.calibratedOn,
+      note: body.note,
+      recordedBy: user.id,
+    });
+    const found = (await repo.listCalibrations(this.db, scope.practiceId, row.lineageId)).find((c) => c.id === newId);
+    if (!found) throw new Error(`calibration ${newId} vanished`);
+    return { ...found, recordedAt: found.recordedAt.toISOString() };
   }
 }

@@ -9,6 +9,8 @@ const ALREADY_AMENDED: Record<AmendableTableName, string> = {
   torque_events: 'This entry was already amended; amend the current version',
   complications: 'This entry was already amended; amend the current version',
   recall_exams: 'This exam has already been amended; amend its latest version',
+  components: 'This part has a newer version in the catalogue; edit its current version',
+  torque_wrenches: 'This wrench has a newer version; edit its current version',
 };
 
 /** 409 for an amendment of a version that a newer row already supersedes. */

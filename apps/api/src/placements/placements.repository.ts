@@ -1,5 +1,6 @@
 import { and, asc, eq, inArray, notInArray } from 'drizzle-orm';
 import { CLOSURE_KINDS } from '@torquetrail/contracts';
+import { currentPartVersions } from '../db/catalogue-parts.js';
 import type { Db, Tx } from '../db/database.js';
 import {
   componentInstances,
@@ -13,7 +14,7 @@ import {
 } from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
 import { visiblePatients } from '../authz/visible-patients.js';
-import { insertAmendment, supersededById } from '../db/amendments.js';
+import { insertAmendment, isCurrentVersion, supersededById } from '../db/amendments.js';
 
 /** A patient the user may see (scoped in SQL), with the practice a new site belongs to. */
 export async function findVisiblePatient(db: Db, scope: Scope, patientId: string) {
@@ -105,7 +106,13 @@ export async function listPlacementOptions(db: Db, practiceId: string) {
       requiresLot: components.requiresLot,
     })
     .from(components)
-    .where(and(eq(components.practiceId, practiceId), inArray(components.kind, [...CLOSURE_KINDS])))
+    .where(
+      and(
+        eq(components.practiceId, practiceId),
+        inArray(components.kind, [...CLOSURE_KINDS]),
+        isCurrentVersion(components),
+      ),
+    )
     .orderBy(asc(components.kind), asc(components.name));
   return { rows, parts };
 }
@@ -119,15 +126,12 @@ export async function findPlatformOfPractice(db: Db, practiceId: string, platfor
   return row ?? null;
 }
 
-/** A part of the given platform within the practice. */
+/** A part of the given platform within the practice, as its current version (new work, ADR 0006). */
 export async function findComponentOfPlatform(db: Db, practiceId: string, platformId: string, componentId: string) {
-  const [row] = await db
-    .select({ id: components.id, kind: components.kind, name: components.name, requiresLot: components.requiresLot })
-    .from(components)
-    .where(
-      and(eq(components.id, componentId), eq(components.practiceId, practiceId), eq(components.platformId, platformId)),
-    );
-  return row ?? null;
+  const [row] = await currentPartVersions(db, practiceId, [componentId]);
+  return row && row.platformId === platformId
+    ? { id: row.id, kind: row.kind, name: row.name, requiresLot: row.requiresLot }
+    : null;
 }
 
 type PlacementValues = typeof placements.$inferInsert;

@@ -93,7 +93,8 @@ export function checkPlan(
         else if (!SLOT_KINDS[slot].includes(part.kind))
           fields[key] = `${part.name} is not a part of this kind (${SLOT_KINDS[slot].join(', ')})`;
         else {
-          componentIds.push(id);
+          // The current version, whichever version's id was sent (ADR 0006).
+          componentIds.push(part.id);
           if (!Array.isArray(value)) chosen[slot] = part;
         }
       });

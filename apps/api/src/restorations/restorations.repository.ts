@@ -18,7 +18,7 @@ import {
 } from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
 import { visiblePatients } from '../authz/visible-patients.js';
-import { componentSpecColumns } from '../db/catalogue-parts.js';
+import { componentSpecColumns, currentPartVersions } from '../db/catalogue-parts.js';
 import { insertAmendment, isCurrentVersion, supersededById } from '../db/amendments.js';
 
 const notSuperseded = isCurrentVersion(placements);
@@ -213,14 +213,8 @@ export async function loadLabPrescriptions(db: Db, restorationIds: string[]) {
     .orderBy(desc(labPrescriptions.createdAt));
 }
 
-/** Parts of the practice's catalogue by id (another practice's ids are simply not found). */
-export async function findCatalogueParts(db: Db, practiceId: string, ids: string[]) {
-  if (ids.length === 0) return [];
-  return db
-    .select(componentSpecColumns)
-    .from(components)
-    .where(and(eq(components.practiceId, practiceId), inArray(components.id, ids)));
-}
+/** Parts of the practice's catalogue by the id of any version, as their current version (new work, ADR 0006). */
+export const findCatalogueParts = currentPartVersions;
 
 type RestorationValues = typeof restorations.$inferInsert;
 type ComponentKind = (typeof components.$inferSelect)['kind'];

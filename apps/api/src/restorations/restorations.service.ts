@@ -168,7 +168,7 @@ export class RestorationsService {
         ...s.screwComponentIds,
       ])
       .filter((x): x is string => !!x);
-    const catalogue = new Map((await repo.findCatalogueParts(tx, patient.practiceId, ids)).map((c) => [c.id, c]));
+    const catalogue = new Map((await repo.findCatalogueParts(tx, patient.practiceId, ids)).map((c) => [c.askedId, c]));
     const checked = checkPlan(body, patientSites, catalogue);
 
     const values = {
@@ -260,14 +260,14 @@ export class RestorationsService {
             row.practiceId,
             body.parts.map((p) => p.componentId),
           )
-        ).map((c) => [c.id, c]),
+        ).map((c) => [c.askedId, c]),
       );
       const fields: Record<string, string> = {};
       const seen = new Set<string>();
       body.parts.forEach((p, i) => {
         const site = sites.find((s) => s.siteId === p.siteId);
         const part = catalogue.get(p.componentId);
-        const key = `${p.siteId}|${p.componentId}`;
+        const key = `${p.siteId}|${part?.id ?? p.componentId}`;
         const repeated = seen.has(key);
         seen.add(key);
         if (!site) fields[`parts.${i}.siteId`] = 'This site is not part of the restoration';
@@ -293,7 +293,8 @@ export class RestorationsService {
           patientId: row.patientId,
           siteId: p.siteId,
           restorationId: row.id,
-          componentId: p.componentId,
+          // The part as the catalogue describes it today: a delivery is new work (ADR 0006).
+          componentId: catalogue.get(p.componentId)?.id ?? p.componentId,
           lot: p.lot,
           installedOn: body.deliveredOn,
           recordedBy: user.id,

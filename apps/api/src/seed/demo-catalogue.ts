@@ -1,9 +1,10 @@
 // The demo catalogue: invented implant systems and manufacturers. Torque values follow the
 // common-practice defaults of the clinical reference (§6); in a real practice they are what
 // the practice enters from each manufacturer's instructions for use, which always rule.
+import { randomUUID } from 'node:crypto';
 import type { Connection } from '@torquetrail/contracts';
 import type { Tx } from '../db/database.js';
-import { components, implantSystems, platforms, torqueWrenches } from '../db/schema/index.js';
+import { components, implantSystems, platforms, torqueWrenches, wrenchCalibrations } from '../db/schema/index.js';
 
 type ComponentRow = typeof components.$inferInsert;
 
@@ -52,7 +53,7 @@ export const DEMO_SYSTEMS: SystemSpec[] = [
 function partsFor(
   system: SystemSpec,
   diameter: number,
-): (Omit<ComponentRow, 'practiceId' | 'platformId'> & { key: string })[] {
+): (Omit<ComponentRow, 'practiceId' | 'platformId' | 'lineageId'> & { key: string })[] {
   const d = diameter.toFixed(1).replace('.', '');
   const ref = (suffix: string) => `${system.code}-${d}-${suffix}`;
   const screw = system.abutmentScrewNcm;
@@ -238,7 +239,13 @@ export async function seedCatalogue(tx: Tx, practiceId: string, systems: SystemS
       const specs = partsFor(system, diameter);
       const inserted = await tx
         .insert(components)
-        .values(specs.map(({ key: _key, ...spec }) => ({ ...spec, practiceId, platformId: platform.id })))
+        .values(
+          specs.map(({ key: _key, ...spec }) => {
+            // A first version is its own lineage (ADR 0006).
+            const id = randomUUID();
+            return { ...spec, id, lineageId: id, practiceId, platformId: platform.id };
+          }),
+        )
         .returning({ id: components.id, referenceCode: components.referenceCode });
       const byRef = new Map(inserted.map((c) => [c.referenceCode, c.id]));
       index.set(`${system.code}-${diameter.toFixed(1)}`, {
@@ -251,12 +258,16 @@ export async function seedCatalogue(tx: Tx, practiceId: string, systems: SystemS
 }
 
 export async function seedWrenches(tx: Tx, practiceId: string, calibratedOn: string) {
-  const rows = await tx
-    .insert(torqueWrenches)
-    .values([
-      { practiceId, label: 'Spring wrench A (surgery 1)', type: 'spring', lastCalibratedOn: calibratedOn },
-      { practiceId, label: 'Friction wrench B (surgery 2)', type: 'friction', lastCalibratedOn: calibratedOn },
-    ])
-    .returning({ id: torqueWrenches.id });
-  return rows.map((r) => r.id);
+  const wrenches = [
+    { label: 'Spring wrench A (surgery 1)', type: 'spring' as const },
+    { label: 'Friction wrench B (surgery 2)', type: 'friction' as const },
+  ].map((w) => {
+    const id = randomUUID();
+    return { ...w, id, lineageId: id, practiceId };
+  });
+  await tx.insert(torqueWrenches).values(wrenches);
+  await tx
+    .insert(wrenchCalibrations)
+    .values(wrenches.map((w) => ({ practiceId, wrenchLineageId: w.id, calibratedOn, note: 'Annual service' })));
+  return wrenches.map((w) => w.id);
 }

@@ -2,7 +2,7 @@
 // scenario already holds, and a recent calibration of the friction wrench.
 import { and, eq } from 'drizzle-orm';
 import type { Tx } from '../db/database.js';
-import { complications, componentInstances, torqueWrenches } from '../db/schema/index.js';
+import { complications, componentInstances, torqueWrenches, wrenchCalibrations } from '../db/schema/index.js';
 import type { DemoRefs } from './demo-scenario.js';
 
 export async function seedLedgerHistory(tx: Tx, refs: DemoRefs): Promise<void> {
@@ -47,8 +47,17 @@ export async function seedLedgerHistory(tx: Tx, refs: DemoRefs): Promise<void> {
   // The friction wrench was recalibrated last month (friction devices drift with age: Vallee et al. 2008).
   const lastMonth = new Date(`${refs.today}T00:00:00Z`);
   lastMonth.setUTCDate(lastMonth.getUTCDate() - 30);
-  await tx
-    .update(torqueWrenches)
-    .set({ lastCalibratedOn: lastMonth.toISOString().slice(0, 10) })
+  const friction = await tx
+    .select({ id: torqueWrenches.id })
+    .from(torqueWrenches)
     .where(and(eq(torqueWrenches.practiceId, practiceId), eq(torqueWrenches.type, 'friction')));
+  if (friction.length > 0)
+    await tx.insert(wrenchCalibrations).values(
+      friction.map((w) => ({
+        practiceId,
+        wrenchLineageId: w.id,
+        calibratedOn: lastMonth.toISOString().slice(0, 10),
+        note: 'Recalibrated after a reading drifted',
+      })),
+    );
 }

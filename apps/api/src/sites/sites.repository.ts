@@ -1,5 +1,6 @@
 import { and, asc, desc, eq, inArray, isNull, ne, sql } from 'drizzle-orm';
 import type { TorqueReason, TorqueVerdict } from '@torquetrail/contracts';
+import { alias } from 'drizzle-orm/pg-core';
 import type { Db } from '../db/database.js';
 import {
   componentInstances,
@@ -60,8 +61,9 @@ export async function findCurrentPlacement(db: Db, siteId: string) {
   return row ?? null;
 }
 
-/** Parts in the mouth now (not removed), from the implant outward. */
+/** Parts in the mouth now (not removed), from the implant outward, each as the version installed. */
 export async function listCurrentParts(db: Db, siteId: string) {
+  const latest = alias(components, 'latest');
   return db
     .select({
       instanceId: componentInstances.id,
@@ -76,9 +78,24 @@ export async function listCurrentParts(db: Db, siteId: string) {
       tolerancePct: components.tolerancePct,
       lot: componentInstances.lot,
       installedOn: componentInstances.installedOn,
+      // The catalogue's current version of the part, when an edit came after this one was installed.
+      latest: {
+        id: latest.id,
+        name: latest.name,
+        torqueSpecNcm: latest.torqueSpecNcm,
+        tolerancePct: latest.tolerancePct,
+        versionedAt: latest.createdAt,
+      },
     })
     .from(componentInstances)
     .innerJoin(components, eq(components.id, componentInstances.componentId))
+    .innerJoin(
+      latest,
+      and(
+        eq(latest.lineageId, components.lineageId),
+        sql`not exists (select 1 from ${components} newer where newer.supersedes_id = ${latest.id})`,
+      ),
+    )
     .where(and(eq(componentInstances.siteId, siteId), isNull(componentInstances.removedOn)))
     .orderBy(asc(componentInstances.installedOn), asc(componentInstances.recordedAt));
 }

@@ -63,10 +63,20 @@ export class SitesService {
         (canRead('RecallExam') ? (await this.maintenance.latestBySite([site.id])).get(site.id)?.status : undefined) ??
         'not-examined',
       placement,
-      parts: parts.map((part) => {
+      parts: parts.map(({ latest, ...part }) => {
         const last = torque.get(part.instanceId);
         return {
           ...part,
+          newerVersion:
+            latest.id !== part.componentId
+              ? {
+                  componentId: latest.id,
+                  name: latest.name,
+                  torqueSpecNcm: latest.torqueSpecNcm,
+                  tolerancePct: latest.tolerancePct,
+                  versionedAt: latest.versionedAt.toISOString(),
+                }
+              : null,
           retorqueDueAt:
             readTorque && part.torqueSpecNcm !== null
               ? retorqueDueAt(history.filter((h) => h.instanceId === part.instanceId))

@@ -230,6 +230,8 @@ export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: Timeli
           id: t.id,
           at: t.performedAt.toISOString(),
           appliedNcm: t.appliedNcm,
+          specNcm: t.specNcm,
+          tolerancePct: t.tolerancePct,
           verdict: t.verdict,
           reason: t.reason,
         })),

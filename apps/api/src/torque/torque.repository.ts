@@ -1,12 +1,18 @@
 import { and, eq } from 'drizzle-orm';
+import { alias } from 'drizzle-orm/pg-core';
+import { currentWrenchVersion } from '../db/catalogue-parts.js';
 import type { Db, Tx } from '../db/database.js';
 import { componentInstances, components, patients, torqueEvents, torqueWrenches, users } from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
 import { visiblePatients } from '../authz/visible-patients.js';
-import { insertAmendment, supersededById } from '../db/amendments.js';
+import { insertAmendment, isCurrentVersion, supersededById } from '../db/amendments.js';
 
-/** A part instance whose patient the user may see, with its catalogue specification. */
+/**
+ * A part instance whose patient the user may see, with the specification a new torque is judged
+ * against: the current catalogue version of the installed part (ADR 0006).
+ */
 export async function findVisibleInstance(db: Db, scope: Scope, id: string) {
+  const installed = alias(components, 'installed');
   const [row] = await db
     .select({
       id: componentInstances.id,
@@ -14,7 +20,7 @@ export async function findVisibleInstance(db: Db, scope: Scope, id: string) {
       patientId: componentInstances.patientId,
       siteId: componentInstances.siteId,
       restorationId: componentInstances.restorationId,
-      componentId: componentInstances.componentId,
+      currentComponentId: components.id,
       removedOn: componentInstances.removedOn,
       name: components.name,
       torqueSpecNcm: components.torqueSpecNcm,
@@ -22,7 +28,8 @@ export async function findVisibleInstance(db: Db, scope: Scope, id: string) {
       requiresLot: components.requiresLot,
     })
     .from(componentInstances)
-    .innerJoin(components, eq(components.id, componentInstances.componentId))
+    .innerJoin(installed, eq(installed.id, componentInstances.componentId))
+    .innerJoin(components, and(eq(components.lineageId, installed.lineageId), isCurrentVersion(components)))
     .innerJoin(patients, eq(patients.id, componentInstances.patientId))
     .where(and(eq(componentInstances.id, id), visiblePatients(scope)));
   return row ?? null;
@@ -71,13 +78,8 @@ export async function loadTorqueEvent(db: Db, id: string) {
   return row;
 }
 
-export async function findWrenchOfPractice(db: Db, practiceId: string, id: string) {
-  const [row] = await db
-    .select({ id: torqueWrenches.id })
-    .from(torqueWrenches)
-    .where(and(eq(torqueWrenches.id, id), eq(torqueWrenches.practiceId, practiceId)));
-  return row ?? null;
-}
+/** The current version of a wrench of the practice, by the id of any of its versions. */
+export const findWrenchOfPractice = currentWrenchVersion;
 
 /** Locks a part instance until the transaction ends: two entries that retire it run one after the other. */
 export async function lockInstance(tx: Tx, id: string) {

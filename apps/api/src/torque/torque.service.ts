@@ -22,9 +22,12 @@ function assertInPlace(part: { removedOn: string | null }) {
 export class TorqueService {
   constructor(@Inject(DB) private readonly db: Database) {}
 
-  private async checkWrench(db: Tx | Database, practiceId: string, wrenchId: string | null) {
-    if (wrenchId && !(await repo.findWrenchOfPractice(db, practiceId, wrenchId)))
-      throw fieldError({ wrenchId: 'Not a torque wrench of this practice' });
+  /** The current version of the wrench (new work, ADR 0006), or a 400 when it is not the practice's. */
+  private async currentWrench(db: Tx | Database, practiceId: string, wrenchId: string | null) {
+    if (!wrenchId) return null;
+    const wrench = await repo.findWrenchOfPractice(db, practiceId, wrenchId);
+    if (!wrench) throw fieldError({ wrenchId: 'Not a torque wrench of this practice' });
+    return wrench.id;
   }
 
   private checkWhen(performedAt: Date, field: string) {
@@ -32,8 +35,8 @@ export class TorqueService {
   }
 
   /**
-   * Logs a torque. The verdict comes from `torqueVerdict` with the part's catalogue spec and
-   * tolerance and is stored with RULES_VERSION. 'screw-replaced' retires the old instance
+   * Logs a torque. The verdict comes from `torqueVerdict` with the spec and tolerance of the
+   * part's current catalogue version and is stored with RULES_VERSION. 'screw-replaced' retires the old instance
    * (removedOn) and applies the torque to a new one that replaces it, in one transaction.
    */
   async log(
@@ -56,7 +59,7 @@ export class TorqueService {
       });
     const performedAt = body.performedAt ? new Date(body.performedAt) : new Date();
     this.checkWhen(performedAt, 'performedAt');
-    await this.checkWrench(this.db, part.practiceId, body.wrenchId);
+    const wrenchId = await this.currentWrench(this.db, part.practiceId, body.wrenchId);
     const replacing = body.reason === 'screw-replaced';
     if (replacing) {
       assertCan(ability, 'create', 'ComponentInstance', part, 'part');
@@ -78,7 +81,7 @@ export class TorqueService {
           patientId: part.patientId,
           siteId: part.siteId,
           restorationId: part.restorationId,
-          componentId: part.componentId,
+          componentId: part.currentComponentId,
           lot: body.replacementLot,
           installedOn: day,
           replacesId: part.id,
@@ -95,7 +98,7 @@ export class TorqueService {
         verdict,
         rulesVersion: RULES_VERSION,
         reason: body.reason,
-        wrenchId: body.wrenchId,
+        wrenchId,
         performedAt,
         recordedBy: user.id,
       });
@@ -121,7 +124,7 @@ export class TorqueService {
     if (old.supersededById) throw alreadyAmended('torque_events');
     const performedAt = new Date(body.performedAt);
     this.checkWhen(performedAt, 'performedAt');
-    await this.checkWrench(this.db, old.practiceId, body.wrenchId);
+    const wrenchId = await this.currentWrench(this.db, old.practiceId, body.wrenchId);
     const verdict = torqueVerdict({
       appliedNcm: body.appliedNcm,
       specNcm: old.specNcm,
@@ -138,7 +141,7 @@ export class TorqueService {
       verdict,
       rulesVersion: RULES_VERSION,
       reason: old.reason,
-      wrenchId: body.wrenchId,
+      wrenchId,
       performedAt,
       supersedesId: old.id,
       amendmentReason: body.amendmentReason,

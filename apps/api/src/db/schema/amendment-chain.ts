@@ -7,6 +7,8 @@ export const AMENDABLE_TABLES = [
   'torque_events',
   'complications',
   'recall_exams',
+  'components',
+  'torque_wrenches',
 ] as const;
 export type AmendableTableName = (typeof AMENDABLE_TABLES)[number];
 

@@ -1,6 +1,7 @@
-import { boolean, date, index, numeric, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { type AnyPgColumn, boolean, date, index, numeric, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { amendmentChain } from './amendment-chain.js';
 import { componentKindEnum, connectionEnum, trayEnum, wrenchTypeEnum } from './enums.js';
-import { practices } from './practices.js';
+import { practices, users } from './practices.js';
 
 const mm = (name: string) => numeric(name, { precision: 5, scale: 2, mode: 'number' });
 
@@ -59,17 +60,60 @@ export const components = pgTable(
     torqueSpecNcm: numeric('torque_spec_ncm', { precision: 5, scale: 1, mode: 'number' }),
     tolerancePct: numeric('tolerance_pct', { precision: 4, scale: 1, mode: 'number' }).notNull().default(10),
     requiresLot: boolean('requires_lot').notNull().default(true),
+    /**
+     * Versions (ADR 0006): an edit is a new row superseding the current one; every version of a
+     * part shares the first version's id as its lineage. Records point at the version they used.
+     */
+    lineageId: uuid('lineage_id')
+      .notNull()
+      .references((): AnyPgColumn => components.id),
+    supersedesId: uuid('supersedes_id'),
+    createdBy: uuid('created_by').references(() => users.id),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index('components_platform_idx').on(t.platformId), index('components_practice_idx').on(t.practiceId)],
+  (t) => [
+    index('components_platform_idx').on(t.platformId),
+    index('components_practice_idx').on(t.practiceId),
+    index('components_lineage_idx').on(t.lineageId),
+    ...amendmentChain('components', t),
+  ],
 );
 
-export const torqueWrenches = pgTable('torque_wrenches', {
-  id: uuid('id').primaryKey().defaultRandom(),
-  practiceId: uuid('practice_id')
-    .notNull()
-    .references(() => practices.id),
-  label: text('label').notNull(),
-  type: wrenchTypeEnum('type').notNull(),
-  lastCalibratedOn: date('last_calibrated_on', { mode: 'string' }),
-});
+/** A torque wrench, versioned like a part (ADR 0006): torque entries keep the version they used. */
+export const torqueWrenches = pgTable(
+  'torque_wrenches',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
+    label: text('label').notNull(),
+    type: wrenchTypeEnum('type').notNull(),
+    lineageId: uuid('lineage_id')
+      .notNull()
+      .references((): AnyPgColumn => torqueWrenches.id),
+    supersedesId: uuid('supersedes_id'),
+    createdBy: uuid('created_by').references(() => users.id),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('torque_wrenches_lineage_idx').on(t.lineageId), ...amendmentChain('torque_wrenches', t)],
+);
+
+/** Each calibration of a wrench (its lineage: the physical instrument), kept as a history. */
+export const wrenchCalibrations = pgTable(
+  'wrench_calibrations',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
+    wrenchLineageId: uuid('wrench_lineage_id')
+      .notNull()
+      .references(() => torqueWrenches.id),
+    calibratedOn: date('calibrated_on', { mode: 'string' }).notNull(),
+    note: text('note'),
+    recordedBy: uuid('recorded_by').references(() => users.id),
+    recordedAt: timestamp('recorded_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('wrench_calibrations_wrench_idx').on(t.wrenchLineageId, t.calibratedOn)],
+);

@@ -5,6 +5,7 @@ import {
   CatalogueSystem,
   type ComponentBody,
   type ComponentPatch,
+  ComponentVersionsReply,
   type PlatformBody,
   type SystemBody,
 } from '@torquetrail/contracts';
@@ -19,7 +20,7 @@ const catalogueQueryOptions = () =>
   });
 export const useCatalogue = () => useQuery(catalogueQueryOptions());
 
-/** Admin: add a part or correct one; only the catalogue changes. */
+/** Admin: add a part or edit one (an edit saves a new version); only the catalogue changes. */
 export function useSaveComponent() {
   const queryClient = useQueryClient();
   return useMutation({
@@ -48,5 +49,15 @@ export function useAddPlatform() {
     mutationFn: (body: PlatformBody) =>
       apiRequest('/api/catalogue/platforms', { method: 'POST', body, schema: CataloguePlatform }),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: catalogueKeys.all }),
+  });
+}
+
+/** Every version of a part, oldest first (records keep the version they used). */
+export function useComponentVersions(id: string, enabled: boolean) {
+  return useQuery({
+    queryKey: catalogueKeys.versions(id),
+    queryFn: ({ signal }) =>
+      apiRequest(`/api/catalogue/components/${id}/versions`, { schema: ComponentVersionsReply, signal }),
+    enabled,
   });
 }

@@ -6,7 +6,7 @@ import { FormProvider } from 'react-hook-form';
 import { Can } from '../../../lib/ability';
 import { COMPONENT_KIND_LABEL, INTERFACE_LABEL, TRAY_LABEL } from '../../../lib/clinical-labels';
 import { applyServerErrors, draftSchema, errorAt, FieldError, NumberInput, useContractForm } from '../../../lib/forms';
-import { useSaveComponent } from '../api/catalogue-api';
+import { useComponentVersions, useSaveComponent } from '../api/catalogue-api';
 
 interface SpecDraft {
   torqueSpecNcm: number | null;
@@ -25,6 +25,8 @@ const schema = draftSchema(ComponentPatch, (d: SpecDraft) => ({
  */
 export function ComponentRow({ part }: { part: CatalogueComponent }) {
   const [editing, setEditing] = useState(false);
+  const [showHistory, setShowHistory] = useState(false);
+  const versions = useComponentVersions(part.id, showHistory);
   const form = useContractForm(schema, { torqueSpecNcm: part.torqueSpecNcm, tolerancePct: part.tolerancePct });
   const save = useSaveComponent();
   const submit = form.handleSubmit((body) =>
@@ -83,13 +85,28 @@ export function ComponentRow({ part }: { part: CatalogueComponent }) {
         <td>
           {part.requiresLot ? 'lot required' : ''}
           {part.inUse ? (part.requiresLot ? ', in use' : 'in use') : ''}
+          <br />
+          <Button
+            small
+            variant="minimal"
+            text={`Version ${part.version}, history`}
+            aria-expanded={showHistory}
+            onClick={() => setShowHistory(!showHistory)}
+          />
         </td>
         <Can I="update" a="Catalogue">
           <td>
             {editing ? (
               <>
-                <Button small intent="primary" text="Save" loading={save.isPending} onClick={() => void submit()} />
+                <Button
+                  small
+                  intent="primary"
+                  text="Save as new version"
+                  loading={save.isPending}
+                  onClick={() => void submit()}
+                />
                 <Button small variant="minimal" text="Cancel" onClick={() => setEditing(false)} />
+                <p className="muted">Saves a new version: records keep the version they used.</p>
               </>
             ) : (
               <Button small variant="minimal" icon="edit" text="Edit" onClick={() => setEditing(true)} />
@@ -97,6 +114,26 @@ export function ComponentRow({ part }: { part: CatalogueComponent }) {
           </td>
         </Can>
       </tr>
+      {showHistory && (
+        <tr data-testid="catalogue-part-history">
+          <td colSpan={8}>
+            {versions.isPending && 'Loading the versions…'}
+            {versions.isError && 'Could not load the versions of this part.'}
+            {versions.data && (
+              <ol aria-label={`Versions of ${part.referenceCode}`}>
+                {versions.data.items.map((v) => (
+                  <li key={v.id}>
+                    Version {v.version}, saved {v.versionedAt.slice(0, 10)}
+                    {v.byName ? ` by ${v.byName}` : ''}: {v.name},{' '}
+                    {v.torqueSpecNcm === null ? 'hand-tight' : `${v.torqueSpecNcm} N·cm`} ±{v.tolerancePct} %
+                    {v.current ? ' (current)' : ''}
+                  </li>
+                ))}
+              </ol>
+            )}
+          </td>
+        </tr>
+      )}
     </FormProvider>
   );
 }

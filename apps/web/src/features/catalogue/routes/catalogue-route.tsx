@@ -4,7 +4,7 @@ import { useState } from 'react';
 import { Can, useAppAbility } from '../../../lib/ability';
 import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
-import { useSaveWrench, useWrenches } from '../../torque';
+import { useRecordCalibration, useWrenches } from '../../torque';
 import { useCatalogue } from '../api/catalogue-api';
 import { ComponentRow } from '../components/component-row';
 import { AddComponentForm, AddPlatformForm, AddSystemForm, AddWrenchForm } from '../components/add-forms';
@@ -12,7 +12,7 @@ import { CONNECTION_LABEL, WRENCH_TYPE_LABEL } from '../../../lib/clinical-label
 
 function Wrenches() {
   const wrenches = useWrenches(useAppAbility().can('read', 'Wrench'));
-  const save = useSaveWrench();
+  const save = useRecordCalibration();
   const [dates, setDates] = useState<Record<string, string>>({});
   if (wrenches.isError || !wrenches.data) return null;
   return (
@@ -20,7 +20,7 @@ function Wrenches() {
       <h2 id="wrenches-heading">Torque wrenches</h2>
       <p className="muted">
         Spring-style devices deviate far less than friction-style ones, which drift with age (Vallee et al. 2008): keep
-        calibration dates current.
+        calibration dates current. Each calibration is added to the wrench's history; none is overwritten.
       </p>
       <HTMLTable compact striped>
         <thead>
@@ -51,7 +51,7 @@ function Wrenches() {
                     text="Record calibration"
                     disabled={!dates[w.id]}
                     loading={save.isPending}
-                    onClick={() => save.mutate({ id: w.id, body: { lastCalibratedOn: dates[w.id] } })}
+                    onClick={() => save.mutate({ id: w.id, body: { calibratedOn: dates[w.id] } })}
                   />
                 </Can>
               </td>

@@ -31,6 +31,8 @@ const mua17: CatalogueComponent = {
   tolerancePct: 10,
   requiresLot: true,
   inUse: false,
+  version: 1,
+  versionedAt: '2026-01-01T00:00:00.000Z',
 };
 const catalogue = new Map([[mua17.id, mua17]]);
 const bridge = (over: Partial<PlanState> = {}): PlanState => ({

@@ -28,6 +28,14 @@ export function StackPartCard({ part }: { part: StackPart }) {
   if (part.angleDeg !== null) facts.push(['Angle', `${formatNumber(part.angleDeg)}°`]);
   else if (ANGLED_KINDS.includes(part.kind)) facts.push(['Angle', 'Straight']);
   facts.push(['Torque specification', formatTorqueSpec(part.torqueSpecNcm, part.tolerancePct)]);
+  // The part is shown as installed; new torque entries use the catalogue's current version.
+  if (part.newerVersion)
+    facts.push([
+      'Catalogue updated since',
+      `${formatTorqueSpec(part.newerVersion.torqueSpecNcm, part.newerVersion.tolerancePct)} now${
+        part.newerVersion.name !== part.name ? ` (${part.newerVersion.name})` : ''
+      }`,
+    ]);
   facts.push([
     'Lot',
     part.lot ? (

@@ -4,8 +4,8 @@ import { TORQUE_VERDICT_LABEL } from '../../../lib/clinical-labels';
 import {
   CartesianGrid,
   Line,
-  LineChart,
-  ReferenceArea,
+  ComposedChart,
+  Area,
   ReferenceLine,
   ResponsiveContainer,
   Tooltip,
@@ -17,24 +17,27 @@ const day = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', y
 
 /** Torque history of one part: applied values over the years against its specification window. */
 export function TorqueChart({ series }: { series: TorqueSeries }) {
-  const data = series.points.map((p) => ({
-    t: new Date(p.at).getTime(),
-    applied: p.appliedNcm,
-    verdict: p.verdict,
-    reason: p.reason,
-  }));
-  const spec = series.specNcm;
-  // The band torqueVerdict judges against (one formula, in the domain).
-  const band = spec !== null ? torqueToleranceBand(spec, series.tolerancePct) : null;
-  const lo = band?.lowNcm ?? null;
-  const hi = band?.highNcm ?? null;
-  const max = Math.max(...data.map((d) => d.applied), hi ?? 0) * 1.15;
+  // Each entry's band is the one torqueVerdict judged it against, as stored with the entry (one
+  // formula, in the domain): an edit of the catalogue later does not move past bands.
+  const data = series.points.map((p) => {
+    const band = torqueToleranceBand(p.specNcm, p.tolerancePct);
+    return {
+      t: new Date(p.at).getTime(),
+      applied: p.appliedNcm,
+      band: [band.lowNcm, band.highNcm] as [number, number],
+      spec: p.specNcm,
+      verdict: p.verdict,
+      reason: p.reason,
+    };
+  });
+  const spec = data.at(-1)?.spec ?? series.specNcm;
+  const max = Math.max(...data.map((d) => Math.max(d.applied, d.band[1]))) * 1.15;
   return (
     <figure className="torque-chart" data-testid="torque-chart">
       <figcaption>{series.label}</figcaption>
       <div style={{ width: '100%', height: 180 }}>
         <ResponsiveContainer>
-          <LineChart data={data} margin={{ top: 8, right: 16, bottom: 4, left: 0 }}>
+          <ComposedChart data={data} margin={{ top: 8, right: 16, bottom: 4, left: 0 }}>
             <CartesianGrid strokeDasharray="3 3" />
             <XAxis
               dataKey="t"
@@ -44,7 +47,15 @@ export function TorqueChart({ series }: { series: TorqueSeries }) {
               tickFormatter={(t: number) => new Date(t).getFullYear().toString()}
             />
             <YAxis domain={[0, Math.ceil(max)]} unit=" N·cm" width={70} />
-            {lo !== null && hi !== null && <ReferenceArea y1={lo} y2={hi} fill="#0f766e" fillOpacity={0.1} />}
+            <Area
+              type="stepAfter"
+              dataKey="band"
+              stroke="none"
+              fill="#0f766e"
+              fillOpacity={0.1}
+              isAnimationActive={false}
+              name="Tolerance band"
+            />
             {spec !== null && (
               <ReferenceLine
                 y={spec}
@@ -55,10 +66,14 @@ export function TorqueChart({ series }: { series: TorqueSeries }) {
             )}
             <Tooltip
               labelFormatter={(t) => day.format(new Date(Number(t)))}
-              formatter={(v) => [`${String(v)} N·cm`, 'Applied']}
+              formatter={(v, name) =>
+                Array.isArray(v)
+                  ? [`${String(v[0])}–${String(v[1])} N·cm`, 'Band judged against']
+                  : [`${String(v)} N·cm`, name === 'applied' ? 'Applied' : String(name)]
+              }
             />
             <Line type="monotone" dataKey="applied" stroke="#134e4a" dot={{ r: 4 }} isAnimationActive={false} />
-          </LineChart>
+          </ComposedChart>
         </ResponsiveContainer>
       </div>
       <table className="visually-hidden">
@@ -68,6 +83,9 @@ export function TorqueChart({ series }: { series: TorqueSeries }) {
             <tr key={p.id}>
               <td>{day.format(new Date(p.at))}</td>
               <td>{p.appliedNcm} N·cm</td>
+              <td>
+                against {p.specNcm} N·cm ±{p.tolerancePct} %
+              </td>
               <td>{TORQUE_VERDICT_LABEL[p.verdict].toLowerCase()}</td>
             </tr>
           ))}

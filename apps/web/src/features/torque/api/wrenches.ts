@@ -1,4 +1,11 @@
-import { Wrench, type WrenchBody, WrenchListReply, type WrenchPatch } from '@torquetrail/contracts';
+import {
+  Calibration,
+  type CalibrationBody,
+  Wrench,
+  type WrenchBody,
+  WrenchListReply,
+  type WrenchPatch,
+} from '@torquetrail/contracts';
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { apiRequest } from '../../../lib/api-client';
 import { wrenchKeys } from './keys';
@@ -13,12 +20,22 @@ export function useWrenches(enabled = true) {
   return useQuery({ ...wrenchesQueryOptions(), enabled });
 }
 
-/** Admin: add a wrench or update it (e.g. its calibration date); refreshes the wrench list only. */
+/** Admin: add a wrench or edit its label or type (a new version); refreshes the wrench list only. */
 export function useSaveWrench() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: ({ id, body }: { id?: string; body: WrenchBody | WrenchPatch }) =>
       apiRequest(id ? `/api/wrenches/${id}` : '/api/wrenches', { method: id ? 'PATCH' : 'POST', body, schema: Wrench }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: wrenchKeys.all }),
+  });
+}
+
+/** Admin: add a calibration to a wrench's history (never overwrites an earlier one). */
+export function useRecordCalibration() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: ({ id, body }: { id: string; body: CalibrationBody }) =>
+      apiRequest(`/api/wrenches/${id}/calibrations`, { method: 'POST', body, schema: Calibration }),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: wrenchKeys.all }),
   });
 }
