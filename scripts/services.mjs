@@ -57,6 +57,32 @@ export async function startServices() {
   return started;
 }
 
+/**
+ * Stops one background service (s3 or mail) and waits until its ports are closed; the fault
+ * tests use it, with startService, to take a dependency away and bring it back.
+ */
+export async function stopService(name) {
+  const service = background.find((s) => s.name === name);
+  if (!service) throw new ServiceError(`no background service named ${name}`);
+  stopBackground(service);
+  for (const port of service.ports) await waitForPortClosed(port);
+}
+
+/** Starts one background service (s3 or mail) again, waiting until it listens. */
+export async function startService(name) {
+  const service = background.find((s) => s.name === name);
+  if (!service) throw new ServiceError(`no background service named ${name}`);
+  await startBackground(service);
+}
+
+async function waitForPortClosed(port, ms = 10_000) {
+  const end = Date.now() + ms;
+  while (await portOpen(port)) {
+    if (Date.now() > end) throw new ServiceError(`port ${port} still open ${ms} ms after stopping its service`);
+    await new Promise((r) => setTimeout(r, 50));
+  }
+}
+
 /** Stops the named services (all by default). */
 export function stopServices(names = ['postgres', ...background.map((s) => s.name)]) {
   for (const service of background) if (names.includes(service.name)) stopBackground(service);

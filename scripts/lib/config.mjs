@@ -8,11 +8,12 @@ export const repoRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)
 export const localDir = path.join(repoRoot, '.local');
 export const runDir = path.join(localDir, 'run');
 
-const port = (name, fallback) => {
+// PORT may be 0 (any free port), as the test tiers set it for the in-process app.
+const port = (name, fallback, lowest = 1) => {
   const value = process.env[name];
   if (value === undefined || value === '') return fallback;
   const n = Number(value);
-  if (!Number.isInteger(n) || n < 1 || n > 65535) throw new Error(`${name} must be a port number, got "${value}"`);
+  if (!Number.isInteger(n) || n < lowest || n > 65535) throw new Error(`${name} must be a port number, got "${value}"`);
   return n;
 };
 
@@ -42,7 +43,7 @@ export const mail = {
   dataDir: path.join(localDir, 'mail'),
 };
 
-export const app = { port: port('PORT', 3000) };
+export const app = { port: port('PORT', 3000, 0) };
 
 function databaseUrl(database) {
   return `postgres://${pg.user}:${encodeURIComponent(pg.password)}@${host}:${pg.port}/${database}`;

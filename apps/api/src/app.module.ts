@@ -8,6 +8,7 @@ import { ConfigModule } from './config/config.module.js';
 import type { Env } from './config/env.js';
 import { DatabaseModule } from './db/database.module.js';
 import { HealthModule } from './health/health.module.js';
+import { JobsModule } from './jobs/jobs.module.js';
 import { MailModule } from './mail/mail.module.js';
 import { OpenApiModule } from './openapi/openapi.module.js';
 import { PatientsModule } from './patients/patients.module.js';
@@ -31,6 +32,7 @@ export class AppModule {
         DatabaseModule,
         StorageModule,
         MailModule,
+        JobsModule,
         AuthModule,
         HealthModule,
         PatientsModule,

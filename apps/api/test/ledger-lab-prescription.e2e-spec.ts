@@ -5,7 +5,15 @@ import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { labPrescriptions } from '../src/db/schema/index.js';
 import { larkspurId, parts } from './support/ledger-fixtures.js';
+import type { LabPrescriptionSummary } from '@torquetrail/contracts';
+import { until } from './support/recalls.js';
 import { patientId, signIn, siteId, startTestApp, type TestContext } from './support/test-app.js';
+
+interface CaughtLabMail {
+  headers: Record<string, string>;
+  envelopeTo: string[];
+  attachments: { filename: string; contentType: string }[];
+}
 
 const mailHttp = `http://127.0.0.1:${process.env.TT_MAIL_HTTP_PORT ?? 2580}/messages`;
 
@@ -92,37 +100,52 @@ describe('lab prescription', () => {
     expect(body).toMatch(/manufacturer's instructions/);
   });
 
-  it('e-mails it to the lab with the PDF attached, and records when', async () => {
-    const listed = async () =>
-      (await ctx.http.get(`/api/restorations/${planId}`).set('Cookie', dentist)).body.labPrescriptions as {
-        id: string;
-      }[];
-    const before = await listed();
+  it('e-mails it to the lab through the job queue with the PDF attached, once, and records when', async () => {
     const made = await ctx.http
       .post(`/api/restorations/${planId}/lab-prescriptions`)
       .set('Cookie', dentist)
       .send({ emailToLab: true });
     expect(made.status).toBe(201);
-    expect(made.body.emailedTo).toMatch(/@ferncliff-lab\.example$/);
-    expect(made.body.emailedAt).not.toBeNull();
-    let found: { envelopeTo: string[]; attachments: { filename: string; contentType: string }[] } | undefined;
-    for (let i = 0; i < 20 && !found; i++) {
-      const messages = (await (await fetch(mailHttp)).json()) as {
-        headers: Record<string, string>;
-        envelopeTo: string[];
-        attachments: { filename: string; contentType: string }[];
-      }[];
-      found = messages.find((m) => m.headers['x-torquetrail-lab-prescription'] === made.body.id);
-      if (!found) await new Promise((r) => setTimeout(r, 100));
-    }
-    expect(found?.envelopeTo).toEqual([made.body.emailedTo]);
-    expect(found?.attachments).toEqual([
+    expect(made.body.lastEmail.to).toMatch(/@ferncliff-lab\.example$/);
+    const caught = async () =>
+      ((await (await fetch(mailHttp)).json()) as CaughtLabMail[]).filter(
+        (m) => m.headers['x-torquetrail-lab-prescription'] === made.body.id,
+      );
+    const found = await until(async () => ((await caught()).length > 0 ? caught() : null), 15_000);
+    expect(found).toHaveLength(1);
+    expect(found[0].envelopeTo).toEqual([made.body.lastEmail.to]);
+    expect(found[0].attachments).toEqual([
       expect.objectContaining({ filename: 'lab-prescription-LL-1005.pdf', contentType: 'application/pdf' }),
     ]);
-    // One more prescription on the plan, whichever other test of this file made one before.
-    const after = await listed();
-    expect(after).toHaveLength(before.length + 1);
-    expect(after.map((p) => p.id)).toContain(made.body.id);
+    const listed = await until(async () => {
+      const plan = (await ctx.http.get(`/api/restorations/${planId}`).set('Cookie', dentist)).body;
+      const mine = (plan.labPrescriptions as LabPrescriptionSummary[]).find((p) => p.id === made.body.id);
+      return mine?.emailedAt ? mine : null;
+    }, 10_000);
+    expect(listed.emailedTo).toBe(made.body.lastEmail.to);
+    expect(listed.lastEmail?.status).toBe('sent');
+    // Delivered exactly once: a later sweep or a retry of the same request sends nothing more.
+    await new Promise((r) => setTimeout(r, 1500));
+    expect(await caught()).toHaveLength(1);
+  });
+
+  it('pressing again re-uses the latest prescription (no second PDF); revise makes a new version', async () => {
+    const first = await ctx.http.post(`/api/restorations/${planId}/lab-prescriptions`).set('Cookie', dentist).send({});
+    const again = await ctx.http.post(`/api/restorations/${planId}/lab-prescriptions`).set('Cookie', dentist).send({});
+    expect([first.status, again.status]).toEqual([201, 201]);
+    expect(again.body.id).toBe(first.body.id);
+    const rows = async () =>
+      (await ctx.db.select().from(labPrescriptions).where(eq(labPrescriptions.restorationId, planId))).length;
+    const before = await rows();
+    const revised = await ctx.http
+      .post(`/api/restorations/${planId}/lab-prescriptions`)
+      .set('Cookie', dentist)
+      .send({ revise: true });
+    expect(revised.status).toBe(201);
+    expect(revised.body.id).not.toBe(first.body.id);
+    expect(await rows()).toBe(before + 1);
+    const next = await ctx.http.post(`/api/restorations/${planId}/lab-prescriptions`).set('Cookie', dentist).send({});
+    expect(next.body.id).toBe(revised.body.id);
   });
 
   it('refuses to e-mail a plan without a lab address (400 on emailToLab)', async () => {

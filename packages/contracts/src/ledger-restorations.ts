@@ -9,6 +9,7 @@ import {
   InterfaceKind,
   Material,
   MultiUnitAngleDeg,
+  ReminderStatus,
   RestorationKind,
   RestorationStatus,
   Retention,
@@ -141,8 +142,13 @@ export type RestorationSiteDetail = z.infer<typeof RestorationSiteDetail>;
 export const LabPrescriptionSummary = z.object({
   id: Id,
   sizeBytes: z.number().int(),
+  /** The last e-mail SMTP accepted for this prescription. */
   emailedTo: z.string().nullable(),
   emailedAt: IsoDateTime.nullable(),
+  /** The latest request to e-mail it: sent by the job queue, retried while SMTP is away. */
+  lastEmail: z
+    .object({ to: z.string(), status: ReminderStatus, attempts: z.number().int(), requestedAt: IsoDateTime })
+    .nullable(),
   createdAt: IsoDateTime,
 });
 export type LabPrescriptionSummary = z.infer<typeof LabPrescriptionSummary>;
@@ -194,5 +200,12 @@ export const DeliveryBody = z.object({
 });
 export type DeliveryBody = z.input<typeof DeliveryBody>;
 
-export const LabPrescriptionBody = z.object({ emailToLab: z.boolean().default(false) });
+/**
+ * Pressing again returns (and, with emailToLab, e-mails again) the plan's latest prescription;
+ * a new PDF is made only for the first one or when `revise` asks for a new version.
+ */
+export const LabPrescriptionBody = z.object({
+  emailToLab: z.boolean().default(false),
+  revise: z.boolean().default(false),
+});
 export type LabPrescriptionBody = z.input<typeof LabPrescriptionBody>;

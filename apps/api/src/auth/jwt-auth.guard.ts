@@ -16,8 +16,14 @@ export class JwtAuthGuard extends AuthGuard('jwt') {
     return super.canActivate(context);
   }
 
+  /**
+   * passport-jwt reports a bad, expired or forged token as a failure (no user) and an error
+   * thrown while loading the user (the database away) as `error`: that one is rethrown for the
+   * exception filter (503), because answering 401 would sign the person out for nothing.
+   */
   override handleRequest<TUser>(error: unknown, user: TUser | false): TUser {
-    if (error || !user) throw new UnauthorizedException('Sign in to continue');
+    if (error) throw error;
+    if (!user) throw new UnauthorizedException('Sign in to continue');
     return user;
   }
 }

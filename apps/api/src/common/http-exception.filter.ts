@@ -3,6 +3,7 @@ import type { Request, Response } from 'express';
 import { errorForLog } from '../logging/logger.js';
 import type { ErrorReply } from '@torquetrail/contracts';
 import { asAmendmentConflict } from './amendment-conflict.js';
+import { UNAVAILABLE_MESSAGES, unavailableDependency } from './unavailable.js';
 
 const STATUS_TEXT: Record<number, string> = {
   400: 'Bad Request',
@@ -12,12 +13,14 @@ const STATUS_TEXT: Record<number, string> = {
   409: 'Conflict',
   429: 'Too Many Requests',
   500: 'Internal Server Error',
+  503: 'Service Unavailable',
 };
 
 /**
  * Maps every error to the one ErrorReply shape, with the request id; unexpected errors are logged
  * (without query parameters or bodies: see errorForLog), never leaked. A second amendment refused
- * by the database's unique index is a 409 (see amendment-conflict.ts).
+ * by the database's unique index is a 409 (see amendment-conflict.ts); a request that failed
+ * because PostgreSQL or S3 is out of reach is a 503 with a plain message (see unavailable.ts).
  */
 @Catch()
 export class HttpExceptionFilter implements ExceptionFilter {
@@ -26,7 +29,15 @@ export class HttpExceptionFilter implements ExceptionFilter {
     const res = host.switchToHttp().getResponse<Response>();
     const exception = asAmendmentConflict(thrown);
     let reply: ErrorReply;
-    if (exception instanceof HttpException) {
+    const unavailable = exception instanceof HttpException ? null : unavailableDependency(exception);
+    if (unavailable) {
+      req.log?.warn({ err: errorForLog(exception), dependency: unavailable }, 'dependency unavailable');
+      reply = {
+        statusCode: HttpStatus.SERVICE_UNAVAILABLE,
+        error: STATUS_TEXT[503],
+        message: UNAVAILABLE_MESSAGES[unavailable],
+      };
+    } else if (exception instanceof HttpException) {
       const status = exception.getStatus();
       const body = exception.getResponse();
       const obj = typeof body === 'object' && body !== null ? (body as Record<string, unknown>) : {};

@@ -12,8 +12,16 @@ export type Db = Database | Tx;
 export const DB = Symbol('DB');
 export const PG_POOL = Symbol('PG_POOL');
 
-export function createPool(databaseUrl: string): pg.Pool {
-  return new pg.Pool({ connectionString: databaseUrl, max: 10 });
+/**
+ * The pool reports an idle client whose server went away (PostgreSQL stopped or restarted) as an
+ * 'error' event; without a listener Node ends the process. The pool drops that client and opens
+ * a new one for the next query, so the listener only reports it. A connection attempt gives up
+ * after 5 s (the request then answers 503) instead of waiting for ever.
+ */
+export function createPool(databaseUrl: string, onIdleError: (error: Error) => void = () => {}): pg.Pool {
+  const pool = new pg.Pool({ connectionString: databaseUrl, max: 10, connectionTimeoutMillis: 5000 });
+  pool.on('error', onIdleError);
+  return pool;
 }
 
 export function createDatabase(pool: pg.Pool): Database {

@@ -23,7 +23,7 @@ export class LabPrescriptionsController {
     @Param('id', uuid()) id: string,
     @Body(new ZodValidationPipe(LabPrescriptionBody)) body: z.output<typeof LabPrescriptionBody>,
   ): Promise<LabPrescriptionSummary> {
-    return this.labs.generate(ability, user, scopeOf(user), id, body.emailToLab);
+    return this.labs.generate(ability, user, scopeOf(user), id, body);
   }
 
   @Get('lab-prescriptions/:id/pdf')

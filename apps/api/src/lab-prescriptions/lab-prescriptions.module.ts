@@ -1,12 +1,13 @@
 import { Module } from '@nestjs/common';
 import { RestorationsModule } from '../restorations/restorations.module.js';
 import { LabPrescriptionsController } from './lab-prescriptions.controller.js';
+import { LabMailService } from './lab-mail.service.js';
 import { LabPrescriptionsService } from './lab-prescriptions.service.js';
 
 // The restoration and its sites come from RestorationsService (exported by its module).
 @Module({
   imports: [RestorationsModule],
   controllers: [LabPrescriptionsController],
-  providers: [LabPrescriptionsService],
+  providers: [LabPrescriptionsService, LabMailService],
 })
 export class LabPrescriptionsModule {}

@@ -1,20 +1,18 @@
 import { randomUUID } from 'node:crypto';
-import { Inject, Injectable, ServiceUnavailableException } from '@nestjs/common';
+import { Inject, Injectable } from '@nestjs/common';
 import type { AppAbility } from '@torquetrail/authz';
 import type { LabPrescriptionSummary } from '@torquetrail/contracts';
 import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
 import { fieldError } from '../common/field-error.js';
 import { DB, type Database } from '../db/database.js';
-import { MailService } from '../mail/mail.service.js';
 import { RestorationsService } from '../restorations/restorations.service.js';
 import { StorageService } from '../storage/storage.service.js';
+import { LabMailService } from './lab-mail.service.js';
 import { renderLabPrescription } from './lab-prescription.pdf.js';
 import * as repo from './lab-prescriptions.repository.js';
 
-/** A file name safe in a Content-Disposition header and a mail attachment, whatever the chart number holds. */
-export const pdfFilename = (chartNumber: string) =>
-  `lab-prescription-${chartNumber.replace(/[^A-Za-z0-9_-]+/g, '_').slice(0, 40)}.pdf`;
+import { pdfFilename } from './pdf-filename.js';
 
 const initials = (given: string, family: string) =>
   `${given.trim()[0] ?? ''}. ${family.trim()[0] ?? ''}.`.toUpperCase();
@@ -24,20 +22,23 @@ export class LabPrescriptionsService {
   constructor(
     @Inject(DB) private readonly db: Database,
     private readonly storage: StorageService,
-    private readonly mail: MailService,
+    private readonly labMail: LabMailService,
     private readonly restorations: RestorationsService,
   ) {}
 
   /**
-   * Renders the PDF, stores it in S3, then records it; the e-mail goes out afterwards. No
-   * transaction is open while S3 or SMTP is called: the row is written only once the object exists.
+   * The plan version's lab prescription: the latest one when it exists (pressing again makes no
+   * second PDF), a new one for the first press or when `revise` asks for a new version. The PDF
+   * is stored in S3 before its row is written; when the row cannot be written the object is
+   * removed again, so no file is left without its row. With `emailToLab`, a mail request is
+   * recorded and sent by the job queue (retried while SMTP is away), never inside this request.
    */
   async generate(
     ability: AppAbility,
     user: SessionUser,
     scope: Scope,
     restorationId: string,
-    emailToLab: boolean,
+    body: { emailToLab: boolean; revise: boolean },
   ): Promise<LabPrescriptionSummary> {
     const r = assertCan(
       ability,
@@ -46,7 +47,28 @@ export class LabPrescriptionsService {
       await this.restorations.findVisible(scope, restorationId),
       'restoration',
     );
-    if (emailToLab && !r.labEmail) throw fieldError({ emailToLab: 'The plan has no lab e-mail address' });
+    if (body.emailToLab && !r.labEmail) throw fieldError({ emailToLab: 'The plan has no lab e-mail address' });
+    const latest = body.revise ? null : await repo.findLatestForRestoration(this.db, r.id);
+    const id = latest?.id ?? (await this.render(user, scope, r));
+    if (body.emailToLab && r.labEmail) {
+      await this.labMail.request({
+        practiceId: r.practiceId,
+        labPrescriptionId: id,
+        sentTo: r.labEmail,
+        requestedBy: user.id,
+      });
+    }
+    const summary = (await this.restorations.labPrescriptionsOf([r.id])).find((l) => l.id === id);
+    if (!summary) throw new Error(`lab prescription ${id} not found after it was written`);
+    const { restorationId: _r, ...reply } = summary;
+    return reply;
+  }
+
+  private async render(
+    user: SessionUser,
+    scope: Scope,
+    r: NonNullable<Awaited<ReturnType<RestorationsService['findVisible']>>>,
+  ): Promise<string> {
     const { patient, sites } = await this.restorations.labSheet(scope, r);
     const id = randomUUID();
     const pdf = await renderLabPrescription({
@@ -68,40 +90,22 @@ export class LabPrescriptionsService {
     });
     const objectKey = `practices/${r.practiceId}/lab-prescriptions/${id}.pdf`;
     await this.storage.put(objectKey, pdf, 'application/pdf');
-    const row = await repo.insertLabPrescription(this.db, {
-      id,
-      practiceId: r.practiceId,
-      patientId: r.patientId,
-      restorationId: r.id,
-      objectKey,
-      sizeBytes: pdf.length,
-      createdBy: user.id,
-    });
-    let emailedAt: Date | null = null;
-    if (emailToLab && r.labEmail) {
-      try {
-        await this.mail.send({
-          to: r.labEmail,
-          subject: `Lab prescription ${patient.chartNumber} from ${patient.practiceName}`,
-          text: `Please find the lab prescription for ${patient.chartNumber} attached.${r.dueOn ? ` Due ${r.dueOn}.` : ''}\n\n${patient.practiceName}`,
-          attachments: [{ filename: pdfFilename(patient.chartNumber), content: pdf, contentType: 'application/pdf' }],
-          headers: { 'X-Torquetrail-Lab-Prescription': id },
-        });
-      } catch {
-        throw new ServiceUnavailableException(
-          'The lab prescription was saved, but the e-mail to the lab could not be sent; try again later',
-        );
-      }
-      emailedAt = new Date();
-      await repo.markEmailed(this.db, id, r.labEmail, emailedAt);
+    try {
+      await repo.insertLabPrescription(this.db, {
+        id,
+        practiceId: r.practiceId,
+        patientId: r.patientId,
+        restorationId: r.id,
+        objectKey,
+        sizeBytes: pdf.length,
+        createdBy: user.id,
+      });
+    } catch (error) {
+      // Best effort: when S3 is away too, the object stays, keyed by an id no row will ever hold.
+      await this.storage.delete(objectKey).catch(() => undefined);
+      throw error;
     }
-    return {
-      id,
-      sizeBytes: pdf.length,
-      emailedTo: emailedAt ? r.labEmail : null,
-      emailedAt: emailedAt?.toISOString() ?? null,
-      createdAt: row.createdAt.toISOString(),
-    };
+    return id;
   }
 
   async download(ability: AppAbility, scope: Scope, id: string): Promise<{ pdf: Buffer; filename: string }> {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { pdfFilename } from './lab-prescriptions.service.js';
+import { pdfFilename } from './pdf-filename.js';
 
 describe('pdfFilename', () => {
   it('keeps an ordinary chart number', () => {

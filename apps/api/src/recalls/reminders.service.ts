@@ -1,14 +1,13 @@
-// Recall reminder e-mails through a job queue on PostgreSQL (pg-boss, schema `pgboss`), started
-// and stopped with the API. The daily scan logs each reminder once in reminder_log (the
+// Recall reminder e-mails through the API's job queue (jobs/jobs.service.ts, pg-boss). The daily scan logs each reminder once in reminder_log (the
 // idempotency key per patient, recall date and kind is unique) and queues one send job per
 // unsent row; the send job locks the row, sends through SMTP and marks it sent only after SMTP
 // accepted the message. A failed send is recorded and retried with exponential back-off; a retry
 // or a second scan of a key already sent does nothing.
-import { Inject, Injectable, Logger, type OnApplicationShutdown, type OnModuleInit } from '@nestjs/common';
+import { Inject, Injectable } from '@nestjs/common';
 import { remindersDue } from '@torquetrail/domain';
-import { PgBoss, type Job } from 'pg-boss';
 import { ENV, type Env } from '../config/env.js';
 import { DB, type Database } from '../db/database.js';
+import { JobsService } from '../jobs/jobs.service.js';
 import { MailService } from '../mail/mail.service.js';
 import { reminderKey } from './exam-rules.js';
 import { RecallClock } from './recall-clock.js';
@@ -42,56 +41,35 @@ const longDate = (iso: string) =>
   });
 
 @Injectable()
-export class RemindersService implements OnModuleInit, OnApplicationShutdown {
-  private readonly logger = new Logger('RemindersService');
-  private boss: PgBoss | null = null;
-
+export class RemindersService {
   constructor(
     @Inject(ENV) private readonly env: Env,
     @Inject(DB) private readonly db: Database,
     private readonly mail: MailService,
     private readonly clock: RecallClock,
-  ) {}
-
-  async onModuleInit(): Promise<void> {
-    const boss = new PgBoss({ connectionString: this.env.DATABASE_URL, schema: 'pgboss', max: 3 });
-    boss.on('error', (error: unknown) =>
-      this.logger.error(`pg-boss: ${error instanceof Error ? error.message : String(error)}`),
-    );
-    await boss.start();
-    this.boss = boss;
-    const retry = {
-      retryLimit: this.env.REMINDER_RETRY_LIMIT,
-      retryDelay: this.env.REMINDER_RETRY_DELAY_S,
-      retryBackoff: true,
-    };
-    // exclusive: at most one queued-or-active send job per reminder key.
-    await this.ensureQueue(SEND_QUEUE, { policy: 'exclusive', ...retry });
-    await this.ensureQueue(SCAN_QUEUE, { policy: 'standard', retryLimit: 3, retryDelay: 60, retryBackoff: true });
-    await boss.work<SendJob>(SEND_QUEUE, { batchSize: 1, pollingIntervalSeconds: 1 }, (jobs) => this.handleSend(jobs));
-    await boss.work<ScanJob>(SCAN_QUEUE, { batchSize: 1 }, async (jobs) => {
-      for (const job of jobs) await this.scan(job.data?.today ?? this.clock.today());
-    });
-    await boss.schedule(SCAN_QUEUE, this.env.REMINDER_SCAN_CRON, {}, { tz: 'UTC' });
-  }
-
-  private async ensureQueue(
-    name: string,
-    options: { policy: string; retryLimit: number; retryDelay: number; retryBackoff: boolean },
+    private readonly jobs: JobsService,
   ) {
-    const boss = this.boss!;
-    if (await boss.getQueue(name)) {
-      const { policy: _policy, ...rest } = options;
-      await boss.updateQueue(name, rest);
-    } else {
-      await boss.createQueue(name, options);
-    }
-  }
-
-  async onApplicationShutdown(): Promise<void> {
-    const boss = this.boss;
-    this.boss = null;
-    if (boss) await boss.stop({ graceful: true, timeout: 5000, close: true });
+    jobs.register<SendJob>({
+      name: SEND_QUEUE,
+      policy: 'exclusive',
+      retryLimit: env.REMINDER_RETRY_LIMIT,
+      retryDelay: env.REMINDER_RETRY_DELAY_S,
+      pollingIntervalSeconds: 1,
+      handle: async ({ reminderId }, { finalAttempt }) => {
+        const outcome = await this.deliver(reminderId, finalAttempt);
+        if (outcome === 'failed') throw new Error(`reminder ${reminderId} not accepted by SMTP; will retry`);
+      },
+    });
+    jobs.register<ScanJob>({
+      name: SCAN_QUEUE,
+      policy: 'standard',
+      retryLimit: 3,
+      retryDelay: 60,
+      cron: env.REMINDER_SCAN_CRON,
+      handle: async ({ today }) => {
+        await this.scan(today ?? this.clock.today());
+      },
+    });
   }
 
   /**
@@ -113,27 +91,14 @@ export class RemindersService implements OnModuleInit, OnApplicationShutdown {
       this.db,
       candidates.map((c) => c.idempotencyKey),
     );
+    // While the queue is not running yet (PostgreSQL just back) the rows stay pending; the next
+    // scan queues them (the singleton key keeps one job per key).
     let queued = 0;
     for (const row of unsent) {
-      const id = await this.requireBoss().send(SEND_QUEUE, { reminderId: row.id } satisfies SendJob, {
-        singletonKey: row.idempotencyKey,
-      });
+      const id = await this.jobs.send(SEND_QUEUE, { reminderId: row.id } satisfies SendJob, row.idempotencyKey);
       if (id) queued += 1;
     }
     return { today, logged, queued };
-  }
-
-  private requireBoss(): PgBoss {
-    if (!this.boss) throw new Error('the reminder queue is not running');
-    return this.boss;
-  }
-
-  /** pg-boss hands an array of jobs (batchSize 1 here); a thrown error fails the job and retries it. */
-  private async handleSend(jobs: Job<SendJob>[]): Promise<void> {
-    for (const job of jobs) {
-      const outcome = await this.deliver(job.data.reminderId, job.retryCount >= this.env.REMINDER_RETRY_LIMIT);
-      if (outcome === 'failed') throw new Error(`reminder ${job.data.reminderId} not accepted by SMTP; will retry`);
-    }
   }
 
   /**

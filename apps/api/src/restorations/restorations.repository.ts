@@ -6,6 +6,7 @@ import {
   findingAcknowledgements,
   implantSites,
   implantSystems,
+  labPrescriptionMails,
   labPrescriptions,
   patients,
   placements,
@@ -210,7 +211,23 @@ export async function loadLabPrescriptions(db: Db, restorationIds: string[]) {
     })
     .from(labPrescriptions)
     .where(inArray(labPrescriptions.restorationId, restorationIds))
-    .orderBy(desc(labPrescriptions.createdAt));
+    .orderBy(desc(labPrescriptions.createdAt), desc(labPrescriptions.id));
+}
+
+/** The latest e-mail request of each lab prescription. */
+export async function loadLatestLabMails(db: Db, labPrescriptionIds: string[]) {
+  if (labPrescriptionIds.length === 0) return [];
+  return db
+    .selectDistinctOn([labPrescriptionMails.labPrescriptionId], {
+      labPrescriptionId: labPrescriptionMails.labPrescriptionId,
+      to: labPrescriptionMails.sentTo,
+      status: labPrescriptionMails.status,
+      attempts: labPrescriptionMails.attempts,
+      requestedAt: labPrescriptionMails.requestedAt,
+    })
+    .from(labPrescriptionMails)
+    .where(inArray(labPrescriptionMails.labPrescriptionId, labPrescriptionIds))
+    .orderBy(labPrescriptionMails.labPrescriptionId, desc(labPrescriptionMails.requestedAt));
 }
 
 /** Parts of the practice's catalogue by the id of any version, as their current version (new work, ADR 0006). */

@@ -3,6 +3,7 @@ import { type AppAbility, subject } from '@torquetrail/authz';
 import {
   CLOSURE_KINDS,
   type DeliveryBody,
+  type LabPrescriptionSummary,
   type PlanAmendmentBody,
   type PlanBody,
   type RestorableSitesReply,
@@ -320,13 +321,36 @@ export class RestorationsService {
     return { patient, sites: sites.map((s) => ({ ...s, parts: parts.filter((p) => p.restorationSiteId === s.id) })) };
   }
 
+  /** The lab prescriptions of restoration versions, newest first, each with its latest e-mail request. */
+  async labPrescriptionsOf(restorationIds: string[]): Promise<(LabPrescriptionSummary & { restorationId: string })[]> {
+    const labs = await repo.loadLabPrescriptions(this.db, restorationIds);
+    const mails = await repo.loadLatestLabMails(
+      this.db,
+      labs.map((l) => l.id),
+    );
+    return labs.map((l) => {
+      const mail = mails.find((m) => m.labPrescriptionId === l.id);
+      return {
+        id: l.id,
+        restorationId: l.restorationId,
+        sizeBytes: l.sizeBytes,
+        emailedTo: l.emailedTo,
+        emailedAt: l.emailedAt?.toISOString() ?? null,
+        lastEmail: mail
+          ? { to: mail.to, status: mail.status, attempts: mail.attempts, requestedAt: mail.requestedAt.toISOString() }
+          : null,
+        createdAt: l.createdAt.toISOString(),
+      };
+    });
+  }
+
   /** Builds the replies for several restorations with a fixed number of queries. */
   async details(rows: repo.RestorationRow[]): Promise<RestorationDetail[]> {
     const ids = rows.map((r) => r.id);
     const [{ sites, parts }, acks, labs] = await Promise.all([
       repo.loadRestorationSites(this.db, ids),
       repo.loadAcknowledgements(this.db, ids),
-      repo.loadLabPrescriptions(this.db, ids),
+      this.labPrescriptionsOf(ids),
     ]);
     return rows.map((r) => ({
       id: r.id,
@@ -354,15 +378,7 @@ export class RestorationsService {
       acknowledgements: acks
         .filter((a) => a.restorationId === r.id)
         .map((a) => ({ code: a.code, fdi: a.fdi, byName: a.byName, at: a.at.toISOString() })),
-      labPrescriptions: labs
-        .filter((l) => l.restorationId === r.id)
-        .map((l) => ({
-          id: l.id,
-          sizeBytes: l.sizeBytes,
-          emailedTo: l.emailedTo,
-          emailedAt: l.emailedAt?.toISOString() ?? null,
-          createdAt: l.createdAt.toISOString(),
-        })),
+      labPrescriptions: labs.filter((l) => l.restorationId === r.id).map(({ restorationId: _r, ...l }) => l),
       sites: sites
         .filter((s) => s.restorationId === r.id)
         .map((s) => ({

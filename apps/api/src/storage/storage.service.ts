@@ -1,6 +1,22 @@
 import { Inject, Injectable, type OnModuleDestroy } from '@nestjs/common';
-import { GetObjectCommand, HeadBucketCommand, PutObjectCommand, S3Client } from '@aws-sdk/client-s3';
+import {
+  DeleteObjectCommand,
+  GetObjectCommand,
+  HeadBucketCommand,
+  PutObjectCommand,
+  S3Client,
+} from '@aws-sdk/client-s3';
+import { StorageUnavailableError } from '../common/unavailable.js';
 import { ENV, type Env } from '../config/env.js';
+
+/**
+ * An error S3 answered with a client status (404 no such key, 403 …) is the caller's to handle;
+ * no answer at all (refused, reset, timed out) or a server error means S3 is away, answered 503.
+ */
+function asUnavailable(error: unknown): unknown {
+  const status = (error as { $metadata?: { httpStatusCode?: number } } | null)?.$metadata?.httpStatusCode;
+  return typeof status === 'number' && status < 500 ? error : new StorageUnavailableError(error);
+}
 
 /**
  * Files (lab prescriptions, radiographs) go to S3 through the AWS SDK. Locally the endpoint is the
@@ -22,6 +38,8 @@ export class StorageService implements OnModuleDestroy {
       requestChecksumCalculation: 'WHEN_REQUIRED',
       responseChecksumValidation: 'WHEN_REQUIRED',
       maxAttempts: 2,
+      // A stopped or hung S3 answers the request 503 within seconds instead of holding it open.
+      requestHandler: { connectionTimeout: 3000, requestTimeout: 20_000 },
     });
   }
 
@@ -37,15 +55,32 @@ export class StorageService implements OnModuleDestroy {
   }
 
   async put(key: string, body: Buffer, contentType: string): Promise<void> {
-    await this.client.send(
-      new PutObjectCommand({ Bucket: this.bucket, Key: key, Body: body, ContentType: contentType }),
-    );
+    try {
+      await this.client.send(
+        new PutObjectCommand({ Bucket: this.bucket, Key: key, Body: body, ContentType: contentType }),
+      );
+    } catch (error) {
+      throw asUnavailable(error);
+    }
   }
 
   async get(key: string): Promise<Buffer> {
-    const out = await this.client.send(new GetObjectCommand({ Bucket: this.bucket, Key: key }));
-    if (!out.Body) throw new Error(`object ${key} has no body`);
-    return Buffer.from(await out.Body.transformToByteArray());
+    try {
+      const out = await this.client.send(new GetObjectCommand({ Bucket: this.bucket, Key: key }));
+      if (!out.Body) throw new Error(`object ${key} has no body`);
+      return Buffer.from(await out.Body.transformToByteArray());
+    } catch (error) {
+      throw asUnavailable(error);
+    }
+  }
+
+  /** Removes an object written for a row that could not be recorded (no orphan files). */
+  async delete(key: string): Promise<void> {
+    try {
+      await this.client.send(new DeleteObjectCommand({ Bucket: this.bucket, Key: key }));
+    } catch (error) {
+      throw asUnavailable(error);
+    }
   }
 
   onModuleDestroy(): void {

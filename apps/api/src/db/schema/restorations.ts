@@ -10,8 +10,10 @@ import {
   text,
   timestamp,
   unique,
+  uniqueIndex,
   uuid,
 } from 'drizzle-orm/pg-core';
+import { sql } from 'drizzle-orm';
 import { amendmentChain } from './amendment-chain.js';
 import { components, torqueWrenches } from './catalogue.js';
 import {
@@ -23,6 +25,7 @@ import {
   restorationStatusEnum,
   retentionEnum,
   torqueReasonEnum,
+  reminderStatusEnum,
   torqueVerdictEnum,
 } from './enums.js';
 import { patients } from './patients.js';
@@ -221,6 +224,41 @@ export const labPrescriptions = pgTable(
   (t) => [
     index('lab_prescriptions_restoration_idx').on(t.restorationId),
     unique('lab_prescriptions_object_key_unique').on(t.objectKey),
+  ],
+);
+
+/**
+ * One request to e-mail a stored lab prescription to the lab, sent by the job queue: pending
+ * until SMTP accepts it (then sent, once), failed after the last retry. The same delivery states
+ * as reminders. At most one pending request per prescription, so pressing again while one waits
+ * queues nothing more.
+ */
+export const labPrescriptionMails = pgTable(
+  'lab_prescription_mails',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
+    labPrescriptionId: uuid('lab_prescription_id')
+      .notNull()
+      .references(() => labPrescriptions.id),
+    sentTo: text('sent_to').notNull(),
+    status: reminderStatusEnum('status').notNull().default('pending'),
+    attempts: integer('attempts').notNull().default(0),
+    lastError: text('last_error'),
+    messageId: text('message_id'),
+    requestedBy: uuid('requested_by')
+      .notNull()
+      .references(() => users.id),
+    requestedAt: timestamp('requested_at', { withTimezone: true }).notNull().defaultNow(),
+    sentAt: timestamp('sent_at', { withTimezone: true }),
+  },
+  (t) => [
+    index('lab_prescription_mails_prescription_idx').on(t.labPrescriptionId, t.requestedAt),
+    uniqueIndex('lab_prescription_mails_one_pending')
+      .on(t.labPrescriptionId)
+      .where(sql`${t.status} = 'pending'`),
   ],
 );
 

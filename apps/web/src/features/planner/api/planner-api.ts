@@ -1,6 +1,7 @@
 // Planner endpoints: one fetcher + queryOptions + hook each. Mutations invalidate exactly the
 // queries whose data they change.
 import {
+  type LabPrescriptionBody,
   LabPrescriptionSummary,
   type DeliveryBody,
   type PlanAmendmentBody,
@@ -61,10 +62,10 @@ export function useDeliver() {
 export function useLabPrescription(restoration: RestorationDetail) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (emailToLab: boolean) =>
+    mutationFn: (body: LabPrescriptionBody) =>
       apiRequest(`/api/restorations/${restoration.id}/lab-prescriptions`, {
         method: 'POST',
-        body: { emailToLab },
+        body,
         schema: LabPrescriptionSummary,
       }),
     onSuccess: () => invalidateRestoration(queryClient, restoration, { sites: false }),

@@ -17,6 +17,7 @@ import {
   RESTORATION_STATUS_LABEL,
   RETENTION_LABEL,
 } from '../../../lib/clinical-labels';
+import { REMINDER_STATUS_LABEL } from '../../../lib/labels';
 
 /** One restoration: what was planned, its Findings, delivery and lab prescriptions. */
 export function RestorationPanel({
@@ -93,6 +94,12 @@ export function RestorationPanel({
                 Lab prescription of {formatDateTime(l.createdAt)}
               </a>
               {l.emailedTo && ` · e-mailed to ${l.emailedTo}`}
+              {l.lastEmail && l.lastEmail.status !== 'sent' && (
+                <span data-testid="lab-mail-status">
+                  {` · e-mail to ${l.lastEmail.to}: ${REMINDER_STATUS_LABEL[l.lastEmail.status].toLowerCase()}`}
+                  {l.lastEmail.status === 'pending' && ' (sent as soon as the mail server answers)'}
+                </span>
+              )}
             </li>
           ))}
         </ul>
@@ -103,16 +110,25 @@ export function RestorationPanel({
             <Button
               icon="document"
               text="Lab prescription (PDF)"
-              onClick={() => lab.mutate(false)}
-              loading={lab.isPending && !lab.variables}
+              onClick={() => lab.mutate({ emailToLab: false })}
+              loading={lab.isPending && !lab.variables.emailToLab && !lab.variables.revise}
               data-testid="make-lab-pdf"
             />
+            {r.labPrescriptions.length > 0 && (
+              <Button
+                icon="refresh"
+                text="New version of the prescription"
+                onClick={() => lab.mutate({ emailToLab: false, revise: true })}
+                loading={lab.isPending && lab.variables.revise === true}
+                data-testid="revise-lab-pdf"
+              />
+            )}
             {r.labEmail && (
               <Button
                 icon="envelope"
                 text={`E-mail to ${r.labEmail}`}
-                onClick={() => lab.mutate(true)}
-                loading={lab.isPending && lab.variables}
+                onClick={() => lab.mutate({ emailToLab: true })}
+                loading={lab.isPending && lab.variables.emailToLab === true}
               />
             )}
             {r.status === 'planned' && (
