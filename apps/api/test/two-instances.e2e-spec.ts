@@ -11,6 +11,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createDatabase, createPool, type Database } from '../src/db/database.js';
 import { recalls, reminderLog } from '../src/db/schema/index.js';
 import { DEMO_PASSWORD } from '../src/seed/demo-scenario.js';
+import { report } from './faults/fault-harness.js';
 import { caughtFor, until } from './support/recalls.js';
 import { ACCOUNTS, patientId, resetDatabase, siteId, testEnv } from './support/test-app.js';
 
@@ -126,7 +127,9 @@ describe('two API instances', () => {
       return mine.length === 1 && mine[0].status === 'sent' ? mine[0] : null;
     }, 20_000);
     await new Promise((r) => setTimeout(r, 2000));
-    expect(await caughtFor(sent.id)).toHaveLength(1);
+    const delivered = (await caughtFor(sent.id)).length;
+    expect(delivered).toBe(1);
+    report('two API instances, one reminder scan run on both', { 'mails expected': 1, 'mails delivered': delivered });
   });
 
   it('one amendment sent through both at once: one 201, one 409', async () => {
@@ -142,6 +145,8 @@ describe('two API instances', () => {
     const results = await Promise.all(
       [a, b].map((i) => call(i, cookie, 'POST', `/api/complications/${String(made.body?.id)}/amendments`, amend)),
     );
-    expect(results.map((r) => r.status).sort((x, y) => x - y)).toEqual([201, 409]);
+    const statuses = results.map((r) => r.status).sort((x, y) => x - y);
+    expect(statuses).toEqual([201, 409]);
+    report('two API instances, one amendment through both at once', { answers: statuses.join(' and ') });
   });
 });

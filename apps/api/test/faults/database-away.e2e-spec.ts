@@ -2,15 +2,19 @@
 // started again: the process lives on, every refused request is a 503 with a plain message (no
 // 500, no false 401), every acknowledged write is in the database afterwards and no other, and
 // the API answers again without a restart. An API started while the database is away serves
-// 503 and starts its job queue once the database returns.
+// 503 and starts its job queue once the database returns; the queue of the API that lived
+// through the outage sends mail again.
 import type { INestApplication } from '@nestjs/common';
-import { like } from 'drizzle-orm';
+import { eq, like } from 'drizzle-orm';
+import { addCalendarDays } from '@torquetrail/domain';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../src/app.js';
-import { complications } from '../../src/db/schema/index.js';
+import { complications, recalls, reminderLog } from '../../src/db/schema/index.js';
+import { RemindersService } from '../../src/recalls/reminders.service.js';
+import { caughtFor, until } from '../support/recalls.js';
 import { JobsService } from '../../src/jobs/jobs.service.js';
-import { signIn, siteId, startTestApp, testEnv, type TestContext } from '../support/test-app.js';
+import { patientId, signIn, siteId, startTestApp, testEnv, type TestContext } from '../support/test-app.js';
 import { postgres, report } from './fault-harness.js';
 
 const WRITES = 200;
@@ -100,6 +104,18 @@ describe('PostgreSQL away', () => {
       await late!.get(JobsService).whenRunning(30_000);
       expect((await request(late!.getHttpServer()).get('/api/patients').set('Cookie', cookie)).status).toBe(200);
       await late!.close();
+      // The queue of the API that lived through the outage works again: a reminder queued now is sent.
+      const harold = await patientId(ctx.db, 'LL-1001');
+      const [{ dueOn }] = await ctx.db
+        .select({ dueOn: recalls.dueOn })
+        .from(recalls)
+        .where(eq(recalls.patientId, harold));
+      await ctx.app.get(RemindersService).scan(addCalendarDays(dueOn, -10));
+      const reminder = await until(async () => {
+        const rows = await ctx.db.select().from(reminderLog).where(eq(reminderLog.patientId, harold));
+        return rows.find((r) => r.recallDueOn === dueOn && r.kind === 'upcoming' && r.status === 'sent');
+      }, 20_000);
+      expect(await caughtFor(reminder.id)).toHaveLength(1);
 
       report('PostgreSQL stopped and restarted during writes', {
         'faults injected': faults,
