@@ -194,8 +194,32 @@ const TABLE: Record<string, Case[]> = {
   'PATCH /api/wrenches/:id': one(
     {
       path: () => `/api/wrenches/${wrench.id}`,
-      body: () => ({ lastCalibratedOn: '2026-11-30' }),
+      body: () => ({ label: 'Spring wrench A (relabelled)' }),
       expect: adminOnly(200),
+    },
+    'own practice',
+  ),
+  // Calibrations belong to the instrument (every version of the wrench): ADR 0006.
+  'GET /api/wrenches/:id/calibrations': one(
+    {
+      path: () => `/api/wrenches/${wrench.id}/calibrations`,
+      expect: every(200, { surgeon: 403, surgeonNoShare: 403, otherPracticeDentist: 404 }),
+    },
+    'own practice',
+  ),
+  'POST /api/wrenches/:id/calibrations': one(
+    {
+      path: () => `/api/wrenches/${wrench.id}/calibrations`,
+      body: () => ({ calibratedOn: '2026-11-30', note: 'Bench check' }),
+      expect: adminOnly(201),
+    },
+    'own practice',
+  ),
+  // The surgeons work in another practice: this catalogue's history is not theirs to read.
+  'GET /api/catalogue/components/:id/versions': one(
+    {
+      path: () => `/api/catalogue/components/${system.platforms[0].components[0].id}/versions`,
+      expect: every(200, { surgeon: 404, surgeonNoShare: 404, otherPracticeDentist: 404 }),
     },
     'own practice',
   ),
