@@ -9,6 +9,7 @@ const ALREADY_AMENDED: Record<AmendableTableName, string> = {
   torque_events: 'This entry was already amended; amend the current version',
   complications: 'This entry was already amended; amend the current version',
   recall_exams: 'This exam has already been amended; amend its latest version',
+  radiograph_measurements: 'This measurement was already amended; amend its latest version',
 };
 
 /** 409 for an amendment of a version that a newer row already supersedes. */

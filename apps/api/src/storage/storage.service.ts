@@ -1,5 +1,13 @@
 import { Inject, Injectable, type OnModuleDestroy } from '@nestjs/common';
-import { GetObjectCommand, HeadBucketCommand, PutObjectCommand, S3Client } from '@aws-sdk/client-s3';
+import type { Readable } from 'node:stream';
+import {
+  DeleteObjectCommand,
+  GetObjectCommand,
+  HeadBucketCommand,
+  PutObjectCommand,
+  S3Client,
+} from '@aws-sdk/client-s3';
+import { Upload } from '@aws-sdk/lib-storage';
 import { ENV, type Env } from '../config/env.js';
 
 /**
@@ -46,6 +54,32 @@ export class StorageService implements OnModuleDestroy {
     const out = await this.client.send(new GetObjectCommand({ Bucket: this.bucket, Key: key }));
     if (!out.Body) throw new Error(`object ${key} has no body`);
     return Buffer.from(await out.Body.transformToByteArray());
+  }
+
+  /**
+   * Streams a body of unknown length to S3 in 5 MB parts (at most two in flight), so memory stays
+   * bounded whatever the size; a failed or aborted upload removes its parts.
+   */
+  async putStream(key: string, body: Readable, contentType: string): Promise<void> {
+    const upload = new Upload({
+      client: this.client,
+      params: { Bucket: this.bucket, Key: key, Body: body, ContentType: contentType },
+      queueSize: 2,
+      partSize: 5 * 1024 * 1024,
+      leavePartsOnError: false,
+    });
+    await upload.done();
+  }
+
+  /** The object as a stream, for answering a download without holding it in memory. */
+  async getStream(key: string): Promise<Readable> {
+    const out = await this.client.send(new GetObjectCommand({ Bucket: this.bucket, Key: key }));
+    if (!out.Body) throw new Error(`object ${key} has no body`);
+    return out.Body as Readable;
+  }
+
+  async delete(key: string): Promise<void> {
+    await this.client.send(new DeleteObjectCommand({ Bucket: this.bucket, Key: key }));
   }
 
   onModuleDestroy(): void {

@@ -7,6 +7,7 @@ export const AMENDABLE_TABLES = [
   'torque_events',
   'complications',
   'recall_exams',
+  'radiograph_measurements',
 ] as const;
 export type AmendableTableName = (typeof AMENDABLE_TABLES)[number];
 
