@@ -54,6 +54,12 @@ export const router = createBrowserRouter([
             lazy: async () => ({ Component: (await import('../features/planner/routes/planner-route')).PlannerRoute }),
           },
           {
+            path: 'patients/:patientId/radiographs',
+            lazy: async () => ({
+              Component: (await import('../features/radiographs/routes/radiographs-route')).RadiographsRoute,
+            }),
+          },
+          {
             path: 'catalogue',
             lazy: async () => ({
               Component: (await import('../features/catalogue/routes/catalogue-route')).CatalogueRoute,
