@@ -60,6 +60,12 @@ export const router = createBrowserRouter([
             }),
           },
           {
+            path: 'patients/:patientId/radiographs/:radiographId',
+            lazy: async () => ({
+              Component: (await import('../features/radiographs/routes/radiograph-viewer-route')).RadiographViewerRoute,
+            }),
+          },
+          {
             path: 'catalogue',
             lazy: async () => ({
               Component: (await import('../features/catalogue/routes/catalogue-route')).CatalogueRoute,

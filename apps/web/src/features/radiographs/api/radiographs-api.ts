@@ -1,8 +1,16 @@
 // Radiograph endpoints. The upload uses XMLHttpRequest, not fetch: only XHR reports upload
 // progress in every browser, and it can be cancelled mid-file.
-import { ErrorReply, Radiograph, RadiographListReply, type RadiographUploadQuery } from '@torquetrail/contracts';
+import {
+  ErrorReply,
+  Measurement,
+  type MeasurementBody,
+  Radiograph,
+  RadiographDetail,
+  RadiographListReply,
+  type RadiographUploadQuery,
+} from '@torquetrail/contracts';
 import type { z } from 'zod';
-import { useQuery } from '@tanstack/react-query';
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { ApiError, apiRequest } from '../../../lib/api-client';
 import { radiographKeys } from './keys';
 
@@ -60,4 +68,19 @@ export function uploadRadiograph(
     xhr.send(file);
   });
   return { done, cancel: () => xhr.abort() };
+}
+
+export const useRadiograph = (radiographId: string) =>
+  useQuery({
+    queryKey: radiographKeys.detail(radiographId),
+    queryFn: ({ signal }) => apiRequest(`/api/radiographs/${radiographId}`, { schema: RadiographDetail, signal }),
+  });
+
+export function useMeasure(radiographId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (body: MeasurementBody) =>
+      apiRequest(`/api/radiographs/${radiographId}/measurements`, { method: 'POST', body, schema: Measurement }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: radiographKeys.detail(radiographId) }),
+  });
 }

@@ -1,4 +1,6 @@
 import { Button, Card, FormGroup, HTMLSelect, InputGroup, ProgressBar } from '@blueprintjs/core';
+import { formatTooth } from '@torquetrail/domain';
+import { useToothSystem } from '../../../lib/tooth-system';
 import { RADIOGRAPH_KINDS, RadiographUploadQuery, type RadiographKind } from '@torquetrail/contracts';
 import { useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
@@ -12,11 +14,14 @@ interface Draft {
   kind: RadiographKind;
   takenOn: string;
   note: string;
+  siteIds: string[] | false;
 }
 const schema = draftSchema(RadiographUploadQuery, (d: Draft) => ({
   kind: d.kind,
   takenOn: d.takenOn || undefined,
   note: d.note || undefined,
+  // react-hook-form gives `false` when no box of a checkbox group is ticked
+  siteIds: d.siteIds ? d.siteIds.join(',') : undefined,
 }));
 
 interface Row {
@@ -31,8 +36,20 @@ interface Row {
 const kb = (n: number) => `${Math.round(n / 1024).toLocaleString()} KB`;
 
 /** Pick one or several files, then each uploads with its own progress, cancel and retry. */
-export function UploadPanel({ patientId }: { patientId: string }) {
-  const form = useContractForm<Draft, UploadDetails>(schema, { kind: 'periapical', takenOn: '', note: '' });
+export function UploadPanel({
+  patientId,
+  sites,
+}: {
+  patientId: string;
+  sites: readonly { id: string; fdi: number }[];
+}) {
+  const form = useContractForm<Draft, UploadDetails>(schema, {
+    kind: 'periapical',
+    takenOn: '',
+    note: '',
+    siteIds: [],
+  });
+  const [system] = useToothSystem();
   const queryClient = useQueryClient();
   const [picked, setPicked] = useState<File[]>([]);
   const [rows, setRows] = useState<Row[]>([]);
@@ -93,6 +110,16 @@ export function UploadPanel({ patientId }: { patientId: string }) {
           >
             {(a11y) => <InputGroup id="radiograph-taken-on" type="date" {...form.register('takenOn')} {...a11y} />}
           </FormField>
+          <fieldset className="radiograph-sites">
+            <legend>Implant sites shown</legend>
+            {sites.map((site) => (
+              <label key={site.id} className="bp6-control bp6-checkbox bp6-inline">
+                <input type="checkbox" value={site.id} {...form.register('siteIds')} />
+                <span className="bp6-control-indicator" />
+                {formatTooth(site.fdi, system)}
+              </label>
+            ))}
+          </fieldset>
           <FormField name="note" label="Note" labelFor="radiograph-note">
             {(a11y) => <InputGroup id="radiograph-note" {...form.register('note')} {...a11y} />}
           </FormField>

@@ -1,6 +1,6 @@
 import '../components/radiographs.css';
 import { Card, NonIdealState, Tag } from '@blueprintjs/core';
-import { useParams } from 'react-router-dom';
+import { Link, useParams } from 'react-router-dom';
 import { Can } from '../../../lib/ability';
 import { BreadcrumbTrail } from '../../../lib/components/breadcrumb-trail';
 import { ErrorState } from '../../../lib/components/error-state';
@@ -28,7 +28,7 @@ export function RadiographsRoute() {
       />
       <h1>Radiographs</h1>
       <Can I="create" a="Radiograph">
-        <UploadPanel patientId={patientId} />
+        <UploadPanel patientId={patientId} sites={patient.data?.sites ?? []} />
       </Can>
       {list.isPending ? (
         <LoadingState label="Loading radiographs" />
@@ -48,7 +48,10 @@ export function RadiographsRoute() {
               <div>
                 <Tag minimal>{RADIOGRAPH_KIND_LABEL[r.kind]}</Tag> {r.takenOn ?? 'date not known'}
               </div>
-              <small>{RADIOGRAPH_FILE_TYPE_LABEL[r.fileType]}</small>
+              <small>{RADIOGRAPH_FILE_TYPE_LABEL[r.fileType]}</small>{' '}
+              <Link to={`/patients/${patientId}/radiographs/${r.id}`} data-testid="open-viewer">
+                Open viewer
+              </Link>
             </Card>
           ))}
         </div>
