@@ -77,5 +77,16 @@ describe('radiographs', () => {
     );
     await screenshot(page, 'radiograph-viewer-measured');
     expect(await seriousA11yViolations(page)).toEqual([]);
+
+    // The Site file of 35 shows its thumbnail, which opens the viewer again.
+    await page.goto(new URL(page.url()).pathname.replace(/\/radiographs\/.*/, ''));
+    await page.getByTestId('arch-cell-35').click();
+    const thumb = page.getByTestId('site-radiograph').first();
+    await thumb.waitFor();
+    await expect
+      .poll(() => thumb.locator('img').evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth))
+      .toBeGreaterThan(0);
+    await thumb.getByRole('link').click();
+    await page.getByTestId('viewer-image').waitFor();
   });
 });
