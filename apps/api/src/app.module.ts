@@ -21,6 +21,7 @@ import { RestorationsModule } from './restorations/restorations.module.js';
 import { TorqueModule } from './torque/torque.module.js';
 import { PlacementsModule } from './placements/placements.module.js';
 import { StorageModule } from './storage/storage.module.js';
+import { RadiographsModule } from './radiographs/radiographs.module.js';
 
 @Module({})
 export class AppModule {
@@ -44,6 +45,7 @@ export class AppModule {
         PlacementsModule,
         ComplicationsModule,
         RecallsModule,
+        RadiographsModule,
         ...(env.NODE_ENV === 'production' ? [] : [OpenApiModule]),
       ],
       providers: [

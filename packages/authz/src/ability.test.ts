@@ -25,6 +25,8 @@ describe('restorative dentist', () => {
     ['read', 'RecallExam'],
     ['read', 'Catalogue'],
     ['create', 'Complication'],
+    ['create', 'Radiograph'],
+    ['amend', 'Radiograph'],
   ])('may %s %s in their practice', (action, type) => {
     expect(a.can(action, row(type, inPractice))).toBe(true);
   });
@@ -63,6 +65,11 @@ describe('referring surgeon (another practice)', () => {
     expect(a.can('read', row('RecallExam', shared))).toBe(true);
     expect(a.can('read', row('Radiograph', shared))).toBe(true);
     expect(a.can('create', row('Placement', shared))).toBe(true);
+  });
+  it('files and measures radiographs of a shared patient only (issue 10)', () => {
+    expect(a.can('create', row('Radiograph', shared))).toBe(true);
+    expect(a.can('amend', row('Radiograph', shared))).toBe(true);
+    expect(a.can('create', row('Radiograph', { practiceId: PRACTICE, patientId: UNSHARED_PATIENT }))).toBe(false);
   });
   it('sees no patient that is not shared, nor the rest of the chart', () => {
     expect(a.can('read', row('Patient', { id: UNSHARED_PATIENT, practiceId: PRACTICE }))).toBe(false);

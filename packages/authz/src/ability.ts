@@ -77,7 +77,8 @@ export function defineAbilityFor(user: AbilityUser): AppAbility {
         own,
       );
       can(['read', 'create', 'amend'], 'Placement', own);
-      can('read', ['RecallExam', 'Radiograph', 'Catalogue', 'Wrench', 'RecallPolicy'], own);
+      can('read', ['RecallExam', 'Catalogue', 'Wrench', 'RecallPolicy'], own);
+      can(['read', 'create', 'amend'], 'Radiograph', own);
       can(['read', 'create', 'update'], 'Share', own);
       break;
     case 'hygienist':
@@ -92,14 +93,14 @@ export function defineAbilityFor(user: AbilityUser): AppAbility {
       // Own practice: a surgeon keeps the records of their own surgical practice.
       can('read', 'Patient', own);
       can('read', PATIENT_RECORD, own);
-      can(['create', 'amend'], ['ImplantSite', 'Placement'], own);
+      can(['create', 'amend'], ['ImplantSite', 'Placement', 'Radiograph'], own);
       can('read', 'Catalogue', own);
       // Another practice's patient only through a share, and never the rest of the chart.
       const shared = [...user.sharedPatientIds];
       if (shared.length > 0) {
         can('read', 'Patient', { id: { $in: shared } });
         can('read', PATIENT_RECORD, { patientId: { $in: shared } });
-        can(['create', 'amend'], 'Placement', { patientId: { $in: shared } });
+        can(['create', 'amend'], ['Placement', 'Radiograph'], { patientId: { $in: shared } });
       }
       break;
     }

@@ -204,3 +204,12 @@ export type DeskSort = z.infer<typeof DeskSort>;
 export const SORT_DIRECTIONS = ['asc', 'desc'] as const;
 export const SortDirection = z.enum(SORT_DIRECTIONS);
 export type SortDirection = z.infer<typeof SortDirection>;
+
+// ---- radiographs -------------------------------------------------------------------------------
+/** What the bytes of an uploaded radiograph are (decided by their signature, never by name). */
+export const RADIOGRAPH_FILE_TYPES = ['png', 'jpeg', 'dicom'] as const;
+export const RadiographFileType = z.enum(RADIOGRAPH_FILE_TYPES);
+export type RadiographFileType = z.infer<typeof RadiographFileType>;
+export const RADIOGRAPH_KINDS = ['periapical', 'bitewing', 'panoramic', 'cbct-export', 'other'] as const;
+export const RadiographKind = z.enum(RADIOGRAPH_KINDS);
+export type RadiographKind = z.infer<typeof RadiographKind>;

@@ -12,3 +12,4 @@ export * from './ledger.js';
 export * from './recalls.js';
 export * from './placements.js';
 export * from './routes.js';
+export * from './radiographs.js';

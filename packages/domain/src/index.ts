@@ -117,8 +117,19 @@ export type { Vec3 } from './geometry.js';
 export { pixelDistanceMm } from './radiograph-measure.js';
 /** Magnification correction by an implant of known length. */
 export { correctByKnownLength } from './radiograph-measure.js';
+/** Bone levels along the implant axis from the platform, calibrated by known length, with the Pixel Spacing estimate. */
+export { measureBoneLevels, projectOnImplantAxis, SPACING_DISAGREEMENT_LIMIT } from './radiograph-measure.js';
 /** Radiograph measurement types. */
-export type { PixelPoint, PixelSpacing, KnownLengthCalibration } from './radiograph-measure.js';
+export type {
+  PixelPoint,
+  PixelSpacing,
+  KnownLengthCalibration,
+  AxisProjection,
+  ImplantMarks,
+  BoneLevelMeasurementInput,
+  BoneLevelMeasurement,
+  SpacingEstimate,
+} from './radiograph-measure.js';
 
 // ---- torque --------------------------------------------------------------------------------
 /** One of TORQUE_VERDICTS against an inclusive percentage window. */

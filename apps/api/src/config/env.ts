@@ -57,6 +57,18 @@ const EnvSchema = z.object({
         .map((o) => o.trim())
         .filter(Boolean),
     ),
+  /** Largest radiograph accepted, bytes (413 above it, before anything is stored). */
+  RADIOGRAPH_MAX_BYTES: z.coerce
+    .number()
+    .int()
+    .positive()
+    .default(100 * 1024 * 1024),
+  /** Radiograph bytes one user may upload per day (UTC), bytes (429 above it). */
+  RADIOGRAPH_DAILY_QUOTA_BYTES: z.coerce
+    .number()
+    .int()
+    .positive()
+    .default(2 * 1024 * 1024 * 1024),
   /** pino log level; `info` logs start-up and refused requests, `debug` every request. */
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   /** The built web app to serve from the same origin; unset in API-only tests. */

@@ -12,6 +12,17 @@ const originOf = (url: string | undefined): string | undefined => {
   }
 };
 
+/**
+ * The one route whose body is not JSON: a radiograph upload streams the file's bytes. Only
+ * application/octet-stream is accepted there, which a cross-site HTML form cannot send either
+ * (forms send urlencoded, multipart or text/plain), and the Origin check above still applies.
+ */
+const BINARY_UPLOAD = /^\/api\/patients\/[^/]+\/radiographs\/?$/;
+const isBinaryUpload = (req: Request) =>
+  req.method === 'POST' &&
+  BINARY_UPLOAD.test(req.path) &&
+  req.is('application/octet-stream') === 'application/octet-stream';
+
 const refuse = (res: Response, statusCode: 403 | 415, error: string, message: string) =>
   res.status(statusCode).json({ statusCode, error, message } satisfies ErrorReply);
 
@@ -32,7 +43,7 @@ export function sameOriginWrites(extraOrigins: readonly string[] = []) {
       return refuse(res, 403, 'Forbidden', 'This request came from another site and was refused');
     }
     const hasBody = req.get('transfer-encoding') !== undefined || Number(req.get('content-length') ?? 0) > 0;
-    if ((hasBody || req.get('content-type') !== undefined) && !req.is('application/json')) {
+    if ((hasBody || req.get('content-type') !== undefined) && !req.is('application/json') && !isBinaryUpload(req)) {
       return refuse(res, 415, 'Unsupported Media Type', 'Send the request body as application/json');
     }
     return next();

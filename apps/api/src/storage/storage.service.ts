@@ -1,4 +1,5 @@
 import { Inject, Injectable, type OnModuleDestroy } from '@nestjs/common';
+import type { Readable } from 'node:stream';
 import {
   DeleteObjectCommand,
   GetObjectCommand,
@@ -7,6 +8,7 @@ import {
   S3Client,
 } from '@aws-sdk/client-s3';
 import { StorageUnavailableError } from '../common/unavailable.js';
+import { Upload } from '@aws-sdk/lib-storage';
 import { ENV, type Env } from '../config/env.js';
 
 /**
@@ -78,6 +80,36 @@ export class StorageService implements OnModuleDestroy {
   async delete(key: string): Promise<void> {
     try {
       await this.client.send(new DeleteObjectCommand({ Bucket: this.bucket, Key: key }));
+    } catch (error) {
+      throw asUnavailable(error);
+    }
+  }
+
+  /**
+   * Streams a body of unknown length to S3 in 5 MB parts (at most two in flight), so memory stays
+   * bounded whatever the size; a failed or aborted upload removes its parts.
+   */
+  async putStream(key: string, body: Readable, contentType: string): Promise<void> {
+    const upload = new Upload({
+      client: this.client,
+      params: { Bucket: this.bucket, Key: key, Body: body, ContentType: contentType },
+      queueSize: 2,
+      partSize: 5 * 1024 * 1024,
+      leavePartsOnError: false,
+    });
+    try {
+      await upload.done();
+    } catch (error) {
+      throw asUnavailable(error);
+    }
+  }
+
+  /** The object as a stream, for answering a download without holding it in memory. */
+  async getStream(key: string): Promise<Readable> {
+    try {
+      const out = await this.client.send(new GetObjectCommand({ Bucket: this.bucket, Key: key }));
+      if (!out.Body) throw new Error(`object ${key} has no body`);
+      return out.Body as Readable;
     } catch (error) {
       throw asUnavailable(error);
     }

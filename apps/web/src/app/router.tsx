@@ -54,6 +54,18 @@ export const router = createBrowserRouter([
             lazy: async () => ({ Component: (await import('../features/planner/routes/planner-route')).PlannerRoute }),
           },
           {
+            path: 'patients/:patientId/radiographs',
+            lazy: async () => ({
+              Component: (await import('../features/radiographs/routes/radiographs-route')).RadiographsRoute,
+            }),
+          },
+          {
+            path: 'patients/:patientId/radiographs/:radiographId',
+            lazy: async () => ({
+              Component: (await import('../features/radiographs/routes/radiograph-viewer-route')).RadiographViewerRoute,
+            }),
+          },
+          {
             path: 'catalogue',
             lazy: async () => ({
               Component: (await import('../features/catalogue/routes/catalogue-route')).CatalogueRoute,

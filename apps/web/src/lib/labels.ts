@@ -6,6 +6,8 @@ import {
   type DeskFilter,
   type DeskSort,
   type MaintenanceStatus,
+  type RadiographFileType,
+  type RadiographKind,
   type ReminderKind,
   type ReminderStatus,
   type SiteStatus,
@@ -83,4 +85,18 @@ export const REMINDER_STATUS_LABEL: Record<ReminderStatus, string> = {
   pending: 'Pending',
   sent: 'Sent',
   failed: 'Failed',
+};
+
+export const RADIOGRAPH_KIND_LABEL: Record<RadiographKind, string> = {
+  periapical: 'Periapical',
+  bitewing: 'Bitewing',
+  panoramic: 'Panoramic',
+  'cbct-export': 'CBCT export',
+  other: 'Other',
+};
+
+export const RADIOGRAPH_FILE_TYPE_LABEL: Record<RadiographFileType, string> = {
+  png: 'PNG image',
+  jpeg: 'JPEG image',
+  dicom: 'DICOM file',
 };

@@ -9,6 +9,7 @@ export const AMENDABLE_TABLES = [
   'recall_exams',
   'components',
   'torque_wrenches',
+  'radiograph_measurements',
 ] as const;
 export type AmendableTableName = (typeof AMENDABLE_TABLES)[number];
 

@@ -11,6 +11,8 @@ import {
   MATERIALS,
   PERI_IMPLANT_STATUSES,
   PROBING_POSITIONS,
+  RADIOGRAPH_FILE_TYPES,
+  RADIOGRAPH_KINDS,
   RECALL_STATUSES,
   REMINDER_KINDS,
   REMINDER_STATUSES,
@@ -48,3 +50,5 @@ export const probingSiteEnum = pgEnum('probing_site', PROBING_POSITIONS);
 export const recallStatusEnum = pgEnum('recall_status', RECALL_STATUSES);
 export const reminderKindEnum = pgEnum('reminder_kind', REMINDER_KINDS);
 export const reminderStatusEnum = pgEnum('reminder_status', REMINDER_STATUSES);
+export const radiographFileTypeEnum = pgEnum('radiograph_file_type', RADIOGRAPH_FILE_TYPES);
+export const radiographKindEnum = pgEnum('radiograph_kind', RADIOGRAPH_KINDS);

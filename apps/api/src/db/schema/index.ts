@@ -6,3 +6,4 @@ export * from './catalogue.js';
 export * from './sites.js';
 export * from './restorations.js';
 export * from './recalls.js';
+export * from './radiographs.js';

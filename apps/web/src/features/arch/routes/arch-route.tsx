@@ -58,6 +58,11 @@ export function ArchRoute() {
             Restorations and planner
           </Link>
         </Can>
+        <Can I="read" a="Radiograph">
+          <Link className={Classes.BUTTON} to={`/patients/${data.id}/radiographs`} data-testid="open-radiographs">
+            Radiographs
+          </Link>
+        </Can>
         <Can I="create" a="RecallExam">
           <Link
             className={`${Classes.BUTTON} ${Classes.INTENT_PRIMARY}`}

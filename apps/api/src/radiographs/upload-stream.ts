@@ -1,0 +1,50 @@
+import { createHash } from 'node:crypto';
+import { Readable } from 'node:stream';
+
+/** How much of the start of a file is read before deciding its type and parsing a DICOM header. */
+const HEADER_BYTES = 1024 * 1024;
+
+export class TooLarge extends Error {}
+
+/**
+ * Reads the first `HEADER_BYTES` of a request body (or all of it, when shorter), then hands back a
+ * stream of the whole body that counts and hashes the bytes as they pass and fails with
+ * {@link TooLarge} as soon as the limit is crossed, so nothing larger reaches storage.
+ */
+export async function splitHead(body: AsyncIterable<Buffer>, maxBytes: number) {
+  const it = body[Symbol.asyncIterator]();
+  const chunks: Buffer[] = [];
+  let headLength = 0;
+  let ended = false;
+  while (headLength < HEADER_BYTES) {
+    const next = await it.next();
+    if (next.done) {
+      ended = true;
+      break;
+    }
+    chunks.push(next.value);
+    headLength += next.value.length;
+    if (headLength > maxBytes) throw new TooLarge();
+  }
+  const head = Buffer.concat(chunks);
+  const hash = createHash('sha256');
+  let size = 0;
+  async function* all(): AsyncGenerator<Buffer> {
+    size = head.length;
+    hash.update(head);
+    yield head;
+    if (ended) return;
+    for (let next = await it.next(); !next.done; next = await it.next()) {
+      size += next.value.length;
+      if (size > maxBytes) throw new TooLarge();
+      hash.update(next.value);
+      yield next.value;
+    }
+  }
+  return {
+    head,
+    stream: () => Readable.from(all(), { objectMode: false }),
+    /** Valid once the stream has ended. */
+    result: () => ({ size, sha256: hash.digest('hex') }),
+  };
+}

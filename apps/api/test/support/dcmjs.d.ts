@@ -1,0 +1,2 @@
+// dcmjs ships no type declarations; the tests use it only to write DICOM fixtures.
+declare module 'dcmjs';

@@ -1,0 +1,86 @@
+// Radiograph endpoints. The upload uses XMLHttpRequest, not fetch: only XHR reports upload
+// progress in every browser, and it can be cancelled mid-file.
+import {
+  ErrorReply,
+  Measurement,
+  type MeasurementBody,
+  Radiograph,
+  RadiographDetail,
+  RadiographListReply,
+  type RadiographUploadQuery,
+} from '@torquetrail/contracts';
+import type { z } from 'zod';
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { ApiError, apiRequest } from '../../../lib/api-client';
+import { radiographKeys } from './keys';
+
+export const useRadiographs = (patientId: string) =>
+  useQuery({
+    queryKey: radiographKeys.list(patientId),
+    queryFn: ({ signal }) =>
+      apiRequest(`/api/patients/${patientId}/radiographs`, { schema: RadiographListReply, signal }),
+  });
+
+/** The upload's details as the contract parses them. */
+export type UploadDetails = z.output<typeof RadiographUploadQuery>;
+
+export interface UploadHandle {
+  done: Promise<Radiograph>;
+  cancel: () => void;
+}
+
+/** Streams one file to the API as application/octet-stream; `onProgress` gets bytes sent and total. */
+export function uploadRadiograph(
+  patientId: string,
+  file: File,
+  query: UploadDetails,
+  onProgress: (loaded: number, total: number) => void,
+): UploadHandle {
+  const params = new URLSearchParams({ fileName: file.name, kind: query.kind });
+  if (query.takenOn) params.set('takenOn', query.takenOn);
+  if (query.note) params.set('note', query.note);
+  if (query.siteIds.length > 0) params.set('siteIds', query.siteIds.join(','));
+  const xhr = new XMLHttpRequest();
+  const done = new Promise<Radiograph>((resolve, reject) => {
+    xhr.open('POST', `/api/patients/${patientId}/radiographs?${params.toString()}`);
+    xhr.setRequestHeader('Content-Type', 'application/octet-stream');
+    xhr.setRequestHeader('Accept', 'application/json');
+    xhr.responseType = 'text';
+    xhr.upload.addEventListener('progress', (e) => onProgress(e.loaded, e.lengthComputable ? e.total : file.size));
+    xhr.addEventListener('load', () => {
+      let body: unknown = null;
+      try {
+        body = JSON.parse(xhr.responseText);
+      } catch {
+        // not JSON: handled below as a failed reply
+      }
+      if (xhr.status === 201) {
+        const parsed = Radiograph.safeParse(body);
+        if (parsed.success) return resolve(parsed.data);
+      }
+      const error = ErrorReply.safeParse(body);
+      reject(new ApiError(xhr.status, error.success ? error.data.message : `The upload failed (${xhr.status})`));
+    });
+    xhr.addEventListener('error', () =>
+      reject(new ApiError(0, 'Cannot reach the Torquetrail server. Check the connection and retry.')),
+    );
+    xhr.addEventListener('abort', () => reject(new ApiError(0, 'Upload cancelled')));
+    xhr.send(file);
+  });
+  return { done, cancel: () => xhr.abort() };
+}
+
+export const useRadiograph = (radiographId: string) =>
+  useQuery({
+    queryKey: radiographKeys.detail(radiographId),
+    queryFn: ({ signal }) => apiRequest(`/api/radiographs/${radiographId}`, { schema: RadiographDetail, signal }),
+  });
+
+export function useMeasure(radiographId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (body: MeasurementBody) =>
+      apiRequest(`/api/radiographs/${radiographId}/measurements`, { method: 'POST', body, schema: Measurement }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: radiographKeys.detail(radiographId) }),
+  });
+}

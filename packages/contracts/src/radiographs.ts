@@ -1,0 +1,168 @@
+// Radiographs: upload (binary body), previews, entered-in-error, bone-level measurements.
+import { z } from 'zod';
+import { Id, IsoDate, IsoDateTime } from './common.js';
+import { RadiographFileType, RadiographKind } from './enums.js';
+import type { RouteContract } from './route-contract.js';
+
+const optionalText = (max: number) =>
+  z
+    .string()
+    .trim()
+    .max(max, `At most ${max} characters`)
+    .optional()
+    .transform((s) => (s ? s : null));
+
+/**
+ * The upload's details travel in the query string: the body is the file's bytes
+ * (application/octet-stream), streamed to object storage without being held in memory.
+ */
+export const RadiographUploadQuery = z.object({
+  kind: RadiographKind.default('other'),
+  /** Date taken; when absent, the DICOM Study/Acquisition Date is used. */
+  takenOn: IsoDate.optional(),
+  /** Comma-separated implant site ids of the same patient. */
+  siteIds: z
+    .string()
+    .optional()
+    .transform((s) => (s ? s.split(',').filter(Boolean) : []))
+    .pipe(z.array(Id, { error: 'Every site id must be a UUID' }).max(32)),
+  note: optionalText(2000),
+  /** The client's file name, kept as data only (never used for the object key or the type). */
+  fileName: optionalText(255),
+});
+export type RadiographUploadQuery = z.input<typeof RadiographUploadQuery>;
+
+export const RadiographListQuery = z.object({
+  includeEnteredInError: z
+    .enum(['true', 'false'])
+    .default('false')
+    .transform((v) => v === 'true'),
+});
+
+const Spacing = z.tuple([z.number(), z.number()]).nullable();
+
+export const Radiograph = z.object({
+  id: Id,
+  patientId: Id,
+  fileType: RadiographFileType,
+  kind: RadiographKind,
+  takenOn: IsoDate.nullable(),
+  note: z.string().nullable(),
+  originalName: z.string().nullable(),
+  sizeBytes: z.number().int(),
+  sha256: z.string(),
+  rows: z.number().int().nullable(),
+  columns: z.number().int().nullable(),
+  pixelSpacing: Spacing,
+  imagerPixelSpacing: Spacing,
+  magnificationFactor: z.number().nullable(),
+  studyDate: IsoDate.nullable(),
+  modality: z.string().nullable(),
+  bitsStored: z.number().int().nullable(),
+  photometricInterpretation: z.string().nullable(),
+  transferSyntaxUid: z.string().nullable(),
+  /** Why the server could not make a preview (e.g. an unsupported transfer syntax), else null. */
+  previewProblem: z.string().nullable(),
+  siteIds: z.array(Id),
+  uploadedBy: z.string(),
+  uploadedAt: IsoDateTime,
+  enteredInError: z.object({ at: IsoDateTime, reason: z.string() }).nullable(),
+});
+export type Radiograph = z.infer<typeof Radiograph>;
+
+export const RadiographListReply = z.object({ items: z.array(Radiograph) });
+export type RadiographListReply = z.infer<typeof RadiographListReply>;
+
+export const EnteredInErrorBody = z.object({
+  reason: z.string().trim().min(3, 'Say why (at least 3 characters)').max(500, 'At most 500 characters'),
+});
+export type EnteredInErrorBody = z.input<typeof EnteredInErrorBody>;
+
+const Coordinate = z.number().min(-100_000).max(100_000);
+export const ImagePoint = z.object({ row: Coordinate, col: Coordinate });
+
+/** Platform shoulder (two points), apex, first bone contact mesial and distal; image pixels. */
+export const MeasurementPoints = z.object({
+  platform: z.tuple([ImagePoint, ImagePoint]),
+  apex: ImagePoint,
+  mesial: ImagePoint,
+  distal: ImagePoint,
+});
+
+export const MeasurementBody = z.object({
+  siteId: Id,
+  points: MeasurementPoints,
+  /** The implant's true length; needed only when the site's placement has none. */
+  implantTrueMm: z.number().min(4, 'Implants are 4–25 mm long').max(25, 'Implants are 4–25 mm long').optional(),
+});
+export type MeasurementBody = z.input<typeof MeasurementBody>;
+
+export const MeasurementAmendmentBody = MeasurementBody.omit({ siteId: true }).extend({
+  reason: z.string().trim().min(3, 'Say why (at least 3 characters)').max(500, 'At most 500 characters'),
+});
+export type MeasurementAmendmentBody = z.input<typeof MeasurementAmendmentBody>;
+
+export const Measurement = z.object({
+  id: Id,
+  radiographId: Id,
+  siteId: Id,
+  points: MeasurementPoints,
+  implantTrueMm: z.number(),
+  mmPerUnit: z.number(),
+  /** Bone level, mm along the implant axis from the platform (positive = apical). */
+  mesialMm: z.number(),
+  distalMm: z.number(),
+  spacingEstimate: z
+    .object({
+      implantLengthMm: z.number(),
+      mesialMm: z.number(),
+      distalMm: z.number(),
+      disagreement: z.number(),
+      flagged: z.boolean(),
+    })
+    .nullable(),
+  rulesVersion: z.string(),
+  measuredBy: z.string(),
+  measuredAt: IsoDateTime,
+  supersedesId: Id.nullable(),
+  amendmentReason: z.string().nullable(),
+});
+export type Measurement = z.infer<typeof Measurement>;
+
+export const RadiographDetail = Radiograph.extend({ measurements: z.array(Measurement) });
+export type RadiographDetail = z.infer<typeof RadiographDetail>;
+
+const r = (method: RouteContract['method'], path: string, summary: string, more: Partial<RouteContract> = {}) =>
+  ({ method, path, summary, signedIn: true, ...more }) satisfies RouteContract;
+
+export const radiographRoutes: RouteContract[] = [
+  r(
+    'post',
+    '/patients/:id/radiographs',
+    'Upload a radiograph (PNG, JPEG, DICOM Part 10) as application/octet-stream; type decided by its bytes',
+    { query: RadiographUploadQuery, reply: Radiograph },
+  ),
+  r('get', '/patients/:id/radiographs', "The patient's radiographs (entered-in-error ones only on request)", {
+    query: RadiographListQuery,
+    reply: RadiographListReply,
+  }),
+  r('get', '/radiographs/:id', 'One radiograph with its current measurements', { reply: RadiographDetail }),
+  r('get', '/radiographs/:id/original', 'The original file, as an attachment', {
+    produces: 'application/octet-stream',
+  }),
+  r('get', '/radiographs/:id/preview', 'The server-made PNG preview', { produces: 'image/png' }),
+  r('get', '/radiographs/:id/thumbnail', 'The server-made PNG thumbnail', { produces: 'image/png' }),
+  r('post', '/radiographs/:id/entered-in-error', 'Mark a radiograph entered in error (kept, hidden from lists)', {
+    status: 200,
+    body: EnteredInErrorBody,
+    reply: Radiograph,
+  }),
+  r('post', '/radiographs/:id/measurements', 'Measure bone levels of one site on the radiograph', {
+    body: MeasurementBody,
+    reply: Measurement,
+  }),
+  r('post', '/radiograph-measurements/:id/amendments', 'Amend a measurement: a new version superseding it', {
+    body: MeasurementAmendmentBody,
+    reply: Measurement,
+  }),
+];
