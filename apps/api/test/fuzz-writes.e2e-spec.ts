@@ -55,6 +55,20 @@ const TARGETS: Record<string, { as: AccountKey | null; path: string }> = {
   'POST /wrenches': { as: 'practice_admin', path: '/api/wrenches' },
   'PATCH /wrenches/:id': { as: 'practice_admin', path: `/api/wrenches/${t.wrench.id}` },
   'POST /wrenches/:id/calibrations': { as: 'practice_admin', path: `/api/wrenches/${t.wrench.id}/calibrations` },
+  // The upload's body is the file: a JSON body must be refused (415), never a 5xx.
+  'POST /patients/:id/radiographs': { as: 'dentist', path: `/api/patients/${t.ids.harold}/radiographs` },
+  'POST /radiographs/:id/entered-in-error': {
+    as: 'dentist',
+    path: `/api/radiographs/${await t.fresh.radiograph()}/entered-in-error`,
+  },
+  'POST /radiographs/:id/measurements': {
+    as: 'dentist',
+    path: `/api/radiographs/${await t.fresh.radiograph()}/measurements`,
+  },
+  'POST /radiograph-measurements/:id/amendments': {
+    as: 'dentist',
+    path: `/api/radiograph-measurements/${await t.fresh.measurement()}/amendments`,
+  },
   'POST /restorations': { as: 'dentist', path: '/api/restorations' },
   'POST /restorations/:id/amendments': { as: 'dentist', path: `/api/restorations/${await t.fresh.plan()}/amendments` },
   'POST /restorations/:id/delivery': { as: 'dentist', path: `/api/restorations/${await t.fresh.plan()}/delivery` },

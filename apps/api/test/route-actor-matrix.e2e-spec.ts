@@ -10,6 +10,7 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { users } from '../src/db/schema/index.js';
 import { actorCookies, all, type Expected } from './support/role-matrix.js';
 import { ACCOUNTS, patientId, startTestApp } from './support/test-app.js';
+import { jpeg } from './support/radiograph-fixtures.js';
 import { scenarioTargets } from './support/scenario-targets.js';
 import { servedRoutes } from './support/served-routes.js';
 
@@ -30,6 +31,8 @@ interface Case {
   target: string;
   path: () => string | Promise<string>;
   body?: () => object | Promise<object>;
+  /** A binary body (an upload), sent with its content type instead of JSON. */
+  raw?: () => Promise<{ type: string; data: Buffer }>;
   expect: Expect7;
   /** A session of its own per actor (sign-out would end the shared one). */
   ownSession?: boolean;
@@ -71,8 +74,23 @@ const cookieOf: Record<Actor, string | undefined> = {
   anonymous: undefined,
 };
 
-const { ids, tex, haroldScrew, system, wrench, haroldBridge, labPrescription, nextFdi, plan, placement, exam, fresh } =
-  await scenarioTargets(ctx, cookies);
+const {
+  ids,
+  tex,
+  haroldScrew,
+  system,
+  wrench,
+  haroldBridge,
+  labPrescription,
+  nextFdi,
+  plan,
+  placement,
+  exam,
+  fresh,
+  measurementPoints,
+} = await scenarioTargets(ctx, cookies);
+const radiograph = await fresh.radiograph();
+let uploadGrey = 100;
 
 // ---- the expectations -----------------------------------------------------------------------
 /** `status` for every signed-in actor and 401 without a session, with exceptions. */
@@ -200,6 +218,42 @@ const TABLE: Record<string, Case[]> = {
     'own practice',
   ),
   // Calibrations belong to the instrument (every version of the wrench): ADR 0006.
+  // Radiographs of Harold's 35, shared with the surgeon (docs/authorization.md): dentist,
+  // hygienist and the sharing surgeon upload, measure and mark; the practice admin reads.
+  'GET /api/patients/:id/radiographs': one({
+    path: () => `/api/patients/${ids.harold}/radiographs`,
+    expect: sharedRead,
+  }),
+  'GET /api/radiographs/:id': one({ path: () => `/api/radiographs/${radiograph}`, expect: sharedRead }),
+  'GET /api/radiographs/:id/original': one({
+    path: () => `/api/radiographs/${radiograph}/original`,
+    expect: sharedRead,
+  }),
+  'GET /api/radiographs/:id/preview': one({ path: () => `/api/radiographs/${radiograph}/preview`, expect: sharedRead }),
+  'GET /api/radiographs/:id/thumbnail': one({
+    path: () => `/api/radiographs/${radiograph}/thumbnail`,
+    expect: sharedRead,
+  }),
+  'POST /api/patients/:id/radiographs': one({
+    path: () => `/api/patients/${ids.harold}/radiographs`,
+    raw: async () => ({ type: 'application/octet-stream', data: await jpeg(8, 8, (uploadGrey += 1)) }),
+    expect: every(201, { practice_admin: 403, surgeonNoShare: 404, otherPracticeDentist: 404 }),
+  }),
+  'POST /api/radiographs/:id/measurements': one({
+    path: () => `/api/radiographs/${radiograph}/measurements`,
+    body: () => ({ siteId: ids.harold35, points: measurementPoints }),
+    expect: every(201, { practice_admin: 403, surgeonNoShare: 404, otherPracticeDentist: 404 }),
+  }),
+  'POST /api/radiographs/:id/entered-in-error': one({
+    path: async () => `/api/radiographs/${await fresh.radiograph()}/entered-in-error`,
+    body: () => ({ reason: 'Filed to the wrong patient' }),
+    expect: every(200, { practice_admin: 403, surgeonNoShare: 404, otherPracticeDentist: 404 }),
+  }),
+  'POST /api/radiograph-measurements/:id/amendments': one({
+    path: async () => `/api/radiograph-measurements/${await fresh.measurement()}/amendments`,
+    body: () => ({ points: measurementPoints, reason: 'Apex marked one thread too short' }),
+    expect: every(201, { practice_admin: 403, surgeonNoShare: 404, otherPracticeDentist: 404 }),
+  }),
   'GET /api/wrenches/:id/calibrations': one(
     {
       path: () => `/api/wrenches/${wrench.id}/calibrations`,
@@ -371,7 +425,12 @@ describe('route × actor matrix', () => {
         const cookie =
           row.ownSession && actor !== 'anonymous' ? await signInAs(signOutAccount(actor)) : cookieOf[actor];
         if (cookie) req = req.set('Cookie', cookie);
-        const res = row.body ? await req.send(await row.body()) : await req;
+        const raw = row.raw ? await row.raw() : null;
+        const res = raw
+          ? await req.set('Content-Type', raw.type).send(raw.data)
+          : row.body
+            ? await req.send(await row.body())
+            : await req;
         cases += 1;
         expect(res.status, JSON.stringify(res.body)).toBe(row.expect[actor]);
         // A refusal of another practice's record reads like a missing record.

@@ -1,14 +1,12 @@
 // Radiographs: upload (binary body), previews, entered-in-error, bone-level measurements.
 import { z } from 'zod';
-import { Id, IsoDate, IsoDateTime } from './common.js';
+import { Id, IsoDate, IsoDateTime, NoteText } from './common.js';
 import { RadiographFileType, RadiographKind } from './enums.js';
 import type { RouteContract } from './route-contract.js';
 
+/** Optional user text of the query string, with the contracts' refusal of control characters. */
 const optionalText = (max: number) =>
-  z
-    .string()
-    .trim()
-    .max(max, `At most ${max} characters`)
+  NoteText(max)
     .optional()
     .transform((s) => (s ? s : null));
 
@@ -74,7 +72,7 @@ export const RadiographListReply = z.object({ items: z.array(Radiograph) });
 export type RadiographListReply = z.infer<typeof RadiographListReply>;
 
 export const EnteredInErrorBody = z.object({
-  reason: z.string().trim().min(3, 'Say why (at least 3 characters)').max(500, 'At most 500 characters'),
+  reason: NoteText(500).min(3, 'Say why (at least 3 characters)'),
 });
 export type EnteredInErrorBody = z.input<typeof EnteredInErrorBody>;
 
@@ -98,7 +96,7 @@ export const MeasurementBody = z.object({
 export type MeasurementBody = z.input<typeof MeasurementBody>;
 
 export const MeasurementAmendmentBody = MeasurementBody.omit({ siteId: true }).extend({
-  reason: z.string().trim().min(3, 'Say why (at least 3 characters)').max(500, 'At most 500 characters'),
+  reason: NoteText(500).min(3, 'Say why (at least 3 characters)'),
 });
 export type MeasurementAmendmentBody = z.input<typeof MeasurementAmendmentBody>;
 

@@ -4,6 +4,7 @@
 import { eq } from 'drizzle-orm';
 import { componentInstances, implantSites, torqueWrenches } from '../../src/db/schema/index.js';
 import { larkspurId, parts, platformId } from './ledger-fixtures.js';
+import { jpeg } from './radiograph-fixtures.js';
 import { type AccountKey, patientId, siteId, type TestContext } from './test-app.js';
 
 export async function scenarioTargets(ctx: TestContext, cookies: Record<AccountKey, string>) {
@@ -81,7 +82,37 @@ export async function scenarioTargets(ctx: TestContext, cookies: Record<AccountK
     })),
     mobility: false,
   });
+  /** A radiograph of Harold's 35 (shared with the surgeon), a new image each call (the same bytes twice are a 409). */
+  let grey = 0;
+  const radiograph = async () => {
+    const res = await ctx.http
+      .post(`/api/patients/${ids.harold}/radiographs?siteIds=${ids.harold35}`)
+      .set('Cookie', cookies.dentist)
+      .set('Content-Type', 'application/octet-stream')
+      .send(await jpeg(8, 8, (grey += 1)));
+    return created(res, 'radiograph');
+  };
+  const measurementPoints = {
+    platform: [
+      { row: 10, col: 20 },
+      { row: 10, col: 40 },
+    ],
+    apex: { row: 210, col: 30 },
+    mesial: { row: 40, col: 21 },
+    distal: { row: 30, col: 39 },
+  };
+  const measurement = async () =>
+    created(
+      await ctx.http
+        .post(`/api/radiographs/${await radiograph()}/measurements`)
+        .set('Cookie', cookies.dentist)
+        .send({ siteId: ids.harold35, points: measurementPoints }),
+      'measurement',
+    );
+
   const fresh = {
+    radiograph,
+    measurement,
     plan: async () =>
       created(await ctx.http.post('/api/restorations').set('Cookie', cookies.dentist).send(plan()), 'plan'),
     site: async () =>
@@ -138,5 +169,6 @@ export async function scenarioTargets(ctx: TestContext, cookies: Record<AccountK
     placement,
     exam,
     fresh,
+    measurementPoints,
   };
 }
