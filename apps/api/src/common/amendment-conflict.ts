@@ -1,4 +1,6 @@
 import { ConflictException } from '@nestjs/common';
+import type { AppAbility, Subject } from '@torquetrail/authz';
+import { assertCan } from '../authz/scope.js';
 import { AMENDABLE_TABLES, type AmendableTableName, supersedesUniqueName } from '../db/schema/amendment-chain.js';
 import { postgresError } from './postgres-error.js';
 
@@ -16,6 +18,22 @@ const ALREADY_AMENDED: Record<AmendableTableName, string> = {
 
 /** 409 for an amendment of a version that a newer row already supersedes. */
 export const alreadyAmended = (table: AmendableTableName) => new ConflictException(ALREADY_AMENDED[table]);
+
+/**
+ * The first step of every amendment: the user may amend this row (404/403 as `assertCan`), and
+ * it is still the current version (409 otherwise, before any other work is done).
+ */
+export function assertAmendable<T extends { practiceId: string; supersededById: string | null }>(
+  ability: AppAbility,
+  type: Exclude<Subject, 'all'>,
+  row: T | null | undefined,
+  what: string,
+  table: AmendableTableName,
+): T {
+  const found = assertCan(ability, 'amend', type, row, what);
+  if (found.supersededById) throw alreadyAmended(table);
+  return found;
+}
 
 const TABLE_OF_INDEX = new Map<string, AmendableTableName>(AMENDABLE_TABLES.map((t) => [supersedesUniqueName(t), t]));
 

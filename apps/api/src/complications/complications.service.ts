@@ -4,7 +4,7 @@ import type { Complication, ComplicationAmendmentBody, ComplicationBody } from '
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
-import { alreadyAmended } from '../common/amendment-conflict.js';
+import { assertAmendable } from '../common/amendment-conflict.js';
 import { fieldError } from '../common/field-error.js';
 import { DB, type Database } from '../db/database.js';
 import * as repo from './complications.repository.js';
@@ -60,14 +60,13 @@ export class ComplicationsService {
     id: string,
     body: z.output<typeof ComplicationAmendmentBody>,
   ): Promise<Complication> {
-    const found = assertCan(
+    const found = assertAmendable(
       ability,
-      'amend',
       'Complication',
       await repo.findVisibleComplication(this.db, scope, id),
       'complication',
+      'complications',
     );
-    if (found.supersededById) throw alreadyAmended('complications');
     this.checkDate(body.occurredOn);
     await this.checkPart(found.siteId, body.componentInstanceId);
     // Of two concurrent amendments of one entry the database saves the first (insertAmendment).

@@ -22,7 +22,7 @@ import {
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
-import { alreadyAmended } from '../common/amendment-conflict.js';
+import { assertAmendable } from '../common/amendment-conflict.js';
 import { fieldError } from '../common/field-error.js';
 import { isUniqueViolation } from '../common/postgres-error.js';
 import { DB, type Database, type Db } from '../db/database.js';
@@ -217,14 +217,13 @@ export class PlacementsService {
     id: string,
     body: z.output<typeof PlacementAmendmentBody>,
   ): Promise<PlacementRecord> {
-    const old = assertCan(
+    const old = assertAmendable(
       ability,
-      'amend',
       'Placement',
       await repo.findVisiblePlacement(this.db, scope, id),
       'placement',
+      'placements',
     );
-    if (old.supersededById) throw alreadyAmended('placements');
     const fields: Record<string, string> = {};
     const lot = await this.checkFields(this.db, old.practiceId, body, fields);
     if (Object.keys(fields).length > 0) throw fieldError(fields);

@@ -5,7 +5,7 @@ import { RULES_VERSION, torqueVerdict } from '@torquetrail/domain';
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
-import { alreadyAmended } from '../common/amendment-conflict.js';
+import { assertAmendable } from '../common/amendment-conflict.js';
 import { DB, type Database, type Tx } from '../db/database.js';
 import { fieldError } from '../common/field-error.js';
 import * as repo from './torque.repository.js';
@@ -114,14 +114,13 @@ export class TorqueService {
     id: string,
     body: z.output<typeof TorqueAmendmentBody>,
   ): Promise<TorqueEvent> {
-    const old = assertCan(
+    const old = assertAmendable(
       ability,
-      'amend',
       'TorqueEvent',
       await repo.findVisibleTorqueEvent(this.db, scope, id),
       'torque entry',
+      'torque_events',
     );
-    if (old.supersededById) throw alreadyAmended('torque_events');
     const performedAt = new Date(body.performedAt);
     this.checkWhen(performedAt, 'performedAt');
     const wrenchId = await this.currentWrench(this.db, old.practiceId, body.wrenchId);
