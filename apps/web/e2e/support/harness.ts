@@ -18,6 +18,8 @@ export interface Harness {
   /** Console errors and failed requests seen by any page, to assert a clean run. */
   problems: string[];
   newPage: () => Promise<Page>;
+  /** Back to the freshly seeded scenario (a test that writes calls it first, so a retry starts clean). */
+  reset: () => Promise<void>;
   close: () => Promise<void>;
 }
 
@@ -26,7 +28,8 @@ export async function startHarness(): Promise<Harness> {
     throw new Error(`the web app is not built (${webDist}); run npm test`);
   const env = parseEnv({ ...process.env, NODE_ENV: 'test', WEB_DIST: webDist });
   const pool = createPool(env.DATABASE_URL);
-  await resetDatabase(createDatabase(pool));
+  const reset = () => resetDatabase(createDatabase(pool));
+  await reset();
   const app: INestApplication = await createApp(env, { logger: false });
   await app.listen(0, '127.0.0.1');
   const address = app.getHttpServer().address() as { port: number };
@@ -53,6 +56,7 @@ export async function startHarness(): Promise<Harness> {
     baseUrl,
     browser,
     problems,
+    reset,
     newPage: async () => {
       const context = await browser.newContext({ baseURL: baseUrl, viewport: { width: 1280, height: 900 } });
       contexts.push(context);
