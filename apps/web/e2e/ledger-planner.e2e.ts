@@ -70,6 +70,12 @@ describe('restorative dentist', () => {
     await page.getByRole('heading', { name: 'Amend the plan' }).waitFor();
     await page.getByLabel('Shade').fill('A2');
     await page.getByLabel('Reason for the amendment').fill('Shade chosen at try-in');
+    // The save refreshes the plan list and, more slowly here, the Stack's sites: the list's new
+    // version (the amended one superseded) must not unmount the form before it navigates away.
+    await page.route('**/api/patients/*/restorable-sites', async (route) => {
+      await new Promise((resolve) => setTimeout(resolve, 600));
+      await route.continue();
+    });
     await page.getByTestId('save-plan').click();
     await page.waitForURL(/\/restorations$/);
     await expect.poll(() => page.getByTestId('restoration-card').count()).toBe(2);

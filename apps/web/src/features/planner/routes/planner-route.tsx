@@ -14,7 +14,7 @@ import {
   findingField,
 } from '@torquetrail/contracts';
 import { formatTooth } from '@torquetrail/domain';
-import { useMemo } from 'react';
+import { useMemo, useState } from 'react';
 import { FormProvider } from 'react-hook-form';
 import type { z } from 'zod';
 import { Link, useNavigate, useParams, useSearchParams } from 'react-router-dom';
@@ -75,27 +75,44 @@ export function PlannerRoute() {
         }}
       />
     );
-  const amending = amendId
-    ? restorations.data?.items.find((r) => r.id === amendId && r.status === 'planned' && !r.supersededById)
-    : undefined;
-  if (amendId && !amending) {
-    return (
-      <Callout intent="warning" title="This plan cannot be amended">
-        It was delivered or amended already: amend its current version.{' '}
-        <Link to={`/patients/${patientId}/restorations`}>Back to the restorations</Link>
-      </Callout>
-    );
-  }
   return (
-    <PlannerForm
+    <PlannerGate
       key={amendId ?? 'new'}
       patientId={patientId}
       patientName={patientName}
       restorable={sites.data.items}
       catalogue={catalogue.data}
-      amending={amending}
+      amendable={amendId ? restorations.data?.items.find((r) => r.id === amendId && isAmendable(r)) : undefined}
+      amendId={amendId}
     />
   );
+}
+
+const isAmendable = (r: RestorationDetail) => r.status === 'planned' && !r.supersededById;
+
+/**
+ * Decides once, when the planner opens, which plan it amends. Saving an amendment supersedes that
+ * plan and the refreshed list says so before the save navigates away: deciding again on every
+ * render would swap the form for the "cannot be amended" notice and drop the save's navigation.
+ */
+function PlannerGate({
+  amendable,
+  amendId,
+  ...props
+}: Omit<Parameters<typeof PlannerForm>[0], 'amending'> & {
+  amendable: RestorationDetail | undefined;
+  amendId: string | null;
+}) {
+  const [amending] = useState(amendable);
+  if (amendId && !amending) {
+    return (
+      <Callout intent="warning" title="This plan cannot be amended">
+        It was delivered or amended already: amend its current version.{' '}
+        <Link to={`/patients/${props.patientId}/restorations`}>Back to the restorations</Link>
+      </Callout>
+    );
+  }
+  return <PlannerForm {...props} amending={amending} />;
 }
 
 type PlanAmendmentParsed = z.output<typeof PlanAmendmentBody>;
