@@ -1,5 +1,6 @@
 // Restoration planner, delivery and lab prescriptions.
 import { z } from 'zod';
+import { keepingOmitted } from './amendment.js';
 import { AxisComponent, FdiPosition, Id, IsoDate, IsoDateTime, NoteText, PlainText } from './common.js';
 import { CatalogueComponent } from './ledger-catalogue.js';
 import {
@@ -68,7 +69,9 @@ export const PlanBody = z.object({
 export type PlanBody = z.input<typeof PlanBody>;
 export type PlanBodyParsed = z.output<typeof PlanBody>;
 
-export const PlanAmendmentBody = PlanBody.omit({ patientId: true }).extend({
+/** A new version of the plan: a field left out keeps its value, `null` clears it. */
+export const PlanAmendmentBody = z.object({
+  ...keepingOmitted(PlanBody.omit({ patientId: true }).shape),
   amendmentReason: NoteText(500).min(3, 'Say why the plan is amended'),
 });
 export type PlanAmendmentBody = z.input<typeof PlanAmendmentBody>;

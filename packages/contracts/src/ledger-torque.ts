@@ -1,5 +1,6 @@
 // Torque entries, complications and the Site file's Timeline.
 import { z } from 'zod';
+import { keepingOmitted } from './amendment.js';
 import { Id, IsoDate, IsoDateTime, NoteText, PlainText } from './common.js';
 import { TORQUE_NCM_RANGE } from '@torquetrail/domain';
 import { ComplicationKind, TimelineKind, TorqueReason, TorqueVerdict } from './enums.js';
@@ -22,10 +23,9 @@ export const TorqueBody = z.object({
 });
 export type TorqueBody = z.input<typeof TorqueBody>;
 
+/** The corrected reading; the wrench and the time, left out, are kept. */
 export const TorqueAmendmentBody = z.object({
-  appliedNcm,
-  wrenchId: Id.nullable().default(null),
-  performedAt: IsoDateTime,
+  ...keepingOmitted({ appliedNcm, wrenchId: Id.nullable().default(null), performedAt: IsoDateTime.optional() }),
   amendmentReason: NoteText(500).min(3, 'Say why the entry is amended'),
 });
 export type TorqueAmendmentBody = z.input<typeof TorqueAmendmentBody>;
@@ -58,7 +58,9 @@ export const ComplicationBody = z.object({
   notes: NoteText(2000).nullable().default(null),
 });
 export type ComplicationBody = z.input<typeof ComplicationBody>;
-export const ComplicationAmendmentBody = ComplicationBody.omit({ siteId: true }).extend({
+/** A new version: a field left out keeps its value, `null` clears it. */
+export const ComplicationAmendmentBody = z.object({
+  ...keepingOmitted(ComplicationBody.omit({ siteId: true }).shape),
   amendmentReason: NoteText(500).min(3, 'Say why the entry is amended'),
 });
 export type ComplicationAmendmentBody = z.input<typeof ComplicationAmendmentBody>;

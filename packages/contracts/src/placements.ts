@@ -1,5 +1,6 @@
 // Planned implant sites and placements: what the surgeon (or the dentist) placed, with the UDI.
 import { z } from 'zod';
+import { keepingOmitted } from './amendment.js';
 import { AxisComponent, Id, IsoDate, IsoDateTime, NoteText, PlainText, TextAllowing } from './common.js';
 import { GS } from '@torquetrail/domain';
 import type { RouteContract } from './route-contract.js';
@@ -103,8 +104,9 @@ export const PlacementBody = z.object({
 });
 export type PlacementBody = z.input<typeof PlacementBody>;
 
+/** A new version: a field left out keeps its value, `null` clears it. */
 export const PlacementAmendmentBody = z.object({
-  ...placementFields,
+  ...keepingOmitted(placementFields),
   amendmentReason: NoteText(500).min(3, 'Say why the entry is amended'),
 });
 export type PlacementAmendmentBody = z.input<typeof PlacementAmendmentBody>;

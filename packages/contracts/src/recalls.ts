@@ -1,5 +1,6 @@
 // Maintenance recall contracts (Recall desk, exams, policy, reminders).
 import { z } from 'zod';
+import { keepingOmitted } from './amendment.js';
 import { FdiPosition, Id, IsoDate, IsoDateTime, NoteText, PlainText } from './common.js';
 import { RECALL_MONTHS_RANGE } from '@torquetrail/domain';
 import type { RouteContract } from './route-contract.js';
@@ -85,7 +86,8 @@ export const CreateVisitBody = z
 export type CreateVisitBody = z.input<typeof CreateVisitBody>;
 
 /** An amendment replaces one exam (a new row that supersedes it, with the reason); never an overwrite. */
-export const AmendExamBody = SiteExamInput.omit({ siteId: true }).extend({
+export const AmendExamBody = z.object({
+  ...keepingOmitted(SiteExamInput.omit({ siteId: true }).shape),
   amendmentReason: NoteText(500).min(3, { error: 'say why the exam is amended' }),
 });
 export type AmendExamBody = z.input<typeof AmendExamBody>;

@@ -45,6 +45,10 @@ export async function findVisibleComplication(db: Db, scope: Scope, id: string) 
       practiceId: complications.practiceId,
       patientId: complications.patientId,
       siteId: complications.siteId,
+      componentInstanceId: complications.componentInstanceId,
+      kind: complications.kind,
+      occurredOn: complications.occurredOn,
+      notes: complications.notes,
       supersededById: supersededById(complications),
     })
     .from(complications)

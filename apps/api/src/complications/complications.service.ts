@@ -1,10 +1,11 @@
 import { Inject, Injectable } from '@nestjs/common';
 import type { AppAbility } from '@torquetrail/authz';
-import type { Complication, ComplicationAmendmentBody, ComplicationBody } from '@torquetrail/contracts';
+import { type Complication, ComplicationAmendmentBody, type ComplicationBody } from '@torquetrail/contracts';
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
 import { assertAmendable } from '../common/amendment-conflict.js';
+import { keepAbsent } from '../common/keep-absent.js';
 import { fieldError } from '../common/field-error.js';
 import { DB, type Database } from '../db/database.js';
 import * as repo from './complications.repository.js';
@@ -67,17 +68,20 @@ export class ComplicationsService {
       'complication',
       'complications',
     );
-    this.checkDate(body.occurredOn);
-    await this.checkPart(found.siteId, body.componentInstanceId);
+    // What the amendment does not name stays as it was.
+    const { amendmentReason: _reason, ...changes } = body;
+    const next = keepAbsent(ComplicationAmendmentBody, changes, found);
+    if (body.occurredOn !== undefined) this.checkDate(next.occurredOn);
+    if (body.componentInstanceId !== undefined) await this.checkPart(found.siteId, next.componentInstanceId);
     // Of two concurrent amendments of one entry the database saves the first (insertAmendment).
     const newId = await repo.insertComplicationAmendment(this.db, {
       practiceId: found.practiceId,
       patientId: found.patientId,
       siteId: found.siteId,
-      componentInstanceId: body.componentInstanceId,
-      kind: body.kind,
-      occurredOn: body.occurredOn,
-      notes: body.notes,
+      componentInstanceId: next.componentInstanceId,
+      kind: next.kind,
+      occurredOn: next.occurredOn,
+      notes: next.notes,
       supersedesId: found.id,
       amendmentReason: body.amendmentReason,
       recordedBy: user.id,

@@ -5,7 +5,7 @@ import {
   type ArchSite,
   type ClosureKind,
   MANUFACTURER_CAUTION,
-  type PlacementAmendmentBody,
+  PlacementAmendmentBody,
   type PlacementBody,
   type PlacementOptionsReply,
   type PlacementRecord,
@@ -23,12 +23,14 @@ import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
 import { assertAmendable } from '../common/amendment-conflict.js';
+import { keepAbsent } from '../common/keep-absent.js';
 import { fieldError } from '../common/field-error.js';
 import { isUniqueViolation } from '../common/postgres-error.js';
 import { DB, type Database, type Db } from '../db/database.js';
 import * as repo from './placements.repository.js';
 
-type PlacementFields = z.output<typeof PlacementBody> | z.output<typeof PlacementAmendmentBody>;
+/** What a placement records, whether first recorded or amended (closure parts only at surgery). */
+type PlacementFields = Omit<z.output<typeof PlacementBody>, 'closureComponentId' | 'closureLot'>;
 
 /**
  * Today's date in the time zone furthest ahead of UTC (UTC+14): a clinic anywhere may record a
@@ -224,12 +226,14 @@ export class PlacementsService {
       'placement',
       'placements',
     );
+    // What the amendment leaves out stays as it was.
+    const next = keepAbsent(PlacementAmendmentBody, body, await this.reply(old.id, null));
     const fields: Record<string, string> = {};
-    const lot = await this.checkFields(this.db, old.practiceId, body, fields);
+    const lot = await this.checkFields(this.db, old.practiceId, next, fields);
     if (Object.keys(fields).length > 0) throw fieldError(fields);
     // Of two concurrent amendments of one placement the database saves the first (insertAmendment).
     const newId = await repo.insertPlacementAmendment(this.db, {
-      ...this.values(body, lot),
+      ...this.values(next, lot),
       practiceId: old.practiceId,
       patientId: old.patientId,
       siteId: old.siteId,

@@ -333,6 +333,14 @@ export async function findVisibleExam(db: Db, scope: Scope, examId: string) {
       siteId: recallExams.siteId,
       visitId: recallExams.visitId,
       examinedOn: recallExams.examinedOn,
+      // What an amendment may leave out and keep.
+      plaqueIndex: recallExams.plaqueIndex,
+      bleedingIndex: recallExams.bleedingIndex,
+      keratinizedMucosaMm: recallExams.keratinizedMucosaMm,
+      residualCement: recallExams.residualCement,
+      boneLevelMm: recallExams.boneLevelMm,
+      isBaseline: recallExams.isBaseline,
+      notes: recallExams.notes,
       superseded: isAmended(recallExams),
     })
     .from(recallExams)

@@ -25,6 +25,7 @@ import {
 } from '@torquetrail/domain';
 import type { z } from 'zod';
 import { assertCan, type Scope } from '../authz/scope.js';
+import { keepAbsent } from '../common/keep-absent.js';
 import { alreadyAmended } from '../common/amendment-conflict.js';
 import { fieldError } from '../common/field-error.js';
 import { DB, type Database, type Tx } from '../db/database.js';
@@ -247,6 +248,8 @@ export class ExamsService {
   ): Promise<RecallExam> {
     const old = assertCan(ability, 'amend', 'RecallExam', await findVisibleExam(this.db, scope, examId), 'exam');
     if (old.superseded) throw alreadyAmended('recall_exams');
+    // What the amendment leaves out stays as it was.
+    const next = keepAbsent(AmendExamSchema, body, old);
     const patient = await findVisiblePatientForRecall(this.db, scope, old.patientId);
     return this.db.transaction(async (tx) => {
       // The history lock keeps the rescheduling to one at a time; of two amendments of one exam
@@ -254,17 +257,17 @@ export class ExamsService {
       await lockExamHistory(tx, patient.id);
       const site = (await listSitesForExam(tx, patient.id)).find((s) => s.siteId === old.siteId)!;
       const earlier = (await listExamsOfSites(tx, [site.siteId])).filter((e) => e.id !== old.id);
-      const probes = inChartOrder(body.sites);
+      const probes = inChartOrder(next.sites);
       const baseline = choosePeriImplantBaseline(
         earlier,
-        { examinedOn: old.examinedOn, isBaseline: body.isBaseline },
+        { examinedOn: old.examinedOn, isBaseline: next.isBaseline },
         site.deliveredOn,
       );
       let verdict;
       try {
         verdict = classifyPeriImplant(
-          toPeriImplantExam({ sites: probes, boneLevelMm: body.boneLevelMm }),
-          toPeriImplantBaseline(body, baseline),
+          toPeriImplantExam({ sites: probes, boneLevelMm: next.boneLevelMm }),
+          toPeriImplantBaseline(next, baseline),
           RULE_OPTIONS,
         );
       } catch (error) {
@@ -278,14 +281,14 @@ export class ExamsService {
         visitId: old.visitId,
         examinedOn: old.examinedOn,
         examinerId,
-        mobility: body.mobility,
-        plaqueIndex: body.plaqueIndex,
-        bleedingIndex: body.bleedingIndex,
-        keratinizedMucosaMm: body.keratinizedMucosaMm,
-        residualCement: body.residualCement,
-        boneLevelMm: body.boneLevelMm,
-        isBaseline: body.isBaseline,
-        notes: body.notes || null,
+        mobility: next.mobility,
+        plaqueIndex: next.plaqueIndex,
+        bleedingIndex: next.bleedingIndex,
+        keratinizedMucosaMm: next.keratinizedMucosaMm,
+        residualCement: next.residualCement,
+        boneLevelMm: next.boneLevelMm,
+        isBaseline: next.isBaseline,
+        notes: next.notes || null,
         status: verdict.status,
         reasons: verdict.reasons,
         flags: verdict.flags,

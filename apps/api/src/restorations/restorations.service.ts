@@ -4,7 +4,7 @@ import {
   CLOSURE_KINDS,
   type DeliveryBody,
   type LabPrescriptionSummary,
-  type PlanAmendmentBody,
+  PlanAmendmentBody,
   type PlanBody,
   type RestorableSitesReply,
   type RestorationDetail,
@@ -13,6 +13,7 @@ import {
 import { RULES_VERSION, fdiToUniversal, isRetrievable } from '@torquetrail/domain';
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
+import { keepAbsent } from '../common/keep-absent.js';
 import { assertCan, type Scope } from '../authz/scope.js';
 import { alreadyAmended } from '../common/amendment-conflict.js';
 import { fieldError } from '../common/field-error.js';
@@ -146,7 +147,13 @@ export class RestorationsService {
         tx,
         user,
         patient,
-        { ...body, patientId: old.patientId },
+        {
+          // What the amendment leaves out stays as it was; acknowledgements are the amending
+          // clinician's own, for the findings of the new version, and are never carried over.
+          ...keepAbsent(PlanAmendmentBody, body, old),
+          acknowledgements: body.acknowledgements ?? [],
+          patientId: old.patientId,
+        },
         { supersedesId: old.id, amendmentReason: body.amendmentReason },
       );
     });

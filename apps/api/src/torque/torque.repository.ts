@@ -45,6 +45,9 @@ export async function findVisibleTorqueEvent(db: Db, scope: Scope, id: string) {
       specNcm: torqueEvents.specNcm,
       tolerancePct: torqueEvents.tolerancePct,
       reason: torqueEvents.reason,
+      appliedNcm: torqueEvents.appliedNcm,
+      wrenchId: torqueEvents.wrenchId,
+      performedAt: torqueEvents.performedAt,
       supersededById: supersededById(torqueEvents),
     })
     .from(torqueEvents)

@@ -121,11 +121,14 @@ export class TorqueService {
       'torque entry',
       'torque_events',
     );
-    const performedAt = new Date(body.performedAt);
-    this.checkWhen(performedAt, 'performedAt');
-    const wrenchId = await this.currentWrench(this.db, old.practiceId, body.wrenchId);
+    // What the amendment does not name stays as it was, the wrench included (the version used then).
+    const appliedNcm = body.appliedNcm ?? old.appliedNcm;
+    const performedAt = body.performedAt === undefined ? old.performedAt : new Date(body.performedAt);
+    if (body.performedAt !== undefined) this.checkWhen(performedAt, 'performedAt');
+    const wrenchId =
+      body.wrenchId === undefined ? old.wrenchId : await this.currentWrench(this.db, old.practiceId, body.wrenchId);
     const verdict = torqueVerdict({
-      appliedNcm: body.appliedNcm,
+      appliedNcm,
       specNcm: old.specNcm,
       tolerancePct: old.tolerancePct,
     });
@@ -134,7 +137,7 @@ export class TorqueService {
       practiceId: old.practiceId,
       patientId: old.patientId,
       componentInstanceId: old.componentInstanceId,
-      appliedNcm: body.appliedNcm,
+      appliedNcm,
       specNcm: old.specNcm,
       tolerancePct: old.tolerancePct,
       verdict,

@@ -41,16 +41,15 @@ export function AmendForm({ siteId, event, onDone }: { siteId: string; event: Ti
   const schema = useMemo(
     (): z.ZodType<TorqueAmendment | ComplicationAmendment, AmendDraft> =>
       event.kind === 'torque'
-        ? draftSchema(TorqueAmendmentBody, (d: AmendDraft) => ({
+        ? // The wrench and the time, left out, are kept by the server.
+          draftSchema(TorqueAmendmentBody, (d: AmendDraft) => ({
             appliedNcm: d.appliedNcm ?? Number.NaN,
-            performedAt: event.at,
             amendmentReason: d.amendmentReason,
           }))
         : draftSchema(ComplicationAmendmentBody, (d: AmendDraft) => ({
-            // The entry's own kind, checked by the contract like every other value.
+            // The entry's own kind and date, checked by the contract like every other value.
             kind: event.code as ComplicationKind,
             occurredOn: event.at.slice(0, 10),
-            componentInstanceId: event.componentInstanceId,
             notes: d.notes || null,
             amendmentReason: d.amendmentReason,
           })),
