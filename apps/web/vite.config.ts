@@ -1,6 +1,7 @@
 import { fileURLToPath } from 'node:url';
 import react from '@vitejs/plugin-react';
 import { defineConfig } from 'vite';
+import { compression } from 'vite-plugin-compression2';
 
 /** The shared packages are consumed from source, so the web needs no prior package build. */
 const packageSource = (name: string): string =>
@@ -10,7 +11,9 @@ const apiPort = process.env.API_PORT ?? process.env.PORT ?? '3000';
 const apiProxy = { '/api': { target: `http://127.0.0.1:${apiPort}` } };
 
 export default defineConfig({
-  plugins: [react()],
+  // Every built file of 1 KB or more also as .gz and .br, made once here: the API serves them to
+  // browsers that accept them (express-static-gzip) instead of compressing on each request.
+  plugins: [react(), compression({ algorithms: ['gzip', 'brotliCompress'], threshold: 1024 })],
   resolve: {
     alias: {
       '@torquetrail/contracts': packageSource('contracts'),

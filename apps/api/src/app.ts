@@ -13,6 +13,7 @@ import type { Env } from './config/env.js';
 import { sameOriginWrites } from './http-security/same-origin-writes.js';
 import { securityHeaders } from './http-security/security-headers.js';
 import { createLogger, httpLogger, PinoNestLogger } from './logging/logger.js';
+import { webAssets } from './web-assets/web-assets.js';
 
 /**
  * Builds the whole app (used by main.ts and by the API and browser tests alike): every route
@@ -47,9 +48,11 @@ export async function createApp(
   }
   if (env.WEB_DIST && fs.existsSync(path.join(env.WEB_DIST, 'index.html'))) {
     const indexHtml = path.join(env.WEB_DIST, 'index.html');
-    expressApp.use(express.static(env.WEB_DIST, { index: false, maxAge: '1h' }));
+    expressApp.use(webAssets(env.WEB_DIST));
     // Client-side routes (everything outside /api) get the app's index.html.
-    expressApp.get(/^(?!\/api(\/|$)).*/, (_req: Request, res: Response) => res.sendFile(indexHtml));
+    expressApp.get(/^(?!\/api(\/|$)).*/, (_req: Request, res: Response) =>
+      res.sendFile(indexHtml, { headers: { 'Cache-Control': 'no-cache' } }),
+    );
   }
   await app.init();
   return app;

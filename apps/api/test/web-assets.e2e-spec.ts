@@ -1,0 +1,81 @@
+// The built web app as the API serves it: precompressed at build time (vite-plugin-compression2),
+// chosen by Accept-Encoding (express-static-gzip), hashed files cached as immutable, the page
+// itself revalidated, and nothing under /api answered from the disk.
+import fs from 'node:fs';
+import path from 'node:path';
+import { brotliDecompressSync, gunzipSync } from 'node:zlib';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { startTestApp, type TestContext } from './support/test-app.js';
+
+const webDist = path.resolve(import.meta.dirname, '../../web/dist');
+const assets = fs.readdirSync(path.join(webDist, 'assets'));
+const scripts = assets.filter((f) => /\.(js|css)$/.test(f));
+const largest = scripts
+  .map((f) => ({ f, size: fs.statSync(path.join(webDist, 'assets', f)).size }))
+  .sort((a, b) => b.size - a.size)[0].f;
+
+let ctx: TestContext;
+beforeAll(async () => {
+  ctx = await startTestApp({ WEB_DIST: webDist });
+});
+afterAll(() => ctx.close());
+
+/** The body as bytes (decoded by the client from any Content-Encoding). */
+const raw = (res: { body: unknown }) => res.body as Buffer;
+const bytes = (req: ReturnType<TestContext['http']['get']>) =>
+  req.buffer(true).parse((res, done) => {
+    const chunks: Buffer[] = [];
+    res.on('data', (c: Buffer) => chunks.push(c));
+    res.on('end', () => done(null, Buffer.concat(chunks)));
+  });
+
+describe('the built web app', () => {
+  it('has a brotli and a gzip copy of every script and stylesheet of 1 KB or more', () => {
+    const missing = scripts
+      .filter((f) => fs.statSync(path.join(webDist, 'assets', f)).size >= 1024)
+      .filter((f) => !assets.includes(`${f}.br`) || !assets.includes(`${f}.gz`));
+    expect(missing).toEqual([]);
+  });
+
+  it('serves the brotli file when accepted, the gzip file otherwise, each the same content', async () => {
+    const file = (name: string) => fs.readFileSync(path.join(webDist, 'assets', name));
+    const original = file(largest);
+    // The test client decodes what it receives: the length sent and the file's own bytes tell
+    // which copy went over the wire; the decoded body must be the original.
+    const br = await bytes(ctx.http.get(`/assets/${largest}`).set('Accept-Encoding', 'gzip, br'));
+    expect(br.status).toBe(200);
+    expect(br.headers['content-encoding']).toBe('br');
+    expect(Number(br.headers['content-length'])).toBe(file(`${largest}.br`).length);
+    expect(brotliDecompressSync(file(`${largest}.br`)).equals(original)).toBe(true);
+    expect(raw(br).equals(original)).toBe(true);
+    expect(file(`${largest}.br`).length).toBeLessThan(original.length / 2);
+
+    const gz = await bytes(ctx.http.get(`/assets/${largest}`).set('Accept-Encoding', 'gzip'));
+    expect(gz.headers['content-encoding']).toBe('gzip');
+    expect(Number(gz.headers['content-length'])).toBe(file(`${largest}.gz`).length);
+    expect(gunzipSync(file(`${largest}.gz`)).equals(original)).toBe(true);
+    expect(raw(gz).equals(original)).toBe(true);
+
+    const plain = await bytes(ctx.http.get(`/assets/${largest}`).set('Accept-Encoding', 'identity'));
+    expect(plain.headers['content-encoding']).toBeUndefined();
+    expect(Number(plain.headers['content-length'])).toBe(original.length);
+  });
+
+  it('caches hashed files for a year as immutable and revalidates the page', async () => {
+    const asset = await ctx.http.get(`/assets/${largest}`);
+    expect(asset.headers['cache-control']).toBe('public, max-age=31536000, immutable');
+    const page = await ctx.http.get('/patients/some-client-route');
+    expect(page.status).toBe(200);
+    expect(page.headers['content-type']).toMatch(/text\/html/);
+    expect(page.headers['cache-control']).toBe('no-cache');
+  });
+
+  it('never answers /api from the disk: an unknown API path is the JSON 404, with no-store', async () => {
+    for (const p of ['/api/index.html', `/api/assets/${largest}`, '/api/nothing-here']) {
+      const res = await ctx.http.get(p);
+      expect(res.status, p).toBe(404);
+      expect(res.headers['content-type'], p).toMatch(/application\/json/);
+      expect(res.headers['cache-control'], p).toBe('no-store');
+    }
+  });
+});
