@@ -36,6 +36,21 @@ const uuids = [
   { id: t.wrench.id },
 ].map((r) => r.id);
 
+/** A new patient of Larkspur Lane (created through the API), archived when asked. */
+async function freshPatient(archived = false): Promise<string> {
+  const res = await ctx.http
+    .post('/api/patients')
+    .set('Cookie', cookies.dentist)
+    .send({ givenName: 'Fuzzy', familyName: 'Target', birthDate: '1970-01-01' });
+  const id = (res.body as { id: string }).id;
+  if (archived)
+    await ctx.http
+      .post(`/api/patients/${id}/archive`)
+      .set('Cookie', cookies.dentist)
+      .send({ reason: 'For the fuzzer' });
+  return id;
+}
+
 /** Who calls each write endpoint (a role that may), and on which record. */
 const TARGETS: Record<string, { as: AccountKey | null; path: string }> = {
   'POST /auth/sign-in': { as: null, path: '/api/auth/sign-in' },
@@ -91,6 +106,11 @@ const TARGETS: Record<string, { as: AccountKey | null; path: string }> = {
   'PUT /recalls/policy': { as: 'practice_admin', path: '/api/recalls/policy' },
   'POST /recalls/reminders/run': { as: 'practice_admin', path: '/api/recalls/reminders/run' },
   'POST /patients/:id/sites': { as: 'dentist', path: `/api/patients/${t.ids.lucia}/sites` },
+  'POST /patients': { as: 'dentist', path: '/api/patients' },
+  'PATCH /patients/:id': { as: 'dentist', path: `/api/patients/${await freshPatient()}` },
+  'POST /patients/:id/archive': { as: 'dentist', path: `/api/patients/${await freshPatient()}/archive` },
+  'POST /patients/:id/unarchive': { as: 'dentist', path: `/api/patients/${await freshPatient(true)}/unarchive` },
+  'PUT /practice/patient-settings': { as: 'practice_admin', path: '/api/practice/patient-settings' },
   'POST /sites/:id/placements': { as: 'dentist', path: `/api/sites/${await t.fresh.site()}/placements` },
   'POST /placements/:id/amendments': { as: 'dentist', path: `/api/placements/${await t.fresh.placement()}/amendments` },
 };

@@ -90,6 +90,20 @@ const {
   measurementPoints,
 } = await scenarioTargets(ctx, cookies);
 const radiograph = await fresh.radiograph();
+/** A new patient of Larkspur Lane for each call that changes one (archived when asked). */
+async function freshPatient(archived = false): Promise<string> {
+  const res = await ctx.http
+    .post('/api/patients')
+    .set('Cookie', cookies.dentist)
+    .send({ givenName: 'Matrix', familyName: 'Target', birthDate: '1971-01-01' });
+  const id = (res.body as { id: string }).id;
+  if (archived)
+    await ctx.http
+      .post(`/api/patients/${id}/archive`)
+      .set('Cookie', cookies.dentist)
+      .send({ reason: 'For the matrix' });
+  return id;
+}
 let uploadGrey = 100;
 
 // ---- the expectations -----------------------------------------------------------------------
@@ -138,6 +152,56 @@ const TABLE: Record<string, Case[]> = {
       expect: every(404, { otherPracticeDentist: 200 }),
     },
   ],
+  // Patients' records: the dentist and the practice admin create, edit and archive; the hygienist
+  // edits contact details only; a Quarry Hill dentist creates in their own practice.
+  'POST /api/patients': one(
+    {
+      path: () => '/api/patients',
+      body: () => ({ givenName: 'Matrix', familyName: 'Created', birthDate: '1980-05-05' }),
+      expect: every(403, { dentist: 201, practice_admin: 201, otherPracticeDentist: 201 }),
+    },
+    'new',
+  ),
+  'PATCH /api/patients/:id': one({
+    path: () => `/api/patients/${ids.harold}`,
+    body: () => ({ phone: '+44 20 7946 0555' }),
+    expect: every(200, { surgeon: 403, surgeonNoShare: 403, otherPracticeDentist: 404 }),
+  }),
+  'POST /api/patients/:id/archive': one(
+    {
+      path: async () => `/api/patients/${await freshPatient()}/archive`,
+      body: () => ({ reason: 'Moved away' }),
+      expect: every(403, { dentist: 200, practice_admin: 200, otherPracticeDentist: 404 }),
+    },
+    'own practice',
+  ),
+  'POST /api/patients/:id/unarchive': one(
+    {
+      path: async () => `/api/patients/${await freshPatient(true)}/unarchive`,
+      body: () => ({ reason: 'Came back' }),
+      expect: every(403, { dentist: 200, practice_admin: 200, otherPracticeDentist: 404 }),
+    },
+    'own practice',
+  ),
+  'GET /api/patients/:id/versions': one({
+    path: () => `/api/patients/${ids.harold}/versions`,
+    expect: every(403, { dentist: 200, practice_admin: 200, otherPracticeDentist: 404 }),
+  }),
+  'GET /api/patients/duplicates': one(
+    {
+      path: () => '/api/patients/duplicates?familyName=Whitcombe&birthDate=1955-04-17',
+      expect: every(403, { dentist: 200, practice_admin: 200, otherPracticeDentist: 200 }),
+    },
+    'own practice',
+  ),
+  'GET /api/practice/patient-settings': one(
+    { path: () => '/api/practice/patient-settings', expect: every(200) },
+    'own practice',
+  ),
+  'PUT /api/practice/patient-settings': one(
+    { path: () => '/api/practice/patient-settings', body: () => ({ chartPrefix: 'LL-' }), expect: adminOnly(200) },
+    'own practice',
+  ),
   'GET /api/sites/:id': one({ path: () => `/api/sites/${ids.harold35}`, expect: sharedRead }),
   'GET /api/catalogue': one({ path: () => '/api/catalogue', expect: every(200) }, 'own practice'),
   'POST /api/catalogue/systems': one(

@@ -4,7 +4,20 @@ import { AbilityBuilder, createMongoAbility, type MongoAbility } from '@casl/abi
 export const ROLES = ['practice_admin', 'dentist', 'hygienist', 'surgeon'] as const;
 export type Role = (typeof ROLES)[number];
 
-export type Action = 'manage' | 'read' | 'create' | 'update' | 'amend';
+export type Action = 'manage' | 'read' | 'create' | 'update' | 'amend' | 'archive';
+
+/**
+ * The fields of a patient's record that are contact details: the hygienist may update these and
+ * no other (CASL field rules; the patients service names any other field it is sent).
+ */
+export const PATIENT_CONTACT_FIELDS = [
+  'email',
+  'phone',
+  'preferredLanguage',
+  'emailReminderConsent',
+  'emailReminderConsentOn',
+] as const;
+export type PatientContactField = (typeof PATIENT_CONTACT_FIELDS)[number];
 
 /**
  * Subjects of the ledger. Each row carries `practiceId`; rows that belong to a patient also
@@ -14,6 +27,7 @@ export type Subject =
   | 'Practice'
   | 'User'
   | 'Patient'
+  | 'PatientVersion'
   | 'ImplantSite'
   | 'Placement'
   | 'Catalogue'
@@ -70,7 +84,8 @@ export function defineAbilityFor(user: AbilityUser): AppAbility {
   switch (user.role) {
     case 'dentist':
       can('read', 'Practice', { id: user.practiceId });
-      can(['read', 'create', 'update'], 'Patient', own);
+      can(['read', 'create', 'update', 'archive'], 'Patient', own);
+      can('read', 'PatientVersion', own);
       can(
         ['read', 'create', 'amend'],
         ['ImplantSite', 'Restoration', 'ComponentInstance', 'TorqueEvent', 'Complication'],
@@ -84,6 +99,7 @@ export function defineAbilityFor(user: AbilityUser): AppAbility {
     case 'hygienist':
       can('read', 'Practice', { id: user.practiceId });
       can('read', 'Patient', own);
+      can('update', 'Patient', [...PATIENT_CONTACT_FIELDS], own);
       can('read', ['ImplantSite', 'Placement', 'Restoration', 'ComponentInstance', 'TorqueEvent', 'Complication'], own);
       can(['read', 'create', 'amend'], ['RecallExam', 'Radiograph'], own);
       can('read', ['Catalogue', 'Wrench', 'RecallPolicy'], own);
@@ -107,7 +123,8 @@ export function defineAbilityFor(user: AbilityUser): AppAbility {
     case 'practice_admin':
       can(['read', 'update'], 'Practice', { id: user.practiceId });
       can(['read', 'create', 'update'], 'User', own);
-      can(['read', 'create', 'update'], 'Patient', own);
+      can(['read', 'create', 'update', 'archive'], 'Patient', own);
+      can('read', 'PatientVersion', own);
       can('read', PATIENT_RECORD, own);
       can(['read', 'create', 'update'], ['Catalogue', 'Wrench', 'RecallPolicy'], own);
       can('read', ['AuditEntry', 'Share'], own);

@@ -42,6 +42,27 @@ export const SERVICE_STATES = ['up', 'down'] as const;
 export const ServiceState = z.enum(SERVICE_STATES);
 export type ServiceState = z.infer<typeof ServiceState>;
 
+// ---- patients ----------------------------------------------------------------------------------
+/** Sex as recorded in the patient's file (optional: 'not-recorded' when the practice has none). */
+export const PATIENT_SEXES = ['not-recorded', 'female', 'male', 'other'] as const;
+export const PatientSex = z.enum(PATIENT_SEXES);
+export type PatientSex = z.infer<typeof PatientSex>;
+
+/** Languages offered for a patient's letters and reminders, as BCP 47 tags (a short list, appended to as needed). */
+export const PREFERRED_LANGUAGES = ['en', 'fr', 'de', 'es', 'it', 'nl', 'pt', 'pl', 'sv', 'tr', 'ar', 'zh'] as const;
+export const PreferredLanguage = z.enum(PREFERRED_LANGUAGES, { error: 'Choose a language from the list' });
+export type PreferredLanguage = z.infer<typeof PreferredLanguage>;
+
+/** Which patients a list shows: archived patients are hidden unless asked for. */
+export const ARCHIVE_FILTERS = ['active', 'archived', 'all'] as const;
+export const ArchiveFilter = z.enum(ARCHIVE_FILTERS);
+export type ArchiveFilter = z.infer<typeof ArchiveFilter>;
+
+/** What one version of a patient's record did. */
+export const PATIENT_VERSION_KINDS = ['created', 'edited', 'archived', 'unarchived'] as const;
+export const PatientVersionKind = z.enum(PATIENT_VERSION_KINDS);
+export type PatientVersionKind = z.infer<typeof PatientVersionKind>;
+
 // ---- sites and placements ----------------------------------------------------------------------
 export const SITE_STATUSES = ['planned', 'placed', 'restored', 'failed', 'removed'] as const;
 export const SiteStatus = z.enum(SITE_STATUSES);
@@ -189,7 +210,8 @@ export type RecallStatus = z.infer<typeof RecallStatus>;
 
 export const ReminderKind = z.enum(REMINDER_KINDS);
 export type ReminderKind = z.infer<typeof ReminderKind>;
-export const REMINDER_STATUSES = ['pending', 'sent', 'failed'] as const;
+/** 'withheld': not sent because the patient was archived or withdrew consent after it was logged. */
+export const REMINDER_STATUSES = ['pending', 'sent', 'failed', 'withheld'] as const;
 export const ReminderStatus = z.enum(REMINDER_STATUSES);
 export type ReminderStatus = z.infer<typeof ReminderStatus>;
 

@@ -5,6 +5,7 @@ import { FdiPosition, Id, IsoDate, IsoDateTime, NoteText, PlainText } from './co
 import { RECALL_MONTHS_RANGE } from '@torquetrail/domain';
 import type { RouteContract } from './route-contract.js';
 import {
+  ArchiveFilter,
   DeskFilter,
   DeskSort,
   MaintenanceStatus,
@@ -184,6 +185,8 @@ export const RecallDeskQuery = z.object({
   sort: DeskSort.default('dueOn'),
   dir: SortDirection.default('asc'),
   search: PlainText(100).optional(),
+  /** Archived patients leave the desk unless asked for. */
+  archived: ArchiveFilter.default('active'),
   page: z.coerce.number().int().min(1).max(100_000).default(1),
   pageSize: z.coerce.number().int().min(1).max(200).default(50),
 });

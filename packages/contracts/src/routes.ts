@@ -5,7 +5,7 @@ import { placementRoutes } from './placements.js';
 import { radiographRoutes } from './radiographs.js';
 import { Me, SignInBody } from './auth.js';
 import { HealthReply, LivenessReply } from './health.js';
-import { PatientDetail, PatientListQuery, PatientListReply } from './patients.js';
+import { PatientDetail, PatientListQuery, PatientListReply, patientRoutes } from './patients.js';
 import { SiteFile } from './sites.js';
 
 /** Every API route, for the OpenAPI document and the test that checks nothing is left out. */
@@ -77,6 +77,7 @@ export const apiRoutes: RouteContract[] = [
     signedIn: true,
     reply: SiteFile,
   },
+  ...patientRoutes,
   ...ledgerRoutes,
   ...recallRoutes,
   ...radiographRoutes,

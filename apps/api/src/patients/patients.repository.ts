@@ -1,14 +1,21 @@
-import { and, asc, eq, ilike, or, sql, type SQL } from 'drizzle-orm';
+import { and, asc, eq, ilike, isNotNull, isNull, or, sql, type SQL } from 'drizzle-orm';
+import type { ArchiveFilter } from '@torquetrail/contracts';
 import type { Db } from '../db/database.js';
-import { implantSites, implantSystems, patients, placements, platforms, practices } from '../db/schema/index.js';
+import { implantSites, implantSystems, patients, placements, platforms, practices, users } from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
 import { visiblePatients } from '../authz/visible-patients.js';
 import { isCurrentVersion } from '../db/amendments.js';
 
 const escapeLike = (text: string) => text.replace(/[\\%_]/g, (c) => `\\${c}`);
 
-export async function listPatients(db: Db, scope: Scope, search?: string) {
-  const filters: SQL[] = [visiblePatients(scope)];
+const ARCHIVED: Record<ArchiveFilter, SQL | undefined> = {
+  active: isNull(patients.archivedAt),
+  archived: isNotNull(patients.archivedAt),
+  all: undefined,
+};
+
+export async function listPatients(db: Db, scope: Scope, search: string | undefined, archived: ArchiveFilter) {
+  const filters: (SQL | undefined)[] = [visiblePatients(scope), ARCHIVED[archived]];
   if (search) {
     const words = search.split(/\s+/).filter(Boolean).slice(0, 5);
     for (const word of words) {
@@ -18,7 +25,7 @@ export async function listPatients(db: Db, scope: Scope, search?: string) {
           ilike(patients.givenName, pattern),
           ilike(patients.familyName, pattern),
           ilike(patients.chartNumber, pattern),
-        )!,
+        ),
       );
     }
   }
@@ -30,6 +37,7 @@ export async function listPatients(db: Db, scope: Scope, search?: string) {
       familyName: patients.familyName,
       birthDate: patients.birthDate,
       practiceName: practices.name,
+      archivedAt: patients.archivedAt,
       implantSiteCount: sql<number>`(select count(*)::int from ${implantSites} where ${implantSites.patientId} = ${patients.id})`,
     })
     .from(patients)
@@ -49,13 +57,25 @@ export async function findVisiblePatient(db: Db, scope: Scope, id: string) {
       familyName: patients.familyName,
       birthDate: patients.birthDate,
       practiceName: practices.name,
+      sex: patients.sex,
+      email: patients.email,
+      phone: patients.phone,
+      preferredLanguage: patients.preferredLanguage,
+      emailReminderConsent: patients.emailReminderConsent,
+      emailReminderConsentOn: patients.emailReminderConsentOn,
       smoker: patients.smoker,
       diabetesPoorlyControlled: patients.diabetesPoorlyControlled,
       periodontitisHistory: patients.periodontitisHistory,
+      riskFactorsRecordedOn: patients.riskFactorsRecordedOn,
       missingTeeth: patients.missingTeeth,
+      chartNumberChangedAt: patients.chartNumberChangedAt,
+      archivedAt: patients.archivedAt,
+      archiveReason: patients.archiveReason,
+      archivedByName: users.displayName,
     })
     .from(patients)
     .innerJoin(practices, eq(practices.id, patients.practiceId))
+    .leftJoin(users, eq(users.id, patients.archivedBy))
     .where(and(eq(patients.id, id), visiblePatients(scope)));
   return row ?? null;
 }

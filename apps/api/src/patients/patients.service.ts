@@ -1,6 +1,6 @@
 import { Inject, Injectable } from '@nestjs/common';
 import { type AppAbility, subject } from '@torquetrail/authz';
-import type { PatientDetail, PatientListReply } from '@torquetrail/contracts';
+import type { PatientDetail, PatientListQuery, PatientListReply } from '@torquetrail/contracts';
 import { assertCan, type Scope } from '../authz/scope.js';
 import { DB, type Database } from '../db/database.js';
 import { MaintenanceStatusService } from '../recalls/maintenance-status.service.js';
@@ -13,8 +13,9 @@ export class PatientsService {
     private readonly maintenance: MaintenanceStatusService,
   ) {}
 
-  async list(scope: Scope, search?: string): Promise<PatientListReply> {
-    return { items: await listPatients(this.db, scope, search) };
+  async list(scope: Scope, query: PatientListQuery): Promise<PatientListReply> {
+    const rows = await listPatients(this.db, scope, query.search, query.archived);
+    return { items: rows.map((r) => ({ ...r, archivedAt: r.archivedAt?.toISOString() ?? null })) };
   }
 
   async detail(ability: AppAbility, scope: Scope, id: string): Promise<PatientDetail> {
@@ -33,12 +34,34 @@ export class PatientsService {
       familyName: patient.familyName,
       birthDate: patient.birthDate,
       practiceName: patient.practiceName,
+      sex: patient.sex,
       implantSiteCount: sites.length,
       riskFactors: {
         smoker: patient.smoker,
         diabetesPoorlyControlled: patient.diabetesPoorlyControlled,
         periodontitisHistory: patient.periodontitisHistory,
       },
+      riskFactorsRecordedOn: patient.riskFactorsRecordedOn,
+      // A surgeon sees a shared patient's implant record, not how to reach the patient.
+      contact:
+        patient.practiceId === scope.practiceId
+          ? {
+              email: patient.email,
+              phone: patient.phone,
+              preferredLanguage: patient.preferredLanguage,
+              emailReminderConsent: patient.emailReminderConsent,
+              emailReminderConsentOn: patient.emailReminderConsentOn,
+            }
+          : null,
+      chartNumberChangeable: patient.chartNumberChangedAt === null,
+      archivedAt: patient.archivedAt?.toISOString() ?? null,
+      archive: patient.archivedAt
+        ? {
+            at: patient.archivedAt.toISOString(),
+            byName: patient.archivedByName ?? 'unknown',
+            reason: patient.archiveReason ?? '',
+          }
+        : null,
       missingTeeth: patient.missingTeeth,
       sites: sites.map((site) => ({
         id: site.id,

@@ -37,6 +37,8 @@ export async function queryDesk(
         )}))`
       : sql`pa.practice_id = ${scope.practiceId}`;
   const filters: SQL[] = [visible];
+  if (q.archived === 'active') filters.push(sql`pa.archived_at is null`);
+  if (q.archived === 'archived') filters.push(sql`pa.archived_at is not null`);
   if (q.search) {
     for (const word of q.search.split(/\s+/).filter(Boolean).slice(0, 5)) {
       const pattern = `%${escapeLike(word)}%`;

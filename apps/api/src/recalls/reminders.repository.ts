@@ -1,10 +1,13 @@
-import { and, desc, eq, inArray, ne, sql } from 'drizzle-orm';
+import { and, desc, eq, inArray, isNull, ne, sql } from 'drizzle-orm';
 import type { ReminderKind, ReminderStatus } from '@torquetrail/contracts';
 import type { Db } from '../db/database.js';
 import { patients, recallPolicies, recalls, reminderLog } from '../db/schema/index.js';
 import { DEFAULT_POLICY } from './exams.repository.js';
 
-/** Scheduled recalls of patients with an e-mail address, with their practice's policy. */
+/**
+ * Scheduled recalls of patients who may be reminded: not archived, with an e-mail address and
+ * their consent to e-mail reminders; with their practice's policy.
+ */
 export async function listScheduledRecalls(db: Db, practiceId?: string) {
   return db
     .select({
@@ -21,6 +24,8 @@ export async function listScheduledRecalls(db: Db, practiceId?: string) {
       and(
         eq(recalls.status, 'scheduled'),
         sql`${patients.email} is not null`,
+        eq(patients.emailReminderConsent, true),
+        isNull(patients.archivedAt),
         practiceId ? eq(recalls.practiceId, practiceId) : undefined,
       ),
     );
@@ -59,12 +64,14 @@ export async function lockReminder(db: Db, id: string) {
     idempotency_key: string;
     attempts: number;
     email: string | null;
+    consent: boolean;
+    archived: boolean;
     given_name: string;
     family_name: string;
     practice_name: string;
   }>(sql`
     select r.id, r.status, r.kind, r.recall_due_on::text as recall_due_on, r.idempotency_key, r.attempts,
-           p.email, p.given_name, p.family_name, pr.name as practice_name
+           p.email, p.email_reminder_consent as consent, p.archived_at is not null as archived, p.given_name, p.family_name, pr.name as practice_name
     from reminder_log r join patients p on p.id = r.patient_id join practices pr on pr.id = r.practice_id
     where r.id = ${id}
     for update of r
@@ -110,4 +117,12 @@ export async function listReminderLog(db: Db, practiceId: string) {
     .where(eq(reminderLog.practiceId, practiceId))
     .orderBy(desc(reminderLog.createdAt), desc(reminderLog.recallDueOn))
     .limit(500);
+}
+
+/** A logged reminder that must not go out any more (patient archived, consent withdrawn). */
+export async function markWithheld(db: Db, id: string, why: string) {
+  await db
+    .update(reminderLog)
+    .set({ status: 'withheld', lastError: why })
+    .where(and(eq(reminderLog.id, id), ne(reminderLog.status, 'sent')));
 }

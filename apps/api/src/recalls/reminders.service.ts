@@ -18,6 +18,7 @@ import {
   logReminders,
   markFailedAttempt,
   markSent,
+  markWithheld,
 } from './reminders.repository.js';
 
 const SEND_QUEUE = 'recall-reminder-send';
@@ -30,7 +31,7 @@ interface ScanJob {
   today?: string;
 }
 
-export type DeliveryOutcome = 'sent' | 'already-sent' | 'gone' | 'no-address' | 'failed';
+export type DeliveryOutcome = 'sent' | 'already-sent' | 'gone' | 'no-address' | 'withheld' | 'failed';
 
 const longDate = (iso: string) =>
   new Date(`${iso}T00:00:00Z`).toLocaleDateString('en-GB', {
@@ -110,6 +111,11 @@ export class RemindersService {
       const row = await lockReminder(tx, reminderId);
       if (!row) return 'gone';
       if (row.status === 'sent') return 'already-sent';
+      // Logged before the patient was archived or withdrew consent: it stops here, at send time.
+      if (row.archived || !row.consent) {
+        await markWithheld(tx, row.id, row.archived ? 'the patient is archived' : 'no consent to e-mail reminders');
+        return 'withheld';
+      }
       if (!row.email) {
         await markFailedAttempt(tx, row.id, 'the patient has no e-mail address', true);
         return 'no-address';

@@ -10,6 +10,7 @@ import type {
   SiteStatus,
   TorqueReason,
 } from '@torquetrail/contracts';
+import { PATIENT_RECORD_FIELDS } from '@torquetrail/contracts';
 import { addCalendarDays as addDays, RULES_VERSION, torqueVerdict } from '@torquetrail/domain';
 import type { Tx } from '../db/database.js';
 import { hashPassword } from '../auth/password.js';
@@ -18,6 +19,8 @@ import {
   components,
   implantSites,
   patients,
+  patientVersions,
+  chartNumberSequences,
   patientShares,
   placements,
   practices,
@@ -244,11 +247,41 @@ async function addPatient(
   practiceId: string,
   p: typeof patients.$inferInsert extends infer T ? Omit<T, 'practiceId'> : never,
 ) {
+  // The demo's patients with an e-mail address agreed to reminders when they were registered.
+  const consent = p.email ? { emailReminderConsent: true, emailReminderConsentOn: '2023-09-04' } : {};
   const [row] = await tx
     .insert(patients)
-    .values({ ...p, practiceId })
+    .values({ riskFactorsRecordedOn: '2025-10-06', ...consent, ...p, practiceId })
     .returning({ id: patients.id });
   return row.id;
+}
+
+/**
+ * The first version of every seeded patient (their registration, by the practice's first
+ * dentist) and each practice's chart-number prefix, going on after the seeded numbers.
+ */
+async function seedPatientRecords(tx: Tx, registeredBy: Map<string, string>) {
+  const rows = await tx.select().from(patients);
+  for (const p of rows) {
+    const fields = PATIENT_RECORD_FIELDS;
+    await tx.insert(patientVersions).values({
+      practiceId: p.practiceId,
+      patientId: p.id,
+      version: 1,
+      kind: 'created',
+      changes: fields.map((field) => ({ field, before: null, after: p[field] })),
+      changedBy: registeredBy.get(p.practiceId)!,
+      changedAt: p.createdAt,
+    });
+  }
+  const sequences = new Map<string, { prefix: string; nextNumber: number }>();
+  for (const p of rows) {
+    const [, prefix, digits] = /^(.*?)(\d+)$/.exec(p.chartNumber)!;
+    const next = Number(digits) + 1;
+    if (next > (sequences.get(p.practiceId)?.nextNumber ?? 0))
+      sequences.set(p.practiceId, { prefix, nextNumber: next });
+  }
+  await tx.insert(chartNumberSequences).values([...sequences].map(([practiceId, s]) => ({ practiceId, ...s })));
 }
 
 export interface SeedSummary {
@@ -648,6 +681,13 @@ export async function seedDemoScenario(tx: Tx, today: string): Promise<{ summary
     sites += 1;
   }
 
+  await seedPatientRecords(
+    tx,
+    new Map([
+      [larkspur.id, userIds.get('ines.calloway@larkspur.example')!],
+      [quarry.id, userIds.get('nell.ashdown@quarryhill.example')!],
+    ]),
+  );
   const patientRows = await tx.select({ id: patients.id, chartNumber: patients.chartNumber }).from(patients);
   const siteRows = await tx
     .select({ id: implantSites.id, patientId: implantSites.patientId, fdi: implantSites.fdi })

@@ -28,6 +28,24 @@ export const router = createBrowserRouter([
             }),
           },
           {
+            path: 'patients/new',
+            lazy: async () => ({
+              Component: (await import('../features/patients/routes/new-patient-route')).NewPatientRoute,
+            }),
+          },
+          {
+            path: 'patients/:patientId/edit',
+            lazy: async () => ({
+              Component: (await import('../features/patients/routes/edit-patient-route')).EditPatientRoute,
+            }),
+          },
+          {
+            path: 'practice/patient-settings',
+            lazy: async () => ({
+              Component: (await import('../features/patients/routes/patient-settings-route')).PatientSettingsRoute,
+            }),
+          },
+          {
             path: 'patients/:patientId',
             lazy: async () => ({ Component: (await import('../features/arch/routes/arch-route')).ArchRoute }),
           },

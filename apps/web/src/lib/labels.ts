@@ -2,10 +2,15 @@
 // are in clinical-labels.ts. labels.test.ts checks that every enum has one label per value.
 import type { Role } from '@torquetrail/authz';
 import {
+  type ArchiveFilter,
   DESK_DUE_SOON_DAYS,
   type DeskFilter,
   type DeskSort,
   type MaintenanceStatus,
+  type PatientSex,
+  type PatientVersionField,
+  type PatientVersionKind,
+  type PreferredLanguage,
   type RadiographFileType,
   type RadiographKind,
   type ReminderKind,
@@ -85,6 +90,62 @@ export const REMINDER_STATUS_LABEL: Record<ReminderStatus, string> = {
   pending: 'Pending',
   sent: 'Sent',
   failed: 'Failed',
+  withheld: 'Withheld',
+};
+
+export const PATIENT_SEX_LABEL: Record<PatientSex, string> = {
+  'not-recorded': 'Not recorded',
+  female: 'Female',
+  male: 'Male',
+  other: 'Other',
+};
+
+/** English name first, then the language's own name, so the person it concerns can check it too. */
+export const PREFERRED_LANGUAGE_LABEL: Record<PreferredLanguage, string> = {
+  en: 'English',
+  fr: 'French (français)',
+  de: 'German (Deutsch)',
+  es: 'Spanish (español)',
+  it: 'Italian (italiano)',
+  nl: 'Dutch (Nederlands)',
+  pt: 'Portuguese (português)',
+  pl: 'Polish (polski)',
+  sv: 'Swedish (svenska)',
+  tr: 'Turkish (Türkçe)',
+  ar: 'Arabic (العربية)',
+  zh: 'Chinese (中文)',
+};
+
+export const ARCHIVE_FILTER_LABEL: Record<ArchiveFilter, string> = {
+  active: 'Current patients',
+  archived: 'Archived patients',
+  all: 'Current and archived',
+};
+
+export const PATIENT_VERSION_KIND_LABEL: Record<PatientVersionKind, string> = {
+  created: 'Registered',
+  edited: 'Edited',
+  archived: 'Archived',
+  unarchived: 'Brought back',
+};
+
+/** The fields of a patient's record, as the form and the History name them. */
+export const PATIENT_FIELD_LABEL: Record<PatientVersionField, string> = {
+  chartNumber: 'Chart number',
+  givenName: 'Given name',
+  familyName: 'Family name',
+  birthDate: 'Date of birth',
+  sex: 'Sex (as recorded)',
+  email: 'E-mail',
+  phone: 'Phone',
+  preferredLanguage: 'Preferred language',
+  emailReminderConsent: 'Consent to e-mail reminders',
+  emailReminderConsentOn: 'Consent given on',
+  smoker: 'Smoker',
+  diabetesPoorlyControlled: 'Diabetes, poorly controlled',
+  periodontitisHistory: 'History of periodontitis',
+  riskFactorsRecordedOn: 'Risk factors recorded on',
+  archived: 'Archived',
 };
 
 export const RADIOGRAPH_KIND_LABEL: Record<RadiographKind, string> = {

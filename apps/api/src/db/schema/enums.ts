@@ -9,6 +9,9 @@ import {
   IMPRESSION_COPINGS,
   LOADING_PROTOCOLS,
   MATERIALS,
+  PATIENT_SEXES,
+  PATIENT_VERSION_KINDS,
+  PREFERRED_LANGUAGES,
   PERI_IMPLANT_STATUSES,
   PROBING_POSITIONS,
   RADIOGRAPH_FILE_TYPES,
@@ -52,3 +55,6 @@ export const reminderKindEnum = pgEnum('reminder_kind', REMINDER_KINDS);
 export const reminderStatusEnum = pgEnum('reminder_status', REMINDER_STATUSES);
 export const radiographFileTypeEnum = pgEnum('radiograph_file_type', RADIOGRAPH_FILE_TYPES);
 export const radiographKindEnum = pgEnum('radiograph_kind', RADIOGRAPH_KINDS);
+export const patientSexEnum = pgEnum('patient_sex', PATIENT_SEXES);
+export const preferredLanguageEnum = pgEnum('preferred_language', PREFERRED_LANGUAGES);
+export const patientVersionKindEnum = pgEnum('patient_version_kind', PATIENT_VERSION_KINDS);

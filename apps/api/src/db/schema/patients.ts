@@ -1,4 +1,17 @@
-import { boolean, date, index, pgTable, smallint, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core';
+import {
+  boolean,
+  date,
+  index,
+  integer,
+  jsonb,
+  pgTable,
+  smallint,
+  text,
+  timestamp,
+  unique,
+  uuid,
+} from 'drizzle-orm/pg-core';
+import { patientSexEnum, patientVersionKindEnum, preferredLanguageEnum } from './enums.js';
 import { practices, users } from './practices.js';
 
 export const patients = pgTable(
@@ -9,22 +22,87 @@ export const patients = pgTable(
       .notNull()
       .references(() => practices.id),
     chartNumber: text('chart_number').notNull(),
+    /** Set when the generated chart number was changed by hand: it may be changed once. */
+    chartNumberChangedAt: timestamp('chart_number_changed_at', { withTimezone: true }),
     givenName: text('given_name').notNull(),
     familyName: text('family_name').notNull(),
     birthDate: date('birth_date', { mode: 'string' }).notNull(),
+    sex: patientSexEnum('sex').notNull().default('not-recorded'),
     email: text('email'),
+    phone: text('phone'),
+    preferredLanguage: preferredLanguageEnum('preferred_language').notNull().default('en'),
+    /** Recall reminders are e-mailed only with this consent; the date it was given. */
+    emailReminderConsent: boolean('email_reminder_consent').notNull().default(false),
+    emailReminderConsentOn: date('email_reminder_consent_on', { mode: 'string' }),
+    // The recall rules read these three (RECALL_RISK_FACTORS in the domain); their meaning is unchanged.
     smoker: boolean('smoker').notNull().default(false),
     diabetesPoorlyControlled: boolean('diabetes_poorly_controlled').notNull().default(false),
     periodontitisHistory: boolean('periodontitis_history').notNull().default(false),
+    riskFactorsRecordedOn: date('risk_factors_recorded_on', { mode: 'string' }),
     /** FDI positions of teeth that are missing and are not implant sites. */
     missingTeeth: smallint('missing_teeth').array().notNull().default([]),
+    /** A patient is archived, never deleted: off the lists by default, and no reminders. */
+    archivedAt: timestamp('archived_at', { withTimezone: true }),
+    archivedBy: uuid('archived_by').references(() => users.id),
+    archiveReason: text('archive_reason'),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [
     unique('patients_practice_chart_unique').on(t.practiceId, t.chartNumber),
     index('patients_practice_family_idx').on(t.practiceId, t.familyName),
+    // The duplicate check looks patients up by birth date within the practice.
+    index('patients_practice_birth_idx').on(t.practiceId, t.birthDate),
   ],
 );
+
+/** One field's change in a patient version: the value before and after, as stored. */
+export interface PatientFieldChange {
+  field: string;
+  before: unknown;
+  after: unknown;
+}
+
+/**
+ * Every change of a patient's record, in order: who, when and what changed. The record is only
+ * ever written together with its version (patients.repository.ts), archiving included.
+ */
+export const patientVersions = pgTable(
+  'patient_versions',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
+    patientId: uuid('patient_id')
+      .notNull()
+      .references(() => patients.id),
+    /** 1 for the creation, then one more per change. */
+    version: integer('version').notNull(),
+    kind: patientVersionKindEnum('kind').notNull(),
+    changes: jsonb('changes').$type<PatientFieldChange[]>().notNull(),
+    reason: text('reason'),
+    changedBy: uuid('changed_by')
+      .notNull()
+      .references(() => users.id),
+    changedAt: timestamp('changed_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [unique('patient_versions_patient_version_unique').on(t.patientId, t.version)],
+);
+
+/**
+ * The practice's chart-number prefix (set by the practice admin) and the next number to hand
+ * out. Taking a number is one `insert … on conflict do update … returning` on this row, so two
+ * patients created at the same moment wait for each other and never get the same number.
+ */
+export const chartNumberSequences = pgTable('chart_number_sequences', {
+  practiceId: uuid('practice_id')
+    .primaryKey()
+    .references(() => practices.id),
+  prefix: text('prefix').notNull(),
+  nextNumber: integer('next_number').notNull(),
+  updatedBy: uuid('updated_by').references(() => users.id),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+});
 
 /** A patient of one practice opened to a user (a referring surgeon) of another. */
 export const patientShares = pgTable(

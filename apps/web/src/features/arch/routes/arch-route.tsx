@@ -1,5 +1,5 @@
 import '../components/arch.css';
-import { Classes, NonIdealState } from '@blueprintjs/core';
+import { Callout, Classes, NonIdealState } from '@blueprintjs/core';
 import { isPrimaryTooth, TOOTH_POSITIONS_PERMANENT, TOOTH_POSITIONS_PRIMARY } from '@torquetrail/domain';
 import { subject } from '@torquetrail/authz';
 import { Link, useNavigate, useParams } from 'react-router-dom';
@@ -8,6 +8,7 @@ import { isApiError } from '../../../lib/api-client';
 import { BreadcrumbTrail } from '../../../lib/components/breadcrumb-trail';
 import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
+import { formatDate } from '../../../lib/dates';
 import { MAINTENANCE_NOTE } from '../../../lib/labels';
 import { useToothSystem } from '../../../lib/tooth-system';
 import { usePatient } from '../../patients';
@@ -52,7 +53,18 @@ export function ArchRoute() {
       <title>{`${name} · Arch · Torquetrail`}</title>
       <BreadcrumbTrail items={[{ text: 'Patients', to: '/patients' }, { text: name }]} />
       <PatientHeader patient={data} />
+      {data.archive && (
+        <Callout intent="warning" icon="archive" data-testid="archived-callout">
+          Archived on {formatDate(data.archive.at.slice(0, 10))} by {data.archive.byName}: {data.archive.reason}. No
+          reminders are sent.
+        </Callout>
+      )}
       <nav className="arch-actions" aria-label="Patient actions">
+        <Can I="update" this={subject('Patient', { id: data.id, practiceId: data.practiceId })}>
+          <Link className={Classes.BUTTON} to={`/patients/${data.id}/edit`} data-testid="edit-patient">
+            Edit record and history
+          </Link>
+        </Can>
         <Can I="read" a="Restoration">
           <Link className={Classes.BUTTON} to={`/patients/${data.id}/restorations`} data-testid="open-restorations">
             Restorations and planner

@@ -1,4 +1,4 @@
-import { HTMLTable } from '@blueprintjs/core';
+import { HTMLTable, Tag } from '@blueprintjs/core';
 import type { PatientListItem } from '@torquetrail/contracts';
 import { Link } from 'react-router-dom';
 import { ageInYears, formatDate } from '../../../lib/dates';
@@ -28,6 +28,11 @@ export function PatientsTable({ patients }: { patients: readonly PatientListItem
                 <Link to={`/patients/${patient.id}`} className="row-link">
                   {patient.familyName}, {patient.givenName}
                 </Link>
+                {patient.archivedAt && (
+                  <Tag minimal className="archived-tag">
+                    archived
+                  </Tag>
+                )}
               </th>
               <td>
                 {formatDate(patient.birthDate)} ({ageInYears(patient.birthDate)})

@@ -1,7 +1,8 @@
 import '../components/patients.css';
-import { NonIdealState } from '@blueprintjs/core';
+import { Classes, NonIdealState, Switch } from '@blueprintjs/core';
 import { useCallback } from 'react';
-import { useLocation, useNavigation, useSearchParams } from 'react-router-dom';
+import { Link, useLocation, useNavigation, useSearchParams } from 'react-router-dom';
+import { Can } from '../../../lib/ability';
 import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
 import { usePatientList } from '../api/list-patients';
@@ -12,7 +13,9 @@ import { PatientsTable } from '../components/patients-table';
 export function PatientsRoute() {
   const [params, setParams] = useSearchParams();
   const search = params.get('search')?.trim() ?? '';
-  const patients = usePatientList(search);
+  // "Show archived" lists current and archived patients together; archived rows say so.
+  const showArchived = params.get('archived') === 'all';
+  const patients = usePatientList(search, showArchived ? 'all' : 'active');
 
   // A search that settles (debounced) while a patient's page is loading must not replace that
   // navigation and pull the user back to the list.
@@ -23,16 +26,48 @@ export function PatientsRoute() {
   const onSearch = useCallback(
     (next: string) => {
       if (next === search || leaving) return;
-      setParams(next ? { search: next } : {}, { replace: true });
+      setParams(
+        (current) => {
+          const updated = new URLSearchParams(current);
+          if (next) updated.set('search', next);
+          else updated.delete('search');
+          return updated;
+        },
+        { replace: true },
+      );
     },
     [search, setParams, leaving],
   );
+  const toggleArchived = () =>
+    setParams(
+      (current) => {
+        const updated = new URLSearchParams(current);
+        if (showArchived) updated.delete('archived');
+        else updated.set('archived', 'all');
+        return updated;
+      },
+      { replace: true },
+    );
 
   return (
     <div className="patients-page">
       <title>Patients · Torquetrail</title>
       <h1 className="page-title">Patients</h1>
-      <PatientSearch value={search} onSearch={onSearch} busy={patients.isFetching && !patients.isPending} />
+      <div className="patients-toolbar">
+        <PatientSearch value={search} onSearch={onSearch} busy={patients.isFetching && !patients.isPending} />
+        <Switch
+          label="Show archived"
+          checked={showArchived}
+          onChange={toggleArchived}
+          data-testid="show-archived"
+          className="bp6-align-left"
+        />
+        <Can I="create" a="Patient">
+          <Link className={`${Classes.BUTTON} ${Classes.INTENT_PRIMARY}`} to="/patients/new" data-testid="new-patient">
+            New patient
+          </Link>
+        </Can>
+      </div>
       {patients.isPending ? (
         <LoadingState label="Loading patients" />
       ) : patients.isError ? (
