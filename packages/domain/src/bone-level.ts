@@ -227,8 +227,10 @@ export function meetsAlbrektsson(
   return { meets: firstOk && annualOk, firstYearLossMm, annualLossAfterFirstYearMm, reasons };
 }
 
+/** ICOI Pisa health-scale groups, best first. */
+export const ICOI_GRADES = ['I', 'II', 'III', 'IV'] as const;
 /** ICOI Pisa health-scale group. */
-export type IcoiGrade = 'I' | 'II' | 'III' | 'IV';
+export type IcoiGrade = (typeof ICOI_GRADES)[number];
 
 /** Input of {@link icoiGrade}. */
 export interface IcoiInput {

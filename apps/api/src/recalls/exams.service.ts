@@ -7,6 +7,7 @@ import {
   type CreateVisitReply,
   type RecallExam,
   type ExamContext,
+  type SiteBoneLevel,
   type SiteExamHistory,
 } from '@torquetrail/contracts';
 import {
@@ -28,6 +29,7 @@ import { assertCan, type Scope } from '../authz/scope.js';
 import { alreadyAmended } from '../common/amendment-conflict.js';
 import { fieldError } from '../common/field-error.js';
 import { DB, type Database, type Tx } from '../db/database.js';
+import { BoneLevelsService } from '../radiographs/bone-levels.service.js';
 import {
   findExamsByIds,
   findPolicy,
@@ -55,6 +57,7 @@ export class ExamsService {
   constructor(
     @Inject(DB) private readonly db: Database,
     private readonly clock: RecallClock,
+    private readonly boneLevels: BoneLevelsService,
   ) {}
 
   async context(ability: AppAbility, scope: Scope, patientId: string): Promise<ExamContext> {
@@ -74,6 +77,7 @@ export class ExamsService {
       this.db,
       sites.map((s) => s.siteId),
     );
+    const measured = await this.boneLevels.latestBySite(sites.map((s) => s.siteId));
     const today = this.clock.today();
     return {
       patient: {
@@ -101,6 +105,7 @@ export class ExamsService {
           deliveredOn: s.deliveredOn,
           baseline: baseline ? toContract(baseline) : null,
           previous: previous ? toContract(previous) : null,
+          measuredBoneLevel: offered(measured.get(s.siteId)),
         };
       }),
     };
@@ -157,6 +162,9 @@ export class ExamsService {
         tx,
         body.exams.map((e) => e.siteId),
       );
+      for (const [i, exam] of body.exams.entries()) {
+        await this.checkBoneLevelSource(exam, exam.siteId, `exams.${i}.`);
+      }
 
       const visitId = randomUUID();
       const ids: string[] = [];
@@ -195,6 +203,7 @@ export class ExamsService {
             keratinizedMucosaMm: exam.keratinizedMucosaMm,
             residualCement: exam.residualCement,
             boneLevelMm: exam.boneLevelMm,
+            boneLevelMeasurementId: exam.boneLevelMeasurementId,
             isBaseline: exam.isBaseline,
             notes: exam.notes || null,
             status: verdict.status,
@@ -253,6 +262,7 @@ export class ExamsService {
       // the unique index on supersedes_id saves the first (insertExamAmendment).
       await lockExamHistory(tx, patient.id);
       const site = (await listSitesForExam(tx, patient.id)).find((s) => s.siteId === old.siteId)!;
+      await this.checkBoneLevelSource(body, old.siteId, '');
       const earlier = (await listExamsOfSites(tx, [site.siteId])).filter((e) => e.id !== old.id);
       const probes = inChartOrder(body.sites);
       const baseline = choosePeriImplantBaseline(
@@ -284,6 +294,7 @@ export class ExamsService {
         keratinizedMucosaMm: body.keratinizedMucosaMm,
         residualCement: body.residualCement,
         boneLevelMm: body.boneLevelMm,
+        boneLevelMeasurementId: body.boneLevelMeasurementId,
         isBaseline: body.isBaseline,
         notes: body.notes || null,
         status: verdict.status,
@@ -300,6 +311,44 @@ export class ExamsService {
       return toContract((await findExamsByIds(tx, [id]))[0]);
     });
   }
+
+  /**
+   * A bone level accepted from a measurement names it: the measurement must be a current one of the
+   * same site, on a radiograph not entered in error, and the value must be the one it offers
+   * (a typed-over value is sent without a source).
+   */
+  private async checkBoneLevelSource(
+    exam: { boneLevelMm: number | null; boneLevelMeasurementId: string | null },
+    siteId: string,
+    prefix: string,
+  ) {
+    if (exam.boneLevelMeasurementId === null) return;
+    const source = await this.boneLevels.currentOfSite(exam.boneLevelMeasurementId, siteId);
+    if (!source) {
+      throw fieldError({
+        [`${prefix}boneLevelMeasurementId`]: 'not a current bone-level measurement of this implant',
+      });
+    }
+    if (exam.boneLevelMm !== source.examBoneLevelMm) {
+      throw fieldError({
+        [`${prefix}boneLevelMm`]: `the measurement gives ${source.examBoneLevelMm} mm; a different value is typed, without a source`,
+      });
+    }
+  }
+}
+
+/** The exam form's offer from the latest measurement of a site. */
+function offered(m: SiteBoneLevel | undefined): ExamContext['sites'][number]['measuredBoneLevel'] {
+  if (!m) return null;
+  return {
+    measurementId: m.measurementId,
+    radiographId: m.radiographId,
+    boneLevelMm: m.examBoneLevelMm,
+    mesialMm: m.mesialMm,
+    distalMm: m.distalMm,
+    takenOn: m.takenOn,
+    measuredBy: m.measuredBy,
+  };
 }
 
 type RecallPatient = NonNullable<Awaited<ReturnType<typeof findVisiblePatientForRecall>>>;
