@@ -127,14 +127,19 @@ describe('bone levels from radiographs', () => {
     await page.getByTestId('arch-cell-35').click();
     const chart = page.getByTestId('bone-level-chart');
     await chart.getByTestId('bone-level-latest').waitFor();
+    const siteId = new URL(page.url()).pathname.split('/')[4];
     expect(await chart.getByTestId('bone-level-latest').textContent()).toMatch(
       /mesial 1\.6[6-8] mm,\s*distal 1\.1[0-2] mm/,
     );
-    const curves = chart.locator('.recharts-line-curve');
-    await expect.poll(() => curves.count()).toBeGreaterThanOrEqual(2);
-    for (const d of await curves.evaluateAll((paths) => paths.map((p) => p.getAttribute('d') ?? ''))) {
-      expect(d).not.toMatch(/[CQSTA]/); // no curve commands: points joined by straight lines
-    }
+    // A dot per side at least (one reading draws dots; more draw lines between them).
+    await expect.poll(() => chart.locator('.recharts-line-dot').count()).toBeGreaterThanOrEqual(2);
+    const curves = await chart
+      .locator('.recharts-line-curve')
+      .evaluateAll((paths) => paths.map((p) => p.getAttribute('d') ?? ''));
+    for (const d of curves) expect(d).not.toMatch(/[CQSTA]/); // no curve commands: straight segments only
+    expect(await chart.getByTestId('bone-level-table').locator('tbody tr').first().textContent()).toMatch(
+      /1\.6[6-8] mm1\.1[0-2] mm10 mmMaren Holt/,
+    );
     expect(await chart.getByTestId('icoi-grade').textContent()).toMatch(/ICOI health scale of the latest value: I/);
     expect(await chart.textContent()).toContain('Supporting information, not a diagnosis');
     await screenshot(page, 'bone-levels-site-file-chart');
@@ -152,6 +157,20 @@ describe('bone levels from radiographs', () => {
     await page.locator('#bone-35').fill('2.0');
     await page.getByTestId('use-measured-bone-35').waitFor();
     await screenshot(page, 'bone-levels-exam-offer');
+    // Accepted again and saved, the exam records the measurement it came from.
+    await page.getByTestId('use-measured-bone-35').click();
+    await page.getByLabel('Examine 37 in this visit').uncheck({ force: true });
+    for (const position of ['mesiobuccal', 'buccal', 'distobuccal', 'mesiolingual', 'lingual', 'distolingual']) {
+      await page.getByLabel(`35 ${position} probing depth`).fill('3');
+    }
+    await page.getByRole('button', { name: 'Save exam' }).click();
+    await page.getByTestId('exam-saved').waitFor();
+    const exams = (await (await page.request.get(`/api/recalls/sites/${siteId}/exams`)).json()) as {
+      exams: { examinedOn: string; boneLevelMm: number | null; boneLevelMeasurementId: string | null }[];
+    };
+    const saved = exams.exams.at(-1)!;
+    expect(saved).toMatchObject({ examinedOn: today, boneLevelMm: 1.7 });
+    expect(saved.boneLevelMeasurementId).toMatch(/^[0-9a-f-]{36}$/);
 
     // Amend the measurement with a reason: a new version, the first kept.
     await page.goto(viewerPath);

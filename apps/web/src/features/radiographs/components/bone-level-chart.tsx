@@ -11,6 +11,7 @@ import { useSiteBoneLevels } from '../api/bone-levels-api';
 const mm = (v: number) => `${v.toFixed(2)} mm`;
 const time = (date: string) => Date.parse(`${date}T00:00:00Z`);
 const year = (t: number) => String(new Date(t).getUTCFullYear());
+const HALF_YEAR_MS = 182 * 24 * 3600 * 1000;
 
 interface ChartRow {
   t: number;
@@ -54,7 +55,7 @@ export function BoneLevelChart({ siteId, patientId }: { siteId: string; patientI
   return (
     <Can I="read" a="Radiograph">
       <section className="bone-level-chart" aria-labelledby={`bone-chart-${siteId}`} data-testid="bone-level-chart">
-        <h2 id={`bone-chart-${siteId}`}>Bone level from radiographs</h2>
+        <h2 id={`bone-chart-${siteId}`}>Bone level from radiographs (mm below the platform)</h2>
         {levels.isPending ? (
           <p>Loading bone levels…</p>
         ) : levels.isError ? (
@@ -75,6 +76,8 @@ export function BoneLevelChart({ siteId, patientId }: { siteId: string; patientI
 function BoneLevelBody({ data }: { data: SiteBoneLevels }) {
   const rows = chartRows(data);
   const latest = data.items[0];
+  // Half a year either side, so a single reading is not drawn on the chart's edge.
+  const domain = rows.length ? [rows[0].t - HALF_YEAR_MS, rows[rows.length - 1].t + HALF_YEAR_MS] : [0, 1];
   return (
     <>
       <Callout compact icon="info-sign">
@@ -85,15 +88,8 @@ function BoneLevelBody({ data }: { data: SiteBoneLevels }) {
         <ResponsiveContainer>
           <LineChart data={rows} margin={{ top: 8, right: 16, bottom: 8, left: 8 }} accessibilityLayer={false}>
             <CartesianGrid strokeDasharray="3 3" />
-            <XAxis
-              dataKey="t"
-              type="number"
-              scale="time"
-              domain={['dataMin', 'dataMax']}
-              tickFormatter={year}
-              minTickGap={24}
-            />
-            <YAxis unit=" mm" width={64} label={{ value: 'below the platform', angle: -90, position: 'insideLeft' }} />
+            <XAxis dataKey="t" type="number" scale="time" domain={domain} tickFormatter={year} minTickGap={24} />
+            <YAxis unit=" mm" width={64} />
             <Tooltip
               labelFormatter={(t) => formatDate(new Date(Number(t)).toISOString().slice(0, 10))}
               formatter={(value, name) => [mm(Number(value)), name]}
