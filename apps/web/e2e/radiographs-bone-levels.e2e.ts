@@ -203,4 +203,72 @@ describe('bone levels from radiographs', () => {
     await page.getByTestId('entered-in-error-tag').first().waitFor();
     await screenshot(page, 'bone-levels-entered-in-error');
   });
+
+  it('asks for the implant length when the placement record has none, with its message beside the field', async () => {
+    await h.reset();
+    const page = await h.newPage();
+    await signInAs(page, 'ines.calloway@larkspur.example');
+    await page
+      .getByTestId('patients-table')
+      .getByRole('link', { name: /Whitcombe/ })
+      .click();
+    await page.getByTestId('arch-cell-35').waitFor();
+    const patientId = new URL(page.url()).pathname.split('/')[2];
+    // A planned site has no placement record, so no implant length.
+    const patient = (await (await page.request.get(`/api/patients/${patientId}`)).json()) as {
+      sites: { fdi: number }[];
+    };
+    const fdi = [46, 45, 44, 36, 34, 26, 16].find((f) => !patient.sites.some((s) => s.fdi === f))!;
+    const site = await page.request.post(`/api/patients/${patientId}/sites`, { data: { fdi } });
+    expect(site.status()).toBe(201);
+    const siteId = ((await site.json()) as { id: string }).id;
+    const upload = await page.request.post(
+      `/api/patients/${patientId}/radiographs?siteIds=${siteId}&kind=periapical&takenOn=${today}`,
+      {
+        headers: { 'Content-Type': 'application/octet-stream' },
+        data: dicomFile({
+          rows: 256,
+          columns: 256,
+          bits: 8,
+          photometric: 'MONOCHROME2',
+          pixel: (r, c) => (c > 110 && c < 146 && r > 40 && r < 220 ? 240 : 30 + ((r + c) % 40)),
+          seriesNumber: 42,
+        }),
+      },
+    );
+    expect(upload.status()).toBe(201);
+    const radiographId = ((await upload.json()) as { id: string }).id;
+
+    await page.goto(`/patients/${patientId}/radiographs/${radiographId}`);
+    await page.getByTestId('implant-length').waitFor();
+    await markPoints(page, [
+      [40, 110],
+      [40, 146],
+      [220, 128],
+      [70, 111],
+      [60, 145],
+    ]);
+    const save = page.getByTestId('save-measurement');
+    await save.click();
+    await expect.poll(() => page.getByTestId('error-implantTrueMm').textContent()).toMatch(/implant length/);
+    await page.getByTestId('implant-length').fill('2');
+    await save.click();
+    await expect.poll(() => page.getByTestId('error-implantTrueMm').textContent()).toBe('Implants are 4–25 mm long');
+    await page.getByTestId('implant-length').fill('11');
+    await save.click();
+    // 11 mm over 180 px: 30 px → 1.83 mm, 20 px → 1.22 mm
+    await expect
+      .poll(() => page.getByTestId('measurements').textContent())
+      .toMatch(/Mesial 1\.8[2-4] mm, distal 1\.2[1-3] mm from the platform \(implant 11 mm\)/);
+    await screenshot(page, 'bone-levels-implant-length-asked');
+    // The length went with the measurement only: the site still has no placement record.
+    const levels = (await (await page.request.get(`/api/sites/${siteId}/bone-levels`)).json()) as {
+      implantLengthMm: number;
+    };
+    expect(levels.implantLengthMm).toBe(11);
+    const detail = (await (await page.request.get(`/api/radiographs/${radiographId}`)).json()) as {
+      siteImplants: { implantLengthMm: number | null }[];
+    };
+    expect(detail.siteImplants[0].implantLengthMm).toBeNull();
+  });
 });
