@@ -13,6 +13,8 @@ let desmond: string;
 let site35: string;
 let sharedRadiograph: string;
 let unsharedRadiograph: string;
+let desmond46: string;
+let unsharedSiteRadiograph: string;
 let grey = 0;
 
 const upload = async (patient: string, query = '') => {
@@ -33,7 +35,19 @@ beforeAll(async () => {
   site35 = await siteId(ctx.db, 'LL-1001', 35);
   sharedRadiograph = await upload(harold, `?siteIds=${site35}`);
   unsharedRadiograph = await upload(desmond);
+  desmond46 = await siteId(ctx.db, 'LL-1003', 46);
+  unsharedSiteRadiograph = await upload(desmond, `?siteIds=${desmond46}`);
 });
+
+/** A fresh measurement by the dentist (each amendment needs a current version of its own). */
+const measurement = async (radiograph: string, site: string) => {
+  const res = await ctx.http
+    .post(`/api/radiographs/${radiograph}/measurements`)
+    .set('Cookie', dentist)
+    .send({ siteId: site, points });
+  if (res.status !== 201) throw new Error(`measurement failed: ${res.status} ${JSON.stringify(res.body)}`);
+  return res.body.id as string;
+};
 afterAll(() => ctx.close());
 
 const points = {
@@ -90,6 +104,38 @@ describeRoleMatrix(
       path: () => `/api/radiographs/${sharedRadiograph}/measurements`,
       body: () => ({ siteId: site35, points }),
       expect: all(201, { practice_admin: 403, otherPracticeDentist: 404 }),
+    },
+    {
+      route: 'GET /api/sites/:id/bone-levels (shared)',
+      path: () => `/api/sites/${site35}/bone-levels`,
+      expect: sharedRead(),
+    },
+    {
+      route: 'GET /api/sites/:id/bone-levels (not shared)',
+      path: () => `/api/sites/${desmond46}/bone-levels`,
+      expect: unsharedRead(),
+    },
+    {
+      route: 'POST /api/radiographs/:id/measurements (not shared)',
+      method: 'post',
+      path: () => `/api/radiographs/${unsharedSiteRadiograph}/measurements`,
+      body: () => ({ siteId: desmond46, points }),
+      expect: all(201, { surgeon: 404, practice_admin: 403, otherPracticeDentist: 404 }),
+    },
+    {
+      route: 'POST /api/radiograph-measurements/:id/amendments (shared, a fresh measurement each)',
+      method: 'post',
+      path: async () => `/api/radiograph-measurements/${await measurement(sharedRadiograph, site35)}/amendments`,
+      body: () => ({ points, reason: 'Apex marked one thread short' }),
+      expect: all(201, { practice_admin: 403, otherPracticeDentist: 404 }),
+    },
+    {
+      route: 'POST /api/radiograph-measurements/:id/amendments (not shared, a fresh measurement each)',
+      method: 'post',
+      path: async () =>
+        `/api/radiograph-measurements/${await measurement(unsharedSiteRadiograph, desmond46)}/amendments`,
+      body: () => ({ points, reason: 'Apex marked one thread short' }),
+      expect: all(201, { surgeon: 404, practice_admin: 403, otherPracticeDentist: 404 }),
     },
     {
       route: 'POST /api/radiographs/:id/entered-in-error (shared, a fresh radiograph each)',

@@ -313,6 +313,7 @@ const TABLE: Record<string, Case[]> = {
     body: () => ({ reason: 'Filed to the wrong patient' }),
     expect: every(200, { practice_admin: 403, surgeonNoShare: 404, otherPracticeDentist: 404 }),
   }),
+  'GET /api/sites/:id/bone-levels': one({ path: () => `/api/sites/${ids.harold35}/bone-levels`, expect: sharedRead }),
   'POST /api/radiograph-measurements/:id/amendments': one({
     path: async () => `/api/radiograph-measurements/${await fresh.measurement()}/amendments`,
     body: () => ({ points: measurementPoints, reason: 'Apex marked one thread too short' }),

@@ -1,5 +1,6 @@
 // Radiographs: upload (binary body), previews, entered-in-error, bone-level measurements.
 import { z } from 'zod';
+import { ICOI_GRADES } from '@torquetrail/domain';
 import { Id, IsoDate, IsoDateTime, NoteText } from './common.js';
 import { RadiographFileType, RadiographKind } from './enums.js';
 import type { RouteContract } from './route-contract.js';
@@ -127,8 +128,53 @@ export const Measurement = z.object({
 });
 export type Measurement = z.infer<typeof Measurement>;
 
-export const RadiographDetail = Radiograph.extend({ measurements: z.array(Measurement) });
+export const RadiographDetail = Radiograph.extend({
+  measurements: z.array(Measurement),
+  /** The implant length of each linked site's placement record (null: none recorded, the viewer asks). */
+  siteImplants: z.array(z.object({ siteId: Id, implantLengthMm: z.number().nullable() })),
+});
 export type RadiographDetail = z.infer<typeof RadiographDetail>;
+
+/** One current measurement of a site, on a radiograph not entered in error. */
+export const SiteBoneLevel = z.object({
+  measurementId: Id,
+  radiographId: Id,
+  /** Date the radiograph was taken (null: not known; such a reading is left out of the chart). */
+  takenOn: IsoDate.nullable(),
+  mesialMm: z.number(),
+  distalMm: z.number(),
+  /** The worse side, as offered to the recall exam (0.1 mm, never below 0). */
+  examBoneLevelMm: z.number(),
+  implantTrueMm: z.number(),
+  measuredBy: z.string(),
+  measuredAt: IsoDateTime,
+  /** This version amends an earlier one. */
+  amended: z.boolean(),
+});
+export type SiteBoneLevel = z.infer<typeof SiteBoneLevel>;
+
+export const IcoiGradeSchema = z.enum(ICOI_GRADES);
+
+/** A site's measured bone levels, latest first, with the criteria of the series. Supporting information only. */
+export const SiteBoneLevels = z.object({
+  siteId: Id,
+  /** Delivery of the site's first restoration (loading), the Albrektsson start. */
+  loadedOn: IsoDate.nullable(),
+  /** From the placement record, else the length the latest measurement was calibrated with. */
+  implantLengthMm: z.number().nullable(),
+  items: z.array(SiteBoneLevel),
+  albrektsson: z
+    .object({
+      meets: z.boolean(),
+      firstYearLossMm: z.number().nullable(),
+      annualLossAfterFirstYearMm: z.number().nullable(),
+      reasons: z.array(z.string()),
+      allowance: z.array(z.object({ date: IsoDate, maxBoneLevelMm: z.number() })),
+    })
+    .nullable(),
+  icoi: z.object({ grade: IcoiGradeSchema, boneLossMm: z.number(), reasons: z.array(z.string()) }).nullable(),
+});
+export type SiteBoneLevels = z.infer<typeof SiteBoneLevels>;
 
 const r = (method: RouteContract['method'], path: string, summary: string, more: Partial<RouteContract> = {}) =>
   ({ method, path, summary, signedIn: true, ...more }) satisfies RouteContract;
@@ -158,6 +204,9 @@ export const radiographRoutes: RouteContract[] = [
   r('post', '/radiographs/:id/measurements', 'Measure bone levels of one site on the radiograph', {
     body: MeasurementBody,
     reply: Measurement,
+  }),
+  r('get', '/sites/:id/bone-levels', "A site's measured bone levels over time, latest first, with the criteria", {
+    reply: SiteBoneLevels,
   }),
   r('post', '/radiograph-measurements/:id/amendments', 'Amend a measurement: a new version superseding it', {
     body: MeasurementAmendmentBody,

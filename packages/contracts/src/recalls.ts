@@ -60,6 +60,8 @@ export const SiteExamInput = z.object({
   residualCement: z.boolean().default(false),
   /** Radiographic bone level when known: mm apical to the most coronal intra-osseous part, worse of mesial/distal. */
   boneLevelMm: z.number().min(0).max(20).nullable().default(null),
+  /** The radiograph measurement the bone level was accepted from; null when typed. */
+  boneLevelMeasurementId: Id.nullable().default(null),
   isBaseline: z.boolean().default(false),
   notes: NoteText(2000).nullable().default(null),
 });
@@ -108,6 +110,7 @@ export const RecallExam = z.object({
   keratinizedMucosaMm: z.number().nullable(),
   residualCement: z.boolean(),
   boneLevelMm: z.number().nullable(),
+  boneLevelMeasurementId: Id.nullable(),
   isBaseline: z.boolean(),
   notes: z.string().nullable(),
   /** Computed on the server by classifyPeriImplant (2017 World Workshop case definitions); not a diagnosis. */
@@ -172,6 +175,18 @@ export const ExamContext = z.object({
       deliveredOn: IsoDate.nullable(),
       baseline: RecallExam.nullable(),
       previous: RecallExam.nullable(),
+      /** The latest measured bone level (worse of mesial/distal), offered as the exam's; null: none measured. */
+      measuredBoneLevel: z
+        .object({
+          measurementId: Id,
+          radiographId: Id,
+          boneLevelMm: z.number(),
+          mesialMm: z.number(),
+          distalMm: z.number(),
+          takenOn: IsoDate.nullable(),
+          measuredBy: z.string(),
+        })
+        .nullable(),
     }),
   ),
 });

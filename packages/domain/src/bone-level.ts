@@ -88,6 +88,26 @@ function nearest(points: Point[], targetDay: number, windowDays: number): Point 
   return best;
 }
 
+/**
+ * The reading {@link meetsAlbrektsson} takes as its reference: the one closest to the loading date within
+ * ±`windowDays` (ties → the later reading); null when none is that close.
+ * @throws ValidationError for malformed dates or a negative window
+ */
+export function albrektssonReference(
+  series: BoneLevelReading[],
+  loadingDate: string,
+  windowDays = 90,
+): BoneLevelReading | null {
+  parseIsoDate(loadingDate, 'loadingDate');
+  const window = requireNonNegative(windowDays, 'windowDays');
+  const points = (requireArray(series, 'series') as BoneLevelReading[]).map((r, i) => {
+    parseIsoDate(r.date, `series[${i}].date`);
+    return { date: r.date, t: daysBetween(loadingDate, r.date), level: requireFinite(r.boneLevelMm, `series[${i}]`) };
+  });
+  const ref = nearest(points, 0, window);
+  return ref ? { date: ref.date, boneLevelMm: ref.level } : null;
+}
+
 function slope(points: Point[]): number {
   const xs = points.map((p) => p.t / YEAR_DAYS);
   const ys = points.map((p) => p.level);
@@ -207,8 +227,10 @@ export function meetsAlbrektsson(
   return { meets: firstOk && annualOk, firstYearLossMm, annualLossAfterFirstYearMm, reasons };
 }
 
+/** ICOI Pisa health-scale groups, best first. */
+export const ICOI_GRADES = ['I', 'II', 'III', 'IV'] as const;
 /** ICOI Pisa health-scale group. */
-export type IcoiGrade = 'I' | 'II' | 'III' | 'IV';
+export type IcoiGrade = (typeof ICOI_GRADES)[number];
 
 /** Input of {@link icoiGrade}. */
 export interface IcoiInput {

@@ -97,6 +97,33 @@ describe('package root answers through the public API', () => {
         }),
       'IV',
     ],
+    // bone-level.test.ts: the reference is the reading closest to loading [decision, Albrektsson 1986 [pub]]
+    [
+      'albrektssonReference',
+      () =>
+        domain.albrektssonReference(
+          [
+            { date: '2020-02-01', boneLevelMm: 0.2 },
+            { date: '2020-03-10', boneLevelMm: 0.4 },
+          ],
+          '2020-03-01',
+        ),
+      { date: '2020-03-10', boneLevelMm: 0.4 },
+    ],
+    // bone-level-record.test.ts: the worse side [common practice], tenths, never below 0 [decision]
+    ['worseBoneLevel', () => domain.worseBoneLevel({ mesialMm: 1.2, distalMm: 2.26 }), { mm: 2.26, side: 'distal' }],
+    ['examBoneLevelMm', () => domain.examBoneLevelMm({ mesialMm: 1.2, distalMm: 2.26 }), 2.3],
+    [
+      'boneLevelSummary',
+      () =>
+        domain.boneLevelSummary({
+          readings: [{ date: '2024-01-01', mesialMm: 2.5, distalMm: 1 }],
+          loadedOn: null,
+          implantLengthMm: 10,
+          latestExam: null,
+        }).icoi?.grade,
+      'II',
+    ],
     // restorative-space.test.ts (Carpentieri et al. 2019 [pub], strictest end)
     ['minRestorativeSpaceMm', () => domain.minRestorativeSpaceMm('cement'), 8],
     // restoration-plan.test.ts: a valid cemented single crown gives no finding

@@ -161,7 +161,18 @@ export { meetsAlbrektsson } from './bone-level.js';
 /** ICOI Pisa health-scale group I–IV (Misch 2008). */
 export { icoiGrade } from './bone-level.js';
 /** Albrektsson limits. */
-export { ALBREKTSSON_FIRST_YEAR_MM, ALBREKTSSON_ANNUAL_MM } from './bone-level.js';
+export { ALBREKTSSON_FIRST_YEAR_MM, ALBREKTSSON_ANNUAL_MM, ICOI_GRADES } from './bone-level.js';
+/** The reading meetsAlbrektsson takes as its reference (closest to loading, ±90 days). */
+export { albrektssonReference } from './bone-level.js';
+/** Measured bone levels into the record: the worse side, the exam's value, the series summary. */
+export { worseBoneLevel, examBoneLevelMm, boneLevelSummary } from './bone-level-record.js';
+export type {
+  MeasuredBoneLevel,
+  ExamFindings,
+  BoneLevelSummaryInput,
+  BoneLevelSummary,
+  AllowancePoint,
+} from './bone-level-record.js';
 /** Bone-level types. */
 export type { BoneLevelReading, AlbrektssonOptions, AlbrektssonResult, IcoiGrade, IcoiInput } from './bone-level.js';
 

@@ -1,6 +1,13 @@
 import { Module } from '@nestjs/common';
+import { BoneLevelsController } from './bone-levels.controller.js';
+import { BoneLevelsService } from './bone-levels.service.js';
 import { RadiographsController } from './radiographs.controller.js';
 import { RadiographsService } from './radiographs.service.js';
 
-@Module({ controllers: [RadiographsController], providers: [RadiographsService] })
+// BoneLevelsService is exported for the recall exam form, which offers the latest measured bone level.
+@Module({
+  controllers: [RadiographsController, BoneLevelsController],
+  providers: [RadiographsService, BoneLevelsService],
+  exports: [BoneLevelsService],
+})
 export class RadiographsModule {}

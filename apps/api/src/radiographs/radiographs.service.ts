@@ -275,7 +275,10 @@ export class RadiographsService {
       'radiograph',
     );
     const measurements = await repo.currentMeasurements(this.db, r.id);
-    return { ...toRadiograph(r), measurements: measurements.map(toMeasurement) };
+    const siteImplants = await Promise.all(
+      r.siteIds.map(async (siteId) => ({ siteId, implantLengthMm: await repo.currentImplantLength(this.db, siteId) })),
+    );
+    return { ...toRadiograph(r), measurements: measurements.map(toMeasurement), siteImplants };
   }
 
   /** The stored original or one of its previews, streamed from S3 after the row check. */
@@ -309,7 +312,7 @@ export class RadiographsService {
     );
     if (r.enteredInErrorAt) throw new ConflictException('This radiograph is already marked entered in error');
     await repo.markEnteredInError(this.db, r.id, user.id, reason);
-    const { measurements: _m, ...rest } = await this.detail(ability, scope, id);
+    const { measurements: _m, siteImplants: _s, ...rest } = await this.detail(ability, scope, id);
     return rest;
   }
 

@@ -46,6 +46,7 @@ const examColumns = {
   keratinizedMucosaMm: recallExams.keratinizedMucosaMm,
   residualCement: recallExams.residualCement,
   boneLevelMm: recallExams.boneLevelMm,
+  boneLevelMeasurementId: recallExams.boneLevelMeasurementId,
   isBaseline: recallExams.isBaseline,
   notes: recallExams.notes,
   status: recallExams.status,
@@ -209,6 +210,7 @@ export interface NewExam {
   keratinizedMucosaMm: number | null;
   residualCement: boolean;
   boneLevelMm: number | null;
+  boneLevelMeasurementId: string | null;
   isBaseline: boolean;
   notes: string | null;
   status: PeriImplantStatus;
@@ -339,6 +341,7 @@ export async function findVisibleExam(db: Db, scope: Scope, examId: string) {
       keratinizedMucosaMm: recallExams.keratinizedMucosaMm,
       residualCement: recallExams.residualCement,
       boneLevelMm: recallExams.boneLevelMm,
+      boneLevelMeasurementId: recallExams.boneLevelMeasurementId,
       isBaseline: recallExams.isBaseline,
       notes: recallExams.notes,
       superseded: isAmended(recallExams),

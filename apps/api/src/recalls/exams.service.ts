@@ -7,6 +7,7 @@ import {
   type CreateVisitReply,
   type RecallExam,
   type ExamContext,
+  type SiteBoneLevel,
   type SiteExamHistory,
 } from '@torquetrail/contracts';
 import {
@@ -29,6 +30,7 @@ import { keepAbsent } from '../common/keep-absent.js';
 import { alreadyAmended } from '../common/amendment-conflict.js';
 import { fieldError } from '../common/field-error.js';
 import { DB, type Database, type Tx } from '../db/database.js';
+import { BoneLevelsService } from '../radiographs/bone-levels.service.js';
 import {
   findExamsByIds,
   findPolicy,
@@ -56,6 +58,7 @@ export class ExamsService {
   constructor(
     @Inject(DB) private readonly db: Database,
     private readonly clock: RecallClock,
+    private readonly boneLevels: BoneLevelsService,
   ) {}
 
   async context(ability: AppAbility, scope: Scope, patientId: string): Promise<ExamContext> {
@@ -75,6 +78,7 @@ export class ExamsService {
       this.db,
       sites.map((s) => s.siteId),
     );
+    const measured = await this.boneLevels.latestBySite(sites.map((s) => s.siteId));
     const today = this.clock.today();
     return {
       patient: {
@@ -102,6 +106,7 @@ export class ExamsService {
           deliveredOn: s.deliveredOn,
           baseline: baseline ? toContract(baseline) : null,
           previous: previous ? toContract(previous) : null,
+          measuredBoneLevel: offered(measured.get(s.siteId)),
         };
       }),
     };
@@ -158,6 +163,9 @@ export class ExamsService {
         tx,
         body.exams.map((e) => e.siteId),
       );
+      for (const [i, exam] of body.exams.entries()) {
+        await this.checkBoneLevelSource(exam, exam.siteId, `exams.${i}.`);
+      }
 
       const visitId = randomUUID();
       const ids: string[] = [];
@@ -196,6 +204,7 @@ export class ExamsService {
             keratinizedMucosaMm: exam.keratinizedMucosaMm,
             residualCement: exam.residualCement,
             boneLevelMm: exam.boneLevelMm,
+            boneLevelMeasurementId: exam.boneLevelMeasurementId,
             isBaseline: exam.isBaseline,
             notes: exam.notes || null,
             status: verdict.status,
@@ -256,6 +265,7 @@ export class ExamsService {
       // the unique index on supersedes_id saves the first (insertExamAmendment).
       await lockExamHistory(tx, patient.id);
       const site = (await listSitesForExam(tx, patient.id)).find((s) => s.siteId === old.siteId)!;
+      await this.checkBoneLevelSource(next, old.siteId, '');
       const earlier = (await listExamsOfSites(tx, [site.siteId])).filter((e) => e.id !== old.id);
       const probes = inChartOrder(next.sites);
       const baseline = choosePeriImplantBaseline(
@@ -287,6 +297,7 @@ export class ExamsService {
         keratinizedMucosaMm: next.keratinizedMucosaMm,
         residualCement: next.residualCement,
         boneLevelMm: next.boneLevelMm,
+        boneLevelMeasurementId: next.boneLevelMeasurementId,
         isBaseline: next.isBaseline,
         notes: next.notes || null,
         status: verdict.status,
@@ -303,6 +314,44 @@ export class ExamsService {
       return toContract((await findExamsByIds(tx, [id]))[0]);
     });
   }
+
+  /**
+   * A bone level accepted from a measurement names it: the measurement must be a current one of the
+   * same site, on a radiograph not entered in error, and the value must be the one it offers
+   * (a typed-over value is sent without a source).
+   */
+  private async checkBoneLevelSource(
+    exam: { boneLevelMm: number | null; boneLevelMeasurementId: string | null },
+    siteId: string,
+    prefix: string,
+  ) {
+    if (exam.boneLevelMeasurementId === null) return;
+    const source = await this.boneLevels.currentOfSite(exam.boneLevelMeasurementId, siteId);
+    if (!source) {
+      throw fieldError({
+        [`${prefix}boneLevelMeasurementId`]: 'not a current bone-level measurement of this implant',
+      });
+    }
+    if (exam.boneLevelMm !== source.examBoneLevelMm) {
+      throw fieldError({
+        [`${prefix}boneLevelMm`]: `the measurement gives ${source.examBoneLevelMm} mm; a different value is typed, without a source`,
+      });
+    }
+  }
+}
+
+/** The exam form's offer from the latest measurement of a site. */
+function offered(m: SiteBoneLevel | undefined): ExamContext['sites'][number]['measuredBoneLevel'] {
+  if (!m) return null;
+  return {
+    measurementId: m.measurementId,
+    radiographId: m.radiographId,
+    boneLevelMm: m.examBoneLevelMm,
+    mesialMm: m.mesialMm,
+    distalMm: m.distalMm,
+    takenOn: m.takenOn,
+    measuredBy: m.measuredBy,
+  };
 }
 
 type RecallPatient = NonNullable<Awaited<ReturnType<typeof findVisiblePatientForRecall>>>;

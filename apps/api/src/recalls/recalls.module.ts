@@ -1,4 +1,5 @@
 import { Module } from '@nestjs/common';
+import { RadiographsModule } from '../radiographs/radiographs.module.js';
 import { DeskService } from './desk.service.js';
 import { ExamsService } from './exams.service.js';
 import { MaintenanceStatusService } from './maintenance-status.service.js';
@@ -7,7 +8,9 @@ import { RecallClock } from './recall-clock.js';
 import { RecallsController } from './recalls.controller.js';
 import { RemindersService } from './reminders.service.js';
 
+// RadiographsModule: the exam form offers each site's latest measured bone level.
 @Module({
+  imports: [RadiographsModule],
   controllers: [RecallsController, RecallAdminController],
   providers: [RecallClock, DeskService, ExamsService, RemindersService, MaintenanceStatusService],
   exports: [RecallClock, RemindersService, MaintenanceStatusService],

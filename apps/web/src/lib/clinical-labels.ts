@@ -20,6 +20,7 @@ import {
   type WrenchType,
 } from '@torquetrail/contracts';
 import {
+  type IcoiGrade,
   PERI_IMPLANT_FLAGS,
   type PeriImplantFlag,
   RETIGHTEN_AFTER_MINUTES,
@@ -168,4 +169,12 @@ export const RISK_FACTOR_LABEL: Record<RecallRiskFactor, string> = {
   diabetesPoorlyControlled: 'Poorly controlled diabetes',
   periodontitisHistory: 'History of periodontitis',
   priorPeriImplantitis: 'Prior peri-implantitis',
+};
+
+/** ICOI Pisa health-scale groups (Misch et al. 2008), in the scale's own words. */
+export const ICOI_GRADE_LABEL: Record<IcoiGrade, string> = {
+  I: 'I · success',
+  II: 'II · satisfactory survival',
+  III: 'III · compromised survival',
+  IV: 'IV · failure',
 };

@@ -53,6 +53,7 @@ const LABELS: Record<string, LabelMap> = {
   COMPLICATION_KINDS: clinical.COMPLICATION_KIND_LABEL,
   PROBING_POSITIONS: clinical.PROBING_POSITION_ABBREVIATION,
   RECALL_RISK_FACTORS: clinical.RISK_FACTOR_LABEL,
+  ICOI_GRADES: clinical.ICOI_GRADE_LABEL,
 };
 
 /** Lists whose values are never shown to a person as words, each with the reason. */

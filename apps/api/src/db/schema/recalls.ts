@@ -27,6 +27,7 @@ import {
   reminderStatusEnum,
 } from './enums.js';
 import { patients } from './patients.js';
+import { radiographMeasurements } from './radiographs.js';
 import { practices, users } from './practices.js';
 import { implantSites } from './sites.js';
 
@@ -60,6 +61,8 @@ export const recallExams = pgTable(
     residualCement: boolean('residual_cement').notNull().default(false),
     /** Radiographic bone level, mm apical to the most coronal intra-osseous part, when known. */
     boneLevelMm: numeric('bone_level_mm', { precision: 4, scale: 1, mode: 'number' }),
+    /** The radiograph measurement the bone level was accepted from; null when it was typed. */
+    boneLevelMeasurementId: uuid('bone_level_measurement_id').references(() => radiographMeasurements.id),
     isBaseline: boolean('is_baseline').notNull().default(false),
     notes: text('notes'),
     status: periImplantStatusEnum('status').notNull(),

@@ -1,8 +1,10 @@
 // Radiograph endpoints. The upload uses XMLHttpRequest, not fetch: only XHR reports upload
 // progress in every browser, and it can be cancelled mid-file.
 import {
+  type EnteredInErrorBody,
   ErrorReply,
   Measurement,
+  type MeasurementAmendmentBody,
   type MeasurementBody,
   Radiograph,
   RadiographDetail,
@@ -14,11 +16,14 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { ApiError, apiRequest } from '../../../lib/api-client';
 import { radiographKeys } from './keys';
 
-export const useRadiographs = (patientId: string) =>
+export const useRadiographs = (patientId: string, includeEnteredInError = false) =>
   useQuery({
-    queryKey: radiographKeys.list(patientId),
+    queryKey: radiographKeys.list(patientId, includeEnteredInError),
     queryFn: ({ signal }) =>
-      apiRequest(`/api/patients/${patientId}/radiographs`, { schema: RadiographListReply, signal }),
+      apiRequest(`/api/patients/${patientId}/radiographs?includeEnteredInError=${String(includeEnteredInError)}`, {
+        schema: RadiographListReply,
+        signal,
+      }),
   });
 
 /** The upload's details as the contract parses them. */
@@ -76,11 +81,34 @@ export const useRadiograph = (radiographId: string) =>
     queryFn: ({ signal }) => apiRequest(`/api/radiographs/${radiographId}`, { schema: RadiographDetail, signal }),
   });
 
+// A measurement or a radiograph marked entered in error changes lists, details and bone-level charts.
 export function useMeasure(radiographId: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (body: MeasurementBody) =>
       apiRequest(`/api/radiographs/${radiographId}/measurements`, { method: 'POST', body, schema: Measurement }),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: radiographKeys.detail(radiographId) }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: radiographKeys.all }),
+  });
+}
+
+export function useAmendMeasurement() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: ({ measurementId, body }: { measurementId: string; body: MeasurementAmendmentBody }) =>
+      apiRequest(`/api/radiograph-measurements/${measurementId}/amendments`, {
+        method: 'POST',
+        body,
+        schema: Measurement,
+      }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: radiographKeys.all }),
+  });
+}
+
+export function useMarkEnteredInError(radiographId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (body: EnteredInErrorBody) =>
+      apiRequest(`/api/radiographs/${radiographId}/entered-in-error`, { method: 'POST', body, schema: Radiograph }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: radiographKeys.all }),
   });
 }

@@ -65,7 +65,7 @@ export function UploadPanel({
     handle.done.then(
       () => {
         patch(key, { state: 'done', loaded: file.size });
-        void queryClient.invalidateQueries({ queryKey: radiographKeys.list(patientId) });
+        void queryClient.invalidateQueries({ queryKey: radiographKeys.all });
       },
       (e: unknown) => patch(key, { state: 'failed', message: e instanceof Error ? e.message : 'The upload failed' }),
     );

@@ -1,5 +1,6 @@
 import '../components/radiographs.css';
-import { Card, NonIdealState, Tag } from '@blueprintjs/core';
+import { Card, NonIdealState, Switch, Tag } from '@blueprintjs/core';
+import { useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { Can } from '../../../lib/ability';
 import { BreadcrumbTrail } from '../../../lib/components/breadcrumb-trail';
@@ -15,7 +16,8 @@ export function RadiographsRoute() {
   const { patientId = '' } = useParams();
   const patient = usePatient(patientId);
   const patientName = patient.data ? `${patient.data.givenName} ${patient.data.familyName}` : 'Patient';
-  const list = useRadiographs(patientId);
+  const [showEnteredInError, setShowEnteredInError] = useState(false);
+  const list = useRadiographs(patientId, showEnteredInError);
   return (
     <div className="radiographs-page">
       <title>Radiographs · Torquetrail</title>
@@ -30,6 +32,12 @@ export function RadiographsRoute() {
       <Can I="create" a="Radiograph">
         <UploadPanel patientId={patientId} sites={patient.data?.sites ?? []} />
       </Can>
+      <Switch
+        label="Show entered in error"
+        checked={showEnteredInError}
+        onChange={() => setShowEnteredInError((v) => !v)}
+        data-testid="show-entered-in-error"
+      />
       {list.isPending ? (
         <LoadingState label="Loading radiographs" />
       ) : list.isError ? (
@@ -48,6 +56,11 @@ export function RadiographsRoute() {
               <div>
                 <Tag minimal>{RADIOGRAPH_KIND_LABEL[r.kind]}</Tag> {r.takenOn ?? 'date not known'}
               </div>
+              {r.enteredInError && (
+                <Tag intent="warning" title={r.enteredInError.reason} data-testid="entered-in-error-tag">
+                  Entered in error
+                </Tag>
+              )}
               <small>{RADIOGRAPH_FILE_TYPE_LABEL[r.fileType]}</small>{' '}
               <Link to={`/patients/${patientId}/radiographs/${r.id}`} data-testid="open-viewer">
                 Open viewer

@@ -1,7 +1,7 @@
 // The exam form's live status uses the domain's classifyPeriImplant (Berglundh et al. 2018
 // consensus report); these check the form's wiring: parsing, completeness, the baseline used.
 import { describe, expect, it } from 'vitest';
-import { depthProblem, draftFromExam, emptyDraft, liveVerdict, parseMm } from './live-verdict';
+import { boneLevelSourceId, depthProblem, draftFromExam, emptyDraft, liveVerdict, parseMm } from './live-verdict';
 
 const filled = (depths: string[], bop: number[] = []) => ({
   ...emptyDraft(),
@@ -77,5 +77,18 @@ describe('an amendment starts from the saved exam', () => {
       draft.notes,
       draft.residualCement,
     ]).toEqual(['1', '', '2.5', '', '', true]);
+  });
+});
+
+describe('the bone level accepted from a radiograph measurement', () => {
+  const source = { measurementId: '5d0c8f4e-2f4b-4a55-9d8e-2b1f0c6a7e10', boneLevelMm: 2.9 };
+  it('names its measurement while the field holds the accepted value (decimal comma too)', () => {
+    expect(boneLevelSourceId({ boneLevelMm: '2.9', boneLevelSource: source })).toBe(source.measurementId);
+    expect(boneLevelSourceId({ boneLevelMm: '2,9', boneLevelSource: source })).toBe(source.measurementId);
+  });
+  it("typed over or emptied, the value is the hygienist's own: no source", () => {
+    expect(boneLevelSourceId({ boneLevelMm: '3.0', boneLevelSource: source })).toBeNull();
+    expect(boneLevelSourceId({ boneLevelMm: '', boneLevelSource: source })).toBeNull();
+    expect(boneLevelSourceId({ boneLevelMm: '2.9', boneLevelSource: null })).toBeNull();
   });
 });

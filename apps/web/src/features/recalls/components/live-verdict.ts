@@ -20,6 +20,8 @@ export interface SiteDraft {
   keratinizedMucosaMm: string;
   residualCement: boolean;
   boneLevelMm: string;
+  /** The measurement the bone level was accepted from, while the typed value is still its value. */
+  boneLevelSource: { measurementId: string; boneLevelMm: number } | null;
   isBaseline: boolean;
   notes: string;
 }
@@ -35,9 +37,19 @@ export const emptyDraft = (): SiteDraft => ({
   keratinizedMucosaMm: '',
   residualCement: false,
   boneLevelMm: '',
+  boneLevelSource: null,
   isBaseline: false,
   notes: '',
 });
+
+/**
+ * The measurement a bone level came from: only while the field still holds the accepted value (a
+ * value typed over is the hygienist's own, sent without a source).
+ */
+export function boneLevelSourceId(draft: Pick<SiteDraft, 'boneLevelMm' | 'boneLevelSource'>): string | null {
+  const source = draft.boneLevelSource;
+  return source && parseMm(draft.boneLevelMm) === source.boneLevelMm ? source.measurementId : null;
+}
 
 /** A typed number ("3", "3.5", "3,5"), or undefined when empty or not a number. */
 export function parseMm(text: string): number | undefined {
@@ -105,6 +117,10 @@ export function draftFromExam(exam: RecallExam): SiteDraft {
     keratinizedMucosaMm: text(exam.keratinizedMucosaMm),
     residualCement: exam.residualCement,
     boneLevelMm: text(exam.boneLevelMm),
+    boneLevelSource:
+      exam.boneLevelMeasurementId !== null && exam.boneLevelMm !== null
+        ? { measurementId: exam.boneLevelMeasurementId, boneLevelMm: exam.boneLevelMm }
+        : null,
     isBaseline: exam.isBaseline,
     notes: exam.notes ?? '',
   };

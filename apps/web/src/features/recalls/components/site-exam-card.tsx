@@ -6,7 +6,8 @@ import { formatDate } from '../../../lib/dates';
 import { SITE_STATUS_LABEL } from '../../../lib/labels';
 import { FieldError, FormField, useFieldError, withInputRef } from '../../../lib/forms';
 import { MaintenanceStatusLabel } from '../../../lib/maintenance-status';
-import { depthProblem, liveVerdict, type SiteDraft } from './live-verdict';
+import { boneLevelSourceId, depthProblem, liveVerdict, type SiteDraft } from './live-verdict';
+import { MeasuredBoneLevel } from './measured-bone-level';
 
 type Site = ExamContext['sites'][number];
 
@@ -64,7 +65,7 @@ export function SiteExamCard({
   amending?: boolean;
 }) {
   const fdi = site.fdi;
-  const { control, register } = useFormContext();
+  const { control, register, setValue } = useFormContext();
   const draft = useWatch({ control, name }) as SiteDraft;
   const verdict = draft.include ? liveVerdict(draft, site.baseline) : null;
   const field = (key: string) => register(`${name}.${key}`);
@@ -151,6 +152,19 @@ export function SiteExamCard({
             </div>
             <FieldError as="div" className="field-error" name={`${errorPrefix}keratinizedMucosaMm`} />
             <FieldError as="div" className="field-error" name={`${errorPrefix}boneLevelMm`} />
+            <MeasuredBoneLevel
+              offer={site.measuredBoneLevel}
+              fdi={fdi}
+              accepted={boneLevelSourceId(draft) !== null}
+              onAccept={(offer) => {
+                setValue(`${name}.boneLevelMm`, String(offer.boneLevelMm), { shouldDirty: true });
+                setValue(`${name}.boneLevelSource`, {
+                  measurementId: offer.measurementId,
+                  boneLevelMm: offer.boneLevelMm,
+                });
+              }}
+            />
+            <FieldError as="div" className="field-error" name={`${errorPrefix}boneLevelMeasurementId`} />
             <FormField name={`${errorPrefix}notes`} label="Notes" labelFor={`notes-${fdi}`}>
               <TextArea id={`notes-${fdi}`} fill {...withInputRef(field('notes'))} />
             </FormField>

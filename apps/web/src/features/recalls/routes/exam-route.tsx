@@ -29,7 +29,7 @@ import { MAINTENANCE_NOTE } from '../../../lib/labels';
 import { MaintenanceStatusLabel } from '../../../lib/maintenance-status';
 import { useAmendExam, useCreateVisit, useExamContext } from '../api/recalls-api';
 import { CaseDefinitions } from '../components/case-definitions';
-import { draftFromExam, emptyDraft, parseMm, type SiteDraft } from '../components/live-verdict';
+import { boneLevelSourceId, draftFromExam, emptyDraft, parseMm, type SiteDraft } from '../components/live-verdict';
 import { SiteExamCard } from '../components/site-exam-card';
 
 const num = (text: string) => (text.trim() === '' ? null : (parseMm(text) ?? Number.NaN));
@@ -49,6 +49,7 @@ function toExamInput(d: SiteDraft) {
     keratinizedMucosaMm: num(d.keratinizedMucosaMm),
     residualCement: d.residualCement,
     boneLevelMm: num(d.boneLevelMm),
+    boneLevelMeasurementId: boneLevelSourceId(d),
     isBaseline: d.isBaseline,
     notes: d.notes.trim() || null,
   };

@@ -13,7 +13,7 @@ import { SiteFileHeader } from '../components/site-file-header';
 import { Stack } from '../components/stack';
 import { Timeline } from '../../timeline';
 import { ProbingDepthChart } from '../../recalls';
-import { SiteRadiographs } from '../../radiographs';
+import { BoneLevelChart, SiteRadiographs } from '../../radiographs';
 
 /** /patients/:patientId/sites/:siteId: one implant, its header and its Stack. */
 export function SiteFileRoute() {
@@ -79,6 +79,7 @@ export function SiteFileRoute() {
       </p>
       <Timeline siteId={data.id} parts={data.parts} />
       <ProbingDepthChart siteId={data.id} />
+      <BoneLevelChart siteId={data.id} patientId={data.patientId} />
       <SiteRadiographs patientId={data.patientId} siteId={data.id} />
     </div>
   );

@@ -1,0 +1,2 @@
+ALTER TABLE "recall_exams" ADD COLUMN "bone_level_measurement_id" uuid;--> statement-breakpoint
+ALTER TABLE "recall_exams" ADD CONSTRAINT "recall_exams_bone_level_measurement_id_radiograph_measurements_id_fk" FOREIGN KEY ("bone_level_measurement_id") REFERENCES "public"."radiograph_measurements"("id") ON DELETE no action ON UPDATE no action;
