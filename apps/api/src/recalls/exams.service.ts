@@ -259,6 +259,8 @@ export class ExamsService {
     if (old.superseded) throw alreadyAmended('recall_exams');
     // What the amendment leaves out stays as it was.
     const next = keepAbsent(AmendExamSchema, body, old);
+    // The source belongs to the value it gave: a bone level typed anew without one has none.
+    if (body.boneLevelMm !== undefined && body.boneLevelMeasurementId === undefined) next.boneLevelMeasurementId = null;
     const patient = await findVisiblePatientForRecall(this.db, scope, old.patientId);
     return this.db.transaction(async (tx) => {
       // The history lock keeps the rescheduling to one at a time; of two amendments of one exam
