@@ -6,6 +6,8 @@ import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
 import { assertAmendable } from '../common/amendment-conflict.js';
 import { fieldError } from '../common/field-error.js';
+import { reportChange } from '../common/audit-context.js';
+import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database } from '../db/database.js';
 import * as repo from './complications.repository.js';
 
@@ -39,7 +41,7 @@ export class ComplicationsService {
     );
     this.checkDate(body.occurredOn);
     await this.checkPart(body.siteId, body.componentInstanceId);
-    const id = await repo.insertComplication(this.db, {
+    const values = {
       practiceId: site.practiceId,
       patientId: site.patientId,
       siteId: site.id,
@@ -48,6 +50,11 @@ export class ComplicationsService {
       occurredOn: body.occurredOn,
       notes: body.notes,
       recordedBy: user.id,
+    };
+    const id = await auditedTransaction(this.db, async (tx) => {
+      const newId = await repo.insertComplication(tx, values);
+      reportChange({ type: 'Complication', id: newId, patientId: site.patientId, after: values });
+      return newId;
     });
     return repo.loadComplication(this.db, id);
   }
@@ -70,7 +77,7 @@ export class ComplicationsService {
     this.checkDate(body.occurredOn);
     await this.checkPart(found.siteId, body.componentInstanceId);
     // Of two concurrent amendments of one entry the database saves the first (insertAmendment).
-    const newId = await repo.insertComplicationAmendment(this.db, {
+    const values = {
       practiceId: found.practiceId,
       patientId: found.patientId,
       siteId: found.siteId,
@@ -81,6 +88,11 @@ export class ComplicationsService {
       supersedesId: found.id,
       amendmentReason: body.amendmentReason,
       recordedBy: user.id,
+    };
+    const newId = await auditedTransaction(this.db, async (tx) => {
+      const inserted = await repo.insertComplicationAmendment(tx, values);
+      reportChange({ type: 'Complication', id: inserted, patientId: found.patientId, before: found, after: values });
+      return inserted;
     });
     return repo.loadComplication(this.db, newId);
   }

@@ -27,6 +27,8 @@ import type { z } from 'zod';
 import { assertCan, type Scope } from '../authz/scope.js';
 import { alreadyAmended } from '../common/amendment-conflict.js';
 import { fieldError } from '../common/field-error.js';
+import { reportChange } from '../common/audit-context.js';
+import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database, type Tx } from '../db/database.js';
 import {
   findExamsByIds,
@@ -140,7 +142,9 @@ export class ExamsService {
     );
     if (body.examinedOn > this.clock.today()) throw fieldError({ examinedOn: 'an exam cannot be dated in the future' });
 
-    return this.db.transaction(async (tx) => {
+    return auditedTransaction(this.db, async (tx) => {
+      // A visit is several exams: the audit row names the patient, the visit's first exam and the whole body.
+      reportChange({ type: 'RecallExam', patientId: patient.id, after: body });
       // Serialise visits of one patient before reading their history, so two saves cannot both
       // schedule a recall or choose a baseline from exams the other is adding.
       await lockExamHistory(tx, patient.id);
@@ -208,6 +212,7 @@ export class ExamsService {
         );
       }
 
+      reportChange({ type: 'RecallExam', id: ids[0] });
       const nextRecall = await this.reschedule(tx, patient, visitId, anyPeriImplantitis);
       return {
         visitId,
@@ -248,7 +253,8 @@ export class ExamsService {
     const old = assertCan(ability, 'amend', 'RecallExam', await findVisibleExam(this.db, scope, examId), 'exam');
     if (old.superseded) throw alreadyAmended('recall_exams');
     const patient = await findVisiblePatientForRecall(this.db, scope, old.patientId);
-    return this.db.transaction(async (tx) => {
+    return auditedTransaction(this.db, async (tx) => {
+      reportChange({ type: 'RecallExam', patientId: old.patientId, before: old, after: body });
       // The history lock keeps the rescheduling to one at a time; of two amendments of one exam
       // the unique index on supersedes_id saves the first (insertExamAmendment).
       await lockExamHistory(tx, patient.id);
@@ -296,6 +302,7 @@ export class ExamsService {
         supersedesId: old.id,
         amendmentReason: body.amendmentReason,
       });
+      reportChange({ type: 'RecallExam', id });
       await this.reschedule(tx, patient, old.visitId, false);
       return toContract((await findExamsByIds(tx, [id]))[0]);
     });

@@ -2,6 +2,8 @@
 // wraps the domain's and authz's lists), so the database, the contract and the rules cannot drift.
 // The order of each list is the order of the PostgreSQL enum: append new values, never reorder.
 import {
+  AUDIT_ACTIONS,
+  AUDIT_OUTCOMES,
   COMPLICATION_KINDS,
   COMPONENT_KINDS,
   CONNECTIONS,
@@ -52,3 +54,5 @@ export const reminderKindEnum = pgEnum('reminder_kind', REMINDER_KINDS);
 export const reminderStatusEnum = pgEnum('reminder_status', REMINDER_STATUSES);
 export const radiographFileTypeEnum = pgEnum('radiograph_file_type', RADIOGRAPH_FILE_TYPES);
 export const radiographKindEnum = pgEnum('radiograph_kind', RADIOGRAPH_KINDS);
+export const auditActionEnum = pgEnum('audit_action', AUDIT_ACTIONS);
+export const auditOutcomeEnum = pgEnum('audit_outcome', AUDIT_OUTCOMES);
