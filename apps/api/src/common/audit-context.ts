@@ -30,6 +30,7 @@ interface OpenedRecord {
   type: string;
   id?: string;
   patientId?: string;
+  practiceId?: string;
 }
 
 /** What a service reports about its change: which record, and its state before and after. */
@@ -84,10 +85,15 @@ export function runInAudit<T>(context: AuditContext, fn: () => T): T {
 }
 
 /** Called by `assertCan` for every row it lets through: the records (and patient) a request opened. */
-export function noteOpened(type: string, row: { id?: string; patientId?: string }): void {
+export function noteOpened(type: string, row: { id?: string; patientId?: string; practiceId?: string }): void {
   const context = storage.getStore();
   if (!context || context.opened.length >= 20) return;
-  context.opened.push({ type, id: row.id, patientId: type === 'Patient' ? row.id : row.patientId });
+  context.opened.push({
+    type,
+    id: row.id,
+    patientId: type === 'Patient' ? row.id : row.patientId,
+    practiceId: row.practiceId,
+  });
 }
 
 /** A service names the record it changed, with its state before and after (called inside the transaction). */
@@ -113,11 +119,14 @@ const uuidOrNull = (value: string | undefined) => (value && UUID.test(value) ? v
 export function auditValues(context: AuditContext, outcome: AuditOutcome, httpStatus: number): AuditEventValues {
   const { plan, change, actor } = context;
   const first = context.opened[0];
-  const patientId = change?.patientId ?? context.opened.find((r) => r.patientId)?.patientId;
+  const ofPatient = context.opened.find((r) => r.patientId);
+  const patientId = change?.patientId ?? ofPatient?.patientId;
   // The record: what the service reported; else the first row opened (a read, or the row amended).
   const record = change ?? (first && (plan.action !== 'create' || first.type === plan.recordType) ? first : null);
   return {
-    practiceId: actor?.practiceId ?? null,
+    // The practice whose record it is (a surgeon's read of a shared patient is in the patient's
+    // practice's trail, where "who accessed this record" finds it); else the actor's own.
+    practiceId: ofPatient?.practiceId ?? actor?.practiceId ?? null,
     userId: actor?.userId ?? null,
     role: actor?.role ?? null,
     action: outcome === 'allowed' || plan.action !== 'sign-in' ? plan.action : 'sign-in-failed',

@@ -6,15 +6,18 @@ import { practices, users } from './practices.js';
 /**
  * The audit trail (issue 11): one row per read of patient data, per export, per change and per
  * sign-in. Append-only: the application's database role may INSERT and SELECT here, nothing else
- * (migration 0012_app-role and docs/security.md). Who, role and practice are copied at the time of the
- * event, so a later role change does not rewrite history.
+ * (migration 0012_app-role and docs/security.md). Who and their role are copied at the time of
+ * the event, so a later role change does not rewrite history.
  */
 export const auditEvents = pgTable(
   'audit_events',
   {
     id: uuid('id').primaryKey().defaultRandom(),
     at: timestamp('at', { withTimezone: true }).notNull().defaultNow(),
-    /** Null only when nobody could be named (a failed sign-in with an unknown e-mail). */
+    /**
+     * Whose trail the row is in: the practice of the patient record it touched, else the user's
+     * own practice. Null only when nobody could be named (a failed sign-in of an unknown e-mail).
+     */
     practiceId: uuid('practice_id').references(() => practices.id),
     userId: uuid('user_id').references(() => users.id),
     role: roleEnum('role'),
