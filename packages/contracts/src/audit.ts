@@ -55,6 +55,12 @@ export const AuditPage = z.object({
 });
 export type AuditPage = z.infer<typeof AuditPage>;
 
+/** The practice's trail, with its people for the user filter. */
+export const PracticeAuditPage = AuditPage.extend({
+  people: z.array(z.object({ id: Id, name: z.string(), role: Role })),
+});
+export type PracticeAuditPage = z.infer<typeof PracticeAuditPage>;
+
 export const auditRoutes: RouteContract[] = [
   {
     method: 'get',
@@ -62,7 +68,7 @@ export const auditRoutes: RouteContract[] = [
     summary: "The practice's audit trail, newest first, filtered by patient, user, action and dates (practice admin)",
     signedIn: true,
     query: AuditQuery,
-    reply: AuditPage,
+    reply: PracticeAuditPage,
   },
   {
     method: 'get',

@@ -1,7 +1,13 @@
 import { Controller, Get, HttpStatus, Param, ParseUUIDPipe, Query, StreamableFile } from '@nestjs/common';
 import { Readable } from 'node:stream';
 import type { AppAbility } from '@torquetrail/authz';
-import { AuditCsvQuery, type AuditPage, AuditQuery, PatientAuditQuery } from '@torquetrail/contracts';
+import {
+  AuditCsvQuery,
+  type AuditPage,
+  AuditQuery,
+  PatientAuditQuery,
+  type PracticeAuditPage,
+} from '@torquetrail/contracts';
 import type { SessionUser } from '../auth/session-user.js';
 import { Allow } from '../authz/check-ability.decorator.js';
 import { scopeOf } from '../authz/scope.js';
@@ -19,7 +25,7 @@ export class AuditController {
   page(
     @CurrentUser() user: SessionUser,
     @Query(new ZodValidationPipe(AuditQuery)) query: AuditQuery,
-  ): Promise<AuditPage> {
+  ): Promise<PracticeAuditPage> {
     return this.audit.practicePage(scopeOf(user), query);
   }
 

@@ -72,3 +72,12 @@ export async function findPracticePatient(db: Db, practiceId: string, id: string
     .where(and(eq(patients.id, id), eq(patients.practiceId, practiceId)));
   return row ? { ...row, patientId: row.id } : null;
 }
+
+/** The practice's people, for the Audit page's user filter. */
+export function listPracticePeople(db: Db, practiceId: string) {
+  return db
+    .select({ id: users.id, name: users.displayName, role: users.role })
+    .from(users)
+    .where(eq(users.practiceId, practiceId))
+    .orderBy(users.displayName);
+}

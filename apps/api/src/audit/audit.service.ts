@@ -1,10 +1,23 @@
 import { Inject, Injectable } from '@nestjs/common';
 import type { AppAbility } from '@torquetrail/authz';
-import type { AuditCsvQuery, AuditEvent, AuditPage, AuditQuery, PatientAuditQuery } from '@torquetrail/contracts';
+import type {
+  AuditCsvQuery,
+  AuditEvent,
+  AuditPage,
+  AuditQuery,
+  PatientAuditQuery,
+  PracticeAuditPage,
+} from '@torquetrail/contracts';
 import { assertCan, type Scope } from '../authz/scope.js';
 import { csvLine } from '../common/csv.js';
 import { DB, type Database } from '../db/database.js';
-import { type AuditEventRow, type AuditFilter, findPracticePatient, listAuditEvents } from './audit.repository.js';
+import {
+  type AuditEventRow,
+  type AuditFilter,
+  findPracticePatient,
+  listAuditEvents,
+  listPracticePeople,
+} from './audit.repository.js';
 
 /** Rows read per query while the CSV streams: memory stays flat however long the trail. */
 const CSV_BATCH = 500;
@@ -47,9 +60,13 @@ export class AuditService {
   }
 
   /** The practice's trail (the practice admin's: the route's @Allow says so). */
-  practicePage(scope: Scope, query: AuditQuery): Promise<AuditPage> {
+  async practicePage(scope: Scope, query: AuditQuery): Promise<PracticeAuditPage> {
     const { before: _b, pageSize: _p, ...filters } = query;
-    return this.page({ ...filters, practiceId: scope.practiceId }, query);
+    const [page, people] = await Promise.all([
+      this.page({ ...filters, practiceId: scope.practiceId }, query),
+      listPracticePeople(this.db, scope.practiceId),
+    ]);
+    return { ...page, people };
   }
 
   /** Who accessed one patient's record: that patient's rows, for the dentist and the admin. */

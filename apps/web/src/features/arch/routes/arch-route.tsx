@@ -10,6 +10,7 @@ import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
 import { MAINTENANCE_NOTE } from '../../../lib/labels';
 import { useToothSystem } from '../../../lib/tooth-system';
+import { PatientAccessLog } from '../../audit';
 import { usePatient } from '../../patients';
 import { AddSiteControl } from '../components/add-site-control';
 import { ArchDrawing } from '../components/arch-drawing';
@@ -130,6 +131,9 @@ export function ArchRoute() {
           </>
         )}
       </section>
+      <Can I="read" this={subject('PatientAudit', { practiceId: data.practiceId, patientId: data.id })}>
+        <PatientAccessLog patientId={data.id} />
+      </Can>
     </div>
   );
 }
