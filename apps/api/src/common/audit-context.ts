@@ -108,9 +108,16 @@ export function reportActor(actor: AuditActor | null): void {
   if (context && actor) context.actor = actor;
 }
 
-/** A plain JSON copy: Express's query objects have no prototype, and dates become ISO text. */
+/**
+ * A plain JSON copy: Express's query objects have no prototype, and dates become ISO text. A lone
+ * surrogate becomes U+FFFD, as it does in a text column: jsonb refuses its escape.
+ */
 const asJson = <T>(value: T): T | null =>
-  value === undefined || value === null ? null : JSON.parse(JSON.stringify(value));
+  value === undefined || value === null
+    ? null
+    : (JSON.parse(JSON.stringify(value), (_key, v: unknown) =>
+        typeof v === 'string' ? v.replace(/\p{Cs}/gu, '\uFFFD') : v,
+      ) as T);
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 const uuidOrNull = (value: string | undefined) => (value && UUID.test(value) ? value : null);
