@@ -88,6 +88,8 @@ export const AUDIT_EXPECTATIONS: Record<string, Audited | null> = {
  * listed in NOT_A_ROW.
  */
 const RECORD_TABLES: Record<string, string> = {
+  Patient: 'patients',
+  Share: 'patient_shares',
   ImplantSite: 'implant_sites',
   Placement: 'placements',
   Restoration: 'restorations',
