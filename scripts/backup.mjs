@@ -1,6 +1,6 @@
 // `npm run backup [-- --out DIR]`: a pg_dump (custom format) of the database and a copy of the
 // bucket's objects, with a manifest of SHA-256 hashes and row counts, in a dated folder
-// (default .local/backups/<UTC time>). It reads DATABASE_URL and S3_* like the API; without
+// (default .local/backups/<UTC time>). It reads MIGRATION_DATABASE_URL (the owner) and S3_*; without
 // them it backs up this checkout's local installation (starting its services when needed).
 import path from 'node:path';
 import { parseArgs } from 'node:util';

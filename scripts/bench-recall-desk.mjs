@@ -6,7 +6,7 @@
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { apiEnvironment, repoRoot, s3 } from './lib/config.mjs';
-import { nodeScript } from './lib/bootstrap.mjs';
+import { migrateDatabase } from './lib/bootstrap.mjs';
 import { ensureDatabase } from './lib/postgres.mjs';
 import { startServices } from './services.mjs';
 
@@ -23,7 +23,7 @@ const env = apiEnvironment({
   jwtSecret: 'bench-only-secret-bench-only-secret-0123',
   port: 0,
 });
-await nodeScript('apps/api/dist/db/migrate.js', env);
+await migrateDatabase(DATABASE, env);
 
 const { createPool, createDatabase } = await import(dist('db/database.js'));
 const { queryDesk } = await import(dist('recalls/desk.repository.js'));

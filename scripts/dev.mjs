@@ -3,7 +3,7 @@
 import { spawn } from 'node:child_process';
 import path from 'node:path';
 import { apiEnvironment, app, pg, repoRoot, s3 } from './lib/config.mjs';
-import { buildAll, ensureDependencies, localJwtSecret, nodeScript } from './lib/bootstrap.mjs';
+import { buildAll, ensureDependencies, localJwtSecret, nodeScript, migrateDatabase } from './lib/bootstrap.mjs';
 
 await ensureDependencies();
 const { startServices } = await import('./services.mjs');
@@ -17,7 +17,7 @@ const env = {
   NODE_ENV: 'development',
   WEB_DIST: '',
 };
-await nodeScript('apps/api/dist/db/migrate.js', env);
+await migrateDatabase(pg.database, env);
 await nodeScript('apps/api/dist/seed/seed.js', env);
 
 const children = [

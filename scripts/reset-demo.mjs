@@ -3,7 +3,7 @@
 // database is lost; `--yes` answers for scripts. Needs a prior build (npm start or npm run build).
 import readline from 'node:readline/promises';
 import { apiEnvironment, app, pg, s3 } from './lib/config.mjs';
-import { localJwtSecret, nodeScript } from './lib/bootstrap.mjs';
+import { localJwtSecret, nodeScript, migrateDatabase } from './lib/bootstrap.mjs';
 import { startServices } from './services.mjs';
 import { ensureDatabase } from './lib/postgres.mjs';
 
@@ -31,7 +31,7 @@ try {
   await startServices();
   await ensureDatabase(pg.database, { fresh: true });
   const env = apiEnvironment({ database: pg.database, bucket: s3.bucket, jwtSecret: localJwtSecret(), port: app.port });
-  await nodeScript('apps/api/dist/db/migrate.js', env);
+  await migrateDatabase(pg.database, env);
   await nodeScript('apps/api/dist/seed/seed.js', env);
 } catch (error) {
   console.error(`demo:reset failed: ${error.message}`);

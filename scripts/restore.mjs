@@ -1,7 +1,7 @@
 // `npm run restore -- FOLDER [--force] [--database NAME] [--bucket NAME]`: restores a backup made
 // by `npm run backup` after checking every hash in its manifest. The target database and bucket
 // must be empty (a missing local database or bucket is created); `--force` overwrites a non-empty
-// one. It reads DATABASE_URL and S3_* like the API; without them it restores into this checkout's
+// one. It reads MIGRATION_DATABASE_URL (the owner) and S3_*; without them it restores into this checkout's
 // local installation, or into the local database and bucket named by --database and --bucket.
 import path from 'node:path';
 import { parseArgs } from 'node:util';

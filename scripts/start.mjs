@@ -4,7 +4,7 @@
 import { spawn } from 'node:child_process';
 import path from 'node:path';
 import { apiEnvironment, app, mail, pg, repoRoot, s3 } from './lib/config.mjs';
-import { buildAll, ensureDependencies, localJwtSecret, nodeScript } from './lib/bootstrap.mjs';
+import { buildAll, ensureDependencies, localJwtSecret, nodeScript, migrateDatabase } from './lib/bootstrap.mjs';
 import { portOpen } from './lib/proc.mjs';
 
 async function main() {
@@ -18,7 +18,7 @@ async function main() {
     ...apiEnvironment({ database: pg.database, bucket: s3.bucket, jwtSecret: localJwtSecret(), port: app.port }),
     NODE_ENV: 'development',
   };
-  await nodeScript('apps/api/dist/db/migrate.js', env);
+  await migrateDatabase(pg.database, env);
   await nodeScript('apps/api/dist/seed/seed.js', env);
   if (await portOpen(app.port)) throw new Error(`port ${app.port} on 127.0.0.1 is taken; start with PORT=… npm start`);
 

@@ -6,8 +6,8 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import { randomBytes } from 'node:crypto';
-import { apiEnvironment, pg, repoRoot, s3 } from './lib/config.mjs';
-import { nodeScript } from './lib/bootstrap.mjs';
+import { apiEnvironment, ownerEnvironment, pg, repoRoot, s3 } from './lib/config.mjs';
+import { migrateDatabase } from './lib/bootstrap.mjs';
 import { run } from './lib/proc.mjs';
 import { startServices } from './services.mjs';
 import { ensureDatabase } from './lib/postgres.mjs';
@@ -24,6 +24,8 @@ if (!fs.existsSync(path.join(repoRoot, 'apps/api/dist/db/migrate.js'))) {
 const database = process.env.TT_TEST_DB ?? pg.testDatabase;
 const env = {
   ...apiEnvironment({ database, bucket: s3.testBucket, jwtSecret: randomBytes(48).toString('base64url'), port: 0 }),
+  // For the tests' own set-up (emptying tables, backup and restore); the app under test never reads it.
+  ...ownerEnvironment(database),
   NODE_ENV: 'test',
   CHROMIUM_PATH: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
 };
@@ -31,7 +33,7 @@ try {
   if (tier !== 'unit') {
     await startServices();
     await ensureDatabase(database, { fresh: true });
-    await nodeScript('apps/api/dist/db/migrate.js', env);
+    await migrateDatabase(database, env);
   }
   await run(
     process.execPath,

@@ -6,8 +6,8 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { randomBytes } from 'node:crypto';
 import { spawn } from 'node:child_process';
-import { apiEnvironment, localDir, pg, repoRoot, s3 } from './lib/config.mjs';
-import { buildAll, ensureChromium, ensureDependencies, nodeScript, typecheckAll } from './lib/bootstrap.mjs';
+import { apiEnvironment, localDir, ownerEnvironment, pg, repoRoot, s3 } from './lib/config.mjs';
+import { buildAll, ensureChromium, ensureDependencies, typecheckAll, migrateDatabase } from './lib/bootstrap.mjs';
 import { runLint } from './lint.mjs';
 
 const tiers = ['unit', 'api', 'browser'];
@@ -70,11 +70,13 @@ async function main() {
       jwtSecret: randomBytes(48).toString('base64url'),
       port: 0,
     }),
+    // For the tests' own set-up (emptying tables, backup and restore); the app under test never reads it.
+    ...ownerEnvironment(pg.testDatabase),
     NODE_ENV: 'test',
     CHROMIUM_PATH: chromium,
   };
   // The test database is migrated by the same command production uses.
-  await nodeScript('apps/api/dist/db/migrate.js', env);
+  await migrateDatabase(pg.testDatabase, env);
 
   fs.mkdirSync(resultsDir, { recursive: true });
   // A broken house rule fails the run, but the tiers still run so every failure is seen at once.

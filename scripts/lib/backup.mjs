@@ -26,7 +26,11 @@ const COUNTED_SCHEMAS = ['public', 'drizzle'];
 
 export class BackupError extends Error {}
 
-/** The connection settings from the same environment variables the API reads. */
+/**
+ * The connection settings from the same environment variables the API reads, except that the
+ * database is the owner's (MIGRATION_DATABASE_URL): the API's role may not read the migration
+ * journal nor restore anything.
+ */
 export function targetFromEnv(env) {
   // The SDK is pinned to the last line that supports Node 20 (DEVELOPERS.md); silence its notice.
   process.env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED ??= 'true';
@@ -34,7 +38,7 @@ export function targetFromEnv(env) {
     if (!env[key]) throw new BackupError(`${key} is not set`);
   }
   return {
-    databaseUrl: env.DATABASE_URL,
+    databaseUrl: env.MIGRATION_DATABASE_URL ?? env.DATABASE_URL,
     bucket: env.S3_BUCKET,
     s3: new S3Client({
       endpoint: env.S3_ENDPOINT,
@@ -183,6 +187,17 @@ function emptyDatabase(databaseUrl) {
   });
 }
 
+/**
+ * The dump carries no grants (--no-acl), so the API's role gets its rights again from the function
+ * the migrations made (drizzle/0014_app-role.sql); a backup from before that migration has none.
+ */
+function grantAppRole(databaseUrl) {
+  return withClient(databaseUrl, async (client) => {
+    const found = await client.query(`select to_regprocedure('public.torquetrail_grant_app_role()') is not null as ok`);
+    if (found.rows[0].ok) await client.query('select public.torquetrail_grant_app_role()');
+  });
+}
+
 async function bucketIsEmpty(s3, bucket) {
   try {
     await s3.send(new HeadBucketCommand({ Bucket: bucket }));
@@ -223,6 +238,7 @@ export async function restore({ databaseUrl, s3, bucket }, dir, { force = false,
   const args = ['--no-owner', '--no-acl', '--exit-on-error', '--single-transaction', `--dbname=${dbname}`];
   const restored = capture(pgProgram('pg_restore'), [...args, path.join(dir, manifest.database.file)], { env });
   if (restored.status !== 0) throw new BackupError(`pg_restore failed: ${restored.stderr.trim()}`);
+  await grantAppRole(databaseUrl);
 
   for (const object of manifest.bucket.objects) {
     const file = path.join(dir, 'objects', object.sha256);

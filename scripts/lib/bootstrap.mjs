@@ -4,7 +4,8 @@ import { createHash, randomBytes } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 import { isRoot, run } from './proc.mjs';
-import { localDir, repoRoot } from './config.mjs';
+import { localDir, ownerEnvironment, repoRoot } from './config.mjs';
+import { ensureAppLogin } from './postgres.mjs';
 
 const npm = process.platform === 'win32' ? 'npm.cmd' : 'npm';
 
@@ -70,4 +71,13 @@ export function localJwtSecret() {
 
 export function nodeScript(script, env) {
   return run(process.execPath, [path.join(repoRoot, script)], { cwd: repoRoot, env: { ...process.env, ...env } });
+}
+
+/**
+ * Migrates `database` as the owner (the production migrator, apps/api/dist/db/migrate.js), then
+ * lets the API's role sign in locally. `env` is the API's environment for that database.
+ */
+export async function migrateDatabase(database, env) {
+  await nodeScript('apps/api/dist/db/migrate.js', { ...env, ...ownerEnvironment(database) });
+  await ensureAppLogin();
 }

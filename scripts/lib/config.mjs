@@ -21,9 +21,13 @@ export const host = '127.0.0.1';
 
 export const pg = {
   port: port('TT_PG_PORT', 54329),
+  // The owner: creates the cluster, runs migrations, seeds and backs up. The API never gets it.
   user: 'torquetrail',
-  // A local, loopback-only development cluster; the password only keeps other local users out.
+  // A local, loopback-only development cluster; the passwords only keep other local users out.
   password: process.env.TT_PG_PASSWORD ?? 'torquetrail-local',
+  // The API's own role, made by migration 0014_app-role: no UPDATE or DELETE on the audit trail.
+  appUser: 'torquetrail_app',
+  appPassword: process.env.TT_PG_APP_PASSWORD ?? 'torquetrail-app-local',
   database: 'torquetrail',
   testDatabase: 'torquetrail_test',
 };
@@ -45,8 +49,16 @@ export const mail = {
 
 export const app = { port: port('PORT', 3000, 0) };
 
-function databaseUrl(database) {
-  return `postgres://${pg.user}:${encodeURIComponent(pg.password)}@${host}:${pg.port}/${database}`;
+function databaseUrl(database, user = pg.appUser, password = pg.appPassword) {
+  return `postgres://${user}:${encodeURIComponent(password)}@${host}:${pg.port}/${database}`;
+}
+
+/**
+ * The owner's connection, for what the API must not do itself: migrations, emptying the test
+ * database, backup and restore. Scripts pass it as MIGRATION_DATABASE_URL, never to the API.
+ */
+export function ownerEnvironment(database) {
+  return { MIGRATION_DATABASE_URL: databaseUrl(database, pg.user, pg.password) };
 }
 
 /** Environment for the API process, pointing at the loopback services. */

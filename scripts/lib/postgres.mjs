@@ -156,6 +156,28 @@ export function stopPostgres() {
   console.log(stop.status === 0 ? '[postgres] stopped' : `[postgres] stop: ${stop.stderr.trim()}`);
 }
 
+/**
+ * Lets the API's role (made by the migrations, without a login) sign in with this checkout's
+ * local password. Run after migrating; a deployment sets its own password (docs/deployment.md).
+ */
+export async function ensureAppLogin() {
+  const { default: pgClient } = await import('pg');
+  const client = new pgClient.Client({
+    host,
+    port: pg.port,
+    user: pg.user,
+    password: pg.password,
+    database: 'postgres',
+  });
+  await client.connect();
+  try {
+    const password = client.escapeLiteral(pg.appPassword);
+    await client.query(`ALTER ROLE ${client.escapeIdentifier(pg.appUser)} WITH LOGIN PASSWORD ${password}`);
+  } finally {
+    await client.end();
+  }
+}
+
 /** Creates a database when missing (and drops it first when `fresh`). */
 export async function ensureDatabase(name, { fresh = false } = {}) {
   const { default: pgClient } = await import('pg');

@@ -1,5 +1,7 @@
 import { type DynamicModule, Module } from '@nestjs/common';
-import { APP_FILTER, APP_GUARD } from '@nestjs/core';
+import { APP_FILTER, APP_GUARD, APP_INTERCEPTOR } from '@nestjs/core';
+import { AuditModule } from './audit/audit.module.js';
+import { AuditInterceptor } from './audit/audit.interceptor.js';
 import { AuthModule } from './auth/auth.module.js';
 import { JwtAuthGuard } from './auth/jwt-auth.guard.js';
 import { AbilityGuard } from './authz/ability.guard.js';
@@ -31,6 +33,7 @@ export class AppModule {
       imports: [
         ConfigModule.forRoot(env),
         DatabaseModule,
+        AuditModule,
         StorageModule,
         MailModule,
         JobsModule,
@@ -53,6 +56,8 @@ export class AppModule {
         { provide: APP_GUARD, useClass: JwtAuthGuard },
         { provide: APP_GUARD, useClass: AbilityGuard },
         { provide: APP_FILTER, useClass: HttpExceptionFilter },
+        // Every read of patient data, export, change and sign-in leaves its audit row (issue 11).
+        { provide: APP_INTERCEPTOR, useClass: AuditInterceptor },
       ],
     };
   }

@@ -21,7 +21,8 @@ const script = (name: string) => path.join(repoRoot, 'scripts', `${name}.mjs`);
 
 let ctx: TestContext;
 let storage: StorageService;
-const sourceUrl = process.env.DATABASE_URL!;
+// Backup and restore run as the owner; the API's own role only reads and writes rows.
+const sourceUrl = process.env.MIGRATION_DATABASE_URL!;
 const workDir = fs.mkdtempSync(path.join(os.tmpdir(), 'tt-backup-'));
 const backupDir = path.join(workDir, 'backup');
 // The scripts read the API's variables; PORT=0 (the tests' own app) is not a port they accept.
@@ -36,10 +37,18 @@ async function emptyTarget() {
   await admin(`create database "${target.database}"`);
   const url = new URL(sourceUrl);
   url.pathname = `/${target.database}`;
+  const appUrl = new URL(process.env.DATABASE_URL!);
+  appUrl.pathname = `/${target.database}`;
   return {
     ...target,
     url: url.toString(),
-    env: { ...scriptEnv, DATABASE_URL: url.toString(), S3_BUCKET: target.bucket },
+    appUrl: appUrl.toString(),
+    env: {
+      ...scriptEnv,
+      MIGRATION_DATABASE_URL: url.toString(),
+      DATABASE_URL: appUrl.toString(),
+      S3_BUCKET: target.bucket,
+    },
   };
 }
 
@@ -127,6 +136,17 @@ describe('backup and restore (npm run backup / npm run restore)', () => {
     expect(before['public.patients']).toBeGreaterThan(0);
     expect(after).toEqual(before);
     expect(manifest.database.rows).toEqual(before);
+
+    // The dump carries no grants: the restore gives the API's role its rights again, and no more.
+    const asApp = new pg.Client({ connectionString: target.appUrl });
+    await asApp.connect();
+    try {
+      const patients = await asApp.query('select count(*)::int as n from patients');
+      expect(patients.rows[0].n).toBe(before['public.patients']);
+      await expect(asApp.query(`update audit_events set action = 'read'`)).rejects.toThrow(/permission denied/);
+    } finally {
+      await asApp.end();
+    }
 
     const sourceObjects = await objectHashes(storage.bucket);
     expect(Object.keys(sourceObjects).length).toBeGreaterThanOrEqual(2);

@@ -5,9 +5,11 @@
 // live in ONE table keyed by "METHOD /path"; a served route without a row fails, so a new route
 // cannot be forgotten. Targets are Larkspur records shared with the surgeon unless a row says
 // otherwise; routes that change data get a fresh target per call, so the order does not matter.
+import { apiRoutes } from '@torquetrail/contracts';
 import { eq } from 'drizzle-orm';
 import { afterAll, describe, expect, it } from 'vitest';
 import { users } from '../src/db/schema/index.js';
+import { AUDIT_EXPECTATIONS, auditChecks, expectAuditRows, nextXid } from './support/audit-expectations.js';
 import { actorCookies, all, type Expected } from './support/role-matrix.js';
 import { ACCOUNTS, patientId, startTestApp } from './support/test-app.js';
 import { jpeg } from './support/radiograph-fixtures.js';
@@ -442,6 +444,13 @@ const TABLE: Record<string, Case[]> = {
     'own practice',
   ),
   'GET /api/recalls/reminders': one({ path: () => '/api/recalls/reminders', expect: adminOnly(200) }, 'own practice'),
+  // The audit trail (issue 11): the practice's whole trail is the admin's; one patient's is also the dentist's.
+  'GET /api/audit': one({ path: () => `/api/audit?patientId=${ids.harold}`, expect: adminOnly(200) }, 'own practice'),
+  'GET /api/audit/csv': one({ path: () => '/api/audit/csv?action=read', expect: adminOnly(200) }, 'own practice'),
+  'GET /api/patients/:id/audit': one({
+    path: () => `/api/patients/${ids.harold}/audit`,
+    expect: every(403, { dentist: 200, practice_admin: 200, otherPracticeDentist: 404 }),
+  }),
   // The surgeon adds sites only in their own practice: a shared patient of Larkspur is 403.
   'POST /api/patients/:id/sites': one({
     path: () => `/api/patients/${ids.lucia}/sites`,
@@ -480,6 +489,11 @@ describe('route × actor matrix', () => {
     ).toEqual([]);
   });
 
+  it('knows the audit row of every route of the contracts, and of no other', () => {
+    const contracted = apiRoutes.map((r) => `${r.method.toUpperCase()} /api${r.path}`).sort();
+    expect(Object.keys(AUDIT_EXPECTATIONS).sort()).toEqual(contracted);
+  });
+
   describe.each(served.flatMap((route) => (TABLE[route] ?? []).map((c) => ({ route, ...c }))))(
     '$route ($target)',
     (row) => {
@@ -491,13 +505,25 @@ describe('route × actor matrix', () => {
           row.ownSession && actor !== 'anonymous' ? await signInAs(signOutAccount(actor)) : cookieOf[actor];
         if (cookie) req = req.set('Cookie', cookie);
         const raw = row.raw ? await row.raw() : null;
+        const body = row.body ? await row.body() : null;
+        const xidBefore = await nextXid(ctx);
         const res = raw
           ? await req.set('Content-Type', raw.type).send(raw.data)
-          : row.body
-            ? await req.send(await row.body())
+          : body
+            ? await req.send(body)
             : await req;
         cases += 1;
         expect(res.status, JSON.stringify(res.body)).toBe(row.expect[actor]);
+        // The audit trail (issue 11): exactly the row this call must leave, found by its request id.
+        const who =
+          body && 'email' in body
+            ? String(body.email)
+            : actor === 'anonymous'
+              ? null
+              : row.ownSession
+                ? signOutAccount(actor)
+                : noShareAccounts[actor];
+        await expectAuditRows(ctx, row.route, res, who, xidBefore);
         // A refusal of another practice's record reads like a missing record.
         // oxlint-disable-next-line vitest/no-conditional-expect
         if (res.status === 404) expect(res.body.message).toMatch(/^No such/);
@@ -508,4 +534,5 @@ describe('route × actor matrix', () => {
 
 afterAll(() => {
   console.log(`[figures] route × actor matrix: ${served.length} routes × ${ACTORS.length} actors = ${cases} cases run`);
+  console.log(`[figures] audit trail: ${auditChecks()} calls checked for exactly their audit rows`);
 });

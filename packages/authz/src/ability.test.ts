@@ -86,6 +86,28 @@ describe('referring surgeon (another practice)', () => {
   });
 });
 
+describe('the audit trail (issue 11)', () => {
+  const patientTrail = row('PatientAudit', inPractice);
+  it("the practice admin reads the practice trail; the dentist and the admin read a patient's", () => {
+    expect(user('practice_admin').can('read', row('AuditEntry', { practiceId: PRACTICE }))).toBe(true);
+    expect(user('practice_admin').can('read', patientTrail)).toBe(true);
+    expect(user('dentist').can('read', patientTrail)).toBe(true);
+    expect(user('dentist').can('read', row('AuditEntry', { practiceId: PRACTICE }))).toBe(false);
+  });
+  it("nobody else, and never another practice's", () => {
+    expect(user('hygienist').can('read', patientTrail)).toBe(false);
+    expect(
+      user('surgeon', [SHARED_PATIENT]).can(
+        'read',
+        row('PatientAudit', { practiceId: PRACTICE, patientId: SHARED_PATIENT }),
+      ),
+    ).toBe(false);
+    expect(user('dentist').can('read', row('PatientAudit', { practiceId: OTHER, patientId: UNSHARED_PATIENT }))).toBe(
+      false,
+    );
+  });
+});
+
 describe('practice administrator', () => {
   const a = user('practice_admin');
   it('manages users, the catalogue and reads the audit trail', () => {

@@ -41,6 +41,8 @@ export type Subject =
   | 'Radiograph'
   | 'Share'
   | 'AuditEntry'
+  /** One patient's audit rows ("who accessed this record"): the dentist's and the admin's. */
+  | 'PatientAudit'
   | 'all';
 
 /** A loaded row checked with `subject(type, row)`; only these fields take part in conditions. */
@@ -95,6 +97,7 @@ export function defineAbilityFor(user: AbilityUser): AppAbility {
       can('read', ['RecallExam', 'Catalogue', 'Wrench', 'RecallPolicy'], own);
       can(['read', 'create', 'amend'], 'Radiograph', own);
       can(['read', 'create', 'update'], 'Share', own);
+      can('read', 'PatientAudit', own);
       break;
     case 'hygienist':
       can('read', 'Practice', { id: user.practiceId });
@@ -127,7 +130,7 @@ export function defineAbilityFor(user: AbilityUser): AppAbility {
       can('read', 'PatientVersion', own);
       can('read', PATIENT_RECORD, own);
       can(['read', 'create', 'update'], ['Catalogue', 'Wrench', 'RecallPolicy'], own);
-      can('read', ['AuditEntry', 'Share'], own);
+      can('read', ['AuditEntry', 'PatientAudit', 'Share'], own);
       break;
   }
   return build();

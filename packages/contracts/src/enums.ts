@@ -235,3 +235,28 @@ export type RadiographFileType = z.infer<typeof RadiographFileType>;
 export const RADIOGRAPH_KINDS = ['periapical', 'bitewing', 'panoramic', 'cbct-export', 'other'] as const;
 export const RadiographKind = z.enum(RADIOGRAPH_KINDS);
 export type RadiographKind = z.infer<typeof RadiographKind>;
+
+// ---- audit trail -------------------------------------------------------------------------------
+/** What an audit event records (issue 11): reads and exports of patient data, every change, sign-ins. */
+export const AUDIT_ACTIONS = [
+  'read',
+  'create',
+  'amend',
+  'archive',
+  'export',
+  'print',
+  'sign-in',
+  'sign-in-failed',
+  'sign-out',
+  'invite',
+  'role-change',
+  'share-change',
+  'catalogue-change',
+  'policy-change',
+] as const;
+export const AuditAction = z.enum(AUDIT_ACTIONS);
+export type AuditAction = z.infer<typeof AuditAction>;
+/** allowed: the request succeeded; refused: the app said no (4xx); failed: it could not answer (5xx). */
+export const AUDIT_OUTCOMES = ['allowed', 'refused', 'failed'] as const;
+export const AuditOutcome = z.enum(AUDIT_OUTCOMES);
+export type AuditOutcome = z.infer<typeof AuditOutcome>;

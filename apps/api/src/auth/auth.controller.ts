@@ -6,6 +6,7 @@ import { ENV, type Env } from '../config/env.js';
 import { CurrentUser } from '../common/current-user.decorator.js';
 import { Public } from '../common/public.decorator.js';
 import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
+import { Audit } from '../audit/audit.decorator.js';
 import { Allow } from '../authz/check-ability.decorator.js';
 import { AuthService } from './auth.service.js';
 import { SESSION_COOKIE, type SessionUser } from './session-user.js';
@@ -30,6 +31,7 @@ export class AuthController {
 
   @Public()
   @Post('sign-in')
+  @Audit('sign-in', 'User')
   @HttpCode(200)
   @UseGuards(SignInThrottlerGuard)
   async signIn(
@@ -49,6 +51,7 @@ export class AuthController {
 
   @Public()
   @Post('sign-out')
+  @Audit('sign-out', 'User')
   @HttpCode(204)
   async signOut(@Req() req: Request, @Res({ passthrough: true }) res: Response): Promise<void> {
     await this.auth.signOut((req.cookies as Record<string, string> | undefined)?.[SESSION_COOKIE]);

@@ -3,19 +3,24 @@ import { Reflector } from '@nestjs/core';
 import { defineAbilityFor } from '@torquetrail/authz';
 import type { AuthedRequest } from '../common/current-user.decorator.js';
 import { IS_PUBLIC } from '../common/public.decorator.js';
+import { AuditRecorder } from '../audit/audit-recorder.js';
 import { ABILITY_CHECK, type AbilityCheck } from './check-ability.decorator.js';
 
 /**
  * Global, after the JWT guard: builds the CASL ability of the signed-in user once per request
- * and checks the route's action on its subject type. Row-level checks happen in the services.
+ * and checks the route's action on its subject type. Row-level checks happen in the services. A
+ * refusal of an audited route is recorded (audit/audit-recorder.ts).
  */
 @Injectable()
 export class AbilityGuard implements CanActivate {
   private readonly logger = new Logger('AbilityGuard');
 
-  constructor(private readonly reflector: Reflector) {}
+  constructor(
+    private readonly reflector: Reflector,
+    private readonly audit: AuditRecorder,
+  ) {}
 
-  canActivate(context: ExecutionContext): boolean {
+  async canActivate(context: ExecutionContext): Promise<boolean> {
     const targets = [context.getHandler(), context.getClass()];
     if (this.reflector.getAllAndOverride<boolean>(IS_PUBLIC, targets)) return true;
     const check = this.reflector.getAllAndOverride<AbilityCheck | undefined>(ABILITY_CHECK, targets);
@@ -27,7 +32,11 @@ export class AbilityGuard implements CanActivate {
     req.ability = defineAbilityFor(req.user);
     if ('signedInOnly' in check) return true;
     if (!req.ability.can(check.action, check.subject)) {
-      throw new ForbiddenException('Your role may not do this');
+      const refusal = new ForbiddenException('Your role may not do this');
+      // Refused before any interceptor runs, so the refusal's audit row is written here.
+      const audit = this.audit.open(context);
+      if (audit) await this.audit.refused(audit, refusal);
+      throw refusal;
     }
     return true;
   }

@@ -1,6 +1,7 @@
 import { ForbiddenException, NotFoundException } from '@nestjs/common';
 import { type Action, type AppAbility, type Subject, subject } from '@torquetrail/authz';
 import type { SessionUser } from '../auth/session-user.js';
+import { noteOpened } from '../common/audit-context.js';
 
 /** What a repository needs to scope a query in SQL: the user's practice and their shares. */
 export interface Scope {
@@ -36,5 +37,7 @@ export function assertCan<T extends { practiceId: string; patientId?: string; id
   if (action !== 'read' && !ability.can(action, subject(type, { ...row }))) {
     throw new ForbiddenException(`Your role may not ${action} this ${what}`);
   }
+  // Every row a request may open passes here: its audit row names the record and the patient.
+  noteOpened(type, row);
   return row;
 }

@@ -26,7 +26,9 @@ import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
 import { alreadyAmended } from '../common/amendment-conflict.js';
 import { fieldError } from '../common/field-error.js';
-import { DB, type Database } from '../db/database.js';
+import { reportChange } from '../common/audit-context.js';
+import { auditedTransaction } from '../db/audited-transaction.js';
+import { DB, type Database, type Tx } from '../db/database.js';
 import * as repo from './catalogue.repository.js';
 
 type ComponentRow = Awaited<ReturnType<typeof repo.listComponents>>[number];
@@ -41,6 +43,19 @@ const today = () => new Date().toISOString().slice(0, 10);
 @Injectable()
 export class CatalogueService {
   constructor(@Inject(DB) private readonly db: Database) {}
+
+  /** One catalogue write in its audited transaction, naming the row it made or changed. */
+  private audited(
+    type: string,
+    write: (tx: Tx) => Promise<string>,
+    change: { before?: unknown; after: unknown },
+  ): Promise<string> {
+    return auditedTransaction(this.db, async (tx) => {
+      const id = await write(tx);
+      reportChange({ type, id, ...change });
+      return id;
+    });
+  }
 
   /** The practice's own catalogue (each practice keeps its own values). */
   async catalogue(scope: Scope): Promise<CatalogueReply> {
@@ -73,13 +88,32 @@ export class CatalogueService {
 
   async createSystem(ability: AppAbility, scope: Scope, body: SystemBody): Promise<CatalogueSystem> {
     assertCan(ability, 'create', 'Catalogue', { practiceId: scope.practiceId }, 'catalogue');
-    const id = await repo.insertSystem(this.db, { ...body, practiceId: scope.practiceId });
+    const id = await this.audited(
+      'CatalogueSystem',
+      (tx) => repo.insertSystem(tx, { ...body, practiceId: scope.practiceId }),
+      {
+        after: body,
+      },
+    );
     return this.system(scope, id);
   }
 
   async updateSystem(ability: AppAbility, scope: Scope, id: string, patch: SystemPatch): Promise<CatalogueSystem> {
-    assertCan(ability, 'update', 'Catalogue', await repo.findSystem(this.db, scope.practiceId, id), 'implant system');
-    await repo.updateSystem(this.db, scope.practiceId, id, patch);
+    const before = assertCan(
+      ability,
+      'update',
+      'Catalogue',
+      await repo.findSystem(this.db, scope.practiceId, id),
+      'implant system',
+    );
+    await this.audited(
+      'CatalogueSystem',
+      async (tx) => {
+        await repo.updateSystem(tx, scope.practiceId, id, patch);
+        return id;
+      },
+      { before, after: patch },
+    );
     return this.system(scope, id);
   }
 
@@ -96,7 +130,13 @@ export class CatalogueService {
       await repo.findSystem(this.db, scope.practiceId, body.systemId),
       'implant system',
     );
-    const id = await repo.insertPlatform(this.db, { ...body, practiceId: scope.practiceId });
+    const id = await this.audited(
+      'CataloguePlatform',
+      (tx) => repo.insertPlatform(tx, { ...body, practiceId: scope.practiceId }),
+      {
+        after: body,
+      },
+    );
     return this.platform(scope, id);
   }
 
@@ -106,8 +146,21 @@ export class CatalogueService {
     id: string,
     patch: PlatformPatch,
   ): Promise<CataloguePlatform> {
-    assertCan(ability, 'update', 'Catalogue', await repo.findPlatform(this.db, scope.practiceId, id), 'platform');
-    await repo.updatePlatform(this.db, scope.practiceId, id, patch);
+    const before = assertCan(
+      ability,
+      'update',
+      'Catalogue',
+      await repo.findPlatform(this.db, scope.practiceId, id),
+      'platform',
+    );
+    await this.audited(
+      'CataloguePlatform',
+      async (tx) => {
+        await repo.updatePlatform(tx, scope.practiceId, id, patch);
+        return id;
+      },
+      { before, after: patch },
+    );
     return this.platform(scope, id);
   }
 
@@ -124,7 +177,11 @@ export class CatalogueService {
       await repo.findPlatform(this.db, scope.practiceId, body.platformId),
       'platform',
     );
-    const id = await repo.insertComponent(this.db, { ...body, practiceId: scope.practiceId, createdBy: user.id });
+    const id = await this.audited(
+      'CatalogueComponent',
+      (tx) => repo.insertComponent(tx, { ...body, practiceId: scope.practiceId, createdBy: user.id }),
+      { after: body },
+    );
     return this.component(scope, id);
   }
 
@@ -168,15 +225,20 @@ export class CatalogueService {
     const after = { ...before, ...patch };
     // Saving what is already there makes no version.
     if ((Object.keys(before) as (keyof typeof before)[]).every((k) => before[k] === after[k])) return toComponent(row);
-    const newId = await repo.insertComponentVersion(this.db, {
-      ...after,
-      practiceId: row.practiceId,
-      platformId: row.platformId,
-      kind: row.kind,
-      lineageId: row.lineageId,
-      supersedesId: row.id,
-      createdBy: user.id,
-    });
+    const newId = await this.audited(
+      'CatalogueComponent',
+      (tx) =>
+        repo.insertComponentVersion(tx, {
+          ...after,
+          practiceId: row.practiceId,
+          platformId: row.platformId,
+          kind: row.kind,
+          lineageId: row.lineageId,
+          supersedesId: row.id,
+          createdBy: user.id,
+        }),
+      { before, after },
+    );
     return this.component(scope, newId);
   }
 
@@ -219,14 +281,17 @@ export class CatalogueService {
     if (body.lastCalibratedOn && body.lastCalibratedOn > today())
       throw fieldError({ lastCalibratedOn: 'A calibration date cannot be in the future' });
     const { lastCalibratedOn, ...wrench } = body;
-    const id = await this.db.transaction((tx) =>
-      repo.insertWrench(
-        tx,
-        { ...wrench, practiceId: scope.practiceId, createdBy: user.id },
-        lastCalibratedOn
-          ? { practiceId: scope.practiceId, calibratedOn: lastCalibratedOn, note: null, recordedBy: user.id }
-          : null,
-      ),
+    const id = await this.audited(
+      'Wrench',
+      (tx) =>
+        repo.insertWrench(
+          tx,
+          { ...wrench, practiceId: scope.practiceId, createdBy: user.id },
+          lastCalibratedOn
+            ? { practiceId: scope.practiceId, calibratedOn: lastCalibratedOn, note: null, recordedBy: user.id }
+            : null,
+        ),
+      { after: body },
     );
     return this.wrench(scope, id);
   }
@@ -243,13 +308,18 @@ export class CatalogueService {
     if (row.supersededById) throw alreadyAmended('torque_wrenches');
     const after = { label: patch.label ?? row.label, type: patch.type ?? row.type };
     if (after.label === row.label && after.type === row.type) return this.wrench(scope, row.id);
-    const newId = await repo.insertWrenchVersion(this.db, {
-      ...after,
-      practiceId: row.practiceId,
-      lineageId: row.lineageId,
-      supersedesId: row.id,
-      createdBy: user.id,
-    });
+    const newId = await this.audited(
+      'Wrench',
+      (tx) =>
+        repo.insertWrenchVersion(tx, {
+          ...after,
+          practiceId: row.practiceId,
+          lineageId: row.lineageId,
+          supersedesId: row.id,
+          createdBy: user.id,
+        }),
+      { before: { label: row.label, type: row.type }, after },
+    );
     return this.wrench(scope, newId);
   }
 
@@ -270,13 +340,18 @@ export class CatalogueService {
   ): Promise<Calibration> {
     const row = assertCan(ability, 'update', 'Wrench', await repo.findWrench(this.db, scope.practiceId, id), 'wrench');
     if (body.calibratedOn > today()) throw fieldError({ calibratedOn: 'A calibration date cannot be in the future' });
-    const newId = await repo.insertCalibration(this.db, {
-      practiceId: row.practiceId,
-      wrenchLineageId: row.lineageId,
-      calibratedOn: body.calibratedOn,
-      note: body.note,
-      recordedBy: user.id,
-    });
+    const newId = await this.audited(
+      'WrenchCalibration',
+      (tx) =>
+        repo.insertCalibration(tx, {
+          practiceId: row.practiceId,
+          wrenchLineageId: row.lineageId,
+          calibratedOn: body.calibratedOn,
+          note: body.note,
+          recordedBy: user.id,
+        }),
+      { after: body },
+    );
     const found = (await repo.listCalibrations(this.db, scope.practiceId, row.lineageId)).find((c) => c.id === newId);
     if (!found) throw new Error(`calibration ${newId} vanished`);
     return { ...found, recordedAt: found.recordedAt.toISOString() };

@@ -7,6 +7,8 @@ import { assertCan, type Scope } from '../authz/scope.js';
 import { assertAmendable } from '../common/amendment-conflict.js';
 import { keepAbsent } from '../common/keep-absent.js';
 import { fieldError } from '../common/field-error.js';
+import { reportChange } from '../common/audit-context.js';
+import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database } from '../db/database.js';
 import * as repo from './complications.repository.js';
 
@@ -40,7 +42,7 @@ export class ComplicationsService {
     );
     this.checkDate(body.occurredOn);
     await this.checkPart(body.siteId, body.componentInstanceId);
-    const id = await repo.insertComplication(this.db, {
+    const values = {
       practiceId: site.practiceId,
       patientId: site.patientId,
       siteId: site.id,
@@ -49,6 +51,11 @@ export class ComplicationsService {
       occurredOn: body.occurredOn,
       notes: body.notes,
       recordedBy: user.id,
+    };
+    const id = await auditedTransaction(this.db, async (tx) => {
+      const newId = await repo.insertComplication(tx, values);
+      reportChange({ type: 'Complication', id: newId, patientId: site.patientId, after: values });
+      return newId;
     });
     return repo.loadComplication(this.db, id);
   }
@@ -74,7 +81,7 @@ export class ComplicationsService {
     if (body.occurredOn !== undefined) this.checkDate(next.occurredOn);
     if (body.componentInstanceId !== undefined) await this.checkPart(found.siteId, next.componentInstanceId);
     // Of two concurrent amendments of one entry the database saves the first (insertAmendment).
-    const newId = await repo.insertComplicationAmendment(this.db, {
+    const values = {
       practiceId: found.practiceId,
       patientId: found.patientId,
       siteId: found.siteId,
@@ -85,6 +92,11 @@ export class ComplicationsService {
       supersedesId: found.id,
       amendmentReason: body.amendmentReason,
       recordedBy: user.id,
+    };
+    const newId = await auditedTransaction(this.db, async (tx) => {
+      const inserted = await repo.insertComplicationAmendment(tx, values);
+      reportChange({ type: 'Complication', id: inserted, patientId: found.patientId, before: found, after: values });
+      return inserted;
     });
     return repo.loadComplication(this.db, newId);
   }

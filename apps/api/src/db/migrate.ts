@@ -1,5 +1,6 @@
-// Applies the drizzle-kit migrations in ./drizzle to DATABASE_URL. Exits non-zero on failure.
-// The same function migrates the test database, so tests run on what production runs.
+// Applies the drizzle-kit migrations in ./drizzle as the database's owner: MIGRATION_DATABASE_URL
+// (DATABASE_URL when that is the owner's, as before the API had its own role). Exits non-zero on
+// failure. The same function migrates the test database, so tests run on what production runs.
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { migrate } from 'drizzle-orm/node-postgres/migrator';
@@ -18,9 +19,9 @@ export async function runMigrations(databaseUrl: string): Promise<void> {
 
 const isMain = process.argv[1] && path.resolve(process.argv[1]) === fileURLToPath(import.meta.url);
 if (isMain) {
-  const url = process.env.DATABASE_URL;
+  const url = process.env.MIGRATION_DATABASE_URL ?? process.env.DATABASE_URL;
   if (!url) {
-    console.error('DATABASE_URL is not set');
+    console.error('MIGRATION_DATABASE_URL (the owner) is not set');
     process.exit(2);
   }
   runMigrations(url).then(

@@ -3,6 +3,7 @@ import type { AppAbility } from '@torquetrail/authz';
 import { LabPrescriptionBody, type LabPrescriptionSummary } from '@torquetrail/contracts';
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
+import { Audit } from '../audit/audit.decorator.js';
 import { Allow } from '../authz/check-ability.decorator.js';
 import { scopeOf } from '../authz/scope.js';
 import { CurrentAbility, CurrentUser } from '../common/current-user.decorator.js';
@@ -27,6 +28,7 @@ export class LabPrescriptionsController {
   }
 
   @Get('lab-prescriptions/:id/pdf')
+  @Audit('export')
   @Allow('read', 'Restoration')
   async download(
     @CurrentUser() user: SessionUser,

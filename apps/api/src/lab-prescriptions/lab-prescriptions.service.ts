@@ -5,6 +5,8 @@ import type { LabPrescriptionSummary } from '@torquetrail/contracts';
 import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
 import { fieldError } from '../common/field-error.js';
+import { reportChange } from '../common/audit-context.js';
+import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database } from '../db/database.js';
 import { RestorationsService } from '../restorations/restorations.service.js';
 import { StorageService } from '../storage/storage.service.js';
@@ -91,14 +93,17 @@ export class LabPrescriptionsService {
     const objectKey = `practices/${r.practiceId}/lab-prescriptions/${id}.pdf`;
     await this.storage.put(objectKey, pdf, 'application/pdf');
     try {
-      await repo.insertLabPrescription(this.db, {
-        id,
-        practiceId: r.practiceId,
-        patientId: r.patientId,
-        restorationId: r.id,
-        objectKey,
-        sizeBytes: pdf.length,
-        createdBy: user.id,
+      await auditedTransaction(this.db, async (tx) => {
+        await repo.insertLabPrescription(tx, {
+          id,
+          practiceId: r.practiceId,
+          patientId: r.patientId,
+          restorationId: r.id,
+          objectKey,
+          sizeBytes: pdf.length,
+          createdBy: user.id,
+        });
+        reportChange({ type: 'LabPrescription', id, patientId: r.patientId, after: { restorationId: r.id } });
       });
     } catch (error) {
       // Best effort: when S3 is away too, the object stays, keyed by an id no row will ever hold.

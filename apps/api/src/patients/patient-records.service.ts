@@ -18,7 +18,9 @@ import {
 } from '@torquetrail/contracts';
 import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
+import { reportChange } from '../common/audit-context.js';
 import { fieldError } from '../common/field-error.js';
+import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database } from '../db/database.js';
 import { RecallClock } from '../recalls/recall-clock.js';
 import {
@@ -55,17 +57,17 @@ export class PatientRecordsService {
   async create(ability: AppAbility, user: SessionUser, scope: Scope, body: NewPatientRecord): Promise<PatientDetail> {
     const record = body;
     this.refuseFutureDates(record);
-    const id = await this.db.transaction(async (tx) => {
+    const id = await auditedTransaction(this.db, async (tx) => {
       const chartNumber = await takeChartNumber(tx, user.practiceId);
       const values = { ...record, chartNumber };
-      return insertPatientWithVersion(
+      const changes = VERSIONED_FIELDS.map((field) => ({ field, before: null, after: values[field] ?? null }));
+      const newId = await insertPatientWithVersion(
         tx,
         { ...values, practiceId: user.practiceId },
-        {
-          changedBy: user.id,
-          changes: VERSIONED_FIELDS.map((field) => ({ field, before: null, after: values[field] ?? null })),
-        },
+        { changedBy: user.id, changes },
       );
+      reportChange({ type: 'Patient', id: newId, patientId: newId, after: asChangeMap(changes, 'after') });
+      return newId;
     });
     return this.patients.detail(ability, scope, id);
   }
@@ -86,7 +88,7 @@ export class PatientRecordsService {
         fields: Object.fromEntries(refused.map((f) => [f, 'Your role may not change this field'])),
       });
     }
-    await this.db.transaction(async (tx) => {
+    await auditedTransaction(this.db, async (tx) => {
       const row = (await lockPatient(tx, visible.practiceId, id))!;
       if (row.archivedAt) throw new ConflictException('This patient is archived: bring them back before editing');
       const next: Record_ = { ...pick(row), ...body };
@@ -121,6 +123,13 @@ export class PatientRecordsService {
         set.chartNumberChangedAt = new Date();
       }
       await updatePatientWithVersion(tx, row, set, { kind: 'edited', changes, reason: null, changedBy: user.id });
+      reportChange({
+        type: 'Patient',
+        id: row.id,
+        patientId: row.id,
+        before: asChangeMap(changes, 'before'),
+        after: asChangeMap(changes, 'after'),
+      });
     });
     return this.patients.detail(ability, scope, id);
   }
@@ -136,7 +145,7 @@ export class PatientRecordsService {
   ): Promise<PatientDetail> {
     const visible = assertCan(ability, 'archive', 'Patient', await findVisiblePatient(this.db, scope, id), 'patient');
     const reason = body.reason.trim();
-    await this.db.transaction(async (tx) => {
+    await auditedTransaction(this.db, async (tx) => {
       const row = (await lockPatient(tx, visible.practiceId, id))!;
       if ((row.archivedAt !== null) === archived) {
         throw new ConflictException(archived ? 'This patient is archived already' : 'This patient is not archived');
@@ -153,6 +162,13 @@ export class PatientRecordsService {
           changedBy: user.id,
         },
       );
+      reportChange({
+        type: 'Patient',
+        id: row.id,
+        patientId: row.id,
+        before: { archived: row.archivedAt !== null },
+        after: { archived, reason },
+      });
     });
     return this.patients.detail(ability, scope, id);
   }
@@ -181,7 +197,11 @@ export class PatientRecordsService {
   }
 
   async updateSettings(user: SessionUser, body: PatientSettingsBody): Promise<PatientSettingsReply> {
-    await setChartPrefix(this.db, user.practiceId, body.chartPrefix, user.id);
+    await auditedTransaction(this.db, async (tx) => {
+      const before = await findChartSettings(tx, user.practiceId);
+      await setChartPrefix(tx, user.practiceId, body.chartPrefix, user.id);
+      reportChange({ type: 'Practice', id: user.practiceId, before: { chartPrefix: before.prefix }, after: body });
+    });
     return this.settings(user.practiceId);
   }
 
@@ -202,3 +222,8 @@ const pick = (row: PatientRow): Record_ => Object.fromEntries(VERSIONED_FIELDS.m
 /** A stored before/after value as the reply carries it. */
 const stored = (value: unknown): string | number | boolean | null =>
   typeof value === 'string' || typeof value === 'number' || typeof value === 'boolean' ? value : null;
+
+/** A version's field changes as the audit row's before or after map. */
+function asChangeMap(changes: readonly { field: string; before: unknown; after: unknown }[], side: 'before' | 'after') {
+  return Object.fromEntries(changes.map((c) => [c.field, c[side]]));
+}

@@ -26,6 +26,8 @@ import { assertAmendable } from '../common/amendment-conflict.js';
 import { keepAbsent } from '../common/keep-absent.js';
 import { fieldError } from '../common/field-error.js';
 import { isUniqueViolation } from '../common/postgres-error.js';
+import { reportChange } from '../common/audit-context.js';
+import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database, type Db } from '../db/database.js';
 import * as repo from './placements.repository.js';
 
@@ -72,7 +74,11 @@ export class PlacementsService {
     // A failed or removed site stays in the record; a new site may be planned at its position.
     if (existing) throw new ConflictException(`This patient already has a ${existing.status} site at ${body.fdi}`);
     try {
-      const site = await this.db.transaction((tx) => repo.insertPlannedSite(tx, { ...row, fdi: body.fdi }));
+      const site = await auditedTransaction(this.db, async (tx) => {
+        const inserted = await repo.insertPlannedSite(tx, { ...row, fdi: body.fdi });
+        reportChange({ type: 'ImplantSite', id: inserted.id, patientId: patient.id, after: { fdi: body.fdi } });
+        return inserted;
+      });
       return {
         id: site.id,
         fdi: site.fdi,
@@ -182,10 +188,10 @@ export class PlacementsService {
         fields.closureLot = `The lot number of the ${closure.name} is required`;
     }
     if (Object.keys(fields).length > 0) throw fieldError(fields);
-    const ids = await this.db.transaction(async (tx) => {
+    const ids = await auditedTransaction(this.db, async (tx) => {
       // Re-read under the lock: of two placements of one planned site only the first is saved.
       assertSiteCurrent((await repo.lockSite(tx, site.id))?.status);
-      const id = await repo.insertPlacement(tx, {
+      const values = {
         ...this.values(body, lot),
         practiceId: site.practiceId,
         patientId: site.patientId,
@@ -193,7 +199,9 @@ export class PlacementsService {
         surgeonUserId: user.id,
         surgeonName: `${user.displayName} (${user.practiceName})`,
         recordedBy: user.id,
-      });
+      };
+      const id = await repo.insertPlacement(tx, values);
+      reportChange({ type: 'Placement', id, patientId: site.patientId, after: values });
       const closureId = closure
         ? await repo.insertClosurePart(tx, {
             practiceId: site.practiceId,
@@ -232,7 +240,7 @@ export class PlacementsService {
     const lot = await this.checkFields(this.db, old.practiceId, next, fields);
     if (Object.keys(fields).length > 0) throw fieldError(fields);
     // Of two concurrent amendments of one placement the database saves the first (insertAmendment).
-    const newId = await repo.insertPlacementAmendment(this.db, {
+    const values = {
       ...this.values(next, lot),
       practiceId: old.practiceId,
       patientId: old.patientId,
@@ -243,6 +251,11 @@ export class PlacementsService {
       supersedesId: old.id,
       amendmentReason: body.amendmentReason,
       recordedBy: user.id,
+    };
+    const newId = await auditedTransaction(this.db, async (tx) => {
+      const inserted = await repo.insertPlacementAmendment(tx, values);
+      reportChange({ type: 'Placement', id: inserted, patientId: old.patientId, before: old, after: values });
+      return inserted;
     });
     return this.reply(newId, null);
   }

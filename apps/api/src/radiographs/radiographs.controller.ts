@@ -26,6 +26,7 @@ import {
 } from '@torquetrail/contracts';
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
+import { Audit } from '../audit/audit.decorator.js';
 import { Allow } from '../authz/check-ability.decorator.js';
 import { scopeOf } from '../authz/scope.js';
 import { CurrentAbility, CurrentUser } from '../common/current-user.decorator.js';
@@ -74,6 +75,7 @@ export class RadiographsController {
   }
 
   @Get('radiographs/:id/original')
+  @Audit('export')
   @Allow('read', 'Radiograph')
   async original(
     @CurrentUser() user: SessionUser,

@@ -30,6 +30,8 @@ import { alreadyAmended } from '../common/amendment-conflict.js';
 import { fieldError } from '../common/field-error.js';
 import { postgresError } from '../common/postgres-error.js';
 import { ENV, type Env } from '../config/env.js';
+import { reportChange } from '../common/audit-context.js';
+import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database } from '../db/database.js';
 import { StorageService } from '../storage/storage.service.js';
 import { dicomAttributes, DicomUnreadable, parseDicom, withPreamble, type DicomAttributes } from './dicom.js';
@@ -199,8 +201,14 @@ export class RadiographsService {
         stored.push(`${objectKey}.thumbnail.png`);
       }
       try {
-        await this.db.transaction((tx) =>
-          repo.insertRadiograph(
+        await auditedTransaction(this.db, (tx) => {
+          reportChange({
+            type: 'Radiograph',
+            id,
+            patientId: patient.id,
+            after: { kind: query.kind, fileType: detected.type, sizeBytes: size, sha256, siteIds },
+          });
+          return repo.insertRadiograph(
             tx,
             {
               id,
@@ -228,8 +236,8 @@ export class RadiographsService {
               uploadedBy: user.id,
             },
             siteIds,
-          ),
-        );
+          );
+        });
       } catch (e) {
         // Two uploads of the same file raced: the unique index decided.
         if (postgresError(e)?.constraint === 'radiographs_patient_sha256_unique') {
@@ -311,7 +319,10 @@ export class RadiographsService {
       'radiograph',
     );
     if (r.enteredInErrorAt) throw new ConflictException('This radiograph is already marked entered in error');
-    await repo.markEnteredInError(this.db, r.id, user.id, reason);
+    await auditedTransaction(this.db, async (tx) => {
+      await repo.markEnteredInError(tx, r.id, user.id, reason);
+      reportChange({ type: 'Radiograph', id: r.id, patientId: r.patientId, after: { enteredInError: true, reason } });
+    });
     const { measurements: _m, siteImplants: _s, ...rest } = await this.detail(ability, scope, id);
     return rest;
   }
@@ -333,13 +344,18 @@ export class RadiographsService {
     if (r.enteredInErrorAt) throw new ConflictException('This radiograph is marked entered in error');
     if (!r.siteIds.includes(body.siteId)) throw fieldError({ siteId: 'Choose one of the sites this radiograph shows' });
     const values = await this.compute(r, body.siteId, body.points, body.implantTrueMm);
-    const id = await repo.insertMeasurement(this.db, {
+    const row = {
       ...values,
       practiceId: r.practiceId,
       patientId: r.patientId,
       radiographId: r.id,
       siteId: body.siteId,
       measuredBy: user.id,
+    };
+    const id = await auditedTransaction(this.db, async (tx) => {
+      const inserted = await repo.insertMeasurement(tx, row);
+      reportChange({ type: 'RadiographMeasurement', id: inserted, patientId: r.patientId, after: row });
+      return inserted;
     });
     return this.measurement(scope, id);
   }
@@ -362,7 +378,7 @@ export class RadiographsService {
     const r = await repo.findVisibleRadiograph(this.db, scope, m.radiographId);
     if (!r) throw new NotFoundException('No such measurement');
     const values = await this.compute(r, m.siteId, body.points, body.implantTrueMm ?? m.implantTrueMm);
-    const id = await repo.insertMeasurementAmendment(this.db, {
+    const row = {
       ...values,
       practiceId: m.practiceId,
       patientId: m.patientId,
@@ -371,6 +387,11 @@ export class RadiographsService {
       measuredBy: user.id,
       supersedesId: m.id,
       amendmentReason: body.reason,
+    };
+    const id = await auditedTransaction(this.db, async (tx) => {
+      const inserted = await repo.insertMeasurementAmendment(tx, row);
+      reportChange({ type: 'RadiographMeasurement', id: inserted, patientId: m.patientId, before: m, after: row });
+      return inserted;
     });
     return this.measurement(scope, id);
   }

@@ -29,6 +29,8 @@ import { assertCan, type Scope } from '../authz/scope.js';
 import { keepAbsent } from '../common/keep-absent.js';
 import { alreadyAmended } from '../common/amendment-conflict.js';
 import { fieldError } from '../common/field-error.js';
+import { reportChange } from '../common/audit-context.js';
+import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database, type Tx } from '../db/database.js';
 import { BoneLevelsService } from '../radiographs/bone-levels.service.js';
 import {
@@ -146,7 +148,9 @@ export class ExamsService {
     );
     if (body.examinedOn > this.clock.today()) throw fieldError({ examinedOn: 'an exam cannot be dated in the future' });
 
-    return this.db.transaction(async (tx) => {
+    return auditedTransaction(this.db, async (tx) => {
+      // A visit is several exams: the audit row names the patient, the visit's first exam and the whole body.
+      reportChange({ type: 'RecallExam', patientId: patient.id, after: body });
       // Serialise visits of one patient before reading their history, so two saves cannot both
       // schedule a recall or choose a baseline from exams the other is adding.
       await lockExamHistory(tx, patient.id);
@@ -218,6 +222,7 @@ export class ExamsService {
         );
       }
 
+      reportChange({ type: 'RecallExam', id: ids[0] });
       const nextRecall = await this.reschedule(tx, patient, visitId, anyPeriImplantitis);
       return {
         visitId,
@@ -262,7 +267,8 @@ export class ExamsService {
     // The source belongs to the value it gave: a bone level typed anew without one has none.
     if (body.boneLevelMm !== undefined && body.boneLevelMeasurementId === undefined) next.boneLevelMeasurementId = null;
     const patient = await findVisiblePatientForRecall(this.db, scope, old.patientId);
-    return this.db.transaction(async (tx) => {
+    return auditedTransaction(this.db, async (tx) => {
+      reportChange({ type: 'RecallExam', patientId: old.patientId, before: old, after: body });
       // The history lock keeps the rescheduling to one at a time; of two amendments of one exam
       // the unique index on supersedes_id saves the first (insertExamAmendment).
       await lockExamHistory(tx, patient.id);
@@ -312,6 +318,7 @@ export class ExamsService {
         supersedesId: old.id,
         amendmentReason: body.amendmentReason,
       });
+      reportChange({ type: 'RecallExam', id });
       await this.reschedule(tx, patient, old.visitId, false);
       return toContract((await findExamsByIds(tx, [id]))[0]);
     });

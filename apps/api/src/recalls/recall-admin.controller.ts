@@ -7,10 +7,13 @@ import {
   type RunRemindersReply,
 } from '@torquetrail/contracts';
 import type { SessionUser } from '../auth/session-user.js';
+import { Audit } from '../audit/audit.decorator.js';
 import { Allow } from '../authz/check-ability.decorator.js';
 import { CurrentUser } from '../common/current-user.decorator.js';
 import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
 import { ENV, type Env } from '../config/env.js';
+import { reportChange } from '../common/audit-context.js';
+import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database } from '../db/database.js';
 import { findPolicy, upsertPolicy } from './exams.repository.js';
 import { RecallClock } from './recall-clock.js';
@@ -39,13 +42,19 @@ export class RecallAdminController {
     @CurrentUser() user: SessionUser,
     @Body(new ZodValidationPipe(RecallPolicyBody)) body: RecallPolicyBody,
   ): Promise<RecallPolicyReply> {
-    await upsertPolicy(this.db, user.practiceId, user.id, body);
+    await auditedTransaction(this.db, async (tx) => {
+      const before = await findPolicy(tx, user.practiceId);
+      await upsertPolicy(tx, user.practiceId, user.id, body);
+      reportChange({ type: 'RecallPolicy', before, after: body });
+    });
     return findPolicy(this.db, user.practiceId);
   }
 
   @Post('reminders/run')
   @HttpCode(200)
   @Allow('update', 'RecallPolicy')
+  // Running the scan logs reminders; it changes no policy.
+  @Audit('create', 'Reminder')
   run(
     @CurrentUser() user: SessionUser,
     @Body(new ZodValidationPipe(RunRemindersBody)) body: RunRemindersBody,

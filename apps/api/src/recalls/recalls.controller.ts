@@ -13,6 +13,7 @@ import {
 } from '@torquetrail/contracts';
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
+import { Audit } from '../audit/audit.decorator.js';
 import { Allow } from '../authz/check-ability.decorator.js';
 import { scopeOf } from '../authz/scope.js';
 import { CurrentAbility, CurrentUser } from '../common/current-user.decorator.js';
@@ -39,6 +40,7 @@ export class RecallsController {
   }
 
   @Get('desk/csv')
+  @Audit('export')
   @Allow('read', 'RecallExam')
   @Header('Content-Type', 'text/csv; charset=utf-8')
   @Header('Content-Disposition', 'attachment; filename="recall-desk.csv"')

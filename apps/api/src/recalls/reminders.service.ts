@@ -6,6 +6,8 @@
 import { Inject, Injectable } from '@nestjs/common';
 import { remindersDue } from '@torquetrail/domain';
 import { ENV, type Env } from '../config/env.js';
+import { reportChange } from '../common/audit-context.js';
+import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database } from '../db/database.js';
 import { JobsService } from '../jobs/jobs.service.js';
 import { MailService } from '../mail/mail.service.js';
@@ -87,7 +89,11 @@ export class RemindersService {
         idempotencyKey: reminderKey(r.patientId, r.dueOn, kind),
       })),
     );
-    const logged = await logReminders(this.db, candidates);
+    const logged = await auditedTransaction(this.db, async (tx) => {
+      const count = await logReminders(tx, candidates);
+      reportChange({ type: 'Reminder', after: { today, logged: count } });
+      return count;
+    });
     const unsent = await listUnsent(
       this.db,
       candidates.map((c) => c.idempotencyKey),

@@ -17,6 +17,8 @@ import { keepAbsent } from '../common/keep-absent.js';
 import { assertCan, type Scope } from '../authz/scope.js';
 import { alreadyAmended } from '../common/amendment-conflict.js';
 import { fieldError } from '../common/field-error.js';
+import { reportChange } from '../common/audit-context.js';
+import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database, type Tx } from '../db/database.js';
 import { checkPlan } from './plan-check.js';
 import * as repo from './restorations.repository.js';
@@ -117,7 +119,11 @@ export class RestorationsService {
   async create(ability: AppAbility, user: SessionUser, scope: Scope, body: PlanInput): Promise<RestorationDetail> {
     const patient = await this.visiblePatient(ability, scope, body.patientId);
     assertCan(ability, 'create', 'Restoration', { practiceId: patient.practiceId, patientId: patient.id }, 'patient');
-    const id = await this.db.transaction((tx) => this.insertPlan(tx, user, patient, body, null));
+    const id = await auditedTransaction(this.db, async (tx) => {
+      const inserted = await this.insertPlan(tx, user, patient, body, null);
+      reportChange({ type: 'Restoration', id: inserted, patientId: patient.id, after: body });
+      return inserted;
+    });
     return this.detail(ability, scope, id);
   }
 
@@ -138,12 +144,12 @@ export class RestorationsService {
     );
     assertAmendable(old);
     const patient = await repo.findVisiblePatientBrief(this.db, scope, old.patientId);
-    const newId = await this.db.transaction(async (tx) => {
+    const newId = await auditedTransaction(this.db, async (tx) => {
       // The lock keeps a delivery out until this amendment ends; between two amendments the
       // unique index on supersedes_id decides (insertAmendment), so only the status is re-read.
       await repo.shareLockRestoration(tx, old.id);
       assertStillPlanned(await repo.findVisibleRestoration(tx, scope, old.id));
-      return this.insertPlan(
+      const inserted = await this.insertPlan(
         tx,
         user,
         patient,
@@ -156,6 +162,8 @@ export class RestorationsService {
         },
         { supersedesId: old.id, amendmentReason: body.amendmentReason },
       );
+      reportChange({ type: 'Restoration', id: inserted, patientId: old.patientId, before: old, after: body });
+      return inserted;
     });
     return this.detail(ability, scope, newId);
   }
@@ -256,7 +264,8 @@ export class RestorationsService {
     if (body.deliveredOn > today) throw fieldError({ deliveredOn: 'Cannot be in the future' });
     if (body.impressionTakenOn && body.impressionTakenOn > body.deliveredOn)
       throw fieldError({ impressionTakenOn: 'The impression cannot be taken after the delivery' });
-    await this.db.transaction(async (tx) => {
+    await auditedTransaction(this.db, async (tx) => {
+      reportChange({ type: 'Restoration', id: row.id, patientId: row.patientId, before: row, after: body });
       // Re-read under the lock: a concurrent delivery or amendment committed meanwhile is seen.
       await repo.lockRestoration(tx, row.id);
       assertDeliverable(await repo.findVisibleRestoration(tx, scope, row.id));

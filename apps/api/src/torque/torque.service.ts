@@ -6,6 +6,8 @@ import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
 import { assertAmendable } from '../common/amendment-conflict.js';
+import { reportChange } from '../common/audit-context.js';
+import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database, type Tx } from '../db/database.js';
 import { fieldError } from '../common/field-error.js';
 import * as repo from './torque.repository.js';
@@ -68,7 +70,7 @@ export class TorqueService {
     }
     const specNcm = part.torqueSpecNcm;
     const verdict = torqueVerdict({ appliedNcm: body.appliedNcm, specNcm, tolerancePct: part.tolerancePct });
-    const id = await this.db.transaction(async (tx) => {
+    const id = await auditedTransaction(this.db, async (tx) => {
       // Re-read under the lock: a concurrent 'screw-replaced' may have retired the part meanwhile.
       await repo.lockInstance(tx, part.id);
       assertInPlace(await repo.findVisibleInstance(tx, scope, part.id));
@@ -88,7 +90,7 @@ export class TorqueService {
           recordedBy: user.id,
         });
       }
-      return repo.insertTorqueEvent(tx, {
+      const values = {
         practiceId: part.practiceId,
         patientId: part.patientId,
         componentInstanceId: instanceId,
@@ -101,7 +103,10 @@ export class TorqueService {
         wrenchId,
         performedAt,
         recordedBy: user.id,
-      });
+      };
+      const eventId = await repo.insertTorqueEvent(tx, values);
+      reportChange({ type: 'TorqueEvent', id: eventId, patientId: part.patientId, after: values });
+      return eventId;
     });
     return this.reply(id, replacing);
   }
@@ -133,7 +138,7 @@ export class TorqueService {
       tolerancePct: old.tolerancePct,
     });
     // Of two concurrent amendments of one entry the database saves the first (insertAmendment).
-    const newId = await repo.insertTorqueAmendment(this.db, {
+    const values = {
       practiceId: old.practiceId,
       patientId: old.patientId,
       componentInstanceId: old.componentInstanceId,
@@ -148,6 +153,11 @@ export class TorqueService {
       supersedesId: old.id,
       amendmentReason: body.amendmentReason,
       recordedBy: user.id,
+    };
+    const newId = await auditedTransaction(this.db, async (tx) => {
+      const inserted = await repo.insertTorqueAmendment(tx, values);
+      reportChange({ type: 'TorqueEvent', id: inserted, patientId: old.patientId, before: old, after: values });
+      return inserted;
     });
     return this.reply(newId, false);
   }

@@ -1,7 +1,8 @@
 // Shared set-up for the API tests: the real app on the real (test) PostgreSQL, reset to the
 // freshly seeded demo scenario, driven over real HTTP with Supertest.
 import type { INestApplication } from '@nestjs/common';
-import { and, eq, sql } from 'drizzle-orm';
+import { and, eq } from 'drizzle-orm';
+import pg from 'pg';
 import request from 'supertest';
 import { createApp } from '../../src/app.js';
 import { type Env, parseEnv } from '../../src/config/env.js';
@@ -20,13 +21,29 @@ export interface TestContext {
   close: () => Promise<void>;
 }
 
-/** Empties every table of the test database and seeds the demo scenario again. */
+/**
+ * The owner's connection (MIGRATION_DATABASE_URL): only the owner may empty the audit trail. The
+ * tests' own `db` handle is the API's role, so what a test does to the data the app could do too.
+ */
+function ownerDatabaseUrl(): string {
+  const url = process.env.MIGRATION_DATABASE_URL;
+  if (!url) throw new Error('MIGRATION_DATABASE_URL is not set: run the tests with scripts/test-tier.mjs');
+  return url;
+}
+
+/** Empties every table of the test database (as the owner) and seeds the demo scenario again. */
 export async function resetDatabase(db: Database): Promise<void> {
-  const tables = await db.execute<{ tablename: string }>(
-    sql`select tablename from pg_tables where schemaname = 'public'`,
-  );
-  const names = tables.rows.map((t) => `"${t.tablename}"`).join(', ');
-  if (names) await db.execute(sql.raw(`TRUNCATE ${names} RESTART IDENTITY CASCADE`));
+  const owner = new pg.Client({ connectionString: ownerDatabaseUrl() });
+  await owner.connect();
+  try {
+    const tables = await owner.query<{ tablename: string }>(
+      `select tablename from pg_tables where schemaname = 'public'`,
+    );
+    const names = tables.rows.map((t) => `"${t.tablename}"`).join(', ');
+    if (names) await owner.query(`TRUNCATE ${names} RESTART IDENTITY CASCADE`);
+  } finally {
+    await owner.end();
+  }
   await db.transaction((tx) => seedDemo(tx, todayIso()));
 }
 

@@ -109,6 +109,10 @@ export const router = createBrowserRouter([
               Component: (await import('../features/recalls/routes/reminder-log-route')).ReminderLogRoute,
             }),
           },
+          {
+            path: 'practice/audit',
+            lazy: async () => ({ Component: (await import('../features/audit/routes/audit-route')).AuditRoute }),
+          },
           { path: '*', element: <NotFoundRoute /> },
         ],
       },

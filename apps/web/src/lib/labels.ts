@@ -3,6 +3,8 @@
 import type { Role } from '@torquetrail/authz';
 import {
   type ArchiveFilter,
+  type AuditAction,
+  type AuditOutcome,
   DESK_DUE_SOON_DAYS,
   type DeskFilter,
   type DeskSort,
@@ -160,4 +162,28 @@ export const RADIOGRAPH_FILE_TYPE_LABEL: Record<RadiographFileType, string> = {
   png: 'PNG image',
   jpeg: 'JPEG image',
   dicom: 'DICOM file',
+};
+
+/** The audit trail (Practice → Audit, and a patient's "Who accessed this record"). */
+export const AUDIT_ACTION_LABEL: Record<AuditAction, string> = {
+  read: 'Opened',
+  create: 'Added',
+  amend: 'Amended',
+  archive: 'Archived',
+  export: 'Downloaded',
+  print: 'Printed',
+  'sign-in': 'Signed in',
+  'sign-in-failed': 'Sign-in refused',
+  'sign-out': 'Signed out',
+  invite: 'Invited a user',
+  'role-change': 'Changed a role',
+  'share-change': 'Changed a share',
+  'catalogue-change': 'Changed the catalogue',
+  'policy-change': 'Changed a setting',
+};
+
+export const AUDIT_OUTCOME_LABEL: Record<AuditOutcome, string> = {
+  allowed: 'Done',
+  refused: 'Refused',
+  failed: 'Failed',
 };

@@ -2,6 +2,8 @@
 // wraps the domain's and authz's lists), so the database, the contract and the rules cannot drift.
 // The order of each list is the order of the PostgreSQL enum: append new values, never reorder.
 import {
+  AUDIT_ACTIONS,
+  AUDIT_OUTCOMES,
   COMPLICATION_KINDS,
   COMPONENT_KINDS,
   CONNECTIONS,
@@ -58,3 +60,5 @@ export const radiographKindEnum = pgEnum('radiograph_kind', RADIOGRAPH_KINDS);
 export const patientSexEnum = pgEnum('patient_sex', PATIENT_SEXES);
 export const preferredLanguageEnum = pgEnum('preferred_language', PREFERRED_LANGUAGES);
 export const patientVersionKindEnum = pgEnum('patient_version_kind', PATIENT_VERSION_KINDS);
+export const auditActionEnum = pgEnum('audit_action', AUDIT_ACTIONS);
+export const auditOutcomeEnum = pgEnum('audit_outcome', AUDIT_OUTCOMES);

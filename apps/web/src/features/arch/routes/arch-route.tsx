@@ -11,6 +11,7 @@ import { LoadingState } from '../../../lib/components/loading-state';
 import { formatDate } from '../../../lib/dates';
 import { MAINTENANCE_NOTE } from '../../../lib/labels';
 import { useToothSystem } from '../../../lib/tooth-system';
+import { PatientAccessLog } from '../../audit';
 import { usePatient } from '../../patients';
 import { AddSiteControl } from '../components/add-site-control';
 import { ArchDrawing } from '../components/arch-drawing';
@@ -142,6 +143,9 @@ export function ArchRoute() {
           </>
         )}
       </section>
+      <Can I="read" this={subject('PatientAudit', { practiceId: data.practiceId, patientId: data.id })}>
+        <PatientAccessLog patientId={data.id} />
+      </Can>
     </div>
   );
 }

@@ -1,8 +1,5 @@
-// Pure helpers of the recall module: CSV quoting. (The baseline choice, the hand-over to
-// classifyPeriImplant and the reminder windows are clinical rules, tested with their sources in
-// packages/domain: peri-implant-baseline.test.ts and recall-reminders.test.ts.)
 import { describe, expect, it } from 'vitest';
-import { csvField, csvLine } from './exam-rules.js';
+import { csvField, csvLine } from './csv.js';
 
 describe('CSV (RFC 4180)', () => {
   it('quotes commas, quotes and line breaks, and defuses formulas', () => {
