@@ -174,6 +174,10 @@ export const TIMELINE_KINDS = [
   'complication',
   'torque',
   'recall-exam',
+  // A sitting ends with its radiograph, then what was read from it (bone levels, a seating check).
+  'radiograph',
+  'bone-level',
+  'seating-check',
 ] as const;
 export const TimelineKind = z.enum(TIMELINE_KINDS);
 export type TimelineKind = z.infer<typeof TimelineKind>;
@@ -213,3 +217,12 @@ export type RadiographFileType = z.infer<typeof RadiographFileType>;
 export const RADIOGRAPH_KINDS = ['periapical', 'bitewing', 'panoramic', 'cbct-export', 'other'] as const;
 export const RadiographKind = z.enum(RADIOGRAPH_KINDS);
 export type RadiographKind = z.infer<typeof RadiographKind>;
+
+/** The two Timeline events whose seating a radiograph can confirm (a delivery, an impression). */
+export const SEATING_EVENTS = ['impression', 'delivery'] as const;
+export const SeatingEvent = z.enum(SEATING_EVENTS);
+export type SeatingEvent = z.infer<typeof SeatingEvent>;
+/** What the radiograph showed: seated, not seated, or cannot tell. */
+export const SEATING_ANSWERS = ['yes', 'no', 'unsure'] as const;
+export const SeatingAnswer = z.enum(SEATING_ANSWERS);
+export type SeatingAnswer = z.infer<typeof SeatingAnswer>;

@@ -13,3 +13,4 @@ export * from './recalls.js';
 export * from './placements.js';
 export * from './routes.js';
 export * from './radiographs.js';
+export * from './seating.js';

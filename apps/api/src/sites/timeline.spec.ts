@@ -12,6 +12,9 @@ const empty: TimelineRows = {
   torque: [],
   complications: [],
   recallExams: [],
+  radiographs: [],
+  measurements: [],
+  seatingChecks: [],
 };
 const torque = (id: string, performedAt: string, amended = false) => ({
   id,

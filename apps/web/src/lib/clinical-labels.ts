@@ -14,6 +14,8 @@ import {
   type RestorationKind,
   type RestorationStatus,
   type Retention,
+  type SeatingAnswer,
+  type SeatingEvent,
   type TorqueReason,
   type TorqueVerdict,
   type Tray,
@@ -169,3 +171,16 @@ export const RISK_FACTOR_LABEL: Record<RecallRiskFactor, string> = {
   periodontitisHistory: 'History of periodontitis',
   priorPeriImplantitis: 'Prior peri-implantitis',
 };
+
+export const SEATING_EVENT_LABEL: Record<SeatingEvent, string> = {
+  impression: 'Impression',
+  delivery: 'Delivery',
+};
+
+/** What the radiograph showed of the seating; the Stack says SEATING_NOT_CHECKED when there is no check. */
+export const SEATING_ANSWER_LABEL: Record<SeatingAnswer, string> = {
+  yes: 'Seated',
+  no: 'Not seated',
+  unsure: 'Unsure',
+};
+export const SEATING_NOT_CHECKED = 'Not checked radiographically';

@@ -20,6 +20,8 @@ import {
   RESTORATION_STATUSES,
   RETENTIONS,
   ROLES,
+  SEATING_ANSWERS,
+  SEATING_EVENTS,
   SITE_STATUSES,
   TORQUE_REASONS,
   TORQUE_VERDICTS,
@@ -52,3 +54,5 @@ export const reminderKindEnum = pgEnum('reminder_kind', REMINDER_KINDS);
 export const reminderStatusEnum = pgEnum('reminder_status', REMINDER_STATUSES);
 export const radiographFileTypeEnum = pgEnum('radiograph_file_type', RADIOGRAPH_FILE_TYPES);
 export const radiographKindEnum = pgEnum('radiograph_kind', RADIOGRAPH_KINDS);
+export const seatingEventEnum = pgEnum('seating_event', SEATING_EVENTS);
+export const seatingAnswerEnum = pgEnum('seating_answer', SEATING_ANSWERS);

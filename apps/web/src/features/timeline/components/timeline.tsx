@@ -23,6 +23,9 @@ const KIND_ICON: Record<TimelineKind, IconName> = {
   torque: 'wrench',
   complication: 'warning-sign',
   'recall-exam': 'pulse',
+  radiograph: 'media',
+  'bone-level': 'timeline-line-chart',
+  'seating-check': 'tick-circle',
 };
 
 function EventRow({ event, siteId }: { event: TimelineEvent; siteId: string }) {
