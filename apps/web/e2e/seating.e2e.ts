@@ -66,6 +66,8 @@ describe('seating confirmation', () => {
     // The Stack links to the radiograph in the viewer.
     await seating.getByRole('link').click();
     await page.getByTestId('viewer-image').waitFor();
-    expect(h.problems.slice(seen)).toEqual([]);
+    // The sign-in page's session probe answers 401 before signing in; nothing else may fail.
+    const unexpected = h.problems.slice(seen).filter((p) => !/responded with a status of 401/.test(p));
+    expect(unexpected).toEqual([]);
   });
 });
