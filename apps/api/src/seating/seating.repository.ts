@@ -1,6 +1,7 @@
 // SQL of seating checks. Every lookup joins the patient and puts the user's scope in the `where`
 // clause, so another practice's restoration, radiograph or check is never loaded.
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
+import type { SeatingEvent } from '@torquetrail/contracts';
 import type { Db } from '../db/database.js';
 import { insertAmendment, isCurrentVersion, supersededById } from '../db/amendments.js';
 import {
@@ -106,7 +107,7 @@ export async function checksOfRestorations(db: Db, restorationIds: readonly stri
 }
 
 /** The first version of the check of one event, if any (the unique index keeps it to one). */
-export async function firstCheckOf(db: Db, restorationId: string, event: 'impression' | 'delivery') {
+export async function firstCheckOf(db: Db, restorationId: string, event: SeatingEvent) {
   const [row] = await db
     .select({ id: seatingChecks.id })
     .from(seatingChecks)
