@@ -24,6 +24,7 @@ import { TorqueModule } from './torque/torque.module.js';
 import { PlacementsModule } from './placements/placements.module.js';
 import { StorageModule } from './storage/storage.module.js';
 import { RadiographsModule } from './radiographs/radiographs.module.js';
+import { SeatingModule } from './seating/seating.module.js';
 
 @Module({})
 export class AppModule {
@@ -49,6 +50,7 @@ export class AppModule {
         ComplicationsModule,
         RecallsModule,
         RadiographsModule,
+        SeatingModule,
         ...(env.NODE_ENV === 'production' ? [] : [OpenApiModule]),
       ],
       providers: [

@@ -28,6 +28,11 @@ const backupDir = path.join(workDir, 'backup');
 // The scripts read the API's variables; PORT=0 (the tests' own app) is not a port they accept.
 const { PORT: _port, ...scriptEnv } = process.env;
 const targets: { database: string; bucket: string }[] = [];
+/**
+ * A backup or restore copies every object: the demo seed's radiograph files (about a hundred) took
+ * a round trip to 58 s on a loaded 2-core machine, so these tests get two minutes.
+ */
+const ROUND_TRIP_MS = 120_000;
 
 /** A new, empty database and bucket name to restore into; each test has its own. */
 async function emptyTarget() {
@@ -106,79 +111,95 @@ beforeAll(async () => {
   await storage.put(`practice/p1/${randomUUID()}.pdf`, Buffer.from('%PDF-1.4 test'), 'application/pdf');
   const backup = await run(process.execPath, [script('backup'), '--out', backupDir], { env: scriptEnv });
   if (!backup.stdout.includes('[backup] done')) throw new Error(`backup did not finish:\n${backup.stdout}`);
-}, 60_000);
+}, ROUND_TRIP_MS);
 
 afterAll(async () => {
   await ctx.close();
   for (const { database, bucket } of targets) {
     await admin(`drop database if exists "${database}" with (force)`);
     const list = await storage.client.send(new ListObjectsV2Command({ Bucket: bucket })).catch(() => null);
-    for (const object of list?.Contents ?? [])
-      await storage.client.send(new DeleteObjectCommand({ Bucket: bucket, Key: object.Key }));
+    // The seed's radiograph files make about a hundred objects per bucket: delete them 16 at a time.
+    const keys = (list?.Contents ?? []).map((o) => o.Key);
+    for (let i = 0; i < keys.length; i += 16)
+      await Promise.all(
+        keys.slice(i, i + 16).map((Key) => storage.client.send(new DeleteObjectCommand({ Bucket: bucket, Key }))),
+      );
     await storage.client.send(new DeleteBucketCommand({ Bucket: bucket })).catch(() => undefined);
   }
   fs.rmSync(workDir, { recursive: true, force: true });
-});
+}, 90_000);
 
 describe('backup and restore (npm run backup / npm run restore)', () => {
-  it('round-trips every row and every object byte for byte into an empty database and bucket', async () => {
-    const target = await emptyTarget();
-    const manifest = JSON.parse(fs.readFileSync(path.join(backupDir, 'manifest.json'), 'utf8'));
-    expect(manifest.format).toBe('torquetrail-backup/1');
+  it(
+    'round-trips every row and every object byte for byte into an empty database and bucket',
+    async () => {
+      const target = await emptyTarget();
+      const manifest = JSON.parse(fs.readFileSync(path.join(backupDir, 'manifest.json'), 'utf8'));
+      expect(manifest.format).toBe('torquetrail-backup/1');
 
-    const restore = await run(process.execPath, [script('restore'), backupDir], { env: target.env });
-    expect(restore.stdout).toContain('every hash verified');
-    expect(restore.stdout).not.toContain('row counts differ');
+      const restore = await run(process.execPath, [script('restore'), backupDir], { env: target.env });
+      expect(restore.stdout).toContain('every hash verified');
+      expect(restore.stdout).not.toContain('row counts differ');
 
-    const before = await rowCounts(sourceUrl);
-    const after = await rowCounts(target.url);
-    expect(Object.keys(before).length).toBeGreaterThan(15);
-    expect(before['public.patients']).toBeGreaterThan(0);
-    expect(after).toEqual(before);
-    expect(manifest.database.rows).toEqual(before);
+      const before = await rowCounts(sourceUrl);
+      const after = await rowCounts(target.url);
+      expect(Object.keys(before).length).toBeGreaterThan(15);
+      expect(before['public.patients']).toBeGreaterThan(0);
+      expect(after).toEqual(before);
+      expect(manifest.database.rows).toEqual(before);
 
-    // The dump carries no grants: the restore gives the API's role its rights again, and no more.
-    const asApp = new pg.Client({ connectionString: target.appUrl });
-    await asApp.connect();
-    try {
-      const patients = await asApp.query('select count(*)::int as n from patients');
-      expect(patients.rows[0].n).toBe(before['public.patients']);
-      await expect(asApp.query(`update audit_events set action = 'read'`)).rejects.toThrow(/permission denied/);
-    } finally {
-      await asApp.end();
-    }
+      // The dump carries no grants: the restore gives the API's role its rights again, and no more.
+      const asApp = new pg.Client({ connectionString: target.appUrl });
+      await asApp.connect();
+      try {
+        const patients = await asApp.query('select count(*)::int as n from patients');
+        expect(patients.rows[0].n).toBe(before['public.patients']);
+        await expect(asApp.query(`update audit_events set action = 'read'`)).rejects.toThrow(/permission denied/);
+      } finally {
+        await asApp.end();
+      }
 
-    const sourceObjects = await objectHashes(storage.bucket);
-    expect(Object.keys(sourceObjects).length).toBeGreaterThanOrEqual(2);
-    expect(await objectHashes(target.bucket)).toEqual(sourceObjects);
-  }, 60_000);
+      const sourceObjects = await objectHashes(storage.bucket);
+      expect(Object.keys(sourceObjects).length).toBeGreaterThanOrEqual(2);
+      expect(await objectHashes(target.bucket)).toEqual(sourceObjects);
+    },
+    ROUND_TRIP_MS,
+  );
 
-  it('refuses to restore over a non-empty database and bucket unless told (--force)', async () => {
-    const target = await emptyTarget();
-    await run(process.execPath, [script('restore'), backupDir], { env: target.env });
-    const refused = await run(process.execPath, [script('restore'), backupDir], { env: target.env }).catch(
-      (error: { code: number; stderr: string }) => error,
-    );
-    expect(refused).toMatchObject({ code: 1 });
-    expect((refused as { stderr: string }).stderr).toContain('refusing to restore');
+  it(
+    'refuses to restore over a non-empty database and bucket unless told (--force)',
+    async () => {
+      const target = await emptyTarget();
+      await run(process.execPath, [script('restore'), backupDir], { env: target.env });
+      const refused = await run(process.execPath, [script('restore'), backupDir], { env: target.env }).catch(
+        (error: { code: number; stderr: string }) => error,
+      );
+      expect(refused).toMatchObject({ code: 1 });
+      expect((refused as { stderr: string }).stderr).toContain('refusing to restore');
 
-    const forced = await run(process.execPath, [script('restore'), backupDir, '--force'], { env: target.env });
-    expect(forced.stdout).toContain('every hash verified');
-    expect(await rowCounts(target.url)).toEqual(await rowCounts(sourceUrl));
-  }, 60_000);
+      const forced = await run(process.execPath, [script('restore'), backupDir, '--force'], { env: target.env });
+      expect(forced.stdout).toContain('every hash verified');
+      expect(await rowCounts(target.url)).toEqual(await rowCounts(sourceUrl));
+    },
+    ROUND_TRIP_MS,
+  );
 
-  it('refuses a backup whose files do not match the manifest, and writes nothing', async () => {
-    const tampered = path.join(workDir, 'tampered');
-    fs.cpSync(backupDir, tampered, { recursive: true });
-    const manifest = JSON.parse(fs.readFileSync(path.join(tampered, 'manifest.json'), 'utf8'));
-    fs.appendFileSync(path.join(tampered, 'objects', manifest.bucket.objects[0].sha256), 'x');
-    const target = await emptyTarget();
-    const refused = await run(process.execPath, [script('restore'), tampered], { env: target.env }).catch(
-      (error: { code: number; stderr: string }) => error,
-    );
-    expect(refused).toMatchObject({ code: 1 });
-    expect((refused as { stderr: string }).stderr).toContain('does not match its hash');
-    expect(await rowCounts(target.url)).toEqual({});
-    expect(await objectHashes(target.bucket).catch(() => ({}))).toEqual({});
-  }, 60_000);
+  it(
+    'refuses a backup whose files do not match the manifest, and writes nothing',
+    async () => {
+      const tampered = path.join(workDir, 'tampered');
+      fs.cpSync(backupDir, tampered, { recursive: true });
+      const manifest = JSON.parse(fs.readFileSync(path.join(tampered, 'manifest.json'), 'utf8'));
+      fs.appendFileSync(path.join(tampered, 'objects', manifest.bucket.objects[0].sha256), 'x');
+      const target = await emptyTarget();
+      const refused = await run(process.execPath, [script('restore'), tampered], { env: target.env }).catch(
+        (error: { code: number; stderr: string }) => error,
+      );
+      expect(refused).toMatchObject({ code: 1 });
+      expect((refused as { stderr: string }).stderr).toContain('does not match its hash');
+      expect(await rowCounts(target.url)).toEqual({});
+      expect(await objectHashes(target.bucket).catch(() => ({}))).toEqual({});
+    },
+    ROUND_TRIP_MS,
+  );
 });

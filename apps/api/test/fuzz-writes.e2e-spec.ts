@@ -84,6 +84,14 @@ const TARGETS: Record<string, { as: AccountKey | null; path: string }> = {
     as: 'dentist',
     path: `/api/radiograph-measurements/${await t.fresh.measurement()}/amendments`,
   },
+  'POST /restorations/:id/seating-checks': {
+    as: 'dentist',
+    path: `/api/restorations/${t.haroldBridge}/seating-checks`,
+  },
+  'POST /seating-checks/:id/amendments': {
+    as: 'dentist',
+    path: `/api/seating-checks/${await t.fresh.seatingCheck()}/amendments`,
+  },
   'POST /restorations': { as: 'dentist', path: '/api/restorations' },
   'POST /restorations/:id/amendments': { as: 'dentist', path: `/api/restorations/${await t.fresh.plan()}/amendments` },
   'POST /restorations/:id/delivery': { as: 'dentist', path: `/api/restorations/${await t.fresh.plan()}/delivery` },

@@ -321,6 +321,27 @@ const TABLE: Record<string, Case[]> = {
     body: () => ({ points: measurementPoints, reason: 'Apex marked one thread too short' }),
     expect: every(201, { practice_admin: 403, surgeonNoShare: 404, otherPracticeDentist: 404 }),
   }),
+  // Seating checks of Harold's bridge (shared with the surgeon): a write on the restoration's
+  // record, so the dentist only; the hygienist files the radiograph but may not mark seating.
+  'GET /api/restorations/:id/seating-checks': one({
+    path: () => `/api/restorations/${haroldBridge}/seating-checks`,
+    expect: sharedRead,
+  }),
+  'POST /api/restorations/:id/seating-checks': one({
+    path: () => `/api/restorations/${haroldBridge}/seating-checks`,
+    body: () => ({
+      event: 'impression',
+      radiographId: radiograph,
+      seated: 'unsure',
+      note: 'Coping margin hard to see',
+    }),
+    expect: dentistWrite(201),
+  }),
+  'POST /api/seating-checks/:id/amendments': one({
+    path: async () => `/api/seating-checks/${await fresh.seatingCheck()}/amendments`,
+    body: () => ({ radiographId: radiograph, seated: 'no', reason: 'Read again: a gap at the distal margin' }),
+    expect: dentistWrite(201),
+  }),
   'GET /api/wrenches/:id/calibrations': one(
     {
       path: () => `/api/wrenches/${wrench.id}/calibrations`,

@@ -21,7 +21,8 @@ describe('radiographs', () => {
       .click();
     await page.getByTestId('open-radiographs').click();
     await page.getByRole('heading', { name: 'Radiographs' }).waitFor();
-    await page.getByText('No radiographs yet').waitFor();
+    // The demo seed already holds Harold's recall radiographs.
+    await page.getByTestId('radiograph-card').first().waitFor();
 
     // 256 × 256, 16 bits: a bright implant-like bar on a dark ground
     const file = dicomFile({
@@ -43,7 +44,7 @@ describe('radiographs', () => {
     const row = page.getByTestId('upload-row').first();
     await expect.poll(() => row.textContent()).toMatch(/lower-left\.dcm.*\(100 %\)/);
     expect(await row.getByRole('progressbar').count()).toBe(1);
-    const card = page.getByTestId('radiograph-card').first();
+    const card = page.getByTestId('radiograph-card').filter({ hasText: '2025-06-11' });
     await card.waitFor();
     expect(await card.textContent()).toMatch(/Periapical.*2025-06-11/);
     await expect

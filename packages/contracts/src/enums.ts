@@ -195,6 +195,10 @@ export const TIMELINE_KINDS = [
   'complication',
   'torque',
   'recall-exam',
+  // A sitting ends with its radiograph, then what was read from it (bone levels, a seating check).
+  'radiograph',
+  'bone-level',
+  'seating-check',
 ] as const;
 export const TimelineKind = z.enum(TIMELINE_KINDS);
 export type TimelineKind = z.infer<typeof TimelineKind>;
@@ -260,3 +264,11 @@ export type AuditAction = z.infer<typeof AuditAction>;
 export const AUDIT_OUTCOMES = ['allowed', 'refused', 'failed'] as const;
 export const AuditOutcome = z.enum(AUDIT_OUTCOMES);
 export type AuditOutcome = z.infer<typeof AuditOutcome>;
+/** The two Timeline events whose seating a radiograph can confirm (a delivery, an impression). */
+export const SEATING_EVENTS = ['impression', 'delivery'] as const;
+export const SeatingEvent = z.enum(SEATING_EVENTS);
+export type SeatingEvent = z.infer<typeof SeatingEvent>;
+/** What the radiograph showed: seated, not seated, or cannot tell. */
+export const SEATING_ANSWERS = ['yes', 'no', 'unsure'] as const;
+export const SeatingAnswer = z.enum(SEATING_ANSWERS);
+export type SeatingAnswer = z.infer<typeof SeatingAnswer>;

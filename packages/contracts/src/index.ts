@@ -14,3 +14,4 @@ export * from './placements.js';
 export * from './routes.js';
 export * from './radiographs.js';
 export * from './audit.js';
+export * from './seating.js';

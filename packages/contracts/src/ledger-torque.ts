@@ -99,6 +99,10 @@ export const TimelineEvent = z.object({
   /** Torque entries: the applied value, N·cm. */
   appliedNcm: z.number().nullable(),
   byName: z.string().nullable(),
+  /** Radiograph, bone-level and seating-check entries: the radiograph to show and open. */
+  radiographId: Id.nullable(),
+  /** A radiograph marked entered in error stays in the Timeline, marked, with the reason. */
+  enteredInErrorReason: z.string().nullable(),
 });
 export type TimelineEvent = z.infer<typeof TimelineEvent>;
 

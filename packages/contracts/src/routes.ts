@@ -4,6 +4,7 @@ import { recallRoutes } from './recalls.js';
 import { placementRoutes } from './placements.js';
 import { radiographRoutes } from './radiographs.js';
 import { auditRoutes } from './audit.js';
+import { seatingRoutes } from './seating.js';
 import { Me, SignInBody } from './auth.js';
 import { HealthReply, LivenessReply } from './health.js';
 import { PatientDetail, PatientListQuery, PatientListReply, patientRoutes } from './patients.js';
@@ -82,6 +83,7 @@ export const apiRoutes: RouteContract[] = [
   ...ledgerRoutes,
   ...recallRoutes,
   ...radiographRoutes,
+  ...seatingRoutes,
   ...placementRoutes,
   ...auditRoutes,
 ];

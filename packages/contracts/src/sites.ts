@@ -13,6 +13,7 @@ import {
   TorqueReason,
   TorqueVerdict,
 } from './enums.js';
+import { SeatingSummary } from './seating.js';
 
 export const Placement = z.object({
   placedOn: IsoDate,
@@ -92,6 +93,8 @@ export const StackRestoration = z.object({
   retrievable: z.boolean(),
   /** FDI positions of all sites this restoration spans. */
   spansFdi: z.array(FdiPosition),
+  /** The current radiographic check of the delivery's seating; null = not checked radiographically. */
+  seating: SeatingSummary.nullable(),
 });
 export type StackRestoration = z.infer<typeof StackRestoration>;
 

@@ -5,12 +5,16 @@ import { seedDemoScenario, type SeedSummary } from './demo-scenario.js';
 import { seedDemoRecallHistory } from './demo-recall-history.js';
 import { seedLedgerHistory } from './demo-ledger-history.js';
 import { seedAuditHistory } from './demo-audit-history.js';
+import { seedDemoRadiographs, type SeedStorage } from './demo-radiographs.js';
 
-export async function seedDemo(tx: Tx, today: string): Promise<SeedSummary> {
+/** `storage` receives the radiograph files (objects first: the rows are written after them). */
+export async function seedDemo(tx: Tx, today: string, storage: SeedStorage): Promise<SeedSummary> {
   const { summary, refs } = await seedDemoScenario(tx, today);
   // Feature seeds (ledger history, recall history) are added here, each in a file of its own.
   await seedDemoRecallHistory(tx, refs);
   await seedLedgerHistory(tx, refs);
+  // Radiographs after the recalls: their bone levels are read from the recall exams seeded above.
+  await seedDemoRadiographs(tx, refs, storage);
   // Last: the audit trail follows the clinical history the seeds above wrote.
   await seedAuditHistory(tx, refs);
   return summary;

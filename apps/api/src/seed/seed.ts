@@ -2,18 +2,21 @@
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { sql } from 'drizzle-orm';
+import { parseEnv } from '../config/env.js';
 import { createDatabase, createPool, type Database } from '../db/database.js';
 import { practices } from '../db/schema/index.js';
+import { StorageService } from '../storage/storage.service.js';
 import { seedDemo } from './demo.js';
+import type { SeedStorage } from './demo-radiographs.js';
 import type { SeedSummary } from './demo-scenario.js';
 
 export const todayIso = () => new Date().toISOString().slice(0, 10);
 
 /** Seeds in one transaction; returns null when the database already holds a practice. */
-export async function seedIfEmpty(db: Database, today = todayIso()): Promise<SeedSummary | null> {
+export async function seedIfEmpty(db: Database, storage: SeedStorage, today = todayIso()): Promise<SeedSummary | null> {
   const [{ count }] = (await db.select({ count: sql<number>`count(*)::int` }).from(practices)) as [{ count: number }];
   if (count > 0) return null;
-  return db.transaction((tx) => seedDemo(tx, today));
+  return db.transaction((tx) => seedDemo(tx, today, storage));
 }
 
 const isMain = process.argv[1] && path.resolve(process.argv[1]) === fileURLToPath(import.meta.url);
@@ -24,7 +27,9 @@ if (isMain) {
     process.exit(2);
   }
   const pool = createPool(url);
-  seedIfEmpty(createDatabase(pool))
+  // The radiograph files go to the configured bucket through the same SDK client the API uses.
+  const storage = new StorageService(parseEnv(process.env));
+  seedIfEmpty(createDatabase(pool), storage)
     .then((summary) =>
       console.log(
         summary
@@ -36,5 +41,8 @@ if (isMain) {
       console.error(`[seed] failed: ${error instanceof Error ? error.message : String(error)}`);
       process.exitCode = 1;
     })
-    .finally(() => void pool.end());
+    .finally(() => {
+      storage.onModuleDestroy();
+      void pool.end();
+    });
 }

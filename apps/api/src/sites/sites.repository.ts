@@ -10,8 +10,10 @@ import {
   patients,
   placements,
   platforms,
+  radiographs,
   restorationSites,
   restorations,
+  seatingChecks,
   torqueEvents,
 } from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
@@ -180,4 +182,30 @@ export async function torqueReasonsByInstance(db: Db, instanceIds: string[]) {
     .from(torqueEvents)
     .where(and(inArray(torqueEvents.componentInstanceId, instanceIds), isCurrentVersion(torqueEvents)))
     .orderBy(asc(torqueEvents.performedAt));
+}
+
+/**
+ * The current seating check of a restoration's delivery (written by the seating feature; the Stack
+ * only reads it), with whether its radiograph has since been marked entered in error.
+ */
+export async function deliverySeating(db: Db, restorationId: string) {
+  const [row] = await db
+    .select({
+      checkId: seatingChecks.id,
+      seated: seatingChecks.seated,
+      radiographId: seatingChecks.radiographId,
+      radiographTakenOn: radiographs.takenOn,
+      radiographEnteredInError: sql<boolean>`${radiographs.enteredInErrorAt} is not null`,
+      recordedAt: seatingChecks.recordedAt,
+    })
+    .from(seatingChecks)
+    .innerJoin(radiographs, eq(radiographs.id, seatingChecks.radiographId))
+    .where(
+      and(
+        eq(seatingChecks.restorationId, restorationId),
+        eq(seatingChecks.event, 'delivery'),
+        isCurrentVersion(seatingChecks),
+      ),
+    );
+  return row ? { ...row, recordedAt: row.recordedAt.toISOString() } : null;
 }

@@ -6,6 +6,7 @@ import { assertCan, type Scope } from '../authz/scope.js';
 import { DB, type Database } from '../db/database.js';
 import { MaintenanceStatusService } from '../recalls/maintenance-status.service.js';
 import {
+  deliverySeating,
   findCurrentPlacement,
   findCurrentRestoration,
   findVisibleSite,
@@ -16,7 +17,14 @@ import {
 import { buildTimeline } from './timeline.js';
 import * as timeline from './timeline.repository.js';
 
-type ReadableType = 'Placement' | 'ComponentInstance' | 'Restoration' | 'TorqueEvent' | 'Complication' | 'RecallExam';
+type ReadableType =
+  | 'Placement'
+  | 'ComponentInstance'
+  | 'Restoration'
+  | 'TorqueEvent'
+  | 'Complication'
+  | 'RecallExam'
+  | 'Radiograph';
 
 @Injectable()
 export class SitesService {
@@ -94,7 +102,13 @@ export class SitesService {
             : null,
         };
       }),
-      restoration: restoration ? { ...restoration, retrievable: isRetrievable(restoration.retention) } : null,
+      restoration: restoration
+        ? {
+            ...restoration,
+            retrievable: isRetrievable(restoration.retention),
+            seating: restoration.deliveredOn ? await deliverySeating(this.db, restoration.id) : null,
+          }
+        : null,
     };
   }
 
@@ -102,14 +116,32 @@ export class SitesService {
   async timeline(ability: AppAbility, scope: Scope, siteId: string, kinds?: TimelineKind[]): Promise<TimelineReply> {
     const { site, canRead } = await this.visible(ability, scope, siteId);
     const none = Promise.resolve([] as never[]);
-    const [placements, restorations, parts, torque, complications, recallExams] = await Promise.all([
+    const readRadiographs = canRead('Radiograph');
+    const [
+      placements,
+      restorations,
+      parts,
+      torque,
+      complications,
+      recallExams,
+      radiographs,
+      measurements,
+      seatingChecks,
+    ] = await Promise.all([
       canRead('Placement') ? timeline.placementsOfSite(this.db, site.id) : none,
       canRead('Restoration') ? timeline.restorationsOfSite(this.db, site.id) : none,
       canRead('ComponentInstance') ? timeline.partsOfSite(this.db, site.id) : none,
       canRead('TorqueEvent') ? timeline.torqueEventsOfSite(this.db, site.id) : none,
       canRead('Complication') ? timeline.complicationsOfSite(this.db, site.id) : none,
       canRead('RecallExam') ? timeline.recallExamsOfSite(this.db, site.id) : none,
+      readRadiographs ? timeline.radiographsOfSite(this.db, site.id) : none,
+      readRadiographs ? timeline.measurementsOfSite(this.db, site.id) : none,
+      readRadiographs && canRead('Restoration') ? timeline.seatingChecksOfSite(this.db, site.id) : none,
     ]);
-    return buildTimeline(site.id, { placements, restorations, parts, torque, complications, recallExams }, kinds);
+    return buildTimeline(
+      site.id,
+      { placements, restorations, parts, torque, complications, recallExams, radiographs, measurements, seatingChecks },
+      kinds,
+    );
   }
 }

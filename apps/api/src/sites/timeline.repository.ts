@@ -11,9 +11,13 @@ import {
   labPrescriptions,
   placements,
   platforms,
+  radiographMeasurements,
+  radiographs,
+  radiographSites,
   recallExams,
   restorationSites,
   restorations,
+  seatingChecks,
   torqueEvents,
   torqueWrenches,
   users,
@@ -186,4 +190,77 @@ export async function recallExamsOfSite(db: Db, siteId: string) {
     .from(recallExams)
     .leftJoin(users, eq(users.id, recallExams.examinerId))
     .where(eq(recallExams.siteId, siteId));
+}
+
+/** Radiographs showing the site, entered-in-error ones included (the Timeline keeps them, marked). */
+export async function radiographsOfSite(db: Db, siteId: string) {
+  return db
+    .select({
+      id: radiographs.id,
+      kind: radiographs.kind,
+      fileType: radiographs.fileType,
+      takenOn: radiographs.takenOn,
+      uploadedAt: radiographs.uploadedAt,
+      note: radiographs.note,
+      enteredInErrorReason: radiographs.enteredInErrorReason,
+      byName: users.displayName,
+    })
+    .from(radiographSites)
+    .innerJoin(radiographs, eq(radiographs.id, radiographSites.radiographId))
+    .leftJoin(users, eq(users.id, radiographs.uploadedBy))
+    .where(eq(radiographSites.siteId, siteId));
+}
+
+/** Bone levels measured at the site, every version, with the date of the image they were read from. */
+export async function measurementsOfSite(db: Db, siteId: string) {
+  return db
+    .select({
+      id: radiographMeasurements.id,
+      radiographId: radiographMeasurements.radiographId,
+      mesialMm: radiographMeasurements.mesialMm,
+      distalMm: radiographMeasurements.distalMm,
+      measuredAt: radiographMeasurements.measuredAt,
+      takenOn: radiographs.takenOn,
+      enteredInErrorReason: radiographs.enteredInErrorReason,
+      byName: users.displayName,
+      supersedesId: radiographMeasurements.supersedesId,
+      amendmentReason: radiographMeasurements.amendmentReason,
+      amended: isAmended(radiographMeasurements),
+    })
+    .from(radiographMeasurements)
+    .innerJoin(radiographs, eq(radiographs.id, radiographMeasurements.radiographId))
+    .leftJoin(users, eq(users.id, radiographMeasurements.measuredBy))
+    .where(eq(radiographMeasurements.siteId, siteId));
+}
+
+/** Seating checks of the restorations on the site (written by the seating feature), every version. */
+export async function seatingChecksOfSite(db: Db, siteId: string) {
+  return db
+    .select({
+      id: seatingChecks.id,
+      restorationId: seatingChecks.restorationId,
+      event: seatingChecks.event,
+      seated: seatingChecks.seated,
+      note: seatingChecks.note,
+      radiographId: seatingChecks.radiographId,
+      radiographTakenOn: radiographs.takenOn,
+      enteredInErrorReason: radiographs.enteredInErrorReason,
+      recordedAt: seatingChecks.recordedAt,
+      byName: users.displayName,
+      supersedesId: seatingChecks.supersedesId,
+      amendmentReason: seatingChecks.amendmentReason,
+      amended: isAmended(seatingChecks),
+    })
+    .from(seatingChecks)
+    .innerJoin(radiographs, eq(radiographs.id, seatingChecks.radiographId))
+    .leftJoin(users, eq(users.id, seatingChecks.recordedBy))
+    .where(
+      inArray(
+        seatingChecks.restorationId,
+        db
+          .select({ id: restorationSites.restorationId })
+          .from(restorationSites)
+          .where(eq(restorationSites.siteId, siteId)),
+      ),
+    );
 }

@@ -12,6 +12,9 @@ const empty: TimelineRows = {
   torque: [],
   complications: [],
   recallExams: [],
+  radiographs: [],
+  measurements: [],
+  seatingChecks: [],
 };
 const torque = (id: string, performedAt: string, amended = false) => ({
   id,
@@ -93,5 +96,72 @@ describe('buildTimeline', () => {
       ['new', false],
     ]);
     expect(t.torqueSeries[0].points.map((p) => p.id)).toEqual(['new']);
+  });
+  it('puts the radiograph of a recall day after the exam and the bone levels after the radiograph; an entered-in-error one stays, marked', () => {
+    const rows: TimelineRows = {
+      ...empty,
+      recallExams: [
+        {
+          id: 'e1',
+          examinedOn: '2023-05-16',
+          status: 'peri-implantitis',
+          boneLevelMm: 3.4,
+          byName: null,
+          supersedesId: null,
+          amendmentReason: null,
+          amended: false,
+        },
+      ],
+      measurements: [
+        {
+          id: 'm1',
+          radiographId: 'x1',
+          mesialMm: 3.4,
+          distalMm: 2.95,
+          measuredAt: at('2023-05-16T11:30:00Z'),
+          takenOn: '2023-05-16',
+          enteredInErrorReason: null,
+          byName: 'Maren Holt',
+          supersedesId: null,
+          amendmentReason: null,
+          amended: false,
+        },
+      ],
+      radiographs: [
+        {
+          id: 'x1',
+          kind: 'periapical',
+          fileType: 'dicom',
+          takenOn: '2023-05-16',
+          uploadedAt: at('2023-05-16T11:15:00Z'),
+          note: null,
+          enteredInErrorReason: null,
+          byName: 'Maren Holt',
+        },
+        {
+          id: 'x2',
+          kind: 'cbct-export',
+          fileType: 'png',
+          takenOn: null,
+          uploadedAt: at('2024-01-02T08:00:00Z'),
+          note: null,
+          enteredInErrorReason: 'Another patient',
+          byName: null,
+        },
+      ],
+    };
+    const events = buildTimeline('s', rows).events;
+    expect(events.map((e) => [e.kind, e.id])).toEqual([
+      ['recall-exam', 'e1'],
+      ['radiograph', 'x1'],
+      ['bone-level', 'm1'],
+      ['radiograph', 'x2'],
+    ]);
+    expect(events[2]).toMatchObject({ title: 'Bone level measured: mesial 3.4 mm, distal 3.0 mm', radiographId: 'x1' });
+    expect(events[3]).toMatchObject({
+      title: 'Radiograph (entered in error): cbct export',
+      dateOnly: false,
+      enteredInErrorReason: 'Another patient',
+    });
   });
 });

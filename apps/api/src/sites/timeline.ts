@@ -4,6 +4,7 @@ import {
   TIMELINE_KINDS,
   type TimelineEvent,
   type TimelineKind,
+  type SeatingAnswer,
   type TimelineReply,
   type TorqueSeries,
 } from '@torquetrail/contracts';
@@ -19,7 +20,14 @@ export interface TimelineRows {
   torque: Rows<'torqueEventsOfSite'>;
   complications: Rows<'complicationsOfSite'>;
   recallExams: Rows<'recallExamsOfSite'>;
+  radiographs: Rows<'radiographsOfSite'>;
+  measurements: Rows<'measurementsOfSite'>;
+  seatingChecks: Rows<'seatingChecksOfSite'>;
 }
+
+/** What a seating check found, in the words of the Timeline's titles. */
+const SEATED_WORDS: Record<SeatingAnswer, string> = { yes: 'seated', no: 'not seated', unsure: 'unclear' };
+const mm = (v: number) => `${v.toFixed(1)} mm`;
 
 const day = (date: string) => `${date}T00:00:00.000Z`;
 const text = (v: string) => v.replace(/-/g, ' ');
@@ -49,6 +57,8 @@ function base(
     code: null,
     appliedNcm: null,
     byName: null,
+    radiographId: null,
+    enteredInErrorReason: null,
     ...rest,
   };
 }
@@ -205,6 +215,7 @@ export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: Timeli
       }),
     );
   }
+  addRadiographEvents(rows, events, recorded);
   const kept = kinds ? events.filter((e) => kinds.includes(e.kind)) : events;
   // Day first; within a day, the order of a sitting (date-only entries have no time of their own),
   // then the time, then when the entry was recorded.
@@ -237,4 +248,67 @@ export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: Timeli
         })),
     }));
   return { siteId, events: kept, torqueSeries };
+}
+
+/** Radiographs (entered-in-error ones marked), the bone levels read from them, and seating checks. */
+function addRadiographEvents(rows: TimelineRows, events: TimelineEvent[], recorded: Map<TimelineEvent, string>) {
+  for (const x of rows.radiographs) {
+    const event = base(
+      'radiograph',
+      x.id,
+      x.takenOn ? day(x.takenOn) : x.uploadedAt.toISOString(),
+      x.takenOn !== null,
+      `${x.enteredInErrorReason ? 'Radiograph (entered in error)' : 'Radiograph'}: ${text(x.kind)}`,
+      {
+        detail: x.note,
+        code: x.kind,
+        byName: x.byName,
+        radiographId: x.id,
+        enteredInErrorReason: x.enteredInErrorReason,
+      },
+    );
+    events.push(event);
+    recorded.set(event, x.uploadedAt.toISOString());
+  }
+  for (const m of rows.measurements) {
+    const event = base(
+      'bone-level',
+      m.id,
+      m.takenOn ? day(m.takenOn) : m.measuredAt.toISOString(),
+      m.takenOn !== null,
+      `${m.supersedesId ? 'Bone level (amended measurement)' : 'Bone level measured'}: mesial ${mm(m.mesialMm)}, distal ${mm(m.distalMm)}`,
+      {
+        detail: 'From the implant platform along its axis, on the radiograph',
+        byName: m.byName,
+        radiographId: m.radiographId,
+        enteredInErrorReason: m.enteredInErrorReason,
+        amended: m.amended,
+        supersedesId: m.supersedesId,
+        amendmentReason: m.amendmentReason,
+      },
+    );
+    events.push(event);
+    recorded.set(event, m.measuredAt.toISOString());
+  }
+  for (const c of rows.seatingChecks) {
+    const event = base(
+      'seating-check',
+      c.id,
+      c.recordedAt.toISOString(),
+      false,
+      `Seating at the ${c.event} checked on a radiograph${c.radiographTakenOn ? ` of ${c.radiographTakenOn}` : ''}: ${SEATED_WORDS[c.seated]}`,
+      {
+        detail: c.note,
+        code: c.seated,
+        byName: c.byName,
+        radiographId: c.radiographId,
+        enteredInErrorReason: c.enteredInErrorReason,
+        amended: c.amended,
+        supersedesId: c.supersedesId,
+        amendmentReason: c.amendmentReason,
+      },
+    );
+    events.push(event);
+    recorded.set(event, c.recordedAt.toISOString());
+  }
 }

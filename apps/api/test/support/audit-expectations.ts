@@ -89,6 +89,9 @@ export const AUDIT_EXPECTATIONS: Record<string, Audited | null> = {
   'GET /api/patients/duplicates': read(false),
   'GET /api/practice/patient-settings': null,
   'PUT /api/practice/patient-settings': { action: 'policy-change', patient: false },
+  'GET /api/restorations/:id/seating-checks': read(),
+  'POST /api/restorations/:id/seating-checks': create,
+  'POST /api/seating-checks/:id/amendments': amend,
 };
 
 /**
@@ -107,6 +110,7 @@ const RECORD_TABLES: Record<string, string> = {
   RecallExam: 'recall_exams',
   Radiograph: 'radiographs',
   RadiographMeasurement: 'radiograph_measurements',
+  SeatingCheck: 'seating_checks',
   LabPrescription: 'lab_prescriptions',
   CatalogueSystem: 'implant_systems',
   CataloguePlatform: 'platforms',

@@ -110,9 +110,34 @@ export async function scenarioTargets(ctx: TestContext, cookies: Record<AccountK
       'measurement',
     );
 
+  /**
+   * The current version of the seating check of Harold's bridge delivery, new each call: the first
+   * call records it, later ones amend whatever version is current (a test may have amended it).
+   */
+  const seatingCheck = async () => {
+    const checks = (
+      await ctx.http.get(`/api/restorations/${haroldBridge}/seating-checks`).set('Cookie', cookies.dentist)
+    ).body.items as { id: string; event: string; current: boolean }[];
+    const current = checks.find((c) => c.event === 'delivery' && c.current);
+    const body = { radiographId: await radiograph(), seated: 'yes' };
+    return created(
+      current
+        ? await ctx.http
+            .post(`/api/seating-checks/${current.id}/amendments`)
+            .set('Cookie', cookies.dentist)
+            .send({ ...body, reason: 'A clearer radiograph of the seating' })
+        : await ctx.http
+            .post(`/api/restorations/${haroldBridge}/seating-checks`)
+            .set('Cookie', cookies.dentist)
+            .send({ ...body, event: 'delivery' }),
+      'seating check',
+    );
+  };
+
   const fresh = {
     radiograph,
     measurement,
+    seatingCheck,
     plan: async () =>
       created(await ctx.http.post('/api/restorations').set('Cookie', cookies.dentist).send(plan()), 'plan'),
     site: async () =>

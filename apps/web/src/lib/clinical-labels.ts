@@ -14,6 +14,8 @@ import {
   type RestorationKind,
   type RestorationStatus,
   type Retention,
+  type SeatingAnswer,
+  type SeatingEvent,
   type TorqueReason,
   type TorqueVerdict,
   type Tray,
@@ -178,3 +180,15 @@ export const ICOI_GRADE_LABEL: Record<IcoiGrade, string> = {
   III: 'III · compromised survival',
   IV: 'IV · failure',
 };
+export const SEATING_EVENT_LABEL: Record<SeatingEvent, string> = {
+  impression: 'Impression',
+  delivery: 'Delivery',
+};
+
+/** What the radiograph showed of the seating; the Stack says SEATING_NOT_CHECKED when there is no check. */
+export const SEATING_ANSWER_LABEL: Record<SeatingAnswer, string> = {
+  yes: 'Seated',
+  no: 'Not seated',
+  unsure: 'Unsure',
+};
+export const SEATING_NOT_CHECKED = 'Not checked radiographically';

@@ -66,6 +66,9 @@ export const TIMELINE_KIND_LABEL: Record<TimelineKind, string> = {
   torque: 'Torque',
   complication: 'Complication',
   'recall-exam': 'Recall exam',
+  radiograph: 'Radiograph',
+  'bone-level': 'Bone level',
+  'seating-check': 'Seating check',
 };
 
 export const DESK_FILTER_LABEL: Record<DeskFilter, string> = {

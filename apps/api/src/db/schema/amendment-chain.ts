@@ -10,6 +10,7 @@ export const AMENDABLE_TABLES = [
   'components',
   'torque_wrenches',
   'radiograph_measurements',
+  'seating_checks',
 ] as const;
 export type AmendableTableName = (typeof AMENDABLE_TABLES)[number];
 

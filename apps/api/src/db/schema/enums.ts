@@ -25,6 +25,8 @@ import {
   RESTORATION_STATUSES,
   RETENTIONS,
   ROLES,
+  SEATING_ANSWERS,
+  SEATING_EVENTS,
   SITE_STATUSES,
   TORQUE_REASONS,
   TORQUE_VERDICTS,
@@ -62,3 +64,5 @@ export const preferredLanguageEnum = pgEnum('preferred_language', PREFERRED_LANG
 export const patientVersionKindEnum = pgEnum('patient_version_kind', PATIENT_VERSION_KINDS);
 export const auditActionEnum = pgEnum('audit_action', AUDIT_ACTIONS);
 export const auditOutcomeEnum = pgEnum('audit_outcome', AUDIT_OUTCOMES);
+export const seatingEventEnum = pgEnum('seating_event', SEATING_EVENTS);
+export const seatingAnswerEnum = pgEnum('seating_answer', SEATING_ANSWERS);

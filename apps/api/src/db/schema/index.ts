@@ -8,3 +8,4 @@ export * from './restorations.js';
 export * from './recalls.js';
 export * from './radiographs.js';
 export * from './audit.js';
+export * from './seating.js';

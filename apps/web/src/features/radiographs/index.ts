@@ -2,3 +2,4 @@
 // bone-level chart.
 export { SiteRadiographs } from './components/site-radiographs';
 export { BoneLevelChart } from './components/bone-level-chart';
+export { useRadiographs } from './api/radiographs-api';

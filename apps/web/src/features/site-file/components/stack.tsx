@@ -45,7 +45,7 @@ export function Stack({ site, system }: { site: SiteFile; system: ToothSystem })
         ))}
         {site.restoration && (
           <li>
-            <RestorationCard restoration={site.restoration} system={system} />
+            <RestorationCard restoration={site.restoration} system={system} patientId={site.patientId} />
           </li>
         )}
       </ol>

@@ -77,7 +77,7 @@ export function SiteFileRoute() {
       <p className="site-file__links">
         <Link to={`/patients/${data.patientId}/restorations`}>Restorations and planner of {data.patientName}</Link>
       </p>
-      <Timeline siteId={data.id} parts={data.parts} />
+      <Timeline siteId={data.id} patientId={data.patientId} parts={data.parts} />
       <ProbingDepthChart siteId={data.id} />
       <BoneLevelChart siteId={data.id} patientId={data.patientId} />
       <SiteRadiographs patientId={data.patientId} siteId={data.id} />

@@ -9,6 +9,8 @@ import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
 import { useTimeline } from '../api/get-timeline';
 import { TorqueChart } from './torque-chart';
+import { SeatingPanel } from './seating-form';
+import { Link } from 'react-router-dom';
 import { TORQUE_VERDICT_LABEL } from '../../../lib/clinical-labels';
 import { TIMELINE_KIND_LABEL } from '../../../lib/labels';
 
@@ -23,14 +25,32 @@ const KIND_ICON: Record<TimelineKind, IconName> = {
   torque: 'wrench',
   complication: 'warning-sign',
   'recall-exam': 'pulse',
+  radiograph: 'media',
+  'bone-level': 'timeline-line-chart',
+  'seating-check': 'tick-circle',
 };
 
-function EventRow({ event, siteId }: { event: TimelineEvent; siteId: string }) {
+/** A radiograph entry's thumbnail, or the link to the radiograph an entry was read from. */
+function RadiographLink({ event, patientId }: { event: TimelineEvent; patientId: string }) {
+  if (!event.radiographId) return null;
+  const to = `/patients/${patientId}/radiographs/${event.radiographId}`;
+  if (event.kind === 'radiograph')
+    return (
+      <Link to={to} data-testid="timeline-radiograph">
+        <img className="timeline__thumbnail" src={`/api/radiographs/${event.radiographId}/thumbnail`} alt="" />
+        Open in the viewer
+      </Link>
+    );
+  return <Link to={to}>Open the radiograph</Link>;
+}
+
+function EventRow({ event, siteId, patientId }: { event: TimelineEvent; siteId: string; patientId: string }) {
   const [amending, setAmending] = useState(false);
   const amendable = !event.amended && (event.kind === 'torque' || event.kind === 'complication');
+  const seatingEvent = !event.amended && (event.kind === 'delivery' || event.kind === 'impression') ? event.kind : null;
   return (
     <li
-      className={`timeline__event${event.amended ? ' timeline__event--amended' : ''}`}
+      className={`timeline__event${event.amended ? ' timeline__event--amended' : ''}${event.enteredInErrorReason ? ' timeline__event--error' : ''}`}
       data-testid="timeline-event"
       data-kind={event.kind}
     >
@@ -54,9 +74,25 @@ function EventRow({ event, siteId }: { event: TimelineEvent; siteId: string }) {
             amended (superseded by a later version)
           </Tag>
         )}
+        {event.enteredInErrorReason && (
+          <Tag minimal intent="danger" icon="disable" className="timeline__amended">
+            {event.kind === 'radiograph' ? 'entered in error' : 'radiograph entered in error'}:{' '}
+            {event.enteredInErrorReason}
+          </Tag>
+        )}
         {event.detail && <span className="timeline__detail">{event.detail}</span>}
         {event.amendmentReason && <span className="timeline__detail">Amendment: {event.amendmentReason}</span>}
         {event.byName && <span className="timeline__by">{event.byName}</span>}
+        <RadiographLink event={event} patientId={patientId} />
+        {seatingEvent && (
+          <SeatingPanel
+            siteId={siteId}
+            patientId={patientId}
+            restorationId={event.id}
+            event={seatingEvent}
+            eventOn={event.at.slice(0, 10)}
+          />
+        )}
         {amendable && (
           <Can I="amend" a={event.kind === 'torque' ? 'TorqueEvent' : 'Complication'}>
             {amending ? (
@@ -72,7 +108,7 @@ function EventRow({ event, siteId }: { event: TimelineEvent; siteId: string }) {
 }
 
 /** The Timeline: every event of the site in time order, filterable by kind, with torque charts per part. */
-export function Timeline({ siteId, parts }: { siteId: string; parts: StackPart[] }) {
+export function Timeline({ siteId, patientId, parts }: { siteId: string; patientId: string; parts: StackPart[] }) {
   const timeline = useTimeline(siteId);
   const [hidden, setHidden] = useState<Set<TimelineKind>>(new Set());
   if (timeline.isPending) return <LoadingState label="Loading the Timeline" />;
@@ -109,7 +145,7 @@ export function Timeline({ siteId, parts }: { siteId: string; parts: StackPart[]
       ) : (
         <ol className="timeline__list">
           {events.map((e) => (
-            <EventRow key={e.key} event={e} siteId={siteId} />
+            <EventRow key={e.key} event={e} siteId={siteId} patientId={patientId} />
           ))}
         </ol>
       )}
