@@ -213,3 +213,7 @@ export type RadiographFileType = z.infer<typeof RadiographFileType>;
 export const RADIOGRAPH_KINDS = ['periapical', 'bitewing', 'panoramic', 'cbct-export', 'other'] as const;
 export const RadiographKind = z.enum(RADIOGRAPH_KINDS);
 export type RadiographKind = z.infer<typeof RadiographKind>;
+/** Where a radiograph's server-made preview stands: made after the upload, off the request path. */
+export const RADIOGRAPH_PREVIEW_STATUSES = ['pending', 'ready', 'unavailable'] as const;
+export const RadiographPreviewStatus = z.enum(RADIOGRAPH_PREVIEW_STATUSES);
+export type RadiographPreviewStatus = z.infer<typeof RadiographPreviewStatus>;

@@ -1,6 +1,11 @@
 import { Module } from '@nestjs/common';
 import { RadiographsController } from './radiographs.controller.js';
+import { RadiographPreviewService } from './radiograph-previews.service.js';
+import { RadiographUploadService } from './radiograph-upload.service.js';
 import { RadiographsService } from './radiographs.service.js';
 
-@Module({ controllers: [RadiographsController], providers: [RadiographsService] })
+@Module({
+  controllers: [RadiographsController],
+  providers: [RadiographsService, RadiographUploadService, RadiographPreviewService],
+})
 export class RadiographsModule {}

@@ -8,6 +8,7 @@ import {
   type MaintenanceStatus,
   type RadiographFileType,
   type RadiographKind,
+  type RadiographPreviewStatus,
   type ReminderKind,
   type ReminderStatus,
   type SiteStatus,
@@ -93,6 +94,12 @@ export const RADIOGRAPH_KIND_LABEL: Record<RadiographKind, string> = {
   panoramic: 'Panoramic',
   'cbct-export': 'CBCT export',
   other: 'Other',
+};
+
+export const RADIOGRAPH_PREVIEW_STATUS_LABEL: Record<RadiographPreviewStatus, string> = {
+  pending: 'Preview being prepared',
+  ready: 'Preview ready',
+  unavailable: 'No preview',
 };
 
 export const RADIOGRAPH_FILE_TYPE_LABEL: Record<RadiographFileType, string> = {

@@ -13,6 +13,7 @@ import {
   PROBING_POSITIONS,
   RADIOGRAPH_FILE_TYPES,
   RADIOGRAPH_KINDS,
+  RADIOGRAPH_PREVIEW_STATUSES,
   RECALL_STATUSES,
   REMINDER_KINDS,
   REMINDER_STATUSES,
@@ -52,3 +53,4 @@ export const reminderKindEnum = pgEnum('reminder_kind', REMINDER_KINDS);
 export const reminderStatusEnum = pgEnum('reminder_status', REMINDER_STATUSES);
 export const radiographFileTypeEnum = pgEnum('radiograph_file_type', RADIOGRAPH_FILE_TYPES);
 export const radiographKindEnum = pgEnum('radiograph_kind', RADIOGRAPH_KINDS);
+export const radiographPreviewStatusEnum = pgEnum('radiograph_preview_status', RADIOGRAPH_PREVIEW_STATUSES);

@@ -1,5 +1,5 @@
 import '../components/radiographs.css';
-import { Button, ButtonGroup, Callout, Card, HTMLSelect, Slider, Switch } from '@blueprintjs/core';
+import { Button, ButtonGroup, Card, HTMLSelect, Slider, Switch } from '@blueprintjs/core';
 import type { MeasurementBody } from '@torquetrail/contracts';
 import { formatTooth } from '@torquetrail/domain';
 import { useState, type KeyboardEvent, type MouseEvent, type WheelEvent } from 'react';
@@ -12,6 +12,7 @@ import { useToothSystem } from '../../../lib/tooth-system';
 import { RADIOGRAPH_KIND_LABEL } from '../../../lib/labels';
 import { usePatient } from '../../patients';
 import { useMeasure, useRadiograph } from '../api/radiographs-api';
+import { PreviewNotice } from '../components/preview-notice';
 
 type Point = { row: number; col: number };
 const STEPS = [
@@ -121,8 +122,8 @@ export function RadiographViewerRoute() {
         </label>
         <Switch label="Invert" checked={invert} onChange={() => setInvert((v) => !v)} />
       </div>
-      {r.previewProblem ? (
-        <Callout intent="warning">{r.previewProblem}</Callout>
+      {r.previewStatus !== 'ready' ? (
+        <PreviewNotice radiograph={r} />
       ) : (
         <div
           className="viewer-stage"
