@@ -23,7 +23,13 @@ interface Limits {
 }
 
 const unavailable = (why: string): GreyImage => ({ ok: false, problem: `preview not available: ${why}` });
-const millions = (n: number) => `${Math.round(n / 1e5) / 10} million`;
+
+/** The problem of an image over the pixel limit, with its size when known. */
+export function tooLargeProblem(maxPixels: number, size?: { width: number; height: number }): string {
+  const limit = maxPixels >= 1e6 ? `${Number((maxPixels / 1e6).toFixed(1))} million` : String(maxPixels);
+  const dims = size ? `${size.width} × ${size.height} pixels; ` : '';
+  return `preview not available: image too large (${dims}the limit is ${limit} pixels)`;
+}
 
 /**
  * Decodes the first frame of native (uncompressed, little endian) greyscale DICOM pixel data from a
@@ -87,7 +93,7 @@ async function decode(it: AsyncIterator<Uint8Array>, limits: Limits): Promise<Gr
     return unavailable('the pixel data is missing or of an unsupported layout');
   }
   if (rows * cols > limits.maxPixels) {
-    return unavailable(`image too large (${cols} × ${rows} pixels; the limit is ${millions(limits.maxPixels)} pixels)`);
+    return { ok: false, problem: tooLargeProblem(limits.maxPixels, { width: cols, height: rows }) };
   }
   const bytesPerPixel = allocated / 8;
   if (el.length < rows * cols * bytesPerPixel) {

@@ -1,7 +1,7 @@
 import { Readable } from 'node:stream';
 import sharp from 'sharp';
 import type { RadiographFileType } from '@torquetrail/contracts';
-import { decodeDicomStream } from './dicom-pixels.js';
+import { decodeDicomStream, tooLargeProblem } from './dicom-pixels.js';
 
 // libvips keeps recently decoded images (up to 50 MB) in an operation cache and decodes one image
 // with a thread per core: neither helps a job that makes one preview at a time, both add to RSS.
@@ -17,8 +17,6 @@ export type Previews =
   | { ok: false; problem: string };
 
 const inside = (px: number) => ({ width: px, height: px, fit: 'inside', withoutEnlargement: true }) as const;
-const tooLarge = (maxPixels: number) =>
-  `preview not available: image too large (the limit is ${Math.round(maxPixels / 1e5) / 10} million pixels)`;
 
 /**
  * A PNG preview every browser can show and a small thumbnail, made from the stored object as it is
@@ -67,7 +65,7 @@ async function imagePreview(
   } catch (e) {
     if (input.errored) throw input.errored;
     const message = e instanceof Error ? e.message : String(e);
-    if (/pixel limit/i.test(message)) return { ok: false, problem: tooLarge(maxPixels) };
+    if (/pixel limit/i.test(message)) return { ok: false, problem: tooLargeProblem(maxPixels) };
     return { ok: false, problem: 'preview not available: the image data cannot be decoded' };
   } finally {
     input.destroy();

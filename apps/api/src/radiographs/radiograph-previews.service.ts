@@ -11,6 +11,7 @@ import { ENV, type Env } from '../config/env.js';
 import { DB, type Database } from '../db/database.js';
 import { JobsService } from '../jobs/jobs.service.js';
 import { StorageService } from '../storage/storage.service.js';
+import { tooLargeProblem } from './dicom-pixels.js';
 import { makePreviews } from './preview.js';
 import * as repo from './radiographs.repository.js';
 
@@ -91,9 +92,7 @@ export class RadiographPreviewService {
       return 'unavailable' as const;
     };
     if (r.rows && r.columns && r.rows * r.columns > maxPixels) {
-      return unavailable(
-        `preview not available: image too large (${r.columns} × ${r.rows} pixels; the limit is ${Math.round(maxPixels / 1e5) / 10} million pixels)`,
-      );
+      return unavailable(tooLargeProblem(maxPixels, { width: r.columns, height: r.rows }));
     }
     try {
       const made = await makePreviews(r.fileType, await this.storage.getStream(r.objectKey), { maxPixels });
@@ -107,7 +106,9 @@ export class RadiographPreviewService {
       if (status !== null) {
         return unavailable(`preview not available: the stored file cannot be read (storage answered ${status})`);
       }
-      this.logger.warn(`preview of radiograph ${r.id} failed: ${error instanceof Error ? error.message : String(error)}`);
+      this.logger.warn(
+        `preview of radiograph ${r.id} failed: ${error instanceof Error ? error.message : String(error)}`,
+      );
       await repo.countPreviewAttempt(this.db, r.id);
       if (!finalAttempt) return 'retry';
       return unavailable(
