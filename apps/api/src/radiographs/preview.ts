@@ -1,4 +1,9 @@
+import { createWriteStream } from 'node:fs';
+import { mkdtemp, rm } from 'node:fs/promises';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
 import { Readable } from 'node:stream';
+import { pipeline } from 'node:stream/promises';
 import sharp from 'sharp';
 import type { RadiographFileType } from '@torquetrail/contracts';
 import { decodeDicomStream, tooLargeProblem } from './dicom-pixels.js';
@@ -48,28 +53,33 @@ export async function makePreviews(
   return { ok: true, preview, thumbnail, ...size };
 }
 
+/**
+ * PNG and JPEG through sharp from a temporary file: sharp would gather a stream input into one
+ * buffer (the whole file), while from a file libvips reads only what it decodes, line by line
+ * (sequentialRead), and a JPEG shrinks on load. One job at a time, so one file at a time.
+ */
 async function imagePreview(
   source: AsyncIterable<Uint8Array>,
   maxPixels: number,
 ): Promise<{ ok: true; preview: Buffer } | { ok: false; problem: string }> {
-  const decoder = sharp({ failOn: 'error', limitInputPixels: maxPixels, sequentialRead: true })
-    .resize(inside(PREVIEW_MAX_PX))
-    .png();
-  const input = Readable.from(source, { objectMode: false });
-  // pipe() does not end sharp when the source fails: the failure is raced against the result.
-  const sourceFailed = new Promise<never>((_, reject) => input.once('error', reject));
-  sourceFailed.catch(() => undefined);
-  input.pipe(decoder);
+  const dir = await mkdtemp(path.join(tmpdir(), 'tt-preview-'));
+  const file = path.join(dir, 'original');
   try {
-    return { ok: true, preview: await Promise.race([decoder.toBuffer(), sourceFailed]) };
-  } catch (e) {
-    if (input.errored) throw input.errored;
-    const message = e instanceof Error ? e.message : String(e);
-    if (/pixel limit/i.test(message)) return { ok: false, problem: tooLargeProblem(maxPixels) };
-    return { ok: false, problem: 'preview not available: the image data cannot be decoded' };
+    // A failure of the source (storage) is thrown from here, for the job to retry.
+    await pipeline(Readable.from(source, { objectMode: false }), createWriteStream(file));
+    try {
+      const preview = await sharp(file, { failOn: 'error', limitInputPixels: maxPixels, sequentialRead: true })
+        .resize(inside(PREVIEW_MAX_PX))
+        .png()
+        .toBuffer();
+      return { ok: true, preview };
+    } catch (e) {
+      const message = e instanceof Error ? e.message : String(e);
+      if (/pixel limit/i.test(message)) return { ok: false, problem: tooLargeProblem(maxPixels) };
+      return { ok: false, problem: 'preview not available: the image data cannot be decoded' };
+    }
   } finally {
-    input.destroy();
-    decoder.destroy();
+    await rm(dir, { recursive: true, force: true });
   }
 }
 

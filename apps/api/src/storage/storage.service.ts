@@ -86,14 +86,17 @@ export class StorageService implements OnModuleDestroy {
   }
 
   /**
-   * Streams a body of unknown length to S3 in 5 MB parts (at most two in flight), so memory stays
-   * bounded whatever the size; a failed or aborted upload removes its parts.
+   * Streams a body of unknown length to S3 in 5 MB parts (S3's smallest), so memory stays bounded
+   * whatever the size; a failed or aborted upload removes its parts. One part in flight per upload:
+   * the SDK gathers a part as a list of chunks and then copies it into one buffer, so each part
+   * in flight costs about 10 MB at its peak; with two, five parallel 50 MB uploads grew the API by
+   * more than 64 MB (scripts/bench-radiograph-upload.mjs), and parallel uploads keep S3 busy anyway.
    */
   async putStream(key: string, body: Readable, contentType: string): Promise<void> {
     const upload = new Upload({
       client: this.client,
       params: { Bucket: this.bucket, Key: key, Body: body, ContentType: contentType },
-      queueSize: 2,
+      queueSize: 1,
       partSize: 5 * 1024 * 1024,
       leavePartsOnError: false,
     });
