@@ -1,11 +1,12 @@
 // Radiograph uploads under load: N parallel uploads of M MB (default 5 × 50 MB) through the API
 // (a real process, a real session, real HTTP with Content-Length) against the same N files put
-// straight to the S3 fake by the SDK's multipart Upload (the API's own StorageService.putStream
-// from apps/api/dist: the same part size and queue, no API in between) — the floor. Once with
+// straight to the S3 fake by @aws-sdk/lib-storage's Upload (its defaults: 5 MB parts, 4 in
+// flight; the client is the API's own StorageService's, from apps/api/dist) — the floor. Once with
 // 16-bit DICOM files, once with PNG files (stored uncompressed, so the size is the pixels'). The
 // API process's resident memory is sampled from outside (/proc/<pid>/status VmRSS every 50 ms):
 // its peak growth over the idle, warmed-up process while the uploads run (target ≤ 64 MB), and
-// until every preview job has finished. Prints a table; nothing is asserted.
+// until every preview job has finished; a fresh, warmed-up API process for each kind of file.
+// Prints a table; nothing is asserted.
 // Usage: node scripts/bench-radiograph-upload.mjs [files] [megabytes]
 import { spawn } from 'node:child_process';
 import fs from 'node:fs';
@@ -14,6 +15,7 @@ import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 import zlib from 'node:zlib';
 import { CreateBucketCommand, DeleteObjectCommand, ListObjectsV2Command } from '@aws-sdk/client-s3';
+import { Upload } from '@aws-sdk/lib-storage';
 import { apiEnvironment, localDir, repoRoot } from './lib/config.mjs';
 import { nodeScript } from './lib/bootstrap.mjs';
 import { ensureDatabase } from './lib/postgres.mjs';
@@ -251,16 +253,16 @@ for (const { kind, ext, write } of kinds) {
 }
 
 if (await portOpen(API_PORT)) throw new Error(`port ${API_PORT} is taken; set TT_BENCH_API_PORT or PORT`);
-const api = spawn(process.execPath, [path.join(repoRoot, 'apps/api/dist/main.js')], {
-  cwd: repoRoot,
-  env: { ...process.env, ...env },
-  stdio: ['ignore', 'inherit', 'inherit'],
-});
-const results = [];
-let sampler = null;
-try {
+
+/** Starts the API, signs in, and warms it with one small upload of `kind` and its preview. */
+async function startApi(kind) {
+  const proc = spawn(process.execPath, [path.join(repoRoot, 'apps/api/dist/main.js')], {
+    cwd: repoRoot,
+    env: { ...process.env, ...env },
+    stdio: ['ignore', 'inherit', 'inherit'],
+  });
   while (!(await portOpen(API_PORT))) {
-    if (api.exitCode !== null) throw new Error('the API stopped while starting');
+    if (proc.exitCode !== null) throw new Error('the API stopped while starting');
     await new Promise((r) => setTimeout(r, 200));
   }
   const { DEMO_SIGN_INS, DEMO_PASSWORD } = await import(dist('seed/demo-scenario.js'));
@@ -272,33 +274,42 @@ try {
   if (!cookie) throw new Error(`sign-in failed: ${signIn.status}`);
   const session = cookie.split(';')[0];
   const patients = await request('GET', '/api/patients', { headers: { Cookie: session } });
-  const items = patients.body.items ?? patients.body;
-  const patientId = items[0].id;
-
-  // Warm up: one small upload of each kind and its preview, so the baseline includes loaded code.
-  for (const { kind, ext, write } of kinds) {
-    const small = path.join(workDir, `warm-${kind}.${ext}`);
-    await write(small, MB, 900 + kinds.findIndex((k) => k.kind === kind));
-    await previewsDone(session, [await uploadThroughApi(session, patientId, small, `warm.${ext}`)]);
-  }
+  const patientId = (patients.body.items ?? patients.body)[0].id;
+  const { ext, write } = kinds.find((k) => k.kind === kind);
+  const small = path.join(workDir, `warm-${kind}.${ext}`);
+  await write(small, MB, 900 + Math.floor(Math.random() * 1000));
+  await previewsDone(session, [await uploadThroughApi(session, patientId, small, `warm.${ext}`)]);
   await new Promise((r) => setTimeout(r, 1500));
-  sampler = rssSampler(api.pid);
+  return { proc, session, patientId };
+}
 
+async function stopApi(proc) {
+  proc.kill('SIGTERM');
+  while (await portOpen(API_PORT)) await new Promise((r) => setTimeout(r, 100));
+}
+
+const results = [];
+let api = null;
+let sampler = null;
+try {
   for (const { kind, ext } of kinds) {
     const totalMb = files[kind].reduce((sum, f) => sum + fs.statSync(f).size, 0) / MB;
-    // The floor: the same files through the SDK's multipart Upload straight to the S3 fake.
+    // The floor: the same files through lib-storage's Upload straight to the S3 fake.
     let t = performance.now();
     await Promise.all(
       files[kind].map((f, i) =>
-        storage.putStream(
-          `floor/${kind}-${i}`,
-          fs.createReadStream(f, { highWaterMark: MB }),
-          'application/octet-stream',
-        ),
+        new Upload({
+          client: storage.client,
+          params: { Bucket: BUCKET, Key: `floor/${kind}-${i}`, Body: fs.createReadStream(f, { highWaterMark: MB }) },
+        }).done(),
       ),
     );
     const floorS = (performance.now() - t) / 1000;
 
+    // A fresh, warmed API process for each kind, so each baseline is its own.
+    const { proc, session, patientId } = await startApi(kind);
+    api = proc;
+    sampler = rssSampler(api.pid);
     const baseline = rssOf(api.pid);
     sampler.reset();
     t = performance.now();
@@ -310,6 +321,9 @@ try {
     const outcome = await previewsDone(session, ids);
     const previewS = (performance.now() - t) / 1000 - apiS;
     const previewPeak = sampler.peak();
+    sampler.stop();
+    await stopApi(api);
+    api = null;
     results.push({
       kind,
       files: FILES,
@@ -325,11 +339,10 @@ try {
         .map(([k, v]) => `${v} ${k}`)
         .join(', '),
     });
-    await new Promise((r) => setTimeout(r, 1500));
   }
 } finally {
   sampler?.stop();
-  api.kill('SIGTERM');
+  if (api) await stopApi(api);
   // The bench's objects go again: a run writes about 2 × N × M MB to the fake's disk.
   for (let token; ;) {
     const page = await storage.client.send(new ListObjectsV2Command({ Bucket: BUCKET, ContinuationToken: token }));

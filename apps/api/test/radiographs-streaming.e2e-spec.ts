@@ -175,6 +175,39 @@ async function objectsOf(patient: string): Promise<string[]> {
 }
 
 describe('the size limit under streaming', () => {
+  it('a body over one part goes up as a multipart upload, completed, and reads back byte for byte', async () => {
+    const patient = await patientId(ctx.db, 'LL-1005');
+    // 1650 × 1650 × 2 bytes ≈ 5.4 MB: a 5 MB part and the rest, under the 6 MB limit
+    const file = dicomFile({ rows: 1650, columns: 1650, bits: 16, photometric: 'MONOCHROME2', pixel: (r, c) => r + c });
+    expect(file.length).toBeGreaterThan(5 * 1024 * 1024);
+    const id = await upload(patient, file);
+    const calls = proxy.requests
+      .filter((r) => r.url.includes(`/${id}?`))
+      .map(
+        (c) =>
+          `${c.method} ${c.url
+            .replace(/^[^?]*\?/, '')
+            .replace(/uploadId=[^&]+/, 'uploadId=…')
+            .replace(/&x-id=\w+$/, '')}`,
+      );
+    expect(calls).toEqual([
+      'POST uploads=', // CreateMultipartUpload
+      'PUT partNumber=1&uploadId=…', // UploadPart
+      'PUT partNumber=2&uploadId=…',
+      'POST uploadId=…', // CompleteMultipartUpload
+    ]);
+    const original = await ctx.http
+      .get(`/api/radiographs/${id}/original`)
+      .set('Cookie', dentist)
+      .buffer(true)
+      .parse((res, cb) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (c: Buffer) => chunks.push(c));
+        res.on('end', () => cb(null, Buffer.concat(chunks)));
+      });
+    expect(Buffer.compare(original.body as Buffer, file)).toBe(0);
+  });
+
   it('a chunked body crossing the limit → 413 mid-stream: no row, no object, the multipart upload aborted', async () => {
     const patient = await patientId(ctx.db, 'LL-1002');
     // 1900 × 1900 × 2 bytes ≈ 7.2 MB: the first 5 MB part reaches S3 before the limit (6 MB) is crossed

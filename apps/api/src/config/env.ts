@@ -70,6 +70,11 @@ const EnvSchema = z.object({
     .positive()
     .default(2 * 1024 * 1024 * 1024),
   /**
+   * Radiograph uploads and preview jobs streaming at once in one API process; the others wait for
+   * a slot (radiographs/stream-slots.ts). Each takes about 5–15 MB (scripts/bench-radiograph-upload.mjs).
+   */
+  RADIOGRAPH_STREAM_SLOTS: z.coerce.number().int().min(1).max(64).default(2),
+  /**
    * Largest image (Rows × Columns) the preview job decodes; above it the radiograph is kept and
    * measured but its preview is unavailable ("image too large"). The decoder's memory does not grow
    * with the image, its time does.

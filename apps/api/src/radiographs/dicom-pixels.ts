@@ -35,11 +35,12 @@ export function tooLargeProblem(maxPixels: number, size?: { width: number; heigh
  * Decodes the first frame of native (uncompressed, little endian) greyscale DICOM pixel data from a
  * stream, row by row, without ever holding the full-size image: each row is added to a histogram
  * of the stored values and box-averaged into an image at most `maxSide` on its longest side. Then
- * the Modality LUT (Rescale Slope/Intercept) and the VOI window are applied to the small image —
+ * the Modality LUT (Rescale Slope/Intercept) and the VOI window are applied to the small image (its
+ * cell means rounded to stored values) —
  * Window Center/Width from the file with the linear function of PS3.3 C.11.2.1.2, else an automatic
  * window over the 0.5–99.5 % range of the full-resolution histogram — and MONOCHROME1 is inverted
  * so that bone is always light. Memory: the header (1 MB), one row, the histogram (≤ 256 KB) and
- * 4 bytes per pixel of the reduced image (≤ 16 MB at 2048 × 2048). An image small enough not to be
+ * 2 bytes per pixel of the reduced image (≤ 8 MB at 2048 × 2048). An image small enough not to be
  * reduced gets exactly the values a whole-image decoder gives.
  */
 export async function decodeDicomStream(source: AsyncIterable<Uint8Array>, limits: Limits): Promise<GreyImage> {
@@ -102,21 +103,34 @@ async function decode(it: AsyncIterator<Uint8Array>, limits: Limits): Promise<Gr
 
   const image = new StripReducer(rows, cols, stored, ds.uint16('x00280103') === 1, limits.maxSide);
   const rowBytes = cols * bytesPerPixel;
-  // Byte offsets below are in the stream; dataOffset counts the 128-byte preamble a stripped file lacks.
-  let carry = head.subarray(el.dataOffset - (hasPreamble ? 0 : 128));
+  // Rows are read straight from each chunk; only a row cut by a chunk's end is copied, into one
+  // reused row buffer, so reading makes no garbage beyond the chunks themselves.
+  const cut = Buffer.allocUnsafe(rowBytes);
+  let cutLength = 0;
   let row = 0;
-  for (;;) {
+  /** Adds the rows of `buf`; true once every row has been read. */
+  const feed = (buf: Buffer): boolean => {
     let at = 0;
-    for (; row < rows && carry.length - at >= rowBytes; row++, at += rowBytes) {
-      image.addRow(carry, at, bytesPerPixel, row);
+    if (cutLength > 0) {
+      at = Math.min(rowBytes - cutLength, buf.length);
+      buf.copy(cut, cutLength, 0, at);
+      cutLength += at;
+      if (cutLength < rowBytes) return false;
+      image.addRow(cut, 0, bytesPerPixel, row++);
+      cutLength = 0;
     }
-    carry = carry.subarray(at);
-    if (row === rows || ended) break;
+    for (; row < rows && buf.length - at >= rowBytes; row++, at += rowBytes) image.addRow(buf, at, bytesPerPixel, row);
+    if (row < rows && at < buf.length) cutLength = buf.copy(cut, 0, at);
+    return row === rows;
+  };
+  // Byte offsets are in the stream; dataOffset counts the 128-byte preamble a stripped file lacks.
+  let complete = feed(head.subarray(el.dataOffset - (hasPreamble ? 0 : 128)));
+  while (!complete && !ended) {
     const next = await it.next();
     if (next.done) ended = true;
-    else carry = carry.length === 0 ? Buffer.from(next.value) : Buffer.concat([carry, next.value]);
+    else complete = feed(Buffer.from(next.value.buffer, next.value.byteOffset, next.value.length));
   }
-  if (row < rows) return unavailable('the pixel data is shorter than Rows × Columns');
+  if (!complete) return unavailable('the pixel data is shorter than Rows × Columns');
 
   const slope = ds.floatString('x00281053') ?? 1;
   const intercept = ds.floatString('x00281052') ?? 0;
@@ -139,7 +153,9 @@ class StripReducer {
   readonly outWidth: number;
   readonly outHeight: number;
   private readonly histogram: Uint32Array;
-  private readonly means: Float32Array;
+  /** Cell means rounded to stored values, offset by half the range when signed (2 bytes a cell). */
+  private readonly means: Uint16Array;
+  private readonly offset: number;
   /** Sums of the output row being filled, in double precision (up to factor² values each). */
   private readonly strip: Float64Array;
   private readonly mask: number;
@@ -156,7 +172,8 @@ class StripReducer {
     this.outWidth = Math.ceil(cols / this.factor);
     this.outHeight = Math.ceil(rows / this.factor);
     this.histogram = new Uint32Array(1 << stored);
-    this.means = new Float32Array(this.outWidth * this.outHeight);
+    this.means = new Uint16Array(this.outWidth * this.outHeight);
+    this.offset = signed ? 1 << (stored - 1) : 0;
     this.strip = new Float64Array(this.outWidth);
     this.mask = (1 << stored) - 1;
     this.signBit = 1 << (stored - 1);
@@ -177,7 +194,7 @@ class StripReducer {
     const cellRows = row - oy * factor + 1;
     for (let ox = 0; ox < this.outWidth; ox++) {
       const cellCols = Math.min(factor, this.cols - ox * factor);
-      this.means[oy * this.outWidth + ox] = strip[ox] / (cellRows * cellCols);
+      this.means[oy * this.outWidth + ox] = Math.round(strip[ox] / (cellRows * cellCols)) + this.offset;
     }
     strip.fill(0);
   }
@@ -203,7 +220,7 @@ class StripReducer {
     const low = center - 0.5 - (width - 1) / 2;
     const high = center - 0.5 + (width - 1) / 2;
     for (let i = 0; i < this.means.length; i++) {
-      const x = this.means[i] * slope + intercept;
+      const x = (this.means[i] - this.offset) * slope + intercept;
       const y = x <= low ? 0 : x > high ? 255 : ((x - (center - 0.5)) / (width - 1) + 0.5) * 255;
       const v = Math.round(Math.min(255, Math.max(0, y)));
       grey[i] = invert ? 255 - v : v;

@@ -14,6 +14,7 @@ import { StorageService } from '../storage/storage.service.js';
 import { tooLargeProblem } from './dicom-pixels.js';
 import { makePreviews } from './preview.js';
 import * as repo from './radiographs.repository.js';
+import { RadiographStreamSlots } from './stream-slots.js';
 
 const PREVIEW_QUEUE = 'radiograph-preview';
 const SWEEP_QUEUE = 'radiograph-preview-sweep';
@@ -42,6 +43,7 @@ export class RadiographPreviewService {
     @Inject(DB) private readonly db: Database,
     private readonly jobs: JobsService,
     private readonly storage: StorageService,
+    private readonly slots: RadiographStreamSlots,
   ) {
     jobs.register<PreviewJob>({
       name: PREVIEW_QUEUE,
@@ -94,6 +96,8 @@ export class RadiographPreviewService {
     if (r.rows && r.columns && r.rows * r.columns > maxPixels) {
       return unavailable(tooLargeProblem(maxPixels, { width: r.columns, height: r.rows }));
     }
+    // The decoding shares the uploads' slots, so previews made during uploads add no memory.
+    const release = await this.slots.acquire();
     try {
       const made = await makePreviews(r.fileType, await this.storage.getStream(r.objectKey), { maxPixels });
       if (!made.ok) return await unavailable(made.problem);
@@ -114,6 +118,8 @@ export class RadiographPreviewService {
       return unavailable(
         `preview not available: file storage could not be read after ${this.env.RADIOGRAPH_PREVIEW_RETRY_LIMIT + 1} attempts`,
       );
+    } finally {
+      release();
     }
   }
 }

@@ -25,6 +25,7 @@ import { dicomAttributes, DicomUnreadable, parseDicom, withPreamble, type DicomA
 import { CONTENT_TYPES, detectFileType } from './file-type.js';
 import { imageSizeFromHead } from './preview.js';
 import * as repo from './radiographs.repository.js';
+import { RadiographStreamSlots } from './stream-slots.js';
 import { splitHead, TooLarge } from './upload-stream.js';
 
 type UploadQuery = z.output<typeof RadiographUploadQuery>;
@@ -44,6 +45,7 @@ export class RadiographUploadService {
     @Inject(DB) private readonly db: Database,
     @Inject(ENV) private readonly env: Env,
     private readonly storage: StorageService,
+    private readonly slots: RadiographStreamSlots,
   ) {}
 
   /** Stores the file and its row; the new radiograph's id (its preview is queued by the caller). */
@@ -101,6 +103,24 @@ export class RadiographUploadService {
       );
     }
 
+    // Refusals above cost nothing; from here the body is read, within a slot.
+    const release = await this.slots.acquire();
+    try {
+      return await this.store(user, query, patient, body, tooLarge, siteIds);
+    } finally {
+      release();
+    }
+  }
+
+  private async store(
+    user: SessionUser,
+    query: UploadQuery,
+    patient: { id: string; practiceId: string },
+    body: Readable,
+    tooLarge: () => PayloadTooLargeException,
+    siteIds: string[],
+  ): Promise<string> {
+    const max = this.env.RADIOGRAPH_MAX_BYTES;
     let split: Awaited<ReturnType<typeof splitHead>>;
     try {
       split = await splitHead(body, max);
