@@ -4,7 +4,11 @@ import path from 'node:path';
 import { repoRoot } from './lib/config.mjs';
 import { run } from './lib/proc.mjs';
 
-const benches = ['scripts/bench-recall-desk.mjs', 'scripts/bench-audit-reads.mjs'];
+const benches = [
+  'scripts/bench-recall-desk.mjs',
+  'scripts/bench-audit-reads.mjs',
+  'scripts/bench-radiograph-upload.mjs',
+];
 for (const bench of benches) {
   console.log(`\n== ${bench}`);
   await run(process.execPath, [path.join(repoRoot, bench), ...process.argv.slice(2)], {

@@ -3,7 +3,7 @@
 // administrator reads; the other practice gets 404 everywhere.
 import { beforeAll, afterAll, describe, expect, it } from 'vitest';
 import { actorCookies, all, describeRoleMatrix, sharedRead, unsharedRead } from './support/role-matrix.js';
-import { dicomFile, jpeg } from './support/radiograph-fixtures.js';
+import { dicomFile, jpeg, waitForPreview } from './support/radiograph-fixtures.js';
 import { patientId, signIn, siteId, startTestApp, type TestContext } from './support/test-app.js';
 
 let ctx: TestContext;
@@ -37,6 +37,9 @@ beforeAll(async () => {
   unsharedRadiograph = await upload(desmond);
   desmond46 = await siteId(ctx.db, 'LL-1003', 46);
   unsharedSiteRadiograph = await upload(desmond, `?siteIds=${desmond46}`);
+  // previews are made by the job queue; the matrix reads them
+  await waitForPreview(ctx.http, dentist, sharedRadiograph);
+  await waitForPreview(ctx.http, dentist, unsharedRadiograph);
 });
 
 /** A fresh measurement by the dentist (each amendment needs a current version of its own). */
@@ -195,12 +198,14 @@ describe('preview of a transfer syntax the server cannot decode', () => {
       .set('Content-Type', 'application/octet-stream')
       .send(file);
     expect(res.status, JSON.stringify(res.body)).toBe(201);
-    expect(res.body.previewProblem).toBe(
-      'preview not available: transfer syntax Explicit VR Big Endian is not supported',
-    );
+    const done = await waitForPreview(ctx.http, dentist, res.body.id);
+    expect(done).toMatchObject({
+      previewStatus: 'unavailable',
+      previewProblem: 'preview not available: transfer syntax Explicit VR Big Endian is not supported',
+    });
     const preview = await ctx.http.get(`/api/radiographs/${res.body.id}/preview`).set('Cookie', dentist);
     expect(preview.status).toBe(422);
-    expect(preview.body.message).toBe(res.body.previewProblem);
+    expect(preview.body.message).toBe(done.previewProblem);
     expect((await ctx.http.get(`/api/radiographs/${res.body.id}/original`).set('Cookie', dentist)).status).toBe(200);
   });
 });

@@ -4,7 +4,7 @@
 // measurements with amendments.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { patientId, signIn, siteId, startTestApp, type TestContext } from './support/test-app.js';
-import { dicomFile, greyAt, halvesPng, jpeg } from './support/radiograph-fixtures.js';
+import { dicomFile, greyAt, halvesPng, jpeg, waitForPreview } from './support/radiograph-fixtures.js';
 
 let ctx: TestContext;
 let dentist: string;
@@ -64,6 +64,11 @@ describe('upload', () => {
       columns: 40,
     });
     expect(res.body.originalName).toBe('scan.dcm');
+    // the reply comes before the preview: a job makes it after the row commits
+    expect(res.body).toMatchObject({ previewStatus: 'pending', previewProblem: null, previewAttempts: 0 });
+    const early = await ctx.http.get(`/api/radiographs/${res.body.id}/preview`).set('Cookie', dentist);
+    expect([409, 200]).toContain(early.status);
+    expect(await waitForPreview(ctx.http, dentist, res.body.id)).toMatchObject({ previewStatus: 'ready' });
     expect(res.body.siteIds).toEqual([site35]);
     expect(res.body.sizeBytes).toBe(png.length);
     const original = await binary(ctx.http.get(`/api/radiographs/${res.body.id}/original`).set('Cookie', dentist));
@@ -84,6 +89,9 @@ describe('upload', () => {
     const res = await upload(hygienist, await jpeg(32, 16, 128));
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     expect(res.body).toMatchObject({ fileType: 'jpeg', kind: 'other', rows: 16, columns: 32 });
+    expect(await waitForPreview(ctx.http, hygienist, res.body.id)).toMatchObject({ previewStatus: 'ready' });
+    const thumb = await binary(ctx.http.get(`/api/radiographs/${res.body.id}/thumbnail`).set('Cookie', hygienist));
+    expect(await greyAt(thumb.body as Buffer, 4, 4)).toBeGreaterThan(120);
   });
 
   it('DICOM 16-bit MONOCHROME2 by dcmjs: attributes read, window from the file applied (PS3.3 C.11.2.1.2)', async () => {
@@ -102,8 +110,9 @@ describe('upload', () => {
       bitsStored: 12,
       photometricInterpretation: 'MONOCHROME2',
       transferSyntaxUid: '1.2.840.10008.1.2.1',
-      previewProblem: null,
+      previewStatus: 'pending',
     });
+    expect(await waitForPreview(ctx.http, dentist, res.body.id)).toMatchObject({ previewStatus: 'ready' });
     const preview = await binary(ctx.http.get(`/api/radiographs/${res.body.id}/preview`).set('Cookie', dentist));
     const png = preview.body as Buffer;
     // window 1000/1001: 0 → 0; 1000 → ((1000 − 999.5) ÷ 1000 + 0.5) × 255 = 127.6 → 128; 2000 → 255
@@ -123,6 +132,7 @@ describe('upload', () => {
     const res = await upload(dentist, file);
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     expect(res.body.transferSyntaxUid).toBe('1.2.840.10008.1.2');
+    await waitForPreview(ctx.http, dentist, res.body.id);
     const preview = await binary(ctx.http.get(`/api/radiographs/${res.body.id}/preview`).set('Cookie', dentist));
     // the histogram's range 10…200 spans the whole grey scale; MONOCHROME1: low values are white
     expect(await greyAt(preview.body as Buffer, 2, 2)).toBe(255);

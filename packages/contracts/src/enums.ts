@@ -272,3 +272,7 @@ export type SeatingEvent = z.infer<typeof SeatingEvent>;
 export const SEATING_ANSWERS = ['yes', 'no', 'unsure'] as const;
 export const SeatingAnswer = z.enum(SEATING_ANSWERS);
 export type SeatingAnswer = z.infer<typeof SeatingAnswer>;
+/** Where a radiograph's server-made preview stands: made after the upload, off the request path. */
+export const RADIOGRAPH_PREVIEW_STATUSES = ['pending', 'ready', 'unavailable'] as const;
+export const RadiographPreviewStatus = z.enum(RADIOGRAPH_PREVIEW_STATUSES);
+export type RadiographPreviewStatus = z.infer<typeof RadiographPreviewStatus>;

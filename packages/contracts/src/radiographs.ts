@@ -2,7 +2,7 @@
 import { z } from 'zod';
 import { ICOI_GRADES } from '@torquetrail/domain';
 import { Id, IsoDate, IsoDateTime, NoteText } from './common.js';
-import { RadiographFileType, RadiographKind } from './enums.js';
+import { RadiographFileType, RadiographKind, RadiographPreviewStatus } from './enums.js';
 import type { RouteContract } from './route-contract.js';
 
 /** Optional user text of the query string, with the contracts' refusal of control characters. */
@@ -60,8 +60,12 @@ export const Radiograph = z.object({
   bitsStored: z.number().int().nullable(),
   photometricInterpretation: z.string().nullable(),
   transferSyntaxUid: z.string().nullable(),
-  /** Why the server could not make a preview (e.g. an unsupported transfer syntax), else null. */
+  /** The preview is made by a background job after the upload: pending until it is ready or unavailable. */
+  previewStatus: RadiographPreviewStatus,
+  /** Why there is no preview (status unavailable: e.g. an unsupported transfer syntax), else null. */
   previewProblem: z.string().nullable(),
+  /** Failed attempts so far; while pending and above 0 the job is retrying. */
+  previewAttempts: z.number().int(),
   siteIds: z.array(Id),
   uploadedBy: z.string(),
   uploadedAt: IsoDateTime,

@@ -69,6 +69,24 @@ const EnvSchema = z.object({
     .int()
     .positive()
     .default(2 * 1024 * 1024 * 1024),
+  /**
+   * Radiograph uploads and preview jobs streaming at once in one API process; the others wait for
+   * a slot (radiographs/stream-slots.ts). Each takes about 5–15 MB (scripts/bench-radiograph-upload.mjs).
+   */
+  RADIOGRAPH_STREAM_SLOTS: z.coerce.number().int().min(1).max(64).default(2),
+  /**
+   * Largest image (Rows × Columns) the preview job decodes; above it the radiograph is kept and
+   * measured but its preview is unavailable ("image too large"). The decoder's memory does not grow
+   * with the image, its time does.
+   */
+  RADIOGRAPH_PREVIEW_MAX_PIXELS: z.coerce
+    .number()
+    .int()
+    .positive()
+    .default(100 * 1000 * 1000),
+  /** Preview job: first retry delay (seconds, doubled each retry) and how many retries before unavailable. */
+  RADIOGRAPH_PREVIEW_RETRY_DELAY_S: z.coerce.number().int().min(1).default(5),
+  RADIOGRAPH_PREVIEW_RETRY_LIMIT: z.coerce.number().int().min(0).max(20).default(4),
   /** pino log level; `info` logs start-up and refused requests, `debug` every request. */
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   /** The built web app to serve from the same origin; unset in API-only tests. */

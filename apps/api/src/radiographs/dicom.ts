@@ -8,7 +8,7 @@ const dicomParser: typeof dicomParserNs =
 /** Transfer syntaxes whose pixel data the preview decodes (PS3.5 §10: native, little endian). */
 const EXPLICIT_VR_LITTLE_ENDIAN = '1.2.840.10008.1.2.1';
 const IMPLICIT_VR_LITTLE_ENDIAN = '1.2.840.10008.1.2';
-const DECODABLE = new Set([EXPLICIT_VR_LITTLE_ENDIAN, IMPLICIT_VR_LITTLE_ENDIAN]);
+export const DECODABLE = new Set([EXPLICIT_VR_LITTLE_ENDIAN, IMPLICIT_VR_LITTLE_ENDIAN]);
 
 /** Names of the transfer syntaxes (PS3.6 Table A-1) a clinic is likely to send, for messages. */
 const TRANSFER_SYNTAX_NAMES: Record<string, string> = {
@@ -26,7 +26,7 @@ const TRANSFER_SYNTAX_NAMES: Record<string, string> = {
   '1.2.840.10008.1.2.4.91': 'JPEG 2000',
   '1.2.840.10008.1.2.5': 'RLE Lossless',
 };
-const transferSyntaxName = (uid: string) => TRANSFER_SYNTAX_NAMES[uid] ?? uid;
+export const transferSyntaxName = (uid: string) => TRANSFER_SYNTAX_NAMES[uid] ?? uid;
 
 /** The attributes measurement and the preview need (PS3.3; tags in the comments). */
 export interface DicomAttributes {
@@ -86,72 +86,4 @@ export function dicomAttributes(ds: DataSet): DicomAttributes {
     bitsStored: ds.uint16('x00280101') ?? null,
     photometricInterpretation: text(ds, 'x00280004'),
   };
-}
-
-/** Greyscale pixels ready for an 8-bit image, or why there are none. */
-export type DicomPixels = { ok: true; width: number; height: number; grey: Buffer } | { ok: false; problem: string };
-
-/**
- * Decodes the first frame of native (uncompressed, little endian) greyscale pixel data to 8 bits:
- * Modality LUT (Rescale Slope/Intercept), then the VOI window — Window Center/Width from the file
- * with the linear function of PS3.3 C.11.2.1.2, else an automatic window over the 0.5–99.5 %
- * range of the histogram — and MONOCHROME1 inverted so that bone is always light.
- */
-export function decodeDicomPixels(ds: DataSet, a: DicomAttributes): DicomPixels {
-  if (!DECODABLE.has(a.transferSyntaxUid)) {
-    return {
-      ok: false,
-      problem: `preview not available: transfer syntax ${transferSyntaxName(a.transferSyntaxUid)} is not supported`,
-    };
-  }
-  const pi = a.photometricInterpretation;
-  if (pi !== 'MONOCHROME1' && pi !== 'MONOCHROME2') {
-    return {
-      ok: false,
-      problem: `preview not available: photometric interpretation ${pi ?? 'missing'} is not supported`,
-    };
-  }
-  const el = ds.elements.x7fe00010;
-  const rows = a.rows ?? 0;
-  const cols = a.columns ?? 0;
-  const allocated = ds.uint16('x00280100') ?? 0;
-  const stored = a.bitsStored ?? allocated;
-  const n = rows * cols;
-  if (!el || n === 0 || (allocated !== 8 && allocated !== 16) || stored < 1 || stored > allocated) {
-    return { ok: false, problem: 'preview not available: the pixel data is missing or of an unsupported layout' };
-  }
-  if (el.length < n * (allocated / 8)) {
-    return { ok: false, problem: 'preview not available: the pixel data is shorter than Rows × Columns' };
-  }
-  const signed = ds.uint16('x00280103') === 1;
-  const slope = ds.floatString('x00281053') ?? 1;
-  const intercept = ds.floatString('x00281052') ?? 0;
-  const buf = Buffer.from(ds.byteArray.buffer, ds.byteArray.byteOffset + el.dataOffset, n * (allocated / 8));
-  const values = new Float64Array(n);
-  const mask = stored >= 32 ? 0xffffffff : (1 << stored) - 1;
-  for (let i = 0; i < n; i++) {
-    let raw = allocated === 8 ? buf[i] : buf.readUInt16LE(i * 2);
-    raw &= mask;
-    if (signed && raw & (1 << (stored - 1))) raw -= 1 << stored;
-    values[i] = raw * slope + intercept;
-  }
-  let center = ds.floatString('x00281050', 0);
-  let width = ds.floatString('x00281051', 0);
-  if (center === undefined || width === undefined || !(width >= 1)) {
-    const sorted = Float64Array.from(values).sort();
-    const lo = sorted[Math.floor((n - 1) * 0.005)];
-    const hi = sorted[Math.ceil((n - 1) * 0.995)];
-    width = Math.max(hi - lo, 1) + 1;
-    center = lo + (width - 1) / 2 + 0.5;
-  }
-  const grey = Buffer.alloc(n);
-  const low = center - 0.5 - (width - 1) / 2;
-  const high = center - 0.5 + (width - 1) / 2;
-  for (let i = 0; i < n; i++) {
-    const x = values[i];
-    const y = x <= low ? 0 : x > high ? 255 : ((x - (center - 0.5)) / (width - 1) + 0.5) * 255;
-    const v = Math.round(Math.min(255, Math.max(0, y)));
-    grey[i] = pi === 'MONOCHROME1' ? 255 - v : v;
-  }
-  return { ok: true, width: cols, height: rows, grey };
 }

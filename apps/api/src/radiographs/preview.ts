@@ -1,40 +1,94 @@
-import sharp, { type Sharp } from 'sharp';
+import { createWriteStream } from 'node:fs';
+import { mkdtemp, rm } from 'node:fs/promises';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { Readable } from 'node:stream';
+import { pipeline } from 'node:stream/promises';
+import sharp from 'sharp';
 import type { RadiographFileType } from '@torquetrail/contracts';
-import { decodeDicomPixels, dicomAttributes, parseDicom } from './dicom.js';
+import { decodeDicomStream, tooLargeProblem } from './dicom-pixels.js';
+
+// libvips keeps recently decoded images (up to 50 MB) in an operation cache and decodes one image
+// with a thread per core: neither helps a job that makes one preview at a time, both add to RSS.
+sharp.cache(false);
+sharp.concurrency(1);
 
 /** Longest side of the preview and of the thumbnail, px. */
 const PREVIEW_MAX_PX = 2048;
 const THUMBNAIL_MAX_PX = 192;
 
 export type Previews =
-  | { ok: true; width: number; height: number; preview: Buffer; thumbnail: Buffer }
+  | { ok: true; preview: Buffer; thumbnail: Buffer; width?: number; height?: number }
   | { ok: false; problem: string };
 
+const inside = (px: number) => ({ width: px, height: px, fit: 'inside', withoutEnlargement: true }) as const;
+
 /**
- * A PNG preview every browser can show and a small thumbnail. PNG and JPEG are re-encoded by sharp
- * (so a hostile file is never served back as-is inline); DICOM pixels are decoded and windowed first.
+ * A PNG preview every browser can show and a small thumbnail, made from the stored object as it is
+ * read: PNG and JPEG are decoded by sharp from the stream (and re-encoded, so a hostile file is never
+ * served back as-is inline); DICOM pixels are decoded row by row, windowed and reduced on the way.
+ * A decoding problem is an answer ({ ok: false }); an error of the source (storage) is thrown, so
+ * the job retries it.
  */
-export async function makePreviews(type: RadiographFileType, bytes: Uint8Array): Promise<Previews> {
-  let image: Sharp;
+export async function makePreviews(
+  type: RadiographFileType,
+  source: AsyncIterable<Uint8Array>,
+  limits: { maxPixels: number },
+): Promise<Previews> {
+  let preview: Buffer;
+  let size: { width: number; height: number } | undefined;
   if (type === 'dicom') {
-    const ds = parseDicom(bytes, false);
-    const decoded = decodeDicomPixels(ds, dicomAttributes(ds));
+    const decoded = await decodeDicomStream(source, { maxPixels: limits.maxPixels, maxSide: PREVIEW_MAX_PX });
     if (!decoded.ok) return decoded;
-    image = sharp(decoded.grey, { raw: { width: decoded.width, height: decoded.height, channels: 1 } });
-  } else {
-    image = sharp(bytes, { failOn: 'error' });
-  }
-  try {
-    const meta = await image.metadata();
-    const resize = { width: PREVIEW_MAX_PX, height: PREVIEW_MAX_PX, fit: 'inside', withoutEnlargement: true } as const;
-    const preview = await image.clone().resize(resize).png().toBuffer();
-    const thumbnail = await image
-      .clone()
-      .resize({ ...resize, width: THUMBNAIL_MAX_PX, height: THUMBNAIL_MAX_PX })
+    preview = await sharp(decoded.grey, { raw: { width: decoded.width, height: decoded.height, channels: 1 } })
       .png()
       .toBuffer();
-    return { ok: true, width: meta.width, height: meta.height, preview, thumbnail };
+    size = { width: decoded.sourceWidth, height: decoded.sourceHeight };
+  } else {
+    const made = await imagePreview(source, limits.maxPixels);
+    if (!made.ok) return made;
+    preview = made.preview;
+  }
+  const thumbnail = await sharp(preview).resize(inside(THUMBNAIL_MAX_PX)).png().toBuffer();
+  return { ok: true, preview, thumbnail, ...size };
+}
+
+/**
+ * PNG and JPEG through sharp from a temporary file: sharp would gather a stream input into one
+ * buffer (the whole file), while from a file libvips reads only what it decodes, line by line
+ * (sequentialRead), and a JPEG shrinks on load. One job at a time, so one file at a time.
+ */
+async function imagePreview(
+  source: AsyncIterable<Uint8Array>,
+  maxPixels: number,
+): Promise<{ ok: true; preview: Buffer } | { ok: false; problem: string }> {
+  const dir = await mkdtemp(path.join(tmpdir(), 'tt-preview-'));
+  const file = path.join(dir, 'original');
+  try {
+    // A failure of the source (storage) is thrown from here, for the job to retry.
+    await pipeline(Readable.from(source, { objectMode: false }), createWriteStream(file));
+    try {
+      const preview = await sharp(file, { failOn: 'error', limitInputPixels: maxPixels, sequentialRead: true })
+        .resize(inside(PREVIEW_MAX_PX))
+        .png()
+        .toBuffer();
+      return { ok: true, preview };
+    } catch (e) {
+      const message = e instanceof Error ? e.message : String(e);
+      if (/pixel limit/i.test(message)) return { ok: false, problem: tooLargeProblem(maxPixels) };
+      return { ok: false, problem: 'preview not available: the image data cannot be decoded' };
+    }
+  } finally {
+    await rm(dir, { recursive: true, force: true });
+  }
+}
+
+/** Width and height from a PNG's or JPEG's header (the first bytes of the upload), when they can be read. */
+export async function imageSizeFromHead(head: Buffer): Promise<{ rows: number | null; columns: number | null }> {
+  try {
+    const meta = await sharp(head).metadata();
+    return { rows: meta.height ?? null, columns: meta.width ?? null };
   } catch {
-    return { ok: false, problem: 'preview not available: the image data cannot be decoded' };
+    return { rows: null, columns: null };
   }
 }

@@ -144,3 +144,63 @@ export async function currentMeasurements(db: Db, radiographId: string) {
   return rows.map((row) => ({ ...row.m, measuredByName: row.measuredByName }));
 }
 export type MeasurementRow = Awaited<ReturnType<typeof currentMeasurements>>[number];
+
+/** What the preview job needs of a radiograph (no scope: the job runs for the row it was queued for). */
+export async function previewTarget(db: Db, id: string) {
+  const [row] = await db
+    .select({
+      id: radiographs.id,
+      objectKey: radiographs.objectKey,
+      fileType: radiographs.fileType,
+      rows: radiographs.rows,
+      columns: radiographs.columns,
+      previewStatus: radiographs.previewStatus,
+    })
+    .from(radiographs)
+    .where(eq(radiographs.id, id));
+  return row ?? null;
+}
+
+/** Ends a pending preview: ready (with the image size when the upload could not read it) or unavailable. */
+export async function finishPreview(
+  db: Db,
+  id: string,
+  outcome: { ready: true; rows?: number; columns?: number } | { ready: false; problem: string },
+) {
+  await db
+    .update(radiographs)
+    .set(
+      outcome.ready
+        ? {
+            previewStatus: 'ready',
+            previewProblem: null,
+            ...(outcome.rows && outcome.columns
+              ? {
+                  rows: sql`coalesce(${radiographs.rows}, ${outcome.rows})`,
+                  columns: sql`coalesce(${radiographs.columns}, ${outcome.columns})`,
+                }
+              : {}),
+          }
+        : { previewStatus: 'unavailable', previewProblem: outcome.problem },
+    )
+    .where(and(eq(radiographs.id, id), eq(radiographs.previewStatus, 'pending')));
+}
+
+/** Counts a failed attempt of the preview job; the row stays pending while retries remain. */
+export async function countPreviewAttempt(db: Db, id: string) {
+  await db
+    .update(radiographs)
+    .set({ previewAttempts: sql`${radiographs.previewAttempts} + 1` })
+    .where(and(eq(radiographs.id, id), eq(radiographs.previewStatus, 'pending')));
+}
+
+/** Radiographs still waiting for their preview, oldest first (the sweep queues a job for each). */
+export async function listPendingPreviews(db: Db, limit: number) {
+  const rows = await db
+    .select({ id: radiographs.id })
+    .from(radiographs)
+    .where(eq(radiographs.previewStatus, 'pending'))
+    .orderBy(radiographs.uploadedAt)
+    .limit(limit);
+  return rows.map((r) => r.id);
+}

@@ -1,16 +1,11 @@
-import { randomUUID } from 'node:crypto';
 import type { Readable } from 'node:stream';
 import {
   ConflictException,
-  HttpException,
-  HttpStatus,
   Inject,
   Injectable,
   NotFoundException,
-  PayloadTooLargeException,
   ServiceUnavailableException,
   UnprocessableEntityException,
-  UnsupportedMediaTypeException,
 } from '@nestjs/common';
 import type { AppAbility } from '@torquetrail/authz';
 import type {
@@ -28,23 +23,17 @@ import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
 import { alreadyAmended } from '../common/amendment-conflict.js';
 import { fieldError } from '../common/field-error.js';
-import { postgresError } from '../common/postgres-error.js';
-import { ENV, type Env } from '../config/env.js';
 import { reportChange } from '../common/audit-context.js';
 import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database } from '../db/database.js';
 import { StorageService } from '../storage/storage.service.js';
-import { dicomAttributes, DicomUnreadable, parseDicom, withPreamble, type DicomAttributes } from './dicom.js';
-import { CONTENT_TYPES, detectFileType } from './file-type.js';
-import { makePreviews } from './preview.js';
+import { CONTENT_TYPES } from './file-type.js';
+import { previewKey, RadiographPreviewService } from './radiograph-previews.service.js';
+import { RadiographUploadService } from './radiograph-upload.service.js';
 import * as repo from './radiographs.repository.js';
-import { splitHead, TooLarge } from './upload-stream.js';
 
 type UploadQuery = z.output<typeof RadiographUploadQuery>;
 type Points = z.output<typeof MeasurementPoints>;
-
-const mb = (bytes: number) => `${Math.round(bytes / (1024 * 1024))} MB`;
-const STORAGE_DOWN = 'Object storage is unavailable; the radiograph was not saved. Try again in a few minutes';
 
 const toRadiograph = (r: repo.RadiographRow): Radiograph => ({
   id: r.id,
@@ -66,7 +55,9 @@ const toRadiograph = (r: repo.RadiographRow): Radiograph => ({
   bitsStored: r.bitsStored,
   photometricInterpretation: r.photometricInterpretation,
   transferSyntaxUid: r.transferSyntaxUid,
+  previewStatus: r.previewStatus,
   previewProblem: r.previewProblem,
+  previewAttempts: r.previewAttempts,
   siteIds: r.siteIds,
   uploadedBy: r.uploadedByName,
   uploadedAt: r.uploadedAt.toISOString(),
@@ -97,14 +88,15 @@ const toMeasurement = (m: repo.MeasurementRow): Measurement => ({
 export class RadiographsService {
   constructor(
     @Inject(DB) private readonly db: Database,
-    @Inject(ENV) private readonly env: Env,
     private readonly storage: StorageService,
+    private readonly uploads: RadiographUploadService,
+    private readonly previews: RadiographPreviewService,
   ) {}
 
   /**
-   * Upload: type from the first bytes, DICOM header parsed, then the body streamed to S3; previews
-   * made from the stored object; the row written last, in one transaction with its site links. When
-   * anything after the object fails, the objects are deleted again.
+   * Upload: the file is streamed to S3 and its row written (radiograph-upload.service.ts); the
+   * reply comes at once, with the preview pending until its job (radiograph-previews.service.ts)
+   * has made it.
    */
   async upload(
     ability: AppAbility,
@@ -115,157 +107,11 @@ export class RadiographsService {
     body: Readable,
     declaredLength: number | undefined,
   ): Promise<Radiograph> {
-    try {
-      return await this.receive(ability, user, scope, patientId, query, body, declaredLength);
-    } finally {
-      // A refused body is drained so the client can read the answer instead of a reset connection.
-      if (!body.readableEnded) body.resume();
-    }
-  }
-
-  private async receive(
-    ability: AppAbility,
-    user: SessionUser,
-    scope: Scope,
-    patientId: string,
-    query: UploadQuery,
-    body: Readable,
-    declaredLength: number | undefined,
-  ): Promise<Radiograph> {
-    const patient = assertCan(
-      ability,
-      'create',
-      'Radiograph',
-      await repo.findVisiblePatient(this.db, scope, patientId),
-      'patient',
-    );
-    const max = this.env.RADIOGRAPH_MAX_BYTES;
-    const tooLarge = () => new PayloadTooLargeException(`The file is larger than the limit of ${mb(max)}`);
-    if (declaredLength !== undefined && declaredLength > max) throw tooLarge();
-    const siteIds = [...new Set(query.siteIds)];
-    const known = await repo.sitesOfPatient(this.db, patient.id, siteIds);
-    if (known.length !== siteIds.length) throw fieldError({ siteIds: 'Choose implant sites of this patient' });
-    const since = new Date(new Date().toISOString().slice(0, 10) + 'T00:00:00Z');
-    const used = await repo.bytesUploadedSince(this.db, user.id, since);
-    if (used + (declaredLength ?? 0) > this.env.RADIOGRAPH_DAILY_QUOTA_BYTES) {
-      throw new HttpException(
-        `Your daily upload allowance of ${mb(this.env.RADIOGRAPH_DAILY_QUOTA_BYTES)} is used up; try again tomorrow`,
-        HttpStatus.TOO_MANY_REQUESTS,
-      );
-    }
-
-    let split: Awaited<ReturnType<typeof splitHead>>;
-    try {
-      split = await splitHead(body, max);
-    } catch (e) {
-      throw e instanceof TooLarge ? tooLarge() : e;
-    }
-    const detected = detectFileType(split.head);
-    if (detected.type === null) {
-      throw new UnsupportedMediaTypeException(
-        `The file is ${detected.described}; send a PNG, JPEG or DICOM (Part 10) radiograph`,
-      );
-    }
-    let dicom: DicomAttributes | null = null;
-    if (detected.type === 'dicom') {
-      try {
-        dicom = dicomAttributes(parseDicom(withPreamble(split.head, detected.dicomPreamble ?? true), true));
-      } catch (e) {
-        if (e instanceof DicomUnreadable) throw new UnprocessableEntityException(e.message);
-        throw e;
-      }
-    }
-
-    const id = randomUUID();
-    const objectKey = `radiographs/${patient.practiceId}/${patient.id}/${id}`;
-    const stored: string[] = [];
-    try {
-      try {
-        await this.storage.putStream(objectKey, split.stream(), CONTENT_TYPES[detected.type]);
-      } catch (e) {
-        if (e instanceof TooLarge) throw tooLarge();
-        throw new ServiceUnavailableException(STORAGE_DOWN);
-      }
-      stored.push(objectKey);
-      const { size, sha256 } = split.result();
-      const existing = await repo.findBySha(this.db, patient.id, sha256);
-      if (existing) throw this.duplicate(existing.id);
-
-      const original = await this.storage.get(objectKey);
-      const bytes = detected.type === 'dicom' ? withPreamble(original, detected.dicomPreamble ?? true) : original;
-      const previews = await makePreviews(detected.type, bytes);
-      if (previews.ok) {
-        await this.storage.put(`${objectKey}.preview.png`, previews.preview, 'image/png');
-        stored.push(`${objectKey}.preview.png`);
-        await this.storage.put(`${objectKey}.thumbnail.png`, previews.thumbnail, 'image/png');
-        stored.push(`${objectKey}.thumbnail.png`);
-      }
-      try {
-        await auditedTransaction(this.db, (tx) => {
-          reportChange({
-            type: 'Radiograph',
-            id,
-            patientId: patient.id,
-            after: { kind: query.kind, fileType: detected.type, sizeBytes: size, sha256, siteIds },
-          });
-          return repo.insertRadiograph(
-            tx,
-            {
-              id,
-              practiceId: patient.practiceId,
-              patientId: patient.id,
-              objectKey,
-              sizeBytes: size,
-              sha256,
-              fileType: detected.type,
-              originalName: query.fileName,
-              kind: query.kind,
-              takenOn: query.takenOn ?? dicom?.studyDate ?? null,
-              note: query.note,
-              rows: dicom?.rows ?? (previews.ok ? previews.height : null),
-              columns: dicom?.columns ?? (previews.ok ? previews.width : null),
-              pixelSpacing: dicom?.pixelSpacing ?? null,
-              imagerPixelSpacing: dicom?.imagerPixelSpacing ?? null,
-              magnificationFactor: dicom?.magnificationFactor ?? null,
-              studyDate: dicom?.studyDate ?? null,
-              modality: dicom?.modality ?? null,
-              bitsStored: dicom?.bitsStored ?? null,
-              photometricInterpretation: dicom?.photometricInterpretation ?? null,
-              transferSyntaxUid: dicom?.transferSyntaxUid ?? null,
-              previewProblem: previews.ok ? null : previews.problem,
-              uploadedBy: user.id,
-            },
-            siteIds,
-          );
-        });
-      } catch (e) {
-        // Two uploads of the same file raced: the unique index decided.
-        if (postgresError(e)?.constraint === 'radiographs_patient_sha256_unique') {
-          const winner = await repo.findBySha(this.db, patient.id, sha256);
-          throw this.duplicate(winner?.id ?? 'unknown');
-        }
-        throw e;
-      }
-      stored.length = 0;
-    } finally {
-      await this.removeObjects(stored);
-    }
-    return this.detail(ability, scope, id);
-  }
-
-  private duplicate(existingId: string) {
-    return new ConflictException(`This file was already uploaded for this patient as radiograph ${existingId}`);
-  }
-
-  /** Best effort: an object left behind by a storage outage is unreferenced, never shown. */
-  private async removeObjects(keys: readonly string[]): Promise<void> {
-    for (const key of keys) {
-      try {
-        await this.storage.delete(key);
-      } catch {
-        // nothing more to do: the row does not exist, so nothing points at the object
-      }
-    }
+    const id = await this.uploads.upload(ability, user, scope, patientId, query, body, declaredLength);
+    const { measurements: _m, siteImplants: _s, ...radiograph } = await this.detail(ability, scope, id);
+    // Queued after the reply is read, so the reply always says pending.
+    await this.previews.queue(id);
+    return radiograph;
   }
 
   async list(ability: AppAbility, scope: Scope, patientId: string, includeEnteredInError: boolean) {
@@ -298,8 +144,13 @@ export class RadiographsService {
       await repo.findVisibleRadiograph(this.db, scope, id),
       'radiograph',
     );
-    if (which !== 'original' && r.previewProblem) throw new UnprocessableEntityException(r.previewProblem);
-    const key = which === 'original' ? r.objectKey : `${r.objectKey}.${which}.png`;
+    if (which !== 'original' && r.previewStatus === 'unavailable') {
+      throw new UnprocessableEntityException(r.previewProblem ?? 'preview not available');
+    }
+    if (which !== 'original' && r.previewStatus === 'pending') {
+      throw new ConflictException('The preview is being prepared; try again in a few seconds');
+    }
+    const key = which === 'original' ? r.objectKey : previewKey(r.objectKey, which);
     try {
       const stream = await this.storage.getStream(key);
       const type = which === 'original' ? CONTENT_TYPES[r.fileType] : 'image/png';

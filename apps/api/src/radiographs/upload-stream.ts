@@ -2,7 +2,7 @@ import { createHash } from 'node:crypto';
 import { Readable } from 'node:stream';
 
 /** How much of the start of a file is read before deciding its type and parsing a DICOM header. */
-const HEADER_BYTES = 1024 * 1024;
+export const HEADER_BYTES = 1024 * 1024;
 
 export class TooLarge extends Error {}
 
@@ -29,6 +29,7 @@ export async function splitHead(body: AsyncIterable<Buffer>, maxBytes: number) {
   const head = Buffer.concat(chunks);
   const hash = createHash('sha256');
   let size = 0;
+  let overLimit = false;
   async function* all(): AsyncGenerator<Buffer> {
     size = head.length;
     hash.update(head);
@@ -36,7 +37,10 @@ export async function splitHead(body: AsyncIterable<Buffer>, maxBytes: number) {
     if (ended) return;
     for (let next = await it.next(); !next.done; next = await it.next()) {
       size += next.value.length;
-      if (size > maxBytes) throw new TooLarge();
+      if (size > maxBytes) {
+        overLimit = true;
+        throw new TooLarge();
+      }
       hash.update(next.value);
       yield next.value;
     }
@@ -44,6 +48,11 @@ export async function splitHead(body: AsyncIterable<Buffer>, maxBytes: number) {
   return {
     head,
     stream: () => Readable.from(all(), { objectMode: false }),
+    /**
+     * True once the stream failed on the limit: whatever error the storage upload then reports
+     * (its own, or one from aborting the multipart upload), the answer is 413.
+     */
+    overLimit: () => overLimit,
     /** Valid once the stream has ended. */
     result: () => ({ size, sha256: hash.digest('hex') }),
   };

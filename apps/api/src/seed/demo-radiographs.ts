@@ -7,6 +7,7 @@
 // day it was delivered, with its seating confirmed, Wendell's post-operative film and one image
 // per Quarry Hill patient.
 import { createHash, randomUUID } from 'node:crypto';
+import { Readable } from 'node:stream';
 import { and, asc, eq, isNotNull, like } from 'drizzle-orm';
 import type { RadiographKind } from '@torquetrail/contracts';
 import { measureBoneLevels, RULES_VERSION } from '@torquetrail/domain';
@@ -201,7 +202,8 @@ async function render(shot: Shot, index: number, implants: readonly DrawnImplant
   if (detected.type === null) throw new Error(`seed radiograph ${index} is ${detected.described}`);
   const type = detected.type;
   const dicom = type === 'dicom' ? dicomAttributes(parseDicom(bytes, true)) : null;
-  const previews = await makePreviews(type, bytes);
+  // The seed's images are small; the cap only guards the decoder as it does for uploads.
+  const previews = await makePreviews(type, Readable.from([bytes]), { maxPixels: 100_000_000 });
   if (!previews.ok) throw new Error(`seed radiograph ${index}: ${previews.problem}`);
   return { bytes, type, dicom, previews, sha256: createHash('sha256').update(bytes).digest('hex') };
 }
@@ -252,6 +254,8 @@ async function storeShot(shot: Shot, index: number, storage: SeedStorage) {
     bitsStored: dicom?.bitsStored ?? null,
     photometricInterpretation: dicom?.photometricInterpretation ?? null,
     transferSyntaxUid: dicom?.transferSyntaxUid ?? null,
+    // Made above and stored with the original: nothing is left for the preview job.
+    previewStatus: 'ready',
     previewProblem: null,
     uploadedBy: shot.uploadedBy,
     uploadedAt,

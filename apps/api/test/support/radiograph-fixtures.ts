@@ -83,3 +83,23 @@ export async function greyAt(png: Buffer, row: number, col: number): Promise<num
   const { data, info } = await sharp(png).raw().toBuffer({ resolveWithObject: true });
   return data[(row * info.width + col) * info.channels];
 }
+
+interface Http {
+  get: (url: string) => { set: (name: string, value: string) => PromiseLike<{ status: number; body: unknown }> };
+}
+
+/**
+ * Waits until the preview job has finished with a radiograph (ready or unavailable) and returns the
+ * radiograph as the API then shows it. Previews are made off the request path, by the job queue.
+ */
+export async function waitForPreview(http: Http, cookie: string, id: string, timeoutMs = 30_000) {
+  const end = Date.now() + timeoutMs;
+  for (;;) {
+    const res = await http.get(`/api/radiographs/${id}`).set('Cookie', cookie);
+    const body = res.body as { previewStatus?: string; previewProblem?: string | null; previewAttempts?: number };
+    if (res.status !== 200) throw new Error(`radiograph ${id}: ${res.status} ${JSON.stringify(body)}`);
+    if (body.previewStatus !== 'pending') return body;
+    if (Date.now() > end) throw new Error(`the preview of ${id} is still pending after ${timeoutMs} ms`);
+    await new Promise((r) => setTimeout(r, 200));
+  }
+}

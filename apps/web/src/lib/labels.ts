@@ -15,6 +15,7 @@ import {
   type PreferredLanguage,
   type RadiographFileType,
   type RadiographKind,
+  type RadiographPreviewStatus,
   type ReminderKind,
   type ReminderStatus,
   type SiteStatus,
@@ -159,6 +160,12 @@ export const RADIOGRAPH_KIND_LABEL: Record<RadiographKind, string> = {
   panoramic: 'Panoramic',
   'cbct-export': 'CBCT export',
   other: 'Other',
+};
+
+export const RADIOGRAPH_PREVIEW_STATUS_LABEL: Record<RadiographPreviewStatus, string> = {
+  pending: 'Preview being prepared',
+  ready: 'Preview ready',
+  unavailable: 'No preview',
 };
 
 export const RADIOGRAPH_FILE_TYPE_LABEL: Record<RadiographFileType, string> = {

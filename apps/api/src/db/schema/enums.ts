@@ -18,6 +18,7 @@ import {
   PROBING_POSITIONS,
   RADIOGRAPH_FILE_TYPES,
   RADIOGRAPH_KINDS,
+  RADIOGRAPH_PREVIEW_STATUSES,
   RECALL_STATUSES,
   REMINDER_KINDS,
   REMINDER_STATUSES,
@@ -66,3 +67,4 @@ export const auditActionEnum = pgEnum('audit_action', AUDIT_ACTIONS);
 export const auditOutcomeEnum = pgEnum('audit_outcome', AUDIT_OUTCOMES);
 export const seatingEventEnum = pgEnum('seating_event', SEATING_EVENTS);
 export const seatingAnswerEnum = pgEnum('seating_answer', SEATING_ANSWERS);
+export const radiographPreviewStatusEnum = pgEnum('radiograph_preview_status', RADIOGRAPH_PREVIEW_STATUSES);

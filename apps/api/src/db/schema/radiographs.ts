@@ -12,8 +12,9 @@ import {
   unique,
   uuid,
 } from 'drizzle-orm/pg-core';
+import { sql } from 'drizzle-orm';
 import { amendmentChain } from './amendment-chain.js';
-import { radiographFileTypeEnum, radiographKindEnum } from './enums.js';
+import { radiographFileTypeEnum, radiographKindEnum, radiographPreviewStatusEnum } from './enums.js';
 import { patients } from './patients.js';
 import { practices, users } from './practices.js';
 import { implantSites } from './sites.js';
@@ -54,8 +55,15 @@ export const radiographs = pgTable(
     bitsStored: integer('bits_stored'),
     photometricInterpretation: text('photometric_interpretation'),
     transferSyntaxUid: text('transfer_syntax_uid'),
-    /** Why no preview could be made (e.g. a compressed transfer syntax), else null. */
+    /**
+     * The preview and thumbnail are made by a job after the row commits (pending), then ready, or
+     * unavailable with the reason in preview_problem (e.g. a compressed transfer syntax, an image
+     * over the pixel limit, or storage failing through every retry).
+     */
+    previewStatus: radiographPreviewStatusEnum('preview_status').notNull().default('pending'),
     previewProblem: text('preview_problem'),
+    /** Failed attempts of the preview job so far (retries are visible while pending). */
+    previewAttempts: integer('preview_attempts').notNull().default(0),
     uploadedBy: uuid('uploaded_by')
       .notNull()
       .references(() => users.id),
@@ -70,6 +78,10 @@ export const radiographs = pgTable(
     unique('radiographs_patient_sha256_unique').on(t.patientId, t.sha256),
     index('radiographs_patient_idx').on(t.patientId, t.takenOn),
     index('radiographs_uploader_day_idx').on(t.uploadedBy, t.uploadedAt),
+    // The sweep finds rows still waiting for their preview.
+    index('radiographs_preview_pending_idx')
+      .on(t.uploadedAt)
+      .where(sql`${t.previewStatus} = 'pending'`),
   ],
 );
 

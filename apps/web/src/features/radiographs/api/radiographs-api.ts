@@ -16,6 +16,9 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { ApiError, apiRequest } from '../../../lib/api-client';
 import { radiographKeys } from './keys';
 
+/** How often a radiograph whose preview is being prepared is asked for again, ms. */
+const PREVIEW_POLL_MS = 2000;
+
 export const useRadiographs = (patientId: string, includeEnteredInError = false) =>
   useQuery({
     queryKey: radiographKeys.list(patientId, includeEnteredInError),
@@ -24,6 +27,9 @@ export const useRadiographs = (patientId: string, includeEnteredInError = false)
         schema: RadiographListReply,
         signal,
       }),
+    // Previews are made after the upload: the list is fetched again until none is pending.
+    refetchInterval: (query) =>
+      query.state.data?.items.some((r) => r.previewStatus === 'pending') ? PREVIEW_POLL_MS : false,
   });
 
 /** The upload's details as the contract parses them. */
@@ -79,6 +85,7 @@ export const useRadiograph = (radiographId: string) =>
   useQuery({
     queryKey: radiographKeys.detail(radiographId),
     queryFn: ({ signal }) => apiRequest(`/api/radiographs/${radiographId}`, { schema: RadiographDetail, signal }),
+    refetchInterval: (query) => (query.state.data?.previewStatus === 'pending' ? PREVIEW_POLL_MS : false),
   });
 
 // A measurement or a radiograph marked entered in error changes lists, details and bone-level charts.

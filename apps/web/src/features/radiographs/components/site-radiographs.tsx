@@ -4,6 +4,7 @@ import { Link } from 'react-router-dom';
 import { Can } from '../../../lib/ability';
 import { RADIOGRAPH_KIND_LABEL } from '../../../lib/labels';
 import { useRadiographs } from '../api/radiographs-api';
+import { PreviewNotice } from './preview-notice';
 
 /** The Site file's radiographs: thumbnails of those showing this site, each opening the viewer. */
 export function SiteRadiographs({ patientId, siteId }: { patientId: string; siteId: string }) {
@@ -24,8 +25,8 @@ export function SiteRadiographs({ patientId, siteId }: { patientId: string; site
             {shown.map((r) => (
               <Card key={r.id} className="radiograph-card" data-testid="site-radiograph">
                 <Link to={`/patients/${patientId}/radiographs/${r.id}`}>
-                  {r.previewProblem ? (
-                    <span>{r.previewProblem}</span>
+                  {r.previewStatus !== 'ready' ? (
+                    <PreviewNotice radiograph={r} compact />
                   ) : (
                     <img
                       src={`/api/radiographs/${r.id}/thumbnail`}

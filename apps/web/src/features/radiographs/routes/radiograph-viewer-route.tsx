@@ -1,5 +1,5 @@
 import '../components/radiographs.css';
-import { Button, ButtonGroup, Callout, Card, Slider, Switch } from '@blueprintjs/core';
+import { Button, ButtonGroup, Card, Slider, Switch } from '@blueprintjs/core';
 import type { Measurement } from '@torquetrail/contracts';
 import { useState, type KeyboardEvent, type WheelEvent } from 'react';
 import { useParams } from 'react-router-dom';
@@ -12,6 +12,7 @@ import { usePatient } from '../../patients';
 import { useRadiograph } from '../api/radiographs-api';
 import { EnteredInErrorCard } from '../components/entered-in-error-form';
 import { MeasureWorkspace } from '../components/measure-workspace';
+import { PreviewNotice } from '../components/preview-notice';
 
 const ZOOM_STEP = 1.25;
 const mm = (v: number) => `${v.toFixed(2)} mm`;
@@ -94,7 +95,7 @@ export function RadiographViewerRoute() {
         </label>
         <Switch label="Invert" checked={invert} onChange={() => setInvert((v) => !v)} />
       </div>
-      {r.previewProblem && <Callout intent="warning">{r.previewProblem}</Callout>}
+      {r.previewStatus !== 'ready' && <PreviewNotice radiograph={r} />}
       <MeasureWorkspace
         // A new form for each measurement amended: its marks and reason start empty.
         key={amending?.id ?? 'new'}
@@ -104,7 +105,7 @@ export function RadiographViewerRoute() {
         locked={r.enteredInError !== null}
         onDone={() => setAmending(null)}
         renderStage={({ onClick, marks }) =>
-          r.previewProblem ? null : (
+          r.previewStatus !== 'ready' ? null : (
             <div
               className="viewer-stage"
               tabIndex={0}

@@ -9,6 +9,7 @@ import { LoadingState } from '../../../lib/components/loading-state';
 import { RADIOGRAPH_FILE_TYPE_LABEL, RADIOGRAPH_KIND_LABEL } from '../../../lib/labels';
 import { usePatient } from '../../patients';
 import { useRadiographs } from '../api/radiographs-api';
+import { PreviewNotice } from '../components/preview-notice';
 import { UploadPanel } from '../components/upload-panel';
 
 /** /patients/:patientId/radiographs: upload, and every radiograph of the patient with its thumbnail. */
@@ -48,8 +49,8 @@ export function RadiographsRoute() {
         <div className="radiograph-grid">
           {list.data.items.map((r) => (
             <Card key={r.id} className="radiograph-card" data-testid="radiograph-card">
-              {r.previewProblem ? (
-                <p className="radiograph-no-preview">{r.previewProblem}</p>
+              {r.previewStatus !== 'ready' ? (
+                <PreviewNotice radiograph={r} compact />
               ) : (
                 <img src={`/api/radiographs/${r.id}/thumbnail`} alt={`${RADIOGRAPH_KIND_LABEL[r.kind]} radiograph`} />
               )}
