@@ -22,6 +22,7 @@ import { TorqueModule } from './torque/torque.module.js';
 import { PlacementsModule } from './placements/placements.module.js';
 import { StorageModule } from './storage/storage.module.js';
 import { RadiographsModule } from './radiographs/radiographs.module.js';
+import { PeopleModule } from './people/people.module.js';
 
 @Module({})
 export class AppModule {
@@ -46,6 +47,7 @@ export class AppModule {
         ComplicationsModule,
         RecallsModule,
         RadiographsModule,
+        PeopleModule,
         ...(env.NODE_ENV === 'production' ? [] : [OpenApiModule]),
       ],
       providers: [

@@ -213,3 +213,8 @@ export type RadiographFileType = z.infer<typeof RadiographFileType>;
 export const RADIOGRAPH_KINDS = ['periapical', 'bitewing', 'panoramic', 'cbct-export', 'other'] as const;
 export const RadiographKind = z.enum(RADIOGRAPH_KINDS);
 export type RadiographKind = z.infer<typeof RadiographKind>;
+
+/** Where an invitation stands (derived from its row: accepted, revoked, expired or still pending). */
+export const INVITATION_STATUSES = ['pending', 'expired', 'accepted', 'revoked'] as const;
+export const InvitationStatus = z.enum(INVITATION_STATUSES);
+export type InvitationStatus = z.infer<typeof InvitationStatus>;

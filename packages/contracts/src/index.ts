@@ -13,3 +13,5 @@ export * from './recalls.js';
 export * from './placements.js';
 export * from './routes.js';
 export * from './radiographs.js';
+export * from './password.js';
+export * from './people.js';

@@ -3,6 +3,7 @@ import { ledgerRoutes } from './ledger.js';
 import { recallRoutes } from './recalls.js';
 import { placementRoutes } from './placements.js';
 import { radiographRoutes } from './radiographs.js';
+import { peopleRoutes } from './people.js';
 import { Me, SignInBody } from './auth.js';
 import { HealthReply, LivenessReply } from './health.js';
 import { PatientDetail, PatientListQuery, PatientListReply } from './patients.js';
@@ -78,6 +79,7 @@ export const apiRoutes: RouteContract[] = [
     reply: SiteFile,
   },
   ...ledgerRoutes,
+  ...peopleRoutes,
   ...recallRoutes,
   ...radiographRoutes,
   ...placementRoutes,

@@ -7,3 +7,4 @@ export * from './sites.js';
 export * from './restorations.js';
 export * from './recalls.js';
 export * from './radiographs.js';
+export * from './people.js';
