@@ -56,11 +56,11 @@ export const NewPassword = z.string({ error: 'Enter a password' }).superRefine((
 });
 
 /** Adds the e-mail check to a body's password field, at `path`, when the address is known. */
-export function refinePasswordWithEmail<T extends object>(
-  schema: z.ZodType<T>,
-  pick: (body: T) => { password: string; email: string | undefined },
+export function refinePasswordWithEmail<S extends z.ZodObject>(
+  schema: S,
+  pick: (body: z.output<S>) => { password: string; email: string | undefined },
   path: string,
-) {
+): S {
   return schema.superRefine((body, ctx) => {
     const { password, email } = pick(body);
     const problem = passwordProblem(password, email);

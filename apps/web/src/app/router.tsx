@@ -17,6 +17,22 @@ export const router = createBrowserRouter([
     children: [
       { path: '/sign-in', element: <SignInRoute /> },
       {
+        path: '/welcome',
+        lazy: async () => ({ Component: (await import('../features/auth/routes/welcome-route')).WelcomeRoute }),
+      },
+      {
+        path: '/forgot-password',
+        lazy: async () => ({
+          Component: (await import('../features/auth/routes/forgot-password-route')).ForgotPasswordRoute,
+        }),
+      },
+      {
+        path: '/reset-password',
+        lazy: async () => ({
+          Component: (await import('../features/auth/routes/reset-password-route')).ResetPasswordRoute,
+        }),
+      },
+      {
         path: '/',
         element: <RequireAuth />,
         children: [
@@ -90,6 +106,27 @@ export const router = createBrowserRouter([
             lazy: async () => ({
               Component: (await import('../features/recalls/routes/reminder-log-route')).ReminderLogRoute,
             }),
+          },
+          {
+            path: 'account',
+            lazy: async () => ({ Component: (await import('../features/auth/routes/account-route')).AccountRoute }),
+          },
+          {
+            path: 'practice',
+            lazy: async () => ({ Component: (await import('../features/people/routes/practice-route')).PracticeRoute }),
+            children: [
+              { index: true, element: <Navigate to="/practice/people" replace /> },
+              {
+                path: 'people',
+                lazy: async () => ({ Component: (await import('../features/people/routes/people-route')).PeopleRoute }),
+              },
+              {
+                path: 'sign-in',
+                lazy: async () => ({
+                  Component: (await import('../features/people/routes/sign-in-settings-route')).SignInSettingsRoute,
+                }),
+              },
+            ],
           },
           { path: '*', element: <NotFoundRoute /> },
         ],
