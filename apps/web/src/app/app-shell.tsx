@@ -75,12 +75,7 @@ export function AppShell({ me, onSignOut, signingOut, signOutError }: AppShellPr
             </nav>
           </NavbarGroup>
           <NavbarGroup align={Alignment.END}>
-            <Link
-              to="/account"
-              className="app-navbar__user"
-              aria-label={`Your account: ${me.displayName}`}
-              title="Your account and password"
-            >
+            <Link to="/account" className="app-navbar__user" title="Your account and password">
               <span className="app-navbar__name">{me.displayName}</span>
               <span className="app-navbar__meta">
                 {ROLE_LABEL[me.role]} · {me.practiceName}

@@ -182,7 +182,7 @@ function Invitations({ invitations }: { invitations: Invitation[] }) {
                           variant="minimal"
                           icon="envelope"
                           text="Send again"
-                          aria-label={`Send the invitation to ${inv.email} again`}
+                          aria-label={`Send again to ${inv.email}`}
                           loading={resend.isPending && resend.variables === inv.id}
                           onClick={() => {
                             revoke.reset();
