@@ -25,6 +25,7 @@ import { PlacementsModule } from './placements/placements.module.js';
 import { StorageModule } from './storage/storage.module.js';
 import { RadiographsModule } from './radiographs/radiographs.module.js';
 import { SeatingModule } from './seating/seating.module.js';
+import { PeopleModule } from './people/people.module.js';
 
 @Module({})
 export class AppModule {
@@ -51,6 +52,7 @@ export class AppModule {
         RecallsModule,
         RadiographsModule,
         SeatingModule,
+        PeopleModule,
         ...(env.NODE_ENV === 'production' ? [] : [OpenApiModule]),
       ],
       providers: [

@@ -20,6 +20,7 @@ import {
 import { actorCookies } from './support/role-matrix.js';
 import { scenarioTargets } from './support/scenario-targets.js';
 import { type AccountKey, startTestApp } from './support/test-app.js';
+import { freshEmail, throwawayAccount } from './support/people.js';
 
 const ctx = await startTestApp();
 afterAll(() => ctx.close());
@@ -50,6 +51,17 @@ async function freshPatient(archived = false): Promise<string> {
       .send({ reason: 'For the fuzzer' });
   return id;
 }
+/** An invitation and a colleague of Larkspur of their own, for the people routes. */
+const fuzzInvitation = async () =>
+  (
+    (
+      await ctx.http
+        .post('/api/people/invitations')
+        .set('Cookie', cookies.practice_admin)
+        .send({ email: freshEmail('fuzz.invitee'), role: 'hygienist' })
+    ).body as { id: string }
+  ).id;
+const fuzzColleague = async () => (await throwawayAccount(ctx, 'dentist')).id;
 
 /** Who calls each write endpoint (a role that may), and on which record. */
 const TARGETS: Record<string, { as: AccountKey | null; path: string }> = {
@@ -113,6 +125,24 @@ const TARGETS: Record<string, { as: AccountKey | null; path: string }> = {
   'POST /recalls/exams/:id/amend': { as: 'hygienist', path: `/api/recalls/exams/${await t.fresh.exam()}/amend` },
   'PUT /recalls/policy': { as: 'practice_admin', path: '/api/recalls/policy' },
   'POST /recalls/reminders/run': { as: 'practice_admin', path: '/api/recalls/reminders/run' },
+  'POST /people/invitations': { as: 'practice_admin', path: '/api/people/invitations' },
+  'POST /people/invitations/:id/resend': {
+    as: 'practice_admin',
+    path: `/api/people/invitations/${await fuzzInvitation()}/resend`,
+  },
+  'POST /people/invitations/:id/revoke': {
+    as: 'practice_admin',
+    path: `/api/people/invitations/${await fuzzInvitation()}/revoke`,
+  },
+  'PUT /people/:id/role': { as: 'practice_admin', path: `/api/people/${await fuzzColleague()}/role` },
+  'POST /people/:id/deactivation': { as: 'practice_admin', path: `/api/people/${await fuzzColleague()}/deactivation` },
+  'PUT /practice/session-settings': { as: 'practice_admin', path: '/api/practice/session-settings' },
+  'PUT /auth/password': { as: 'dentist', path: '/api/auth/password' },
+  'POST /account/invitation': { as: null, path: '/api/account/invitation' },
+  'POST /account/invitation/accept': { as: null, path: '/api/account/invitation/accept' },
+  'POST /account/password-reset': { as: null, path: '/api/account/password-reset' },
+  'POST /account/password-reset/look-up': { as: null, path: '/api/account/password-reset/look-up' },
+  'POST /account/password-reset/complete': { as: null, path: '/api/account/password-reset/complete' },
   'POST /patients/:id/sites': { as: 'dentist', path: `/api/patients/${t.ids.lucia}/sites` },
   'POST /patients': { as: 'dentist', path: '/api/patients' },
   'PATCH /patients/:id': { as: 'dentist', path: `/api/patients/${await freshPatient()}` },

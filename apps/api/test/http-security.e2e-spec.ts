@@ -3,9 +3,9 @@
 // believed only when configured, and the security and caching headers of every reply.
 import { createHmac } from 'node:crypto';
 import { JwtService } from '@nestjs/jwt';
-import { count } from 'drizzle-orm';
+import { count, eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { complications } from '../src/db/schema/index.js';
+import { complications, users } from '../src/db/schema/index.js';
 import { siteId, signIn, startTestApp, testEnv, type TestContext } from './support/test-app.js';
 
 let ctx: TestContext;
@@ -34,24 +34,30 @@ function hs256(payload: Record<string, unknown>, secret: string): string {
 describe('session tokens signed with the app secret', () => {
   const secret = () => testEnv().JWT_SECRET;
   const call = (token: string) => ctx.http.get('/api/auth/me').set('Cookie', `tt_session=${token}`);
+  /** The claims a session needs besides the times: the user's current session version and the sign-in time. */
+  const session = async () => {
+    const [{ sv }] = await ctx.db.select({ sv: users.sessionVersion }).from(users).where(eq(users.id, dentistId));
+    return { sub: dentistId, sv, at: Math.floor(Date.now() / 1000) };
+  };
 
   it('accepts a token as the app signs it (HS256 with iat and exp): the control case', async () => {
-    const token = ctx.app.get(JwtService).sign({ sub: dentistId });
+    const token = ctx.app.get(JwtService).sign(await session());
     expect((await call(token)).status).toBe(200);
   });
 
   it('refuses a token in another algorithm (HS512) though signed with the right secret', async () => {
     const token = ctx.app
       .get(JwtService)
-      .sign({ sub: dentistId }, { secret: secret(), algorithm: 'HS512', expiresIn: 600 });
+      .sign(await session(), { secret: secret(), algorithm: 'HS512', expiresIn: 600 });
     expect((await call(token)).status).toBe(401);
   });
 
   it('refuses a token without an expiry, and one without an issue time', async () => {
     const now = Math.floor(Date.now() / 1000);
-    expect((await call(hs256({ sub: dentistId, iat: now, exp: now + 600 }, secret()))).status).toBe(200);
-    expect((await call(hs256({ sub: dentistId, iat: now }, secret()))).status).toBe(401);
-    expect((await call(hs256({ sub: dentistId, exp: now + 600 }, secret()))).status).toBe(401);
+    const claims = await session();
+    expect((await call(hs256({ ...claims, iat: now, exp: now + 600 }, secret()))).status).toBe(200);
+    expect((await call(hs256({ ...claims, iat: now }, secret()))).status).toBe(401);
+    expect((await call(hs256({ ...claims, exp: now + 600 }, secret()))).status).toBe(401);
   });
 });
 

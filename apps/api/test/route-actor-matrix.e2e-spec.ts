@@ -8,7 +8,7 @@
 import { apiRoutes } from '@torquetrail/contracts';
 import { eq } from 'drizzle-orm';
 import { afterAll, describe, expect, it } from 'vitest';
-import { users } from '../src/db/schema/index.js';
+import { invitations, users } from '../src/db/schema/index.js';
 import { AUDIT_EXPECTATIONS, auditChecks, expectAuditRows, nextXid } from './support/audit-expectations.js';
 import { actorCookies, all, type Expected } from './support/role-matrix.js';
 import { ACCOUNTS, patientId, startTestApp } from './support/test-app.js';
@@ -106,6 +106,41 @@ async function freshPatient(archived = false): Promise<string> {
       .send({ reason: 'For the matrix' });
   return id;
 }
+const [odile] = await ctx.db.select().from(users).where(eq(users.email, ACCOUNTS.practice_admin));
+const [nell] = await ctx.db.select().from(users).where(eq(users.email, ACCOUNTS.otherPracticeDentist));
+let freshCount = 0;
+/** A Larkspur invitation of its own per call (re-sent or withdrawn by the case). */
+const freshInvitation = async () => {
+  freshCount += 1;
+  const [row] = await ctx.db
+    .insert(invitations)
+    .values({
+      practiceId: odile.practiceId,
+      email: `matrix.invitee.${freshCount}@larkspur.example`,
+      role: 'hygienist',
+      invitedBy: odile.id,
+      linkOrigin: 'http://127.0.0.1',
+    })
+    .returning({ id: invitations.id });
+  return row.id;
+};
+/** A Larkspur dentist of its own per call (role changed or deactivated by the case). */
+const freshColleague = async () => {
+  freshCount += 1;
+  const [row] = await ctx.db
+    .insert(users)
+    .values({
+      practiceId: odile.practiceId,
+      email: `matrix.colleague.${freshCount}@larkspur.example`,
+      displayName: `Colleague ${freshCount}`,
+      role: 'dentist',
+      passwordHash: odile.passwordHash,
+    })
+    .returning({ id: users.id });
+  return row.id;
+};
+/** A well-formed link token nobody was sent. */
+const unknownToken = 'Zq'.repeat(21) + 'Q';
 let uploadGrey = 100;
 
 // ---- the expectations -----------------------------------------------------------------------
@@ -472,6 +507,99 @@ const TABLE: Record<string, Case[]> = {
     path: () => `/api/patients/${ids.harold}/audit`,
     expect: every(403, { dentist: 200, practice_admin: 200, otherPracticeDentist: 404 }),
   }),
+  // People and sign-in: the practice administrator only; another practice's user reads like a missing one.
+  'GET /api/people': one({ path: () => '/api/people', expect: adminOnly(200) }, 'own practice'),
+  'POST /api/people/invitations': one(
+    {
+      path: () => '/api/people/invitations',
+      body: () => ({ email: `matrix.invited.${(freshCount += 1)}@larkspur.example`, role: 'hygienist' }),
+      expect: adminOnly(201),
+    },
+    'own practice',
+  ),
+  'POST /api/people/invitations/:id/resend': one(
+    { path: async () => `/api/people/invitations/${await freshInvitation()}/resend`, expect: adminOnly(200) },
+    'own invitation',
+  ),
+  'POST /api/people/invitations/:id/revoke': one(
+    { path: async () => `/api/people/invitations/${await freshInvitation()}/revoke`, expect: adminOnly(200) },
+    'own invitation',
+  ),
+  'PUT /api/people/:id/role': [
+    {
+      target: 'own colleague',
+      path: async () => `/api/people/${await freshColleague()}/role`,
+      body: () => ({ role: 'hygienist' }),
+      expect: adminOnly(200),
+    },
+    {
+      target: 'another practice',
+      path: () => `/api/people/${nell.id}/role`,
+      body: () => ({ role: 'hygienist' }),
+      expect: adminOnly(404),
+    },
+  ],
+  'POST /api/people/:id/deactivation': [
+    {
+      target: 'own colleague',
+      path: async () => `/api/people/${await freshColleague()}/deactivation`,
+      expect: adminOnly(200),
+    },
+    { target: 'another practice', path: () => `/api/people/${nell.id}/deactivation`, expect: adminOnly(404) },
+  ],
+  'GET /api/practice/session-settings': one(
+    { path: () => '/api/practice/session-settings', expect: every(200) },
+    'own practice',
+  ),
+  'PUT /api/practice/session-settings': one(
+    { path: () => '/api/practice/session-settings', body: () => ({ idleSignOutMinutes: 15 }), expect: adminOnly(200) },
+    'own practice',
+  ),
+  // A wrong current password: nobody's password changes, every signed-in actor gets the field error.
+  'PUT /api/auth/password': one(
+    {
+      path: () => '/api/auth/password',
+      body: () => ({ currentPassword: 'not-the-password', newPassword: 'Tidewater lantern 49' }),
+      expect: every(400),
+    },
+    'own account',
+  ),
+  'POST /api/account/invitation': one(
+    { path: () => '/api/account/invitation', body: () => ({ token: unknownToken }), expect: publicRoute(404) },
+    'public',
+  ),
+  'POST /api/account/invitation/accept': one(
+    {
+      path: () => '/api/account/invitation/accept',
+      body: () => ({ token: unknownToken, displayName: 'Nobody', password: 'Tidewater lantern 49' }),
+      expect: publicRoute(404),
+    },
+    'public',
+  ),
+  'POST /api/account/password-reset': one(
+    {
+      path: () => '/api/account/password-reset',
+      body: () => ({ email: 'nobody.here@larkspur.example' }),
+      expect: publicRoute(200),
+    },
+    'public',
+  ),
+  'POST /api/account/password-reset/look-up': one(
+    {
+      path: () => '/api/account/password-reset/look-up',
+      body: () => ({ token: unknownToken }),
+      expect: publicRoute(404),
+    },
+    'public',
+  ),
+  'POST /api/account/password-reset/complete': one(
+    {
+      path: () => '/api/account/password-reset/complete',
+      body: () => ({ token: unknownToken, password: 'Tidewater lantern 49' }),
+      expect: publicRoute(404),
+    },
+    'public',
+  ),
   // The surgeon adds sites only in their own practice: a shared patient of Larkspur is 403.
   'POST /api/patients/:id/sites': one({
     path: () => `/api/patients/${ids.lucia}/sites`,

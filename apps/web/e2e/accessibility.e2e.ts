@@ -59,10 +59,17 @@ describe('accessibility (axe-core, WCAG 2.1 A/AA)', () => {
     expect(await seriousA11yViolations(page)).toEqual([]);
   });
 
-  it('practice admin: catalogue, recall policy and reminder log', async () => {
+  it('practice admin: catalogue, recall policy, reminder log, People, sign-in settings and the account', async () => {
     const page = await h.newPage();
     await signInAs(page, 'odile.park@larkspur.example');
-    for (const path of ['/catalogue', '/recalls/policy', '/recalls/reminders']) {
+    for (const path of [
+      '/catalogue',
+      '/recalls/policy',
+      '/recalls/reminders',
+      '/practice/people',
+      '/practice/sign-in',
+      '/account',
+    ]) {
       await page.goto(path);
       await settle(page);
       expect({ path, violations: await seriousA11yViolations(page) }).toEqual({ path, violations: [] });

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { Id } from './common.js';
+import { Id, IsoDateTime } from './common.js';
 import { Role } from './enums.js';
 
 export const SignInBody = z.object({
@@ -18,5 +18,13 @@ export const Me = z.object({
   practiceName: z.string(),
   /** Patients of other practices shared with this user (surgeons). */
   sharedPatientIds: z.array(Id),
+  session: z.object({
+    /** Sign out after this many seconds without use (the practice's setting). */
+    idleSignOutS: z.number().int().positive(),
+    /** Warn this many seconds before the idle sign-out. */
+    warnBeforeS: z.number().int().positive(),
+    /** When the session ends whatever happens: sign in again then (OWASP ASVS 3.3.2). */
+    reauthenticateAt: IsoDateTime,
+  }),
 });
 export type Me = z.infer<typeof Me>;

@@ -276,3 +276,7 @@ export type SeatingAnswer = z.infer<typeof SeatingAnswer>;
 export const RADIOGRAPH_PREVIEW_STATUSES = ['pending', 'ready', 'unavailable'] as const;
 export const RadiographPreviewStatus = z.enum(RADIOGRAPH_PREVIEW_STATUSES);
 export type RadiographPreviewStatus = z.infer<typeof RadiographPreviewStatus>;
+/** Where an invitation stands (derived from its row: accepted, revoked, expired or still pending). */
+export const INVITATION_STATUSES = ['pending', 'expired', 'accepted', 'revoked'] as const;
+export const InvitationStatus = z.enum(INVITATION_STATUSES);
+export type InvitationStatus = z.infer<typeof InvitationStatus>;

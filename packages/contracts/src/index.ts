@@ -15,3 +15,5 @@ export * from './routes.js';
 export * from './radiographs.js';
 export * from './audit.js';
 export * from './seating.js';
+export * from './password.js';
+export * from './people.js';

@@ -5,6 +5,7 @@ import { placementRoutes } from './placements.js';
 import { radiographRoutes } from './radiographs.js';
 import { auditRoutes } from './audit.js';
 import { seatingRoutes } from './seating.js';
+import { peopleRoutes } from './people.js';
 import { Me, SignInBody } from './auth.js';
 import { HealthReply, LivenessReply } from './health.js';
 import { PatientDetail, PatientListQuery, PatientListReply, patientRoutes } from './patients.js';
@@ -81,6 +82,7 @@ export const apiRoutes: RouteContract[] = [
   },
   ...patientRoutes,
   ...ledgerRoutes,
+  ...peopleRoutes,
   ...recallRoutes,
   ...radiographRoutes,
   ...seatingRoutes,

@@ -1,7 +1,6 @@
-import { Body, Controller, Get, HttpCode, Post, Req, Res, UseGuards } from '@nestjs/common';
-import { Inject } from '@nestjs/common';
+import { Body, Controller, Get, HttpCode, Inject, Post, Put, Req, Res, UseGuards } from '@nestjs/common';
 import type { Request, Response } from 'express';
-import { type Me, SignInBody } from '@torquetrail/contracts';
+import { ChangePasswordBody, type Me, SignInBody } from '@torquetrail/contracts';
 import { ENV, type Env } from '../config/env.js';
 import { CurrentUser } from '../common/current-user.decorator.js';
 import { Public } from '../common/public.decorator.js';
@@ -9,18 +8,9 @@ import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
 import { Audit } from '../audit/audit.decorator.js';
 import { Allow } from '../authz/check-ability.decorator.js';
 import { AuthService } from './auth.service.js';
+import { clearSessionCookie, setSessionCookie } from './session-cookie.js';
 import { SESSION_COOKIE, type SessionUser } from './session-user.js';
 import { SignInThrottlerGuard } from './sign-in-throttler.guard.js';
-
-const toMe = (user: SessionUser): Me => ({
-  id: user.id,
-  email: user.email,
-  displayName: user.displayName,
-  role: user.role,
-  practiceId: user.practiceId,
-  practiceName: user.practiceName,
-  sharedPatientIds: user.sharedPatientIds,
-});
 
 @Controller('auth')
 export class AuthController {
@@ -28,6 +18,19 @@ export class AuthController {
     private readonly auth: AuthService,
     @Inject(ENV) private readonly env: Env,
   ) {}
+
+  private toMe(user: SessionUser): Me {
+    return {
+      id: user.id,
+      email: user.email,
+      displayName: user.displayName,
+      role: user.role,
+      practiceId: user.practiceId,
+      practiceName: user.practiceName,
+      sharedPatientIds: user.sharedPatientIds,
+      session: this.auth.sessionInfo(user),
+    };
+  }
 
   @Public()
   @Post('sign-in')
@@ -38,15 +41,9 @@ export class AuthController {
     @Body(new ZodValidationPipe(SignInBody)) body: SignInBody,
     @Res({ passthrough: true }) res: Response,
   ): Promise<Me> {
-    const { user, token } = await this.auth.signIn(body.email, body.password);
-    res.cookie(SESSION_COOKIE, token, {
-      httpOnly: true,
-      sameSite: 'strict',
-      secure: this.env.COOKIE_SECURE,
-      path: '/',
-      maxAge: this.env.SESSION_TTL_S * 1000,
-    });
-    return toMe(user);
+    const { user, token, lifetimeS } = await this.auth.signIn(body.email, body.password);
+    setSessionCookie(res, this.env, token, lifetimeS);
+    return this.toMe(user);
   }
 
   @Public()
@@ -55,12 +52,26 @@ export class AuthController {
   @HttpCode(204)
   async signOut(@Req() req: Request, @Res({ passthrough: true }) res: Response): Promise<void> {
     await this.auth.signOut((req.cookies as Record<string, string> | undefined)?.[SESSION_COOKIE]);
-    res.clearCookie(SESSION_COOKIE, { httpOnly: true, sameSite: 'strict', secure: this.env.COOKIE_SECURE, path: '/' });
+    clearSessionCookie(res, this.env);
   }
 
   @Get('me')
   @Allow.signedIn()
   me(@CurrentUser() user: SessionUser): Me {
-    return toMe(user);
+    return this.toMe(user);
+  }
+
+  /** Everyone changes their own password; this session goes on with a new cookie, the others end. */
+  @Put('password')
+  @HttpCode(204)
+  @Allow.signedIn()
+  @UseGuards(SignInThrottlerGuard)
+  async changePassword(
+    @CurrentUser() user: SessionUser,
+    @Body(new ZodValidationPipe(ChangePasswordBody)) body: ChangePasswordBody,
+    @Res({ passthrough: true }) res: Response,
+  ): Promise<void> {
+    const { token, lifetimeS } = await this.auth.changePassword(user, body.currentPassword, body.newPassword);
+    setSessionCookie(res, this.env, token, lifetimeS);
   }
 }

@@ -27,6 +27,6 @@ import { SignInThrottlerGuard, signInThrottlers } from './sign-in-throttler.guar
   ],
   controllers: [AuthController],
   providers: [AuthService, JwtStrategy, SignInThrottlerGuard],
-  exports: [AuthService],
+  exports: [AuthService, SignInThrottlerGuard],
 })
 export class AuthModule {}

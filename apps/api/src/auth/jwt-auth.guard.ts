@@ -1,19 +1,36 @@
-import { type ExecutionContext, Injectable, UnauthorizedException } from '@nestjs/common';
+import { type ExecutionContext, Inject, Injectable, UnauthorizedException } from '@nestjs/common';
 import { Reflector } from '@nestjs/core';
 import { AuthGuard } from '@nestjs/passport';
+import type { Response } from 'express';
+import type { AuthedRequest } from '../common/current-user.decorator.js';
 import { IS_PUBLIC } from '../common/public.decorator.js';
+import { ENV, type Env } from '../config/env.js';
+import { AuthService } from './auth.service.js';
+import { setSessionCookie } from './session-cookie.js';
 
-/** Global: every route needs a valid session unless it is marked @Public(). */
+/**
+ * Global: every route needs a valid session unless it is marked @Public(). A session in use gets
+ * a fresh token every few minutes (sliding, up to the absolute session length), so an 8-hour
+ * token lifetime never cuts a working session short and an idle copy of an old cookie expires.
+ */
 @Injectable()
 export class JwtAuthGuard extends AuthGuard('jwt') {
-  constructor(private readonly reflector: Reflector) {
+  constructor(
+    private readonly reflector: Reflector,
+    private readonly auth: AuthService,
+    @Inject(ENV) private readonly env: Env,
+  ) {
     super();
   }
 
-  override canActivate(context: ExecutionContext) {
+  override async canActivate(context: ExecutionContext): Promise<boolean> {
     const isPublic = this.reflector.getAllAndOverride<boolean>(IS_PUBLIC, [context.getHandler(), context.getClass()]);
     if (isPublic) return true;
-    return super.canActivate(context);
+    const ok = (await super.canActivate(context)) as boolean;
+    const http = context.switchToHttp();
+    const renewed = await this.auth.renewIfOld(http.getRequest<AuthedRequest>().user);
+    if (renewed) setSessionCookie(http.getResponse<Response>(), this.env, renewed.token, renewed.lifetimeS);
+    return ok;
   }
 
   /**

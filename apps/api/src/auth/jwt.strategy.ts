@@ -29,11 +29,12 @@ export class JwtStrategy extends PassportStrategy(Strategy) {
 
   /**
    * Returning null makes passport answer 401: a token without an expiry or issue time (which
-   * would never expire, or escape sign-out), and a deactivated or signed-out user's token.
+   * would never expire, or escape sign-out), a deactivated or signed-out user's token, and one
+   * past the absolute session length.
    */
   async validate(payload: SessionToken): Promise<SessionUser | null> {
     if (typeof payload.exp !== 'number' || typeof payload.iat !== 'number' || typeof payload.sub !== 'string')
       return null;
-    return this.auth.loadSessionUser(payload.sub, payload.iat);
+    return this.auth.loadSessionUser(payload);
   }
 }

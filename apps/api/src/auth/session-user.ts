@@ -9,11 +9,19 @@ export interface SessionUser {
   practiceId: string;
   practiceName: string;
   sharedPatientIds: string[];
+  /** The practice's idle sign-out period, minutes. */
+  idleSignOutMinutes: number;
+  /** From the request's token: when the person signed in and when the token was issued (seconds). */
+  session?: { authTimeS: number; issuedAtS: number };
 }
 
 /** What the session cookie's JWT carries. */
 export interface SessionToken {
   sub: string;
+  /** The user's session version when issued: sign-out, deactivation and resets add one. */
+  sv?: number;
+  /** When the person signed in, seconds since the epoch (kept across renewals). */
+  at?: number;
   /** Issued at and expiry, seconds since the epoch (set by the signer; a token lacking either is refused). */
   iat?: number;
   exp?: number;

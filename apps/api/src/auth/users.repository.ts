@@ -11,19 +11,44 @@ export async function findUserForSignIn(db: Db, email: string) {
   return row ?? null;
 }
 
-/** Ends every session of the user issued up to now (whole seconds, as in a JWT's iat). */
-export async function endSessions(db: Db, userId: string): Promise<void> {
-  await db
-    .update(users)
-    .set({ sessionsValidAfter: sql`date_trunc('second', now())` })
+/** The password hash and e-mail of a user (changing one's password checks the current one). */
+export async function findCredentials(db: Db, userId: string) {
+  const [row] = await db
+    .select({ email: users.email, passwordHash: users.passwordHash })
+    .from(users)
     .where(eq(users.id, userId));
+  return row ?? null;
 }
 
 /**
- * Loads the session user with the patients shared with them; null when gone, inactive, or when
- * the token was issued (`issuedAtS`, seconds) before the user's last sign-out.
+ * Ends every session of the user: the version goes up by one, so tokens issued under the old one
+ * are refused. Only when `fromVersion` is still current (a stale token cannot end newer sessions).
  */
-export async function findSessionUser(db: Db, userId: string, issuedAtS?: number): Promise<SessionUser | null> {
+export async function endSessions(db: Db, userId: string, fromVersion: number): Promise<void> {
+  await db
+    .update(users)
+    .set({ sessionVersion: sql`${users.sessionVersion} + 1` })
+    .where(and(eq(users.id, userId), eq(users.sessionVersion, fromVersion)));
+}
+
+/** A new password hash; every session ends. Returns the new session version. */
+export async function setPassword(db: Db, userId: string, passwordHash: string): Promise<number> {
+  const [row] = await db
+    .update(users)
+    .set({ passwordHash, sessionVersion: sql`${users.sessionVersion} + 1` })
+    .where(eq(users.id, userId))
+    .returning({ sessionVersion: users.sessionVersion });
+  return row.sessionVersion;
+}
+
+/**
+ * Loads the session user with the patients shared with them and their session version; null
+ * when gone or inactive. The caller compares the version with the token's.
+ */
+export async function findSessionUser(
+  db: Db,
+  userId: string,
+): Promise<(SessionUser & { sessionVersion: number }) | null> {
   const [row] = await db
     .select({
       id: users.id,
@@ -32,19 +57,18 @@ export async function findSessionUser(db: Db, userId: string, issuedAtS?: number
       role: users.role,
       practiceId: users.practiceId,
       practiceName: practices.name,
+      idleSignOutMinutes: practices.idleSignOutMinutes,
       active: users.active,
-      sessionsValidAfter: users.sessionsValidAfter,
+      sessionVersion: users.sessionVersion,
     })
     .from(users)
     .innerJoin(practices, eq(practices.id, users.practiceId))
     .where(eq(users.id, userId));
   if (!row || !row.active) return null;
-  if (issuedAtS !== undefined && row.sessionsValidAfter && issuedAtS * 1000 < row.sessionsValidAfter.getTime())
-    return null;
   const shares = await db
     .select({ patientId: patientShares.patientId })
     .from(patientShares)
     .where(and(eq(patientShares.sharedWithUserId, userId), isNull(patientShares.revokedAt)));
-  const { active: _active, sessionsValidAfter: _validAfter, ...user } = row;
+  const { active: _active, ...user } = row;
   return { ...user, sharedPatientIds: shares.map((s) => s.patientId) };
 }

@@ -20,9 +20,20 @@ describe('parseEnv', () => {
   });
 
   it('sends the session cookie over HTTPS only by default in production, not on loopback development', () => {
-    expect(parseEnv({ ...base, NODE_ENV: 'production' }).COOKIE_SECURE).toBe(true);
+    expect(parseEnv({ ...base, NODE_ENV: 'production', APP_URL: 'https://ledger.example' }).COOKIE_SECURE).toBe(true);
     expect(parseEnv({ ...base, NODE_ENV: 'development' }).COOKIE_SECURE).toBe(false);
-    expect(parseEnv({ ...base, NODE_ENV: 'production', COOKIE_SECURE: 'false' }).COOKIE_SECURE).toBe(false);
+    expect(
+      parseEnv({ ...base, NODE_ENV: 'production', APP_URL: 'https://ledger.example', COOKIE_SECURE: 'false' })
+        .COOKIE_SECURE,
+    ).toBe(false);
     expect(parseEnv({ ...base, COOKIE_SECURE: 'true' }).COOKIE_SECURE).toBe(true);
+  });
+
+  it('needs the public address for e-mailed links in production, and refuses the test-only idle override there', () => {
+    expect(() => parseEnv({ ...base, NODE_ENV: 'production' })).toThrow(/APP_URL: required in production/);
+    expect(() =>
+      parseEnv({ ...base, NODE_ENV: 'production', APP_URL: 'https://ledger.example', SESSION_IDLE_OVERRIDE_S: '10' }),
+    ).toThrow(/SESSION_IDLE_OVERRIDE_S/);
+    expect(parseEnv({ ...base, SESSION_IDLE_OVERRIDE_S: '10' }).SESSION_IDLE_OVERRIDE_S).toBe(10);
   });
 });

@@ -25,6 +25,22 @@ const EnvSchema = z.object({
     .int()
     .positive()
     .default(8 * 3600),
+  /** Absolute session length: sign in again this many seconds after signing in, however active (OWASP ASVS 3.3.2). */
+  SESSION_ABSOLUTE_S: z.coerce
+    .number()
+    .int()
+    .positive()
+    .default(12 * 3600),
+  /** A session token older than this is replaced on the next request (sliding up to the absolute length). */
+  SESSION_RENEW_AFTER_S: z.coerce.number().int().positive().default(300),
+  /** Tests only: an idle sign-out period in seconds replacing every practice's setting (refused in production). */
+  SESSION_IDLE_OVERRIDE_S: z.coerce.number().int().min(4).optional(),
+  /**
+   * The app's public address for links in e-mails (invitations, password resets), e.g.
+   * https://ledger.example.org. Required in production: a link built from a request's Host
+   * header could be pointed at another site by whoever asks for the mail.
+   */
+  APP_URL: z.url().optional(),
   /** Send the session cookie over HTTPS only; defaults to on in production, off on loopback development. */
   COOKIE_SECURE: z.enum(['true', 'false']).optional(),
   /** Sign-in attempts allowed per e-mail and address per minute. */
@@ -104,6 +120,12 @@ export function parseEnv(source: NodeJS.ProcessEnv = process.env): Env {
     throw new ConfigError(`The API's environment is incomplete:\n${problems}`);
   }
   const { COOKIE_SECURE, ...rest } = result.data;
+  if (rest.NODE_ENV === 'production' && !rest.APP_URL)
+    throw new ConfigError("The API's environment is incomplete:\n  APP_URL: required in production (links in e-mails)");
+  if (rest.NODE_ENV === 'production' && rest.SESSION_IDLE_OVERRIDE_S !== undefined)
+    throw new ConfigError(
+      "The API's environment is wrong:\n  SESSION_IDLE_OVERRIDE_S: for tests only, not in production",
+    );
   return {
     ...rest,
     COOKIE_SECURE: COOKIE_SECURE === undefined ? rest.NODE_ENV === 'production' : COOKIE_SECURE === 'true',

@@ -92,6 +92,21 @@ export const AUDIT_EXPECTATIONS: Record<string, Audited | null> = {
   'GET /api/restorations/:id/seating-checks': read(),
   'POST /api/restorations/:id/seating-checks': create,
   'POST /api/seating-checks/:id/amendments': amend,
+  'GET /api/people': null,
+  'POST /api/people/invitations': { action: 'invite', patient: false },
+  'POST /api/people/invitations/:id/resend': { action: 'invite', patient: false },
+  'POST /api/people/invitations/:id/revoke': { action: 'role-change', patient: false },
+  'PUT /api/people/:id/role': { action: 'role-change', patient: false },
+  'POST /api/people/:id/deactivation': { action: 'role-change', patient: false },
+  'GET /api/practice/session-settings': null,
+  'PUT /api/practice/session-settings': { action: 'policy-change', patient: false },
+  // The public link pages and one's own password: no patient data, no record of the practice's.
+  'POST /api/account/invitation': null,
+  'POST /api/account/invitation/accept': null,
+  'POST /api/account/password-reset': null,
+  'POST /api/account/password-reset/look-up': null,
+  'POST /api/account/password-reset/complete': null,
+  'PUT /api/auth/password': null,
 };
 
 /**

@@ -5,7 +5,7 @@ import path from 'node:path';
 import type { INestApplication } from '@nestjs/common';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
 import { createApp } from '../../../api/src/app.js';
-import { parseEnv } from '../../../api/src/config/env.js';
+import { type Env, parseEnv } from '../../../api/src/config/env.js';
 import { createDatabase, createPool } from '../../../api/src/db/database.js';
 import { DEMO_PASSWORD } from '../../../api/src/seed/demo-scenario.js';
 import { resetDatabase } from '../../../api/test/support/test-app.js';
@@ -23,10 +23,11 @@ export interface Harness {
   close: () => Promise<void>;
 }
 
-export async function startHarness(): Promise<Harness> {
+/** `overrides` change API settings for one file (e.g. a short idle sign-out period). */
+export async function startHarness(overrides: Partial<Env> = {}): Promise<Harness> {
   if (!fs.existsSync(path.join(webDist, 'index.html')))
     throw new Error(`the web app is not built (${webDist}); run npm test`);
-  const env = parseEnv({ ...process.env, NODE_ENV: 'test', WEB_DIST: webDist });
+  const env = { ...parseEnv({ ...process.env, NODE_ENV: 'test', WEB_DIST: webDist }), ...overrides };
   const pool = createPool(env.DATABASE_URL);
   const reset = () => resetDatabase(createDatabase(pool));
   await reset();

@@ -2,6 +2,7 @@ import { Alignment, Button, Classes, Navbar, NavbarDivider, NavbarGroup, NavbarH
 import type { Me } from '@torquetrail/contracts';
 import type React from 'react';
 import { Link, NavLink, Outlet, useMatch } from 'react-router-dom';
+import { Can } from '../lib/ability';
 import { ROLE_LABEL } from '../lib/labels';
 
 interface AppShellProps {
@@ -61,15 +62,25 @@ export function AppShell({ me, onSignOut, signingOut, signOutError }: AppShellPr
               >
                 Catalogue
               </NavLink>
+              <Can I="read" a="User">
+                <NavLink
+                  to="/practice"
+                  className={({ isActive }) =>
+                    `${Classes.BUTTON} ${Classes.MINIMAL}${isActive ? ` ${Classes.ACTIVE}` : ''}`
+                  }
+                >
+                  Practice
+                </NavLink>
+              </Can>
             </nav>
           </NavbarGroup>
           <NavbarGroup align={Alignment.END}>
-            <span className="app-navbar__user">
+            <Link to="/account" className="app-navbar__user" title="Your account and password">
               <span className="app-navbar__name">{me.displayName}</span>
               <span className="app-navbar__meta">
                 {ROLE_LABEL[me.role]} · {me.practiceName}
               </span>
-            </span>
+            </Link>
             <NavbarDivider />
             {signOutError && (
               <Tag intent="danger" minimal role="alert" className="app-navbar__error">

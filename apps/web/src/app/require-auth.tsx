@@ -1,16 +1,19 @@
 import { defineAbilityFor } from '@torquetrail/authz';
-import { useMemo } from 'react';
+import { useCallback, useMemo, useState } from 'react';
 import { Navigate, useLocation } from 'react-router-dom';
 import { useMe, useSignOut } from '../features/auth';
 import { AppAbilityProvider } from '../lib/ability';
 import { ErrorState } from '../lib/components/error-state';
 import { LoadingState } from '../lib/components/loading-state';
-import { signInPath } from '../lib/return-path';
+import { keepDrafts, setDraftOwner } from '../lib/forms';
+import { idleSignInPath, signInPath } from '../lib/return-path';
 import { AppShell } from './app-shell';
+import { IdleSignOut } from './idle-sign-out';
 
 /**
  * The auth gate around every signed-in page: a spinner while `me` loads, the sign-in page
- * (remembering the wanted page) when nobody is signed in, else the shell with the user's ability.
+ * (remembering the wanted page) when nobody is signed in, else the shell with the user's ability
+ * and the idle sign-out.
  */
 export function RequireAuth() {
   const me = useMe();
@@ -18,7 +21,16 @@ export function RequireAuth() {
   // Owned here, not in the shell, so the gate knows a missing user means "signed out on purpose"
   // (plain /sign-in) rather than "session lost" (come back here after signing in).
   const signOut = useSignOut();
+  const [idleOut, setIdleOut] = useState(false);
   const ability = useMemo(() => (me.data ? defineAbilityFor(me.data) : null), [me.data]);
+  const { mutate: endSession } = signOut;
+  const { refetch } = me;
+  const onIdle = useCallback(() => {
+    setIdleOut(true);
+    keepDrafts();
+    endSession();
+  }, [endSession]);
+  const onStay = useCallback(() => void refetch(), [refetch]);
 
   if (me.isPending) return <LoadingState label="Checking your session" />;
   if (me.isError) {
@@ -29,9 +41,14 @@ export function RequireAuth() {
     );
   }
   if (!me.data || !ability) {
-    const target = signOut.isIdle ? signInPath(location.pathname + location.search) : '/sign-in';
-    return <Navigate to={target} replace />;
+    const here = location.pathname + location.search;
+    if (idleOut) return <Navigate to={idleSignInPath(here)} replace />;
+    // The session ended under the page (elsewhere, or its 12 hours): the forms' values are kept
+    // now, while they are still mounted, for after signing in again.
+    if (signOut.isIdle) keepDrafts();
+    return <Navigate to={signOut.isIdle ? signInPath(here) : '/sign-in'} replace />;
   }
+  setDraftOwner(me.data.id);
   return (
     <AppAbilityProvider ability={ability}>
       <AppShell
@@ -40,6 +57,7 @@ export function RequireAuth() {
         signingOut={signOut.isPending}
         signOutError={signOut.error}
       />
+      <IdleSignOut session={me.data.session} onIdle={onIdle} onStay={onStay} />
     </AppAbilityProvider>
   );
 }

@@ -17,6 +17,22 @@ export const router = createBrowserRouter([
     children: [
       { path: '/sign-in', element: <SignInRoute /> },
       {
+        path: '/welcome',
+        lazy: async () => ({ Component: (await import('../features/auth/routes/welcome-route')).WelcomeRoute }),
+      },
+      {
+        path: '/forgot-password',
+        lazy: async () => ({
+          Component: (await import('../features/auth/routes/forgot-password-route')).ForgotPasswordRoute,
+        }),
+      },
+      {
+        path: '/reset-password',
+        lazy: async () => ({
+          Component: (await import('../features/auth/routes/reset-password-route')).ResetPasswordRoute,
+        }),
+      },
+      {
         path: '/',
         element: <RequireAuth />,
         children: [
@@ -37,12 +53,6 @@ export const router = createBrowserRouter([
             path: 'patients/:patientId/edit',
             lazy: async () => ({
               Component: (await import('../features/patients/routes/edit-patient-route')).EditPatientRoute,
-            }),
-          },
-          {
-            path: 'practice/patient-settings',
-            lazy: async () => ({
-              Component: (await import('../features/patients/routes/patient-settings-route')).PatientSettingsRoute,
             }),
           },
           {
@@ -110,8 +120,35 @@ export const router = createBrowserRouter([
             }),
           },
           {
-            path: 'practice/audit',
-            lazy: async () => ({ Component: (await import('../features/audit/routes/audit-route')).AuditRoute }),
+            path: 'account',
+            lazy: async () => ({ Component: (await import('../features/auth/routes/account-route')).AccountRoute }),
+          },
+          {
+            path: 'practice',
+            lazy: async () => ({ Component: (await import('../features/people/routes/practice-route')).PracticeRoute }),
+            children: [
+              { index: true, element: <Navigate to="/practice/people" replace /> },
+              {
+                path: 'people',
+                lazy: async () => ({ Component: (await import('../features/people/routes/people-route')).PeopleRoute }),
+              },
+              {
+                path: 'sign-in',
+                lazy: async () => ({
+                  Component: (await import('../features/people/routes/sign-in-settings-route')).SignInSettingsRoute,
+                }),
+              },
+              {
+                path: 'patient-settings',
+                lazy: async () => ({
+                  Component: (await import('../features/patients/routes/patient-settings-route')).PatientSettingsRoute,
+                }),
+              },
+              {
+                path: 'audit',
+                lazy: async () => ({ Component: (await import('../features/audit/routes/audit-route')).AuditRoute }),
+              },
+            ],
           },
           { path: '*', element: <NotFoundRoute /> },
         ],

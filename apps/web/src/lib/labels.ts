@@ -8,6 +8,7 @@ import {
   DESK_DUE_SOON_DAYS,
   type DeskFilter,
   type DeskSort,
+  type InvitationStatus,
   type MaintenanceStatus,
   type PatientSex,
   type PatientVersionField,
@@ -90,6 +91,13 @@ export const DESK_SORT_LABEL: Record<DeskSort, string> = {
 export const REMINDER_KIND_LABEL: Record<ReminderKind, string> = {
   upcoming: 'Upcoming',
   overdue: 'Overdue',
+};
+
+export const INVITATION_STATUS_LABEL: Record<InvitationStatus, string> = {
+  pending: 'Waiting for the invitee',
+  expired: 'Link expired',
+  accepted: 'Accepted',
+  revoked: 'Withdrawn',
 };
 
 export const REMINDER_STATUS_LABEL: Record<ReminderStatus, string> = {

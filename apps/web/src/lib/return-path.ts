@@ -6,6 +6,12 @@ export function signInPath(wanted: string): string {
   return `/sign-in?from=${encodeURIComponent(wanted)}`;
 }
 
+/** The sign-in page after an idle sign-out: it says why, and goes back to the page after. */
+export function idleSignInPath(wanted: string): string {
+  const path = signInPath(wanted);
+  return `${path}${path.includes('?') ? '&' : '?'}reason=idle`;
+}
+
 /** Only same-app paths are followed after sign-in (no `//host` or absolute URLs). */
 export function safeReturnPath(raw: string | null): string {
   if (!raw || !raw.startsWith('/') || raw.startsWith('//') || raw.startsWith('/\\') || raw.startsWith('/sign-in')) {

@@ -9,3 +9,4 @@ export * from './recalls.js';
 export * from './radiographs.js';
 export * from './audit.js';
 export * from './seating.js';
+export * from './people.js';

@@ -1,9 +1,11 @@
-import { boolean, index, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { boolean, index, integer, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
 import { roleEnum } from './enums.js';
 
 export const practices = pgTable('practices', {
   id: uuid('id').primaryKey().defaultRandom(),
   name: text('name').notNull(),
+  /** Automatic sign-out after this many idle minutes (set by the practice administrator). */
+  idleSignOutMinutes: integer('idle_sign_out_minutes').notNull().default(15),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 });
 
@@ -20,8 +22,13 @@ export const users = pgTable(
     /** scrypt hash in the form scrypt$N$r$p$salt$hash (see auth/password.ts). */
     passwordHash: text('password_hash').notNull(),
     active: boolean('active').notNull().default(true),
-    /** Sessions (JWTs) issued before this instant are refused: set by sign-out. */
-    sessionsValidAfter: timestamp('sessions_valid_after', { withTimezone: true }),
+    /**
+     * Every session token carries the version it was issued under; sign-out, deactivation and a
+     * password reset or change add one, which ends every token issued before, even in the same
+     * second (a timestamp cut-off compared with a JWT's whole-second iat could not).
+     */
+    sessionVersion: integer('session_version').notNull().default(0),
+    deactivatedAt: timestamp('deactivated_at', { withTimezone: true }),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [index('users_practice_idx').on(t.practiceId)],

@@ -2,5 +2,6 @@
 // errors (client or server) shown beside their fields through Blueprint's FormGroup.
 export { NumberInput, withInputRef } from './blueprint-inputs';
 export { draftSchema, useContractForm } from './contract-form';
+export { keepDrafts, setDraftOwner } from './drafts';
 export { errorAt, FieldError, FormField, useFieldError } from './form-field';
 export { applyServerErrors, formErrorMessage } from './server-errors';

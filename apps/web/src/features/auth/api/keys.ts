@@ -4,6 +4,8 @@ export const authKeys = {
   me: ['auth', 'me'] as const,
   signIn: ['auth', 'sign-in'] as const,
   signOut: ['auth', 'sign-out'] as const,
+  invitation: (token: string) => ['auth', 'invitation', token] as const,
+  passwordReset: (token: string) => ['auth', 'password-reset', token] as const,
 };
 
 /** Whether a query key is the `me` query's (or below it). */

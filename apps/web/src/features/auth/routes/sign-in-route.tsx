@@ -1,6 +1,6 @@
 import '../components/sign-in.css';
-import { Card } from '@blueprintjs/core';
-import { Navigate, useSearchParams } from 'react-router-dom';
+import { Callout, Card } from '@blueprintjs/core';
+import { Link, Navigate, useSearchParams } from 'react-router-dom';
 import { LoadingState } from '../../../lib/components/loading-state';
 import { safeReturnPath } from '../../../lib/return-path';
 import { useMe } from '../api/get-me';
@@ -23,7 +23,16 @@ export function SignInRoute() {
         <p className="sign-in-page__tagline">
           Every implant's parts, torque and recalls in one ledger, for as long as the implant lasts.
         </p>
+        {params.get('reason') === 'idle' && (
+          <Callout intent="primary" icon="time" role="status" className="sign-in-page__notice">
+            You were signed out because Torquetrail was not used for a while. Sign in to go on where you left off; what
+            you were typing is kept.
+          </Callout>
+        )}
         <SignInForm />
+        <p className="sign-in-page__links">
+          <Link to="/forgot-password">Forgotten your password?</Link>
+        </p>
       </Card>
     </main>
   );

@@ -1,0 +1,15 @@
+import { Module } from '@nestjs/common';
+import { AuthModule } from '../auth/auth.module.js';
+import { AccountMailService } from './account-mail.service.js';
+import { AccountController } from './account.controller.js';
+import { AccountService } from './account.service.js';
+import { PeopleController } from './people.controller.js';
+import { PeopleService } from './people.service.js';
+
+/** People and sign-in: users, invitations, password resets and the practice's session settings. */
+@Module({
+  imports: [AuthModule],
+  controllers: [PeopleController, AccountController],
+  providers: [PeopleService, AccountService, AccountMailService],
+})
+export class PeopleModule {}

@@ -1,0 +1,168 @@
+import { and, asc, desc, eq, isNull, sql } from 'drizzle-orm';
+import type { Role } from '@torquetrail/authz';
+import { alias } from 'drizzle-orm/pg-core';
+import type { Db } from '../db/database.js';
+import { invitations, practices, users } from '../db/schema/index.js';
+
+const personColumns = {
+  id: users.id,
+  practiceId: users.practiceId,
+  email: users.email,
+  displayName: users.displayName,
+  role: users.role,
+  active: users.active,
+  createdAt: users.createdAt,
+};
+
+export const listPeople = (db: Db, practiceId: string) =>
+  db.select(personColumns).from(users).where(eq(users.practiceId, practiceId)).orderBy(asc(users.displayName));
+
+export async function findPerson(db: Db, id: string) {
+  const [row] = await db.select(personColumns).from(users).where(eq(users.id, id));
+  return row ?? null;
+}
+
+export async function findUserIdByEmail(db: Db, email: string): Promise<string | null> {
+  const [row] = await db.select({ id: users.id }).from(users).where(eq(users.email, email));
+  return row?.id ?? null;
+}
+
+/** Locks the practice's active administrators (the last one may not be demoted or deactivated). */
+export async function lockActiveAdmins(db: Db, practiceId: string): Promise<string[]> {
+  const rows = await db
+    .select({ id: users.id })
+    .from(users)
+    .where(and(eq(users.practiceId, practiceId), eq(users.role, 'practice_admin'), eq(users.active, true)))
+    .for('update');
+  return rows.map((r) => r.id);
+}
+
+export async function setRole(db: Db, id: string, role: Role): Promise<void> {
+  await db.update(users).set({ role }).where(eq(users.id, id));
+}
+
+/** Deactivates a user and ends every session of theirs at once (the version goes up). */
+export async function deactivateUser(db: Db, id: string): Promise<void> {
+  await db
+    .update(users)
+    .set({ active: false, deactivatedAt: new Date(), sessionVersion: sql`${users.sessionVersion} + 1` })
+    .where(eq(users.id, id));
+}
+
+// ---- invitations ---------------------------------------------------------------------------
+const inviter = alias(users, 'inviter');
+const invitationColumns = {
+  id: invitations.id,
+  practiceId: invitations.practiceId,
+  email: invitations.email,
+  role: invitations.role,
+  invitedByName: inviter.displayName,
+  createdAt: invitations.createdAt,
+  expiresAt: invitations.expiresAt,
+  mailStatus: invitations.mailStatus,
+  mailSentAt: invitations.mailSentAt,
+  mailRound: invitations.mailRound,
+  acceptedAt: invitations.acceptedAt,
+  revokedAt: invitations.revokedAt,
+};
+
+export const listInvitations = (db: Db, practiceId: string) =>
+  db
+    .select(invitationColumns)
+    .from(invitations)
+    .innerJoin(inviter, eq(inviter.id, invitations.invitedBy))
+    .where(eq(invitations.practiceId, practiceId))
+    .orderBy(desc(invitations.createdAt));
+
+export async function findInvitation(db: Db, id: string) {
+  const [row] = await db
+    .select(invitationColumns)
+    .from(invitations)
+    .innerJoin(inviter, eq(inviter.id, invitations.invitedBy))
+    .where(eq(invitations.id, id));
+  return row ?? null;
+}
+
+export async function insertInvitation(
+  db: Db,
+  v: { practiceId: string; email: string; role: Role; invitedBy: string; linkOrigin: string },
+): Promise<string> {
+  const [row] = await db.insert(invitations).values(v).returning({ id: invitations.id });
+  return row.id;
+}
+
+/** A new mail round: the link mailed before stops working at once. Returns the round. */
+export async function restartInvitationMail(db: Db, id: string, linkOrigin: string): Promise<number> {
+  const [row] = await db
+    .update(invitations)
+    .set({
+      mailRound: sql`${invitations.mailRound} + 1`,
+      tokenHash: null,
+      expiresAt: null,
+      mailStatus: 'pending',
+      mailAttempts: 0,
+      mailError: null,
+      mailSentAt: null,
+      linkOrigin,
+    })
+    .where(eq(invitations.id, id))
+    .returning({ round: invitations.mailRound });
+  return row.round;
+}
+
+export async function revokeInvitation(db: Db, id: string, by: string): Promise<void> {
+  await db
+    .update(invitations)
+    .set({ revokedAt: new Date(), revokedBy: by })
+    .where(and(eq(invitations.id, id), isNull(invitations.revokedAt), isNull(invitations.acceptedAt)));
+}
+
+/** The invitation a link's token opens, with the practice's name; locked when accepting. */
+export async function findInvitationByToken(db: Db, tokenHash: string, lock = false) {
+  const query = db
+    .select({
+      id: invitations.id,
+      practiceId: invitations.practiceId,
+      practiceName: practices.name,
+      email: invitations.email,
+      role: invitations.role,
+      expiresAt: invitations.expiresAt,
+      acceptedAt: invitations.acceptedAt,
+      revokedAt: invitations.revokedAt,
+    })
+    .from(invitations)
+    .innerJoin(practices, eq(practices.id, invitations.practiceId))
+    .where(eq(invitations.tokenHash, tokenHash));
+  const [row] = lock ? await query.for('update', { of: invitations }) : await query;
+  return row ?? null;
+}
+
+/** The invitee's account, made from the invitation; the invitation is used up. */
+export async function acceptInvitation(
+  db: Db,
+  invitation: { id: string; practiceId: string; email: string; role: Role },
+  v: { displayName: string; passwordHash: string },
+): Promise<string> {
+  const [user] = await db
+    .insert(users)
+    .values({ practiceId: invitation.practiceId, email: invitation.email, role: invitation.role, ...v })
+    .returning({ id: users.id });
+  await db
+    .update(invitations)
+    .set({ acceptedAt: new Date(), acceptedUserId: user.id })
+    .where(eq(invitations.id, invitation.id));
+  return user.id;
+}
+
+// ---- practice settings ---------------------------------------------------------------------
+export async function findIdleMinutes(db: Db, practiceId: string): Promise<number> {
+  const [row] = await db
+    .select({ minutes: practices.idleSignOutMinutes })
+    .from(practices)
+    .where(eq(practices.id, practiceId));
+  return row.minutes;
+}
+
+export async function setIdleMinutes(db: Db, practiceId: string, minutes: number): Promise<void> {
+  await db.update(practices).set({ idleSignOutMinutes: minutes }).where(eq(practices.id, practiceId));
+}
