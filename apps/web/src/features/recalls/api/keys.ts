@@ -1,6 +1,8 @@
 import type { RecallDeskQuery } from '@torquetrail/contracts';
 
-export type DeskParams = Partial<Pick<RecallDeskQuery, 'filter' | 'sort' | 'dir' | 'search' | 'page' | 'pageSize'>>;
+export type DeskParams = Partial<
+  Pick<RecallDeskQuery, 'filter' | 'sort' | 'dir' | 'search' | 'archived' | 'page' | 'pageSize'>
+>;
 
 // Query keys of the recalls feature.
 export const recallKeys = {

@@ -7,6 +7,7 @@ import {
   HTMLTable,
   InputGroup,
   NonIdealState,
+  Switch,
   Tag,
 } from '@blueprintjs/core';
 import { DESK_FILTERS, type RecallDeskQuery, type RecallDeskRow } from '@torquetrail/contracts';
@@ -38,6 +39,8 @@ export function RecallDeskRoute() {
     sort: (url.get('sort') as Sort | null) ?? 'dueOn',
     dir: url.get('dir') === 'desc' ? 'desc' : 'asc',
     search: url.get('search') ?? undefined,
+    // Archived patients leave the desk (their reminders stop); "Show archived" brings them back in view.
+    archived: url.get('archived') === 'all' ? 'all' : undefined,
     page: Math.max(1, Number(url.get('page') ?? 1) || 1),
     pageSize: PAGE_SIZE,
   };
@@ -95,6 +98,13 @@ export function RecallDeskRoute() {
             onBlur={(e) => set({ search: e.currentTarget.value.trim() })}
           />
         </FormGroup>
+        <Switch
+          label="Show archived"
+          checked={params.archived === 'all'}
+          onChange={() => set({ archived: params.archived === 'all' ? undefined : 'all' })}
+          data-testid="desk-show-archived"
+          className="recall-desk__archived"
+        />
         <AnchorButton
           icon="download"
           href={`/api/recalls/desk/csv${deskSearch(params, false)}`}

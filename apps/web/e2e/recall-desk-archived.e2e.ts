@@ -1,0 +1,41 @@
+// An archived patient leaves the Recall desk (their reminders stop, issue 11) and comes back in
+// view with "Show archived", as on the Patients page.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { signInAs, startHarness, type Harness } from './support/harness.js';
+
+let h: Harness;
+beforeAll(async () => {
+  h = await startHarness();
+});
+afterAll(async () => {
+  await h.reset(); // the archive below is this file's own: later files start from the seed
+  await h.close();
+});
+
+describe('restorative dentist', () => {
+  it('archives a patient: gone from the Recall desk, shown again with "Show archived"', async () => {
+    await h.reset();
+    const page = await h.newPage();
+    await signInAs(page, 'ines.calloway@larkspur.example');
+    await page.goto('/recalls');
+    const table = page.getByTestId('recall-desk-table');
+    const farrow = table.locator('tbody tr', { hasText: 'Imogen Farrow' });
+    await expect.poll(() => farrow.count()).toBe(1);
+    const before = await table.locator('tbody tr').count();
+
+    const list = (await (await page.request.get('/api/patients?search=Farrow')).json()) as { items: { id: string }[] };
+    const archived = await page.request.post(`/api/patients/${list.items[0].id}/archive`, {
+      data: { reason: 'Moved abroad; records kept' },
+    });
+    expect(archived.status()).toBe(200);
+
+    await page.reload();
+    await expect.poll(() => table.locator('tbody tr').count()).toBe(before - 1);
+    expect(await farrow.count()).toBe(0);
+
+    await page.getByTestId('desk-show-archived').check({ force: true }); // Blueprint draws its own indicator over the input
+    await expect.poll(() => farrow.count()).toBe(1);
+    expect(new URL(page.url()).searchParams.get('archived')).toBe('all');
+    await expect.poll(() => table.locator('tbody tr').count()).toBe(before);
+  });
+});
