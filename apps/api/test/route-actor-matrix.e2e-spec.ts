@@ -12,7 +12,7 @@ import { invitations, users } from '../src/db/schema/index.js';
 import { AUDIT_EXPECTATIONS, auditChecks, expectAuditRows, nextXid } from './support/audit-expectations.js';
 import { actorCookies, all, type Expected } from './support/role-matrix.js';
 import { ACCOUNTS, patientId, startTestApp } from './support/test-app.js';
-import { jpeg } from './support/radiograph-fixtures.js';
+import { jpeg, waitForPreview } from './support/radiograph-fixtures.js';
 import { scenarioTargets } from './support/scenario-targets.js';
 import { servedRoutes } from './support/served-routes.js';
 
@@ -92,6 +92,8 @@ const {
   measurementPoints,
 } = await scenarioTargets(ctx, cookies);
 const radiograph = await fresh.radiograph();
+// Previews are made by the job queue after the upload: the preview and thumbnail rows read them.
+await waitForPreview(ctx.http, cookies.dentist, radiograph);
 /** A new patient of Larkspur Lane for each call that changes one (archived when asked). */
 async function freshPatient(archived = false): Promise<string> {
   const res = await ctx.http
@@ -664,8 +666,10 @@ describe('route × actor matrix', () => {
         cases += 1;
         expect(res.status, JSON.stringify(res.body)).toBe(row.expect[actor]);
         // The audit trail (issue 11): exactly the row this call must leave, found by its request id.
+        // Sign-in names its user by the e-mail it sends; any other body's e-mail is someone else's
+        // (an invitee), and the session says who acts.
         const who =
-          body && 'email' in body
+          row.route === 'POST /api/auth/sign-in' && body && 'email' in body
             ? String(body.email)
             : actor === 'anonymous'
               ? null
