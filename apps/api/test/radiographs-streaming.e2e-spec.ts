@@ -210,6 +210,13 @@ describe('the size limit under streaming', () => {
 
   it('a chunked body crossing the limit → 413 mid-stream: no row, no object, the multipart upload aborted', async () => {
     const patient = await patientId(ctx.db, 'LL-1002');
+    // The demo seed gives the patient radiographs of their own: nothing may be added to them.
+    const listed = async () =>
+      (
+        await ctx.http.get(`/api/patients/${patient}/radiographs?includeEnteredInError=true`).set('Cookie', dentist)
+      ).body.items.map((r: { id: string }) => r.id);
+    const rowsBefore = await listed();
+    const objectsBefore = await objectsOf(patient);
     // 1900 × 1900 × 2 bytes ≈ 7.2 MB: the first 5 MB part reaches S3 before the limit (6 MB) is crossed
     const file = dicomFile({ rows: 1900, columns: 1900, bits: 16, photometric: 'MONOCHROME2', pixel: (r, c) => r ^ c });
     expect(file.length).toBeGreaterThan(MAX_BYTES);
@@ -224,11 +231,8 @@ describe('the size limit under streaming', () => {
     expect(res.status).toBe(413);
     expect(res.body.message).toBe('The file is larger than the limit of 6 MB');
 
-    const list = await ctx.http
-      .get(`/api/patients/${patient}/radiographs?includeEnteredInError=true`)
-      .set('Cookie', dentist);
-    expect(list.body.items).toEqual([]);
-    expect(await objectsOf(patient)).toEqual([]);
+    expect(await listed()).toEqual(rowsBefore);
+    expect(await objectsOf(patient)).toEqual(objectsBefore);
     const calls = s3Calls(patient).map((c) => `${c.method} ${c.url.replace(/^[^?]*/, '')}`);
     const uploadId = /uploadId=([^&]+)/.exec(calls.find((c) => c.startsWith('PUT ')) ?? '')?.[1];
     expect(uploadId, calls.join('\n')).toBeTruthy();
@@ -239,6 +243,7 @@ describe('the size limit under streaming', () => {
 
   it('a declared Content-Length over the limit → 413 before a byte of the body is sent, S3 untouched', async () => {
     const patient = await patientId(ctx.db, 'LL-1004');
+    const objectsBefore = await objectsOf(patient);
     const req = rawUpload(patient, { 'Content-Length': MAX_BYTES + 1 });
     const reply = replyOf(req);
     req.flushHeaders();
@@ -251,6 +256,6 @@ describe('the size limit under streaming', () => {
       req.destroy();
     }
     expect(s3Calls(patient)).toEqual([]);
-    expect(await objectsOf(patient)).toEqual([]);
+    expect(await objectsOf(patient)).toEqual(objectsBefore);
   });
 });

@@ -107,7 +107,13 @@ describe('confirming seating on a radiograph', () => {
       reason: 'Read again at higher zoom: the distal margin is not clear',
     });
     expect(second.status, JSON.stringify(second.body)).toBe(201);
-    expect(second.body).toMatchObject({ supersedesId: first.body.id, seated: 'unsure', current: true, note: null });
+    // The note the amendment leaves out is kept (amendments keep what they leave out).
+    expect(second.body).toMatchObject({
+      supersedesId: first.body.id,
+      seated: 'unsure',
+      current: true,
+      note: first.body.note,
+    });
     expect((await stackOf(h35)).seating).toMatchObject({ checkId: second.body.id, seated: 'unsure' });
     const stale = await amend('dentist', first.body.id, { radiographId: xray, seated: 'no', reason: 'Once more' });
     expect(stale.status).toBe(409);
