@@ -3,7 +3,7 @@
 // number texts (1e999 …) and wrong shapes injected into one field, plus broken JSON. Each
 // endpoint gets a few hundred cases within a time budget. No reply may be a 5xx, and a refused
 // request may leave no row behind: the row count of every table is compared before and after.
-import { apiRoutes } from '@torquetrail/contracts';
+import { apiRoutes, plainWordingProblems } from '@torquetrail/contracts';
 import { sql } from 'drizzle-orm';
 import fc from 'fast-check';
 import { afterAll, describe, expect, it } from 'vitest';
@@ -255,6 +255,13 @@ describe('fuzzing every write endpoint', () => {
           expect(res.status, `${raw.slice(0, 300)} → ${JSON.stringify(res.body)}`).toBeLessThan(500);
           const after = await rowCounts();
           // Only a refusal must leave the counts as they were; an accepted write moves the baseline.
+          // Every sentence of a refusal is plain words (paths and library wording once reached users).
+          const sentences =
+            res.status >= 400 ? [String(res.body.message), ...Object.values<string>(res.body.fields ?? {})] : [];
+          expect(
+            sentences.filter((m) => plainWordingProblems(m).length > 0),
+            raw.slice(0, 300),
+          ).toEqual([]);
           const expected = res.status >= 400 ? before : after;
           expect(after, `rows left behind by ${raw.slice(0, 300)} → ${res.status}`).toEqual(expected);
           // Exactly one audit row with the request's outcome: a refusal is recorded, never lost. A

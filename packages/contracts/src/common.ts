@@ -1,4 +1,9 @@
 import { z } from 'zod';
+import { plainMessage } from './plain-messages.js';
+
+// Installed here, in a module every contract imports, so no entry point can forget it (a
+// side-effect-only module could be dropped by the bundler: the package declares no side effects).
+z.config({ customError: plainMessage });
 
 /** Every id in the API is a UUID. */
 export const Id = z.uuid();

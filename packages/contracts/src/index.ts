@@ -3,6 +3,8 @@
  * with their inferred TypeScript types under the same names.
  */
 export * from './common.js';
+export { plainWordingProblems } from './plain-messages.js';
+export { badInputs, fieldNames, requestSchemas } from './contract-walk.js';
 export * from './enums.js';
 export * from './auth.js';
 export * from './health.js';

@@ -150,14 +150,14 @@ export function meetsAlbrektsson(
   if (y1Window >= 182) {
     throw new ValidationError(
       'out-of-range',
-      'options.yearOneWindowDays must be below 182 days',
+      'The first-year window must be shorter than 182 days',
       'options.yearOneWindowDays',
     );
   }
 
   const points: Point[] = list.map((r, i) => {
     if (r === null || typeof r !== 'object')
-      throw new ValidationError('bad-value', `series[${i}] must be an object`, `series[${i}]`);
+      throw new ValidationError('bad-value', 'A bone-level measurement is missing', `series[${i}]`);
     parseIsoDate(r.date, `series[${i}].date`);
     return {
       date: r.date,
@@ -261,26 +261,21 @@ export interface IcoiInput {
  */
 export function icoiGrade(input: IcoiInput): IcoiGrade {
   if (input === null || typeof input !== 'object')
-    throw new ValidationError('bad-value', 'input must be an object', 'input');
+    throw new ValidationError('bad-value', 'The grading details are missing', 'input');
   const loss = requireFinite(input.boneLossMm, 'boneLossMm');
   const length = requireFinite(input.implantLengthMm, 'implantLengthMm');
   if (length <= 0)
-    throw new ValidationError(
-      'out-of-range',
-      `implantLengthMm must be greater than 0 (got ${length})`,
-      'implantLengthMm',
-    );
-  if (typeof input.mobility !== 'boolean')
-    throw new ValidationError('bad-value', 'mobility must be true or false', 'mobility');
+    throw new ValidationError('out-of-range', 'Enter an implant length greater than 0', 'implantLengthMm');
+  if (typeof input.mobility !== 'boolean') throw new ValidationError('bad-value', 'Choose yes or no', 'mobility');
   if (typeof input.painOnFunction !== 'boolean')
-    throw new ValidationError('bad-value', 'painOnFunction must be true or false', 'painOnFunction');
+    throw new ValidationError('bad-value', 'Choose yes or no', 'painOnFunction');
   const exudate = requireOneOf(input.exudate, ['none', 'history', 'uncontrolled'] as const, 'exudate');
   const pd =
     input.maxProbingDepthMm === undefined
       ? undefined
       : requireNonNegative(input.maxProbingDepthMm, 'maxProbingDepthMm');
   if (input.inMouth !== undefined && typeof input.inMouth !== 'boolean')
-    throw new ValidationError('bad-value', 'inMouth must be true or false', 'inMouth');
+    throw new ValidationError('bad-value', 'Choose yes or no', 'inMouth');
 
   const EPS = 1e-9;
   if (

@@ -38,11 +38,7 @@ export function isValidIsoDate(value: unknown): boolean {
 /** Parses a strict `YYYY-MM-DD` date; throws {@link ValidationError} `bad-date` otherwise. */
 export function parseIsoDate(value: unknown, field = 'date'): CalendarDate {
   if (!isValidIsoDate(value)) {
-    throw new ValidationError(
-      'bad-date',
-      `${field} must be a real date written YYYY-MM-DD (got ${JSON.stringify(value)})`,
-      field,
-    );
+    throw new ValidationError('bad-date', 'Enter a real date as YYYY-MM-DD', field);
   }
   const [y, m, d] = (value as string).split('-').map(Number);
   return { year: y, month: m, day: d };
@@ -60,13 +56,13 @@ export function formatIsoDate(date: CalendarDate): string {
 export function addCalendarMonths(date: string, months: number, field = 'date'): string {
   const d = parseIsoDate(date, field);
   if (!Number.isInteger(months)) {
-    throw new ValidationError('not-a-number', `months must be a whole number (got ${String(months)})`, 'months');
+    throw new ValidationError('not-a-number', 'Enter a whole number of months', 'months');
   }
   const index = d.year * 12 + (d.month - 1) + months;
   const year = Math.floor(index / 12);
   const month = index - year * 12 + 1;
   if (year < 1 || year > 9999) {
-    throw new ValidationError('out-of-range', `resulting year ${year} is outside 0001–9999`, 'months');
+    throw new ValidationError('out-of-range', 'The resulting date is outside the years 0001–9999', 'months');
   }
   return formatIsoDate({ year, month, day: Math.min(d.day, daysInMonth(year, month)) });
 }
@@ -103,11 +99,11 @@ export function fromDayNumber(days: number): CalendarDate {
 export function addCalendarDays(date: string, days: number, field = 'date'): string {
   const d = parseIsoDate(date, field);
   if (!Number.isInteger(days)) {
-    throw new ValidationError('not-a-number', `days must be a whole number (got ${String(days)})`, 'days');
+    throw new ValidationError('not-a-number', 'Enter a whole number of days', 'days');
   }
   const result = fromDayNumber(dayNumber(d) + days);
   if (result.year < 1 || result.year > 9999) {
-    throw new ValidationError('out-of-range', `resulting year ${result.year} is outside 0001–9999`, 'days');
+    throw new ValidationError('out-of-range', 'The resulting date is outside the years 0001–9999', 'days');
   }
   return formatIsoDate(result);
 }

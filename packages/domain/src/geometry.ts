@@ -16,10 +16,10 @@ export const DIVERGENCE_LIMIT_DEG = 15;
 
 function checkVector(v: unknown, field: string): Vec3 {
   const arr = requireArray(v, field);
-  if (arr.length !== 3) throw new ValidationError('bad-value', `${field} must have exactly 3 components`, field);
+  if (arr.length !== 3) throw new ValidationError('bad-value', 'Enter all three components of the axis', field);
   const out = arr.map((c, i) => requireFinite(c, `${field}[${i}]`)) as Vec3;
   if (out[0] === 0 && out[1] === 0 && out[2] === 0) {
-    throw new ValidationError('zero-vector', `${field} is a zero vector and has no direction`, field);
+    throw new ValidationError('zero-vector', 'An axis of 0, 0, 0 has no direction; enter the implant axis', field);
   }
   return out;
 }

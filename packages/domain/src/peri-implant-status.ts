@@ -107,15 +107,13 @@ export const NO_BASELINE_BONE_LEVEL_MM = 3;
 const RANK: Record<PeriImplantStatus, number> = { health: 0, mucositis: 1, 'peri-implantitis': 2 };
 
 function validateExam(exam: PeriImplantExam): void {
-  if (exam === null || typeof exam !== 'object')
-    throw new ValidationError('bad-value', 'exam must be an object', 'exam');
+  if (exam === null || typeof exam !== 'object') throw new ValidationError('bad-value', 'The exam is missing', 'exam');
   const sites = requireArray(exam.sites, 'exam.sites');
-  if (sites.length === 0)
-    throw new ValidationError('empty', 'exam.sites must list at least one probing site', 'exam.sites');
+  if (sites.length === 0) throw new ValidationError('empty', 'Record at least one probing site', 'exam.sites');
   sites.forEach((s, i) => {
     const site = s as PeriImplantSite;
     if (site === null || typeof site !== 'object')
-      throw new ValidationError('bad-value', `exam.sites[${i}] must be an object`, `exam.sites[${i}]`);
+      throw new ValidationError('bad-value', 'A probing site is missing', `exam.sites[${i}]`);
     requireNonNegative(site.probingDepthMm, `exam.sites[${i}].probingDepthMm`);
     requireBoolean(site.bleeding, `exam.sites[${i}].bleeding`);
     requireBoolean(site.suppuration, `exam.sites[${i}].suppuration`);
@@ -125,20 +123,20 @@ function validateExam(exam: PeriImplantExam): void {
 
 function validateBaseline(baseline: PeriImplantBaseline, siteCount: number): void {
   if (baseline === null || typeof baseline !== 'object')
-    throw new ValidationError('bad-value', 'baseline must be an object', 'baseline');
+    throw new ValidationError('bad-value', 'The baseline exam is missing', 'baseline');
   const sites = requireArray(baseline.sites, 'baseline.sites');
   if (sites.length === 0)
-    throw new ValidationError('empty', 'baseline.sites must list at least one probing site', 'baseline.sites');
+    throw new ValidationError('empty', 'The baseline exam has no probing sites', 'baseline.sites');
   if (sites.length !== siteCount) {
     throw new ValidationError(
       'site-mismatch',
-      `baseline has ${sites.length} probing sites but the exam has ${siteCount}; sites are compared one to one`,
+      `The baseline exam has ${sites.length} probing sites and this exam ${siteCount}; they are compared site by site`,
       'baseline.sites',
     );
   }
   sites.forEach((s, i) => {
     if (s === null || typeof s !== 'object')
-      throw new ValidationError('bad-value', `baseline.sites[${i}] must be an object`, `baseline.sites[${i}]`);
+      throw new ValidationError('bad-value', 'A probing site of the baseline exam is missing', `baseline.sites[${i}]`);
     requireNonNegative((s as { probingDepthMm: unknown }).probingDepthMm, `baseline.sites[${i}].probingDepthMm`);
   });
   requireNonNegative(baseline.boneLevelMm, 'baseline.boneLevelMm');

@@ -34,7 +34,7 @@ export interface KnownLengthCalibration {
 
 function checkPoint(p: PixelPoint, field: string): void {
   if (p === null || typeof p !== 'object')
-    throw new ValidationError('bad-value', `${field} must be a {row, col} point`, field);
+    throw new ValidationError('bad-value', 'Mark this point on the image', field);
   requireFinite(p.row, `${field}.row`);
   requireFinite(p.col, `${field}.col`);
 }
@@ -48,7 +48,7 @@ export function pixelDistanceMm(p: PixelPoint, q: PixelPoint, pixelSpacing: Pixe
   checkPoint(p, 'p');
   checkPoint(q, 'q');
   if (!Array.isArray(pixelSpacing) || pixelSpacing.length !== 2) {
-    throw new ValidationError('bad-value', 'pixelSpacing must be [rowMm, colMm]', 'pixelSpacing');
+    throw new ValidationError('bad-value', 'The pixel spacing needs a row and a column value in mm', 'pixelSpacing');
   }
   const rowMm = requirePositive(pixelSpacing[0], 'pixelSpacing[0]');
   const colMm = requirePositive(pixelSpacing[1], 'pixelSpacing[1]');
@@ -136,7 +136,8 @@ export function projectOnImplantAxis(point: PixelPoint, platform: PixelPoint, ap
   const ar = apex.row - platform.row;
   const ac = apex.col - platform.col;
   const len = Math.hypot(ar, ac);
-  if (len === 0) throw new ValidationError('zero-vector', 'platform and apex must be different points', 'apex');
+  if (len === 0)
+    throw new ValidationError('zero-vector', 'Mark the apex at a different point from the platform', 'apex');
   const pr = point.row - platform.row;
   const pc = point.col - platform.col;
   return { along: (pr * ar + pc * ac) / len, across: Math.abs(pr * ac - pc * ar) / len };
@@ -148,7 +149,7 @@ function scaled(p: PixelPoint, [rowMm, colMm]: PixelSpacing): PixelPoint {
 
 function checkSpacing(pixelSpacing: PixelSpacing): PixelSpacing {
   if (!Array.isArray(pixelSpacing) || pixelSpacing.length !== 2) {
-    throw new ValidationError('bad-value', 'pixelSpacing must be [rowMm, colMm]', 'pixelSpacing');
+    throw new ValidationError('bad-value', 'The pixel spacing needs a row and a column value in mm', 'pixelSpacing');
   }
   return [requirePositive(pixelSpacing[0], 'pixelSpacing[0]'), requirePositive(pixelSpacing[1], 'pixelSpacing[1]')];
 }
@@ -166,7 +167,7 @@ export function measureBoneLevels({
   pixelSpacing,
 }: BoneLevelMeasurementInput): BoneLevelMeasurement {
   if (marks === null || typeof marks !== 'object' || !Array.isArray(marks.platform) || marks.platform.length !== 2) {
-    throw new ValidationError('bad-value', 'marks.platform must be two points', 'marks.platform');
+    throw new ValidationError('bad-value', 'Mark the platform with two points', 'marks.platform');
   }
   const trueMm = requirePositive(implantTrueMm, 'implantTrueMm');
   const spacing = pixelSpacing == null ? null : checkSpacing(pixelSpacing);

@@ -45,11 +45,7 @@ function months(value: number | undefined, fallback: number, field: string): num
   if (value === undefined) return fallback;
   const { min, max } = RECALL_MONTHS_RANGE;
   if (typeof value !== 'number' || !Number.isInteger(value) || value < min || value > max) {
-    throw new ValidationError(
-      'out-of-range',
-      `${field} must be a whole number of months from ${min} to ${max} (got ${String(value)})`,
-      field,
-    );
+    throw new ValidationError('out-of-range', `Enter a whole number of months from ${min} to ${max}`, field);
   }
   return value;
 }
@@ -57,7 +53,7 @@ function months(value: number | undefined, fallback: number, field: string): num
 /** True when any risk factor is present. */
 export function hasRecallRisk(risk: RecallRisk): boolean {
   if (risk === null || typeof risk !== 'object')
-    throw new ValidationError('bad-value', 'risk must be an object', 'risk');
+    throw new ValidationError('bad-value', 'The risk factors are missing', 'risk');
   // Every factor is validated, not only up to the first true one.
   const flags = RECALL_RISK_FACTORS.map((factor) => optionalBoolean(risk[factor], `risk.${factor}`));
   return flags.some(Boolean);
@@ -74,7 +70,7 @@ export function recallIntervalMonths(risk: RecallRisk, policy?: RecallPolicy): n
   if (riskM > base) {
     throw new ValidationError(
       'out-of-range',
-      `policy.riskMonths (${riskM}) must not exceed policy.baseMonths (${base})`,
+      `The interval with risk factors (${riskM} months) cannot be longer than the usual interval (${base} months)`,
       'policy.riskMonths',
     );
   }

@@ -162,14 +162,13 @@ export function restorativeDesignForPlan(plan: Pick<RestorationPlan, 'kind' | 'r
 }
 
 function validateShape(plan: RestorationPlan): void {
-  if (plan === null || typeof plan !== 'object')
-    throw new ValidationError('bad-value', 'plan must be an object', 'plan');
+  if (plan === null || typeof plan !== 'object') throw new ValidationError('bad-value', 'The plan is missing', 'plan');
   requireOneOf(plan.kind, RESTORATION_KINDS, 'plan.kind');
   requireOneOf(plan.retention, RETENTIONS, 'plan.retention');
   optionalBoolean(plan.copingsSplinted, 'plan.copingsSplinted');
   requireArray(plan.sites, 'plan.sites').forEach((s, i) => {
     const f = `plan.sites[${i}]`;
-    if (s === null || typeof s !== 'object') throw new ValidationError('bad-value', `${f} must be an object`, f);
+    if (s === null || typeof s !== 'object') throw new ValidationError('bad-value', 'A site of the plan is missing', f);
     const site = s as RestorationPlanSite;
     requireFinite(site.fdi, `${f}.fdi`);
     requireOneOf(site.interface, IMPLANT_INTERFACES, `${f}.interface`);

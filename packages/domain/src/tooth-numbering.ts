@@ -140,9 +140,5 @@ export function formatTooth(fdi: number, system: ToothNumberingSystem): string {
   requireFdi(fdi);
   if (system === 'fdi') return String(fdi);
   if (system === 'universal') return fdiToUniversal(fdi);
-  throw new ValidationError(
-    'bad-value',
-    `system must be 'fdi' or 'universal' (got ${JSON.stringify(system)})`,
-    'system',
-  );
+  throw new ValidationError('bad-value', 'Choose FDI or Universal numbering', 'system');
 }

@@ -77,8 +77,7 @@ export function torqueDeviationPct(appliedNcm: number, specNcm: number): number 
 
 function requireTolerance(tolerancePct: number): number {
   const tol = requireNonNegative(tolerancePct, 'tolerancePct');
-  if (tol >= 100)
-    throw new ValidationError('out-of-range', `tolerancePct must be below 100 (got ${tol})`, 'tolerancePct');
+  if (tol >= 100) throw new ValidationError('out-of-range', 'Enter a tolerance below 100 %', 'tolerancePct');
   return tol;
 }
 

@@ -7,7 +7,7 @@ export const EPS = 1e-9;
 /** Throws unless `value` is a finite number. */
 export function requireFinite(value: unknown, field: string): number {
   if (typeof value !== 'number' || !Number.isFinite(value)) {
-    throw new ValidationError('not-a-number', `${field} must be a finite number (got ${String(value)})`, field);
+    throw new ValidationError('not-a-number', 'Enter a number', field);
   }
   return value;
 }
@@ -15,21 +15,21 @@ export function requireFinite(value: unknown, field: string): number {
 /** Throws unless `value` is a finite number ≥ 0. */
 export function requireNonNegative(value: unknown, field: string): number {
   const n = requireFinite(value, field);
-  if (n < 0) throw new ValidationError('out-of-range', `${field} must not be negative (got ${n})`, field);
+  if (n < 0) throw new ValidationError('out-of-range', 'Enter 0 or more', field);
   return n;
 }
 
 /** Throws unless `value` is a finite number > 0. */
 export function requirePositive(value: unknown, field: string): number {
   const n = requireFinite(value, field);
-  if (n <= 0) throw new ValidationError('out-of-range', `${field} must be greater than 0 (got ${n})`, field);
+  if (n <= 0) throw new ValidationError('out-of-range', 'Enter a number greater than 0', field);
   return n;
 }
 
 /** Throws unless `value` is a boolean. */
 export function requireBoolean(value: unknown, field: string): boolean {
   if (typeof value !== 'boolean') {
-    throw new ValidationError('bad-value', `${field} must be true or false (got ${String(value)})`, field);
+    throw new ValidationError('bad-value', 'Choose yes or no', field);
   }
   return value;
 }
@@ -43,18 +43,14 @@ export function optionalBoolean(value: unknown, field: string): boolean {
 /** Throws unless `value` is one of `allowed`. */
 export function requireOneOf<T extends string | number>(value: unknown, allowed: readonly T[], field: string): T {
   if (!(allowed as readonly unknown[]).includes(value)) {
-    throw new ValidationError(
-      'bad-value',
-      `${field} must be one of ${allowed.map((a) => JSON.stringify(a)).join(', ')} (got ${JSON.stringify(value)})`,
-      field,
-    );
+    throw new ValidationError('bad-value', 'Choose one of the offered options', field);
   }
   return value as T;
 }
 
 /** Throws unless `value` is an array. */
 export function requireArray(value: unknown, field: string): unknown[] {
-  if (!Array.isArray(value)) throw new ValidationError('bad-value', `${field} must be a list`, field);
+  if (!Array.isArray(value)) throw new ValidationError('bad-value', 'Give a list', field);
   return value;
 }
 

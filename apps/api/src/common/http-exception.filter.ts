@@ -3,6 +3,7 @@ import type { Request, Response } from 'express';
 import { errorForLog } from '../logging/logger.js';
 import type { ErrorReply } from '@torquetrail/contracts';
 import { asAmendmentConflict } from './amendment-conflict.js';
+import { transportMessage } from './transport-errors.js';
 import { UNAVAILABLE_MESSAGES, unavailableDependency } from './unavailable.js';
 
 const STATUS_TEXT: Record<number, string> = {
@@ -42,7 +43,8 @@ export class HttpExceptionFilter implements ExceptionFilter {
       const body = exception.getResponse();
       const obj = typeof body === 'object' && body !== null ? (body as Record<string, unknown>) : {};
       const raw = typeof body === 'string' ? body : obj.message;
-      const message = Array.isArray(raw) ? raw.join('; ') : typeof raw === 'string' ? raw : exception.message;
+      const own = Array.isArray(raw) ? raw.join('; ') : typeof raw === 'string' ? raw : exception.message;
+      const message = transportMessage(exception) ?? own;
       reply = {
         statusCode: status,
         error: STATUS_TEXT[status] ?? 'Error',

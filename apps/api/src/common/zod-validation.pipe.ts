@@ -1,5 +1,6 @@
 import { BadRequestException, type PipeTransform } from '@nestjs/common';
 import type { z } from 'zod';
+import { entriesToCorrect } from './field-error.js';
 
 /** Field path → message, for the web to show beside each field. */
 function fieldErrors(error: z.ZodError): Record<string, string> {
@@ -19,10 +20,6 @@ export class ZodValidationPipe<S extends z.ZodType> implements PipeTransform<unk
     const result = this.schema.safeParse(value);
     if (result.success) return result.data;
     const fields = fieldErrors(result.error);
-    const first = Object.entries(fields)[0];
-    throw new BadRequestException({
-      message: first ? `${first[0]}: ${first[1]}` : 'The request is not valid',
-      fields,
-    });
+    throw new BadRequestException({ message: entriesToCorrect(Object.keys(fields).length), fields });
   }
 }

@@ -84,7 +84,7 @@ export class PatientRecordsService {
     const refused = Object.keys(body).filter((field) => !ability.can('update', asSubject, field));
     if (refused.length > 0) {
       throw new ForbiddenException({
-        message: `Your role may not change ${refused.join(', ')} (contact details only)`,
+        message: `Your role may change only the contact details: ${refused.length === 1 ? 'one field was' : `${refused.length} fields were`} not changed`,
         fields: Object.fromEntries(refused.map((f) => [f, 'Your role may not change this field'])),
       });
     }

@@ -14,7 +14,7 @@ describe('applyServerErrors', () => {
     const form = formOf({ deliveredOn: '', lots: ['', ''] });
     applyServerErrors(
       form.setError,
-      new ApiError(400, 'parts.1.lot: A lot number is required', {
+      new ApiError(400, '2 entries need correcting', {
         'parts.1.lot': 'A lot number is required',
         deliveredOn: 'Invalid date',
       }),
@@ -24,7 +24,10 @@ describe('applyServerErrors', () => {
     expect(errorAt(errors, 'deliveredOn')).toBe('Invalid date');
     expect(errorAt(errors, 'parts.0.lot')).toBeUndefined();
     // The message is kept for forms that show it beside the fields, hidden from those that do not.
-    expect(formErrorMessage(errors, 'always')).toBe('parts.1.lot: A lot number is required');
+    // named in words through the one field-label mapping, never by the machine path.
+    expect(formErrorMessage(errors, 'always')).toBe(
+      'Lot, part 2: A lot number is required. Delivery date: Invalid date.',
+    );
     expect(formErrorMessage(errors, 'alone')).toBeUndefined();
   });
 
