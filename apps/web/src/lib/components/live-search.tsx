@@ -1,8 +1,13 @@
 import { FormGroup, InputGroup } from '@blueprintjs/core';
 import { type FormEvent, useEffect, useRef, useState } from 'react';
-import { useDebouncedValue } from '../../../lib/use-debounced-value';
+import { useDebouncedValue } from '../use-debounced-value';
+import './live-search.css';
 
-interface PatientSearchProps {
+interface LiveSearchProps {
+  id: string;
+  label: string;
+  helperText?: string;
+  placeholder?: string;
   /** The search in the URL. */
   value: string;
   /** Called ~250 ms after typing stops, or at once on Enter. */
@@ -10,7 +15,11 @@ interface PatientSearchProps {
   busy: boolean;
 }
 
-export function PatientSearch({ value, onSearch, busy }: PatientSearchProps) {
+/**
+ * The one search box of the lists (Patients, Recall desk): it filters as the user types, and
+ * Enter searches at once. The search lives in the page's URL, so it survives reload and Back.
+ */
+export function LiveSearch({ id, label, helperText, placeholder, value, onSearch, busy }: LiveSearchProps) {
   const [text, setText] = useState(value);
   const debounced = useDebouncedValue(text, 250);
   const latest = useRef(onSearch);
@@ -33,17 +42,17 @@ export function PatientSearch({ value, onSearch, busy }: PatientSearchProps) {
   };
 
   return (
-    <form role="search" onSubmit={onSubmit} className="patient-search">
-      <FormGroup label="Search patients" labelFor="patient-search" helperText="Name or chart number">
+    <form role="search" onSubmit={onSubmit} className="live-search">
+      <FormGroup label={label} labelFor={id} helperText={helperText}>
         <InputGroup
-          id="patient-search"
-          data-testid="patient-search"
+          id={id}
+          data-testid={id}
           type="search"
           leftIcon="search"
-          placeholder="e.g. Novak or C-1042"
+          placeholder={placeholder}
           value={text}
           onValueChange={setText}
-          rightElement={busy ? <span className="patient-search__busy">Searching…</span> : undefined}
+          rightElement={busy ? <span className="live-search__busy">Searching…</span> : undefined}
           autoComplete="off"
         />
       </FormGroup>

@@ -4,9 +4,9 @@ import { useCallback } from 'react';
 import { Link, useLocation, useNavigation, useSearchParams } from 'react-router-dom';
 import { Can } from '../../../lib/ability';
 import { ErrorState } from '../../../lib/components/error-state';
+import { LiveSearch } from '../../../lib/components/live-search';
 import { LoadingState } from '../../../lib/components/loading-state';
 import { usePatientList } from '../api/list-patients';
-import { PatientSearch } from '../components/patient-search';
 import { PatientsTable } from '../components/patients-table';
 
 /** /patients?search=…: the search lives in the URL, so it survives reload and Back. */
@@ -54,7 +54,15 @@ export function PatientsRoute() {
       <title>Patients · Torquetrail</title>
       <h1 className="page-title">Patients</h1>
       <div className="patients-toolbar">
-        <PatientSearch value={search} onSearch={onSearch} busy={patients.isFetching && !patients.isPending} />
+        <LiveSearch
+          id="patient-search"
+          label="Search patients"
+          helperText="Name or chart number"
+          placeholder="e.g. Novak or C-1042"
+          value={search}
+          onSearch={onSearch}
+          busy={patients.isFetching && !patients.isPending}
+        />
         <Switch
           label="Show archived"
           checked={showArchived}

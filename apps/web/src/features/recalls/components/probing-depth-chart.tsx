@@ -43,7 +43,7 @@ export function ProbingDepthChart({ siteId }: { siteId: string }) {
                 <Tooltip formatter={(value, name) => [`${String(value)} mm`, name]} />
                 <Legend />
                 <Line
-                  type="monotone"
+                  type="linear"
                   dataKey="deepest"
                   name="Deepest site"
                   stroke="#0f5c5c"
@@ -51,7 +51,7 @@ export function ProbingDepthChart({ siteId }: { siteId: string }) {
                   dot={<StatusDot />}
                 />
                 <Line
-                  type="monotone"
+                  type="linear"
                   dataKey="mean"
                   name="Mean of six sites"
                   stroke="#8a9ba8"

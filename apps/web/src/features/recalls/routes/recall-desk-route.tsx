@@ -1,18 +1,9 @@
 import '../components/recalls.css';
-import {
-  AnchorButton,
-  Button,
-  FormGroup,
-  HTMLSelect,
-  HTMLTable,
-  InputGroup,
-  NonIdealState,
-  Switch,
-  Tag,
-} from '@blueprintjs/core';
+import { AnchorButton, Button, FormGroup, HTMLSelect, HTMLTable, NonIdealState, Switch, Tag } from '@blueprintjs/core';
 import { DESK_FILTERS, type RecallDeskQuery, type RecallDeskRow } from '@torquetrail/contracts';
 import { RECALL_RISK_FACTORS } from '@torquetrail/domain';
 import { Link, useSearchParams } from 'react-router-dom';
+import { LiveSearch } from '../../../lib/components/live-search';
 import { Can } from '../../../lib/ability';
 import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
@@ -88,16 +79,14 @@ export function RecallDeskRoute() {
             ))}
           </HTMLSelect>
         </FormGroup>
-        <FormGroup label="Search" labelFor="desk-search">
-          <InputGroup
-            id="desk-search"
-            leftIcon="search"
-            placeholder="Name or chart number"
-            defaultValue={params.search ?? ''}
-            onKeyDown={(e) => e.key === 'Enter' && set({ search: e.currentTarget.value.trim() })}
-            onBlur={(e) => set({ search: e.currentTarget.value.trim() })}
-          />
-        </FormGroup>
+        <LiveSearch
+          id="desk-search"
+          label="Search"
+          placeholder="Name or chart number"
+          value={params.search ?? ''}
+          onSearch={(search) => search !== (params.search ?? '') && set({ search })}
+          busy={desk.isFetching && !desk.isPending}
+        />
         <Switch
           label="Show archived"
           checked={params.archived === 'all'}

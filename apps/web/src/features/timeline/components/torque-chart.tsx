@@ -72,7 +72,7 @@ export function TorqueChart({ series }: { series: TorqueSeries }) {
                   : [`${String(v)} N·cm`, name === 'applied' ? 'Applied' : String(name)]
               }
             />
-            <Line type="monotone" dataKey="applied" stroke="#134e4a" dot={{ r: 4 }} isAnimationActive={false} />
+            <Line type="linear" dataKey="applied" stroke="#134e4a" dot={{ r: 4 }} isAnimationActive={false} />
           </ComposedChart>
         </ResponsiveContainer>
       </div>
