@@ -34,7 +34,9 @@ export function LiveSearch({ id, label, helperText, placeholder, value, onSearch
     setUrlValue(value);
     if (text.trim() !== value) setText(value);
   }
-  useEffect(() => latest.current(debounced.trim()), [debounced]);
+  useEffect(() => {
+    latest.current(debounced.trim());
+  }, [debounced]);
 
   const onSubmit = (event: FormEvent<HTMLFormElement>) => {
     event.preventDefault();

@@ -84,7 +84,9 @@ export function RecallDeskRoute() {
           label="Search"
           placeholder="Name or chart number"
           value={params.search ?? ''}
-          onSearch={(search) => search !== (params.search ?? '') && set({ search })}
+          onSearch={(search) => {
+            if (search !== (params.search ?? '')) set({ search });
+          }}
           busy={desk.isFetching && !desk.isPending}
         />
         <Switch
