@@ -473,12 +473,12 @@ const TABLE: Record<string, Case[]> = {
   'POST /api/recalls/visits': one({
     path: () => '/api/recalls/visits',
     body: () => ({ patientId: ids.lucia, examinedOn: '2026-01-05', exams: [exam(ids.lucia14)] }),
-    expect: every(403, { hygienist: 201 }),
+    expect: every(403, { hygienist: 201, dentist: 201, otherPracticeDentist: 404 }),
   }),
   'POST /api/recalls/exams/:id/amend': one({
     path: async () => `/api/recalls/exams/${await fresh.exam()}/amend`,
     body: () => ({ ...exam(ids.lucia14), siteId: undefined, mobility: true, amendmentReason: 'Mobility missed' }),
-    expect: every(403, { hygienist: 201 }),
+    expect: every(403, { hygienist: 201, dentist: 201, otherPracticeDentist: 404 }),
   }),
   'GET /api/recalls/sites/:id/exams': one({
     path: () => `/api/recalls/sites/${ids.harold35}/exams`,

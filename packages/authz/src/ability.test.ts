@@ -30,10 +30,14 @@ describe('restorative dentist', () => {
   ])('may %s %s in their practice', (action, type) => {
     expect(a.can(action, row(type, inPractice))).toBe(true);
   });
-  it('may not manage user accounts, edit the catalogue or write recall exams', () => {
+  it('may not manage user accounts or edit the catalogue', () => {
     expect(a.can('create', 'User')).toBe(false);
     expect(a.can('update', row('Catalogue', inPractice))).toBe(false);
-    expect(a.can('create', row('RecallExam', inPractice))).toBe(false);
+  });
+  it('records and amends recall exams of their practice (dentists examine implants at their reviews)', () => {
+    expect(a.can('create', row('RecallExam', inPractice))).toBe(true);
+    expect(a.can('amend', row('RecallExam', inPractice))).toBe(true);
+    expect(a.can('create', row('RecallExam', { practiceId: OTHER, patientId: UNSHARED_PATIENT }))).toBe(false);
   });
   it('sees nothing of another practice', () => {
     expect(a.can('read', row('Patient', { id: UNSHARED_PATIENT, practiceId: OTHER }))).toBe(false);

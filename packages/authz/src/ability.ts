@@ -94,7 +94,9 @@ export function defineAbilityFor(user: AbilityUser): AppAbility {
         own,
       );
       can(['read', 'create', 'amend'], 'Placement', own);
-      can('read', ['RecallExam', 'Catalogue', 'Wrench', 'RecallPolicy'], own);
+      // Dentists examine implants at their own reviews too, not only the hygienist at recalls.
+      can(['read', 'create', 'amend'], 'RecallExam', own);
+      can('read', ['Catalogue', 'Wrench', 'RecallPolicy'], own);
       can(['read', 'create', 'amend'], 'Radiograph', own);
       can(['read', 'create', 'update'], 'Share', own);
       can('read', 'PatientAudit', own);

@@ -65,7 +65,7 @@ export async function startHarness(overrides: Partial<Env> = {}): Promise<Harnes
       page.on('console', (msg) => {
         if (msg.type() === 'error') problems.push(`console: ${msg.text()}`);
       });
-      page.on('pageerror', (error) => problems.push(`page error: ${error.message}`));
+      page.on('pageerror', (error) => problems.push(`page error: ${error.stack ?? error.message}`));
       return page;
     },
     close: async () => {

@@ -1,9 +1,10 @@
 import { Alignment, Button, Classes, Navbar, NavbarDivider, NavbarGroup, NavbarHeading, Tag } from '@blueprintjs/core';
 import type { Me } from '@torquetrail/contracts';
 import type React from 'react';
-import { Link, NavLink, Outlet, useMatch } from 'react-router-dom';
+import { Link, NavLink, useMatch } from 'react-router-dom';
 import { Can } from '../lib/ability';
 import { ROLE_LABEL } from '../lib/labels';
+import { PageGate } from './page-gate';
 
 interface AppShellProps {
   me: Me;
@@ -92,7 +93,7 @@ export function AppShell({ me, onSignOut, signingOut, signOutError }: AppShellPr
         </Navbar>
       </header>
       <main className="page" id="main" tabIndex={-1}>
-        <Outlet />
+        <PageGate me={me} />
       </main>
     </>
   );

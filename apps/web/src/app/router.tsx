@@ -3,6 +3,7 @@ import { SignInRoute } from '../features/auth/routes/sign-in-route';
 import { LoadingState } from '../lib/components/loading-state';
 import { NotFoundRoute } from './not-found-route';
 import { RequireAuth } from './require-auth';
+import { access } from '../lib/page-access';
 import { RouteError } from './route-error';
 
 /**
@@ -39,113 +40,134 @@ export const router = createBrowserRouter([
           { index: true, element: <Navigate to="/patients" replace /> },
           {
             path: 'patients',
+            handle: access('patients'),
             lazy: async () => ({
               Component: (await import('../features/patients/routes/patients-route')).PatientsRoute,
             }),
           },
           {
             path: 'patients/new',
+            handle: access('patients/new'),
             lazy: async () => ({
               Component: (await import('../features/patients/routes/new-patient-route')).NewPatientRoute,
             }),
           },
           {
             path: 'patients/:patientId/edit',
+            handle: access('patients/:patientId/edit'),
             lazy: async () => ({
               Component: (await import('../features/patients/routes/edit-patient-route')).EditPatientRoute,
             }),
           },
           {
             path: 'patients/:patientId',
+            handle: access('patients/:patientId'),
             lazy: async () => ({ Component: (await import('../features/arch/routes/arch-route')).ArchRoute }),
           },
           {
             path: 'patients/:patientId/sites/:siteId',
+            handle: access('patients/:patientId/sites/:siteId'),
             lazy: async () => ({
               Component: (await import('../features/site-file/routes/site-file-route')).SiteFileRoute,
             }),
           },
           {
             path: 'patients/:patientId/sites/:siteId/placement',
+            handle: access('patients/:patientId/sites/:siteId/placement'),
             lazy: async () => ({
               Component: (await import('../features/placement/routes/record-placement-route')).RecordPlacementRoute,
             }),
           },
           {
             path: 'patients/:patientId/restorations',
+            handle: access('patients/:patientId/restorations'),
             lazy: async () => ({
               Component: (await import('../features/planner/routes/restorations-route')).RestorationsRoute,
             }),
           },
           {
             path: 'patients/:patientId/restorations/new',
+            handle: access('patients/:patientId/restorations/new'),
             lazy: async () => ({ Component: (await import('../features/planner/routes/planner-route')).PlannerRoute }),
           },
           {
             path: 'patients/:patientId/radiographs',
+            handle: access('patients/:patientId/radiographs'),
             lazy: async () => ({
               Component: (await import('../features/radiographs/routes/radiographs-route')).RadiographsRoute,
             }),
           },
           {
             path: 'patients/:patientId/radiographs/:radiographId',
+            handle: access('patients/:patientId/radiographs/:radiographId'),
             lazy: async () => ({
               Component: (await import('../features/radiographs/routes/radiograph-viewer-route')).RadiographViewerRoute,
             }),
           },
           {
             path: 'catalogue',
+            handle: access('catalogue'),
             lazy: async () => ({
               Component: (await import('../features/catalogue/routes/catalogue-route')).CatalogueRoute,
             }),
           },
           {
             path: 'recalls',
+            handle: access('recalls'),
             lazy: async () => ({
               Component: (await import('../features/recalls/routes/recall-desk-route')).RecallDeskRoute,
             }),
           },
           {
             path: 'recalls/patients/:patientId/exam',
+            handle: access('recalls/patients/:patientId/exam'),
             lazy: async () => ({ Component: (await import('../features/recalls/routes/exam-route')).ExamRoute }),
           },
           {
             path: 'recalls/policy',
+            handle: access('recalls/policy'),
             lazy: async () => ({ Component: (await import('../features/recalls/routes/policy-route')).PolicyRoute }),
           },
           {
             path: 'recalls/reminders',
+            handle: access('recalls/reminders'),
             lazy: async () => ({
               Component: (await import('../features/recalls/routes/reminder-log-route')).ReminderLogRoute,
             }),
           },
           {
             path: 'account',
+            handle: access('account'),
             lazy: async () => ({ Component: (await import('../features/auth/routes/account-route')).AccountRoute }),
           },
           {
             path: 'practice',
+            handle: access('practice'),
             lazy: async () => ({ Component: (await import('../features/people/routes/practice-route')).PracticeRoute }),
             children: [
               { index: true, element: <Navigate to="/practice/people" replace /> },
               {
                 path: 'people',
+                handle: access('practice/people'),
                 lazy: async () => ({ Component: (await import('../features/people/routes/people-route')).PeopleRoute }),
               },
               {
                 path: 'sign-in',
+                handle: access('practice/sign-in'),
                 lazy: async () => ({
                   Component: (await import('../features/people/routes/sign-in-settings-route')).SignInSettingsRoute,
                 }),
               },
               {
                 path: 'patient-settings',
+                handle: access('practice/patient-settings'),
                 lazy: async () => ({
                   Component: (await import('../features/patients/routes/patient-settings-route')).PatientSettingsRoute,
                 }),
               },
               {
                 path: 'audit',
+                handle: access('practice/audit'),
                 lazy: async () => ({ Component: (await import('../features/audit/routes/audit-route')).AuditRoute }),
               },
             ],

@@ -41,7 +41,12 @@ export function AuditRoute() {
       <BreadcrumbTrail items={[{ text: 'Practice' }, { text: 'Audit trail' }]} />
       <h1 className="page-title">Audit trail</h1>
       <p>Every opening of patient data, every download and every change, with who, when and from where.</p>
-      <form className="audit-page__filters" aria-label="Filter the audit trail" onSubmit={(e) => e.preventDefault()}>
+      <form
+        className="audit-page__filters"
+        role="search"
+        aria-label="Filter the audit trail"
+        onSubmit={(e) => e.preventDefault()}
+      >
         <FormGroup label="Patient" labelFor="audit-patient">
           <HTMLSelect
             id="audit-patient"

@@ -9,7 +9,7 @@ import {
   RECALL_RISK_FACTORS,
 } from '@torquetrail/domain';
 import { FormProvider } from 'react-hook-form';
-import { Can } from '../../../lib/ability';
+import { useAppAbility } from '../../../lib/ability';
 import { BreadcrumbTrail } from '../../../lib/components/breadcrumb-trail';
 import { RISK_FACTOR_LABEL } from '../../../lib/clinical-labels';
 import { ErrorState } from '../../../lib/components/error-state';
@@ -47,6 +47,8 @@ const FIELDS: { key: keyof RecallPolicyBody; label: string; help: string }[] = [
 /** /recalls/policy: the practice's recall intervals and reminder timing (practice admin edits). */
 export function PolicyRoute() {
   const policy = useRecallPolicy();
+  // Other roles read the policy; a form they could not save would be a dead end.
+  const canEdit = useAppAbility().can('update', 'RecallPolicy');
   if (policy.isPending) return <LoadingState label="Loading the recall policy" />;
   if (policy.isError)
     return <ErrorState title="Could not load the policy" error={policy.error} onRetry={() => void policy.refetch()} />;
@@ -60,8 +62,27 @@ export function PolicyRoute() {
         more often at higher risk: Herrera et al. 2023, EFP S3 guideline).{' '}
         {policy.data.isDefault ? 'The defaults are in use.' : ''}
       </p>
-      <PolicyForm policy={policy.data} />
+      {canEdit ? <PolicyForm policy={policy.data} /> : <PolicySummary policy={policy.data} />}
     </div>
+  );
+}
+
+/** The policy to read, for the roles that work with it but do not set it. */
+function PolicySummary({ policy }: { policy: RecallPolicyReply }) {
+  return (
+    <>
+      <dl className="recall-policy__summary" data-testid="recall-policy-summary">
+        {FIELDS.map((f) => (
+          <div key={f.key}>
+            <dt>{f.label}</dt>
+            <dd>
+              {policy[f.key]} <span className="recall-policy__help">{f.help}</span>
+            </dd>
+          </div>
+        ))}
+      </dl>
+      <p>The practice administrator sets the policy.</p>
+    </>
   );
 }
 
@@ -86,11 +107,9 @@ function PolicyForm({ policy }: { policy: RecallPolicyReply }) {
             <NumberInput name={f.key} emptyValue={0} buttonPosition="none" id={`policy-${f.key}`} min={0} max={180} />
           </FormField>
         ))}
-        <Can I="update" a="RecallPolicy">
-          <Button type="submit" intent="primary" loading={update.isPending}>
-            Save policy
-          </Button>
-        </Can>
+        <Button type="submit" intent="primary" loading={update.isPending}>
+          Save policy
+        </Button>
         {update.isSuccess && <Callout intent="success">Saved. New exams are scheduled with this policy.</Callout>}
         {formError && <Callout intent="danger">{formError}</Callout>}
       </form>
