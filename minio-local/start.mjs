@@ -4,6 +4,7 @@
 import fs from 'node:fs';
 import S3rver from 's3rver';
 import { host, s3 } from '../scripts/lib/config.mjs';
+import { multipartUploads } from './multipart-uploads.mjs';
 
 fs.mkdirSync(s3.dataDir, { recursive: true });
 
@@ -15,6 +16,9 @@ const server = new S3rver({
   // Buckets exist from the first start; s3rver keeps existing ones and their objects.
   configureBuckets: [{ name: s3.bucket }, { name: s3.testBucket }],
 });
+
+// Before s3rver's router (its last middleware), so the router never answers these 405 or 501.
+server.middleware.splice(server.middleware.length - 1, 0, multipartUploads(server));
 
 await server.run();
 console.log(

@@ -6,7 +6,10 @@
 // API process's resident memory is sampled from outside (/proc/<pid>/status VmRSS every 50 ms):
 // its peak growth over the idle, warmed-up process while the uploads run (target ≤ 64 MB), and
 // until every preview job has finished; a fresh, warmed-up API process for each kind of file.
-// Prints a table; nothing is asserted.
+// Inside the API a probe (lib/memory-probe.mjs) reports the V8 heap and the external (ArrayBuffer)
+// memory at the same moments, so the growth can be told apart. The API is started as npm start
+// starts it (API_NODE_OPTIONS, MALLOC_ARENA_MAX); TT_BENCH_NODE_DEFAULTS=1 starts it with Node's
+// and glibc's defaults instead, for comparison. Prints a table; nothing is asserted.
 // Usage: node scripts/bench-radiograph-upload.mjs [files] [megabytes]
 import { spawn } from 'node:child_process';
 import fs from 'node:fs';
@@ -16,8 +19,8 @@ import { pathToFileURL } from 'node:url';
 import zlib from 'node:zlib';
 import { CreateBucketCommand, DeleteObjectCommand, ListObjectsV2Command } from '@aws-sdk/client-s3';
 import { Upload } from '@aws-sdk/lib-storage';
-import { apiEnvironment, localDir, repoRoot } from './lib/config.mjs';
-import { nodeScript } from './lib/bootstrap.mjs';
+import { API_NODE_OPTIONS, apiEnvironment, localDir, repoRoot } from './lib/config.mjs';
+import { migrateDatabase, nodeScript } from './lib/bootstrap.mjs';
 import { ensureDatabase } from './lib/postgres.mjs';
 import { portOpen } from './lib/proc.mjs';
 import { startServices } from './services.mjs';
@@ -32,6 +35,7 @@ const MB = 1024 * 1024;
 process.env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED = 'true';
 const dist = (p) => pathToFileURL(path.join(repoRoot, 'apps/api/dist', p)).href;
 const workDir = path.join(localDir, 'tmp', 'bench-radiographs');
+const nodeDefaults = process.env.TT_BENCH_NODE_DEFAULTS === '1';
 
 // ---- files --------------------------------------------------------------------------------------
 /** A DICOM Part 10 element, explicit VR little endian (PS3.5 §7.1.2), value padded to even length. */
@@ -230,12 +234,13 @@ const env = {
   LOG_LEVEL: 'warn',
   RADIOGRAPH_DAILY_QUOTA_BYTES: String(100 * 1024 * MB),
 };
-await nodeScript('apps/api/dist/db/migrate.js', env);
-await nodeScript('apps/api/dist/seed/seed.js', env);
-
+// As the owner (the API's role may not create schemas), then the API's login (migration 0014).
+await migrateDatabase(DATABASE, env);
 const { StorageService } = await import(dist('storage/storage.service.js'));
 const storage = new StorageService({ ...env, S3_BUCKET: BUCKET });
 await storage.client.send(new CreateBucketCommand({ Bucket: BUCKET })).catch(() => undefined);
+// After the bucket: the seed stores its radiographs in it.
+await nodeScript('apps/api/dist/seed/seed.js', env);
 
 fs.mkdirSync(workDir, { recursive: true });
 const kinds = [
@@ -256,10 +261,14 @@ if (await portOpen(API_PORT)) throw new Error(`port ${API_PORT} is taken; set TT
 
 /** Starts the API, signs in, and warms it with one small upload of `kind` and its preview. */
 async function startApi(kind) {
-  const proc = spawn(process.execPath, [path.join(repoRoot, 'apps/api/dist/main.js')], {
+  const probe = ['--import', pathToFileURL(path.join(repoRoot, 'scripts/lib/memory-probe.mjs')).href];
+  const options = nodeDefaults ? probe : [...API_NODE_OPTIONS, ...probe];
+  const apiEnv = { ...process.env, ...env };
+  if (nodeDefaults) delete apiEnv.MALLOC_ARENA_MAX;
+  const proc = spawn(process.execPath, [...options, path.join(repoRoot, 'apps/api/dist/main.js')], {
     cwd: repoRoot,
-    env: { ...process.env, ...env },
-    stdio: ['ignore', 'inherit', 'inherit'],
+    env: apiEnv,
+    stdio: ['ignore', 'inherit', 'inherit', 'ipc'],
   });
   while (!(await portOpen(API_PORT))) {
     if (proc.exitCode !== null) throw new Error('the API stopped while starting');
@@ -281,6 +290,20 @@ async function startApi(kind) {
   await previewsDone(session, [await uploadThroughApi(session, patientId, small, `warm.${ext}`)]);
   await new Promise((r) => setTimeout(r, 1500));
   return { proc, session, patientId };
+}
+
+/** The probe's current values and peaks since its previous report (MB), read from inside the API. */
+function probeReport(proc) {
+  const mb = (o) => Object.fromEntries(Object.entries(o).map(([k, v]) => [k, v / MB]));
+  return new Promise((resolve) => {
+    const onMessage = (message) => {
+      if (!message?.memoryProbe) return;
+      proc.off('message', onMessage);
+      resolve({ now: mb(message.memoryProbe.now), peak: mb(message.memoryProbe.peak) });
+    };
+    proc.on('message', onMessage);
+    proc.send('memory-probe');
+  });
 }
 
 async function stopApi(proc) {
@@ -311,6 +334,7 @@ try {
     api = proc;
     sampler = rssSampler(api.pid);
     const baseline = rssOf(api.pid);
+    const inside = await probeReport(api);
     sampler.reset();
     t = performance.now();
     const ids = await Promise.all(
@@ -318,9 +342,11 @@ try {
     );
     const apiS = (performance.now() - t) / 1000;
     const uploadPeak = sampler.peak();
+    const insideUpload = await probeReport(api);
     const outcome = await previewsDone(session, ids);
     const previewS = (performance.now() - t) / 1000 - apiS;
     const previewPeak = sampler.peak();
+    const insidePreviews = await probeReport(api);
     sampler.stop();
     await stopApi(api);
     api = null;
@@ -335,6 +361,8 @@ try {
       uploadGrowthMb: (uploadPeak - baseline) / MB,
       previewS,
       previewGrowthMb: (previewPeak - baseline) / MB,
+      heapGrowthMb: Math.max(insideUpload.peak.heapUsed, insidePreviews.peak.heapUsed) - inside.now.heapUsed,
+      externalGrowthMb: Math.max(insideUpload.peak.external, insidePreviews.peak.external) - inside.now.external,
       previews: Object.entries(outcome)
         .map(([k, v]) => `${v} ${k}`)
         .join(', '),
@@ -357,7 +385,8 @@ try {
 
 const f1 = (n) => n.toFixed(1);
 console.log(
-  `\n${FILES} parallel uploads of ${MEGABYTES} MB; API RSS sampled from /proc/<pid>/status every 50 ms (target: growth ≤ 64 MB)\n`,
+  `\n${FILES} parallel uploads of ${MEGABYTES} MB; API RSS sampled from /proc/<pid>/status every 50 ms (target: growth ≤ 64 MB);` +
+    ` the API started with ${nodeDefaults ? "Node's and glibc's defaults" : `${API_NODE_OPTIONS.join(' ')} and MALLOC_ARENA_MAX=2`}\n`,
 );
 const header = [
   'kind',
@@ -369,6 +398,8 @@ const header = [
   'Δ upload MB',
   'Δ +previews MB',
   'previews s',
+  'Δ heap MB',
+  'Δ external MB',
   'previews',
 ];
 const rows = results.map((r) => [
@@ -381,6 +412,8 @@ const rows = results.map((r) => [
   f1(r.uploadGrowthMb),
   f1(r.previewGrowthMb),
   f1(r.previewS),
+  f1(r.heapGrowthMb),
+  f1(r.externalGrowthMb),
   r.previews,
 ]);
 const widths = header.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i].length)));

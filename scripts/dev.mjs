@@ -2,7 +2,7 @@
 // (with /api proxied to the API) on http://127.0.0.1:5173.
 import { spawn } from 'node:child_process';
 import path from 'node:path';
-import { apiEnvironment, app, pg, repoRoot, s3 } from './lib/config.mjs';
+import { API_NODE_OPTIONS, apiEnvironment, app, pg, repoRoot, s3 } from './lib/config.mjs';
 import { buildAll, ensureDependencies, localJwtSecret, nodeScript, migrateDatabase } from './lib/bootstrap.mjs';
 
 await ensureDependencies();
@@ -32,7 +32,7 @@ const children = [
     ],
     { cwd: repoRoot, stdio: 'inherit' },
   ),
-  spawn(process.execPath, ['--watch-path=apps/api/dist', 'apps/api/dist/main.js'], {
+  spawn(process.execPath, [...API_NODE_OPTIONS, '--watch-path=apps/api/dist', 'apps/api/dist/main.js'], {
     cwd: repoRoot,
     env,
     stdio: 'inherit',

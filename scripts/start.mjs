@@ -3,7 +3,7 @@
 // app on http://127.0.0.1:3000 (PORT moves it), and prints the demo sign-ins.
 import { spawn } from 'node:child_process';
 import path from 'node:path';
-import { apiEnvironment, app, mail, pg, repoRoot, s3 } from './lib/config.mjs';
+import { API_NODE_OPTIONS, apiEnvironment, app, mail, pg, repoRoot, s3 } from './lib/config.mjs';
 import { buildAll, ensureDependencies, localJwtSecret, nodeScript, migrateDatabase } from './lib/bootstrap.mjs';
 import { portOpen } from './lib/proc.mjs';
 
@@ -22,7 +22,7 @@ async function main() {
   await nodeScript('apps/api/dist/seed/seed.js', env);
   if (await portOpen(app.port)) throw new Error(`port ${app.port} on 127.0.0.1 is taken; start with PORT=… npm start`);
 
-  const api = spawn(process.execPath, [path.join(repoRoot, 'apps/api/dist/main.js')], {
+  const api = spawn(process.execPath, [...API_NODE_OPTIONS, path.join(repoRoot, 'apps/api/dist/main.js')], {
     cwd: repoRoot,
     env: { ...process.env, ...env },
     stdio: 'inherit',

@@ -61,6 +61,16 @@ export function ownerEnvironment(database) {
   return { MIGRATION_DATABASE_URL: databaseUrl(database, pg.user, pg.password) };
 }
 
+/**
+ * Node options of the API process, wherever it is started (npm start, npm run dev, the benchmarks;
+ * a deployment starts it the same way: docs/adr/0007-radiograph-upload-memory.md). A 1 MB young
+ * generation is collected often, so the socket and storage chunks a streamed upload or preview
+ * leaves behind are freed within a few MB instead of piling up to V8's 64 MB external-memory
+ * trigger (5 parallel 50 MB uploads: medians of 52–60 MB of RSS growth with Node's defaults,
+ * 24–34 MB with these settings, at some cost in throughput; figures in ADR 0007).
+ */
+export const API_NODE_OPTIONS = ['--max-semi-space-size=1'];
+
 /** Environment for the API process, pointing at the loopback services. */
 export function apiEnvironment({ database, bucket, jwtSecret, port: appPort }) {
   return {
@@ -79,6 +89,9 @@ export function apiEnvironment({ database, bucket, jwtSecret, port: appPort }) {
     WEB_DIST: path.join(repoRoot, 'apps', 'web', 'dist'),
     // Local runs print warnings and errors only (JSON lines from pino); production defaults to info.
     LOG_LEVEL: process.env.LOG_LEVEL ?? 'warn',
+    // glibc gives each thread that allocates (libuv's pool, libvips) an arena of its own, up to 8 per
+    // core, and keeps what they freed: two arenas keep the API's RSS near what it uses (ADR 0007).
+    MALLOC_ARENA_MAX: '2',
     // The SDK is pinned to the last line that supports Node 20 (see DEVELOPERS.md); its notice says so at every start.
     AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED: 'true',
   };

@@ -240,7 +240,10 @@ describe('the exam form offers the latest measured bone level', () => {
 
     const context = await ctx.http.get(`/api/recalls/patients/${lucia}/exam-context`).set('Cookie', hygienist);
     expect(context.status).toBe(200);
-    const offer = context.body.sites.find((s: { siteId: string }) => s.siteId === site).measuredBoneLevel;
+    const offers = context.body.sites.find((s: { siteId: string }) => s.siteId === site).measuredBoneLevels;
+    // Both, latest first; the form offers the latest of the exam's day or earlier (boneLevelOfferFor).
+    expect(offers.map((o: { radiographId: string }) => o.radiographId)).toEqual([newer, older]);
+    const offer = offers[0];
     // distal 50 px × 0.0575 = 2.875 mm → 2.9 mm
     expect(offer).toMatchObject({
       measurementId: latest.body.id,
@@ -282,8 +285,36 @@ describe('the exam form offers the latest measured bone level', () => {
       .set('Cookie', dentist)
       .send({ reason: 'Wrong side' });
     const context = await ctx.http.get(`/api/recalls/patients/${lucia}/exam-context`).set('Cookie', hygienist);
-    expect(context.body.sites.find((s: { siteId: string }) => s.siteId === site).measuredBoneLevel).toBeNull();
+    expect(context.body.sites.find((s: { siteId: string }) => s.siteId === site).measuredBoneLevels).toEqual([]);
     const res = await visit(context.body.today, [exam(site, { boneLevelMm: 1.2, boneLevelMeasurementId: m.body.id })]);
     expect(res.status).toBe(400);
+  });
+
+  it('a back-dated exam may cite only a radiograph taken on or before its day', async () => {
+    const site = await newSite();
+    const older = await upload(site, '2022-03-01');
+    const newer = await upload(site, '2024-03-01');
+    const first = await measure(dentist, older, site, { points: points(20, 40) });
+    const second = await measure(hygienist, newer, site, { points: points(30, 50) });
+    expect([first.status, second.status]).toEqual([201, 201]);
+    const context = await ctx.http.get(`/api/recalls/patients/${lucia}/exam-context`).set('Cookie', hygienist);
+    const offers = context.body.sites.find((s: { siteId: string }) => s.siteId === site).measuredBoneLevels as {
+      measurementId: string;
+      boneLevelMm: number;
+    }[];
+    const ofOlder = offers.find((o) => o.measurementId === first.body.id)!;
+    const ofNewer = offers.find((o) => o.measurementId === second.body.id)!;
+
+    // An exam of 2023: the 2024 film did not exist yet.
+    const later = await visit('2023-06-01', [
+      exam(site, { boneLevelMm: ofNewer.boneLevelMm, boneLevelMeasurementId: ofNewer.measurementId }),
+    ]);
+    expect(later.status).toBe(400);
+    expect(later.body.fields['exams.0.boneLevelMeasurementId']).toMatch(/taken after this exam of 2023-06-01/);
+    const earlier = await visit('2023-06-01', [
+      exam(site, { boneLevelMm: ofOlder.boneLevelMm, boneLevelMeasurementId: ofOlder.measurementId }),
+    ]);
+    expect(earlier.status, JSON.stringify(earlier.body)).toBe(201);
+    expect(earlier.body.exams[0]).toMatchObject({ examinedOn: '2023-06-01', boneLevelMeasurementId: first.body.id });
   });
 });

@@ -5,7 +5,7 @@
 // Each test uses a patient of its own, so the proxy's faults and records never mix.
 import http from 'node:http';
 import type { AddressInfo } from 'node:net';
-import { ListObjectsV2Command, S3Client } from '@aws-sdk/client-s3';
+import { ListMultipartUploadsCommand, ListObjectsV2Command, S3Client } from '@aws-sdk/client-s3';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { dicomFile, greyAt, halvesPng, waitForPreview } from './support/radiograph-fixtures.js';
 import { startS3Proxy, type S3Proxy } from './support/s3-proxy.js';
@@ -158,7 +158,8 @@ const replyOf = (req: http.ClientRequest) =>
     req.on('error', reject);
   });
 
-async function objectsOf(patient: string): Promise<string[]> {
+/** Straight to the S3 fake (not through the proxy). */
+async function withS3<T>(run: (s3: S3Client, bucket: string) => Promise<T>): Promise<T> {
   const env = testEnv();
   const s3 = new S3Client({
     endpoint: env.S3_ENDPOINT,
@@ -167,12 +168,24 @@ async function objectsOf(patient: string): Promise<string[]> {
     forcePathStyle: true,
   });
   try {
-    const out = await s3.send(new ListObjectsV2Command({ Bucket: env.S3_BUCKET, Prefix: 'radiographs/' }));
-    return (out.Contents ?? []).map((o) => o.Key ?? '').filter((k) => k.includes(`/${patient}/`));
+    return await run(s3, env.S3_BUCKET);
   } finally {
     s3.destroy();
   }
 }
+
+const objectsOf = (patient: string): Promise<string[]> =>
+  withS3(async (s3, Bucket) => {
+    const out = await s3.send(new ListObjectsV2Command({ Bucket, Prefix: 'radiographs/' }));
+    return (out.Contents ?? []).map((o) => o.Key ?? '').filter((k) => k.includes(`/${patient}/`));
+  });
+
+/** Multipart uploads of a patient's objects still in progress on the fake (their parts on its disk). */
+const uploadsInProgress = (patient: string): Promise<string[]> =>
+  withS3(async (s3, Bucket) => {
+    const out = await s3.send(new ListMultipartUploadsCommand({ Bucket, Prefix: 'radiographs/' }));
+    return (out.Uploads ?? []).map((u) => u.Key ?? '').filter((k) => k.includes(`/${patient}/`));
+  });
 
 describe('the size limit under streaming', () => {
   it('a body over one part goes up as a multipart upload, completed, and reads back byte for byte', async () => {
@@ -237,8 +250,49 @@ describe('the size limit under streaming', () => {
     const uploadId = /uploadId=([^&]+)/.exec(calls.find((c) => c.startsWith('PUT ')) ?? '')?.[1];
     expect(uploadId, calls.join('\n')).toBeTruthy();
     expect(calls, calls.join('\n')).toContain(`DELETE ?uploadId=${uploadId}&x-id=AbortMultipartUpload`);
-    // never completed
+    // never completed, and its part is gone from the fake, as S3 removes an aborted upload's parts
     expect(calls.filter((c) => c.startsWith('POST ') && c.includes('uploadId='))).toEqual([]);
+    expect(await uploadsInProgress(patient)).toEqual([]);
+  });
+
+  it('an upload cancelled by the client after its first part → aborted: no row, no object, no parts left', async () => {
+    const patient = await patientId(ctx.db, 'LL-1003');
+    const listed = async () =>
+      (
+        await ctx.http.get(`/api/patients/${patient}/radiographs?includeEnteredInError=true`).set('Cookie', dentist)
+      ).body.items.map((r: { id: string }) => r.id);
+    const rowsBefore = await listed();
+    const objectsBefore = await objectsOf(patient);
+    // 1700 × 1700 × 2 bytes ≈ 5.8 MB: under the limit, over one part
+    const file = dicomFile({
+      rows: 1700,
+      columns: 1700,
+      bits: 16,
+      photometric: 'MONOCHROME2',
+      pixel: (r, c) => r + 3 * c,
+    });
+    const req = rawUpload(patient, { 'Content-Length': file.length });
+    req.on('error', () => undefined); // the socket is destroyed below, mid-body
+    // Past the first 5 MB part, then wait for that part to reach S3 before cancelling.
+    const sent = 5.5 * 1024 * 1024;
+    for (let at = 0; at < sent; at += 64 * 1024) {
+      if (!req.write(file.subarray(at, Math.min(at + 64 * 1024, sent)))) await new Promise((r) => req.once('drain', r));
+    }
+    const partSent = () => s3Calls(patient).some((c) => c.method === 'PUT' && c.url.includes('partNumber=1'));
+    for (let i = 0; i < 200 && !partSent(); i++) await new Promise((r) => setTimeout(r, 50));
+    expect(partSent()).toBe(true);
+    req.destroy();
+    const aborted = () => s3Calls(patient).some((c) => c.method === 'DELETE' && c.url.includes('uploadId='));
+    for (let i = 0; i < 200 && !aborted(); i++) await new Promise((r) => setTimeout(r, 50));
+    expect(
+      aborted(),
+      s3Calls(patient)
+        .map((c) => `${c.method} ${c.url}`)
+        .join('\n'),
+    ).toBe(true);
+    expect(await uploadsInProgress(patient)).toEqual([]);
+    expect(await listed()).toEqual(rowsBefore);
+    expect(await objectsOf(patient)).toEqual(objectsBefore);
   });
 
   it('a declared Content-Length over the limit → 413 before a byte of the body is sent, S3 untouched', async () => {

@@ -270,6 +270,7 @@ describe('bone levels from radiographs', () => {
       siteImplants: { implantLengthMm: number | null }[];
     };
     expect(detail.siteImplants[0].implantLengthMm).toBeNull();
-    // The preview job may take up to its one-minute sweep on a loaded machine (issue 10 note).
+    // Kept from the failed fresh-clone run, whose cause is not proven (a preview behind a job
+    // backlog no longer waits: radiographs-preview-queue.e2e-spec.ts); a loaded machine's page loads.
   }, 150_000);
 });

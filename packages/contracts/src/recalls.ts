@@ -175,18 +175,22 @@ export const ExamContext = z.object({
       deliveredOn: IsoDate.nullable(),
       baseline: RecallExam.nullable(),
       previous: RecallExam.nullable(),
-      /** The latest measured bone level (worse of mesial/distal), offered as the exam's; null: none measured. */
-      measuredBoneLevel: z
-        .object({
+      /**
+       * The site's current measured bone levels (worse of mesial/distal), latest first; the form offers
+       * the one `boneLevelOfferFor` (packages/domain) picks for the exam's date.
+       */
+      measuredBoneLevels: z.array(
+        z.object({
           measurementId: Id,
           radiographId: Id,
           boneLevelMm: z.number(),
           mesialMm: z.number(),
           distalMm: z.number(),
           takenOn: IsoDate.nullable(),
+          measuredAt: IsoDateTime,
           measuredBy: z.string(),
-        })
-        .nullable(),
+        }),
+      ),
     }),
   ),
 });

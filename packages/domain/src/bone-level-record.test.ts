@@ -1,5 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import { boneLevelSummary, examBoneLevelMm, worseBoneLevel, type ExamFindings } from './bone-level-record.js';
+import {
+  boneLevelOfferFor,
+  boneLevelSummary,
+  examBoneLevelMm,
+  worseBoneLevel,
+  type ExamFindings,
+} from './bone-level-record.js';
 import { ValidationError } from './errors.js';
 
 // Worse of mesial/distal as in the 2017 case definitions (Berglundh et al. 2018) [common practice];
@@ -110,5 +116,31 @@ describe('boneLevelSummary — the series judged as a whole', () => {
       albrektsson: null,
       icoi: null,
     });
+  });
+});
+
+describe('boneLevelOfferFor — the measurement an exam of a given day is offered [decision]', () => {
+  const film = (id: string, takenOn: string | null, measuredAt: string) => ({ id, takenOn, measuredAt });
+  const levels = [
+    film('2024', '2024-05-10', '2024-05-10T09:00:00.000Z'),
+    film('2022', '2022-03-01', '2024-05-11T08:00:00.000Z'), // an old film measured later
+    film('2022-again', '2022-03-01', '2024-06-01T08:00:00.000Z'), // the same day, measured later still
+    film('undated', null, '2023-01-15T10:00:00.000Z'),
+  ];
+  it.each([
+    ['2025-01-01', '2024'],
+    ['2024-05-10', '2024'], // on the day the film was taken
+    ['2024-05-09', 'undated'], // measured 2023-01-15, so taken by then
+    ['2023-01-14', '2022-again'], // of two films of one day, the later measured
+    ['2022-03-01', '2022-again'],
+  ])('an exam of %s is offered the film "%s"', (examinedOn, expected) =>
+    expect(boneLevelOfferFor(levels, examinedOn)?.id).toBe(expected),
+  );
+  it('offers nothing before the first film, and nothing from an empty list', () => {
+    expect(boneLevelOfferFor(levels, '2022-02-28')).toBeNull();
+    expect(boneLevelOfferFor([], '2030-01-01')).toBeNull();
+  });
+  it('does not depend on the order of the list', () => {
+    expect(boneLevelOfferFor([...levels].reverse(), '2024-05-09')?.id).toBe('undated');
   });
 });

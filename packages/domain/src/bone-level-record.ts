@@ -52,6 +52,36 @@ export function examBoneLevelMm(m: Pick<MeasuredBoneLevel, 'mesialMm' | 'distalM
   return tenths <= 0 ? 0 : tenths;
 }
 
+/** A measurement as the recall exam is offered it. */
+export interface OfferableBoneLevel {
+  /** Date the radiograph was taken, YYYY-MM-DD; null when not known. */
+  takenOn: string | null;
+  /** When it was measured (ISO date-time, UTC). */
+  measuredAt: string;
+}
+
+/** The day a measurement describes: the radiograph's date, else (undated) the day it was measured. */
+function describedOn(m: OfferableBoneLevel): string {
+  return m.takenOn ?? m.measuredAt.slice(0, 10);
+}
+
+/**
+ * The measurement offered to an exam of `examinedOn` (YYYY-MM-DD): the latest whose radiograph was
+ * taken on or before that day, so a back-dated exam is offered what was known of the bone then and
+ * never a later film. An undated radiograph counts from the day it was measured, the last day it
+ * can have been taken by. Of two on one day, the later measured. null when none qualifies.
+ */
+export function boneLevelOfferFor<T extends OfferableBoneLevel>(levels: readonly T[], examinedOn: string): T | null {
+  let best: T | null = null;
+  for (const m of levels) {
+    const day = describedOn(m);
+    if (day > examinedOn) continue;
+    const bestDay = best ? describedOn(best) : '';
+    if (!best || day > bestDay || (day === bestDay && m.measuredAt > best.measuredAt)) best = m;
+  }
+  return best;
+}
+
 /** What the latest recall exam found, for the ICOI grade. */
 export interface ExamFindings {
   mobility: boolean;

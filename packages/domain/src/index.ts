@@ -165,9 +165,10 @@ export { ALBREKTSSON_FIRST_YEAR_MM, ALBREKTSSON_ANNUAL_MM, ICOI_GRADES } from '.
 /** The reading meetsAlbrektsson takes as its reference (closest to loading, ±90 days). */
 export { albrektssonReference } from './bone-level.js';
 /** Measured bone levels into the record: the worse side, the exam's value, the series summary. */
-export { worseBoneLevel, examBoneLevelMm, boneLevelSummary } from './bone-level-record.js';
+export { worseBoneLevel, examBoneLevelMm, boneLevelSummary, boneLevelOfferFor } from './bone-level-record.js';
 export type {
   MeasuredBoneLevel,
+  OfferableBoneLevel,
   ExamFindings,
   BoneLevelSummaryInput,
   BoneLevelSummary,

@@ -4,7 +4,7 @@
 // meanwhile instead of refusing to start. Every queue's state lives in the database, so several
 // API instances share it: a job runs on one of them, a schedule fires once.
 import { Inject, Injectable, Logger, type OnApplicationBootstrap, type OnApplicationShutdown } from '@nestjs/common';
-import { PgBoss, type Job } from 'pg-boss';
+import { PgBoss, type Job, type JobResult } from 'pg-boss';
 import { ENV, type Env } from '../config/env.js';
 
 export interface QueueSpec<T extends object> {
@@ -22,6 +22,14 @@ export interface QueueSpec<T extends object> {
 }
 
 const FIRST_RETRY_MS = 500;
+/**
+ * Jobs a worker takes per fetch, handled one after another. pg-boss waits a polling interval
+ * after every fetch unless it came back full (`burstWhenBatchFull`, which needs batches of two or
+ * more): with one job per fetch a backlog drained at one job per interval, so a job queued behind
+ * a few dozen others (previews of rows since gone, mails already sent) waited that many seconds.
+ * Two keeps a worker from holding more than one job another instance could be doing.
+ */
+const JOBS_PER_FETCH = 2;
 const LONGEST_RETRY_MS = 15_000;
 
 @Injectable()
@@ -114,13 +122,31 @@ export class JobsService implements OnApplicationBootstrap, OnApplicationShutdow
     else await boss.createQueue(spec.name, { policy: spec.policy, ...options });
     await boss.work(
       spec.name,
-      { batchSize: 1, pollingIntervalSeconds: spec.pollingIntervalSeconds ?? 2 },
-      async (jobs: Job[]) => {
-        for (const job of jobs)
-          await spec.handle(job.data ?? {}, {
-            retryCount: job.retryCount,
-            finalAttempt: job.retryCount >= spec.retryLimit,
-          });
+      {
+        batchSize: JOBS_PER_FETCH,
+        burstWhenBatchFull: true,
+        perJobResults: true,
+        pollingIntervalSeconds: spec.pollingIntervalSeconds ?? 2,
+      },
+      // One at a time; each job settles on its own, so one failing retries only itself.
+      async (jobs: Job[]): Promise<JobResult[]> => {
+        const results: JobResult[] = [];
+        for (const job of jobs) {
+          try {
+            await spec.handle(job.data ?? {}, {
+              retryCount: job.retryCount,
+              finalAttempt: job.retryCount >= spec.retryLimit,
+            });
+            results.push({ id: job.id, status: 'completed' });
+          } catch (error) {
+            results.push({
+              id: job.id,
+              status: 'failed',
+              output: { message: error instanceof Error ? error.message : String(error) },
+            });
+          }
+        }
+        return results;
       },
     );
     if (spec.cron) await boss.schedule(spec.name, spec.cron, {}, { tz: 'UTC' });

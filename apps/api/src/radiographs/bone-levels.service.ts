@@ -69,15 +69,17 @@ export class BoneLevelsService {
   }
 
   /**
-   * The latest measured bone level of each site (the worse side, as the exam takes it). The caller
-   * has checked that the user may read the sites' patient.
+   * The current measured bone levels of each site, latest first (the exam form offers the one for
+   * its date). The caller has checked that the user may read the sites' patient.
    */
-  async latestBySite(siteIds: readonly string[]) {
-    const latest = new Map<string, SiteBoneLevel>();
+  async bySite(siteIds: readonly string[]) {
+    const bySite = new Map<string, SiteBoneLevel[]>();
     for (const row of await repo.currentSiteMeasurements(this.db, siteIds)) {
-      if (!latest.has(row.siteId)) latest.set(row.siteId, toBoneLevel(row));
+      const list = bySite.get(row.siteId) ?? [];
+      list.push(toBoneLevel(row));
+      bySite.set(row.siteId, list);
     }
-    return latest;
+    return bySite;
   }
 
   /** The named measurement when it is a current one of the site on a radiograph not entered in error. */

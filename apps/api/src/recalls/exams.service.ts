@@ -15,6 +15,7 @@ import {
   classifyPeriImplant,
   DEFAULT_BONE_LOSS_MM,
   DEFAULT_PD_INCREASE_MM,
+  boneLevelOfferFor,
   DomainError,
   inChartOrder,
   latestExam,
@@ -80,7 +81,7 @@ export class ExamsService {
       this.db,
       sites.map((s) => s.siteId),
     );
-    const measured = await this.boneLevels.latestBySite(sites.map((s) => s.siteId));
+    const measured = await this.boneLevels.bySite(sites.map((s) => s.siteId));
     const today = this.clock.today();
     return {
       patient: {
@@ -108,7 +109,7 @@ export class ExamsService {
           deliveredOn: s.deliveredOn,
           baseline: baseline ? toContract(baseline) : null,
           previous: previous ? toContract(previous) : null,
-          measuredBoneLevel: offered(measured.get(s.siteId)),
+          measuredBoneLevels: (measured.get(s.siteId) ?? []).map(offered),
         };
       }),
     };
@@ -168,7 +169,7 @@ export class ExamsService {
         body.exams.map((e) => e.siteId),
       );
       for (const [i, exam] of body.exams.entries()) {
-        await this.checkBoneLevelSource(exam, exam.siteId, `exams.${i}.`);
+        await this.checkBoneLevelSource(exam, exam.siteId, body.examinedOn, `exams.${i}.`);
       }
 
       const visitId = randomUUID();
@@ -273,7 +274,7 @@ export class ExamsService {
       // the unique index on supersedes_id saves the first (insertExamAmendment).
       await lockExamHistory(tx, patient.id);
       const site = (await listSitesForExam(tx, patient.id)).find((s) => s.siteId === old.siteId)!;
-      await this.checkBoneLevelSource(next, old.siteId, '');
+      await this.checkBoneLevelSource(next, old.siteId, old.examinedOn, '');
       const earlier = (await listExamsOfSites(tx, [site.siteId])).filter((e) => e.id !== old.id);
       const probes = inChartOrder(next.sites);
       const baseline = choosePeriImplantBaseline(
@@ -326,12 +327,14 @@ export class ExamsService {
 
   /**
    * A bone level accepted from a measurement names it: the measurement must be a current one of the
-   * same site, on a radiograph not entered in error, and the value must be the one it offers
-   * (a typed-over value is sent without a source).
+   * same site, on a radiograph not entered in error, describing the bone on or before the exam's
+   * day (`boneLevelOfferFor`: a back-dated exam cannot cite a later film), and the value must be
+   * the one it offers (a typed-over value is sent without a source).
    */
   private async checkBoneLevelSource(
     exam: { boneLevelMm: number | null; boneLevelMeasurementId: string | null },
     siteId: string,
+    examinedOn: string,
     prefix: string,
   ) {
     if (exam.boneLevelMeasurementId === null) return;
@@ -339,6 +342,11 @@ export class ExamsService {
     if (!source) {
       throw fieldError({
         [`${prefix}boneLevelMeasurementId`]: 'not a current bone-level measurement of this implant',
+      });
+    }
+    if (boneLevelOfferFor([source], examinedOn) === null) {
+      throw fieldError({
+        [`${prefix}boneLevelMeasurementId`]: `the radiograph was taken after this exam of ${examinedOn}; use a measurement of that day or earlier`,
       });
     }
     if (exam.boneLevelMm !== source.examBoneLevelMm) {
@@ -349,9 +357,8 @@ export class ExamsService {
   }
 }
 
-/** The exam form's offer from the latest measurement of a site. */
-function offered(m: SiteBoneLevel | undefined): ExamContext['sites'][number]['measuredBoneLevel'] {
-  if (!m) return null;
+/** A measurement as the exam form may offer it. */
+function offered(m: SiteBoneLevel): ExamContext['sites'][number]['measuredBoneLevels'][number] {
   return {
     measurementId: m.measurementId,
     radiographId: m.radiographId,
@@ -359,6 +366,7 @@ function offered(m: SiteBoneLevel | undefined): ExamContext['sites'][number]['me
     mesialMm: m.mesialMm,
     distalMm: m.distalMm,
     takenOn: m.takenOn,
+    measuredAt: m.measuredAt,
     measuredBy: m.measuredBy,
   };
 }

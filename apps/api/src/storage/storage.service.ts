@@ -97,7 +97,7 @@ export class StorageService implements OnModuleDestroy {
    * upload whatever the size, and no part-sized garbage is left for the collector. (The SDK's
    * lib-storage Upload gathers each part as a list of chunks, copies it into a new buffer and keeps
    * the previous one alive until the next: up to three parts per upload, which took five parallel
-   * 50 MB uploads over 64 MB of growth — scripts/bench-radiograph-upload.mjs.) A body shorter than
+   * 50 MB uploads over 64 MB of growth — scripts/bench-radiograph-upload.mjs, ADR 0007.) A body shorter than
    * one part is a single PutObject. When the body or S3 fails, the multipart upload is aborted (its
    * parts removed) and the body's error, if it had one, is the one thrown.
    */

@@ -14,6 +14,7 @@ import {
 import type { z } from 'zod';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { ApiError, apiRequest } from '../../../lib/api-client';
+import { recallKeys } from '../../recalls';
 import { radiographKeys } from './keys';
 
 /** How often a radiograph whose preview is being prepared is asked for again, ms. */
@@ -88,13 +89,24 @@ export const useRadiograph = (radiographId: string) =>
     refetchInterval: (query) => (query.state.data?.previewStatus === 'pending' ? PREVIEW_POLL_MS : false),
   });
 
-// A measurement or a radiograph marked entered in error changes lists, details and bone-level charts.
+/**
+ * A measurement or a radiograph marked entered in error changes lists, details and bone-level
+ * charts, and the bone level the recall exam form offers (its context would otherwise be kept
+ * for the app's 30 s stale time).
+ */
+function invalidateMeasured(queryClient: ReturnType<typeof useQueryClient>) {
+  return Promise.all([
+    queryClient.invalidateQueries({ queryKey: radiographKeys.all }),
+    queryClient.invalidateQueries({ queryKey: recallKeys.examContexts() }),
+  ]);
+}
+
 export function useMeasure(radiographId: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (body: MeasurementBody) =>
       apiRequest(`/api/radiographs/${radiographId}/measurements`, { method: 'POST', body, schema: Measurement }),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: radiographKeys.all }),
+    onSuccess: () => invalidateMeasured(queryClient),
   });
 }
 
@@ -107,7 +119,7 @@ export function useAmendMeasurement() {
         body,
         schema: Measurement,
       }),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: radiographKeys.all }),
+    onSuccess: () => invalidateMeasured(queryClient),
   });
 }
 
@@ -116,6 +128,6 @@ export function useMarkEnteredInError(radiographId: string) {
   return useMutation({
     mutationFn: (body: EnteredInErrorBody) =>
       apiRequest(`/api/radiographs/${radiographId}/entered-in-error`, { method: 'POST', body, schema: Radiograph }),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: radiographKeys.all }),
+    onSuccess: () => invalidateMeasured(queryClient),
   });
 }

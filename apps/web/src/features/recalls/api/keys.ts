@@ -8,7 +8,8 @@ export type DeskParams = Partial<
 export const recallKeys = {
   all: ['recalls'] as const,
   desk: (params: DeskParams) => [...recallKeys.all, 'desk', params] as const,
-  examContext: (patientId: string) => [...recallKeys.all, 'exam-context', patientId] as const,
+  examContexts: () => [...recallKeys.all, 'exam-context'] as const,
+  examContext: (patientId: string) => [...recallKeys.examContexts(), patientId] as const,
   siteExams: (siteId: string) => [...recallKeys.all, 'site-exams', siteId] as const,
   policy: () => [...recallKeys.all, 'policy'] as const,
   reminders: () => [...recallKeys.all, 'reminders'] as const,

@@ -1,5 +1,6 @@
 import { Button, Card, Checkbox, Classes, FormGroup, HTMLSelect, InputGroup, Tag, TextArea } from '@blueprintjs/core';
 import { PROBING_POSITIONS, type ExamContext, type RecallExam } from '@torquetrail/contracts';
+import { boneLevelOfferFor } from '@torquetrail/domain';
 import { useFormContext, useWatch } from 'react-hook-form';
 import { PERI_IMPLANT_FLAG_LABEL, PROBING_POSITION_ABBREVIATION } from '../../../lib/clinical-labels';
 import { formatDate } from '../../../lib/dates';
@@ -51,12 +52,15 @@ function DepthError({ position, typed, path }: { position: string; typed: string
  */
 export function SiteExamCard({
   site,
+  examinedOn,
   name,
   errorPrefix,
   onAmendPrevious,
   amending = false,
 }: {
   site: Site;
+  /** The exam's date: the bone level offered is the latest measured on or before it. */
+  examinedOn: string;
   name: string;
   errorPrefix: string;
   /** Offered when the previous exam may be amended (hygienist). */
@@ -153,7 +157,8 @@ export function SiteExamCard({
             <FieldError as="div" className="field-error" name={`${errorPrefix}keratinizedMucosaMm`} />
             <FieldError as="div" className="field-error" name={`${errorPrefix}boneLevelMm`} />
             <MeasuredBoneLevel
-              offer={site.measuredBoneLevel}
+              offer={boneLevelOfferFor(site.measuredBoneLevels, examinedOn)}
+              examinedOn={examinedOn}
               fdi={fdi}
               accepted={boneLevelSourceId(draft) !== null}
               onAccept={(offer) => {

@@ -104,6 +104,7 @@ function ExamVisit({ data }: { data: ExamContext }) {
     drafts: Object.fromEntries(sites.map((s) => [s.siteId, emptyDraft()])),
   });
   const drafts = useWatch({ control: form.control, name: 'drafts' });
+  const examinedOn = useWatch({ control: form.control, name: 'examinedOn' });
   const included = sites.filter((s) => drafts[s.siteId]?.include);
   // The contract numbers the exams of the visit: the n-th implant included is `exams.<n>`.
   const errorPrefix = (siteId: string) => `exams.${included.findIndex((s) => s.siteId === siteId)}.`;
@@ -184,6 +185,7 @@ function ExamVisit({ data }: { data: ExamContext }) {
             <SiteExamCard
               key={s.siteId}
               site={s}
+              examinedOn={examinedOn}
               name={`drafts.${s.siteId}`}
               errorPrefix={errorPrefix(s.siteId)}
               onAmendPrevious={
@@ -252,6 +254,7 @@ function AmendForm({
         {/* The exam being amended is never its own baseline (the server excludes it too). */}
         <SiteExamCard
           site={site.baseline?.id === exam.id ? { ...site, baseline: null } : site}
+          examinedOn={exam.examinedOn}
           name="draft"
           errorPrefix=""
           amending
