@@ -3,7 +3,7 @@
 // - a page the role's ability does not allow says plainly "Not available to your role";
 // - a page it allows makes no request the API refuses (403: a dead control or a red error),
 //   shows no error callout, has no form the role cannot submit (editable fields and no submit
-//   button), and links only to pages the role may open.
+//   button), links only to pages the role may open, and never lets a chart number wrap.
 // A new page or a changed permission is covered without touching this test.
 import { defineAbilityFor, type AbilityUser } from '@torquetrail/authz';
 import type { Page } from 'playwright-core';
@@ -66,6 +66,17 @@ const deadForms = (page: Page) =>
       .map((form) => form.getAttribute('aria-label') ?? form.id ?? form.className),
   );
 
+/** Chart numbers (the demo's are like LL-1001) shown where a line may break inside them. */
+const breakableChartNumbers = (page: Page) =>
+  page.$$eval('main *', (elements) =>
+    elements
+      .filter((el) =>
+        [...el.childNodes].some((n) => n.nodeType === 3 && /\b[A-Z]{1,4}-\d{3,}\b/.test(n.textContent ?? '')),
+      )
+      .filter((el) => getComputedStyle(el).whiteSpace !== 'nowrap' && el.closest('input, textarea, select') === null)
+      .map((el) => (el.textContent ?? '').trim().slice(0, 60)),
+  );
+
 describe('every page, every role, as a URL typed by hand', () => {
   for (const [role, email] of Object.entries(ROLES)) {
     it(`${role}: allowed pages work, the others say so plainly`, { timeout: 300_000 }, async () => {
@@ -104,6 +115,7 @@ describe('every page, every role, as a URL typed by hand', () => {
           const errors = await page.locator('main .bp6-callout.bp6-intent-danger').allTextContents();
           problems.push(...errors.map((e) => `red error: ${e.slice(0, 120)}`));
           problems.push(...(await deadForms(page)).map((f) => `a form it cannot submit: ${f}`));
+          problems.push(...(await breakableChartNumbers(page)).map((t) => `a chart number that can wrap: ${t}`));
           const links = await page.$$eval('main a[href^="/"]', (as) => as.map((a) => a.getAttribute('href') ?? ''));
           for (const href of new Set(links)) {
             const target = pageOf(href);

@@ -3,6 +3,7 @@ import type { PatientDetail } from '@torquetrail/contracts';
 import { RECALL_RISK_FACTORS } from '@torquetrail/domain';
 import { RISK_FACTOR_LABEL } from '../../../lib/clinical-labels';
 import { ageInYears, formatDate } from '../../../lib/dates';
+import { ChartNumber } from '../../../lib/components/chart-number';
 
 type PatientRisk = keyof PatientDetail['riskFactors'];
 const isPatientRisk = (factor: string): factor is PatientRisk => factor !== 'priorPeriImplantitis';
@@ -18,7 +19,9 @@ export function PatientHeader({ patient }: { patient: PatientDetail }) {
       <dl className="fact-row">
         <div>
           <dt>Chart no.</dt>
-          <dd className="mono">{patient.chartNumber}</dd>
+          <dd>
+            <ChartNumber value={patient.chartNumber} />
+          </dd>
         </div>
         <div>
           <dt>Born</dt>

@@ -2,6 +2,7 @@ import { HTMLTable, Tag } from '@blueprintjs/core';
 import type { AuditEvent } from '@torquetrail/contracts';
 import { formatDateTime } from '../../../lib/dates';
 import { AUDIT_ACTION_LABEL, AUDIT_OUTCOME_LABEL, ROLE_LABEL } from '../../../lib/labels';
+import { ChartNumber } from '../../../lib/components/chart-number';
 
 /** What a row was about, in words: the route as declared is plain enough for an administrator. */
 const about = (e: AuditEvent) => [e.recordType, e.route].filter(Boolean).join(' · ');
@@ -37,7 +38,17 @@ export function AuditTable({ items, showPatient }: { items: AuditEvent[]; showPa
                 </Tag>
               )}
             </td>
-            {showPatient && <td>{e.patientName ? `${e.patientName} (${e.chartNumber})` : '—'}</td>}
+            {showPatient && (
+              <td>
+                {e.patientName ? (
+                  <>
+                    {e.patientName} (<ChartNumber value={e.chartNumber ?? ''} />)
+                  </>
+                ) : (
+                  '—'
+                )}
+              </td>
+            )}
             <td className="audit-table__record">{about(e) || '—'}</td>
             <td className="audit-table__from" title={e.userAgent ?? undefined}>
               {e.address ?? '—'}

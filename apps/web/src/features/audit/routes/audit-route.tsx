@@ -9,6 +9,7 @@ import { AUDIT_ACTION_LABEL, ROLE_LABEL } from '../../../lib/labels';
 import { auditSearch, usePatientChoices, usePracticeAudit } from '../api/audit-api';
 import type { AuditFilters } from '../api/keys';
 import { AuditTable } from '../components/audit-table';
+import { ChartNumber } from '../../../lib/components/chart-number';
 
 const ISO_DAY = /^\d{4}-\d{2}-\d{2}$/;
 
@@ -56,7 +57,7 @@ export function AuditRoute() {
             <option value="">All patients</option>
             {patients.data?.items.map((p) => (
               <option key={p.id} value={p.id}>
-                {p.familyName}, {p.givenName} ({p.chartNumber})
+                {p.familyName}, {p.givenName} (<ChartNumber value={p.chartNumber} />)
               </option>
             ))}
           </HTMLSelect>

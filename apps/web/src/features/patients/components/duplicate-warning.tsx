@@ -2,6 +2,7 @@ import { Button, Callout } from '@blueprintjs/core';
 import type { DuplicateCheckReply } from '@torquetrail/contracts';
 import { Link } from 'react-router-dom';
 import { formatDate } from '../../../lib/dates';
+import { ChartNumber } from '../../../lib/components/chart-number';
 
 /** The practice's patients with the same family name and birth date, shown before saving. */
 export function DuplicateWarning({
@@ -20,7 +21,7 @@ export function DuplicateWarning({
         {matches.map((m) => (
           <li key={m.id}>
             <Link to={`/patients/${m.id}`} target="_blank" rel="noopener">
-              {m.familyName}, {m.givenName} · {m.chartNumber} · born {formatDate(m.birthDate)}
+              {m.familyName}, {m.givenName} · <ChartNumber value={m.chartNumber} /> · born {formatDate(m.birthDate)}
               {m.archivedAt ? ' (archived)' : ''}
             </Link>
           </li>

@@ -17,6 +17,7 @@ import {
   PREFERRED_LANGUAGE_LABEL,
 } from '../../../lib/labels';
 import { usePatientVersions } from '../api/patient-records';
+import { ChartNumber } from '../../../lib/components/chart-number';
 
 type Stored = PatientVersion['changes'][number]['before'];
 
@@ -30,6 +31,13 @@ function shown(field: string, value: Stored): string {
     return PREFERRED_LANGUAGE_LABEL[value as PreferredLanguage];
   return String(value);
 }
+/** A stored value as shown in the History; a chart number never wraps. */
+const valueOf = (field: string, value: Stored) =>
+  field === 'chartNumber' && typeof value === 'string' && value !== '' ? (
+    <ChartNumber value={value} />
+  ) : (
+    shown(field, value)
+  );
 const fieldLabel = (field: string) => PATIENT_FIELD_LABEL[field as PatientVersionField] ?? field;
 
 /** Who changed what and when, oldest first (dentist and practice admin). */
@@ -73,10 +81,10 @@ export function HistoryPanel({ patientId }: { patientId: string }) {
                       <li key={c.field}>
                         {fieldLabel(c.field)}:{' '}
                         {v.kind === 'created' ? (
-                          shown(c.field, c.after)
+                          valueOf(c.field, c.after)
                         ) : (
                           <>
-                            <del>{shown(c.field, c.before)}</del> → <ins>{shown(c.field, c.after)}</ins>
+                            <del>{valueOf(c.field, c.before)}</del> → <ins>{valueOf(c.field, c.after)}</ins>
                           </>
                         )}
                       </li>

@@ -2,6 +2,7 @@ import { HTMLTable, Tag } from '@blueprintjs/core';
 import type { PatientListItem } from '@torquetrail/contracts';
 import { Link } from 'react-router-dom';
 import { ageInYears, formatDate } from '../../../lib/dates';
+import { ChartNumber } from '../../../lib/components/chart-number';
 
 /** Patients, one row each; the name is the row's link (mouse and keyboard). */
 export function PatientsTable({ patients }: { patients: readonly PatientListItem[] }) {
@@ -23,7 +24,9 @@ export function PatientsTable({ patients }: { patients: readonly PatientListItem
         <tbody>
           {patients.map((patient) => (
             <tr key={patient.id}>
-              <td className="mono">{patient.chartNumber}</td>
+              <td>
+                <ChartNumber value={patient.chartNumber} />
+              </td>
               <th scope="row">
                 <Link to={`/patients/${patient.id}`} className="row-link">
                   {patient.familyName}, {patient.givenName}

@@ -15,6 +15,7 @@ import { ArchiveControl } from '../components/archive-control';
 import { DuplicateWarning } from '../components/duplicate-warning';
 import { HistoryPanel } from '../components/history-panel';
 import { draftOf, draftToRecord, type PatientDraft, PatientForm } from '../components/patient-form';
+import { ChartNumber } from '../../../lib/components/chart-number';
 
 /** /patients/:patientId/edit: the record, its archive switch and its History. */
 export function EditPatientRoute() {
@@ -41,7 +42,10 @@ export function EditPatientRoute() {
         items={[{ text: 'Patients', to: '/patients' }, { text: name, to: `/patients/${p.id}` }, { text: 'Edit' }]}
       />
       <h1 className="page-title">
-        {name} <span className="mono muted">{p.chartNumber}</span>
+        {name}{' '}
+        <span className="muted">
+          <ChartNumber value={p.chartNumber} />
+        </span>
       </h1>
       {/* Keyed by the record's identity so a save elsewhere does not reset what is being typed. */}
       <EditForm key={p.id} patient={p} />

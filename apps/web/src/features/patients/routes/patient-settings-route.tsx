@@ -8,6 +8,7 @@ import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
 import { applyServerErrors, FormField, formErrorMessage, useContractForm, withInputRef } from '../../../lib/forms';
 import { usePatientSettings, useUpdatePatientSettings } from '../api/patient-records';
+import { ChartNumber } from '../../../lib/components/chart-number';
 
 /** /practice/patient-settings: the chart-number prefix of new patients (practice admin). */
 export function PatientSettingsRoute() {
@@ -53,7 +54,10 @@ function SettingsForm({ settings }: { settings: PatientSettingsReply }) {
         </FormField>
         <p data-testid="next-chart-number">
           The next new patient gets{' '}
-          <strong className="mono">{update.data?.nextChartNumber ?? settings.nextChartNumber}</strong>.
+          <strong>
+            <ChartNumber value={update.data?.nextChartNumber ?? settings.nextChartNumber} />
+          </strong>
+          .
         </p>
         <Can I="update" a="Practice">
           <Button type="submit" intent="primary" loading={update.isPending}>

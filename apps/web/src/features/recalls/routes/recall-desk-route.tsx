@@ -13,6 +13,7 @@ import { DESK_FILTER_LABEL, DESK_SORT_LABEL, MAINTENANCE_NOTE } from '../../../l
 import { MaintenanceStatusLabel } from '../../../lib/maintenance-status';
 import type { DeskParams } from '../api/keys';
 import { deskSearch, useRecallDesk } from '../api/recalls-api';
+import { ChartNumber } from '../../../lib/components/chart-number';
 
 type Sort = RecallDeskQuery['sort'];
 const PAGE_SIZE = 50;
@@ -142,7 +143,9 @@ export function RecallDeskRoute() {
                   <td>
                     <Link to={`/patients/${r.patientId}`}>{r.name}</Link>
                   </td>
-                  <td>{r.chartNumber}</td>
+                  <td>
+                    <ChartNumber value={r.chartNumber} />
+                  </td>
                   <td>{r.nextDueOn ? formatDate(r.nextDueOn) : '—'}</td>
                   <td className={r.overdueDays > 0 ? 'recall-overdue' : undefined}>
                     {r.overdueDays > 0 ? `${r.overdueDays} days` : '—'}

@@ -6,6 +6,7 @@ import { LoadingState } from '../../../lib/components/loading-state';
 import { formatDate, formatDateTime } from '../../../lib/dates';
 import { REMINDER_KIND_LABEL, REMINDER_STATUS_LABEL } from '../../../lib/labels';
 import { useReminderLog, useRunReminders } from '../api/recalls-api';
+import { ChartNumber } from '../../../lib/components/chart-number';
 
 /** /recalls/reminders: every reminder e-mail, once per patient, recall date and kind (practice admin). */
 export function ReminderLogRoute() {
@@ -51,7 +52,7 @@ export function ReminderLogRoute() {
             {log.data.items.map((r) => (
               <tr key={r.id}>
                 <td>
-                  {r.patientName} ({r.chartNumber})
+                  {r.patientName} (<ChartNumber value={r.chartNumber} />)
                 </td>
                 <td>{formatDate(r.recallDueOn)}</td>
                 <td>{REMINDER_KIND_LABEL[r.kind]}</td>
