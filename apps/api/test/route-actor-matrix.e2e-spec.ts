@@ -162,6 +162,8 @@ const dentistWrite = (ok: number) => every(403, { dentist: ok, otherPracticeDent
 /** Placements: the dentist and the surgeon through a share. */
 const placementWrite = (ok: number) =>
   every(403, { dentist: ok, surgeon: ok, surgeonNoShare: 404, otherPracticeDentist: 404 });
+/** The lot look-up: the dentist and the admin, each over their own practice only. */
+const lotLookup = every(403, { dentist: 200, practice_admin: 200, otherPracticeDentist: 200 });
 const one = (c: Omit<Case, 'target'>, target = 'shared Larkspur record'): Case[] => [{ target, ...c }];
 
 const TABLE: Record<string, Case[]> = {
@@ -466,6 +468,15 @@ const TABLE: Record<string, Case[]> = {
   'GET /api/sites/:id/timeline': one({ path: () => `/api/sites/${ids.harold35}/timeline`, expect: sharedRead }),
   'GET /api/recalls/desk': one({ path: () => '/api/recalls/desk', expect: every(200) }, 'scoped list'),
   'GET /api/recalls/desk/csv': one({ path: () => '/api/recalls/desk/csv', expect: every(200) }, 'scoped list'),
+  'GET /api/lot-lookup': one(
+    { path: () => '/api/lot-lookup?by=lot&q=SCN4310-12A07', expect: lotLookup },
+    "the practice's own parts",
+  ),
+  'GET /api/lot-lookup/csv': one(
+    { path: () => '/api/lot-lookup/csv?by=lot&q=SCN4310-12A07', expect: lotLookup },
+    "the practice's own parts",
+  ),
+  'GET /api/outcomes': one({ path: () => '/api/outcomes', expect: every(200, { hygienist: 403 }) }, 'scoped list'),
   'GET /api/recalls/patients/:id/exam-context': one({
     path: () => `/api/recalls/patients/${ids.harold}/exam-context`,
     expect: sharedRead,

@@ -21,6 +21,10 @@ import {
   type ReminderStatus,
   type SiteStatus,
   type TimelineKind,
+  type LotLookupKind,
+  type LotItemKind,
+  type OutcomeGrouping,
+  type ImplantOutcome,
 } from '@torquetrail/contracts';
 
 export const ROLE_LABEL: Record<Role, string> = {
@@ -204,4 +208,27 @@ export const AUDIT_OUTCOME_LABEL: Record<AuditOutcome, string> = {
   allowed: 'Done',
   refused: 'Refused',
   failed: 'Failed',
+};
+
+export const LOT_LOOKUP_KIND_LABEL: Record<LotLookupKind, string> = {
+  lot: 'Lot number',
+  gtin: 'GTIN',
+  part: 'Catalogue reference',
+  udi: 'Pasted UDI',
+};
+
+export const LOT_ITEM_KIND_LABEL: Record<LotItemKind, string> = {
+  implant: 'Implant',
+  part: 'Part',
+};
+
+export const OUTCOME_GROUPING_LABEL: Record<OutcomeGrouping, string> = {
+  system: 'Implant system',
+  retention: 'Restoration retention',
+};
+
+export const IMPLANT_OUTCOME_LABEL: Record<ImplantOutcome, string> = {
+  'in-function': 'In function',
+  failed: 'Failed',
+  removed: 'Removed',
 };
