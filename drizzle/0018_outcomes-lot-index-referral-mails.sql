@@ -22,7 +22,7 @@ ALTER TABLE "referral_summary_mails" ADD CONSTRAINT "referral_summary_mails_shar
 ALTER TABLE "referral_summary_mails" ADD CONSTRAINT "referral_summary_mails_requested_by_users_id_fk" FOREIGN KEY ("requested_by") REFERENCES "public"."users"("id") ON DELETE no action ON UPDATE no action;--> statement-breakpoint
 CREATE UNIQUE INDEX "referral_summary_mails_idempotency_unique" ON "referral_summary_mails" USING btree ("practice_id","idempotency_key");--> statement-breakpoint
 CREATE INDEX "referral_summary_mails_patient_idx" ON "referral_summary_mails" USING btree ("patient_id","requested_at");--> statement-breakpoint
-CREATE INDEX "referral_summary_mails_pending_idx" ON "referral_summary_mails" USING btree ("status") WHERE "referral_summary_mails"."status" = 'pending';--> statement-breakpoint
+CREATE UNIQUE INDEX "referral_summary_mails_one_pending" ON "referral_summary_mails" USING btree ("share_id") WHERE "referral_summary_mails"."status" = 'pending';--> statement-breakpoint
 CREATE INDEX "components_practice_reference_idx" ON "components" USING btree ("practice_id","reference_code");--> statement-breakpoint
 CREATE INDEX "placements_practice_lot_idx" ON "placements" USING btree ("practice_id","lot") WHERE "placements"."lot" is not null;--> statement-breakpoint
 CREATE INDEX "placements_practice_gtin_idx" ON "placements" USING btree ("practice_id","gtin") WHERE "placements"."gtin" is not null;--> statement-breakpoint

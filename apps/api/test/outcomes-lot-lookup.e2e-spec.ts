@@ -138,6 +138,9 @@ describe('how the implants do (outcomes)', () => {
     expect(failed.followUpYears).toBeCloseTo(83 / 365.25, 2);
     expect(body.implants.map((i) => i.placedOn).sort()[0]).toBe('2012-03-14');
     expect(body.implants.every((i) => i.chartNumber.startsWith('LL-'))).toBe(true);
+    const harold35 = body.implants.find((i) => i.chartNumber === 'LL-1001' && i.fdi === 35)!;
+    expect(harold35).toMatchObject({ outcome: 'in-function', retention: 'screw-to-implant', boneChangeMm: 0.3 });
+    expect(harold35.boneChangeSince! > '2012-09-20').toBe(true);
     const okafor = body.implants.find((i) => i.chartNumber === 'LL-1003')!;
     expect(okafor).toMatchObject({ outcome: 'in-function', periImplantStatus: 'peri-implantitis' });
     const solvra = body.curves.find((c) => c.group === 'Solvra CN')!;

@@ -199,6 +199,8 @@ export const TIMELINE_KINDS = [
   'radiograph',
   'bone-level',
   'seating-check',
+  // The patient's referral summary e-mailed to a share's surgeon: on the Timeline of each site.
+  'referral-summary',
 ] as const;
 export const TimelineKind = z.enum(TIMELINE_KINDS);
 export type TimelineKind = z.infer<typeof TimelineKind>;

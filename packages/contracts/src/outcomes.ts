@@ -69,8 +69,10 @@ export const OutcomeImplant = z.object({
   followUpYears: z.number().nullable(),
   periImplantStatus: PeriImplantStatus.nullable(),
   periImplantOn: IsoDate.nullable(),
-  /** Latest bone level minus the reading closest to loading; positive = bone lost. */
+  /** Latest bone level minus the reference reading (closest to loading, else first after); positive = bone lost. */
   boneChangeMm: z.number().nullable(),
+  /** The date of the reference reading. */
+  boneChangeSince: IsoDate.nullable(),
   complications: z.number().int(),
 });
 export type OutcomeImplant = z.infer<typeof OutcomeImplant>;
@@ -164,5 +166,27 @@ export const outcomeRoutes: RouteContract[] = [
     signedIn: true,
     query: OutcomesQuery,
     reply: OutcomesReply,
+  },
+  {
+    method: 'get',
+    path: '/patients/:id/referral-summary',
+    summary: "The patient's referral summary: whom it can be sent to, and the mails sent so far",
+    signedIn: true,
+    reply: ReferralSummaryState,
+  },
+  {
+    method: 'get',
+    path: '/patients/:id/referral-summary/pdf',
+    summary: "Download the patient's referral summary (placement, restoration, last recall, bone-level trend)",
+    signedIn: true,
+    produces: 'application/pdf',
+  },
+  {
+    method: 'post',
+    path: '/patients/:id/referral-summary/mails',
+    summary: "E-mail the referral summary to a share's surgeon through the job queue (same key twice: sent once)",
+    signedIn: true,
+    body: ReferralSummaryMailBody,
+    reply: ReferralSummaryMail,
   },
 ];

@@ -7,7 +7,6 @@ import type {
   SurvivalCurve,
 } from '@torquetrail/contracts';
 import {
-  albrektssonReference,
   type BoneLevelReading,
   eventsPer100ImplantYears,
   followUpYears,
@@ -17,20 +16,18 @@ import {
 } from '@torquetrail/domain';
 import type { Scope } from '../authz/scope.js';
 import { DB, type Database } from '../db/database.js';
+import { boneChangeSinceLoading } from './bone-change.js';
 import { boneLevelsOfSites, type ImplantRow, listImplants } from './outcomes.repository.js';
+
+function boneChange(readings: BoneLevelReading[], loadedOn: string | null) {
+  const change = boneChangeSinceLoading(readings, loadedOn);
+  return { boneChangeMm: change?.mm ?? null, boneChangeSince: change?.since ?? null };
+}
 
 const round = (n: number, places: number) => Math.round(n * 10 ** places) / 10 ** places;
 
 const outcomeOf = (row: ImplantRow): ImplantOutcome =>
   row.status === 'failed' ? 'failed' : row.status === 'removed' ? 'removed' : 'in-function';
-
-/** Latest bone level minus the reading closest to loading (±90 days); null without either. */
-function boneChangeMm(readings: BoneLevelReading[], loadedOn: string | null): number | null {
-  if (!loadedOn || readings.length === 0) return null;
-  const reference = albrektssonReference(readings, loadedOn);
-  if (!reference) return null;
-  return round(readings[readings.length - 1].boneLevelMm - reference.boneLevelMm, 2);
-}
 
 @Injectable()
 export class OutcomesService {
@@ -63,7 +60,7 @@ export class OutcomesService {
         followUpYears: end && end >= r.placedOn ? round(followUpYears(r.placedOn, end), 2) : null,
         periImplantStatus: outcome === 'in-function' ? r.examStatus : null,
         periImplantOn: outcome === 'in-function' ? r.examinedOn : null,
-        boneChangeMm: boneChangeMm(bone.get(r.siteId) ?? [], r.deliveredOn),
+        ...boneChange(bone.get(r.siteId) ?? [], r.deliveredOn),
         complications: r.complications,
       };
     });

@@ -75,6 +75,7 @@ export const TIMELINE_KIND_LABEL: Record<TimelineKind, string> = {
   radiograph: 'Radiograph',
   'bone-level': 'Bone level',
   'seating-check': 'Seating check',
+  'referral-summary': 'Referral summary',
 };
 
 export const DESK_FILTER_LABEL: Record<DeskFilter, string> = {

@@ -38,8 +38,9 @@ export const referralSummaryMails = pgTable(
   (t) => [
     uniqueIndex('referral_summary_mails_idempotency_unique').on(t.practiceId, t.idempotencyKey),
     index('referral_summary_mails_patient_idx').on(t.patientId, t.requestedAt),
-    index('referral_summary_mails_pending_idx')
-      .on(t.status)
+    // One request waiting per share: pressing again while one waits adds nothing.
+    uniqueIndex('referral_summary_mails_one_pending')
+      .on(t.shareId)
       .where(sql`${t.status} = 'pending'`),
   ],
 );
