@@ -94,6 +94,18 @@ export const router = createBrowserRouter([
             }),
           },
           {
+            path: 'outcomes',
+            lazy: async () => ({
+              Component: (await import('../features/outcomes/routes/outcomes-route')).OutcomesRoute,
+            }),
+          },
+          {
+            path: 'lot-lookup',
+            lazy: async () => ({
+              Component: (await import('../features/outcomes/routes/lot-lookup-route')).LotLookupRoute,
+            }),
+          },
+          {
             path: 'catalogue',
             lazy: async () => ({
               Component: (await import('../features/catalogue/routes/catalogue-route')).CatalogueRoute,
