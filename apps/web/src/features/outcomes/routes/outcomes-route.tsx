@@ -111,7 +111,9 @@ export function OutcomesRoute() {
                   <td>
                     {i.boneChangeMm === null
                       ? '—'
-                      : `${i.boneChangeMm > 0 ? 'loss' : 'gain'} ${Math.abs(i.boneChangeMm).toFixed(1)} mm since ${formatDate(i.boneChangeSince!)}`}
+                      : i.boneChangeMm === 0
+                        ? `no change since ${formatDate(i.boneChangeSince!)}`
+                        : `${i.boneChangeMm > 0 ? 'loss' : 'gain'} ${Math.abs(i.boneChangeMm).toFixed(1)} mm since ${formatDate(i.boneChangeSince!)}`}
                   </td>
                 </tr>
               ))}
