@@ -3,7 +3,7 @@
 // placements_practice_lot_idx, placements_practice_gtin_idx, component_instances_practice_lot_idx,
 // components_practice_reference_idx + component_instances_component_idx (see the EXPLAIN test).
 import { sql, type SQL } from 'drizzle-orm';
-import type { LotLookupRow } from '@torquetrail/contracts';
+import type { LotItemKind, LotLookupRow } from '@torquetrail/contracts';
 import type { Db } from '../db/database.js';
 
 /** What to match; null fields are not asked about. A UDI gives a GTIN and usually a lot. */
@@ -64,7 +64,7 @@ export async function lookUpLots(db: Db, practiceId: string, c: LotCriteria): Pr
     patient_name: string;
     site_id: string;
     fdi: number;
-    item: 'implant' | 'part';
+    item: LotItemKind;
     component_kind: LotLookupRow['componentKind'];
     part: string;
     reference_code: string | null;

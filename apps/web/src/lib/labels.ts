@@ -218,6 +218,14 @@ export const LOT_LOOKUP_KIND_LABEL: Record<LotLookupKind, string> = {
   udi: 'Pasted UDI',
 };
 
+/** What to type for each kind of look-up (the hint under the field). */
+export const LOT_LOOKUP_KIND_HELP: Record<LotLookupKind, string> = {
+  lot: 'The lot (batch) number printed on the notice, exactly as on the label',
+  gtin: 'The 8 to 14 digits of the GTIN',
+  part: "The catalogue reference of a part, as in this practice's catalogue",
+  udi: 'Scan or paste the whole UDI from the label, e.g. (01)…(10)…',
+};
+
 export const LOT_ITEM_KIND_LABEL: Record<LotItemKind, string> = {
   implant: 'Implant',
   part: 'Part',

@@ -10,15 +10,8 @@ import { LoadingState } from '../../../lib/components/loading-state';
 import { formatDate } from '../../../lib/dates';
 import { applyServerErrors, FormField, useContractForm, withInputRef } from '../../../lib/forms';
 import { isApiError } from '../../../lib/api-client';
-import { LOT_ITEM_KIND_LABEL, LOT_LOOKUP_KIND_LABEL } from '../../../lib/labels';
+import { LOT_ITEM_KIND_LABEL, LOT_LOOKUP_KIND_HELP, LOT_LOOKUP_KIND_LABEL } from '../../../lib/labels';
 import { lotSearch, useLotLookup } from '../api/outcomes-api';
-
-const HELP: Record<LotLookupKind, string> = {
-  lot: 'The lot (batch) number printed on the notice, exactly as on the label',
-  gtin: 'The 8 to 14 digits of the GTIN',
-  part: "The catalogue reference of a part, as in this practice's catalogue",
-  udi: 'Scan or paste the whole UDI from the label, e.g. (01)…(10)…',
-};
 
 /** /lot-lookup: which patients received an implant or part named by a field safety notice. */
 export function LotLookupRoute() {
@@ -55,7 +48,7 @@ export function LotLookupRoute() {
               ))}
             </HTMLSelect>
           </FormField>
-          <FormField name="q" label={LOT_LOOKUP_KIND_LABEL[by]} labelFor="lot-q" help={HELP[by]}>
+          <FormField name="q" label={LOT_LOOKUP_KIND_LABEL[by]} labelFor="lot-q" help={LOT_LOOKUP_KIND_HELP[by]}>
             {(a11y) => <InputGroup id="lot-q" {...a11y} {...withInputRef(form.register('q'))} />}
           </FormField>
           <Button type="submit" intent="primary" text="Look up" loading={found.isFetching} />
