@@ -26,6 +26,7 @@ import { StorageModule } from './storage/storage.module.js';
 import { RadiographsModule } from './radiographs/radiographs.module.js';
 import { SeatingModule } from './seating/seating.module.js';
 import { PeopleModule } from './people/people.module.js';
+import { OutcomesModule } from './outcomes/outcomes.module.js';
 
 @Module({})
 export class AppModule {
@@ -46,6 +47,7 @@ export class AppModule {
         CatalogueModule,
         RestorationsModule,
         LabPrescriptionsModule,
+        OutcomesModule,
         TorqueModule,
         PlacementsModule,
         ComplicationsModule,

@@ -8,7 +8,7 @@ import { sql } from 'drizzle-orm';
 import fc from 'fast-check';
 import { afterAll, describe, expect, it } from 'vitest';
 import { z } from 'zod';
-import { components, implantSites, patients, platforms } from '../src/db/schema/index.js';
+import { components, implantSites, patientShares, patients, platforms } from '../src/db/schema/index.js';
 import {
   arbitraryFor,
   hostileValue,
@@ -34,6 +34,7 @@ const uuids = [
   ...(await ctx.db.select({ id: implantSites.id }).from(implantSites)),
   ...(await ctx.db.select({ id: platforms.id }).from(platforms)),
   ...(await ctx.db.select({ id: components.id }).from(components)),
+  ...(await ctx.db.select({ id: patientShares.id }).from(patientShares)),
   { id: t.haroldScrew.id },
   { id: t.wrench.id },
 ].map((r) => r.id);
@@ -111,6 +112,10 @@ const TARGETS: Record<string, { as: AccountKey | null; path: string }> = {
   'POST /restorations/:id/lab-prescriptions': {
     as: 'dentist',
     path: `/api/restorations/${t.haroldBridge}/lab-prescriptions`,
+  },
+  'POST /patients/:id/referral-summary/mails': {
+    as: 'dentist',
+    path: `/api/patients/${t.ids.harold}/referral-summary/mails`,
   },
   'POST /torque-events': { as: 'dentist', path: '/api/torque-events' },
   'POST /torque-events/:id/amendments': {

@@ -8,7 +8,7 @@
 import { apiRoutes } from '@torquetrail/contracts';
 import { eq } from 'drizzle-orm';
 import { afterAll, describe, expect, it } from 'vitest';
-import { invitations, users } from '../src/db/schema/index.js';
+import { invitations, patientShares, users } from '../src/db/schema/index.js';
 import { AUDIT_EXPECTATIONS, auditChecks, expectAuditRows, nextXid } from './support/audit-expectations.js';
 import { actorCookies, all, type Expected } from './support/role-matrix.js';
 import { ACCOUNTS, patientId, startTestApp } from './support/test-app.js';
@@ -162,6 +162,14 @@ const dentistWrite = (ok: number) => every(403, { dentist: ok, otherPracticeDent
 /** Placements: the dentist and the surgeon through a share. */
 const placementWrite = (ok: number) =>
   every(403, { dentist: ok, surgeon: ok, surgeonNoShare: 404, otherPracticeDentist: 404 });
+const [haroldShare] = await ctx.db
+  .select({ id: patientShares.id })
+  .from(patientShares)
+  .where(eq(patientShares.patientId, ids.harold));
+/** The referral summary: read by the practice and the shared surgeon; sent by the dentist and admin. */
+const referralRead = every(200, { hygienist: 403, surgeonNoShare: 403, otherPracticeDentist: 404 });
+/** The lot look-up: the dentist and the admin, each over their own practice only. */
+const lotLookup = every(403, { dentist: 200, practice_admin: 200, otherPracticeDentist: 200 });
 const one = (c: Omit<Case, 'target'>, target = 'shared Larkspur record'): Case[] => [{ target, ...c }];
 
 const TABLE: Record<string, Case[]> = {
@@ -466,6 +474,28 @@ const TABLE: Record<string, Case[]> = {
   'GET /api/sites/:id/timeline': one({ path: () => `/api/sites/${ids.harold35}/timeline`, expect: sharedRead }),
   'GET /api/recalls/desk': one({ path: () => '/api/recalls/desk', expect: every(200) }, 'scoped list'),
   'GET /api/recalls/desk/csv': one({ path: () => '/api/recalls/desk/csv', expect: every(200) }, 'scoped list'),
+  'GET /api/lot-lookup': one(
+    { path: () => '/api/lot-lookup?by=lot&q=SCN4310-12A07', expect: lotLookup },
+    "the practice's own parts",
+  ),
+  'GET /api/lot-lookup/csv': one(
+    { path: () => '/api/lot-lookup/csv?by=lot&q=SCN4310-12A07', expect: lotLookup },
+    "the practice's own parts",
+  ),
+  'GET /api/patients/:id/referral-summary': one({
+    path: () => `/api/patients/${ids.harold}/referral-summary`,
+    expect: referralRead,
+  }),
+  'GET /api/patients/:id/referral-summary/pdf': one({
+    path: () => `/api/patients/${ids.harold}/referral-summary/pdf`,
+    expect: referralRead,
+  }),
+  'POST /api/patients/:id/referral-summary/mails': one({
+    path: () => `/api/patients/${ids.harold}/referral-summary/mails`,
+    body: () => ({ shareId: haroldShare.id, idempotencyKey: crypto.randomUUID() }),
+    expect: every(403, { dentist: 201, practice_admin: 201, otherPracticeDentist: 404 }),
+  }),
+  'GET /api/outcomes': one({ path: () => '/api/outcomes', expect: every(200, { hygienist: 403 }) }, 'scoped list'),
   'GET /api/recalls/patients/:id/exam-context': one({
     path: () => `/api/recalls/patients/${ids.harold}/exam-context`,
     expect: sharedRead,

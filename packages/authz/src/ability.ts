@@ -43,6 +43,12 @@ export type Subject =
   | 'AuditEntry'
   /** One patient's audit rows ("who accessed this record"): the dentist's and the admin's. */
   | 'PatientAudit'
+  /** The lot look-up across the practice's patients (a field safety notice): dentist and admin. */
+  | 'LotTrace'
+  /** How the implants do (a practice audit): the practice's, or the surgeon's shared patients. */
+  | 'Outcomes'
+  /** A patient's referral summary for the surgeon of a share: drawn, downloaded, e-mailed. */
+  | 'ReferralSummary'
   | 'all';
 
 /** A loaded row checked with `subject(type, row)`; only these fields take part in conditions. */
@@ -100,6 +106,8 @@ export function defineAbilityFor(user: AbilityUser): AppAbility {
       can(['read', 'create', 'amend'], 'Radiograph', own);
       can(['read', 'create', 'update'], 'Share', own);
       can('read', 'PatientAudit', own);
+      can('read', ['LotTrace', 'Outcomes'], own);
+      can(['read', 'create'], 'ReferralSummary', own);
       break;
     case 'hygienist':
       can('read', 'Practice', { id: user.practiceId });
@@ -116,12 +124,14 @@ export function defineAbilityFor(user: AbilityUser): AppAbility {
       can('read', PATIENT_RECORD, own);
       can(['create', 'amend'], ['ImplantSite', 'Placement', 'Radiograph'], own);
       can('read', 'Catalogue', own);
+      can('read', 'Outcomes', own);
       // Another practice's patient only through a share, and never the rest of the chart.
       const shared = [...user.sharedPatientIds];
       if (shared.length > 0) {
         can('read', 'Patient', { id: { $in: shared } });
         can('read', PATIENT_RECORD, { patientId: { $in: shared } });
         can(['create', 'amend'], ['Placement', 'Radiograph'], { patientId: { $in: shared } });
+        can('read', 'ReferralSummary', { patientId: { $in: shared } });
       }
       break;
     }
@@ -132,7 +142,8 @@ export function defineAbilityFor(user: AbilityUser): AppAbility {
       can('read', 'PatientVersion', own);
       can('read', PATIENT_RECORD, own);
       can(['read', 'create', 'update'], ['Catalogue', 'Wrench', 'RecallPolicy'], own);
-      can('read', ['AuditEntry', 'PatientAudit', 'Share'], own);
+      can('read', ['AuditEntry', 'PatientAudit', 'Share', 'LotTrace', 'Outcomes'], own);
+      can(['read', 'create'], 'ReferralSummary', own);
       break;
   }
   return build();

@@ -199,6 +199,8 @@ export const TIMELINE_KINDS = [
   'radiograph',
   'bone-level',
   'seating-check',
+  // The patient's referral summary e-mailed to a share's surgeon: on the Timeline of each site.
+  'referral-summary',
 ] as const;
 export const TimelineKind = z.enum(TIMELINE_KINDS);
 export type TimelineKind = z.infer<typeof TimelineKind>;
@@ -280,3 +282,23 @@ export type RadiographPreviewStatus = z.infer<typeof RadiographPreviewStatus>;
 export const INVITATION_STATUSES = ['pending', 'expired', 'accepted', 'revoked'] as const;
 export const InvitationStatus = z.enum(INVITATION_STATUSES);
 export type InvitationStatus = z.infer<typeof InvitationStatus>;
+
+// ---- lot look-up and outcomes (the referring surgeon's views) ----------------------------------
+/** What the look-up text is: a lot, a GTIN, a catalogue part (reference code) or a whole UDI. */
+export const LOT_LOOKUP_KINDS = ['lot', 'gtin', 'part', 'udi'] as const;
+export const LotLookupKind = z.enum(LOT_LOOKUP_KINDS);
+export type LotLookupKind = z.infer<typeof LotLookupKind>;
+
+/** Where a part is: an implant, or a part of the restoration stack. */
+export const LOT_ITEM_KINDS = ['implant', 'part'] as const;
+export const LotItemKind = z.enum(LOT_ITEM_KINDS);
+export type LotItemKind = z.infer<typeof LotItemKind>;
+
+export const OUTCOME_GROUPINGS = ['system', 'retention'] as const;
+export const OutcomeGrouping = z.enum(OUTCOME_GROUPINGS);
+export type OutcomeGrouping = z.infer<typeof OutcomeGrouping>;
+
+/** In function while in the mouth, whatever its condition (reference §11); failed or removed when out. */
+export const IMPLANT_OUTCOMES = ['in-function', 'failed', 'removed'] as const;
+export const ImplantOutcome = z.enum(IMPLANT_OUTCOMES);
+export type ImplantOutcome = z.infer<typeof ImplantOutcome>;

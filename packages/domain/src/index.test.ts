@@ -190,6 +190,45 @@ describe('package root answers through the public API', () => {
     ['addCalendarDays', () => domain.addCalendarDays('2028-02-28', 1), '2028-02-29'],
     // restoration-plan.test.ts (a cemented crown is not retrievable by a screw [common practice])
     ['isRetrievable', () => domain.isRetrievable('cement-on-abutment'), false],
+    // survival.test.ts (Bewick et al. 2004, Crit Care 8:389, Table 2 [pub]): 0.750 … 0.000
+    [
+      'kaplanMeier',
+      () =>
+        domain
+          .kaplanMeier([
+            ...[1, 1, 4, 5, 9, 22].map((time) => ({ time, event: true })),
+            ...[6, 9].map((time) => ({ time, event: false })),
+          ])
+          .steps.map((s) => Math.round(s.survival * 1000) / 1000),
+      [0.75, 0.625, 0.5, 0.5, 0.333, 0],
+    ],
+    [
+      'survivalAt',
+      () =>
+        domain.survivalAt(
+          domain.kaplanMeier([
+            { time: 1, event: true },
+            { time: 2, event: false },
+          ]),
+          1.5,
+        ),
+      0.5,
+    ],
+    [
+      'numberAtRisk',
+      () =>
+        domain.numberAtRisk(
+          [
+            { time: 1, event: true },
+            { time: 2, event: false },
+          ],
+          2,
+        ),
+      1,
+    ],
+    // survival.test.ts (reference §11 [derived]): 6 events over 480 implant-years → 1.25
+    ['eventsPer100ImplantYears', () => domain.eventsPer100ImplantYears(6, 480), 1.25],
+    ['followUpYears', () => domain.followUpYears('2024-01-01', '2025-01-01'), 366 / 365.25],
   ])('%s', (_name, call, expected) => {
     expect(call()).toEqual(expected);
   });

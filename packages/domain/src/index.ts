@@ -251,3 +251,10 @@ export {
   DEFAULT_OVERDUE_REMINDER_DAYS_AFTER,
 } from './recall-reminders.js';
 export type { ReminderKind, ReminderPolicy } from './recall-reminders.js';
+
+// ---- survival and rates (outcomes view) ----------------------------------------------------
+/** Kaplan–Meier product-limit estimate with number at risk and Greenwood SE. */
+export { kaplanMeier, survivalAt, numberAtRisk } from './survival.js';
+/** Follow-up years between dates (÷ 365.25) and events per 100 implant-years. */
+export { followUpYears, eventsPer100ImplantYears, DAYS_PER_YEAR } from './survival.js';
+export type { SurvivalObservation, KaplanMeierStep, KaplanMeierResult } from './survival.js';

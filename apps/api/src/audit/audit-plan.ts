@@ -22,6 +22,9 @@ const PATIENT_DATA: ReadonlySet<Subject> = new Set<Subject>([
   'Share',
   'AuditEntry',
   'PatientAudit',
+  'LotTrace',
+  'Outcomes',
+  'ReferralSummary',
 ]);
 
 /** The audit action of a write, from the route's `@Allow(action, subject)`. */

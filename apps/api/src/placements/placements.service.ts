@@ -45,6 +45,17 @@ function assertSiteCurrent(status: string | undefined) {
     throw new ConflictException(`This site is ${status ?? 'gone'}, not planned: amend the recorded placement instead`);
 }
 
+/** The GTIN of a UDI that checkFields has accepted, stored for the lot look-up's index. */
+function gtinOf(udi: string | null | undefined): string | null {
+  if (!udi) return null;
+  try {
+    return parseUdi(udi).gtin;
+  } catch (e) {
+    if (e instanceof UdiError) return null;
+    throw e;
+  }
+}
+
 @Injectable()
 export class PlacementsService {
   constructor(@Inject(DB) private readonly db: Database) {}
@@ -267,6 +278,7 @@ export class PlacementsService {
       lengthMm: body.lengthMm,
       lot,
       udi: body.udi,
+      gtin: gtinOf(body.udi),
       insertionTorqueNcm: body.insertionTorqueNcm,
       stabilityIsq: body.stabilityIsq,
       grafting: body.grafting,

@@ -80,7 +80,10 @@ export class RestorationsService {
   async restorableSites(ability: AppAbility, scope: Scope, patientId: string): Promise<RestorableSitesReply> {
     const patient = await this.visiblePatient(ability, scope, patientId);
     assertCan(ability, 'read', 'ImplantSite', { practiceId: patient.practiceId, patientId: patient.id }, 'patient');
-    const rows = await repo.listRestorableSites(this.db, patient.id);
+    // A failed or removed implant is out of the mouth: nothing can be restored on it.
+    const rows = (await repo.listRestorableSites(this.db, patient.id)).filter(
+      (s) => s.status !== 'failed' && s.status !== 'removed',
+    );
     return {
       items: rows.map((s) => ({
         siteId: s.siteId,

@@ -11,7 +11,7 @@ import type {
   TorqueReason,
 } from '@torquetrail/contracts';
 import { PATIENT_RECORD_FIELDS } from '@torquetrail/contracts';
-import { addCalendarDays as addDays, RULES_VERSION, torqueVerdict } from '@torquetrail/domain';
+import { addCalendarDays as addDays, parseUdi, RULES_VERSION, torqueVerdict } from '@torquetrail/domain';
 import type { Tx } from '../db/database.js';
 import { hashPassword } from '../auth/password.js';
 import {
@@ -83,10 +83,13 @@ interface Ctx {
   wrenchIds: string[];
 }
 
-async function addSite(ctx: Ctx, patientId: string, fdi: number, status: SiteStatus) {
+/** An invented GS1 UDI (GTIN under the GS1 demonstration prefix 950) on the label of Harold's implants. */
+const HAROLD_IMPLANT_UDI = '(01)09506012345012(17)170228(10)SCN4310-12A07';
+
+async function addSite(ctx: Ctx, patientId: string, fdi: number, status: SiteStatus, endedOn?: string) {
   const [site] = await ctx.tx
     .insert(implantSites)
-    .values({ practiceId: ctx.practiceId, patientId, fdi, status })
+    .values({ practiceId: ctx.practiceId, patientId, fdi, status, endedOn })
     .returning({ id: implantSites.id });
   return site.id;
 }
@@ -100,6 +103,8 @@ async function place(
     placedOn: string;
     lengthMm: number;
     lot: string;
+    /** The UDI read from the implant's label, when it was scanned. */
+    udi?: string;
     insertionTorqueNcm: number;
     isq: number;
     surgeon?: 'imbert' | 'former';
@@ -118,6 +123,8 @@ async function place(
     surgeonName: imbert ? 'Dr Rafael Imbert (Northgate Oral Surgery)' : 'Dr Selma Voss (former associate)',
     lengthMm: p.lengthMm,
     lot: p.lot,
+    udi: p.udi,
+    gtin: p.udi ? parseUdi(p.udi).gtin : null,
     insertionTorqueNcm: p.insertionTorqueNcm,
     stabilityIsq: p.isq,
     loadingProtocol: p.loading ?? 'conventional',
@@ -349,7 +356,22 @@ export async function seedDemoScenario(tx: Tx, today: string): Promise<{ summary
   });
   const h35 = await addSite(ctx, harold, 35, 'restored');
   const h37 = await addSite(ctx, harold, 37, 'restored');
-  sites += 2;
+  // 36 did not integrate and came out after twelve weeks; the bridge spans the gap. It is the
+  // demo's failed implant (the outcomes curve) and shares its lot with 35 and 37 (the lot look-up).
+  const h36 = await addSite(ctx, harold, 36, 'failed', '2012-06-05');
+  sites += 3;
+  await place(ctx, {
+    patientId: harold,
+    siteId: h36,
+    platform: 'SCN-4.3',
+    placedOn: '2012-03-14',
+    lengthMm: 10,
+    lot: 'SCN4310-12A07',
+    udi: HAROLD_IMPLANT_UDI,
+    insertionTorqueNcm: 20,
+    isq: 52,
+    axis: [0, 0, 1],
+  });
   await place(ctx, {
     patientId: harold,
     siteId: h35,
@@ -357,6 +379,7 @@ export async function seedDemoScenario(tx: Tx, today: string): Promise<{ summary
     placedOn: '2012-03-14',
     lengthMm: 10,
     lot: 'SCN4310-12A07',
+    udi: HAROLD_IMPLANT_UDI,
     insertionTorqueNcm: 40,
     isq: 72,
     axis: [0, 0.05, 1],
@@ -368,6 +391,7 @@ export async function seedDemoScenario(tx: Tx, today: string): Promise<{ summary
     placedOn: '2012-03-14',
     lengthMm: 10,
     lot: 'SCN4310-12A07',
+    udi: HAROLD_IMPLANT_UDI,
     insertionTorqueNcm: 35,
     isq: 70,
     axis: [0.1, -0.05, 1],

@@ -24,7 +24,8 @@ type ReadableType =
   | 'TorqueEvent'
   | 'Complication'
   | 'RecallExam'
-  | 'Radiograph';
+  | 'Radiograph'
+  | 'ReferralSummary';
 
 @Injectable()
 export class SitesService {
@@ -127,6 +128,7 @@ export class SitesService {
       radiographs,
       measurements,
       seatingChecks,
+      referralSummaries,
     ] = await Promise.all([
       canRead('Placement') ? timeline.placementsOfSite(this.db, site.id) : none,
       canRead('Restoration') ? timeline.restorationsOfSite(this.db, site.id) : none,
@@ -137,10 +139,22 @@ export class SitesService {
       readRadiographs ? timeline.radiographsOfSite(this.db, site.id) : none,
       readRadiographs ? timeline.measurementsOfSite(this.db, site.id) : none,
       readRadiographs && canRead('Restoration') ? timeline.seatingChecksOfSite(this.db, site.id) : none,
+      canRead('ReferralSummary') ? timeline.referralSummariesOfSite(this.db, site.id) : none,
     ]);
     return buildTimeline(
       site.id,
-      { placements, restorations, parts, torque, complications, recallExams, radiographs, measurements, seatingChecks },
+      {
+        placements,
+        restorations,
+        parts,
+        torque,
+        complications,
+        recallExams,
+        radiographs,
+        measurements,
+        seatingChecks,
+        referralSummaries,
+      },
       kinds,
     );
   }

@@ -15,6 +15,7 @@ import {
   radiographs,
   radiographSites,
   recallExams,
+  referralSummaryMails,
   restorationSites,
   restorations,
   seatingChecks,
@@ -263,4 +264,21 @@ export async function seatingChecksOfSite(db: Db, siteId: string) {
           .where(eq(restorationSites.siteId, siteId)),
       ),
     );
+}
+
+/** The patient's referral summaries e-mailed (or waiting to be) to a surgeon: shown on every site. */
+export async function referralSummariesOfSite(db: Db, siteId: string) {
+  return db
+    .select({
+      id: referralSummaryMails.id,
+      sentTo: referralSummaryMails.sentTo,
+      status: referralSummaryMails.status,
+      requestedAt: referralSummaryMails.requestedAt,
+      sentAt: referralSummaryMails.sentAt,
+      byName: users.displayName,
+    })
+    .from(referralSummaryMails)
+    .innerJoin(implantSites, eq(implantSites.patientId, referralSummaryMails.patientId))
+    .leftJoin(users, eq(users.id, referralSummaryMails.requestedBy))
+    .where(eq(implantSites.id, siteId));
 }

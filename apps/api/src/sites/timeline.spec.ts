@@ -15,6 +15,7 @@ const empty: TimelineRows = {
   radiographs: [],
   measurements: [],
   seatingChecks: [],
+  referralSummaries: [],
 };
 const torque = (id: string, performedAt: string, amended = false) => ({
   id,

@@ -23,6 +23,7 @@ export interface TimelineRows {
   radiographs: Rows<'radiographsOfSite'>;
   measurements: Rows<'measurementsOfSite'>;
   seatingChecks: Rows<'seatingChecksOfSite'>;
+  referralSummaries: Rows<'referralSummariesOfSite'>;
 }
 
 /** What a seating check found, in the words of the Timeline's titles. */
@@ -216,6 +217,14 @@ export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: Timeli
     );
   }
   addRadiographEvents(rows, events, recorded);
+  for (const m of rows.referralSummaries) {
+    const at = (m.sentAt ?? m.requestedAt).toISOString();
+    const state = m.status === 'sent' ? 'e-mailed' : m.status === 'pending' ? 'waiting to be e-mailed' : 'not sent';
+    events.push(
+      base('referral-summary', m.id, at, false, `Referral summary ${state} to ${m.sentTo}`, { byName: m.byName }),
+    );
+    recorded.set(events[events.length - 1], m.requestedAt.toISOString());
+  }
   const kept = kinds ? events.filter((e) => kinds.includes(e.kind)) : events;
   // Day first; within a day, the order of a sitting (date-only entries have no time of their own),
   // then the time, then when the entry was recorded.

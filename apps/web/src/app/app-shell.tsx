@@ -63,6 +63,26 @@ export function AppShell({ me, onSignOut, signingOut, signOutError }: AppShellPr
               >
                 Catalogue
               </NavLink>
+              <Can I="read" a="Outcomes">
+                <NavLink
+                  to="/outcomes"
+                  className={({ isActive }) =>
+                    `${Classes.BUTTON} ${Classes.MINIMAL}${isActive ? ` ${Classes.ACTIVE}` : ''}`
+                  }
+                >
+                  Outcomes
+                </NavLink>
+              </Can>
+              <Can I="read" a="LotTrace">
+                <NavLink
+                  to="/lot-lookup"
+                  className={({ isActive }) =>
+                    `${Classes.BUTTON} ${Classes.MINIMAL}${isActive ? ` ${Classes.ACTIVE}` : ''}`
+                  }
+                >
+                  Lot look-up
+                </NavLink>
+              </Can>
               <Can I="read" a="User">
                 <NavLink
                   to="/practice"

@@ -105,6 +105,18 @@ export const router = createBrowserRouter([
             }),
           },
           {
+            path: 'outcomes',
+            lazy: async () => ({
+              Component: (await import('../features/outcomes/routes/outcomes-route')).OutcomesRoute,
+            }),
+          },
+          {
+            path: 'lot-lookup',
+            lazy: async () => ({
+              Component: (await import('../features/outcomes/routes/lot-lookup-route')).LotLookupRoute,
+            }),
+          },
+          {
             path: 'catalogue',
             handle: access('catalogue'),
             lazy: async () => ({

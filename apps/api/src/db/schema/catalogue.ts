@@ -75,6 +75,7 @@ export const components = pgTable(
     index('components_platform_idx').on(t.platformId),
     index('components_practice_idx').on(t.practiceId),
     index('components_lineage_idx').on(t.lineageId),
+    index('components_practice_reference_idx').on(t.practiceId, t.referenceCode),
     ...amendmentChain('components', t),
   ],
 );

@@ -123,7 +123,14 @@ export const componentInstances = pgTable(
     recordedBy: uuid('recorded_by').references(() => users.id),
     recordedAt: timestamp('recorded_at', { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index('component_instances_site_idx').on(t.siteId)],
+  (t) => [
+    index('component_instances_site_idx').on(t.siteId),
+    // The lot look-up: by lot, or by the catalogue part (all versions of a reference code).
+    index('component_instances_practice_lot_idx')
+      .on(t.practiceId, t.lot)
+      .where(sql`${t.lot} is not null`),
+    index('component_instances_component_idx').on(t.componentId),
+  ],
 );
 
 /** Every torque ever applied to a part, with the verdict computed when it was recorded. */

@@ -19,6 +19,8 @@ export const implantSites = pgTable(
     /** FDI (ISO 3950) two-digit position. */
     fdi: smallint('fdi').notNull(),
     status: siteStatusEnum('status').notNull(),
+    /** When a failed or removed implant left the mouth: the end of its survival (outcomes view). */
+    endedOn: date('ended_on', { mode: 'string' }),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [
@@ -56,6 +58,8 @@ export const placements = pgTable(
     lengthMm: numeric('length_mm', { precision: 5, scale: 2, mode: 'number' }).notNull(),
     lot: text('lot'),
     udi: text('udi'),
+    /** The GTIN read from `udi` by parseUdi when recorded, kept so the lot look-up can use an index. */
+    gtin: text('gtin'),
     insertionTorqueNcm: numeric('insertion_torque_ncm', { precision: 5, scale: 1, mode: 'number' }),
     stabilityIsq: smallint('stability_isq'),
     grafting: text('grafting'),
@@ -70,5 +74,15 @@ export const placements = pgTable(
     recordedBy: uuid('recorded_by').references(() => users.id),
     recordedAt: timestamp('recorded_at', { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index('placements_site_idx').on(t.siteId), ...amendmentChain('placements', t)],
+  (t) => [
+    index('placements_site_idx').on(t.siteId),
+    // The lot look-up (a field safety notice names a lot or a GTIN).
+    index('placements_practice_lot_idx')
+      .on(t.practiceId, t.lot)
+      .where(sql`${t.lot} is not null`),
+    index('placements_practice_gtin_idx')
+      .on(t.practiceId, t.gtin)
+      .where(sql`${t.gtin} is not null`),
+    ...amendmentChain('placements', t),
+  ],
 );

@@ -1,7 +1,6 @@
 import { fieldNames, plainWordingProblems, requestSchemas } from '@torquetrail/contracts';
 import { describe, expect, it } from 'vitest';
-import { FIELD_LABELS } from '../labels';
-import { fieldLabel } from './field-labels';
+import { FIELD_LABELS, fieldLabel } from './field-labels';
 
 describe('fieldLabel: the API’s field paths in the forms’ words', () => {
   it('names a field of a list item with the item and its number from 1', () => {

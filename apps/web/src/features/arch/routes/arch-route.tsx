@@ -12,6 +12,7 @@ import { formatDate } from '../../../lib/dates';
 import { MAINTENANCE_NOTE } from '../../../lib/labels';
 import { useToothSystem } from '../../../lib/tooth-system';
 import { PatientAccessLog } from '../../audit';
+import { ReferralSummaryPanel } from '../../outcomes';
 import { usePatient } from '../../patients';
 import { AddSiteControl } from '../components/add-site-control';
 import { ArchDrawing } from '../components/arch-drawing';
@@ -143,6 +144,9 @@ export function ArchRoute() {
           </>
         )}
       </section>
+      <Can I="read" this={subject('ReferralSummary', { practiceId: data.practiceId, patientId: data.id })}>
+        <ReferralSummaryPanel patientId={data.id} />
+      </Can>
       <Can I="read" this={subject('PatientAudit', { practiceId: data.practiceId, patientId: data.id })}>
         <PatientAccessLog patientId={data.id} />
       </Can>
