@@ -8,6 +8,7 @@ import {
   PatientSex,
   PatientVersionKind,
   PreferredLanguage,
+  ShareScope,
   SiteStatus,
 } from './enums.js';
 
@@ -28,6 +29,8 @@ export const PatientListItem = z.object({
   birthDate: IsoDate,
   implantSiteCount: z.number().int(),
   practiceName: z.string(),
+  /** For a patient of another practice shared with the user: what the share opens. */
+  shareScopes: z.array(ShareScope).nullable(),
   /** When the patient was archived; null for an active patient. */
   archivedAt: IsoDateTime.nullable(),
 });

@@ -6,6 +6,7 @@ import { radiographRoutes } from './radiographs.js';
 import { auditRoutes } from './audit.js';
 import { seatingRoutes } from './seating.js';
 import { peopleRoutes } from './people.js';
+import { shareRoutes } from './shares.js';
 import { Me, SignInBody } from './auth.js';
 import { HealthReply, LivenessReply } from './health.js';
 import { PatientDetail, PatientListQuery, PatientListReply, patientRoutes } from './patients.js';
@@ -83,6 +84,7 @@ export const apiRoutes: RouteContract[] = [
   ...patientRoutes,
   ...ledgerRoutes,
   ...peopleRoutes,
+  ...shareRoutes,
   ...recallRoutes,
   ...radiographRoutes,
   ...seatingRoutes,
