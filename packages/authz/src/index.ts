@@ -7,4 +7,11 @@ export { defineAbilityFor, PATIENT_CONTACT_FIELDS, ROLES, SHARE_SCOPES } from '.
 export type {
   AbilityUser,
   ActiveShare,
-  ShareScope, Action, AppAbility, PatientContactField, Role, ScopedRow, Subject } from './ability.js';
+  ShareScope,
+  Action,
+  AppAbility,
+  PatientContactField,
+  Role,
+  ScopedRow,
+  Subject,
+} from './ability.js';

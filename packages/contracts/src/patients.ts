@@ -161,7 +161,7 @@ export const ArchivePatientBody = z.object({
 });
 export type ArchivePatientBody = z.input<typeof ArchivePatientBody>;
 
-export const PatientDetail = PatientListItem.extend({
+export const PatientDetail = PatientListItem.omit({ shareScopes: true }).extend({
   /** The patient's practice: row-level checks in the web (e.g. a shared surgeon may not plan sites). */
   practiceId: Id,
   sex: PatientSex,
@@ -199,7 +199,7 @@ export const DuplicateCheckQuery = z.object({
 });
 export type DuplicateCheckQuery = z.infer<typeof DuplicateCheckQuery>;
 export const DuplicateCheckReply = z.object({
-  matches: z.array(PatientListItem.omit({ implantSiteCount: true, practiceName: true })),
+  matches: z.array(PatientListItem.omit({ implantSiteCount: true, practiceName: true, shareScopes: true })),
 });
 export type DuplicateCheckReply = z.infer<typeof DuplicateCheckReply>;
 

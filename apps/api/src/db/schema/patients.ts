@@ -134,7 +134,10 @@ export const patientShares = pgTable(
     sharedByUserId: uuid('shared_by_user_id')
       .notNull()
       .references(() => users.id),
-    scopes: shareScopeEnum('scopes').array().notNull().default(sql`'{placement,outcomes}'::share_scope[]`),
+    scopes: shareScopeEnum('scopes')
+      .array()
+      .notNull()
+      .default(sql`'{placement,outcomes}'::share_scope[]`),
     siteIds: uuid('site_ids').array(),
     endsOn: date('ends_on', { mode: 'string' }),
     reason: text('reason').notNull().default(''),
@@ -166,6 +169,8 @@ export const shareNotices = pgTable(
   },
   (t) => [
     uniqueIndex('share_notices_one_per_kind').on(t.shareId, t.kind),
-    index('share_notices_pending_idx').on(t.status).where(sql`${t.status} = 'pending'`),
+    index('share_notices_pending_idx')
+      .on(t.status)
+      .where(sql`${t.status} = 'pending'`),
   ],
 );
