@@ -1,4 +1,4 @@
-import { and, eq, isNull, sql } from 'drizzle-orm';
+import { and, eq, sql } from 'drizzle-orm';
 import type { Db } from '../db/database.js';
 import { liveShare } from '../db/live-share.js';
 import { patientShares, practices, users } from '../db/schema/index.js';

@@ -35,9 +35,11 @@ export class PatientsService {
     const sites = (await listSitesOfPatient(this.db, patient.id)).filter((site) =>
       ability.can('read', subjectOf(site)),
     );
-    const exams = ability.can('read', subject('RecallExam', { practiceId: patient.practiceId, patientId: patient.id }))
-      ? await this.maintenance.latestBySite(sites.map((s) => s.id))
-      : new Map();
+    // Per site: a share limited to chosen sites, or without outcomes, opens no other site's exams.
+    const examined = sites.filter((s) =>
+      ability.can('read', subject('RecallExam', { practiceId: s.practiceId, patientId: s.patientId, siteId: s.id })),
+    );
+    const exams = await this.maintenance.latestBySite(examined.map((s) => s.id));
     return {
       id: patient.id,
       practiceId: patient.practiceId,

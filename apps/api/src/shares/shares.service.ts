@@ -121,7 +121,7 @@ export class SharesService {
   }
 
   private async one(practiceId: string, id: string): Promise<Share> {
-    const [share] = await this.toShares([(await repo.findShare(this.db, practiceId, id))!]);
+    const [share] = await this.toShares([await repo.findShare(this.db, practiceId, id)]);
     return share;
   }
 
