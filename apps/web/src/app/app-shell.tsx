@@ -2,7 +2,7 @@ import { Alignment, Button, Classes, Navbar, NavbarDivider, NavbarGroup, NavbarH
 import type { Me } from '@torquetrail/contracts';
 import type React from 'react';
 import { Link, NavLink, Outlet, useMatch } from 'react-router-dom';
-import { Can } from '../lib/ability';
+import { useAppAbility } from '../lib/ability';
 import { ROLE_LABEL } from '../lib/labels';
 
 interface AppShellProps {
@@ -21,6 +21,9 @@ function skipToContent(event: React.MouseEvent<HTMLAnchorElement>) {
 /** The top bar (product, Patients, who is signed in, Sign out) and the page below it. */
 export function AppShell({ me, onSignOut, signingOut, signOutError }: AppShellProps) {
   const onPatientList = useMatch('/patients') !== null;
+  const ability = useAppAbility();
+  // The practice administrator's screen, which also holds the dentist's list of shares.
+  const seesPractice = ability.can('read', 'User') || ability.can('read', 'Share');
   return (
     <>
       <a className="skip-link" href="#main" onClick={skipToContent}>
@@ -62,7 +65,7 @@ export function AppShell({ me, onSignOut, signingOut, signOutError }: AppShellPr
               >
                 Catalogue
               </NavLink>
-              <Can I="read" a="User">
+              {seesPractice && (
                 <NavLink
                   to="/practice"
                   className={({ isActive }) =>
@@ -71,7 +74,7 @@ export function AppShell({ me, onSignOut, signingOut, signOutError }: AppShellPr
                 >
                   Practice
                 </NavLink>
-              </Can>
+              )}
             </nav>
           </NavbarGroup>
           <NavbarGroup align={Alignment.END}>

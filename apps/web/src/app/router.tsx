@@ -127,7 +127,12 @@ export const router = createBrowserRouter([
             path: 'practice',
             lazy: async () => ({ Component: (await import('../features/people/routes/practice-route')).PracticeRoute }),
             children: [
-              { index: true, element: <Navigate to="/practice/people" replace /> },
+              {
+                index: true,
+                lazy: async () => ({
+                  Component: (await import('../features/people/routes/practice-route')).PracticeHome,
+                }),
+              },
               {
                 path: 'people',
                 lazy: async () => ({ Component: (await import('../features/people/routes/people-route')).PeopleRoute }),
@@ -142,6 +147,12 @@ export const router = createBrowserRouter([
                 path: 'patient-settings',
                 lazy: async () => ({
                   Component: (await import('../features/patients/routes/patient-settings-route')).PatientSettingsRoute,
+                }),
+              },
+              {
+                path: 'shares',
+                lazy: async () => ({
+                  Component: (await import('../features/shares/routes/practice-shares-route')).PracticeSharesRoute,
                 }),
               },
               {
