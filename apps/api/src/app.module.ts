@@ -27,6 +27,7 @@ import { RadiographsModule } from './radiographs/radiographs.module.js';
 import { SeatingModule } from './seating/seating.module.js';
 import { PeopleModule } from './people/people.module.js';
 import { SharesModule } from './shares/shares.module.js';
+import { FieldRulesInterceptor } from './authz/field-rules.interceptor.js';
 
 @Module({})
 export class AppModule {
@@ -64,6 +65,7 @@ export class AppModule {
         { provide: APP_FILTER, useClass: HttpExceptionFilter },
         // Every read of patient data, export, change and sign-in leaves its audit row (issue 11).
         { provide: APP_INTERCEPTOR, useClass: AuditInterceptor },
+        { provide: APP_INTERCEPTOR, useClass: FieldRulesInterceptor },
       ],
     };
   }

@@ -3,6 +3,7 @@
 // request (revoked or ended: 404 everywhere at once), every change is audited and e-mailed.
 import { eq, sql } from 'drizzle-orm';
 import { afterAll, describe, expect, it } from 'vitest';
+import { SHARED_PATIENT_FIELDS } from '@torquetrail/authz';
 import { patientShares } from '../src/db/schema/index.js';
 import { mailsTo, signInAs, throwawayAccount } from './support/people.js';
 import { until } from './support/recalls.js';
@@ -268,5 +269,28 @@ describe('the seeded shares', () => {
     expect(statuses.filter((s: string) => s === 'active')).toHaveLength(4);
     expect(statuses).toContain('ended');
     expect(statuses).toContain('revoked');
+  });
+});
+
+describe('least privilege in the replies', () => {
+  it("a shared surgeon's patient reply holds who the patient is and the shared sites, nothing more", async () => {
+    const p = await patientWithTwoSites();
+    const surgeon = await freshSurgeon();
+    const created = await share(p.id, {
+      surgeonEmail: surgeon.email,
+      scopes: ['outcomes'],
+      siteIds: [p.s46],
+      endsOn: null,
+      reason: 'Follows the implant at 46',
+    });
+    expect(created.status).toBe(201);
+    const mine = await get(`/api/patients/${p.id}`, cookies.dentist);
+    expect(mine.body).toHaveProperty('riskFactors');
+    expect(mine.body).toHaveProperty('contact');
+    const theirs = await get(`/api/patients/${p.id}`, surgeon.cookie);
+    expect(Object.keys(theirs.body).sort()).toEqual([...SHARED_PATIENT_FIELDS].filter((f) => f in mine.body).sort());
+    for (const field of ['riskFactors', 'contact', 'sex', 'missingTeeth', 'archive', 'riskFactorsRecordedOn'])
+      expect(theirs.body).not.toHaveProperty(field);
+    expect(theirs.body.sites.map((s: { id: string }) => s.id)).toEqual([p.s46]);
   });
 });

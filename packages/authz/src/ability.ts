@@ -77,6 +77,23 @@ export interface AbilityUser {
   shares: readonly ActiveShare[];
 }
 
+/**
+ * The fields of a patient a share opens (CASL field rules): who the patient is and the shared
+ * sites — never contact details, risk factors, missing teeth or who archived the record.
+ */
+export const SHARED_PATIENT_FIELDS = [
+  'id',
+  'practiceId',
+  'chartNumber',
+  'givenName',
+  'familyName',
+  'birthDate',
+  'practiceName',
+  'implantSiteCount',
+  'archivedAt',
+  'sites',
+] as const;
+
 /** A share as the ability needs it. */
 export interface ActiveShare {
   patientId: string;
@@ -166,7 +183,7 @@ function shareRules(can: Can, share: ActiveShare): void {
   const sites = share.siteIds ? { $in: [...share.siteIds] } : undefined;
   const onSite: ScopedCondition = sites ? { patientId, siteId: sites } : { patientId };
   const site: ScopedCondition = sites ? { patientId, id: sites } : { patientId };
-  can('read', 'Patient', { id: patientId });
+  can('read', 'Patient', [...SHARED_PATIENT_FIELDS], { id: patientId });
   can('read', 'ImplantSite', site);
   if (share.scopes.includes('placement')) {
     can(['read', 'create', 'amend'], ['Placement', 'Radiograph'], onSite);

@@ -48,7 +48,7 @@ export function ArchRoute() {
   const data = patient.data;
   const name = `${data.givenName} ${data.familyName}`;
   const openSite = (siteId: string) => void navigate(`/patients/${data.id}/sites/${siteId}`);
-  const hasPrimary = [...data.sites.map((s) => s.fdi), ...data.missingTeeth].some(isPrimaryTooth);
+  const hasPrimary = [...data.sites.map((s) => s.fdi), ...(data.missingTeeth ?? [])].some(isPrimaryTooth);
 
   return (
     <div className="arch-page">
@@ -98,7 +98,7 @@ export function ArchRoute() {
             <ArchDrawing
               positions={TOOTH_POSITIONS_PERMANENT}
               sites={data.sites}
-              missingTeeth={data.missingTeeth}
+              missingTeeth={data.missingTeeth ?? []}
               system={system}
               onOpenSite={openSite}
               label="Dental arches"
@@ -110,7 +110,7 @@ export function ArchRoute() {
                 <ArchDrawing
                   positions={TOOTH_POSITIONS_PRIMARY}
                   sites={data.sites}
-                  missingTeeth={data.missingTeeth}
+                  missingTeeth={data.missingTeeth ?? []}
                   system={system}
                   onOpenSite={openSite}
                   label="Primary dental arches"
