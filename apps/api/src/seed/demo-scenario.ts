@@ -673,7 +673,7 @@ export async function seedDemoScenario(tx: Tx, today: string): Promise<{ summary
       patientId: desmond,
       sharedWithUserId: imbertId,
       sharedByUserId: sharedBy,
-      scopes: ['placement', 'outcomes'],
+      scopes: [...SHARE_SCOPES],
       reason: 'Referred for a possible replacement implant at 46',
       since: at('2024-03-11'),
       revokedAt: at('2024-04-02'),

@@ -70,6 +70,7 @@ const NOT_SHOWN: Record<string, string> = {
   SORT_DIRECTIONS: 'shown as a caret icon and aria-sort, not as words',
   RECALL_STATUSES: 'the Recall desk shows the next scheduled date, never a recall status',
   RESTORATIVE_DESIGNS: "worded inside Finding messages by the domain's RESTORATIVE_DESIGN_LABELS",
+  SHARED_PATIENT_FIELDS: 'the field names of the patient reply a share opens (CASL field rules), never shown',
   SHARE_NOTICE_KINDS: 'which e-mail the API sends the surgeon; worded in the e-mail, never shown in the web',
   SYMBOLOGY_IDENTIFIERS: 'barcode prefixes read by the UDI parser, never displayed',
 };
