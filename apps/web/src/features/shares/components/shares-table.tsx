@@ -34,12 +34,12 @@ export function SharesTable({ shares, showPatient }: { shares: readonly Share[];
             <tr key={share.id} data-testid={`share-${share.id}`}>
               {showPatient && (
                 <td>
-                  {share.patientName} <span className="mono muted">{share.chartNumber}</span>
+                  {share.patientName} <span className="mono">{share.chartNumber}</span>
                 </td>
               )}
               <td>
                 {share.surgeon.displayName}
-                <div className="muted">
+                <div className="shares-table__note">
                   {share.surgeon.email} · {share.surgeon.practiceName}
                 </div>
               </td>
@@ -52,7 +52,7 @@ export function SharesTable({ shares, showPatient }: { shares: readonly Share[];
                   {SHARE_STATUS_LABEL[share.status]}
                 </Tag>
                 {share.revokedAt && (
-                  <div className="muted">
+                  <div className="shares-table__note">
                     {formatDate(share.revokedAt.slice(0, 10))} by {share.revokedByName}: {share.revokeReason}
                   </div>
                 )}
