@@ -27,6 +27,8 @@ import { RadiographsModule } from './radiographs/radiographs.module.js';
 import { SeatingModule } from './seating/seating.module.js';
 import { PeopleModule } from './people/people.module.js';
 import { OutcomesModule } from './outcomes/outcomes.module.js';
+import { SharesModule } from './shares/shares.module.js';
+import { FieldRulesInterceptor } from './authz/field-rules.interceptor.js';
 
 @Module({})
 export class AppModule {
@@ -55,6 +57,7 @@ export class AppModule {
         RadiographsModule,
         SeatingModule,
         PeopleModule,
+        SharesModule,
         ...(env.NODE_ENV === 'production' ? [] : [OpenApiModule]),
       ],
       providers: [
@@ -64,6 +67,7 @@ export class AppModule {
         { provide: APP_FILTER, useClass: HttpExceptionFilter },
         // Every read of patient data, export, change and sign-in leaves its audit row (issue 11).
         { provide: APP_INTERCEPTOR, useClass: AuditInterceptor },
+        { provide: APP_INTERCEPTOR, useClass: FieldRulesInterceptor },
       ],
     };
   }

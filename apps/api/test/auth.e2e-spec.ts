@@ -17,6 +17,7 @@ describe('sign-in', () => {
       role: 'dentist',
       practiceName: 'Larkspur Lane Dental',
       sharedPatientIds: [],
+      shares: [],
     });
     const cookie = ([] as string[]).concat(res.headers['set-cookie'] ?? []).find((c) => c.startsWith('tt_session='))!;
     expect(cookie).toMatch(/HttpOnly/i);

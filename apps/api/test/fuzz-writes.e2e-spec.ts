@@ -63,6 +63,15 @@ const fuzzInvitation = async () =>
         .send({ email: freshEmail('fuzz.invitee'), role: 'hygienist' })
     ).body as { id: string }
   ).id;
+/** A live share of a fresh patient with a surgeon of its own, for the revoke route. */
+const fuzzShare = async () => {
+  const surgeon = await throwawayAccount(ctx, 'surgeon');
+  const res = await ctx.http
+    .post(`/api/patients/${await freshPatient()}/shares`)
+    .set('Cookie', cookies.dentist)
+    .send({ surgeonEmail: surgeon.email, scopes: ['outcomes'], siteIds: null, endsOn: null, reason: 'For the fuzzer' });
+  return (res.body as { id: string }).id;
+};
 const fuzzColleague = async () => (await throwawayAccount(ctx, 'dentist')).id;
 
 /** Who calls each write endpoint (a role that may), and on which record. */
@@ -143,6 +152,8 @@ const TARGETS: Record<string, { as: AccountKey | null; path: string }> = {
   'PUT /people/:id/role': { as: 'practice_admin', path: `/api/people/${await fuzzColleague()}/role` },
   'POST /people/:id/deactivation': { as: 'practice_admin', path: `/api/people/${await fuzzColleague()}/deactivation` },
   'PUT /practice/session-settings': { as: 'practice_admin', path: '/api/practice/session-settings' },
+  'POST /patients/:id/shares': { as: 'dentist', path: `/api/patients/${await freshPatient()}/shares` },
+  'POST /shares/:id/revoke': { as: 'dentist', path: `/api/shares/${await fuzzShare()}/revoke` },
   'PUT /auth/password': { as: 'dentist', path: '/api/auth/password' },
   'POST /account/invitation': { as: null, path: '/api/account/invitation' },
   'POST /account/invitation/accept': { as: null, path: '/api/account/invitation/accept' },

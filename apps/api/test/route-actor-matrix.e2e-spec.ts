@@ -12,6 +12,7 @@ import { invitations, patientShares, users } from '../src/db/schema/index.js';
 import { AUDIT_EXPECTATIONS, auditChecks, expectAuditRows, nextXid } from './support/audit-expectations.js';
 import { actorCookies, all, type Expected } from './support/role-matrix.js';
 import { ACCOUNTS, patientId, startTestApp } from './support/test-app.js';
+import { throwawayAccount } from './support/people.js';
 import { jpeg, waitForPreview } from './support/radiograph-fixtures.js';
 import { scenarioTargets } from './support/scenario-targets.js';
 import { servedRoutes } from './support/served-routes.js';
@@ -139,6 +140,23 @@ const freshColleague = async () => {
       passwordHash: odile.passwordHash,
     })
     .returning({ id: users.id });
+  return row.id;
+};
+/** A Northgate surgeon of their own per call, to share a patient with. */
+const freshSurgeon = async () => (await throwawayAccount(ctx, 'surgeon')).email;
+/** A live share of Harold with a surgeon of its own per call (revoked by the case). */
+const freshShare = async () => {
+  const [row] = await ctx.db
+    .insert(patientShares)
+    .values({
+      practiceId: odile.practiceId,
+      patientId: ids.harold,
+      sharedWithUserId: (await throwawayAccount(ctx, 'surgeon')).id,
+      sharedByUserId: odile.id,
+      scopes: ['outcomes'],
+      reason: 'For the matrix',
+    })
+    .returning({ id: patientShares.id });
   return row.id;
 };
 /** A well-formed link token nobody was sent. */
@@ -587,6 +605,32 @@ const TABLE: Record<string, Case[]> = {
     { path: () => '/api/practice/session-settings', body: () => ({ idleSignOutMinutes: 15 }), expect: adminOnly(200) },
     'own practice',
   ),
+  // Shares (issue 12): the dentist shares and revokes, the practice admin reads; a surgeon never
+  // sees the sharing side, and another practice's patient or share reads like a missing one.
+  'GET /api/shares': one(
+    { path: () => '/api/shares', expect: every(403, { dentist: 200, practice_admin: 200, otherPracticeDentist: 200 }) },
+    'own practice',
+  ),
+  'GET /api/patients/:id/shares': one({
+    path: () => `/api/patients/${ids.harold}/shares`,
+    expect: every(403, { dentist: 200, practice_admin: 200, otherPracticeDentist: 404 }),
+  }),
+  'POST /api/patients/:id/shares': one({
+    path: () => `/api/patients/${ids.harold}/shares`,
+    body: async () => ({
+      surgeonEmail: await freshSurgeon(),
+      scopes: ['outcomes'],
+      siteIds: null,
+      endsOn: null,
+      reason: 'For the matrix',
+    }),
+    expect: every(403, { dentist: 201, otherPracticeDentist: 404 }),
+  }),
+  'POST /api/shares/:id/revoke': one({
+    path: async () => `/api/shares/${await freshShare()}/revoke`,
+    body: () => ({ reason: 'For the matrix' }),
+    expect: every(403, { dentist: 200, otherPracticeDentist: 404 }),
+  }),
   // A wrong current password: nobody's password changes, every signed-in actor gets the field error.
   'PUT /api/auth/password': one(
     {

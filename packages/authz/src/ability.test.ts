@@ -9,7 +9,13 @@ const SHARED_PATIENT = '33333333-3333-4333-8333-333333333333';
 const UNSHARED_PATIENT = '44444444-4444-4444-8444-444444444444';
 
 const user = (role: Role, shared: string[] = []) =>
-  defineAbilityFor({ id: 'u', role, practiceId: role === 'surgeon' ? OTHER : PRACTICE, sharedPatientIds: shared });
+  defineAbilityFor({
+    id: 'u',
+    role,
+    practiceId: role === 'surgeon' ? OTHER : PRACTICE,
+    sharedPatientIds: shared,
+    shares: shared.map((patientId) => ({ patientId, scopes: ['placement', 'outcomes'], siteIds: null })),
+  });
 const row = (type: Exclude<Subject, 'all'>, fields: Record<string, string>) => subject(type, { ...fields });
 const inPractice = { practiceId: PRACTICE, patientId: UNSHARED_PATIENT };
 
@@ -136,5 +142,54 @@ describe('practice administrator', () => {
   });
   it('administers only their own practice', () => {
     expect(a.can('create', row('User', { practiceId: OTHER }))).toBe(false);
+  });
+});
+
+describe('a share with a scope and chosen sites (issue 12)', () => {
+  const SITE = '55555555-5555-4555-8555-555555555555';
+  const OTHER_SITE = '66666666-6666-4666-8666-666666666666';
+  const surgeon = (scopes: ('placement' | 'outcomes')[], siteIds: string[] | null) =>
+    defineAbilityFor({
+      id: 'u',
+      role: 'surgeon',
+      practiceId: OTHER,
+      sharedPatientIds: [SHARED_PATIENT],
+      shares: [{ patientId: SHARED_PATIENT, scopes, siteIds }],
+    });
+  const on = (siteId: string) => ({ practiceId: PRACTICE, patientId: SHARED_PATIENT, siteId });
+
+  it('outcomes reads the shared sites but records no placement (a 403, the row being readable)', () => {
+    const a = surgeon(['outcomes'], [SITE]);
+    expect(a.can('read', row('Patient', { id: SHARED_PATIENT, practiceId: PRACTICE }))).toBe(true);
+    expect(a.can('read', row('ImplantSite', { id: SITE, practiceId: PRACTICE, patientId: SHARED_PATIENT }))).toBe(true);
+    for (const type of ['Placement', 'Restoration', 'RecallExam', 'Radiograph', 'Complication'] as const)
+      expect(a.can('read', row(type, on(SITE)))).toBe(true);
+    expect(a.can('create', row('Placement', on(SITE)))).toBe(false);
+    expect(a.can('create', row('Radiograph', on(SITE)))).toBe(false);
+  });
+
+  it('placement records and amends the placement, and reads no restoration or recall', () => {
+    const a = surgeon(['placement'], null);
+    expect(a.can('create', row('Placement', on(SITE)))).toBe(true);
+    expect(a.can('amend', row('Placement', on(OTHER_SITE)))).toBe(true);
+    expect(a.can('read', row('Restoration', on(SITE)))).toBe(false);
+    expect(a.can('read', row('RecallExam', on(SITE)))).toBe(false);
+  });
+
+  it('a site outside the share is not even readable (a 404)', () => {
+    const a = surgeon(['placement', 'outcomes'], [SITE]);
+    expect(a.can('read', row('ImplantSite', { id: OTHER_SITE, practiceId: PRACTICE, patientId: SHARED_PATIENT }))).toBe(
+      false,
+    );
+    expect(a.can('read', row('Placement', on(OTHER_SITE)))).toBe(false);
+    expect(a.can('create', row('Placement', on(OTHER_SITE)))).toBe(false);
+    expect(a.can('read', row('RecallExam', { practiceId: PRACTICE, patientId: SHARED_PATIENT }))).toBe(false);
+  });
+
+  it('a share of one patient opens nothing of another', () => {
+    const a = surgeon(['placement', 'outcomes'], null);
+    expect(a.can('read', row('Placement', { practiceId: PRACTICE, patientId: UNSHARED_PATIENT, siteId: SITE }))).toBe(
+      false,
+    );
   });
 });

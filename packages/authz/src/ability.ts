@@ -1,8 +1,15 @@
-import { AbilityBuilder, createMongoAbility, type MongoAbility } from '@casl/ability';
+import { AbilityBuilder, createMongoAbility, type MongoAbility, type MongoQuery } from '@casl/ability';
 
 /** The roles of Torquetrail, in the order of the database enum. */
 export const ROLES = ['practice_admin', 'dentist', 'hygienist', 'surgeon'] as const;
 export type Role = (typeof ROLES)[number];
+
+/**
+ * What a share opens to a surgeon of another practice: `placement` records and amends the placement
+ * of the shared sites; `outcomes` reads their restorations, recalls, bone levels and radiographs.
+ */
+export const SHARE_SCOPES = ['placement', 'outcomes'] as const;
+export type ShareScope = (typeof SHARE_SCOPES)[number];
 
 export type Action = 'manage' | 'read' | 'create' | 'update' | 'amend' | 'archive';
 
@@ -56,6 +63,8 @@ export interface ScopedRow {
   id?: string;
   practiceId?: string;
   patientId?: string;
+  /** The implant site a row belongs to: how a share limited to chosen sites opens only those. */
+  siteId?: string | null;
 }
 
 export type AppAbility = MongoAbility<[Action, Subject | (ScopedRow & { __caslSubjectType__?: string })]>;
@@ -67,6 +76,35 @@ export interface AbilityUser {
   practiceId: string;
   /** Patients of other practices shared with this user (surgeons). */
   sharedPatientIds: readonly string[];
+  /**
+   * The live shares behind `sharedPatientIds` (neither revoked nor ended), with their scope and
+   * sites (`siteIds` null: every implant site of the patient).
+   */
+  shares: readonly ActiveShare[];
+}
+
+/**
+ * The fields of a patient a share opens (CASL field rules): who the patient is and the shared
+ * sites — never contact details, risk factors, missing teeth or who archived the record.
+ */
+export const SHARED_PATIENT_FIELDS = [
+  'id',
+  'practiceId',
+  'chartNumber',
+  'givenName',
+  'familyName',
+  'birthDate',
+  'practiceName',
+  'implantSiteCount',
+  'archivedAt',
+  'sites',
+] as const;
+
+/** A share as the ability needs it. */
+export interface ActiveShare {
+  patientId: string;
+  scopes: readonly ShareScope[];
+  siteIds: readonly string[] | null;
 }
 
 /** Clinical record subjects that hang off a patient. */
@@ -125,14 +163,8 @@ export function defineAbilityFor(user: AbilityUser): AppAbility {
       can(['create', 'amend'], ['ImplantSite', 'Placement', 'Radiograph'], own);
       can('read', 'Catalogue', own);
       can('read', 'Outcomes', own);
-      // Another practice's patient only through a share, and never the rest of the chart.
-      const shared = [...user.sharedPatientIds];
-      if (shared.length > 0) {
-        can('read', 'Patient', { id: { $in: shared } });
-        can('read', PATIENT_RECORD, { patientId: { $in: shared } });
-        can(['create', 'amend'], ['Placement', 'Radiograph'], { patientId: { $in: shared } });
-        can('read', 'ReferralSummary', { patientId: { $in: shared } });
-      }
+      // Another practice's patient only through a share, limited to its scope and its sites.
+      for (const share of user.shares) shareRules(can, share);
       break;
     }
     case 'practice_admin':
@@ -147,4 +179,34 @@ export function defineAbilityFor(user: AbilityUser): AppAbility {
       break;
   }
   return build();
+}
+
+type Can = AbilityBuilder<AppAbility>['can'];
+type ScopedCondition = MongoQuery<ScopedRow>;
+
+/**
+ * The rules one share adds: the patient's name and date of birth with either scope; with
+ * `placement`, reading, recording and amending the placement of the shared sites and filing their
+ * radiographs; with `outcomes`, reading the rest of those sites' record. Never the patient's other
+ * sites, nor anything of another patient.
+ */
+function shareRules(can: Can, share: ActiveShare): void {
+  const patientId = share.patientId;
+  const sites = share.siteIds ? { $in: [...share.siteIds] } : undefined;
+  const onSite: ScopedCondition = sites ? { patientId, siteId: sites } : { patientId };
+  const site: ScopedCondition = sites ? { patientId, id: sites } : { patientId };
+  can('read', 'Patient', [...SHARED_PATIENT_FIELDS], { id: patientId });
+  can('read', 'ImplantSite', site);
+  if (share.scopes.includes('placement')) {
+    can(['read', 'create', 'amend'], ['Placement', 'Radiograph'], onSite);
+  }
+  if (share.scopes.includes('outcomes')) {
+    // The referral summary is the outcome of the shared implants, for the surgeon to read.
+    can('read', 'ReferralSummary', { patientId });
+    can(
+      'read',
+      ['Placement', 'Restoration', 'ComponentInstance', 'TorqueEvent', 'Complication', 'RecallExam', 'Radiograph'],
+      onSite,
+    );
+  }
 }

@@ -3,5 +3,16 @@
  * The API's guard and services and the web's <Can> use this one definition.
  */
 export { subject } from '@casl/ability';
-export { defineAbilityFor, PATIENT_CONTACT_FIELDS, ROLES } from './ability.js';
-export type { AbilityUser, Action, AppAbility, PatientContactField, Role, ScopedRow, Subject } from './ability.js';
+export { defineAbilityFor, PATIENT_CONTACT_FIELDS, ROLES, SHARE_SCOPES, SHARED_PATIENT_FIELDS } from './ability.js';
+export { readableFields } from './fields.js';
+export type {
+  AbilityUser,
+  ActiveShare,
+  ShareScope,
+  Action,
+  AppAbility,
+  PatientContactField,
+  Role,
+  ScopedRow,
+  Subject,
+} from './ability.js';

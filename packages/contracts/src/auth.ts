@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { Id, IsoDateTime } from './common.js';
-import { Role } from './enums.js';
+import { Role, ShareScope } from './enums.js';
 
 export const SignInBody = z.object({
   email: z.email({ error: 'Enter a valid e-mail address' }).max(254),
@@ -18,6 +18,8 @@ export const Me = z.object({
   practiceName: z.string(),
   /** Patients of other practices shared with this user (surgeons). */
   sharedPatientIds: z.array(Id),
+  /** The live shares behind them: scope and sites (null: every implant site of the patient). */
+  shares: z.array(z.object({ patientId: Id, scopes: z.array(ShareScope), siteIds: z.array(Id).nullable() })),
   session: z.object({
     /** Sign out after this many seconds without use (the practice's setting). */
     idleSignOutS: z.number().int().positive(),

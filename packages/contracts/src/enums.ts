@@ -2,7 +2,7 @@
 // Clinical ones the domain computes with (verdicts, reasons, statuses, plan choices) are owned by
 // @torquetrail/domain and roles by @torquetrail/authz; they are wrapped here, never retyped. The
 // database enums (apps/api/src/db/schema/enums.ts) are built from the same lists, in the same order.
-import { ROLES } from '@torquetrail/authz';
+import { ROLES, SHARE_SCOPES } from '@torquetrail/authz';
 import {
   FINDING_SEVERITIES,
   IMPLANT_INTERFACES,
@@ -21,6 +21,7 @@ import { z } from 'zod';
 
 export {
   ROLES,
+  SHARE_SCOPES,
   FINDING_SEVERITIES,
   IMPLANT_INTERFACES,
   IMPRESSION_COPINGS,
@@ -37,6 +38,19 @@ export {
 // ---- people and services ---------------------------------------------------------------------
 export const Role = z.enum(ROLES);
 export type Role = z.infer<typeof Role>;
+
+/** What a share opens to a surgeon of another practice (the list is authz's: the ability computes with it). */
+export const ShareScope = z.enum(SHARE_SCOPES, { error: 'Choose placement, outcomes or both' });
+export type ShareScope = z.infer<typeof ShareScope>;
+
+/** A share is active until revoked or until its end date has passed. */
+export const SHARE_STATUSES = ['active', 'ended', 'revoked'] as const;
+export const ShareStatus = z.enum(SHARE_STATUSES);
+export type ShareStatus = z.infer<typeof ShareStatus>;
+
+/** Which change a share's e-mail to the surgeon tells of. */
+export const SHARE_NOTICE_KINDS = ['shared', 'revoked'] as const;
+export type ShareNoticeKind = (typeof SHARE_NOTICE_KINDS)[number];
 
 export const SERVICE_STATES = ['up', 'down'] as const;
 export const ServiceState = z.enum(SERVICE_STATES);

@@ -20,3 +20,4 @@ export * from './seating.js';
 export * from './password.js';
 export * from './people.js';
 export * from './outcomes.js';
+export * from './shares.js';

@@ -8,6 +8,7 @@ import {
   PatientSex,
   PatientVersionKind,
   PreferredLanguage,
+  ShareScope,
   SiteStatus,
 } from './enums.js';
 
@@ -28,6 +29,8 @@ export const PatientListItem = z.object({
   birthDate: IsoDate,
   implantSiteCount: z.number().int(),
   practiceName: z.string(),
+  /** For a patient of another practice shared with the user: what the share opens. */
+  shareScopes: z.array(ShareScope).nullable(),
   /** When the patient was archived; null for an active patient. */
   archivedAt: IsoDateTime.nullable(),
 });
@@ -158,17 +161,23 @@ export const ArchivePatientBody = z.object({
 });
 export type ArchivePatientBody = z.input<typeof ArchivePatientBody>;
 
-export const PatientDetail = PatientListItem.extend({
+/**
+ * One patient with the sites for the Arch. A surgeon of another practice reads only the fields a
+ * share opens (`SHARED_PATIENT_FIELDS`, CASL field rules applied to the reply): the others are absent.
+ */
+export const PatientDetail = PatientListItem.omit({ shareScopes: true }).extend({
   /** The patient's practice: row-level checks in the web (e.g. a shared surgeon may not plan sites). */
   practiceId: Id,
-  sex: PatientSex,
-  riskFactors: z.object({
-    smoker: z.boolean(),
-    diabetesPoorlyControlled: z.boolean(),
-    periodontitisHistory: z.boolean(),
-  }),
-  riskFactorsRecordedOn: IsoDate.nullable(),
-  /** Contact details and consent: for the patient's own practice only (null for a shared surgeon). */
+  sex: PatientSex.optional(),
+  riskFactors: z
+    .object({
+      smoker: z.boolean(),
+      diabetesPoorlyControlled: z.boolean(),
+      periodontitisHistory: z.boolean(),
+    })
+    .optional(),
+  riskFactorsRecordedOn: IsoDate.nullable().optional(),
+  /** Contact details and consent: for the patient's own practice only. */
   contact: z
     .object({
       email: z.string().nullable(),
@@ -177,12 +186,13 @@ export const PatientDetail = PatientListItem.extend({
       emailReminderConsent: z.boolean(),
       emailReminderConsentOn: IsoDate.nullable(),
     })
-    .nullable(),
+    .nullable()
+    .optional(),
   /** Whether the chart number may still be changed (once). */
-  chartNumberChangeable: z.boolean(),
-  archive: z.object({ at: IsoDateTime, byName: z.string(), reason: z.string() }).nullable(),
+  chartNumberChangeable: z.boolean().optional(),
+  archive: z.object({ at: IsoDateTime, byName: z.string(), reason: z.string() }).nullable().optional(),
   /** Teeth recorded as missing (not implant sites), drawn as faint outlines. */
-  missingTeeth: z.array(FdiPosition),
+  missingTeeth: z.array(FdiPosition).optional(),
   sites: z.array(ArchSite),
 });
 export type PatientDetail = z.infer<typeof PatientDetail>;
@@ -196,7 +206,7 @@ export const DuplicateCheckQuery = z.object({
 });
 export type DuplicateCheckQuery = z.infer<typeof DuplicateCheckQuery>;
 export const DuplicateCheckReply = z.object({
-  matches: z.array(PatientListItem.omit({ implantSiteCount: true, practiceName: true })),
+  matches: z.array(PatientListItem.omit({ implantSiteCount: true, practiceName: true, shareScopes: true })),
 });
 export type DuplicateCheckReply = z.infer<typeof DuplicateCheckReply>;
 

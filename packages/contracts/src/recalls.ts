@@ -228,7 +228,8 @@ export const RecallDeskRow = z.object({
   overdueDays: z.number().int(),
   lastExamOn: IsoDate.nullable(),
   sites: z.array(DeskSite),
-  riskFactors: RiskFactors,
+  /** Absent for a shared surgeon (the share's field rules do not name them). */
+  riskFactors: RiskFactors.optional(),
 });
 export type RecallDeskRow = z.infer<typeof RecallDeskRow>;
 export const RecallDeskReply = z.object({

@@ -7,6 +7,7 @@ import { auditRoutes } from './audit.js';
 import { seatingRoutes } from './seating.js';
 import { peopleRoutes } from './people.js';
 import { outcomeRoutes } from './outcomes.js';
+import { shareRoutes } from './shares.js';
 import { Me, SignInBody } from './auth.js';
 import { HealthReply, LivenessReply } from './health.js';
 import { PatientDetail, PatientListQuery, PatientListReply, patientRoutes } from './patients.js';
@@ -85,6 +86,7 @@ export const apiRoutes: RouteContract[] = [
   ...ledgerRoutes,
   ...peopleRoutes,
   ...outcomeRoutes,
+  ...shareRoutes,
   ...recallRoutes,
   ...radiographRoutes,
   ...seatingRoutes,

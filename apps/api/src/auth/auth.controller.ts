@@ -28,6 +28,11 @@ export class AuthController {
       practiceId: user.practiceId,
       practiceName: user.practiceName,
       sharedPatientIds: user.sharedPatientIds,
+      shares: user.shares.map((s) => ({
+        patientId: s.patientId,
+        scopes: [...s.scopes],
+        siteIds: s.siteIds && [...s.siteIds],
+      })),
       session: this.auth.sessionInfo(user),
     };
   }

@@ -1,4 +1,4 @@
-import type { Role } from '@torquetrail/authz';
+import type { ActiveShare, Role } from '@torquetrail/authz';
 
 /** The signed-in user, loaded fresh from the database on every request. */
 export interface SessionUser {
@@ -9,6 +9,8 @@ export interface SessionUser {
   practiceId: string;
   practiceName: string;
   sharedPatientIds: string[];
+  /** The live shares behind them, with scope and sites (never cached: loaded with the user). */
+  shares: ActiveShare[];
   /** The practice's idle sign-out period, minutes. */
   idleSignOutMinutes: number;
   /** From the request's token: when the person signed in and when the token was issued (seconds). */

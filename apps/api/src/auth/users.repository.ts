@@ -1,5 +1,6 @@
-import { and, eq, isNull, sql } from 'drizzle-orm';
+import { and, eq, sql } from 'drizzle-orm';
 import type { Db } from '../db/database.js';
+import { liveShare } from '../db/live-share.js';
 import { patientShares, practices, users } from '../db/schema/index.js';
 import type { SessionUser } from './session-user.js';
 
@@ -65,10 +66,12 @@ export async function findSessionUser(
     .innerJoin(practices, eq(practices.id, users.practiceId))
     .where(eq(users.id, userId));
   if (!row || !row.active) return null;
+  // Loaded with the user on every request, never cached: a share revoked or past its end date
+  // closes at the surgeon's next request. Several live shares of one patient add up.
   const shares = await db
-    .select({ patientId: patientShares.patientId })
+    .select({ patientId: patientShares.patientId, scopes: patientShares.scopes, siteIds: patientShares.siteIds })
     .from(patientShares)
-    .where(and(eq(patientShares.sharedWithUserId, userId), isNull(patientShares.revokedAt)));
+    .where(and(eq(patientShares.sharedWithUserId, userId), liveShare()));
   const { active: _active, ...user } = row;
-  return { ...user, sharedPatientIds: shares.map((s) => s.patientId) };
+  return { ...user, sharedPatientIds: [...new Set(shares.map((s) => s.patientId))], shares };
 }

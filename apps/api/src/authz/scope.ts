@@ -20,11 +20,18 @@ export const scopeOf = (user: SessionUser): Scope => ({
 });
 
 /**
+ * An implant site's row checked as another subject (its placement, exams, bone levels): it names
+ * itself as the site, so a share limited to chosen sites decides on it.
+ */
+export const asSiteRow = <T extends { id: string }>(site: T | null | undefined) =>
+  site ? { ...site, siteId: site.id } : null;
+
+/**
  * Row-level check of a loaded row. A row the user may not see answers 404, exactly like a row
  * that does not exist, so existence does not leak across practices; a row they may see but not
  * change answers 403.
  */
-export function assertCan<T extends { practiceId: string; patientId?: string; id?: string }>(
+export function assertCan<T extends { practiceId: string; patientId?: string; id?: string; siteId?: string | null }>(
   ability: AppAbility,
   action: Action,
   type: Exclude<Subject, 'all'>,

@@ -37,7 +37,7 @@ export class ComplicationsService {
       ability,
       'create',
       'Complication',
-      site ? { practiceId: site.practiceId, patientId: site.patientId } : null,
+      site ? { practiceId: site.practiceId, patientId: site.patientId, siteId: body.siteId } : null,
       'implant site',
     );
     this.checkDate(body.occurredOn);

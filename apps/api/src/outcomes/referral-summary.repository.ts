@@ -1,10 +1,11 @@
 // The referral summary: what the PDF shows of a patient's implants, the shares it can be sent
 // through, and its mail requests (the job queue sends them). Scoped by the caller's checks.
-import { and, desc, eq, isNull, sql } from 'drizzle-orm';
+import { and, desc, eq, sql } from 'drizzle-orm';
 import type { PeriImplantStatus, ComponentKind, SiteStatus } from '@torquetrail/contracts';
 import { visiblePatients } from '../authz/visible-patients.js';
 import type { Scope } from '../authz/scope.js';
 import type { Db, Tx } from '../db/database.js';
+import { liveShare } from '../db/live-share.js';
 import { patientShares, patients, practices, referralSummaryMails, users } from '../db/schema/index.js';
 
 export async function findVisiblePatient(db: Db, scope: Scope, id: string) {
@@ -34,7 +35,7 @@ export async function activeShares(db: Db, patientId: string) {
     .from(patientShares)
     .innerJoin(users, eq(users.id, patientShares.sharedWithUserId))
     .innerJoin(practices, eq(practices.id, users.practiceId))
-    .where(and(eq(patientShares.patientId, patientId), isNull(patientShares.revokedAt)))
+    .where(and(eq(patientShares.patientId, patientId), liveShare(), sql`'outcomes' = any(${patientShares.scopes})`))
     .orderBy(users.displayName);
 }
 

@@ -35,7 +35,7 @@ export class PatientsController {
     @CurrentUser() user: SessionUser,
     @Query(new ZodValidationPipe(PatientListQuery)) query: PatientListQuery,
   ): Promise<PatientListReply> {
-    return this.patients.list(scopeOf(user), query);
+    return this.patients.list(user, scopeOf(user), query);
   }
 
   /** Before saving a new patient (or a new name or birth date): the likely duplicates. */

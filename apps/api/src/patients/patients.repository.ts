@@ -36,6 +36,7 @@ export async function listPatients(db: Db, scope: Scope, search: string | undefi
       givenName: patients.givenName,
       familyName: patients.familyName,
       birthDate: patients.birthDate,
+      practiceId: patients.practiceId,
       practiceName: practices.name,
       archivedAt: patients.archivedAt,
       implantSiteCount: sql<number>`(select count(*)::int from ${implantSites} where ${implantSites.patientId} = ${patients.id})`,

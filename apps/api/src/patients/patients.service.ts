@@ -1,5 +1,6 @@
 import { Inject, Injectable } from '@nestjs/common';
-import { type AppAbility, subject } from '@torquetrail/authz';
+import { type AppAbility, SHARE_SCOPES, type ShareScope, subject } from '@torquetrail/authz';
+import type { SessionUser } from '../auth/session-user.js';
 import type { PatientDetail, PatientListQuery, PatientListReply } from '@torquetrail/contracts';
 import { assertCan, type Scope } from '../authz/scope.js';
 import { DB, type Database } from '../db/database.js';
@@ -13,9 +14,20 @@ export class PatientsService {
     private readonly maintenance: MaintenanceStatusService,
   ) {}
 
-  async list(scope: Scope, query: PatientListQuery): Promise<PatientListReply> {
+  /** The list; a patient of another practice names the scopes of the user's live shares of them. */
+  async list(user: SessionUser, scope: Scope, query: PatientListQuery): Promise<PatientListReply> {
     const rows = await listPatients(this.db, scope, query.search, query.archived);
-    return { items: rows.map((r) => ({ ...r, archivedAt: r.archivedAt?.toISOString() ?? null })) };
+    const scopes = new Map<string, Set<ShareScope>>();
+    for (const share of user.shares)
+      scopes.set(share.patientId, new Set([...(scopes.get(share.patientId) ?? []), ...share.scopes]));
+    return {
+      items: rows.map(({ practiceId, ...r }) => ({
+        ...r,
+        shareScopes:
+          practiceId === user.practiceId ? null : SHARE_SCOPES.filter((s) => scopes.get(r.id)?.has(s) ?? false),
+        archivedAt: r.archivedAt?.toISOString() ?? null,
+      })),
+    };
   }
 
   async detail(ability: AppAbility, scope: Scope, id: string): Promise<PatientDetail> {
@@ -23,9 +35,11 @@ export class PatientsService {
     const sites = (await listSitesOfPatient(this.db, patient.id)).filter((site) =>
       ability.can('read', subjectOf(site)),
     );
-    const exams = ability.can('read', subject('RecallExam', { practiceId: patient.practiceId, patientId: patient.id }))
-      ? await this.maintenance.latestBySite(sites.map((s) => s.id))
-      : new Map();
+    // Per site: a share limited to chosen sites, or without outcomes, opens no other site's exams.
+    const examined = sites.filter((s) =>
+      ability.can('read', subject('RecallExam', { practiceId: s.practiceId, patientId: s.patientId, siteId: s.id })),
+    );
+    const exams = await this.maintenance.latestBySite(examined.map((s) => s.id));
     return {
       id: patient.id,
       practiceId: patient.practiceId,

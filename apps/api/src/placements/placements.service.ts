@@ -21,7 +21,7 @@ import {
 } from '@torquetrail/domain';
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
-import { assertCan, type Scope } from '../authz/scope.js';
+import { asSiteRow, assertCan, type Scope } from '../authz/scope.js';
 import { assertAmendable } from '../common/amendment-conflict.js';
 import { keepAbsent } from '../common/keep-absent.js';
 import { fieldError } from '../common/field-error.js';
@@ -109,7 +109,7 @@ export class PlacementsService {
       ability,
       'create',
       'Placement',
-      await repo.findVisibleSite(this.db, scope, siteId),
+      asSiteRow(await repo.findVisibleSite(this.db, scope, siteId)),
       'implant site',
     );
   }

@@ -2,7 +2,7 @@ import { Inject, Injectable } from '@nestjs/common';
 import type { AppAbility } from '@torquetrail/authz';
 import type { SiteBoneLevel, SiteBoneLevels } from '@torquetrail/contracts';
 import { boneLevelSummary, examBoneLevelMm } from '@torquetrail/domain';
-import { assertCan, type Scope } from '../authz/scope.js';
+import { asSiteRow, assertCan, type Scope } from '../authz/scope.js';
 import { DB, type Database } from '../db/database.js';
 import * as repo from './bone-levels.repository.js';
 
@@ -32,7 +32,7 @@ export class BoneLevelsService {
       ability,
       'read',
       'Radiograph',
-      await repo.findVisibleSite(this.db, scope, siteId),
+      asSiteRow(await repo.findVisibleSite(this.db, scope, siteId)),
       'implant site',
     );
     const rows = await repo.currentSiteMeasurements(this.db, [site.id]);

@@ -26,7 +26,7 @@ import {
   toPeriImplantExam,
 } from '@torquetrail/domain';
 import type { z } from 'zod';
-import { assertCan, type Scope } from '../authz/scope.js';
+import { asSiteRow, assertCan, type Scope } from '../authz/scope.js';
 import { keepAbsent } from '../common/keep-absent.js';
 import { alreadyAmended } from '../common/amendment-conflict.js';
 import { fieldError } from '../common/field-error.js';
@@ -120,7 +120,7 @@ export class ExamsService {
       ability,
       'read',
       'RecallExam',
-      await findVisibleSiteForRecall(this.db, scope, siteId),
+      asSiteRow(await findVisibleSiteForRecall(this.db, scope, siteId)),
       'implant site',
     );
     const exams = await listExamsOfSites(this.db, [site.id]);

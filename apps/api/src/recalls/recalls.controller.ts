@@ -34,9 +34,10 @@ export class RecallsController {
   @Allow('read', 'RecallExam')
   deskPage(
     @CurrentUser() user: SessionUser,
+    @CurrentAbility() ability: AppAbility,
     @Query(new ZodValidationPipe(RecallDeskQuery)) query: RecallDeskQuery,
   ): Promise<RecallDeskReply> {
-    return this.desk.page(scopeOf(user), query);
+    return this.desk.page(ability, scopeOf(user), query);
   }
 
   @Get('desk/csv')
@@ -46,9 +47,10 @@ export class RecallsController {
   @Header('Content-Disposition', 'attachment; filename="recall-desk.csv"')
   deskCsv(
     @CurrentUser() user: SessionUser,
+    @CurrentAbility() ability: AppAbility,
     @Query(new ZodValidationPipe(RecallDeskCsvQuery)) query: RecallDeskCsvQuery,
   ): Promise<string> {
-    return this.desk.csv(scopeOf(user), query);
+    return this.desk.csv(ability, scopeOf(user), query);
   }
 
   @Get('patients/:id/exam-context')

@@ -10,7 +10,7 @@ import type {
   SiteStatus,
   TorqueReason,
 } from '@torquetrail/contracts';
-import { PATIENT_RECORD_FIELDS } from '@torquetrail/contracts';
+import { PATIENT_RECORD_FIELDS, SHARE_SCOPES } from '@torquetrail/contracts';
 import { addCalendarDays as addDays, parseUdi, RULES_VERSION, torqueVerdict } from '@torquetrail/domain';
 import type { Tx } from '../db/database.js';
 import { hashPassword } from '../auth/password.js';
@@ -662,15 +662,49 @@ export async function seedDemoScenario(tx: Tx, today: string): Promise<{ summary
   // Dr Imbert is shared into the patients he placed for.
   const imbertId = userIds.get('rafael.imbert@northgate.example')!;
   const sharedBy = userIds.get('ines.calloway@larkspur.example')!;
+  // His live shares open placement and outcomes of every site; an ended and a revoked share of
+  // Desmond Okafor show what no longer opens anything.
+  const reasons: [string, string][] = [
+    [harold, 'Placed 35 and 37; follows the bridge and the bone levels'],
+    [imogen, 'Placed the four implants of the lower full arch; follows the recalls'],
+    [lucia, 'Referred for the placement at 24'],
+    [wendell, 'Placed 15 and 16; records the second-stage visit'],
+  ];
   await tx.insert(patientShares).values(
-    [harold, imogen, lucia, wendell].map((patientId) => ({
+    reasons.map(([patientId, reason]) => ({
       practiceId: ctx.practiceId,
       patientId,
       sharedWithUserId: imbertId,
       sharedByUserId: sharedBy,
+      scopes: [...SHARE_SCOPES],
+      reason,
       since: at('2024-01-08'),
     })),
   );
+  await tx.insert(patientShares).values([
+    {
+      practiceId: ctx.practiceId,
+      patientId: desmond,
+      sharedWithUserId: imbertId,
+      sharedByUserId: sharedBy,
+      scopes: ['outcomes'],
+      reason: 'Second opinion on the bone loss at 46',
+      since: at('2023-05-02'),
+      endsOn: '2023-08-31',
+    },
+    {
+      practiceId: ctx.practiceId,
+      patientId: desmond,
+      sharedWithUserId: imbertId,
+      sharedByUserId: sharedBy,
+      scopes: [...SHARE_SCOPES],
+      reason: 'Referred for a possible replacement implant at 46',
+      since: at('2024-03-11'),
+      revokedAt: at('2024-04-02'),
+      revokedBy: sharedBy,
+      revokeReason: 'The patient chose to keep the present implant under monitoring',
+    },
+  ]);
 
   // 6. Quarry Hill Dental: an unrelated practice, never visible to Larkspur Lane.
   const qctx: Ctx = {

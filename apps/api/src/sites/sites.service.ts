@@ -42,7 +42,7 @@ export class SitesService {
       await findVisibleSite(this.db, scope, siteId),
       'implant site',
     );
-    const rowScope = { practiceId: site.practiceId, patientId: site.patientId };
+    const rowScope = { practiceId: site.practiceId, patientId: site.patientId, siteId: site.id };
     const canRead = (type: ReadableType) => ability.can('read', subject(type, { ...rowScope }));
     return { site, canRead };
   }

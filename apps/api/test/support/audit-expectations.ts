@@ -106,6 +106,11 @@ export const AUDIT_EXPECTATIONS: Record<string, Audited | null> = {
   'POST /api/people/:id/deactivation': { action: 'role-change', patient: false },
   'GET /api/practice/session-settings': null,
   'PUT /api/practice/session-settings': { action: 'policy-change', patient: false },
+  // Shares (issue 12): the list names patients; every change is a share-change naming its patient.
+  'GET /api/shares': read(false),
+  'GET /api/patients/:id/shares': read(),
+  'POST /api/patients/:id/shares': { action: 'share-change', patient: true },
+  'POST /api/shares/:id/revoke': { action: 'share-change', patient: true },
   // The public link pages and one's own password: no patient data, no record of the practice's.
   'POST /api/account/invitation': null,
   'POST /api/account/invitation/accept': null,

@@ -2,7 +2,7 @@ import { Alignment, Button, Classes, Navbar, NavbarDivider, NavbarGroup, NavbarH
 import type { Me } from '@torquetrail/contracts';
 import type React from 'react';
 import { Link, NavLink, useMatch } from 'react-router-dom';
-import { Can } from '../lib/ability';
+import { Can, useAppAbility } from '../lib/ability';
 import { ROLE_LABEL } from '../lib/labels';
 import { PageGate } from './page-gate';
 
@@ -22,6 +22,9 @@ function skipToContent(event: React.MouseEvent<HTMLAnchorElement>) {
 /** The top bar (product, Patients, who is signed in, Sign out) and the page below it. */
 export function AppShell({ me, onSignOut, signingOut, signOutError }: AppShellProps) {
   const onPatientList = useMatch('/patients') !== null;
+  const ability = useAppAbility();
+  // The practice administrator's screen, which also holds the dentist's list of shares.
+  const seesPractice = ability.can('read', 'User') || ability.can('read', 'Share');
   return (
     <>
       <a className="skip-link" href="#main" onClick={skipToContent}>
@@ -83,7 +86,7 @@ export function AppShell({ me, onSignOut, signingOut, signOutError }: AppShellPr
                   Lot look-up
                 </NavLink>
               </Can>
-              <Can I="read" a="User">
+              {seesPractice && (
                 <NavLink
                   to="/practice"
                   className={({ isActive }) =>
@@ -92,7 +95,7 @@ export function AppShell({ me, onSignOut, signingOut, signOutError }: AppShellPr
                 >
                   Practice
                 </NavLink>
-              </Can>
+              )}
             </nav>
           </NavbarGroup>
           <NavbarGroup align={Alignment.END}>

@@ -106,12 +106,14 @@ export const router = createBrowserRouter([
           },
           {
             path: 'outcomes',
+            handle: access('outcomes'),
             lazy: async () => ({
               Component: (await import('../features/outcomes/routes/outcomes-route')).OutcomesRoute,
             }),
           },
           {
             path: 'lot-lookup',
+            handle: access('lot-lookup'),
             lazy: async () => ({
               Component: (await import('../features/outcomes/routes/lot-lookup-route')).LotLookupRoute,
             }),
@@ -157,7 +159,12 @@ export const router = createBrowserRouter([
             handle: access('practice'),
             lazy: async () => ({ Component: (await import('../features/people/routes/practice-route')).PracticeRoute }),
             children: [
-              { index: true, element: <Navigate to="/practice/people" replace /> },
+              {
+                index: true,
+                lazy: async () => ({
+                  Component: (await import('../features/people/routes/practice-route')).PracticeHome,
+                }),
+              },
               {
                 path: 'people',
                 handle: access('practice/people'),
@@ -175,6 +182,13 @@ export const router = createBrowserRouter([
                 handle: access('practice/patient-settings'),
                 lazy: async () => ({
                   Component: (await import('../features/patients/routes/patient-settings-route')).PatientSettingsRoute,
+                }),
+              },
+              {
+                path: 'shares',
+                handle: access('practice/shares'),
+                lazy: async () => ({
+                  Component: (await import('../features/shares/routes/practice-shares-route')).PracticeSharesRoute,
                 }),
               },
               {

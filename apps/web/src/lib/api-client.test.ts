@@ -16,6 +16,7 @@ const me = {
   practiceId: '00000000-0000-4000-8000-000000000900',
   practiceName: 'Riverside Dental',
   sharedPatientIds: [],
+  shares: [],
   session: { idleSignOutS: 900, warnBeforeS: 60, reauthenticateAt: '2026-01-01T20:00:00.000Z' },
 };
 

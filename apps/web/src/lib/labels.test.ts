@@ -37,6 +37,8 @@ const LABELS: Record<string, LabelMap> = {
   AUDIT_ACTIONS: general.AUDIT_ACTION_LABEL,
   AUDIT_OUTCOMES: general.AUDIT_OUTCOME_LABEL,
   RADIOGRAPH_PREVIEW_STATUSES: general.RADIOGRAPH_PREVIEW_STATUS_LABEL,
+  SHARE_SCOPES: general.SHARE_SCOPE_LABEL,
+  SHARE_STATUSES: general.SHARE_STATUS_LABEL,
   CONNECTIONS: clinical.CONNECTION_LABEL,
   LOADING_PROTOCOLS: clinical.LOADING_PROTOCOL_LABEL,
   COMPONENT_KINDS: clinical.COMPONENT_KIND_LABEL,
@@ -72,6 +74,8 @@ const NOT_SHOWN: Record<string, string> = {
   SORT_DIRECTIONS: 'shown as a caret icon and aria-sort, not as words',
   RECALL_STATUSES: 'the Recall desk shows the next scheduled date, never a recall status',
   RESTORATIVE_DESIGNS: "worded inside Finding messages by the domain's RESTORATIVE_DESIGN_LABELS",
+  SHARED_PATIENT_FIELDS: 'the field names of the patient reply a share opens (CASL field rules), never shown',
+  SHARE_NOTICE_KINDS: 'which e-mail the API sends the surgeon; worded in the e-mail, never shown in the web',
   SYMBOLOGY_IDENTIFIERS: 'barcode prefixes read by the UDI parser, never displayed',
 };
 

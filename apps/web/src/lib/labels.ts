@@ -19,6 +19,8 @@ import {
   type RadiographPreviewStatus,
   type ReminderKind,
   type ReminderStatus,
+  type ShareScope,
+  type ShareStatus,
   type SiteStatus,
   type TimelineKind,
   type LotLookupKind,
@@ -240,4 +242,21 @@ export const IMPLANT_OUTCOME_LABEL: Record<ImplantOutcome, string> = {
   'in-function': 'In function',
   failed: 'Failed',
   removed: 'Removed',
+};
+
+export const SHARE_SCOPE_LABEL: Record<ShareScope, string> = {
+  placement: 'Placement',
+  outcomes: 'Outcomes',
+};
+
+/** What each scope lets the surgeon do, beside its checkbox. */
+export const SHARE_SCOPE_HINT: Record<ShareScope, string> = {
+  placement: 'Record and amend the placement of the shared sites, and file their radiographs',
+  outcomes: 'Read the shared sites’ restorations, recall findings, bone levels and radiographs',
+};
+
+export const SHARE_STATUS_LABEL: Record<ShareStatus, string> = {
+  active: 'Active',
+  ended: 'Ended',
+  revoked: 'Revoked',
 };

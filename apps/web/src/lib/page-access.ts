@@ -26,15 +26,20 @@ export const PAGE_ACCESS = {
   'patients/:patientId/radiographs': need('read', 'Radiograph'),
   'patients/:patientId/radiographs/:radiographId': need('read', 'Radiograph'),
   catalogue: need('read', 'Catalogue'),
+  outcomes: need('read', 'Outcomes'),
+  'lot-lookup': need('read', 'LotTrace'),
   recalls: need('read', 'RecallExam'),
   'recalls/patients/:patientId/exam': need('create', 'RecallExam'),
   'recalls/policy': need('read', 'RecallPolicy'),
   'recalls/reminders': need('read', 'AuditEntry'),
   account: null,
-  practice: need('read', 'User'),
+  // The Practice screen opens to whoever has one of its pages: the administrator, and the dentist
+  // for the practice's shares.
+  practice: need('read', 'Share'),
   'practice/people': need('read', 'User'),
   'practice/sign-in': need('update', 'Practice'),
   'practice/patient-settings': need('update', 'Practice'),
+  'practice/shares': need('read', 'Share'),
   'practice/audit': need('read', 'AuditEntry'),
 } as const satisfies Record<string, PageNeed | null>;
 

@@ -28,6 +28,8 @@ import {
   ROLES,
   SEATING_ANSWERS,
   SEATING_EVENTS,
+  SHARE_NOTICE_KINDS,
+  SHARE_SCOPES,
   SITE_STATUSES,
   TORQUE_REASONS,
   TORQUE_VERDICTS,
@@ -37,6 +39,8 @@ import {
 import { pgEnum } from 'drizzle-orm/pg-core';
 
 export const roleEnum = pgEnum('role', ROLES);
+export const shareScopeEnum = pgEnum('share_scope', SHARE_SCOPES);
+export const shareNoticeKindEnum = pgEnum('share_notice_kind', SHARE_NOTICE_KINDS);
 export const siteStatusEnum = pgEnum('site_status', SITE_STATUSES);
 export const connectionEnum = pgEnum('connection', CONNECTIONS);
 export const componentKindEnum = pgEnum('component_kind', COMPONENT_KINDS);

@@ -9,9 +9,18 @@ import {
   text,
   timestamp,
   unique,
+  uniqueIndex,
   uuid,
 } from 'drizzle-orm/pg-core';
-import { patientSexEnum, patientVersionKindEnum, preferredLanguageEnum } from './enums.js';
+import { sql } from 'drizzle-orm';
+import {
+  patientSexEnum,
+  patientVersionKindEnum,
+  preferredLanguageEnum,
+  reminderStatusEnum,
+  shareNoticeKindEnum,
+  shareScopeEnum,
+} from './enums.js';
 import { practices, users } from './practices.js';
 
 export const patients = pgTable(
@@ -104,7 +113,11 @@ export const chartNumberSequences = pgTable('chart_number_sequences', {
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
 });
 
-/** A patient of one practice opened to a user (a referring surgeon) of another. */
+/**
+ * A patient of one practice opened to a referring surgeon of another: what it opens (`scopes`),
+ * which implant sites (`site_ids`; null: all of them, also those added later), until when
+ * (`ends_on`, inclusive; null: until revoked) and why. Revoked, never deleted.
+ */
 export const patientShares = pgTable(
   'patient_shares',
   {
@@ -121,9 +134,43 @@ export const patientShares = pgTable(
     sharedByUserId: uuid('shared_by_user_id')
       .notNull()
       .references(() => users.id),
-    scope: text('scope').notNull().default('implant-record'),
+    scopes: shareScopeEnum('scopes')
+      .array()
+      .notNull()
+      .default(sql`'{placement,outcomes}'::share_scope[]`),
+    siteIds: uuid('site_ids').array(),
+    endsOn: date('ends_on', { mode: 'string' }),
+    reason: text('reason').notNull().default(''),
     since: timestamp('since', { withTimezone: true }).notNull().defaultNow(),
     revokedAt: timestamp('revoked_at', { withTimezone: true }),
+    revokedBy: uuid('revoked_by').references(() => users.id),
+    revokeReason: text('revoke_reason'),
   },
   (t) => [index('patient_shares_user_idx').on(t.sharedWithUserId), index('patient_shares_patient_idx').on(t.patientId)],
+);
+
+/**
+ * The e-mail telling the surgeon of a share or its revocation: a row written with the change (in its
+ * transaction), sent by the job queue, retried while SMTP is away and sent once (one per share and kind).
+ */
+export const shareNotices = pgTable(
+  'share_notices',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    shareId: uuid('share_id')
+      .notNull()
+      .references(() => patientShares.id),
+    kind: shareNoticeKindEnum('kind').notNull(),
+    status: reminderStatusEnum('status').notNull().default('pending'),
+    attempts: integer('attempts').notNull().default(0),
+    lastError: text('last_error'),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    sentAt: timestamp('sent_at', { withTimezone: true }),
+  },
+  (t) => [
+    uniqueIndex('share_notices_one_per_kind').on(t.shareId, t.kind),
+    index('share_notices_pending_idx')
+      .on(t.status)
+      .where(sql`${t.status} = 'pending'`),
+  ],
 );

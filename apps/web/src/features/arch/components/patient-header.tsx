@@ -5,12 +5,14 @@ import { RISK_FACTOR_LABEL } from '../../../lib/clinical-labels';
 import { ageInYears, formatDate } from '../../../lib/dates';
 import { ChartNumber } from '../../../lib/components/chart-number';
 
-type PatientRisk = keyof PatientDetail['riskFactors'];
+type PatientRisk = keyof NonNullable<PatientDetail['riskFactors']>;
 const isPatientRisk = (factor: string): factor is PatientRisk => factor !== 'priorPeriImplantitis';
 
 export function PatientHeader({ patient }: { patient: PatientDetail }) {
   // The patient's own risk factors; prior peri-implantitis is derived from exams, shown on the Recall desk.
-  const risks = RECALL_RISK_FACTORS.filter(isPatientRisk).filter((key) => patient.riskFactors[key]);
+  // A shared surgeon's reply has none (least privilege): the row is left out, not shown as "none".
+  const recorded = patient.riskFactors;
+  const risks = recorded ? RECALL_RISK_FACTORS.filter(isPatientRisk).filter((key) => recorded[key]) : [];
   return (
     <header className="patient-header">
       <h1 className="page-title">
@@ -33,20 +35,22 @@ export function PatientHeader({ patient }: { patient: PatientDetail }) {
           <dt>Practice</dt>
           <dd>{patient.practiceName}</dd>
         </div>
-        <div>
-          <dt>Risk factors</dt>
-          <dd className="tag-list">
-            {risks.length === 0 ? (
-              <span className="muted">None recorded</span>
-            ) : (
-              risks.map((key) => (
-                <Tag key={key} intent="warning" minimal icon="warning-sign">
-                  {RISK_FACTOR_LABEL[key]}
-                </Tag>
-              ))
-            )}
-          </dd>
-        </div>
+        {recorded && (
+          <div data-testid="patient-risk-factors">
+            <dt>Risk factors</dt>
+            <dd className="tag-list">
+              {risks.length === 0 ? (
+                <span className="muted">None recorded</span>
+              ) : (
+                risks.map((key) => (
+                  <Tag key={key} intent="warning" minimal icon="warning-sign">
+                    {RISK_FACTOR_LABEL[key]}
+                  </Tag>
+                ))
+              )}
+            </dd>
+          </div>
+        )}
       </dl>
     </header>
   );

@@ -14,6 +14,7 @@ import { useToothSystem } from '../../../lib/tooth-system';
 import { PatientAccessLog } from '../../audit';
 import { ReferralSummaryPanel } from '../../outcomes';
 import { usePatient } from '../../patients';
+import { PatientShares } from '../../shares';
 import { AddSiteControl } from '../components/add-site-control';
 import { ArchDrawing } from '../components/arch-drawing';
 import { ArchLegend } from '../components/arch-legend';
@@ -48,7 +49,7 @@ export function ArchRoute() {
   const data = patient.data;
   const name = `${data.givenName} ${data.familyName}`;
   const openSite = (siteId: string) => void navigate(`/patients/${data.id}/sites/${siteId}`);
-  const hasPrimary = [...data.sites.map((s) => s.fdi), ...data.missingTeeth].some(isPrimaryTooth);
+  const hasPrimary = [...data.sites.map((s) => s.fdi), ...(data.missingTeeth ?? [])].some(isPrimaryTooth);
 
   return (
     <div className="arch-page">
@@ -98,7 +99,7 @@ export function ArchRoute() {
             <ArchDrawing
               positions={TOOTH_POSITIONS_PERMANENT}
               sites={data.sites}
-              missingTeeth={data.missingTeeth}
+              missingTeeth={data.missingTeeth ?? []}
               system={system}
               onOpenSite={openSite}
               label="Dental arches"
@@ -110,7 +111,7 @@ export function ArchRoute() {
                 <ArchDrawing
                   positions={TOOTH_POSITIONS_PRIMARY}
                   sites={data.sites}
-                  missingTeeth={data.missingTeeth}
+                  missingTeeth={data.missingTeeth ?? []}
                   system={system}
                   onOpenSite={openSite}
                   label="Primary dental arches"
@@ -146,6 +147,9 @@ export function ArchRoute() {
       </section>
       <Can I="read" this={subject('ReferralSummary', { practiceId: data.practiceId, patientId: data.id })}>
         <ReferralSummaryPanel patientId={data.id} />
+      </Can>
+      <Can I="read" this={subject('Share', { practiceId: data.practiceId, patientId: data.id })}>
+        <PatientShares patient={data} />
       </Can>
       <Can I="read" this={subject('PatientAudit', { practiceId: data.practiceId, patientId: data.id })}>
         <PatientAccessLog patientId={data.id} />

@@ -7,7 +7,7 @@ import { useArchivePatient } from '../api/patient-records';
 
 /** Archive (or bring back) with a reason. Nothing is deleted; an archived patient gets no reminders. */
 export function ArchiveControl({ patient }: { patient: PatientDetail }) {
-  const archived = patient.archive !== null;
+  const archived = Boolean(patient.archive);
   const mutation = useArchivePatient(patient.id);
   const form = useContractForm<ArchivePatientBody, ArchivePatientBody>(ArchivePatientBody, { reason: '' });
   const submit = (body: ArchivePatientBody) =>

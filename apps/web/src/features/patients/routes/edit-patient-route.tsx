@@ -69,9 +69,9 @@ function EditForm({ patient }: { patient: PatientDetail }) {
   const ability = useAppAbility();
   const row = subject('Patient', { id: patient.id, practiceId: patient.practiceId });
   const editable = (field: keyof PatientDraft) =>
-    patient.archive === null &&
+    !patient.archive &&
     ability.can('update', row, field) &&
-    (field !== 'chartNumber' || patient.chartNumberChangeable);
+    (field !== 'chartNumber' || patient.chartNumberChangeable === true);
   const update = useUpdatePatient(patient.id);
   // Only the fields this user may change are sent (the hygienist's: contact details).
   const schema = draftSchema(UpdatePatientBody, (d: PatientDraft) => {

@@ -19,7 +19,7 @@ type Sort = RecallDeskQuery['sort'];
 const PAGE_SIZE = 50;
 
 const riskText = (r: RecallDeskRow['riskFactors']) =>
-  RECALL_RISK_FACTORS.filter((factor) => r[factor]).map((factor) => RISK_FACTOR_LABEL[factor]);
+  r ? RECALL_RISK_FACTORS.filter((factor) => r[factor]).map((factor) => RISK_FACTOR_LABEL[factor]) : [];
 
 /** /recalls: the hygienist's work list — next recall, overdue days, last status per implant, risk factors. */
 export function RecallDeskRoute() {

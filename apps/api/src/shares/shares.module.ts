@@ -1,0 +1,11 @@
+import { Module } from '@nestjs/common';
+import { ShareMailService } from './share-mail.service.js';
+import { SharesController } from './shares.controller.js';
+import { SharesService } from './shares.service.js';
+
+/** Shares of a practice's patients with referring surgeons of other practices (issue 12). */
+@Module({
+  controllers: [SharesController],
+  providers: [SharesService, ShareMailService],
+})
+export class SharesModule {}
