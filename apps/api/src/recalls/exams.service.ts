@@ -43,6 +43,7 @@ import {
   insertExam,
   insertExamAmendment,
   latestExamDateOfPatient,
+  listExamsOfSite,
   listExamsOfSites,
   listSitesForExam,
   lockExamHistory,
@@ -122,7 +123,7 @@ export class ExamsService {
       await findVisibleSiteForRecall(this.db, scope, siteId),
       'implant site',
     );
-    const exams = await listExamsOfSites(this.db, [site.id]);
+    const exams = await listExamsOfSite(this.db, site.id);
     return { siteId: site.id, fdi: site.fdi, patientId: site.patientId, exams: exams.map(toContract) };
   }
 
