@@ -1,17 +1,26 @@
 // `npm run bench`: the benchmarks, one after another. Each prints its own timings; none asserts.
-// Needs a prior `npm run build` (the benchmarks use the API's dist/).
+// Needs a prior `npm run build` (the benchmarks use the API's dist/). The Site-file benchmark
+// (docs/performance.md) runs by default; `npm run bench -- --all` adds the older, narrower ones.
+// Other arguments go to the Site-file benchmark (e.g. `-- --seconds 5 --repeats 3`).
 import path from 'node:path';
 import { repoRoot } from './lib/config.mjs';
 import { run } from './lib/proc.mjs';
 
+const all = process.argv.includes('--all');
+const args = process.argv.slice(2).filter((a) => a !== '--all');
 const benches = [
-  'scripts/bench-recall-desk.mjs',
-  'scripts/bench-audit-reads.mjs',
-  'scripts/bench-radiograph-upload.mjs',
+  ['scripts/bench-site-file.mjs', args],
+  ...(all
+    ? [
+        ['scripts/bench-recall-desk.mjs', []],
+        ['scripts/bench-audit-reads.mjs', []],
+        ['scripts/bench-radiograph-upload.mjs', []],
+      ]
+    : []),
 ];
-for (const bench of benches) {
+for (const [bench, benchArgs] of benches) {
   console.log(`\n== ${bench}`);
-  await run(process.execPath, [path.join(repoRoot, bench), ...process.argv.slice(2)], {
+  await run(process.execPath, [path.join(repoRoot, bench), ...benchArgs], {
     cwd: repoRoot,
     env: process.env,
   });

@@ -10,7 +10,7 @@ import { ensureDatabase } from './postgres.mjs';
 
 const dist = (p) => pathToFileURL(path.join(repoRoot, 'apps/api/dist', p)).href;
 
-export const BENCH_JWT_SECRET = 'bench-only-secret-bench-only-secret-0123';
+const BENCH_JWT_SECRET = 'bench-only-secret-bench-only-secret-0123';
 
 /** The API's environment for a bench database (its own restricted role, as in production). */
 export const benchEnv = (database) => ({

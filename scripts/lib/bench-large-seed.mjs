@@ -251,7 +251,7 @@ export async function seedLargePractice(connectionString, { patients = 10_000, l
       // The two values are ours (a uuid read above, a number): written into the text, typed by PostgreSQL.
       const sql = expandIds(statement)
         .replaceAll('$1', `'${practiceId}'::uuid`)
-        .replaceAll('$2', String(Number(patients)));
+        .replaceAll('$2', String(Math.trunc(patients)));
       const result = await client.query(sql);
       if (result.rowCount !== null) counts[name] = result.rowCount;
       log(
