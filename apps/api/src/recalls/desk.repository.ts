@@ -48,6 +48,21 @@ export async function queryDesk(
       );
     }
   }
+  // The due filters start from the scheduled recalls in their window (recalls_practice_due_idx):
+  // a patient whose next recall falls in it has a scheduled recall in it, so this only narrows the
+  // patients the next-due test below decides on, from the whole practice to a few hundred.
+  const visibleRecall: SQL =
+    scope.sharedPatientIds.length > 0
+      ? sql`(r.practice_id = ${scope.practiceId} or r.patient_id in (${sql.join(
+          scope.sharedPatientIds.map((id) => sql`${id}::uuid`),
+          sql`, `,
+        )}))`
+      : sql`r.practice_id = ${scope.practiceId}`;
+  const scheduledIn = (window: SQL) =>
+    sql`pa.id in (select r.patient_id from recalls r where ${visibleRecall} and r.status = 'scheduled' and ${window})`;
+  if (q.filter === 'due-this-week')
+    filters.push(scheduledIn(sql`r.due_on between ${today}::date and (${today}::date + ${DESK_DUE_SOON_DAYS}::int)`));
+  if (q.filter === 'overdue') filters.push(scheduledIn(sql`r.due_on < ${today}::date`));
   const outer: SQL[] = [sql`true`];
   if (q.filter === 'due-this-week')
     outer.push(sql`next_due between ${today}::date and (${today}::date + ${DESK_DUE_SOON_DAYS}::int)`);
