@@ -8,19 +8,18 @@ import { run } from './lib/proc.mjs';
 
 const all = process.argv.includes('--all');
 const args = process.argv.slice(2).filter((a) => a !== '--all');
+/** @type {{ script: string, args: string[] }[]} */
 const benches = [
-  ['scripts/bench-site-file.mjs', args],
+  { script: 'scripts/bench-site-file.mjs', args },
   ...(all
-    ? [
-        ['scripts/bench-recall-desk.mjs', []],
-        ['scripts/bench-audit-reads.mjs', []],
-        ['scripts/bench-radiograph-upload.mjs', []],
-      ]
+    ? ['scripts/bench-recall-desk.mjs', 'scripts/bench-audit-reads.mjs', 'scripts/bench-radiograph-upload.mjs'].map(
+        (script) => ({ script, args: [] }),
+      )
     : []),
 ];
-for (const [bench, benchArgs] of benches) {
-  console.log(`\n== ${bench}`);
-  await run(process.execPath, [path.join(repoRoot, bench), ...benchArgs], {
+for (const bench of benches) {
+  console.log(`\n== ${bench.script}`);
+  await run(process.execPath, [path.join(repoRoot, bench.script), ...bench.args], {
     cwd: repoRoot,
     env: process.env,
   });
