@@ -1,6 +1,8 @@
 import { and, eq, sql } from 'drizzle-orm';
-import type { Db } from '../db/database.js';
+import type { ActiveShare } from '@torquetrail/authz';
+import type { Database, Db } from '../db/database.js';
 import { liveShare } from '../db/live-share.js';
+import { preparedFor } from '../db/prepared.js';
 import { patientShares, practices, users } from '../db/schema/index.js';
 import type { SessionUser } from './session-user.js';
 
@@ -43,14 +45,24 @@ export async function setPassword(db: Db, userId: string, passwordHash: string):
 }
 
 /**
- * Loads the session user with the patients shared with them and their session version; null
- * when gone or inactive. The caller compares the version with the token's.
+ * Loads the session user with their live shares and their session version; null when gone or
+ * inactive. The caller compares the version with the token's. One prepared statement (the shares
+ * as a JSON array beside the user): it runs on every request, and is never cached, so a share
+ * revoked or past its end date closes at the surgeon's next request. Several live shares of one
+ * patient add up.
  */
 export async function findSessionUser(
-  db: Db,
+  db: Database,
   userId: string,
 ): Promise<(SessionUser & { sessionVersion: number }) | null> {
-  const [row] = await db
+  const [row] = await sessionUserQuery(db).execute({ userId });
+  if (!row || !row.active) return null;
+  const { active: _active, shares, ...user } = row;
+  return { ...user, sharedPatientIds: [...new Set(shares.map((s) => s.patientId))], shares };
+}
+
+const sessionUserQuery = preparedFor((db) =>
+  db
     .select({
       id: users.id,
       email: users.email,
@@ -61,17 +73,12 @@ export async function findSessionUser(
       idleSignOutMinutes: practices.idleSignOutMinutes,
       active: users.active,
       sessionVersion: users.sessionVersion,
+      shares: sql<ActiveShare[]>`coalesce((select json_agg(json_build_object(
+          'patientId', ${patientShares.patientId}, 'scopes', ${patientShares.scopes}, 'siteIds', ${patientShares.siteIds}))
+        from ${patientShares} where ${patientShares.sharedWithUserId} = ${users.id} and ${liveShare()}), '[]'::json)`,
     })
     .from(users)
     .innerJoin(practices, eq(practices.id, users.practiceId))
-    .where(eq(users.id, userId));
-  if (!row || !row.active) return null;
-  // Loaded with the user on every request, never cached: a share revoked or past its end date
-  // closes at the surgeon's next request. Several live shares of one patient add up.
-  const shares = await db
-    .select({ patientId: patientShares.patientId, scopes: patientShares.scopes, siteIds: patientShares.siteIds })
-    .from(patientShares)
-    .where(and(eq(patientShares.sharedWithUserId, userId), liveShare()));
-  const { active: _active, ...user } = row;
-  return { ...user, sharedPatientIds: [...new Set(shares.map((s) => s.patientId))], shares };
-}
+    .where(eq(users.id, sql.placeholder('userId')))
+    .prepare('session_user'),
+);

@@ -13,13 +13,26 @@ export const DB = Symbol('DB');
 export const PG_POOL = Symbol('PG_POOL');
 
 /**
+ * Session settings of the API's connections. JIT compilation off: the API's statements are short
+ * and planned for a handful of rows, where compiling costs more than it saves; on the Recall desk
+ * at 10 000 patients it was most of the statement's time (docs/adr/0008-no-jit-for-the-api.md).
+ * @public (read by the benchmark, scripts/bench/site-file-report.mjs)
+ */
+export const PG_SESSION_OPTIONS = '-c jit=off';
+
+/**
  * The pool reports an idle client whose server went away (PostgreSQL stopped or restarted) as an
  * 'error' event; without a listener Node ends the process. The pool drops that client and opens
  * a new one for the next query, so the listener only reports it. A connection attempt gives up
  * after 5 s (the request then answers 503) instead of waiting for ever.
  */
 export function createPool(databaseUrl: string, onIdleError: (error: Error) => void = () => {}): pg.Pool {
-  const pool = new pg.Pool({ connectionString: databaseUrl, max: 10, connectionTimeoutMillis: 5000 });
+  const pool = new pg.Pool({
+    connectionString: databaseUrl,
+    max: 10,
+    connectionTimeoutMillis: 5000,
+    options: PG_SESSION_OPTIONS,
+  });
   pool.on('error', onIdleError);
   return pool;
 }

@@ -1,5 +1,6 @@
 import { and, desc, eq, gte, inArray, isNull, sql } from 'drizzle-orm';
-import type { Db } from '../db/database.js';
+import type { Database, Db } from '../db/database.js';
+import { preparedFor } from '../db/prepared.js';
 import { insertAmendment, isCurrentVersion } from '../db/amendments.js';
 import {
   implantSites,
@@ -11,15 +12,19 @@ import {
   users,
 } from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
-import { visiblePatients } from '../authz/visible-patients.js';
+import { scopeParams, visiblePatients, visiblePatientsPrepared } from '../authz/visible-patients.js';
 
-export async function findVisiblePatient(db: Db, scope: Scope, id: string) {
-  const [row] = await db
-    .select({ id: patients.id, practiceId: patients.practiceId })
-    .from(patients)
-    .where(and(eq(patients.id, id), visiblePatients(scope)));
+export async function findVisiblePatient(db: Database, scope: Scope, id: string) {
+  const [row] = await visiblePatientQuery(db).execute({ id, ...scopeParams(scope) });
   return row ? { ...row, patientId: row.id } : null;
 }
+const visiblePatientQuery = preparedFor((db) =>
+  db
+    .select({ id: patients.id, practiceId: patients.practiceId })
+    .from(patients)
+    .where(and(eq(patients.id, sql.placeholder('id')), visiblePatientsPrepared()))
+    .prepare('radiograph_patient'),
+);
 
 /** The ids among `siteIds` that are sites of the patient. */
 export async function sitesOfPatient(db: Db, patientId: string, siteIds: readonly string[]) {
@@ -74,22 +79,26 @@ export async function findVisibleRadiograph(db: Db, scope: Scope, id: string) {
 }
 export type RadiographRow = NonNullable<Awaited<ReturnType<typeof findVisibleRadiograph>>>;
 
-export async function listForPatient(db: Db, scope: Scope, patientId: string, includeEnteredInError: boolean) {
-  const rows = await db
+export async function listForPatient(db: Database, scope: Scope, patientId: string, includeEnteredInError: boolean) {
+  const rows = await patientRadiographsQuery(db).execute({ patientId, includeEnteredInError, ...scopeParams(scope) });
+  return rows.map((row) => ({ ...row.r, uploadedByName: row.uploadedByName, siteIds: row.siteIds }));
+}
+const patientRadiographsQuery = preparedFor((db) =>
+  db
     .select(columns)
     .from(radiographs)
     .innerJoin(patients, eq(patients.id, radiographs.patientId))
     .innerJoin(users, eq(users.id, radiographs.uploadedBy))
     .where(
       and(
-        eq(radiographs.patientId, patientId),
-        visiblePatients(scope),
-        includeEnteredInError ? undefined : isNull(radiographs.enteredInErrorAt),
+        eq(radiographs.patientId, sql.placeholder('patientId')),
+        visiblePatientsPrepared(),
+        sql`(${sql.placeholder('includeEnteredInError')}::boolean or ${radiographs.enteredInErrorAt} is null)`,
       ),
     )
-    .orderBy(desc(radiographs.takenOn), desc(radiographs.uploadedAt));
-  return rows.map((row) => ({ ...row.r, uploadedByName: row.uploadedByName, siteIds: row.siteIds }));
-}
+    .orderBy(desc(radiographs.takenOn), desc(radiographs.uploadedAt))
+    .prepare('radiograph_list'),
+);
 
 export async function markEnteredInError(db: Db, id: string, userId: string, reason: string) {
   await db

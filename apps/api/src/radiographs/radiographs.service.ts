@@ -115,8 +115,12 @@ export class RadiographsService {
   }
 
   async list(ability: AppAbility, scope: Scope, patientId: string, includeEnteredInError: boolean) {
-    assertCan(ability, 'read', 'Radiograph', await repo.findVisiblePatient(this.db, scope, patientId), 'patient');
-    const rows = await repo.listForPatient(this.db, scope, patientId, includeEnteredInError);
+    // Side by side: the list is scoped in its own where clause, so it is empty when the check fails.
+    const [patient, rows] = await Promise.all([
+      repo.findVisiblePatient(this.db, scope, patientId),
+      repo.listForPatient(this.db, scope, patientId, includeEnteredInError),
+    ]);
+    assertCan(ability, 'read', 'Radiograph', patient, 'patient');
     return { items: rows.map(toRadiograph) };
   }
 

@@ -1,6 +1,7 @@
 // The Recall desk in one SQL statement: filtered, sorted and paged in PostgreSQL, scoped to the
 // practice (and the user's shares) in the where clause. Indexes used: recalls_patient_idx,
-// recall_exams_site_idx (latest exam per site), recall_exams_patient_idx, recall_exams_supersedes_idx,
+// recall_exams_site_idx (latest exam per site), recall_exams_patient_idx, recall_exams_supersedes_unique,
+// recall_exams_peri_implantitis_idx,
 // implant_sites_practice_idx / the patient FK look-ups. See scripts/bench-recall-desk.mjs for timings.
 import { sql, type SQL } from 'drizzle-orm';
 import { DESK_DUE_SOON_DAYS, type RecallDeskCsvQuery, type RecallDeskRow } from '@torquetrail/contracts';
@@ -47,6 +48,21 @@ export async function queryDesk(
       );
     }
   }
+  // The due filters start from the scheduled recalls in their window (recalls_practice_due_idx):
+  // a patient whose next recall falls in it has a scheduled recall in it, so this only narrows the
+  // patients the next-due test below decides on, from the whole practice to a few hundred.
+  const visibleRecall: SQL =
+    scope.sharedPatientIds.length > 0
+      ? sql`(r.practice_id = ${scope.practiceId} or r.patient_id in (${sql.join(
+          scope.sharedPatientIds.map((id) => sql`${id}::uuid`),
+          sql`, `,
+        )}))`
+      : sql`r.practice_id = ${scope.practiceId}`;
+  const scheduledIn = (window: SQL) =>
+    sql`pa.id in (select r.patient_id from recalls r where ${visibleRecall} and r.status = 'scheduled' and ${window})`;
+  if (q.filter === 'due-this-week')
+    filters.push(scheduledIn(sql`r.due_on between ${today}::date and (${today}::date + ${DESK_DUE_SOON_DAYS}::int)`));
+  if (q.filter === 'overdue') filters.push(scheduledIn(sql`r.due_on < ${today}::date`));
   const outer: SQL[] = [sql`true`];
   if (q.filter === 'due-this-week')
     outer.push(sql`next_due between ${today}::date and (${today}::date + ${DESK_DUE_SOON_DAYS}::int)`);
@@ -60,8 +76,9 @@ export async function queryDesk(
 
   // Two phases: the sort and filter keys for every patient (cheap index look-ups), then the page;
   // the per-implant statuses and the derived risk factor only for the rows of the page.
-  // "Peri-implantitis last time": the latest current exam of every examinable site, in one
-  // set-based pass (DISTINCT ON) over the scope's exams rather than one look-up per site.
+  // "Peri-implantitis last time": a current peri-implantitis exam of an examinable site with no
+  // later current exam of that site. Starts from the practice's peri-implantitis exams (a partial
+  // index, recall_exams_peri_implantitis_idx), a few per hundred, not from every exam.
   const visibleExam: SQL =
     scope.sharedPatientIds.length > 0
       ? sql`(x.practice_id = ${scope.practiceId} or x.patient_id in (${sql.join(
@@ -70,12 +87,14 @@ export async function queryDesk(
         )}))`
       : sql`x.practice_id = ${scope.practiceId}`;
   const lastPi = sql`(pa.id in (
-      select l.patient_id from (
-        select distinct on (x.site_id) x.patient_id, x.status
-        from recall_exams x join implant_sites s on s.id = x.site_id and s.status in ('placed', 'restored')
-        where ${visibleExam} and not exists (select 1 from recall_exams x2 where x2.supersedes_id = x.id)
-        order by x.site_id, x.examined_on desc, x.recorded_at desc
-      ) l where l.status = 'peri-implantitis'))`;
+      select x.patient_id
+      from recall_exams x join implant_sites s on s.id = x.site_id and s.status in ('placed', 'restored')
+      where ${visibleExam} and x.status = 'peri-implantitis'
+        and not exists (select 1 from recall_exams x2 where x2.supersedes_id = x.id)
+        and not exists (
+          select 1 from recall_exams y
+          where y.site_id = x.site_id and (y.examined_on, y.recorded_at) > (x.examined_on, x.recorded_at)
+            and not exists (select 1 from recall_exams y2 where y2.supersedes_id = y.id))))`;
   const result = await db.execute<{
     id: string;
     chart_number: string;

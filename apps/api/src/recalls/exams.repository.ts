@@ -10,7 +10,8 @@ import {
   type PeriImplantStatus,
   type ProbedSite,
 } from '@torquetrail/domain';
-import type { Db, Tx } from '../db/database.js';
+import type { Database, Db, Tx } from '../db/database.js';
+import { preparedFor } from '../db/prepared.js';
 import {
   implantSites,
   patients,
@@ -21,7 +22,7 @@ import {
   users,
 } from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
-import { visiblePatients } from '../authz/visible-patients.js';
+import { scopeParams, visiblePatients, visiblePatientsPrepared } from '../authz/visible-patients.js';
 import { insertAmendment, isAmended, isCurrentVersion } from '../db/amendments.js';
 
 /** Not superseded by an amendment. */
@@ -73,19 +74,50 @@ export async function listExamsOfSites(db: Db, siteIds: string[]): Promise<ExamR
   return attachSites(db, rows);
 }
 
+/**
+ * The exam history of one site (current exams, oldest first, with their probing sites): the
+ * exams and the probing rows read side by side, each a prepared statement keyed by the site.
+ */
+export async function listExamsOfSite(db: Database, siteId: string): Promise<ExamRow[]> {
+  const [rows, probes] = await Promise.all([
+    siteExamsQuery(db).execute({ siteId }),
+    siteProbesQuery(db).execute({ siteId }),
+  ]);
+  return withProbes(rows, probes);
+}
+const siteExamsQuery = preparedFor((db) =>
+  db
+    .select(examColumns)
+    .from(recallExams)
+    .innerJoin(implantSites, eq(implantSites.id, recallExams.siteId))
+    .innerJoin(users, eq(users.id, recallExams.examinerId))
+    .where(and(eq(recallExams.siteId, sql.placeholder('siteId')), isCurrent))
+    .orderBy(asc(recallExams.examinedOn), asc(recallExams.recordedAt))
+    .prepare('exam_history_exams'),
+);
+const probeColumns = {
+  examId: recallExamSites.examId,
+  position: recallExamSites.position,
+  probingDepthMm: recallExamSites.probingDepthMm,
+  bleeding: recallExamSites.bleeding,
+  suppuration: recallExamSites.suppuration,
+};
+const siteProbesQuery = preparedFor((db) =>
+  db
+    .select(probeColumns)
+    .from(recallExamSites)
+    .innerJoin(recallExams, eq(recallExams.id, recallExamSites.examId))
+    .where(and(eq(recallExams.siteId, sql.placeholder('siteId')), isCurrent))
+    .prepare('exam_history_probes'),
+);
+
 async function attachSites(
   db: Db,
   rows: (Omit<ExamRow, 'sites' | 'recordedAt' | 'recordedAtDate'> & { recordedAt: Date })[],
 ): Promise<ExamRow[]> {
   if (rows.length === 0) return [];
   const probes = await db
-    .select({
-      examId: recallExamSites.examId,
-      position: recallExamSites.position,
-      probingDepthMm: recallExamSites.probingDepthMm,
-      bleeding: recallExamSites.bleeding,
-      suppuration: recallExamSites.suppuration,
-    })
+    .select(probeColumns)
     .from(recallExamSites)
     .where(
       inArray(
@@ -93,6 +125,19 @@ async function attachSites(
         rows.map((r) => r.id),
       ),
     );
+  return withProbes(rows, probes);
+}
+
+function withProbes(
+  rows: (Omit<ExamRow, 'sites' | 'recordedAt' | 'recordedAtDate'> & { recordedAt: Date })[],
+  probes: {
+    examId: string;
+    position: ProbedSite['position'];
+    probingDepthMm: number;
+    bleeding: boolean;
+    suppuration: boolean;
+  }[],
+): ExamRow[] {
   const byExam = new Map<string, ProbedSite[]>();
   for (const p of probes) {
     const list = byExam.get(p.examId) ?? [];
@@ -173,8 +218,12 @@ export async function listSitesForExam(db: Db, patientId: string) {
     .orderBy(asc(implantSites.fdi));
 }
 
-export async function findVisibleSiteForRecall(db: Db, scope: Scope, siteId: string) {
-  const [row] = await db
+export async function findVisibleSiteForRecall(db: Database, scope: Scope, siteId: string) {
+  const [row] = await visibleSiteQuery(db).execute({ siteId, ...scopeParams(scope) });
+  return row ?? null;
+}
+const visibleSiteQuery = preparedFor((db) =>
+  db
     .select({
       id: implantSites.id,
       practiceId: implantSites.practiceId,
@@ -183,9 +232,9 @@ export async function findVisibleSiteForRecall(db: Db, scope: Scope, siteId: str
     })
     .from(implantSites)
     .innerJoin(patients, eq(patients.id, implantSites.patientId))
-    .where(and(eq(implantSites.id, siteId), visiblePatients(scope)));
-  return row ?? null;
-}
+    .where(and(eq(implantSites.id, sql.placeholder('siteId')), visiblePatientsPrepared()))
+    .prepare('exam_history_site'),
+);
 
 /** Any current exam of the patient computed as peri-implantitis (a recall risk factor). */
 export async function hadPeriImplantitis(db: Db, patientId: string): Promise<boolean> {

@@ -44,6 +44,7 @@ import {
   insertExam,
   insertExamAmendment,
   latestExamDateOfPatient,
+  listExamsOfSite,
   listExamsOfSites,
   listSitesForExam,
   lockExamHistory,
@@ -123,7 +124,7 @@ export class ExamsService {
       asSiteRow(await findVisibleSiteForRecall(this.db, scope, siteId)),
       'implant site',
     );
-    const exams = await listExamsOfSites(this.db, [site.id]);
+    const exams = await listExamsOfSite(this.db, site.id);
     return { siteId: site.id, fdi: site.fdi, patientId: site.patientId, exams: exams.map(toContract) };
   }
 

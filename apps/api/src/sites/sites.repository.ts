@@ -1,7 +1,8 @@
-import { and, asc, desc, eq, inArray, isNull, ne, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, isNull, ne, sql } from 'drizzle-orm';
 import type { TorqueReason, TorqueVerdict } from '@torquetrail/contracts';
 import { alias } from 'drizzle-orm/pg-core';
-import type { Db } from '../db/database.js';
+import type { Database } from '../db/database.js';
+import { preparedFor } from '../db/prepared.js';
 import {
   componentInstances,
   components,
@@ -17,11 +18,15 @@ import {
   torqueEvents,
 } from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
-import { visiblePatients } from '../authz/visible-patients.js';
+import { scopeParams, visiblePatientsPrepared } from '../authz/visible-patients.js';
 import { isCurrentVersion } from '../db/amendments.js';
 
-export async function findVisibleSite(db: Db, scope: Scope, siteId: string) {
-  const [row] = await db
+export async function findVisibleSite(db: Database, scope: Scope, siteId: string) {
+  const [row] = await visibleSiteQuery(db).execute({ siteId, ...scopeParams(scope) });
+  return row ?? null;
+}
+const visibleSiteQuery = preparedFor((db) =>
+  db
     .select({
       id: implantSites.id,
       practiceId: implantSites.practiceId,
@@ -32,13 +37,17 @@ export async function findVisibleSite(db: Db, scope: Scope, siteId: string) {
     })
     .from(implantSites)
     .innerJoin(patients, eq(patients.id, implantSites.patientId))
-    .where(and(eq(implantSites.id, siteId), visiblePatients(scope)));
-  return row ?? null;
-}
+    .where(and(eq(implantSites.id, sql.placeholder('siteId')), visiblePatientsPrepared()))
+    .prepare('site_file_site'),
+);
 
 /** The current placement: the one no later amendment supersedes. */
-export async function findCurrentPlacement(db: Db, siteId: string) {
-  const [row] = await db
+export async function findCurrentPlacement(db: Database, siteId: string) {
+  const [row] = await currentPlacementQuery(db).execute({ siteId });
+  return row ?? null;
+}
+const currentPlacementQuery = preparedFor((db) =>
+  db
     .select({
       placedOn: placements.placedOn,
       surgeonName: placements.surgeonName,
@@ -57,14 +66,17 @@ export async function findCurrentPlacement(db: Db, siteId: string) {
     .from(placements)
     .innerJoin(platforms, eq(platforms.id, placements.platformId))
     .innerJoin(implantSystems, eq(implantSystems.id, platforms.systemId))
-    .where(and(eq(placements.siteId, siteId), isCurrentVersion(placements)))
+    .where(and(eq(placements.siteId, sql.placeholder('siteId')), isCurrentVersion(placements)))
     .orderBy(desc(placements.recordedAt))
-    .limit(1);
-  return row ?? null;
-}
+    .limit(1)
+    .prepare('site_file_placement'),
+);
 
 /** Parts in the mouth now (not removed), from the implant outward, each as the version installed. */
-export async function listCurrentParts(db: Db, siteId: string) {
+export async function listCurrentParts(db: Database, siteId: string) {
+  return currentPartsQuery(db).execute({ siteId });
+}
+const currentPartsQuery = preparedFor((db) => {
   const latest = alias(components, 'latest');
   return db
     .select({
@@ -98,15 +110,21 @@ export async function listCurrentParts(db: Db, siteId: string) {
         sql`not exists (select 1 from ${components} newer where newer.supersedes_id = ${latest.id})`,
       ),
     )
-    .where(and(eq(componentInstances.siteId, siteId), isNull(componentInstances.removedOn)))
-    .orderBy(asc(componentInstances.installedOn), asc(componentInstances.recordedAt));
-}
+    .where(and(eq(componentInstances.siteId, sql.placeholder('siteId')), isNull(componentInstances.removedOn)))
+    .orderBy(asc(componentInstances.installedOn), asc(componentInstances.recordedAt))
+    .prepare('site_file_parts');
+});
 
-/** The latest torque event per part (amended entries are replaced by their amendment). */
-export async function latestTorqueByInstance(db: Db, instanceIds: string[]) {
-  if (instanceIds.length === 0) return new Map<string, LatestTorque>();
-  const rows = await db
-    .selectDistinctOn([torqueEvents.componentInstanceId], {
+/**
+ * Every current (not amended) torque entry of the parts in the mouth at the site, oldest first:
+ * the last one per part for the Stack and the whole list for the re-torque reminder, in one read.
+ */
+export async function currentTorqueOfSite(db: Database, siteId: string): Promise<SiteTorque[]> {
+  return currentTorqueQuery(db).execute({ siteId });
+}
+const currentTorqueQuery = preparedFor((db) =>
+  db
+    .select({
       instanceId: torqueEvents.componentInstanceId,
       id: torqueEvents.id,
       appliedNcm: torqueEvents.appliedNcm,
@@ -117,11 +135,18 @@ export async function latestTorqueByInstance(db: Db, instanceIds: string[]) {
       performedAt: torqueEvents.performedAt,
     })
     .from(torqueEvents)
-    .where(and(inArray(torqueEvents.componentInstanceId, instanceIds), isCurrentVersion(torqueEvents)))
-    .orderBy(torqueEvents.componentInstanceId, desc(torqueEvents.performedAt));
-  return new Map(rows.map((r) => [r.instanceId, r]));
-}
-export type LatestTorque = {
+    .innerJoin(componentInstances, eq(componentInstances.id, torqueEvents.componentInstanceId))
+    .where(
+      and(
+        eq(componentInstances.siteId, sql.placeholder('siteId')),
+        isNull(componentInstances.removedOn),
+        isCurrentVersion(torqueEvents),
+      ),
+    )
+    .orderBy(asc(torqueEvents.performedAt), asc(torqueEvents.recordedAt))
+    .prepare('site_file_torque'),
+);
+export type SiteTorque = {
   instanceId: string;
   id: string;
   appliedNcm: number;
@@ -132,65 +157,64 @@ export type LatestTorque = {
   performedAt: Date;
 };
 
-/** The restoration on this site now: the delivered one, else the current plan (not amended, not removed). */
-export async function findCurrentRestoration(db: Db, siteId: string) {
-  const [row] = await db
-    .select({
-      id: restorations.id,
-      kind: restorations.kind,
-      retention: restorations.retention,
-      material: restorations.material,
-      deliveredOn: restorations.deliveredOn,
-      interface: restorationSites.interface,
-    })
-    .from(restorationSites)
-    .innerJoin(restorations, eq(restorations.id, restorationSites.restorationId))
-    .where(
-      and(
-        eq(restorationSites.siteId, siteId),
-        ne(restorations.status, 'removed'),
-        // An amended plan is replaced by its amendment.
-        isCurrentVersion(restorations),
-      ),
-    )
-    // What is in the mouth comes before what is only planned; then the newest.
-    .orderBy(
-      sql`(${restorations.status} = 'delivered') desc`,
-      desc(restorations.deliveredOn),
-      desc(restorations.createdAt),
-    )
-    .limit(1);
-  if (!row) return null;
-  const spans = await db
-    .select({ fdi: implantSites.fdi })
-    .from(restorationSites)
-    .innerJoin(implantSites, eq(implantSites.id, restorationSites.siteId))
-    .where(eq(restorationSites.restorationId, row.id))
-    .orderBy(asc(implantSites.fdi));
-  return { ...row, spansFdi: spans.map((s) => s.fdi) };
+/**
+ * The restoration on this site now: the delivered one, else the current plan (not amended, not
+ * removed), with the positions it spans.
+ */
+export async function findCurrentRestoration(db: Database, siteId: string) {
+  const [row] = await currentRestorationQuery(db).execute({ siteId });
+  return row ?? null;
 }
-
-/** Current (not amended) torque entries of the parts, oldest first: for the re-torque reminder. */
-export async function torqueReasonsByInstance(db: Db, instanceIds: string[]) {
-  if (instanceIds.length === 0) return [];
-  return db
-    .select({
-      instanceId: torqueEvents.componentInstanceId,
-      reason: torqueEvents.reason,
-      performedAt: torqueEvents.performedAt,
-    })
-    .from(torqueEvents)
-    .where(and(inArray(torqueEvents.componentInstanceId, instanceIds), isCurrentVersion(torqueEvents)))
-    .orderBy(asc(torqueEvents.performedAt));
-}
+const currentRestorationQuery = preparedFor((db) => {
+  return (
+    db
+      .select({
+        id: restorations.id,
+        kind: restorations.kind,
+        retention: restorations.retention,
+        material: restorations.material,
+        deliveredOn: restorations.deliveredOn,
+        interface: restorationSites.interface,
+        spansFdi: sql<number[]>`array(select s.fdi from restoration_sites rs join implant_sites s on s.id = rs.site_id
+        where rs.restoration_id = ${restorations.id} order by s.fdi)`,
+      })
+      .from(restorationSites)
+      .innerJoin(restorations, eq(restorations.id, restorationSites.restorationId))
+      .where(
+        and(
+          eq(restorationSites.siteId, sql.placeholder('siteId')),
+          ne(restorations.status, 'removed'),
+          // An amended plan is replaced by its amendment.
+          isCurrentVersion(restorations),
+        ),
+      )
+      // What is in the mouth comes before what is only planned; then the newest.
+      .orderBy(
+        sql`(${restorations.status} = 'delivered') desc`,
+        desc(restorations.deliveredOn),
+        desc(restorations.createdAt),
+      )
+      .limit(1)
+      .prepare('site_file_restoration')
+  );
+});
 
 /**
- * The current seating check of a restoration's delivery (written by the seating feature; the Stack
- * only reads it), with whether its radiograph has since been marked entered in error.
+ * The current delivery seating checks of the restorations on the site (written by the seating
+ * feature; the Stack only reads the one of its restoration), with whether the radiograph has since
+ * been marked entered in error. Read by site, so it runs beside the restoration's own read.
  */
-export async function deliverySeating(db: Db, restorationId: string) {
-  const [row] = await db
+export async function deliverySeatingOfSite(db: Database, siteId: string) {
+  const rows = await deliverySeatingQuery(db).execute({ siteId });
+  return rows.map(({ restorationId, ...row }) => ({
+    restorationId,
+    seating: { ...row, recordedAt: row.recordedAt.toISOString() },
+  }));
+}
+const deliverySeatingQuery = preparedFor((db) =>
+  db
     .select({
+      restorationId: seatingChecks.restorationId,
       checkId: seatingChecks.id,
       seated: seatingChecks.seated,
       radiographId: seatingChecks.radiographId,
@@ -200,12 +224,13 @@ export async function deliverySeating(db: Db, restorationId: string) {
     })
     .from(seatingChecks)
     .innerJoin(radiographs, eq(radiographs.id, seatingChecks.radiographId))
+    .innerJoin(restorationSites, eq(restorationSites.restorationId, seatingChecks.restorationId))
     .where(
       and(
-        eq(seatingChecks.restorationId, restorationId),
+        eq(restorationSites.siteId, sql.placeholder('siteId')),
         eq(seatingChecks.event, 'delivery'),
         isCurrentVersion(seatingChecks),
       ),
-    );
-  return row ? { ...row, recordedAt: row.recordedAt.toISOString() } : null;
-}
+    )
+    .prepare('site_file_seating'),
+);

@@ -6,13 +6,12 @@ import { assertCan, type Scope } from '../authz/scope.js';
 import { DB, type Database } from '../db/database.js';
 import { MaintenanceStatusService } from '../recalls/maintenance-status.service.js';
 import {
-  deliverySeating,
+  currentTorqueOfSite,
+  deliverySeatingOfSite,
   findCurrentPlacement,
   findCurrentRestoration,
   findVisibleSite,
-  latestTorqueByInstance,
   listCurrentParts,
-  torqueReasonsByInstance,
 } from './sites.repository.js';
 import { buildTimeline } from './timeline.js';
 import * as timeline from './timeline.repository.js';
@@ -50,16 +49,20 @@ export class SitesService {
   /** The Site file: header, placement and the Stack, with the last torque and any re-torque due. */
   async siteFile(ability: AppAbility, scope: Scope, siteId: string): Promise<SiteFile> {
     const { site, canRead } = await this.visible(ability, scope, siteId);
-    const [placement, parts, restoration] = await Promise.all([
+    const readParts = canRead('ComponentInstance');
+    const readTorque = canRead('TorqueEvent') && readParts;
+    const readRestoration = canRead('Restoration');
+    // Everything after the access check in one round of parallel reads, each keyed by the site.
+    const [placement, parts, restoration, torque, seatings, latestExam] = await Promise.all([
       canRead('Placement') ? findCurrentPlacement(this.db, site.id) : null,
-      canRead('ComponentInstance') ? listCurrentParts(this.db, site.id) : [],
-      canRead('Restoration') ? findCurrentRestoration(this.db, site.id) : null,
+      readParts ? listCurrentParts(this.db, site.id) : [],
+      readRestoration ? findCurrentRestoration(this.db, site.id) : null,
+      readTorque ? currentTorqueOfSite(this.db, site.id) : [],
+      readRestoration ? deliverySeatingOfSite(this.db, site.id) : [],
+      canRead('RecallExam') ? this.maintenance.latestBySite([site.id]) : null,
     ]);
-    const ids = parts.map((p) => p.instanceId);
-    const readTorque = canRead('TorqueEvent');
-    const [torque, history] = readTorque
-      ? await Promise.all([latestTorqueByInstance(this.db, ids), torqueReasonsByInstance(this.db, ids)])
-      : [new Map(), []];
+    // Oldest first, so the last entry of a part is its latest.
+    const lastTorque = new Map(torque.map((t) => [t.instanceId, t]));
     parts.sort((a, b) => STACK_ORDER.indexOf(a.kind) - STACK_ORDER.indexOf(b.kind));
 
     return {
@@ -68,12 +71,10 @@ export class SitesService {
       patientName: site.patientName,
       fdi: site.fdi,
       status: site.status,
-      maintenanceStatus:
-        (canRead('RecallExam') ? (await this.maintenance.latestBySite([site.id])).get(site.id)?.status : undefined) ??
-        'not-examined',
+      maintenanceStatus: latestExam?.get(site.id)?.status ?? 'not-examined',
       placement,
       parts: parts.map(({ latest, ...part }) => {
-        const last = torque.get(part.instanceId);
+        const last = lastTorque.get(part.instanceId);
         return {
           ...part,
           newerVersion:
@@ -88,7 +89,7 @@ export class SitesService {
               : null,
           retorqueDueAt:
             readTorque && part.torqueSpecNcm !== null
-              ? retorqueDueAt(history.filter((h) => h.instanceId === part.instanceId))
+              ? retorqueDueAt(torque.filter((t) => t.instanceId === part.instanceId))
               : null,
           lastTorque: last
             ? {
@@ -107,7 +108,9 @@ export class SitesService {
         ? {
             ...restoration,
             retrievable: isRetrievable(restoration.retention),
-            seating: restoration.deliveredOn ? await deliverySeating(this.db, restoration.id) : null,
+            seating: restoration.deliveredOn
+              ? (seatings.find((s) => s.restorationId === restoration.id)?.seating ?? null)
+              : null,
           }
         : null,
     };

@@ -1,12 +1,12 @@
 // Everything that happened at one site, for the Timeline. Each query is pinned to the site,
-// which the caller has already checked the user may see.
-import { asc, eq, inArray } from 'drizzle-orm';
-import type { Db } from '../db/database.js';
+// which the caller has already checked the user may see, and prepared once (db/prepared.ts).
+import { asc, eq, inArray, sql } from 'drizzle-orm';
+import type { Database } from '../db/database.js';
+import { preparedFor } from '../db/prepared.js';
 import {
   complications,
   componentInstances,
   components,
-  implantSites,
   implantSystems,
   labPrescriptions,
   placements,
@@ -15,6 +15,7 @@ import {
   radiographs,
   radiographSites,
   recallExams,
+  implantSites,
   referralSummaryMails,
   restorationSites,
   restorations,
@@ -25,8 +26,11 @@ import {
 } from '../db/schema/index.js';
 import { isAmended } from '../db/amendments.js';
 
-export async function placementsOfSite(db: Db, siteId: string) {
-  return db
+export async function placementsOfSite(db: Database, siteId: string) {
+  return placementsOfSiteQuery(db).execute({ siteId });
+}
+const placementsOfSiteQuery = preparedFor((db) =>
+  db
     .select({
       id: placements.id,
       placedOn: placements.placedOn,
@@ -44,11 +48,20 @@ export async function placementsOfSite(db: Db, siteId: string) {
     .from(placements)
     .innerJoin(platforms, eq(platforms.id, placements.platformId))
     .innerJoin(implantSystems, eq(implantSystems.id, platforms.systemId))
-    .where(eq(placements.siteId, siteId));
-}
+    .where(eq(placements.siteId, sql.placeholder('siteId')))
+    .prepare('timeline_placements'),
+);
 
-export async function restorationsOfSite(db: Db, siteId: string) {
-  const rows = await db
+export async function restorationsOfSite(db: Database, siteId: string) {
+  // The plans and their lab prescriptions side by side: both are found from the site.
+  const [rows, labs] = await Promise.all([
+    restorationsQuery(db).execute({ siteId }),
+    labPrescriptionsQuery(db).execute({ siteId }),
+  ]);
+  return rows.map((r) => ({ ...r, labs: labs.filter((l) => l.restorationId === r.id) }));
+}
+const restorationsQuery = preparedFor((db) => {
+  return db
     .select({
       id: restorations.id,
       kind: restorations.kind,
@@ -67,44 +80,36 @@ export async function restorationsOfSite(db: Db, siteId: string) {
       amended: isAmended(restorations),
       impressionCoping: restorationSites.impressionCoping,
       interface: restorationSites.interface,
+      spansFdi: sql<number[]>`array(select s.fdi from restoration_sites rs join implant_sites s on s.id = rs.site_id
+        where rs.restoration_id = ${restorations.id} order by s.fdi)`,
     })
     .from(restorationSites)
     .innerJoin(restorations, eq(restorations.id, restorationSites.restorationId))
     .leftJoin(users, eq(users.id, restorations.plannedBy))
-    .where(eq(restorationSites.siteId, siteId));
-  const ids = rows.map((r) => r.id);
-  const spans =
-    ids.length === 0
-      ? []
-      : await db
-          .select({ restorationId: restorationSites.restorationId, fdi: implantSites.fdi })
-          .from(restorationSites)
-          .innerJoin(implantSites, eq(implantSites.id, restorationSites.siteId))
-          .where(inArray(restorationSites.restorationId, ids))
-          .orderBy(asc(implantSites.fdi));
-  const labs =
-    ids.length === 0
-      ? []
-      : await db
-          .select({
-            id: labPrescriptions.id,
-            restorationId: labPrescriptions.restorationId,
-            createdAt: labPrescriptions.createdAt,
-            emailedTo: labPrescriptions.emailedTo,
-            byName: users.displayName,
-          })
-          .from(labPrescriptions)
-          .leftJoin(users, eq(users.id, labPrescriptions.createdBy))
-          .where(inArray(labPrescriptions.restorationId, ids));
-  return rows.map((r) => ({
-    ...r,
-    spansFdi: spans.filter((s) => s.restorationId === r.id).map((s) => s.fdi),
-    labs: labs.filter((l) => l.restorationId === r.id),
-  }));
-}
+    .where(eq(restorationSites.siteId, sql.placeholder('siteId')))
+    .prepare('timeline_restorations');
+});
+const labPrescriptionsQuery = preparedFor((db) =>
+  db
+    .select({
+      id: labPrescriptions.id,
+      restorationId: labPrescriptions.restorationId,
+      createdAt: labPrescriptions.createdAt,
+      emailedTo: labPrescriptions.emailedTo,
+      byName: users.displayName,
+    })
+    .from(labPrescriptions)
+    .innerJoin(restorationSites, eq(restorationSites.restorationId, labPrescriptions.restorationId))
+    .leftJoin(users, eq(users.id, labPrescriptions.createdBy))
+    .where(eq(restorationSites.siteId, sql.placeholder('siteId')))
+    .prepare('timeline_lab_prescriptions'),
+);
 
-export async function partsOfSite(db: Db, siteId: string) {
-  return db
+export async function partsOfSite(db: Database, siteId: string) {
+  return partsOfSiteQuery(db).execute({ siteId });
+}
+const partsOfSiteQuery = preparedFor((db) =>
+  db
     .select({
       id: componentInstances.id,
       kind: components.kind,
@@ -121,12 +126,16 @@ export async function partsOfSite(db: Db, siteId: string) {
     .from(componentInstances)
     .innerJoin(components, eq(components.id, componentInstances.componentId))
     .leftJoin(users, eq(users.id, componentInstances.recordedBy))
-    .where(eq(componentInstances.siteId, siteId))
-    .orderBy(asc(componentInstances.installedOn), asc(componentInstances.recordedAt));
-}
+    .where(eq(componentInstances.siteId, sql.placeholder('siteId')))
+    .orderBy(asc(componentInstances.installedOn), asc(componentInstances.recordedAt))
+    .prepare('timeline_parts'),
+);
 
-export async function torqueEventsOfSite(db: Db, siteId: string) {
-  return db
+export async function torqueEventsOfSite(db: Database, siteId: string) {
+  return torqueEventsOfSiteQuery(db).execute({ siteId });
+}
+const torqueEventsOfSiteQuery = preparedFor((db) =>
+  db
     .select({
       id: torqueEvents.id,
       componentInstanceId: torqueEvents.componentInstanceId,
@@ -149,12 +158,16 @@ export async function torqueEventsOfSite(db: Db, siteId: string) {
     .innerJoin(components, eq(components.id, componentInstances.componentId))
     .leftJoin(torqueWrenches, eq(torqueWrenches.id, torqueEvents.wrenchId))
     .leftJoin(users, eq(users.id, torqueEvents.recordedBy))
-    .where(eq(componentInstances.siteId, siteId))
-    .orderBy(asc(torqueEvents.performedAt));
-}
+    .where(eq(componentInstances.siteId, sql.placeholder('siteId')))
+    .orderBy(asc(torqueEvents.performedAt))
+    .prepare('timeline_torqueevents'),
+);
 
-export async function complicationsOfSite(db: Db, siteId: string) {
-  return db
+export async function complicationsOfSite(db: Database, siteId: string) {
+  return complicationsOfSiteQuery(db).execute({ siteId });
+}
+const complicationsOfSiteQuery = preparedFor((db) =>
+  db
     .select({
       id: complications.id,
       kind: complications.kind,
@@ -172,12 +185,16 @@ export async function complicationsOfSite(db: Db, siteId: string) {
     .leftJoin(componentInstances, eq(componentInstances.id, complications.componentInstanceId))
     .leftJoin(components, eq(components.id, componentInstances.componentId))
     .leftJoin(users, eq(users.id, complications.recordedBy))
-    .where(eq(complications.siteId, siteId));
-}
+    .where(eq(complications.siteId, sql.placeholder('siteId')))
+    .prepare('timeline_complications'),
+);
 
 /** Recall exams are written by the recall feature; the Timeline only reads them. */
-export async function recallExamsOfSite(db: Db, siteId: string) {
-  return db
+export async function recallExamsOfSite(db: Database, siteId: string) {
+  return recallExamsOfSiteQuery(db).execute({ siteId });
+}
+const recallExamsOfSiteQuery = preparedFor((db) =>
+  db
     .select({
       id: recallExams.id,
       examinedOn: recallExams.examinedOn,
@@ -190,12 +207,16 @@ export async function recallExamsOfSite(db: Db, siteId: string) {
     })
     .from(recallExams)
     .leftJoin(users, eq(users.id, recallExams.examinerId))
-    .where(eq(recallExams.siteId, siteId));
-}
+    .where(eq(recallExams.siteId, sql.placeholder('siteId')))
+    .prepare('timeline_recallexams'),
+);
 
 /** Radiographs showing the site, entered-in-error ones included (the Timeline keeps them, marked). */
-export async function radiographsOfSite(db: Db, siteId: string) {
-  return db
+export async function radiographsOfSite(db: Database, siteId: string) {
+  return radiographsOfSiteQuery(db).execute({ siteId });
+}
+const radiographsOfSiteQuery = preparedFor((db) =>
+  db
     .select({
       id: radiographs.id,
       kind: radiographs.kind,
@@ -209,12 +230,16 @@ export async function radiographsOfSite(db: Db, siteId: string) {
     .from(radiographSites)
     .innerJoin(radiographs, eq(radiographs.id, radiographSites.radiographId))
     .leftJoin(users, eq(users.id, radiographs.uploadedBy))
-    .where(eq(radiographSites.siteId, siteId));
-}
+    .where(eq(radiographSites.siteId, sql.placeholder('siteId')))
+    .prepare('timeline_radiographs'),
+);
 
 /** Bone levels measured at the site, every version, with the date of the image they were read from. */
-export async function measurementsOfSite(db: Db, siteId: string) {
-  return db
+export async function measurementsOfSite(db: Database, siteId: string) {
+  return measurementsOfSiteQuery(db).execute({ siteId });
+}
+const measurementsOfSiteQuery = preparedFor((db) =>
+  db
     .select({
       id: radiographMeasurements.id,
       radiographId: radiographMeasurements.radiographId,
@@ -231,12 +256,16 @@ export async function measurementsOfSite(db: Db, siteId: string) {
     .from(radiographMeasurements)
     .innerJoin(radiographs, eq(radiographs.id, radiographMeasurements.radiographId))
     .leftJoin(users, eq(users.id, radiographMeasurements.measuredBy))
-    .where(eq(radiographMeasurements.siteId, siteId));
-}
+    .where(eq(radiographMeasurements.siteId, sql.placeholder('siteId')))
+    .prepare('timeline_measurements'),
+);
 
 /** Seating checks of the restorations on the site (written by the seating feature), every version. */
-export async function seatingChecksOfSite(db: Db, siteId: string) {
-  return db
+export async function seatingChecksOfSite(db: Database, siteId: string) {
+  return seatingChecksOfSiteQuery(db).execute({ siteId });
+}
+const seatingChecksOfSiteQuery = preparedFor((db) =>
+  db
     .select({
       id: seatingChecks.id,
       restorationId: seatingChecks.restorationId,
@@ -261,14 +290,19 @@ export async function seatingChecksOfSite(db: Db, siteId: string) {
         db
           .select({ id: restorationSites.restorationId })
           .from(restorationSites)
-          .where(eq(restorationSites.siteId, siteId)),
+          .where(eq(restorationSites.siteId, sql.placeholder('siteId'))),
       ),
-    );
-}
+    )
+    .prepare('timeline_seatingchecks'),
+);
 
 /** The patient's referral summaries e-mailed (or waiting to be) to a surgeon: shown on every site. */
-export async function referralSummariesOfSite(db: Db, siteId: string) {
-  return db
+export function referralSummariesOfSite(db: Database, siteId: string) {
+  return referralSummariesQuery(db).execute({ siteId });
+}
+
+const referralSummariesQuery = preparedFor((db) =>
+  db
     .select({
       id: referralSummaryMails.id,
       sentTo: referralSummaryMails.sentTo,
@@ -280,5 +314,6 @@ export async function referralSummariesOfSite(db: Db, siteId: string) {
     .from(referralSummaryMails)
     .innerJoin(implantSites, eq(implantSites.patientId, referralSummaryMails.patientId))
     .leftJoin(users, eq(users.id, referralSummaryMails.requestedBy))
-    .where(eq(implantSites.id, siteId));
-}
+    .where(eq(implantSites.id, sql.placeholder('siteId')))
+    .prepare('timeline_referral_summaries'),
+);

@@ -137,6 +137,8 @@ export const radiographMeasurements = pgTable(
   },
   (t) => [
     index('radiograph_measurements_site_idx').on(t.siteId, t.measuredAt),
+    // A radiograph's measurements (its detail, the bone levels offered to an exam).
+    index('radiograph_measurements_radiograph_idx').on(t.radiographId),
     ...amendmentChain('radiograph_measurements', t),
   ],
 );

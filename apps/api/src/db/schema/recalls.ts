@@ -1,3 +1,4 @@
+import { sql } from 'drizzle-orm';
 import {
   boolean,
   date,
@@ -79,6 +80,11 @@ export const recallExams = pgTable(
   (t) => [
     index('recall_exams_site_idx').on(t.siteId, t.examinedOn),
     index('recall_exams_patient_idx').on(t.patientId, t.examinedOn),
+    // The desk's "peri-implantitis last time" starts from the few such exams of the practice
+    // instead of every exam (recalls/desk.repository.ts).
+    index('recall_exams_peri_implantitis_idx')
+      .on(t.practiceId, t.siteId)
+      .where(sql`${t.status} = 'peri-implantitis'`),
     // "Current" = not superseded: the not-exists probe on large desks uses the chain's unique index.
     ...amendmentChain('recall_exams', t),
   ],

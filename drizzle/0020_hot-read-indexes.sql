@@ -1,0 +1,2 @@
+CREATE INDEX "recall_exams_peri_implantitis_idx" ON "recall_exams" USING btree ("practice_id","site_id") WHERE "recall_exams"."status" = 'peri-implantitis';--> statement-breakpoint
+CREATE INDEX "radiograph_measurements_radiograph_idx" ON "radiograph_measurements" USING btree ("radiograph_id");

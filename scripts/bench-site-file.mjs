@@ -1,0 +1,336 @@
+// The Site-file benchmark (issue 13; docs/performance.md): the Site file's reads against their
+// floor, on the demo database and on the large practice, plus the Recall desk and its CSV export
+// at size. Prints one table and writes bench/results/site-file.{json,md} and the desk's EXPLAIN
+// files. Measures only: nothing is asserted and `npm test` never runs it.
+// Usage: node scripts/bench-site-file.mjs [--seconds 3] [--repeats 3] [--patients 10000] [--reseed]
+import { spawn } from 'node:child_process';
+import { createHash } from 'node:crypto';
+import fs from 'node:fs';
+import path from 'node:path';
+import { parseArgs } from 'node:util';
+import autocannon from 'autocannon';
+import pgModule from 'pg';
+import { repoRoot } from './lib/config.mjs';
+import { benchEnv, cloneDatabase, ownerUrl, prepareDemoDatabase } from './lib/bench-databases.mjs';
+import { seedLargePractice } from './lib/bench-large-seed.mjs';
+import { waitForPort } from './lib/proc.mjs';
+import { startServices } from './services.mjs';
+import { API_PG_OPTIONS, explainDesk, writeResults } from './bench/site-file-report.mjs';
+
+const { values: args } = parseArgs({
+  options: {
+    seconds: { type: 'string', default: '3' },
+    repeats: { type: 'string', default: '3' },
+    patients: { type: 'string', default: '10000' },
+    reseed: { type: 'boolean', default: false },
+  },
+});
+const SECONDS = Number(args.seconds);
+const REPEATS = Number(args.repeats);
+const PATIENTS = Number(args.patients);
+const CONNECTIONS = [8, 32];
+const DEMO_DB = 'torquetrail_bench_demo';
+const LARGE_DB = 'torquetrail_bench_large';
+const API_PORT = 3000 + (Number(process.env.PORT ?? 3000) % 1000) + 1000;
+const FLOOR_PORT = API_PORT + 1;
+const scratch = path.join(repoRoot, '.local', 'bench');
+fs.mkdirSync(scratch, { recursive: true });
+const median = (xs) => [...xs].sort((a, b) => a - b)[Math.floor((xs.length - 1) / 2)];
+const log = (line) => console.log(line);
+
+// ---- databases -----------------------------------------------------------------------------
+await startServices();
+const started = performance.now();
+const t0 = performance.now();
+await prepareDemoDatabase(DEMO_DB);
+const demoSeedS = (performance.now() - t0) / 1000;
+// The large database is kept between runs while what made it is unchanged (its seed, the demo seed,
+// the migrations, the size): seeding it is the slowest step of the run.
+const fingerprint = createHash('sha256')
+  .update(fs.readFileSync(path.join(repoRoot, 'scripts/lib/bench-large-seed.mjs')))
+  .update(fs.readFileSync(path.join(repoRoot, 'drizzle/meta/_journal.json')))
+  .update(fs.readdirSync(path.join(repoRoot, 'apps/api/dist/seed')).join())
+  .update(String(PATIENTS))
+  .digest('hex')
+  .slice(0, 16);
+let largeSeed = { reused: true, seconds: null, counts: null };
+if (args.reseed || (await databaseComment(LARGE_DB)) !== fingerprint) {
+  log(`seeding the large practice (${PATIENTS} patients) …`);
+  await cloneDatabase(DEMO_DB, LARGE_DB);
+  const seeded = await seedLargePractice(ownerUrl(LARGE_DB), { patients: PATIENTS, log });
+  await withOwner('postgres', (c) => c.query(`comment on database "${LARGE_DB}" is '${fingerprint}'`));
+  largeSeed = { reused: false, ...seeded };
+  log(`large practice seeded in ${seeded.seconds.toFixed(1)} s`);
+} else {
+  log('large practice unchanged since the last run: reused');
+}
+
+async function withOwner(database, fn) {
+  const client = new pgModule.Client({ connectionString: ownerUrl(database) });
+  await client.connect();
+  try {
+    return await fn(client);
+  } finally {
+    await client.end();
+  }
+}
+async function databaseComment(name) {
+  return withOwner('postgres', async (c) => {
+    const r = await c.query(`select shobj_description(oid, 'pg_database') as d from pg_database where datname = $1`, [
+      name,
+    ]);
+    return r.rows[0]?.d ?? null;
+  });
+}
+
+// ---- processes -----------------------------------------------------------------------------
+function startProcess(argv, env, port) {
+  const child = spawn(process.execPath, argv, {
+    cwd: repoRoot,
+    env: { ...process.env, ...env, PORT: String(port) },
+    stdio: ['ignore', 'ignore', 'inherit'],
+  });
+  return waitForPort(port, { timeoutMs: 60_000, label: argv.at(-1) }).then(() => child);
+}
+const stop = (child) =>
+  new Promise((resolve) => {
+    if (child.exitCode !== null) return resolve();
+    child.once('exit', resolve);
+    child.kill('SIGTERM');
+  });
+const rssMb = (pid) => {
+  const status = fs.readFileSync(`/proc/${pid}/status`, 'utf8');
+  return Number(/VmRSS:\s+(\d+)/.exec(status)[1]) / 1024;
+};
+
+async function startApi(database, captureFile) {
+  fs.writeFileSync(captureFile, '');
+  const env = {
+    ...benchEnv(database),
+    NODE_ENV: 'production',
+    APP_URL: `http://127.0.0.1:${API_PORT}`,
+    COOKIE_SECURE: 'false',
+    TT_CAPTURE_SQL: captureFile,
+    WEB_DIST: path.join(repoRoot, 'apps/web/dist'),
+  };
+  const child = await startProcess(
+    ['--import', path.join(repoRoot, 'scripts/bench/capture-sql.mjs'), 'apps/api/dist/main.js'],
+    env,
+    API_PORT,
+  );
+  return child;
+}
+
+async function request(port, url, { method = 'GET', body, cookie } = {}) {
+  const res = await fetch(`http://127.0.0.1:${port}${url}`, {
+    method,
+    headers: {
+      ...(body ? { 'content-type': 'application/json', origin: `http://127.0.0.1:${port}` } : {}),
+      ...(cookie ? { cookie } : {}),
+    },
+    body: body ? JSON.stringify(body) : undefined,
+  });
+  return { status: res.status, headers: res.headers, body: Buffer.from(await res.arrayBuffer()) };
+}
+
+// ---- the endpoints ---------------------------------------------------------------------------
+const targets = await withOwner(DEMO_DB, async (c) => {
+  const r = await c.query(
+    `select s.id as site, p.id as patient from implant_sites s join patients p on p.id = s.patient_id where p.chart_number = 'LL-1001' and s.fdi = 35`,
+  );
+  return r.rows[0];
+});
+const ENDPOINTS = [
+  ['site detail', `/api/sites/${targets.site}`],
+  ['Timeline', `/api/sites/${targets.site}/timeline`],
+  ['exam history', `/api/recalls/sites/${targets.site}/exams`],
+  ['radiograph list', `/api/patients/${targets.patient}/radiographs`],
+];
+const DESK = [
+  ['all, by due date', '/api/recalls/desk?filter=all&sort=dueOn&dir=asc'],
+  ['all, by name', '/api/recalls/desk?filter=all&sort=name&dir=asc'],
+  ['all, by last exam', '/api/recalls/desk?filter=all&sort=lastExamOn&dir=desc'],
+  ['overdue', '/api/recalls/desk?filter=overdue&sort=overdueDays&dir=desc'],
+  ['due this week', '/api/recalls/desk?filter=due-this-week&sort=dueOn&dir=asc'],
+  ['peri-implantitis last time', '/api/recalls/desk?filter=peri-implantitis-last&sort=dueOn&dir=asc'],
+  ['search', '/api/recalls/desk?filter=all&sort=dueOn&dir=asc&search=family12'],
+];
+const CSV_URL = '/api/recalls/desk/csv?filter=all&sort=dueOn&dir=asc';
+
+const readCapture = (file, from) =>
+  fs
+    .readFileSync(file, 'utf8')
+    .slice(from)
+    .split('\n')
+    .filter(Boolean)
+    .map((line) => JSON.parse(line))
+    // pg-boss polls on its own connections; its statements are not the request's.
+    .filter((s) => !/pgboss/i.test(s.text));
+
+/** The request's statements in round trips: a statement that began before the others ended runs beside them. */
+function roundTrips(statements) {
+  const groups = [];
+  let end = -Infinity;
+  for (const s of [...statements].sort((a, b) => a.start - b.start)) {
+    if (s.start >= end) groups.push([]);
+    groups.at(-1).push({ text: s.text, values: s.values });
+    end = Math.max(end, s.end);
+  }
+  return groups;
+}
+
+async function captureRequest(captureFile, cookie, url) {
+  await request(API_PORT, url, { cookie });
+  await new Promise((r) => setTimeout(r, 100));
+  const from = fs.statSync(captureFile).size;
+  const reply = await request(API_PORT, url, { cookie });
+  await new Promise((r) => setTimeout(r, 100));
+  const statements = readCapture(captureFile, from);
+  return { reply, statements, groups: roundTrips(statements) };
+}
+
+/** One autocannon run; every response's time is kept, for the p95 autocannon does not report. */
+function load(port, url, cookie, connections) {
+  return new Promise((resolve, reject) => {
+    const times = [];
+    const instance = autocannon(
+      { url: `http://127.0.0.1:${port}${url}`, connections, duration: SECONDS, headers: { cookie } },
+      (error, result) => (error ? reject(error) : resolve({ result, times })),
+    );
+    instance.on('response', (_client, _status, _bytes, ms) => times.push(ms));
+  });
+}
+const percentile = (xs, p) => {
+  const sorted = [...xs].sort((a, b) => a - b);
+  return sorted[Math.min(sorted.length - 1, Math.floor((p / 100) * sorted.length))] ?? 0;
+};
+
+async function measureDatabase(database, { withFloor }) {
+  const captureFile = path.join(scratch, `${database}.sql.jsonl`);
+  const api = await startApi(database, captureFile);
+  const signIn = await request(API_PORT, '/api/auth/sign-in', {
+    method: 'POST',
+    body: { email: 'ines.calloway@larkspur.example', password: 'ledger-demo-2026' },
+  });
+  if (signIn.status !== 200 && signIn.status !== 201) throw new Error(`sign-in answered ${signIn.status}`);
+  const cookie = String(signIn.headers.get('set-cookie')).split(';')[0];
+  const out = { endpoints: {}, desk: {}, csv: null, peakRssMb: 0 };
+  const replay = { routes: {} };
+  for (const [name, url] of ENDPOINTS) {
+    const { reply, statements, groups } = await captureRequest(captureFile, cookie, url);
+    if (reply.status !== 200) throw new Error(`${name} answered ${reply.status}`);
+    replay.routes[url] = {
+      status: 200,
+      contentType: 'application/json; charset=utf-8',
+      body: reply.body.toString(),
+      groups,
+    };
+    out.endpoints[name] = {
+      url,
+      statements: statements.length,
+      roundTrips: groups.length,
+      bytes: reply.body.length,
+      runs: [],
+    };
+  }
+  let floor = null;
+  if (withFloor) {
+    const replayFile = path.join(scratch, `${database}.replay.json`);
+    fs.writeFileSync(replayFile, JSON.stringify(replay));
+    floor = await startProcess(
+      ['scripts/bench-floor.mjs', replayFile],
+      { DATABASE_URL: benchEnv(database).DATABASE_URL, PG_OPTIONS: API_PG_OPTIONS },
+      FLOOR_PORT,
+    );
+    for (const [name, url] of ENDPOINTS) {
+      const [a, f] = [await request(API_PORT, url, { cookie }), await request(FLOOR_PORT, url)];
+      out.endpoints[name].sameBytes = a.body.equals(f.body);
+    }
+  }
+  // Warm both servers (JIT of V8, PostgreSQL's caches) before anything is kept.
+  for (const [, url] of ENDPOINTS) {
+    await load(API_PORT, url, cookie, 8);
+    if (floor) await load(FLOOR_PORT, url, cookie, 8);
+  }
+  for (let repeat = 0; repeat < REPEATS; repeat += 1) {
+    for (const connections of CONNECTIONS) {
+      for (const [name, url] of ENDPOINTS) {
+        let peak = 0;
+        const sampler = setInterval(() => (peak = Math.max(peak, rssMb(api.pid))), 100);
+        const a = await load(API_PORT, url, cookie, connections);
+        clearInterval(sampler);
+        out.peakRssMb = Math.max(out.peakRssMb, peak, rssMb(api.pid));
+        const run = { connections, api: summary(a) };
+        if (floor) run.floor = summary(await load(FLOOR_PORT, url, cookie, connections));
+        out.endpoints[name].runs.push(run);
+        log(`  ${database} ${name} ${connections}c #${repeat + 1}: ${fmtRun(run)}`);
+      }
+    }
+  }
+  if (!withFloor) {
+    for (const [name, url] of DESK) {
+      const times = [];
+      let total = null;
+      for (let i = 0; i < 15; i += 1) {
+        const t = performance.now();
+        const r = await request(API_PORT, url, { cookie });
+        times.push(performance.now() - t);
+        total = JSON.parse(r.body.toString()).total ?? total;
+      }
+      out.desk[name] = { url, medianMs: median(times.slice(3)), maxMs: Math.max(...times.slice(3)), total };
+    }
+    out.deskSql = {};
+    for (const [name, url] of DESK) {
+      const from = fs.statSync(captureFile).size;
+      await request(API_PORT, url, { cookie });
+      await new Promise((r) => setTimeout(r, 100));
+      // The desk's own statements (the session's user and the audit row are measured elsewhere).
+      out.deskSql[name] = readCapture(captureFile, from).filter(
+        (s) => /"recalls"|recalls\b/.test(s.text) && /^\s*(select|with)/i.test(s.text),
+      );
+    }
+    const csvTimes = [];
+    let csvPeak = 0;
+    let csvBytes = 0;
+    const before = rssMb(api.pid);
+    for (let i = 0; i < 5; i += 1) {
+      const sampler = setInterval(() => (csvPeak = Math.max(csvPeak, rssMb(api.pid))), 20);
+      const t = performance.now();
+      const r = await request(API_PORT, CSV_URL, { cookie });
+      csvTimes.push(performance.now() - t);
+      clearInterval(sampler);
+      csvBytes = r.body.length;
+    }
+    out.csv = { medianMs: median(csvTimes.slice(1)), bytes: csvBytes, rssBeforeMb: before, rssPeakMb: csvPeak };
+  }
+  if (floor) await stop(floor);
+  await stop(api);
+  return out;
+}
+
+const summary = ({ result, times }) => ({
+  rps: result.requests.total / SECONDS,
+  p50: percentile(times, 50),
+  p95: percentile(times, 95),
+  errors: result.errors + result.non2xx,
+});
+const fmtRun = (run) =>
+  `API ${run.api.rps.toFixed(0)} req/s p50 ${run.api.p50.toFixed(1)} ms` +
+  (run.floor ? ` | floor ${run.floor.rps.toFixed(0)} req/s p50 ${run.floor.p50.toFixed(1)} ms` : '');
+
+log('\n== demo database (API and floor)');
+const demo = await measureDatabase(DEMO_DB, { withFloor: true });
+log('\n== large practice (API; desk and CSV)');
+const large = await measureDatabase(LARGE_DB, { withFloor: false });
+const explains = await explainDesk(ownerUrl(LARGE_DB), large.deskSql, path.join(repoRoot, 'bench/results'));
+delete large.deskSql;
+
+writeResults(path.join(repoRoot, 'bench/results'), {
+  at: new Date().toISOString(),
+  settings: { seconds: SECONDS, repeats: REPEATS, connections: CONNECTIONS, patients: PATIENTS },
+  seeding: { demoSeconds: demoSeedS, large: largeSeed },
+  demo,
+  large,
+  explains,
+  totalSeconds: (performance.now() - started) / 1000,
+});

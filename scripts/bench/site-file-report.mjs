@@ -1,0 +1,138 @@
+// The Site-file benchmark's outputs: the desk's EXPLAIN files, the figures reduced to medians and
+// ratios, bench/results/site-file.json and .md, and the table printed at the end.
+import fs from 'node:fs';
+import path from 'node:path';
+import { pathToFileURL } from 'node:url';
+import pgModule from 'pg';
+import { repoRoot } from '../lib/config.mjs';
+
+const database = await import(pathToFileURL(path.join(repoRoot, 'apps/api/dist/db/database.js')).href);
+/** The session settings of the API's pool (the floor and the EXPLAIN sessions use the same). */
+export const API_PG_OPTIONS = database.PG_SESSION_OPTIONS ?? '';
+
+const median = (xs) => [...xs].sort((a, b) => a - b)[Math.floor((xs.length - 1) / 2)];
+const slug = (name) => name.replace(/[^a-z0-9]+/gi, '-').toLowerCase();
+
+/** EXPLAIN (ANALYZE, BUFFERS) of each desk statement as the API ran it, one file per filter. */
+export async function explainDesk(connectionString, deskSql, dir) {
+  fs.mkdirSync(dir, { recursive: true });
+  const client = new pgModule.Client({ connectionString, ...(API_PG_OPTIONS ? { options: API_PG_OPTIONS } : {}) });
+  await client.connect();
+  const out = {};
+  try {
+    for (const [name, statements] of Object.entries(deskSql)) {
+      const parts = [];
+      for (const s of statements) {
+        const plan = await client.query({ text: `explain (analyze, buffers) ${s.text}`, values: s.values });
+        parts.push(
+          `-- ${s.text}\n-- values: ${JSON.stringify(s.values)}\n${plan.rows.map((r) => r['QUERY PLAN']).join('\n')}`,
+        );
+      }
+      const text = parts.join('\n\n');
+      const file = `explain-desk-${slug(name)}.txt`;
+      fs.writeFileSync(path.join(dir, file), `${text}\n`);
+      out[name] = {
+        file,
+        statements: statements.length,
+        scansAllExams: /Seq Scan on recall_exams/.test(text),
+        executionMs: [...text.matchAll(/Execution Time: ([\d.]+) ms/g)].reduce((sum, m) => sum + Number(m[1]), 0),
+      };
+    }
+  } finally {
+    await client.end();
+  }
+  return out;
+}
+
+/** Medians over the repeats, per endpoint and connection count. */
+function reduce(measured) {
+  const rows = {};
+  for (const [name, e] of Object.entries(measured.endpoints)) {
+    rows[name] = { statements: e.statements, roundTrips: e.roundTrips, sameBytes: e.sameBytes, byConnections: {} };
+    for (const connections of new Set(e.runs.map((r) => r.connections))) {
+      const runs = e.runs.filter((r) => r.connections === connections);
+      const side = (key) =>
+        runs[0][key]
+          ? {
+              rps: median(runs.map((r) => r[key].rps)),
+              p50: median(runs.map((r) => r[key].p50)),
+              p95: median(runs.map((r) => r[key].p95)),
+              errors: runs.reduce((n, r) => n + r[key].errors, 0),
+            }
+          : null;
+      rows[name].byConnections[connections] = { api: side('api'), floor: side('floor') };
+    }
+  }
+  return rows;
+}
+
+export function writeResults(dir, raw) {
+  const demo = reduce(raw.demo);
+  const large = reduce(raw.large);
+  const table = [];
+  for (const [name, d] of Object.entries(demo)) {
+    for (const [c, { api, floor }] of Object.entries(d.byConnections)) {
+      const l = large[name].byConnections[c].api;
+      table.push({
+        endpoint: name,
+        connections: Number(c),
+        statements: d.statements,
+        roundTrips: d.roundTrips,
+        api,
+        floor,
+        floorOverApiRps: floor.rps / api.rps,
+        p50OverFloor: api.p50 / floor.p50,
+        large: l,
+        demoOverLargeRps: api.rps / l.rps,
+        largeOverDemoP50: l.p50 / api.p50,
+      });
+    }
+  }
+  const results = { ...raw, table, peakRssMb: Math.max(raw.demo.peakRssMb, raw.large.peakRssMb) };
+  fs.mkdirSync(dir, { recursive: true });
+  fs.writeFileSync(path.join(dir, 'site-file.json'), `${JSON.stringify(results, null, 2)}\n`);
+  const md = markdown(results);
+  fs.writeFileSync(path.join(dir, 'site-file.md'), md);
+  console.log(`\n${md}`);
+  return results;
+}
+
+const f = (n, digits = 1) => (n === null || n === undefined ? '—' : n.toFixed(digits));
+
+function markdown(r) {
+  const lines = [
+    `# Site file benchmark — ${r.at}`,
+    '',
+    `Medians of ${r.settings.repeats} alternating runs of ${r.settings.seconds} s (autocannon); p50/p95 in ms.`,
+    `Floor: the API's own SQL replayed as named statements in the same round trips by a bare node:http + pg server (docs/performance.md).`,
+    '',
+    '| endpoint | conns | SQL / round trips | API req/s | floor req/s | floor÷API | API p50 | floor p50 | p50 ÷ floor | API p95 | large req/s | large p50 | demo÷large req/s | large÷demo p50 |',
+    '|---|---|---|---|---|---|---|---|---|---|---|---|---|---|',
+  ];
+  for (const t of r.table) {
+    lines.push(
+      `| ${t.endpoint} | ${t.connections} | ${t.statements} / ${t.roundTrips} | ${f(t.api.rps, 0)} | ${f(t.floor.rps, 0)} | ${f(t.floorOverApiRps, 2)} | ${f(t.api.p50)} | ${f(t.floor.p50)} | ${f(t.p50OverFloor, 2)} | ${f(t.api.p95)} | ${f(t.large.rps, 0)} | ${f(t.large.p50)} | ${f(t.demoOverLargeRps, 2)} | ${f(t.largeOverDemoP50, 2)} |`,
+    );
+  }
+  lines.push('', `API peak RSS under load: ${f(r.peakRssMb, 0)} MB.`, '');
+  lines.push(`## Recall desk, ${r.settings.patients} patients (median of 12 requests over HTTP, first page)`, '');
+  lines.push(
+    '| filter | median ms | max ms | total | SQL time in EXPLAIN ms | scans all exams | plan |',
+    '|---|---|---|---|---|---|---|',
+  );
+  for (const [name, d] of Object.entries(r.large.desk)) {
+    const e = r.explains[name] ?? {};
+    lines.push(
+      `| ${name} | ${f(d.medianMs)} | ${f(d.maxMs)} | ${d.total} | ${f(e.executionMs)} | ${e.scansAllExams ? 'yes' : 'no'} | ${e.file ?? ''} |`,
+    );
+  }
+  const c = r.large.csv;
+  lines.push(
+    '',
+    `CSV export of every row: median ${f(c.medianMs, 0)} ms, ${(c.bytes / 1024).toFixed(0)} KB; API RSS ${f(c.rssBeforeMb, 0)} MB before, ${f(c.rssPeakMb, 0)} MB at its peak.`,
+    '',
+    `Seeding: demo ${f(r.seeding.demoSeconds)} s; large practice ${r.seeding.large.reused ? 'reused from the last run' : `${f(r.seeding.large.seconds)} s`}. Whole run ${f(r.totalSeconds, 0)} s.`,
+    '',
+  );
+  return lines.join('\n');
+}
