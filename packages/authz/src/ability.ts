@@ -43,6 +43,10 @@ export type Subject =
   | 'AuditEntry'
   /** One patient's audit rows ("who accessed this record"): the dentist's and the admin's. */
   | 'PatientAudit'
+  /** One patient's record exported as FHIR R4: the dentist's and the admin's. */
+  | 'PatientExport'
+  /** One patient's implant passport and retrieval card (print, e-mail to the patient): the dentist's. */
+  | 'ImplantPassport'
   | 'all';
 
 /** A loaded row checked with `subject(type, row)`; only these fields take part in conditions. */
@@ -98,6 +102,8 @@ export function defineAbilityFor(user: AbilityUser): AppAbility {
       can(['read', 'create', 'amend'], 'Radiograph', own);
       can(['read', 'create', 'update'], 'Share', own);
       can('read', 'PatientAudit', own);
+      can('read', 'PatientExport', own);
+      can(['read', 'create'], 'ImplantPassport', own);
       break;
     case 'hygienist':
       can('read', 'Practice', { id: user.practiceId });
@@ -130,7 +136,7 @@ export function defineAbilityFor(user: AbilityUser): AppAbility {
       can('read', 'PatientVersion', own);
       can('read', PATIENT_RECORD, own);
       can(['read', 'create', 'update'], ['Catalogue', 'Wrench', 'RecallPolicy'], own);
-      can('read', ['AuditEntry', 'PatientAudit', 'Share'], own);
+      can('read', ['AuditEntry', 'PatientAudit', 'Share', 'PatientExport'], own);
       break;
   }
   return build();

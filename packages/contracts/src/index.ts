@@ -17,3 +17,4 @@ export * from './audit.js';
 export * from './seating.js';
 export * from './password.js';
 export * from './people.js';
+export * from './records-out.js';

@@ -22,6 +22,8 @@ const PATIENT_DATA: ReadonlySet<Subject> = new Set<Subject>([
   'Share',
   'AuditEntry',
   'PatientAudit',
+  'PatientExport',
+  'ImplantPassport',
 ]);
 
 /** The audit action of a write, from the route's `@Allow(action, subject)`. */
