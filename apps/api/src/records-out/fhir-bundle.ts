@@ -16,9 +16,9 @@ import { deviceKindWords, partKindWords, probingWords, statusWords } from './pla
 /** Code systems (docs/fhir.md names the source of each). */
 export const CODE_SYSTEMS = Object.freeze({
   gs1Di: 'http://hl7.org/fhir/NamingSystem/gs1-di',
+  deviceAction: 'http://hl7.org/fhir/device-action',
   fdiTeeth: 'http://hl7.org/fhir/ex-fdi',
   ucum: 'http://unitsofmeasure.org',
-  deviceAction: 'http://hl7.org/fhir/device-action',
   observationCategory: 'http://terminology.hl7.org/CodeSystem/observation-category',
   deviceKind: 'https://fhir.torquetrail.example/CodeSystem/device-kind',
   procedure: 'https://fhir.torquetrail.example/CodeSystem/procedure',
@@ -27,6 +27,16 @@ export const CODE_SYSTEMS = Object.freeze({
   periImplantStatus: 'https://fhir.torquetrail.example/CodeSystem/peri-implant-status',
   chartNumber: 'https://fhir.torquetrail.example/NamingSystem/chart-number',
 });
+
+/**
+ * What happened to a device in a procedure, from HL7's device-action code system. R4's preferred
+ * binding is a SNOMED CT value set (is-a 129264002 Action), which needs a SNOMED licence; a
+ * preferred binding allows another code system, so validators note it as a warning only.
+ */
+const IMPLANTED = {
+  coding: [{ system: CODE_SYSTEMS.deviceAction, code: 'implanted', display: 'Implanted' }],
+  text: 'Implanted',
+};
 
 export const COMPUTED_STATUS_NOTE =
   'Computed by Torquetrail from this exam with the published case definitions (rules version shown); not a diagnosis.';
@@ -173,7 +183,7 @@ function placementProcedure(patientId: string, implant: SnapshotImplant): Entry[
     bodySite: [toothSite(implant.fdi)],
     focalDevice: [
       {
-        action: { coding: [{ system: CODE_SYSTEMS.deviceAction, code: 'implanted', display: 'Implanted' }] },
+        action: IMPLANTED,
         manipulated: ref(pl.id),
       },
     ],
@@ -198,7 +208,7 @@ function deliveryProcedure(patientId: string, r: SnapshotRestoration, parts: Sna
     ...(parts.length > 0
       ? {
           focalDevice: parts.map((p) => ({
-            action: { coding: [{ system: CODE_SYSTEMS.deviceAction, code: 'implanted', display: 'Implanted' }] },
+            action: IMPLANTED,
             manipulated: ref(p.id),
           })),
         }
