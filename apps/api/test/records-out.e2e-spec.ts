@@ -22,6 +22,7 @@ import {
 } from '../src/db/schema/index.js';
 import { validatorErrors } from './support/fhir-validation.js';
 import { until } from './support/recalls.js';
+import { all, describeRoleMatrix, type RoleCase } from './support/role-matrix.js';
 import { patientId, signIn, siteId, startTestApp, type TestContext } from './support/test-app.js';
 
 const mailHttp = `http://127.0.0.1:${process.env.TT_MAIL_HTTP_PORT ?? 2580}/messages`;
@@ -107,10 +108,10 @@ const restoredSites = async (chart: string) =>
 
 describe('FHIR export', () => {
   it('is a validator-clean Bundle for every demo patient, with a Device per implant and per part', async () => {
-    const all = await ctx.db.select().from(patients).orderBy(asc(patients.chartNumber));
-    const larkspur = all.filter((p) => p.chartNumber.startsWith('LL-'));
+    const everyone = await ctx.db.select().from(patients).orderBy(asc(patients.chartNumber));
+    const larkspur = everyone.filter((p) => p.chartNumber.startsWith('LL-'));
     expect(larkspur.length).toBeGreaterThanOrEqual(5);
-    for (const p of all) {
+    for (const p of everyone) {
       const cookie = p.chartNumber.startsWith('LL-') ? dentist : await signIn(ctx, 'otherPracticeDentist');
       const res = await binary(`/api/patients/${p.id}/fhir`, cookie);
       expect(res.status, p.chartNumber).toBe(200);
@@ -198,7 +199,7 @@ describe('implant passport', () => {
         expect(text).toContain(`System: ${i.system}`);
         expect(text).toContain(`platform ${i.platform}`);
         expect(text).toContain(`Size: ${i.diameterMm} mm wide × ${i.lengthMm} mm long`);
-        if (i.lot) expect(text).toContain(`lot ${i.lot}`);
+        expect(text).toContain(i.lot ? `lot ${i.lot}` : 'Identification:');
         for (const part of await partsOf(i.siteId)) {
           if (part.kind === 'impression-coping') continue;
           expect(text).toContain(`[${part.referenceCode}]${part.lot ? `, lot ${part.lot}` : ''}`);
@@ -357,3 +358,56 @@ describe('practice contact on the passport', () => {
     }
   });
 });
+
+// Who may take which record out: the FHIR export is the dentist's and the admin's, the passport
+// and the card the dentist's; another practice's patient is a 404, a role without the right 403.
+const pdf = (res: { status: number; headers: Record<string, string> }) => {
+  if (res.status === 200) expect(res.headers['content-type']).toBe('application/pdf');
+};
+const larkspur = async () => patientId(ctx.db, 'LL-1001');
+const quarry = async () => patientId(ctx.db, 'QH-2001');
+const matrix: RoleCase[] = [
+  {
+    route: 'GET /api/patients/:id/fhir (Larkspur, shared with the surgeon)',
+    path: async () => `/api/patients/${await larkspur()}/fhir`,
+    expect: all(403, { dentist: 200, practice_admin: 200, otherPracticeDentist: 404 }),
+  },
+  {
+    route: 'GET /api/patients/:id/fhir (Quarry Hill)',
+    path: async () => `/api/patients/${await quarry()}/fhir`,
+    expect: all(403, { dentist: 404, practice_admin: 404, otherPracticeDentist: 200 }),
+  },
+  {
+    route: 'GET /api/patients/:id/fhir (no such patient)',
+    path: () => '/api/patients/00000000-0000-4000-8000-000000000000/fhir',
+    expect: all(403, { dentist: 404, practice_admin: 404, otherPracticeDentist: 404 }),
+  },
+  ...(['passport.pdf', 'retrieval-card.pdf'] as const).flatMap((doc): RoleCase[] => [
+    {
+      route: `GET /api/patients/:id/${doc} (Larkspur)`,
+      path: async () => `/api/patients/${await larkspur()}/${doc}`,
+      expect: all(403, { dentist: 200, otherPracticeDentist: 404 }),
+      check: pdf,
+    },
+    {
+      route: `GET /api/patients/:id/${doc} (Quarry Hill)`,
+      path: async () => `/api/patients/${await quarry()}/${doc}`,
+      expect: all(403, { dentist: 404, otherPracticeDentist: 200 }),
+      check: pdf,
+    },
+  ]),
+  {
+    route: 'GET /api/patients/:id/passport/mails (Quarry Hill)',
+    path: async () => `/api/patients/${await quarry()}/passport/mails`,
+    expect: all(403, { dentist: 404, otherPracticeDentist: 200 }),
+  },
+  {
+    route: 'POST /api/patients/:id/passport/mails (Quarry Hill, from Larkspur)',
+    method: 'post',
+    path: async () => `/api/patients/${await quarry()}/passport/mails`,
+    body: () => ({}),
+    // Quarry Hill's own dentist may ask, but its seeded patients have no e-mail address: 409.
+    expect: all(403, { dentist: 404, otherPracticeDentist: 409 }),
+  },
+];
+describeRoleMatrix(() => ctx, matrix, { notFoundMessage: /^No such patient/ });

@@ -14,7 +14,7 @@ export interface PatientPdfFrame {
   printedAt: string;
 }
 
-export const PDF_MARGIN = 50;
+const PDF_MARGIN = 50;
 
 /** The document and the call that draws every page's frame and returns the bytes. */
 export function patientPdf(frame: PatientPdfFrame): { doc: PDFKit.PDFDocument; finish: () => Promise<Buffer> } {

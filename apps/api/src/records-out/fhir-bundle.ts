@@ -66,7 +66,7 @@ const narrative = (text: string) => ({
 });
 
 /** The tooth as an ISO 3950 (FDI) code, with its Universal number in the text. */
-export function toothSite(fdi: number) {
+function toothSite(fdi: number) {
   return {
     coding: [{ system: CODE_SYSTEMS.fdiTeeth, code: String(fdi), display: `FDI ${fdi}` }],
     text: `Tooth ${fdi} (ISO 3950 / FDI), ${fdiToUniversal(fdi)} in the Universal numbering`,

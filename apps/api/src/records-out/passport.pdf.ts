@@ -12,7 +12,7 @@ export interface PrintedBy {
   at: string;
 }
 
-export const PASSPORT_CAUTIONS = [
+const PASSPORT_CAUTIONS = [
   'Show this passport to any dentist or doctor who treats you, and tell them you have dental implants.',
   'Implant parts are made for one implant system: only parts made for the system named here should be fitted.',
   'If a crown or bridge feels loose, or the gum around an implant bleeds, swells or hurts, contact the practice.',
@@ -22,7 +22,7 @@ export const PASSPORT_CAUTIONS = [
 
 const ncm = (v: number) => `${v} N·cm`;
 
-export function partLine(p: SnapshotPart): string {
+function partLine(p: SnapshotPart): string {
   const lot = p.lot ? `, lot ${p.lot}` : '';
   const spec = p.torqueSpecNcm === null ? 'hand-tight' : `specified ${ncm(p.torqueSpecNcm)}`;
   const seated = p.seatingTorque

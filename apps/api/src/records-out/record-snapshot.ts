@@ -31,7 +31,7 @@ export interface SnapshotPatient {
   emailConsent: boolean;
 }
 
-export interface SnapshotPractice {
+interface SnapshotPractice {
   id: string;
   name: string;
   phone: string | null;
@@ -39,7 +39,7 @@ export interface SnapshotPractice {
   address: string | null;
 }
 
-export interface SnapshotPlacement {
+interface SnapshotPlacement {
   id: string;
   placedOn: string;
   surgeonName: string;
@@ -53,7 +53,7 @@ export interface SnapshotPlacement {
   udi: string | null;
 }
 
-export interface SnapshotTorque {
+interface SnapshotTorque {
   appliedNcm: number;
   performedAt: string;
   reason: TorqueReason;
@@ -147,12 +147,12 @@ export function buildSnapshot(rows: SnapshotRows): RecordSnapshot {
     seen.add(p.siteId);
     const { siteId, fdi, ...placement } = p;
     // The latest delivery on the site is what is in the mouth now.
-    const r = rows.restorations.filter((x) => x.siteId === siteId).at(-1);
+    const r = [...rows.restorations].reverse().find((x) => x.siteId === siteId);
     const parts = rows.parts
       .filter((x) => x.siteId === siteId)
       .map(({ siteId: _s, ...part }): SnapshotPart => {
         const log = rows.torque.filter((t) => t.instanceId === part.id);
-        const seating = log.filter((t) => SEATING_REASONS.includes(t.reason)).at(-1);
+        const seating = [...log].reverse().find((t) => SEATING_REASONS.includes(t.reason));
         const last = log.at(-1);
         return { ...part, seatingTorque: seating ? torqueOf(seating) : null, lastTorque: last ? torqueOf(last) : null };
       })

@@ -19,7 +19,7 @@ import { renderRetrievalCard } from './retrieval-card.pdf.js';
 type Patient = NonNullable<Awaited<ReturnType<typeof repo.findVisiblePatient>>>;
 
 /** Why the passport cannot be e-mailed to this patient, or null when it can. */
-export function emailBlockedReason(p: Pick<Patient, 'email' | 'emailConsent'>): string | null {
+function emailBlockedReason(p: Pick<Patient, 'email' | 'emailConsent'>): string | null {
   if (!p.email) return 'The patient has no e-mail address on record';
   if (!p.emailConsent) return 'The patient has not consented to e-mail';
   return null;

@@ -8,12 +8,12 @@ import { type PrintedBy, udiLine } from './passport.pdf.js';
 import type { RecordSnapshot, SnapshotImplant, SnapshotPart } from './record-snapshot.js';
 import { connectionWords, partKindWords, retentionWords, torqueReasonWords } from './plain-words.js';
 
-export const RETRIEVAL_CAUTION = `Check every part against the manufacturer's instructions for this system before loosening or tightening anything: ${MANUFACTURER_CAUTION}`;
+const RETRIEVAL_CAUTION = `Check every part against the manufacturer's instructions for this system before loosening or tightening anything: ${MANUFACTURER_CAUTION}`;
 
 const isScrew = (p: SnapshotPart) => (SCREW_KINDS as readonly string[]).includes(p.kind);
 
 /** The latest torque logged on any part of the site, if any. */
-export function lastTorqueOf(i: SnapshotImplant): { at: string; part: SnapshotPart } | null {
+function lastTorqueOf(i: SnapshotImplant): { at: string; part: SnapshotPart } | null {
   let last: { at: string; part: SnapshotPart } | null = null;
   for (const p of i.parts) {
     if (p.lastTorque && (!last || p.lastTorque.performedAt > last.at)) last = { at: p.lastTorque.performedAt, part: p };

@@ -34,12 +34,14 @@ export function bindingStrength(location: string): string | undefined {
  * system; this validator still notes each one it cannot find in the bound set as a warning).
  */
 export function validatorErrors(resource: object) {
-  const documented = Object.values(CODE_SYSTEMS);
+  const documented: string[] = Object.values(CODE_SYSTEMS);
   const result = new Fhir().validate(resource);
   return (result.messages ?? []).filter((m) => {
-    if (m.severity === 'error') return true;
-    if (m.severity !== 'warning') return false;
-    const system = /not found in value set$/.test(m.message ?? '') ? /\((\S+)\)/.exec(m.message ?? '')?.[1] : undefined;
+    const severity: string = m.severity ?? '';
+    if (severity === 'error') return true;
+    if (severity !== 'warning') return false;
+    const message = m.message ?? '';
+    const system = message.endsWith('not found in value set') ? /\((\S+)\)/.exec(message)?.[1] : undefined;
     const strength = bindingStrength(m.location ?? '');
     return !(system && documented.includes(system) && strength !== undefined && strength !== 'required');
   });
