@@ -118,10 +118,10 @@ describe('records out (issue 14)', () => {
     expect(user('practice_admin').can('read', row('ImplantPassport', own))).toBe(false);
   });
   it("nobody else, not through a share, and never another practice's patient", () => {
-    for (const subject of ['PatientExport', 'ImplantPassport'] as const) {
-      expect(user('hygienist').can('read', row(subject, own))).toBe(false);
-      expect(user('surgeon', [SHARED_PATIENT]).can('read', row(subject, own))).toBe(false);
-      expect(user('dentist').can('read', row(subject, { practiceId: OTHER, patientId: UNSHARED_PATIENT }))).toBe(false);
+    for (const kind of ['PatientExport', 'ImplantPassport'] as const) {
+      expect(user('hygienist').can('read', row(kind, own))).toBe(false);
+      expect(user('surgeon', [SHARED_PATIENT]).can('read', row(kind, own))).toBe(false);
+      expect(user('dentist').can('read', row(kind, { practiceId: OTHER, patientId: UNSHARED_PATIENT }))).toBe(false);
     }
   });
 });

@@ -13,6 +13,7 @@ import { MAINTENANCE_NOTE } from '../../../lib/labels';
 import { useToothSystem } from '../../../lib/tooth-system';
 import { PatientAccessLog } from '../../audit';
 import { usePatient } from '../../patients';
+import { RecordsOutPanel } from '../../records-out';
 import { AddSiteControl } from '../components/add-site-control';
 import { ArchDrawing } from '../components/arch-drawing';
 import { ArchLegend } from '../components/arch-legend';
@@ -143,6 +144,7 @@ export function ArchRoute() {
           </>
         )}
       </section>
+      <RecordsOutPanel patientId={data.id} practiceId={data.practiceId} />
       <Can I="read" this={subject('PatientAudit', { practiceId: data.practiceId, patientId: data.id })}>
         <PatientAccessLog patientId={data.id} />
       </Can>
