@@ -312,6 +312,18 @@ describe('passport by e-mail', () => {
     expect(audited[0].patientId).toBe(pid);
     const listed = await ctx.http.get(`/api/patients/${pid}/passport/mails`).set('Cookie', dentist);
     expect(listed.body.mails[0]).toMatchObject({ id: made.body.id, status: 'sent' });
+    // Logged in the Timeline of each of the patient's sites, with who asked.
+    const timeline = await ctx.http
+      .get(`/api/sites/${await siteId(ctx.db, 'LL-1002', 45)}/timeline`)
+      .set('Cookie', dentist);
+    expect(timeline.body.events.filter((e: { kind: string }) => e.kind === 'passport-mail')).toEqual([
+      expect.objectContaining({
+        id: made.body.id,
+        title: 'Implant passport e-mailed to the patient',
+        detail: 'to imogen.farrow@mail.example',
+        byName: 'Dr Ines Calloway',
+      }),
+    ]);
   });
 
   it('is refused without the patient e-mail consent or without an address, and nothing is queued', async () => {

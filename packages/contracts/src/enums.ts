@@ -199,6 +199,8 @@ export const TIMELINE_KINDS = [
   'radiograph',
   'bone-level',
   'seating-check',
+  // The patient's implant passport e-mailed to them (a patient-wide entry, shown on each site).
+  'passport-mail',
 ] as const;
 export const TimelineKind = z.enum(TIMELINE_KINDS);
 export type TimelineKind = z.infer<typeof TimelineKind>;

@@ -127,6 +127,7 @@ export class SitesService {
       radiographs,
       measurements,
       seatingChecks,
+      passportMails,
     ] = await Promise.all([
       canRead('Placement') ? timeline.placementsOfSite(this.db, site.id) : none,
       canRead('Restoration') ? timeline.restorationsOfSite(this.db, site.id) : none,
@@ -137,10 +138,22 @@ export class SitesService {
       readRadiographs ? timeline.radiographsOfSite(this.db, site.id) : none,
       readRadiographs ? timeline.measurementsOfSite(this.db, site.id) : none,
       readRadiographs && canRead('Restoration') ? timeline.seatingChecksOfSite(this.db, site.id) : none,
+      timeline.passportMailsOfSite(this.db, site.id),
     ]);
     return buildTimeline(
       site.id,
-      { placements, restorations, parts, torque, complications, recallExams, radiographs, measurements, seatingChecks },
+      {
+        placements,
+        restorations,
+        parts,
+        torque,
+        complications,
+        recallExams,
+        radiographs,
+        measurements,
+        seatingChecks,
+        passportMails,
+      },
       kinds,
     );
   }

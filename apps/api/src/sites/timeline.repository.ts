@@ -9,6 +9,7 @@ import {
   implantSites,
   implantSystems,
   labPrescriptions,
+  passportMails,
   placements,
   platforms,
   radiographMeasurements,
@@ -263,4 +264,21 @@ export async function seatingChecksOfSite(db: Db, siteId: string) {
           .where(eq(restorationSites.siteId, siteId)),
       ),
     );
+}
+
+/** The implant passport e-mails of the site's patient (a patient-wide entry, on every site). */
+export async function passportMailsOfSite(db: Db, siteId: string) {
+  return db
+    .select({
+      id: passportMails.id,
+      sentTo: passportMails.sentTo,
+      status: passportMails.status,
+      requestedAt: passportMails.requestedAt,
+      sentAt: passportMails.sentAt,
+      byName: users.displayName,
+    })
+    .from(passportMails)
+    .innerJoin(implantSites, eq(implantSites.patientId, passportMails.patientId))
+    .leftJoin(users, eq(users.id, passportMails.requestedBy))
+    .where(eq(implantSites.id, siteId));
 }

@@ -15,6 +15,7 @@ const empty: TimelineRows = {
   radiographs: [],
   measurements: [],
   seatingChecks: [],
+  passportMails: [],
 };
 const torque = (id: string, performedAt: string, amended = false) => ({
   id,

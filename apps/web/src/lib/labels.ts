@@ -71,6 +71,7 @@ export const TIMELINE_KIND_LABEL: Record<TimelineKind, string> = {
   radiograph: 'Radiograph',
   'bone-level': 'Bone level',
   'seating-check': 'Seating check',
+  'passport-mail': 'Passport e-mailed',
 };
 
 export const DESK_FILTER_LABEL: Record<DeskFilter, string> = {

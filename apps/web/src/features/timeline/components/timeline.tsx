@@ -28,6 +28,7 @@ const KIND_ICON: Record<TimelineKind, IconName> = {
   radiograph: 'media',
   'bone-level': 'timeline-line-chart',
   'seating-check': 'tick-circle',
+  'passport-mail': 'envelope',
 };
 
 /** A radiograph entry's thumbnail, or the link to the radiograph an entry was read from. */
