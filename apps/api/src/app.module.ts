@@ -29,6 +29,7 @@ import { PeopleModule } from './people/people.module.js';
 import { OutcomesModule } from './outcomes/outcomes.module.js';
 import { SharesModule } from './shares/shares.module.js';
 import { FieldRulesInterceptor } from './authz/field-rules.interceptor.js';
+import { RecordsOutModule } from './records-out/records-out.module.js';
 
 @Module({})
 export class AppModule {
@@ -58,6 +59,7 @@ export class AppModule {
         SeatingModule,
         PeopleModule,
         SharesModule,
+        RecordsOutModule,
         ...(env.NODE_ENV === 'production' ? [] : [OpenApiModule]),
       ],
       providers: [

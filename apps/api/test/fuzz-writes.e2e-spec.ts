@@ -168,6 +168,7 @@ const TARGETS: Record<string, { as: AccountKey | null; path: string }> = {
   'PUT /practice/patient-settings': { as: 'practice_admin', path: '/api/practice/patient-settings' },
   'POST /sites/:id/placements': { as: 'dentist', path: `/api/sites/${await t.fresh.site()}/placements` },
   'POST /placements/:id/amendments': { as: 'dentist', path: `/api/placements/${await t.fresh.placement()}/amendments` },
+  'POST /patients/:id/passport/mails': { as: 'dentist', path: `/api/patients/${t.ids.harold}/passport/mails` },
 };
 
 /**

@@ -631,6 +631,28 @@ const TABLE: Record<string, Case[]> = {
     body: () => ({ reason: 'For the matrix' }),
     expect: every(403, { dentist: 200, otherPracticeDentist: 404 }),
   }),
+  // Records out: the FHIR export for the dentist and the admin; passport and card for the dentist.
+  'GET /api/patients/:id/fhir': one({
+    path: () => `/api/patients/${ids.harold}/fhir`,
+    expect: every(403, { dentist: 200, practice_admin: 200, otherPracticeDentist: 404 }),
+  }),
+  'GET /api/patients/:id/passport.pdf': one({
+    path: () => `/api/patients/${ids.harold}/passport.pdf`,
+    expect: dentistWrite(200),
+  }),
+  'GET /api/patients/:id/retrieval-card.pdf': one({
+    path: () => `/api/patients/${ids.harold}/retrieval-card.pdf`,
+    expect: dentistWrite(200),
+  }),
+  'GET /api/patients/:id/passport/mails': one({
+    path: () => `/api/patients/${ids.harold}/passport/mails`,
+    expect: dentistWrite(200),
+  }),
+  'POST /api/patients/:id/passport/mails': one({
+    path: () => `/api/patients/${ids.harold}/passport/mails`,
+    body: () => ({}),
+    expect: dentistWrite(201),
+  }),
   // A wrong current password: nobody's password changes, every signed-in actor gets the field error.
   'PUT /api/auth/password': one(
     {

@@ -118,6 +118,24 @@ describe('the audit trail (issue 11)', () => {
   });
 });
 
+describe('records out (issue 14)', () => {
+  const own = { practiceId: PRACTICE, patientId: SHARED_PATIENT };
+  it("the FHIR export is the dentist's and the admin's; passport and card the dentist's", () => {
+    expect(user('dentist').can('read', row('PatientExport', own))).toBe(true);
+    expect(user('practice_admin').can('read', row('PatientExport', own))).toBe(true);
+    expect(user('dentist').can('read', row('ImplantPassport', own))).toBe(true);
+    expect(user('dentist').can('create', row('ImplantPassport', own))).toBe(true);
+    expect(user('practice_admin').can('read', row('ImplantPassport', own))).toBe(false);
+  });
+  it("nobody else, not through a share, and never another practice's patient", () => {
+    for (const kind of ['PatientExport', 'ImplantPassport'] as const) {
+      expect(user('hygienist').can('read', row(kind, own))).toBe(false);
+      expect(user('surgeon', [SHARED_PATIENT]).can('read', row(kind, own))).toBe(false);
+      expect(user('dentist').can('read', row(kind, { practiceId: OTHER, patientId: UNSHARED_PATIENT }))).toBe(false);
+    }
+  });
+});
+
 describe('practice administrator', () => {
   const a = user('practice_admin');
   it('manages users, the catalogue and reads the audit trail', () => {

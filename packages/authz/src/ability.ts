@@ -56,6 +56,10 @@ export type Subject =
   | 'Outcomes'
   /** A patient's referral summary for the surgeon of a share: drawn, downloaded, e-mailed. */
   | 'ReferralSummary'
+  /** One patient's record exported as FHIR R4: the dentist's and the admin's. */
+  | 'PatientExport'
+  /** One patient's implant passport and retrieval card (print, e-mail to the patient): the dentist's. */
+  | 'ImplantPassport'
   | 'all';
 
 /** A loaded row checked with `subject(type, row)`; only these fields take part in conditions. */
@@ -146,6 +150,8 @@ export function defineAbilityFor(user: AbilityUser): AppAbility {
       can('read', 'PatientAudit', own);
       can('read', ['LotTrace', 'Outcomes'], own);
       can(['read', 'create'], 'ReferralSummary', own);
+      can('read', 'PatientExport', own);
+      can(['read', 'create'], 'ImplantPassport', own);
       break;
     case 'hygienist':
       can('read', 'Practice', { id: user.practiceId });
@@ -176,6 +182,7 @@ export function defineAbilityFor(user: AbilityUser): AppAbility {
       can(['read', 'create', 'update'], ['Catalogue', 'Wrench', 'RecallPolicy'], own);
       can('read', ['AuditEntry', 'PatientAudit', 'Share', 'LotTrace', 'Outcomes'], own);
       can(['read', 'create'], 'ReferralSummary', own);
+      can('read', ['AuditEntry', 'PatientAudit', 'Share', 'PatientExport'], own);
       break;
   }
   return build();

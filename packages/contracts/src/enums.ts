@@ -215,6 +215,8 @@ export const TIMELINE_KINDS = [
   'seating-check',
   // The patient's referral summary e-mailed to a share's surgeon: on the Timeline of each site.
   'referral-summary',
+  // The patient's implant passport e-mailed to them (a patient-wide entry, shown on each site).
+  'passport-mail',
 ] as const;
 export const TimelineKind = z.enum(TIMELINE_KINDS);
 export type TimelineKind = z.infer<typeof TimelineKind>;

@@ -21,3 +21,4 @@ export * from './password.js';
 export * from './people.js';
 export * from './outcomes.js';
 export * from './shares.js';
+export * from './records-out.js';

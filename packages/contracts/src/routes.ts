@@ -8,6 +8,7 @@ import { seatingRoutes } from './seating.js';
 import { peopleRoutes } from './people.js';
 import { outcomeRoutes } from './outcomes.js';
 import { shareRoutes } from './shares.js';
+import { recordsOutRoutes } from './records-out.js';
 import { Me, SignInBody } from './auth.js';
 import { HealthReply, LivenessReply } from './health.js';
 import { PatientDetail, PatientListQuery, PatientListReply, patientRoutes } from './patients.js';
@@ -92,6 +93,7 @@ export const apiRoutes: RouteContract[] = [
   ...seatingRoutes,
   ...placementRoutes,
   ...auditRoutes,
+  ...recordsOutRoutes,
 ];
 
 export type { RouteContract };

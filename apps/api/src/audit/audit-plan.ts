@@ -25,6 +25,8 @@ const PATIENT_DATA: ReadonlySet<Subject> = new Set<Subject>([
   'LotTrace',
   'Outcomes',
   'ReferralSummary',
+  'PatientExport',
+  'ImplantPassport',
 ]);
 
 /** The audit action of a write, from the route's `@Allow(action, subject)`. */

@@ -313,7 +313,17 @@ export interface DemoRefs {
 export async function seedDemoScenario(tx: Tx, today: string): Promise<{ summary: SeedSummary; refs: DemoRefs }> {
   const [larkspur, northgate, quarry] = await tx
     .insert(practices)
-    .values([{ name: 'Larkspur Lane Dental' }, { name: 'Northgate Oral Surgery' }, { name: 'Quarry Hill Dental' }])
+    .values([
+      // Invented contact details (an .example address, a phone number from the range kept for drama).
+      {
+        name: 'Larkspur Lane Dental',
+        phone: '+44 20 7946 0123',
+        email: 'desk@larkspur-lane.example',
+        address: '14 Larkspur Lane, Eastbridge',
+      },
+      { name: 'Northgate Oral Surgery' },
+      { name: 'Quarry Hill Dental' },
+    ])
     .returning({ id: practices.id });
   const practiceIdByName = new Map([
     ['Larkspur Lane Dental', larkspur.id],

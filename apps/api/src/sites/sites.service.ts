@@ -132,6 +132,7 @@ export class SitesService {
       measurements,
       seatingChecks,
       referralSummaries,
+      passportMails,
     ] = await Promise.all([
       canRead('Placement') ? timeline.placementsOfSite(this.db, site.id) : none,
       canRead('Restoration') ? timeline.restorationsOfSite(this.db, site.id) : none,
@@ -143,6 +144,7 @@ export class SitesService {
       readRadiographs ? timeline.measurementsOfSite(this.db, site.id) : none,
       readRadiographs && canRead('Restoration') ? timeline.seatingChecksOfSite(this.db, site.id) : none,
       canRead('ReferralSummary') ? timeline.referralSummariesOfSite(this.db, site.id) : none,
+      timeline.passportMailsOfSite(this.db, site.id),
     ]);
     return buildTimeline(
       site.id,
@@ -157,6 +159,7 @@ export class SitesService {
         measurements,
         seatingChecks,
         referralSummaries,
+        passportMails,
       },
       kinds,
     );

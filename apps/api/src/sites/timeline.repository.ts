@@ -9,6 +9,7 @@ import {
   components,
   implantSystems,
   labPrescriptions,
+  passportMails,
   placements,
   platforms,
   radiographMeasurements,
@@ -316,4 +317,25 @@ const referralSummariesQuery = preparedFor((db) =>
     .leftJoin(users, eq(users.id, referralSummaryMails.requestedBy))
     .where(eq(implantSites.id, sql.placeholder('siteId')))
     .prepare('timeline_referral_summaries'),
+);
+/** The implant passport e-mails of the site's patient (a patient-wide entry, on every site). */
+export function passportMailsOfSite(db: Database, siteId: string) {
+  return passportMailsQuery(db).execute({ siteId });
+}
+
+const passportMailsQuery = preparedFor((db) =>
+  db
+    .select({
+      id: passportMails.id,
+      sentTo: passportMails.sentTo,
+      status: passportMails.status,
+      requestedAt: passportMails.requestedAt,
+      sentAt: passportMails.sentAt,
+      byName: users.displayName,
+    })
+    .from(passportMails)
+    .innerJoin(implantSites, eq(implantSites.patientId, passportMails.patientId))
+    .leftJoin(users, eq(users.id, passportMails.requestedBy))
+    .where(eq(implantSites.id, sql.placeholder('siteId')))
+    .prepare('timeline_passport_mails'),
 );

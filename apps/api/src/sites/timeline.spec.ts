@@ -16,6 +16,7 @@ const empty: TimelineRows = {
   measurements: [],
   seatingChecks: [],
   referralSummaries: [],
+  passportMails: [],
 };
 const torque = (id: string, performedAt: string, amended = false) => ({
   id,

@@ -7,6 +7,7 @@ import {
   type SeatingAnswer,
   type TimelineReply,
   type TorqueSeries,
+  type ReminderStatus,
 } from '@torquetrail/contracts';
 import { isRetrievable } from '@torquetrail/domain';
 import type * as repo from './timeline.repository.js';
@@ -24,10 +25,18 @@ export interface TimelineRows {
   measurements: Rows<'measurementsOfSite'>;
   seatingChecks: Rows<'seatingChecksOfSite'>;
   referralSummaries: Rows<'referralSummariesOfSite'>;
+  passportMails: Rows<'passportMailsOfSite'>;
 }
 
 /** What a seating check found, in the words of the Timeline's titles. */
 const SEATED_WORDS: Record<SeatingAnswer, string> = { yes: 'seated', no: 'not seated', unsure: 'unclear' };
+/** What became of a passport e-mail, in the words of the Timeline's titles. */
+const PASSPORT_MAIL_TITLE: Record<ReminderStatus, string> = {
+  pending: 'Implant passport e-mail requested (waiting for the mail server)',
+  sent: 'Implant passport e-mailed to the patient',
+  failed: 'Implant passport e-mail failed',
+  withheld: 'Implant passport e-mail withheld',
+};
 const mm = (v: number) => `${v.toFixed(1)} mm`;
 
 const day = (date: string) => `${date}T00:00:00.000Z`;
@@ -204,6 +213,14 @@ export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: Timeli
     );
     events.push(event);
     recorded.set(event, c.recordedAt.toISOString());
+  }
+  for (const m of rows.passportMails) {
+    events.push(
+      base('passport-mail', m.id, (m.sentAt ?? m.requestedAt).toISOString(), false, PASSPORT_MAIL_TITLE[m.status], {
+        detail: `to ${m.sentTo}`,
+        byName: m.byName,
+      }),
+    );
   }
   for (const e of rows.recallExams) {
     events.push(

@@ -118,6 +118,11 @@ export const AUDIT_EXPECTATIONS: Record<string, Audited | null> = {
   'POST /api/account/password-reset/look-up': null,
   'POST /api/account/password-reset/complete': null,
   'PUT /api/auth/password': null,
+  'GET /api/patients/:id/fhir': { action: 'export', patient: true },
+  'GET /api/patients/:id/passport.pdf': { action: 'export', patient: true },
+  'GET /api/patients/:id/retrieval-card.pdf': { action: 'export', patient: true },
+  'GET /api/patients/:id/passport/mails': read(),
+  'POST /api/patients/:id/passport/mails': create,
 };
 
 /**
@@ -139,6 +144,7 @@ const RECORD_TABLES: Record<string, string> = {
   SeatingCheck: 'seating_checks',
   LabPrescription: 'lab_prescriptions',
   ReferralSummaryMail: 'referral_summary_mails',
+  PassportMail: 'passport_mails',
   CatalogueSystem: 'implant_systems',
   CataloguePlatform: 'platforms',
   CatalogueComponent: 'components',

@@ -78,6 +78,7 @@ export const TIMELINE_KIND_LABEL: Record<TimelineKind, string> = {
   'bone-level': 'Bone level',
   'seating-check': 'Seating check',
   'referral-summary': 'Referral summary',
+  'passport-mail': 'Passport e-mailed',
 };
 
 export const DESK_FILTER_LABEL: Record<DeskFilter, string> = {

@@ -11,3 +11,4 @@ export * from './audit.js';
 export * from './seating.js';
 export * from './people.js';
 export * from './referrals.js';
+export * from './records-out.js';

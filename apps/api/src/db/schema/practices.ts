@@ -6,6 +6,10 @@ export const practices = pgTable('practices', {
   name: text('name').notNull(),
   /** Automatic sign-out after this many idle minutes (set by the practice administrator). */
   idleSignOutMinutes: integer('idle_sign_out_minutes').notNull().default(15),
+  /** How a patient reaches the practice: printed on the implant passport. */
+  phone: text('phone'),
+  email: text('email'),
+  address: text('address'),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 });
 

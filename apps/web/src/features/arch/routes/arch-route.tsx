@@ -15,6 +15,7 @@ import { PatientAccessLog } from '../../audit';
 import { ReferralSummaryPanel } from '../../outcomes';
 import { usePatient } from '../../patients';
 import { PatientShares } from '../../shares';
+import { RecordsOutPanel } from '../../records-out';
 import { AddSiteControl } from '../components/add-site-control';
 import { ArchDrawing } from '../components/arch-drawing';
 import { ArchLegend } from '../components/arch-legend';
@@ -151,6 +152,7 @@ export function ArchRoute() {
       <Can I="read" this={subject('Share', { practiceId: data.practiceId, patientId: data.id })}>
         <PatientShares patient={data} />
       </Can>
+      <RecordsOutPanel patientId={data.id} practiceId={data.practiceId} />
       <Can I="read" this={subject('PatientAudit', { practiceId: data.practiceId, patientId: data.id })}>
         <PatientAccessLog patientId={data.id} />
       </Can>

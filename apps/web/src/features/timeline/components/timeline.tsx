@@ -29,6 +29,7 @@ const KIND_ICON: Record<TimelineKind, IconName> = {
   'bone-level': 'timeline-line-chart',
   'seating-check': 'tick-circle',
   'referral-summary': 'envelope',
+  'passport-mail': 'envelope',
 };
 
 /** A radiograph entry's thumbnail, or the link to the radiograph an entry was read from. */

@@ -1,0 +1,59 @@
+// A pdfkit document for pages that carry patient data: every page gets the same header (patient,
+// chart number, date of birth, practice) and footer (who printed it, when, page n of m), so a
+// page that comes loose from the rest still says whose it is and where it came from.
+import PDFDocument from 'pdfkit';
+
+export interface PatientPdfFrame {
+  title: string;
+  patientName: string;
+  chartNumber: string;
+  birthDate: string;
+  practiceName: string;
+  printedBy: string;
+  /** ISO date-time of the print. */
+  printedAt: string;
+}
+
+const PDF_MARGIN = 50;
+
+/** The document and the call that draws every page's frame and returns the bytes. */
+export function patientPdf(frame: PatientPdfFrame): { doc: PDFKit.PDFDocument; finish: () => Promise<Buffer> } {
+  const doc = new PDFDocument({
+    size: 'A4',
+    margins: { top: PDF_MARGIN + 22, bottom: PDF_MARGIN + 10, left: PDF_MARGIN, right: PDF_MARGIN },
+    bufferPages: true,
+    info: { Title: `${frame.title} ${frame.chartNumber}`, Author: frame.practiceName },
+  });
+  const chunks: Buffer[] = [];
+  const done = new Promise<Buffer>((resolve, reject) => {
+    doc.on('data', (c: Buffer) => chunks.push(c));
+    doc.on('end', () => resolve(Buffer.concat(chunks)));
+    doc.on('error', reject);
+  });
+  const finish = () => {
+    const { start, count } = doc.bufferedPageRange();
+    const header = `${frame.patientName} · chart ${frame.chartNumber} · born ${frame.birthDate} · ${frame.practiceName}`;
+    for (let i = start; i < start + count; i += 1) {
+      doc.switchToPage(i);
+      const width = doc.page.width - 2 * PDF_MARGIN;
+      // Margins off while the frame is drawn, so writing in them does not open a new page.
+      const { top, bottom } = doc.page.margins;
+      doc.page.margins.top = 0;
+      doc.page.margins.bottom = 0;
+      doc.font('Helvetica').fontSize(8).fillColor('#444444');
+      doc.text(header, PDF_MARGIN, PDF_MARGIN - 20, { width, lineBreak: false });
+      doc.text(
+        `${frame.title} · printed by ${frame.printedBy} on ${frame.printedAt.slice(0, 10)} · page ${i - start + 1} of ${count}`,
+        PDF_MARGIN,
+        doc.page.height - PDF_MARGIN,
+        { width, lineBreak: false },
+      );
+      doc.fillColor('#000000');
+      doc.page.margins.top = top;
+      doc.page.margins.bottom = bottom;
+    }
+    doc.end();
+    return done;
+  };
+  return { doc, finish };
+}

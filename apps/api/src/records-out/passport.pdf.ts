@@ -1,0 +1,112 @@
+// The implant passport: the patient's own record of what is in their mouth, in plain language,
+// to show any dentist who treats them (abroad, in an emergency, after a move).
+import { MANUFACTURER_CAUTION } from '@torquetrail/contracts';
+import { fdiToUniversal, isRetrievable } from '@torquetrail/domain';
+import { patientPdf } from '../common/patient-pdf.js';
+import type { RecordSnapshot, SnapshotImplant, SnapshotPart } from './record-snapshot.js';
+import { connectionWords, materialWords, partKindWords, restorationKindWords, retentionWords } from './plain-words.js';
+
+export interface PrintedBy {
+  name: string;
+  /** ISO date-time of the print. */
+  at: string;
+}
+
+const PASSPORT_CAUTIONS = [
+  'Show this passport to any dentist or doctor who treats you, and tell them you have dental implants.',
+  'Implant parts are made for one implant system: only parts made for the system named here should be fitted.',
+  'If a crown or bridge feels loose, or the gum around an implant bleeds, swells or hurts, contact the practice.',
+  'Keep your check-ups: implants need regular professional checks and cleaning, as teeth do.',
+  MANUFACTURER_CAUTION,
+] as const;
+
+const ncm = (v: number) => `${v} N·cm`;
+
+function partLine(p: SnapshotPart): string {
+  const lot = p.lot ? `, lot ${p.lot}` : '';
+  const spec = p.torqueSpecNcm === null ? 'hand-tight' : `specified ${ncm(p.torqueSpecNcm)}`;
+  const seated = p.seatingTorque
+    ? `; tightened to ${ncm(p.seatingTorque.appliedNcm)} on ${p.seatingTorque.performedAt.slice(0, 10)}`
+    : '';
+  return `${partKindWords(p.kind)}: ${p.name} [${p.referenceCode}]${lot} (${spec}${seated})`;
+}
+
+export const udiLine = (i: SnapshotImplant) =>
+  [i.placement.lot ? `lot ${i.placement.lot}` : '', i.placement.udi ? `UDI ${i.placement.udi}` : '']
+    .filter(Boolean)
+    .join(', ') || 'lot not recorded';
+
+export function renderPassport(s: RecordSnapshot, printed: PrintedBy): Promise<Buffer> {
+  const { patient, practice } = s;
+  const { doc, finish } = patientPdf({
+    title: 'Implant passport',
+    patientName: `${patient.givenName} ${patient.familyName}`,
+    chartNumber: patient.chartNumber,
+    birthDate: patient.birthDate,
+    practiceName: practice.name,
+    printedBy: printed.name,
+    printedAt: printed.at,
+  });
+  doc.font('Helvetica-Bold').fontSize(18).text('Your implant passport');
+  doc.font('Helvetica').fontSize(10).moveDown(0.3);
+  doc.text(
+    `This passport lists the dental implants in your mouth and what is fixed to them. Keep it with your papers and show it to any dentist who treats you.`,
+  );
+  doc.moveDown(0.6);
+  doc.font('Helvetica-Bold').text('Your practice');
+  doc.font('Helvetica').text(practice.name);
+  if (practice.address) doc.text(practice.address);
+  const contact = [practice.phone ? `Phone ${practice.phone}` : '', practice.email ? `E-mail ${practice.email}` : '']
+    .filter(Boolean)
+    .join('    ');
+  doc.text(contact || 'Contact details: ask the practice (none recorded).');
+  doc.moveDown(0.4);
+  doc.text(
+    s.nextRecallOn
+      ? `Your next check-up is due on ${s.nextRecallOn}.`
+      : 'No check-up is booked yet: please ask the practice for one.',
+  );
+  doc.moveDown(0.8);
+
+  if (s.implants.length === 0) doc.text('No implant is recorded for you at this practice.');
+  for (const i of s.implants) {
+    const pl = i.placement;
+    doc
+      .font('Helvetica-Bold')
+      .fontSize(12)
+      .text(`Implant at tooth ${i.fdi} (FDI) / ${fdiToUniversal(i.fdi)} (Universal)`);
+    doc.font('Helvetica').fontSize(10);
+    doc.text(`Placed on ${pl.placedOn} by ${pl.surgeonName}.`, { indent: 12 });
+    doc.text(
+      `System: ${pl.systemName} by ${pl.manufacturer}; platform ${pl.platformName}, ${connectionWords(pl.connection)} connection.`,
+      { indent: 12 },
+    );
+    doc.text(`Size: ${pl.diameterMm} mm wide × ${pl.lengthMm} mm long. Identification: ${udiLine(i)}.`, {
+      indent: 12,
+    });
+    const r = i.restoration;
+    if (r) {
+      const how = isRetrievable(r.retention)
+        ? 'It is screwed, so a dentist can unscrew and remove it (retrievable).'
+        : 'It is cemented, so it cannot be removed without cutting it (not retrievable).';
+      doc.text(
+        `On it: ${restorationKindWords(r.kind)} in ${materialWords(r.material)}, ${retentionWords(r.retention)}, fitted on ${r.deliveredOn}. ${how}`,
+        { indent: 12 },
+      );
+    } else {
+      doc.text('No crown or bridge is recorded on it yet.', { indent: 12 });
+    }
+    const parts = i.parts.filter((p) => p.kind !== 'impression-coping');
+    if (parts.length > 0) {
+      doc.text('Parts fixed to the implant, from the implant outward:', { indent: 12 });
+      for (const p of parts) doc.text(`- ${partLine(p)}`, { indent: 24 });
+    }
+    doc.moveDown(0.6);
+  }
+
+  doc.moveDown(0.4);
+  doc.font('Helvetica-Bold').text('Please note');
+  doc.font('Helvetica');
+  for (const c of PASSPORT_CAUTIONS) doc.text(`- ${c}`, { indent: 12 });
+  return finish();
+}
