@@ -26,6 +26,7 @@ import { StorageModule } from './storage/storage.module.js';
 import { RadiographsModule } from './radiographs/radiographs.module.js';
 import { SeatingModule } from './seating/seating.module.js';
 import { PeopleModule } from './people/people.module.js';
+import { ImportsModule } from './imports/imports.module.js';
 
 @Module({})
 export class AppModule {
@@ -53,6 +54,7 @@ export class AppModule {
         RadiographsModule,
         SeatingModule,
         PeopleModule,
+        ImportsModule,
         ...(env.NODE_ENV === 'production' ? [] : [OpenApiModule]),
       ],
       providers: [

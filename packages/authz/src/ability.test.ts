@@ -134,3 +134,14 @@ describe('practice administrator', () => {
     expect(a.can('create', row('User', { practiceId: OTHER }))).toBe(false);
   });
 });
+
+describe('legacy import (docs/import.md)', () => {
+  it('is run by the practice administrator and the dentist of the practice only', () => {
+    for (const role of ['practice_admin', 'dentist'] as const) {
+      expect(user(role).can('create', row('LegacyImport', { practiceId: PRACTICE }))).toBe(true);
+      expect(user(role).can('create', row('LegacyImport', { practiceId: OTHER }))).toBe(false);
+    }
+    for (const role of ['hygienist', 'surgeon'] as const)
+      expect(user(role).can('create', row('LegacyImport', { practiceId: PRACTICE }))).toBe(false);
+  });
+});

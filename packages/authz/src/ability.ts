@@ -43,6 +43,8 @@ export type Subject =
   | 'AuditEntry'
   /** One patient's audit rows ("who accessed this record"): the dentist's and the admin's. */
   | 'PatientAudit'
+  /** A legacy CSV import of the practice (its dry run, progress and writing). */
+  | 'LegacyImport'
   | 'all';
 
 /** A loaded row checked with `subject(type, row)`; only these fields take part in conditions. */
@@ -98,6 +100,7 @@ export function defineAbilityFor(user: AbilityUser): AppAbility {
       can(['read', 'create', 'amend'], 'Radiograph', own);
       can(['read', 'create', 'update'], 'Share', own);
       can('read', 'PatientAudit', own);
+      can(['read', 'create'], 'LegacyImport', own);
       break;
     case 'hygienist':
       can('read', 'Practice', { id: user.practiceId });
@@ -131,6 +134,8 @@ export function defineAbilityFor(user: AbilityUser): AppAbility {
       can('read', PATIENT_RECORD, own);
       can(['read', 'create', 'update'], ['Catalogue', 'Wrench', 'RecallPolicy'], own);
       can('read', ['AuditEntry', 'PatientAudit', 'Share'], own);
+      // A practice bringing its history in: the administrator runs it (docs/import.md).
+      can(['read', 'create'], 'LegacyImport', own);
       break;
   }
   return build();

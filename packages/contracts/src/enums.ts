@@ -199,6 +199,8 @@ export const TIMELINE_KINDS = [
   'radiograph',
   'bone-level',
   'seating-check',
+  // A part brought in by a legacy import that is not in the catalogue, kept as its free text.
+  'imported-part',
 ] as const;
 export const TimelineKind = z.enum(TIMELINE_KINDS);
 export type TimelineKind = z.infer<typeof TimelineKind>;
@@ -280,3 +282,12 @@ export type RadiographPreviewStatus = z.infer<typeof RadiographPreviewStatus>;
 export const INVITATION_STATUSES = ['pending', 'expired', 'accepted', 'revoked'] as const;
 export const InvitationStatus = z.enum(INVITATION_STATUSES);
 export type InvitationStatus = z.infer<typeof InvitationStatus>;
+// ---- legacy import -------------------------------------------------------------------------------
+/** What one row of a legacy import file records (docs/import.md). */
+export const IMPORT_EVENTS = ['placement', 'delivery', 'part', 'torque', 'exam'] as const;
+export const ImportEvent = z.enum(IMPORT_EVENTS);
+export type ImportEvent = z.infer<typeof ImportEvent>;
+/** An error stops the import; a warning is shown and does not. */
+export const IMPORT_ISSUE_LEVELS = ['error', 'warning'] as const;
+export const ImportIssueLevel = z.enum(IMPORT_ISSUE_LEVELS);
+export type ImportIssueLevel = z.infer<typeof ImportIssueLevel>;

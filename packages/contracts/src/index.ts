@@ -17,3 +17,5 @@ export * from './audit.js';
 export * from './seating.js';
 export * from './password.js';
 export * from './people.js';
+export * from './csv.js';
+export * from './imports.js';

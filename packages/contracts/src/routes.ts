@@ -6,6 +6,7 @@ import { radiographRoutes } from './radiographs.js';
 import { auditRoutes } from './audit.js';
 import { seatingRoutes } from './seating.js';
 import { peopleRoutes } from './people.js';
+import { importRoutes } from './imports.js';
 import { Me, SignInBody } from './auth.js';
 import { HealthReply, LivenessReply } from './health.js';
 import { PatientDetail, PatientListQuery, PatientListReply, patientRoutes } from './patients.js';
@@ -88,6 +89,7 @@ export const apiRoutes: RouteContract[] = [
   ...seatingRoutes,
   ...placementRoutes,
   ...auditRoutes,
+  ...importRoutes,
 ];
 
 export type { RouteContract };

@@ -127,6 +127,7 @@ export class SitesService {
       radiographs,
       measurements,
       seatingChecks,
+      freeTextParts,
     ] = await Promise.all([
       canRead('Placement') ? timeline.placementsOfSite(this.db, site.id) : none,
       canRead('Restoration') ? timeline.restorationsOfSite(this.db, site.id) : none,
@@ -137,10 +138,27 @@ export class SitesService {
       readRadiographs ? timeline.radiographsOfSite(this.db, site.id) : none,
       readRadiographs ? timeline.measurementsOfSite(this.db, site.id) : none,
       readRadiographs && canRead('Restoration') ? timeline.seatingChecksOfSite(this.db, site.id) : none,
+      canRead('ComponentInstance') ? timeline.freeTextPartsOfSite(this.db, site.id) : none,
     ]);
+    const ids = [placements, restorations, parts, torque, recallExams, freeTextParts].flatMap((rows) =>
+      rows.map((r: { id: string }) => r.id),
+    );
+    const importMarks = await timeline.importMarksOf(this.db, ids);
     return buildTimeline(
       site.id,
-      { placements, restorations, parts, torque, complications, recallExams, radiographs, measurements, seatingChecks },
+      {
+        placements,
+        restorations,
+        parts,
+        torque,
+        complications,
+        recallExams,
+        radiographs,
+        measurements,
+        seatingChecks,
+        freeTextParts,
+        importMarks,
+      },
       kinds,
     );
   }

@@ -8,6 +8,9 @@ import {
   components,
   implantSites,
   implantSystems,
+  importEntries,
+  importedFreeTextParts,
+  legacyImports,
   labPrescriptions,
   placements,
   platforms,
@@ -263,4 +266,28 @@ export async function seatingChecksOfSite(db: Db, siteId: string) {
           .where(eq(restorationSites.siteId, siteId)),
       ),
     );
+}
+
+/** Parts a legacy import kept as free text (not in the catalogue). */
+export async function freeTextPartsOfSite(db: Db, siteId: string) {
+  return db
+    .select({
+      id: importedFreeTextParts.id,
+      partRef: importedFreeTextParts.partRef,
+      partName: importedFreeTextParts.partName,
+      lot: importedFreeTextParts.lot,
+      installedOn: importedFreeTextParts.installedOn,
+    })
+    .from(importedFreeTextParts)
+    .where(eq(importedFreeTextParts.siteId, siteId));
+}
+
+/** The import marks of the given records: the file and row each was imported from. */
+export async function importMarksOf(db: Db, recordIds: string[]) {
+  if (recordIds.length === 0) return [];
+  return db
+    .select({ recordId: importEntries.recordId, rowNumber: importEntries.rowNumber, fileName: legacyImports.fileName })
+    .from(importEntries)
+    .innerJoin(legacyImports, eq(legacyImports.id, importEntries.importId))
+    .where(inArray(importEntries.recordId, recordIds));
 }

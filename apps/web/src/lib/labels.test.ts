@@ -33,6 +33,9 @@ const LABELS: Record<string, LabelMap> = {
   AUDIT_ACTIONS: general.AUDIT_ACTION_LABEL,
   AUDIT_OUTCOMES: general.AUDIT_OUTCOME_LABEL,
   RADIOGRAPH_PREVIEW_STATUSES: general.RADIOGRAPH_PREVIEW_STATUS_LABEL,
+  IMPORT_EVENTS: general.IMPORT_EVENT_LABEL,
+  IMPORT_ISSUE_LEVELS: general.IMPORT_ISSUE_LEVEL_LABEL,
+  IMPORT_PHASES: general.IMPORT_PHASE_LABEL,
   CONNECTIONS: clinical.CONNECTION_LABEL,
   LOADING_PROTOCOLS: clinical.LOADING_PROTOCOL_LABEL,
   COMPONENT_KINDS: clinical.COMPONENT_KIND_LABEL,
@@ -69,6 +72,11 @@ const NOT_SHOWN: Record<string, string> = {
   RECALL_STATUSES: 'the Recall desk shows the next scheduled date, never a recall status',
   RESTORATIVE_DESIGNS: "worded inside Finding messages by the domain's RESTORATIVE_DESIGN_LABELS",
   SYMBOLOGY_IDENTIFIERS: 'barcode prefixes read by the UDI parser, never displayed',
+  IMPORT_REQUIRED_COLUMNS: 'column names of the import file, shown as the file writes them (docs/import.md)',
+  IMPORT_OPTIONAL_COLUMNS: 'column names of the import file, shown as the file writes them (docs/import.md)',
+  IMPORT_COLUMNS: 'column names of the import file, shown as the file writes them (docs/import.md)',
+  IMPORT_DEPTH_COLUMNS: 'column names of the import file, shown as the file writes them (docs/import.md)',
+  IMPORT_SITE_CODES: 'probing-site codes of the import file, shown as the file writes them (docs/import.md)',
 };
 
 const packages = { authz, contracts, domain } as Record<string, Record<string, unknown>>;

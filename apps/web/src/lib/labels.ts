@@ -8,6 +8,9 @@ import {
   DESK_DUE_SOON_DAYS,
   type DeskFilter,
   type DeskSort,
+  type ImportEvent,
+  type ImportIssueLevel,
+  type ImportProgress,
   type InvitationStatus,
   type MaintenanceStatus,
   type PatientSex,
@@ -71,6 +74,7 @@ export const TIMELINE_KIND_LABEL: Record<TimelineKind, string> = {
   radiograph: 'Radiograph',
   'bone-level': 'Bone level',
   'seating-check': 'Seating check',
+  'imported-part': 'Imported part',
 };
 
 export const DESK_FILTER_LABEL: Record<DeskFilter, string> = {
@@ -204,4 +208,25 @@ export const AUDIT_OUTCOME_LABEL: Record<AuditOutcome, string> = {
   allowed: 'Done',
   refused: 'Refused',
   failed: 'Failed',
+};
+
+export const IMPORT_EVENT_LABEL: Record<ImportEvent, string> = {
+  placement: 'Placements',
+  delivery: 'Deliveries',
+  part: 'Parts installed',
+  torque: 'Torque entries',
+  exam: 'Recall exams',
+};
+
+export const IMPORT_ISSUE_LEVEL_LABEL: Record<ImportIssueLevel, string> = {
+  error: 'Error',
+  warning: 'Warning',
+};
+
+export const IMPORT_PHASE_LABEL: Record<ImportProgress['phase'], string> = {
+  reading: 'Reading the file',
+  checking: 'Checking rows',
+  writing: 'Writing records',
+  done: 'Done',
+  failed: 'Stopped',
 };

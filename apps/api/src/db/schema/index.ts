@@ -10,3 +10,4 @@ export * from './radiographs.js';
 export * from './audit.js';
 export * from './seating.js';
 export * from './people.js';
+export * from './imports.js';

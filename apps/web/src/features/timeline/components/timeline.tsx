@@ -28,6 +28,7 @@ const KIND_ICON: Record<TimelineKind, IconName> = {
   radiograph: 'media',
   'bone-level': 'timeline-line-chart',
   'seating-check': 'tick-circle',
+  'imported-part': 'cube-add',
 };
 
 /** A radiograph entry's thumbnail, or the link to the radiograph an entry was read from. */
@@ -78,6 +79,11 @@ function EventRow({ event, siteId, patientId }: { event: TimelineEvent; siteId: 
           <Tag minimal intent="danger" icon="disable" className="timeline__amended">
             {event.kind === 'radiograph' ? 'entered in error' : 'radiograph entered in error'}:{' '}
             {event.enteredInErrorReason}
+          </Tag>
+        )}
+        {event.importedFrom && (
+          <Tag minimal intent="primary" icon="import" className="timeline__amended" data-testid="timeline-imported">
+            imported from {event.importedFrom}
           </Tag>
         )}
         {event.detail && <span className="timeline__detail">{event.detail}</span>}
