@@ -59,6 +59,14 @@ interface ExamState {
   sites: ProbedSite[];
 }
 
+/** A patient as the file names it: known, or new and created with its first good row. */
+interface FilePatient {
+  patientId: string;
+  identity: string;
+  row: number;
+  create: ImportRow | null;
+}
+
 class RowError extends Error {
   constructor(
     readonly column: string | null,
@@ -102,7 +110,7 @@ export class ImportPlanner {
 
   private readonly byChart = new Map<string, Loaded<'practicePatients'>[number]>();
   private readonly byIdentity = new Map<string, Loaded<'practicePatients'>[number]>();
-  private readonly fileChart = new Map<string, { patientId: string; identity: string; row: number }>();
+  private readonly fileChart = new Map<string, FilePatient>();
   private readonly matchedOnce = new Set<string>();
   private readonly platforms = new Map<string, string>();
   private readonly parts = new Map<string, Part>();
@@ -161,8 +169,9 @@ export class ImportPlanner {
     try {
       if (row.date > this.ctx.latestToday) throw new RowError('date', 'The date is in the future');
       if (row.date < row.birthDate) throw new RowError('date', 'The date is before the patient was born');
-      const patientId = this.patient(rowNumber, row);
-      this.event(rowNumber, row, patientId);
+      const patient = this.patient(rowNumber, row);
+      this.event(rowNumber, row, patient.patientId);
+      this.createPatient(rowNumber, patient);
       this.counts[row.event]++;
     } catch (e) {
       if (!(e instanceof RowError)) throw e;
@@ -170,7 +179,7 @@ export class ImportPlanner {
     }
   }
 
-  private patient(rowNumber: number, row: ImportRow): string {
+  private patient(rowNumber: number, row: ImportRow): FilePatient {
     const identity = key(row.familyName, row.givenName, row.birthDate);
     const chart = key(row.chartNumber);
     const seen = this.fileChart.get(chart);
@@ -180,70 +189,74 @@ export class ImportPlanner {
           'chart_number',
           `Chart number ${row.chartNumber} has another name or birth date on row ${seen.row}`,
         );
-      return seen.patientId;
+      return seen;
     }
     const existing = this.byChart.get(chart);
-    let patientId: string;
+    let found: FilePatient;
     if (existing) {
       if (key(existing.familyName, existing.givenName, existing.birthDate) !== identity)
         throw new RowError(
           'chart_number',
           `Chart number ${row.chartNumber} belongs to a patient with another name or birth date in Torquetrail`,
         );
-      patientId = existing.id;
+      found = { patientId: existing.id, identity, row: rowNumber, create: null };
       this.matched(
         rowNumber,
-        patientId,
+        existing.id,
         `Matches the existing patient with chart number ${existing.chartNumber}: the rows are added to their record`,
       );
     } else {
       const sameIdentity = this.byIdentity.get(identity);
       if (sameIdentity) {
-        patientId = sameIdentity.id;
+        found = { patientId: sameIdentity.id, identity, row: rowNumber, create: null };
         this.matched(
           rowNumber,
-          patientId,
+          sameIdentity.id,
           `Same name and birth date as the existing patient with chart number ${sameIdentity.chartNumber}: the rows are added to that record`,
         );
       } else {
-        patientId = randomUUID();
-        this.counts.patientsNew++;
-        const values = {
-          id: patientId,
-          practiceId: this.ctx.practiceId,
-          chartNumber: row.chartNumber,
-          givenName: row.givenName,
-          familyName: row.familyName,
-          birthDate: row.birthDate,
-        };
-        this.writes.patients.push(values);
-        this.writes.patientVersions.push({
-          practiceId: this.ctx.practiceId,
-          patientId,
-          version: 1,
-          kind: 'created',
-          changes: Object.entries(values)
-            .filter(([field]) => field !== 'id' && field !== 'practiceId')
-            .map(([field, after]) => ({ field, before: null, after })),
-          reason: 'Legacy import',
-          changedBy: this.ctx.userId,
-        });
-        this.writes.entries.push({
-          practiceId: this.ctx.practiceId,
-          rowNumber,
-          recordTable: 'patients',
-          recordId: patientId,
-        });
+        // Written with the patient's first row that checks, so a patient of only bad rows is not counted.
+        found = { patientId: randomUUID(), identity, row: rowNumber, create: row };
       }
     }
-    this.fileChart.set(chart, { patientId, identity, row: rowNumber });
+    this.fileChart.set(chart, found);
     if (this.touched.size < 50)
-      this.touched.set(patientId, {
-        id: patientId,
+      this.touched.set(found.patientId, {
+        id: found.patientId,
         chartNumber: row.chartNumber,
         name: `${row.familyName}, ${row.givenName}`,
       });
-    return patientId;
+    return found;
+  }
+
+  private createPatient(rowNumber: number, patient: FilePatient) {
+    const row = patient.create;
+    if (!row) return;
+    patient.create = null;
+    this.counts.patientsNew++;
+    const values = {
+      id: patient.patientId,
+      practiceId: this.ctx.practiceId,
+      chartNumber: row.chartNumber,
+      givenName: row.givenName,
+      familyName: row.familyName,
+      birthDate: row.birthDate,
+    };
+    this.writes.patients.push(values);
+    this.writes.patientVersions.push({
+      practiceId: this.ctx.practiceId,
+      patientId: patient.patientId,
+      version: 1,
+      kind: 'created',
+      changes: (['chartNumber', 'givenName', 'familyName', 'birthDate'] as const).map((field) => ({
+        field,
+        before: null,
+        after: values[field],
+      })),
+      reason: 'Legacy import',
+      changedBy: this.ctx.userId,
+    });
+    this.entry(rowNumber, 'patients', patient.patientId);
   }
 
   private matched(rowNumber: number, patientId: string, message: string) {

@@ -1,4 +1,15 @@
-import { Controller, Get, HttpCode, HttpStatus, Param, ParseUUIDPipe, Post, Query, Req } from '@nestjs/common';
+import {
+  Controller,
+  Get,
+  HttpCode,
+  HttpStatus,
+  Param,
+  ParseUUIDPipe,
+  Post,
+  Query,
+  Req,
+  UnsupportedMediaTypeException,
+} from '@nestjs/common';
 import type { Request } from 'express';
 import type { AppAbility } from '@torquetrail/authz';
 import { ImportQuery, type ImportProgress, type ImportReport, type ImportResult } from '@torquetrail/contracts';
@@ -10,7 +21,10 @@ import { CurrentAbility, CurrentUser } from '../common/current-user.decorator.js
 import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
 import { ImportsService } from './imports.service.js';
 
+/** The declared length of the file, after refusing any body that is not the file itself. */
 const declared = (req: Request) => {
+  if (!/^application\/octet-stream\s*(;|$)/i.test(req.get('content-type') ?? ''))
+    throw new UnsupportedMediaTypeException('Send the CSV file itself as application/octet-stream');
   const length = req.get('content-length');
   return length ? Number(length) : undefined;
 };
@@ -20,10 +34,10 @@ const declared = (req: Request) => {
 export class ImportsController {
   constructor(private readonly imports: ImportsService) {}
 
-  /** Reads patient data from the file without writing any: audited as a read of the import. */
+  /** Reads patient data from the file without writing any: audited as a read, naming no record. */
   @Post('dry-run')
   @HttpCode(200)
-  @Audit('read', 'LegacyImport')
+  @Audit('read', 'ImportDryRun')
   @Allow('create', 'LegacyImport')
   dryRun(
     @CurrentUser() user: SessionUser,

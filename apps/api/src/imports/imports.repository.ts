@@ -81,7 +81,7 @@ export async function liveSites(db: Db, practiceId: string) {
       status: implantSites.status,
       deliveredOn: sql<
         string | null
-      >`(select max(r.delivered_on)::text from restoration_sites rs join restorations r on r.id = rs.restoration_id where rs.site_id = ${implantSites.id})`,
+      >`(select max(r.delivered_on)::text from restoration_sites rs join restorations r on r.id = rs.restoration_id where rs.site_id = implant_sites.id)`,
     })
     .from(implantSites)
     .where(and(eq(implantSites.practiceId, practiceId), notInArray(implantSites.status, ['failed', 'removed'])));
@@ -134,19 +134,19 @@ export async function examsOfSites(db: Db, siteIds: string[]) {
   return exams.map((e) => ({ ...e, sites: probes.filter((p) => p.examId === e.id) }));
 }
 
-export type NewPatient = typeof patients.$inferInsert & { id: string };
-export type NewPatientVersion = typeof patientVersions.$inferInsert;
+type NewPatient = typeof patients.$inferInsert & { id: string };
+type NewPatientVersion = typeof patientVersions.$inferInsert;
 export type NewSite = typeof implantSites.$inferInsert & { id: string };
-export type NewPlacement = typeof placements.$inferInsert & { id: string };
-export type NewRestoration = typeof restorations.$inferInsert & { id: string };
-export type NewRestorationSite = typeof restorationSites.$inferInsert;
-export type NewInstance = typeof componentInstances.$inferInsert & { id: string };
-export type NewTorque = typeof torqueEvents.$inferInsert & { id: string };
-export type NewExam = typeof recallExams.$inferInsert & { id: string };
-export type NewExamSite = typeof recallExamSites.$inferInsert;
-export type NewFreeTextPart = typeof importedFreeTextParts.$inferInsert & { id: string };
-export type NewImportEntry = Omit<typeof importEntries.$inferInsert, 'importId'>;
-export type SiteStatusChange = { id: string; status: 'placed' | 'restored' };
+type NewPlacement = typeof placements.$inferInsert & { id: string };
+type NewRestoration = typeof restorations.$inferInsert & { id: string };
+type NewRestorationSite = typeof restorationSites.$inferInsert;
+type NewInstance = typeof componentInstances.$inferInsert & { id: string };
+type NewTorque = typeof torqueEvents.$inferInsert & { id: string };
+type NewExam = typeof recallExams.$inferInsert & { id: string };
+type NewExamSite = typeof recallExamSites.$inferInsert;
+type NewFreeTextPart = typeof importedFreeTextParts.$inferInsert & { id: string };
+type NewImportEntry = Omit<typeof importEntries.$inferInsert, 'importId'>;
+type SiteStatusChange = { id: string; status: 'placed' | 'restored' };
 
 /** Everything a checked file writes, in the order the foreign keys need. */
 export interface ImportWrites {
