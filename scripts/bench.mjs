@@ -8,6 +8,7 @@ const benches = [
   'scripts/bench-recall-desk.mjs',
   'scripts/bench-audit-reads.mjs',
   'scripts/bench-radiograph-upload.mjs',
+  'scripts/bench-import.mjs',
 ];
 for (const bench of benches) {
   console.log(`\n== ${bench}`);

@@ -19,6 +19,7 @@ import {
   type ImportReport,
   type ImportResult,
 } from '@torquetrail/contracts';
+import { setImmediate } from 'node:timers/promises';
 import { RULES_VERSION } from '@torquetrail/domain';
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
@@ -210,7 +211,11 @@ export class ImportsService {
         const read = readRow(cells, delimiter === ';');
         if ('row' in read) planner.add(record.row, read.row);
         else planner.issues.push(...asIssues(record.row, 'error', read.problems));
-        if (++progress.rowsRead % 500 === 0) this.progress.touch(progress);
+        if (++progress.rowsRead % 500 === 0) {
+          this.progress.touch(progress);
+          // Let other requests in (the page's progress polls) between batches of rows.
+          await setImmediate();
+        }
       }
     } catch (e) {
       if (e instanceof BadRequestException) throw e;
