@@ -119,9 +119,9 @@ console.log(
 async function timed(label, url) {
   const runId = randomUUID();
   const seen = [];
-  let done = false;
+  const state = { done: false };
   const poll = (async () => {
-    while (!done) {
+    while (!state.done) {
       await new Promise((r) => setTimeout(r, 500));
       const p = await request('GET', `/api/imports/progress/${runId}`, { cookie });
       if (p.status === 200) seen.push(JSON.parse(p.text));
@@ -134,7 +134,7 @@ async function timed(label, url) {
     cookie,
   });
   const ms = Date.now() - start;
-  done = true;
+  state.done = true;
   await poll;
   const last = seen.at(-1);
   console.log(
