@@ -233,7 +233,9 @@ export const ImportProgress = z.object({
   runId: Id,
   phase: z.enum(IMPORT_PHASES),
   rowsRead: z.number().int(),
+  /** Records written so far, of `recordsToWrite` (known once the checks are done). */
   rowsWritten: z.number().int(),
+  recordsToWrite: z.number().int().nullable(),
   totalRows: z.number().int().nullable(),
 });
 export type ImportProgress = z.infer<typeof ImportProgress>;

@@ -21,7 +21,14 @@ export class ImportProgressStore {
 
   start(runId: string, userId: string): ImportProgress {
     this.sweep();
-    const progress: ImportProgress = { runId, phase: 'reading', rowsRead: 0, rowsWritten: 0, totalRows: null };
+    const progress: ImportProgress = {
+      runId,
+      phase: 'reading',
+      rowsRead: 0,
+      rowsWritten: 0,
+      recordsToWrite: null,
+      totalRows: null,
+    };
     this.runs.set(runId, { userId, progress, touchedAt: Date.now() });
     return progress;
   }

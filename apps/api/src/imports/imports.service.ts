@@ -111,6 +111,9 @@ export class ImportsService {
           );
         const { planner } = checked;
         progress.phase = 'writing';
+        progress.recordsToWrite = Object.entries(planner.writes)
+          .filter(([table]) => table !== 'siteStatus')
+          .reduce((n, [, list]) => n + list.length, 0);
         const row = await repo.insertImport(tx, {
           practiceId: user.practiceId,
           sha256,

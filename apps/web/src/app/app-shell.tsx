@@ -62,6 +62,16 @@ export function AppShell({ me, onSignOut, signingOut, signOutError }: AppShellPr
               >
                 Catalogue
               </NavLink>
+              <Can I="create" a="LegacyImport">
+                <NavLink
+                  to="/import-records"
+                  className={({ isActive }) =>
+                    `${Classes.BUTTON} ${Classes.MINIMAL}${isActive ? ` ${Classes.ACTIVE}` : ''}`
+                  }
+                >
+                  Import
+                </NavLink>
+              </Can>
               <Can I="read" a="User">
                 <NavLink
                   to="/practice"

@@ -124,6 +124,10 @@ export const router = createBrowserRouter([
             lazy: async () => ({ Component: (await import('../features/auth/routes/account-route')).AccountRoute }),
           },
           {
+            path: 'import-records',
+            lazy: async () => ({ Component: (await import('../features/imports/routes/import-route')).ImportRoute }),
+          },
+          {
             path: 'practice',
             lazy: async () => ({ Component: (await import('../features/people/routes/practice-route')).PracticeRoute }),
             children: [
