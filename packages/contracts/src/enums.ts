@@ -287,7 +287,10 @@ export type InvitationStatus = z.infer<typeof InvitationStatus>;
 export const IMPORT_EVENTS = ['placement', 'delivery', 'part', 'torque', 'exam'] as const;
 export const ImportEvent = z.enum(IMPORT_EVENTS);
 export type ImportEvent = z.infer<typeof ImportEvent>;
-/** An error stops the import; a warning is shown and does not. */
-export const IMPORT_ISSUE_LEVELS = ['error', 'warning'] as const;
+/**
+ * An error stops the import; a warning is shown and does not: the same two severities, with the
+ * same meaning, as a plan's Findings.
+ */
+export const IMPORT_ISSUE_LEVELS = FINDING_SEVERITIES;
 export const ImportIssueLevel = z.enum(IMPORT_ISSUE_LEVELS);
 export type ImportIssueLevel = z.infer<typeof ImportIssueLevel>;

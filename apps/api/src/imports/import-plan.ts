@@ -341,6 +341,8 @@ export class ImportPlanner {
           deliveredOn: row.date,
           plannedBy: this.ctx.userId,
           rulesVersion: RULES_VERSION,
+          // The file has no planning date: the plan's Timeline entry sits on the delivery day.
+          createdAt: new Date(`${row.date}T00:00:00.000Z`),
           notes: row.notes,
         });
         this.writes.restorationSites.push({
