@@ -12,9 +12,12 @@ const args = process.argv.slice(2).filter((a) => a !== '--all');
 const benches = [
   { script: 'scripts/bench-site-file.mjs', args },
   ...(all
-    ? ['scripts/bench-recall-desk.mjs', 'scripts/bench-audit-reads.mjs', 'scripts/bench-radiograph-upload.mjs'].map(
-        (script) => ({ script, args: [] }),
-      )
+    ? [
+        'scripts/bench-recall-desk.mjs',
+        'scripts/bench-audit-reads.mjs',
+        'scripts/bench-radiograph-upload.mjs',
+        'scripts/bench-import.mjs',
+      ].map((script) => ({ script, args: [] }))
     : []),
 ];
 for (const bench of benches) {

@@ -30,6 +30,7 @@ import { OutcomesModule } from './outcomes/outcomes.module.js';
 import { SharesModule } from './shares/shares.module.js';
 import { FieldRulesInterceptor } from './authz/field-rules.interceptor.js';
 import { RecordsOutModule } from './records-out/records-out.module.js';
+import { ImportsModule } from './imports/imports.module.js';
 
 @Module({})
 export class AppModule {
@@ -60,6 +61,7 @@ export class AppModule {
         PeopleModule,
         SharesModule,
         RecordsOutModule,
+        ImportsModule,
         ...(env.NODE_ENV === 'production' ? [] : [OpenApiModule]),
       ],
       providers: [

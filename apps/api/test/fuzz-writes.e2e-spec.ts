@@ -3,6 +3,7 @@
 // number texts (1e999 …) and wrong shapes injected into one field, plus broken JSON. Each
 // endpoint gets a few hundred cases within a time budget. No reply may be a 5xx, and a refused
 // request may leave no row behind: the row count of every table is compared before and after.
+import { randomUUID } from 'node:crypto';
 import { apiRoutes, plainWordingProblems } from '@torquetrail/contracts';
 import { sql } from 'drizzle-orm';
 import fc from 'fast-check';
@@ -160,6 +161,9 @@ const TARGETS: Record<string, { as: AccountKey | null; path: string }> = {
   'POST /account/password-reset': { as: null, path: '/api/account/password-reset' },
   'POST /account/password-reset/look-up': { as: null, path: '/api/account/password-reset/look-up' },
   'POST /account/password-reset/complete': { as: null, path: '/api/account/password-reset/complete' },
+  // The import's body is the file: a JSON body is refused (415), with or without a valid query.
+  'POST /imports/dry-run': { as: 'practice_admin', path: `/api/imports/dry-run?fileName=f.csv&runId=${randomUUID()}` },
+  'POST /imports': { as: 'practice_admin', path: '/api/imports' },
   'POST /patients/:id/sites': { as: 'dentist', path: `/api/patients/${t.ids.lucia}/sites` },
   'POST /patients': { as: 'dentist', path: '/api/patients' },
   'PATCH /patients/:id': { as: 'dentist', path: `/api/patients/${await freshPatient()}` },

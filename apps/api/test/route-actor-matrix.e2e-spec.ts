@@ -5,6 +5,7 @@
 // live in ONE table keyed by "METHOD /path"; a served route without a row fails, so a new route
 // cannot be forgotten. Targets are Larkspur records shared with the surgeon unless a row says
 // otherwise; routes that change data get a fresh target per call, so the order does not matter.
+import { randomUUID } from 'node:crypto';
 import { apiRoutes } from '@torquetrail/contracts';
 import { eq } from 'drizzle-orm';
 import { afterAll, describe, expect, it } from 'vitest';
@@ -162,6 +163,16 @@ const freshShare = async () => {
 /** A well-formed link token nobody was sent. */
 const unknownToken = 'Zq'.repeat(21) + 'Q';
 let uploadGrey = 100;
+let importFiles = 0;
+/** A legacy import file of its own per call: the required columns and a numbered unknown one. */
+const importFile = () =>
+  Buffer.from(`event,chart_number,family_name,given_name,birth_date,fdi,date,matrix_${(importFiles += 1)}\r\n`);
+const dentistRun = randomUUID();
+await ctx.http
+  .post(`/api/imports/dry-run?fileName=progress.csv&runId=${dentistRun}`)
+  .set('Cookie', cookies.dentist)
+  .set('Content-Type', 'application/octet-stream')
+  .send(importFile());
 
 // ---- the expectations -----------------------------------------------------------------------
 /** `status` for every signed-in actor and 401 without a session, with exceptions. */
@@ -188,6 +199,8 @@ const [haroldShare] = await ctx.db
 const referralRead = every(200, { hygienist: 403, surgeonNoShare: 403, otherPracticeDentist: 404 });
 /** The lot look-up: the dentist and the admin, each over their own practice only. */
 const lotLookup = every(403, { dentist: 200, practice_admin: 200, otherPracticeDentist: 200 });
+/** The legacy import: the dentist and the practice admin, each in their own practice. */
+const importers = (ok: number) => every(403, { dentist: ok, practice_admin: ok, otherPracticeDentist: ok });
 const one = (c: Omit<Case, 'target'>, target = 'shared Larkspur record'): Case[] => [{ target, ...c }];
 
 const TABLE: Record<string, Case[]> = {
@@ -551,6 +564,33 @@ const TABLE: Record<string, Case[]> = {
   ),
   'GET /api/recalls/reminders': one({ path: () => '/api/recalls/reminders', expect: adminOnly(200) }, 'own practice'),
   // The audit trail (issue 11): the practice's whole trail is the admin's; one patient's is also the dentist's.
+  // Legacy import (docs/import.md): the dentist and the admin of a practice, each into their own
+  // practice. Each call sends a file of its own (an extra column makes its hash new): no rows, so it
+  // writes only its import record, in the audit row's transaction.
+  'POST /api/imports/dry-run': one(
+    {
+      path: () => `/api/imports/dry-run?fileName=matrix.csv&runId=${randomUUID()}`,
+      raw: async () => ({ type: 'application/octet-stream', data: importFile() }),
+      expect: importers(200),
+    },
+    'own practice',
+  ),
+  'POST /api/imports': one(
+    {
+      path: () => `/api/imports?fileName=matrix.csv&runId=${randomUUID()}`,
+      raw: async () => ({ type: 'application/octet-stream', data: importFile() }),
+      expect: importers(201),
+    },
+    'own practice',
+  ),
+  // Progress is the starter's own: the dentist's run, unknown (404) to everyone else.
+  'GET /api/imports/progress/:runId': one(
+    {
+      path: () => `/api/imports/progress/${dentistRun}`,
+      expect: every(403, { dentist: 200, practice_admin: 404, otherPracticeDentist: 404 }),
+    },
+    'own practice',
+  ),
   'GET /api/audit': one({ path: () => `/api/audit?patientId=${ids.harold}`, expect: adminOnly(200) }, 'own practice'),
   'GET /api/audit/csv': one({ path: () => '/api/audit/csv?action=read', expect: adminOnly(200) }, 'own practice'),
   'GET /api/patients/:id/audit': one({

@@ -211,3 +211,14 @@ describe('a share with a scope and chosen sites (issue 12)', () => {
     );
   });
 });
+
+describe('legacy import (docs/import.md)', () => {
+  it('is run by the practice administrator and the dentist of the practice only', () => {
+    for (const role of ['practice_admin', 'dentist'] as const) {
+      expect(user(role).can('create', row('LegacyImport', { practiceId: PRACTICE }))).toBe(true);
+      expect(user(role).can('create', row('LegacyImport', { practiceId: OTHER }))).toBe(false);
+    }
+    for (const role of ['hygienist', 'surgeon'] as const)
+      expect(user(role).can('create', row('LegacyImport', { practiceId: PRACTICE }))).toBe(false);
+  });
+});

@@ -60,6 +60,8 @@ export type Subject =
   | 'PatientExport'
   /** One patient's implant passport and retrieval card (print, e-mail to the patient): the dentist's. */
   | 'ImplantPassport'
+  /** A legacy CSV import of the practice (its dry run, progress and writing). */
+  | 'LegacyImport'
   | 'all';
 
 /** A loaded row checked with `subject(type, row)`; only these fields take part in conditions. */
@@ -152,6 +154,7 @@ export function defineAbilityFor(user: AbilityUser): AppAbility {
       can(['read', 'create'], 'ReferralSummary', own);
       can('read', 'PatientExport', own);
       can(['read', 'create'], 'ImplantPassport', own);
+      can(['read', 'create'], 'LegacyImport', own);
       break;
     case 'hygienist':
       can('read', 'Practice', { id: user.practiceId });
@@ -180,9 +183,10 @@ export function defineAbilityFor(user: AbilityUser): AppAbility {
       can('read', 'PatientVersion', own);
       can('read', PATIENT_RECORD, own);
       can(['read', 'create', 'update'], ['Catalogue', 'Wrench', 'RecallPolicy'], own);
-      can('read', ['AuditEntry', 'PatientAudit', 'Share', 'LotTrace', 'Outcomes'], own);
+      // A practice bringing its history in: the administrator runs it (docs/import.md).
+      can(['read', 'create'], 'LegacyImport', own);
+      can('read', ['AuditEntry', 'PatientAudit', 'Share', 'LotTrace', 'Outcomes', 'PatientExport'], own);
       can(['read', 'create'], 'ReferralSummary', own);
-      can('read', ['AuditEntry', 'PatientAudit', 'Share', 'PatientExport'], own);
       break;
   }
   return build();

@@ -217,6 +217,8 @@ export const TIMELINE_KINDS = [
   'referral-summary',
   // The patient's implant passport e-mailed to them (a patient-wide entry, shown on each site).
   'passport-mail',
+  // A part brought in by a legacy import that is not in the catalogue, kept as its free text.
+  'imported-part',
 ] as const;
 export const TimelineKind = z.enum(TIMELINE_KINDS);
 export type TimelineKind = z.infer<typeof TimelineKind>;
@@ -318,3 +320,15 @@ export type OutcomeGrouping = z.infer<typeof OutcomeGrouping>;
 export const IMPLANT_OUTCOMES = ['in-function', 'failed', 'removed'] as const;
 export const ImplantOutcome = z.enum(IMPLANT_OUTCOMES);
 export type ImplantOutcome = z.infer<typeof ImplantOutcome>;
+// ---- legacy import -------------------------------------------------------------------------------
+/** What one row of a legacy import file records (docs/import.md). */
+export const IMPORT_EVENTS = ['placement', 'delivery', 'part', 'torque', 'exam'] as const;
+export const ImportEvent = z.enum(IMPORT_EVENTS);
+export type ImportEvent = z.infer<typeof ImportEvent>;
+/**
+ * An error stops the import; a warning is shown and does not: the same two severities, with the
+ * same meaning, as a plan's Findings.
+ */
+export const IMPORT_ISSUE_LEVELS = FINDING_SEVERITIES;
+export const ImportIssueLevel = z.enum(IMPORT_ISSUE_LEVELS);
+export type ImportIssueLevel = z.infer<typeof ImportIssueLevel>;

@@ -22,3 +22,5 @@ export * from './people.js';
 export * from './outcomes.js';
 export * from './shares.js';
 export * from './records-out.js';
+export * from './csv.js';
+export * from './imports.js';

@@ -103,6 +103,8 @@ export const TimelineEvent = z.object({
   radiographId: Id.nullable(),
   /** A radiograph marked entered in error stays in the Timeline, marked, with the reason. */
   enteredInErrorReason: z.string().nullable(),
+  /** An entry brought in by a legacy import: "FILE, row N" (docs/import.md); null otherwise. */
+  importedFrom: z.string().nullable(),
 });
 export type TimelineEvent = z.infer<typeof TimelineEvent>;
 

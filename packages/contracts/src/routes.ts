@@ -9,6 +9,7 @@ import { peopleRoutes } from './people.js';
 import { outcomeRoutes } from './outcomes.js';
 import { shareRoutes } from './shares.js';
 import { recordsOutRoutes } from './records-out.js';
+import { importRoutes } from './imports.js';
 import { Me, SignInBody } from './auth.js';
 import { HealthReply, LivenessReply } from './health.js';
 import { PatientDetail, PatientListQuery, PatientListReply, patientRoutes } from './patients.js';
@@ -94,6 +95,7 @@ export const apiRoutes: RouteContract[] = [
   ...placementRoutes,
   ...auditRoutes,
   ...recordsOutRoutes,
+  ...importRoutes,
 ];
 
 export type { RouteContract };

@@ -9,7 +9,7 @@ import type {
   PracticeAuditPage,
 } from '@torquetrail/contracts';
 import { assertCan, type Scope } from '../authz/scope.js';
-import { csvLine } from '../common/csv.js';
+import { csvLine } from '@torquetrail/contracts';
 import { DB, type Database } from '../db/database.js';
 import {
   type AuditEventRow,

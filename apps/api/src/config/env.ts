@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { IMPORT_DEFAULT_MAX_BYTES } from '@torquetrail/contracts';
 
 /**
  * The API's configuration, parsed from the environment once at start. The defaults point at
@@ -73,6 +74,8 @@ const EnvSchema = z.object({
         .map((o) => o.trim())
         .filter(Boolean),
     ),
+  /** Largest legacy import file accepted, bytes (413 above it, before it is read; docs/import.md). */
+  IMPORT_MAX_BYTES: z.coerce.number().int().positive().default(IMPORT_DEFAULT_MAX_BYTES),
   /** Largest radiograph accepted, bytes (413 above it, before anything is stored). */
   RADIOGRAPH_MAX_BYTES: z.coerce
     .number()

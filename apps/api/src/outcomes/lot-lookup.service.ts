@@ -2,7 +2,7 @@ import { Inject, Injectable } from '@nestjs/common';
 import { describeUdiError, type LotLookupQuery, type LotLookupReply } from '@torquetrail/contracts';
 import { isValidGtin, parseUdi, UdiError } from '@torquetrail/domain';
 import type { Scope } from '../authz/scope.js';
-import { csvLine } from '../common/csv.js';
+import { csvLine } from '@torquetrail/contracts';
 import { fieldError } from '../common/field-error.js';
 import { DB, type Database } from '../db/database.js';
 import { type LotCriteria, lookUpLots } from './lot-lookup.repository.js';

@@ -4,7 +4,7 @@ import type { RecallDeskCsvQuery, RecallDeskQuery, RecallDeskReply, RecallDeskRo
 import type { Scope } from '../authz/scope.js';
 import { DB, type Database } from '../db/database.js';
 import { queryDesk } from './desk.repository.js';
-import { csvLine } from '../common/csv.js';
+import { csvLine } from '@torquetrail/contracts';
 import { RecallClock } from './recall-clock.js';
 
 /** Most rows one CSV export carries (a whole practice of 10 000 patients fits). */

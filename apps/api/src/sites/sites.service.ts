@@ -133,6 +133,7 @@ export class SitesService {
       seatingChecks,
       referralSummaries,
       passportMails,
+      freeTextParts,
     ] = await Promise.all([
       canRead('Placement') ? timeline.placementsOfSite(this.db, site.id) : none,
       canRead('Restoration') ? timeline.restorationsOfSite(this.db, site.id) : none,
@@ -145,7 +146,12 @@ export class SitesService {
       readRadiographs && canRead('Restoration') ? timeline.seatingChecksOfSite(this.db, site.id) : none,
       canRead('ReferralSummary') ? timeline.referralSummariesOfSite(this.db, site.id) : none,
       timeline.passportMailsOfSite(this.db, site.id),
+      canRead('ComponentInstance') ? timeline.freeTextPartsOfSite(this.db, site.id) : none,
     ]);
+    const ids = [placements, restorations, parts, torque, recallExams, freeTextParts].flatMap((rows) =>
+      rows.map((r: { id: string }) => r.id),
+    );
+    const importMarks = await timeline.importMarksOf(this.db, ids);
     return buildTimeline(
       site.id,
       {
@@ -160,6 +166,8 @@ export class SitesService {
         seatingChecks,
         referralSummaries,
         passportMails,
+        freeTextParts,
+        importMarks,
       },
       kinds,
     );

@@ -1,13 +1,16 @@
 // Everything that happened at one site, for the Timeline. Each query is pinned to the site,
 // which the caller has already checked the user may see, and prepared once (db/prepared.ts).
 import { asc, eq, inArray, sql } from 'drizzle-orm';
-import type { Database } from '../db/database.js';
+import type { Database, Db } from '../db/database.js';
 import { preparedFor } from '../db/prepared.js';
 import {
   complications,
   componentInstances,
   components,
   implantSystems,
+  importEntries,
+  importedFreeTextParts,
+  legacyImports,
   labPrescriptions,
   passportMails,
   placements,
@@ -339,3 +342,26 @@ const passportMailsQuery = preparedFor((db) =>
     .where(eq(implantSites.id, sql.placeholder('siteId')))
     .prepare('timeline_passport_mails'),
 );
+/** Parts a legacy import kept as free text (not in the catalogue). */
+export async function freeTextPartsOfSite(db: Db, siteId: string) {
+  return db
+    .select({
+      id: importedFreeTextParts.id,
+      partRef: importedFreeTextParts.partRef,
+      partName: importedFreeTextParts.partName,
+      lot: importedFreeTextParts.lot,
+      installedOn: importedFreeTextParts.installedOn,
+    })
+    .from(importedFreeTextParts)
+    .where(eq(importedFreeTextParts.siteId, siteId));
+}
+
+/** The import marks of the given records: the file and row each was imported from. */
+export async function importMarksOf(db: Db, recordIds: string[]) {
+  if (recordIds.length === 0) return [];
+  return db
+    .select({ recordId: importEntries.recordId, rowNumber: importEntries.rowNumber, fileName: legacyImports.fileName })
+    .from(importEntries)
+    .innerJoin(legacyImports, eq(legacyImports.id, importEntries.importId))
+    .where(inArray(importEntries.recordId, recordIds));
+}

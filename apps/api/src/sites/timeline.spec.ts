@@ -17,6 +17,8 @@ const empty: TimelineRows = {
   seatingChecks: [],
   referralSummaries: [],
   passportMails: [],
+  freeTextParts: [],
+  importMarks: [],
 };
 const torque = (id: string, performedAt: string, amended = false) => ({
   id,
@@ -165,5 +167,24 @@ describe('buildTimeline', () => {
       dateOnly: false,
       enteredInErrorReason: 'Another patient',
     });
+  });
+
+  it('marks the entries a legacy import wrote with their file and row, and shows free-text parts', () => {
+    const rows: TimelineRows = {
+      ...empty,
+      torque: [torque('t1', '2016-05-10T09:30:00Z'), torque('t2', '2016-06-10T09:30:00Z')],
+      freeTextParts: [{ id: 'f1', partRef: 'OLD-77', partName: 'Old abutment', lot: 'L9', installedOn: '2016-05-01' }],
+      importMarks: [
+        { recordId: 't1', fileName: 'history.csv', rowNumber: 12 },
+        { recordId: 'f1', fileName: 'history.csv', rowNumber: 11 },
+      ],
+    };
+    const events = buildTimeline('s', rows).events;
+    expect(events.map((e) => [e.id, e.importedFrom])).toEqual([
+      ['f1', 'history.csv, row 11'],
+      ['t1', 'history.csv, row 12'],
+      ['t2', null],
+    ]);
+    expect(events[0]).toMatchObject({ kind: 'imported-part', title: 'Part not in the catalogue: Old abutment' });
   });
 });

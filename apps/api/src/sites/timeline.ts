@@ -26,6 +26,9 @@ export interface TimelineRows {
   seatingChecks: Rows<'seatingChecksOfSite'>;
   referralSummaries: Rows<'referralSummariesOfSite'>;
   passportMails: Rows<'passportMailsOfSite'>;
+  freeTextParts: Rows<'freeTextPartsOfSite'>;
+  /** Which of the entries a legacy import wrote, from which file and row (docs/import.md). */
+  importMarks: Rows<'importMarksOf'>;
 }
 
 /** What a seating check found, in the words of the Timeline's titles. */
@@ -69,6 +72,7 @@ function base(
     byName: null,
     radiographId: null,
     enteredInErrorReason: null,
+    importedFrom: null,
     ...rest,
   };
 }
@@ -242,6 +246,14 @@ export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: Timeli
     );
     recorded.set(events[events.length - 1], m.requestedAt.toISOString());
   }
+  for (const f of rows.freeTextParts)
+    events.push(
+      base('imported-part', f.id, day(f.installedOn), true, `Part not in the catalogue: ${f.partName ?? f.partRef}`, {
+        detail: [f.partRef, f.lot ? `lot ${f.lot}` : null].filter(Boolean).join(', '),
+      }),
+    );
+  const marks = new Map(rows.importMarks.map((m) => [m.recordId, `${m.fileName}, row ${m.rowNumber}`]));
+  for (const e of events) e.importedFrom = marks.get(e.id) ?? null;
   const kept = kinds ? events.filter((e) => kinds.includes(e.kind)) : events;
   // Day first; within a day, the order of a sitting (date-only entries have no time of their own),
   // then the time, then when the entry was recorded.

@@ -123,6 +123,10 @@ export const AUDIT_EXPECTATIONS: Record<string, Audited | null> = {
   'GET /api/patients/:id/retrieval-card.pdf': { action: 'export', patient: true },
   'GET /api/patients/:id/passport/mails': read(),
   'POST /api/patients/:id/passport/mails': create,
+  // The dry run reads the patient data of a file, of no one patient; the import creates records of many.
+  'POST /api/imports/dry-run': read(false),
+  'POST /api/imports': { action: 'create', patient: false },
+  'GET /api/imports/progress/:runId': null,
 };
 
 /**
@@ -150,8 +154,9 @@ const RECORD_TABLES: Record<string, string> = {
   CatalogueComponent: 'components',
   Wrench: 'torque_wrenches',
   WrenchCalibration: 'wrench_calibrations',
+  LegacyImport: 'legacy_imports',
 };
-const NOT_A_ROW = new Set(['RecallPolicy', 'Practice', 'Reminder', 'User']);
+const NOT_A_ROW = new Set(['RecallPolicy', 'Practice', 'Reminder', 'User', 'ImportDryRun']);
 
 type Row = {
   action: string;

@@ -86,6 +86,16 @@ export function AppShell({ me, onSignOut, signingOut, signOutError }: AppShellPr
                   Lot look-up
                 </NavLink>
               </Can>
+              <Can I="create" a="LegacyImport">
+                <NavLink
+                  to="/import-records"
+                  className={({ isActive }) =>
+                    `${Classes.BUTTON} ${Classes.MINIMAL}${isActive ? ` ${Classes.ACTIVE}` : ''}`
+                  }
+                >
+                  Import
+                </NavLink>
+              </Can>
               {seesPractice && (
                 <NavLink
                   to="/practice"

@@ -155,6 +155,10 @@ export const router = createBrowserRouter([
             lazy: async () => ({ Component: (await import('../features/auth/routes/account-route')).AccountRoute }),
           },
           {
+            path: 'import-records',
+            lazy: async () => ({ Component: (await import('../features/imports/routes/import-route')).ImportRoute }),
+          },
+          {
             path: 'practice',
             handle: access('practice'),
             lazy: async () => ({ Component: (await import('../features/people/routes/practice-route')).PracticeRoute }),

@@ -39,6 +39,9 @@ const LABELS: Record<string, LabelMap> = {
   RADIOGRAPH_PREVIEW_STATUSES: general.RADIOGRAPH_PREVIEW_STATUS_LABEL,
   SHARE_SCOPES: general.SHARE_SCOPE_LABEL,
   SHARE_STATUSES: general.SHARE_STATUS_LABEL,
+  IMPORT_EVENTS: general.IMPORT_EVENT_LABEL,
+  IMPORT_ISSUE_LEVELS: general.IMPORT_ISSUE_LEVEL_LABEL,
+  IMPORT_PHASES: general.IMPORT_PHASE_LABEL,
   CONNECTIONS: clinical.CONNECTION_LABEL,
   LOADING_PROTOCOLS: clinical.LOADING_PROTOCOL_LABEL,
   COMPONENT_KINDS: clinical.COMPONENT_KIND_LABEL,
@@ -77,6 +80,11 @@ const NOT_SHOWN: Record<string, string> = {
   SHARED_PATIENT_FIELDS: 'the field names of the patient reply a share opens (CASL field rules), never shown',
   SHARE_NOTICE_KINDS: 'which e-mail the API sends the surgeon; worded in the e-mail, never shown in the web',
   SYMBOLOGY_IDENTIFIERS: 'barcode prefixes read by the UDI parser, never displayed',
+  IMPORT_REQUIRED_COLUMNS: 'column names of the import file, shown as the file writes them (docs/import.md)',
+  IMPORT_OPTIONAL_COLUMNS: 'column names of the import file, shown as the file writes them (docs/import.md)',
+  IMPORT_COLUMNS: 'column names of the import file, shown as the file writes them (docs/import.md)',
+  IMPORT_DEPTH_COLUMNS: 'column names of the import file, shown as the file writes them (docs/import.md)',
+  IMPORT_SITE_CODES: 'probing-site codes of the import file, shown as the file writes them (docs/import.md)',
 };
 
 const packages = { authz, contracts, domain } as Record<string, Record<string, unknown>>;

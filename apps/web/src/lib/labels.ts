@@ -8,6 +8,9 @@ import {
   DESK_DUE_SOON_DAYS,
   type DeskFilter,
   type DeskSort,
+  type ImportEvent,
+  type ImportIssueLevel,
+  type ImportProgress,
   type InvitationStatus,
   type MaintenanceStatus,
   type PatientSex,
@@ -79,6 +82,7 @@ export const TIMELINE_KIND_LABEL: Record<TimelineKind, string> = {
   'seating-check': 'Seating check',
   'referral-summary': 'Referral summary',
   'passport-mail': 'Passport e-mailed',
+  'imported-part': 'Imported part',
 };
 
 export const DESK_FILTER_LABEL: Record<DeskFilter, string> = {
@@ -260,4 +264,25 @@ export const SHARE_STATUS_LABEL: Record<ShareStatus, string> = {
   active: 'Active',
   ended: 'Ended',
   revoked: 'Revoked',
+};
+
+export const IMPORT_EVENT_LABEL: Record<ImportEvent, string> = {
+  placement: 'Placements',
+  delivery: 'Deliveries',
+  part: 'Parts installed',
+  torque: 'Torque entries',
+  exam: 'Recall exams',
+};
+
+export const IMPORT_ISSUE_LEVEL_LABEL: Record<ImportIssueLevel, string> = {
+  error: 'Error',
+  warning: 'Warning',
+};
+
+export const IMPORT_PHASE_LABEL: Record<ImportProgress['phase'], string> = {
+  reading: 'Reading the file',
+  checking: 'Checking rows',
+  writing: 'Writing records',
+  done: 'Done',
+  failed: 'Stopped',
 };

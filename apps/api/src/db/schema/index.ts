@@ -12,3 +12,4 @@ export * from './seating.js';
 export * from './people.js';
 export * from './referrals.js';
 export * from './records-out.js';
+export * from './imports.js';

@@ -146,6 +146,8 @@ export const FIELD_LABELS: Record<string, string> = {
   q: 'Look-up text',
   groupBy: 'Group by',
   shareId: 'Share',
+  runId: 'Import run',
+  mappings: 'Part mappings',
   surgeonEmail: 'Surgeon’s e-mail',
   scopes: 'What the surgeon may do',
   endsOn: 'End date',

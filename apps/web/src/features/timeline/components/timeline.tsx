@@ -30,6 +30,7 @@ const KIND_ICON: Record<TimelineKind, IconName> = {
   'seating-check': 'tick-circle',
   'referral-summary': 'envelope',
   'passport-mail': 'envelope',
+  'imported-part': 'cube-add',
 };
 
 /** A radiograph entry's thumbnail, or the link to the radiograph an entry was read from. */
@@ -80,6 +81,11 @@ function EventRow({ event, siteId, patientId }: { event: TimelineEvent; siteId: 
           <Tag minimal intent="danger" icon="disable" className="timeline__amended">
             {event.kind === 'radiograph' ? 'entered in error' : 'radiograph entered in error'}:{' '}
             {event.enteredInErrorReason}
+          </Tag>
+        )}
+        {event.importedFrom && (
+          <Tag minimal intent="primary" icon="import" className="timeline__amended" data-testid="timeline-imported">
+            imported from {event.importedFrom}
           </Tag>
         )}
         {event.detail && <span className="timeline__detail">{event.detail}</span>}

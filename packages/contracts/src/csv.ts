@@ -1,4 +1,5 @@
-// CSV for the downloads (Recall desk, audit trail): RFC 4180, safe to open in a spreadsheet.
+// CSV for every download (Recall desk, audit trail, the import report): RFC 4180, safe to open in a
+// spreadsheet. One helper for the API and the web, so no writer forgets the formula defusing.
 
 /** RFC 4180 field quoting; a leading = + - @ is prefixed with ' so spreadsheets do not run it as a formula. */
 export function csvField(value: string | number | null | undefined): string {
