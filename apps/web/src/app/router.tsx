@@ -156,6 +156,7 @@ export const router = createBrowserRouter([
           },
           {
             path: 'import-records',
+            handle: access('import-records'),
             lazy: async () => ({ Component: (await import('../features/imports/routes/import-route')).ImportRoute }),
           },
           {

@@ -28,6 +28,7 @@ export const PAGE_ACCESS = {
   catalogue: need('read', 'Catalogue'),
   outcomes: need('read', 'Outcomes'),
   'lot-lookup': need('read', 'LotTrace'),
+  'import-records': need('create', 'LegacyImport'),
   recalls: need('read', 'RecallExam'),
   'recalls/patients/:patientId/exam': need('create', 'RecallExam'),
   'recalls/policy': need('read', 'RecallPolicy'),
