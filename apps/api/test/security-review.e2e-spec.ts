@@ -549,7 +549,7 @@ describe('what the exam form context tells each role', () => {
 });
 
 describe('role rules', () => {
-  it('only the dentist writes restorations, parts and torque; only the hygienist records exams', async () => {
+  it('only the dentist writes restorations, parts and torque; only the hygienist and the dentist record exams', async () => {
     for (const who of ['hygienist', 'surgeon', 'practice_admin'] as const) {
       expect(
         (await ctx.http.post('/api/restorations').set('Cookie', cookies[who]).send(wendellPlan())).status,
@@ -573,7 +573,7 @@ describe('role rules', () => {
         .send({ deliveredOn: '2026-11-30', parts: [{ siteId: ids.wendell15, componentId: tex('PSI'), lot: 'L-1' }] });
       expect(res.status, who).toBe(403);
     }
-    for (const who of ['dentist', 'surgeon', 'practice_admin'] as const) {
+    for (const who of ['surgeon', 'practice_admin'] as const) {
       const res = await ctx.http
         .post('/api/recalls/visits')
         .set('Cookie', cookies[who])
