@@ -31,7 +31,9 @@ describe('restorative dentist', () => {
     await expect
       .poll(() => cell35.getAttribute('aria-label'))
       .toMatch(/^35, implant, peri-implant health, last exam \d{1,2} \w+ \d{4}$/);
-    expect(await page.getByTestId('arch-cell-36').getAttribute('aria-label')).toBe('36, missing tooth');
+    expect(await page.getByTestId('arch-cell-36').getAttribute('aria-label')).toBe(
+      '36, implant failed, not yet examined',
+    );
     expect(await page.getByTestId('arch-cell-11').getAttribute('aria-label')).toBe('11, natural tooth');
     await screenshot(page, 'arch-dentist');
 

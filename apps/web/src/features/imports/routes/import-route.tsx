@@ -7,6 +7,7 @@ import { BreadcrumbTrail } from '../../../lib/components/breadcrumb-trail';
 import { IMPORT_PHASE_LABEL } from '../../../lib/labels';
 import { dryRunImport, runImport, useImportProgress } from '../api/imports-api';
 import { ImportCountsTable, ImportIssues, PartMappings } from '../components/import-report';
+import { ChartNumber } from '../../../lib/components/chart-number';
 
 type Step =
   | { kind: 'idle' }
@@ -147,7 +148,7 @@ export function ImportRoute() {
               {result.patients.map((p) => (
                 <li key={p.id}>
                   <Link to={`/patients/${p.id}`}>
-                    {p.name} ({p.chartNumber})
+                    {p.name} (<ChartNumber value={p.chartNumber} />)
                   </Link>
                 </li>
               ))}

@@ -12,6 +12,7 @@ import { applyServerErrors, FormField, useContractForm, withInputRef } from '../
 import { isApiError } from '../../../lib/api-client';
 import { LOT_ITEM_KIND_LABEL, LOT_LOOKUP_KIND_HELP, LOT_LOOKUP_KIND_LABEL } from '../../../lib/labels';
 import { lotSearch, useLotLookup } from '../api/outcomes-api';
+import { ChartNumber } from '../../../lib/components/chart-number';
 
 /** /lot-lookup: which patients received an implant or part named by a field safety notice. */
 export function LotLookupRoute() {
@@ -91,7 +92,7 @@ export function LotLookupRoute() {
               {found.data.rows.map((r) => (
                 <tr key={`${r.item}:${r.siteId}:${r.installedOn}:${r.part}`}>
                   <td>
-                    <Link to={`/patients/${r.patientId}`}>{r.patientName}</Link> ({r.chartNumber})
+                    <Link to={`/patients/${r.patientId}`}>{r.patientName}</Link> (<ChartNumber value={r.chartNumber} />)
                   </td>
                   <td>
                     <Link to={`/patients/${r.patientId}/sites/${r.siteId}`}>{r.fdi}</Link>

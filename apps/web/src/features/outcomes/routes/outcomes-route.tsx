@@ -10,6 +10,7 @@ import { formatDate } from '../../../lib/dates';
 import { IMPLANT_OUTCOME_LABEL, MAINTENANCE_STATUS_LABEL, OUTCOME_GROUPING_LABEL } from '../../../lib/labels';
 import { useOutcomes } from '../api/outcomes-api';
 import { SurvivalChart } from '../components/survival-chart';
+import { ChartNumber } from '../../../lib/components/chart-number';
 
 const curveName = (c: SurvivalCurve, groupBy: OutcomeGrouping) =>
   c.group === null
@@ -92,7 +93,9 @@ export function OutcomesRoute() {
               {report.data.implants.map((i) => (
                 <tr key={i.siteId}>
                   <td>
-                    <Link to={`/patients/${i.patientId}`}>{i.chartNumber}</Link>
+                    <Link to={`/patients/${i.patientId}`}>
+                      <ChartNumber value={i.chartNumber} />
+                    </Link>
                   </td>
                   <td>
                     <Link to={`/patients/${i.patientId}/sites/${i.siteId}`}>{i.fdi}</Link>

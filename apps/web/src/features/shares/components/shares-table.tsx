@@ -7,6 +7,7 @@ import { applyServerErrors, FormField, formErrorMessage, useContractForm, withIn
 import { formatDate } from '../../../lib/dates';
 import { SHARE_SCOPE_LABEL, SHARE_STATUS_LABEL } from '../../../lib/labels';
 import { useRevokeShare } from '../api/shares-api';
+import { ChartNumber } from '../../../lib/components/chart-number';
 
 const STATUS_INTENT = { active: 'success', ended: 'none', revoked: 'warning' } as const;
 
@@ -34,7 +35,7 @@ export function SharesTable({ shares, showPatient }: { shares: readonly Share[];
             <tr key={share.id} data-testid={`share-${share.id}`}>
               {showPatient && (
                 <td>
-                  {share.patientName} <span className="mono">{share.chartNumber}</span>
+                  {share.patientName} <ChartNumber value={share.chartNumber} />
                 </td>
               )}
               <td>
