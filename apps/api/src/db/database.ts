@@ -22,7 +22,7 @@ export const PG_SESSION_OPTIONS = '-c jit=off';
 
 /**
  * The pool reports an idle client whose server went away (PostgreSQL stopped or restarted) as an
- * 'error' event; without a listener Node ends the process. The pool drops that client and opens
+ * 'error' event, and so does a client in use (see below); without a listener Node ends the process. The pool drops that client and opens
  * a new one for the next query, so the listener only reports it. A connection attempt gives up
  * after 5 s (the request then answers 503) instead of waiting for ever.
  */
@@ -34,6 +34,10 @@ export function createPool(databaseUrl: string, onIdleError: (error: Error) => v
     options: PG_SESSION_OPTIONS,
   });
   pool.on('error', onIdleError);
+  // A client checked out of the pool (inside a transaction, between its statements) has no pool
+  // listener: its server going away would be an uncaught 'error' and end the process. The work on
+  // it fails on its next statement (503) and the pool discards it; the listener only reports it.
+  pool.on('connect', (client) => client.on('error', onIdleError));
   return pool;
 }
 

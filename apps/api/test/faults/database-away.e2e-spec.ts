@@ -33,10 +33,12 @@ beforeAll(async () => {
   cookie = await signIn(ctx, 'dentist');
   site = await siteId(ctx.db, 'LL-1004', 14);
 });
+// Restarting PostgreSQL and closing the app (its job queue drains first) can take longer than the
+// default 30 s on a loaded machine.
 afterAll(async () => {
   await pgctl.startPostgres();
   await ctx.close();
-});
+}, 90_000);
 
 describe('PostgreSQL away', () => {
   it(
