@@ -30,7 +30,9 @@ export function RadiographViewerRoute() {
   const [invert, setInvert] = useState(false);
   const [amending, setAmending] = useState<Measurement | null>(null);
 
-  if (radiograph.isPending) return <LoadingState label="Loading the radiograph" />;
+  // The measuring form takes its site from the patient's sites as it first renders: it waits for
+  // both, or it would keep an empty site and refuse every save with no field to show why.
+  if (radiograph.isPending || patient.isPending) return <LoadingState label="Loading the radiograph" />;
   if (radiograph.isError)
     return (
       <ErrorState
