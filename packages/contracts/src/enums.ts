@@ -4,6 +4,7 @@
 // database enums (apps/api/src/db/schema/enums.ts) are built from the same lists, in the same order.
 import { ROLES, SHARE_SCOPES } from '@torquetrail/authz';
 import {
+  ACTIONABLE_SEVERITIES,
   FINDING_SEVERITIES,
   IMPLANT_INTERFACES,
   IMPRESSION_COPINGS,
@@ -327,8 +328,8 @@ export const ImportEvent = z.enum(IMPORT_EVENTS);
 export type ImportEvent = z.infer<typeof ImportEvent>;
 /**
  * An error stops the import; a warning is shown and does not: the same two severities, with the
- * same meaning, as a plan's Findings.
+ * same meaning, as a plan's actionable Findings.
  */
-export const IMPORT_ISSUE_LEVELS = FINDING_SEVERITIES;
+export const IMPORT_ISSUE_LEVELS = ACTIONABLE_SEVERITIES;
 export const ImportIssueLevel = z.enum(IMPORT_ISSUE_LEVELS);
 export type ImportIssueLevel = z.infer<typeof ImportIssueLevel>;

@@ -200,7 +200,7 @@ export { validateRestorationPlan } from './restoration-plan.js';
 /** The restorative design a plan implies. */
 export { restorativeDesignForPlan } from './restoration-plan.js';
 /** Stable finding codes and source strings. */
-export { PLAN_FINDING_CODES, PLAN_SOURCES } from './restoration-plan.js';
+export { PLAN_FINDING_CODES, PLAN_SOURCES } from './plan-findings.js';
 /** Kinds, retentions, interfaces, impression copings, multi-unit angles and finding severities. */
 export {
   RESTORATION_KINDS,
@@ -209,14 +209,13 @@ export {
   IMPLANT_INTERFACES,
   IMPRESSION_COPINGS,
   MULTI_UNIT_ANGLES_DEG,
-  FINDING_SEVERITIES,
 } from './restoration-plan.js';
+export { ACTIONABLE_SEVERITIES, FINDING_SEVERITIES } from './plan-findings.js';
 /** False only for cement-retained restorations (cut off, not undone). */
 export { isRetrievable } from './restoration-plan.js';
 /** Restoration-plan types. */
+export type { Finding, FindingSeverity } from './plan-findings.js';
 export type {
-  Finding,
-  FindingSeverity,
   RestorationPlan,
   RestorationPlanSite,
   RestorationKind,

@@ -1,7 +1,6 @@
 import { describe, it, expect } from 'vitest';
+import { PLAN_FINDING_CODES as C, PLAN_SOURCES } from './plan-findings.js';
 import {
-  PLAN_FINDING_CODES as C,
-  PLAN_SOURCES,
   RETENTIONS,
   isRetrievable,
   restorativeDesignForPlan,
@@ -215,6 +214,57 @@ describe('divergence-over-limit — Jang HK et al. 2011 [pub]: accurate below ab
   });
   it('no correction without multi-unit retention', () => {
     expect(codes(bridge(20))).toEqual([C.DIVERGENCE_OVER_LIMIT]);
+  });
+});
+
+describe('angled-multi-unit-not-needed — Jang HK et al. 2011 [pub] limit; angle correction [common practice]', () => {
+  const onMua = (axis36: [number, number, number], a34: 0 | 17 | 30, a36: 0 | 17 | 30): RestorationPlan => ({
+    kind: 'splinted-bridge',
+    retention: 'screw-to-multi-unit',
+    sites: [
+      s(34, { impressionCoping: 'multi-unit', axis: [0, 0, 1], multiUnitAngleDeg: a34 }),
+      s(36, { impressionCoping: 'multi-unit', axis: axis36, multiUnitAngleDeg: a36 }),
+    ],
+  });
+  it('a 30° multi-unit on implants 8° apart → info at that site, naming the rule and its source', () => {
+    const f = validateRestorationPlan(onMua(tilt(8), 0, 30));
+    expect(f).toHaveLength(1);
+    expect(f[0]).toMatchObject({ severity: 'info', code: C.ANGLED_MULTI_UNIT_NOT_NEEDED, fdi: 36 });
+    expect(f[0].source).toContain(PLAN_SOURCES.JANG_2011);
+    expect(f[0].message).toMatch(/30° multi-unit.*at most 8°/);
+  });
+  it('15° exactly is within the limit, so the angle is still not called for', () => {
+    expect(codes(onMua(tilt(15), 17, 0))).toEqual([C.ANGLED_MULTI_UNIT_NOT_NEEDED]);
+  });
+  it('called for once the uncorrected divergence exceeds 15°: no info, and the correction clears the warning', () => {
+    expect(codes(onMua(tilt(15.5), 0, 17))).toEqual([]);
+    expect(codes(onMua(tilt(40), 0, 30))).toEqual([]);
+  });
+  it('every angled site is judged on its own: 17° at both where only one pair needs it', () => {
+    const plan: RestorationPlan = {
+      kind: 'full-arch',
+      retention: 'screw-to-multi-unit',
+      sites: [
+        s(32, { impressionCoping: 'multi-unit', axis: [0, 0, 1], multiUnitAngleDeg: 17 }),
+        s(34, { impressionCoping: 'multi-unit', axis: tilt(5), multiUnitAngleDeg: 17 }),
+        s(42, { impressionCoping: 'multi-unit', axis: [0, 0, 1] }),
+        s(44, { impressionCoping: 'multi-unit', axis: tilt(-25), multiUnitAngleDeg: 30 }),
+      ],
+    };
+    // 32 is 25° from 44 (called for); 34 is 30° from 44 (called for): no info. Straight 42 is never judged.
+    expect(codes(plan)).toEqual([]);
+    const calm = { ...plan, sites: plan.sites.map((x) => ({ ...x, axis: [0, 0, 1] as [number, number, number] })) };
+    expect(validateRestorationPlan(calm).map((f) => f.fdi)).toEqual([32, 34, 44]);
+  });
+  it('not judged without axes to compare, nor when the retention does not use multi-units', () => {
+    const noAxis: RestorationPlan = {
+      ...onMua(tilt(8), 0, 30),
+      sites: onMua(tilt(8), 0, 30).sites.map(({ axis: _axis, ...x }) => x),
+    };
+    expect(codes(noAxis)).toEqual([]);
+    expect(
+      codes({ ...validBridge, sites: [s(34, { axis: [0, 0, 1] }), s(36, { axis: tilt(5), multiUnitAngleDeg: 30 })] }),
+    ).toEqual([C.MULTI_UNIT_ANGLE_WITHOUT_ABUTMENT]);
   });
 });
 

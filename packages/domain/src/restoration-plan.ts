@@ -17,7 +17,9 @@
  *   a warning (`primary-tooth-position`).
  * - For screw-to-multi-unit retention the `interface` field is not judged (only single crowns need it engaging).
  */
-import { DIVERGENCE_LIMIT_DEG, divergenceDeg, type Vec3 } from './geometry.js';
+import { divergenceDeg, type Vec3 } from './geometry.js';
+import { divergenceFindings } from './restoration-plan-divergence.js';
+import { type Finding, PLAN_FINDING_CODES, PLAN_SOURCES } from './plan-findings.js';
 import { ValidationError } from './errors.js';
 import { RESTORATIVE_DESIGN_LABELS, minRestorativeSpaceMm, type RestorativeDesign } from './restorative-space.js';
 import { isPrimaryTooth, isValidFdi, toothArch, type ToothArch } from './tooth-numbering.js';
@@ -93,52 +95,6 @@ export interface RestorationPlan {
   sites: RestorationPlanSite[];
 }
 
-/** Severities of a {@link Finding}: an error blocks the plan, a warning needs the clinician's attention. */
-export const FINDING_SEVERITIES = ['error', 'warning'] as const;
-/** Severity of a {@link Finding}. */
-export type FindingSeverity = (typeof FINDING_SEVERITIES)[number];
-
-/** One problem found in a plan. */
-export interface Finding {
-  severity: FindingSeverity;
-  /** Stable code, see {@link PLAN_FINDING_CODES}. */
-  code: string;
-  /** Plain clinical English. */
-  message: string;
-  /** FDI position concerned, when the finding concerns one site. */
-  fdi?: number;
-  /** Source of the rule (author year, journal) or 'common practice'. */
-  source?: string;
-}
-
-/** Stable codes of the findings of {@link validateRestorationPlan}. */
-export const PLAN_FINDING_CODES = Object.freeze({
-  SITE_COUNT: 'site-count',
-  FEW_IMPLANTS_FULL_ARCH: 'few-implants-full-arch',
-  INVALID_POSITION: 'invalid-position',
-  PRIMARY_TOOTH_POSITION: 'primary-tooth-position',
-  DUPLICATE_SITE: 'duplicate-site',
-  SITES_IN_BOTH_ARCHES: 'sites-in-both-arches',
-  ENGAGING_INTERFACE_ON_SPLINTED: 'engaging-interface-on-splinted',
-  ENGAGING_IMPRESSION_FOR_PLATFORM_BRIDGE: 'engaging-impression-for-platform-bridge',
-  NON_ENGAGING_IMPRESSION_FOR_INDEXED: 'non-engaging-impression-for-indexed',
-  NON_ENGAGING_SINGLE_CROWN: 'non-engaging-single-crown',
-  MULTI_UNIT_IMPRESSION_REQUIRED: 'multi-unit-impression-required',
-  MULTI_UNIT_IMPRESSION_WITHOUT_ABUTMENT: 'multi-unit-impression-without-abutment',
-  MULTI_UNIT_ANGLE_WITHOUT_ABUTMENT: 'multi-unit-angle-without-abutment',
-  SPLINTED_ENGAGING_COPINGS: 'splinted-engaging-copings',
-  DIVERGENCE_OVER_LIMIT: 'divergence-over-limit',
-  INSUFFICIENT_RESTORATIVE_SPACE: 'insufficient-restorative-space',
-} as const);
-
-/** Source strings used in findings. */
-export const PLAN_SOURCES = Object.freeze({
-  JANG_2011: 'Jang HK et al. 2011, Int J Oral Maxillofac Implants 26:1011–1015',
-  CARPENTIERI_2019: 'Carpentieri J, Greenstein G, Cavallaro J 2019, JADA 150(8):695–706',
-  ISO_3950: 'ISO 3950 (FDI two-digit notation) [memory]',
-  COMMON_PRACTICE: 'common practice',
-} as const);
-
 const RETENTION_LABELS: Record<Retention, string> = {
   'screw-to-implant': 'screw-retained on the implant',
   'screw-to-multi-unit': 'screw-retained on multi-unit abutments',
@@ -161,6 +117,16 @@ export function restorativeDesignForPlan(plan: Pick<RestorationPlan, 'kind' | 'r
   return 'cement';
 }
 
+/** Validates an axis (3 finite components, not zero), naming the plan's field in the error. */
+function validateAxis(axis: Vec3, field: string): void {
+  try {
+    divergenceDeg(axis, axis);
+  } catch (error) {
+    if (error instanceof ValidationError) throw new ValidationError(error.code, error.message, field);
+    throw error;
+  }
+}
+
 function validateShape(plan: RestorationPlan): void {
   if (plan === null || typeof plan !== 'object') throw new ValidationError('bad-value', 'The plan is missing', 'plan');
   requireOneOf(plan.kind, RESTORATION_KINDS, 'plan.kind');
@@ -176,7 +142,7 @@ function validateShape(plan: RestorationPlan): void {
     if (site.multiUnitAngleDeg !== undefined)
       requireOneOf(site.multiUnitAngleDeg, MULTI_UNIT_ANGLES_DEG, `${f}.multiUnitAngleDeg`);
     if (site.restorativeSpaceMm !== undefined) requireNonNegative(site.restorativeSpaceMm, `${f}.restorativeSpaceMm`);
-    if (site.axis !== undefined) divergenceDeg(site.axis, site.axis); // validates: 3 finite components, not zero
+    if (site.axis !== undefined) validateAxis(site.axis, `${f}.axis`);
   });
 }
 
@@ -348,31 +314,7 @@ export function validateRestorationPlan(plan: RestorationPlan): Finding[] {
   }
 
   // --- divergence between the implants of one splinted restoration ----------------------------
-  if (splinted) {
-    const withAxis = sites.filter((s) => s.axis !== undefined);
-    for (let i = 0; i < withAxis.length; i++) {
-      for (let j = i + 1; j < withAxis.length; j++) {
-        const a = withAxis[i];
-        const b = withAxis[j];
-        const theta = divergenceDeg(a.axis!, b.axis!);
-        const correction =
-          retention === 'screw-to-multi-unit' ? (a.multiUnitAngleDeg ?? 0) + (b.multiUnitAngleDeg ?? 0) : 0;
-        const residual = Math.max(0, theta - correction);
-        if (residual > DIVERGENCE_LIMIT_DEG + EPS) {
-          const corrected =
-            correction > 0
-              ? ` Even with the angled multi-unit abutments (${a.multiUnitAngleDeg ?? 0}° + ${b.multiUnitAngleDeg ?? 0}°), ${fmt(residual)}° remain.`
-              : '';
-          findings.push({
-            severity: 'warning',
-            code: PLAN_FINDING_CODES.DIVERGENCE_OVER_LIMIT,
-            message: `The implants at ${a.fdi} and ${b.fdi} diverge by ${fmt(theta)}°, more than ${DIVERGENCE_LIMIT_DEG}°.${corrected} Impressions lose accuracy beyond about 15° (framework gaps were found at 20°); consider angled multi-unit abutments and verify the framework fit.`,
-            source: PLAN_SOURCES.JANG_2011,
-          });
-        }
-      }
-    }
-  }
+  if (splinted) findings.push(...divergenceFindings(retention === 'screw-to-multi-unit', sites));
 
   // --- restorative space ---------------------------------------------------------------------
   const spaced = sites.filter((s) => s.restorativeSpaceMm !== undefined);

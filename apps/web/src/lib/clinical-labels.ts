@@ -95,6 +95,7 @@ export const RESTORATION_STATUS_LABEL: Record<RestorationStatus, string> = {
 export const FINDING_SEVERITY_LABEL: Record<FindingSeverity, string> = {
   error: 'Error',
   warning: 'Warning',
+  info: 'Note',
 };
 
 export const TRAY_LABEL: Record<Tray, string> = {

@@ -1,9 +1,15 @@
-import { Callout, Checkbox } from '@blueprintjs/core';
-import type { Finding } from '@torquetrail/contracts';
+import { Callout, Checkbox, type IconName, type Intent } from '@blueprintjs/core';
+import type { Finding, FindingSeverity } from '@torquetrail/contracts';
 import { FINDING_SEVERITY_LABEL } from '../../../lib/clinical-labels';
 import { ackKey } from './plan-state';
 
-/** Findings as they arise: errors block saving, warnings need the clinician's acknowledgement. */
+const LOOK: Record<FindingSeverity, { intent: Intent; icon: IconName }> = {
+  error: { intent: 'danger', icon: 'error' },
+  warning: { intent: 'warning', icon: 'warning-sign' },
+  info: { intent: 'primary', icon: 'info-sign' },
+};
+
+/** Findings as they arise: errors block saving, warnings need the clinician's acknowledgement, notes ask nothing. */
 export function FindingsPanel({
   findings,
   acknowledged,
@@ -25,11 +31,7 @@ export function FindingsPanel({
         <ul className="planner-findings__list">
           {findings.map((f) => (
             <li key={ackKey(f)} data-testid={`finding-${f.severity}`} data-code={f.code}>
-              <Callout
-                intent={f.severity === 'error' ? 'danger' : 'warning'}
-                icon={f.severity === 'error' ? 'error' : 'warning-sign'}
-                compact
-              >
+              <Callout intent={LOOK[f.severity].intent} icon={LOOK[f.severity].icon} compact>
                 <strong>
                   {FINDING_SEVERITY_LABEL[f.severity]}
                   {f.fdi ? ` at ${f.fdi}` : ''}:
