@@ -18,8 +18,11 @@ import {
   ABUTMENT_LEVEL_RETENTIONS,
   type RestorationPlan,
   ValidationError,
+  type Vec3,
   validateRestorationPlan,
 } from '@torquetrail/domain';
+import { fieldLabel } from '../../../lib/forms/field-labels';
+import { INPUT_FINDING_CODES, readSiteInputs } from './plan-inputs';
 
 export interface SitePlan {
   siteId: string;
@@ -76,11 +79,22 @@ export const initialPlan: PlanState = {
 
 export const ackKey = (f: Pick<Finding, 'code' | 'fdi'>) => `${f.code}:${f.fdi ?? ''}`;
 
-const num = (s: string) => (s.trim() === '' ? null : Number(s));
-const enteredAxis = (a: SitePlan['axis']): [number, number, number] | null =>
-  a.every((v) => v.trim() !== '') ? [Number(a[0]), Number(a[1]), Number(a[2])] : null;
+/** Each chosen site's inputs as the rules read them (plan-inputs.ts), in the plan's order. */
+function readSites(state: PlanState, sites: RestorableSite[], catalogue: Map<string, CatalogueComponent>) {
+  return state.sites.map((s, i) => {
+    const site = sites.find((x) => x.siteId === s.siteId);
+    const mua = state.retention === 'screw-to-multi-unit' ? catalogue.get(s.multiUnitComponentId) : undefined;
+    return readSiteInputs(i, s, { fdi: site?.fdi ?? 0, axis: site?.axis ?? null }, mua);
+  });
+}
 
-export function toBody(patientId: string, state: PlanState, catalogue: Map<string, CatalogueComponent>): PlanBody {
+export function toBody(
+  patientId: string,
+  state: PlanState,
+  catalogue: Map<string, CatalogueComponent>,
+  sites: RestorableSite[],
+): PlanBody {
+  const read = readSites(state, sites, catalogue);
   return {
     patientId,
     kind: state.kind,
@@ -92,19 +106,19 @@ export function toBody(patientId: string, state: PlanState, catalogue: Map<strin
     labEmail: state.labEmail || null,
     dueOn: state.dueOn || null,
     notes: state.notes || null,
-    sites: state.sites.map((s) => {
+    sites: state.sites.map((s, i) => {
       // Only the slots the retention uses are sent (a part chosen under another retention is dropped).
       const onMua = state.retention === 'screw-to-multi-unit';
       const onAbutment = ABUTMENT_LEVEL_RETENTIONS.includes(state.retention);
-      const mua = onMua ? catalogue.get(s.multiUnitComponentId) : undefined;
-      const angle = mua?.angleDeg;
+      const typedAxis = s.axis.some((v) => v.trim() !== '');
       return {
         siteId: s.siteId,
         interface: s.interface,
         impressionCoping: s.impressionCoping,
-        multiUnitAngleDeg: angle === 0 || angle === 17 || angle === 30 ? angle : null,
-        restorativeSpaceMm: num(s.restorativeSpaceMm),
-        axis: enteredAxis(s.axis),
+        multiUnitAngleDeg: read[i].multiUnitAngleDeg,
+        restorativeSpaceMm: read[i].restorativeSpaceMm,
+        // A typed axis the rules could not read goes as typed, for the contract to refuse.
+        axis: read[i].axis ?? (typedAxis ? [Number.NaN, Number.NaN, Number.NaN] : null),
         abutmentComponentId: (onAbutment && s.abutmentComponentId) || null,
         multiUnitComponentId: (onMua && s.multiUnitComponentId) || null,
         screwComponentIds: s.screwComponentIds,
@@ -119,46 +133,71 @@ export function toBody(patientId: string, state: PlanState, catalogue: Map<strin
 }
 
 /**
- * The live Findings: the same validateRestorationPlan the server runs, on the sites chosen,
- * with each site's axis entered or taken from its placement. A malformed value (e.g. a zero
- * axis) is returned as a field message instead.
+ * The live Findings: first what the inputs hold that the rules cannot evaluate (a non-number, a
+ * partly typed axis with nothing to complete it, a value the rules refuse), each a Finding in
+ * plain words and a message beside its field; then, when every input can be read, the same
+ * validateRestorationPlan the server runs, with each site's axis typed (completed from its
+ * placement) or taken from its placement. Whenever saving is blocked, the list says why.
  */
 export function liveFindings(
   state: PlanState,
   sites: RestorableSite[],
   catalogue: Map<string, CatalogueComponent>,
 ): { findings: Finding[]; invalid: Record<string, string> } {
-  const body = toBody('', state, catalogue);
+  const read = readSites(state, sites, catalogue);
+  const notes = read.flatMap((r) => r.findings.filter((f) => f.severity !== 'error'));
+  const unreadable = read.flatMap((r) => r.findings.filter((f) => f.severity === 'error'));
+  if (unreadable.length > 0)
+    return { findings: [...unreadable, ...notes], invalid: Object.assign({}, ...read.map((r) => r.invalid)) };
   const plan: RestorationPlan = {
     kind: state.kind,
     retention: state.retention,
     copingsSplinted: state.copingsSplinted,
-    sites: body.sites.map((s) => {
+    sites: state.sites.map((s, i) => {
       const site = sites.find((x) => x.siteId === s.siteId)!;
-      const axis = s.axis ?? site.axis;
+      const { axis: typed, multiUnitAngleDeg, restorativeSpaceMm } = read[i];
+      const axis = typed ?? site.axis;
       return {
         fdi: site.fdi,
         interface: s.interface,
         impressionCoping: s.impressionCoping,
         ...(axis ? { axis } : {}),
-        ...(s.multiUnitAngleDeg !== null && s.multiUnitAngleDeg !== undefined
-          ? { multiUnitAngleDeg: s.multiUnitAngleDeg }
-          : {}),
-        ...(s.restorativeSpaceMm !== null && s.restorativeSpaceMm !== undefined
-          ? { restorativeSpaceMm: s.restorativeSpaceMm }
-          : {}),
+        ...(multiUnitAngleDeg !== null ? { multiUnitAngleDeg } : {}),
+        ...(restorativeSpaceMm !== null ? { restorativeSpaceMm } : {}),
       };
     }),
   };
   try {
-    return { findings: validateRestorationPlan(plan), invalid: {} };
+    return { findings: [...validateRestorationPlan(plan), ...notes], invalid: {} };
   } catch (error) {
     if (error instanceof ValidationError) {
       const field = (error.field ?? 'sites').replace(/^plan\./, '').replace(/\[(\d+)\]/g, '.$1');
-      return { findings: [], invalid: { [field]: error.message } };
+      const index = /^sites\.(\d+)/.exec(field)?.[1];
+      const fdi = index === undefined ? undefined : plan.sites[Number(index)]?.fdi;
+      const finding: Finding = {
+        severity: 'error',
+        code: INPUT_FINDING_CODES.NOT_EVALUATED,
+        ...(fdi === undefined ? {} : { fdi }),
+        message: `${fdi === undefined ? 'The plan' : `Site ${fdi}`}, ${fieldLabel(field.replace(/^sites\.\d+\./, '')).toLowerCase()}: ${error.message.replace(/\.$/, '')}. The rules cannot check the plan until it is corrected.`,
+      };
+      return { findings: [finding, ...notes], invalid: { [field]: error.message } };
     }
     throw error;
   }
+}
+
+/** The axis each chosen site is judged with (typed and completed, or its placement's), for the divergence table. */
+export function judgedAxes(
+  state: PlanState,
+  sites: RestorableSite[],
+  catalogue: Map<string, CatalogueComponent>,
+): { fdi: number; axis: Vec3 | null }[] {
+  const read = readSites(state, sites, catalogue);
+  return state.sites.map((s, i) => {
+    const site = sites.find((x) => x.siteId === s.siteId)!;
+    const typed = s.axis.some((v) => v.trim() !== '');
+    return { fdi: site.fdi, axis: typed ? read[i].axis : site.axis };
+  });
 }
 
 /** The planner's state from a saved restoration, to amend it. */

@@ -38,6 +38,7 @@ import {
   ackKey,
   emptySitePlan,
   initialPlan,
+  judgedAxes,
   liveFindings,
   type PlanState,
   stateFromRestoration,
@@ -164,6 +165,7 @@ function PlannerForm({
         patientId,
         { ...d, acknowledged: d.acknowledged.filter((k) => findings.some((f) => ackKey(f) === k)) },
         parts,
+        restorable,
       );
     };
     return amending
@@ -186,7 +188,9 @@ function PlannerForm({
   // Messages computed from the draft as it is now, shown beside their fields.
   const live: Record<string, string> = { ...invalid };
   for (const f of findings) if (f.severity === 'error') live[findingField(f, fdis)] ??= f.message;
-  const hasErrors = findings.some((f) => f.severity === 'error') || Object.keys(invalid).length > 0;
+  // Every value the rules cannot evaluate is an error Finding too (plan-state liveFindings): the list
+  // says why whenever Save is blocked.
+  const hasErrors = findings.some((f) => f.severity === 'error');
   const unacknowledged = findings.filter((f) => f.severity === 'warning' && !state.acknowledged.includes(ackKey(f)));
 
   const update = (patch: Partial<PlanState>) => {
@@ -354,15 +358,7 @@ function PlannerForm({
                 update({ acknowledged: on ? [...state.acknowledged, k] : state.acknowledged.filter((x) => x !== k) })
               }
             />
-            <DivergenceTable
-              system={system}
-              axes={state.sites.map((p, i) => {
-                const typed = p.axis.every((v) => v.trim() !== '')
-                  ? (p.axis.map(Number) as [number, number, number])
-                  : null;
-                return { fdi: chosen[i].fdi, axis: typed ?? chosen[i].axis };
-              })}
-            />
+            <DivergenceTable system={system} axes={judgedAxes(state, restorable, parts)} />
             <Callout intent="warning" icon="info-sign" compact className="planner-caution">
               {catalogue.caution}
             </Callout>
