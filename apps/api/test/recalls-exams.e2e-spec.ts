@@ -408,7 +408,7 @@ describe('the Recall desk', () => {
     expect(res.headers['content-type']).toMatch(/^text\/csv/);
     const lines = res.text.trim().split('\r\n');
     expect(lines[0]).toBe(
-      'chart number,patient,next recall,overdue days,last exam,last status per implant,risk factors',
+      'chart number,patient,phone,e-mail,next recall,overdue days,last exam,last status per implant,risk factors',
     );
     expect(lines).toHaveLength(2);
     expect(lines[1]).toMatch(/^LL-1002,Imogen Farrow,/);

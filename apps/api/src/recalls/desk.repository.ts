@@ -18,8 +18,14 @@ const SORTS: Record<RecallDeskCsvQuery['sort'], string> = {
   lastExamOn: 'last_exam',
 };
 
+/** A desk row with the patient's contact details, for the CSV only (the service decides who sees them). */
+export interface DeskRowWithContact extends RecallDeskRow {
+  phone: string | null;
+  email: string | null;
+}
+
 export interface DeskPage {
-  rows: RecallDeskRow[];
+  rows: DeskRowWithContact[];
   total: number;
 }
 
@@ -100,6 +106,8 @@ export async function queryDesk(
     chart_number: string;
     given_name: string;
     family_name: string;
+    phone: string | null;
+    email: string | null;
     smoker: boolean;
     diabetes_poorly_controlled: boolean;
     periodontitis_history: boolean;
@@ -131,7 +139,7 @@ export async function queryDesk(
       limit ${page.limit} offset ${page.offset}
     )
     select page.id, page.total, page.overdue_days, page.next_due::text as next_due_on, page.last_exam::text as last_exam_on,
-           pa.chart_number, pa.given_name, pa.family_name, pa.smoker, pa.diabetes_poorly_controlled, pa.periodontitis_history,
+           pa.chart_number, pa.given_name, pa.family_name, pa.phone, pa.email, pa.smoker, pa.diabetes_poorly_controlled, pa.periodontitis_history,
            exists (select 1 from recall_exams pe where pe.patient_id = pa.id and pe.status = 'peri-implantitis'
                     and not exists (select 1 from recall_exams s2 where s2.supersedes_id = pe.id)) as prior_pi,
            coalesce((
@@ -151,6 +159,8 @@ export async function queryDesk(
     patientId: r.id,
     chartNumber: r.chart_number,
     name: `${r.given_name} ${r.family_name}`,
+    phone: r.phone,
+    email: r.email,
     nextDueOn: r.next_due_on,
     overdueDays: r.overdue_days,
     lastExamOn: r.last_exam_on,
