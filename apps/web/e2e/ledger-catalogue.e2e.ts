@@ -38,3 +38,31 @@ describe('practice administrator', () => {
     expect(h.problems.filter((p) => !/status of (400|401|404)/.test(p))).toEqual([]);
   });
 });
+
+describe('catalogue search (issue 15 §7)', () => {
+  it('the dentist narrows the catalogue as he types; results stay grouped by system and platform', async () => {
+    const page = await h.newPage();
+    await signInAs(page, 'ines.calloway@larkspur.example');
+    await page.getByRole('link', { name: 'Catalogue' }).click();
+    await page.waitForURL(/\/catalogue$/);
+    const systems = page.getByTestId('catalogue-system');
+    await expect.poll(() => systems.count()).toBe(3);
+    // Every word must match: the system, the platform diameter and the kind of part.
+    await page.getByTestId('catalogue-search').fill('miravik 4.8 abutment screw');
+    await expect.poll(() => systems.count()).toBe(1);
+    expect(await systems.first().getByRole('heading', { level: 2 }).textContent()).toMatch(
+      /^Miravik HX \(Miravik Implant Systems\) 1 platform, 1 part$/,
+    );
+    expect(await systems.first().getByTestId('catalogue-platform').count()).toBe(1);
+    expect(await page.getByTestId('catalogue-part').count()).toBe(1);
+    expect(await page.getByTestId('catalogue-part').textContent()).toMatch(/MHX-48-/);
+    expect(await page.getByTestId('catalogue-count').textContent()).toMatch(/^1 part in 1 system match/);
+    await page.getByTestId('catalogue-search').fill('zygomatic');
+    await expect.poll(() => page.getByTestId('catalogue-no-match').count()).toBe(1);
+    expect(await systems.count()).toBe(0);
+    await page.getByTestId('catalogue-search').fill('');
+    await expect.poll(() => systems.count()).toBe(3);
+    await screenshot(page, 'catalogue-search');
+    expect(h.problems.filter((p) => !/status of 401/.test(p))).toEqual([]);
+  });
+});

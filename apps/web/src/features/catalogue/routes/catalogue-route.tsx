@@ -1,5 +1,5 @@
 import '../components/catalogue.css';
-import { Button, Callout, HTMLTable, InputGroup } from '@blueprintjs/core';
+import { Button, Callout, FormGroup, HTMLTable, InputGroup } from '@blueprintjs/core';
 import { useState } from 'react';
 import { Can, useAppAbility } from '../../../lib/ability';
 import { ErrorState } from '../../../lib/components/error-state';
@@ -7,6 +7,7 @@ import { LoadingState } from '../../../lib/components/loading-state';
 import { useRecordCalibration, useWrenches } from '../../torque';
 import { useCatalogue } from '../api/catalogue-api';
 import { ComponentRow } from '../components/component-row';
+import { filterCatalogue } from '../components/catalogue-filter';
 import { AddComponentForm, AddPlatformForm, AddSystemForm, AddWrenchForm } from '../components/add-forms';
 import { CONNECTION_LABEL, WRENCH_TYPE_LABEL } from '../../../lib/clinical-labels';
 
@@ -66,9 +67,15 @@ function Wrenches() {
   );
 }
 
-/** /catalogue: the practice's implant systems, platforms and parts with their torque specifications. */
+const plural = (n: number, one: string) => `${n} ${one}${n === 1 ? '' : 's'}`;
+
+/**
+ * /catalogue: the practice's implant systems, platforms and parts with their torque specifications,
+ * grouped by system and platform, narrowed by a search as the user types (catalogue-filter.ts).
+ */
 export function CatalogueRoute() {
   const catalogue = useCatalogue();
+  const [search, setSearch] = useState('');
   if (catalogue.isPending) return <LoadingState label="Loading the catalogue" />;
   if (catalogue.isError)
     return (
@@ -78,6 +85,8 @@ export function CatalogueRoute() {
         onRetry={() => void catalogue.refetch()}
       />
     );
+  const shown = filterCatalogue(catalogue.data.systems, search);
+  const searching = search.trim() !== '';
   return (
     <div className="catalogue-page">
       <title>Component catalogue · Torquetrail</title>
@@ -86,41 +95,80 @@ export function CatalogueRoute() {
         {catalogue.data.caution} The values here are what the practice entered.
       </Callout>
       {catalogue.data.systems.length === 0 && <p>This practice has no catalogue yet.</p>}
+      {catalogue.data.systems.length > 0 && (
+        <div role="search" className="catalogue-search">
+          <FormGroup
+            label="Search the catalogue"
+            labelFor="catalogue-search"
+            helperText="System, manufacturer, platform, part name, reference or kind; every word must match."
+          >
+            <InputGroup
+              id="catalogue-search"
+              data-testid="catalogue-search"
+              type="search"
+              leftIcon="search"
+              value={search}
+              onValueChange={setSearch}
+              autoComplete="off"
+            />
+          </FormGroup>
+          <p className="muted" aria-live="polite" data-testid="catalogue-count">
+            {searching
+              ? `${plural(shown.parts, 'part')} in ${plural(shown.systems.length, 'system')} match “${search.trim()}”.`
+              : `${plural(shown.parts, 'part')} in ${plural(shown.systems.length, 'system')}.`}
+          </p>
+        </div>
+      )}
+      {searching && shown.systems.length === 0 && (
+        <Callout intent="primary" data-testid="catalogue-no-match">
+          Nothing in the catalogue matches “{search.trim()}”. Try fewer words, or a reference code.
+        </Callout>
+      )}
       <Can I="create" a="Catalogue">
         <AddSystemForm />
       </Can>
-      {catalogue.data.systems.map((s) => (
-        <section key={s.id} aria-label={s.name}>
+      {shown.systems.map((s) => (
+        <section key={s.id} aria-label={s.name} className="catalogue-system" data-testid="catalogue-system">
           <h2>
-            {s.name} <span className="muted">({s.manufacturer})</span>
+            {s.name} <span className="muted">({s.manufacturer})</span>{' '}
+            <span className="catalogue-count">
+              {plural(s.platforms.length, 'platform')},{' '}
+              {plural(
+                s.platforms.reduce((n, p) => n + p.components.length, 0),
+                'part',
+              )}
+            </span>
           </h2>
           {s.platforms.map((p) => (
-            <div key={p.id}>
+            <div key={p.id} className="catalogue-platform" data-testid="catalogue-platform">
               <h3>
                 {p.name}: {p.diameterMm} mm, {CONNECTION_LABEL[p.connection].toLowerCase()}, platform shift{' '}
-                {p.platformShift ? 'yes' : 'no'}
+                {p.platformShift ? 'yes' : 'no'}{' '}
+                <span className="catalogue-count">{plural(p.components.length, 'part')}</span>
               </h3>
-              <HTMLTable compact striped className="catalogue-table">
-                <thead>
-                  <tr>
-                    <th>Part</th>
-                    <th>Reference</th>
-                    <th>Kind</th>
-                    <th>Features</th>
-                    <th>Torque</th>
-                    <th>Tolerance</th>
-                    <th>Records</th>
-                    <Can I="update" a="Catalogue">
-                      <th>Edit</th>
-                    </Can>
-                  </tr>
-                </thead>
-                <tbody>
-                  {p.components.map((c) => (
-                    <ComponentRow key={c.id} part={c} />
-                  ))}
-                </tbody>
-              </HTMLTable>
+              {p.components.length > 0 && (
+                <HTMLTable compact striped className="catalogue-table">
+                  <thead>
+                    <tr>
+                      <th>Part</th>
+                      <th>Reference</th>
+                      <th>Kind</th>
+                      <th>Features</th>
+                      <th>Torque</th>
+                      <th>Tolerance</th>
+                      <th>Records</th>
+                      <Can I="update" a="Catalogue">
+                        <th>Edit</th>
+                      </Can>
+                    </tr>
+                  </thead>
+                  <tbody>
+                    {p.components.map((c) => (
+                      <ComponentRow key={c.id} part={c} />
+                    ))}
+                  </tbody>
+                </HTMLTable>
+              )}
               <Can I="create" a="Catalogue">
                 <AddComponentForm platformId={p.id} />
               </Can>
