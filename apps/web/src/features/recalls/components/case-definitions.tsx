@@ -1,4 +1,4 @@
-import { Button, Popover } from '@blueprintjs/core';
+import { Button, PopoverNext } from '@blueprintjs/core';
 import {
   DEFAULT_BONE_LOSS_MM,
   DEFAULT_PD_INCREASE_MM,
@@ -6,10 +6,14 @@ import {
   NO_BASELINE_PD_MM,
 } from '@torquetrail/domain';
 
-/** The three case definitions and the no-baseline rule, in our own words, on demand. */
+/**
+ * The three case definitions and the no-baseline rule, in our own words, on demand. PopoverNext
+ * (floating-ui) is Blueprint's popover for React 19: the classic Popover warns that it positions
+ * its content wrongly there.
+ */
 export function CaseDefinitions() {
   return (
-    <Popover
+    <PopoverNext
       content={
         <div className="definitions" data-testid="case-definitions">
           <p>
@@ -45,6 +49,6 @@ export function CaseDefinitions() {
       }
     >
       <Button variant="minimal" icon="info-sign" text="Case definitions" />
-    </Popover>
+    </PopoverNext>
   );
 }
