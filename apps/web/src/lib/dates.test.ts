@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { ageInYears, formatDate, formatLongDate, localNow, localToday } from './dates';
+import { ageInYears, formatDate, formatLongDate, localNow, localToday, parseDate } from './dates';
 
 describe('dates', () => {
   it('writes calendar dates without a time-zone shift', () => {
@@ -20,5 +20,21 @@ describe('localToday and localNow (the viewer’s calendar, not UTC)', () => {
     expect(localNow(lateEvening)).toBe('2026-12-01T23:30');
     const justAfterMidnight = new Date(2026, 11, 2, 0, 5);
     expect(localToday(justAfterMidnight)).toBe('2026-12-02');
+  });
+});
+
+describe('parseDate: dates typed in the practice’s order (day, month, year)', () => {
+  it('reads the shown format, the month in words, day-first numbers and ISO', () => {
+    for (const text of ['12 Mar 2026', '12 March 2026', ' 12 mar 2026 ', '12/3/2026', '12.03.2026', '2026-03-12']) {
+      expect(parseDate(text), text).toBe('2026-03-12');
+    }
+  });
+  it('refuses what is not a real date, month-first American order included when impossible', () => {
+    for (const text of ['31 Feb 2026', '3/13/2026', '12 Smarch 2026', '12/03/26', '', 'yesterday']) {
+      expect(parseDate(text), text).toBeNull();
+    }
+  });
+  it('round-trips with formatDate', () => {
+    expect(parseDate(formatDate('2026-11-05'))).toBe('2026-11-05');
   });
 });

@@ -1,6 +1,6 @@
 // The one way the web's forms work: react-hook-form, validated with the contracts' zod schemas,
 // errors (client or server) shown beside their fields through Blueprint's FormGroup.
-export { NumberInput, withInputRef } from './blueprint-inputs';
+export { DateField, NumberInput, withInputRef } from './blueprint-inputs';
 export { draftSchema, useContractForm } from './contract-form';
 export { keepDrafts, setDraftOwner } from './drafts';
 export { errorAt, FieldError, FormField, useFieldError } from './form-field';

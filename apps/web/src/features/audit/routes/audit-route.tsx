@@ -1,5 +1,5 @@
 import '../components/audit.css';
-import { AnchorButton, Button, FormGroup, HTMLSelect, InputGroup, NonIdealState } from '@blueprintjs/core';
+import { AnchorButton, Button, FormGroup, HTMLSelect, NonIdealState } from '@blueprintjs/core';
 import { AUDIT_ACTIONS, type AuditAction } from '@torquetrail/contracts';
 import { useSearchParams } from 'react-router-dom';
 import { BreadcrumbTrail } from '../../../lib/components/breadcrumb-trail';
@@ -10,6 +10,7 @@ import { auditSearch, usePatientChoices, usePracticeAudit } from '../api/audit-a
 import type { AuditFilters } from '../api/keys';
 import { AuditTable } from '../components/audit-table';
 import { ChartNumber } from '../../../lib/components/chart-number';
+import { DateInput } from '../../../lib/components/date-input';
 
 const ISO_DAY = /^\d{4}-\d{2}-\d{2}$/;
 
@@ -91,15 +92,10 @@ export function AuditRoute() {
           </HTMLSelect>
         </FormGroup>
         <FormGroup label="From" labelFor="audit-from" helperText="Day, UTC">
-          <InputGroup
-            id="audit-from"
-            type="date"
-            value={filters.from ?? ''}
-            onChange={(e) => set('from', e.target.value)}
-          />
+          <DateInput id="audit-from" value={filters.from ?? ''} onChange={(v) => set('from', v)} />
         </FormGroup>
         <FormGroup label="To" labelFor="audit-to" helperText="Included">
-          <InputGroup id="audit-to" type="date" value={filters.to ?? ''} onChange={(e) => set('to', e.target.value)} />
+          <DateInput id="audit-to" value={filters.to ?? ''} onChange={(v) => set('to', v)} />
         </FormGroup>
         <FormGroup>
           <AnchorButton icon="download" href={`/api/audit/csv${auditSearch(filters)}`} download="audit-trail.csv">

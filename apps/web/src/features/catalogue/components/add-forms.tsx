@@ -29,6 +29,7 @@ import {
 } from '../../../lib/clinical-labels';
 import {
   applyServerErrors,
+  DateField,
   draftSchema,
   FormField,
   NumberInput,
@@ -339,11 +340,7 @@ export function AddWrenchForm() {
               </HTMLSelect>
             </FormField>
             <FormField name="lastCalibratedOn" label="Last calibration" labelFor={`${uid}-last-calibration`} inline>
-              <InputGroup
-                id={`${uid}-last-calibration`}
-                type="date"
-                {...withInputRef(form.register('lastCalibratedOn'))}
-              />
+              <DateField id={`${uid}-last-calibration`} name="lastCalibratedOn" />
             </FormField>
             <Button type="submit" intent="primary" small text="Add wrench" loading={save.isPending} />{' '}
             <Button small variant="minimal" text="Cancel" onClick={close} />

@@ -7,6 +7,7 @@ import { Can } from '../../../lib/ability';
 import { COMPONENT_KIND_LABEL, INTERFACE_LABEL, TRAY_LABEL } from '../../../lib/clinical-labels';
 import { applyServerErrors, draftSchema, errorAt, FieldError, NumberInput, useContractForm } from '../../../lib/forms';
 import { useComponentVersions, useSaveComponent } from '../api/catalogue-api';
+import { formatDateTime } from '../../../lib/dates';
 
 interface SpecDraft {
   torqueSpecNcm: number | null;
@@ -123,7 +124,7 @@ export function ComponentRow({ part }: { part: CatalogueComponent }) {
               <ol aria-label={`Versions of ${part.referenceCode}`}>
                 {versions.data.items.map((v) => (
                   <li key={v.id}>
-                    Version {v.version}, saved {v.versionedAt.slice(0, 10)}
+                    Version {v.version}, saved {formatDateTime(v.versionedAt)}
                     {v.byName ? ` by ${v.byName}` : ''}: {v.name},{' '}
                     {v.torqueSpecNcm === null ? 'hand-tight' : `${v.torqueSpecNcm} N·cm`} ±{v.tolerancePct} %
                     {v.current ? ' (current)' : ''}

@@ -10,6 +10,8 @@ import { ComponentRow } from '../components/component-row';
 import { filterCatalogue } from '../components/catalogue-filter';
 import { AddComponentForm, AddPlatformForm, AddSystemForm, AddWrenchForm } from '../components/add-forms';
 import { CONNECTION_LABEL, WRENCH_TYPE_LABEL } from '../../../lib/clinical-labels';
+import { DateInput } from '../../../lib/components/date-input';
+import { formatDate } from '../../../lib/dates';
 
 function Wrenches() {
   const wrenches = useWrenches(useAppAbility().can('read', 'Wrench'));
@@ -37,14 +39,13 @@ function Wrenches() {
               <td>{w.label}</td>
               <td>{WRENCH_TYPE_LABEL[w.type].toLowerCase()}</td>
               <td>
-                {w.lastCalibratedOn ?? 'not recorded'}
+                {w.lastCalibratedOn ? formatDate(w.lastCalibratedOn) : 'not recorded'}
                 <Can I="update" a="Wrench">
                   {' '}
-                  <InputGroup
-                    type="date"
+                  <DateInput
                     aria-label={`New calibration date of ${w.label}`}
                     value={dates[w.id] ?? ''}
-                    onValueChange={(v) => setDates({ ...dates, [w.id]: v })}
+                    onChange={(v) => setDates({ ...dates, [w.id]: v })}
                     style={{ width: '11em', display: 'inline-block' }}
                   />
                   <Button

@@ -8,6 +8,7 @@ import { IMPORT_PHASE_LABEL } from '../../../lib/labels';
 import { dryRunImport, runImport, useImportProgress } from '../api/imports-api';
 import { ImportCountsTable, ImportIssues, PartMappings } from '../components/import-report';
 import { ChartNumber } from '../../../lib/components/chart-number';
+import { formatDateTime } from '../../../lib/dates';
 
 type Step =
   | { kind: 'idle' }
@@ -116,8 +117,7 @@ export function ImportRoute() {
           </p>
           {report.alreadyImportedAt && (
             <Callout intent="primary" title="Already imported">
-              This file was imported on {new Date(report.alreadyImportedAt).toLocaleString()}: importing it again
-              changes nothing.
+              This file was imported on {formatDateTime(report.alreadyImportedAt)}: importing it again changes nothing.
             </Callout>
           )}
           <ImportCountsTable counts={report.counts} />
@@ -140,7 +140,7 @@ export function ImportRoute() {
           data-testid="import-result"
         >
           <p>
-            {result.fileName}, imported {new Date(result.importedAt).toLocaleString()}.
+            {result.fileName}, imported {formatDateTime(result.importedAt)}.
           </p>
           <ImportCountsTable counts={result.counts} />
           {result.patients.length > 0 && (

@@ -13,9 +13,10 @@ import { LOADING_PROTOCOL_LABEL } from '../../../lib/clinical-labels';
 import { localToday } from '../../../lib/dates';
 import {
   applyServerErrors,
+  DateField,
   draftSchema,
-  FormField,
   formErrorMessage,
+  FormField,
   NumberInput,
   useContractForm,
   withInputRef,
@@ -149,12 +150,7 @@ export function PlacementForm({
         </FormField>
         <div className="placement-form__row">
           <FormField name="placedOn" label="Placed on" labelFor="placement-date">
-            <InputGroup
-              id="placement-date"
-              type="date"
-              max={localToday()}
-              {...withInputRef(form.register('placedOn'))}
-            />
+            <DateField id="placement-date" name="placedOn" />
           </FormField>
           <FormField name="lengthMm" label="Implant length (mm)" labelFor="placement-length">
             <NumberInput

@@ -5,6 +5,7 @@ import { FormProvider } from 'react-hook-form';
 import { localToday } from '../../../lib/dates';
 import {
   applyServerErrors,
+  DateField,
   draftSchema,
   errorAt,
   FieldError,
@@ -98,16 +99,11 @@ export function DeliveryForm({ restoration, onDone }: { restoration: Restoration
           </tbody>
         </table>
         <label>
-          Impression taken on <InputGroup type="date" {...withInputRef(form.register('impressionTakenOn'))} />
+          Impression taken on <DateField name="impressionTakenOn" />
         </label>
         <FieldError name="impressionTakenOn" className="planner-error" />
         <label>
-          Delivered on{' '}
-          <InputGroup
-            type="date"
-            intent={errorAt(errors, 'deliveredOn') ? 'danger' : 'none'}
-            {...withInputRef(form.register('deliveredOn'))}
-          />
+          Delivered on <DateField name="deliveredOn" intent={errorAt(errors, 'deliveredOn') ? 'danger' : 'none'} />
         </label>
         <FieldError name="deliveredOn" className="planner-error" />
         {message && (

@@ -48,6 +48,7 @@ import { SitePlanFields } from '../components/site-plan-fields';
 import { DivergenceTable } from '../components/divergence-table';
 import { MATERIAL_LABEL, RESTORATION_KIND_LABEL as KIND_LABEL, RETENTION_LABEL } from '../../../lib/clinical-labels';
 import { usePatient } from '../../patients';
+import { DateInput } from '../../../lib/components/date-input';
 
 /**
  * /patients/:patientId/restorations/new: the restoration planner with live Findings.
@@ -338,7 +339,7 @@ function PlannerForm({
                 />
               </FormField>
               <FormField {...field('dueOn')} label="Due date" labelFor="plan-due">
-                <InputGroup id="plan-due" type="date" value={state.dueOn} onValueChange={(v) => update({ dueOn: v })} />
+                <DateInput id="plan-due" value={state.dueOn} onChange={(v) => update({ dueOn: v })} />
               </FormField>
             </div>
             <FormField {...field('notes')} label="Notes for the laboratory" labelFor="plan-notes">

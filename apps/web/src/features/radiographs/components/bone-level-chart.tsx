@@ -5,12 +5,11 @@ import { CartesianGrid, Legend, Line, LineChart, ResponsiveContainer, Tooltip, X
 import { Link } from 'react-router-dom';
 import { Can } from '../../../lib/ability';
 import { ICOI_GRADE_LABEL } from '../../../lib/clinical-labels';
-import { formatDate } from '../../../lib/dates';
+import { calendarYearOfMs, formatCalendarMs, formatDate } from '../../../lib/dates';
 import { useSiteBoneLevels } from '../api/bone-levels-api';
 
 const mm = (v: number) => `${v.toFixed(2)} mm`;
 const time = (date: string) => Date.parse(`${date}T00:00:00Z`);
-const year = (t: number) => String(new Date(t).getUTCFullYear());
 const HALF_YEAR_MS = 182 * 24 * 3600 * 1000;
 
 interface ChartRow {
@@ -88,10 +87,17 @@ function BoneLevelBody({ data }: { data: SiteBoneLevels }) {
         <ResponsiveContainer>
           <LineChart data={rows} margin={{ top: 8, right: 16, bottom: 8, left: 8 }} accessibilityLayer={false}>
             <CartesianGrid strokeDasharray="3 3" />
-            <XAxis dataKey="t" type="number" scale="time" domain={domain} tickFormatter={year} minTickGap={24} />
+            <XAxis
+              dataKey="t"
+              type="number"
+              scale="time"
+              domain={domain}
+              tickFormatter={calendarYearOfMs}
+              minTickGap={24}
+            />
             <YAxis unit=" mm" width={64} />
             <Tooltip
-              labelFormatter={(t) => formatDate(new Date(Number(t)).toISOString().slice(0, 10))}
+              labelFormatter={(t) => formatCalendarMs(Number(t))}
               formatter={(value, name) => [mm(Number(value)), name]}
             />
             <Legend />

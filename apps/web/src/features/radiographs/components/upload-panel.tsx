@@ -5,7 +5,7 @@ import { RADIOGRAPH_KINDS, RadiographUploadQuery, type RadiographKind } from '@t
 import { useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { FormProvider } from 'react-hook-form';
-import { draftSchema, FormField, useContractForm } from '../../../lib/forms';
+import { DateField, draftSchema, FormField, useContractForm } from '../../../lib/forms';
 import { RADIOGRAPH_KIND_LABEL } from '../../../lib/labels';
 import { radiographKeys } from '../api/keys';
 import { uploadRadiograph, type UploadDetails, type UploadHandle } from '../api/radiographs-api';
@@ -33,7 +33,7 @@ interface Row {
   handle?: UploadHandle;
 }
 
-const kb = (n: number) => `${Math.round(n / 1024).toLocaleString()} KB`;
+const kb = (n: number) => `${new Intl.NumberFormat().format(Math.round(n / 1024))} KB`;
 
 /** Pick one or several files, then each uploads with its own progress, cancel and retry. */
 export function UploadPanel({
@@ -108,7 +108,7 @@ export function UploadPanel({
             labelFor="radiograph-taken-on"
             help="Left empty, the DICOM study date is used"
           >
-            {(a11y) => <InputGroup id="radiograph-taken-on" type="date" {...form.register('takenOn')} {...a11y} />}
+            {(a11y) => <DateField id="radiograph-taken-on" name="takenOn" {...a11y} />}
           </FormField>
           <fieldset className="radiograph-sites">
             <legend>Implant sites shown</legend>

@@ -1,5 +1,5 @@
 import '../components/recalls.css';
-import { Button, Callout, InputGroup, NonIdealState, TextArea } from '@blueprintjs/core';
+import { Button, Callout, NonIdealState, TextArea } from '@blueprintjs/core';
 import {
   AmendExamBody,
   CreateVisitBody,
@@ -19,9 +19,10 @@ import { LoadingState } from '../../../lib/components/loading-state';
 import { formatLongDate } from '../../../lib/dates';
 import {
   applyServerErrors,
+  DateField,
   draftSchema,
-  FormField,
   formErrorMessage,
+  FormField,
   useContractForm,
   withInputRef,
 } from '../../../lib/forms';
@@ -173,12 +174,7 @@ function ExamVisit({ data }: { data: ExamContext }) {
         <FormProvider {...form}>
           <div className="exam-visit__header">
             <FormField name="examinedOn" label="Examined on" labelFor="examined-on">
-              <InputGroup
-                id="examined-on"
-                type="date"
-                max={data.today}
-                {...withInputRef(form.register('examinedOn'))}
-              />
+              <DateField id="examined-on" name="examinedOn" />
             </FormField>
           </div>
           {sites.map((s) => (

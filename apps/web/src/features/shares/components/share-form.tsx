@@ -3,9 +3,10 @@ import { CreateShareBody, SHARE_SCOPES, type ArchSite } from '@torquetrail/contr
 import { FormProvider, useWatch } from 'react-hook-form';
 import {
   applyServerErrors,
+  DateField,
   draftSchema,
-  FormField,
   formErrorMessage,
+  FormField,
   useContractForm,
   withInputRef,
 } from '../../../lib/forms';
@@ -113,7 +114,7 @@ export function ShareForm({ patientId, sites }: { patientId: string; sites: read
           )}
         </FormField>
         <FormField name="endsOn" label="Last day (optional)" labelFor="share-ends-on" help="Empty: until you revoke it">
-          {(a11y) => <InputGroup id="share-ends-on" type="date" {...a11y} {...withInputRef(form.register('endsOn'))} />}
+          {(a11y) => <DateField id="share-ends-on" name="endsOn" {...a11y} />}
         </FormField>
         <FormField name="reason" label="Reason" labelFor="share-reason">
           {(a11y) => <InputGroup id="share-reason" {...a11y} {...withInputRef(form.register('reason'))} />}

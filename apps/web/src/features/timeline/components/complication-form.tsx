@@ -1,4 +1,4 @@
-import { Button, Callout, HTMLSelect, InputGroup, TextArea } from '@blueprintjs/core';
+import { Button, Callout, HTMLSelect, TextArea } from '@blueprintjs/core';
 import { ComplicationBody, type ComplicationKind, type StackPart } from '@torquetrail/contracts';
 import { useMemo, useState } from 'react';
 import { FormProvider } from 'react-hook-form';
@@ -7,9 +7,10 @@ import { COMPLICATION_KIND_LABEL } from '../../../lib/clinical-labels';
 import { localToday } from '../../../lib/dates';
 import {
   applyServerErrors,
+  DateField,
   draftSchema,
-  FormField,
   formErrorMessage,
+  FormField,
   useContractForm,
   withInputRef,
 } from '../../../lib/forms';
@@ -87,7 +88,7 @@ export function ComplicationPanel({ siteId, parts }: { siteId: string; parts: St
               </HTMLSelect>
             </FormField>
             <FormField name="occurredOn" label="Date" labelFor="complication-date">
-              <InputGroup id="complication-date" type="date" {...withInputRef(form.register('occurredOn'))} />
+              <DateField id="complication-date" name="occurredOn" />
             </FormField>
             <FormField name="notes" label="Notes" labelFor="complication-notes">
               <TextArea id="complication-notes" fill {...withInputRef(form.register('notes'))} />

@@ -1,6 +1,7 @@
 import type { TorqueSeries } from '@torquetrail/contracts';
 import { torqueToleranceBand } from '@torquetrail/domain';
 import { TORQUE_VERDICT_LABEL } from '../../../lib/clinical-labels';
+import { formatDayOf, formatYear } from '../../../lib/dates';
 import {
   CartesianGrid,
   Line,
@@ -12,8 +13,6 @@ import {
   XAxis,
   YAxis,
 } from 'recharts';
-
-const day = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', year: 'numeric' });
 
 /** Torque history of one part: applied values over the years against its specification window. */
 export function TorqueChart({ series }: { series: TorqueSeries }) {
@@ -44,7 +43,7 @@ export function TorqueChart({ series }: { series: TorqueSeries }) {
               type="number"
               scale="time"
               domain={['dataMin', 'dataMax']}
-              tickFormatter={(t: number) => new Date(t).getFullYear().toString()}
+              tickFormatter={(t: number) => formatYear(t)}
             />
             <YAxis domain={[0, Math.ceil(max)]} unit=" N·cm" width={70} />
             <Area
@@ -65,7 +64,7 @@ export function TorqueChart({ series }: { series: TorqueSeries }) {
               />
             )}
             <Tooltip
-              labelFormatter={(t) => day.format(new Date(Number(t)))}
+              labelFormatter={(t) => formatDayOf(Number(t))}
               formatter={(v, name) =>
                 Array.isArray(v)
                   ? [`${String(v[0])}–${String(v[1])} N·cm`, 'Band judged against']
@@ -81,7 +80,7 @@ export function TorqueChart({ series }: { series: TorqueSeries }) {
         <tbody>
           {series.points.map((p) => (
             <tr key={p.id}>
-              <td>{day.format(new Date(p.at))}</td>
+              <td>{formatDayOf(p.at)}</td>
               <td>{p.appliedNcm} N·cm</td>
               <td>
                 against {p.specNcm} N·cm ±{p.tolerancePct} %

@@ -8,6 +8,7 @@ import {
   applyServerErrors,
   draftSchema,
   FormField,
+  DateField,
   formErrorMessage,
   NumberInput,
   useContractForm,
@@ -27,8 +28,9 @@ interface TorqueDraft {
   appliedNcm: number | null;
   wrenchId: string;
   reason: TorqueReason;
-  /** Local date and time as typed (datetime-local). */
-  performedAt: string;
+  /** Local date (YYYY-MM-DD from the app's date field) and time (HH:MM) as entered. */
+  performedOn: string;
+  performedTime: string;
   replacementLot: string;
 }
 
@@ -37,7 +39,7 @@ const schema = draftSchema(TorqueBody, (d: TorqueDraft) => ({
   appliedNcm: d.appliedNcm ?? Number.NaN,
   wrenchId: d.wrenchId || null,
   reason: d.reason,
-  performedAt: instant(d.performedAt),
+  performedAt: instant(`${d.performedOn}T${d.performedTime}`),
   replacementLot: d.reason === 'screw-replaced' ? d.replacementLot || null : null,
 }));
 
@@ -52,7 +54,8 @@ export function TorqueForm({ siteId, parts, onDone }: { siteId: string; parts: S
     appliedNcm: null,
     wrenchId: '',
     reason: 'initial-seating',
-    performedAt: localNow(),
+    performedOn: localNow().slice(0, 10),
+    performedTime: localNow().slice(11, 16),
     replacementLot: '',
   });
   const [instanceId, applied, reason] = useWatch({
@@ -151,7 +154,11 @@ export function TorqueForm({ siteId, parts, onDone }: { siteId: string; parts: S
           </FormField>
         )}
         <FormField name="performedAt" label="Date and time" labelFor="torque-when">
-          <InputGroup id="torque-when" type="datetime-local" {...withInputRef(form.register('performedAt'))} />
+          {/* The date in the practice's format (lib/dates.ts); the time of day beside it. */}
+          <div className="torque-when">
+            <DateField id="torque-when" name="performedOn" aria-label="Date" />
+            <InputGroup type="time" aria-label="Time" {...withInputRef(form.register('performedTime'))} />
+          </div>
         </FormField>
         {formError && (
           <Callout intent="danger" role="alert" compact>
