@@ -128,6 +128,7 @@ const TARGETS: Record<string, { as: AccountKey | null; path: string }> = {
     path: `/api/patients/${t.ids.harold}/referral-summary/mails`,
   },
   'POST /torque-events': { as: 'dentist', path: '/api/torque-events' },
+  'POST /restorations/:id/seat': { as: 'dentist', path: `/api/restorations/${t.haroldBridge}/seat` },
   'POST /torque-events/:id/amendments': {
     as: 'dentist',
     path: `/api/torque-events/${await t.fresh.torque()}/amendments`,

@@ -1,7 +1,7 @@
 // The restoration ledger in a real browser: plan a splinted screw-retained bridge on Wendell
 // Achterberg's two Tessely EX 4.1 implants (15, 16), meet the error Finding an engaging coping
 // raises (engaging-impression-for-platform-bridge, common practice — docs/clinical-rules.md §8),
-// fix it, save, deliver with lot numbers, log a torque and see its verdict (torqueVerdict, §6).
+// fix it, save, deliver with lot numbers, seat every screw in one form and see each verdict (torqueVerdict, §6).
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { screenshot, signInAs, startHarness, type Harness } from './support/harness.js';
 
@@ -18,7 +18,7 @@ const unexpectedProblems = (from = 0, allowed = '401|404') =>
     .filter((p) => !new RegExp(`Failed to load resource: the server responded with a status of (${allowed})`).test(p));
 
 describe('restorative dentist', () => {
-  it('plans, fixes an error Finding, delivers and logs a torque on a splinted bridge 15–16', async () => {
+  it('plans, fixes an error Finding, delivers and seats every screw of a splinted bridge 15–16', async () => {
     await h.reset(); // this test writes: a retry starts from the seed, not from the first attempt's plans
     const page = await h.newPage();
     await signInAs(page, 'ines.calloway@larkspur.example');
@@ -107,24 +107,31 @@ describe('restorative dentist', () => {
     await card.getByTestId('record-delivery').click();
     await expect.poll(() => card.getAttribute('data-status')).toBe('delivered');
 
+    // The delivery flow ends on the seating form: every screw with its spec, one wrench and time.
+    const seat = card.getByTestId('seat-form');
+    await expect.poll(() => seat.getByTestId('seat-screw').count()).toBe(2);
+    expect(await seat.textContent()).toMatch(
+      /manufacturer's instructions, the clinician's judgement and local regulations rule/,
+    );
+    expect(await seat.getByTestId('seat-spec').allTextContents()).toEqual(['32 N·cm ± 10 %', '32 N·cm ± 10 %']);
+    // Spec 32 N·cm ±10 % (demo catalogue, common practice): 32 is within, 36 over; judged live per screw.
+    await seat.getByLabel(/^Applied torque at 15/).fill('32');
+    await seat.getByLabel(/^Applied torque at 16/).fill('36');
+    await expect
+      .poll(() => seat.getByTestId('seat-verdict').allTextContents())
+      .toEqual(['Within specification', 'Over specification']);
+    await seat.getByLabel('Wrench (for every screw)').selectOption({ index: 1 });
+    await screenshot(page, 'seat-restoration-form');
+    await seat.getByRole('button', { name: 'Save seating torques' }).click();
+    await expect.poll(() => card.getByTestId('seat-form').count()).toBe(0);
+
     await card.getByRole('link', { name: 'Site 15' }).click();
     await page.waitForURL(/\/sites\//);
     const part = page.getByTestId('stack-part');
     await expect.poll(() => part.count()).toBe(1);
     expect(await part.textContent()).toMatch(/Prosthetic screw, implant level/);
     expect(await part.textContent()).toMatch(/TEX-PSI-2612/);
-
-    await page.getByTestId('log-torque-button').click();
-    const form = page.getByTestId('torque-form');
-    expect(await form.textContent()).toMatch(
-      /manufacturer's instructions, the clinician's judgement and local regulations rule/,
-    );
-    await form.getByLabel('Applied torque (N·cm)').fill('32');
-    // Spec 32 N·cm ±10 % (demo catalogue, common practice): 32 is within, shown live before saving.
-    await expect.poll(() => form.getByTestId('torque-live-verdict').textContent()).toBe('Within specification');
-    await form.getByLabel('Wrench').selectOption({ index: 1 });
-    await form.getByRole('button', { name: 'Save torque' }).click();
-    await expect.poll(() => part.textContent()).toMatch(/32 N·cm .*Within specification/);
+    await expect.poll(() => part.textContent()).toMatch(/32 N·cm .*Initial seating.*Within specification/);
     // Re-torque reminder after the initial seating (about 10 min, Siamos et al. 2002).
     await expect.poll(() => page.getByTestId('retorque-due').count()).toBe(1);
     const torqueEvents = page.locator('[data-testid="timeline-event"][data-kind="torque"]');

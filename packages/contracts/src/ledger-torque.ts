@@ -6,14 +6,15 @@ import { TORQUE_NCM_RANGE } from '@torquetrail/domain';
 import { ComplicationKind, TimelineKind, TorqueReason, TorqueVerdict } from './enums.js';
 
 const torqueRangeMessage = `Torque must be between ${TORQUE_NCM_RANGE.min} and ${TORQUE_NCM_RANGE.max} N·cm`;
-const appliedNcm = z
+/** An applied torque, N·cm, within the accepted range. */
+export const AppliedNcm = z
   .number({ error: 'Enter the applied torque in N·cm' })
   .min(TORQUE_NCM_RANGE.min, torqueRangeMessage)
   .max(TORQUE_NCM_RANGE.max, torqueRangeMessage);
 
 export const TorqueBody = z.object({
   componentInstanceId: Id,
-  appliedNcm,
+  appliedNcm: AppliedNcm,
   wrenchId: Id.nullable().default(null),
   reason: TorqueReason,
   /** Defaults to now. */
@@ -25,7 +26,11 @@ export type TorqueBody = z.input<typeof TorqueBody>;
 
 /** The corrected reading; the wrench and the time, left out, are kept. */
 export const TorqueAmendmentBody = z.object({
-  ...keepingOmitted({ appliedNcm, wrenchId: Id.nullable().default(null), performedAt: IsoDateTime.optional() }),
+  ...keepingOmitted({
+    appliedNcm: AppliedNcm,
+    wrenchId: Id.nullable().default(null),
+    performedAt: IsoDateTime.optional(),
+  }),
   amendmentReason: NoteText(500).min(3, 'Say why the entry is amended'),
 });
 export type TorqueAmendmentBody = z.input<typeof TorqueAmendmentBody>;

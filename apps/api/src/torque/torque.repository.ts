@@ -1,8 +1,17 @@
-import { and, eq } from 'drizzle-orm';
+import { and, asc, eq, inArray, isNotNull, isNull } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { currentWrenchVersion } from '../db/catalogue-parts.js';
 import type { Db, Tx } from '../db/database.js';
-import { componentInstances, components, patients, torqueEvents, torqueWrenches, users } from '../db/schema/index.js';
+import {
+  componentInstances,
+  components,
+  implantSites,
+  patients,
+  restorations,
+  torqueEvents,
+  torqueWrenches,
+  users,
+} from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
 import { visiblePatients } from '../authz/visible-patients.js';
 import { insertAmendment, isCurrentVersion, supersededById } from '../db/amendments.js';
@@ -114,3 +123,66 @@ export async function insertTorqueEvent(db: Db, v: TorqueValues) {
 /** A new version of a torque entry; a second amendment of one version is refused by the database. */
 export const insertTorqueAmendment = (db: Db, v: TorqueValues & { supersedesId: string; amendmentReason: string }) =>
   insertAmendment(db, torqueEvents, v);
+
+/** A restoration whose patient the user may see: what seating its screws needs. */
+export async function findVisibleRestoration(db: Db, scope: Scope, id: string) {
+  const [row] = await db
+    .select({
+      id: restorations.id,
+      practiceId: restorations.practiceId,
+      patientId: restorations.patientId,
+      status: restorations.status,
+      deliveredOn: restorations.deliveredOn,
+    })
+    .from(restorations)
+    .innerJoin(patients, eq(patients.id, restorations.patientId))
+    .where(and(eq(restorations.id, id), visiblePatients(scope)));
+  return row ?? null;
+}
+
+/**
+ * The parts of a restoration in place with a torque specification (the current catalogue
+ * version of each, ADR 0006), from the first site to the last, implant outward.
+ */
+export async function listRestorationScrews(db: Db, restorationId: string) {
+  const installed = alias(components, 'installed');
+  return db
+    .select({
+      instanceId: componentInstances.id,
+      practiceId: componentInstances.practiceId,
+      patientId: componentInstances.patientId,
+      siteId: componentInstances.siteId,
+      fdi: implantSites.fdi,
+      kind: components.kind,
+      name: components.name,
+      referenceCode: components.referenceCode,
+      torqueSpecNcm: components.torqueSpecNcm,
+      tolerancePct: components.tolerancePct,
+    })
+    .from(componentInstances)
+    .innerJoin(installed, eq(installed.id, componentInstances.componentId))
+    .innerJoin(components, and(eq(components.lineageId, installed.lineageId), isCurrentVersion(components)))
+    .innerJoin(implantSites, eq(implantSites.id, componentInstances.siteId))
+    .where(
+      and(
+        eq(componentInstances.restorationId, restorationId),
+        isNull(componentInstances.removedOn),
+        isNotNull(components.torqueSpecNcm),
+      ),
+    )
+    .orderBy(asc(implantSites.fdi), asc(componentInstances.recordedAt), asc(componentInstances.id));
+}
+
+/** The current torque entries of some parts, oldest first: what seated them and when. */
+export async function currentTorqueOfInstances(db: Db, instanceIds: string[]) {
+  if (instanceIds.length === 0) return [];
+  return db
+    .select({
+      instanceId: torqueEvents.componentInstanceId,
+      reason: torqueEvents.reason,
+      performedAt: torqueEvents.performedAt,
+    })
+    .from(torqueEvents)
+    .where(and(inArray(torqueEvents.componentInstanceId, instanceIds), isCurrentVersion(torqueEvents)))
+    .orderBy(asc(torqueEvents.performedAt), asc(torqueEvents.recordedAt));
+}

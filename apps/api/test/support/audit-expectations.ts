@@ -51,6 +51,8 @@ export const AUDIT_EXPECTATIONS: Record<string, Audited | null> = {
   'GET /api/lab-prescriptions/:id/pdf': { action: 'export', patient: true },
   'POST /api/torque-events': create,
   'POST /api/torque-events/:id/amendments': amend,
+  'GET /api/restorations/:id/screws': read(),
+  'POST /api/restorations/:id/seat': create,
   'POST /api/complications': create,
   'POST /api/complications/:id/amendments': amend,
   'GET /api/sites/:id/timeline': read(),

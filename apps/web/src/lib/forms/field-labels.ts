@@ -119,6 +119,7 @@ export const FIELD_LABELS: Record<string, string> = {
   role: 'Role',
   row: 'Row',
   screwComponentIds: 'Screws',
+  screws: 'Screws',
   search: 'Search',
   seated: 'Seated',
   sex: 'Sex',
@@ -165,6 +166,7 @@ const FIELD_ITEM_NOUNS: Record<string, string> = {
   parts: 'part',
   points: 'point',
   screwComponentIds: 'screw',
+  screws: 'screw',
   siteIds: 'site',
   sites: 'site',
 };

@@ -2,7 +2,7 @@ import { Button, Callout, HTMLSelect, InputGroup } from '@blueprintjs/core';
 import { MANUFACTURER_CAUTION, type StackPart, TorqueBody, type TorqueReason } from '@torquetrail/contracts';
 import { TORQUE_NCM_RANGE, torqueVerdict } from '@torquetrail/domain';
 import { FormProvider, useWatch } from 'react-hook-form';
-import { TORQUE_REASON_LABEL, TORQUE_VERDICT_LABEL, WRENCH_TYPE_LABEL } from '../../../lib/clinical-labels';
+import { TORQUE_REASON_LABEL, TORQUE_VERDICT_LABEL } from '../../../lib/clinical-labels';
 import { localNow } from '../../../lib/dates';
 import {
   applyServerErrors,
@@ -14,13 +14,8 @@ import {
   withInputRef,
 } from '../../../lib/forms';
 import { useLogTorque } from '../api/log-torque';
-import { useWrenches } from '../api/wrenches';
-
-/** The entered local date and time as an instant; left as typed when it is no date, for the contract to refuse. */
-const instant = (local: string) => {
-  const d = new Date(local);
-  return Number.isNaN(d.getTime()) ? local : d.toISOString();
-};
+import { WrenchOptions } from './wrench-options';
+import { instant } from './local-instant';
 
 interface TorqueDraft {
   componentInstanceId: string;
@@ -59,7 +54,6 @@ export function TorqueForm({ siteId, parts, onDone }: { siteId: string; parts: S
     control: form.control,
     name: ['componentInstanceId', 'appliedNcm', 'reason'],
   });
-  const wrenches = useWrenches();
   const log = useLogTorque(siteId);
   const part = torqueable.find((p) => p.instanceId === instanceId);
 
@@ -127,13 +121,7 @@ export function TorqueForm({ siteId, parts, onDone }: { siteId: string; parts: S
         )}
         <FormField name="wrenchId" label="Wrench" labelFor="torque-wrench">
           <HTMLSelect id="torque-wrench" fill {...form.register('wrenchId')}>
-            <option value="">Not recorded</option>
-            {wrenches.data?.items.map((w) => (
-              <option key={w.id} value={w.id}>
-                {w.label} ({WRENCH_TYPE_LABEL[w.type].toLowerCase()}
-                {w.lastCalibratedOn ? `, calibrated ${w.lastCalibratedOn}` : ', calibration not recorded'})
-              </option>
-            ))}
+            <WrenchOptions />
           </HTMLSelect>
         </FormField>
         <FormField name="reason" label="Reason" labelFor="torque-reason">
