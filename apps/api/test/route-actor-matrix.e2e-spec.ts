@@ -651,6 +651,14 @@ const TABLE: Record<string, Case[]> = {
     { path: () => '/api/practice/session-settings', expect: every(200) },
     'own practice',
   ),
+  'PUT /api/practice/wrench-settings': one(
+    {
+      path: () => '/api/practice/wrench-settings',
+      body: () => ({ calibrationIntervalMonths: 12 }),
+      expect: adminOnly(200),
+    },
+    'own practice',
+  ),
   'PUT /api/practice/session-settings': one(
     { path: () => '/api/practice/session-settings', body: () => ({ idleSignOutMinutes: 15 }), expect: adminOnly(200) },
     'own practice',

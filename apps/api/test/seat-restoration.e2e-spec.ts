@@ -73,8 +73,27 @@ describe('seat restoration', () => {
     expect(before.status, JSON.stringify(before.body)).toBe(200);
     const screws = before.body.items as Screw[];
     expect(screws.map((s) => s.fdi)).toEqual([15, 16]);
-    // Delivered, never torqued: both seating torques are missing.
+    // Delivered, never torqued: both seating torques are missing, and the Stack and the Arch say so.
     expect(screws.map((s) => s.seatedAt)).toEqual([null, null]);
+    const flags = async () => ({
+      stack: await Promise.all(
+        [15, 16].map(async (fdi) =>
+          (await get('dentist', `/api/sites/${b.siteIds[fdi]}`)).body.parts.map(
+            (p: { seatingTorqueMissing?: boolean }) => p.seatingTorqueMissing,
+          ),
+        ),
+      ),
+      arch: (await get('dentist', `/api/patients/${b.patientId}`)).body.sites.map(
+        (s: { fdi: number; partsMissingSeatingTorque?: number }) => [s.fdi, s.partsMissingSeatingTorque],
+      ),
+    });
+    expect(await flags()).toEqual({
+      stack: [[true], [true]],
+      arch: [
+        [15, 1],
+        [16, 1],
+      ],
+    });
     const spec = screws[0].torqueSpecNcm;
     const over = spec * (1 + screws[1].tolerancePct / 100) + 2;
 
@@ -103,6 +122,13 @@ describe('seat restoration', () => {
       '2026-11-30T10:00:00.000Z',
       '2026-11-30T10:00:00.000Z',
     ]);
+    expect(await flags()).toEqual({
+      stack: [[false], [false]],
+      arch: [
+        [15, 0],
+        [16, 0],
+      ],
+    });
   });
 
   it('saves none when one screw is refused: all in one transaction', async () => {

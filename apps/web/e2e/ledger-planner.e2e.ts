@@ -114,6 +114,27 @@ describe('restorative dentist', () => {
       /manufacturer's instructions, the clinician's judgement and local regulations rule/,
     );
     expect(await seat.getByTestId('seat-spec').allTextContents()).toEqual(['32 N·cm ± 10 %', '32 N·cm ± 10 %']);
+
+    // Seated later: until then the Stack and the Arch flag the missing seating torque.
+    await seat.getByRole('button', { name: 'Later' }).click();
+    await expect.poll(() => card.getByTestId('seat-form').count()).toBe(0);
+    const restorationsPath = new URL(page.url()).pathname;
+    await card.getByRole('link', { name: 'Site 15' }).click();
+    await page.waitForURL(/\/sites\//);
+    await expect.poll(() => page.getByTestId('seating-torque-missing').count()).toBe(1);
+    await page.goto(restorationsPath.replace(/\/restorations$/, ''));
+    await expect.poll(() => page.getByTestId('arch-cell-15').getAttribute('data-seating-missing')).toBe('true');
+    expect(await page.getByTestId('arch-cell-15').getAttribute('aria-label')).toMatch(
+      /seating torque missing on one part/,
+    );
+    expect(await page.getByTestId('site-seating-torque').allTextContents()).toEqual([
+      'seating torque missing on one part',
+      'seating torque missing on one part',
+    ]);
+    await screenshot(page, 'arch-seating-torque-missing');
+    await page.goto(restorationsPath);
+    await page.getByTestId('seat-restoration-button').first().click();
+    await expect.poll(() => seat.getByTestId('seat-screw').count()).toBe(2);
     // Spec 32 N·cm ±10 % (demo catalogue, common practice): 32 is within, 36 over; judged live per screw.
     await seat.getByLabel(/^Applied torque at 15/).fill('32');
     await seat.getByLabel(/^Applied torque at 16/).fill('36');
@@ -132,8 +153,9 @@ describe('restorative dentist', () => {
     expect(await part.textContent()).toMatch(/Prosthetic screw, implant level/);
     expect(await part.textContent()).toMatch(/TEX-PSI-2612/);
     await expect.poll(() => part.textContent()).toMatch(/32 N·cm .*Initial seating.*Within specification/);
-    // Re-torque reminder after the initial seating (about 10 min, Siamos et al. 2002).
+    // Re-torque reminder after the initial seating (about 10 min, Siamos et al. 2002); seated, no flag.
     await expect.poll(() => page.getByTestId('retorque-due').count()).toBe(1);
+    expect(await page.getByTestId('seating-torque-missing').count()).toBe(0);
     const torqueEvents = page.locator('[data-testid="timeline-event"][data-kind="torque"]');
     await expect.poll(() => torqueEvents.count()).toBe(1);
     expect(await torqueEvents.first().textContent()).toMatch(/32 N·cm .*within specification/);

@@ -21,6 +21,11 @@ export const TorqueBody = z.object({
   performedAt: IsoDateTime.nullable().default(null),
   /** For 'screw-replaced': the lot of the new screw (required when the part requires lots). */
   replacementLot: PlainText(40).nullable().default(null),
+  /**
+   * A re-torque after settling earlier than the settling time is refused until the clinician
+   * confirms it (earlySettlingRetorque in @torquetrail/domain); the confirmation is stored.
+   */
+  confirmEarlySettling: z.boolean().default(false),
 });
 export type TorqueBody = z.input<typeof TorqueBody>;
 
@@ -46,6 +51,10 @@ export const TorqueEvent = z.object({
   reason: TorqueReason,
   wrenchId: Id.nullable(),
   wrenchLabel: z.string().nullable(),
+  /** The wrench's calibration was overdue (or never recorded) when the torque was recorded. */
+  wrenchCalibrationOverdue: z.boolean(),
+  /** A settling re-torque earlier than the settling time, confirmed by the clinician. */
+  earlySettlingConfirmed: z.boolean(),
   performedAt: IsoDateTime,
   recordedByName: z.string().nullable(),
   supersedesId: Id.nullable(),
@@ -103,6 +112,10 @@ export const TimelineEvent = z.object({
   code: z.string().nullable(),
   /** Torque entries: the applied value, N·cm. */
   appliedNcm: z.number().nullable(),
+  /** Torque entries: recorded with a wrench whose calibration was overdue (the verdict carries the flag). */
+  wrenchCalibrationOverdue: z.boolean().optional(),
+  /** Torque entries: an early settling re-torque the clinician confirmed. */
+  earlySettlingConfirmed: z.boolean().optional(),
   byName: z.string().nullable(),
   /** Radiograph, bone-level and seating-check entries: the radiograph to show and open. */
   radiographId: Id.nullable(),

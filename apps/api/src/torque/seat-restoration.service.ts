@@ -77,7 +77,7 @@ export class SeatRestorationService {
     for (const s of body.screws) assertCan(ability, 'create', 'TorqueEvent', byId.get(s.componentInstanceId), 'part');
     const performedAt = body.performedAt ? new Date(body.performedAt) : new Date();
     checkWhen(performedAt, 'performedAt');
-    const wrenchId = await currentWrench(this.db, restoration.practiceId, body.wrenchId);
+    const wrench = await currentWrench(this.db, restoration.practiceId, body.wrenchId, performedAt);
 
     const ids = await auditedTransaction(this.db, async (tx) => {
       const saved: string[] = [];
@@ -99,7 +99,7 @@ export class SeatRestorationService {
           verdict: torqueVerdict({ appliedNcm: s.appliedNcm, specNcm, tolerancePct: now.tolerancePct }),
           rulesVersion: RULES_VERSION,
           reason: 'initial-seating' as const,
-          wrenchId,
+          ...wrench,
           performedAt,
           recordedBy: user.id,
         };

@@ -1,4 +1,4 @@
-import { and, asc, eq, inArray, isNotNull, isNull } from 'drizzle-orm';
+import { and, asc, eq, inArray, isNotNull, isNull, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { currentWrenchVersion } from '../db/catalogue-parts.js';
 import type { Db, Tx } from '../db/database.js';
@@ -7,10 +7,12 @@ import {
   components,
   implantSites,
   patients,
+  practices,
   restorations,
   torqueEvents,
   torqueWrenches,
   users,
+  wrenchCalibrations,
 } from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
 import { visiblePatients } from '../authz/visible-patients.js';
@@ -57,6 +59,7 @@ export async function findVisibleTorqueEvent(db: Db, scope: Scope, id: string) {
       appliedNcm: torqueEvents.appliedNcm,
       wrenchId: torqueEvents.wrenchId,
       performedAt: torqueEvents.performedAt,
+      earlySettlingConfirmed: torqueEvents.earlySettlingConfirmed,
       supersededById: supersededById(torqueEvents),
     })
     .from(torqueEvents)
@@ -78,6 +81,8 @@ export async function loadTorqueEvent(db: Db, id: string) {
       reason: torqueEvents.reason,
       wrenchId: torqueEvents.wrenchId,
       wrenchLabel: torqueWrenches.label,
+      wrenchCalibrationOverdue: torqueEvents.wrenchCalibrationOverdue,
+      earlySettlingConfirmed: torqueEvents.earlySettlingConfirmed,
       performedAt: torqueEvents.performedAt,
       recordedByName: users.displayName,
       supersedesId: torqueEvents.supersedesId,
@@ -185,4 +190,20 @@ export async function currentTorqueOfInstances(db: Db, instanceIds: string[]) {
     .from(torqueEvents)
     .where(and(inArray(torqueEvents.componentInstanceId, instanceIds), isCurrentVersion(torqueEvents)))
     .orderBy(asc(torqueEvents.performedAt), asc(torqueEvents.recordedAt));
+}
+
+/**
+ * A wrench's latest calibration on or before `day` (YYYY-MM-DD) and its practice's calibration
+ * interval: what calibrationOverdue needs for a torque recorded that day.
+ */
+export async function wrenchCalibrationOn(db: Db, practiceId: string, lineageId: string, day: string) {
+  const [row] = await db
+    .select({
+      intervalMonths: practices.wrenchCalibrationIntervalMonths,
+      lastCalibratedOn: sql<string | null>`(select max(wc.calibrated_on)::text from ${wrenchCalibrations} wc
+        where wc.wrench_lineage_id = ${lineageId} and wc.calibrated_on <= ${day}::date)`,
+    })
+    .from(practices)
+    .where(eq(practices.id, practiceId));
+  return row;
 }

@@ -1,7 +1,7 @@
 import { Inject, Injectable } from '@nestjs/common';
 import type { AppAbility } from '@torquetrail/authz';
 import type { TorqueAmendmentBody, TorqueBody, TorqueEvent } from '@torquetrail/contracts';
-import { RULES_VERSION, torqueVerdict } from '@torquetrail/domain';
+import { earlySettlingRetorque, RETIGHTEN_AFTER_MINUTES, RULES_VERSION, torqueVerdict } from '@torquetrail/domain';
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
@@ -12,6 +12,8 @@ import { DB, type Database } from '../db/database.js';
 import { assertInPlace, checkWhen, currentWrench, torqueReply } from './torque-checks.js';
 import { fieldError } from '../common/field-error.js';
 import * as repo from './torque.repository.js';
+
+const minutesText = (n: number) => (n === 0 ? 'less than a minute' : `${n} minute${n === 1 ? '' : 's'}`);
 
 @Injectable()
 export class TorqueService {
@@ -42,7 +44,17 @@ export class TorqueService {
       });
     const performedAt = body.performedAt ? new Date(body.performedAt) : new Date();
     checkWhen(performedAt, 'performedAt');
-    const wrenchId = await currentWrench(this.db, part.practiceId, body.wrenchId);
+    const wrench = await currentWrench(this.db, part.practiceId, body.wrenchId, performedAt);
+    // A settling re-torque earlier than the settling time needs the clinician's confirmation (stored).
+    const early = earlySettlingRetorque(
+      body.reason,
+      performedAt,
+      await repo.currentTorqueOfInstances(this.db, [part.id]),
+    );
+    if (early && !body.confirmEarlySettling)
+      throw fieldError({
+        confirmEarlySettling: `This re-torque after settling comes ${minutesText(early.minutesAfter)} after the seating, earlier than the about ${RETIGHTEN_AFTER_MINUTES} minutes settling takes (Siamos et al. 2002). Confirm to record it anyway`,
+      });
     const replacing = body.reason === 'screw-replaced';
     if (replacing) {
       assertCan(ability, 'create', 'ComponentInstance', part, 'part');
@@ -81,7 +93,8 @@ export class TorqueService {
         verdict,
         rulesVersion: RULES_VERSION,
         reason: body.reason,
-        wrenchId,
+        ...wrench,
+        earlySettlingConfirmed: early !== null,
         performedAt,
         recordedBy: user.id,
       };
@@ -111,8 +124,15 @@ export class TorqueService {
     const appliedNcm = body.appliedNcm ?? old.appliedNcm;
     const performedAt = body.performedAt === undefined ? old.performedAt : new Date(body.performedAt);
     if (body.performedAt !== undefined) checkWhen(performedAt, 'performedAt');
-    const wrenchId =
-      body.wrenchId === undefined ? old.wrenchId : await currentWrench(this.db, old.practiceId, body.wrenchId);
+    // The wrench left out stays the version used then; its calibration is judged on the entry's day.
+    const wrench =
+      body.wrenchId === undefined
+        ? {
+            wrenchId: old.wrenchId,
+            wrenchCalibrationOverdue: (await currentWrench(this.db, old.practiceId, old.wrenchId, performedAt))
+              .wrenchCalibrationOverdue,
+          }
+        : await currentWrench(this.db, old.practiceId, body.wrenchId, performedAt);
     const verdict = torqueVerdict({
       appliedNcm,
       specNcm: old.specNcm,
@@ -129,7 +149,8 @@ export class TorqueService {
       verdict,
       rulesVersion: RULES_VERSION,
       reason: old.reason,
-      wrenchId,
+      ...wrench,
+      earlySettlingConfirmed: old.earlySettlingConfirmed,
       performedAt,
       supersedesId: old.id,
       amendmentReason: body.amendmentReason,

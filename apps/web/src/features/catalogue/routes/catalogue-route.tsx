@@ -1,5 +1,7 @@
 import '../components/catalogue.css';
-import { Button, Callout, HTMLTable, InputGroup } from '@blueprintjs/core';
+import { Button, Callout, HTMLTable, InputGroup, Tag } from '@blueprintjs/core';
+import { formatDate, localToday } from '../../../lib/dates';
+import { WrenchSettingsForm } from '../components/wrench-settings-form';
 import { useState } from 'react';
 import { Can, useAppAbility } from '../../../lib/ability';
 import { ErrorState } from '../../../lib/components/error-state';
@@ -28,6 +30,7 @@ function Wrenches() {
             <th>Wrench</th>
             <th>Type</th>
             <th>Last calibration</th>
+            <th>Calibration due</th>
           </tr>
         </thead>
         <tbody>
@@ -36,12 +39,13 @@ function Wrenches() {
               <td>{w.label}</td>
               <td>{WRENCH_TYPE_LABEL[w.type].toLowerCase()}</td>
               <td>
-                {w.lastCalibratedOn ?? 'not recorded'}
+                {w.lastCalibratedOn ? formatDate(w.lastCalibratedOn) : 'not recorded'}
                 <Can I="update" a="Wrench">
                   {' '}
                   <InputGroup
                     type="date"
                     aria-label={`New calibration date of ${w.label}`}
+                    max={localToday()}
                     value={dates[w.id] ?? ''}
                     onValueChange={(v) => setDates({ ...dates, [w.id]: v })}
                     style={{ width: '11em', display: 'inline-block' }}
@@ -55,10 +59,26 @@ function Wrenches() {
                   />
                 </Can>
               </td>
+              <td data-testid="wrench-due">
+                {w.calibrationDueOn ? formatDate(w.calibrationDueOn) : '—'}{' '}
+                {w.calibrationOverdue && (
+                  <Tag intent="warning" minimal icon="warning-sign">
+                    overdue
+                  </Tag>
+                )}
+              </td>
             </tr>
           ))}
         </tbody>
       </HTMLTable>
+      {save.isError && (
+        <Callout intent="danger" role="alert" compact data-testid="calibration-error">
+          {save.error.message}
+        </Callout>
+      )}
+      <Can I="update" a="Practice">
+        <WrenchSettingsForm months={wrenches.data.calibrationIntervalMonths} />
+      </Can>
       <Can I="create" a="Wrench">
         <AddWrenchForm />
       </Can>

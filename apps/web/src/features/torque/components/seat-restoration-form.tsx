@@ -2,7 +2,7 @@ import { Button, Callout, HTMLSelect, HTMLTable, InputGroup } from '@blueprintjs
 import { MANUFACTURER_CAUTION, type RestorationScrew, SeatRestorationBody } from '@torquetrail/contracts';
 import { formatTooth, TORQUE_NCM_RANGE, torqueVerdict } from '@torquetrail/domain';
 import { FormProvider, useWatch } from 'react-hook-form';
-import { COMPONENT_KIND_LABEL, formatTorqueSpec, TORQUE_VERDICT_LABEL } from '../../../lib/clinical-labels';
+import { formatTorqueSpec, TORQUE_VERDICT_LABEL } from '../../../lib/clinical-labels';
 import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
 import { formatDateTime, localNow } from '../../../lib/dates';
@@ -18,7 +18,7 @@ import {
 } from '../../../lib/forms';
 import { useToothSystem } from '../../../lib/tooth-system';
 import { useRestorationScrews, useSeatRestoration } from '../api/seat-restoration';
-import { WrenchOptions } from './wrench-options';
+import { WrenchCalibrationWarning, WrenchOptions } from './wrench-options';
 import { instant } from './local-instant';
 
 interface SeatDraft {
@@ -73,7 +73,7 @@ function SeatForm({
     performedAt: localNow(),
     screws: screws.map((s) => ({ componentInstanceId: s.instanceId, appliedNcm: null })),
   });
-  const applied = useWatch({ control: form.control, name: 'screws' });
+  const [applied, wrenchId] = useWatch({ control: form.control, name: ['screws', 'wrenchId'] });
   const seat = useSeatRestoration(restorationId);
   const submit = (body: SeatRestorationBody) =>
     seat.mutate(body, { onSuccess: onDone, onError: (error) => applyServerErrors(form.setError, error) });
@@ -109,7 +109,7 @@ function SeatForm({
                 <tr key={screw.instanceId} data-testid="seat-screw">
                   <td className="seat-form__nowrap">{formatTooth(screw.fdi, system)}</td>
                   <td>
-                    {COMPONENT_KIND_LABEL[screw.kind]} · {screw.name}
+                    {screw.name}
                     {screw.seatedAt && <div className="muted">Seated before on {formatDateTime(screw.seatedAt)}</div>}
                   </td>
                   <td className="seat-form__nowrap" data-testid="seat-spec">
@@ -139,6 +139,7 @@ function SeatForm({
             <WrenchOptions />
           </HTMLSelect>
         </FormField>
+        <WrenchCalibrationWarning wrenchId={wrenchId} />
         <FormField name="performedAt" label="Date and time (for every screw)" labelFor="seat-when">
           <InputGroup id="seat-when" type="datetime-local" {...withInputRef(form.register('performedAt'))} />
         </FormField>

@@ -1,4 +1,4 @@
-import { Button, Callout, HTMLSelect, InputGroup } from '@blueprintjs/core';
+import { Button, Callout, Checkbox, HTMLSelect, InputGroup } from '@blueprintjs/core';
 import { MANUFACTURER_CAUTION, type StackPart, TorqueBody, type TorqueReason } from '@torquetrail/contracts';
 import { TORQUE_NCM_RANGE, torqueVerdict } from '@torquetrail/domain';
 import { FormProvider, useWatch } from 'react-hook-form';
@@ -7,6 +7,7 @@ import { localNow } from '../../../lib/dates';
 import {
   applyServerErrors,
   draftSchema,
+  errorAt,
   FormField,
   formErrorMessage,
   NumberInput,
@@ -14,7 +15,7 @@ import {
   withInputRef,
 } from '../../../lib/forms';
 import { useLogTorque } from '../api/log-torque';
-import { WrenchOptions } from './wrench-options';
+import { WrenchCalibrationWarning, WrenchOptions } from './wrench-options';
 import { instant } from './local-instant';
 
 interface TorqueDraft {
@@ -25,6 +26,8 @@ interface TorqueDraft {
   /** Local date and time as typed (datetime-local). */
   performedAt: string;
   replacementLot: string;
+  /** Shown once the API warns that a settling re-torque comes early. */
+  confirmEarlySettling: boolean;
 }
 
 const schema = draftSchema(TorqueBody, (d: TorqueDraft) => ({
@@ -34,6 +37,7 @@ const schema = draftSchema(TorqueBody, (d: TorqueDraft) => ({
   reason: d.reason,
   performedAt: instant(d.performedAt),
   replacementLot: d.reason === 'screw-replaced' ? d.replacementLot || null : null,
+  confirmEarlySettling: d.confirmEarlySettling,
 }));
 
 /**
@@ -49,11 +53,14 @@ export function TorqueForm({ siteId, parts, onDone }: { siteId: string; parts: S
     reason: 'initial-seating',
     performedAt: localNow(),
     replacementLot: '',
+    confirmEarlySettling: false,
   });
-  const [instanceId, applied, reason] = useWatch({
+  const [instanceId, applied, reason, wrenchId, confirming] = useWatch({
     control: form.control,
-    name: ['componentInstanceId', 'appliedNcm', 'reason'],
+    name: ['componentInstanceId', 'appliedNcm', 'reason', 'wrenchId', 'confirmEarlySettling'],
   });
+  // The API's warning that a settling re-torque comes early: the clinician may confirm and save.
+  const earlyWarning = errorAt(form.formState.errors, 'confirmEarlySettling');
   const log = useLogTorque(siteId);
   const part = torqueable.find((p) => p.instanceId === instanceId);
 
@@ -124,6 +131,7 @@ export function TorqueForm({ siteId, parts, onDone }: { siteId: string; parts: S
             <WrenchOptions />
           </HTMLSelect>
         </FormField>
+        <WrenchCalibrationWarning wrenchId={wrenchId} />
         <FormField name="reason" label="Reason" labelFor="torque-reason">
           <HTMLSelect id="torque-reason" fill {...form.register('reason')}>
             {Object.entries(TORQUE_REASON_LABEL).map(([value, text]) => (
@@ -141,6 +149,15 @@ export function TorqueForm({ siteId, parts, onDone }: { siteId: string; parts: S
         <FormField name="performedAt" label="Date and time" labelFor="torque-when">
           <InputGroup id="torque-when" type="datetime-local" {...withInputRef(form.register('performedAt'))} />
         </FormField>
+        {(earlyWarning || confirming) && reason === 're-torque-after-settling' && (
+          <Callout intent="warning" icon="time" compact data-testid="early-settling-warning">
+            {earlyWarning && <p>{earlyWarning}.</p>}
+            <Checkbox
+              label="I confirm this early re-torque after settling (the confirmation is saved with the entry)"
+              {...withInputRef(form.register('confirmEarlySettling'))}
+            />
+          </Callout>
+        )}
         {formError && (
           <Callout intent="danger" role="alert" compact>
             {formError}
