@@ -21,6 +21,10 @@ describe('restorative dentist', () => {
   it('plans, fixes an error Finding, delivers and seats every screw of a splinted bridge 15–16', async () => {
     await h.reset(); // this test writes: a retry starts from the seed, not from the first attempt's plans
     const page = await h.newPage();
+    const refused: string[] = [];
+    page.on('response', (r) => {
+      if (r.status() === 400) refused.push(`${r.request().method()} ${new URL(r.url()).pathname}`);
+    });
     await signInAs(page, 'ines.calloway@larkspur.example');
     await page.getByTestId('patient-search').fill('Achterberg');
     await page
@@ -172,7 +176,10 @@ describe('restorative dentist', () => {
     expect(await torqueEvents.nth(1).textContent()).toMatch(/31 N·cm.*Amendment: Misread the wrench/);
     await expect.poll(() => part.textContent()).toMatch(/31 N·cm/);
     // The one 400 is the delivery refused for the missing lot, above.
-    expect(h.problems.filter((p) => /status of 400/.test(p))).toHaveLength(1);
+    expect(
+      h.problems.filter((p) => /status of 400/.test(p)),
+      JSON.stringify(refused),
+    ).toHaveLength(1);
     expect(unexpectedProblems(0, '400|401|404')).toEqual([]);
   });
 });

@@ -1,5 +1,6 @@
 import '../components/catalogue.css';
 import { Button, Callout, HTMLTable, InputGroup, Tag } from '@blueprintjs/core';
+import { isApiError } from '../../../lib/api-client';
 import { formatDate, localToday } from '../../../lib/dates';
 import { WrenchSettingsForm } from '../components/wrench-settings-form';
 import { useState } from 'react';
@@ -73,7 +74,8 @@ function Wrenches() {
       </HTMLTable>
       {save.isError && (
         <Callout intent="danger" role="alert" compact data-testid="calibration-error">
-          {save.error.message}
+          {/* The date's own sentence (e.g. a date in the future), else the reply's message. */}
+          {(isApiError(save.error) && save.error.fields.calibratedOn) || save.error.message}
         </Callout>
       )}
       <Can I="update" a="Practice">

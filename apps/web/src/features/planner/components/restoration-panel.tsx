@@ -19,6 +19,7 @@ import {
   RETENTION_LABEL,
 } from '../../../lib/clinical-labels';
 import { REMINDER_STATUS_LABEL } from '../../../lib/labels';
+import { useCloseOnEscape } from '../../../lib/use-close-on-escape';
 
 /** One restoration: what was planned, its Findings, delivery and lab prescriptions. */
 export function RestorationPanel({
@@ -33,6 +34,8 @@ export function RestorationPanel({
   const [delivering, setDelivering] = useState(false);
   // The delivery flow ends on the seating form: every screw's initial torque in one go.
   const [seating, setSeating] = useState(false);
+  useCloseOnEscape(delivering, () => setDelivering(false));
+  useCloseOnEscape(seating, () => setSeating(false));
   const lab = useLabPrescription(r);
   const current = !r.supersededById;
   return (
