@@ -1,6 +1,7 @@
 // An amendment changes what it names and nothing else: a field the amendment leaves out keeps the
 // amended entry's value (null clears it on purpose). The contract side of the rule is walked over
 // every amendment route in packages/contracts/src/amendment.test.ts; these check the services keep.
+import { apiRoutes } from '@torquetrail/contracts';
 import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { placements, torqueWrenches } from '../src/db/schema/index.js';
@@ -16,6 +17,30 @@ beforeAll(async () => {
 afterAll(() => ctx.close());
 
 const post = (path: string, body: object) => ctx.http.post(path).set('Cookie', dentist).send(body);
+
+/**
+ * Every amendment route and the test that amends one field of it and checks the others are kept.
+ * A new amendment route fails the walk below until it gets its case.
+ */
+const KEPT_FIELDS_CASES: Record<string, string> = {
+  'POST /torque-events/:id/amendments': 'this file: the wrench and the time of a torque entry',
+  'POST /complications/:id/amendments': 'this file: the part of a complication',
+  'POST /placements/:id/amendments': 'this file: a placement amendment',
+  'POST /restorations/:id/amendments': 'this file: a plan amendment',
+  'POST /recalls/exams/:id/amend': 'this file: an exam amendment',
+  'POST /seating-checks/:id/amendments': 'seating-checks.e2e-spec.ts: the note the amendment leaves out',
+  'POST /radiograph-measurements/:id/amendments': "radiographs.e2e-spec.ts: the implant's true length is kept",
+};
+
+describe('the walk of every amendment route', () => {
+  it('has a kept-fields case for each amendment route of the route list', () => {
+    const routes = apiRoutes
+      .filter((r) => /\/amend(ments)?$/.test(r.path))
+      .map((r) => `${r.method.toUpperCase()} ${r.path}`)
+      .sort();
+    expect(routes).toEqual(Object.keys(KEPT_FIELDS_CASES).sort());
+  });
+});
 
 describe('an amendment from a small form', () => {
   it('keeps the wrench and the time of a torque entry when only the reading is corrected', async () => {

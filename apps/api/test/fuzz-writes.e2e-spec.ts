@@ -128,6 +128,7 @@ const TARGETS: Record<string, { as: AccountKey | null; path: string }> = {
     path: `/api/patients/${t.ids.harold}/referral-summary/mails`,
   },
   'POST /torque-events': { as: 'dentist', path: '/api/torque-events' },
+  'POST /restorations/:id/seat': { as: 'dentist', path: `/api/restorations/${t.haroldBridge}/seat` },
   'POST /torque-events/:id/amendments': {
     as: 'dentist',
     path: `/api/torque-events/${await t.fresh.torque()}/amendments`,
@@ -153,6 +154,7 @@ const TARGETS: Record<string, { as: AccountKey | null; path: string }> = {
   'PUT /people/:id/role': { as: 'practice_admin', path: `/api/people/${await fuzzColleague()}/role` },
   'POST /people/:id/deactivation': { as: 'practice_admin', path: `/api/people/${await fuzzColleague()}/deactivation` },
   'PUT /practice/session-settings': { as: 'practice_admin', path: '/api/practice/session-settings' },
+  'PUT /practice/wrench-settings': { as: 'practice_admin', path: '/api/practice/wrench-settings' },
   'POST /patients/:id/shares': { as: 'dentist', path: `/api/patients/${await freshPatient()}/shares` },
   'POST /shares/:id/revoke': { as: 'dentist', path: `/api/shares/${await fuzzShare()}/revoke` },
   'PUT /auth/password': { as: 'dentist', path: '/api/auth/password' },

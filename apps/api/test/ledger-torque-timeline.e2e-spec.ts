@@ -112,6 +112,8 @@ describe('torque entry', () => {
       appliedNcm: 25,
       reason: 're-torque-after-settling',
       performedAt: new Date(seatedAt.getTime() + 60_000).toISOString(),
+      // One minute is earlier than the settling time: saved only as a confirmed early re-torque.
+      confirmEarlySettling: true,
     });
     expect((await siteFile(site)).parts[0].retorqueDueAt).toBeNull();
   });

@@ -235,7 +235,13 @@ describe('entered in error and measurements', () => {
       .set('Cookie', hygienist)
       .send({ points: { ...points, mesial: { row: 45, col: 21 } }, reason: 'Mesial contact re-marked' });
     expect(amended.status, JSON.stringify(amended.body)).toBe(201);
-    expect(amended.body).toMatchObject({ supersedesId: m.body.id, amendmentReason: 'Mesial contact re-marked' });
+    // Only the points are named: the implant's true length is kept (amendments keep what they leave out).
+    expect(amended.body).toMatchObject({
+      supersedesId: m.body.id,
+      amendmentReason: 'Mesial contact re-marked',
+      implantTrueMm: 10,
+      distalMm: m.body.distalMm,
+    });
     expect(amended.body.mesialMm).toBeCloseTo(2.0, 9);
     const twice = await ctx.http
       .post(`/api/radiograph-measurements/${m.body.id}/amendments`)

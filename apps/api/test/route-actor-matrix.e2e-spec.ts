@@ -483,6 +483,16 @@ const TABLE: Record<string, Case[]> = {
     }),
     expect: dentistWrite(201),
   }),
+  // Seat restoration: every screw of Harold's bridge at once; reading the screws is a read of the restoration.
+  'GET /api/restorations/:id/screws': one({
+    path: () => `/api/restorations/${haroldBridge}/screws`,
+    expect: sharedRead,
+  }),
+  'POST /api/restorations/:id/seat': one({
+    path: () => `/api/restorations/${haroldBridge}/seat`,
+    body: () => ({ wrenchId: wrench.id, screws: [{ componentInstanceId: haroldScrew.id, appliedNcm: 35 }] }),
+    expect: dentistWrite(201),
+  }),
   'POST /api/torque-events/:id/amendments': one({
     path: async () => `/api/torque-events/${await fresh.torque()}/amendments`,
     body: () => ({
@@ -639,6 +649,14 @@ const TABLE: Record<string, Case[]> = {
   ],
   'GET /api/practice/session-settings': one(
     { path: () => '/api/practice/session-settings', expect: every(200) },
+    'own practice',
+  ),
+  'PUT /api/practice/wrench-settings': one(
+    {
+      path: () => '/api/practice/wrench-settings',
+      body: () => ({ calibrationIntervalMonths: 12 }),
+      expect: adminOnly(200),
+    },
     'own practice',
   ),
   'PUT /api/practice/session-settings': one(

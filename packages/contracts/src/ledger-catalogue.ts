@@ -1,6 +1,6 @@
 // Component catalogue and torque wrenches: the practice admin edits, everyone in the practice reads.
 import { z } from 'zod';
-import { TORQUE_NCM_RANGE } from '@torquetrail/domain';
+import { CALIBRATION_INTERVAL_RANGE, TORQUE_NCM_RANGE } from '@torquetrail/domain';
 import { Id, IsoDate, IsoDateTime, NoteText, PlainText } from './common.js';
 import { ComponentKind, Connection, Tray, WrenchType } from './enums.js';
 
@@ -135,11 +135,29 @@ export const Wrench = z.object({
   type: WrenchType,
   /** The latest calibration in the wrench's history, if any. */
   lastCalibratedOn: IsoDate.nullable(),
+  /** When the latest calibration runs out (the practice's interval); null without a calibration. */
+  calibrationDueOn: IsoDate.nullable(),
+  /** Overdue today, or never calibrated (calibrationOverdue in @torquetrail/domain). */
+  calibrationOverdue: z.boolean(),
   /** Versions (ADR 0006): editing the label or type saves a new version. 1 = first. */
   version: z.number().int(),
 });
 export type Wrench = z.infer<typeof Wrench>;
-export const WrenchListReply = z.object({ items: z.array(Wrench) });
+export const WrenchListReply = z.object({
+  items: z.array(Wrench),
+  /** The practice's calibration interval, months. */
+  calibrationIntervalMonths: z.number().int(),
+});
+const intervalMessage = `A whole number of months from ${CALIBRATION_INTERVAL_RANGE.min} to ${CALIBRATION_INTERVAL_RANGE.max}`;
+/** The practice's wrench calibration interval (default 12 months [common practice]). */
+export const WrenchSettings = z.object({
+  calibrationIntervalMonths: z
+    .number({ error: 'Enter a number of months' })
+    .int({ error: intervalMessage })
+    .min(CALIBRATION_INTERVAL_RANGE.min, { error: intervalMessage })
+    .max(CALIBRATION_INTERVAL_RANGE.max, { error: intervalMessage }),
+});
+export type WrenchSettings = z.infer<typeof WrenchSettings>;
 export type WrenchListReply = z.infer<typeof WrenchListReply>;
 export const WrenchBody = z.object({
   label: name,

@@ -6,26 +6,36 @@ import { TORQUE_NCM_RANGE } from '@torquetrail/domain';
 import { ComplicationKind, TimelineKind, TorqueReason, TorqueVerdict } from './enums.js';
 
 const torqueRangeMessage = `Torque must be between ${TORQUE_NCM_RANGE.min} and ${TORQUE_NCM_RANGE.max} N·cm`;
-const appliedNcm = z
+/** An applied torque, N·cm, within the accepted range. */
+export const AppliedNcm = z
   .number({ error: 'Enter the applied torque in N·cm' })
   .min(TORQUE_NCM_RANGE.min, torqueRangeMessage)
   .max(TORQUE_NCM_RANGE.max, torqueRangeMessage);
 
 export const TorqueBody = z.object({
   componentInstanceId: Id,
-  appliedNcm,
+  appliedNcm: AppliedNcm,
   wrenchId: Id.nullable().default(null),
   reason: TorqueReason,
   /** Defaults to now. */
   performedAt: IsoDateTime.nullable().default(null),
   /** For 'screw-replaced': the lot of the new screw (required when the part requires lots). */
   replacementLot: PlainText(40).nullable().default(null),
+  /**
+   * A re-torque after settling earlier than the settling time is refused until the clinician
+   * confirms it (earlySettlingRetorque in @torquetrail/domain); the confirmation is stored.
+   */
+  confirmEarlySettling: z.boolean().default(false),
 });
 export type TorqueBody = z.input<typeof TorqueBody>;
 
 /** The corrected reading; the wrench and the time, left out, are kept. */
 export const TorqueAmendmentBody = z.object({
-  ...keepingOmitted({ appliedNcm, wrenchId: Id.nullable().default(null), performedAt: IsoDateTime.optional() }),
+  ...keepingOmitted({
+    appliedNcm: AppliedNcm,
+    wrenchId: Id.nullable().default(null),
+    performedAt: IsoDateTime.optional(),
+  }),
   amendmentReason: NoteText(500).min(3, 'Say why the entry is amended'),
 });
 export type TorqueAmendmentBody = z.input<typeof TorqueAmendmentBody>;
@@ -41,6 +51,10 @@ export const TorqueEvent = z.object({
   reason: TorqueReason,
   wrenchId: Id.nullable(),
   wrenchLabel: z.string().nullable(),
+  /** The wrench's calibration was overdue (or never recorded) when the torque was recorded. */
+  wrenchCalibrationOverdue: z.boolean(),
+  /** A settling re-torque earlier than the settling time, confirmed by the clinician. */
+  earlySettlingConfirmed: z.boolean(),
   performedAt: IsoDateTime,
   recordedByName: z.string().nullable(),
   supersedesId: Id.nullable(),
@@ -98,6 +112,10 @@ export const TimelineEvent = z.object({
   code: z.string().nullable(),
   /** Torque entries: the applied value, N·cm. */
   appliedNcm: z.number().nullable(),
+  /** Torque entries: recorded with a wrench whose calibration was overdue (the verdict carries the flag). */
+  wrenchCalibrationOverdue: z.boolean().optional(),
+  /** Torque entries: an early settling re-torque the clinician confirmed. */
+  earlySettlingConfirmed: z.boolean().optional(),
   byName: z.string().nullable(),
   /** Radiograph, bone-level and seating-check entries: the radiograph to show and open. */
   radiographId: Id.nullable(),

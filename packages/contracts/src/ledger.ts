@@ -19,6 +19,7 @@ import {
   WrenchBody,
   WrenchListReply,
   WrenchPatch,
+  WrenchSettings,
 } from './ledger-catalogue.js';
 import {
   DeliveryBody,
@@ -93,6 +94,10 @@ export const ledgerRoutes: RouteContract[] = [
   r('patch', '/wrenches/:id', "Edit a torque wrench's label or type: saves a new version (practice admin)", {
     body: WrenchPatch,
     reply: Wrench,
+  }),
+  r('put', '/practice/wrench-settings', "Set the practice's wrench calibration interval in months (practice admin)", {
+    body: WrenchSettings,
+    reply: WrenchSettings,
   }),
   r('get', '/wrenches/:id/calibrations', "A torque wrench's calibration history, newest first", {
     reply: CalibrationListReply,

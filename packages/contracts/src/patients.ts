@@ -46,6 +46,8 @@ export const ArchSite = z.object({
   maintenanceStatus: MaintenanceStatus,
   lastExamDate: IsoDate.nullable(),
   systemName: z.string().nullable(),
+  /** Parts in place whose seating torque is missing (see StackPart); absent where the role may not read torque. */
+  partsMissingSeatingTorque: z.number().int().optional(),
 });
 export type ArchSite = z.infer<typeof ArchSite>;
 

@@ -40,6 +40,8 @@ export const TorqueEventSummary = z.object({
   verdict: TorqueVerdict,
   reason: TorqueReason,
   performedAt: IsoDateTime,
+  /** Recorded with a wrench whose calibration was overdue: the verdict carries the flag. */
+  wrenchCalibrationOverdue: z.boolean().optional(),
 });
 export type TorqueEventSummary = z.infer<typeof TorqueEventSummary>;
 
@@ -65,6 +67,12 @@ export const StackPart = z.object({
    * is due (RETIGHTEN_AFTER_MINUTES after the seating).
    */
   retorqueDueAt: IsoDateTime.nullable().optional(),
+  /**
+   * The part has a torque specification and no seating torque was ever logged on it (initial
+   * seating or replacement): `seatingTorqueMissing` in @torquetrail/domain. Absent where the role
+   * may not read torque.
+   */
+  seatingTorqueMissing: z.boolean().optional(),
   /**
    * The part is shown as installed (name, spec and tolerance of that catalogue version, ADR 0006);
    * when the catalogue has been edited since, its current version, which new torque entries use.

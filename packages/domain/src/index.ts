@@ -151,7 +151,16 @@ export { TORQUE_VERDICTS, TORQUE_REASONS, TORQUE_NCM_RANGE } from './torque.js';
 export type { TorqueVerdict, TorqueReason, TorqueCheck } from './torque.js';
 /** When the re-torque after a seating is due (Siamos 2002), and the reasons that seat and re-tighten. */
 export { retorqueDueAt, SEATING_REASONS, RETORQUE_REASONS } from './retorque.js';
-export type { TorqueLogEntry } from './retorque.js';
+/** A part never seated by a logged torque; a settling re-torque logged before the settling time. */
+export { seatingTorqueMissing, earlySettlingRetorque } from './retorque.js';
+export type { TorqueLogEntry, EarlySettlingRetorque } from './retorque.js';
+/** Torque wrench calibration: the practice's interval (default 12 months [common practice]) and when it runs out. */
+export {
+  calibrationDueOn,
+  calibrationOverdue,
+  DEFAULT_CALIBRATION_INTERVAL_MONTHS,
+  CALIBRATION_INTERVAL_RANGE,
+} from './wrench-calibration.js';
 
 // ---- bone level ----------------------------------------------------------------------------
 /** Cumulative Albrektsson allowance after n years: 1.5 + 0.2 × (n − 1) mm. */

@@ -36,3 +36,39 @@ export function retorqueDueAt(entries: readonly TorqueLogEntry[]): string | null
   const retorqued = entries.some((e) => RETORQUE_REASONS.includes(e.reason) && e.performedAt >= seating.performedAt);
   return retorqued ? null : new Date(seating.performedAt.getTime() + RETIGHTEN_AFTER_MINUTES * 60_000).toISOString();
 }
+
+/**
+ * A part with a torque specification that has never been seated by a logged torque (neither an
+ * initial seating nor a replacement): its seating torque is missing [decision: a delivered screw
+ * whose seating was not recorded cannot be shown to have been tightened to its specification].
+ */
+export function seatingTorqueMissing(torqueSpecNcm: number | null, entries: readonly TorqueLogEntry[]): boolean {
+  return torqueSpecNcm !== null && !entries.some((e) => SEATING_REASONS.includes(e.reason));
+}
+
+/** A settling re-torque logged before RETIGHTEN_AFTER_MINUTES had passed since the seating it follows. */
+export interface EarlySettlingRetorque {
+  /** The seating the re-torque follows. */
+  seatedAt: Date;
+  /** Whole minutes between the seating and the re-torque. */
+  minutesAfter: number;
+}
+
+/**
+ * Whether a re-torque "after settling" at `performedAt` comes earlier than RETIGHTEN_AFTER_MINUTES
+ * after the latest seating at or before it (Siamos et al. 2002: settling needs about 10 minutes)
+ * [pub]; null when it does not, or when there is no such seating. Other reasons are never early.
+ */
+export function earlySettlingRetorque(
+  reason: TorqueReason,
+  performedAt: Date,
+  entries: readonly TorqueLogEntry[],
+): EarlySettlingRetorque | null {
+  if (reason !== 're-torque-after-settling') return null;
+  const seatings = entries.filter((e) => SEATING_REASONS.includes(e.reason) && e.performedAt <= performedAt);
+  if (seatings.length === 0) return null;
+  const seatedAt = new Date(Math.max(...seatings.map((e) => e.performedAt.getTime())));
+  const elapsedMs = performedAt.getTime() - seatedAt.getTime();
+  if (elapsedMs >= RETIGHTEN_AFTER_MINUTES * 60_000) return null;
+  return { seatedAt, minutesAfter: Math.floor(elapsedMs / 60_000) };
+}

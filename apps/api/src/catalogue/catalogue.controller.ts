@@ -1,6 +1,7 @@
-import { Body, Controller, Get, Param, ParseUUIDPipe, Patch, Post, HttpStatus } from '@nestjs/common';
+import { Body, Controller, Get, Param, ParseUUIDPipe, Patch, Post, Put, HttpStatus } from '@nestjs/common';
 import type { AppAbility } from '@torquetrail/authz';
 import {
+  WrenchSettings,
   type Calibration,
   CalibrationBody,
   type CalibrationListReply,
@@ -138,6 +139,15 @@ export class CatalogueController {
     @Body(new ZodValidationPipe(WrenchPatch)) body: WrenchPatch,
   ): Promise<Wrench> {
     return this.catalogue.updateWrench(ability, user, scopeOf(user), id, body);
+  }
+
+  @Put('practice/wrench-settings')
+  @Allow('update', 'Practice')
+  setWrenchSettings(
+    @CurrentUser() user: SessionUser,
+    @Body(new ZodValidationPipe(WrenchSettings)) body: WrenchSettings,
+  ): Promise<WrenchSettings> {
+    return this.catalogue.setWrenchSettings(scopeOf(user), body.calibrationIntervalMonths);
   }
 
   @Get('wrenches/:id/calibrations')

@@ -9,6 +9,7 @@ import {
   components,
   implantSystems,
   platforms,
+  practices,
   torqueWrenches,
   users,
   wrenchCalibrations,
@@ -238,4 +239,17 @@ export async function listCalibrations(db: Db, practiceId: string, wrenchLineage
     .leftJoin(recorder, eq(recorder.id, wrenchCalibrations.recordedBy))
     .where(and(eq(wrenchCalibrations.practiceId, practiceId), eq(wrenchCalibrations.wrenchLineageId, wrenchLineageId)))
     .orderBy(desc(wrenchCalibrations.calibratedOn), desc(wrenchCalibrations.recordedAt));
+}
+
+/** The practice's wrench calibration interval, months. */
+export async function findCalibrationInterval(db: Db, practiceId: string) {
+  const [row] = await db
+    .select({ months: practices.wrenchCalibrationIntervalMonths })
+    .from(practices)
+    .where(eq(practices.id, practiceId));
+  return row.months;
+}
+
+export async function setCalibrationInterval(db: Db, practiceId: string, months: number) {
+  await db.update(practices).set({ wrenchCalibrationIntervalMonths: months }).where(eq(practices.id, practiceId));
 }

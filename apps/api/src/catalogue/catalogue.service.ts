@@ -14,6 +14,7 @@ import {
   type Wrench,
   type WrenchListReply,
   type WrenchPatch,
+  type WrenchSettings,
   type Calibration,
   type CalibrationListReply,
   type ComponentVersionsReply,
@@ -29,6 +30,7 @@ import { fieldError } from '../common/field-error.js';
 import { reportChange } from '../common/audit-context.js';
 import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database, type Tx } from '../db/database.js';
+import { calibrationDueOn, calibrationOverdue } from '@torquetrail/domain';
 import * as repo from './catalogue.repository.js';
 
 type ComponentRow = Awaited<ReturnType<typeof repo.listComponents>>[number];
@@ -37,8 +39,13 @@ const toComponent = ({ practiceId: _p, lineageId: _l, versionedAt, ...c }: Compo
   versionedAt: versionedAt.toISOString(),
 });
 type WrenchRow = Awaited<ReturnType<typeof repo.listWrenches>>[number];
-const toWrench = ({ practiceId: _p, lineageId: _l, ...w }: WrenchRow): Wrench => w;
 const today = () => new Date().toISOString().slice(0, 10);
+/** A wrench as replied, with when its calibration runs out under the practice's interval. */
+const toWrench = ({ practiceId: _p, lineageId: _l, ...w }: WrenchRow, intervalMonths: number): Wrench => ({
+  ...w,
+  calibrationDueOn: w.lastCalibratedOn ? calibrationDueOn(w.lastCalibratedOn, intervalMonths) : null,
+  calibrationOverdue: calibrationOverdue(w.lastCalibratedOn, intervalMonths, today()),
+});
 
 @Injectable()
 export class CatalogueService {
@@ -261,14 +268,33 @@ export class CatalogueService {
   }
 
   async wrenches(scope: Scope): Promise<WrenchListReply> {
-    return { items: (await repo.listWrenches(this.db, scope.practiceId)).map(toWrench) };
+    const [rows, calibrationIntervalMonths] = await Promise.all([
+      repo.listWrenches(this.db, scope.practiceId),
+      repo.findCalibrationInterval(this.db, scope.practiceId),
+    ]);
+    return { items: rows.map((w) => toWrench(w, calibrationIntervalMonths)), calibrationIntervalMonths };
+  }
+
+  /** The practice's wrench calibration interval (months); wrenches are judged against it from now on. */
+  async setWrenchSettings(scope: Scope, calibrationIntervalMonths: number): Promise<WrenchSettings> {
+    await auditedTransaction(this.db, async (tx) => {
+      const before = await repo.findCalibrationInterval(tx, scope.practiceId);
+      await repo.setCalibrationInterval(tx, scope.practiceId, calibrationIntervalMonths);
+      reportChange({
+        type: 'Practice',
+        id: scope.practiceId,
+        before: { calibrationIntervalMonths: before },
+        after: { calibrationIntervalMonths },
+      });
+    });
+    return { calibrationIntervalMonths };
   }
 
   private async wrench(scope: Scope, id: string): Promise<Wrench> {
     const row = await repo.findWrench(this.db, scope.practiceId, id);
     if (!row) throw new Error(`wrench ${id} vanished`);
     const { supersededById: _s, ...w } = row;
-    return toWrench(w);
+    return toWrench(w, await repo.findCalibrationInterval(this.db, scope.practiceId));
   }
 
   async createWrench(

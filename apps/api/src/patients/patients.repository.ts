@@ -1,7 +1,18 @@
 import { and, asc, eq, ilike, isNotNull, isNull, or, sql, type SQL } from 'drizzle-orm';
 import type { ArchiveFilter } from '@torquetrail/contracts';
 import type { Db } from '../db/database.js';
-import { implantSites, implantSystems, patients, placements, platforms, practices, users } from '../db/schema/index.js';
+import {
+  componentInstances,
+  components,
+  implantSites,
+  implantSystems,
+  patients,
+  placements,
+  platforms,
+  practices,
+  torqueEvents,
+  users,
+} from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
 import { visiblePatients } from '../authz/visible-patients.js';
 import { isCurrentVersion } from '../db/amendments.js';
@@ -98,4 +109,31 @@ export async function listSitesOfPatient(db: Db, patientId: string) {
     .leftJoin(implantSystems, eq(implantSystems.id, platforms.systemId))
     .where(eq(implantSites.patientId, patientId))
     .orderBy(asc(implantSites.fdi));
+}
+
+/**
+ * The parts in place of a patient (with the specification they were installed with) and the
+ * current torque entries on them: what the Arch needs to flag a missing seating torque.
+ */
+export async function seatingOfPatientParts(db: Db, patientId: string) {
+  const [parts, torque] = await Promise.all([
+    db
+      .select({
+        instanceId: componentInstances.id,
+        siteId: componentInstances.siteId,
+        torqueSpecNcm: components.torqueSpecNcm,
+      })
+      .from(componentInstances)
+      .innerJoin(components, eq(components.id, componentInstances.componentId))
+      .where(and(eq(componentInstances.patientId, patientId), isNull(componentInstances.removedOn))),
+    db
+      .select({
+        instanceId: torqueEvents.componentInstanceId,
+        reason: torqueEvents.reason,
+        performedAt: torqueEvents.performedAt,
+      })
+      .from(torqueEvents)
+      .where(and(eq(torqueEvents.patientId, patientId), isCurrentVersion(torqueEvents))),
+  ]);
+  return { parts, torque };
 }

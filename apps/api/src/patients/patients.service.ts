@@ -5,7 +5,8 @@ import type { PatientDetail, PatientListQuery, PatientListReply } from '@torquet
 import { assertCan, type Scope } from '../authz/scope.js';
 import { DB, type Database } from '../db/database.js';
 import { MaintenanceStatusService } from '../recalls/maintenance-status.service.js';
-import { findVisiblePatient, listPatients, listSitesOfPatient } from './patients.repository.js';
+import { seatingTorqueMissing } from '@torquetrail/domain';
+import { findVisiblePatient, listPatients, listSitesOfPatient, seatingOfPatientParts } from './patients.repository.js';
 
 @Injectable()
 export class PatientsService {
@@ -39,7 +40,25 @@ export class PatientsService {
     const examined = sites.filter((s) =>
       ability.can('read', subject('RecallExam', { practiceId: s.practiceId, patientId: s.patientId, siteId: s.id })),
     );
-    const exams = await this.maintenance.latestBySite(examined.map((s) => s.id));
+    // Per site too: torque is read where the role may read both the parts and their torque.
+    const torqued = sites.filter((s) =>
+      (['ComponentInstance', 'TorqueEvent'] as const).every((type) =>
+        ability.can('read', subject(type, { practiceId: s.practiceId, patientId: s.patientId, siteId: s.id })),
+      ),
+    );
+    const [exams, seating] = await Promise.all([
+      this.maintenance.latestBySite(examined.map((s) => s.id)),
+      torqued.length > 0 ? seatingOfPatientParts(this.db, patient.id) : null,
+    ]);
+    const missing = new Map<string, number>();
+    for (const part of seating?.parts ?? [])
+      if (
+        seatingTorqueMissing(
+          part.torqueSpecNcm,
+          seating!.torque.filter((t) => t.instanceId === part.instanceId),
+        )
+      )
+        missing.set(part.siteId, (missing.get(part.siteId) ?? 0) + 1);
     return {
       id: patient.id,
       practiceId: patient.practiceId,
@@ -84,6 +103,7 @@ export class PatientsService {
         maintenanceStatus: exams.get(site.id)?.status ?? ('not-examined' as const),
         lastExamDate: exams.get(site.id)?.examinedOn ?? null,
         systemName: site.systemName,
+        partsMissingSeatingTorque: torqued.includes(site) ? (missing.get(site.id) ?? 0) : undefined,
       })),
     };
   }

@@ -133,6 +133,7 @@ const currentTorqueQuery = preparedFor((db) =>
       verdict: torqueEvents.verdict,
       reason: torqueEvents.reason,
       performedAt: torqueEvents.performedAt,
+      wrenchCalibrationOverdue: torqueEvents.wrenchCalibrationOverdue,
     })
     .from(torqueEvents)
     .innerJoin(componentInstances, eq(componentInstances.id, torqueEvents.componentInstanceId))
@@ -155,6 +156,7 @@ export type SiteTorque = {
   verdict: TorqueVerdict;
   reason: TorqueReason;
   performedAt: Date;
+  wrenchCalibrationOverdue: boolean;
 };
 
 /**

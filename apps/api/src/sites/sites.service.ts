@@ -1,7 +1,7 @@
 import { Inject, Injectable } from '@nestjs/common';
 import { type AppAbility, subject } from '@torquetrail/authz';
 import { STACK_ORDER, type SiteFile, type TimelineKind, type TimelineReply } from '@torquetrail/contracts';
-import { isRetrievable, retorqueDueAt } from '@torquetrail/domain';
+import { isRetrievable, retorqueDueAt, seatingTorqueMissing } from '@torquetrail/domain';
 import { assertCan, type Scope } from '../authz/scope.js';
 import { DB, type Database } from '../db/database.js';
 import { MaintenanceStatusService } from '../recalls/maintenance-status.service.js';
@@ -87,6 +87,12 @@ export class SitesService {
                   versionedAt: latest.versionedAt.toISOString(),
                 }
               : null,
+          seatingTorqueMissing: readTorque
+            ? seatingTorqueMissing(
+                part.torqueSpecNcm,
+                torque.filter((t) => t.instanceId === part.instanceId),
+              )
+            : undefined,
           retorqueDueAt:
             readTorque && part.torqueSpecNcm !== null
               ? retorqueDueAt(torque.filter((t) => t.instanceId === part.instanceId))
@@ -100,6 +106,7 @@ export class SitesService {
                 verdict: last.verdict,
                 reason: last.reason,
                 performedAt: last.performedAt.toISOString(),
+                wrenchCalibrationOverdue: last.wrenchCalibrationOverdue,
               }
             : null,
         };

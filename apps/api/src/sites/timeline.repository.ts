@@ -150,6 +150,8 @@ const torqueEventsOfSiteQuery = preparedFor((db) =>
       verdict: torqueEvents.verdict,
       reason: torqueEvents.reason,
       wrenchLabel: torqueWrenches.label,
+      wrenchCalibrationOverdue: torqueEvents.wrenchCalibrationOverdue,
+      earlySettlingConfirmed: torqueEvents.earlySettlingConfirmed,
       performedAt: torqueEvents.performedAt,
       recordedAt: torqueEvents.recordedAt,
       byName: users.displayName,

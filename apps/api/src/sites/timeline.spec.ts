@@ -30,6 +30,8 @@ const torque = (id: string, performedAt: string, amended = false) => ({
   verdict: 'within' as const,
   reason: 're-torque-at-recall' as const,
   wrenchLabel: null,
+  wrenchCalibrationOverdue: false,
+  earlySettlingConfirmed: false,
   performedAt: at(performedAt),
   recordedAt: at(amended ? '2020-01-01T00:00:00Z' : '2020-01-02T00:00:00Z'),
   byName: null,

@@ -184,7 +184,15 @@ export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: Timeli
       false,
       `${t.appliedNcm} N·cm on ${t.partName} (${text(t.reason)}): ${t.verdict}`,
       {
-        detail: `spec ${t.specNcm} N·cm ±${t.tolerancePct} %${t.wrenchLabel ? `, ${t.wrenchLabel}` : ''}`,
+        detail: [
+          `spec ${t.specNcm} N·cm ±${t.tolerancePct} %${t.wrenchLabel ? `, ${t.wrenchLabel}` : ''}`,
+          t.wrenchCalibrationOverdue ? 'wrench calibration overdue' : null,
+          t.earlySettlingConfirmed ? 'early re-torque confirmed by the clinician' : null,
+        ]
+          .filter(Boolean)
+          .join('; '),
+        wrenchCalibrationOverdue: t.wrenchCalibrationOverdue,
+        earlySettlingConfirmed: t.earlySettlingConfirmed,
         componentInstanceId: t.componentInstanceId,
         verdict: t.verdict,
         code: t.reason,

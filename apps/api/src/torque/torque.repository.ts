@@ -1,8 +1,19 @@
-import { and, eq } from 'drizzle-orm';
+import { and, asc, eq, inArray, isNotNull, isNull, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { currentWrenchVersion } from '../db/catalogue-parts.js';
 import type { Db, Tx } from '../db/database.js';
-import { componentInstances, components, patients, torqueEvents, torqueWrenches, users } from '../db/schema/index.js';
+import {
+  componentInstances,
+  components,
+  implantSites,
+  patients,
+  practices,
+  restorations,
+  torqueEvents,
+  torqueWrenches,
+  users,
+  wrenchCalibrations,
+} from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
 import { visiblePatients } from '../authz/visible-patients.js';
 import { insertAmendment, isCurrentVersion, supersededById } from '../db/amendments.js';
@@ -48,6 +59,7 @@ export async function findVisibleTorqueEvent(db: Db, scope: Scope, id: string) {
       appliedNcm: torqueEvents.appliedNcm,
       wrenchId: torqueEvents.wrenchId,
       performedAt: torqueEvents.performedAt,
+      earlySettlingConfirmed: torqueEvents.earlySettlingConfirmed,
       supersededById: supersededById(torqueEvents),
     })
     .from(torqueEvents)
@@ -69,6 +81,8 @@ export async function loadTorqueEvent(db: Db, id: string) {
       reason: torqueEvents.reason,
       wrenchId: torqueEvents.wrenchId,
       wrenchLabel: torqueWrenches.label,
+      wrenchCalibrationOverdue: torqueEvents.wrenchCalibrationOverdue,
+      earlySettlingConfirmed: torqueEvents.earlySettlingConfirmed,
       performedAt: torqueEvents.performedAt,
       recordedByName: users.displayName,
       supersedesId: torqueEvents.supersedesId,
@@ -114,3 +128,82 @@ export async function insertTorqueEvent(db: Db, v: TorqueValues) {
 /** A new version of a torque entry; a second amendment of one version is refused by the database. */
 export const insertTorqueAmendment = (db: Db, v: TorqueValues & { supersedesId: string; amendmentReason: string }) =>
   insertAmendment(db, torqueEvents, v);
+
+/** A restoration whose patient the user may see: what seating its screws needs. */
+export async function findVisibleRestoration(db: Db, scope: Scope, id: string) {
+  const [row] = await db
+    .select({
+      id: restorations.id,
+      practiceId: restorations.practiceId,
+      patientId: restorations.patientId,
+      status: restorations.status,
+      deliveredOn: restorations.deliveredOn,
+    })
+    .from(restorations)
+    .innerJoin(patients, eq(patients.id, restorations.patientId))
+    .where(and(eq(restorations.id, id), visiblePatients(scope)));
+  return row ?? null;
+}
+
+/**
+ * The parts of a restoration in place with a torque specification (the current catalogue
+ * version of each, ADR 0006), from the first site to the last, implant outward.
+ */
+export async function listRestorationScrews(db: Db, restorationId: string) {
+  const installed = alias(components, 'installed');
+  return db
+    .select({
+      instanceId: componentInstances.id,
+      practiceId: componentInstances.practiceId,
+      patientId: componentInstances.patientId,
+      siteId: componentInstances.siteId,
+      fdi: implantSites.fdi,
+      kind: components.kind,
+      name: components.name,
+      referenceCode: components.referenceCode,
+      torqueSpecNcm: components.torqueSpecNcm,
+      tolerancePct: components.tolerancePct,
+    })
+    .from(componentInstances)
+    .innerJoin(installed, eq(installed.id, componentInstances.componentId))
+    .innerJoin(components, and(eq(components.lineageId, installed.lineageId), isCurrentVersion(components)))
+    .innerJoin(implantSites, eq(implantSites.id, componentInstances.siteId))
+    .where(
+      and(
+        eq(componentInstances.restorationId, restorationId),
+        isNull(componentInstances.removedOn),
+        isNotNull(components.torqueSpecNcm),
+      ),
+    )
+    .orderBy(asc(implantSites.fdi), asc(componentInstances.recordedAt), asc(componentInstances.id));
+}
+
+/** The current torque entries of some parts, oldest first: what seated them and when. */
+export async function currentTorqueOfInstances(db: Db, instanceIds: string[]) {
+  if (instanceIds.length === 0) return [];
+  return db
+    .select({
+      instanceId: torqueEvents.componentInstanceId,
+      reason: torqueEvents.reason,
+      performedAt: torqueEvents.performedAt,
+    })
+    .from(torqueEvents)
+    .where(and(inArray(torqueEvents.componentInstanceId, instanceIds), isCurrentVersion(torqueEvents)))
+    .orderBy(asc(torqueEvents.performedAt), asc(torqueEvents.recordedAt));
+}
+
+/**
+ * A wrench's latest calibration on or before `day` (YYYY-MM-DD) and its practice's calibration
+ * interval: what calibrationOverdue needs for a torque recorded that day.
+ */
+export async function wrenchCalibrationOn(db: Db, practiceId: string, lineageId: string, day: string) {
+  const [row] = await db
+    .select({
+      intervalMonths: practices.wrenchCalibrationIntervalMonths,
+      lastCalibratedOn: sql<string | null>`(select max(wc.calibrated_on)::text from ${wrenchCalibrations} wc
+        where wc.wrench_lineage_id = ${lineageId} and wc.calibrated_on <= ${day}::date)`,
+    })
+    .from(practices)
+    .where(eq(practices.id, practiceId));
+  return row;
+}

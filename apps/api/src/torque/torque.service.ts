@@ -1,40 +1,23 @@
-import { ConflictException, Inject, Injectable } from '@nestjs/common';
+import { Inject, Injectable } from '@nestjs/common';
 import type { AppAbility } from '@torquetrail/authz';
 import type { TorqueAmendmentBody, TorqueBody, TorqueEvent } from '@torquetrail/contracts';
-import { RULES_VERSION, torqueVerdict } from '@torquetrail/domain';
+import { earlySettlingRetorque, RETIGHTEN_AFTER_MINUTES, RULES_VERSION, torqueVerdict } from '@torquetrail/domain';
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
 import { assertAmendable } from '../common/amendment-conflict.js';
 import { reportChange } from '../common/audit-context.js';
 import { auditedTransaction } from '../db/audited-transaction.js';
-import { DB, type Database, type Tx } from '../db/database.js';
+import { DB, type Database } from '../db/database.js';
+import { assertInPlace, checkWhen, currentWrench, torqueReply } from './torque-checks.js';
 import { fieldError } from '../common/field-error.js';
 import * as repo from './torque.repository.js';
 
-/** An entry may be a few minutes ahead of the server clock, never later. */
-const FUTURE_SLACK_MS = 5 * 60_000;
-
-function assertInPlace(part: { removedOn: string | null }) {
-  if (part.removedOn)
-    throw new ConflictException(`This part was removed on ${part.removedOn}; log the torque on the part in place`);
-}
+const minutesText = (n: number) => (n === 0 ? 'less than a minute' : `${n} minute${n === 1 ? '' : 's'}`);
 
 @Injectable()
 export class TorqueService {
   constructor(@Inject(DB) private readonly db: Database) {}
-
-  /** The current version of the wrench (new work, ADR 0006), or a 400 when it is not the practice's. */
-  private async currentWrench(db: Tx | Database, practiceId: string, wrenchId: string | null) {
-    if (!wrenchId) return null;
-    const wrench = await repo.findWrenchOfPractice(db, practiceId, wrenchId);
-    if (!wrench) throw fieldError({ wrenchId: 'Not a torque wrench of this practice' });
-    return wrench.id;
-  }
-
-  private checkWhen(performedAt: Date, field: string) {
-    if (performedAt.getTime() > Date.now() + FUTURE_SLACK_MS) throw fieldError({ [field]: 'Cannot be in the future' });
-  }
 
   /**
    * Logs a torque. The verdict comes from `torqueVerdict` with the spec and tolerance of the
@@ -60,8 +43,18 @@ export class TorqueService {
         componentInstanceId: `${part.name} is hand-tight: it has no torque specification in the catalogue`,
       });
     const performedAt = body.performedAt ? new Date(body.performedAt) : new Date();
-    this.checkWhen(performedAt, 'performedAt');
-    const wrenchId = await this.currentWrench(this.db, part.practiceId, body.wrenchId);
+    checkWhen(performedAt, 'performedAt');
+    const wrench = await currentWrench(this.db, part.practiceId, body.wrenchId, performedAt);
+    // A settling re-torque earlier than the settling time needs the clinician's confirmation (stored).
+    const early = earlySettlingRetorque(
+      body.reason,
+      performedAt,
+      await repo.currentTorqueOfInstances(this.db, [part.id]),
+    );
+    if (early && !body.confirmEarlySettling)
+      throw fieldError({
+        confirmEarlySettling: `This re-torque after settling comes ${minutesText(early.minutesAfter)} after the seating, earlier than the about ${RETIGHTEN_AFTER_MINUTES} minutes settling takes (Siamos et al. 2002). Confirm to record it anyway`,
+      });
     const replacing = body.reason === 'screw-replaced';
     if (replacing) {
       assertCan(ability, 'create', 'ComponentInstance', part, 'part');
@@ -100,7 +93,8 @@ export class TorqueService {
         verdict,
         rulesVersion: RULES_VERSION,
         reason: body.reason,
-        wrenchId,
+        ...wrench,
+        earlySettlingConfirmed: early !== null,
         performedAt,
         recordedBy: user.id,
       };
@@ -108,7 +102,7 @@ export class TorqueService {
       reportChange({ type: 'TorqueEvent', id: eventId, patientId: part.patientId, after: values });
       return eventId;
     });
-    return this.reply(id, replacing);
+    return torqueReply(this.db, id, replacing);
   }
 
   /** An amendment is a new row superseding the old one (spec and reason kept; the verdict recomputed). */
@@ -129,9 +123,16 @@ export class TorqueService {
     // What the amendment does not name stays as it was, the wrench included (the version used then).
     const appliedNcm = body.appliedNcm ?? old.appliedNcm;
     const performedAt = body.performedAt === undefined ? old.performedAt : new Date(body.performedAt);
-    if (body.performedAt !== undefined) this.checkWhen(performedAt, 'performedAt');
-    const wrenchId =
-      body.wrenchId === undefined ? old.wrenchId : await this.currentWrench(this.db, old.practiceId, body.wrenchId);
+    if (body.performedAt !== undefined) checkWhen(performedAt, 'performedAt');
+    // The wrench left out stays the version used then; its calibration is judged on the entry's day.
+    const wrench =
+      body.wrenchId === undefined
+        ? {
+            wrenchId: old.wrenchId,
+            wrenchCalibrationOverdue: (await currentWrench(this.db, old.practiceId, old.wrenchId, performedAt))
+              .wrenchCalibrationOverdue,
+          }
+        : await currentWrench(this.db, old.practiceId, body.wrenchId, performedAt);
     const verdict = torqueVerdict({
       appliedNcm,
       specNcm: old.specNcm,
@@ -148,7 +149,8 @@ export class TorqueService {
       verdict,
       rulesVersion: RULES_VERSION,
       reason: old.reason,
-      wrenchId,
+      ...wrench,
+      earlySettlingConfirmed: old.earlySettlingConfirmed,
       performedAt,
       supersedesId: old.id,
       amendmentReason: body.amendmentReason,
@@ -159,15 +161,6 @@ export class TorqueService {
       reportChange({ type: 'TorqueEvent', id: inserted, patientId: old.patientId, before: old, after: values });
       return inserted;
     });
-    return this.reply(newId, false);
-  }
-
-  private async reply(id: string, replacing: boolean): Promise<TorqueEvent> {
-    const e = await repo.loadTorqueEvent(this.db, id);
-    return {
-      ...e,
-      performedAt: e.performedAt.toISOString(),
-      replacementInstanceId: replacing ? e.componentInstanceId : null,
-    };
+    return torqueReply(this.db, newId, false);
   }
 }

@@ -51,6 +51,8 @@ export const AUDIT_EXPECTATIONS: Record<string, Audited | null> = {
   'GET /api/lab-prescriptions/:id/pdf': { action: 'export', patient: true },
   'POST /api/torque-events': create,
   'POST /api/torque-events/:id/amendments': amend,
+  'GET /api/restorations/:id/screws': read(),
+  'POST /api/restorations/:id/seat': create,
   'POST /api/complications': create,
   'POST /api/complications/:id/amendments': amend,
   'GET /api/sites/:id/timeline': read(),
@@ -106,6 +108,7 @@ export const AUDIT_EXPECTATIONS: Record<string, Audited | null> = {
   'POST /api/people/:id/deactivation': { action: 'role-change', patient: false },
   'GET /api/practice/session-settings': null,
   'PUT /api/practice/session-settings': { action: 'policy-change', patient: false },
+  'PUT /api/practice/wrench-settings': { action: 'policy-change', patient: false },
   // Shares (issue 12): the list names patients; every change is a share-change naming its patient.
   'GET /api/shares': read(false),
   'GET /api/patients/:id/shares': read(),

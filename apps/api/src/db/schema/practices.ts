@@ -1,5 +1,6 @@
 import { boolean, index, integer, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
 import { roleEnum } from './enums.js';
+import { DEFAULT_CALIBRATION_INTERVAL_MONTHS } from '@torquetrail/domain';
 
 export const practices = pgTable('practices', {
   id: uuid('id').primaryKey().defaultRandom(),
@@ -10,6 +11,13 @@ export const practices = pgTable('practices', {
   phone: text('phone'),
   email: text('email'),
   address: text('address'),
+  /**
+   * A torque wrench is overdue this many months after its latest calibration (the practice's own
+   * interval; DEFAULT_CALIBRATION_INTERVAL_MONTHS when it sets none).
+   */
+  wrenchCalibrationIntervalMonths: integer('wrench_calibration_interval_months')
+    .notNull()
+    .default(DEFAULT_CALIBRATION_INTERVAL_MONTHS),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 });
 

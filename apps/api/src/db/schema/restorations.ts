@@ -154,6 +154,10 @@ export const torqueEvents = pgTable(
     rulesVersion: text('rules_version').notNull(),
     reason: torqueReasonEnum('reason').notNull(),
     wrenchId: uuid('wrench_id').references(() => torqueWrenches.id),
+    /** The wrench's calibration was overdue when the torque was recorded: the verdict carries the flag. */
+    wrenchCalibrationOverdue: boolean('wrench_calibration_overdue').notNull().default(false),
+    /** A settling re-torque logged earlier than the settling time, which the clinician confirmed. */
+    earlySettlingConfirmed: boolean('early_settling_confirmed').notNull().default(false),
     performedAt: timestamp('performed_at', { withTimezone: true }).notNull(),
     supersedesId: uuid('supersedes_id'),
     amendmentReason: text('amendment_reason'),

@@ -41,10 +41,12 @@ export function ArchCellView({
   const crownDown = cell.arch === 'upper';
   const markerY = crownDown ? -h / 2 + 4 : h / 2 - 4;
   const ring = site ? MAINTENANCE_STYLE[site.maintenanceStatus] : null;
+  const seatingMissing = (site?.partsMissingSeatingTorque ?? 0) > 0;
 
   const classes = ['arch-cell', `arch-cell--${content.type}`];
   if (planned) classes.push('arch-cell--planned');
   if (struck) classes.push('arch-cell--struck');
+  if (seatingMissing) classes.push('arch-cell--seating-missing');
 
   return (
     <g
@@ -55,6 +57,7 @@ export function ArchCellView({
       aria-label={accessibleName}
       tabIndex={isTabStop ? 0 : -1}
       data-testid={`arch-cell-${cell.fdi}`}
+      data-seating-missing={seatingMissing || undefined}
       onKeyDown={onKeyDown}
       onFocus={onFocus}
       onClick={onOpen}
@@ -90,6 +93,18 @@ export function ArchCellView({
         >
           <circle r={5.5} fill="#fff" />
           <StatusShape status={site.maintenanceStatus} x={0} y={0} size={8} />
+        </g>
+      )}
+      {seatingMissing && (
+        // The flag for a part whose seating torque was never logged, opposite the status marker.
+        <g
+          className="arch-cell__seating-flag"
+          transform={`translate(${-w / 2 + 4} ${markerY}) rotate(${(-cell.rotation).toFixed(2)})`}
+        >
+          <circle r={6} />
+          <text y={3.5} textAnchor="middle">
+            !
+          </text>
         </g>
       )}
     </g>

@@ -42,6 +42,17 @@ export function ArchLegend() {
           glyph
           strike
         />
+        <li>
+          <svg width="40" height="24" viewBox="0 0 40 24" aria-hidden="true" focusable="false">
+            <g className="arch-cell__seating-flag" transform="translate(14 12)">
+              <circle r={6} />
+              <text y={3.5} textAnchor="middle">
+                !
+              </text>
+            </g>
+          </svg>
+          <span>Seating torque missing on a part (never logged)</span>
+        </li>
       </ul>
     </aside>
   );

@@ -19,6 +19,7 @@ export function describeCell(fdi: number, system: ToothSystem, content: CellCont
   const { site } = content;
   const parts = [number, SITE_STATUS_PHRASE[site.status], MAINTENANCE_STATUS_LABEL[site.maintenanceStatus]];
   if (site.lastExamDate) parts.push(`last exam ${formatLongDate(site.lastExamDate)}`);
+  if (site.partsMissingSeatingTorque) parts.push(seatingMissingPhrase(site.partsMissingSeatingTorque));
   return parts.join(', ');
 }
 
@@ -42,3 +43,7 @@ export function cellContents(
   }
   return contents;
 }
+
+/** "seating torque missing on 2 parts": a part with a torque specification never seated by a logged torque. */
+export const seatingMissingPhrase = (count: number) =>
+  `seating torque missing on ${count === 1 ? 'one part' : `${count} parts`}`;

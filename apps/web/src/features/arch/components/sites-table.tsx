@@ -1,4 +1,5 @@
 import { HTMLTable, Tag } from '@blueprintjs/core';
+import { seatingMissingPhrase } from './cell-description';
 import type { ArchSite } from '@torquetrail/contracts';
 import { formatTooth, TOOTH_POSITIONS_PERMANENT, TOOTH_POSITIONS_PRIMARY } from '@torquetrail/domain';
 import { Link } from 'react-router-dom';
@@ -29,6 +30,7 @@ export function SitesTable({ patientId, sites, system }: SitesTableProps) {
             <th scope="col">Maintenance status</th>
             <th scope="col">Last exam</th>
             <th scope="col">System</th>
+            <th scope="col">Seating torque</th>
           </tr>
         </thead>
         <tbody>
@@ -47,6 +49,17 @@ export function SitesTable({ patientId, sites, system }: SitesTableProps) {
               </td>
               <td>{site.lastExamDate ? formatDate(site.lastExamDate) : '—'}</td>
               <td>{site.systemName ?? '—'}</td>
+              <td data-testid="site-seating-torque">
+                {site.partsMissingSeatingTorque ? (
+                  <Tag minimal intent="warning" icon="warning-sign">
+                    {seatingMissingPhrase(site.partsMissingSeatingTorque)}
+                  </Tag>
+                ) : site.partsMissingSeatingTorque === 0 ? (
+                  'Logged'
+                ) : (
+                  '—'
+                )}
+              </td>
             </tr>
           ))}
         </tbody>

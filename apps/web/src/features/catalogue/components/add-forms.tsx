@@ -38,9 +38,11 @@ import {
 } from '../../../lib/forms';
 import { useSaveWrench } from '../../torque';
 import { useAddPlatform, useAddSystem, useSaveComponent } from '../api/catalogue-api';
+import { useCloseOnEscape } from '../../../lib/use-close-on-escape';
 
 function Toggle({ label, children }: { label: string; children: (close: () => void) => ReactNode }) {
   const [open, setOpen] = useState(false);
+  useCloseOnEscape(open, () => setOpen(false));
   return open ? (
     <div className="catalogue-add">{children(() => setOpen(false))}</div>
   ) : (

@@ -8,6 +8,7 @@ import { COMPONENT_KIND_LABEL, INTERFACE_LABEL, TRAY_LABEL } from '../../../lib/
 import { applyServerErrors, draftSchema, errorAt, FieldError, NumberInput, useContractForm } from '../../../lib/forms';
 import { useComponentVersions, useSaveComponent } from '../api/catalogue-api';
 import { formatDateTime } from '../../../lib/dates';
+import { useCloseOnEscape } from '../../../lib/use-close-on-escape';
 
 interface SpecDraft {
   torqueSpecNcm: number | null;
@@ -27,6 +28,7 @@ const schema = draftSchema(ComponentPatch, (d: SpecDraft) => ({
 export function ComponentRow({ part }: { part: CatalogueComponent }) {
   const [editing, setEditing] = useState(false);
   const [showHistory, setShowHistory] = useState(false);
+  useCloseOnEscape(editing, () => setEditing(false));
   const versions = useComponentVersions(part.id, showHistory);
   const form = useContractForm(schema, { torqueSpecNcm: part.torqueSpecNcm, tolerancePct: part.tolerancePct });
   const save = useSaveComponent();

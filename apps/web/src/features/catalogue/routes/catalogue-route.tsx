@@ -1,5 +1,7 @@
 import '../components/catalogue.css';
-import { Button, Callout, FormGroup, HTMLTable, InputGroup } from '@blueprintjs/core';
+import { Button, Callout, FormGroup, HTMLTable, InputGroup, Tag } from '@blueprintjs/core';
+import { isApiError } from '../../../lib/api-client';
+import { WrenchSettingsForm } from '../components/wrench-settings-form';
 import { useState } from 'react';
 import { Can, useAppAbility } from '../../../lib/ability';
 import { ErrorState } from '../../../lib/components/error-state';
@@ -31,6 +33,7 @@ function Wrenches() {
             <th>Wrench</th>
             <th>Type</th>
             <th>Last calibration</th>
+            <th>Calibration due</th>
           </tr>
         </thead>
         <tbody>
@@ -57,10 +60,27 @@ function Wrenches() {
                   />
                 </Can>
               </td>
+              <td data-testid="wrench-due">
+                {w.calibrationDueOn ? formatDate(w.calibrationDueOn) : '—'}{' '}
+                {w.calibrationOverdue && (
+                  <Tag intent="warning" minimal icon="warning-sign">
+                    overdue
+                  </Tag>
+                )}
+              </td>
             </tr>
           ))}
         </tbody>
       </HTMLTable>
+      {save.isError && (
+        <Callout intent="danger" role="alert" compact data-testid="calibration-error">
+          {/* The date's own sentence (e.g. a date in the future), else the reply's message. */}
+          {(isApiError(save.error) && save.error.fields.calibratedOn) || save.error.message}
+        </Callout>
+      )}
+      <Can I="update" a="Practice">
+        <WrenchSettingsForm months={wrenches.data.calibrationIntervalMonths} />
+      </Can>
       <Can I="create" a="Wrench">
         <AddWrenchForm />
       </Can>

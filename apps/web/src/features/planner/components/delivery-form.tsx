@@ -26,7 +26,14 @@ interface DeliveryDraft {
  * Delivery: every planned part that stays in the mouth (not the impression copings), each with
  * its lot number (required where the catalogue says so). Saved in one transaction by the API.
  */
-export function DeliveryForm({ restoration, onDone }: { restoration: RestorationDetail; onDone: () => void }) {
+export function DeliveryForm({
+  restoration,
+  onDone,
+}: {
+  restoration: RestorationDetail;
+  /** `true` once delivered: the flow goes on to the seating torques. */
+  onDone: (delivered: boolean) => void;
+}) {
   const rows = useMemo(
     () =>
       restoration.sites.flatMap((s) =>
@@ -49,7 +56,7 @@ export function DeliveryForm({ restoration, onDone }: { restoration: Restoration
   const submit = (body: DeliveryBody) =>
     deliver.mutate(
       { id: restoration.id, body },
-      { onSuccess: onDone, onError: (error) => applyServerErrors(form.setError, error) },
+      { onSuccess: () => onDone(true), onError: (error) => applyServerErrors(form.setError, error) },
     );
   const { errors } = form.formState;
   const message = formErrorMessage(errors, 'always');

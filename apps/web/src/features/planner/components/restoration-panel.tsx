@@ -8,6 +8,7 @@ import { formatDate, formatDateTime } from '../../../lib/dates';
 import type { ToothSystem } from '../../../lib/tooth-system';
 import { useLabPrescription } from '../api/planner-api';
 import { DeliveryForm } from './delivery-form';
+import { SeatRestorationForm } from '../../torque';
 import {
   FINDING_SEVERITY_LABEL,
   IMPRESSION_COPING_LABEL,
@@ -18,6 +19,7 @@ import {
   RETENTION_LABEL,
 } from '../../../lib/clinical-labels';
 import { REMINDER_STATUS_LABEL } from '../../../lib/labels';
+import { useCloseOnEscape } from '../../../lib/use-close-on-escape';
 
 /** One restoration: what was planned, its Findings, delivery and lab prescriptions. */
 export function RestorationPanel({
@@ -30,6 +32,10 @@ export function RestorationPanel({
   patientId: string;
 }) {
   const [delivering, setDelivering] = useState(false);
+  // The delivery flow ends on the seating form: every screw's initial torque in one go.
+  const [seating, setSeating] = useState(false);
+  useCloseOnEscape(delivering, () => setDelivering(false));
+  useCloseOnEscape(seating, () => setSeating(false));
   const lab = useLabPrescription(r);
   const current = !r.supersededById;
   return (
@@ -151,7 +157,28 @@ export function RestorationPanel({
               {lab.error.message}
             </Callout>
           )}
-          {delivering && r.status === 'planned' && <DeliveryForm restoration={r} onDone={() => setDelivering(false)} />}
+          {delivering && r.status === 'planned' && (
+            <DeliveryForm
+              restoration={r}
+              onDone={(delivered) => {
+                setDelivering(false);
+                setSeating(delivered);
+              }}
+            />
+          )}
+        </Can>
+      )}
+      {current && r.status === 'delivered' && (
+        <Can I="create" a="TorqueEvent">
+          {!seating && (
+            <Button
+              icon="wrench"
+              text="Seat restoration"
+              onClick={() => setSeating(true)}
+              data-testid="seat-restoration-button"
+            />
+          )}
+          {seating && <SeatRestorationForm restorationId={r.id} onDone={() => setSeating(false)} />}
         </Can>
       )}
       {r.status === 'delivered' && r.sites[0] && (

@@ -6,6 +6,7 @@ import { Can } from '../../../lib/ability';
 import { formatDateTime } from '../../../lib/dates';
 import { applyServerErrors, FormField, formErrorMessage, useContractForm, withInputRef } from '../../../lib/forms';
 import { useMarkEnteredInError } from '../api/radiographs-api';
+import { useCloseOnEscape } from '../../../lib/use-close-on-escape';
 
 /**
  * A radiograph filed to the wrong patient or site is never deleted: it is marked entered in error
@@ -14,6 +15,7 @@ import { useMarkEnteredInError } from '../api/radiographs-api';
 export function EnteredInErrorCard({ radiograph }: { radiograph: RadiographDetail }) {
   const mark = useMarkEnteredInError(radiograph.id);
   const [open, setOpen] = useState(false);
+  useCloseOnEscape(open, () => setOpen(false));
   const form = useContractForm<EnteredInErrorBody, EnteredInErrorBody>(EnteredInErrorBody, { reason: '' });
   const formError = formErrorMessage(form.formState.errors, 'alone');
   if (radiograph.enteredInError) {

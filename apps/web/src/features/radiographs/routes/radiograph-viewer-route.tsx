@@ -13,6 +13,7 @@ import { useRadiograph } from '../api/radiographs-api';
 import { EnteredInErrorCard } from '../components/entered-in-error-form';
 import { MeasureWorkspace } from '../components/measure-workspace';
 import { PreviewNotice } from '../components/preview-notice';
+import { useCloseOnEscape } from '../../../lib/use-close-on-escape';
 
 const ZOOM_STEP = 1.25;
 const mm = (v: number) => `${v.toFixed(2)} mm`;
@@ -29,6 +30,7 @@ export function RadiographViewerRoute() {
   const [contrast, setContrast] = useState(100);
   const [invert, setInvert] = useState(false);
   const [amending, setAmending] = useState<Measurement | null>(null);
+  useCloseOnEscape(amending !== null, () => setAmending(null));
 
   // The measuring form takes its site from the patient's sites as it first renders: it waits for
   // both, or it would keep an empty site and refuse every save with no field to show why.

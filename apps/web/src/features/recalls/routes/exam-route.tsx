@@ -32,6 +32,7 @@ import { useAmendExam, useCreateVisit, useExamContext } from '../api/recalls-api
 import { CaseDefinitions } from '../components/case-definitions';
 import { boneLevelSourceId, draftFromExam, emptyDraft, parseMm, type SiteDraft } from '../components/live-verdict';
 import { SiteExamCard } from '../components/site-exam-card';
+import { useCloseOnEscape } from '../../../lib/use-close-on-escape';
 
 const num = (text: string) => (text.trim() === '' ? null : (parseMm(text) ?? Number.NaN));
 
@@ -85,6 +86,7 @@ function ExamVisit({ data }: { data: ExamContext }) {
   const save = useCreateVisit();
   const [saved, setSaved] = useState<CreateVisitReply | null>(null);
   const [amending, setAmending] = useState<{ siteId: string; exam: RecallExam } | null>(null);
+  useCloseOnEscape(amending !== null, () => setAmending(null));
   const [amended, setAmended] = useState<RecallExam | null>(null);
   const mayAmend = useAppAbility().can('amend', 'RecallExam');
 

@@ -8,6 +8,7 @@ import { formatDate } from '../../../lib/dates';
 import { SHARE_SCOPE_LABEL, SHARE_STATUS_LABEL } from '../../../lib/labels';
 import { useRevokeShare } from '../api/shares-api';
 import { ChartNumber } from '../../../lib/components/chart-number';
+import { useCloseOnEscape } from '../../../lib/use-close-on-escape';
 
 const STATUS_INTENT = { active: 'success', ended: 'none', revoked: 'warning' } as const;
 
@@ -76,6 +77,7 @@ export function SharesTable({ shares, showPatient }: { shares: readonly Share[];
 function RevokeControl({ share }: { share: Share }) {
   const revoke = useRevokeShare();
   const [open, setOpen] = useState(false);
+  useCloseOnEscape(open, () => setOpen(false));
   const form = useContractForm(RevokeShareBody, { reason: '' });
   if (!open)
     return (

@@ -1,4 +1,4 @@
-import { Callout, Card } from '@blueprintjs/core';
+import { Callout, Card, Tag } from '@blueprintjs/core';
 import type { StackPart } from '@torquetrail/contracts';
 import { type ReactNode, useState } from 'react';
 import { formatDate, formatDateTime } from '../../../lib/dates';
@@ -52,12 +52,29 @@ export function StackPartCard({ part }: { part: StackPart }) {
   // The time the card was first shown: "due now" or "due at" (the Site file refetches after each entry).
   const [shownAt] = useState(() => Date.now());
   return (
-    <Card className="stack-card" data-testid="stack-part" compact>
+    <Card
+      className="stack-card"
+      data-testid="stack-part"
+      data-seating-missing={part.seatingTorqueMissing || undefined}
+      compact
+    >
       <h3 className="stack-card__title">
         <span className="stack-card__kind">{COMPONENT_KIND_LABEL[part.kind]}</span>
         <span>{part.name}</span>
       </h3>
       <FactList facts={facts} />
+      {part.seatingTorqueMissing && (
+        <Callout
+          intent="warning"
+          icon="warning-sign"
+          compact
+          className="stack-card__retorque"
+          data-testid="seating-torque-missing"
+        >
+          Seating torque missing: no initial seating torque was ever logged on this part, so nothing shows it was
+          tightened to its specification. Log it (Log torque, or Seat restoration for every screw at once).
+        </Callout>
+      )}
       {part.retorqueDueAt && (
         <Callout intent="warning" icon="time" compact className="stack-card__retorque" data-testid="retorque-due">
           Re-torque due {new Date(part.retorqueDueAt).getTime() <= shownAt ? 'now' : 'at'}{' '}
@@ -77,6 +94,11 @@ export function StackPartCard({ part }: { part: StackPart }) {
               )}
             </span>
             <TorqueVerdictTag verdict={last.verdict} />
+            {last.wrenchCalibrationOverdue && (
+              <Tag intent="warning" minimal icon="warning-sign" data-testid="calibration-overdue-flag">
+                wrench calibration overdue
+              </Tag>
+            )}
           </>
         ) : (
           <span className="muted">None recorded</span>

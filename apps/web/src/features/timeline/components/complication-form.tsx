@@ -15,6 +15,7 @@ import {
   withInputRef,
 } from '../../../lib/forms';
 import { useRecordComplication } from '../api/record-complication';
+import { useCloseOnEscape } from '../../../lib/use-close-on-escape';
 
 interface ComplicationDraft {
   kind: ComplicationKind;
@@ -27,6 +28,7 @@ interface ComplicationDraft {
 /** "Record complication": linked to the site and, optionally, one of its parts. */
 export function ComplicationPanel({ siteId, parts }: { siteId: string; parts: StackPart[] }) {
   const [open, setOpen] = useState(false);
+  useCloseOnEscape(open, () => setOpen(false));
   const schema = useMemo(
     () =>
       draftSchema(ComplicationBody, (d: ComplicationDraft) => ({

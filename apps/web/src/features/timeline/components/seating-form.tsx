@@ -25,6 +25,7 @@ import {
 import { RADIOGRAPH_KIND_LABEL } from '../../../lib/labels';
 import { useRadiographs } from '../../radiographs';
 import { type SeatingSave, useSaveSeating, useSeatingChecks } from '../api/seating';
+import { useCloseOnEscape } from '../../../lib/use-close-on-escape';
 
 interface SeatingDraft {
   /** '' = none chosen yet. */
@@ -172,6 +173,7 @@ function SeatingForm({
 
 function SeatingButton(target: Target) {
   const [open, setOpen] = useState(false);
+  useCloseOnEscape(open, () => setOpen(false));
   const checks = useSeatingChecks(target.restorationId);
   const current = checks.data?.items.find((c) => c.event === target.event && c.current) ?? null;
   return (

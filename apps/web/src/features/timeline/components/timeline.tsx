@@ -13,6 +13,7 @@ import { SeatingPanel } from './seating-form';
 import { Link } from 'react-router-dom';
 import { TORQUE_VERDICT_LABEL } from '../../../lib/clinical-labels';
 import { TIMELINE_KIND_LABEL } from '../../../lib/labels';
+import { useCloseOnEscape } from '../../../lib/use-close-on-escape';
 
 /** Icon per kind, in the order of the filter checkboxes. */
 const KIND_ICON: Record<TimelineKind, IconName> = {
@@ -49,6 +50,7 @@ function RadiographLink({ event, patientId }: { event: TimelineEvent; patientId:
 
 function EventRow({ event, siteId, patientId }: { event: TimelineEvent; siteId: string; patientId: string }) {
   const [amending, setAmending] = useState(false);
+  useCloseOnEscape(amending, () => setAmending(false));
   const amendable = !event.amended && (event.kind === 'torque' || event.kind === 'complication');
   const seatingEvent = !event.amended && (event.kind === 'delivery' || event.kind === 'impression') ? event.kind : null;
   return (

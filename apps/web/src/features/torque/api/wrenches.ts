@@ -5,6 +5,7 @@ import {
   type WrenchBody,
   WrenchListReply,
   type WrenchPatch,
+  WrenchSettings,
 } from '@torquetrail/contracts';
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { apiRequest } from '../../../lib/api-client';
@@ -36,6 +37,16 @@ export function useRecordCalibration() {
   return useMutation({
     mutationFn: ({ id, body }: { id: string; body: CalibrationBody }) =>
       apiRequest(`/api/wrenches/${id}/calibrations`, { method: 'POST', body, schema: Calibration }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: wrenchKeys.all }),
+  });
+}
+
+/** Admin: the practice's calibration interval; every wrench's due date and overdue flag follow it. */
+export function useSaveWrenchSettings() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (body: WrenchSettings) =>
+      apiRequest('/api/practice/wrench-settings', { method: 'PUT', body, schema: WrenchSettings }),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: wrenchKeys.all }),
   });
 }

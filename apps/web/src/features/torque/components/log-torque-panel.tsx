@@ -3,10 +3,12 @@ import type { StackPart } from '@torquetrail/contracts';
 import { useState } from 'react';
 import { Can } from '../../../lib/ability';
 import { TorqueForm } from './torque-form';
+import { useCloseOnEscape } from '../../../lib/use-close-on-escape';
 
 /** "Log torque": shown only to those who may record torque; opens the torque entry form inline. */
 export function LogTorquePanel({ siteId, parts }: { siteId: string; parts: StackPart[] }) {
   const [open, setOpen] = useState(false);
+  useCloseOnEscape(open, () => setOpen(false));
   return (
     <Can I="create" a="TorqueEvent">
       <Button

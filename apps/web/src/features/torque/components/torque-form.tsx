@@ -1,12 +1,13 @@
-import { Button, Callout, HTMLSelect, InputGroup } from '@blueprintjs/core';
+import { Button, Callout, Checkbox, HTMLSelect, InputGroup } from '@blueprintjs/core';
 import { MANUFACTURER_CAUTION, type StackPart, TorqueBody, type TorqueReason } from '@torquetrail/contracts';
 import { TORQUE_NCM_RANGE, torqueVerdict } from '@torquetrail/domain';
 import { FormProvider, useWatch } from 'react-hook-form';
-import { TORQUE_REASON_LABEL, TORQUE_VERDICT_LABEL, WRENCH_TYPE_LABEL } from '../../../lib/clinical-labels';
+import { TORQUE_REASON_LABEL, TORQUE_VERDICT_LABEL } from '../../../lib/clinical-labels';
 import { localNow } from '../../../lib/dates';
 import {
   applyServerErrors,
   draftSchema,
+  errorAt,
   FormField,
   DateField,
   formErrorMessage,
@@ -15,13 +16,8 @@ import {
   withInputRef,
 } from '../../../lib/forms';
 import { useLogTorque } from '../api/log-torque';
-import { useWrenches } from '../api/wrenches';
-
-/** The entered local date and time as an instant; left as typed when it is no date, for the contract to refuse. */
-const instant = (local: string) => {
-  const d = new Date(local);
-  return Number.isNaN(d.getTime()) ? local : d.toISOString();
-};
+import { WrenchCalibrationWarning, WrenchOptions } from './wrench-options';
+import { instant } from './local-instant';
 
 interface TorqueDraft {
   componentInstanceId: string;
@@ -32,6 +28,8 @@ interface TorqueDraft {
   performedOn: string;
   performedTime: string;
   replacementLot: string;
+  /** Shown once the API warns that a settling re-torque comes early. */
+  confirmEarlySettling: boolean;
 }
 
 const schema = draftSchema(TorqueBody, (d: TorqueDraft) => ({
@@ -41,6 +39,7 @@ const schema = draftSchema(TorqueBody, (d: TorqueDraft) => ({
   reason: d.reason,
   performedAt: instant(`${d.performedOn}T${d.performedTime}`),
   replacementLot: d.reason === 'screw-replaced' ? d.replacementLot || null : null,
+  confirmEarlySettling: d.confirmEarlySettling,
 }));
 
 /**
@@ -57,12 +56,14 @@ export function TorqueForm({ siteId, parts, onDone }: { siteId: string; parts: S
     performedOn: localNow().slice(0, 10),
     performedTime: localNow().slice(11, 16),
     replacementLot: '',
+    confirmEarlySettling: false,
   });
-  const [instanceId, applied, reason] = useWatch({
+  const [instanceId, applied, reason, wrenchId, confirming] = useWatch({
     control: form.control,
-    name: ['componentInstanceId', 'appliedNcm', 'reason'],
+    name: ['componentInstanceId', 'appliedNcm', 'reason', 'wrenchId', 'confirmEarlySettling'],
   });
-  const wrenches = useWrenches();
+  // The API's warning that a settling re-torque comes early: the clinician may confirm and save.
+  const earlyWarning = errorAt(form.formState.errors, 'confirmEarlySettling');
   const log = useLogTorque(siteId);
   const part = torqueable.find((p) => p.instanceId === instanceId);
 
@@ -130,15 +131,10 @@ export function TorqueForm({ siteId, parts, onDone }: { siteId: string; parts: S
         )}
         <FormField name="wrenchId" label="Wrench" labelFor="torque-wrench">
           <HTMLSelect id="torque-wrench" fill {...form.register('wrenchId')}>
-            <option value="">Not recorded</option>
-            {wrenches.data?.items.map((w) => (
-              <option key={w.id} value={w.id}>
-                {w.label} ({WRENCH_TYPE_LABEL[w.type].toLowerCase()}
-                {w.lastCalibratedOn ? `, calibrated ${w.lastCalibratedOn}` : ', calibration not recorded'})
-              </option>
-            ))}
+            <WrenchOptions />
           </HTMLSelect>
         </FormField>
+        <WrenchCalibrationWarning wrenchId={wrenchId} />
         <FormField name="reason" label="Reason" labelFor="torque-reason">
           <HTMLSelect id="torque-reason" fill {...form.register('reason')}>
             {Object.entries(TORQUE_REASON_LABEL).map(([value, text]) => (
@@ -160,6 +156,15 @@ export function TorqueForm({ siteId, parts, onDone }: { siteId: string; parts: S
             <InputGroup type="time" aria-label="Time" {...withInputRef(form.register('performedTime'))} />
           </div>
         </FormField>
+        {(earlyWarning || confirming) && reason === 're-torque-after-settling' && (
+          <Callout intent="warning" icon="time" compact data-testid="early-settling-warning">
+            {earlyWarning && <p>{earlyWarning}.</p>}
+            <Checkbox
+              label="I confirm this early re-torque after settling (the confirmation is saved with the entry)"
+              {...withInputRef(form.register('confirmEarlySettling'))}
+            />
+          </Callout>
+        )}
         {formError && (
           <Callout intent="danger" role="alert" compact>
             {formError}
