@@ -8,6 +8,7 @@ import { LoadingState } from '../../../lib/components/loading-state';
 import { formatDateTime, localNow } from '../../../lib/dates';
 import {
   applyServerErrors,
+  DateField,
   draftSchema,
   FieldError,
   FormField,
@@ -23,14 +24,15 @@ import { instant } from './local-instant';
 
 interface SeatDraft {
   wrenchId: string;
-  /** Local date and time as typed (datetime-local). */
-  performedAt: string;
+  /** Local date (YYYY-MM-DD from the app's date field) and time (HH:MM) as entered. */
+  performedOn: string;
+  performedTime: string;
   screws: { componentInstanceId: string; appliedNcm: number | null }[];
 }
 
 const schema = draftSchema(SeatRestorationBody, (d: SeatDraft) => ({
   wrenchId: d.wrenchId || null,
-  performedAt: instant(d.performedAt),
+  performedAt: instant(`${d.performedOn}T${d.performedTime}`),
   screws: d.screws.map((s) => ({ componentInstanceId: s.componentInstanceId, appliedNcm: s.appliedNcm ?? Number.NaN })),
 }));
 
@@ -70,7 +72,8 @@ function SeatForm({
   const [system] = useToothSystem();
   const form = useContractForm(schema, {
     wrenchId: '',
-    performedAt: localNow(),
+    performedOn: localNow().slice(0, 10),
+    performedTime: localNow().slice(11, 16),
     screws: screws.map((s) => ({ componentInstanceId: s.instanceId, appliedNcm: null })),
   });
   const [applied, wrenchId] = useWatch({ control: form.control, name: ['screws', 'wrenchId'] });
@@ -141,7 +144,11 @@ function SeatForm({
         </FormField>
         <WrenchCalibrationWarning wrenchId={wrenchId} />
         <FormField name="performedAt" label="Date and time (for every screw)" labelFor="seat-when">
-          <InputGroup id="seat-when" type="datetime-local" {...withInputRef(form.register('performedAt'))} />
+          {/* The date in the practice's format (lib/dates.ts); the time of day beside it. */}
+          <div className="torque-when">
+            <DateField id="seat-when" name="performedOn" aria-label="Date" />
+            <InputGroup type="time" aria-label="Time" {...withInputRef(form.register('performedTime'))} />
+          </div>
         </FormField>
         {formError && (
           <Callout intent="danger" role="alert" compact>
