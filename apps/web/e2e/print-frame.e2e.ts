@@ -97,3 +97,29 @@ describe('printed pages', () => {
     }
   });
 });
+
+describe('the practice contact', () => {
+  it('the administrator sets address, phone and e-mail; a wrong e-mail is refused beside the field', async () => {
+    await h.reset();
+    const admin = await h.newPage();
+    await signInAs(admin, 'odile.park@larkspur.example');
+    await admin.goto('/practice/contact');
+    await admin.getByRole('heading', { name: 'Practice contact' }).waitFor();
+    await admin.getByLabel('Address').fill('ul. Żółkiewskiego 7\n90-001 Łódź');
+    await admin.getByLabel('Phone').fill('+48 42 555 01 23');
+    await admin.getByLabel('E-mail').fill('not an address');
+    await admin.getByRole('button', { name: 'Save' }).click();
+    await admin.getByTestId('error-email').waitFor();
+    await admin.getByLabel('E-mail').fill('recepcja@larkspur-lane.example');
+    await admin.getByRole('button', { name: 'Save' }).click();
+    await admin.getByRole('status').filter({ hasText: 'Saved' }).waitFor();
+    const saved = await admin.request.get(`${h.baseUrl}/api/practice/contact`);
+    expect(await saved.json()).toEqual({
+      name: 'Larkspur Lane Dental',
+      address: 'ul. Żółkiewskiego 7\n90-001 Łódź',
+      phone: '+48 42 555 01 23',
+      email: 'recepcja@larkspur-lane.example',
+    });
+    await screenshot(admin, 'practice-contact');
+  });
+});

@@ -73,7 +73,9 @@ function ContactForm({ current }: { current: PracticeContact }) {
           <strong>{current.name}</strong>
         </p>
         <FormField name="address" label="Address" labelFor="practice-address" help="As it goes on an envelope.">
-          {(a11y) => <TextArea id="practice-address" rows={4} fill {...a11y} {...form.register('address')} />}
+          {(a11y) => (
+            <TextArea id="practice-address" rows={4} fill {...a11y} {...withInputRef(form.register('address'))} />
+          )}
         </FormField>
         <FormField name="phone" label="Phone" labelFor="practice-phone">
           {(a11y) => (
