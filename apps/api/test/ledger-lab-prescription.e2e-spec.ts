@@ -3,7 +3,7 @@
 import { PDFParse } from 'pdf-parse';
 import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { labPrescriptions } from '../src/db/schema/index.js';
+import { labPrescriptions, placements, practices } from '../src/db/schema/index.js';
 import { larkspurId, parts } from './support/ledger-fixtures.js';
 import type { LabPrescriptionSummary } from '@torquetrail/contracts';
 import { until } from './support/recalls.js';
@@ -87,9 +87,23 @@ describe('lab prescription', () => {
     // FDI 15 → Universal 4, FDI 16 → Universal 3 (HL7 ADA Universal table).
     expect(body).toContain('Site 15 (FDI) / 4 (Universal)');
     expect(body).toContain('Site 16 (FDI) / 3 (Universal)');
-    expect(body).toContain('Tessely EX (Tessely Medical), platform Tessely EX 4.1, 4.1 mm, external hex connection');
-    expect(body).toContain('Prosthetic screw, implant level [TEX-41-PSI]: 32 N·cm ±10 %');
+    // The implant's length beside its diameter (the lab orders the analog and checks the space by it).
+    const [length15] = await ctx.db
+      .select({ mm: placements.lengthMm })
+      .from(placements)
+      .where(eq(placements.siteId, await siteId(ctx.db, 'LL-1005', 15)));
     expect(body).toContain(
+      `Tessely EX (Tessely Medical), platform Tessely EX 4.1, 4.1 × ${length15.mm} mm (diameter × length), external hex connection`,
+    );
+    // The prescription number the lab quotes, and the practice's address and phone to quote it to.
+    expect(made.body.number).toBe(row.number);
+    expect(body).toContain(`Prescription no. ${row.number}`);
+    const [practice] = await ctx.db.select().from(practices).where(eq(practices.id, row.practiceId));
+    for (const line of practice.address!.split('\n')) expect(body).toContain(line.trim());
+    expect(body).toContain(`Phone ${practice.phone}`);
+    expect(body).toContain('Prosthetic screw, implant level [TEX-41-PSI]: 32 N·cm ±10 %');
+    // A long line may wrap after a hyphen of a reference code: joined again before comparing.
+    expect(body.replace(/(\[[A-Z0-9-]*-) /g, '$1')).toContain(
       'Impression technique: non-engaging coping; Impression coping, non-engaging, open tray [TEX-41-ICN-O]',
     );
     expect(body).toContain('copings splinted together before the impression');
@@ -146,6 +160,27 @@ describe('lab prescription', () => {
     expect(await rows()).toBe(before + 1);
     const next = await ctx.http.post(`/api/restorations/${planId}/lab-prescriptions`).set('Cookie', dentist).send({});
     expect(next.body.id).toBe(revised.body.id);
+  });
+
+  it('two presses at once write one prescription; a revision gets the next number', async () => {
+    const plan = await ctx.http
+      .get(`/api/patients/${await patientId(ctx.db, 'LL-1001')}/restorations`)
+      .set('Cookie', dentist);
+    const id = plan.body.items[0].id as string;
+    const count = async () =>
+      (await ctx.db.select().from(labPrescriptions).where(eq(labPrescriptions.restorationId, id))).length;
+    const before = await count();
+    const [a, b] = await Promise.all(
+      [1, 2].map(() => ctx.http.post(`/api/restorations/${id}/lab-prescriptions`).set('Cookie', dentist).send({})),
+    );
+    expect([a.status, b.status]).toEqual([201, 201]);
+    expect(a.body.id).toBe(b.body.id);
+    expect(await count()).toBe(before === 0 ? 1 : before);
+    const revised = await ctx.http
+      .post(`/api/restorations/${id}/lab-prescriptions`)
+      .set('Cookie', dentist)
+      .send({ revise: true });
+    expect(revised.body.number).toBeGreaterThan(a.body.number as number);
   });
 
   it('refuses to e-mail a plan without a lab address (400 on emailToLab)', async () => {

@@ -663,6 +663,15 @@ const TABLE: Record<string, Case[]> = {
     { path: () => '/api/practice/session-settings', body: () => ({ idleSignOutMinutes: 15 }), expect: adminOnly(200) },
     'own practice',
   ),
+  'GET /api/practice/contact': one({ path: () => '/api/practice/contact', expect: every(200) }, 'own practice'),
+  'PUT /api/practice/contact': one(
+    {
+      path: () => '/api/practice/contact',
+      body: () => ({ address: '14 Larkspur Lane, Eastbridge', phone: '+44 20 7946 0123', email: null }),
+      expect: adminOnly(200),
+    },
+    'own practice',
+  ),
   // Shares (issue 12): the dentist shares and revokes, the practice admin reads; a surgeon never
   // sees the sharing side, and another practice's patient or share reads like a missing one.
   'GET /api/shares': one(

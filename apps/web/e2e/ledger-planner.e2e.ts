@@ -91,7 +91,13 @@ describe('restorative dentist', () => {
 
     // The lab prescription: generated on the server, listed with a download link serving the PDF.
     await card.getByTestId('make-lab-pdf').click();
-    await expect.poll(() => card.getByTestId('lab-pdf-link').count()).toBe(1);
+    await expect.poll(() => card.getByTestId('lab-pdf-link').count(), { timeout: 15_000 }).toBe(1);
+    // Pressing again opens the same prescription (the PDF downloads), never a second one.
+    const download = page.waitForEvent('download');
+    await card.getByTestId('make-lab-pdf').click();
+    expect((await download).suggestedFilename()).toMatch(/^lab-prescription-.*\.pdf$/);
+    expect(await card.getByTestId('lab-pdf-link').count()).toBe(1);
+    expect(await card.getByTestId('lab-pdf-link').textContent()).toMatch(/^Lab prescription no\. \d+ of /);
     const href = await card.getByTestId('lab-pdf-link').getAttribute('href');
     const pdf = await page.evaluate(async (url) => {
       const r = await fetch(url!);

@@ -52,6 +52,7 @@ export const IMPORT_OPTIONAL_COLUMNS = [
   'bone_level_mm',
   'mobility',
   'notes',
+  'restoration_ref',
 ] as const;
 export const IMPORT_COLUMNS = [...IMPORT_REQUIRED_COLUMNS, ...IMPORT_OPTIONAL_COLUMNS] as const;
 export type ImportColumn = (typeof IMPORT_COLUMNS)[number];
@@ -98,6 +99,8 @@ export const ImportDeliveryRow = ImportRowCommon.extend({
   retention: Retention,
   material: Material,
   interface: InterfaceKind.default('engaging'),
+  /** Tells apart two bridges of one patient delivered on the same day (docs/import.md, "Bridges"). */
+  restorationRef: PlainText(40).nullable(),
 });
 
 export const ImportPartRow = ImportRowCommon.extend({

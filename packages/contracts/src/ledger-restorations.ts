@@ -144,6 +144,8 @@ export type RestorationSiteDetail = z.infer<typeof RestorationSiteDetail>;
 
 export const LabPrescriptionSummary = z.object({
   id: Id,
+  /** The prescription number printed on the sheet (the lab quotes it). */
+  number: z.number().int(),
   sizeBytes: z.number().int(),
   /** The last e-mail SMTP accepted for this prescription. */
   emailedTo: z.string().nullable(),

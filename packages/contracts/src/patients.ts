@@ -53,8 +53,8 @@ export type ArchSite = z.infer<typeof ArchSite>;
 
 // ---- the patient's record, as the forms edit it -------------------------------------------------
 const name = (what: string) => PlainText(100).min(1, { error: `Enter the ${what}` });
-const Email = z.email({ error: 'Enter a valid e-mail address, e.g. name@example.com' }).max(254);
-const Phone = PlainText(30).regex(/^\+?[0-9][0-9 ()./-]{3,28}[0-9]$/, {
+export const Email = z.email({ error: 'Enter a valid e-mail address, e.g. name@example.com' }).max(254);
+export const Phone = PlainText(30).regex(/^\+?[0-9][0-9 ()./-]{3,28}[0-9]$/, {
   error: 'Enter a phone number: digits, spaces and + ( ) - . / only',
 });
 /** A chart number as typed: letters, digits and . / - (no spaces), at most 20 characters. */

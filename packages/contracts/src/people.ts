@@ -1,6 +1,7 @@
 // People and sign-in: the practice's users and invitations, passwords, resets and session settings.
 import { z } from 'zod';
-import { Id, IsoDateTime, PlainText } from './common.js';
+import { Id, IsoDateTime, NoteText, PlainText } from './common.js';
+import { Email, Phone } from './patients.js';
 import { InvitationStatus, Role } from './enums.js';
 import { NewPassword, PASSWORD_MAX_LENGTH, refinePasswordWithEmail } from './password.js';
 import type { RouteContract } from './route-contract.js';
@@ -64,6 +65,20 @@ export const SessionSettings = z.object({
     }),
 });
 export type SessionSettings = z.infer<typeof SessionSettings>;
+
+/**
+ * How patients and colleagues reach the practice: printed on the implant passport, the retrieval
+ * card, the referral summary and the lab prescription. Set by the practice administrator; a
+ * field left empty is null (the documents then say it is not recorded).
+ */
+export const PracticeContactBody = z.object({
+  address: NoteText(300).min(1, { error: 'Enter the address, or leave it empty' }).nullable(),
+  phone: Phone.nullable(),
+  email: Email.nullable(),
+});
+export type PracticeContactBody = z.infer<typeof PracticeContactBody>;
+export const PracticeContact = PracticeContactBody.extend({ name: z.string() });
+export type PracticeContact = z.infer<typeof PracticeContact>;
 
 export const LinkTokenBody = z.object({ token: LinkToken });
 export type LinkTokenBody = z.infer<typeof LinkTokenBody>;
@@ -173,6 +188,21 @@ export const peopleRoutes: RouteContract[] = [
     signedIn: true,
     body: SessionSettings,
     reply: SessionSettings,
+  },
+  {
+    method: 'get',
+    path: '/practice/contact',
+    summary: "The practice's name, address, phone and e-mail, as its documents print them",
+    signedIn: true,
+    reply: PracticeContact,
+  },
+  {
+    method: 'put',
+    path: '/practice/contact',
+    summary: "Set the practice's address, phone and e-mail (practice administrator; audited)",
+    signedIn: true,
+    body: PracticeContactBody,
+    reply: PracticeContact,
   },
   {
     method: 'post',

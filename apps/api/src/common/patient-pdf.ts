@@ -1,7 +1,7 @@
 // A pdfkit document for pages that carry patient data: every page gets the same header (patient,
 // chart number, date of birth, practice) and footer (who printed it, when, page n of m), so a
 // page that comes loose from the rest still says whose it is and where it came from.
-import PDFDocument from 'pdfkit';
+import { FONT, notoPdfDocument, pdfBytes } from './pdf-document.js';
 
 export interface PatientPdfFrame {
   title: string;
@@ -18,18 +18,13 @@ const PDF_MARGIN = 50;
 
 /** The document and the call that draws every page's frame and returns the bytes. */
 export function patientPdf(frame: PatientPdfFrame): { doc: PDFKit.PDFDocument; finish: () => Promise<Buffer> } {
-  const doc = new PDFDocument({
+  const doc = notoPdfDocument({
     size: 'A4',
     margins: { top: PDF_MARGIN + 22, bottom: PDF_MARGIN + 10, left: PDF_MARGIN, right: PDF_MARGIN },
     bufferPages: true,
     info: { Title: `${frame.title} ${frame.chartNumber}`, Author: frame.practiceName },
   });
-  const chunks: Buffer[] = [];
-  const done = new Promise<Buffer>((resolve, reject) => {
-    doc.on('data', (c: Buffer) => chunks.push(c));
-    doc.on('end', () => resolve(Buffer.concat(chunks)));
-    doc.on('error', reject);
-  });
+  const done = pdfBytes(doc);
   const finish = () => {
     const { start, count } = doc.bufferedPageRange();
     const header = `${frame.patientName} · chart ${frame.chartNumber} · born ${frame.birthDate} · ${frame.practiceName}`;
@@ -40,7 +35,7 @@ export function patientPdf(frame: PatientPdfFrame): { doc: PDFKit.PDFDocument; f
       const { top, bottom } = doc.page.margins;
       doc.page.margins.top = 0;
       doc.page.margins.bottom = 0;
-      doc.font('Helvetica').fontSize(8).fillColor('#444444');
+      doc.font(FONT.regular).fontSize(8).fillColor('#444444');
       doc.text(header, PDF_MARGIN, PDF_MARGIN - 20, { width, lineBreak: false });
       doc.text(
         `${frame.title} · printed by ${frame.printedBy} on ${frame.printedAt.slice(0, 10)} · page ${i - start + 1} of ${count}`,
@@ -56,4 +51,22 @@ export function patientPdf(frame: PatientPdfFrame): { doc: PDFKit.PDFDocument; f
     return done;
   };
   return { doc, finish };
+}
+
+/** How the practice is reached, as each document prints it. */
+export interface PracticeContactLines {
+  name: string;
+  address: string | null;
+  phone: string | null;
+  email: string | null;
+}
+
+/** The practice's name, address lines and phone and e-mail, each a line; a gap is said, not left blank. */
+export function practiceContactLines(p: PracticeContactLines): string[] {
+  const reach = [p.phone ? `Phone ${p.phone}` : '', p.email ? `E-mail ${p.email}` : ''].filter(Boolean).join('    ');
+  return [
+    p.name,
+    ...(p.address ? p.address.split(/\r?\n/).filter((l) => l.trim() !== '') : []),
+    reach || 'Phone and e-mail: not recorded by the practice.',
+  ];
 }

@@ -121,6 +121,13 @@ export class ImportPlanner {
   private readonly installed = new Map<string, Map<string, string>>();
   private readonly exams = new Map<string, ExamState[]>();
   private readonly visits = new Map<string, string>();
+  /** Bridges begun by an earlier delivery row: patient, date, kind and restoration_ref → its restoration. */
+  /** Set by a delivery row that added its site to a bridge begun on an earlier row. */
+  private joinedBridge = false;
+  private readonly bridges = new Map<
+    string,
+    { id: string; row: number; retention: string; material: string; siteIds: Set<string> }
+  >();
 
   constructor(private readonly ctx: PlanContext) {
     for (const p of ctx.patients) {
@@ -170,9 +177,11 @@ export class ImportPlanner {
       if (row.date > this.ctx.latestToday) throw new RowError('date', 'The date is in the future');
       if (row.date < row.birthDate) throw new RowError('date', 'The date is before the patient was born');
       const patient = this.patient(rowNumber, row);
+      this.joinedBridge = false;
       this.event(rowNumber, row, patient.patientId);
       this.createPatient(rowNumber, patient);
-      this.counts[row.event]++;
+      // A bridge's further sites join its restoration: `delivery` counts restorations, not rows.
+      if (!this.joinedBridge) this.counts[row.event]++;
     } catch (e) {
       if (!(e instanceof RowError)) throw e;
       this.error(rowNumber, e.column, e.message);
@@ -329,7 +338,46 @@ export class ImportPlanner {
         const site = this.siteFor(row, patientId);
         if (site.placedOn && row.date < site.placedOn)
           throw new RowError('date', `Delivered before the implant was placed (${site.placedOn})`);
-        const id = randomUUID();
+        // Delivery rows of one bridge (docs/import.md, "Bridges") share one restoration.
+        const bridgeKey =
+          row.restorationKind === 'single-crown'
+            ? null
+            : key(patientId, row.date, row.restorationKind, row.restorationRef ?? '');
+        const bridge = bridgeKey ? this.bridges.get(bridgeKey) : undefined;
+        if (bridge) {
+          if (bridge.retention !== row.retention || bridge.material !== row.material)
+            throw new RowError(
+              bridge.retention !== row.retention ? 'retention' : 'material',
+              `Row ${bridge.row} starts this ${row.restorationKind} on ${row.date} with another retention or material: give each bridge its own restoration_ref`,
+            );
+          if (bridge.siteIds.has(site.id))
+            throw new RowError('fdi', `Site ${row.fdi} is already part of this restoration (row ${bridge.row})`);
+        }
+        const id = bridge?.id ?? randomUUID();
+        const restorationSiteId = randomUUID();
+        this.writes.restorationSites.push({
+          id: restorationSiteId,
+          practiceId,
+          restorationId: id,
+          siteId: site.id,
+          interface: row.interface,
+          impressionCoping: row.interface,
+        });
+        this.restored(site, id, row.date);
+        if (bridge) {
+          bridge.siteIds.add(site.id);
+          this.entry(rowNumber, 'restoration_sites', restorationSiteId);
+          this.joinedBridge = true;
+          return;
+        }
+        if (bridgeKey)
+          this.bridges.set(bridgeKey, {
+            id,
+            row: rowNumber,
+            retention: row.retention,
+            material: row.material,
+            siteIds: new Set([site.id]),
+          });
         this.writes.restorations.push({
           id,
           practiceId,
@@ -345,21 +393,7 @@ export class ImportPlanner {
           createdAt: new Date(`${row.date}T00:00:00.000Z`),
           notes: row.notes,
         });
-        this.writes.restorationSites.push({
-          practiceId,
-          restorationId: id,
-          siteId: site.id,
-          interface: row.interface,
-          impressionCoping: row.interface,
-        });
         this.entry(rowNumber, 'restorations', id);
-        site.restorationId = id;
-        site.deliveredOn = row.date;
-        if (site.status !== 'restored') {
-          site.status = 'restored';
-          if (site.insert) site.insert.status = 'restored';
-          else this.writes.siteStatus.push({ id: site.id, status: 'restored' });
-        }
         return;
       }
       case 'part': {
@@ -484,6 +518,17 @@ export class ImportPlanner {
         earlier.push({ id, ...exam, recordedAt: new Date(), boneLevelMm: row.boneLevelMm, sites: probes });
         return;
       }
+    }
+  }
+
+  /** The site now carries the restoration: parts installed after it are linked to it. */
+  private restored(site: SiteState, restorationId: string, deliveredOn: string) {
+    site.restorationId = restorationId;
+    site.deliveredOn = deliveredOn;
+    if (site.status !== 'restored') {
+      site.status = 'restored';
+      if (site.insert) site.insert.status = 'restored';
+      else this.writes.siteStatus.push({ id: site.id, status: 'restored' });
     }
   }
 

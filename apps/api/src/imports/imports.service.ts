@@ -30,6 +30,7 @@ import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database, type Db } from '../db/database.js';
 import { columnName, decode, detectDelimiter, readBody, records, sha256Of, TooLarge } from './csv-reader.js';
 import { ImportPlanner } from './import-plan.js';
+import { RecallScheduler } from '../recalls/recall-scheduler.service.js';
 import { ImportProgressStore } from './import-progress.js';
 import * as repo from './imports.repository.js';
 import { asIssues, readRow } from './row-reader.js';
@@ -40,6 +41,16 @@ const MAX_LISTED_ISSUES = 10_000;
 const mb = (bytes: number) => `${Math.round(bytes / 1024 / 1024)} MB`;
 /** Today in the time zone furthest ahead of UTC (UTC+14): no clinic has records after it. */
 const latestPossibleToday = () => new Date(Date.now() + 14 * 3_600_000).toISOString().slice(0, 10);
+
+/** Each patient's latest imported visit (the visit of their latest imported exam). */
+function latestVisits(exams: readonly { patientId: string; visitId: string; examinedOn: string }[]) {
+  const latest = new Map<string, { on: string; visitId: string }>();
+  for (const e of exams) {
+    const seen = latest.get(e.patientId);
+    if (!seen || e.examinedOn >= seen.on) latest.set(e.patientId, { on: e.examinedOn, visitId: e.visitId });
+  }
+  return new Map([...latest].map(([patientId, v]) => [patientId, v.visitId]));
+}
 
 interface Checked {
   planner: ImportPlanner;
@@ -56,6 +67,7 @@ export class ImportsService {
     @Inject(DB) private readonly db: Database,
     @Inject(ENV) private readonly env: Env,
     private readonly progress: ImportProgressStore,
+    private readonly recalls: RecallScheduler,
   ) {}
 
   /** Reads and checks the whole file and reports; nothing but the audit row is written. */
@@ -127,6 +139,9 @@ export class ImportsService {
           progress.rowsWritten += n;
           this.progress.touch(progress);
         });
+        // Imported exams schedule the next recall as a visit entered in the app does.
+        for (const [patientId, visitId] of latestVisits(planner.writes.exams))
+          await this.recalls.rescheduleAfterImport(tx, patientId, visitId);
         reportChange({
           type: 'LegacyImport',
           id: row.id,

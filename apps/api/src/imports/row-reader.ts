@@ -22,6 +22,7 @@ const FIELD_COLUMNS: Record<string, ImportColumn> = {
   lengthMm: 'length_mm',
   insertionTorqueNcm: 'insertion_torque_ncm',
   restorationKind: 'restoration_kind',
+  restorationRef: 'restoration_ref',
   partRef: 'part_ref',
   partName: 'part_name',
   torqueNcm: 'torque_ncm',
@@ -137,6 +138,7 @@ export function readRow(cells: Cells, decimalComma: boolean): { row: ImportRow }
           retention: text(cells, 'retention'),
           material: text(cells, 'material'),
           interface: text(cells, 'interface') ?? undefined,
+          restorationRef: text(cells, 'restoration_ref'),
         };
         break;
       case 'part':

@@ -1,6 +1,7 @@
 // The lab prescription as a PDF (pdfkit). The patient appears only by chart number and initials:
 // the lab needs no more identifying data than that.
-import PDFDocument from 'pdfkit';
+import { type PracticeContactLines, practiceContactLines } from '../common/patient-pdf.js';
+import { FONT, notoPdfDocument, pdfBytes } from '../common/pdf-document.js';
 import { type ComponentKind, MANUFACTURER_CAUTION, STACK_ORDER } from '@torquetrail/contracts';
 import { fdiToUniversal } from '@torquetrail/domain';
 
@@ -22,6 +23,7 @@ interface PrescriptionSite {
   platformName: string | null;
   connection: string | null;
   diameterMm: number | null;
+  lengthMm: number | null;
   interface: string;
   impressionCoping: string;
   multiUnitAngleDeg: number | null;
@@ -30,7 +32,8 @@ interface PrescriptionSite {
 }
 
 export interface PrescriptionInput {
-  practiceName: string;
+  practice: PracticeContactLines;
+  number: number;
   chartNumber: string;
   initials: string;
   dentistName: string;
@@ -71,28 +74,25 @@ const torque = (p: PrescriptionPart) =>
   p.torqueSpecNcm === null ? 'hand-tight' : `${p.torqueSpecNcm} N·cm ±${p.tolerancePct} %`;
 
 export function renderLabPrescription(input: PrescriptionInput): Promise<Buffer> {
-  const doc = new PDFDocument({
+  const doc = notoPdfDocument({
     size: 'A4',
     margin: 50,
-    info: { Title: `Lab prescription ${input.chartNumber}`, Author: input.practiceName },
+    info: { Title: `Lab prescription ${input.number} ${input.chartNumber}`, Author: input.practice.name },
   });
-  const chunks: Buffer[] = [];
-  const done = new Promise<Buffer>((resolve, reject) => {
-    doc.on('data', (c: Buffer) => chunks.push(c));
-    doc.on('end', () => resolve(Buffer.concat(chunks)));
-    doc.on('error', reject);
-  });
+  const done = pdfBytes(doc);
 
-  doc.font('Helvetica-Bold').fontSize(16).text('Implant restoration: lab prescription');
-  doc.font('Helvetica').fontSize(10).text(input.practiceName);
+  doc.font(FONT.bold).fontSize(16).text('Implant restoration: lab prescription');
+  doc.font(FONT.bold).fontSize(11).text(`Prescription no. ${input.number}`);
+  doc.font(FONT.regular).fontSize(10);
+  for (const line of practiceContactLines(input.practice)) doc.text(line);
   doc.moveDown(0.5);
   doc.text(`Patient: ${input.chartNumber} (${input.initials})`);
   doc.text(
     `Issued: ${input.issuedOn}${input.dueOn ? `    Due: ${input.dueOn}` : ''}${input.labName ? `    Laboratory: ${input.labName}` : ''}`,
   );
   doc.moveDown(0.5);
-  doc.font('Helvetica-Bold').text(`${label(input.kind)}: ${label(input.retention)}`);
-  doc.font('Helvetica').text(`Material: ${label(input.material)}${input.shade ? `    Shade: ${input.shade}` : ''}`);
+  doc.font(FONT.bold).text(`${label(input.kind)}: ${label(input.retention)}`);
+  doc.font(FONT.regular).text(`Material: ${label(input.material)}${input.shade ? `    Shade: ${input.shade}` : ''}`);
   doc.text(
     `Impression: ${input.impressionTakenOn ? `taken ${input.impressionTakenOn}, ` : ''}copings ${input.copingsSplinted ? 'splinted together before the impression' : 'not splinted'}`,
   );
@@ -100,12 +100,12 @@ export function renderLabPrescription(input: PrescriptionInput): Promise<Buffer>
 
   for (const site of input.sites) {
     doc
-      .font('Helvetica-Bold')
+      .font(FONT.bold)
       .fontSize(11)
       .text(`Site ${site.fdi} (FDI) / ${fdiToUniversal(site.fdi)} (Universal)`);
-    doc.font('Helvetica').fontSize(10);
+    doc.font(FONT.regular).fontSize(10);
     const implant = site.systemName
-      ? `${site.systemName} (${site.manufacturer}), platform ${site.platformName}, ${site.diameterMm} mm, ${label(site.connection ?? '')} connection`
+      ? `${site.systemName} (${site.manufacturer}), platform ${site.platformName}, ${site.diameterMm} × ${site.lengthMm} mm (diameter × length), ${label(site.connection ?? '')} connection`
       : 'no placement recorded';
     doc.text(`Implant: ${implant}`, { indent: 12 });
     doc.text(
@@ -127,8 +127,8 @@ export function renderLabPrescription(input: PrescriptionInput): Promise<Buffer>
   }
 
   if (input.notes) {
-    doc.font('Helvetica-Bold').text('Notes');
-    doc.font('Helvetica').text(input.notes);
+    doc.font(FONT.bold).text('Notes');
+    doc.font(FONT.regular).text(input.notes);
     doc.moveDown();
   }
   doc.fontSize(8).fillColor('#444444').text(MANUFACTURER_CAUTION);

@@ -9,6 +9,19 @@ export async function insertLabPrescription(db: Db, v: typeof labPrescriptions.$
   return row;
 }
 
+/** The next prescription number, drawn before the PDF is rendered so the sheet can print it. */
+export async function nextPrescriptionNumber(db: Db): Promise<number> {
+  const result = await db.execute<{ n: string }>(
+    sql`select nextval(pg_get_serial_sequence('lab_prescriptions', 'number'))::text as n`,
+  );
+  return Number(result.rows[0].n);
+}
+
+/** Serialises the prescriptions of one plan version, so two presses at once cannot both write one. */
+export async function lockPrescriptionsOf(tx: Tx, restorationId: string): Promise<void> {
+  await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${`lab-prescription:${restorationId}`}))`);
+}
+
 /** A stored lab prescription, if the user may see its patient, with the chart number for its file name. */
 export async function findVisibleLabPrescription(db: Db, scope: Scope, id: string) {
   const [row] = await db

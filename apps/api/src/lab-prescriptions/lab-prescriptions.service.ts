@@ -8,6 +8,7 @@ import { fieldError } from '../common/field-error.js';
 import { reportChange } from '../common/audit-context.js';
 import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database } from '../db/database.js';
+import { findPracticeContact } from '../db/practice-contact.js';
 import { RestorationsService } from '../restorations/restorations.service.js';
 import { StorageService } from '../storage/storage.service.js';
 import { LabMailService } from './lab-mail.service.js';
@@ -51,7 +52,7 @@ export class LabPrescriptionsService {
     );
     if (body.emailToLab && !r.labEmail) throw fieldError({ emailToLab: 'The plan has no lab e-mail address' });
     const latest = body.revise ? null : await repo.findLatestForRestoration(this.db, r.id);
-    const id = latest?.id ?? (await this.render(user, scope, r));
+    const id = latest?.id ?? (await this.render(user, scope, r, body.revise));
     if (body.emailToLab && r.labEmail) {
       await this.labMail.request({
         practiceId: r.practiceId,
@@ -66,15 +67,25 @@ export class LabPrescriptionsService {
     return reply;
   }
 
+  /**
+   * Writes a new prescription. Two first presses at once both render, but only the first row is
+   * written: the second finds it under the plan's lock, removes its own file and answers with it.
+   */
   private async render(
     user: SessionUser,
     scope: Scope,
     r: NonNullable<Awaited<ReturnType<RestorationsService['findVisible']>>>,
+    revise: boolean,
   ): Promise<string> {
-    const { patient, sites } = await this.restorations.labSheet(scope, r);
+    const [{ patient, sites }, practice, number] = await Promise.all([
+      this.restorations.labSheet(scope, r),
+      findPracticeContact(this.db, r.practiceId),
+      repo.nextPrescriptionNumber(this.db),
+    ]);
     const id = randomUUID();
     const pdf = await renderLabPrescription({
-      practiceName: patient.practiceName,
+      practice,
+      number,
       chartNumber: patient.chartNumber,
       initials: initials(patient.givenName, patient.familyName),
       dentistName: r.plannedByName ?? user.displayName,
@@ -93,9 +104,13 @@ export class LabPrescriptionsService {
     const objectKey = `practices/${r.practiceId}/lab-prescriptions/${id}.pdf`;
     await this.storage.put(objectKey, pdf, 'application/pdf');
     try {
-      await auditedTransaction(this.db, async (tx) => {
+      const written = await auditedTransaction(this.db, async (tx) => {
+        await repo.lockPrescriptionsOf(tx, r.id);
+        const earlier = revise ? null : await repo.findLatestForRestoration(tx, r.id);
+        if (earlier) return earlier.id;
         await repo.insertLabPrescription(tx, {
           id,
+          number,
           practiceId: r.practiceId,
           patientId: r.patientId,
           restorationId: r.id,
@@ -103,14 +118,16 @@ export class LabPrescriptionsService {
           sizeBytes: pdf.length,
           createdBy: user.id,
         });
-        reportChange({ type: 'LabPrescription', id, patientId: r.patientId, after: { restorationId: r.id } });
+        reportChange({ type: 'LabPrescription', id, patientId: r.patientId, after: { restorationId: r.id, number } });
+        return id;
       });
+      if (written !== id) await this.storage.delete(objectKey).catch(() => undefined);
+      return written;
     } catch (error) {
       // Best effort: when S3 is away too, the object stays, keyed by an id no row will ever hold.
       await this.storage.delete(objectKey).catch(() => undefined);
       throw error;
     }
-    return id;
   }
 
   async download(ability: AppAbility, scope: Scope, id: string): Promise<{ pdf: Buffer; filename: string }> {

@@ -1,6 +1,7 @@
 // The referral summary as a PDF (pdfkit), for the surgeon of a share: what was placed, what was
 // delivered on it, the last recall status and the bone-level trend of each implant.
-import PDFDocument from 'pdfkit';
+import { type PracticeContactLines, practiceContactLines } from '../common/patient-pdf.js';
+import { FONT, notoPdfDocument, pdfBytes } from '../common/pdf-document.js';
 import { fdiToUniversal } from '@torquetrail/domain';
 
 interface SummaryPart {
@@ -32,7 +33,7 @@ export interface SummaryPdfSite {
 }
 
 export interface SummaryPdfInput {
-  practiceName: string;
+  practice: PracticeContactLines;
   patientName: string;
   birthDate: string;
   chartNumber: string;
@@ -44,20 +45,16 @@ export interface SummaryPdfInput {
 const TREND_READINGS = 8;
 
 export function renderReferralSummary(input: SummaryPdfInput): Promise<Buffer> {
-  const doc = new PDFDocument({
+  const doc = notoPdfDocument({
     size: 'A4',
     margin: 50,
-    info: { Title: `Referral summary ${input.chartNumber}`, Author: input.practiceName },
+    info: { Title: `Referral summary ${input.chartNumber}`, Author: input.practice.name },
   });
-  const chunks: Buffer[] = [];
-  const done = new Promise<Buffer>((resolve, reject) => {
-    doc.on('data', (c: Buffer) => chunks.push(c));
-    doc.on('end', () => resolve(Buffer.concat(chunks)));
-    doc.on('error', reject);
-  });
+  const done = pdfBytes(doc);
 
-  doc.font('Helvetica-Bold').fontSize(16).text('Referral summary: implants');
-  doc.font('Helvetica').fontSize(10).text(input.practiceName);
+  doc.font(FONT.bold).fontSize(16).text('Referral summary: implants');
+  doc.font(FONT.regular).fontSize(10);
+  for (const line of practiceContactLines(input.practice)) doc.text(line);
   doc.moveDown(0.5);
   doc.text(`Patient: ${input.patientName}, born ${input.birthDate}, chart ${input.chartNumber}`);
   doc.text(`Prepared: ${input.generatedOn}`);
@@ -66,12 +63,12 @@ export function renderReferralSummary(input: SummaryPdfInput): Promise<Buffer> {
 
   for (const s of input.sites) {
     doc
-      .font('Helvetica-Bold')
+      .font(FONT.bold)
       .fontSize(11)
       .text(
         `Site ${s.fdi} (FDI) / ${fdiToUniversal(s.fdi)} (Universal): ${s.status}${s.endedOn ? ` on ${s.endedOn}` : ''}`,
       );
-    doc.font('Helvetica').fontSize(10);
+    doc.font(FONT.regular).fontSize(10);
     doc.text(
       `Placed ${s.placedOn} by ${s.surgeonName}: ${s.implant}, length ${s.lengthMm} mm${s.lot ? `, lot ${s.lot}` : ''}`,
       { indent: 12 },

@@ -6,6 +6,8 @@ import {
   InviteBody,
   type PeopleReply,
   type Person,
+  type PracticeContact,
+  PracticeContactBody,
   SessionSettings,
 } from '@torquetrail/contracts';
 import type { Request } from 'express';
@@ -93,5 +95,20 @@ export class PeopleController {
     @Body(new ZodValidationPipe(SessionSettings)) body: SessionSettings,
   ): Promise<SessionSettings> {
     return this.people.setSessionSettings(user, body.idleSignOutMinutes);
+  }
+
+  @Get('practice/contact')
+  @Allow('read', 'Practice')
+  contact(@CurrentUser() user: SessionUser): Promise<PracticeContact> {
+    return this.people.contact(user);
+  }
+
+  @Put('practice/contact')
+  @Allow('update', 'Practice')
+  setContact(
+    @CurrentUser() user: SessionUser,
+    @Body(new ZodValidationPipe(PracticeContactBody)) body: PracticeContactBody,
+  ): Promise<PracticeContact> {
+    return this.people.setContact(user, body);
   }
 }

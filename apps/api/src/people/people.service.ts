@@ -1,10 +1,20 @@
 import { ConflictException, Inject, Injectable } from '@nestjs/common';
 import type { AppAbility, Role } from '@torquetrail/authz';
-import type { Invitation, InvitationStatus, PeopleReply, Person } from '@torquetrail/contracts';
+import type {
+  Invitation,
+  InvitationStatus,
+  PeopleReply,
+  Person,
+  PracticeContact,
+  PracticeContactBody,
+} from '@torquetrail/contracts';
 import type { SessionUser } from '../auth/session-user.js';
 import { assertCan } from '../authz/scope.js';
+import { reportChange } from '../common/audit-context.js';
 import { isUniqueViolation } from '../common/postgres-error.js';
+import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database } from '../db/database.js';
+import { findPracticeContact, setPracticeContact } from '../db/practice-contact.js';
 import { AccountMailService } from './account-mail.service.js';
 import * as repo from './people.repository.js';
 
@@ -131,5 +141,20 @@ export class PeopleService {
   async setSessionSettings(user: SessionUser, idleSignOutMinutes: number) {
     await repo.setIdleMinutes(this.db, user.practiceId, idleSignOutMinutes);
     return this.sessionSettings(user);
+  }
+
+  contact(user: SessionUser): Promise<PracticeContact> {
+    return findPracticeContact(this.db, user.practiceId);
+  }
+
+  /** The practice's address, phone and e-mail, audited with the values before and after. */
+  setContact(user: SessionUser, body: PracticeContactBody): Promise<PracticeContact> {
+    return auditedTransaction(this.db, async (tx) => {
+      const before = await findPracticeContact(tx, user.practiceId);
+      await setPracticeContact(tx, user.practiceId, body);
+      const after = await findPracticeContact(tx, user.practiceId);
+      reportChange({ type: 'Practice', id: user.practiceId, before, after });
+      return after;
+    });
   }
 }

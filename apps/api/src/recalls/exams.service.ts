@@ -19,8 +19,6 @@ import {
   DomainError,
   inChartOrder,
   latestExam,
-  nextRecallDate,
-  recallIntervalMonths,
   RULES_VERSION,
   toPeriImplantBaseline,
   toPeriImplantExam,
@@ -32,7 +30,7 @@ import { alreadyAmended } from '../common/amendment-conflict.js';
 import { fieldError } from '../common/field-error.js';
 import { reportChange } from '../common/audit-context.js';
 import { auditedTransaction } from '../db/audited-transaction.js';
-import { DB, type Database, type Tx } from '../db/database.js';
+import { DB, type Database } from '../db/database.js';
 import { BoneLevelsService } from '../radiographs/bone-levels.service.js';
 import {
   findExamsByIds,
@@ -43,15 +41,14 @@ import {
   hadPeriImplantitis,
   insertExam,
   insertExamAmendment,
-  latestExamDateOfPatient,
   listExamsOfSite,
   listExamsOfSites,
   listSitesForExam,
   lockExamHistory,
-  rescheduleRecall,
   toContract,
 } from './exams.repository.js';
 import { RecallClock } from './recall-clock.js';
+import { RecallScheduler } from './recall-scheduler.service.js';
 
 const EXAMINABLE = new Set(['placed', 'restored']);
 /** The thresholds handed to classifyPeriImplant, stored beside each verdict. */
@@ -63,6 +60,7 @@ export class ExamsService {
     @Inject(DB) private readonly db: Database,
     private readonly clock: RecallClock,
     private readonly boneLevels: BoneLevelsService,
+    private readonly scheduler: RecallScheduler,
   ) {}
 
   async context(ability: AppAbility, scope: Scope, patientId: string): Promise<ExamContext> {
@@ -225,33 +223,13 @@ export class ExamsService {
       }
 
       reportChange({ type: 'RecallExam', id: ids[0] });
-      const nextRecall = await this.reschedule(tx, patient, visitId, anyPeriImplantitis);
+      const nextRecall = await this.scheduler.reschedule(tx, patient, visitId, anyPeriImplantitis);
       return {
         visitId,
         exams: (await findExamsByIds(tx, ids)).map(toContract),
         nextRecall,
       };
     });
-  }
-
-  /**
-   * The patient's next recall from their latest exam: nextRecallDate with the patient's risk
-   * factors and the practice policy. Decision: peri-implantitis found in this visit counts as
-   * "prior" for the interval that starts today.
-   */
-  private async reschedule(tx: Tx, patient: RecallPatient, visitId: string, periImplantitisNow: boolean) {
-    const riskFactors = {
-      smoker: patient.smoker,
-      diabetesPoorlyControlled: patient.diabetesPoorlyControlled,
-      periodontitisHistory: patient.periodontitisHistory,
-      priorPeriImplantitis: periImplantitisNow || (await hadPeriImplantitis(tx, patient.id)),
-    };
-    const policy = await findPolicy(tx, patient.practiceId);
-    const lastExam = (await latestExamDateOfPatient(tx, patient.id)) ?? this.clock.today();
-    const intervals = { baseMonths: policy.baseMonths, riskMonths: policy.riskMonths };
-    const dueOn = nextRecallDate(lastExam, riskFactors, intervals);
-    await rescheduleRecall(tx, { practiceId: patient.practiceId, patientId: patient.id, dueOn, visitId });
-    return { dueOn, intervalMonths: recallIntervalMonths(riskFactors, intervals), riskFactors };
   }
 
   /** An amendment: a new exam superseding the old one, with the reason; recomputed and rescheduled in one transaction. */
@@ -321,7 +299,7 @@ export class ExamsService {
         amendmentReason: body.amendmentReason,
       });
       reportChange({ type: 'RecallExam', id });
-      await this.reschedule(tx, patient, old.visitId, false);
+      await this.scheduler.reschedule(tx, patient, old.visitId, false);
       return toContract((await findExamsByIds(tx, [id]))[0]);
     });
   }
@@ -371,5 +349,3 @@ function offered(m: SiteBoneLevel): ExamContext['sites'][number]['measuredBoneLe
     measuredBy: m.measuredBy,
   };
 }
-
-type RecallPatient = NonNullable<Awaited<ReturnType<typeof findVisiblePatientForRecall>>>;

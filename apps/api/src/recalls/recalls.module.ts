@@ -5,6 +5,7 @@ import { ExamsService } from './exams.service.js';
 import { MaintenanceStatusService } from './maintenance-status.service.js';
 import { RecallAdminController } from './recall-admin.controller.js';
 import { RecallClock } from './recall-clock.js';
+import { RecallScheduler } from './recall-scheduler.service.js';
 import { RecallsController } from './recalls.controller.js';
 import { RemindersService } from './reminders.service.js';
 
@@ -12,7 +13,8 @@ import { RemindersService } from './reminders.service.js';
 @Module({
   imports: [RadiographsModule],
   controllers: [RecallsController, RecallAdminController],
-  providers: [RecallClock, DeskService, ExamsService, RemindersService, MaintenanceStatusService],
-  exports: [RecallClock, RemindersService, MaintenanceStatusService],
+  providers: [RecallClock, RecallScheduler, DeskService, ExamsService, RemindersService, MaintenanceStatusService],
+  // RecallScheduler: the legacy import schedules recalls after imported exams by the same rule.
+  exports: [RecallClock, RecallScheduler, RemindersService, MaintenanceStatusService],
 })
 export class RecallsModule {}

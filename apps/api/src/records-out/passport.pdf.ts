@@ -2,7 +2,8 @@
 // to show any dentist who treats them (abroad, in an emergency, after a move).
 import { MANUFACTURER_CAUTION } from '@torquetrail/contracts';
 import { fdiToUniversal, isRetrievable } from '@torquetrail/domain';
-import { patientPdf } from '../common/patient-pdf.js';
+import { patientPdf, practiceContactLines } from '../common/patient-pdf.js';
+import { FONT } from '../common/pdf-document.js';
 import type { RecordSnapshot, SnapshotImplant, SnapshotPart } from './record-snapshot.js';
 import { connectionWords, materialWords, partKindWords, restorationKindWords, retentionWords } from './plain-words.js';
 
@@ -47,19 +48,15 @@ export function renderPassport(s: RecordSnapshot, printed: PrintedBy): Promise<B
     printedBy: printed.name,
     printedAt: printed.at,
   });
-  doc.font('Helvetica-Bold').fontSize(18).text('Your implant passport');
-  doc.font('Helvetica').fontSize(10).moveDown(0.3);
+  doc.font(FONT.bold).fontSize(18).text('Your implant passport');
+  doc.font(FONT.regular).fontSize(10).moveDown(0.3);
   doc.text(
     `This passport lists the dental implants in your mouth and what is fixed to them. Keep it with your papers and show it to any dentist who treats you.`,
   );
   doc.moveDown(0.6);
-  doc.font('Helvetica-Bold').text('Your practice');
-  doc.font('Helvetica').text(practice.name);
-  if (practice.address) doc.text(practice.address);
-  const contact = [practice.phone ? `Phone ${practice.phone}` : '', practice.email ? `E-mail ${practice.email}` : '']
-    .filter(Boolean)
-    .join('    ');
-  doc.text(contact || 'Contact details: ask the practice (none recorded).');
+  doc.font(FONT.bold).text('Your practice');
+  doc.font(FONT.regular);
+  for (const line of practiceContactLines(practice)) doc.text(line);
   doc.moveDown(0.4);
   doc.text(
     s.nextRecallOn
@@ -72,10 +69,10 @@ export function renderPassport(s: RecordSnapshot, printed: PrintedBy): Promise<B
   for (const i of s.implants) {
     const pl = i.placement;
     doc
-      .font('Helvetica-Bold')
+      .font(FONT.bold)
       .fontSize(12)
       .text(`Implant at tooth ${i.fdi} (FDI) / ${fdiToUniversal(i.fdi)} (Universal)`);
-    doc.font('Helvetica').fontSize(10);
+    doc.font(FONT.regular).fontSize(10);
     doc.text(`Placed on ${pl.placedOn} by ${pl.surgeonName}.`, { indent: 12 });
     doc.text(
       `System: ${pl.systemName} by ${pl.manufacturer}; platform ${pl.platformName}, ${connectionWords(pl.connection)} connection.`,
@@ -105,8 +102,8 @@ export function renderPassport(s: RecordSnapshot, printed: PrintedBy): Promise<B
   }
 
   doc.moveDown(0.4);
-  doc.font('Helvetica-Bold').text('Please note');
-  doc.font('Helvetica');
+  doc.font(FONT.bold).text('Please note');
+  doc.font(FONT.regular);
   for (const c of PASSPORT_CAUTIONS) doc.text(`- ${c}`, { indent: 12 });
   return finish();
 }

@@ -3,7 +3,8 @@
 // screws and their specified torques, whether it can be unscrewed at all, the last torque.
 import { MANUFACTURER_CAUTION, SCREW_KINDS } from '@torquetrail/contracts';
 import { fdiToUniversal, isRetrievable } from '@torquetrail/domain';
-import { patientPdf } from '../common/patient-pdf.js';
+import { patientPdf, type PracticeContactLines, practiceContactLines } from '../common/patient-pdf.js';
+import { FONT } from '../common/pdf-document.js';
 import { type PrintedBy, udiLine } from './passport.pdf.js';
 import type { RecordSnapshot, SnapshotImplant, SnapshotPart } from './record-snapshot.js';
 import { connectionWords, partKindWords, retentionWords, torqueReasonWords } from './plain-words.js';
@@ -21,32 +22,32 @@ function lastTorqueOf(i: SnapshotImplant): { at: string; part: SnapshotPart } | 
   return last;
 }
 
-function sitePage(doc: PDFKit.PDFDocument, i: SnapshotImplant) {
+function sitePage(doc: PDFKit.PDFDocument, i: SnapshotImplant, practice: PracticeContactLines) {
   const pl = i.placement;
   const r = i.restoration!;
   doc
-    .font('Helvetica-Bold')
+    .font(FONT.bold)
     .fontSize(16)
     .text(`Retrieval card: tooth ${i.fdi} (FDI) / ${fdiToUniversal(i.fdi)} (Universal)`);
-  doc.font('Helvetica').fontSize(10).moveDown(0.4);
+  doc.font(FONT.regular).fontSize(10).moveDown(0.4);
   doc.text(
     `Implant: ${pl.systemName} (${pl.manufacturer}), platform ${pl.platformName}, ${connectionWords(pl.connection)} connection, ${pl.diameterMm} × ${pl.lengthMm} mm, placed ${pl.placedOn}; ${udiLine(i)}.`,
   );
   doc.moveDown(0.4);
   const retrievable = isRetrievable(r.retention);
-  doc.font('Helvetica-Bold').text(`Retention: ${retentionWords(r.retention)}.`);
+  doc.font(FONT.bold).text(`Retention: ${retentionWords(r.retention)}.`);
   doc.text(
     retrievable
       ? 'Can be unscrewed: yes. The restoration comes off by undoing the screws below.'
       : 'Can be unscrewed: no. It is cemented; removing it means cutting it off (the abutment screw is under it).',
   );
   doc
-    .font('Helvetica')
+    .font(FONT.regular)
     .text(`Delivered ${r.deliveredOn}${r.fdis.length > 1 ? `, spanning sites ${r.fdis.join(', ')}` : ''}.`);
   doc.moveDown(0.6);
 
-  doc.font('Helvetica-Bold').text('Parts chain, from the implant outward');
-  doc.font('Helvetica');
+  doc.font(FONT.bold).text('Parts chain, from the implant outward');
+  doc.font(FONT.regular);
   const chain = i.parts.filter((p) => p.kind !== 'impression-coping');
   if (chain.length === 0) doc.text('No parts recorded.', { indent: 12 });
   chain.forEach((p, n) => {
@@ -70,8 +71,12 @@ function sitePage(doc: PDFKit.PDFDocument, i: SnapshotImplant) {
       : 'No torque is recorded on this site.',
   );
   doc.moveDown(0.8);
-  doc.font('Helvetica-Bold').text('Caution');
-  doc.font('Helvetica').text(RETRIEVAL_CAUTION);
+  doc.font(FONT.bold).text('Caution');
+  doc.font(FONT.regular).text(RETRIEVAL_CAUTION);
+  doc.moveDown(0.8);
+  doc.font(FONT.bold).text('The practice that placed and restored it');
+  doc.font(FONT.regular);
+  for (const line of practiceContactLines(practice)) doc.text(line);
 }
 
 export function renderRetrievalCard(s: RecordSnapshot, printed: PrintedBy): Promise<Buffer> {
@@ -87,12 +92,12 @@ export function renderRetrievalCard(s: RecordSnapshot, printed: PrintedBy): Prom
   });
   const restored = s.implants.filter((i) => i.restoration !== null);
   if (restored.length === 0) {
-    doc.font('Helvetica-Bold').fontSize(16).text('Retrieval card');
-    doc.font('Helvetica').fontSize(10).moveDown().text('No restored implant site is recorded for this patient.');
+    doc.font(FONT.bold).fontSize(16).text('Retrieval card');
+    doc.font(FONT.regular).fontSize(10).moveDown().text('No restored implant site is recorded for this patient.');
   }
   restored.forEach((i, n) => {
     if (n > 0) doc.addPage();
-    sitePage(doc, i);
+    sitePage(doc, i, practice);
   });
   return finish();
 }

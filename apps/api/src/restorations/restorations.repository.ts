@@ -204,6 +204,7 @@ export async function loadLabPrescriptions(db: Db, restorationIds: string[]) {
     .select({
       id: labPrescriptions.id,
       restorationId: labPrescriptions.restorationId,
+      number: labPrescriptions.number,
       sizeBytes: labPrescriptions.sizeBytes,
       emailedTo: labPrescriptions.emailedTo,
       emailedAt: labPrescriptions.emailedAt,

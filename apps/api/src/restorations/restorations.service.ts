@@ -352,6 +352,7 @@ export class RestorationsService {
       return {
         id: l.id,
         restorationId: l.restorationId,
+        number: l.number,
         sizeBytes: l.sizeBytes,
         emailedTo: l.emailedTo,
         emailedAt: l.emailedAt?.toISOString() ?? null,

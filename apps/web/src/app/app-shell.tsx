@@ -5,6 +5,7 @@ import { Link, NavLink, useMatch } from 'react-router-dom';
 import { Can, useAppAbility } from '../lib/ability';
 import { ROLE_LABEL } from '../lib/labels';
 import { PageGate } from './page-gate';
+import { PrintFrame } from './print-frame';
 
 interface AppShellProps {
   me: Me;
@@ -125,6 +126,7 @@ export function AppShell({ me, onSignOut, signingOut, signOutError }: AppShellPr
           </NavbarGroup>
         </Navbar>
       </header>
+      <PrintFrame me={me} />
       <main className="page" id="main" tabIndex={-1}>
         <PageGate me={me} />
       </main>

@@ -183,6 +183,13 @@ export const router = createBrowserRouter([
                 }),
               },
               {
+                path: 'contact',
+                handle: access('practice/contact'),
+                lazy: async () => ({
+                  Component: (await import('../features/people/routes/practice-contact-route')).PracticeContactRoute,
+                }),
+              },
+              {
                 path: 'patient-settings',
                 handle: access('practice/patient-settings'),
                 lazy: async () => ({

@@ -39,6 +39,7 @@ export const PAGE_ACCESS = {
   practice: need('read', 'Share'),
   'practice/people': need('read', 'User'),
   'practice/sign-in': need('update', 'Practice'),
+  'practice/contact': need('update', 'Practice'),
   'practice/patient-settings': need('update', 'Practice'),
   'practice/shares': need('read', 'Share'),
   'practice/audit': need('read', 'AuditEntry'),

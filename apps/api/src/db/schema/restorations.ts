@@ -223,6 +223,11 @@ export const labPrescriptions = pgTable(
     restorationId: uuid('restoration_id')
       .notNull()
       .references(() => restorations.id),
+    /**
+     * The prescription number printed on the sheet and quoted by the lab: drawn from a sequence
+     * before the PDF is rendered (so the PDF carries it), unique, never reused.
+     */
+    number: integer('number').generatedByDefaultAsIdentity().notNull(),
     objectKey: text('object_key').notNull(),
     sizeBytes: integer('size_bytes').notNull(),
     emailedTo: text('emailed_to'),
@@ -235,6 +240,7 @@ export const labPrescriptions = pgTable(
   (t) => [
     index('lab_prescriptions_restoration_idx').on(t.restorationId),
     unique('lab_prescriptions_object_key_unique').on(t.objectKey),
+    unique('lab_prescriptions_number_unique').on(t.number),
   ],
 );
 

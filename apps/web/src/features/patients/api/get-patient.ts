@@ -15,6 +15,7 @@ const patientQueryOptions = (patientId: string) =>
     queryFn: ({ signal }) => fetchPatient(patientId, signal),
   });
 
-export function usePatient(patientId: string) {
-  return useQuery(patientQueryOptions(patientId));
+/** `enabled: false` for a caller that may have no patient (the print frame of a page without one). */
+export function usePatient(patientId: string, options: { enabled?: boolean } = {}) {
+  return useQuery({ ...patientQueryOptions(patientId), enabled: options.enabled ?? true });
 }

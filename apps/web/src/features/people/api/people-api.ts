@@ -5,6 +5,8 @@ import {
   type InviteBody,
   PeopleReply,
   Person,
+  PracticeContact,
+  type PracticeContactBody,
   SessionSettings,
 } from '@torquetrail/contracts';
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
@@ -70,5 +72,21 @@ export function useSaveSessionSettings() {
     mutationFn: (body: SessionSettings) =>
       apiRequest('/api/practice/session-settings', { method: 'PUT', body, schema: SessionSettings }),
     onSuccess: (settings) => client.setQueryData(peopleKeys.sessionSettings(), settings),
+  });
+}
+
+const practiceContactQueryOptions = () =>
+  queryOptions({
+    queryKey: peopleKeys.practiceContact(),
+    queryFn: ({ signal }) => apiRequest('/api/practice/contact', { schema: PracticeContact, signal }),
+  });
+export const usePracticeContact = () => useQuery(practiceContactQueryOptions());
+
+export function useSavePracticeContact() {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: (body: PracticeContactBody) =>
+      apiRequest('/api/practice/contact', { method: 'PUT', body, schema: PracticeContact }),
+    onSuccess: (contact) => client.setQueryData(peopleKeys.practiceContact(), contact),
   });
 }

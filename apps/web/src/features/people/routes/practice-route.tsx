@@ -27,6 +27,9 @@ export function PracticeRoute() {
           <NavLink to="/practice/sign-in" className={linkClass}>
             Sign-in settings
           </NavLink>
+          <NavLink to="/practice/contact" className={linkClass}>
+            Practice contact
+          </NavLink>
           <NavLink to="/practice/patient-settings" className={linkClass}>
             Chart numbers
           </NavLink>

@@ -22,6 +22,14 @@ import { REMINDER_STATUS_LABEL } from '../../../lib/labels';
 import { useCloseOnEscape } from '../../../lib/use-close-on-escape';
 
 /** One restoration: what was planned, its Findings, delivery and lab prescriptions. */
+/** Downloads a PDF the way its link would, without a navigation that would cancel the page's refetches. */
+function downloadPdf(href: string) {
+  const link = document.createElement('a');
+  link.href = href;
+  link.download = '';
+  link.click();
+}
+
 export function RestorationPanel({
   restoration: r,
   system,
@@ -97,7 +105,7 @@ export function RestorationPanel({
           {r.labPrescriptions.map((l) => (
             <li key={l.id}>
               <a href={`/api/lab-prescriptions/${l.id}/pdf`} data-testid="lab-pdf-link">
-                Lab prescription of {formatDateTime(l.createdAt)}
+                Lab prescription no. {l.number} of {formatDateTime(l.createdAt)}
               </a>
               {l.emailedTo && ` · e-mailed to ${l.emailedTo}`}
               {l.lastEmail && l.lastEmail.status !== 'sent' && (
@@ -116,14 +124,21 @@ export function RestorationPanel({
             <Button
               icon="document"
               text="Lab prescription (PDF)"
-              onClick={() => lab.mutate({ emailToLab: false })}
+              // Opens the plan version's prescription (the existing one when there is one: pressing
+              // again makes no second); only "Revise prescription" makes a new version.
+              onClick={() =>
+                lab.mutate(
+                  { emailToLab: false },
+                  { onSuccess: (made) => downloadPdf(`/api/lab-prescriptions/${made.id}/pdf`) },
+                )
+              }
               loading={lab.isPending && !lab.variables.emailToLab && !lab.variables.revise}
               data-testid="make-lab-pdf"
             />
             {r.labPrescriptions.length > 0 && (
               <Button
                 icon="refresh"
-                text="New version of the prescription"
+                text="Revise prescription"
                 onClick={() => lab.mutate({ emailToLab: false, revise: true })}
                 loading={lab.isPending && lab.variables.revise === true}
                 data-testid="revise-lab-pdf"
