@@ -102,6 +102,7 @@ export const FIELD_LABELS: Record<string, string> = {
   platformShift: 'Platform shift',
   points: 'Marked points',
   position: 'Position',
+  practiceName: 'Practice name',
   preferredLanguage: 'Preferred language',
   probingDepthMm: 'Probing depth (mm)',
   radiographId: 'Radiograph',
