@@ -10,9 +10,11 @@ import { signIn, startTestApp, type TestContext } from './support/test-app.js';
 
 let ctx: TestContext;
 let dentist: string;
+let admin: string;
 beforeAll(async () => {
   ctx = await startTestApp();
   dentist = await signIn(ctx, 'dentist');
+  admin = await signIn(ctx, 'practice_admin');
 });
 afterAll(() => ctx.close());
 
@@ -94,5 +96,56 @@ describe('what the surgeon recorded at placement', () => {
     expect(flaggedTimeline.events.find((e) => e.kind === 'placement')!.detail).toContain(
       `the catalogue knows this GTIN as ${a.name}, not the system chosen`,
     );
+  });
+
+  it('the administrator enters a GTIN for a system: the catalogue lists it and the flag follows', async () => {
+    const base = '0761234598772';
+    const gtin = base + gtinCheckDigit(base);
+    const udi = `(01)${gtin}(10)ENT-1`;
+    const [site] = await plannedSites(15);
+    const options = await ctx.http.get(`/api/sites/${site}/placement-options`).set('Cookie', dentist);
+    const [a, b] = options.body.systems as { id: string; name: string; platforms: { id: string }[] }[];
+    const placed = await ctx.http.post(`/api/sites/${site}/placements`).set('Cookie', dentist).send({
+      platformId: a.platforms[0].id,
+      placedOn: YESTERDAY,
+      lengthMm: 10,
+      lot: 'ENT-1',
+      udi,
+      insertionTorqueNcm: 35,
+      stabilityIsq: null,
+      grafting: null,
+      loadingProtocol: null,
+      axis: null,
+      closureComponentId: null,
+      closureLot: null,
+      notes: null,
+    });
+    expect(placed.status).toBe(201);
+    const learned = (await ctx.http.get('/api/catalogue').set('Cookie', admin)).body.systems.find(
+      (s: { id: string }) => s.id === a.id,
+    );
+    expect(learned.gtins).toContainEqual({ gtin, entered: false });
+
+    // The label was of system b all along: the administrator says so (a GTIN-13 is kept as GTIN-14).
+    const entered = await ctx.http
+      .patch(`/api/catalogue/systems/${b.id}`)
+      .set('Cookie', admin)
+      .send({ gtins: [gtin.slice(1)] });
+    expect(entered.status).toBe(200);
+    expect(entered.body.gtins).toContainEqual({ gtin, entered: true });
+    const file = (await ctx.http.get(`/api/sites/${site}`).set('Cookie', dentist)).body as SiteFile;
+    expect(file.placement?.gtinOtherSystem).toBe(b.name);
+
+    const bad = await ctx.http
+      .patch(`/api/catalogue/systems/${b.id}`)
+      .set('Cookie', admin)
+      .send({ gtins: [`${base}${(gtinCheckDigit(base) + 1) % 10}`] });
+    expect(bad.status).toBe(400);
+    expect(JSON.stringify(bad.body.fields)).toMatch(/last digit checks/);
+    const dentistTry = await ctx.http
+      .patch(`/api/catalogue/systems/${b.id}`)
+      .set('Cookie', dentist)
+      .send({ gtins: [gtin] });
+    expect(dentistTry.status).toBe(403);
   });
 });

@@ -56,6 +56,8 @@ export const FIELD_LABELS: Record<string, string> = {
   from: 'From',
   givenName: 'Given name',
   grafting: 'Grafting',
+  gtin: 'GTIN',
+  gtins: 'GTINs',
   idleSignOutMinutes: 'Sign out after inactivity (minutes)',
   implantTrueMm: 'True implant length (mm)',
   impressionCoping: 'Impression coping',

@@ -6,6 +6,7 @@ import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
 import { useRecordCalibration, useWrenches } from '../../torque';
 import { useCatalogue } from '../api/catalogue-api';
+import { SystemGtins } from '../components/system-gtins';
 import { ComponentRow } from '../components/component-row';
 import { AddComponentForm, AddPlatformForm, AddSystemForm, AddWrenchForm } from '../components/add-forms';
 import { CONNECTION_LABEL, WRENCH_TYPE_LABEL } from '../../../lib/clinical-labels';
@@ -94,6 +95,7 @@ export function CatalogueRoute() {
           <h2>
             {s.name} <span className="muted">({s.manufacturer})</span>
           </h2>
+          <SystemGtins system={s} />
           {s.platforms.map((p) => (
             <div key={p.id}>
               <h3>
