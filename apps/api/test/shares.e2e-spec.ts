@@ -218,7 +218,6 @@ describe('bad input', () => {
     ['a user who is not a surgeon', ACCOUNTS.otherPracticeDentist, 'not a referring surgeon'],
     ['oneself', ACCOUNTS.dentist, 'your own address'],
     ['a colleague of the same practice', ACCOUNTS.hygienist, 'works in your practice'],
-    ['an address nobody uses', 'nobody.at.all@nowhere.example', 'No one with this e-mail'],
   ])('sharing with %s is a 400 on the e-mail field, and writes nothing', async (_what, email, words) => {
     const p = await patientWithTwoSites();
     const res = await share(p.id, body(email));

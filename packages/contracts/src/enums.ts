@@ -45,7 +45,8 @@ export const ShareScope = z.enum(SHARE_SCOPES, { error: 'Choose placement, outco
 export type ShareScope = z.infer<typeof ShareScope>;
 
 /** A share is active until revoked or until its end date has passed. */
-export const SHARE_STATUSES = ['active', 'ended', 'revoked'] as const;
+/** invited: waiting for a surgeon new to Torquetrail to accept the invitation mailed with the share. */
+export const SHARE_STATUSES = ['invited', 'active', 'ended', 'revoked'] as const;
 export const ShareStatus = z.enum(SHARE_STATUSES);
 export type ShareStatus = z.infer<typeof ShareStatus>;
 

@@ -1,6 +1,6 @@
 // Component catalogue and torque wrenches: the practice admin edits, everyone in the practice reads.
 import { z } from 'zod';
-import { CALIBRATION_INTERVAL_RANGE, TORQUE_NCM_RANGE } from '@torquetrail/domain';
+import { CALIBRATION_INTERVAL_RANGE, isValidGtin, TORQUE_NCM_RANGE } from '@torquetrail/domain';
 import { Id, IsoDate, IsoDateTime, NoteText, PlainText } from './common.js';
 import { ComponentKind, Connection, Tray, WrenchType } from './enums.js';
 
@@ -54,10 +54,25 @@ export const CataloguePlatform = z.object({
 });
 export type CataloguePlatform = z.infer<typeof CataloguePlatform>;
 
+/** A GS1 product number (GTIN-8, -12, -13 or -14, check digit verified), kept as GTIN-14. */
+export const Gtin = z
+  .string({ error: 'Enter the GTIN' })
+  .trim()
+  .refine(isValidGtin, { error: 'Enter a GTIN of 8, 12, 13 or 14 digits whose last digit checks (see the label)' })
+  .transform((g) => g.padStart(14, '0'));
+
+/**
+ * A GTIN the practice's catalogue gives this system: `entered` by whoever keeps the catalogue, or
+ * learned from the first placement whose UDI carried it. A placement whose UDI's GTIN the
+ * catalogue gives another system is flagged in its Site file.
+ */
+export const SystemGtin = z.object({ gtin: z.string(), entered: z.boolean() });
+
 export const CatalogueSystem = z.object({
   id: Id,
   name: z.string(),
   manufacturer: z.string(),
+  gtins: z.array(SystemGtin),
   platforms: z.array(CataloguePlatform),
 });
 export type CatalogueSystem = z.infer<typeof CatalogueSystem>;
@@ -83,8 +98,14 @@ const torqueSpecNcm = z
 
 export const SystemBody = z.object({ name, manufacturer: name });
 export type SystemBody = z.infer<typeof SystemBody>;
-export const SystemPatch = SystemBody.partial();
-export type SystemPatch = z.infer<typeof SystemPatch>;
+export const SystemPatch = SystemBody.partial().extend({
+  /** GTINs to give this system; one the catalogue gave another system (learned or entered) moves here. */
+  gtins: z.array(Gtin).max(50, { error: 'At most 50 GTINs at a time' }).optional(),
+});
+export type SystemPatch = z.input<typeof SystemPatch>;
+/** The web's form for one GTIN entered on a system. */
+export const SystemGtinForm = z.object({ gtin: Gtin });
+export type SystemGtinForm = z.input<typeof SystemGtinForm>;
 
 export const PlatformBody = z.object({
   systemId: Id,

@@ -88,6 +88,8 @@ export const InvitationPreview = z.object({
   email: z.string(),
   role: Role,
   practiceName: z.string(),
+  /** A referring surgeon invited through a share: they name a practice of their own when they accept. */
+  ownPractice: z.boolean(),
   expiresAt: IsoDateTime,
 });
 export type InvitationPreview = z.infer<typeof InvitationPreview>;
@@ -96,12 +98,22 @@ const AcceptInvitationFields = z.object({
   token: LinkToken,
   displayName: PlainText(120).min(1, { error: 'Enter your name as colleagues should see it' }),
   password: NewPassword,
+  /** Only for an invitation to a practice of one's own (`ownPractice`): its name; ignored otherwise. */
+  practiceName: PlainText(160).optional(),
 });
 export const AcceptInvitationBody = AcceptInvitationFields;
 export type AcceptInvitationBody = z.infer<typeof AcceptInvitationBody>;
+export const PRACTICE_NAME_NEEDED = 'Enter the name of your practice, as colleagues know it';
 /** The web's form: the address is known from the preview, so the e-mail part is checked too. */
-export const acceptInvitationForm = (email: string) =>
-  refinePasswordWithEmail(AcceptInvitationFields, (b) => ({ password: b.password, email }), 'password');
+export const acceptInvitationForm = (email: string, ownPractice = false) =>
+  refinePasswordWithEmail(
+    AcceptInvitationFields.refine((b) => !ownPractice || (b.practiceName ?? '') !== '', {
+      path: ['practiceName'],
+      error: PRACTICE_NAME_NEEDED,
+    }),
+    (b) => ({ password: b.password, email }),
+    'password',
+  );
 
 export const PasswordResetRequestBody = z.object({ email: EmailAddress });
 export type PasswordResetRequestBody = z.input<typeof PasswordResetRequestBody>;

@@ -11,7 +11,15 @@ export const Share = z.object({
   patientId: Id,
   patientName: z.string(),
   chartNumber: z.string(),
-  surgeon: z.object({ id: Id, displayName: z.string(), email: z.string(), practiceName: z.string() }),
+  /** An invited surgeon has only the address until they accept (then their account and practice). */
+  surgeon: z.object({
+    id: Id.nullable(),
+    displayName: z.string().nullable(),
+    email: z.string(),
+    practiceName: z.string().nullable(),
+  }),
+  /** While invited: when the invitation's link stops working (null until its mail is sent). */
+  invitationExpiresAt: IsoDateTime.nullable(),
   scopes: z.array(ShareScope),
   /** The shared implant sites; null: every implant site of the patient, also those added later. */
   sites: z.array(z.object({ id: Id, fdi: FdiPosition })).nullable(),
@@ -31,7 +39,10 @@ export const ShareListReply = z.object({ items: z.array(Share) });
 export type ShareListReply = z.infer<typeof ShareListReply>;
 
 export const CreateShareBody = z.object({
-  /** The surgeon's e-mail, exactly: other practices' users are never listed. */
+  /**
+   * The surgeon's e-mail, exactly: other practices' users are never listed. An address with no
+   * account is invited (a one-time link to sign up with a practice of their own).
+   */
   surgeonEmail: EmailAddress,
   scopes: z
     .array(ShareScope)
@@ -74,7 +85,8 @@ export const shareRoutes: RouteContract[] = [
   {
     method: 'post',
     path: '/patients/:id/shares',
-    summary: 'Share the patient with a surgeon of another practice, found by exact e-mail; the surgeon is e-mailed',
+    summary:
+      'Share the patient with a surgeon of another practice, found by exact e-mail (or invited when the address has no account); the surgeon is e-mailed',
     signedIn: true,
     body: CreateShareBody,
     reply: Share,

@@ -26,9 +26,21 @@ export const Placement = z.object({
   connection: Connection,
   platformShift: z.boolean(),
   lot: z.string().nullable(),
+  /** What the surgeon recorded from the implant's label: the UDI and what it carries (GS1 AIs 01, 21, 17). */
+  udi: z.string().nullable(),
+  gtin: z.string().nullable(),
+  serial: z.string().nullable(),
+  expiry: IsoDate.nullable(),
+  /**
+   * The system the catalogue knows the GTIN for when it is not the chosen platform's system: a
+   * wrong system chosen, or a label of another implant scanned. Null when they agree or unknown.
+   */
+  gtinOtherSystem: z.string().nullable(),
   insertionTorqueNcm: z.number().nullable(),
   stabilityIsq: z.number().nullable(),
   loadingProtocol: LoadingProtocol.nullable(),
+  grafting: z.string().nullable(),
+  notes: z.string().nullable(),
 });
 export type Placement = z.infer<typeof Placement>;
 

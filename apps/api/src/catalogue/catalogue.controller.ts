@@ -57,9 +57,9 @@ export class CatalogueController {
     @CurrentUser() user: SessionUser,
     @CurrentAbility() ability: AppAbility,
     @Param('id', uuid()) id: string,
-    @Body(new ZodValidationPipe(SystemPatch)) body: SystemPatch,
+    @Body(new ZodValidationPipe(SystemPatch)) body: z.output<typeof SystemPatch>,
   ): Promise<CatalogueSystem> {
-    return this.catalogue.updateSystem(ability, scopeOf(user), id, body);
+    return this.catalogue.updateSystem(ability, user, scopeOf(user), id, body);
   }
 
   @Post('catalogue/platforms')

@@ -10,6 +10,7 @@ import {
   implantSystems,
   platforms,
   practices,
+  systemGtins,
   torqueWrenches,
   users,
   wrenchCalibrations,
@@ -72,6 +73,34 @@ export async function listComponents(db: Db, practiceId: string, platformId?: st
       ),
     )
     .orderBy(asc(components.kind), asc(components.name));
+}
+
+/** The GTINs the practice's catalogue gives its systems, entered or learned from placements. */
+export function listSystemGtins(db: Db, practiceId: string) {
+  return db
+    .select({
+      systemId: systemGtins.systemId,
+      gtin: systemGtins.gtin,
+      entered: sql<boolean>`${systemGtins.enteredBy} is not null`,
+    })
+    .from(systemGtins)
+    .where(eq(systemGtins.practiceId, practiceId))
+    .orderBy(asc(systemGtins.gtin));
+}
+
+/** Gives each GTIN to the system, as entered by `by`: one the catalogue gave another system moves. */
+export async function enterSystemGtins(
+  tx: Db,
+  v: { practiceId: string; systemId: string; gtins: readonly string[]; by: string },
+) {
+  if (v.gtins.length === 0) return;
+  await tx
+    .insert(systemGtins)
+    .values(v.gtins.map((gtin) => ({ practiceId: v.practiceId, systemId: v.systemId, gtin, enteredBy: v.by })))
+    .onConflictDoUpdate({
+      target: [systemGtins.practiceId, systemGtins.gtin],
+      set: { systemId: v.systemId, enteredBy: v.by },
+    });
 }
 
 export async function findSystem(db: Db, practiceId: string, id: string) {

@@ -66,10 +66,11 @@ export class CatalogueService {
 
   /** The practice's own catalogue (each practice keeps its own values). */
   async catalogue(scope: Scope): Promise<CatalogueReply> {
-    const [systems, platforms, components] = await Promise.all([
+    const [systems, platforms, components, gtins] = await Promise.all([
       repo.listSystems(this.db, scope.practiceId),
       repo.listPlatforms(this.db, scope.practiceId),
       repo.listComponents(this.db, scope.practiceId),
+      repo.listSystemGtins(this.db, scope.practiceId),
     ]);
     return {
       caution: MANUFACTURER_CAUTION,
@@ -77,6 +78,7 @@ export class CatalogueService {
         id: s.id,
         name: s.name,
         manufacturer: s.manufacturer,
+        gtins: gtins.filter((g) => g.systemId === s.id).map(({ gtin, entered }) => ({ gtin, entered })),
         platforms: platforms
           .filter((p) => p.systemId === s.id)
           .map(({ practiceId: _p, ...p }) => ({
@@ -105,7 +107,14 @@ export class CatalogueService {
     return this.system(scope, id);
   }
 
-  async updateSystem(ability: AppAbility, scope: Scope, id: string, patch: SystemPatch): Promise<CatalogueSystem> {
+  /** Renames a system or gives it GTINs (entered by the user; a learned one is corrected so). */
+  async updateSystem(
+    ability: AppAbility,
+    user: SessionUser,
+    scope: Scope,
+    id: string,
+    { gtins, ...patch }: z.output<typeof SystemPatch>,
+  ): Promise<CatalogueSystem> {
     const before = assertCan(
       ability,
       'update',
@@ -117,9 +126,10 @@ export class CatalogueService {
       'CatalogueSystem',
       async (tx) => {
         await repo.updateSystem(tx, scope.practiceId, id, patch);
+        if (gtins) await repo.enterSystemGtins(tx, { practiceId: scope.practiceId, systemId: id, gtins, by: user.id });
         return id;
       },
-      { before, after: patch },
+      { before, after: { ...patch, ...(gtins ? { gtins } : {}) } },
     );
     return this.system(scope, id);
   }

@@ -5,13 +5,17 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { migrate } from 'drizzle-orm/node-postgres/migrator';
 import { createDatabase, createPool } from './database.js';
+import { backfillPlacementGtins } from './gtin-backfill.js';
 
 export const migrationsFolder = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../../../drizzle');
 
 export async function runMigrations(databaseUrl: string): Promise<void> {
   const pool = createPool(databaseUrl);
   try {
-    await migrate(createDatabase(pool), { migrationsFolder });
+    const db = createDatabase(pool);
+    await migrate(db, { migrationsFolder });
+    // Data the SQL cannot derive (it needs the GS1 parser): after the schema is in place.
+    await backfillPlacementGtins(db);
   } finally {
     await pool.end();
   }

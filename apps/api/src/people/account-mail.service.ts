@@ -76,16 +76,30 @@ export class AccountMailService {
         if (!row || !row.open || (job.round !== undefined && job.round !== row.round)) return 'gone';
         if (row.mailStatus === 'sent') return 'already-sent';
         const expires = new Date(Date.now() + INVITATION_VALID_MS);
-        message = {
-          to: row.email,
-          subject: `Your invitation to ${row.practiceName} on Torquetrail`,
-          text:
-            `${row.inviterName} invites you to join ${row.practiceName} on Torquetrail.\n\n` +
-            `Choose your name and password here (the link works once, until ${whenUtc(expires)}):\n` +
-            `${row.linkOrigin}/welcome#token=${token}\n\n` +
-            `If you did not expect this invitation, ignore this e-mail: nothing happens without the link.`,
-          validMs: INVITATION_VALID_MS,
-        };
+        const link = `${row.linkOrigin}/welcome#token=${token}`;
+        const until = `the link works once, until ${whenUtc(expires)}`;
+        // A referring surgeon invited by a share: the mail names the practice, never the patient.
+        message = row.ownPractice
+          ? {
+              to: row.email,
+              subject: `${row.practiceName} shared a patient with you on Torquetrail`,
+              text:
+                `${row.inviterName} of ${row.practiceName} shared a patient with you on Torquetrail, ` +
+                `where your practice records and follows the implants it places.\n\n` +
+                `Choose your name, your practice's name and a password here (${until}):\n${link}\n\n` +
+                `Then sign in to see the patient under Patients. If you did not expect this, ` +
+                `ignore this e-mail: nothing is opened without the link.`,
+              validMs: INVITATION_VALID_MS,
+            }
+          : {
+              to: row.email,
+              subject: `Your invitation to ${row.practiceName} on Torquetrail`,
+              text:
+                `${row.inviterName} invites you to join ${row.practiceName} on Torquetrail.\n\n` +
+                `Choose your name and password here (${until}):\n${link}\n\n` +
+                `If you did not expect this invitation, ignore this e-mail: nothing happens without the link.`,
+              validMs: INVITATION_VALID_MS,
+            };
       } else {
         const row = await repo.lockResetMail(tx, job.id, RESET_VALID_MS);
         if (!row || !row.open || !row.fresh) return 'gone';

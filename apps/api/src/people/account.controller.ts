@@ -38,7 +38,7 @@ export class AccountController {
   @Post('invitation/accept')
   @HttpCode(204)
   acceptInvitation(@Body(new ZodValidationPipe(AcceptInvitationBody)) body: AcceptInvitationBody): Promise<void> {
-    return this.accounts.acceptInvitation(body.token, body.displayName, body.password);
+    return this.accounts.acceptInvitation(body.token, body);
   }
 
   @Post('password-reset')

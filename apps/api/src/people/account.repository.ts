@@ -15,6 +15,7 @@ export async function lockInvitationMail(db: Db, id: string) {
       mailStatus: invitations.mailStatus,
       open: sql<boolean>`${invitations.acceptedAt} is null and ${invitations.revokedAt} is null`,
       linkOrigin: invitations.linkOrigin,
+      ownPractice: invitations.ownPractice,
       practiceName: practices.name,
       inviterName: users.displayName,
     })

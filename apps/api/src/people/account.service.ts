@@ -1,13 +1,17 @@
 import { GoneException, Inject, Injectable, NotFoundException } from '@nestjs/common';
 import {
+  type AcceptInvitationBody,
   type InvitationPreview,
+  PRACTICE_NAME_NEEDED,
   passwordProblem,
   type PasswordResetPreview,
   type PasswordResetRequestReply,
 } from '@torquetrail/contracts';
 import { hashPassword } from '../auth/password.js';
+import { currentAudit } from '../common/audit-context.js';
 import { fieldError } from '../common/field-error.js';
 import { isUniqueViolation } from '../common/postgres-error.js';
+import { auditedTransaction, insertAuditEvent } from '../db/audited-transaction.js';
 import { DB, type Database } from '../db/database.js';
 import { AccountMailService } from './account-mail.service.js';
 import * as accounts from './account.repository.js';
@@ -38,27 +42,69 @@ export class AccountService {
       throw new GoneException('This invitation was used already: sign in with your e-mail and password');
     if (row.revokedAt) throw new GoneException('This invitation was withdrawn by the practice');
     if (!row.expiresAt || row.expiresAt <= new Date())
-      throw new GoneException('This invitation has expired: ask your practice administrator to send it again');
+      throw new GoneException(
+        row.ownPractice
+          ? 'This invitation has expired: ask the practice that shared the patient to share it again'
+          : 'This invitation has expired: ask your practice administrator to send it again',
+      );
     return { ...row, expiresAt: row.expiresAt };
   }
 
   async previewInvitation(token: string): Promise<InvitationPreview> {
     const row = await this.openInvitation(this.db, token);
-    return { email: row.email, role: row.role, practiceName: row.practiceName, expiresAt: row.expiresAt.toISOString() };
+    return {
+      email: row.email,
+      role: row.role,
+      practiceName: row.practiceName,
+      ownPractice: row.ownPractice,
+      expiresAt: row.expiresAt.toISOString(),
+    };
   }
 
-  /** Makes the invitee's account; the link is used up in the same transaction (single use). */
-  async acceptInvitation(token: string, displayName: string, password: string): Promise<void> {
-    await this.db.transaction(async (tx) => {
+  /**
+   * Makes the invitee's account; the link is used up in the same transaction (single use). A
+   * referring surgeon invited by a share gets a practice of their own, and the shares that waited
+   * for them open at once, each with its row in the sharing practice's audit trail.
+   */
+  async acceptInvitation(token: string, body: AcceptInvitationBody): Promise<void> {
+    await auditedTransaction(this.db, async (tx) => {
       const row = await this.openInvitation(tx, token, true);
-      const problem = passwordProblem(password, row.email);
+      const problem = passwordProblem(body.password, row.email);
       if (problem) throw fieldError({ password: problem });
+      const practiceName = body.practiceName?.trim() || null;
+      if (row.ownPractice && !practiceName) throw fieldError({ practiceName: PRACTICE_NAME_NEEDED });
+      let account: { userId: string; practiceId: string };
       try {
-        await people.acceptInvitation(tx, row, { displayName, passwordHash: await hashPassword(password) });
+        account = await people.acceptInvitation(tx, row, {
+          displayName: body.displayName,
+          passwordHash: await hashPassword(body.password),
+          practiceName,
+        });
       } catch (error) {
         if (isUniqueViolation(error)) throw new GoneException(`${row.email} has an account already: sign in instead`);
         throw error;
       }
+      if (!row.ownPractice) return;
+      const request = currentAudit();
+      for (const share of await people.openInvitedShares(tx, row.email, account.userId))
+        await insertAuditEvent(tx, {
+          practiceId: share.practiceId,
+          userId: account.userId,
+          role: row.role,
+          action: 'share-change',
+          outcome: 'allowed',
+          httpStatus: 204,
+          route: 'POST /account/invitation/accept',
+          recordType: 'Share',
+          recordId: share.id,
+          patientId: share.patientId,
+          query: null,
+          before: { surgeonId: null, invitationId: row.id },
+          after: { surgeonId: account.userId, practiceId: account.practiceId },
+          address: request?.address ?? null,
+          userAgent: request?.userAgent ?? null,
+          requestId: request?.requestId ?? null,
+        });
     });
   }
 

@@ -11,5 +11,7 @@ import { PeopleService } from './people.service.js';
   imports: [AuthModule],
   controllers: [PeopleController, AccountController],
   providers: [PeopleService, AccountService, AccountMailService],
+  // Shares invite a referring surgeon new to Torquetrail with the same one-time link mail.
+  exports: [AccountMailService],
 })
 export class PeopleModule {}

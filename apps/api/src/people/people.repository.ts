@@ -1,8 +1,8 @@
-import { and, asc, desc, eq, isNull, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, isNull, sql } from 'drizzle-orm';
 import type { Role } from '@torquetrail/authz';
 import { alias } from 'drizzle-orm/pg-core';
 import type { Db } from '../db/database.js';
-import { invitations, practices, users } from '../db/schema/index.js';
+import { invitations, patientShares, practices, users } from '../db/schema/index.js';
 
 const personColumns = {
   id: users.id,
@@ -71,7 +71,7 @@ export const listInvitations = (db: Db, practiceId: string) =>
     .select(invitationColumns)
     .from(invitations)
     .innerJoin(inviter, eq(inviter.id, invitations.invitedBy))
-    .where(eq(invitations.practiceId, practiceId))
+    .where(and(eq(invitations.practiceId, practiceId), eq(invitations.ownPractice, false)))
     .orderBy(desc(invitations.createdAt));
 
 export async function findInvitation(db: Db, id: string) {
@@ -79,7 +79,7 @@ export async function findInvitation(db: Db, id: string) {
     .select(invitationColumns)
     .from(invitations)
     .innerJoin(inviter, eq(inviter.id, invitations.invitedBy))
-    .where(eq(invitations.id, id));
+    .where(and(eq(invitations.id, id), eq(invitations.ownPractice, false)));
   return row ?? null;
 }
 
@@ -126,6 +126,7 @@ export async function findInvitationByToken(db: Db, tokenHash: string, lock = fa
       practiceName: practices.name,
       email: invitations.email,
       role: invitations.role,
+      ownPractice: invitations.ownPractice,
       expiresAt: invitations.expiresAt,
       acceptedAt: invitations.acceptedAt,
       revokedAt: invitations.revokedAt,
@@ -137,21 +138,74 @@ export async function findInvitationByToken(db: Db, tokenHash: string, lock = fa
   return row ?? null;
 }
 
-/** The invitee's account, made from the invitation; the invitation is used up. */
+/**
+ * The invitee's account, made from the invitation, in the inviting practice or (`ownPractice`) in
+ * a new practice of the given name; the invitation is used up.
+ */
 export async function acceptInvitation(
   db: Db,
-  invitation: { id: string; practiceId: string; email: string; role: Role },
-  v: { displayName: string; passwordHash: string },
-): Promise<string> {
+  invitation: { id: string; practiceId: string; email: string; role: Role; ownPractice: boolean },
+  v: { displayName: string; passwordHash: string; practiceName: string | null },
+): Promise<{ userId: string; practiceId: string }> {
+  let practiceId = invitation.practiceId;
+  if (invitation.ownPractice) {
+    const [practice] = await db
+      .insert(practices)
+      .values({ name: v.practiceName ?? '' })
+      .returning({ id: practices.id });
+    practiceId = practice.id;
+  }
   const [user] = await db
     .insert(users)
-    .values({ practiceId: invitation.practiceId, email: invitation.email, role: invitation.role, ...v })
+    .values({
+      practiceId,
+      email: invitation.email,
+      role: invitation.role,
+      displayName: v.displayName,
+      passwordHash: v.passwordHash,
+    })
     .returning({ id: users.id });
   await db
     .update(invitations)
     .set({ acceptedAt: new Date(), acceptedUserId: user.id })
     .where(eq(invitations.id, invitation.id));
-  return user.id;
+  return { userId: user.id, practiceId };
+}
+
+/**
+ * The shares that waited for this address to sign up become the new surgeon's: those of the
+ * accepted invitation and of other practices' invitations of the same address still open (one
+ * account serves them all; those invitations are used up too). Returns the shares opened.
+ */
+export async function openInvitedShares(db: Db, email: string, userId: string) {
+  const waiting = await db
+    .update(invitations)
+    .set({ acceptedAt: new Date(), acceptedUserId: userId })
+    .where(
+      and(
+        eq(invitations.email, email),
+        eq(invitations.ownPractice, true),
+        isNull(invitations.revokedAt),
+        sql`(${invitations.acceptedAt} is null or ${invitations.acceptedUserId} = ${userId})`,
+        sql`(${invitations.expiresAt} is null or ${invitations.expiresAt} > now())`,
+      ),
+    )
+    .returning({ id: invitations.id });
+  if (waiting.length === 0) return [];
+  return db
+    .update(patientShares)
+    .set({ sharedWithUserId: userId })
+    .where(
+      and(
+        inArray(
+          patientShares.invitationId,
+          waiting.map((w) => w.id),
+        ),
+        isNull(patientShares.sharedWithUserId),
+        isNull(patientShares.revokedAt),
+      ),
+    )
+    .returning({ id: patientShares.id, practiceId: patientShares.practiceId, patientId: patientShares.patientId });
 }
 
 // ---- practice settings ---------------------------------------------------------------------

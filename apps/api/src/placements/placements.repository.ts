@@ -15,6 +15,7 @@ import {
 import type { Scope } from '../authz/scope.js';
 import { visiblePatients } from '../authz/visible-patients.js';
 import { insertAmendment, isCurrentVersion, supersededById } from '../db/amendments.js';
+import { learnSystemGtin } from '../db/system-gtins.js';
 
 /** A patient the user may see (scoped in SQL), with the practice a new site belongs to. */
 export async function findVisiblePatient(db: Db, scope: Scope, patientId: string) {
@@ -135,16 +136,22 @@ export async function findComponentOfPlatform(db: Db, practiceId: string, platfo
 }
 
 type PlacementValues = typeof placements.$inferInsert;
+/** A placement; the catalogue learns the system of its UDI's GTIN if it did not know it. */
 export async function insertPlacement(tx: Tx, v: PlacementValues) {
   const [row] = await tx.insert(placements).values(v).returning({ id: placements.id });
+  await learnSystemGtin(tx, { practiceId: v.practiceId, platformId: v.platformId, gtin: v.gtin ?? null });
   return row.id;
 }
 
 /** A new version of a placement; a second amendment of one version is refused by the database. */
-export const insertPlacementAmendment = (
-  db: Db,
+export async function insertPlacementAmendment(
+  tx: Db,
   v: PlacementValues & { supersedesId: string; amendmentReason: string },
-) => insertAmendment(db, placements, v);
+) {
+  const id = await insertAmendment(tx, placements, v);
+  await learnSystemGtin(tx, { practiceId: v.practiceId, platformId: v.platformId, gtin: v.gtin ?? null });
+  return id;
+}
 
 export async function insertClosurePart(tx: Tx, v: typeof componentInstances.$inferInsert) {
   const [row] = await tx.insert(componentInstances).values(v).returning({ id: componentInstances.id });

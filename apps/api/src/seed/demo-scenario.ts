@@ -13,6 +13,7 @@ import type {
 import { PATIENT_RECORD_FIELDS, SHARE_SCOPES } from '@torquetrail/contracts';
 import { addCalendarDays as addDays, parseUdi, RULES_VERSION, torqueVerdict } from '@torquetrail/domain';
 import type { Tx } from '../db/database.js';
+import { learnSystemGtin } from '../db/system-gtins.js';
 import { hashPassword } from '../auth/password.js';
 import {
   componentInstances,
@@ -113,18 +114,20 @@ async function place(
   },
 ) {
   const imbert = p.surgeon !== 'former';
+  const platformId = ctx.catalogue.get(p.platform)!.platformId;
+  const gtin = p.udi ? parseUdi(p.udi).gtin : null;
   await ctx.tx.insert(placements).values({
     practiceId: ctx.practiceId,
     patientId: p.patientId,
     siteId: p.siteId,
-    platformId: ctx.catalogue.get(p.platform)!.platformId,
+    platformId,
     placedOn: p.placedOn,
     surgeonUserId: imbert ? ctx.userIds.get('rafael.imbert@northgate.example')! : null,
     surgeonName: imbert ? 'Dr Rafael Imbert (Northgate Oral Surgery)' : 'Dr Selma Voss (former associate)',
     lengthMm: p.lengthMm,
     lot: p.lot,
     udi: p.udi,
-    gtin: p.udi ? parseUdi(p.udi).gtin : null,
+    gtin,
     insertionTorqueNcm: p.insertionTorqueNcm,
     stabilityIsq: p.isq,
     loadingProtocol: p.loading ?? 'conventional',
@@ -136,6 +139,7 @@ async function place(
       : ctx.userIds.get('ines.calloway@larkspur.example')!,
     recordedAt: at(p.placedOn, '16:00'),
   });
+  await learnSystemGtin(ctx.tx, { practiceId: ctx.practiceId, platformId, gtin });
 }
 
 /** Installs a part and logs its torque history: [date, time, applied N·cm, reason]. */

@@ -1,13 +1,21 @@
 // Shares and their notices. A share is found through the sharing practice only (the `where`
 // clause names it); another practice's user is found by the exact e-mail and nothing else.
-import { and, asc, desc, eq, inArray, isNull, sql, type SQL } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, isNull, ne, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import type { ShareNoticeKind, ShareScope } from '@torquetrail/contracts';
 import type { Scope } from '../authz/scope.js';
 import { visiblePatients } from '../authz/visible-patients.js';
 import type { Db } from '../db/database.js';
 import { liveShare } from '../db/live-share.js';
-import { implantSites, patients, patientShares, practices, shareNotices, users } from '../db/schema/index.js';
+import {
+  implantSites,
+  invitations,
+  patients,
+  patientShares,
+  practices,
+  shareNotices,
+  users,
+} from '../db/schema/index.js';
 
 const surgeon = alias(users, 'surgeon');
 const sharedBy = alias(users, 'shared_by');
@@ -23,10 +31,15 @@ function selectShares(db: Db, where: SQL) {
       givenName: patients.givenName,
       familyName: patients.familyName,
       chartNumber: patients.chartNumber,
-      surgeonId: surgeon.id,
+      surgeonId: patientShares.sharedWithUserId,
       surgeonName: surgeon.displayName,
-      surgeonEmail: surgeon.email,
+      surgeonEmail: sql<string>`coalesce(${surgeon.email}, ${invitations.email})`,
       surgeonPracticeName: surgeonPractice.name,
+      invitationId: patientShares.invitationId,
+      invitationExpiresAt: invitations.expiresAt,
+      /** An invited surgeon's link still works (or its mail is still on its way). */
+      invitationOpen: sql<boolean>`(${invitations.acceptedAt} is null and ${invitations.revokedAt} is null
+        and (${invitations.expiresAt} is null or ${invitations.expiresAt} > now()))`,
       scopes: patientShares.scopes,
       siteIds: patientShares.siteIds,
       endsOn: patientShares.endsOn,
@@ -40,8 +53,9 @@ function selectShares(db: Db, where: SQL) {
     })
     .from(patientShares)
     .innerJoin(patients, eq(patients.id, patientShares.patientId))
-    .innerJoin(surgeon, eq(surgeon.id, patientShares.sharedWithUserId))
-    .innerJoin(surgeonPractice, eq(surgeonPractice.id, surgeon.practiceId))
+    .leftJoin(surgeon, eq(surgeon.id, patientShares.sharedWithUserId))
+    .leftJoin(surgeonPractice, eq(surgeonPractice.id, surgeon.practiceId))
+    .leftJoin(invitations, eq(invitations.id, patientShares.invitationId))
     .innerJoin(sharedBy, eq(sharedBy.id, patientShares.sharedByUserId))
     .leftJoin(revokedBy, eq(revokedBy.id, patientShares.revokedBy))
     .where(where)
@@ -84,13 +98,72 @@ export function findSiteFdis(db: Db, siteIds: readonly string[]) {
     .where(inArray(implantSites.id, [...siteIds]));
 }
 
-/** An active user by the exact address: the only way a user of another practice is found. */
-export async function findActiveUserByEmail(db: Db, email: string) {
+/** A user by the exact address (active or not): the only way a user of another practice is found. */
+export async function findUserByEmail(db: Db, email: string) {
   const [row] = await db
-    .select({ id: users.id, role: users.role, practiceId: users.practiceId })
+    .select({ id: users.id, role: users.role, practiceId: users.practiceId, active: users.active })
     .from(users)
-    .where(and(eq(users.email, email.toLowerCase()), eq(users.active, true)));
+    .where(eq(users.email, email.toLowerCase()));
   return row ?? null;
+}
+
+/**
+ * The practice's invitation still open for this address (not accepted or withdrawn), locked: a
+ * second share with the same new surgeon joins it; `expired` ones are withdrawn and made anew.
+ */
+export async function lockOpenInvitation(tx: Db, practiceId: string, email: string) {
+  const [row] = await tx
+    .select({
+      id: invitations.id,
+      ownPractice: invitations.ownPractice,
+      expired: sql<boolean>`(${invitations.expiresAt} is not null and ${invitations.expiresAt} <= now())`,
+    })
+    .from(invitations)
+    .where(
+      and(
+        eq(invitations.practiceId, practiceId),
+        eq(invitations.email, email),
+        isNull(invitations.acceptedAt),
+        isNull(invitations.revokedAt),
+      ),
+    )
+    .for('update');
+  return row ?? null;
+}
+
+/** An invitation of a referring surgeon to Torquetrail, to a practice of their own. */
+export async function insertSurgeonInvitation(
+  tx: Db,
+  v: { practiceId: string; email: string; invitedBy: string; linkOrigin: string },
+): Promise<string> {
+  const [row] = await tx
+    .insert(invitations)
+    .values({ ...v, role: 'surgeon', ownPractice: true })
+    .returning({ id: invitations.id });
+  return row.id;
+}
+
+export async function withdrawInvitation(tx: Db, id: string, by: string): Promise<void> {
+  await tx
+    .update(invitations)
+    .set({ revokedAt: new Date(), revokedBy: by })
+    .where(and(eq(invitations.id, id), isNull(invitations.acceptedAt), isNull(invitations.revokedAt)));
+}
+
+/** Whether an invitation still has a share waiting on it other than `exceptShareId`. */
+export async function invitationHasOtherShares(tx: Db, invitationId: string, exceptShareId: string) {
+  const rows = await tx
+    .select({ id: patientShares.id })
+    .from(patientShares)
+    .where(
+      and(
+        eq(patientShares.invitationId, invitationId),
+        ne(patientShares.id, exceptShareId),
+        isNull(patientShares.revokedAt),
+      ),
+    )
+    .limit(1);
+  return rows.length > 0;
 }
 
 export async function insertShare(
@@ -98,7 +171,8 @@ export async function insertShare(
   v: {
     practiceId: string;
     patientId: string;
-    sharedWithUserId: string;
+    sharedWithUserId: string | null;
+    invitationId: string | null;
     sharedByUserId: string;
     scopes: ShareScope[];
     siteIds: string[] | null;

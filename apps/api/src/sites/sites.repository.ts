@@ -15,6 +15,7 @@ import {
   restorationSites,
   restorations,
   seatingChecks,
+  systemGtins,
   torqueEvents,
 } from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
@@ -41,6 +42,15 @@ const visibleSiteQuery = preparedFor((db) =>
     .prepare('site_file_site'),
 );
 
+/**
+ * The system the practice's catalogue gives the placement's GTIN when it is another than the
+ * chosen platform's (null when they agree or the GTIN is unknown): flagged in the Site file.
+ */
+export const gtinOtherSystem = () => sql<string | null>`(
+  select os.name from ${systemGtins} sg join ${implantSystems} os on os.id = sg.system_id
+  where sg.practice_id = ${placements.practiceId} and sg.gtin = ${placements.gtin}
+    and sg.system_id <> ${platforms.systemId})`;
+
 /** The current placement: the one no later amendment supersedes. */
 export async function findCurrentPlacement(db: Database, siteId: string) {
   const [row] = await currentPlacementQuery(db).execute({ siteId });
@@ -59,9 +69,14 @@ const currentPlacementQuery = preparedFor((db) =>
       connection: platforms.connection,
       platformShift: platforms.platformShift,
       lot: placements.lot,
+      udi: placements.udi,
+      gtin: placements.gtin,
       insertionTorqueNcm: placements.insertionTorqueNcm,
       stabilityIsq: placements.stabilityIsq,
       loadingProtocol: placements.loadingProtocol,
+      grafting: placements.grafting,
+      notes: placements.notes,
+      gtinOtherSystem: gtinOtherSystem(),
     })
     .from(placements)
     .innerJoin(platforms, eq(platforms.id, placements.platformId))

@@ -1,3 +1,4 @@
+import { udiFacts } from '../common/udi-facts.js';
 import { Inject, Injectable } from '@nestjs/common';
 import { type AppAbility, subject } from '@torquetrail/authz';
 import { STACK_ORDER, type SiteFile, type TimelineKind, type TimelineReply } from '@torquetrail/contracts';
@@ -72,7 +73,7 @@ export class SitesService {
       fdi: site.fdi,
       status: site.status,
       maintenanceStatus: latestExam?.get(site.id)?.status ?? 'not-examined',
-      placement,
+      placement: placement && { ...placement, ...udiFacts(placement.udi) },
       parts: parts.map(({ latest, ...part }) => {
         const last = lastTorque.get(part.instanceId);
         return {

@@ -29,6 +29,7 @@ import {
   users,
 } from '../db/schema/index.js';
 import { isAmended } from '../db/amendments.js';
+import { gtinOtherSystem } from './sites.repository.js';
 
 export async function placementsOfSite(db: Database, siteId: string) {
   return placementsOfSiteQuery(db).execute({ siteId });
@@ -45,6 +46,11 @@ const placementsOfSiteQuery = preparedFor((db) =>
       stabilityIsq: placements.stabilityIsq,
       surgeonName: placements.surgeonName,
       lot: placements.lot,
+      udi: placements.udi,
+      gtin: placements.gtin,
+      gtinOtherSystem: gtinOtherSystem(),
+      grafting: placements.grafting,
+      notes: placements.notes,
       supersedesId: placements.supersedesId,
       amendmentReason: placements.amendmentReason,
       amended: isAmended(placements),

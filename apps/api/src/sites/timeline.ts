@@ -10,6 +10,7 @@ import {
   type ReminderStatus,
 } from '@torquetrail/contracts';
 import { isRetrievable } from '@torquetrail/domain';
+import { udiFacts } from '../common/udi-facts.js';
 import type * as repo from './timeline.repository.js';
 
 type Rows<K extends keyof typeof repo> = Awaited<ReturnType<(typeof repo)[K]>>;
@@ -77,6 +78,23 @@ function base(
   };
 }
 
+/** What the surgeon recorded at placement, as the Timeline's detail line. */
+function placementDetail(p: TimelineRows['placements'][number]): string | null {
+  const { serial, expiry } = udiFacts(p.udi);
+  const said = [
+    p.insertionTorqueNcm !== null ? `insertion torque ${p.insertionTorqueNcm} N·cm` : null,
+    p.stabilityIsq !== null ? `ISQ ${p.stabilityIsq}` : null,
+    p.lot ? `lot ${p.lot}` : null,
+    p.gtin ? `GTIN ${p.gtin}` : null,
+    serial ? `serial ${serial}` : null,
+    expiry ? `expiry ${expiry}` : null,
+    p.gtinOtherSystem ? `the catalogue knows this GTIN as ${p.gtinOtherSystem}, not the system chosen` : null,
+    p.grafting ? `grafting: ${p.grafting}` : null,
+    p.notes ? `notes: ${p.notes}` : null,
+  ].filter(Boolean);
+  return said.length > 0 ? said.join('; ') : null;
+}
+
 export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: TimelineKind[]): TimelineReply {
   const events: TimelineEvent[] = [];
   /** Tie-break for entries of one kind on one day: when they were recorded (an amendment after its original). */
@@ -90,14 +108,7 @@ export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: Timeli
         true,
         `${p.supersedesId ? 'Placement (amended record)' : 'Implant placed'}: ${p.systemName}, ${p.platformName} × ${p.lengthMm} mm`,
         {
-          detail:
-            [
-              p.insertionTorqueNcm !== null ? `insertion torque ${p.insertionTorqueNcm} N·cm` : null,
-              p.stabilityIsq !== null ? `ISQ ${p.stabilityIsq}` : null,
-              p.lot ? `lot ${p.lot}` : null,
-            ]
-              .filter(Boolean)
-              .join(', ') || null,
+          detail: placementDetail(p),
           byName: p.surgeonName,
           amended: p.amended,
           supersedesId: p.supersedesId,

@@ -261,6 +261,7 @@ export const SHARE_SCOPE_HINT: Record<ShareScope, string> = {
 };
 
 export const SHARE_STATUS_LABEL: Record<ShareStatus, string> = {
+  invited: 'Invited',
   active: 'Active',
   ended: 'Ended',
   revoked: 'Revoked',

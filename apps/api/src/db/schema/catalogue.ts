@@ -1,4 +1,15 @@
-import { type AnyPgColumn, boolean, date, index, numeric, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import {
+  type AnyPgColumn,
+  boolean,
+  date,
+  index,
+  numeric,
+  pgTable,
+  text,
+  timestamp,
+  uniqueIndex,
+  uuid,
+} from 'drizzle-orm/pg-core';
 import { amendmentChain } from './amendment-chain.js';
 import { componentKindEnum, connectionEnum, trayEnum, wrenchTypeEnum } from './enums.js';
 import { practices, users } from './practices.js';
@@ -18,6 +29,29 @@ export const implantSystems = pgTable(
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [index('implant_systems_practice_idx').on(t.practiceId)],
+);
+
+/**
+ * Which implant system a GTIN (GS1 product number) belongs to, per practice: learned from the
+ * first placement whose UDI carried it, or entered by the practice administrator (who may correct
+ * a learned one). A placement whose UDI's GTIN belongs to another system is flagged.
+ */
+export const systemGtins = pgTable(
+  'system_gtins',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
+    systemId: uuid('system_id')
+      .notNull()
+      .references(() => implantSystems.id),
+    gtin: text('gtin').notNull(),
+    /** Null when learned from a placement's UDI; the administrator who entered it otherwise. */
+    enteredBy: uuid('entered_by').references(() => users.id),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex('system_gtins_practice_gtin_unique').on(t.practiceId, t.gtin)],
 );
 
 export const platforms = pgTable(

@@ -1,5 +1,6 @@
 import {
   boolean,
+  check,
   date,
   index,
   integer,
@@ -21,6 +22,7 @@ import {
   shareNoticeKindEnum,
   shareScopeEnum,
 } from './enums.js';
+import { invitations } from './people.js';
 import { practices, users } from './practices.js';
 
 export const patients = pgTable(
@@ -128,9 +130,10 @@ export const patientShares = pgTable(
     patientId: uuid('patient_id')
       .notNull()
       .references(() => patients.id),
-    sharedWithUserId: uuid('shared_with_user_id')
-      .notNull()
-      .references(() => users.id),
+    /** The surgeon; null while the share waits for an invited surgeon to sign up (`invitationId`). */
+    sharedWithUserId: uuid('shared_with_user_id').references(() => users.id),
+    /** The invitation of a surgeon new to Torquetrail: the share opens when they accept it. */
+    invitationId: uuid('invitation_id').references(() => invitations.id),
     sharedByUserId: uuid('shared_by_user_id')
       .notNull()
       .references(() => users.id),
@@ -146,7 +149,14 @@ export const patientShares = pgTable(
     revokedBy: uuid('revoked_by').references(() => users.id),
     revokeReason: text('revoke_reason'),
   },
-  (t) => [index('patient_shares_user_idx').on(t.sharedWithUserId), index('patient_shares_patient_idx').on(t.patientId)],
+  (t) => [
+    index('patient_shares_user_idx').on(t.sharedWithUserId),
+    index('patient_shares_patient_idx').on(t.patientId),
+    index('patient_shares_invitation_idx')
+      .on(t.invitationId)
+      .where(sql`${t.invitationId} is not null`),
+    check('patient_shares_has_surgeon', sql`${t.sharedWithUserId} is not null or ${t.invitationId} is not null`),
+  ],
 );
 
 /**

@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm';
-import { index, integer, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import { boolean, index, integer, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
 import { reminderStatusEnum, roleEnum } from './enums.js';
 import { practices, users } from './practices.js';
 
@@ -26,6 +26,11 @@ export const invitations = pgTable(
       .references(() => practices.id),
     email: text('email').notNull(),
     role: roleEnum('role').notNull(),
+    /**
+     * A referring surgeon new to Torquetrail, invited by sharing a patient: they join no existing
+     * practice but one of their own, created under the name they give when they accept.
+     */
+    ownPractice: boolean('own_practice').notNull().default(false),
     invitedBy: uuid('invited_by')
       .notNull()
       .references(() => users.id),

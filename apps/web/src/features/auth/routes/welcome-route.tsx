@@ -27,15 +27,28 @@ export function WelcomeRoute() {
       </PublicPage>
     );
   return (
-    <PublicPage title={`Join ${preview.data.practiceName}`}>
+    <PublicPage
+      title={
+        preview.data.ownPractice
+          ? `${preview.data.practiceName} shared a patient with you`
+          : `Join ${preview.data.practiceName}`
+      }
+    >
       <AcceptForm token={token} invitation={preview.data} />
     </PublicPage>
   );
 }
 
 function AcceptForm({ token, invitation }: { token: string; invitation: InvitationPreview }) {
-  const schema = useMemo(() => acceptInvitationForm(invitation.email), [invitation.email]);
-  const form = useContractForm(schema, { token, displayName: '', password: '' }, { keepDraft: false });
+  const schema = useMemo(
+    () => acceptInvitationForm(invitation.email, invitation.ownPractice),
+    [invitation.email, invitation.ownPractice],
+  );
+  const form = useContractForm(
+    schema,
+    { token, displayName: '', password: '', ...(invitation.ownPractice ? { practiceName: '' } : {}) },
+    { keepDraft: false },
+  );
   const accept = useAcceptInvitation();
   const submit = (body: AcceptInvitationBody) =>
     accept.mutate(body, { onError: (error) => applyServerErrors(form.setError, error) });
@@ -54,9 +67,16 @@ function AcceptForm({ token, invitation }: { token: string; invitation: Invitati
     );
   return (
     <FormProvider {...form}>
-      <p>
-        You are invited as <strong>{ROLE_LABEL[invitation.role]}</strong> with {invitation.email}.
-      </p>
+      {invitation.ownPractice ? (
+        <p>
+          You are invited as a <strong>{ROLE_LABEL[invitation.role]}</strong> of your own practice with{' '}
+          {invitation.email}. Once your account is made, the shared patient is under Patients.
+        </p>
+      ) : (
+        <p>
+          You are invited as <strong>{ROLE_LABEL[invitation.role]}</strong> with {invitation.email}.
+        </p>
+      )}
       {message && (
         <Callout intent="danger" role="alert" className="sign-in-page__notice">
           {message}
@@ -74,6 +94,18 @@ function AcceptForm({ token, invitation }: { token: string; invitation: Invitati
             />
           )}
         </FormField>
+        {invitation.ownPractice && (
+          <FormField name="practiceName" label="Your practice's name" labelFor="welcome-practice">
+            {(a11y) => (
+              <InputGroup
+                id="welcome-practice"
+                autoComplete="organization"
+                {...a11y}
+                {...withInputRef(form.register('practiceName'))}
+              />
+            )}
+          </FormField>
+        )}
         <FormField name="password" label="Password" labelFor="welcome-password" help={PASSWORD_HELP}>
           {(a11y) => (
             <InputGroup

@@ -8,6 +8,7 @@ import {
   ComponentVersionsReply,
   type PlatformBody,
   type SystemBody,
+  type SystemPatch,
 } from '@torquetrail/contracts';
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { apiRequest } from '../../../lib/api-client';
@@ -40,6 +41,19 @@ export function useAddSystem() {
   return useMutation({
     mutationFn: (body: SystemBody) =>
       apiRequest('/api/catalogue/systems', { method: 'POST', body, schema: CatalogueSystem }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: catalogueKeys.all }),
+  });
+}
+/** Gives a system a GTIN (one known for another system moves); only the catalogue changes. */
+export function useEnterSystemGtin() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: ({ id, gtin }: { id: string; gtin: string }) =>
+      apiRequest(`/api/catalogue/systems/${id}`, {
+        method: 'PATCH',
+        body: { gtins: [gtin] } satisfies SystemPatch,
+        schema: CatalogueSystem,
+      }),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: catalogueKeys.all }),
   });
 }

@@ -8,6 +8,7 @@ import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
 import { useRecordCalibration, useWrenches } from '../../torque';
 import { useCatalogue } from '../api/catalogue-api';
+import { SystemGtins } from '../components/system-gtins';
 import { ComponentRow } from '../components/component-row';
 import { filterCatalogue } from '../components/catalogue-filter';
 import { AddComponentForm, AddPlatformForm, AddSystemForm, AddWrenchForm } from '../components/add-forms';
@@ -160,6 +161,7 @@ export function CatalogueRoute() {
               )}
             </span>
           </h2>
+          <SystemGtins system={s} />
           {s.platforms.map((p) => (
             <div key={p.id} className="catalogue-platform" data-testid="catalogue-platform">
               <h3>

@@ -68,7 +68,7 @@ export function ShareForm({ patientId, sites }: { patientId: string; sites: read
           name="surgeonEmail"
           label="Surgeon's e-mail"
           labelFor="share-email"
-          help="The exact address the surgeon signs in with"
+          help="The exact address the surgeon signs in with; a surgeon new to Torquetrail is invited"
         >
           {(a11y) => (
             <InputGroup id="share-email" type="email" {...a11y} {...withInputRef(form.register('surgeonEmail'))} />
@@ -130,7 +130,9 @@ export function ShareForm({ patientId, sites }: { patientId: string; sites: read
       )}
       {create.isSuccess && (
         <Callout intent="success" role="status">
-          Shared with {create.data.surgeon.displayName} ({create.data.surgeon.practiceName}); they are told by e-mail.
+          {create.data.status === 'invited'
+            ? `${create.data.surgeon.email} has no Torquetrail account yet: they are invited by e-mail, and the share opens once they sign up.`
+            : `Shared with ${create.data.surgeon.displayName} (${create.data.surgeon.practiceName}); they are told by e-mail.`}
         </Callout>
       )}
     </FormProvider>

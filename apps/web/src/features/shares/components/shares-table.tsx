@@ -10,7 +10,7 @@ import { useRevokeShare } from '../api/shares-api';
 import { ChartNumber } from '../../../lib/components/chart-number';
 import { useCloseOnEscape } from '../../../lib/use-close-on-escape';
 
-const STATUS_INTENT = { active: 'success', ended: 'none', revoked: 'warning' } as const;
+const STATUS_INTENT = { invited: 'primary', active: 'success', ended: 'none', revoked: 'warning' } as const;
 
 /** Shares, newest first; an active one can be revoked (with a reason) by whoever may change shares. */
 export function SharesTable({ shares, showPatient }: { shares: readonly Share[]; showPatient: boolean }) {
@@ -40,9 +40,11 @@ export function SharesTable({ shares, showPatient }: { shares: readonly Share[];
                 </td>
               )}
               <td>
-                {share.surgeon.displayName}
+                {share.surgeon.displayName ?? share.surgeon.email}
                 <div className="shares-table__note">
-                  {share.surgeon.email} · {share.surgeon.practiceName}
+                  {share.surgeon.displayName === null
+                    ? 'Invited to Torquetrail, not signed up yet'
+                    : `${share.surgeon.email} · ${share.surgeon.practiceName ?? ''}`}
                 </div>
               </td>
               <td>{share.scopes.map((s) => SHARE_SCOPE_LABEL[s]).join(' and ')}</td>
@@ -53,6 +55,11 @@ export function SharesTable({ shares, showPatient }: { shares: readonly Share[];
                 <Tag minimal intent={STATUS_INTENT[share.status]}>
                   {SHARE_STATUS_LABEL[share.status]}
                 </Tag>
+                {share.status === 'invited' && share.invitationExpiresAt && (
+                  <div className="shares-table__note">
+                    Until {formatDate(share.invitationExpiresAt.slice(0, 10))} unless they sign up
+                  </div>
+                )}
                 {share.revokedAt && (
                   <div className="shares-table__note">
                     {formatDate(share.revokedAt.slice(0, 10))} by {share.revokedByName}: {share.revokeReason}
@@ -60,7 +67,7 @@ export function SharesTable({ shares, showPatient }: { shares: readonly Share[];
                 )}
               </td>
               <td>
-                {share.status === 'active' && (
+                {(share.status === 'active' || share.status === 'invited') && (
                   <Can I="update" a="Share">
                     <RevokeControl share={share} />
                   </Can>
@@ -92,7 +99,7 @@ function RevokeControl({ share }: { share: Share }) {
     <FormProvider {...form}>
       <form
         className="shares-revoke"
-        aria-label={`Revoke the share with ${share.surgeon.displayName}`}
+        aria-label={`Revoke the share with ${share.surgeon.displayName ?? share.surgeon.email}`}
         noValidate
         onSubmit={(event) => void form.handleSubmit(submit)(event)}
       >

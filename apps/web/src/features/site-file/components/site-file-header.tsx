@@ -51,11 +51,37 @@ export function SiteFileHeader({ site, system }: { site: SiteFile; system: Tooth
             ],
             ['Loading', placement.loadingProtocol ? LOADING_PROTOCOL_LABEL[placement.loadingProtocol] : 'Not recorded'],
             ['Lot', placement.lot ? <span className="mono">{placement.lot}</span> : 'Not recorded'],
+            [
+              'GTIN',
+              placement.gtin ? (
+                <GtinFact gtin={placement.gtin} otherSystem={placement.gtinOtherSystem} />
+              ) : (
+                'Not recorded'
+              ),
+            ],
+            ['Serial', placement.serial ? <span className="mono">{placement.serial}</span> : 'Not recorded'],
+            ['Expiry', placement.expiry ? formatDate(placement.expiry) : 'Not recorded'],
+            ['Grafting', placement.grafting ?? 'None recorded'],
+            ['Surgeon’s notes', placement.notes ?? 'None'],
           ]}
         />
       ) : (
         <p className="muted">Not yet placed: the implant body is recorded at placement.</p>
       )}
     </header>
+  );
+}
+
+/** The GTIN of the implant's label, flagged when the catalogue knows it for another system. */
+function GtinFact({ gtin, otherSystem }: { gtin: string; otherSystem: string | null }) {
+  return (
+    <>
+      <span className="mono">{gtin}</span>
+      {otherSystem && (
+        <Tag minimal intent="warning" icon="warning-sign" className="site-file-header__flag" data-testid="gtin-flag">
+          The catalogue knows this GTIN as {otherSystem}, not the system chosen: check the label and the system
+        </Tag>
+      )}
+    </>
   );
 }

@@ -1,35 +1,13 @@
 import type { TorqueSeries } from '@torquetrail/contracts';
-import { torqueToleranceBand } from '@torquetrail/domain';
 import { TORQUE_VERDICT_LABEL } from '../../../lib/clinical-labels';
 import { formatDayOf, formatYear } from '../../../lib/dates';
-import {
-  CartesianGrid,
-  Line,
-  ComposedChart,
-  Area,
-  ReferenceLine,
-  ResponsiveContainer,
-  Tooltip,
-  XAxis,
-  YAxis,
-} from 'recharts';
+import { torqueChartPoints } from './torque-chart-data';
+import { CartesianGrid, Line, ComposedChart, Area, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
 
 /** Torque history of one part: applied values over the years against its specification window. */
 export function TorqueChart({ series }: { series: TorqueSeries }) {
-  // Each entry's band is the one torqueVerdict judged it against, as stored with the entry (one
-  // formula, in the domain): an edit of the catalogue later does not move past bands.
-  const data = series.points.map((p) => {
-    const band = torqueToleranceBand(p.specNcm, p.tolerancePct);
-    return {
-      t: new Date(p.at).getTime(),
-      applied: p.appliedNcm,
-      band: [band.lowNcm, band.highNcm] as [number, number],
-      spec: p.specNcm,
-      verdict: p.verdict,
-      reason: p.reason,
-    };
-  });
-  const spec = data.at(-1)?.spec ?? series.specNcm;
+  // Band and spec line step with the readings: each shows what its reading was judged against.
+  const data = torqueChartPoints(series);
   const max = Math.max(...data.map((d) => Math.max(d.applied, d.band[1]))) * 1.15;
   return (
     <figure className="torque-chart" data-testid="torque-chart">
@@ -55,14 +33,15 @@ export function TorqueChart({ series }: { series: TorqueSeries }) {
               isAnimationActive={false}
               name="Tolerance band"
             />
-            {spec !== null && (
-              <ReferenceLine
-                y={spec}
-                stroke="#0f766e"
-                strokeDasharray="4 4"
-                label={{ value: `spec ${spec}`, position: 'insideTopRight' }}
-              />
-            )}
+            <Line
+              type="stepAfter"
+              dataKey="spec"
+              stroke="#0f766e"
+              strokeDasharray="4 4"
+              dot={false}
+              isAnimationActive={false}
+              name="Spec judged against"
+            />
             <Tooltip
               labelFormatter={(t) => formatDayOf(Number(t))}
               formatter={(v, name) =>
