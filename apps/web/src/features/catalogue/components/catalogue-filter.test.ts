@@ -24,6 +24,7 @@ const systems: CatalogueSystem[] = [
     id: 's1',
     name: 'Alder',
     manufacturer: 'Fenwick Dental',
+    gtins: [],
     platforms: [
       {
         id: 'p1',
@@ -52,6 +53,7 @@ const systems: CatalogueSystem[] = [
     id: 's2',
     name: 'Birch',
     manufacturer: 'Orwell',
+    gtins: [],
     platforms: [
       {
         id: 'p3',
