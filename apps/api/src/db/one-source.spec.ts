@@ -39,12 +39,15 @@ function copies(file: string): string[] {
   const text = fs.readFileSync(file, 'utf8');
   return [...text.matchAll(literalUnion), ...text.matchAll(literalArray)].flatMap((match) => {
     const values = [...new Set(literals(match[0]))];
-    const list = [...lists].find(([, listValues]) => sameSet(values, listValues));
-    if (!list) return [];
+    // Several exported names may hold the same list (an alias such as `A = B`): any one of them
+    // being defined here makes this its definition.
+    const names = [...lists].filter(([, listValues]) => sameSet(values, listValues)).map(([name]) => name);
+    if (names.length === 0) return [];
     // The list's own definition: `export const NAME = [` (or `= Object.freeze([`) on the line of the match.
     const lineStart = text.lastIndexOf('\n', match.index) + 1;
-    if (new RegExp(`export const ${list[0]}\\b[^=]*=`).test(text.slice(lineStart, match.index))) return [];
-    return [`${path.relative(root, file)}: ${match[0].replace(/\s+/g, ' ')} repeats ${list[0]}`];
+    const before = text.slice(lineStart, match.index);
+    if (names.some((name) => new RegExp(`export const ${name}\\b[^=]*=`).test(before))) return [];
+    return [`${path.relative(root, file)}: ${match[0].replace(/\s+/g, ' ')} repeats ${names.join(' / ')}`];
   });
 }
 
