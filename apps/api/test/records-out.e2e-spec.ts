@@ -360,7 +360,7 @@ describe('practice contact on the passport', () => {
       const text = (await pdfPages((await binary(`/api/patients/${pid}/passport.pdf`, dentist)).body as Buffer)).join(
         ' ',
       );
-      expect(text).toContain('Contact details: ask the practice (none recorded).');
+      expect(text).toContain('Phone and e-mail: not recorded by the practice.');
     } finally {
       await ctx.db
         .update(practices)

@@ -4,6 +4,7 @@ import { type DefaultValues, type FieldValues, useForm } from 'react-hook-form';
 import { useLocation } from 'react-router-dom';
 import { z } from 'zod';
 import { offerDraft, takeDraft } from './drafts';
+import { summariseHiddenErrors } from './hidden-errors';
 
 /**
  * The schema of a form whose values are a draft (text as typed, '' for "not chosen", numbers that
@@ -24,6 +25,7 @@ export function draftSchema<Draft extends FieldValues, Body, Parsed>(
  * react-hook-form validated with a contract schema (from `draftSchema`, or the contract itself
  * when the form's values are already the body). Messages change when the form is submitted, not
  * while typing, and focus stays where the user is: the forms behaved so before this adapter.
+ * An error on a field the form does not show is named in the form's summary (hidden-errors.ts).
  * What is typed survives a sign-out forced by the session (lib/forms/drafts.ts) unless
  * `keepDraft` is false (password forms).
  */
@@ -39,6 +41,8 @@ export function useContractForm<Values extends FieldValues, Body>(
     reValidateMode: 'onSubmit',
     shouldFocusError: false,
   });
+  // A failed submit names, in the form's summary, the errors no field on screen shows.
+  summariseHiddenErrors(form);
   // The page and the form's fields name the draft: both are the same after signing in again
   // (React's useId is not: in a client-rendered app it counts mounts).
   const key = `${useLocation().pathname}#${Object.keys(defaultValues).sort().join(',')}`;

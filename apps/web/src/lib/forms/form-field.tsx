@@ -1,6 +1,7 @@
 import { FormGroup, type FormGroupProps, type Intent } from '@blueprintjs/core';
-import { type ReactNode, useId } from 'react';
+import { type ReactNode, useEffect, useId } from 'react';
 import { type FieldErrors, get, useFormContext, useFormState } from 'react-hook-form';
+import { showErrorsAt } from './hidden-errors';
 
 /** The props a field's input takes so that its error is announced with it. */
 interface FieldA11y {
@@ -28,7 +29,11 @@ export function useFieldError(
 ): string | undefined {
   const { control } = useFormContext();
   const { errors } = useFormState({ control });
-  const validation = (typeof names === 'string' ? [names] : names).map((name) => errorAt(errors, name)).find(Boolean);
+  const list = typeof names === 'string' ? [names] : names;
+  // The paths this field shows: a failed submit names the others in the form's summary.
+  const key = list.join('\n');
+  useEffect(() => showErrorsAt(control, key === '' ? [] : key.split('\n')), [control, key]);
+  const validation = list.map((name) => errorAt(errors, name)).find(Boolean);
   return prefer === 'live' ? (live ?? validation) : (validation ?? live);
 }
 
