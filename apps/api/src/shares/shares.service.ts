@@ -6,6 +6,7 @@ import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
 import { reportChange } from '../common/audit-context.js';
 import { fieldError } from '../common/field-error.js';
+import { isUniqueViolation } from '../common/postgres-error.js';
 import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database, type Tx } from '../db/database.js';
 import { AccountMailService } from '../people/account-mail.service.js';
@@ -128,8 +129,15 @@ export class SharesService {
       });
     if (open && !open.expired) return { id: open.id, mailNeeded: false };
     if (open) await repo.withdrawInvitation(tx, open.id, user.id);
-    const id = await repo.insertSurgeonInvitation(tx, { practiceId, email, invitedBy: user.id, linkOrigin });
-    return { id, mailNeeded: true };
+    try {
+      const id = await repo.insertSurgeonInvitation(tx, { practiceId, email, invitedBy: user.id, linkOrigin });
+      return { id, mailNeeded: true };
+    } catch (error) {
+      // Two shares with the same new address at the same moment: the other one invited them.
+      if (isUniqueViolation(error, 'invitations_open_email_unique'))
+        throw new ConflictException('This address was invited a moment ago: share again to join that invitation');
+      throw error;
+    }
   }
 
   /** Revokes a share at once: the surgeon's next request no longer opens the patient. */
