@@ -95,9 +95,14 @@ const restorationsOf35 = (await asDentist(`/patients/${harold}/restorations`)).i
   r.sites?.some((s) => s.siteId === site35),
 );
 const radiograph = await one(sql`select radiograph_id as id from radiograph_sites where site_id = ${site35} limit 1`);
-const prescription =
-  await one(sql`select lp.id from lab_prescriptions lp join restorations r on r.id = lp.restoration_id
-  where r.patient_id = ${harold} limit 1`);
+// A lab prescription of site 35's restoration (it names the lab): the surgeon is never served it.
+const madeFor = restorationsOf35?.[0]?.id;
+const prescription = madeFor
+  ? (
+      (await ctx.http.post(`/api/restorations/${madeFor}/lab-prescriptions`).set('Cookie', dentistCookie).send({}))
+        .body as { id?: string }
+    ).id
+  : undefined;
 const anyOf = async (table: string) => one(sql`select id from ${sql.identifier(table)} limit 1`);
 const NO_ROW = '00000000-0000-4000-8000-000000000000';
 const PARAM_IDS: Record<string, string | undefined> = {
@@ -107,8 +112,7 @@ const PARAM_IDS: Record<string, string | undefined> = {
   '/recalls/sites/:id': site35,
   '/restorations/:id': restorationsOf35?.[0]?.id,
   '/radiographs/:id': radiograph,
-  // Harold's, when the scenario holds one; the route is refused to the surgeon either way.
-  '/lab-prescriptions/:id': prescription ?? NO_ROW,
+  '/lab-prescriptions/:id': prescription,
   // Not the patient's record: the surgeon's answers to these are refusals or their own practice's.
   '/catalogue/components/:id': await anyOf('components'),
   '/wrenches/:id': await anyOf('torque_wrenches'),
