@@ -72,7 +72,7 @@ describe('sharing a patient with a surgeon of another practice', () => {
     await surgeon.getByTestId('arch-cell-35').click();
     await surgeon.waitForURL(/\/sites\//);
     const events = surgeon.locator('[data-testid="timeline-event"]');
-    await expect.poll(() => events.count()).toBeGreaterThan(0);
+    await expect.poll(() => events.count(), { timeout: 20_000 }).toBeGreaterThan(0);
     const signed = await surgeon
       .locator('[data-testid="timeline-event"]:not([data-kind="placement"]) .timeline__by')
       .count();
