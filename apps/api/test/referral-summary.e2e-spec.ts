@@ -140,7 +140,8 @@ describe('referral summary e-mail', () => {
       expect.objectContaining({
         kind: 'referral-summary',
         id: a.body.id,
-        title: `Referral summary e-mailed to ${ACCOUNTS.surgeon}`,
+        title: 'Referral summary e-mailed',
+        detail: `to ${ACCOUNTS.surgeon}`,
         byName: 'Dr Ines Calloway',
       }),
     );

@@ -471,7 +471,8 @@ const TABLE: Record<string, Case[]> = {
   }),
   'GET /api/lab-prescriptions/:id/pdf': one({
     path: () => `/api/lab-prescriptions/${labPrescription}/pdf`,
-    expect: sharedRead,
+    // It names the lab and its address, which no share opens (issue 12).
+    expect: every(200, { surgeon: 404, surgeonNoShare: 404, otherPracticeDentist: 404 }),
   }),
   'POST /api/torque-events': one({
     path: () => '/api/torque-events',

@@ -65,5 +65,21 @@ describe('sharing a patient with a surgeon of another practice', () => {
     // Nor does it show him the sharing side.
     expect(await surgeon.getByRole('region', { name: 'Shares' }).count()).toBe(0);
     await screenshot(surgeon, 'surgeon-shared-patient');
+
+    // The Site file of a shared site works with the fields the share leaves out: the Stack and the
+    // Timeline show, with no staff name but the placement's signing clinician and no notes.
+    const seen = h.problems.length;
+    await surgeon.getByTestId('arch-cell-35').click();
+    await surgeon.waitForURL(/\/sites\//);
+    const events = surgeon.locator('[data-testid="timeline-event"]');
+    await expect.poll(() => events.count(), { timeout: 20_000 }).toBeGreaterThan(0);
+    const signed = await surgeon
+      .locator('[data-testid="timeline-event"]:not([data-kind="placement"]) .timeline__by')
+      .count();
+    expect(signed).toBe(0);
+    expect(await surgeon.getByText(/Amendment:/).count()).toBe(0);
+    expect(await surgeon.getByText(/Maren Holt|Priya Sandhu|Odile Park/).count()).toBe(0);
+    await screenshot(surgeon, 'surgeon-shared-site-file');
+    expect(h.problems.slice(seen).filter((p) => !/\b(401|403|404)\b/.test(p))).toEqual([]);
   });
 });

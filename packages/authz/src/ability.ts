@@ -1,4 +1,11 @@
 import { AbilityBuilder, createMongoAbility, type MongoAbility, type MongoQuery } from '@casl/ability';
+import {
+  SHARED_DETAIL_FIELDS,
+  SHARED_READ_FIELDS,
+  SHARED_SIGNER_FIELDS,
+  type SharedSubject,
+  TIMELINE_COMPUTED_DETAIL_KINDS,
+} from './shared-fields.js';
 
 /** The roles of Torquetrail, in the order of the database enum. */
 export const ROLES = ['practice_admin', 'dentist', 'hygienist', 'surgeon'] as const;
@@ -71,6 +78,8 @@ export interface ScopedRow {
   patientId?: string;
   /** The implant site a row belongs to: how a share limited to chosen sites opens only those. */
   siteId?: string | null;
+  /** A Timeline entry's kind: some of its fields are opened to a share for some kinds only. */
+  kind?: string;
 }
 
 export type AppAbility = MongoAbility<[Action, Subject | (ScopedRow & { __caslSubjectType__?: string })]>;
@@ -89,28 +98,13 @@ export interface AbilityUser {
   shares: readonly ActiveShare[];
 }
 
-/**
- * The fields of a patient a share opens (CASL field rules): who the patient is and the shared
- * sites — never contact details, risk factors, missing teeth or who archived the record.
- */
-export const SHARED_PATIENT_FIELDS = [
-  'id',
-  'practiceId',
-  'chartNumber',
-  'givenName',
-  'familyName',
-  'birthDate',
-  'practiceName',
-  'implantSiteCount',
-  'archivedAt',
-  'sites',
-] as const;
-
 /** A share as the ability needs it. */
 export interface ActiveShare {
   patientId: string;
   scopes: readonly ShareScope[];
   siteIds: readonly string[] | null;
+  /** The share's last day (inclusive, a UTC calendar day), or null: nothing dated later is served. */
+  endsOn?: string | null;
 }
 
 /** Clinical record subjects that hang off a patient. */
@@ -206,18 +200,27 @@ function shareRules(can: Can, share: ActiveShare): void {
   const sites = share.siteIds ? { $in: [...share.siteIds] } : undefined;
   const onSite: ScopedCondition = sites ? { patientId, siteId: sites } : { patientId };
   const site: ScopedCondition = sites ? { patientId, id: sites } : { patientId };
-  can('read', 'Patient', [...SHARED_PATIENT_FIELDS], { id: patientId });
-  can('read', 'ImplantSite', site);
+  // Every read rule names its fields (shared-fields.ts): the replies keep only those.
+  const read = (type: SharedSubject, condition: ScopedCondition) =>
+    can('read', type, [...SHARED_READ_FIELDS[type]], condition);
+  read('Patient', { id: patientId });
+  read('ImplantSite', site);
   if (share.scopes.includes('placement')) {
-    can(['read', 'create', 'amend'], ['Placement', 'Radiograph'], onSite);
+    can(['create', 'amend'], ['Placement', 'Radiograph'], onSite);
+    read('Placement', onSite);
+    read('Radiograph', onSite);
   }
   if (share.scopes.includes('outcomes')) {
     // The referral summary is the outcome of the shared implants, for the surgeon to read.
-    can('read', 'ReferralSummary', { patientId });
-    can(
-      'read',
-      ['Placement', 'Restoration', 'ComponentInstance', 'TorqueEvent', 'Complication', 'RecallExam', 'Radiograph'],
-      onSite,
-    );
+    read('ReferralSummary', { patientId });
+    read('Outcomes', onSite);
+    for (const type of ['Placement', 'Restoration', 'ComponentInstance', 'TorqueEvent', 'Complication'] as const)
+      read(type, onSite);
+    read('RecallExam', onSite);
+    read('Radiograph', onSite);
   }
+  // A Timeline entry's computed detail, and the placement's signing clinician, on the site's replies.
+  const entry = (kinds: readonly string[]) => ({ ...site, kind: { $in: [...kinds] } }) as ScopedCondition;
+  can('read', 'ImplantSite', [...SHARED_DETAIL_FIELDS], entry(TIMELINE_COMPUTED_DETAIL_KINDS));
+  can('read', 'ImplantSite', [...SHARED_SIGNER_FIELDS], entry(['placement']));
 }

@@ -169,23 +169,24 @@ export const RestorationDetail = z.object({
   copingsSplinted: z.boolean(),
   impressionTakenOn: IsoDate.nullable(),
   deliveredOn: IsoDate.nullable(),
-  labName: z.string().nullable(),
-  labEmail: z.string().nullable(),
+  /** Left out of a share's reply: the lab, the notes and who planned stay with the practice. */
+  labName: z.string().nullable().optional(),
+  labEmail: z.string().nullable().optional(),
   dueOn: IsoDate.nullable(),
-  notes: z.string().nullable(),
+  notes: z.string().nullable().optional(),
   findings: z.array(Finding),
   rulesVersion: z.string().nullable(),
-  plannedByName: z.string().nullable(),
+  plannedByName: z.string().nullable().optional(),
   createdAt: IsoDateTime,
   supersedesId: Id.nullable(),
-  amendmentReason: z.string().nullable(),
+  amendmentReason: z.string().nullable().optional(),
   /** Set when a later amendment replaced this version (it stays visible, marked as amended). */
   supersededById: Id.nullable(),
-  acknowledgements: z.array(
-    z.object({ code: z.string(), fdi: z.number().nullable(), byName: z.string(), at: IsoDateTime }),
-  ),
+  acknowledgements: z
+    .array(z.object({ code: z.string(), fdi: z.number().nullable(), byName: z.string(), at: IsoDateTime }))
+    .optional(),
   sites: z.array(RestorationSiteDetail),
-  labPrescriptions: z.array(LabPrescriptionSummary),
+  labPrescriptions: z.array(LabPrescriptionSummary).optional(),
   /** Retrievable without cutting: false for cement-retained restorations. */
   retrievable: z.boolean(),
 });

@@ -58,7 +58,7 @@ export const TorqueEvent = z.object({
   performedAt: IsoDateTime,
   recordedByName: z.string().nullable(),
   supersedesId: Id.nullable(),
-  amendmentReason: z.string().nullable(),
+  amendmentReason: z.string().nullable().optional(),
   /** For 'screw-replaced': the new part instance the torque was applied to. */
   replacementInstanceId: Id.nullable(),
 });
@@ -87,7 +87,7 @@ export const Complication = z.object({
   occurredOn: IsoDate,
   notes: z.string().nullable(),
   supersedesId: Id.nullable(),
-  amendmentReason: z.string().nullable(),
+  amendmentReason: z.string().nullable().optional(),
   recordedByName: z.string().nullable(),
 });
 export type Complication = z.infer<typeof Complication>;
@@ -101,11 +101,12 @@ export const TimelineEvent = z.object({
   at: IsoDateTime,
   dateOnly: z.boolean(),
   title: z.string(),
-  detail: z.string().nullable(),
+  /** A share's reply keeps the detail only where it is computed, never a note or an address. */
+  detail: z.string().nullable().optional(),
   /** A newer version replaced this entry; it stays visible, marked as amended. */
   amended: z.boolean(),
   supersedesId: Id.nullable(),
-  amendmentReason: z.string().nullable(),
+  amendmentReason: z.string().nullable().optional(),
   componentInstanceId: Id.nullable(),
   verdict: TorqueVerdict.nullable(),
   /** The entry's own code: a complication's kind, a torque entry's reason; null otherwise. */
@@ -116,13 +117,13 @@ export const TimelineEvent = z.object({
   wrenchCalibrationOverdue: z.boolean().optional(),
   /** Torque entries: an early settling re-torque the clinician confirmed. */
   earlySettlingConfirmed: z.boolean().optional(),
-  byName: z.string().nullable(),
+  byName: z.string().nullable().optional(),
   /** Radiograph, bone-level and seating-check entries: the radiograph to show and open. */
   radiographId: Id.nullable(),
   /** A radiograph marked entered in error stays in the Timeline, marked, with the reason. */
-  enteredInErrorReason: z.string().nullable(),
+  enteredInErrorReason: z.string().nullable().optional(),
   /** An entry brought in by a legacy import: "FILE, row N" (docs/import.md); null otherwise. */
-  importedFrom: z.string().nullable(),
+  importedFrom: z.string().nullable().optional(),
 });
 export type TimelineEvent = z.infer<typeof TimelineEvent>;
 

@@ -122,7 +122,8 @@ export type ReferralSummaryMailBody = z.infer<typeof ReferralSummaryMailBody>;
 export const ReferralSummaryMail = z.object({
   id: Id,
   shareId: Id,
-  sentTo: z.string(),
+  /** Left out of a share's reply. */
+  sentTo: z.string().optional(),
   status: z.enum(['pending', 'sent', 'failed']),
   attempts: z.number().int(),
   requestedAt: IsoDateTime,

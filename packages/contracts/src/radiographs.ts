@@ -46,8 +46,9 @@ export const Radiograph = z.object({
   fileType: RadiographFileType,
   kind: RadiographKind,
   takenOn: IsoDate.nullable(),
-  note: z.string().nullable(),
-  originalName: z.string().nullable(),
+  /** Left out of a share's reply (notes, file names and staff names stay with the practice). */
+  note: z.string().nullable().optional(),
+  originalName: z.string().nullable().optional(),
   sizeBytes: z.number().int(),
   sha256: z.string(),
   rows: z.number().int().nullable(),
@@ -67,9 +68,9 @@ export const Radiograph = z.object({
   /** Failed attempts so far; while pending and above 0 the job is retrying. */
   previewAttempts: z.number().int(),
   siteIds: z.array(Id),
-  uploadedBy: z.string(),
+  uploadedBy: z.string().optional(),
   uploadedAt: IsoDateTime,
-  enteredInError: z.object({ at: IsoDateTime, reason: z.string() }).nullable(),
+  enteredInError: z.object({ at: IsoDateTime, reason: z.string().optional() }).nullable(),
 });
 export type Radiograph = z.infer<typeof Radiograph>;
 
@@ -125,10 +126,10 @@ export const Measurement = z.object({
     })
     .nullable(),
   rulesVersion: z.string(),
-  measuredBy: z.string(),
+  measuredBy: z.string().optional(),
   measuredAt: IsoDateTime,
   supersedesId: Id.nullable(),
-  amendmentReason: z.string().nullable(),
+  amendmentReason: z.string().nullable().optional(),
 });
 export type Measurement = z.infer<typeof Measurement>;
 
@@ -150,7 +151,7 @@ export const SiteBoneLevel = z.object({
   /** The worse side, as offered to the recall exam (0.1 mm, never below 0). */
   examBoneLevelMm: z.number(),
   implantTrueMm: z.number(),
-  measuredBy: z.string(),
+  measuredBy: z.string().optional(),
   measuredAt: IsoDateTime,
   /** This version amends an earlier one. */
   amended: z.boolean(),

@@ -102,7 +102,8 @@ export const RecallExam = z.object({
   fdi: FdiPosition,
   visitId: Id,
   examinedOn: IsoDate,
-  examinerName: z.string(),
+  /** A share's reply leaves out the examiner, the notes and the amendment's reason. */
+  examinerName: z.string().optional(),
   sites: z.array(ExamSiteInput),
   mobility: z.boolean(),
   plaqueIndex: z.number().int().nullable(),
@@ -112,7 +113,7 @@ export const RecallExam = z.object({
   boneLevelMm: z.number().nullable(),
   boneLevelMeasurementId: Id.nullable(),
   isBaseline: z.boolean(),
-  notes: z.string().nullable(),
+  notes: z.string().nullable().optional(),
   /** Computed on the server by classifyPeriImplant (2017 World Workshop case definitions); not a diagnosis. */
   status: PeriImplantStatus,
   reasons: z.array(z.string()),
@@ -122,7 +123,7 @@ export const RecallExam = z.object({
   /** The exam used as baseline for this one, if any. */
   baselineExamId: Id.nullable(),
   supersedesId: Id.nullable(),
-  amendmentReason: z.string().nullable(),
+  amendmentReason: z.string().nullable().optional(),
   recordedAt: IsoDateTime,
 });
 export type RecallExam = z.infer<typeof RecallExam>;
@@ -161,10 +162,10 @@ export type CreateVisitReply = z.infer<typeof CreateVisitReply>;
 
 /** What the exam form needs: the patient's implants with their baseline and previous exam. */
 export const ExamContext = z.object({
-  patient: z.object({ id: Id, chartNumber: z.string(), name: z.string(), riskFactors: RiskFactors }),
+  patient: z.object({ id: Id, chartNumber: z.string(), name: z.string(), riskFactors: RiskFactors.optional() }),
   today: IsoDate,
   /** null for a user whose role may not read the practice's policy (a referring surgeon). */
-  policy: RecallPolicyReply.nullable(),
+  policy: RecallPolicyReply.nullable().optional(),
   sites: z.array(
     z.object({
       siteId: Id,
@@ -188,7 +189,7 @@ export const ExamContext = z.object({
           distalMm: z.number(),
           takenOn: IsoDate.nullable(),
           measuredAt: IsoDateTime,
-          measuredBy: z.string(),
+          measuredBy: z.string().optional(),
         }),
       ),
     }),

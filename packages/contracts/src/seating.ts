@@ -35,11 +35,12 @@ export const SeatingCheck = z.object({
   /** The radiograph was marked entered in error after the check: the check no longer rests on it. */
   radiographEnteredInError: z.boolean(),
   seated: SeatingAnswer,
-  note: z.string().nullable(),
-  recordedBy: z.string(),
+  /** Left out of a share's reply. */
+  note: z.string().nullable().optional(),
+  recordedBy: z.string().optional(),
   recordedAt: IsoDateTime,
   supersedesId: Id.nullable(),
-  amendmentReason: z.string().nullable(),
+  amendmentReason: z.string().nullable().optional(),
   /** False once a newer version supersedes this one. */
   current: z.boolean(),
 });

@@ -40,7 +40,8 @@ export const Placement = z.object({
   stabilityIsq: z.number().nullable(),
   loadingProtocol: LoadingProtocol.nullable(),
   grafting: z.string().nullable(),
-  notes: z.string().nullable(),
+  /** Free text, possibly another role's: absent from a share's reply (packages/authz shared-fields). */
+  notes: z.string().nullable().optional(),
 });
 export type Placement = z.infer<typeof Placement>;
 

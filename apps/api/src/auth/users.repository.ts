@@ -74,7 +74,8 @@ const sessionUserQuery = preparedFor((db) =>
       active: users.active,
       sessionVersion: users.sessionVersion,
       shares: sql<ActiveShare[]>`coalesce((select json_agg(json_build_object(
-          'patientId', ${patientShares.patientId}, 'scopes', ${patientShares.scopes}, 'siteIds', ${patientShares.siteIds}))
+          'patientId', ${patientShares.patientId}, 'scopes', ${patientShares.scopes}, 'siteIds', ${patientShares.siteIds},
+          'endsOn', ${patientShares.endsOn}))
         from ${patientShares} where ${patientShares.sharedWithUserId} = ${users.id} and ${liveShare()}), '[]'::json)`,
     })
     .from(users)

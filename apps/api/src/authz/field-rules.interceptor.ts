@@ -1,15 +1,18 @@
 import { type CallHandler, type ExecutionContext, Injectable, type NestInterceptor } from '@nestjs/common';
 import { Reflector } from '@nestjs/core';
-import { type AppAbility, readableFields, type Subject } from '@torquetrail/authz';
-import type { Request } from 'express';
+import type { AppAbility } from '@torquetrail/authz';
 import { map, type Observable } from 'rxjs';
+import type { AuthedRequest } from '../common/current-user.decorator.js';
+import { currentAudit } from '../common/audit-context.js';
 import { ABILITY_CHECK, type AbilityCheck } from './check-ability.decorator.js';
+import { leastPrivilege } from './least-privilege.js';
 
 /**
- * Least privilege in the replies (issue 12), in ONE place every reply passes: the reply of a
- * route that reads a subject keeps only the fields the user's CASL field rules permit on it
- * (`permittedFieldsOf`). A rule without fields (every rule of one's own practice) keeps the reply
- * whole; a share's rules name the few fields a surgeon of another practice may read.
+ * Least privilege in the replies (issue 12), in ONE place every reply passes: the JSON reply of a
+ * route that reads a subject keeps, of each part that belongs to a patient shared with the user,
+ * only the fields the user's CASL field rules permit (`permittedFieldsOf`), and none of the rows
+ * of a site or a day the share does not open (least-privilege.ts). Replies about the patients of
+ * one's own practice pass whole: their rules name no fields.
  */
 @Injectable()
 export class FieldRulesInterceptor implements NestInterceptor {
@@ -20,23 +23,18 @@ export class FieldRulesInterceptor implements NestInterceptor {
       context.getHandler(),
       context.getClass(),
     ]);
-    const ability = context.switchToHttp().getRequest<Request & { ability?: AppAbility }>().ability;
-    if (!check || !('subject' in check) || check.action !== 'read' || !ability) return next.handle();
-    return next.handle().pipe(map((reply: unknown) => keepPermitted(ability, check.subject, reply)));
+    const req = context.switchToHttp().getRequest<AuthedRequest & { ability?: AppAbility }>();
+    const { ability, user } = req;
+    if (!check || !('subject' in check) || check.action !== 'read' || check.subject === 'all') return next.handle();
+    if (!ability || !user || user.shares.length === 0) return next.handle();
+    const type = check.subject;
+    return next.handle().pipe(
+      map((reply: unknown) => {
+        // The patient the request opened (assertCan noted it): the reply's rows belong to it
+        // unless they name their own patient.
+        const opened = currentAudit()?.opened.find((r) => r.patientId)?.patientId;
+        return leastPrivilege(reply, { ability, shares: user.shares, type, openedPatientId: opened });
+      }),
+    );
   }
 }
-
-/** The reply, or a copy of it without the fields the ability does not let the user read. */
-function keepPermitted(ability: AppAbility, type: Subject, reply: unknown): unknown {
-  if (type === 'all' || !isRow(reply)) return reply;
-  const fields = readableFields(ability, type, reply);
-  if (fields === null) return reply;
-  return Object.fromEntries(Object.entries(reply).filter(([key]) => fields.includes(key)));
-}
-
-/** A reply that is one row (it names its practice): lists and files are not redacted here. */
-const isRow = (value: unknown): value is Record<string, unknown> & { practiceId: string } =>
-  typeof value === 'object' &&
-  value !== null &&
-  !Array.isArray(value) &&
-  typeof (value as { practiceId?: unknown }).practiceId === 'string';

@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
-import { Inject, Injectable } from '@nestjs/common';
-import type { AppAbility } from '@torquetrail/authz';
+import { Inject, Injectable, NotFoundException } from '@nestjs/common';
+import { type AppAbility, readableFields } from '@torquetrail/authz';
 import type { LabPrescriptionSummary } from '@torquetrail/contracts';
 import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
@@ -138,6 +138,10 @@ export class LabPrescriptionsService {
       await repo.findVisibleLabPrescription(this.db, scope, id),
       'lab prescription',
     );
+    // It names the lab and its address: only where the field rules open the restoration's
+    // prescriptions (never through a share).
+    const fields = readableFields(ability, 'Restoration', found);
+    if (fields && !fields.includes('labPrescriptions')) throw new NotFoundException('No such lab prescription');
     return { pdf: await this.storage.get(found.objectKey), filename: pdfFilename(found.chartNumber) };
   }
 }

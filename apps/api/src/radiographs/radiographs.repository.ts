@@ -79,8 +79,19 @@ export async function findVisibleRadiograph(db: Db, scope: Scope, id: string) {
 }
 export type RadiographRow = NonNullable<Awaited<ReturnType<typeof findVisibleRadiograph>>>;
 
-export async function listForPatient(db: Database, scope: Scope, patientId: string, includeEnteredInError: boolean) {
-  const rows = await patientRadiographsQuery(db).execute({ patientId, includeEnteredInError, ...scopeParams(scope) });
+export async function listForPatient(
+  db: Database,
+  scope: Scope,
+  patientId: string,
+  includeEnteredInError: boolean,
+  siteIds: readonly string[] | null,
+) {
+  const rows = await patientRadiographsQuery(db).execute({
+    patientId,
+    includeEnteredInError,
+    siteIds: siteIds ? [...siteIds] : null,
+    ...scopeParams(scope),
+  });
   return rows.map((row) => ({ ...row.r, uploadedByName: row.uploadedByName, siteIds: row.siteIds }));
 }
 const patientRadiographsQuery = preparedFor((db) =>
@@ -94,6 +105,9 @@ const patientRadiographsQuery = preparedFor((db) =>
         eq(radiographs.patientId, sql.placeholder('patientId')),
         visiblePatientsPrepared(),
         sql`(${sql.placeholder('includeEnteredInError')}::boolean or ${radiographs.enteredInErrorAt} is null)`,
+        // A share of chosen sites: only the radiographs that show one of them (null: every site).
+        sql`(${sql.placeholder('siteIds')}::uuid[] is null or exists (select 1 from ${radiographSites}
+          where ${radiographSites.radiographId} = ${radiographs.id} and ${radiographSites.siteId} = any(${sql.placeholder('siteIds')}::uuid[])))`,
       ),
     )
     .orderBy(desc(radiographs.takenOn), desc(radiographs.uploadedAt))

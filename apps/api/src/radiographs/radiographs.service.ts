@@ -20,7 +20,7 @@ import type {
 import { measureBoneLevels, RULES_VERSION, ValidationError } from '@torquetrail/domain';
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
-import { assertCan, type Scope } from '../authz/scope.js';
+import { assertCan, assertCanList, type Scope, sharedSitesOf } from '../authz/scope.js';
 import { alreadyAmended } from '../common/amendment-conflict.js';
 import { fieldError } from '../common/field-error.js';
 import { reportChange } from '../common/audit-context.js';
@@ -118,9 +118,9 @@ export class RadiographsService {
     // Side by side: the list is scoped in its own where clause, so it is empty when the check fails.
     const [patient, rows] = await Promise.all([
       repo.findVisiblePatient(this.db, scope, patientId),
-      repo.listForPatient(this.db, scope, patientId, includeEnteredInError),
+      repo.listForPatient(this.db, scope, patientId, includeEnteredInError, sharedSitesOf(scope, patientId)),
     ]);
-    assertCan(ability, 'read', 'Radiograph', patient, 'patient');
+    assertCanList(ability, scope, 'Radiograph', patient);
     return { items: rows.map(toRadiograph) };
   }
 

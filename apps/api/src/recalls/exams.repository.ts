@@ -200,7 +200,8 @@ export async function findVisiblePatientForRecall(db: Db, scope: Scope, patientI
 }
 
 /** The patient's implant sites with the delivery date of their current restoration, if any. */
-export async function listSitesForExam(db: Db, patientId: string) {
+/** A patient's implant sites for the exam form; with `siteIds` (a share of chosen sites) only those. */
+export async function listSitesForExam(db: Db, patientId: string, siteIds: readonly string[] | null = null) {
   return db
     .select({
       siteId: implantSites.id,
@@ -214,7 +215,7 @@ export async function listSitesForExam(db: Db, patientId: string) {
       >`(select min(rr.delivered_on)::text from restoration_sites rs join restorations rr on rr.id = rs.restoration_id where rs.site_id = "implant_sites"."id" and rr.delivered_on is not null and rr.status <> 'removed')`,
     })
     .from(implantSites)
-    .where(eq(implantSites.patientId, patientId))
+    .where(and(eq(implantSites.patientId, patientId), siteIds ? inArray(implantSites.id, [...siteIds]) : undefined))
     .orderBy(asc(implantSites.fdi));
 }
 

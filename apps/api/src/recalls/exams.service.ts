@@ -24,7 +24,7 @@ import {
   toPeriImplantExam,
 } from '@torquetrail/domain';
 import type { z } from 'zod';
-import { asSiteRow, assertCan, type Scope } from '../authz/scope.js';
+import { asSiteRow, assertCan, assertCanList, type Scope, sharedSitesOf } from '../authz/scope.js';
 import { keepAbsent } from '../common/keep-absent.js';
 import { alreadyAmended } from '../common/amendment-conflict.js';
 import { fieldError } from '../common/field-error.js';
@@ -64,15 +64,14 @@ export class ExamsService {
   ) {}
 
   async context(ability: AppAbility, scope: Scope, patientId: string): Promise<ExamContext> {
-    const patient = assertCan(
+    const patient = assertCanList(
       ability,
-      'read',
+      scope,
       'RecallExam',
-      await findVisiblePatientForRecall(this.db, scope, patientId).then((p) => (p ? { ...p, patientId: p.id } : null)),
-      'patient',
+      await findVisiblePatientForRecall(this.db, scope, patientId),
     );
     const [sites, policy, prior] = await Promise.all([
-      listSitesForExam(this.db, patient.id),
+      listSitesForExam(this.db, patient.id, sharedSitesOf(scope, patient.id)),
       findPolicy(this.db, patient.practiceId),
       hadPeriImplantitis(this.db, patient.id),
     ]);

@@ -25,7 +25,7 @@ import { insertAmendment, isCurrentVersion, supersededById } from '../db/amendme
 const notSuperseded = isCurrentVersion(placements);
 
 /** The patient's implant sites with the platform and axis of the current placement. */
-export async function listRestorableSites(db: Db, patientId: string, siteIds?: string[]) {
+export async function listRestorableSites(db: Db, patientId: string, siteIds?: readonly string[] | null) {
   return db
     .select({
       siteId: implantSites.id,
@@ -48,7 +48,7 @@ export async function listRestorableSites(db: Db, patientId: string, siteIds?: s
     .leftJoin(placements, and(eq(placements.siteId, implantSites.id), notSuperseded))
     .leftJoin(platforms, eq(platforms.id, placements.platformId))
     .leftJoin(implantSystems, eq(implantSystems.id, platforms.systemId))
-    .where(and(eq(implantSites.patientId, patientId), siteIds ? inArray(implantSites.id, siteIds) : undefined))
+    .where(and(eq(implantSites.patientId, patientId), siteIds ? inArray(implantSites.id, [...siteIds]) : undefined))
     .orderBy(asc(implantSites.fdi));
 }
 export type RestorableSiteRow = Awaited<ReturnType<typeof listRestorableSites>>[number];
@@ -104,9 +104,16 @@ export async function findVisibleRestoration(db: Db, scope: Scope, id: string) {
     .innerJoin(patients, eq(patients.id, restorations.patientId))
     .leftJoin(users, eq(users.id, restorations.plannedBy))
     .where(and(eq(restorations.id, id), visiblePatients(scope)));
-  return row ?? null;
+  // `row` is undefined when no row is visible (callers answer 404).
+  if (!row) return row;
+  // The sites it spans: a share of one of them opens it (assertCan).
+  const sites = await db
+    .select({ siteId: restorationSites.siteId })
+    .from(restorationSites)
+    .where(eq(restorationSites.restorationId, id));
+  return { ...row, siteIds: sites.map((s) => s.siteId) };
 }
-export type RestorationRow = NonNullable<Awaited<ReturnType<typeof findVisibleRestoration>>>;
+export type RestorationRow = Omit<NonNullable<Awaited<ReturnType<typeof findVisibleRestoration>>>, 'siteIds'>;
 
 /**
  * Locks one restoration version for its delivery until the transaction ends: a concurrent
@@ -125,12 +132,22 @@ export async function shareLockRestoration(tx: Tx, id: string) {
   await tx.select({ id: restorations.id }).from(restorations).where(eq(restorations.id, id)).for('share');
 }
 
-export async function listRestorationsOfPatient(db: Db, patientId: string) {
+/** A patient's restorations; with `siteIds` (a share of chosen sites) only those on one of them. */
+export async function listRestorationsOfPatient(db: Db, patientId: string, siteIds: readonly string[] | null = null) {
+  const onSites = siteIds
+    ? inArray(
+        restorations.id,
+        db
+          .select({ id: restorationSites.restorationId })
+          .from(restorationSites)
+          .where(inArray(restorationSites.siteId, [...siteIds])),
+      )
+    : undefined;
   return db
     .select(restorationColumns)
     .from(restorations)
     .leftJoin(users, eq(users.id, restorations.plannedBy))
-    .where(eq(restorations.patientId, patientId))
+    .where(and(eq(restorations.patientId, patientId), onSites))
     .orderBy(desc(restorations.createdAt));
 }
 

@@ -14,7 +14,7 @@ import { RULES_VERSION, fdiToUniversal, isRetrievable } from '@torquetrail/domai
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
 import { keepAbsent } from '../common/keep-absent.js';
-import { assertCan, type Scope } from '../authz/scope.js';
+import { assertCan, assertCanList, type Scope, sharedSitesOf } from '../authz/scope.js';
 import { alreadyAmended } from '../common/amendment-conflict.js';
 import { fieldError } from '../common/field-error.js';
 import { reportChange } from '../common/audit-context.js';
@@ -79,9 +79,9 @@ export class RestorationsService {
 
   async restorableSites(ability: AppAbility, scope: Scope, patientId: string): Promise<RestorableSitesReply> {
     const patient = await this.visiblePatient(ability, scope, patientId);
-    assertCan(ability, 'read', 'ImplantSite', { practiceId: patient.practiceId, patientId: patient.id }, 'patient');
+    assertCanList(ability, scope, 'ImplantSite', patient);
     // A failed or removed implant is out of the mouth: nothing can be restored on it.
-    const rows = (await repo.listRestorableSites(this.db, patient.id)).filter(
+    const rows = (await repo.listRestorableSites(this.db, patient.id, sharedSitesOf(scope, patient.id))).filter(
       (s) => s.status !== 'failed' && s.status !== 'removed',
     );
     return {
@@ -102,9 +102,16 @@ export class RestorationsService {
 
   async list(ability: AppAbility, scope: Scope, patientId: string): Promise<RestorationListReply> {
     const patient = await this.visiblePatient(ability, scope, patientId);
-    if (!ability.can('read', subject('Restoration', { practiceId: patient.practiceId, patientId: patient.id })))
-      return { items: [] };
-    return { items: await this.details(await repo.listRestorationsOfPatient(this.db, patient.id)) };
+    const sites = sharedSitesOf(scope, patient.id);
+    const asRow = { practiceId: patient.practiceId, patientId: patient.id };
+    // The restorations of the sites the user may read them on: all, or those of a share's chosen sites.
+    const readable = sites
+      ? sites.filter((siteId) => ability.can('read', subject('Restoration', { ...asRow, siteId })))
+      : ability.can('read', subject('Restoration', asRow))
+        ? null
+        : [];
+    if (readable?.length === 0) return { items: [] };
+    return { items: await this.details(await repo.listRestorationsOfPatient(this.db, patient.id, readable)) };
   }
 
   async detail(ability: AppAbility, scope: Scope, id: string): Promise<RestorationDetail> {

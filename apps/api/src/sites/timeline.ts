@@ -261,7 +261,10 @@ export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: Timeli
     const at = (m.sentAt ?? m.requestedAt).toISOString();
     const state = m.status === 'sent' ? 'e-mailed' : m.status === 'pending' ? 'waiting to be e-mailed' : 'not sent';
     events.push(
-      base('referral-summary', m.id, at, false, `Referral summary ${state} to ${m.sentTo}`, { byName: m.byName }),
+      base('referral-summary', m.id, at, false, `Referral summary ${state}`, {
+        detail: `to ${m.sentTo}`,
+        byName: m.byName,
+      }),
     );
     recorded.set(events[events.length - 1], m.requestedAt.toISOString());
   }

@@ -213,7 +213,7 @@ export function stateFromRestoration(r: RestorationDetail): PlanState {
     labEmail: r.labEmail ?? '',
     dueOn: r.dueOn ?? '',
     notes: r.notes ?? '',
-    acknowledged: r.acknowledgements.map((a) => `${a.code}:${a.fdi ?? ''}`),
+    acknowledged: (r.acknowledgements ?? []).map((a) => `${a.code}:${a.fdi ?? ''}`),
     sites: r.sites.map((s) => {
       const first = (...kinds: ComponentKind[]) => s.components.find((c) => kinds.includes(c.kind))?.id ?? '';
       return {

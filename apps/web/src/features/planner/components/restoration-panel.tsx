@@ -92,7 +92,7 @@ export function RestorationPanel({
             {r.findings.map((f) => (
               <li key={`${f.code}:${f.fdi ?? ''}`}>
                 {FINDING_SEVERITY_LABEL[f.severity].toLowerCase()}: {f.message}{' '}
-                {r.acknowledgements.find((a) => a.code === f.code) && (
+                {r.acknowledgements?.find((a) => a.code === f.code) && (
                   <em>(acknowledged by {r.acknowledgements.find((a) => a.code === f.code)!.byName})</em>
                 )}
               </li>
@@ -100,9 +100,9 @@ export function RestorationPanel({
           </ul>
         </div>
       )}
-      {r.labPrescriptions.length > 0 && (
+      {(r.labPrescriptions?.length ?? 0) > 0 && (
         <ul aria-label="Lab prescriptions">
-          {r.labPrescriptions.map((l) => (
+          {(r.labPrescriptions ?? []).map((l) => (
             <li key={l.id}>
               <a href={`/api/lab-prescriptions/${l.id}/pdf`} data-testid="lab-pdf-link">
                 Lab prescription no. {l.number} of {formatDateTime(l.createdAt)}
@@ -135,7 +135,7 @@ export function RestorationPanel({
               loading={lab.isPending && !lab.variables.emailToLab && !lab.variables.revise}
               data-testid="make-lab-pdf"
             />
-            {r.labPrescriptions.length > 0 && (
+            {(r.labPrescriptions?.length ?? 0) > 0 && (
               <Button
                 icon="refresh"
                 text="Revise prescription"
