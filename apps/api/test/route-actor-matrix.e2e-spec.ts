@@ -418,6 +418,22 @@ const TABLE: Record<string, Case[]> = {
     body: () => ({ radiographId: radiograph, seated: 'no', reason: 'Read again: a gap at the distal margin' }),
     expect: dentistWrite(201),
   }),
+  // A restoration's impression and scan files: the practice's own team only, never a surgeon
+  // (no share opens them); the dentist records and amends.
+  'GET /api/restorations/:id/impressions': one({
+    path: () => `/api/restorations/${haroldBridge}/impressions`,
+    expect: every(200, { surgeon: 403, surgeonNoShare: 403, otherPracticeDentist: 404 }),
+  }),
+  'POST /api/restorations/:id/impressions': one({
+    path: async () => `/api/restorations/${await fresh.plan()}/impressions`,
+    body: () => ({ method: 'analog', takenOn: '2026-11-20' }),
+    expect: dentistWrite(201),
+  }),
+  'POST /api/impressions/:id/amendments': one({
+    path: async () => `/api/impressions/${await fresh.impression()}/amendments`,
+    body: () => ({ takenOn: '2026-11-19', reason: 'Scanned the day before' }),
+    expect: dentistWrite(201),
+  }),
   'GET /api/wrenches/:id/calibrations': one(
     {
       path: () => `/api/wrenches/${wrench.id}/calibrations`,

@@ -17,6 +17,7 @@ export * from './routes.js';
 export * from './radiographs.js';
 export * from './audit.js';
 export * from './seating.js';
+export * from './impressions.js';
 export * from './password.js';
 export * from './people.js';
 export * from './outcomes.js';

@@ -5,6 +5,7 @@ import { placementRoutes } from './placements.js';
 import { radiographRoutes } from './radiographs.js';
 import { auditRoutes } from './audit.js';
 import { seatingRoutes } from './seating.js';
+import { impressionRoutes } from './impressions.js';
 import { peopleRoutes } from './people.js';
 import { outcomeRoutes } from './outcomes.js';
 import { shareRoutes } from './shares.js';
@@ -92,6 +93,7 @@ export const apiRoutes: RouteContract[] = [
   ...recallRoutes,
   ...radiographRoutes,
   ...seatingRoutes,
+  ...impressionRoutes,
   ...placementRoutes,
   ...auditRoutes,
   ...recordsOutRoutes,
