@@ -120,6 +120,10 @@ const TARGETS: Record<string, { as: AccountKey | null; path: string }> = {
     as: 'dentist',
     path: `/api/restorations/${await t.fresh.plan()}/impressions`,
   },
+  'POST /impressions/:id/scan-files': {
+    as: 'dentist',
+    path: `/api/impressions/${await t.fresh.impression()}/scan-files`,
+  },
   'POST /impressions/:id/amendments': {
     as: 'dentist',
     path: `/api/impressions/${await t.fresh.impression()}/amendments`,

@@ -104,4 +104,11 @@ export const impressionRoutes: RouteContract[] = [
     body: ImpressionAmendmentBody,
     reply: Impression,
   }),
+  r(
+    'post',
+    '/impressions/:id/scan-files',
+    'Upload a scan file (STL, PLY, OBJ) to a digital impression as application/octet-stream; type decided by its bytes',
+    { query: ScanFileUploadQuery, reply: ScanFile },
+  ),
+  r('get', '/scan-files/:id/file', 'The scan file, as an attachment', { produces: 'application/octet-stream' }),
 ];

@@ -165,3 +165,24 @@ export async function scanFilesOfRestoration(db: Db, restorationId: string): Pro
     .orderBy(asc(scanFiles.uploadedAt));
   return rows.map((r) => ({ ...r.f, uploadedByName: r.uploadedByName }));
 }
+export async function findScanFile(db: Db, scope: Scope, id: string): Promise<ScanFileRow | null> {
+  const [row] = await db
+    .select(scanFileColumns)
+    .from(scanFiles)
+    .innerJoin(patients, eq(patients.id, scanFiles.patientId))
+    .innerJoin(users, eq(users.id, scanFiles.uploadedBy))
+    .where(and(eq(scanFiles.id, id), visiblePatients(scope)));
+  return row ? { ...row.f, uploadedByName: row.uploadedByName } : null;
+}
+
+export async function findScanFileBySha(db: Db, restorationId: string, sha256: string) {
+  const [row] = await db
+    .select({ id: scanFiles.id })
+    .from(scanFiles)
+    .where(and(eq(scanFiles.restorationId, restorationId), eq(scanFiles.sha256, sha256)));
+  return row ?? null;
+}
+
+export async function insertScanFile(tx: Tx, values: typeof scanFiles.$inferInsert) {
+  await tx.insert(scanFiles).values(values);
+}

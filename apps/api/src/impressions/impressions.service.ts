@@ -26,7 +26,7 @@ type ScanBodyRow = Awaited<ReturnType<typeof repo.scanBodiesOf>>[number];
 /** The latest calendar date anywhere on Earth now (UTC+14): a later date has not happened yet. */
 const latestPossibleToday = () => new Date(Date.now() + 14 * 3_600_000).toISOString().slice(0, 10);
 
-const toScanFile = (f: repo.ScanFileRow): ScanFile => ({
+export const toScanFile = (f: repo.ScanFileRow): ScanFile => ({
   id: f.id,
   impressionId: f.impressionId,
   fileType: f.fileType,
