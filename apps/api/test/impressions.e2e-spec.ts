@@ -154,4 +154,33 @@ describe('a digital impression', () => {
     expect((await list('surgeon', plan)).status).toBe(403);
     expect((await list('otherPracticeDentist', plan)).status).toBe(404);
   });
+
+  it("the demo: Wendell's new plan is a digital impression with scan bodies and a generated scan file", async () => {
+    // Other tests here plan on Wendell too: the seeded plan is the one that carries the notes.
+    const wendell = (await scenarioTargets(ctx, cookies)).ids.wendell;
+    const plans = (await ctx.http.get(`/api/patients/${wendell}/restorations`).set('Cookie', cookies.dentist)).body
+      .items as { id: string; notes: string | null }[];
+    const seeded = plans.filter((p) => p.notes === 'Digital impression after tissue conditioning');
+    expect(seeded).toHaveLength(1);
+    const listed = (await list('dentist', seeded[0].id)).body;
+    expect(listed.items[0]).toMatchObject({ method: 'digital', current: true });
+    expect(listed.items[0].scanBodies.map((b: { fdi: number; lot: string }) => [b.fdi, b.lot])).toEqual([
+      [15, 'SBX41-2615'],
+      [16, 'SBX41-2616'],
+    ]);
+    expect(listed.scanFiles).toHaveLength(1);
+    const file = await ctx.http
+      .get(`/api/scan-files/${listed.scanFiles[0].id}/file`)
+      .set('Cookie', cookies.dentist)
+      .buffer(true)
+      .parse((r, done) => {
+        const chunks: Buffer[] = [];
+        r.on('data', (c: Buffer) => chunks.push(c));
+        r.on('end', () => done(null, Buffer.concat(chunks)));
+      });
+    const bytes = file.body as Buffer;
+    // A binary STL: as long as its triangle count says.
+    expect(bytes.length).toBe(84 + 50 * bytes.readUInt32LE(80));
+    expect(bytes.length).toBe(listed.scanFiles[0].sizeBytes);
+  });
 });
