@@ -25,6 +25,7 @@ import { PlacementsModule } from './placements/placements.module.js';
 import { StorageModule } from './storage/storage.module.js';
 import { RadiographsModule } from './radiographs/radiographs.module.js';
 import { SeatingModule } from './seating/seating.module.js';
+import { ImpressionsModule } from './impressions/impressions.module.js';
 import { PeopleModule } from './people/people.module.js';
 import { OutcomesModule } from './outcomes/outcomes.module.js';
 import { SharesModule } from './shares/shares.module.js';
@@ -58,6 +59,7 @@ export class AppModule {
         RecallsModule,
         RadiographsModule,
         SeatingModule,
+        ImpressionsModule,
         PeopleModule,
         SharesModule,
         RecordsOutModule,

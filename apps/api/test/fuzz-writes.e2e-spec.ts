@@ -116,6 +116,18 @@ const TARGETS: Record<string, { as: AccountKey | null; path: string }> = {
     as: 'dentist',
     path: `/api/seating-checks/${await t.fresh.seatingCheck()}/amendments`,
   },
+  'POST /restorations/:id/impressions': {
+    as: 'dentist',
+    path: `/api/restorations/${await t.fresh.plan()}/impressions`,
+  },
+  'POST /impressions/:id/scan-files': {
+    as: 'dentist',
+    path: `/api/impressions/${await t.fresh.impression()}/scan-files`,
+  },
+  'POST /impressions/:id/amendments': {
+    as: 'dentist',
+    path: `/api/impressions/${await t.fresh.impression()}/amendments`,
+  },
   'POST /restorations': { as: 'dentist', path: '/api/restorations' },
   'POST /restorations/:id/amendments': { as: 'dentist', path: `/api/restorations/${await t.fresh.plan()}/amendments` },
   'POST /restorations/:id/delivery': { as: 'dentist', path: `/api/restorations/${await t.fresh.plan()}/delivery` },

@@ -14,6 +14,7 @@ import { AUDIT_EXPECTATIONS, auditChecks, expectAuditRows, nextXid } from './sup
 import { actorCookies, all, type Expected } from './support/role-matrix.js';
 import { ACCOUNTS, patientId, startTestApp } from './support/test-app.js';
 import { throwawayAccount } from './support/people.js';
+import { asciiStl } from './support/mesh-fixtures.js';
 import { jpeg, waitForPreview } from './support/radiograph-fixtures.js';
 import { scenarioTargets } from './support/scenario-targets.js';
 import { servedRoutes } from './support/served-routes.js';
@@ -202,6 +203,20 @@ const lotLookup = every(403, { dentist: 200, practice_admin: 200, otherPracticeD
 /** The legacy import: the dentist and the practice admin, each in their own practice. */
 const importers = (ok: number) => every(403, { dentist: ok, practice_admin: ok, otherPracticeDentist: ok });
 const one = (c: Omit<Case, 'target'>, target = 'shared Larkspur record'): Case[] => [{ target, ...c }];
+let scanScale = 1;
+let scanFile: string | undefined;
+/** One scan file of a digital impression of Wendell's (shared with the surgeon), made on first use. */
+async function storedScanFile(): Promise<string> {
+  if (scanFile) return scanFile;
+  const res = await ctx.http
+    .post(`/api/impressions/${await fresh.impression()}/scan-files`)
+    .set('Cookie', cookies.dentist)
+    .set('Content-Type', 'application/octet-stream')
+    .send(asciiStl(1000));
+  if (res.status !== 201) throw new Error(`fixture scan file failed: ${res.status}`);
+  scanFile = res.body.id as string;
+  return scanFile;
+}
 
 const TABLE: Record<string, Case[]> = {
   'GET /api/health': one({ path: () => '/api/health', expect: publicRoute(200) }, 'public'),
@@ -417,6 +432,31 @@ const TABLE: Record<string, Case[]> = {
     path: async () => `/api/seating-checks/${await fresh.seatingCheck()}/amendments`,
     body: () => ({ radiographId: radiograph, seated: 'no', reason: 'Read again: a gap at the distal margin' }),
     expect: dentistWrite(201),
+  }),
+  // A restoration's impression and scan files: the practice's own team only, never a surgeon
+  // (no share opens them); the dentist records and amends.
+  'GET /api/restorations/:id/impressions': one({
+    path: () => `/api/restorations/${haroldBridge}/impressions`,
+    expect: every(200, { surgeon: 403, surgeonNoShare: 403, otherPracticeDentist: 404 }),
+  }),
+  'POST /api/restorations/:id/impressions': one({
+    path: async () => `/api/restorations/${await fresh.plan()}/impressions`,
+    body: () => ({ method: 'analog', takenOn: '2026-11-20' }),
+    expect: dentistWrite(201),
+  }),
+  'POST /api/impressions/:id/amendments': one({
+    path: async () => `/api/impressions/${await fresh.impression()}/amendments`,
+    body: () => ({ takenOn: '2026-11-19', reason: 'Scanned the day before' }),
+    expect: dentistWrite(201),
+  }),
+  'POST /api/impressions/:id/scan-files': one({
+    path: async () => `/api/impressions/${await fresh.impression()}/scan-files`,
+    raw: async () => ({ type: 'application/octet-stream', data: asciiStl((scanScale += 1)) }),
+    expect: dentistWrite(201),
+  }),
+  'GET /api/scan-files/:id/file': one({
+    path: async () => `/api/scan-files/${await storedScanFile()}/file`,
+    expect: every(200, { surgeon: 403, surgeonNoShare: 403, otherPracticeDentist: 404 }),
   }),
   'GET /api/wrenches/:id/calibrations': one(
     {

@@ -70,7 +70,8 @@ describe('restorative dentist', () => {
     await page.waitForURL(/\/restorations$/);
 
     // Amend before delivery: a new version; the first stays, marked as amended.
-    await page.getByRole('link', { name: 'Amend plan' }).click();
+    // The newest plan comes first; Wendell's seeded plan (a digital impression) stays below it.
+    await page.getByRole('link', { name: 'Amend plan' }).first().click();
     await page.getByRole('heading', { name: 'Amend the plan' }).waitFor();
     await page.getByLabel('Shade').fill('A2');
     await page.getByLabel('Reason for the amendment').fill('Shade chosen at try-in');
@@ -82,7 +83,7 @@ describe('restorative dentist', () => {
     });
     await page.getByTestId('save-plan').click();
     await page.waitForURL(/\/restorations$/);
-    await expect.poll(() => page.getByTestId('restoration-card').count()).toBe(2);
+    await expect.poll(() => page.getByTestId('restoration-card').count()).toBe(3);
     const card = page.getByTestId('restoration-card').first();
     expect(await card.textContent()).toMatch(/shade A2/);
     expect(await card.textContent()).toMatch(/Amendment: Shade chosen at try-in/);

@@ -153,6 +153,7 @@ describe('practice administrator', () => {
       'RecallExam',
       'Radiograph',
       'Complication',
+      'Impression',
     ] as const) {
       expect(a.can('create', row(type, inPractice))).toBe(false);
       expect(a.can('amend', row(type, inPractice))).toBe(false);
@@ -160,6 +161,22 @@ describe('practice administrator', () => {
   });
   it('administers only their own practice', () => {
     expect(a.can('create', row('User', { practiceId: OTHER }))).toBe(false);
+  });
+});
+
+describe('impressions and their scan files', () => {
+  const own = { practiceId: PRACTICE, patientId: UNSHARED_PATIENT };
+  it('the dentist records and amends them; the hygienist and the administrator read them', () => {
+    expect(user('dentist').can('create', row('Impression', own))).toBe(true);
+    expect(user('dentist').can('amend', row('Impression', own))).toBe(true);
+    expect(user('hygienist').can('read', row('Impression', own))).toBe(true);
+    expect(user('hygienist').can('create', row('Impression', own))).toBe(false);
+    expect(user('practice_admin').can('read', row('Impression', own))).toBe(true);
+  });
+  it('no share opens them to a surgeon, whatever its scope', () => {
+    const shared = { practiceId: PRACTICE, patientId: SHARED_PATIENT };
+    expect(user('surgeon', [SHARED_PATIENT]).can('read', row('Impression', shared))).toBe(false);
+    expect(user('surgeon').can('read', row('Impression', { practiceId: OTHER }))).toBe(false);
   });
 });
 

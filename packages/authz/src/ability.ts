@@ -53,6 +53,11 @@ export type Subject =
   | 'RecallExam'
   | 'RecallPolicy'
   | 'Radiograph'
+  /**
+   * A restoration's impression and its scan files (the patient's intraoral scans): the practice's
+   * own team only; no share opens them to a surgeon.
+   */
+  | 'Impression'
   | 'Share'
   | 'AuditEntry'
   /** One patient's audit rows ("who accessed this record"): the dentist's and the admin's. */
@@ -138,6 +143,7 @@ export function defineAbilityFor(user: AbilityUser): AppAbility {
         own,
       );
       can(['read', 'create', 'amend'], 'Placement', own);
+      can(['read', 'create', 'amend'], 'Impression', own);
       // Dentists examine implants at their own reviews too, not only the hygienist at recalls.
       can(['read', 'create', 'amend'], 'RecallExam', own);
       can('read', ['Catalogue', 'Wrench', 'RecallPolicy'], own);
@@ -154,7 +160,11 @@ export function defineAbilityFor(user: AbilityUser): AppAbility {
       can('read', 'Practice', { id: user.practiceId });
       can('read', 'Patient', own);
       can('update', 'Patient', [...PATIENT_CONTACT_FIELDS], own);
-      can('read', ['ImplantSite', 'Placement', 'Restoration', 'ComponentInstance', 'TorqueEvent', 'Complication'], own);
+      can(
+        'read',
+        ['ImplantSite', 'Placement', 'Restoration', 'ComponentInstance', 'TorqueEvent', 'Complication', 'Impression'],
+        own,
+      );
       can(['read', 'create', 'amend'], ['RecallExam', 'Radiograph'], own);
       can('read', ['Catalogue', 'Wrench', 'RecallPolicy'], own);
       break;
@@ -175,7 +185,7 @@ export function defineAbilityFor(user: AbilityUser): AppAbility {
       can(['read', 'create', 'update'], 'User', own);
       can(['read', 'create', 'update', 'archive'], 'Patient', own);
       can('read', 'PatientVersion', own);
-      can('read', PATIENT_RECORD, own);
+      can('read', [...PATIENT_RECORD, 'Impression'], own);
       can(['read', 'create', 'update'], ['Catalogue', 'Wrench', 'RecallPolicy'], own);
       // A practice bringing its history in: the administrator runs it (docs/import.md).
       can(['read', 'create'], 'LegacyImport', own);

@@ -8,6 +8,7 @@ import {
   FINDING_SEVERITIES,
   IMPLANT_INTERFACES,
   IMPRESSION_COPINGS,
+  IMPRESSION_METHODS,
   MULTI_UNIT_ANGLES_DEG,
   type MultiUnitAngleDeg as MultiUnitAngleDegValue,
   PERI_IMPLANT_STATUSES,
@@ -27,6 +28,7 @@ export {
   FINDING_SEVERITIES,
   IMPLANT_INTERFACES,
   IMPRESSION_COPINGS,
+  IMPRESSION_METHODS,
   MULTI_UNIT_ANGLES_DEG,
   PERI_IMPLANT_STATUSES,
   PROBING_POSITIONS,
@@ -113,6 +115,8 @@ export const COMPONENT_KINDS = [
   'impression-coping',
   'healing-abutment',
   'cover-screw',
+  /** Screwed on the implant for an intraoral scan; of one platform, removed after the scan. */
+  'scan-body',
 ] as const;
 export const ComponentKind = z.enum(COMPONENT_KINDS);
 export type ComponentKind = z.infer<typeof ComponentKind>;
@@ -139,6 +143,7 @@ export const STACK_ORDER: readonly ComponentKind[] = [
   ...SCREW_KINDS,
   ...CLOSURE_KINDS,
   'impression-coping',
+  'scan-body',
 ];
 
 export const TRAYS = ['open', 'closed'] as const;
@@ -158,6 +163,12 @@ export const InterfaceKind = z.enum(IMPLANT_INTERFACES);
 export type InterfaceKind = z.infer<typeof InterfaceKind>;
 export const ImpressionCopingKind = z.enum(IMPRESSION_COPINGS);
 export type ImpressionCopingKind = z.infer<typeof ImpressionCopingKind>;
+export const ImpressionMethod = z.enum(IMPRESSION_METHODS, { error: 'Choose analog or digital' });
+export type ImpressionMethod = z.infer<typeof ImpressionMethod>;
+/** A digital impression's mesh files, detected by their content: STL (ASCII or binary), PLY, OBJ. */
+export const SCAN_FILE_TYPES = ['stl', 'ply', 'obj'] as const;
+export const ScanFileType = z.enum(SCAN_FILE_TYPES);
+export type ScanFileType = z.infer<typeof ScanFileType>;
 export const FindingSeverity = z.enum(FINDING_SEVERITIES);
 export type FindingSeverity = z.infer<typeof FindingSeverity>;
 /** 0, 17 or 30 degrees. */

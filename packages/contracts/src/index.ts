@@ -18,6 +18,7 @@ export * from './radiographs.js';
 export * from './audit.js';
 export * from './seating.js';
 export * from './seat-restoration.js';
+export * from './impressions.js';
 export * from './password.js';
 export * from './people.js';
 export * from './outcomes.js';

@@ -6,6 +6,7 @@ import { radiographRoutes } from './radiographs.js';
 import { auditRoutes } from './audit.js';
 import { seatingRoutes } from './seating.js';
 import { seatRestorationRoutes } from './seat-restoration.js';
+import { impressionRoutes } from './impressions.js';
 import { peopleRoutes } from './people.js';
 import { outcomeRoutes } from './outcomes.js';
 import { shareRoutes } from './shares.js';
@@ -94,6 +95,7 @@ export const apiRoutes: RouteContract[] = [
   ...radiographRoutes,
   ...seatingRoutes,
   ...seatRestorationRoutes,
+  ...impressionRoutes,
   ...placementRoutes,
   ...auditRoutes,
   ...recordsOutRoutes,

@@ -266,3 +266,8 @@ export { kaplanMeier, survivalAt, numberAtRisk } from './survival.js';
 /** Follow-up years between dates (÷ 365.25) and events per 100 implant-years. */
 export { followUpYears, eventsPer100ImplantYears, DAYS_PER_YEAR } from './survival.js';
 export type { SurvivalObservation, KaplanMeierStep, KaplanMeierResult } from './survival.js';
+
+// ---- impressions -----------------------------------------------------------------------------
+/** Scan bodies of a digital impression: one per site, a scan body, of the site's platform, with its lot. */
+export { checkScanBodies, IMPRESSION_METHODS, SCAN_BODY_FINDING_CODES } from './scan-bodies.js';
+export type { ImpressionMethod, ImpressionSite, ScanBodyEntry } from './scan-bodies.js';

@@ -19,6 +19,7 @@ const PATIENT_DATA: ReadonlySet<Subject> = new Set<Subject>([
   'Complication',
   'RecallExam',
   'Radiograph',
+  'Impression',
   'Share',
   'AuditEntry',
   'PatientAudit',

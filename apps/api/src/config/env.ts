@@ -82,6 +82,12 @@ const EnvSchema = z.object({
     .int()
     .positive()
     .default(100 * 1024 * 1024),
+  /** Largest scan file (STL, PLY, OBJ) accepted, bytes (413 above it, before anything is stored). */
+  SCAN_FILE_MAX_BYTES: z.coerce
+    .number()
+    .int()
+    .positive()
+    .default(50 * 1024 * 1024),
   /** Radiograph bytes one user may upload per day (UTC), bytes (429 above it). */
   RADIOGRAPH_DAILY_QUOTA_BYTES: z.coerce
     .number()
@@ -89,8 +95,8 @@ const EnvSchema = z.object({
     .positive()
     .default(2 * 1024 * 1024 * 1024),
   /**
-   * Radiograph uploads and preview jobs streaming at once in one API process; the others wait for
-   * a slot (radiographs/stream-slots.ts). Each takes about 5–15 MB (scripts/bench-radiograph-upload.mjs).
+   * Uploads (radiographs, scan files) and radiograph preview jobs streaming at once in one API
+   * process; the others wait for a slot (storage/stream-slots.ts). Each takes about 5–15 MB (scripts/bench-radiograph-upload.mjs).
    */
   RADIOGRAPH_STREAM_SLOTS: z.coerce.number().int().min(1).max(64).default(2),
   /**

@@ -13,12 +13,13 @@ const originOf = (url: string | undefined): string | undefined => {
 };
 
 /**
- * The routes whose body is not JSON: a radiograph upload streams the file's bytes, and a legacy
+ * The routes whose body is not JSON: a radiograph or scan file upload streams the file's bytes, and a legacy
  * import (and its dry run) sends the CSV file. Only application/octet-stream is accepted there,
  * which a cross-site HTML form cannot send either (forms send urlencoded, multipart or
  * text/plain), and the Origin check above still applies.
  */
-const BINARY_UPLOAD = /^\/api\/(patients\/[^/]+\/radiographs|imports|imports\/dry-run)\/?$/;
+const BINARY_UPLOAD =
+  /^\/api\/(patients\/[^/]+\/radiographs|impressions\/[^/]+\/scan-files|imports|imports\/dry-run)\/?$/;
 const isBinaryUpload = (req: Request) =>
   req.method === 'POST' &&
   BINARY_UPLOAD.test(req.path) &&

@@ -8,7 +8,7 @@ import {
   withPreamble,
   type DicomAttributes,
 } from './dicom.js';
-import { HEADER_BYTES } from './upload-stream.js';
+import { HEADER_BYTES } from '../storage/upload-stream.js';
 
 /** An 8-bit greyscale image no larger than the preview, and the size of the full image it shows. */
 export type GreyImage =

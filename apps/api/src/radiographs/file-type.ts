@@ -1,4 +1,5 @@
 import type { RadiographFileType } from '@torquetrail/contracts';
+import { describeFile } from '../common/file-signature.js';
 
 const PNG = [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a];
 const JPEG = [0xff, 0xd8, 0xff];
@@ -23,16 +24,7 @@ export function detectFileType(head: Buffer): Detected {
 }
 
 function describe(head: Buffer): string {
-  if (head.length === 0) return 'an empty file';
-  if (ascii(head, 0, 5) === '%PDF-') return 'a PDF document';
-  if (ascii(head, 0, 4) === 'GIF8') return 'a GIF image';
-  if (startsWith(head, [0x50, 0x4b, 0x03, 0x04])) return 'a ZIP archive';
-  if (ascii(head, 0, 4) === 'RIFF') return 'a RIFF file (e.g. WebP)';
-  if (startsWith(head, [0x49, 0x49, 0x2a, 0x00]) || startsWith(head, [0x4d, 0x4d, 0x00, 0x2a])) return 'a TIFF image';
-  const text = head.subarray(0, 64).toString('utf8').trimStart().toLowerCase();
-  if (text.startsWith('<!doctype html') || text.startsWith('<html')) return 'an HTML page';
-  if (text.startsWith('<')) return 'an XML or HTML document';
-  return 'not a recognised image';
+  return describeFile(head) ?? 'not a recognised image';
 }
 
 /** The content type an original is served with. */

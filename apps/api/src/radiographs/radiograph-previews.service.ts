@@ -14,7 +14,7 @@ import { StorageService } from '../storage/storage.service.js';
 import { tooLargeProblem } from './dicom-pixels.js';
 import { makePreviews } from './preview.js';
 import * as repo from './radiographs.repository.js';
-import { RadiographStreamSlots } from './stream-slots.js';
+import { StreamSlots } from '../storage/stream-slots.js';
 
 const PREVIEW_QUEUE = 'radiograph-preview';
 const SWEEP_QUEUE = 'radiograph-preview-sweep';
@@ -43,7 +43,7 @@ export class RadiographPreviewService {
     @Inject(DB) private readonly db: Database,
     private readonly jobs: JobsService,
     private readonly storage: StorageService,
-    private readonly slots: RadiographStreamSlots,
+    private readonly slots: StreamSlots,
   ) {
     jobs.register<PreviewJob>({
       name: PREVIEW_QUEUE,

@@ -27,8 +27,8 @@ import { dicomAttributes, DicomUnreadable, parseDicom, withPreamble, type DicomA
 import { CONTENT_TYPES, detectFileType } from './file-type.js';
 import { imageSizeFromHead } from './preview.js';
 import * as repo from './radiographs.repository.js';
-import { RadiographStreamSlots } from './stream-slots.js';
-import { splitHead, TooLarge } from './upload-stream.js';
+import { StreamSlots } from '../storage/stream-slots.js';
+import { drainUnread, putSplit, removeQuietly, splitHead, TooLarge } from '../storage/upload-stream.js';
 
 type UploadQuery = z.output<typeof RadiographUploadQuery>;
 
@@ -47,7 +47,7 @@ export class RadiographUploadService {
     @Inject(DB) private readonly db: Database,
     @Inject(ENV) private readonly env: Env,
     private readonly storage: StorageService,
-    private readonly slots: RadiographStreamSlots,
+    private readonly slots: StreamSlots,
   ) {}
 
   /** Stores the file and its row; the new radiograph's id (its preview is queued by the caller). */
@@ -63,13 +63,7 @@ export class RadiographUploadService {
     try {
       return await this.receive(ability, user, scope, patientId, query, body, declaredLength);
     } finally {
-      // A refused body is drained so the client can read the answer instead of a reset connection.
-      // The head was read through an async iterator, whose 'readable' listener would keep resume()
-      // from flowing the rest.
-      if (!body.readableEnded) {
-        body.removeAllListeners('readable');
-        body.resume();
-      }
+      drainUnread(body);
     }
   }
 
@@ -148,14 +142,10 @@ export class RadiographUploadService {
 
     const id = randomUUID();
     const objectKey = `radiographs/${patient.practiceId}/${patient.id}/${id}`;
-    try {
-      // A body without Content-Length that crosses the limit fails here, mid-stream: the multipart
-      // upload is aborted (its parts removed) and no row is written.
-      await this.storage.putStream(objectKey, split.stream(), CONTENT_TYPES[detected.type]);
-    } catch {
-      if (split.overLimit()) throw tooLarge();
-      throw new ServiceUnavailableException(STORAGE_DOWN);
-    }
+    await putSplit(this.storage, objectKey, split, CONTENT_TYPES[detected.type], {
+      tooLarge,
+      unavailable: () => new ServiceUnavailableException(STORAGE_DOWN),
+    });
     let recorded = false;
     try {
       const { size, sha256 } = split.result();
@@ -209,21 +199,12 @@ export class RadiographUploadService {
       }
       recorded = true;
     } finally {
-      if (!recorded) await this.removeObject(objectKey);
+      if (!recorded) await removeQuietly(this.storage, objectKey);
     }
     return id;
   }
 
   private duplicate(existingId: string) {
     return new ConflictException(`This file was already uploaded for this patient as radiograph ${existingId}`);
-  }
-
-  /** Best effort: an object left behind by a storage outage is unreferenced, never shown. */
-  private async removeObject(key: string): Promise<void> {
-    try {
-      await this.storage.delete(key);
-    } catch {
-      // nothing more to do: the row does not exist, so nothing points at the object
-    }
   }
 }

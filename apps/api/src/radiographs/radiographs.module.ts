@@ -5,18 +5,11 @@ import { RadiographsController } from './radiographs.controller.js';
 import { RadiographPreviewService } from './radiograph-previews.service.js';
 import { RadiographUploadService } from './radiograph-upload.service.js';
 import { RadiographsService } from './radiographs.service.js';
-import { RadiographStreamSlots } from './stream-slots.js';
 
 // BoneLevelsService is exported for the recall exam form, which offers the latest measured bone level.
 @Module({
   controllers: [RadiographsController, BoneLevelsController],
-  providers: [
-    RadiographsService,
-    BoneLevelsService,
-    RadiographUploadService,
-    RadiographPreviewService,
-    RadiographStreamSlots,
-  ],
+  providers: [RadiographsService, BoneLevelsService, RadiographUploadService, RadiographPreviewService],
   exports: [BoneLevelsService],
 })
 export class RadiographsModule {}

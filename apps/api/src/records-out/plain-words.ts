@@ -15,6 +15,7 @@ const PART_KIND: Record<ComponentKind, string> = {
   'impression-coping': 'Impression coping',
   'healing-abutment': 'Healing abutment',
   'cover-screw': 'Cover screw',
+  'scan-body': 'Scan body',
 };
 export const partKindWords = (k: ComponentKind) => PART_KIND[k];
 

@@ -194,6 +194,17 @@ function partsFor(
       requiresLot: false,
     },
     {
+      // Screwed on by hand for the intraoral scan and removed after it; its lot is recorded.
+      key: 'scan-body',
+      kind: 'scan-body',
+      name: 'Scan body, hand-tight',
+      referenceCode: ref('SB'),
+      engaging: true,
+      torqueSpecNcm: null,
+      tolerancePct: 10,
+      requiresLot: true,
+    },
+    {
       key: 'healing',
       kind: 'healing-abutment',
       name: 'Healing abutment 4 mm',

@@ -7,6 +7,7 @@ import { seedLedgerHistory } from './demo-ledger-history.js';
 import { seedAuditHistory } from './demo-audit-history.js';
 import { seedDemoPeople } from './demo-people.js';
 import { seedDemoRadiographs, type SeedStorage } from './demo-radiographs.js';
+import { seedDigitalImpression } from './demo-digital-impression.js';
 
 /** `storage` receives the radiograph files (objects first: the rows are written after them). */
 export async function seedDemo(tx: Tx, today: string, storage: SeedStorage): Promise<SeedSummary> {
@@ -17,6 +18,7 @@ export async function seedDemo(tx: Tx, today: string, storage: SeedStorage): Pro
   await seedDemoPeople(tx, refs);
   // Radiographs after the recalls: their bone levels are read from the recall exams seeded above.
   await seedDemoRadiographs(tx, refs, storage);
+  await seedDigitalImpression(tx, refs, storage);
   // Last: the audit trail follows the clinical history the seeds above wrote.
   await seedAuditHistory(tx, refs);
   return summary;

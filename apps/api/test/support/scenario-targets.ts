@@ -134,12 +134,32 @@ export async function scenarioTargets(ctx: TestContext, cookies: Record<AccountK
     );
   };
 
+  const freshPlan = async () =>
+    created(await ctx.http.post('/api/restorations').set('Cookie', cookies.dentist).send(plan()), 'plan');
+  /** A digital impression of a new plan for Wendell's 15 and 16, with a scan body at each. */
+  const impression = async () =>
+    created(
+      await ctx.http
+        .post(`/api/restorations/${await freshPlan()}/impressions`)
+        .set('Cookie', cookies.dentist)
+        .send({
+          method: 'digital',
+          takenOn: '2026-11-20',
+          scanBodies: [ids.wendell15, ids.wendell16].map((site, i) => ({
+            siteId: site,
+            componentId: tex('SB'),
+            lot: `SB-FIX-${i + 1}`,
+          })),
+        }),
+      'impression',
+    );
+
   const fresh = {
     radiograph,
     measurement,
     seatingCheck,
-    plan: async () =>
-      created(await ctx.http.post('/api/restorations').set('Cookie', cookies.dentist).send(plan()), 'plan'),
+    impression,
+    plan: freshPlan,
     site: async () =>
       created(
         await ctx.http.post(`/api/patients/${ids.lucia}/sites`).set('Cookie', cookies.dentist).send({ fdi: nextFdi() }),

@@ -7,7 +7,7 @@ import request from 'supertest';
 import { createApp } from '../../src/app.js';
 import { type Env, parseEnv } from '../../src/config/env.js';
 import { createDatabase, createPool, type Database } from '../../src/db/database.js';
-import { implantSites, patients, radiographs } from '../../src/db/schema/index.js';
+import { implantSites, patients, radiographs, scanFiles } from '../../src/db/schema/index.js';
 import { StorageService } from '../../src/storage/storage.service.js';
 import { DEMO_PASSWORD } from '../../src/seed/demo-scenario.js';
 import { seedDemo } from '../../src/seed/demo.js';
@@ -37,14 +37,18 @@ let seedStorage: StorageService | undefined;
 
 /**
  * Empties every table of the test database (as the owner) and seeds the demo scenario again. The
- * radiograph files of the rows about to go are deleted first, so the test bucket does not grow by
+ * radiograph and scan files of the rows about to go are deleted first, so the test bucket does not grow by
  * a seed's worth of files with every test file (other databases' files are left alone).
  */
 export async function resetDatabase(db: Database): Promise<void> {
   seedStorage ??= new StorageService(testEnv());
   const storage = seedStorage;
   const existing = await db.select({ key: radiographs.objectKey }).from(radiographs);
-  const keys = existing.flatMap((r) => [r.key, `${r.key}.preview.png`, `${r.key}.thumbnail.png`]);
+  const scans = await db.select({ key: scanFiles.objectKey }).from(scanFiles);
+  const keys = [
+    ...existing.flatMap((r) => [r.key, `${r.key}.preview.png`, `${r.key}.thumbnail.png`]),
+    ...scans.map((s) => s.key),
+  ];
   const deleted = (async () => {
     for (let i = 0; i < keys.length; i += 16) {
       await Promise.all(keys.slice(i, i + 16).map((k) => storage.delete(k).catch(() => undefined)));

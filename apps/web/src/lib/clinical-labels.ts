@@ -7,6 +7,7 @@ import {
   type Connection,
   type FindingSeverity,
   type ImpressionCopingKind,
+  type ImpressionMethod,
   type InterfaceKind,
   type LoadingProtocol,
   type Material,
@@ -14,6 +15,7 @@ import {
   type RestorationKind,
   type RestorationStatus,
   type Retention,
+  type ScanFileType,
   type SeatingAnswer,
   type SeatingEvent,
   type TorqueReason,
@@ -46,6 +48,7 @@ export const COMPONENT_KIND_LABEL: Record<ComponentKind, string> = {
   'impression-coping': 'Impression coping',
   'healing-abutment': 'Healing abutment',
   'cover-screw': 'Cover screw',
+  'scan-body': 'Scan body',
 };
 
 /** Kinds that sit on the implant and have an axis, so "straight" is meaningful for them. */
@@ -84,6 +87,17 @@ export const IMPRESSION_COPING_LABEL: Record<ImpressionCopingKind, string> = {
   'non-engaging': 'Non-engaging coping',
   engaging: 'Engaging coping',
   'multi-unit': 'Multi-unit coping',
+};
+
+export const IMPRESSION_METHOD_LABEL: Record<ImpressionMethod, string> = {
+  analog: 'Analog (copings and tray)',
+  digital: 'Digital (intraoral scan)',
+};
+
+export const SCAN_FILE_TYPE_LABEL: Record<ScanFileType, string> = {
+  stl: 'STL mesh',
+  ply: 'PLY mesh',
+  obj: 'OBJ mesh',
 };
 
 export const RESTORATION_STATUS_LABEL: Record<RestorationStatus, string> = {

@@ -11,6 +11,7 @@ export const AMENDABLE_TABLES = [
   'torque_wrenches',
   'radiograph_measurements',
   'seating_checks',
+  'impressions',
 ] as const;
 export type AmendableTableName = (typeof AMENDABLE_TABLES)[number];
 

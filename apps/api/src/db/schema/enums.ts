@@ -9,6 +9,7 @@ import {
   CONNECTIONS,
   IMPLANT_INTERFACES,
   IMPRESSION_COPINGS,
+  IMPRESSION_METHODS,
   LOADING_PROTOCOLS,
   MATERIALS,
   PATIENT_SEXES,
@@ -27,6 +28,7 @@ import {
   RETENTIONS,
   ROLES,
   SEATING_ANSWERS,
+  SCAN_FILE_TYPES,
   SEATING_EVENTS,
   SHARE_NOTICE_KINDS,
   SHARE_SCOPES,
@@ -72,3 +74,5 @@ export const auditOutcomeEnum = pgEnum('audit_outcome', AUDIT_OUTCOMES);
 export const seatingEventEnum = pgEnum('seating_event', SEATING_EVENTS);
 export const seatingAnswerEnum = pgEnum('seating_answer', SEATING_ANSWERS);
 export const radiographPreviewStatusEnum = pgEnum('radiograph_preview_status', RADIOGRAPH_PREVIEW_STATUSES);
+export const impressionMethodEnum = pgEnum('impression_method', IMPRESSION_METHODS);
+export const scanFileTypeEnum = pgEnum('scan_file_type', SCAN_FILE_TYPES);

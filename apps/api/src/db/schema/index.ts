@@ -9,6 +9,7 @@ export * from './recalls.js';
 export * from './radiographs.js';
 export * from './audit.js';
 export * from './seating.js';
+export * from './impressions.js';
 export * from './people.js';
 export * from './referrals.js';
 export * from './records-out.js';

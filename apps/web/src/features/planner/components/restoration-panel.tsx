@@ -4,6 +4,7 @@ import { formatTooth } from '@torquetrail/domain';
 import { useState } from 'react';
 import { Link } from 'react-router-dom';
 import { Can } from '../../../lib/ability';
+import { ImpressionPanel } from '../../impressions';
 import { formatDate, formatDateTime } from '../../../lib/dates';
 import type { ToothSystem } from '../../../lib/tooth-system';
 import { useLabPrescription } from '../api/planner-api';
@@ -117,6 +118,11 @@ export function RestorationPanel({
             </li>
           ))}
         </ul>
+      )}
+      {current && (
+        <Can I="read" a="Impression">
+          <ImpressionPanel restorationId={r.id} system={system} />
+        </Can>
       )}
       {current && (
         <Can I="create" a="Restoration">

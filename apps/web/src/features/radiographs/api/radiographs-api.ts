@@ -1,8 +1,6 @@
-// Radiograph endpoints. The upload uses XMLHttpRequest, not fetch: only XHR reports upload
-// progress in every browser, and it can be cancelled mid-file.
+// Radiograph endpoints. The upload goes through lib/upload-file (XHR: progress and cancel).
 import {
   type EnteredInErrorBody,
-  ErrorReply,
   Measurement,
   type MeasurementAmendmentBody,
   type MeasurementBody,
@@ -13,7 +11,8 @@ import {
 } from '@torquetrail/contracts';
 import type { z } from 'zod';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { ApiError, apiRequest } from '../../../lib/api-client';
+import { apiRequest } from '../../../lib/api-client';
+import { type UploadHandle as LibUploadHandle, uploadFile } from '../../../lib/upload-file';
 import { recallKeys } from '../../recalls';
 import { radiographKeys } from './keys';
 
@@ -36,10 +35,7 @@ export const useRadiographs = (patientId: string, includeEnteredInError = false)
 /** The upload's details as the contract parses them. */
 export type UploadDetails = z.output<typeof RadiographUploadQuery>;
 
-export interface UploadHandle {
-  done: Promise<Radiograph>;
-  cancel: () => void;
-}
+export type UploadHandle = LibUploadHandle<Radiograph>;
 
 /** Streams one file to the API as application/octet-stream; `onProgress` gets bytes sent and total. */
 export function uploadRadiograph(
@@ -52,34 +48,7 @@ export function uploadRadiograph(
   if (query.takenOn) params.set('takenOn', query.takenOn);
   if (query.note) params.set('note', query.note);
   if (query.siteIds.length > 0) params.set('siteIds', query.siteIds.join(','));
-  const xhr = new XMLHttpRequest();
-  const done = new Promise<Radiograph>((resolve, reject) => {
-    xhr.open('POST', `/api/patients/${patientId}/radiographs?${params.toString()}`);
-    xhr.setRequestHeader('Content-Type', 'application/octet-stream');
-    xhr.setRequestHeader('Accept', 'application/json');
-    xhr.responseType = 'text';
-    xhr.upload.addEventListener('progress', (e) => onProgress(e.loaded, e.lengthComputable ? e.total : file.size));
-    xhr.addEventListener('load', () => {
-      let body: unknown = null;
-      try {
-        body = JSON.parse(xhr.responseText);
-      } catch {
-        // not JSON: handled below as a failed reply
-      }
-      if (xhr.status === 201) {
-        const parsed = Radiograph.safeParse(body);
-        if (parsed.success) return resolve(parsed.data);
-      }
-      const error = ErrorReply.safeParse(body);
-      reject(new ApiError(xhr.status, error.success ? error.data.message : `The upload failed (${xhr.status})`));
-    });
-    xhr.addEventListener('error', () =>
-      reject(new ApiError(0, 'Cannot reach the Torquetrail server. Check the connection and retry.')),
-    );
-    xhr.addEventListener('abort', () => reject(new ApiError(0, 'Upload cancelled')));
-    xhr.send(file);
-  });
-  return { done, cancel: () => xhr.abort() };
+  return uploadFile(`/api/patients/${patientId}/radiographs?${params.toString()}`, file, Radiograph, onProgress);
 }
 
 export const useRadiograph = (radiographId: string) =>

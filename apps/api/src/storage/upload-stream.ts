@@ -1,5 +1,6 @@
 import { createHash } from 'node:crypto';
 import { Readable } from 'node:stream';
+import type { StorageService } from './storage.service.js';
 
 /** How much of the start of a file is read before deciding its type and parsing a DICOM header. */
 export const HEADER_BYTES = 1024 * 1024;
@@ -56,4 +57,44 @@ export async function splitHead(body: AsyncIterable<Buffer>, maxBytes: number) {
     /** Valid once the stream has ended. */
     result: () => ({ size, sha256: hash.digest('hex') }),
   };
+}
+
+/**
+ * Streams the split body to object storage under `key`. A body that crosses the limit mid-stream
+ * (no Content-Length, or a false one) fails here: the multipart upload is aborted (its parts
+ * removed) and `tooLarge` is thrown; any other failure is storage being away (`unavailable`).
+ */
+export async function putSplit(
+  storage: StorageService,
+  key: string,
+  split: Awaited<ReturnType<typeof splitHead>>,
+  contentType: string,
+  errors: { tooLarge: () => Error; unavailable: () => Error },
+): Promise<void> {
+  try {
+    await storage.putStream(key, split.stream(), contentType);
+  } catch {
+    throw split.overLimit() ? errors.tooLarge() : errors.unavailable();
+  }
+}
+
+/**
+ * After an upload route answers: a refused body is drained so the client can read the answer
+ * instead of a reset connection. The head was read through an async iterator, whose 'readable'
+ * listener would keep resume() from flowing the rest.
+ */
+export function drainUnread(body: Readable): void {
+  if (!body.readableEnded) {
+    body.removeAllListeners('readable');
+    body.resume();
+  }
+}
+
+/** Best effort: an object left behind by a failure after the upload is unreferenced, never shown. */
+export async function removeQuietly(storage: StorageService, key: string): Promise<void> {
+  try {
+    await storage.delete(key);
+  } catch {
+    // nothing more to do: no row points at the object
+  }
 }

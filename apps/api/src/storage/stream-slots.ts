@@ -26,14 +26,15 @@ export class Slots {
 }
 
 /**
- * The slots of the radiograph work that streams a whole file through the API: an upload while it
- * reads the body and sends it to S3 (a 5 MB part buffer), a preview job while it reads the stored
- * file and decodes it (up to about 15 MB). The slots, not the number of clients, bound the memory
- * this takes; a waiting upload reads nothing (its body waits in the socket: TCP back-pressure) and
- * a waiting preview job just waits.
+ * The slots of the work that streams a whole file through the API: an upload (a radiograph, a
+ * scan file) while it reads the body and sends it to S3 (a 5 MB part buffer), a radiograph preview
+ * job while it reads the stored file and decodes it (up to about 15 MB). One set for the process:
+ * the slots, not the number of clients or kinds of file, bound the memory this takes; a waiting
+ * upload reads nothing (its body waits in the socket: TCP back-pressure) and a waiting preview job
+ * just waits.
  */
 @Injectable()
-export class RadiographStreamSlots extends Slots {
+export class StreamSlots extends Slots {
   constructor(@Inject(ENV) env: Env) {
     super(env.RADIOGRAPH_STREAM_SLOTS);
   }

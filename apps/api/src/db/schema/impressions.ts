@@ -1,0 +1,113 @@
+import { sql } from 'drizzle-orm';
+import { bigint, date, index, pgTable, text, timestamp, unique, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import { amendmentChain } from './amendment-chain.js';
+import { components } from './catalogue.js';
+import { impressionMethodEnum, scanFileTypeEnum } from './enums.js';
+import { patients } from './patients.js';
+import { practices, users } from './practices.js';
+import { restorations } from './restorations.js';
+import { implantSites } from './sites.js';
+
+/**
+ * The impression of a restoration: analog (copings, as planned per site) or digital (an intraoral
+ * scan). Amended, never edited: a correction is a new row superseding the old one, with its reason,
+ * and carries its own scan bodies.
+ */
+export const impressions = pgTable(
+  'impressions',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
+    patientId: uuid('patient_id')
+      .notNull()
+      .references(() => patients.id),
+    restorationId: uuid('restoration_id')
+      .notNull()
+      .references(() => restorations.id),
+    method: impressionMethodEnum('method').notNull(),
+    takenOn: date('taken_on', { mode: 'string' }).notNull(),
+    note: text('note'),
+    recordedBy: uuid('recorded_by')
+      .notNull()
+      .references(() => users.id),
+    recordedAt: timestamp('recorded_at', { withTimezone: true }).notNull().defaultNow(),
+    supersedesId: uuid('supersedes_id'),
+    amendmentReason: text('amendment_reason'),
+  },
+  (t) => [
+    index('impressions_restoration_idx').on(t.restorationId),
+    // One first version per restoration; later ones are amendments of it. Two first impressions
+    // racing are decided here.
+    uniqueIndex('impressions_first_unique')
+      .on(t.restorationId)
+      .where(sql`${t.supersedesId} is null`),
+    ...amendmentChain('impressions', t),
+  ],
+);
+
+/** The scan body used at one site of a digital impression (one version), with its lot. */
+export const impressionScanBodies = pgTable(
+  'impression_scan_bodies',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
+    impressionId: uuid('impression_id')
+      .notNull()
+      .references(() => impressions.id),
+    siteId: uuid('site_id')
+      .notNull()
+      .references(() => implantSites.id),
+    componentId: uuid('component_id')
+      .notNull()
+      .references(() => components.id),
+    lot: text('lot'),
+  },
+  (t) => [
+    unique('impression_scan_bodies_site_unique').on(t.impressionId, t.siteId),
+    index('impression_scan_bodies_component_idx').on(t.componentId),
+    index('impression_scan_bodies_practice_lot_idx')
+      .on(t.practiceId, t.lot)
+      .where(sql`${t.lot} is not null`),
+  ],
+);
+
+/**
+ * A scanner's mesh file of a digital impression, kept in object storage under a key the server
+ * chooses; the client's name is data only. Never deleted.
+ */
+export const scanFiles = pgTable(
+  'scan_files',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
+    patientId: uuid('patient_id')
+      .notNull()
+      .references(() => patients.id),
+    restorationId: uuid('restoration_id')
+      .notNull()
+      .references(() => restorations.id),
+    impressionId: uuid('impression_id')
+      .notNull()
+      .references(() => impressions.id),
+    objectKey: text('object_key').notNull(),
+    sizeBytes: bigint('size_bytes', { mode: 'number' }).notNull(),
+    sha256: text('sha256').notNull(),
+    fileType: scanFileTypeEnum('file_type').notNull(),
+    originalName: text('original_name'),
+    uploadedBy: uuid('uploaded_by')
+      .notNull()
+      .references(() => users.id),
+    uploadedAt: timestamp('uploaded_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [
+    index('scan_files_restoration_idx').on(t.restorationId),
+    unique('scan_files_object_key_unique').on(t.objectKey),
+    unique('scan_files_restoration_sha256_unique').on(t.restorationId, t.sha256),
+  ],
+);

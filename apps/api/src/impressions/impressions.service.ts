@@ -1,0 +1,249 @@
+import { ConflictException, Inject, Injectable, NotFoundException } from '@nestjs/common';
+import type { AppAbility } from '@torquetrail/authz';
+import {
+  ImpressionAmendmentBody,
+  type Impression,
+  type ImpressionBody,
+  type ImpressionListReply,
+  type ScanFile,
+} from '@torquetrail/contracts';
+import { checkScanBodies } from '@torquetrail/domain';
+import type { z } from 'zod';
+import type { SessionUser } from '../auth/session-user.js';
+import { assertCan, type Scope } from '../authz/scope.js';
+import { assertAmendable } from '../common/amendment-conflict.js';
+import { reportChange } from '../common/audit-context.js';
+import { fieldError } from '../common/field-error.js';
+import { keepAbsent } from '../common/keep-absent.js';
+import { isUniqueViolation } from '../common/postgres-error.js';
+import { auditedTransaction } from '../db/audited-transaction.js';
+import { DB, type Database } from '../db/database.js';
+import * as repo from './impressions.repository.js';
+
+type Body = z.output<typeof ImpressionBody>;
+type ScanBodyRow = Awaited<ReturnType<typeof repo.scanBodiesOf>>[number];
+
+/** The latest calendar date anywhere on Earth now (UTC+14): a later date has not happened yet. */
+const latestPossibleToday = () => new Date(Date.now() + 14 * 3_600_000).toISOString().slice(0, 10);
+
+export const toScanFile = (f: repo.ScanFileRow): ScanFile => ({
+  id: f.id,
+  impressionId: f.impressionId,
+  fileType: f.fileType,
+  originalName: f.originalName,
+  sizeBytes: f.sizeBytes,
+  sha256: f.sha256,
+  uploadedBy: f.uploadedByName,
+  uploadedAt: f.uploadedAt.toISOString(),
+});
+
+const toImpression = (i: repo.ImpressionRow, bodies: ScanBodyRow[]): Impression => ({
+  id: i.id,
+  restorationId: i.restorationId,
+  method: i.method,
+  takenOn: i.takenOn,
+  scanBodies: bodies
+    .filter((b) => b.impressionId === i.id)
+    .map((b) => ({
+      siteId: b.siteId,
+      fdi: b.fdi,
+      componentId: b.componentId,
+      name: b.name,
+      referenceCode: b.referenceCode,
+      lot: b.lot,
+    })),
+  note: i.note,
+  recordedBy: i.recordedByName,
+  recordedAt: i.recordedAt.toISOString(),
+  supersedesId: i.supersedesId,
+  amendmentReason: i.amendmentReason,
+  current: i.supersededById === null,
+});
+
+const alreadyRecorded = () =>
+  new ConflictException("This restoration's impression is already recorded; amend it instead");
+
+/**
+ * The impression of a restoration: analog, or digital with one scan body per site (the domain's
+ * `checkScanBodies`: of the site's platform, with its lot). Recorded and amended by the dentist;
+ * no share opens it to a surgeon (the `Impression` subject).
+ */
+@Injectable()
+export class ImpressionsService {
+  constructor(@Inject(DB) private readonly db: Database) {}
+
+  async list(ability: AppAbility, scope: Scope, restorationId: string): Promise<ImpressionListReply> {
+    const r = assertCan(
+      ability,
+      'read',
+      'Impression',
+      await repo.findVisibleRestoration(this.db, scope, restorationId),
+      'restoration',
+    );
+    const rows = await repo.impressionsOfRestoration(this.db, r.id);
+    const bodies = await repo.scanBodiesOf(
+      this.db,
+      rows.map((i) => i.id),
+    );
+    const files = await repo.scanFilesOfRestoration(this.db, r.id);
+    return { items: rows.map((i) => toImpression(i, bodies)), scanFiles: files.map(toScanFile) };
+  }
+
+  async record(
+    ability: AppAbility,
+    user: SessionUser,
+    scope: Scope,
+    restorationId: string,
+    body: Body,
+  ): Promise<Impression> {
+    const r = assertCan(
+      ability,
+      'create',
+      'Impression',
+      await repo.findVisibleRestoration(this.db, scope, restorationId),
+      'restoration',
+    );
+    if (!r.current) {
+      throw new ConflictException(
+        'This version of the restoration was amended; record the impression on its current version',
+      );
+    }
+    const scanBodies = await this.checked(r, body);
+    if (await repo.firstImpressionOf(this.db, r.id)) throw alreadyRecorded();
+    let id: string;
+    try {
+      id = await auditedTransaction(this.db, async (tx) => {
+        const newId = await repo.insertImpression(tx, {
+          practiceId: r.practiceId,
+          patientId: r.patientId,
+          restorationId: r.id,
+          method: body.method,
+          takenOn: body.takenOn,
+          note: body.note,
+          recordedBy: user.id,
+        });
+        await repo.insertScanBodies(
+          tx,
+          scanBodies.map((b) => ({ ...b, practiceId: r.practiceId, impressionId: newId })),
+        );
+        reportChange({ type: 'Impression', id: newId, patientId: r.patientId, after: { ...body, scanBodies } });
+        return newId;
+      });
+    } catch (e) {
+      // Two first impressions of one restoration raced: the partial unique index decided.
+      if (isUniqueViolation(e, 'impressions_first_unique')) throw alreadyRecorded();
+      throw e;
+    }
+    return this.impression(scope, id);
+  }
+
+  async amend(
+    ability: AppAbility,
+    user: SessionUser,
+    scope: Scope,
+    impressionId: string,
+    body: z.output<typeof ImpressionAmendmentBody>,
+  ): Promise<Impression> {
+    const old = assertAmendable(
+      ability,
+      'Impression',
+      await repo.findImpression(this.db, scope, impressionId),
+      'impression',
+      'impressions',
+    );
+    const r = await repo.findVisibleRestoration(this.db, scope, old.restorationId);
+    if (!r) throw new NotFoundException('No such impression');
+    const oldBodies = (await repo.scanBodiesOf(this.db, [old.id])).map((b) => ({
+      siteId: b.siteId,
+      componentId: b.componentId,
+      lot: b.lot,
+    }));
+    // What the amendment leaves out stays as it was.
+    const next = keepAbsent(ImpressionAmendmentBody, body, { ...old, scanBodies: oldBodies });
+    const scanBodies = await this.checked(r, next);
+    const id = await auditedTransaction(this.db, async (tx) => {
+      const newId = await repo.insertImpressionAmendment(tx, {
+        practiceId: old.practiceId,
+        patientId: old.patientId,
+        restorationId: old.restorationId,
+        method: next.method,
+        takenOn: next.takenOn,
+        note: next.note,
+        recordedBy: user.id,
+        supersedesId: old.id,
+        amendmentReason: body.reason,
+      });
+      await repo.insertScanBodies(
+        tx,
+        scanBodies.map((b) => ({ ...b, practiceId: old.practiceId, impressionId: newId })),
+      );
+      reportChange({
+        type: 'Impression',
+        id: newId,
+        patientId: old.patientId,
+        before: { method: old.method, takenOn: old.takenOn, note: old.note, scanBodies: oldBodies },
+        after: { method: next.method, takenOn: next.takenOn, note: next.note, scanBodies },
+      });
+      return newId;
+    });
+    return this.impression(scope, id);
+  }
+
+  /**
+   * 400 naming the field for a date in the future, a site that is not the restoration's, a part
+   * not in the practice's catalogue, and every Finding of `checkScanBodies` (which names the site).
+   * The scan bodies to store: each part resolved to its current catalogue version (ADR 0006).
+   */
+  private async checked(r: repo.VisibleRestoration, body: Pick<Body, 'method' | 'takenOn' | 'scanBodies'>) {
+    const fields: Record<string, string> = {};
+    if (body.takenOn > latestPossibleToday()) fields.takenOn = 'The impression date cannot be in the future';
+    r.sites.forEach((s) => {
+      if (!s.platformId) fields.scanBodies = `No placement is recorded at ${s.fdi}: the implant's platform is unknown`;
+    });
+    const parts = new Map(
+      (
+        await repo.scanBodyParts(
+          this.db,
+          r.practiceId,
+          body.scanBodies.map((b) => b.componentId),
+        )
+      ).map((p) => [p.askedId, p]),
+    );
+    const entries: Parameters<typeof checkScanBodies>[2][number][] = [];
+    const stored: { siteId: string; componentId: string; lot: string | null }[] = [];
+    const indexOfFdi = new Map<number, number>();
+    body.scanBodies.forEach((b, i) => {
+      const site = r.sites.find((s) => s.siteId === b.siteId);
+      const part = parts.get(b.componentId);
+      if (!site) fields[`scanBodies.${i}.siteId`] = "Not one of this restoration's sites";
+      if (!part) fields[`scanBodies.${i}.componentId`] = 'No such part in the practice catalogue';
+      if (!site || !part) return;
+      indexOfFdi.set(site.fdi, i);
+      entries.push({ fdi: site.fdi, lot: b.lot, part });
+      stored.push({ siteId: site.siteId, componentId: part.id, lot: b.lot });
+    });
+    if (Object.keys(fields).length === 0) {
+      const sites = r.sites.map((s) => ({
+        fdi: s.fdi,
+        platformId: s.platformId ?? '',
+        platformName: s.platformName ?? '',
+      }));
+      for (const f of checkScanBodies(body.method, sites, entries)) {
+        const i = f.fdi === undefined ? undefined : indexOfFdi.get(f.fdi);
+        const key =
+          i === undefined
+            ? 'scanBodies'
+            : `scanBodies.${i}.${f.code === 'scan-body-lot-missing' ? 'lot' : 'componentId'}`;
+        fields[key] ??= f.message;
+      }
+    }
+    if (Object.keys(fields).length > 0) throw fieldError(fields);
+    return stored;
+  }
+
+  private async impression(scope: Scope, id: string): Promise<Impression> {
+    const i = await repo.findImpression(this.db, scope, id);
+    if (!i) throw new NotFoundException('No such impression');
+    return toImpression(i, await repo.scanBodiesOf(this.db, [i.id]));
+  }
+}

@@ -1,0 +1,29 @@
+// Impression endpoints: the restoration's impression with its scan files, a scan file's upload
+// (lib/upload-file: progress and cancel) and its bytes for the 3D preview.
+import { ImpressionListReply, ScanFile } from '@torquetrail/contracts';
+import { useQuery } from '@tanstack/react-query';
+import { ApiError, apiRequest } from '../../../lib/api-client';
+import { uploadFile } from '../../../lib/upload-file';
+import { impressionKeys } from './keys';
+
+export const useImpressions = (restorationId: string) =>
+  useQuery({
+    queryKey: impressionKeys.ofRestoration(restorationId),
+    queryFn: ({ signal }) =>
+      apiRequest(`/api/restorations/${restorationId}/impressions`, { schema: ImpressionListReply, signal }),
+  });
+
+export const uploadScanFile = (impressionId: string, file: File, onProgress: (loaded: number) => void) =>
+  uploadFile(
+    `/api/impressions/${impressionId}/scan-files?${new URLSearchParams({ fileName: file.name }).toString()}`,
+    file,
+    ScanFile,
+    onProgress,
+  );
+
+/** The stored file's bytes, for three's loaders. */
+export async function fetchScanFile(scanFileId: string, signal?: AbortSignal): Promise<ArrayBuffer> {
+  const res = await fetch(`/api/scan-files/${scanFileId}/file`, { signal, credentials: 'same-origin' });
+  if (!res.ok) throw new ApiError(res.status, 'The scan file could not be loaded');
+  return res.arrayBuffer();
+}

@@ -1,0 +1,7 @@
+import { patientKeys } from '../../patients';
+
+// Query keys of impressions, under the patients feature's per-patient scope.
+export const impressionKeys = {
+  all: [...patientKeys.all, 'impressions'] as const,
+  ofRestoration: (restorationId: string) => [...impressionKeys.all, restorationId] as const,
+};
