@@ -5,7 +5,9 @@
 // implant_sites_practice_idx / the patient FK look-ups. See scripts/bench-recall-desk.mjs for timings.
 import { sql, type SQL } from 'drizzle-orm';
 import { DESK_DUE_SOON_DAYS, type RecallDeskCsvQuery, type RecallDeskRow } from '@torquetrail/contracts';
+import type pg from 'pg';
 import type { Db } from '../db/database.js';
+import { cursorBatches } from '../db/cursor.js';
 import type { Scope } from '../authz/scope.js';
 
 const escapeLike = (text: string) => text.replace(/[\\%_]/g, (c) => `\\${c}`);
@@ -23,6 +25,22 @@ export interface DeskPage {
   total: number;
 }
 
+interface DeskSqlRow {
+  id: string;
+  chart_number: string;
+  given_name: string;
+  family_name: string;
+  smoker: boolean;
+  diabetes_poorly_controlled: boolean;
+  periodontitis_history: boolean;
+  prior_pi: boolean;
+  next_due_on: string | null;
+  overdue_days: number;
+  last_exam_on: string | null;
+  sites: { siteId: string; fdi: number; status: string | null; examinedOn: string | null }[];
+  total: number;
+}
+
 export async function queryDesk(
   db: Db,
   scope: Scope,
@@ -30,6 +48,38 @@ export async function queryDesk(
   q: RecallDeskCsvQuery,
   page: { limit: number; offset: number },
 ): Promise<DeskPage> {
+  const result = await db.execute<DeskSqlRow & Record<string, unknown>>(deskStatement(scope, today, q, page));
+  const rows = result.rows.map(toDeskRow);
+  return { rows, total: result.rows[0]?.total ?? (page.offset > 0 ? await countOnly() : 0) };
+
+  // A page past the end has no rows to carry the window count; count separately then.
+  async function countOnly(): Promise<number> {
+    const again = await queryDesk(db, scope, today, q, { limit: 1, offset: 0 });
+    return again.total;
+  }
+}
+
+/**
+ * Every row of the desk in its order, in batches through a cursor (an export): the API holds one
+ * batch at a time. At most `limit` rows.
+ */
+export async function* streamDesk(
+  pool: pg.Pool,
+  scope: Scope,
+  today: string,
+  q: RecallDeskCsvQuery,
+  limit: number,
+): AsyncGenerator<RecallDeskRow[], void> {
+  for await (const batch of cursorBatches<DeskSqlRow>(pool, deskStatement(scope, today, q, { limit, offset: 0 }), 500))
+    yield batch.map(toDeskRow);
+}
+
+function deskStatement(
+  scope: Scope,
+  today: string,
+  q: RecallDeskCsvQuery,
+  page: { limit: number; offset: number },
+): SQL {
   const visible: SQL =
     scope.sharedPatientIds.length > 0
       ? sql`(pa.practice_id = ${scope.practiceId} or pa.id in (${sql.join(
@@ -95,21 +145,7 @@ export async function queryDesk(
           select 1 from recall_exams y
           where y.site_id = x.site_id and (y.examined_on, y.recorded_at) > (x.examined_on, x.recorded_at)
             and not exists (select 1 from recall_exams y2 where y2.supersedes_id = y.id))))`;
-  const result = await db.execute<{
-    id: string;
-    chart_number: string;
-    given_name: string;
-    family_name: string;
-    smoker: boolean;
-    diabetes_poorly_controlled: boolean;
-    periodontitis_history: boolean;
-    prior_pi: boolean;
-    next_due_on: string | null;
-    overdue_days: number;
-    last_exam_on: string | null;
-    sites: { siteId: string; fdi: number; status: string | null; examinedOn: string | null }[];
-    total: number;
-  }>(sql`
+  return sql`
     with keys as (
       select pa.id, pa.family_name, pa.given_name,
              (select min(r.due_on) from recalls r where r.patient_id = pa.id and r.status = 'scheduled') as next_due,
@@ -146,8 +182,11 @@ export async function queryDesk(
            ), '[]'::json) as sites
     from page join patients pa on pa.id = page.id
     order by ${sql.raw(`page.${SORTS[q.sort]}`)} ${dir} ${nulls}, page.family_name asc, page.given_name asc, page.id asc
-  `);
-  const rows = result.rows.map((r) => ({
+  `;
+}
+
+function toDeskRow(r: DeskSqlRow): RecallDeskRow {
+  return {
     patientId: r.id,
     chartNumber: r.chart_number,
     name: `${r.given_name} ${r.family_name}`,
@@ -166,12 +205,5 @@ export async function queryDesk(
       periodontitisHistory: r.periodontitis_history,
       priorPeriImplantitis: r.prior_pi,
     },
-  }));
-  return { rows, total: result.rows[0]?.total ?? (page.offset > 0 ? await countOnly() : 0) };
-
-  // A page past the end has no rows to carry the window count; count separately then.
-  async function countOnly(): Promise<number> {
-    const again = await queryDesk(db, scope, today, q, { limit: 1, offset: 0 });
-    return again.total;
-  }
+  };
 }
