@@ -10,7 +10,7 @@ import path from 'node:path';
 import { parseArgs } from 'node:util';
 import autocannon from 'autocannon';
 import pgModule from 'pg';
-import { repoRoot } from './lib/config.mjs';
+import { API_NODE_OPTIONS, repoRoot } from './lib/config.mjs';
 import { benchEnv, cloneDatabase, ownerUrl, prepareDemoDatabase } from './lib/bench-databases.mjs';
 import { seedLargePractice } from './lib/bench-large-seed.mjs';
 import { waitForPort } from './lib/proc.mjs';
@@ -113,8 +113,9 @@ async function startApi(database, captureFile) {
     TT_CAPTURE_SQL: captureFile,
     WEB_DIST: path.join(repoRoot, 'apps/web/dist'),
   };
+  // Started as `npm start` starts it (ADR 0007): the memory figures are the deployment's.
   const child = await startProcess(
-    ['--import', path.join(repoRoot, 'scripts/bench/capture-sql.mjs'), 'apps/api/dist/main.js'],
+    [...API_NODE_OPTIONS, '--import', path.join(repoRoot, 'scripts/bench/capture-sql.mjs'), 'apps/api/dist/main.js'],
     env,
     API_PORT,
   );

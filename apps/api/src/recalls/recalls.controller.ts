@@ -1,4 +1,4 @@
-import { Body, Controller, Get, Header, Param, ParseUUIDPipe, Post, Query, HttpStatus } from '@nestjs/common';
+import { Body, Controller, Get, Param, ParseUUIDPipe, Post, Query, HttpStatus, StreamableFile } from '@nestjs/common';
 import type { AppAbility } from '@torquetrail/authz';
 import {
   AmendExamBody,
@@ -43,14 +43,15 @@ export class RecallsController {
   @Get('desk/csv')
   @Audit('export')
   @Allow('read', 'RecallExam')
-  @Header('Content-Type', 'text/csv; charset=utf-8')
-  @Header('Content-Disposition', 'attachment; filename="recall-desk.csv"')
-  deskCsv(
+  async deskCsv(
     @CurrentUser() user: SessionUser,
     @CurrentAbility() ability: AppAbility,
     @Query(new ZodValidationPipe(RecallDeskCsvQuery)) query: RecallDeskCsvQuery,
-  ): Promise<string> {
-    return this.desk.csv(ability, scopeOf(user), query);
+  ): Promise<StreamableFile> {
+    return new StreamableFile(await this.desk.csv(ability, scopeOf(user), query), {
+      type: 'text/csv; charset=utf-8',
+      disposition: 'attachment; filename="recall-desk.csv"',
+    });
   }
 
   @Get('patients/:id/exam-context')

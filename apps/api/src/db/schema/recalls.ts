@@ -80,6 +80,8 @@ export const recallExams = pgTable(
   (t) => [
     index('recall_exams_site_idx').on(t.siteId, t.examinedOn),
     index('recall_exams_patient_idx').on(t.patientId, t.examinedOn),
+    // The desk sorted by last exam walks the practice's exams newest first and stops at the page.
+    index('recall_exams_practice_examined_idx').on(t.practiceId, t.examinedOn),
     // The desk's "peri-implantitis last time" starts from the few such exams of the practice
     // instead of every exam (recalls/desk.repository.ts).
     index('recall_exams_peri_implantitis_idx')

@@ -1,0 +1,1 @@
+CREATE INDEX "recall_exams_practice_examined_idx" ON "recall_exams" USING btree ("practice_id","examined_on");
