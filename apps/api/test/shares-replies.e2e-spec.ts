@@ -117,6 +117,8 @@ const PARAM_IDS: Record<string, string | undefined> = {
   '/catalogue/components/:id': await anyOf('components'),
   '/wrenches/:id': await anyOf('torque_wrenches'),
   '/imports/progress/:runId': NO_ROW,
+  // Another patient's scan file (Wendell's digital impression): no share opens it.
+  '/scan-files/:id': await anyOf('scan_files'),
 };
 
 const ROUTES = apiRoutes
@@ -127,6 +129,9 @@ const ROUTES = apiRoutes
     const id = PARAM_IDS[param];
     return { ...r, url: id ? r.path.replace(/:\w+/, id) : r.path, unfilled: id ? null : param };
   });
+
+/** Routes that answer with the signed-in user's own details, not the shared patient's record. */
+const OWN_DETAILS = new Set(['/auth/me', '/practice/contact']);
 
 /** What one reply may not hold; `chosen`: the share opens site 35 only, until today. */
 function findLeaks(path: string, value: unknown, chosen: boolean, into: Set<string>, key = ''): void {
@@ -145,8 +150,9 @@ function findLeaks(path: string, value: unknown, chosen: boolean, into: Set<stri
   if (!value || typeof value !== 'object') return;
   const row = value as Record<string, unknown>;
   for (const [k, v] of Object.entries(row)) {
-    // The surgeon's own account (GET /auth/me) is theirs to read.
-    if (FORBIDDEN_KEY.test(k) && path !== '/auth/me') into.add(`${path}: has ${key ? `${key}.` : ''}${k}`);
+    // The surgeon's own account and their own practice's contact are theirs to read (the sharing
+    // practice's contact details would still be caught by FORBIDDEN_WORDS).
+    if (FORBIDDEN_KEY.test(k) && !OWN_DETAILS.has(path)) into.add(`${path}: has ${key ? `${key}.` : ''}${k}`);
     // The signing clinician is named on the placement only.
     if (k === 'byName' && v !== null && row.kind !== 'placement')
       into.add(`${path}: ${JSON.stringify(row.kind)} names ${JSON.stringify(v)}`);

@@ -26,7 +26,8 @@ export const scopeOf = (user: SessionUser): Scope => ({
   siteLimits: user.role === 'surgeon' ? siteLimitsOf(user.shares) : {},
 });
 
-function siteLimitsOf(shares: SessionUser['shares']): Record<string, readonly string[]> {
+/** The chosen sites of each patient the given shares open (a share of every site lifts the limit). */
+export function siteLimitsOf(shares: SessionUser['shares']): Record<string, readonly string[]> {
   const limits = new Map<string, Set<string> | null>();
   for (const share of shares) {
     const before = limits.get(share.patientId);

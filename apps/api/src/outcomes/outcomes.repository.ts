@@ -6,13 +6,23 @@ import type { PeriImplantStatus, Retention, SiteStatus } from '@torquetrail/cont
 import type { Scope } from '../authz/scope.js';
 import type { Db } from '../db/database.js';
 
-const visible = (scope: Scope): SQL =>
-  scope.sharedPatientIds.length > 0
-    ? sql`(pa.practice_id = ${scope.practiceId} or pa.id in (${sql.join(
-        scope.sharedPatientIds.map((id) => sql`${id}::uuid`),
-        sql`, `,
-      )}))`
-    : sql`pa.practice_id = ${scope.practiceId}`;
+/**
+ * The implant sites the view counts: the practice's own, every site of a patient shared whole, and
+ * only the chosen sites of a patient shared site by site (`siteLimits`).
+ */
+function visible(scope: Scope): SQL {
+  const limits = scope.siteLimits ?? {};
+  const whole = scope.sharedPatientIds.filter((id) => !limits[id]);
+  const chosenSites = scope.sharedPatientIds.flatMap((id) => limits[id] ?? []);
+  const ids = (list: readonly string[]) =>
+    sql.join(
+      list.map((id) => sql`${id}::uuid`),
+      sql`, `,
+    );
+  return sql`(pa.practice_id = ${scope.practiceId}${whole.length > 0 ? sql` or pa.id in (${ids(whole)})` : sql``}${
+    chosenSites.length > 0 ? sql` or s.id in (${ids(chosenSites)})` : sql``
+  })`;
+}
 
 export interface ImplantRow {
   siteId: string;

@@ -39,6 +39,15 @@ export async function activeShares(db: Db, patientId: string) {
     .orderBy(users.displayName);
 }
 
+/** The chosen sites a share opens: null when it opens every site of the patient. */
+export async function shareSiteIds(db: Db, shareId: string): Promise<string[] | null> {
+  const [row] = await db
+    .select({ siteIds: patientShares.siteIds })
+    .from(patientShares)
+    .where(eq(patientShares.id, shareId));
+  return row?.siteIds ?? null;
+}
+
 export async function practiceName(db: Db, practiceId: string): Promise<string> {
   const [row] = await db.select({ name: practices.name }).from(practices).where(eq(practices.id, practiceId));
   return row?.name ?? '';
@@ -187,6 +196,7 @@ export async function lockMail(tx: Tx, id: string) {
       id: referralSummaryMails.id,
       status: referralSummaryMails.status,
       sentTo: referralSummaryMails.sentTo,
+      shareId: referralSummaryMails.shareId,
       patientId: referralSummaryMails.patientId,
       practiceId: referralSummaryMails.practiceId,
     })

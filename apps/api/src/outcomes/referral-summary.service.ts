@@ -10,7 +10,7 @@ import type { AppAbility } from '@torquetrail/authz';
 import type { ReferralSummaryMail, ReferralSummaryMailBody, ReferralSummaryState } from '@torquetrail/contracts';
 import { isRetrievable, type Retention } from '@torquetrail/domain';
 import type { SessionUser } from '../auth/session-user.js';
-import { assertCan, type Scope } from '../authz/scope.js';
+import { assertCan, type Scope, sharedSitesOf } from '../authz/scope.js';
 import { reportChange } from '../common/audit-context.js';
 import { fieldError } from '../common/field-error.js';
 import { ENV, type Env } from '../config/env.js';
@@ -96,7 +96,9 @@ export class ReferralSummaryService {
 
   async download(ability: AppAbility, scope: Scope, patientId: string): Promise<{ pdf: Buffer; filename: string }> {
     const patient = await this.patient(ability, scope, patientId, 'read');
-    return { pdf: await this.render(patient), filename: filename(patient.chartNumber) };
+    // A share of chosen sites (with the outcomes scope) draws those sites only.
+    const sites = sharedSitesOf(scope, patient.id);
+    return { pdf: await this.render(patient, sites), filename: filename(patient.chartNumber) };
   }
 
   /** Records the request (or finds the one it repeats) and queues its send after the commit. */
@@ -152,7 +154,8 @@ export class ReferralSummaryService {
         );
         if (!patient) throw new Error('the patient is no longer in the practice');
         const practice = await repo.practiceName(tx, row.practiceId);
-        const pdf = await this.render(patient);
+        // The surgeon receives the sites their share opens, no other.
+        const pdf = await this.render(patient, await repo.shareSiteIds(tx, row.shareId));
         const messageId = await this.mail.send({
           to: row.sentTo,
           subject: `Referral summary ${patient.chartNumber} from ${practice}`,
@@ -178,8 +181,11 @@ export class ReferralSummaryService {
     return assertCan(ability, action, 'ReferralSummary', await repo.findVisiblePatient(this.db, scope, id), 'patient');
   }
 
-  private async render(patient: Patient): Promise<Buffer> {
-    const sites = await repo.summarySites(this.db, patient.id);
+  /** The PDF of the patient's implants, or of the chosen ones only (`onlySites`, a share's sites). */
+  private async render(patient: Patient, onlySites: readonly string[] | null): Promise<Buffer> {
+    const sites = (await repo.summarySites(this.db, patient.id)).filter(
+      (s) => onlySites === null || onlySites.includes(s.siteId),
+    );
     const ids = sites.map((s) => s.siteId);
     const [parts, bone, practice] = await Promise.all([
       repo.partsInPlace(this.db, ids),

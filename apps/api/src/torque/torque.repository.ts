@@ -138,6 +138,10 @@ export async function findVisibleRestoration(db: Db, scope: Scope, id: string) {
       patientId: restorations.patientId,
       status: restorations.status,
       deliveredOn: restorations.deliveredOn,
+      // The sites it spans: a share of one of them opens it (assertCan).
+      siteIds: sql<
+        string[]
+      >`array(select rs.site_id from restoration_sites rs where rs.restoration_id = ${restorations.id})`,
     })
     .from(restorations)
     .innerJoin(patients, eq(patients.id, restorations.patientId))
