@@ -134,7 +134,9 @@ function BoneLevelBody({ data }: { data: SiteBoneLevels }) {
       <ul className="bone-level-summary">
         <li data-testid="bone-level-latest">
           Latest ({latest.takenOn ? formatDate(latest.takenOn) : 'date not known'}): mesial {mm(latest.mesialMm)},
-          distal {mm(latest.distalMm)} · measured by {latest.measuredBy}
+          distal {mm(latest.distalMm)}
+          {/* A share's reply names no staff: no "measured by" without a name. */}
+          {latest.measuredBy && ` · measured by ${latest.measuredBy}`}
           {latest.amended && ' (amended)'}
         </li>
         <AlbrektssonLine data={data} />
@@ -169,7 +171,7 @@ function BoneLevelBody({ data }: { data: SiteBoneLevels }) {
                 <td>{mm(i.distalMm)}</td>
                 <td>{i.implantTrueMm} mm</td>
                 <td>
-                  {i.measuredBy}
+                  {i.measuredBy ?? '—'}
                   {i.amended && ' (amended)'}
                 </td>
               </tr>

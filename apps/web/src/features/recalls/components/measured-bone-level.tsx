@@ -25,7 +25,7 @@ export function MeasuredBoneLevel({
 }) {
   if (!offer) return null;
   const taken = offer.takenOn ? formatDate(offer.takenOn) : 'unknown date';
-  const source = `radiograph of ${taken}, measured by ${offer.measuredBy}`;
+  const source = `radiograph of ${taken}${offer.measuredBy ? `, measured by ${offer.measuredBy}` : ''}`;
   return (
     <Callout compact icon="media" className="measured-bone-level" data-testid={`measured-bone-${fdi}`}>
       Measured bone level <strong>{offer.boneLevelMm} mm</strong> (mesial {offer.mesialMm.toFixed(2)} mm, distal{' '}
