@@ -30,6 +30,7 @@ const KEPT_FIELDS_CASES: Record<string, string> = {
   'POST /recalls/exams/:id/amend': 'this file: an exam amendment',
   'POST /seating-checks/:id/amendments': 'seating-checks.e2e-spec.ts: the note the amendment leaves out',
   'POST /radiograph-measurements/:id/amendments': "radiographs.e2e-spec.ts: the implant's true length is kept",
+  'POST /impressions/:id/amendments': 'impressions.e2e-spec.ts: the scan bodies stay through a date-only amendment',
 };
 
 describe('the walk of every amendment route', () => {
