@@ -1,6 +1,7 @@
 import { Global, Inject, Logger, Module, type OnApplicationShutdown } from '@nestjs/common';
 import type pg from 'pg';
 import { ENV, type Env } from '../config/env.js';
+import { withDeadline } from '../common/with-deadline.js';
 import { createDatabase, createPool, DB, PG_POOL } from './database.js';
 
 @Global()
@@ -19,9 +20,17 @@ import { createDatabase, createPool, DB, PG_POOL } from './database.js';
   exports: [DB, PG_POOL],
 })
 export class DatabaseModule implements OnApplicationShutdown {
+  private readonly logger = new Logger('Database');
+
   constructor(@Inject(PG_POOL) private readonly pool: pg.Pool) {}
 
+  /** Bounded: a connection still checked out on a socket an outage broke would hold `end` for ever. */
   async onApplicationShutdown(): Promise<void> {
-    await this.pool.end();
+    if ((await withDeadline(this.pool.end(), POOL_END_DEADLINE_MS)) === 'timed-out')
+      this.logger.warn(
+        `connection pool not closed within ${POOL_END_DEADLINE_MS / 1000} s (${this.pool.totalCount - this.pool.idleCount} in use); closing anyway`,
+      );
   }
 }
+
+const POOL_END_DEADLINE_MS = 10_000;

@@ -6,6 +6,7 @@
 import { Inject, Injectable, Logger, type OnApplicationBootstrap, type OnApplicationShutdown } from '@nestjs/common';
 import { PgBoss, type Job, type JobResult } from 'pg-boss';
 import { ENV, type Env } from '../config/env.js';
+import { withDeadline } from '../common/with-deadline.js';
 
 export interface QueueSpec<T extends object> {
   name: string;
@@ -31,6 +32,8 @@ const FIRST_RETRY_MS = 500;
  */
 const JOBS_PER_FETCH = 2;
 const LONGEST_RETRY_MS = 15_000;
+/** Longest wait for the queue to stop at shutdown: its 5 s grace for running jobs, and some. */
+const STOP_DEADLINE_MS = 10_000;
 
 @Injectable()
 export class JobsService implements OnApplicationBootstrap, OnApplicationShutdown {
@@ -155,6 +158,13 @@ export class JobsService implements OnApplicationBootstrap, OnApplicationShutdow
   async onApplicationShutdown(): Promise<void> {
     this.stopping = true;
     this.wake?.();
+    // Bounded: after a database outage a worker's claim can wait on a connection that never
+    // answers, and pg-boss's stop then waits for it past its own grace period.
+    if ((await withDeadline(this.stopQueue(), STOP_DEADLINE_MS)) === 'timed-out')
+      this.logger.warn(`job queue not stopped within ${STOP_DEADLINE_MS / 1000} s; closing anyway`);
+  }
+
+  private async stopQueue(): Promise<void> {
     await this.starting;
     const boss = this.boss;
     this.boss = null;

@@ -1,5 +1,6 @@
 // Shared set-up for the API tests: the real app on the real (test) PostgreSQL, reset to the
 // freshly seeded demo scenario, driven over real HTTP with Supertest.
+import { withDeadline } from '../../src/common/with-deadline.js';
 import type { INestApplication } from '@nestjs/common';
 import { and, eq } from 'drizzle-orm';
 import pg from 'pg';
@@ -82,7 +83,9 @@ export async function startTestApp(overrides: Partial<Env> = {}): Promise<TestCo
     db,
     close: async () => {
       await app.close();
-      await pool.end();
+      // Bounded like the app's own pool (DatabaseModule): a test that stopped PostgreSQL may leave
+      // a client on a broken socket.
+      await withDeadline(pool.end(), 10_000);
     },
   };
 }
