@@ -7,61 +7,41 @@ import { Inject, Injectable } from '@nestjs/common';
 import { ENV, type Env } from '../config/env.js';
 import { DB, type Database } from '../db/database.js';
 import { JobsService } from '../jobs/jobs.service.js';
+import { type MailOutcome, type MailQueue, registerMailQueue } from '../mail/mail-queue.js';
 import { MailService } from '../mail/mail.service.js';
 import { StorageService } from '../storage/storage.service.js';
 import * as repo from './records-out.repository.js';
 import { passportFilename } from './pdf-names.js';
 
-const SEND_QUEUE = 'passport-mail-send';
-const SWEEP_QUEUE = 'passport-mail-sweep';
-
-interface SendJob {
-  mailId: string;
-}
-
-export type PassportMailOutcome = 'sent' | 'already-sent' | 'gone' | 'failed';
-
 @Injectable()
 export class PassportMailService {
+  private readonly mailQueue: MailQueue;
+
   constructor(
     @Inject(ENV) env: Env,
     @Inject(DB) private readonly db: Database,
-    private readonly jobs: JobsService,
+    jobs: JobsService,
     private readonly mail: MailService,
     private readonly storage: StorageService,
   ) {
-    jobs.register<SendJob>({
-      name: SEND_QUEUE,
-      policy: 'exclusive',
-      retryLimit: env.REMINDER_RETRY_LIMIT,
-      retryDelay: env.REMINDER_RETRY_DELAY_S,
-      pollingIntervalSeconds: 1,
-      handle: async ({ mailId }, { finalAttempt }) => {
-        if ((await this.deliver(mailId, finalAttempt)) === 'failed')
-          throw new Error(`passport mail ${mailId} not sent; will retry`);
-      },
-    });
-    jobs.register<object>({
-      name: SWEEP_QUEUE,
-      policy: 'standard',
-      retryLimit: 0,
-      retryDelay: 60,
-      cron: '* * * * *',
-      handle: () => this.sweep(),
+    this.mailQueue = registerMailQueue(jobs, env, {
+      name: 'passport-mail',
+      pending: () => repo.listPendingPassportMails(this.db),
+      deliver: (id, finalAttempt) => this.deliver(id, finalAttempt),
     });
   }
 
   /** Queues the send of a recorded request. */
-  async queue(mailId: string): Promise<void> {
-    await this.jobs.send(SEND_QUEUE, { mailId } satisfies SendJob, mailId);
+  queue(mailId: string): Promise<void> {
+    return this.mailQueue.queue(mailId);
   }
 
-  async sweep(): Promise<void> {
-    for (const { id } of await repo.listPendingPassportMails(this.db)) await this.queue(id);
+  sweep(): Promise<void> {
+    return this.mailQueue.sweep();
   }
 
   /** Sends one request at most once: locked for the send, marked sent only after SMTP accepted it. */
-  async deliver(mailId: string, finalAttempt = false): Promise<PassportMailOutcome> {
+  async deliver(mailId: string, finalAttempt = false): Promise<MailOutcome> {
     return this.db.transaction(async (tx) => {
       const row = await repo.lockPassportMail(tx, mailId);
       if (!row) return 'gone';
