@@ -120,7 +120,7 @@ describe('restorative dentist', () => {
 
     // The delivery flow ends on the seating form: every screw with its spec, one wrench and time.
     const seat = card.getByTestId('seat-form');
-    await expect.poll(() => seat.getByTestId('seat-screw').count()).toBe(2);
+    await expect.poll(() => seat.getByTestId('seat-screw').count(), { timeout: 15_000 }).toBe(2);
     expect(await seat.textContent()).toMatch(
       /manufacturer's instructions, the clinician's judgement and local regulations rule/,
     );
