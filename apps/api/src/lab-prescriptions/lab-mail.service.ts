@@ -8,44 +8,66 @@ import { Inject, Injectable } from '@nestjs/common';
 import { ENV, type Env } from '../config/env.js';
 import { DB, type Database } from '../db/database.js';
 import { JobsService } from '../jobs/jobs.service.js';
-import { type MailOutcome, type MailQueue, registerMailQueue } from '../mail/mail-queue.js';
 import { MailService } from '../mail/mail.service.js';
 import { StorageService } from '../storage/storage.service.js';
 import * as repo from './lab-prescriptions.repository.js';
 import { pdfFilename } from './pdf-filename.js';
 
+const SEND_QUEUE = 'lab-prescription-mail-send';
+const SWEEP_QUEUE = 'lab-prescription-mail-sweep';
+
+interface SendJob {
+  mailId: string;
+}
+
+export type LabMailOutcome = 'sent' | 'already-sent' | 'gone' | 'failed';
+
 @Injectable()
 export class LabMailService {
-  private readonly mailQueue: MailQueue;
-
   constructor(
     @Inject(ENV) env: Env,
     @Inject(DB) private readonly db: Database,
-    jobs: JobsService,
+    private readonly jobs: JobsService,
     private readonly mail: MailService,
     private readonly storage: StorageService,
   ) {
-    this.mailQueue = registerMailQueue(jobs, env, {
-      name: 'lab-prescription-mail',
-      pending: () => repo.listPendingMails(this.db),
-      deliver: (id, finalAttempt) => this.deliver(id, finalAttempt),
+    // The same retry settings as reminders: every mail waits for SMTP the same way.
+    jobs.register<SendJob>({
+      name: SEND_QUEUE,
+      policy: 'exclusive',
+      retryLimit: env.REMINDER_RETRY_LIMIT,
+      retryDelay: env.REMINDER_RETRY_DELAY_S,
+      pollingIntervalSeconds: 1,
+      handle: async ({ mailId }, { finalAttempt }) => {
+        if ((await this.deliver(mailId, finalAttempt)) === 'failed')
+          throw new Error(`lab mail ${mailId} not sent; will retry`);
+      },
+    });
+    jobs.register<object>({
+      name: SWEEP_QUEUE,
+      policy: 'standard',
+      retryLimit: 0,
+      retryDelay: 60,
+      cron: '* * * * *',
+      handle: () => this.sweep(),
     });
   }
 
   /** Records a request (or finds the one already waiting) and queues its send. */
   async request(v: { practiceId: string; labPrescriptionId: string; sentTo: string; requestedBy: string }) {
     const mailId = await repo.requestMail(this.db, v);
-    await this.mailQueue.queue(mailId);
+    await this.jobs.send(SEND_QUEUE, { mailId } satisfies SendJob, mailId);
     return mailId;
   }
 
   /** Queues a send job for every pending request (the singleton key skips those already queued). */
-  sweep(): Promise<void> {
-    return this.mailQueue.sweep();
+  async sweep(): Promise<void> {
+    for (const { id } of await repo.listPendingMails(this.db))
+      await this.jobs.send(SEND_QUEUE, { mailId: id } satisfies SendJob, id);
   }
 
   /** Sends one request at most once: locked for the send, marked sent only after SMTP accepted it. */
-  async deliver(mailId: string, finalAttempt = false): Promise<MailOutcome> {
+  async deliver(mailId: string, finalAttempt = false): Promise<LabMailOutcome> {
     return this.db.transaction(async (tx) => {
       const row = await repo.lockMail(tx, mailId);
       if (!row) return 'gone';

@@ -18,14 +18,22 @@ import { findPracticeContact } from '../db/practice-contact.js';
 import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database } from '../db/database.js';
 import { JobsService } from '../jobs/jobs.service.js';
-import { type MailOutcome, type MailQueue, registerMailQueue } from '../mail/mail-queue.js';
 import { MailService } from '../mail/mail.service.js';
 import { boneChangeSinceLoading } from './bone-change.js';
 import { boneLevelsOfSites } from './outcomes.repository.js';
 import * as repo from './referral-summary.repository.js';
 import { renderReferralSummary, type SummaryPdfSite } from './referral-summary.pdf.js';
 
+const SEND_QUEUE = 'referral-summary-mail-send';
+const SWEEP_QUEUE = 'referral-summary-mail-sweep';
+
+interface SendJob {
+  mailId: string;
+}
+
 type Patient = NonNullable<Awaited<ReturnType<typeof repo.findVisiblePatient>>>;
+export type ReferralMailOutcome = 'sent' | 'already-sent' | 'gone' | 'failed';
+
 const words = (value: string) => value.replace(/-/g, ' ');
 const STATUS_WORDS: Record<string, string> = {
   placed: 'in function',
@@ -45,18 +53,31 @@ const toMail = (m: Awaited<ReturnType<typeof repo.mailsOfPatient>>[number]): Ref
 
 @Injectable()
 export class ReferralSummaryService {
-  private readonly mailQueue: MailQueue;
-
   constructor(
     @Inject(ENV) env: Env,
     @Inject(DB) private readonly db: Database,
-    jobs: JobsService,
+    private readonly jobs: JobsService,
     private readonly mail: MailService,
   ) {
-    this.mailQueue = registerMailQueue(jobs, env, {
-      name: 'referral-summary-mail',
-      pending: () => repo.listPendingMails(this.db),
-      deliver: (id, finalAttempt) => this.deliver(id, finalAttempt),
+    // The same retry settings as reminders and lab mails: every mail waits for SMTP the same way.
+    jobs.register<SendJob>({
+      name: SEND_QUEUE,
+      policy: 'exclusive',
+      retryLimit: env.REMINDER_RETRY_LIMIT,
+      retryDelay: env.REMINDER_RETRY_DELAY_S,
+      pollingIntervalSeconds: 1,
+      handle: async ({ mailId }, { finalAttempt }) => {
+        if ((await this.deliver(mailId, finalAttempt)) === 'failed')
+          throw new Error(`referral summary mail ${mailId} not sent; will retry`);
+      },
+    });
+    jobs.register<object>({
+      name: SWEEP_QUEUE,
+      policy: 'standard',
+      retryLimit: 0,
+      retryDelay: 60,
+      cron: '* * * * *',
+      handle: () => this.sweep(),
     });
   }
 
@@ -109,17 +130,18 @@ export class ReferralSummaryService {
       });
       return made;
     });
-    await this.mailQueue.queue(mail.id);
+    await this.jobs.send(SEND_QUEUE, { mailId: mail.id } satisfies SendJob, mail.id);
     return toMail(mail);
   }
 
   /** Queues a send job for every pending request (the singleton key skips those already queued). */
-  sweep(): Promise<void> {
-    return this.mailQueue.sweep();
+  async sweep(): Promise<void> {
+    for (const { id } of await repo.listPendingMails(this.db))
+      await this.jobs.send(SEND_QUEUE, { mailId: id } satisfies SendJob, id);
   }
 
   /** Sends one request at most once: locked for the send, marked sent only after SMTP accepted it. */
-  async deliver(mailId: string, finalAttempt = false): Promise<MailOutcome> {
+  async deliver(mailId: string, finalAttempt = false): Promise<ReferralMailOutcome> {
     return this.db.transaction(async (tx) => {
       const row = await repo.lockMail(tx, mailId);
       if (!row) return 'gone';

@@ -7,41 +7,61 @@ import { Inject, Injectable } from '@nestjs/common';
 import { ENV, type Env } from '../config/env.js';
 import { DB, type Database } from '../db/database.js';
 import { JobsService } from '../jobs/jobs.service.js';
-import { type MailOutcome, type MailQueue, registerMailQueue } from '../mail/mail-queue.js';
 import { MailService } from '../mail/mail.service.js';
 import { StorageService } from '../storage/storage.service.js';
 import * as repo from './records-out.repository.js';
 import { passportFilename } from './pdf-names.js';
 
+const SEND_QUEUE = 'passport-mail-send';
+const SWEEP_QUEUE = 'passport-mail-sweep';
+
+interface SendJob {
+  mailId: string;
+}
+
+export type PassportMailOutcome = 'sent' | 'already-sent' | 'gone' | 'failed';
+
 @Injectable()
 export class PassportMailService {
-  private readonly mailQueue: MailQueue;
-
   constructor(
     @Inject(ENV) env: Env,
     @Inject(DB) private readonly db: Database,
-    jobs: JobsService,
+    private readonly jobs: JobsService,
     private readonly mail: MailService,
     private readonly storage: StorageService,
   ) {
-    this.mailQueue = registerMailQueue(jobs, env, {
-      name: 'passport-mail',
-      pending: () => repo.listPendingPassportMails(this.db),
-      deliver: (id, finalAttempt) => this.deliver(id, finalAttempt),
+    jobs.register<SendJob>({
+      name: SEND_QUEUE,
+      policy: 'exclusive',
+      retryLimit: env.REMINDER_RETRY_LIMIT,
+      retryDelay: env.REMINDER_RETRY_DELAY_S,
+      pollingIntervalSeconds: 1,
+      handle: async ({ mailId }, { finalAttempt }) => {
+        if ((await this.deliver(mailId, finalAttempt)) === 'failed')
+          throw new Error(`passport mail ${mailId} not sent; will retry`);
+      },
+    });
+    jobs.register<object>({
+      name: SWEEP_QUEUE,
+      policy: 'standard',
+      retryLimit: 0,
+      retryDelay: 60,
+      cron: '* * * * *',
+      handle: () => this.sweep(),
     });
   }
 
   /** Queues the send of a recorded request. */
-  queue(mailId: string): Promise<void> {
-    return this.mailQueue.queue(mailId);
+  async queue(mailId: string): Promise<void> {
+    await this.jobs.send(SEND_QUEUE, { mailId } satisfies SendJob, mailId);
   }
 
-  sweep(): Promise<void> {
-    return this.mailQueue.sweep();
+  async sweep(): Promise<void> {
+    for (const { id } of await repo.listPendingPassportMails(this.db)) await this.queue(id);
   }
 
   /** Sends one request at most once: locked for the send, marked sent only after SMTP accepted it. */
-  async deliver(mailId: string, finalAttempt = false): Promise<MailOutcome> {
+  async deliver(mailId: string, finalAttempt = false): Promise<PassportMailOutcome> {
     return this.db.transaction(async (tx) => {
       const row = await repo.lockPassportMail(tx, mailId);
       if (!row) return 'gone';

@@ -7,9 +7,17 @@ import { Inject, Injectable } from '@nestjs/common';
 import { ENV, type Env } from '../config/env.js';
 import { DB, type Database } from '../db/database.js';
 import { JobsService } from '../jobs/jobs.service.js';
-import { type MailOutcome, type MailQueue, registerMailQueue } from '../mail/mail-queue.js';
 import { MailService } from '../mail/mail.service.js';
 import * as repo from './shares.repository.js';
+
+const SEND_QUEUE = 'share-notice-send';
+const SWEEP_QUEUE = 'share-notice-sweep';
+
+interface SendJob {
+  noticeId: string;
+}
+
+export type ShareNoticeOutcome = 'sent' | 'already-sent' | 'gone' | 'failed';
 
 const SCOPE_WORDS = {
   placement: 'record and amend the placement',
@@ -18,31 +26,43 @@ const SCOPE_WORDS = {
 
 @Injectable()
 export class ShareMailService {
-  private readonly mailQueue: MailQueue;
-
   constructor(
     @Inject(ENV) env: Env,
     @Inject(DB) private readonly db: Database,
-    jobs: JobsService,
+    private readonly jobs: JobsService,
     private readonly mail: MailService,
   ) {
-    this.mailQueue = registerMailQueue(jobs, env, {
-      name: 'share-notice',
-      pending: () => repo.listPendingNotices(this.db),
-      deliver: (id, finalAttempt) => this.deliver(id, finalAttempt),
+    jobs.register<SendJob>({
+      name: SEND_QUEUE,
+      policy: 'exclusive',
+      retryLimit: env.REMINDER_RETRY_LIMIT,
+      retryDelay: env.REMINDER_RETRY_DELAY_S,
+      pollingIntervalSeconds: 1,
+      handle: async ({ noticeId }, { finalAttempt }) => {
+        if ((await this.deliver(noticeId, finalAttempt)) === 'failed')
+          throw new Error(`share notice ${noticeId} not sent; will retry`);
+      },
+    });
+    jobs.register<object>({
+      name: SWEEP_QUEUE,
+      policy: 'standard',
+      retryLimit: 0,
+      retryDelay: 60,
+      cron: '* * * * *',
+      handle: () => this.sweep(),
     });
   }
 
-  queue(noticeId: string): Promise<void> {
-    return this.mailQueue.queue(noticeId);
+  async queue(noticeId: string): Promise<void> {
+    await this.jobs.send(SEND_QUEUE, { noticeId } satisfies SendJob, noticeId);
   }
 
-  sweep(): Promise<void> {
-    return this.mailQueue.sweep();
+  async sweep(): Promise<void> {
+    for (const { id } of await repo.listPendingNotices(this.db)) await this.queue(id);
   }
 
   /** Sends one notice at most once: locked for the send, marked sent only after SMTP accepted it. */
-  deliver(noticeId: string, finalAttempt = false): Promise<MailOutcome> {
+  deliver(noticeId: string, finalAttempt = false): Promise<ShareNoticeOutcome> {
     return this.db.transaction(async (tx) => {
       const row = await repo.lockNotice(tx, noticeId);
       if (!row) return 'gone';
