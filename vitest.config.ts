@@ -54,9 +54,10 @@ export default defineConfig({
           fileParallelism: false,
           testTimeout: 60_000,
           hookTimeout: 60_000,
-          // One retry for a real browser on a loaded 2-core machine: the planner's amendment save
-          // once waited 30 s for its navigation in a full run and passed alone and in every rerun
-          // (open in the issue-15 work). The unit and API tiers never retry.
+          // One retry for a real browser on a loaded 2-core machine. The planner's lost follow-ups
+          // (a save's callback dropped when its refetch unmounted the form) were a bug, fixed by
+          // lib/run-mutation.ts, not load; a test that writes resets the seed so a retry starts clean.
+          // The unit and API tiers never retry.
           retry: 1,
         },
       },

@@ -6,6 +6,7 @@ import { FormProvider } from 'react-hook-form';
 import { applyServerErrors, draftSchema, FormField, formErrorMessage, useContractForm } from '../../../lib/forms';
 import type { ToothSystem } from '../../../lib/tooth-system';
 import { useAddSite } from '../api/add-site';
+import { runMutation } from '../../../lib/run-mutation';
 
 // No position chosen is no number: the contract answers "Choose a tooth position".
 const schema = draftSchema(AddSiteBody, (d: { fdi: string }) => ({ fdi: d.fdi ? Number(d.fdi) : Number.NaN }));
@@ -27,7 +28,7 @@ export function AddSiteControl({
   const add = useAddSite(patientId);
 
   const submit = (body: AddSiteBody) =>
-    add.mutate(body, {
+    runMutation(add, body, {
       onSuccess: (site) => {
         setAdded(`Planned site ${formatTooth(site.fdi, system)} added`);
         form.setValue('fdi', '');

@@ -11,6 +11,7 @@ import {
   withInputRef,
 } from '../../../lib/forms';
 import { useSignIn } from '../api/sign-in';
+import { runMutation } from '../../../lib/run-mutation';
 
 interface SignInDraft {
   email: string;
@@ -28,7 +29,7 @@ export function SignInForm() {
   const signIn = useSignIn();
 
   const submit = (body: SignInBody) =>
-    signIn.mutate(body, {
+    runMutation(signIn, body, {
       onError: (error) =>
         applyServerErrors(
           form.setError,

@@ -8,6 +8,7 @@ import { applyServerErrors, FormField, formErrorMessage, useContractForm, withIn
 import { useChangePassword } from '../api/account-api';
 import { useMe } from '../api/get-me';
 import { PASSWORD_HELP } from '../components/public-page';
+import { runMutation } from '../../../lib/run-mutation';
 
 /** /account: one's own password (everyone). */
 export function AccountRoute() {
@@ -31,7 +32,7 @@ function ChangePasswordForm({ email }: { email: string }) {
   const form = useContractForm(schema, { currentPassword: '', newPassword: '' }, { keepDraft: false });
   const change = useChangePassword();
   const submit = (body: ChangePasswordBody) =>
-    change.mutate(body, {
+    runMutation(change, body, {
       onSuccess: () => form.reset({ currentPassword: '', newPassword: '' }),
       onError: (error) =>
         applyServerErrors(

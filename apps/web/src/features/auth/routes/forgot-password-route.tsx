@@ -13,6 +13,7 @@ import {
 } from '../../../lib/forms';
 import { useRequestReset } from '../api/account-api';
 import { PublicPage } from '../components/public-page';
+import { runMutation } from '../../../lib/run-mutation';
 
 const schema = draftSchema(PasswordResetRequestBody, (draft: { email: string }) => ({ email: draft.email.trim() }));
 
@@ -21,7 +22,7 @@ export function ForgotPasswordRoute() {
   const form = useContractForm(schema, { email: '' }, { keepDraft: false });
   const request = useRequestReset();
   const submit = (body: PasswordResetRequestBody) =>
-    request.mutate(body, {
+    runMutation(request, body, {
       onError: (error) =>
         applyServerErrors(
           form.setError,

@@ -8,6 +8,7 @@ import { applyServerErrors, FormField, formErrorMessage, useContractForm, withIn
 import { useCompleteReset, useResetPreview } from '../api/account-api';
 import { useLinkToken } from '../components/link-token';
 import { PASSWORD_HELP, PublicPage } from '../components/public-page';
+import { runMutation } from '../../../lib/run-mutation';
 
 /** /reset-password#token=…: a new password from a mailed link; every session of the account ends. */
 export function ResetPasswordRoute() {
@@ -37,7 +38,7 @@ function ResetForm({ token, email }: { token: string; email: string }) {
   const form = useContractForm(schema, { token, password: '' }, { keepDraft: false });
   const complete = useCompleteReset();
   const submit = (body: CompletePasswordResetBody) =>
-    complete.mutate(body, { onError: (error) => applyServerErrors(form.setError, error) });
+    runMutation(complete, body, { onError: (error) => applyServerErrors(form.setError, error) });
   const message = formErrorMessage(form.formState.errors, 'alone');
   if (complete.isSuccess)
     return (

@@ -9,6 +9,7 @@ import { ROLE_LABEL } from '../../../lib/labels';
 import { useAcceptInvitation, useInvitationPreview } from '../api/account-api';
 import { useLinkToken } from '../components/link-token';
 import { PASSWORD_HELP, PublicPage } from '../components/public-page';
+import { runMutation } from '../../../lib/run-mutation';
 
 /** /welcome#token=…: the invitee chooses the name colleagues see and a password. */
 export function WelcomeRoute() {
@@ -51,7 +52,7 @@ function AcceptForm({ token, invitation }: { token: string; invitation: Invitati
   );
   const accept = useAcceptInvitation();
   const submit = (body: AcceptInvitationBody) =>
-    accept.mutate(body, { onError: (error) => applyServerErrors(form.setError, error) });
+    runMutation(accept, body, { onError: (error) => applyServerErrors(form.setError, error) });
   const message = formErrorMessage(form.formState.errors, 'alone');
 
   if (accept.isSuccess)

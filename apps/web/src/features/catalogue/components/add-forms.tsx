@@ -39,6 +39,7 @@ import {
 import { useSaveWrench } from '../../torque';
 import { useAddPlatform, useAddSystem, useSaveComponent } from '../api/catalogue-api';
 import { useCloseOnEscape } from '../../../lib/use-close-on-escape';
+import { runMutation } from '../../../lib/run-mutation';
 
 function Toggle({ label, children }: { label: string; children: (close: () => void) => ReactNode }) {
   const [open, setOpen] = useState(false);
@@ -105,7 +106,8 @@ export function AddComponentForm({ platformId }: { platformId: string }) {
             aria-label="Add part"
             onSubmit={(event) =>
               void form.handleSubmit((body) =>
-                save.mutate(
+                runMutation(
+                  save,
                   { body },
                   { onSuccess: close, onError: (error) => applyServerErrors(form.setError, error) },
                 ),
@@ -231,7 +233,10 @@ export function AddPlatformForm({ systemId }: { systemId: string }) {
             aria-label="Add platform"
             onSubmit={(event) =>
               void form.handleSubmit((body) =>
-                add.mutate(body, { onSuccess: close, onError: (error) => applyServerErrors(form.setError, error) }),
+                runMutation(add, body, {
+                  onSuccess: close,
+                  onError: (error) => applyServerErrors(form.setError, error),
+                }),
               )(event)
             }
           >
@@ -279,7 +284,10 @@ export function AddSystemForm() {
             aria-label="Add implant system"
             onSubmit={(event) =>
               void form.handleSubmit((body) =>
-                add.mutate(body, { onSuccess: close, onError: (error) => applyServerErrors(form.setError, error) }),
+                runMutation(add, body, {
+                  onSuccess: close,
+                  onError: (error) => applyServerErrors(form.setError, error),
+                }),
               )(event)
             }
           >
@@ -322,7 +330,8 @@ export function AddWrenchForm() {
             aria-label="Add wrench"
             onSubmit={(event) =>
               void form.handleSubmit((body) =>
-                save.mutate(
+                runMutation(
+                  save,
                   { body },
                   { onSuccess: close, onError: (error) => applyServerErrors(form.setError, error) },
                 ),

@@ -9,6 +9,7 @@ import { applyServerErrors, draftSchema, errorAt, FieldError, NumberInput, useCo
 import { useComponentVersions, useSaveComponent } from '../api/catalogue-api';
 import { formatDateTime } from '../../../lib/dates';
 import { useCloseOnEscape } from '../../../lib/use-close-on-escape';
+import { runMutation } from '../../../lib/run-mutation';
 
 interface SpecDraft {
   torqueSpecNcm: number | null;
@@ -33,7 +34,8 @@ export function ComponentRow({ part }: { part: CatalogueComponent }) {
   const form = useContractForm(schema, { torqueSpecNcm: part.torqueSpecNcm, tolerancePct: part.tolerancePct });
   const save = useSaveComponent();
   const submit = form.handleSubmit((body) =>
-    save.mutate(
+    runMutation(
+      save,
       { id: part.id, body },
       { onSuccess: () => setEditing(false), onError: (error) => applyServerErrors(form.setError, error) },
     ),

@@ -4,6 +4,7 @@ import { FormProvider } from 'react-hook-form';
 import { Can } from '../../../lib/ability';
 import { applyServerErrors, FormField, formErrorMessage, useContractForm, withInputRef } from '../../../lib/forms';
 import { useEnterSystemGtin } from '../api/catalogue-api';
+import { runMutation } from '../../../lib/run-mutation';
 
 /**
  * The GTINs the catalogue gives a system: learned from placements' UDIs or entered here. A
@@ -30,7 +31,8 @@ function EnterGtinForm({ systemId, systemName }: { systemId: string; systemName:
   const enter = useEnterSystemGtin();
   const form = useContractForm(SystemGtinForm, { gtin: '' }, { keepDraft: false });
   const submit = ({ gtin }: SystemGtinForm) =>
-    enter.mutate(
+    runMutation(
+      enter,
       { id: systemId, gtin },
       { onSuccess: () => form.reset({ gtin: '' }), onError: (error) => applyServerErrors(form.setError, error) },
     );

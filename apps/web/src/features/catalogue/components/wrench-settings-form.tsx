@@ -4,6 +4,7 @@ import { CALIBRATION_INTERVAL_RANGE } from '@torquetrail/domain';
 import { FormProvider } from 'react-hook-form';
 import { applyServerErrors, FormField, formErrorMessage, NumberInput, useContractForm } from '../../../lib/forms';
 import { useSaveWrenchSettings } from '../../torque';
+import { runMutation } from '../../../lib/run-mutation';
 
 /**
  * The practice's wrench calibration interval (admin). Without one, 12 months [common practice]:
@@ -13,7 +14,7 @@ export function WrenchSettingsForm({ months }: { months: number }) {
   const form = useContractForm(WrenchSettings, { calibrationIntervalMonths: months });
   const save = useSaveWrenchSettings();
   const submit = (body: WrenchSettings) =>
-    save.mutate(body, { onError: (error) => applyServerErrors(form.setError, error) });
+    runMutation(save, body, { onError: (error) => applyServerErrors(form.setError, error) });
   const formError = formErrorMessage(form.formState.errors, 'alone');
   return (
     <FormProvider {...form}>

@@ -6,6 +6,7 @@ import { LoadingState } from '../../../lib/components/loading-state';
 import { formatDateTime } from '../../../lib/dates';
 import { REMINDER_STATUS_LABEL } from '../../../lib/labels';
 import { useReferralSummary, useSendReferralSummary } from '../api/outcomes-api';
+import { runMutation } from '../../../lib/run-mutation';
 
 /**
  * The patient's referral summary (PDF): download, or e-mail it to the surgeon of a share. One
@@ -17,7 +18,8 @@ export function ReferralSummaryPanel({ patientId }: { patientId: string }) {
   const pressKey = useRef<string | null>(null);
   const press = (shareId: string) => {
     pressKey.current ??= crypto.randomUUID();
-    send.mutate(
+    runMutation(
+      send,
       { shareId, idempotencyKey: pressKey.current },
       {
         onSettled: () => {

@@ -4,6 +4,7 @@ import { FormProvider } from 'react-hook-form';
 import { applyServerErrors, FormField, formErrorMessage, useContractForm, withInputRef } from '../../../lib/forms';
 import { formatDateTime } from '../../../lib/dates';
 import { useArchivePatient } from '../api/patient-records';
+import { runMutation } from '../../../lib/run-mutation';
 
 /** Archive (or bring back) with a reason. Nothing is deleted; an archived patient gets no reminders. */
 export function ArchiveControl({ patient }: { patient: PatientDetail }) {
@@ -11,7 +12,8 @@ export function ArchiveControl({ patient }: { patient: PatientDetail }) {
   const mutation = useArchivePatient(patient.id);
   const form = useContractForm<ArchivePatientBody, ArchivePatientBody>(ArchivePatientBody, { reason: '' });
   const submit = (body: ArchivePatientBody) =>
-    mutation.mutate(
+    runMutation(
+      mutation,
       { archived: !archived, body },
       { onSuccess: () => form.reset({ reason: '' }), onError: (error) => applyServerErrors(form.setError, error) },
     );

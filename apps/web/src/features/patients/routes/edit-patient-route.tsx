@@ -16,6 +16,7 @@ import { DuplicateWarning } from '../components/duplicate-warning';
 import { HistoryPanel } from '../components/history-panel';
 import { draftOf, draftToRecord, type PatientDraft, PatientForm } from '../components/patient-form';
 import { ChartNumber } from '../../../lib/components/chart-number';
+import { runMutation } from '../../../lib/run-mutation';
 
 /** /patients/:patientId/edit: the record, its archive switch and its History. */
 export function EditPatientRoute() {
@@ -85,7 +86,7 @@ function EditForm({ patient }: { patient: PatientDetail }) {
   const changedIdentity = familyName !== patient.familyName || birthDate !== patient.birthDate;
   const duplicates = useDuplicates(changedIdentity ? familyName : '', birthDate.trim(), patient.id);
   const submit = (body: UpdatePatientBody) =>
-    update.mutate(body, {
+    runMutation(update, body, {
       onSuccess: (saved) => form.reset(draftOf(saved)),
       onError: (error) => applyServerErrors(form.setError, error),
     });

@@ -12,6 +12,7 @@ import { patientKeys } from '../api/keys';
 import { useCreatePatient, useDuplicates } from '../api/patient-records';
 import { DuplicateWarning } from '../components/duplicate-warning';
 import { draftToRecord, emptyDraft, type PatientDraft, PatientForm } from '../components/patient-form';
+import { runMutation } from '../../../lib/run-mutation';
 
 const schema = draftSchema(CreatePatientBody, draftToRecord);
 
@@ -30,7 +31,7 @@ export function NewPatientRoute() {
   const stoppedOn = stopped && stopped.key === keyOf(familyName, birthDate) ? stopped.matches : null;
 
   const save = (body: CreatePatientBody) =>
-    create.mutate(body, {
+    runMutation(create, body, {
       onSuccess: (patient) => void navigate(`/patients/${patient.id}`),
       onError: (error) => applyServerErrors(form.setError, error),
     });

@@ -9,6 +9,7 @@ import { LoadingState } from '../../../lib/components/loading-state';
 import { applyServerErrors, FormField, formErrorMessage, useContractForm, withInputRef } from '../../../lib/forms';
 import { usePatientSettings, useUpdatePatientSettings } from '../api/patient-records';
 import { ChartNumber } from '../../../lib/components/chart-number';
+import { runMutation } from '../../../lib/run-mutation';
 
 /** /practice/patient-settings: the chart-number prefix of new patients (practice admin). */
 export function PatientSettingsRoute() {
@@ -39,7 +40,7 @@ function SettingsForm({ settings }: { settings: PatientSettingsReply }) {
     chartPrefix: settings.chartPrefix,
   });
   const submit = (body: PatientSettingsBody) =>
-    update.mutate(body, { onError: (error) => applyServerErrors(form.setError, error) });
+    runMutation(update, body, { onError: (error) => applyServerErrors(form.setError, error) });
   const formError = formErrorMessage(form.formState.errors, 'alone');
   return (
     <FormProvider {...form}>

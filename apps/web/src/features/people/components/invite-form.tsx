@@ -12,6 +12,7 @@ import {
 } from '../../../lib/forms';
 import { ROLE_LABEL } from '../../../lib/labels';
 import { useInvite } from '../api/people-api';
+import { runMutation } from '../../../lib/run-mutation';
 
 interface InviteDraft {
   email: string;
@@ -25,7 +26,7 @@ export function InviteForm() {
   const invite = useInvite();
   const form = useContractForm(schema, { email: '', role: 'hygienist' });
   const submit = (body: InviteBody) =>
-    invite.mutate(body, {
+    runMutation(invite, body, {
       onSuccess: (sent) => form.reset({ email: '', role: sent.role }),
       onError: (error) => applyServerErrors(form.setError, error),
     });

@@ -12,6 +12,7 @@ import {
   withInputRef,
 } from '../../../lib/forms';
 import { usePracticeContact, useSavePracticeContact } from '../api/people-api';
+import { runMutation } from '../../../lib/run-mutation';
 
 interface ContactDraft {
   address: string;
@@ -57,7 +58,7 @@ function ContactForm({ current }: { current: PracticeContact }) {
   const save = useSavePracticeContact();
   const form = useContractForm<ContactDraft, PracticeContactBody>(schema, draftOf(current));
   const submit = (body: PracticeContactBody) =>
-    save.mutate(body, {
+    runMutation(save, body, {
       onSuccess: (saved) => form.reset(draftOf(saved)),
       onError: (error) => applyServerErrors(form.setError, error),
     });

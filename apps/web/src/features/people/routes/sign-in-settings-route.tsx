@@ -5,6 +5,7 @@ import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
 import { applyServerErrors, FormField, formErrorMessage, NumberInput, useContractForm } from '../../../lib/forms';
 import { useSaveSessionSettings, useSessionSettings } from '../api/people-api';
+import { runMutation } from '../../../lib/run-mutation';
 
 /** /practice/sign-in: how long an unattended session stays open. */
 export function SignInSettingsRoute() {
@@ -37,7 +38,7 @@ function IdleForm({ current }: { current: SessionSettings }) {
   const save = useSaveSessionSettings();
   const form = useContractForm(SessionSettings, current);
   const submit = (body: SessionSettings) =>
-    save.mutate(body, { onError: (error) => applyServerErrors(form.setError, error) });
+    runMutation(save, body, { onError: (error) => applyServerErrors(form.setError, error) });
   const message = formErrorMessage(form.formState.errors, 'alone');
   return (
     <FormProvider {...form}>

@@ -23,6 +23,7 @@ import {
 } from '../../../lib/forms';
 import { useRecordPlacement } from '../api/record-placement';
 import { readUdi, UdiField } from './udi-field';
+import { runMutation } from '../../../lib/run-mutation';
 
 interface PlacementDraft {
   platformId: string;
@@ -103,7 +104,7 @@ export function PlacementForm({
     : undefined;
 
   const submit = (body: PlacementBody) =>
-    record.mutate(body, { onSuccess: onDone, onError: (error) => applyServerErrors(form.setError, error) });
+    runMutation(record, body, { onSuccess: onDone, onError: (error) => applyServerErrors(form.setError, error) });
   const formError = formErrorMessage(form.formState.errors, 'alone');
   const axisInput = (i: 0 | 1 | 2, label: string) => (
     <NumberInput

@@ -14,6 +14,7 @@ import {
   withInputRef,
 } from '../../../lib/forms';
 import { useDeliver } from '../api/planner-api';
+import { runMutation } from '../../../lib/run-mutation';
 
 interface DeliveryDraft {
   /** One lot per row, as typed. */
@@ -54,7 +55,8 @@ export function DeliveryForm({
   const deliver = useDeliver();
 
   const submit = (body: DeliveryBody) =>
-    deliver.mutate(
+    runMutation(
+      deliver,
       { id: restoration.id, body },
       { onSuccess: () => onDone(true), onError: (error) => applyServerErrors(form.setError, error) },
     );

@@ -21,6 +21,7 @@ import {
 } from '../../../lib/clinical-labels';
 import { REMINDER_STATUS_LABEL } from '../../../lib/labels';
 import { useCloseOnEscape } from '../../../lib/use-close-on-escape';
+import { runMutation } from '../../../lib/run-mutation';
 
 /** One restoration: what was planned, its Findings, delivery and lab prescriptions. */
 /** Downloads a PDF the way its link would, without a navigation that would cancel the page's refetches. */
@@ -133,7 +134,8 @@ export function RestorationPanel({
               // Opens the plan version's prescription (the existing one when there is one: pressing
               // again makes no second); only "Revise prescription" makes a new version.
               onClick={() =>
-                lab.mutate(
+                runMutation(
+                  lab,
                   { emailToLab: false },
                   { onSuccess: (made) => downloadPdf(`/api/lab-prescriptions/${made.id}/pdf`) },
                 )

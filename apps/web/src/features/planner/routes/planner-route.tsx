@@ -49,6 +49,7 @@ import { DivergenceTable } from '../components/divergence-table';
 import { MATERIAL_LABEL, RESTORATION_KIND_LABEL as KIND_LABEL, RETENTION_LABEL } from '../../../lib/clinical-labels';
 import { usePatient } from '../../patients';
 import { DateInput } from '../../../lib/components/date-input';
+import { runMutation } from '../../../lib/run-mutation';
 
 /**
  * /patients/:patientId/restorations/new: the restoration planner with live Findings.
@@ -215,8 +216,8 @@ function PlannerForm({
       onError: (error: Error) => applyServerErrors(form.setError, error),
     };
     // The schema gives an amendment's body (with its reason) exactly when a saved plan is amended.
-    if (!('amendmentReason' in body)) save.mutate(body, saved);
-    else if (amending) amend.mutate({ id: amending.id, body }, saved);
+    if (!('amendmentReason' in body)) runMutation(save, body, saved);
+    else if (amending) runMutation(amend, { id: amending.id, body }, saved);
   };
   const formError = formErrorMessage(form.formState.errors, 'always');
   const field = (name: string) => ({ name, live: live[name] });

@@ -7,6 +7,7 @@ import { formatDateTime } from '../../../lib/dates';
 import { applyServerErrors, FormField, formErrorMessage, useContractForm, withInputRef } from '../../../lib/forms';
 import { useMarkEnteredInError } from '../api/radiographs-api';
 import { useCloseOnEscape } from '../../../lib/use-close-on-escape';
+import { runMutation } from '../../../lib/run-mutation';
 
 /**
  * A radiograph filed to the wrong patient or site is never deleted: it is marked entered in error
@@ -27,7 +28,7 @@ export function EnteredInErrorCard({ radiograph }: { radiograph: RadiographDetai
     );
   }
   const submit = form.handleSubmit((body) =>
-    mark.mutate(body, { onError: (error) => applyServerErrors(form.setError, error) }),
+    runMutation(mark, body, { onError: (error) => applyServerErrors(form.setError, error) }),
   );
   return (
     <Can I="amend" a="Radiograph">

@@ -21,6 +21,7 @@ import {
 import { formatDate } from '../../../lib/dates';
 import { useToothSystem } from '../../../lib/tooth-system';
 import { useAmendMeasurement, useMeasure } from '../api/radiographs-api';
+import { runMutation } from '../../../lib/run-mutation';
 
 type Point = { row: number; col: number };
 const MEASURE_STEPS = [
@@ -121,8 +122,8 @@ export function MeasureWorkspace({
       },
       onError: (error: Error) => applyServerErrors(form.setError, error),
     };
-    if (amending) amend.mutate({ measurementId: amending.id, body: body as MeasurementAmendmentBody }, done);
-    else measure.mutate(body as MeasurementBody, done);
+    if (amending) runMutation(amend, { measurementId: amending.id, body: body as MeasurementAmendmentBody }, done);
+    else runMutation(measure, body as MeasurementBody, done);
   });
 
   const marksLayer = (

@@ -33,6 +33,7 @@ import { CaseDefinitions } from '../components/case-definitions';
 import { boneLevelSourceId, draftFromExam, emptyDraft, parseMm, type SiteDraft } from '../components/live-verdict';
 import { SiteExamCard } from '../components/site-exam-card';
 import { useCloseOnEscape } from '../../../lib/use-close-on-escape';
+import { runMutation } from '../../../lib/run-mutation';
 
 const num = (text: string) => (text.trim() === '' ? null : (parseMm(text) ?? Number.NaN));
 
@@ -113,7 +114,7 @@ function ExamVisit({ data }: { data: ExamContext }) {
   const errorPrefix = (siteId: string) => `exams.${included.findIndex((s) => s.siteId === siteId)}.`;
 
   const submit = (body: CreateVisitBody) =>
-    save.mutate(body, {
+    runMutation(save, body, {
       onSuccess: (reply) => setSaved(reply),
       onError: (error) => applyServerErrors(form.setError, error),
     });
@@ -238,7 +239,8 @@ function AmendForm({
   const amendSave = useAmendExam();
   const form = useContractForm(amendSchema, { draft: draftFromExam(exam), amendmentReason: '' });
   const submit = (body: AmendExamBody) =>
-    amendSave.mutate(
+    runMutation(
+      amendSave,
       { examId: exam.id, body },
       { onSuccess: onSaved, onError: (error) => applyServerErrors(form.setError, error) },
     );

@@ -16,6 +16,7 @@ import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
 import { applyServerErrors, FormField, formErrorMessage, NumberInput, useContractForm } from '../../../lib/forms';
 import { useRecallPolicy, useUpdatePolicy } from '../api/recalls-api';
+import { runMutation } from '../../../lib/run-mutation';
 
 const riskFactors = RECALL_RISK_FACTORS.map((factor, i) =>
   i === 0 ? RISK_FACTOR_LABEL[factor] : RISK_FACTOR_LABEL[factor].toLowerCase(),
@@ -96,7 +97,7 @@ function PolicyForm({ policy }: { policy: RecallPolicyReply }) {
     overdueReminderDaysAfter: policy.overdueReminderDaysAfter,
   });
   const submit = (body: RecallPolicyBody) =>
-    update.mutate(body, { onError: (error) => applyServerErrors(form.setError, error) });
+    runMutation(update, body, { onError: (error) => applyServerErrors(form.setError, error) });
   const formError = formErrorMessage(form.formState.errors, 'alone');
   return (
     <FormProvider {...form}>

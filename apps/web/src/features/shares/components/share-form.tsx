@@ -12,6 +12,7 @@ import {
 } from '../../../lib/forms';
 import { SHARE_SCOPE_HINT, SHARE_SCOPE_LABEL } from '../../../lib/labels';
 import { useCreateShare } from '../api/shares-api';
+import { runMutation } from '../../../lib/run-mutation';
 
 interface ShareDraft {
   surgeonEmail: string;
@@ -51,7 +52,7 @@ export function ShareForm({ patientId, sites }: { patientId: string; sites: read
   const form = useContractForm(schema, EMPTY);
   const which = useWatch({ control: form.control, name: 'which' });
   const submit = (body: CreateShareBody) =>
-    create.mutate(body, {
+    runMutation(create, body, {
       onSuccess: () => form.reset(EMPTY),
       onError: (error) => applyServerErrors(form.setError, error),
     });

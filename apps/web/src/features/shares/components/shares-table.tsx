@@ -9,6 +9,7 @@ import { SHARE_SCOPE_LABEL, SHARE_STATUS_LABEL } from '../../../lib/labels';
 import { useRevokeShare } from '../api/shares-api';
 import { ChartNumber } from '../../../lib/components/chart-number';
 import { useCloseOnEscape } from '../../../lib/use-close-on-escape';
+import { runMutation } from '../../../lib/run-mutation';
 
 const STATUS_INTENT = { invited: 'primary', active: 'success', ended: 'none', revoked: 'warning' } as const;
 
@@ -93,7 +94,7 @@ function RevokeControl({ share }: { share: Share }) {
       </Button>
     );
   const submit = (body: RevokeShareBody) =>
-    revoke.mutate({ id: share.id, ...body }, { onError: (error) => applyServerErrors(form.setError, error) });
+    runMutation(revoke, { id: share.id, ...body }, { onError: (error) => applyServerErrors(form.setError, error) });
   const message = formErrorMessage(form.formState.errors, 'alone');
   return (
     <FormProvider {...form}>

@@ -19,6 +19,7 @@ import {
   withInputRef,
 } from '../../../lib/forms';
 import { useAmendComplication, useAmendTorque } from '../api/amend-entry';
+import { runMutation } from '../../../lib/run-mutation';
 
 type TorqueAmendment = z.output<typeof TorqueAmendmentBody>;
 type ComplicationAmendment = z.output<typeof ComplicationAmendmentBody>;
@@ -64,8 +65,8 @@ export function AmendForm({ siteId, event, onDone }: { siteId: string; event: Ti
 
   const submit = (body: TorqueAmendment | ComplicationAmendment) => {
     const saved = { onSuccess: onDone, onError: (error: Error) => applyServerErrors(form.setError, error) };
-    if ('appliedNcm' in body) torque.mutate({ id: event.id, body }, saved);
-    else complication.mutate({ id: event.id, body }, saved);
+    if ('appliedNcm' in body) runMutation(torque, { id: event.id, body }, saved);
+    else runMutation(complication, { id: event.id, body }, saved);
   };
   const formError = formErrorMessage(form.formState.errors, 'alone');
 

@@ -16,6 +16,7 @@ import {
 } from '../../../lib/forms';
 import { useRecordComplication } from '../api/record-complication';
 import { useCloseOnEscape } from '../../../lib/use-close-on-escape';
+import { runMutation } from '../../../lib/run-mutation';
 
 interface ComplicationDraft {
   kind: ComplicationKind;
@@ -48,7 +49,7 @@ export function ComplicationPanel({ siteId, parts }: { siteId: string; parts: St
   });
   const record = useRecordComplication(siteId);
   const submit = (body: ComplicationBody) =>
-    record.mutate(body, {
+    runMutation(record, body, {
       onSuccess: () => setOpen(false),
       onError: (error) => applyServerErrors(form.setError, error),
     });

@@ -26,6 +26,7 @@ import { RADIOGRAPH_KIND_LABEL } from '../../../lib/labels';
 import { useRadiographs } from '../../radiographs';
 import { type SeatingSave, useSaveSeating, useSeatingChecks } from '../api/seating';
 import { useCloseOnEscape } from '../../../lib/use-close-on-escape';
+import { runMutation } from '../../../lib/run-mutation';
 
 interface SeatingDraft {
   /** '' = none chosen yet. */
@@ -91,8 +92,8 @@ function SeatingForm({
     const handlers = { onSuccess: onDone, onError: (error: Error) => applyServerErrors(form.setError, error) };
     // Only the amendment's contract has a reason, so its presence says which request this is.
     if ('reason' in body) {
-      if (current) save.mutate({ amendId: current.id, body }, handlers);
-    } else save.mutate({ amendId: null, body }, handlers);
+      if (current) runMutation(save, { amendId: current.id, body }, handlers);
+    } else runMutation(save, { amendId: null, body }, handlers);
   };
   const choices = radiographs.data ? offered(radiographs.data.items, target) : [];
   const formError = formErrorMessage(form.formState.errors, 'alone');

@@ -21,6 +21,7 @@ import { useToothSystem } from '../../../lib/tooth-system';
 import { useRestorationScrews, useSeatRestoration } from '../api/seat-restoration';
 import { WrenchCalibrationWarning, WrenchOptions } from './wrench-options';
 import { instant } from './local-instant';
+import { runMutation } from '../../../lib/run-mutation';
 
 interface SeatDraft {
   wrenchId: string;
@@ -79,7 +80,7 @@ function SeatForm({
   const [applied, wrenchId] = useWatch({ control: form.control, name: ['screws', 'wrenchId'] });
   const seat = useSeatRestoration(restorationId);
   const submit = (body: SeatRestorationBody) =>
-    seat.mutate(body, { onSuccess: onDone, onError: (error) => applyServerErrors(form.setError, error) });
+    runMutation(seat, body, { onSuccess: onDone, onError: (error) => applyServerErrors(form.setError, error) });
   const formError = formErrorMessage(form.formState.errors, 'alone');
 
   return (

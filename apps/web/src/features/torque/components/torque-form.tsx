@@ -18,6 +18,7 @@ import {
 import { useLogTorque } from '../api/log-torque';
 import { WrenchCalibrationWarning, WrenchOptions } from './wrench-options';
 import { instant } from './local-instant';
+import { runMutation } from '../../../lib/run-mutation';
 
 interface TorqueDraft {
   componentInstanceId: string;
@@ -81,7 +82,7 @@ export function TorqueForm({ siteId, parts, onDone }: { siteId: string; parts: S
       : null;
 
   const submit = (body: TorqueBody) =>
-    log.mutate(body, { onSuccess: onDone, onError: (error) => applyServerErrors(form.setError, error) });
+    runMutation(log, body, { onSuccess: onDone, onError: (error) => applyServerErrors(form.setError, error) });
   const formError = formErrorMessage(form.formState.errors, 'alone');
 
   return (
