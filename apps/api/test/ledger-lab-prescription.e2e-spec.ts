@@ -1,7 +1,7 @@
 // The lab prescription PDF: generated with pdfkit, stored in S3, parsed back with pdf-parse to
 // check it holds the component chain, and e-mailed to the lab through the SMTP catcher.
 import { PDFParse } from 'pdf-parse';
-import { eq } from 'drizzle-orm';
+import { eq, sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { labPrescriptions, placements, practices } from '../src/db/schema/index.js';
 import { larkspurId, parts } from './support/ledger-fixtures.js';
@@ -181,6 +181,32 @@ describe('lab prescription', () => {
       .set('Cookie', dentist)
       .send({ revise: true });
     expect(revised.body.number).toBeGreaterThan(a.body.number as number);
+  });
+
+  it("numbers run per practice: a revision takes its practice's next number, other practices' stay", async () => {
+    const counters = async () =>
+      new Map(
+        (await ctx.db.select({ id: practices.id, n: practices.labPrescriptionCounter }).from(practices)).map((p) => [
+          p.id,
+          p.n,
+        ]),
+      );
+    const larkspur = await larkspurId(ctx.db);
+    const before = await counters();
+    const revised = await ctx.http
+      .post(`/api/restorations/${planId}/lab-prescriptions`)
+      .set('Cookie', dentist)
+      .send({ revise: true });
+    expect(revised.status).toBe(201);
+    expect(revised.body.number).toBe(before.get(larkspur)! + 1);
+    const after = await counters();
+    expect(after.get(larkspur)).toBe(before.get(larkspur)! + 1);
+    for (const [id, n] of before) if (id !== larkspur) expect(after.get(id), id).toBe(n);
+    // The database holds a number unique within its practice only (the same number may recur elsewhere).
+    const constraint = await ctx.db.execute<{ def: string }>(
+      sql`select pg_get_constraintdef(oid) as def from pg_constraint where conname = 'lab_prescriptions_practice_number_unique'`,
+    );
+    expect(constraint.rows[0].def).toBe('UNIQUE (practice_id, number)');
   });
 
   it('refuses to e-mail a plan without a lab address (400 on emailToLab)', async () => {

@@ -9,12 +9,18 @@ export async function insertLabPrescription(db: Db, v: typeof labPrescriptions.$
   return row;
 }
 
-/** The next prescription number, drawn before the PDF is rendered so the sheet can print it. */
-export async function nextPrescriptionNumber(db: Db): Promise<number> {
-  const result = await db.execute<{ n: string }>(
-    sql`select nextval(pg_get_serial_sequence('lab_prescriptions', 'number'))::text as n`,
-  );
-  return Number(result.rows[0].n);
+/**
+ * The practice's next prescription number, drawn before the PDF is rendered so the sheet can print
+ * it. The row lock of the update serialises two draws of one practice; a draw whose prescription
+ * is then not written leaves a gap, never a duplicate.
+ */
+export async function nextPrescriptionNumber(db: Db, practiceId: string): Promise<number> {
+  const [row] = await db
+    .update(practices)
+    .set({ labPrescriptionCounter: sql`${practices.labPrescriptionCounter} + 1` })
+    .where(eq(practices.id, practiceId))
+    .returning({ number: practices.labPrescriptionCounter });
+  return row.number;
 }
 
 /** Serialises the prescriptions of one plan version, so two presses at once cannot both write one. */

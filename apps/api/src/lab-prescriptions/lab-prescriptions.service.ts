@@ -80,7 +80,7 @@ export class LabPrescriptionsService {
     const [{ patient, sites }, practice, number] = await Promise.all([
       this.restorations.labSheet(scope, r),
       findPracticeContact(this.db, r.practiceId),
-      repo.nextPrescriptionNumber(this.db),
+      repo.nextPrescriptionNumber(this.db, r.practiceId),
     ]);
     const id = randomUUID();
     const pdf = await renderLabPrescription({

@@ -18,6 +18,8 @@ export const practices = pgTable('practices', {
   wrenchCalibrationIntervalMonths: integer('wrench_calibration_interval_months')
     .notNull()
     .default(DEFAULT_CALIBRATION_INTERVAL_MONTHS),
+  /** The last lab prescription number this practice drew (its numbers run 1, 2, 3 …). */
+  labPrescriptionCounter: integer('lab_prescription_counter').notNull().default(0),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 });
 

@@ -224,10 +224,12 @@ export const labPrescriptions = pgTable(
       .notNull()
       .references(() => restorations.id),
     /**
-     * The prescription number printed on the sheet and quoted by the lab: drawn from a sequence
-     * before the PDF is rendered (so the PDF carries it), unique, never reused.
+     * The prescription number printed on the sheet and quoted by the lab: the practice's own
+     * running number (practices.lab_prescription_counter), drawn before the PDF is rendered so the
+     * PDF carries it; unique within the practice, never reused. Per practice, so one practice's
+     * numbers say nothing about how many prescriptions another writes.
      */
-    number: integer('number').generatedByDefaultAsIdentity().notNull(),
+    number: integer('number').notNull(),
     objectKey: text('object_key').notNull(),
     sizeBytes: integer('size_bytes').notNull(),
     emailedTo: text('emailed_to'),
@@ -240,7 +242,7 @@ export const labPrescriptions = pgTable(
   (t) => [
     index('lab_prescriptions_restoration_idx').on(t.restorationId),
     unique('lab_prescriptions_object_key_unique').on(t.objectKey),
-    unique('lab_prescriptions_number_unique').on(t.number),
+    unique('lab_prescriptions_practice_number_unique').on(t.practiceId, t.number),
   ],
 );
 
