@@ -5,11 +5,11 @@ import { readFileSync } from 'node:fs';
 import { randomUUID } from 'node:crypto';
 import iconv from 'iconv-lite';
 import pg from 'pg';
-import { and, eq } from 'drizzle-orm';
+import { and, eq, inArray } from 'drizzle-orm';
 import type { ImportReport, ImportResult, TimelineReply } from '@torquetrail/contracts';
 import { RULES_VERSION } from '@torquetrail/domain';
 import { afterAll, describe, expect, it } from 'vitest';
-import { implantSites, patients, recallExams, torqueEvents } from '../src/db/schema/index.js';
+import { implantSites, patients, recallExams, restorationSites, torqueEvents } from '../src/db/schema/index.js';
 import { csvText, type ImportCells, patientCells, rowCounts, sendImport } from './support/import-files.js';
 import { patientId, signInAll, startTestApp } from './support/test-app.js';
 
@@ -146,12 +146,13 @@ describe('import', () => {
     const res = await sendImport(ctx, cookies.practice_admin, example, { fileName: 'example.csv' });
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     const result = res.body as ImportResult;
+    // A bridge's delivery rows count as one delivery: one restoration (LEG-0003's 45–46).
     expect(result).toMatchObject({
       written: true,
-      counts: { rows: 13, patientsNew: 2, sites: 2, placement: 2, delivery: 2, part: 3, torque: 3, exam: 3 },
+      counts: { rows: 19, patientsNew: 3, sites: 4, placement: 4, delivery: 3, part: 5, torque: 3, exam: 3 },
     });
     const after = await rowCounts(ctx);
-    expect(after.patients - before.patients).toBe(2);
+    expect(after.patients - before.patients).toBe(3);
     expect(after.torque_events - before.torque_events).toBe(3);
     expect(after.recall_exams - before.recall_exams).toBe(3);
     expect(after.recall_exam_sites - before.recall_exam_sites).toBe(18);
@@ -159,6 +160,13 @@ describe('import', () => {
 
     const site = await siteOf('LEG-0001', 36);
     expect(site.status).toBe('restored');
+    // The example's two-unit bridge (two delivery rows, one restoration_ref) is one restoration.
+    const bridge = await ctx.db
+      .select({ restorationId: restorationSites.restorationId })
+      .from(restorationSites)
+      .where(inArray(restorationSites.siteId, [(await siteOf('LEG-0003', 45)).id, (await siteOf('LEG-0003', 46)).id]));
+    expect(bridge).toHaveLength(2);
+    expect(new Set(bridge.map((b) => b.restorationId)).size).toBe(1);
     const torque = await ctx.db
       .select()
       .from(torqueEvents)

@@ -32,7 +32,7 @@ describe('legacy import', () => {
     const report = admin.getByTestId('import-report');
     await report.waitFor({ timeout: 30_000 });
     expect(await report.textContent()).toMatch(/0 error\(s\), 0 warning\(s\)/);
-    expect(await admin.getByTestId('import-counts').textContent()).toMatch(/New patients2/);
+    expect(await admin.getByTestId('import-counts').textContent()).toMatch(/New patients3/);
     await screenshot(admin, 'import-dry-run');
 
     await admin.getByRole('button', { name: 'Import', exact: true }).click();
