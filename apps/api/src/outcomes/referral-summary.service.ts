@@ -1,10 +1,8 @@
 // The referral summary of a patient for the surgeon of a share: drawn as a PDF (download), or
-// e-mailed through the job queue like the lab prescriptions. A request is a row in
-// referral_summary_mails; its send job (the row id as singleton key) locks the row, draws the PDF,
-// sends through SMTP and marks it sent only after SMTP accepted it. A failed attempt is recorded
-// and retried with back-off; a row already sent is never sent again; the idempotency key and the
-// one-pending-per-share index make a second press the same request. A sweep every minute queues
-// a job for any request still pending without one.
+// e-mailed: a request is a row in referral_summary_mails, sent through the shared mail queue
+// (mail/mail-queue.ts: locked, the PDF drawn at send time, sent once, retried with back-off,
+// swept every minute). The idempotency key and the one-pending-per-share index make a second
+// press the same request.
 import { Inject, Injectable } from '@nestjs/common';
 import type { AppAbility } from '@torquetrail/authz';
 import type { ReferralSummaryMail, ReferralSummaryMailBody, ReferralSummaryState } from '@torquetrail/contracts';
@@ -16,23 +14,17 @@ import { fieldError } from '../common/field-error.js';
 import { ENV, type Env } from '../config/env.js';
 import { findPracticeContact } from '../db/practice-contact.js';
 import { auditedTransaction } from '../db/audited-transaction.js';
-import { DB, type Database } from '../db/database.js';
+import { DB, type Database, type Tx } from '../db/database.js';
 import { JobsService } from '../jobs/jobs.service.js';
-import { MailService } from '../mail/mail.service.js';
+import { type MailOutcome, MailQueue } from '../mail/mail-queue.js';
+import { MailService, type OutgoingMail } from '../mail/mail.service.js';
 import { boneChangeSinceLoading } from './bone-change.js';
 import { boneLevelsOfSites } from './outcomes.repository.js';
 import * as repo from './referral-summary.repository.js';
 import { renderReferralSummary, type SummaryPdfSite } from './referral-summary.pdf.js';
 
-const SEND_QUEUE = 'referral-summary-mail-send';
-const SWEEP_QUEUE = 'referral-summary-mail-sweep';
-
-interface SendJob {
-  mailId: string;
-}
-
 type Patient = NonNullable<Awaited<ReturnType<typeof repo.findVisiblePatient>>>;
-export type ReferralMailOutcome = 'sent' | 'already-sent' | 'gone' | 'failed';
+type MailRow = NonNullable<Awaited<ReturnType<typeof repo.lockMail>>>;
 
 const words = (value: string) => value.replace(/-/g, ' ');
 const STATUS_WORDS: Record<string, string> = {
@@ -53,32 +45,25 @@ const toMail = (m: Awaited<ReturnType<typeof repo.mailsOfPatient>>[number]): Ref
 
 @Injectable()
 export class ReferralSummaryService {
+  private readonly mails: MailQueue<MailRow>;
+
   constructor(
     @Inject(ENV) env: Env,
     @Inject(DB) private readonly db: Database,
-    private readonly jobs: JobsService,
-    private readonly mail: MailService,
+    jobs: JobsService,
+    mail: MailService,
   ) {
-    // The same retry settings as reminders and lab mails: every mail waits for SMTP the same way.
-    jobs.register<SendJob>({
-      name: SEND_QUEUE,
-      policy: 'exclusive',
-      retryLimit: env.REMINDER_RETRY_LIMIT,
-      retryDelay: env.REMINDER_RETRY_DELAY_S,
-      pollingIntervalSeconds: 1,
-      handle: async ({ mailId }, { finalAttempt }) => {
-        if ((await this.deliver(mailId, finalAttempt)) === 'failed')
-          throw new Error(`referral summary mail ${mailId} not sent; will retry`);
+    this.mails = new MailQueue(
+      { env, db, jobs, mail },
+      {
+        name: 'referral-summary-mail',
+        lock: repo.lockMail,
+        pending: repo.listPendingMails,
+        compose: (row, tx) => this.compose(row, tx),
+        markSent: (tx, row, messageId) => repo.markMailSent(tx, row.id, messageId),
+        markFailed: (tx, row, error, finalAttempt) => repo.markMailAttemptFailed(tx, row.id, error, finalAttempt),
       },
-    });
-    jobs.register<object>({
-      name: SWEEP_QUEUE,
-      policy: 'standard',
-      retryLimit: 0,
-      retryDelay: 60,
-      cron: '* * * * *',
-      handle: () => this.sweep(),
-    });
+    );
   }
 
   /** Whom the summary can go to (the shares in force) and the mails requested so far. */
@@ -130,51 +115,37 @@ export class ReferralSummaryService {
       });
       return made;
     });
-    await this.jobs.send(SEND_QUEUE, { mailId: mail.id } satisfies SendJob, mail.id);
+    await this.mails.queue(mail.id);
     return toMail(mail);
   }
 
   /** Queues a send job for every pending request (the singleton key skips those already queued). */
-  async sweep(): Promise<void> {
-    for (const { id } of await repo.listPendingMails(this.db))
-      await this.jobs.send(SEND_QUEUE, { mailId: id } satisfies SendJob, id);
+  sweep(): Promise<void> {
+    return this.mails.sweep();
   }
 
   /** Sends one request at most once: locked for the send, marked sent only after SMTP accepted it. */
-  async deliver(mailId: string, finalAttempt = false): Promise<ReferralMailOutcome> {
-    return this.db.transaction(async (tx) => {
-      const row = await repo.lockMail(tx, mailId);
-      if (!row) return 'gone';
-      if (row.status === 'sent') return 'already-sent';
-      try {
-        const patient = await repo.findVisiblePatient(
-          tx,
-          { practiceId: row.practiceId, sharedPatientIds: [] },
-          row.patientId,
-        );
-        if (!patient) throw new Error('the patient is no longer in the practice');
-        const practice = await repo.practiceName(tx, row.practiceId);
-        // The surgeon receives the sites their share opens, no other.
-        const pdf = await this.render(patient, await repo.shareSiteIds(tx, row.shareId));
-        const messageId = await this.mail.send({
-          to: row.sentTo,
-          subject: `Referral summary ${patient.chartNumber} from ${practice}`,
-          text: `Please find attached the implant summary of ${patient.givenName} ${patient.familyName} (chart ${patient.chartNumber}).\n\n${practice}`,
-          attachments: [{ filename: filename(patient.chartNumber), content: pdf, contentType: 'application/pdf' }],
-          headers: { 'X-Torquetrail-Referral-Summary': row.id },
-        });
-        await repo.markMailSent(tx, row.id, messageId);
-        return 'sent';
-      } catch (error) {
-        await repo.markMailAttemptFailed(
-          tx,
-          row.id,
-          error instanceof Error ? error.message : String(error),
-          finalAttempt,
-        );
-        return 'failed';
-      }
-    });
+  deliver(mailId: string, finalAttempt = false): Promise<MailOutcome> {
+    return this.mails.deliver(mailId, finalAttempt);
+  }
+
+  /** The summary as it stands at send time, of the sites the share opens, no other. */
+  private async compose(row: MailRow, tx: Tx): Promise<OutgoingMail> {
+    const patient = await repo.findVisiblePatient(
+      tx,
+      { practiceId: row.practiceId, sharedPatientIds: [] },
+      row.patientId,
+    );
+    if (!patient) throw new Error('the patient is no longer in the practice');
+    const practice = await repo.practiceName(tx, row.practiceId);
+    const pdf = await this.render(patient, await repo.shareSiteIds(tx, row.shareId));
+    return {
+      to: row.sentTo,
+      subject: `Referral summary ${patient.chartNumber} from ${practice}`,
+      text: `Please find attached the implant summary of ${patient.givenName} ${patient.familyName} (chart ${patient.chartNumber}).\n\n${practice}`,
+      attachments: [{ filename: filename(patient.chartNumber), content: pdf, contentType: 'application/pdf' }],
+      headers: { 'X-Torquetrail-Referral-Summary': row.id },
+    };
   }
 
   private async patient(ability: AppAbility, scope: Scope, id: string, action: 'read' | 'create'): Promise<Patient> {
