@@ -41,11 +41,9 @@ describe('restorative dentist', () => {
     for (const fdi of [33, 43]) {
       const site = page.getByTestId(`planner-site-${fdi}`);
       // The demo catalogue's invented stud: 30° between implants, 3 mm collar, shown with the caution.
-      await site
-        .getByLabel('Attachment abutment')
-        .selectOption({
-          label: 'Stud attachment, 3 mm collar [MHX-41-ST3], up to 30° between implants, collar 3 mm, 30 N·cm ±10 %',
-        });
+      await site.getByLabel('Attachment abutment').selectOption({
+        label: 'Stud attachment, 3 mm collar [MHX-41-ST3], up to 30° between implants, collar 3 mm, 30 N·cm ±10 %',
+      });
       expect(await site.textContent()).toMatch(/manufacturer's instructions/);
       await site.getByLabel(/Retentive insert, medium/).check({ force: true });
     }
