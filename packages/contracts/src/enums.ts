@@ -117,6 +117,12 @@ export const COMPONENT_KINDS = [
   'cover-screw',
   /** Screwed on the implant for an intraoral scan; of one platform, removed after the scan. */
   'scan-body',
+  /** A stud attachment screwed into the implant; carries an overdenture's retentive insert. */
+  'attachment-abutment',
+  /** The replaceable insert in the denture's housing that grips a stud attachment. */
+  'retentive-insert',
+  /** A clip or rider in the denture that grips a bar. */
+  'bar-clip',
 ] as const;
 export const ComponentKind = z.enum(COMPONENT_KINDS);
 export type ComponentKind = z.infer<typeof ComponentKind>;
@@ -136,11 +142,15 @@ export const SCREW_KINDS = [
 /** Parts that close the implant at surgery: hand-tight, no torque is logged. */
 export const CLOSURE_KINDS = ['healing-abutment', 'cover-screw'] as const satisfies readonly ComponentKind[];
 export type ClosureKind = (typeof CLOSURE_KINDS)[number];
+/** Parts an overdenture holds on with, in the denture: an insert on a stud, a clip on a bar. */
+export const DENTURE_RETAINER_KINDS = ['retentive-insert', 'bar-clip'] as const satisfies readonly ComponentKind[];
 /** The Stack from the implant outward: multi-unit or abutment, then its screws, then the rest. */
 export const STACK_ORDER: readonly ComponentKind[] = [
   'multi-unit-abutment',
   ...ABUTMENT_KINDS,
+  'attachment-abutment',
   ...SCREW_KINDS,
+  ...DENTURE_RETAINER_KINDS,
   ...CLOSURE_KINDS,
   'impression-coping',
   'scan-body',

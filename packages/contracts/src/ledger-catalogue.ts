@@ -17,6 +17,12 @@ export const CatalogueComponent = z.object({
   engaging: z.boolean().nullable(),
   angleDeg: z.number().nullable(),
   collarHeightMm: z.number().nullable(),
+  /** Attachments: the divergence between two implants the manufacturer states it tolerates, degrees (shown with the caution). */
+  maxDivergenceDeg: z.number().nullable(),
+  /** Retentive inserts and clips: the strength as the manufacturer labels it, e.g. "light". */
+  retentionLabel: z.string().nullable(),
+  /** Retentive inserts and clips: the retention force in newtons, when the catalogue states one. */
+  retentionN: z.number().nullable(),
   tray: Tray.nullable(),
   /** null = hand-tight. */
   torqueSpecNcm: z.number().nullable(),
@@ -87,6 +93,19 @@ export const PART_ANGLE_DEG_RANGE = Object.freeze({ min: 0, max: 45 } as const);
 export const COLLAR_HEIGHT_MM_RANGE = Object.freeze({ min: 0, max: 10 } as const);
 const angleDeg = z.number().min(PART_ANGLE_DEG_RANGE.min).max(PART_ANGLE_DEG_RANGE.max);
 const collarHeightMm = z.number().min(COLLAR_HEIGHT_MM_RANGE.min).max(COLLAR_HEIGHT_MM_RANGE.max);
+/** An attachment's stated divergence tolerance between two implants, degrees, inclusive. */
+export const MAX_DIVERGENCE_DEG_RANGE = Object.freeze({ min: 0, max: 90 } as const);
+const maxDivergenceDeg = z
+  .number()
+  .min(MAX_DIVERGENCE_DEG_RANGE.min, 'Cannot be negative')
+  .max(MAX_DIVERGENCE_DEG_RANGE.max, `At most ${MAX_DIVERGENCE_DEG_RANGE.max}°`);
+/** A retentive insert's stated force, N, inclusive. */
+export const RETENTION_N_RANGE = Object.freeze({ min: 0, max: 100 } as const);
+const retentionN = z
+  .number()
+  .min(RETENTION_N_RANGE.min, 'Cannot be negative')
+  .max(RETENTION_N_RANGE.max, `At most ${RETENTION_N_RANGE.max} N`);
+const retentionLabel = PlainText(40);
 /** A part's torque tolerance in the catalogue, %, inclusive (the domain's verdict accepts up to 100). */
 export const TOLERANCE_PCT_RANGE = Object.freeze({ min: 0, max: 50 } as const);
 const tolerancePct = z.number().min(TOLERANCE_PCT_RANGE.min).max(TOLERANCE_PCT_RANGE.max);
@@ -129,6 +148,9 @@ export const ComponentBody = z.object({
   engaging: z.boolean().nullable().default(null),
   angleDeg: angleDeg.nullable().default(null),
   collarHeightMm: collarHeightMm.nullable().default(null),
+  maxDivergenceDeg: maxDivergenceDeg.nullable().default(null),
+  retentionLabel: retentionLabel.nullable().default(null),
+  retentionN: retentionN.nullable().default(null),
   tray: Tray.nullable().default(null),
   /** N·cm; null = hand-tight. */
   torqueSpecNcm: torqueSpecNcm.nullable().default(null),
@@ -143,6 +165,9 @@ export const ComponentPatch = z.object({
   engaging: z.boolean().nullable().optional(),
   angleDeg: angleDeg.nullable().optional(),
   collarHeightMm: collarHeightMm.nullable().optional(),
+  maxDivergenceDeg: maxDivergenceDeg.nullable().optional(),
+  retentionLabel: retentionLabel.nullable().optional(),
+  retentionN: retentionN.nullable().optional(),
   tray: Tray.nullable().optional(),
   torqueSpecNcm: torqueSpecNcm.nullable().optional(),
   tolerancePct: tolerancePct.optional(),

@@ -42,6 +42,10 @@ export const PlanSiteBody = z.object({
   multiUnitComponentId: Id.nullable().default(null),
   screwComponentIds: z.array(Id).max(4).default([]),
   impressionCopingComponentId: Id.nullable().default(null),
+  /** Overdenture on stud attachments: the attachment abutment screwed into this implant. */
+  attachmentComponentId: Id.nullable().default(null),
+  /** Overdentures: the retentive inserts (on studs) or bar clips held in the denture over this site. */
+  retainerComponentIds: z.array(Id).max(4).default([]),
 });
 export type PlanSiteBody = z.input<typeof PlanSiteBody>;
 
@@ -95,6 +99,9 @@ export function findingField(finding: Pick<Finding, 'code' | 'fdi'>, siteFdis: r
       return 'copingsSplinted';
     case 'divergence-over-limit':
       return at('axis');
+    case 'attachment-missing':
+    case 'catalogue-value-missing':
+      return at('attachmentComponentId');
     case 'insufficient-restorative-space':
       return at('restorativeSpaceMm');
     case 'invalid-position':

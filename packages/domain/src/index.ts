@@ -220,6 +220,9 @@ export {
   MULTI_UNIT_ANGLES_DEG,
 } from './restoration-plan.js';
 export { ACTIONABLE_SEVERITIES, FINDING_SEVERITIES } from './plan-findings.js';
+/** Overdenture kinds (on stud attachments, on a bar) and the catalogue facts their rules read. */
+export { OVERDENTURE_KINDS, isOverdentureKind } from './overdenture-plan.js';
+export type { AttachmentFacts, OverdentureKind } from './overdenture-plan.js';
 /** False only for cement-retained restorations (cut off, not undone). */
 export { isRetrievable } from './restoration-plan.js';
 /** Restoration-plan types. */

@@ -41,6 +41,10 @@ export const PLAN_FINDING_CODES = Object.freeze({
   DIVERGENCE_OVER_LIMIT: 'divergence-over-limit',
   ANGLED_MULTI_UNIT_NOT_NEEDED: 'angled-multi-unit-not-needed',
   INSUFFICIENT_RESTORATIVE_SPACE: 'insufficient-restorative-space',
+  OVERDENTURE_RETENTION: 'overdenture-retention',
+  ATTACHMENT_MISSING: 'attachment-missing',
+  ATTACHMENT_DIVERGENCE_OVER_TOLERANCE: 'attachment-divergence-over-tolerance',
+  CATALOGUE_VALUE_MISSING: 'catalogue-value-missing',
 } as const);
 
 /** Source strings used in findings. */
@@ -49,4 +53,7 @@ export const PLAN_SOURCES = Object.freeze({
   CARPENTIERI_2019: 'Carpentieri J, Greenstein G, Cavallaro J 2019, JADA 150(8):695–706',
   ISO_3950: 'ISO 3950 (FDI two-digit notation) [memory]',
   COMMON_PRACTICE: 'common practice',
+  OVERDENTURE_CONSENSUS:
+    'McGill consensus (Feine JS et al. 2002) and York consensus (Thomason JM et al. 2009) on the two-implant mandibular overdenture',
+  CATALOGUE: "the practice's catalogue (manufacturer's stated value)",
 } as const);

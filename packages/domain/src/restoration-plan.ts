@@ -16,9 +16,18 @@
  * - Primary-dentition positions are valid FDI numbers but implants are numbered at permanent positions:
  *   a warning (`primary-tooth-position`).
  * - For screw-to-multi-unit retention the `interface` field is not judged (only single crowns need it engaging).
+ * - Overdentures (overdenture-plan.ts): a bar is splinted and judged like a bridge, with the bar-overdenture
+ *   space minimum; stud attachments are judged per site against their catalogue tolerance, neither the
+ *   interface nor the restorative space of a stud overdenture is judged (no published minimum here).
  */
 import { divergenceDeg, type Vec3 } from './geometry.js';
 import { divergenceFindings } from './restoration-plan-divergence.js';
+import {
+  type AttachmentFacts,
+  isOverdentureKind,
+  overdentureShapeFindings,
+  studAttachmentFindings,
+} from './overdenture-plan.js';
 import { type Finding, PLAN_FINDING_CODES, PLAN_SOURCES } from './plan-findings.js';
 import { ValidationError } from './errors.js';
 import { RESTORATIVE_DESIGN_LABELS, minRestorativeSpaceMm, type RestorativeDesign } from './restorative-space.js';
@@ -33,8 +42,17 @@ import {
   requireOneOf,
 } from './validate.js';
 
-/** Kinds of restoration. `splinted-bridge` and `full-arch` are splinted. */
-export const RESTORATION_KINDS = ['single-crown', 'splinted-bridge', 'full-arch'] as const;
+/**
+ * Kinds of restoration. `splinted-bridge`, `full-arch` and `overdenture-bar` are splinted; an overdenture
+ * on stud attachments is not (each implant carries its own attachment; overdenture-plan.ts).
+ */
+export const RESTORATION_KINDS = [
+  'single-crown',
+  'splinted-bridge',
+  'full-arch',
+  'overdenture-studs',
+  'overdenture-bar',
+] as const;
 /** Kind of restoration. */
 export type RestorationKind = (typeof RESTORATION_KINDS)[number];
 /** How a restoration is retained. */
@@ -84,6 +102,8 @@ export interface RestorationPlanSite {
   multiUnitAngleDeg?: MultiUnitAngleDeg;
   /** Vertical restorative space at this site, mm. */
   restorativeSpaceMm?: number;
+  /** The attachment abutment chosen (overdenture on stud attachments), with its catalogue values. */
+  attachment?: AttachmentFacts | null;
 }
 
 /** A restoration plan to validate. */
@@ -110,6 +130,7 @@ const RETENTION_LABELS: Record<Retention, string> = {
 export function restorativeDesignForPlan(plan: Pick<RestorationPlan, 'kind' | 'retention'>): RestorativeDesign {
   const kind = requireOneOf(plan.kind, RESTORATION_KINDS, 'plan.kind');
   const retention = requireOneOf(plan.retention, RETENTIONS, 'plan.retention');
+  if (kind === 'overdenture-bar') return 'bar-overdenture';
   if (kind === 'full-arch' && (retention === 'screw-to-implant' || retention === 'screw-to-multi-unit'))
     return 'full-arch-hybrid';
   if (retention === 'screw-to-implant') return 'screw-implant-level';
@@ -125,6 +146,13 @@ function validateAxis(axis: Vec3, field: string): void {
     if (error instanceof ValidationError) throw new ValidationError(error.code, error.message, field);
     throw error;
   }
+}
+
+function validateAttachment(part: AttachmentFacts, field: string): void {
+  if (typeof part !== 'object' || typeof part.name !== 'string')
+    throw new ValidationError('bad-value', 'The attachment is missing its name', field);
+  if (part.maxDivergenceDeg !== null) requireNonNegative(part.maxDivergenceDeg, `${field}.maxDivergenceDeg`);
+  if (part.collarHeightMm !== null) requireNonNegative(part.collarHeightMm, `${field}.collarHeightMm`);
 }
 
 function validateShape(plan: RestorationPlan): void {
@@ -143,6 +171,8 @@ function validateShape(plan: RestorationPlan): void {
       requireOneOf(site.multiUnitAngleDeg, MULTI_UNIT_ANGLES_DEG, `${f}.multiUnitAngleDeg`);
     if (site.restorativeSpaceMm !== undefined) requireNonNegative(site.restorativeSpaceMm, `${f}.restorativeSpaceMm`);
     if (site.axis !== undefined) validateAxis(site.axis, `${f}.axis`);
+    if (site.attachment !== undefined && site.attachment !== null)
+      validateAttachment(site.attachment, `${f}.attachment`);
   });
 }
 
@@ -156,11 +186,14 @@ export function validateRestorationPlan(plan: RestorationPlan): Finding[] {
   validateShape(plan);
   const findings: Finding[] = [];
   const { kind, retention, sites } = plan;
-  const splinted = kind !== 'single-crown';
+  const studs = kind === 'overdenture-studs';
+  const splinted = kind !== 'single-crown' && !studs;
   const n = sites.length;
 
   // --- site list ---------------------------------------------------------------------------
-  if (kind === 'single-crown' && n !== 1) {
+  if (isOverdentureKind(kind)) {
+    findings.push(...overdentureShapeFindings(kind, retention, n));
+  } else if (kind === 'single-crown' && n !== 1) {
     findings.push({
       severity: 'error',
       code: PLAN_FINDING_CODES.SITE_COUNT,
@@ -219,11 +252,11 @@ export function validateRestorationPlan(plan: RestorationPlan): Finding[] {
     const arch = toothArch(site.fdi);
     arches.set(arch, [...(arches.get(arch) ?? []), site.fdi]);
   }
-  if (splinted && arches.size === 2) {
+  if ((splinted || studs) && arches.size === 2) {
     findings.push({
       severity: 'error',
       code: PLAN_FINDING_CODES.SITES_IN_BOTH_ARCHES,
-      message: `One splinted restoration cannot join upper (${arches.get('upper')!.join(', ')}) and lower (${arches.get('lower')!.join(', ')}) implants; plan one restoration per arch.`,
+      message: `One ${studs ? 'overdenture' : 'splinted restoration'} cannot join upper (${arches.get('upper')!.join(', ')}) and lower (${arches.get('lower')!.join(', ')}) implants; plan one restoration per arch.`,
       source: PLAN_SOURCES.COMMON_PRACTICE,
     });
   }
@@ -232,7 +265,7 @@ export function validateRestorationPlan(plan: RestorationPlan): Finding[] {
   for (const site of sites) {
     const fdi = site.fdi;
     const at = `Tooth ${fdi}`;
-    if (!splinted && site.interface === 'non-engaging') {
+    if (kind === 'single-crown' && site.interface === 'non-engaging') {
       findings.push({
         severity: 'error',
         code: PLAN_FINDING_CODES.NON_ENGAGING_SINGLE_CROWN,
@@ -288,7 +321,9 @@ export function validateRestorationPlan(plan: RestorationPlan): Finding[] {
           source: PLAN_SOURCES.COMMON_PRACTICE,
         });
       }
-      const indexed = ABUTMENT_LEVEL_RETENTIONS.includes(retention) || (retention === 'screw-to-implant' && !splinted);
+      // A stud attachment is round: neither it nor its denture housing uses the implant's hex.
+      const indexed =
+        ABUTMENT_LEVEL_RETENTIONS.includes(retention) || (retention === 'screw-to-implant' && kind === 'single-crown');
       if (indexed && site.impressionCoping === 'non-engaging') {
         findings.push({
           severity: 'error',
@@ -315,9 +350,12 @@ export function validateRestorationPlan(plan: RestorationPlan): Finding[] {
 
   // --- divergence between the implants of one splinted restoration ----------------------------
   if (splinted) findings.push(...divergenceFindings(retention === 'screw-to-multi-unit', sites));
+  // --- stud attachments: each judged against its own stated tolerance (overdenture-plan.ts) ----
+  if (studs) findings.push(...studAttachmentFindings(sites));
 
   // --- restorative space ---------------------------------------------------------------------
-  const spaced = sites.filter((s) => s.restorativeSpaceMm !== undefined);
+  // Carpentieri 2019 gives no minimum for stud attachments: the space of a stud overdenture is not judged.
+  const spaced = studs ? [] : sites.filter((s) => s.restorativeSpaceMm !== undefined);
   if (spaced.length > 0) {
     const tightest = spaced.reduce((m, s) => (s.restorativeSpaceMm! < m.restorativeSpaceMm! ? s : m));
     const design = restorativeDesignForPlan(plan);

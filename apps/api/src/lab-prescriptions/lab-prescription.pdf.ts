@@ -54,6 +54,8 @@ const LABELS: Record<string, string> = {
   'single-crown': 'Single crown',
   'splinted-bridge': 'Splinted bridge',
   'full-arch': 'Full-arch prosthesis',
+  'overdenture-studs': 'Overdenture on stud attachments',
+  'overdenture-bar': 'Overdenture on a bar (bar made by the lab)',
   'screw-to-implant': 'Screw-retained directly on the implant',
   'screw-to-multi-unit': 'Screw-retained on multi-unit abutments',
   'cement-on-abutment': 'Cement-retained on abutments (not retrievable without cutting)',

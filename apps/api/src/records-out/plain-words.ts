@@ -16,6 +16,9 @@ const PART_KIND: Record<ComponentKind, string> = {
   'healing-abutment': 'Healing abutment',
   'cover-screw': 'Cover screw',
   'scan-body': 'Scan body',
+  'attachment-abutment': 'Attachment abutment (stud)',
+  'retentive-insert': 'Retentive insert',
+  'bar-clip': 'Bar clip',
 };
 export const partKindWords = (k: ComponentKind) => PART_KIND[k];
 
@@ -43,6 +46,8 @@ const KIND: Record<RestorationKind, string> = {
   'single-crown': 'a single crown',
   'splinted-bridge': 'a bridge joined across several implants',
   'full-arch': 'a full-arch fixed prosthesis',
+  'overdenture-studs': 'a removable overdenture on stud attachments',
+  'overdenture-bar': 'a removable overdenture on a bar',
 };
 export const restorationKindWords = (k: RestorationKind) => KIND[k];
 

@@ -3,6 +3,7 @@
 import {
   ABUTMENT_KINDS,
   type ComponentKind,
+  DENTURE_RETAINER_KINDS,
   type ImpressionCopingKind,
   type InterfaceKind,
   type MultiUnitAngleDeg,
@@ -27,6 +28,8 @@ export interface CatalogueRow {
   name: string;
   engaging: boolean | null;
   angleDeg: number | null;
+  collarHeightMm: number | null;
+  maxDivergenceDeg: number | null;
 }
 
 interface CheckedSite {
@@ -47,13 +50,25 @@ export interface CheckedPlan {
 }
 
 const SLOT_KINDS: Record<
-  'abutmentComponentId' | 'multiUnitComponentId' | 'screwComponentIds' | 'impressionCopingComponentId',
+  | 'abutmentComponentId'
+  | 'multiUnitComponentId'
+  | 'screwComponentIds'
+  | 'impressionCopingComponentId'
+  | 'attachmentComponentId'
+  | 'retainerComponentIds',
   readonly ComponentKind[]
 > = {
   abutmentComponentId: ABUTMENT_KINDS,
   multiUnitComponentId: ['multi-unit-abutment'],
   screwComponentIds: SCREW_KINDS,
   impressionCopingComponentId: ['impression-coping'],
+  attachmentComponentId: ['attachment-abutment'],
+  retainerComponentIds: DENTURE_RETAINER_KINDS,
+};
+/** The slots only an overdenture on stud attachments fills, and what its retainers must be. */
+const RETAINERS_OF_KIND: Partial<Record<PlanBodyParsed['kind'], ComponentKind>> = {
+  'overdenture-studs': 'retentive-insert',
+  'overdenture-bar': 'bar-clip',
 };
 
 const axisOf = (s: RestorableSiteRow): Vec3 | null =>
@@ -92,6 +107,12 @@ export function checkPlan(
           fields[key] = `${part.name} does not fit the platform at ${site.fdi} (${site.platformName})`;
         else if (!SLOT_KINDS[slot].includes(part.kind))
           fields[key] = `${part.name} is not a part of this kind (${SLOT_KINDS[slot].join(', ')})`;
+        else if (slot === 'attachmentComponentId' && body.kind !== 'overdenture-studs')
+          fields[key] = `Tooth ${site.fdi}: an attachment abutment belongs to an overdenture on stud attachments`;
+        else if (slot === 'retainerComponentIds' && RETAINERS_OF_KIND[body.kind] !== part.kind)
+          fields[key] = RETAINERS_OF_KIND[body.kind]
+            ? `Tooth ${site.fdi}: ${part.name} does not fit this overdenture (it needs a ${RETAINERS_OF_KIND[body.kind]})`
+            : `Tooth ${site.fdi}: inserts and clips belong to overdentures`;
         else {
           // The current version, whichever version's id was sent (ADR 0006).
           componentIds.push(part.id);
@@ -117,6 +138,7 @@ export function checkPlan(
         fields[`sites.${i}.multiUnitAngleDeg`] = `${mua.name} is ${muaAngle}°, not ${angle}°`;
     }
     const axis = s.axis ?? axisOf(site);
+    const attachment = chosen.attachmentComponentId;
     sites.push({
       siteId: site.siteId,
       fdi: site.fdi,
@@ -134,6 +156,13 @@ export function checkPlan(
       ...(axis ? { axis } : {}),
       ...(angle !== null ? { multiUnitAngleDeg: angle } : {}),
       ...(s.restorativeSpaceMm !== null ? { restorativeSpaceMm: s.restorativeSpaceMm } : {}),
+      attachment: attachment
+        ? {
+            name: attachment.name,
+            maxDivergenceDeg: attachment.maxDivergenceDeg,
+            collarHeightMm: attachment.collarHeightMm,
+          }
+        : null,
     });
   });
   if (Object.keys(fields).length > 0) throw fieldError(fields);

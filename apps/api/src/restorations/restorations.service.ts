@@ -192,6 +192,8 @@ export class RestorationsService {
         s.multiUnitComponentId,
         s.impressionCopingComponentId,
         ...s.screwComponentIds,
+        s.attachmentComponentId,
+        ...s.retainerComponentIds,
       ])
       .filter((x): x is string => !!x);
     const catalogue = new Map((await repo.findCatalogueParts(tx, patient.practiceId, ids)).map((c) => [c.askedId, c]));

@@ -222,6 +222,60 @@ function partsFor(
       torqueSpecNcm: null,
       tolerancePct: 10,
     },
+    // Overdenture parts. Invented demo values: a real practice enters each manufacturer's stated
+    // divergence tolerance, collar heights, insert strengths and torque, which always rule.
+    {
+      key: 'stud-attachment',
+      kind: 'attachment-abutment',
+      name: 'Stud attachment, 3 mm collar',
+      referenceCode: ref('ST3'),
+      engaging: false,
+      angleDeg: 0,
+      collarHeightMm: 3,
+      maxDivergenceDeg: 30,
+      torqueSpecNcm: screw,
+      tolerancePct: 10,
+    },
+    {
+      // Entered without its divergence tolerance: the planner says so rather than guess.
+      key: 'stud-attachment-incomplete',
+      kind: 'attachment-abutment',
+      name: 'Stud attachment, 5 mm collar (tolerance not entered)',
+      referenceCode: ref('ST5'),
+      engaging: false,
+      angleDeg: 0,
+      collarHeightMm: 5,
+      maxDivergenceDeg: null,
+      torqueSpecNcm: screw,
+      tolerancePct: 10,
+    },
+    ...(
+      [
+        ['insert-light', 'light', 'L', 7],
+        ['insert-medium', 'medium', 'M', 13],
+        ['insert-strong', 'strong', 'S', 20],
+      ] as const
+    ).map(([key, label, code, newtons]) => ({
+      key,
+      kind: 'retentive-insert' as const,
+      name: `Retentive insert, ${label}`,
+      referenceCode: ref(`RI-${code}`),
+      engaging: null,
+      retentionLabel: label,
+      retentionN: newtons,
+      torqueSpecNcm: null,
+      tolerancePct: 10,
+    })),
+    {
+      key: 'bar-clip',
+      kind: 'bar-clip',
+      name: 'Bar clip, round bar',
+      referenceCode: ref('BC'),
+      engaging: null,
+      retentionLabel: 'medium',
+      torqueSpecNcm: null,
+      tolerancePct: 10,
+    },
   ];
 }
 

@@ -49,6 +49,9 @@ export const COMPONENT_KIND_LABEL: Record<ComponentKind, string> = {
   'healing-abutment': 'Healing abutment',
   'cover-screw': 'Cover screw',
   'scan-body': 'Scan body',
+  'attachment-abutment': 'Attachment abutment (stud)',
+  'retentive-insert': 'Retentive insert',
+  'bar-clip': 'Bar clip',
 };
 
 /** Kinds that sit on the implant and have an axis, so "straight" is meaningful for them. */
@@ -65,6 +68,8 @@ export const RESTORATION_KIND_LABEL: Record<RestorationKind, string> = {
   'single-crown': 'Single crown',
   'splinted-bridge': 'Splinted bridge',
   'full-arch': 'Full-arch bridge',
+  'overdenture-studs': 'Overdenture on stud attachments',
+  'overdenture-bar': 'Overdenture on a bar',
 };
 
 export const MATERIAL_LABEL: Record<Material, string> = {

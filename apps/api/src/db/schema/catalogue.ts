@@ -89,6 +89,16 @@ export const components = pgTable(
     engaging: boolean('engaging'),
     angleDeg: numeric('angle_deg', { precision: 4, scale: 1, mode: 'number' }),
     collarHeightMm: mm('collar_height_mm'),
+    /** Attachments: the largest divergence between two implants the manufacturer states it tolerates, degrees. */
+    maxDivergenceDeg: numeric('max_divergence_deg', { precision: 4, scale: 1, mode: 'number' }),
+    /**
+     * Retentive inserts and clips: the strength as the manufacturer labels it (e.g. "light", "medium") and,
+     * when the catalogue states one, the retention force in newtons. Manufacturers sell inserts by a named
+     * (often colour-coded) strength and state forces in varying units or not at all: the label is what the
+     * clinician picks from the box, the force (converted to N by whoever keeps the catalogue) compares systems.
+     */
+    retentionLabel: text('retention_label'),
+    retentionN: numeric('retention_n', { precision: 5, scale: 1, mode: 'number' }),
     tray: trayEnum('tray'),
     /** Torque specification in N·cm; null means hand-tight. */
     torqueSpecNcm: numeric('torque_spec_ncm', { precision: 5, scale: 1, mode: 'number' }),

@@ -51,6 +51,13 @@ export function ComponentRow({ part }: { part: CatalogueComponent }) {
           {part.tray ? `, ${TRAY_LABEL[part.tray].toLowerCase()}` : ''}
           {part.angleDeg ? `, ${part.angleDeg}°` : ''}
           {part.collarHeightMm ? `, collar ${part.collarHeightMm} mm` : ''}
+          {part.kind === 'attachment-abutment'
+            ? part.maxDivergenceDeg === null
+              ? ', divergence tolerance not stated'
+              : `, up to ${part.maxDivergenceDeg}° between implants`
+            : ''}
+          {part.retentionLabel ? `, ${part.retentionLabel}` : ''}
+          {part.retentionN === null ? '' : `, ${part.retentionN} N`}
         </td>
         <td>
           {editing ? (

@@ -3,6 +3,7 @@ import {
   ABUTMENT_KINDS,
   type CatalogueComponent,
   type ComponentKind,
+  DENTURE_RETAINER_KINDS,
   type Finding,
   type ImpressionCopingKind,
   type InterfaceKind,
@@ -16,6 +17,7 @@ import {
 } from '@torquetrail/contracts';
 import {
   ABUTMENT_LEVEL_RETENTIONS,
+  isOverdentureKind,
   type RestorationPlan,
   ValidationError,
   type Vec3,
@@ -32,6 +34,10 @@ export interface SitePlan {
   multiUnitComponentId: string;
   abutmentComponentId: string;
   screwComponentIds: string[];
+  /** Overdenture on stud attachments: the attachment abutment. */
+  attachmentComponentId: string;
+  /** Overdentures: retentive inserts or bar clips. */
+  retainerComponentIds: string[];
   restorativeSpaceMm: string;
   /** Entered axis (x, y, z as typed); empty = the placement's axis. */
   axis: [string, string, string];
@@ -59,6 +65,8 @@ export const emptySitePlan = (siteId: string): SitePlan => ({
   multiUnitComponentId: '',
   abutmentComponentId: '',
   screwComponentIds: [],
+  attachmentComponentId: '',
+  retainerComponentIds: [],
   restorativeSpaceMm: '',
   axis: ['', '', ''],
 });
@@ -123,6 +131,8 @@ export function toBody(
         multiUnitComponentId: (onMua && s.multiUnitComponentId) || null,
         screwComponentIds: s.screwComponentIds,
         impressionCopingComponentId: s.impressionCopingComponentId || null,
+        attachmentComponentId: (state.kind === 'overdenture-studs' && s.attachmentComponentId) || null,
+        retainerComponentIds: isOverdentureKind(state.kind) ? s.retainerComponentIds : [],
       };
     }),
     acknowledgements: state.acknowledged.map((k) => {
@@ -157,6 +167,7 @@ export function liveFindings(
       const site = sites.find((x) => x.siteId === s.siteId)!;
       const { axis: typed, multiUnitAngleDeg, restorativeSpaceMm } = read[i];
       const axis = typed ?? site.axis;
+      const attachment = catalogue.get(s.attachmentComponentId);
       return {
         fdi: site.fdi,
         interface: s.interface,
@@ -164,6 +175,13 @@ export function liveFindings(
         ...(axis ? { axis } : {}),
         ...(multiUnitAngleDeg !== null ? { multiUnitAngleDeg } : {}),
         ...(restorativeSpaceMm !== null ? { restorativeSpaceMm } : {}),
+        attachment: attachment
+          ? {
+              name: attachment.name,
+              maxDivergenceDeg: attachment.maxDivergenceDeg,
+              collarHeightMm: attachment.collarHeightMm,
+            }
+          : null,
       };
     }),
   };
@@ -225,6 +243,10 @@ export function stateFromRestoration(r: RestorationDetail): PlanState {
         abutmentComponentId: first(...ABUTMENT_KINDS),
         screwComponentIds: s.components
           .filter((c) => (SCREW_KINDS as readonly ComponentKind[]).includes(c.kind))
+          .map((c) => c.id),
+        attachmentComponentId: first('attachment-abutment'),
+        retainerComponentIds: s.components
+          .filter((c) => (DENTURE_RETAINER_KINDS as readonly ComponentKind[]).includes(c.kind))
           .map((c) => c.id),
         restorativeSpaceMm: str(s.restorativeSpaceMm),
         axis: s.axis ? [String(s.axis[0]), String(s.axis[1]), String(s.axis[2])] : ['', '', ''],

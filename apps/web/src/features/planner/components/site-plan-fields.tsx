@@ -5,7 +5,9 @@ import {
   type ComponentKind,
   type ImpressionCopingKind,
   type InterfaceKind,
+  MANUFACTURER_CAUTION,
   type RestorableSite,
+  type RestorationKind,
   type Retention,
   SCREW_KINDS,
 } from '@torquetrail/contracts';
@@ -17,12 +19,23 @@ import { CONNECTION_LABEL, IMPRESSION_COPING_LABEL, INTERFACE_LABEL } from '../.
 
 const spec = (c: CatalogueComponent) =>
   c.torqueSpecNcm === null ? 'hand-tight' : `${c.torqueSpecNcm} N·cm ±${c.tolerancePct} %`;
+/** An attachment's catalogue values as the rules read them; a value the catalogue lacks is said so. */
+const attachmentFacts = (c: CatalogueComponent) =>
+  [
+    c.maxDivergenceDeg === null ? 'divergence tolerance not stated' : `up to ${c.maxDivergenceDeg}° between implants`,
+    c.collarHeightMm === null ? 'collar height not stated' : `collar ${c.collarHeightMm} mm`,
+    spec(c),
+  ].join(', ');
+const retainerFacts = (c: CatalogueComponent) =>
+  [c.retentionLabel, c.retentionN === null ? null : `${c.retentionN} N`].filter(Boolean).join(', ') ||
+  'retention not stated';
 
 interface Props {
   index: number;
   site: RestorableSite;
   plan: SitePlan;
   retention: Retention;
+  kind: RestorationKind;
   parts: CatalogueComponent[];
   system: ToothSystem;
   /** Messages computed live from the draft (Findings, malformed values), by field path. */
@@ -31,7 +44,7 @@ interface Props {
 }
 
 /** One site of the plan: interface, impression technique and coping, parts from this platform only. */
-export function SitePlanFields({ index, site, plan, retention, parts, system, live, onChange }: Props) {
+export function SitePlanFields({ index, site, plan, retention, kind, parts, system, live, onChange }: Props) {
   const key = (f: string) => `sites.${index}.${f}`;
   /** A field's error paths (the first names it) and its live message. */
   const err = (...fields: string[]) => ({ name: fields.map(key), live: fields.map((f) => live[key(f)]).find(Boolean) });
@@ -131,6 +144,27 @@ export function SitePlanFields({ index, site, plan, retention, parts, system, li
             </HTMLSelect>
           </FormField>
         ) : null}
+        {kind === 'overdenture-studs' && (
+          <FormField
+            label="Attachment abutment"
+            labelFor={id('attachment')}
+            help={MANUFACTURER_CAUTION}
+            {...err('attachmentComponentId')}
+          >
+            <HTMLSelect
+              id={id('attachment')}
+              value={plan.attachmentComponentId}
+              onChange={(e) => set({ attachmentComponentId: e.currentTarget.value })}
+            >
+              <option value="">Not chosen</option>
+              {of('attachment-abutment').map((c) => (
+                <option key={c.id} value={c.id}>
+                  {c.name} [{c.referenceCode}], {attachmentFacts(c)}
+                </option>
+              ))}
+            </HTMLSelect>
+          </FormField>
+        )}
         <FormField label="Restorative space (mm)" labelFor={id('space')} {...err('restorativeSpaceMm')}>
           <InputGroup
             id={id('space')}
@@ -178,6 +212,27 @@ export function SitePlanFields({ index, site, plan, retention, parts, system, li
           />
         ))}
       </FormField>
+      {(kind === 'overdenture-studs' || kind === 'overdenture-bar') && (
+        <FormField
+          label={kind === 'overdenture-studs' ? 'Retentive inserts' : 'Bar clips'}
+          {...err('retainerComponentIds')}
+        >
+          {of(kind === 'overdenture-studs' ? 'retentive-insert' : 'bar-clip').map((c) => (
+            <Checkbox
+              key={c.id}
+              label={`${c.name} [${c.referenceCode}], ${retainerFacts(c)}`}
+              checked={plan.retainerComponentIds.includes(c.id)}
+              onChange={(e) =>
+                set({
+                  retainerComponentIds: e.currentTarget.checked
+                    ? [...plan.retainerComponentIds, c.id]
+                    : plan.retainerComponentIds.filter((x) => x !== c.id),
+                })
+              }
+            />
+          ))}
+        </FormField>
+      )}
     </fieldset>
   );
 }

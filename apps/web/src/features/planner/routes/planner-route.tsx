@@ -321,6 +321,7 @@ function PlannerForm({
                 site={chosen[i]}
                 plan={p}
                 retention={state.retention}
+                kind={state.kind}
                 parts={[...parts.values()].filter((c) => c.platformId === chosen[i].platformId)}
                 system={system}
                 live={live}
