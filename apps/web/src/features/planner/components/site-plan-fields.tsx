@@ -14,6 +14,7 @@ import { FormField } from '../../../lib/forms';
 import type { ToothSystem } from '../../../lib/tooth-system';
 import type { SitePlan } from './plan-state';
 import { CONNECTION_LABEL, IMPRESSION_COPING_LABEL, INTERFACE_LABEL } from '../../../lib/clinical-labels';
+import { PartValues } from './part-values';
 
 const spec = (c: CatalogueComponent) =>
   c.torqueSpecNcm === null ? 'hand-tight' : `${c.torqueSpecNcm} N·cm ±${c.tolerancePct} %`;
@@ -36,6 +37,7 @@ export function SitePlanFields({ index, site, plan, retention, parts, system, li
   /** A field's error paths (the first names it) and its live message. */
   const err = (...fields: string[]) => ({ name: fields.map(key), live: fields.map((f) => live[key(f)]).find(Boolean) });
   const of = (...kinds: ComponentKind[]) => parts.filter((p) => kinds.includes(p.kind));
+  const byId = (partId: string) => parts.find((p) => p.id === partId);
   const copings = of('impression-coping').filter((c) =>
     plan.impressionCoping === 'engaging' ? c.engaging === true : c.engaging !== true,
   );
@@ -114,6 +116,7 @@ export function SitePlanFields({ index, site, plan, retention, parts, system, li
                 </option>
               ))}
             </HTMLSelect>
+            <PartValues part={byId(plan.multiUnitComponentId)} />
           </FormField>
         ) : ABUTMENT_LEVEL_RETENTIONS.includes(retention) ? (
           <FormField label="Abutment" labelFor={id('abutment')} {...err('abutmentComponentId')}>
@@ -129,6 +132,7 @@ export function SitePlanFields({ index, site, plan, retention, parts, system, li
                 </option>
               ))}
             </HTMLSelect>
+            <PartValues part={byId(plan.abutmentComponentId)} />
           </FormField>
         ) : null}
         <FormField label="Restorative space (mm)" labelFor={id('space')} {...err('restorativeSpaceMm')}>
