@@ -101,7 +101,15 @@ export function ComponentRow({ part }: { part: CatalogueComponent }) {
           ) : (
             statedValues(part) && (
               <span aria-describedby="catalogue-caution" data-testid="catalogue-part-values">
-                {statedValues(part)} <Icon icon="warning-sign" size={12} title={MANUFACTURER_CAUTION} />
+                {statedValues(part)}{' '}
+                <span
+                  role="img"
+                  aria-label={MANUFACTURER_CAUTION}
+                  title={MANUFACTURER_CAUTION}
+                  data-testid="catalogue-part-caution"
+                >
+                  <Icon icon="warning-sign" size={12} />
+                </span>
               </span>
             )
           )}
