@@ -6,7 +6,7 @@ import {
   type PartValues,
   type SiteParts,
 } from './catalogue-values.js';
-import { validateRestorationPlan } from './restoration-plan.js';
+import { type RestorationPlan, validateRestorationPlan } from './restoration-plan.js';
 
 // The rules read what the practice's catalogue states (the manufacturer's instructions for use rule);
 // which rule reads which value and the severity of a missing one are decisions [common practice],
@@ -74,16 +74,14 @@ describe('catalogueValueFindings — a chosen part lacking a value a rule needs 
       Math.cos((deg * Math.PI) / 180),
     ];
     // What the planner sends for a part without an angle: no multiUnitAngleDeg (treated as 0°).
-    const plan = {
+    const plan: RestorationPlan = {
       ...onMua,
       sites: [
         { fdi: 34, interface: 'non-engaging', impressionCoping: 'multi-unit', axis: [0, 0, 1] },
         { fdi: 36, interface: 'non-engaging', impressionCoping: 'multi-unit', axis: tilt(25) },
       ],
-    } as const;
-    expect(validateRestorationPlan({ ...plan, sites: [...plan.sites] }).map((f) => f.code)).toEqual([
-      'divergence-over-limit',
-    ]);
+    };
+    expect(validateRestorationPlan(plan).map((f) => f.code)).toEqual(['divergence-over-limit']);
   });
 
   it('no rule reads the multi-unit angle of a single crown, nor a multi-unit chosen under another retention', () => {
