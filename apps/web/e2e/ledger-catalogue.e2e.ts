@@ -39,6 +39,60 @@ describe('practice administrator', () => {
   });
 });
 
+describe('values the plan rules read (issue 16 §5)', () => {
+  it('the administrator states a multi-unit angle and collar height, refused beside the field outside 0–45°', async () => {
+    await h.reset(); // this test writes: a retry starts from the seed
+    const page = await h.newPage();
+    await signInAs(page, 'odile.park@larkspur.example');
+    await page.getByRole('link', { name: 'Catalogue' }).click();
+    await page.waitForURL(/\/catalogue$/);
+    const row = page.getByTestId('catalogue-part').filter({ hasText: 'TEX-41-MU17-25' });
+    // The stated values carry the manufacturer's caution beside them.
+    const values = row.getByTestId('catalogue-part-values');
+    expect(await values.textContent()).toMatch(/17°, collar 2.5 mm/);
+    expect(await values.getByTestId('catalogue-part-caution').getAttribute('title')).toMatch(
+      /manufacturer's instructions/,
+    );
+    await row.getByRole('button', { name: 'Edit' }).click();
+    await row.getByLabel(/Angle of TEX-41-MU17-25/).fill('50');
+    await row.getByLabel(/Collar height of TEX-41-MU17-25/).fill('3');
+    await row.getByRole('button', { name: 'Save' }).click();
+    await expect.poll(() => row.textContent()).toMatch(/From 0° \(straight\) to 45°/);
+    await row.getByLabel(/Angle of TEX-41-MU17-25/).fill('20');
+    await row.getByRole('button', { name: 'Save' }).click();
+    await expect.poll(() => row.textContent()).toMatch(/20°, collar 3 mm/);
+    await screenshot(page, 'catalogue-part-angle');
+    expect(h.problems.filter((p) => !/status of (400|401|404)/.test(p))).toEqual([]);
+  });
+});
+
+describe('the planner shows what the catalogue states (issue 16 §5)', () => {
+  it('beside a chosen multi-unit: its angle and collar height, with the manufacturer caution', async () => {
+    const page = await h.newPage();
+    await signInAs(page, 'ines.calloway@larkspur.example');
+    await page.getByTestId('patient-search').fill('Achterberg');
+    await page
+      .getByTestId('patients-table')
+      .getByRole('link', { name: /Achterberg/ })
+      .click();
+    await page.waitForURL(/\/patients\/[0-9a-f-]{36}$/);
+    await page.goto(`${new URL(page.url()).pathname}/restorations/new`);
+    await page.getByTestId('planner-sites').getByLabel(/^15 /).check({ force: true }); // Blueprint draws its own indicator over the input
+    await page.getByLabel('Retention').selectOption('screw-to-multi-unit');
+    const site15 = page.getByTestId('planner-site-15');
+    await site15
+      .getByLabel('Multi-unit abutment')
+      .selectOption({ label: 'Multi-unit abutment 0°, 2 mm collar [TEX-41-MU0-2], 35 N·cm ±10 %' });
+    const values = site15.getByTestId('planner-part-values');
+    await expect.poll(() => values.count()).toBe(1);
+    expect(await values.textContent()).toMatch(
+      /^Catalogue: angle 0°, collar 2 mm\. Torque values and compatibility are manufacturer-specific/,
+    );
+    await screenshot(page, 'planner-part-values');
+    expect(h.problems.filter((p) => !/status of (401|404)/.test(p))).toEqual([]);
+  });
+});
+
 describe('catalogue search (issue 15 §7)', () => {
   it('the dentist narrows the catalogue as he types; results stay grouped by system and platform', async () => {
     const page = await h.newPage();

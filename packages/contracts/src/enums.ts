@@ -9,8 +9,7 @@ import {
   IMPLANT_INTERFACES,
   IMPRESSION_COPINGS,
   IMPRESSION_METHODS,
-  MULTI_UNIT_ANGLES_DEG,
-  type MultiUnitAngleDeg as MultiUnitAngleDegValue,
+  PART_ANGLE_RANGE_DEG,
   PERI_IMPLANT_STATUSES,
   PROBING_POSITIONS,
   REMINDER_KINDS,
@@ -29,7 +28,6 @@ export {
   IMPLANT_INTERFACES,
   IMPRESSION_COPINGS,
   IMPRESSION_METHODS,
-  MULTI_UNIT_ANGLES_DEG,
   PERI_IMPLANT_STATUSES,
   PROBING_POSITIONS,
   REMINDER_KINDS,
@@ -181,13 +179,11 @@ export const ScanFileType = z.enum(SCAN_FILE_TYPES);
 export type ScanFileType = z.infer<typeof ScanFileType>;
 export const FindingSeverity = z.enum(FINDING_SEVERITIES);
 export type FindingSeverity = z.infer<typeof FindingSeverity>;
-/** 0, 17 or 30 degrees. */
-export const MultiUnitAngleDeg = z.union(
-  MULTI_UNIT_ANGLES_DEG.map((angle) => z.literal(angle)) as [
-    z.ZodLiteral<MultiUnitAngleDegValue>,
-    ...z.ZodLiteral<MultiUnitAngleDegValue>[],
-  ],
-);
+/** The multi-unit abutment's angle as its catalogue entry states it, degrees (no list of angles in code). */
+export const MultiUnitAngleDeg = z
+  .number({ error: 'Enter the angle in degrees' })
+  .min(PART_ANGLE_RANGE_DEG.min, { error: `At least ${PART_ANGLE_RANGE_DEG.min}°` })
+  .max(PART_ANGLE_RANGE_DEG.max, { error: `At most ${PART_ANGLE_RANGE_DEG.max}°` });
 export type MultiUnitAngleDeg = z.infer<typeof MultiUnitAngleDeg>;
 
 export const MATERIALS = [

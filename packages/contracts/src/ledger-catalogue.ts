@@ -1,6 +1,6 @@
 // Component catalogue and torque wrenches: the practice admin edits, everyone in the practice reads.
 import { z } from 'zod';
-import { CALIBRATION_INTERVAL_RANGE, isValidGtin, TORQUE_NCM_RANGE } from '@torquetrail/domain';
+import { CALIBRATION_INTERVAL_RANGE, isValidGtin, PART_ANGLE_RANGE_DEG, TORQUE_NCM_RANGE } from '@torquetrail/domain';
 import { Id, IsoDate, IsoDateTime, NoteText, PlainText } from './common.js';
 import { ComponentKind, Connection, Tray, WrenchType } from './enums.js';
 
@@ -89,10 +89,21 @@ export type CatalogueReply = z.infer<typeof CatalogueReply>;
 const name = PlainText(120).min(1, 'Required');
 /** Accepted ranges of catalogue values, inclusive; the web's inputs use the same. */
 export const PLATFORM_DIAMETER_MM_RANGE = Object.freeze({ min: 2, max: 10 } as const);
-export const PART_ANGLE_DEG_RANGE = Object.freeze({ min: 0, max: 45 } as const);
+/** The domain's range: the plan's rules accept every angle the catalogue accepts. */
+export const PART_ANGLE_DEG_RANGE = PART_ANGLE_RANGE_DEG;
 export const COLLAR_HEIGHT_MM_RANGE = Object.freeze({ min: 0, max: 10 } as const);
-const angleDeg = z.number().min(PART_ANGLE_DEG_RANGE.min).max(PART_ANGLE_DEG_RANGE.max);
-const collarHeightMm = z.number().min(COLLAR_HEIGHT_MM_RANGE.min).max(COLLAR_HEIGHT_MM_RANGE.max);
+const angleDeg = z
+  .number({ error: 'Enter the angle in degrees, e.g. 17' })
+  .min(PART_ANGLE_DEG_RANGE.min, {
+    error: `From ${PART_ANGLE_DEG_RANGE.min}° (straight) to ${PART_ANGLE_DEG_RANGE.max}°`,
+  })
+  .max(PART_ANGLE_DEG_RANGE.max, {
+    error: `From ${PART_ANGLE_DEG_RANGE.min}° (straight) to ${PART_ANGLE_DEG_RANGE.max}°`,
+  });
+const collarHeightMm = z
+  .number({ error: 'Enter the collar height in millimetres, e.g. 2.5' })
+  .min(COLLAR_HEIGHT_MM_RANGE.min, { error: `From ${COLLAR_HEIGHT_MM_RANGE.min} to ${COLLAR_HEIGHT_MM_RANGE.max} mm` })
+  .max(COLLAR_HEIGHT_MM_RANGE.max, { error: `From ${COLLAR_HEIGHT_MM_RANGE.min} to ${COLLAR_HEIGHT_MM_RANGE.max} mm` });
 /** An attachment's stated divergence tolerance between two implants, degrees, inclusive. */
 export const MAX_DIVERGENCE_DEG_RANGE = Object.freeze({ min: 0, max: 90 } as const);
 const maxDivergenceDeg = z

@@ -33,7 +33,7 @@ export const PlanSiteBody = z.object({
   siteId: Id,
   interface: InterfaceKind,
   impressionCoping: ImpressionCopingKind,
-  /** 0, 17 or 30 degrees; taken from the multi-unit abutment chosen when omitted. */
+  /** Degrees, as the catalogue states it; taken from the multi-unit abutment chosen when omitted. */
   multiUnitAngleDeg: MultiUnitAngleDeg.nullable().default(null),
   restorativeSpaceMm: z.number().min(0, 'Cannot be negative').max(40, 'At most 40 mm').nullable().default(null),
   /** Implant axis (direction vector); the placement record's axis is used when omitted. */
@@ -95,6 +95,12 @@ export function findingField(finding: Pick<Finding, 'code' | 'fdi'>, siteFdis: r
       return at('impressionCoping');
     case 'multi-unit-angle-without-abutment':
       return at('multiUnitAngleDeg');
+    case 'catalogue-multi-unit-angle-missing':
+      return at('multiUnitComponentId');
+    case 'catalogue-abutment-angle-missing':
+      return at('abutmentComponentId');
+    case 'catalogue-coping-engaging-missing':
+      return at('impressionCopingComponentId');
     case 'splinted-engaging-copings':
       return 'copingsSplinted';
     case 'divergence-over-limit':

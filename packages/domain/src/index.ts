@@ -217,8 +217,11 @@ export {
   ABUTMENT_LEVEL_RETENTIONS,
   IMPLANT_INTERFACES,
   IMPRESSION_COPINGS,
-  MULTI_UNIT_ANGLES_DEG,
+  PART_ANGLE_RANGE_DEG,
 } from './restoration-plan.js';
+/** Findings for chosen parts whose catalogue entry lacks a value a plan rule reads. */
+export { CATALOGUE_VALUE_FINDING_CODES, catalogueValueFindings, catalogueValuesRead } from './catalogue-values.js';
+export type { CatalogueValue, PartValues, SiteParts } from './catalogue-values.js';
 export { ACTIONABLE_SEVERITIES, FINDING_SEVERITIES } from './plan-findings.js';
 /** Overdenture kinds (on stud attachments, on a bar) and the catalogue facts their rules read. */
 export { OVERDENTURE_KINDS, isOverdentureKind } from './overdenture-plan.js';

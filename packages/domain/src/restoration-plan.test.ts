@@ -197,7 +197,7 @@ describe('divergence-over-limit — Jang HK et al. 2011 [pub]: accurate below ab
     expect(codes({ ...validSingle, sites: [{ ...validSingle.sites[0], axis: tilt(40) }] })).toEqual([]);
   });
   it('angled multi-units correct it [decision]: residual = divergence − (angle a + angle b)', () => {
-    const mua = (deg: number, a: 0 | 17 | 30, b: 0 | 17 | 30): RestorationPlan => ({
+    const mua = (deg: number, a: number, b: number): RestorationPlan => ({
       kind: 'splinted-bridge',
       retention: 'screw-to-multi-unit',
       sites: [
@@ -211,6 +211,9 @@ describe('divergence-over-limit — Jang HK et al. 2011 [pub]: accurate below ab
     expect(codes(mua(50, 17, 17))).toEqual([C.DIVERGENCE_OVER_LIMIT]); // residual 16°
     expect(codes(mua(20, 0, 0))).toEqual([C.DIVERGENCE_OVER_LIMIT]); // straight multi-units do not correct
     expect(validateRestorationPlan(mua(50, 0, 30))[0].message).toMatch(/20° remain/);
+    // Any angle the catalogue states is credited, not only 17° and 30° (catalogue-values.ts).
+    expect(codes(mua(37, 0, 22.5))).toEqual([]); // residual 14.5°
+    expect(codes(mua(38.5, 0, 22.5))).toEqual([C.DIVERGENCE_OVER_LIMIT]); // residual 16°
   });
   it('no correction without multi-unit retention', () => {
     expect(codes(bridge(20))).toEqual([C.DIVERGENCE_OVER_LIMIT]);
@@ -375,10 +378,17 @@ describe('malformed plans throw ValidationError', () => {
     ['zero axis', { ...validBridge, sites: [s(34, { axis: [0, 0, 0] }), s(36)] }],
     ['NaN axis', { ...validBridge, sites: [s(34, { axis: [Number.NaN, 0, 1] }), s(36)] }],
     [
-      'multi-unit angle 25',
+      'multi-unit angle 50, beyond the 0–45° a catalogue may state',
       {
         ...validFullArch,
-        sites: [{ ...validFullArch.sites[0], multiUnitAngleDeg: 25 }, ...validFullArch.sites.slice(1)],
+        sites: [{ ...validFullArch.sites[0], multiUnitAngleDeg: 50 }, ...validFullArch.sites.slice(1)],
+      },
+    ],
+    [
+      'negative multi-unit angle',
+      {
+        ...validFullArch,
+        sites: [{ ...validFullArch.sites[0], multiUnitAngleDeg: -5 }, ...validFullArch.sites.slice(1)],
       },
     ],
     ['copingsSplinted not boolean', { ...validBridge, copingsSplinted: 'yes' }],

@@ -77,10 +77,13 @@ export type ImplantInterface = (typeof IMPLANT_INTERFACES)[number];
 export const IMPRESSION_COPINGS = ['engaging', 'non-engaging', 'multi-unit'] as const;
 /** Impression coping used at a site. */
 export type ImpressionCoping = (typeof IMPRESSION_COPINGS)[number];
-/** Angles multi-unit abutments come in, degrees [common practice]. */
-export const MULTI_UNIT_ANGLES_DEG = [0, 17, 30] as const;
-/** Angle of a multi-unit abutment, degrees. */
-export type MultiUnitAngleDeg = (typeof MULTI_UNIT_ANGLES_DEG)[number];
+/**
+ * The angles a catalogue may state for a part, degrees, inclusive. The plan's rules take whatever angle
+ * the practice's catalogue states within it (catalogue-values.ts); no list of angles is kept in the code.
+ */
+export const PART_ANGLE_RANGE_DEG = Object.freeze({ min: 0, max: 45 } as const);
+/** Angle of a multi-unit abutment, degrees: the one its catalogue entry states. */
+export type MultiUnitAngleDeg = number;
 
 /**
  * True when the restoration can be taken off without cutting it: every retention but cement
@@ -155,6 +158,14 @@ function validateAttachment(part: AttachmentFacts, field: string): void {
   if (part.collarHeightMm !== null) requireNonNegative(part.collarHeightMm, `${field}.collarHeightMm`);
 }
 
+/** A multi-unit angle within the range a catalogue may state. */
+function requireAngle(value: unknown, field: string): void {
+  const deg = requireFinite(value, field);
+  const { min, max } = PART_ANGLE_RANGE_DEG;
+  if (deg < min || deg > max)
+    throw new ValidationError('out-of-range', `A multi-unit angle is from ${min}° to ${max}°; got ${fmt(deg)}°`, field);
+}
+
 function validateShape(plan: RestorationPlan): void {
   if (plan === null || typeof plan !== 'object') throw new ValidationError('bad-value', 'The plan is missing', 'plan');
   requireOneOf(plan.kind, RESTORATION_KINDS, 'plan.kind');
@@ -167,8 +178,7 @@ function validateShape(plan: RestorationPlan): void {
     requireFinite(site.fdi, `${f}.fdi`);
     requireOneOf(site.interface, IMPLANT_INTERFACES, `${f}.interface`);
     requireOneOf(site.impressionCoping, IMPRESSION_COPINGS, `${f}.impressionCoping`);
-    if (site.multiUnitAngleDeg !== undefined)
-      requireOneOf(site.multiUnitAngleDeg, MULTI_UNIT_ANGLES_DEG, `${f}.multiUnitAngleDeg`);
+    if (site.multiUnitAngleDeg !== undefined) requireAngle(site.multiUnitAngleDeg, `${f}.multiUnitAngleDeg`);
     if (site.restorativeSpaceMm !== undefined) requireNonNegative(site.restorativeSpaceMm, `${f}.restorativeSpaceMm`);
     if (site.axis !== undefined) validateAxis(site.axis, `${f}.axis`);
     if (site.attachment !== undefined && site.attachment !== null)
@@ -180,7 +190,7 @@ function validateShape(plan: RestorationPlan): void {
  * Validates a restoration plan. Returns `[]` for a valid plan, otherwise the findings (errors first in the
  * order of the checks: site list, connections and impressions per site, divergence, restorative space).
  * @throws ValidationError for a malformed plan (unknown kind/retention/interface/coping, non-finite numbers,
- *   a negative restorative space, a zero or non-finite axis, a multi-unit angle other than 0, 17 or 30)
+ *   a negative restorative space, a zero or non-finite axis, a multi-unit angle outside 0–45°)
  */
 export function validateRestorationPlan(plan: RestorationPlan): Finding[] {
   validateShape(plan);

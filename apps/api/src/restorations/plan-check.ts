@@ -12,8 +12,10 @@ import {
   findingField,
 } from '@torquetrail/contracts';
 import {
+  catalogueValueFindings,
   type Finding,
   type RestorationPlan,
+  type SiteParts,
   ValidationError,
   type Vec3,
   validateRestorationPlan,
@@ -83,6 +85,7 @@ export function checkPlan(
   const fields: Record<string, string> = {};
   const sites: CheckedSite[] = [];
   const planSites: RestorationPlan['sites'] = [];
+  const siteParts: SiteParts[] = [];
 
   body.sites.forEach((s, i) => {
     const site = patientSites.find((p) => p.siteId === s.siteId);
@@ -129,14 +132,22 @@ export function checkPlan(
       fields[`sites.${i}.impressionCopingComponentId`] =
         `${coping.name} is ${coping.engaging ? 'engaging' : 'non-engaging'}, but the impression technique says ${s.impressionCoping}`;
     }
+    // The angle is the one the catalogue states for the chosen multi-unit; one entered for the site
+    // must agree with it. A part whose catalogue entry states none is a Finding (catalogue-values.ts).
     let angle = s.multiUnitAngleDeg;
     const mua = chosen.multiUnitComponentId;
-    if (mua) {
-      const muaAngle = mua.angleDeg === 0 || mua.angleDeg === 17 || mua.angleDeg === 30 ? mua.angleDeg : null;
-      if (angle === null) angle = muaAngle;
-      else if (muaAngle !== null && muaAngle !== angle)
-        fields[`sites.${i}.multiUnitAngleDeg`] = `${mua.name} is ${muaAngle}°, not ${angle}°`;
+    if (mua && mua.angleDeg !== null) {
+      if (angle === null) angle = mua.angleDeg;
+      else if (mua.angleDeg !== angle)
+        fields[`sites.${i}.multiUnitAngleDeg`] = `${mua.name} is ${mua.angleDeg}°, not ${angle}°`;
     }
+    siteParts.push({
+      fdi: site.fdi,
+      ...(mua ? { multiUnit: mua } : {}),
+      ...(chosen.abutmentComponentId ? { abutment: chosen.abutmentComponentId } : {}),
+      ...(coping ? { impressionCoping: coping } : {}),
+      enteredMultiUnitAngleDeg: s.multiUnitAngleDeg,
+    });
     const axis = s.axis ?? axisOf(site);
     const attachment = chosen.attachmentComponentId;
     sites.push({
@@ -169,12 +180,15 @@ export function checkPlan(
 
   let findings: Finding[];
   try {
-    findings = validateRestorationPlan({
-      kind: body.kind,
-      retention: body.retention,
-      copingsSplinted: body.copingsSplinted,
-      sites: planSites,
-    });
+    findings = [
+      ...validateRestorationPlan({
+        kind: body.kind,
+        retention: body.retention,
+        copingsSplinted: body.copingsSplinted,
+        sites: planSites,
+      }),
+      ...catalogueValueFindings(body, siteParts),
+    ];
   } catch (error) {
     if (error instanceof ValidationError) {
       const field = (error.field ?? 'sites').replace(/^plan\./, '').replace(/\[(\d+)\]/g, '.$1');

@@ -82,7 +82,8 @@ export const restorationSites = pgTable(
       .references(() => implantSites.id),
     interface: interfaceEnum('interface').notNull(),
     impressionCoping: impressionCopingEnum('impression_coping').notNull(),
-    multiUnitAngleDeg: smallint('multi_unit_angle_deg'),
+    /** As the catalogue states the multi-unit's angle (one decimal, like components.angle_deg). */
+    multiUnitAngleDeg: numeric('multi_unit_angle_deg', { precision: 4, scale: 1, mode: 'number' }),
     restorativeSpaceMm: numeric('restorative_space_mm', { precision: 4, scale: 1, mode: 'number' }),
     /** Implant axis entered in the planner (direction vector), when not taken from the placement. */
     axisX: numeric('axis_x', { mode: 'number' }),

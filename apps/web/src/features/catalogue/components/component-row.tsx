@@ -1,6 +1,13 @@
-import { Button } from '@blueprintjs/core';
-import { type CatalogueComponent, ComponentPatch, TOLERANCE_PCT_RANGE } from '@torquetrail/contracts';
-import { TORQUE_NCM_RANGE } from '@torquetrail/domain';
+import { Button, Icon } from '@blueprintjs/core';
+import {
+  type CatalogueComponent,
+  COLLAR_HEIGHT_MM_RANGE,
+  ComponentPatch,
+  MANUFACTURER_CAUTION,
+  PART_ANGLE_DEG_RANGE,
+  TOLERANCE_PCT_RANGE,
+} from '@torquetrail/contracts';
+import { catalogueValuesRead, TORQUE_NCM_RANGE } from '@torquetrail/domain';
 import { useState } from 'react';
 import { FormProvider } from 'react-hook-form';
 import { Can } from '../../../lib/ability';
@@ -14,13 +21,29 @@ import { runMutation } from '../../../lib/run-mutation';
 interface SpecDraft {
   torqueSpecNcm: number | null;
   tolerancePct: number | null;
+  angleDeg: number | null;
+  collarHeightMm: number | null;
 }
 
-// An emptied tolerance is no number: the contract says so beside the field.
+// An emptied tolerance is no number: the contract says so beside the field. An emptied angle or
+// collar height is "not stated" (null), which the planner then reports as a Finding where a rule needs it.
 const schema = draftSchema(ComponentPatch, (d: SpecDraft) => ({
   torqueSpecNcm: d.torqueSpecNcm,
   tolerancePct: d.tolerancePct ?? Number.NaN,
+  angleDeg: d.angleDeg,
+  collarHeightMm: d.collarHeightMm,
 }));
+
+/** The angle and collar height as the catalogue states them, and what a rule reads but is not stated. */
+function statedValues(part: CatalogueComponent): string {
+  const facts: string[] = [];
+  if (part.angleDeg !== null) facts.push(`${part.angleDeg}°`);
+  else if (catalogueValuesRead(part.kind).includes('angleDeg')) facts.push('angle not stated');
+  if (part.collarHeightMm !== null) facts.push(`collar ${part.collarHeightMm} mm`);
+  if (part.engaging === null && catalogueValuesRead(part.kind).includes('engaging'))
+    facts.push('engaging or not: not stated');
+  return facts.map((f) => `, ${f}`).join('');
+}
 
 /**
  * One part: its torque specification and tolerance, editable by the practice admin. The row is a
@@ -31,7 +54,12 @@ export function ComponentRow({ part }: { part: CatalogueComponent }) {
   const [showHistory, setShowHistory] = useState(false);
   useCloseOnEscape(editing, () => setEditing(false));
   const versions = useComponentVersions(part.id, showHistory);
-  const form = useContractForm(schema, { torqueSpecNcm: part.torqueSpecNcm, tolerancePct: part.tolerancePct });
+  const form = useContractForm(schema, {
+    torqueSpecNcm: part.torqueSpecNcm,
+    tolerancePct: part.tolerancePct,
+    angleDeg: part.angleDeg,
+    collarHeightMm: part.collarHeightMm,
+  });
   const save = useSaveComponent();
   const submit = form.handleSubmit((body) =>
     runMutation(
@@ -49,8 +77,42 @@ export function ComponentRow({ part }: { part: CatalogueComponent }) {
         <td>
           {part.engaging === null ? '—' : INTERFACE_LABEL[part.engaging ? 'engaging' : 'non-engaging'].toLowerCase()}
           {part.tray ? `, ${TRAY_LABEL[part.tray].toLowerCase()}` : ''}
-          {part.angleDeg ? `, ${part.angleDeg}°` : ''}
-          {part.collarHeightMm ? `, collar ${part.collarHeightMm} mm` : ''}
+          {editing ? (
+            <>
+              <NumberInput
+                name="angleDeg"
+                buttonPosition="none"
+                aria-label={`Angle of ${part.referenceCode} (°, empty = not stated)`}
+                min={PART_ANGLE_DEG_RANGE.min}
+                max={PART_ANGLE_DEG_RANGE.max}
+                intent={errorAt(form.formState.errors, 'angleDeg') ? 'danger' : 'none'}
+              />
+              <FieldError name="angleDeg" className="planner-error" />
+              <NumberInput
+                name="collarHeightMm"
+                buttonPosition="none"
+                aria-label={`Collar height of ${part.referenceCode} (mm, empty = not stated)`}
+                min={COLLAR_HEIGHT_MM_RANGE.min}
+                max={COLLAR_HEIGHT_MM_RANGE.max}
+                intent={errorAt(form.formState.errors, 'collarHeightMm') ? 'danger' : 'none'}
+              />
+              <FieldError name="collarHeightMm" className="planner-error" />
+            </>
+          ) : (
+            statedValues(part) && (
+              <span aria-describedby="catalogue-caution" data-testid="catalogue-part-values">
+                {statedValues(part)}{' '}
+                <span
+                  role="img"
+                  aria-label={MANUFACTURER_CAUTION}
+                  title={MANUFACTURER_CAUTION}
+                  data-testid="catalogue-part-caution"
+                >
+                  <Icon icon="warning-sign" size={12} />
+                </span>
+              </span>
+            )
+          )}
           {part.kind === 'attachment-abutment'
             ? part.maxDivergenceDeg === null
               ? ', divergence tolerance not stated'

@@ -113,7 +113,7 @@ export function CatalogueRoute() {
     <div className="catalogue-page">
       <title>Component catalogue · Torquetrail</title>
       <h1>Component catalogue</h1>
-      <Callout intent="warning" icon="info-sign" data-testid="catalogue-caution">
+      <Callout intent="warning" icon="info-sign" data-testid="catalogue-caution" id="catalogue-caution">
         {catalogue.data.caution} The values here are what the practice entered.
       </Callout>
       {catalogue.data.systems.length === 0 && <p>This practice has no catalogue yet.</p>}

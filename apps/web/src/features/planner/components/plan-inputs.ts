@@ -2,7 +2,7 @@
 // evaluate is read here, so a value they cannot evaluate becomes a Finding in the list (and a
 // message beside its field) instead of vanishing: the list and the Save button then agree.
 import type { CatalogueComponent, Finding, RestorableSite } from '@torquetrail/contracts';
-import { MULTI_UNIT_ANGLES_DEG, type MultiUnitAngleDeg, type Vec3 } from '@torquetrail/domain';
+import type { MultiUnitAngleDeg, Vec3 } from '@torquetrail/domain';
 
 /** Codes of the Findings about inputs (not clinical rules: they say which value the rules could not read). */
 export const INPUT_FINDING_CODES = Object.freeze({
@@ -12,8 +12,6 @@ export const INPUT_FINDING_CODES = Object.freeze({
   PARTIAL_AXIS: 'input-partial-axis',
   /** The value is a number the rules refuse (a zero axis, a negative space). */
   NOT_EVALUATED: 'input-not-evaluated',
-  /** The chosen multi-unit abutment's angle is one the divergence rule does not know. */
-  ANGLE_NOT_JUDGED: 'input-angle-not-judged',
 } as const);
 
 const AXIS_NAMES = ['x', 'y', 'z'] as const;
@@ -91,20 +89,13 @@ export function readSiteInputs(
     }
   }
 
-  const angle = multiUnit?.angleDeg ?? null;
-  const known = (MULTI_UNIT_ANGLES_DEG as readonly number[]).includes(angle ?? Number.NaN);
-  if (multiUnit && !known) {
-    findings.push({
-      severity: 'info',
-      code: INPUT_FINDING_CODES.ANGLE_NOT_JUDGED,
-      fdi: site.fdi,
-      message: `${at}: the angle of ${multiUnit.name} (${angle === null ? 'not recorded in the catalogue' : `${angle}°`}) is not one the divergence check knows (${MULTI_UNIT_ANGLES_DEG.join('°, ')}°), so it is judged as a straight abutment.`,
-    });
-  }
+  // The angle the catalogue states for the chosen multi-unit, whatever it is; a part that states
+  // none is a Finding of catalogueValueFindings (the domain's), not of the inputs.
+  const angle: MultiUnitAngleDeg | null = multiUnit?.angleDeg ?? null;
   return {
     restorativeSpaceMm: space,
     axis,
-    multiUnitAngleDeg: known ? (angle as MultiUnitAngleDeg) : null,
+    multiUnitAngleDeg: angle,
     findings,
     invalid,
   };

@@ -144,17 +144,27 @@ describe('inputs the rules cannot evaluate are Findings', () => {
     expect(findings[0].message).toMatch(/has no y or z/);
     expect(invalid).toEqual({ 'sites.1.axis': 'Enter y and z too' });
   });
-  it('a multi-unit whose angle the rule does not know is a note, judged straight', () => {
+  it('any angle the catalogue states is credited: two 25° multi-units correct 30° of divergence (Jang 2011 limit)', () => {
     const mua25: CatalogueComponent = { ...mua17, id: 'm25', name: 'MUA 25', angleDeg: 25 };
     const parts = new Map([[mua25.id, mua25]]);
     const state = bridge({ retention: 'screw-to-multi-unit' });
     state.sites = state.sites.map((s) => ({ ...s, impressionCoping: 'multi-unit', multiUnitComponentId: 'm25' }));
+    // 30° − (25° + 25°) → 0° residual; each implant is 30° from the other, so the angle is called for.
+    expect(liveFindings(state, sites, parts).findings).toEqual([]);
+    expect(toBody('pid', state, parts, sites).sites.map((s) => s.multiUnitAngleDeg)).toEqual([25, 25]);
+  });
+  it('a multi-unit whose catalogue states no angle is a warning at its site, judged straight', () => {
+    const unstated: CatalogueComponent = { ...mua17, id: 'mx', name: 'MUA unstated', angleDeg: null };
+    const parts = new Map([[unstated.id, unstated]]);
+    const state = bridge({ retention: 'screw-to-multi-unit' });
+    state.sites = state.sites.map((s) => ({ ...s, impressionCoping: 'multi-unit', multiUnitComponentId: 'mx' }));
     const { findings } = liveFindings(state, sites, parts);
-    expect(findings.map((f) => [f.severity, f.code])).toEqual([
-      ['warning', 'divergence-over-limit'],
-      ['info', 'input-angle-not-judged'],
-      ['info', 'input-angle-not-judged'],
+    expect(findings.map((f) => [f.severity, f.code, f.fdi])).toEqual([
+      ['warning', 'divergence-over-limit', undefined],
+      ['warning', 'catalogue-multi-unit-angle-missing', 15],
+      ['warning', 'catalogue-multi-unit-angle-missing', 16],
     ]);
-    expect(findings[1].message).toMatch(/MUA 25 \(25°\) is not one the divergence check knows/);
+    expect(findings[1].message).toMatch(/^Site 15: the catalogue does not state the angle of MUA unstated\./);
+    expect(toBody('pid', state, parts, sites).sites.map((s) => s.multiUnitAngleDeg)).toEqual([null, null]);
   });
 });

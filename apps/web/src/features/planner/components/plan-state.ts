@@ -18,7 +18,9 @@ import {
 import {
   ABUTMENT_LEVEL_RETENTIONS,
   isOverdentureKind,
+  catalogueValueFindings,
   type RestorationPlan,
+  type SiteParts,
   ValidationError,
   type Vec3,
   validateRestorationPlan,
@@ -186,7 +188,11 @@ export function liveFindings(
     }),
   };
   try {
-    return { findings: [...validateRestorationPlan(plan), ...notes], invalid: {} };
+    const rules = [
+      ...validateRestorationPlan(plan),
+      ...catalogueValueFindings(state, chosenParts(state, sites, catalogue)),
+    ];
+    return { findings: [...rules, ...notes], invalid: {} };
   } catch (error) {
     if (error instanceof ValidationError) {
       const field = (error.field ?? 'sites').replace(/^plan\./, '').replace(/\[(\d+)\]/g, '.$1');
@@ -202,6 +208,27 @@ export function liveFindings(
     }
     throw error;
   }
+}
+
+/** The catalogue parts chosen at each site in the slots the retention uses, for catalogueValueFindings. */
+function chosenParts(
+  state: PlanState,
+  sites: RestorableSite[],
+  catalogue: Map<string, CatalogueComponent>,
+): SiteParts[] {
+  const onMua = state.retention === 'screw-to-multi-unit';
+  const onAbutment = ABUTMENT_LEVEL_RETENTIONS.includes(state.retention);
+  return state.sites.map((s) => {
+    const multiUnit = onMua ? catalogue.get(s.multiUnitComponentId) : undefined;
+    const abutment = onAbutment ? catalogue.get(s.abutmentComponentId) : undefined;
+    const impressionCoping = catalogue.get(s.impressionCopingComponentId);
+    return {
+      fdi: sites.find((x) => x.siteId === s.siteId)?.fdi ?? 0,
+      ...(multiUnit ? { multiUnit } : {}),
+      ...(abutment ? { abutment } : {}),
+      ...(impressionCoping ? { impressionCoping } : {}),
+    };
+  });
 }
 
 /** The axis each chosen site is judged with (typed and completed, or its placement's), for the divergence table. */

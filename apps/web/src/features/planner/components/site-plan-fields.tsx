@@ -16,6 +16,7 @@ import { FormField } from '../../../lib/forms';
 import type { ToothSystem } from '../../../lib/tooth-system';
 import type { SitePlan } from './plan-state';
 import { CONNECTION_LABEL, IMPRESSION_COPING_LABEL, INTERFACE_LABEL } from '../../../lib/clinical-labels';
+import { PartValues } from './part-values';
 
 const spec = (c: CatalogueComponent) =>
   c.torqueSpecNcm === null ? 'hand-tight' : `${c.torqueSpecNcm} N·cm ±${c.tolerancePct} %`;
@@ -49,6 +50,7 @@ export function SitePlanFields({ index, site, plan, retention, kind, parts, syst
   /** A field's error paths (the first names it) and its live message. */
   const err = (...fields: string[]) => ({ name: fields.map(key), live: fields.map((f) => live[key(f)]).find(Boolean) });
   const of = (...kinds: ComponentKind[]) => parts.filter((p) => kinds.includes(p.kind));
+  const byId = (partId: string) => parts.find((p) => p.id === partId);
   const copings = of('impression-coping').filter((c) =>
     plan.impressionCoping === 'engaging' ? c.engaging === true : c.engaging !== true,
   );
@@ -127,6 +129,7 @@ export function SitePlanFields({ index, site, plan, retention, kind, parts, syst
                 </option>
               ))}
             </HTMLSelect>
+            <PartValues part={byId(plan.multiUnitComponentId)} />
           </FormField>
         ) : ABUTMENT_LEVEL_RETENTIONS.includes(retention) ? (
           <FormField label="Abutment" labelFor={id('abutment')} {...err('abutmentComponentId')}>
@@ -142,6 +145,7 @@ export function SitePlanFields({ index, site, plan, retention, kind, parts, syst
                 </option>
               ))}
             </HTMLSelect>
+            <PartValues part={byId(plan.abutmentComponentId)} />
           </FormField>
         ) : null}
         {kind === 'overdenture-studs' && (

@@ -1,0 +1,1 @@
+ALTER TABLE "restoration_sites" ALTER COLUMN "multi_unit_angle_deg" SET DATA TYPE numeric(4, 1);
