@@ -72,10 +72,10 @@ describe('referral summary PDF', () => {
       'Restoration delivered 2012-09-20: splinted bridge, screw to implant, zirconia; retrievable',
     );
     expect(text).toContain('lot PSI-1209-33');
-    expect(text).toMatch(/Last recall: health on \d{4}-\d{2}-\d{2}/);
-    expect(text).toMatch(/Bone level \(mm from the platform\): \d{4}-\d{2}-\d{2} \d+\.\d mm/);
+    expect(text).toMatch(/Last recall: health on \d{1,2} [A-Z][a-z]{2,3} \d{4}/);
+    expect(text).toMatch(/Bone level \(mm from the platform\): \d{1,2} [A-Z][a-z]{2,3} \d{4} \d+\.\d mm/);
     // Seeded readings start at the first recall after loading: 0.8 mm then, 1.1 mm at the latest.
-    expect(text).toMatch(/Change since loading \(from the reading of \d{4}-\d{2}-\d{2}\): loss of 0\.3 mm/);
+    expect(text).toMatch(/Change since loading \(from the reading of \d{1,2} [A-Z][a-z]{2,3} \d{4}\): loss of 0\.3 mm/);
   });
 
   it('a cemented crown is "not retrievable"; the shared surgeon may download, the hygienist may not', async () => {

@@ -6,6 +6,7 @@ export * from './common.js';
 export { plainWordingProblems } from './plain-messages.js';
 export { badInputs, fieldNames, requestSchemas } from './contract-walk.js';
 export * from './enums.js';
+export * from './dates.js';
 export * from './auth.js';
 export * from './health.js';
 export * from './patients.js';
