@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { ISO_DATE_MESSAGE } from './common.js';
 
 /**
  * The product's own words for every problem a contract can find, used wherever a schema gives no
@@ -12,7 +13,7 @@ const FORMATS: Record<string, string> = {
   email: 'Enter an e-mail address such as name@example.org',
   uuid: 'Choose an entry from the list',
   guid: 'Choose an entry from the list',
-  date: 'Enter a date as YYYY-MM-DD',
+  date: ISO_DATE_MESSAGE,
   datetime: 'Enter a date and time',
   time: 'Enter a time as HH:MM',
   url: 'Enter a web address starting with https://',

@@ -53,6 +53,11 @@ export function formatDate(iso: string): string {
   return writeCalendarDate(iso, practiceFormat);
 }
 
+/** A calendar date in a given order, for showing the choices of the practice's setting. */
+export function formatDateAs(iso: string, format: DateFormat): string {
+  return writeCalendarDate(iso, format);
+}
+
 /** An instant (ISO 8601 with offset) in the viewer's time zone. */
 export function formatDateTime(iso: string): string {
   return writeInstant(iso, practiceFormat);
