@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { plainMessage } from './plain-messages.js';
+import { ISO_DATE_MESSAGE, plainMessage } from './plain-messages.js';
 
 // Installed here, in a module every contract imports, so no entry point can forget it (a
 // side-effect-only module could be dropped by the bundler: the package declares no side effects).
@@ -17,8 +17,6 @@ export const DATE_RANGE = Object.freeze({ min: '1900-01-01', max: '2100-12-31' }
 const dateRangeMessage = `Enter a date between ${DATE_RANGE.min} and ${DATE_RANGE.max}`;
 
 /** A calendar date as YYYY-MM-DD (no time zone), within DATE_RANGE. */
-/** What a client is told of a date that is not YYYY-MM-DD; the web says why in the practice's format instead. */
-export const ISO_DATE_MESSAGE = 'Enter a date as YYYY-MM-DD';
 export const IsoDate = z.iso
   .date({ error: ISO_DATE_MESSAGE })
   .refine((s) => s >= DATE_RANGE.min && s <= DATE_RANGE.max, { error: dateRangeMessage });

@@ -1,5 +1,4 @@
 import { z } from 'zod';
-import { ISO_DATE_MESSAGE } from './common.js';
 
 /**
  * The product's own words for every problem a contract can find, used wherever a schema gives no
@@ -8,6 +7,9 @@ import { ISO_DATE_MESSAGE } from './common.js';
  * path: the message sits beside the field, and the field's label says which one it is.
  */
 type Issue = z.core.$ZodRawIssue;
+
+/** What a client is told of a date that is not YYYY-MM-DD; the web says why in the practice's format instead. */
+export const ISO_DATE_MESSAGE = 'Enter a date as YYYY-MM-DD';
 
 const FORMATS: Record<string, string> = {
   email: 'Enter an e-mail address such as name@example.org',

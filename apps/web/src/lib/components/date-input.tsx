@@ -46,15 +46,24 @@ export function DateInput({ value, onChange, onBlur, placeholder, disabled, read
       shouldReturnFocusOnClose
       disabled={disabled || readOnly}
       content={
-        <Suspense fallback={<Spinner size={20} aria-label="Loading the calendar" />}>
-          <DateCalendar
-            value={parseDate(text)}
-            onPick={(iso) => {
-              take(formatDate(iso));
-              setCalendarOpen(false);
-            }}
-          />
-        </Suspense>
+        // Escape closes the calendar alone, not the form around it (lib/use-close-on-escape.ts).
+        <div
+          onKeyDown={(event) => {
+            if (event.key !== 'Escape') return;
+            event.preventDefault();
+            setCalendarOpen(false);
+          }}
+        >
+          <Suspense fallback={<Spinner size={20} aria-label="Loading the calendar" />}>
+            <DateCalendar
+              value={parseDate(text)}
+              onPick={(iso) => {
+                take(formatDate(iso));
+                setCalendarOpen(false);
+              }}
+            />
+          </Suspense>
+        </div>
       }
     >
       <Button
