@@ -87,9 +87,11 @@ describe('the practice date format', () => {
 
     // Saved and shown on the Timeline month first.
     await page.getByRole('button', { name: 'Save complication' }).click();
-    await expect.poll(() => page.locator('.complication-form').count()).toBe(0);
+    await expect.poll(() => page.locator('.complication-form').count(), { timeout: 15_000 }).toBe(0);
     const events = page.locator('[data-testid="timeline-event"][data-kind="complication"]');
-    await expect.poll(() => events.allTextContents()).toContainEqual(expect.stringContaining('Jan 9, 2026'));
+    await expect
+      .poll(() => events.allTextContents(), { timeout: 10_000 })
+      .toContainEqual(expect.stringContaining('Jan 9, 2026'));
     expect(warnings.filter((m) => !/status of (400|401)/.test(m))).toEqual([]);
   }, 180_000);
 });

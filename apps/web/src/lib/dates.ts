@@ -23,10 +23,6 @@ export function setDateFormat(format: DateFormat): void {
   practiceFormat = format;
 }
 
-export function dateFormat(): DateFormat {
-  return practiceFormat;
-}
-
 /** What to type, for placeholders: "12/03/2026 or 12 Mar 2026". */
 export function dateTypingExample(): string {
   return DATE_TYPING_EXAMPLE[practiceFormat];

@@ -1,4 +1,4 @@
-import { Button, InputGroup, type InputGroupProps, Popover, Spinner } from '@blueprintjs/core';
+import { Button, InputGroup, type InputGroupProps, PopoverNext, Spinner } from '@blueprintjs/core';
 import { lazy, Suspense, useState } from 'react';
 import { dateTypingExample, formatDate, parseDate } from '../dates';
 
@@ -39,7 +39,7 @@ export function DateInput({ value, onChange, onBlur, placeholder, disabled, read
     onChange(out);
   };
   const calendar = (
-    <Popover
+    <PopoverNext
       isOpen={calendarOpen}
       onInteraction={(open) => setCalendarOpen(open)}
       placement="bottom-end"
@@ -73,7 +73,7 @@ export function DateInput({ value, onChange, onBlur, placeholder, disabled, read
         aria-expanded={calendarOpen}
         disabled={disabled || readOnly}
       />
-    </Popover>
+    </PopoverNext>
   );
   return (
     <InputGroup

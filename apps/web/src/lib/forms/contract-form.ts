@@ -53,7 +53,7 @@ export function useContractForm<Values extends FieldValues, Body>(
   defaultValues: DefaultValues<Values>,
   { keepDraft = true }: { keepDraft?: boolean } = {},
 ) {
-  const contract = zodResolver(schema) as Resolver<Values, unknown, Body>;
+  const contract = zodResolver<Values, unknown, Body>(schema);
   const resolver: Resolver<Values, unknown, Body> = async (values, context, options) => {
     const result = await contract(values, context, options);
     explainDateErrors(result.errors, values);
