@@ -185,7 +185,7 @@ describe('the practice sign-in settings', () => {
     const res = await ctx.http
       .put('/api/practice/session-settings')
       .set('Cookie', admin)
-      .send({ idleSignOutMinutes: 30 });
+      .send({ idleSignOutMinutes: 30, dateFormat: 'day-month-year' });
     expect(res.status).toBe(200);
     const hygienist = await signIn(ctx, 'hygienist');
     const me = await ctx.http.get('/api/auth/me').set('Cookie', hygienist);
@@ -193,9 +193,12 @@ describe('the practice sign-in settings', () => {
     const bad = await ctx.http
       .put('/api/practice/session-settings')
       .set('Cookie', admin)
-      .send({ idleSignOutMinutes: 1 });
+      .send({ idleSignOutMinutes: 1, dateFormat: 'day-month-year' });
     expect(bad.status).toBe(400);
     expect(bad.body.fields.idleSignOutMinutes).toMatch(/2 to 120 minutes/);
-    await ctx.http.put('/api/practice/session-settings').set('Cookie', admin).send({ idleSignOutMinutes: 15 });
+    await ctx.http
+      .put('/api/practice/session-settings')
+      .set('Cookie', admin)
+      .send({ idleSignOutMinutes: 15, dateFormat: 'day-month-year' });
   });
 });

@@ -5,6 +5,7 @@
 import { and, asc, eq, isNull, sql } from 'drizzle-orm';
 import { PDFParse } from 'pdf-parse';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { writeCalendarDate } from '@torquetrail/contracts';
 import { fdiToUniversal, gtinCheckDigit, parseUdi } from '@torquetrail/domain';
 import {
   auditEvents,
@@ -187,14 +188,14 @@ describe('implant passport', () => {
       for (const page of pages) {
         expect(page).toContain(`${patient.givenName} ${patient.familyName}`);
         expect(page).toContain(`chart ${chart}`);
-        expect(page).toContain(`born ${patient.birthDate}`);
+        expect(page).toContain(`born ${writeCalendarDate(patient.birthDate, 'day-month-year')}`);
         expect(page).toContain('Larkspur Lane Dental');
-        expect(page).toMatch(/printed by Dr Ines Calloway on \d{4}-\d{2}-\d{2}/);
+        expect(page).toMatch(/printed by Dr Ines Calloway on \d{1,2} [A-Z][a-z]{2,3} \d{4}/);
       }
       expect(text).toContain('Phone +44 20 7946 0123');
       for (const i of await implantsOf(chart)) {
         expect(text).toContain(`Implant at tooth ${i.fdi} (FDI) / ${fdiToUniversal(i.fdi)} (Universal)`);
-        expect(text).toContain(`Placed on ${i.placedOn}`);
+        expect(text).toContain(`Placed on ${writeCalendarDate(i.placedOn, 'day-month-year')}`);
         expect(text).toContain(`System: ${i.system}`);
         expect(text).toContain(`platform ${i.platform}`);
         expect(text).toContain(`Size: ${i.diameterMm} mm wide × ${i.lengthMm} mm long`);
@@ -224,8 +225,8 @@ describe('implant passport', () => {
     ).join(' ');
     expect(harold).toContain('screwed directly onto the implant');
     expect(harold).toContain('a dentist can unscrew and remove it (retrievable)');
-    expect(harold).toMatch(/Prosthetic screw: .*tightened to \d+(\.\d)? N·cm on \d{4}-\d{2}-\d{2}/);
-    expect(harold).toMatch(/Your next check-up is due on \d{4}-\d{2}-\d{2}\./);
+    expect(harold).toMatch(/Prosthetic screw: .*tightened to \d+(\.\d)? N·cm on \d{1,2} [A-Z][a-z]{2,3} \d{4}/);
+    expect(harold).toMatch(/Your next check-up is due on \d{1,2} [A-Z][a-z]+ \d{4}\./);
   });
 });
 
@@ -247,7 +248,7 @@ describe('retrieval card', () => {
         );
         expect(page).toContain('Parts chain, from the implant outward');
         expect(page).toMatch(
-          /Date of the last torque on this site: \d{4}-\d{2}-\d{2}|No torque is recorded on this site/,
+          /Date of the last torque on this site: \d{1,2} [A-Z][a-z]{2,3} \d{4}|No torque is recorded on this site/,
         );
         expect(page).toContain("manufacturer's instructions");
         expect(page).toContain(`chart ${chart}`);

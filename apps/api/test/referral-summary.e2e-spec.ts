@@ -2,11 +2,15 @@
 // attachment through the job queue and the SMTP catcher, once per press (idempotency key), and
 // listed in the audit trail. SMTP down: referral-summary-smtp-down.e2e-spec.ts.
 import { eq, sql } from 'drizzle-orm';
+import { writeCalendarDate } from '@torquetrail/contracts';
 import { PDFParse } from 'pdf-parse';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { patientShares, referralSummaryMails } from '../src/db/schema/index.js';
 import { until } from './support/recalls.js';
 import { ACCOUNTS, patientId, signInAll, startTestApp, type TestContext } from './support/test-app.js';
+
+/** The demo practice writes dates day-month-year (its default). */
+const dmy = (iso: string) => writeCalendarDate(iso, 'day-month-year');
 
 interface Caught {
   headers: Record<string, string>;
@@ -65,17 +69,19 @@ describe('referral summary PDF', () => {
     expect(text).toContain('chart LL-1001');
     // FDI 35 → Universal 20, 36 → 19 (HL7 ADA Universal table).
     expect(text).toContain('Site 35 (FDI) / 20 (Universal): in function');
-    expect(text).toContain('Site 36 (FDI) / 19 (Universal): failed on 2012-06-05');
-    expect(text).toContain('Placed 2012-03-14 by Dr Rafael Imbert (Northgate Oral Surgery): Solvra CN (Solvra Dental)');
+    expect(text).toContain(`Site 36 (FDI) / 19 (Universal): failed on ${dmy('2012-06-05')}`);
+    expect(text).toContain(
+      `Placed ${dmy('2012-03-14')} by Dr Rafael Imbert (Northgate Oral Surgery): Solvra CN (Solvra Dental)`,
+    );
     expect(text).toContain('lot SCN4310-12A07');
     expect(text).toContain(
-      'Restoration delivered 2012-09-20: splinted bridge, screw to implant, zirconia; retrievable',
+      `Restoration delivered ${dmy('2012-09-20')}: splinted bridge, screw to implant, zirconia; retrievable`,
     );
     expect(text).toContain('lot PSI-1209-33');
-    expect(text).toMatch(/Last recall: health on \d{4}-\d{2}-\d{2}/);
-    expect(text).toMatch(/Bone level \(mm from the platform\): \d{4}-\d{2}-\d{2} \d+\.\d mm/);
+    expect(text).toMatch(/Last recall: health on \d{1,2} [A-Z][a-z]{2,3} \d{4}/);
+    expect(text).toMatch(/Bone level \(mm from the platform\): \d{1,2} [A-Z][a-z]{2,3} \d{4} \d+\.\d mm/);
     // Seeded readings start at the first recall after loading: 0.8 mm then, 1.1 mm at the latest.
-    expect(text).toMatch(/Change since loading \(from the reading of \d{4}-\d{2}-\d{2}\): loss of 0\.3 mm/);
+    expect(text).toMatch(/Change since loading \(from the reading of \d{1,2} [A-Z][a-z]{2,3} \d{4}\): loss of 0\.3 mm/);
   });
 
   it('a cemented crown is "not retrievable"; the shared surgeon may download, the hygienist may not', async () => {

@@ -701,7 +701,11 @@ const TABLE: Record<string, Case[]> = {
     'own practice',
   ),
   'PUT /api/practice/session-settings': one(
-    { path: () => '/api/practice/session-settings', body: () => ({ idleSignOutMinutes: 15 }), expect: adminOnly(200) },
+    {
+      path: () => '/api/practice/session-settings',
+      body: () => ({ idleSignOutMinutes: 15, dateFormat: 'day-month-year' }),
+      expect: adminOnly(200),
+    },
     'own practice',
   ),
   'GET /api/practice/contact': one({ path: () => '/api/practice/contact', expect: every(200) }, 'own practice'),

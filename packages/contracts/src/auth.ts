@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { Id, IsoDateTime } from './common.js';
-import { Role, ShareScope } from './enums.js';
+import { DateFormat, Role, ShareScope } from './enums.js';
 
 export const SignInBody = z.object({
   email: z.email({ error: 'Enter a valid e-mail address' }).max(254),
@@ -16,6 +16,8 @@ export const Me = z.object({
   role: Role,
   practiceId: Id,
   practiceName: z.string(),
+  /** The order the practice writes and types dates in (lib/dates.ts on the web). */
+  dateFormat: DateFormat,
   /** Patients of other practices shared with this user (surgeons). */
   sharedPatientIds: z.array(Id),
   /** The live shares behind them: scope and sites (null: every implant site of the patient). */

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { plainMessage } from './plain-messages.js';
+import { ISO_DATE_MESSAGE, plainMessage } from './plain-messages.js';
 
 // Installed here, in a module every contract imports, so no entry point can forget it (a
 // side-effect-only module could be dropped by the bundler: the package declares no side effects).
@@ -18,7 +18,7 @@ const dateRangeMessage = `Enter a date between ${DATE_RANGE.min} and ${DATE_RANG
 
 /** A calendar date as YYYY-MM-DD (no time zone), within DATE_RANGE. */
 export const IsoDate = z.iso
-  .date({ error: 'Enter a date as YYYY-MM-DD' })
+  .date({ error: ISO_DATE_MESSAGE })
   .refine((s) => s >= DATE_RANGE.min && s <= DATE_RANGE.max, { error: dateRangeMessage });
 
 const MIN_INSTANT = Date.parse(`${DATE_RANGE.min}T00:00:00Z`);

@@ -352,3 +352,13 @@ export type ImportEvent = z.infer<typeof ImportEvent>;
 export const IMPORT_ISSUE_LEVELS = ACTIONABLE_SEVERITIES;
 export const ImportIssueLevel = z.enum(IMPORT_ISSUE_LEVELS);
 export type ImportIssueLevel = z.infer<typeof ImportIssueLevel>;
+// ---- practice settings ---------------------------------------------------------------------------
+/**
+ * The order in which a practice writes and types dates (issue 15 §7). An order, not a locale: the
+ * order is what decides how 01/02/2026 is read, and a clinic can see it at a glance; the month is
+ * written in words where the order allows, so a shown date is never ambiguous.
+ */
+export const DATE_FORMATS = ['day-month-year', 'month-day-year', 'year-month-day'] as const;
+export const DateFormat = z.enum(DATE_FORMATS);
+export type DateFormat = z.infer<typeof DateFormat>;
+export const DEFAULT_DATE_FORMAT: DateFormat = 'day-month-year';

@@ -3,9 +3,10 @@
  * with their inferred TypeScript types under the same names.
  */
 export * from './common.js';
-export { plainWordingProblems } from './plain-messages.js';
+export { ISO_DATE_MESSAGE, plainWordingProblems } from './plain-messages.js';
 export { badInputs, fieldNames, requestSchemas } from './contract-walk.js';
 export * from './enums.js';
+export * from './dates.js';
 export * from './auth.js';
 export * from './health.js';
 export * from './patients.js';

@@ -2,7 +2,7 @@
 import { z } from 'zod';
 import { Id, IsoDateTime, NoteText, PlainText } from './common.js';
 import { Email, Phone } from './patients.js';
-import { InvitationStatus, Role } from './enums.js';
+import { DATE_FORMATS, InvitationStatus, Role } from './enums.js';
 import { NewPassword, PASSWORD_MAX_LENGTH, refinePasswordWithEmail } from './password.js';
 import type { RouteContract } from './route-contract.js';
 
@@ -63,6 +63,8 @@ export const SessionSettings = z.object({
     .max(IDLE_SIGN_OUT_MINUTES.max, {
       error: `Use ${IDLE_SIGN_OUT_MINUTES.min} to ${IDLE_SIGN_OUT_MINUTES.max} minutes`,
     }),
+  /** How everyone in the practice sees and types dates, and how its documents print them. */
+  dateFormat: z.enum(DATE_FORMATS, { error: 'Choose how dates are written' }),
 });
 export type SessionSettings = z.infer<typeof SessionSettings>;
 

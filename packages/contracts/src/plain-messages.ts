@@ -8,11 +8,14 @@ import { z } from 'zod';
  */
 type Issue = z.core.$ZodRawIssue;
 
+/** What a client is told of a date that is not YYYY-MM-DD; the web says why in the practice's format instead. */
+export const ISO_DATE_MESSAGE = 'Enter a date as YYYY-MM-DD';
+
 const FORMATS: Record<string, string> = {
   email: 'Enter an e-mail address such as name@example.org',
   uuid: 'Choose an entry from the list',
   guid: 'Choose an entry from the list',
-  date: 'Enter a date as YYYY-MM-DD',
+  date: ISO_DATE_MESSAGE,
   datetime: 'Enter a date and time',
   time: 'Enter a time as HH:MM',
   url: 'Enter a web address starting with https://',

@@ -27,6 +27,7 @@ export class AuthController {
       role: user.role,
       practiceId: user.practiceId,
       practiceName: user.practiceName,
+      dateFormat: user.dateFormat,
       sharedPatientIds: user.sharedPatientIds,
       shares: user.shares.map((s) => ({
         patientId: s.patientId,

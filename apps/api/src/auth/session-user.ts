@@ -1,4 +1,5 @@
 import type { ActiveShare, Role } from '@torquetrail/authz';
+import type { DateFormat } from '@torquetrail/contracts';
 
 /** The signed-in user, loaded fresh from the database on every request. */
 export interface SessionUser {
@@ -13,6 +14,8 @@ export interface SessionUser {
   shares: ActiveShare[];
   /** The practice's idle sign-out period, minutes. */
   idleSignOutMinutes: number;
+  /** The order the practice writes and types dates in. */
+  dateFormat: DateFormat;
   /** From the request's token: when the person signed in and when the token was issued (seconds). */
   session?: { authTimeS: number; issuedAtS: number };
 }

@@ -71,6 +71,7 @@ const sessionUserQuery = preparedFor((db) =>
       practiceId: users.practiceId,
       practiceName: practices.name,
       idleSignOutMinutes: practices.idleSignOutMinutes,
+      dateFormat: practices.dateFormat,
       active: users.active,
       sessionVersion: users.sessionVersion,
       shares: sql<ActiveShare[]>`coalesce((select json_agg(json_build_object(

@@ -1,7 +1,9 @@
 // A pdfkit document for pages that carry patient data: every page gets the same header (patient,
 // chart number, date of birth, practice) and footer (who printed it, when, page n of m), so a
 // page that comes loose from the rest still says whose it is and where it came from.
+import type { DateFormat } from '@torquetrail/contracts';
 import { FONT, notoPdfDocument, pdfBytes } from './pdf-document.js';
+import { type DatePrinter, datePrinter } from './printed-dates.js';
 
 export interface PatientPdfFrame {
   title: string;
@@ -9,6 +11,8 @@ export interface PatientPdfFrame {
   chartNumber: string;
   birthDate: string;
   practiceName: string;
+  /** The practice's order for dates: every date on the document is written in it. */
+  dateFormat: DateFormat;
   printedBy: string;
   /** ISO date-time of the print. */
   printedAt: string;
@@ -17,7 +21,12 @@ export interface PatientPdfFrame {
 const PDF_MARGIN = 50;
 
 /** The document and the call that draws every page's frame and returns the bytes. */
-export function patientPdf(frame: PatientPdfFrame): { doc: PDFKit.PDFDocument; finish: () => Promise<Buffer> } {
+export function patientPdf(frame: PatientPdfFrame): {
+  doc: PDFKit.PDFDocument;
+  dates: DatePrinter;
+  finish: () => Promise<Buffer>;
+} {
+  const dates = datePrinter(frame.dateFormat);
   const doc = notoPdfDocument({
     size: 'A4',
     margins: { top: PDF_MARGIN + 22, bottom: PDF_MARGIN + 10, left: PDF_MARGIN, right: PDF_MARGIN },
@@ -27,7 +36,7 @@ export function patientPdf(frame: PatientPdfFrame): { doc: PDFKit.PDFDocument; f
   const done = pdfBytes(doc);
   const finish = () => {
     const { start, count } = doc.bufferedPageRange();
-    const header = `${frame.patientName} · chart ${frame.chartNumber} · born ${frame.birthDate} · ${frame.practiceName}`;
+    const header = `${frame.patientName} · chart ${frame.chartNumber} · born ${dates.date(frame.birthDate)} · ${frame.practiceName}`;
     for (let i = start; i < start + count; i += 1) {
       doc.switchToPage(i);
       const width = doc.page.width - 2 * PDF_MARGIN;
@@ -38,7 +47,7 @@ export function patientPdf(frame: PatientPdfFrame): { doc: PDFKit.PDFDocument; f
       doc.font(FONT.regular).fontSize(8).fillColor('#444444');
       doc.text(header, PDF_MARGIN, PDF_MARGIN - 20, { width, lineBreak: false });
       doc.text(
-        `${frame.title} · printed by ${frame.printedBy} on ${frame.printedAt.slice(0, 10)} · page ${i - start + 1} of ${count}`,
+        `${frame.title} · printed by ${frame.printedBy} on ${dates.dayOf(frame.printedAt)} · page ${i - start + 1} of ${count}`,
         PDF_MARGIN,
         doc.page.height - PDF_MARGIN,
         { width, lineBreak: false },
@@ -50,12 +59,14 @@ export function patientPdf(frame: PatientPdfFrame): { doc: PDFKit.PDFDocument; f
     doc.end();
     return done;
   };
-  return { doc, finish };
+  return { doc, dates, finish };
 }
 
 /** How the practice is reached, as each document prints it. */
 export interface PracticeContactLines {
   name: string;
+  /** The practice's order for dates, which its documents print in. */
+  dateFormat: DateFormat;
   address: string | null;
   phone: string | null;
   email: string | null;

@@ -1,4 +1,5 @@
 import { eq } from 'drizzle-orm';
+import type { DateFormat } from '@torquetrail/contracts';
 import type { Db } from './database.js';
 import { practices } from './schema/index.js';
 
@@ -25,4 +26,16 @@ export async function setPracticeContact(
   contact: Omit<PracticeContactRow, 'name'>,
 ): Promise<void> {
   await db.update(practices).set(contact).where(eq(practices.id, practiceId));
+}
+
+/** The practice as its documents print it: its contact and the order it writes dates in. */
+export async function findPrintingPractice(
+  db: Db,
+  practiceId: string,
+): Promise<PracticeContactRow & { dateFormat: DateFormat }> {
+  const [[format], contact] = await Promise.all([
+    db.select({ dateFormat: practices.dateFormat }).from(practices).where(eq(practices.id, practiceId)),
+    findPracticeContact(db, practiceId),
+  ]);
+  return { ...contact, dateFormat: format.dateFormat };
 }

@@ -2,6 +2,7 @@
 // the lab needs no more identifying data than that.
 import { type PracticeContactLines, practiceContactLines } from '../common/patient-pdf.js';
 import { FONT, notoPdfDocument, pdfBytes } from '../common/pdf-document.js';
+import { datePrinter } from '../common/printed-dates.js';
 import { type ComponentKind, MANUFACTURER_CAUTION, STACK_ORDER } from '@torquetrail/contracts';
 import { fdiToUniversal } from '@torquetrail/domain';
 
@@ -82,6 +83,7 @@ export function renderLabPrescription(input: PrescriptionInput): Promise<Buffer>
     info: { Title: `Lab prescription ${input.number} ${input.chartNumber}`, Author: input.practice.name },
   });
   const done = pdfBytes(doc);
+  const dates = datePrinter(input.practice.dateFormat);
 
   doc.font(FONT.bold).fontSize(16).text('Implant restoration: lab prescription');
   doc.font(FONT.bold).fontSize(11).text(`Prescription no. ${input.number}`);
@@ -90,13 +92,13 @@ export function renderLabPrescription(input: PrescriptionInput): Promise<Buffer>
   doc.moveDown(0.5);
   doc.text(`Patient: ${input.chartNumber} (${input.initials})`);
   doc.text(
-    `Issued: ${input.issuedOn}${input.dueOn ? `    Due: ${input.dueOn}` : ''}${input.labName ? `    Laboratory: ${input.labName}` : ''}`,
+    `Issued: ${dates.date(input.issuedOn)}${input.dueOn ? `    Due: ${dates.date(input.dueOn)}` : ''}${input.labName ? `    Laboratory: ${input.labName}` : ''}`,
   );
   doc.moveDown(0.5);
   doc.font(FONT.bold).text(`${label(input.kind)}: ${label(input.retention)}`);
   doc.font(FONT.regular).text(`Material: ${label(input.material)}${input.shade ? `    Shade: ${input.shade}` : ''}`);
   doc.text(
-    `Impression: ${input.impressionTakenOn ? `taken ${input.impressionTakenOn}, ` : ''}copings ${input.copingsSplinted ? 'splinted together before the impression' : 'not splinted'}`,
+    `Impression: ${input.impressionTakenOn ? `taken ${dates.date(input.impressionTakenOn)}, ` : ''}copings ${input.copingsSplinted ? 'splinted together before the impression' : 'not splinted'}`,
   );
   doc.moveDown();
 

@@ -8,7 +8,7 @@ import { fieldError } from '../common/field-error.js';
 import { reportChange } from '../common/audit-context.js';
 import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database } from '../db/database.js';
-import { findPracticeContact } from '../db/practice-contact.js';
+import { findPrintingPractice } from '../db/practice-contact.js';
 import { RestorationsService } from '../restorations/restorations.service.js';
 import { StorageService } from '../storage/storage.service.js';
 import { LabMailService } from './lab-mail.service.js';
@@ -79,7 +79,7 @@ export class LabPrescriptionsService {
   ): Promise<string> {
     const [{ patient, sites }, practice, number] = await Promise.all([
       this.restorations.labSheet(scope, r),
-      findPracticeContact(this.db, r.practiceId),
+      findPrintingPractice(this.db, r.practiceId),
       repo.nextPrescriptionNumber(this.db, r.practiceId),
     ]);
     const id = randomUUID();

@@ -12,7 +12,7 @@ import { assertCan, type Scope, sharedSitesOf } from '../authz/scope.js';
 import { reportChange } from '../common/audit-context.js';
 import { fieldError } from '../common/field-error.js';
 import { ENV, type Env } from '../config/env.js';
-import { findPracticeContact } from '../db/practice-contact.js';
+import { findPrintingPractice } from '../db/practice-contact.js';
 import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database, type Tx } from '../db/database.js';
 import { JobsService } from '../jobs/jobs.service.js';
@@ -161,7 +161,7 @@ export class ReferralSummaryService {
     const [parts, bone, practice] = await Promise.all([
       repo.partsInPlace(this.db, ids),
       boneLevelsOfSites(this.db, ids),
-      findPracticeContact(this.db, patient.practiceId),
+      findPrintingPractice(this.db, patient.practiceId),
     ]);
     const pdfSites: SummaryPdfSite[] = sites.map((s) => {
       const readings = bone.filter((b) => b.siteId === s.siteId);

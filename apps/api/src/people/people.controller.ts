@@ -94,7 +94,7 @@ export class PeopleController {
     @CurrentUser() user: SessionUser,
     @Body(new ZodValidationPipe(SessionSettings)) body: SessionSettings,
   ): Promise<SessionSettings> {
-    return this.people.setSessionSettings(user, body.idleSignOutMinutes);
+    return this.people.setSessionSettings(user, body);
   }
 
   @Get('practice/contact')

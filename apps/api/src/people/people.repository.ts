@@ -1,5 +1,6 @@
 import { and, asc, desc, eq, inArray, isNull, sql } from 'drizzle-orm';
 import type { Role } from '@torquetrail/authz';
+import type { SessionSettings } from '@torquetrail/contracts';
 import { alias } from 'drizzle-orm/pg-core';
 import type { Db } from '../db/database.js';
 import { invitations, patientShares, practices, users } from '../db/schema/index.js';
@@ -209,14 +210,17 @@ export async function openInvitedShares(db: Db, email: string, userId: string) {
 }
 
 // ---- practice settings ---------------------------------------------------------------------
-export async function findIdleMinutes(db: Db, practiceId: string): Promise<number> {
+export async function findSessionSettings(db: Db, practiceId: string): Promise<SessionSettings> {
   const [row] = await db
-    .select({ minutes: practices.idleSignOutMinutes })
+    .select({ idleSignOutMinutes: practices.idleSignOutMinutes, dateFormat: practices.dateFormat })
     .from(practices)
     .where(eq(practices.id, practiceId));
-  return row.minutes;
+  return row;
 }
 
-export async function setIdleMinutes(db: Db, practiceId: string, minutes: number): Promise<void> {
-  await db.update(practices).set({ idleSignOutMinutes: minutes }).where(eq(practices.id, practiceId));
+export async function setSessionSettings(db: Db, practiceId: string, settings: SessionSettings): Promise<void> {
+  await db
+    .update(practices)
+    .set({ idleSignOutMinutes: settings.idleSignOutMinutes, dateFormat: settings.dateFormat })
+    .where(eq(practices.id, practiceId));
 }

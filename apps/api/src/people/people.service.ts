@@ -7,6 +7,7 @@ import type {
   Person,
   PracticeContact,
   PracticeContactBody,
+  SessionSettings,
 } from '@torquetrail/contracts';
 import type { SessionUser } from '../auth/session-user.js';
 import { assertCan } from '../authz/scope.js';
@@ -134,13 +135,19 @@ export class PeopleService {
     });
   }
 
-  async sessionSettings(user: SessionUser) {
-    return { idleSignOutMinutes: await repo.findIdleMinutes(this.db, user.practiceId) };
+  sessionSettings(user: SessionUser): Promise<SessionSettings> {
+    return repo.findSessionSettings(this.db, user.practiceId);
   }
 
-  async setSessionSettings(user: SessionUser, idleSignOutMinutes: number) {
-    await repo.setIdleMinutes(this.db, user.practiceId, idleSignOutMinutes);
-    return this.sessionSettings(user);
+  /** The idle period and the date format, audited with the values before and after. */
+  setSessionSettings(user: SessionUser, body: SessionSettings): Promise<SessionSettings> {
+    return auditedTransaction(this.db, async (tx) => {
+      const before = await repo.findSessionSettings(tx, user.practiceId);
+      await repo.setSessionSettings(tx, user.practiceId, body);
+      const after = await repo.findSessionSettings(tx, user.practiceId);
+      reportChange({ type: 'Practice', id: user.practiceId, before, after });
+      return after;
+    });
   }
 
   contact(user: SessionUser): Promise<PracticeContact> {

@@ -1,5 +1,5 @@
 import { and, desc, eq, inArray, isNull, ne, sql } from 'drizzle-orm';
-import type { ReminderKind, ReminderStatus } from '@torquetrail/contracts';
+import type { DateFormat, ReminderKind, ReminderStatus } from '@torquetrail/contracts';
 import type { Db } from '../db/database.js';
 import { patients, recallPolicies, recalls, reminderLog } from '../db/schema/index.js';
 import { DEFAULT_POLICY } from './exams.repository.js';
@@ -69,9 +69,10 @@ export async function lockReminder(db: Db, id: string) {
     given_name: string;
     family_name: string;
     practice_name: string;
+    date_format: DateFormat;
   }>(sql`
     select r.id, r.status, r.kind, r.recall_due_on::text as recall_due_on, r.idempotency_key, r.attempts,
-           p.email, p.email_reminder_consent as consent, p.archived_at is not null as archived, p.given_name, p.family_name, pr.name as practice_name
+           p.email, p.email_reminder_consent as consent, p.archived_at is not null as archived, p.given_name, p.family_name, pr.name as practice_name, pr.date_format
     from reminder_log r join patients p on p.id = r.patient_id join practices pr on pr.id = r.practice_id
     where r.id = ${id}
     for update of r

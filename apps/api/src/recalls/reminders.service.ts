@@ -7,6 +7,7 @@ import { Inject, Injectable } from '@nestjs/common';
 import { remindersDue } from '@torquetrail/domain';
 import { ENV, type Env } from '../config/env.js';
 import { reportChange } from '../common/audit-context.js';
+import { datePrinter } from '../common/printed-dates.js';
 import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database } from '../db/database.js';
 import { JobsService } from '../jobs/jobs.service.js';
@@ -34,14 +35,6 @@ interface ScanJob {
 }
 
 export type DeliveryOutcome = 'sent' | 'already-sent' | 'gone' | 'no-address' | 'withheld' | 'failed';
-
-const longDate = (iso: string) =>
-  new Date(`${iso}T00:00:00Z`).toLocaleDateString('en-GB', {
-    day: 'numeric',
-    month: 'long',
-    year: 'numeric',
-    timeZone: 'UTC',
-  });
 
 @Injectable()
 export class RemindersService {
@@ -126,20 +119,22 @@ export class RemindersService {
         await markFailedAttempt(tx, row.id, 'the patient has no e-mail address', true);
         return 'no-address';
       }
-      const when = longDate(row.recall_due_on);
+      // In the practice's order, in words where it has them, with the numeric date beside.
+      const words = datePrinter(row.date_format).longDate(row.recall_due_on);
+      const when = words === row.recall_due_on ? words : `${words} (${row.recall_due_on})`;
       const overdue = row.kind === 'overdue';
       try {
         const messageId = await this.mail.send({
           to: row.email,
           subject: overdue
-            ? `Your implant maintenance visit was due on ${when}`
-            : `Your implant maintenance visit is due on ${when}`,
+            ? `Your implant maintenance visit was due on ${words}`
+            : `Your implant maintenance visit is due on ${words}`,
           text: [
             `Dear ${row.given_name} ${row.family_name},`,
             '',
             overdue
-              ? `your implant maintenance visit at ${row.practice_name} was due on ${when} (${row.recall_due_on}). Please call us to book it.`
-              : `your next implant maintenance visit at ${row.practice_name} is due on ${when} (${row.recall_due_on}). Please call us to book it if you have not yet.`,
+              ? `your implant maintenance visit at ${row.practice_name} was due on ${when}. Please call us to book it.`
+              : `your next implant maintenance visit at ${row.practice_name} is due on ${when}. Please call us to book it if you have not yet.`,
             '',
             'Regular maintenance helps keep your implants healthy.',
             '',

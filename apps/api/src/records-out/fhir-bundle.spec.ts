@@ -27,6 +27,7 @@ function snapshot(udi: string | null): RecordSnapshot {
     practice: {
       id: '6d1f1c2e-8a4b-4c4e-9f4e-0a0b0c0d0e02',
       name: 'Test Practice',
+      dateFormat: 'day-month-year',
       phone: null,
       email: null,
       address: null,

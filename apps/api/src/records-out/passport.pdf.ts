@@ -4,6 +4,7 @@ import { MANUFACTURER_CAUTION } from '@torquetrail/contracts';
 import { fdiToUniversal, isRetrievable } from '@torquetrail/domain';
 import { patientPdf, practiceContactLines } from '../common/patient-pdf.js';
 import { FONT } from '../common/pdf-document.js';
+import type { DatePrinter } from '../common/printed-dates.js';
 import type { RecordSnapshot, SnapshotImplant, SnapshotPart } from './record-snapshot.js';
 import { connectionWords, materialWords, partKindWords, restorationKindWords, retentionWords } from './plain-words.js';
 
@@ -23,11 +24,11 @@ const PASSPORT_CAUTIONS = [
 
 const ncm = (v: number) => `${v} N·cm`;
 
-function partLine(p: SnapshotPart): string {
+function partLine(p: SnapshotPart, dates: DatePrinter): string {
   const lot = p.lot ? `, lot ${p.lot}` : '';
   const spec = p.torqueSpecNcm === null ? 'hand-tight' : `specified ${ncm(p.torqueSpecNcm)}`;
   const seated = p.seatingTorque
-    ? `; tightened to ${ncm(p.seatingTorque.appliedNcm)} on ${p.seatingTorque.performedAt.slice(0, 10)}`
+    ? `; tightened to ${ncm(p.seatingTorque.appliedNcm)} on ${dates.dayOf(p.seatingTorque.performedAt)}`
     : '';
   return `${partKindWords(p.kind)}: ${p.name} [${p.referenceCode}]${lot} (${spec}${seated})`;
 }
@@ -39,12 +40,13 @@ export const udiLine = (i: SnapshotImplant) =>
 
 export function renderPassport(s: RecordSnapshot, printed: PrintedBy): Promise<Buffer> {
   const { patient, practice } = s;
-  const { doc, finish } = patientPdf({
+  const { doc, dates, finish } = patientPdf({
     title: 'Implant passport',
     patientName: `${patient.givenName} ${patient.familyName}`,
     chartNumber: patient.chartNumber,
     birthDate: patient.birthDate,
     practiceName: practice.name,
+    dateFormat: practice.dateFormat,
     printedBy: printed.name,
     printedAt: printed.at,
   });
@@ -60,7 +62,7 @@ export function renderPassport(s: RecordSnapshot, printed: PrintedBy): Promise<B
   doc.moveDown(0.4);
   doc.text(
     s.nextRecallOn
-      ? `Your next check-up is due on ${s.nextRecallOn}.`
+      ? `Your next check-up is due on ${dates.longDate(s.nextRecallOn)}.`
       : 'No check-up is booked yet: please ask the practice for one.',
   );
   doc.moveDown(0.8);
@@ -73,7 +75,7 @@ export function renderPassport(s: RecordSnapshot, printed: PrintedBy): Promise<B
       .fontSize(12)
       .text(`Implant at tooth ${i.fdi} (FDI) / ${fdiToUniversal(i.fdi)} (Universal)`);
     doc.font(FONT.regular).fontSize(10);
-    doc.text(`Placed on ${pl.placedOn} by ${pl.surgeonName}.`, { indent: 12 });
+    doc.text(`Placed on ${dates.date(pl.placedOn)} by ${pl.surgeonName}.`, { indent: 12 });
     doc.text(
       `System: ${pl.systemName} by ${pl.manufacturer}; platform ${pl.platformName}, ${connectionWords(pl.connection)} connection.`,
       { indent: 12 },
@@ -87,7 +89,7 @@ export function renderPassport(s: RecordSnapshot, printed: PrintedBy): Promise<B
         ? 'It is screwed, so a dentist can unscrew and remove it (retrievable).'
         : 'It is cemented, so it cannot be removed without cutting it (not retrievable).';
       doc.text(
-        `On it: ${restorationKindWords(r.kind)} in ${materialWords(r.material)}, ${retentionWords(r.retention)}, fitted on ${r.deliveredOn}. ${how}`,
+        `On it: ${restorationKindWords(r.kind)} in ${materialWords(r.material)}, ${retentionWords(r.retention)}, fitted on ${dates.date(r.deliveredOn)}. ${how}`,
         { indent: 12 },
       );
     } else {
@@ -96,7 +98,7 @@ export function renderPassport(s: RecordSnapshot, printed: PrintedBy): Promise<B
     const parts = i.parts.filter((p) => p.kind !== 'impression-coping');
     if (parts.length > 0) {
       doc.text('Parts fixed to the implant, from the implant outward:', { indent: 12 });
-      for (const p of parts) doc.text(`- ${partLine(p)}`, { indent: 24 });
+      for (const p of parts) doc.text(`- ${partLine(p, dates)}`, { indent: 24 });
     }
     doc.moveDown(0.6);
   }

@@ -4,6 +4,7 @@
 import {
   type ComponentKind,
   type Connection,
+  type DateFormat,
   type Material,
   type PatientSex,
   type RestorationKind,
@@ -34,6 +35,7 @@ export interface SnapshotPatient {
 interface SnapshotPractice {
   id: string;
   name: string;
+  dateFormat: DateFormat;
   phone: string | null;
   email: string | null;
   address: string | null;

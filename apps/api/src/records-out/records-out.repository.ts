@@ -40,6 +40,7 @@ export async function findVisiblePatient(db: Db, scope: Scope, patientId: string
       practice: {
         id: practices.id,
         name: practices.name,
+        dateFormat: practices.dateFormat,
         phone: practices.phone,
         email: practices.email,
         address: practices.address,

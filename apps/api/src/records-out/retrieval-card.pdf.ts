@@ -5,6 +5,7 @@ import { MANUFACTURER_CAUTION, SCREW_KINDS } from '@torquetrail/contracts';
 import { fdiToUniversal, isRetrievable } from '@torquetrail/domain';
 import { patientPdf, type PracticeContactLines, practiceContactLines } from '../common/patient-pdf.js';
 import { FONT } from '../common/pdf-document.js';
+import type { DatePrinter } from '../common/printed-dates.js';
 import { type PrintedBy, udiLine } from './passport.pdf.js';
 import type { RecordSnapshot, SnapshotImplant, SnapshotPart } from './record-snapshot.js';
 import { connectionWords, partKindWords, retentionWords, torqueReasonWords } from './plain-words.js';
@@ -22,7 +23,7 @@ function lastTorqueOf(i: SnapshotImplant): { at: string; part: SnapshotPart } | 
   return last;
 }
 
-function sitePage(doc: PDFKit.PDFDocument, i: SnapshotImplant, practice: PracticeContactLines) {
+function sitePage(doc: PDFKit.PDFDocument, i: SnapshotImplant, practice: PracticeContactLines, dates: DatePrinter) {
   const pl = i.placement;
   const r = i.restoration!;
   doc
@@ -31,7 +32,7 @@ function sitePage(doc: PDFKit.PDFDocument, i: SnapshotImplant, practice: Practic
     .text(`Retrieval card: tooth ${i.fdi} (FDI) / ${fdiToUniversal(i.fdi)} (Universal)`);
   doc.font(FONT.regular).fontSize(10).moveDown(0.4);
   doc.text(
-    `Implant: ${pl.systemName} (${pl.manufacturer}), platform ${pl.platformName}, ${connectionWords(pl.connection)} connection, ${pl.diameterMm} × ${pl.lengthMm} mm, placed ${pl.placedOn}; ${udiLine(i)}.`,
+    `Implant: ${pl.systemName} (${pl.manufacturer}), platform ${pl.platformName}, ${connectionWords(pl.connection)} connection, ${pl.diameterMm} × ${pl.lengthMm} mm, placed ${dates.date(pl.placedOn)}; ${udiLine(i)}.`,
   );
   doc.moveDown(0.4);
   const retrievable = isRetrievable(r.retention);
@@ -43,7 +44,7 @@ function sitePage(doc: PDFKit.PDFDocument, i: SnapshotImplant, practice: Practic
   );
   doc
     .font(FONT.regular)
-    .text(`Delivered ${r.deliveredOn}${r.fdis.length > 1 ? `, spanning sites ${r.fdis.join(', ')}` : ''}.`);
+    .text(`Delivered ${dates.date(r.deliveredOn)}${r.fdis.length > 1 ? `, spanning sites ${r.fdis.join(', ')}` : ''}.`);
   doc.moveDown(0.6);
 
   doc.font(FONT.bold).text('Parts chain, from the implant outward');
@@ -59,7 +60,7 @@ function sitePage(doc: PDFKit.PDFDocument, i: SnapshotImplant, practice: Practic
     );
     if (p.lastTorque)
       doc.text(
-        `Last torque ${p.lastTorque.appliedNcm} N·cm on ${p.lastTorque.performedAt.slice(0, 10)} (${torqueReasonWords(p.lastTorque.reason)}).`,
+        `Last torque ${p.lastTorque.appliedNcm} N·cm on ${dates.dayOf(p.lastTorque.performedAt)} (${torqueReasonWords(p.lastTorque.reason)}).`,
         { indent: 24 },
       );
   });
@@ -67,7 +68,7 @@ function sitePage(doc: PDFKit.PDFDocument, i: SnapshotImplant, practice: Practic
   const last = lastTorqueOf(i);
   doc.text(
     last
-      ? `Date of the last torque on this site: ${last.at.slice(0, 10)} (${partKindWords(last.part.kind)}).`
+      ? `Date of the last torque on this site: ${dates.dayOf(last.at)} (${partKindWords(last.part.kind)}).`
       : 'No torque is recorded on this site.',
   );
   doc.moveDown(0.8);
@@ -81,12 +82,13 @@ function sitePage(doc: PDFKit.PDFDocument, i: SnapshotImplant, practice: Practic
 
 export function renderRetrievalCard(s: RecordSnapshot, printed: PrintedBy): Promise<Buffer> {
   const { patient, practice } = s;
-  const { doc, finish } = patientPdf({
+  const { doc, dates, finish } = patientPdf({
     title: 'Retrieval card',
     patientName: `${patient.givenName} ${patient.familyName}`,
     chartNumber: patient.chartNumber,
     birthDate: patient.birthDate,
     practiceName: practice.name,
+    dateFormat: practice.dateFormat,
     printedBy: printed.name,
     printedAt: printed.at,
   });
@@ -97,7 +99,7 @@ export function renderRetrievalCard(s: RecordSnapshot, printed: PrintedBy): Prom
   }
   restored.forEach((i, n) => {
     if (n > 0) doc.addPage();
-    sitePage(doc, i, practice);
+    sitePage(doc, i, practice, dates);
   });
   return finish();
 }

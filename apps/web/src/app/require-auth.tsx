@@ -5,6 +5,7 @@ import { useMe, useSignOut } from '../features/auth';
 import { AppAbilityProvider } from '../lib/ability';
 import { ErrorState } from '../lib/components/error-state';
 import { LoadingState } from '../lib/components/loading-state';
+import { setDateFormat } from '../lib/dates';
 import { keepDrafts, setDraftOwner } from '../lib/forms';
 import { idleSignInPath, signInPath } from '../lib/return-path';
 import { AppShell } from './app-shell';
@@ -49,9 +50,13 @@ export function RequireAuth() {
     return <Navigate to={signOut.isIdle ? signInPath(here) : '/sign-in'} replace />;
   }
   setDraftOwner(me.data.id);
+  // Before any page renders: every date is written and read in the practice's order. A change
+  // (a refetched session) remounts the pages, so no screen mixes two formats.
+  setDateFormat(me.data.dateFormat);
   return (
     <AppAbilityProvider ability={ability}>
       <AppShell
+        key={me.data.dateFormat}
         me={me.data}
         onSignOut={() => signOut.mutate()}
         signingOut={signOut.isPending}

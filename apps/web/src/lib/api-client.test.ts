@@ -15,6 +15,7 @@ const me = {
   role: 'dentist',
   practiceId: '00000000-0000-4000-8000-000000000900',
   practiceName: 'Riverside Dental',
+  dateFormat: 'day-month-year',
   sharedPatientIds: [],
   shares: [],
   session: { idleSignOutS: 900, warnBeforeS: 60, reauthenticateAt: '2026-01-01T20:00:00.000Z' },

@@ -1,5 +1,21 @@
-import { describe, expect, it } from 'vitest';
-import { ageInYears, formatDate, formatLongDate, localNow, localToday, parseDate } from './dates';
+import { afterEach, describe, expect, it } from 'vitest';
+import {
+  ageInYears,
+  calendarDateToLocal,
+  dateProblem,
+  dateTypingExample,
+  firstDayOfWeek,
+  formatDate,
+  formatDateTime,
+  formatLongDate,
+  localNow,
+  localToCalendarDate,
+  localToday,
+  parseDate,
+  setDateFormat,
+} from './dates';
+
+afterEach(() => setDateFormat('day-month-year'));
 
 describe('dates', () => {
   it('writes calendar dates without a time-zone shift', () => {
@@ -36,5 +52,45 @@ describe('parseDate: dates typed in the practice’s order (day, month, year)', 
   });
   it('round-trips with formatDate', () => {
     expect(parseDate(formatDate('2026-11-05'))).toBe('2026-11-05');
+  });
+});
+
+// Sources for the orders: ISO 8601-1:2019 §5.2.2 (year-month-day); day/month/year in the UK and
+// month/day/year in the US [common practice]. The same rules are tested in each order in
+// packages/contracts/src/dates.test.ts; here, that the app follows the practice's setting.
+describe('the practice’s date format, set from the session', () => {
+  it('shows and reads 01/02/2026 per format', () => {
+    setDateFormat('day-month-year');
+    expect(parseDate('01/02/2026')).toBe('2026-02-01');
+    expect(formatDate('2026-02-01')).toBe('1 Feb 2026');
+    setDateFormat('month-day-year');
+    expect(parseDate('01/02/2026')).toBe('2026-01-02');
+    expect(formatDate('2026-01-02')).toBe('Jan 2, 2026');
+    expect(formatLongDate('2026-01-02')).toBe('January 2, 2026');
+    setDateFormat('year-month-day');
+    expect(parseDate('01/02/2026')).toBeNull();
+    expect(dateProblem('01/02/2026')).toMatch(/either number could be the day/);
+    expect(formatDate('2026-01-02')).toBe('2026-01-02');
+    expect(formatDateTime('2026-01-02T10:00:00Z')).toMatch(/^2026-01-0[12] \d\d:\d\d$/);
+  });
+  it('refuses impossible dates in every format, saying why', () => {
+    for (const format of ['day-month-year', 'month-day-year', 'year-month-day'] as const) {
+      setDateFormat(format);
+      expect(parseDate('2026-02-30')).toBeNull();
+      expect(dateProblem('2026-02-30')).toBe('There is no such day: February 2026 has 28 days');
+      expect(dateProblem('2026-02-28')).toBeNull();
+    }
+  });
+  it('tells what to type and where the week starts', () => {
+    setDateFormat('month-day-year');
+    expect(dateTypingExample()).toMatch(/03\/12\/2026/);
+    expect(firstDayOfWeek()).toBe(0);
+    setDateFormat('day-month-year');
+    expect(firstDayOfWeek()).toBe(1);
+  });
+  it('gives the picker local midnights and reads its days back', () => {
+    const d = calendarDateToLocal('2026-03-12');
+    expect([d.getFullYear(), d.getMonth(), d.getDate(), d.getHours()]).toEqual([2026, 2, 12, 0]);
+    expect(localToCalendarDate(new Date(2026, 2, 12, 23, 59))).toBe('2026-03-12');
   });
 });

@@ -1,12 +1,37 @@
 // The one module that writes and reads dates for people (issue 15 §7): every date shown or typed
-// in the app goes through these functions, in the practice's locale. A unit test fails on date
-// formatting anywhere else in apps/web/src.
+// in the app goes through these functions, in the practice's order (its setting: day-month-year,
+// month-day-year or year-month-day). The writing and reading themselves live in
+// @torquetrail/contracts (dates.ts), which the API prints its documents with too. A unit test
+// fails on date formatting anywhere else in apps/web/src.
+import {
+  DATE_TYPING_EXAMPLE,
+  type DateFormat,
+  DEFAULT_DATE_FORMAT,
+  FIRST_DAY_OF_WEEK,
+  readTypedDate,
+  writeCalendarDate,
+  writeInstant,
+} from '@torquetrail/contracts';
 
 /**
- * The practice's locale for dates: day, month in words, year ("12 Mar 2026"), which no reader
- * can take for another day. One practice locale for now; a per-practice setting would change it here.
+ * The practice's order for dates (its setting, sent with the session: RequireAuth sets it before
+ * any page renders, and remounts the pages when it changes). Day-month-year until a session says.
  */
-const PRACTICE_LOCALE = 'en-GB';
+let practiceFormat: DateFormat = DEFAULT_DATE_FORMAT;
+
+export function setDateFormat(format: DateFormat): void {
+  practiceFormat = format;
+}
+
+/** What to type, for placeholders: "12/03/2026 or 12 Mar 2026". */
+export function dateTypingExample(): string {
+  return DATE_TYPING_EXAMPLE[practiceFormat];
+}
+
+/** The calendar's first day of the week in the practice's order (0 Sunday, 1 Monday). */
+export function firstDayOfWeek(): 0 | 1 {
+  return FIRST_DAY_OF_WEEK[practiceFormat];
+}
 
 /** Calendar dates arrive as YYYY-MM-DD; they are shown without any time-zone shift. */
 function parseIsoDate(iso: string): Date {
@@ -14,39 +39,24 @@ function parseIsoDate(iso: string): Date {
   return new Date(Date.UTC(year, month - 1, day));
 }
 
-const longDate = new Intl.DateTimeFormat(PRACTICE_LOCALE, {
-  day: 'numeric',
-  month: 'long',
-  year: 'numeric',
-  timeZone: 'UTC',
-});
-const shortDate = new Intl.DateTimeFormat(PRACTICE_LOCALE, {
-  day: 'numeric',
-  month: 'short',
-  year: 'numeric',
-  timeZone: 'UTC',
-});
-const dateTime = new Intl.DateTimeFormat(PRACTICE_LOCALE, {
-  day: 'numeric',
-  month: 'short',
-  year: 'numeric',
-  hour: '2-digit',
-  minute: '2-digit',
-});
-
-/** "12 March 2026": for accessible names and prose. */
+/** "12 March 2026" (or the practice's order): for accessible names and prose. */
 export function formatLongDate(iso: string): string {
-  return longDate.format(parseIsoDate(iso));
+  return writeCalendarDate(iso, practiceFormat, 'long');
 }
 
-/** "12 Mar 2026": for tables. */
+/** "12 Mar 2026" (or the practice's order): for tables. */
 export function formatDate(iso: string): string {
-  return shortDate.format(parseIsoDate(iso));
+  return writeCalendarDate(iso, practiceFormat);
+}
+
+/** A calendar date in a given order, for showing the choices of the practice's setting. */
+export function formatDateAs(iso: string, format: DateFormat): string {
+  return writeCalendarDate(iso, format);
 }
 
 /** An instant (ISO 8601 with offset) in the viewer's time zone. */
 export function formatDateTime(iso: string): string {
-  return dateTime.format(new Date(iso));
+  return writeInstant(iso, practiceFormat);
 }
 
 /** The viewer's calendar day of an instant (ms or ISO), in the practice's format: "12 Mar 2026". */
@@ -94,43 +104,26 @@ export function localToday(now: Date = new Date()): string {
   return localNow(now).slice(0, 10);
 }
 
-const MONTHS = Array.from({ length: 12 }, (_, m) =>
-  [
-    new Intl.DateTimeFormat(PRACTICE_LOCALE, { month: 'long', timeZone: 'UTC' }),
-    new Intl.DateTimeFormat(PRACTICE_LOCALE, { month: 'short', timeZone: 'UTC' }),
-  ].map((f) =>
-    f
-      .format(new Date(Date.UTC(2026, m, 1)))
-      .toLocaleLowerCase()
-      .replace(/\.$/, ''),
-  ),
-);
-
-/** YYYY-MM-DD when year, month and day make a real calendar date, else null. */
-function isoOf(year: number, month: number, day: number): string | null {
-  const d = new Date(Date.UTC(year, month - 1, day));
-  if (year < 1000 || d.getUTCFullYear() !== year || d.getUTCMonth() !== month - 1 || d.getUTCDate() !== day)
-    return null;
-  return `${String(year).padStart(4, '0')}-${String(month).padStart(2, '0')}-${String(day).padStart(2, '0')}`;
-}
-
 /**
- * A date as typed, in the practice's order (day, month, year): "12 Mar 2026", "12 March 2026",
- * "12/3/2026", "12.03.2026", or YYYY-MM-DD. Returns YYYY-MM-DD, or null when the text is not a
- * real date (31 Feb is not). Two-digit years are refused: a date of birth could be either century.
+ * A date as typed, in the practice's order (lib: readTypedDate in @torquetrail/contracts): YYYY-MM-DD
+ * when the text is a real date, else null.
  */
 export function parseDate(text: string): string | null {
-  const t = text.trim().toLocaleLowerCase();
-  let m = /^(\d{4})-(\d{1,2})-(\d{1,2})$/.exec(t);
-  if (m) return isoOf(Number(m[1]), Number(m[2]), Number(m[3]));
-  m = /^(\d{1,2})[/. -](\d{1,2})[/. -](\d{4})$/.exec(t);
-  if (m) return isoOf(Number(m[3]), Number(m[2]), Number(m[1]));
-  m = /^(\d{1,2})[ -]([a-z]+)\.?,?[ -](\d{4})$/.exec(t);
-  if (m) {
-    const word = m[2];
-    // The long name or any start of it of 3 letters or more ("Sep", "Sept", "September").
-    const month = MONTHS.findIndex((names) => names.includes(word) || (word.length >= 3 && names[0].startsWith(word)));
-    return month < 0 ? null : isoOf(Number(m[3]), month + 1, Number(m[1]));
-  }
-  return null;
+  return readTypedDate(text, practiceFormat).iso ?? null;
+}
+
+/** Why the text is not a date, in plain words for beside the field; null when it is one. */
+export function dateProblem(text: string): string | null {
+  return readTypedDate(text, practiceFormat).problem ?? null;
+}
+
+/** A calendar date (YYYY-MM-DD) as the picker's local midnight, and back. */
+export function calendarDateToLocal(iso: string): Date {
+  const [year, month, day] = iso.slice(0, 10).split('-').map(Number);
+  return new Date(year, month - 1, day);
+}
+
+export function localToCalendarDate(date: Date): string {
+  const pad = (n: number) => String(n).padStart(2, '0');
+  return `${String(date.getFullYear()).padStart(4, '0')}-${pad(date.getMonth() + 1)}-${pad(date.getDate())}`;
 }

@@ -5,6 +5,7 @@ import {
   type ArchiveFilter,
   type AuditAction,
   type AuditOutcome,
+  type DateFormat,
   DESK_DUE_SOON_DAYS,
   type DeskFilter,
   type DeskSort,
@@ -286,4 +287,11 @@ export const IMPORT_PHASE_LABEL: Record<ImportProgress['phase'], string> = {
   writing: 'Writing records',
   done: 'Done',
   failed: 'Stopped',
+};
+
+/** The practice's date orders, as the administrator chooses one (the example is added beside). */
+export const DATE_FORMAT_LABEL: Record<DateFormat, string> = {
+  'day-month-year': 'Day, month, year',
+  'month-day-year': 'Month, day, year',
+  'year-month-day': 'Year, month, day (ISO 8601)',
 };

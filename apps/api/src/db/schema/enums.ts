@@ -37,6 +37,7 @@ import {
   TORQUE_VERDICTS,
   TRAYS,
   WRENCH_TYPES,
+  DATE_FORMATS,
 } from '@torquetrail/contracts';
 import { pgEnum } from 'drizzle-orm/pg-core';
 
@@ -76,3 +77,4 @@ export const seatingAnswerEnum = pgEnum('seating_answer', SEATING_ANSWERS);
 export const radiographPreviewStatusEnum = pgEnum('radiograph_preview_status', RADIOGRAPH_PREVIEW_STATUSES);
 export const impressionMethodEnum = pgEnum('impression_method', IMPRESSION_METHODS);
 export const scanFileTypeEnum = pgEnum('scan_file_type', SCAN_FILE_TYPES);
+export const dateFormatEnum = pgEnum('date_format', DATE_FORMATS);

@@ -1,5 +1,5 @@
 import { boolean, index, integer, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
-import { roleEnum } from './enums.js';
+import { dateFormatEnum, roleEnum } from './enums.js';
 import { DEFAULT_CALIBRATION_INTERVAL_MONTHS } from '@torquetrail/domain';
 
 export const practices = pgTable('practices', {
@@ -20,6 +20,8 @@ export const practices = pgTable('practices', {
     .default(DEFAULT_CALIBRATION_INTERVAL_MONTHS),
   /** The last lab prescription number this practice drew (its numbers run 1, 2, 3 …). */
   labPrescriptionCounter: integer('lab_prescription_counter').notNull().default(0),
+  /** The order the practice writes and types dates in, on screen and on its documents (issue 15 §7). */
+  dateFormat: dateFormatEnum('date_format').notNull().default('day-month-year'),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 });
 

@@ -2,11 +2,13 @@
 // the contract's own messages at the body's paths, the parsed body submitted, and the API's errors
 // of one submit gone at the next.
 import { zodResolver } from '@hookform/resolvers/zod';
-import { DeliveryBody, SignInBody } from '@torquetrail/contracts';
+import { DeliveryBody, IsoDate, SignInBody } from '@torquetrail/contracts';
 import { createFormControl } from 'react-hook-form';
-import { describe, expect, it, vi } from 'vitest';
+import { afterEach, describe, expect, it, vi } from 'vitest';
+import { z } from 'zod';
+import { setDateFormat } from '../dates';
 import { ApiError } from '../api-client';
-import { draftSchema } from './contract-form';
+import { draftSchema, explainDateErrors } from './contract-form';
 import { errorAt } from './form-field';
 import { applyServerErrors, formErrorMessage } from './server-errors';
 
@@ -70,5 +72,28 @@ describe('a form validated with a contract (draftSchema + zodResolver)', () => {
       impressionTakenOn: null,
       parts: [{ ...rows[0], lot: 'L-1' }],
     });
+  });
+});
+
+// Issue 15 §7: a date the contract cannot read is explained in the practice's order, in plain words.
+describe('a date field the contract cannot read', () => {
+  const schema = z.object({ visit: z.object({ on: IsoDate }), note: z.string() });
+  const check = async (on: string) => {
+    const values = { visit: { on }, note: '' };
+    const result = await zodResolver(schema)(values, undefined, { fields: {}, shouldUseNativeValidation: false });
+    explainDateErrors(result.errors, values);
+    return errorAt(result.errors, 'visit.on');
+  };
+  afterEach(() => setDateFormat('day-month-year'));
+
+  it('says why, in the practice’s order, in place of “Enter a date as YYYY-MM-DD”', async () => {
+    expect(await check('31/02/2026')).toBe('There is no such day: February 2026 has 28 days');
+    setDateFormat('year-month-day');
+    expect(await check('01/02/2026')).toMatch(/either number could be the day/);
+    expect(await check('soon')).toBe('Type a date as 2026-03-12');
+  });
+  it('leaves other messages alone', async () => {
+    expect(await check('2026-03-12')).toBeUndefined();
+    expect(await check('1850-01-01')).toMatch(/^Enter a date between/);
   });
 });

@@ -1,8 +1,10 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useEffect } from 'react';
-import { type DefaultValues, type FieldValues, useForm } from 'react-hook-form';
+import { ISO_DATE_MESSAGE } from '@torquetrail/contracts';
+import { type DefaultValues, type FieldErrors, type FieldValues, get, type Resolver, useForm } from 'react-hook-form';
 import { useLocation } from 'react-router-dom';
 import { z } from 'zod';
+import { dateProblem } from '../dates';
 import { offerDraft, takeDraft } from './drafts';
 import { summariseHiddenErrors } from './hidden-errors';
 
@@ -22,6 +24,23 @@ export function draftSchema<Draft extends FieldValues, Body, Parsed>(
 }
 
 /**
+ * A date field's text the contract could not read gets the reason in the practice's format, in
+ * plain words ("There is no such day: February 2026 has 28 days"), in place of the contract's
+ * "Enter a date as YYYY-MM-DD", which is written for API clients (issue 15 §7).
+ */
+export function explainDateErrors(errors: FieldErrors, values: FieldValues, path: string[] = []): void {
+  for (const [key, error] of Object.entries(errors)) {
+    if (!error || typeof error !== 'object') continue;
+    const at = [...path, key];
+    const node = error as { message?: unknown; type?: unknown };
+    if (node.message === ISO_DATE_MESSAGE) {
+      const typed: unknown = get(values, at.join('.'));
+      node.message = typeof typed === 'string' ? (dateProblem(typed) ?? ISO_DATE_MESSAGE) : ISO_DATE_MESSAGE;
+    } else if (key !== 'ref') explainDateErrors(error as FieldErrors, values, at);
+  }
+}
+
+/**
  * react-hook-form validated with a contract schema (from `draftSchema`, or the contract itself
  * when the form's values are already the body). Messages change when the form is submitted, not
  * while typing, and focus stays where the user is: the forms behaved so before this adapter.
@@ -34,8 +53,14 @@ export function useContractForm<Values extends FieldValues, Body>(
   defaultValues: DefaultValues<Values>,
   { keepDraft = true }: { keepDraft?: boolean } = {},
 ) {
+  const contract = zodResolver<Values, unknown, Body>(schema);
+  const resolver: Resolver<Values, unknown, Body> = async (values, context, options) => {
+    const result = await contract(values, context, options);
+    explainDateErrors(result.errors, values);
+    return result;
+  };
   const form = useForm<Values, unknown, Body>({
-    resolver: zodResolver(schema),
+    resolver,
     defaultValues,
     mode: 'onSubmit',
     reValidateMode: 'onSubmit',

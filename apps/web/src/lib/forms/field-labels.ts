@@ -37,6 +37,7 @@ export const FIELD_LABELS: Record<string, string> = {
   connection: 'Connection',
   copingsSplinted: 'Copings splinted',
   currentPassword: 'Current password',
+  dateFormat: 'Date format',
   deliveredOn: 'Delivery date',
   diabetesPoorlyControlled: 'Poorly controlled diabetes',
   diameterMm: 'Diameter (mm)',

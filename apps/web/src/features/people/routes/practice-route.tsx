@@ -25,7 +25,7 @@ export function PracticeRoute() {
             People
           </NavLink>
           <NavLink to="/practice/sign-in" className={linkClass}>
-            Sign-in settings
+            Sign-in and dates
           </NavLink>
           <NavLink to="/practice/contact" className={linkClass}>
             Practice contact

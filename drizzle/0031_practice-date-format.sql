@@ -1,0 +1,2 @@
+CREATE TYPE "public"."date_format" AS ENUM('day-month-year', 'month-day-year', 'year-month-day');--> statement-breakpoint
+ALTER TABLE "practices" ADD COLUMN "date_format" date_format DEFAULT 'day-month-year' NOT NULL;
