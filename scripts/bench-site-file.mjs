@@ -16,6 +16,7 @@ import { seedLargePractice } from './lib/bench-large-seed.mjs';
 import { waitForPort } from './lib/proc.mjs';
 import { startServices } from './services.mjs';
 import { API_PG_OPTIONS, explainDesk, writeResults } from './bench/site-file-report.mjs';
+import { measureWebFirstLoad } from './bench/web-first-load.mjs';
 
 const { values: args } = parseArgs({
   options: {
@@ -215,7 +216,7 @@ async function measureDatabase(database, { withFloor }) {
   });
   if (signIn.status !== 200 && signIn.status !== 201) throw new Error(`sign-in answered ${signIn.status}`);
   const cookie = String(signIn.headers.get('set-cookie')).split(';')[0];
-  const out = { endpoints: {}, desk: {}, csv: null, peakRssMb: 0 };
+  const out = { endpoints: {}, desk: {}, csv: null, web: null, peakRssMb: 0 };
   const replay = { routes: {} };
   for (const [name, url] of ENDPOINTS) {
     const { reply, statements, groups } = await captureRequest(captureFile, cookie, url);
@@ -303,6 +304,16 @@ async function measureDatabase(database, { withFloor }) {
       csvBytes = r.body.length;
     }
     out.csv = { medianMs: median(csvTimes.slice(1)), bytes: csvBytes, rssBeforeMb: before, rssPeakMb: csvPeak };
+  }
+  if (withFloor) {
+    // The web's first load of Harold's Arch, served by this API from the build (goal 3).
+    out.web = await measureWebFirstLoad({
+      baseUrl: `http://127.0.0.1:${API_PORT}`,
+      cookie,
+      patientId: targets.patient,
+      webDist: path.join(repoRoot, 'apps/web/dist'),
+    });
+    log(`  web: Arch ${out.web.archMs} ms, blank ${out.web.blankMs} ms, JS ${out.web.jsGzipKb.toFixed(1)} KB gzip`);
   }
   if (floor) await stop(floor);
   await stop(api);

@@ -126,6 +126,17 @@ function markdown(r) {
       `| ${name} | ${f(d.medianMs)} | ${f(d.maxMs)} | ${d.total} | ${f(e.executionMs)} | ${e.scansAllExams ? 'yes' : 'no'} | ${e.file ?? ''} |`,
     );
   }
+  const w = r.demo.web;
+  if (w) {
+    lines.push(
+      '',
+      `## Web, first load of the Arch (demo database, headless Chromium, median of ${w.runs} cold loads)`,
+      '',
+      `Arch visible ${f(w.archMs, 0)} ms; blank page of the same build (JavaScript off) ${f(w.blankMs, 0)} ms: ratio ${f(w.ratio, 2)}.`,
+      `JavaScript before the Arch shows: ${w.scripts} files, ${f(w.jsGzipKb)} KB gzip.`,
+      `\`/api/auth/me\` starts at ${f(w.meStartMs, 0)} ms and answers at ${f(w.meEndMs, 0)} ms; the patient's request starts at ${f(w.patientStartMs, 0)} ms (side by side with \`me\` in ${w.parallel} of ${w.runs} loads).`,
+    );
+  }
   const c = r.large.csv;
   lines.push(
     '',

@@ -9,14 +9,22 @@ import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
 import { RouterProvider } from 'react-router-dom';
 import { Providers } from './app/providers';
-import { router } from './app/router';
+import { createQueryClient } from './app/query-client';
+import { createRouter } from './app/router';
+import { loadIconsOneByOne } from './lib/icon-loader';
 
 const container = document.getElementById('root');
 if (!container) throw new Error('index.html has no #root element');
 
+loadIconsOneByOne();
+
+// One query cache for the router's loaders (which start the first reads) and the pages.
+const queryClient = createQueryClient();
+const router = createRouter(queryClient);
+
 createRoot(container).render(
   <StrictMode>
-    <Providers>
+    <Providers client={queryClient}>
       <RouterProvider router={router} />
     </Providers>
   </StrictMode>,

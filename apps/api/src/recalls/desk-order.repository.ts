@@ -24,6 +24,16 @@ const inScope = (scope: Scope, practiceCol: SQL, patientCol: SQL): SQL =>
 const current = (alias: string) =>
   sql.raw(`not exists (select 1 from recall_exams ${alias}_n where ${alias}_n.supersedes_id = ${alias}.id)`);
 
+/**
+ * The date of the patient's latest current exam: walked newest first on recall_exams_patient_idx
+ * (patient_id, examined_on), stopping at the first exam no amendment replaced — usually one probe,
+ * where max() over the current exams checked every exam of the patient for an amendment.
+ */
+export const latestCurrentExamOn = (patientId: SQL) =>
+  sql`select x.examined_on from recall_exams x
+      where x.patient_id = ${patientId} and not exists (select 1 from recall_exams x2 where x2.supersedes_id = x.id)
+      order by x.examined_on desc limit 1`;
+
 export interface DeskOrder {
   /**
    * Common table expressions ending in `ordered`: the first `limit` patients in order, as id,
@@ -32,8 +42,11 @@ export interface DeskOrder {
   ctes: SQL;
   /** Their order, for the columns of `ordered` under the alias given. */
   orderBy: (alias: string) => SQL;
-  /** How many patients the desk has under this filter (for the page count). */
-  count: SQL;
+  /**
+   * How many patients the desk has under this filter (for the page count), as a statement of its
+   * own (with the CTE the filter reads), run beside the page.
+   */
+  countStatement: SQL;
 }
 
 /** The desk's patients in order, walked from an index; `limit` rows at most. */
@@ -118,22 +131,23 @@ export function deskOrder(scope: Scope, today: string, q: RecallDeskCsvQuery, li
   const narrow =
     Boolean(q.search?.trim()) || q.filter === 'due-this-week' || q.filter === 'peri-implantitis-last' || limit > 1000;
   const nextDue = sql`(select min(r.due_on) from recalls r where r.patient_id = pa.id and r.status = 'scheduled')`;
-  const lastExam = sql`(select max(x.examined_on) from recall_exams x where x.patient_id = pa.id and ${current('x')})`;
+  const lastExam = sql`(${latestCurrentExamOn(sql`pa.id`)})`;
+  // `offset 0` keeps the key a subquery of its own, read once per patient: flattened, PostgreSQL
+  // would evaluate it once for each use (the group and the sort key).
   const keyed = (key: SQL, grp: SQL) =>
     one(sql`select pa.id, pa.family_name, pa.given_name, k.key, ${grp}::int as grp
-            from patients pa cross join lateral (select ${key} as key) k where ${where}`);
+            from patients pa cross join lateral (select ${key} as key offset 0) k where ${where}`);
   const window =
     q.filter === 'overdue'
       ? sql`r.due_on < ${today}::date`
       : q.filter === 'due-this-week'
         ? sql`r.due_on between ${today}::date and (${today}::date + ${DESK_DUE_SOON_DAYS}::int)`
         : sql`true`;
-  const orders: Record<RecallDeskCsvQuery['sort'], () => DeskOrder> = {
+  const orders: Record<RecallDeskCsvQuery['sort'], () => Omit<DeskOrder, 'countStatement'>> = {
     name: () => ({
       ctes: one(sql`select pa.id, pa.family_name, pa.given_name, null::date as key, 0 as grp
            from patients pa where ${where} order by pa.family_name ${dir}, pa.given_name, pa.id limit ${all}`),
       orderBy: (a) => sql`${sql.raw(a)}.family_name ${dir}, ${sql.raw(a)}.given_name, ${sql.raw(a)}.id`,
-      count,
     }),
     dueOn: () => {
       const due = (rows: SQL) => byDue(0, dir, window, rows);
@@ -142,7 +156,7 @@ export function deskOrder(scope: Scope, today: string, q: RecallDeskCsvQuery, li
         : dueFilter // only patients with a scheduled recall: no second branch
           ? one(due(all))
           : two(due, (rows) => rest(1, noneScheduled, rows));
-      return { ctes, orderBy: byKey(dir), count };
+      return { ctes, orderBy: byKey(dir) };
     },
     overdueDays: () => {
       // Overdue days order the overdue by due date (reversed); everyone else has 0 days, by name.
@@ -159,7 +173,7 @@ export function deskOrder(scope: Scope, today: string, q: RecallDeskCsvQuery, li
           : q.dir === 'desc'
             ? two(late(0), onTime(1))
             : two(onTime(0), late(1));
-      return { ctes, orderBy: byKey(keyDir), count };
+      return { ctes, orderBy: byKey(keyDir) };
     },
     lastExamOn: () => ({
       // Walked newest first; oldest first would pass every older exam of every patient, so the
@@ -175,8 +189,12 @@ export function deskOrder(scope: Scope, today: string, q: RecallDeskCsvQuery, li
               ),
             ),
       orderBy: byKey(dir),
-      count,
     }),
   };
-  return orders[q.sort]();
+  const chosen = orders[q.sort]();
+  const countStatement =
+    q.filter === 'peri-implantitis-last'
+      ? sql`with ${piPatients} select ${count} as total`
+      : sql`select ${count} as total`;
+  return { ...chosen, countStatement };
 }

@@ -1,10 +1,11 @@
 import { BlueprintProvider } from '@blueprintjs/core';
-import { QueryClientProvider } from '@tanstack/react-query';
+import { type QueryClient, QueryClientProvider } from '@tanstack/react-query';
 import { type ReactNode, useState } from 'react';
 import { createQueryClient } from './query-client';
 
-export function Providers({ children }: { children: ReactNode }) {
-  const [queryClient] = useState(createQueryClient);
+/** `client`: the app's query cache when the router's loaders share it (main.tsx); else a new one. */
+export function Providers({ children, client }: { children: ReactNode; client?: QueryClient }) {
+  const [queryClient] = useState(() => client ?? createQueryClient());
   return (
     <BlueprintProvider>
       <QueryClientProvider client={queryClient}>{children}</QueryClientProvider>

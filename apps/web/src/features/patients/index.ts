@@ -1,3 +1,3 @@
 // What other features may use from the patients feature.
 export { patientKeys } from './api/keys';
-export { usePatient } from './api/get-patient';
+export { prefetchPatient, usePatient } from './api/get-patient';

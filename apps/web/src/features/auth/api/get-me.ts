@@ -24,6 +24,11 @@ export function useMe() {
   return useQuery(meQueryOptions());
 }
 
+/** Starts reading the session as the app starts, before any page's code has loaded (the router's loader). */
+export function prefetchMe(queryClient: QueryClient): void {
+  void queryClient.prefetchQuery(meQueryOptions());
+}
+
 /** Drops every cached reply except `me`, so no data of one session outlives it. */
 export function removeAllButMe(queryClient: QueryClient): void {
   queryClient.removeQueries({
