@@ -1,7 +1,7 @@
 // Impression endpoints: the restoration's impression with its scan files, a scan file's upload
 // (lib/upload-file: progress and cancel) and its bytes for the 3D preview.
-import { ImpressionListReply, ScanFile } from '@torquetrail/contracts';
-import { useQuery } from '@tanstack/react-query';
+import { Impression, type ImpressionBody, ImpressionListReply, ScanFile } from '@torquetrail/contracts';
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { ApiError, apiRequest } from '../../../lib/api-client';
 import { uploadFile } from '../../../lib/upload-file';
 import { impressionKeys } from './keys';
@@ -12,6 +12,16 @@ export const useImpressions = (restorationId: string) =>
     queryFn: ({ signal }) =>
       apiRequest(`/api/restorations/${restorationId}/impressions`, { schema: ImpressionListReply, signal }),
   });
+
+/** Record the restoration's first impression (analog, or digital with a scan body per site). */
+export function useRecordImpression(restorationId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (body: ImpressionBody) =>
+      apiRequest(`/api/restorations/${restorationId}/impressions`, { method: 'POST', body, schema: Impression }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: impressionKeys.ofRestoration(restorationId) }),
+  });
+}
 
 export const uploadScanFile = (impressionId: string, file: File, onProgress: (loaded: number) => void) =>
   uploadFile(
