@@ -21,6 +21,14 @@ import { DB, type Database } from '../db/database.js';
 import * as repo from './impressions.repository.js';
 
 type Body = z.output<typeof ImpressionBody>;
+
+/** The impression as the lab prescription and its e-mail name it. */
+export interface ImpressionLabSheet {
+  method: Impression['method'];
+  takenOn: string;
+  scanBodies: { fdi: number; name: string; referenceCode: string; lot: string | null }[];
+  files: { id: string; name: string; fileType: ScanFile['fileType']; sizeBytes: number; objectKey: string }[];
+}
 type ScanBodyRow = Awaited<ReturnType<typeof repo.scanBodiesOf>>[number];
 
 /** The latest calendar date anywhere on Earth now (UTC+14): a later date has not happened yet. */
@@ -239,6 +247,32 @@ export class ImpressionsService {
     }
     if (Object.keys(fields).length > 0) throw fieldError(fields);
     return stored;
+  }
+
+  /**
+   * What the lab prescription says of the impression (no ability check: the caller has loaded the
+   * restoration in the user's scope): its current version with the scan bodies per site and every
+   * scan file of the restoration (name, format, size, and the key the lab mail reads it by).
+   */
+  async labSheet(restorationId: string): Promise<ImpressionLabSheet | null> {
+    const current = (await repo.impressionsOfRestoration(this.db, restorationId)).find(
+      (i) => i.supersededById === null,
+    );
+    if (!current) return null;
+    const bodies = await repo.scanBodiesOf(this.db, [current.id]);
+    const files = await repo.scanFilesOfRestoration(this.db, restorationId);
+    return {
+      method: current.method,
+      takenOn: current.takenOn,
+      scanBodies: bodies.map((b) => ({ fdi: b.fdi, name: b.name, referenceCode: b.referenceCode, lot: b.lot })),
+      files: files.map((f) => ({
+        id: f.id,
+        name: f.originalName ?? `scan-${f.id.slice(0, 8)}.${f.fileType}`,
+        fileType: f.fileType,
+        sizeBytes: f.sizeBytes,
+        objectKey: f.objectKey,
+      })),
+    };
   }
 
   private async impression(scope: Scope, id: string): Promise<Impression> {
