@@ -458,6 +458,10 @@ const TABLE: Record<string, Case[]> = {
     path: async () => `/api/scan-files/${await storedScanFile()}/file`,
     expect: every(200, { surgeon: 403, surgeonNoShare: 403, otherPracticeDentist: 404 }),
   }),
+  'GET /api/lab-files/:token': one(
+    { path: () => '/api/lab-files/bm90LWEtdG9rZW4.bm90LWEtc2lnbmF0dXJl', expect: publicRoute(404) },
+    'public',
+  ),
   'GET /api/wrenches/:id/calibrations': one(
     {
       path: () => `/api/wrenches/${wrench.id}/calibrations`,

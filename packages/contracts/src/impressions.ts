@@ -111,4 +111,10 @@ export const impressionRoutes: RouteContract[] = [
     { query: ScanFileUploadQuery, reply: ScanFile },
   ),
   r('get', '/scan-files/:id/file', 'The scan file, as an attachment', { produces: 'application/octet-stream' }),
+  r(
+    'get',
+    '/lab-files/:token',
+    'A scan file through the time-limited link mailed to the lab (no session; 410 once expired, 404 when not valid)',
+    { signedIn: false, produces: 'application/octet-stream' },
+  ),
 ];

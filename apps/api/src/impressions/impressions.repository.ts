@@ -175,6 +175,22 @@ export async function findScanFile(db: Db, scope: Scope, id: string): Promise<Sc
   return row ? { ...row.f, uploadedByName: row.uploadedByName } : null;
 }
 
+/** A scan file by id alone: for a signed lab link, whose signature is the authorisation. */
+export async function findScanFileForLink(db: Db, id: string) {
+  const [row] = await db
+    .select({
+      id: scanFiles.id,
+      practiceId: scanFiles.practiceId,
+      patientId: scanFiles.patientId,
+      objectKey: scanFiles.objectKey,
+      fileType: scanFiles.fileType,
+      originalName: scanFiles.originalName,
+    })
+    .from(scanFiles)
+    .where(eq(scanFiles.id, id));
+  return row ?? null;
+}
+
 export async function findScanFileBySha(db: Db, restorationId: string, sha256: string) {
   const [row] = await db
     .select({ id: scanFiles.id })

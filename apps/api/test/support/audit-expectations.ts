@@ -105,6 +105,9 @@ export const AUDIT_EXPECTATIONS: Record<string, Audited | null> = {
   'POST /api/impressions/:id/amendments': amend,
   'POST /api/impressions/:id/scan-files': create,
   'GET /api/scan-files/:id/file': { action: 'export', patient: true },
+  // No session: a download through a valid link writes its own 'export' row in the service
+  // (impression-lab.e2e-spec.ts); a refused link names no one and no patient.
+  'GET /api/lab-files/:token': null,
   'GET /api/people': null,
   'POST /api/people/invitations': { action: 'invite', patient: false },
   'POST /api/people/invitations/:id/resend': { action: 'invite', patient: false },
