@@ -132,7 +132,15 @@ export function ImpressionPanel({
           )}
           {open && (
             <Suspense fallback={<Spinner size={24} aria-label="Loading the 3D preview" />}>
-              <ScanPreview key={open.id} file={open} />
+              <ScanPreview
+                key={open.id}
+                file={open}
+                scanBodies={current.scanBodies.map((b) => ({
+                  site: formatTooth(b.fdi, system),
+                  part: `${b.name} (${b.referenceCode})`,
+                  lot: b.lot,
+                }))}
+              />
             </Suspense>
           )}
         </>
