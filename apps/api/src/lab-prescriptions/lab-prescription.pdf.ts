@@ -3,7 +3,7 @@
 import { type PracticeContactLines, practiceContactLines } from '../common/patient-pdf.js';
 import { FONT, notoPdfDocument, pdfBytes } from '../common/pdf-document.js';
 import { type ComponentKind, MANUFACTURER_CAUTION, STACK_ORDER } from '@torquetrail/contracts';
-import { fdiToUniversal } from '@torquetrail/domain';
+import { fdiToUniversal, type ImpressionMethod } from '@torquetrail/domain';
 
 interface PrescriptionPart {
   kind: string;
@@ -50,7 +50,7 @@ export interface PrescriptionInput {
   sites: PrescriptionSite[];
   /** The restoration's recorded impression (current version), when there is one. */
   impression: {
-    method: 'analog' | 'digital';
+    method: ImpressionMethod;
     takenOn: string;
     scanBodies: { fdi: number; name: string; referenceCode: string; lot: string | null }[];
     files: { name: string; fileType: string; sizeBytes: number }[];
