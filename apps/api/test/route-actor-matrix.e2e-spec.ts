@@ -704,6 +704,18 @@ const TABLE: Record<string, Case[]> = {
     },
     'own practice',
   ),
+  'GET /api/practice/impression-settings': one(
+    { path: () => '/api/practice/impression-settings', expect: every(200) },
+    'own practice',
+  ),
+  'PUT /api/practice/impression-settings': one(
+    {
+      path: () => '/api/practice/impression-settings',
+      body: () => ({ requireScanBodyRadiograph: false }),
+      expect: adminOnly(200),
+    },
+    'own practice',
+  ),
   'PUT /api/practice/session-settings': one(
     { path: () => '/api/practice/session-settings', body: () => ({ idleSignOutMinutes: 15 }), expect: adminOnly(200) },
     'own practice',

@@ -5,9 +5,10 @@ import {
   type Impression,
   type ImpressionBody,
   type ImpressionListReply,
+  type ImpressionSettings,
   type ScanFile,
 } from '@torquetrail/contracts';
-import { checkScanBodies } from '@torquetrail/domain';
+import { checkScanBodies, seatingRadiographFindings } from '@torquetrail/domain';
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
@@ -94,7 +95,34 @@ export class ImpressionsService {
       rows.map((i) => i.id),
     );
     const files = await repo.scanFilesOfRestoration(this.db, r.id);
-    return { items: rows.map((i) => toImpression(i, bodies)), scanFiles: files.map(toScanFile) };
+    const current = rows.find((i) => i.supersededById === null);
+    const findings = current
+      ? seatingRadiographFindings(
+          current.method,
+          await repo.hasImpressionSeatingCheck(this.db, r.id),
+          await repo.requiresScanBodyRadiograph(this.db, r.practiceId),
+        )
+      : [];
+    return { items: rows.map((i) => toImpression(i, bodies)), scanFiles: files.map(toScanFile), findings };
+  }
+
+  async settings(scope: Scope): Promise<ImpressionSettings> {
+    return { requireScanBodyRadiograph: await repo.requiresScanBodyRadiograph(this.db, scope.practiceId) };
+  }
+
+  /** The practice's choice; digital impressions are judged by it from the next time they are read. */
+  async setSettings(scope: Scope, body: ImpressionSettings): Promise<ImpressionSettings> {
+    await auditedTransaction(this.db, async (tx) => {
+      const before = await repo.requiresScanBodyRadiograph(tx, scope.practiceId);
+      await repo.setRequiresScanBodyRadiograph(tx, scope.practiceId, body.requireScanBodyRadiograph);
+      reportChange({
+        type: 'Practice',
+        id: scope.practiceId,
+        before: { requireScanBodyRadiograph: before },
+        after: body,
+      });
+    });
+    return body;
   }
 
   async record(

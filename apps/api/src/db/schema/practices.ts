@@ -18,6 +18,11 @@ export const practices = pgTable('practices', {
   wrenchCalibrationIntervalMonths: integer('wrench_calibration_interval_months')
     .notNull()
     .default(DEFAULT_CALIBRATION_INTERVAL_MONTHS),
+  /**
+   * A digital impression asks for a radiograph of the seated scan bodies (its seating check):
+   * without one it carries a Finding. Off until the practice turns it on.
+   */
+  requireScanBodyRadiograph: boolean('require_scan_body_radiograph').notNull().default(false),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 });
 

@@ -72,6 +72,11 @@ export function ImpressionPanel({
       <h3>
         Impression · {IMPRESSION_METHOD_LABEL[current.method]} · {formatDate(current.takenOn)}
       </h3>
+      {query.data.findings.map((f) => (
+        <Callout key={f.code} intent="warning" icon="warning-sign" compact data-testid="impression-finding">
+          {f.message} <span className="muted">({f.source ?? 'common practice'})</span>
+        </Callout>
+      ))}
       {current.scanBodies.length > 0 && (
         <HTMLTable compact>
           <thead>
