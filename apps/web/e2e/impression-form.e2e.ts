@@ -32,7 +32,7 @@ describe('impression form', () => {
     const select = site.getByRole('combobox');
     // A scan body under "Other platforms": the planner's rule names the site and both platforms.
     const other = await select.locator('optgroup[label="Other platforms"] option').first().getAttribute('value');
-    await select.selectOption(other!);
+    await select.selectOption(other);
     await site.getByRole('textbox').fill('');
     await form.getByTestId('record-impression').click();
     await expect.poll(() => site.textContent(), { timeout: 10_000 }).toMatch(/platform; the implant at site 14 is/);
@@ -40,7 +40,7 @@ describe('impression form', () => {
     await screenshot(page, 'impression-form-platform-error');
 
     const fits = await select.locator('optgroup').first().locator('option').first().getAttribute('value');
-    await select.selectOption(fits!);
+    await select.selectOption(fits);
     await form.getByTestId('record-impression').click();
     await expect
       .poll(() => site.textContent(), { timeout: 10_000 })
