@@ -48,8 +48,12 @@ describe('impression form', () => {
     await site.getByRole('textbox').fill('SB-LOT-7731');
     await form.getByTestId('record-impression').click();
 
-    await expect.poll(() => panel.textContent(), { timeout: 15_000 }).toMatch(/Digital \(intraoral scan\)/);
+    // Saved: the form closes and the panel shows the recorded impression (not the form's radio label).
+    await expect.poll(() => page.getByTestId('impression-form').count(), { timeout: 30_000 }).toBe(0);
+    await expect
+      .poll(() => panel.textContent(), { timeout: 15_000 })
+      .toMatch(/Impression · Digital \(intraoral scan\)/);
     expect(await panel.textContent()).toMatch(/SB-LOT-7731/);
-    expect(await page.getByTestId('impression-form').count()).toBe(0);
-  });
+    await screenshot(page, 'impression-form-recorded');
+  }, 150_000);
 });
