@@ -175,7 +175,7 @@ export class ScanFilesService {
     if (!check.ok && check.reason === 'expired')
       throw new GoneException('This download link has expired; ask the practice to send the prescription again');
     const f = check.ok ? await repo.findScanFileForLink(this.db, check.scanFileId) : null;
-    if (!f) throw new NotFoundException('This download link is not valid');
+    if (!f) throw new NotFoundException('No such download link: check it was copied whole');
     let stream: Readable;
     try {
       stream = await this.storage.getStream(f.objectKey);
