@@ -458,6 +458,10 @@ const TABLE: Record<string, Case[]> = {
     path: async () => `/api/scan-files/${await storedScanFile()}/file`,
     expect: every(200, { surgeon: 403, surgeonNoShare: 403, otherPracticeDentist: 404 }),
   }),
+  'GET /api/lab-files/:token': one(
+    { path: () => '/api/lab-files/bm90LWEtdG9rZW4.bm90LWEtc2lnbmF0dXJl', expect: publicRoute(404) },
+    'public',
+  ),
   'GET /api/wrenches/:id/calibrations': one(
     {
       path: () => `/api/wrenches/${wrench.id}/calibrations`,
@@ -696,6 +700,18 @@ const TABLE: Record<string, Case[]> = {
     {
       path: () => '/api/practice/wrench-settings',
       body: () => ({ calibrationIntervalMonths: 12 }),
+      expect: adminOnly(200),
+    },
+    'own practice',
+  ),
+  'GET /api/practice/impression-settings': one(
+    { path: () => '/api/practice/impression-settings', expect: every(200) },
+    'own practice',
+  ),
+  'PUT /api/practice/impression-settings': one(
+    {
+      path: () => '/api/practice/impression-settings',
+      body: () => ({ requireScanBodyRadiograph: false }),
       expect: adminOnly(200),
     },
     'own practice',

@@ -119,6 +119,8 @@ const PARAM_IDS: Record<string, string | undefined> = {
   '/imports/progress/:runId': NO_ROW,
   // Another patient's scan file (Wendell's digital impression): no share opens it.
   '/scan-files/:id': await anyOf('scan_files'),
+  // The lab's signed link, not a session's route: a token that does not verify opens nothing.
+  '/lab-files/:token': 'bm90LWEtdG9rZW4.bm90LWEtc2lnbmF0dXJl',
 };
 
 const ROUTES = apiRoutes

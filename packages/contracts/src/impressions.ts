@@ -4,6 +4,7 @@
 import { z } from 'zod';
 import { Id, IsoDate, IsoDateTime, NoteText, PlainText } from './common.js';
 import { keepingOmitted } from './amendment.js';
+import { Finding } from './ledger-restorations.js';
 import { ImpressionMethod, ScanFileType } from './enums.js';
 import type { RouteContract } from './route-contract.js';
 
@@ -76,9 +77,23 @@ export const ScanFile = z.object({
 });
 export type ScanFile = z.infer<typeof ScanFile>;
 
-/** Every version of the restoration's impression, oldest first, and the scan files of all of them. */
-export const ImpressionListReply = z.object({ items: z.array(Impression), scanFiles: z.array(ScanFile) });
+/**
+ * Every version of the restoration's impression, oldest first, and the scan files of all of them;
+ * `findings`: what the current version still asks for (a seating radiograph of the scan bodies,
+ * where the practice requires one).
+ */
+export const ImpressionListReply = z.object({
+  items: z.array(Impression),
+  scanFiles: z.array(ScanFile),
+  findings: z.array(Finding),
+});
 export type ImpressionListReply = z.infer<typeof ImpressionListReply>;
+
+/** The practice's impression rules: whether a digital impression asks for a scan-body radiograph (off by default). */
+export const ImpressionSettings = z.object({
+  requireScanBodyRadiograph: z.boolean({ error: 'Say whether the radiograph is asked for' }),
+});
+export type ImpressionSettings = z.infer<typeof ImpressionSettings>;
 
 /** The upload's details travel in the query string: the body is the file's bytes. */
 export const ScanFileUploadQuery = z.object({
@@ -111,4 +126,15 @@ export const impressionRoutes: RouteContract[] = [
     { query: ScanFileUploadQuery, reply: ScanFile },
   ),
   r('get', '/scan-files/:id/file', 'The scan file, as an attachment', { produces: 'application/octet-stream' }),
+  r('get', '/practice/impression-settings', "The practice's impression rules", { reply: ImpressionSettings }),
+  r('put', '/practice/impression-settings', 'Set whether a digital impression asks for a scan-body radiograph', {
+    body: ImpressionSettings,
+    reply: ImpressionSettings,
+  }),
+  r(
+    'get',
+    '/lab-files/:token',
+    'A scan file through the time-limited link mailed to the lab (no session; 410 once expired, 404 when not valid)',
+    { signedIn: false, produces: 'application/octet-stream' },
+  ),
 ];

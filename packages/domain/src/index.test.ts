@@ -229,6 +229,12 @@ describe('package root answers through the public API', () => {
     // survival.test.ts (reference §11 [derived]): 6 events over 480 implant-years → 1.25
     ['eventsPer100ImplantYears', () => domain.eventsPer100ImplantYears(6, 480), 1.25],
     ['followUpYears', () => domain.followUpYears('2024-01-01', '2025-01-01'), 366 / 365.25],
+    // scan-bodies.test.ts [common practice]: the practice asks, the digital impression has none
+    [
+      'seatingRadiographFindings',
+      () => domain.seatingRadiographFindings('digital', false, true).map((f) => f.code),
+      ['scan-body-seating-radiograph-missing'],
+    ],
   ])('%s', (_name, call, expected) => {
     expect(call()).toEqual(expected);
   });

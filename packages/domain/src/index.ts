@@ -275,5 +275,10 @@ export type { SurvivalObservation, KaplanMeierStep, KaplanMeierResult } from './
 
 // ---- impressions -----------------------------------------------------------------------------
 /** Scan bodies of a digital impression: one per site, a scan body, of the site's platform, with its lot. */
-export { checkScanBodies, IMPRESSION_METHODS, SCAN_BODY_FINDING_CODES } from './scan-bodies.js';
+export {
+  checkScanBodies,
+  IMPRESSION_METHODS,
+  SCAN_BODY_FINDING_CODES,
+  seatingRadiographFindings,
+} from './scan-bodies.js';
 export type { ImpressionMethod, ImpressionSite, ScanBodyEntry } from './scan-bodies.js';

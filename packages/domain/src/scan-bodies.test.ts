@@ -2,7 +2,7 @@
 // lot the catalogue asks for. Matching the scan body to the implant's platform and connection is
 // [common practice] (docs/clinical-rules.md §8a).
 import { describe, expect, it } from 'vitest';
-import { checkScanBodies, type ScanBodyEntry } from './scan-bodies.js';
+import { checkScanBodies, type ScanBodyEntry, seatingRadiographFindings } from './scan-bodies.js';
 
 const sites = [
   { fdi: 44, platformId: 'p-rp', platformName: 'RP 4.3' },
@@ -75,5 +75,19 @@ describe('checkScanBodies [common practice]', () => {
     expect(codes(checkScanBodies('analog', sites, [body(44, 'p-rp')]))).toEqual([
       ['scan-body-on-analog-impression', 44],
     ]);
+  });
+});
+
+describe('seating radiograph of the scan bodies [common practice]: asked for where the practice requires it', () => {
+  it('warns on a digital impression without a linked radiograph when the practice asks for one', () => {
+    const found = seatingRadiographFindings('digital', false, true);
+    expect(found.map((f) => [f.severity, f.code])).toEqual([['warning', 'scan-body-seating-radiograph-missing']]);
+    expect(found[0].source).toBe('common practice');
+  });
+
+  it('asks nothing once a radiograph is linked, of an analog impression, or when the practice does not ask', () => {
+    expect(seatingRadiographFindings('digital', true, true)).toEqual([]);
+    expect(seatingRadiographFindings('analog', false, true)).toEqual([]);
+    expect(seatingRadiographFindings('digital', false, false)).toEqual([]);
   });
 });

@@ -15,6 +15,7 @@ export const SCAN_BODY_FINDING_CODES = Object.freeze({
   LOT_MISSING: 'scan-body-lot-missing',
   ANALOG_WITH_SCAN_BODY: 'scan-body-on-analog-impression',
   NOT_A_SITE: 'scan-body-not-a-site',
+  SEATING_RADIOGRAPH_MISSING: 'scan-body-seating-radiograph-missing',
 });
 
 /** One site of the restoration, with the platform of its implant. */
@@ -79,4 +80,27 @@ export function checkScanBodies(
       );
   }
   return findings;
+}
+
+/**
+ * A digital impression whose scan bodies were not shown seated on a radiograph, where the practice
+ * asks for one (its setting, off by default): a warning, since a scan body not fully down on the
+ * implant moves the restoration's interface in the lab's model [common practice]. Analog
+ * impressions and practices that do not ask get nothing.
+ */
+export function seatingRadiographFindings(
+  method: ImpressionMethod,
+  radiographLinked: boolean,
+  practiceRequiresIt: boolean,
+): Finding[] {
+  if (method !== 'digital' || !practiceRequiresIt || radiographLinked) return [];
+  return [
+    {
+      severity: 'warning',
+      code: SCAN_BODY_FINDING_CODES.SEATING_RADIOGRAPH_MISSING,
+      message:
+        'The practice asks for a radiograph of the seated scan bodies: link one to this digital impression as its seating check',
+      source: PLAN_SOURCES.COMMON_PRACTICE,
+    },
+  ];
 }

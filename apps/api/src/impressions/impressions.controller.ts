@@ -1,8 +1,9 @@
-import { Body, Controller, Get, HttpStatus, Param, ParseUUIDPipe, Post } from '@nestjs/common';
+import { Body, Controller, Get, HttpStatus, Param, ParseUUIDPipe, Post, Put } from '@nestjs/common';
 import type { AppAbility } from '@torquetrail/authz';
 import {
   ImpressionAmendmentBody,
   ImpressionBody,
+  ImpressionSettings,
   type Impression,
   type ImpressionListReply,
 } from '@torquetrail/contracts';
@@ -50,5 +51,20 @@ export class ImpressionsController {
     @Body(new ZodValidationPipe(ImpressionAmendmentBody)) body: z.output<typeof ImpressionAmendmentBody>,
   ): Promise<Impression> {
     return this.impressions.amend(ability, user, scopeOf(user), id, body);
+  }
+
+  @Get('practice/impression-settings')
+  @Allow('read', 'Practice')
+  settings(@CurrentUser() user: SessionUser): Promise<ImpressionSettings> {
+    return this.impressions.settings(scopeOf(user));
+  }
+
+  @Put('practice/impression-settings')
+  @Allow('update', 'Practice')
+  setSettings(
+    @CurrentUser() user: SessionUser,
+    @Body(new ZodValidationPipe(ImpressionSettings)) body: ImpressionSettings,
+  ): Promise<ImpressionSettings> {
+    return this.impressions.setSettings(scopeOf(user), body);
   }
 }

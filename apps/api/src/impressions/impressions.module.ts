@@ -7,5 +7,7 @@ import { ScanFilesService } from './scan-files.service.js';
 @Module({
   controllers: [ImpressionsController, ScanFilesController],
   providers: [ImpressionsService, ScanFilesService],
+  // The lab prescription names the impression, its scan bodies and scan files.
+  exports: [ImpressionsService],
 })
 export class ImpressionsModule {}

@@ -13,9 +13,11 @@ import {
   patients,
   placements,
   platforms,
+  practices,
   restorationSites,
   restorations,
   scanFiles,
+  seatingChecks,
   users,
 } from '../db/schema/index.js';
 import type { Scope } from '../authz/scope.js';
@@ -175,6 +177,22 @@ export async function findScanFile(db: Db, scope: Scope, id: string): Promise<Sc
   return row ? { ...row.f, uploadedByName: row.uploadedByName } : null;
 }
 
+/** A scan file by id alone: for a signed lab link, whose signature is the authorisation. */
+export async function findScanFileForLink(db: Db, id: string) {
+  const [row] = await db
+    .select({
+      id: scanFiles.id,
+      practiceId: scanFiles.practiceId,
+      patientId: scanFiles.patientId,
+      objectKey: scanFiles.objectKey,
+      fileType: scanFiles.fileType,
+      originalName: scanFiles.originalName,
+    })
+    .from(scanFiles)
+    .where(eq(scanFiles.id, id));
+  return row ?? null;
+}
+
 export async function findScanFileBySha(db: Db, restorationId: string, sha256: string) {
   const [row] = await db
     .select({ id: scanFiles.id })
@@ -185,4 +203,27 @@ export async function findScanFileBySha(db: Db, restorationId: string, sha256: s
 
 export async function insertScanFile(tx: Tx, values: typeof scanFiles.$inferInsert) {
   await tx.insert(scanFiles).values(values);
+}
+
+/** Whether the practice asks for a radiograph of the seated scan bodies of a digital impression. */
+export async function requiresScanBodyRadiograph(db: Db, practiceId: string): Promise<boolean> {
+  const [row] = await db
+    .select({ v: practices.requireScanBodyRadiograph })
+    .from(practices)
+    .where(eq(practices.id, practiceId));
+  return row?.v ?? false;
+}
+
+export async function setRequiresScanBodyRadiograph(tx: Tx, practiceId: string, value: boolean) {
+  await tx.update(practices).set({ requireScanBodyRadiograph: value }).where(eq(practices.id, practiceId));
+}
+
+/** Whether the restoration's impression has a seating check (a radiograph linked to it), any version. */
+export async function hasImpressionSeatingCheck(db: Db, restorationId: string): Promise<boolean> {
+  const [row] = await db
+    .select({ id: seatingChecks.id })
+    .from(seatingChecks)
+    .where(and(eq(seatingChecks.restorationId, restorationId), eq(seatingChecks.event, 'impression')))
+    .limit(1);
+  return row !== undefined;
 }

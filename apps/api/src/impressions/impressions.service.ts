@@ -5,9 +5,10 @@ import {
   type Impression,
   type ImpressionBody,
   type ImpressionListReply,
+  type ImpressionSettings,
   type ScanFile,
 } from '@torquetrail/contracts';
-import { checkScanBodies } from '@torquetrail/domain';
+import { checkScanBodies, seatingRadiographFindings } from '@torquetrail/domain';
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
@@ -21,6 +22,14 @@ import { DB, type Database } from '../db/database.js';
 import * as repo from './impressions.repository.js';
 
 type Body = z.output<typeof ImpressionBody>;
+
+/** The impression as the lab prescription and its e-mail name it. */
+export interface ImpressionLabSheet {
+  method: Impression['method'];
+  takenOn: string;
+  scanBodies: { fdi: number; name: string; referenceCode: string; lot: string | null }[];
+  files: { id: string; name: string; fileType: ScanFile['fileType']; sizeBytes: number; objectKey: string }[];
+}
 type ScanBodyRow = Awaited<ReturnType<typeof repo.scanBodiesOf>>[number];
 
 /** The latest calendar date anywhere on Earth now (UTC+14): a later date has not happened yet. */
@@ -86,7 +95,34 @@ export class ImpressionsService {
       rows.map((i) => i.id),
     );
     const files = await repo.scanFilesOfRestoration(this.db, r.id);
-    return { items: rows.map((i) => toImpression(i, bodies)), scanFiles: files.map(toScanFile) };
+    const current = rows.find((i) => i.supersededById === null);
+    const findings = current
+      ? seatingRadiographFindings(
+          current.method,
+          await repo.hasImpressionSeatingCheck(this.db, r.id),
+          await repo.requiresScanBodyRadiograph(this.db, r.practiceId),
+        )
+      : [];
+    return { items: rows.map((i) => toImpression(i, bodies)), scanFiles: files.map(toScanFile), findings };
+  }
+
+  async settings(scope: Scope): Promise<ImpressionSettings> {
+    return { requireScanBodyRadiograph: await repo.requiresScanBodyRadiograph(this.db, scope.practiceId) };
+  }
+
+  /** The practice's choice; digital impressions are judged by it from the next time they are read. */
+  async setSettings(scope: Scope, body: ImpressionSettings): Promise<ImpressionSettings> {
+    await auditedTransaction(this.db, async (tx) => {
+      const before = await repo.requiresScanBodyRadiograph(tx, scope.practiceId);
+      await repo.setRequiresScanBodyRadiograph(tx, scope.practiceId, body.requireScanBodyRadiograph);
+      reportChange({
+        type: 'Practice',
+        id: scope.practiceId,
+        before: { requireScanBodyRadiograph: before },
+        after: body,
+      });
+    });
+    return body;
   }
 
   async record(
@@ -239,6 +275,32 @@ export class ImpressionsService {
     }
     if (Object.keys(fields).length > 0) throw fieldError(fields);
     return stored;
+  }
+
+  /**
+   * What the lab prescription says of the impression (no ability check: the caller has loaded the
+   * restoration in the user's scope): its current version with the scan bodies per site and every
+   * scan file of the restoration (name, format, size, and the key the lab mail reads it by).
+   */
+  async labSheet(restorationId: string): Promise<ImpressionLabSheet | null> {
+    const current = (await repo.impressionsOfRestoration(this.db, restorationId)).find(
+      (i) => i.supersededById === null,
+    );
+    if (!current) return null;
+    const bodies = await repo.scanBodiesOf(this.db, [current.id]);
+    const files = await repo.scanFilesOfRestoration(this.db, restorationId);
+    return {
+      method: current.method,
+      takenOn: current.takenOn,
+      scanBodies: bodies.map((b) => ({ fdi: b.fdi, name: b.name, referenceCode: b.referenceCode, lot: b.lot })),
+      files: files.map((f) => ({
+        id: f.id,
+        name: f.originalName ?? `scan-${f.id.slice(0, 8)}.${f.fileType}`,
+        fileType: f.fileType,
+        sizeBytes: f.sizeBytes,
+        objectKey: f.objectKey,
+      })),
+    };
   }
 
   private async impression(scope: Scope, id: string): Promise<Impression> {

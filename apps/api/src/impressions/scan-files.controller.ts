@@ -5,6 +5,7 @@ import { ScanFileUploadQuery, type ScanFile } from '@torquetrail/contracts';
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
 import { Audit } from '../audit/audit.decorator.js';
+import { Public } from '../common/public.decorator.js';
 import { Allow } from '../authz/check-ability.decorator.js';
 import { scopeOf } from '../authz/scope.js';
 import { CurrentAbility, CurrentUser } from '../common/current-user.decorator.js';
@@ -41,5 +42,21 @@ export class ScanFilesController {
   ): Promise<StreamableFile> {
     const f = await this.scanFiles.file(ability, scopeOf(user), id);
     return new StreamableFile(f.stream, { type: f.type, disposition: `attachment; filename="${f.filename}"` });
+  }
+
+  /**
+   * A scan file through the time-limited link mailed to the lab (no session: the signed token is
+   * the permission). Its audit row is written by the service, which knows whose file it was.
+   */
+  @Get('lab-files/:token')
+  @Public()
+  async labFile(@Param('token') token: string, @Req() req: Request): Promise<StreamableFile> {
+    const f = await this.scanFiles.fileByLink(token.slice(0, 400), {
+      address: req.ip ?? null,
+      userAgent: req.get('user-agent')?.slice(0, 400) ?? null,
+      requestId: typeof req.id === 'string' ? req.id : null,
+    });
+    const safeName = f.filename.replace(/[^\w.-]+/g, '_');
+    return new StreamableFile(f.stream, { type: f.type, disposition: `attachment; filename="${safeName}"` });
   }
 }

@@ -2,6 +2,7 @@ import { randomUUID } from 'node:crypto';
 import type { Readable } from 'node:stream';
 import {
   ConflictException,
+  GoneException,
   Inject,
   Injectable,
   NotFoundException,
@@ -17,13 +18,14 @@ import { assertCan, type Scope } from '../authz/scope.js';
 import { reportChange } from '../common/audit-context.js';
 import { isUniqueViolation } from '../common/postgres-error.js';
 import { ENV, type Env } from '../config/env.js';
-import { auditedTransaction } from '../db/audited-transaction.js';
+import { auditedTransaction, insertAuditEvent } from '../db/audited-transaction.js';
 import { DB, type Database } from '../db/database.js';
 import { StorageService } from '../storage/storage.service.js';
 import { StreamSlots } from '../storage/stream-slots.js';
 import { drainUnread, putSplit, removeQuietly, splitHead, TooLarge } from '../storage/upload-stream.js';
 import { toScanFile } from './impressions.service.js';
 import * as repo from './impressions.repository.js';
+import { verifyLabFileLink } from './lab-file-link.js';
 import { detectMesh, MESH_CONTENT_TYPES } from './mesh-type.js';
 
 const mb = (bytes: number) => `${Math.round(bytes / (1024 * 1024))} MB`;
@@ -158,6 +160,45 @@ export class ScanFilesService {
       if (!recorded) await removeQuietly(this.storage, objectKey);
     }
     return id;
+  }
+
+  /**
+   * The file a lab's mailed link opens (lab-file-link.ts): 404 for a token that does not verify,
+   * 410 once it expired. No one is signed in, so the download's audit row is written here: the
+   * practice's trail shows the patient's file leaving to the lab, with the address it went to.
+   */
+  async fileByLink(
+    token: string,
+    request: { address: string | null; userAgent: string | null; requestId: string | null },
+  ) {
+    const check = verifyLabFileLink(this.env.JWT_SECRET, token, new Date());
+    if (!check.ok && check.reason === 'expired')
+      throw new GoneException('This download link has expired; ask the practice to send the prescription again');
+    const f = check.ok ? await repo.findScanFileForLink(this.db, check.scanFileId) : null;
+    if (!f) throw new NotFoundException('No such download link: check it was copied whole');
+    let stream: Readable;
+    try {
+      stream = await this.storage.getStream(f.objectKey);
+    } catch {
+      throw new ServiceUnavailableException('Object storage is unavailable; try again in a few minutes');
+    }
+    await insertAuditEvent(this.db, {
+      practiceId: f.practiceId,
+      userId: null,
+      role: null,
+      action: 'export',
+      outcome: 'allowed',
+      httpStatus: 200,
+      route: 'GET /lab-files/:token',
+      recordType: 'Impression',
+      recordId: f.id,
+      patientId: f.patientId,
+      query: null,
+      before: null,
+      after: null,
+      ...request,
+    });
+    return { stream, type: MESH_CONTENT_TYPES[f.fileType], filename: f.originalName ?? `scan-${f.id}.${f.fileType}` };
   }
 
   async file(ability: AppAbility, scope: Scope, id: string) {

@@ -7,9 +7,15 @@
 import { Inject, Injectable } from '@nestjs/common';
 import { ENV, type Env } from '../config/env.js';
 import { DB, type Database } from '../db/database.js';
+import { ImpressionsService, type ImpressionLabSheet } from '../impressions/impressions.service.js';
 import { JobsService } from '../jobs/jobs.service.js';
 import { MailService } from '../mail/mail.service.js';
 import { StorageService } from '../storage/storage.service.js';
+import {
+  LAB_FILE_LINK_TTL_MS,
+  LAB_MAIL_ATTACHMENT_LIMIT_BYTES,
+  signLabFileLink,
+} from '../impressions/lab-file-link.js';
 import * as repo from './lab-prescriptions.repository.js';
 import { pdfFilename } from './pdf-filename.js';
 
@@ -24,13 +30,19 @@ export type LabMailOutcome = 'sent' | 'already-sent' | 'gone' | 'failed';
 
 @Injectable()
 export class LabMailService {
+  private readonly secret: string;
+  /** Where the mailed links point: APP_URL, else this API's own address (development, tests). */
+  private readonly origin: string;
   constructor(
     @Inject(ENV) env: Env,
     @Inject(DB) private readonly db: Database,
     private readonly jobs: JobsService,
     private readonly mail: MailService,
     private readonly storage: StorageService,
+    private readonly impressions: ImpressionsService,
   ) {
+    this.secret = env.JWT_SECRET;
+    this.origin = (env.APP_URL ?? `http://localhost:${env.PORT}`).replace(/\/+$/, '');
     // The same retry settings as reminders: every mail waits for SMTP the same way.
     jobs.register<SendJob>({
       name: SEND_QUEUE,
@@ -66,6 +78,36 @@ export class LabMailService {
       await this.jobs.send(SEND_QUEUE, { mailId: id } satisfies SendJob, id);
   }
 
+  /**
+   * The scan files of a digital impression: attached while they stay within
+   * LAB_MAIL_ATTACHMENT_LIMIT_BYTES together, else one time-limited link per file in the text.
+   */
+  private async scanFilesPart(sheet: ImpressionLabSheet | null) {
+    const files = sheet?.files ?? [];
+    if (files.length === 0) return { mode: 'none', text: '', attachments: [] };
+    const total = files.reduce((n, f) => n + f.sizeBytes, 0);
+    if (total <= LAB_MAIL_ATTACHMENT_LIMIT_BYTES) {
+      const attachments = await Promise.all(
+        files.map(async (f) => ({
+          filename: f.name,
+          content: await this.storage.get(f.objectKey),
+          contentType: 'application/octet-stream',
+        })),
+      );
+      return { mode: 'attached', text: '\n\nThe scan files are attached too.', attachments };
+    }
+    const expiresAt = new Date(Date.now() + LAB_FILE_LINK_TTL_MS);
+    const lines = files.map(
+      (f) =>
+        `${f.name} (${f.fileType.toUpperCase()}, ${f.sizeBytes} bytes):\n${this.origin}/api/lab-files/${signLabFileLink(this.secret, f.id, expiresAt)}`,
+    );
+    return {
+      mode: 'linked',
+      text: `\n\nThe scan files are too large to attach. Download them until ${expiresAt.toISOString().slice(0, 16).replace('T', ' ')} UTC:\n${lines.join('\n')}`,
+      attachments: [],
+    };
+  }
+
   /** Sends one request at most once: locked for the send, marked sent only after SMTP accepted it. */
   async deliver(mailId: string, finalAttempt = false): Promise<LabMailOutcome> {
     return this.db.transaction(async (tx) => {
@@ -74,12 +116,20 @@ export class LabMailService {
       if (row.status === 'sent') return 'already-sent';
       try {
         const pdf = await this.storage.get(row.objectKey);
+        const scans = await this.scanFilesPart(await this.impressions.labSheet(row.restorationId));
         const messageId = await this.mail.send({
           to: row.sentTo,
           subject: `Lab prescription ${row.chartNumber} from ${row.practiceName}`,
-          text: `Please find the lab prescription for ${row.chartNumber} attached.${row.dueOn ? ` Due ${row.dueOn}.` : ''}\n\n${row.practiceName}`,
-          attachments: [{ filename: pdfFilename(row.chartNumber), content: pdf, contentType: 'application/pdf' }],
-          headers: { 'X-Torquetrail-Lab-Prescription': row.labPrescriptionId, 'X-Torquetrail-Lab-Mail': row.id },
+          text: `Please find the lab prescription for ${row.chartNumber} attached.${row.dueOn ? ` Due ${row.dueOn}.` : ''}${scans.text}\n\n${row.practiceName}`,
+          attachments: [
+            { filename: pdfFilename(row.chartNumber), content: pdf, contentType: 'application/pdf' },
+            ...scans.attachments,
+          ],
+          headers: {
+            'X-Torquetrail-Lab-Prescription': row.labPrescriptionId,
+            'X-Torquetrail-Lab-Mail': row.id,
+            'X-Torquetrail-Scan-Files': scans.mode,
+          },
         });
         await repo.markMailSent(tx, row.id, row.labPrescriptionId, row.sentTo, messageId);
         return 'sent';

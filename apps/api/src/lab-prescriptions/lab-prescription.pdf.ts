@@ -4,7 +4,7 @@ import { type PracticeContactLines, practiceContactLines } from '../common/patie
 import { FONT, notoPdfDocument, pdfBytes } from '../common/pdf-document.js';
 import { datePrinter } from '../common/printed-dates.js';
 import { type ComponentKind, MANUFACTURER_CAUTION, STACK_ORDER } from '@torquetrail/contracts';
-import { fdiToUniversal } from '@torquetrail/domain';
+import { fdiToUniversal, type ImpressionMethod } from '@torquetrail/domain';
 
 interface PrescriptionPart {
   kind: string;
@@ -49,6 +49,13 @@ export interface PrescriptionInput {
   notes: string | null;
   issuedOn: string;
   sites: PrescriptionSite[];
+  /** The restoration's recorded impression (current version), when there is one. */
+  impression: {
+    method: ImpressionMethod;
+    takenOn: string;
+    scanBodies: { fdi: number; name: string; referenceCode: string; lot: string | null }[];
+    files: { name: string; fileType: string; sizeBytes: number }[];
+  } | null;
 }
 
 const LABELS: Record<string, string> = {
@@ -72,6 +79,33 @@ const LABELS: Record<string, string> = {
   'external-hex': 'external hex',
 };
 const label = (v: string) => LABELS[v] ?? v;
+
+/** A file size as the lab reads it: kB below a megabyte, MB above (decimal units). */
+const fileSize = (bytes: number) =>
+  bytes < 1_000_000 ? `${Math.max(1, Math.round(bytes / 1000))} kB` : `${(bytes / 1_000_000).toFixed(1)} MB`;
+
+function impressionSection(doc: PDFKit.PDFDocument, impression: NonNullable<PrescriptionInput['impression']>) {
+  doc
+    .font(FONT.bold)
+    .fontSize(11)
+    .text(
+      `Impression: ${impression.method === 'digital' ? 'digital (intraoral scan)' : 'analog (copings and tray)'}, taken ${impression.takenOn}`,
+    );
+  doc.font(FONT.regular).fontSize(10);
+  if (impression.method === 'digital') {
+    for (const b of impression.scanBodies)
+      doc.text(
+        `Scan body at ${b.fdi} (FDI) / ${fdiToUniversal(b.fdi)}: ${b.name} [${b.referenceCode}], lot ${b.lot ?? 'not recorded'}`,
+        {
+          indent: 12,
+        },
+      );
+    if (impression.files.length === 0) doc.text('Scan files: none uploaded yet', { indent: 12 });
+    for (const f of impression.files)
+      doc.text(`Scan file: ${f.name} (${f.fileType.toUpperCase()}, ${fileSize(f.sizeBytes)})`, { indent: 12 });
+  }
+  doc.moveDown();
+}
 
 const torque = (p: PrescriptionPart) =>
   p.torqueSpecNcm === null ? 'hand-tight' : `${p.torqueSpecNcm} N·cm ±${p.tolerancePct} %`;
@@ -129,6 +163,7 @@ export function renderLabPrescription(input: PrescriptionInput): Promise<Buffer>
     doc.text(`Impression technique: ${site.impressionCoping} coping; ${copingText}`, { indent: 12 });
     doc.moveDown(0.6);
   }
+  if (input.impression) impressionSection(doc, input.impression);
 
   if (input.notes) {
     doc.font(FONT.bold).text('Notes');

@@ -95,6 +95,7 @@ export async function lockMail(tx: Tx, id: string) {
       status: labPrescriptionMails.status,
       sentTo: labPrescriptionMails.sentTo,
       labPrescriptionId: labPrescriptions.id,
+      restorationId: labPrescriptions.restorationId,
       objectKey: labPrescriptions.objectKey,
       chartNumber: patients.chartNumber,
       practiceName: practices.name,

@@ -9,6 +9,7 @@ import { reportChange } from '../common/audit-context.js';
 import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database } from '../db/database.js';
 import { findPrintingPractice } from '../db/practice-contact.js';
+import { ImpressionsService } from '../impressions/impressions.service.js';
 import { RestorationsService } from '../restorations/restorations.service.js';
 import { StorageService } from '../storage/storage.service.js';
 import { LabMailService } from './lab-mail.service.js';
@@ -27,6 +28,7 @@ export class LabPrescriptionsService {
     private readonly storage: StorageService,
     private readonly labMail: LabMailService,
     private readonly restorations: RestorationsService,
+    private readonly impressions: ImpressionsService,
   ) {}
 
   /**
@@ -77,8 +79,9 @@ export class LabPrescriptionsService {
     r: NonNullable<Awaited<ReturnType<RestorationsService['findVisible']>>>,
     revise: boolean,
   ): Promise<string> {
-    const [{ patient, sites }, practice, number] = await Promise.all([
+    const [{ patient, sites }, impression, practice, number] = await Promise.all([
       this.restorations.labSheet(scope, r),
+      this.impressions.labSheet(r.id),
       findPrintingPractice(this.db, r.practiceId),
       repo.nextPrescriptionNumber(this.db, r.practiceId),
     ]);
@@ -100,6 +103,7 @@ export class LabPrescriptionsService {
       notes: r.notes,
       issuedOn: new Date().toISOString().slice(0, 10),
       sites,
+      impression,
     });
     const objectKey = `practices/${r.practiceId}/lab-prescriptions/${id}.pdf`;
     await this.storage.put(objectKey, pdf, 'application/pdf');

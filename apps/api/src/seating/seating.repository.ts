@@ -23,7 +23,11 @@ export async function findVisibleRestoration(db: Db, scope: Scope, id: string) {
       id: restorations.id,
       practiceId: restorations.practiceId,
       patientId: restorations.patientId,
-      impressionTakenOn: restorations.impressionTakenOn,
+      // The date noted at delivery, else the current version of the recorded impression (analog or
+      // digital): a digital impression's scan bodies are shown seated on this check's radiograph.
+      impressionTakenOn: sql<string | null>`coalesce(${restorations.impressionTakenOn}::text, (select i.taken_on::text
+        from impressions i where i.restoration_id = ${restorations.id}
+        and not exists (select 1 from impressions n where n.supersedes_id = i.id) limit 1))`,
       deliveredOn: restorations.deliveredOn,
       current: sql<boolean>`${isCurrentVersion(restorations)}`,
     })

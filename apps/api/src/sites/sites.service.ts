@@ -25,7 +25,8 @@ type ReadableType =
   | 'Complication'
   | 'RecallExam'
   | 'Radiograph'
-  | 'ReferralSummary';
+  | 'ReferralSummary'
+  | 'Impression';
 
 @Injectable()
 export class SitesService {
@@ -142,6 +143,7 @@ export class SitesService {
       referralSummaries,
       passportMails,
       freeTextParts,
+      impressions,
     ] = await Promise.all([
       canRead('Placement') ? timeline.placementsOfSite(this.db, site.id) : none,
       canRead('Restoration') ? timeline.restorationsOfSite(this.db, site.id) : none,
@@ -155,6 +157,8 @@ export class SitesService {
       canRead('ReferralSummary') ? timeline.referralSummariesOfSite(this.db, site.id) : none,
       timeline.passportMailsOfSite(this.db, site.id),
       canRead('ComponentInstance') ? timeline.freeTextPartsOfSite(this.db, site.id) : none,
+      // Impressions are the practice's (no share opens them): the ability decides, as for the route.
+      canRead('Impression') ? timeline.impressionsOfSite(this.db, site.id) : none,
     ]);
     const ids = [placements, restorations, parts, torque, recallExams, freeTextParts].flatMap((rows) =>
       rows.map((r: { id: string }) => r.id),
@@ -175,6 +179,7 @@ export class SitesService {
         referralSummaries,
         passportMails,
         freeTextParts,
+        impressions,
         importMarks,
       },
       kinds,

@@ -9,6 +9,7 @@ import {
   components,
   implantSystems,
   importEntries,
+  impressions,
   importedFreeTextParts,
   legacyImports,
   labPrescriptions,
@@ -306,6 +307,41 @@ const seatingChecksOfSiteQuery = preparedFor((db) =>
       ),
     )
     .prepare('timeline_seatingchecks'),
+);
+
+/** The recorded impressions (every version) of the restorations at the site, with their scan bodies and files counted. */
+export async function impressionsOfSite(db: Database, siteId: string) {
+  return impressionsOfSiteQuery(db).execute({ siteId });
+}
+const impressionsOfSiteQuery = preparedFor((db) =>
+  db
+    .select({
+      id: impressions.id,
+      restorationId: impressions.restorationId,
+      method: impressions.method,
+      takenOn: impressions.takenOn,
+      note: impressions.note,
+      byName: users.displayName,
+      supersedesId: impressions.supersedesId,
+      amendmentReason: impressions.amendmentReason,
+      amended: isAmended(impressions),
+      scanBodies: sql<string[]>`array(select s.fdi || ': ' || c.name || coalesce(' lot ' || b.lot, '')
+        from impression_scan_bodies b join implant_sites s on s.id = b.site_id join components c on c.id = b.component_id
+        where b.impression_id = ${impressions.id} order by s.fdi)`,
+      scanFileCount: sql<number>`(select count(*)::int from scan_files f where f.impression_id = ${impressions.id})`,
+    })
+    .from(impressions)
+    .leftJoin(users, eq(users.id, impressions.recordedBy))
+    .where(
+      inArray(
+        impressions.restorationId,
+        db
+          .select({ id: restorationSites.restorationId })
+          .from(restorationSites)
+          .where(eq(restorationSites.siteId, sql.placeholder('siteId'))),
+      ),
+    )
+    .prepare('timeline_impressions'),
 );
 
 /** The patient's referral summaries e-mailed (or waiting to be) to a surgeon: shown on every site. */

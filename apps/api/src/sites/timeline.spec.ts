@@ -18,6 +18,7 @@ const empty: TimelineRows = {
   referralSummaries: [],
   passportMails: [],
   freeTextParts: [],
+  impressions: [],
   importMarks: [],
 };
 const torque = (id: string, performedAt: string, amended = false) => ({
@@ -188,5 +189,33 @@ describe('buildTimeline', () => {
       ['t2', null],
     ]);
     expect(events[0]).toMatchObject({ kind: 'imported-part', title: 'Part not in the catalogue: Old abutment' });
+  });
+});
+
+describe('recorded impressions on the Timeline', () => {
+  it('shows a digital impression on its day with its scan bodies and files, and an amendment as amended', () => {
+    const impression = (id: string, supersedesId: string | null, amended: boolean) => ({
+      id,
+      restorationId: 'r1',
+      method: 'digital' as const,
+      takenOn: '2026-11-20',
+      note: null,
+      byName: 'Dr Invented',
+      supersedesId,
+      amendmentReason: supersedesId ? 'Lot misread' : null,
+      amended,
+      scanBodies: ['15: Scan body lot SB-1', '16: Scan body lot SB-2'],
+      scanFileCount: 1,
+    });
+    const reply = buildTimeline('s1', {
+      ...empty,
+      impressions: [impression('i1', null, true), impression('i2', 'i1', false)],
+    });
+    const events = reply.events.filter((e) => e.kind === 'impression');
+    expect(events.map((e) => [e.key, e.at, e.title, e.amended])).toEqual([
+      ['impression:i1:recorded', '2026-11-20T00:00:00.000Z', 'Impression recorded: digital (intraoral scan)', true],
+      ['impression:i2:recorded', '2026-11-20T00:00:00.000Z', 'Impression amended: digital (intraoral scan)', false],
+    ]);
+    expect(events[0].detail).toBe('scan bodies 15: Scan body lot SB-1; 16: Scan body lot SB-2; 1 scan file');
   });
 });

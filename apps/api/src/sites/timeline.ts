@@ -25,6 +25,8 @@ export interface TimelineRows {
   radiographs: Rows<'radiographsOfSite'>;
   measurements: Rows<'measurementsOfSite'>;
   seatingChecks: Rows<'seatingChecksOfSite'>;
+  /** Recorded impressions (analog, or digital with scan bodies): only where the reader may see impressions. */
+  impressions: Rows<'impressionsOfSite'>;
   referralSummaries: Rows<'referralSummariesOfSite'>;
   passportMails: Rows<'passportMailsOfSite'>;
   freeTextParts: Rows<'freeTextPartsOfSite'>;
@@ -162,6 +164,30 @@ export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: Timeli
           byName: l.byName,
         }),
       );
+  }
+  for (const i of rows.impressions) {
+    const digital = i.method === 'digital';
+    const files = digital ? `; ${i.scanFileCount} scan file${i.scanFileCount === 1 ? '' : 's'}` : '';
+    events.push(
+      base(
+        'impression',
+        i.id,
+        day(i.takenOn),
+        true,
+        `${i.supersedesId ? 'Impression amended' : 'Impression recorded'}: ${digital ? 'digital (intraoral scan)' : 'analog (copings and tray)'}`,
+        {
+          keySuffix: ':recorded',
+          detail:
+            [i.scanBodies.length > 0 ? `scan bodies ${i.scanBodies.join('; ')}` : null, files.slice(2) || null, i.note]
+              .filter(Boolean)
+              .join('; ') || null,
+          byName: i.byName,
+          amended: i.amended,
+          supersedesId: i.supersedesId,
+          amendmentReason: i.amendmentReason,
+        },
+      ),
+    );
   }
   for (const p of rows.parts) {
     events.push(

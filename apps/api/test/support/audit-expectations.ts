@@ -105,6 +105,9 @@ export const AUDIT_EXPECTATIONS: Record<string, Audited | null> = {
   'POST /api/impressions/:id/amendments': amend,
   'POST /api/impressions/:id/scan-files': create,
   'GET /api/scan-files/:id/file': { action: 'export', patient: true },
+  // No session: a download through a valid link writes its own 'export' row in the service
+  // (impression-lab.e2e-spec.ts); a refused link names no one and no patient.
+  'GET /api/lab-files/:token': null,
   'GET /api/people': null,
   'POST /api/people/invitations': { action: 'invite', patient: false },
   'POST /api/people/invitations/:id/resend': { action: 'invite', patient: false },
@@ -114,6 +117,8 @@ export const AUDIT_EXPECTATIONS: Record<string, Audited | null> = {
   'GET /api/practice/session-settings': null,
   'PUT /api/practice/session-settings': { action: 'policy-change', patient: false },
   'PUT /api/practice/wrench-settings': { action: 'policy-change', patient: false },
+  'GET /api/practice/impression-settings': null,
+  'PUT /api/practice/impression-settings': { action: 'policy-change', patient: false },
   'GET /api/practice/contact': null,
   'PUT /api/practice/contact': { action: 'policy-change', patient: false },
   // Shares (issue 12): the list names patients; every change is a share-change naming its patient.

@@ -22,6 +22,11 @@ export const practices = pgTable('practices', {
   labPrescriptionCounter: integer('lab_prescription_counter').notNull().default(0),
   /** The order the practice writes and types dates in, on screen and on its documents (issue 15 §7). */
   dateFormat: dateFormatEnum('date_format').notNull().default('day-month-year'),
+  /**
+   * A digital impression asks for a radiograph of the seated scan bodies (its seating check):
+   * without one it carries a Finding. Off until the practice turns it on.
+   */
+  requireScanBodyRadiograph: boolean('require_scan_body_radiograph').notNull().default(false),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 });
 

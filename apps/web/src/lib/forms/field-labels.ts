@@ -132,6 +132,7 @@ export const FIELD_LABELS: Record<string, string> = {
   riskMonths: 'Recall interval with risk factors (months)',
   role: 'Role',
   row: 'Row',
+  requireScanBodyRadiograph: 'Ask for a radiograph of the seated scan bodies',
   scanBodies: 'Scan bodies',
   screwComponentIds: 'Screws',
   screws: 'Screws',

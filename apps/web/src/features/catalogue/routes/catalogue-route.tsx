@@ -2,6 +2,7 @@ import '../components/catalogue.css';
 import { Button, Callout, FormGroup, HTMLTable, InputGroup, Tag } from '@blueprintjs/core';
 import { isApiError } from '../../../lib/api-client';
 import { WrenchSettingsForm } from '../components/wrench-settings-form';
+import { ImpressionSettingsSwitch } from '../../impressions';
 import { useState } from 'react';
 import { Can, useAppAbility } from '../../../lib/ability';
 import { ErrorState } from '../../../lib/components/error-state';
@@ -81,6 +82,7 @@ function Wrenches() {
       )}
       <Can I="update" a="Practice">
         <WrenchSettingsForm months={wrenches.data.calibrationIntervalMonths} />
+        <ImpressionSettingsSwitch />
       </Can>
       <Can I="create" a="Wrench">
         <AddWrenchForm />

@@ -1,7 +1,13 @@
 // Impression endpoints: the restoration's impression with its scan files, a scan file's upload
 // (lib/upload-file: progress and cancel) and its bytes for the 3D preview.
-import { ImpressionListReply, ScanFile } from '@torquetrail/contracts';
-import { useQuery } from '@tanstack/react-query';
+import {
+  Impression,
+  type ImpressionBody,
+  ImpressionListReply,
+  ImpressionSettings,
+  ScanFile,
+} from '@torquetrail/contracts';
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { ApiError, apiRequest } from '../../../lib/api-client';
 import { uploadFile } from '../../../lib/upload-file';
 import { impressionKeys } from './keys';
@@ -12,6 +18,35 @@ export const useImpressions = (restorationId: string) =>
     queryFn: ({ signal }) =>
       apiRequest(`/api/restorations/${restorationId}/impressions`, { schema: ImpressionListReply, signal }),
   });
+
+/** Record the restoration's first impression (analog, or digital with a scan body per site). */
+export function useRecordImpression(restorationId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (body: ImpressionBody) =>
+      apiRequest(`/api/restorations/${restorationId}/impressions`, { method: 'POST', body, schema: Impression }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: impressionKeys.ofRestoration(restorationId) }),
+  });
+}
+
+export const useImpressionSettings = () =>
+  useQuery({
+    queryKey: impressionKeys.settings,
+    queryFn: ({ signal }) => apiRequest('/api/practice/impression-settings', { schema: ImpressionSettings, signal }),
+  });
+
+/** Admin: whether a digital impression asks for a radiograph of the seated scan bodies. */
+export function useSaveImpressionSettings() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (body: ImpressionSettings) =>
+      apiRequest('/api/practice/impression-settings', { method: 'PUT', body, schema: ImpressionSettings }),
+    onSuccess: async (saved) => {
+      queryClient.setQueryData(impressionKeys.settings, saved);
+      await queryClient.invalidateQueries({ queryKey: impressionKeys.all });
+    },
+  });
+}
 
 export const uploadScanFile = (impressionId: string, file: File, onProgress: (loaded: number) => void) =>
   uploadFile(

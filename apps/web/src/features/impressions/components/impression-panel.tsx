@@ -1,5 +1,5 @@
 import { Button, Callout, FileInput, HTMLTable, ProgressBar, Spinner } from '@blueprintjs/core';
-import type { ScanFile } from '@torquetrail/contracts';
+import type { RestorationSiteDetail, ScanFile } from '@torquetrail/contracts';
 import { formatTooth } from '@torquetrail/domain';
 import { useQueryClient } from '@tanstack/react-query';
 import { lazy, Suspense, useState } from 'react';
@@ -9,6 +9,7 @@ import { formatDate } from '../../../lib/dates';
 import type { ToothSystem } from '../../../lib/tooth-system';
 import { impressionKeys } from '../api/keys';
 import { uploadScanFile, useImpressions } from '../api/impressions-api';
+import { ImpressionForm } from './impression-form';
 
 // three is loaded only when a preview is opened: it stays out of the main bundle.
 const ScanPreview = lazy(() => import('./scan-preview'));
@@ -16,15 +17,46 @@ const ScanPreview = lazy(() => import('./scan-preview'));
 const kb = (n: number) => `${Math.max(1, Math.round(n / 1024))} KB`;
 
 /** A restoration's impression: its method, scan bodies with lots, and scan files with upload and preview. */
-export function ImpressionPanel({ restorationId, system }: { restorationId: string; system: ToothSystem }) {
+export function ImpressionPanel({
+  restorationId,
+  sites,
+  system,
+}: {
+  restorationId: string;
+  sites: RestorationSiteDetail[];
+  system: ToothSystem;
+}) {
   const query = useImpressions(restorationId);
   const queryClient = useQueryClient();
+  const [recording, setRecording] = useState(false);
   const [upload, setUpload] = useState<{ name: string; size: number; loaded: number; error?: string } | null>(null);
   const [open, setOpen] = useState<ScanFile | null>(null);
   if (query.isPending) return <Spinner size={16} aria-label="Loading the impression" />;
   if (query.isError) return <Callout intent="danger">The impression could not be loaded.</Callout>;
   const current = query.data.items.find((i) => i.current);
-  if (!current) return <p className="impression__empty">No impression is recorded yet.</p>;
+  if (!current)
+    return (
+      <section className="impression" data-testid="impression-panel">
+        <p className="impression__empty">No impression is recorded yet.</p>
+        <Can I="create" a="Impression">
+          {recording ? (
+            <ImpressionForm
+              restorationId={restorationId}
+              sites={sites}
+              system={system}
+              onDone={() => setRecording(false)}
+            />
+          ) : (
+            <Button
+              icon="add"
+              text="Record the impression"
+              onClick={() => setRecording(true)}
+              data-testid="open-impression-form"
+            />
+          )}
+        </Can>
+      </section>
+    );
   const start = (file: File) => {
     setUpload({ name: file.name, size: file.size, loaded: 0 });
     uploadScanFile(current.id, file, (loaded) => setUpload((u) => u && { ...u, loaded })).done.then(
@@ -40,6 +72,11 @@ export function ImpressionPanel({ restorationId, system }: { restorationId: stri
       <h3>
         Impression · {IMPRESSION_METHOD_LABEL[current.method]} · {formatDate(current.takenOn)}
       </h3>
+      {query.data.findings.map((f) => (
+        <Callout key={f.code} intent="warning" icon="warning-sign" compact data-testid="impression-finding">
+          {f.message} <span className="muted">({f.source ?? 'common practice'})</span>
+        </Callout>
+      ))}
       {current.scanBodies.length > 0 && (
         <HTMLTable compact>
           <thead>
@@ -100,7 +137,15 @@ export function ImpressionPanel({ restorationId, system }: { restorationId: stri
           )}
           {open && (
             <Suspense fallback={<Spinner size={24} aria-label="Loading the 3D preview" />}>
-              <ScanPreview key={open.id} file={open} />
+              <ScanPreview
+                key={open.id}
+                file={open}
+                scanBodies={current.scanBodies.map((b) => ({
+                  site: formatTooth(b.fdi, system),
+                  part: `${b.name} (${b.referenceCode})`,
+                  lot: b.lot,
+                }))}
+              />
             </Suspense>
           )}
         </>

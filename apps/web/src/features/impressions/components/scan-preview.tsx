@@ -20,7 +20,14 @@ import { meshGeometry } from './mesh-geometry';
 
 const SIZE = { width: 480, height: 360 };
 
-export default function ScanPreview({ file }: { file: ScanFile }) {
+/** A scan body recorded on the impression, as the legend names it. */
+export interface RecordedScanBody {
+  site: string;
+  part: string;
+  lot: string | null;
+}
+
+export default function ScanPreview({ file, scanBodies }: { file: ScanFile; scanBodies: RecordedScanBody[] }) {
   const host = useRef<HTMLDivElement>(null);
   const [state, setState] = useState<'loading' | 'ready' | 'failed'>('loading');
   useEffect(() => {
@@ -80,6 +87,24 @@ export default function ScanPreview({ file }: { file: ScanFile }) {
       )}
       <div ref={host} />
       {state === 'ready' && <p className="scan-preview__hint">Drag to rotate, scroll to zoom.</p>}
+      {scanBodies.length > 0 && (
+        <div className="scan-preview__legend" data-testid="scan-preview-legend">
+          <strong>Scan bodies in this impression</strong>
+          <ul>
+            {scanBodies.map((b) => (
+              <li key={b.site}>
+                {b.site}: {b.part}
+                {b.lot ? ` · lot ${b.lot}` : ''}
+              </li>
+            ))}
+          </ul>
+          {/* Said plainly: a mesh file carries no part names, so nothing in it is located or coloured. */}
+          <p className="scan-preview__note">
+            As recorded with the impression. The file itself does not say where each scan body is, so the preview does
+            not mark them on the surface.
+          </p>
+        </div>
+      )}
     </div>
   );
 }

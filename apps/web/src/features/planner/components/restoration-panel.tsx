@@ -122,7 +122,7 @@ export function RestorationPanel({
       )}
       {current && (
         <Can I="read" a="Impression">
-          <ImpressionPanel restorationId={r.id} system={system} />
+          <ImpressionPanel restorationId={r.id} sites={r.sites} system={system} />
         </Can>
       )}
       {current && (

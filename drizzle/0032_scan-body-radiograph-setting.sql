@@ -1,0 +1,1 @@
+ALTER TABLE "practices" ADD COLUMN "require_scan_body_radiograph" boolean DEFAULT false NOT NULL;
