@@ -2,6 +2,7 @@ import '../components/catalogue.css';
 import { Button, Callout, FormGroup, HTMLTable, InputGroup, Tag } from '@blueprintjs/core';
 import { isApiError } from '../../../lib/api-client';
 import { WrenchSettingsForm } from '../components/wrench-settings-form';
+import { CantileverSettingsForm } from '../components/cantilever-settings-form';
 import { useState } from 'react';
 import { Can, useAppAbility } from '../../../lib/ability';
 import { ErrorState } from '../../../lib/components/error-state';
@@ -84,6 +85,9 @@ function Wrenches() {
       </Can>
       <Can I="create" a="Wrench">
         <AddWrenchForm />
+      </Can>
+      <Can I="update" a="Practice">
+        <CantileverSettingsForm />
       </Can>
     </section>
   );
