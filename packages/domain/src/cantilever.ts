@@ -44,7 +44,7 @@ export const CANTILEVER_RATIO_RANGE = Object.freeze({ min: 0.5, max: 3 });
 export const CANTILEVER_MAX_MM = 30;
 export const AP_SPREAD_MAX_MM = 40;
 
-export const CANTILEVER_SOURCE = 'English CE 1990, Implant Society 1(1):2–3 [memory]; the 1.5 ratio [common practice]';
+const CANTILEVER_SOURCE = 'English CE 1990, Implant Society 1(1):2–3 [memory]; the 1.5 ratio [common practice]';
 
 /** Stable codes of the cantilever Findings. */
 export const CANTILEVER_FINDING_CODES = Object.freeze({
