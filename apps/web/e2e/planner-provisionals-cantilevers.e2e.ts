@@ -82,12 +82,12 @@ describe('restorative dentist and practice admin', () => {
     );
     await screenshot(page, 'recall-desk-provisional-overdue');
 
-    const signe = await patientId(page, 'Marchetti');
-    const sites = (await (await page.request.get(`/api/patients/${signe}/restorable-sites`)).json()) as {
-      items: { siteId: string; fdi: number }[];
-    };
-    await page.goto(`/patients/${signe}/sites/${sites.items.find((s) => s.fdi === 21)!.siteId}`);
-    await expect.poll(() => page.getByTestId('stack-provisional').count()).toBe(1);
+    await rows.first().getByRole('link', { name: 'Signe Marchetti' }).click();
+    await page.getByTestId('arch-cell-21').click();
+    await page.waitForURL(/\/sites\//);
+    await expect.poll(() => page.getByTestId('stack-restoration').count(), { timeout: 15_000 }).toBe(1);
+    await screenshot(page, 'site-file-provisional');
+    expect(await page.getByTestId('stack-provisional').count()).toBe(1);
     expect(await page.getByTestId('stack-restoration').textContent()).toMatch(/Planned replacement/);
   });
 });
