@@ -1,6 +1,6 @@
 // The plan's rules read the practice's catalogue, not lists or names in the code (issue 16, item 5):
 // the multi-unit angle the catalogue states is the one the divergence check credits, and a chosen part
-// whose entry lacks a value a rule reads is a Finding (docs/clinical-rules.md §8b). Divergence limit:
+// whose entry lacks a value a rule reads is a Finding (docs/clinical-rules.md §8c). Divergence limit:
 // Jang HK et al. 2011, Int J Oral Maxillofac Implants 26:1011–1015 [pub]; which value each rule reads
 // and the severity of a missing one: decisions [common practice].
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';

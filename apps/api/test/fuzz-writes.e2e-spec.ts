@@ -168,6 +168,7 @@ const TARGETS: Record<string, { as: AccountKey | null; path: string }> = {
   'PUT /practice/session-settings': { as: 'practice_admin', path: '/api/practice/session-settings' },
   'PUT /practice/wrench-settings': { as: 'practice_admin', path: '/api/practice/wrench-settings' },
   'PUT /practice/impression-settings': { as: 'practice_admin', path: '/api/practice/impression-settings' },
+  'PUT /practice/cantilever-settings': { as: 'practice_admin', path: '/api/practice/cantilever-settings' },
   'PUT /practice/contact': { as: 'practice_admin', path: '/api/practice/contact' },
   'POST /patients/:id/shares': { as: 'dentist', path: `/api/patients/${await freshPatient()}/shares` },
   'POST /shares/:id/revoke': { as: 'dentist', path: `/api/shares/${await fuzzShare()}/revoke` },

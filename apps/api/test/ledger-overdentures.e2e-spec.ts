@@ -1,6 +1,6 @@
 // Overdentures (issue 16, item 1): planned on stud attachments and on a bar, with their error
 // cases, delivered, shown in the Stack and covered by the seat-restoration torque form. Rules:
-// docs/clinical-rules.md §8b. Two implants as the minimum: McGill consensus (Feine JS et al. 2002),
+// docs/clinical-rules.md §8a. Two implants as the minimum: McGill consensus (Feine JS et al. 2002),
 // York consensus (Thomason JM et al. 2009) [memory]. Attachment tolerances are the demo catalogue's
 // invented values (30° for the 3 mm stud, none stated for the 5 mm one), as a practice enters them.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';

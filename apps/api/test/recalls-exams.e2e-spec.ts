@@ -365,7 +365,7 @@ describe('the Recall desk', () => {
   it('lists the practice patients with implants, with last status per implant and risk factors, sorted by due date', async () => {
     const body = await desk();
     expect(body.items.map((r) => r.chartNumber)).not.toContain('QH-2001');
-    expect(body.total).toBe(8); // with the overdenture patients Lindqvist, Ravensworth and Thornbury
+    expect(body.total).toBe(9); // with the overdenture patients and Signe Marchetti (provisional)
     const dues = body.items.map((r) => r.nextDueOn).filter(Boolean) as string[];
     expect(dues).toEqual([...dues].sort());
     const farrow = body.items.find((r) => r.chartNumber === 'LL-1002')!;
@@ -382,13 +382,23 @@ describe('the Recall desk', () => {
     for (const r of (await desk({ filter: 'due-this-week' })).items) expect(r.overdueDays).toBe(0);
     const page = await desk({ pageSize: 2, page: 2, sort: 'name' });
     expect(page.items).toHaveLength(2);
-    expect(page.total).toBe(8);
+    expect(page.total).toBe(9);
   });
 
   it('sorts by name, by overdue days (most overdue first) and by last exam, in SQL', async () => {
     const names = (await desk({ sort: 'name' })).items.map((r) => r.chartNumber);
-    // Achterberg, Farrow, Ferraz, Lindqvist, Okafor, Ravensworth, Thornbury, Whitcombe
-    expect(names).toEqual(['LL-1005', 'LL-1002', 'LL-1004', 'LL-1006', 'LL-1003', 'LL-1007', 'LL-1008', 'LL-1001']);
+    // Achterberg, Farrow, Ferraz, Lindqvist, Marchetti, Okafor, Ravensworth, Thornbury, Whitcombe
+    expect(names).toEqual([
+      'LL-1005',
+      'LL-1002',
+      'LL-1004',
+      'LL-1006',
+      'LL-1009',
+      'LL-1003',
+      'LL-1007',
+      'LL-1008',
+      'LL-1001',
+    ]);
     const byName = (await desk({ sort: 'name', dir: 'desc' })).items.map((r) => r.chartNumber);
     expect(byName).toEqual([...names].reverse());
     const overdue = (await desk({ sort: 'overdueDays', dir: 'desc' })).items;

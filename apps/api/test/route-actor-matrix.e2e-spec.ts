@@ -716,6 +716,18 @@ const TABLE: Record<string, Case[]> = {
     },
     'own practice',
   ),
+  'GET /api/practice/cantilever-settings': one(
+    { path: () => '/api/practice/cantilever-settings', expect: every(200) },
+    'own practice',
+  ),
+  'PUT /api/practice/cantilever-settings': one(
+    {
+      path: () => '/api/practice/cantilever-settings',
+      body: () => ({ cantileverRatioLimit: 1.5 }),
+      expect: adminOnly(200),
+    },
+    'own practice',
+  ),
   'PUT /api/practice/session-settings': one(
     {
       path: () => '/api/practice/session-settings',

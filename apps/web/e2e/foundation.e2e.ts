@@ -19,7 +19,7 @@ describe('restorative dentist', () => {
     await signInAs(page, 'ines.calloway@larkspur.example');
 
     const table = page.getByTestId('patients-table');
-    await expect.poll(() => table.locator('tbody tr').count()).toBe(5);
+    await expect.poll(() => table.locator('tbody tr').count()).toBe(9);
     await page.getByTestId('patient-search').fill('whit');
     await expect.poll(() => table.locator('tbody tr').count()).toBe(1);
     expect(page.url()).toContain('search=whit');

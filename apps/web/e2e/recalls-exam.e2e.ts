@@ -21,13 +21,13 @@ describe('hygienist', () => {
     await signInAs(page, 'maren.holt@larkspur.example');
     await page.getByRole('link', { name: 'Recall desk' }).click();
     const table = page.getByTestId('recall-desk-table');
-    await expect.poll(() => table.locator('tbody tr').count()).toBe(5);
+    await expect.poll(() => table.locator('tbody tr').count()).toBe(9);
     await page.getByTestId('desk-filter').selectOption('overdue');
     await expect.poll(() => table.locator('tbody tr').count()).toBe(1);
     expect(await table.locator('tbody tr').first().textContent()).toContain('Imogen Farrow');
     await screenshot(page, 'recall-desk-overdue');
     await page.getByTestId('desk-filter').selectOption('all');
-    await expect.poll(() => table.locator('tbody tr').count()).toBe(5);
+    await expect.poll(() => table.locator('tbody tr').count()).toBe(9);
     await table.locator('tr', { hasText: 'Wendell Achterberg' }).getByRole('link', { name: 'Record exam' }).click();
     await page.waitForURL('**/recalls/patients/*/exam');
     await expect.poll(() => page.getByTestId('exam-site-15').isVisible()).toBe(true);
@@ -155,9 +155,9 @@ describe('practice admin and dentist', () => {
     await signInAs(page, 'ines.calloway@larkspur.example');
     await page.goto('/recalls');
     const table = page.getByTestId('recall-desk-table');
-    await expect.poll(() => table.locator('tbody tr').count()).toBe(5);
+    await expect.poll(() => table.locator('tbody tr').count()).toBe(9);
     // Dentists examine implants at their own reviews: the desk offers them the exam form too.
-    expect(await page.getByRole('link', { name: 'Record exam' }).count()).toBe(5);
+    expect(await page.getByRole('link', { name: 'Record exam' }).count()).toBe(9);
     await table.getByRole('link', { name: 'Harold Whitcombe' }).click();
     await page.getByTestId('arch-cell-35').click();
     const chart = page.getByTestId('probing-depth-chart');

@@ -130,6 +130,13 @@ const RESTORATION = [
   'supersedesId',
   'supersededById',
   'retrievable',
+  // Provisional and its replacement, cantilevers and the A-P spread: the design a surgeon shares.
+  'provisional',
+  'plannedReplacementOn',
+  'replacedById',
+  'cantileverLeftMm',
+  'cantileverRightMm',
+  'apSpreadMm',
   'interface',
   'spansFdi',
   'seating',

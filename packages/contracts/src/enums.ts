@@ -259,7 +259,14 @@ export const REMINDER_STATUSES = ['pending', 'sent', 'failed', 'withheld'] as co
 export const ReminderStatus = z.enum(REMINDER_STATUSES);
 export type ReminderStatus = z.infer<typeof ReminderStatus>;
 
-export const DESK_FILTERS = ['all', 'due-this-week', 'overdue', 'peri-implantitis-last'] as const;
+/** 'provisional-overdue': a delivered provisional still in place after its planned replacement day. */
+export const DESK_FILTERS = [
+  'all',
+  'due-this-week',
+  'overdue',
+  'peri-implantitis-last',
+  'provisional-overdue',
+] as const;
 /** The 'due-this-week' filter: recalls due from today to this many days ahead, inclusive. */
 export const DESK_DUE_SOON_DAYS = 7;
 export const DeskFilter = z.enum(DESK_FILTERS);

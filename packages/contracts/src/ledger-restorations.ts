@@ -1,4 +1,5 @@
 // Restoration planner, delivery and lab prescriptions.
+import { AP_SPREAD_MAX_MM, CANTILEVER_MAX_MM, CANTILEVER_RATIO_RANGE } from '@torquetrail/domain';
 import { z } from 'zod';
 import { keepingOmitted } from './amendment.js';
 import { AxisComponent, FdiPosition, Id, IsoDate, IsoDateTime, NoteText, PlainText } from './common.js';
@@ -50,6 +51,13 @@ export const PlanSiteBody = z.object({
 export type PlanSiteBody = z.input<typeof PlanSiteBody>;
 
 const optionalLine = (max: number) => PlainText(max).nullable().default(null);
+const millimetres = (min: number, max: number, minMessage: string) =>
+  z
+    .number({ error: 'Enter a length in mm' })
+    .min(min, minMessage)
+    .max(max, `At most ${max} mm`)
+    .nullable()
+    .default(null);
 
 export const PlanBody = z.object({
   patientId: Id,
@@ -63,6 +71,13 @@ export const PlanBody = z.object({
   labEmail: z.email('Not an e-mail address').max(254).nullable().default(null),
   dueOn: IsoDate.nullable().default(null),
   notes: NoteText(2000).nullable().default(null),
+  /** A provisional awaiting its definitive restoration; the planned replacement day is then required. */
+  provisional: z.boolean().default(false),
+  plannedReplacementOn: IsoDate.nullable().default(null),
+  /** Full-arch work (CANTILEVER_KINDS): distal cantilevers (patient's left, right) and the A-P spread, mm. */
+  cantileverLeftMm: millimetres(0, CANTILEVER_MAX_MM, 'Cannot be negative'),
+  cantileverRightMm: millimetres(0, CANTILEVER_MAX_MM, 'Cannot be negative'),
+  apSpreadMm: millimetres(0.1, AP_SPREAD_MAX_MM, 'Enter more than 0 mm'),
   sites: z.array(PlanSiteBody).min(1, 'Choose at least one site').max(16),
   /** Warning Findings the clinician has read and accepts (code and site). */
   acknowledgements: z
@@ -110,6 +125,12 @@ export function findingField(finding: Pick<Finding, 'code' | 'fdi'>, siteFdis: r
       return at('attachmentComponentId');
     case 'insufficient-restorative-space':
       return at('restorativeSpaceMm');
+    case 'cantilever-left-over-limit':
+      return 'cantileverLeftMm';
+    case 'cantilever-right-over-limit':
+      return 'cantileverRightMm';
+    case 'cantilever-spread-missing':
+      return 'apSpreadMm';
     case 'invalid-position':
     case 'duplicate-site':
     case 'primary-tooth-position':
@@ -195,6 +216,13 @@ export const RestorationDetail = z.object({
   amendmentReason: z.string().nullable().optional(),
   /** Set when a later amendment replaced this version (it stays visible, marked as amended). */
   supersededById: Id.nullable(),
+  provisional: z.boolean(),
+  plannedReplacementOn: IsoDate.nullable(),
+  /** The restoration delivered on its sites that took this one out (a provisional's definitive). */
+  replacedById: Id.nullable(),
+  cantileverLeftMm: z.number().nullable(),
+  cantileverRightMm: z.number().nullable(),
+  apSpreadMm: z.number().nullable(),
   acknowledgements: z
     .array(z.object({ code: z.string(), fdi: z.number().nullable(), byName: z.string(), at: IsoDateTime }))
     .optional(),
@@ -228,3 +256,14 @@ export const LabPrescriptionBody = z.object({
   revise: z.boolean().default(false),
 });
 export type LabPrescriptionBody = z.input<typeof LabPrescriptionBody>;
+
+const ratioMessage = `A ratio from ${CANTILEVER_RATIO_RANGE.min} to ${CANTILEVER_RATIO_RANGE.max}, in tenths (e.g. 1.5)`;
+/** The practice's cantilever limit: the longest distal cantilever as a multiple of the A-P spread. */
+export const CantileverSettings = z.object({
+  cantileverRatioLimit: z
+    .number({ error: 'Enter a ratio, e.g. 1.5' })
+    .min(CANTILEVER_RATIO_RANGE.min, { error: ratioMessage })
+    .max(CANTILEVER_RATIO_RANGE.max, { error: ratioMessage })
+    .refine((n) => Math.abs(n * 10 - Math.round(n * 10)) < 1e-9, { error: ratioMessage }),
+});
+export type CantileverSettings = z.infer<typeof CantileverSettings>;

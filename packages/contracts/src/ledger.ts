@@ -22,6 +22,7 @@ import {
   WrenchSettings,
 } from './ledger-catalogue.js';
 import {
+  CantileverSettings,
   DeliveryBody,
   LabPrescriptionBody,
   LabPrescriptionSummary,
@@ -98,6 +99,18 @@ export const ledgerRoutes: RouteContract[] = [
   r('put', '/practice/wrench-settings', "Set the practice's wrench calibration interval in months (practice admin)", {
     body: WrenchSettings,
     reply: WrenchSettings,
+  }),
+  r(
+    'get',
+    '/practice/cantilever-settings',
+    "The practice's cantilever limit (ratio to the A-P spread), for the planner",
+    {
+      reply: CantileverSettings,
+    },
+  ),
+  r('put', '/practice/cantilever-settings', "Set the practice's cantilever limit (practice admin)", {
+    body: CantileverSettings,
+    reply: CantileverSettings,
   }),
   r('get', '/wrenches/:id/calibrations', "A torque wrench's calibration history, newest first", {
     reply: CalibrationListReply,

@@ -231,6 +231,14 @@ export const RecallDeskRow = z.object({
   sites: z.array(DeskSite),
   /** Absent for a shared surgeon (the share's field rules do not name them). */
   riskFactors: RiskFactors.optional(),
+  /**
+   * Delivered provisionals still in place after their planned replacement day (provisionalOverdue
+   * in @torquetrail/domain). Absent for a shared surgeon's rows [decision: the desk flags the
+   * practice's own follow-up].
+   */
+  provisionalsOverdue: z
+    .array(z.object({ restorationId: Id, fdis: z.array(FdiPosition), plannedReplacementOn: IsoDate }))
+    .optional(),
 });
 export type RecallDeskRow = z.infer<typeof RecallDeskRow>;
 export const RecallDeskReply = z.object({

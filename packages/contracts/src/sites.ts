@@ -110,6 +110,9 @@ export const StackRestoration = z.object({
   material: Material,
   interface: InterfaceKind,
   deliveredOn: IsoDate.nullable(),
+  /** A provisional awaiting its definitive restoration, planned for `plannedReplacementOn`. */
+  provisional: z.boolean(),
+  plannedReplacementOn: IsoDate.nullable(),
   /** Cement-retained restorations are not retrievable without cutting. */
   retrievable: z.boolean(),
   /** FDI positions of all sites this restoration spans. */

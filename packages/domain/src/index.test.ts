@@ -235,6 +235,12 @@ describe('package root answers through the public API', () => {
       () => domain.seatingRadiographFindings('digital', false, true).map((f) => f.code),
       ['scan-body-seating-radiograph-missing'],
     ],
+    // cantilever.test.ts (English CE 1990 [memory], ratio 1.5 [common practice]): 12 mm spread → 18 mm
+    ['cantileverLimitMm', () => domain.cantileverLimitMm(12), 18],
+    ['cantileverFindings', () => domain.cantileverFindings({ kind: 'full-arch', leftMm: 18, apSpreadMm: 12 }), []],
+    ['recordsCantilevers', () => domain.recordsCantilevers('single-crown'), false],
+    // provisional.test.ts [decision]: overdue from the day after the planned replacement
+    ['provisionalOverdue', () => domain.provisionalOverdue('2026-11-30', '2026-12-01'), true],
   ])('%s', (_name, call, expected) => {
     expect(call()).toEqual(expected);
   });

@@ -240,6 +240,23 @@ export type {
   MultiUnitAngleDeg,
 } from './restoration-plan.js';
 
+// ---- cantilevers and provisionals ---------------------------------------------------------
+/** Distal cantilevers against the A-P spread (English 1990 [memory]; ratio 1.5 [common practice]). */
+export {
+  cantileverFindings,
+  cantileverLimitMm,
+  recordsCantilevers,
+  CANTILEVER_KINDS,
+  CANTILEVER_FINDING_CODES,
+  CANTILEVER_RATIO_RANGE,
+  CANTILEVER_MAX_MM,
+  AP_SPREAD_MAX_MM,
+  DEFAULT_CANTILEVER_RATIO,
+} from './cantilever.js';
+export type { CantileverInput } from './cantilever.js';
+/** A provisional past its planned replacement date. */
+export { provisionalOverdue } from './provisional.js';
+
 // ---- recall --------------------------------------------------------------------------------
 /** Next recall date: 6 months, or 3 with any risk factor (practice policy). */
 export { nextRecallDate } from './recall-interval.js';

@@ -1,6 +1,6 @@
 // Scan bodies of a digital impression: one per implant site, of the implant's platform, with the
 // lot the catalogue asks for. Matching the scan body to the implant's platform and connection is
-// [common practice] (docs/clinical-rules.md §8a).
+// [common practice] (docs/clinical-rules.md §8b).
 import { describe, expect, it } from 'vitest';
 import { checkScanBodies, type ScanBodyEntry, seatingRadiographFindings } from './scan-bodies.js';
 

@@ -84,6 +84,11 @@ export function deskOrder(scope: Scope, today: string, q: RecallDeskCsvQuery, li
     overdue: [overdue],
     'due-this-week': [dueSoon],
     'peri-implantitis-last': [sql`pa.id in (select patient_id from pi_patients)`],
+    // From the partial index restorations_provisional_due_idx (delivered provisionals only).
+    'provisional-overdue': [
+      sql`pa.id in (select rp.patient_id from restorations rp where ${inScope(scope, sql`rp.practice_id`, sql`rp.patient_id`)}
+            and rp.provisional and rp.status = 'delivered' and rp.planned_replacement_on < ${today}::date)`,
+    ],
   };
   const where = sql.join([...patients, ...filter[q.filter]], sql` and `);
   const withPi = q.filter === 'peri-implantitis-last' ? sql`${piPatients}, ` : sql``;
@@ -129,7 +134,11 @@ export function deskOrder(scope: Scope, today: string, q: RecallDeskCsvQuery, li
   // patients at most) reads its few patients' keys instead of walking the whole practice's order.
   // So does an export (every row): there the walk's index probes would cost more than one pass.
   const narrow =
-    Boolean(q.search?.trim()) || q.filter === 'due-this-week' || q.filter === 'peri-implantitis-last' || limit > 1000;
+    Boolean(q.search?.trim()) ||
+    q.filter === 'due-this-week' ||
+    q.filter === 'peri-implantitis-last' ||
+    q.filter === 'provisional-overdue' ||
+    limit > 1000;
   const nextDue = sql`(select min(r.due_on) from recalls r where r.patient_id = pa.id and r.status = 'scheduled')`;
   const lastExam = sql`(${latestCurrentExamOn(sql`pa.id`)})`;
   // `offset 0` keeps the key a subquery of its own, read once per patient: flattened, PostgreSQL

@@ -36,6 +36,7 @@ interface DeskSqlRow {
   overdue_days: number;
   last_exam_on: string | null;
   sites: { siteId: string; fdi: number; status: string | null; examinedOn: string | null }[];
+  provisionals_overdue: { restorationId: string; fdis: number[]; plannedReplacementOn: string }[];
 }
 
 export async function queryDesk(
@@ -117,7 +118,16 @@ function deskStatement(
                order by x.examined_on desc, x.recorded_at desc limit 1
              ) e on true
              where s.patient_id = pa.id and s.status in ('placed', 'restored')
-           ), '[]'::json) as sites
+           ), '[]'::json) as sites,
+           coalesce((
+             select json_agg(json_build_object('restorationId', rp.id, 'plannedReplacementOn', rp.planned_replacement_on,
+                      'fdis', (select json_agg(s.fdi order by s.fdi) from restoration_sites rs
+                               join implant_sites s on s.id = rs.site_id where rs.restoration_id = rp.id))
+                    order by rp.planned_replacement_on)
+             from restorations rp
+             where rp.patient_id = pa.id and rp.provisional and rp.status = 'delivered'
+               and rp.planned_replacement_on < ${today}::date
+           ), '[]'::json) as provisionals_overdue
     from keyed join patients pa on pa.id = keyed.id
     order by ${order.orderBy('keyed')}
   `;
@@ -139,6 +149,7 @@ function toDeskRow(r: DeskSqlRow): DeskRowWithContact {
       status: (s.status ?? 'not-examined') as RecallDeskRow['sites'][number]['status'],
       lastExamOn: s.examinedOn,
     })),
+    provisionalsOverdue: r.provisionals_overdue.map((p) => ({ ...p, fdis: p.fdis ?? [] })),
     riskFactors: {
       smoker: r.smoker,
       diabetesPoorlyControlled: r.diabetes_poorly_controlled,

@@ -18,6 +18,7 @@ import {
   type SiteParts,
   ValidationError,
   type Vec3,
+  cantileverFindings,
   validateRestorationPlan,
 } from '@torquetrail/domain';
 import { fieldError } from '../common/field-error.js';
@@ -76,13 +77,23 @@ const RETAINERS_OF_KIND: Partial<Record<PlanBodyParsed['kind'], ComponentKind>> 
 const axisOf = (s: RestorableSiteRow): Vec3 | null =>
   s.axisX !== null && s.axisY !== null && s.axisZ !== null ? [s.axisX, s.axisY, s.axisZ] : null;
 
-/** Throws 400 with `fields` for every problem; returns the findings (warnings only) and the resolved sites. */
+const orUndefined = (n: number | null) => n ?? undefined;
+
+/**
+ * Throws 400 with `fields` for every problem; returns the findings (warnings and infos) and the
+ * resolved sites. `cantileverRatio` is the practice's limit (cantilever ≤ ratio × A-P spread).
+ */
 export function checkPlan(
   body: PlanBodyParsed,
   patientSites: RestorableSiteRow[],
   catalogue: Map<string, CatalogueRow>,
+  cantileverRatio: number,
 ): CheckedPlan {
   const fields: Record<string, string> = {};
+  if (body.provisional && !body.plannedReplacementOn)
+    fields.plannedReplacementOn = 'Enter the day the definitive restoration is planned to replace this provisional';
+  if (!body.provisional && body.plannedReplacementOn)
+    fields.plannedReplacementOn = 'Only a provisional restoration has a planned replacement day';
   const sites: CheckedSite[] = [];
   const planSites: RestorationPlan['sites'] = [];
   const siteParts: SiteParts[] = [];
@@ -189,6 +200,17 @@ export function checkPlan(
       }),
       ...catalogueValueFindings(body, siteParts),
     ];
+    findings.push(
+      ...cantileverFindings(
+        {
+          kind: body.kind,
+          leftMm: orUndefined(body.cantileverLeftMm),
+          rightMm: orUndefined(body.cantileverRightMm),
+          apSpreadMm: orUndefined(body.apSpreadMm),
+        },
+        cantileverRatio,
+      ),
+    );
   } catch (error) {
     if (error instanceof ValidationError) {
       const field = (error.field ?? 'sites').replace(/^plan\./, '').replace(/\[(\d+)\]/g, '.$1');

@@ -1,6 +1,7 @@
-import { Body, Controller, Get, HttpCode, Param, ParseUUIDPipe, Post, HttpStatus } from '@nestjs/common';
+import { Body, Controller, Get, HttpCode, Param, ParseUUIDPipe, Post, Put, HttpStatus } from '@nestjs/common';
 import type { AppAbility } from '@torquetrail/authz';
 import {
+  CantileverSettings,
   DeliveryBody,
   PlanAmendmentBody,
   PlanBody,
@@ -21,6 +22,21 @@ const uuid = () => new ParseUUIDPipe({ errorHttpStatusCode: HttpStatus.NOT_FOUND
 @Controller()
 export class RestorationsController {
   constructor(private readonly restorations: RestorationsService) {}
+
+  @Get('practice/cantilever-settings')
+  @Allow('read', 'Practice')
+  cantileverSettings(@CurrentUser() user: SessionUser): Promise<CantileverSettings> {
+    return this.restorations.cantileverSettings(scopeOf(user));
+  }
+
+  @Put('practice/cantilever-settings')
+  @Allow('update', 'Practice')
+  setCantileverSettings(
+    @CurrentUser() user: SessionUser,
+    @Body(new ZodValidationPipe(CantileverSettings)) body: CantileverSettings,
+  ): Promise<CantileverSettings> {
+    return this.restorations.setCantileverSettings(scopeOf(user), body.cantileverRatioLimit);
+  }
 
   @Get('patients/:id/restorable-sites')
   @Allow('read', 'ImplantSite')

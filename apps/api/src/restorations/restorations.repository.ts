@@ -94,6 +94,12 @@ const restorationColumns = {
   supersedesId: restorations.supersedesId,
   amendmentReason: restorations.amendmentReason,
   supersededById: supersededById(restorations),
+  provisional: restorations.provisional,
+  plannedReplacementOn: restorations.plannedReplacementOn,
+  replacedById: restorations.replacedById,
+  cantileverLeftMm: restorations.cantileverLeftMm,
+  cantileverRightMm: restorations.cantileverRightMm,
+  apSpreadMm: restorations.apSpreadMm,
 };
 
 /** A restoration whose patient the user may see (scoped in SQL). */
@@ -329,8 +335,9 @@ export async function removeRestorations(
   siteIds: string[],
   everywhereKinds: readonly ComponentKind[],
   on: string,
+  replacedById: string,
 ) {
-  await tx.update(restorations).set({ status: 'removed' }).where(inArray(restorations.id, ids));
+  await tx.update(restorations).set({ status: 'removed', replacedById }).where(inArray(restorations.id, ids));
   const everywhere = tx
     .select({ id: components.id })
     .from(components)
@@ -363,4 +370,17 @@ export async function markDelivered(
     .set({ status: 'delivered', deliveredOn: v.deliveredOn, impressionTakenOn: v.impressionTakenOn })
     .where(eq(restorations.id, id));
   await tx.update(implantSites).set({ status: 'restored' }).where(inArray(implantSites.id, siteIds));
+}
+
+/** The practice's cantilever limit (ratio to the A-P spread). */
+export async function findCantileverRatio(db: Db, practiceId: string): Promise<number> {
+  const [row] = await db
+    .select({ ratio: practices.cantileverRatioLimit })
+    .from(practices)
+    .where(eq(practices.id, practiceId));
+  return row.ratio;
+}
+
+export async function setCantileverRatio(db: Db, practiceId: string, ratio: number) {
+  await db.update(practices).set({ cantileverRatioLimit: ratio }).where(eq(practices.id, practiceId));
 }

@@ -1,6 +1,7 @@
 import { ConflictException, Inject, Injectable } from '@nestjs/common';
 import { type AppAbility, subject } from '@torquetrail/authz';
 import {
+  type CantileverSettings,
   CLOSURE_KINDS,
   type DeliveryBody,
   type LabPrescriptionSummary,
@@ -40,7 +41,7 @@ const RETAINING_KINDS = ['prosthetic-screw', 'set-screw'] as const;
  */
 async function retirePreviousRestorations(tx: Tx, restorationId: string, siteIds: string[], on: string) {
   const previous = await repo.findDeliveredAt(tx, siteIds, restorationId);
-  if (previous.length > 0) await repo.removeRestorations(tx, previous, siteIds, RETAINING_KINDS, on);
+  if (previous.length > 0) await repo.removeRestorations(tx, previous, siteIds, RETAINING_KINDS, on, restorationId);
 }
 
 /** Only a plan not yet delivered is re-planned. */
@@ -197,7 +198,8 @@ export class RestorationsService {
       ])
       .filter((x): x is string => !!x);
     const catalogue = new Map((await repo.findCatalogueParts(tx, patient.practiceId, ids)).map((c) => [c.askedId, c]));
-    const checked = checkPlan(body, patientSites, catalogue);
+    const ratio = await repo.findCantileverRatio(tx, patient.practiceId);
+    const checked = checkPlan(body, patientSites, catalogue, ratio);
 
     const values = {
       practiceId: patient.practiceId,
@@ -215,6 +217,11 @@ export class RestorationsService {
       labEmail: body.labEmail,
       dueOn: body.dueOn,
       notes: body.notes,
+      provisional: body.provisional,
+      plannedReplacementOn: body.plannedReplacementOn,
+      cantileverLeftMm: body.cantileverLeftMm,
+      cantileverRightMm: body.cantileverRightMm,
+      apSpreadMm: body.apSpreadMm,
     };
     const id = amendment
       ? await repo.insertRestorationAmendment(tx, { ...values, ...amendment })
@@ -337,6 +344,25 @@ export class RestorationsService {
     return this.detail(ability, scope, row.id);
   }
 
+  /** The practice's cantilever limit, which the planner computes its live Findings with. */
+  async cantileverSettings(scope: Scope): Promise<CantileverSettings> {
+    return { cantileverRatioLimit: await repo.findCantileverRatio(this.db, scope.practiceId) };
+  }
+
+  async setCantileverSettings(scope: Scope, cantileverRatioLimit: number): Promise<CantileverSettings> {
+    await auditedTransaction(this.db, async (tx) => {
+      const before = await repo.findCantileverRatio(tx, scope.practiceId);
+      await repo.setCantileverRatio(tx, scope.practiceId, cantileverRatioLimit);
+      reportChange({
+        type: 'Practice',
+        id: scope.practiceId,
+        before: { cantileverRatioLimit: before },
+        after: { cantileverRatioLimit },
+      });
+    });
+    return { cantileverRatioLimit };
+  }
+
   /** For the lab prescription (exported to LabPrescriptionsModule): the version, if the user may see its patient. */
   findVisible(scope: Scope, id: string): Promise<repo.RestorationRow | null> {
     return repo.findVisibleRestoration(this.db, scope, id);
@@ -403,6 +429,12 @@ export class RestorationsService {
       supersedesId: r.supersedesId,
       amendmentReason: r.amendmentReason,
       supersededById: r.supersededById,
+      provisional: r.provisional,
+      plannedReplacementOn: r.plannedReplacementOn,
+      replacedById: r.replacedById,
+      cantileverLeftMm: r.cantileverLeftMm,
+      cantileverRightMm: r.cantileverRightMm,
+      apSpreadMm: r.apSpreadMm,
       retrievable: isRetrievable(r.retention),
       acknowledgements: acks
         .filter((a) => a.restorationId === r.id)

@@ -167,6 +167,9 @@ export async function restoration(
     impressionOn: string;
     deliveredOn: string;
     copingsSplinted?: boolean;
+    /** A provisional: the day its definitive restoration is planned. */
+    plannedReplacementOn?: string;
+    notes?: string;
     sites: {
       siteId: string;
       interface: InterfaceKind;
@@ -189,6 +192,9 @@ export async function restoration(
       copingsSplinted: r.copingsSplinted ?? false,
       impressionTakenOn: r.impressionOn,
       deliveredOn: r.deliveredOn,
+      provisional: r.plannedReplacementOn !== undefined,
+      plannedReplacementOn: r.plannedReplacementOn,
+      notes: r.notes,
       plannedBy: ctx.userIds.get('ines.calloway@larkspur.example')!,
       createdAt: at(r.impressionOn, '09:00'),
     })

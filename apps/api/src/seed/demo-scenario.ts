@@ -477,6 +477,55 @@ export async function seedDemoScenario(tx: Tx, today: string): Promise<{ summary
   const overdentures = await seedOverdenturePatients(ctx, today);
   sites += overdentures.sites;
 
+  // 5c. Signe Marchetti: 21 placed with immediate loading and a screw-retained provisional crown the
+  // same day; the definitive crown was planned sixteen weeks later [common practice: three to four
+  // months of healing before the definitive] and is now overdue (the Recall desk's provisionals).
+  const signe = await addPatient(tx, ctx.practiceId, {
+    chartNumber: 'LL-1009',
+    givenName: 'Signe',
+    familyName: 'Marchetti',
+    birthDate: birthDate(today, 52, '02-21'),
+    email: 'signe.marchetti@mail.example',
+    missingTeeth: [],
+  });
+  const s21 = await addSite(ctx, signe, 21, 'restored');
+  sites += 1;
+  const signePlacedOn = addDays(today, -150);
+  await place(ctx, {
+    patientId: signe,
+    siteId: s21,
+    platform: 'SCN-3.5',
+    placedOn: signePlacedOn,
+    lengthMm: 13,
+    lot: 'SCN3513-26C04',
+    insertionTorqueNcm: 40,
+    isq: 73,
+    axis: [0, 0.2, 1],
+    loading: 'immediate',
+  });
+  const provisional = await restoration(ctx, {
+    patientId: signe,
+    kind: 'single-crown',
+    retention: 'screw-to-implant',
+    material: 'other',
+    shade: 'A2',
+    impressionOn: signePlacedOn,
+    deliveredOn: signePlacedOn,
+    plannedReplacementOn: addDays(signePlacedOn, 112),
+    notes: 'Provisional acrylic crown out of occlusion, shaping the emergence profile.',
+    sites: [{ siteId: s21, interface: 'engaging', coping: 'engaging', spaceMm: 9 }],
+  });
+  await install(ctx, {
+    patientId: signe,
+    siteId: s21,
+    restorationId: provisional,
+    platform: 'SCN-3.5',
+    part: 'bridge-screw',
+    lot: 'PSI-2606-12',
+    installedOn: signePlacedOn,
+    torque: seated(signePlacedOn, 25),
+  });
+
   // Dr Imbert is shared into the patients he placed for.
   const imbertId = userIds.get('rafael.imbert@northgate.example')!;
   const sharedBy = userIds.get('ines.calloway@larkspur.example')!;
@@ -576,5 +625,5 @@ export async function seedDemoScenario(tx: Tx, today: string): Promise<{ summary
     patientIds: new Map(patientRows.map((p) => [p.chartNumber, p.id])),
     siteIds: new Map(siteRows.map((s) => [`${chartById.get(s.patientId)}:${s.fdi}`, s.id])),
   };
-  return { summary: { practices: 3, patients: 7 + overdentures.patients, sites }, refs };
+  return { summary: { practices: 3, patients: 8 + overdentures.patients, sites }, refs };
 }

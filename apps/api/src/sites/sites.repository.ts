@@ -191,6 +191,8 @@ const currentRestorationQuery = preparedFor((db) => {
         retention: restorations.retention,
         material: restorations.material,
         deliveredOn: restorations.deliveredOn,
+        provisional: restorations.provisional,
+        plannedReplacementOn: restorations.plannedReplacementOn,
         interface: restorationSites.interface,
         spansFdi: sql<number[]>`array(select s.fdi from restoration_sites rs join implant_sites s on s.id = rs.site_id
         where rs.restoration_id = ${restorations.id} order by s.fdi)`,

@@ -89,6 +89,9 @@ const restorationsQuery = preparedFor((db) => {
       supersedesId: restorations.supersedesId,
       amendmentReason: restorations.amendmentReason,
       amended: isAmended(restorations),
+      provisional: restorations.provisional,
+      replacedById: restorations.replacedById,
+      replacesProvisional: sql<boolean>`exists (select 1 from restorations rp where rp.replaced_by_id = ${restorations.id} and rp.provisional)`,
       impressionCoping: restorationSites.impressionCoping,
       interface: restorationSites.interface,
       spansFdi: sql<number[]>`array(select s.fdi from restoration_sites rs join implant_sites s on s.id = rs.site_id

@@ -150,11 +150,26 @@ export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: Timeli
         ),
       );
     if (r.deliveredOn) {
+      // A provisional stays in the Timeline, marked replaced once its definitive is delivered.
+      const retrievable = isRetrievable(r.retention)
+        ? 'Retrievable'
+        : 'Cement-retained: not retrievable without cutting';
+      const replacement = r.provisional
+        ? r.replacedById
+          ? '; replaced by the definitive restoration'
+          : '; awaiting the definitive restoration'
+        : r.replacesProvisional
+          ? '; replaces the provisional'
+          : '';
       events.push(
-        base('delivery', r.id, day(r.deliveredOn), true, `Restoration delivered: ${what}`, {
-          detail: isRetrievable(r.retention) ? 'Retrievable' : 'Cement-retained: not retrievable without cutting',
-          amended: r.amended,
-        }),
+        base(
+          'delivery',
+          r.id,
+          day(r.deliveredOn),
+          true,
+          `${r.provisional ? 'Provisional restoration delivered' : 'Restoration delivered'}: ${what}`,
+          { detail: `${retrievable}${replacement}`, amended: r.amended },
+        ),
       );
     }
     for (const l of r.labs)

@@ -119,6 +119,8 @@ export const AUDIT_EXPECTATIONS: Record<string, Audited | null> = {
   'PUT /api/practice/wrench-settings': { action: 'policy-change', patient: false },
   'GET /api/practice/impression-settings': null,
   'PUT /api/practice/impression-settings': { action: 'policy-change', patient: false },
+  'GET /api/practice/cantilever-settings': null,
+  'PUT /api/practice/cantilever-settings': { action: 'policy-change', patient: false },
   'GET /api/practice/contact': null,
   'PUT /api/practice/contact': { action: 'policy-change', patient: false },
   // Shares (issue 12): the list names patients; every change is a share-change naming its patient.

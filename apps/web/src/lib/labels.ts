@@ -91,6 +91,7 @@ export const DESK_FILTER_LABEL: Record<DeskFilter, string> = {
   'due-this-week': `Due in the next ${DESK_DUE_SOON_DAYS} days`,
   overdue: 'Overdue',
   'peri-implantitis-last': 'Peri-implantitis last time',
+  'provisional-overdue': 'Provisional past its planned replacement',
 };
 
 /** Column heads of the Recall desk's sortable columns. */

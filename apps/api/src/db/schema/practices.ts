@@ -1,6 +1,6 @@
-import { boolean, index, integer, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { boolean, index, integer, numeric, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
 import { dateFormatEnum, roleEnum } from './enums.js';
-import { DEFAULT_CALIBRATION_INTERVAL_MONTHS } from '@torquetrail/domain';
+import { DEFAULT_CALIBRATION_INTERVAL_MONTHS, DEFAULT_CANTILEVER_RATIO } from '@torquetrail/domain';
 
 export const practices = pgTable('practices', {
   id: uuid('id').primaryKey().defaultRandom(),
@@ -27,6 +27,10 @@ export const practices = pgTable('practices', {
    * without one it carries a Finding. Off until the practice turns it on.
    */
   requireScanBodyRadiograph: boolean('require_scan_body_radiograph').notNull().default(false),
+  /** Longest distal cantilever as a multiple of the A-P spread (the practice's own; default 1.5). */
+  cantileverRatioLimit: numeric('cantilever_ratio_limit', { precision: 3, scale: 1, mode: 'number' })
+    .notNull()
+    .default(DEFAULT_CANTILEVER_RATIO),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 });
 

@@ -1,4 +1,5 @@
 import {
+  type AnyPgColumn,
   boolean,
   date,
   index,
@@ -58,12 +59,34 @@ export const restorations = pgTable(
     labEmail: text('lab_email'),
     dueOn: date('due_on', { mode: 'string' }),
     notes: text('notes'),
+    /** A provisional (e.g. at immediate loading) awaiting its definitive restoration on the planned day. */
+    provisional: boolean('provisional').notNull().default(false),
+    plannedReplacementOn: date('planned_replacement_on', { mode: 'string' }),
+    /**
+     * Distal cantilevers (patient's left and right) and the entered A-P spread of the implants, mm:
+     * recorded for the kinds in CANTILEVER_KINDS (@torquetrail/domain).
+     */
+    cantileverLeftMm: numeric('cantilever_left_mm', { precision: 4, scale: 1, mode: 'number' }),
+    cantileverRightMm: numeric('cantilever_right_mm', { precision: 4, scale: 1, mode: 'number' }),
+    apSpreadMm: numeric('ap_spread_mm', { precision: 4, scale: 1, mode: 'number' }),
+    /**
+     * The restoration delivered on its sites that took this one out (set with status 'removed'):
+     * a provisional stays in the record, marked replaced by its definitive restoration.
+     */
+    replacedById: uuid('replaced_by_id').references((): AnyPgColumn => restorations.id),
     /** An amendment is a new row superseding the old one, with its reason. */
     supersedesId: uuid('supersedes_id'),
     amendmentReason: text('amendment_reason'),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index('restorations_patient_idx').on(t.patientId), ...amendmentChain('restorations', t)],
+  (t) => [
+    index('restorations_patient_idx').on(t.patientId),
+    // The Recall desk's provisionals: delivered, still in place, by planned replacement day.
+    index('restorations_provisional_due_idx')
+      .on(t.practiceId, t.plannedReplacementOn)
+      .where(sql`${t.provisional} and ${t.status} = 'delivered'`),
+    ...amendmentChain('restorations', t),
+  ],
 );
 
 /** One implant site of a restoration, with the interface and impression technique used there. */

@@ -172,6 +172,12 @@ export const FIELD_LABELS: Record<string, string> = {
   x: 'x',
   y: 'y',
   z: 'z',
+  apSpreadMm: 'A-P spread of the implants (mm)',
+  cantileverLeftMm: "Distal cantilever, patient's left (mm)",
+  cantileverRightMm: "Distal cantilever, patient's right (mm)",
+  cantileverRatioLimit: 'Cantilever limit (\u00d7 A-P spread)',
+  provisional: 'Provisional restoration',
+  plannedReplacementOn: 'Planned replacement date',
 };
 
 /** What one item of a list field is called, for "Lot, part 2". */

@@ -3,6 +3,7 @@ import { Button, Callout, FormGroup, HTMLTable, InputGroup, Tag } from '@bluepri
 import { isApiError } from '../../../lib/api-client';
 import { WrenchSettingsForm } from '../components/wrench-settings-form';
 import { ImpressionSettingsSwitch } from '../../impressions';
+import { CantileverSettingsForm } from '../components/cantilever-settings-form';
 import { useState } from 'react';
 import { Can, useAppAbility } from '../../../lib/ability';
 import { ErrorState } from '../../../lib/components/error-state';
@@ -86,6 +87,9 @@ function Wrenches() {
       </Can>
       <Can I="create" a="Wrench">
         <AddWrenchForm />
+      </Can>
+      <Can I="update" a="Practice">
+        <CantileverSettingsForm />
       </Can>
     </section>
   );

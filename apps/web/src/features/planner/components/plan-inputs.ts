@@ -21,7 +21,7 @@ const AXIS_NAMES = ['x', 'y', 'z'] as const;
  * spaces around. `null` when empty; NaN when it is not such a number (hex, exponents and words are
  * not read as numbers, which `Number()` would do for "0x10" or "1e3").
  */
-function parseDecimal(text: string): number | null {
+export function parseDecimal(text: string): number | null {
   const t = text.trim();
   if (t === '') return null;
   if (!/^[-+]?(\d+([.,]\d*)?|[.,]\d+)$/.test(t)) return Number.NaN;

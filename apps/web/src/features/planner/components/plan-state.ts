@@ -19,14 +19,17 @@ import {
   ABUTMENT_LEVEL_RETENTIONS,
   isOverdentureKind,
   catalogueValueFindings,
+  DEFAULT_CANTILEVER_RATIO,
   type RestorationPlan,
   type SiteParts,
   ValidationError,
   type Vec3,
+  cantileverFindings,
+  recordsCantilevers,
   validateRestorationPlan,
 } from '@torquetrail/domain';
 import { fieldLabel } from '../../../lib/forms/field-labels';
-import { INPUT_FINDING_CODES, readSiteInputs } from './plan-inputs';
+import { INPUT_FINDING_CODES, parseDecimal, readSiteInputs } from './plan-inputs';
 
 export interface SitePlan {
   siteId: string;
@@ -55,8 +58,26 @@ export interface PlanState {
   labEmail: string;
   dueOn: string;
   notes: string;
+  /** A provisional awaiting its definitive restoration on `plannedReplacementOn` (YYYY-MM-DD). */
+  provisional: boolean;
+  plannedReplacementOn: string;
+  /** Full-arch work (CANTILEVER_KINDS): cantilevers and the A-P spread as typed, mm. */
+  cantileverLeftMm: string;
+  cantileverRightMm: string;
+  apSpreadMm: string;
   sites: SitePlan[];
   acknowledged: string[];
+}
+
+/** The cantilever fields the plan sends: only for the kinds that record them; typed non-numbers as NaN. */
+function cantilevers(state: PlanState) {
+  const on = recordsCantilevers(state.kind);
+  const read = (text: string) => (on ? parseDecimal(text) : null);
+  return {
+    cantileverLeftMm: read(state.cantileverLeftMm),
+    cantileverRightMm: read(state.cantileverRightMm),
+    apSpreadMm: read(state.apSpreadMm),
+  };
 }
 
 export const emptySitePlan = (siteId: string): SitePlan => ({
@@ -83,6 +104,11 @@ export const initialPlan: PlanState = {
   labEmail: '',
   dueOn: '',
   notes: '',
+  provisional: false,
+  plannedReplacementOn: '',
+  cantileverLeftMm: '',
+  cantileverRightMm: '',
+  apSpreadMm: '',
   sites: [],
   acknowledged: [],
 };
@@ -116,6 +142,9 @@ export function toBody(
     labEmail: state.labEmail || null,
     dueOn: state.dueOn || null,
     notes: state.notes || null,
+    provisional: state.provisional,
+    plannedReplacementOn: (state.provisional && state.plannedReplacementOn) || null,
+    ...cantilevers(state),
     sites: state.sites.map((s, i) => {
       // Only the slots the retention uses are sent (a part chosen under another retention is dropped).
       const onMua = state.retention === 'screw-to-multi-unit';
@@ -155,6 +184,7 @@ export function liveFindings(
   state: PlanState,
   sites: RestorableSite[],
   catalogue: Map<string, CatalogueComponent>,
+  cantileverRatio: number = DEFAULT_CANTILEVER_RATIO,
 ): { findings: Finding[]; invalid: Record<string, string> } {
   const read = readSites(state, sites, catalogue);
   const notes = read.flatMap((r) => r.findings.filter((f) => f.severity !== 'error'));
@@ -187,12 +217,33 @@ export function liveFindings(
       };
     }),
   };
+  const typed = cantilevers(state);
+  const invalid: Record<string, string> = {};
+  for (const [field, value] of Object.entries(typed))
+    if (value !== null && Number.isNaN(value)) invalid[field] = 'Enter millimetres, e.g. 12.5';
+  if (Object.keys(invalid).length > 0) {
+    const message = 'A cantilever or the A-P spread is not a number, so the cantilevers cannot be checked.';
+    return { findings: [{ severity: 'error', code: INPUT_FINDING_CODES.NOT_A_NUMBER, message }, ...notes], invalid };
+  }
+  const given = (n: number | null) => n ?? undefined;
   try {
-    const rules = [
-      ...validateRestorationPlan(plan),
-      ...catalogueValueFindings(state, chosenParts(state, sites, catalogue)),
-    ];
-    return { findings: [...rules, ...notes], invalid: {} };
+    return {
+      findings: [
+        ...validateRestorationPlan(plan),
+        ...catalogueValueFindings(state, chosenParts(state, sites, catalogue)),
+        ...cantileverFindings(
+          {
+            kind: state.kind,
+            leftMm: given(typed.cantileverLeftMm),
+            rightMm: given(typed.cantileverRightMm),
+            apSpreadMm: given(typed.apSpreadMm),
+          },
+          cantileverRatio,
+        ),
+        ...notes,
+      ],
+      invalid: {},
+    };
   } catch (error) {
     if (error instanceof ValidationError) {
       const field = (error.field ?? 'sites').replace(/^plan\./, '').replace(/\[(\d+)\]/g, '.$1');
@@ -258,6 +309,11 @@ export function stateFromRestoration(r: RestorationDetail): PlanState {
     labEmail: r.labEmail ?? '',
     dueOn: r.dueOn ?? '',
     notes: r.notes ?? '',
+    provisional: r.provisional,
+    plannedReplacementOn: r.plannedReplacementOn ?? '',
+    cantileverLeftMm: str(r.cantileverLeftMm),
+    cantileverRightMm: str(r.cantileverRightMm),
+    apSpreadMm: str(r.apSpreadMm),
     acknowledged: (r.acknowledgements ?? []).map((a) => `${a.code}:${a.fdi ?? ''}`),
     sites: r.sites.map((s) => {
       const first = (...kinds: ComponentKind[]) => s.components.find((c) => kinds.includes(c.kind))?.id ?? '';

@@ -13,7 +13,7 @@ import {
   type Retention,
   findingField,
 } from '@torquetrail/contracts';
-import { formatTooth } from '@torquetrail/domain';
+import { formatTooth, recordsCantilevers } from '@torquetrail/domain';
 import { useMemo, useState } from 'react';
 import { FormProvider } from 'react-hook-form';
 import type { z } from 'zod';
@@ -31,7 +31,7 @@ import {
   withInputRef,
 } from '../../../lib/forms';
 import { useToothSystem } from '../../../lib/tooth-system';
-import { useCatalogue } from '../../catalogue';
+import { useCantileverSettings, useCatalogue } from '../../catalogue';
 import { useAmendPlan, useRestorableSites, useRestorations, useSavePlan } from '../api/planner-api';
 import { FindingsPanel } from '../components/findings-panel';
 import {
@@ -64,17 +64,19 @@ export function PlannerRoute() {
   const sites = useRestorableSites(patientId);
   const catalogue = useCatalogue();
   const restorations = useRestorations(patientId);
+  const cantilever = useCantileverSettings();
 
-  if (sites.isPending || catalogue.isPending || (amendId && restorations.isPending))
+  if (sites.isPending || catalogue.isPending || cantilever.isPending || (amendId && restorations.isPending))
     return <LoadingState label="Loading the planner" />;
-  if (sites.isError || catalogue.isError)
+  if (sites.isError || catalogue.isError || cantilever.isError)
     return (
       <ErrorState
         title="Could not load the planner"
-        error={sites.error ?? catalogue.error}
+        error={sites.error ?? catalogue.error ?? cantilever.error}
         onRetry={() => {
           void sites.refetch();
           void catalogue.refetch();
+          void cantilever.refetch();
         }}
       />
     );
@@ -85,6 +87,7 @@ export function PlannerRoute() {
       patientName={patientName}
       restorable={sites.data.items}
       catalogue={catalogue.data}
+      cantileverRatio={cantilever.data.cantileverRatioLimit}
       amendable={amendId ? restorations.data?.items.find((r) => r.id === amendId && isAmendable(r)) : undefined}
       amendId={amendId}
     />
@@ -136,12 +139,15 @@ function PlannerForm({
   patientName,
   restorable: all,
   catalogue,
+  cantileverRatio,
   amending,
 }: {
   patientId: string;
   patientName: string;
   restorable: RestorableSite[];
   catalogue: CatalogueReply;
+  /** The practice's cantilever limit (× A-P spread) the live Findings use. */
+  cantileverRatio: number;
   amending?: RestorationDetail;
 }) {
   const navigate = useNavigate();
@@ -162,7 +168,7 @@ function PlannerForm({
   const schema = useMemo((): z.ZodType<PlanBodyParsed | PlanAmendmentParsed, PlannerDraft> => {
     // Only the warnings still raised are acknowledged (one acknowledged earlier may have gone).
     const planBody = (d: PlannerDraft) => {
-      const { findings } = d.sites.length > 0 ? liveFindings(d, restorable, parts) : { findings: [] };
+      const { findings } = d.sites.length > 0 ? liveFindings(d, restorable, parts, cantileverRatio) : { findings: [] };
       return toBody(
         patientId,
         { ...d, acknowledged: d.acknowledged.filter((k) => findings.some((f) => ackKey(f) === k)) },
@@ -176,7 +182,7 @@ function PlannerForm({
           return { ...rest, amendmentReason: d.amendmentReason };
         })
       : draftSchema(PlanBody, planBody);
-  }, [amending, parts, patientId, restorable]);
+  }, [amending, cantileverRatio, parts, patientId, restorable]);
   const form = useContractForm(schema, {
     ...(amending ? stateFromRestoration(amending) : initialPlan),
     amendmentReason: '',
@@ -185,7 +191,7 @@ function PlannerForm({
 
   const chosen = state.sites.map((p) => restorable.find((s) => s.siteId === p.siteId)!);
   const { findings, invalid } =
-    chosen.length > 0 ? liveFindings(state, restorable, parts) : { findings: [], invalid: {} };
+    chosen.length > 0 ? liveFindings(state, restorable, parts, cantileverRatio) : { findings: [], invalid: {} };
   const fdis = chosen.map((s) => s.fdi);
   // Messages computed from the draft as it is now, shown beside their fields.
   const live: Record<string, string> = { ...invalid };
@@ -314,6 +320,70 @@ function PlannerForm({
                 onChange={(e) => update({ copingsSplinted: e.currentTarget.checked })}
               />
             </FormField>
+            <FormField {...field('provisional')}>
+              <Checkbox
+                label="Provisional restoration (a definitive one will replace it)"
+                checked={state.provisional}
+                onChange={(e) => update({ provisional: e.currentTarget.checked })}
+                data-testid="plan-provisional"
+              />
+            </FormField>
+            {state.provisional && (
+              <FormField
+                {...field('plannedReplacementOn')}
+                label="Planned replacement date"
+                labelFor="plan-replacement"
+                help="The Recall desk lists the provisional once this day has passed."
+              >
+                <DateInput
+                  id="plan-replacement"
+                  value={state.plannedReplacementOn}
+                  onChange={(v) => update({ plannedReplacementOn: v })}
+                />
+              </FormField>
+            )}
+            {recordsCantilevers(state.kind) && (
+              <fieldset className="planner-grid" data-testid="plan-cantilevers">
+                <legend>Cantilevers (practice limit {cantileverRatio} × A-P spread)</legend>
+                <FormField
+                  {...field('apSpreadMm')}
+                  label="A-P spread (mm)"
+                  labelFor="plan-ap-spread"
+                  help="Measured: most anterior implant's centre to the line joining the distal sides of the most distal implants."
+                >
+                  <InputGroup
+                    id="plan-ap-spread"
+                    inputMode="decimal"
+                    value={state.apSpreadMm}
+                    onValueChange={(v) => update({ apSpreadMm: v })}
+                  />
+                </FormField>
+                <FormField
+                  {...field('cantileverRightMm')}
+                  label="Distal cantilever, right (mm)"
+                  labelFor="plan-cant-right"
+                >
+                  <InputGroup
+                    id="plan-cant-right"
+                    inputMode="decimal"
+                    value={state.cantileverRightMm}
+                    onValueChange={(v) => update({ cantileverRightMm: v })}
+                  />
+                </FormField>
+                <FormField
+                  {...field('cantileverLeftMm')}
+                  label="Distal cantilever, left (mm)"
+                  labelFor="plan-cant-left"
+                >
+                  <InputGroup
+                    id="plan-cant-left"
+                    inputMode="decimal"
+                    value={state.cantileverLeftMm}
+                    onValueChange={(v) => update({ cantileverLeftMm: v })}
+                  />
+                </FormField>
+              </fieldset>
+            )}
             {state.sites.map((p, i) => (
               <SitePlanFields
                 key={p.siteId}

@@ -159,6 +159,19 @@ export function RecallDeskRoute() {
                         </span>
                       ))}
                     </span>
+                    {r.provisionalsOverdue?.map((p) => (
+                      <Tag
+                        key={p.restorationId}
+                        intent="warning"
+                        minimal
+                        icon="time"
+                        className="recall-desk__provisional"
+                        data-testid="desk-provisional-overdue"
+                      >
+                        Provisional at {p.fdis.join(', ')}: replacement was planned for{' '}
+                        {formatDate(p.plannedReplacementOn)}
+                      </Tag>
+                    ))}
                   </td>
                   <td>
                     {riskText(r.riskFactors).map((t) => (

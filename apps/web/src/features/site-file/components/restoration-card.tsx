@@ -48,6 +48,11 @@ export function RestorationCard({
       <h3 className="stack-card__title">
         <span className="stack-card__kind">Restoration</span>
         <span>{RESTORATION_KIND_LABEL[restoration.kind]}</span>
+        {restoration.provisional && (
+          <Tag intent="warning" minimal data-testid="stack-provisional">
+            Provisional
+          </Tag>
+        )}
       </h3>
       <FactList
         facts={[
@@ -55,6 +60,14 @@ export function RestorationCard({
           ['Material', MATERIAL_LABEL[restoration.material]],
           ['Interface', INTERFACE_LABEL[restoration.interface]],
           ['Delivered', restoration.deliveredOn ? formatDate(restoration.deliveredOn) : 'Not yet delivered'],
+          ...(restoration.provisional
+            ? [
+                [
+                  'Planned replacement',
+                  restoration.plannedReplacementOn ? formatDate(restoration.plannedReplacementOn) : 'Not set',
+                ] as [string, ReactNode],
+              ]
+            : []),
           ['Spans', restoration.spansFdi.map((fdi) => formatTooth(fdi, system)).join(', ')],
           ...(restoration.deliveredOn
             ? [
