@@ -1,15 +1,13 @@
-// Lab prescription e-mails through the API's job queue, like the recall reminders: a request is
-// a row in lab_prescription_mails; its send job (one per row: the queue's singleton key) locks
-// the row, reads the stored PDF, sends through SMTP and marks it sent only after SMTP accepted
-// it. A failed attempt (SMTP or S3 away) is recorded and retried with exponential back-off; a
-// row already sent is never sent again. A sweep every minute queues a job for any request still
-// pending without one (queue not running when it was made, a job lost with the database).
+// Lab prescription e-mails: a request is a row in lab_prescription_mails, sent through the shared
+// mail queue (mail/mail-queue.ts: locked, sent once, retried with back-off, swept every minute).
+// The stored PDF goes with it, and the impression's scan files attached or linked.
 import { Inject, Injectable } from '@nestjs/common';
 import { ENV, type Env } from '../config/env.js';
 import { DB, type Database } from '../db/database.js';
 import { ImpressionsService, type ImpressionLabSheet } from '../impressions/impressions.service.js';
 import { JobsService } from '../jobs/jobs.service.js';
-import { MailService } from '../mail/mail.service.js';
+import { MailQueue } from '../mail/mail-queue.js';
+import { MailService, type OutgoingMail } from '../mail/mail.service.js';
 import { StorageService } from '../storage/storage.service.js';
 import {
   LAB_FILE_LINK_TTL_MS,
@@ -19,63 +17,43 @@ import {
 import * as repo from './lab-prescriptions.repository.js';
 import { pdfFilename } from './pdf-filename.js';
 
-const SEND_QUEUE = 'lab-prescription-mail-send';
-const SWEEP_QUEUE = 'lab-prescription-mail-sweep';
-
-interface SendJob {
-  mailId: string;
-}
-
-export type LabMailOutcome = 'sent' | 'already-sent' | 'gone' | 'failed';
+type LabMailRow = NonNullable<Awaited<ReturnType<typeof repo.lockMail>>>;
 
 @Injectable()
 export class LabMailService {
   private readonly secret: string;
   /** Where the mailed links point: APP_URL, else this API's own address (development, tests). */
   private readonly origin: string;
+  private readonly mails: MailQueue<LabMailRow>;
+
   constructor(
     @Inject(ENV) env: Env,
     @Inject(DB) private readonly db: Database,
-    private readonly jobs: JobsService,
-    private readonly mail: MailService,
+    jobs: JobsService,
+    mail: MailService,
     private readonly storage: StorageService,
     private readonly impressions: ImpressionsService,
   ) {
     this.secret = env.JWT_SECRET;
     this.origin = (env.APP_URL ?? `http://localhost:${env.PORT}`).replace(/\/+$/, '');
-    // The same retry settings as reminders: every mail waits for SMTP the same way.
-    jobs.register<SendJob>({
-      name: SEND_QUEUE,
-      policy: 'exclusive',
-      retryLimit: env.REMINDER_RETRY_LIMIT,
-      retryDelay: env.REMINDER_RETRY_DELAY_S,
-      pollingIntervalSeconds: 1,
-      handle: async ({ mailId }, { finalAttempt }) => {
-        if ((await this.deliver(mailId, finalAttempt)) === 'failed')
-          throw new Error(`lab mail ${mailId} not sent; will retry`);
+    this.mails = new MailQueue(
+      { env, db, jobs, mail },
+      {
+        name: 'lab-prescription-mail',
+        lock: repo.lockMail,
+        pending: repo.listPendingMails,
+        compose: (row) => this.compose(row),
+        markSent: (tx, row, messageId) => repo.markMailSent(tx, row.id, row.labPrescriptionId, row.sentTo, messageId),
+        markFailed: (tx, row, error, finalAttempt) => repo.markMailAttemptFailed(tx, row.id, error, finalAttempt),
       },
-    });
-    jobs.register<object>({
-      name: SWEEP_QUEUE,
-      policy: 'standard',
-      retryLimit: 0,
-      retryDelay: 60,
-      cron: '* * * * *',
-      handle: () => this.sweep(),
-    });
+    );
   }
 
   /** Records a request (or finds the one already waiting) and queues its send. */
   async request(v: { practiceId: string; labPrescriptionId: string; sentTo: string; requestedBy: string }) {
     const mailId = await repo.requestMail(this.db, v);
-    await this.jobs.send(SEND_QUEUE, { mailId } satisfies SendJob, mailId);
+    await this.mails.queue(mailId);
     return mailId;
-  }
-
-  /** Queues a send job for every pending request (the singleton key skips those already queued). */
-  async sweep(): Promise<void> {
-    for (const { id } of await repo.listPendingMails(this.db))
-      await this.jobs.send(SEND_QUEUE, { mailId: id } satisfies SendJob, id);
   }
 
   /**
@@ -108,40 +86,23 @@ export class LabMailService {
     };
   }
 
-  /** Sends one request at most once: locked for the send, marked sent only after SMTP accepted it. */
-  async deliver(mailId: string, finalAttempt = false): Promise<LabMailOutcome> {
-    return this.db.transaction(async (tx) => {
-      const row = await repo.lockMail(tx, mailId);
-      if (!row) return 'gone';
-      if (row.status === 'sent') return 'already-sent';
-      try {
-        const pdf = await this.storage.get(row.objectKey);
-        const scans = await this.scanFilesPart(await this.impressions.labSheet(row.restorationId));
-        const messageId = await this.mail.send({
-          to: row.sentTo,
-          subject: `Lab prescription ${row.chartNumber} from ${row.practiceName}`,
-          text: `Please find the lab prescription for ${row.chartNumber} attached.${row.dueOn ? ` Due ${row.dueOn}.` : ''}${scans.text}\n\n${row.practiceName}`,
-          attachments: [
-            { filename: pdfFilename(row.chartNumber), content: pdf, contentType: 'application/pdf' },
-            ...scans.attachments,
-          ],
-          headers: {
-            'X-Torquetrail-Lab-Prescription': row.labPrescriptionId,
-            'X-Torquetrail-Lab-Mail': row.id,
-            'X-Torquetrail-Scan-Files': scans.mode,
-          },
-        });
-        await repo.markMailSent(tx, row.id, row.labPrescriptionId, row.sentTo, messageId);
-        return 'sent';
-      } catch (error) {
-        await repo.markMailAttemptFailed(
-          tx,
-          row.id,
-          error instanceof Error ? error.message : String(error),
-          finalAttempt,
-        );
-        return 'failed';
-      }
-    });
+  /** The stored PDF, and the impression's scan files attached or linked. */
+  private async compose(row: LabMailRow): Promise<OutgoingMail> {
+    const pdf = await this.storage.get(row.objectKey);
+    const scans = await this.scanFilesPart(await this.impressions.labSheet(row.restorationId));
+    return {
+      to: row.sentTo,
+      subject: `Lab prescription ${row.chartNumber} from ${row.practiceName}`,
+      text: `Please find the lab prescription for ${row.chartNumber} attached.${row.dueOn ? ` Due ${row.dueOn}.` : ''}${scans.text}\n\n${row.practiceName}`,
+      attachments: [
+        { filename: pdfFilename(row.chartNumber), content: pdf, contentType: 'application/pdf' },
+        ...scans.attachments,
+      ],
+      headers: {
+        'X-Torquetrail-Lab-Prescription': row.labPrescriptionId,
+        'X-Torquetrail-Lab-Mail': row.id,
+        'X-Torquetrail-Scan-Files': scans.mode,
+      },
+    };
   }
 }
