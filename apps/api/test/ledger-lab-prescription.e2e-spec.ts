@@ -108,7 +108,7 @@ describe('lab prescription', () => {
     );
     expect(body).toContain('copings splinted together before the impression');
     expect(body).toContain('Material: Zirconia Shade: A3');
-    expect(body).toContain('Due: 2026-12-18');
+    expect(body).toContain('Due: 18 Dec 2026'); // in the practice's date format (day-month-year by default)
     expect(body).toContain('Signature');
     expect(body).toContain('Dr Ines Calloway');
     expect(body).toMatch(/manufacturer's instructions/);

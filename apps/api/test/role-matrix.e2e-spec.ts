@@ -74,9 +74,19 @@ describe('what each list holds', () => {
     return (res.body.items as { chartNumber: string }[]).map((p) => p.chartNumber).sort();
   };
 
-  it('Larkspur roles see the five Larkspur patients and none of Quarry Hill', async () => {
+  it('Larkspur roles see the nine Larkspur patients and none of Quarry Hill', async () => {
     for (const who of ['dentist', 'hygienist', 'practice_admin'] as const) {
-      expect(await chartNumbers(who)).toEqual(['LL-1001', 'LL-1002', 'LL-1003', 'LL-1004', 'LL-1005']);
+      expect(await chartNumbers(who)).toEqual([
+        'LL-1001',
+        'LL-1002',
+        'LL-1003',
+        'LL-1004',
+        'LL-1005',
+        'LL-1006',
+        'LL-1007',
+        'LL-1008',
+        'LL-1009',
+      ]);
     }
   });
 

@@ -154,6 +154,26 @@ export async function seedDemoRadiographs(
       note: null,
     });
   }
+  // Every other Larkspur patient (the overdentures, the provisional) has at least the radiograph
+  // taken at placement, showing all their implants; appended so the shots above keep their files.
+  const pictured = new Set(shots.map((s) => s.patientId));
+  const larkspurSites = await tx
+    .select({ siteId: implantSites.id, patientId: implantSites.patientId })
+    .from(implantSites)
+    .where(eq(implantSites.practiceId, larkspur))
+    .orderBy(asc(implantSites.patientId), asc(implantSites.fdi));
+  for (const [chart, patientId] of [...refs.patientIds].sort(([a], [b]) => a.localeCompare(b))) {
+    const own = larkspurSites.filter((s) => s.patientId === patientId && placedOn.has(s.siteId));
+    if (pictured.has(patientId) || own.length === 0 || !chart.startsWith('LL-')) continue;
+    shots.push({
+      practiceId: larkspur,
+      patientId,
+      takenOn: own.map((s) => placedOn.get(s.siteId)!).sort()[0],
+      uploadedBy: refs.userIds.get(DENTIST)!,
+      sites: own.map((s) => ({ siteId: s.siteId, lengthMm: lengthBySite.get(s.siteId) ?? 10, boneMm: null })),
+      note: 'Post-operative',
+    });
+  }
 
   const stored = await Promise.all(shots.map((shot, i) => storeShot(shot, i, storage)));
   await tx.insert(radiographs).values(stored.map((s) => s.row));
