@@ -160,9 +160,9 @@ export function RecallDeskRoute() {
                       ))}
                     </span>
                     {r.provisionalsOverdue?.map((p) => (
+                      // No warning intent: Blueprint's minimal warning text fails WCAG AA contrast here (axe).
                       <Tag
                         key={p.restorationId}
-                        intent="warning"
                         minimal
                         icon="time"
                         className="recall-desk__provisional"
