@@ -4,20 +4,11 @@
 // with the domain's rules and RULES_VERSION, never read from the file.
 import { randomUUID } from 'node:crypto';
 import type { ImportCounts, ImportIssue, ImportPartMapping, ImportRow } from '@torquetrail/contracts';
-import {
-  DEFAULT_BONE_LOSS_MM,
-  DEFAULT_PD_INCREASE_MM,
-  DomainError,
-  PROBING_POSITIONS,
-  RULES_VERSION,
-  choosePeriImplantBaseline,
-  classifyPeriImplant,
-  toPeriImplantBaseline,
-  toPeriImplantExam,
-  torqueVerdict,
-  type ProbedSite,
-} from '@torquetrail/domain';
+import { RULES_VERSION, torqueVerdict } from '@torquetrail/domain';
 import type * as repo from './imports.repository.js';
+import { FilePatients } from './file-patients.js';
+import { judgeExamRow, RULE_OPTIONS, type ExamState } from './exam-row.js';
+import { key, RowError } from './import-row.js';
 
 type Loaded<K extends keyof typeof repo> = Awaited<ReturnType<(typeof repo)[K]>>;
 type Part = Loaded<'currentParts'>[number];
@@ -36,11 +27,6 @@ export interface PlanContext {
   mappings: ImportPartMapping[];
 }
 
-/** The thresholds handed to classifyPeriImplant, as the recall exams store them. */
-const RULE_OPTIONS = { pdIncreaseMm: DEFAULT_PD_INCREASE_MM, boneLossMm: DEFAULT_BONE_LOSS_MM };
-
-const key = (...parts: (string | number)[]) => parts.map((p) => String(p).trim().toLowerCase()).join('|');
-
 interface SiteState {
   id: string;
   status: string;
@@ -49,31 +35,6 @@ interface SiteState {
   restorationId: string | null;
   /** The site's insert when the file creates it (its status follows the file's rows). */
   insert: repo.NewSite | null;
-}
-interface ExamState {
-  id: string;
-  examinedOn: string;
-  recordedAt: Date;
-  isBaseline: boolean;
-  boneLevelMm: number | null;
-  sites: ProbedSite[];
-}
-
-/** A patient as the file names it: known, or new and created with its first good row. */
-interface FilePatient {
-  patientId: string;
-  identity: string;
-  row: number;
-  create: ImportRow | null;
-}
-
-class RowError extends Error {
-  constructor(
-    readonly column: string | null,
-    message: string,
-  ) {
-    super(message);
-  }
 }
 
 export class ImportPlanner {
@@ -105,13 +66,12 @@ export class ImportPlanner {
     freeTextParts: [],
     entries: [],
   };
-  /** The patients the file touches, for the result's links (id → chart and name). */
-  readonly touched = new Map<string, { id: string; chartNumber: string; name: string }>();
 
-  private readonly byChart = new Map<string, Loaded<'practicePatients'>[number]>();
-  private readonly byIdentity = new Map<string, Loaded<'practicePatients'>[number]>();
-  private readonly fileChart = new Map<string, FilePatient>();
-  private readonly matchedOnce = new Set<string>();
+  private readonly patients: FilePatients;
+  /** The patients the file touches, for the result's links (id → chart and name). */
+  get touched() {
+    return this.patients.touched;
+  }
   private readonly platforms = new Map<string, string>();
   private readonly parts = new Map<string, Part>();
   private readonly partsById = new Map<string, Part>();
@@ -130,10 +90,7 @@ export class ImportPlanner {
   >();
 
   constructor(private readonly ctx: PlanContext) {
-    for (const p of ctx.patients) {
-      this.byChart.set(key(p.chartNumber), p);
-      this.byIdentity.set(key(p.familyName, p.givenName, p.birthDate), p);
-    }
+    this.patients = new FilePatients(ctx.patients, ctx, this);
     for (const p of ctx.platforms) this.platforms.set(key(p.systemName, p.name), p.id);
     for (const p of ctx.parts) {
       this.parts.set(key(p.referenceCode), p);
@@ -176,10 +133,10 @@ export class ImportPlanner {
     try {
       if (row.date > this.ctx.latestToday) throw new RowError('date', 'The date is in the future');
       if (row.date < row.birthDate) throw new RowError('date', 'The date is before the patient was born');
-      const patient = this.patient(rowNumber, row);
+      const patient = this.patients.of(rowNumber, row);
       this.joinedBridge = false;
       this.event(rowNumber, row, patient.patientId);
-      this.createPatient(rowNumber, patient);
+      this.patients.create(rowNumber, patient);
       // A bridge's further sites join its restoration: `delivery` counts restorations, not rows.
       if (!this.joinedBridge) this.counts[row.event]++;
     } catch (e) {
@@ -188,94 +145,8 @@ export class ImportPlanner {
     }
   }
 
-  private patient(rowNumber: number, row: ImportRow): FilePatient {
-    const identity = key(row.familyName, row.givenName, row.birthDate);
-    const chart = key(row.chartNumber);
-    const seen = this.fileChart.get(chart);
-    if (seen) {
-      if (seen.identity !== identity)
-        throw new RowError(
-          'chart_number',
-          `Chart number ${row.chartNumber} has another name or birth date on row ${seen.row}`,
-        );
-      return seen;
-    }
-    const existing = this.byChart.get(chart);
-    let found: FilePatient;
-    if (existing) {
-      if (key(existing.familyName, existing.givenName, existing.birthDate) !== identity)
-        throw new RowError(
-          'chart_number',
-          `Chart number ${row.chartNumber} belongs to a patient with another name or birth date in Torquetrail`,
-        );
-      found = { patientId: existing.id, identity, row: rowNumber, create: null };
-      this.matched(
-        rowNumber,
-        existing.id,
-        `Matches the existing patient with chart number ${existing.chartNumber}: the rows are added to their record`,
-      );
-    } else {
-      const sameIdentity = this.byIdentity.get(identity);
-      if (sameIdentity) {
-        found = { patientId: sameIdentity.id, identity, row: rowNumber, create: null };
-        this.matched(
-          rowNumber,
-          sameIdentity.id,
-          `Same name and birth date as the existing patient with chart number ${sameIdentity.chartNumber}: the rows are added to that record`,
-        );
-      } else {
-        // Written with the patient's first row that checks, so a patient of only bad rows is not counted.
-        found = { patientId: randomUUID(), identity, row: rowNumber, create: row };
-      }
-    }
-    this.fileChart.set(chart, found);
-    if (this.touched.size < 50)
-      this.touched.set(found.patientId, {
-        id: found.patientId,
-        chartNumber: row.chartNumber,
-        name: `${row.familyName}, ${row.givenName}`,
-      });
-    return found;
-  }
-
-  private createPatient(rowNumber: number, patient: FilePatient) {
-    const row = patient.create;
-    if (!row) return;
-    patient.create = null;
-    this.counts.patientsNew++;
-    const values = {
-      id: patient.patientId,
-      practiceId: this.ctx.practiceId,
-      chartNumber: row.chartNumber,
-      givenName: row.givenName,
-      familyName: row.familyName,
-      birthDate: row.birthDate,
-    };
-    this.writes.patients.push(values);
-    this.writes.patientVersions.push({
-      practiceId: this.ctx.practiceId,
-      patientId: patient.patientId,
-      version: 1,
-      kind: 'created',
-      changes: (['chartNumber', 'givenName', 'familyName', 'birthDate'] as const).map((field) => ({
-        field,
-        before: null,
-        after: values[field],
-      })),
-      reason: 'Legacy import',
-      changedBy: this.ctx.userId,
-    });
-    this.entry(rowNumber, 'patients', patient.patientId);
-  }
-
-  private matched(rowNumber: number, patientId: string, message: string) {
-    if (this.matchedOnce.has(patientId)) return;
-    this.matchedOnce.add(patientId);
-    this.counts.patientsMatched++;
-    this.warning(rowNumber, 'chart_number', message);
-  }
-
-  private entry(rowNumber: number, recordTable: string, recordId: string) {
+  /** Links a written record to the file row it came from. */
+  entry(rowNumber: number, recordTable: string, recordId: string) {
     this.writes.entries.push({ practiceId: this.ctx.practiceId, rowNumber, recordTable, recordId });
   }
 
@@ -471,26 +342,8 @@ export class ImportPlanner {
       }
       case 'exam': {
         const site = this.siteFor(row, patientId);
-        const probes: ProbedSite[] = PROBING_POSITIONS.map((position, i) => ({
-          position,
-          probingDepthMm: row.depths[i],
-          bleeding: row.bleeding[i],
-          suppuration: row.suppuration[i],
-        }));
         const earlier = this.examsAt(site.id);
-        const exam = { examinedOn: row.date, isBaseline: false };
-        const baseline = choosePeriImplantBaseline(earlier, exam, site.deliveredOn);
-        let verdict;
-        try {
-          verdict = classifyPeriImplant(
-            toPeriImplantExam({ sites: probes, boneLevelMm: row.boneLevelMm }),
-            toPeriImplantBaseline(exam, baseline),
-            RULE_OPTIONS,
-          );
-        } catch (e) {
-          if (e instanceof DomainError) throw new RowError(null, e.message);
-          throw e;
-        }
+        const { exam, probes, baseline, verdict } = judgeExamRow(row, earlier, site.deliveredOn);
         const id = randomUUID();
         const visitKey = key(patientId, row.date);
         let visitId = this.visits.get(visitKey);
