@@ -108,7 +108,8 @@ describe('documents printed in the practice format', () => {
       ),
     );
     expect(shown.size).toBe(3);
-  });
+    // Six PDFs: on a loaded machine they take longer than one request's default 20 s.
+  }, 60_000);
 });
 
 // Only the practice administrator writes the setting; everyone signed in reads it with the session.

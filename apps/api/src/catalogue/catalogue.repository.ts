@@ -9,7 +9,6 @@ import {
   components,
   implantSystems,
   platforms,
-  practices,
   systemGtins,
   torqueWrenches,
   users,
@@ -268,17 +267,4 @@ export async function listCalibrations(db: Db, practiceId: string, wrenchLineage
     .leftJoin(recorder, eq(recorder.id, wrenchCalibrations.recordedBy))
     .where(and(eq(wrenchCalibrations.practiceId, practiceId), eq(wrenchCalibrations.wrenchLineageId, wrenchLineageId)))
     .orderBy(desc(wrenchCalibrations.calibratedOn), desc(wrenchCalibrations.recordedAt));
-}
-
-/** The practice's wrench calibration interval, months. */
-export async function findCalibrationInterval(db: Db, practiceId: string) {
-  const [row] = await db
-    .select({ months: practices.wrenchCalibrationIntervalMonths })
-    .from(practices)
-    .where(eq(practices.id, practiceId));
-  return row.months;
-}
-
-export async function setCalibrationInterval(db: Db, practiceId: string, months: number) {
-  await db.update(practices).set({ wrenchCalibrationIntervalMonths: months }).where(eq(practices.id, practiceId));
 }

@@ -28,6 +28,7 @@ import { assertCan, type Scope } from '../authz/scope.js';
 import { alreadyAmended } from '../common/amendment-conflict.js';
 import { fieldError } from '../common/field-error.js';
 import { reportChange } from '../common/audit-context.js';
+import { wrenchSettings } from '../db/practice-settings.js';
 import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database, type Tx } from '../db/database.js';
 import { calibrationDueOn, calibrationOverdue } from '@torquetrail/domain';
@@ -281,33 +282,23 @@ export class CatalogueService {
   }
 
   async wrenches(scope: Scope): Promise<WrenchListReply> {
-    const [rows, calibrationIntervalMonths] = await Promise.all([
+    const [rows, settings] = await Promise.all([
       repo.listWrenches(this.db, scope.practiceId),
-      repo.findCalibrationInterval(this.db, scope.practiceId),
+      wrenchSettings.read(this.db, scope.practiceId),
     ]);
-    return { items: rows.map((w) => toWrench(w, calibrationIntervalMonths)), calibrationIntervalMonths };
+    return { items: rows.map((w) => toWrench(w, settings.calibrationIntervalMonths)), ...settings };
   }
 
   /** The practice's wrench calibration interval (months); wrenches are judged against it from now on. */
-  async setWrenchSettings(scope: Scope, calibrationIntervalMonths: number): Promise<WrenchSettings> {
-    await auditedTransaction(this.db, async (tx) => {
-      const before = await repo.findCalibrationInterval(tx, scope.practiceId);
-      await repo.setCalibrationInterval(tx, scope.practiceId, calibrationIntervalMonths);
-      reportChange({
-        type: 'Practice',
-        id: scope.practiceId,
-        before: { calibrationIntervalMonths: before },
-        after: { calibrationIntervalMonths },
-      });
-    });
-    return { calibrationIntervalMonths };
+  setWrenchSettings(scope: Scope, calibrationIntervalMonths: number): Promise<WrenchSettings> {
+    return wrenchSettings.change(this.db, scope.practiceId, { calibrationIntervalMonths });
   }
 
   private async wrench(scope: Scope, id: string): Promise<Wrench> {
     const row = await repo.findWrench(this.db, scope.practiceId, id);
     if (!row) throw new Error(`wrench ${id} vanished`);
     const { supersededById: _s, ...w } = row;
-    return toWrench(w, await repo.findCalibrationInterval(this.db, scope.practiceId));
+    return toWrench(w, (await wrenchSettings.read(this.db, scope.practiceId)).calibrationIntervalMonths);
   }
 
   async createWrench(

@@ -13,7 +13,6 @@ import {
   patients,
   placements,
   platforms,
-  practices,
   restorationSites,
   restorations,
   scanFiles,
@@ -203,19 +202,6 @@ export async function findScanFileBySha(db: Db, restorationId: string, sha256: s
 
 export async function insertScanFile(tx: Tx, values: typeof scanFiles.$inferInsert) {
   await tx.insert(scanFiles).values(values);
-}
-
-/** Whether the practice asks for a radiograph of the seated scan bodies of a digital impression. */
-export async function requiresScanBodyRadiograph(db: Db, practiceId: string): Promise<boolean> {
-  const [row] = await db
-    .select({ v: practices.requireScanBodyRadiograph })
-    .from(practices)
-    .where(eq(practices.id, practiceId));
-  return row?.v ?? false;
-}
-
-export async function setRequiresScanBodyRadiograph(tx: Tx, practiceId: string, value: boolean) {
-  await tx.update(practices).set({ requireScanBodyRadiograph: value }).where(eq(practices.id, practiceId));
 }
 
 /** Whether the restoration's impression has a seating check (a radiograph linked to it), any version. */

@@ -17,6 +17,7 @@ import { reportChange } from '../common/audit-context.js';
 import { fieldError } from '../common/field-error.js';
 import { keepAbsent } from '../common/keep-absent.js';
 import { isUniqueViolation } from '../common/postgres-error.js';
+import { impressionSettings } from '../db/practice-settings.js';
 import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database } from '../db/database.js';
 import * as repo from './impressions.repository.js';
@@ -100,29 +101,19 @@ export class ImpressionsService {
       ? seatingRadiographFindings(
           current.method,
           await repo.hasImpressionSeatingCheck(this.db, r.id),
-          await repo.requiresScanBodyRadiograph(this.db, r.practiceId),
+          (await impressionSettings.read(this.db, r.practiceId)).requireScanBodyRadiograph,
         )
       : [];
     return { items: rows.map((i) => toImpression(i, bodies)), scanFiles: files.map(toScanFile), findings };
   }
 
-  async settings(scope: Scope): Promise<ImpressionSettings> {
-    return { requireScanBodyRadiograph: await repo.requiresScanBodyRadiograph(this.db, scope.practiceId) };
+  settings(scope: Scope): Promise<ImpressionSettings> {
+    return impressionSettings.read(this.db, scope.practiceId);
   }
 
   /** The practice's choice; digital impressions are judged by it from the next time they are read. */
-  async setSettings(scope: Scope, body: ImpressionSettings): Promise<ImpressionSettings> {
-    await auditedTransaction(this.db, async (tx) => {
-      const before = await repo.requiresScanBodyRadiograph(tx, scope.practiceId);
-      await repo.setRequiresScanBodyRadiograph(tx, scope.practiceId, body.requireScanBodyRadiograph);
-      reportChange({
-        type: 'Practice',
-        id: scope.practiceId,
-        before: { requireScanBodyRadiograph: before },
-        after: body,
-      });
-    });
-    return body;
+  setSettings(scope: Scope, body: ImpressionSettings): Promise<ImpressionSettings> {
+    return impressionSettings.change(this.db, scope.practiceId, body);
   }
 
   async record(

@@ -1,6 +1,5 @@
 import { and, asc, desc, eq, inArray, isNull, sql } from 'drizzle-orm';
 import type { Role } from '@torquetrail/authz';
-import type { SessionSettings } from '@torquetrail/contracts';
 import { alias } from 'drizzle-orm/pg-core';
 import type { Db } from '../db/database.js';
 import { invitations, patientShares, practices, users } from '../db/schema/index.js';
@@ -210,17 +209,3 @@ export async function openInvitedShares(db: Db, email: string, userId: string) {
 }
 
 // ---- practice settings ---------------------------------------------------------------------
-export async function findSessionSettings(db: Db, practiceId: string): Promise<SessionSettings> {
-  const [row] = await db
-    .select({ idleSignOutMinutes: practices.idleSignOutMinutes, dateFormat: practices.dateFormat })
-    .from(practices)
-    .where(eq(practices.id, practiceId));
-  return row;
-}
-
-export async function setSessionSettings(db: Db, practiceId: string, settings: SessionSettings): Promise<void> {
-  await db
-    .update(practices)
-    .set({ idleSignOutMinutes: settings.idleSignOutMinutes, dateFormat: settings.dateFormat })
-    .where(eq(practices.id, practiceId));
-}

@@ -13,6 +13,7 @@ import type { SessionUser } from '../auth/session-user.js';
 import { assertCan } from '../authz/scope.js';
 import { reportChange } from '../common/audit-context.js';
 import { isUniqueViolation } from '../common/postgres-error.js';
+import { sessionSettings } from '../db/practice-settings.js';
 import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database } from '../db/database.js';
 import { findPracticeContact, setPracticeContact } from '../db/practice-contact.js';
@@ -136,18 +137,12 @@ export class PeopleService {
   }
 
   sessionSettings(user: SessionUser): Promise<SessionSettings> {
-    return repo.findSessionSettings(this.db, user.practiceId);
+    return sessionSettings.read(this.db, user.practiceId);
   }
 
   /** The idle period and the date format, audited with the values before and after. */
   setSessionSettings(user: SessionUser, body: SessionSettings): Promise<SessionSettings> {
-    return auditedTransaction(this.db, async (tx) => {
-      const before = await repo.findSessionSettings(tx, user.practiceId);
-      await repo.setSessionSettings(tx, user.practiceId, body);
-      const after = await repo.findSessionSettings(tx, user.practiceId);
-      reportChange({ type: 'Practice', id: user.practiceId, before, after });
-      return after;
-    });
+    return sessionSettings.change(this.db, user.practiceId, body);
   }
 
   contact(user: SessionUser): Promise<PracticeContact> {

@@ -371,16 +371,3 @@ export async function markDelivered(
     .where(eq(restorations.id, id));
   await tx.update(implantSites).set({ status: 'restored' }).where(inArray(implantSites.id, siteIds));
 }
-
-/** The practice's cantilever limit (ratio to the A-P spread). */
-export async function findCantileverRatio(db: Db, practiceId: string): Promise<number> {
-  const [row] = await db
-    .select({ ratio: practices.cantileverRatioLimit })
-    .from(practices)
-    .where(eq(practices.id, practiceId));
-  return row.ratio;
-}
-
-export async function setCantileverRatio(db: Db, practiceId: string, ratio: number) {
-  await db.update(practices).set({ cantileverRatioLimit: ratio }).where(eq(practices.id, practiceId));
-}

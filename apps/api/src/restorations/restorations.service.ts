@@ -19,6 +19,7 @@ import { assertCan, assertCanList, type Scope, sharedSitesOf } from '../authz/sc
 import { alreadyAmended } from '../common/amendment-conflict.js';
 import { fieldError } from '../common/field-error.js';
 import { reportChange } from '../common/audit-context.js';
+import { cantileverSettings } from '../db/practice-settings.js';
 import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database, type Tx } from '../db/database.js';
 import { checkPlan } from './plan-check.js';
@@ -198,7 +199,7 @@ export class RestorationsService {
       ])
       .filter((x): x is string => !!x);
     const catalogue = new Map((await repo.findCatalogueParts(tx, patient.practiceId, ids)).map((c) => [c.askedId, c]));
-    const ratio = await repo.findCantileverRatio(tx, patient.practiceId);
+    const { cantileverRatioLimit: ratio } = await cantileverSettings.read(tx, patient.practiceId);
     const checked = checkPlan(body, patientSites, catalogue, ratio);
 
     const values = {
@@ -345,22 +346,12 @@ export class RestorationsService {
   }
 
   /** The practice's cantilever limit, which the planner computes its live Findings with. */
-  async cantileverSettings(scope: Scope): Promise<CantileverSettings> {
-    return { cantileverRatioLimit: await repo.findCantileverRatio(this.db, scope.practiceId) };
+  cantileverSettings(scope: Scope): Promise<CantileverSettings> {
+    return cantileverSettings.read(this.db, scope.practiceId);
   }
 
-  async setCantileverSettings(scope: Scope, cantileverRatioLimit: number): Promise<CantileverSettings> {
-    await auditedTransaction(this.db, async (tx) => {
-      const before = await repo.findCantileverRatio(tx, scope.practiceId);
-      await repo.setCantileverRatio(tx, scope.practiceId, cantileverRatioLimit);
-      reportChange({
-        type: 'Practice',
-        id: scope.practiceId,
-        before: { cantileverRatioLimit: before },
-        after: { cantileverRatioLimit },
-      });
-    });
-    return { cantileverRatioLimit };
+  setCantileverSettings(scope: Scope, cantileverRatioLimit: number): Promise<CantileverSettings> {
+    return cantileverSettings.change(this.db, scope.practiceId, { cantileverRatioLimit });
   }
 
   /** For the lab prescription (exported to LabPrescriptionsModule): the version, if the user may see its patient. */
