@@ -177,7 +177,7 @@ describe('confirming seating on a radiograph', () => {
     const early = await confirm('dentist', crown, { event: 'delivery', radiographId: tooEarly, seated: 'yes' });
     expect(early.status).toBe(400);
     expect(early.body.fields.radiographId).toBe(
-      'This radiograph was taken on 2014-11-02, before the delivery on 2015-02-18; choose one taken on or after it',
+      'This radiograph was taken on 2 Nov 2014, before the delivery on 18 Feb 2015; choose one taken on or after it',
     );
 
     const wrong = await radiograph(desmond, `takenOn=2015-02-18&siteIds=${d46}`);
