@@ -115,6 +115,14 @@ describe('messages that quote a date, for a month-day-year practice', () => {
   it('a torque on a removed screw is refused naming the day month first; the Timeline writes its days so too', async () => {
     const { siteId: site, instanceId: screw } = await patientWithPart(ctx, 'T-DATES1', 'Solvra CN 4.3', 'PSI');
     const log = (body: object) => ctx.http.post('/api/torque-events').set('Cookie', cookies.dentist).send(body);
+    // A history on the screw first: its series (and caption) stays in the Timeline once removed.
+    const before = await log({
+      componentInstanceId: screw,
+      appliedNcm: 25,
+      reason: 're-torque-at-recall',
+      performedAt: '2026-11-02T10:00:00Z',
+    });
+    expect(before.status).toBe(201);
     const replaced = await log({
       componentInstanceId: screw,
       appliedNcm: 25,

@@ -3,6 +3,7 @@
 // shown in the Stack and the Timeline; the roles that may record it and the refusals in plain words.
 // Radiographs, their bone levels and entered-in-error ones in the Timeline are checked here too.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { writeCalendarDate } from '@torquetrail/contracts';
 import { actorCookies } from './support/role-matrix.js';
 import { jpeg } from './support/radiograph-fixtures.js';
 import { scenarioTargets } from './support/scenario-targets.js';
@@ -139,7 +140,7 @@ describe('confirming seating on a radiograph', () => {
       amendmentReason: 'Read again at higher zoom: the distal margin is not clear',
     });
     expect(checks.find((e) => e.id === second.body.id)!.title).toBe(
-      'Seating at the delivery checked on a radiograph of 2012-09-20: unclear',
+      `Seating at the delivery checked on a radiograph of ${writeCalendarDate('2012-09-20', 'day-month-year')}: unclear`,
     );
   });
 
