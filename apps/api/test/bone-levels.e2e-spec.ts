@@ -310,7 +310,7 @@ describe('the exam form offers the latest measured bone level', () => {
       exam(site, { boneLevelMm: ofNewer.boneLevelMm, boneLevelMeasurementId: ofNewer.measurementId }),
     ]);
     expect(later.status).toBe(400);
-    expect(later.body.fields['exams.0.boneLevelMeasurementId']).toMatch(/taken after this exam of 2023-06-01/);
+    expect(later.body.fields['exams.0.boneLevelMeasurementId']).toMatch(/taken after this exam of 1 Jun 2023/);
     const earlier = await visit('2023-06-01', [
       exam(site, { boneLevelMm: ofOlder.boneLevelMm, boneLevelMeasurementId: ofOlder.measurementId }),
     ]);

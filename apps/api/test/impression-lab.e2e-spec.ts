@@ -131,7 +131,7 @@ describe('the impression on the lab prescription', () => {
       .buffer(true)
       .parse(binary as never);
     const text = await pdfText(res.body as Buffer);
-    expect(text).toContain('Impression: digital (intraoral scan), taken 2026-11-24');
+    expect(text).toContain('Impression: digital (intraoral scan), taken 24 Nov 2026');
     expect(text).toMatch(/Scan body at 15 \(FDI\) \/ 4: Scan body, hand-tight \[[^\]]+-SB\], lot SB-LAB-15/);
     expect(text).toMatch(/Scan body at 16 \(FDI\) \/ 3: .*lot SB-LAB-16/);
     expect(text).toContain(`Scan file: upper-right-scan.stl (STL, ${Math.max(1, Math.round(small.length / 1000))} kB)`);

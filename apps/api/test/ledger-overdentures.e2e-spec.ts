@@ -117,7 +117,7 @@ describe('overdenture on stud attachments', () => {
 
     const missing = await plan(body([site(33), site(43, { attachmentComponentId: null })]));
     expect(missing.status).toBe(400);
-    expect(missing.body.fields['sites.1.attachmentComponentId']).toMatch(/Tooth 43: choose an attachment abutment/);
+    expect(missing.body.fields['sites.1.attachmentComponentId']).toMatch(/Site 43: choose an attachment abutment/);
 
     const one = await plan(body([site(33)]));
     expect(one.status).toBe(400);
@@ -126,7 +126,7 @@ describe('overdenture on stud attachments', () => {
     const { part } = await twoImplants('T-OD5', 5);
     const clip = await plan(body([site(33), site(43, { retainerComponentIds: [part('BC')] })]));
     expect(clip.status).toBe(400);
-    expect(clip.body.fields['sites.1.retainerComponentIds.0']).toMatch(/Tooth 43/);
+    expect(clip.body.fields['sites.1.retainerComponentIds.0']).toMatch(/Site 43/);
   });
 });
 
@@ -166,10 +166,10 @@ describe('overdenture on a bar', () => {
     // An insert belongs to studs, an attachment abutment too.
     const insert = await plan(body([site(14, { retainerComponentIds: [part('RI-L')] }), site(12), site(22), site(24)]));
     expect(insert.status).toBe(400);
-    expect(insert.body.fields['sites.0.retainerComponentIds.0']).toMatch(/Tooth 14/);
+    expect(insert.body.fields['sites.0.retainerComponentIds.0']).toMatch(/Site 14/);
     const stud = await plan(body([site(14, { attachmentComponentId: part('ST3') }), site(12), site(22), site(24)]));
     expect(stud.status).toBe(400);
-    expect(stud.body.fields['sites.0.attachmentComponentId']).toMatch(/Tooth 14/);
+    expect(stud.body.fields['sites.0.attachmentComponentId']).toMatch(/Site 14/);
 
     const ok = await plan(body([site(14), site(12), site(22), site(24)]));
     expect(ok.status, JSON.stringify(ok.body)).toBe(201);

@@ -320,7 +320,7 @@ describe('recording a placement of a planned site', () => {
       .post(`/api/sites/${ids.luciaPlanned}/placements`)
       .set('Cookie', cookies.surgeon)
       .send(placementBody({ udi: `(01)${GTIN}(17)240131(10)A1` }));
-    expect(expired.body.fields.udi).toMatch(/expiry date 2024-01-31 .*is before the placement date/);
+    expect(expired.body.fields.udi).toMatch(/expiry date 31 Jan 2024 .*is before the placement date/);
   });
 
   it('records 24 as the surgeon through the share: lot from the UDI, site placed, healing abutment in the Stack, in the Timeline', async () => {

@@ -65,7 +65,9 @@ describe('the daily reminder scan', () => {
         timeZone: 'UTC',
       });
       expect(mail.subject).toBe(`Your implant maintenance visit is due on ${long}`);
-      expect(mail.text).toContain(dueOn);
+      // In the practice's words only: the stored YYYY-MM-DD is not printed beside it (issue 15 §7).
+      expect(mail.text).toContain(long);
+      expect(mail.text).not.toContain(dueOn);
       expect(mail.headers['x-torquetrail-reminder-key']).toBe(`recall-reminder:${harold}:${dueOn}:upcoming`);
       const log = await ctx.http.get('/api/recalls/reminders').set('Cookie', admin);
       expect(

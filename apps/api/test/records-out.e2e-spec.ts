@@ -194,7 +194,7 @@ describe('implant passport', () => {
       }
       expect(text).toContain('Phone +44 20 7946 0123');
       for (const i of await implantsOf(chart)) {
-        expect(text).toContain(`Implant at tooth ${i.fdi} (FDI) / ${fdiToUniversal(i.fdi)} (Universal)`);
+        expect(text).toContain(`Implant at site ${i.fdi} (FDI) / ${fdiToUniversal(i.fdi)} (Universal)`);
         expect(text).toContain(`Placed on ${writeCalendarDate(i.placedOn, 'day-month-year')}`);
         expect(text).toContain(`System: ${i.system}`);
         expect(text).toContain(`platform ${i.platform}`);
@@ -242,7 +242,7 @@ describe('retrieval card', () => {
       const implants = await implantsOf(chart);
       restored.forEach((r, n) => {
         const page = pages[n];
-        expect(page).toContain(`Retrieval card: tooth ${r.fdi} (FDI) / ${fdiToUniversal(r.fdi)} (Universal)`);
+        expect(page).toContain(`Retrieval card: site ${r.fdi} (FDI) / ${fdiToUniversal(r.fdi)} (Universal)`);
         expect(page).toContain(
           r.retention === 'cement-on-abutment' ? 'Can be unscrewed: no.' : 'Can be unscrewed: yes.',
         );

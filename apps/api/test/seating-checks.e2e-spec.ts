@@ -3,6 +3,7 @@
 // shown in the Stack and the Timeline; the roles that may record it and the refusals in plain words.
 // Radiographs, their bone levels and entered-in-error ones in the Timeline are checked here too.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { writeCalendarDate } from '@torquetrail/contracts';
 import { actorCookies } from './support/role-matrix.js';
 import { jpeg } from './support/radiograph-fixtures.js';
 import { scenarioTargets } from './support/scenario-targets.js';
@@ -139,7 +140,7 @@ describe('confirming seating on a radiograph', () => {
       amendmentReason: 'Read again at higher zoom: the distal margin is not clear',
     });
     expect(checks.find((e) => e.id === second.body.id)!.title).toBe(
-      'Seating at the delivery checked on a radiograph of 2012-09-20: unclear',
+      `Seating at the delivery checked on a radiograph of ${writeCalendarDate('2012-09-20', 'day-month-year')}: unclear`,
     );
   });
 
@@ -177,7 +178,7 @@ describe('confirming seating on a radiograph', () => {
     const early = await confirm('dentist', crown, { event: 'delivery', radiographId: tooEarly, seated: 'yes' });
     expect(early.status).toBe(400);
     expect(early.body.fields.radiographId).toBe(
-      'This radiograph was taken on 2014-11-02, before the delivery on 2015-02-18; choose one taken on or after it',
+      'This radiograph was taken on 2 Nov 2014, before the delivery on 18 Feb 2015; choose one taken on or after it',
     );
 
     const wrong = await radiograph(desmond, `takenOn=2015-02-18&siteIds=${d46}`);

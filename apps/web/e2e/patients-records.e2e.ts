@@ -41,7 +41,16 @@ describe('dentist', () => {
       'Enter the date the patient gave consent',
     );
     expect(await page.getByLabel('Given name').inputValue()).toBe('Augustin');
-    expect(await page.getByLabel('Date of birth').inputValue()).toBe(harold.birthDate);
+    // The date of birth is the app's date field: typed as YYYY-MM-DD, it is written back in the
+    // practice's format (day-month-year in the seed) and kept as typed (issue 15 §7).
+    expect(await page.getByLabel('Date of birth').inputValue()).toBe(
+      new Date(`${harold.birthDate}T00:00:00Z`).toLocaleDateString('en-GB', {
+        day: 'numeric',
+        month: 'short',
+        year: 'numeric',
+        timeZone: 'UTC',
+      }),
+    );
     await screenshot(page, 'new-patient-errors');
 
     await page.getByLabel('E-mail', { exact: true }).fill('augustin.w@mail.example');

@@ -46,7 +46,8 @@ describe('referring surgeon', () => {
     await udi.fill(`(01)${GTIN}(17)281231(10)SCN3511-26X`);
     await expect.poll(() => page.getByTestId('udi-gtin').textContent()).toBe(GTIN);
     expect(await page.getByTestId('udi-lot').textContent()).toBe('SCN3511-26X');
-    expect(await page.getByTestId('udi-expiry').textContent()).toContain('2028-12-31');
+    // In the practice's format (day-month-year in the seed), not as the UDI stores it (issue 15 §7).
+    expect(await page.getByTestId('udi-expiry').textContent()).toBe('31 Dec 2028');
     expect(await page.getByLabel('Lot', { exact: true }).inputValue()).toBe('SCN3511-26X');
     // A typed lot that differs from the scanned one is flagged beside the lot (checkUdiForPlacement).
     await page.getByLabel('Lot', { exact: true }).fill('SCN3511-26Y');

@@ -37,6 +37,22 @@ describe('the practice date format', () => {
     expect(await row.textContent()).not.toMatch(/17 Apr \d{4}/);
 
     await row.getByRole('link', { name: /Whitcombe/ }).click();
+    await page.waitForURL(/\/patients\/[0-9a-f-]{36}$/);
+    const patientUrl = page.url();
+    // The patient form's date of birth is the app's date field: shown and typed month first.
+    await page.goto(`${patientUrl}/edit`);
+    const birth = page.getByLabel('Date of birth');
+    await expect.poll(() => birth.inputValue()).toMatch(/^Apr 17, \d{4}$/);
+    await birth.fill('04/18/1961');
+    await birth.press('Tab');
+    expect(await birth.inputValue()).toBe('Apr 18, 1961');
+    await birth.fill('13/18/1961');
+    await page.getByTestId('save-patient').click();
+    await expect
+      .poll(() => page.getByTestId('error-birthDate').textContent())
+      .toBe('There is no month 13: months go from 1 to 12');
+    expect(await birth.inputValue()).toBe('13/18/1961');
+    await page.goto(patientUrl);
     await page.getByTestId('arch-cell-35').click();
     await page.waitForURL(/\/sites\//);
     await page.getByTestId('record-complication').click();
@@ -92,6 +108,14 @@ describe('the practice date format', () => {
     await expect
       .poll(() => events.allTextContents(), { timeout: 10_000 })
       .toContainEqual(expect.stringContaining('Jan 9, 2026'));
+    // Every date the Timeline shows is month first, the words the API writes too (the torque
+    // charts' captions "installed …", a placement's UDI expiry, a radiograph's day): none is
+    // left as the stored YYYY-MM-DD.
+    const timeline = page.getByTestId('timeline');
+    await expect.poll(() => timeline.getByTestId('torque-chart').count(), { timeout: 10_000 }).toBeGreaterThan(0);
+    const captions = await timeline.locator('[data-testid="torque-chart"] figcaption').allTextContents();
+    expect(captions.join(' ')).toMatch(/installed [A-Z][a-z]{2} \d{1,2}, \d{4}/);
+    expect((await timeline.textContent())?.match(/\b\d{4}-\d{2}-\d{2}\b/g) ?? []).toEqual([]);
     expect(warnings.filter((m) => !/status of (400|401)/.test(m))).toEqual([]);
   }, 180_000);
 });

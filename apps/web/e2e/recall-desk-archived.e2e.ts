@@ -38,5 +38,12 @@ describe('restorative dentist', () => {
     await expect.poll(() => new URL(page.url()).searchParams.get('archived')).toBe('all');
     await expect.poll(() => farrow.count()).toBe(1);
     await expect.poll(() => table.locator('tbody tr').count()).toBe(before);
+
+    // The desk's search filters as the user types, like the Patients search (issue 15 §7): no
+    // Enter, no button; the search is kept in the URL.
+    await page.locator('#desk-search').pressSequentially('Farrow', { delay: 40 });
+    await expect.poll(() => new URL(page.url()).searchParams.get('search')).toBe('Farrow');
+    await expect.poll(() => table.locator('tbody tr').count()).toBe(1);
+    expect(await farrow.count()).toBe(1);
   });
 });

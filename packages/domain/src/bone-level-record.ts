@@ -100,6 +100,8 @@ export interface BoneLevelSummaryInput {
   /** The implant's length, mm: from the placement record or the length the latest measurement used. */
   implantLengthMm: number;
   latestExam: ExamFindings | null;
+  /** How the reasons write a date for their reader (the practice's order); YYYY-MM-DD when absent. */
+  writeDate?: (iso: string) => string;
 }
 
 export interface AllowancePoint {
@@ -132,7 +134,7 @@ export function boneLevelSummary(input: BoneLevelSummaryInput): BoneLevelSummary
 
   let albrektsson: BoneLevelSummary['albrektsson'] = null;
   if (input.loadedOn) {
-    const result = meetsAlbrektsson(series, input.loadedOn);
+    const result = meetsAlbrektsson(series, input.loadedOn, { writeDate: input.writeDate });
     const ref = albrektssonReference(series, input.loadedOn);
     const allowance: AllowancePoint[] = [];
     if (ref) {
@@ -149,10 +151,11 @@ export function boneLevelSummary(input: BoneLevelSummaryInput): BoneLevelSummary
     albrektsson = { ...result, allowance };
   }
 
+  const writeDate = input.writeDate ?? ((iso: string) => iso);
   const findings = input.latestExam;
   const exudate = findings?.suppurationNow ? 'uncontrolled' : findings?.suppurationBefore ? 'history' : 'none';
   const reasons = [
-    `bone loss ${fmt(round2(last.boneLevelMm))} mm (${last.side}, ${last.date}), measured from the platform taken as the crest at surgery`,
+    `bone loss ${fmt(round2(last.boneLevelMm))} mm (${last.side}, ${writeDate(last.date)}), measured from the platform taken as the crest at surgery`,
     'pain on function is not recorded: taken as absent',
     findings
       ? `latest recall exam: mobility ${findings.mobility ? 'yes' : 'no'}, deepest probing depth ${fmt(findings.maxProbingDepthMm)} mm, exudate ${exudate === 'uncontrolled' ? 'now (counted as uncontrolled)' : exudate === 'history' ? 'at an earlier exam (history)' : 'none'}`

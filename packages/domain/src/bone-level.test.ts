@@ -96,6 +96,19 @@ describe('meetsAlbrektsson — boundaries and decisions where the sources are si
     expect(r.annualLossAfterFirstYearMm).toBeNull(); // 71 days after year 1: too short for a rate (default ≥ 1 year)
     expect(r.meets).toBe(true);
   });
+  it('writes the dates of its reasons with the writer it is given (the practice order; issue 15 §7)', () => {
+    const series = [
+      { date: '2020-01-20', boneLevelMm: 0.1 },
+      { date: '2020-12-20', boneLevelMm: 1.1 },
+    ];
+    const monthFirst = (iso: string) => `${iso.slice(5, 7)}/${iso.slice(8, 10)}/${iso.slice(0, 4)}`;
+    const r = meetsAlbrektsson(series, '2020-01-01', { writeDate: monthFirst });
+    expect(r.reasons[0]).toBe('reference: 01/20/2020, bone level 0.1 mm');
+    expect(r.reasons.join(' ')).toContain('(reading 12/20/2020)');
+    expect(r.reasons.join(' ')).not.toMatch(/\d{4}-\d{2}-\d{2}/);
+    const none = meetsAlbrektsson([{ date: '2021-06-01', boneLevelMm: 1 }], '2020-01-01', { writeDate: monthFirst });
+    expect(none.reasons.join(' ')).toContain('of loading (01/01/2020)');
+  });
   it('minRateSpanYears 0 computes a rate from a short span (0.05 mm in 71 days ≈ 0.26 mm/yr): why the default is 1 year', () => {
     const r = meetsAlbrektsson(
       [

@@ -45,6 +45,11 @@ export interface AlbrektssonOptions {
   yearOneWindowDays?: number;
   /** Minimum span from the year-1 reading to the last reading for an annual rate, years. Default 1. */
   minRateSpanYears?: number;
+  /**
+   * How the reasons write a date for their reader (the practice's order, issue 15 §7; the API
+   * passes its printer). The domain has no date format of its own: YYYY-MM-DD when none is given.
+   */
+  writeDate?: (iso: string) => string;
 }
 
 /** Result of {@link meetsAlbrektsson}. */
@@ -167,6 +172,7 @@ export function meetsAlbrektsson(
   });
   points.sort((a, b) => a.t - b.t);
 
+  const writeDate = options?.writeDate ?? ((iso: string) => iso);
   const reasons: string[] = [];
   const fail = (reason: string): AlbrektssonResult => ({
     meets: false,
@@ -179,9 +185,9 @@ export function meetsAlbrektsson(
   const ref = nearest(points, 0, refWindow);
   if (!ref)
     return fail(
-      `no reading within ${refWindow} days of loading (${loadingDate}) to serve as reference: the criteria cannot be assessed`,
+      `no reading within ${refWindow} days of loading (${writeDate(loadingDate)}) to serve as reference: the criteria cannot be assessed`,
     );
-  reasons.push(`reference: ${ref.date}, bone level ${fmt(ref.level)} mm`);
+  reasons.push(`reference: ${writeDate(ref.date)}, bone level ${fmt(ref.level)} mm`);
 
   const anniversary = daysBetween(loadingDate, addCalendarMonths(loadingDate, 12, 'loadingDate'));
   const y1 = nearest(
@@ -197,7 +203,7 @@ export function meetsAlbrektsson(
   const firstYearLossMm = round4(y1.level - ref.level);
   const firstOk = firstYearLossMm < ALBREKTSSON_FIRST_YEAR_MM;
   reasons.push(
-    `first-year loss ${fmt(firstYearLossMm)} mm (reading ${y1.date}): ${firstOk ? 'below' : 'not below'} ${ALBREKTSSON_FIRST_YEAR_MM} mm`,
+    `first-year loss ${fmt(firstYearLossMm)} mm (reading ${writeDate(y1.date)}): ${firstOk ? 'below' : 'not below'} ${ALBREKTSSON_FIRST_YEAR_MM} mm`,
   );
 
   const later = points.filter((p) => p.t > y1.t);

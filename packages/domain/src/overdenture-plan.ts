@@ -93,7 +93,7 @@ export function studAttachmentFindings(sites: readonly OverdentureSite[]): Findi
       findings.push({
         severity: 'error',
         code: PLAN_FINDING_CODES.ATTACHMENT_MISSING,
-        message: `Tooth ${site.fdi}: choose an attachment abutment for this implant.`,
+        message: `Site ${site.fdi}: choose an attachment abutment for this implant.`,
         fdi: site.fdi,
         source: PLAN_SOURCES.COMMON_PRACTICE,
       });
@@ -103,7 +103,7 @@ export function studAttachmentFindings(sites: readonly OverdentureSite[]): Findi
       findings.push({
         severity: 'warning',
         code: PLAN_FINDING_CODES.CATALOGUE_VALUE_MISSING,
-        message: `Tooth ${site.fdi}: the catalogue does not state the divergence tolerance of ${part.name}; the divergence between the implants cannot be checked. Add the manufacturer's value to the catalogue.`,
+        message: `Site ${site.fdi}: the catalogue does not state the divergence tolerance of ${part.name}; the divergence between the implants cannot be checked. Add the manufacturer's value to the catalogue.`,
         fdi: site.fdi,
         source: PLAN_SOURCES.CATALOGUE,
       });
@@ -112,7 +112,7 @@ export function studAttachmentFindings(sites: readonly OverdentureSite[]): Findi
       findings.push({
         severity: 'warning',
         code: PLAN_FINDING_CODES.CATALOGUE_VALUE_MISSING,
-        message: `Tooth ${site.fdi}: the catalogue does not state the collar height of ${part.name}. Add the manufacturer's value to the catalogue.`,
+        message: `Site ${site.fdi}: the catalogue does not state the collar height of ${part.name}. Add the manufacturer's value to the catalogue.`,
         fdi: site.fdi,
         source: PLAN_SOURCES.CATALOGUE,
       });

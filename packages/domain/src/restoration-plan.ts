@@ -243,7 +243,7 @@ export function validateRestorationPlan(plan: RestorationPlan): Finding[] {
       findings.push({
         severity: 'error',
         code: PLAN_FINDING_CODES.DUPLICATE_SITE,
-        message: `Tooth ${site.fdi} is listed more than once; each implant site can appear only once in a plan.`,
+        message: `Site ${site.fdi} is listed more than once; each implant site can appear only once in a plan.`,
         fdi: site.fdi,
         source: PLAN_SOURCES.COMMON_PRACTICE,
       });
@@ -254,7 +254,7 @@ export function validateRestorationPlan(plan: RestorationPlan): Finding[] {
       findings.push({
         severity: 'warning',
         code: PLAN_FINDING_CODES.PRIMARY_TOOTH_POSITION,
-        message: `Tooth ${site.fdi} is a primary-tooth position; implants are numbered at the permanent position they replace.`,
+        message: `Site ${site.fdi} is a primary-tooth position; implants are numbered at the permanent position they replace.`,
         fdi: site.fdi,
         source: PLAN_SOURCES.ISO_3950,
       });
@@ -274,7 +274,7 @@ export function validateRestorationPlan(plan: RestorationPlan): Finding[] {
   // --- connection and impression, per site ----------------------------------------------------
   for (const site of sites) {
     const fdi = site.fdi;
-    const at = `Tooth ${fdi}`;
+    const at = `Site ${fdi}`;
     if (kind === 'single-crown' && site.interface === 'non-engaging') {
       findings.push({
         severity: 'error',
@@ -374,7 +374,7 @@ export function validateRestorationPlan(plan: RestorationPlan): Finding[] {
       findings.push({
         severity: 'error',
         code: PLAN_FINDING_CODES.INSUFFICIENT_RESTORATIVE_SPACE,
-        message: `Tooth ${tightest.fdi}: ${fmt(tightest.restorativeSpaceMm!)} mm of vertical restorative space is less than the ${fmt(min)} mm needed for a ${RESTORATIVE_DESIGN_LABELS[design]}.`,
+        message: `Site ${tightest.fdi}: ${fmt(tightest.restorativeSpaceMm!)} mm of vertical restorative space is less than the ${fmt(min)} mm needed for a ${RESTORATIVE_DESIGN_LABELS[design]}.`,
         fdi: tightest.fdi,
         source: PLAN_SOURCES.CARPENTIERI_2019,
       });

@@ -33,8 +33,12 @@ export interface TorqueLogEntry {
 export function retorqueDueAt(entries: readonly TorqueLogEntry[]): string | null {
   const seating = [...entries].reverse().find((e) => SEATING_REASONS.includes(e.reason));
   if (!seating) return null;
-  const retorqued = entries.some((e) => RETORQUE_REASONS.includes(e.reason) && e.performedAt >= seating.performedAt);
-  return retorqued ? null : new Date(seating.performedAt.getTime() + RETIGHTEN_AFTER_MINUTES * 60_000).toISOString();
+  const retorqueLogged = entries.some(
+    (e) => RETORQUE_REASONS.includes(e.reason) && e.performedAt >= seating.performedAt,
+  );
+  return retorqueLogged
+    ? null
+    : new Date(seating.performedAt.getTime() + RETIGHTEN_AFTER_MINUTES * 60_000).toISOString();
 }
 
 /**

@@ -21,6 +21,13 @@ describe('checkUdiForPlacement', () => {
       },
     ]);
   });
+  it('writes the two dates with the writer it is given (the practice order; issue 15 §7)', () => {
+    const writeDate = (iso: string) => `<${iso.split('-').reverse().join('/')}>`;
+    const [finding] = checkUdiForPlacement(udi, { placedOn: '2029-01-01' }, writeDate);
+    expect(finding.message).toBe(
+      "The implant's expiry date <31/12/2028> (UDI element 17) is before the placement date <01/01/2029>",
+    );
+  });
   it('flags a typed lot that differs from the scanned one (exact, case-sensitive), beside the lot', () => {
     expect(
       checkUdiForPlacement(udi, { placedOn: '2026-11-30', lot: 'scn3511-26x' }).map((f) => [f.code, f.field]),

@@ -24,11 +24,14 @@ export interface UdiPlacementFinding {
 /**
  * @param udi the result of `parseUdi`
  * @param placement the placement date (YYYY-MM-DD) and the typed lot, if any
+ * @param writeDate how the message writes a date for its reader (the practice's order; the web and
+ *   the API pass theirs). The domain has no date format of its own: YYYY-MM-DD when none is given.
  * @returns findings, empty when the UDI agrees with the placement
  */
 export function checkUdiForPlacement(
   udi: ParsedUdi,
   placement: { placedOn: string; lot?: string | null },
+  writeDate: (iso: string) => string = (iso) => iso,
 ): UdiPlacementFinding[] {
   const findings: UdiPlacementFinding[] = [];
   const typed = placement.lot ?? null;
@@ -43,7 +46,7 @@ export function checkUdiForPlacement(
     findings.push({
       code: 'expired-before-placement',
       field: 'udi',
-      message: `The implant's expiry date ${udi.expiry} (UDI element 17) is before the placement date ${placement.placedOn}`,
+      message: `The implant's expiry date ${writeDate(udi.expiry)} (UDI element 17) is before the placement date ${writeDate(placement.placedOn)}`,
     });
   }
   return findings;

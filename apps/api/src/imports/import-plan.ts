@@ -5,6 +5,7 @@
 import { randomUUID } from 'node:crypto';
 import type { ImportCounts, ImportIssue, ImportPartMapping, ImportRow } from '@torquetrail/contracts';
 import { RULES_VERSION, torqueVerdict } from '@torquetrail/domain';
+import type { DatePrinter } from '../common/printed-dates.js';
 import type * as repo from './imports.repository.js';
 import { FilePatients } from './file-patients.js';
 import { judgeExamRow, RULE_OPTIONS, type ExamState } from './exam-row.js';
@@ -18,6 +19,8 @@ export interface PlanContext {
   userId: string;
   /** The latest date any clinic can call today (UTC+14): later dates cannot have happened. */
   latestToday: string;
+  /** Dates quoted in the row messages, in the importing user's practice's order (issue 15 §7). */
+  dates: DatePrinter;
   patients: Loaded<'practicePatients'>;
   platforms: Loaded<'practicePlatforms'>;
   parts: Part[];
@@ -208,7 +211,7 @@ export class ImportPlanner {
       case 'delivery': {
         const site = this.siteFor(row, patientId);
         if (site.placedOn && row.date < site.placedOn)
-          throw new RowError('date', `Delivered before the implant was placed (${site.placedOn})`);
+          throw new RowError('date', `Delivered before the implant was placed (${this.ctx.dates.date(site.placedOn)})`);
         // Delivery rows of one bridge (docs/import.md, "Bridges") share one restoration.
         const bridgeKey =
           row.restorationKind === 'single-crown'
@@ -219,7 +222,7 @@ export class ImportPlanner {
           if (bridge.retention !== row.retention || bridge.material !== row.material)
             throw new RowError(
               bridge.retention !== row.retention ? 'retention' : 'material',
-              `Row ${bridge.row} starts this ${row.restorationKind} on ${row.date} with another retention or material: give each bridge its own restoration_ref`,
+              `Row ${bridge.row} starts this ${row.restorationKind} on ${this.ctx.dates.date(row.date)} with another retention or material: give each bridge its own restoration_ref`,
             );
           if (bridge.siteIds.has(site.id))
             throw new RowError('fdi', `Site ${row.fdi} is already part of this restoration (row ${bridge.row})`);

@@ -25,6 +25,7 @@ import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
 import { reportChange } from '../common/audit-context.js';
 import { isUniqueViolation } from '../common/postgres-error.js';
+import { datePrinter } from '../common/printed-dates.js';
 import { ENV, type Env } from '../config/env.js';
 import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database, type Db } from '../db/database.js';
@@ -201,6 +202,7 @@ export class ImportsService {
       practiceId,
       userId: user.id,
       latestToday: latestPossibleToday(),
+      dates: datePrinter(user.dateFormat),
       patients: await repo.practicePatients(db, practiceId),
       platforms: await repo.practicePlatforms(db, practiceId),
       parts: await repo.currentParts(db, practiceId),

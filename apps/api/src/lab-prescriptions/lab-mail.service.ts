@@ -2,6 +2,7 @@
 // mail queue (mail/mail-queue.ts: locked, sent once, retried with back-off, swept every minute).
 // The stored PDF goes with it, and the impression's scan files attached or linked.
 import { Inject, Injectable } from '@nestjs/common';
+import { type DatePrinter, datePrinter } from '../common/printed-dates.js';
 import { ENV, type Env } from '../config/env.js';
 import { DB, type Database } from '../db/database.js';
 import { ImpressionsService, type ImpressionLabSheet } from '../impressions/impressions.service.js';
@@ -60,7 +61,7 @@ export class LabMailService {
    * The scan files of a digital impression: attached while they stay within
    * LAB_MAIL_ATTACHMENT_LIMIT_BYTES together, else one time-limited link per file in the text.
    */
-  private async scanFilesPart(sheet: ImpressionLabSheet | null) {
+  private async scanFilesPart(sheet: ImpressionLabSheet | null, dates: DatePrinter) {
     const files = sheet?.files ?? [];
     if (files.length === 0) return { mode: 'none', text: '', attachments: [] };
     const total = files.reduce((n, f) => n + f.sizeBytes, 0);
@@ -81,7 +82,7 @@ export class LabMailService {
     );
     return {
       mode: 'linked',
-      text: `\n\nThe scan files are too large to attach. Download them until ${expiresAt.toISOString().slice(0, 16).replace('T', ' ')} UTC:\n${lines.join('\n')}`,
+      text: `\n\nThe scan files are too large to attach. Download them until ${dates.instantUtc(expiresAt)}:\n${lines.join('\n')}`,
       attachments: [],
     };
   }
@@ -89,11 +90,13 @@ export class LabMailService {
   /** The stored PDF, and the impression's scan files attached or linked. */
   private async compose(row: LabMailRow): Promise<OutgoingMail> {
     const pdf = await this.storage.get(row.objectKey);
-    const scans = await this.scanFilesPart(await this.impressions.labSheet(row.restorationId));
+    // Dates in the practice's order, as on the prescription it sends (issue 15 §7).
+    const dates = datePrinter(row.dateFormat);
+    const scans = await this.scanFilesPart(await this.impressions.labSheet(row.restorationId), dates);
     return {
       to: row.sentTo,
       subject: `Lab prescription ${row.chartNumber} from ${row.practiceName}`,
-      text: `Please find the lab prescription for ${row.chartNumber} attached.${row.dueOn ? ` Due ${row.dueOn}.` : ''}${scans.text}\n\n${row.practiceName}`,
+      text: `Please find the lab prescription for ${row.chartNumber} attached.${row.dueOn ? ` Due ${dates.date(row.dueOn)}.` : ''}${scans.text}\n\n${row.practiceName}`,
       attachments: [
         { filename: pdfFilename(row.chartNumber), content: pdf, contentType: 'application/pdf' },
         ...scans.attachments,

@@ -2,7 +2,7 @@
 // the lab needs no more identifying data than that.
 import { type PracticeContactLines, practiceContactLines } from '../common/patient-pdf.js';
 import { FONT, notoPdfDocument, pdfBytes } from '../common/pdf-document.js';
-import { datePrinter } from '../common/printed-dates.js';
+import { type DatePrinter, datePrinter } from '../common/printed-dates.js';
 import { type ComponentKind, MANUFACTURER_CAUTION, STACK_ORDER } from '@torquetrail/contracts';
 import { fdiToUniversal, type ImpressionMethod } from '@torquetrail/domain';
 
@@ -84,12 +84,16 @@ const label = (v: string) => LABELS[v] ?? v;
 const fileSize = (bytes: number) =>
   bytes < 1_000_000 ? `${Math.max(1, Math.round(bytes / 1000))} kB` : `${(bytes / 1_000_000).toFixed(1)} MB`;
 
-function impressionSection(doc: PDFKit.PDFDocument, impression: NonNullable<PrescriptionInput['impression']>) {
+function impressionSection(
+  doc: PDFKit.PDFDocument,
+  impression: NonNullable<PrescriptionInput['impression']>,
+  dates: DatePrinter,
+) {
   doc
     .font(FONT.bold)
     .fontSize(11)
     .text(
-      `Impression: ${impression.method === 'digital' ? 'digital (intraoral scan)' : 'analog (copings and tray)'}, taken ${impression.takenOn}`,
+      `Impression: ${impression.method === 'digital' ? 'digital (intraoral scan)' : 'analog (copings and tray)'}, taken ${dates.date(impression.takenOn)}`,
     );
   doc.font(FONT.regular).fontSize(10);
   if (impression.method === 'digital') {
@@ -163,7 +167,7 @@ export function renderLabPrescription(input: PrescriptionInput): Promise<Buffer>
     doc.text(`Impression technique: ${site.impressionCoping} coping; ${copingText}`, { indent: 12 });
     doc.moveDown(0.6);
   }
-  if (input.impression) impressionSection(doc, input.impression);
+  if (input.impression) impressionSection(doc, input.impression, dates);
 
   if (input.notes) {
     doc.font(FONT.bold).text('Notes');

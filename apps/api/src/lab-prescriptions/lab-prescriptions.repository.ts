@@ -99,6 +99,7 @@ export async function lockMail(tx: Tx, id: string) {
       objectKey: labPrescriptions.objectKey,
       chartNumber: patients.chartNumber,
       practiceName: practices.name,
+      dateFormat: practices.dateFormat,
       dueOn: restorations.dueOn,
     })
     .from(labPrescriptionMails)

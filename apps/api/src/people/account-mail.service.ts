@@ -5,6 +5,8 @@
 // exponential back-off. So the token itself is never stored anywhere: not in
 // the row, not in the job's data.
 import { Inject, Injectable } from '@nestjs/common';
+import type { DateFormat } from '@torquetrail/contracts';
+import { datePrinter } from '../common/printed-dates.js';
 import { ENV, type Env } from '../config/env.js';
 import { DB, type Database } from '../db/database.js';
 import { JobsService } from '../jobs/jobs.service.js';
@@ -24,7 +26,8 @@ interface SendJob {
 
 export type LinkMailOutcome = 'sent' | 'already-sent' | 'gone' | 'failed';
 
-const whenUtc = (d: Date) => `${d.toISOString().slice(0, 16).replace('T', ' ')} UTC`;
+/** When a link stops working, in the practice's order of dates (issue 15 §7). */
+const whenUtc = (d: Date, format: DateFormat) => datePrinter(format).instantUtc(d);
 
 @Injectable()
 export class AccountMailService {
@@ -77,7 +80,7 @@ export class AccountMailService {
         if (row.mailStatus === 'sent') return 'already-sent';
         const expires = new Date(Date.now() + INVITATION_VALID_MS);
         const link = `${row.linkOrigin}/welcome#token=${token}`;
-        const until = `the link works once, until ${whenUtc(expires)}`;
+        const until = `the link works once, until ${whenUtc(expires, row.dateFormat)}`;
         // A referring surgeon invited by a share: the mail names the practice, never the patient.
         message = row.ownPractice
           ? {
@@ -110,7 +113,7 @@ export class AccountMailService {
           subject: 'Reset your Torquetrail password',
           text:
             `Someone (we hope you) asked to reset the password of ${row.email} on Torquetrail.\n\n` +
-            `Choose a new password here (the link works once, until ${whenUtc(expires)}):\n` +
+            `Choose a new password here (the link works once, until ${whenUtc(expires, row.dateFormat)}):\n` +
             `${row.linkOrigin}/reset-password#token=${token}\n\n` +
             `If you did not ask for this, ignore this e-mail: your password stays as it is.`,
           validMs: RESET_VALID_MS,

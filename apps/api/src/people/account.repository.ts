@@ -17,6 +17,7 @@ export async function lockInvitationMail(db: Db, id: string) {
       linkOrigin: invitations.linkOrigin,
       ownPractice: invitations.ownPractice,
       practiceName: practices.name,
+      dateFormat: practices.dateFormat,
       inviterName: users.displayName,
     })
     .from(invitations)
@@ -37,9 +38,11 @@ export async function lockResetMail(db: Db, id: string, validMs: number) {
       open: sql<boolean>`${passwordResets.usedAt} is null and ${passwordResets.supersededAt} is null and ${users.active}`,
       fresh: sql<boolean>`${passwordResets.createdAt} > now() - ${`${validMs} milliseconds`}::interval`,
       linkOrigin: passwordResets.linkOrigin,
+      dateFormat: practices.dateFormat,
     })
     .from(passwordResets)
     .innerJoin(users, eq(users.id, passwordResets.userId))
+    .innerJoin(practices, eq(practices.id, users.practiceId))
     .where(eq(passwordResets.id, id))
     .for('update', { of: passwordResets });
   return row ?? null;

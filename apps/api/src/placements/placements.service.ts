@@ -26,6 +26,7 @@ import { assertAmendable } from '../common/amendment-conflict.js';
 import { keepAbsent } from '../common/keep-absent.js';
 import { fieldError } from '../common/field-error.js';
 import { isUniqueViolation } from '../common/postgres-error.js';
+import { datePrinter } from '../common/printed-dates.js';
 import { reportChange } from '../common/audit-context.js';
 import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database, type Db } from '../db/database.js';
@@ -156,6 +157,7 @@ export class PlacementsService {
     practiceId: string,
     body: PlacementFields,
     fields: Record<string, string>,
+    user: SessionUser,
   ): Promise<string | null> {
     if (body.placedOn > latestPossibleToday()) fields.placedOn = 'The placement date cannot be in the future';
     if (!(await repo.findPlatformOfPractice(db, practiceId, body.platformId)))
@@ -165,7 +167,9 @@ export class PlacementsService {
       try {
         const udi = parseUdi(body.udi);
         // The lot and expiry checks are the domain's, as in the web form.
-        for (const finding of checkUdiForPlacement(udi, { placedOn: body.placedOn, lot })) {
+        // Its dates in the signed-in user's practice's order (issue 15 §7).
+        const dates = datePrinter(user.dateFormat);
+        for (const finding of checkUdiForPlacement(udi, { placedOn: body.placedOn, lot }, (iso) => dates.date(iso))) {
           if (finding.code === 'expired-before-placement' && fields.placedOn) continue;
           fields[finding.field] ??= finding.message;
         }
@@ -189,7 +193,7 @@ export class PlacementsService {
     const site = await this.placeableSite(ability, scope, siteId);
     assertSiteCurrent(site.status);
     const fields: Record<string, string> = {};
-    const lot = await this.checkFields(this.db, site.practiceId, body, fields);
+    const lot = await this.checkFields(this.db, site.practiceId, body, fields, user);
     let closure: Awaited<ReturnType<typeof repo.findComponentOfPlatform>> | null = null;
     if (body.closureComponentId && !fields.platformId) {
       closure = await repo.findComponentOfPlatform(this.db, site.practiceId, body.platformId, body.closureComponentId);
@@ -248,7 +252,7 @@ export class PlacementsService {
     // What the amendment leaves out stays as it was.
     const next = keepAbsent(PlacementAmendmentBody, body, await this.reply(old.id, null));
     const fields: Record<string, string> = {};
-    const lot = await this.checkFields(this.db, old.practiceId, next, fields);
+    const lot = await this.checkFields(this.db, old.practiceId, next, fields, user);
     if (Object.keys(fields).length > 0) throw fieldError(fields);
     // Of two concurrent amendments of one placement the database saves the first (insertAmendment).
     const values = {

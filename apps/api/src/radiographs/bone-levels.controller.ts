@@ -18,6 +18,6 @@ export class BoneLevelsController {
     @CurrentAbility() ability: AppAbility,
     @Param('id', new ParseUUIDPipe({ errorHttpStatusCode: HttpStatus.NOT_FOUND })) id: string,
   ): Promise<SiteBoneLevels> {
-    return this.boneLevels.forSite(ability, scopeOf(user), id);
+    return this.boneLevels.forSite(ability, scopeOf(user), id, user.dateFormat);
   }
 }

@@ -1,8 +1,9 @@
 import { Inject, Injectable } from '@nestjs/common';
 import type { AppAbility } from '@torquetrail/authz';
-import type { SiteBoneLevel, SiteBoneLevels } from '@torquetrail/contracts';
+import type { DateFormat, SiteBoneLevel, SiteBoneLevels } from '@torquetrail/contracts';
 import { boneLevelSummary, examBoneLevelMm } from '@torquetrail/domain';
 import { asSiteRow, assertCan, type Scope } from '../authz/scope.js';
+import { datePrinter } from '../common/printed-dates.js';
 import { DB, type Database } from '../db/database.js';
 import * as repo from './bone-levels.repository.js';
 
@@ -27,7 +28,8 @@ const toBoneLevel = (m: repo.SiteMeasurementRow): SiteBoneLevel => ({
 export class BoneLevelsService {
   constructor(@Inject(DB) private readonly db: Database) {}
 
-  async forSite(ability: AppAbility, scope: Scope, siteId: string): Promise<SiteBoneLevels> {
+  /** The site's bone levels and their summary, the reasons' dates in the reader's practice's order. */
+  async forSite(ability: AppAbility, scope: Scope, siteId: string, dateFormat: DateFormat): Promise<SiteBoneLevels> {
     const site = assertCan(
       ability,
       'read',
@@ -57,6 +59,7 @@ export class BoneLevelsService {
                   suppurationBefore: earlier.some((e) => e.suppuration),
                 }
               : null,
+            writeDate: (iso) => datePrinter(dateFormat).date(iso),
           });
     return {
       siteId: site.id,

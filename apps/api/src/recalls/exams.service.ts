@@ -24,11 +24,13 @@ import {
   toPeriImplantExam,
 } from '@torquetrail/domain';
 import type { z } from 'zod';
+import type { SessionUser } from '../auth/session-user.js';
 import { asSiteRow, assertCan, assertCanList, type Scope, sharedSitesOf } from '../authz/scope.js';
 import { keepAbsent } from '../common/keep-absent.js';
 import { alreadyAmended } from '../common/amendment-conflict.js';
 import { fieldError } from '../common/field-error.js';
 import { reportChange } from '../common/audit-context.js';
+import { datePrinter } from '../common/printed-dates.js';
 import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database } from '../db/database.js';
 import { BoneLevelsService } from '../radiographs/bone-levels.service.js';
@@ -133,7 +135,7 @@ export class ExamsService {
   async createVisit(
     ability: AppAbility,
     scope: Scope,
-    examinerId: string,
+    examiner: SessionUser,
     body: z.infer<typeof CreateVisitSchema>,
   ): Promise<CreateVisitReply> {
     const patient = assertCan(
@@ -167,7 +169,7 @@ export class ExamsService {
         body.exams.map((e) => e.siteId),
       );
       for (const [i, exam] of body.exams.entries()) {
-        await this.checkBoneLevelSource(exam, exam.siteId, body.examinedOn, `exams.${i}.`);
+        await this.checkBoneLevelSource(exam, exam.siteId, body.examinedOn, `exams.${i}.`, examiner);
       }
 
       const visitId = randomUUID();
@@ -200,7 +202,7 @@ export class ExamsService {
             siteId: site.siteId,
             visitId,
             examinedOn: body.examinedOn,
-            examinerId,
+            examinerId: examiner.id,
             mobility: exam.mobility,
             plaqueIndex: exam.plaqueIndex,
             bleedingIndex: exam.bleedingIndex,
@@ -235,7 +237,7 @@ export class ExamsService {
   async amend(
     ability: AppAbility,
     scope: Scope,
-    examinerId: string,
+    examiner: SessionUser,
     examId: string,
     body: z.infer<typeof AmendExamSchema>,
   ): Promise<RecallExam> {
@@ -252,7 +254,7 @@ export class ExamsService {
       // the unique index on supersedes_id saves the first (insertExamAmendment).
       await lockExamHistory(tx, patient.id);
       const site = (await listSitesForExam(tx, patient.id)).find((s) => s.siteId === old.siteId)!;
-      await this.checkBoneLevelSource(next, old.siteId, old.examinedOn, '');
+      await this.checkBoneLevelSource(next, old.siteId, old.examinedOn, '', examiner);
       const earlier = (await listExamsOfSites(tx, [site.siteId])).filter((e) => e.id !== old.id);
       const probes = inChartOrder(next.sites);
       const baseline = choosePeriImplantBaseline(
@@ -277,7 +279,7 @@ export class ExamsService {
         siteId: old.siteId,
         visitId: old.visitId,
         examinedOn: old.examinedOn,
-        examinerId,
+        examinerId: examiner.id,
         mobility: next.mobility,
         plaqueIndex: next.plaqueIndex,
         bleedingIndex: next.bleedingIndex,
@@ -314,6 +316,7 @@ export class ExamsService {
     siteId: string,
     examinedOn: string,
     prefix: string,
+    user: SessionUser,
   ) {
     if (exam.boneLevelMeasurementId === null) return;
     const source = await this.boneLevels.currentOfSite(exam.boneLevelMeasurementId, siteId);
@@ -324,7 +327,7 @@ export class ExamsService {
     }
     if (boneLevelOfferFor([source], examinedOn) === null) {
       throw fieldError({
-        [`${prefix}boneLevelMeasurementId`]: `the radiograph was taken after this exam of ${examinedOn}; use a measurement of that day or earlier`,
+        [`${prefix}boneLevelMeasurementId`]: `the radiograph was taken after this exam of ${datePrinter(user.dateFormat).date(examinedOn)}; use a measurement of that day or earlier`,
       });
     }
     if (exam.boneLevelMm !== source.examBoneLevelMm) {

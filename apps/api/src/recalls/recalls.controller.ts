@@ -71,7 +71,7 @@ export class RecallsController {
     @CurrentAbility() ability: AppAbility,
     @Body(new ZodValidationPipe(CreateVisitBody)) body: z.infer<typeof CreateVisitBody>,
   ): Promise<CreateVisitReply> {
-    return this.exams.createVisit(ability, scopeOf(user), user.id, body);
+    return this.exams.createVisit(ability, scopeOf(user), user, body);
   }
 
   @Post('exams/:id/amend')
@@ -82,7 +82,7 @@ export class RecallsController {
     @Param('id', uuid) id: string,
     @Body(new ZodValidationPipe(AmendExamBody)) body: z.infer<typeof AmendExamBody>,
   ): Promise<RecallExam> {
-    return this.exams.amend(ability, scopeOf(user), user.id, id, body);
+    return this.exams.amend(ability, scopeOf(user), user, id, body);
   }
 
   @Get('sites/:id/exams')

@@ -119,9 +119,9 @@ export class RemindersService {
         await markFailedAttempt(tx, row.id, 'the patient has no e-mail address', true);
         return 'no-address';
       }
-      // In the practice's order, in words where it has them, with the numeric date beside.
+      // In the practice's order, in words where it has them; never the stored YYYY-MM-DD beside
+      // it, which a month-day-year reader could take the wrong way round (issue 15 §7).
       const words = datePrinter(row.date_format).longDate(row.recall_due_on);
-      const when = words === row.recall_due_on ? words : `${words} (${row.recall_due_on})`;
       const overdue = row.kind === 'overdue';
       try {
         const messageId = await this.mail.send({
@@ -133,8 +133,8 @@ export class RemindersService {
             `Dear ${row.given_name} ${row.family_name},`,
             '',
             overdue
-              ? `your implant maintenance visit at ${row.practice_name} was due on ${when}. Please call us to book it.`
-              : `your next implant maintenance visit at ${row.practice_name} is due on ${when}. Please call us to book it if you have not yet.`,
+              ? `your implant maintenance visit at ${row.practice_name} was due on ${words}. Please call us to book it.`
+              : `your next implant maintenance visit at ${row.practice_name} is due on ${words}. Please call us to book it if you have not yet.`,
             '',
             'Regular maintenance helps keep your implants healthy.',
             '',

@@ -142,7 +142,7 @@ function implantDevice(patientId: string, implant: SnapshotImplant, exportedAt: 
     deviceName: [{ name, type: 'user-friendly-name' }],
     type: {
       coding: [{ system: CODE_SYSTEMS.deviceKind, code: 'dental-implant', display: deviceKindWords('dental-implant') }],
-      text: `Dental implant at tooth ${implant.fdi} (FDI)`,
+      text: `Dental implant at site ${implant.fdi} (FDI)`,
     },
     patient: ref(patientId),
   };
@@ -159,7 +159,7 @@ function partDevice(patientId: string, fdi: number, part: SnapshotPart): Entry['
     modelNumber: part.referenceCode,
     type: {
       coding: [{ system: CODE_SYSTEMS.deviceKind, code: part.kind, display: partKindWords(part.kind) }],
-      text: `${partKindWords(part.kind)} at tooth ${fdi} (FDI)`,
+      text: `${partKindWords(part.kind)} at site ${fdi} (FDI)`,
     },
     patient: ref(patientId),
   };
@@ -260,7 +260,7 @@ function examObservations(patientId: string, fdi: number, exam: SnapshotExam): E
       valueQuantity: mm(exam.boneLevelMm),
     });
   }
-  const words = `Peri-implant status ${statusWords(exam.status)} at tooth ${fdi} (FDI). ${COMPUTED_STATUS_NOTE} Rules version ${exam.rulesVersion}.`;
+  const words = `Peri-implant status ${statusWords(exam.status)} at site ${fdi} (FDI). ${COMPUTED_STATUS_NOTE} Rules version ${exam.rulesVersion}.`;
   out.push({
     resourceType: 'Observation',
     id: derivedId('peri-implant-status', exam.id),

@@ -73,7 +73,7 @@ export function renderPassport(s: RecordSnapshot, printed: PrintedBy): Promise<B
     doc
       .font(FONT.bold)
       .fontSize(12)
-      .text(`Implant at tooth ${i.fdi} (FDI) / ${fdiToUniversal(i.fdi)} (Universal)`);
+      .text(`Implant at site ${i.fdi} (FDI) / ${fdiToUniversal(i.fdi)} (Universal)`);
     doc.font(FONT.regular).fontSize(10);
     doc.text(`Placed on ${dates.date(pl.placedOn)} by ${pl.surgeonName}.`, { indent: 12 });
     doc.text(

@@ -29,7 +29,7 @@ function sitePage(doc: PDFKit.PDFDocument, i: SnapshotImplant, practice: Practic
   doc
     .font(FONT.bold)
     .fontSize(16)
-    .text(`Retrieval card: tooth ${i.fdi} (FDI) / ${fdiToUniversal(i.fdi)} (Universal)`);
+    .text(`Retrieval card: site ${i.fdi} (FDI) / ${fdiToUniversal(i.fdi)} (Universal)`);
   doc.font(FONT.regular).fontSize(10).moveDown(0.4);
   doc.text(
     `Implant: ${pl.systemName} (${pl.manufacturer}), platform ${pl.platformName}, ${connectionWords(pl.connection)} connection, ${pl.diameterMm} × ${pl.lengthMm} mm, placed ${dates.date(pl.placedOn)}; ${udiLine(i)}.`,

@@ -122,11 +122,11 @@ export function checkPlan(
         else if (!SLOT_KINDS[slot].includes(part.kind))
           fields[key] = `${part.name} is not a part of this kind (${SLOT_KINDS[slot].join(', ')})`;
         else if (slot === 'attachmentComponentId' && body.kind !== 'overdenture-studs')
-          fields[key] = `Tooth ${site.fdi}: an attachment abutment belongs to an overdenture on stud attachments`;
+          fields[key] = `Site ${site.fdi}: an attachment abutment belongs to an overdenture on stud attachments`;
         else if (slot === 'retainerComponentIds' && RETAINERS_OF_KIND[body.kind] !== part.kind)
           fields[key] = RETAINERS_OF_KIND[body.kind]
-            ? `Tooth ${site.fdi}: ${part.name} does not fit this overdenture (it needs a ${RETAINERS_OF_KIND[body.kind]})`
-            : `Tooth ${site.fdi}: inserts and clips belong to overdentures`;
+            ? `Site ${site.fdi}: ${part.name} does not fit this overdenture (it needs a ${RETAINERS_OF_KIND[body.kind]})`
+            : `Site ${site.fdi}: inserts and clips belong to overdentures`;
         else {
           // The current version, whichever version's id was sent (ADR 0006).
           componentIds.push(part.id);

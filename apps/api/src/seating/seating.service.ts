@@ -15,6 +15,7 @@ import { reportChange } from '../common/audit-context.js';
 import { keepAbsent } from '../common/keep-absent.js';
 import { fieldError } from '../common/field-error.js';
 import { isUniqueViolation } from '../common/postgres-error.js';
+import { datePrinter } from '../common/printed-dates.js';
 import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database } from '../db/database.js';
 import * as repo from './seating.repository.js';
@@ -80,7 +81,7 @@ export class SeatingService {
         'This version of the restoration was amended; confirm seating on its current version',
       );
     }
-    await this.checkRadiograph(ability, scope, r, body.event, body.radiographId);
+    await this.checkRadiograph(ability, scope, r, body.event, body.radiographId, user);
     if (await repo.firstCheckOf(this.db, r.id, body.event)) throw alreadyRecorded(body.event);
     let id: string;
     try {
@@ -124,7 +125,7 @@ export class SeatingService {
     if (!r) throw new NotFoundException('No such seating check');
     // What the amendment leaves out stays as it was.
     const next = keepAbsent(SeatingAmendmentBody, body, c);
-    await this.checkRadiograph(ability, scope, r, c.event, next.radiographId);
+    await this.checkRadiograph(ability, scope, r, c.event, next.radiographId, user);
     const id = await auditedTransaction(this.db, async (tx) => {
       const newId = await repo.insertCheckAmendment(tx, {
         practiceId: c.practiceId,
@@ -160,6 +161,7 @@ export class SeatingService {
     r: Restoration,
     event: SeatingEvent,
     radiographId: string,
+    user: SessionUser,
   ): Promise<void> {
     const eventOn = event === 'delivery' ? r.deliveredOn : r.impressionTakenOn;
     if (!eventOn) {
@@ -183,8 +185,10 @@ export class SeatingService {
       });
     }
     if (x.takenOn && x.takenOn < eventOn) {
+      // Dates in the signed-in user's practice's order (issue 15 §7).
+      const dates = datePrinter(user.dateFormat);
       throw fieldError({
-        radiographId: `This radiograph was taken on ${x.takenOn}, before the ${event} on ${eventOn}; choose one taken on or after it`,
+        radiographId: `This radiograph was taken on ${dates.date(x.takenOn)}, before the ${event} on ${dates.date(eventOn)}; choose one taken on or after it`,
       });
     }
   }

@@ -1,8 +1,9 @@
 // The surgeon's e-mail for each share change: a notice row is written with the change and sent
 // through the shared mail queue (mail/mail-queue.ts: locked, sent once, retried with back-off,
 // swept every minute). The mail names the practice and what was opened, never the patient: the
-// surgeon signs in to see who it is.
+// surgeon signs in to see who it is. Dates are written in the sharing practice's order (issue 15 §7).
 import { Inject, Injectable } from '@nestjs/common';
+import { datePrinter } from '../common/printed-dates.js';
 import { ENV, type Env } from '../config/env.js';
 import { DB, type Database } from '../db/database.js';
 import { JobsService } from '../jobs/jobs.service.js';
@@ -26,7 +27,7 @@ function noticeMail(row: NoticeRow): OutgoingMail {
           subject: `${row.practiceName} shared a patient with you on Torquetrail`,
           text:
             `${row.practiceName} shared a patient with you: you may ${what} of ${sites}` +
-            `${row.endsOn ? `, until ${row.endsOn} inclusive` : ', until the practice revokes the share'}.\n\n` +
+            `${row.endsOn ? `, until ${datePrinter(row.dateFormat).date(row.endsOn)} inclusive` : ', until the practice revokes the share'}.\n\n` +
             `Sign in to Torquetrail to see the patient under Patients.`,
         }
       : {

@@ -214,6 +214,7 @@ export async function lockNotice(tx: Db, id: string) {
       to: surgeon.email,
       surgeonName: surgeon.displayName,
       practiceName: practices.name,
+      dateFormat: practices.dateFormat,
       scopes: patientShares.scopes,
       siteIds: patientShares.siteIds,
       endsOn: patientShares.endsOn,

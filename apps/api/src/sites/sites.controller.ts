@@ -30,6 +30,6 @@ export class SitesController {
     @Param('id', new ParseUUIDPipe({ errorHttpStatusCode: HttpStatus.NOT_FOUND })) id: string,
     @Query(new ZodValidationPipe(TimelineQuery)) query: TimelineQuery,
   ): Promise<TimelineReply> {
-    return this.sites.timeline(ability, scopeOf(user), id, query.kinds);
+    return this.sites.timeline(ability, scopeOf(user), id, query.kinds, user.dateFormat);
   }
 }

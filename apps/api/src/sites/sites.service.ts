@@ -1,9 +1,16 @@
 import { udiFacts } from '../common/udi-facts.js';
 import { Inject, Injectable } from '@nestjs/common';
 import { type AppAbility, subject } from '@torquetrail/authz';
-import { STACK_ORDER, type SiteFile, type TimelineKind, type TimelineReply } from '@torquetrail/contracts';
+import {
+  type DateFormat,
+  STACK_ORDER,
+  type SiteFile,
+  type TimelineKind,
+  type TimelineReply,
+} from '@torquetrail/contracts';
 import { isRetrievable, retorqueDueAt, seatingTorqueMissing } from '@torquetrail/domain';
 import { assertCan, type Scope } from '../authz/scope.js';
+import { datePrinter } from '../common/printed-dates.js';
 import { DB, type Database } from '../db/database.js';
 import { MaintenanceStatusService } from '../recalls/maintenance-status.service.js';
 import {
@@ -126,7 +133,14 @@ export class SitesService {
   }
 
   /** Every event of the site in time order, each kind only where the role may read it. */
-  async timeline(ability: AppAbility, scope: Scope, siteId: string, kinds?: TimelineKind[]): Promise<TimelineReply> {
+  /** The Timeline of a site, its words' dates in the reader's practice's order (`dateFormat`). */
+  async timeline(
+    ability: AppAbility,
+    scope: Scope,
+    siteId: string,
+    kinds: TimelineKind[] | undefined,
+    dateFormat: DateFormat,
+  ): Promise<TimelineReply> {
     const { site, canRead } = await this.visible(ability, scope, siteId);
     const none = Promise.resolve([] as never[]);
     const readRadiographs = canRead('Radiograph');
@@ -183,6 +197,7 @@ export class SitesService {
         importMarks,
       },
       kinds,
+      datePrinter(dateFormat),
     );
   }
 }

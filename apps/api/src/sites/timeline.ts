@@ -1,6 +1,9 @@
 // Builds the Timeline of a site from its rows: every event in time order, amended entries kept
-// and marked, with one torque series per part for the chart.
+// and marked, with one torque series per part for the chart. The dates its words quote (expiry,
+// installed and removed, the radiograph's day) are written in the reader's practice's order
+// (issue 15 §7); each event's own `at` stays ISO 8601, for the web to write.
 import {
+  DEFAULT_DATE_FORMAT,
   TIMELINE_KINDS,
   type TimelineEvent,
   type TimelineKind,
@@ -10,6 +13,7 @@ import {
   type ReminderStatus,
 } from '@torquetrail/contracts';
 import { isRetrievable } from '@torquetrail/domain';
+import { type DatePrinter, datePrinter } from '../common/printed-dates.js';
 import { udiFacts } from '../common/udi-facts.js';
 import type * as repo from './timeline.repository.js';
 
@@ -81,7 +85,7 @@ function base(
 }
 
 /** What the surgeon recorded at placement, as the Timeline's detail line. */
-function placementDetail(p: TimelineRows['placements'][number]): string | null {
+function placementDetail(p: TimelineRows['placements'][number], dates: DatePrinter): string | null {
   const { serial, expiry } = udiFacts(p.udi);
   const said = [
     p.insertionTorqueNcm !== null ? `insertion torque ${p.insertionTorqueNcm} N·cm` : null,
@@ -89,7 +93,7 @@ function placementDetail(p: TimelineRows['placements'][number]): string | null {
     p.lot ? `lot ${p.lot}` : null,
     p.gtin ? `GTIN ${p.gtin}` : null,
     serial ? `serial ${serial}` : null,
-    expiry ? `expiry ${expiry}` : null,
+    expiry ? `expiry ${dates.date(expiry)}` : null,
     p.gtinOtherSystem ? `the catalogue knows this GTIN as ${p.gtinOtherSystem}, not the system chosen` : null,
     p.grafting ? `grafting: ${p.grafting}` : null,
     p.notes ? `notes: ${p.notes}` : null,
@@ -97,7 +101,12 @@ function placementDetail(p: TimelineRows['placements'][number]): string | null {
   return said.length > 0 ? said.join('; ') : null;
 }
 
-export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: TimelineKind[]): TimelineReply {
+export function buildTimeline(
+  siteId: string,
+  rows: TimelineRows,
+  kinds?: TimelineKind[],
+  dates: DatePrinter = datePrinter(DEFAULT_DATE_FORMAT),
+): TimelineReply {
   const events: TimelineEvent[] = [];
   /** Tie-break for entries of one kind on one day: when they were recorded (an amendment after its original). */
   const recorded = new Map<TimelineEvent, string>();
@@ -110,7 +119,7 @@ export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: Timeli
         true,
         `${p.supersedesId ? 'Placement (amended record)' : 'Implant placed'}: ${p.systemName}, ${p.platformName} × ${p.lengthMm} mm`,
         {
-          detail: placementDetail(p),
+          detail: placementDetail(p, dates),
           byName: p.surgeonName,
           amended: p.amended,
           supersedesId: p.supersedesId,
@@ -297,7 +306,7 @@ export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: Timeli
       }),
     );
   }
-  addRadiographEvents(rows, events, recorded);
+  addRadiographEvents(rows, events, recorded, dates);
   for (const m of rows.referralSummaries) {
     const at = (m.sentAt ?? m.requestedAt).toISOString();
     const state = m.status === 'sent' ? 'e-mailed' : m.status === 'pending' ? 'waiting to be e-mailed' : 'not sent';
@@ -332,7 +341,7 @@ export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: Timeli
     .filter((p) => rows.torque.some((t) => t.componentInstanceId === p.id))
     .map((p) => ({
       componentInstanceId: p.id,
-      label: `${p.name} (installed ${p.installedOn}${p.removedOn ? `, removed ${p.removedOn}` : ''})`,
+      label: `${p.name} (installed ${dates.date(p.installedOn)}${p.removedOn ? `, removed ${dates.date(p.removedOn)}` : ''})`,
       specNcm: p.torqueSpecNcm,
       tolerancePct: p.tolerancePct,
       removedOn: p.removedOn,
@@ -352,7 +361,12 @@ export function buildTimeline(siteId: string, rows: TimelineRows, kinds?: Timeli
 }
 
 /** Radiographs (entered-in-error ones marked), the bone levels read from them, and seating checks. */
-function addRadiographEvents(rows: TimelineRows, events: TimelineEvent[], recorded: Map<TimelineEvent, string>) {
+function addRadiographEvents(
+  rows: TimelineRows,
+  events: TimelineEvent[],
+  recorded: Map<TimelineEvent, string>,
+  dates: DatePrinter,
+) {
   for (const x of rows.radiographs) {
     const event = base(
       'radiograph',
@@ -397,7 +411,7 @@ function addRadiographEvents(rows: TimelineRows, events: TimelineEvent[], record
       c.id,
       c.recordedAt.toISOString(),
       false,
-      `Seating at the ${c.event} checked on a radiograph${c.radiographTakenOn ? ` of ${c.radiographTakenOn}` : ''}: ${SEATED_WORDS[c.seated]}`,
+      `Seating at the ${c.event} checked on a radiograph${c.radiographTakenOn ? ` of ${dates.date(c.radiographTakenOn)}` : ''}: ${SEATED_WORDS[c.seated]}`,
       {
         detail: c.note,
         code: c.seated,

@@ -87,7 +87,7 @@ export class SeatRestorationService {
         await repo.lockInstance(tx, screw.instanceId);
         const now = await repo.findVisibleInstance(tx, scope, screw.instanceId);
         if (!now) throw fieldError({ screws: 'A screw of this restoration is no longer visible' });
-        assertInPlace(now);
+        assertInPlace(now, user.dateFormat);
         const specNcm = now.torqueSpecNcm ?? screw.torqueSpecNcm!;
         const values = {
           practiceId: screw.practiceId,

@@ -1,17 +1,21 @@
 // Checks shared by every way a torque is recorded (one entry, an amendment, a whole restoration).
 import { ConflictException } from '@nestjs/common';
-import type { TorqueEvent } from '@torquetrail/contracts';
+import type { DateFormat, TorqueEvent } from '@torquetrail/contracts';
 import { calibrationOverdue } from '@torquetrail/domain';
 import { fieldError } from '../common/field-error.js';
+import { datePrinter } from '../common/printed-dates.js';
 import type { Database, Tx } from '../db/database.js';
 import * as repo from './torque.repository.js';
 
 /** An entry may be a few minutes ahead of the server clock, never later. */
 const FUTURE_SLACK_MS = 5 * 60_000;
 
-export function assertInPlace(part: { removedOn: string | null }) {
+/** A part already removed is refused, its removal date in the signed-in user's practice's order. */
+export function assertInPlace(part: { removedOn: string | null }, dateFormat: DateFormat) {
   if (part.removedOn)
-    throw new ConflictException(`This part was removed on ${part.removedOn}; log the torque on the part in place`);
+    throw new ConflictException(
+      `This part was removed on ${datePrinter(dateFormat).date(part.removedOn)}; log the torque on the part in place`,
+    );
 }
 
 export function checkWhen(performedAt: Date, field: string) {

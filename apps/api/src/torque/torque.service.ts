@@ -37,7 +37,7 @@ export class TorqueService {
       await repo.findVisibleInstance(this.db, scope, body.componentInstanceId),
       'part',
     );
-    assertInPlace(part);
+    assertInPlace(part, user.dateFormat);
     if (part.torqueSpecNcm === null)
       throw fieldError({
         componentInstanceId: `${part.name} is hand-tight: it has no torque specification in the catalogue`,
@@ -66,7 +66,7 @@ export class TorqueService {
     const id = await auditedTransaction(this.db, async (tx) => {
       // Re-read under the lock: a concurrent 'screw-replaced' may have retired the part meanwhile.
       await repo.lockInstance(tx, part.id);
-      assertInPlace(await repo.findVisibleInstance(tx, scope, part.id));
+      assertInPlace(await repo.findVisibleInstance(tx, scope, part.id), user.dateFormat);
       let instanceId = part.id;
       if (replacing) {
         const day = performedAt.toISOString().slice(0, 10);

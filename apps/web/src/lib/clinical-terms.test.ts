@@ -9,11 +9,16 @@ const sources = {
     import: 'default',
     eager: true,
   }),
-  ...import.meta.glob<string>(['../../../api/src/**/*.ts', '!../../../api/src/**/*.test.ts'], {
+  ...import.meta.glob<string>(['../../../api/src/**/*.ts', '!../../../api/src/**/*.{test,spec}.ts'], {
     query: '?raw',
     import: 'default',
     eager: true,
   }),
+  // The planner's Findings and the contracts' messages are written in the shared packages.
+  ...import.meta.glob<string>(
+    ['../../../../packages/{domain,contracts}/src/**/*.ts', '!../../../../packages/*/src/**/*.test.ts'],
+    { query: '?raw', import: 'default', eager: true },
+  ),
 };
 
 /**
@@ -25,7 +30,9 @@ const VARIANTS: [RegExp, string][] = [
   [word('peri ?implantitis'), 'peri-implantitis'],
   [word('peri ?implant mucositis'), 'peri-implant mucositis'],
   [word('re ?torque[ds]?'), 're-torque'],
-  [/\b[Tt]ooth \{?(site\.)?fdi\b|\b[Tt]ooth \d\d\b/, 'site NN for an implant site'],
+  // "Tooth 36", "Tooth {fdi}", `Tooth ${site.fdi}`; the FHIR body site names the ISO 3950 tooth
+  // position itself, in the standard's word, and is left alone.
+  [/\b[Tt]ooth (\$?\{[\w.]*fdi\b|\d\d\b)(?!.*ISO 3950)/, 'site NN for an implant site'],
 ];
 
 describe('one spelling for each clinical term', () => {
@@ -36,6 +43,10 @@ describe('one spelling for each clinical term', () => {
     expect(VARIANTS[2][0].test('part.retorqueDueAt')).toBe(false);
     expect(VARIANTS[2][0].test('className="stack-card__retorque"')).toBe(false);
     expect(VARIANTS[3][0].test('Tooth 15 is loose')).toBe(true);
+    expect(VARIANTS[3][0].test('message: `Tooth ${site.fdi}: choose an abutment`')).toBe(true);
+    expect(VARIANTS[3][0].test('<td>Tooth {fdi}</td>')).toBe(true);
+    expect(VARIANTS[3][0].test('text: `Tooth ${fdi} (ISO 3950 / FDI)`')).toBe(false);
+    expect(Object.keys(sources).some((file) => file.includes('packages/domain/src/restoration-plan.ts'))).toBe(true);
   });
 
   it('uses the one spelling everywhere', () => {

@@ -20,6 +20,9 @@ const OTHER_DATE_FORMATTING: [string, RegExp][] = [
   ['a date put together from its parts', /\.get(UTC)?(FullYear|Month|Date)\(\)/],
   // JSX text of an ISO date not passed through a formatter ("saved {v.at.slice(0, 10)}").
   ['an ISO date shown as stored', /[^=]>[^<>{}]*\{(?![^}]*format)[^}]*\.(slice\(0, 10\)|toISOString\(\))[^}]*\}/],
+  // A text field asking for YYYY-MM-DD (the patient form's date of birth did): the date field
+  // shows the practice's own example and reads the practice's order.
+  ['a field that asks for YYYY-MM-DD', /(placeholder|help)\s*[:=]\s*\{?\s*['"`][^'"`\n]*YYYY-MM-DD/],
 ];
 
 describe('one date format, from lib/dates.ts', () => {
@@ -30,6 +33,8 @@ describe('one date format, from lib/dates.ts', () => {
     expect(OTHER_DATE_FORMATTING.filter(([, re]) => re.test('<InputGroup type="date" />'))).toHaveLength(1);
     expect(OTHER_DATE_FORMATTING.filter(([, re]) => re.test('{new Date(x).toLocaleString()}'))).toHaveLength(1);
     expect(OTHER_DATE_FORMATTING.filter(([, re]) => re.test('<em>saved {v.at.slice(0, 10)}</em>'))).toHaveLength(1);
+    expect(OTHER_DATE_FORMATTING.filter(([, re]) => re.test("placeholder: 'YYYY-MM-DD',"))).toHaveLength(1);
+    expect(OTHER_DATE_FORMATTING.filter(([, re]) => re.test('/** YYYY-MM-DD, or null */'))).toHaveLength(0);
   });
 
   it.each(OTHER_DATE_FORMATTING)('no %s outside lib/dates.ts', (_name, pattern) => {

@@ -10,7 +10,10 @@ interface DateCalendarProps {
 }
 
 // The picker's month and weekday names come from react-day-picker's built-in English; loading a
-// date-fns locale by name would be a runtime import the build cannot see.
+// date-fns locale by name would be a runtime import the build cannot see. Torquetrail is written in
+// English only (no practice language setting; the patient's preferred language is for letters),
+// so the names stay English; what the practice's format changes is the week's first day here and
+// the order dates are typed and shown in (lib/dates.ts) (issue 15 §7).
 const noLocaleLoad = () => Promise.resolve(undefined);
 
 /**

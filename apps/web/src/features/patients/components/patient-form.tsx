@@ -11,7 +11,7 @@ import {
 } from '@torquetrail/contracts';
 import type { ReactNode } from 'react';
 import { FormProvider, type UseFormReturn } from 'react-hook-form';
-import { FormField, formErrorMessage, withInputRef } from '../../../lib/forms';
+import { DateField, FormField, formErrorMessage, withInputRef } from '../../../lib/forms';
 import { PATIENT_FIELD_LABEL, PATIENT_SEX_LABEL, PREFERRED_LANGUAGE_LABEL } from '../../../lib/labels';
 
 /** The form's values: text as typed ('' for "not given"). */
@@ -111,7 +111,7 @@ export function PatientForm<Body>({
   const formError = formErrorMessage(form.formState.errors, 'alone');
   const text = (
     name: keyof PatientDraft,
-    props: { placeholder?: string; type?: string; inputMode?: 'tel' | 'email' | 'numeric'; help?: ReactNode } = {},
+    props: { placeholder?: string; type?: string; inputMode?: 'tel' | 'email'; help?: ReactNode } = {},
   ) => (
     <FormField name={name} label={PATIENT_FIELD_LABEL[name]} labelFor={`patient-${name}`} help={props.help}>
       {(a11y) => (
@@ -125,6 +125,13 @@ export function PatientForm<Body>({
           {...withInputRef(register(name))}
         />
       )}
+    </FormField>
+  );
+  // Dates through the app's one date field: typed in the practice's order, with its calendar
+  // (issue 15 §7); a date that cannot be read keeps its text and is named beside the field.
+  const date = (name: 'birthDate' | 'emailReminderConsentOn' | 'riskFactorsRecordedOn') => (
+    <FormField name={name} label={PATIENT_FIELD_LABEL[name]} labelFor={`patient-${name}`}>
+      {(a11y) => <DateField id={`patient-${name}`} {...a11y} name={name} readOnly={!editable(name)} />}
     </FormField>
   );
   const check = (name: keyof PatientDraft) => (
@@ -157,11 +164,7 @@ export function PatientForm<Body>({
             {text('familyName')}
           </div>
           <div className="form-row">
-            {text('birthDate', {
-              placeholder: 'YYYY-MM-DD',
-              inputMode: 'numeric',
-              help: 'Type it as YYYY-MM-DD, e.g. 1961-04-17.',
-            })}
+            {date('birthDate')}
             <FormField name="sex" label={PATIENT_FIELD_LABEL.sex} labelFor="patient-sex">
               <HTMLSelect id="patient-sex" disabled={!editable('sex')} {...register('sex')}>
                 {PATIENT_SEXES.map((s) => (
@@ -199,15 +202,14 @@ export function PatientForm<Body>({
           <FormField name="emailReminderConsent" help="Recall reminders are e-mailed only with the patient's consent.">
             {check('emailReminderConsent')}
           </FormField>
-          {watch('emailReminderConsent') &&
-            text('emailReminderConsentOn', { placeholder: 'YYYY-MM-DD', inputMode: 'numeric' })}
+          {watch('emailReminderConsent') && date('emailReminderConsentOn')}
         </fieldset>
         <fieldset>
           <legend>Risk factors (the recall interval uses them)</legend>
           {check('smoker')}
           {check('diabetesPoorlyControlled')}
           {check('periodontitisHistory')}
-          {text('riskFactorsRecordedOn', { placeholder: 'YYYY-MM-DD', inputMode: 'numeric' })}
+          {date('riskFactorsRecordedOn')}
         </fieldset>
         {beforeSubmit}
         {formError && (

@@ -37,7 +37,7 @@ export function UdiField() {
   // Only the UDI's own findings here; a lot mismatch shows beside the lot field.
   const expired =
     reading?.ok && placedOn
-      ? checkUdiForPlacement(reading.udi, { placedOn }).find((f) => f.field === 'udi')
+      ? checkUdiForPlacement(reading.udi, { placedOn }, formatDate).find((f) => f.field === 'udi')
       : undefined;
   const live = reading && !reading.ok ? reading.message : expired?.message;
   const field = register('udi', {
@@ -77,9 +77,7 @@ export function UdiField() {
             <dt>Expiry</dt>
             <dd data-testid="udi-expiry">
               {reading.udi.expiry ? (
-                <time dateTime={reading.udi.expiry}>
-                  {reading.udi.expiry} ({formatDate(reading.udi.expiry)})
-                </time>
+                <time dateTime={reading.udi.expiry}>{formatDate(reading.udi.expiry)}</time>
               ) : (
                 'not in the UDI'
               )}
