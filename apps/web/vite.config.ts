@@ -11,9 +11,10 @@ const apiPort = process.env.API_PORT ?? process.env.PORT ?? '3000';
 const apiProxy = { '/api': { target: `http://127.0.0.1:${apiPort}` } };
 
 export default defineConfig({
-  // Every built file of 1 KB or more also as .gz and .br, made once here: the API serves them to
-  // browsers that accept them (express-static-gzip) instead of compressing on each request.
-  plugins: [react(), compression({ algorithms: ['gzip', 'brotliCompress'], threshold: 1024 })],
+  // Every built file also as .gz and .br when that is smaller (the plugin skips the others), made
+  // once here: the API serves them to browsers that accept them (express-static-gzip) instead of
+  // compressing on each request. Small files too: a first load is many chunks under 1 KB.
+  plugins: [react(), compression({ algorithms: ['gzip', 'brotliCompress'], threshold: 0, skipIfLargerOrEqual: true })],
   resolve: {
     alias: {
       '@torquetrail/contracts': packageSource('contracts'),
