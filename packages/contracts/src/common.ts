@@ -94,3 +94,12 @@ export const AxisComponent = z
   .number()
   .min(-1000, { error: 'Axis components lie between −1000 and 1000' })
   .max(1000, { error: 'Axis components lie between −1000 and 1000' });
+
+/**
+ * An e-mail address as typed; stored and compared in lower case. Here, not in people.ts, so a
+ * screen that only needs an address (a share's surgeon) does not load the password rules.
+ */
+export const EmailAddress = z
+  .email({ error: 'Enter a valid e-mail address' })
+  .max(254, { error: 'Use at most 254 characters' })
+  .transform((s) => s.toLowerCase());

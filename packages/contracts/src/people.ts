@@ -1,16 +1,10 @@
 // People and sign-in: the practice's users and invitations, passwords, resets and session settings.
 import { z } from 'zod';
-import { Id, IsoDateTime, NoteText, PlainText } from './common.js';
+import { EmailAddress, Id, IsoDateTime, NoteText, PlainText } from './common.js';
 import { Email, Phone } from './patients.js';
 import { DATE_FORMATS, InvitationStatus, Role } from './enums.js';
 import { NewPassword, PASSWORD_MAX_LENGTH, refinePasswordWithEmail } from './password.js';
 import type { RouteContract } from './route-contract.js';
-
-/** An e-mail address as typed; stored and compared in lower case. */
-export const EmailAddress = z
-  .email({ error: 'Enter a valid e-mail address' })
-  .max(254, { error: 'Use at most 254 characters' })
-  .transform((s) => s.toLowerCase());
 
 /** A one-time link's token: 43 characters of base64url (256 random bits); anything else is forged. */
 export const LinkToken = z.string({ error: 'The link is incomplete' }).regex(/^[A-Za-z0-9_-]{43}$/, {

@@ -1,9 +1,8 @@
 // Shares: a patient of one practice opened to a referring surgeon of another, with a scope, the
 // sites it covers, an optional end date and a reason; revoked at any time, never deleted.
 import { z } from 'zod';
-import { FdiPosition, Id, IsoDate, IsoDateTime, PlainText } from './common.js';
+import { EmailAddress, FdiPosition, Id, IsoDate, IsoDateTime, PlainText } from './common.js';
 import { ShareScope, ShareStatus } from './enums.js';
-import { EmailAddress } from './people.js';
 import type { RouteContract } from './route-contract.js';
 
 export const Share = z.object({

@@ -68,7 +68,7 @@ export {
   NO_BASELINE_BONE_LEVEL_MM,
 } from './peri-implant-status.js';
 /** The three statuses, best to worst. */
-export { PERI_IMPLANT_STATUSES } from './peri-implant-status.js';
+export { PERI_IMPLANT_STATUSES } from './choices.js';
 /** Peri-implant types. */
 export type {
   PeriImplantStatus,
@@ -214,15 +214,15 @@ export { PLAN_FINDING_CODES, PLAN_SOURCES } from './plan-findings.js';
 export {
   RESTORATION_KINDS,
   RETENTIONS,
-  ABUTMENT_LEVEL_RETENTIONS,
   IMPLANT_INTERFACES,
   IMPRESSION_COPINGS,
   PART_ANGLE_RANGE_DEG,
-} from './restoration-plan.js';
+} from './choices.js';
+export { ABUTMENT_LEVEL_RETENTIONS } from './restoration-plan.js';
 /** Findings for chosen parts whose catalogue entry lacks a value a plan rule reads. */
 export { CATALOGUE_VALUE_FINDING_CODES, catalogueValueFindings, catalogueValuesRead } from './catalogue-values.js';
 export type { CatalogueValue, PartValues, SiteParts } from './catalogue-values.js';
-export { ACTIONABLE_SEVERITIES, FINDING_SEVERITIES } from './plan-findings.js';
+export { ACTIONABLE_SEVERITIES, FINDING_SEVERITIES } from './choices.js';
 /** Overdenture kinds (on stud attachments, on a bar) and the catalogue facts their rules read. */
 export { OVERDENTURE_KINDS, isOverdentureKind } from './overdenture-plan.js';
 export type { AttachmentFacts, OverdentureKind } from './overdenture-plan.js';
@@ -292,10 +292,6 @@ export type { SurvivalObservation, KaplanMeierStep, KaplanMeierResult } from './
 
 // ---- impressions -----------------------------------------------------------------------------
 /** Scan bodies of a digital impression: one per site, a scan body, of the site's platform, with its lot. */
-export {
-  checkScanBodies,
-  IMPRESSION_METHODS,
-  SCAN_BODY_FINDING_CODES,
-  seatingRadiographFindings,
-} from './scan-bodies.js';
+export { checkScanBodies, SCAN_BODY_FINDING_CODES, seatingRadiographFindings } from './scan-bodies.js';
+export { IMPRESSION_METHODS } from './choices.js';
 export type { ImpressionMethod, ImpressionSite, ScanBodyEntry } from './scan-bodies.js';

@@ -26,13 +26,11 @@
  * - No inflammation but bone loss beyond the threshold (or bone level ≥ 3 mm without baseline): status
  *   'health' (no BOP/SUP; health can exist with reduced bone support) with the flag `bone-loss-without-inflammation`.
  */
+import type { PeriImplantStatus } from './choices.js';
 import { ValidationError } from './errors.js';
 import { EPS, fmt, requireArray, requireBoolean, requireNonNegative } from './validate.js';
 
-/** The three statuses of the 2017 case definitions, from best to worst (the database enum follows this order). */
-export const PERI_IMPLANT_STATUSES = ['health', 'mucositis', 'peri-implantitis'] as const;
-/** Peri-implant status of one implant. */
-export type PeriImplantStatus = (typeof PERI_IMPLANT_STATUSES)[number];
+export type { PeriImplantStatus } from './choices.js';
 
 /** One probing site of the current exam. */
 export interface PeriImplantSite {

@@ -2,12 +2,9 @@
  * The vocabulary of a plan's Findings: severities, the finding shape, stable codes and the sources
  * named in them. Shared by the plan's rule modules (restoration-plan.ts and its divergence checks).
  */
-/** Severities that ask something of the clinician: an error blocks the plan, a warning needs acknowledging. */
-export const ACTIONABLE_SEVERITIES = ['error', 'warning'] as const;
-/** Severities of a {@link Finding}: the actionable ones, and `info`, worth knowing but asking nothing. */
-export const FINDING_SEVERITIES = [...ACTIONABLE_SEVERITIES, 'info'] as const;
-/** Severity of a {@link Finding}. */
-export type FindingSeverity = (typeof FINDING_SEVERITIES)[number];
+import type { FindingSeverity } from './choices.js';
+
+export type { FindingSeverity } from './choices.js';
 
 /** One problem found in a plan. */
 export interface Finding {

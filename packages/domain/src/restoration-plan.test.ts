@@ -1,7 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import { PLAN_FINDING_CODES as C, PLAN_SOURCES } from './plan-findings.js';
+import { RETENTIONS } from './choices.js';
 import {
-  RETENTIONS,
   isRetrievable,
   restorativeDesignForPlan,
   validateRestorationPlan,

@@ -20,6 +20,18 @@
  *   space minimum; stud attachments are judged per site against their catalogue tolerance, neither the
  *   interface nor the restorative space of a stud overdenture is judged (no published minimum here).
  */
+import {
+  IMPLANT_INTERFACES,
+  type ImplantInterface,
+  IMPRESSION_COPINGS,
+  type ImpressionCoping,
+  type MultiUnitAngleDeg,
+  PART_ANGLE_RANGE_DEG,
+  RESTORATION_KINDS,
+  type RestorationKind,
+  RETENTIONS,
+  type Retention,
+} from './choices.js';
 import { divergenceDeg, type Vec3 } from './geometry.js';
 import { divergenceFindings } from './restoration-plan-divergence.js';
 import {
@@ -42,48 +54,15 @@ import {
   requireOneOf,
 } from './validate.js';
 
-/**
- * Kinds of restoration. `splinted-bridge`, `full-arch` and `overdenture-bar` are splinted; an overdenture
- * on stud attachments is not (each implant carries its own attachment; overdenture-plan.ts).
- */
-export const RESTORATION_KINDS = [
-  'single-crown',
-  'splinted-bridge',
-  'full-arch',
-  'overdenture-studs',
-  'overdenture-bar',
-] as const;
-/** Kind of restoration. */
-export type RestorationKind = (typeof RESTORATION_KINDS)[number];
-/** How a restoration is retained. */
-export const RETENTIONS = [
-  'screw-to-implant',
-  'screw-to-multi-unit',
-  'cement-on-abutment',
-  'lingual-set-screw',
-] as const;
-/** How the restoration is retained. */
-export type Retention = (typeof RETENTIONS)[number];
+// The lists of kinds, retentions, interfaces and copings live in choices.ts (a screen that only
+// needs a list does not load these rules); re-exported here for the modules that import them from here.
+export type { ImplantInterface, ImpressionCoping, MultiUnitAngleDeg, RestorationKind, Retention } from './choices.js';
+
 /** Retentions where the restoration sits on an abutment, indexed to the implant's hex [common practice]. */
 export const ABUTMENT_LEVEL_RETENTIONS: readonly Retention[] = Object.freeze([
   'cement-on-abutment',
   'lingual-set-screw',
 ]);
-/** Connections of the restoration (or abutment) to the implant: indexed to the hex or not. */
-export const IMPLANT_INTERFACES = ['engaging', 'non-engaging'] as const;
-/** Connection of the restoration (or abutment) to the implant. */
-export type ImplantInterface = (typeof IMPLANT_INTERFACES)[number];
-/** Impression copings a site can be recorded with. */
-export const IMPRESSION_COPINGS = ['engaging', 'non-engaging', 'multi-unit'] as const;
-/** Impression coping used at a site. */
-export type ImpressionCoping = (typeof IMPRESSION_COPINGS)[number];
-/**
- * The angles a catalogue may state for a part, degrees, inclusive. The plan's rules take whatever angle
- * the practice's catalogue states within it (catalogue-values.ts); no list of angles is kept in the code.
- */
-export const PART_ANGLE_RANGE_DEG = Object.freeze({ min: 0, max: 45 } as const);
-/** Angle of a multi-unit abutment, degrees: the one its catalogue entry states. */
-export type MultiUnitAngleDeg = number;
 
 /**
  * True when the restoration can be taken off without cutting it: every retention but cement

@@ -3,9 +3,9 @@
 // restoration's interface on the wrong connection, so it is an error naming the site.
 import { type Finding, PLAN_SOURCES } from './plan-findings.js';
 
-/** How an impression was taken: with copings and a tray (analog) or with an intraoral scanner (digital). */
-export const IMPRESSION_METHODS = ['analog', 'digital'] as const;
-export type ImpressionMethod = (typeof IMPRESSION_METHODS)[number];
+import type { ImpressionMethod } from './choices.js';
+
+export type { ImpressionMethod } from './choices.js';
 
 /** Stable codes of the findings of {@link checkScanBodies}. */
 export const SCAN_BODY_FINDING_CODES = Object.freeze({

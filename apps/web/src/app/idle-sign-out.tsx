@@ -1,10 +1,15 @@
-import { Button, Dialog, DialogBody, DialogFooter } from '@blueprintjs/core';
 import type { Me } from '@torquetrail/contracts';
-import { useEffect, useRef, useState } from 'react';
+import { lazy, Suspense, useEffect, useRef, useState } from 'react';
 
 /** Activity in any tab of the app counts: sign-out ends every session of the user, all tabs included. */
 const LAST_ACTIVITY_KEY = 'tt-last-activity';
 const ACTIVITY_EVENTS = ['pointerdown', 'keydown', 'wheel', 'touchstart'] as const;
+
+// The dialog (Blueprint's overlay and its transitions) is a chunk of its own: no page's first view
+// waits for it. It is fetched a little after the app has shown, so it is there when needed.
+const loadWarning = () => import('./idle-warning');
+const IdleWarning = lazy(loadWarning);
+const PREFETCH_WARNING_AFTER_MS = 10_000;
 
 const storedActivity = (): number => Number(localStorage.getItem(LAST_ACTIVITY_KEY) ?? 0) || 0;
 
@@ -25,6 +30,11 @@ export function IdleSignOut({
   const last = useRef(0);
   const [secondsLeft, setSecondsLeft] = useState<number | null>(null);
   const fired = useRef(false);
+
+  useEffect(() => {
+    const prefetch = window.setTimeout(() => void loadWarning().catch(() => undefined), PREFETCH_WARNING_AFTER_MS);
+    return () => window.clearTimeout(prefetch);
+  }, []);
 
   useEffect(() => {
     let written = 0;
@@ -57,37 +67,19 @@ export function IdleSignOut({
   }, [session.idleSignOutS, session.warnBeforeS, onIdle]);
 
   const minutes = Math.round(session.idleSignOutS / 60);
+  if (secondsLeft === null) return null;
   return (
-    <Dialog
-      isOpen={secondsLeft !== null}
-      title="Still there?"
-      icon="time"
-      isCloseButtonShown={false}
-      canEscapeKeyClose={false}
-      canOutsideClickClose={false}
-    >
-      <DialogBody>
-        <p role="status" aria-live="polite">
-          Torquetrail has not been used for {minutes >= 1 ? `about ${minutes} minutes` : 'a while'}. You will be signed
-          out in <strong data-testid="idle-seconds-left">{secondsLeft}</strong> seconds. What you are typing is kept for
-          when you sign in again.
-        </p>
-      </DialogBody>
-      <DialogFooter
-        actions={
-          <Button
-            intent="primary"
-            text="Stay signed in"
-            autoFocus
-            onClick={() => {
-              last.current = Date.now();
-              localStorage.setItem(LAST_ACTIVITY_KEY, String(last.current));
-              setSecondsLeft(null);
-              onStay();
-            }}
-          />
-        }
+    <Suspense fallback={null}>
+      <IdleWarning
+        minutes={minutes}
+        secondsLeft={secondsLeft}
+        onStay={() => {
+          last.current = Date.now();
+          localStorage.setItem(LAST_ACTIVITY_KEY, String(last.current));
+          setSecondsLeft(null);
+          onStay();
+        }}
       />
-    </Dialog>
+    </Suspense>
   );
 }

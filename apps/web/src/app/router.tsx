@@ -2,7 +2,6 @@ import type { QueryClient } from '@tanstack/react-query';
 import { createBrowserRouter, Navigate, Outlet } from 'react-router-dom';
 import { prefetchMe } from '../features/auth';
 import { prefetchPatient } from '../features/patients';
-import { SignInRoute } from '../features/auth/routes/sign-in-route';
 import { LoadingState } from '../lib/components/loading-state';
 import { NotFoundRoute } from './not-found-route';
 import { RequireAuth } from './require-auth';
@@ -10,11 +9,12 @@ import { access } from '../lib/page-access';
 import { RouteError } from './route-error';
 
 /**
- * The app's pages. The signed-in pages are split into their own chunks (React Router `lazy`),
- * so the sign-in page and the first paint load only what they need. Loaders start the first reads
- * (the session, the Arch's patient) as the navigation starts, side by side with each other and with
- * the page's chunk (a route's own loader runs beside its `lazy`), instead of one after the other
- * as the components mount; they wait for nothing, and the pages read the same queries.
+ * The app's pages. Every page is split into its own chunk (React Router `lazy`), so the first
+ * paint loads only what it needs; the sign-in page too, so a signed-in page never loads the
+ * sign-in form (and react-hook-form with it). Loaders start the first reads (the session, the
+ * Arch's patient) as the navigation starts, side by side with each other and with the page's chunk
+ * (a route's own loader runs beside its `lazy`), instead of one after the other as the components
+ * mount; they wait for nothing, and the pages read the same queries.
  */
 export const createRouter = (queryClient: QueryClient) =>
   createBrowserRouter([
@@ -23,7 +23,10 @@ export const createRouter = (queryClient: QueryClient) =>
       errorElement: <RouteError />,
       hydrateFallbackElement: <LoadingState label="Loading Torquetrail" />,
       children: [
-        { path: '/sign-in', element: <SignInRoute /> },
+        {
+          path: '/sign-in',
+          lazy: async () => ({ Component: (await import('../features/auth/routes/sign-in-route')).SignInRoute }),
+        },
         {
           path: '/welcome',
           lazy: async () => ({ Component: (await import('../features/auth/routes/welcome-route')).WelcomeRoute }),

@@ -7,21 +7,20 @@ import { type IconName, type IconPaths, Icons, IconSize } from '@blueprintjs/ico
 
 type PathsModules = Record<string, () => Promise<IconPaths>>;
 
-// One pattern per size: import.meta.glob takes literals only. Keep the two lists the same.
+// One pattern per size: import.meta.glob takes literals only. Keep the two lists the same. The
+// patterns are relative to `base`, so the keys the first load carries are short (`./add.js`).
 const paths16: PathsModules = import.meta.glob<IconPaths>(
-  '../../../../node_modules/@blueprintjs/icons/lib/esm/generated/16px/paths/{add,archive,arrow-down,arrow-up,at,calendar,caret-down,caret-right,caret-up,changes,chevron-down,chevron-left,chevron-right,chevron-up,circle,clipboard,code,control,cross,cube,cube-add,disable,document,double-caret-vertical,download,duplicate,edit,endorsed,envelope,error,export,filter,floppy-disk,function,history,id-number,import,inbox,info-sign,layers,lock,log-out,media,minus,more,people,phone,pin,play,pulse,refresh,saved,search,search-template,server,settings,share,small-cross,sort,th,tick,tick-circle,time,timeline-events,timeline-line-chart,unarchive,warning-sign,wrench,zoom-in,zoom-out,zoom-to-fit}.js',
-  { import: 'default' },
+  './{add,archive,arrow-down,arrow-up,at,calendar,caret-down,caret-right,caret-up,changes,chevron-down,chevron-left,chevron-right,chevron-up,circle,clipboard,code,control,cross,cube,cube-add,disable,document,double-caret-vertical,download,duplicate,edit,endorsed,envelope,error,export,filter,floppy-disk,function,history,id-number,import,inbox,info-sign,layers,lock,log-out,media,minus,more,people,phone,pin,play,pulse,refresh,saved,search,search-template,server,settings,share,small-cross,sort,th,tick,tick-circle,time,timeline-events,timeline-line-chart,unarchive,warning-sign,wrench,zoom-in,zoom-out,zoom-to-fit}.js',
+  { import: 'default', base: '../../../../node_modules/@blueprintjs/icons/lib/esm/generated/16px/paths/' },
 );
 const paths20: PathsModules = import.meta.glob<IconPaths>(
-  '../../../../node_modules/@blueprintjs/icons/lib/esm/generated/20px/paths/{add,archive,arrow-down,arrow-up,at,calendar,caret-down,caret-right,caret-up,changes,chevron-down,chevron-left,chevron-right,chevron-up,circle,clipboard,code,control,cross,cube,cube-add,disable,document,double-caret-vertical,download,duplicate,edit,endorsed,envelope,error,export,filter,floppy-disk,function,history,id-number,import,inbox,info-sign,layers,lock,log-out,media,minus,more,people,phone,pin,play,pulse,refresh,saved,search,search-template,server,settings,share,small-cross,sort,th,tick,tick-circle,time,timeline-events,timeline-line-chart,unarchive,warning-sign,wrench,zoom-in,zoom-out,zoom-to-fit}.js',
-  { import: 'default' },
+  './{add,archive,arrow-down,arrow-up,at,calendar,caret-down,caret-right,caret-up,changes,chevron-down,chevron-left,chevron-right,chevron-up,circle,clipboard,code,control,cross,cube,cube-add,disable,document,double-caret-vertical,download,duplicate,edit,endorsed,envelope,error,export,filter,floppy-disk,function,history,id-number,import,inbox,info-sign,layers,lock,log-out,media,minus,more,people,phone,pin,play,pulse,refresh,saved,search,search-template,server,settings,share,small-cross,sort,th,tick,tick-circle,time,timeline-events,timeline-line-chart,unarchive,warning-sign,wrench,zoom-in,zoom-out,zoom-to-fit}.js',
+  { import: 'default', base: '../../../../node_modules/@blueprintjs/icons/lib/esm/generated/20px/paths/' },
 );
 
 async function loadIconPaths(name: IconName, size: IconSize): Promise<IconPaths> {
   const px = size === IconSize.STANDARD ? 16 : 20;
-  const load = (px === 16 ? paths16 : paths20)[
-    `../../../../node_modules/@blueprintjs/icons/lib/esm/generated/${px}px/paths/${name}.js`
-  ];
+  const load = (px === 16 ? paths16 : paths20)[`./${name}.js`];
   if (load) return load();
   await Icons.load(name, size, { loader: 'split-by-size' });
   const paths = Icons.getPaths(name, size);

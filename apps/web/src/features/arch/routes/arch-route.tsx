@@ -2,26 +2,31 @@ import '../components/arch.css';
 import { Callout, Classes, NonIdealState } from '@blueprintjs/core';
 import { isPrimaryTooth, TOOTH_POSITIONS_PERMANENT, TOOTH_POSITIONS_PRIMARY } from '@torquetrail/domain';
 import { subject } from '@torquetrail/authz';
+import { lazy } from 'react';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { Can } from '../../../lib/ability';
 import { isApiError } from '../../../lib/api-client';
+import { AfterFirstPaint } from '../../../lib/components/after-first-paint';
 import { BreadcrumbTrail } from '../../../lib/components/breadcrumb-trail';
 import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
 import { formatDate } from '../../../lib/dates';
 import { MAINTENANCE_NOTE } from '../../../lib/labels';
 import { useToothSystem } from '../../../lib/tooth-system';
-import { PatientAccessLog } from '../../audit';
-import { ReferralSummaryPanel } from '../../outcomes';
 import { usePatient } from '../../patients';
-import { PatientShares } from '../../shares';
-import { RecordsOutPanel } from '../../records-out';
-import { AddSiteControl } from '../components/add-site-control';
 import { ArchDrawing } from '../components/arch-drawing';
 import { ArchLegend } from '../components/arch-legend';
 import { NumberingSwitch } from '../components/numbering-switch';
 import { PatientHeader } from '../components/patient-header';
 import { SitesTable } from '../components/sites-table';
+
+// What sits below the Arch loads after it has shown: the site form (react-hook-form) and the
+// panels (shares, referral summary, records out, access trail) are chunks of their own, so the
+// first view needs only the drawing's code (issue 13, goal 3).
+const AddSiteControl = lazy(() =>
+  import('../components/add-site-control').then((m) => ({ default: m.AddSiteControl })),
+);
+const PatientPanels = lazy(() => import('../components/patient-panels'));
 
 /** /patients/:patientId: the patient's mouth as two arches, and the list of implant sites. */
 export function ArchRoute() {
@@ -131,7 +136,9 @@ export function ArchRoute() {
       <section className="sites-section" aria-labelledby="sites-heading">
         <h2 id="sites-heading">Implant sites</h2>
         <Can I="create" this={subject('ImplantSite', { practiceId: data.practiceId, patientId: data.id })}>
-          <AddSiteControl patientId={data.id} sites={data.sites} system={system} />
+          <AfterFirstPaint>
+            <AddSiteControl patientId={data.id} sites={data.sites} system={system} />
+          </AfterFirstPaint>
         </Can>
         {data.sites.length === 0 ? (
           <NonIdealState
@@ -146,16 +153,9 @@ export function ArchRoute() {
           </>
         )}
       </section>
-      <Can I="read" this={subject('ReferralSummary', { practiceId: data.practiceId, patientId: data.id })}>
-        <ReferralSummaryPanel patientId={data.id} />
-      </Can>
-      <Can I="read" this={subject('Share', { practiceId: data.practiceId, patientId: data.id })}>
-        <PatientShares patient={data} />
-      </Can>
-      <RecordsOutPanel patientId={data.id} practiceId={data.practiceId} />
-      <Can I="read" this={subject('PatientAudit', { practiceId: data.practiceId, patientId: data.id })}>
-        <PatientAccessLog patientId={data.id} />
-      </Can>
+      <AfterFirstPaint>
+        <PatientPanels patient={data} />
+      </AfterFirstPaint>
     </div>
   );
 }
