@@ -3,6 +3,9 @@
 // at size. Prints one table and writes bench/results/site-file.{json,md} and the desk's EXPLAIN
 // files. Measures only: nothing is asserted and `npm test` never runs it.
 // Usage: node scripts/bench-site-file.mjs [--seconds 3] [--repeats 3] [--patients 10000] [--reseed]
+//        node scripts/bench-site-file.mjs --desk [--replies <dir>]   (only the large practice's Recall
+//        desk, CSV and EXPLAIN files, to bench/results/desk.{json,md}; --replies saves each desk
+//        reply and both CSV orders there, to compare two builds byte for byte)
 import { spawn } from 'node:child_process';
 import { createHash } from 'node:crypto';
 import fs from 'node:fs';
@@ -24,6 +27,8 @@ const { values: args } = parseArgs({
     repeats: { type: 'string', default: '3' },
     patients: { type: 'string', default: '10000' },
     reseed: { type: 'boolean', default: false },
+    desk: { type: 'boolean', default: false },
+    replies: { type: 'string' },
   },
 });
 const SECONDS = Number(args.seconds);
@@ -43,7 +48,7 @@ const log = (line) => console.log(line);
 await startServices();
 const started = performance.now();
 const t0 = performance.now();
-await prepareDemoDatabase(DEMO_DB);
+if (!args.desk) await prepareDemoDatabase(DEMO_DB);
 const demoSeedS = (performance.now() - t0) / 1000;
 // The large database is kept between runs while what made it is unchanged (its seed, the demo seed,
 // the migrations, the size): seeding it is the slowest step of the run.
@@ -57,6 +62,7 @@ const fingerprint = createHash('sha256')
 let largeSeed = { reused: true, seconds: null, counts: null };
 if (args.reseed || (await databaseComment(LARGE_DB)) !== fingerprint) {
   log(`seeding the large practice (${PATIENTS} patients) …`);
+  if (args.desk) await prepareDemoDatabase(DEMO_DB);
   await cloneDatabase(DEMO_DB, LARGE_DB);
   const seeded = await seedLargePractice(ownerUrl(LARGE_DB), { patients: PATIENTS, log });
   await withOwner('postgres', (c) => c.query(`comment on database "${LARGE_DB}" is '${fingerprint}'`));
@@ -136,7 +142,7 @@ async function request(port, url, { method = 'GET', body, cookie } = {}) {
 }
 
 // ---- the endpoints ---------------------------------------------------------------------------
-const targets = await withOwner(DEMO_DB, async (c) => {
+const targets = await withOwner(args.desk ? LARGE_DB : DEMO_DB, async (c) => {
   const r = await c.query(
     `select s.id as site, p.id as patient from implant_sites s join patients p on p.id = s.patient_id where p.chart_number = 'LL-1001' and s.fdi = 35`,
   );
@@ -158,6 +164,25 @@ const DESK = [
   ['search', '/api/recalls/desk?filter=all&sort=dueOn&dir=asc&search=family12'],
 ];
 const CSV_URL = '/api/recalls/desk/csv?filter=all&sort=dueOn&dir=asc';
+// The replies compared byte for byte between two builds (--replies): beyond DESK, every order in
+// both directions, the other filters, a later page and one past the end, archived patients, both CSV orders.
+const COMPARED = [
+  ...DESK.map(([, url]) => url),
+  '/api/recalls/desk?filter=all&sort=dueOn&dir=desc&page=3',
+  '/api/recalls/desk?filter=all&sort=name&dir=desc&page=2',
+  '/api/recalls/desk?filter=all&sort=lastExamOn&dir=asc',
+  '/api/recalls/desk?filter=all&sort=overdueDays&dir=asc&page=40',
+  '/api/recalls/desk?filter=all&sort=overdueDays&dir=desc&page=2',
+  '/api/recalls/desk?filter=overdue&sort=name&dir=asc&page=2',
+  '/api/recalls/desk?filter=provisional-overdue&sort=dueOn&dir=asc',
+  '/api/recalls/desk?filter=due-this-week&sort=overdueDays&dir=asc',
+  '/api/recalls/desk?filter=peri-implantitis-last&sort=lastExamOn&dir=desc&pageSize=200',
+  '/api/recalls/desk?filter=all&sort=name&dir=asc&archived=all&page=150',
+  '/api/recalls/desk?filter=all&sort=dueOn&dir=asc&archived=archived',
+  '/api/recalls/desk?filter=all&sort=name&dir=asc&page=1000',
+  CSV_URL,
+  '/api/recalls/desk/csv?filter=all&sort=name&dir=desc',
+];
 
 const readCapture = (file, from) =>
   fs
@@ -218,7 +243,7 @@ async function measureDatabase(database, { withFloor }) {
   const cookie = String(signIn.headers.get('set-cookie')).split(';')[0];
   const out = { endpoints: {}, desk: {}, csv: null, web: null, peakRssMb: 0 };
   const replay = { routes: {} };
-  for (const [name, url] of ENDPOINTS) {
+  for (const [name, url] of args.desk ? [] : ENDPOINTS) {
     const { reply, statements, groups } = await captureRequest(captureFile, cookie, url);
     if (reply.status !== 200) throw new Error(`${name} answered ${reply.status}`);
     replay.routes[url] = {
@@ -250,11 +275,11 @@ async function measureDatabase(database, { withFloor }) {
     }
   }
   // Warm both servers (JIT of V8, PostgreSQL's caches) before anything is kept.
-  for (const [, url] of ENDPOINTS) {
+  for (const [, url] of args.desk ? [] : ENDPOINTS) {
     await load(API_PORT, url, cookie, 8);
     if (floor) await load(FLOOR_PORT, url, cookie, 8);
   }
-  for (let repeat = 0; repeat < REPEATS; repeat += 1) {
+  for (let repeat = 0; repeat < (args.desk ? 0 : REPEATS); repeat += 1) {
     for (const connections of CONNECTIONS) {
       for (const [name, url] of ENDPOINTS) {
         let peak = 0;
@@ -288,8 +313,22 @@ async function measureDatabase(database, { withFloor }) {
       await new Promise((r) => setTimeout(r, 100));
       // The desk's own statements (the session's user and the audit row are measured elsewhere).
       out.deskSql[name] = readCapture(captureFile, from).filter(
-        (s) => /"recalls"|recalls\b/.test(s.text) && /^\s*(select|with)/i.test(s.text),
+        (s) => /recall_summaries|"recalls"|recalls\b/.test(s.text) && /^\s*(select|with)/i.test(s.text),
       );
+    }
+    // The export's statement, as its cursor declared it.
+    const from = fs.statSync(captureFile).size;
+    await request(API_PORT, CSV_URL, { cookie });
+    await new Promise((r) => setTimeout(r, 100));
+    out.deskSql['CSV export'] = readCapture(captureFile, from)
+      .filter((s) => /^declare batch_rows no scroll cursor for /i.test(s.text))
+      .map((s) => ({ ...s, text: s.text.replace(/^declare batch_rows no scroll cursor for /i, '') }));
+    if (args.replies) {
+      fs.mkdirSync(args.replies, { recursive: true });
+      for (const url of COMPARED) {
+        const r = await request(API_PORT, url, { cookie });
+        fs.writeFileSync(path.join(args.replies, `${url.replace(/[^a-z0-9]+/gi, '-')}.${r.status}`), r.body);
+      }
     }
     const csvTimes = [];
     let csvPeak = 0;
@@ -330,14 +369,15 @@ const fmtRun = (run) =>
   `API ${run.api.rps.toFixed(0)} req/s p50 ${run.api.p50.toFixed(1)} ms` +
   (run.floor ? ` | floor ${run.floor.rps.toFixed(0)} req/s p50 ${run.floor.p50.toFixed(1)} ms` : '');
 
-log('\n== demo database (API and floor)');
-const demo = await measureDatabase(DEMO_DB, { withFloor: true });
+const demo = args.desk
+  ? null
+  : (log('\n== demo database (API and floor)'), await measureDatabase(DEMO_DB, { withFloor: true }));
 log('\n== large practice (API; desk and CSV)');
 const large = await measureDatabase(LARGE_DB, { withFloor: false });
 const explains = await explainDesk(ownerUrl(LARGE_DB), large.deskSql, path.join(repoRoot, 'bench/results'));
 delete large.deskSql;
 
-writeResults(path.join(repoRoot, 'bench/results'), {
+writeResults(path.join(repoRoot, 'bench/results'), args.desk ? 'desk' : 'site-file', {
   at: new Date().toISOString(),
   settings: { seconds: SECONDS, repeats: REPEATS, connections: CONNECTIONS, patients: PATIENTS },
   seeding: { demoSeconds: demoSeedS, large: largeSeed },

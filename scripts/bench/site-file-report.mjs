@@ -35,6 +35,11 @@ export async function explainDesk(connectionString, deskSql, dir) {
         file,
         statements: statements.length,
         scansAllExams: /Seq Scan on recall_exams/.test(text),
+        // Each statement's buffers (its plan's first Buffers line): pages read, whatever the machine's load.
+        sharedBuffers: [...text.matchAll(/^\S.*\(cost=.*\n\s+Buffers: shared hit=(\d+)(?: read=(\d+))?/gm)].reduce(
+          (sum, m) => sum + Number(m[1]) + Number(m[2] ?? 0),
+          0,
+        ),
         executionMs: [...text.matchAll(/Execution Time: ([\d.]+) ms/g)].reduce((sum, m) => sum + Number(m[1]), 0),
       };
     }
@@ -66,8 +71,9 @@ function reduce(measured) {
   return rows;
 }
 
-export function writeResults(dir, raw) {
-  const demo = reduce(raw.demo);
+/** `file`.json and `file`.md; without a demo run (--desk), only the Recall desk's part. */
+export function writeResults(dir, file, raw) {
+  const demo = raw.demo ? reduce(raw.demo) : {};
   const large = reduce(raw.large);
   const table = [];
   for (const [name, d] of Object.entries(demo)) {
@@ -88,11 +94,11 @@ export function writeResults(dir, raw) {
       });
     }
   }
-  const results = { ...raw, table, peakRssMb: Math.max(raw.demo.peakRssMb, raw.large.peakRssMb) };
+  const results = { ...raw, table, peakRssMb: Math.max(raw.demo?.peakRssMb ?? 0, raw.large.peakRssMb) };
   fs.mkdirSync(dir, { recursive: true });
-  fs.writeFileSync(path.join(dir, 'site-file.json'), `${JSON.stringify(results, null, 2)}\n`);
+  fs.writeFileSync(path.join(dir, `${file}.json`), `${JSON.stringify(results, null, 2)}\n`);
   const md = markdown(results);
-  fs.writeFileSync(path.join(dir, 'site-file.md'), md);
+  fs.writeFileSync(path.join(dir, `${file}.md`), md);
   console.log(`\n${md}`);
   return results;
 }
@@ -100,6 +106,7 @@ export function writeResults(dir, raw) {
 const f = (n, digits = 1) => (n === null || n === undefined ? '—' : n.toFixed(digits));
 
 function markdown(r) {
+  if (!r.demo) return deskMarkdown(r);
   const lines = [
     `# Site file benchmark — ${r.at}`,
     '',
@@ -115,17 +122,7 @@ function markdown(r) {
     );
   }
   lines.push('', `API peak RSS under load: ${f(r.peakRssMb, 0)} MB.`, '');
-  lines.push(`## Recall desk, ${r.settings.patients} patients (median of 12 requests over HTTP, first page)`, '');
-  lines.push(
-    '| filter | median ms | max ms | total | SQL time in EXPLAIN ms | scans all exams | plan |',
-    '|---|---|---|---|---|---|---|',
-  );
-  for (const [name, d] of Object.entries(r.large.desk)) {
-    const e = r.explains[name] ?? {};
-    lines.push(
-      `| ${name} | ${f(d.medianMs)} | ${f(d.maxMs)} | ${d.total} | ${f(e.executionMs)} | ${e.scansAllExams ? 'yes' : 'no'} | ${e.file ?? ''} |`,
-    );
-  }
+  lines.push(...deskTable(r));
   const w = r.demo.web;
   if (w) {
     lines.push(
@@ -137,13 +134,40 @@ function markdown(r) {
       `\`/api/auth/me\` starts at ${f(w.meStartMs, 0)} ms and answers at ${f(w.meEndMs, 0)} ms; the patient's request starts at ${f(w.patientStartMs, 0)} ms (side by side with \`me\` in ${w.parallel} of ${w.runs} loads).`,
     );
   }
-  const c = r.large.csv;
+  lines.push(...csvLines(r));
+  return lines.join('\n');
+}
+
+/** The Recall desk's table: each filter's first page over HTTP and its statements' EXPLAIN. */
+function deskTable(r) {
+  const lines = [`## Recall desk, ${r.settings.patients} patients (median of 12 requests over HTTP, first page)`, ''];
   lines.push(
+    '| filter | median ms | max ms | total | SQL time in EXPLAIN ms | buffers | scans all exams | plan |',
+    '|---|---|---|---|---|---|---|---|',
+  );
+  for (const [name, d] of Object.entries(r.large.desk)) {
+    const e = r.explains[name] ?? {};
+    lines.push(
+      `| ${name} | ${f(d.medianMs)} | ${f(d.maxMs)} | ${d.total} | ${f(e.executionMs)} | ${e.sharedBuffers ?? '—'} | ${e.scansAllExams ? 'yes' : 'no'} | ${e.file ?? ''} |`,
+    );
+  }
+  return lines;
+}
+
+function csvLines(r) {
+  const c = r.large.csv;
+  const e = r.explains['CSV export'];
+  return [
     '',
     `CSV export of every row: median ${f(c.medianMs, 0)} ms, ${(c.bytes / 1024).toFixed(0)} KB; API RSS ${f(c.rssBeforeMb, 0)} MB before, ${f(c.rssPeakMb, 0)} MB at its peak.`,
     '',
+    ...(e ? [`CSV statement in EXPLAIN: ${f(e.executionMs)} ms, ${e.sharedBuffers} buffers (${e.file}).`] : []),
+    '',
     `Seeding: demo ${f(r.seeding.demoSeconds)} s; large practice ${r.seeding.large.reused ? 'reused from the last run' : `${f(r.seeding.large.seconds)} s`}. Whole run ${f(r.totalSeconds, 0)} s.`,
     '',
-  );
-  return lines.join('\n');
+  ];
+}
+
+function deskMarkdown(r) {
+  return [`# Recall desk benchmark — ${r.at}`, '', ...deskTable(r), ...csvLines(r)].join('\n');
 }

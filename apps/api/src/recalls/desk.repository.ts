@@ -1,14 +1,13 @@
-// The Recall desk: filtered, sorted and paged in PostgreSQL, scoped to the practice (and the
-// user's shares) in the where clause. The order is walked from an index (desk-order.repository.ts);
-// the per-row reads use recall_exams_site_idx (latest exam per site), recall_exams_patient_idx,
-// recall_exams_supersedes_unique and recalls_patient_idx. Timings: npm run bench (docs/performance.md).
+// The Recall desk: filtered, sorted and paged in PostgreSQL from its summary (recall_summaries,
+// ADR 0009), scoped to the practice (and the user's shares) in the where clause. The order is walked
+// from an index of the summary (desk-order.repository.ts). Timings: npm run bench (docs/performance.md).
 import { sql, type SQL } from 'drizzle-orm';
 import type { RecallDeskCsvQuery, RecallDeskRow } from '@torquetrail/contracts';
 import type pg from 'pg';
 import type { Db } from '../db/database.js';
 import { cursorBatches } from '../db/cursor.js';
 import type { Scope } from '../authz/scope.js';
-import { deskOrder, latestCurrentExamOn } from './desk-order.repository.js';
+import { deskOrder } from './desk-order.repository.js';
 
 /** A desk row with the patient's contact details, for the CSV only (the service decides who sees them). */
 export interface DeskRowWithContact extends RecallDeskRow {
@@ -81,10 +80,10 @@ export async function* streamDesk(
 }
 
 /**
- * The desk in one statement, in two phases: the page's patients in order, walked from an index
- * (desk-order.repository.ts) so that only the rows up to the page are read, then for those rows
- * only their next recall, last exam, per-implant statuses and prior peri-implantitis. The page's
- * count is a statement of its own (`DeskOrder.countStatement`).
+ * The desk in one statement: the page's summary rows in order, walked from an index of
+ * recall_summaries (desk-order.repository.ts) so that only the rows up to the page are read, then
+ * each row's patient and, only for a row whose provisional is past its day, that provisional. The
+ * page's count is a statement of its own (`DeskOrder.countStatement`).
  */
 function deskStatement(
   scope: Scope,
@@ -95,31 +94,13 @@ function deskStatement(
   const order = deskOrder(scope, today, q, page.offset + page.limit);
   return sql`
     with ${order.ctes},
-    page as (select * from ordered order by ${order.orderBy('ordered')} limit ${page.limit} offset ${page.offset}),
-    keyed as (
-      -- The next recall in a lateral aggregate: read once per row, though two columns use it.
-      select page.*, nd.next_due, (${latestCurrentExamOn(sql`page.id`)}) as last_exam
-      from page cross join lateral (
-        select min(r.due_on) as next_due from recalls r where r.patient_id = page.id and r.status = 'scheduled'
-      ) nd
-    )
-    select keyed.id,
-           greatest(0, coalesce(${today}::date - keyed.next_due, 0))::int as overdue_days,
-           keyed.next_due::text as next_due_on, keyed.last_exam::text as last_exam_on,
+    page as (select * from ordered order by ${order.orderBy('ordered')} limit ${page.limit} offset ${page.offset})
+    select page.patient_id as id,
+           greatest(0, coalesce(${today}::date - page.next_due, 0))::int as overdue_days,
+           page.next_due::text as next_due_on, page.last_exam_on::text as last_exam_on,
            pa.chart_number, pa.given_name, pa.family_name, pa.phone, pa.email, pa.smoker, pa.diabetes_poorly_controlled, pa.periodontitis_history,
-           exists (select 1 from recall_exams pe where pe.patient_id = pa.id and pe.status = 'peri-implantitis'
-                    and not exists (select 1 from recall_exams s2 where s2.supersedes_id = pe.id)) as prior_pi,
-           coalesce((
-             select json_agg(json_build_object('siteId', s.id, 'fdi', s.fdi, 'status', e.status, 'examinedOn', e.examined_on) order by s.fdi)
-             from implant_sites s
-             left join lateral (
-               select x.status, x.examined_on from recall_exams x
-               where x.site_id = s.id and not exists (select 1 from recall_exams x2 where x2.supersedes_id = x.id)
-               order by x.examined_on desc, x.recorded_at desc limit 1
-             ) e on true
-             where s.patient_id = pa.id and s.status in ('placed', 'restored')
-           ), '[]'::json) as sites,
-           coalesce((
+           page.prior_peri_implantitis as prior_pi, page.sites,
+           case when page.provisional_due < ${today}::date then coalesce((
              select json_agg(json_build_object('restorationId', rp.id, 'plannedReplacementOn', rp.planned_replacement_on,
                       'fdis', (select json_agg(s.fdi order by s.fdi) from restoration_sites rs
                                join implant_sites s on s.id = rs.site_id where rs.restoration_id = rp.id))
@@ -127,9 +108,9 @@ function deskStatement(
              from restorations rp
              where rp.patient_id = pa.id and rp.provisional and rp.status = 'delivered'
                and rp.planned_replacement_on < ${today}::date
-           ), '[]'::json) as provisionals_overdue
-    from keyed join patients pa on pa.id = keyed.id
-    order by ${order.orderBy('keyed')}
+           ), '[]'::json) else '[]'::json end as provisionals_overdue
+    from page join patients pa on pa.id = page.patient_id
+    order by ${order.orderBy('page')}
   `;
 }
 

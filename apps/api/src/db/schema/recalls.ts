@@ -4,6 +4,7 @@ import {
   date,
   index,
   integer,
+  json,
   jsonb,
   numeric,
   pgTable,
@@ -173,4 +174,66 @@ export const reminderLog = pgTable(
     unique('reminder_log_idempotency_unique').on(t.idempotencyKey),
     index('reminder_log_practice_idx').on(t.practiceId, t.createdAt),
   ],
+);
+
+/**
+ * The Recall desk's read model (ADR 0009): one row per patient with what the desk filters and
+ * sorts on, kept by PostgreSQL triggers in the transaction of every write to its sources
+ * (patients, implant_sites, recall_exams, recalls, restorations; see the migration
+ * `recall-summaries`), never written by the app. Derived data, not a clinical entry: a row is
+ * recomputed from its sources whole (recall_summary_refresh), so it can always be rebuilt.
+ * A new desk filter adds a column here and its expression to recall_summary_refresh.
+ */
+export const recallSummaries = pgTable(
+  'recall_summaries',
+  {
+    patientId: uuid('patient_id')
+      .primaryKey()
+      .references(() => patients.id, { onDelete: 'cascade' }),
+    practiceId: uuid('practice_id').notNull(),
+    familyName: text('family_name').notNull(),
+    givenName: text('given_name').notNull(),
+    archived: boolean('archived').notNull().default(false),
+    /** The patient has an implant site placed or restored: the desk lists them. */
+    onDesk: boolean('on_desk').notNull().default(false),
+    /** Earliest scheduled recall. */
+    nextDue: date('next_due', { mode: 'string' }),
+    /** Latest current (not amended) exam. */
+    lastExamOn: date('last_exam_on', { mode: 'string' }),
+    /** A current exam of any site found peri-implantitis. */
+    priorPeriImplantitis: boolean('prior_peri_implantitis').notNull().default(false),
+    /** An examinable site whose latest current exam found peri-implantitis. */
+    periImplantitisLast: boolean('peri_implantitis_last').notNull().default(false),
+    /** Earliest planned replacement of a delivered provisional. */
+    provisionalDue: date('provisional_due', { mode: 'string' }),
+    /** Each examinable site by FDI with its latest current exam's status and date, as the desk shows it. */
+    sites: json('sites')
+      .notNull()
+      .default(sql`'[]'::json`),
+  },
+  (t) => {
+    const onDesk = sql`${t.onDesk}`;
+    const names = [t.familyName, t.givenName, t.patientId] as const;
+    // One index per order, in the order's exact terms (nulls last either way, ties by name), after
+    // the practice and the archived flag (the desk shows active patients unless asked): a first
+    // page is the first rows of one index, and a count reads the practice's entries of one index
+    // (index-only). Partial on the desk's rows.
+    const byKey = (name: string, ...columns: Parameters<ReturnType<typeof index>['on']>[number][]) =>
+      index(name)
+        .on(t.practiceId, t.archived, ...columns, ...names)
+        .where(onDesk);
+    return [
+      byKey('recall_summaries_name_idx'),
+      byKey('recall_summaries_due_asc_idx', t.nextDue.asc().nullsLast()),
+      byKey('recall_summaries_due_desc_idx', t.nextDue.desc().nullsLast()),
+      byKey('recall_summaries_exam_asc_idx', t.lastExamOn.asc().nullsLast()),
+      byKey('recall_summaries_exam_desc_idx', t.lastExamOn.desc().nullsLast()),
+      index('recall_summaries_pi_last_idx')
+        .on(t.practiceId, t.archived, ...names)
+        .where(sql`${t.onDesk} and ${t.periImplantitisLast}`),
+      index('recall_summaries_provisional_idx')
+        .on(t.practiceId, t.archived, t.provisionalDue)
+        .where(sql`${t.onDesk} and ${t.provisionalDue} is not null`),
+    ];
+  },
 );
