@@ -34,6 +34,30 @@ export const latestCurrentExamOn = (patientId: SQL) =>
       where x.patient_id = ${patientId} and not exists (select 1 from recall_exams x2 where x2.supersedes_id = x.id)
       order by x.examined_on desc limit 1`;
 
+/**
+ * The delivered overdentures (current versions) whose insert review is overdue on `today`: the last
+ * current insert change on any of their sites since delivery — or the delivery when none — plus the
+ * practice's interval in months (PostgreSQL clamps the day like addCalendarMonths in the domain),
+ * is before today (insertReviewOverdue in @torquetrail/domain). Columns: id, patient_id,
+ * last_change, due_on. `where` narrows the restorations (alias ro).
+ */
+export const overdueInsertReviews = (today: string, where: SQL) =>
+  sql`select ro.id, ro.patient_id, lc.last_change, due.due_on
+      from restorations ro
+      join practices pr on pr.id = ro.practice_id
+      cross join lateral (
+        select max(ic.changed_on) as last_change from insert_changes ic
+        join restoration_sites rs on rs.site_id = ic.site_id and rs.restoration_id = ro.id
+        where ic.changed_on >= ro.delivered_on
+          and not exists (select 1 from insert_changes ic2 where ic2.supersedes_id = ic.id)
+      ) lc
+      cross join lateral (
+        select (coalesce(lc.last_change, ro.delivered_on) + make_interval(months => pr.insert_review_interval_months))::date as due_on
+      ) due
+      where ${where} and ro.status = 'delivered' and ro.kind in ('overdenture-studs', 'overdenture-bar')
+        and not exists (select 1 from restorations rn where rn.supersedes_id = ro.id)
+        and due.due_on < ${today}::date`;
+
 export interface DeskOrder {
   /**
    * Common table expressions ending in `ordered`: the first `limit` patients in order, as id,
@@ -89,6 +113,12 @@ export function deskOrder(scope: Scope, today: string, q: RecallDeskCsvQuery, li
       sql`pa.id in (select rp.patient_id from restorations rp where ${inScope(scope, sql`rp.practice_id`, sql`rp.patient_id`)}
             and rp.provisional and rp.status = 'delivered' and rp.planned_replacement_on < ${today}::date)`,
     ],
+    'insert-review-overdue': [
+      sql`pa.id in (select o.patient_id from (${overdueInsertReviews(
+        today,
+        inScope(scope, sql`ro.practice_id`, sql`ro.patient_id`),
+      )}) o)`,
+    ],
   };
   const where = sql.join([...patients, ...filter[q.filter]], sql` and `);
   const withPi = q.filter === 'peri-implantitis-last' ? sql`${piPatients}, ` : sql``;
@@ -138,6 +168,7 @@ export function deskOrder(scope: Scope, today: string, q: RecallDeskCsvQuery, li
     q.filter === 'due-this-week' ||
     q.filter === 'peri-implantitis-last' ||
     q.filter === 'provisional-overdue' ||
+    q.filter === 'insert-review-overdue' ||
     limit > 1000;
   const nextDue = sql`(select min(r.due_on) from recalls r where r.patient_id = pa.id and r.status = 'scheduled')`;
   const lastExam = sql`(${latestCurrentExamOn(sql`pa.id`)})`;

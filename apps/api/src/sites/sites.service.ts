@@ -5,6 +5,7 @@ import { STACK_ORDER, type SiteFile, type TimelineKind, type TimelineReply } fro
 import { isRetrievable, retorqueDueAt, seatingTorqueMissing } from '@torquetrail/domain';
 import { assertCan, type Scope } from '../authz/scope.js';
 import { DB, type Database } from '../db/database.js';
+import { InsertChangesService } from '../insert-changes/insert-changes.service.js';
 import { MaintenanceStatusService } from '../recalls/maintenance-status.service.js';
 import {
   currentTorqueOfSite,
@@ -26,13 +27,15 @@ type ReadableType =
   | 'RecallExam'
   | 'Radiograph'
   | 'ReferralSummary'
-  | 'Impression';
+  | 'Impression'
+  | 'InsertChange';
 
 @Injectable()
 export class SitesService {
   constructor(
     @Inject(DB) private readonly db: Database,
     private readonly maintenance: MaintenanceStatusService,
+    private readonly insertChanges: InsertChangesService,
   ) {}
 
   private async visible(ability: AppAbility, scope: Scope, siteId: string) {
@@ -55,13 +58,16 @@ export class SitesService {
     const readTorque = canRead('TorqueEvent') && readParts;
     const readRestoration = canRead('Restoration');
     // Everything after the access check in one round of parallel reads, each keyed by the site.
-    const [placement, parts, restoration, torque, seatings, latestExam] = await Promise.all([
+    // Insert changes are the practice's own follow-up: absent (not null) where the reader may not see them.
+    const readInserts = canRead('InsertChange');
+    const [placement, parts, restoration, torque, seatings, latestExam, insertChanges] = await Promise.all([
       canRead('Placement') ? findCurrentPlacement(this.db, site.id) : null,
       readParts ? listCurrentParts(this.db, site.id) : [],
       readRestoration ? findCurrentRestoration(this.db, site.id) : null,
       readTorque ? currentTorqueOfSite(this.db, site.id) : [],
       readRestoration ? deliverySeatingOfSite(this.db, site.id) : [],
       canRead('RecallExam') ? this.maintenance.latestBySite([site.id]) : null,
+      readInserts ? this.insertChanges.ofSite(site.id, site.practiceId) : null,
     ]);
     // Oldest first, so the last entry of a part is its latest.
     const lastTorque = new Map(torque.map((t) => [t.instanceId, t]));
@@ -122,6 +128,7 @@ export class SitesService {
               : null,
           }
         : null,
+      ...(readInserts ? { insertChanges } : {}),
     };
   }
 
@@ -144,6 +151,7 @@ export class SitesService {
       passportMails,
       freeTextParts,
       impressions,
+      insertChanges,
     ] = await Promise.all([
       canRead('Placement') ? timeline.placementsOfSite(this.db, site.id) : none,
       canRead('Restoration') ? timeline.restorationsOfSite(this.db, site.id) : none,
@@ -159,6 +167,7 @@ export class SitesService {
       canRead('ComponentInstance') ? timeline.freeTextPartsOfSite(this.db, site.id) : none,
       // Impressions are the practice's (no share opens them): the ability decides, as for the route.
       canRead('Impression') ? timeline.impressionsOfSite(this.db, site.id) : none,
+      canRead('InsertChange') ? this.insertChanges.timelineRowsOfSite(site.id) : none,
     ]);
     const ids = [placements, restorations, parts, torque, recallExams, freeTextParts].flatMap((rows) =>
       rows.map((r: { id: string }) => r.id),
@@ -180,6 +189,7 @@ export class SitesService {
         passportMails,
         freeTextParts,
         impressions,
+        insertChanges,
         importMarks,
       },
       kinds,
