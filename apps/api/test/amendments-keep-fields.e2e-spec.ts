@@ -32,7 +32,7 @@ const KEPT_FIELDS_CASES: Record<string, string> = {
   'POST /radiograph-measurements/:id/amendments': "radiographs.e2e-spec.ts: the implant's true length is kept",
   'POST /impressions/:id/amendments': 'impressions.e2e-spec.ts: the scan bodies stay through a date-only amendment',
   'POST /insert-changes/:id/amendments':
-    'insert-changes.e2e-spec.ts: the parts and the note stay through a reason-only amendment',
+    'insert-changes.e2e-spec.ts: the old insert and the note the amendment leaves out are kept',
 };
 
 describe('the walk of every amendment route', () => {

@@ -571,7 +571,12 @@ const TABLE: Record<string, Case[]> = {
   }),
   'POST /api/insert-changes/:id/amendments': one({
     path: async () => `/api/insert-changes/${await fresh.insertChange()}/amendments`,
-    body: () => ({ reason: 'fracture', amendmentReason: 'It had split, not worn' }),
+    body: () => ({
+      changedOn: '2025-06-02',
+      newComponentId: ids.insertMedium,
+      reason: 'fracture',
+      amendmentReason: 'It had split, not worn',
+    }),
     expect: every(403, { dentist: 201, hygienist: 201, otherPracticeDentist: 404 }),
   }),
   'GET /api/sites/:id/timeline': one({ path: () => `/api/sites/${ids.harold35}/timeline`, expect: sharedRead }),
