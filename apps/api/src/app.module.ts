@@ -18,6 +18,7 @@ import { RecallsModule } from './recalls/recalls.module.js';
 import { SitesModule } from './sites/sites.module.js';
 import { CatalogueModule } from './catalogue/catalogue.module.js';
 import { ComplicationsModule } from './complications/complications.module.js';
+import { InsertChangesModule } from './insert-changes/insert-changes.module.js';
 import { LabPrescriptionsModule } from './lab-prescriptions/lab-prescriptions.module.js';
 import { RestorationsModule } from './restorations/restorations.module.js';
 import { TorqueModule } from './torque/torque.module.js';
@@ -56,6 +57,7 @@ export class AppModule {
         TorqueModule,
         PlacementsModule,
         ComplicationsModule,
+        InsertChangesModule,
         RecallsModule,
         RadiographsModule,
         SeatingModule,

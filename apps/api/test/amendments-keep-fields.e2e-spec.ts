@@ -31,6 +31,8 @@ const KEPT_FIELDS_CASES: Record<string, string> = {
   'POST /seating-checks/:id/amendments': 'seating-checks.e2e-spec.ts: the note the amendment leaves out',
   'POST /radiograph-measurements/:id/amendments': "radiographs.e2e-spec.ts: the implant's true length is kept",
   'POST /impressions/:id/amendments': 'impressions.e2e-spec.ts: the scan bodies stay through a date-only amendment',
+  'POST /insert-changes/:id/amendments':
+    'insert-changes.e2e-spec.ts: the old insert and the note the amendment leaves out are kept',
 };
 
 describe('the walk of every amendment route', () => {

@@ -557,6 +557,28 @@ const TABLE: Record<string, Case[]> = {
     body: () => ({ kind: 'screw-loosening', occurredOn: '2024-02-02', amendmentReason: 'Wrong kind chosen' }),
     expect: dentistWrite(201),
   }),
+  // Insert changes: the dentist, and the hygienist at recall; no share opens them (Beatrix is not shared).
+  'POST /api/insert-changes': one({
+    path: () => '/api/insert-changes',
+    body: () => ({
+      siteId: ids.beatrix33,
+      changedOn: '2025-09-09',
+      oldComponentId: ids.insertMedium,
+      newComponentId: ids.insertStrong,
+      reason: 'retention-loss',
+    }),
+    expect: every(403, { dentist: 201, hygienist: 201, otherPracticeDentist: 404 }),
+  }),
+  'POST /api/insert-changes/:id/amendments': one({
+    path: async () => `/api/insert-changes/${await fresh.insertChange()}/amendments`,
+    body: () => ({
+      changedOn: '2025-06-02',
+      newComponentId: ids.insertMedium,
+      reason: 'fracture',
+      amendmentReason: 'It had split, not worn',
+    }),
+    expect: every(403, { dentist: 201, hygienist: 201, otherPracticeDentist: 404 }),
+  }),
   'GET /api/sites/:id/timeline': one({ path: () => `/api/sites/${ids.harold35}/timeline`, expect: sharedRead }),
   'GET /api/recalls/desk': one({ path: () => '/api/recalls/desk', expect: every(200) }, 'scoped list'),
   'GET /api/recalls/desk/csv': one({ path: () => '/api/recalls/desk/csv', expect: every(200) }, 'scoped list'),
@@ -724,6 +746,18 @@ const TABLE: Record<string, Case[]> = {
     {
       path: () => '/api/practice/cantilever-settings',
       body: () => ({ cantileverRatioLimit: 1.5 }),
+      expect: adminOnly(200),
+    },
+    'own practice',
+  ),
+  'GET /api/practice/insert-review-settings': one(
+    { path: () => '/api/practice/insert-review-settings', expect: every(200) },
+    'own practice',
+  ),
+  'PUT /api/practice/insert-review-settings': one(
+    {
+      path: () => '/api/practice/insert-review-settings',
+      body: () => ({ insertReviewIntervalMonths: 12 }),
       expect: adminOnly(200),
     },
     'own practice',

@@ -154,6 +154,7 @@ describe('practice administrator', () => {
       'Radiograph',
       'Complication',
       'Impression',
+      'InsertChange',
     ] as const) {
       expect(a.can('create', row(type, inPractice))).toBe(false);
       expect(a.can('amend', row(type, inPractice))).toBe(false);
@@ -177,6 +178,22 @@ describe('impressions and their scan files', () => {
     const shared = { practiceId: PRACTICE, patientId: SHARED_PATIENT };
     expect(user('surgeon', [SHARED_PATIENT]).can('read', row('Impression', shared))).toBe(false);
     expect(user('surgeon').can('read', row('Impression', { practiceId: OTHER }))).toBe(false);
+  });
+});
+
+describe('retentive-insert changes (overdenture maintenance)', () => {
+  const own = { practiceId: PRACTICE, patientId: UNSHARED_PATIENT };
+  it('the dentist and the hygienist (at recall) record and amend them; the administrator reads them', () => {
+    for (const role of ['dentist', 'hygienist'] as const)
+      for (const action of ['read', 'create', 'amend'] as const)
+        expect(user(role).can(action, row('InsertChange', own))).toBe(true);
+    expect(user('practice_admin').can('read', row('InsertChange', own))).toBe(true);
+    expect(user('surgeon').can('create', row('InsertChange', own))).toBe(false);
+  });
+  it('no share opens them to a surgeon, and no other practice sees them', () => {
+    const shared = { practiceId: PRACTICE, patientId: SHARED_PATIENT };
+    expect(user('surgeon', [SHARED_PATIENT]).can('read', row('InsertChange', shared))).toBe(false);
+    expect(user('dentist').can('read', row('InsertChange', { practiceId: OTHER }))).toBe(false);
   });
 });
 

@@ -58,6 +58,11 @@ export type Subject =
    * own team only; no share opens them to a surgeon.
    */
   | 'Impression'
+  /**
+   * A retentive-insert change of an overdenture (maintenance): recorded by the dentist, and by the
+   * hygienist at recall; the practice's own follow-up, which no share opens to a surgeon.
+   */
+  | 'InsertChange'
   | 'Share'
   | 'AuditEntry'
   /** One patient's audit rows ("who accessed this record"): the dentist's and the admin's. */
@@ -144,6 +149,7 @@ export function defineAbilityFor(user: AbilityUser): AppAbility {
       );
       can(['read', 'create', 'amend'], 'Placement', own);
       can(['read', 'create', 'amend'], 'Impression', own);
+      can(['read', 'create', 'amend'], 'InsertChange', own);
       // Dentists examine implants at their own reviews too, not only the hygienist at recalls.
       can(['read', 'create', 'amend'], 'RecallExam', own);
       can('read', ['Catalogue', 'Wrench', 'RecallPolicy'], own);
@@ -166,13 +172,15 @@ export function defineAbilityFor(user: AbilityUser): AppAbility {
         own,
       );
       can(['read', 'create', 'amend'], ['RecallExam', 'Radiograph'], own);
+      // Changing a worn insert is maintenance the hygienist does at recall [decision].
+      can(['read', 'create', 'amend'], 'InsertChange', own);
       can('read', ['Catalogue', 'Wrench', 'RecallPolicy'], own);
       break;
     case 'surgeon': {
       can('read', 'Practice', { id: user.practiceId });
       // Own practice: a surgeon keeps the records of their own surgical practice.
       can('read', 'Patient', own);
-      can('read', PATIENT_RECORD, own);
+      can('read', [...PATIENT_RECORD, 'InsertChange'], own);
       can(['create', 'amend'], ['ImplantSite', 'Placement', 'Radiograph'], own);
       can('read', 'Catalogue', own);
       can('read', 'Outcomes', own);
@@ -185,7 +193,7 @@ export function defineAbilityFor(user: AbilityUser): AppAbility {
       can(['read', 'create', 'update'], 'User', own);
       can(['read', 'create', 'update', 'archive'], 'Patient', own);
       can('read', 'PatientVersion', own);
-      can('read', [...PATIENT_RECORD, 'Impression'], own);
+      can('read', [...PATIENT_RECORD, 'Impression', 'InsertChange'], own);
       can(['read', 'create', 'update'], ['Catalogue', 'Wrench', 'RecallPolicy'], own);
       // A practice bringing its history in: the administrator runs it (docs/import.md).
       can(['read', 'create'], 'LegacyImport', own);

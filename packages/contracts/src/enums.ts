@@ -218,6 +218,11 @@ export const COMPLICATION_KINDS = [
 export const ComplicationKind = z.enum(COMPLICATION_KINDS);
 export type ComplicationKind = z.infer<typeof ComplicationKind>;
 
+/** Why a retentive insert (or a bar clip) of an overdenture was changed. */
+export const INSERT_CHANGE_REASONS = ['retention-loss', 'wear', 'fracture'] as const;
+export const InsertChangeReason = z.enum(INSERT_CHANGE_REASONS);
+export type InsertChangeReason = z.infer<typeof InsertChangeReason>;
+
 /** In the order of a sitting: the Timeline orders the entries of one day by it. */
 export const TIMELINE_KINDS = [
   'placement',
@@ -239,6 +244,8 @@ export const TIMELINE_KINDS = [
   'passport-mail',
   // A part brought in by a legacy import that is not in the catalogue, kept as its free text.
   'imported-part',
+  // A retentive insert (or bar clip) of an overdenture changed at this site.
+  'insert-change',
 ] as const;
 export const TimelineKind = z.enum(TIMELINE_KINDS);
 export type TimelineKind = z.infer<typeof TimelineKind>;
@@ -259,13 +266,18 @@ export const REMINDER_STATUSES = ['pending', 'sent', 'failed', 'withheld'] as co
 export const ReminderStatus = z.enum(REMINDER_STATUSES);
 export type ReminderStatus = z.infer<typeof ReminderStatus>;
 
-/** 'provisional-overdue': a delivered provisional still in place after its planned replacement day. */
+/**
+ * 'provisional-overdue': a delivered provisional still in place after its planned replacement day.
+ * 'insert-review-overdue': a delivered overdenture whose last insert change (or its delivery when
+ * none is recorded) is older than the practice's insert review interval.
+ */
 export const DESK_FILTERS = [
   'all',
   'due-this-week',
   'overdue',
   'peri-implantitis-last',
   'provisional-overdue',
+  'insert-review-overdue',
 ] as const;
 /** The 'due-this-week' filter: recalls due from today to this many days ahead, inclusive. */
 export const DESK_DUE_SOON_DAYS = 7;

@@ -27,3 +27,4 @@ export * from './shares.js';
 export * from './records-out.js';
 export * from './csv.js';
 export * from './imports.js';
+export * from './insert-changes.js';

@@ -239,6 +239,21 @@ export const RecallDeskRow = z.object({
   provisionalsOverdue: z
     .array(z.object({ restorationId: Id, fdis: z.array(FdiPosition), plannedReplacementOn: IsoDate }))
     .optional(),
+  /**
+   * Delivered overdentures whose insert review is overdue: the last insert change of their sites
+   * (or the delivery when none) is older than the practice's interval. Absent for a shared
+   * surgeon's rows, like `provisionalsOverdue`.
+   */
+  insertReviewsOverdue: z
+    .array(
+      z.object({
+        restorationId: Id,
+        fdis: z.array(FdiPosition),
+        lastChangeOn: IsoDate.nullable(),
+        reviewDueOn: IsoDate,
+      }),
+    )
+    .optional(),
 });
 export type RecallDeskRow = z.infer<typeof RecallDeskRow>;
 export const RecallDeskReply = z.object({

@@ -12,6 +12,7 @@ import { outcomeRoutes } from './outcomes.js';
 import { shareRoutes } from './shares.js';
 import { recordsOutRoutes } from './records-out.js';
 import { importRoutes } from './imports.js';
+import { insertChangeRoutes } from './insert-changes.js';
 import { Me, SignInBody } from './auth.js';
 import { HealthReply, LivenessReply } from './health.js';
 import { PatientDetail, PatientListQuery, PatientListReply, patientRoutes } from './patients.js';
@@ -100,6 +101,7 @@ export const apiRoutes: RouteContract[] = [
   ...auditRoutes,
   ...recordsOutRoutes,
   ...importRoutes,
+  ...insertChangeRoutes,
 ];
 
 export type { RouteContract };

@@ -14,6 +14,7 @@ import {
   TorqueVerdict,
 } from './enums.js';
 import { SeatingSummary } from './seating.js';
+import { SiteInsertChanges } from './insert-changes.js';
 
 export const Placement = z.object({
   placedOn: IsoDate,
@@ -133,5 +134,10 @@ export const SiteFile = z.object({
   /** Parts from the implant outward: abutment or multi-unit, then screws. */
   parts: z.array(StackPart),
   restoration: StackRestoration.nullable(),
+  /**
+   * The insert changes of a site of a delivered overdenture (null on other sites). Absent for a
+   * shared surgeon [decision: insert maintenance is the practice's own follow-up].
+   */
+  insertChanges: SiteInsertChanges.nullable().optional(),
 });
 export type SiteFile = z.infer<typeof SiteFile>;

@@ -241,6 +241,11 @@ describe('package root answers through the public API', () => {
     ['recordsCantilevers', () => domain.recordsCantilevers('single-crown'), false],
     // provisional.test.ts [decision]: overdue from the day after the planned replacement
     ['provisionalOverdue', () => domain.provisionalOverdue('2026-11-30', '2026-12-01'), true],
+    // insert-changes.test.ts (Cehreli 2010 [memory]; 12 months [common practice]): overdue the day after
+    ['insertReviewOverdue', () => domain.insertReviewOverdue('2025-03-14', 12, '2026-03-15'), true],
+    ['insertReviewDueOn', () => domain.insertReviewDueOn('2025-03-14', 12), '2026-03-14'],
+    ['wholeMonthsBetween', () => domain.wholeMonthsBetween('2025-11-05', '2026-01-05'), 2],
+    ['insertChangeSummary', () => domain.insertChangeSummary(['2025-11-05'], '2026-02-01').daysSinceLast, 88],
   ])('%s', (_name, call, expected) => {
     expect(call()).toEqual(expected);
   });

@@ -257,6 +257,18 @@ export type { CantileverInput } from './cantilever.js';
 /** A provisional past its planned replacement date. */
 export { provisionalOverdue } from './provisional.js';
 
+// ---- retentive-insert changes --------------------------------------------------------------
+/** Interval since the last insert change, counts per year, the review's due day (12 months [common practice]). */
+export {
+  insertChangeSummary,
+  insertReviewDueOn,
+  insertReviewOverdue,
+  wholeMonthsBetween,
+  DEFAULT_INSERT_REVIEW_MONTHS,
+  INSERT_REVIEW_MONTHS_RANGE,
+} from './insert-changes.js';
+export type { InsertChangeSummary } from './insert-changes.js';
+
 // ---- recall --------------------------------------------------------------------------------
 /** Next recall date: 6 months, or 3 with any risk factor (practice policy). */
 export { nextRecallDate } from './recall-interval.js';

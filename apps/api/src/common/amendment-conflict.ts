@@ -16,6 +16,7 @@ const ALREADY_AMENDED: Record<AmendableTableName, string> = {
   radiograph_measurements: 'This measurement was already amended; amend its latest version',
   seating_checks: 'This seating check was already amended; amend its latest version',
   impressions: 'This impression was already amended; amend its latest version',
+  insert_changes: 'This insert change was already amended; amend its latest version',
 };
 
 /** 409 for an amendment of a version that a newer row already supersedes. */

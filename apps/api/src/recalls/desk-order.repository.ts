@@ -22,7 +22,7 @@ const inScope = (scope: Scope): SQL =>
     : sql`rs.practice_id = ${scope.practiceId}`;
 
 /** Each filter's condition on the summary row `rs`. */
-const FILTERS: Record<RecallDeskCsvQuery['filter'], (today: string) => SQL | null> = {
+const FILTERS: Record<RecallDeskCsvQuery['filter'], (today: string, scope: Scope) => SQL | null> = {
   all: () => null,
   overdue: (today) => sql`rs.next_due < ${today}::date`,
   // A recall due within the week and none overdue: the earliest scheduled recall is in the window.
@@ -31,7 +31,40 @@ const FILTERS: Record<RecallDeskCsvQuery['filter'], (today: string) => SQL | nul
   'peri-implantitis-last': () => sql`rs.peri_implantitis_last`,
   // A delivered provisional past its planned replacement day.
   'provisional-overdue': (today) => sql`rs.provisional_due < ${today}::date`,
+  // An overdenture whose insert review is overdue. Not a summary column: the review date follows the
+  // practice's interval, which an admin may change; overdentures are few, so the set is computed once
+  // per statement (an uncorrelated IN) from the practice's own delivered overdentures (insert
+  // changes are never shared).
+  'insert-review-overdue': (today, scope) =>
+    sql`rs.patient_id in (select o.patient_id from (${overdueInsertReviews(
+      today,
+      sql`ro.practice_id = ${scope.practiceId}`,
+    )}) o)`,
 };
+
+/**
+ * The delivered overdentures (current versions) whose insert review is overdue on `today`: the last
+ * current insert change on any of their sites since delivery — or the delivery when none — plus the
+ * practice's interval in months (PostgreSQL clamps the day like addCalendarMonths in the domain),
+ * is before today (insertReviewOverdue in @torquetrail/domain). Columns: id, patient_id,
+ * last_change, due_on. `where` narrows the restorations (alias ro).
+ */
+export const overdueInsertReviews = (today: string, where: SQL) =>
+  sql`select ro.id, ro.patient_id, lc.last_change, due.due_on
+      from restorations ro
+      join practices pr on pr.id = ro.practice_id
+      cross join lateral (
+        select max(ic.changed_on) as last_change from insert_changes ic
+        join restoration_sites irs on irs.site_id = ic.site_id and irs.restoration_id = ro.id
+        where ic.changed_on >= ro.delivered_on
+          and not exists (select 1 from insert_changes ic2 where ic2.supersedes_id = ic.id)
+      ) lc
+      cross join lateral (
+        select (coalesce(lc.last_change, ro.delivered_on) + make_interval(months => pr.insert_review_interval_months))::date as due_on
+      ) due
+      where ${where} and ro.status = 'delivered' and ro.kind in ('overdenture-studs', 'overdenture-bar')
+        and not exists (select 1 from restorations rn where rn.supersedes_id = ro.id)
+        and due.due_on < ${today}::date`;
 
 export interface DeskOrder {
   /**
@@ -60,7 +93,7 @@ export function deskOrder(scope: Scope, today: string, q: RecallDeskCsvQuery, li
       sql`exists (select 1 from patients pa where pa.id = rs.patient_id and ${sql.join(matches, sql` and `)})`,
     );
   }
-  const filter = FILTERS[q.filter](today);
+  const filter = FILTERS[q.filter](today, scope);
   if (filter) where.push(filter);
   const cond = sql.join(where, sql` and `);
   const dir = sql.raw(q.dir === 'desc' ? 'desc' : 'asc');

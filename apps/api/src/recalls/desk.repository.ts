@@ -7,7 +7,7 @@ import type pg from 'pg';
 import type { Db } from '../db/database.js';
 import { cursorBatches } from '../db/cursor.js';
 import type { Scope } from '../authz/scope.js';
-import { deskOrder } from './desk-order.repository.js';
+import { deskOrder, overdueInsertReviews } from './desk-order.repository.js';
 
 /** A desk row with the patient's contact details, for the CSV only (the service decides who sees them). */
 export interface DeskRowWithContact extends RecallDeskRow {
@@ -36,6 +36,7 @@ interface DeskSqlRow {
   last_exam_on: string | null;
   sites: { siteId: string; fdi: number; status: string | null; examinedOn: string | null }[];
   provisionals_overdue: { restorationId: string; fdis: number[]; plannedReplacementOn: string }[];
+  insert_reviews_overdue: { restorationId: string; fdis: number[]; lastChangeOn: string | null; reviewDueOn: string }[];
 }
 
 export async function queryDesk(
@@ -108,7 +109,14 @@ function deskStatement(
              from restorations rp
              where rp.patient_id = pa.id and rp.provisional and rp.status = 'delivered'
                and rp.planned_replacement_on < ${today}::date
-           ), '[]'::json) else '[]'::json end as provisionals_overdue
+           ), '[]'::json) else '[]'::json end as provisionals_overdue,
+           coalesce((
+             select json_agg(json_build_object('restorationId', o.id, 'lastChangeOn', o.last_change, 'reviewDueOn', o.due_on,
+                      'fdis', (select json_agg(s.fdi order by s.fdi) from restoration_sites rs
+                               join implant_sites s on s.id = rs.site_id where rs.restoration_id = o.id))
+                    order by o.due_on)
+             from (${overdueInsertReviews(today, sql`ro.patient_id = pa.id`)}) o
+           ), '[]'::json) as insert_reviews_overdue
     from page join patients pa on pa.id = page.patient_id
     order by ${order.orderBy('page')}
   `;
@@ -131,6 +139,7 @@ function toDeskRow(r: DeskSqlRow): DeskRowWithContact {
       lastExamOn: s.examinedOn,
     })),
     provisionalsOverdue: r.provisionals_overdue.map((p) => ({ ...p, fdis: p.fdis ?? [] })),
+    insertReviewsOverdue: r.insert_reviews_overdue.map((p) => ({ ...p, fdis: p.fdis ?? [] })),
     riskFactors: {
       smoker: r.smoker,
       diabetesPoorlyControlled: r.diabetes_poorly_controlled,

@@ -130,7 +130,7 @@ function sharedLeastPrivilege(ability: AppAbility, scope: Scope, rows: DeskRowWi
       ability.can('read', subject('RecallExam', { patientId: row.patientId, siteId: s.siteId })),
     );
     if (sites.length === 0) return [];
-    const { riskFactors, provisionalsOverdue: _own, ...rest } = row;
+    const { riskFactors, provisionalsOverdue: _own, insertReviewsOverdue: _inserts, ...rest } = row;
     return [
       withContact({ ...rest, sites, ...(fields === null || fields.includes('riskFactors') ? { riskFactors } : {}) }),
     ];

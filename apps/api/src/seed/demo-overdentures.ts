@@ -2,8 +2,11 @@
 // Beatrix Lindqvist wears a mandibular two-implant overdenture on stud attachments since 2016 (the
 // first-choice treatment of the McGill and York consensus statements); Otto Ravensworth a maxillary
 // bar overdenture on four implants; Agnes Thornbury has two implants healing at 33 and 43, to plan.
-import { addCalendarDays as addDays } from '@torquetrail/domain';
-import { addPatient, addSite, birthDate, type Ctx, install, place, restoration, seated } from './demo-builders.js';
+// Beatrix's inserts are changed about yearly (the last change five months ago, so her review is not
+// due); Otto's clips were never changed since 2021, so his insert review is overdue on the desk.
+import { addCalendarDays as addDays, addCalendarMonths } from '@torquetrail/domain';
+import { at, addPatient, addSite, birthDate, type Ctx, install, place, restoration, seated } from './demo-builders.js';
+import { insertChanges } from '../db/schema/index.js';
 
 const LOWER_ARCH = [31, 32, 33, 34, 35, 36, 37, 38, 41, 42, 43, 44, 45, 46, 47, 48];
 const UPPER_ARCH = [11, 12, 13, 14, 15, 16, 17, 18, 21, 22, 23, 24, 25, 26, 27, 28];
@@ -77,6 +80,8 @@ export async function seedOverdenturePatients(ctx: Ctx, today: string): Promise<
       installedOn: '2016-03-14',
     });
   }
+
+  await seedBeatrixInsertChanges(ctx, { patientId: beatrix, restorationId: studs, siteIds: beatrixSiteIds }, today);
 
   // Otto Ravensworth: a bar screwed to four maxillary implants, two clips in the denture.
   const otto = await addPatient(tx, practiceId, {
@@ -184,4 +189,47 @@ export async function seedOverdenturePatients(ctx: Ctx, today: string): Promise<
     });
   }
   return { patients: 3, sites: 8 };
+}
+
+/**
+ * Beatrix's yearly insert changes since the 2016 delivery (invented): worn medium inserts replaced
+ * by medium ones, a retention loss answered with strong inserts, one fractured insert at 43 alone.
+ */
+async function seedBeatrixInsertChanges(
+  ctx: Ctx,
+  b: { patientId: string; restorationId: string; siteIds: string[] },
+  today: string,
+) {
+  const parts = ctx.catalogue.get('MHX-4.1')!.parts;
+  const dates: string[] = [];
+  for (let d = addCalendarMonths(today, -5); d > '2016-09-14'; d = addCalendarMonths(d, -12)) dates.unshift(d);
+  const hygienist = ctx.userIds.get('maren.holt@larkspur.example')!;
+  let strength = 'insert-medium';
+  for (const [i, changedOn] of dates.entries()) {
+    const reason = i === 4 ? 'retention-loss' : i === 6 ? 'fracture' : 'wear';
+    const next = i >= 4 ? 'insert-strong' : 'insert-medium';
+    const notes =
+      reason === 'retention-loss'
+        ? 'The denture lifts when eating; stronger inserts fitted'
+        : reason === 'fracture'
+          ? 'Insert split at 43; 33 still holding'
+          : null;
+    // A fractured insert is changed at its own site only.
+    const sites = reason === 'fracture' ? b.siteIds.slice(1) : b.siteIds;
+    for (const siteId of sites)
+      await ctx.tx.insert(insertChanges).values({
+        practiceId: ctx.practiceId,
+        patientId: b.patientId,
+        siteId,
+        restorationId: b.restorationId,
+        changedOn,
+        oldComponentId: parts.get(strength)!,
+        newComponentId: parts.get(next)!,
+        reason,
+        notes,
+        recordedBy: hygienist,
+        recordedAt: at(changedOn, '11:00'),
+      });
+    strength = next;
+  }
 }

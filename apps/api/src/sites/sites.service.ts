@@ -12,6 +12,7 @@ import { isRetrievable, retorqueDueAt, seatingTorqueMissing } from '@torquetrail
 import { assertCan, type Scope } from '../authz/scope.js';
 import { datePrinter } from '../common/printed-dates.js';
 import { DB, type Database } from '../db/database.js';
+import { InsertChangesService } from '../insert-changes/insert-changes.service.js';
 import { MaintenanceStatusService } from '../recalls/maintenance-status.service.js';
 import {
   currentTorqueOfSite,
@@ -33,13 +34,15 @@ type ReadableType =
   | 'RecallExam'
   | 'Radiograph'
   | 'ReferralSummary'
-  | 'Impression';
+  | 'Impression'
+  | 'InsertChange';
 
 @Injectable()
 export class SitesService {
   constructor(
     @Inject(DB) private readonly db: Database,
     private readonly maintenance: MaintenanceStatusService,
+    private readonly insertChanges: InsertChangesService,
   ) {}
 
   private async visible(ability: AppAbility, scope: Scope, siteId: string) {
@@ -62,13 +65,16 @@ export class SitesService {
     const readTorque = canRead('TorqueEvent') && readParts;
     const readRestoration = canRead('Restoration');
     // Everything after the access check in one round of parallel reads, each keyed by the site.
-    const [placement, parts, restoration, torque, seatings, latestExam] = await Promise.all([
+    // Insert changes are the practice's own follow-up: absent (not null) where the reader may not see them.
+    const readInserts = canRead('InsertChange');
+    const [placement, parts, restoration, torque, seatings, latestExam, insertChanges] = await Promise.all([
       canRead('Placement') ? findCurrentPlacement(this.db, site.id) : null,
       readParts ? listCurrentParts(this.db, site.id) : [],
       readRestoration ? findCurrentRestoration(this.db, site.id) : null,
       readTorque ? currentTorqueOfSite(this.db, site.id) : [],
       readRestoration ? deliverySeatingOfSite(this.db, site.id) : [],
       canRead('RecallExam') ? this.maintenance.latestBySite([site.id]) : null,
+      readInserts ? this.insertChanges.ofSite(site.id, site.practiceId) : null,
     ]);
     // Oldest first, so the last entry of a part is its latest.
     const lastTorque = new Map(torque.map((t) => [t.instanceId, t]));
@@ -129,6 +135,7 @@ export class SitesService {
               : null,
           }
         : null,
+      ...(readInserts ? { insertChanges } : {}),
     };
   }
 
@@ -158,6 +165,7 @@ export class SitesService {
       passportMails,
       freeTextParts,
       impressions,
+      insertChanges,
     ] = await Promise.all([
       canRead('Placement') ? timeline.placementsOfSite(this.db, site.id) : none,
       canRead('Restoration') ? timeline.restorationsOfSite(this.db, site.id) : none,
@@ -173,6 +181,7 @@ export class SitesService {
       canRead('ComponentInstance') ? timeline.freeTextPartsOfSite(this.db, site.id) : none,
       // Impressions are the practice's (no share opens them): the ability decides, as for the route.
       canRead('Impression') ? timeline.impressionsOfSite(this.db, site.id) : none,
+      canRead('InsertChange') ? this.insertChanges.timelineRowsOfSite(site.id) : none,
     ]);
     const ids = [placements, restorations, parts, torque, recallExams, freeTextParts].flatMap((rows) =>
       rows.map((r: { id: string }) => r.id),
@@ -194,6 +203,7 @@ export class SitesService {
         passportMails,
         freeTextParts,
         impressions,
+        insertChanges,
         importMarks,
       },
       kinds,

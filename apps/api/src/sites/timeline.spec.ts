@@ -19,6 +19,7 @@ const empty: TimelineRows = {
   passportMails: [],
   freeTextParts: [],
   impressions: [],
+  insertChanges: [],
   importMarks: [],
 };
 const torque = (id: string, performedAt: string, amended = false) => ({
@@ -42,6 +43,43 @@ const torque = (id: string, performedAt: string, amended = false) => ({
 });
 
 describe('buildTimeline', () => {
+  it('charts each insert change with the strengths the catalogue states, an amended one kept and marked', () => {
+    const part = (retentionLabel: string, retentionN: number | null) => ({
+      name: `Insert, ${retentionLabel}`,
+      retentionLabel,
+      retentionN,
+    });
+    const change = {
+      id: 'i1',
+      changedOn: '2025-03-10',
+      reason: 'retention-loss',
+      notes: 'Denture lifts when chewing',
+      supersedesId: null,
+      amendmentReason: null,
+      recordedByName: 'Hygienist',
+      recordedAt: at('2025-03-10T09:00:00Z'),
+      amended: true,
+      oldPart: part('medium', 13),
+      newPart: part('strong', null),
+    };
+    const amendment = {
+      ...change,
+      id: 'i2',
+      supersedesId: 'i1',
+      amendmentReason: 'Wrong strength',
+      recordedAt: at('2025-03-11T09:00:00Z'),
+      amended: false,
+      oldPart: null,
+    };
+    const events = buildTimeline('s', { ...empty, insertChanges: [amendment, change] }).events;
+    expect(events.map((e) => [e.id, e.kind, e.amended])).toEqual([
+      ['i1', 'insert-change', true],
+      ['i2', 'insert-change', false],
+    ]);
+    expect(events[0].title).toBe('Retentive insert changed: medium, 13 N → strong (retention loss)');
+    expect(events[1].title).toBe('Insert change (amended record): strong (retention loss)');
+    expect(events[0].detail).toBe('Denture lifts when chewing');
+  });
   it('orders by day, then the order of a sitting (complication before its torque), then time', () => {
     const rows: TimelineRows = {
       ...empty,

@@ -34,9 +34,30 @@ export interface TimelineRows {
   referralSummaries: Rows<'referralSummariesOfSite'>;
   passportMails: Rows<'passportMailsOfSite'>;
   freeTextParts: Rows<'freeTextPartsOfSite'>;
+  /** Retentive-insert changes of an overdenture (InsertChangesService), amended ones too. */
+  insertChanges: InsertChangeRow[];
   /** Which of the entries a legacy import wrote, from which file and row (docs/import.md). */
   importMarks: Rows<'importMarksOf'>;
 }
+
+/** An insert change as the Timeline reads it. */
+interface InsertChangeRow {
+  id: string;
+  changedOn: string;
+  reason: string;
+  notes: string | null;
+  supersedesId: string | null;
+  amendmentReason: string | null;
+  recordedByName: string | null;
+  recordedAt: Date;
+  amended: boolean;
+  oldPart: { name: string; retentionLabel: string | null; retentionN: number | null } | null;
+  newPart: { name: string; retentionLabel: string | null; retentionN: number | null };
+}
+
+/** An insert's strength as the catalogue states it: its label, and its force when stated. */
+const strength = (p: InsertChangeRow['newPart']) =>
+  [p.retentionLabel ?? p.name, p.retentionN !== null ? `${p.retentionN} N` : null].filter(Boolean).join(', ');
 
 /** What a seating check found, in the words of the Timeline's titles. */
 const SEATED_WORDS: Record<SeatingAnswer, string> = { yes: 'seated', no: 'not seated', unsure: 'unclear' };
@@ -279,6 +300,25 @@ export function buildTimeline(
         code: c.kind,
         componentInstanceId: c.componentInstanceId,
         byName: c.byName,
+        amended: c.amended,
+        supersedesId: c.supersedesId,
+        amendmentReason: c.amendmentReason,
+      },
+    );
+    events.push(event);
+    recorded.set(event, c.recordedAt.toISOString());
+  }
+  for (const c of rows.insertChanges) {
+    const event = base(
+      'insert-change',
+      c.id,
+      day(c.changedOn),
+      true,
+      `${c.supersedesId ? 'Insert change (amended record)' : 'Retentive insert changed'}: ${c.oldPart ? `${strength(c.oldPart)} → ` : ''}${strength(c.newPart)} (${text(c.reason)})`,
+      {
+        detail: c.notes,
+        code: c.reason,
+        byName: c.recordedByName,
         amended: c.amended,
         supersedesId: c.supersedesId,
         amendmentReason: c.amendmentReason,

@@ -10,6 +10,7 @@ import { type AccountKey, patientId, siteId, type TestContext } from './test-app
 export async function scenarioTargets(ctx: TestContext, cookies: Record<AccountKey, string>) {
   const larkspur = await larkspurId(ctx.db);
   const tex = await parts(ctx.db, larkspur, 'Tessely EX 4.1');
+  const mhx = await parts(ctx.db, larkspur, 'Miravik HX 4.1');
   const ids = {
     harold: await patientId(ctx.db, 'LL-1001'),
     lucia: await patientId(ctx.db, 'LL-1004'),
@@ -19,6 +20,10 @@ export async function scenarioTargets(ctx: TestContext, cookies: Record<AccountK
     wendell15: await siteId(ctx.db, 'LL-1005', 15),
     wendell16: await siteId(ctx.db, 'LL-1005', 16),
     scn35: await platformId(ctx.db, larkspur, 'Solvra CN 3.5'),
+    /** Beatrix Lindqvist's stud overdenture site (not shared) and the demo inserts. */
+    beatrix33: await siteId(ctx.db, 'LL-1006', 33),
+    insertMedium: mhx('RI-M'),
+    insertStrong: mhx('RI-S'),
   };
   const [haroldScrew] = await ctx.db
     .select({ id: componentInstances.id })
@@ -190,6 +195,17 @@ export async function scenarioTargets(ctx: TestContext, cookies: Record<AccountK
           .set('Cookie', cookies.dentist)
           .send({ siteId: ids.harold35, kind: 'other', occurredOn: '2024-02-02' }),
         'complication',
+      ),
+    insertChange: async () =>
+      created(
+        await ctx.http.post('/api/insert-changes').set('Cookie', cookies.dentist).send({
+          siteId: ids.beatrix33,
+          changedOn: '2025-06-02',
+          oldComponentId: ids.insertMedium,
+          newComponentId: ids.insertMedium,
+          reason: 'wear',
+        }),
+        'insert change',
       ),
     exam: async () => {
       const res = await ctx.http

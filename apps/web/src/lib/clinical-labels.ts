@@ -3,6 +3,7 @@
 import {
   ABUTMENT_KINDS,
   type ComplicationKind,
+  type InsertChangeReason,
   type ComponentKind,
   type Connection,
   type FindingSeverity,
@@ -165,6 +166,13 @@ export const COMPLICATION_KIND_LABEL: Record<ComplicationKind, string> = {
   'veneer-chipping': 'Veneer chipping',
   'framework-fracture': 'Framework fracture',
   other: 'Other',
+};
+
+/** Why a retentive insert (or bar clip) was changed, in plain words. */
+export const INSERT_CHANGE_REASON_LABEL: Record<InsertChangeReason, string> = {
+  'retention-loss': 'Retention lost (the denture lifts)',
+  wear: 'Worn',
+  fracture: 'Broken',
 };
 
 /** Column heads of the probing grid (the full names are the values themselves, used in field names). */

@@ -84,6 +84,7 @@ export const TIMELINE_KIND_LABEL: Record<TimelineKind, string> = {
   'referral-summary': 'Referral summary',
   'passport-mail': 'Passport e-mailed',
   'imported-part': 'Imported part',
+  'insert-change': 'Insert change',
 };
 
 export const DESK_FILTER_LABEL: Record<DeskFilter, string> = {
@@ -92,6 +93,7 @@ export const DESK_FILTER_LABEL: Record<DeskFilter, string> = {
   overdue: 'Overdue',
   'peri-implantitis-last': 'Peri-implantitis last time',
   'provisional-overdue': 'Provisional past its planned replacement',
+  'insert-review-overdue': 'Overdenture insert review overdue',
 };
 
 /** Column heads of the Recall desk's sortable columns. */

@@ -12,6 +12,7 @@ export const AMENDABLE_TABLES = [
   'radiograph_measurements',
   'seating_checks',
   'impressions',
+  'insert_changes',
 ] as const;
 export type AmendableTableName = (typeof AMENDABLE_TABLES)[number];
 

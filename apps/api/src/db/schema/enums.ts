@@ -5,6 +5,7 @@ import {
   AUDIT_ACTIONS,
   AUDIT_OUTCOMES,
   COMPLICATION_KINDS,
+  INSERT_CHANGE_REASONS,
   COMPONENT_KINDS,
   CONNECTIONS,
   IMPLANT_INTERFACES,
@@ -60,6 +61,7 @@ export const torqueVerdictEnum = pgEnum('torque_verdict', TORQUE_VERDICTS);
 export const wrenchTypeEnum = pgEnum('wrench_type', WRENCH_TYPES);
 
 export const complicationKindEnum = pgEnum('complication_kind', COMPLICATION_KINDS);
+export const insertChangeReasonEnum = pgEnum('insert_change_reason', INSERT_CHANGE_REASONS);
 export const periImplantStatusEnum = pgEnum('peri_implant_status', PERI_IMPLANT_STATUSES);
 export const probingSiteEnum = pgEnum('probing_site', PROBING_POSITIONS);
 export const recallStatusEnum = pgEnum('recall_status', RECALL_STATUSES);

@@ -1,6 +1,10 @@
 import { boolean, index, integer, numeric, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
 import { dateFormatEnum, roleEnum } from './enums.js';
-import { DEFAULT_CALIBRATION_INTERVAL_MONTHS, DEFAULT_CANTILEVER_RATIO } from '@torquetrail/domain';
+import {
+  DEFAULT_CALIBRATION_INTERVAL_MONTHS,
+  DEFAULT_CANTILEVER_RATIO,
+  DEFAULT_INSERT_REVIEW_MONTHS,
+} from '@torquetrail/domain';
 
 export const practices = pgTable('practices', {
   id: uuid('id').primaryKey().defaultRandom(),
@@ -31,6 +35,8 @@ export const practices = pgTable('practices', {
   cantileverRatioLimit: numeric('cantilever_ratio_limit', { precision: 3, scale: 1, mode: 'number' })
     .notNull()
     .default(DEFAULT_CANTILEVER_RATIO),
+  /** An overdenture's insert review falls due this many months after its last insert change (or delivery). */
+  insertReviewIntervalMonths: integer('insert_review_interval_months').notNull().default(DEFAULT_INSERT_REVIEW_MONTHS),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 });
 

@@ -12,5 +12,6 @@ export const recallKeys = {
   examContext: (patientId: string) => [...recallKeys.examContexts(), patientId] as const,
   siteExams: (siteId: string) => [...recallKeys.all, 'site-exams', siteId] as const,
   policy: () => [...recallKeys.all, 'policy'] as const,
+  insertReview: () => [...recallKeys.all, 'insert-review'] as const,
   reminders: () => [...recallKeys.all, 'reminders'] as const,
 };

@@ -17,6 +17,7 @@ import { LoadingState } from '../../../lib/components/loading-state';
 import { applyServerErrors, FormField, formErrorMessage, NumberInput, useContractForm } from '../../../lib/forms';
 import { useRecallPolicy, useUpdatePolicy } from '../api/recalls-api';
 import { runMutation } from '../../../lib/run-mutation';
+import { InsertReviewSection } from '../components/insert-review-settings';
 
 const riskFactors = RECALL_RISK_FACTORS.map((factor, i) =>
   i === 0 ? RISK_FACTOR_LABEL[factor] : RISK_FACTOR_LABEL[factor].toLowerCase(),
@@ -64,6 +65,7 @@ export function PolicyRoute() {
         {policy.data.isDefault ? 'The defaults are in use.' : ''}
       </p>
       {canEdit ? <PolicyForm policy={policy.data} /> : <PolicySummary policy={policy.data} />}
+      <InsertReviewSection />
     </div>
   );
 }

@@ -172,6 +172,21 @@ export function RecallDeskRoute() {
                         {formatDate(p.plannedReplacementOn)}
                       </Tag>
                     ))}
+                    {r.insertReviewsOverdue?.map((o) => (
+                      <Tag
+                        key={o.restorationId}
+                        minimal
+                        icon="exchange"
+                        className="recall-desk__provisional"
+                        data-testid="desk-insert-review-overdue"
+                      >
+                        Overdenture at {o.fdis.join(', ')}: insert review due {formatDate(o.reviewDueOn)} (
+                        {o.lastChangeOn
+                          ? `last insert change ${formatDate(o.lastChangeOn)}`
+                          : 'no change since delivery'}
+                        )
+                      </Tag>
+                    ))}
                   </td>
                   <td>
                     {riskText(r.riskFactors).map((t) => (

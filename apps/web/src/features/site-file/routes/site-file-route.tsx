@@ -12,6 +12,7 @@ import { useSiteFile } from '../api/get-site-file';
 import { SiteFileHeader } from '../components/site-file-header';
 import { Stack } from '../components/stack';
 import { Timeline } from '../../timeline';
+import { InsertChangesCard } from '../../insert-changes';
 import { ProbingDepthChart } from '../../recalls';
 import { BoneLevelChart, SiteRadiographs } from '../../radiographs';
 
@@ -74,6 +75,7 @@ export function SiteFileRoute() {
         </Can>
       )}
       <Stack site={data} system={system} />
+      <InsertChangesCard site={data} />
       <p className="site-file__links">
         <Link to={`/patients/${data.patientId}/restorations`}>Restorations and planner of {data.patientName}</Link>
       </p>

@@ -32,6 +32,7 @@ const KIND_ICON: Record<TimelineKind, IconName> = {
   'referral-summary': 'envelope',
   'passport-mail': 'envelope',
   'imported-part': 'cube-add',
+  'insert-change': 'exchange',
 };
 
 /** A radiograph entry's thumbnail, or the link to the radiograph an entry was read from. */
