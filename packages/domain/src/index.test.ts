@@ -241,6 +241,18 @@ describe('package root answers through the public API', () => {
     ['recordsCantilevers', () => domain.recordsCantilevers('single-crown'), false],
     // provisional.test.ts [decision]: overdue from the day after the planned replacement
     ['provisionalOverdue', () => domain.provisionalOverdue('2026-11-30', '2026-12-01'), true],
+    // part-fit.test.ts [common practice]: a restoration on multi-units is recorded at multi-unit level
+    ['impressionLevelFor', () => domain.impressionLevelFor('screw-to-multi-unit'), 'multi-unit'],
+    [
+      'impressionLevelFindings',
+      () => domain.impressionLevelFindings('screw-to-implant', 36, 'coping', { name: 'C', copingLevel: 'implant' }),
+      [],
+    ],
+    [
+      'engagingFindings',
+      () => domain.engagingFindings({ kind: 'single-crown' }, [{ fdi: 36, abutment: { name: 'A', engaging: true } }]),
+      [],
+    ],
   ])('%s', (_name, call, expected) => {
     expect(call()).toEqual(expected);
   });
