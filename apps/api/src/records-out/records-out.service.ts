@@ -52,12 +52,13 @@ export class RecordsOutService {
   }
 
   private async snapshot(patient: Patient): Promise<RecordSnapshot> {
-    const [placements, restorations, parts, exams, nextRecallOn] = await Promise.all([
+    const [placements, restorations, parts, exams, nextRecallOn, impressions] = await Promise.all([
       repo.placementsOfPatient(this.db, patient.id),
       repo.deliveredRestorationsOfPatient(this.db, patient.id),
       repo.partsOfPatient(this.db, patient.id),
       repo.examsOfPatient(this.db, patient.id),
       repo.nextRecallOf(this.db, patient.id),
+      this.impressionRows(patient.id),
     ]);
     const [torque, probing] = await Promise.all([
       repo.torqueOfParts(
@@ -78,7 +79,7 @@ export class RecordsOutService {
       exams,
       probing,
       nextRecallOn,
-      impressions: await this.impressionRows(patient.id),
+      impressions,
     });
   }
 
