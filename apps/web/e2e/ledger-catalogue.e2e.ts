@@ -120,3 +120,51 @@ describe('catalogue search (issue 15 §7)', () => {
     expect(h.problems.filter((p) => !/status of 401/.test(p))).toEqual([]);
   });
 });
+
+describe('adding a part with the values its kind needs (issue 16 §5)', () => {
+  it('the inputs follow the kind, carry the caution, and a bad tolerance is refused beside the field', async () => {
+    await h.reset(); // this test writes: a retry starts from the seed
+    const page = await h.newPage();
+    await signInAs(page, 'odile.park@larkspur.example');
+    await page.getByRole('link', { name: 'Catalogue' }).click();
+    await page.waitForURL(/\/catalogue$/);
+    const platform = page.getByTestId('catalogue-platform').filter({ hasText: 'Solvra CN 4.3:' });
+    await platform.getByRole('button', { name: 'Add part' }).click();
+    const form = platform.getByRole('form', { name: 'Add part' });
+    expect(await form.getByTestId('part-values-caution').textContent()).toMatch(/manufacturer's instructions/);
+
+    // A scan body states its coping level; an attachment its divergence tolerance and collar height.
+    await form.getByLabel('Kind').selectOption('scan-body');
+    await expect.poll(() => form.getByLabel('Coping level').count()).toBe(1);
+    expect(await form.getByLabel(/Divergence tolerance/).count()).toBe(0);
+    await form.getByLabel('Kind').selectOption('attachment-abutment');
+    await expect.poll(() => form.getByLabel(/Divergence tolerance/).count()).toBe(1);
+    expect(await form.getByLabel('Coping level').count()).toBe(0);
+    await form.getByLabel('Name').fill('Stud attachment, 4 mm collar');
+    await form.getByLabel('Reference').fill('SCN-43-ST4');
+    await form.getByLabel(/^Engaging/).selectOption('no');
+    await form.getByLabel(/Collar height/).fill('4');
+    await form.getByLabel(/Divergence tolerance/).fill('120');
+    await form.getByLabel(/Torque/).fill('25');
+    await form.getByRole('button', { name: 'Add part' }).click();
+    await expect.poll(() => form.getByTestId('error-maxDivergenceDeg').textContent()).toMatch(/At most 90°/);
+    // Nothing typed is lost: the other values are still there.
+    expect(await form.getByLabel('Name').inputValue()).toBe('Stud attachment, 4 mm collar');
+    await form.getByLabel(/Divergence tolerance/).fill('20');
+    await form.getByRole('button', { name: 'Add part' }).click();
+    const row = page.getByTestId('catalogue-part').filter({ hasText: 'SCN-43-ST4' });
+    await expect.poll(() => row.count()).toBe(1);
+    expect(await row.getByTestId('catalogue-part-values').textContent()).toMatch(
+      /collar 4 mm, up to 20° between implants/,
+    );
+
+    // The row's edit is the same field set: state the coping level of the seeded scan body.
+    const scanBody = page.getByTestId('catalogue-part').filter({ hasText: 'SCN-43-SB' });
+    await scanBody.getByRole('button', { name: 'Edit' }).click();
+    await scanBody.getByLabel(/Coping level of SCN-43-SB/).selectOption('multi-unit');
+    await scanBody.getByRole('button', { name: 'Save' }).click();
+    await expect.poll(() => scanBody.textContent()).toMatch(/on a multi-unit abutment/);
+    await screenshot(page, 'catalogue-add-part-values');
+    expect(h.problems.filter((p) => !/status of (400|401|404)/.test(p))).toEqual([]);
+  });
+});

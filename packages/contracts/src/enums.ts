@@ -5,6 +5,7 @@
 import { ROLES, SHARE_SCOPES } from '@torquetrail/authz';
 import {
   ACTIONABLE_SEVERITIES,
+  COPING_LEVELS,
   FINDING_SEVERITIES,
   IMPLANT_INTERFACES,
   IMPRESSION_COPINGS,
@@ -24,6 +25,7 @@ export {
   ROLES,
   SHARE_SCOPES,
   ACTIONABLE_SEVERITIES,
+  COPING_LEVELS,
   FINDING_SEVERITIES,
   IMPLANT_INTERFACES,
   IMPRESSION_COPINGS,
@@ -153,6 +155,10 @@ export const STACK_ORDER: readonly ComponentKind[] = [
   'impression-coping',
   'scan-body',
 ];
+
+/** Impression copings and scan bodies: on the implant, or on a multi-unit abutment (the domain's list). */
+export const CopingLevel = z.enum(COPING_LEVELS, { error: 'Choose implant level or multi-unit' });
+export type CopingLevel = z.infer<typeof CopingLevel>;
 
 export const TRAYS = ['open', 'closed'] as const;
 export const Tray = z.enum(TRAYS);

@@ -2,7 +2,16 @@
 import { z } from 'zod';
 import { CALIBRATION_INTERVAL_RANGE, isValidGtin, PART_ANGLE_RANGE_DEG, TORQUE_NCM_RANGE } from '@torquetrail/domain';
 import { Id, IsoDate, IsoDateTime, NoteText, PlainText } from './common.js';
-import { ComponentKind, Connection, Tray, WrenchType } from './enums.js';
+import {
+  ABUTMENT_KINDS,
+  type ComponentKind as ComponentKindValue,
+  ComponentKind,
+  Connection,
+  CopingLevel,
+  DENTURE_RETAINER_KINDS,
+  Tray,
+  WrenchType,
+} from './enums.js';
 
 /** Shown on the catalogue and every torque form. */
 export const MANUFACTURER_CAUTION =
@@ -24,6 +33,8 @@ export const CatalogueComponent = z.object({
   /** Retentive inserts and clips: the retention force in newtons, when the catalogue states one. */
   retentionN: z.number().nullable(),
   tray: Tray.nullable(),
+  /** Impression copings and scan bodies: on the implant or on a multi-unit abutment (shown with the caution). */
+  copingLevel: CopingLevel.nullable(),
   /** null = hand-tight. */
   torqueSpecNcm: z.number().nullable(),
   tolerancePct: z.number(),
@@ -107,16 +118,60 @@ const collarHeightMm = z
 /** An attachment's stated divergence tolerance between two implants, degrees, inclusive. */
 export const MAX_DIVERGENCE_DEG_RANGE = Object.freeze({ min: 0, max: 90 } as const);
 const maxDivergenceDeg = z
-  .number()
+  .number({ error: 'Enter the tolerance in degrees, e.g. 20' })
   .min(MAX_DIVERGENCE_DEG_RANGE.min, 'Cannot be negative')
   .max(MAX_DIVERGENCE_DEG_RANGE.max, `At most ${MAX_DIVERGENCE_DEG_RANGE.max}°`);
 /** A retentive insert's stated force, N, inclusive. */
 export const RETENTION_N_RANGE = Object.freeze({ min: 0, max: 100 } as const);
 const retentionN = z
-  .number()
+  .number({ error: 'Enter the force in newtons, e.g. 12' })
   .min(RETENTION_N_RANGE.min, 'Cannot be negative')
   .max(RETENTION_N_RANGE.max, `At most ${RETENTION_N_RANGE.max} N`);
 const retentionLabel = PlainText(40);
+
+/**
+ * Which of the values the rules and the lab read belong to which kind of part: the add and edit
+ * forms offer these inputs only, and the API refuses one given for another kind (beside the field).
+ */
+export const PART_VALUES_BY_KIND = Object.freeze({
+  engaging: [...ABUTMENT_KINDS, 'multi-unit-abutment', 'impression-coping', 'scan-body', 'attachment-abutment'],
+  angleDeg: [...ABUTMENT_KINDS, 'multi-unit-abutment', 'attachment-abutment'],
+  collarHeightMm: [...ABUTMENT_KINDS, 'multi-unit-abutment', 'attachment-abutment'],
+  maxDivergenceDeg: ['attachment-abutment'],
+  retentionLabel: DENTURE_RETAINER_KINDS,
+  retentionN: DENTURE_RETAINER_KINDS,
+  copingLevel: ['impression-coping', 'scan-body'],
+  tray: ['impression-coping'],
+} as const satisfies Record<string, readonly ComponentKindValue[]>);
+export type KindValue = keyof typeof PART_VALUES_BY_KIND;
+
+/** Plain words for a value given on a kind of part that does not state it. */
+const NOT_FOR_KIND: Record<Exclude<KindValue, 'engaging' | 'angleDeg' | 'collarHeightMm' | 'tray'>, string> = {
+  maxDivergenceDeg: 'Only an attachment abutment states a divergence tolerance: leave it empty for this kind',
+  retentionLabel: 'Only a retentive insert or a bar clip has a retention strength: leave it empty for this kind',
+  retentionN: 'Only a retentive insert or a bar clip has a retention force: leave it empty for this kind',
+  copingLevel: 'Only an impression coping or a scan body has a coping level: leave it empty for this kind',
+};
+
+/** True when a part of this kind states this value (the form shows its input). */
+export function kindStates(kind: ComponentKindValue, value: KindValue): boolean {
+  return (PART_VALUES_BY_KIND[value] as readonly ComponentKindValue[]).includes(kind);
+}
+
+/**
+ * The values the rules read that were given for a kind of part that does not state them, as
+ * field → message. Engaging, angle, collar and tray are left as they are: the catalogues entered
+ * before the forms offered inputs by kind hold such values, and no rule reads them on other kinds.
+ */
+export function valuesNotForKind(
+  kind: ComponentKindValue,
+  values: Partial<Record<KindValue, unknown>>,
+): Record<string, string> {
+  const out: Record<string, string> = {};
+  for (const [field, message] of Object.entries(NOT_FOR_KIND) as [keyof typeof NOT_FOR_KIND, string][])
+    if (values[field] !== null && values[field] !== undefined && !kindStates(kind, field)) out[field] = message;
+  return out;
+}
 /** A part's torque tolerance in the catalogue, %, inclusive (the domain's verdict accepts up to 100). */
 export const TOLERANCE_PCT_RANGE = Object.freeze({ min: 0, max: 50 } as const);
 const tolerancePct = z.number().min(TOLERANCE_PCT_RANGE.min).max(TOLERANCE_PCT_RANGE.max);
@@ -163,6 +218,7 @@ export const ComponentBody = z.object({
   retentionLabel: retentionLabel.nullable().default(null),
   retentionN: retentionN.nullable().default(null),
   tray: Tray.nullable().default(null),
+  copingLevel: CopingLevel.nullable().default(null),
   /** N·cm; null = hand-tight. */
   torqueSpecNcm: torqueSpecNcm.nullable().default(null),
   tolerancePct: tolerancePct.default(10),
@@ -180,6 +236,7 @@ export const ComponentPatch = z.object({
   retentionLabel: retentionLabel.nullable().optional(),
   retentionN: retentionN.nullable().optional(),
   tray: Tray.nullable().optional(),
+  copingLevel: CopingLevel.nullable().optional(),
   torqueSpecNcm: torqueSpecNcm.nullable().optional(),
   tolerancePct: tolerancePct.optional(),
   requiresLot: z.boolean().optional(),

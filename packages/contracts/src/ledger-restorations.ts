@@ -115,7 +115,13 @@ export function findingField(finding: Pick<Finding, 'code' | 'fdi'>, siteFdis: r
     case 'catalogue-abutment-angle-missing':
       return at('abutmentComponentId');
     case 'catalogue-coping-engaging-missing':
+    case 'catalogue-coping-level-missing':
+    case 'coping-level-mismatch':
       return at('impressionCopingComponentId');
+    case 'abutment-non-engaging-single-unit':
+    case 'abutment-interface-disagrees':
+    case 'catalogue-abutment-engaging-missing':
+      return at('abutmentComponentId');
     case 'splinted-engaging-copings':
       return 'copingsSplinted';
     case 'divergence-over-limit':

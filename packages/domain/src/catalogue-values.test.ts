@@ -18,6 +18,8 @@ const part = (kind: string, values: Partial<PartValues> = {}): PartValues => ({
   kind,
   angleDeg: null,
   engaging: null,
+  // Impression copings are read for their level too (part-fit.test.ts); implant level unless a test says otherwise.
+  copingLevel: kind === 'impression-coping' ? 'implant' : null,
   ...values,
 });
 const mua = (angleDeg: number | null) =>
@@ -28,8 +30,9 @@ const rows = (plan: Parameters<typeof catalogueValueFindings>[0], sites: SitePar
 describe('catalogueValuesRead — which catalogue value a plan rule reads, by part kind', () => {
   it('reads the angle of multi-units and angled abutments, whether a coping engages, nothing of screws', () => {
     expect(catalogueValuesRead('multi-unit-abutment')).toEqual(['angleDeg']);
-    expect(catalogueValuesRead('abutment-angled')).toEqual(['angleDeg']);
-    expect(catalogueValuesRead('impression-coping')).toEqual(['engaging']);
+    expect(catalogueValuesRead('abutment-angled')).toEqual(['angleDeg', 'engaging']);
+    expect(catalogueValuesRead('abutment-stock')).toEqual(['engaging']);
+    expect(catalogueValuesRead('impression-coping')).toEqual(['engaging', 'copingLevel']);
     expect(catalogueValuesRead('abutment-screw')).toEqual([]);
   });
 });
@@ -40,7 +43,11 @@ describe('catalogueValueFindings — a chosen part lacking a value a rule needs 
   it('no Finding when the catalogue states every value read', () => {
     expect(
       rows(onMua, [
-        { fdi: 34, multiUnit: mua(0), impressionCoping: part('impression-coping', { engaging: false }) },
+        {
+          fdi: 34,
+          multiUnit: mua(0),
+          impressionCoping: part('impression-coping', { engaging: false, copingLevel: 'multi-unit' }),
+        },
         { fdi: 36, multiUnit: mua(17) },
       ]),
     ).toEqual([]);
@@ -97,11 +104,13 @@ describe('catalogueValueFindings — a chosen part lacking a value a rule needs 
     const cemented = { kind: 'splinted-bridge', retention: 'cement-on-abutment' } as const;
     expect(
       rows(cemented, [
-        { fdi: 34, abutment: part('abutment-angled') },
-        { fdi: 36, abutment: part('abutment-stock') },
+        { fdi: 34, abutment: part('abutment-angled', { engaging: true }) },
+        { fdi: 36, abutment: part('abutment-stock', { engaging: true }) },
       ]),
     ).toEqual([[C.ABUTMENT_ANGLE_MISSING, 34, 'warning']]);
-    expect(rows(cemented, [{ fdi: 34, abutment: part('abutment-angled', { angleDeg: 15 }) }])).toEqual([]);
+    expect(rows(cemented, [{ fdi: 34, abutment: part('abutment-angled', { angleDeg: 15, engaging: true }) }])).toEqual(
+      [],
+    );
   });
 
   it('coping not stated engaging or not: an error where the hex position is needed, a warning elsewhere', () => {
@@ -115,6 +124,7 @@ describe('catalogueValueFindings — a chosen part lacking a value a rule needs 
     expect(rows({ kind: 'splinted-bridge', retention: 'screw-to-implant' }, [{ fdi: 36, ...coping }])).toEqual([
       [C.COPING_ENGAGING_MISSING, 36, 'warning'],
     ]);
-    expect(rows(onMua, [{ fdi: 36, ...coping }])).toEqual([[C.COPING_ENGAGING_MISSING, 36, 'warning']]);
+    const muaCoping = { impressionCoping: part('impression-coping', { name: 'Coping Y', copingLevel: 'multi-unit' }) };
+    expect(rows(onMua, [{ fdi: 36, ...muaCoping }])).toEqual([[C.COPING_ENGAGING_MISSING, 36, 'warning']]);
   });
 });

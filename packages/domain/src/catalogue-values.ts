@@ -7,7 +7,9 @@
  * - the divergence check (restoration-plan-divergence.ts, Jang HK et al. 2011 [pub]) reads the angle of
  *   the multi-unit abutment at each site of a splinted restoration screwed to multi-units;
  * - an angled abutment is chosen for its angle: the planner shows it and the lab prescription carries it;
- * - the check of the impression coping against the technique reads whether the coping is engaging.
+ * - the check of the impression coping against the technique reads whether the coping is engaging;
+ * - the impression's level (part-fit.ts) reads the coping level of the coping: implant or multi-unit;
+ * - the abutment of a restoration that sits on abutments is checked for engaging (part-fit.ts).
  * Collar height is shown beside the part but no current rule reads it, so a missing one is no Finding.
  *
  * Severity when the value is missing (decisions, also in docs/clinical-rules.md):
@@ -23,7 +25,13 @@
  *   impression visit: a warning.
  */
 import { type Finding, PLAN_SOURCES } from './plan-findings.js';
-import { ABUTMENT_LEVEL_RETENTIONS, type RestorationKind, type Retention } from './restoration-plan.js';
+import { type CopingLevel, engagingFindings, impressionLevelFindings } from './part-fit.js';
+import {
+  ABUTMENT_LEVEL_RETENTIONS,
+  type ImplantInterface,
+  type RestorationKind,
+  type Retention,
+} from './restoration-plan.js';
 
 /** Stable codes of the findings of {@link catalogueValueFindings}. */
 export const CATALOGUE_VALUE_FINDING_CODES = Object.freeze({
@@ -33,15 +41,18 @@ export const CATALOGUE_VALUE_FINDING_CODES = Object.freeze({
 } as const);
 
 /** The catalogue values a rule reads. */
-export type CatalogueValue = 'angleDeg' | 'engaging';
+export type CatalogueValue = 'angleDeg' | 'engaging' | 'copingLevel';
 
 /**
  * The values the plan's rules read from a part of this catalogue kind (kinds not listed: none). The
  * catalogue page marks a part lacking one of them.
  */
 export function catalogueValuesRead(kind: string): readonly CatalogueValue[] {
-  if (kind === 'multi-unit-abutment' || kind === 'abutment-angled') return ['angleDeg'];
-  if (kind === 'impression-coping') return ['engaging'];
+  if (kind === 'multi-unit-abutment') return ['angleDeg'];
+  if (kind === 'abutment-angled') return ['angleDeg', 'engaging'];
+  if (kind === 'abutment-stock' || kind === 'abutment-custom') return ['engaging'];
+  if (kind === 'impression-coping') return ['engaging', 'copingLevel'];
+  if (kind === 'scan-body') return ['copingLevel'];
   return [];
 }
 
@@ -51,6 +62,8 @@ export interface PartValues {
   kind: string;
   angleDeg: number | null;
   engaging: boolean | null;
+  /** Impression copings and scan bodies: implant level or on a multi-unit abutment (part-fit.ts). */
+  copingLevel: CopingLevel | null;
 }
 
 /** The parts chosen at one site of a plan. */
@@ -59,6 +72,8 @@ export interface SiteParts {
   multiUnit?: PartValues;
   abutment?: PartValues;
   impressionCoping?: PartValues;
+  /** The connection the plan states at the site: the abutment's stated engaging must agree (part-fit.ts). */
+  interface?: ImplantInterface;
   /** A multi-unit angle entered for the site itself (not read from the catalogue), degrees. */
   enteredMultiUnitAngleDeg?: number | null;
 }
@@ -129,6 +144,8 @@ export function catalogueValueFindings(plan: PlanShape, sites: readonly SitePart
         source,
       });
     }
+    if (coping) findings.push(...impressionLevelFindings(plan.retention, fdi, 'coping', coping));
   }
+  if (ABUTMENT_LEVEL_RETENTIONS.includes(plan.retention)) findings.push(...engagingFindings(plan, sites));
   return findings;
 }

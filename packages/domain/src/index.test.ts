@@ -246,6 +246,18 @@ describe('package root answers through the public API', () => {
     ['insertReviewDueOn', () => domain.insertReviewDueOn('2025-03-14', 12), '2026-03-14'],
     ['wholeMonthsBetween', () => domain.wholeMonthsBetween('2025-11-05', '2026-01-05'), 2],
     ['insertChangeSummary', () => domain.insertChangeSummary(['2025-11-05'], '2026-02-01').daysSinceLast, 88],
+    // part-fit.test.ts [common practice]: a restoration on multi-units is recorded at multi-unit level
+    ['impressionLevelFor', () => domain.impressionLevelFor('screw-to-multi-unit'), 'multi-unit'],
+    [
+      'impressionLevelFindings',
+      () => domain.impressionLevelFindings('screw-to-implant', 36, 'coping', { name: 'C', copingLevel: 'implant' }),
+      [],
+    ],
+    [
+      'engagingFindings',
+      () => domain.engagingFindings({ kind: 'single-crown' }, [{ fdi: 36, abutment: { name: 'A', engaging: true } }]),
+      [],
+    ],
   ])('%s', (_name, call, expected) => {
     expect(call()).toEqual(expected);
   });

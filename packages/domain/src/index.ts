@@ -222,6 +222,15 @@ export { ABUTMENT_LEVEL_RETENTIONS } from './restoration-plan.js';
 /** Findings for chosen parts whose catalogue entry lacks a value a plan rule reads. */
 export { CATALOGUE_VALUE_FINDING_CODES, catalogueValueFindings, catalogueValuesRead } from './catalogue-values.js';
 export type { CatalogueValue, PartValues, SiteParts } from './catalogue-values.js';
+/** Coping level of impression parts and engaging of abutments against what the restoration needs. */
+export {
+  COPING_LEVELS,
+  PART_FIT_FINDING_CODES,
+  engagingFindings,
+  impressionLevelFindings,
+  impressionLevelFor,
+} from './part-fit.js';
+export type { CopingLevel, EngagingPart, FitSite, LevelledPart } from './part-fit.js';
 export { ACTIONABLE_SEVERITIES, FINDING_SEVERITIES } from './choices.js';
 /** Overdenture kinds (on stud attachments, on a bar) and the catalogue facts their rules read. */
 export { OVERDENTURE_KINDS, isOverdentureKind } from './overdenture-plan.js';

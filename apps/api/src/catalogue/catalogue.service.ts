@@ -21,6 +21,7 @@ import {
   CalibrationBody,
   WrenchBody,
   ComponentBody as ComponentBodySchema,
+  valuesNotForKind,
 } from '@torquetrail/contracts';
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
@@ -195,6 +196,8 @@ export class CatalogueService {
       await repo.findPlatform(this.db, scope.practiceId, body.platformId),
       'platform',
     );
+    const misplaced = valuesNotForKind(body.kind, body);
+    if (Object.keys(misplaced).length > 0) throw fieldError(misplaced);
     const id = await this.audited(
       'CatalogueComponent',
       (tx) => repo.insertComponent(tx, { ...body, practiceId: scope.practiceId, createdBy: user.id }),
@@ -239,10 +242,13 @@ export class CatalogueService {
       retentionLabel: row.retentionLabel,
       retentionN: row.retentionN,
       tray: row.tray,
+      copingLevel: row.copingLevel,
       torqueSpecNcm: row.torqueSpecNcm,
       tolerancePct: row.tolerancePct,
       requiresLot: row.requiresLot,
     };
+    const misplaced = valuesNotForKind(row.kind, patch);
+    if (Object.keys(misplaced).length > 0) throw fieldError(misplaced);
     const after = { ...before, ...patch };
     // Saving what is already there makes no version.
     if ((Object.keys(before) as (keyof typeof before)[]).every((k) => before[k] === after[k])) return toComponent(row);

@@ -18,6 +18,7 @@ export const componentSpecColumns = {
   retentionLabel: components.retentionLabel,
   retentionN: components.retentionN,
   tray: components.tray,
+  copingLevel: components.copingLevel,
   torqueSpecNcm: components.torqueSpecNcm,
   tolerancePct: components.tolerancePct,
   requiresLot: components.requiresLot,

@@ -29,6 +29,7 @@ export async function findVisibleRestoration(db: Db, scope: Scope, id: string) {
       id: restorations.id,
       practiceId: restorations.practiceId,
       patientId: restorations.patientId,
+      retention: restorations.retention,
       current: sql<boolean>`${isCurrentVersion(restorations)}`,
     })
     .from(restorations)
@@ -117,6 +118,8 @@ export async function scanBodiesOf(db: Db, impressionIds: string[]) {
       componentId: impressionScanBodies.componentId,
       name: components.name,
       referenceCode: components.referenceCode,
+      kind: components.kind,
+      copingLevel: components.copingLevel,
       lot: impressionScanBodies.lot,
     })
     .from(impressionScanBodies)

@@ -8,7 +8,8 @@ import {
   type ImpressionSettings,
   type ScanFile,
 } from '@torquetrail/contracts';
-import { checkScanBodies, seatingRadiographFindings } from '@torquetrail/domain';
+import { checkScanBodies, type Finding, impressionLevelFindings, seatingRadiographFindings } from '@torquetrail/domain';
+import { currentPartVersions } from '../db/catalogue-parts.js';
 import type { z } from 'zod';
 import type { SessionUser } from '../auth/session-user.js';
 import { assertCan, type Scope } from '../authz/scope.js';
@@ -98,13 +99,41 @@ export class ImpressionsService {
     const files = await repo.scanFilesOfRestoration(this.db, r.id);
     const current = rows.find((i) => i.supersededById === null);
     const findings = current
-      ? seatingRadiographFindings(
-          current.method,
-          await repo.hasImpressionSeatingCheck(this.db, r.id),
-          (await impressionSettings.read(this.db, r.practiceId)).requireScanBodyRadiograph,
-        )
+      ? [
+          ...seatingRadiographFindings(
+            current.method,
+            await repo.hasImpressionSeatingCheck(this.db, r.id),
+            (await impressionSettings.read(this.db, r.practiceId)).requireScanBodyRadiograph,
+          ),
+          ...(await this.levelWarnings(
+            r,
+            bodies.filter((b) => b.impressionId === current.id),
+          )),
+        ]
       : [];
     return { items: rows.map((i) => toImpression(i, bodies)), scanFiles: files.map(toScanFile), findings };
+  }
+
+  /**
+   * Scan bodies whose catalogue entry (its current version: the practice may have stated it since)
+   * does not say whether they work at implant level or on a multi-unit: a warning each. A stated
+   * level that does not fit was refused when the impression was recorded.
+   */
+  private async levelWarnings(r: repo.VisibleRestoration, bodies: ScanBodyRow[]): Promise<Finding[]> {
+    const now = new Map(
+      (
+        await currentPartVersions(
+          this.db,
+          r.practiceId,
+          bodies.map((b) => b.componentId),
+        )
+      ).map((p) => [p.askedId, p]),
+    );
+    return bodies.flatMap((b) => {
+      const part = now.get(b.componentId) ?? b;
+      if (part.kind !== 'scan-body') return [];
+      return impressionLevelFindings(r.retention, b.fdi, 'scan body', part).filter((f) => f.severity === 'warning');
+    });
   }
 
   settings(scope: Scope): Promise<ImpressionSettings> {
@@ -236,7 +265,8 @@ export class ImpressionsService {
         )
       ).map((p) => [p.askedId, p]),
     );
-    const entries: Parameters<typeof checkScanBodies>[2][number][] = [];
+    type Part = NonNullable<ReturnType<typeof parts.get>>;
+    const entries: (Parameters<typeof checkScanBodies>[2][number] & { part: Part })[] = [];
     const stored: { siteId: string; componentId: string; lot: string | null }[] = [];
     const indexOfFdi = new Map<number, number>();
     body.scanBodies.forEach((b, i) => {
@@ -255,7 +285,13 @@ export class ImpressionsService {
         platformId: s.platformId ?? '',
         platformName: s.platformName ?? '',
       }));
-      for (const f of checkScanBodies(body.method, sites, entries)) {
+      // A scan body of the right platform must also record the level the restoration is made on.
+      const levels = entries.flatMap((e) =>
+        e.part.kind === 'scan-body'
+          ? impressionLevelFindings(r.retention, e.fdi, 'scan body', e.part).filter((f) => f.severity === 'error')
+          : [],
+      );
+      for (const f of [...checkScanBodies(body.method, sites, entries), ...levels]) {
         const i = f.fdi === undefined ? undefined : indexOfFdi.get(f.fdi);
         const key =
           i === undefined

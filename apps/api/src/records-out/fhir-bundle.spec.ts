@@ -4,15 +4,16 @@
 import { gtinCheckDigit, parseUdi, GS } from '@torquetrail/domain';
 import { describe, expect, it } from 'vitest';
 import { CODE_SYSTEMS, COMPUTED_STATUS_NOTE, derivedId, gs1HumanReadable, patientBundle } from './fhir-bundle.js';
-import type { RecordSnapshot } from './record-snapshot.js';
+import type { RecordSnapshot, SnapshotImpression } from './record-snapshot.js';
 import { bindingStrength, validatorErrors } from '../../test/support/fhir-validation.js';
 
 const gtin13 = '0761234567890';
 const GTIN = gtin13 + String(gtinCheckDigit(gtin13));
 const AT = new Date('2026-12-02T10:00:00Z');
 
-function snapshot(udi: string | null): RecordSnapshot {
+function snapshot(udi: string | null, impressions: SnapshotImpression[] = []): RecordSnapshot {
   return {
+    impressions,
     patient: {
       id: '6d1f1c2e-8a4b-4c4e-9f4e-0a0b0c0d0e01',
       chartNumber: 'ZZ-0001',
@@ -185,5 +186,56 @@ describe('FHIR R4 bundle of one patient', () => {
     const status = all.find((r) => r.id === derivedId('peri-implant-status', '6d1f1c2e-8a4b-4c4e-9f4e-0a0b0c0d0e07'))!;
     expect((status.text as { div: string }).div).toContain('not a diagnosis');
     expect(status.note).toEqual([{ text: COMPUTED_STATUS_NOTE }]);
+  });
+
+  it('an impression: Procedure on the day taken, inactive Devices for its scan bodies, a DocumentReference per scan file', () => {
+    const digital: SnapshotImpression = {
+      id: '6d1f1c2e-8a4b-4c4e-9f4e-0a0b0c0d0e10',
+      restorationId: '6d1f1c2e-8a4b-4c4e-9f4e-0a0b0c0d0e05',
+      method: 'digital',
+      takenOn: '2024-05-02',
+      recordedByName: 'Dr Test Dentist',
+      fdis: [36],
+      parts: [
+        {
+          id: '6d1f1c2e-8a4b-4c4e-9f4e-0a0b0c0d0e11',
+          fdi: 36,
+          kind: 'scan-body',
+          name: 'Scan body <SB>',
+          referenceCode: 'SB-1',
+          manufacturer: 'Maker & Co <Ltd>',
+          copingLevel: 'implant',
+          lot: 'SB-LOT',
+        },
+      ],
+      files: [
+        {
+          id: '6d1f1c2e-8a4b-4c4e-9f4e-0a0b0c0d0e12',
+          fileType: 'ply',
+          originalName: null,
+          sizeBytes: 2048,
+          sha256: 'ab'.repeat(32),
+          uploadedAt: '2024-05-02T10:00:00.000Z',
+        },
+      ],
+    };
+    const bundle = patientBundle(snapshot(null, [digital]), AT);
+    expect(validatorErrors(bundle)).toEqual([]);
+    const all = resources(bundle);
+    expect(all.slice(-3).map((r) => r.resourceType)).toEqual(['Procedure', 'Device', 'DocumentReference']);
+    const [procedure, device, document] = all.slice(-3);
+    expect(procedure).toMatchObject({
+      id: derivedId('impression-procedure', digital.id),
+      performedDateTime: '2024-05-02',
+      performer: [{ actor: { display: 'Dr Test Dentist' } }],
+      report: [{ reference: `urn:uuid:${digital.files[0].id}` }],
+      focalDevice: [{ manipulated: { reference: `urn:uuid:${device.id}` } }],
+    });
+    expect(device).toMatchObject({ status: 'inactive', lotNumber: 'SB-LOT', modelNumber: 'SB-1' });
+    // PLY has no registered media type: it travels as bytes, named by its title.
+    expect(document).toMatchObject({
+      content: [{ attachment: { contentType: 'application/octet-stream', size: 2048, title: 'scan-6d1f1c2e.ply' } }],
+      identifier: [{ system: CODE_SYSTEMS.sha256, value: 'ab'.repeat(32) }],
+    });
   });
 });

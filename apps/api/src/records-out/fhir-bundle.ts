@@ -7,6 +7,7 @@ import type {
   RecordSnapshot,
   SnapshotExam,
   SnapshotImplant,
+  SnapshotImpression,
   SnapshotPart,
   SnapshotPatient,
   SnapshotRestoration,
@@ -26,6 +27,8 @@ export const CODE_SYSTEMS = Object.freeze({
   probingPosition: 'https://fhir.torquetrail.example/CodeSystem/probing-position',
   periImplantStatus: 'https://fhir.torquetrail.example/CodeSystem/peri-implant-status',
   chartNumber: 'https://fhir.torquetrail.example/NamingSystem/chart-number',
+  documentKind: 'https://fhir.torquetrail.example/CodeSystem/document-kind',
+  sha256: 'https://fhir.torquetrail.example/NamingSystem/sha256',
 });
 
 /**
@@ -216,6 +219,105 @@ function deliveryProcedure(patientId: string, r: SnapshotRestoration, parts: Sna
   };
 }
 
+/**
+ * The copings or scan bodies an impression was taken with: handled in the mouth for the impression
+ * and taken out again (device-action `manipulated`), so their Devices are `inactive`.
+ */
+const MANIPULATED = {
+  coding: [{ system: CODE_SYSTEMS.deviceAction, code: 'manipulated', display: 'Manipulated' }],
+  text: 'Used for the impression and removed',
+};
+
+/** IANA media types of the scan files; PLY has none registered, so it travels as bytes. */
+const SCAN_MEDIA_TYPES = { stl: 'model/stl', obj: 'model/obj', ply: 'application/octet-stream' } as const;
+
+function impressionPartDevice(patientId: string, part: SnapshotImpression['parts'][number]): Entry['resource'] {
+  return {
+    resourceType: 'Device',
+    id: derivedId('impression-part', part.id),
+    status: 'inactive',
+    manufacturer: part.manufacturer,
+    ...(part.lot ? { lotNumber: part.lot } : {}),
+    deviceName: [{ name: part.name, type: 'user-friendly-name' }],
+    modelNumber: part.referenceCode,
+    type: {
+      coding: [{ system: CODE_SYSTEMS.deviceKind, code: part.kind, display: partKindWords(part.kind) }],
+      text: `${partKindWords(part.kind)} at tooth ${part.fdi} (FDI)${part.copingLevel === 'multi-unit' ? ', on a multi-unit abutment' : part.copingLevel === 'implant' ? ', implant level' : ''}`,
+    },
+    patient: ref(patientId),
+  };
+}
+
+function scanFileDocument(
+  patientId: string,
+  i: SnapshotImpression,
+  file: SnapshotImpression['files'][number],
+): Entry['resource'] {
+  const format = file.fileType.toUpperCase();
+  return {
+    resourceType: 'DocumentReference',
+    id: file.id,
+    identifier: [{ system: CODE_SYSTEMS.sha256, value: file.sha256 }],
+    status: 'current',
+    type: {
+      coding: [{ system: CODE_SYSTEMS.documentKind, code: 'intraoral-scan', display: 'Intraoral scan (3D mesh)' }],
+      text: `Intraoral scan, ${format} mesh`,
+    },
+    subject: ref(patientId),
+    date: file.uploadedAt,
+    description: `Scan file of the digital impression of ${i.takenOn}`,
+    content: [
+      {
+        attachment: {
+          contentType: SCAN_MEDIA_TYPES[file.fileType],
+          size: file.sizeBytes,
+          title: file.originalName ?? `scan-${file.id.slice(0, 8)}.${file.fileType}`,
+          creation: file.uploadedAt,
+        },
+      },
+    ],
+    context: { related: [ref(derivedId('impression-procedure', i.id))] },
+  };
+}
+
+function impressionProcedure(patientId: string, i: SnapshotImpression): Entry['resource'] {
+  const text =
+    i.method === 'digital'
+      ? 'Digital implant impression (intraoral scan with scan bodies)'
+      : 'Analog implant impression (impression copings and tray)';
+  return {
+    resourceType: 'Procedure',
+    id: derivedId('impression-procedure', i.id),
+    status: 'completed',
+    code: {
+      coding: [{ system: CODE_SYSTEMS.procedure, code: `implant-impression-${i.method}`, display: text }],
+      text,
+    },
+    subject: ref(patientId),
+    performedDateTime: i.takenOn,
+    ...performer(i.recordedByName),
+    bodySite: i.fdis.map(toothSite),
+    ...(i.files.length > 0 ? { report: i.files.map((f) => ref(f.id)) } : {}),
+    ...(i.parts.length > 0
+      ? {
+          focalDevice: i.parts.map((p) => ({
+            action: MANIPULATED,
+            manipulated: ref(derivedId('impression-part', p.id)),
+          })),
+        }
+      : {}),
+  };
+}
+
+/** An impression: its Procedure, a Device per coping or scan body, a DocumentReference per scan file. */
+function impressionEntries(patientId: string, i: SnapshotImpression): Entry[] {
+  return [
+    entry(impressionProcedure(patientId, i)),
+    ...i.parts.map((p) => entry(impressionPartDevice(patientId, p))),
+    ...i.files.map((f) => entry(scanFileDocument(patientId, i, f))),
+  ];
+}
+
 const examCategory = [{ coding: [{ system: CODE_SYSTEMS.observationCategory, code: 'exam', display: 'Exam' }] }];
 const obsCode = (code: string, display: string) => ({
   coding: [{ system: CODE_SYSTEMS.observation, code, display }],
@@ -301,6 +403,7 @@ export function patientBundle(snapshot: RecordSnapshot, exportedAt: Date): Json 
   }
   for (const { restoration, parts } of delivered.values())
     entries.push(entry(deliveryProcedure(patient.id, restoration, parts)));
+  for (const impression of snapshot.impressions) entries.push(...impressionEntries(patient.id, impression));
   return {
     resourceType: 'Bundle',
     id: derivedId('bundle', `${patient.id}:${exportedAt.toISOString()}`),

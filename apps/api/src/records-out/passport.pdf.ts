@@ -5,7 +5,7 @@ import { fdiToUniversal, isRetrievable } from '@torquetrail/domain';
 import { patientPdf, practiceContactLines } from '../common/patient-pdf.js';
 import { FONT } from '../common/pdf-document.js';
 import type { DatePrinter } from '../common/printed-dates.js';
-import type { RecordSnapshot, SnapshotImplant, SnapshotPart } from './record-snapshot.js';
+import type { RecordSnapshot, SnapshotImplant, SnapshotImpression, SnapshotPart } from './record-snapshot.js';
 import { connectionWords, materialWords, partKindWords, restorationKindWords, retentionWords } from './plain-words.js';
 
 export interface PrintedBy {
@@ -37,6 +37,29 @@ export const udiLine = (i: SnapshotImplant) =>
   [i.placement.lot ? `lot ${i.placement.lot}` : '', i.placement.udi ? `UDI ${i.placement.udi}` : '']
     .filter(Boolean)
     .join(', ') || 'lot not recorded';
+
+const kilobytes = (bytes: number) => `${Math.max(1, Math.round(bytes / 1024))} kB`;
+
+/** One impression in plain words: how it was taken, the parts used and removed, the scan files kept. */
+function impressionLines(i: SnapshotImpression, dates: DatePrinter): string[] {
+  const teeth = i.fdis.map((f) => `${f}`).join(', ');
+  const how =
+    i.method === 'digital'
+      ? 'a digital impression (an intraoral scan, with a scan body screwed on each implant)'
+      : 'an impression with impression copings on the implants';
+  const lines = [
+    `On ${dates.date(i.takenOn)}, ${how}, at tooth ${teeth} (FDI), for the crown, bridge or denture made on them.`,
+  ];
+  for (const p of i.parts)
+    lines.push(
+      `- ${partKindWords(p.kind)} at tooth ${p.fdi}, used and removed: ${p.name} [${p.referenceCode}]${p.lot ? `, lot ${p.lot}` : ''}`,
+    );
+  for (const f of i.files)
+    lines.push(
+      `- Scan file kept by the practice: ${f.originalName ?? `scan ${f.id.slice(0, 8)}`} (${f.fileType.toUpperCase()}, ${kilobytes(f.sizeBytes)})`,
+    );
+  return lines;
+}
 
 export function renderPassport(s: RecordSnapshot, printed: PrintedBy): Promise<Buffer> {
   const { patient, practice } = s;
@@ -101,6 +124,17 @@ export function renderPassport(s: RecordSnapshot, printed: PrintedBy): Promise<B
       for (const p of parts) doc.text(`- ${partLine(p, dates)}`, { indent: 24 });
     }
     doc.moveDown(0.6);
+  }
+
+  if (s.impressions.length > 0) {
+    doc.font(FONT.bold).fontSize(12).text('Impressions taken for your restorations');
+    doc.font(FONT.regular).fontSize(10);
+    for (const i of s.impressions) {
+      const [first, ...rest] = impressionLines(i, dates);
+      doc.text(first, { indent: 12 });
+      for (const line of rest) doc.text(line, { indent: 24 });
+      doc.moveDown(0.3);
+    }
   }
 
   doc.moveDown(0.4);

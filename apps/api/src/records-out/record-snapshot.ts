@@ -4,6 +4,9 @@
 import {
   type ComponentKind,
   type Connection,
+  type CopingLevel,
+  type ImpressionMethod,
+  type ScanFileType,
   type DateFormat,
   type Material,
   type PatientSex,
@@ -110,12 +113,51 @@ export interface SnapshotImplant {
   exams: SnapshotExam[];
 }
 
+/** A coping or scan body an impression was taken with (in the mouth for the impression only). */
+interface SnapshotImpressionPart {
+  id: string;
+  fdi: number;
+  kind: ComponentKind;
+  name: string;
+  referenceCode: string;
+  manufacturer: string;
+  copingLevel: CopingLevel | null;
+  lot: string | null;
+}
+
+/** A scanner's file of a digital impression. */
+interface SnapshotScanFile {
+  id: string;
+  fileType: ScanFileType;
+  originalName: string | null;
+  sizeBytes: number;
+  sha256: string;
+  uploadedAt: string;
+}
+
+/** The current version of one restoration's impression: analog (copings) or digital (scan bodies, files). */
+export interface SnapshotImpression {
+  id: string;
+  restorationId: string;
+  method: ImpressionMethod;
+  takenOn: string;
+  recordedByName: string;
+  /** FDI positions of the restoration's sites, in chart order. */
+  fdis: number[];
+  /** Analog: the copings planned per site; digital: the scan bodies recorded per site. */
+  parts: SnapshotImpressionPart[];
+  /** Digital: every scan file uploaded to the restoration's impression. */
+  files: SnapshotScanFile[];
+}
+
 export interface RecordSnapshot {
   patient: SnapshotPatient;
   practice: SnapshotPractice;
   nextRecallOn: string | null;
   /** Implants with a current placement, in chart order. */
   implants: SnapshotImplant[];
+  /** Impressions (current versions), oldest first. */
+  impressions: SnapshotImpression[];
 }
 
 type Rows<K extends keyof typeof repo> = Awaited<ReturnType<(typeof repo)[K]>>;
@@ -129,6 +171,49 @@ export interface SnapshotRows {
   exams: Rows<'examsOfPatient'>;
   probing: Rows<'probingOfExams'>;
   nextRecallOn: string | null;
+  impressions: ImpressionRows;
+}
+
+/** What the repository loads for the impressions of the record. */
+export interface ImpressionRows {
+  impressions: Rows<'impressionsOfPatient'>;
+  sites: Rows<'sitesOfRestorations'>;
+  scanBodies: Rows<'scanBodiesOfImpressions'>;
+  copings: Rows<'copingsOfRestorations'>;
+  lots: Rows<'partLotsOfRestorations'>;
+  files: Rows<'scanFilesOfRestorations'>;
+}
+
+/** Each impression with its sites, parts (copings or scan bodies, by method) and scan files. */
+function buildImpressions(rows: ImpressionRows): SnapshotImpression[] {
+  return rows.impressions.map((i): SnapshotImpression => {
+    const digital = i.method === 'digital';
+    const parts = digital
+      ? rows.scanBodies.filter((b) => b.impressionId === i.id).map(({ impressionId: _i, ...b }) => b)
+      : rows.copings
+          .filter((c) => c.restorationId === i.restorationId)
+          .map(({ restorationId, siteId, componentId, ...c }) => ({
+            ...c,
+            lot:
+              rows.lots.find(
+                (l) => l.restorationId === restorationId && l.siteId === siteId && l.componentId === componentId,
+              )?.lot ?? null,
+          }));
+    return {
+      id: i.id,
+      restorationId: i.restorationId,
+      method: i.method,
+      takenOn: i.takenOn,
+      recordedByName: i.recordedByName,
+      fdis: rows.sites.filter((s) => s.restorationId === i.restorationId).map((s) => s.fdi),
+      parts,
+      files: digital
+        ? rows.files
+            .filter((f) => f.restorationId === i.restorationId)
+            .map(({ restorationId: _r, uploadedAt, ...f }) => ({ ...f, uploadedAt: uploadedAt.toISOString() }))
+        : [],
+    };
+  });
 }
 
 const torqueOf = (t: Rows<'torqueOfParts'>[number]): SnapshotTorque => ({
@@ -187,5 +272,11 @@ export function buildSnapshot(rows: SnapshotRows): RecordSnapshot {
   }
   // FDI order: quadrant by quadrant, from the midline out.
   implants.sort((a, b) => a.fdi - b.fdi);
-  return { patient, practice, nextRecallOn: rows.nextRecallOn, implants };
+  return {
+    patient,
+    practice,
+    nextRecallOn: rows.nextRecallOn,
+    implants,
+    impressions: buildImpressions(rows.impressions),
+  };
 }

@@ -7,6 +7,8 @@ import {
   components,
   implantSites,
   implantSystems,
+  impressionScanBodies,
+  impressions,
   passportMails,
   patients,
   placements,
@@ -15,8 +17,10 @@ import {
   recallExamSites,
   recallExams,
   recalls,
+  restorationSiteComponents,
   restorationSites,
   restorations,
+  scanFiles,
   torqueEvents,
   users,
 } from '../db/schema/index.js';
@@ -128,6 +132,117 @@ export async function partsOfPatient(db: Db, patientId: string) {
     .innerJoin(implantSystems, eq(implantSystems.id, platforms.systemId))
     .where(and(eq(componentInstances.patientId, patientId), isNull(componentInstances.removedOn)))
     .orderBy(asc(componentInstances.installedOn), asc(componentInstances.recordedAt));
+}
+
+/** The current version of each of the patient's impressions, oldest first, with who recorded it. */
+export async function impressionsOfPatient(db: Db, patientId: string) {
+  return db
+    .select({
+      id: impressions.id,
+      restorationId: impressions.restorationId,
+      method: impressions.method,
+      takenOn: impressions.takenOn,
+      recordedByName: users.displayName,
+      retention: restorations.retention,
+    })
+    .from(impressions)
+    .innerJoin(restorations, eq(restorations.id, impressions.restorationId))
+    .innerJoin(users, eq(users.id, impressions.recordedBy))
+    .where(and(eq(impressions.patientId, patientId), isCurrentVersion(impressions)))
+    .orderBy(asc(impressions.takenOn), asc(impressions.recordedAt));
+}
+
+/** The sites of the given restorations (the teeth an impression recorded). */
+export async function sitesOfRestorations(db: Db, restorationIds: string[]) {
+  if (restorationIds.length === 0) return [];
+  return db
+    .select({ restorationId: restorationSites.restorationId, siteId: restorationSites.siteId, fdi: implantSites.fdi })
+    .from(restorationSites)
+    .innerJoin(implantSites, eq(implantSites.id, restorationSites.siteId))
+    .where(inArray(restorationSites.restorationId, restorationIds))
+    .orderBy(asc(implantSites.fdi));
+}
+
+const partMaker = {
+  name: components.name,
+  referenceCode: components.referenceCode,
+  kind: components.kind,
+  copingLevel: components.copingLevel,
+  manufacturer: implantSystems.manufacturer,
+};
+
+/** The scan bodies of the given impression versions, with the catalogue version recorded and its maker. */
+export async function scanBodiesOfImpressions(db: Db, impressionIds: string[]) {
+  if (impressionIds.length === 0) return [];
+  return db
+    .select({
+      id: impressionScanBodies.id,
+      impressionId: impressionScanBodies.impressionId,
+      fdi: implantSites.fdi,
+      lot: impressionScanBodies.lot,
+      ...partMaker,
+    })
+    .from(impressionScanBodies)
+    .innerJoin(implantSites, eq(implantSites.id, impressionScanBodies.siteId))
+    .innerJoin(components, eq(components.id, impressionScanBodies.componentId))
+    .innerJoin(platforms, eq(platforms.id, components.platformId))
+    .innerJoin(implantSystems, eq(implantSystems.id, platforms.systemId))
+    .where(inArray(impressionScanBodies.impressionId, impressionIds))
+    .orderBy(asc(implantSites.fdi));
+}
+
+/** The impression copings planned at each site of the given restorations (an analog impression is taken with them). */
+export async function copingsOfRestorations(db: Db, restorationIds: string[]) {
+  if (restorationIds.length === 0) return [];
+  return db
+    .select({
+      id: restorationSiteComponents.id,
+      restorationId: restorationSites.restorationId,
+      siteId: restorationSites.siteId,
+      componentId: components.id,
+      fdi: implantSites.fdi,
+      ...partMaker,
+    })
+    .from(restorationSiteComponents)
+    .innerJoin(restorationSites, eq(restorationSites.id, restorationSiteComponents.restorationSiteId))
+    .innerJoin(implantSites, eq(implantSites.id, restorationSites.siteId))
+    .innerJoin(components, eq(components.id, restorationSiteComponents.componentId))
+    .innerJoin(platforms, eq(platforms.id, components.platformId))
+    .innerJoin(implantSystems, eq(implantSystems.id, platforms.systemId))
+    .where(and(inArray(restorationSites.restorationId, restorationIds), eq(components.kind, 'impression-coping')))
+    .orderBy(asc(implantSites.fdi));
+}
+
+/** Lots recorded for parts delivered with the given restorations (a coping's lot, when it was recorded). */
+export async function partLotsOfRestorations(db: Db, restorationIds: string[]) {
+  if (restorationIds.length === 0) return [];
+  return db
+    .select({
+      restorationId: componentInstances.restorationId,
+      siteId: componentInstances.siteId,
+      componentId: componentInstances.componentId,
+      lot: componentInstances.lot,
+    })
+    .from(componentInstances)
+    .where(and(inArray(componentInstances.restorationId, restorationIds), sql`${componentInstances.lot} is not null`));
+}
+
+/** The scan files of the given restorations (every upload is kept), oldest first. */
+export async function scanFilesOfRestorations(db: Db, restorationIds: string[]) {
+  if (restorationIds.length === 0) return [];
+  return db
+    .select({
+      id: scanFiles.id,
+      restorationId: scanFiles.restorationId,
+      fileType: scanFiles.fileType,
+      originalName: scanFiles.originalName,
+      sizeBytes: scanFiles.sizeBytes,
+      sha256: scanFiles.sha256,
+      uploadedAt: scanFiles.uploadedAt,
+    })
+    .from(scanFiles)
+    .where(inArray(scanFiles.restorationId, restorationIds))
+    .orderBy(asc(scanFiles.uploadedAt));
 }
 
 /** Every current torque entry of the given parts, oldest first. */

@@ -12,7 +12,7 @@ import { patientBundle } from './fhir-bundle.js';
 import { renderPassport } from './passport.pdf.js';
 import { PassportMailService } from './passport-mail.service.js';
 import { fhirFilename, passportFilename, retrievalCardFilename } from './pdf-names.js';
-import { buildSnapshot, type RecordSnapshot } from './record-snapshot.js';
+import { buildSnapshot, type ImpressionRows, type RecordSnapshot } from './record-snapshot.js';
 import * as repo from './records-out.repository.js';
 import { renderRetrievalCard } from './retrieval-card.pdf.js';
 
@@ -52,12 +52,13 @@ export class RecordsOutService {
   }
 
   private async snapshot(patient: Patient): Promise<RecordSnapshot> {
-    const [placements, restorations, parts, exams, nextRecallOn] = await Promise.all([
+    const [placements, restorations, parts, exams, nextRecallOn, impressions] = await Promise.all([
       repo.placementsOfPatient(this.db, patient.id),
       repo.deliveredRestorationsOfPatient(this.db, patient.id),
       repo.partsOfPatient(this.db, patient.id),
       repo.examsOfPatient(this.db, patient.id),
       repo.nextRecallOf(this.db, patient.id),
+      this.impressionRows(patient.id),
     ]);
     const [torque, probing] = await Promise.all([
       repo.torqueOfParts(
@@ -69,7 +70,34 @@ export class RecordsOutService {
         exams.map((e) => e.id),
       ),
     ]);
-    return buildSnapshot({ patient, placements, restorations, parts, torque, exams, probing, nextRecallOn });
+    return buildSnapshot({
+      patient,
+      placements,
+      restorations,
+      parts,
+      torque,
+      exams,
+      probing,
+      nextRecallOn,
+      impressions,
+    });
+  }
+
+  /** The patient's impressions (current versions) with their sites, copings or scan bodies, and scan files. */
+  private async impressionRows(patientId: string): Promise<ImpressionRows> {
+    const impressions = await repo.impressionsOfPatient(this.db, patientId);
+    const restorationIds = [...new Set(impressions.map((i) => i.restorationId))];
+    const [sites, scanBodies, copings, lots, files] = await Promise.all([
+      repo.sitesOfRestorations(this.db, restorationIds),
+      repo.scanBodiesOfImpressions(
+        this.db,
+        impressions.map((i) => i.id),
+      ),
+      repo.copingsOfRestorations(this.db, restorationIds),
+      repo.partLotsOfRestorations(this.db, restorationIds),
+      repo.scanFilesOfRestorations(this.db, restorationIds),
+    ]);
+    return { impressions, sites, scanBodies, copings, lots, files };
   }
 
   async fhir(ability: AppAbility, scope: Scope, patientId: string) {

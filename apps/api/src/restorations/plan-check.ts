@@ -3,6 +3,7 @@
 import {
   ABUTMENT_KINDS,
   type ComponentKind,
+  type CopingLevel,
   DENTURE_RETAINER_KINDS,
   type ImpressionCopingKind,
   type InterfaceKind,
@@ -33,6 +34,7 @@ export interface CatalogueRow {
   angleDeg: number | null;
   collarHeightMm: number | null;
   maxDivergenceDeg: number | null;
+  copingLevel: CopingLevel | null;
 }
 
 interface CheckedSite {
@@ -154,6 +156,7 @@ export function checkPlan(
     }
     siteParts.push({
       fdi: site.fdi,
+      interface: s.interface,
       ...(mua ? { multiUnit: mua } : {}),
       ...(chosen.abutmentComponentId ? { abutment: chosen.abutmentComponentId } : {}),
       ...(coping ? { impressionCoping: coping } : {}),

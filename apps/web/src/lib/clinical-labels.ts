@@ -6,6 +6,7 @@ import {
   type InsertChangeReason,
   type ComponentKind,
   type Connection,
+  type CopingLevel,
   type FindingSeverity,
   type ImpressionCopingKind,
   type ImpressionMethod,
@@ -116,6 +117,11 @@ export const FINDING_SEVERITY_LABEL: Record<FindingSeverity, string> = {
   error: 'Error',
   warning: 'Warning',
   info: 'Note',
+};
+
+export const COPING_LEVEL_LABEL: Record<CopingLevel, string> = {
+  implant: 'Implant level',
+  'multi-unit': 'On a multi-unit abutment',
 };
 
 export const TRAY_LABEL: Record<Tray, string> = {

@@ -11,7 +11,7 @@ import {
   uuid,
 } from 'drizzle-orm/pg-core';
 import { amendmentChain } from './amendment-chain.js';
-import { componentKindEnum, connectionEnum, trayEnum, wrenchTypeEnum } from './enums.js';
+import { componentKindEnum, connectionEnum, copingLevelEnum, trayEnum, wrenchTypeEnum } from './enums.js';
 import { practices, users } from './practices.js';
 
 const mm = (name: string) => numeric(name, { precision: 5, scale: 2, mode: 'number' });
@@ -100,6 +100,12 @@ export const components = pgTable(
     retentionLabel: text('retention_label'),
     retentionN: numeric('retention_n', { precision: 5, scale: 1, mode: 'number' }),
     tray: trayEnum('tray'),
+    /**
+     * Impression copings and scan bodies: whether the part records the implant itself or a multi-unit
+     * abutment on it, as the manufacturer states; null until the practice enters it (a Finding where
+     * a rule reads it, never guessed from the name).
+     */
+    copingLevel: copingLevelEnum('coping_level'),
     /** Torque specification in N·cm; null means hand-tight. */
     torqueSpecNcm: numeric('torque_spec_ncm', { precision: 5, scale: 1, mode: 'number' }),
     tolerancePct: numeric('tolerance_pct', { precision: 4, scale: 1, mode: 'number' }).notNull().default(10),

@@ -8,6 +8,7 @@ import {
   INSERT_CHANGE_REASONS,
   COMPONENT_KINDS,
   CONNECTIONS,
+  COPING_LEVELS,
   IMPLANT_INTERFACES,
   IMPRESSION_COPINGS,
   IMPRESSION_METHODS,
@@ -49,6 +50,7 @@ export const siteStatusEnum = pgEnum('site_status', SITE_STATUSES);
 export const connectionEnum = pgEnum('connection', CONNECTIONS);
 export const componentKindEnum = pgEnum('component_kind', COMPONENT_KINDS);
 export const trayEnum = pgEnum('impression_tray', TRAYS);
+export const copingLevelEnum = pgEnum('coping_level', COPING_LEVELS);
 export const loadingProtocolEnum = pgEnum('loading_protocol', LOADING_PROTOCOLS);
 export const restorationKindEnum = pgEnum('restoration_kind', RESTORATION_KINDS);
 export const retentionEnum = pgEnum('retention', RETENTIONS);

@@ -32,6 +32,7 @@ export const FIELD_LABELS: Record<string, string> = {
   code: 'Code',
   col: 'Column',
   collarHeightMm: 'Collar height (mm)',
+  copingLevel: 'Coping level',
   componentId: 'Part',
   componentInstanceId: 'Installed part',
   confirmEarlySettling: 'Confirm the early re-torque',

@@ -1,32 +1,20 @@
 import { Button, Checkbox, HTMLSelect, InputGroup } from '@blueprintjs/core';
 import {
-  COLLAR_HEIGHT_MM_RANGE,
   COMPONENT_KINDS,
   type ComponentKind,
   ComponentBody,
   type Connection,
   CONNECTIONS,
-  PART_ANGLE_DEG_RANGE,
   PLATFORM_DIAMETER_MM_RANGE,
   PlatformBody,
   SystemBody,
-  TOLERANCE_PCT_RANGE,
-  type Tray,
-  TRAYS,
   WrenchBody,
   type WrenchType,
   WRENCH_TYPES,
 } from '@torquetrail/contracts';
-import { TORQUE_NCM_RANGE } from '@torquetrail/domain';
 import { type ReactNode, useId, useMemo, useState } from 'react';
 import { FormProvider } from 'react-hook-form';
-import {
-  COMPONENT_KIND_LABEL,
-  CONNECTION_LABEL,
-  INTERFACE_LABEL,
-  TRAY_LABEL,
-  WRENCH_TYPE_LABEL,
-} from '../../../lib/clinical-labels';
+import { COMPONENT_KIND_LABEL, CONNECTION_LABEL, WRENCH_TYPE_LABEL } from '../../../lib/clinical-labels';
 import {
   applyServerErrors,
   DateField,
@@ -40,6 +28,7 @@ import { useSaveWrench } from '../../torque';
 import { useAddPlatform, useAddSystem, useSaveComponent } from '../api/catalogue-api';
 import { useCloseOnEscape } from '../../../lib/use-close-on-escape';
 import { runMutation } from '../../../lib/run-mutation';
+import { EMPTY_PART_VALUES, PartValueFields, partValuesBody, type PartValuesDraft } from './part-value-fields';
 
 function Toggle({ label, children }: { label: string; children: (close: () => void) => ReactNode }) {
   const [open, setOpen] = useState(false);
@@ -51,20 +40,18 @@ function Toggle({ label, children }: { label: string; children: (close: () => vo
   );
 }
 
-interface ComponentDraft {
+interface ComponentDraft extends PartValuesDraft {
   kind: ComponentKind;
   name: string;
   referenceCode: string;
-  engaging: '' | 'yes' | 'no';
-  torqueSpecNcm: number | null;
-  tolerancePct: number | null;
   requiresLot: boolean;
-  angleDeg: number | null;
-  collarHeightMm: number | null;
-  tray: '' | Tray;
 }
 
-/** Admin: a new part on one platform, with its torque specification and the tolerance the practice uses. */
+/**
+ * Admin: a new part on one platform. The inputs follow the kind chosen: the values the plan's rules
+ * and the lab read for that kind (PartValueFields, shared with the row's edit), its torque
+ * specification and the tolerance the practice uses.
+ */
 export function AddComponentForm({ platformId }: { platformId: string }) {
   const uid = useId();
   const save = useSaveComponent();
@@ -75,14 +62,8 @@ export function AddComponentForm({ platformId }: { platformId: string }) {
         kind: d.kind,
         name: d.name,
         referenceCode: d.referenceCode,
-        engaging: d.engaging === '' ? null : d.engaging === 'yes',
-        torqueSpecNcm: d.torqueSpecNcm,
-        // An emptied tolerance is no number: the contract says so beside the field.
-        tolerancePct: d.tolerancePct ?? Number.NaN,
         requiresLot: d.requiresLot,
-        angleDeg: d.angleDeg,
-        collarHeightMm: d.collarHeightMm,
-        tray: d.tray || null,
+        ...partValuesBody(d, d.kind),
       })),
     [platformId],
   );
@@ -90,14 +71,10 @@ export function AddComponentForm({ platformId }: { platformId: string }) {
     kind: 'abutment-screw',
     name: '',
     referenceCode: '',
-    engaging: '',
-    torqueSpecNcm: null,
-    tolerancePct: 10,
     requiresLot: true,
-    angleDeg: null,
-    collarHeightMm: null,
-    tray: '',
+    ...EMPTY_PART_VALUES,
   });
+  const kind = form.watch('kind') as ComponentKind;
   return (
     <FormProvider {...form}>
       <Toggle label="Add part">
@@ -129,65 +106,7 @@ export function AddComponentForm({ platformId }: { platformId: string }) {
             <FormField name="referenceCode" label="Reference" labelFor={`${uid}-reference`} inline>
               <InputGroup id={`${uid}-reference`} {...withInputRef(form.register('referenceCode'))} />
             </FormField>
-            <FormField name="engaging" label="Engaging" labelFor={`${uid}-engaging`} inline>
-              <HTMLSelect id={`${uid}-engaging`} {...form.register('engaging')}>
-                <option value="">does not apply</option>
-                <option value="yes">{INTERFACE_LABEL.engaging.toLowerCase()}</option>
-                <option value="no">{INTERFACE_LABEL['non-engaging'].toLowerCase()}</option>
-              </HTMLSelect>
-            </FormField>
-            <FormField
-              name="torqueSpecNcm"
-              label="Torque (N·cm, empty = hand-tight)"
-              labelFor={`${uid}-torque-n-cm-empty-hand-tight`}
-              inline
-            >
-              <NumberInput
-                name="torqueSpecNcm"
-                buttonPosition="none"
-                id={`${uid}-torque-n-cm-empty-hand-tight`}
-                min={TORQUE_NCM_RANGE.min}
-                max={TORQUE_NCM_RANGE.max}
-              />
-            </FormField>
-            <FormField name="tolerancePct" label="Tolerance (%)" labelFor={`${uid}-tolerance`} inline>
-              <NumberInput
-                name="tolerancePct"
-                buttonPosition="none"
-                id={`${uid}-tolerance`}
-                min={TOLERANCE_PCT_RANGE.min}
-                max={TOLERANCE_PCT_RANGE.max}
-              />
-            </FormField>
-            <FormField name="angleDeg" label="Angle (°)" labelFor={`${uid}-angle`} inline>
-              <NumberInput
-                name="angleDeg"
-                buttonPosition="none"
-                id={`${uid}-angle`}
-                min={PART_ANGLE_DEG_RANGE.min}
-                max={PART_ANGLE_DEG_RANGE.max}
-              />
-            </FormField>
-            <FormField name="collarHeightMm" label="Collar height (mm)" labelFor={`${uid}-collar`} inline>
-              <NumberInput
-                name="collarHeightMm"
-                buttonPosition="none"
-                id={`${uid}-collar`}
-                min={COLLAR_HEIGHT_MM_RANGE.min}
-                max={COLLAR_HEIGHT_MM_RANGE.max}
-                stepSize={0.5}
-              />
-            </FormField>
-            <FormField name="tray" label="Impression tray" labelFor={`${uid}-tray`} inline>
-              <HTMLSelect id={`${uid}-tray`} {...form.register('tray')}>
-                <option value="">does not apply</option>
-                {TRAYS.map((t) => (
-                  <option key={t} value={t}>
-                    {TRAY_LABEL[t].toLowerCase()}
-                  </option>
-                ))}
-              </HTMLSelect>
-            </FormField>
+            <PartValueFields kind={kind} idPrefix={uid} />
             <Checkbox label="Lot number required when delivered" {...withInputRef(form.register('requiresLot'))} />
             <Button type="submit" intent="primary" small text="Add part" loading={save.isPending} />{' '}
             <Button small variant="minimal" text="Cancel" onClick={close} />

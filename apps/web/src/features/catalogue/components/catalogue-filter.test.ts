@@ -15,6 +15,7 @@ const part = (id: string, name: string, kind: CatalogueComponent['kind'], platfo
   retentionLabel: null,
   retentionN: null,
   tray: null,
+  copingLevel: null,
   torqueSpecNcm: 35,
   tolerancePct: 10,
   requiresLot: true,

@@ -1,65 +1,54 @@
 import { Button, Icon } from '@blueprintjs/core';
-import {
-  type CatalogueComponent,
-  COLLAR_HEIGHT_MM_RANGE,
-  ComponentPatch,
-  MANUFACTURER_CAUTION,
-  PART_ANGLE_DEG_RANGE,
-  TOLERANCE_PCT_RANGE,
-} from '@torquetrail/contracts';
-import { catalogueValuesRead, TORQUE_NCM_RANGE } from '@torquetrail/domain';
-import { useState } from 'react';
+import { type CatalogueComponent, ComponentPatch, MANUFACTURER_CAUTION } from '@torquetrail/contracts';
+import { catalogueValuesRead } from '@torquetrail/domain';
+import { useId, useMemo, useState } from 'react';
 import { FormProvider } from 'react-hook-form';
 import { Can } from '../../../lib/ability';
-import { COMPONENT_KIND_LABEL, INTERFACE_LABEL, TRAY_LABEL } from '../../../lib/clinical-labels';
-import { applyServerErrors, draftSchema, errorAt, FieldError, NumberInput, useContractForm } from '../../../lib/forms';
+import { COMPONENT_KIND_LABEL, COPING_LEVEL_LABEL, INTERFACE_LABEL, TRAY_LABEL } from '../../../lib/clinical-labels';
+import { applyServerErrors, draftSchema, useContractForm } from '../../../lib/forms';
 import { useComponentVersions, useSaveComponent } from '../api/catalogue-api';
 import { formatDateTime } from '../../../lib/dates';
 import { useCloseOnEscape } from '../../../lib/use-close-on-escape';
 import { runMutation } from '../../../lib/run-mutation';
+import { PartValueFields, partValuesBody, partValuesDraft, type PartValuesDraft } from './part-value-fields';
 
-interface SpecDraft {
-  torqueSpecNcm: number | null;
-  tolerancePct: number | null;
-  angleDeg: number | null;
-  collarHeightMm: number | null;
-}
-
-// An emptied tolerance is no number: the contract says so beside the field. An emptied angle or
-// collar height is "not stated" (null), which the planner then reports as a Finding where a rule needs it.
-const schema = draftSchema(ComponentPatch, (d: SpecDraft) => ({
-  torqueSpecNcm: d.torqueSpecNcm,
-  tolerancePct: d.tolerancePct ?? Number.NaN,
-  angleDeg: d.angleDeg,
-  collarHeightMm: d.collarHeightMm,
-}));
-
-/** The angle and collar height as the catalogue states them, and what a rule reads but is not stated. */
+/** The values the catalogue states for a part, and what a rule reads but is not stated. */
 function statedValues(part: CatalogueComponent): string {
   const facts: string[] = [];
+  const read = catalogueValuesRead(part.kind);
   if (part.angleDeg !== null) facts.push(`${part.angleDeg}°`);
-  else if (catalogueValuesRead(part.kind).includes('angleDeg')) facts.push('angle not stated');
+  else if (read.includes('angleDeg')) facts.push('angle not stated');
   if (part.collarHeightMm !== null) facts.push(`collar ${part.collarHeightMm} mm`);
-  if (part.engaging === null && catalogueValuesRead(part.kind).includes('engaging'))
-    facts.push('engaging or not: not stated');
+  if (part.engaging === null && read.includes('engaging')) facts.push('engaging or not: not stated');
+  if (part.copingLevel !== null) facts.push(COPING_LEVEL_LABEL[part.copingLevel].toLowerCase());
+  else if (read.includes('copingLevel')) facts.push('coping level not stated');
+  if (part.kind === 'attachment-abutment')
+    facts.push(
+      part.maxDivergenceDeg === null
+        ? 'divergence tolerance not stated'
+        : `up to ${part.maxDivergenceDeg}° between implants`,
+    );
+  if (part.retentionLabel) facts.push(part.retentionLabel);
+  if (part.retentionN !== null) facts.push(`${part.retentionN} N`);
   return facts.map((f) => `, ${f}`).join('');
 }
 
 /**
- * One part: its torque specification and tolerance, editable by the practice admin. The row is a
- * form without a <form> element (a table row cannot hold one): Save submits it.
+ * One part, and for the practice admin its edit: the same field set as adding a part
+ * (PartValueFields), in a form spanning the row. Saving makes a new version (ADR 0006).
  */
 export function ComponentRow({ part }: { part: CatalogueComponent }) {
+  const uid = useId();
   const [editing, setEditing] = useState(false);
   const [showHistory, setShowHistory] = useState(false);
   useCloseOnEscape(editing, () => setEditing(false));
   const versions = useComponentVersions(part.id, showHistory);
-  const form = useContractForm(schema, {
-    torqueSpecNcm: part.torqueSpecNcm,
-    tolerancePct: part.tolerancePct,
-    angleDeg: part.angleDeg,
-    collarHeightMm: part.collarHeightMm,
-  });
+  // Only the values this kind states are sent: the platform and kind of a part never change.
+  const schema = useMemo(
+    () => draftSchema(ComponentPatch, (d: PartValuesDraft) => partValuesBody(d, part.kind, true)),
+    [part.kind],
+  );
+  const form = useContractForm(schema, partValuesDraft(part));
   const save = useSaveComponent();
   const submit = form.handleSubmit((body) =>
     runMutation(
@@ -68,94 +57,50 @@ export function ComponentRow({ part }: { part: CatalogueComponent }) {
       { onSuccess: () => setEditing(false), onError: (error) => applyServerErrors(form.setError, error) },
     ),
   );
+  const stated = statedValues(part);
   return (
     <FormProvider {...form}>
       <tr data-testid="catalogue-part">
-        <td>{part.name}</td>
-        <td className="mono">{part.referenceCode}</td>
-        <td>{COMPONENT_KIND_LABEL[part.kind]}</td>
-        <td>
-          {part.engaging === null ? '—' : INTERFACE_LABEL[part.engaging ? 'engaging' : 'non-engaging'].toLowerCase()}
-          {part.tray ? `, ${TRAY_LABEL[part.tray].toLowerCase()}` : ''}
-          {editing ? (
-            <>
-              <NumberInput
-                name="angleDeg"
-                buttonPosition="none"
-                aria-label={`Angle of ${part.referenceCode} (°, empty = not stated)`}
-                min={PART_ANGLE_DEG_RANGE.min}
-                max={PART_ANGLE_DEG_RANGE.max}
-                intent={errorAt(form.formState.errors, 'angleDeg') ? 'danger' : 'none'}
-              />
-              <FieldError name="angleDeg" className="planner-error" />
-              <NumberInput
-                name="collarHeightMm"
-                buttonPosition="none"
-                aria-label={`Collar height of ${part.referenceCode} (mm, empty = not stated)`}
-                min={COLLAR_HEIGHT_MM_RANGE.min}
-                max={COLLAR_HEIGHT_MM_RANGE.max}
-                intent={errorAt(form.formState.errors, 'collarHeightMm') ? 'danger' : 'none'}
-              />
-              <FieldError name="collarHeightMm" className="planner-error" />
-            </>
-          ) : (
-            statedValues(part) && (
-              <span aria-describedby="catalogue-caution" data-testid="catalogue-part-values">
-                {statedValues(part)}{' '}
-                <span
-                  role="img"
-                  aria-label={MANUFACTURER_CAUTION}
-                  title={MANUFACTURER_CAUTION}
-                  data-testid="catalogue-part-caution"
-                >
-                  <Icon icon="warning-sign" size={12} />
+        {editing ? (
+          <td colSpan={6}>
+            <form aria-label={`Edit ${part.referenceCode}`} onSubmit={(event) => void submit(event)}>
+              <strong>
+                {part.name} <span className="mono">{part.referenceCode}</span> ({COMPONENT_KIND_LABEL[part.kind]})
+              </strong>
+              <PartValueFields kind={part.kind} idPrefix={uid} subject={part.referenceCode} />
+              <Button type="submit" small intent="primary" text="Save as new version" loading={save.isPending} />
+              <Button small variant="minimal" text="Cancel" onClick={() => setEditing(false)} />
+              <p className="muted">Saves a new version: records keep the version they used.</p>
+            </form>
+          </td>
+        ) : (
+          <>
+            <td>{part.name}</td>
+            <td className="mono">{part.referenceCode}</td>
+            <td>{COMPONENT_KIND_LABEL[part.kind]}</td>
+            <td>
+              {part.engaging === null
+                ? '—'
+                : INTERFACE_LABEL[part.engaging ? 'engaging' : 'non-engaging'].toLowerCase()}
+              {part.tray ? `, ${TRAY_LABEL[part.tray].toLowerCase()}` : ''}
+              {stated && (
+                <span aria-describedby="catalogue-caution" data-testid="catalogue-part-values">
+                  {stated}{' '}
+                  <span
+                    role="img"
+                    aria-label={MANUFACTURER_CAUTION}
+                    title={MANUFACTURER_CAUTION}
+                    data-testid="catalogue-part-caution"
+                  >
+                    <Icon icon="warning-sign" size={12} />
+                  </span>
                 </span>
-              </span>
-            )
-          )}
-          {part.kind === 'attachment-abutment'
-            ? part.maxDivergenceDeg === null
-              ? ', divergence tolerance not stated'
-              : `, up to ${part.maxDivergenceDeg}° between implants`
-            : ''}
-          {part.retentionLabel ? `, ${part.retentionLabel}` : ''}
-          {part.retentionN === null ? '' : `, ${part.retentionN} N`}
-        </td>
-        <td>
-          {editing ? (
-            <>
-              <NumberInput
-                name="torqueSpecNcm"
-                buttonPosition="none"
-                aria-label={`Torque of ${part.referenceCode} (N·cm, empty = hand-tight)`}
-                min={TORQUE_NCM_RANGE.min}
-                max={TORQUE_NCM_RANGE.max}
-                intent={errorAt(form.formState.errors, 'torqueSpecNcm') ? 'danger' : 'none'}
-              />
-              <FieldError name="torqueSpecNcm" className="planner-error" />
-            </>
-          ) : part.torqueSpecNcm === null ? (
-            'hand-tight'
-          ) : (
-            `${part.torqueSpecNcm} N·cm`
-          )}
-        </td>
-        <td>
-          {editing ? (
-            <>
-              <NumberInput
-                name="tolerancePct"
-                buttonPosition="none"
-                aria-label={`Tolerance of ${part.referenceCode} (%)`}
-                min={TOLERANCE_PCT_RANGE.min}
-                max={TOLERANCE_PCT_RANGE.max}
-              />
-              <FieldError name="tolerancePct" className="planner-error" />
-            </>
-          ) : (
-            `±${part.tolerancePct} %`
-          )}
-        </td>
+              )}
+            </td>
+            <td>{part.torqueSpecNcm === null ? 'hand-tight' : `${part.torqueSpecNcm} N·cm`}</td>
+            <td>{`±${part.tolerancePct} %`}</td>
+          </>
+        )}
         <td>
           {part.requiresLot ? 'lot required' : ''}
           {part.inUse ? (part.requiresLot ? ', in use' : 'in use') : ''}
@@ -170,21 +115,7 @@ export function ComponentRow({ part }: { part: CatalogueComponent }) {
         </td>
         <Can I="update" a="Catalogue">
           <td>
-            {editing ? (
-              <>
-                <Button
-                  small
-                  intent="primary"
-                  text="Save as new version"
-                  loading={save.isPending}
-                  onClick={() => void submit()}
-                />
-                <Button small variant="minimal" text="Cancel" onClick={() => setEditing(false)} />
-                <p className="muted">Saves a new version: records keep the version they used.</p>
-              </>
-            ) : (
-              <Button small variant="minimal" icon="edit" text="Edit" onClick={() => setEditing(true)} />
-            )}
+            {!editing && <Button small variant="minimal" icon="edit" text="Edit" onClick={() => setEditing(true)} />}
           </td>
         </Can>
       </tr>

@@ -30,6 +30,7 @@ const mua17: CatalogueComponent = {
   retentionLabel: null,
   retentionN: null,
   tray: null,
+  copingLevel: null,
   torqueSpecNcm: 15,
   tolerancePct: 10,
   requiresLot: true,

@@ -275,6 +275,7 @@ function chosenParts(
     const impressionCoping = catalogue.get(s.impressionCopingComponentId);
     return {
       fdi: sites.find((x) => x.siteId === s.siteId)?.fdi ?? 0,
+      interface: s.interface,
       ...(multiUnit ? { multiUnit } : {}),
       ...(abutment ? { abutment } : {}),
       ...(impressionCoping ? { impressionCoping } : {}),

@@ -4,7 +4,7 @@ import { formatTooth } from '@torquetrail/domain';
 import { useState } from 'react';
 import { Link } from 'react-router-dom';
 import { Can } from '../../../lib/ability';
-import { ImpressionPanel } from '../../impressions';
+import { ImpressionPanel, ImpressionSummary } from '../../impressions';
 import { formatDate, formatDateTime } from '../../../lib/dates';
 import type { ToothSystem } from '../../../lib/tooth-system';
 import { useLabPrescription } from '../api/planner-api';
@@ -104,6 +104,9 @@ export function RestorationPanel({
       )}
       {(r.labPrescriptions?.length ?? 0) > 0 && (
         <ul aria-label="Lab prescriptions">
+          <Can I="read" a="Impression">
+            <ImpressionSummary restorationId={r.id} system={system} />
+          </Can>
           {(r.labPrescriptions ?? []).map((l) => (
             <li key={l.id}>
               <a href={`/api/lab-prescriptions/${l.id}/pdf`} data-testid="lab-pdf-link">
