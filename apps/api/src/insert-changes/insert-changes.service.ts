@@ -1,3 +1,4 @@
+import { fitInsert } from '../db/insert-fitting.js';
 import { Inject, Injectable } from '@nestjs/common';
 import type { AppAbility } from '@torquetrail/authz';
 import {
@@ -102,6 +103,8 @@ export class InsertChangesService {
     };
     const id = await auditedTransaction(this.db, async (tx) => {
       const newId = await repo.insertInsertChange(tx, values);
+      // The Stack shows what is in the mouth: the new insert replaces the one in place.
+      await fitInsert(tx, { ...values, componentId: values.newComponentId });
       reportChange({ type: 'InsertChange', id: newId, patientId: site.patientId, after: values });
       return newId;
     });

@@ -7,6 +7,7 @@
 import { addCalendarDays as addDays, addCalendarMonths } from '@torquetrail/domain';
 import { at, addPatient, addSite, birthDate, type Ctx, install, place, restoration, seated } from './demo-builders.js';
 import { insertChanges } from '../db/schema/index.js';
+import { fitInsert } from '../db/insert-fitting.js';
 
 const LOWER_ARCH = [31, 32, 33, 34, 35, 36, 37, 38, 41, 42, 43, 44, 45, 46, 47, 48];
 const UPPER_ARCH = [11, 12, 13, 14, 15, 16, 17, 18, 21, 22, 23, 24, 25, 26, 27, 28];
@@ -216,7 +217,7 @@ async function seedBeatrixInsertChanges(
           : null;
     // A fractured insert is changed at its own site only.
     const sites = reason === 'fracture' ? b.siteIds.slice(1) : b.siteIds;
-    for (const siteId of sites)
+    for (const siteId of sites) {
       await ctx.tx.insert(insertChanges).values({
         practiceId: ctx.practiceId,
         patientId: b.patientId,
@@ -230,6 +231,17 @@ async function seedBeatrixInsertChanges(
         recordedBy: hygienist,
         recordedAt: at(changedOn, '11:00'),
       });
+      // As logging one in the app does, the new insert replaces the one in the Stack.
+      await fitInsert(ctx.tx, {
+        practiceId: ctx.practiceId,
+        patientId: b.patientId,
+        siteId,
+        restorationId: b.restorationId,
+        componentId: parts.get(next)!,
+        changedOn,
+        recordedBy: hygienist,
+      });
+    }
     strength = next;
   }
 }
