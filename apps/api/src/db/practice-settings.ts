@@ -53,3 +53,6 @@ export const sessionSettings = practiceSetting({
   idleSignOutMinutes: practices.idleSignOutMinutes,
   dateFormat: practices.dateFormat,
 });
+export const insertReviewSettings = practiceSetting({
+  insertReviewIntervalMonths: practices.insertReviewIntervalMonths,
+});

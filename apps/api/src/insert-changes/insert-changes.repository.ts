@@ -7,7 +7,6 @@ import {
   implantSites,
   insertChanges,
   patients,
-  practices,
   restorationSites,
   restorations,
   users,
@@ -192,17 +191,4 @@ export async function lastChangeOfRestoration(db: Db, restorationId: string, del
       ),
     );
   return row?.last ?? null;
-}
-
-/** The practice's insert review interval, months. */
-export async function findReviewInterval(db: Db, practiceId: string): Promise<number> {
-  const [row] = await db
-    .select({ months: practices.insertReviewIntervalMonths })
-    .from(practices)
-    .where(eq(practices.id, practiceId));
-  return row.months;
-}
-
-export async function setReviewInterval(db: Db, practiceId: string, months: number) {
-  await db.update(practices).set({ insertReviewIntervalMonths: months }).where(eq(practices.id, practiceId));
 }

@@ -1,4 +1,5 @@
 import { fitInsert } from '../db/insert-fitting.js';
+import { insertReviewSettings } from '../db/practice-settings.js';
 import { Inject, Injectable } from '@nestjs/common';
 import type { AppAbility } from '@torquetrail/authz';
 import {
@@ -169,10 +170,10 @@ export class InsertChangesService {
     const overdenture = await repo.findDeliveredOverdenture(this.db, siteId);
     if (!overdenture) return null;
     const today = this.clock.today();
-    const [entries, lastOfRestoration, months] = await Promise.all([
+    const [entries, lastOfRestoration, { insertReviewIntervalMonths: months }] = await Promise.all([
       repo.currentChangesOfSite(this.db, siteId),
       repo.lastChangeOfRestoration(this.db, overdenture.id, overdenture.deliveredOn),
-      repo.findReviewInterval(this.db, practiceId),
+      insertReviewSettings.read(this.db, practiceId),
     ]);
     // An entry dated after today (the clock pinned back in a test) is left out of the counts.
     const summary = insertChangeSummary(
@@ -196,21 +197,11 @@ export class InsertChangesService {
     return repo.allChangesOfSite(this.db, siteId);
   }
 
-  async settings(scope: Scope): Promise<InsertReviewSettings> {
-    return { insertReviewIntervalMonths: await repo.findReviewInterval(this.db, scope.practiceId) };
+  settings(scope: Scope): Promise<InsertReviewSettings> {
+    return insertReviewSettings.read(this.db, scope.practiceId);
   }
 
-  async setSettings(scope: Scope, insertReviewIntervalMonths: number): Promise<InsertReviewSettings> {
-    await auditedTransaction(this.db, async (tx) => {
-      const before = await repo.findReviewInterval(tx, scope.practiceId);
-      await repo.setReviewInterval(tx, scope.practiceId, insertReviewIntervalMonths);
-      reportChange({
-        type: 'Practice',
-        id: scope.practiceId,
-        before: { insertReviewIntervalMonths: before },
-        after: { insertReviewIntervalMonths },
-      });
-    });
-    return { insertReviewIntervalMonths };
+  setSettings(scope: Scope, insertReviewIntervalMonths: number): Promise<InsertReviewSettings> {
+    return insertReviewSettings.change(this.db, scope.practiceId, { insertReviewIntervalMonths });
   }
 }
