@@ -105,11 +105,9 @@ describe('a digital impression (the seeded one of LL-1005, scan bodies at 15 and
     const text = await passportText(pid);
     expect(text).toContain('Impressions taken for your restorations');
     expect(text).toContain(
-      `On ${writeCalendarDate(impression.takenOn, 'day-month-year')}, a digital impression (an intraoral scan, with a scan body screwed on each implant), at tooth 15, 16 (FDI)`,
+      `On ${writeCalendarDate(impression.takenOn, 'day-month-year')}, a digital impression (an intraoral scan, with a scan body screwed on each implant), at site 15, 16 (FDI)`,
     );
-    expect(text).toMatch(
-      /Scan body at tooth 15, used and removed: Scan body, hand-tight \[TEX-41-SB\], lot SBX41-2615/,
-    );
+    expect(text).toMatch(/Scan body at site 15, used and removed: Scan body, hand-tight \[TEX-41-SB\], lot SBX41-2615/);
     expect(text).toMatch(/Scan file kept by the practice: upper-right-15-16\.stl \(STL, \d+ kB\)/);
   });
 });
@@ -155,13 +153,13 @@ describe('an analog impression recorded over HTTP', () => {
     const coping = resources.find((r) => `urn:uuid:${r.id}` === focal.manipulated.reference)!;
     expect(coping).toMatchObject({ resourceType: 'Device', status: 'inactive', modelNumber: 'SCN-43-ICE-C' });
     expect(coping.type).toMatchObject({ coding: [{ code: 'impression-coping' }] });
-    expect((coping.type as { text: string }).text).toBe('Impression coping at tooth 36 (FDI), implant level');
+    expect((coping.type as { text: string }).text).toBe('Impression coping at site 36 (FDI), implant level');
     expect(resources.filter((r) => r.resourceType === 'DocumentReference')).toEqual([]);
 
     const text = await passportText(pid);
-    expect(text).toContain('On 20 Nov 2026, an impression with impression copings on the implants, at tooth 36 (FDI)');
+    expect(text).toContain('On 20 Nov 2026, an impression with impression copings on the implants, at site 36 (FDI)');
     expect(text).toContain(
-      'Impression coping at tooth 36, used and removed: Impression coping, engaging, closed tray [SCN-43-ICE-C]',
+      'Impression coping at site 36, used and removed: Impression coping, engaging, closed tray [SCN-43-ICE-C]',
     );
   });
 });

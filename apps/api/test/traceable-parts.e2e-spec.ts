@@ -80,7 +80,8 @@ describe('what the surgeon recorded at placement', () => {
     for (const words of [
       `GTIN ${GTIN}`,
       'serial SN00417',
-      'expiry 2029-11-30',
+      // In the practice's date order (day-month-year, Larkspur's): issue 15 §7.
+      'expiry 30 Nov 2029',
       'grafting: Autogenous chips, buccal wall',
       'notes: Thin buccal plate; primary stability good',
     ])

@@ -1,11 +1,9 @@
 // The Stack's retentive inserts and bar clips: a logged insert change (the app's or the demo's)
 // takes the insert in place out and installs the new one, as any replaced part is recorded.
 import { and, eq, inArray, isNull } from 'drizzle-orm';
+import { DENTURE_RETAINER_KINDS } from '@torquetrail/contracts';
 import type { Tx } from './database.js';
 import { componentInstances, components } from './schema/index.js';
-
-/** The catalogue kinds an insert change takes out and puts in. */
-const INSERT_KINDS = ['retentive-insert', 'bar-clip'] as const;
 
 /**
  * Puts a logged insert change into the Stack: the insert in place at the site comes out on the day
@@ -33,7 +31,7 @@ export async function fitInsert(
       and(
         eq(componentInstances.siteId, v.siteId),
         isNull(componentInstances.removedOn),
-        inArray(components.kind, [...INSERT_KINDS]),
+        inArray(components.kind, [...DENTURE_RETAINER_KINDS]),
       ),
     )
     .orderBy(componentInstances.installedOn)

@@ -242,7 +242,7 @@ function impressionPartDevice(patientId: string, part: SnapshotImpression['parts
     modelNumber: part.referenceCode,
     type: {
       coding: [{ system: CODE_SYSTEMS.deviceKind, code: part.kind, display: partKindWords(part.kind) }],
-      text: `${partKindWords(part.kind)} at tooth ${part.fdi} (FDI)${part.copingLevel === 'multi-unit' ? ', on a multi-unit abutment' : part.copingLevel === 'implant' ? ', implant level' : ''}`,
+      text: `${partKindWords(part.kind)} at site ${part.fdi} (FDI)${part.copingLevel === 'multi-unit' ? ', on a multi-unit abutment' : part.copingLevel === 'implant' ? ', implant level' : ''}`,
     },
     patient: ref(patientId),
   };
@@ -265,7 +265,7 @@ function scanFileDocument(
     },
     subject: ref(patientId),
     date: file.uploadedAt,
-    description: `Scan file of the digital impression of ${i.takenOn}`,
+    description: 'Scan file of the digital impression',
     content: [
       {
         attachment: {

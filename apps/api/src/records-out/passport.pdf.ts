@@ -48,11 +48,11 @@ function impressionLines(i: SnapshotImpression, dates: DatePrinter): string[] {
       ? 'a digital impression (an intraoral scan, with a scan body screwed on each implant)'
       : 'an impression with impression copings on the implants';
   const lines = [
-    `On ${dates.date(i.takenOn)}, ${how}, at tooth ${teeth} (FDI), for the crown, bridge or denture made on them.`,
+    `On ${dates.date(i.takenOn)}, ${how}, at site ${teeth} (FDI), for the crown, bridge or denture made on them.`,
   ];
   for (const p of i.parts)
     lines.push(
-      `- ${partKindWords(p.kind)} at tooth ${p.fdi}, used and removed: ${p.name} [${p.referenceCode}]${p.lot ? `, lot ${p.lot}` : ''}`,
+      `- ${partKindWords(p.kind)} at site ${p.fdi}, used and removed: ${p.name} [${p.referenceCode}]${p.lot ? `, lot ${p.lot}` : ''}`,
     );
   for (const f of i.files)
     lines.push(
