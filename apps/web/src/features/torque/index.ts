@@ -1,4 +1,3 @@
-import './components/torque.css';
 // The torque feature's public surface, used by the Site file and the planner's restorations.
 export { LogTorquePanel } from './components/log-torque-panel';
 export { SeatRestorationForm } from './components/seat-restoration-form';

@@ -20,6 +20,7 @@ import {
 } from '../../../lib/forms';
 import { useAmendComplication, useAmendTorque } from '../api/amend-entry';
 import { runMutation } from '../../../lib/run-mutation';
+import './timeline.css';
 
 type TorqueAmendment = z.output<typeof TorqueAmendmentBody>;
 type ComplicationAmendment = z.output<typeof ComplicationAmendmentBody>;

@@ -17,6 +17,7 @@ import {
 import { useRecordComplication } from '../api/record-complication';
 import { useCloseOnEscape } from '../../../lib/use-close-on-escape';
 import { runMutation } from '../../../lib/run-mutation';
+import './timeline.css';
 
 interface ComplicationDraft {
   kind: ComplicationKind;

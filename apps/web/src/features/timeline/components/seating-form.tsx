@@ -27,6 +27,7 @@ import { useRadiographs } from '../../radiographs';
 import { type SeatingSave, useSaveSeating, useSeatingChecks } from '../api/seating';
 import { useCloseOnEscape } from '../../../lib/use-close-on-escape';
 import { runMutation } from '../../../lib/run-mutation';
+import './timeline.css';
 
 interface SeatingDraft {
   /** '' = none chosen yet. */

@@ -14,6 +14,7 @@ import { Link } from 'react-router-dom';
 import { TORQUE_VERDICT_LABEL } from '../../../lib/clinical-labels';
 import { TIMELINE_KIND_LABEL } from '../../../lib/labels';
 import { useCloseOnEscape } from '../../../lib/use-close-on-escape';
+import './timeline.css';
 
 /** Icon per kind, in the order of the filter checkboxes. */
 const KIND_ICON: Record<TimelineKind, IconName> = {

@@ -4,6 +4,7 @@ import { useState } from 'react';
 import { Can } from '../../../lib/ability';
 import { TorqueForm } from './torque-form';
 import { useCloseOnEscape } from '../../../lib/use-close-on-escape';
+import './torque.css';
 
 /** "Log torque": shown only to those who may record torque; opens the torque entry form inline. */
 export function LogTorquePanel({ siteId, parts }: { siteId: string; parts: StackPart[] }) {

@@ -22,6 +22,7 @@ import { useRestorationScrews, useSeatRestoration } from '../api/seat-restoratio
 import { WrenchCalibrationWarning, WrenchOptions } from './wrench-options';
 import { instant } from './local-instant';
 import { runMutation } from '../../../lib/run-mutation';
+import './torque.css';
 
 interface SeatDraft {
   wrenchId: string;

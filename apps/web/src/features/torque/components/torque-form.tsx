@@ -19,6 +19,7 @@ import { useLogTorque } from '../api/log-torque';
 import { WrenchCalibrationWarning, WrenchOptions } from './wrench-options';
 import { instant } from './local-instant';
 import { runMutation } from '../../../lib/run-mutation';
+import './torque.css';
 
 interface TorqueDraft {
   componentInstanceId: string;
