@@ -16,6 +16,7 @@ import pgModule from 'pg';
 import { API_NODE_OPTIONS, repoRoot } from './lib/config.mjs';
 import { benchEnv, cloneDatabase, ownerUrl, prepareDemoDatabase } from './lib/bench-databases.mjs';
 import { seedLargePractice } from './lib/bench-large-seed.mjs';
+import { ensureChromium } from './lib/bootstrap.mjs';
 import { waitForPort } from './lib/proc.mjs';
 import { startServices } from './services.mjs';
 import { API_PG_OPTIONS, explainDesk, writeResults } from './bench/site-file-report.mjs';
@@ -46,6 +47,8 @@ const log = (line) => console.log(line);
 
 // ---- databases -----------------------------------------------------------------------------
 await startServices();
+// Before any measuring: installing the browser later would load the machine during a run.
+if (!args.desk) await ensureChromium();
 const started = performance.now();
 const t0 = performance.now();
 if (!args.desk) await prepareDemoDatabase(DEMO_DB);

@@ -10,6 +10,7 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import { chromium } from 'playwright-core';
+import { ensureChromium } from '../lib/bootstrap.mjs';
 
 const median = (xs) => [...xs].sort((a, b) => a - b)[Math.floor((xs.length - 1) / 2)];
 
@@ -25,7 +26,8 @@ function gzipBytes(webDist, pathname) {
  */
 export async function measureWebFirstLoad({ baseUrl, cookie, patientId, webDist, runs = 5 }) {
   const browser = await chromium.launch({
-    executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
+    // Installed as `npm test` installs it, so the benchmark also runs on a machine that never ran the tests.
+    executablePath: await ensureChromium(),
     args: ['--no-sandbox', '--disable-gpu', '--no-first-run', '--disable-background-networking'],
     headless: true,
   });
