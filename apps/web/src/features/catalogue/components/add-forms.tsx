@@ -13,7 +13,8 @@ import {
   WRENCH_TYPES,
 } from '@torquetrail/contracts';
 import { type ReactNode, useId, useMemo, useState } from 'react';
-import { FormProvider } from 'react-hook-form';
+import { type FieldValues, FormProvider, type UseFormReturn } from 'react-hook-form';
+import type { UseMutationResult } from '@tanstack/react-query';
 import { COMPONENT_KIND_LABEL, CONNECTION_LABEL, WRENCH_TYPE_LABEL } from '../../../lib/clinical-labels';
 import {
   applyServerErrors,
@@ -30,13 +31,50 @@ import { useCloseOnEscape } from '../../../lib/use-close-on-escape';
 import { runMutation } from '../../../lib/run-mutation';
 import { EMPTY_PART_VALUES, PartValueFields, partValuesBody, type PartValuesDraft } from './part-value-fields';
 
-function Toggle({ label, children }: { label: string; children: (close: () => void) => ReactNode }) {
+/**
+ * What every add form here shares: a button that opens the form, the fields, Add and Cancel; the
+ * API's field errors land beside their fields and a saved form closes.
+ */
+function AddToggleForm<Values extends FieldValues, Body, Variables>({
+  label,
+  submitText,
+  form,
+  mutation,
+  variables,
+  children,
+}: {
+  /** The opening button's text and the form's accessible name. */
+  label: string;
+  submitText: string;
+  form: UseFormReturn<Values, unknown, Body>;
+  mutation: UseMutationResult<unknown, Error, Variables>;
+  variables: (body: Body) => Variables;
+  children: ReactNode;
+}) {
   const [open, setOpen] = useState(false);
-  useCloseOnEscape(open, () => setOpen(false));
-  return open ? (
-    <div className="catalogue-add">{children(() => setOpen(false))}</div>
-  ) : (
-    <Button small icon="add" text={label} onClick={() => setOpen(true)} />
+  const close = () => setOpen(false);
+  useCloseOnEscape(open, close);
+  if (!open) return <Button small icon="add" text={label} onClick={() => setOpen(true)} />;
+  return (
+    <FormProvider {...form}>
+      <div className="catalogue-add">
+        <form
+          aria-label={label}
+          onSubmit={(event) =>
+            void form.handleSubmit((body) =>
+              runMutation(mutation, variables(body), {
+                onSuccess: close,
+                onError: (error) => applyServerErrors(form.setError, error),
+              }),
+            )(event)
+          }
+        >
+          {children}
+          <Button type="submit" intent="primary" small text={submitText} loading={mutation.isPending} />{' '}
+          <Button small variant="minimal" text="Cancel" onClick={close} />
+        </form>
+      </div>
+    </FormProvider>
   );
 }
 
@@ -76,44 +114,25 @@ export function AddComponentForm({ platformId }: { platformId: string }) {
   });
   const kind = form.watch('kind') as ComponentKind;
   return (
-    <FormProvider {...form}>
-      <Toggle label="Add part">
-        {(close) => (
-          <form
-            aria-label="Add part"
-            onSubmit={(event) =>
-              void form.handleSubmit((body) =>
-                runMutation(
-                  save,
-                  { body },
-                  { onSuccess: close, onError: (error) => applyServerErrors(form.setError, error) },
-                ),
-              )(event)
-            }
-          >
-            <FormField name="kind" label="Kind" labelFor={`${uid}-kind`} inline>
-              <HTMLSelect id={`${uid}-kind`} {...form.register('kind')}>
-                {COMPONENT_KINDS.map((k) => (
-                  <option key={k} value={k}>
-                    {COMPONENT_KIND_LABEL[k]}
-                  </option>
-                ))}
-              </HTMLSelect>
-            </FormField>
-            <FormField name="name" label="Name" labelFor={`${uid}-name`} inline>
-              <InputGroup id={`${uid}-name`} {...withInputRef(form.register('name'))} />
-            </FormField>
-            <FormField name="referenceCode" label="Reference" labelFor={`${uid}-reference`} inline>
-              <InputGroup id={`${uid}-reference`} {...withInputRef(form.register('referenceCode'))} />
-            </FormField>
-            <PartValueFields kind={kind} idPrefix={uid} />
-            <Checkbox label="Lot number required when delivered" {...withInputRef(form.register('requiresLot'))} />
-            <Button type="submit" intent="primary" small text="Add part" loading={save.isPending} />{' '}
-            <Button small variant="minimal" text="Cancel" onClick={close} />
-          </form>
-        )}
-      </Toggle>
-    </FormProvider>
+    <AddToggleForm label="Add part" submitText="Add part" form={form} mutation={save} variables={(body) => ({ body })}>
+      <FormField name="kind" label="Kind" labelFor={`${uid}-kind`} inline>
+        <HTMLSelect id={`${uid}-kind`} {...form.register('kind')}>
+          {COMPONENT_KINDS.map((k) => (
+            <option key={k} value={k}>
+              {COMPONENT_KIND_LABEL[k]}
+            </option>
+          ))}
+        </HTMLSelect>
+      </FormField>
+      <FormField name="name" label="Name" labelFor={`${uid}-name`} inline>
+        <InputGroup id={`${uid}-name`} {...withInputRef(form.register('name'))} />
+      </FormField>
+      <FormField name="referenceCode" label="Reference" labelFor={`${uid}-reference`} inline>
+        <InputGroup id={`${uid}-reference`} {...withInputRef(form.register('referenceCode'))} />
+      </FormField>
+      <PartValueFields kind={kind} idPrefix={uid} />
+      <Checkbox label="Lot number required when delivered" {...withInputRef(form.register('requiresLot'))} />
+    </AddToggleForm>
   );
 }
 
@@ -145,49 +164,31 @@ export function AddPlatformForm({ systemId }: { systemId: string }) {
     platformShift: false,
   });
   return (
-    <FormProvider {...form}>
-      <Toggle label="Add platform">
-        {(close) => (
-          <form
-            aria-label="Add platform"
-            onSubmit={(event) =>
-              void form.handleSubmit((body) =>
-                runMutation(add, body, {
-                  onSuccess: close,
-                  onError: (error) => applyServerErrors(form.setError, error),
-                }),
-              )(event)
-            }
-          >
-            <FormField name="name" label="Name" labelFor={`${uid}-name`} inline>
-              <InputGroup id={`${uid}-name`} {...withInputRef(form.register('name'))} />
-            </FormField>
-            <FormField name="diameterMm" label="Diameter (mm)" labelFor={`${uid}-diameter-mm`} inline>
-              <NumberInput
-                name="diameterMm"
-                buttonPosition="none"
-                id={`${uid}-diameter-mm`}
-                min={PLATFORM_DIAMETER_MM_RANGE.min}
-                max={PLATFORM_DIAMETER_MM_RANGE.max}
-                stepSize={0.1}
-              />
-            </FormField>
-            <FormField name="connection" label="Connection" labelFor={`${uid}-connection`} inline>
-              <HTMLSelect id={`${uid}-connection`} {...form.register('connection')}>
-                {CONNECTIONS.map((c) => (
-                  <option key={c} value={c}>
-                    {CONNECTION_LABEL[c]}
-                  </option>
-                ))}
-              </HTMLSelect>
-            </FormField>
-            <Checkbox label="Platform shift" {...withInputRef(form.register('platformShift'))} />
-            <Button type="submit" intent="primary" small text="Add platform" loading={add.isPending} />{' '}
-            <Button small variant="minimal" text="Cancel" onClick={close} />
-          </form>
-        )}
-      </Toggle>
-    </FormProvider>
+    <AddToggleForm label="Add platform" submitText="Add platform" form={form} mutation={add} variables={(body) => body}>
+      <FormField name="name" label="Name" labelFor={`${uid}-name`} inline>
+        <InputGroup id={`${uid}-name`} {...withInputRef(form.register('name'))} />
+      </FormField>
+      <FormField name="diameterMm" label="Diameter (mm)" labelFor={`${uid}-diameter-mm`} inline>
+        <NumberInput
+          name="diameterMm"
+          buttonPosition="none"
+          id={`${uid}-diameter-mm`}
+          min={PLATFORM_DIAMETER_MM_RANGE.min}
+          max={PLATFORM_DIAMETER_MM_RANGE.max}
+          stepSize={0.1}
+        />
+      </FormField>
+      <FormField name="connection" label="Connection" labelFor={`${uid}-connection`} inline>
+        <HTMLSelect id={`${uid}-connection`} {...form.register('connection')}>
+          {CONNECTIONS.map((c) => (
+            <option key={c} value={c}>
+              {CONNECTION_LABEL[c]}
+            </option>
+          ))}
+        </HTMLSelect>
+      </FormField>
+      <Checkbox label="Platform shift" {...withInputRef(form.register('platformShift'))} />
+    </AddToggleForm>
   );
 }
 
@@ -196,32 +197,20 @@ export function AddSystemForm() {
   const add = useAddSystem();
   const form = useContractForm(SystemBody, { name: '', manufacturer: '' });
   return (
-    <FormProvider {...form}>
-      <Toggle label="Add implant system">
-        {(close) => (
-          <form
-            aria-label="Add implant system"
-            onSubmit={(event) =>
-              void form.handleSubmit((body) =>
-                runMutation(add, body, {
-                  onSuccess: close,
-                  onError: (error) => applyServerErrors(form.setError, error),
-                }),
-              )(event)
-            }
-          >
-            <FormField name="name" label="Name" labelFor={`${uid}-name`} inline>
-              <InputGroup id={`${uid}-name`} {...withInputRef(form.register('name'))} />
-            </FormField>
-            <FormField name="manufacturer" label="Manufacturer" labelFor={`${uid}-manufacturer`} inline>
-              <InputGroup id={`${uid}-manufacturer`} {...withInputRef(form.register('manufacturer'))} />
-            </FormField>
-            <Button type="submit" intent="primary" small text="Add system" loading={add.isPending} />{' '}
-            <Button small variant="minimal" text="Cancel" onClick={close} />
-          </form>
-        )}
-      </Toggle>
-    </FormProvider>
+    <AddToggleForm
+      label="Add implant system"
+      submitText="Add system"
+      form={form}
+      mutation={add}
+      variables={(body) => body}
+    >
+      <FormField name="name" label="Name" labelFor={`${uid}-name`} inline>
+        <InputGroup id={`${uid}-name`} {...withInputRef(form.register('name'))} />
+      </FormField>
+      <FormField name="manufacturer" label="Manufacturer" labelFor={`${uid}-manufacturer`} inline>
+        <InputGroup id={`${uid}-manufacturer`} {...withInputRef(form.register('manufacturer'))} />
+      </FormField>
+    </AddToggleForm>
   );
 }
 
@@ -242,41 +231,28 @@ export function AddWrenchForm() {
   const save = useSaveWrench();
   const form = useContractForm(wrenchSchema, { label: '', type: 'spring', lastCalibratedOn: '' });
   return (
-    <FormProvider {...form}>
-      <Toggle label="Add wrench">
-        {(close) => (
-          <form
-            aria-label="Add wrench"
-            onSubmit={(event) =>
-              void form.handleSubmit((body) =>
-                runMutation(
-                  save,
-                  { body },
-                  { onSuccess: close, onError: (error) => applyServerErrors(form.setError, error) },
-                ),
-              )(event)
-            }
-          >
-            <FormField name="label" label="Label" labelFor={`${uid}-label`} inline>
-              <InputGroup id={`${uid}-label`} {...withInputRef(form.register('label'))} />
-            </FormField>
-            <FormField name="type" label="Type" labelFor={`${uid}-type`} inline>
-              <HTMLSelect id={`${uid}-type`} {...form.register('type')}>
-                {WRENCH_TYPES.map((t) => (
-                  <option key={t} value={t}>
-                    {WRENCH_TYPE_LABEL[t].toLowerCase()}
-                  </option>
-                ))}
-              </HTMLSelect>
-            </FormField>
-            <FormField name="lastCalibratedOn" label="Last calibration" labelFor={`${uid}-last-calibration`} inline>
-              <DateField id={`${uid}-last-calibration`} name="lastCalibratedOn" />
-            </FormField>
-            <Button type="submit" intent="primary" small text="Add wrench" loading={save.isPending} />{' '}
-            <Button small variant="minimal" text="Cancel" onClick={close} />
-          </form>
-        )}
-      </Toggle>
-    </FormProvider>
+    <AddToggleForm
+      label="Add wrench"
+      submitText="Add wrench"
+      form={form}
+      mutation={save}
+      variables={(body) => ({ body })}
+    >
+      <FormField name="label" label="Label" labelFor={`${uid}-label`} inline>
+        <InputGroup id={`${uid}-label`} {...withInputRef(form.register('label'))} />
+      </FormField>
+      <FormField name="type" label="Type" labelFor={`${uid}-type`} inline>
+        <HTMLSelect id={`${uid}-type`} {...form.register('type')}>
+          {WRENCH_TYPES.map((t) => (
+            <option key={t} value={t}>
+              {WRENCH_TYPE_LABEL[t].toLowerCase()}
+            </option>
+          ))}
+        </HTMLSelect>
+      </FormField>
+      <FormField name="lastCalibratedOn" label="Last calibration" labelFor={`${uid}-last-calibration`} inline>
+        <DateField id={`${uid}-last-calibration`} name="lastCalibratedOn" />
+      </FormField>
+    </AddToggleForm>
   );
 }

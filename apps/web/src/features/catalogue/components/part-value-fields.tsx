@@ -127,60 +127,39 @@ export function PartValueFields({
         </FormField>
       )}
       {states('copingLevel') && (
-        <FormField name="copingLevel" label={`Coping level${of}`} labelFor={id('coping-level')} inline>
-          <HTMLSelect id={id('coping-level')} {...register('copingLevel')}>
-            <option value="">not stated</option>
-            {COPING_LEVELS.map((l) => (
-              <option key={l} value={l}>
-                {COPING_LEVEL_LABEL[l].toLowerCase()}
-              </option>
-            ))}
-          </HTMLSelect>
-        </FormField>
+        <ChoiceField
+          name="copingLevel"
+          label={`Coping level${of}`}
+          id={id('coping-level')}
+          none="not stated"
+          choices={COPING_LEVELS}
+          words={COPING_LEVEL_LABEL}
+        />
       )}
       {states('angleDeg') && (
-        <FormField name="angleDeg" label={`Angle${of} (°, empty = not stated)`} labelFor={id('angle')} inline>
-          <NumberInput
-            name="angleDeg"
-            buttonPosition="none"
-            id={id('angle')}
-            min={PART_ANGLE_DEG_RANGE.min}
-            max={PART_ANGLE_DEG_RANGE.max}
-          />
-        </FormField>
+        <NumberField
+          name="angleDeg"
+          label={`Angle${of} (°, ${UNSTATED})`}
+          id={id('angle')}
+          range={PART_ANGLE_DEG_RANGE}
+        />
       )}
       {states('collarHeightMm') && (
-        <FormField
+        <NumberField
           name="collarHeightMm"
-          label={`Collar height${of} (mm, empty = not stated)`}
-          labelFor={id('collar')}
-          inline
-        >
-          <NumberInput
-            name="collarHeightMm"
-            buttonPosition="none"
-            id={id('collar')}
-            min={COLLAR_HEIGHT_MM_RANGE.min}
-            max={COLLAR_HEIGHT_MM_RANGE.max}
-            stepSize={0.5}
-          />
-        </FormField>
+          label={`Collar height${of} (mm, ${UNSTATED})`}
+          id={id('collar')}
+          range={COLLAR_HEIGHT_MM_RANGE}
+          stepSize={0.5}
+        />
       )}
       {states('maxDivergenceDeg') && (
-        <FormField
+        <NumberField
           name="maxDivergenceDeg"
-          label={`Divergence tolerance between implants${of} (°, empty = not stated)`}
-          labelFor={id('divergence')}
-          inline
-        >
-          <NumberInput
-            name="maxDivergenceDeg"
-            buttonPosition="none"
-            id={id('divergence')}
-            min={MAX_DIVERGENCE_DEG_RANGE.min}
-            max={MAX_DIVERGENCE_DEG_RANGE.max}
-          />
-        </FormField>
+          label={`Divergence tolerance between implants${of} (°, ${UNSTATED})`}
+          id={id('divergence')}
+          range={MAX_DIVERGENCE_DEG_RANGE}
+        />
       )}
       {states('retentionLabel') && (
         <FormField
@@ -193,51 +172,84 @@ export function PartValueFields({
         </FormField>
       )}
       {states('retentionN') && (
-        <FormField
+        <NumberField
           name="retentionN"
-          label={`Retention force${of} (N, empty = not stated)`}
-          labelFor={id('retention-n')}
-          inline
-        >
-          <NumberInput
-            name="retentionN"
-            buttonPosition="none"
-            id={id('retention-n')}
-            min={RETENTION_N_RANGE.min}
-            max={RETENTION_N_RANGE.max}
-          />
-        </FormField>
+          label={`Retention force${of} (N, ${UNSTATED})`}
+          id={id('retention-n')}
+          range={RETENTION_N_RANGE}
+        />
       )}
       {states('tray') && (
-        <FormField name="tray" label={`Impression tray${of}`} labelFor={id('tray')} inline>
-          <HTMLSelect id={id('tray')} {...register('tray')}>
-            <option value="">does not apply</option>
-            {TRAYS.map((t) => (
-              <option key={t} value={t}>
-                {TRAY_LABEL[t].toLowerCase()}
-              </option>
-            ))}
-          </HTMLSelect>
-        </FormField>
+        <ChoiceField
+          name="tray"
+          label={`Impression tray${of}`}
+          id={id('tray')}
+          none="does not apply"
+          choices={TRAYS}
+          words={TRAY_LABEL}
+        />
       )}
-      <FormField name="torqueSpecNcm" label={`Torque${of} (N·cm, empty = hand-tight)`} labelFor={id('torque')} inline>
-        <NumberInput
-          name="torqueSpecNcm"
-          buttonPosition="none"
-          id={id('torque')}
-          min={TORQUE_NCM_RANGE.min}
-          max={TORQUE_NCM_RANGE.max}
-        />
-      </FormField>
-      <FormField name="tolerancePct" label={`Tolerance${of} (%)`} labelFor={id('tolerance')} inline>
-        <NumberInput
-          name="tolerancePct"
-          buttonPosition="none"
-          id={id('tolerance')}
-          min={TOLERANCE_PCT_RANGE.min}
-          max={TOLERANCE_PCT_RANGE.max}
-        />
-      </FormField>
+      <NumberField
+        name="torqueSpecNcm"
+        label={`Torque${of} (N·cm, empty = hand-tight)`}
+        id={id('torque')}
+        range={TORQUE_NCM_RANGE}
+      />
+      <NumberField name="tolerancePct" label={`Tolerance${of} (%)`} id={id('tolerance')} range={TOLERANCE_PCT_RANGE} />
     </div>
+  );
+}
+
+const UNSTATED = 'empty = not stated';
+
+/** A number the catalogue states for the part, within the contract's range. */
+function NumberField({
+  name,
+  label,
+  id,
+  range,
+  stepSize,
+}: {
+  name: keyof PartValuesDraft;
+  label: string;
+  id: string;
+  range: { min: number; max: number };
+  stepSize?: number;
+}) {
+  return (
+    <FormField name={name} label={label} labelFor={id} inline>
+      <NumberInput name={name} buttonPosition="none" id={id} min={range.min} max={range.max} stepSize={stepSize} />
+    </FormField>
+  );
+}
+
+/** One of a closed list, or none (the empty option's words say what none means for this value). */
+function ChoiceField<T extends string>({
+  name,
+  label,
+  id,
+  none,
+  choices,
+  words,
+}: {
+  name: keyof PartValuesDraft;
+  label: string;
+  id: string;
+  none: string;
+  choices: readonly T[];
+  words: Record<T, string>;
+}) {
+  const { register } = useFormContext<PartValuesDraft>();
+  return (
+    <FormField name={name} label={label} labelFor={id} inline>
+      <HTMLSelect id={id} {...register(name)}>
+        <option value="">{none}</option>
+        {choices.map((c) => (
+          <option key={c} value={c}>
+            {words[c].toLowerCase()}
+          </option>
+        ))}
+      </HTMLSelect>
+    </FormField>
   );
 }
