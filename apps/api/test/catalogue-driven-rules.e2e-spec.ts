@@ -4,34 +4,20 @@
 // Jang HK et al. 2011, Int J Oral Maxillofac Implants 26:1011–1015 [pub]; which value each rule reads
 // and the severity of a missing one: decisions [common practice].
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { larkspurId, parts, patientWithImplants, platformId } from './support/ledger-fixtures.js';
-import { signIn, startTestApp, type TestContext } from './support/test-app.js';
+import { parts, patientWithImplants, testPlatform, type TestPlatform } from './support/ledger-fixtures.js';
+import { startTestApp, type TestContext } from './support/test-app.js';
 
 let ctx: TestContext;
 let admin: string;
 let dentist: string;
 let practiceId: string;
-let platform: string;
+let newPart: TestPlatform['newPart'];
 beforeAll(async () => {
   ctx = await startTestApp();
-  admin = await signIn(ctx, 'practice_admin');
-  dentist = await signIn(ctx, 'dentist');
-  practiceId = await larkspurId(ctx.db);
-  platform = await platformId(ctx.db, practiceId, 'Solvra CN 4.3');
+  ({ admin, dentist, practiceId, newPart } = await testPlatform(ctx, 'CV'));
 });
 afterAll(() => ctx.close());
 
-let made = 0;
-/** A new part of the Solvra CN 4.3 platform, as the practice administrator enters it. */
-async function newPart(kind: string, values: object) {
-  const n = ++made;
-  const res = await ctx.http
-    .post('/api/catalogue/components')
-    .set('Cookie', admin)
-    .send({ platformId: platform, kind, name: `Test ${kind} ${n}`, referenceCode: `SCN-43-CV${n}`, ...values });
-  expect(res.status).toBe(201);
-  return res.body as { id: string; name: string };
-}
 const plan = (body: object) => ctx.http.post('/api/restorations').set('Cookie', dentist).send(body);
 const tilt = (deg: number): [number, number, number] => [
   Math.sin((deg * Math.PI) / 180),

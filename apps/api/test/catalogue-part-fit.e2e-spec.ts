@@ -4,34 +4,21 @@
 // abutment is engaging (a single unit needs an anti-rotational abutment [common practice], the
 // reasoning of the `non-engaging-single-crown` rule, docs/clinical-rules.md §8). Severities: §8c.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { larkspurId, parts, patientWithImplants, platformId } from './support/ledger-fixtures.js';
-import { signIn, startTestApp, type TestContext } from './support/test-app.js';
+import { parts, patientWithImplants, testPlatform, type TestPlatform } from './support/ledger-fixtures.js';
+import { startTestApp, type TestContext } from './support/test-app.js';
 
 let ctx: TestContext;
 let admin: string;
 let dentist: string;
 let practiceId: string;
-let platform: string;
+let addPart: TestPlatform['addPart'];
+let newPart: TestPlatform['newPart'];
 beforeAll(async () => {
   ctx = await startTestApp();
-  admin = await signIn(ctx, 'practice_admin');
-  dentist = await signIn(ctx, 'dentist');
-  practiceId = await larkspurId(ctx.db);
-  platform = await platformId(ctx.db, practiceId, 'Solvra CN 4.3');
+  ({ admin, dentist, practiceId, addPart, newPart } = await testPlatform(ctx, 'FT'));
 });
 afterAll(() => ctx.close());
 
-let made = 0;
-const addPart = (kind: string, values: object) =>
-  ctx.http
-    .post('/api/catalogue/components')
-    .set('Cookie', admin)
-    .send({ platformId: platform, kind, name: `Fit ${kind} ${++made}`, referenceCode: `SCN-43-FT${made}`, ...values });
-async function newPart(kind: string, values: object) {
-  const res = await addPart(kind, values);
-  expect(res.status, JSON.stringify(res.body)).toBe(201);
-  return res.body as { id: string; name: string };
-}
 const plan = (body: object) => ctx.http.post('/api/restorations').set('Cookie', dentist).send(body);
 
 describe('adding a part states the values its kind needs', () => {

@@ -4,41 +4,22 @@
 import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { componentInstances, torqueEvents } from '../src/db/schema/index.js';
-import { larkspurId, platformId, patientWithImplants } from './support/ledger-fixtures.js';
-import { signIn, startTestApp, type TestContext } from './support/test-app.js';
+import { patientWithImplants, testPlatform, type TestPlatform } from './support/ledger-fixtures.js';
+import { startTestApp, type TestContext } from './support/test-app.js';
 
 let ctx: TestContext;
 let admin: string;
 let dentist: string;
 let practiceId: string;
 let platform: string;
+let newPart: TestPlatform['newPart'];
+/** A new prosthetic screw of its own (25 N·cm ±10 %), so no other test sees its edits. */
+const newScrew = () => newPart('prosthetic-screw', { torqueSpecNcm: 25, tolerancePct: 10 });
 beforeAll(async () => {
   ctx = await startTestApp();
-  admin = await signIn(ctx, 'practice_admin');
-  dentist = await signIn(ctx, 'dentist');
-  practiceId = await larkspurId(ctx.db);
-  platform = await platformId(ctx.db, practiceId, 'Solvra CN 4.3');
+  ({ admin, dentist, practiceId, platform, newPart } = await testPlatform(ctx, 'TV'));
 });
 afterAll(() => ctx.close());
-
-let made = 0;
-/** A new prosthetic screw of its own (25 N·cm ±10 %), so no other test sees its edits. */
-async function newScrew() {
-  const n = ++made;
-  const res = await ctx.http
-    .post('/api/catalogue/components')
-    .set('Cookie', admin)
-    .send({
-      platformId: platform,
-      kind: 'prosthetic-screw',
-      name: `Prosthetic screw, test ${n}`,
-      referenceCode: `SCN-43-TV${n}`,
-      torqueSpecNcm: 25,
-      tolerancePct: 10,
-    });
-  expect(res.status).toBe(201);
-  return res.body as { id: string; version: number };
-}
 
 /** The screw installed at 35 of a new patient. */
 async function installed(componentId: string, chart: string) {

@@ -11,7 +11,8 @@ import {
   platforms,
   practices,
 } from '../../src/db/schema/index.js';
-import type { TestContext } from './test-app.js';
+import { expect } from 'vitest';
+import { signIn, type TestContext } from './test-app.js';
 
 export async function larkspurId(db: Database) {
   const [row] = await db.select({ id: practices.id }).from(practices).where(eq(practices.name, 'Larkspur Lane Dental'));
@@ -106,3 +107,38 @@ export async function patientWithPart(
     .returning({ id: componentInstances.id });
   return { patientId, siteId: siteIds[fdi], instanceId: instance.id };
 }
+
+/**
+ * Where the catalogue tests add parts of their own: the demo practice's Solvra CN 4.3 platform, with
+ * the administrator's and the dentist's sessions. `tag` keeps each file's reference codes apart.
+ */
+export async function testPlatform(ctx: TestContext, tag: string) {
+  const admin = await signIn(ctx, 'practice_admin');
+  const dentist = await signIn(ctx, 'dentist');
+  const practiceId = await larkspurId(ctx.db);
+  const platform = await platformId(ctx.db, practiceId, 'Solvra CN 4.3');
+  let made = 0;
+  /** The administrator's request for a new part of the platform (the reply is the caller's to check). */
+  const addPart = (kind: string, values: object) => {
+    const n = ++made;
+    return ctx.http
+      .post('/api/catalogue/components')
+      .set('Cookie', admin)
+      .send({
+        platformId: platform,
+        kind,
+        name: `Test ${kind} ${tag}${n}`,
+        referenceCode: `SCN-43-${tag}${n}`,
+        ...values,
+      });
+  };
+  /** A new part of the platform, so no other test sees its edits. */
+  const newPart = async (kind: string, values: object) => {
+    const res = await addPart(kind, values);
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    return res.body as { id: string; name: string; version: number };
+  };
+  return { admin, dentist, practiceId, platform, addPart, newPart };
+}
+
+export type TestPlatform = Awaited<ReturnType<typeof testPlatform>>;
