@@ -159,7 +159,7 @@ describe('adding a part with the values its kind needs (issue 16 §5)', () => {
     );
 
     // The row's edit is the same field set: state the coping level of the seeded scan body.
-    const scanBody = page.getByTestId('catalogue-part').filter({ hasText: 'SCN-43-SB' });
+    const scanBody = page.getByTestId('catalogue-part').filter({ hasText: /SCN-43-SB\b/ });
     await scanBody.getByRole('button', { name: 'Edit' }).click();
     await scanBody.getByLabel(/Coping level of SCN-43-SB/).selectOption('multi-unit');
     await scanBody.getByRole('button', { name: 'Save' }).click();

@@ -1,6 +1,6 @@
 import { Button, Callout, FileInput, HTMLTable, ProgressBar, Spinner } from '@blueprintjs/core';
 import type { RestorationSiteDetail, ScanFile } from '@torquetrail/contracts';
-import { formatTooth } from '@torquetrail/domain';
+import { formatTooth, type Retention } from '@torquetrail/domain';
 import { useQueryClient } from '@tanstack/react-query';
 import { lazy, Suspense, useState } from 'react';
 import { Can } from '../../../lib/ability';
@@ -21,10 +21,12 @@ export function ImpressionPanel({
   restorationId,
   sites,
   system,
+  retention,
 }: {
   restorationId: string;
   sites: RestorationSiteDetail[];
   system: ToothSystem;
+  retention?: Retention;
 }) {
   const query = useImpressions(restorationId);
   const queryClient = useQueryClient();
@@ -44,6 +46,7 @@ export function ImpressionPanel({
               restorationId={restorationId}
               sites={sites}
               system={system}
+              retention={retention}
               onDone={() => setRecording(false)}
             />
           ) : (
