@@ -142,6 +142,34 @@ describe('scan-body markers on a scan file', () => {
     expect((await markers('dentist', file)).body.items).toEqual([]);
   });
 
+  it('the database keeps the chain: one version per marker, a whole point or none', async () => {
+    const file = await freshScanFile();
+    const first = await mark('dentist', file, { siteId: t.ids.wendell16, point: { x: 1, y: 1, z: 1 } });
+    const [row] = await ctx.db.select().from(scanBodyMarkers).where(eq(scanBodyMarkers.id, first.body.id));
+    const { id: _id, placedAt: _at, ...copy } = row;
+    const refusal = (values: typeof scanBodyMarkers.$inferInsert) =>
+      ctx.db
+        .insert(scanBodyMarkers)
+        .values(values)
+        .then(
+          () => null,
+          (e: { cause?: { code?: string; constraint?: string } }) => e.cause,
+        );
+    // A second first marker of the file and site, written straight into the table.
+    expect(await refusal(copy)).toMatchObject({ code: '23505', constraint: 'scan_body_markers_first_unique' });
+    await ctx.db.insert(scanBodyMarkers).values({ ...copy, supersedesId: first.body.id, amendmentReason: 'Direct' });
+    // A second version superseding the same one.
+    expect(await refusal({ ...copy, supersedesId: first.body.id, amendmentReason: 'Again' })).toMatchObject({
+      code: '23505',
+      constraint: 'scan_body_markers_supersedes_unique',
+    });
+    // Part of a point only.
+    expect(await refusal({ ...copy, siteId: t.ids.wendell15, z: null })).toMatchObject({
+      code: '23514',
+      constraint: 'scan_body_markers_point_whole',
+    });
+  });
+
   it("the demo: Wendell's scan file has both scan bodies marked on the shapes drawn for them", async () => {
     const [demo] = await ctx.db
       .select({ id: scanFiles.id })
