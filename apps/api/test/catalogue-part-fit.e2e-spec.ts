@@ -179,6 +179,102 @@ describe('coping level: the impression records the level the restoration is made
   });
 });
 
+describe("the demo catalogue's multi-unit scan body (SBM) on digital impressions [common practice]", () => {
+  // Worked cases with the seeded parts of Solvra CN 4.3: the multi-unit scan body records a
+  // multi-unit abutment, the plain one (SB) the implant; each is refused where the other belongs.
+  const take = (restorationId: string, siteIds: Record<number, string>, fdis: number[], scanBody: string) =>
+    ctx.http
+      .post(`/api/restorations/${restorationId}/impressions`)
+      .set('Cookie', dentist)
+      .send({
+        method: 'digital',
+        takenOn: '2026-11-20',
+        scanBodies: fdis.map((fdi) => ({ siteId: siteIds[fdi], componentId: scanBody, lot: `MU-${fdi}` })),
+      });
+
+  it('is in the catalogue at multi-unit level, of the platform, with its lot asked for', async () => {
+    const catalogue = await ctx.http.get('/api/catalogue').set('Cookie', dentist);
+    const scn43 = catalogue.body.systems
+      .flatMap((s: { platforms: { name: string; components: unknown[] }[] }) => s.platforms)
+      .find((p: { name: string }) => p.name === 'Solvra CN 4.3');
+    expect(scn43.components).toContainEqual(
+      expect.objectContaining({
+        kind: 'scan-body',
+        referenceCode: 'SCN-43-SBM',
+        copingLevel: 'multi-unit',
+        requiresLot: true,
+        platformId: platform,
+      }),
+    );
+  });
+
+  it('a bridge screwed to multi-units at 34 and 44: SBM passes, SB is refused naming the site', async () => {
+    const part = await parts(ctx.db, practiceId, 'Solvra CN 4.3');
+    const { patientId, siteIds } = await patientWithImplants(ctx, 'T-SBM1', 'Solvra CN 4.3', [
+      { fdi: 34, axis: [0, 0, 1] },
+      { fdi: 44, axis: [0, 0, 1] },
+    ]);
+    const site = (fdi: number) => ({
+      siteId: siteIds[fdi],
+      interface: 'non-engaging',
+      impressionCoping: 'multi-unit',
+      multiUnitComponentId: part('MU0-2'),
+      screwComponentIds: [part('PSM')],
+      impressionCopingComponentId: part('ICM-O'),
+    });
+    const planned = await plan({
+      patientId,
+      kind: 'splinted-bridge',
+      retention: 'screw-to-multi-unit',
+      material: 'titanium-porcelain',
+      sites: [site(34), site(44)],
+    });
+    expect(planned.status, JSON.stringify(planned.body)).toBe(201);
+    const wrong = await take(planned.body.id, siteIds, [34, 44], part('SB'));
+    expect(wrong.status).toBe(400);
+    expect(wrong.body.fields['scanBodies.0.componentId']).toBe(
+      'Site 34: Scan body, hand-tight works at implant level, but this restoration is screwed to multi-unit abutments: the impression must record the abutment with a multi-unit level scan body.',
+    );
+    expect(wrong.body.fields['scanBodies.1.componentId']).toMatch(/^Site 44: /);
+    const right = await take(planned.body.id, siteIds, [34, 44], part('SBM'));
+    expect(right.status, JSON.stringify(right.body)).toBe(201);
+    expect(right.body.scanBodies.map((b: { fdi: number; referenceCode: string }) => [b.fdi, b.referenceCode])).toEqual([
+      [34, 'SCN-43-SBM'],
+      [44, 'SCN-43-SBM'],
+    ]);
+    const listed = await ctx.http.get(`/api/restorations/${planned.body.id}/impressions`).set('Cookie', dentist);
+    expect(listed.body.findings).toEqual([]);
+  });
+
+  it('a crown screwed to the implant at 36: SBM is refused naming the site, SB passes', async () => {
+    const part = await parts(ctx.db, practiceId, 'Solvra CN 4.3');
+    const { patientId, siteIds } = await patientWithImplants(ctx, 'T-SBM2', 'Solvra CN 4.3', [{ fdi: 36 }]);
+    const planned = await plan({
+      patientId,
+      kind: 'single-crown',
+      retention: 'screw-to-implant',
+      material: 'zirconia',
+      sites: [
+        {
+          siteId: siteIds[36],
+          interface: 'engaging',
+          impressionCoping: 'engaging',
+          screwComponentIds: [part('PSI')],
+          impressionCopingComponentId: part('ICE-C'),
+        },
+      ],
+    });
+    expect(planned.status, JSON.stringify(planned.body)).toBe(201);
+    const wrong = await take(planned.body.id, siteIds, [36], part('SBM'));
+    expect(wrong.status).toBe(400);
+    expect(wrong.body.fields['scanBodies.0.componentId']).toBe(
+      'Site 36: Multi-unit scan body, hand-tight works on a multi-unit abutment, but this restoration has none: use an implant-level scan body.',
+    );
+    const right = await take(planned.body.id, siteIds, [36], part('SB'));
+    expect(right.status, JSON.stringify(right.body)).toBe(201);
+  });
+});
+
 describe('engaging: the abutment under a single crown must be anti-rotational [common practice]', () => {
   async function cementedCrown(chart: string, abutmentId: string, connection = 'engaging') {
     const { patientId, siteIds } = await patientWithImplants(ctx, chart, 'Solvra CN 4.3', [{ fdi: 46 }]);

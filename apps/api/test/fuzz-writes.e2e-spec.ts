@@ -9,7 +9,7 @@ import { sql } from 'drizzle-orm';
 import fc from 'fast-check';
 import { afterAll, describe, expect, it } from 'vitest';
 import { z } from 'zod';
-import { components, implantSites, patientShares, patients, platforms } from '../src/db/schema/index.js';
+import { components, implantSites, patientShares, patients, platforms, scanFiles } from '../src/db/schema/index.js';
 import {
   arbitraryFor,
   hostileValue,
@@ -28,6 +28,8 @@ const ctx = await startTestApp();
 afterAll(() => ctx.close());
 const cookies = await actorCookies(ctx);
 const t = await scenarioTargets(ctx, cookies);
+/** The demo's scan file (Wendell's digital impression), for the scan-body markers. */
+const [demoScanFile] = await ctx.db.select({ id: scanFiles.id }).from(scanFiles).limit(1);
 
 /** Every id of the scenario's patients, sites, platforms and parts, of both practices. */
 const uuids = [
@@ -123,6 +125,10 @@ const TARGETS: Record<string, { as: AccountKey | null; path: string }> = {
   'POST /impressions/:id/scan-files': {
     as: 'dentist',
     path: `/api/impressions/${await t.fresh.impression()}/scan-files`,
+  },
+  'POST /scan-files/:id/markers': {
+    as: 'dentist',
+    path: `/api/scan-files/${demoScanFile.id}/markers`,
   },
   'POST /impressions/:id/amendments': {
     as: 'dentist',

@@ -137,6 +137,31 @@ describe('the impression on the lab prescription', () => {
     expect(text).toContain(`Scan file: upper-right-scan.stl (STL, ${Math.max(1, Math.round(small.length / 1000))} kB)`);
   });
 
+  it('says which scan bodies are marked in the scan file, in the PDF and in the e-mail', async () => {
+    const plan = await digitalPlan([[binaryStl(4), 'marked-scan.stl']]);
+    const listed = await ctx.http.get(`/api/restorations/${plan}/impressions`).set('Cookie', cookies.dentist);
+    const marked = await ctx.http
+      .post(`/api/scan-files/${listed.body.scanFiles[0].id}/markers`)
+      .set('Cookie', cookies.dentist)
+      .send({ siteId: t.ids.wendell15, point: { x: 0.5, y: 0.5, z: 0 } });
+    expect(marked.status, JSON.stringify(marked.body)).toBe(201);
+    const made = await ctx.http
+      .post(`/api/restorations/${plan}/lab-prescriptions`)
+      .set('Cookie', cookies.dentist)
+      .send({});
+    const res = await ctx.http
+      .get(`/api/lab-prescriptions/${made.body.id}/pdf`)
+      .set('Cookie', cookies.dentist)
+      .buffer(true)
+      .parse(binary as never);
+    const text = await pdfText(res.body as Buffer);
+    expect(text).toMatch(/Scan body at 15 \(FDI\) \/ 4: .*lot SB-LAB-15, marked in the scan file/);
+    // 16 has no marker: nothing is said of it.
+    expect(text).toMatch(/lot SB-LAB-16 Scan file/);
+    const mail = await mailToLab(plan);
+    expect(mail.text).toContain('The scan bodies at 15 (FDI) are marked in the scan file.');
+  });
+
   it('e-mails small scan files as attachments beside the PDF', async () => {
     const small = binaryStl(3);
     const mail = await mailToLab(await digitalPlan([[small, 'small-scan.stl']]));

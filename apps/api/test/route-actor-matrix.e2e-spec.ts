@@ -458,6 +458,16 @@ const TABLE: Record<string, Case[]> = {
     path: async () => `/api/scan-files/${await storedScanFile()}/file`,
     expect: every(200, { surgeon: 403, surgeonNoShare: 403, otherPracticeDentist: 404 }),
   }),
+  // Scan-body markers on a scan file: read as the impression is; placed (or moved) by the dentist.
+  'GET /api/scan-files/:id/markers': one({
+    path: async () => `/api/scan-files/${await storedScanFile()}/markers`,
+    expect: every(200, { surgeon: 403, surgeonNoShare: 403, otherPracticeDentist: 404 }),
+  }),
+  'POST /api/scan-files/:id/markers': one({
+    path: async () => `/api/scan-files/${await storedScanFile()}/markers`,
+    body: () => ({ siteId: ids.wendell15, point: { x: 1, y: 2, z: (scanScale += 1) } }),
+    expect: dentistWrite(201),
+  }),
   'GET /api/lab-files/:token': one(
     { path: () => '/api/lab-files/bm90LWEtdG9rZW4.bm90LWEtc2lnbmF0dXJl', expect: publicRoute(404) },
     'public',

@@ -159,10 +159,15 @@ describe('adding a part with the values its kind needs (issue 16 §5)', () => {
     );
 
     // The row's edit is the same field set: state the coping level of the seeded scan body.
-    const scanBody = page.getByTestId('catalogue-part').filter({ hasText: 'SCN-43-SB' });
+    // By its reference cell exactly: SCN-43-SBM (the multi-unit scan body) starts the same.
+    const scanBody = page
+      .getByTestId('catalogue-part')
+      .filter({ has: page.getByRole('cell', { name: 'SCN-43-SB', exact: true }) });
     await scanBody.getByRole('button', { name: 'Edit' }).click();
-    await scanBody.getByLabel(/Coping level of SCN-43-SB/).selectOption('multi-unit');
-    await scanBody.getByRole('button', { name: 'Save' }).click();
+    // Editing, the row is its form (no reference cell until it is saved).
+    const edit = page.getByRole('form', { name: 'Edit SCN-43-SB', exact: true });
+    await edit.getByLabel(/Coping level of SCN-43-SB/).selectOption('multi-unit');
+    await edit.getByRole('button', { name: 'Save' }).click();
     await expect.poll(() => scanBody.textContent()).toMatch(/on a multi-unit abutment/);
     await screenshot(page, 'catalogue-add-part-values');
     expect(h.problems.filter((p) => !/status of (400|401|404)/.test(p))).toEqual([]);

@@ -104,6 +104,49 @@ export const ScanFileUploadQuery = z.object({
 });
 export type ScanFileUploadQuery = z.input<typeof ScanFileUploadQuery>;
 
+/**
+ * One coordinate of a point picked on the mesh, in the scan file's own units. Finite and within a
+ * metre of the file's origin (a scanner's mesh is a few centimetres across): anything else is no
+ * point on a scan.
+ */
+const coordinate = z
+  .number({ error: 'Give each coordinate as a finite number' })
+  .min(-1000, { error: 'The point is far outside any scan (more than 1000 units from its origin)' })
+  .max(1000, { error: 'The point is far outside any scan (more than 1000 units from its origin)' });
+
+/** A point on the scan file's mesh, in the file's coordinates (as its vertices are written). */
+export const MarkerPoint = z.object({ x: coordinate, y: coordinate, z: coordinate });
+export type MarkerPoint = z.infer<typeof MarkerPoint>;
+
+/**
+ * Place, move or clear the marker of one recorded scan body on a scan file. A marker already
+ * placed at the site is superseded by the new version (moved), or by one without a point (cleared).
+ */
+export const ScanBodyMarkerBody = z.object({
+  siteId: z.uuid({ error: 'Choose the site of a scan body recorded with the impression' }),
+  /** Where the scan body is on the mesh; null clears the marker. */
+  point: MarkerPoint.nullable(),
+});
+export type ScanBodyMarkerBody = z.input<typeof ScanBodyMarkerBody>;
+
+export const ScanBodyMarker = z.object({
+  id: Id,
+  scanFileId: Id,
+  siteId: Id,
+  fdi: z.number().int(),
+  /** Null on a version that cleared the marker. */
+  point: MarkerPoint.nullable(),
+  placedBy: z.string(),
+  placedAt: IsoDateTime,
+  supersedesId: Id.nullable(),
+  amendmentReason: z.string().nullable(),
+});
+export type ScanBodyMarker = z.infer<typeof ScanBodyMarker>;
+
+/** The current marker of each scan body marked on the file (cleared ones left out), by site. */
+export const ScanBodyMarkerListReply = z.object({ items: z.array(ScanBodyMarker) });
+export type ScanBodyMarkerListReply = z.infer<typeof ScanBodyMarkerListReply>;
+
 const r = (method: RouteContract['method'], path: string, summary: string, more: Partial<RouteContract> = {}) =>
   ({ method, path, summary, signedIn: true, ...more }) satisfies RouteContract;
 
@@ -126,6 +169,15 @@ export const impressionRoutes: RouteContract[] = [
     { query: ScanFileUploadQuery, reply: ScanFile },
   ),
   r('get', '/scan-files/:id/file', 'The scan file, as an attachment', { produces: 'application/octet-stream' }),
+  r('get', '/scan-files/:id/markers', 'The scan bodies marked on a scan file: the current point of each', {
+    reply: ScanBodyMarkerListReply,
+  }),
+  r(
+    'post',
+    '/scan-files/:id/markers',
+    'Place, move (a new version superseding it) or clear (point null) the marker of a recorded scan body on a scan file',
+    { body: ScanBodyMarkerBody, reply: ScanBodyMarker },
+  ),
   r('get', '/practice/impression-settings', "The practice's impression rules", { reply: ImpressionSettings }),
   r('put', '/practice/impression-settings', 'Set whether a digital impression asks for a scan-body radiograph', {
     body: ImpressionSettings,

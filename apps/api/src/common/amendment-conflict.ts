@@ -17,6 +17,7 @@ const ALREADY_AMENDED: Record<AmendableTableName, string> = {
   seating_checks: 'This seating check was already amended; amend its latest version',
   impressions: 'This impression was already amended; amend its latest version',
   insert_changes: 'This insert change was already amended; amend its latest version',
+  scan_body_markers: 'This marker was already moved or cleared; reload the markers and place it again',
 };
 
 /** 409 for an amendment of a version that a newer row already supersedes. */

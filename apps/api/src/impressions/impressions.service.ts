@@ -22,6 +22,7 @@ import { impressionSettings } from '../db/practice-settings.js';
 import { auditedTransaction } from '../db/audited-transaction.js';
 import { DB, type Database } from '../db/database.js';
 import * as repo from './impressions.repository.js';
+import { markedSites } from './scan-body-markers.repository.js';
 
 type Body = z.output<typeof ImpressionBody>;
 
@@ -29,7 +30,8 @@ type Body = z.output<typeof ImpressionBody>;
 export interface ImpressionLabSheet {
   method: Impression['method'];
   takenOn: string;
-  scanBodies: { fdi: number; name: string; referenceCode: string; lot: string | null }[];
+  /** `marked`: a marker of it is placed on one of the scan files (where the lab finds it on the mesh). */
+  scanBodies: { fdi: number; name: string; referenceCode: string; lot: string | null; marked: boolean }[];
   files: { id: string; name: string; fileType: ScanFile['fileType']; sizeBytes: number; objectKey: string }[];
 }
 type ScanBodyRow = Awaited<ReturnType<typeof repo.scanBodiesOf>>[number];
@@ -316,10 +318,20 @@ export class ImpressionsService {
     if (!current) return null;
     const bodies = await repo.scanBodiesOf(this.db, [current.id]);
     const files = await repo.scanFilesOfRestoration(this.db, restorationId);
+    const marked = await markedSites(
+      this.db,
+      files.map((f) => f.id),
+    );
     return {
       method: current.method,
       takenOn: current.takenOn,
-      scanBodies: bodies.map((b) => ({ fdi: b.fdi, name: b.name, referenceCode: b.referenceCode, lot: b.lot })),
+      scanBodies: bodies.map((b) => ({
+        fdi: b.fdi,
+        name: b.name,
+        referenceCode: b.referenceCode,
+        lot: b.lot,
+        marked: marked.has(b.siteId),
+      })),
       files: files.map((f) => ({
         id: f.id,
         name: f.originalName ?? `scan-${f.id.slice(0, 8)}.${f.fileType}`,

@@ -20,6 +20,13 @@ import { pdfFilename } from './pdf-filename.js';
 
 type LabMailRow = NonNullable<Awaited<ReturnType<typeof repo.lockMail>>>;
 
+/** The scan bodies the clinician marked on the scan files, named for the lab (empty when none). */
+const markedText = (sheet: ImpressionLabSheet | null) => {
+  const fdis = (sheet?.scanBodies ?? []).filter((b) => b.marked).map((b) => b.fdi);
+  if (fdis.length === 0) return '';
+  return `\nThe scan bodies at ${fdis.join(', ')} (FDI) are marked in the scan file.`;
+};
+
 @Injectable()
 export class LabMailService {
   private readonly secret: string;
@@ -73,7 +80,7 @@ export class LabMailService {
           contentType: 'application/octet-stream',
         })),
       );
-      return { mode: 'attached', text: '\n\nThe scan files are attached too.', attachments };
+      return { mode: 'attached', text: `\n\nThe scan files are attached too.${markedText(sheet)}`, attachments };
     }
     const expiresAt = new Date(Date.now() + LAB_FILE_LINK_TTL_MS);
     const lines = files.map(
@@ -82,7 +89,7 @@ export class LabMailService {
     );
     return {
       mode: 'linked',
-      text: `\n\nThe scan files are too large to attach. Download them until ${dates.instantUtc(expiresAt)}:\n${lines.join('\n')}`,
+      text: `\n\nThe scan files are too large to attach. Download them until ${dates.instantUtc(expiresAt)}:\n${lines.join('\n')}${markedText(sheet)}`,
       attachments: [],
     };
   }

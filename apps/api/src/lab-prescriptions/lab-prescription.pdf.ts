@@ -53,7 +53,7 @@ export interface PrescriptionInput {
   impression: {
     method: ImpressionMethod;
     takenOn: string;
-    scanBodies: { fdi: number; name: string; referenceCode: string; lot: string | null }[];
+    scanBodies: { fdi: number; name: string; referenceCode: string; lot: string | null; marked: boolean }[];
     files: { name: string; fileType: string; sizeBytes: number }[];
   } | null;
 }
@@ -99,7 +99,7 @@ function impressionSection(
   if (impression.method === 'digital') {
     for (const b of impression.scanBodies)
       doc.text(
-        `Scan body at ${b.fdi} (FDI) / ${fdiToUniversal(b.fdi)}: ${b.name} [${b.referenceCode}], lot ${b.lot ?? 'not recorded'}`,
+        `Scan body at ${b.fdi} (FDI) / ${fdiToUniversal(b.fdi)}: ${b.name} [${b.referenceCode}], lot ${b.lot ?? 'not recorded'}${b.marked ? ', marked in the scan file' : ''}`,
         {
           indent: 12,
         },

@@ -209,6 +209,21 @@ function partsFor(
       requiresLot: true,
     },
     {
+      // Seated on a multi-unit abutment for a digital impression of work screwed to multi-units:
+      // it records the abutment, not the implant, so its coping level is what the impression rule
+      // reads. Invented demo part; a real practice enters the level and the platform from the
+      // manufacturer's instructions for use, which rule (the catalogue shows that caution).
+      key: 'scan-body-mua',
+      kind: 'scan-body',
+      name: 'Multi-unit scan body, hand-tight',
+      referenceCode: ref('SBM'),
+      engaging: false,
+      copingLevel: 'multi-unit',
+      torqueSpecNcm: null,
+      tolerancePct: 10,
+      requiresLot: true,
+    },
+    {
       key: 'healing',
       kind: 'healing-abutment',
       name: 'Healing abutment 4 mm',

@@ -12,9 +12,10 @@ import {
   restorationSiteComponents,
   restorationSites,
   restorations,
+  scanBodyMarkers,
   scanFiles,
 } from '../db/schema/index.js';
-import { binaryStl, demoScanTriangles } from './demo-scan-file.js';
+import { binaryStl, DEMO_SCAN_BODY_TOPS, demoScanTriangles } from './demo-scan-file.js';
 import type { DemoRefs } from './demo-scenario.js';
 import type { SeedStorage } from './demo-radiographs.js';
 
@@ -108,4 +109,11 @@ export async function seedDigitalImpression(tx: Tx, refs: DemoRefs, storage: See
     originalName: 'upper-right-15-16.stl',
     uploadedBy: dentist,
   });
+  // The dentist marked each scan body on the file: the top of the shape drawn for it.
+  await tx.insert(scanBodyMarkers).values(
+    sites.map((s) => {
+      const [x, y, z] = DEMO_SCAN_BODY_TOPS[s.fdi as keyof typeof DEMO_SCAN_BODY_TOPS];
+      return { practiceId, patientId, scanFileId: id, siteId: s.siteId, x, y, z, placedBy: dentist };
+    }),
+  );
 }

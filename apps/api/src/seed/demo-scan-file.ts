@@ -20,10 +20,17 @@ function prism(cx: number, cy: number, z0: number, z1: number, radius: number, s
   return tris;
 }
 
+/**
+ * The centre of the top face of each scan body, by site, in the file's coordinates: 16 (the more
+ * distal, towards the patient's right) stands at negative x, 15 at positive x.
+ */
+export const DEMO_SCAN_BODY_TOPS = { 16: [-4.5, 0, 16], 15: [4.5, 0, 16] } as const;
+
 /** The ridge (a 24-sided prism stretched along x) and scan bodies over the two implant positions. */
 export function demoScanTriangles(): P[][] {
   const ridge = prism(0, 0, 0, 6, 5, 24).map((t) => t.map(([x, y, z]): P => [x * 2.2, y, z]));
-  return [...ridge, ...prism(-4.5, 0, 6, 16, 2, 6), ...prism(4.5, 0, 6, 16, 2, 6)];
+  const body = ([x, y, z]: readonly [number, number, number]) => prism(x, y, 6, z, 2, 6);
+  return [...ridge, ...body(DEMO_SCAN_BODY_TOPS[16]), ...body(DEMO_SCAN_BODY_TOPS[15])];
 }
 
 export function binaryStl(triangles: P[][], header: string): Buffer {

@@ -109,6 +109,8 @@ export const AUDIT_EXPECTATIONS: Record<string, Audited | null> = {
   'POST /api/impressions/:id/amendments': amend,
   'POST /api/impressions/:id/scan-files': create,
   'GET /api/scan-files/:id/file': { action: 'export', patient: true },
+  'GET /api/scan-files/:id/markers': read(),
+  'POST /api/scan-files/:id/markers': create,
   // No session: a download through a valid link writes its own 'export' row in the service
   // (impression-lab.e2e-spec.ts); a refused link names no one and no patient.
   'GET /api/lab-files/:token': null,
@@ -170,6 +172,7 @@ const RECORD_TABLES: Record<string, string> = {
   SeatingCheck: 'seating_checks',
   Impression: 'impressions',
   ScanFile: 'scan_files',
+  ScanBodyMarker: 'scan_body_markers',
   LabPrescription: 'lab_prescriptions',
   ReferralSummaryMail: 'referral_summary_mails',
   PassportMail: 'passport_mails',

@@ -13,6 +13,7 @@ export const AMENDABLE_TABLES = [
   'seating_checks',
   'impressions',
   'insert_changes',
+  'scan_body_markers',
 ] as const;
 export type AmendableTableName = (typeof AMENDABLE_TABLES)[number];
 

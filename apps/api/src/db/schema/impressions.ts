@@ -1,5 +1,17 @@
 import { sql } from 'drizzle-orm';
-import { bigint, date, index, pgTable, text, timestamp, unique, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import {
+  bigint,
+  check,
+  date,
+  doublePrecision,
+  index,
+  pgTable,
+  text,
+  timestamp,
+  unique,
+  uniqueIndex,
+  uuid,
+} from 'drizzle-orm/pg-core';
 import { amendmentChain } from './amendment-chain.js';
 import { components } from './catalogue.js';
 import { impressionMethodEnum, scanFileTypeEnum } from './enums.js';
@@ -109,5 +121,52 @@ export const scanFiles = pgTable(
     index('scan_files_restoration_idx').on(t.restorationId),
     unique('scan_files_object_key_unique').on(t.objectKey),
     unique('scan_files_restoration_sha256_unique').on(t.restorationId, t.sha256),
+  ],
+);
+
+/**
+ * Where a recorded scan body stands in a scan file: the point a clinician picked on the mesh, in
+ * the file's own coordinates (the scanner's units). One chain per file and site. Amended, never
+ * overwritten: moving a marker is a new row superseding the old one, clearing it a new row with no
+ * point (x, y and z all null).
+ */
+export const scanBodyMarkers = pgTable(
+  'scan_body_markers',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
+    patientId: uuid('patient_id')
+      .notNull()
+      .references(() => patients.id),
+    scanFileId: uuid('scan_file_id')
+      .notNull()
+      .references(() => scanFiles.id),
+    siteId: uuid('site_id')
+      .notNull()
+      .references(() => implantSites.id),
+    x: doublePrecision('x'),
+    y: doublePrecision('y'),
+    z: doublePrecision('z'),
+    placedBy: uuid('placed_by')
+      .notNull()
+      .references(() => users.id),
+    placedAt: timestamp('placed_at', { withTimezone: true }).notNull().defaultNow(),
+    supersedesId: uuid('supersedes_id'),
+    amendmentReason: text('amendment_reason'),
+  },
+  (t) => [
+    index('scan_body_markers_scan_file_idx').on(t.scanFileId),
+    // One first marker per file and site; later ones amend it. Two first markers racing are decided here.
+    uniqueIndex('scan_body_markers_first_unique')
+      .on(t.scanFileId, t.siteId)
+      .where(sql`${t.supersedesId} is null`),
+    // A point is whole or absent (cleared), never partly given.
+    check(
+      'scan_body_markers_point_whole',
+      sql`(${t.x} is null) = (${t.y} is null) and (${t.y} is null) = (${t.z} is null)`,
+    ),
+    ...amendmentChain('scan_body_markers', t),
   ],
 );

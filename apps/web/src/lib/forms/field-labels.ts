@@ -113,6 +113,7 @@ export const FIELD_LABELS: Record<string, string> = {
   platform: 'Platform',
   platformId: 'Platform',
   platformShift: 'Platform shift',
+  point: 'Point on the scan',
   points: 'Marked points',
   position: 'Position',
   practiceName: 'Practice name',

@@ -5,6 +5,9 @@ import {
   type ImpressionBody,
   ImpressionListReply,
   ImpressionSettings,
+  ScanBodyMarker,
+  type ScanBodyMarkerBody,
+  ScanBodyMarkerListReply,
   ScanFile,
 } from '@torquetrail/contracts';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
@@ -61,4 +64,27 @@ export async function fetchScanFile(scanFileId: string, signal?: AbortSignal): P
   const res = await fetch(`/api/scan-files/${scanFileId}/file`, { signal, credentials: 'same-origin' });
   if (!res.ok) throw new ApiError(res.status, 'The scan file could not be loaded');
   return res.arrayBuffer();
+}
+
+/** The scan bodies marked on a scan file (the current point of each). */
+export const useScanBodyMarkers = (scanFileId: string) =>
+  useQuery({
+    queryKey: impressionKeys.markers(scanFileId),
+    queryFn: ({ signal }) =>
+      apiRequest(`/api/scan-files/${scanFileId}/markers`, { schema: ScanBodyMarkerListReply, signal }),
+  });
+
+/**
+ * Save the markers changed in the preview, one request per scan body (each is its own audited
+ * version), in order; the list is read again afterwards, whatever happened.
+ */
+export function useSaveScanBodyMarkers(scanFileId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: async (changes: ScanBodyMarkerBody[]) => {
+      for (const body of changes)
+        await apiRequest(`/api/scan-files/${scanFileId}/markers`, { method: 'POST', body, schema: ScanBodyMarker });
+    },
+    onSettled: () => queryClient.invalidateQueries({ queryKey: impressionKeys.markers(scanFileId) }),
+  });
 }

@@ -4,10 +4,10 @@ import {
   ImpressionBody as ImpressionContract,
   type RestorationSiteDetail,
 } from '@torquetrail/contracts';
-import { formatTooth, type ImpressionMethod } from '@torquetrail/domain';
+import { formatTooth, type ImpressionMethod, type Retention } from '@torquetrail/domain';
 import { useMemo } from 'react';
 import { FormProvider } from 'react-hook-form';
-import { IMPRESSION_COPING_LABEL, IMPRESSION_METHOD_LABEL } from '../../../lib/clinical-labels';
+import { COPING_LEVEL_LABEL, IMPRESSION_COPING_LABEL, IMPRESSION_METHOD_LABEL } from '../../../lib/clinical-labels';
 import { localToday } from '../../../lib/dates';
 import {
   applyServerErrors,
@@ -22,7 +22,7 @@ import { runMutation } from '../../../lib/run-mutation';
 import type { ToothSystem } from '../../../lib/tooth-system';
 import { useCatalogue } from '../../catalogue';
 import { useRecordImpression } from '../api/impressions-api';
-import { platformKeyOf, scanBodyIssues, scanBodyOptions } from './scan-body-choice';
+import { platformKeyOf, scanBodyIssues, scanBodyOptions, suitsSite } from './scan-body-choice';
 
 interface ImpressionDraft {
   method: ImpressionMethod;
@@ -40,11 +40,14 @@ export function ImpressionForm({
   restorationId,
   sites,
   system,
+  retention,
   onDone,
 }: {
   restorationId: string;
   sites: RestorationSiteDetail[];
   system: ToothSystem;
+  /** The restoration's retention: it decides the level (implant or multi-unit) a scan body must record. */
+  retention?: Retention;
   onDone: () => void;
 }) {
   const catalogue = useCatalogue();
@@ -64,10 +67,10 @@ export function ImpressionForm({
               }))
             : [],
       })).superRefine((body, ctx) => {
-        for (const issue of scanBodyIssues(body, sites, options))
+        for (const issue of scanBodyIssues(body, sites, options, retention))
           ctx.addIssue({ code: 'custom', path: issue.path, message: issue.message });
       }),
-    [sites, options],
+    [sites, options, retention],
   );
   const form = useContractForm(schema, {
     method: 'digital',
@@ -134,8 +137,10 @@ export function ImpressionForm({
               </Callout>
             )}
             {sites.map((s, i) => {
-              const fits = options.filter((o) => o.platformKey === platformKeyOf(s));
-              const others = options.filter((o) => !fits.includes(o));
+              const fits = options.filter((o) => suitsSite(o, s, retention));
+              // Of the site's platform but of the other level (implant or multi-unit): listed apart.
+              const otherLevel = options.filter((o) => !fits.includes(o) && o.platformKey === platformKeyOf(s));
+              const others = options.filter((o) => !fits.includes(o) && !otherLevel.includes(o));
               const tooth = formatTooth(s.fdi, system);
               return (
                 <div key={s.siteId} className="impression-form__site" data-testid={`scan-body-site-${s.fdi}`}>
@@ -159,6 +164,16 @@ export function ImpressionForm({
                             </option>
                           ))}
                         </optgroup>
+                        {otherLevel.length > 0 && (
+                          <optgroup label="Another level">
+                            {otherLevel.map((o) => (
+                              <option key={o.id} value={o.id}>
+                                {o.name} ({o.referenceCode}) —{' '}
+                                {COPING_LEVEL_LABEL[o.copingLevel ?? 'implant'].toLowerCase()}
+                              </option>
+                            ))}
+                          </optgroup>
+                        )}
                         {others.length > 0 && (
                           <optgroup label="Other platforms">
                             {others.map((o) => (

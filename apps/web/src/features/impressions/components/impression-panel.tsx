@@ -1,9 +1,9 @@
 import { Button, Callout, FileInput, HTMLTable, ProgressBar, Spinner } from '@blueprintjs/core';
 import type { RestorationSiteDetail, ScanFile } from '@torquetrail/contracts';
-import { formatTooth } from '@torquetrail/domain';
+import { formatTooth, type Retention } from '@torquetrail/domain';
 import { useQueryClient } from '@tanstack/react-query';
 import { lazy, Suspense, useState } from 'react';
-import { Can } from '../../../lib/ability';
+import { Can, useAppAbility } from '../../../lib/ability';
 import { IMPRESSION_METHOD_LABEL, SCAN_FILE_TYPE_LABEL } from '../../../lib/clinical-labels';
 import { formatDate } from '../../../lib/dates';
 import type { ToothSystem } from '../../../lib/tooth-system';
@@ -21,12 +21,15 @@ export function ImpressionPanel({
   restorationId,
   sites,
   system,
+  retention,
 }: {
   restorationId: string;
   sites: RestorationSiteDetail[];
   system: ToothSystem;
+  retention?: Retention;
 }) {
   const query = useImpressions(restorationId);
+  const ability = useAppAbility();
   const queryClient = useQueryClient();
   const [recording, setRecording] = useState(false);
   const [upload, setUpload] = useState<{ name: string; size: number; loaded: number; error?: string } | null>(null);
@@ -44,6 +47,7 @@ export function ImpressionPanel({
               restorationId={restorationId}
               sites={sites}
               system={system}
+              retention={retention}
               onDone={() => setRecording(false)}
             />
           ) : (
@@ -140,7 +144,10 @@ export function ImpressionPanel({
               <ScanPreview
                 key={open.id}
                 file={open}
+                canMark={ability.can('create', 'Impression')}
                 scanBodies={current.scanBodies.map((b) => ({
+                  siteId: b.siteId,
+                  fdi: b.fdi,
                   site: formatTooth(b.fdi, system),
                   part: `${b.name} (${b.referenceCode})`,
                   lot: b.lot,

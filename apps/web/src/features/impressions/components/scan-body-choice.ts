@@ -2,7 +2,16 @@
 // (`checkScanBodies`) run on the form's body before it is sent, so a scan body of another platform
 // is named beside its site. The API runs the same rule on the same body.
 import type { CatalogueReply, RestorationSiteDetail } from '@torquetrail/contracts';
-import { checkScanBodies, SCAN_BODY_FINDING_CODES, type ScanBodyEntry } from '@torquetrail/domain';
+import {
+  checkScanBodies,
+  type CopingLevel,
+  type Finding,
+  impressionLevelFindings,
+  impressionLevelFor,
+  type Retention,
+  SCAN_BODY_FINDING_CODES,
+  type ScanBodyEntry,
+} from '@torquetrail/domain';
 
 /** A scan body of the practice catalogue, with what the platform rule needs. */
 export interface ScanBodyOption {
@@ -13,6 +22,8 @@ export interface ScanBodyOption {
   platformName: string;
   /** "system · platform": how a restoration's site names its implant's platform. */
   platformKey: string;
+  /** Implant level or on a multi-unit abutment, as the catalogue states it (null: not stated). */
+  copingLevel: CopingLevel | null;
 }
 
 type Site = Pick<RestorationSiteDetail, 'siteId' | 'fdi' | 'systemName' | 'platformName'>;
@@ -33,13 +44,24 @@ export function scanBodyOptions(catalogue: CatalogueReply): ScanBodyOption[] {
           requiresLot: c.requiresLot,
           platformName: p.name,
           platformKey: platformKeyOf({ systemName: s.name, platformName: p.name }),
+          copingLevel: c.copingLevel,
         })),
     ),
   );
 }
 
 /**
- * The Findings of `checkScanBodies` on a digital impression's body, each at the path of the field
+ * Whether a scan body suits the site: of its platform and, when the restoration's retention is
+ * known, of the level the restoration is made on (or of no stated level: the API then warns). The
+ * form lists these first, under the site's platform.
+ */
+export const suitsSite = (option: ScanBodyOption, site: Site, retention?: Retention) =>
+  option.platformKey === platformKeyOf(site) &&
+  (retention === undefined || option.copingLevel === null || option.copingLevel === impressionLevelFor(retention));
+
+/**
+ * The Findings of `checkScanBodies` on a digital impression's body (and, when the restoration's
+ * retention is given, the errors of the level rule `impressionLevelFindings`, as the API runs it), each at the path of the field
  * it concerns (`scanBodies.<i>.componentId` or `.lot`, i = the entry of that site). A choice not in
  * the list (left empty) is the contract's to report.
  */
@@ -47,8 +69,10 @@ export function scanBodyIssues(
   body: { method: string; scanBodies: { siteId: string; componentId: string; lot: string | null }[] },
   sites: readonly Site[],
   options: readonly ScanBodyOption[],
+  retention?: Retention,
 ): { path: (string | number)[]; message: string }[] {
   if (body.method !== 'digital') return [];
+  const levels: Finding[] = [];
   const entries: ScanBodyEntry[] = [];
   const indexOfFdi = new Map<number, number>();
   body.scanBodies.forEach((b, i) => {
@@ -57,6 +81,10 @@ export function scanBodyIssues(
     if (!site) return;
     indexOfFdi.set(site.fdi, i);
     if (!part) return;
+    if (retention)
+      levels.push(
+        ...impressionLevelFindings(retention, site.fdi, 'scan body', part).filter((f) => f.severity === 'error'),
+      );
     entries.push({
       fdi: site.fdi,
       lot: b.lot,
@@ -75,7 +103,7 @@ export function scanBodyIssues(
     .map((s) => ({ fdi: s.fdi, platformId: platformKeyOf(s), platformName: s.platformName ?? 'unknown' }));
   const seen = new Set<string>();
   const issues: { path: (string | number)[]; message: string }[] = [];
-  for (const f of checkScanBodies('digital', ruleSites, entries)) {
+  for (const f of [...checkScanBodies('digital', ruleSites, entries), ...levels]) {
     const i = f.fdi === undefined ? undefined : indexOfFdi.get(f.fdi);
     if (i === undefined) continue;
     const field = f.code === SCAN_BODY_FINDING_CODES.LOT_MISSING ? 'lot' : 'componentId';

@@ -125,7 +125,7 @@ export function RestorationPanel({
       )}
       {current && (
         <Can I="read" a="Impression">
-          <ImpressionPanel restorationId={r.id} sites={r.sites} system={system} />
+          <ImpressionPanel restorationId={r.id} sites={r.sites} system={system} retention={r.retention} />
         </Can>
       )}
       {current && (
