@@ -10,12 +10,13 @@ import { startTestApp, type TestContext } from './support/test-app.js';
 let ctx: TestContext;
 let admin: string;
 let dentist: string;
+let platform: string;
 let practiceId: string;
 let addPart: TestPlatform['addPart'];
 let newPart: TestPlatform['newPart'];
 beforeAll(async () => {
   ctx = await startTestApp();
-  ({ admin, dentist, practiceId, addPart, newPart } = await testPlatform(ctx, 'FT'));
+  ({ admin, dentist, practiceId, platform, addPart, newPart } = await testPlatform(ctx, 'FT'));
 });
 afterAll(() => ctx.close());
 
