@@ -13,6 +13,12 @@ import { deskOrder, overdueInsertReviews } from './desk-order.repository.js';
 export interface DeskRowWithContact extends RecallDeskRow {
   phone: string | null;
   email: string | null;
+  /**
+   * The CSV only, for a row of the user's own practice: its sites as the CSV's cell writes them
+   * ("fdi: status; …"), joined by PostgreSQL; `sites` is then empty. Undefined elsewhere (a shared
+   * patient's sites are filtered by the share first).
+   */
+  sitesText?: string;
 }
 
 export interface DeskPage {
@@ -35,8 +41,16 @@ interface DeskSqlRow {
   overdue_days: number;
   last_exam_on: string | null;
   sites: { siteId: string; fdi: number; status: string | null; examinedOn: string | null }[];
-  provisionals_overdue: { restorationId: string; fdis: number[]; plannedReplacementOn: string }[];
-  insert_reviews_overdue: { restorationId: string; fdis: number[]; lastChangeOn: string | null; reviewDueOn: string }[];
+  /** The CSV's statement only: the sites' cell of an own practice's row, null for a shared patient's. */
+  sites_text?: string | null;
+  /** Absent in the CSV's statement. */
+  provisionals_overdue?: { restorationId: string; fdis: number[]; plannedReplacementOn: string }[];
+  insert_reviews_overdue?: {
+    restorationId: string;
+    fdis: number[];
+    lastChangeOn: string | null;
+    reviewDueOn: string;
+  }[];
 }
 
 export async function queryDesk(
@@ -58,12 +72,19 @@ export async function queryDesk(
   return { rows: result.rows.map(toDeskRow), total: counted.rows[0]?.total ?? 0 };
 }
 
-/** Rows per FETCH of an export: 5 round trips for 10 000 patients, about 1 MB of rows held at a time. */
+/**
+ * Rows per FETCH of an export: 5 round trips for 10 000 patients, about 1 MB of rows a batch (the
+ * cursor reads the next batch while the API writes this one, so two are held at most).
+ */
 const CSV_BATCH_ROWS = 2000;
 
 /**
- * Every row of the desk in its order, in batches through a cursor (an export): the API holds one
- * batch at a time. At most `limit` rows.
+ * Every row of the desk in its order, in batches through a cursor (an export): the API holds two
+ * batches at a time at most. At most `limit` rows. Only the columns the CSV writes: the overdue
+ * provisionals and insert reviews (a probe of each patient's restorations, 47 000 of the
+ * statement's 78 000 buffers at 10 000 patients) are on screen only, so they come back empty; an
+ * own practice's row brings its sites as the CSV's text (`sitesText`) rather than as JSON to parse
+ * into objects (most of the API's garbage per exported row).
  */
 export async function* streamDesk(
   pool: pg.Pool,
@@ -74,33 +95,48 @@ export async function* streamDesk(
 ): AsyncGenerator<DeskRowWithContact[], void> {
   for await (const batch of cursorBatches<DeskSqlRow>(
     pool,
-    deskStatement(scope, today, q, { limit, offset: 0 }),
+    deskStatement(scope, today, q, { limit, offset: 0 }, { screenOnly: false }),
     CSV_BATCH_ROWS,
   ))
-    yield batch.map(toDeskRow);
+    yield batch.map((r) => {
+      const row = toDeskRow(r);
+      if (typeof r.sites_text === 'string') row.sitesText = r.sites_text;
+      return row;
+    });
 }
 
 /**
  * The desk in one statement: the page's summary rows in order, walked from an index of
  * recall_summaries (desk-order.repository.ts) so that only the rows up to the page are read, then
  * each row's patient and, only for a row whose provisional is past its day, that provisional. The
- * page's count is a statement of its own (`DeskOrder.countStatement`).
+ * page's count is a statement of its own (`DeskOrder.countStatement`). Without `screenOnly` (the
+ * CSV), the overdue provisionals and insert reviews are left out (empty lists): the CSV has no
+ * column for them.
  */
 function deskStatement(
   scope: Scope,
   today: string,
   q: RecallDeskCsvQuery,
   page: { limit: number; offset: number },
+  { screenOnly }: { screenOnly: boolean } = { screenOnly: true },
 ): SQL {
   const order = deskOrder(scope, today, q, page.offset + page.limit);
-  return sql`
-    with ${order.ctes},
-    page as (select * from ordered order by ${order.orderBy('ordered')} limit ${page.limit} offset ${page.offset})
-    select page.patient_id as id,
-           greatest(0, coalesce(${today}::date - page.next_due, 0))::int as overdue_days,
-           page.next_due::text as next_due_on, page.last_exam_on::text as last_exam_on,
-           pa.chart_number, pa.given_name, pa.family_name, pa.phone, pa.email, pa.smoker, pa.diabetes_poorly_controlled, pa.periodontitis_history,
-           page.prior_peri_implantitis as prior_pi, page.sites,
+  // The CSV: a shared patient's sites as JSON (the share's rules filter them, desk.service.ts),
+  // every other row's as the CSV cell's text, in the JSON's order, a site without an exam as
+  // toDeskRow names it.
+  const shared =
+    scope.sharedPatientIds.length > 0
+      ? sql`page.patient_id in (${sql.join(
+          scope.sharedPatientIds.map((id) => sql`${id}::uuid`),
+          sql`, `,
+        )})`
+      : sql`false`;
+  const forCsv = sql`case when ${shared} then page.sites else '[]'::json end as sites,
+           case when ${shared} then null else coalesce((
+             select string_agg(site.fdi || ': ' || coalesce(site.status, 'not-examined'), '; ' order by site.n)
+             from rows from (json_to_recordset(page.sites) as (fdi int, status text)) with ordinality as site (fdi, status, n)
+           ), '') end as sites_text`;
+  const onScreen = sql`,
            case when page.provisional_due < ${today}::date then coalesce((
              select json_agg(json_build_object('restorationId', rp.id, 'plannedReplacementOn', rp.planned_replacement_on,
                       'fdis', (select json_agg(s.fdi order by s.fdi) from restoration_sites rs
@@ -116,7 +152,15 @@ function deskStatement(
                                join implant_sites s on s.id = rs.site_id where rs.restoration_id = o.id))
                     order by o.due_on)
              from (${overdueInsertReviews(today, sql`ro.patient_id = pa.id`)}) o
-           ), '[]'::json) as insert_reviews_overdue
+           ), '[]'::json) as insert_reviews_overdue`;
+  return sql`
+    with ${order.ctes},
+    page as (select * from ordered order by ${order.orderBy('ordered')} limit ${page.limit} offset ${page.offset})
+    select page.patient_id as id,
+           greatest(0, coalesce(${today}::date - page.next_due, 0))::int as overdue_days,
+           page.next_due::text as next_due_on, page.last_exam_on::text as last_exam_on,
+           pa.chart_number, pa.given_name, pa.family_name, pa.phone, pa.email, pa.smoker, pa.diabetes_poorly_controlled, pa.periodontitis_history,
+           page.prior_peri_implantitis as prior_pi, ${screenOnly ? sql`page.sites${onScreen}` : forCsv}
     from page join patients pa on pa.id = page.patient_id
     order by ${order.orderBy('page')}
   `;
@@ -138,8 +182,8 @@ function toDeskRow(r: DeskSqlRow): DeskRowWithContact {
       status: (s.status ?? 'not-examined') as RecallDeskRow['sites'][number]['status'],
       lastExamOn: s.examinedOn,
     })),
-    provisionalsOverdue: r.provisionals_overdue.map((p) => ({ ...p, fdis: p.fdis ?? [] })),
-    insertReviewsOverdue: r.insert_reviews_overdue.map((p) => ({ ...p, fdis: p.fdis ?? [] })),
+    provisionalsOverdue: (r.provisionals_overdue ?? []).map((p) => ({ ...p, fdis: p.fdis ?? [] })),
+    insertReviewsOverdue: (r.insert_reviews_overdue ?? []).map((p) => ({ ...p, fdis: p.fdis ?? [] })),
     riskFactors: {
       smoker: r.smoker,
       diabetesPoorlyControlled: r.diabetes_poorly_controlled,

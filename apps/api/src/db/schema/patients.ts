@@ -63,6 +63,12 @@ export const patients = pgTable(
     index('patients_practice_family_idx').on(t.practiceId, t.familyName),
     // The duplicate check looks patients up by birth date within the practice.
     index('patients_practice_birth_idx').on(t.practiceId, t.birthDate),
+    // Searches by any part of a name or chart number (`ilike '%word%'`, the patient list and the
+    // Recall desk): trigram indexes (pg_trgm, created by the migration), one per column, which
+    // PostgreSQL combines for the `or` of the three, so a search reads the matching patients only.
+    index('patients_given_name_trgm_idx').using('gin', t.givenName.op('gin_trgm_ops')),
+    index('patients_family_name_trgm_idx').using('gin', t.familyName.op('gin_trgm_ops')),
+    index('patients_chart_number_trgm_idx').using('gin', t.chartNumber.op('gin_trgm_ops')),
   ],
 );
 
