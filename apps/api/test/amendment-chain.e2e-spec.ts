@@ -15,6 +15,7 @@ import {
   restorations,
   torqueEvents,
 } from '../src/db/schema/index.js';
+import { AMENDABLE_TABLES, supersedesUniqueName } from '../src/db/schema/amendment-chain.js';
 import { larkspurId, parts } from './support/ledger-fixtures.js';
 import { type AccountKey, patientId, signInAll, siteId, startTestApp, type TestContext } from './support/test-app.js';
 
@@ -267,3 +268,31 @@ describe.each(TABLES)(
     });
   },
 );
+
+// The HTTP races above cover the busiest tables; this covers every table, including the next one
+// someone adds: a table with a supersedes_id column must be in AMENDABLE_TABLES and carry its
+// chain's unique index and foreign key in the migrated database.
+describe('every table with a supersedes_id column', () => {
+  it('is listed as amendable and has its unique index and foreign key in the database', async () => {
+    const { rows: columns } = await ctx.db.execute<{ table_name: string }>(
+      sql`select table_name from information_schema.columns
+          where table_schema = 'public' and column_name = 'supersedes_id' order by table_name`,
+    );
+    const withColumn = columns.map((c) => c.table_name);
+    expect(withColumn).toEqual([...AMENDABLE_TABLES].sort());
+    const { rows: guards } = await ctx.db.execute<{ table_name: string; name: string; kind: string }>(
+      sql`select cl.relname as table_name, co.conname as name, 'fk' as kind
+            from pg_constraint co join pg_class cl on cl.oid = co.conrelid
+           where co.contype = 'f' and co.confrelid = co.conrelid
+             and co.conkey = array[(select attnum from pg_attribute where attrelid = cl.oid and attname = 'supersedes_id')]::int2[]
+          union all
+          select tablename, indexname, 'unique'
+            from pg_indexes
+           where schemaname = 'public' and indexdef like 'CREATE UNIQUE INDEX % (supersedes_id)'`,
+    );
+    for (const table of AMENDABLE_TABLES) {
+      expect(guards, table).toContainEqual({ table_name: table, name: supersedesUniqueName(table), kind: 'unique' });
+      expect(guards, table).toContainEqual({ table_name: table, name: `${table}_supersedes_fk`, kind: 'fk' });
+    }
+  });
+});
