@@ -17,6 +17,8 @@ import {
 import { sql } from 'drizzle-orm';
 import { amendmentChain } from './amendment-chain.js';
 import { components, torqueWrenches } from './catalogue.js';
+// insert-changes.ts imports this file too; the reference below is read lazily, after both have loaded.
+import { insertChanges } from './insert-changes.js';
 import {
   complicationKindEnum,
   impressionCopingEnum,
@@ -121,7 +123,8 @@ export const restorationSites = pgTable(
 
 /**
  * A physical part in the mouth (abutment, multi-unit, screw …) at one site. A replaced part is
- * never deleted: it gets `removedOn` and a new instance takes its place, so history is kept.
+ * never deleted: it gets `removedOn` and a new instance takes its place, so history is kept. A
+ * part "in place" is neither removed nor entered in error (`partInPlace` in db/parts-in-place.ts).
  */
 export const componentInstances = pgTable(
   'component_instances',
@@ -146,9 +149,20 @@ export const componentInstances = pgTable(
     replacesId: uuid('replaces_id'),
     recordedBy: uuid('recorded_by').references(() => users.id),
     recordedAt: timestamp('recorded_at', { withTimezone: true }).notNull().defaultNow(),
+    /** The insert change (the version) that fitted this insert or clip; null for every other part. */
+    insertChangeId: uuid('insert_change_id').references((): AnyPgColumn => insertChanges.id),
+    /**
+     * Set when an amendment of its insert change says this part was never fitted (another part, or
+     * another day): the row stays for the record, and the Stack and Site file leave it out.
+     */
+    enteredInErrorAt: timestamp('entered_in_error_at', { withTimezone: true }),
+    enteredInErrorReason: text('entered_in_error_reason'),
   },
   (t) => [
     index('component_instances_site_idx').on(t.siteId),
+    index('component_instances_insert_change_idx')
+      .on(t.insertChangeId)
+      .where(sql`${t.insertChangeId} is not null`),
     // The lot look-up: by lot, or by the catalogue part (all versions of a reference code).
     index('component_instances_practice_lot_idx')
       .on(t.practiceId, t.lot)
