@@ -4,6 +4,3 @@ import { and, isNull } from 'drizzle-orm';
 import { componentInstances } from './schema/index.js';
 
 export const partInPlace = () => and(isNull(componentInstances.removedOn), isNull(componentInstances.enteredInErrorAt));
-
-/** Every part ever fitted, less those an amendment says were never fitted (the Site file's history). */
-export const partNotInError = () => isNull(componentInstances.enteredInErrorAt);

@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, inArray, isNull, ne, or } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, ne, or } from 'drizzle-orm';
 import { partInPlace } from '../db/parts-in-place.js';
 import type { Db, Tx } from '../db/database.js';
 import {

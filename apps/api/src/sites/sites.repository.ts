@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, isNull, ne, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, ne, sql } from 'drizzle-orm';
 import type { TorqueReason, TorqueVerdict } from '@torquetrail/contracts';
 import { alias } from 'drizzle-orm/pg-core';
 import { partInPlace } from '../db/parts-in-place.js';

@@ -17,10 +17,9 @@ import {
 import { sql } from 'drizzle-orm';
 import { amendmentChain } from './amendment-chain.js';
 import { components, torqueWrenches } from './catalogue.js';
-// insert-changes.ts imports this file too; the reference below is read lazily, after both have loaded.
-import { insertChanges } from './insert-changes.js';
 import {
   complicationKindEnum,
+  insertChangeReasonEnum,
   impressionCopingEnum,
   interfaceEnum,
   materialEnum,
@@ -343,4 +342,44 @@ export const complications = pgTable(
     recordedAt: timestamp('recorded_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [index('complications_site_idx').on(t.siteId), ...amendmentChain('complications', t)],
+);
+
+/**
+ * A retentive insert (or bar clip) changed at one site of a delivered overdenture: the catalogue
+ * part taken out (when known) and the one put in. Amended by a superseding row, never overwritten.
+ */
+export const insertChanges = pgTable(
+  'insert_changes',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
+    patientId: uuid('patient_id')
+      .notNull()
+      .references(() => patients.id),
+    siteId: uuid('site_id')
+      .notNull()
+      .references(() => implantSites.id),
+    /** The overdenture (the version current when the change was first logged). */
+    restorationId: uuid('restoration_id')
+      .notNull()
+      .references(() => restorations.id),
+    changedOn: date('changed_on', { mode: 'string' }).notNull(),
+    oldComponentId: uuid('old_component_id').references(() => components.id),
+    newComponentId: uuid('new_component_id')
+      .notNull()
+      .references(() => components.id),
+    reason: insertChangeReasonEnum('reason').notNull(),
+    notes: text('notes'),
+    supersedesId: uuid('supersedes_id'),
+    amendmentReason: text('amendment_reason'),
+    recordedBy: uuid('recorded_by').references(() => users.id),
+    recordedAt: timestamp('recorded_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [
+    index('insert_changes_site_idx').on(t.siteId, t.changedOn),
+    index('insert_changes_patient_idx').on(t.patientId),
+    ...amendmentChain('insert_changes', t),
+  ],
 );

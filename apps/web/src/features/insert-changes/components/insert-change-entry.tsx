@@ -17,12 +17,12 @@ import { strengthText } from './insert-strength';
 export function InsertChangeEntry({ site, change }: { site: SiteFile; change: InsertChange }) {
   const [params, setParams] = useSearchParams();
   const asked = params.get(AMEND_INSERT_CHANGE_PARAM) === change.id;
-  const [open, setOpen] = useState(asked);
+  // Opened by its own button, or by the Timeline's link (the search parameter) until closed.
+  const [opened, setOpen] = useState(false);
+  const open = opened || asked;
   const item = useRef<HTMLLIElement>(null);
   useEffect(() => {
-    if (!asked) return;
-    setOpen(true);
-    item.current?.scrollIntoView({ block: 'center' });
+    if (asked) item.current?.scrollIntoView({ block: 'center' });
   }, [asked]);
   const close = () => {
     setOpen(false);

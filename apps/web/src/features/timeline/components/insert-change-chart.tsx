@@ -3,15 +3,11 @@
 import { INSERT_CHANGE_REASONS, type InsertChangeReason, type TimelineEvent } from '@torquetrail/contracts';
 import { insertChangeHistory } from '@torquetrail/domain';
 import { Bar, BarChart, CartesianGrid, Legend, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
-import { INSERT_CHANGE_REASON_LABEL } from '../../../lib/clinical-labels';
+import { INSERT_CHANGE_REASON_LABEL, INSERT_CHANGE_REASON_SHADE } from '../../../lib/clinical-labels';
 import { localToday } from '../../../lib/dates';
 
-/** One shade per reason, in the list's order: Torquetrail's teal family, the fracture darkest. */
-const REASON_FILL: Record<InsertChangeReason, string> = {
-  'retention-loss': '#5fb3a8',
-  wear: '#99c7c1',
-  fracture: '#0f5c56',
-};
+/** The reasons' words in the text colour: the lighter shades would be hard to read as text. */
+const legendText = (name: string) => <span className="insert-change-chart__legend">{name}</span>;
 
 /**
  * The site's insert changes per calendar year, by reason: the current versions of the Timeline's
@@ -43,13 +39,13 @@ export default function InsertChangeChart({ events }: { events: TimelineEvent[] 
             <XAxis dataKey="year" />
             <YAxis allowDecimals={false} domain={[0, Math.max(2, max)]} width={40} />
             <Tooltip />
-            <Legend />
+            <Legend formatter={legendText} />
             {INSERT_CHANGE_REASONS.map((r) => (
               <Bar
                 key={r}
                 dataKey={r}
                 stackId="changes"
-                fill={REASON_FILL[r]}
+                fill={INSERT_CHANGE_REASON_SHADE[r]}
                 name={INSERT_CHANGE_REASON_LABEL[r]}
                 isAnimationActive={false}
               />
