@@ -246,6 +246,12 @@ describe('package root answers through the public API', () => {
     ['insertReviewDueOn', () => domain.insertReviewDueOn('2025-03-14', 12), '2026-03-14'],
     ['wholeMonthsBetween', () => domain.wholeMonthsBetween('2025-11-05', '2026-01-05'), 2],
     ['insertChangeSummary', () => domain.insertChangeSummary(['2025-11-05'], '2026-02-01').daysSinceLast, 88],
+    // insert-changes.test.ts [decision]: one bar per calendar year from the first change to today's
+    [
+      'insertChangeHistory',
+      () => domain.insertChangeHistory([{ changedOn: '2024-05-02', reason: 'wear' }], '2025-01-01', ['wear']).length,
+      2,
+    ],
     // part-fit.test.ts [common practice]: a restoration on multi-units is recorded at multi-unit level
     ['impressionLevelFor', () => domain.impressionLevelFor('screw-to-multi-unit'), 'multi-unit'],
     [

@@ -270,13 +270,14 @@ export { provisionalOverdue } from './provisional.js';
 /** Interval since the last insert change, counts per year, the review's due day (12 months [common practice]). */
 export {
   insertChangeSummary,
+  insertChangeHistory,
   insertReviewDueOn,
   insertReviewOverdue,
   wholeMonthsBetween,
   DEFAULT_INSERT_REVIEW_MONTHS,
   INSERT_REVIEW_MONTHS_RANGE,
 } from './insert-changes.js';
-export type { InsertChangeSummary } from './insert-changes.js';
+export type { InsertChangeSummary, InsertChangeYear } from './insert-changes.js';
 
 // ---- recall --------------------------------------------------------------------------------
 /** Next recall date: 6 months, or 3 with any risk factor (practice policy). */

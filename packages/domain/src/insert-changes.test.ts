@@ -6,6 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import {
   DEFAULT_INSERT_REVIEW_MONTHS,
+  insertChangeHistory,
   insertChangeSummary,
   insertReviewDueOn,
   insertReviewOverdue,
@@ -78,5 +79,39 @@ describe('insert review (default 12 months [common practice])', () => {
     expect(() => insertReviewDueOn('2025-03-14', 0)).toThrow(/whole months/);
     expect(() => insertReviewDueOn('2025-03-14', 1.5)).toThrow(/whole months/);
     expect(() => insertReviewDueOn('2025-03-14', 61)).toThrow(/whole months/);
+  });
+});
+
+describe('insertChangeHistory', () => {
+  const reasons = ['retention-loss', 'wear', 'fracture'] as const;
+  it('counts the changes per calendar year by reason, a quiet year as zeros, up to today’s year', () => {
+    // Worked by hand: 2022 one wear; 2023 none; 2024 a retention loss and a fracture; 2025 none yet;
+    // today 2025-06-30, so the chart runs 2022 … 2025 (four bars).
+    const years = insertChangeHistory(
+      [
+        { changedOn: '2024-11-03', reason: 'fracture' },
+        { changedOn: '2022-04-19', reason: 'wear' },
+        { changedOn: '2024-02-07', reason: 'retention-loss' },
+      ],
+      '2025-06-30',
+      reasons,
+    );
+    expect(years).toEqual([
+      { year: 2022, total: 1, byReason: { 'retention-loss': 0, wear: 1, fracture: 0 } },
+      { year: 2023, total: 0, byReason: { 'retention-loss': 0, wear: 0, fracture: 0 } },
+      { year: 2024, total: 2, byReason: { 'retention-loss': 1, wear: 0, fracture: 1 } },
+      { year: 2025, total: 0, byReason: { 'retention-loss': 0, wear: 0, fracture: 0 } },
+    ]);
+  });
+  it('is empty when no change is recorded (the Timeline shows its empty state)', () => {
+    expect(insertChangeHistory([], '2025-06-30', reasons)).toEqual([]);
+  });
+  it('refuses a change after today and a reason outside the list', () => {
+    expect(() => insertChangeHistory([{ changedOn: '2025-07-01', reason: 'wear' }], '2025-06-30', reasons)).toThrow(
+      'Cannot be in the future',
+    );
+    expect(() =>
+      insertChangeHistory([{ changedOn: '2025-01-01', reason: 'lost' as 'wear' }], '2025-06-30', reasons),
+    ).toThrow('Not a reason of the list');
   });
 });

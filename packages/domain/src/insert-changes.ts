@@ -94,3 +94,41 @@ export function insertReviewOverdue(lastChangeOrDeliveryOn: string, months: numb
   checkDate(today, 'today');
   return insertReviewDueOn(lastChangeOrDeliveryOn, months) < today;
 }
+
+/** One calendar year of the Timeline's insert-change chart: the changes by reason, and their total. */
+export interface InsertChangeYear<R extends string> {
+  year: number;
+  total: number;
+  byReason: Record<R, number>;
+}
+
+/**
+ * The insert changes of a site per calendar year, for the Timeline's chart: every year from the
+ * first change to today's year (years without a change are zeros, so a quiet year shows as one),
+ * each split by reason in the order of `reasons`. Empty when no change is recorded. Amended
+ * versions are the caller's to leave out, as for `insertChangeSummary`; a change after today or
+ * with a reason outside `reasons` is refused.
+ */
+export function insertChangeHistory<R extends string>(
+  changes: readonly { changedOn: string; reason: R }[],
+  today: string,
+  reasons: readonly R[],
+): InsertChangeYear<R>[] {
+  checkDate(today, 'today');
+  for (const c of changes) {
+    checkDate(c.changedOn, 'changedOn');
+    if (c.changedOn > today) throw new ValidationError('out-of-range', 'Cannot be in the future', 'changedOn');
+    if (!reasons.includes(c.reason)) throw new ValidationError('out-of-range', 'Not a reason of the list', 'reason');
+  }
+  if (changes.length === 0) return [];
+  const first = Math.min(...changes.map((c) => Number(c.changedOn.slice(0, 4))));
+  const last = Number(today.slice(0, 4));
+  const zeros = () => Object.fromEntries(reasons.map((r) => [r, 0])) as Record<R, number>;
+  const years = Array.from({ length: last - first + 1 }, (_, i) => ({ year: first + i, total: 0, byReason: zeros() }));
+  for (const c of changes) {
+    const y = years[Number(c.changedOn.slice(0, 4)) - first];
+    y.total += 1;
+    y.byReason[c.reason] += 1;
+  }
+  return years;
+}

@@ -1,7 +1,8 @@
 // SQL of the legacy import: what the checks compare the file with (the practice's patients,
 // catalogue, live sites, parts and exams), and the bulk writes of a checked file. Every query
 // is pinned to the importing user's practice.
-import { and, eq, inArray, isNull, notInArray, sql } from 'drizzle-orm';
+import { and, eq, inArray, notInArray, sql } from 'drizzle-orm';
+import { partInPlace } from '../db/parts-in-place.js';
 import { isCurrentVersion } from '../db/amendments.js';
 import type { Db, Tx } from '../db/database.js';
 import {
@@ -98,7 +99,7 @@ export async function installedParts(db: Db, practiceId: string) {
     })
     .from(componentInstances)
     .innerJoin(components, eq(components.id, componentInstances.componentId))
-    .where(and(eq(componentInstances.practiceId, practiceId), isNull(componentInstances.removedOn)));
+    .where(and(eq(componentInstances.practiceId, practiceId), partInPlace()));
 }
 
 /** Exams of the given sites with their probing, for choosing an imported exam's baseline. */

@@ -1,4 +1,4 @@
-import { fitInsert } from '../db/insert-fitting.js';
+import { fitInsert, refitInsert } from '../db/insert-fitting.js';
 import { insertReviewSettings } from '../db/practice-settings.js';
 import { Inject, Injectable } from '@nestjs/common';
 import type { AppAbility } from '@torquetrail/authz';
@@ -105,7 +105,7 @@ export class InsertChangesService {
     const id = await auditedTransaction(this.db, async (tx) => {
       const newId = await repo.insertInsertChange(tx, values);
       // The Stack shows what is in the mouth: the new insert replaces the one in place.
-      await fitInsert(tx, { ...values, componentId: values.newComponentId });
+      await fitInsert(tx, { ...values, insertChangeId: newId, componentId: values.newComponentId });
       reportChange({ type: 'InsertChange', id: newId, patientId: site.patientId, after: values });
       return newId;
     });
@@ -156,6 +156,14 @@ export class InsertChangesService {
     };
     const newId = await auditedTransaction(this.db, async (tx) => {
       const inserted = await repo.insertInsertChangeAmendment(tx, values);
+      // The Stack follows the amended part and day; a refusal rolls the amendment back with it.
+      const problem = await refitInsert(
+        tx,
+        found.id,
+        { ...values, insertChangeId: inserted, componentId: values.newComponentId },
+        body.amendmentReason,
+      );
+      if (problem) throw fieldError(problem);
       reportChange({ type: 'InsertChange', id: inserted, patientId: found.patientId, before: found, after: values });
       return inserted;
     });

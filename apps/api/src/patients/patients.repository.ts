@@ -1,5 +1,6 @@
 import { and, asc, eq, ilike, isNotNull, isNull, or, sql, type SQL } from 'drizzle-orm';
 import type { ArchiveFilter } from '@torquetrail/contracts';
+import { partInPlace } from '../db/parts-in-place.js';
 import type { Db } from '../db/database.js';
 import {
   componentInstances,
@@ -125,7 +126,7 @@ export async function seatingOfPatientParts(db: Db, patientId: string) {
       })
       .from(componentInstances)
       .innerJoin(components, eq(components.id, componentInstances.componentId))
-      .where(and(eq(componentInstances.patientId, patientId), isNull(componentInstances.removedOn))),
+      .where(and(eq(componentInstances.patientId, patientId), partInPlace())),
     db
       .select({
         instanceId: torqueEvents.componentInstanceId,

@@ -1,5 +1,6 @@
-import { and, asc, desc, eq, inArray, isNull, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
+import { partInPlace } from '../db/parts-in-place.js';
 import type { Db, Tx } from '../db/database.js';
 import { isCurrentVersion } from '../db/amendments.js';
 import {
@@ -130,7 +131,7 @@ export async function partsOfPatient(db: Db, patientId: string) {
     .innerJoin(components, eq(components.id, componentInstances.componentId))
     .innerJoin(platforms, eq(platforms.id, components.platformId))
     .innerJoin(implantSystems, eq(implantSystems.id, platforms.systemId))
-    .where(and(eq(componentInstances.patientId, patientId), isNull(componentInstances.removedOn)))
+    .where(and(eq(componentInstances.patientId, patientId), partInPlace()))
     .orderBy(asc(componentInstances.installedOn), asc(componentInstances.recordedAt));
 }
 

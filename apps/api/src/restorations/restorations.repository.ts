@@ -1,4 +1,5 @@
-import { and, asc, desc, eq, inArray, isNull, ne, or } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, ne, or } from 'drizzle-orm';
+import { partInPlace } from '../db/parts-in-place.js';
 import type { Db, Tx } from '../db/database.js';
 import {
   componentInstances,
@@ -290,13 +291,7 @@ export async function removePartsOfKinds(tx: Tx, siteIds: string[], kinds: reado
     .select({ id: componentInstances.id })
     .from(componentInstances)
     .innerJoin(components, eq(components.id, componentInstances.componentId))
-    .where(
-      and(
-        inArray(componentInstances.siteId, siteIds),
-        isNull(componentInstances.removedOn),
-        inArray(components.kind, [...kinds]),
-      ),
-    );
+    .where(and(inArray(componentInstances.siteId, siteIds), partInPlace(), inArray(components.kind, [...kinds])));
   if (found.length > 0)
     await tx
       .update(componentInstances)
@@ -348,7 +343,7 @@ export async function removeRestorations(
     .where(
       and(
         inArray(componentInstances.restorationId, ids),
-        isNull(componentInstances.removedOn),
+        partInPlace(),
         or(inArray(componentInstances.siteId, siteIds), inArray(componentInstances.componentId, everywhere)),
       ),
     );

@@ -218,21 +218,25 @@ async function seedBeatrixInsertChanges(
     // A fractured insert is changed at its own site only.
     const sites = reason === 'fracture' ? b.siteIds.slice(1) : b.siteIds;
     for (const siteId of sites) {
-      await ctx.tx.insert(insertChanges).values({
-        practiceId: ctx.practiceId,
-        patientId: b.patientId,
-        siteId,
-        restorationId: b.restorationId,
-        changedOn,
-        oldComponentId: parts.get(strength)!,
-        newComponentId: parts.get(next)!,
-        reason,
-        notes,
-        recordedBy: hygienist,
-        recordedAt: at(changedOn, '11:00'),
-      });
+      const [change] = await ctx.tx
+        .insert(insertChanges)
+        .values({
+          practiceId: ctx.practiceId,
+          patientId: b.patientId,
+          siteId,
+          restorationId: b.restorationId,
+          changedOn,
+          oldComponentId: parts.get(strength)!,
+          newComponentId: parts.get(next)!,
+          reason,
+          notes,
+          recordedBy: hygienist,
+          recordedAt: at(changedOn, '11:00'),
+        })
+        .returning({ id: insertChanges.id });
       // As logging one in the app does, the new insert replaces the one in the Stack.
       await fitInsert(ctx.tx, {
+        insertChangeId: change.id,
         practiceId: ctx.practiceId,
         patientId: b.patientId,
         siteId,

@@ -1,6 +1,7 @@
-import { and, asc, desc, eq, isNull, ne, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, ne, sql } from 'drizzle-orm';
 import type { TorqueReason, TorqueVerdict } from '@torquetrail/contracts';
 import { alias } from 'drizzle-orm/pg-core';
+import { partInPlace } from '../db/parts-in-place.js';
 import type { Database } from '../db/database.js';
 import { preparedFor } from '../db/prepared.js';
 import {
@@ -125,7 +126,7 @@ const currentPartsQuery = preparedFor((db) => {
         sql`not exists (select 1 from ${components} newer where newer.supersedes_id = ${latest.id})`,
       ),
     )
-    .where(and(eq(componentInstances.siteId, sql.placeholder('siteId')), isNull(componentInstances.removedOn)))
+    .where(and(eq(componentInstances.siteId, sql.placeholder('siteId')), partInPlace()))
     .orderBy(asc(componentInstances.installedOn), asc(componentInstances.recordedAt))
     .prepare('site_file_parts');
 });
@@ -152,13 +153,7 @@ const currentTorqueQuery = preparedFor((db) =>
     })
     .from(torqueEvents)
     .innerJoin(componentInstances, eq(componentInstances.id, torqueEvents.componentInstanceId))
-    .where(
-      and(
-        eq(componentInstances.siteId, sql.placeholder('siteId')),
-        isNull(componentInstances.removedOn),
-        isCurrentVersion(torqueEvents),
-      ),
-    )
+    .where(and(eq(componentInstances.siteId, sql.placeholder('siteId')), partInPlace(), isCurrentVersion(torqueEvents)))
     .orderBy(asc(torqueEvents.performedAt), asc(torqueEvents.recordedAt))
     .prepare('site_file_torque'),
 );

@@ -135,6 +135,8 @@ const partsOfSiteQuery = preparedFor((db) =>
       installedOn: componentInstances.installedOn,
       removedOn: componentInstances.removedOn,
       replacesId: componentInstances.replacesId,
+      insertChangeId: componentInstances.insertChangeId,
+      enteredInErrorReason: componentInstances.enteredInErrorReason,
       byName: users.displayName,
     })
     .from(componentInstances)

@@ -80,6 +80,67 @@ describe('buildTimeline', () => {
     expect(events[1].title).toBe('Insert change (amended record): strong (retention loss)');
     expect(events[0].detail).toBe('Denture lifts when chewing');
   });
+  it('folds the parts an insert change took out and put in into its entry; a part an amendment corrected is told there', () => {
+    const insert = (id: string, name: string, over: Partial<TimelineRows['parts'][number]>) => ({
+      id,
+      kind: 'retentive-insert' as const,
+      name,
+      referenceCode: `RI-${id}`,
+      torqueSpecNcm: null,
+      tolerancePct: 10,
+      lot: null,
+      installedOn: '2025-03-10',
+      removedOn: null,
+      replacesId: null,
+      insertChangeId: null,
+      enteredInErrorReason: null,
+      byName: null,
+      ...over,
+    });
+    const change = {
+      id: 'i1',
+      changedOn: '2025-03-10',
+      reason: 'wear',
+      notes: null,
+      supersedesId: null,
+      amendmentReason: null,
+      recordedByName: null,
+      recordedAt: at('2025-03-10T09:00:00Z'),
+      amended: true,
+      oldPart: { name: 'Insert, medium', retentionLabel: 'medium', retentionN: 13 },
+      newPart: { name: 'Insert, light', retentionLabel: 'light', retentionN: 7 },
+    };
+    const amendment = {
+      ...change,
+      id: 'i2',
+      supersedesId: 'i1',
+      amendmentReason: 'A strong insert was fitted',
+      recordedAt: at('2025-03-11T09:00:00Z'),
+      amended: false,
+      newPart: { name: 'Insert, strong', retentionLabel: 'strong', retentionN: 20 },
+    };
+    const rows: TimelineRows = {
+      ...empty,
+      parts: [
+        // Fitted at delivery (no insert change), taken out by the change.
+        insert('p0', 'Insert, medium', { installedOn: '2024-01-05', removedOn: '2025-03-10' }),
+        insert('p1', 'Insert, light', {
+          replacesId: 'p0',
+          insertChangeId: 'i1',
+          enteredInErrorReason: 'A strong insert was fitted',
+        }),
+        insert('p2', 'Insert, strong', { replacesId: 'p0', insertChangeId: 'i2' }),
+      ],
+      insertChanges: [amendment, change],
+    };
+    const events = buildTimeline('s', rows).events;
+    // One entry per change: no "Removed" or "Replacement installed" beside it; the delivery's insert stays.
+    expect(events.map((e) => e.key)).toEqual(['part:p0:in', 'insert-change:i1', 'insert-change:i2']);
+    expect(events[1].detail).toBe(
+      'Insert, light entered in error in the Stack, corrected by the amendment (A strong insert was fitted)',
+    );
+    expect(events[2].detail).toBe('Stack: Insert, strong fitted in place of Insert, medium');
+  });
   it('orders by day, then the order of a sitting (complication before its torque), then time', () => {
     const rows: TimelineRows = {
       ...empty,
@@ -130,6 +191,8 @@ describe('buildTimeline', () => {
           installedOn: '2016-01-01',
           removedOn: null,
           replacesId: null,
+          insertChangeId: null,
+          enteredInErrorReason: null,
           byName: null,
         },
       ],

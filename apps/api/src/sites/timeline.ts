@@ -234,7 +234,10 @@ export function buildTimeline(
       ),
     );
   }
+  const folded = foldedIntoInsertChanges(rows.parts);
   for (const p of rows.parts) {
+    // An insert change's own entry says what it took out and put in (insertChangeDetail).
+    if (p.insertChangeId) continue;
     events.push(
       base(
         'part',
@@ -250,7 +253,7 @@ export function buildTimeline(
         },
       ),
     );
-    if (p.removedOn)
+    if (p.removedOn && !folded.has(p.id))
       events.push(
         base('part', p.id, day(p.removedOn), true, `Removed: ${p.name}`, {
           keySuffix: ':out',
@@ -316,7 +319,7 @@ export function buildTimeline(
       true,
       `${c.supersedesId ? 'Insert change (amended record)' : 'Retentive insert changed'}: ${c.oldPart ? `${strength(c.oldPart)} → ` : ''}${strength(c.newPart)} (${text(c.reason)})`,
       {
-        detail: c.notes,
+        detail: [c.notes, insertChangeDetail(c.id, rows.parts)].filter(Boolean).join('; ') || null,
         code: c.reason,
         byName: c.recordedByName,
         amended: c.amended,
@@ -398,6 +401,30 @@ export function buildTimeline(
         })),
     }));
   return { siteId, events: kept, torqueSeries };
+}
+
+type PartRow = TimelineRows['parts'][number];
+
+/** The parts whose removal an insert change made (the part it fitted replaced them): told in its entry. */
+function foldedIntoInsertChanges(parts: PartRow[]): Set<string> {
+  return new Set(
+    parts.filter((q) => q.insertChangeId && q.replacesId && !q.enteredInErrorReason).map((q) => q.replacesId as string),
+  );
+}
+
+/**
+ * What an insert change did to the Stack, for its Timeline entry: the part it fitted (in place of
+ * the one it replaced), or, when an amendment corrected it, that the part was entered in error.
+ */
+function insertChangeDetail(changeId: string, parts: PartRow[]): string | null {
+  const fitted = parts.filter((p) => p.insertChangeId === changeId);
+  const said = fitted.map((p) => {
+    if (p.enteredInErrorReason)
+      return `${p.name} entered in error in the Stack, corrected by the amendment (${p.enteredInErrorReason})`;
+    const replaced = parts.find((r) => r.id === p.replacesId);
+    return `Stack: ${p.name} fitted${replaced ? ` in place of ${replaced.name}` : ''}${p.lot ? `, lot ${p.lot}` : ''}`;
+  });
+  return said.length > 0 ? said.join('; ') : null;
 }
 
 /** Radiographs (entered-in-error ones marked), the bone levels read from them, and seating checks. */

@@ -1,5 +1,6 @@
-import { and, asc, eq, inArray, isNotNull, isNull, sql } from 'drizzle-orm';
+import { and, asc, eq, inArray, isNotNull, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
+import { partInPlace } from '../db/parts-in-place.js';
 import { currentWrenchVersion } from '../db/catalogue-parts.js';
 import type { Db, Tx } from '../db/database.js';
 import {
@@ -172,13 +173,7 @@ export async function listRestorationScrews(db: Db, restorationId: string) {
     .innerJoin(installed, eq(installed.id, componentInstances.componentId))
     .innerJoin(components, and(eq(components.lineageId, installed.lineageId), isCurrentVersion(components)))
     .innerJoin(implantSites, eq(implantSites.id, componentInstances.siteId))
-    .where(
-      and(
-        eq(componentInstances.restorationId, restorationId),
-        isNull(componentInstances.removedOn),
-        isNotNull(components.torqueSpecNcm),
-      ),
-    )
+    .where(and(eq(componentInstances.restorationId, restorationId), partInPlace(), isNotNull(components.torqueSpecNcm)))
     .orderBy(asc(implantSites.fdi), asc(componentInstances.recordedAt), asc(componentInstances.id));
 }
 

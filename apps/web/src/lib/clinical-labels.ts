@@ -180,6 +180,12 @@ export const INSERT_CHANGE_REASON_LABEL: Record<InsertChangeReason, string> = {
   wear: 'Worn',
   fracture: 'Broken',
 };
+/** Each reason's shade in the Timeline's insert-change chart: Torquetrail's teal family, a break darkest. */
+export const INSERT_CHANGE_REASON_SHADE: Record<InsertChangeReason, string> = {
+  'retention-loss': '#5fb3a8',
+  wear: '#99c7c1',
+  fracture: '#0f5c56',
+};
 
 /** Column heads of the probing grid (the full names are the values themselves, used in field names). */
 export const PROBING_POSITION_ABBREVIATION: Record<ProbingPosition, string> = {

@@ -14,4 +14,4 @@ export * from './people.js';
 export * from './referrals.js';
 export * from './records-out.js';
 export * from './imports.js';
-export * from './insert-changes.js';
+// insert_changes lives in restorations.js: component_instances (the fitted inserts) references it.

@@ -19,6 +19,7 @@ import { amendmentChain } from './amendment-chain.js';
 import { components, torqueWrenches } from './catalogue.js';
 import {
   complicationKindEnum,
+  insertChangeReasonEnum,
   impressionCopingEnum,
   interfaceEnum,
   materialEnum,
@@ -121,7 +122,8 @@ export const restorationSites = pgTable(
 
 /**
  * A physical part in the mouth (abutment, multi-unit, screw …) at one site. A replaced part is
- * never deleted: it gets `removedOn` and a new instance takes its place, so history is kept.
+ * never deleted: it gets `removedOn` and a new instance takes its place, so history is kept. A
+ * part "in place" is neither removed nor entered in error (`partInPlace` in db/parts-in-place.ts).
  */
 export const componentInstances = pgTable(
   'component_instances',
@@ -146,9 +148,20 @@ export const componentInstances = pgTable(
     replacesId: uuid('replaces_id'),
     recordedBy: uuid('recorded_by').references(() => users.id),
     recordedAt: timestamp('recorded_at', { withTimezone: true }).notNull().defaultNow(),
+    /** The insert change (the version) that fitted this insert or clip; null for every other part. */
+    insertChangeId: uuid('insert_change_id').references((): AnyPgColumn => insertChanges.id),
+    /**
+     * Set when an amendment of its insert change says this part was never fitted (another part, or
+     * another day): the row stays for the record, and the Stack and Site file leave it out.
+     */
+    enteredInErrorAt: timestamp('entered_in_error_at', { withTimezone: true }),
+    enteredInErrorReason: text('entered_in_error_reason'),
   },
   (t) => [
     index('component_instances_site_idx').on(t.siteId),
+    index('component_instances_insert_change_idx')
+      .on(t.insertChangeId)
+      .where(sql`${t.insertChangeId} is not null`),
     // The lot look-up: by lot, or by the catalogue part (all versions of a reference code).
     index('component_instances_practice_lot_idx')
       .on(t.practiceId, t.lot)
@@ -329,4 +342,44 @@ export const complications = pgTable(
     recordedAt: timestamp('recorded_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [index('complications_site_idx').on(t.siteId), ...amendmentChain('complications', t)],
+);
+
+/**
+ * A retentive insert (or bar clip) changed at one site of a delivered overdenture: the catalogue
+ * part taken out (when known) and the one put in. Amended by a superseding row, never overwritten.
+ */
+export const insertChanges = pgTable(
+  'insert_changes',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    practiceId: uuid('practice_id')
+      .notNull()
+      .references(() => practices.id),
+    patientId: uuid('patient_id')
+      .notNull()
+      .references(() => patients.id),
+    siteId: uuid('site_id')
+      .notNull()
+      .references(() => implantSites.id),
+    /** The overdenture (the version current when the change was first logged). */
+    restorationId: uuid('restoration_id')
+      .notNull()
+      .references(() => restorations.id),
+    changedOn: date('changed_on', { mode: 'string' }).notNull(),
+    oldComponentId: uuid('old_component_id').references(() => components.id),
+    newComponentId: uuid('new_component_id')
+      .notNull()
+      .references(() => components.id),
+    reason: insertChangeReasonEnum('reason').notNull(),
+    notes: text('notes'),
+    supersedesId: uuid('supersedes_id'),
+    amendmentReason: text('amendment_reason'),
+    recordedBy: uuid('recorded_by').references(() => users.id),
+    recordedAt: timestamp('recorded_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [
+    index('insert_changes_site_idx').on(t.siteId, t.changedOn),
+    index('insert_changes_patient_idx').on(t.patientId),
+    ...amendmentChain('insert_changes', t),
+  ],
 );

@@ -5,3 +5,4 @@ export { draftSchema, useContractForm } from './contract-form';
 export { keepDrafts, setDraftOwner } from './drafts';
 export { errorAt, FieldError, FormField, useFieldError } from './form-field';
 export { applyServerErrors, formErrorMessage } from './server-errors';
+export { AmendmentForm } from './amendment-form';

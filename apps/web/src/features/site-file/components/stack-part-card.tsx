@@ -1,5 +1,5 @@
 import { Callout, Card, Tag } from '@blueprintjs/core';
-import type { StackPart } from '@torquetrail/contracts';
+import { type ComponentKind, DENTURE_RETAINER_KINDS, type StackPart } from '@torquetrail/contracts';
 import { type ReactNode, useState } from 'react';
 import { formatDate, formatDateTime } from '../../../lib/dates';
 import { FactList } from './fact-list';
@@ -27,9 +27,14 @@ export function StackPartCard({ part }: { part: StackPart }) {
   if (part.engaging !== null) facts.push(['Interface', INTERFACE_LABEL[part.engaging ? 'engaging' : 'non-engaging']]);
   if (part.angleDeg !== null) facts.push(['Angle', `${formatNumber(part.angleDeg)}°`]);
   else if (ANGLED_KINDS.includes(part.kind)) facts.push(['Angle', 'Straight']);
-  facts.push(['Torque specification', formatTorqueSpec(part.torqueSpecNcm, part.tolerancePct)]);
+  // An insert or a clip sits in the denture's housing by its retention: no torque is ever applied to it.
+  const torqueApplies = !(DENTURE_RETAINER_KINDS as readonly ComponentKind[]).includes(part.kind);
+  facts.push([
+    'Torque specification',
+    torqueApplies ? formatTorqueSpec(part.torqueSpecNcm, part.tolerancePct) : 'Does not apply',
+  ]);
   // The part is shown as installed; new torque entries use the catalogue's current version.
-  if (part.newerVersion)
+  if (part.newerVersion && torqueApplies)
     facts.push([
       'Catalogue updated since',
       `${formatTorqueSpec(part.newerVersion.torqueSpecNcm, part.newerVersion.tolerancePct)} now${
@@ -82,28 +87,35 @@ export function StackPartCard({ part }: { part: StackPart }) {
           offset settling (Siamos et al. 2002). Log a re-torque to clear this reminder.
         </Callout>
       )}
-      <div className="stack-card__torque">
-        <span className="stack-card__torque-label">Last applied torque</span>
-        {last ? (
-          <>
-            <span>
-              {formatNumber(last.appliedNcm)} N·cm on {formatDateTime(last.performedAt)} ·{' '}
-              {TORQUE_REASON_LABEL[last.reason]}
-              {last.specNcm !== part.torqueSpecNcm && (
-                <span className="muted"> (against {formatTorqueSpec(last.specNcm, last.tolerancePct)})</span>
+      {torqueApplies ? (
+        <div className="stack-card__torque">
+          <span className="stack-card__torque-label">Last applied torque</span>
+          {last ? (
+            <>
+              <span>
+                {formatNumber(last.appliedNcm)} N·cm on {formatDateTime(last.performedAt)} ·{' '}
+                {TORQUE_REASON_LABEL[last.reason]}
+                {last.specNcm !== part.torqueSpecNcm && (
+                  <span className="muted"> (against {formatTorqueSpec(last.specNcm, last.tolerancePct)})</span>
+                )}
+              </span>
+              <TorqueVerdictTag verdict={last.verdict} />
+              {last.wrenchCalibrationOverdue && (
+                <Tag intent="warning" minimal icon="warning-sign" data-testid="calibration-overdue-flag">
+                  wrench calibration overdue
+                </Tag>
               )}
-            </span>
-            <TorqueVerdictTag verdict={last.verdict} />
-            {last.wrenchCalibrationOverdue && (
-              <Tag intent="warning" minimal icon="warning-sign" data-testid="calibration-overdue-flag">
-                wrench calibration overdue
-              </Tag>
-            )}
-          </>
-        ) : (
-          <span className="muted">None recorded</span>
-        )}
-      </div>
+            </>
+          ) : (
+            <span className="muted">None recorded</span>
+          )}
+        </div>
+      ) : (
+        <p className="stack-card__torque muted" data-testid="torque-not-applicable">
+          Torque does not apply to a {COMPONENT_KIND_LABEL[part.kind].toLowerCase()}: it is held in the denture by its
+          retention. Its changes are logged as insert changes.
+        </p>
+      )}
     </Card>
   );
 }

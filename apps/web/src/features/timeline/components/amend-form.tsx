@@ -1,4 +1,4 @@
-import { Button, InputGroup } from '@blueprintjs/core';
+import { InputGroup } from '@blueprintjs/core';
 import {
   ComplicationAmendmentBody,
   type ComplicationKind,
@@ -7,13 +7,12 @@ import {
 } from '@torquetrail/contracts';
 import { TORQUE_NCM_RANGE } from '@torquetrail/domain';
 import { useMemo } from 'react';
-import { FormProvider } from 'react-hook-form';
 import type { z } from 'zod';
 import {
+  AmendmentForm,
   applyServerErrors,
   draftSchema,
   FormField,
-  formErrorMessage,
   NumberInput,
   useContractForm,
   withInputRef,
@@ -69,42 +68,23 @@ export function AmendForm({ siteId, event, onDone }: { siteId: string; event: Ti
     if ('appliedNcm' in body) runMutation(torque, { id: event.id, body }, saved);
     else runMutation(complication, { id: event.id, body }, saved);
   };
-  const formError = formErrorMessage(form.formState.errors, 'alone');
-
   return (
-    <FormProvider {...form}>
-      <form
-        className="amend-form"
-        onSubmit={(e) => void form.handleSubmit(submit)(e)}
-        aria-label="Amend this entry"
-        noValidate
-      >
-        {event.kind === 'torque' ? (
-          <FormField name="appliedNcm" label="Corrected torque (N·cm)" labelFor={`amend-${event.id}`}>
-            <NumberInput
-              name="appliedNcm"
-              buttonPosition="none"
-              id={`amend-${event.id}`}
-              min={TORQUE_NCM_RANGE.min}
-              max={TORQUE_NCM_RANGE.max}
-            />
-          </FormField>
-        ) : (
-          <FormField name="notes" label="Corrected notes" labelFor={`amend-${event.id}`}>
-            <InputGroup id={`amend-${event.id}`} {...withInputRef(form.register('notes'))} />
-          </FormField>
-        )}
-        <FormField name="amendmentReason" label="Reason for the amendment" labelFor={`amend-reason-${event.id}`}>
-          <InputGroup id={`amend-reason-${event.id}`} {...withInputRef(form.register('amendmentReason'))} />
+    <AmendmentForm form={form} onSubmit={submit} idPrefix={`amend-${event.id}`} pending={pending} onCancel={onDone}>
+      {event.kind === 'torque' ? (
+        <FormField name="appliedNcm" label="Corrected torque (N·cm)" labelFor={`amend-${event.id}`}>
+          <NumberInput
+            name="appliedNcm"
+            buttonPosition="none"
+            id={`amend-${event.id}`}
+            min={TORQUE_NCM_RANGE.min}
+            max={TORQUE_NCM_RANGE.max}
+          />
         </FormField>
-        {formError && (
-          <p className="planner-error" role="alert">
-            {formError}
-          </p>
-        )}
-        <Button type="submit" small intent="primary" text="Save amendment" loading={pending} />
-        <Button small variant="minimal" text="Cancel" onClick={onDone} />
-      </form>
-    </FormProvider>
+      ) : (
+        <FormField name="notes" label="Corrected notes" labelFor={`amend-${event.id}`}>
+          <InputGroup id={`amend-${event.id}`} {...withInputRef(form.register('notes'))} />
+        </FormField>
+      )}
+    </AmendmentForm>
   );
 }

@@ -1,13 +1,20 @@
 import { Button, Callout, Checkbox, Icon, type IconName, NonIdealState, Tag } from '@blueprintjs/core';
-import type { StackPart, TimelineEvent, TimelineKind } from '@torquetrail/contracts';
+import {
+  type ComponentKind,
+  DENTURE_RETAINER_KINDS,
+  type StackPart,
+  type TimelineEvent,
+  type TimelineKind,
+} from '@torquetrail/contracts';
 import { ComplicationPanel } from './complication-form';
 import { AmendForm } from './amend-form';
 import { Can } from '../../../lib/ability';
-import { useState } from 'react';
+import { lazy, Suspense, useState } from 'react';
 import { formatDate, formatDateTime } from '../../../lib/dates';
 import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
 import { useTimeline } from '../api/get-timeline';
+import { amendInsertChangeSearch } from '../../insert-changes';
 import { TorqueChart } from './torque-chart';
 import { SeatingPanel } from './seating-form';
 import { Link } from 'react-router-dom';
@@ -15,6 +22,8 @@ import { TORQUE_VERDICT_LABEL } from '../../../lib/clinical-labels';
 import { TIMELINE_KIND_LABEL } from '../../../lib/labels';
 import { useCloseOnEscape } from '../../../lib/use-close-on-escape';
 import './timeline.css';
+
+const InsertChangeChart = lazy(() => import('./insert-change-chart'));
 
 /** Icon per kind, in the order of the filter checkboxes. */
 const KIND_ICON: Record<TimelineKind, IconName> = {
@@ -105,6 +114,14 @@ function EventRow({ event, siteId, patientId }: { event: TimelineEvent; siteId: 
             eventOn={event.at.slice(0, 10)}
           />
         )}
+        {event.kind === 'insert-change' && !event.amended && (
+          <Can I="amend" a="InsertChange">
+            {/* Amended on the insert changes card, where the Stack it moves is shown too. */}
+            <Link to={{ search: amendInsertChangeSearch(event.id) }} data-testid="timeline-amend-insert-change">
+              Amend on the insert changes card
+            </Link>
+          </Can>
+        )}
         {amendable && (
           <Can I="amend" a={event.kind === 'torque' ? 'TorqueEvent' : 'Complication'}>
             {amending ? (
@@ -160,6 +177,15 @@ export function Timeline({ siteId, patientId, parts }: { siteId: string; patient
             <EventRow key={e.key} event={e} siteId={siteId} patientId={patientId} />
           ))}
         </ol>
+      )}
+      {/* An overdenture site (an insert or clip in its Stack) charts its insert changes, or says there are none. */}
+      {parts.some((p) => (DENTURE_RETAINER_KINDS as readonly ComponentKind[]).includes(p.kind)) && (
+        <div className="timeline__charts">
+          <h3>Insert changes per year</h3>
+          <Suspense fallback={<LoadingState label="Loading the chart" />}>
+            <InsertChangeChart events={timeline.data.events} />
+          </Suspense>
+        </div>
       )}
       {timeline.data.torqueSeries.length > 0 && (
         <div className="timeline__charts">
