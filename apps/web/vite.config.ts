@@ -1,11 +1,32 @@
 import { fileURLToPath } from 'node:url';
 import react from '@vitejs/plugin-react';
-import { defineConfig } from 'vite';
+import { defineConfig, type Plugin } from 'vite';
 import { compression } from 'vite-plugin-compression2';
 
 /** The shared packages are consumed from source, so the web needs no prior package build. */
 const packageSource = (name: string): string =>
   fileURLToPath(new URL(`../../packages/${name}/src/index.ts`, import.meta.url));
+
+/**
+ * Blueprint's icon loader refuses names missing from its `iconNames` module, which builds a map of
+ * every icon name (~9 kB gzip with its case converters) into the first load of every page. The
+ * build gives it the app's own list instead (src/lib/icon-names-accepted.ts). Build only: `vite`
+ * (dev) pre-bundles Blueprint, and there the full list does no harm.
+ */
+const acceptedIconNames = (): Plugin => {
+  const replacement = fileURLToPath(new URL('./src/lib/icon-names-accepted.ts', import.meta.url));
+  return {
+    name: 'torquetrail-accepted-icon-names',
+    apply: 'build',
+    enforce: 'pre',
+    resolveId(source, importer) {
+      if (importer && /[\\/]@blueprintjs[\\/]icons[\\/]lib[\\/]esm[\\/]/.test(importer) && /^\.\/iconNames(\.js)?$/.test(source)) {
+        return replacement;
+      }
+      return null;
+    },
+  };
+};
 
 const apiPort = process.env.API_PORT ?? process.env.PORT ?? '3000';
 const apiProxy = { '/api': { target: `http://127.0.0.1:${apiPort}` } };
@@ -14,7 +35,10 @@ export default defineConfig({
   // Every built file also as .gz and .br when that is smaller (the plugin skips the others), made
   // once here: the API serves them to browsers that accept them (express-static-gzip) instead of
   // compressing on each request. Small files too: a first load is many chunks under 1 KB.
-  plugins: [react(), compression({ algorithms: ['gzip', 'brotliCompress'], threshold: 0, skipIfLargerOrEqual: true })],
+  plugins: [
+    acceptedIconNames(),
+    react(),
+    compression({ algorithms: ['gzip', 'brotliCompress'], threshold: 0, skipIfLargerOrEqual: true })],
   resolve: {
     alias: {
       '@torquetrail/contracts': packageSource('contracts'),
