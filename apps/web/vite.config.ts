@@ -1,3 +1,4 @@
+import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import react from '@vitejs/plugin-react';
 import { defineConfig, type Plugin } from 'vite';
@@ -8,25 +9,34 @@ const packageSource = (name: string): string =>
   fileURLToPath(new URL(`../../packages/${name}/src/index.ts`, import.meta.url));
 
 /**
- * Blueprint's icon loader refuses names missing from its `iconNames` module, which builds a map of
- * every icon name (~9 kB gzip with its case converters) into the first load of every page. The
- * build gives it the app's own list instead (src/lib/icon-names-accepted.ts). Build only: `vite`
- * (dev) pre-bundles Blueprint, and there the full list does no harm.
+ * Modules of dependencies the web's build replaces with its own, smaller ones, each for code the
+ * first load of every page carried and the web never runs (issue 13, goal 3). Keyed by the module's
+ * path under node_modules, without its extension; matched on relative imports inside the package.
+ * Build only: `vite` (dev) pre-bundles dependencies, and there the originals do no harm.
+ * - Blueprint's icon loader refuses names missing from its `iconNames` module, a map of all ~700
+ *   names built from an enum of every name (~9 kB gzip with its case converters); the app's own
+ *   list replaces it (src/lib/icon-names-accepted.ts, kept exact by its test).
+ * - zod's classic schemas import its JSON Schema writer (two modules), which only the API uses;
+ *   src/lib/bundle/zod-json-schema-off.ts has the same names and throws if ever called.
  */
-const acceptedIconNames = (): Plugin => {
-  const replacement = fileURLToPath(new URL('./src/lib/icon-names-accepted.ts', import.meta.url));
-  return {
-    name: 'torquetrail-accepted-icon-names',
-    apply: 'build',
-    enforce: 'pre',
-    resolveId(source, importer) {
-      if (importer && /[\\/]@blueprintjs[\\/]icons[\\/]lib[\\/]esm[\\/]/.test(importer) && /^\.\/iconNames(\.js)?$/.test(source)) {
-        return replacement;
-      }
-      return null;
-    },
-  };
+const REPLACED_MODULES: Readonly<Record<string, string>> = {
+  '@blueprintjs/icons/lib/esm/iconNames': './src/lib/icon-names-accepted.ts',
+  'zod/v4/core/to-json-schema': './src/lib/bundle/zod-json-schema-off.ts',
+  'zod/v4/core/json-schema-processors': './src/lib/bundle/zod-json-schema-off.ts',
 };
+
+const replacedModules = (): Plugin => ({
+  name: 'torquetrail-replaced-modules',
+  apply: 'build',
+  enforce: 'pre',
+  resolveId(source, importer) {
+    if (!importer || !source.startsWith('.') || !importer.includes('node_modules')) return null;
+    const target = path.resolve(path.dirname(importer), source).replace(/\\/g, '/').replace(/\.js$/, '');
+    const key = target.slice(target.lastIndexOf('node_modules/') + 'node_modules/'.length);
+    const replacement = REPLACED_MODULES[key];
+    return replacement ? fileURLToPath(new URL(replacement, import.meta.url)) : null;
+  },
+});
 
 const apiPort = process.env.API_PORT ?? process.env.PORT ?? '3000';
 const apiProxy = { '/api': { target: `http://127.0.0.1:${apiPort}` } };
@@ -36,9 +46,10 @@ export default defineConfig({
   // once here: the API serves them to browsers that accept them (express-static-gzip) instead of
   // compressing on each request. Small files too: a first load is many chunks under 1 KB.
   plugins: [
-    acceptedIconNames(),
+    replacedModules(),
     react(),
-    compression({ algorithms: ['gzip', 'brotliCompress'], threshold: 0, skipIfLargerOrEqual: true })],
+    compression({ algorithms: ['gzip', 'brotliCompress'], threshold: 0, skipIfLargerOrEqual: true }),
+  ],
   resolve: {
     alias: {
       '@torquetrail/contracts': packageSource('contracts'),

@@ -227,12 +227,7 @@ export { CATALOGUE_VALUE_FINDING_CODES, catalogueValueFindings, catalogueValuesR
 export type { CatalogueValue, PartValues, SiteParts } from './catalogue-values.js';
 /** Coping level of impression parts and engaging of abutments against what the restoration needs. */
 export { COPING_LEVELS } from './choices.js';
-export {
-  PART_FIT_FINDING_CODES,
-  engagingFindings,
-  impressionLevelFindings,
-  impressionLevelFor,
-} from './part-fit.js';
+export { PART_FIT_FINDING_CODES, engagingFindings, impressionLevelFindings, impressionLevelFor } from './part-fit.js';
 export type { CopingLevel } from './choices.js';
 export type { EngagingPart, FitSite, LevelledPart } from './part-fit.js';
 export { ACTIONABLE_SEVERITIES, FINDING_SEVERITIES } from './choices.js';

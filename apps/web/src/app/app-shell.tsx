@@ -1,11 +1,14 @@
 import { Alignment, Button, Classes, Navbar, NavbarDivider, NavbarGroup, NavbarHeading, Tag } from '@blueprintjs/core';
 import type { Me } from '@torquetrail/contracts';
-import type React from 'react';
+import { lazy, type MouseEvent } from 'react';
 import { Link, NavLink, useMatch } from 'react-router-dom';
 import { Can, useAppAbility } from '../lib/ability';
 import { ROLE_LABEL } from '../lib/labels';
+import { AfterFirstPaint } from '../lib/components/after-first-paint';
 import { PageGate } from './page-gate';
-import { PrintFrame } from './print-frame';
+
+// The print-only frame (who printed, when) is not part of any first view: a chunk of its own.
+const PrintFrame = lazy(async () => ({ default: (await import('./print-frame')).PrintFrame }));
 
 interface AppShellProps {
   me: Me;
@@ -15,7 +18,7 @@ interface AppShellProps {
 }
 
 /** Moves focus to the page without putting a fragment into the router's URL. */
-function skipToContent(event: React.MouseEvent<HTMLAnchorElement>) {
+function skipToContent(event: MouseEvent<HTMLAnchorElement>) {
   event.preventDefault();
   document.getElementById('main')?.focus();
 }
@@ -126,7 +129,9 @@ export function AppShell({ me, onSignOut, signingOut, signOutError }: AppShellPr
           </NavbarGroup>
         </Navbar>
       </header>
-      <PrintFrame me={me} />
+      <AfterFirstPaint>
+        <PrintFrame me={me} />
+      </AfterFirstPaint>
       <main className="page" id="main" tabIndex={-1}>
         <PageGate me={me} />
       </main>

@@ -1,5 +1,5 @@
 // The Blueprint icon names this app accepts: stands in for `@blueprintjs/icons`' own iconNames
-// module in the build (the `accepted-icon-names` plugin of vite.config.ts). Blueprint's module
+// module in the build (`REPLACED_MODULES` in vite.config.ts). Blueprint's module
 // builds a map of all ~700 names from an enum of every name (about 9 kB gzip, with change-case);
 // its icon loader reads the map only to refuse unknown names, and it sat in the first load of every
 // page. Here only the names the app draws: every icon-name string in apps/web/src, and the few
