@@ -1,7 +1,7 @@
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import react from '@vitejs/plugin-react';
-import { defineConfig, type Plugin } from 'vite';
+import { build, defineConfig, type Plugin, type Rolldown } from 'vite';
 import { compression } from 'vite-plugin-compression2';
 
 /** The shared packages are consumed from source, so the web needs no prior package build. */
@@ -38,6 +38,76 @@ const replacedModules = (): Plugin => ({
   },
 });
 
+/** The scripts the Arch route's chunk needs that the entry does not already load (paths from the site root). */
+function archChunks(bundle: Rolldown.OutputBundle, base: string): string[] {
+  const chunks = Object.values(bundle).filter((file): file is Rolldown.OutputChunk => file.type === 'chunk');
+  const byName = new Map(chunks.map((chunk) => [chunk.fileName, chunk]));
+  const closure = (start: Rolldown.OutputChunk): Set<string> => {
+    const seen = new Set<string>();
+    const visit = (name: string) => {
+      if (seen.has(name)) return;
+      seen.add(name);
+      for (const next of byName.get(name)?.imports ?? []) visit(next);
+    };
+    visit(start.fileName);
+    return seen;
+  };
+  const entry = chunks.find((chunk) => chunk.isEntry);
+  const arch = chunks.find((chunk) => chunk.facadeModuleId?.endsWith('/features/arch/routes/arch-route.tsx'));
+  if (!entry || !arch) throw new Error('early reads: no entry chunk or no Arch route chunk in the build');
+  const loaded = closure(entry);
+  return [...closure(arch)].filter((name) => !loaded.has(name)).map((name) => `${base}${name}`);
+}
+
+/**
+ * Puts src/lib/early-reads/inline.ts into index.html as an inline script, early in <head>: it
+ * starts the session's and the Arch patient's reads and preloads the Arch route's chunks before
+ * the main bundle has loaded (issue 13, goal 3). The API allows the script by its sha256, computed
+ * from the index.html it serves (security-headers.ts), so a rebuilt web needs an API restart, as
+ * any new build does. Build only: in `vite` (dev) the app reads as it starts.
+ */
+const earlyReads = (): Plugin => {
+  let base = '/';
+  return {
+    name: 'torquetrail-early-reads',
+    apply: 'build',
+    configResolved(config) {
+      base = config.base;
+    },
+    transformIndexHtml: {
+      order: 'post',
+      async handler(html, context) {
+        if (!context.bundle) return html;
+        const built = await build({
+          configFile: false,
+          logLevel: 'warn',
+          publicDir: false,
+          define: { __TT_ARCH_CHUNKS__: JSON.stringify(archChunks(context.bundle, base)) },
+          build: {
+            write: false,
+            emptyOutDir: false,
+            minify: true,
+            lib: {
+              entry: fileURLToPath(new URL('./src/lib/early-reads/inline.ts', import.meta.url)),
+              formats: ['iife'],
+              name: 'ttEarlyReadsScript',
+            },
+          },
+        });
+        const outputs = (Array.isArray(built) ? built : [built]) as Rolldown.RolldownOutput[];
+        const code = outputs.flatMap((output) => output.output).find((file) => file.type === 'chunk')?.code;
+        if (!code) throw new Error('early reads: the inline script did not build');
+        // Right after the charset (which must come within the first 1024 bytes) and before the
+        // stylesheet: an inline script after a stylesheet waits for it.
+        const charset = '<meta charset="UTF-8" />';
+        if (!html.includes(charset)) throw new Error(`early reads: index.html has no ${charset}`);
+        // A function, so no `$` of the script is read as a replacement pattern.
+        return html.replace(charset, () => `${charset}\n    <script>${code.trim()}</script>`);
+      },
+    },
+  };
+};
+
 const apiPort = process.env.API_PORT ?? process.env.PORT ?? '3000';
 const apiProxy = { '/api': { target: `http://127.0.0.1:${apiPort}` } };
 
@@ -47,6 +117,7 @@ export default defineConfig({
   // compressing on each request. Small files too: a first load is many chunks under 1 KB.
   plugins: [
     replacedModules(),
+    earlyReads(),
     react(),
     compression({ algorithms: ['gzip', 'brotliCompress'], threshold: 0, skipIfLargerOrEqual: true }),
   ],
