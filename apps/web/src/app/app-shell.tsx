@@ -1,14 +1,12 @@
 import { Alignment, Button, Classes, Navbar, NavbarDivider, NavbarGroup, NavbarHeading, Tag } from '@blueprintjs/core';
 import type { Me } from '@torquetrail/contracts';
-import { lazy, type MouseEvent } from 'react';
+import type { MouseEvent } from 'react';
 import { Link, NavLink, useMatch } from 'react-router-dom';
 import { Can, useAppAbility } from '../lib/ability';
 import { ROLE_LABEL } from '../lib/labels';
-import { AfterFirstPaint } from '../lib/components/after-first-paint';
 import { PageGate } from './page-gate';
-
-// The print-only frame (who printed, when) is not part of any first view: a chunk of its own.
-const PrintFrame = lazy(async () => ({ default: (await import('./print-frame')).PrintFrame }));
+// Not deferred like the idle sign-out: a page printed as soon as it shows must carry its frame.
+import { PrintFrame } from './print-frame';
 
 interface AppShellProps {
   me: Me;
@@ -129,9 +127,7 @@ export function AppShell({ me, onSignOut, signingOut, signOutError }: AppShellPr
           </NavbarGroup>
         </Navbar>
       </header>
-      <AfterFirstPaint>
-        <PrintFrame me={me} />
-      </AfterFirstPaint>
+      <PrintFrame me={me} />
       <main className="page" id="main" tabIndex={-1}>
         <PageGate me={me} />
       </main>
