@@ -95,17 +95,19 @@ try {
       archMs: median(rounds.map((r) => r.archMs)),
       blankMs: median(rounds.map((r) => r.blankMs)),
       ratio: median(rounds.map((r) => r.ratio)),
-      rounds: rounds.map(({ archMs, blankMs, ratio, jsGzipKb, meStartMs, patientStartMs, archShownMs, scriptsDoneMs, dataDoneMs }) => ({
-        archMs,
-        blankMs,
-        ratio,
-        jsGzipKb,
-        meStartMs,
-        patientStartMs,
-        archShownMs,
-        scriptsDoneMs,
-        dataDoneMs,
-      })),
+      rounds: rounds.map(
+        ({ archMs, blankMs, ratio, jsGzipKb, meStartMs, patientStartMs, archShownMs, scriptsDoneMs, dataDoneMs }) => ({
+          archMs,
+          blankMs,
+          ratio,
+          jsGzipKb,
+          meStartMs,
+          patientStartMs,
+          archShownMs,
+          scriptsDoneMs,
+          dataDoneMs,
+        }),
+      ),
     };
   });
   const out = {
@@ -117,7 +119,9 @@ try {
   };
   fs.mkdirSync(path.dirname(path.resolve(repoRoot, args.out)), { recursive: true });
   fs.writeFileSync(path.resolve(repoRoot, args.out), `${JSON.stringify(out, null, 1)}\n`);
-  console.log(`load average (1 min) ${out.loadAverage1m.min.toFixed(1)}–${out.loadAverage1m.max.toFixed(1)} on ${out.cpus} CPUs`);
+  console.log(
+    `load average (1 min) ${out.loadAverage1m.min.toFixed(1)}–${out.loadAverage1m.max.toFixed(1)} on ${out.cpus} CPUs`,
+  );
   for (const web of results) {
     console.log(
       `${web.webDist}: Arch ${web.archMs} ms, blank ${web.blankMs} ms, ratio ${web.ratio.toFixed(2)} ` +
@@ -130,7 +134,8 @@ try {
       `  in the page: scripts received by ${Math.round(web.scriptsDoneMs)} ms, the first reads by ` +
         `${Math.round(web.dataDoneMs)} ms, the Arch in the document at ${Math.round(web.archShownMs)} ms`,
     );
-    for (const [file, kb] of Object.entries(web.scriptKb).sort((a, b) => b[1] - a[1])) console.log(`  ${kb} KB ${file}`);
+    for (const [file, kb] of Object.entries(web.scriptKb).sort((a, b) => b[1] - a[1]))
+      console.log(`  ${kb} KB ${file}`);
   }
 } finally {
   for (const api of apis) api.kill('SIGTERM');

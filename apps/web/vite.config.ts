@@ -82,7 +82,7 @@ const earlyReads = (): Plugin => {
           configFile: false,
           logLevel: 'warn',
           publicDir: false,
-          define: { __TT_ARCH_CHUNKS__: JSON.stringify(archChunks(context.bundle, base)) },
+          define: { TT_ARCH_CHUNKS: JSON.stringify(archChunks(context.bundle, base)) },
           build: {
             write: false,
             emptyOutDir: false,

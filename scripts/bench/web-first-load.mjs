@@ -71,7 +71,9 @@ export async function measureWebFirstLoad({ baseUrl, cookie, patientId, webDist,
       const archMs = Date.now() - t0;
       const timing = await page.evaluate(() => ({
         archShownAt: window.ttArchShownAt ?? performance.now(),
-        resources: performance.getEntriesByType('resource').map((e) => ({ url: e.name, start: e.startTime, end: e.responseEnd })),
+        resources: performance
+          .getEntriesByType('resource')
+          .map((e) => ({ url: e.name, start: e.startTime, end: e.responseEnd })),
       }));
       await context.close();
       if (i === 0) continue; // the first load warms the server and the disk cache

@@ -66,7 +66,7 @@ export async function createApp(
       res.setHeader('Cache-Control', 'no-cache');
       res.setHeader('Vary', 'Accept-Encoding');
       if (encoding !== 'identity') res.setHeader('Content-Encoding', encoding);
-      res.type('html').send(page[encoding as keyof typeof page]);
+      res.type('html').send(page[encoding]);
     });
   }
   await app.init();

@@ -92,7 +92,7 @@ describe('the built web app', () => {
     expect(script).toContain('/api/auth/me');
     expect(script).toContain('modulepreload');
     const hash = `'sha256-${createHash('sha256').update(script, 'utf8').digest('base64')}'`;
-    const scriptSrc = /(?:^|;)\s*script-src ([^;]*)/.exec(String(page.headers['content-security-policy']))?.[1];
+    const scriptSrc = /(?:^|;)\s*script-src ([^;]*)/.exec(page.headers['content-security-policy'])?.[1];
     expect(scriptSrc?.split(' ')).toEqual(["'self'", hash]);
     // The Arch's chunks it preloads are files of this build.
     const preloaded = [...script.matchAll(/\/assets\/[\w.-]+\.js/g)].map((m) => m[0]);

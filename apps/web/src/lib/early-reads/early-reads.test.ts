@@ -10,7 +10,7 @@ function fakePage(pathname: string) {
   const appended: { rel: string; href: string }[] = [];
   const page = {
     location: { pathname },
-    fetch: vi.fn(async (path: string) => new Response(JSON.stringify({ path }), { status: 200 })),
+    fetch: vi.fn(async (path: string, _init?: RequestInit) => new Response(JSON.stringify({ path }), { status: 200 })),
     performance: { now: () => 0 },
     document: {
       createElement: () => ({ rel: '', href: '', crossOrigin: null as string | null }),

@@ -3,6 +3,6 @@
 // apps/api/src/http-security/security-headers.ts), computed from the index.html it serves.
 import { startEarlyReads } from './start';
 
-declare const __TT_ARCH_CHUNKS__: readonly string[];
+declare const TT_ARCH_CHUNKS: readonly string[];
 
-startEarlyReads(window, __TT_ARCH_CHUNKS__);
+startEarlyReads(window, TT_ARCH_CHUNKS);

@@ -9,7 +9,7 @@
 export const EARLY_READS_KEY = 'ttEarlyReads';
 
 /** An early read as kept on `window`: the reply's promise and when it was started. */
-export interface EarlyRead {
+interface EarlyRead {
   readonly reply: Promise<Response>;
   readonly startedAt: number;
 }
@@ -22,7 +22,7 @@ const PUBLIC_PAGE = /^\/(sign-in|welcome|forgot-password|reset-password)\/?$/;
 const ARCH_PAGE = /^\/patients\/([^/]+)\/?$/;
 
 /** The patient id of an Arch path, as the router decodes it, or null. */
-export function archPatientId(pathname: string): string | null {
+function archPatientId(pathname: string): string | null {
   const segment = ARCH_PAGE.exec(pathname)?.[1];
   if (!segment || segment === 'new') return null;
   try {
