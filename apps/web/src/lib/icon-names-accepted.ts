@@ -49,6 +49,7 @@ export const ICON_NAMES_ACCEPTED = [
   'info-sign',
   'label',
   'layers',
+  'link',
   'list',
   'lock',
   'log-out',
