@@ -1,6 +1,7 @@
 import 'reflect-metadata';
 import fs from 'node:fs';
 import path from 'node:path';
+import { brotliCompressSync, gzipSync } from 'node:zlib';
 import type { INestApplication } from '@nestjs/common';
 import type { DestinationStream } from 'pino';
 import { NestFactory } from '@nestjs/core';
@@ -37,7 +38,10 @@ export async function createApp(
   // only when a proxy in front is trusted explicitly; otherwise anyone could claim any address.
   app.set('trust proxy', env.TRUST_PROXY);
   app.set('etag', false);
-  app.use(...securityHeaders());
+  // The web's page, read once: the CSP allows its inline script by hash, and it is what is served.
+  const indexHtml = env.WEB_DIST ? path.join(env.WEB_DIST, 'index.html') : null;
+  const pageHtml = indexHtml && fs.existsSync(indexHtml) ? fs.readFileSync(indexHtml, 'utf8') : undefined;
+  app.use(...securityHeaders({ pageHtml }));
   app.use(sameOriginWrites(env.EXTRA_ORIGINS));
   app.enableShutdownHooks();
 
@@ -46,13 +50,24 @@ export async function createApp(
   if (env.NODE_ENV !== 'production') {
     expressApp.use('/api/docs/assets', express.static(swaggerUi.getAbsoluteFSPath(), { index: false }));
   }
-  if (env.WEB_DIST && fs.existsSync(path.join(env.WEB_DIST, 'index.html'))) {
-    const indexHtml = path.join(env.WEB_DIST, 'index.html');
+  if (env.WEB_DIST && pageHtml !== undefined) {
     expressApp.use(webAssets(env.WEB_DIST));
-    // Client-side routes (everything outside /api) get the app's index.html.
-    expressApp.get(/^(?!\/api(\/|$)).*/, (_req: Request, res: Response) =>
-      res.sendFile(indexHtml, { headers: { 'Cache-Control': 'no-cache' } }),
-    );
+    // Client-side routes (everything outside /api) get the app's index.html: the bytes read at
+    // start, whose inline script the CSP names, not whatever the file holds later.
+    // Compressed once, here, like the built assets are at build time.
+    const page = {
+      identity: Buffer.from(pageHtml, 'utf8'),
+      br: brotliCompressSync(pageHtml),
+      gzip: gzipSync(pageHtml),
+    };
+    expressApp.get(/^(?!\/api(\/|$)).*/, (req: Request, res: Response) => {
+      // Brotli whenever accepted (browsers list gzip first), as express-static-gzip does for the assets.
+      const encoding = req.acceptsEncodings('br') ? 'br' : req.acceptsEncodings('gzip') ? 'gzip' : 'identity';
+      res.setHeader('Cache-Control', 'no-cache');
+      res.setHeader('Vary', 'Accept-Encoding');
+      if (encoding !== 'identity') res.setHeader('Content-Encoding', encoding);
+      res.type('html').send(page[encoding]);
+    });
   }
   await app.init();
   return app;

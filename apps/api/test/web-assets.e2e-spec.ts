@@ -1,6 +1,7 @@
 // The built web app as the API serves it: precompressed at build time (vite-plugin-compression2),
 // chosen by Accept-Encoding (express-static-gzip), hashed files cached as immutable, the page
-// itself revalidated, and nothing under /api answered from the disk.
+// itself revalidated and compressed, its inline script allowed by hash, and nothing under /api answered from the disk.
+import { createHash } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 import { brotliDecompressSync, gunzipSync, gzipSync } from 'node:zlib';
@@ -79,6 +80,41 @@ describe('the built web app', () => {
     expect(page.status).toBe(200);
     expect(page.headers['content-type']).toMatch(/text\/html/);
     expect(page.headers['cache-control']).toBe('no-cache');
+  });
+
+  it("allows the page's early-read script by its hash, and no other inline script", async () => {
+    // The page starts its first reads inline (apps/web/src/lib/early-reads/); the CSP must name that
+    // exact script, or the browser blocks it. Hashed here from the bytes received, independently of the API.
+    const page = await ctx.http.get('/patients/some-client-route');
+    const inline = [...page.text.matchAll(/<script>([\s\S]*?)<\/script>/g)].map((m) => m[1] ?? '');
+    expect(inline).toHaveLength(1);
+    const script = inline[0] ?? '';
+    expect(script).toContain('/api/auth/me');
+    expect(script).toContain('modulepreload');
+    const hash = `'sha256-${createHash('sha256').update(script, 'utf8').digest('base64')}'`;
+    const scriptSrc = /(?:^|;)\s*script-src ([^;]*)/.exec(page.headers['content-security-policy'])?.[1];
+    expect(scriptSrc?.split(' ')).toEqual(["'self'", hash]);
+    // The Arch's chunks it preloads are files of this build.
+    const preloaded = [...script.matchAll(/\/assets\/[\w.-]+\.js/g)].map((m) => m[0]);
+    expect(preloaded.length).toBeGreaterThan(0);
+    expect(preloaded.filter((p) => !fs.existsSync(path.join(webDist, p)))).toEqual([]);
+    // And the page is the built file.
+    expect(page.text).toBe(fs.readFileSync(path.join(webDist, 'index.html'), 'utf8'));
+  });
+
+  it('serves the page compressed when accepted', async () => {
+    const html = fs.readFileSync(path.join(webDist, 'index.html'));
+    const br = await bytes(ctx.http.get('/patients/x').set('Accept-Encoding', 'gzip, br'));
+    expect(br.headers['content-encoding']).toBe('br');
+    expect(br.headers.vary).toMatch(/Accept-Encoding/);
+    expect(Number(br.headers['content-length'])).toBeLessThan(html.length);
+    expect(raw(br).equals(html)).toBe(true);
+    const gz = await bytes(ctx.http.get('/patients/x').set('Accept-Encoding', 'gzip'));
+    expect(gz.headers['content-encoding']).toBe('gzip');
+    expect(raw(gz).equals(html)).toBe(true);
+    const plain = await bytes(ctx.http.get('/patients/x').set('Accept-Encoding', 'identity'));
+    expect(plain.headers['content-encoding']).toBeUndefined();
+    expect(raw(plain).equals(html)).toBe(true);
   });
 
   it('never answers /api from the disk: an unknown API path is the JSON 404, with no-store', async () => {

@@ -25,7 +25,8 @@
  *   impression visit: a warning.
  */
 import { type Finding, PLAN_SOURCES } from './plan-findings.js';
-import { type CopingLevel, engagingFindings, impressionLevelFindings } from './part-fit.js';
+import type { CopingLevel } from './choices.js';
+import { engagingFindings, impressionLevelFindings } from './part-fit.js';
 import {
   ABUTMENT_LEVEL_RETENTIONS,
   type ImplantInterface,

@@ -59,7 +59,8 @@ export type { ToothKind, ToothNumberingSystem, ToothArch } from './tooth-numberi
 /** Health / mucositis / peri-implantitis from the worst site, with reasons and flags. */
 export { classifyPeriImplant } from './peri-implant-status.js';
 /** Stable flag strings of {@link classifyPeriImplant}. */
-export { PERI_IMPLANT_FLAGS } from './peri-implant-status.js';
+export { PERI_IMPLANT_FLAGS } from './choices.js';
+export type { PeriImplantFlag } from './choices.js';
 /** Default and published thresholds of the peri-implant case definitions. */
 export {
   DEFAULT_PD_INCREASE_MM,
@@ -77,7 +78,6 @@ export type {
   PeriImplantBaseline,
   PeriImplantOptions,
   PeriImplantResult,
-  PeriImplantFlag,
 } from './peri-implant-status.js';
 /** The baseline exam of an exam (latest marked, else first after delivery; needs a bone level). */
 export { choosePeriImplantBaseline } from './peri-implant-baseline.js';
@@ -86,8 +86,9 @@ export { toPeriImplantExam, toPeriImplantBaseline } from './peri-implant-baselin
 /** The latest exam, and probing sites in chart order. */
 export { latestExam, inChartOrder } from './peri-implant-baseline.js';
 /** The six probing sites, in chart order. */
-export { PROBING_POSITIONS } from './peri-implant-baseline.js';
-export type { ProbingPosition, ProbedSite, RecordedExam } from './peri-implant-baseline.js';
+export { PROBING_POSITIONS } from './choices.js';
+export type { ProbingPosition } from './choices.js';
+export type { ProbedSite, RecordedExam } from './peri-implant-baseline.js';
 
 // ---- UDI (GS1) -----------------------------------------------------------------------------
 /** GS1 check digit of the data digits. */
@@ -146,9 +147,11 @@ export {
   DEMO_TORQUE_DEFAULTS_NCM,
 } from './torque.js';
 /** Verdicts, reasons and the accepted torque range (1–100 N·cm). */
-export { TORQUE_VERDICTS, TORQUE_REASONS, TORQUE_NCM_RANGE } from './torque.js';
+export { TORQUE_VERDICTS, TORQUE_REASONS } from './choices.js';
+export { TORQUE_NCM_RANGE } from './torque.js';
 /** Torque types. */
-export type { TorqueVerdict, TorqueReason, TorqueCheck } from './torque.js';
+export type { TorqueVerdict, TorqueReason } from './choices.js';
+export type { TorqueCheck } from './torque.js';
 /** When the re-torque after a seating is due (Siamos 2002), and the reasons that seat and re-tighten. */
 export { retorqueDueAt, SEATING_REASONS, RETORQUE_REASONS } from './retorque.js';
 /** A part never seated by a logged torque; a settling re-torque logged before the settling time. */
@@ -223,14 +226,10 @@ export { ABUTMENT_LEVEL_RETENTIONS } from './restoration-plan.js';
 export { CATALOGUE_VALUE_FINDING_CODES, catalogueValueFindings, catalogueValuesRead } from './catalogue-values.js';
 export type { CatalogueValue, PartValues, SiteParts } from './catalogue-values.js';
 /** Coping level of impression parts and engaging of abutments against what the restoration needs. */
-export {
-  COPING_LEVELS,
-  PART_FIT_FINDING_CODES,
-  engagingFindings,
-  impressionLevelFindings,
-  impressionLevelFor,
-} from './part-fit.js';
-export type { CopingLevel, EngagingPart, FitSite, LevelledPart } from './part-fit.js';
+export { COPING_LEVELS } from './choices.js';
+export { PART_FIT_FINDING_CODES, engagingFindings, impressionLevelFindings, impressionLevelFor } from './part-fit.js';
+export type { CopingLevel } from './choices.js';
+export type { EngagingPart, FitSite, LevelledPart } from './part-fit.js';
 export { ACTIONABLE_SEVERITIES, FINDING_SEVERITIES } from './choices.js';
 /** Overdenture kinds (on stud attachments, on a bar) and the catalogue facts their rules read. */
 export { OVERDENTURE_KINDS, isOverdentureKind } from './overdenture-plan.js';
@@ -298,12 +297,10 @@ export type { RecallRisk, RecallRiskFactor, RecallPolicy } from './recall-interv
 /** Reminder kinds due on a day for a recall date, under the reminder policy. */
 export { remindersDue } from './recall-reminders.js';
 /** Reminder kinds and default reminder timing. */
-export {
-  REMINDER_KINDS,
-  DEFAULT_REMINDER_DAYS_BEFORE,
-  DEFAULT_OVERDUE_REMINDER_DAYS_AFTER,
-} from './recall-reminders.js';
-export type { ReminderKind, ReminderPolicy } from './recall-reminders.js';
+export { REMINDER_KINDS } from './choices.js';
+export { DEFAULT_REMINDER_DAYS_BEFORE, DEFAULT_OVERDUE_REMINDER_DAYS_AFTER } from './recall-reminders.js';
+export type { ReminderKind } from './choices.js';
+export type { ReminderPolicy } from './recall-reminders.js';
 
 // ---- survival and rates (outcomes view) ----------------------------------------------------
 /** Kaplan–Meier product-limit estimate with number at risk and Greenwood SE. */

@@ -1,13 +1,12 @@
 import { describe, expect, it } from 'vitest';
 import { catalogueValueFindings, catalogueValuesRead, type PartValues } from './catalogue-values.js';
 import {
-  type CopingLevel,
   engagingFindings,
   impressionLevelFindings,
   impressionLevelFor,
   PART_FIT_FINDING_CODES as C,
 } from './part-fit.js';
-import { RETENTIONS } from './choices.js';
+import { type CopingLevel, RETENTIONS } from './choices.js';
 
 // Sources. Coping level: a restoration screwed to multi-unit abutments is made on the abutments, so
 // the impression records them with multi-unit level copings or scan bodies; any other restoration is

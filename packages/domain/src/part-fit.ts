@@ -24,11 +24,7 @@
  */
 import { type Finding, PLAN_SOURCES } from './plan-findings.js';
 import type { ImplantInterface, RestorationKind, Retention } from './restoration-plan.js';
-
-/** Where an impression coping or scan body sits: on the implant, or on a multi-unit abutment. */
-export const COPING_LEVELS = ['implant', 'multi-unit'] as const;
-/** Where an impression coping or scan body sits. */
-export type CopingLevel = (typeof COPING_LEVELS)[number];
+import type { CopingLevel } from './choices.js';
 
 /** Stable codes of the findings of this module. */
 export const PART_FIT_FINDING_CODES = Object.freeze({

@@ -14,19 +14,8 @@
  * - An exam that is itself marked as baseline is classified without a baseline.
  * - Probing sites are compared one to one in chart order ({@link PROBING_POSITIONS}).
  */
+import { PROBING_POSITIONS, type ProbingPosition } from './choices.js';
 import type { PeriImplantBaseline, PeriImplantExam } from './peri-implant-status.js';
-
-/** The six probing sites around an implant, in periodontal-chart order (buccal row, then lingual row). */
-export const PROBING_POSITIONS = [
-  'mesiobuccal',
-  'buccal',
-  'distobuccal',
-  'mesiolingual',
-  'lingual',
-  'distolingual',
-] as const;
-/** One of {@link PROBING_POSITIONS}. */
-export type ProbingPosition = (typeof PROBING_POSITIONS)[number];
 
 /** One probed site of a recorded exam. */
 export interface ProbedSite {

@@ -1,5 +1,6 @@
 import { describe, it, expect } from 'vitest';
-import { PERI_IMPLANT_FLAGS as F, classifyPeriImplant, type PeriImplantSite } from './peri-implant-status.js';
+import { PERI_IMPLANT_FLAGS as F } from './choices.js';
+import { classifyPeriImplant, type PeriImplantSite } from './peri-implant-status.js';
 import { ValidationError } from './errors.js';
 
 // Sources: Berglundh T et al. 2018, consensus report of workgroup 4, J Clin Periodontol 45(S20):S286–S291 /

@@ -26,7 +26,7 @@
  * - No inflammation but bone loss beyond the threshold (or bone level ≥ 3 mm without baseline): status
  *   'health' (no BOP/SUP; health can exist with reduced bone support) with the flag `bone-loss-without-inflammation`.
  */
-import type { PeriImplantStatus } from './choices.js';
+import { PERI_IMPLANT_FLAGS, type PeriImplantFlag, type PeriImplantStatus } from './choices.js';
 import { ValidationError } from './errors.js';
 import { EPS, fmt, requireArray, requireBoolean, requireNonNegative } from './validate.js';
 
@@ -68,21 +68,6 @@ export interface PeriImplantOptions {
   /** Bone loss since baseline that counts as beyond remodelling, mm, inclusive. Default 0.5. */
   boneLossMm?: number;
 }
-
-/** Stable flag strings returned in {@link PeriImplantResult.flags}. */
-export const PERI_IMPLANT_FLAGS = Object.freeze({
-  /** No baseline given: the no-baseline case definition (PD ≥ 6 mm and bone level ≥ 3 mm) was used. */
-  NO_BASELINE: 'no-baseline',
-  /** BOP/SUP with only one of the no-baseline limits reached (or the other unknown): peri-implantitis cannot be excluded without a baseline. */
-  PERI_IMPLANTITIS_NOT_EXCLUDED_WITHOUT_BASELINE: 'peri-implantitis-not-excluded-without-baseline',
-  /** No current radiographic bone level: bone loss cannot be judged, so peri-implantitis cannot be excluded. */
-  BONE_LEVEL_MISSING: 'bone-level-missing',
-  /** Bone loss beyond the limit without bleeding or suppuration: status 'health', but review the radiograph. */
-  BONE_LOSS_WITHOUT_INFLAMMATION: 'bone-loss-without-inflammation',
-} as const);
-
-/** One of the {@link PERI_IMPLANT_FLAGS} strings. */
-export type PeriImplantFlag = (typeof PERI_IMPLANT_FLAGS)[keyof typeof PERI_IMPLANT_FLAGS];
 
 /** Result of {@link classifyPeriImplant}. */
 export interface PeriImplantResult {

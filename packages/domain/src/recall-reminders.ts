@@ -6,11 +6,7 @@
  * on YYYY-MM-DD dates, as for the recall date itself ({@link nextRecallDate}).
  */
 import { daysBetween } from './calendar.js';
-
-/** Kinds of recall reminder: before the recall, and after a missed one. */
-export const REMINDER_KINDS = ['upcoming', 'overdue'] as const;
-/** One of {@link REMINDER_KINDS}. */
-export type ReminderKind = (typeof REMINDER_KINDS)[number];
+import type { ReminderKind } from './choices.js';
 
 /** Default: the upcoming reminder goes this many days before the recall [common practice]. */
 export const DEFAULT_REMINDER_DAYS_BEFORE = 14;

@@ -9,7 +9,8 @@
  * settling or at a recall, logged at or after the latest seating, answers it; a re-torque logged
  * before the seating does not.
  */
-import { RETIGHTEN_AFTER_MINUTES, type TorqueReason } from './torque.js';
+import type { TorqueReason } from './choices.js';
+import { RETIGHTEN_AFTER_MINUTES } from './torque.js';
 
 /** Reasons that seat a screw (its preload will settle) [decision: a replaced screw is seated anew]. */
 export const SEATING_REASONS: readonly TorqueReason[] = Object.freeze(['initial-seating', 'screw-replaced']);

@@ -9,25 +9,7 @@
  */
 import { ValidationError } from './errors.js';
 import { requireNonNegative, requirePositive } from './validate.js';
-
-/** Verdicts of {@link torqueVerdict}, in the order they are stored (the database enum follows it). */
-export const TORQUE_VERDICTS = ['within', 'under', 'over'] as const;
-/** Verdict of {@link torqueVerdict}. */
-export type TorqueVerdict = (typeof TORQUE_VERDICTS)[number];
-
-/**
- * Why a torque was applied. Seating and re-torque reasons drive the re-torque reminder
- * ({@link retorqueDueAt} in retorque.ts).
- */
-export const TORQUE_REASONS = [
-  'initial-seating',
-  're-torque-after-settling',
-  're-torque-at-recall',
-  'loosening-found',
-  'screw-replaced',
-] as const;
-/** One of {@link TORQUE_REASONS}. */
-export type TorqueReason = (typeof TORQUE_REASONS)[number];
+import type { TorqueVerdict } from './choices.js';
 
 /**
  * Plausible range of a recorded prosthetic torque or torque specification, N·cm, inclusive

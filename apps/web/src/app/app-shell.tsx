@@ -1,10 +1,11 @@
 import { Alignment, Button, Classes, Navbar, NavbarDivider, NavbarGroup, NavbarHeading, Tag } from '@blueprintjs/core';
 import type { Me } from '@torquetrail/contracts';
-import type React from 'react';
+import type { MouseEvent } from 'react';
 import { Link, NavLink, useMatch } from 'react-router-dom';
 import { Can, useAppAbility } from '../lib/ability';
 import { ROLE_LABEL } from '../lib/labels';
 import { PageGate } from './page-gate';
+// Not deferred like the idle sign-out: a page printed as soon as it shows must carry its frame.
 import { PrintFrame } from './print-frame';
 
 interface AppShellProps {
@@ -15,7 +16,7 @@ interface AppShellProps {
 }
 
 /** Moves focus to the page without putting a fragment into the router's URL. */
-function skipToContent(event: React.MouseEvent<HTMLAnchorElement>) {
+function skipToContent(event: MouseEvent<HTMLAnchorElement>) {
   event.preventDefault();
   document.getElementById('main')?.focus();
 }

@@ -1,15 +1,19 @@
 import { defineAbilityFor } from '@torquetrail/authz';
-import { useCallback, useMemo, useState } from 'react';
+import { lazy, useCallback, useMemo, useState } from 'react';
 import { Navigate, useLocation } from 'react-router-dom';
 import { useMe, useSignOut } from '../features/auth';
 import { AppAbilityProvider } from '../lib/ability';
+import { AfterFirstPaint } from '../lib/components/after-first-paint';
 import { ErrorState } from '../lib/components/error-state';
 import { LoadingState } from '../lib/components/loading-state';
 import { setDateFormat } from '../lib/dates';
 import { keepDrafts, setDraftOwner } from '../lib/forms';
 import { idleSignInPath, signInPath } from '../lib/return-path';
 import { AppShell } from './app-shell';
-import { IdleSignOut } from './idle-sign-out';
+
+// The idle sign-out's timers start once the first view has painted (its period is minutes), so
+// its code is a chunk of its own, not part of any page's first load.
+const IdleSignOut = lazy(async () => ({ default: (await import('./idle-sign-out')).IdleSignOut }));
 
 /**
  * The auth gate around every signed-in page: a spinner while `me` loads, the sign-in page
@@ -62,7 +66,9 @@ export function RequireAuth() {
         signingOut={signOut.isPending}
         signOutError={signOut.error}
       />
-      <IdleSignOut session={me.data.session} onIdle={onIdle} onStay={onStay} />
+      <AfterFirstPaint>
+        <IdleSignOut session={me.data.session} onIdle={onIdle} onStay={onStay} />
+      </AfterFirstPaint>
     </AppAbilityProvider>
   );
 }

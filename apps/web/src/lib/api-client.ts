@@ -1,5 +1,6 @@
 import { ErrorReply } from '@torquetrail/contracts';
 import type { z } from 'zod';
+import { takeEarlyRead } from './early-reads/take';
 
 /**
  * A failed API call. `status` is the HTTP status, or 0 when the server could not be reached
@@ -46,13 +47,16 @@ export async function apiRequest<S extends z.ZodType | undefined = undefined>(
 
   let response: Response;
   try {
-    response = await fetch(path, {
-      method,
-      headers,
-      body: body === undefined ? undefined : JSON.stringify(body),
-      credentials: 'same-origin',
-      signal,
-    });
+    // A read index.html already started (early-reads/) is taken once instead of sent again.
+    const early = method === 'GET' && body === undefined ? takeEarlyRead(path) : undefined;
+    response = await (early ??
+      fetch(path, {
+        method,
+        headers,
+        body: body === undefined ? undefined : JSON.stringify(body),
+        credentials: 'same-origin',
+        signal,
+      }));
   } catch (cause) {
     if (signal?.aborted) throw cause;
     throw new ApiError(0, 'Cannot reach the Torquetrail server. Check the connection and retry.');
