@@ -58,7 +58,15 @@ const demoSeedS = (performance.now() - t0) / 1000;
 const fingerprint = createHash('sha256')
   .update(fs.readFileSync(path.join(repoRoot, 'scripts/lib/bench-large-seed.mjs')))
   .update(fs.readFileSync(path.join(repoRoot, 'drizzle/meta/_journal.json')))
-  .update(fs.readdirSync(path.join(repoRoot, 'apps/api/dist/seed')).join())
+  // The demo seed's code, not only its file names: the large practice is a copy of a demo database.
+  .update(
+    fs
+      .readdirSync(path.join(repoRoot, 'apps/api/dist/seed'))
+      .filter((file) => file.endsWith('.js'))
+      .sort()
+      .map((file) => fs.readFileSync(path.join(repoRoot, 'apps/api/dist/seed', file), 'utf8'))
+      .join('\0'),
+  )
   .update(String(PATIENTS))
   .digest('hex')
   .slice(0, 16);
@@ -152,17 +160,24 @@ async function request(port, url, { method = 'GET', body, cookie } = {}) {
 }
 
 // ---- the endpoints ---------------------------------------------------------------------------
-const targets = await withOwner(args.desk ? LARGE_DB : DEMO_DB, async (c) => {
-  const r = await c.query(
-    `select s.id as site, p.id as patient from implant_sites s join patients p on p.id = s.patient_id where p.chart_number = 'LL-1001' and s.fdi = 35`,
-  );
-  return r.rows[0];
-});
-const ENDPOINTS = [
-  ['site detail', `/api/sites/${targets.site}`],
-  ['Timeline', `/api/sites/${targets.site}/timeline`],
-  ['exam history', `/api/recalls/sites/${targets.site}/exams`],
-  ['radiograph list', `/api/patients/${targets.patient}/radiographs`],
+// Looked up in each database: the seed draws random ids, and the large practice is a copy of the
+// demo database of the run that seeded it, so a reused large database has other ids than this run's
+// fresh demo database (its URLs answered 404 there).
+async function targetsOf(database) {
+  const target = await withOwner(database, async (c) => {
+    const r = await c.query(
+      `select s.id as site, p.id as patient from implant_sites s join patients p on p.id = s.patient_id where p.chart_number = 'LL-1001' and s.fdi = 35`,
+    );
+    return r.rows[0];
+  });
+  if (!target) throw new Error(`${database}: no site 35 of LL-1001 (reseed with --reseed)`);
+  return target;
+}
+const endpointsOf = (target) => [
+  ['site detail', `/api/sites/${target.site}`],
+  ['Timeline', `/api/sites/${target.site}/timeline`],
+  ['exam history', `/api/recalls/sites/${target.site}/exams`],
+  ['radiograph list', `/api/patients/${target.patient}/radiographs`],
 ];
 const DESK = [
   ['all, by due date', '/api/recalls/desk?filter=all&sort=dueOn&dir=asc'],
@@ -252,8 +267,10 @@ async function measureDatabase(database, { withFloor }) {
   if (signIn.status !== 200 && signIn.status !== 201) throw new Error(`sign-in answered ${signIn.status}`);
   const cookie = String(signIn.headers.get('set-cookie')).split(';')[0];
   const out = { endpoints: {}, desk: {}, csv: null, web: null, peakRssMb: 0 };
+  const target = await targetsOf(database);
+  const ENDPOINTS = args.desk ? [] : endpointsOf(target);
   const replay = { routes: {} };
-  for (const [name, url] of args.desk ? [] : ENDPOINTS) {
+  for (const [name, url] of ENDPOINTS) {
     const { reply, statements, groups } = await captureRequest(captureFile, cookie, url);
     if (reply.status !== 200) throw new Error(`${name} answered ${reply.status}`);
     replay.routes[url] = {
@@ -285,7 +302,7 @@ async function measureDatabase(database, { withFloor }) {
     }
   }
   // Warm both servers (JIT of V8, PostgreSQL's caches) before anything is kept.
-  for (const [, url] of args.desk ? [] : ENDPOINTS) {
+  for (const [, url] of ENDPOINTS) {
     await load(API_PORT, url, cookie, 8);
     if (floor) await load(FLOOR_PORT, url, cookie, 8);
   }
@@ -294,11 +311,16 @@ async function measureDatabase(database, { withFloor }) {
       for (const [name, url] of ENDPOINTS) {
         let peak = 0;
         const sampler = setInterval(() => (peak = Math.max(peak, rssMb(api.pid))), 100);
+        const apiCpu = cpuMs(api.pid);
         const a = await load(API_PORT, url, cookie, connections);
         clearInterval(sampler);
         out.peakRssMb = Math.max(out.peakRssMb, peak, rssMb(api.pid));
-        const run = { connections, api: summary(a) };
-        if (floor) run.floor = summary(await load(FLOOR_PORT, url, cookie, connections));
+        const run = { connections, api: summary(a, cpuMs(api.pid) - apiCpu) };
+        if (floor) {
+          const floorCpu = cpuMs(floor.pid);
+          const f = await load(FLOOR_PORT, url, cookie, connections);
+          run.floor = summary(f, cpuMs(floor.pid) - floorCpu);
+        }
         out.endpoints[name].runs.push(run);
         log(`  ${database} ${name} ${connections}c #${repeat + 1}: ${fmtRun(run)}`);
       }
@@ -369,7 +391,7 @@ async function measureDatabase(database, { withFloor }) {
     out.web = await measureWebFirstLoad({
       baseUrl: `http://127.0.0.1:${API_PORT}`,
       cookie,
-      patientId: targets.patient,
+      patientId: target.patient,
       webDist: path.join(repoRoot, 'apps/web/dist'),
     });
     log(`  web: Arch ${out.web.archMs} ms, blank ${out.web.blankMs} ms, JS ${out.web.jsGzipKb.toFixed(1)} KB gzip`);
@@ -379,15 +401,24 @@ async function measureDatabase(database, { withFloor }) {
   return out;
 }
 
-const summary = ({ result, times }) => ({
+const summary = ({ result, times }, cpu) => ({
   rps: result.requests.total / SECONDS,
+  // The server process's CPU (user + system) per answered request: what the API costs around its
+  // SQL whatever the machine's load does to the wall-clock figures (10 ms ticks over the run).
+  cpuMsPerRequest: result.requests.total > 0 ? cpu / result.requests.total : null,
   p50: percentile(times, 50),
   p95: percentile(times, 95),
-  errors: result.errors + result.non2xx,
+  // Any answer but a 2xx, and requests still unanswered when the run ended, are counted: a run
+  // that got no answers at all reads as 0 req/s, never as a fast one.
+  errors: result.errors + result.timeouts + result.non2xx,
+  unanswered: Math.max(0, result.requests.sent - result.requests.total),
 });
 const fmtRun = (run) =>
-  `API ${run.api.rps.toFixed(0)} req/s p50 ${run.api.p50.toFixed(1)} ms` +
-  (run.floor ? ` | floor ${run.floor.rps.toFixed(0)} req/s p50 ${run.floor.p50.toFixed(1)} ms` : '');
+  `API ${run.api.rps.toFixed(0)} req/s p50 ${run.api.p50.toFixed(1)} ms cpu/req ${run.api.cpuMsPerRequest?.toFixed(2)} ms` +
+  (run.floor
+    ? ` | floor ${run.floor.rps.toFixed(0)} req/s p50 ${run.floor.p50.toFixed(1)} ms cpu/req ${run.floor.cpuMsPerRequest?.toFixed(2)} ms`
+    : '') +
+  (run.api.errors || run.floor?.errors ? ` | errors API ${run.api.errors}, floor ${run.floor?.errors ?? 0}` : '');
 
 const demo = args.desk
   ? null
