@@ -1,7 +1,7 @@
 import { type AbilityUser, type AppAbility, defineAbilityFor } from '@torquetrail/authz';
 
 /** Enough for every person signed in at a practice group at once; a miss only costs a rebuild. */
-export const ABILITY_CACHE_SIZE = 500;
+const ABILITY_CACHE_SIZE = 500;
 
 /**
  * Everything `defineAbilityFor` reads, as one string. The session user is loaded fresh on every
@@ -9,7 +9,7 @@ export const ABILITY_CACHE_SIZE = 500;
  * or a share's new sites give another key, and that very request builds a new ability: the cache
  * can only ever return the ability the same inputs would build again.
  */
-export function abilityKey(user: AbilityUser): string {
+function abilityKey(user: AbilityUser): string {
   return JSON.stringify([user.id, user.role, user.practiceId, user.sharedPatientIds, user.shares]);
 }
 

@@ -1,7 +1,7 @@
 // Everything that happened at one site, for the Timeline. Each query is pinned to the site,
 // which the caller has already checked the user may see, and prepared once (db/prepared.ts).
 import { asc, eq, inArray, sql } from 'drizzle-orm';
-import type { Database, Db } from '../db/database.js';
+import type { Database } from '../db/database.js';
 import { preparedFor } from '../db/prepared.js';
 import {
   complications,
