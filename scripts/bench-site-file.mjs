@@ -40,6 +40,8 @@ const DEMO_DB = 'torquetrail_bench_demo';
 const LARGE_DB = 'torquetrail_bench_large';
 const API_PORT = 3000 + (Number(process.env.PORT ?? 3000) % 1000) + 1000;
 const FLOOR_PORT = API_PORT + 1;
+// The large practice's API runs beside the demo one, so the two are measured in turns (goal 2).
+const LARGE_API_PORT = API_PORT + 2;
 const scratch = path.join(repoRoot, '.local', 'bench');
 fs.mkdirSync(scratch, { recursive: true });
 const median = (xs) => [...xs].sort((a, b) => a - b)[Math.floor((xs.length - 1) / 2)];
@@ -58,7 +60,15 @@ const demoSeedS = (performance.now() - t0) / 1000;
 const fingerprint = createHash('sha256')
   .update(fs.readFileSync(path.join(repoRoot, 'scripts/lib/bench-large-seed.mjs')))
   .update(fs.readFileSync(path.join(repoRoot, 'drizzle/meta/_journal.json')))
-  .update(fs.readdirSync(path.join(repoRoot, 'apps/api/dist/seed')).join())
+  // The demo seed's code, not only its file names: the large practice is a copy of a demo database.
+  .update(
+    fs
+      .readdirSync(path.join(repoRoot, 'apps/api/dist/seed'))
+      .filter((file) => file.endsWith('.js'))
+      .sort()
+      .map((file) => fs.readFileSync(path.join(repoRoot, 'apps/api/dist/seed', file), 'utf8'))
+      .join('\0'),
+  )
   .update(String(PATIENTS))
   .digest('hex')
   .slice(0, 16);
@@ -120,12 +130,12 @@ const rssMb = (pid) => {
   return Number(/VmRSS:\s+(\d+)/.exec(status)[1]) / 1024;
 };
 
-async function startApi(database, captureFile) {
+async function startApi(database, captureFile, port) {
   fs.writeFileSync(captureFile, '');
   const env = {
     ...benchEnv(database),
     NODE_ENV: 'production',
-    APP_URL: `http://127.0.0.1:${API_PORT}`,
+    APP_URL: `http://127.0.0.1:${port}`,
     COOKIE_SECURE: 'false',
     TT_CAPTURE_SQL: captureFile,
     WEB_DIST: path.join(repoRoot, 'apps/web/dist'),
@@ -134,7 +144,7 @@ async function startApi(database, captureFile) {
   const child = await startProcess(
     [...API_NODE_OPTIONS, '--import', path.join(repoRoot, 'scripts/bench/capture-sql.mjs'), 'apps/api/dist/main.js'],
     env,
-    API_PORT,
+    port,
   );
   return child;
 }
@@ -152,17 +162,24 @@ async function request(port, url, { method = 'GET', body, cookie } = {}) {
 }
 
 // ---- the endpoints ---------------------------------------------------------------------------
-const targets = await withOwner(args.desk ? LARGE_DB : DEMO_DB, async (c) => {
-  const r = await c.query(
-    `select s.id as site, p.id as patient from implant_sites s join patients p on p.id = s.patient_id where p.chart_number = 'LL-1001' and s.fdi = 35`,
-  );
-  return r.rows[0];
-});
-const ENDPOINTS = [
-  ['site detail', `/api/sites/${targets.site}`],
-  ['Timeline', `/api/sites/${targets.site}/timeline`],
-  ['exam history', `/api/recalls/sites/${targets.site}/exams`],
-  ['radiograph list', `/api/patients/${targets.patient}/radiographs`],
+// Looked up in each database: the seed draws random ids, and the large practice is a copy of the
+// demo database of the run that seeded it, so a reused large database has other ids than this run's
+// fresh demo database (its URLs answered 404 there).
+async function targetsOf(database) {
+  const target = await withOwner(database, async (c) => {
+    const r = await c.query(
+      `select s.id as site, p.id as patient from implant_sites s join patients p on p.id = s.patient_id where p.chart_number = 'LL-1001' and s.fdi = 35`,
+    );
+    return r.rows[0];
+  });
+  if (!target) throw new Error(`${database}: no site 35 of LL-1001 (reseed with --reseed)`);
+  return target;
+}
+const endpointsOf = (target) => [
+  ['site detail', `/api/sites/${target.site}`],
+  ['Timeline', `/api/sites/${target.site}/timeline`],
+  ['exam history', `/api/recalls/sites/${target.site}/exams`],
+  ['radiograph list', `/api/patients/${target.patient}/radiographs`],
 ];
 const DESK = [
   ['all, by due date', '/api/recalls/desk?filter=all&sort=dueOn&dir=asc'],
@@ -216,11 +233,11 @@ function roundTrips(statements) {
   return groups;
 }
 
-async function captureRequest(captureFile, cookie, url) {
-  await request(API_PORT, url, { cookie });
+async function captureRequest(port, captureFile, cookie, url) {
+  await request(port, url, { cookie });
   await new Promise((r) => setTimeout(r, 100));
   const from = fs.statSync(captureFile).size;
-  const reply = await request(API_PORT, url, { cookie });
+  const reply = await request(port, url, { cookie });
   await new Promise((r) => setTimeout(r, 100));
   const statements = readCapture(captureFile, from);
   return { reply, statements, groups: roundTrips(statements) };
@@ -242,20 +259,26 @@ const percentile = (xs, p) => {
   return sorted[Math.min(sorted.length - 1, Math.floor((p / 100) * sorted.length))] ?? 0;
 };
 
-async function measureDatabase(database, { withFloor }) {
+/**
+ * One database's API, started and signed in, with the Site file's replies and statements captured
+ * (`out` collects its figures).
+ */
+async function openApi(database, port) {
   const captureFile = path.join(scratch, `${database}.sql.jsonl`);
-  const api = await startApi(database, captureFile);
-  const signIn = await request(API_PORT, '/api/auth/sign-in', {
+  const api = await startApi(database, captureFile, port);
+  const signIn = await request(port, '/api/auth/sign-in', {
     method: 'POST',
     body: { email: 'ines.calloway@larkspur.example', password: 'ledger-demo-2026' },
   });
   if (signIn.status !== 200 && signIn.status !== 201) throw new Error(`sign-in answered ${signIn.status}`);
   const cookie = String(signIn.headers.get('set-cookie')).split(';')[0];
   const out = { endpoints: {}, desk: {}, csv: null, web: null, peakRssMb: 0 };
+  const target = await targetsOf(database);
+  const endpoints = args.desk ? [] : endpointsOf(target);
   const replay = { routes: {} };
-  for (const [name, url] of args.desk ? [] : ENDPOINTS) {
-    const { reply, statements, groups } = await captureRequest(captureFile, cookie, url);
-    if (reply.status !== 200) throw new Error(`${name} answered ${reply.status}`);
+  for (const [name, url] of endpoints) {
+    const { reply, statements, groups } = await captureRequest(port, captureFile, cookie, url);
+    if (reply.status !== 200) throw new Error(`${database}: ${name} answered ${reply.status}`);
     replay.routes[url] = {
       status: 200,
       contentType: 'application/json; charset=utf-8',
@@ -270,47 +293,71 @@ async function measureDatabase(database, { withFloor }) {
       runs: [],
     };
   }
-  let floor = null;
-  if (withFloor) {
-    const replayFile = path.join(scratch, `${database}.replay.json`);
-    fs.writeFileSync(replayFile, JSON.stringify(replay));
-    floor = await startProcess(
-      ['scripts/bench-floor.mjs', replayFile],
-      { DATABASE_URL: benchEnv(database).DATABASE_URL, PG_OPTIONS: API_PG_OPTIONS },
-      FLOOR_PORT,
-    );
-    for (const [name, url] of ENDPOINTS) {
-      const [a, f] = [await request(API_PORT, url, { cookie }), await request(FLOOR_PORT, url)];
-      out.endpoints[name].sameBytes = a.body.equals(f.body);
-    }
+  return { database, port, api, cookie, captureFile, target, endpoints, replay, out };
+}
+
+/** One load run of an API, with its CPU per request and its resident memory sampled throughout. */
+async function loadApi(side, url, connections) {
+  let peak = 0;
+  const sampler = setInterval(() => (peak = Math.max(peak, rssMb(side.api.pid))), 100);
+  const cpu = cpuMs(side.api.pid);
+  const a = await load(side.port, url, side.cookie, connections);
+  clearInterval(sampler);
+  side.out.peakRssMb = Math.max(side.out.peakRssMb, peak, rssMb(side.api.pid));
+  return summary(a, cpuMs(side.api.pid) - cpu);
+}
+
+/**
+ * The Site file's endpoints under load: the demo database's API, its floor and the large
+ * practice's API one after the other for each endpoint and connection count, so the two ratios
+ * (floor ÷ API, demo ÷ large) compare runs made within seconds of each other, whatever else the
+ * machine is doing meanwhile.
+ */
+async function measureSiteFile(demoSide, largeSide) {
+  const replayFile = path.join(scratch, `${demoSide.database}.replay.json`);
+  fs.writeFileSync(replayFile, JSON.stringify(demoSide.replay));
+  const floor = await startProcess(
+    ['scripts/bench-floor.mjs', replayFile],
+    { DATABASE_URL: benchEnv(demoSide.database).DATABASE_URL, PG_OPTIONS: API_PG_OPTIONS },
+    FLOOR_PORT,
+  );
+  for (const [name, url] of demoSide.endpoints) {
+    const [a, f] = [await request(demoSide.port, url, { cookie: demoSide.cookie }), await request(FLOOR_PORT, url)];
+    demoSide.out.endpoints[name].sameBytes = a.body.equals(f.body);
   }
-  // Warm both servers (JIT of V8, PostgreSQL's caches) before anything is kept.
-  for (const [, url] of args.desk ? [] : ENDPOINTS) {
-    await load(API_PORT, url, cookie, 8);
-    if (floor) await load(FLOOR_PORT, url, cookie, 8);
+  const largeUrl = (name) => largeSide.endpoints.find(([n]) => n === name)[1];
+  // Warm the three servers (JIT of V8, PostgreSQL's caches) before anything is kept.
+  for (const [name, url] of demoSide.endpoints) {
+    await load(demoSide.port, url, demoSide.cookie, 8);
+    await load(FLOOR_PORT, url, demoSide.cookie, 8);
+    await load(largeSide.port, largeUrl(name), largeSide.cookie, 8);
   }
-  for (let repeat = 0; repeat < (args.desk ? 0 : REPEATS); repeat += 1) {
+  for (let repeat = 0; repeat < REPEATS; repeat += 1) {
     for (const connections of CONNECTIONS) {
-      for (const [name, url] of ENDPOINTS) {
-        let peak = 0;
-        const sampler = setInterval(() => (peak = Math.max(peak, rssMb(api.pid))), 100);
-        const a = await load(API_PORT, url, cookie, connections);
-        clearInterval(sampler);
-        out.peakRssMb = Math.max(out.peakRssMb, peak, rssMb(api.pid));
-        const run = { connections, api: summary(a) };
-        if (floor) run.floor = summary(await load(FLOOR_PORT, url, cookie, connections));
-        out.endpoints[name].runs.push(run);
-        log(`  ${database} ${name} ${connections}c #${repeat + 1}: ${fmtRun(run)}`);
+      for (const [name, url] of demoSide.endpoints) {
+        const run = { connections, api: await loadApi(demoSide, url, connections) };
+        const floorCpu = cpuMs(floor.pid);
+        run.floor = summary(await load(FLOOR_PORT, url, demoSide.cookie, connections), cpuMs(floor.pid) - floorCpu);
+        const large = { connections, api: await loadApi(largeSide, largeUrl(name), connections) };
+        demoSide.out.endpoints[name].runs.push(run);
+        largeSide.out.endpoints[name].runs.push(large);
+        log(`  ${name} ${connections}c #${repeat + 1}: ${fmtRun(run)} | large ${fmtRun(large)}`);
       }
     }
   }
+  await stop(floor);
+}
+
+async function measureDatabase(side, { withFloor }) {
+  const { api, cookie, captureFile, target, out } = side;
+  const port = side.port;
   if (!withFloor) {
     for (const [name, url] of DESK) {
       const times = [];
       let total = null;
       for (let i = 0; i < 15; i += 1) {
         const t = performance.now();
-        const r = await request(API_PORT, url, { cookie });
+        const r = await request(port, url, { cookie });
         times.push(performance.now() - t);
         total = JSON.parse(r.body.toString()).total ?? total;
       }
@@ -319,7 +366,7 @@ async function measureDatabase(database, { withFloor }) {
     out.deskSql = {};
     for (const [name, url] of DESK) {
       const from = fs.statSync(captureFile).size;
-      await request(API_PORT, url, { cookie });
+      await request(port, url, { cookie });
       await new Promise((r) => setTimeout(r, 100));
       // The desk's own statements (the session's user and the audit row are measured elsewhere).
       out.deskSql[name] = readCapture(captureFile, from).filter(
@@ -328,7 +375,7 @@ async function measureDatabase(database, { withFloor }) {
     }
     // The export's statement, as its cursor declared it.
     const from = fs.statSync(captureFile).size;
-    await request(API_PORT, CSV_URL, { cookie });
+    await request(port, CSV_URL, { cookie });
     await new Promise((r) => setTimeout(r, 100));
     out.deskSql['CSV export'] = readCapture(captureFile, from)
       .filter((s) => /^declare batch_rows no scroll cursor for /i.test(s.text))
@@ -336,7 +383,7 @@ async function measureDatabase(database, { withFloor }) {
     if (args.replies) {
       fs.mkdirSync(args.replies, { recursive: true });
       for (const url of COMPARED) {
-        const r = await request(API_PORT, url, { cookie });
+        const r = await request(port, url, { cookie });
         fs.writeFileSync(path.join(args.replies, `${url.replace(/[^a-z0-9]+/gi, '-')}.${r.status}`), r.body);
       }
     }
@@ -349,7 +396,7 @@ async function measureDatabase(database, { withFloor }) {
       const sampler = setInterval(() => (csvPeak = Math.max(csvPeak, rssMb(api.pid))), 20);
       const cpu = cpuMs(api.pid);
       const t = performance.now();
-      const r = await request(API_PORT, CSV_URL, { cookie });
+      const r = await request(port, CSV_URL, { cookie });
       csvTimes.push(performance.now() - t);
       csvCpu.push(cpuMs(api.pid) - cpu);
       clearInterval(sampler);
@@ -367,33 +414,46 @@ async function measureDatabase(database, { withFloor }) {
   if (withFloor) {
     // The web's first load of Harold's Arch, served by this API from the build (goal 3).
     out.web = await measureWebFirstLoad({
-      baseUrl: `http://127.0.0.1:${API_PORT}`,
+      baseUrl: `http://127.0.0.1:${port}`,
       cookie,
-      patientId: targets.patient,
+      patientId: target.patient,
       webDist: path.join(repoRoot, 'apps/web/dist'),
     });
     log(`  web: Arch ${out.web.archMs} ms, blank ${out.web.blankMs} ms, JS ${out.web.jsGzipKb.toFixed(1)} KB gzip`);
   }
-  if (floor) await stop(floor);
   await stop(api);
   return out;
 }
 
-const summary = ({ result, times }) => ({
+const summary = ({ result, times }, cpu) => ({
   rps: result.requests.total / SECONDS,
+  // The server process's CPU (user + system) per answered request: what the API costs around its
+  // SQL whatever the machine's load does to the wall-clock figures (10 ms ticks over the run).
+  cpuMsPerRequest: result.requests.total > 0 ? cpu / result.requests.total : null,
   p50: percentile(times, 50),
   p95: percentile(times, 95),
-  errors: result.errors + result.non2xx,
+  // Any answer but a 2xx, and requests still unanswered when the run ended, are counted: a run
+  // that got no answers at all reads as 0 req/s, never as a fast one.
+  errors: result.errors + result.timeouts + result.non2xx,
+  unanswered: Math.max(0, result.requests.sent - result.requests.total),
 });
 const fmtRun = (run) =>
-  `API ${run.api.rps.toFixed(0)} req/s p50 ${run.api.p50.toFixed(1)} ms` +
-  (run.floor ? ` | floor ${run.floor.rps.toFixed(0)} req/s p50 ${run.floor.p50.toFixed(1)} ms` : '');
+  `API ${run.api.rps.toFixed(0)} req/s p50 ${run.api.p50.toFixed(1)} ms cpu/req ${run.api.cpuMsPerRequest?.toFixed(2)} ms` +
+  (run.floor
+    ? ` | floor ${run.floor.rps.toFixed(0)} req/s p50 ${run.floor.p50.toFixed(1)} ms cpu/req ${run.floor.cpuMsPerRequest?.toFixed(2)} ms`
+    : '') +
+  (run.api.errors || run.floor?.errors ? ` | errors API ${run.api.errors}, floor ${run.floor?.errors ?? 0}` : '');
 
-const demo = args.desk
-  ? null
-  : (log('\n== demo database (API and floor)'), await measureDatabase(DEMO_DB, { withFloor: true }));
-log('\n== large practice (API; desk and CSV)');
-const large = await measureDatabase(LARGE_DB, { withFloor: false });
+let demo = null;
+const largeSide = await openApi(LARGE_DB, LARGE_API_PORT);
+if (!args.desk) {
+  log('\n== the Site file: demo database (API and floor) and large practice (API), in turns');
+  const demoSide = await openApi(DEMO_DB, API_PORT);
+  await measureSiteFile(demoSide, largeSide);
+  demo = await measureDatabase(demoSide, { withFloor: true });
+}
+log('\n== large practice (desk and CSV)');
+const large = await measureDatabase(largeSide, { withFloor: false });
 const explains = await explainDesk(ownerUrl(LARGE_DB), large.deskSql, path.join(repoRoot, 'bench/results'));
 delete large.deskSql;
 

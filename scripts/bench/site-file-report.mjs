@@ -70,6 +70,7 @@ function reduce(measured) {
               rps: median(runs.map((r) => r[key].rps)),
               p50: median(runs.map((r) => r[key].p50)),
               p95: median(runs.map((r) => r[key].p95)),
+              cpuMsPerRequest: median(runs.map((r) => r[key].cpuMsPerRequest ?? Infinity)),
               errors: runs.reduce((n, r) => n + r[key].errors, 0),
             }
           : null;
@@ -95,6 +96,7 @@ export function writeResults(dir, file, raw) {
         api,
         floor,
         floorOverApiRps: floor.rps / api.rps,
+        apiOverFloorCpu: api.cpuMsPerRequest / floor.cpuMsPerRequest,
         p50OverFloor: api.p50 / floor.p50,
         large: l,
         demoOverLargeRps: api.rps / l.rps,
@@ -129,6 +131,32 @@ function markdown(r) {
       `| ${t.endpoint} | ${t.connections} | ${t.statements} / ${t.roundTrips} | ${f(t.api.rps, 0)} | ${f(t.floor.rps, 0)} | ${f(t.floorOverApiRps, 2)} | ${f(t.api.p50)} | ${f(t.floor.p50)} | ${f(t.p50OverFloor, 2)} | ${f(t.api.p95)} | ${f(t.large.rps, 0)} | ${f(t.large.p50)} | ${f(t.demoOverLargeRps, 2)} | ${f(t.largeOverDemoP50, 2)} |`,
     );
   }
+  lines.push(
+    '',
+    "Server CPU per request (user + system of the process over the run ÷ requests answered; ms; the machine's load changes it far less than the wall-clock figures):",
+    '',
+    '| endpoint | conns | API CPU/req | floor CPU/req | API ÷ floor | large API CPU/req |',
+    '|---|---|---|---|---|---|',
+  );
+  for (const t of r.table) {
+    lines.push(
+      `| ${t.endpoint} | ${t.connections} | ${f(t.api.cpuMsPerRequest, 2)} | ${f(t.floor.cpuMsPerRequest, 2)} | ${f(t.apiOverFloorCpu, 2)} | ${f(t.large.cpuMsPerRequest, 2)} |`,
+    );
+  }
+  const failed = r.table.flatMap((t) =>
+    [
+      ['API', t.api],
+      ['floor', t.floor],
+      ['large', t.large],
+    ]
+      .filter(([, side]) => side?.errors)
+      .map(([who, side]) => `${t.endpoint} ${t.connections}c ${who}: ${side.errors}`),
+  );
+  if (failed.length)
+    lines.push(
+      '',
+      `**Runs with errors, timeouts or non-2xx answers** (their figures are not valid): ${failed.join('; ')}.`,
+    );
   lines.push('', `API peak RSS under load: ${f(r.peakRssMb, 0)} MB.`, '');
   lines.push(...deskTable(r));
   const w = r.demo.web;

@@ -7,7 +7,6 @@ import type { DestinationStream } from 'pino';
 import { NestFactory } from '@nestjs/core';
 import type { NestExpressApplication } from '@nestjs/platform-express';
 import cookieParser from 'cookie-parser';
-import swaggerUi from 'swagger-ui-dist';
 import express, { type Request, type Response } from 'express';
 import { AppModule } from './app.module.js';
 import type { Env } from './config/env.js';
@@ -48,6 +47,9 @@ export async function createApp(
   // Unknown routes under /api fall through to Nest's JSON 404 (via the exception filter), never the web app.
   const expressApp = app.getHttpAdapter().getInstance();
   if (env.NODE_ENV !== 'production') {
+    // Loaded only here: the package's main module also evaluates Swagger UI's 2 MB of browser
+    // bundles, which a production API (no /api/docs) would keep in its heap for nothing.
+    const { default: swaggerUi } = await import('swagger-ui-dist');
     expressApp.use('/api/docs/assets', express.static(swaggerUi.getAbsoluteFSPath(), { index: false }));
   }
   if (env.WEB_DIST && pageHtml !== undefined) {

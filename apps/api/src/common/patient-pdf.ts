@@ -21,13 +21,13 @@ export interface PatientPdfFrame {
 const PDF_MARGIN = 50;
 
 /** The document and the call that draws every page's frame and returns the bytes. */
-export function patientPdf(frame: PatientPdfFrame): {
+export async function patientPdf(frame: PatientPdfFrame): Promise<{
   doc: PDFKit.PDFDocument;
   dates: DatePrinter;
   finish: () => Promise<Buffer>;
-} {
+}> {
   const dates = datePrinter(frame.dateFormat);
-  const doc = notoPdfDocument({
+  const doc = await notoPdfDocument({
     size: 'A4',
     margins: { top: PDF_MARGIN + 22, bottom: PDF_MARGIN + 10, left: PDF_MARGIN, right: PDF_MARGIN },
     bufferPages: true,

@@ -6,7 +6,7 @@
 // holds its letters, so every name keeps its letters in the PDF and in text copied out of it.
 import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
-import PDFDocument from 'pdfkit';
+import type PDFDocument from 'pdfkit';
 
 /** The two weights the documents use; pass them to `doc.font`. */
 export const FONT = { regular: 'NotoSans', bold: 'NotoSans-Bold' } as const;
@@ -70,13 +70,24 @@ function fontRuns(family: Family, text: string): { face: string; text: string }[
 
 type TextOptions = PDFKit.Mixins.TextOptions;
 
+let loaded: Promise<typeof PDFDocument> | undefined;
+/**
+ * pdfkit and what it brings (fontkit, its tables), loaded with the first document: several MB of
+ * heap in every API process from its start, for a few printouts a day.
+ */
+function pdfkit(): Promise<typeof PDFDocument> {
+  loaded ??= import('pdfkit').then((m) => m.default);
+  return loaded;
+}
+
 /**
  * A new document in Noto Sans. `doc.text` draws each run in its face, continuing the line
  * between runs, so callers write text as usual after `doc.font(FONT.regular | FONT.bold)`.
  */
-export function notoPdfDocument(options: PDFKit.PDFDocumentOptions): PDFKit.PDFDocument {
+export async function notoPdfDocument(options: PDFKit.PDFDocumentOptions): Promise<PDFKit.PDFDocument> {
+  const Document = await pdfkit();
   // An empty default font: pdfkit would otherwise load Helvetica and write it into the file.
-  const doc = new PDFDocument({ ...options, font: '' });
+  const doc = new Document({ ...options, font: '' });
   for (const list of Object.values(allFaces())) for (const f of list) doc.registerFont(f.name, f.file);
 
   let family: Family = FONT.regular;

@@ -1,6 +1,7 @@
 import { sql } from 'drizzle-orm';
 import { auditValues, currentAudit, type AuditEventValues } from '../common/audit-context.js';
 import type { Database, Db, Tx } from './database.js';
+import { preparedFor } from './prepared.js';
 import { auditEvents } from './schema/index.js';
 
 /**
@@ -15,6 +16,42 @@ export async function insertAuditEvent(db: Db, values: AuditEventValues, at?: Da
     practiceId: values.practiceId ?? (userId ? sql`(select practice_id from users where id = ${userId})` : null),
     role: values.role ?? (userId ? sql`(select role from users where id = ${userId})` : null),
   });
+}
+
+const placeholder = (name: keyof AuditEventValues) => sql.placeholder(name);
+
+/**
+ * `insertAuditEvent` as a named statement, for the row every audited read writes on its own
+ * (audit/audit-recorder.ts): built once, parsed and planned once per connection. The same row as
+ * `insertAuditEvent` without `at`, the fallbacks to the user's practice and role included.
+ */
+const auditInsertQuery = preparedFor((db) =>
+  db
+    .insert(auditEvents)
+    .values({
+      practiceId: sql`coalesce(${placeholder('practiceId')}::uuid, (select practice_id from users where id = ${placeholder('userId')}::uuid))`,
+      userId: placeholder('userId'),
+      role: sql`coalesce(${placeholder('role')}::role, (select role from users where id = ${placeholder('userId')}::uuid))`,
+      action: placeholder('action'),
+      outcome: placeholder('outcome'),
+      httpStatus: placeholder('httpStatus'),
+      route: placeholder('route'),
+      recordType: placeholder('recordType'),
+      recordId: placeholder('recordId'),
+      patientId: placeholder('patientId'),
+      query: placeholder('query'),
+      before: placeholder('before'),
+      after: placeholder('after'),
+      address: placeholder('address'),
+      userAgent: placeholder('userAgent'),
+      requestId: placeholder('requestId'),
+    })
+    .prepare('audit_insert'),
+);
+
+/** One audit row outside any transaction (a read's, a refusal's), as a named statement. */
+export async function recordAuditEvent(db: Database, values: AuditEventValues): Promise<void> {
+  await auditInsertQuery(db).execute({ ...values });
 }
 
 /**

@@ -1,7 +1,8 @@
 import { and, desc, eq, inArray, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { OVERDENTURE_KINDS } from '@torquetrail/domain';
-import type { Db } from '../db/database.js';
+import type { Database, Db } from '../db/database.js';
+import { preparedFor } from '../db/prepared.js';
 import {
   components,
   implantSites,
@@ -31,23 +32,28 @@ export async function findVisibleSite(db: Db, scope: Scope, siteId: string) {
 }
 
 /** The delivered overdenture (current version, still in place) on a site, or null. */
-export async function findDeliveredOverdenture(db: Db, siteId: string) {
-  const [row] = await db
+export async function findDeliveredOverdenture(db: Database, siteId: string) {
+  const [row] = await deliveredOverdentureQuery(db).execute({ siteId });
+  return row && row.deliveredOn ? { ...row, deliveredOn: row.deliveredOn } : null;
+}
+// A named statement: the Site file asks it on every open, of every site.
+const deliveredOverdentureQuery = preparedFor((db) =>
+  db
     .select({ id: restorations.id, kind: restorations.kind, deliveredOn: restorations.deliveredOn })
     .from(restorationSites)
     .innerJoin(restorations, eq(restorations.id, restorationSites.restorationId))
     .where(
       and(
-        eq(restorationSites.siteId, siteId),
+        eq(restorationSites.siteId, sql.placeholder('siteId')),
         eq(restorations.status, 'delivered'),
         inArray(restorations.kind, [...OVERDENTURE_KINDS]),
         isCurrentVersion(restorations),
       ),
     )
     .orderBy(desc(restorations.deliveredOn))
-    .limit(1);
-  return row && row.deliveredOn ? { ...row, deliveredOn: row.deliveredOn } : null;
-}
+    .limit(1)
+    .prepare('delivered_overdenture_of_site'),
+);
 
 /** A catalogue part of the practice (any version), with what an insert change shows of it. */
 export async function findPart(db: Db, practiceId: string, componentId: string) {
@@ -161,16 +167,21 @@ export async function currentChangesOfSite(db: Db, siteId: string) {
 }
 
 /** Every insert change of the site (amended versions too), for the Timeline. */
-export async function allChangesOfSite(db: Db, siteId: string) {
-  const rows = await db
+export async function allChangesOfSite(db: Database, siteId: string) {
+  const rows = await allChangesOfSiteQuery(db).execute({ siteId });
+  return rows.map(withParts);
+}
+// A named statement: the Timeline asks it on every open of a site.
+const allChangesOfSiteQuery = preparedFor((db) =>
+  db
     .select({ ...changeColumns, amended: sql<boolean>`${supersededById(insertChanges)} is not null` })
     .from(insertChanges)
     .leftJoin(oldPart, eq(oldPart.id, insertChanges.oldComponentId))
     .innerJoin(newPart, eq(newPart.id, insertChanges.newComponentId))
     .leftJoin(users, eq(users.id, insertChanges.recordedBy))
-    .where(eq(insertChanges.siteId, siteId));
-  return rows.map(withParts);
-}
+    .where(eq(insertChanges.siteId, sql.placeholder('siteId')))
+    .prepare('timeline_insert_changes'),
+);
 
 /** The latest current insert change on any site of the overdenture since its delivery, or null. */
 export async function lastChangeOfRestoration(db: Db, restorationId: string, deliveredOn: string) {

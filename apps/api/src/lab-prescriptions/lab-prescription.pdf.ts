@@ -114,8 +114,8 @@ function impressionSection(
 const torque = (p: PrescriptionPart) =>
   p.torqueSpecNcm === null ? 'hand-tight' : `${p.torqueSpecNcm} N·cm ±${p.tolerancePct} %`;
 
-export function renderLabPrescription(input: PrescriptionInput): Promise<Buffer> {
-  const doc = notoPdfDocument({
+export async function renderLabPrescription(input: PrescriptionInput): Promise<Buffer> {
+  const doc = await notoPdfDocument({
     size: 'A4',
     margin: 50,
     info: { Title: `Lab prescription ${input.number} ${input.chartNumber}`, Author: input.practice.name },

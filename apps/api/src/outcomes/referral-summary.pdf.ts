@@ -45,8 +45,8 @@ export interface SummaryPdfInput {
 /** The latest readings the trend lists (older ones are in the record). */
 const TREND_READINGS = 8;
 
-export function renderReferralSummary(input: SummaryPdfInput): Promise<Buffer> {
-  const doc = notoPdfDocument({
+export async function renderReferralSummary(input: SummaryPdfInput): Promise<Buffer> {
+  const doc = await notoPdfDocument({
     size: 'A4',
     margin: 50,
     info: { Title: `Referral summary ${input.chartNumber}`, Author: input.practice.name },

@@ -4,14 +4,25 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { Readable } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
-import sharp from 'sharp';
+import type Sharp from 'sharp';
 import type { RadiographFileType } from '@torquetrail/contracts';
 import { decodeDicomStream, tooLargeProblem } from './dicom-pixels.js';
 
-// libvips keeps recently decoded images (up to 50 MB) in an operation cache and decodes one image
-// with a thread per core: neither helps a job that makes one preview at a time, both add to RSS.
-sharp.cache(false);
-sharp.concurrency(1);
+let loaded: Promise<typeof Sharp> | undefined;
+/**
+ * sharp, loaded on the first image it handles: libvips maps about 6 MB and sharp's module more,
+ * in every API process from its start, while only an upload or a preview job needs them.
+ */
+function sharpLib(): Promise<typeof Sharp> {
+  loaded ??= import('sharp').then(({ default: sharp }) => {
+    // libvips keeps recently decoded images (up to 50 MB) in an operation cache and decodes one image
+    // with a thread per core: neither helps a job that makes one preview at a time, both add to RSS.
+    sharp.cache(false);
+    sharp.concurrency(1);
+    return sharp;
+  });
+  return loaded;
+}
 
 /** Longest side of the preview and of the thumbnail, px. */
 const PREVIEW_MAX_PX = 2048;
@@ -35,6 +46,7 @@ export async function makePreviews(
   source: AsyncIterable<Uint8Array>,
   limits: { maxPixels: number },
 ): Promise<Previews> {
+  const sharp = await sharpLib();
   let preview: Buffer;
   let size: { width: number; height: number } | undefined;
   if (type === 'dicom') {
@@ -67,6 +79,7 @@ async function imagePreview(
   try {
     // A failure of the source (storage) is thrown from here, for the job to retry.
     await pipeline(Readable.from(source, { objectMode: false }), createWriteStream(file));
+    const sharp = await sharpLib();
     try {
       const preview = await sharp(file, { failOn: 'error', limitInputPixels: maxPixels, sequentialRead: true })
         .resize(inside(PREVIEW_MAX_PX))
@@ -86,6 +99,7 @@ async function imagePreview(
 /** Width and height from a PNG's or JPEG's header (the first bytes of the upload), when they can be read. */
 export async function imageSizeFromHead(head: Buffer): Promise<{ rows: number | null; columns: number | null }> {
   try {
+    const sharp = await sharpLib();
     const meta = await sharp(head).metadata();
     return { rows: meta.height ?? null, columns: meta.width ?? null };
   } catch {

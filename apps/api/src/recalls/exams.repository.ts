@@ -167,21 +167,27 @@ export function toContract(row: ExamRow): RecallExam {
  * (served to the patients and sites features by MaintenanceStatusService).
  */
 export async function latestExamBySite(
-  db: Db,
+  db: Database,
   siteIds: string[],
 ): Promise<Map<string, { status: PeriImplantStatus; examinedOn: string }>> {
   if (siteIds.length === 0) return new Map();
-  const rows = await db
+  const rows = await latestExamBySiteQuery(db).execute({ siteIds });
+  return new Map(rows.map((r) => [r.siteId, { status: r.status, examinedOn: r.examinedOn }]));
+}
+// The sites as one array parameter (`= any`), so one named statement serves any number of them
+// (the Site file asks for one, the Arch for every site of the patient).
+const latestExamBySiteQuery = preparedFor((db) =>
+  db
     .selectDistinctOn([recallExams.siteId], {
       siteId: recallExams.siteId,
       status: recallExams.status,
       examinedOn: recallExams.examinedOn,
     })
     .from(recallExams)
-    .where(and(inArray(recallExams.siteId, siteIds), isCurrent))
-    .orderBy(recallExams.siteId, desc(recallExams.examinedOn), desc(recallExams.recordedAt));
-  return new Map(rows.map((r) => [r.siteId, { status: r.status, examinedOn: r.examinedOn }]));
-}
+    .where(and(sql`${recallExams.siteId} = any(${sql.placeholder('siteIds')}::uuid[])`, isCurrent))
+    .orderBy(recallExams.siteId, desc(recallExams.examinedOn), desc(recallExams.recordedAt))
+    .prepare('latest_exam_by_site'),
+);
 
 export async function findVisiblePatientForRecall(db: Db, scope: Scope, patientId: string) {
   const [row] = await db

@@ -61,9 +61,9 @@ function impressionLines(i: SnapshotImpression, dates: DatePrinter): string[] {
   return lines;
 }
 
-export function renderPassport(s: RecordSnapshot, printed: PrintedBy): Promise<Buffer> {
+export async function renderPassport(s: RecordSnapshot, printed: PrintedBy): Promise<Buffer> {
   const { patient, practice } = s;
-  const { doc, dates, finish } = patientPdf({
+  const { doc, dates, finish } = await patientPdf({
     title: 'Implant passport',
     patientName: `${patient.givenName} ${patient.familyName}`,
     chartNumber: patient.chartNumber,

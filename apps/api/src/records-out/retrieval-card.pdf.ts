@@ -80,9 +80,9 @@ function sitePage(doc: PDFKit.PDFDocument, i: SnapshotImplant, practice: Practic
   for (const line of practiceContactLines(practice)) doc.text(line);
 }
 
-export function renderRetrievalCard(s: RecordSnapshot, printed: PrintedBy): Promise<Buffer> {
+export async function renderRetrievalCard(s: RecordSnapshot, printed: PrintedBy): Promise<Buffer> {
   const { patient, practice } = s;
-  const { doc, dates, finish } = patientPdf({
+  const { doc, dates, finish } = await patientPdf({
     title: 'Retrieval card',
     patientName: `${patient.givenName} ${patient.familyName}`,
     chartNumber: patient.chartNumber,

@@ -1,7 +1,7 @@
 // Everything that happened at one site, for the Timeline. Each query is pinned to the site,
 // which the caller has already checked the user may see, and prepared once (db/prepared.ts).
 import { asc, eq, inArray, sql } from 'drizzle-orm';
-import type { Database, Db } from '../db/database.js';
+import type { Database } from '../db/database.js';
 import { preparedFor } from '../db/prepared.js';
 import {
   complications,
@@ -392,8 +392,11 @@ const passportMailsQuery = preparedFor((db) =>
     .prepare('timeline_passport_mails'),
 );
 /** Parts a legacy import kept as free text (not in the catalogue). */
-export async function freeTextPartsOfSite(db: Db, siteId: string) {
-  return db
+export async function freeTextPartsOfSite(db: Database, siteId: string) {
+  return freeTextPartsQuery(db).execute({ siteId });
+}
+const freeTextPartsQuery = preparedFor((db) =>
+  db
     .select({
       id: importedFreeTextParts.id,
       partRef: importedFreeTextParts.partRef,
@@ -402,15 +405,21 @@ export async function freeTextPartsOfSite(db: Db, siteId: string) {
       installedOn: importedFreeTextParts.installedOn,
     })
     .from(importedFreeTextParts)
-    .where(eq(importedFreeTextParts.siteId, siteId));
-}
+    .where(eq(importedFreeTextParts.siteId, sql.placeholder('siteId')))
+    .prepare('timeline_free_text_parts'),
+);
 
 /** The import marks of the given records: the file and row each was imported from. */
-export async function importMarksOf(db: Db, recordIds: string[]) {
+export async function importMarksOf(db: Database, recordIds: string[]) {
   if (recordIds.length === 0) return [];
-  return db
+  return importMarksQuery(db).execute({ recordIds });
+}
+// The records as one array parameter (`= any`): one named statement for any number of them.
+const importMarksQuery = preparedFor((db) =>
+  db
     .select({ recordId: importEntries.recordId, rowNumber: importEntries.rowNumber, fileName: legacyImports.fileName })
     .from(importEntries)
     .innerJoin(legacyImports, eq(legacyImports.id, importEntries.importId))
-    .where(inArray(importEntries.recordId, recordIds));
-}
+    .where(sql`${importEntries.recordId} = any(${sql.placeholder('recordIds')}::uuid[])`)
+    .prepare('timeline_import_marks'),
+);
