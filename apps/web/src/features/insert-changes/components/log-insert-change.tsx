@@ -60,7 +60,7 @@ export function LogInsertChange({ site }: { site: SiteFile }) {
             aria-label="Log insert change"
             noValidate
           >
-            <InsertChangeFields idPrefix="insert" parts={parts} />
+            <InsertChangeFields idPrefix="log-insert" parts={parts} />
             {formError && (
               <Callout intent="danger" role="alert" compact>
                 {formError}
