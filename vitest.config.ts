@@ -28,7 +28,12 @@ export default defineConfig({
         resolve: { alias },
         test: {
           name: 'unit',
-          include: ['packages/*/src/**/*.test.ts', 'apps/web/src/**/*.test.{ts,tsx}', 'apps/api/src/**/*.spec.ts'],
+          include: [
+            'packages/*/src/**/*.test.ts',
+            'apps/web/src/**/*.test.{ts,tsx}',
+            'apps/api/src/**/*.spec.ts',
+            'scripts/**/*.test.mjs',
+          ],
           environment: 'node',
           maxWorkers: 2,
         },

@@ -9,9 +9,13 @@ import { spawn } from 'node:child_process';
 import { apiEnvironment, localDir, ownerEnvironment, pg, repoRoot, s3 } from './lib/config.mjs';
 import { buildAll, ensureChromium, ensureDependencies, typecheckAll, migrateDatabase } from './lib/bootstrap.mjs';
 import { runLint } from './lint.mjs';
+import { summarizeReport } from './lib/test-report.mjs';
 
 const tiers = ['unit', 'api', 'browser'];
 const resultsDir = path.join(localDir, 'test-results');
+
+/** The order seed of the shuffled tiers, chosen here so the closing summary can print it. */
+const seed = Number(process.env.TT_TEST_SEED) || Math.floor(Math.random() * 2 ** 31);
 
 function runTier(name, env) {
   const outputFile = path.join(resultsDir, `${name}.json`);
@@ -27,25 +31,21 @@ function runTier(name, env) {
         '--reporter=default',
         '--reporter=json',
         `--outputFile.json=${outputFile}`,
+        `--sequence.seed=${seed}`,
       ],
       { cwd: repoRoot, env: { ...process.env, ...env }, stdio: 'inherit' },
     );
     child.on('exit', (code) => {
-      let passed = 0;
-      let failed = 0;
+      let summary;
       try {
-        const report = JSON.parse(fs.readFileSync(outputFile, 'utf8'));
-        passed = report.numPassedTests;
-        // Failed tests, plus files that failed without a failing test (e.g. an import error).
-        const brokenFiles = report.testResults.filter(
-          (file) => file.status === 'failed' && !file.assertionResults.some((a) => a.status === 'failed'),
-        );
-        failed = report.numFailedTests + brokenFiles.length;
+        summary = summarizeReport(JSON.parse(fs.readFileSync(outputFile, 'utf8')), repoRoot);
       } catch {
-        failed = 1; // the runner died before writing its report
+        summary = { passed: 0, failed: 1, failures: ['the runner died before writing its report'] };
       }
-      if (code !== 0 && failed === 0) failed = 1;
-      resolve({ name, passed, failed });
+      if (code !== 0 && summary.failed === 0) {
+        summary = { ...summary, failed: 1, failures: [`vitest exited with ${code}`] };
+      }
+      resolve({ name, ...summary });
     });
   });
 }
@@ -81,11 +81,23 @@ async function main() {
   fs.mkdirSync(resultsDir, { recursive: true });
   // A broken house rule fails the run, but the tiers still run so every failure is seen at once.
   const lint = await runLint();
-  const results = [{ name: 'lint', passed: lint.filter((c) => c.ok).length, failed: lint.filter((c) => !c.ok).length }];
+  const results = [
+    {
+      name: 'lint',
+      passed: lint.filter((c) => c.ok).length,
+      failed: lint.filter((c) => !c.ok).length,
+      failures: lint.filter((c) => !c.ok).map((c) => c.name),
+    },
+  ];
   for (const tier of tiers) results.push(await runTier(tier, env));
 
   console.log('\nTest tiers:');
-  for (const r of results) console.log(`  ${r.name.padEnd(8)} ${r.passed} passed, ${r.failed} failed`);
+  for (const r of results) {
+    console.log(`  ${r.name.padEnd(8)} ${r.passed} passed, ${r.failed} failed`);
+    for (const failure of r.failures) console.log(`    ✗ ${failure}`);
+  }
+  if (results.some((r) => r.failed > 0))
+    console.log(`  (order seed ${seed}: TT_TEST_SEED=${seed} npm test replays it)`);
   const passed = results.reduce((n, r) => n + r.passed, 0);
   const failed = results.reduce((n, r) => n + r.failed, 0);
   console.log(`${passed} passed, ${failed} failed`);
