@@ -75,9 +75,7 @@ function deskCsvStatement(
            ordered.next_due::text as ${nextRecall},
            greatest(0, coalesce(${today}::date - ordered.next_due, 0))::int as ${overdue},
            ordered.last_exam_on::text as ${lastExam},
-           ${cell(sql`(select string_agg(site.fdi || ': ' || coalesce(site.status, 'not-examined'), '; ' order by site.n)
-             from rows from (json_to_recordset(ordered.sites) as (fdi int, status text)) with ordinality as site (fdi, status, n))`)}
-             as ${sites},
+           ${cell(sql`ordered.sites_text`)} as ${sites},
            nullif(concat_ws('; ', ${risk('pa.smoker', RISK_WORDS.smoker)},
              ${risk('pa.diabetes_poorly_controlled', RISK_WORDS.diabetesPoorlyControlled)},
              ${risk('pa.periodontitis_history', RISK_WORDS.periodontitisHistory)},
