@@ -105,7 +105,8 @@ async function start(build) {
     method: 'POST',
     body: { email: 'ines.calloway@larkspur.example', password: 'ledger-demo-2026' },
   });
-  if (signIn.status !== 200 && signIn.status !== 201) throw new Error(`${build.name}: sign-in answered ${signIn.status}`);
+  if (signIn.status !== 200 && signIn.status !== 201)
+    throw new Error(`${build.name}: sign-in answered ${signIn.status}`);
   return { ...build, child, cookie: String(signIn.headers.get('set-cookie')).split(';')[0] };
 }
 

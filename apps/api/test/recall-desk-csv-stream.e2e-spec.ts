@@ -183,7 +183,7 @@ async function eventually(check: () => Promise<boolean>): Promise<void> {
  */
 const archived = async () => ({
   archivedAt: new Date(),
-  archivedBy: (await ctx.db.execute<{ id: string }>(sql`select id from users order by email limit 1`)).rows[0]!.id,
+  archivedBy: (await ctx.db.execute<{ id: string }>(sql`select id from users order by email limit 1`)).rows[0].id,
   archiveReason: 'test',
 });
 
@@ -193,7 +193,7 @@ const larkspurId = async () =>
     await ctx.db.execute<{ practice_id: string }>(
       sql`select practice_id from patients where id = ${await patientId(ctx.db, 'LL-1001')}`,
     )
-  ).rows[0]!.practice_id;
+  ).rows[0].practice_id;
 
 describe('copyOut (the export written by PostgreSQL)', () => {
   it('hands over the bytes as PostgreSQL writes them and gives the connection back at their end', async () => {

@@ -63,8 +63,8 @@ function deskCsvStatement(
   withContact: boolean,
 ): SQL {
   const order = deskOrder(scope, today, q, limit);
-  const [chart, patient, phone, email, nextRecall, overdue, lastExam, sites, risks] = deskCsvColumns(true).map(
-    (name) => sql.identifier(name),
+  const [chart, patient, phone, email, nextRecall, overdue, lastExam, sites, risks] = deskCsvColumns(true).map((name) =>
+    sql.identifier(name),
   );
   const risk = (column: string, word: string) => sql`case when ${sql.raw(column)} then ${word} end`;
   return sql`

@@ -28,8 +28,10 @@ export class DeskService {
       limit: q.pageSize,
       offset: (q.page - 1) * q.pageSize,
     });
-    // The desk on screen shows no contact details: they go to the CSV only, to call or write to the patient.
-    const items = sharedLeastPrivilege(ability, scope, rows).map(({ contact: _contact, ...row }) => row);
+    // The desk on screen shows no contact details: they go to the CSV only, to call or write to the
+    // patient, so their field rules are not even asked (a CASL field check per row was a tenth of
+    // the page's API time).
+    const items = sharedLeastPrivilege(ability, scope, rows, { contact: false });
     return { items, total, page: q.page, pageSize: q.pageSize, today };
   }
 
@@ -150,15 +152,22 @@ const ownContact = (ability: AppAbility, scope: Scope, patientId: string) =>
  * A shared patient's row as the share's CASL rules allow (issue 12): only the sites whose exams the
  * share opens (none: the row is left out) and the risk factors only where the patient's field
  * rules name them. Rows of the user's own practice pass whole. Contact details (phone, e-mail)
- * follow the same field rules, for every row.
+ * follow the same field rules, for every row, and only where asked for (`contact`: the CSV).
  */
-function sharedLeastPrivilege(ability: AppAbility, scope: Scope, rows: DeskRowWithContact[]): VisibleDeskRow[] {
+function sharedLeastPrivilege(
+  ability: AppAbility,
+  scope: Scope,
+  rows: DeskRowWithContact[],
+  { contact: askContact }: { contact: boolean } = { contact: true },
+): VisibleDeskRow[] {
   const shared = new Set(scope.sharedPatientIds);
   return rows.flatMap(({ phone, email, ...row }) => {
     const own = !shared.has(row.patientId);
-    if (own) return [ownContact(ability, scope, row.patientId) ? { ...row, contact: { phone, email } } : row];
+    if (own) {
+      return [askContact && ownContact(ability, scope, row.patientId) ? { ...row, contact: { phone, email } } : row];
+    }
     const fields = readableFields(ability, 'Patient', { id: row.patientId });
-    const contact = mayReadContact(fields);
+    const contact = askContact && mayReadContact(fields);
     const withContact = (r: RecallDeskRow): VisibleDeskRow => (contact ? { ...r, contact: { phone, email } } : r);
     const sites = row.sites.filter((s) =>
       ability.can('read', subject('RecallExam', { patientId: row.patientId, siteId: s.siteId })),
