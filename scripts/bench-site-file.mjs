@@ -373,13 +373,18 @@ async function measureDatabase(side, { withFloor }) {
         (s) => /recall_summaries|"recalls"|recalls\b/.test(s.text) && /^\s*(select|with)/i.test(s.text),
       );
     }
-    // The export's statement, as its cursor declared it.
+    // The export's statement: the query inside the COPY that writes the CSV (its values are written
+    // in), or, for a build from before session 10, as its cursor declared it.
     const from = fs.statSync(captureFile).size;
     await request(port, CSV_URL, { cookie });
     await new Promise((r) => setTimeout(r, 100));
-    out.deskSql['CSV export'] = readCapture(captureFile, from)
-      .filter((s) => /^declare batch_rows no scroll cursor for /i.test(s.text))
-      .map((s) => ({ ...s, text: s.text.replace(/^declare batch_rows no scroll cursor for /i, '') }));
+    const copyText = /^copy \(([\s\S]*)\) to stdout with \([^)]*\)$/i;
+    const cursorText = /^declare batch_rows no scroll cursor for /i;
+    out.deskSql['CSV export'] = readCapture(captureFile, from).flatMap((s) => {
+      if (copyText.test(s.text)) return [{ ...s, text: copyText.exec(s.text)[1], asCursor: false }];
+      if (cursorText.test(s.text)) return [{ ...s, text: s.text.replace(cursorText, ''), asCursor: true }];
+      return [];
+    });
     if (args.replies) {
       fs.mkdirSync(args.replies, { recursive: true });
       for (const url of COMPARED) {

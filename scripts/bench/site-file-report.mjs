@@ -23,9 +23,10 @@ export async function explainDesk(connectionString, deskSql, dir) {
     for (const [name, statements] of Object.entries(deskSql)) {
       const parts = [];
       for (const s of statements) {
-        // The export runs as a cursor, which PostgreSQL plans for its first rows
-        // (cursor_tuple_fraction): explained as the cursor it is, read to its end.
-        const cursor = name === 'CSV export';
+        // The export ran as a cursor before session 10, which PostgreSQL plans for its first rows
+        // (cursor_tuple_fraction): explained as the cursor it was, read to its end. Since session 10
+        // it is the query of a COPY, planned as a plain statement.
+        const cursor = s.asCursor === true;
         if (cursor) await client.query('begin read only');
         const plan = await client.query({
           text: `explain (analyze, buffers) ${cursor ? 'declare batch_rows no scroll cursor for ' : ''}${s.text}`,

@@ -2,7 +2,8 @@
 // desk shows, in the write's own transaction: a test per write path that makes the write over HTTP
 // and reads the desk after it. After each, every patient's summary row is also compared with the
 // same values computed from the sources the slow way (the desk's former per-patient subqueries),
-// so a write path that leaves the summary stale fails here, whichever column it would leave behind.
+// so a write path that leaves the summary stale fails here, whichever column it would leave behind
+// (the CSV's sites text, a generated column, included).
 import { sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { RecallClock } from '../src/recalls/recall-clock.js';
@@ -58,7 +59,8 @@ async function staleSummaries(): Promise<unknown[]> {
     select pa.id, pa.chart_number, rs.patient_id is null as missing from patients pa
     left join recall_summaries rs on rs.patient_id = pa.id
     where rs.patient_id is null or (rs.practice_id, rs.family_name, rs.given_name, rs.archived, rs.on_desk, rs.next_due,
-            rs.last_exam_on, rs.prior_peri_implantitis, rs.peri_implantitis_last, rs.provisional_due, rs.sites::text)
+            rs.last_exam_on, rs.prior_peri_implantitis, rs.peri_implantitis_last, rs.provisional_due, rs.sites::text,
+            rs.sites_text)
       is distinct from (pa.practice_id, pa.family_name, pa.given_name, pa.archived_at is not null,
         exists (select 1 from implant_sites s where s.patient_id = pa.id and s.status in ('placed', 'restored')),
         (select min(r.due_on) from recalls r where r.patient_id = pa.id and r.status = 'scheduled'),
@@ -78,7 +80,15 @@ async function staleSummaries(): Promise<unknown[]> {
             order by x.examined_on desc, x.recorded_at desc limit 1
           ) e on true
           where s.patient_id = pa.id and s.status in ('placed', 'restored')
-        ), '[]'::json)::text)`),
+        ), '[]'::json)::text,
+        -- The export's cell (sites_text, migration 0040): each site's latest status by FDI, or not-examined.
+        (select coalesce(string_agg(s.fdi || ': ' || coalesce(e.status::text, 'not-examined'), '; ' order by s.fdi), '')
+          from implant_sites s
+          left join lateral (
+            select x.status from recall_exams x where x.site_id = s.id and ${current('x')}
+            order by x.examined_on desc, x.recorded_at desc limit 1
+          ) e on true
+          where s.patient_id = pa.id and s.status in ('placed', 'restored')))`),
   );
   return rows;
 }

@@ -122,8 +122,7 @@ function deskStatement(
 ): SQL {
   const order = deskOrder(scope, today, q, page.offset + page.limit);
   // The CSV: a shared patient's sites as JSON (the share's rules filter them, desk.service.ts),
-  // every other row's as the CSV cell's text, in the JSON's order, a site without an exam as
-  // toDeskRow names it.
+  // every other row's as the CSV cell's text, kept in the summary (sites_text, desk_sites_text).
   const shared =
     scope.sharedPatientIds.length > 0
       ? sql`page.patient_id in (${sql.join(
@@ -132,10 +131,7 @@ function deskStatement(
         )})`
       : sql`false`;
   const forCsv = sql`case when ${shared} then page.sites else '[]'::json end as sites,
-           case when ${shared} then null else coalesce((
-             select string_agg(site.fdi || ': ' || coalesce(site.status, 'not-examined'), '; ' order by site.n)
-             from rows from (json_to_recordset(page.sites) as (fdi int, status text)) with ordinality as site (fdi, status, n)
-           ), '') end as sites_text`;
+           case when ${shared} then null else page.sites_text end as sites_text`;
   const onScreen = sql`,
            case when page.provisional_due < ${today}::date then coalesce((
              select json_agg(json_build_object('restorationId', rp.id, 'plannedReplacementOn', rp.planned_replacement_on,

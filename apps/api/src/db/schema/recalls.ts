@@ -210,6 +210,14 @@ export const recallSummaries = pgTable(
     sites: json('sites')
       .notNull()
       .default(sql`'[]'::json`),
+    /**
+     * The sites as the CSV export's cell writes them ("fdi: status; …", `not-examined` for a site
+     * never examined), kept by PostgreSQL from `sites` (desk_sites_text, migration
+     * `0040_desk-sites-text`): the export reads it instead of parsing every row's JSON (issue 13).
+     */
+    sitesText: text('sites_text')
+      .notNull()
+      .generatedAlwaysAs(sql`public.desk_sites_text(sites)`),
   },
   (t) => {
     const onDesk = sql`${t.onDesk}`;
