@@ -17,6 +17,7 @@ import { benchEnv, ownerUrl, prepareDemoDatabase } from '../lib/bench-databases.
 import { waitForPort } from '../lib/proc.mjs';
 import { startServices } from '../services.mjs';
 import { aggregate } from './cpu-profile-by-package.mjs';
+import { aggregateHeap } from './heap-profile-by-package.mjs';
 
 const { values: args } = parseArgs({
   options: {
@@ -26,11 +27,14 @@ const { values: args } = parseArgs({
     connections: { type: 'string', default: '8' },
     rounds: { type: 'string', default: '3' },
     profile: { type: 'boolean', default: false },
+    'profile-kind': { type: 'string', default: 'cpu' },
     reuse: { type: 'boolean', default: false },
     out: { type: 'string', default: path.join(repoRoot, '.local', 'bench', 'api-cpu') },
   },
 });
 const DB = 'torquetrail_bench_demo';
+const HEAP = args['profile-kind'] === 'heap';
+const EXT = HEAP ? 'heapprofile' : 'cpuprofile';
 const BASE_PORT = 3000 + (Number(process.env.PORT ?? 3000) % 1000) + 1000;
 const REQUESTS = Number(args.requests);
 const CONNECTIONS = args.connections.split(',').map(Number);
@@ -76,6 +80,9 @@ const ENDPOINTS = {
   timeline: `/api/sites/${target.site}/timeline`,
   exams: `/api/recalls/sites/${target.site}/exams`,
   radiographs: `/api/patients/${target.patient}/radiographs`,
+  // The pipeline's fixed cost, for comparison: the session's user only (and its audit row), and no session at all.
+  me: '/api/auth/me',
+  health: '/api/health/live',
 };
 const endpoints = args.endpoints.split(',').map((name) => [name, ENDPOINTS[name]]);
 
@@ -100,7 +107,8 @@ async function start(variant, port) {
     COOKIE_SECURE: 'false',
     WEB_DIST: path.join(repoRoot, 'apps/web/dist'),
     PORT: String(port),
-    TT_CPU_PROFILE: path.join(args.out, `${variant.name}.cpuprofile`),
+    TT_CPU_PROFILE: path.join(args.out, `${variant.name}.${EXT}`),
+    TT_PROFILE_KIND: args['profile-kind'],
   };
   const preload = ['--import', path.join(repoRoot, 'scripts/bench/profile-on-signal.mjs')];
   const child = spawn(process.execPath, [...variant.flags, ...preload, path.join(variant.dist, 'main.js')], {
@@ -181,8 +189,8 @@ try {
   if (args.profile) {
     for (const [name, url] of endpoints) {
       for (const side of sides) {
-        const file = path.join(args.out, `${side.name}-${name}.cpuprofile`);
-        const written = path.join(args.out, `${side.name}.cpuprofile`);
+        const file = path.join(args.out, `${side.name}-${name}.${EXT}`);
+        const written = path.join(args.out, `${side.name}.${EXT}`);
         fs.rmSync(written, { force: true });
         side.child.kill('SIGWINCH');
         await new Promise((r) => setTimeout(r, 300));
@@ -195,6 +203,24 @@ try {
         for (let i = 0; i < 100 && !fs.existsSync(written); i += 1) await new Promise((r) => setTimeout(r, 100));
         await new Promise((r) => setTimeout(r, 300));
         fs.renameSync(written, file);
+        if (HEAP) {
+          const h = aggregateHeap(JSON.parse(fs.readFileSync(file, 'utf8')));
+          const kb = (bytes) => (bytes / 1024 / result.requests.total).toFixed(1);
+          console.log(
+            `\n== ${side.name}, ${name}: ${result.requests.total} requests, ${kb(h.totalBytes)} KB allocated a request`,
+          );
+          console.log(
+            'KB/request: ' +
+              h.packages
+                .slice(0, 14)
+                .map(([k, b]) => `${k} ${kb(b)}`)
+                .join(', '),
+          );
+          console.log(
+            `  (node scripts/bench/heap-profile-by-package.mjs ${path.relative(repoRoot, file)} --requests ${result.requests.total})`,
+          );
+          continue;
+        }
         const a = aggregate(JSON.parse(fs.readFileSync(file, 'utf8')));
         const perRequest = (ms) => ((ms * 1000) / result.requests.total).toFixed(0);
         console.log(

@@ -3,7 +3,7 @@
 // them up per package or API feature folder:
 //   1. self time by package: node_modules/<pkg>, api:<feature> (apps/api/dist/<feature>/),
 //      @torquetrail/<pkg>, node:<module>, (garbage collector); a native frame (no script, e.g.
-//      `writev`) counts for the package that called it, marked "(native)";
+//      `writev`) counts for the package that called it, marked "(native <name>)";
 //   2. inclusive time of the top frames: for every function, package and API feature, the samples
 //      with it anywhere on the stack (each counted once however deep it recurses), so a
 //      library's whole cost shows however many small functions it spreads it over.
@@ -13,6 +13,7 @@ import fs from 'node:fs';
 import { parseArgs } from 'node:util';
 
 const EXCLUDED = new Set(['(program)', '(idle)', '(root)']);
+const NATIVE = / \(native [^)]*\)$/;
 
 /** The package or feature a script URL belongs to. */
 export function packageOf(url) {
@@ -52,8 +53,9 @@ export function aggregate(profile) {
       if (own) value = own;
       else {
         const up = parent.get(id);
-        const callers = up === undefined ? '(native)' : categoryOf(up).replace(/ \(native\)$/, '');
-        value = EXCLUDED.has(callers) ? '(native, no caller)' : `${callers} (native)`;
+        const callers = up === undefined ? '(native)' : categoryOf(up).replace(NATIVE, '');
+        // Named: a system call such as `writev` is wall-clock time on a loaded machine, not CPU.
+        value = EXCLUDED.has(callers) ? `(native ${name})` : `${callers} (native ${name || 'code'})`;
       }
     }
     category.set(id, value);
@@ -88,7 +90,7 @@ export function aggregate(profile) {
       const node = byId.get(id);
       if (EXCLUDED.has(node.callFrame.functionName)) continue;
       fns.add(fnKey(node));
-      pkgs.add(categoryOf(id).replace(/ \(native\)$/, ''));
+      pkgs.add(categoryOf(id).replace(NATIVE, ''));
     }
     for (const f of fns) add(inclusiveFn, f, ms);
     for (const p of pkgs) add(inclusivePkg, p, ms);

@@ -15,12 +15,27 @@ if (file) {
     new Promise((resolve, reject) =>
       session.post(method, params, (error, result) => (error ? reject(error) : resolve(result))),
     );
+  // TT_PROFILE_KIND=heap samples allocations instead (every 32 KB allocated, those the GC has
+  // already collected included): what the request allocates is what the collector then costs.
+  const heap = process.env.TT_PROFILE_KIND === 'heap';
   process.on('SIGWINCH', () => {
-    const step = running
-      ? post('Profiler.stop').then(({ profile }) => fs.writeFileSync(file, JSON.stringify(profile)))
-      : post('Profiler.enable')
-          .then(() => post('Profiler.setSamplingInterval', { interval: Number(process.env.TT_CPU_PROFILE_US ?? 500) }))
-          .then(() => post('Profiler.start'));
+    const step = heap
+      ? running
+        ? post('HeapProfiler.stopSampling').then(({ profile }) => fs.writeFileSync(file, JSON.stringify(profile)))
+        : post('HeapProfiler.enable').then(() =>
+            post('HeapProfiler.startSampling', {
+              samplingInterval: 32768,
+              includeObjectsCollectedByMajorGC: true,
+              includeObjectsCollectedByMinorGC: true,
+            }),
+          )
+      : running
+        ? post('Profiler.stop').then(({ profile }) => fs.writeFileSync(file, JSON.stringify(profile)))
+        : post('Profiler.enable')
+            .then(() =>
+              post('Profiler.setSamplingInterval', { interval: Number(process.env.TT_CPU_PROFILE_US ?? 500) }),
+            )
+            .then(() => post('Profiler.start'));
     running = !running;
     step.catch((error) => console.error(`[cpu-profile] ${error.message}`));
   });
