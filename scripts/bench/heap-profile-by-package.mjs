@@ -46,7 +46,7 @@ if (import.meta.url === `file://${process.argv[1]}`) {
     ['by package / API feature', result.packages],
     ['by function', result.functions],
   ]) {
-    console.log(`\nAllocated, ${title}\n| # | what | allocated | share |\n|---|---|---|---|`);
+    console.log(`\nAllocated, ${String(title)}\n| # | what | allocated | share |\n|---|---|---|---|`);
     rows
       .slice(0, Number(values.top))
       .forEach(([key, bytes], i) =>

@@ -65,9 +65,9 @@ describe('compileRowMapper', () => {
       expect(JSON.stringify(actual)).toBe(JSON.stringify(expected));
     }
     // The cases above are the ones that matter: a null join and a kept one.
-    expect(mapped(ROWS[1]!)).toMatchObject({ c: null, o: { id: 'o2', label: null } });
-    expect(mapped(ROWS[2]!)).toMatchObject({ c: null, o: null, count: 1 });
-    expect(mapped(ROWS[0]!).p).toMatchObject({ createdAt: new Date('2026-12-03T07:00:00.123Z'), amount: '12.50' });
+    expect(mapped(ROWS[1])).toMatchObject({ c: null, o: { id: 'o2', label: null } });
+    expect(mapped(ROWS[2])).toMatchObject({ c: null, o: null, count: 1 });
+    expect(mapped(ROWS[0]).p).toMatchObject({ createdAt: new Date('2026-12-03T07:00:00.123Z'), amount: '12.50' });
   });
 
   it('is installed on a prepared select, and leaves a query that maps its own rows alone', () => {

@@ -35,11 +35,11 @@ export function compileRowMapper(
           : f.sql!.decoder;
     return {
       parents: path.slice(0, -1),
-      key: path[path.length - 1]!,
+      key: path[path.length - 1],
       decoder,
       // Only a table's own column, two levels deep, says whether its join found a row (Drizzle's rule).
-      joined: joinsNotNullableMap && isColumn && path.length === 2 ? getTableName((field as Column).table) : null,
-      objectName: path[0]!,
+      joined: joinsNotNullableMap && isColumn && path.length === 2 ? getTableName(field.table) : null,
+      objectName: path[0],
     };
   });
   return (row) => {
@@ -47,7 +47,7 @@ export function compileRowMapper(
     const nullify: Record<string, string | false> = {};
     let anyJoined = false;
     for (let i = 0; i < columns.length; i += 1) {
-      const column = columns[i]!;
+      const column = columns[i];
       let node = result;
       for (const chunk of column.parents) {
         if (!(chunk in node)) node[chunk] = {};
