@@ -137,12 +137,13 @@ describe('lot look-up', () => {
         throw rollback;
       }),
     ).rejects.toBe(rollback);
+    // Printed before the checks, so a failing run's log shows the plan the planner chose.
+    console.info(`[explain] lot look-up by lot:\n${plans.lot}\n[explain] by part:\n${plans.part}`);
     expect(plans.lot).toContain('placements_practice_lot_idx');
     expect(plans.lot).toContain('component_instances_practice_lot_idx');
     expect(plans.gtin).toContain('placements_practice_gtin_idx');
     expect(plans.part).toContain('component_instances_component_idx');
     for (const plan of Object.values(plans)) expect(plan).not.toMatch(/Seq Scan on (placements|component_instances)/);
-    console.info(`[explain] lot look-up by lot:\n${plans.lot}\n[explain] by part:\n${plans.part}`);
   });
 });
 

@@ -15,10 +15,10 @@ export async function findVisibleSite(db: Db, scope: Scope, siteId: string) {
   return row ?? null;
 }
 
-/** A part instance of the given site (current or removed). */
+/** A part instance of the given site (current or removed), and whether it was entered in error. */
 export async function findPartAtSite(db: Db, siteId: string, componentInstanceId: string) {
   const [row] = await db
-    .select({ id: componentInstances.id })
+    .select({ id: componentInstances.id, enteredInErrorAt: componentInstances.enteredInErrorAt })
     .from(componentInstances)
     .where(and(eq(componentInstances.id, componentInstanceId), eq(componentInstances.siteId, siteId)));
   return row ?? null;

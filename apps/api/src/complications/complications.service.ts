@@ -18,8 +18,11 @@ export class ComplicationsService {
 
   private async checkPart(siteId: string, componentInstanceId: string | null) {
     if (!componentInstanceId) return;
-    if (!(await repo.findPartAtSite(this.db, siteId, componentInstanceId)))
-      throw fieldError({ componentInstanceId: 'Not a part at this site' });
+    const part = await repo.findPartAtSite(this.db, siteId, componentInstanceId);
+    if (!part) throw fieldError({ componentInstanceId: 'Not a part at this site' });
+    // A part entered in error was never fitted: nothing can have happened to it.
+    if (part.enteredInErrorAt)
+      throw fieldError({ componentInstanceId: 'This part was entered in error: choose the part that was fitted' });
   }
 
   private checkDate(occurredOn: string) {

@@ -5,6 +5,7 @@
 import { sql, type SQL } from 'drizzle-orm';
 import type { LotItemKind, LotLookupRow } from '@torquetrail/contracts';
 import type { Db } from '../db/database.js';
+import { partWasFittedSql } from '../db/parts-in-place.js';
 
 /** What to match; null fields are not asked about. A UDI gives a GTIN and usually a lot. */
 export interface LotCriteria {
@@ -25,7 +26,8 @@ export function lotLookupSql(practiceId: string, c: LotCriteria): SQL {
   // reference code for an implant body), and a GTIN only implants (parts carry no GTIN here).
   const askImplants = c.part === null;
   const askParts = c.gtin === null && (c.lot !== null || c.part !== null);
-  const partWhere: SQL[] = [sql`ci.practice_id = ${practiceId}`];
+  // A part entered in error was never in the mouth: it is no one's part to trace.
+  const partWhere: SQL[] = [sql`ci.practice_id = ${practiceId}`, partWasFittedSql('ci')];
   if (c.lot !== null) partWhere.push(sql`ci.lot = ${c.lot}`);
   if (c.part !== null)
     partWhere.push(

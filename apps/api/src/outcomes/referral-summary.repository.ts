@@ -6,6 +6,7 @@ import { visiblePatients } from '../authz/visible-patients.js';
 import type { Scope } from '../authz/scope.js';
 import type { Db, Tx } from '../db/database.js';
 import { liveShare } from '../db/live-share.js';
+import { partInPlaceSql } from '../db/parts-in-place.js';
 import { patientShares, patients, practices, referralSummaryMails, users } from '../db/schema/index.js';
 
 export async function findVisiblePatient(db: Db, scope: Scope, id: string) {
@@ -130,7 +131,7 @@ export async function partsInPlace(db: Db, siteIds: readonly string[]) {
      where ci.site_id in (${sql.join(
        siteIds.map((id) => sql`${id}::uuid`),
        sql`, `,
-     )}) and ci.removed_on is null
+     )}) and ${partInPlaceSql('ci')}
      order by ci.installed_on`);
   return result.rows;
 }

@@ -1,6 +1,6 @@
 import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
-import { partInPlace } from '../db/parts-in-place.js';
+import { partInPlace, partWasFitted } from '../db/parts-in-place.js';
 import type { Db, Tx } from '../db/database.js';
 import { isCurrentVersion } from '../db/amendments.js';
 import {
@@ -225,7 +225,13 @@ export async function partLotsOfRestorations(db: Db, restorationIds: string[]) {
       lot: componentInstances.lot,
     })
     .from(componentInstances)
-    .where(and(inArray(componentInstances.restorationId, restorationIds), sql`${componentInstances.lot} is not null`));
+    .where(
+      and(
+        inArray(componentInstances.restorationId, restorationIds),
+        partWasFitted(),
+        sql`${componentInstances.lot} is not null`,
+      ),
+    );
 }
 
 /** The scan files of the given restorations (every upload is kept), oldest first. */

@@ -11,7 +11,13 @@ import * as repo from './torque.repository.js';
 const FUTURE_SLACK_MS = 5 * 60_000;
 
 /** A part already removed is refused, its removal date in the signed-in user's practice's order. */
-export function assertInPlace(part: { removedOn: string | null }, dateFormat: DateFormat) {
+export function assertInPlace(
+  part: { removedOn: string | null; enteredInErrorAt: Date | null },
+  dateFormat: DateFormat,
+) {
+  // A part entered in error was never fitted (parts-in-place.ts).
+  if (part.enteredInErrorAt)
+    throw new ConflictException('This part was entered in error; log the torque on the part in place');
   if (part.removedOn)
     throw new ConflictException(
       `This part was removed on ${datePrinter(dateFormat).date(part.removedOn)}; log the torque on the part in place`,

@@ -34,6 +34,7 @@ export async function findVisibleInstance(db: Db, scope: Scope, id: string) {
       restorationId: componentInstances.restorationId,
       currentComponentId: components.id,
       removedOn: componentInstances.removedOn,
+      enteredInErrorAt: componentInstances.enteredInErrorAt,
       name: components.name,
       torqueSpecNcm: components.torqueSpecNcm,
       tolerancePct: components.tolerancePct,
