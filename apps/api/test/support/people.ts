@@ -1,7 +1,9 @@
 // Helpers for the people and sign-in tests: throwaway accounts and the links caught by the SMTP catcher.
 import { randomUUID } from 'node:crypto';
 import { eq } from 'drizzle-orm';
+import pg from 'pg';
 import { users } from '../../src/db/schema/index.js';
+import { hashLinkToken } from '../../src/people/link-token.js';
 import { DEMO_PASSWORD } from '../../src/seed/demo-scenario.js';
 import { until } from './recalls.js';
 import { ACCOUNTS, type TestContext } from './test-app.js';
@@ -62,5 +64,28 @@ export async function linkMailedTo(email: string, n = 1, ms = 30_000) {
   const mail = await until(async () => (await mailsTo(email))[n - 1], ms);
   const match = /(https?:\/\/\S+?)\/(welcome|reset-password)#token=([A-Za-z0-9_-]+)/.exec(mail.text);
   if (!match) throw new Error(`no link in the mail to ${email}: ${mail.text}`);
+  await linkStored(match[3]);
   return { mail, origin: match[1], page: match[2], token: match[3] };
+}
+
+let pool: pg.Pool | undefined;
+
+/**
+ * Waits (up to 5 s) until the link's token hash is stored. The API stores it just after SMTP
+ * accepts the mail, in the same transaction (account-mail.service.ts), so a test that reads the mail
+ * can be a few milliseconds ahead of the commit: on a loaded machine the invitation row still had no
+ * hash (CI, stop 24). A link that is never stored (a test of a failed commit) is returned all the same.
+ */
+async function linkStored(token: string, ms = 5_000): Promise<void> {
+  pool ??= new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 1, allowExitOnIdle: true });
+  const hash = hashLinkToken(token);
+  const end = Date.now() + ms;
+  while (Date.now() < end) {
+    const found = await pool.query(
+      'select 1 from invitations where token_hash = $1 union all select 1 from password_resets where token_hash = $1',
+      [hash],
+    );
+    if ((found.rowCount ?? 0) > 0) return;
+    await new Promise((r) => setTimeout(r, 50));
+  }
 }
