@@ -3,7 +3,6 @@
 // e-mail to the lab attaches small scan files and, above LAB_MAIL_ATTACHMENT_LIMIT_BYTES, carries
 // one time-limited signed link per file instead (refused once expired, and when altered).
 import { and, eq } from 'drizzle-orm';
-import { PDFParse } from 'pdf-parse';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { auditEvents } from '../src/db/schema/index.js';
 import { LAB_MAIL_ATTACHMENT_LIMIT_BYTES, signLabFileLink } from '../src/impressions/lab-file-link.js';
@@ -12,6 +11,8 @@ import { until } from './support/recalls.js';
 import { actorCookies } from './support/role-matrix.js';
 import { scenarioTargets } from './support/scenario-targets.js';
 import { type AccountKey, startTestApp, testEnv, type TestContext } from './support/test-app.js';
+import { replyBytes } from './support/reply-bytes.js';
+import { pdfText } from './support/pdf-text.js';
 
 interface CaughtMail {
   headers: Record<string, string>;
@@ -31,14 +32,6 @@ beforeAll(async () => {
 afterAll(() => ctx.close());
 
 /** The reply's bytes (superagent's parser signature). */
-const binary = (
-  r: { on: (e: string, f: (c?: Buffer) => void) => void },
-  done: (e: Error | null, b: Buffer) => void,
-) => {
-  const chunks: Buffer[] = [];
-  r.on('data', (c) => chunks.push(c!));
-  r.on('end', () => done(null, Buffer.concat(chunks)));
-};
 
 /** A plan for Wendell's 15 and 16 with a lab address, its digital impression and the files given. */
 async function digitalPlan(files: [Buffer, string][]) {
@@ -83,15 +76,6 @@ async function digitalPlan(files: [Buffer, string][]) {
   return plan.body.id as string;
 }
 
-const pdfText = async (pdf: Buffer) => {
-  const parser = new PDFParse({ data: pdf });
-  try {
-    return (await parser.getText()).text.replace(/\s+/g, ' ');
-  } finally {
-    await parser.destroy();
-  }
-};
-
 /** Asks for the prescription to be e-mailed and waits for the mail the catcher received. */
 async function mailToLab(restorationId: string): Promise<CaughtMail> {
   const made = await ctx.http
@@ -129,7 +113,7 @@ describe('the impression on the lab prescription', () => {
       .get(`/api/lab-prescriptions/${made.body.id}/pdf`)
       .set('Cookie', cookies.dentist)
       .buffer(true)
-      .parse(binary as never);
+      .parse(replyBytes);
     const text = await pdfText(res.body as Buffer);
     expect(text).toContain('Impression: digital (intraoral scan), taken 24 Nov 2026');
     expect(text).toMatch(/Scan body at 15 \(FDI\) \/ 4: Scan body, hand-tight \[[^\]]+-SB\], lot SB-LAB-15/);
@@ -153,7 +137,7 @@ describe('the impression on the lab prescription', () => {
       .get(`/api/lab-prescriptions/${made.body.id}/pdf`)
       .set('Cookie', cookies.dentist)
       .buffer(true)
-      .parse(binary as never);
+      .parse(replyBytes);
     const text = await pdfText(res.body as Buffer);
     expect(text).toMatch(/Scan body at 15 \(FDI\) \/ 4: .*lot SB-LAB-15, marked in the scan file/);
     // 16 has no marker: nothing is said of it.
@@ -179,10 +163,7 @@ describe('the impression on the lab prescription', () => {
     expect(link, mail.text).not.toBeNull();
     const [, path, token] = link!;
 
-    const got = await ctx.http
-      .get(path)
-      .buffer(true)
-      .parse(binary as never);
+    const got = await ctx.http.get(path).buffer(true).parse(replyBytes);
     expect(got.status).toBe(200);
     expect((got.body as Buffer).length).toBe(large.length);
     expect(got.headers['content-disposition']).toContain('full-arch-scan.stl');

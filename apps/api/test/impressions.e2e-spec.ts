@@ -6,6 +6,7 @@ import { larkspurId, parts } from './support/ledger-fixtures.js';
 import { actorCookies } from './support/role-matrix.js';
 import { scenarioTargets } from './support/scenario-targets.js';
 import { type AccountKey, startTestApp, type TestContext } from './support/test-app.js';
+import { replyBytes } from './support/reply-bytes.js';
 
 let ctx: TestContext;
 let cookies: Record<AccountKey, string>;
@@ -173,11 +174,7 @@ describe('a digital impression', () => {
       .get(`/api/scan-files/${listed.scanFiles[0].id}/file`)
       .set('Cookie', cookies.dentist)
       .buffer(true)
-      .parse((r, done) => {
-        const chunks: Buffer[] = [];
-        r.on('data', (c: Buffer) => chunks.push(c));
-        r.on('end', () => done(null, Buffer.concat(chunks)));
-      });
+      .parse(replyBytes);
     const bytes = file.body as Buffer;
     // A binary STL: as long as its triangle count says.
     expect(bytes.length).toBe(84 + 50 * bytes.readUInt32LE(80));

@@ -1,6 +1,5 @@
 // The lab prescription PDF: generated with pdfkit, stored in S3, parsed back with pdf-parse to
 // check it holds the component chain, and e-mailed to the lab through the SMTP catcher.
-import { PDFParse } from 'pdf-parse';
 import { eq, sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { labPrescriptions, placements, practices } from '../src/db/schema/index.js';
@@ -8,6 +7,8 @@ import { larkspurId, parts } from './support/ledger-fixtures.js';
 import type { LabPrescriptionSummary } from '@torquetrail/contracts';
 import { until } from './support/recalls.js';
 import { patientId, signIn, siteId, startTestApp, type TestContext } from './support/test-app.js';
+import { replyBytes } from './support/reply-bytes.js';
+import { pdfText } from './support/pdf-text.js';
 
 interface CaughtLabMail {
   headers: Record<string, string>;
@@ -51,15 +52,6 @@ beforeAll(async () => {
 });
 afterAll(() => ctx.close());
 
-const text = async (pdf: Buffer) => {
-  const parser = new PDFParse({ data: pdf });
-  try {
-    return (await parser.getText()).text.replace(/\s+/g, ' ');
-  } finally {
-    await parser.destroy();
-  }
-};
-
 describe('lab prescription', () => {
   it('holds the practice, the patient by chart number and initials only, both numberings and the full component chain', async () => {
     const made = await ctx.http.post(`/api/restorations/${planId}/lab-prescriptions`).set('Cookie', dentist).send({});
@@ -72,14 +64,10 @@ describe('lab prescription', () => {
       .get(`/api/lab-prescriptions/${made.body.id}/pdf`)
       .set('Cookie', dentist)
       .buffer(true)
-      .parse((r, cb) => {
-        const chunks: Buffer[] = [];
-        r.on('data', (c: Buffer) => chunks.push(c));
-        r.on('end', () => cb(null, Buffer.concat(chunks)));
-      });
+      .parse(replyBytes);
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toBe('application/pdf');
-    const body = await text(res.body as Buffer);
+    const body = await pdfText(res.body as Buffer);
     expect(body).toContain('Larkspur Lane Dental');
     expect(body).toContain('LL-1005 (W. A.)');
     expect(body).not.toContain('Achterberg');

@@ -5,11 +5,12 @@
 // parts it reads). A file of its own: it logs a change dated today at Beatrix's 33, which would move
 // the review dates other files compute from the seed.
 import { sql } from 'drizzle-orm';
-import { PDFParse } from 'pdf-parse';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { RecallClock } from '../src/recalls/recall-clock.js';
 import { larkspurId, parts } from './support/ledger-fixtures.js';
 import { patientId, signInAll, siteId, startTestApp, type AccountKey, type TestContext } from './support/test-app.js';
+import { replyBytes } from './support/reply-bytes.js';
+import { pdfText } from './support/pdf-text.js';
 
 let ctx: TestContext;
 let cookies: Record<AccountKey, string>;
@@ -38,20 +39,9 @@ const catalogue = async (componentId: string) =>
   ).rows[0];
 
 const referralSummaryText = async () => {
-  const res = await get(`/api/patients/${beatrix}/referral-summary/pdf`)
-    .buffer(true)
-    .parse((r, cb) => {
-      const chunks: Buffer[] = [];
-      r.on('data', (c: Buffer) => chunks.push(c));
-      r.on('end', () => cb(null, Buffer.concat(chunks)));
-    });
+  const res = await get(`/api/patients/${beatrix}/referral-summary/pdf`).buffer(true).parse(replyBytes);
   expect(res.status).toBe(200);
-  const parser = new PDFParse({ data: res.body as Buffer });
-  try {
-    return (await parser.getText()).text.replace(/\s+/g, ' ');
-  } finally {
-    await parser.destroy();
-  }
+  return pdfText(res.body as Buffer);
 };
 
 describe('a part entered in error is nowhere taken for a fitted part', () => {

@@ -3,12 +3,13 @@
 // and used by the documents the practice prints. Sources for the orders: ISO 8601-1:2019 §5.2.2
 // (year-month-day); day/month/year in the UK, month/day/year in the US [common practice].
 import { and, desc, eq } from 'drizzle-orm';
-import { PDFParse } from 'pdf-parse';
 import { writeCalendarDate } from '@torquetrail/contracts';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { auditEvents, patients } from '../src/db/schema/index.js';
 import { all, describeRoleMatrix } from './support/role-matrix.js';
 import { patientId, signIn, signInAll, startTestApp, type TestContext } from './support/test-app.js';
+import { replyBytes } from './support/reply-bytes.js';
+import { pdfText } from './support/pdf-text.js';
 
 let ctx: TestContext;
 let cookies: Awaited<ReturnType<typeof signInAll>>;
@@ -22,24 +23,7 @@ const settings = (dateFormat: string) => ({ idleSignOutMinutes: 15, dateFormat }
 const put = (body: object, cookie = cookies.practice_admin) =>
   ctx.http.put('/api/practice/session-settings').set('Cookie', cookie).send(body);
 
-async function pdfText(pdf: Buffer): Promise<string> {
-  const parser = new PDFParse({ data: pdf });
-  try {
-    return (await parser.getText()).text.replace(/\s+/g, ' ');
-  } finally {
-    await parser.destroy();
-  }
-}
-const pdf = (path: string, cookie: string) =>
-  ctx.http
-    .get(path)
-    .set('Cookie', cookie)
-    .buffer(true)
-    .parse((r, cb) => {
-      const chunks: Buffer[] = [];
-      r.on('data', (c: Buffer) => chunks.push(c));
-      r.on('end', () => cb(null, Buffer.concat(chunks)));
-    });
+const pdf = (path: string, cookie: string) => ctx.http.get(path).set('Cookie', cookie).buffer(true).parse(replyBytes);
 
 describe('the practice date format', () => {
   it('is day-month-year until the administrator changes it, and every user of the practice gets it', async () => {

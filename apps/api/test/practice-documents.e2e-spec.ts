@@ -3,10 +3,11 @@
 // Windows-1252 ("Łucja Ødegård-Nguyễn") comes back out of the extracted text letter for letter and
 // no standard-14 Helvetica is left in the file.
 import { and, desc, eq } from 'drizzle-orm';
-import { PDFParse } from 'pdf-parse';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { auditEvents, patients, practices } from '../src/db/schema/index.js';
 import { patientId, signInAll, startTestApp, type TestContext } from './support/test-app.js';
+import { replyBytes } from './support/reply-bytes.js';
+import { pdfText } from './support/pdf-text.js';
 
 let ctx: TestContext;
 let cookies: Awaited<ReturnType<typeof signInAll>>;
@@ -17,23 +18,7 @@ beforeAll(async () => {
 afterAll(() => ctx.close());
 
 const binary = (method: 'get' | 'post', path: string, cookie: string) =>
-  ctx.http[method](path)
-    .set('Cookie', cookie)
-    .buffer(true)
-    .parse((r, cb) => {
-      const chunks: Buffer[] = [];
-      r.on('data', (c: Buffer) => chunks.push(c));
-      r.on('end', () => cb(null, Buffer.concat(chunks)));
-    });
-
-async function pdfText(pdf: Buffer): Promise<string> {
-  const parser = new PDFParse({ data: pdf });
-  try {
-    return (await parser.getText()).text.replace(/\s+/g, ' ');
-  } finally {
-    await parser.destroy();
-  }
-}
+  ctx.http[method](path).set('Cookie', cookie).buffer(true).parse(replyBytes);
 
 const CONTACT = {
   address: 'ul. Żółkiewskiego 7\n90-001 Łódź',

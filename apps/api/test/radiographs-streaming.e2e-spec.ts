@@ -10,6 +10,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { dicomFile, greyAt, halvesPng, waitForPreview } from './support/radiograph-fixtures.js';
 import { startS3Proxy, type S3Proxy } from './support/s3-proxy.js';
 import { patientId, signIn, startTestApp, testEnv, type TestContext } from './support/test-app.js';
+import { replyBytes } from './support/reply-bytes.js';
 
 const MAX_BYTES = 6 * 1024 * 1024;
 let proxy: S3Proxy;
@@ -84,11 +85,7 @@ describe('the preview job', () => {
         .get(`/api/radiographs/${id}/preview`)
         .set('Cookie', dentist)
         .buffer(true)
-        .parse((res, cb) => {
-          const chunks: Buffer[] = [];
-          res.on('data', (c: Buffer) => chunks.push(c));
-          res.on('end', () => cb(null, Buffer.concat(chunks)));
-        });
+        .parse(replyBytes);
       expect(preview.status).toBe(200);
       expect([await greyAt(preview.body as Buffer, 5, 2), await greyAt(preview.body as Buffer, 5, 25)]).toEqual([
         0, 255,
@@ -213,11 +210,7 @@ describe('the size limit under streaming', () => {
       .get(`/api/radiographs/${id}/original`)
       .set('Cookie', dentist)
       .buffer(true)
-      .parse((res, cb) => {
-        const chunks: Buffer[] = [];
-        res.on('data', (c: Buffer) => chunks.push(c));
-        res.on('end', () => cb(null, Buffer.concat(chunks)));
-      });
+      .parse(replyBytes);
     expect(Buffer.compare(original.body as Buffer, file)).toBe(0);
   });
 

@@ -5,6 +5,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { patientId, signIn, siteId, startTestApp, type TestContext } from './support/test-app.js';
 import { dicomFile, greyAt, halvesPng, jpeg, waitForPreview } from './support/radiograph-fixtures.js';
+import { replyBytes } from './support/reply-bytes.js';
 
 let ctx: TestContext;
 let dentist: string;
@@ -28,12 +29,7 @@ const upload = (cookie: string, body: Buffer, query = '', patient = harold) =>
     .set('Content-Type', 'application/octet-stream')
     .send(body);
 
-const binary = (req: ReturnType<typeof ctx.http.get>) =>
-  req.buffer(true).parse((res, cb) => {
-    const chunks: Buffer[] = [];
-    res.on('data', (c: Buffer) => chunks.push(c));
-    res.on('end', () => cb(null, Buffer.concat(chunks)));
-  });
+const binary = (req: ReturnType<typeof ctx.http.get>) => req.buffer(true).parse(replyBytes);
 
 const dicom16 = () =>
   dicomFile({

@@ -2,7 +2,6 @@
 // carries each impression as a Procedure (performed on the day it was taken), a Device per coping
 // or scan body with its lot, and a DocumentReference per scan file, checked by the `fhir`
 // package's validator as the other exports are; the implant passport lists the impression.
-import { PDFParse } from 'pdf-parse';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { writeCalendarDate } from '@torquetrail/contracts';
 import { eq } from 'drizzle-orm';
@@ -11,6 +10,8 @@ import { derivedId } from '../src/records-out/fhir-bundle.js';
 import { validatorErrors } from './support/fhir-validation.js';
 import { larkspurId, parts, patientWithImplants } from './support/ledger-fixtures.js';
 import { patientId, signIn, startTestApp, type TestContext } from './support/test-app.js';
+import { replyBytes } from './support/reply-bytes.js';
+import { pdfPageTexts } from './support/pdf-text.js';
 
 let ctx: TestContext;
 let dentist: string;
@@ -20,16 +21,7 @@ beforeAll(async () => {
 });
 afterAll(() => ctx.close());
 
-const binary = (path: string) =>
-  ctx.http
-    .get(path)
-    .set('Cookie', dentist)
-    .buffer(true)
-    .parse((r, cb) => {
-      const chunks: Buffer[] = [];
-      r.on('data', (c: Buffer) => chunks.push(c));
-      r.on('end', () => cb(null, Buffer.concat(chunks)));
-    });
+const binary = (path: string) => ctx.http.get(path).set('Cookie', dentist).buffer(true).parse(replyBytes);
 
 type Resource = Record<string, unknown> & { resourceType: string; id: string };
 async function bundleOf(pid: string): Promise<Resource[]> {
@@ -46,12 +38,7 @@ async function bundleOf(pid: string): Promise<Resource[]> {
 async function passportText(pid: string) {
   const res = await binary(`/api/patients/${pid}/passport.pdf`);
   expect(res.status).toBe(200);
-  const parser = new PDFParse({ data: res.body as Buffer });
-  try {
-    return (await parser.getText()).pages.map((p) => p.text.replace(/\s+/g, ' ')).join(' ');
-  } finally {
-    await parser.destroy();
-  }
+  return (await pdfPageTexts(res.body as Buffer)).join(' ');
 }
 
 describe('a digital impression (the seeded one of LL-1005, scan bodies at 15 and 16, one STL file)', () => {

@@ -3,7 +3,6 @@
 // retrieval card parsed back with pdf-parse and checked against each implant's rows; the passport
 // e-mailed through the job queue to the SMTP catcher only with the patient's consent.
 import { and, asc, eq, isNull, sql } from 'drizzle-orm';
-import { PDFParse } from 'pdf-parse';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { writeCalendarDate } from '@torquetrail/contracts';
 import { fdiToUniversal, gtinCheckDigit, parseUdi } from '@torquetrail/domain';
@@ -24,6 +23,8 @@ import {
 import { validatorErrors } from './support/fhir-validation.js';
 import { until } from './support/recalls.js';
 import { patientId, signIn, siteId, startTestApp, type TestContext } from './support/test-app.js';
+import { replyBytes } from './support/reply-bytes.js';
+import { pdfPageTexts } from './support/pdf-text.js';
 
 const mailHttp = `http://127.0.0.1:${process.env.TT_MAIL_HTTP_PORT ?? 2580}/messages`;
 
@@ -37,24 +38,7 @@ beforeAll(async () => {
 afterAll(() => ctx.close());
 
 const binary = (path: string, cookie: string) =>
-  ctx.http
-    .get(path)
-    .set('Cookie', cookie)
-    .buffer(true)
-    .parse((r, cb) => {
-      const chunks: Buffer[] = [];
-      r.on('data', (c: Buffer) => chunks.push(c));
-      r.on('end', () => cb(null, Buffer.concat(chunks)));
-    });
-
-async function pdfPages(pdf: Buffer): Promise<string[]> {
-  const parser = new PDFParse({ data: pdf });
-  try {
-    return (await parser.getText()).pages.map((p) => p.text.replace(/\s+/g, ' '));
-  } finally {
-    await parser.destroy();
-  }
-}
+  ctx.http.get(path).set('Cookie', cookie).buffer(true).parse(replyBytes);
 
 /** Each live implant of a patient as the database holds it (current placement, platform, system). */
 async function implantsOf(chart: string) {
@@ -183,7 +167,7 @@ describe('implant passport', () => {
       expect(res.status, chart).toBe(200);
       expect(res.headers['content-type']).toBe('application/pdf');
       expect(res.headers['content-disposition']).toBe(`attachment; filename="implant-passport-${chart}.pdf"`);
-      const pages = await pdfPages(res.body as Buffer);
+      const pages = await pdfPageTexts(res.body as Buffer);
       const text = pages.join(' ');
       const [patient] = await ctx.db.select().from(patients).where(eq(patients.id, pid));
       for (const page of pages) {
@@ -213,14 +197,14 @@ describe('implant passport', () => {
 
   it('says how each restoration is held and at what torque its screws were tightened', async () => {
     const okafor = (
-      await pdfPages(
+      await pdfPageTexts(
         (await binary(`/api/patients/${await patientId(ctx.db, 'LL-1003')}/passport.pdf`, dentist)).body as Buffer,
       )
     ).join(' ');
     expect(okafor).toContain('cemented onto an abutment');
     expect(okafor).toContain('cannot be removed without cutting it (not retrievable)');
     const harold = (
-      await pdfPages(
+      await pdfPageTexts(
         (await binary(`/api/patients/${await patientId(ctx.db, 'LL-1001')}/passport.pdf`, dentist)).body as Buffer,
       )
     ).join(' ');
@@ -236,7 +220,7 @@ describe('retrieval card', () => {
     for (const chart of ['LL-1001', 'LL-1002', 'LL-1003', 'LL-1004']) {
       const res = await binary(`/api/patients/${await patientId(ctx.db, chart)}/retrieval-card.pdf`, dentist);
       expect(res.status, chart).toBe(200);
-      const pages = await pdfPages(res.body as Buffer);
+      const pages = await pdfPageTexts(res.body as Buffer);
       const restored = await restoredSites(chart);
       expect(restored.length, chart).toBeGreaterThan(0);
       expect(pages, chart).toHaveLength(restored.length);
@@ -269,7 +253,7 @@ describe('retrieval card', () => {
 
   it('for a patient with nothing restored is one page that says so', async () => {
     const res = await binary(`/api/patients/${await patientId(ctx.db, 'LL-1005')}/retrieval-card.pdf`, dentist);
-    const pages = await pdfPages(res.body as Buffer);
+    const pages = await pdfPageTexts(res.body as Buffer);
     expect(pages).toHaveLength(1);
     expect(pages[0]).toContain('No restored implant site is recorded for this patient.');
   });
@@ -359,9 +343,9 @@ describe('practice contact on the passport', () => {
     const [before] = await ctx.db.select().from(practices).where(eq(practices.id, p.practiceId));
     await ctx.db.update(practices).set({ phone: null, email: null }).where(eq(practices.id, p.practiceId));
     try {
-      const text = (await pdfPages((await binary(`/api/patients/${pid}/passport.pdf`, dentist)).body as Buffer)).join(
-        ' ',
-      );
+      const text = (
+        await pdfPageTexts((await binary(`/api/patients/${pid}/passport.pdf`, dentist)).body as Buffer)
+      ).join(' ');
       expect(text).toContain('Phone and e-mail: not recorded by the practice.');
     } finally {
       await ctx.db

@@ -3,11 +3,12 @@
 // listed in the audit trail. SMTP down: referral-summary-smtp-down.e2e-spec.ts.
 import { eq, sql } from 'drizzle-orm';
 import { writeCalendarDate } from '@torquetrail/contracts';
-import { PDFParse } from 'pdf-parse';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { patientShares, referralSummaryMails } from '../src/db/schema/index.js';
 import { until } from './support/recalls.js';
 import { ACCOUNTS, patientId, signInAll, startTestApp, type TestContext } from './support/test-app.js';
+import { replyBytes } from './support/reply-bytes.js';
+import { pdfText as readPdfText } from './support/pdf-text.js';
 
 /** The demo practice writes dates day-month-year (its default). */
 const dmy = (iso: string) => writeCalendarDate(iso, 'day-month-year');
@@ -44,18 +45,9 @@ const pdfText = async (who: keyof typeof cookies, patient: string) => {
     .get(`/api/patients/${patient}/referral-summary/pdf`)
     .set('Cookie', cookies[who])
     .buffer(true)
-    .parse((r, cb) => {
-      const chunks: Buffer[] = [];
-      r.on('data', (c: Buffer) => chunks.push(c));
-      r.on('end', () => cb(null, Buffer.concat(chunks)));
-    });
+    .parse(replyBytes);
   if (res.status !== 200) return { status: res.status, text: '' };
-  const parser = new PDFParse({ data: res.body as Buffer });
-  try {
-    return { status: res.status, text: (await parser.getText()).text.replace(/\s+/g, ' '), res };
-  } finally {
-    await parser.destroy();
-  }
+  return { status: res.status, text: await readPdfText(res.body as Buffer), res };
 };
 
 describe('referral summary PDF', () => {

@@ -10,6 +10,7 @@ import { jpeg } from './support/radiograph-fixtures.js';
 import { actorCookies } from './support/role-matrix.js';
 import { scenarioTargets } from './support/scenario-targets.js';
 import { type AccountKey, startTestApp, type TestContext } from './support/test-app.js';
+import { replyBytes } from './support/reply-bytes.js';
 
 const MAX = 4096;
 let ctx: TestContext;
@@ -47,11 +48,7 @@ describe('scan files', () => {
         .get(`/api/scan-files/${res.body.id}/file`)
         .set('Cookie', cookies.hygienist)
         .buffer(true)
-        .parse((r, done) => {
-          const chunks: Buffer[] = [];
-          r.on('data', (c: Buffer) => chunks.push(c));
-          r.on('end', () => done(null, Buffer.concat(chunks)));
-        });
+        .parse(replyBytes);
       expect(back.status).toBe(200);
       expect(Buffer.compare(back.body as Buffer, data)).toBe(0);
     }

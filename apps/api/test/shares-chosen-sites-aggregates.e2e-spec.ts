@@ -3,11 +3,12 @@
 // summary, downloaded or e-mailed, draws only the shared sites. The replies walk
 // (shares-replies.e2e-spec.ts) covers record replies; these are aggregates and files it cannot see.
 import { and, eq } from 'drizzle-orm';
-import { PDFParse } from 'pdf-parse';
 import type { OutcomesReply } from '@torquetrail/contracts';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { patientShares, users } from '../src/db/schema/index.js';
 import { ACCOUNTS, patientId, signInAll, siteId, startTestApp, type TestContext } from './support/test-app.js';
+import { replyBytes } from './support/reply-bytes.js';
+import { pdfText as readPdfText } from './support/pdf-text.js';
 
 let ctx: TestContext;
 let cookies: Awaited<ReturnType<typeof signInAll>>;
@@ -33,18 +34,9 @@ const pdfText = async (cookie: string) => {
     .get(`/api/patients/${harold}/referral-summary/pdf`)
     .set('Cookie', cookie)
     .buffer(true)
-    .parse((r, cb) => {
-      const chunks: Buffer[] = [];
-      r.on('data', (c: Buffer) => chunks.push(c));
-      r.on('end', () => cb(null, Buffer.concat(chunks)));
-    });
+    .parse(replyBytes);
   expect(res.status).toBe(200);
-  const parser = new PDFParse({ data: res.body as Buffer });
-  try {
-    return (await parser.getText()).text.replace(/\s+/g, ' ');
-  } finally {
-    await parser.destroy();
-  }
+  return readPdfText(res.body as Buffer);
 };
 
 describe('a share of chosen sites, in aggregates and files', () => {

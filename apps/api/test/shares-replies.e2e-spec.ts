@@ -13,6 +13,7 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { patientShares } from '../src/db/schema/index.js';
 import { signInAs, throwawayAccount } from './support/people.js';
 import { patientId, signIn, siteId, startTestApp } from './support/test-app.js';
+import { replyBytes } from './support/reply-bytes.js';
 
 const ctx = await startTestApp();
 afterAll(() => ctx.close());
@@ -204,15 +205,7 @@ describe('every reply a shared surgeon can get', () => {
     const leaks = new Set<string>();
     const served: string[] = [];
     for (const route of ROUTES) {
-      const res = await ctx.http
-        .get(`/api${route.url}`)
-        .set('Cookie', cookie)
-        .buffer(true)
-        .parse((r, cb) => {
-          const chunks: Buffer[] = [];
-          r.on('data', (c: Buffer) => chunks.push(c));
-          r.on('end', () => cb(null, Buffer.concat(chunks)));
-        });
+      const res = await ctx.http.get(`/api${route.url}`).set('Cookie', cookie).buffer(true).parse(replyBytes);
       // Readiness answers 503 by contract when object storage is slow (a loaded CI machine): not a fault.
       expect(READINESS.has(route.path) && res.status === 503 ? 200 : res.status, route.path).toBeLessThan(500);
       if (res.status !== 200) {

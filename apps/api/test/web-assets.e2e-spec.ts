@@ -7,6 +7,7 @@ import path from 'node:path';
 import { brotliDecompressSync, gunzipSync, gzipSync } from 'node:zlib';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startTestApp, type TestContext } from './support/test-app.js';
+import { replyBytes } from './support/reply-bytes.js';
 
 const webDist = path.resolve(import.meta.dirname, '../../web/dist');
 const assets = fs.readdirSync(path.join(webDist, 'assets'));
@@ -23,12 +24,7 @@ afterAll(() => ctx.close());
 
 /** The body as bytes (decoded by the client from any Content-Encoding). */
 const raw = (res: { body: unknown }) => res.body as Buffer;
-const bytes = (req: ReturnType<TestContext['http']['get']>) =>
-  req.buffer(true).parse((res, done) => {
-    const chunks: Buffer[] = [];
-    res.on('data', (c: Buffer) => chunks.push(c));
-    res.on('end', () => done(null, Buffer.concat(chunks)));
-  });
+const bytes = (req: ReturnType<TestContext['http']['get']>) => req.buffer(true).parse(replyBytes);
 
 describe('the built web app', () => {
   it('has a brotli and a gzip copy of every script and stylesheet of 1 KB or more', () => {
