@@ -9,11 +9,18 @@ import { isAlive, portOpen, readPid, waitForPort } from './lib/proc.mjs';
 import { ServiceError, startPostgres, stopPostgres } from './lib/postgres.mjs';
 
 const background = [
-  { name: 's3', script: path.join(repoRoot, 'minio-local', 'start.mjs'), ports: [s3.port] },
+  {
+    name: 's3',
+    script: path.join(repoRoot, 'minio-local', 'start.mjs'),
+    ports: [s3.port],
+    // s3rver writes ListObjectsV2's continuation token (a listing of more than 1 000 keys) with DES,
+    // which OpenSSL 3 keeps in its legacy provider: without it every such listing fails with a 500.
+    nodeOptions: ['--openssl-legacy-provider'],
+  },
   { name: 'mail', script: path.join(repoRoot, 'scripts', 'mail-catcher.mjs'), ports: [mail.smtpPort, mail.httpPort] },
 ];
 
-async function startBackground({ name, script, ports }) {
+async function startBackground({ name, script, ports, nodeOptions = [] }) {
   fs.mkdirSync(runDir, { recursive: true });
   const pidFile = path.join(runDir, `${name}.pid`);
   const pid = readPid(pidFile);
@@ -29,7 +36,11 @@ async function startBackground({ name, script, ports }) {
     }
   }
   const log = fs.openSync(path.join(runDir, `${name}.log`), 'a');
-  const child = spawn(process.execPath, [script], { detached: true, stdio: ['ignore', log, log], cwd: repoRoot });
+  const child = spawn(process.execPath, [...nodeOptions, script], {
+    detached: true,
+    stdio: ['ignore', log, log],
+    cwd: repoRoot,
+  });
   child.unref();
   fs.writeFileSync(pidFile, String(child.pid));
   for (const port of ports) await waitForPort(port, { label: `the ${name} service (port ${port})` });
