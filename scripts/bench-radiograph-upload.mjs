@@ -9,7 +9,8 @@
 // Inside the API a probe (lib/memory-probe.mjs) reports the V8 heap and the external (ArrayBuffer)
 // memory at the same moments, so the growth can be told apart. The API is started as npm start
 // starts it (API_NODE_OPTIONS, MALLOC_ARENA_MAX); TT_BENCH_NODE_DEFAULTS=1 starts it with Node's
-// and glibc's defaults instead, for comparison. Prints a table; nothing is asserted.
+// and glibc's defaults instead, and TT_BENCH_API_NODE_OPTIONS='--max-semi-space-size=4 …' with other
+// heap options, for comparison (ADR 0007). Prints a table; nothing is asserted.
 // Usage: node scripts/bench-radiograph-upload.mjs [files] [megabytes]
 import { spawn } from 'node:child_process';
 import fs from 'node:fs';
@@ -262,7 +263,9 @@ if (await portOpen(API_PORT)) throw new Error(`port ${API_PORT} is taken; set TT
 /** Starts the API, signs in, and warms it with one small upload of `kind` and its preview. */
 async function startApi(kind) {
   const probe = ['--import', pathToFileURL(path.join(repoRoot, 'scripts/lib/memory-probe.mjs')).href];
-  const options = nodeDefaults ? probe : [...API_NODE_OPTIONS, ...probe];
+  // TT_BENCH_API_NODE_OPTIONS (space-separated) tries other heap options against the deployment's (ADR 0007).
+  const tried = process.env.TT_BENCH_API_NODE_OPTIONS?.split(' ').filter(Boolean);
+  const options = nodeDefaults ? probe : [...(tried ?? API_NODE_OPTIONS), ...probe];
   const apiEnv = { ...process.env, ...env };
   if (nodeDefaults) delete apiEnv.MALLOC_ARENA_MAX;
   const proc = spawn(process.execPath, [...options, path.join(repoRoot, 'apps/api/dist/main.js')], {
@@ -386,7 +389,7 @@ try {
 const f1 = (n) => n.toFixed(1);
 console.log(
   `\n${FILES} parallel uploads of ${MEGABYTES} MB; API RSS sampled from /proc/<pid>/status every 50 ms (target: growth ≤ 64 MB);` +
-    ` the API started with ${nodeDefaults ? "Node's and glibc's defaults" : `${API_NODE_OPTIONS.join(' ')} and MALLOC_ARENA_MAX=2`}\n`,
+    ` the API started with ${nodeDefaults ? "Node's and glibc's defaults" : `${process.env.TT_BENCH_API_NODE_OPTIONS ?? API_NODE_OPTIONS.join(' ')} and MALLOC_ARENA_MAX=2`}\n`,
 );
 const header = [
   'kind',

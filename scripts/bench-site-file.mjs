@@ -464,7 +464,13 @@ delete large.deskSql;
 
 writeResults(path.join(repoRoot, 'bench/results'), args.desk ? 'desk' : 'site-file', {
   at: new Date().toISOString(),
-  settings: { seconds: SECONDS, repeats: REPEATS, connections: CONNECTIONS, patients: PATIENTS },
+  settings: {
+    seconds: SECONDS,
+    repeats: REPEATS,
+    connections: CONNECTIONS,
+    patients: PATIENTS,
+    apiNodeOptions: API_NODE_OPTIONS,
+  },
   seeding: { demoSeconds: demoSeedS, large: largeSeed },
   demo,
   large,

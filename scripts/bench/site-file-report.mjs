@@ -122,6 +122,9 @@ function markdown(r) {
     `# Site file benchmark — ${r.at}`,
     '',
     `Medians of ${r.settings.repeats} alternating runs of ${r.settings.seconds} s (autocannon); p50/p95 in ms.`,
+    ...(r.settings.apiNodeOptions
+      ? [`The APIs run with \`${r.settings.apiNodeOptions.join(' ')}\` (scripts/lib/config.mjs).`]
+      : []),
     `Floor: the API's own SQL replayed as named statements in the same round trips by a bare node:http + pg server (docs/performance.md).`,
     '',
     '| endpoint | conns | SQL / round trips | API req/s | floor req/s | floor÷API | API p50 | floor p50 | p50 ÷ floor | API p95 | large req/s | large p50 | demo÷large req/s | large÷demo p50 |',
