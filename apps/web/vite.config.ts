@@ -38,7 +38,11 @@ const replacedModules = (): Plugin => ({
   },
 });
 
-/** The scripts the Arch route's chunk needs that the entry does not already load (paths from the site root). */
+/**
+ * The scripts the Arch route's chunk needs that the entry does not already load, then their
+ * stylesheets (paths from the site root). Vite's preload helper only asks for a lazy route's CSS
+ * once the route's import runs, and waits for it before the route renders.
+ */
 function archChunks(bundle: Rolldown.OutputBundle, base: string): string[] {
   const chunks = Object.values(bundle).filter((file): file is Rolldown.OutputChunk => file.type === 'chunk');
   const byName = new Map(chunks.map((chunk) => [chunk.fileName, chunk]));
@@ -56,7 +60,14 @@ function archChunks(bundle: Rolldown.OutputBundle, base: string): string[] {
   const arch = chunks.find((chunk) => chunk.facadeModuleId?.endsWith('/features/arch/routes/arch-route.tsx'));
   if (!entry || !arch) throw new Error('early reads: no entry chunk or no Arch route chunk in the build');
   const loaded = closure(entry);
-  return [...closure(arch)].filter((name) => !loaded.has(name)).map((name) => `${base}${name}`);
+  const scripts = [...closure(arch)].filter((name) => !loaded.has(name));
+  const loadedCss = new Set([...loaded].flatMap((name) => [...(byName.get(name)?.viteMetadata?.importedCss ?? [])]));
+  const stylesheets = new Set(
+    scripts
+      .flatMap((name) => [...(byName.get(name)?.viteMetadata?.importedCss ?? [])])
+      .filter((css) => !loadedCss.has(css)),
+  );
+  return [...scripts, ...stylesheets].map((name) => `${base}${name}`);
 }
 
 /**
