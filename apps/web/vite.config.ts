@@ -145,6 +145,12 @@ export default defineConfig({
     outDir: 'dist',
     emptyOutDir: true,
     rolldownOptions: {
+      // zod's schema builders (`z.enum(…)`, `z.object(…)`…) have no side effects, but the bundler
+      // cannot tell, so it kept every schema the contracts define, used or not, and built them all as
+      // the first load ran (e.g. the health reply's). Marked pure, a schema no web module uses is
+      // dropped (issue 13, goal 3). Only calls through the name `z`: nothing of the sources calls it
+      // for its effect (no registry, no `z.config`).
+      treeshake: { manualPureFunctions: ['z'] },
       output: {
         // React is one long-lived vendor chunk, cached across releases of the app's own code, and
         // every page needs all of it. Blueprint is not grouped: one group would put every component
