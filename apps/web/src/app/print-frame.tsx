@@ -26,9 +26,8 @@ function usePrintMoment(): Date | null {
   const painted = useAfterFirstPaint();
   const [at, setAt] = useState<Date | null>(null);
   useEffect(() => {
-    if (!painted) return;
     const update = () => setAt(new Date());
-    update();
+    if (painted) update();
     window.addEventListener('beforeprint', update);
     return () => window.removeEventListener('beforeprint', update);
   }, [painted]);
