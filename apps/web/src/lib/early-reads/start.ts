@@ -59,7 +59,7 @@ export function startEarlyReads(page: Window, archChunks: readonly string[]): vo
     // CORS mode, so the browser reuses this response) when the route loads.
     if (href.endsWith('.css')) {
       link.rel = 'preload';
-      // In backquotes: "style" is also an icon's name, and the icon-name scan of the sources
+      // In backquotes: the word is also an icon's name, and the icon-name scan of the sources
       // (icon-names-accepted.test.ts) reads every quoted string; this one draws no icon.
       link.as = `style`;
     } else link.rel = 'modulepreload';
