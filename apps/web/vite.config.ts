@@ -38,7 +38,11 @@ const replacedModules = (): Plugin => ({
   },
 });
 
-/** The scripts the Arch route's chunk needs that the entry does not already load (paths from the site root). */
+/**
+ * The scripts the Arch route's chunk needs that the entry does not already load, then their
+ * stylesheets (paths from the site root). Vite's preload helper only asks for a lazy route's CSS
+ * once the route's import runs, and waits for it before the route renders.
+ */
 function archChunks(bundle: Rolldown.OutputBundle, base: string): string[] {
   const chunks = Object.values(bundle).filter((file): file is Rolldown.OutputChunk => file.type === 'chunk');
   const byName = new Map(chunks.map((chunk) => [chunk.fileName, chunk]));
@@ -56,7 +60,14 @@ function archChunks(bundle: Rolldown.OutputBundle, base: string): string[] {
   const arch = chunks.find((chunk) => chunk.facadeModuleId?.endsWith('/features/arch/routes/arch-route.tsx'));
   if (!entry || !arch) throw new Error('early reads: no entry chunk or no Arch route chunk in the build');
   const loaded = closure(entry);
-  return [...closure(arch)].filter((name) => !loaded.has(name)).map((name) => `${base}${name}`);
+  const scripts = [...closure(arch)].filter((name) => !loaded.has(name));
+  const loadedCss = new Set([...loaded].flatMap((name) => [...(byName.get(name)?.viteMetadata?.importedCss ?? [])]));
+  const stylesheets = new Set(
+    scripts
+      .flatMap((name) => [...(byName.get(name)?.viteMetadata?.importedCss ?? [])])
+      .filter((css) => !loadedCss.has(css)),
+  );
+  return [...scripts, ...stylesheets].map((name) => `${base}${name}`);
 }
 
 /**
@@ -134,6 +145,12 @@ export default defineConfig({
     outDir: 'dist',
     emptyOutDir: true,
     rolldownOptions: {
+      // zod's schema builders (`z.enum(…)`, `z.object(…)`…) have no side effects, but the bundler
+      // cannot tell, so it kept every schema the contracts define, used or not, and built them all as
+      // the first load ran (e.g. the health reply's). Marked pure, a schema no web module uses is
+      // dropped (issue 13, goal 3). Only calls through the name `z`: nothing of the sources calls it
+      // for its effect (no registry, no `z.config`).
+      treeshake: { manualPureFunctions: ['z'] },
       output: {
         // React is one long-lived vendor chunk, cached across releases of the app's own code, and
         // every page needs all of it. Blueprint is not grouped: one group would put every component

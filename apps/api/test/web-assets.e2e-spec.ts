@@ -90,9 +90,10 @@ describe('the built web app', () => {
     const hash = `'sha256-${createHash('sha256').update(script, 'utf8').digest('base64')}'`;
     const scriptSrc = /(?:^|;)\s*script-src ([^;]*)/.exec(page.headers['content-security-policy'])?.[1];
     expect(scriptSrc?.split(' ')).toEqual(["'self'", hash]);
-    // The Arch's chunks it preloads are files of this build.
-    const preloaded = [...script.matchAll(/\/assets\/[\w.-]+\.js/g)].map((m) => m[0]);
-    expect(preloaded.length).toBeGreaterThan(0);
+    // The Arch's chunks and stylesheet it preloads are files of this build.
+    const preloaded = [...script.matchAll(/\/assets\/[\w.-]+\.(?:js|css)/g)].map((m) => m[0]);
+    expect(preloaded.filter((p) => p.endsWith('.js')).length).toBeGreaterThan(0);
+    expect(preloaded.filter((p) => p.endsWith('.css')).length).toBeGreaterThan(0);
     expect(preloaded.filter((p) => !fs.existsSync(path.join(webDist, p)))).toEqual([]);
     // And the page is the built file.
     expect(page.text).toBe(fs.readFileSync(path.join(webDist, 'index.html'), 'utf8'));

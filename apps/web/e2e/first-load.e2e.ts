@@ -53,6 +53,19 @@ describe('the first load', () => {
       links.map((l) => new URL((l as HTMLLinkElement).href).pathname),
     );
     expect(preloaded.some((p) => /\/assets\/arch-route-[\w-]+\.js$/.test(p))).toBe(true);
+    // Its stylesheet too, fetched once: the preload's response is the one the route's stylesheet uses.
+    const styles = await page.$$eval('link[rel="preload"][as="style"]', (links) =>
+      links.map((l) => new URL((l as HTMLLinkElement).href).pathname),
+    );
+    expect(styles.filter((p) => /\/assets\/arch-route-[\w-]+\.css$/.test(p))).toHaveLength(1);
+    const archStyles = await page.$$eval('link[rel="stylesheet"]', (links) =>
+      links.map((l) => new URL((l as HTMLLinkElement).href).pathname).filter((p) => /arch-route/.test(p)),
+    );
+    expect(archStyles).toEqual(styles.filter((p) => /arch-route/.test(p)));
+    const fetched = await page.evaluate(() =>
+      performance.getEntriesByType('resource').filter((e) => /\/assets\/arch-route-[\w-]+\.css$/.test(e.name)),
+    );
+    expect(fetched).toHaveLength(1);
   });
 
   it('reads only the session on another page, and preloads nothing of the Arch', async () => {

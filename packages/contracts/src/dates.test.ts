@@ -90,6 +90,32 @@ describe('writing in each order', () => {
     expect(writeCalendarDate('2026-03-01', 'year-month-day')).toBe('2026-03-01');
     expect(writeCalendarDate('2026-03-01', 'year-month-day', 'long')).toBe('2026-03-01');
   });
+  it('writes every day of a leap and a common year as Intl writes it (CLDR en-GB, en-US)', () => {
+    // The table in dates.ts stands in for Intl on calendar dates; Intl is the reference it must match.
+    const intl = (locale: string, month: 'short' | 'long') =>
+      new Intl.DateTimeFormat(locale, { day: 'numeric', month, year: 'numeric', timeZone: 'UTC' });
+    const expected = {
+      'day-month-year': { short: intl('en-GB', 'short'), long: intl('en-GB', 'long') },
+      'month-day-year': { short: intl('en-US', 'short'), long: intl('en-US', 'long') },
+    } as const;
+    const days = [2024, 2026].flatMap((year) =>
+      Array.from({ length: year === 2024 ? 366 : 365 }, (_, d) => new Date(Date.UTC(year, 0, 1 + d))),
+    );
+    for (const at of [...days, new Date(Date.UTC(1000, 0, 1)), new Date(Date.UTC(9999, 11, 31))])
+      for (const [format, styles] of Object.entries(expected) as [DateFormat, (typeof expected)['day-month-year']][])
+        for (const style of ['short', 'long'] as const)
+          expect(writeCalendarDate(at.toISOString().slice(0, 10), format, style)).toBe(styles[style].format(at));
+    expect(writeCalendarDate('2026-09-03', 'day-month-year')).toBe('3 Sept 2026');
+    expect(writeCalendarDate('2026-09-03', 'month-day-year')).toBe('Sep 3, 2026');
+  });
+  it('writes a day past the end of its month as Intl always has (rolled over)', () => {
+    expect(writeCalendarDate('2026-02-30', 'day-month-year')).toBe('2 Mar 2026');
+    expect(writeCalendarDate('0999-12-31', 'month-day-year', 'long')).toBe(
+      new Intl.DateTimeFormat('en-US', { day: 'numeric', month: 'long', year: 'numeric', timeZone: 'UTC' }).format(
+        new Date(Date.UTC(999, 11, 31)),
+      ),
+    );
+  });
   it('writes an instant with its time in the given zone', () => {
     const at = '2026-03-01T13:05:00Z';
     expect(writeInstant(at, 'year-month-day', 'UTC')).toBe('2026-03-01 13:05');

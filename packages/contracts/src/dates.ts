@@ -7,7 +7,7 @@ import type { DateFormat } from './enums.js';
  * The Intl locale behind each order, where one writes the order with the month in words:
  * en-GB "12 Mar 2026", en-US "Mar 12, 2026". Year-month-day is ISO 8601's numeric form.
  */
-const LOCALE: Record<DateFormat, string | null> = {
+const LOCALE: Record<DateFormat, 'en-GB' | 'en-US' | null> = {
   'day-month-year': 'en-GB',
   'month-day-year': 'en-US',
   'year-month-day': null,
@@ -57,6 +57,49 @@ function formatter(locale: string, options: Intl.DateTimeFormatOptions): Intl.Da
 }
 
 /**
+ * The months' names as CLDR writes them for the two orders in words (the data Intl uses): the same
+ * full names in en-GB and en-US; short names of three letters but for en-GB's "Sept". Calendar
+ * dates are written from this table, without Intl: the first Intl formatter a page builds costs
+ * ~35 ms of ICU start-up on the main thread, and the Arch's first view shows dates (issue 13, goal
+ * 3). The tests compare every day written here with Intl's own writing.
+ */
+const MONTHS = [
+  ['January', 'Jan'],
+  ['February', 'Feb'],
+  ['March', 'Mar'],
+  ['April', 'Apr'],
+  ['May', 'May'],
+  ['June', 'Jun'],
+  ['July', 'Jul'],
+  ['August', 'Aug'],
+  ['September', 'Sep'],
+  ['October', 'Oct'],
+  ['November', 'Nov'],
+  ['December', 'Dec'],
+] as const;
+
+/** A month's name in an order written in words (1–12). */
+function monthName(month: number, locale: 'en-GB' | 'en-US', style: 'short' | 'long'): string {
+  const [long, short] = MONTHS[month - 1];
+  if (style === 'long') return long;
+  return locale === 'en-GB' && month === 9 ? 'Sept' : short;
+}
+
+const daysIn = (year: number, month: number) => new Date(Date.UTC(year, month, 0)).getUTCDate();
+
+/** Whether the table writes this date as Intl would: a real day of a four-digit year. */
+const isPlainDate = (year: number, month: number, day: number) =>
+  Number.isInteger(year) &&
+  Number.isInteger(month) &&
+  Number.isInteger(day) &&
+  year >= 1000 &&
+  year <= 9999 &&
+  month >= 1 &&
+  month <= 12 &&
+  day >= 1 &&
+  day <= daysIn(year, month);
+
+/**
  * A calendar date (YYYY-MM-DD) as the practice writes it: `short` for tables ("12 Mar 2026",
  * "Mar 12, 2026", "2026-03-12"), `long` for prose and accessible names ("12 March 2026").
  */
@@ -64,6 +107,11 @@ export function writeCalendarDate(iso: string, format: DateFormat, style: 'short
   const [year, month, day] = isoParts(iso);
   const locale = LOCALE[format];
   if (!locale) return `${pad(year, 4)}-${pad(month)}-${pad(day)}`;
+  if (isPlainDate(year, month, day)) {
+    const name = monthName(month, locale, style);
+    return locale === 'en-GB' ? `${day} ${name} ${year}` : `${name} ${day}, ${year}`;
+  }
+  // Anything else (an overflowing day, a year outside 1000–9999) as Intl has always written it.
   return formatter(locale, {
     day: 'numeric',
     month: style === 'long' ? 'long' : 'short',
@@ -101,36 +149,28 @@ export function writeInstant(instant: string | number | Date, format: DateFormat
   return `${parts.year}-${parts.month}-${parts.day} ${parts.hour}:${parts.minute}`;
 }
 
-const MONTH_NAMES = Array.from({ length: 12 }, (_, m) =>
-  (['long', 'short'] as const).map((month) =>
-    formatter('en-GB', { month, timeZone: 'UTC' })
-      .format(new Date(Date.UTC(2026, m, 1)))
-      .toLocaleLowerCase()
-      .replace(/\.$/, ''),
-  ),
-);
+/** Each month's full and en-GB short name in lower case, as typed dates are read. */
+const MONTH_WORDS = MONTHS.map((_, m) => [
+  monthName(m + 1, 'en-GB', 'long').toLocaleLowerCase(),
+  monthName(m + 1, 'en-GB', 'short').toLocaleLowerCase(),
+]);
 
 /** The month (1–12) a word names: its full name or any start of it of 3 letters or more ("Sep", "Sept"). */
 function monthOfWord(word: string): number | null {
   const w = word.replace(/\.$/, '');
-  const index = MONTH_NAMES.findIndex((names) => names.includes(w) || (w.length >= 3 && names[0].startsWith(w)));
+  const index = MONTH_WORDS.findIndex((names) => names.includes(w) || (w.length >= 3 && names[0].startsWith(w)));
   return index < 0 ? null : index + 1;
 }
 
 /** A typed date read in the practice's order: the date, or the reason it is not one, in plain words. */
 export type TypedDate = { iso: string; problem?: undefined } | { iso?: undefined; problem: string };
 
-const daysIn = (year: number, month: number) => new Date(Date.UTC(year, month, 0)).getUTCDate();
-
 function checked(year: number, month: number, day: number): TypedDate {
   if (year < 1000) return { problem: 'Type the year in full, with 4 digits' };
   if (month < 1 || month > 12) return { problem: `There is no month ${month}: months go from 1 to 12` };
   const last = daysIn(year, month);
   if (day < 1 || day > last) {
-    const monthName = formatter('en-GB', { month: 'long', timeZone: 'UTC' }).format(
-      new Date(Date.UTC(2026, month - 1, 1)),
-    );
-    return { problem: `There is no such day: ${monthName} ${year} has ${last} days` };
+    return { problem: `There is no such day: ${monthName(month, 'en-GB', 'long')} ${year} has ${last} days` };
   }
   return { iso: `${pad(year, 4)}-${pad(month)}-${pad(day)}` };
 }

@@ -7,6 +7,7 @@ import type { Me } from '@torquetrail/contracts';
 import { useEffect, useState } from 'react';
 import { useMatches } from 'react-router-dom';
 import { usePatient } from '../features/patients';
+import { useAfterFirstPaint } from '../lib/components/after-first-paint';
 import { formatDate, formatDateTime } from '../lib/dates';
 
 /** The patient of the page, when its path names one (the Arch, a Site file, plans, exams …). */
@@ -15,14 +16,21 @@ function usePatientOfPage(): string | null {
   return matches.at(-1)?.params.patientId ?? null;
 }
 
-/** The moment of printing: set again when the browser starts a print, so the footer is never stale. */
-function usePrintMoment(): Date {
-  const [at, setAt] = useState(() => new Date());
+/**
+ * The moment of printing: set again when the browser starts a print, so the footer is never stale.
+ * First set once the page has been painted, not as it renders: writing an instant needs Intl (the
+ * viewer's time zone), whose first use on a page costs tens of ms of ICU start-up on the main
+ * thread, and the first view has no use for the footer, which only paper shows (issue 13, goal 3).
+ */
+function usePrintMoment(): Date | null {
+  const painted = useAfterFirstPaint();
+  const [at, setAt] = useState<Date | null>(null);
   useEffect(() => {
     const update = () => setAt(new Date());
+    if (painted) update();
     window.addEventListener('beforeprint', update);
     return () => window.removeEventListener('beforeprint', update);
-  }, []);
+  }, [painted]);
   return at;
 }
 
@@ -60,7 +68,9 @@ export function PrintFrame({ me }: { me: Me }) {
       ? 'Patient record (not loaded)'
       : null;
   const header = [who, me.practiceName].filter(Boolean).join(' · ');
-  const footer = `Printed by ${me.displayName} on ${formatDateTime(at.toISOString())}`;
+  const footer = at
+    ? `Printed by ${me.displayName} on ${formatDateTime(at.toISOString())}`
+    : `Printed by ${me.displayName}`;
   usePageMargins(header, footer);
   return (
     <div className="print-frame" aria-hidden="true">

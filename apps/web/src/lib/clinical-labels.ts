@@ -140,9 +140,14 @@ export const LOADING_PROTOCOL_LABEL: Record<LoadingProtocol, string> = {
   conventional: 'Conventional',
 };
 
-const number = new Intl.NumberFormat('en-GB', { maximumFractionDigits: 1 });
+/**
+ * Built on first use, not when the module loads: the first Intl object of a page costs tens of ms
+ * of ICU start-up, and the Arch's first view (which loads this module) writes no number with it.
+ */
+let number: Intl.NumberFormat | undefined;
 
-export const formatNumber = (value: number): string => number.format(value);
+export const formatNumber = (value: number): string =>
+  (number ??= new Intl.NumberFormat('en-GB', { maximumFractionDigits: 1 })).format(value);
 
 /** "35 N·cm ± 10 %", or "hand-tight" when there is no torque specification. */
 export function formatTorqueSpec(specNcm: number | null, tolerancePct: number): string {

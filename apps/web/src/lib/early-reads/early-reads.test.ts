@@ -7,14 +7,14 @@ import { takeEarlyRead } from './take';
 
 /** A page as startEarlyReads sees it: its location, fetch, clock and <head>. */
 function fakePage(pathname: string) {
-  const appended: { rel: string; href: string }[] = [];
+  const appended: { rel: string; href: string; as: string; crossOrigin: string | null }[] = [];
   const page = {
     location: { pathname },
     fetch: vi.fn(async (path: string, _init?: RequestInit) => new Response(JSON.stringify({ path }), { status: 200 })),
     performance: { now: () => 0 },
     document: {
-      createElement: () => ({ rel: '', href: '', crossOrigin: null as string | null }),
-      head: { append: (link: { rel: string; href: string }) => appended.push(link) },
+      createElement: () => ({ rel: '', href: '', as: '', crossOrigin: null as string | null }),
+      head: { append: (link: (typeof appended)[number]) => appended.push(link) },
     },
   };
   return { page, appended };
@@ -57,6 +57,16 @@ describe('startEarlyReads', () => {
       '/api/patients/p1',
     ]);
     expect(appended.map((l) => [l.rel, l.href])).toEqual([['modulepreload', '/assets/arch-route-x.js']]);
+  });
+
+  it("fetches the Arch's stylesheet as the route's loader will ask for it, without applying it", () => {
+    const { page, appended } = fakePage('/patients/p1');
+    startEarlyReads(page as unknown as Window, ['/assets/arch-route-x.js', '/assets/arch-route-x.css']);
+    // Vite's preload helper adds <link rel="stylesheet" crossorigin>: the same CORS mode reuses this fetch.
+    expect(appended.map((l) => [l.rel, l.as, l.crossOrigin, l.href])).toEqual([
+      ['modulepreload', '', '', '/assets/arch-route-x.js'],
+      ['preload', 'style', '', '/assets/arch-route-x.css'],
+    ]);
   });
 
   it('preloads no Arch chunk on another page', () => {
