@@ -55,13 +55,15 @@ interface HeaderStep {
  */
 export function recordHeaders(middleware: RequestHandler): HeaderStep[] {
   const steps: HeaderStep[] = [];
-  let failed: unknown = null;
+  let failed: Error | null = null;
   const res = {
-    setHeader: (name: string, value: string) => void steps.push({ name, value: String(value) }),
+    setHeader: (name: string, value: string) => void steps.push({ name, value }),
     removeHeader: (name: string) => void steps.push({ name, value: null }),
   };
-  void middleware({} as Request, res as unknown as Response, (error?: unknown) => (failed = error ?? null));
-  if (failed) throw failed instanceof Error ? failed : new Error(String(failed));
+  void middleware({} as Request, res as unknown as Response, (error?: unknown) => {
+    if (error) failed = error instanceof Error ? error : new Error('helmet could not set its headers');
+  });
+  if (failed) throw failed;
   return steps;
 }
 

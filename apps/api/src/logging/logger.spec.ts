@@ -45,7 +45,7 @@ describe('httpLogger', () => {
     await vi.waitFor(() => expect(lines).toHaveLength(1));
     const id = res.headers.get('x-request-id');
     expect(id).toMatch(/^[0-9a-f-]{36}$/);
-    expect(fields(lines[0]!)).toEqual({
+    expect(fields(lines[0])).toEqual({
       level: 20,
       service: 'torquetrail-api',
       req: { id, method: 'GET', path: '/api/patients' },
@@ -62,14 +62,14 @@ describe('httpLogger', () => {
     status = 500;
     await (await fetch(`${url}/api/sites/y`, { method: 'POST' })).arrayBuffer();
     await vi.waitFor(() => expect(lines).toHaveLength(2));
-    expect(fields(lines[0]!)).toEqual({
+    expect(fields(lines[0])).toEqual({
       level: 30,
       service: 'torquetrail-api',
       req: { id: 'lb-7f3a9c21', method: 'GET', path: '/api/sites/x' },
       res: { statusCode: 404 },
       msg: 'request completed',
     });
-    const failed = fields(lines[1]!);
+    const failed = fields(lines[1]);
     expect(failed).toMatchObject({
       level: 50,
       req: { method: 'POST', path: '/api/sites/y' },
@@ -77,16 +77,7 @@ describe('httpLogger', () => {
       err: { type: 'Error', message: 'failed with status code 500' },
       msg: 'request errored',
     });
-    expect(Object.keys(lines[1]!)).toEqual([
-      'level',
-      'time',
-      'service',
-      'req',
-      'res',
-      'err',
-      'responseTime',
-      'msg',
-    ]);
+    expect(Object.keys(lines[1])).toEqual(['level', 'time', 'service', 'req', 'res', 'err', 'responseTime', 'msg']);
   });
 
   it('makes no child logger for a line below the level, and one for a handler that logs', async () => {
@@ -99,7 +90,7 @@ describe('httpLogger', () => {
     await (await fetch(`${url}/api/fails`)).arrayBuffer();
     await vi.waitFor(() => expect(lines).toHaveLength(1));
     expect(child).toHaveBeenCalledTimes(1);
-    expect(fields({ responseTime: 0, ...lines[0]! })).toMatchObject({
+    expect(fields({ responseTime: 0, ...lines[0] })).toMatchObject({
       level: 40,
       req: { method: 'GET', path: '/api/fails' },
       dependency: 'database',

@@ -4,6 +4,8 @@ import type { LoggerService } from '@nestjs/common';
 import { pino, type DestinationStream, type Level, type Logger } from 'pino';
 
 declare module 'http' {
+  // A module augmentation names the interface it extends.
+  // oxlint-disable-next-line eslint/no-shadow
   interface IncomingMessage {
     /** The request id: the X-Request-Id header, every log line of the request, error replies, audit rows. */
     id?: string;
