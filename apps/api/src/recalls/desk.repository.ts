@@ -85,28 +85,35 @@ export async function queryDesk(
  * patients. As subqueries of the page's statement they were most of its planning (2–3 ms of
  * 3–4 on the large practice) on every request, and the page's statement is planned anew each time
  * (its filters and orders differ); this statement's text never changes, so as a named statement
- * PostgreSQL parses and plans it once per connection. A provisional's list is read only for the
- * rows whose summary says one is past its day (`provisional_late`), as the page's CASE did.
+ * PostgreSQL parses and plans it once per connection, and it reads the page's restorations in one
+ * index scan for all its patients rather than one probe per row. Only patients with something
+ * overdue come back (the others get empty lists). A provisional's list is read only for the rows
+ * whose summary says one is past its day (`provisional_late`), as the page's CASE did.
  */
 const SCREEN_LISTS = new PgDialect().sqlToQuery(sql`
-  select pa.id,
-         case when pa.id = any(${sql.placeholder('late')}::uuid[]) then coalesce((
-           select json_agg(json_build_object('restorationId', rp.id, 'plannedReplacementOn', rp.planned_replacement_on,
-                    'fdis', (select json_agg(s.fdi order by s.fdi) from restoration_sites rs
-                             join implant_sites s on s.id = rs.site_id where rs.restoration_id = rp.id))
-                  order by rp.planned_replacement_on)
-           from restorations rp
-           where rp.patient_id = pa.id and rp.provisional and rp.status = 'delivered'
-             and rp.planned_replacement_on < ${sql.placeholder('today')}::date
-         ), '[]'::json) else '[]'::json end as provisionals_overdue,
-         coalesce((
-           select json_agg(json_build_object('restorationId', o.id, 'lastChangeOn', o.last_change, 'reviewDueOn', o.due_on,
-                    'fdis', (select json_agg(s.fdi order by s.fdi) from restoration_sites rs
-                             join implant_sites s on s.id = rs.site_id where rs.restoration_id = o.id))
-                  order by o.due_on)
-           from (${overdueInsertReviews(sql.placeholder('today'), sql`ro.patient_id = pa.id`)}) o
-         ), '[]'::json) as insert_reviews_overdue
-  from unnest(${sql.placeholder('ids')}::uuid[]) as pa(id)`);
+  with late as (
+    select rp.patient_id,
+           json_agg(json_build_object('restorationId', rp.id, 'plannedReplacementOn', rp.planned_replacement_on,
+                      'fdis', (select json_agg(s.fdi order by s.fdi) from restoration_sites rs
+                               join implant_sites s on s.id = rs.site_id where rs.restoration_id = rp.id))
+                    order by rp.planned_replacement_on) as list
+    from restorations rp
+    where rp.patient_id = any(${sql.placeholder('late')}::uuid[]) and rp.provisional and rp.status = 'delivered'
+      and rp.planned_replacement_on < ${sql.placeholder('today')}::date
+    group by rp.patient_id
+  ), reviews as (
+    select o.patient_id,
+           json_agg(json_build_object('restorationId', o.id, 'lastChangeOn', o.last_change, 'reviewDueOn', o.due_on,
+                      'fdis', (select json_agg(s.fdi order by s.fdi) from restoration_sites rs
+                               join implant_sites s on s.id = rs.site_id where rs.restoration_id = o.id))
+                    order by o.due_on) as list
+    from (${overdueInsertReviews(sql.placeholder('today'), sql`ro.patient_id = any(${sql.placeholder('ids')}::uuid[])`)}) o
+    group by o.patient_id
+  )
+  select coalesce(late.patient_id, reviews.patient_id) as id,
+         coalesce(late.list, '[]'::json) as provisionals_overdue,
+         coalesce(reviews.list, '[]'::json) as insert_reviews_overdue
+  from late full join reviews on reviews.patient_id = late.patient_id`);
 
 async function withScreenLists(pool: pg.Pool, today: string, rows: DeskSqlRow[]): Promise<void> {
   if (rows.length === 0) return;
