@@ -368,9 +368,11 @@ async function measureDatabase(side, { withFloor }) {
       const from = fs.statSync(captureFile).size;
       await request(port, url, { cookie });
       await new Promise((r) => setTimeout(r, 100));
-      // The desk's own statements (the session's user and the audit row are measured elsewhere).
+      // The desk's own statements (the session's user and the audit row are measured elsewhere); since
+      // session 11 the page's overdue lists are a statement of their own (`with late as`, recalls/desk.repository.ts).
       out.deskSql[name] = readCapture(captureFile, from).filter(
-        (s) => /recall_summaries|"recalls"|recalls\b/.test(s.text) && /^\s*(select|with)/i.test(s.text),
+        (s) =>
+          /recall_summaries|"recalls"|recalls\b|^\s*with late as/.test(s.text) && /^\s*(select|with)/i.test(s.text),
       );
     }
     // The export's statement: the query inside the COPY that writes the CSV (its values are written

@@ -4,8 +4,11 @@
 // comparison is made within seconds whatever else the machine is doing. CPU per request (user +
 // system from /proc, 10 ms ticks) and peak RSS per run; the replies are compared byte for byte.
 // --profile writes a .cpuprofile per variant and endpoint (load window only) and prints where it goes.
+// --database large loads the large practice of `node scripts/bench-site-file.mjs` (seeded by it, kept
+// between runs) instead of the demo database: the Recall desk's endpoints (desk-*) need its 10 000 patients.
 // Usage: node scripts/bench/api-cpu.mjs --variant 'name|apps/api/dist|--max-semi-space-size=1 …' …
 //          [--endpoints site,timeline] [--requests 600] [--connections 8] [--rounds 3] [--profile] [--out dir]
+//          [--database demo|large]
 import { spawn } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
@@ -29,10 +32,12 @@ const { values: args } = parseArgs({
     profile: { type: 'boolean', default: false },
     'profile-kind': { type: 'string', default: 'cpu' },
     reuse: { type: 'boolean', default: false },
+    database: { type: 'string', default: 'demo' },
     out: { type: 'string', default: path.join(repoRoot, '.local', 'bench', 'api-cpu') },
   },
 });
-const DB = 'torquetrail_bench_demo';
+const DB = { demo: 'torquetrail_bench_demo', large: 'torquetrail_bench_large' }[args.database];
+if (!DB) throw new Error(`--database demo or large, not ${args.database}`);
 const HEAP = args['profile-kind'] === 'heap';
 const EXT = HEAP ? 'heapprofile' : 'cpuprofile';
 const BASE_PORT = 3000 + (Number(process.env.PORT ?? 3000) % 1000) + 1000;
@@ -58,7 +63,9 @@ const exists = await withOwner(
   'postgres',
   async (c) => (await c.query('select 1 from pg_database where datname = $1', [DB])).rowCount,
 );
-if (!args.reuse || !exists) await prepareDemoDatabase(DB);
+if (args.database === 'large' && !exists)
+  throw new Error(`${DB} does not exist: seed it first with node scripts/bench-site-file.mjs --desk`);
+if (args.database === 'demo' && (!args.reuse || !exists)) await prepareDemoDatabase(DB);
 
 async function withOwner(database, fn) {
   const client = new pgModule.Client({ connectionString: ownerUrl(database) });
@@ -83,6 +90,14 @@ const ENDPOINTS = {
   // The pipeline's fixed cost, for comparison: the session's user only (and its audit row), and no session at all.
   me: '/api/auth/me',
   health: '/api/health/live',
+  // The Recall desk's first pages, as the Site file benchmark measures them (--database large).
+  'desk-due': '/api/recalls/desk?filter=all&sort=dueOn&dir=asc',
+  'desk-name': '/api/recalls/desk?filter=all&sort=name&dir=asc',
+  'desk-exam': '/api/recalls/desk?filter=all&sort=lastExamOn&dir=desc',
+  'desk-overdue': '/api/recalls/desk?filter=overdue&sort=overdueDays&dir=desc',
+  'desk-week': '/api/recalls/desk?filter=due-this-week&sort=dueOn&dir=asc',
+  'desk-peri': '/api/recalls/desk?filter=peri-implantitis-last&sort=dueOn&dir=asc',
+  'desk-search': '/api/recalls/desk?filter=all&sort=dueOn&dir=asc&search=family12',
 };
 const endpoints = args.endpoints.split(',').map((name) => [name, ENDPOINTS[name]]);
 
@@ -255,7 +270,7 @@ try {
         for (const side of order) {
           const run = await measure(side, name, url, connections);
           line.push(
-            `${side.name} ${run.cpuMsPerRequest.toFixed(2)} ms/req (sys ${run.systemMsPerRequest.toFixed(2)}) ${run.rps.toFixed(0)} req/s RSS ${run.peakRssMb.toFixed(0)} MB${run.errors ? ` ERRORS ${run.errors}` : ''}`,
+            `${side.name} ${run.cpuMsPerRequest.toFixed(2)} ms/req (sys ${run.systemMsPerRequest.toFixed(2)}) ${run.rps.toFixed(0)} req/s p50 ${run.p50} ms RSS ${run.peakRssMb.toFixed(0)} MB${run.errors ? ` ERRORS ${run.errors}` : ''}`,
           );
         }
         console.log(`#${round + 1} ${name} ${connections}c (load ${loadAverage()}): ${line.join(' | ')}`);
@@ -273,6 +288,8 @@ try {
           cpuMsPerRequest: runs.map((r) => Number(r.cpuMsPerRequest.toFixed(2))),
           median: Number(median(runs.map((r) => r.cpuMsPerRequest)).toFixed(2)),
           systemMedian: Number(median(runs.map((r) => r.systemMsPerRequest)).toFixed(2)),
+          // Wall time: at 1 connection, the time a person waits for the reply.
+          p50Median: median(runs.map((r) => r.p50)),
           peakRssMb: Number(Math.max(...runs.map((r) => r.peakRssMb)).toFixed(0)),
         };
       }
@@ -281,7 +298,7 @@ try {
   for (const [name, rows] of Object.entries(summary))
     for (const [row, s] of Object.entries(rows))
       console.log(
-        `  ${name.padEnd(12)} ${row.padEnd(18)} ${s.median.toFixed(2)} (${s.cpuMsPerRequest.join(', ')}; system ${s.systemMedian.toFixed(2)}) peak ${s.peakRssMb} MB`,
+        `  ${name.padEnd(12)} ${row.padEnd(18)} ${s.median.toFixed(2)} (${s.cpuMsPerRequest.join(', ')}; system ${s.systemMedian.toFixed(2)}) p50 ${s.p50Median} ms peak ${s.peakRssMb} MB`,
       );
   fs.writeFileSync(
     path.join(args.out, 'api-cpu.json'),

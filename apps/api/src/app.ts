@@ -40,7 +40,7 @@ export async function createApp(
   // The web's page, read once: the CSP allows its inline script by hash, and it is what is served.
   const indexHtml = env.WEB_DIST ? path.join(env.WEB_DIST, 'index.html') : null;
   const pageHtml = indexHtml && fs.existsSync(indexHtml) ? fs.readFileSync(indexHtml, 'utf8') : undefined;
-  app.use(...securityHeaders({ pageHtml }));
+  app.use(securityHeaders({ pageHtml }));
   app.use(sameOriginWrites(env.EXTRA_ORIGINS));
   app.enableShutdownHooks();
 

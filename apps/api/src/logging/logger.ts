@@ -1,8 +1,18 @@
 import { randomUUID } from 'node:crypto';
 import type { IncomingMessage, ServerResponse } from 'node:http';
 import type { LoggerService } from '@nestjs/common';
-import { pino, type DestinationStream, type Logger } from 'pino';
-import { pinoHttp } from 'pino-http';
+import { pino, type DestinationStream, type Level, type Logger } from 'pino';
+
+declare module 'http' {
+  // A module augmentation names the interface it extends.
+  // oxlint-disable-next-line eslint/no-shadow
+  interface IncomingMessage {
+    /** The request id: the X-Request-Id header, every log line of the request, error replies, audit rows. */
+    id?: string;
+    /** A logger whose lines name the request (`req`: id, method, path); made on first use. */
+    log?: Logger;
+  }
+}
 
 /**
  * Structured logs (pino, one JSON object per line) with a request id in every line. Patient data
@@ -31,22 +41,48 @@ function requestId(req: IncomingMessage, res: ServerResponse): string {
   return id;
 }
 
-/** One line per request: id, method, path (no query string), status, time. */
+/** The level of a request's line: failures are errors, refusals info, the rest debug. */
+const levelOf = (res: ServerResponse, error: unknown): Level =>
+  error || res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'info' : 'debug';
+
+/**
+ * One line per request: id, method, path (no query string), status, time — the lines pino-http
+ * wrote (same fields, levels and messages; logging.e2e-spec.ts and logger.spec.ts), without
+ * its work on every request: pino-http made each request a child logger (its bindings serialized
+ * and redacted) and serialized the whole request and reply first, though at the production level
+ * (info) a request that succeeds writes no line. Here the child logger is made only when a line is
+ * written or a handler asks for `req.log`.
+ */
 export function httpLogger(logger: Logger) {
-  return pinoHttp({
-    logger,
-    genReqId: requestId,
-    customLogLevel: (_req, res, error) =>
-      error || res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'info' : 'debug',
-    serializers: {
-      req: (req: { id: string; method: string; url: string }) => ({
-        id: req.id,
-        method: req.method,
-        path: req.url.split('?')[0],
-      }),
-      res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
-    },
-  });
+  return (req: IncomingMessage & { originalUrl?: string }, res: ServerResponse, next: () => void): void => {
+    const started = Date.now();
+    const id = (req.id ||= requestId(req, res));
+    const fields = { id, method: req.method, path: (req.originalUrl ?? req.url ?? '').split('?')[0] };
+    let child: Logger | undefined;
+    const log = () => (child ??= logger.child({ req: fields }));
+    Object.defineProperty(req, 'log', { get: log, configurable: true, enumerable: true });
+    const done = (error?: Error) => {
+      res.removeListener('close', done);
+      res.removeListener('finish', done);
+      res.removeListener('error', done);
+      const level = levelOf(res, error);
+      if (!logger.isLevelEnabled(level)) return;
+      const responseTime = Date.now() - started;
+      // As pino-std-serializers had it: no status before the headers went (a request aborted early).
+      const reply = { statusCode: res.headersSent ? res.statusCode : null };
+      if (error || res.statusCode >= 500) {
+        const err = error ?? new Error(`failed with status code ${res.statusCode}`);
+        log()[level]({ res: reply, err, responseTime }, 'request errored');
+        return;
+      }
+      const ended = !req.readableAborted && res.writableEnded;
+      log()[level]({ res: reply, responseTime }, ended ? 'request completed' : 'request aborted');
+    };
+    res.on('close', done);
+    res.on('finish', done);
+    res.on('error', done);
+    next();
+  };
 }
 
 /**

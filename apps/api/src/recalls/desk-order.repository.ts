@@ -7,7 +7,7 @@
 //
 // A new filter: a column of recall_summaries kept by recall_summary_refresh (the migration), a
 // condition in `FILTERS` below, and an index when the filter is narrow and orders by a key of its own.
-import { sql, type SQL } from 'drizzle-orm';
+import { type Placeholder, sql, type SQL } from 'drizzle-orm';
 import { DESK_DUE_SOON_DAYS, type RecallDeskCsvQuery } from '@torquetrail/contracts';
 import type { Scope } from '../authz/scope.js';
 
@@ -49,7 +49,7 @@ const FILTERS: Record<RecallDeskCsvQuery['filter'], (today: string, scope: Scope
  * is before today (insertReviewOverdue in @torquetrail/domain). Columns: id, patient_id,
  * last_change, due_on. `where` narrows the restorations (alias ro).
  */
-export const overdueInsertReviews = (today: string, where: SQL) =>
+export const overdueInsertReviews = (today: string | Placeholder, where: SQL) =>
   sql`select ro.id, ro.patient_id, lc.last_change, due.due_on
       from restorations ro
       join practices pr on pr.id = ro.practice_id

@@ -1,7 +1,8 @@
 // The Recall desk: filtered, sorted and paged in PostgreSQL from its summary (recall_summaries,
 // ADR 0009), scoped to the practice (and the user's shares) in the where clause. The order is walked
 // from an index of the summary (desk-order.repository.ts). Timings: npm run bench (docs/performance.md).
-import { sql, type SQL } from 'drizzle-orm';
+import { fillPlaceholders, sql, type SQL } from 'drizzle-orm';
+import { PgDialect } from 'drizzle-orm/pg-core';
 import type { RecallDeskCsvQuery, RecallDeskRow } from '@torquetrail/contracts';
 import type pg from 'pg';
 import type { Db } from '../db/database.js';
@@ -43,6 +44,8 @@ interface DeskSqlRow {
   sites: { siteId: string; fdi: number; status: string | null; examinedOn: string | null }[];
   /** The CSV's statement only: the sites' cell of an own practice's row, null for a shared patient's. */
   sites_text?: string | null;
+  /** The page's statement only: a delivered provisional is past its day (its list is then read). */
+  provisional_late?: boolean | null;
   /** Absent in the CSV's statement. */
   provisionals_overdue?: { restorationId: string; fdis: number[]; plannedReplacementOn: string }[];
   insert_reviews_overdue?: {
@@ -55,6 +58,7 @@ interface DeskSqlRow {
 
 export async function queryDesk(
   db: Db,
+  pool: pg.Pool,
   scope: Scope,
   today: string,
   q: RecallDeskCsvQuery,
@@ -62,14 +66,71 @@ export async function queryDesk(
 ): Promise<DeskPage> {
   // The page and its count side by side, on two connections: the count visits every patient of the
   // filter (exact, never an estimate: it is a clinical list), the page only the rows up to the page,
-  // so the reply waits for the slower of the two rather than for both one after the other.
-  const [result, counted] = await Promise.all([
-    db.execute<DeskSqlRow & Record<string, unknown>>(deskStatement(scope, today, q, page)),
-    db.execute<{ total: number } & Record<string, unknown>>(
-      deskOrder(scope, today, q, page.offset + page.limit).countStatement,
-    ),
-  ]);
-  return { rows: result.rows.map(toDeskRow), total: counted.rows[0]?.total ?? 0 };
+  // so the reply waits for the slower of the two rather than for both one after the other. The
+  // page's lists of overdue provisionals and insert reviews follow the page, while the count runs.
+  const counted = db.execute<{ total: number } & Record<string, unknown>>(
+    deskOrder(scope, today, q, page.offset + page.limit).countStatement,
+  );
+  const pageRows = async () => {
+    const result = await db.execute<DeskSqlRow & Record<string, unknown>>(deskStatement(scope, today, q, page));
+    await withScreenLists(pool, today, result.rows);
+    return result.rows;
+  };
+  const [rows, total] = await Promise.all([pageRows(), counted]);
+  return { rows: rows.map(toDeskRow), total: total.rows[0]?.total ?? 0 };
+}
+
+/**
+ * Each row's overdue provisionals and overdue insert reviews (on screen only), for the page's
+ * patients. As subqueries of the page's statement they were most of its planning (2–3 ms of
+ * 3–4 on the large practice) on every request, and the page's statement is planned anew each time
+ * (its filters and orders differ); this statement's text never changes, so as a named statement
+ * PostgreSQL parses and plans it once per connection, and it reads the page's restorations in one
+ * index scan for all its patients rather than one probe per row. Only patients with something
+ * overdue come back (the others get empty lists). A provisional's list is read only for the rows
+ * whose summary says one is past its day (`provisional_late`), as the page's CASE did.
+ */
+const SCREEN_LISTS = new PgDialect().sqlToQuery(sql`
+  with late as (
+    select rp.patient_id,
+           json_agg(json_build_object('restorationId', rp.id, 'plannedReplacementOn', rp.planned_replacement_on,
+                      'fdis', (select json_agg(s.fdi order by s.fdi) from restoration_sites rs
+                               join implant_sites s on s.id = rs.site_id where rs.restoration_id = rp.id))
+                    order by rp.planned_replacement_on) as list
+    from restorations rp
+    where rp.patient_id = any(${sql.placeholder('late')}::uuid[]) and rp.provisional and rp.status = 'delivered'
+      and rp.planned_replacement_on < ${sql.placeholder('today')}::date
+    group by rp.patient_id
+  ), reviews as (
+    select o.patient_id,
+           json_agg(json_build_object('restorationId', o.id, 'lastChangeOn', o.last_change, 'reviewDueOn', o.due_on,
+                      'fdis', (select json_agg(s.fdi order by s.fdi) from restoration_sites rs
+                               join implant_sites s on s.id = rs.site_id where rs.restoration_id = o.id))
+                    order by o.due_on) as list
+    from (${overdueInsertReviews(sql.placeholder('today'), sql`ro.patient_id = any(${sql.placeholder('ids')}::uuid[])`)}) o
+    group by o.patient_id
+  )
+  select coalesce(late.patient_id, reviews.patient_id) as id,
+         coalesce(late.list, '[]'::json) as provisionals_overdue,
+         coalesce(reviews.list, '[]'::json) as insert_reviews_overdue
+  from late full join reviews on reviews.patient_id = late.patient_id`);
+
+async function withScreenLists(pool: pg.Pool, today: string, rows: DeskSqlRow[]): Promise<void> {
+  if (rows.length === 0) return;
+  const lists = await pool.query<Pick<DeskSqlRow, 'id' | 'provisionals_overdue' | 'insert_reviews_overdue'>>({
+    name: 'desk_screen_lists',
+    text: SCREEN_LISTS.sql,
+    values: fillPlaceholders(SCREEN_LISTS.params, {
+      ids: rows.map((r) => r.id),
+      late: rows.filter((r) => r.provisional_late).map((r) => r.id),
+      today,
+    }),
+  });
+  const byPatient = new Map(lists.rows.map((l) => [l.id, l]));
+  for (const row of rows) {
+    row.provisionals_overdue = byPatient.get(row.id)?.provisionals_overdue ?? [];
+    row.insert_reviews_overdue = byPatient.get(row.id)?.insert_reviews_overdue ?? [];
+  }
 }
 
 /**
@@ -108,10 +169,10 @@ export async function* streamDesk(
 /**
  * The desk in one statement: the page's summary rows in order, walked from an index of
  * recall_summaries (desk-order.repository.ts) so that only the rows up to the page are read, then
- * each row's patient and, only for a row whose provisional is past its day, that provisional. The
- * page's count is a statement of its own (`DeskOrder.countStatement`). Without `screenOnly` (the
- * CSV), the overdue provisionals and insert reviews are left out (empty lists): the CSV has no
- * column for them.
+ * each row's patient. The page's count is a statement of its own (`DeskOrder.countStatement`),
+ * and so are the screen's overdue provisionals and insert reviews (`SCREEN_LISTS`), for which the
+ * page says whose provisional is past its day (`provisional_late`). Without `screenOnly` (the CSV)
+ * those lists stay empty: the CSV has no column for them.
  */
 function deskStatement(
   scope: Scope,
@@ -132,23 +193,7 @@ function deskStatement(
       : sql`false`;
   const forCsv = sql`case when ${shared} then page.sites else '[]'::json end as sites,
            case when ${shared} then null else page.sites_text end as sites_text`;
-  const onScreen = sql`,
-           case when page.provisional_due < ${today}::date then coalesce((
-             select json_agg(json_build_object('restorationId', rp.id, 'plannedReplacementOn', rp.planned_replacement_on,
-                      'fdis', (select json_agg(s.fdi order by s.fdi) from restoration_sites rs
-                               join implant_sites s on s.id = rs.site_id where rs.restoration_id = rp.id))
-                    order by rp.planned_replacement_on)
-             from restorations rp
-             where rp.patient_id = pa.id and rp.provisional and rp.status = 'delivered'
-               and rp.planned_replacement_on < ${today}::date
-           ), '[]'::json) else '[]'::json end as provisionals_overdue,
-           coalesce((
-             select json_agg(json_build_object('restorationId', o.id, 'lastChangeOn', o.last_change, 'reviewDueOn', o.due_on,
-                      'fdis', (select json_agg(s.fdi order by s.fdi) from restoration_sites rs
-                               join implant_sites s on s.id = rs.site_id where rs.restoration_id = o.id))
-                    order by o.due_on)
-             from (${overdueInsertReviews(today, sql`ro.patient_id = pa.id`)}) o
-           ), '[]'::json) as insert_reviews_overdue`;
+  const onScreen = sql`, page.provisional_due < ${today}::date as provisional_late`;
   return sql`
     with ${order.ctes},
     page as (select * from ordered order by ${order.orderBy('ordered')} limit ${page.limit} offset ${page.offset})

@@ -24,7 +24,7 @@ export class DeskService {
 
   async page(ability: AppAbility, scope: Scope, q: RecallDeskQuery): Promise<RecallDeskReply> {
     const today = this.clock.today();
-    const { rows, total } = await queryDesk(this.db, scope, today, q, {
+    const { rows, total } = await queryDesk(this.db, this.pool, scope, today, q, {
       limit: q.pageSize,
       offset: (q.page - 1) * q.pageSize,
     });
