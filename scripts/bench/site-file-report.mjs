@@ -5,6 +5,7 @@ import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 import pgModule from 'pg';
 import { repoRoot } from '../lib/config.mjs';
+import { sharedBuffersOf } from './plan-buffers.mjs';
 
 const database = await import(pathToFileURL(path.join(repoRoot, 'apps/api/dist/db/database.js')).href);
 /** The session settings of the API's pool (the floor and the EXPLAIN sessions use the same). */
@@ -44,11 +45,7 @@ export async function explainDesk(connectionString, deskSql, dir) {
         file,
         statements: statements.length,
         scansAllExams: /Seq Scan on recall_exams/.test(text),
-        // Each statement's buffers (its plan's first Buffers line): pages read, whatever the machine's load.
-        sharedBuffers: [...text.matchAll(/^\S.*\(cost=.*\n\s+Buffers: shared hit=(\d+)(?: read=(\d+))?/gm)].reduce(
-          (sum, m) => sum + Number(m[1]) + Number(m[2] ?? 0),
-          0,
-        ),
+        sharedBuffers: sharedBuffersOf(text),
         executionMs: [...text.matchAll(/Execution Time: ([\d.]+) ms/g)].reduce((sum, m) => sum + Number(m[1]), 0),
       };
     }
