@@ -9,7 +9,8 @@ import { ListMultipartUploadsCommand, ListObjectsV2Command, S3Client } from '@aw
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { dicomFile, greyAt, halvesPng, waitForPreview } from './support/radiograph-fixtures.js';
 import { startS3Proxy, type S3Proxy } from './support/s3-proxy.js';
-import { patientId, signIn, startTestApp, testEnv, type TestContext } from './support/test-app.js';
+import { testS3Client } from './support/s3-client.js';
+import { patientId, signIn, startTestApp, type TestContext } from './support/test-app.js';
 import { replyBytes } from './support/reply-bytes.js';
 
 const MAX_BYTES = 6 * 1024 * 1024;
@@ -157,15 +158,9 @@ const replyOf = (req: http.ClientRequest) =>
 
 /** Straight to the S3 fake (not through the proxy). */
 async function withS3<T>(run: (s3: S3Client, bucket: string) => Promise<T>): Promise<T> {
-  const env = testEnv();
-  const s3 = new S3Client({
-    endpoint: env.S3_ENDPOINT,
-    region: env.S3_REGION,
-    credentials: { accessKeyId: env.S3_ACCESS_KEY_ID, secretAccessKey: env.S3_SECRET_ACCESS_KEY },
-    forcePathStyle: true,
-  });
+  const { s3, bucket } = testS3Client();
   try {
-    return await run(s3, env.S3_BUCKET);
+    return await run(s3, bucket);
   } finally {
     s3.destroy();
   }

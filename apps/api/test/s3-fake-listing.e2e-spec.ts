@@ -7,20 +7,12 @@ import {
   DeleteObjectsCommand,
   ListObjectsV2Command,
   PutObjectCommand,
-  S3Client,
   paginateListObjectsV2,
 } from '@aws-sdk/client-s3';
 import { afterAll, describe, expect, it } from 'vitest';
-import { testEnv } from './support/test-app.js';
+import { testS3Client } from './support/s3-client.js';
 
-const env = testEnv();
-const s3 = new S3Client({
-  endpoint: env.S3_ENDPOINT,
-  region: env.S3_REGION,
-  credentials: { accessKeyId: env.S3_ACCESS_KEY_ID, secretAccessKey: env.S3_SECRET_ACCESS_KEY },
-  forcePathStyle: true,
-});
-const Bucket = env.S3_BUCKET;
+const { s3, bucket: Bucket } = testS3Client();
 const prefix = `listing-check/${randomUUID()}/`;
 const KEYS = 1_005; // one page is 1 000 keys
 const keys = Array.from({ length: KEYS }, (_, i) => `${prefix}${String(i).padStart(4, '0')}.txt`);
