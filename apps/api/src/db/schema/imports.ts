@@ -76,5 +76,8 @@ export const importedFreeTextParts = pgTable(
     lot: text('lot'),
     installedOn: date('installed_on', { mode: 'string' }).notNull(),
   },
-  (t) => [index('imported_free_text_parts_site_idx').on(t.siteId)],
+  (t) => [
+    index('imported_free_text_parts_site_idx').on(t.siteId),
+    index('imported_free_text_parts_patient_idx').on(t.patientId),
+  ],
 );

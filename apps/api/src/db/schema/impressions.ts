@@ -49,6 +49,7 @@ export const impressions = pgTable(
     amendmentReason: text('amendment_reason'),
   },
   (t) => [
+    index('impressions_patient_idx').on(t.patientId),
     index('impressions_restoration_idx').on(t.restorationId),
     // One first version per restoration; later ones are amendments of it. Two first impressions
     // racing are decided here.
@@ -79,6 +80,7 @@ export const impressionScanBodies = pgTable(
     lot: text('lot'),
   },
   (t) => [
+    index('impression_scan_bodies_site_idx').on(t.siteId),
     unique('impression_scan_bodies_site_unique').on(t.impressionId, t.siteId),
     index('impression_scan_bodies_component_idx').on(t.componentId),
     index('impression_scan_bodies_practice_lot_idx')
@@ -118,6 +120,8 @@ export const scanFiles = pgTable(
     uploadedAt: timestamp('uploaded_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [
+    index('scan_files_patient_idx').on(t.patientId),
+    index('scan_files_impression_idx').on(t.impressionId),
     index('scan_files_restoration_idx').on(t.restorationId),
     unique('scan_files_object_key_unique').on(t.objectKey),
     unique('scan_files_restoration_sha256_unique').on(t.restorationId, t.sha256),
@@ -157,6 +161,8 @@ export const scanBodyMarkers = pgTable(
     amendmentReason: text('amendment_reason'),
   },
   (t) => [
+    index('scan_body_markers_patient_idx').on(t.patientId),
+    index('scan_body_markers_site_idx').on(t.siteId),
     index('scan_body_markers_scan_file_idx').on(t.scanFileId),
     // One first marker per file and site; later ones amend it. Two first markers racing are decided here.
     uniqueIndex('scan_body_markers_first_unique')

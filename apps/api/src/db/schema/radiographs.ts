@@ -136,6 +136,7 @@ export const radiographMeasurements = pgTable(
     amendmentReason: text('amendment_reason'),
   },
   (t) => [
+    index('radiograph_measurements_patient_idx').on(t.patientId),
     index('radiograph_measurements_site_idx').on(t.siteId, t.measuredAt),
     // A radiograph's measurements (its detail, the bone levels offered to an exam).
     index('radiograph_measurements_radiograph_idx').on(t.radiographId),

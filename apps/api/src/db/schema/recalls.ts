@@ -79,6 +79,9 @@ export const recallExams = pgTable(
     baselineExamId: uuid('baseline_exam_id'),
   },
   (t) => [
+    index('recall_exams_bone_level_measurement_idx')
+      .on(t.boneLevelMeasurementId)
+      .where(sql`${t.boneLevelMeasurementId} is not null`),
     index('recall_exams_site_idx').on(t.siteId, t.examinedOn),
     index('recall_exams_patient_idx').on(t.patientId, t.examinedOn),
     // The desk sorted by last exam walks the practice's exams newest first and stops at the page.
@@ -171,6 +174,7 @@ export const reminderLog = pgTable(
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [
+    index('reminder_log_patient_idx').on(t.patientId),
     unique('reminder_log_idempotency_unique').on(t.idempotencyKey),
     index('reminder_log_practice_idx').on(t.practiceId, t.createdAt),
   ],

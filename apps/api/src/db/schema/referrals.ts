@@ -36,6 +36,7 @@ export const referralSummaryMails = pgTable(
     sentAt: timestamp('sent_at', { withTimezone: true }),
   },
   (t) => [
+    index('referral_summary_mails_share_idx').on(t.shareId),
     uniqueIndex('referral_summary_mails_idempotency_unique').on(t.practiceId, t.idempotencyKey),
     index('referral_summary_mails_patient_idx').on(t.patientId, t.requestedAt),
     // One request waiting per share: pressing again while one waits adds nothing.

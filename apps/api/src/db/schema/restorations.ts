@@ -81,6 +81,9 @@ export const restorations = pgTable(
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [
+    index('restorations_replaced_by_idx')
+      .on(t.replacedById)
+      .where(sql`${t.replacedById} is not null`),
     index('restorations_patient_idx').on(t.patientId),
     // The Recall desk's provisionals: delivered, still in place, by planned replacement day.
     index('restorations_provisional_due_idx')
@@ -158,6 +161,10 @@ export const componentInstances = pgTable(
     enteredInErrorReason: text('entered_in_error_reason'),
   },
   (t) => [
+    index('component_instances_patient_idx').on(t.patientId),
+    index('component_instances_restoration_idx')
+      .on(t.restorationId)
+      .where(sql`${t.restorationId} is not null`),
     index('component_instances_site_idx').on(t.siteId),
     index('component_instances_insert_change_idx')
       .on(t.insertChangeId)
@@ -202,6 +209,7 @@ export const torqueEvents = pgTable(
     recordedAt: timestamp('recorded_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [
+    index('torque_events_patient_idx').on(t.patientId),
     index('torque_events_instance_idx').on(t.componentInstanceId, t.performedAt),
     ...amendmentChain('torque_events', t),
   ],
@@ -277,6 +285,7 @@ export const labPrescriptions = pgTable(
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [
+    index('lab_prescriptions_patient_idx').on(t.patientId),
     index('lab_prescriptions_restoration_idx').on(t.restorationId),
     unique('lab_prescriptions_object_key_unique').on(t.objectKey),
     unique('lab_prescriptions_practice_number_unique').on(t.practiceId, t.number),
@@ -341,7 +350,14 @@ export const complications = pgTable(
     recordedBy: uuid('recorded_by').references(() => users.id),
     recordedAt: timestamp('recorded_at', { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index('complications_site_idx').on(t.siteId), ...amendmentChain('complications', t)],
+  (t) => [
+    index('complications_site_idx').on(t.siteId),
+    index('complications_patient_idx').on(t.patientId),
+    index('complications_instance_idx')
+      .on(t.componentInstanceId)
+      .where(sql`${t.componentInstanceId} is not null`),
+    ...amendmentChain('complications', t),
+  ],
 );
 
 /**
@@ -378,6 +394,7 @@ export const insertChanges = pgTable(
     recordedAt: timestamp('recorded_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [
+    index('insert_changes_restoration_idx').on(t.restorationId),
     index('insert_changes_site_idx').on(t.siteId, t.changedOn),
     index('insert_changes_patient_idx').on(t.patientId),
     ...amendmentChain('insert_changes', t),

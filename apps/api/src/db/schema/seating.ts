@@ -38,6 +38,8 @@ export const seatingChecks = pgTable(
     amendmentReason: text('amendment_reason'),
   },
   (t) => [
+    index('seating_checks_patient_idx').on(t.patientId),
+    index('seating_checks_radiograph_idx').on(t.radiographId),
     index('seating_checks_restoration_idx').on(t.restorationId),
     // One first version per delivery or impression; later ones are amendments of it. Two first
     // checks racing are decided here.

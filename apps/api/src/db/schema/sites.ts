@@ -24,6 +24,7 @@ export const implantSites = pgTable(
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [
+    index('implant_sites_patient_idx').on(t.patientId),
     // One live site per position; a failed or removed site stays in the record and a new one may be planned there.
     uniqueIndex('implant_sites_patient_fdi_live_unique')
       .on(t.patientId, t.fdi)
@@ -75,6 +76,7 @@ export const placements = pgTable(
     recordedAt: timestamp('recorded_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [
+    index('placements_patient_idx').on(t.patientId),
     index('placements_site_idx').on(t.siteId),
     // The lot look-up (a field safety notice names a lot or a GTIN).
     index('placements_practice_lot_idx')
