@@ -103,10 +103,7 @@ export async function boneLevelsOfSites(db: Db, siteIds: readonly string[]) {
   if (siteIds.length === 0) return [];
   const result = await db.execute<{ site_id: string; examined_on: string; bone_level_mm: string | number }>(sql`
     select e.site_id, e.examined_on::text, e.bone_level_mm from recall_exams e
-     where e.site_id in (${sql.join(
-       siteIds.map((id) => sql`${id}::uuid`),
-       sql`, `,
-     )})
+     where e.site_id = any(${sql.param([...siteIds])}::uuid[])
        and e.bone_level_mm is not null
        and not exists (select 1 from recall_exams n where n.supersedes_id = e.id)
      order by e.examined_on`);
