@@ -17,6 +17,8 @@ const benches = [
         'scripts/bench-audit-reads.mjs',
         'scripts/bench-radiograph-upload.mjs',
         'scripts/bench-import.mjs',
+        // After the Site file benchmark, which seeds the large practice it reads.
+        'scripts/bench/size-sweep.mjs',
       ].map((script) => ({ script, args: [] }))
     : []),
 ];
