@@ -182,6 +182,29 @@ describe('how the implants do (outcomes)', () => {
     expect(body.complications.per100ImplantYears).toBeCloseTo((events / years) * 100, 1);
   });
 
+  it('lists the implants a page at a time while the curves and the rate count them all', async () => {
+    const whole = (await ctx.http.get('/api/outcomes').set('Cookie', cookies.dentist)).body as OutcomesReply;
+    expect(whole).toMatchObject({ page: 1, pageSize: 50, total: whole.implants.length });
+    const pages: OutcomesReply[] = [];
+    for (let page = 1; page <= Math.ceil(whole.total / 5); page += 1) {
+      const res = await ctx.http.get('/api/outcomes').query({ page, pageSize: 5 }).set('Cookie', cookies.dentist);
+      expect(res.status).toBe(200);
+      pages.push(res.body as OutcomesReply);
+    }
+    // The pages, one after the other, are the whole list in the same order, each implant as it is there.
+    expect(pages.flatMap((p) => p.implants)).toEqual(whole.implants);
+    for (const p of pages) {
+      expect(p.implants.length).toBeLessThanOrEqual(5);
+      expect(p).toMatchObject({ total: whole.total, curves: whole.curves, complications: whole.complications });
+      expect(p.withoutEndDate).toBe(whole.withoutEndDate);
+    }
+    const past = await ctx.http.get('/api/outcomes').query({ page: 99, pageSize: 5 }).set('Cookie', cookies.dentist);
+    expect(past.body).toMatchObject({ implants: [], total: whole.total, page: 99 });
+    for (const bad of [{ page: 0 }, { pageSize: 201 }, { page: 'two' }]) {
+      expect((await ctx.http.get('/api/outcomes').query(bad).set('Cookie', cookies.dentist)).status).toBe(400);
+    }
+  });
+
   it('by restoration retention; the surgeon sees only shared patients; the hygienist is refused', async () => {
     const byRetention = await ctx.http
       .get('/api/outcomes')

@@ -47,7 +47,8 @@ describe('a share of chosen sites, in aggregates and files', () => {
     const harolds = body.implants.filter((i) => i.chartNumber === 'LL-1001').map((i) => i.fdi);
     expect(harolds).toEqual([35]);
     const counted = body.curves.reduce((n, c) => n + c.subjects, 0) + body.withoutEndDate;
-    expect(counted).toBe(body.implants.length);
+    expect(counted).toBe(body.total);
+    expect(body.total).toBe(body.implants.length);
   });
 
   it('referral summary: the surgeon’s download draws site 35 only; the practice’s draws every site', async () => {

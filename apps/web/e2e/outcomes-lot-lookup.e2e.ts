@@ -25,6 +25,17 @@ describe('outcomes, lot look-up and referral summary', () => {
     expect(await page.getByTestId('outcomes-table').textContent()).toMatch(/Failed/);
     await screenshot(page, 'outcomes-survival-curve');
 
+    // The list comes a page at a time; a page past the end says so and leads back.
+    const count = page.getByTestId('outcomes-count');
+    const listed = await page.getByTestId('outcomes-table').locator('tbody tr').count();
+    expect(await count.textContent()).toBe(`Implants 1–${listed} of ${listed}, oldest placement first.`);
+    await page.goto(`${new URL(page.url()).origin}/outcomes?page=2`);
+    await expect.poll(() => count.textContent()).toBe(`No implants on this page; ${listed} in all.`);
+    await page.getByTestId('survival-chart').waitFor();
+    await page.getByRole('navigation', { name: 'Pages of implants' }).getByRole('button', { name: 'Previous' }).click();
+    await expect.poll(() => count.textContent()).toBe(`Implants 1–${listed} of ${listed}, oldest placement first.`);
+    expect(new URL(page.url()).searchParams.get('page')).toBe('1');
+
     await page.getByRole('link', { name: 'Lot look-up' }).click();
     await page.getByLabel('Look up by').selectOption('udi');
     await page.getByLabel('Pasted UDI').fill('(01)09506012345012(17)170228(10)SCN4310-12A07');

@@ -53,7 +53,15 @@ export type LotLookupReply = z.infer<typeof LotLookupReply>;
 
 // ---- how the implants do -------------------------------------------------------------------
 
-export const OutcomesQuery = z.strictObject({ groupBy: OutcomeGrouping.default('system') });
+/**
+ * The curves and the complication rate count every implant in scope; the list of implants comes a
+ * page at a time, in placement order (a large practice has tens of thousands).
+ */
+export const OutcomesQuery = z.strictObject({
+  groupBy: OutcomeGrouping.default('system'),
+  page: z.coerce.number().int().min(1).max(100_000).default(1),
+  pageSize: z.coerce.number().int().min(1).max(200).default(50),
+});
 export type OutcomesQuery = z.infer<typeof OutcomesQuery>;
 
 export const OutcomeImplant = z.object({
@@ -99,7 +107,12 @@ export type SurvivalCurve = z.infer<typeof SurvivalCurve>;
 export const OutcomesReply = z.object({
   asOf: IsoDate,
   groupBy: OutcomeGrouping,
+  /** This page of the implants in scope, oldest placement first. */
   implants: z.array(OutcomeImplant),
+  /** Every implant in scope: what the curves and the complication rate count. */
+  total: z.number().int(),
+  page: z.number().int(),
+  pageSize: z.number().int(),
   curves: z.array(SurvivalCurve),
   /** Failed or removed implants without an end date: left out of the curves. */
   withoutEndDate: z.number().int(),

@@ -1,6 +1,7 @@
-// The implants of the outcomes view in two statements: one row per implant site with a current
-// placement (system, delivered restoration, latest exam, complications), and the bone levels of
-// their current exams. Scoped to the practice and the user's shares in the where clause.
+// The implants of the outcomes view: one row per implant site with a current placement (system,
+// delivered restoration, complications) for every implant in scope, which the curves count; the
+// latest exam and the bone levels only for the page of implants listed. Scoped to the practice and
+// the user's shares in the where clause.
 import { sql, type SQL } from 'drizzle-orm';
 import type { PeriImplantStatus, Retention, SiteStatus } from '@torquetrail/contracts';
 import type { Scope } from '../authz/scope.js';
@@ -35,8 +36,6 @@ export interface ImplantRow {
   system: string;
   retention: Retention | null;
   deliveredOn: string | null;
-  examStatus: PeriImplantStatus | null;
-  examinedOn: string | null;
   complications: number;
 }
 
@@ -52,13 +51,10 @@ export async function listImplants(db: Db, scope: Scope): Promise<ImplantRow[]> 
     system: string;
     retention: Retention | null;
     delivered_on: string | null;
-    exam_status: PeriImplantStatus | null;
-    examined_on: string | null;
     complications: number | string;
   }>(sql`
     select s.id as site_id, pa.id as patient_id, pa.chart_number, s.fdi, s.status, s.ended_on::text,
            pl.placed_on::text, sy.name as system, rr.retention, rr.delivered_on::text,
-           ex.status as exam_status, ex.examined_on::text,
            (select count(*) from complications c
              where c.site_id = s.id and not exists (select 1 from complications n where n.supersedes_id = c.id)
            ) as complications
@@ -74,11 +70,6 @@ export async function listImplants(db: Db, scope: Scope): Promise<ImplantRow[]> 
            and not exists (select 1 from restorations n where n.supersedes_id = r.id)
          order by r.delivered_on desc limit 1
       ) rr on true
-      left join lateral (
-        select e.status, e.examined_on from recall_exams e
-         where e.site_id = s.id and not exists (select 1 from recall_exams n where n.supersedes_id = e.id)
-         order by e.examined_on desc, e.recorded_at desc limit 1
-      ) ex on true
      where ${visible(scope)} and s.status <> 'planned'
      order by pl.placed_on, pa.chart_number, s.fdi`);
   return result.rows.map((r) => ({
@@ -92,8 +83,6 @@ export async function listImplants(db: Db, scope: Scope): Promise<ImplantRow[]> 
     system: r.system,
     retention: r.retention,
     deliveredOn: r.delivered_on,
-    examStatus: r.exam_status,
-    examinedOn: r.examined_on,
     complications: Number(r.complications),
   }));
 }
@@ -108,4 +97,15 @@ export async function boneLevelsOfSites(db: Db, siteIds: readonly string[]) {
        and not exists (select 1 from recall_exams n where n.supersedes_id = e.id)
      order by e.examined_on`);
   return result.rows.map((r) => ({ siteId: r.site_id, date: r.examined_on, boneLevelMm: Number(r.bone_level_mm) }));
+}
+
+/** The latest current exam of each of the sites (those without one are left out). */
+export async function latestExamsOfSites(db: Db, siteIds: readonly string[]) {
+  if (siteIds.length === 0) return [];
+  const result = await db.execute<{ site_id: string; status: PeriImplantStatus; examined_on: string }>(sql`
+    select distinct on (e.site_id) e.site_id, e.status, e.examined_on::text from recall_exams e
+     where e.site_id = any(${sql.param([...siteIds])}::uuid[])
+       and not exists (select 1 from recall_exams n where n.supersedes_id = e.id)
+     order by e.site_id, e.examined_on desc, e.recorded_at desc`);
+  return result.rows.map((r) => ({ siteId: r.site_id, status: r.status, examinedOn: r.examined_on }));
 }

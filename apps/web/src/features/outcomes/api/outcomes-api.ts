@@ -7,15 +7,26 @@ import {
   ReferralSummaryMail,
   ReferralSummaryState,
 } from '@torquetrail/contracts';
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { apiRequest } from '../../../lib/api-client';
 import { outcomesKeys } from './keys';
 
-export const useOutcomes = (groupBy: OutcomeGrouping) =>
+/** Implants listed per page of the outcomes view (the curves count them all). */
+export const OUTCOMES_PAGE_SIZE = 50;
+
+export const useOutcomes = (groupBy: OutcomeGrouping, page: number) =>
   useQuery({
-    queryKey: outcomesKeys.report(groupBy),
+    queryKey: outcomesKeys.report(groupBy, page),
     queryFn: ({ signal }) =>
-      apiRequest(`/api/outcomes?groupBy=${encodeURIComponent(groupBy)}`, { schema: OutcomesReply, signal }),
+      apiRequest(
+        `/api/outcomes?${new URLSearchParams({ groupBy, page: String(page), pageSize: String(OUTCOMES_PAGE_SIZE) })}`,
+        {
+          schema: OutcomesReply,
+          signal,
+        },
+      ),
+    // The curves stay on screen while the next page of the list loads.
+    placeholderData: keepPreviousData,
   });
 
 /** `?by=…&q=…` for the table and the CSV link alike. */

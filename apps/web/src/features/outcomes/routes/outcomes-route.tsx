@@ -1,5 +1,5 @@
 import '../components/outcomes.css';
-import { Callout, HTMLSelect, HTMLTable, NonIdealState } from '@blueprintjs/core';
+import { Button, Callout, HTMLSelect, HTMLTable, NonIdealState } from '@blueprintjs/core';
 import { OUTCOME_GROUPINGS, type OutcomeGrouping, type SurvivalCurve } from '@torquetrail/contracts';
 import { Link, useSearchParams } from 'react-router-dom';
 import { RETENTION_LABEL } from '../../../lib/clinical-labels';
@@ -8,7 +8,7 @@ import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
 import { formatDate } from '../../../lib/dates';
 import { IMPLANT_OUTCOME_LABEL, MAINTENANCE_STATUS_LABEL, OUTCOME_GROUPING_LABEL } from '../../../lib/labels';
-import { useOutcomes } from '../api/outcomes-api';
+import { OUTCOMES_PAGE_SIZE, useOutcomes } from '../api/outcomes-api';
 import { SurvivalChart } from '../components/survival-chart';
 import { ChartNumber } from '../../../lib/components/chart-number';
 
@@ -23,7 +23,17 @@ const curveName = (c: SurvivalCurve, groupBy: OutcomeGrouping) =>
 export function OutcomesRoute() {
   const [url, setUrl] = useSearchParams();
   const groupBy: OutcomeGrouping = url.get('groupBy') === 'retention' ? 'retention' : 'system';
-  const report = useOutcomes(groupBy);
+  const page = Math.max(1, Number(url.get('page') ?? 1) || 1);
+  const report = useOutcomes(groupBy, page);
+  const goToPage = (next: number) =>
+    setUrl(
+      (current) => {
+        const params = new URLSearchParams(current);
+        params.set('page', String(next));
+        return params;
+      },
+      { replace: true },
+    );
   return (
     <div className="outcomes-page">
       <title>How the implants do · Torquetrail</title>
@@ -56,7 +66,7 @@ export function OutcomesRoute() {
           error={report.error}
           onRetry={() => void report.refetch()}
         />
-      ) : report.data.implants.length === 0 ? (
+      ) : report.data.total === 0 ? (
         <NonIdealState icon="timeline-line-chart" title="No implant placed yet" />
       ) : (
         <>
@@ -76,7 +86,12 @@ export function OutcomesRoute() {
               : ''}
             .
           </p>
-          <h2>Implants</h2>
+          <h2 id="outcomes-implants-heading">Implants</h2>
+          <p className="outcomes-page__count" data-testid="outcomes-count">
+            {report.data.implants.length === 0
+              ? `No implants on this page; ${report.data.total} in all.`
+              : `Implants ${(page - 1) * OUTCOMES_PAGE_SIZE + 1}–${(page - 1) * OUTCOMES_PAGE_SIZE + report.data.implants.length} of ${report.data.total}, oldest placement first.`}
+          </p>
           <HTMLTable className="outcomes-table" striped compact data-testid="outcomes-table">
             <thead>
               <tr>
@@ -122,6 +137,23 @@ export function OutcomesRoute() {
               ))}
             </tbody>
           </HTMLTable>
+          {(report.data.total > OUTCOMES_PAGE_SIZE || page > 1) && (
+            <nav className="outcomes-page__pager" aria-label="Pages of implants">
+              <Button icon="chevron-left" disabled={page === 1} onClick={() => goToPage(page - 1)}>
+                Previous
+              </Button>
+              <span>
+                Page {page} of {Math.ceil(report.data.total / OUTCOMES_PAGE_SIZE)}
+              </span>
+              <Button
+                endIcon="chevron-right"
+                disabled={page * OUTCOMES_PAGE_SIZE >= report.data.total}
+                onClick={() => goToPage(page + 1)}
+              >
+                Next
+              </Button>
+            </nav>
+          )}
         </>
       )}
     </div>
