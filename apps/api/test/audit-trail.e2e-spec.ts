@@ -7,6 +7,7 @@ import { randomUUID } from 'node:crypto';
 import { eq, sql } from 'drizzle-orm';
 import { afterAll, describe, expect, it } from 'vitest';
 import { auditValues, runInAudit, reportChange, type AuditContext } from '../src/common/audit-context.js';
+import { CSV_BATCH } from '../src/audit/audit.service.js';
 import { auditedTransaction } from '../src/db/audited-transaction.js';
 import { complications, users } from '../src/db/schema/index.js';
 import { actorCookies } from './support/role-matrix.js';
@@ -301,6 +302,28 @@ describe('the Audit page and "who accessed this record"', () => {
     expect(await rowsOf(csv.headers['x-request-id'])).toMatchObject([
       { action: 'export', outcome: 'allowed', query: { patientId: ids.harold } },
     ]);
+  });
+
+  it('the CSV export carries every row of a trail longer than one batch, once, newest first', async () => {
+    // Rows of an action no request in this file makes, so the filter selects exactly these.
+    const practiceId = (await ctx.db.select({ id: users.practiceId }).from(users).where(eq(users.id, dentistId)))[0]
+      .id!;
+    const count = CSV_BATCH * 2 + 7;
+    await ctx.db.execute(sql`
+      insert into audit_events (at, practice_id, user_id, role, action, outcome, route, record_type)
+      select timestamptz '2026-01-01T00:00:00Z' + make_interval(secs => n), ${practiceId}, ${dentistId}, 'dentist',
+             'sign-out', 'allowed', 'batch-' || n, 'session'
+        from generate_series(1, ${count}) as n`);
+    const csv = await ctx.http
+      .get('/api/audit/csv?action=sign-out&from=2026-01-01&to=2026-01-02')
+      .set('Cookie', cookies.practice_admin);
+    expect(csv.status).toBe(200);
+    const routes = csv.text
+      .split('\r\n')
+      .map((line) => /,batch-(\d+),/.exec(line)?.[1])
+      .filter((n): n is string => n !== undefined)
+      .map(Number);
+    expect(routes).toEqual(Array.from({ length: count }, (_, i) => count - i));
   });
 
   it("gives the dentist a patient's rows, never another patient's or practice's", async () => {

@@ -20,7 +20,7 @@ import {
 } from './audit.repository.js';
 
 /** Rows read per query while the CSV streams: memory stays flat however long the trail. */
-const CSV_BATCH = 500;
+export const CSV_BATCH = 2000;
 
 const CSV_HEADER = [
   'at (UTC)',
@@ -82,33 +82,38 @@ export class AuditService {
     return this.page({ ...filters, practiceId: patient.practiceId, patientId: patient.id }, query);
   }
 
-  /** The filtered trail as CSV lines, read in keyset batches as the client takes them. */
+  /**
+   * The filtered trail as CSV, read in keyset batches as the client takes them; each batch is
+   * written as one chunk, not one chunk per line (session 12, the large practice's 22 000 events).
+   */
   async *csv(scope: Scope, query: AuditCsvQuery): AsyncGenerator<string> {
     const filter = { ...query, practiceId: scope.practiceId };
     yield csvLine(CSV_HEADER);
     let before: string | undefined;
     for (;;) {
       const rows = await listAuditEvents(this.db, filter, before, CSV_BATCH);
-      for (const r of rows) {
-        yield csvLine([
-          r.at.toISOString(),
-          r.action,
-          r.outcome,
-          r.httpStatus,
-          r.userName,
-          r.role,
-          r.patientName,
-          r.chartNumber,
-          r.recordType,
-          r.recordId,
-          r.route,
-          r.address,
-          r.userAgent,
-          json(r.query),
-          json(r.before),
-          json(r.after),
-        ]);
-      }
+      yield rows
+        .map((r) =>
+          csvLine([
+            r.at.toISOString(),
+            r.action,
+            r.outcome,
+            r.httpStatus,
+            r.userName,
+            r.role,
+            r.patientName,
+            r.chartNumber,
+            r.recordType,
+            r.recordId,
+            r.route,
+            r.address,
+            r.userAgent,
+            json(r.query),
+            json(r.before),
+            json(r.after),
+          ]),
+        )
+        .join('');
       if (rows.length < CSV_BATCH) return;
       before = rows[rows.length - 1].id;
     }
