@@ -5,7 +5,8 @@
 // read statement the API ran (captured in the API process by capture-sql.mjs) is explained with
 // `EXPLAIN (ANALYZE, BUFFERS)` and its parameters, and any sequential scan of a table holding more
 // than `--big` rows is named. A read whose cost follows the practice's size instead of the
-// patient's shows here as a ratio well above 1 and as a scan of a big table.
+// patient's shows here as a ratio well above 1 and as a scan of a big table. Each route is read as
+// the practice's dentist (or administrator), and again as the referring surgeon where a share opens it.
 // Measures only; asserts nothing. The large practice must exist: run `npm run bench` once first.
 // Usage: node scripts/bench/size-sweep.mjs [--runs 5] [--big 5000] [--only <path substring>]
 import { spawn } from 'node:child_process';
@@ -36,7 +37,12 @@ const PORTS = { demo: app.port + 1003, large: app.port + 1004 };
 const SIGN_INS = [
   ['dentist', 'ines.calloway@larkspur.example'],
   ['admin', 'odile.park@larkspur.example'],
+  // The referring surgeon of another practice, who reads through the demo's shares (of LL-1001 and
+  // others): their statements take other paths (the shares in the where clause).
+  ['surgeon', 'rafael.imbert@northgate.example'],
 ];
+/** The practice's own readers: each route is measured as the first of them it answers. */
+const PRACTICE_ROLES = ['dentist', 'admin'];
 const PASSWORD = 'ledger-demo-2026';
 // Query strings for the routes that need one to answer; the rest are asked without.
 const QUERIES = {
@@ -147,10 +153,10 @@ async function timed(api, url, cookie) {
   return { status: res.status, ms: performance.now() - t };
 }
 
-/** Who may read the route: the dentist, else the administrator (the first that gets a 2xx). */
+/** Who of the practice may read the route: the dentist, else the administrator (the first that gets a 2xx). */
 async function roleFor(api, url) {
   let last = null;
-  for (const [role] of SIGN_INS) {
+  for (const role of PRACTICE_ROLES) {
     last = await timed(api, url, api.cookies[role]);
     if (last.status < 300) return { role, status: last.status };
   }
@@ -199,6 +205,47 @@ async function explainAll(statements, tableRows, planFile) {
   });
 }
 
+/** One route as one reader on both databases: times, statements and plans. */
+async function measure(route, urls, role) {
+  const times = { demo: [], large: [] };
+  await timed(apis.demo, urls.demo, apis.demo.cookies[role]);
+  for (let i = 0; i < RUNS; i += 1) {
+    // Alternating, so both databases see the same machine.
+    for (const name of i % 2 ? ['large', 'demo'] : ['demo', 'large']) {
+      times[name].push((await timed(apis[name], urls[name], apis[name].cookies[role])).ms);
+    }
+  }
+  await new Promise((r) => setTimeout(r, 50));
+  const from = fs.statSync(apis.large.captureFile).size;
+  await timed(apis.large, urls.large, apis.large.cookies[role]);
+  await new Promise((r) => setTimeout(r, 100));
+  const statements = readCapture(apis.large.captureFile, from);
+  const planFile = path.join(
+    args.out,
+    'size-sweep-plans',
+    `${route.path.replace(/[^a-z0-9]+/gi, '-').replace(/^-|-$/g, '')}${role === 'surgeon' ? '.surgeon' : ''}.txt`,
+  );
+  fs.rmSync(planFile, { force: true });
+  const plans = await explainAll(statements, tableRows, planFile);
+  const row = {
+    path: route.path,
+    role,
+    demoMs: median(times.demo),
+    largeMs: median(times.large),
+    statements: statements.length,
+    ...plans,
+  };
+  row.ratio = row.largeMs / row.demoMs;
+  console.log(
+    `${route.path.padEnd(42)} ${row.role.padEnd(7)} demo ${row.demoMs.toFixed(1).padStart(6)} ms  large ${row.largeMs
+      .toFixed(1)
+      .padStart(6)} ms  ×${row.ratio.toFixed(2)}  ${row.statements} SQL, ${row.buffers} buffers${
+      row.bigScans.length ? `  SEQ SCAN ${[...new Set(row.bigScans)].join(', ')}` : ''
+    }`,
+  );
+  return row;
+}
+
 await startServices();
 const tableRows = await withOwner(
   DATABASES.large,
@@ -233,43 +280,10 @@ try {
       rows.push({ path: route.path, note: `answered ${access.status} to every role` });
       continue;
     }
-    const times = { demo: [], large: [] };
-    await timed(apis.demo, urls.demo, apis.demo.cookies[access.role]);
-    for (let i = 0; i < RUNS; i += 1) {
-      // Alternating, so both databases see the same machine.
-      for (const name of i % 2 ? ['large', 'demo'] : ['demo', 'large']) {
-        times[name].push((await timed(apis[name], urls[name], apis[name].cookies[access.role])).ms);
-      }
-    }
-    await new Promise((r) => setTimeout(r, 50));
-    const from = fs.statSync(apis.large.captureFile).size;
-    await timed(apis.large, urls.large, apis.large.cookies[access.role]);
-    await new Promise((r) => setTimeout(r, 100));
-    const statements = readCapture(apis.large.captureFile, from);
-    const planFile = path.join(
-      args.out,
-      'size-sweep-plans',
-      `${route.path.replace(/[^a-z0-9]+/gi, '-').replace(/^-|-$/g, '')}.txt`,
-    );
-    fs.rmSync(planFile, { force: true });
-    const plans = await explainAll(statements, tableRows, planFile);
-    const row = {
-      path: route.path,
-      role: access.role,
-      demoMs: median(times.demo),
-      largeMs: median(times.large),
-      statements: statements.length,
-      ...plans,
-    };
-    row.ratio = row.largeMs / row.demoMs;
-    rows.push(row);
-    console.log(
-      `${route.path.padEnd(42)} ${row.role.padEnd(7)} demo ${row.demoMs.toFixed(1).padStart(6)} ms  large ${row.largeMs
-        .toFixed(1)
-        .padStart(6)} ms  ×${row.ratio.toFixed(2)}  ${row.statements} SQL, ${row.buffers} buffers${
-        row.bigScans.length ? `  SEQ SCAN ${[...new Set(row.bigScans)].join(', ')}` : ''
-      }`,
-    );
+    rows.push(await measure(route, urls, access.role));
+    // The surgeon too, wherever a share lets them read it.
+    const asSurgeon = await timed(apis.large, urls.large, apis.large.cookies.surgeon);
+    if (asSurgeon.status < 300) rows.push(await measure(route, urls, 'surgeon'));
   }
 } finally {
   await Promise.all(
@@ -283,6 +297,8 @@ const lines = [
   `# Size sweep — ${new Date().toISOString()}`,
   '',
   `Every signed-in GET route on the demo database and on the large practice (${tableRows.get('patients')} patients),`,
+  'as the dentist (or the administrator where only they may read it), and again as the referring surgeon wherever',
+  'a share lets them read it;',
   `median of ${RUNS} alternating requests each; the large practice's read statements explained with`,
   `EXPLAIN (ANALYZE, BUFFERS). "Scans" names any sequential scan of a table over ${BIG} rows; the plans of those`,
   `statements, and of any taking over ${SLOW_MS} ms, are in size-sweep-plans/. scripts/bench/size-sweep.mjs.`,
