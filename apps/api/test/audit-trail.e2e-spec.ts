@@ -306,8 +306,10 @@ describe('the Audit page and "who accessed this record"', () => {
 
   it('the CSV export carries every row of a trail longer than one batch, once, newest first', async () => {
     // Rows of an action no request in this file makes, so the filter selects exactly these.
-    const practiceId = (await ctx.db.select({ id: users.practiceId }).from(users).where(eq(users.id, dentistId)))[0]
-      .id!;
+    const [{ id: practiceId }] = await ctx.db
+      .select({ id: users.practiceId })
+      .from(users)
+      .where(eq(users.id, dentistId));
     const count = CSV_BATCH * 2 + 7;
     await ctx.db.execute(sql`
       insert into audit_events (at, practice_id, user_id, role, action, outcome, route, record_type)
