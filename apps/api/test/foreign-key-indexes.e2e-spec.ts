@@ -4,7 +4,8 @@
 // every GET route on the 10 000-patient practice (scripts/bench/size-sweep.mjs) found six such
 // reads scanning whole tables (a patient's sites, parts, placements and torque events; a
 // restoration's screws; a Timeline's provisional check). So every foreign key must lead an index
-// usable by an equality look-up, unless it points at one of the tables below, with the reason.
+// usable by an equality look-up, unless it points at one of the tables below, with the reason
+// (docs/adr/0010-foreign-keys-lead-an-index.md).
 import { sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startTestApp, type TestContext } from './support/test-app.js';
