@@ -45,19 +45,25 @@ afterAll(async () => {
 describe('every foreign key', () => {
   it('leads an index an equality look-up can use, or points at a table no read starts from', async () => {
     const { rows } = await ctx.db.execute<{ key: string; referenced: string; indexed: boolean }>(sql`
-      select cl.relname || '.' || a.attname as key, ref.relname as referenced,
+      select cl.relname || '.' || (select string_agg(a.attname, ',' order by k.n)
+                                     from unnest(co.conkey) with ordinality k(attnum, n)
+                                     join pg_attribute a on a.attrelid = co.conrelid and a.attnum = k.attnum) as key,
+             ref.relname as referenced,
              exists (
                select 1 from pg_index i
-                where i.indrelid = co.conrelid and i.indkey[0] = co.conkey[1]
+                where i.indrelid = co.conrelid
+                  -- the key's columns, in its order, lead the index
+                  and (i.indkey::int2[])[0:cardinality(co.conkey) - 1] = co.conkey
                   -- a partial index serves every look-up by the key only when it leaves out nulls alone
                   and (i.indpred is null
-                       or pg_get_expr(i.indpred, i.indrelid) = '(' || quote_ident(a.attname) || ' IS NOT NULL)')
+                       or pg_get_expr(i.indpred, i.indrelid) = '(' || quote_ident(
+                            (select attname from pg_attribute where attrelid = co.conrelid and attnum = co.conkey[1])
+                          ) || ' IS NOT NULL)')
              ) as indexed
         from pg_constraint co
         join pg_class cl on cl.oid = co.conrelid
         join pg_class ref on ref.oid = co.confrelid
-        join pg_attribute a on a.attrelid = co.conrelid and a.attnum = co.conkey[1]
-       where co.contype = 'f' and cl.relnamespace = 'public'::regnamespace and cardinality(co.conkey) = 1
+       where co.contype = 'f' and cl.relnamespace = 'public'::regnamespace
        order by 1`);
     expect(rows.length).toBeGreaterThan(50);
     const unindexed = rows
