@@ -35,6 +35,10 @@ describe('outcomes, lot look-up and referral summary', () => {
     await page.getByRole('navigation', { name: 'Pages of implants' }).getByRole('button', { name: 'Previous' }).click();
     await expect.poll(() => count.textContent()).toBe(`Implants 1–${listed} of ${listed}, oldest placement first.`);
     expect(new URL(page.url()).searchParams.get('page')).toBe('1');
+    // Regrouped, the curves are named by retention, never the systems' curves under the new names.
+    await page.getByLabel('Curves by').selectOption('retention');
+    await expect.poll(() => atRisk.locator('tbody tr', { hasText: 'Solvra CN' }).count()).toBe(0);
+    expect(await atRisk.textContent()).toMatch(/Screw/i);
 
     await page.getByRole('link', { name: 'Lot look-up' }).click();
     await page.getByLabel('Look up by').selectOption('udi');

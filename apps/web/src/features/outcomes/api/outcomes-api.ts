@@ -25,8 +25,9 @@ export const useOutcomes = (groupBy: OutcomeGrouping, page: number) =>
           signal,
         },
       ),
-    // The curves stay on screen while the next page of the list loads.
-    placeholderData: keepPreviousData,
+    // The curves stay on screen while another page of the list loads; not across groupings, whose
+    // curves would show under the other grouping's names.
+    placeholderData: (previous) => (previous?.groupBy === groupBy ? keepPreviousData(previous) : undefined),
   });
 
 /** `?by=…&q=…` for the table and the CSV link alike. */

@@ -87,10 +87,12 @@ export function OutcomesRoute() {
             .
           </p>
           <h2 id="outcomes-implants-heading">Implants</h2>
-          <p className="outcomes-page__count" data-testid="outcomes-count">
-            {report.data.implants.length === 0
-              ? `No implants on this page; ${report.data.total} in all.`
-              : `Implants ${(page - 1) * OUTCOMES_PAGE_SIZE + 1}–${(page - 1) * OUTCOMES_PAGE_SIZE + report.data.implants.length} of ${report.data.total}, oldest placement first.`}
+          <p className="outcomes-page__count" data-testid="outcomes-count" aria-live="polite">
+            {report.isPlaceholderData
+              ? `Loading page ${page}…`
+              : report.data.implants.length === 0
+                ? `No implants on this page; ${report.data.total} in all.`
+                : `Implants ${(page - 1) * OUTCOMES_PAGE_SIZE + 1}–${(page - 1) * OUTCOMES_PAGE_SIZE + report.data.implants.length} of ${report.data.total}, oldest placement first.`}
           </p>
           <HTMLTable className="outcomes-table" striped compact data-testid="outcomes-table">
             <thead>
