@@ -94,7 +94,13 @@ export function OutcomesRoute() {
                 ? `No implants on this page; ${report.data.total} in all.`
                 : `Implants ${(page - 1) * OUTCOMES_PAGE_SIZE + 1}–${(page - 1) * OUTCOMES_PAGE_SIZE + report.data.implants.length} of ${report.data.total}, oldest placement first.`}
           </p>
-          <HTMLTable className="outcomes-table" striped compact data-testid="outcomes-table">
+          <HTMLTable
+            className="outcomes-table"
+            striped
+            compact
+            data-testid="outcomes-table"
+            aria-labelledby="outcomes-implants-heading"
+          >
             <thead>
               <tr>
                 <th scope="col">Patient</th>
