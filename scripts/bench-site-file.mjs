@@ -12,9 +12,8 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { parseArgs } from 'node:util';
 import autocannon from 'autocannon';
-import pgModule from 'pg';
 import { API_NODE_OPTIONS, repoRoot } from './lib/config.mjs';
-import { benchEnv, cloneDatabase, ownerUrl, prepareDemoDatabase } from './lib/bench-databases.mjs';
+import { benchEnv, cloneDatabase, ownerUrl, prepareDemoDatabase, withOwner } from './lib/bench-databases.mjs';
 import { seedLargePractice } from './lib/bench-large-seed.mjs';
 import { ensureChromium } from './lib/bootstrap.mjs';
 import { waitForPort } from './lib/proc.mjs';
@@ -85,15 +84,6 @@ if (args.reseed || (await databaseComment(LARGE_DB)) !== fingerprint) {
   log('large practice unchanged since the last run: reused');
 }
 
-async function withOwner(database, fn) {
-  const client = new pgModule.Client({ connectionString: ownerUrl(database) });
-  await client.connect();
-  try {
-    return await fn(client);
-  } finally {
-    await client.end();
-  }
-}
 async function databaseComment(name) {
   return withOwner('postgres', async (c) => {
     const r = await c.query(`select shobj_description(oid, 'pg_database') as d from pg_database where datname = $1`, [

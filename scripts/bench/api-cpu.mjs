@@ -14,9 +14,8 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { parseArgs } from 'node:util';
 import autocannon from 'autocannon';
-import pgModule from 'pg';
 import { API_NODE_OPTIONS, repoRoot } from '../lib/config.mjs';
-import { benchEnv, ownerUrl, prepareDemoDatabase } from '../lib/bench-databases.mjs';
+import { benchEnv, prepareDemoDatabase, withOwner } from '../lib/bench-databases.mjs';
 import { waitForPort } from '../lib/proc.mjs';
 import { startServices } from '../services.mjs';
 import { aggregate } from './cpu-profile-by-package.mjs';
@@ -67,15 +66,6 @@ if (args.database === 'large' && !exists)
   throw new Error(`${DB} does not exist: seed it first with node scripts/bench-site-file.mjs --desk`);
 if (args.database === 'demo' && (!args.reuse || !exists)) await prepareDemoDatabase(DB);
 
-async function withOwner(database, fn) {
-  const client = new pgModule.Client({ connectionString: ownerUrl(database) });
-  await client.connect();
-  try {
-    return await fn(client);
-  } finally {
-    await client.end();
-  }
-}
 const target = await withOwner(DB, async (c) => {
   const r = await c.query(
     `select s.id as site, p.id as patient from implant_sites s join patients p on p.id = s.patient_id where p.chart_number = 'LL-1001' and s.fdi = 35`,

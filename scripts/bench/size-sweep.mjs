@@ -13,10 +13,9 @@ import { spawn } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
 import { parseArgs } from 'node:util';
-import pgModule from 'pg';
 import { apiRoutes } from '@torquetrail/contracts';
 import { API_NODE_OPTIONS, app, repoRoot } from '../lib/config.mjs';
-import { benchEnv, ownerUrl } from '../lib/bench-databases.mjs';
+import { benchEnv, withOwner } from '../lib/bench-databases.mjs';
 import { waitForPort } from '../lib/proc.mjs';
 import { startServices } from '../services.mjs';
 
@@ -57,16 +56,6 @@ const QUERIES = {
 const SKIPPED = new Set(['/lab-files/:token', '/imports/progress/:runId']);
 
 const median = (xs) => [...xs].sort((a, b) => a - b)[Math.floor((xs.length - 1) / 2)];
-
-async function withOwner(database, fn) {
-  const client = new pgModule.Client({ connectionString: ownerUrl(database) });
-  await client.connect();
-  try {
-    return await fn(client);
-  } finally {
-    await client.end();
-  }
-}
 
 /** The ids each route's parameters take on one database: the demo's Harold Whitcombe (LL-1001) and what is his. */
 async function targetsOf(database) {

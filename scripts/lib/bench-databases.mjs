@@ -20,6 +20,17 @@ export const benchEnv = (database) => ({
 
 export const ownerUrl = (database) => ownerEnvironment(database).MIGRATION_DATABASE_URL;
 
+/** Runs `fn` with a client connected to `database` as the owner, and closes it afterwards. */
+export async function withOwner(database, fn) {
+  const client = new pgModule.Client({ connectionString: ownerUrl(database) });
+  await client.connect();
+  try {
+    return await fn(client);
+  } finally {
+    await client.end();
+  }
+}
+
 /** A fresh, migrated database holding the demo scenario (seeded through the API's own seed). */
 export async function prepareDemoDatabase(database) {
   await ensureDatabase(database, { fresh: true });
