@@ -27,7 +27,7 @@ export interface TestContext {
  * The owner's connection (MIGRATION_DATABASE_URL): only the owner may empty the audit trail. The
  * tests' own `db` handle is the API's role, so what a test does to the data the app could do too.
  */
-function ownerDatabaseUrl(): string {
+export function ownerDatabaseUrl(): string {
   const url = process.env.MIGRATION_DATABASE_URL;
   if (!url) throw new Error('MIGRATION_DATABASE_URL is not set: run the tests with scripts/test-tier.mjs');
   return url;
