@@ -6,9 +6,8 @@ import http from 'node:http';
 import path from 'node:path';
 import { parseArgs } from 'node:util';
 import { pathToFileURL } from 'node:url';
-import { apiEnvironment, repoRoot, s3 } from './lib/config.mjs';
-import { migrateDatabase } from './lib/bootstrap.mjs';
-import { ensureDatabase } from './lib/postgres.mjs';
+import { repoRoot } from './lib/config.mjs';
+import { benchEnv, prepareDemoDatabase } from './lib/bench-databases.mjs';
 import { startServices } from './services.mjs';
 
 const { values } = parseArgs({
@@ -22,22 +21,15 @@ const DATABASE = 'torquetrail_bench_audit';
 const load = (file) => import(pathToFileURL(path.join(values.dist, file)).href);
 
 await startServices();
-await ensureDatabase(DATABASE, { fresh: true });
-const env = {
-  ...apiEnvironment({ database: DATABASE, bucket: s3.testBucket, jwtSecret: 'bench-'.repeat(8), port: 0 }),
-  NODE_ENV: 'test',
-  LOG_LEVEL: 'silent',
-};
-await migrateDatabase(DATABASE, env);
+// The demo scenario as `npm start` seeds it, radiograph files included, through the current seed.
+await prepareDemoDatabase(DATABASE);
+const env = { ...benchEnv(DATABASE), NODE_ENV: 'test' };
 Object.assign(process.env, env);
 
-const { createPool, createDatabase } = await load('db/database.js');
-const { seedDemo } = await load('seed/demo.js');
+const { createPool } = await load('db/database.js');
 const { createApp } = await load('app.js');
 const { parseEnv } = await load('config/env.js');
 const pool = createPool(env.DATABASE_URL);
-const db = createDatabase(pool);
-await db.transaction((tx) => seedDemo(tx, new Date().toISOString().slice(0, 10)));
 const app = await createApp(parseEnv({ ...process.env, WEB_DIST: '' }), { logger: false });
 await app.listen(0, '127.0.0.1');
 const { port } = app.getHttpServer().address();
