@@ -32,7 +32,9 @@ describe('outcomes, lot look-up and referral summary', () => {
     await page.goto(`${new URL(page.url()).origin}/outcomes?page=2`);
     await expect.poll(() => count.textContent()).toBe(`No implants on this page; ${listed} in all.`);
     await page.getByTestId('survival-chart').waitFor();
-    await page.getByRole('navigation', { name: 'Pages of implants' }).getByRole('button', { name: 'Previous' }).click();
+    const pager = page.getByRole('navigation', { name: 'Pages of implants' });
+    expect(await pager.getByTestId('page-switcher-position').textContent()).toBe('Page 2 is past the last page, 1');
+    await pager.getByRole('button', { name: 'Previous' }).click();
     await expect.poll(() => count.textContent()).toBe(`Implants 1–${listed} of ${listed}, oldest placement first.`);
     expect(new URL(page.url()).searchParams.get('page')).toBe('1');
     // Regrouped, the curves are named by retention, never the systems' curves under the new names.

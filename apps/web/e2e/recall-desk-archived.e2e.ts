@@ -46,4 +46,20 @@ describe('restorative dentist', () => {
     await expect.poll(() => table.locator('tbody tr').count()).toBe(1);
     expect(await farrow.count()).toBe(1);
   });
+
+  it('a page past the end says how many there are and leads back to the last page', async () => {
+    await h.reset();
+    const page = await h.newPage();
+    await signInAs(page, 'ines.calloway@larkspur.example');
+    await page.goto('/recalls?page=7');
+    const count = page.getByTestId('recall-desk-count');
+    await expect.poll(() => count.textContent()).toMatch(/^No patients on this page; \d+ in all\.$/);
+    const pager = page.getByRole('navigation', { name: 'Pages of the Recall desk' });
+    expect(await pager.getByTestId('page-switcher-position').textContent()).toBe('Page 7 is past the last page, 1');
+    expect(await pager.getByRole('button', { name: 'Next' }).isDisabled()).toBe(true);
+    await pager.getByRole('button', { name: 'Previous' }).click();
+    await expect.poll(() => new URL(page.url()).searchParams.get('page')).toBe('1');
+    await expect.poll(() => page.getByTestId('recall-desk-table').locator('tbody tr').count()).toBeGreaterThan(0);
+    expect(await pager.getByTestId('page-switcher-position').textContent()).toBe('Page 1 of 1');
+  });
 });

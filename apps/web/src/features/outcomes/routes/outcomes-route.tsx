@@ -1,11 +1,12 @@
 import '../components/outcomes.css';
-import { Button, Callout, HTMLSelect, HTMLTable, NonIdealState } from '@blueprintjs/core';
+import { Callout, HTMLSelect, HTMLTable, NonIdealState } from '@blueprintjs/core';
 import { OUTCOME_GROUPINGS, type OutcomeGrouping, type SurvivalCurve } from '@torquetrail/contracts';
 import { Link, useSearchParams } from 'react-router-dom';
 import { RETENTION_LABEL } from '../../../lib/clinical-labels';
 import { BreadcrumbTrail } from '../../../lib/components/breadcrumb-trail';
 import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
+import { PageSwitcher } from '../../../lib/components/page-switcher';
 import { formatDate } from '../../../lib/dates';
 import { IMPLANT_OUTCOME_LABEL, MAINTENANCE_STATUS_LABEL, OUTCOME_GROUPING_LABEL } from '../../../lib/labels';
 import { OUTCOMES_PAGE_SIZE, useOutcomes } from '../api/outcomes-api';
@@ -146,21 +147,13 @@ export function OutcomesRoute() {
             </tbody>
           </HTMLTable>
           {(report.data.total > OUTCOMES_PAGE_SIZE || page > 1) && (
-            <nav className="outcomes-page__pager" aria-label="Pages of implants">
-              <Button icon="chevron-left" disabled={page === 1} onClick={() => goToPage(page - 1)}>
-                Previous
-              </Button>
-              <span>
-                Page {page} of {Math.ceil(report.data.total / OUTCOMES_PAGE_SIZE)}
-              </span>
-              <Button
-                endIcon="chevron-right"
-                disabled={page * OUTCOMES_PAGE_SIZE >= report.data.total}
-                onClick={() => goToPage(page + 1)}
-              >
-                Next
-              </Button>
-            </nav>
+            <PageSwitcher
+              page={page}
+              pageSize={OUTCOMES_PAGE_SIZE}
+              total={report.data.total}
+              label="Pages of implants"
+              onGo={goToPage}
+            />
           )}
         </>
       )}

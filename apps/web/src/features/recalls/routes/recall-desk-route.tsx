@@ -7,6 +7,7 @@ import { LiveSearch } from '../../../lib/components/live-search';
 import { Can } from '../../../lib/ability';
 import { ErrorState } from '../../../lib/components/error-state';
 import { LoadingState } from '../../../lib/components/loading-state';
+import { PageSwitcher } from '../../../lib/components/page-switcher';
 import { formatDate } from '../../../lib/dates';
 import { RISK_FACTOR_LABEL } from '../../../lib/clinical-labels';
 import { DESK_FILTER_LABEL, DESK_SORT_LABEL, MAINTENANCE_NOTE } from '../../../lib/labels';
@@ -115,114 +116,106 @@ export function RecallDeskRoute() {
         <LoadingState label="Loading the Recall desk" />
       ) : desk.isError ? (
         <ErrorState title="Could not load the Recall desk" error={desk.error} onRetry={() => void desk.refetch()} />
-      ) : desk.data.items.length === 0 ? (
+      ) : desk.data.total === 0 ? (
         <NonIdealState icon="calendar" title="Nobody here" description="No patient with implants matches this view." />
       ) : (
         <div aria-busy={desk.isFetching}>
-          <p className="result-count" aria-live="polite">
-            {desk.data.total} {desk.data.total === 1 ? 'patient' : 'patients'} · today {formatDate(desk.data.today)}
+          <p className="result-count" aria-live="polite" data-testid="recall-desk-count">
+            {desk.data.items.length === 0
+              ? `No patients on this page; ${desk.data.total} in all.`
+              : `${desk.data.total} ${desk.data.total === 1 ? 'patient' : 'patients'} · today ${formatDate(desk.data.today)}`}
           </p>
-          <HTMLTable className="recall-desk__table" striped compact data-testid="recall-desk-table">
-            <thead>
-              <tr>
-                {header('name')}
-                <th>Chart</th>
-                {header('dueOn')}
-                {header('overdueDays')}
-                {header('lastExamOn')}
-                <th>Last status per implant</th>
-                <th>Risk factors</th>
-                <th>
-                  <span className="visually-hidden">Exam</span>
-                </th>
-              </tr>
-            </thead>
-            <tbody>
-              {desk.data.items.map((r) => (
-                <tr key={r.patientId}>
-                  <td>
-                    <Link to={`/patients/${r.patientId}`}>{r.name}</Link>
-                  </td>
-                  <td>
-                    <ChartNumber value={r.chartNumber} />
-                  </td>
-                  <td>{r.nextDueOn ? formatDate(r.nextDueOn) : '—'}</td>
-                  <td className={r.overdueDays > 0 ? 'recall-overdue' : undefined}>
-                    {r.overdueDays > 0 ? `${r.overdueDays} days` : '—'}
-                  </td>
-                  <td>{r.lastExamOn ? formatDate(r.lastExamOn) : 'never'}</td>
-                  <td>
-                    <span className="recall-desk__sites">
-                      {r.sites.map((s) => (
-                        <span key={s.siteId}>
-                          <strong>{s.fdi}</strong> <MaintenanceStatusLabel status={s.status} />
-                        </span>
-                      ))}
-                    </span>
-                    {r.provisionalsOverdue?.map((p) => (
-                      // No warning intent: Blueprint's minimal warning text fails WCAG AA contrast here (axe).
-                      <Tag
-                        key={p.restorationId}
-                        minimal
-                        icon="time"
-                        className="recall-desk__provisional"
-                        data-testid="desk-provisional-overdue"
-                      >
-                        Provisional at {p.fdis.join(', ')}: replacement was planned for{' '}
-                        {formatDate(p.plannedReplacementOn)}
-                      </Tag>
-                    ))}
-                    {r.insertReviewsOverdue?.map((o) => (
-                      <Tag
-                        key={o.restorationId}
-                        minimal
-                        icon="exchange"
-                        className="recall-desk__provisional"
-                        data-testid="desk-insert-review-overdue"
-                      >
-                        Overdenture at {o.fdis.join(', ')}: insert review due {formatDate(o.reviewDueOn)} (
-                        {o.lastChangeOn
-                          ? `last insert change ${formatDate(o.lastChangeOn)}`
-                          : 'no change since delivery'}
-                        )
-                      </Tag>
-                    ))}
-                  </td>
-                  <td>
-                    {riskText(r.riskFactors).map((t) => (
-                      <Tag key={t} minimal style={{ marginRight: 4 }}>
-                        {t}
-                      </Tag>
-                    ))}
-                  </td>
-                  <td>
-                    <Can I="create" a="RecallExam">
-                      <Link to={`/recalls/patients/${r.patientId}/exam`}>Record exam</Link>
-                    </Can>
-                  </td>
+          {desk.data.items.length > 0 && (
+            <HTMLTable className="recall-desk__table" striped compact data-testid="recall-desk-table">
+              <thead>
+                <tr>
+                  {header('name')}
+                  <th>Chart</th>
+                  {header('dueOn')}
+                  {header('overdueDays')}
+                  {header('lastExamOn')}
+                  <th>Last status per implant</th>
+                  <th>Risk factors</th>
+                  <th>
+                    <span className="visually-hidden">Exam</span>
+                  </th>
                 </tr>
-              ))}
-            </tbody>
-          </HTMLTable>
-          <div className="recall-desk__pager">
-            <Button
-              icon="chevron-left"
-              disabled={params.page === 1}
-              onClick={() => set({ page: String((params.page ?? 1) - 1) })}
-            >
-              Previous
-            </Button>
-            <span>
-              Page {params.page} of {Math.max(1, Math.ceil(desk.data.total / PAGE_SIZE))}
-            </span>
-            <Button
-              endIcon="chevron-right"
-              disabled={(params.page ?? 1) * PAGE_SIZE >= desk.data.total}
-              onClick={() => set({ page: String((params.page ?? 1) + 1) })}
-            >
-              Next
-            </Button>
-          </div>
+              </thead>
+              <tbody>
+                {desk.data.items.map((r) => (
+                  <tr key={r.patientId}>
+                    <td>
+                      <Link to={`/patients/${r.patientId}`}>{r.name}</Link>
+                    </td>
+                    <td>
+                      <ChartNumber value={r.chartNumber} />
+                    </td>
+                    <td>{r.nextDueOn ? formatDate(r.nextDueOn) : '—'}</td>
+                    <td className={r.overdueDays > 0 ? 'recall-overdue' : undefined}>
+                      {r.overdueDays > 0 ? `${r.overdueDays} days` : '—'}
+                    </td>
+                    <td>{r.lastExamOn ? formatDate(r.lastExamOn) : 'never'}</td>
+                    <td>
+                      <span className="recall-desk__sites">
+                        {r.sites.map((s) => (
+                          <span key={s.siteId}>
+                            <strong>{s.fdi}</strong> <MaintenanceStatusLabel status={s.status} />
+                          </span>
+                        ))}
+                      </span>
+                      {r.provisionalsOverdue?.map((p) => (
+                        // No warning intent: Blueprint's minimal warning text fails WCAG AA contrast here (axe).
+                        <Tag
+                          key={p.restorationId}
+                          minimal
+                          icon="time"
+                          className="recall-desk__provisional"
+                          data-testid="desk-provisional-overdue"
+                        >
+                          Provisional at {p.fdis.join(', ')}: replacement was planned for{' '}
+                          {formatDate(p.plannedReplacementOn)}
+                        </Tag>
+                      ))}
+                      {r.insertReviewsOverdue?.map((o) => (
+                        <Tag
+                          key={o.restorationId}
+                          minimal
+                          icon="exchange"
+                          className="recall-desk__provisional"
+                          data-testid="desk-insert-review-overdue"
+                        >
+                          Overdenture at {o.fdis.join(', ')}: insert review due {formatDate(o.reviewDueOn)} (
+                          {o.lastChangeOn
+                            ? `last insert change ${formatDate(o.lastChangeOn)}`
+                            : 'no change since delivery'}
+                          )
+                        </Tag>
+                      ))}
+                    </td>
+                    <td>
+                      {riskText(r.riskFactors).map((t) => (
+                        <Tag key={t} minimal style={{ marginRight: 4 }}>
+                          {t}
+                        </Tag>
+                      ))}
+                    </td>
+                    <td>
+                      <Can I="create" a="RecallExam">
+                        <Link to={`/recalls/patients/${r.patientId}/exam`}>Record exam</Link>
+                      </Can>
+                    </td>
+                  </tr>
+                ))}
+              </tbody>
+            </HTMLTable>
+          )}
+          <PageSwitcher
+            page={params.page ?? 1}
+            pageSize={PAGE_SIZE}
+            total={desk.data.total}
+            label="Pages of the Recall desk"
+            onGo={(page) => set({ page: String(page) })}
+          />
         </div>
       )}
     </div>
