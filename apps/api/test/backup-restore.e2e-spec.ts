@@ -13,7 +13,7 @@ import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createDatabase, createPool } from '../src/db/database.js';
 import { StorageService } from '../src/storage/storage.service.js';
-import { startTestApp, type TestContext } from './support/test-app.js';
+import { ownerDatabaseUrl, startTestApp, type TestContext } from './support/test-app.js';
 
 const run = promisify(execFile);
 const repoRoot = path.resolve(import.meta.dirname, '../../..');
@@ -22,7 +22,7 @@ const script = (name: string) => path.join(repoRoot, 'scripts', `${name}.mjs`);
 let ctx: TestContext;
 let storage: StorageService;
 // Backup and restore run as the owner; the API's own role only reads and writes rows.
-const sourceUrl = process.env.MIGRATION_DATABASE_URL!;
+const sourceUrl = ownerDatabaseUrl();
 const workDir = fs.mkdtempSync(path.join(os.tmpdir(), 'tt-backup-'));
 const backupDir = path.join(workDir, 'backup');
 // The scripts read the API's variables; PORT=0 (the tests' own app) is not a port they accept.

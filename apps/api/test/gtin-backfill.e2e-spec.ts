@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { LotLookupReply } from '@torquetrail/contracts';
 import { backfillPlacementGtins } from '../src/db/gtin-backfill.js';
 import { runMigrations } from '../src/db/migrate.js';
-import { patientId, signIn, startTestApp, type TestContext } from './support/test-app.js';
+import { ownerDatabaseUrl, patientId, signIn, startTestApp, type TestContext } from './support/test-app.js';
 
 let ctx: TestContext;
 let cookie: string;
@@ -43,9 +43,7 @@ describe('GTIN backfill of placements recorded before the column', () => {
     await ctx.db.execute(sql`update placements set udi = ${'(01)09506012345013(10)X'} where id = ${bad.id}`);
     expect(await byGtin('09506012345012')).toHaveLength(0);
 
-    const url = process.env.MIGRATION_DATABASE_URL;
-    if (!url) throw new Error('MIGRATION_DATABASE_URL is not set: run the tests with scripts/test-tier.mjs');
-    await runMigrations(url);
+    await runMigrations(ownerDatabaseUrl());
 
     const rows = await byGtin('09506012345012');
     expect(rows.map((r) => [r.chartNumber, r.fdi, r.gtin])).toEqual([

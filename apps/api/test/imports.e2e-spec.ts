@@ -11,7 +11,7 @@ import { RULES_VERSION } from '@torquetrail/domain';
 import { afterAll, describe, expect, it } from 'vitest';
 import { implantSites, patients, recallExams, restorationSites, torqueEvents } from '../src/db/schema/index.js';
 import { csvText, type ImportCells, patientCells, rowCounts, sendImport } from './support/import-files.js';
-import { patientId, signInAll, startTestApp } from './support/test-app.js';
+import { ownerDatabaseUrl, patientId, signInAll, startTestApp } from './support/test-app.js';
 
 const ctx = await startTestApp();
 afterAll(() => ctx.close());
@@ -212,7 +212,7 @@ describe('import', () => {
     // The database refuses the second patient's torque entry (33.3 N·cm), after the first
     // patient's records are written in the same transaction.
     rows[8].torque_ncm = '33.3';
-    const owner = new pg.Client({ connectionString: process.env.MIGRATION_DATABASE_URL });
+    const owner = new pg.Client({ connectionString: ownerDatabaseUrl() });
     await owner.connect();
     const trigger = `fail_import_${randomUUID().replace(/-/g, '')}`;
     try {
